@@ -1,0 +1,256 @@
+/**
+ * The command line, built by a factory so tests run it in-process:
+ *   const { program, run } = createProgram({ stdout, stderr }); await run(argv)
+ */
+import { Command, CommanderError, Option } from 'commander';
+import { z } from 'zod';
+import {
+  describeProblemAt,
+  planFill,
+  ProblemError,
+  worstSeverity,
+} from '../core/index.js';
+import { buildPlanRequest, readRecipe, validateRecipeObject, type Locate, type RecipeSource } from '../io/load.js';
+import { recipeSchema, type RecipeFile } from '../io/recipe.js';
+import { labSchema } from '../io/lab.js';
+import { isPressureUnit, parseQuantity, PRESSURE_UNITS, type PressureUnit } from '../io/quantity.js';
+import { planToJson } from '../report/plan-json.js';
+import { planToText } from '../report/plan-text.js';
+import { speciesDetail, speciesList } from '../report/species-text.js';
+import { DEMO_LAB_YAML } from '../io/demo-lab.js';
+import { VERSION } from '../version.js';
+
+export interface Streams {
+  readonly stdout: { write(s: string): unknown };
+  readonly stderr: { write(s: string): unknown };
+  /** whether stdin and stdout are a terminal (bare `mixwright` opens the wizard only then) */
+  readonly isTTY?: boolean;
+}
+
+export const EXIT = { ok: 0, internal: 1, input: 2, danger: 3, outOfTolerance: 4 } as const;
+
+class ExitSignal extends Error {
+  constructor(readonly code: number) {
+    super(`exit ${code}`);
+  }
+}
+
+interface PlanOptions {
+  json?: boolean;
+  fuel?: string;
+  oxidizer?: string;
+  phi?: string;
+  diluent?: string;
+  dilution?: string;
+  diluentRatio?: string;
+  fuelFraction?: string;
+  fractions?: string;
+  volume?: string;
+  tank?: string;
+  pressure?: string;
+  temperature?: string;
+  order?: string;
+  lab?: string;
+  units: string;
+  barometer?: string;
+  tolerance?: string;
+}
+
+const OPTION_OF: Record<string, string> = {
+  'mixture.fuel': '--fuel',
+  'mixture.oxidizer': '--oxidizer',
+  'mixture.phi': '--phi',
+  'mixture.diluent': '--diluent',
+  'mixture.dilution': '--dilution',
+  'mixture.diluent_ratio': '--diluent-ratio',
+  'mixture.fuel_fraction': '--fuel-fraction',
+  'mixture.fractions': '--fractions',
+  volume: '--volume',
+  tank: '--tank',
+  pressure: '--pressure',
+  temperature: '--temperature',
+  order: '--order',
+  'tolerance.relative': '--tolerance',
+};
+
+function numberOption(text: string, option: string): number {
+  const s = text.trim();
+  if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
+    throw new ProblemError({ code: 'schema', reason: `"${text}" is not a number` }, { field: option });
+  }
+  return Number(s);
+}
+
+/** merge inline options over a recipe (or build one from options alone) */
+function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSource {
+  const r: Record<string, unknown> = base ? structuredClone(base.recipe) : { id: 'inline' };
+  const overridden = new Set<string>();
+  const set = (path: string, value: unknown) => {
+    const keys = path.split('.');
+    let cur = r as Record<string, unknown>;
+    for (const k of keys.slice(0, -1)) {
+      if (typeof cur[k] !== 'object' || cur[k] === null) cur[k] = {};
+      cur = cur[k] as Record<string, unknown>;
+    }
+    cur[keys[keys.length - 1]] = value;
+    overridden.add(path);
+  };
+  const phiOptions = o.fuel ?? o.oxidizer ?? o.phi ?? o.diluent ?? o.dilution ?? o.diluentRatio ?? o.fuelFraction;
+  if (o.fractions !== undefined) {
+    r.mixture = {};
+    set('mixture.fractions', o.fractions);
+  } else if (phiOptions !== undefined) {
+    const m = (r.mixture ?? {}) as Record<string, unknown>;
+    if ('fractions' in m) r.mixture = {};
+    if (o.dilution ?? o.diluentRatio ?? o.fuelFraction) {
+      const mm = r.mixture as Record<string, unknown>;
+      delete mm.dilution;
+      delete mm.diluent_ratio;
+      delete mm.fuel_fraction;
+    }
+    if (o.fuel !== undefined) set('mixture.fuel', o.fuel);
+    if (o.oxidizer !== undefined) set('mixture.oxidizer', o.oxidizer);
+    if (o.phi !== undefined) set('mixture.phi', numberOption(o.phi, '--phi'));
+    if (o.diluent !== undefined) set('mixture.diluent', o.diluent);
+    if (o.dilution !== undefined) set('mixture.dilution', numberOption(o.dilution, '--dilution'));
+    if (o.diluentRatio !== undefined) set('mixture.diluent_ratio', numberOption(o.diluentRatio, '--diluent-ratio'));
+    if (o.fuelFraction !== undefined) set('mixture.fuel_fraction', numberOption(o.fuelFraction, '--fuel-fraction'));
+  }
+  if (o.volume !== undefined) set('volume', o.volume);
+  if (o.tank !== undefined) set('tank', o.tank);
+  if (o.pressure !== undefined) set('pressure', o.pressure);
+  if (o.temperature !== undefined) set('temperature', o.temperature);
+  if (o.order !== undefined) set('order', o.order.split(',').map((s) => s.trim()));
+  if (o.tolerance !== undefined) set('tolerance.relative', numberOption(o.tolerance, '--tolerance'));
+
+  const locate: Locate = (path) => {
+    const key = path.filter((p) => typeof p === 'string').join('.');
+    for (const [p, opt] of Object.entries(OPTION_OF)) {
+      if (overridden.has(p) && (key === p || key.startsWith(`${p}.`))) return { field: opt };
+    }
+    if (key.startsWith('mixture') && !base) return { field: '--fuel/--oxidizer/--phi or --fractions' };
+    if (!base) {
+      const top = String(path[0] ?? '');
+      const opt = OPTION_OF[top];
+      return { field: opt ?? top };
+    }
+    return base.locate(path);
+  };
+  if (!base) {
+    // say which options are missing, in option names rather than recipe keys
+    const missing: string[] = [];
+    if (o.fractions === undefined && (o.fuel === undefined || o.oxidizer === undefined || o.phi === undefined)) missing.push('--fuel, --oxidizer and --phi (or --fractions)');
+    if (o.pressure === undefined) missing.push('--pressure');
+    if (o.temperature === undefined) missing.push('--temperature');
+    if (o.volume === undefined && o.tank === undefined) missing.push('--volume or --tank');
+    if (missing.length) {
+      throw new ProblemError({ code: 'design-missing', reason: `give a recipe file, or on the command line: ${missing.join('; ')}` }, { field: 'plan' });
+    }
+  }
+  const recipe: RecipeFile = validateRecipeObject(r, base?.origin ?? 'command line', locate);
+  return { recipe, locate, baseDir: base?.baseDir ?? process.cwd(), origin: base?.origin ?? 'command line' };
+}
+
+export function createProgram(streams: Streams): { program: Command; run: (argv: readonly string[]) => Promise<number> } {
+  const out = (s: string) => streams.stdout.write(s);
+  const err = (s: string) => streams.stderr.write(s);
+  const program = new Command();
+  program
+    .name('mixwright')
+    .description('Plan, guide and re-check the manometric preparation of reactant gas mixtures.\nRun with no command in a terminal to open the wizard.')
+    .version(VERSION, '-V, --version')
+    .configureOutput({ writeOut: out, writeErr: err })
+    .exitOverride()
+    .showHelpAfterError('(run with --help for usage)');
+
+  program
+    .command('plan')
+    .description('fill plan of a mixture: real-gas target readings, gauges, tolerance bands and findings')
+    .argument('[recipe]', 'recipe file (YAML); inline options override its fields')
+    .option('--json', 'print one JSON object (SI units in the key names)')
+    .option('--fuel <blend>', 'fuel species or blend, e.g. CH4 or CH4:0.8,C2H6:0.2')
+    .option('--oxidizer <blend>', 'O2, air, or a blend such as O2:0.21,N2:0.79')
+    .option('--phi <number>', 'equivalence ratio')
+    .option('--diluent <blend>', 'bath gas, e.g. Ar or Ar:0.5,He:0.5')
+    .option('--dilution <fraction>', 'diluent mole fraction of the final mixture')
+    .option('--diluent-ratio <number>', 'mol diluent per mol O2')
+    .option('--fuel-fraction <fraction>', 'total fuel mole fraction')
+    .option('--fractions <list>', 'explicit mole fractions, e.g. CH4:0.05,O2:0.10,Ar:0.85')
+    .option('--volume <quantity>', 'tank volume, e.g. "30 L"')
+    .option('--tank <id>', 'tank from the lab profile')
+    .option('--pressure <quantity>', 'final pressure, absolute, e.g. "1500 Torr"')
+    .option('--temperature <quantity>', 'tank temperature, e.g. "22 degC"')
+    .option('--order <list>', 'fill order, e.g. CH4,O2,Ar')
+    .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
+    .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
+    .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings, e.g. "752.3 Torr"')
+    .addOption(new Option('--units <unit>', 'pressure unit of the table').choices([...PRESSURE_UNITS]).default('Torr'))
+    .action(async (recipeFile: string | undefined, o: PlanOptions) => {
+      const base = recipeFile ? readRecipe(recipeFile) : undefined;
+      const rs = mergeOptions(base, o);
+      const barometricPa = o.barometer === undefined ? undefined : parseQuantity(o.barometer, 'pressure', { field: '--barometer' });
+      const req = buildPlanRequest(rs, o.lab, { barometricPa });
+      const plan = planFill(req.input);
+      const unit: PressureUnit = isPressureUnit(o.units) ? o.units : 'Torr';
+      const meta = { recipeId: req.recipe.id, labName: req.lab.name, orderRecommended: req.orderRecommended, version: VERSION };
+      if (o.json) out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
+      else out(planToText(plan, meta, unit));
+      if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+    });
+
+  program
+    .command('species')
+    .description('species data: every property with its value, unit and source')
+    .argument('[name]', 'species key or name (e.g. CH4, n-C7H16, toluene); all species if absent')
+    .option('--temperature <quantity>', 'temperature for B(T) and cp', '298.15 K')
+    .action((name: string | undefined, o: { temperature: string }) => {
+      const T = parseQuantity(o.temperature, 'temperature', { field: '--temperature' });
+      out(name ? speciesDetail(name, T) : speciesList());
+    });
+
+  program
+    .command('schema')
+    .description('JSON Schema of a file format, for editors')
+    .argument('<format>', 'recipe or lab')
+    .action((format: string) => {
+      const schemas: Record<string, z.ZodType> = { recipe: recipeSchema, lab: labSchema };
+      const s = schemas[format];
+      if (!s) throw new ProblemError({ code: 'schema', reason: `unknown format "${format}"; choose recipe or lab` }, { field: 'schema' });
+      out(JSON.stringify(z.toJSONSchema(s, { io: 'input' }), null, 2) + '\n');
+    });
+
+  program
+    .command('demo-lab')
+    .description('print the embedded demo lab profile (YAML), a starting point for your own')
+    .action(() => {
+      out(DEMO_LAB_YAML);
+    });
+
+  const run = async (argv: readonly string[]): Promise<number> => {
+    if (argv.length === 0) {
+      if (!streams.isTTY) {
+        err('mixwright: not a terminal, so the wizard cannot open.\nUse `mixwright plan`, `mixwright species` or `mixwright schema`; `mixwright --help` lists the commands.\n');
+        return EXIT.input;
+      }
+      err('mixwright: the interactive wizard is not available in this version.\nUse `mixwright plan RECIPE` or `mixwright plan --fuel ... --oxidizer ... --phi ...`; `mixwright --help` lists the commands.\n');
+      return EXIT.input;
+    }
+    try {
+      await program.parseAsync([...argv], { from: 'user' });
+      return EXIT.ok;
+    } catch (e) {
+      if (e instanceof ExitSignal) return e.code;
+      if (e instanceof CommanderError) {
+        if (e.code === 'commander.helpDisplayed' || e.code === 'commander.version' || e.exitCode === 0) return EXIT.ok;
+        return EXIT.input;
+      }
+      if (e instanceof ProblemError) {
+        err(`mixwright: ${describeProblemAt(e.problem, e.where)}\n  (error code: ${e.problem.code})\n`);
+        return EXIT.input;
+      }
+      err(`mixwright: internal error: ${(e as Error).message}\n  This is a fault in mixwright, not in your input; please report it with the command you ran.\n`);
+      return EXIT.internal;
+    }
+  };
+  return { program, run };
+}

@@ -1,0 +1,230 @@
+/**
+ * Mixture design: from an equivalence ratio and one dilution measure (or from
+ * explicit mole fractions) to the target composition.
+ *
+ * Stoichiometry on an O-atom basis: each species needs d = c + h/4 - o/2 mol O2
+ * (formula.ts). phi = sum_fuel x d / (-sum_oxidizer x d), so N2O and NO count as
+ * oxidizers by the oxygen they carry.
+ */
+import { getSpecies } from './lookup.js';
+import { oxygenDemand } from './formula.js';
+import { fail } from './problems.js';
+
+/** species -> fraction; a blend's fractions sum to 1 */
+export type Fractions = Readonly<Record<string, number>>;
+
+export type DilutionBasis =
+  | { readonly kind: 'dilution'; readonly value: number } // diluent mole fraction of the final mixture
+  | { readonly kind: 'diluent-ratio'; readonly value: number } // mol diluent per mol O2 (O2-equivalent) supplied
+  | { readonly kind: 'fuel-fraction'; readonly value: number }; // total fuel mole fraction
+
+export type DesignInput =
+  | {
+      readonly kind: 'phi';
+      readonly fuel: Fractions;
+      readonly oxidizer: Fractions;
+      readonly diluent: Fractions;
+      readonly phi: number;
+      readonly basis: DilutionBasis;
+    }
+  | { readonly kind: 'fractions'; readonly fractions: Fractions };
+
+export interface Design {
+  readonly composition: Fractions;
+  /** undefined when the mixture has no fuel or no oxidizer */
+  readonly phi: number | undefined;
+  readonly fuelFraction: number;
+  readonly oxidizerFraction: number;
+  readonly diluentFraction: number;
+  /** mol O2 needed per mol of fuel blend for complete combustion */
+  readonly stoichO2PerFuel: number | undefined;
+  readonly groups: { readonly fuel: Fractions; readonly oxidizer: Fractions; readonly diluent: Fractions };
+}
+
+const FRACTION_SUM_TOL = 1e-6;
+
+export type SpeciesRole = 'fuel' | 'oxidizer' | 'inert';
+
+/** role by oxygen demand: fuel (d > 0), oxidizer (d < 0), inert (d = 0: noble gases, N2, CO2, H2O, SF6) */
+export function speciesRole(key: string): SpeciesRole {
+  const d = oxygenDemand(getSpecies(key).elements);
+  if (d > 1e-12) return 'fuel';
+  if (d < -1e-12) return 'oxidizer';
+  return 'inert';
+}
+
+function checkBlend(blend: Fractions, field: string, allowEmpty: boolean): Record<string, number> {
+  const out: Record<string, number> = {};
+  let sum = 0;
+  for (const [name, v] of Object.entries(blend)) {
+    const key = getSpecies(name).key;
+    if (!Number.isFinite(v) || v < 0) fail({ code: 'out-of-range', what: `fraction of ${key}`, value: v, allowed: '[0, 1]' }, { field });
+    out[key] = (out[key] ?? 0) + v;
+    sum += v;
+  }
+  if (Object.keys(out).length === 0) {
+    if (allowEmpty) return out;
+    fail({ code: 'design-missing', reason: `${field} names no species` }, { field });
+  }
+  if (Math.abs(sum - 1) > FRACTION_SUM_TOL) fail({ code: 'fractions-sum', sum }, { field });
+  return out;
+}
+
+function addInto(target: Record<string, number>, blend: Fractions, scale: number): void {
+  for (const [k, v] of Object.entries(blend)) target[k] = (target[k] ?? 0) + v * scale;
+}
+
+function demandOf(blend: Fractions): number {
+  let d = 0;
+  for (const [k, v] of Object.entries(blend)) d += v * oxygenDemand(getSpecies(k).elements);
+  return d;
+}
+
+/** split an arbitrary composition into fuel, oxidizer and inert parts */
+function groupsOf(x: Fractions): { fuel: number; ox: number; inert: number; fuelBlend: Record<string, number>; oxBlend: Record<string, number>; inertBlend: Record<string, number> } {
+  const fuelBlend: Record<string, number> = {};
+  const oxBlend: Record<string, number> = {};
+  const inertBlend: Record<string, number> = {};
+  let fuel = 0;
+  let ox = 0;
+  let inert = 0;
+  for (const [k, v] of Object.entries(x)) {
+    const role = speciesRole(k);
+    if (role === 'fuel') {
+      fuel += v;
+      fuelBlend[k] = v;
+    } else if (role === 'oxidizer') {
+      ox += v;
+      oxBlend[k] = v;
+    } else {
+      inert += v;
+      inertBlend[k] = v;
+    }
+  }
+  const norm = (b: Record<string, number>, s: number) => {
+    if (s > 0) for (const k of Object.keys(b)) b[k] /= s;
+  };
+  norm(fuelBlend, fuel);
+  norm(oxBlend, ox);
+  norm(inertBlend, inert);
+  return { fuel, ox, inert, fuelBlend, oxBlend, inertBlend };
+}
+
+/**
+ * Equivalence ratio of any composition on the O-atom basis.
+ * Example: CH4 0.095, O2 0.19, N2 0.715 -> phi = 0.095 x 2 / 0.19 = 1.
+ */
+export function equivalenceRatio(x: Fractions): number | undefined {
+  let need = 0;
+  let supply = 0;
+  for (const [k, v] of Object.entries(x)) {
+    const d = oxygenDemand(getSpecies(k).elements);
+    if (d > 0) need += v * d;
+    else supply -= v * d;
+  }
+  if (need <= 0 || supply <= 0) return undefined;
+  return need / supply;
+}
+
+/**
+ * Build the target composition of a design.
+ * Example: CH4 in air (O2 0.21, N2 0.79), phi 1, no diluent -> x_CH4 = 1/(1 + 2/0.21) = 0.0950.
+ */
+export function designMixture(input: DesignInput): Design {
+  if (input.kind === 'fractions') {
+    const x = checkBlend(input.fractions, 'fractions', false);
+    const g = groupsOf(x);
+    const fuelD = demandOf(g.fuelBlend);
+    return {
+      composition: x,
+      phi: equivalenceRatio(x),
+      fuelFraction: g.fuel,
+      oxidizerFraction: g.ox,
+      diluentFraction: g.inert,
+      stoichO2PerFuel: g.fuel > 0 ? fuelD : undefined,
+      groups: { fuel: g.fuelBlend, oxidizer: g.oxBlend, diluent: g.inertBlend },
+    };
+  }
+  const { phi, basis } = input;
+  if (!Number.isFinite(phi) || phi <= 0) fail({ code: 'not-positive', what: 'phi (equivalence ratio)', value: phi }, { field: 'phi' });
+  const fuel = checkBlend(input.fuel, 'fuel', false);
+  const oxidizer = checkBlend(input.oxidizer, 'oxidizer', false);
+  const diluent = checkBlend(input.diluent, 'diluent', true);
+  for (const k of Object.keys(fuel)) {
+    if (speciesRole(k) !== 'fuel') fail({ code: 'design-conflict', reason: `${k} is not a fuel (it needs no oxygen to burn); list it as oxidizer or diluent` }, { field: 'fuel' });
+  }
+  for (const k of Object.keys(oxidizer)) {
+    if (speciesRole(k) === 'fuel') fail({ code: 'design-conflict', reason: `${k} is a fuel and cannot be part of the oxidizer` }, { field: 'oxidizer' });
+  }
+  for (const k of Object.keys(diluent)) {
+    if (speciesRole(k) !== 'inert') fail({ code: 'design-conflict', reason: `${k} takes part in combustion and cannot be a diluent; use an inert gas (Ar, He, N2, CO2, ...)` }, { field: 'diluent' });
+  }
+  const needPerFuel = demandOf(fuel); // mol O2 per mol fuel blend
+  const supplyPerOx = -demandOf(oxidizer); // mol O2-equivalent per mol oxidizer blend
+  if (supplyPerOx <= 0) fail({ code: 'design-conflict', reason: 'the oxidizer carries no oxygen; it needs O2 (or N2O, NO)' }, { field: 'oxidizer' });
+  const oxPerFuel = needPerFuel / (phi * supplyPerOx);
+  const hasDiluent = Object.keys(diluent).length > 0;
+
+  let F: number;
+  let X: number;
+  let D: number;
+  switch (basis.kind) {
+    case 'dilution': {
+      const xd = basis.value;
+      if (!(xd >= 0 && xd < 1)) fail({ code: 'out-of-range', what: 'dilution (diluent mole fraction)', value: xd, allowed: '[0, 1)' }, { field: 'dilution' });
+      if (xd > 0 && !hasDiluent) fail({ code: 'design-missing', reason: `dilution is ${xd} but no diluent is named; add a diluent (e.g. Ar)` }, { field: 'diluent' });
+      F = (1 - xd) / (1 + oxPerFuel);
+      X = F * oxPerFuel;
+      D = xd;
+      break;
+    }
+    case 'diluent-ratio': {
+      const r = basis.value;
+      if (!(r >= 0) || !Number.isFinite(r)) fail({ code: 'out-of-range', what: 'diluent ratio (mol diluent per mol O2)', value: r, allowed: '[0, infinity)' }, { field: 'diluent_ratio' });
+      if (r > 0 && !hasDiluent) fail({ code: 'design-missing', reason: `diluent ratio is ${r} but no diluent is named; add a diluent (e.g. N2)` }, { field: 'diluent' });
+      // per mol fuel: oxPerFuel mol oxidizer carrying oxPerFuel * supplyPerOx mol O2-equivalent
+      const dPerFuel = r * oxPerFuel * supplyPerOx;
+      F = 1 / (1 + oxPerFuel + dPerFuel);
+      X = F * oxPerFuel;
+      D = F * dPerFuel;
+      break;
+    }
+    case 'fuel-fraction': {
+      const xf = basis.value;
+      if (!(xf > 0 && xf < 1)) fail({ code: 'out-of-range', what: 'fuel fraction', value: xf, allowed: '(0, 1)' }, { field: 'fuel_fraction' });
+      F = xf;
+      X = xf * oxPerFuel;
+      D = 1 - F - X;
+      if (D < -1e-12) {
+        const maxXf = 1 / (1 + oxPerFuel);
+        fail({ code: 'design-conflict', reason: `at phi ${phi} a fuel fraction of ${xf} leaves no room: fuel and oxidizer alone would be ${(F + X).toFixed(4)} of the mixture; the largest fuel fraction is ${maxXf.toFixed(5)}` }, { field: 'fuel_fraction' });
+      }
+      D = Math.max(D, 0);
+      if (D > 1e-12 && !hasDiluent) fail({ code: 'design-missing', reason: `the fuel fraction ${xf} leaves ${D.toFixed(4)} of the mixture for a diluent, but none is named` }, { field: 'diluent' });
+      break;
+    }
+  }
+  const composition: Record<string, number> = {};
+  addInto(composition, fuel, F);
+  addInto(composition, oxidizer, X);
+  if (D > 0) addInto(composition, diluent, D);
+  return {
+    composition,
+    phi,
+    fuelFraction: F,
+    oxidizerFraction: X,
+    diluentFraction: D,
+    stoichO2PerFuel: needPerFuel,
+    groups: { fuel, oxidizer, diluent },
+  };
+}
+
+/** sum and non-negativity check used by tests and by the planner's own guard */
+export function isNormalised(x: Fractions, tol = 1e-9): boolean {
+  let s = 0;
+  for (const v of Object.values(x)) {
+    if (v < 0) return false;
+    s += v;
+  }
+  return Math.abs(s - 1) <= tol;
+}

@@ -1,0 +1,79 @@
+/** The wording of every Problem, in one place. */
+import type { Problem, Where } from './problems.js';
+
+function list(xs: readonly string[]): string {
+  return xs.join(', ');
+}
+
+export function describeProblem(p: Problem): string {
+  switch (p.code) {
+    case 'unknown-species':
+      return `unknown species "${p.name}"` + (p.suggestions.length ? `; did you mean ${list(p.suggestions)}?` : '; `mixwright species` lists the known species');
+    case 'not-positive':
+      return `${p.what} must be greater than zero (got ${p.value})`;
+    case 'out-of-range':
+      return `${p.what} = ${p.value} is outside the allowed range ${p.allowed}`;
+    case 'wrong-dimension':
+      return `"${p.text}" is a ${p.got}, but a ${p.expected} is needed here`;
+    case 'bad-quantity':
+      return `cannot read "${p.text}" as a ${p.expected}: ${p.reason}. Give a number and a unit, e.g. ${exampleFor(p.expected)}`;
+    case 'bad-list':
+      return `cannot read "${p.text}": ${p.reason}. Write species, or species:fraction pairs separated by commas, e.g. CH4:0.8,C2H6:0.2`;
+    case 'order-missing':
+      return `the fill order leaves out ${list(p.missing)}; name every fill exactly once`;
+    case 'order-repeated':
+      return `the fill order names ${list(p.repeated)} more than once; name every fill exactly once`;
+    case 'order-unknown':
+      return `the fill order names ${list(p.unknown)}, which this mixture does not fill; the fills are ${list(p.choices)}`;
+    case 'fractions-sum':
+      return `the mole fractions add up to ${p.sum.toPrecision(6)}, not 1; correct them so that they sum to 1 (within 1e-6)`;
+    case 'design-conflict':
+      return p.reason;
+    case 'design-missing':
+      return p.reason;
+    case 'unknown-key':
+      return `unknown key "${p.key}"; allowed here: ${list(p.allowed)}`;
+    case 'schema':
+      return p.reason;
+    case 'yaml-syntax':
+      return `not valid YAML: ${p.reason}`;
+    case 'file-unreadable':
+      return `cannot read the file: ${p.reason}`;
+    case 'unknown-reference':
+      return `no ${p.kind} "${p.id}" in the lab profile` + (p.choices.length ? `; it lists ${list(p.choices)}` : '');
+    case 'no-supply':
+      return `no source can supply ${p.species}: ${p.reason}`;
+    case 'no-gauge':
+      return p.reason;
+    case 'model-range':
+      return p.reason;
+  }
+}
+
+function exampleFor(expected: string): string {
+  switch (expected) {
+    case 'pressure':
+      return '"1500 Torr", "200 kPa" or "2 bar"';
+    case 'volume':
+      return '"30 L" or "0.03 m^3"';
+    case 'temperature':
+      return '"22 degC" or "295.15 K"';
+    case 'pressure rate':
+      return '"1e-4 Torr/min"';
+    default:
+      return '"1 bar"';
+  }
+}
+
+export function describeWhere(w: Where): string {
+  const parts: string[] = [];
+  if (w.file) parts.push(w.line ? `${w.file}:${w.line}${w.column ? `:${w.column}` : ''}` : w.file);
+  if (w.field) parts.push(w.field);
+  return parts.join(' ');
+}
+
+/** "recipes/x.yaml:7 design.phi: phi must be greater than zero (got -1)" */
+export function describeProblemAt(p: Problem, w: Where): string {
+  const at = describeWhere(w);
+  return at ? `${at}: ${describeProblem(p)}` : describeProblem(p);
+}

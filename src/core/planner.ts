@@ -1,0 +1,342 @@
+/**
+ * The fill plan: cumulative target readings after each fill from the
+ * density-form virial equation of the cumulative composition, beside the ideal-gas
+ * plan, with a gauge and a tolerance band for each reading.
+ *
+ * Forward model (manometric method, rigid tank of volume V at temperature T):
+ *   rho_f from P_f = rho R T (1 + B_mix rho + C_mix rho^2);  N = rho_f V;
+ *   after fill k: n_k = cumulative amount, y^(k) its composition,
+ *   P_k = (n_k/V) R T [1 + B_mix(y^(k)) n_k/V + C_mix(y^(k)) (n_k/V)^2].
+ */
+import { R } from './constants.js';
+import type { Design, Fractions } from './composition.js';
+import { allocate, type GasSource } from './supply.js';
+import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, virialModel, type VirialModel } from './mixture-eos.js';
+import { chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, type Gauge, type ReadingContext } from './gauges.js';
+import { getSpecies } from './lookup.js';
+import { molarMassKgPerMol } from './formula.js';
+import type { Finding } from './findings.js';
+import { fail } from './problems.js';
+
+export interface Tolerance {
+  /** allowed relative deviation of each mole fraction (0.005 = 0.5 %) */
+  readonly relative: number;
+  /** floor on the allowed absolute deviation of a mole fraction */
+  readonly absolute: number;
+}
+
+export interface TankSpec {
+  readonly id: string;
+  readonly label: string;
+  readonly volumeM3: number;
+  /** maximum allowed working pressure, Pa absolute */
+  readonly ratedPressurePa?: number;
+  /** fraction of the rating used as the working limit (default 1) */
+  readonly workingFraction?: number;
+}
+
+export interface PlanInput {
+  readonly design: Design;
+  readonly finalPressurePa: number;
+  readonly temperatureK: number;
+  readonly tank: TankSpec;
+  /** sources in fill order */
+  readonly sources: readonly GasSource[];
+  readonly orderReason: string;
+  readonly inTank?: { readonly composition: Fractions; readonly pressurePa: number };
+  readonly gauges: readonly Gauge[];
+  readonly reading: ReadingContext;
+  readonly tolerance: Tolerance;
+}
+
+export interface GaugeAssignment {
+  readonly id: string;
+  readonly label: string;
+  readonly unit: string;
+  readonly reference: Gauge['reference'];
+  /** what the gauge should show, Pa (gauge-referenced: above ambient) */
+  readonly readingPa: number;
+  readonly uncertaintyPa: number;
+  /** display resolution, Pa: the sheet shows targets to this step */
+  readonly resolutionPa: number;
+}
+
+export interface PlanStep {
+  readonly kind: 'fill';
+  /** 1-based */
+  readonly index: number;
+  readonly source: GasSource;
+  readonly species: string;
+  /** absolute tank pressure after this fill, Pa */
+  readonly targetPa: number;
+  readonly incrementPa: number;
+  readonly amountMol: number;
+  readonly massKg: number;
+  /** what an ideal-gas spreadsheet would give: P_f times the cumulative amount fraction */
+  readonly idealTargetPa: number;
+  readonly compositionAfter: Record<string, number>;
+  readonly compressibilityAfter: number;
+  /** half-width of the tolerance band on the absolute reading, Pa */
+  readonly bandPa: number;
+  readonly gauge?: GaugeAssignment;
+  /** gauges to close off before this fill, so they are not over-ranged */
+  readonly isolateBefore: readonly { id: string; label: string; topPa: number }[];
+}
+
+export interface Plan {
+  readonly design: Design;
+  readonly temperatureK: number;
+  readonly tank: TankSpec;
+  readonly orderReason: string;
+  /** composition the tank will hold, with cylinder impurities */
+  readonly composition: Record<string, number>;
+  readonly unidentifiedFraction: number;
+  readonly initial?: { readonly pressurePa: number; readonly amountMol: number; readonly composition: Fractions };
+  readonly final: {
+    readonly pressurePa: number;
+    readonly temperatureK: number;
+    readonly compressibility: number;
+    readonly amountMol: number;
+    readonly idealAmountMol: number;
+    readonly densityMolPerM3: number;
+    readonly bMixM3PerMol: number;
+    readonly cMixM6PerMol2: number;
+  };
+  readonly steps: readonly PlanStep[];
+  readonly virial: VirialModel;
+  readonly findings: readonly Finding[];
+  readonly tolerance: Tolerance;
+}
+
+function eosComposition(parts: readonly { source: GasSource | Fractions; mol: number }[]): Record<string, number> {
+  // for the equation of state a source's unidentified remainder is counted as its main gas
+  const y: Record<string, number> = {};
+  let total = 0;
+  for (const { source, mol } of parts) {
+    const isSource = 'composition' in source && 'mainSpecies' in source;
+    const comp = isSource ? (source as GasSource).composition : (source as Fractions);
+    for (const [k, v] of Object.entries(comp)) {
+      y[k] = (y[k] ?? 0) + v * mol;
+      total += v * mol;
+    }
+    if (isSource) {
+      const s = source as GasSource;
+      y[s.mainSpecies] = (y[s.mainSpecies] ?? 0) + s.unidentified * mol;
+      total += s.unidentified * mol;
+    }
+  }
+  for (const k of Object.keys(y)) y[k] /= total;
+  return y;
+}
+
+function stateOf(model: VirialModel, y: Fractions, mol: number, volumeM3: number, temperatureK: number) {
+  const rho = mol / volumeM3;
+  const B = bMix(model, y);
+  const C = cMix(model, y);
+  return { rho, B, C, P: pressureFromDensity(rho, temperatureK, B, C), Z: compressibility(rho, B, C) };
+}
+
+/** dP/drho at fixed composition, Pa m3/mol */
+function dPdRho(rho: number, temperatureK: number, B: number, C: number): number {
+  return R * temperatureK * (1 + 2 * B * rho + 3 * C * rho * rho);
+}
+
+export function planFill(input: PlanInput): Plan {
+  const { design, finalPressurePa: Pf, temperatureK: T, tank, sources } = input;
+  if (!(Pf > 0)) fail({ code: 'not-positive', what: 'final pressure', value: Pf }, { field: 'pressure' });
+  if (!(T > 0)) fail({ code: 'not-positive', what: 'temperature', value: T }, { field: 'temperature' });
+  if (!(tank.volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: tank.volumeM3 }, { field: 'volume' });
+  if (sources.length === 0) fail({ code: 'design-missing', reason: 'the plan has no fills' });
+  const V = tank.volumeM3;
+
+  const speciesSet = new Set<string>();
+  for (const s of sources) for (const k of Object.keys(s.composition)) speciesSet.add(getSpecies(k).key);
+  for (const k of Object.keys(input.inTank?.composition ?? {})) speciesSet.add(getSpecies(k).key);
+  const model = virialModel([...speciesSet], T);
+
+  // gas already in the tank
+  let initial: Plan['initial'];
+  if (input.inTank) {
+    const y0 = input.inTank.composition;
+    const rho0 = densityFromPressure(input.inTank.pressurePa, T, bMix(model, y0), cMix(model, y0));
+    initial = { pressurePa: input.inTank.pressurePa, amountMol: rho0 * V, composition: y0 };
+    if (input.inTank.pressurePa >= Pf) {
+      fail({ code: 'design-conflict', reason: 'the tank already holds gas at or above the final pressure; evacuate it or raise the final pressure' }, { field: 'in_tank.pressure' });
+    }
+  }
+
+  // total amount: iterate allocation and density until the final reading is P_f
+  let N = (Pf * V) / (R * T);
+  let alloc = allocate(sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
+  let yFinal: Record<string, number> = {};
+  let rhoF = 0;
+  for (let it = 0; it < 30; it++) {
+    alloc = allocate(sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
+    const parts = sources.map((s, i) => ({ source: s as GasSource | Fractions, mol: alloc.amountsMol[i] }));
+    if (initial) parts.push({ source: initial.composition, mol: initial.amountMol });
+    yFinal = eosComposition(parts);
+    rhoF = densityFromPressure(Pf, T, bMix(model, yFinal), cMix(model, yFinal));
+    const have = alloc.amountsMol.reduce((a, b) => a + b, 0) + (initial?.amountMol ?? 0);
+    const want = rhoF * V;
+    const next = N * (want / have);
+    if (Math.abs(next - N) <= 1e-13 * N) break;
+    N = next;
+  }
+  const totalMol = rhoF * V;
+  const Bf = bMix(model, yFinal);
+  const Cf = cMix(model, yFinal);
+
+  const findings: Finding[] = [];
+  const tol = input.tolerance;
+  const tolOf = (k: string) => Math.max(tol.relative * (design.composition[k] ?? 0), tol.absolute);
+
+  // cumulative states
+  const parts: { source: GasSource | Fractions; mol: number }[] = initial ? [{ source: initial.composition, mol: initial.amountMol }] : [];
+  let cumMol = initial?.amountMol ?? 0;
+  let prevP = initial?.pressurePa ?? 0;
+  const raw = sources.map((s, i) => {
+    const mol = alloc.amountsMol[i];
+    parts.push({ source: s, mol });
+    cumMol += mol;
+    const y = eosComposition(parts);
+    const st = stateOf(model, y, cumMol, V, T);
+    const out = { source: s, mol, y, st, cumMol, inc: st.P - prevP };
+    prevP = st.P;
+    return out;
+  });
+
+  const sourceVec = (s: GasSource, k: string) => (s.composition[k] ?? 0) + (s.mainSpecies === k ? s.unidentified : 0);
+  const allSpecies = [...speciesSet];
+  const connected = new Set(input.gauges.map((g) => g.id));
+  const steps: PlanStep[] = raw.map((r, k) => {
+    // tolerance band: an error dn in this fill, made good by the next fill's printed cumulative
+    // target, moves x_i by (w_k,i - w_k+1,i) dn / N; on the last fill by (w_K,i - x_i) dn / N
+    const next = raw[k + 1];
+    let dnMax = Infinity;
+    for (const sp of allSpecies) {
+      const allowed = tolOf(sp);
+      const sens = next ? Math.abs(sourceVec(r.source, sp) - sourceVec(next.source, sp)) : Math.abs(sourceVec(r.source, sp) - (yFinal[sp] ?? 0));
+      if (sens > 1e-15 && (design.composition[sp] ?? 0) > 0) dnMax = Math.min(dnMax, (allowed * totalMol) / sens);
+    }
+    if (!Number.isFinite(dnMax)) dnMax = tol.relative * r.mol;
+    const bandPa = (dnMax / V) * dPdRho(r.st.rho, T, r.st.B, r.st.C);
+
+    const isolateBefore: PlanStep['isolateBefore'][number][] = [];
+    for (const g of input.gauges) {
+      const top = gaugeTopAbsolutePa(g, input.reading);
+      if (connected.has(g.id) && top < r.st.P + bandPa) {
+        connected.delete(g.id);
+        isolateBefore.push({ id: g.id, label: g.label, topPa: top });
+      }
+    }
+    const choice = chooseGauge(
+      input.gauges.filter((g) => connected.has(g.id)),
+      r.st.P,
+      r.st.P + bandPa,
+      input.reading,
+    );
+    const stepNo = k + 1;
+    if (!choice) findings.push({ severity: 'danger', code: 'no-gauge-covers', step: stepNo, pressurePa: r.st.P });
+    else if (choice.uncertaintyPa * 3 > bandPa) {
+      findings.push({ severity: 'warning', code: 'gauge-coarser-than-band', step: stepNo, gauge: choice.gauge.id, uncertaintyPa: choice.uncertaintyPa, bandPa });
+    }
+    let massKg = 0;
+    for (const [sp, w] of Object.entries(r.source.composition)) massKg += w * r.mol * molarMassKgPerMol(getSpecies(sp).elements);
+    massKg += r.source.unidentified * r.mol * molarMassKgPerMol(getSpecies(r.source.mainSpecies).elements);
+    if (r.source.supplyPressurePa !== undefined && r.source.supplyPressurePa <= r.st.P) {
+      findings.push({ severity: 'danger', code: 'supply-pressure-low', step: stepNo, source: r.source.id, supplyPa: r.source.supplyPressurePa, targetPa: r.st.P });
+    }
+    return {
+      kind: 'fill' as const,
+      index: stepNo,
+      source: r.source,
+      species: r.source.mainSpecies,
+      targetPa: r.st.P,
+      incrementPa: r.inc,
+      amountMol: r.mol,
+      massKg,
+      idealTargetPa: (Pf * r.cumMol) / totalMol,
+      compositionAfter: r.y,
+      compressibilityAfter: r.st.Z,
+      bandPa,
+      gauge: choice && {
+        id: choice.gauge.id,
+        label: choice.gauge.label,
+        unit: choice.gauge.unit,
+        reference: choice.gauge.reference,
+        readingPa: gaugeReadingPa(choice.gauge, r.st.P, input.reading),
+        uncertaintyPa: choice.uncertaintyPa,
+        resolutionPa: choice.gauge.resolutionPa,
+      },
+      isolateBefore,
+    };
+  });
+
+  // batch-level findings
+  if (tank.ratedPressurePa !== undefined) {
+    const limit = tank.ratedPressurePa * (tank.workingFraction ?? 1);
+    if (Pf > limit) findings.push({ severity: 'danger', code: 'tank-over-rating', pressurePa: Pf, limitPa: limit, ratedPa: tank.ratedPressurePa, tank: tank.id });
+  }
+  for (const s of sources) if (s.purityAssumed) findings.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
+  if (alloc.unidentified > 1e-7) findings.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
+  for (const [sp, x] of Object.entries(alloc.composition)) {
+    const xd = design.composition[sp] ?? 0;
+    if (xd === 0 && x > 1e-7) findings.push({ severity: 'note', code: 'impurity-present', species: sp, fraction: x });
+    else if (xd > 0 && Math.abs(x - xd) > tolOf(sp)) findings.push({ severity: 'warning', code: 'supply-mismatch', species: sp, design: xd, actual: x });
+  }
+  for (const e of model.entries) {
+    if (e.i === e.j && e.method !== 'reference') findings.push({ severity: 'note', code: 'virial-correlation', species: e.i, method: e.method === 'tsonopoulos-quantum' ? 'Tsonopoulos (effective quantum-gas constants)' : 'Tsonopoulos' });
+  }
+  let worst = 0;
+  let worstBand = Infinity;
+  for (const s of steps) {
+    const d = Math.abs(s.targetPa - s.idealTargetPa);
+    if (d > worst) {
+      worst = d;
+      worstBand = s.bandPa;
+    }
+  }
+  if (worst > worstBand) findings.push({ severity: 'warning', code: 'ideal-gas-error', worstPa: worst, bandPa: worstBand });
+
+  return {
+    design,
+    temperatureK: T,
+    tank,
+    orderReason: input.orderReason,
+    composition: alloc.composition,
+    unidentifiedFraction: alloc.unidentified,
+    initial,
+    final: {
+      pressurePa: Pf,
+      temperatureK: T,
+      compressibility: compressibility(rhoF, Bf, Cf),
+      amountMol: totalMol,
+      idealAmountMol: (Pf * V) / (R * T),
+      densityMolPerM3: rhoF,
+      bMixM3PerMol: Bf,
+      cMixM6PerMol2: Cf,
+    },
+    steps,
+    virial: model,
+    findings,
+    tolerance: tol,
+  };
+}
+
+/**
+ * Recommended order when the user names none: smallest partial pressure first and
+ * the bath gas last (common practice: the small fills get the best relative
+ * resolution on a low-range gauge, and the large last fill sweeps the line into the tank).
+ */
+export function recommendOrder(sources: readonly GasSource[], design: Fractions): { sources: GasSource[]; reason: string } {
+  const share = (s: GasSource) => {
+    let best = 0;
+    for (const [k, w] of Object.entries(s.composition)) if ((design[k] ?? 0) > 0 && w > 0) best = Math.max(best, design[k] / w);
+    return best;
+  };
+  const sorted = [...sources].sort((a, b) => share(a) - share(b));
+  return {
+    sources: sorted,
+    reason: 'smallest partial pressure first, bath gas last (best relative resolution for the small fills; the last, largest fill sweeps the line into the tank)',
+  };
+}

@@ -1,0 +1,62 @@
+/**
+ * Invalid input as data. The core and the shells raise a Problem with a code and
+ * its particulars; core/messages.ts turns it into the one sentence that the CLI,
+ * the wizard and the printed sheet all show.
+ */
+
+export interface Where {
+  /** file path, when the input came from a file */
+  readonly file?: string;
+  readonly line?: number;
+  readonly column?: number;
+  /** the field or option, e.g. "design.phi" or "--phi" */
+  readonly field?: string;
+}
+
+export type Problem =
+  | { readonly code: 'unknown-species'; readonly name: string; readonly suggestions: readonly string[] }
+  | { readonly code: 'not-positive'; readonly what: string; readonly value: number }
+  | { readonly code: 'out-of-range'; readonly what: string; readonly value: number; readonly allowed: string }
+  | { readonly code: 'wrong-dimension'; readonly text: string; readonly expected: string; readonly got: string }
+  | { readonly code: 'bad-quantity'; readonly text: string; readonly expected: string; readonly reason: string }
+  | { readonly code: 'bad-list'; readonly text: string; readonly reason: string }
+  | { readonly code: 'order-missing'; readonly missing: readonly string[] }
+  | { readonly code: 'order-repeated'; readonly repeated: readonly string[] }
+  | { readonly code: 'order-unknown'; readonly unknown: readonly string[]; readonly choices: readonly string[] }
+  | { readonly code: 'fractions-sum'; readonly sum: number }
+  | { readonly code: 'design-conflict'; readonly reason: string }
+  | { readonly code: 'design-missing'; readonly reason: string }
+  | { readonly code: 'unknown-key'; readonly key: string; readonly allowed: readonly string[] }
+  | { readonly code: 'schema'; readonly reason: string }
+  | { readonly code: 'yaml-syntax'; readonly reason: string }
+  | { readonly code: 'file-unreadable'; readonly reason: string }
+  | { readonly code: 'unknown-reference'; readonly kind: string; readonly id: string; readonly choices: readonly string[] }
+  | { readonly code: 'no-supply'; readonly species: string; readonly reason: string }
+  | { readonly code: 'no-gauge'; readonly reason: string }
+  | { readonly code: 'model-range'; readonly reason: string };
+
+export type ProblemCode = Problem['code'];
+
+export class ProblemError extends Error {
+  readonly problem: Problem;
+  readonly where: Where;
+  constructor(problem: Problem, where: Where = {}) {
+    super(problem.code);
+    this.name = 'ProblemError';
+    this.problem = problem;
+    this.where = where;
+  }
+  /** the same problem, with more of the location filled in (outer values fill gaps only) */
+  at(where: Where): ProblemError {
+    return new ProblemError(this.problem, { ...where, ...this.where, field: joinField(where.field, this.where.field) });
+  }
+}
+
+function joinField(outer?: string, inner?: string): string | undefined {
+  if (outer && inner) return inner.startsWith('--') ? inner : `${outer}.${inner}`;
+  return inner ?? outer;
+}
+
+export function fail(problem: Problem, where: Where = {}): never {
+  throw new ProblemError(problem, where);
+}

@@ -1,0 +1,74 @@
+/**
+ * Ideal-gas thermochemistry from NASA 7-coefficient polynomials
+ * (McBride, Gordon & Reno, NASA TM-4513, 1993; data/nasa7-thermo.json):
+ *   cp/R = a1 + a2 T + a3 T^2 + a4 T^3 + a5 T^4
+ *   h/(RT) = a1 + a2 T/2 + a3 T^2/3 + a4 T^3/4 + a5 T^4/5 + a6/T
+ *   s/R = a1 ln T + a2 T + a3 T^2/2 + a4 T^3/3 + a5 T^4/4 + a7
+ */
+import data from './data/nasa7-thermo.json' with { type: 'json' };
+import { R } from './constants.js';
+
+interface Nasa7 {
+  readonly nasaName: string;
+  readonly temperatureRanges: readonly number[];
+  readonly coefficients: readonly (readonly number[])[];
+}
+
+const fits = data.species as Record<string, Nasa7>;
+
+export function hasThermo(key: string): boolean {
+  return key in fits;
+}
+
+export function thermoRangeK(key: string): { min: number; max: number } | undefined {
+  const f = fits[key];
+  if (!f) return undefined;
+  return { min: f.temperatureRanges[0], max: f.temperatureRanges[f.temperatureRanges.length - 1] };
+}
+
+function coefficientsAt(key: string, temperatureK: number): readonly number[] {
+  const f = fits[key];
+  if (!f) throw new Error(`no NASA polynomial for ${key}`);
+  const r = f.temperatureRanges;
+  if (temperatureK < r[0] * 0.9 || temperatureK > r[r.length - 1]) {
+    throw new Error(`${key}: ${temperatureK} K is outside the NASA fit range ${r[0]}-${r[r.length - 1]} K`);
+  }
+  if (r.length === 2 || temperatureK <= r[1]) return f.coefficients[0];
+  return f.coefficients[1];
+}
+
+/**
+ * Molar heat capacity at constant pressure, J/(mol K).
+ * Example: N2 at 298.15 K -> 29.12 J/(mol K).
+ */
+export function cpMolar(key: string, temperatureK: number): number {
+  const a = coefficientsAt(key, temperatureK);
+  const t = temperatureK;
+  return R * (a[0] + t * (a[1] + t * (a[2] + t * (a[3] + t * a[4]))));
+}
+
+/** Molar enthalpy including the enthalpy of formation at 298.15 K, J/mol. Example: CO2 at 298.15 K -> -393.5 kJ/mol. */
+export function enthalpyMolar(key: string, temperatureK: number): number {
+  const a = coefficientsAt(key, temperatureK);
+  const t = temperatureK;
+  return R * t * (a[0] + t * (a[1] / 2 + t * (a[2] / 3 + t * (a[3] / 4 + (t * a[4]) / 5))) + a[5] / t);
+}
+
+/** Molar standard-state entropy at 1 bar, J/(mol K). */
+export function entropyMolar(key: string, temperatureK: number): number {
+  const a = coefficientsAt(key, temperatureK);
+  const t = temperatureK;
+  return R * (a[0] * Math.log(t) + t * (a[1] + t * (a[2] / 2 + t * (a[3] / 3 + (t * a[4]) / 4))) + a[6]);
+}
+
+/** Ideal-gas ratio of heat capacities of a mixture, gamma = cp/(cp - R). */
+export function gammaMixture(y: Readonly<Record<string, number>>, temperatureK: number): number {
+  let cp = 0;
+  let s = 0;
+  for (const [k, v] of Object.entries(y)) {
+    cp += v * cpMolar(k, temperatureK);
+    s += v;
+  }
+  cp /= s;
+  return cp / (cp - R);
+}

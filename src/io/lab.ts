@@ -1,0 +1,75 @@
+/**
+ * The lab profile (YAML): tanks, gauges, cylinders, the barometer and the air
+ * composition. An embedded demo profile (io/demo-lab.ts) serves when none is given.
+ */
+import { z } from 'zod';
+import { blendSchema } from './recipe.js';
+import { PRESSURE_UNITS } from './quantity.js';
+
+const quantity = (what: string, example: string) => z.string().describe(`${what}: a number and a unit, e.g. "${example}"`);
+
+const tankSchema = z
+  .object({
+    id: z.string().min(1),
+    label: z.string().optional(),
+    volume: quantity('internal volume (tank and the manifold up to its valve)', '10.0 L'),
+    rating: quantity('maximum allowed working pressure, absolute', '4 bar').optional(),
+    working_fraction: z.number().gt(0).max(1).optional().describe('fraction of the rating used as working limit; default 1'),
+  })
+  .strict();
+
+const gaugeSchema = z
+  .object({
+    id: z.string().min(1),
+    label: z.string().optional(),
+    reference: z.enum(['absolute', 'gauge']).describe('absolute head, or gauge-referenced (reads above ambient)'),
+    full_scale: quantity('full-scale reading', '1000 Torr'),
+    minimum: quantity('lowest reading (compound gauges may read below ambient)', '0 Torr').optional(),
+    accuracy_pct_reading: z.number().min(0).max(10).describe('accuracy, % of reading'),
+    accuracy_pct_full_scale: z.number().min(0).max(10).optional().describe('accuracy, % of full scale; default 0'),
+    resolution: quantity('display resolution', '0.01 Torr'),
+    unit: z.enum(PRESSURE_UNITS).describe('unit the readout shows'),
+    overpressure: quantity('pressure it survives without damage, absolute', '2000 Torr').optional(),
+  })
+  .strict();
+
+const pureCylinderSchema = z
+  .object({
+    id: z.string().min(1),
+    label: z.string().optional(),
+    species: z.string().min(1),
+    purity: z.number().gt(0).max(1).optional().describe('mole fraction of the main gas from the certificate'),
+    impurities: z.record(z.string(), z.number().min(0).max(1)).optional(),
+    vapour: z.boolean().optional().describe('true for vapour drawn from a degassed liquid'),
+    supply_pressure: quantity('delivery pressure of the regulator or vapour, absolute', '2 bar').optional(),
+  })
+  .strict();
+
+const premixSchema = z
+  .object({
+    id: z.string().min(1),
+    label: z.string().optional(),
+    composition: z.record(z.string(), z.number().min(0).max(1)).describe('certified mole fractions, summing to 1'),
+    supply_pressure: quantity('delivery pressure, absolute', '3 bar').optional(),
+  })
+  .strict();
+
+export const labSchema = z
+  .object({
+    name: z.string().min(1),
+    notes: z.string().optional(),
+    barometer: z
+      .object({
+        pressure: quantity('barometric pressure to assume when none is given', '760 Torr'),
+        uncertainty: quantity('standard uncertainty of the barometer', '0.3 Torr'),
+      })
+      .strict()
+      .optional(),
+    air: blendSchema.optional().describe('composition used for oxidizer "air"; default O2 0.21, N2 0.79'),
+    tanks: z.array(tankSchema).default([]),
+    gauges: z.array(gaugeSchema).default([]),
+    cylinders: z.array(z.union([pureCylinderSchema, premixSchema])).default([]),
+  })
+  .strict();
+
+export type LabFile = z.infer<typeof labSchema>;

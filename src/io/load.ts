@@ -1,0 +1,266 @@
+/**
+ * From files and options to the core's plan input: read the lab profile and the
+ * recipe, parse quantities and blends, build the sources and the order.
+ */
+import { dirname, resolve as resolvePath } from 'node:path';
+import { fail, ProblemError, type Where } from '../core/problems.js';
+import {
+  chooseSources,
+  designMixture,
+  getSpecies,
+  orderSources,
+  premix,
+  pureCylinder,
+  recommendOrder,
+  resolveSpeciesKey,
+  type DesignInput,
+  type Fractions,
+  type GasSource,
+  type Gauge,
+  type PlanInput,
+  type TankSpec,
+} from '../core/index.js';
+import { parseQuantity } from './quantity.js';
+import { labSchema, type LabFile } from './lab.js';
+import { recipeSchema, type RecipeFile } from './recipe.js';
+import { keysAt, validate } from './schema-util.js';
+import { parseYamlText, readYamlFile, type DataPath, type YamlSource } from './yaml-file.js';
+import { DEMO_LAB_NAME, DEMO_LAB_YAML } from './demo-lab.js';
+
+export type Locate = (path: DataPath) => Where;
+
+/** rethrow a ProblemError with the location filled in */
+function at<T>(where: Where, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof ProblemError) throw e.at(where);
+    throw e;
+  }
+}
+
+/** "CH4", "CH4:0.8,C2H6:0.2" or a map -> fractions keyed by species key */
+export function parseBlend(value: string | Readonly<Record<string, number>>, where: Where, air?: Fractions): Record<string, number> {
+  const out: Record<string, number> = {};
+  if (typeof value !== 'string') {
+    for (const [k, v] of Object.entries(value)) {
+      const key = at(where, () => getSpecies(k).key);
+      out[key] = (out[key] ?? 0) + v;
+    }
+    return out;
+  }
+  const text = value.trim();
+  if (air && text.toLowerCase() === 'air') return { ...air };
+  const parts = text.split(',').map((p) => p.trim());
+  if (parts.some((p) => p === '')) fail({ code: 'bad-list', text, reason: 'an empty entry' }, where);
+  if (parts.length === 1 && !parts[0].includes(':')) {
+    return { [at(where, () => getSpecies(parts[0]).key)]: 1 };
+  }
+  for (const p of parts) {
+    const m = /^([^:\s]+)\s*:\s*([-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?)$/.exec(p);
+    if (!m) fail({ code: 'bad-list', text, reason: `"${p}" is not species:fraction` }, where);
+    const key = at(where, () => getSpecies(m[1]).key);
+    if (key in out) fail({ code: 'bad-list', text, reason: `${key} appears twice` }, where);
+    out[key] = Number(m[2]);
+  }
+  return out;
+}
+
+export interface LoadedLab {
+  readonly name: string;
+  readonly origin: string;
+  readonly file: LabFile;
+  readonly barometricPa: number;
+  readonly barometricUncertaintyPa: number;
+  readonly air: Fractions;
+  readonly tanks: readonly TankSpec[];
+  readonly gauges: readonly Gauge[];
+  readonly cylinders: readonly GasSource[];
+}
+
+export function loadLab(file?: string): LoadedLab {
+  const src: YamlSource = file ? readYamlFile(file) : parseYamlText(DEMO_LAB_YAML, DEMO_LAB_NAME);
+  const lab = validate(labSchema, src, (p) => keysAt(labSchema, p));
+  const w = (path: DataPath, field: string): Where => ({ ...src.locate(path), field });
+  const air = lab.air !== undefined ? parseBlend(lab.air, w(['air'], 'air')) : { O2: 0.21, N2: 0.79 };
+  const ids = new Set<string>();
+  const unique = (id: string, path: DataPath) => {
+    if (ids.has(id)) fail({ code: 'schema', reason: `the id "${id}" is used twice; ids of tanks, gauges and cylinders must be unique` }, w(path, 'id'));
+    ids.add(id);
+  };
+  const tanks = lab.tanks.map((t, i): TankSpec => {
+    unique(t.id, ['tanks', i, 'id']);
+    const volumeM3 = parseQuantity(t.volume, 'volume', w(['tanks', i, 'volume'], `tanks[${i}].volume`));
+    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3 }, w(['tanks', i, 'volume'], `tanks[${i}].volume`));
+    const rated = t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`));
+    return { id: t.id, label: t.label ?? t.id, volumeM3, ratedPressurePa: rated, workingFraction: t.working_fraction };
+  });
+  const gauges = lab.gauges.map((g, i): Gauge => {
+    unique(g.id, ['gauges', i, 'id']);
+    const q = (key: 'full_scale' | 'minimum' | 'resolution' | 'overpressure', text: string) =>
+      parseQuantity(text, 'pressure', w(['gauges', i, key], `gauges[${i}].${key}`));
+    const fullScalePa = q('full_scale', g.full_scale);
+    if (!(fullScalePa > 0)) fail({ code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa }, w(['gauges', i, 'full_scale'], `gauges[${i}].full_scale`));
+    return {
+      id: g.id,
+      label: g.label ?? g.id,
+      reference: g.reference,
+      fullScalePa,
+      minimumPa: g.minimum === undefined ? 0 : q('minimum', g.minimum),
+      accuracyOfReading: g.accuracy_pct_reading / 100,
+      accuracyOfFullScale: (g.accuracy_pct_full_scale ?? 0) / 100,
+      resolutionPa: q('resolution', g.resolution),
+      unit: g.unit,
+      overpressurePa: g.overpressure === undefined ? undefined : q('overpressure', g.overpressure),
+    };
+  });
+  const cylinders = lab.cylinders.map((c, i): GasSource => {
+    unique(c.id, ['cylinders', i, 'id']);
+    const where = w(['cylinders', i], `cylinders[${i}]`);
+    const supply = c.supply_pressure === undefined ? undefined : parseQuantity(c.supply_pressure, 'pressure', w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`));
+    if ('composition' in c) {
+      const comp = parseBlend(c.composition, where);
+      return at(where, () => premix({ id: c.id, label: c.label, composition: comp, supplyPressurePa: supply }));
+    }
+    const species = at(where, () => getSpecies(c.species).key);
+    const impurities = c.impurities ? parseBlend(c.impurities, w(['cylinders', i, 'impurities'], `cylinders[${i}].impurities`)) : undefined;
+    return at(where, () =>
+      pureCylinder({ id: c.id, label: c.label, species, purity: c.purity, impurities, kind: c.vapour ? 'vapour' : 'cylinder', supplyPressurePa: supply }),
+    );
+  });
+  const baroPa = lab.barometer ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure')) : 101325;
+  const baroU = lab.barometer ? parseQuantity(lab.barometer.uncertainty, 'pressure', w(['barometer', 'uncertainty'], 'barometer.uncertainty')) : 100;
+  return { name: lab.name, origin: file ?? DEMO_LAB_NAME, file: lab, barometricPa: baroPa, barometricUncertaintyPa: baroU, air, tanks, gauges, cylinders };
+}
+
+/** a recipe with, for every field, where it came from */
+export interface RecipeSource {
+  readonly recipe: RecipeFile;
+  readonly locate: Locate;
+  /** directory that relative paths in the recipe are resolved against */
+  readonly baseDir: string;
+  readonly origin: string;
+}
+
+export function readRecipe(file: string): RecipeSource {
+  const src = readYamlFile(file);
+  const recipe = validate(recipeSchema, src, (p) => keysAt(recipeSchema, p));
+  return { recipe, locate: (p) => src.locate(p), baseDir: dirname(resolvePath(file)), origin: file };
+}
+
+export function validateRecipeObject(data: unknown, origin: string, locate: Locate): RecipeFile {
+  const src: YamlSource = { file: origin, data, locate };
+  return validate(recipeSchema, src, (p) => keysAt(recipeSchema, p));
+}
+
+export interface PlanRequest {
+  readonly input: PlanInput;
+  readonly lab: LoadedLab;
+  readonly recipe: RecipeFile;
+  /** the order was recommended by the tool, not given */
+  readonly orderRecommended: boolean;
+}
+
+export interface Overrides {
+  readonly barometricPa?: number;
+}
+
+/** Build the core's plan input from a recipe (file or options) and its lab profile. */
+export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, overrides: Overrides = {}): PlanRequest {
+  const r = rs.recipe;
+  const W = (path: DataPath, field = path.join('.')): Where => ({ ...rs.locate(path), field: rs.locate(path).field ?? field });
+  const lab = loadLab(labFileOverride ?? (r.lab ? resolvePath(rs.baseDir, r.lab) : undefined));
+
+  // tank and volume
+  let tank: TankSpec | undefined;
+  if (r.tank !== undefined) {
+    tank = lab.tanks.find((t) => t.id === r.tank);
+    if (!tank) fail({ code: 'unknown-reference', kind: 'tank', id: r.tank, choices: lab.tanks.map((t) => t.id) }, W(['tank']));
+  }
+  if (r.volume !== undefined) {
+    const volumeM3 = parseQuantity(r.volume, 'volume', W(['volume']));
+    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: volumeM3 }, W(['volume']));
+    tank = tank ? { ...tank, volumeM3 } : { id: 'tank', label: 'tank of the given volume (no rating known)', volumeM3 };
+  }
+  if (!tank) fail({ code: 'design-missing', reason: `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) or give a volume` }, W(['tank'], 'tank'));
+
+  const pressurePa = parseQuantity(r.pressure, 'pressure', W(['pressure']));
+  if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa }, W(['pressure']));
+  const temperatureK = parseQuantity(r.temperature, 'temperature', W(['temperature']));
+  if (!(temperatureK > 0)) fail({ code: 'not-positive', what: 'absolute temperature', value: temperatureK }, W(['temperature']));
+
+  // design
+  const m = r.mixture;
+  let designInput: DesignInput;
+  if ('fractions' in m) {
+    designInput = { kind: 'fractions', fractions: parseBlend(m.fractions, W(['mixture', 'fractions'])) };
+  } else {
+    const bases = (['dilution', 'diluent_ratio', 'fuel_fraction'] as const).filter((k) => m[k] !== undefined);
+    if (bases.length > 1) fail({ code: 'design-conflict', reason: `give only one of dilution, diluent_ratio, fuel_fraction (got ${bases.join(' and ')})` }, W(['mixture', bases[1]]));
+    const diluent = m.diluent === undefined ? {} : parseBlend(m.diluent, W(['mixture', 'diluent']));
+    const basisKey = bases[0];
+    const basis =
+      basisKey === 'diluent_ratio'
+        ? ({ kind: 'diluent-ratio', value: m.diluent_ratio! } as const)
+        : basisKey === 'fuel_fraction'
+          ? ({ kind: 'fuel-fraction', value: m.fuel_fraction! } as const)
+          : ({ kind: 'dilution', value: m.dilution ?? 0 } as const);
+    if (!basisKey && Object.keys(diluent).length > 0) {
+      fail({ code: 'design-missing', reason: 'a diluent is named but not how much: give dilution, diluent_ratio or fuel_fraction' }, W(['mixture', 'diluent']));
+    }
+    designInput = {
+      kind: 'phi',
+      fuel: parseBlend(m.fuel, W(['mixture', 'fuel'])),
+      oxidizer: parseBlend(m.oxidizer, W(['mixture', 'oxidizer']), lab.air),
+      diluent,
+      phi: m.phi,
+      basis,
+    };
+  }
+  const design = at(W(['mixture']), () => designMixture(designInput));
+
+  // sources
+  let sources: GasSource[];
+  if (r.sources) {
+    sources = r.sources.map((id, i) => {
+      const c = lab.cylinders.find((x) => x.id === id);
+      if (!c) fail({ code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) }, W(['sources', i], `sources[${i}]`));
+      return c;
+    });
+  } else {
+    sources = chooseSources(design.composition, lab.cylinders);
+  }
+  let orderReason: string;
+  let orderRecommended = false;
+  if (r.order) {
+    sources = at(W(['order']), () => orderSources(sources, r.order!, resolveSpeciesKey));
+    orderReason = 'as given';
+  } else {
+    const rec = recommendOrder(sources, design.composition);
+    sources = rec.sources;
+    orderReason = rec.reason;
+    orderRecommended = true;
+  }
+
+  let inTank: PlanInput['inTank'];
+  if (r.in_tank) {
+    inTank = {
+      composition: parseBlend(r.in_tank.composition, W(['in_tank', 'composition'])),
+      pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure'])),
+    };
+  }
+  const tolerance = { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 };
+  const input: PlanInput = {
+    design,
+    finalPressurePa: pressurePa,
+    temperatureK,
+    tank,
+    sources,
+    orderReason,
+    inTank,
+    gauges: lab.gauges,
+    reading: { barometricPa: overrides.barometricPa ?? lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa },
+    tolerance,
+  };
+  return { input, lab, recipe: r, orderRecommended };
+}

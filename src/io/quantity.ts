@@ -1,0 +1,90 @@
+/**
+ * Quantities at the edge: "1500 Torr", "22 degC", "30 L" parsed with mathjs
+ * units into SI numbers. Torr and psi are redefined exactly on our own mathjs
+ * instance (mathjs' torr is the rounded mmHg, 133.322 Pa; its psi is off by 6e-11).
+ */
+import { create, all, type Unit } from 'mathjs';
+import { fail, type Where } from '../core/problems.js';
+
+const math = create(all, {});
+// 1 Torr = 1/760 atm exactly; 1 psi = 1 lbf/in^2 exactly (0.45359237 kg x 9.80665 m/s^2 / 0.0254^2 m^2)
+math.createUnit({ torr: { definition: '0.001315789473684210526315789 atm', aliases: ['Torr'] } }, { override: true });
+math.createUnit({ psi: { definition: '1 lbf/in^2' } }, { override: true });
+math.createUnit({ mTorr: { definition: '0.001 torr', aliases: ['mtorr'] } }, { override: true });
+math.createUnit({ kTorr: { definition: '1000 torr', aliases: ['ktorr'] } }, { override: true });
+
+export type Dimension = 'pressure' | 'volume' | 'temperature' | 'pressure rate' | 'time' | 'mass';
+
+const SI: Record<Dimension, string> = {
+  pressure: 'Pa',
+  volume: 'm^3',
+  temperature: 'K',
+  'pressure rate': 'Pa/s',
+  time: 's',
+  mass: 'kg',
+};
+
+const PROBES: readonly Dimension[] = ['pressure', 'volume', 'temperature', 'pressure rate', 'time', 'mass'];
+
+function dimensionOf(u: Unit): string {
+  for (const d of PROBES) if (u.equalBase(math.unit(SI[d]))) return d;
+  return `quantity in ${u.formatUnits() || 'no unit'}`;
+}
+
+/**
+ * Parse "<number> <unit>" into the SI value of the expected dimension.
+ * A bare number is refused: a pressure without a unit is the classic wrong-target error.
+ */
+export function parseQuantity(text: string | number, expected: Dimension, where: Where = {}): number {
+  if (typeof text === 'number') {
+    return fail({ code: 'bad-quantity', text: String(text), expected, reason: 'a unit is required' }, where);
+  }
+  const s = text.trim();
+  if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
+    return fail({ code: 'bad-quantity', text: s, expected, reason: /^[-+]?[\d.]+([eE][-+]?\d+)?$/.test(s) ? 'a unit is required' : 'not a number followed by a unit' }, where);
+  }
+  let u: Unit;
+  try {
+    u = math.unit(s);
+  } catch (e) {
+    return fail({ code: 'bad-quantity', text: s, expected, reason: (e as Error).message.replace(/^Error: /, '') }, where);
+  }
+  if (!u.equalBase(math.unit(SI[expected]))) {
+    return fail({ code: 'wrong-dimension', text: s, expected, got: dimensionOf(u) }, where);
+  }
+  const v = u.toNumber(SI[expected]);
+  if (!Number.isFinite(v)) return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a finite number' }, where);
+  return v;
+}
+
+/** the display units a user may choose with --units */
+export const PRESSURE_UNITS = ['Torr', 'kPa', 'bar', 'psi', 'mbar', 'Pa', 'atm'] as const;
+export type PressureUnit = (typeof PRESSURE_UNITS)[number];
+
+const PA_PER: Record<PressureUnit, number> = {
+  Torr: 101325 / 760,
+  kPa: 1000,
+  bar: 1e5,
+  psi: (0.45359237 * 9.80665) / (0.0254 * 0.0254), // lb x g_n / in^2, all exact
+  mbar: 100,
+  Pa: 1,
+  atm: 101325,
+};
+
+export function isPressureUnit(u: string): u is PressureUnit {
+  return (PRESSURE_UNITS as readonly string[]).includes(u);
+}
+
+export function paPerUnit(unit: PressureUnit): number {
+  return PA_PER[unit];
+}
+
+/** convert Pa to a display unit; plain arithmetic, no mathjs on the hot path */
+export function fromPa(pa: number, unit: PressureUnit): number {
+  return pa / PA_PER[unit];
+}
+
+/** convert a value in unit to SI through mathjs (tests compare this path against fromPa) */
+export function toSI(value: number, unit: string): number {
+  return math.unit(value, unit).toSI().toNumber();
+}

@@ -1,0 +1,64 @@
+/**
+ * The recipe file (YAML): one mixture design and how to fill it. Validated with
+ * zod; `mixwright schema recipe` prints the JSON Schema for editors.
+ */
+import { z } from 'zod';
+
+const quantity = (what: string, example: string) =>
+  z.string().describe(`${what}: a number and a unit, e.g. "${example}"`);
+
+/** "CH4", "CH4:0.8,C2H6:0.2" or { CH4: 0.8, C2H6: 0.2 } */
+export const blendSchema = z
+  .union([z.string().min(1), z.record(z.string(), z.number().min(0).max(1))])
+  .describe('one species ("Ar"), a list "Ar:0.5,He:0.5", or a map { Ar: 0.5, He: 0.5 } of fractions that sum to 1');
+
+const phiDesign = z
+  .object({
+    fuel: blendSchema,
+    oxidizer: blendSchema.describe('O2, air (composition from the lab profile), or a blend such as "O2:0.21,N2:0.79"'),
+    diluent: blendSchema.optional(),
+    phi: z.number().describe('equivalence ratio, > 0'),
+    dilution: z.number().optional().describe('diluent mole fraction of the final mixture, in [0, 1)'),
+    diluent_ratio: z.number().optional().describe('mol diluent per mol O2 (O2-equivalent for N2O or NO)'),
+    fuel_fraction: z.number().optional().describe('total fuel mole fraction, in (0, 1)'),
+  })
+  .strict();
+
+const fractionsDesign = z
+  .object({
+    fractions: z.record(z.string(), z.number().min(0).max(1)).describe('explicit mole fractions that sum to 1'),
+  })
+  .strict();
+
+export const recipeSchema = z
+  .object({
+    id: z.string().min(1).describe('short identifier of the design, used in batch ids and file names'),
+    title: z.string().optional(),
+    notes: z.string().optional(),
+    lab: z.string().optional().describe('path of the lab profile (YAML), relative to this recipe; the embedded demo lab if absent'),
+    tank: z.string().optional().describe('tank id from the lab profile'),
+    volume: quantity('tank volume, if no tank is named or to override it', '10 L').optional(),
+    mixture: z.union([phiDesign, fractionsDesign]),
+    pressure: quantity('final tank pressure, absolute', '1000 Torr'),
+    temperature: quantity('tank temperature during the fill', '22 degC'),
+    order: z.array(z.string()).optional().describe('fill order: species or cylinder ids, each fill once'),
+    sources: z.array(z.string()).optional().describe('cylinder ids from the lab profile to fill from'),
+    in_tank: z
+      .object({
+        composition: blendSchema,
+        pressure: quantity('pressure of the gas already in the tank, absolute', '120 Torr'),
+      })
+      .strict()
+      .optional()
+      .describe('gas already in the tank (topping up an earlier batch)'),
+    tolerance: z
+      .object({
+        relative: z.number().min(0).max(0.5).optional().describe('allowed relative deviation of each mole fraction; default 0.005'),
+        absolute: z.number().min(0).max(0.1).optional().describe('floor on the allowed absolute deviation of a mole fraction; default 0'),
+      })
+      .strict()
+      .optional(),
+  })
+  .strict();
+
+export type RecipeFile = z.infer<typeof recipeSchema>;

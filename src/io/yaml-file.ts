@@ -1,0 +1,55 @@
+/** Read a YAML file and keep the way back from a data path to its line and column. */
+import { readFileSync } from 'node:fs';
+import { LineCounter, parseDocument, isMap, isScalar, type Document } from 'yaml';
+import { fail, type Where } from '../core/problems.js';
+
+export type DataPath = readonly (string | number)[];
+
+export interface YamlSource {
+  readonly file: string;
+  readonly data: unknown;
+  /** line/column of the node at path (or of the nearest existing parent) */
+  locate(path: DataPath, key?: string): Where;
+}
+
+export function parseYamlText(text: string, file: string): YamlSource {
+  const lineCounter = new LineCounter();
+  const doc: Document = parseDocument(text, { lineCounter, prettyErrors: false, uniqueKeys: true });
+  if (doc.errors.length) {
+    const e = doc.errors[0];
+    const pos = lineCounter.linePos(e.pos[0]);
+    fail({ code: 'yaml-syntax', reason: e.message.split('\n')[0] }, { file, line: pos.line, column: pos.col });
+  }
+  const data = doc.toJS();
+  const locate = (path: DataPath, key?: string): Where => {
+    for (let n = path.length; n >= 0; n--) {
+      const node = doc.getIn(path.slice(0, n), true) as { range?: [number, number, number] } | undefined;
+      if (n === path.length && key !== undefined && isMap(node)) {
+        const pair = node.items.find((p) => isScalar(p.key) && p.key.value === key);
+        const r = (pair?.key as { range?: [number, number, number] } | undefined)?.range;
+        if (r) {
+          const pos = lineCounter.linePos(r[0]);
+          return { file, line: pos.line, column: pos.col };
+        }
+      }
+      if (node && node.range) {
+        const pos = lineCounter.linePos(node.range[0]);
+        return { file, line: pos.line, column: pos.col };
+      }
+      if (n === 0) break;
+    }
+    return { file };
+  };
+  return { file, data, locate };
+}
+
+export function readYamlFile(file: string): YamlSource {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (e) {
+    const err = e as NodeJS.ErrnoException;
+    return fail({ code: 'file-unreadable', reason: err.code === 'ENOENT' ? 'no such file' : err.message }, { file });
+  }
+  return parseYamlText(text, file);
+}

@@ -1,0 +1,34 @@
+/** Number and pressure formatting shared by every renderer. */
+import { fromPa, type PressureUnit } from '../io/quantity.js';
+
+/** a fixed number of decimals that keeps about `sig` significant digits */
+export function fixedSig(v: number, sig = 6): string {
+  if (v === 0 || !Number.isFinite(v)) return String(v);
+  const mag = Math.floor(Math.log10(Math.abs(v)));
+  const decimals = Math.min(10, Math.max(0, sig - 1 - mag));
+  return v.toFixed(decimals);
+}
+
+/** decimals that a display resolution supports: 0.01 -> 2 */
+export function decimalsFor(resolution: number): number {
+  if (!(resolution > 0)) return 3;
+  return Math.max(0, Math.min(8, Math.ceil(-Math.log10(resolution) - 1e-9)));
+}
+
+export function pressure(pa: number, unit: PressureUnit, sig = 6): string {
+  return `${fixedSig(fromPa(pa, unit), sig)} ${unit}`;
+}
+
+export function signed(v: string): string {
+  return v.startsWith('-') ? v : `+${v}`;
+}
+
+export function padTable(rows: readonly (readonly string[])[], rightAlign: readonly boolean[]): string[] {
+  const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
+  return rows.map((r) =>
+    r
+      .map((cell, c) => (rightAlign[c] ? cell.padStart(widths[c]) : cell.padEnd(widths[c])))
+      .join('  ')
+      .trimEnd(),
+  );
+}

@@ -1,0 +1,73 @@
+/** plan --json: one object, SI units in the key names (the contract other tools read). */
+import { describeFinding, STANDING_CAUTION, type Plan } from '../core/index.js';
+import { pressure } from './format.js';
+import type { PressureUnit } from '../io/quantity.js';
+
+export interface PlanMeta {
+  readonly recipeId: string;
+  readonly labName: string;
+  readonly orderRecommended: boolean;
+  readonly version: string;
+}
+
+export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Torr'): object {
+  const fmt = (pa: number) => pressure(pa, unit);
+  return {
+    tool: 'mixwright',
+    version: meta.version,
+    kind: 'plan',
+    recipe: meta.recipeId,
+    lab: meta.labName,
+    mixture: {
+      composition: plan.design.composition,
+      phi: plan.design.phi ?? null,
+      fuel_fraction: plan.design.fuelFraction,
+      oxidizer_fraction: plan.design.oxidizerFraction,
+      diluent_fraction: plan.design.diluentFraction,
+      stoich_O2_per_fuel: plan.design.stoichO2PerFuel ?? null,
+      fuel: plan.design.groups.fuel,
+      oxidizer: plan.design.groups.oxidizer,
+      diluent: plan.design.groups.diluent,
+      filled_composition: plan.composition,
+      unidentified_fraction: plan.unidentifiedFraction,
+    },
+    tank: { id: plan.tank.id, label: plan.tank.label, volume_m3: plan.tank.volumeM3, rated_pressure_Pa: plan.tank.ratedPressurePa ?? null },
+    initial: plan.initial ? { pressure_Pa: plan.initial.pressurePa, amount_mol: plan.initial.amountMol, composition: plan.initial.composition } : null,
+    final: {
+      pressure_Pa: plan.final.pressurePa,
+      temperature_K: plan.final.temperatureK,
+      compressibility: plan.final.compressibility,
+      amount_mol: plan.final.amountMol,
+      ideal_amount_mol: plan.final.idealAmountMol,
+      density_mol_per_m3: plan.final.densityMolPerM3,
+      B_mix_m3_per_mol: plan.final.bMixM3PerMol,
+      C_mix_m6_per_mol2: plan.final.cMixM6PerMol2,
+    },
+    order: { fills: plan.steps.map((s) => s.species), reason: plan.orderReason, recommended: meta.orderRecommended },
+    tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
+    steps: plan.steps.map((s) => ({
+      step: s.index,
+      species: s.species,
+      source: s.source.id,
+      source_kind: s.source.kind,
+      target_Pa: s.targetPa,
+      increment_Pa: s.incrementPa,
+      amount_mol: s.amountMol,
+      mass_kg: s.massKg,
+      ideal_target_Pa: s.idealTargetPa,
+      real_minus_ideal_Pa: s.targetPa - s.idealTargetPa,
+      band_Pa: s.bandPa,
+      compressibility: s.compressibilityAfter,
+      composition_after: s.compositionAfter,
+      gauge: s.gauge?.id ?? null,
+      gauge_reference: s.gauge?.reference ?? null,
+      gauge_reading_Pa: s.gauge?.readingPa ?? null,
+      gauge_unit: s.gauge?.unit ?? null,
+      gauge_u_Pa: s.gauge?.uncertaintyPa ?? null,
+      isolate_before: s.isolateBefore.map((g) => g.id),
+    })),
+    virial: plan.virial.entries.map((e) => ({ i: e.i, j: e.j, B_m3_per_mol: e.valueM3PerMol, method: e.method, source: e.source })),
+    findings: plan.findings.map((f) => ({ ...f, step: f.step ?? null, message: describeFinding(f, fmt) })),
+    caution: STANDING_CAUTION,
+  };
+}

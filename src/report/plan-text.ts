@@ -1,0 +1,84 @@
+/** The plan as a readable table for the terminal. */
+import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../core/index.js';
+import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import { decimalsFor, fixedSig, padTable, pressure, signed } from './format.js';
+import type { PlanMeta } from './plan-json.js';
+
+function formatFractions(x: Readonly<Record<string, number>>): string {
+  return Object.entries(x)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, v]) => `${k} ${fixedSig(v, 6)}`)
+    .join('  ');
+}
+
+const SEVERITY_LABEL: Record<Severity, string> = { danger: 'DANGER ', warning: 'warning', note: 'note   ' };
+
+export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
+  const out: string[] = [];
+  const P = (pa: number, sig = 6) => pressure(pa, unit, sig);
+  const d = plan.design;
+  out.push(`Fill plan  ${meta.recipeId}   (lab: ${meta.labName})`);
+  out.push('');
+  const phi = d.phi === undefined ? 'n/a' : d.phi.toFixed(4);
+  out.push(`Design      phi ${phi}   fuel ${fixedSig(d.fuelFraction, 5)}   oxidizer ${fixedSig(d.oxidizerFraction, 5)}   diluent ${fixedSig(d.diluentFraction, 5)}`);
+  out.push(`            ${formatFractions(d.composition)}`);
+  const t = plan.tank;
+  const rating = t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${t.workingFraction && t.workingFraction < 1 ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}` : ''}`;
+  out.push(`Tank        ${t.id}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`);
+  out.push(`Final       ${P(plan.final.pressurePa)} absolute at ${plan.final.temperatureK.toFixed(2)} K (${(plan.final.temperatureK - 273.15).toFixed(2)} degC)`);
+  out.push(`            Z = ${plan.final.compressibility.toFixed(6)}, ${fixedSig(plan.final.amountMol, 6)} mol (an ideal gas would need ${fixedSig(plan.final.idealAmountMol, 6)} mol)`);
+  if (plan.initial) out.push(`In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} (${fixedSig(plan.initial.amountMol, 5)} mol)`);
+  out.push(`Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${meta.orderRecommended ? 'recommended: ' : ''}${plan.orderReason})`);
+  out.push(`Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} % relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`);
+  out.push('');
+
+  const header = ['#', 'fill', 'from', 'gauge', 'read on gauge', 'band +-', `target (${unit} abs)`, 'increment', 'amount mol', 'mass g', 'ideal-gas plan', 'real-ideal'];
+  const rows: string[][] = [header];
+  for (const s of plan.steps) {
+    let reading = 'NO GAUGE';
+    let band = fixedSig(fromPa(s.bandPa, unit), 3);
+    if (s.gauge) {
+      const gu = isPressureUnit(s.gauge.unit) ? s.gauge.unit : unit;
+      const res = fromPa(s.gauge.resolutionPa, gu);
+      const dec = decimalsFor(res);
+      reading = `${fromPa(s.gauge.readingPa, gu).toFixed(dec)} ${gu}${s.gauge.reference === 'gauge' ? ' g' : ''}`;
+      band = `${fromPa(s.bandPa, gu).toFixed(dec)} ${gu}`;
+    }
+    rows.push([
+      String(s.index),
+      s.species,
+      s.source.id,
+      s.gauge?.id ?? '-',
+      reading,
+      band,
+      fixedSig(fromPa(s.targetPa, unit), 7),
+      fixedSig(fromPa(s.incrementPa, unit), 6),
+      fixedSig(s.amountMol, 5),
+      fixedSig(s.massKg * 1000, 4),
+      fixedSig(fromPa(s.idealTargetPa, unit), 7),
+      signed(fixedSig(fromPa(s.targetPa - s.idealTargetPa, unit), 3)),
+    ]);
+  }
+  out.push(...padTable(rows, [true, false, false, false, true, true, true, true, true, true, true, true]));
+  out.push('');
+  for (const s of plan.steps) {
+    for (const g of s.isolateBefore) {
+      out.push(`Before fill ${s.index}: close off ${g.id} (${g.label}); it reads only up to ${P(g.topPa, 4)} absolute.`);
+    }
+  }
+  out.push('');
+  out.push(`Filled composition (with cylinder impurities):`);
+  out.push(`            ${formatFractions(plan.composition)}${plan.unidentifiedFraction > 0 ? `   + unidentified ${fixedSig(plan.unidentifiedFraction * 1e6, 3)} ppm` : ''}`);
+  out.push('');
+  if (plan.findings.length) {
+    out.push('Findings');
+    const order: Severity[] = ['danger', 'warning', 'note'];
+    const sorted = [...plan.findings].sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
+    for (const f of sorted) {
+      out.push(`  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${describeFinding(f, (pa) => P(pa, 5))}`);
+    }
+    out.push('');
+  }
+  out.push(`Caution: ${STANDING_CAUTION}`);
+  return out.join('\n') + '\n';
+}

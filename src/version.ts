@@ -1,0 +1,2 @@
+/** kept equal to package.json's version by a test */
+export const VERSION = '0.1.0';
