@@ -29,7 +29,7 @@ export interface VirialModel {
   readonly species: readonly string[];
   /** B[i][j], m3/mol, symmetric */
   readonly B: readonly (readonly number[])[];
-  /** pure C_ii, m6/mol2; 0 where no reference value is used */
+  /** pure C_ii, m6/mol2; 0 where no reference value is used (polar species, untabulated species) */
   readonly C: readonly number[];
   readonly entries: readonly VirialEntry[];
 }
@@ -67,7 +67,9 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
       entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: v, method: 'combining-rule', source: 'prausnitz-1999' });
     }
   }
-  const C = records.map((r) => referenceC(r.key, temperatureK) ?? 0);
+  // C enters only for non-polar species: the polar ones (H2O, NH3, alcohols, DME) have zero-density C
+  // of order -1e6 cm6/mol2, which the cube-root rule would spread over the whole mixture
+  const C = records.map((r) => (r.polarClass === 'nonpolar' ? (referenceC(r.key, temperatureK) ?? 0) : 0));
   return { temperatureK, species: records.map((r) => r.key), B, C, entries };
 }
 

@@ -18,14 +18,6 @@ const entries = table.species as Record<string, TableEntry>;
 export const VIRIAL_TABLE_RANGE_K = { min: temperatures[0], max: temperatures[temperatures.length - 1] } as const;
 export const VIRIAL_TABLE_LIBRARY: string = table.library;
 
-/**
- * Species whose reference C(T) is used. The zero-density C of the reference EOS is
- * smooth and positive for the simple gases only; for polar and heavy species it
- * swings in sign across 230-480 K, so it is left out there (their mixture share
- * at lab pressures is small).
- */
-const C_SPECIES = new Set(['H2', 'He', 'Ne', 'Ar', 'Kr', 'Xe', 'N2', 'O2', 'CO', 'CO2', 'CH4']);
-
 function interpolate(values: readonly number[], temperatureK: number): number {
   const x = 1 / temperatureK;
   const n = temperatures.length;
@@ -64,9 +56,9 @@ export function referenceB(key: string, temperatureK: number): number | undefine
   return interpolate(e.B, temperatureK) * 1e-6; // cm3/mol -> m3/mol
 }
 
-/** Reference C of a pure simple gas, m6/mol2, or undefined (see C_SPECIES). */
+/** Reference C of a pure species, m6/mol2, or undefined when not tabulated at T. */
 export function referenceC(key: string, temperatureK: number): number | undefined {
   const e = entries[key];
-  if (!e || !C_SPECIES.has(key) || !inRange(temperatureK)) return undefined;
+  if (!e || !inRange(temperatureK)) return undefined;
   return interpolate(e.C, temperatureK) * 1e-12; // cm6/mol2 -> m6/mol2
 }

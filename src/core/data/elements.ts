@@ -22,7 +22,7 @@ export const ELEMENTS: ReadonlyMap<string, ElementRecord> = new Map(
       ['Cl', 35.45, 'iupac-2021'],
       ['Ar', 39.95, 'iupac-2021'],
       ['Kr', 83.798, 'iupac-2021'],
-      ['Xe', 131.29, 'iupac-2021'],
+      ['Xe', 131.293, 'iupac-2021'],
     ] as const
   ).map(([symbol, atomicWeight, source]) => [symbol, { symbol, atomicWeight, source }]),
 );

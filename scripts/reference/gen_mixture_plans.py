@@ -1,0 +1,60 @@
+"""Generate tests/fixtures/reference/mixture-plans-coolprop.json: cumulative fill
+readings computed with the CoolProp HEOS multi-fluid mixture model (GERG-2008-type
+departure functions) for a few fill designs, as an outside reference for the
+planner's real-gas targets and for the re-check of logged readings.
+
+Run:  .venv-ref/bin/python scripts/reference/gen_mixture_plans.py
+"""
+import json
+import CoolProp
+import CoolProp.CoolProp as CP
+
+NAMES = {"CH4": "Methane", "O2": "Oxygen", "Ar": "Argon", "N2": "Nitrogen", "He": "Helium",
+         "H2": "Hydrogen", "CO2": "CarbonDioxide", "C3H8": "Propane", "C2H6": "Ethane"}
+TORR = 101325.0 / 760.0
+
+CASES = [
+    {"id": "ch4-o2-ar-1000torr", "x": {"CH4": 0.05, "O2": 0.10, "Ar": 0.85}, "order": ["CH4", "O2", "Ar"], "T": 298.15, "P": 1000 * TORR},
+    {"id": "h2-o2-ar-1500torr", "x": {"H2": 0.04, "O2": 0.02, "Ar": 0.94}, "order": ["H2", "O2", "Ar"], "T": 295.15, "P": 1500 * TORR},
+    {"id": "ch4-air-3bar", "x": {"CH4": 0.0950226, "O2": 0.1900452, "N2": 0.7149322}, "order": ["CH4", "O2", "N2"], "T": 296.15, "P": 3.0e5},
+    {"id": "c3h8-o2-n2-2bar", "x": {"C3H8": 0.02, "O2": 0.10, "N2": 0.88}, "order": ["C3H8", "O2", "N2"], "T": 298.15, "P": 2.0e5},
+    {"id": "ch4-o2-co2-ar-5bar", "x": {"CH4": 0.03, "O2": 0.06, "CO2": 0.20, "Ar": 0.71}, "order": ["CH4", "O2", "CO2", "Ar"], "T": 300.0, "P": 5.0e5},
+    {"id": "c2h6-o2-he-ar-4bar", "x": {"C2H6": 0.01, "O2": 0.035, "He": 0.20, "Ar": 0.755}, "order": ["C2H6", "O2", "He", "Ar"], "T": 298.15, "P": 4.0e5},
+]
+
+def state(x, rho, T):
+    keys = list(x)
+    st = CP.AbstractState("HEOS", "&".join(NAMES[k] for k in keys))
+    tot = sum(x.values())
+    st.set_mole_fractions([x[k] / tot for k in keys])
+    st.specify_phase(CP.iphase_gas)
+    st.update(CP.DmolarT_INPUTS, rho, T)
+    return st.p()
+
+def density_at(x, P, T):
+    keys = list(x)
+    st = CP.AbstractState("HEOS", "&".join(NAMES[k] for k in keys))
+    st.set_mole_fractions([x[k] for k in keys])
+    st.specify_phase(CP.iphase_gas)
+    st.update(CP.PT_INPUTS, P, T)
+    return st.rhomolar()
+
+out = {"generator": "scripts/reference/gen_mixture_plans.py",
+       "library": f"CoolProp {CoolProp.__version__} HEOS mixture model",
+       "note": "cumulative absolute readings after each fill of pure gases into an evacuated rigid tank at constant T; V cancels (amounts per m3)",
+       "cases": []}
+for c in CASES:
+    rho_f = density_at(c["x"], c["P"], c["T"])
+    cum = {}
+    readings = []
+    for sp in c["order"]:
+        cum[sp] = c["x"][sp]
+        frac = sum(cum.values())
+        rho = rho_f * frac
+        readings.append({"species": sp, "pressure_Pa": state(dict(cum), rho, c["T"]), "density_mol_per_m3": rho})
+    out["cases"].append({"id": c["id"], "composition": c["x"], "order": c["order"], "temperature_K": c["T"],
+                         "final_pressure_Pa": c["P"], "final_density_mol_per_m3": rho_f, "readings": readings})
+with open("tests/fixtures/reference/mixture-plans-coolprop.json", "w") as f:
+    json.dump(out, f, indent=1)
+    f.write("\n")
+print("ok", len(out["cases"]))

@@ -1,0 +1,21 @@
+import { readFileSync } from 'node:fs';
+import { createProgram } from '../src/cli/program.js';
+
+export function fixture<T = any>(name: string): T {
+  return JSON.parse(readFileSync(new URL(`./fixtures/reference/${name}`, import.meta.url), 'utf8')) as T;
+}
+
+export const TORR = 101325 / 760;
+
+/** run the CLI in-process; returns exit code and captured output */
+export async function runCli(argv: string[], isTTY = false): Promise<{ code: number; stdout: string; stderr: string }> {
+  let stdout = '';
+  let stderr = '';
+  const { run } = createProgram({
+    stdout: { write: (s: string) => (stdout += s) },
+    stderr: { write: (s: string) => (stderr += s) },
+    isTTY,
+  });
+  const code = await run(argv);
+  return { code, stdout, stderr };
+}
