@@ -1,6 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { createProgram } from '../src/cli/program.js';
 
+// fixtures are free-form JSON read by many tests; each test narrows what it reads
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export function fixture<T = any>(name: string): T {
   return JSON.parse(readFileSync(new URL(`./fixtures/reference/${name}`, import.meta.url), 'utf8')) as T;
 }

@@ -8,6 +8,7 @@ import {
   describeProblemAt,
   planFill,
   ProblemError,
+  relocate,
   worstSeverity,
 } from '../core/index.js';
 import { buildPlanRequest, readRecipe, validateRecipeObject, type Locate, type RecipeSource } from '../io/load.js';
@@ -51,7 +52,7 @@ interface PlanOptions {
   temperature?: string;
   order?: string;
   lab?: string;
-  units: string;
+  units?: string;
   barometer?: string;
   tolerance?: string;
 }
@@ -96,12 +97,15 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
     overridden.add(path);
   };
   const phiOptions = o.fuel ?? o.oxidizer ?? o.phi ?? o.diluent ?? o.dilution ?? o.diluentRatio ?? o.fuelFraction;
+  if (o.fractions !== undefined && phiOptions !== undefined) {
+    throw new ProblemError({ code: 'design-conflict', reason: 'give either --fractions, or --fuel/--oxidizer/--phi with one dilution measure, not both' }, { field: '--fractions' });
+  }
   if (o.fractions !== undefined) {
     r.mixture = {};
     set('mixture.fractions', o.fractions);
   } else if (phiOptions !== undefined) {
     const m = (r.mixture ?? {}) as Record<string, unknown>;
-    if ('fractions' in m) r.mixture = {};
+    r.mixture = 'fractions' in m ? {} : m;
     if (o.dilution ?? o.diluentRatio ?? o.fuelFraction) {
       const mm = r.mixture as Record<string, unknown>;
       delete mm.dilution;
@@ -184,14 +188,23 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
     .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
     .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings, e.g. "752.3 Torr"')
-    .addOption(new Option('--units <unit>', 'pressure unit of the table').choices([...PRESSURE_UNITS]).default('Torr'))
+    .addOption(new Option('--units <unit>', 'pressure unit of the table (default: the unit of the final pressure, else Torr)').choices([...PRESSURE_UNITS]))
     .action(async (recipeFile: string | undefined, o: PlanOptions) => {
       const base = recipeFile ? readRecipe(recipeFile) : undefined;
       const rs = mergeOptions(base, o);
       const barometricPa = o.barometer === undefined ? undefined : parseQuantity(o.barometer, 'pressure', { field: '--barometer' });
       const req = buildPlanRequest(rs, o.lab, { barometricPa });
-      const plan = planFill(req.input);
-      const unit: PressureUnit = isPressureUnit(o.units) ? o.units : 'Torr';
+      let plan;
+      try {
+        plan = planFill(req.input);
+      } catch (e) {
+        // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
+        if (e instanceof ProblemError && e.where.field) throw relocate(e, { ...rs.locate([e.where.field]), field: rs.locate([e.where.field]).field ?? e.where.field });
+        throw e;
+      }
+      // default: the unit the final pressure was given in, when it is one of ours; else Torr
+      const given = /[A-Za-z]+$/.exec(req.recipe.pressure.trim())?.[0] ?? '';
+      const unit: PressureUnit = o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
       const meta = { recipeId: req.recipe.id, labName: req.lab.name, orderRecommended: req.orderRecommended, version: VERSION };
       if (o.json) out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
       else out(planToText(plan, meta, unit));

@@ -12,7 +12,7 @@ export type { ElementRecord } from './data/elements.js';
 export { molarMassKgPerMol, oxygenDemand } from './formula.js';
 export { getSpecies, lookup, resolveSpeciesKey, speciesKeys, suggestSpecies, PROPERTY_NAMES } from './lookup.js';
 export type { PropertyName, PropertyValue } from './lookup.js';
-export { ProblemError, fail } from './problems.js';
+export { ProblemError, fail, relocate } from './problems.js';
 export type { Problem, ProblemCode, Where } from './problems.js';
 export { describeProblem, describeProblemAt, describeWhere } from './messages.js';
 export { designMixture, equivalenceRatio, isNormalised, speciesRole } from './composition.js';
@@ -29,7 +29,7 @@ export { allocate, chooseSources, orderSources, premix, pureCylinder } from './s
 export type { Allocation, GasSource, SourceKind } from './supply.js';
 export { canRead, chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, readingUncertaintyPa } from './gauges.js';
 export type { Gauge, GaugeReference, ReadingContext } from './gauges.js';
-export { planFill, recommendOrder } from './planner.js';
+export { fillLabel, planFill, recommendOrder } from './planner.js';
 export type { GaugeAssignment, Plan, PlanInput, PlanStep, TankSpec, Tolerance } from './planner.js';
 export { STANDING_CAUTION, describeFinding, worstSeverity } from './findings.js';
 export type { Finding, FindingCode, PressureFormatter, Severity } from './findings.js';

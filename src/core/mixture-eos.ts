@@ -6,6 +6,7 @@
  * Tsonopoulos; B_ij (i != j) from Tsonopoulos with the Prausnitz combining rules.
  */
 import { R } from './constants.js';
+import { fail } from './problems.js';
 import { getSpecies } from './lookup.js';
 import { referenceB, referenceC } from './virial-reference.js';
 import { correlationConstants, pairConstants, tsonopoulosB } from './virial.js';
@@ -127,9 +128,10 @@ export function densityFromPressure(pressurePa: number, temperatureK: number, B:
     rho -= step;
     if (Math.abs(step) <= 1e-14 * rho) return rho;
   }
-  throw new Error(
-    `the virial equation has no gas-phase solution at ${pressurePa} Pa and ${temperatureK} K (B = ${B}, C = ${C}); the state is outside the model's range`,
-  );
+  return fail({
+    code: 'model-range',
+    reason: `the virial equation has no gas-phase solution at ${pressurePa.toPrecision(6)} Pa and ${temperatureK.toFixed(2)} K (B = ${(B * 1e6).toPrecision(4)} cm3/mol); the state is outside the model's range - lower the pressure`,
+  });
 }
 
 /** Z = P/(rho R T) at the given density. */

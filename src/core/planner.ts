@@ -18,6 +18,11 @@ import { molarMassKgPerMol } from './formula.js';
 import type { Finding } from './findings.js';
 import { fail } from './problems.js';
 
+/** temperatures the virial model is used at (reference table 230-480 K, correlation beyond) */
+export const MODEL_T_RANGE_K = { min: 200, max: 600 } as const;
+/** beyond this departure from ideal gas the truncated virial series is not trusted */
+export const MAX_NON_IDEALITY = 0.05;
+
 export interface Tolerance {
   /** allowed relative deviation of each mole fraction (0.005 = 0.5 %) */
   readonly relative: number;
@@ -108,6 +113,16 @@ export interface Plan {
   readonly tolerance: Tolerance;
 }
 
+/** how a fill is named: its gas, or for a premix its major gases ("N2+O2") */
+export function fillLabel(s: GasSource): string {
+  if (s.kind !== 'premix') return s.mainSpecies;
+  return Object.entries(s.composition)
+    .filter(([, v]) => v >= 0.01)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k]) => k)
+    .join('+');
+}
+
 function eosComposition(parts: readonly { source: GasSource | Fractions; mol: number }[]): Record<string, number> {
   // for the equation of state a source's unidentified remainder is counted as its main gas
   const y: Record<string, number> = {};
@@ -147,6 +162,9 @@ export function planFill(input: PlanInput): Plan {
   if (!(T > 0)) fail({ code: 'not-positive', what: 'temperature', value: T }, { field: 'temperature' });
   if (!(tank.volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: tank.volumeM3 }, { field: 'volume' });
   if (sources.length === 0) fail({ code: 'design-missing', reason: 'the plan has no fills' });
+  if (T < MODEL_T_RANGE_K.min || T > MODEL_T_RANGE_K.max) {
+    fail({ code: 'model-range', reason: `a fill at ${T.toFixed(2)} K is outside the range the gas model is built for (${MODEL_T_RANGE_K.min}-${MODEL_T_RANGE_K.max} K); check the temperature and its unit` }, { field: 'temperature' });
+  }
   const V = tank.volumeM3;
 
   const speciesSet = new Set<string>();
@@ -183,6 +201,10 @@ export function planFill(input: PlanInput): Plan {
     N = next;
   }
   const totalMol = rhoF * V;
+  const zF = compressibility(rhoF, bMix(model, yFinal), cMix(model, yFinal));
+  if (Math.abs(1 - zF) > MAX_NON_IDEALITY) {
+    fail({ code: 'model-range', reason: `the finished batch would have Z = ${zF.toFixed(4)}; the truncated virial model is trusted only within ${MAX_NON_IDEALITY * 100} % of ideal gas. Lower the final pressure or plan this mixture with a full equation of state` }, { field: 'pressure' });
+  }
   const Bf = bMix(model, yFinal);
   const Cf = cMix(model, yFinal);
 
@@ -250,7 +272,7 @@ export function planFill(input: PlanInput): Plan {
       kind: 'fill' as const,
       index: stepNo,
       source: r.source,
-      species: r.source.mainSpecies,
+      species: fillLabel(r.source),
       targetPa: r.st.P,
       incrementPa: r.inc,
       amountMol: r.mol,
@@ -329,14 +351,11 @@ export function planFill(input: PlanInput): Plan {
  * resolution on a low-range gauge, and the large last fill sweeps the line into the tank).
  */
 export function recommendOrder(sources: readonly GasSource[], design: Fractions): { sources: GasSource[]; reason: string } {
-  const share = (s: GasSource) => {
-    let best = 0;
-    for (const [k, w] of Object.entries(s.composition)) if ((design[k] ?? 0) > 0 && w > 0) best = Math.max(best, design[k] / w);
-    return best;
-  };
-  const sorted = [...sources].sort((a, b) => share(a) - share(b));
+  // the amount each source delivers for one mole of batch (impurities do not distort the ranking)
+  const { amountsMol } = allocate(sources, design, 1);
+  const ranked = sources.map((s, i) => ({ s, n: amountsMol[i] })).sort((a, b) => a.n - b.n);
   return {
-    sources: sorted,
-    reason: 'smallest partial pressure first, bath gas last (best relative resolution for the small fills; the last, largest fill sweeps the line into the tank)',
+    sources: ranked.map((r) => r.s),
+    reason: 'smallest partial pressure first, largest last (best relative resolution for the small fills; the last, largest fill sweeps the line into the tank)',
   };
 }

@@ -52,6 +52,11 @@ export class ProblemError extends Error {
   }
 }
 
+/** the same problem at another place: file, line and field all from `where` */
+export function relocate(e: ProblemError, where: Where): ProblemError {
+  return new ProblemError(e.problem, { ...where, field: where.field ?? e.where.field });
+}
+
 function joinField(outer?: string, inner?: string): string | undefined {
   if (outer && inner) return inner.startsWith('--') ? inner : `${outer}.${inner}`;
   return inner ?? outer;

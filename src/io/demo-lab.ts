@@ -69,6 +69,12 @@ cylinders:
     purity: 0.9995
     impurities: { C2H6: 0.0003, CH4: 0.0001 }
     supply_pressure: 3 bar
+  - id: cyl-C2H6
+    label: ethane, grade 3.5
+    species: C2H6
+    purity: 0.9995
+    impurities: { C2H4: 0.0002, C3H8: 0.0001, CH4: 0.0001 }
+    supply_pressure: 3 bar
   - id: cyl-H2
     label: hydrogen, grade 5.0
     species: H2

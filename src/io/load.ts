@@ -3,7 +3,7 @@
  * recipe, parse quantities and blends, build the sources and the order.
  */
 import { dirname, resolve as resolvePath } from 'node:path';
-import { fail, ProblemError, type Where } from '../core/problems.js';
+import { fail, ProblemError, relocate, type Where } from '../core/problems.js';
 import {
   chooseSources,
   designMixture,
@@ -187,7 +187,7 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   const pressurePa = parseQuantity(r.pressure, 'pressure', W(['pressure']));
   if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa }, W(['pressure']));
   const temperatureK = parseQuantity(r.temperature, 'temperature', W(['temperature']));
-  if (!(temperatureK > 0)) fail({ code: 'not-positive', what: 'absolute temperature', value: temperatureK }, W(['temperature']));
+  if (!(temperatureK > 0)) fail({ code: 'out-of-range', what: `temperature "${r.temperature}" (${temperatureK.toFixed(2)} K)`, value: temperatureK, allowed: 'above absolute zero (0 K = -273.15 degC)' }, W(['temperature']));
 
   // design
   const m = r.mixture;
@@ -217,7 +217,14 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
       basis,
     };
   }
-  const design = at(W(['mixture']), () => designMixture(designInput));
+  let design;
+  try {
+    design = designMixture(designInput);
+  } catch (e) {
+    // the core names the design field (phi, dilution, fuel, ...): point at it in the recipe
+    if (e instanceof ProblemError) throw relocate(e, W(e.where.field ? ['mixture', e.where.field] : ['mixture']));
+    throw e;
+  }
 
   // sources
   let sources: GasSource[];
@@ -233,7 +240,12 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   let orderReason: string;
   let orderRecommended = false;
   if (r.order) {
-    sources = at(W(['order']), () => orderSources(sources, r.order!, resolveSpeciesKey));
+    try {
+      sources = orderSources(sources, r.order, resolveSpeciesKey);
+    } catch (e) {
+      if (e instanceof ProblemError) throw relocate(e, W(['order']));
+      throw e;
+    }
     orderReason = 'as given';
   } else {
     const rec = recommendOrder(sources, design.composition);

@@ -40,8 +40,11 @@ export function parseQuantity(text: string | number, expected: Dimension, where:
     return fail({ code: 'bad-quantity', text: String(text), expected, reason: 'a unit is required' }, where);
   }
   const s = text.trim();
+  if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
+    return fail({ code: 'bad-quantity', text: s, expected, reason: 'a unit is required' }, where);
+  }
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
-    return fail({ code: 'bad-quantity', text: s, expected, reason: /^[-+]?[\d.]+([eE][-+]?\d+)?$/.test(s) ? 'a unit is required' : 'not a number followed by a unit' }, where);
+    return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' }, where);
   }
   let u: Unit;
   try {

@@ -26,7 +26,7 @@ const phiDesign = z
 
 const fractionsDesign = z
   .object({
-    fractions: z.record(z.string(), z.number().min(0).max(1)).describe('explicit mole fractions that sum to 1'),
+    fractions: blendSchema.describe('explicit mole fractions that sum to 1: a map { CH4: 0.05, O2: 0.10, Ar: 0.85 } or a list "CH4:0.05,O2:0.10,Ar:0.85"'),
   })
   .strict();
 

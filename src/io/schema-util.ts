@@ -8,11 +8,27 @@ export function fieldName(path: readonly PropertyKey[]): string {
 }
 
 /** validate data against a schema; on failure raise one Problem naming the first issue's place */
+function depth(issues: readonly z.core.$ZodIssue[]): number {
+  const i = issues[0];
+  // an unknown key means the form was wrong, not that a field inside it was
+  return i.code === 'unrecognized_keys' ? 0 : i.path.length + 1;
+}
+
 export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt: (path: readonly PropertyKey[]) => readonly string[]): T {
   const r = schema.safeParse(src.data);
   if (r.success) return r.data;
-  const issue = r.error.issues[0];
-  const path = issue.path.filter((p): p is string | number => typeof p !== 'symbol');
+  let issue: z.core.$ZodIssue = r.error.issues[0];
+  let prefix: PropertyKey[] = [];
+  // a union (two forms of the mixture, a string or a map): follow the branch that got furthest
+  while (issue.code === 'invalid_union' && issue.errors.length) {
+    const branches = issue.errors.filter((b) => b.length > 0);
+    const best = branches.sort((a, b) => depth(b) - depth(a) || a.length - b.length)[0];
+    if (!best || depth(best) === 0) break;
+    prefix = [...prefix, ...issue.path];
+    issue = best[0];
+  }
+  const fullPath = [...prefix, ...issue.path];
+  const path = fullPath.filter((p): p is string | number => typeof p !== 'symbol');
   if (issue.code === 'unrecognized_keys') {
     const key = issue.keys[0];
     const where = src.locate(path, key);
@@ -22,6 +38,7 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
   const field = fieldName(path) || '(top level)';
   let reason = issue.message;
   if (issue.code === 'invalid_type' && reason.includes('received undefined')) reason = `the required field "${field}" is missing`;
+  else if (issue.code === 'invalid_union') reason = `${field} has neither accepted form; see \`mixwright schema recipe\``;
   return fail({ code: 'schema', reason }, { ...where, field });
 }
 

@@ -32,34 +32,37 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push(`Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} % relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`);
   out.push('');
 
-  const header = ['#', 'fill', 'from', 'gauge', 'read on gauge', 'band +-', `target (${unit} abs)`, 'increment', 'amount mol', 'mass g', 'ideal-gas plan', 'real-ideal'];
-  const rows: string[][] = [header];
+  // table 1: what the operator needs at the manifold; table 2: the numbers behind it
+  const rows: string[][] = [['#', 'fill', 'from', 'gauge', 'read on gauge', 'band +-', `target ${unit} abs`]];
   for (const s of plan.steps) {
     let reading = 'NO GAUGE';
-    let band = fixedSig(fromPa(s.bandPa, unit), 3);
+    let band = fixedSig(fromPa(s.bandPa, unit), 2);
     if (s.gauge) {
       const gu = isPressureUnit(s.gauge.unit) ? s.gauge.unit : unit;
-      const res = fromPa(s.gauge.resolutionPa, gu);
-      const dec = decimalsFor(res);
-      reading = `${fromPa(s.gauge.readingPa, gu).toFixed(dec)} ${gu}${s.gauge.reference === 'gauge' ? ' g' : ''}`;
-      band = `${fromPa(s.bandPa, gu).toFixed(dec)} ${gu}`;
+      const dec = decimalsFor(fromPa(s.gauge.resolutionPa, gu));
+      reading = `${fromPa(s.gauge.readingPa, gu).toFixed(dec)} ${gu}${s.gauge.reference === 'gauge' ? ' (gauge)' : ''}`;
+      const bandValue = fromPa(s.bandPa, gu);
+      const bandDec = Math.max(dec, decimalsFor(bandValue / 10));
+      band = `${bandValue.toFixed(bandDec)} ${gu}`;
     }
-    rows.push([
+    rows.push([String(s.index), s.species, s.source.id, s.gauge?.id ?? '-', reading, band, fixedSig(fromPa(s.targetPa, unit), 7)]);
+  }
+  out.push(...padTable(rows, [true, false, false, false, true, true, true]));
+  out.push('');
+  const rows2: string[][] = [['#', `increment ${unit}`, 'amount mol', 'mass g', 'Z after', `ideal-gas plan ${unit}`, 'real - ideal']];
+  for (const s of plan.steps) {
+    const diff = s.targetPa - s.idealTargetPa;
+    rows2.push([
       String(s.index),
-      s.species,
-      s.source.id,
-      s.gauge?.id ?? '-',
-      reading,
-      band,
-      fixedSig(fromPa(s.targetPa, unit), 7),
       fixedSig(fromPa(s.incrementPa, unit), 6),
       fixedSig(s.amountMol, 5),
       fixedSig(s.massKg * 1000, 4),
+      s.compressibilityAfter.toFixed(6),
       fixedSig(fromPa(s.idealTargetPa, unit), 7),
-      signed(fixedSig(fromPa(s.targetPa - s.idealTargetPa, unit), 3)),
+      Math.abs(diff) < 1e-9 * s.targetPa ? '0' : signed(fixedSig(fromPa(diff, unit), 3)),
     ]);
   }
-  out.push(...padTable(rows, [true, false, false, false, true, true, true, true, true, true, true, true]));
+  out.push(...padTable(rows2, [true, true, true, true, true, true, true]));
   out.push('');
   for (const s of plan.steps) {
     for (const g of s.isolateBefore) {

@@ -74,7 +74,7 @@ describe('stoichiometry and the equivalence ratio', () => {
         fc.double({ min: 0.05, max: 1, noNaN: true }),
         (f1, f2, share, phi, dilution, o2) => {
           const fuel = f1 === f2 ? { [f1]: 1 } : { [f1]: share, [f2]: 1 - share };
-          const ox = o2 === 1 ? { O2: 1 } : { O2: o2, N2: 1 - o2 };
+          const ox: Record<string, number> = o2 === 1 ? { O2: 1 } : { O2: o2, N2: 1 - o2 };
           const m = designMixture({ kind: 'phi', fuel, oxidizer: ox, diluent: { Ar: 1 }, phi, basis: { kind: 'dilution', value: dilution } });
           return isNormalised(m.composition, 1e-9) && Math.abs(equivalenceRatio(m.composition)! / phi - 1) < 1e-9;
         },

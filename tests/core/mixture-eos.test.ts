@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, R, virialModel } from '../../src/core/index.js';
+import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, ProblemError, R, virialModel } from '../../src/core/index.js';
 import { fixture } from '../helpers.js';
 
 describe('mixture equation of state', () => {
@@ -52,7 +52,7 @@ describe('mixture equation of state', () => {
   });
 
   it('refuses a state where the truncated series has no gas root, instead of returning a number', () => {
-    expect(() => densityFromPressure(5e6, 250, -2000e-6, 0)).toThrow(/no gas-phase solution/);
+    expect(() => densityFromPressure(5e6, 250, -2000e-6, 0)).toThrow(ProblemError);
   });
 
   it('example of the doc comment: CH4 at 2.6918 mol/m3, 298.15 K, B = -42.91 cm3/mol gives 50.038 Torr (properties.md 1.2)', () => {

@@ -83,7 +83,7 @@ describe('plan invariants', () => {
         fc.constantFrom(['CH4', 'O2', 'Ar'], ['Ar', 'O2', 'CH4'], ['O2', 'CH4', 'Ar']),
         (xf, xo, PTorr, T, order) => {
           const x = { CH4: xf, O2: xo, Ar: 1 - xf - xo };
-          const plan = planFill(pureInput(x, order, T, PTorr * TORR));
+          const plan = planFill(pureInput(x, [...order], T, PTorr * TORR));
           const p = plan.steps.map((s) => s.targetPa);
           return p.every((v, i) => i === 0 || v > p[i - 1]) && Math.abs(p[p.length - 1] / (PTorr * TORR) - 1) < 1e-12 && plan.steps.every((s) => s.incrementPa > 0 && s.bandPa > 0);
         },

@@ -1,0 +1,132 @@
+import { describe, expect, it } from 'vitest';
+import { runCli, fixture, TORR } from '../helpers.js';
+
+const worked = fixture('worked-plan.json');
+const INLINE = ['plan', '--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.85', '--volume', '10 L', '--pressure', '1000 Torr', '--temperature', '298.15 K', '--order', 'CH4,O2,Ar'];
+
+describe('mixwright plan', () => {
+  it('plans a demo recipe: exit 0, the real-gas targets, the caution', async () => {
+    const r = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml']);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toBe('');
+    expect(r.stdout).toContain('Fill plan  ch4-phi1-ar85');
+    expect(r.stdout).toMatch(/1\s+CH4\s+cyl-CH4\s+head-1kT\s+50\.04 Torr/);
+    expect(r.stdout).toContain('Caution: This plan is an engineering estimate');
+  });
+
+  it('inline options, --json: the BRIEF contract keys, targets of the worked vector (properties.md 1.2) within 0.01 Torr with the demo cylinders', async () => {
+    const r = await runCli([...INLINE, '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(Object.keys(j.mixture.composition).sort()).toEqual(['Ar', 'CH4', 'O2']);
+    expect(j.mixture.phi).toBeCloseTo(1, 12);
+    expect(j.final.pressure_Pa).toBeCloseTo(1000 * TORR, 6);
+    expect(j.final.temperature_K).toBe(298.15);
+    expect(j.final.compressibility).toBeGreaterThan(0.999);
+    expect(j.final.amount_mol).toBeGreaterThan(0.538);
+    expect(j.steps.map((s: { species: string }) => s.species)).toEqual(['CH4', 'O2', 'Ar']);
+    j.steps.forEach((s: { target_Pa: number; increment_Pa: number; amount_mol: number; gauge: string }, i: number) => {
+      expect(Math.abs(s.target_Pa / TORR - worked.targets_Torr[i])).toBeLessThan(0.01);
+      expect(s.increment_Pa).toBeGreaterThan(0);
+      expect(s.amount_mol).toBeGreaterThan(0);
+      expect(typeof s.gauge).toBe('string');
+    });
+    for (const f of j.findings) {
+      expect(['danger', 'warning', 'note']).toContain(f.severity);
+      expect(typeof f.code).toBe('string');
+      expect(typeof f.message).toBe('string');
+    }
+  });
+
+  it('--units bar shows the table in bar; the recipe unit is the default', async () => {
+    const r = await runCli(['plan', 'recipes/ng-blend-air.yaml']);
+    expect(r.stdout).toContain('target bar abs');
+    const t = await runCli([...INLINE, '--units', 'kPa']);
+    expect(t.stdout).toContain('target kPa abs');
+  });
+
+  it('a final pressure above the tank working limit plans but exits 3 (danger finding)', async () => {
+    const r = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--pressure', '4 bar']);
+    expect(r.code).toBe(3);
+    expect(r.stdout).toContain('tank-over-rating');
+  });
+});
+
+describe('bad input: exit 2, one message naming what and where, never a stack trace', () => {
+  const cases: [string, string[], string, RegExp][] = [
+    ['unknown species, with suggestions', [...INLINE.slice(0, 1), '--fuel', 'CH5', ...INLINE.slice(3)], 'unknown-species', /--fuel: unknown species "CH5"; did you mean CH4/],
+    ['phi <= 0 on the command line', [...INLINE.slice(0, 5), '--phi', '-1', ...INLINE.slice(7)], 'not-positive', /--phi: phi \(equivalence ratio\) must be greater than zero/],
+    ['dilution 1', [...INLINE.slice(0, 9), '--dilution', '1', ...INLINE.slice(11)], 'out-of-range', /--dilution: dilution .* outside the allowed range \[0, 1\)/],
+    ['a volume given as the pressure', [...INLINE.slice(0, 13), '--pressure', '30 L', ...INLINE.slice(15)], 'wrong-dimension', /--pressure: "30 L" is a volume, but a pressure is needed/],
+    ['a pressure without a unit', [...INLINE.slice(0, 13), '--pressure', '1000', ...INLINE.slice(15)], 'bad-quantity', /--pressure: cannot read "1000" as a pressure: a unit is required/],
+    ['negative volume', [...INLINE.slice(0, 11), '--volume', '-10 L', ...INLINE.slice(13)], 'not-positive', /--volume: tank volume must be greater than zero/],
+    ['zero pressure', [...INLINE.slice(0, 13), '--pressure', '0 Torr', ...INLINE.slice(15)], 'not-positive', /--pressure: final pressure must be greater than zero/],
+    ['an order that misses a gas', [...INLINE.slice(0, 17), '--order', 'CH4,O2'], 'order-missing', /--order: the fill order leaves out Ar/],
+    ['an order that repeats a gas', [...INLINE.slice(0, 17), '--order', 'CH4,O2,Ar,O2'], 'order-repeated', /--order: the fill order names O2 more than once/],
+    ['an order with a gas the mixture does not fill', [...INLINE.slice(0, 17), '--order', 'CH4,O2,He'], 'order-unknown', /--order: the fill order names He/],
+    ['a recipe with an unknown key: file, line and the allowed keys', ['plan', 'tests/cli/bad/unknown-key.yaml'], 'unknown-key', /unknown-key\.yaml:9:3 mixture\.dilutoin_ratio: unknown key "dilutoin_ratio"; allowed here: .*diluent_ratio/],
+    ['a YAML syntax error, with its line', ['plan', 'tests/cli/bad/syntax.yaml'], 'yaml-syntax', /syntax\.yaml:\d+:\d+: not valid YAML/],
+    ['a volume where the recipe wants a pressure', ['plan', 'tests/cli/bad/volume-as-pressure.yaml'], 'wrong-dimension', /volume-as-pressure\.yaml:4:11 pressure: "30 L" is a volume/],
+    ['phi 0 in a recipe, with its line', ['plan', 'tests/cli/bad/phi-zero.yaml'], 'not-positive', /phi-zero\.yaml:7:8 mixture\.phi: phi/],
+    ['a missing recipe file', ['plan', 'tests/cli/bad/nope.yaml'], 'file-unreadable', /nope\.yaml: cannot read the file: no such file/],
+    ['an unknown tank', ['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--tank', 'MT-9'], 'unknown-reference', /--tank: no tank "MT-9" in the lab profile; it lists MT-1, MT-2/],
+    ['fractions that do not sum to 1', ['plan', '--fractions', 'CH4:0.05,O2:0.1,Ar:0.8', '--volume', '10 L', '--pressure', '1 bar', '--temperature', '20 degC'], 'fractions-sum', /--fractions: the mole fractions add up to 0\.950000/],
+    ['options missing without a recipe', ['plan', '--fuel', 'CH4'], 'design-missing', /give a recipe file, or on the command line: --fuel, --oxidizer and --phi/],
+    ['a lab profile that does not exist', [...INLINE, '--lab', 'nowhere.yaml'], 'file-unreadable', /nowhere\.yaml: cannot read the file/],
+  ];
+  for (const [what, argv, code, message] of cases) {
+    it(what, async () => {
+      const r = await runCli(argv);
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr).toContain(`(error code: ${code})`);
+      expect(r.stderr).toMatch(message);
+      expect(r.stderr).not.toMatch(/\n\s+at /);
+      expect(r.stdout).toBe('');
+    });
+  }
+
+  it('an unknown option is a usage error, exit 2', async () => {
+    const r = await runCli(['plan', '--fuell', 'CH4']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("unknown option '--fuell'");
+  });
+});
+
+describe('other commands', () => {
+  it('bare mixwright outside a terminal: a short message, exit 2', async () => {
+    const r = await runCli([]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('not a terminal');
+  });
+
+  it('species CH4 lists each property with its source; unknown names suggest', async () => {
+    const r = await runCli(['species', 'CH4']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/critical temperature\s+190\.564\s+K\s+refprop-heos-constants/);
+    expect(r.stdout).toMatch(/molar mass\s+16\.043\s+g\/mol\s+iupac-2021/);
+    expect(r.stdout).toMatch(/B at 298\.15 K\s+-42\.91\d\s+cm3\/mol\s+coolprop-8-virial/);
+    const all = await runCli(['species']);
+    expect(all.stdout.split('\n').filter((l) => /^\S/.test(l)).length).toBeGreaterThan(31);
+    const bad = await runCli(['species', 'methan']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain('did you mean CH4');
+  });
+
+  it('schema recipe and schema lab print JSON Schemas that name the fields', async () => {
+    const r = await runCli(['schema', 'recipe']);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.stdout);
+    expect(Object.keys(s.properties)).toEqual(expect.arrayContaining(['id', 'tank', 'mixture', 'pressure', 'temperature', 'order']));
+    const l = JSON.parse((await runCli(['schema', 'lab'])).stdout);
+    expect(Object.keys(l.properties)).toEqual(expect.arrayContaining(['tanks', 'gauges', 'cylinders', 'barometer']));
+    expect((await runCli(['schema', 'sheet'])).code).toBe(2);
+  });
+
+  it('--help texts are pinned', async () => {
+    const top = await runCli(['--help']);
+    expect(top.code).toBe(0);
+    expect(top.stdout).toMatchSnapshot();
+    const plan = await runCli(['plan', '--help']);
+    expect(plan.stdout).toMatchSnapshot();
+  });
+});
