@@ -15,6 +15,8 @@ await build({
   banner: {
     js: "#!/usr/bin/env node\nimport { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);",
   },
+  minify: true,
+  sourcemap: 'linked',
   logLevel: 'warning',
 });
 chmodSync('dist/mixwright.mjs', 0o755);

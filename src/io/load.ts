@@ -3,7 +3,7 @@
  * recipe, parse quantities and blends, build the sources and the order.
  */
 import { dirname, resolve as resolvePath } from 'node:path';
-import { fail, ProblemError, relocate, type Where } from '../core/problems.js';
+import { fail, ProblemError, relocate, type Where } from '../core/index.js';
 import {
   chooseSources,
   designMixture,

@@ -4,14 +4,56 @@
  * instance (mathjs' torr is the rounded mmHg, 133.322 Pa; its psi is off by 6e-11).
  */
 import { create, all, type Unit } from 'mathjs';
-import { fail, type Where } from '../core/problems.js';
+import { fail, type Where } from '../core/index.js';
 
-const math = create(all, {});
-// 1 Torr = 1/760 atm exactly; 1 psi = 1 lbf/in^2 exactly (0.45359237 kg x 9.80665 m/s^2 / 0.0254^2 m^2)
-math.createUnit({ torr: { definition: '0.001315789473684210526315789 atm', aliases: ['Torr'] } }, { override: true });
-math.createUnit({ psi: { definition: '1 lbf/in^2' } }, { override: true });
-math.createUnit({ mTorr: { definition: '0.001 torr', aliases: ['mtorr'] } }, { override: true });
-math.createUnit({ kTorr: { definition: '1000 torr', aliases: ['ktorr'] } }, { override: true });
+type MathJs = ReturnType<typeof create>;
+let instance: MathJs | undefined;
+
+/** our own mathjs instance, built on first use (building it costs ~0.1 s of start-up) */
+export function mathjs(): MathJs {
+  if (instance) return instance;
+  const math = create(all, {});
+  // 1 Torr = 1/760 atm exactly; 1 psi = 1 lbf/in^2 exactly (0.45359237 kg x 9.80665 m/s^2 / 0.0254^2 m^2)
+  math.createUnit({ torr: { definition: '0.001315789473684210526315789 atm', aliases: ['Torr'] } }, { override: true });
+  math.createUnit({ psi: { definition: '1 lbf/in^2' } }, { override: true });
+  math.createUnit({ mTorr: { definition: '0.001 torr', aliases: ['mtorr'] } }, { override: true });
+  math.createUnit({ kTorr: { definition: '1000 torr', aliases: ['ktorr'] } }, { override: true });
+  instance = math;
+  return math;
+}
+
+/**
+ * The units labs type most, with their exact SI factors (offset for temperatures),
+ * read without building mathjs; anything else goes to mathjs. A test checks every
+ * entry against mathjs on our instance.
+ */
+const PSI = (0.45359237 * 9.80665) / (0.0254 * 0.0254);
+export const FAST_UNITS: Readonly<Record<string, { dim: Dimension; factor: number; offset?: number }>> = {
+  Pa: { dim: 'pressure', factor: 1 },
+  hPa: { dim: 'pressure', factor: 100 },
+  kPa: { dim: 'pressure', factor: 1e3 },
+  MPa: { dim: 'pressure', factor: 1e6 },
+  bar: { dim: 'pressure', factor: 1e5 },
+  mbar: { dim: 'pressure', factor: 100 },
+  atm: { dim: 'pressure', factor: 101325 },
+  Torr: { dim: 'pressure', factor: 101325 / 760 },
+  torr: { dim: 'pressure', factor: 101325 / 760 },
+  mTorr: { dim: 'pressure', factor: 101325 / 760 / 1000 },
+  psi: { dim: 'pressure', factor: PSI },
+  K: { dim: 'temperature', factor: 1 },
+  degC: { dim: 'temperature', factor: 1, offset: 273.15 },
+  degF: { dim: 'temperature', factor: 5 / 9, offset: 459.67 },
+  L: { dim: 'volume', factor: 1e-3 },
+  l: { dim: 'volume', factor: 1e-3 },
+  mL: { dim: 'volume', factor: 1e-6 },
+  'm^3': { dim: 'volume', factor: 1 },
+  'cm^3': { dim: 'volume', factor: 1e-6 },
+  s: { dim: 'time', factor: 1 },
+  min: { dim: 'time', factor: 60 },
+  h: { dim: 'time', factor: 3600 },
+  kg: { dim: 'mass', factor: 1 },
+  g: { dim: 'mass', factor: 1e-3 },
+};
 
 export type Dimension = 'pressure' | 'volume' | 'temperature' | 'pressure rate' | 'time' | 'mass';
 
@@ -27,6 +69,7 @@ const SI: Record<Dimension, string> = {
 const PROBES: readonly Dimension[] = ['pressure', 'volume', 'temperature', 'pressure rate', 'time', 'mass'];
 
 function dimensionOf(u: Unit): string {
+  const math = mathjs();
   for (const d of PROBES) if (u.equalBase(math.unit(SI[d]))) return d;
   return `quantity in ${u.formatUnits() || 'no unit'}`;
 }
@@ -46,6 +89,15 @@ export function parseQuantity(text: string | number, expected: Dimension, where:
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
     return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' }, where);
   }
+  const fast = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z^0-9]+)$/.exec(s);
+  const known = fast ? FAST_UNITS[fast[2]] : undefined;
+  if (fast && known) {
+    if (known.dim !== expected) return fail({ code: 'wrong-dimension', text: s, expected, got: known.dim }, where);
+    const v = Number(fast[1]);
+    // offset units: (v + offset) x factor, e.g. degF: (v + 459.67) x 5/9 K
+    return known.offset === undefined ? v * known.factor : (v + known.offset) * known.factor;
+  }
+  const math = mathjs();
   let u: Unit;
   try {
     u = math.unit(s);
@@ -89,5 +141,5 @@ export function fromPa(pa: number, unit: PressureUnit): number {
 
 /** convert a value in unit to SI through mathjs (tests compare this path against fromPa) */
 export function toSI(value: number, unit: string): number {
-  return math.unit(value, unit).toSI().toNumber();
+  return mathjs().unit(value, unit).toSI().toNumber();
 }

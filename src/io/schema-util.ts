@@ -1,6 +1,6 @@
 /** Turn zod issues into our Problems, with file, line and field. */
 import type { z } from 'zod';
-import { fail } from '../core/problems.js';
+import { fail } from '../core/index.js';
 import type { YamlSource } from './yaml-file.js';
 
 export function fieldName(path: readonly PropertyKey[]): string {

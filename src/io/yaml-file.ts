@@ -1,7 +1,7 @@
 /** Read a YAML file and keep the way back from a data path to its line and column. */
 import { readFileSync } from 'node:fs';
 import { LineCounter, parseDocument, isMap, isScalar, type Document } from 'yaml';
-import { fail, type Where } from '../core/problems.js';
+import { fail, type Where } from '../core/index.js';
 
 export type DataPath = readonly (string | number)[];
 

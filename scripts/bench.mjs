@@ -1,0 +1,35 @@
+// Cold-process start-up benchmark: `mixwright plan <demo>` against a bare `node -e 0`,
+// measured in the same run, alternating, medians of N runs. Target: ratio < 5.
+import { spawnSync } from 'node:child_process';
+
+const N = Number(process.env.BENCH_RUNS ?? 15);
+const cases = {
+  'node -e 0': ['-e', '0'],
+  'mixwright plan recipes/ch4-o2-ar-phi1.yaml': ['dist/mixwright.mjs', 'plan', 'recipes/ch4-o2-ar-phi1.yaml'],
+  'mixwright plan --json (inline)': ['dist/mixwright.mjs', 'plan', '--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.85', '--volume', '10 L', '--pressure', '1000 Torr', '--temperature', '298.15 K', '--json'],
+};
+const times = Object.fromEntries(Object.keys(cases).map((k) => [k, []]));
+for (let i = 0; i < N + 2; i++) {
+  for (const [name, args] of Object.entries(cases)) {
+    const t0 = process.hrtime.bigint();
+    const r = spawnSync(process.execPath, args, { stdio: ['ignore', 'ignore', 'pipe'] });
+    const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+    if (r.status !== 0) {
+      console.error(`${name} failed (exit ${r.status}): ${r.stderr}`);
+      process.exit(1);
+    }
+    if (i >= 2) times[name].push(ms); // two warm-up rounds
+  }
+}
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+const base = median(times['node -e 0']);
+console.log(`cold start, median of ${N} runs (NODE_EXTRA_CA_CERTS ${process.env.NODE_EXTRA_CA_CERTS ? 'set' : 'unset'})`);
+for (const [name, xs] of Object.entries(times)) {
+  const m = median(xs);
+  console.log(`${name.padEnd(48)} ${m.toFixed(1).padStart(8)} ms   ${(m / base).toFixed(2)} x node`);
+}
+const ratio = median(times['mixwright plan recipes/ch4-o2-ar-phi1.yaml']) / base;
+console.log(`plan / node ratio: ${ratio.toFixed(2)} (target < 5) ${ratio < 5 ? 'OK' : 'OVER TARGET'}`);
