@@ -23,7 +23,38 @@ export type Finding = Base &
     | { readonly code: 'virial-correlation'; readonly species: string; readonly method: string }
     | { readonly code: 'ideal-gas-error'; readonly worstPa: number; readonly bandPa: number }
     | { readonly code: 'supply-pressure-low'; readonly source: string; readonly supplyPa: number; readonly targetPa: number }
+    | { readonly code: 'tank-rating-unknown'; readonly tank: string }
+    | { readonly code: 'isolate-gauge'; readonly gauge: string; readonly topPa: number }
+    | ({ readonly code: 'flammable-state' | 'flammable-mixture' | 'near-flammable' } & FlammabilityNumbers)
+    | { readonly code: 'detonable-state'; readonly inertFraction: number; readonly pressurePa: number }
+    | { readonly code: 'closed-vessel-pressure'; readonly fromPa: number; readonly peakPa: number; readonly limitPa?: number }
+    | { readonly code: 'compression-heating'; readonly fuel: string; readonly fromPa: number; readonly toPa: number; readonly gamma: number; readonly endK: number; readonly aitK: number }
+    | { readonly code: 'condensation'; readonly species: string; readonly partialPa: number; readonly psatPa: number; readonly fraction: number; readonly coldestK: number; readonly inLine: boolean; readonly method: string }
+    | { readonly code: 'psat-estimated'; readonly species: string; readonly method: string; readonly coldestK: number }
+    | { readonly code: 'coldest-temperature-assumed'; readonly temperatureK: number }
+    | { readonly code: 'no-flammability-data'; readonly species: string }
+    | { readonly code: 'flammability-data-estimated'; readonly what: string }
+    | { readonly code: 'inert-coefficient-unknown'; readonly species: string; readonly used: number }
+    | { readonly code: 'no-with-o2'; readonly pressurePa: number }
+    | { readonly code: 'acetylene-pressure'; readonly partialPa: number; readonly limitPa: number; readonly inLine: boolean }
+    | { readonly code: 'n2o-decomposition'; readonly partialPa: number }
+    | { readonly code: 'oxygen-service'; readonly source: string }
+    | { readonly code: 'oxygen-enriched'; readonly oxygenFraction: number }
+    | { readonly code: 'safer-order'; readonly order: readonly string[]; readonly reason: string }
+    | { readonly code: 'no-safe-order'; readonly reason: string }
   );
+
+export interface FlammabilityNumbers {
+  readonly method: 'envelope' | 'flame temperature' | 'envelope and flame temperature';
+  /** diagram coordinates after N2-equivalent conversion */
+  readonly fuelFraction: number;
+  readonly oxygenFraction: number;
+  readonly lfl?: number;
+  readonly loc?: number;
+  readonly flameK?: number;
+  readonly limitFlameK?: number;
+  readonly pressurePa: number;
+}
 
 export type FindingCode = Finding['code'];
 
@@ -32,6 +63,17 @@ export const STANDING_CAUTION =
   'This plan is an engineering estimate, not a hazard review. Follow the gas suppliers\' safety data sheets, your institution\'s rules, local codes and licensed practice; have the procedure reviewed before the first fill.';
 
 export type PressureFormatter = (pa: number) => string;
+
+const pct = (x: number) => `${(x * 100).toPrecision(3)} %`;
+const kelvin = (k: number) => `${k.toFixed(0)} K (${(k - 273.15).toFixed(0)} degC)`;
+
+function flammabilityDetail(f: FlammabilityNumbers): string {
+  const parts = [`fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} on the N2-equivalent diagram`];
+  if (f.lfl !== undefined) parts.push(`LFL ${pct(f.lfl)}`);
+  if (f.loc !== undefined) parts.push(`LOC ${pct(f.loc)}`);
+  if (f.flameK !== undefined && f.limitFlameK !== undefined) parts.push(`flame ${f.flameK.toFixed(0)} K vs limit ${f.limitFlameK.toFixed(0)} K`);
+  return `${parts.join('; ')}; by ${f.method}`;
+}
 
 export function describeFinding(f: Finding, p: PressureFormatter): string {
   switch (f.code) {
@@ -54,7 +96,53 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'ideal-gas-error':
       return `an ideal-gas plan would be off by up to ${p(f.worstPa)} at one reading, against a tolerance band of +-${p(f.bandPa)}: use the real-gas targets`;
     case 'supply-pressure-low':
-      return `${f.source} delivers at ${p(f.supplyPa)}, below the ${p(f.targetPa)} the tank must reach in this fill; the fill cannot be completed from it`;
+      return `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} the tank must reach in this fill; the fill cannot be completed from it - raise the regulator setting (within the cylinder's and line's ratings) or lower the final pressure`;
+    case 'tank-rating-unknown':
+      return `the lab profile gives no pressure rating for tank ${f.tank}; no rating is assumed, so the pressure checks cannot be made - add its rating (maximum allowed working pressure) to the profile`;
+    case 'isolate-gauge':
+      return `close off ${f.gauge} before this fill: it reads only up to ${p(f.topPa)} absolute`;
+    case 'flammable-state':
+      return `the tank is flammable after this fill (${flammabilityDetail(f)}); choose a fill order that avoids it, or treat this state as a flammable, possibly explosive gas at ${p(f.pressurePa)}`;
+    case 'flammable-mixture':
+      return `the finished batch is flammable (${flammabilityDetail(f)}): store and handle it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`;
+    case 'near-flammable':
+      return `this state is outside the flammable region but within the safety margin of it (${flammabilityDetail(f)}); a small fill error or a wrong gas could make it flammable`;
+    case 'detonable-state':
+      return `fuel and oxidizer with only ${pct(f.inertFraction)} N2-equivalent inert at ${p(f.pressurePa)}: such mixtures can detonate, and a reflected detonation exceeds the closed-vessel pressure several times - add the bath gas before the oxidizer, or do not make this state`;
+    case 'closed-vessel-pressure':
+      return f.limitPa !== undefined && f.peakPa > f.limitPa
+        ? `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (complete combustion, constant volume, from ${p(f.fromPa)}), above the tank's working limit ${p(f.limitPa)}`
+        : `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (complete combustion, constant volume, from ${p(f.fromPa)})${f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : ''}`;
+    case 'compression-heating':
+      return `this fill compresses gas holding ${f.fuel} from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it heats it to ${kelvin(f.endK)}, against an autoignition temperature of ${kelvin(f.aitK)}. Throttle the fill (open the valve slowly) or change the order`;
+    case 'condensation':
+      return f.inLine
+        ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it may condense in the line - fill the vapour first or heat the lines`
+        : `${f.species} partial pressure ${p(f.partialPa)} exceeds ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it may condense - lower its partial pressure or heat the tank and lines`;
+    case 'psat-estimated':
+      return `the vapour pressure of ${f.species} at ${kelvin(f.coldestK)} comes from ${f.method} (outside the range of its measured constants); the condensation check is less certain`;
+    case 'coldest-temperature-assumed':
+      return `the lab profile gives no coldest temperature for tank and lines; the condensation check used the fill temperature ${kelvin(f.temperatureK)} - add "coldest" to the profile`;
+    case 'no-flammability-data':
+      return `no flammability limits are on file for ${f.species}; the safety review is incomplete for it - treat every state holding it as flammable`;
+    case 'flammability-data-estimated':
+      return `flammability data estimated, not measured: ${f.what}`;
+    case 'inert-coefficient-unknown':
+      return `no ISO 10156 nitrogen-equivalence coefficient for ${f.species}; the smallest listed value ${f.used} was used (conservative)`;
+    case 'no-with-o2':
+      return `NO and O2 in one tank react to NO2; never premix them - fill them in separate batches`;
+    case 'acetylene-pressure':
+      return `${f.inLine ? 'the acetylene line' : 'acetylene'} reaches ${p(f.partialPa)} absolute, above about 15 psig (${p(f.limitPa)} absolute), where acetylene can decompose explosively`;
+    case 'n2o-decomposition':
+      return `N2O at ${p(f.partialPa)} partial pressure: it can decompose exothermically at elevated pressure and temperature - keep its pressure low and its lines clean`;
+    case 'oxygen-service':
+      return `${f.source} is an oxidizer: open its valve slowly, use only parts cleaned for oxygen service and no hydrocarbon grease`;
+    case 'oxygen-enriched':
+      return `the tank holds ${pct(f.oxygenFraction)} oxygen (above 23.5 %, oxygen-enriched): materials burn far more readily - oxygen-clean parts and slow valves`;
+    case 'safer-order':
+      return `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} avoids them (${f.reason})`;
+    case 'no-safe-order':
+      return f.reason;
   }
 }
 

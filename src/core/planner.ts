@@ -16,6 +16,8 @@ import { chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, type Gauge, type Readi
 import { getSpecies } from './lookup.js';
 import { molarMassKgPerMol } from './formula.js';
 import type { Finding } from './findings.js';
+import { reviewFillSequence, type FillEvent, type SafetyContext, type TankState } from './safety.js';
+import { adviseOrder, isSaferThan, scoreGivenOrder } from './order.js';
 import { fail } from './problems.js';
 
 /** temperatures the virial model is used at (reference table 230-480 K, correlation beyond) */
@@ -45,9 +47,11 @@ export interface PlanInput {
   readonly finalPressurePa: number;
   readonly temperatureK: number;
   readonly tank: TankSpec;
-  /** sources in fill order */
+  /** the fills: in fill order when `order` is 'given', in any order when 'recommend' */
   readonly sources: readonly GasSource[];
-  readonly orderReason: string;
+  readonly order: 'given' | 'recommend';
+  /** safety-review settings beyond the tank and temperature */
+  readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
   readonly inTank?: { readonly composition: Fractions; readonly pressurePa: number };
   readonly gauges: readonly Gauge[];
   readonly reading: ReadingContext;
@@ -93,6 +97,7 @@ export interface Plan {
   readonly temperatureK: number;
   readonly tank: TankSpec;
   readonly orderReason: string;
+  readonly orderRecommended: boolean;
   /** composition the tank will hold, with cylinder impurities */
   readonly composition: Record<string, number>;
   readonly unidentifiedFraction: number;
@@ -157,18 +162,18 @@ function dPdRho(rho: number, temperatureK: number, B: number, C: number): number
 }
 
 export function planFill(input: PlanInput): Plan {
-  const { design, finalPressurePa: Pf, temperatureK: T, tank, sources } = input;
+  const { design, finalPressurePa: Pf, temperatureK: T, tank } = input;
   if (!(Pf > 0)) fail({ code: 'not-positive', what: 'final pressure', value: Pf }, { field: 'pressure' });
   if (!(T > 0)) fail({ code: 'not-positive', what: 'temperature', value: T }, { field: 'temperature' });
   if (!(tank.volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: tank.volumeM3 }, { field: 'volume' });
-  if (sources.length === 0) fail({ code: 'design-missing', reason: 'the plan has no fills' });
+  if (input.sources.length === 0) fail({ code: 'design-missing', reason: 'the plan has no fills' });
   if (T < MODEL_T_RANGE_K.min || T > MODEL_T_RANGE_K.max) {
     fail({ code: 'model-range', reason: `a fill at ${T.toFixed(2)} K is outside the range the gas model is built for (${MODEL_T_RANGE_K.min}-${MODEL_T_RANGE_K.max} K); check the temperature and its unit` }, { field: 'temperature' });
   }
   const V = tank.volumeM3;
 
   const speciesSet = new Set<string>();
-  for (const s of sources) for (const k of Object.keys(s.composition)) speciesSet.add(getSpecies(k).key);
+  for (const s of input.sources) for (const k of Object.keys(s.composition)) speciesSet.add(getSpecies(k).key);
   for (const k of Object.keys(input.inTank?.composition ?? {})) speciesSet.add(getSpecies(k).key);
   const model = virialModel([...speciesSet], T);
 
@@ -185,12 +190,12 @@ export function planFill(input: PlanInput): Plan {
 
   // total amount: iterate allocation and density until the final reading is P_f
   let N = (Pf * V) / (R * T);
-  let alloc = allocate(sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
+  let alloc = allocate(input.sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
   let yFinal: Record<string, number> = {};
   let rhoF = 0;
   for (let it = 0; it < 30; it++) {
-    alloc = allocate(sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
-    const parts = sources.map((s, i) => ({ source: s as GasSource | Fractions, mol: alloc.amountsMol[i] }));
+    alloc = allocate(input.sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
+    const parts = input.sources.map((s, i) => ({ source: s as GasSource | Fractions, mol: alloc.amountsMol[i] }));
     if (initial) parts.push({ source: initial.composition, mol: initial.amountMol });
     yFinal = eosComposition(parts);
     rhoF = densityFromPressure(Pf, T, bMix(model, yFinal), cMix(model, yFinal));
@@ -209,6 +214,32 @@ export function planFill(input: PlanInput): Plan {
   const Cf = cMix(model, yFinal);
 
   const findings: Finding[] = [];
+  const workingLimitPa = tank.ratedPressurePa === undefined ? undefined : tank.ratedPressurePa * (tank.workingFraction ?? 1);
+  const safetyCtx: SafetyContext = {
+    temperatureK: T,
+    workingLimitPa,
+    tankId: tank.id,
+    coldestK: input.safety?.coldestK,
+    condensationFraction: input.safety?.condensationFraction,
+  };
+  const initialForOrder = initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined;
+  let sources: readonly GasSource[];
+  let orderReason: string;
+  if (input.order === 'recommend') {
+    const advice = adviseOrder(input.sources, alloc.amountsMol, Pf, safetyCtx, initialForOrder);
+    sources = advice.sources;
+    orderReason = advice.reason;
+    if (advice.noSafeOrder) findings.push({ severity: 'warning', code: 'no-safe-order', reason: advice.reason });
+  } else {
+    sources = input.sources;
+    orderReason = 'as given';
+    const given = scoreGivenOrder(input.sources, alloc.amountsMol, Pf, safetyCtx, initialForOrder);
+    if (given.danger + given.warning > 0) {
+      const advice = adviseOrder(input.sources, alloc.amountsMol, Pf, safetyCtx, initialForOrder);
+      if (isSaferThan(advice.score, given)) findings.push({ severity: 'warning', code: 'safer-order', order: advice.sources.map(fillLabel), reason: advice.reason });
+    }
+  }
+  const amountOf = new Map(input.sources.map((s, i) => [s, alloc.amountsMol[i]]));
   const tol = input.tolerance;
   const tolOf = (k: string) => Math.max(tol.relative * (design.composition[k] ?? 0), tol.absolute);
 
@@ -216,8 +247,8 @@ export function planFill(input: PlanInput): Plan {
   const parts: { source: GasSource | Fractions; mol: number }[] = initial ? [{ source: initial.composition, mol: initial.amountMol }] : [];
   let cumMol = initial?.amountMol ?? 0;
   let prevP = initial?.pressurePa ?? 0;
-  const raw = sources.map((s, i) => {
-    const mol = alloc.amountsMol[i];
+  const raw = sources.map((s) => {
+    const mol = amountOf.get(s) ?? 0;
     parts.push({ source: s, mol });
     cumMol += mol;
     const y = eosComposition(parts);
@@ -295,10 +326,25 @@ export function planFill(input: PlanInput): Plan {
   });
 
   // batch-level findings
-  if (tank.ratedPressurePa !== undefined) {
-    const limit = tank.ratedPressurePa * (tank.workingFraction ?? 1);
-    if (Pf > limit) findings.push({ severity: 'danger', code: 'tank-over-rating', pressurePa: Pf, limitPa: limit, ratedPa: tank.ratedPressurePa, tank: tank.id });
+  if (tank.ratedPressurePa !== undefined && workingLimitPa !== undefined) {
+    const top = steps[steps.length - 1];
+    if (top.targetPa + top.bandPa > workingLimitPa) {
+      findings.push({ severity: 'danger', code: 'tank-over-rating', step: top.index, pressurePa: top.targetPa + top.bandPa, limitPa: workingLimitPa, ratedPa: tank.ratedPressurePa, tank: tank.id });
+    }
   }
+  for (const s of steps) for (const g of s.isolateBefore) findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
+  // the safety review of every state the fill passes through, at the real-gas pressures
+  const states: TankState[] = [];
+  const fills: FillEvent[] = [];
+  let before: TankState | undefined = initial ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa, final: false } : undefined;
+  if (before) states.push(before);
+  for (const s of steps) {
+    const after: TankState = { step: s.index, composition: s.compositionAfter, pressurePa: s.targetPa, final: s.index === steps.length };
+    states.push(after);
+    fills.push({ step: s.index, sourceId: s.source.id, sourceComposition: s.source.composition, before, after });
+    before = after;
+  }
+  findings.push(...reviewFillSequence(states, fills, safetyCtx));
   for (const s of sources) if (s.purityAssumed) findings.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
   if (alloc.unidentified > 1e-7) findings.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
   for (const [sp, x] of Object.entries(alloc.composition)) {
@@ -324,7 +370,8 @@ export function planFill(input: PlanInput): Plan {
     design,
     temperatureK: T,
     tank,
-    orderReason: input.orderReason,
+    orderReason,
+    orderRecommended: input.order === 'recommend',
     composition: alloc.composition,
     unidentifiedFraction: alloc.unidentified,
     initial,
@@ -342,20 +389,5 @@ export function planFill(input: PlanInput): Plan {
     virial: model,
     findings,
     tolerance: tol,
-  };
-}
-
-/**
- * Recommended order when the user names none: smallest partial pressure first and
- * the bath gas last (common practice: the small fills get the best relative
- * resolution on a low-range gauge, and the large last fill sweeps the line into the tank).
- */
-export function recommendOrder(sources: readonly GasSource[], design: Fractions): { sources: GasSource[]; reason: string } {
-  // the amount each source delivers for one mole of batch (impurities do not distort the ranking)
-  const { amountsMol } = allocate(sources, design, 1);
-  const ranked = sources.map((s, i) => ({ s, n: amountsMol[i] })).sort((a, b) => a.n - b.n);
-  return {
-    sources: ranked.map((r) => r.s),
-    reason: 'smallest partial pressure first, largest last (best relative resolution for the small fills; the last, largest fill sweeps the line into the tank)',
   };
 }

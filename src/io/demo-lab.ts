@@ -12,6 +12,8 @@ barometer:
   pressure: 760 Torr
   uncertainty: 0.4 Torr
 air: { O2: 0.21, N2: 0.79 }
+coldest: 18 degC
+condensation_fraction: 0.5
 tanks:
   - id: MT-1
     label: mixing tank 1, 10.0 L electropolished, magnetic stirrer

@@ -11,7 +11,6 @@ import {
   orderSources,
   premix,
   pureCylinder,
-  recommendOrder,
   resolveSpeciesKey,
   type DesignInput,
   type Fractions,
@@ -76,6 +75,9 @@ export interface LoadedLab {
   readonly tanks: readonly TankSpec[];
   readonly gauges: readonly Gauge[];
   readonly cylinders: readonly GasSource[];
+  /** coldest wetted temperature of tank, lines and gauge heads, K */
+  readonly coldestK?: number;
+  readonly condensationFraction?: number;
 }
 
 export function loadLab(file?: string): LoadedLab {
@@ -130,7 +132,20 @@ export function loadLab(file?: string): LoadedLab {
   });
   const baroPa = lab.barometer ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure')) : 101325;
   const baroU = lab.barometer ? parseQuantity(lab.barometer.uncertainty, 'pressure', w(['barometer', 'uncertainty'], 'barometer.uncertainty')) : 100;
-  return { name: lab.name, origin: file ?? DEMO_LAB_NAME, file: lab, barometricPa: baroPa, barometricUncertaintyPa: baroU, air, tanks, gauges, cylinders };
+  const coldestK = lab.coldest === undefined ? undefined : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest'));
+  return {
+    name: lab.name,
+    origin: file ?? DEMO_LAB_NAME,
+    file: lab,
+    barometricPa: baroPa,
+    barometricUncertaintyPa: baroU,
+    air,
+    tanks,
+    gauges,
+    cylinders,
+    coldestK,
+    condensationFraction: lab.condensation_fraction,
+  };
 }
 
 /** a recipe with, for every field, where it came from */
@@ -237,8 +252,6 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   } else {
     sources = chooseSources(design.composition, lab.cylinders);
   }
-  let orderReason: string;
-  let orderRecommended = false;
   if (r.order) {
     try {
       sources = orderSources(sources, r.order, resolveSpeciesKey);
@@ -246,12 +259,6 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
       if (e instanceof ProblemError) throw relocate(e, W(['order']));
       throw e;
     }
-    orderReason = 'as given';
-  } else {
-    const rec = recommendOrder(sources, design.composition);
-    sources = rec.sources;
-    orderReason = rec.reason;
-    orderRecommended = true;
   }
 
   let inTank: PlanInput['inTank'];
@@ -268,11 +275,12 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     temperatureK,
     tank,
     sources,
-    orderReason,
+    order: r.order ? 'given' : 'recommend',
+    safety: { coldestK: lab.coldestK, condensationFraction: lab.condensationFraction },
     inTank,
     gauges: lab.gauges,
     reading: { barometricPa: overrides.barometricPa ?? lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa },
     tolerance,
   };
-  return { input, lab, recipe: r, orderRecommended };
+  return { input, lab, recipe: r, orderRecommended: !r.order };
 }

@@ -76,7 +76,8 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   if (plan.findings.length) {
     out.push('Findings');
     const order: Severity[] = ['danger', 'warning', 'note'];
-    const sorted = [...plan.findings].sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
+    // gauge isolation is already said under the table
+    const sorted = plan.findings.filter((f) => f.code !== 'isolate-gauge').sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
     for (const f of sorted) {
       out.push(`  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${describeFinding(f, (pa) => P(pa, 5))}`);
     }

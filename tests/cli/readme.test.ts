@@ -21,10 +21,13 @@ describe('README examples', () => {
   it('there are examples to run', () => {
     expect(commands.length).toBeGreaterThanOrEqual(8);
   });
-  for (const cmd of commands) {
-    it(cmd, () => {
+  for (const line of commands) {
+    // a trailing "# exit N" states the exit code the example is meant to give
+    const m = /\s+#\s*exit\s+(\d+)\s*$/.exec(line);
+    const cmd = m ? line.slice(0, m.index) : line;
+    it(line, () => {
       const r = run(cmd);
-      expect(r.code, r.out).toBe(0);
+      expect(r.code, r.out).toBe(m ? Number(m[1]) : 0);
       expect(r.out.length).toBeGreaterThan(100);
       if (cmd.includes('--json')) expect(() => JSON.parse(r.out)).not.toThrow();
     });

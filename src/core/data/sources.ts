@@ -105,6 +105,82 @@ const list: readonly Source[] = [
     quality: 'experimental-review',
   },
   {
+    key: 'nfpa-497-2008',
+    citation:
+      'NFPA 497, Recommended Practice for the Classification of Flammable Liquids, Gases, or Vapors (2008), flammability limits and autoignition temperatures, as tabulated in the chemicals data library (Safety tables)',
+    quality: 'standard',
+  },
+  {
+    key: 'iec-60079-20-1-2010',
+    citation:
+      'IEC 60079-20-1:2010, Explosive atmospheres - Material characteristics for gas and vapour classification, as tabulated in the chemicals data library',
+    quality: 'standard',
+  },
+  {
+    key: 'zabetakis-1965-memory',
+    citation: 'M.G. Zabetakis, Flammability Characteristics of Combustible Gases and Vapors, US Bureau of Mines Bulletin 627 (1965), limits in oxygen (values recalled, not read in a stored copy)',
+    quality: 'from-memory',
+  },
+  {
+    key: 'astm-e2079-19',
+    citation: 'ASTM E2079-19, Standard Test Methods for Limiting Oxygen (Oxidant) Concentration in Gases and Vapors, large-vessel values (Zlochower); lower of the 20 L and 120 L values',
+    quality: 'standard',
+  },
+  {
+    key: 'nfpa-69-memory',
+    citation:
+      'NFPA 69, Standard on Explosion Prevention Systems, Annex C Table C.1(a) limiting oxidant concentrations (N2 diluent; recalled), adjusted by TIA 1211 (2016): -2 vol % for LOC >= 10 %, x0.85 below',
+    quality: 'from-memory',
+  },
+  {
+    key: 'loc-estimate',
+    citation:
+      'Estimated limiting oxygen concentration LOC = z x LFL (Crowl & Louvar, Chemical Process Safety, 2001; z = mol O2 per mol fuel), adjusted as NFPA 69 TIA 1211 asks for values without a large-vessel test',
+    quality: 'correlation',
+  },
+  {
+    key: 'iso-10156-2017',
+    citation: 'ISO 10156:2017, Gas cylinders - Gases and gas mixtures - Determination of fire potential and oxidizing ability, nitrogen-equivalence coefficients K of inert gases',
+    quality: 'standard',
+  },
+  {
+    key: 'ait-memory',
+    citation: 'Autoignition temperature recalled from NFPA 497 / handbook tables (not read in a stored copy)',
+    quality: 'from-memory',
+  },
+  {
+    key: 'poling-2001-antoine',
+    citation:
+      'B.E. Poling, J.M. Prausnitz, J.P. O\'Connell, The Properties of Gases and Liquids, 5th ed. (2001), Appendix A Antoine constants, converted to log10(P/Pa) = A - B/(T/K + C) in the chemicals data library',
+    quality: 'experimental-review',
+  },
+  {
+    key: 'poling-2001-wagner',
+    citation: 'B.E. Poling, J.M. Prausnitz, J.P. O\'Connell, The Properties of Gases and Liquids, 5th ed. (2001), Wagner vapour-pressure constants (ln form with tau^1.5, tau^2.5, tau^5)',
+    quality: 'experimental-review',
+  },
+  {
+    key: 'iapws-wagner-pruss',
+    citation:
+      'W. Wagner, A. Pruss, "International equations for the saturation properties of ordinary water substance", J. Phys. Chem. Ref. Data 22, 783 (1993) (IAPWS saturation-pressure equation)',
+    quality: 'standard',
+  },
+  {
+    key: 'lee-kesler-1975',
+    citation: 'B.I. Lee, M.G. Kesler, AIChE J. 21, 510 (1975): corresponding-states vapour pressure ln Pr = f0 + omega f1 (constants as given by Poling et al. 2001, recalled)',
+    quality: 'correlation',
+  },
+  {
+    key: 'nfpa-69-margins-memory',
+    citation: 'NFPA 69 section 7.2 operating margins: combustible at or below 60 % of LFL with instrumentation (25 % without); oxidant 2 vol % below LOC (60 % of LOC when LOC < 5 %) (recalled)',
+    quality: 'from-memory',
+  },
+  {
+    key: 'acetylene-practice',
+    citation: 'Common practice for acetylene: do not use it at more than 15 psig (about 1 bar gauge) outside the cylinder, because of decomposition (recalled)',
+    quality: 'from-memory',
+  },
+  {
     key: 'common-practice',
     citation: 'Common laboratory practice, no single published source',
     quality: 'from-memory',

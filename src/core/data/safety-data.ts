@@ -1,0 +1,90 @@
+/**
+ * Fire and explosion data of the fuels, and the nitrogen-equivalence
+ * coefficients of the inerts. Mole fractions (0.05 = 5 vol %), temperatures K.
+ * Every value names its source key (data/sources.ts).
+ */
+
+export interface SourcedNumber {
+  readonly value: number;
+  readonly source: string;
+}
+
+export interface FuelSafetyRecord {
+  readonly key: string;
+  /** lower flammability limit in air, ~25 degC, 1 atm: the lower of the listed values is used for safety */
+  readonly lflAir: readonly SourcedNumber[];
+  /** upper flammability limit in air: the higher of the listed values is used */
+  readonly uflAir: readonly SourcedNumber[];
+  /** upper flammability limit in oxygen */
+  readonly uflO2?: SourcedNumber;
+  /** limiting oxygen concentration with N2 as diluent (already adjusted to large-vessel practice) */
+  readonly loc?: SourcedNumber;
+  /** autoignition temperature in air */
+  readonly ait?: SourcedNumber;
+}
+
+const N = (value: number) => ({ value, source: 'nfpa-497-2008' });
+const I = (value: number) => ({ value, source: 'iec-60079-20-1-2010' });
+const Z = (value: number) => ({ value, source: 'zabetakis-1965-memory' });
+const E = (value: number) => ({ value, source: 'astm-e2079-19' });
+/** NFPA 69 tube value adjusted by TIA 1211: -2 vol % for LOC >= 10 %, x0.85 below */
+const T = (tubePct: number) => ({ value: (tubePct >= 10 ? tubePct - 2 : tubePct * 0.85) / 100, source: 'nfpa-69-memory' });
+const A = (kelvin: number) => ({ value: kelvin, source: 'nfpa-497-2008' });
+const M = (celsius: number) => ({ value: celsius + 273.15, source: 'ait-memory' });
+
+const rows: FuelSafetyRecord[] = [
+  { key: 'H2', lflAir: [N(0.04), I(0.04)], uflAir: [N(0.75), I(0.77)], uflO2: Z(0.94), loc: E(0.046), ait: A(773) },
+  { key: 'CO', lflAir: [N(0.125), I(0.109)], uflAir: [N(0.74), I(0.74)], uflO2: Z(0.94), loc: E(0.051), ait: M(609) },
+  { key: 'CH4', lflAir: [N(0.05), I(0.044)], uflAir: [N(0.15), I(0.17)], uflO2: Z(0.61), loc: E(0.107), ait: A(873) },
+  { key: 'C2H6', lflAir: [N(0.03), I(0.024)], uflAir: [N(0.125), I(0.155)], uflO2: Z(0.66), loc: T(11), ait: M(472) },
+  { key: 'C2H4', lflAir: [N(0.027), I(0.023)], uflAir: [N(0.36), I(0.36)], uflO2: Z(0.8), loc: E(0.085), ait: M(450) },
+  { key: 'C2H2', lflAir: [N(0.025), I(0.023)], uflAir: [N(1.0), I(1.0)], uflO2: Z(1.0), loc: { value: 0, source: 'acetylene-practice' }, ait: M(305) },
+  { key: 'C3H8', lflAir: [N(0.021), I(0.017)], uflAir: [N(0.095), I(0.109)], uflO2: Z(0.55), loc: E(0.105), ait: A(723) },
+  { key: 'C3H6', lflAir: [N(0.024), I(0.02)], uflAir: [N(0.103), I(0.111)], uflO2: Z(0.53), loc: T(11.5), ait: M(455) },
+  { key: 'n-C4H10', lflAir: [N(0.019), I(0.014)], uflAir: [N(0.085), I(0.093)], uflO2: Z(0.49), loc: T(12), ait: M(288) },
+  { key: 'i-C4H10', lflAir: [N(0.018), I(0.013)], uflAir: [N(0.084), I(0.098)], loc: T(12), ait: M(460) },
+  { key: 'n-C5H12', lflAir: [N(0.015), I(0.011)], uflAir: [N(0.078), I(0.087)], loc: T(12), ait: M(260) },
+  { key: 'n-C7H16', lflAir: [N(0.01), I(0.0085)], uflAir: [N(0.067), I(0.067)], ait: A(477) },
+  { key: 'i-C8H18', lflAir: [I(0.007)], uflAir: [I(0.06)], ait: M(418) },
+  { key: 'C7H8', lflAir: [N(0.011), I(0.01)], uflAir: [N(0.071), I(0.078)], ait: M(480) },
+  { key: 'CH3OH', lflAir: [N(0.06), I(0.06)], uflAir: [N(0.36), I(0.36)], loc: T(10), ait: M(464) },
+  { key: 'C2H5OH', lflAir: [N(0.033), I(0.031)], uflAir: [N(0.19), I(0.19)], loc: T(10.5), ait: M(363) },
+  { key: 'CH3OCH3', lflAir: [N(0.034), I(0.027)], uflAir: [N(0.27), I(0.32)], ait: A(623) },
+  { key: 'NH3', lflAir: [N(0.15), I(0.15)], uflAir: [N(0.28), I(0.336)], uflO2: Z(0.79), ait: M(651) },
+  { key: 'CH2O', lflAir: [N(0.07), I(0.07)], uflAir: [N(0.73), I(0.73)], ait: M(424) },
+];
+
+export const FUEL_SAFETY: ReadonlyMap<string, FuelSafetyRecord> = new Map(rows.map((r) => [r.key, r]));
+
+/** ISO 10156:2017 nitrogen-equivalence coefficients K of inert gases */
+export const INERT_K: ReadonlyMap<string, SourcedNumber> = new Map(
+  (
+    [
+      ['N2', 1.0],
+      ['CO2', 1.5],
+      ['He', 0.9],
+      ['Ar', 0.55],
+      ['Ne', 0.7],
+      ['Kr', 0.5],
+      ['Xe', 0.5],
+      ['SF6', 4.0],
+    ] as const
+  ).map(([k, v]) => [k, { value: v, source: 'iso-10156-2017' }]),
+);
+
+/** the smallest listed K: used, with a note, for an inert that has none (a smaller K widens the flammable zone) */
+export const INERT_K_FALLBACK = 0.5;
+
+/** NFPA 69 operating margins used for "near the limit" */
+export const MARGINS = {
+  /** fraction of the LFL (instrumented practice) */
+  lflFraction: 0.6,
+  /** vol-fraction below the LOC when LOC >= 5 % */
+  locOffset: 0.02,
+  /** fraction of the LOC when LOC < 5 % */
+  locFractionLow: 0.6,
+  source: 'nfpa-69-margins-memory',
+} as const;
+
+/** acetylene: about 15 psig (1 bar gauge) outside the cylinder, Pa absolute */
+export const ACETYLENE_LIMIT_PA = 101325 + 15 * ((0.45359237 * 9.80665) / (0.0254 * 0.0254));

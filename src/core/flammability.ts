@@ -1,0 +1,261 @@
+/**
+ * Flammability of a tank state on the fuel / O2 / inert diagram, by two methods,
+ * and the more conservative verdict:
+ *  1. the limit envelope: fuel blends by Le Chatelier (LFL, UFL, UFL in O2, LOC),
+ *     inerts converted to N2-equivalent with the ISO 10156:2017 coefficients, and the
+ *     envelope polygon {LFL in O2, LFL in air, nose at the LOC, UFL in air, UFL in O2}
+ *     (Zabetakis 1965; Crowl & Louvar 2001);
+ *  2. the calculated adiabatic flame temperature: complete combustion, NASA data; a
+ *     state is flammable when its flame temperature reaches the limit flame
+ *     temperature of its fuel, calibrated on the fuel's LFL in air.
+ */
+import { FUEL_SAFETY, INERT_K, INERT_K_FALLBACK, MARGINS } from './data/safety-data.js';
+import { getSpecies } from './lookup.js';
+import { oxygenDemand } from './formula.js';
+import { flameTemperatureK } from './combustion.js';
+import type { Fractions } from './composition.js';
+
+export type Verdict = 'flammable' | 'near-limit' | 'non-flammable';
+
+const RANK: Record<Verdict, number> = { 'non-flammable': 0, 'near-limit': 1, flammable: 2 };
+export function worseVerdict(a: Verdict, b: Verdict): Verdict {
+  return RANK[a] >= RANK[b] ? a : b;
+}
+
+/** O2 in air on the diagram's air line */
+const AIR_O2 = 0.21;
+
+export interface BlendLimits {
+  readonly lfl: number;
+  readonly ufl: number;
+  readonly uflO2: number;
+  readonly loc: number;
+  /** mol O2 per mol fuel blend, stoichiometric */
+  readonly z: number;
+  /** fuels whose limit data are missing or estimated: the review says so */
+  readonly estimated: readonly string[];
+  readonly missing: readonly string[];
+  readonly sources: readonly string[];
+}
+
+/**
+ * Le Chatelier's rule: L_mix = 1 / sum(y_i / L_i), y_i the fractions of the fuel alone.
+ * Example (a textbook blend): 0.8 % hexane, 2.0 % methane, 0.5 % ethylene with LFL 1.1, 5.0, 2.7 %
+ * -> LFL 2.52 %.
+ */
+export function leChatelier(parts: readonly { fraction: number; limit: number }[]): number {
+  const s = parts.reduce((a, p) => a + p.fraction, 0);
+  return s / parts.reduce((a, p) => a + p.fraction / p.limit, 0);
+}
+
+/**
+ * Limits of a fuel blend (fractions of the fuel alone) at temperature T and pressure P.
+ * Le Chatelier: L_mix = 1 / sum(y_i / L_i), the same form for UFL, UFL in O2 and LOC
+ * (Zlochower & Green 2009 for LOC). The lower listed LFL and higher listed UFL are used.
+ * T above 25 degC widens both limits by 8 % per 100 K (modified Burgess-Wheeler);
+ * P above 1 atm raises UFL by 20.6 (log10 P/MPa + 1) vol % (Zabetakis). Neither
+ * narrows the limits below 25 degC or 1 atm (that would not be conservative).
+ * Fuels without data make the result undefined for them: they are listed in `missing`.
+ */
+export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: number): BlendLimits {
+  let invL = 0;
+  let invU = 0;
+  let invUO2 = 0;
+  let invLoc = 0;
+  let z = 0;
+  const estimated: string[] = [];
+  const missing: string[] = [];
+  const sources = new Set<string>();
+  let known = 0;
+  for (const [k, y] of Object.entries(fuel)) {
+    const d = oxygenDemand(getSpecies(k).elements);
+    z += y * d;
+    const rec = FUEL_SAFETY.get(k);
+    if (!rec) {
+      missing.push(k);
+      continue;
+    }
+    known += y;
+    const lfl = Math.min(...rec.lflAir.map((v) => v.value));
+    const ufl = Math.max(...rec.uflAir.map((v) => v.value));
+    rec.lflAir.forEach((v) => sources.add(v.source));
+    rec.uflAir.forEach((v) => sources.add(v.source));
+    let uflO2: number;
+    if (rec.uflO2) {
+      uflO2 = rec.uflO2.value;
+      sources.add(rec.uflO2.source);
+    } else {
+      // no measured limit in O2: a wide estimate (UFL in O2 is 3-6x UFL in air for these fuels)
+      uflO2 = Math.min(0.95, Math.max(0.6, 4 * ufl));
+      estimated.push(`${k} (UFL in O2)`);
+    }
+    let loc: number;
+    if (rec.loc) {
+      loc = rec.loc.value;
+      sources.add(rec.loc.source);
+    } else {
+      const raw = d * lfl;
+      loc = raw >= 0.1 ? raw - 0.02 : raw * 0.85;
+      estimated.push(`${k} (LOC = z x LFL)`);
+      sources.add('loc-estimate');
+    }
+    invL += y / lfl;
+    invU += y / ufl;
+    invUO2 += y / uflO2;
+    invLoc += loc > 0 ? y / loc : Infinity;
+  }
+  const scale = known > 0 ? known : 1;
+  let lfl = scale / invL;
+  let ufl = scale / invU;
+  const uflO2 = scale / invUO2;
+  const loc = Number.isFinite(invLoc) ? scale / invLoc : 0;
+  const dT = temperatureK - 298.15;
+  if (dT > 0) {
+    lfl *= 1 - 0.0008 * dT;
+    ufl *= 1 + 0.0008 * dT;
+  }
+  const pMPa = pressurePa / 1e6;
+  if (pMPa > 0.101325) ufl = Math.min(uflO2, ufl + 0.206 * (Math.log10(pMPa) + 1) - 0.206 * (Math.log10(0.101325) + 1));
+  return { lfl, ufl: Math.min(ufl, 1), uflO2, loc, z, estimated, missing, sources: [...sources] };
+}
+
+export interface DiagramPoint {
+  /** fuel mole fraction on the diagram (after N2-equivalent conversion and renormalising) */
+  readonly fuel: number;
+  readonly oxygen: number;
+  readonly inert: number;
+}
+
+/**
+ * A state as a point of the fuel / O2 / N2-equivalent diagram. Inerts count as
+ * K x their amount of N2 (ISO 10156:2017); oxygen carriers as their O2 equivalent
+ * (N2O and NO: half a mole of O2, their N2 as inert).
+ */
+export function diagramPoint(y: Fractions): { point: DiagramPoint; fuelBlend: Record<string, number>; unknownInerts: string[] } {
+  let f = 0;
+  let o = 0;
+  let n = 0;
+  const fuelBlend: Record<string, number> = {};
+  const unknownInerts: string[] = [];
+  for (const [k, v] of Object.entries(y)) {
+    if (v <= 0) continue;
+    const el = getSpecies(k).elements;
+    const d = oxygenDemand(el);
+    if (d > 0) {
+      f += v;
+      fuelBlend[k] = v;
+    } else if (d < 0) {
+      o += -d * v;
+      n += ((el.N ?? 0) / 2) * v; // N2O -> N2 + 1/2 O2
+    } else {
+      const K = INERT_K.get(k);
+      if (!K) unknownInerts.push(k);
+      n += (K?.value ?? INERT_K_FALLBACK) * v;
+    }
+  }
+  const s = f + o + n;
+  for (const k of Object.keys(fuelBlend)) fuelBlend[k] /= f;
+  return { point: { fuel: f / s, oxygen: o / s, inert: n / s }, fuelBlend, unknownInerts };
+}
+
+/** the envelope polygon in (fuel, oxygen) coordinates */
+export function envelopePolygon(l: BlendLimits): [number, number][] {
+  const noseFuel = l.z > 0 ? Math.max(l.lfl, l.loc / l.z) : l.lfl;
+  return [
+    [l.lfl, 1 - l.lfl], // LFL in O2 (about the LFL in air)
+    [l.lfl, AIR_O2 * (1 - l.lfl)], // LFL in air
+    [Math.min(noseFuel, l.ufl), Math.min(l.loc, AIR_O2 * (1 - l.lfl))], // nose at the LOC
+    [l.ufl, AIR_O2 * (1 - l.ufl)], // UFL in air
+    [l.uflO2, 1 - l.uflO2], // UFL in O2
+  ];
+}
+
+function onSegment(p: [number, number], a: [number, number], b: [number, number]): boolean {
+  const cross = (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0]);
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  if (Math.abs(cross) > 1e-9 * Math.max(len, 1e-12)) return false;
+  const dot = (p[0] - a[0]) * (b[0] - a[0]) + (p[1] - a[1]) * (b[1] - a[1]);
+  return dot >= -1e-12 && dot <= len * len + 1e-12;
+}
+
+/** inside or on the boundary (an undiluted fuel/O2 state lies on the fuel-O2 edge) */
+export function insidePolygon(p: [number, number], poly: [number, number][]): boolean {
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) if (onSegment(p, poly[j], poly[i])) return true;
+  let inside = false;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
+    const [xi, yi] = poly[i];
+    const [xj, yj] = poly[j];
+    if (yi > p[1] !== yj > p[1] && p[0] < ((xj - xi) * (p[1] - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
+
+export interface FlammabilityAssessment {
+  readonly verdict: Verdict;
+  readonly byEnvelope: Verdict;
+  readonly byFlameTemperature: Verdict;
+  readonly point: DiagramPoint;
+  readonly limits?: BlendLimits;
+  readonly flameK?: number;
+  readonly limitFlameK?: number;
+  readonly unknownInerts: readonly string[];
+}
+
+const limitCache = new Map<string, number>();
+
+/**
+ * Limit flame temperature of a fuel: the complete-combustion flame temperature of its
+ * lowest listed LFL in air (21 % O2 / 79 % N2) from 298.15 K.
+ */
+export function limitFlameTemperatureK(fuel: string): number | undefined {
+  const cached = limitCache.get(fuel);
+  if (cached !== undefined) return cached;
+  const rec = FUEL_SAFETY.get(fuel);
+  if (!rec) return undefined;
+  const L = Math.min(...rec.lflAir.map((v) => v.value));
+  const t = flameTemperatureK({ [fuel]: L, O2: AIR_O2 * (1 - L), N2: (1 - AIR_O2) * (1 - L) }, 298.15);
+  limitCache.set(fuel, t);
+  return t;
+}
+
+/** flame-temperature margin for "near the limit": 60 % of the limit temperature rise (the same share as the LFL margin) */
+const FLAME_MARGIN = MARGINS.lflFraction;
+
+export function assessFlammability(y: Fractions, temperatureK: number, pressurePa: number): FlammabilityAssessment {
+  const { point, fuelBlend, unknownInerts } = diagramPoint(y);
+  const hasFuel = Object.keys(fuelBlend).length > 0;
+  if (!hasFuel || point.oxygen <= 0) {
+    return { verdict: 'non-flammable', byEnvelope: 'non-flammable', byFlameTemperature: 'non-flammable', point, unknownInerts };
+  }
+  const limits = blendLimits(fuelBlend, temperatureK, pressurePa);
+  // envelope
+  let byEnvelope: Verdict = 'non-flammable';
+  const poly = envelopePolygon(limits);
+  if (insidePolygon([point.fuel, point.oxygen], poly)) byEnvelope = 'flammable';
+  else {
+    const locNear = limits.loc >= 0.05 ? limits.loc - MARGINS.locOffset : limits.loc * MARGINS.locFractionLow;
+    if (point.fuel >= MARGINS.lflFraction * limits.lfl && point.oxygen >= locNear && point.fuel <= limits.uflO2) byEnvelope = 'near-limit';
+  }
+  // flame temperature; the limit of a blend is the fuel-weighted mean of its fuels' limits
+  let limitFlameK = 0;
+  let wsum = 0;
+  for (const [k, w] of Object.entries(fuelBlend)) {
+    const t = limitFlameTemperatureK(k);
+    if (t !== undefined) {
+      limitFlameK += w * t;
+      wsum += w;
+    }
+  }
+  let byFlameTemperature: Verdict = 'non-flammable';
+  let flameK: number | undefined;
+  if (wsum > 0) {
+    limitFlameK /= wsum;
+    flameK = flameTemperatureK(y, temperatureK);
+    if (flameK >= limitFlameK) byFlameTemperature = 'flammable';
+    else if (flameK - temperatureK >= FLAME_MARGIN * (limitFlameK - 298.15)) byFlameTemperature = 'near-limit';
+  }
+  // a fuel without limit data cannot be judged non-flammable
+  let verdict = worseVerdict(byEnvelope, byFlameTemperature);
+  if (limits.missing.length && verdict === 'non-flammable') verdict = 'near-limit';
+  return { verdict, byEnvelope, byFlameTemperature, point, limits, flameK, limitFlameK: wsum > 0 ? limitFlameK : undefined, unknownInerts };
+}

@@ -1,0 +1,135 @@
+/**
+ * Fill-order advice: evaluate the candidate orders of a design's fills and
+ * recommend one that keeps every intermediate tank state out of the flammable
+ * region (and free of compression-heating and line hazards) where one exists;
+ * among equally safe orders, the smallest partial pressure first.
+ */
+import type { Fractions } from './composition.js';
+import type { GasSource } from './supply.js';
+import { reviewFill, reviewState, type FillEvent, type SafetyContext, type TankState } from './safety.js';
+import type { Finding } from './findings.js';
+
+export interface OrderScore {
+  readonly danger: number;
+  readonly warning: number;
+  readonly note: number;
+  /** pairs out of smallest-first order */
+  readonly inversions: number;
+  /** what the order makes, for the reason text */
+  readonly hazards: readonly Finding[];
+}
+
+export interface OrderAdvice {
+  readonly sources: GasSource[];
+  readonly reason: string;
+  readonly score: OrderScore;
+  /** true when no order keeps every intermediate state non-flammable and hazard-free */
+  readonly noSafeOrder: boolean;
+}
+
+const ORDER_RELEVANT = new Set(['flammable-state', 'near-flammable', 'detonable-state', 'closed-vessel-pressure', 'compression-heating', 'condensation', 'acetylene-pressure', 'no-with-o2', 'n2o-decomposition']);
+
+function permutations<T>(xs: readonly T[]): T[][] {
+  if (xs.length <= 1) return [[...xs]];
+  return xs.flatMap((x, i) => permutations([...xs.slice(0, i), ...xs.slice(i + 1)]).map((p) => [x, ...p]));
+}
+
+/** states and fills of one order, with pressures from the amounts (ideal gas: enough for ranking) */
+export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, finalPa: number, initial?: { composition: Fractions; amountMol: number }) {
+  const total = [...amounts.values()].reduce((a, b) => a + b, 0) + (initial?.amountMol ?? 0);
+  const cum: Record<string, number> = {};
+  let n = 0;
+  if (initial) {
+    for (const [k, v] of Object.entries(initial.composition)) cum[k] = v * initial.amountMol;
+    n = initial.amountMol;
+  }
+  const states: TankState[] = [];
+  const fills: FillEvent[] = [];
+  let before: TankState | undefined = initial ? { step: 0, composition: { ...initial.composition }, pressurePa: (finalPa * n) / total, final: false } : undefined;
+  if (before) states.push(before);
+  order.forEach((s, i) => {
+    const a = amounts.get(s) ?? 0;
+    for (const [k, v] of Object.entries(s.composition)) cum[k] = (cum[k] ?? 0) + v * a;
+    cum[s.mainSpecies] = (cum[s.mainSpecies] ?? 0) + s.unidentified * a;
+    n += a;
+    const y: Record<string, number> = {};
+    const sum = Object.values(cum).reduce((p, q) => p + q, 0);
+    for (const [k, v] of Object.entries(cum)) y[k] = v / sum;
+    const after: TankState = { step: i + 1, composition: y, pressurePa: (finalPa * n) / total, final: i === order.length - 1 };
+    states.push(after);
+    fills.push({ step: i + 1, sourceId: s.id, sourceComposition: s.composition, before, after });
+    before = after;
+  });
+  return { states, fills };
+}
+
+function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, ascending: readonly GasSource[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }): OrderScore {
+  const { states, fills } = sequenceOf(order, amounts, finalPa, initial);
+  const hazards: Finding[] = [];
+  for (const s of states) if (!s.final && s.step > 0) hazards.push(...reviewState(s, ctx).findings.filter((f) => ORDER_RELEVANT.has(f.code)));
+  for (const f of fills) hazards.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
+  const rank = new Map(ascending.map((s, i) => [s, i]));
+  let inversions = 0;
+  for (let i = 0; i < order.length; i++) for (let j = i + 1; j < order.length; j++) if (rank.get(order[i])! > rank.get(order[j])!) inversions++;
+  const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
+  return { danger: count('danger'), warning: count('warning'), note: count('note'), inversions, hazards };
+}
+
+function better(a: OrderScore, b: OrderScore): boolean {
+  if (a.danger !== b.danger) return a.danger < b.danger;
+  if (a.warning !== b.warning) return a.warning < b.warning;
+  if (a.note !== b.note) return a.note < b.note;
+  return a.inversions < b.inversions;
+}
+
+const MAX_EXHAUSTIVE = 6;
+
+/**
+ * @param sources the fills, in any order; `amountsMol` the mol each delivers (same order)
+ * @param initial gas already in the tank, with its amount on the same scale
+ */
+export function adviseOrder(
+  sources: readonly GasSource[],
+  amountsMol: readonly number[],
+  finalPa: number,
+  ctx: SafetyContext,
+  initial?: { composition: Fractions; amountMol: number },
+): OrderAdvice {
+  const amounts = new Map(sources.map((s, i) => [s, amountsMol[i]]));
+  const ascending = [...sources].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
+  const candidates = sources.length <= MAX_EXHAUSTIVE ? permutations(ascending) : [ascending];
+  let best = ascending;
+  let bestScore = scoreOrder(ascending, amounts, ascending, finalPa, ctx, initial);
+  const ascendingScore = bestScore;
+  for (const c of candidates) {
+    const sc = scoreOrder(c, amounts, ascending, finalPa, ctx, initial);
+    if (better(sc, bestScore)) {
+      best = c;
+      bestScore = sc;
+    }
+  }
+  const clean = bestScore.danger === 0 && bestScore.warning === 0 && bestScore.note === 0;
+  const names = (o: readonly GasSource[]) => o.map((s) => s.id);
+  let reason: string;
+  if (clean && best === ascending) {
+    reason = 'smallest partial pressure first, largest last (best relative resolution for the small fills); every intermediate tank state is non-flammable';
+  } else if (clean) {
+    const first = ascendingScore.hazards[0];
+    reason = `keeps every intermediate tank state out of the flammable region and free of the hazards checked; the smallest-first order (${names(ascending).join(', ')}) would give ${first ? `${first.code} after fill ${first.step}` : 'a hazardous state'}`;
+  } else {
+    const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
+    reason = `no fill order keeps every intermediate tank state non-flammable and hazard-free; this one has the fewest and least severe (${codes})`;
+  }
+  return { sources: best, reason, score: bestScore, noSafeOrder: !clean };
+}
+
+/** the score of a given order (its own smallest-first ranking for the tie-break) */
+export function scoreGivenOrder(order: readonly GasSource[], amountsMol: readonly number[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }): OrderScore {
+  const amounts = new Map(order.map((s, i) => [s, amountsMol[i]]));
+  const ascending = [...order].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
+  return scoreOrder(order, amounts, ascending, finalPa, ctx, initial);
+}
+
+export function isSaferThan(a: OrderScore, b: OrderScore): boolean {
+  return a.danger < b.danger || (a.danger === b.danger && a.warning < b.warning);
+}

@@ -1,0 +1,202 @@
+/**
+ * The safety review of every tank state of a fill (after each fill, and the gas
+ * already in the tank), and of each fill line: pressure against the tank rating,
+ * condensation, flammability, detonability, closed-vessel pressure, compression
+ * heating, and known incompatibilities. Findings only: the review never changes
+ * the plan.
+ */
+import type { Fractions } from './composition.js';
+import { ACETYLENE_LIMIT_PA, FUEL_SAFETY, INERT_K } from './data/safety-data.js';
+import { assessFlammability, blendLimits, type FlammabilityAssessment } from './flammability.js';
+import { adiabaticCompressionK, closedVesselCombustion } from './combustion.js';
+import { gammaMixture } from './thermo.js';
+import { saturationPressure } from './vapour-pressure.js';
+import { getSpecies } from './lookup.js';
+import { oxygenDemand } from './formula.js';
+import type { Finding, FlammabilityNumbers } from './findings.js';
+
+export interface SafetyContext {
+  readonly temperatureK: number;
+  /** working limit of the tank, Pa absolute; undefined when the rating is unknown */
+  readonly workingLimitPa?: number;
+  readonly tankId: string;
+  /** coldest wetted temperature of tank and lines, K */
+  readonly coldestK?: number;
+  /** fraction of the saturation pressure a partial pressure may reach (default 0.5) */
+  readonly condensationFraction?: number;
+}
+
+/** one tank state: after fill `step` (0 = gas already in the tank) */
+export interface TankState {
+  readonly step: number;
+  readonly composition: Fractions;
+  readonly pressurePa: number;
+  readonly final: boolean;
+}
+
+/** one fill: what enters and from which state to which */
+export interface FillEvent {
+  readonly step: number;
+  readonly sourceId: string;
+  readonly sourceComposition: Fractions;
+  readonly before?: TankState;
+  readonly after: TankState;
+}
+
+/** fuels whose autoignition temperature is low enough to matter even without a flammable state */
+const COMPRESSION_WARNING_MARGIN_K = 100;
+/** inert share of the N2-equivalent diagram below which a flammable fuel/O2 state counts as detonable */
+const DETONABLE_INERT_BELOW = 0.5;
+const OXYGEN_ENRICHED_ABOVE = 0.235;
+
+function hasOxidizer(y: Fractions): boolean {
+  return Object.entries(y).some(([k, v]) => v > 0 && oxygenDemand(getSpecies(k).elements) < 0);
+}
+
+function fuelsIn(y: Fractions): string[] {
+  return Object.entries(y)
+    .filter(([k, v]) => v > 1e-9 && oxygenDemand(getSpecies(k).elements) > 0)
+    .map(([k]) => k);
+}
+
+export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: number): FlammabilityNumbers {
+  const e = a.byEnvelope === a.verdict;
+  const t = a.byFlameTemperature === a.verdict;
+  return {
+    method: e && t ? 'envelope and flame temperature' : e ? 'envelope' : 'flame temperature',
+    fuelFraction: a.point.fuel,
+    oxygenFraction: a.point.oxygen,
+    lfl: a.limits?.lfl,
+    loc: a.limits?.loc,
+    flameK: a.flameK,
+    limitFlameK: a.limitFlameK,
+    pressurePa,
+  };
+}
+
+/** the hazards of one state, as findings */
+export function reviewState(s: TankState, ctx: SafetyContext): { findings: Finding[]; flammability: FlammabilityAssessment } {
+  const out: Finding[] = [];
+  const step = s.step > 0 ? s.step : undefined;
+  const a = assessFlammability(s.composition, ctx.temperatureK, s.pressurePa);
+  const nums = flammabilityNumbers(a, s.pressurePa);
+  if (a.verdict === 'flammable') {
+    out.push({ severity: 'warning', code: s.final ? 'flammable-mixture' : 'flammable-state', step, ...nums });
+    if (a.point.inert < DETONABLE_INERT_BELOW) out.push({ severity: 'danger', code: 'detonable-state', step, inertFraction: a.point.inert, pressurePa: s.pressurePa });
+  } else if (a.verdict === 'near-limit') {
+    out.push({ severity: 'note', code: 'near-flammable', step, ...nums });
+  }
+  if (a.verdict !== 'non-flammable') {
+    const cv = closedVesselCombustion(s.composition, ctx.temperatureK);
+    const peak = s.pressurePa * cv.pressureRatio;
+    const over = ctx.workingLimitPa !== undefined && peak > ctx.workingLimitPa;
+    out.push({ severity: over ? (a.verdict === 'flammable' ? 'danger' : 'warning') : 'note', code: 'closed-vessel-pressure', step, fromPa: s.pressurePa, peakPa: peak, limitPa: ctx.workingLimitPa });
+  }
+  const y = s.composition;
+  if ((y.NO ?? 0) > 0 && (y.O2 ?? 0) > 0) out.push({ severity: 'danger', code: 'no-with-o2', step, pressurePa: s.pressurePa });
+  const pC2H2 = (y.C2H2 ?? 0) * s.pressurePa;
+  if (pC2H2 > ACETYLENE_LIMIT_PA) out.push({ severity: 'danger', code: 'acetylene-pressure', step, partialPa: pC2H2, limitPa: ACETYLENE_LIMIT_PA, inLine: false });
+  const pN2O = (y.N2O ?? 0) * s.pressurePa;
+  if (pN2O > 1e5) out.push({ severity: 'warning', code: 'n2o-decomposition', step, partialPa: pN2O });
+  const xO2 = (y.O2 ?? 0) + 0.5 * (y.N2O ?? 0);
+  if (xO2 > OXYGEN_ENRICHED_ABOVE) out.push({ severity: 'note', code: 'oxygen-enriched', step, oxygenFraction: xO2 });
+  // condensation of each species below its critical temperature
+  const cold = ctx.coldestK ?? ctx.temperatureK;
+  const frac = ctx.condensationFraction ?? 0.5;
+  for (const [k, v] of Object.entries(y)) {
+    if (v <= 0) continue;
+    const ps = saturationPressure(k, cold);
+    if (!ps) continue;
+    const partial = v * s.pressurePa;
+    if (partial > frac * ps.pressurePa) {
+      out.push({ severity: partial > ps.pressurePa ? 'danger' : 'warning', code: 'condensation', step, species: k, partialPa: partial, psatPa: ps.pressurePa, fraction: frac, coldestK: cold, inLine: false, method: ps.method });
+    }
+  }
+  return { findings: out, flammability: a };
+}
+
+/** hazards of the fill itself: its line, compression heating of the gas it compresses, oxygen service */
+export function reviewFill(e: FillEvent, ctx: SafetyContext): Finding[] {
+  const out: Finding[] = [];
+  const step = e.step;
+  const src = e.sourceComposition;
+  const cold = ctx.coldestK ?? ctx.temperatureK;
+  const frac = ctx.condensationFraction ?? 0.5;
+  // the line of a pure vapour or gas holds it at (at least) the pressure the tank reaches
+  const main = Object.entries(src).reduce((a, b) => (b[1] > a[1] ? b : a))[0];
+  if ((src[main] ?? 0) > 0.5) {
+    const ps = saturationPressure(main, cold);
+    const linePa = e.after.pressurePa * (src[main] ?? 1);
+    if (ps && linePa > frac * ps.pressurePa) {
+      out.push({ severity: linePa > ps.pressurePa ? 'danger' : 'warning', code: 'condensation', step, species: main, partialPa: linePa, psatPa: ps.pressurePa, fraction: frac, coldestK: cold, inLine: true, method: ps.method });
+    }
+    if (main === 'C2H2' && linePa > ACETYLENE_LIMIT_PA) out.push({ severity: 'danger', code: 'acetylene-pressure', step, partialPa: linePa, limitPa: ACETYLENE_LIMIT_PA, inLine: true });
+  }
+  if (hasOxidizer(src)) out.push({ severity: 'note', code: 'oxygen-service', step, source: e.sourceId });
+  // compression heating of the gas already in the tank
+  if (e.before && e.before.pressurePa > 0) {
+    const fuels = fuelsIn(e.before.composition);
+    if (fuels.length && (hasOxidizer(e.before.composition) || hasOxidizer(src))) {
+      const gamma = gammaMixture(e.before.composition, ctx.temperatureK);
+      const endK = adiabaticCompressionK(ctx.temperatureK, e.after.pressurePa / e.before.pressurePa, gamma);
+      let worst: { fuel: string; ait: number } | undefined;
+      for (const f of fuels) {
+        const ait = FUEL_SAFETY.get(f)?.ait?.value;
+        if (ait !== undefined && (!worst || ait < worst.ait)) worst = { fuel: f, ait };
+      }
+      if (worst && endK >= worst.ait - COMPRESSION_WARNING_MARGIN_K) {
+        out.push({
+          severity: endK >= worst.ait ? 'danger' : 'warning',
+          code: 'compression-heating',
+          step,
+          fuel: worst.fuel,
+          fromPa: e.before.pressurePa,
+          toPa: e.after.pressurePa,
+          gamma,
+          endK,
+          aitK: worst.ait,
+        });
+      }
+    }
+  }
+  return out;
+}
+
+/** data gaps that make the review less certain: said once per batch */
+export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext): Finding[] {
+  const out: Finding[] = [];
+  const species = new Set<string>();
+  for (const s of states) for (const [k, v] of Object.entries(s.composition)) if (v > 1e-7) species.add(k);
+  for (const k of species) {
+    const d = oxygenDemand(getSpecies(k).elements);
+    if (d > 0 && !FUEL_SAFETY.has(k)) out.push({ severity: 'warning', code: 'no-flammability-data', species: k });
+    if (d === 0 && !INERT_K.has(k) && states.some((s) => fuelsIn(s.composition).length > 0)) {
+      out.push({ severity: 'note', code: 'inert-coefficient-unknown', species: k, used: 0.5 });
+    }
+    const ps = saturationPressure(k, ctx.coldestK ?? ctx.temperatureK);
+    if (ps && (ps.method === 'lee-kesler' || ps.method === 'antoine-extrapolated')) {
+      // only worth saying where the species is present in more than trace amounts
+      if (states.some((s) => (s.composition[k] ?? 0) * s.pressurePa > 0.05 * ps.pressurePa)) {
+        out.push({ severity: 'note', code: 'psat-estimated', species: k, method: ps.method, coldestK: ctx.coldestK ?? ctx.temperatureK });
+      }
+    }
+  }
+  const fuels = [...species].filter((k) => FUEL_SAFETY.has(k) && states.some((st) => (st.composition[k] ?? 0) > 1e-4));
+  for (const k of fuels) {
+    for (const what of blendLimits({ [k]: 1 }, 298.15, 101325).estimated) out.push({ severity: 'note', code: 'flammability-data-estimated', what });
+  }
+  if (ctx.coldestK === undefined && [...species].some((k) => saturationPressure(k, ctx.temperatureK) !== undefined)) {
+    out.push({ severity: 'note', code: 'coldest-temperature-assumed', temperatureK: ctx.temperatureK });
+  }
+  return out;
+}
+
+/** the whole review: every state, every fill, the data gaps */
+export function reviewFillSequence(states: readonly TankState[], fills: readonly FillEvent[], ctx: SafetyContext): Finding[] {
+  const out: Finding[] = [];
+  if (ctx.workingLimitPa === undefined) out.push({ severity: 'warning', code: 'tank-rating-unknown', tank: ctx.tankId });
+  for (const s of states) out.push(...reviewState(s, ctx).findings);
+  for (const f of fills) out.push(...reviewFill(f, ctx));
+  out.push(...reviewDataGaps(states, ctx));
+  return out;
+}
