@@ -13,6 +13,8 @@ export interface OrderScore {
   readonly danger: number;
   readonly warning: number;
   readonly note: number;
+  /** line condensation findings: order can move them but rarely remove them, so they only break ties */
+  readonly condensation: number;
   /** pairs out of smallest-first order */
   readonly inversions: number;
   /** what the order makes, for the reason text */
@@ -66,19 +68,22 @@ export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<Gas
 function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, ascending: readonly GasSource[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }): OrderScore {
   const { states, fills } = sequenceOf(order, amounts, finalPa, initial);
   const hazards: Finding[] = [];
-  for (const s of states) if (!s.final && s.step > 0) hazards.push(...reviewState(s, ctx).findings.filter((f) => ORDER_RELEVANT.has(f.code)));
+  // in-tank condensation is left out: the vapour's partial pressure is the same in every order once it is in
+  for (const s of states) if (!s.final && s.step > 0) hazards.push(...reviewState(s, ctx).findings.filter((f) => ORDER_RELEVANT.has(f.code) && f.code !== 'condensation'));
   for (const f of fills) hazards.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
   const rank = new Map(ascending.map((s, i) => [s, i]));
   let inversions = 0;
   for (let i = 0; i < order.length; i++) for (let j = i + 1; j < order.length; j++) if (rank.get(order[i])! > rank.get(order[j])!) inversions++;
-  const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
-  return { danger: count('danger'), warning: count('warning'), note: count('note'), inversions, hazards };
+  const main = hazards.filter((h) => h.code !== 'condensation');
+  const count = (sev: string) => main.filter((h) => h.severity === sev).length;
+  return { danger: count('danger'), warning: count('warning'), note: count('note'), condensation: hazards.length - main.length, inversions, hazards: main };
 }
 
 function better(a: OrderScore, b: OrderScore): boolean {
   if (a.danger !== b.danger) return a.danger < b.danger;
   if (a.warning !== b.warning) return a.warning < b.warning;
   if (a.note !== b.note) return a.note < b.note;
+  if (a.condensation !== b.condensation) return a.condensation < b.condensation;
   return a.inversions < b.inversions;
 }
 

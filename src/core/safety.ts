@@ -195,7 +195,17 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
 export function reviewFillSequence(states: readonly TankState[], fills: readonly FillEvent[], ctx: SafetyContext): Finding[] {
   const out: Finding[] = [];
   if (ctx.workingLimitPa === undefined) out.push({ severity: 'warning', code: 'tank-rating-unknown', tank: ctx.tankId });
-  for (const s of states) out.push(...reviewState(s, ctx).findings);
+  // a vapour too close to saturation stays so in every later state: said once, at the first state it happens
+  const condensing = new Set<string>();
+  for (const s of states) {
+    for (const f of reviewState(s, ctx).findings) {
+      if (f.code === 'condensation') {
+        if (condensing.has(f.species)) continue;
+        condensing.add(f.species);
+      }
+      out.push(f);
+    }
+  }
   for (const f of fills) out.push(...reviewFill(f, ctx));
   out.push(...reviewDataGaps(states, ctx));
   return out;
