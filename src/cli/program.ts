@@ -19,6 +19,25 @@ import { planToJson } from '../report/plan-json.js';
 import { planToText } from '../report/plan-text.js';
 import { speciesDetail, speciesList } from '../report/species-text.js';
 import { DEMO_LAB_YAML } from '../io/demo-lab.js';
+import { checkFile, type CheckReport } from '../io/check.js';
+import { checkToJson, checkToText, folderSummary } from '../report/check-report.js';
+import { readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+
+function isDirectory(p: string): boolean {
+  try {
+    return statSync(p).isDirectory();
+  } catch {
+    return false;
+  }
+}
+
+function listLogs(dir: string): string[] {
+  return readdirSync(dir)
+    .filter((f) => /\.(jsonl|csv)$/i.test(f))
+    .sort()
+    .map((f) => join(dir, f));
+}
 import { VERSION } from '../version.js';
 
 export interface Streams {
@@ -209,6 +228,44 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       if (o.json) out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
       else out(planToText(plan, meta, unit));
       if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+    });
+
+  program
+    .command('check')
+    .description('re-check a batch from its logged fills: composition, phi and dilution with a GUM and Monte Carlo uncertainty budget, against the design')
+    .argument('<log>', 'batch log (.jsonl), CSV readings (species,pressure,temperature), or a folder of them')
+    .option('--recipe <file>', 'the design the CSV readings were filled to (its lab profile, cylinders and tolerance)')
+    .option('--lab <file>', 'lab profile for CSV readings (gauges, barometer, thermometer)')
+    .option('--json', 'print one JSON object')
+    .option('--trials <n>', 'Monte Carlo trials (at least 100000)', '200000')
+    .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
+    .action((target: string, o: { recipe?: string; lab?: string; json?: boolean; trials: string; seed: string }) => {
+      const trials = numberOption(o.trials, '--trials');
+      if (!(Number.isInteger(trials) && trials >= 1e5)) throw new ProblemError({ code: 'out-of-range', what: 'Monte Carlo trials', value: trials, allowed: 'a whole number >= 100000 (JCGM 101 needs enough trials for a 95 % interval)' }, { field: '--trials' });
+      const seed = numberOption(o.seed, '--seed');
+      const opts = { trials, seed, recipeFile: o.recipe, labFile: o.lab };
+      if (isDirectory(target)) {
+        const files = listLogs(target);
+        if (files.length === 0) throw new ProblemError({ code: 'file-unreadable', reason: 'the folder holds no .jsonl or .csv files' }, { file: target });
+        type Row = { file: string; report: CheckReport } | { file: string; error: string };
+        const rows: Row[] = files.map((f): Row => {
+          try {
+            return { file: f, report: checkFile(f, opts) };
+          } catch (e) {
+            if (e instanceof ProblemError) return { file: f, error: describeProblemAt(e.problem, e.where) };
+            throw e;
+          }
+        });
+        if (o.json) out(JSON.stringify(rows.map((r) => ('report' in r ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) } : r)), null, 2) + '\n');
+        else out(folderSummary(rows));
+        if (rows.some((r) => 'error' in r)) throw new ExitSignal(EXIT.input);
+        if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail')) throw new ExitSignal(EXIT.outOfTolerance);
+        return;
+      }
+      const report = checkFile(target, opts);
+      if (o.json) out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
+      else out(checkToText(report));
+      if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
     });
 
   program

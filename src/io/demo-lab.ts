@@ -12,6 +12,9 @@ barometer:
   pressure: 760 Torr
   uncertainty: 0.4 Torr
 air: { O2: 0.21, N2: 0.79 }
+thermometer:
+  uncertainty: 0.3 K
+  resolution: 0.1 K
 coldest: 18 degC
 condensation_fraction: 0.5
 tanks:

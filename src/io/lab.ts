@@ -66,6 +66,13 @@ export const labSchema = z
       .strict()
       .optional(),
     air: blendSchema.optional().describe('composition used for oxidizer "air"; default O2 0.21, N2 0.79'),
+    thermometer: z
+      .object({
+        uncertainty: quantity('standard uncertainty of the tank thermometer', '0.3 K'),
+        resolution: quantity('display resolution of the tank thermometer', '0.1 K').optional(),
+      })
+      .strict()
+      .optional(),
     coldest: quantity('coldest temperature any wetted part (tank, lines, gauge heads) reaches, for the condensation check', '18 degC').optional(),
     condensation_fraction: z.number().gt(0).max(1).optional().describe('largest allowed fraction of the saturation pressure at the coldest point; default 0.5 (common practice)'),
     tanks: z.array(tankSchema).default([]),

@@ -77,6 +77,8 @@ export interface LoadedLab {
   readonly cylinders: readonly GasSource[];
   /** coldest wetted temperature of tank, lines and gauge heads, K */
   readonly coldestK?: number;
+  /** tank thermometer: standard uncertainty and resolution, K; undefined when the profile gives none */
+  readonly thermometer?: { readonly uncertaintyK: number; readonly resolutionK: number };
   readonly condensationFraction?: number;
 }
 
@@ -133,6 +135,16 @@ export function loadLab(file?: string): LoadedLab {
   const baroPa = lab.barometer ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure')) : 101325;
   const baroU = lab.barometer ? parseQuantity(lab.barometer.uncertainty, 'pressure', w(['barometer', 'uncertainty'], 'barometer.uncertainty')) : 100;
   const coldestK = lab.coldest === undefined ? undefined : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest'));
+  // a temperature difference: K (or degC steps) only, never an offset conversion
+  const kelvinDiff = (text: string, path: DataPath, field: string) => {
+    const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(K|mK)\s*$/.exec(text);
+    if (!m) fail({ code: 'bad-quantity', text, expected: 'temperature difference', reason: 'give it in K (e.g. "0.3 K")' }, w(path, field));
+    return Number(m[1]) * (m[2] === 'mK' ? 1e-3 : 1);
+  };
+  const thermometer = lab.thermometer && {
+    uncertaintyK: kelvinDiff(lab.thermometer.uncertainty, ['thermometer', 'uncertainty'], 'thermometer.uncertainty'),
+    resolutionK: lab.thermometer.resolution === undefined ? 0 : kelvinDiff(lab.thermometer.resolution, ['thermometer', 'resolution'], 'thermometer.resolution'),
+  };
   return {
     name: lab.name,
     origin: file ?? DEMO_LAB_NAME,
@@ -144,6 +156,7 @@ export function loadLab(file?: string): LoadedLab {
     gauges,
     cylinders,
     coldestK,
+    thermometer,
     condensationFraction: lab.condensation_fraction,
   };
 }

@@ -1,0 +1,269 @@
+/**
+ * The uncertainty budget of a re-checked batch.
+ *
+ * Inputs are built as independent components, so that correlations come from the
+ * model itself: one span factor and one zero offset per gauge (shared by all its
+ * readings: a span error largely cancels in ratios of readings on the same gauge),
+ * one resolution term per reading, the barometer (shared by gauge-referenced
+ * readings), one thermometer offset (shared) and one resolution term per reading,
+ * one term per virial coefficient, and one purity term per source.
+ *  - GUM (JCGM 100:2008) law of propagation: u_c^2 = sum (c_i u_i)^2 over the
+ *    independent inputs, c_i u_i by central differences of the inverse model.
+ *  - Monte Carlo (JCGM 101:2008): M trials of the same model with each input drawn
+ *    from its distribution (rectangular for gauge specifications, resolution and
+ *    purity; normal for the barometer, the thermometer and virial coefficients),
+ *    a seeded xoshiro128** generator, the probabilistically symmetric 95 % interval,
+ *    and the validation of the GUM interval of JCGM 101 section 8.
+ */
+import { gaugeReadingPa, type Gauge } from './gauges.js';
+import type { GasSource } from './supply.js';
+import { inverseSetup, invertReadings, type InverseSetup } from './recheck.js';
+import { equivalenceRatio, speciesRole, type Fractions } from './composition.js';
+import { xoshiro128ss } from './prng.js';
+
+export interface CheckedReading {
+  readonly step: number;
+  readonly source: GasSource;
+  /** absolute pressure after the fill, Pa */
+  readonly pressurePa: number;
+  readonly temperatureK: number;
+  readonly gauge: Gauge;
+}
+
+export interface UncertaintySettings {
+  readonly barometricPa: number;
+  readonly barometricUncertaintyPa: number;
+  /** standard uncertainty of the tank thermometer (an offset common to all readings), K */
+  readonly thermometerUncertaintyK: number;
+  /** thermometer display resolution, K */
+  readonly thermometerResolutionK: number;
+  /** Monte Carlo trials (>= 1e5 for a reported result) and seed */
+  readonly trials: number;
+  readonly seed: number;
+}
+
+type Dist = 'rectangular' | 'normal';
+
+export interface InputComponent {
+  readonly name: string;
+  readonly dist: Dist;
+  /** rectangular: half-width; normal: standard deviation */
+  readonly scale: number;
+  /** standard uncertainty */
+  readonly u: number;
+  readonly unit: string;
+}
+
+/** our estimates of the virial-coefficient uncertainty, from the comparisons recorded in DEVELOPERS.md */
+export const VIRIAL_U = {
+  reference: { absolute: 0.5e-6, relative: 0.01 },
+  correlation: { absolute: 2e-6, relative: 0.05 },
+  cross: { absolute: 4e-6, relative: 0.15 },
+} as const;
+
+export interface OutputStat {
+  readonly value: number;
+  readonly u: number;
+  /** GUM 95 % interval, k = 2 */
+  readonly low: number;
+  readonly high: number;
+  readonly mc?: { readonly mean: number; readonly u: number; readonly low: number; readonly high: number; readonly validated: boolean; readonly tolerance: number };
+  /** the largest contributions c_i u_i, largest first */
+  readonly budget: readonly { readonly name: string; readonly contribution: number }[];
+}
+
+export interface UncertaintyResult {
+  readonly species: readonly string[];
+  readonly composition: Record<string, OutputStat>;
+  readonly phi?: OutputStat;
+  readonly diluentFraction?: OutputStat;
+  readonly unidentified: number;
+  readonly components: readonly InputComponent[];
+  readonly trials: number;
+  readonly seed: number;
+}
+
+interface Model {
+  readonly setup: InverseSetup;
+  readonly components: InputComponent[];
+  /** apply a vector of component values to get the outputs */
+  readonly evaluate: (v: Float64Array) => Float64Array;
+  readonly outputs: readonly string[];
+}
+
+function buildModel(readings: readonly CheckedReading[], settings: UncertaintySettings, diluent: readonly string[], initial?: { composition: Fractions; pressurePa: number; temperatureK: number }): Model {
+  const setup = inverseSetup(
+    readings.map((r) => ({ source: r.source, pressurePa: r.pressurePa, temperatureK: r.temperatureK })),
+    initial,
+  );
+  const S = setup.species.length;
+  const K = readings.length;
+  const components: InputComponent[] = [];
+  const add = (name: string, dist: Dist, scale: number, unit: string) => {
+    const u = dist === 'rectangular' ? scale / Math.sqrt(3) : scale;
+    components.push({ name, dist, scale, u, unit });
+    return components.length - 1;
+  };
+  const ctx = { barometricPa: settings.barometricPa, barometricUncertaintyPa: settings.barometricUncertaintyPa };
+  const gauges = [...new Map(readings.map((r) => [r.gauge.id, r.gauge])).values()];
+  const spanIdx = new Map<string, number>();
+  const offIdx = new Map<string, number>();
+  for (const g of gauges) {
+    if (g.accuracyOfReading > 0) spanIdx.set(g.id, add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1'));
+    if (g.accuracyOfFullScale > 0) offIdx.set(g.id, add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa'));
+  }
+  const resIdx = readings.map((r) => (r.gauge.resolutionPa > 0 ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa') : -1));
+  const baroIdx = readings.some((r) => r.gauge.reference === 'gauge') ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa') : -1;
+  const thermoIdx = settings.thermometerUncertaintyK > 0 ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K') : -1;
+  const tResIdx = readings.map((r) => (settings.thermometerResolutionK > 0 ? add(`temperature resolution, reading ${r.step}`, 'rectangular', settings.thermometerResolutionK / 2, 'K') : -1));
+  const bIdx: { i: number; j: number; c: number }[] = [];
+  for (const e of setup.model.entries) {
+    const i = setup.species.indexOf(e.i);
+    const j = setup.species.indexOf(e.j);
+    const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : VIRIAL_U.cross;
+    const u = Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
+    bIdx.push({ i, j, c: add(`B ${e.i}-${e.j}`, 'normal', u, 'm3/mol') });
+  }
+  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular
+  const purIdx = readings.map((r) => (r.source.unidentified > 0 ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1') : -1));
+
+  const readingPa = readings.map((r) => gaugeReadingPa(r.gauge, r.pressurePa, ctx));
+  const dilIdx = diluent.map((k) => setup.species.indexOf(k)).filter((i) => i >= 0);
+  const outputs = [...setup.species, 'phi', 'diluent'];
+  const P = new Float64Array(K);
+  const T = new Float64Array(K);
+  const bAbs = new Float64Array(S * S);
+  const pur = new Float64Array(K);
+  const evaluate = (v: Float64Array): Float64Array => {
+    for (let k = 0; k < K; k++) {
+      const r = readings[k];
+      let p = r.pressurePa;
+      const si = spanIdx.get(r.gauge.id);
+      if (si !== undefined) p += v[si] * readingPa[k];
+      const oi = offIdx.get(r.gauge.id);
+      if (oi !== undefined) p += v[oi];
+      if (resIdx[k] >= 0) p += v[resIdx[k]];
+      if (baroIdx >= 0 && r.gauge.reference === 'gauge') p += v[baroIdx];
+      P[k] = p;
+      T[k] = r.temperatureK + (thermoIdx >= 0 ? v[thermoIdx] : 0) + (tResIdx[k] >= 0 ? v[tResIdx[k]] : 0);
+      pur[k] = purIdx[k] >= 0 ? v[purIdx[k]] : 0;
+    }
+    bAbs.fill(0);
+    for (const b of bIdx) {
+      bAbs[b.i * S + b.j] = v[b.c];
+      bAbs[b.j * S + b.i] = v[b.c];
+    }
+    const res = invertReadings(setup, { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur });
+    const out = new Float64Array(S + 2);
+    out.set(res.x);
+    const xs: Record<string, number> = {};
+    for (let i = 0; i < S; i++) xs[setup.species[i]] = res.x[i];
+    out[S] = equivalenceRatio(xs) ?? NaN;
+    let d = 0;
+    for (const i of dilIdx) d += res.x[i];
+    out[S + 1] = d;
+    return out;
+  };
+  return { setup, components, evaluate, outputs };
+}
+
+function percentile(sorted: Float64Array, p: number): number {
+  const pos = p * (sorted.length - 1);
+  const lo = Math.floor(pos);
+  const hi = Math.min(sorted.length - 1, lo + 1);
+  return sorted[lo] + (sorted[hi] - sorted[lo]) * (pos - lo);
+}
+
+/** JCGM 101 7.9.2: numerical tolerance of u expressed to two significant digits */
+export function numericalTolerance(u: number): number {
+  if (!(u > 0)) return 0;
+  const l = Math.floor(Math.log10(u)) - 1;
+  return 0.5 * 10 ** l;
+}
+
+/**
+ * Composition, phi and diluent fraction of a logged batch with their GUM and Monte
+ * Carlo uncertainties. `diluent` names the species counted in the diluent fraction
+ * (the design's diluent group; the inerts when there is no design).
+ */
+export function evaluateUncertainty(
+  readings: readonly CheckedReading[],
+  settings: UncertaintySettings,
+  diluent?: readonly string[],
+  initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
+): UncertaintyResult {
+  const dil = diluent ?? [...new Set(readings.flatMap((r) => Object.keys(r.source.composition)))].filter((k) => speciesRole(k) === 'inert');
+  const m = buildModel(readings, settings, dil, initial);
+  const N = m.components.length;
+  const nominalV = new Float64Array(N);
+  const nominal = m.evaluate(nominalV);
+  const nominalUnid = invertReadings(m.setup, undefined, readings.map((r) => r.pressurePa)).unidentified;
+  const O = nominal.length;
+  const contrib: number[][] = Array.from({ length: O }, () => []);
+  const v = new Float64Array(N);
+  for (let c = 0; c < N; c++) {
+    const u = m.components[c].u;
+    v.fill(0);
+    v[c] = u;
+    const up = m.evaluate(v);
+    v[c] = -u;
+    const dn = m.evaluate(v);
+    for (let o = 0; o < O; o++) contrib[o].push((up[o] - dn[o]) / 2);
+  }
+  // Monte Carlo
+  const M = settings.trials;
+  const samples: Float64Array[] = Array.from({ length: O }, () => new Float64Array(M));
+  if (M > 0) {
+    const rng = xoshiro128ss(settings.seed);
+    const draw = new Float64Array(N);
+    for (let t = 0; t < M; t++) {
+      for (let c = 0; c < N; c++) {
+        const comp = m.components[c];
+        draw[c] = comp.dist === 'rectangular' ? (2 * rng.next() - 1) * comp.scale : rng.normal() * comp.scale;
+      }
+      const out = m.evaluate(draw);
+      for (let o = 0; o < O; o++) samples[o][t] = out[o];
+    }
+  }
+  const stat = (o: number): OutputStat => {
+    const value = nominal[o];
+    const cs = contrib[o];
+    const u = Math.sqrt(cs.reduce((a, b) => a + b * b, 0));
+    const budget = cs
+      .map((c, i) => ({ name: m.components[i].name, contribution: Math.abs(c) }))
+      .filter((b) => b.contribution > 0)
+      .sort((a, b) => b.contribution - a.contribution)
+      .slice(0, 5);
+    let mc: OutputStat['mc'];
+    if (M > 1) {
+      const s = samples[o];
+      let mean = 0;
+      for (let i = 0; i < M; i++) mean += s[i];
+      mean /= M;
+      let v2 = 0;
+      for (let i = 0; i < M; i++) v2 += (s[i] - mean) ** 2;
+      const uMc = Math.sqrt(v2 / (M - 1));
+      const sorted = Float64Array.from(s).sort();
+      const low = percentile(sorted, 0.025);
+      const high = percentile(sorted, 0.975);
+      const tol = numericalTolerance(u);
+      const validated = Math.abs(value - 2 * u - low) <= tol && Math.abs(value + 2 * u - high) <= tol;
+      mc = { mean, u: uMc, low, high, validated, tolerance: tol };
+    }
+    return { value, u, low: value - 2 * u, high: value + 2 * u, mc, budget };
+  };
+  const S = m.setup.species.length;
+  const composition: Record<string, OutputStat> = {};
+  for (let i = 0; i < S; i++) composition[m.setup.species[i]] = stat(i);
+  const phiStat = Number.isFinite(nominal[S]) ? stat(S) : undefined;
+  return {
+    species: m.setup.species,
+    composition,
+    phi: phiStat,
+    diluentFraction: dil.length ? stat(S + 1) : undefined,
+    unidentified: nominalUnid,
+    components: m.components,
+    trials: M,
+    seed: settings.seed,
+  };
+}

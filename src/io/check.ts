@@ -1,0 +1,186 @@
+/**
+ * From a batch log, or CSV readings with a recipe, to the core's re-check input;
+ * and the header of a new log from a plan.
+ */
+import {
+  chooseGauge,
+  evaluateUncertainty,
+  fail,
+  judge,
+  pureCylinder,
+  type CheckVerdict,
+  type CheckedReading,
+  type Design,
+  type GasSource,
+  type Gauge,
+  type Plan,
+  type Tolerance,
+  type UncertaintyResult,
+} from '../core/index.js';
+import { gaugeFromLog, gaugeToLog, LOG_FORMAT, readLog, sourceFromLog, sourceToLog, type LogHeader, type ParsedLog } from './batch-log.js';
+import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.js';
+import { readReadingsCsv } from './readings-csv.js';
+import { planFill } from '../core/index.js';
+
+export interface CheckOptions {
+  readonly trials: number;
+  readonly seed: number;
+  readonly recipeFile?: string;
+  readonly labFile?: string;
+}
+
+export interface CheckReport {
+  readonly file: string;
+  readonly id: string;
+  readonly kind: 'log' | 'csv';
+  readonly readings: readonly CheckedReading[];
+  readonly result: UncertaintyResult;
+  readonly verdict: CheckVerdict;
+  readonly design?: Design;
+  readonly tolerance: Tolerance;
+  readonly warnings: readonly string[];
+  /** what is missing for a complete batch: planned steps without a reading, or design gases without a row */
+  readonly incomplete: readonly string[];
+}
+
+const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 };
+
+export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created: string): LogHeader {
+  const d = plan.design;
+  return {
+    kind: 'batch',
+    format: LOG_FORMAT,
+    id,
+    created,
+    lab: req.lab.name,
+    tank: { id: plan.tank.id, volume_m3: plan.tank.volumeM3, rated_pressure_Pa: plan.tank.ratedPressurePa ?? null },
+    design: { composition: { ...d.composition }, phi: d.phi ?? null, diluent: Object.keys(d.groups.diluent), diluent_fraction: d.diluentFraction },
+    tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
+    temperature_K: plan.temperatureK,
+    final_pressure_Pa: plan.final.pressurePa,
+    barometer: { pressure_Pa: req.input.reading.barometricPa, u_Pa: req.input.reading.barometricUncertaintyPa },
+    thermometer: { u_K: (req.lab.thermometer ?? DEFAULT_THERMOMETER).uncertaintyK, resolution_K: (req.lab.thermometer ?? DEFAULT_THERMOMETER).resolutionK },
+    gauges: req.input.gauges.map(gaugeToLog),
+    sources: plan.steps.map((s) => sourceToLog(s.source)),
+    steps: plan.steps.map((s) => ({ step: s.index, source: s.source.id, species: s.species, target_Pa: s.targetPa, band_Pa: s.bandPa, gauge: s.gauge?.id ?? null })),
+    recipe: req.recipe,
+  };
+}
+
+function designFromHeader(h: LogHeader): Design {
+  const diluent: Record<string, number> = {};
+  for (const k of h.design.diluent) diluent[k] = h.design.composition[k] ?? 0;
+  return {
+    composition: h.design.composition,
+    phi: h.design.phi ?? undefined,
+    fuelFraction: NaN,
+    oxidizerFraction: NaN,
+    diluentFraction: h.design.diluent_fraction,
+    stoichO2PerFuel: undefined,
+    groups: { fuel: {}, oxidizer: {}, diluent },
+  };
+}
+
+export function checkLog(log: ParsedLog, opts: CheckOptions): CheckReport {
+  const h = log.header;
+  const gauges = new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)]));
+  const sources = new Map(h.sources.map((s) => [s.id, sourceFromLog(s)]));
+  if (log.readings.length === 0) fail({ code: 'schema', reason: 'the log holds no readings yet; nothing to re-check' }, { file: log.file });
+  let prev = 0;
+  const readings: CheckedReading[] = log.readings.map((r) => {
+    const source = sources.get(r.source);
+    if (!source) fail({ code: 'schema', reason: `reading of step ${r.step} names the source "${r.source}", which the header does not list` }, { file: log.file, line: r.line });
+    const gauge = gauges.get(r.gauge);
+    if (!gauge) fail({ code: 'schema', reason: `reading of step ${r.step} names the gauge "${r.gauge}", which the header does not list` }, { file: log.file, line: r.line });
+    if (!(r.pressure_Pa > prev)) fail({ code: 'schema', reason: `the reading of step ${r.step} is not above the one before it; readings must increase` }, { file: log.file, line: r.line });
+    if (!(r.temperature_K >= 200 && r.temperature_K <= 600)) fail({ code: 'out-of-range', what: 'tank temperature', value: r.temperature_K, allowed: '200-600 K' }, { file: log.file, line: r.line });
+    prev = r.pressure_Pa;
+    return { step: r.step, source, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, gauge };
+  });
+  const done = new Set(log.readings.map((r) => r.step));
+  const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
+  const warnings = [...log.warnings];
+  if (missingSteps.length) warnings.push(`the log has no reading for step ${missingSteps.join(', ')}: the batch is incomplete and the re-check covers the fills logged so far`);
+  const design = designFromHeader(h);
+  const result = evaluateUncertainty(
+    readings,
+    { barometricPa: h.barometer.pressure_Pa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: opts.trials, seed: opts.seed },
+    h.design.diluent,
+  );
+  const tolerance = h.tolerance;
+  const verdict = missingSteps.length ? { ...judge(result, design, tolerance), verdict: 'fail' as const } : judge(result, design, tolerance);
+  return { file: log.file, id: h.id, kind: 'log', readings, result, verdict, design, tolerance, warnings, incomplete: missingSteps.map((s) => `step ${s}`) };
+}
+
+export function checkCsv(file: string, opts: CheckOptions): CheckReport {
+  const rows = readReadingsCsv(file);
+  const warnings: string[] = [];
+  let design: Design | undefined;
+  let tolerance: Tolerance = { relative: 0.005, absolute: 0 };
+  let gauges: readonly Gauge[];
+  let ctx: { barometricPa: number; barometricUncertaintyPa: number };
+  let thermo: { uncertaintyK: number; resolutionK: number };
+  let sourceFor: (species: string, line: number) => GasSource;
+  let id = file;
+  if (opts.recipeFile) {
+    const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile);
+    const plan = planFill(req.input);
+    design = plan.design;
+    tolerance = plan.tolerance;
+    gauges = req.input.gauges;
+    ctx = req.input.reading;
+    thermo = req.lab.thermometer ?? DEFAULT_THERMOMETER;
+    if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
+    id = req.recipe.id;
+    const bySpecies = new Map(plan.steps.map((s) => [s.source.mainSpecies, s.source]));
+    sourceFor = (sp, line) => {
+      const s = bySpecies.get(sp) ?? plan.steps.find((x) => (x.source.composition[sp] ?? 0) >= 0.01)?.source;
+      if (!s) return fail({ code: 'schema', reason: `${sp} is not filled in the design of ${opts.recipeFile} (its fills: ${plan.steps.map((x) => x.species).join(', ')})` }, { file, line, field: 'species' });
+      return s;
+    };
+  } else {
+    const lab = loadLab(opts.labFile);
+    gauges = lab.gauges;
+    ctx = { barometricPa: lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa };
+    thermo = lab.thermometer ?? DEFAULT_THERMOMETER;
+    warnings.push('no recipe given: the gases are taken as pure (purity 1), the gauges from the lab profile, and there is no design to compare with (use --recipe)');
+    sourceFor = (sp) => pureCylinder({ id: sp, species: sp, purity: 1 });
+  }
+  const used = new Set<string>();
+  const readings: CheckedReading[] = rows.map((r, i) => {
+    const source = sourceFor(r.species, r.line);
+    if (used.has(source.id)) fail({ code: 'schema', reason: `${r.species} is filled twice; each fill has one row` }, { file, line: r.line, field: 'species' });
+    used.add(source.id);
+    let gauge: Gauge | undefined;
+    if (r.gauge) {
+      gauge = gauges.find((g) => g.id === r.gauge);
+      if (!gauge) fail({ code: 'unknown-reference', kind: 'gauge', id: r.gauge, choices: gauges.map((g) => g.id) }, { file, line: r.line, field: 'gauge' });
+    } else {
+      gauge = chooseGauge(gauges, r.pressurePa, r.pressurePa, ctx)?.gauge;
+      if (!gauge) fail({ code: 'no-gauge', reason: `no gauge in the lab profile reads ${r.pressurePa.toPrecision(6)} Pa; name the gauge in a "gauge" column` }, { file, line: r.line });
+    }
+    return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
+  });
+  const result = evaluateUncertainty(
+    readings,
+    { barometricPa: ctx.barometricPa, barometricUncertaintyPa: ctx.barometricUncertaintyPa, thermometerUncertaintyK: thermo.uncertaintyK, thermometerResolutionK: thermo.resolutionK, trials: opts.trials, seed: opts.seed },
+    design ? Object.keys(design.groups.diluent) : undefined,
+  );
+  let verdict = judge(result, design, tolerance);
+  let incomplete: string[] = [];
+  if (design) {
+    const covered = new Set(readings.flatMap((r) => Object.keys(r.source.composition)));
+    incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
+    if (incomplete.length) {
+      warnings.push(`no row fills ${incomplete.join(', ')}: the batch is incomplete`);
+      verdict = { ...verdict, verdict: 'fail' };
+    }
+  }
+  return { file, id, kind: 'csv', readings, result, verdict, design, tolerance, warnings, incomplete };
+}
+
+export function checkFile(file: string, opts: CheckOptions): CheckReport {
+  if (/\.csv$/i.test(file)) return checkCsv(file, opts);
+  if (opts.recipeFile) fail({ code: 'design-conflict', reason: 'a batch log carries its own design; --recipe is for CSV readings only' }, { field: '--recipe' });
+  return checkLog(readLog(file), opts);
+}
