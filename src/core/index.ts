@@ -53,3 +53,5 @@ export { evaluateUncertainty, numericalTolerance, VIRIAL_U } from './uncertainty
 export type { CheckedReading, InputComponent, OutputStat, UncertaintyResult, UncertaintySettings } from './uncertainty.js';
 export { judge } from './verdict.js';
 export type { CheckVerdict, SpeciesDeviation, VerdictKind } from './verdict.js';
+export { retarget } from './retarget.js';
+export type { Kept, RetargetInput, RetargetResult } from './retarget.js';

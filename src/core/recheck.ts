@@ -123,6 +123,8 @@ export interface InverseResult {
   readonly unidentified: number;
   /** molar density after each reading, mol/m3 */
   readonly rho: Float64Array;
+  /** amount of each species per unit volume after the last reading (EOS bookkeeping), mol/m3 */
+  readonly amounts: Float64Array;
 }
 
 function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w: Float64Array, B: Float64Array, dB: Float64Array | undefined, dT: number, bAbs: ArrayLike<number> | undefined, C: Float64Array, S: number, y: Float64Array): number {
@@ -214,5 +216,5 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
   for (let i = 0; i < S; i++) identified += nId[i];
   const x = new Float64Array(S);
   for (let i = 0; i < S; i++) x[i] = nId[i] / identified;
-  return { x, unidentified: unid / (identified + unid), rho: rhoOut };
+  return { x, unidentified: unid / (identified + unid), rho: rhoOut, amounts: n };
 }

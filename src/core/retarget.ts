@@ -1,0 +1,175 @@
+/**
+ * Re-targeting during a fill: after the actual readings of the first fills, the
+ * remaining targets that keep the design as close as possible. Priorities: phi
+ * first, then the dilution (diluent fraction), then the final pressure; the tank's
+ * working limit is never passed. Solved as one weighted non-negative least-squares
+ * problem in the amounts of the remaining fills, the weights 1e6 : 1e3 : 1 : 1e-3
+ * (phi : dilution : total amount : each design fraction) standing in for the
+ * strict priority order. Says which property had to give.
+ */
+import type { Design } from './composition.js';
+import { equivalenceRatio } from './composition.js';
+import { getSpecies } from './lookup.js';
+import { oxygenDemand } from './formula.js';
+import { nnls } from './nnls.js';
+import { bMix, cMix, densityFromPressure, pressureFromDensity, virialModel } from './mixture-eos.js';
+import { inverseSetup, invertReadings } from './recheck.js';
+import type { GasSource } from './supply.js';
+import type { Tolerance } from './planner.js';
+
+export interface RetargetInput {
+  readonly design: Design;
+  readonly tolerance: Tolerance;
+  /** every fill of the plan, in fill order */
+  readonly sources: readonly GasSource[];
+  /** actual readings of the first fills (absolute Pa, K) */
+  readonly done: readonly { readonly pressurePa: number; readonly temperatureK: number }[];
+  /** temperature expected for the remaining fills, K */
+  readonly temperatureK: number;
+  readonly finalPressurePa: number;
+  readonly volumeM3: number;
+  readonly workingLimitPa?: number;
+}
+
+export type Kept = 'phi' | 'dilution' | 'pressure';
+
+export interface RetargetResult {
+  readonly remaining: readonly { readonly step: number; readonly source: GasSource; readonly targetPa: number; readonly incrementPa: number; readonly amountMol: number }[];
+  readonly predicted: { readonly composition: Record<string, number>; readonly phi?: number; readonly diluentFraction: number; readonly pressurePa: number };
+  readonly gave: readonly Kept[];
+  readonly message: string;
+}
+
+const W_LIMIT = 1e9;
+const W_PHI = 1e6;
+const W_DIL = 1e3;
+const W_TOTAL = 1;
+const W_SPECIES = 1e-3;
+
+export function retarget(input: RetargetInput): RetargetResult {
+  const { design, sources, done, volumeM3: V } = input;
+  const m = done.length;
+  const T = input.temperatureK;
+  const species = [...new Set([...sources.flatMap((s) => Object.keys(s.composition)), ...Object.keys(design.composition)])];
+  const S = species.length;
+  const model = virialModel(species, T);
+  // what is in the tank now (mol)
+  const have = new Float64Array(S);
+  let rhoNow = 0;
+  if (m > 0) {
+    const setup = inverseSetup(sources.slice(0, m).map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })));
+    const res = invertReadings(setup, undefined, done.map((d) => d.pressurePa));
+    setup.species.forEach((k, i) => (have[species.indexOf(k)] = res.amounts[i] * V));
+    rhoNow = res.rho[m - 1];
+  }
+  const rest = sources.slice(m);
+  const w = rest.map((s) => {
+    const v = new Float64Array(S);
+    for (const [k, x] of Object.entries(s.composition)) v[species.indexOf(k)] += x;
+    v[species.indexOf(s.mainSpecies)] += s.unidentified;
+    return v;
+  });
+  // target total amount at the design pressure, with the design composition
+  const yd = design.composition;
+  const Ntarget = densityFromPressure(input.finalPressurePa, T, bMix(model, yd), cMix(model, yd)) * V;
+  const d = species.map((k) => oxygenDemand(getSpecies(k).elements));
+  const phi = design.phi;
+  const dil = new Set(Object.keys(design.groups.diluent));
+  const xd = design.diluentFraction;
+  const fuelDemand = species.reduce((a, k, i) => a + Math.max(d[i], 0) * (yd[k] ?? 0), 0) * Ntarget;
+
+  const solve = (totalTarget: number, totalWeight: number) => {
+    const rows: number[][] = [];
+    const rhs: number[] = [];
+    const addRow = (coef: (i: number) => number, constant: number, scale: number, weight: number) => {
+      rows.push(w.map((wj) => (weight * wj.reduce((a, v, i) => a + v * coef(i), 0)) / scale));
+      rhs.push((weight * -constant) / scale);
+    };
+    const constantOf = (coef: (i: number) => number) => have.reduce((a, v, i) => a + v * coef(i), 0);
+    if (phi !== undefined && fuelDemand > 0) {
+      const g = (i: number) => Math.max(d[i], 0) + phi * Math.min(d[i], 0);
+      addRow(g, constantOf(g), fuelDemand, W_PHI);
+    }
+    if (dil.size > 0) {
+      const g = (i: number) => (dil.has(species[i]) ? 1 : 0) - xd;
+      addRow(g, constantOf(g), Ntarget, W_DIL);
+    }
+    const one = () => 1;
+    addRow(one, constantOf(one) - totalTarget, Ntarget, totalWeight);
+    for (const [k, x] of Object.entries(yd)) {
+      if (!(x > 0)) continue;
+      const idx = species.indexOf(k);
+      const g = (i: number) => (i === idx ? 1 : 0);
+      addRow(g, constantOf(g) - x * totalTarget, Ntarget * x, W_SPECIES);
+    }
+    return rest.length ? nnls(rows, rhs).x : [];
+  };
+
+  const predict = (a: number[]) => {
+    const n = Float64Array.from(have);
+    a.forEach((aj, j) => w[j].forEach((v, i) => (n[i] += aj * v)));
+    const tot = n.reduce((p, q) => p + q, 0);
+    const comp: Record<string, number> = {};
+    species.forEach((k, i) => {
+      if (n[i] > 0) comp[k] = n[i] / tot;
+    });
+    const rho = tot / V;
+    const P = pressureFromDensity(rho, T, bMix(model, comp), cMix(model, comp));
+    let dilF = 0;
+    for (const k of dil) dilF += comp[k] ?? 0;
+    return { n, comp, P, phi: equivalenceRatio(comp), dilF };
+  };
+
+  let a = solve(Ntarget, W_TOTAL);
+  let pred = predict(a);
+  if (input.workingLimitPa !== undefined && pred.P > input.workingLimitPa) {
+    // the limit outranks everything: aim the total at the limit and let the rest give
+    const Nlimit = densityFromPressure(input.workingLimitPa, T, bMix(model, pred.comp), cMix(model, pred.comp)) * V;
+    a = solve(Nlimit * (1 - 1e-6), W_LIMIT);
+    pred = predict(a);
+  }
+
+  // cumulative targets of the remaining fills at the fill temperature
+  const remaining: RetargetResult['remaining'][number][] = [];
+  const n = Float64Array.from(have);
+  let prevP = m > 0 ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
+  rest.forEach((s, j) => {
+    w[j].forEach((v, i) => (n[i] += a[j] * v));
+    const comp = compOf(n);
+    const tot = n.reduce((p, q) => p + q, 0);
+    const P = pressureFromDensity(tot / V, T, bMix(model, comp), cMix(model, comp));
+    remaining.push({ step: m + j + 1, source: s, targetPa: P, incrementPa: P - prevP, amountMol: a[j] });
+    prevP = P;
+  });
+  function compOf(v: Float64Array): Record<string, number> {
+    const t = v.reduce((p, q) => p + q, 0);
+    const c: Record<string, number> = {};
+    species.forEach((k, i) => {
+      if (v[i] > 0) c[k] = v[i] / t;
+    });
+    return c;
+  }
+
+  const gave: Kept[] = [];
+  const tol = input.tolerance;
+  if (phi !== undefined && pred.phi !== undefined && Math.abs(pred.phi / phi - 1) > tol.relative) gave.push('phi');
+  if (dil.size > 0 && Math.abs(pred.dilF - xd) > Math.max(tol.relative * xd, tol.absolute)) gave.push('dilution');
+  if (Math.abs(pred.P / input.finalPressurePa - 1) > tol.relative) gave.push('pressure');
+  const fmt = (x: number) => x.toPrecision(5);
+  let message: string;
+  if (gave.length === 0) message = 'the remaining fills keep phi, the dilution and the final pressure within tolerance';
+  else {
+    const parts: string[] = [];
+    if (gave.includes('phi')) parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
+    if (gave.includes('dilution')) parts.push(`the diluent fraction becomes ${fmt(pred.dilF)} (design ${fmt(xd)})`);
+    if (gave.includes('pressure')) {
+      parts.push(
+        input.workingLimitPa !== undefined && pred.P >= input.workingLimitPa * (1 - 1e-4)
+          ? `the final pressure is held at the tank's working limit ${fmt(pred.P)} Pa`
+          : `the final pressure becomes ${fmt(pred.P)} Pa (design ${fmt(input.finalPressurePa)} Pa) to keep ${gave.includes('phi') ? 'the dilution' : 'phi and the dilution'}`,
+      );
+    }
+    message = parts.join('; ');
+  }
+  return { remaining, predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P }, gave, message };
+}

@@ -1,0 +1,55 @@
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync, writeFileSync, copyFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { runCli } from '../helpers.js';
+
+describe('mixwright check', () => {
+  it('the demo batch log: composition with u, phi, verdict; exit 0', async () => {
+    const r = await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '100000']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/CH4\s+0\.006669/);
+    expect(r.stdout).toContain('Verdict');
+  });
+
+  it('--json: composition species to {value, u}, phi, verdict (the BRIEF contract)', async () => {
+    const r = await runCli(['check', 'readings/ch4-phi1-ar98.csv', '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', '--json', '--trials', '100000']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    for (const k of ['CH4', 'O2', 'Ar']) {
+      expect(typeof j.composition[k].value).toBe('number');
+      expect(j.composition[k].u).toBeGreaterThan(0);
+    }
+    expect(j.phi.value).toBeCloseTo(1, 1);
+    expect(['pass', 'pass-uncertain']).toContain(j.verdict);
+  });
+
+  it('out of tolerance: exit 4', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-'));
+    const f = join(dir, 'r.csv');
+    writeFileSync(f, 'species,pressure,temperature\nCH4,10.4 Torr,25 degC\nAr,1480 Torr,25 degC\nO2,1500 Torr,25 degC\n');
+    const r = await runCli(['check', f, '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', '--trials', '100000']);
+    expect(r.code).toBe(4);
+    expect(r.stdout).toContain('FAIL');
+  });
+
+  it('a folder: one summary row per log; exit 4 when one fails', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-'));
+    copyFileSync('batches/demo-ch4-phi1-ar98.jsonl', join(dir, 'a.jsonl'));
+    const r = await runCli(['check', dir, '--trials', '100000']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/a\.jsonl\s+demo-ch4-phi1-ar98\s+pass/);
+  });
+
+  it('bad input: a CSV species not in the design, too few trials - exit 2 with the place', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-'));
+    const f = join(dir, 'r.csv');
+    writeFileSync(f, 'species,pressure,temperature\nCH4,10 Torr,25 degC\nHe,1480 Torr,25 degC\n');
+    const r = await runCli(['check', f, '--recipe', 'recipes/ch4-o2-ar-phi1.yaml']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/r\.csv:3 species: He is not filled in the design/);
+    const t = await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '1000']);
+    expect(t.code).toBe(2);
+    expect(t.stderr).toContain('--trials');
+  });
+});
