@@ -33,3 +33,21 @@ for (const [name, xs] of Object.entries(times)) {
 }
 const ratio = median(times['mixwright plan recipes/ch4-o2-ar-phi1.yaml']) / base;
 console.log(`plan / node ratio: ${ratio.toFixed(2)} (target < 5) ${ratio < 5 ? 'OK' : 'OVER TARGET'}`);
+
+// re-check throughput
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+const mc = JSON.parse(spawnSync(process.execPath, ['dist/bench-check.mjs', 'mc', '1000000'], { encoding: 'utf8' }).stdout);
+console.log(`Monte Carlo re-check, 4-gas batch, ${mc.trials} trials: ${(mc.ms / 1000).toFixed(2)} s (target < 2 s) ${mc.ms < 2000 ? 'OK' : 'OVER TARGET'}; rss ${mc.rssMB.toFixed(0)} MB`);
+const dir = mkdtempSync(join(tmpdir(), 'mw-bench-'));
+try {
+  spawnSync(process.execPath, ['dist/bench-check.mjs', 'folder', dir, '1000'], { encoding: 'utf8' });
+  const t0 = process.hrtime.bigint();
+  const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'check', dir], { encoding: 'utf8', maxBuffer: 1 << 26 });
+  const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+  const rows = r.stdout.trim().split('\n').length - 1;
+  console.log(`folder re-check, ${rows} logs (GUM): ${(ms / 1000).toFixed(2)} s cold (target < 5 s) ${ms < 5000 && r.status === 0 ? 'OK' : 'OVER TARGET or failed (exit ' + r.status + ')'}`);
+} finally {
+  rmSync(dir, { recursive: true, force: true });
+}

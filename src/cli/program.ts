@@ -237,32 +237,36 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .option('--recipe <file>', 'the design the CSV readings were filled to (its lab profile, cylinders and tolerance)')
     .option('--lab <file>', 'lab profile for CSV readings (gauges, barometer, thermometer)')
     .option('--json', 'print one JSON object')
-    .option('--trials <n>', 'Monte Carlo trials (at least 100000)', '200000')
+    .option('--trials <n>', 'Monte Carlo trials, at least 100000 (default 200000 for one log; a folder is checked by GUM alone unless given)')
     .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
-    .action((target: string, o: { recipe?: string; lab?: string; json?: boolean; trials: string; seed: string }) => {
-      const trials = numberOption(o.trials, '--trials');
-      if (!(Number.isInteger(trials) && trials >= 1e5)) throw new ProblemError({ code: 'out-of-range', what: 'Monte Carlo trials', value: trials, allowed: 'a whole number >= 100000 (JCGM 101 needs enough trials for a 95 % interval)' }, { field: '--trials' });
+    .action(async (target: string, o: { recipe?: string; lab?: string; json?: boolean; trials?: string; seed: string }) => {
+      const folder = isDirectory(target);
+      const trials = o.trials === undefined ? (folder ? 0 : 200000) : numberOption(o.trials, '--trials');
+      if (o.trials !== undefined && !(Number.isInteger(trials) && trials >= 1e5)) {
+        throw new ProblemError({ code: 'out-of-range', what: 'Monte Carlo trials', value: trials, allowed: 'a whole number >= 100000 (JCGM 101 needs enough trials for a 95 % interval)' }, { field: '--trials' });
+      }
       const seed = numberOption(o.seed, '--seed');
       const opts = { trials, seed, recipeFile: o.recipe, labFile: o.lab };
-      if (isDirectory(target)) {
+      if (folder) {
         const files = listLogs(target);
         if (files.length === 0) throw new ProblemError({ code: 'file-unreadable', reason: 'the folder holds no .jsonl or .csv files' }, { file: target });
         type Row = { file: string; report: CheckReport } | { file: string; error: string };
-        const rows: Row[] = files.map((f): Row => {
+        const rows: Row[] = [];
+        for (const f of files) {
           try {
-            return { file: f, report: checkFile(f, opts) };
+            rows.push({ file: f, report: await checkFile(f, opts) });
           } catch (e) {
-            if (e instanceof ProblemError) return { file: f, error: describeProblemAt(e.problem, e.where) };
-            throw e;
+            if (e instanceof ProblemError) rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
+            else throw e;
           }
-        });
+        }
         if (o.json) out(JSON.stringify(rows.map((r) => ('report' in r ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) } : r)), null, 2) + '\n');
         else out(folderSummary(rows));
         if (rows.some((r) => 'error' in r)) throw new ExitSignal(EXIT.input);
         if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail')) throw new ExitSignal(EXIT.outOfTolerance);
         return;
       }
-      const report = checkFile(target, opts);
+      const report = await checkFile(target, opts);
       if (o.json) out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
       else out(checkToText(report));
       if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);

@@ -24,9 +24,13 @@ export interface InverseSetup {
   readonly B: readonly Float64Array[];
   readonly dBdT: readonly Float64Array[];
   readonly C: readonly Float64Array[];
+  /** cube roots of C, for the mixing rule */
+  readonly cbrtC: readonly Float64Array[];
   readonly temperaturesK: readonly number[];
   /** gas already in the tank: amounts per species per unit volume are solved from its reading */
-  readonly initial?: { readonly y: Float64Array; readonly pressurePa: number; readonly temperatureK: number; readonly B: Float64Array; readonly C: Float64Array };
+  readonly initial?: { readonly y: Float64Array; readonly pressurePa: number; readonly temperatureK: number; readonly B: Float64Array; readonly cbrtC: Float64Array };
+  /** index of each reading's main identified species */
+  readonly main: readonly number[];
   readonly model: VirialModel;
 }
 
@@ -89,7 +93,7 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     const y = new Float64Array(S);
     for (const [k, v] of Object.entries(initial.composition)) y[species.indexOf(k)] = v;
     const here = at(initial.temperatureK);
-    init = { y, pressurePa: initial.pressurePa, temperatureK: initial.temperatureK, B: here.B, C: here.C };
+    init = { y, pressurePa: initial.pressurePa, temperatureK: initial.temperatureK, B: here.B, cbrtC: here.C.map(Math.cbrt) };
   }
   return {
     species,
@@ -99,8 +103,14 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     B,
     dBdT,
     C,
+    cbrtC: C.map((c) => c.map(Math.cbrt)),
     temperaturesK: readings.map((r) => r.temperatureK),
     initial: init,
+    main: wId.map((w) => {
+      let m = 0;
+      for (let i = 1; i < S; i++) if (w[i] > w[m]) m = i;
+      return m;
+    }),
     model: model ?? virialModel(species, 298.15),
   };
 }
@@ -127,31 +137,33 @@ export interface InverseResult {
   readonly amounts: Float64Array;
 }
 
-function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w: Float64Array, B: Float64Array, dB: Float64Array | undefined, dT: number, bAbs: ArrayLike<number> | undefined, C: Float64Array, S: number, y: Float64Array): number {
+function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w: Float64Array, Beff: Float64Array, cbrtC: Float64Array, S: number, y: Float64Array, start = 0): number {
   const rt = R * T;
-  let rho = P / rt;
+  let rho = start > rhoPrev ? start : P / rt;
   for (let it = 0; it < 30; it++) {
     const d = rho - rhoPrev;
     for (let i = 0; i < S; i++) y[i] = (nPrev[i] + d * w[i]) / rho;
+    // B_mix = y' B y over the upper triangle (B symmetric), C_mix = (sum y_i C_i^(1/3))^3
     let b = 0;
     let c3 = 0;
     for (let i = 0; i < S; i++) {
-      if (y[i] === 0) continue;
-      c3 += y[i] * Math.cbrt(C[i]);
-      for (let j = 0; j < S; j++) {
-        let bij = B[i * S + j];
-        if (dB) bij += dB[i * S + j] * dT;
-        if (bAbs) bij += bAbs[i * S + j];
-        b += y[i] * y[j] * bij;
-      }
+      const yi = y[i];
+      if (yi === 0) continue;
+      c3 += yi * cbrtC[i];
+      const row = i * S;
+      let acc = 0.5 * Beff[row + i] * yi;
+      for (let j = i + 1; j < S; j++) acc += Beff[row + j] * y[j];
+      b += 2 * yi * acc;
     }
     const c = c3 * c3 * c3;
-    // Newton on P(rho) at the current composition
+    // Newton on P(rho) at the current composition (quadratic: two steps from a close start)
     let r = rho;
-    for (let n = 0; n < 4; n++) {
+    for (let n = 0; n < 3; n++) {
       const f = r * rt * (1 + b * r + c * r * r) - P;
       const df = rt * (1 + 2 * b * r + 3 * c * r * r);
-      r -= f / df;
+      const step = f / df;
+      r -= step;
+      if (Math.abs(step) <= 1e-14 * r) break;
     }
     if (Math.abs(r - rho) <= 1e-13 * rho) return r;
     rho = r;
@@ -159,30 +171,45 @@ function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w:
   return rho;
 }
 
-/**
- * Invert the readings. @returns the tank composition and the density after each reading.
- * Example: the plan of properties.md 1.2 (50.038 / 150.106 / 1000 Torr, 298.15 K) fed back
- * gives CH4 0.05, O2 0.10, Ar 0.85 (to 1e-9 with the plan's own model).
- */
-export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?: readonly number[]): InverseResult {
+/** scratch arrays, so that a Monte Carlo loop allocates nothing per trial */
+export interface Workspace {
+  readonly n: Float64Array;
+  readonly nId: Float64Array;
+  readonly y: Float64Array;
+  readonly w: Float64Array;
+  readonly x: Float64Array;
+  readonly rho: Float64Array;
+  readonly zero: Float64Array;
+  /** the B matrix of one reading with its temperature and virial perturbations applied */
+  readonly Beff: Float64Array;
+}
+
+export function workspaceFor(setup: InverseSetup): Workspace {
   const S = setup.species.length;
   const K = setup.wEos.length;
-  const n = new Float64Array(S);
-  const nId = new Float64Array(S);
-  const y = new Float64Array(S);
-  const rhoOut = new Float64Array(K);
+  return { n: new Float64Array(S), nId: new Float64Array(S), y: new Float64Array(S), w: new Float64Array(S), x: new Float64Array(S), rho: new Float64Array(K), zero: new Float64Array(S), Beff: new Float64Array(S * S) };
+}
+
+/**
+ * @param start densities to start the iteration from (the nominal result, in a Monte Carlo loop)
+ */
+export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?: readonly number[], ws: Workspace = workspaceFor(setup), start?: Float64Array): InverseResult {
+  const S = setup.species.length;
+  const K = setup.wEos.length;
+  const { n, nId, y, w, rho: rhoOut } = ws;
+  n.fill(0);
+  nId.fill(0);
   let rhoPrev = 0;
   let unid = 0;
   if (setup.initial) {
     const i0 = setup.initial;
-    const r0 = solveRho(i0.pressurePa, i0.temperatureK, new Float64Array(S), 0, i0.y, i0.B, undefined, 0, undefined, i0.C, S, y);
+    const r0 = solveRho(i0.pressurePa, i0.temperatureK, ws.zero, 0, i0.y, i0.B, i0.cbrtC, S, y);
     for (let i = 0; i < S; i++) {
       n[i] = r0 * i0.y[i];
       nId[i] = n[i];
     }
     rhoPrev = r0;
   }
-  const w = new Float64Array(S);
   for (let k = 0; k < K; k++) {
     const P = p ? p.pressurePa[k] : nominalP![k];
     const T0 = setup.temperaturesK[k];
@@ -192,14 +219,19 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
     // a purity perturbation moves gas between the main species and the unidentified remainder;
     // the EOS composition already counts the remainder as main gas, so only the bookkeeping changes
     const dp = p?.purity?.[k] ?? 0;
-    const rho = solveRho(P, T, n, rhoPrev, w, setup.B[k], setup.dBdT[k], T - T0, p?.bAbsolute, setup.C[k], S, y);
+    const Bk = setup.B[k];
+    const dBk = setup.dBdT[k];
+    const dT = T - T0;
+    const bAbs = p?.bAbsolute;
+    const Beff = ws.Beff;
+    for (let i = 0; i < S * S; i++) Beff[i] = Bk[i] + dBk[i] * dT + (bAbs ? bAbs[i] : 0);
+    const rho = solveRho(P, T, n, rhoPrev, w, Beff, setup.cbrtC[k], S, y, start ? start[k] : 0);
     const d = rho - rhoPrev;
     if (!(d > 0)) {
       return fail({ code: 'schema', reason: `reading ${k + 1} (${P.toPrecision(6)} Pa) is not above the one before it; each fill must raise the tank pressure` });
     }
     const wid = setup.wId[k];
-    let main = 0;
-    for (let i = 1; i < S; i++) if (wid[i] > wid[main]) main = i;
+    const main = setup.main[k];
     for (let i = 0; i < S; i++) {
       n[i] += d * w[i];
       nId[i] += d * wid[i];
@@ -214,7 +246,7 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
   // normalised over the identified species, as the plan reports them; the unidentified share beside
   let identified = 0;
   for (let i = 0; i < S; i++) identified += nId[i];
-  const x = new Float64Array(S);
+  const x = ws.x;
   for (let i = 0; i < S; i++) x[i] = nId[i] / identified;
   return { x, unidentified: unid / (identified + unid), rho: rhoOut, amounts: n };
 }

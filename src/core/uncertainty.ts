@@ -17,8 +17,10 @@
  */
 import { gaugeReadingPa, type Gauge } from './gauges.js';
 import type { GasSource } from './supply.js';
-import { inverseSetup, invertReadings, type InverseSetup } from './recheck.js';
-import { equivalenceRatio, speciesRole, type Fractions } from './composition.js';
+import { inverseSetup, invertReadings, workspaceFor, type InverseSetup } from './recheck.js';
+import { speciesRole, type Fractions } from './composition.js';
+import { oxygenDemand } from './formula.js';
+import { getSpecies } from './lookup.js';
 import { xoshiro128ss } from './prng.js';
 
 export interface CheckedReading {
@@ -117,7 +119,10 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
   const thermoIdx = settings.thermometerUncertaintyK > 0 ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K') : -1;
   const tResIdx = readings.map((r) => (settings.thermometerResolutionK > 0 ? add(`temperature resolution, reading ${r.step}`, 'rectangular', settings.thermometerResolutionK / 2, 'K') : -1));
   const bIdx: { i: number; j: number; c: number }[] = [];
+  // virial terms of trace species (impurities below 1e-4 in every source) move no output measurably: left out
+  const major = new Set(setup.species.filter((_, i) => setup.wId.some((w) => w[i] >= 1e-4) || (setup.initial?.y[i] ?? 0) >= 1e-4));
   for (const e of setup.model.entries) {
+    if (!major.has(e.i) || !major.has(e.j)) continue;
     const i = setup.species.indexOf(e.i);
     const j = setup.species.indexOf(e.j);
     const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : VIRIAL_U.cross;
@@ -134,18 +139,25 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
   const T = new Float64Array(K);
   const bAbs = new Float64Array(S * S);
   const pur = new Float64Array(K);
+  const ws = workspaceFor(setup);
+  const demand = setup.species.map((k) => oxygenDemand(getSpecies(k).elements));
+  const out = new Float64Array(S + 2);
+  const nominalRho = Float64Array.from(invertReadings(setup, undefined, readings.map((r) => r.pressurePa)).rho);
+  // per-reading component indices as plain arrays (-1: none), for the hot loop
+  const spanOf = Int32Array.from(readings.map((r) => spanIdx.get(r.gauge.id) ?? -1));
+  const offOf = Int32Array.from(readings.map((r) => offIdx.get(r.gauge.id) ?? -1));
+  const baroOf = Int32Array.from(readings.map((r) => (r.gauge.reference === 'gauge' ? baroIdx : -1)));
+  const P0 = Float64Array.from(readings.map((r) => r.pressurePa));
+  const T0 = Float64Array.from(readings.map((r) => r.temperatureK));
   const evaluate = (v: Float64Array): Float64Array => {
     for (let k = 0; k < K; k++) {
-      const r = readings[k];
-      let p = r.pressurePa;
-      const si = spanIdx.get(r.gauge.id);
-      if (si !== undefined) p += v[si] * readingPa[k];
-      const oi = offIdx.get(r.gauge.id);
-      if (oi !== undefined) p += v[oi];
+      let p = P0[k];
+      if (spanOf[k] >= 0) p += v[spanOf[k]] * readingPa[k];
+      if (offOf[k] >= 0) p += v[offOf[k]];
       if (resIdx[k] >= 0) p += v[resIdx[k]];
-      if (baroIdx >= 0 && r.gauge.reference === 'gauge') p += v[baroIdx];
+      if (baroOf[k] >= 0) p += v[baroOf[k]];
       P[k] = p;
-      T[k] = r.temperatureK + (thermoIdx >= 0 ? v[thermoIdx] : 0) + (tResIdx[k] >= 0 ? v[tResIdx[k]] : 0);
+      T[k] = T0[k] + (thermoIdx >= 0 ? v[thermoIdx] : 0) + (tResIdx[k] >= 0 ? v[tResIdx[k]] : 0);
       pur[k] = purIdx[k] >= 0 ? v[purIdx[k]] : 0;
     }
     bAbs.fill(0);
@@ -153,12 +165,16 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
       bAbs[b.i * S + b.j] = v[b.c];
       bAbs[b.j * S + b.i] = v[b.c];
     }
-    const res = invertReadings(setup, { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur });
-    const out = new Float64Array(S + 2);
+    const res = invertReadings(setup, { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur }, undefined, ws, nominalRho);
     out.set(res.x);
-    const xs: Record<string, number> = {};
-    for (let i = 0; i < S; i++) xs[setup.species[i]] = res.x[i];
-    out[S] = equivalenceRatio(xs) ?? NaN;
+    // phi on the O-atom basis, as composition.equivalenceRatio, from precomputed O2 demands
+    let need = 0;
+    let supply = 0;
+    for (let i = 0; i < S; i++) {
+      if (demand[i] > 0) need += res.x[i] * demand[i];
+      else supply -= res.x[i] * demand[i];
+    }
+    out[S] = need > 0 && supply > 0 ? need / supply : NaN;
     let d = 0;
     for (const i of dilIdx) d += res.x[i];
     out[S + 1] = d;
@@ -167,11 +183,42 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
   return { setup, components, evaluate, outputs };
 }
 
-function percentile(sorted: Float64Array, p: number): number {
-  const pos = p * (sorted.length - 1);
+/** k-th smallest value (0-based) by quickselect; reorders `a` */
+function select(a: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = a.length - 1;
+  while (lo < hi) {
+    const pivot = a[(lo + hi) >> 1];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k];
+  }
+  return a[k];
+}
+
+/** the p-quantile with linear interpolation between order statistics; reorders `a` */
+function percentile(a: Float64Array, p: number): number {
+  const pos = p * (a.length - 1);
   const lo = Math.floor(pos);
-  const hi = Math.min(sorted.length - 1, lo + 1);
-  return sorted[lo] + (sorted[hi] - sorted[lo]) * (pos - lo);
+  const vlo = select(a, lo);
+  if (lo + 1 >= a.length || pos === lo) return vlo;
+  // the next order statistic is the smallest value above position lo
+  let vhi = Infinity;
+  for (let i = lo + 1; i < a.length; i++) if (a[i] < vhi) vhi = a[i];
+  return vlo + (vhi - vlo) * (pos - lo);
 }
 
 /** JCGM 101 7.9.2: numerical tolerance of u expressed to two significant digits */
@@ -181,9 +228,62 @@ export function numericalTolerance(u: number): number {
   return 0.5 * 10 ** l;
 }
 
+/** number of independent random streams the trials are split into (run one after another or in parallel) */
+export const MC_STREAMS = 2;
+
+/** seed of stream i for a run seeded with `seed` */
+export function streamSeed(seed: number, i: number): number {
+  return (Math.imul(seed >>> 0, 2654435761) + i * 0x9e3779b9) >>> 0;
+}
+
+/** the trial count of stream i: the trials split as evenly as possible */
+export function streamTrials(trials: number, i: number): number {
+  const base = Math.floor(trials / MC_STREAMS);
+  return i < trials - base * MC_STREAMS ? base + 1 : base;
+}
+
+/**
+ * The Monte Carlo draws of one stream: outputs (species fractions, phi, diluent) by trial.
+ * Pure and self-contained, so a shell may run the streams in parallel.
+ */
+export function monteCarloSamples(
+  readings: readonly CheckedReading[],
+  settings: UncertaintySettings,
+  diluent: readonly string[] | undefined,
+  initial: { composition: Fractions; pressurePa: number; temperatureK: number } | undefined,
+  trials: number,
+  seed: number,
+): Float64Array[] {
+  const dil = diluent ?? defaultDiluent(readings);
+  const m = buildModel(readings, settings, dil, initial);
+  return drawSamples(m, trials, seed);
+}
+
+function defaultDiluent(readings: readonly CheckedReading[]): string[] {
+  return [...new Set(readings.flatMap((r) => Object.keys(r.source.composition)))].filter((k) => speciesRole(k) === 'inert');
+}
+
+function drawSamples(m: Model, trials: number, seed: number): Float64Array[] {
+  const O = m.outputs.length;
+  const N = m.components.length;
+  const samples: Float64Array[] = Array.from({ length: O }, () => new Float64Array(trials));
+  const rng = xoshiro128ss(seed);
+  const draw = new Float64Array(N);
+  for (let t = 0; t < trials; t++) {
+    for (let c = 0; c < N; c++) {
+      const comp = m.components[c];
+      draw[c] = comp.dist === 'rectangular' ? (2 * rng.next() - 1) * comp.scale : rng.normal() * comp.scale;
+    }
+    const out = m.evaluate(draw);
+    for (let o = 0; o < O; o++) samples[o][t] = out[o];
+  }
+  return samples;
+}
+
 /**
  * Composition, phi and diluent fraction of a logged batch with their GUM and Monte
- * Carlo uncertainties. `diluent` names the species counted in the diluent fraction
+ * Carlo uncertainties. The trials run as MC_STREAMS streams one after another, unless
+ * the caller passes the streams' samples (computed in parallel with monteCarloSamples). `diluent` names the species counted in the diluent fraction
  * (the design's diluent group; the inerts when there is no design).
  */
 export function evaluateUncertainty(
@@ -191,12 +291,13 @@ export function evaluateUncertainty(
   settings: UncertaintySettings,
   diluent?: readonly string[],
   initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
+  streams?: readonly Float64Array[][],
 ): UncertaintyResult {
-  const dil = diluent ?? [...new Set(readings.flatMap((r) => Object.keys(r.source.composition)))].filter((k) => speciesRole(k) === 'inert');
+  const dil = diluent ?? defaultDiluent(readings);
   const m = buildModel(readings, settings, dil, initial);
   const N = m.components.length;
   const nominalV = new Float64Array(N);
-  const nominal = m.evaluate(nominalV);
+  const nominal = Float64Array.from(m.evaluate(nominalV));
   const nominalUnid = invertReadings(m.setup, undefined, readings.map((r) => r.pressurePa)).unidentified;
   const O = nominal.length;
   const contrib: number[][] = Array.from({ length: O }, () => []);
@@ -205,26 +306,21 @@ export function evaluateUncertainty(
     const u = m.components[c].u;
     v.fill(0);
     v[c] = u;
-    const up = m.evaluate(v);
+    const up = Float64Array.from(m.evaluate(v));
     v[c] = -u;
     const dn = m.evaluate(v);
     for (let o = 0; o < O; o++) contrib[o].push((up[o] - dn[o]) / 2);
   }
-  // Monte Carlo
+  // Monte Carlo: the streams' samples joined
   const M = settings.trials;
+  const parts = streams ?? (M > 0 ? Array.from({ length: MC_STREAMS }, (_, i) => drawSamples(m, streamTrials(M, i), streamSeed(settings.seed, i))) : []);
   const samples: Float64Array[] = Array.from({ length: O }, () => new Float64Array(M));
-  if (M > 0) {
-    const rng = xoshiro128ss(settings.seed);
-    const draw = new Float64Array(N);
-    for (let t = 0; t < M; t++) {
-      for (let c = 0; c < N; c++) {
-        const comp = m.components[c];
-        draw[c] = comp.dist === 'rectangular' ? (2 * rng.next() - 1) * comp.scale : rng.normal() * comp.scale;
-      }
-      const out = m.evaluate(draw);
-      for (let o = 0; o < O; o++) samples[o][t] = out[o];
-    }
+  let offset = 0;
+  for (const part of parts) {
+    for (let o = 0; o < O; o++) samples[o].set(part[o], offset);
+    offset += part[0]?.length ?? 0;
   }
+  if (M > 0 && offset !== M) throw new Error(`Monte Carlo streams hold ${offset} trials, not ${M}`);
   const stat = (o: number): OutputStat => {
     const value = nominal[o];
     const cs = contrib[o];
@@ -243,9 +339,8 @@ export function evaluateUncertainty(
       let v2 = 0;
       for (let i = 0; i < M; i++) v2 += (s[i] - mean) ** 2;
       const uMc = Math.sqrt(v2 / (M - 1));
-      const sorted = Float64Array.from(s).sort();
-      const low = percentile(sorted, 0.025);
-      const high = percentile(sorted, 0.975);
+      const low = percentile(s, 0.025);
+      const high = percentile(s, 0.975);
       const tol = numericalTolerance(u);
       const validated = Math.abs(value - 2 * u - low) <= tol && Math.abs(value + 2 * u - high) <= tol;
       mc = { mean, u: uMc, low, high, validated, tolerance: tol };

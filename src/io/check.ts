@@ -2,9 +2,9 @@
  * From a batch log, or CSV readings with a recipe, to the core's re-check input;
  * and the header of a new log from a plan.
  */
+import { evaluateUncertaintyParallel } from './parallel-mc.js';
 import {
   chooseGauge,
-  evaluateUncertainty,
   fail,
   judge,
   pureCylinder,
@@ -81,7 +81,7 @@ function designFromHeader(h: LogHeader): Design {
   };
 }
 
-export function checkLog(log: ParsedLog, opts: CheckOptions): CheckReport {
+export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
   const h = log.header;
   const gauges = new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)]));
   const sources = new Map(h.sources.map((s) => [s.id, sourceFromLog(s)]));
@@ -102,7 +102,7 @@ export function checkLog(log: ParsedLog, opts: CheckOptions): CheckReport {
   const warnings = [...log.warnings];
   if (missingSteps.length) warnings.push(`the log has no reading for step ${missingSteps.join(', ')}: the batch is incomplete and the re-check covers the fills logged so far`);
   const design = designFromHeader(h);
-  const result = evaluateUncertainty(
+  const result = await evaluateUncertaintyParallel(
     readings,
     { barometricPa: h.barometer.pressure_Pa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: opts.trials, seed: opts.seed },
     h.design.diluent,
@@ -112,7 +112,7 @@ export function checkLog(log: ParsedLog, opts: CheckOptions): CheckReport {
   return { file: log.file, id: h.id, kind: 'log', readings, result, verdict, design, tolerance, warnings, incomplete: missingSteps.map((s) => `step ${s}`) };
 }
 
-export function checkCsv(file: string, opts: CheckOptions): CheckReport {
+export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
   const rows = readReadingsCsv(file);
   const warnings: string[] = [];
   let design: Design | undefined;
@@ -161,7 +161,7 @@ export function checkCsv(file: string, opts: CheckOptions): CheckReport {
     }
     return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
   });
-  const result = evaluateUncertainty(
+  const result = await evaluateUncertaintyParallel(
     readings,
     { barometricPa: ctx.barometricPa, barometricUncertaintyPa: ctx.barometricUncertaintyPa, thermometerUncertaintyK: thermo.uncertaintyK, thermometerResolutionK: thermo.resolutionK, trials: opts.trials, seed: opts.seed },
     design ? Object.keys(design.groups.diluent) : undefined,
@@ -179,7 +179,7 @@ export function checkCsv(file: string, opts: CheckOptions): CheckReport {
   return { file, id, kind: 'csv', readings, result, verdict, design, tolerance, warnings, incomplete };
 }
 
-export function checkFile(file: string, opts: CheckOptions): CheckReport {
+export async function checkFile(file: string, opts: CheckOptions): Promise<CheckReport> {
   if (/\.csv$/i.test(file)) return checkCsv(file, opts);
   if (opts.recipeFile) fail({ code: 'design-conflict', reason: 'a batch log carries its own design; --recipe is for CSV readings only' }, { field: '--recipe' });
   return checkLog(readLog(file), opts);

@@ -55,7 +55,11 @@ export function checkToText(r: CheckReport): string {
     for (const b of fuel[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
   }
   out.push('');
-  out.push(`Monte Carlo: ${r.result.trials} trials, seed ${r.result.seed} (JCGM 101; "agrees": the GUM interval is validated to within its numerical tolerance; "narrower": the Monte Carlo interval lies inside the GUM one)`);
+  out.push(
+    r.result.trials > 0
+      ? `Monte Carlo: ${r.result.trials} trials, seed ${r.result.seed} (JCGM 101; "agrees": the GUM interval is validated to within its numerical tolerance; "narrower": the Monte Carlo interval lies inside the GUM one)`
+      : 'GUM law of propagation only (no Monte Carlo run; give --trials 200000 for one)',
+  );
   for (const w of r.warnings) out.push(`warning: ${w}`);
   out.push('');
   out.push(`Verdict     ${VERDICT_TEXT[r.verdict.verdict]}`);

@@ -151,7 +151,8 @@ describe('uncertainty (GUM and Monte Carlo)', () => {
     const readings = plan.steps.map((s) => ({ step: s.index, source: s.source, pressurePa: s.targetPa, temperatureK: 298.15, gauge: GAUGES.find((g) => g.id === s.gauge!.id)! }));
     const a = evaluateUncertainty(readings, { ...settings, thermometerUncertaintyK: 0.3, thermometerResolutionK: 0.1, trials: 200000 });
     for (const k of ['CH4', 'O2', 'Ar']) expect(Math.abs(a.composition[k].mc!.u / a.composition[k].u - 1), k).toBeLessThan(0.02);
-    expect(Math.abs(a.phi!.mc!.mean - a.phi!.value)).toBeLessThan(3 * a.phi!.u / Math.sqrt(200000) + 1e-9);
+    // the mean of a ratio carries a second-order bias of about u^2/value beside the sampling noise
+    expect(Math.abs(a.phi!.mc!.mean - a.phi!.value)).toBeLessThan((3 * a.phi!.u) / Math.sqrt(200000) + (2 * a.phi!.u ** 2) / a.phi!.value);
     const b = evaluateUncertainty(readings, { ...settings, thermometerUncertaintyK: 0.3, thermometerResolutionK: 0.1, trials: 200000 });
     expect(b.phi!.mc!.u).toBe(a.phi!.mc!.u);
   });

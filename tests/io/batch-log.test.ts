@@ -43,14 +43,14 @@ describe('batch log', () => {
     expect(readFileSync(file, 'utf8').trim().split('\n')).toHaveLength(4);
   });
 
-  it('a torn last line (crash mid-write) is reported and ignored; the complete lines are re-checked', () => {
+  it('a torn last line (crash mid-write) is reported and ignored; the complete lines are re-checked', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const file = demoLog(dir, [10.0128, 1480.025]);
     appendFileSync(file, '{"kind":"reading","step":3,"sour');
     const log = readLog(file);
     expect(log.readings).toHaveLength(2);
     expect(log.warnings[0]).toMatch(/line 4 is incomplete/);
-    const rep = checkFile(file, { trials: 0, seed: 1 });
+    const rep = await checkFile(file, { trials: 0, seed: 1 });
     expect(rep.incomplete).toEqual(['step 3']);
     expect(rep.verdict.verdict).toBe('fail');
     expect(rep.warnings.some((w) => w.includes('incomplete'))).toBe(true);
@@ -65,7 +65,7 @@ describe('batch log', () => {
     expect(readFileSync(file, 'utf8')).toContain('10.0128 Torr');
   });
 
-  it('refuses: a newer format version, a non-JSON middle line, a second reading for one step, decreasing readings - each with its line', () => {
+  it('refuses: a newer format version, a non-JSON middle line, a second reading for one step, decreasing readings - each with its line', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const file = demoLog(dir, [10.0128, 1480.025, 1500]);
     const text = readFileSync(file, 'utf8');
@@ -76,7 +76,7 @@ describe('batch log', () => {
     expect(code(() => parseLog([...lines, lines[1]].join('\n') + '\n', 'x'))).toBe('schema@5');
     const swapped = [lines[0], lines[1], lines[2].replace(/"pressure_Pa":[0-9.e+]+/, '"pressure_Pa":1000'), lines[3]].join('\n') + '\n';
     writeFileSync(join(dir, 'd.jsonl'), swapped);
-    expect(code(() => checkFile(join(dir, 'd.jsonl'), { trials: 0, seed: 1 }))).toBe('schema@3');
+    await expect(checkFile(join(dir, 'd.jsonl'), { trials: 0, seed: 1 })).rejects.toMatchObject({ problem: { code: 'schema' }, where: { line: 3 } });
   });
 });
 
