@@ -20,6 +20,10 @@ import { planToText } from '../report/plan-text.js';
 import { speciesDetail, speciesList } from '../report/species-text.js';
 import { DEMO_LAB_YAML } from '../io/demo-lab.js';
 import { checkFile, type CheckReport } from '../io/check.js';
+import { buildSheetModel } from '../report/sheet-model.js';
+import { sheetToHtml, sheetToMarkdown, sheetToText } from '../report/sheet-render.js';
+import { writeFileAtomic } from '../io/atomic.js';
+import { writePdf } from '../io/pdf.js';
 import { checkToJson, checkToText, folderSummary } from '../report/check-report.js';
 import { readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
@@ -186,47 +190,78 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .exitOverride()
     .showHelpAfterError('(run with --help for usage)');
 
-  program
-    .command('plan')
-    .description('fill plan of a mixture: real-gas target readings, gauges, tolerance bands and findings')
-    .argument('[recipe]', 'recipe file (YAML); inline options override its fields')
+  /** the design options that plan and sheet share */
+  const withDesignOptions = (c: Command) =>
+    c
+      .argument('[recipe]', 'recipe file (YAML); inline options override its fields')
+      .option('--fuel <blend>', 'fuel species or blend, e.g. CH4 or CH4:0.8,C2H6:0.2')
+      .option('--oxidizer <blend>', 'O2, air, or a blend such as O2:0.21,N2:0.79')
+      .option('--phi <number>', 'equivalence ratio')
+      .option('--diluent <blend>', 'bath gas, e.g. Ar or Ar:0.5,He:0.5')
+      .option('--dilution <fraction>', 'diluent mole fraction of the final mixture')
+      .option('--diluent-ratio <number>', 'mol diluent per mol O2')
+      .option('--fuel-fraction <fraction>', 'total fuel mole fraction')
+      .option('--fractions <list>', 'explicit mole fractions, e.g. CH4:0.05,O2:0.10,Ar:0.85')
+      .option('--volume <quantity>', 'tank volume, e.g. "30 L"')
+      .option('--tank <id>', 'tank from the lab profile')
+      .option('--pressure <quantity>', 'final pressure, absolute, e.g. "1500 Torr"')
+      .option('--temperature <quantity>', 'tank temperature, e.g. "22 degC"')
+      .option('--order <list>', 'fill order, e.g. CH4,O2,Ar')
+      .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
+      .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
+      .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings, e.g. "752.3 Torr"')
+      .addOption(new Option('--units <unit>', 'pressure unit of the tables (default: the unit of the final pressure, else Torr)').choices([...PRESSURE_UNITS]));
+
+  /** recipe and options -> plan, with errors pointed at the file line or option */
+  const planFrom = (recipeFile: string | undefined, o: PlanOptions) => {
+    const base = recipeFile ? readRecipe(recipeFile) : undefined;
+    const rs = mergeOptions(base, o);
+    const barometricPa = o.barometer === undefined ? undefined : parseQuantity(o.barometer, 'pressure', { field: '--barometer' });
+    const req = buildPlanRequest(rs, o.lab, { barometricPa });
+    let plan;
+    try {
+      plan = planFill(req.input);
+    } catch (e) {
+      // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
+      if (e instanceof ProblemError && e.where.field) throw relocate(e, { ...rs.locate([e.where.field]), field: rs.locate([e.where.field]).field ?? e.where.field });
+      throw e;
+    }
+    // default: the unit the final pressure was given in, when it is one of ours; else Torr
+    const given = /[A-Za-z]+$/.exec(req.recipe.pressure.trim())?.[0] ?? '';
+    const unit: PressureUnit = o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
+    const meta = { recipeId: req.recipe.id, labName: req.lab.name, orderRecommended: req.orderRecommended, version: VERSION };
+    return { plan, req, unit, meta };
+  };
+
+  withDesignOptions(program.command('plan').description('fill plan of a mixture: real-gas target readings, gauges, tolerance bands and findings'))
     .option('--json', 'print one JSON object (SI units in the key names)')
-    .option('--fuel <blend>', 'fuel species or blend, e.g. CH4 or CH4:0.8,C2H6:0.2')
-    .option('--oxidizer <blend>', 'O2, air, or a blend such as O2:0.21,N2:0.79')
-    .option('--phi <number>', 'equivalence ratio')
-    .option('--diluent <blend>', 'bath gas, e.g. Ar or Ar:0.5,He:0.5')
-    .option('--dilution <fraction>', 'diluent mole fraction of the final mixture')
-    .option('--diluent-ratio <number>', 'mol diluent per mol O2')
-    .option('--fuel-fraction <fraction>', 'total fuel mole fraction')
-    .option('--fractions <list>', 'explicit mole fractions, e.g. CH4:0.05,O2:0.10,Ar:0.85')
-    .option('--volume <quantity>', 'tank volume, e.g. "30 L"')
-    .option('--tank <id>', 'tank from the lab profile')
-    .option('--pressure <quantity>', 'final pressure, absolute, e.g. "1500 Torr"')
-    .option('--temperature <quantity>', 'tank temperature, e.g. "22 degC"')
-    .option('--order <list>', 'fill order, e.g. CH4,O2,Ar')
-    .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
-    .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
-    .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings, e.g. "752.3 Torr"')
-    .addOption(new Option('--units <unit>', 'pressure unit of the table (default: the unit of the final pressure, else Torr)').choices([...PRESSURE_UNITS]))
     .action(async (recipeFile: string | undefined, o: PlanOptions) => {
-      const base = recipeFile ? readRecipe(recipeFile) : undefined;
-      const rs = mergeOptions(base, o);
-      const barometricPa = o.barometer === undefined ? undefined : parseQuantity(o.barometer, 'pressure', { field: '--barometer' });
-      const req = buildPlanRequest(rs, o.lab, { barometricPa });
-      let plan;
-      try {
-        plan = planFill(req.input);
-      } catch (e) {
-        // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
-        if (e instanceof ProblemError && e.where.field) throw relocate(e, { ...rs.locate([e.where.field]), field: rs.locate([e.where.field]).field ?? e.where.field });
-        throw e;
-      }
-      // default: the unit the final pressure was given in, when it is one of ours; else Torr
-      const given = /[A-Za-z]+$/.exec(req.recipe.pressure.trim())?.[0] ?? '';
-      const unit: PressureUnit = o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
-      const meta = { recipeId: req.recipe.id, labName: req.lab.name, orderRecommended: req.orderRecommended, version: VERSION };
+      const { plan, unit, meta } = planFrom(recipeFile, o);
       if (o.json) out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
       else out(planToText(plan, meta, unit));
+      if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+    });
+
+  withDesignOptions(program.command('sheet').description('printable fill checklist: steps with targets and bands, checks, findings, and the fuel/O2/inert diagram'))
+    .addOption(new Option('--format <format>', 'output format').choices(['html', 'md', 'txt', 'pdf']).default('html'))
+    .option('-o, --output <file>', 'write to this file (required for pdf); stdout otherwise')
+    .option('--force', 'overwrite an existing output file')
+    .addOption(new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'))
+    .option('--batch <id>', 'batch id printed on the sheet (default: recipe id and date)')
+    .action(async (recipeFile: string | undefined, o: PlanOptions & { format: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; batch?: string }) => {
+      const { plan, req, unit } = planFrom(recipeFile, o);
+      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper });
+      if (o.format === 'pdf') {
+        if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' }, { field: '--output' });
+        await writePdf(sheetToHtml(model), o.output, Boolean(o.force));
+        out(`wrote ${o.output}\n`);
+      } else {
+        const text = o.format === 'md' ? sheetToMarkdown(model) : o.format === 'txt' ? sheetToText(model) : sheetToHtml(model);
+        if (o.output) {
+          writeFileAtomic(o.output, text, Boolean(o.force));
+          out(`wrote ${o.output}\n`);
+        } else out(text);
+      }
       if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
     });
 

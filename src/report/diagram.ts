@@ -1,0 +1,154 @@
+/**
+ * The fuel / O2 / inert diagram as an SVG string: an equilateral triangle with the
+ * inert (N2-equivalent) vertex bottom left, O2 bottom right and fuel at the top; the
+ * flammable zone of the batch's fuel from the safety review's envelope, the air line,
+ * the stoichiometric line, and the fill path of the tank states, numbered in order.
+ * Plain strokes and hatching: readable in black and white.
+ */
+import { blendLimits, diagramPoint, envelopePolygon, type Plan } from '../core/index.js';
+
+/** mole fractions (fuel, oxygen) to unit-triangle coordinates; the inert share is 1 - fuel - oxygen */
+export function ternaryXY(fuel: number, oxygen: number): { x: number; y: number } {
+  return { x: oxygen + fuel / 2, y: (fuel * Math.sqrt(3)) / 2 };
+}
+
+export interface DiagramData {
+  readonly envelope: readonly [number, number][];
+  readonly lfl: number;
+  readonly ufl: number;
+  readonly z: number;
+  readonly path: readonly { readonly label: string; readonly fuel: number; readonly oxygen: number }[];
+}
+
+export function diagramData(plan: Plan): DiagramData | undefined {
+  const final = diagramPoint(plan.steps[plan.steps.length - 1].compositionAfter);
+  if (Object.keys(final.fuelBlend).length === 0) return undefined;
+  const limits = blendLimits(final.fuelBlend, plan.temperatureK, plan.final.pressurePa);
+  const states = [...(plan.initial ? [{ label: '0', y: plan.initial.composition }] : []), ...plan.steps.map((s) => ({ label: String(s.index), y: s.compositionAfter }))];
+  return {
+    envelope: envelopePolygon(limits),
+    lfl: limits.lfl,
+    ufl: limits.ufl,
+    z: limits.z,
+    path: states.map((s) => {
+      const p = diagramPoint(s.y).point;
+      return { label: s.label, fuel: p.fuel, oxygen: p.oxygen };
+    }),
+  };
+}
+
+const W = 440;
+const H = 410;
+const M = 40; // margin around the unit triangle, px
+const SCALE = W - 2 * M;
+
+function px(fuel: number, oxygen: number): [number, number] {
+  const { x, y } = ternaryXY(fuel, oxygen);
+  return [M + x * SCALE, H - M - y * SCALE];
+}
+
+const f1 = (v: number) => v.toFixed(1);
+
+export function diagramSvg(d: DiagramData, title: string): string {
+  const pts = (list: readonly [number, number][]) => list.map(([f, o]) => px(f, o).map(f1).join(',')).join(' ');
+  const tri = pts([
+    [0, 0],
+    [0, 1],
+    [1, 0],
+  ]);
+  const [ax, ay] = px(0, 0.21);
+  const [fx, fy] = px(1, 0);
+  const stoichFuel = 1 / (1 + d.z);
+  const [sx, sy] = px(stoichFuel, 1 - stoichFuel);
+  const [ix, iy] = px(0, 0);
+  const grid: string[] = [];
+  for (let k = 1; k < 10; k++) {
+    const t = k / 10;
+    // lines of constant fuel fraction
+    const [x1, y1] = px(t, 0);
+    const [x2, y2] = px(t, 1 - t);
+    grid.push(`<line x1="${f1(x1)}" y1="${f1(y1)}" x2="${f1(x2)}" y2="${f1(y2)}" class="grid"/>`);
+  }
+  const path = d.path.map((p) => px(p.fuel, p.oxygen));
+  const pathLine = path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : '';
+  const marks = d.path
+    .map((p, i) => {
+      const [x, y] = path[i];
+      return `<circle cx="${f1(x)}" cy="${f1(y)}" r="4.5" class="state"/><text x="${f1(x + 7)}" y="${f1(y - 6)}" class="num">${p.label}</text>`;
+    })
+    .join('');
+  const [lx, ly] = px(d.lfl, 0.21 * (1 - d.lfl));
+  const [ux, uy] = px(d.ufl, 0.21 * (1 - d.ufl));
+  return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="${title}">
+<defs><pattern id="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
+<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:12px sans-serif}</style>
+<title>${title}</title>
+${grid.join('')}
+<polygon points="${pts(d.envelope)}" class="zone"/>
+<polygon points="${tri}" class="edge"/>
+<line x1="${f1(ax)}" y1="${f1(ay)}" x2="${f1(fx)}" y2="${f1(fy)}" class="air"/>
+<line x1="${f1(ix)}" y1="${f1(iy)}" x2="${f1(sx)}" y2="${f1(sy)}" class="stoich"/>
+<circle cx="${f1(lx)}" cy="${f1(ly)}" r="2.5"/><circle cx="${f1(ux)}" cy="${f1(uy)}" r="2.5"/>
+${pathLine}${marks}
+<text x="${f1(ix - 4)}" y="${f1(iy + 18)}" class="lab" text-anchor="start">inert (N2-eq.)</text>
+<text x="${f1(M + SCALE + 4)}" y="${f1(iy + 18)}" class="lab" text-anchor="end">O2</text>
+<text x="${f1(fx)}" y="${f1(fy - 8)}" class="lab" text-anchor="middle">fuel</text>
+<text x="${f1(ax)}" y="${f1(ay + 16)}" class="lab" text-anchor="middle">air</text>
+</svg>`;
+}
+
+/**
+ * Detail near the inert corner, where diluted kinetics mixtures sit: O2 fraction
+ * across, fuel fraction up, both on the N2-equivalent basis, ranged to hold the fill
+ * path and the nose of the flammable zone.
+ */
+export function detailRange(d: DiagramData): { oMax: number; fMax: number } {
+  const loc = Math.min(...d.envelope.map(([, o]) => o));
+  // states near the inert corner set the range; a pure first fill (far up the fuel axis) is left outside it
+  const near = d.path.filter((p) => p.fuel <= Math.max(3 * d.lfl, 0.1) && p.oxygen <= 0.5);
+  const last = d.path[d.path.length - 1];
+  const pts = near.length ? near : [last];
+  const oMax = Math.min(1, Math.max(0.05, 1.3 * Math.max(...pts.map((p) => p.oxygen)), 1.3 * loc));
+  const fMax = Math.min(1, Math.max(0.02, 1.3 * Math.max(...pts.map((p) => p.fuel)), 1.5 * d.lfl));
+  return { oMax, fMax };
+}
+
+function outside(d: DiagramData, oMax: number, fMax: number): string {
+  const off = d.path.filter((p) => p.fuel > fMax || p.oxygen > oMax).map((p) => p.label);
+  return off.length ? `<text x="440" y="12" class="lab" text-anchor="end">state ${off.join(', ')} outside this detail (see the triangle)</text>` : '';
+}
+
+export function detailSvg(d: DiagramData, title: string): string {
+  const w = 440;
+  const h = 300;
+  const m = { l: 56, r: 14, t: 14, b: 40 };
+  const { oMax, fMax } = detailRange(d);
+  const X = (o: number) => m.l + (o / oMax) * (w - m.l - m.r);
+  const Y = (f: number) => h - m.b - (f / fMax) * (h - m.t - m.b);
+  const poly = d.envelope.map(([f, o]) => `${f1(X(o))},${f1(Y(f))}`).join(' ');
+  const path = d.path.map((p) => [X(p.oxygen), Y(p.fuel)] as const);
+  const ticks: string[] = [];
+  for (let k = 0; k <= 4; k++) {
+    const o = (oMax * k) / 4;
+    const f = (fMax * k) / 4;
+    ticks.push(`<text x="${f1(X(o))}" y="${h - m.b + 16}" class="lab" text-anchor="middle">${(o * 100).toPrecision(2)}</text>`);
+    ticks.push(`<text x="${m.l - 6}" y="${f1(Y(f) + 4)}" class="lab" text-anchor="end">${(f * 100).toPrecision(2)}</text>`);
+  }
+  const airTop = Math.min(fMax, 1 - oMax / 0.21);
+  const air = oMax >= 0.2 ? `<line x1="${f1(X(0.21))}" y1="${f1(Y(0))}" x2="${f1(X(0.21 * (1 - airTop)))}" y2="${f1(Y(airTop))}" class="air"/>` : '';
+  const fs = Math.min(fMax, oMax / Math.max(d.z, 1e-9));
+  const stoich = `<line x1="${f1(X(0))}" y1="${f1(Y(0))}" x2="${f1(X(d.z * fs))}" y2="${f1(Y(fs))}" class="stoich"/>`;
+  return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${w} ${h}" width="${w}" height="${h}" role="img" aria-label="${title}">
+<defs><clipPath id="plotarea"><rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}"/></clipPath><pattern id="hatch2" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
+<style>.edge{fill:none;stroke:#000;stroke-width:1.2}.zone{fill:url(#hatch2);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:11px sans-serif}</style>
+<title>${title}</title>
+<g clip-path="url(#plotarea)"><polygon points="${poly}" class="zone"/>${air}${stoich}</g>
+<rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}" class="edge"/>
+<g clip-path="url(#plotarea)">${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
+${d.path.map((p, i) => `<circle cx="${f1(path[i][0])}" cy="${f1(path[i][1])}" r="4.5" class="state"/><text x="${f1(path[i][0] + 7)}" y="${f1(path[i][1] - 6)}" class="num">${p.label}</text>`).join('')}</g>
+${outside(d, oMax, fMax)}
+${ticks.join('')}
+<text x="${f1((m.l + w - m.r) / 2)}" y="${h - 6}" class="lab" text-anchor="middle">O2, % (N2-equivalent basis)</text>
+<text x="14" y="${f1((m.t + h - m.b) / 2)}" class="lab" text-anchor="middle" transform="rotate(-90 14 ${f1((m.t + h - m.b) / 2)})">fuel, %</text>
+</svg>`;
+}

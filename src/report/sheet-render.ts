@@ -1,0 +1,138 @@
+/** The fill checklist in three formats, each a pure function of the sheet model. */
+import type { SheetModel } from './sheet-model.js';
+import { padTable } from './format.js';
+
+const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+const BOX = '&#9744;';
+
+const CSS = (paper: 'a4' | 'letter') => `
+@page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 12mm; }
+* { box-sizing: border-box; }
+body { font-family: "Liberation Sans", Arial, Helvetica, sans-serif; font-size: 10.5pt; color: #000; margin: 0; }
+h1 { font-size: 16pt; margin: 0 0 2mm 0; }
+h2 { font-size: 11.5pt; margin: 4mm 0 1.5mm 0; border-bottom: 1px solid #000; }
+.meta { display: flex; gap: 6mm; font-size: 10pt; margin-bottom: 2mm; }
+.field { flex: 1; border-bottom: 1px solid #000; min-height: 6mm; }
+.danger { border: 2.5px solid #000; padding: 2mm 3mm; font-weight: bold; margin: 2mm 0; }
+.cols { display: flex; gap: 6mm; }
+.cols > div { flex: 1; }
+table { border-collapse: collapse; width: 100%; }
+td, th { border: 1px solid #000; padding: 1.2mm 1.5mm; vertical-align: middle; }
+th { background: #eee; font-size: 9pt; text-align: left; }
+table.kv td { border: none; padding: 0.4mm 1mm; }
+table.kv td:first-child { font-weight: bold; width: 22mm; }
+table.steps tr { break-inside: avoid; page-break-inside: avoid; }
+table.steps td.target { font-size: 15pt; font-weight: bold; white-space: nowrap; }
+table.steps td.blank { min-width: 26mm; }
+table.steps td.small { width: 13mm; }
+tr.before td { border-bottom: none; font-weight: bold; font-size: 9.5pt; }
+.unit { font-size: 9pt; font-weight: normal; }
+ul.checks { list-style: none; padding-left: 0; margin: 0; }
+ul.checks li { margin: 0.8mm 0; }
+.label { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 11pt; }
+.findings li { margin: 0.6mm 0; }
+.sev { font-weight: bold; text-transform: uppercase; }
+.caution { font-size: 9pt; border-top: 1px solid #000; margin-top: 3mm; padding-top: 1.5mm; }
+.figures { break-inside: avoid; page-break-inside: avoid; }
+.figures .cols > div { flex: 1; }
+.figures svg { width: 100%; height: auto; }
+.legend { font-size: 9pt; }
+footer { font-size: 8pt; margin-top: 2mm; }
+@media screen { body { max-width: 190mm; margin: 8mm auto; } }
+`;
+
+export function sheetToHtml(m: SheetModel): string {
+  const kv = (rows: readonly [string, string][]) => `<table class="kv">${rows.map(([k, v]) => `<tr><td>${esc(k)}</td><td>${esc(v)}</td></tr>`).join('')}</table>`;
+  const steps = m.rows
+    .map((r) => {
+      const before = r.before.length ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>` : '';
+      return `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.low)} &ndash; ${esc(r.high)}</td><td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`;
+    })
+    .join('\n');
+  const findings = m.findings.length
+    ? `<ul class="findings">${m.findings.map((f) => `<li><span class="sev">${esc(f.severity)}</span> ${esc(f.code)} (${esc(f.where)}): ${esc(f.message)}</li>`).join('')}</ul>`
+    : '<p>No findings.</p>';
+  const figures = m.diagram
+    ? `<section class="figures"><h2>Fuel / O2 / inert diagram</h2><div class="cols"><div>${m.diagram.triangle}</div><div>${m.diagram.detail}</div></div><p class="legend">${esc(m.diagram.legend)}</p></section>`
+    : '';
+  return `<!DOCTYPE html>
+<html lang="en"><head><meta charset="utf-8"><title>Fill sheet ${esc(m.batchId)}</title><style>${CSS(m.paper)}</style></head>
+<body>
+<h1>Fill sheet &mdash; ${esc(m.title)}</h1>
+<div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.labName)}</div></div>
+<div class="meta"><div class="field">Date:</div><div class="field">Operator:</div><div class="field">Checked by:</div></div>
+${m.hasDanger ? '<div class="danger">DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.</div>' : ''}
+<div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole fraction)</h2>${kv(m.composition)}</div></div>
+<h2>Before filling</h2>
+<ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>
+<h2>Fills (target = reading to stop at, on that gauge)</h2>
+<table class="steps">
+<tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th><th>actual reading</th><th>time</th><th>init.</th><th>done</th></tr>
+${steps}
+</table>
+<h2>After filling</h2>
+<ul class="checks">${m.postChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>
+<h2>Tank label</h2>
+<div class="label">${m.label.map(esc).join('<br>')}</div>
+<h2>Findings</h2>
+${findings}
+<p class="caution"><b>Caution.</b> ${esc(m.caution)}</p>
+<footer>mixwright ${esc(m.version)} &middot; recipe ${esc(m.recipeId)}</footer>
+${figures}
+</body></html>
+`;
+}
+
+export function sheetToMarkdown(m: SheetModel): string {
+  const out: string[] = [];
+  out.push(`# Fill sheet — ${m.title}`, '', `Batch **${m.batchId}** · Lab: ${m.labName}`, '', 'Date: ________  Operator: ________  Checked by: ________', '');
+  if (m.hasDanger) out.push('> **DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.**', '');
+  out.push('## Design', '', '| | |', '|---|---|', ...m.design.map(([k, v]) => `| ${k} | ${v} |`), '');
+  out.push('## Composition (mole fraction)', '', '| species | x |', '|---|---:|', ...m.composition.map(([k, v]) => `| ${k} | ${v} |`), '');
+  out.push('## Before filling', '', ...m.preChecks.map((c) => `- [ ] ${c}`), '');
+  out.push('## Fills (target = reading to stop at, on that gauge)', '', '| # | gas / cylinder | gauge | target | band | actual reading | time | init. | done |', '|---:|---|---|---:|---|---|---|---|---|');
+  for (const r of m.rows) {
+    for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
+    out.push(`| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} | **${r.target} ${r.unit}** | ${r.low} – ${r.high} | | | | [ ] |`);
+  }
+  out.push('', '## After filling', '', ...m.postChecks.map((c) => `- [ ] ${c}`), '');
+  out.push('## Tank label', '', '```', ...m.label, '```', '');
+  out.push('## Findings', '');
+  if (m.findings.length) out.push(...m.findings.map((f) => `- **${f.severity}** ${f.code} (${f.where}): ${f.message}`));
+  else out.push('No findings.');
+  out.push('', `**Caution.** ${m.caution}`, '');
+  if (m.diagram) out.push('## Fuel / O2 / inert diagram', '', m.diagram.triangle, '', m.diagram.detail, '', m.diagram.legend, '');
+  out.push(`*mixwright ${m.version} · recipe ${m.recipeId}*`, '');
+  return out.join('\n');
+}
+
+export function sheetToText(m: SheetModel): string {
+  const out: string[] = [];
+  const rule = '='.repeat(78);
+  out.push(rule, `FILL SHEET  ${m.title}`, `Batch ${m.batchId}    Lab: ${m.labName}`, '', 'Date: ____________   Operator: ____________   Checked by: ____________', rule, '');
+  if (m.hasDanger) out.push('*** DANGER findings stand (see below). Do not fill until each is resolved or formally accepted. ***', '');
+  out.push('DESIGN');
+  for (const [k, v] of m.design) out.push(`  ${k.padEnd(10)} ${v}`);
+  out.push('', 'COMPOSITION (mole fraction)', `  ${m.composition.map(([k, v]) => `${k} ${v}`).join('   ')}`, '');
+  out.push('BEFORE FILLING');
+  for (const c of m.preChecks) out.push(`  [ ] ${c}`);
+  out.push('', 'FILLS (target = reading to stop at, on that gauge)');
+  const rows: string[][] = [['#', 'gas', 'cylinder', 'gauge', 'target', 'band', 'actual', 'time', 'init', 'done']];
+  for (const r of m.rows) rows.push([String(r.n), r.fill, r.source, r.gauge + (r.reference === 'gauge' ? ' (g)' : ''), `${r.target} ${r.unit}`, `${r.low}-${r.high}`, '__________', '_____', '____', '[ ]']);
+  const table = padTable(rows, [true, false, false, false, true, true, false, false, false, false]);
+  out.push(`  ${table[0]}`);
+  m.rows.forEach((r, i) => {
+    for (const b of r.before) out.push(`  >> before fill ${r.n}: ${b}`);
+    out.push(`  ${table[i + 1]}`);
+  });
+  out.push('', 'AFTER FILLING');
+  for (const c of m.postChecks) out.push(`  [ ] ${c}`);
+  out.push('', 'TANK LABEL', ...m.label.map((l) => `  | ${l}`), '');
+  out.push('FINDINGS');
+  if (m.findings.length) for (const f of m.findings) out.push(`  ${f.severity.toUpperCase().padEnd(7)} ${f.code} (${f.where}): ${f.message}`);
+  else out.push('  none');
+  out.push('', `CAUTION: ${m.caution}`, '');
+  if (m.diagram) out.push(`DIAGRAM: see the HTML or PDF sheet. ${m.diagram.legend}`, '');
+  out.push(`mixwright ${m.version} - recipe ${m.recipeId}`);
+  return out.join('\n') + '\n';
+}
