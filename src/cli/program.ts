@@ -10,11 +10,15 @@ import {
   ProblemError,
   relocate,
   worstSeverity,
+  experimentsServed,
+  mixingEstimate,
+  contamination,
 } from '../core/index.js';
 import { buildPlanRequest, readRecipe, validateRecipeObject, type Locate, type RecipeSource } from '../io/load.js';
 import { recipeSchema, type RecipeFile } from '../io/recipe.js';
 import { labSchema } from '../io/lab.js';
-import { isPressureUnit, parseQuantity, PRESSURE_UNITS, type PressureUnit } from '../io/quantity.js';
+import { isPressureUnit, parseLength, parseQuantity, PRESSURE_UNITS, type PressureUnit } from '../io/quantity.js';
+import { readyToJson, readyToText } from '../report/ready-report.js';
 import { planToJson } from '../report/plan-json.js';
 import { planToText } from '../report/plan-text.js';
 import { speciesDetail, speciesList } from '../report/species-text.js';
@@ -78,6 +82,11 @@ interface PlanOptions {
   units?: string;
   barometer?: string;
   tolerance?: string;
+  experiments?: string;
+  reactor?: string;
+  reactorVolume?: string;
+  lineVolume?: string;
+  fillPressure?: string;
 }
 
 const OPTION_OF: Record<string, string> = {
@@ -95,6 +104,11 @@ const OPTION_OF: Record<string, string> = {
   temperature: '--temperature',
   order: '--order',
   'tolerance.relative': '--tolerance',
+  'experiments.count': '--experiments',
+  'experiments.reactor': '--reactor',
+  'experiments.reactor_volume': '--reactor-volume',
+  'experiments.line_volume': '--line-volume',
+  'experiments.fill_pressure': '--fill-pressure',
 };
 
 function numberOption(text: string, option: string): number {
@@ -149,6 +163,15 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
   if (o.temperature !== undefined) set('temperature', o.temperature);
   if (o.order !== undefined) set('order', o.order.split(',').map((s) => s.trim()));
   if (o.tolerance !== undefined) set('tolerance.relative', numberOption(o.tolerance, '--tolerance'));
+  if (o.experiments !== undefined) {
+    set('experiments.count', numberOption(o.experiments, '--experiments'));
+    if (o.pressure === undefined) delete r.pressure; // the count sets the final pressure
+  }
+  if (o.pressure !== undefined && o.experiments === undefined && r.experiments && typeof r.experiments === 'object') delete (r.experiments as Record<string, unknown>).count;
+  if (o.reactor !== undefined) set('experiments.reactor', o.reactor);
+  if (o.reactorVolume !== undefined) set('experiments.reactor_volume', o.reactorVolume);
+  if (o.lineVolume !== undefined) set('experiments.line_volume', o.lineVolume);
+  if (o.fillPressure !== undefined) set('experiments.fill_pressure', o.fillPressure);
 
   const locate: Locate = (path) => {
     const key = path.filter((p) => typeof p === 'string').join('.');
@@ -167,7 +190,7 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
     // say which options are missing, in option names rather than recipe keys
     const missing: string[] = [];
     if (o.fractions === undefined && (o.fuel === undefined || o.oxidizer === undefined || o.phi === undefined)) missing.push('--fuel, --oxidizer and --phi (or --fractions)');
-    if (o.pressure === undefined) missing.push('--pressure');
+    if (o.pressure === undefined && o.experiments === undefined) missing.push('--pressure (or --experiments)');
     if (o.temperature === undefined) missing.push('--temperature');
     if (o.volume === undefined && o.tank === undefined) missing.push('--volume or --tank');
     if (missing.length) {
@@ -210,6 +233,11 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
       .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
       .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings, e.g. "752.3 Torr"')
+      .option('--experiments <n>', 'size the batch for n experiments (sets the final pressure)')
+      .option('--reactor <id>', 'reactor or driven section from the lab profile')
+      .option('--reactor-volume <quantity>', 'reactor volume filled per experiment, e.g. "0.9 L"')
+      .option('--line-volume <quantity>', 'line volume to the reactor, e.g. "0.05 L"')
+      .option('--fill-pressure <quantity>', 'fill pressure of one experiment, e.g. "50 Torr"')
       .addOption(new Option('--units <unit>', 'pressure unit of the tables (default: the unit of the final pressure, else Torr)').choices([...PRESSURE_UNITS]));
 
   /** recipe and options -> plan, with errors pointed at the file line or option */
@@ -227,9 +255,16 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       throw e;
     }
     // default: the unit the final pressure was given in, when it is one of ours; else Torr
-    const given = /[A-Za-z]+$/.exec(req.recipe.pressure.trim())?.[0] ?? '';
+    const given = /[A-Za-z]+$/.exec((req.recipe.pressure ?? '').trim())?.[0] ?? '';
     const unit: PressureUnit = o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
-    const meta = { recipeId: req.recipe.id, labName: req.lab.name, orderRecommended: req.orderRecommended, version: VERSION };
+    const served = req.sizing ? experimentsServed(req.sizing, plan.final.pressurePa) : undefined;
+    const meta = {
+      recipeId: req.recipe.id,
+      labName: req.lab.name,
+      orderRecommended: req.orderRecommended,
+      version: VERSION,
+      experiments: served && req.sizing ? { count: served.experiments, sizedFor: req.sizedFor, reactor: req.sizing.reactor, perExperimentMol: served.sizing.perExperimentMol, minTankPa: served.sizing.minTankPa, margin: req.sizing.margin } : undefined,
+    };
     return { plan, req, unit, meta };
   };
 
@@ -263,6 +298,45 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         } else out(text);
       }
       if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+    });
+
+  withDesignOptions(program.command('ready').description('readiness of the filled tank: diffusion mixing time, and contamination from the base vacuum and leak-up over storage'))
+    .option('--json', 'print one JSON object')
+    .option('--stirred', 'the tank is stirred')
+    .option('--height <length>', 'inside height of the tank, e.g. "0.8 m" (default: the lab profile)')
+    .option('--leak <rate>', 'leak-up rate measured under vacuum, e.g. "2e-5 Torr/min" (default: the lab profile)')
+    .option('--base-vacuum <pressure>', 'pressure before the first fill, e.g. "1e-4 Torr" (default: the lab profile)')
+    .option('--days <n>', 'storage time for the contamination estimate', '14')
+    .action(async (recipeFile: string | undefined, o: PlanOptions & { stirred?: boolean; height?: string; leak?: string; baseVacuum?: string; days: string }) => {
+      const { plan, req } = planFrom(recipeFile, o);
+      const info = req.tankInfo;
+      const notes: string[] = [];
+      const heightM = o.height !== undefined ? parseLength(o.height, { field: '--height' }) : info?.heightM;
+      if (heightM === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the tank height is not known: give --height or add "height" to the tank in the lab profile' }, { field: '--height' });
+      if (!(heightM > 0)) throw new ProblemError({ code: 'not-positive', what: 'tank height', value: heightM }, { field: '--height' });
+      const leak = o.leak !== undefined ? parseQuantity(o.leak, 'pressure rate', { field: '--leak' }) : info?.leakRatePaPerS;
+      if (leak === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the leak-up rate is not known: measure it and give --leak, or add "leak_rate" to the tank in the lab profile' }, { field: '--leak' });
+      const base = o.baseVacuum !== undefined ? parseQuantity(o.baseVacuum, 'pressure', { field: '--base-vacuum' }) : info?.baseVacuumPa;
+      if (base === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the base vacuum is not known: give --base-vacuum or add "base_vacuum" to the tank in the lab profile' }, { field: '--base-vacuum' });
+      if (o.leak === undefined) notes.push('leak-up rate from the lab profile; measure it before each batch and give --leak');
+      const days = numberOption(o.days, '--days');
+      if (!(days >= 0)) throw new ProblemError({ code: 'out-of-range', what: 'days', value: days, allowed: '>= 0' }, { field: '--days' });
+      const stirred = Boolean(o.stirred ?? info?.stirred);
+      const y = plan.composition;
+      const report = {
+        id: req.recipe.id,
+        tank: plan.tank.id,
+        heightM,
+        pressurePa: plan.final.pressurePa,
+        temperatureK: plan.temperatureK,
+        mixing: mixingEstimate(y, plan.temperatureK, plan.final.pressurePa, heightM, stirred),
+        contamination: contamination({ composition: y, tankPressurePa: plan.final.pressurePa, baseVacuumPa: base, leakRatePaPerS: leak, days, atmosphericPa: req.input.reading.barometricPa, air: req.lab.air }),
+        days,
+        leakRatePaPerS: leak,
+        baseVacuumPa: base,
+        notes,
+      };
+      out(o.json ? JSON.stringify(readyToJson(report, VERSION), null, 2) + '\n' : readyToText(report));
     });
 
   program

@@ -23,11 +23,31 @@ tanks:
     volume: 10.0 L
     rating: 4 bar
     working_fraction: 0.9
+    height: 0.32 m
+    stirred: false
+    base_vacuum: 2e-4 Torr
+    leak_rate: 3e-5 Torr/min
   - id: MT-2
     label: mixing tank 2, 30.2 L, heated jacket
     volume: 30.2 L
     rating: 7 bar
     working_fraction: 0.9
+    height: 0.55 m
+    stirred: true
+    base_vacuum: 5e-4 Torr
+    leak_rate: 5e-5 Torr/min
+reactors:
+  - id: ST-A
+    label: shock tube A, driven section 4.2 m x 50 mm
+    volume: 8.25 L
+    line_volume: 0.12 L
+    fill_pressure: 40 Torr
+  - id: RCM-1
+    label: rapid compression machine, reaction chamber and cylinder
+    volume: 0.62 L
+    line_volume: 0.05 L
+    fill_pressure: 900 Torr
+fill_margin: 0.1
 gauges:
   - id: head-10T
     label: capacitance head, 10 Torr absolute

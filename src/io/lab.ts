@@ -15,6 +15,21 @@ const tankSchema = z
     volume: quantity('internal volume (tank and the manifold up to its valve)', '10.0 L'),
     rating: quantity('maximum allowed working pressure, absolute', '4 bar').optional(),
     working_fraction: z.number().gt(0).max(1).optional().describe('fraction of the rating used as working limit; default 1'),
+    height: quantity('inside height, for the diffusion mixing time', '0.45 m').optional(),
+    stirred: z.boolean().optional().describe('true when the tank has a stirrer or fan'),
+    base_vacuum: quantity('usual pressure before the first fill', '1e-4 Torr').optional(),
+    leak_rate: quantity('usual leak-up rate under vacuum', '2e-5 Torr/min').optional(),
+  })
+  .strict();
+
+const reactorSchema = z
+  .object({
+    id: z.string().min(1),
+    label: z.string().optional(),
+    volume: quantity('reactor or driven-section volume filled per experiment', '0.9 L'),
+    line_volume: quantity('line volume from the tank valve to the reactor, filled and lost each time', '0.05 L').optional(),
+    fill_pressure: quantity('fill pressure of one experiment, absolute', '50 Torr'),
+    temperature: quantity('temperature of reactor and line at fill', '22 degC').optional(),
   })
   .strict();
 
@@ -76,6 +91,8 @@ export const labSchema = z
     coldest: quantity('coldest temperature any wetted part (tank, lines, gauge heads) reaches, for the condensation check', '18 degC').optional(),
     condensation_fraction: z.number().gt(0).max(1).optional().describe('largest allowed fraction of the saturation pressure at the coldest point; default 0.5 (common practice)'),
     tanks: z.array(tankSchema).default([]),
+    reactors: z.array(reactorSchema).default([]).describe('reactors or driven sections the batches serve'),
+    fill_margin: z.number().min(0).max(5).optional().describe('the tank is used down to fill pressure x (1 + margin); default 0.1'),
     gauges: z.array(gaugeSchema).default([]),
     cylinders: z.array(z.union([pureCylinderSchema, premixSchema])).default([]),
   })

@@ -18,8 +18,10 @@ import {
   type Gauge,
   type PlanInput,
   type TankSpec,
+  type ReactorSpec,
+  finalPressureForExperiments,
 } from '../core/index.js';
-import { parseQuantity } from './quantity.js';
+import { parseLength, parseQuantity } from './quantity.js';
 import { labSchema, type LabFile } from './lab.js';
 import { recipeSchema, type RecipeFile } from './recipe.js';
 import { keysAt, validate } from './schema-util.js';
@@ -72,7 +74,9 @@ export interface LoadedLab {
   readonly barometricPa: number;
   readonly barometricUncertaintyPa: number;
   readonly air: Fractions;
-  readonly tanks: readonly TankSpec[];
+  readonly tanks: readonly (TankSpec & { readonly heightM?: number; readonly stirred?: boolean; readonly baseVacuumPa?: number; readonly leakRatePaPerS?: number })[];
+  readonly reactors: readonly ReactorSpec[];
+  readonly fillMargin: number;
   readonly gauges: readonly Gauge[];
   readonly cylinders: readonly GasSource[];
   /** coldest wetted temperature of tank, lines and gauge heads, K */
@@ -92,12 +96,39 @@ export function loadLab(file?: string): LoadedLab {
     if (ids.has(id)) fail({ code: 'schema', reason: `the id "${id}" is used twice; ids of tanks, gauges and cylinders must be unique` }, w(path, 'id'));
     ids.add(id);
   };
-  const tanks = lab.tanks.map((t, i): TankSpec => {
+  const tanks = lab.tanks.map((t, i): LoadedLab['tanks'][number] => {
     unique(t.id, ['tanks', i, 'id']);
     const volumeM3 = parseQuantity(t.volume, 'volume', w(['tanks', i, 'volume'], `tanks[${i}].volume`));
     if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3 }, w(['tanks', i, 'volume'], `tanks[${i}].volume`));
     const rated = t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`));
-    return { id: t.id, label: t.label ?? t.id, volumeM3, ratedPressurePa: rated, workingFraction: t.working_fraction };
+    const q = (key: 'height' | 'base_vacuum' | 'leak_rate', dim: 'volume' | 'pressure' | 'pressure rate' | 'length') => {
+      const text = t[key];
+      if (text === undefined) return undefined;
+      return dim === 'length' ? parseLength(text, w(['tanks', i, key], `tanks[${i}].${key}`)) : parseQuantity(text, dim, w(['tanks', i, key], `tanks[${i}].${key}`));
+    };
+    return {
+      id: t.id,
+      label: t.label ?? t.id,
+      volumeM3,
+      ratedPressurePa: rated,
+      workingFraction: t.working_fraction,
+      heightM: q('height', 'length'),
+      stirred: t.stirred,
+      baseVacuumPa: q('base_vacuum', 'pressure'),
+      leakRatePaPerS: q('leak_rate', 'pressure rate'),
+    };
+  });
+  const reactors = lab.reactors.map((r, i): ReactorSpec => {
+    unique(r.id, ['reactors', i, 'id']);
+    const at = (key: string) => w(['reactors', i, key], `reactors[${i}].${key}`);
+    return {
+      id: r.id,
+      label: r.label ?? r.id,
+      volumeM3: parseQuantity(r.volume, 'volume', at('volume')),
+      lineVolumeM3: r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
+      fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure')),
+      temperatureK: r.temperature === undefined ? undefined : parseQuantity(r.temperature, 'temperature', at('temperature')),
+    };
   });
   const gauges = lab.gauges.map((g, i): Gauge => {
     unique(g.id, ['gauges', i, 'id']);
@@ -153,6 +184,8 @@ export function loadLab(file?: string): LoadedLab {
     barometricUncertaintyPa: baroU,
     air,
     tanks,
+    reactors,
+    fillMargin: lab.fill_margin ?? 0.1,
     gauges,
     cylinders,
     coldestK,
@@ -187,6 +220,12 @@ export interface PlanRequest {
   readonly recipe: RecipeFile;
   /** the order was recommended by the tool, not given */
   readonly orderRecommended: boolean;
+  /** how experiments are counted, when a reactor is known */
+  readonly sizing?: import('../core/index.js').SizingInput;
+  /** the experiment count the final pressure was sized for */
+  readonly sizedFor?: number;
+  /** the lab's record of the tank (height, stirrer, vacuum), when it came from the profile */
+  readonly tankInfo?: LoadedLab['tanks'][number];
 }
 
 export interface Overrides {
@@ -212,9 +251,33 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   }
   if (!tank) fail({ code: 'design-missing', reason: `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) or give a volume` }, W(['tank'], 'tank'));
 
-  const pressurePa = parseQuantity(r.pressure, 'pressure', W(['pressure']));
-  if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa }, W(['pressure']));
+  const count = r.experiments?.count;
+  if (count !== undefined && r.pressure !== undefined) {
+    fail({ code: 'design-conflict', reason: 'give the final pressure or the number of experiments, not both (the count sets the pressure)' }, W(['experiments', 'count'], 'experiments.count'));
+  }
+  if (count === undefined && r.pressure === undefined) fail({ code: 'design-missing', reason: 'give the final pressure, or the number of experiments the batch must serve' }, W(['pressure'], 'pressure'));
   const temperatureK = parseQuantity(r.temperature, 'temperature', W(['temperature']));
+  // the reactor the batch serves: the recipe's, else the lab's first
+  let reactor: ReactorSpec | undefined;
+  const ex = r.experiments;
+  if (ex?.reactor !== undefined) {
+    reactor = lab.reactors.find((x) => x.id === ex.reactor);
+    if (!reactor) fail({ code: 'unknown-reference', kind: 'reactor', id: ex.reactor, choices: lab.reactors.map((x) => x.id) }, W(['experiments', 'reactor'], 'experiments.reactor'));
+  } else if (ex?.reactor_volume === undefined) reactor = lab.reactors[0];
+  if (ex?.reactor_volume !== undefined || ex?.fill_pressure !== undefined || ex?.line_volume !== undefined) {
+    const volumeM3 = ex.reactor_volume !== undefined ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume'])) : reactor?.volumeM3;
+    const fillPressurePa = ex.fill_pressure !== undefined ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure'])) : reactor?.fillPressurePa;
+    if (volumeM3 === undefined || fillPressurePa === undefined) fail({ code: 'design-missing', reason: 'give both the reactor volume and the fill pressure of one experiment (or a reactor from the lab profile)' }, W(['experiments'], 'experiments'));
+    reactor = {
+      id: reactor?.id ?? 'reactor',
+      label: reactor?.label ?? 'reactor of the given volume',
+      volumeM3,
+      lineVolumeM3: ex.line_volume !== undefined ? parseQuantity(ex.line_volume, 'volume', W(['experiments', 'line_volume'])) : (reactor?.lineVolumeM3 ?? 0),
+      fillPressurePa,
+      temperatureK: reactor?.temperatureK,
+    };
+  }
+  if (count !== undefined && !reactor) fail({ code: 'design-missing', reason: 'sizing for a number of experiments needs a reactor: name one from the lab profile or give its volume and fill pressure' }, W(['experiments'], 'experiments'));
   if (!(temperatureK > 0)) fail({ code: 'out-of-range', what: `temperature "${r.temperature}" (${temperatureK.toFixed(2)} K)`, value: temperatureK, allowed: 'above absolute zero (0 K = -273.15 degC)' }, W(['temperature']));
 
   // design
@@ -282,6 +345,14 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     };
   }
   const tolerance = { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 };
+  const sizingInput = reactor && { composition: design.composition, tankVolumeM3: tank.volumeM3, temperatureK, reactor, margin: lab.fillMargin };
+  let pressurePa: number;
+  if (count !== undefined) {
+    pressurePa = at(W(['experiments', 'count'], 'experiments.count'), () => finalPressureForExperiments(sizingInput!, count).pressurePa);
+  } else {
+    pressurePa = parseQuantity(r.pressure!, 'pressure', W(['pressure']));
+    if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa }, W(['pressure']));
+  }
   const input: PlanInput = {
     design,
     finalPressurePa: pressurePa,
@@ -295,5 +366,5 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     reading: { barometricPa: overrides.barometricPa ?? lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa },
     tolerance,
   };
-  return { input, lab, recipe: r, orderRecommended: !r.order };
+  return { input, lab, recipe: r, orderRecommended: !r.order, sizing: sizingInput, sizedFor: count, tankInfo: lab.tanks.find((t) => t.id === tank.id) };
 }

@@ -51,11 +51,14 @@ export const FAST_UNITS: Readonly<Record<string, { dim: Dimension; factor: numbe
   s: { dim: 'time', factor: 1 },
   min: { dim: 'time', factor: 60 },
   h: { dim: 'time', factor: 3600 },
+  m: { dim: 'length', factor: 1 },
+  cm: { dim: 'length', factor: 0.01 },
+  mm: { dim: 'length', factor: 0.001 },
   kg: { dim: 'mass', factor: 1 },
   g: { dim: 'mass', factor: 1e-3 },
 };
 
-export type Dimension = 'pressure' | 'volume' | 'temperature' | 'pressure rate' | 'time' | 'mass';
+export type Dimension = 'pressure' | 'volume' | 'temperature' | 'pressure rate' | 'time' | 'mass' | 'length';
 
 const SI: Record<Dimension, string> = {
   pressure: 'Pa',
@@ -64,9 +67,10 @@ const SI: Record<Dimension, string> = {
   'pressure rate': 'Pa/s',
   time: 's',
   mass: 'kg',
+  length: 'm',
 };
 
-const PROBES: readonly Dimension[] = ['pressure', 'volume', 'temperature', 'pressure rate', 'time', 'mass'];
+const PROBES: readonly Dimension[] = ['pressure', 'volume', 'temperature', 'pressure rate', 'time', 'mass', 'length'];
 
 function dimensionOf(u: Unit): string {
   const math = mathjs();
@@ -142,4 +146,9 @@ export function fromPa(pa: number, unit: PressureUnit): number {
 /** convert a value in unit to SI through mathjs (tests compare this path against fromPa) */
 export function toSI(value: number, unit: string): number {
   return mathjs().unit(value, unit).toSI().toNumber();
+}
+
+/** a length, m */
+export function parseLength(text: string, where: Where = {}): number {
+  return parseQuantity(text, 'length', where);
 }

@@ -39,7 +39,17 @@ export const recipeSchema = z
     tank: z.string().optional().describe('tank id from the lab profile'),
     volume: quantity('tank volume, if no tank is named or to override it', '10 L').optional(),
     mixture: z.union([phiDesign, fractionsDesign]),
-    pressure: quantity('final tank pressure, absolute', '1000 Torr'),
+    pressure: quantity('final tank pressure, absolute (or give experiments.count)', '1000 Torr').optional(),
+    experiments: z
+      .object({
+        count: z.number().int().positive().optional().describe('size the batch for this many experiments (sets the final pressure)'),
+        reactor: z.string().optional().describe('reactor id from the lab profile'),
+        reactor_volume: quantity('reactor volume, instead of a lab reactor', '0.9 L').optional(),
+        line_volume: quantity('line volume to the reactor', '0.05 L').optional(),
+        fill_pressure: quantity('fill pressure of one experiment', '50 Torr').optional(),
+      })
+      .strict()
+      .optional(),
     temperature: quantity('tank temperature during the fill', '22 degC'),
     order: z.array(z.string()).optional().describe('fill order: species or cylinder ids, each fill once'),
     sources: z.array(z.string()).optional().describe('cylinder ids from the lab profile to fill from'),

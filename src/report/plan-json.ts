@@ -3,11 +3,15 @@ import { describeFinding, STANDING_CAUTION, type Plan } from '../core/index.js';
 import { pressure } from './format.js';
 import type { PressureUnit } from '../io/quantity.js';
 
+import type { ReactorSpec } from '../core/index.js';
+
 export interface PlanMeta {
   readonly recipeId: string;
   readonly labName: string;
   readonly orderRecommended: boolean;
   readonly version: string;
+  /** how many experiments the batch serves, when a reactor is known */
+  readonly experiments?: { readonly count: number; readonly sizedFor?: number; readonly reactor: ReactorSpec; readonly perExperimentMol: number; readonly minTankPa: number; readonly margin: number };
 }
 
 export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Torr'): object {
@@ -45,6 +49,18 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     },
     order: { fills: plan.steps.map((s) => s.species), reason: plan.orderReason, recommended: meta.orderRecommended },
     tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
+    experiments: meta.experiments
+      ? {
+          count: meta.experiments.count,
+          sized_for: meta.experiments.sizedFor ?? null,
+          reactor: meta.experiments.reactor.id,
+          reactor_volume_m3: meta.experiments.reactor.volumeM3,
+          line_volume_m3: meta.experiments.reactor.lineVolumeM3,
+          fill_pressure_Pa: meta.experiments.reactor.fillPressurePa,
+          per_experiment_mol: meta.experiments.perExperimentMol,
+          min_tank_pressure_Pa: meta.experiments.minTankPa,
+        }
+      : null,
     steps: plan.steps.map((s) => ({
       step: s.index,
       species: s.species,

@@ -29,6 +29,12 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push(`            Z = ${plan.final.compressibility.toFixed(6)}, ${fixedSig(plan.final.amountMol, 6)} mol (an ideal gas would need ${fixedSig(plan.final.idealAmountMol, 6)} mol)`);
   if (plan.initial) out.push(`In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} (${fixedSig(plan.initial.amountMol, 5)} mol)`);
   out.push(`Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${meta.orderRecommended ? 'recommended: ' : ''}${plan.orderReason})`);
+  const ex = meta.experiments;
+  if (ex) {
+    out.push(
+      `Serves      ${ex.count} experiments in ${ex.reactor.id} (${fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4)} L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank is used down to ${P(ex.minTankPa, 5)})${ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : ''}`,
+    );
+  }
   out.push(`Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} % relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`);
   out.push('');
 

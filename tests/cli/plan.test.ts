@@ -132,3 +132,29 @@ describe('other commands', () => {
     expect(plan.stdout).toMatchSnapshot();
   });
 });
+
+describe('sizing and readiness', () => {
+  it('plan states how many experiments the batch serves for the lab reactor; --experiments sizes the final pressure', async () => {
+    const r = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--json']);
+    const j = JSON.parse(r.stdout);
+    expect(j.experiments.reactor).toBe('ST-A');
+    expect(j.experiments.count).toBeGreaterThan(0);
+    const s = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--experiments', '40', '--reactor-volume', '0.9 L', '--fill-pressure', '50 Torr', '--json']);
+    const k = JSON.parse(s.stdout);
+    expect(k.experiments.count).toBe(40);
+    expect(k.experiments.sized_for).toBe(40);
+    // 40 x 0.9 L x 50 Torr / 10 L + 55 Torr reserve = 235 Torr (ideal gas; real within 0.1 %)
+    expect(Math.abs(k.final.pressure_Pa / TORR / 235 - 1)).toBeLessThan(1e-3);
+  });
+  it('ready: diffusion mixing time and contamination, with the tank data of the lab profile', async () => {
+    const r = await runCli(['ready', 'recipes/ng-blend-air.yaml', '--leak', '2e-5 Torr/min', '--days', '30', '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.mixing.diffusion_to_1pct_s).toBeGreaterThan(0);
+    expect(j.mixing.diffusion_to_0_1pct_s / j.mixing.diffusion_to_1pct_s).toBeCloseTo(1.5, 9);
+    expect(j.contamination.phi_after).toBeLessThan(j.contamination.phi_start);
+    const bad = await runCli(['ready', 'recipes/ng-blend-air.yaml', '--height', '2 L']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain('is a volume, but a length is needed');
+  });
+});

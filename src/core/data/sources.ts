@@ -181,6 +181,26 @@ const list: readonly Source[] = [
     quality: 'from-memory',
   },
   {
+    key: 'poling-2001-lj',
+    citation: 'B.E. Poling, J.M. Prausnitz, J.P. O\'Connell, The Properties of Gases and Liquids, 5th ed. (2001), Appendix B Lennard-Jones parameters (from Svehla 1962), as tabulated in the chemicals data library',
+    quality: 'experimental-review',
+  },
+  {
+    key: 'magalhaes-2013-lj',
+    citation: 'A.L. Magalhaes et al., Lennard-Jones parameters from diffusivity data (2013), as tabulated in the chemicals data library',
+    quality: 'correlation',
+  },
+  {
+    key: 'fuller-1966-volumes',
+    citation: 'E.N. Fuller, P.D. Schettler, J.C. Giddings, Ind. Eng. Chem. 58(5), 18 (1966); diffusion volumes as in the ChemSep 8.32 databank (chemicals data library), matching Poling et al. 2001 Table 11-1',
+    quality: 'correlation',
+  },
+  {
+    key: 'fuller-increments-memory',
+    citation: 'Fuller atomic diffusion-volume increments (Poling et al. 2001 Table 11-1; S 22.9, F 14.7 recalled)',
+    quality: 'from-memory',
+  },
+  {
     key: 'common-practice',
     citation: 'Common laboratory practice, no single published source',
     quality: 'from-memory',
