@@ -3,7 +3,31 @@ import { build } from 'esbuild';
 import { chmodSync, mkdirSync } from 'node:fs';
 
 mkdirSync('dist', { recursive: true });
+
+// the interactive screens (ink, react) live in their own bundle, loaded only by `fill` and the wizard
+const tuiExternal = {
+  name: 'tui-external',
+  setup(b) {
+    b.onResolve({ filter: /tui\/run\.js$/ }, () => ({ path: './tui.mjs', external: true }));
+  },
+};
 await build({
+  entryPoints: ['src/tui/run.tsx'],
+  bundle: true,
+  platform: 'node',
+  format: 'esm',
+  target: 'node20',
+  minify: true,
+  outfile: 'dist/tui.mjs',
+  jsx: 'automatic',
+  alias: { 'react-devtools-core': './scripts/devtools-stub.mjs' },
+  define: { 'process.env.NODE_ENV': '"production"' },
+  banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
+  logLevel: 'warning',
+});
+
+await build({
+  plugins: [tuiExternal],
   entryPoints: ['src/cli/main.ts'],
   bundle: true,
   platform: 'node',

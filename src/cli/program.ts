@@ -29,7 +29,9 @@ import { sheetToHtml, sheetToMarkdown, sheetToText } from '../report/sheet-rende
 import { writeFileAtomic } from '../io/atomic.js';
 import { writePdf } from '../io/pdf.js';
 import { checkToJson, checkToText, folderSummary } from '../report/check-report.js';
-import { readdirSync, statSync } from 'node:fs';
+import { mkdirSync, readdirSync, statSync } from 'node:fs';
+import { createLog, readLog } from '../io/batch-log.js';
+import { headerFromPlan } from '../io/check.js';
 import { join } from 'node:path';
 
 function isDirectory(p: string): boolean {
@@ -339,6 +341,33 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       out(o.json ? JSON.stringify(readyToJson(report, VERSION), null, 2) + '\n' : readyToText(report));
     });
 
+  withDesignOptions(program.command('fill').description('guided fill at the manifold: one step at a time, each reading logged at once, the rest re-targeted (interactive)'))
+    .option('--resume <log>', 'continue an interrupted fill from its batch log')
+    .option('--batch <id>', 'batch id (default: recipe id and date and time)')
+    .option('--dir <folder>', 'folder of the batch logs', 'batches')
+    .action(async (recipeFile: string | undefined, o: PlanOptions & { resume?: string; batch?: string; dir: string }) => {
+      if (!streams.isTTY) {
+        throw new ProblemError({ code: 'design-missing', reason: 'the guided fill needs a terminal (stdin and stdout are not one). Use `mixwright plan` or `mixwright sheet` to prepare, and `mixwright check` on the log or a CSV of the readings' }, { field: 'fill' });
+      }
+      const tui = await import('../tui/run.js');
+      if (o.resume) {
+        if (recipeFile) throw new ProblemError({ code: 'design-conflict', reason: 'a resumed fill takes its design from the log; give --resume LOG alone' }, { field: '--resume' });
+        const log = readLog(o.resume);
+        if (log.closed) throw new ProblemError({ code: 'design-conflict', reason: 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`' }, { file: o.resume });
+        for (const w of log.warnings) err(`mixwright: ${o.resume}: ${w}\n`);
+        await tui.runFill({ header: log.header, logFile: o.resume, log });
+        return;
+      }
+      const { plan, req } = planFrom(recipeFile, o);
+      const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
+      const id = o.batch ?? `${req.recipe.id}-${stamp}`;
+      if (!/^[A-Za-z0-9._-]+$/.test(id)) throw new ProblemError({ code: 'schema', reason: `batch id "${id}" may hold letters, digits, '.', '_' and '-' only` }, { field: '--batch' });
+      mkdirSync(o.dir, { recursive: true });
+      const file = join(o.dir, `${id}.jsonl`);
+      createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
+      await tui.runFill({ header: readLog(file).header, logFile: file });
+    });
+
   program
     .command('check')
     .description('re-check a batch from its logged fills: composition, phi and dilution with a GUM and Monte Carlo uncertainty budget, against the design')
@@ -409,14 +438,24 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       out(DEMO_LAB_YAML);
     });
 
-  const run = async (argv: readonly string[]): Promise<number> => {
+  program
+    .command('wizard')
+    .description('build a mixture design step by step, with the plan and findings updating live (interactive; also what bare `mixwright` opens)')
+    .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
+    .action(async (o: { lab?: string }) => {
+      if (!streams.isTTY) throw new ProblemError({ code: 'design-missing', reason: 'the wizard needs a terminal. Use `mixwright plan`, `mixwright sheet` and `mixwright check`' }, { field: 'wizard' });
+      const tui = await import('../tui/run.js');
+      await tui.runWizard({ version: VERSION, labFile: o.lab });
+    });
+
+  const run = async (argvIn: readonly string[]): Promise<number> => {
+    let argv = argvIn;
     if (argv.length === 0) {
       if (!streams.isTTY) {
-        err('mixwright: not a terminal, so the wizard cannot open.\nUse `mixwright plan`, `mixwright species` or `mixwright schema`; `mixwright --help` lists the commands.\n');
+        err('mixwright: not a terminal, so the wizard cannot open.\nUse `mixwright plan`, `mixwright sheet` and `mixwright check`; `mixwright --help` lists the commands.\n');
         return EXIT.input;
       }
-      err('mixwright: the interactive wizard is not available in this version.\nUse `mixwright plan RECIPE` or `mixwright plan --fuel ... --oxidizer ... --phi ...`; `mixwright --help` lists the commands.\n');
-      return EXIT.input;
+      argv = ['wizard'];
     }
     try {
       await program.parseAsync([...argv], { from: 'user' });

@@ -57,6 +57,7 @@ export const headerSchema = z.object({
   sources: z.array(sourceSchema),
   steps: z.array(z.object({ step: z.number().int().positive(), source: z.string(), species: z.string(), target_Pa: z.number(), band_Pa: z.number(), gauge: z.string().nullable() })),
   recipe: z.unknown().optional(),
+  findings: z.array(z.object({ severity: z.enum(['danger', 'warning', 'note']), code: z.string(), step: z.number().nullable(), message: z.string() })).optional(),
 });
 
 const readingSchema = z.object({

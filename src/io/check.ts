@@ -5,6 +5,7 @@
 import { evaluateUncertaintyParallel } from './parallel-mc.js';
 import {
   chooseGauge,
+  describeFinding,
   fail,
   judge,
   pureCylinder,
@@ -64,10 +65,11 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
     sources: plan.steps.map((s) => sourceToLog(s.source)),
     steps: plan.steps.map((s) => ({ step: s.index, source: s.source.id, species: s.species, target_Pa: s.targetPa, band_Pa: s.bandPa, gauge: s.gauge?.id ?? null })),
     recipe: req.recipe,
+    findings: plan.findings.map((f) => ({ severity: f.severity, code: f.code, step: f.step ?? null, message: describeFinding(f, (pa) => `${(pa / (101325 / 760)).toPrecision(6)} Torr`) })),
   };
 }
 
-function designFromHeader(h: LogHeader): Design {
+export function designFromHeader(h: LogHeader): Design {
   const diluent: Record<string, number> = {};
   for (const k of h.design.diluent) diluent[k] = h.design.composition[k] ?? 0;
   return {

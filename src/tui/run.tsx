@@ -1,0 +1,65 @@
+/** Entry points of the interactive commands; loaded only when one of them runs. */
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { render } from 'ink';
+import { stringify } from 'yaml';
+import { FillApp } from './fill-app.js';
+import { initialState, setupFromHeader } from './fill-state.js';
+import { WizardApp } from './wizard-app.js';
+import { DEFAULTS, wizardInit, type WizardState } from './wizard-state.js';
+import { loadLab } from '../io/load.js';
+import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
+import { appendEvent, createLog, readLog, type LogHeader, type ParsedLog } from '../io/batch-log.js';
+import { headerFromPlan } from '../io/check.js';
+import { writeFileAtomic } from '../io/atomic.js';
+import { buildSheetModel } from '../report/sheet-model.js';
+import { sheetToHtml } from '../report/sheet-render.js';
+import { describeProblemAt, ProblemError } from '../core/index.js';
+
+export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<void> {
+  const setup = setupFromHeader(args.header);
+  const now = new Date().toISOString();
+  const initial = initialState(setup, args.log, now);
+  for (const e of initial.effects) appendEvent(args.logFile, e);
+  const app = render(<FillApp initial={{ ...initial, effects: [] }} write={(e) => appendEvent(args.logFile, e)} logFile={args.logFile} />);
+  await app.waitUntilExit();
+}
+
+/** the wizard; returns when the user quits, or runs the guided fill it hands over to */
+export async function runWizard(args: { labFile?: string; version: string; recipesDir?: string; batchesDir?: string }): Promise<void> {
+  const evaluate = makeEvaluator(args.labFile);
+  let handOver: { header: LogHeader; logFile: string } | undefined;
+  const act = (s: WizardState, action: string): string | { handOver: true } => {
+    try {
+      const built = buildFromValues(s.values, args.labFile);
+      if (action === 'save recipe') {
+        const dir = args.recipesDir ?? 'recipes';
+        mkdirSync(dir, { recursive: true });
+        const file = join(dir, `${s.values.id}.yaml`);
+        writeFileAtomic(file, `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`, false);
+        return `saved ${file}`;
+      }
+      if (action === 'write fill sheet') {
+        const file = `fill-${s.values.id}.html`;
+        const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: args.version, paper: 'a4' });
+        writeFileAtomic(file, sheetToHtml(model), false);
+        return `wrote ${file} (open it in a browser to print)`;
+      }
+      const dir = args.batchesDir ?? 'batches';
+      mkdirSync(dir, { recursive: true });
+      const id = `${s.values.id}-${new Date().toISOString().replace(/[-:]/g, '').slice(0, 13)}`;
+      const logFile = join(dir, `${id}.jsonl`);
+      createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString()));
+      handOver = { header: readLog(logFile).header, logFile };
+      return { handOver: true };
+    } catch (e) {
+      if (e instanceof ProblemError) return describeProblemAt(e.problem, e.where);
+      throw e;
+    }
+  };
+  const lab = loadLab(args.labFile);
+  const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} />);
+  await app.waitUntilExit();
+  app.unmount();
+  if (handOver) await runFill(handOver);
+}

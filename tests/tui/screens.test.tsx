@@ -1,0 +1,88 @@
+import { describe, expect, it } from 'vitest';
+import { render } from 'ink-testing-library';
+import { planFill } from '../../src/core/index.js';
+import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { headerFromPlan } from '../../src/io/check.js';
+import { FillApp } from '../../src/tui/fill-app.js';
+import { initialState, setupFromHeader } from '../../src/tui/fill-state.js';
+import { WizardApp } from '../../src/tui/wizard-app.js';
+import { DEFAULTS, wizardInit, wizardReducer } from '../../src/tui/wizard-state.js';
+import { makeEvaluator } from '../../src/tui/wizard-eval.js';
+import type { LogEvent } from '../../src/io/batch-log.js';
+
+const tick = () => new Promise((r) => setTimeout(r, 30));
+
+describe('fill screen (ink)', () => {
+  it('shows the target large with its band and gauge; a typed reading is written before the next step shows', async () => {
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
+    const written: LogEvent[] = [];
+    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={(e) => written.push(e)} logFile="b1.jsonl" />);
+    await tick();
+    expect(ui.lastFrame()).toContain('STOP AT 10.01 Torr');
+    expect(ui.lastFrame()).toContain('head-1kT');
+    expect(ui.lastFrame()).toContain('close off head-10T');
+    ui.stdin.write('10.0128');
+    await tick();
+    ui.stdin.write('\r');
+    await tick();
+    expect(written).toHaveLength(1);
+    expect(ui.lastFrame()).toContain('fill 2 of 3');
+    expect(ui.lastFrame()).toMatch(/fill 1 logged/);
+    ui.unmount();
+  });
+  it('if the log cannot be written, the reading is not taken', async () => {
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
+    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={() => { throw new Error('disk full'); }} logFile="b1.jsonl" />);
+    await tick();
+    ui.stdin.write('10.0128\r');
+    await tick();
+    expect(ui.lastFrame()).toContain('fill 1 of 3');
+    expect(ui.lastFrame()).toContain('NOT recorded');
+    ui.unmount();
+  });
+});
+
+describe('wizard (reducer and screen)', () => {
+  const evaluate = makeEvaluator();
+  it('reducer: typing edits the focused field and re-evaluates; an invalid phi is marked with its reason; Tab completes a species', () => {
+    let s = wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' });
+    expect(s.evaluation.preview).toBeDefined();
+    s = wizardReducer(s, { type: 'down' }, evaluate); // oxidizer
+    s = wizardReducer(s, { type: 'down' }, evaluate); // phi
+    s = wizardReducer(s, { type: 'backspace' }, evaluate);
+    s = wizardReducer(s, { type: 'char', text: '-1' }, evaluate);
+    expect(s.evaluation.error?.field).toBe('phi');
+    expect(s.evaluation.error?.message).toMatch(/greater than zero/);
+    s = wizardReducer(s, { type: 'up' }, evaluate);
+    s = wizardReducer(s, { type: 'up' }, evaluate); // fuel
+    for (let i = 0; i < 3; i++) s = wizardReducer(s, { type: 'backspace' }, evaluate);
+    s = wizardReducer(s, { type: 'char', text: 'C2H' }, evaluate);
+    s = wizardReducer(s, { type: 'complete' }, evaluate);
+    expect(s.values.fuel).toMatch(/^C2H/);
+    expect(s.values.fuel.length).toBeGreaterThan(3);
+  });
+  it('reducer: an action on an invalid design is refused; on a valid one it is requested', () => {
+    let s = wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' });
+    for (let i = 0; i < 8; i++) s = wizardReducer(s, { type: 'down' }, evaluate); // from fuel to "save recipe"
+    expect(wizardReducer(s, { type: 'enter' }, evaluate).request).toBe('save recipe');
+    const bad = { ...s, evaluation: { error: { message: 'x' } } };
+    const r = wizardReducer(bad, { type: 'enter' }, evaluate);
+    expect(r.request).toBeUndefined();
+    expect(r.message).toMatch(/fix the design first/);
+  });
+  it('screen: fields, the live preview and the reason next to a bad field', async () => {
+    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => 'ok'} />);
+    await tick();
+    expect(ui.lastFrame()).toContain('preview');
+    expect(ui.lastFrame()).toMatch(/1 CH4\s+head-1kT/);
+    ui.stdin.write('\x1b[B'); // down: oxidizer
+    await tick();
+    ui.stdin.write('\x7f\x7fN2');
+    await tick();
+    expect(ui.lastFrame()).toMatch(/oxidizer\s+N2\s+!/);
+    expect(ui.lastFrame()).toContain('the oxidizer carries no oxygen');
+    ui.unmount();
+  });
+});
