@@ -9,6 +9,11 @@ import { fail, type Where } from '../core/index.js';
 type MathJs = ReturnType<typeof create>;
 let instance: MathJs | undefined;
 
+/** whether the mathjs instance has been built (start-up guard in the tests) */
+export function mathjsBuilt(): boolean {
+  return instance !== undefined;
+}
+
 /** our own mathjs instance, built on first use (building it costs ~0.1 s of start-up) */
 export function mathjs(): MathJs {
   if (instance) return instance;
@@ -48,6 +53,13 @@ export const FAST_UNITS: Readonly<Record<string, { dim: Dimension; factor: numbe
   mL: { dim: 'volume', factor: 1e-6 },
   'm^3': { dim: 'volume', factor: 1 },
   'cm^3': { dim: 'volume', factor: 1e-6 },
+  'Pa/s': { dim: 'pressure rate', factor: 1 },
+  'Pa/min': { dim: 'pressure rate', factor: 1 / 60 },
+  'Torr/s': { dim: 'pressure rate', factor: 101325 / 760 },
+  'Torr/min': { dim: 'pressure rate', factor: 101325 / 760 / 60 },
+  'Torr/h': { dim: 'pressure rate', factor: 101325 / 760 / 3600 },
+  'mbar/min': { dim: 'pressure rate', factor: 100 / 60 },
+  'mTorr/min': { dim: 'pressure rate', factor: 101325 / 760 / 1000 / 60 },
   s: { dim: 'time', factor: 1 },
   min: { dim: 'time', factor: 60 },
   h: { dim: 'time', factor: 3600 },
@@ -93,7 +105,7 @@ export function parseQuantity(text: string | number, expected: Dimension, where:
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
     return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' }, where);
   }
-  const fast = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z^0-9]+)$/.exec(s);
+  const fast = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z^0-9/]+)$/.exec(s);
   const known = fast ? FAST_UNITS[fast[2]] : undefined;
   if (fast && known) {
     if (known.dim !== expected) return fail({ code: 'wrong-dimension', text: s, expected, got: known.dim }, where);
