@@ -158,3 +158,15 @@ describe('sizing and readiness', () => {
     expect(bad.stderr).toContain('is a volume, but a length is needed');
   });
 });
+
+describe('interactive commands outside a terminal', () => {
+  it('fill and wizard exit 2 with a pointer to plan, sheet and check', async () => {
+    const f = await runCli(['fill', 'recipes/ch4-o2-ar-phi1.yaml']);
+    expect(f.code).toBe(2);
+    expect(f.stderr).toContain('needs a terminal');
+    expect(f.stderr).toContain('mixwright check');
+    const w = await runCli(['wizard']);
+    expect(w.code).toBe(2);
+    expect(w.stderr).toContain('mixwright sheet');
+  });
+});
