@@ -5,8 +5,11 @@ import { spawnSync } from 'node:child_process';
 const N = Number(process.env.BENCH_RUNS ?? 15);
 const cases = {
   'node -e 0': ['-e', '0'],
+  'mixwright --help': ['dist/mixwright.mjs', '--help'],
   'mixwright plan recipes/ch4-o2-ar-phi1.yaml': ['dist/mixwright.mjs', 'plan', 'recipes/ch4-o2-ar-phi1.yaml'],
   'mixwright plan --json (inline)': ['dist/mixwright.mjs', 'plan', '--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.85', '--volume', '10 L', '--pressure', '1000 Torr', '--temperature', '298.15 K', '--json'],
+  'mixwright sheet --format md': ['dist/mixwright.mjs', 'sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '--batch', 'bench'],
+  'mixwright check demo log (MC 1e5 trials)': ['dist/mixwright.mjs', 'check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '100000'],
 };
 const times = Object.fromEntries(Object.keys(cases).map((k) => [k, []]));
 for (let i = 0; i < N + 2; i++) {
@@ -33,6 +36,35 @@ for (const [name, xs] of Object.entries(times)) {
 }
 const ratio = median(times['mixwright plan recipes/ch4-o2-ar-phi1.yaml']) / base;
 console.log(`plan / node ratio: ${ratio.toFixed(2)} (target < 5) ${ratio < 5 ? 'OK' : 'OVER TARGET'}`);
+
+// peak memory of each command (maximum resident set, from /usr/bin/time)
+for (const [name, args] of Object.entries(cases)) {
+  const r = spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, ...args], { encoding: 'utf8' });
+  const kb = Number((r.stderr.trim().split('\n').pop() ?? '').trim());
+  if (Number.isFinite(kb)) console.log(`peak memory ${name.padEnd(44)} ${(kb / 1024).toFixed(0)} MB`);
+}
+
+// the wizard's first screen in a real terminal (tmux), cold
+{
+  const sock = `mw-bench-${process.pid}`;
+  const has = spawnSync('sh', ['-c', 'command -v tmux']).status === 0;
+  if (has) {
+    const t0 = Date.now();
+    spawnSync('tmux', ['-L', sock, 'new-session', '-d', '-s', 'b', '-x', '80', '-y', '24', `env -u CI ${process.execPath} dist/mixwright.mjs`]);
+    let shown = false;
+    while (Date.now() - t0 < 10000) {
+      const out = spawnSync('tmux', ['-L', sock, 'capture-pane', '-p', '-t', 'b'], { encoding: 'utf8' }).stdout;
+      if (out.includes('preview')) {
+        shown = true;
+        break;
+      }
+      spawnSync('sleep', ['0.02']);
+    }
+    const ms = Date.now() - t0;
+    spawnSync('tmux', ['-L', sock, 'kill-server']);
+    console.log(`wizard first screen (tmux, cold): ${shown ? `${ms} ms (target < 1000 ms) ${ms < 1000 ? 'OK' : 'OVER TARGET'}` : 'did not appear'}`);
+  }
+}
 
 // re-check throughput
 import { mkdtempSync, rmSync } from 'node:fs';

@@ -69,3 +69,15 @@ await build({
   banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
   logLevel: 'warning',
 });
+
+// the accuracy record (npm run accuracy; not shipped)
+await build({
+  entryPoints: ['scripts/accuracy.ts'],
+  bundle: true,
+  platform: 'node',
+  format: 'esm',
+  target: 'node20',
+  outfile: 'dist/accuracy.mjs',
+  banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
+  logLevel: 'warning',
+});

@@ -1,0 +1,118 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { stringify } from 'yaml';
+import { runCli } from '../helpers.js';
+import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
+
+// bounded here; `npm run fuzz` runs many more (FUZZ_RUNS)
+const RUNS = Number(process.env.FUZZ_RUNS ?? 40);
+const dir = mkdtempSync(join(tmpdir(), 'mw-fuzz-'));
+let n = 0;
+const file = (ext: string, text: string) => {
+  const f = join(dir, `f${n++}.${ext}`);
+  writeFileSync(f, text);
+  return f;
+};
+
+/** every run ends in a known exit code; a refusal names its code and place; nothing prints NaN, Infinity or a stack */
+function judge(r: { code: number; stdout: string; stderr: string }, allowed: number[]) {
+  expect(allowed, `exit ${r.code}: ${r.stderr}`).toContain(r.code);
+  expect(r.stderr).not.toMatch(/\n\s+at .*\(/);
+  expect(r.stderr).not.toContain('internal error');
+  expect(r.stdout).not.toMatch(/\bNaN\b|\bInfinity\b/);
+  if (r.code === 2) expect(r.stderr).toMatch(/\(error code: [a-z-]+\)|error: /);
+}
+
+const quantity = fc.oneof(
+  fc.constantFrom('1500 Torr', '2 bar', '0 Torr', '-5 Torr', '30 L', '1e400 Torr', 'NaN Torr', 'Torr', '', '22 degC', '-300 degC', '10', '1e-30 Pa', '5000 bar', '1 furlong', '1.5 kPa', '300 K'),
+  fc.string(),
+);
+const blend = fc.oneof(fc.constantFrom('CH4', 'air', 'O2', 'Ar', 'He', 'CH4:0.5,C2H6:0.5', 'CH4:2', 'XX', '', 'CH4:,O2', 'n-C7H16', 'C2H2', 'NO', 'N2O', 'SF6', 'CO2'), fc.string());
+const num = fc.oneof(fc.double(), fc.constantFrom(0, -1, 1, 0.5, 0.99, 1e9, Number.NaN, Number.POSITIVE_INFINITY), fc.integer());
+
+const recipeArb = fc.record(
+  {
+    id: fc.oneof(fc.constant('fz'), fc.string()),
+    tank: fc.constantFrom('MT-1', 'MT-2', 'MT-9', ''),
+    volume: quantity,
+    pressure: quantity,
+    temperature: quantity,
+    order: fc.array(fc.constantFrom('CH4', 'O2', 'Ar', 'N2', 'He', 'x'), { maxLength: 4 }),
+    mixture: fc.oneof(
+      fc.record({ fuel: blend, oxidizer: blend, diluent: blend, phi: num, dilution: num }, { requiredKeys: [] }),
+      fc.record({ fractions: fc.dictionary(fc.constantFrom('CH4', 'O2', 'Ar', 'Q'), num) }),
+      fc.anything(),
+    ),
+    tolerance: fc.record({ relative: num }, { requiredKeys: [] }),
+    junk: fc.anything(),
+  },
+  { requiredKeys: [] },
+);
+
+describe('fuzz: malformed and random inputs', () => {
+  it('random recipes: exit 0, 2 or 3, never an internal error or a NaN', async () => {
+    await fc.assert(
+      fc.asyncProperty(recipeArb, async (r) => {
+        const f = file('yaml', stringify(r));
+        judge(await runCli(['plan', f]), [0, 2, 3]);
+      }),
+      { numRuns: RUNS },
+    );
+  });
+
+  it('random inline options', async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.record({ fuel: blend, oxidizer: blend, phi: fc.oneof(fc.string(), fc.constantFrom('1', '0', '-2', '1e9', 'x')), dil: fc.oneof(fc.string(), fc.constantFrom('0.9', '1', '-0.1')), p: quantity, t: quantity, v: quantity }), async (o) => {
+        judge(await runCli(['plan', '--fuel', o.fuel, '--oxidizer', o.oxidizer, '--phi', o.phi, '--diluent', 'Ar', '--dilution', o.dil, '--pressure', o.p, '--temperature', o.t, '--volume', o.v]), [0, 2, 3]);
+      }),
+      { numRuns: RUNS },
+    );
+  });
+
+  it('random lab profiles (the demo profile with lines dropped or changed)', async () => {
+    const lines = DEMO_LAB_YAML.split('\n');
+    await fc.assert(
+      fc.asyncProperty(fc.array(fc.tuple(fc.nat(lines.length - 1), fc.oneof(fc.constant(null), fc.string(), fc.constantFrom('    full_scale: 0 Torr', '    volume: -1 L', '  - id: MT-1', '    purity: 2'))), { minLength: 1, maxLength: 4 }), async (edits) => {
+        const l = [...lines];
+        for (const [i, v] of edits) l[i] = v === null ? '' : v;
+        const f = file('yaml', l.join('\n'));
+        judge(await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--lab', f]), [0, 2, 3]);
+      }),
+      { numRuns: RUNS },
+    );
+  });
+
+  it('random CSV readings with a recipe: exit 0, 2 or 4', async () => {
+    const row = fc.tuple(fc.constantFrom('CH4', 'Ar', 'O2', 'He', 'x', ''), quantity, quantity).map(([s, p, t]) => `${s},${p},${t}`);
+    await fc.assert(
+      fc.asyncProperty(fc.array(row, { maxLength: 4 }), fc.constantFrom('species,pressure,temperature', 'species,pressure', 'a,b,c', ''), async (rows, head) => {
+        const f = file('csv', [head, ...rows].join('\n'));
+        judge(await runCli(['check', f, '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', '--trials', '100000']), [0, 2, 4]);
+      }),
+      { numRuns: Math.ceil(RUNS / 2) },
+    );
+  });
+
+  it('damaged batch logs (cut, bytes changed, lines dropped): exit 0, 2 or 4, never a stack', async () => {
+    const text = readFileSync('batches/demo-ch4-phi1-ar98.jsonl', 'utf8');
+    await fc.assert(
+      fc.asyncProperty(fc.nat(text.length), fc.array(fc.tuple(fc.nat(text.length - 1), fc.string({ minLength: 1, maxLength: 1 })), { maxLength: 3 }), async (cut, flips) => {
+        const chars = [...text.slice(0, cut)];
+        for (const [i, c] of flips) if (i < chars.length) chars[i] = c;
+        const f = file('jsonl', chars.join(''));
+        judge(await runCli(['check', f, '--trials', '100000']), [0, 2, 4]);
+      }),
+      { numRuns: Math.ceil(RUNS / 2) },
+    );
+  });
+
+  it('a refused sheet leaves no file behind (no output, no temporary)', async () => {
+    const out = mkdtempSync(join(tmpdir(), 'mw-out-'));
+    const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--phi', '-1', '--format', 'md', '-o', join(out, 's.md')]);
+    expect(r.code).toBe(2);
+    expect(readdirSync(out)).toEqual([]);
+  });
+});
