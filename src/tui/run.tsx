@@ -25,37 +25,53 @@ export async function runFill(args: { header: LogHeader; logFile: string; log?: 
   await app.waitUntilExit();
 }
 
+export interface WizardContext {
+  readonly labFile?: string;
+  readonly version: string;
+  readonly recipesDir?: string;
+  readonly batchesDir?: string;
+  /** folder for the fill sheet (default: the working folder) */
+  readonly sheetsDir?: string;
+}
+
+/** carry out a wizard action: a message to show, or the log of a guided fill to hand over to */
+export function wizardAct(s: WizardState, action: string, ctx: WizardContext): string | { header: LogHeader; logFile: string } {
+  try {
+    const built = buildFromValues(s.values, ctx.labFile);
+    if (action === 'save recipe') {
+      const dir = ctx.recipesDir ?? 'recipes';
+      mkdirSync(dir, { recursive: true });
+      const file = join(dir, `${s.values.id}.yaml`);
+      writeFileAtomic(file, `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`, false);
+      return `saved ${file}`;
+    }
+    if (action === 'write fill sheet') {
+      const file = join(ctx.sheetsDir ?? '.', `fill-${s.values.id}.html`);
+      const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: ctx.version, paper: 'a4' });
+      writeFileAtomic(file, sheetToHtml(model), false);
+      return `wrote ${file} (open it in a browser to print)`;
+    }
+    const dir = ctx.batchesDir ?? 'batches';
+    mkdirSync(dir, { recursive: true });
+    const id = `${s.values.id}-${new Date().toISOString().replace(/[-:]/g, '').slice(0, 13)}`;
+    const logFile = join(dir, `${id}.jsonl`);
+    createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString()));
+    return { header: readLog(logFile).header, logFile };
+  } catch (e) {
+    if (e instanceof ProblemError) return describeProblemAt(e.problem, e.where);
+    throw e;
+  }
+}
+
 /** the wizard; returns when the user quits, or runs the guided fill it hands over to */
-export async function runWizard(args: { labFile?: string; version: string; recipesDir?: string; batchesDir?: string }): Promise<void> {
+export async function runWizard(args: WizardContext): Promise<void> {
   const evaluate = makeEvaluator(args.labFile);
   let handOver: { header: LogHeader; logFile: string } | undefined;
   const act = (s: WizardState, action: string): string | { handOver: true } => {
-    try {
-      const built = buildFromValues(s.values, args.labFile);
-      if (action === 'save recipe') {
-        const dir = args.recipesDir ?? 'recipes';
-        mkdirSync(dir, { recursive: true });
-        const file = join(dir, `${s.values.id}.yaml`);
-        writeFileAtomic(file, `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`, false);
-        return `saved ${file}`;
-      }
-      if (action === 'write fill sheet') {
-        const file = `fill-${s.values.id}.html`;
-        const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: args.version, paper: 'a4' });
-        writeFileAtomic(file, sheetToHtml(model), false);
-        return `wrote ${file} (open it in a browser to print)`;
-      }
-      const dir = args.batchesDir ?? 'batches';
-      mkdirSync(dir, { recursive: true });
-      const id = `${s.values.id}-${new Date().toISOString().replace(/[-:]/g, '').slice(0, 13)}`;
-      const logFile = join(dir, `${id}.jsonl`);
-      createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString()));
-      handOver = { header: readLog(logFile).header, logFile };
-      return { handOver: true };
-    } catch (e) {
-      if (e instanceof ProblemError) return describeProblemAt(e.problem, e.where);
-      throw e;
-    }
+    const r = wizardAct(s, action, args);
+    if (typeof r === 'string') return r;
+    handOver = r;
+    return { handOver: true };
   };
   const lab = loadLab(args.labFile);
   const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} />);

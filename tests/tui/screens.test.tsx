@@ -86,3 +86,26 @@ describe('wizard (reducer and screen)', () => {
     ui.unmount();
   });
 });
+
+describe('wizard actions', () => {
+  it('save recipe writes a recipe that plans to the same design; write fill sheet writes HTML; neither overwrites', async () => {
+    const { mkdtempSync, readFileSync, existsSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { tmpdir } = await import('node:os');
+    const { wizardAct } = await import('../../src/tui/run.js');
+    const { readRecipe, buildPlanRequest } = await import('../../src/io/load.js');
+    const dir = mkdtempSync(join(tmpdir(), 'mw-wiz-'));
+    const evaluate = makeEvaluator();
+    const s = wizardInit(evaluate, { ...DEFAULTS, id: 'wz1', tank: 'MT-1', dilution: '0.98' });
+    const ctx = { version: 'test', recipesDir: dir, batchesDir: join(dir, 'b'), sheetsDir: dir };
+    expect(wizardAct(s, 'save recipe', ctx)).toBe(`saved ${join(dir, 'wz1.yaml')}`);
+    const req = buildPlanRequest(readRecipe(join(dir, 'wz1.yaml')));
+    expect(req.input.design.composition.Ar).toBeCloseTo(0.98, 12);
+    expect(wizardAct(s, 'save recipe', ctx)).toMatch(/exists; add --force/);
+    expect(wizardAct(s, 'write fill sheet', ctx)).toMatch(/wrote .*fill-wz1\.html/);
+    expect(readFileSync(join(dir, 'fill-wz1.html'), 'utf8')).toContain('<svg');
+    const hand = wizardAct(s, 'start guided fill', ctx);
+    expect(typeof hand).toBe('object');
+    expect(existsSync((hand as { logFile: string }).logFile)).toBe(true);
+  });
+});
