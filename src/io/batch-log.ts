@@ -9,7 +9,8 @@
  * A log is never overwritten; a torn last line (a crash mid-write) is reported and
  * ignored, every complete line kept.
  */
-import { closeSync, existsSync, fsyncSync, openSync, readFileSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, openSync, writeSync } from 'node:fs';
+import { readTextFile } from './read-text.js';
 import { z } from 'zod';
 import { fail } from '../core/index.js';
 import type { Gauge, GasSource } from '../core/index.js';
@@ -215,12 +216,6 @@ export function parseLog(text: string, file: string): ParsedLog {
 }
 
 export function readLog(file: string): ParsedLog {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (e) {
-    const err = e as NodeJS.ErrnoException;
-    return fail({ code: 'file-unreadable', reason: err.code === 'ENOENT' ? 'no such file' : err.message }, { file });
-  }
+  const text = readTextFile(file);
   return parseLog(text, file);
 }

@@ -4,8 +4,8 @@
  * one row per fill in fill order; pressure is the absolute reading after that fill
  * and temperature the tank temperature at that reading, both with units.
  */
-import { readFileSync } from 'node:fs';
 import { fail, getSpecies, ProblemError, relocate } from '../core/index.js';
+import { readTextFile } from './read-text.js';
 import { parseQuantity } from './quantity.js';
 
 export interface CsvReading {
@@ -85,12 +85,6 @@ export function parseReadingsCsv(text: string, file: string): CsvReading[] {
 }
 
 export function readReadingsCsv(file: string): CsvReading[] {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (e) {
-    const err = e as NodeJS.ErrnoException;
-    return fail({ code: 'file-unreadable', reason: err.code === 'ENOENT' ? 'no such file' : err.message }, { file });
-  }
+  const text = readTextFile(file);
   return parseReadingsCsv(text, file);
 }

@@ -1,6 +1,6 @@
 /** Read a YAML file and keep the way back from a data path to its line and column. */
-import { readFileSync } from 'node:fs';
 import { LineCounter, parseDocument, isMap, isScalar, type Document } from 'yaml';
+import { readTextFile } from './read-text.js';
 import { fail, type Where } from '../core/index.js';
 
 export type DataPath = readonly (string | number)[];
@@ -44,12 +44,6 @@ export function parseYamlText(text: string, file: string): YamlSource {
 }
 
 export function readYamlFile(file: string): YamlSource {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (e) {
-    const err = e as NodeJS.ErrnoException;
-    return fail({ code: 'file-unreadable', reason: err.code === 'ENOENT' ? 'no such file' : err.message }, { file });
-  }
+  const text = readTextFile(file);
   return parseYamlText(text, file);
 }

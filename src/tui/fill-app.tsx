@@ -4,6 +4,7 @@ import { Box, Text, useApp, useInput } from 'ink';
 import { fillReducer, shownPa, type FillAction, type FillState } from './fill-state.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { LogEvent } from '../io/batch-log.js';
+import { splitChunk } from './keys.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
 
 export interface FillAppProps {
@@ -18,26 +19,7 @@ export function toActions(input: string, key: { return?: boolean; tab?: boolean;
   if (key.return) return [{ type: 'enter', now }];
   if (key.tab) return [{ type: 'tab' }];
   if (key.backspace || key.delete) return [{ type: 'backspace' }];
-  const out: FillAction[] = [];
-  let buf = '';
-  const flush = () => {
-    if (buf) out.push({ type: 'char', text: buf });
-    buf = '';
-  };
-  for (const ch of input) {
-    if (ch === '\r' || ch === '\n') {
-      flush();
-      out.push({ type: 'enter', now });
-    } else if (ch === '\t') {
-      flush();
-      out.push({ type: 'tab' });
-    } else if (ch === '\x7f' || ch === '\b') {
-      flush();
-      out.push({ type: 'backspace' });
-    } else if (ch > ' ' || ch === ' ') buf += ch;
-  }
-  flush();
-  return out;
+  return splitChunk(input).map((t): FillAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter', now } : { type: t.kind }));
 }
 
 export function FillApp({ initial, write, logFile, now = () => new Date().toISOString() }: FillAppProps) {

@@ -102,7 +102,12 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
   return state;
 }
 
+/** the remaining targets after the readings done (and what had to give) */
 function retargeted(s: FillState, done: readonly DoneReading[]): number[] {
+  return retargetRun(s, done).targets;
+}
+
+function retargetRun(s: FillState, done: readonly DoneReading[]): { targets: number[]; message: string } {
   const h = s.setup.header;
   const r = retarget({
     design: s.setup.design,
@@ -116,7 +121,7 @@ function retargeted(s: FillState, done: readonly DoneReading[]): number[] {
   });
   const t = [...s.targetsPa];
   for (const x of r.remaining) t[x.step - 1] = x.targetPa;
-  return t;
+  return { targets: t, message: r.message };
 }
 
 function gaugeUnit(step: FillStep): PressureUnit {
@@ -200,19 +205,7 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
   const devText = `fill ${step.index} logged: ${fromPa(deviation, unit) >= 0 ? '+' : ''}${fromPa(deviation, unit).toPrecision(3)} ${unit} from the target (${within ? 'inside' : 'OUTSIDE'} the band)`;
   let next: FillState = { ...base, done, current: base.current + 1, input: '', field: 'reading', effects: [event] };
   if (next.current >= base.setup.steps.length) return finish({ ...next, message: devText }, a.now);
-  const h = base.setup.header;
-  const r = retarget({
-    design: base.setup.design,
-    tolerance: h.tolerance,
-    sources: base.setup.steps.map((x) => x.source),
-    done: done.map((d) => ({ pressurePa: d.pressurePa, temperatureK: d.temperatureK })),
-    temperatureK,
-    finalPressurePa: h.final_pressure_Pa,
-    volumeM3: h.tank.volume_m3,
-    workingLimitPa: h.tank.rated_pressure_Pa ?? undefined,
-  });
-  const t = [...base.targetsPa];
-  for (const x of r.remaining) t[x.step - 1] = x.targetPa;
-  next = { ...next, targetsPa: t, message: `${devText}; re-targeted: ${r.message}` };
+  const r = retargetRun(base, done);
+  next = { ...next, targetsPa: r.targets, message: `${devText}; re-targeted: ${r.message}` };
   return next;
 }

@@ -1,6 +1,7 @@
 /** The design wizard screen (ink): fields left, live preview right, actions below. */
 import { useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
+import { splitChunk } from './keys.js';
 import { ACTIONS, FIELD_HELP, FIELDS, currentField, typeAhead, wizardReducer, type Evaluate, type WizardAction, type WizardState } from './wizard-state.js';
 
 export interface WizardAppProps {
@@ -16,26 +17,7 @@ export function wizardActions(input: string, key: { upArrow?: boolean; downArrow
   if (key.return) return [{ type: 'enter' }];
   if (key.tab) return [{ type: 'complete' }];
   if (key.backspace || key.delete) return [{ type: 'backspace' }];
-  const out: WizardAction[] = [];
-  let buf = '';
-  const flush = () => {
-    if (buf) out.push({ type: 'char', text: buf });
-    buf = '';
-  };
-  for (const ch of input) {
-    if (ch === '\r' || ch === '\n') {
-      flush();
-      out.push({ type: 'enter' });
-    } else if (ch === '\x7f' || ch === '\b') {
-      flush();
-      out.push({ type: 'backspace' });
-    } else if (ch === '\t') {
-      flush();
-      out.push({ type: 'complete' });
-    } else if (ch >= ' ') buf += ch;
-  }
-  flush();
-  return out;
+  return splitChunk(input).map((t): WizardAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter' } : t.kind === 'tab' ? { type: 'complete' } : { type: 'backspace' }));
 }
 
 export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
