@@ -10,6 +10,11 @@ import {
   speciesRole,
   thermoRangeK,
   virialModel,
+  FUEL_SAFETY,
+  INERT_K,
+  LENNARD_JONES,
+  FULLER_VOLUMES,
+  saturationPressure,
   type PropertyValue,
 } from '../core/index.js';
 import { fixedSig, padTable } from './format.js';
@@ -62,6 +67,29 @@ export function speciesDetail(name: string, temperatureK: number): string {
       cited.add('nasa-tm-4513');
     }
   }
+  const add = (label: string, value: string, unit: string, source: string) => {
+    rows.push([label, value, unit, source, getSource(source).quality]);
+    cited.add(source);
+  };
+  const fire = FUEL_SAFETY.get(sp.key);
+  if (fire) {
+    for (const v of fire.lflAir) add('LFL in air', (v.value * 100).toPrecision(3), 'vol %', v.source);
+    for (const v of fire.uflAir) add('UFL in air', (v.value * 100).toPrecision(3), 'vol %', v.source);
+    if (fire.uflO2) add('UFL in O2', (fire.uflO2.value * 100).toPrecision(3), 'vol %', fire.uflO2.source);
+    if (fire.loc) add('limiting O2 concentration (N2)', (fire.loc.value * 100).toPrecision(3), 'vol %', fire.loc.source);
+    if (fire.ait) add('autoignition temperature', fire.ait.value.toFixed(0), 'K', fire.ait.source);
+  }
+  const k = INERT_K.get(sp.key);
+  if (k) add('N2-equivalence coefficient K', k.value.toFixed(2), '-', k.source);
+  const ps = saturationPressure(sp.key, temperatureK);
+  if (ps) add(`saturation pressure at ${temperatureK.toFixed(2)} K (${ps.method})`, fixedSig(ps.pressurePa / 1000, 4), 'kPa', ps.source);
+  const lj = LENNARD_JONES.get(sp.key);
+  if (lj) {
+    add('Lennard-Jones sigma', lj.sigmaA.toFixed(3), 'angstrom', lj.source);
+    add('Lennard-Jones epsilon/k', lj.epsK.toFixed(1), 'K', lj.source);
+  }
+  const fv = FULLER_VOLUMES.get(sp.key);
+  if (fv) add('Fuller diffusion volume', fv.volume.toFixed(2), '-', fv.source);
   rows.push(['role in combustion', speciesRole(sp.key), '', 'c + h/4 - o/2 rule', '']);
   out.push(...padTable(rows, [false, true, false, false, false]));
   out.push('', 'Sources');

@@ -83,3 +83,38 @@ describe('molar masses', () => {
     }
   });
 });
+
+describe('safety, vapour and transport tables: integrity', () => {
+  it('every key is a known species, every source resolves, every value is in its physical range', async () => {
+    const { FUEL_SAFETY, INERT_K, ANTOINE, WAGNER, LENNARD_JONES, FULLER_VOLUMES, SOURCES: S, oxygenDemand } = await import('../../src/core/index.js');
+    for (const [k, r] of FUEL_SAFETY) {
+      expect(SPECIES.has(k), k).toBe(true);
+      expect(oxygenDemand(SPECIES.get(k)!.elements), `${k} is a fuel`).toBeGreaterThan(0);
+      for (const v of [...r.lflAir, ...r.uflAir, ...(r.uflO2 ? [r.uflO2] : []), ...(r.loc ? [r.loc] : [])]) {
+        expect(S.has(v.source), `${k} ${v.source}`).toBe(true);
+        expect(v.value).toBeGreaterThanOrEqual(0);
+        expect(v.value).toBeLessThanOrEqual(1);
+      }
+      expect(Math.min(...r.lflAir.map((v) => v.value))).toBeLessThan(Math.max(...r.uflAir.map((v) => v.value)));
+      if (r.ait) expect(r.ait.value).toBeGreaterThan(400);
+    }
+    // every fuel of the species table has limits on file
+    for (const sp of SPECIES.values()) if (oxygenDemand(sp.elements) > 0) expect(FUEL_SAFETY.has(sp.key), sp.key).toBe(true);
+    for (const [k, v] of INERT_K) {
+      expect(SPECIES.has(k)).toBe(true);
+      expect(S.has(v.source)).toBe(true);
+    }
+    for (const [k, a] of ANTOINE) {
+      expect(SPECIES.has(k)).toBe(true);
+      expect(S.has(a.source)).toBe(true);
+      expect(a.TminK).toBeLessThan(a.TmaxK);
+    }
+    for (const [k, w] of WAGNER) expect(SPECIES.has(k) && S.has(w.source)).toBe(true);
+    for (const [k, l] of LENNARD_JONES) expect(SPECIES.has(k) && S.has(l.source) && l.sigmaA > 0 && l.epsK > 0).toBe(true);
+    for (const [k, f] of FULLER_VOLUMES) expect(SPECIES.has(k) && S.has(f.source) && f.volume > 0).toBe(true);
+    expect(FUEL_SAFETY.size).toBe(19);
+    expect(ANTOINE.size).toBe(11);
+    expect(LENNARD_JONES.size).toBe(29);
+    expect(FULLER_VOLUMES.size).toBe(30);
+  });
+});
