@@ -7,9 +7,8 @@ Run:  .venv-ref/bin/python scripts/reference/gen_accuracy_grid.py
 import json
 import CoolProp
 import CoolProp.CoolProp as CP
+from coolprop_mix import NAMES, density as density_at, pressure as state
 
-NAMES = {"CH4": "Methane", "O2": "Oxygen", "Ar": "Argon", "N2": "Nitrogen", "He": "Helium", "H2": "Hydrogen",
-         "CO2": "CarbonDioxide", "C3H8": "Propane", "C2H6": "Ethane", "C2H4": "Ethylene", "n-C7H16": "n-Heptane"}
 BAR = 1e5
 DESIGNS = [
     # (id, composition, fill order, bath kind)
@@ -24,23 +23,6 @@ DESIGNS = [
 ]
 TEMPS = [250.0, 300.0, 350.0]
 PRESSURES = [1 * BAR, 3 * BAR, 10 * BAR]
-
-def state(x, rho, T):
-    keys = [k for k in x if x[k] > 0]
-    st = CP.AbstractState("HEOS", "&".join(NAMES[k] for k in keys))
-    tot = sum(x[k] for k in keys)
-    st.set_mole_fractions([x[k] / tot for k in keys])
-    st.specify_phase(CP.iphase_gas)
-    st.update(CP.DmolarT_INPUTS, rho, T)
-    return st.p()
-
-def density_at(x, P, T):
-    keys = list(x)
-    st = CP.AbstractState("HEOS", "&".join(NAMES[k] for k in keys))
-    st.set_mole_fractions([x[k] for k in keys])
-    st.specify_phase(CP.iphase_gas)
-    st.update(CP.PT_INPUTS, P, T)
-    return st.rhomolar()
 
 def psat(fluid, T):
     try:

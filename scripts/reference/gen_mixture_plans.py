@@ -8,9 +8,8 @@ Run:  .venv-ref/bin/python scripts/reference/gen_mixture_plans.py
 import json
 import CoolProp
 import CoolProp.CoolProp as CP
+from coolprop_mix import NAMES, density as density_at, pressure as state
 
-NAMES = {"CH4": "Methane", "O2": "Oxygen", "Ar": "Argon", "N2": "Nitrogen", "He": "Helium",
-         "H2": "Hydrogen", "CO2": "CarbonDioxide", "C3H8": "Propane", "C2H6": "Ethane", "n-C7H16": "n-Heptane"}
 TORR = 101325.0 / 760.0
 
 CASES = [
@@ -26,23 +25,6 @@ CASES = [
     {"id": "co2-ch4-o2-ar-6bar", "x": {"CH4": 0.02, "O2": 0.04, "CO2": 0.30, "Ar": 0.64}, "order": ["CH4", "CO2", "Ar", "O2"], "T": 300.0, "P": 6.0e5},
     {"id": "ch4-o2-ar-drift", "x": {"CH4": 0.05, "O2": 0.10, "Ar": 0.85}, "order": ["CH4", "Ar", "O2"], "T": [297.0, 297.6, 298.4], "P": 1000 * TORR},
 ]
-
-def state(x, rho, T):
-    keys = list(x)
-    st = CP.AbstractState("HEOS", "&".join(NAMES[k] for k in keys))
-    tot = sum(x.values())
-    st.set_mole_fractions([x[k] / tot for k in keys])
-    st.specify_phase(CP.iphase_gas)
-    st.update(CP.DmolarT_INPUTS, rho, T)
-    return st.p()
-
-def density_at(x, P, T):
-    keys = list(x)
-    st = CP.AbstractState("HEOS", "&".join(NAMES[k] for k in keys))
-    st.set_mole_fractions([x[k] for k in keys])
-    st.specify_phase(CP.iphase_gas)
-    st.update(CP.PT_INPUTS, P, T)
-    return st.rhomolar()
 
 out = {"generator": "scripts/reference/gen_mixture_plans.py",
        "library": f"CoolProp {CoolProp.__version__} HEOS mixture model",

@@ -9,7 +9,7 @@ import { R } from './constants.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { enthalpyMolar, thermoRangeK } from './thermo.js';
-import type { Fractions } from './composition.js';
+import { oxygenBalance, type Fractions } from './composition.js';
 
 /**
  * Products per mole of mixture. Fuels burn to CO2, H2O and N2 as far as the oxygen
@@ -17,13 +17,7 @@ import type { Fractions } from './composition.js';
  * oxygen carriers (N2O, NO) give up their oxygen and nitrogen; inerts pass through.
  */
 export function completeCombustion(y: Fractions): { products: Record<string, number>; burntFraction: number } {
-  let demand = 0;
-  let supply = 0;
-  for (const [k, v] of Object.entries(y)) {
-    const d = oxygenDemand(getSpecies(k).elements);
-    if (d > 0) demand += v * d;
-    else supply -= v * d;
-  }
+  const { need: demand, supply } = oxygenBalance(y);
   const lambda = demand > 0 ? Math.min(1, supply / demand) : 0;
   const p: Record<string, number> = {};
   const add = (k: string, n: number) => {

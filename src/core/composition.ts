@@ -111,10 +111,10 @@ function groupsOf(x: Fractions): { fuel: number; ox: number; inert: number; fuel
 }
 
 /**
- * Equivalence ratio of any composition on the O-atom basis.
- * Example: CH4 0.095, O2 0.19, N2 0.715 -> phi = 0.095 x 2 / 0.19 = 1.
+ * The oxygen balance of a composition: mol O2 its fuels need for complete combustion,
+ * and mol O2 (O2-equivalent) its oxidizers supply, per mole of mixture.
  */
-export function equivalenceRatio(x: Fractions): number | undefined {
+export function oxygenBalance(x: Fractions): { need: number; supply: number } {
   let need = 0;
   let supply = 0;
   for (const [k, v] of Object.entries(x)) {
@@ -122,6 +122,15 @@ export function equivalenceRatio(x: Fractions): number | undefined {
     if (d > 0) need += v * d;
     else supply -= v * d;
   }
+  return { need, supply };
+}
+
+/**
+ * Equivalence ratio of any composition on the O-atom basis.
+ * Example: CH4 0.095, O2 0.19, N2 0.715 -> phi = 0.095 x 2 / 0.19 = 1.
+ */
+export function equivalenceRatio(x: Fractions): number | undefined {
+  const { need, supply } = oxygenBalance(x);
   if (need <= 0 || supply <= 0) return undefined;
   return need / supply;
 }

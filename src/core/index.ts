@@ -15,7 +15,7 @@ export type { PropertyName, PropertyValue } from './lookup.js';
 export { ProblemError, fail, relocate } from './problems.js';
 export type { Problem, ProblemCode, Where } from './problems.js';
 export { describeProblem, describeProblemAt, describeWhere } from './messages.js';
-export { designMixture, equivalenceRatio, isNormalised, speciesRole } from './composition.js';
+export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRole } from './composition.js';
 export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from './composition.js';
 export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole } from './virial.js';
 export type { CorrelationConstants } from './virial.js';

@@ -1,5 +1,6 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
+import { fromPa, isPressureUnit } from '../io/quantity.js';
 import type { CheckReport } from '../io/check.js';
 import type { OutputStat } from '../core/index.js';
 
@@ -21,8 +22,11 @@ export function checkToText(r: CheckReport): string {
   const out: string[] = [];
   out.push(`Re-check  ${r.id}   (${r.kind === 'log' ? 'batch log' : 'CSV readings'} ${r.file})`);
   out.push('');
-  const readRows: string[][] = [['#', 'fill', 'gauge', 'reading Pa abs', 'T K']];
-  for (const x of r.readings) readRows.push([String(x.step), x.source.id, x.gauge.id, fixedSig(x.pressurePa, 7), x.temperatureK.toFixed(2)]);
+  const readRows: string[][] = [['#', 'fill', 'gauge', 'absolute pressure', 'T degC']];
+  for (const x of r.readings) {
+    const u = isPressureUnit(x.gauge.unit) ? x.gauge.unit : 'Pa';
+    readRows.push([String(x.step), x.source.id, x.gauge.id, `${fixedSig(fromPa(x.pressurePa, u), 7)} ${u}`, (x.temperatureK - 273.15).toFixed(2)]);
+  }
   out.push(...padTable(readRows, [true, false, false, true, true]));
   out.push('');
   const rows: string[][] = [['species', 'actual x', 'u (GUM)', '95 % interval (GUM, k=2)', 'u (MC)', 'MC vs GUM', 'design', 'deviation', 'tolerance', '']];
