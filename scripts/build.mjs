@@ -26,8 +26,31 @@ await build({
   logLevel: 'warning',
 });
 
+// mathjs in its own CommonJS file, required on first use only (units outside the fast table)
 await build({
-  plugins: [tuiExternal],
+  entryPoints: ['src/io/mathjs-instance.ts'],
+  bundle: true,
+  platform: 'node',
+  format: 'cjs',
+  target: 'node20',
+  minify: true,
+  outfile: 'dist/units.cjs',
+  logLevel: 'warning',
+});
+const lazyMath = {
+  name: 'lazy-mathjs',
+  setup(b) {
+    b.onResolve({ filter: /mathjs-instance\.js$/ }, () => ({ path: 'lazy-mathjs', namespace: 'lazy' }));
+    b.onLoad({ filter: /.*/, namespace: 'lazy' }, () => ({
+      contents: "import { createRequire } from 'node:module'; const req = createRequire(import.meta.url); export function createMath() { return req('./units.cjs').createMath(); }",
+      loader: 'js',
+      resolveDir: '.',
+    }));
+  },
+};
+
+await build({
+  plugins: [tuiExternal, lazyMath],
   entryPoints: ['src/cli/main.ts'],
   bundle: true,
   platform: 'node',

@@ -3,10 +3,10 @@
  * units into SI numbers. Torr and psi are redefined exactly on our own mathjs
  * instance (mathjs' torr is the rounded mmHg, 133.322 Pa; its psi is off by 6e-11).
  */
-import { create, all, type Unit } from 'mathjs';
+import type { Unit } from 'mathjs';
 import { fail, type Where } from '../core/index.js';
+import { createMath, type MathJs } from './mathjs-instance.js';
 
-type MathJs = ReturnType<typeof create>;
 let instance: MathJs | undefined;
 
 /** whether the mathjs instance has been built (start-up guard in the tests) */
@@ -16,15 +16,8 @@ export function mathjsBuilt(): boolean {
 
 /** our own mathjs instance, built on first use (building it costs ~0.1 s of start-up) */
 export function mathjs(): MathJs {
-  if (instance) return instance;
-  const math = create(all, {});
-  // 1 Torr = 1/760 atm exactly; 1 psi = 1 lbf/in^2 exactly (0.45359237 kg x 9.80665 m/s^2 / 0.0254^2 m^2)
-  math.createUnit({ torr: { definition: '0.001315789473684210526315789 atm', aliases: ['Torr'] } }, { override: true });
-  math.createUnit({ psi: { definition: '1 lbf/in^2' } }, { override: true });
-  math.createUnit({ mTorr: { definition: '0.001 torr', aliases: ['mtorr'] } }, { override: true });
-  math.createUnit({ kTorr: { definition: '1000 torr', aliases: ['ktorr'] } }, { override: true });
-  instance = math;
-  return math;
+  instance ??= createMath();
+  return instance;
 }
 
 /**

@@ -28,3 +28,11 @@ describe('recipe and lab files', () => {
     expect(parseBlend('air', {}, { O2: 0.2095, N2: 0.7905 })).toEqual({ O2: 0.2095, N2: 0.7905 });
   });
 });
+
+describe('embedded demo lab', () => {
+  it('the pre-parsed profile equals its YAML text (what `mixwright demo-lab` prints)', async () => {
+    const { parse } = await import('yaml');
+    const { DEMO_LAB_DATA, DEMO_LAB_YAML } = await import('../../src/io/demo-lab.js');
+    expect(DEMO_LAB_DATA).toEqual(parse(DEMO_LAB_YAML));
+  });
+});
