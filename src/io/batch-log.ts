@@ -9,7 +9,8 @@
  * A log is never overwritten; a torn last line (a crash mid-write) is reported and
  * ignored, every complete line kept.
  */
-import { closeSync, existsSync, fsyncSync, openSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, linkSync, openSync, unlinkSync, writeSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
 import { z } from 'zod';
 import { fail } from '../core/index.js';
@@ -126,14 +127,27 @@ function appendLine(fd: number, event: LogEvent): void {
   fsyncSync(fd);
 }
 
-/** start a new log; refuses to touch an existing file */
+/**
+ * Start a new log; refuses to touch an existing file. The header is written to a
+ * temporary file, fsync'd, then hard-linked into place (link fails if the name exists,
+ * so there is no window in which a half-written header or an overwrite can happen).
+ */
 export function createLog(path: string, header: LogHeader): void {
   if (existsSync(path)) fail({ code: 'file-unreadable', reason: 'a batch log of that name exists already; it is never overwritten - choose another batch id' }, { file: path });
-  const fd = openSync(path, 'wx');
+  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
+  const fd = openSync(tmp, 'wx');
   try {
     appendLine(fd, header);
   } finally {
     closeSync(fd);
+  }
+  try {
+    linkSync(tmp, path);
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST') fail({ code: 'file-unreadable', reason: 'a batch log of that name exists already; it is never overwritten - choose another batch id' }, { file: path });
+    throw e;
+  } finally {
+    unlinkSync(tmp);
   }
 }
 
