@@ -136,9 +136,11 @@ export function shownPa(s: FillState, step: FillStep, absolutePa: number): numbe
 
 function finish(s: FillState, now?: string): FillState {
   const h = s.setup.header;
-  const readings = s.done.map((d, i) => ({ step: d.step, source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK, gauge: s.setup.steps[i].gauge ?? s.setup.steps.find((x) => x.gauge)!.gauge! }));
+  // a step without a gauge (a danger finding the operator accepted) has no uncertainty model: no summary then
+  const withGauges = s.done.every((_, i) => s.setup.steps[i].gauge);
+  const readings = withGauges ? s.done.map((d, i) => ({ step: d.step, source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK, gauge: s.setup.steps[i].gauge! })) : [];
   let summary: UncertaintyResult | undefined;
-  try {
+  if (withGauges) try {
     summary = evaluateUncertainty(readings, { barometricPa: h.barometer.pressure_Pa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: 0, seed: 1 }, h.design.diluent);
   } catch {
     summary = undefined;
