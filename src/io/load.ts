@@ -248,7 +248,7 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   if (r.volume !== undefined) {
     const volumeM3 = parseQuantity(r.volume, 'volume', W(['volume']));
     if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: volumeM3 }, W(['volume']));
-    tank = tank ? { ...tank, volumeM3 } : { id: 'tank', label: 'tank of the given volume (no rating known)', volumeM3 };
+    tank = tank ? { ...tank, volumeM3 } : { id: 'given-volume', label: 'tank of the given volume (no rating known)', volumeM3 };
   }
   if (!tank) fail({ code: 'design-missing', reason: `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) or give a volume` }, W(['tank'], 'tank'));
 
