@@ -116,3 +116,37 @@ describe('fuzz: malformed and random inputs', () => {
     expect(readdirSync(out)).toEqual([]);
   });
 });
+
+describe('fuzz: valid random designs', () => {
+  it('plan, JSON: exit 0 or 3 (or 2 for a state outside the model), targets increasing and finite, fractions summing to 1', async () => {
+    const fuels = ['CH4', 'C2H6', 'C2H4', 'C3H8', 'H2', 'CO', 'n-C7H16', 'CH3OH', 'C2H2', 'NH3', 'CH3OCH3', 'i-C8H18', 'C7H8'];
+    const inerts = ['Ar', 'N2', 'He', 'CO2', 'Ar:0.5,He:0.5'];
+    await fc.assert(
+      fc.asyncProperty(
+        fc.constantFrom(...fuels),
+        fc.constantFrom('O2', 'air', 'O2:0.5,N2:0.5', 'N2O'),
+        fc.constantFrom(...inerts),
+        fc.double({ min: 0.1, max: 4, noNaN: true }),
+        fc.double({ min: 0.5, max: 0.995, noNaN: true }),
+        fc.double({ min: 20, max: 4000, noNaN: true }),
+        fc.double({ min: 260, max: 420, noNaN: true }),
+        fc.constantFrom('MT-1', 'MT-2'),
+        async (fuel, ox, dil, phi, dilution, P, T, tank) => {
+          const r = await runCli(['plan', '--fuel', fuel, '--oxidizer', ox, '--phi', String(phi), '--diluent', dil, '--dilution', String(dilution), '--pressure', `${P} Torr`, '--temperature', `${T} K`, '--tank', tank, '--json']);
+          judge(r, [0, 2, 3]);
+          if (r.code === 2) return;
+          const j = JSON.parse(r.stdout);
+          const t = j.steps.map((s: { target_Pa: number }) => s.target_Pa);
+          for (let i = 0; i < t.length; i++) {
+            expect(Number.isFinite(t[i])).toBe(true);
+            if (i) expect(t[i]).toBeGreaterThan(t[i - 1]);
+          }
+          const sum = Object.values(j.mixture.composition as Record<string, number>).reduce((a, b) => a + b, 0);
+          expect(Math.abs(sum - 1)).toBeLessThan(1e-9);
+          expect(Math.abs(t[t.length - 1] / ((P * 101325) / 760) - 1)).toBeLessThan(1e-9);
+        },
+      ),
+      { numRuns: RUNS },
+    );
+  });
+});
