@@ -287,7 +287,9 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .option('--batch <id>', 'batch id printed on the sheet (default: recipe id and date)')
     .action(async (recipeFile: string | undefined, o: PlanOptions & { format: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; batch?: string }) => {
       const { plan, req, unit } = planFrom(recipeFile, o);
-      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper });
+      const h = req.tankInfo?.heightM;
+      const mixing = h ? mixingEstimate(plan.composition, plan.temperatureK, plan.final.pressurePa, h, Boolean(req.tankInfo?.stirred)) : undefined;
+      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing });
       if (o.format === 'pdf') {
         if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' }, { field: '--output' });
         await writePdf(sheetToHtml(model), o.output, Boolean(o.force));

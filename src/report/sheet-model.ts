@@ -4,7 +4,8 @@
  * before and after, one row per fill with the target in the gauge's own unit and its
  * band, blanks to write in, the findings and the caution, and the diagram.
  */
-import { describeFinding, fillLabel, STANDING_CAUTION, type Finding, type Plan, type Severity } from '../core/index.js';
+import { describeFinding, fillLabel, STANDING_CAUTION, type Finding, type MixingEstimate, type Plan, type Severity } from '../core/index.js';
+import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { decimalsFor, fixedSig, pressure } from './format.js';
@@ -52,9 +53,17 @@ export interface SheetMeta {
   readonly batchId?: string;
   readonly version: string;
   readonly paper: 'a4' | 'letter';
+  /** the diffusion estimate of `mixwright ready`, when the tank height is known */
+  readonly mixing?: MixingEstimate;
 }
 
 const SEVERITY_ORDER: Severity[] = ['danger', 'warning', 'note'];
+
+function mixingLine(m?: MixingEstimate): string {
+  if (!m?.pair || m.to1PercentS === undefined || m.to01PercentS === undefined) return 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
+  const est = `diffusion alone: about ${duration(m.to1PercentS)} to 1 %, ${duration(m.to01PercentS)} to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b})`;
+  return m.stirred ? `Mixing: stirrer on ________ min (${est} without it)` : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;
+}
 
 export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
@@ -104,7 +113,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   });
   const postChecks = [
     'All cylinder and line valves closed; tank valve closed; line evacuated or vented safely',
-    'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)',
+    mixingLine(meta.mixing),
     'Final reading after mixing: ________ at ________ degC',
   ];
   const today = new Date().toISOString().slice(0, 10);

@@ -14,7 +14,7 @@ import { headerFromPlan } from '../io/check.js';
 import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';
 import { sheetToHtml } from '../report/sheet-render.js';
-import { describeProblemAt, ProblemError } from '../core/index.js';
+import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.js';
 
 export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<void> {
   const setup = setupFromHeader(args.header);
@@ -47,7 +47,9 @@ export function wizardAct(s: WizardState, action: string, ctx: WizardContext): s
     }
     if (action === 'write fill sheet') {
       const file = join(ctx.sheetsDir ?? '.', `fill-${s.values.id}.html`);
-      const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: ctx.version, paper: 'a4' });
+      const h = built.req.tankInfo?.heightM;
+      const mixing = h ? mixingEstimate(built.plan.composition, built.plan.temperatureK, built.plan.final.pressurePa, h, Boolean(built.req.tankInfo?.stirred)) : undefined;
+      const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: ctx.version, paper: 'a4', mixing });
       writeFileAtomic(file, sheetToHtml(model), false);
       return `wrote ${file} (open it in a browser to print)`;
     }

@@ -88,6 +88,12 @@ describe('mixwright sheet', () => {
     expect(readFileSync(f, 'utf8')).toBe(first);
     expect((await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'txt', '-o', f, '--force'])).code).toBe(0);
   });
+  it('the printed sheet carries the diffusion mixing estimate of the lab tank', async () => {
+    const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'txt', '--batch', 'b2']);
+    expect(r.stdout).toMatch(/Mixing: unstirred tank, diffusion alone: about \d+ min to 1 %/);
+    const s = await runCli(['sheet', 'recipes/nc7h16-o2-ar.yaml', '--format', 'txt', '--batch', 'b3']);
+    expect(s.stdout).toMatch(/Mixing: stirrer on ________ min \(diffusion alone/);
+  });
   it('without Chromium on the PATH, --format pdf says how to print the HTML instead (exit 2)', () => {
     const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'pdf', '-o', join(tmpdir(), 'x.pdf')], { encoding: 'utf8', env: { ...process.env, PATH: '/nonexistent' } });
     expect(r.status).toBe(2);
