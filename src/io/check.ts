@@ -102,6 +102,10 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   const done = new Set(log.readings.map((r) => r.step));
   const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
   const warnings = [...log.warnings];
+  const acked = new Set(log.acknowledgements.map((a) => a.code));
+  const unacked = [...new Set((h.findings ?? []).filter((f) => f.severity === 'danger' && !acked.has(f.code)).map((f) => f.code))];
+  if (unacked.length) warnings.push(`the plan of this batch had danger findings (${unacked.join(', ')}) that the log shows no acknowledgement of`);
+  for (const a of log.acknowledgements) warnings.push(`danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`);
   if (missingSteps.length) warnings.push(`the log has no reading for step ${missingSteps.join(', ')}: the batch is incomplete and the re-check covers the fills logged so far`);
   const design = designFromHeader(h);
   const result = await evaluateUncertaintyParallel(

@@ -96,3 +96,21 @@ describe('CSV readings', () => {
     expect(code(() => parseReadingsCsv('species,pressure\nCH4,50 Torr\n', 'r.csv'))).toBe('schema@1');
   });
 });
+
+describe('danger findings in the re-check', () => {
+  it('a log whose plan had danger findings says whether and by whom they were acknowledged', async () => {
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const input = { ...req.input, finalPressurePa: 3.8e5 };
+    const plan = planFill(input);
+    const dir = mkdtempSync(join(tmpdir(), 'mw-'));
+    const file = join(dir, 'd.jsonl');
+    createLog(file, headerFromPlan(plan, { ...req, input }, 'danger-batch', 't'));
+    plan.steps.forEach((s) => appendEvent(file, { kind: 'reading', step: s.index, source: s.source.id, gauge: s.gauge!.id, reading: 'x', pressure_Pa: s.targetPa, temperature: '25 degC', temperature_K: 298.15, time: 't' }));
+    const rep = await checkFile(file, { trials: 0, seed: 1 });
+    expect(rep.warnings.some((w) => /danger findings \(tank-over-rating.*no acknowledgement/.test(w))).toBe(true);
+    appendEvent(file, { kind: 'acknowledge', code: 'tank-over-rating', step: 3, by: 'AB', time: 't2' });
+    const rep2 = await checkFile(file, { trials: 0, seed: 1 });
+    expect(rep2.warnings.some((w) => w.includes('no acknowledgement'))).toBe(false);
+    expect(rep2.warnings.some((w) => w.includes('acknowledged by AB'))).toBe(true);
+  });
+});
