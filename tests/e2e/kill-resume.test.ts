@@ -49,7 +49,7 @@ describe.runIf(hasTmux || required)('SIGKILL between readings, many times over',
         const typed = new Map<number, number>();
         let confirmed = 0;
         start(`node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --batch k${b} --dir batches`);
-        for (let round = 0; round < 6 && confirmed < 3; round++) {
+        for (let round = 0; round < 12 && confirmed < 3; round++) {
           const s = await waitFor(/fill (\d) of 3/);
           const step = Number(/fill (\d) of 3/.exec(s)![1]);
           expect(step).toBe(confirmed + 1);
