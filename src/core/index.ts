@@ -62,3 +62,5 @@ export type { ReactorSpec, Sizing, SizingInput } from './sizing.js';
 export { contamination, mixingEstimate } from './readiness.js';
 export type { Contamination, ContaminationInput, MixingEstimate } from './readiness.js';
 export { LENNARD_JONES, FULLER_VOLUMES } from './data/transport-data.js';
+export { speciesProperties } from './properties.js';
+export type { PropertyId, PropertyRow } from './properties.js';

@@ -106,7 +106,8 @@ describe('other commands', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/critical temperature\s+190\.564\s+K\s+refprop-heos-constants/);
     expect(r.stdout).toMatch(/molar mass\s+16\.043\s+g\/mol\s+iupac-2021/);
-    expect(r.stdout).toMatch(/B at 298\.15 K\s+-42\.91\d\s+cm3\/mol\s+coolprop-8-virial/);
+    expect(r.stdout).toMatch(/second virial coefficient at 298\.15 K\s+-42\.91\d\s+cm3\/mol\s+coolprop-8-virial/);
+    expect(r.stdout).toMatch(/LFL in air\s+4\.40\s+vol %\s+iec-60079-20-1-2010/);
     const all = await runCli(['species']);
     expect(all.stdout.split('\n').filter((l) => /^\S/.test(l)).length).toBeGreaterThan(31);
     const bad = await runCli(['species', 'methan']);
