@@ -5,7 +5,7 @@
  * recipe, write the fill sheet, start the guided fill). The preview comes from an
  * evaluator the shell passes in, so that this module stays free of files.
  */
-import { speciesKeys, SPECIES } from '../core/index.js';
+import { getSpecies, speciesKeys } from '../core/index.js';
 
 export const FIELDS = ['id', 'fuel', 'oxidizer', 'phi', 'diluent', 'dilution', 'tank', 'pressure', 'temperature'] as const;
 export type FieldName = (typeof FIELDS)[number];
@@ -72,7 +72,7 @@ export function wizardInit(evaluate: Evaluate, values: Record<FieldName, string>
   return { values, focus: 1, evaluation: evaluate(values) };
 }
 
-const ALL_NAMES = () => [...SPECIES.values()].flatMap((s) => [s.key, ...s.aliases]);
+const ALL_NAMES = () => speciesKeys().flatMap((k) => [k, ...getSpecies(k).aliases]);
 
 /** species keys that start with what is being typed in the last blend entry */
 export function typeAhead(text: string): string[] {
