@@ -17,7 +17,7 @@ export type { Problem, ProblemCode, Where } from './problems.js';
 export { describeProblem, describeProblemAt, describeWhere } from './messages.js';
 export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRole } from './composition.js';
 export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from './composition.js';
-export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole } from './virial.js';
+export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole, sizeDifferenceKij } from './virial.js';
 export type { CorrelationConstants } from './virial.js';
 export { referenceB, referenceC, hasReferenceB, VIRIAL_TABLE_RANGE_K, VIRIAL_TABLE_LIBRARY } from './virial-reference.js';
 export { virialModel, bMix, cMix, pressureFromDensity, densityFromPressure, compressibility } from './mixture-eos.js';

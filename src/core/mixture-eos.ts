@@ -3,13 +3,14 @@
  *   P = rho R T (1 + B_mix rho + C_mix rho^2),
  *   B_mix = sum_i sum_j y_i y_j B_ij,   C_mix = (sum_i y_i C_ii^(1/3))^3,
  * with B_ii from reference values where tabulated (always for He, H2, Ne), else
- * Tsonopoulos; B_ij (i != j) from Tsonopoulos with the Prausnitz combining rules.
+ * Tsonopoulos; B_ij (i != j) from Tsonopoulos with the Prausnitz combining rules and the
+ * Chueh-Prausnitz size-difference k_ij.
  */
 import { R } from './constants.js';
 import { fail } from './problems.js';
 import { getSpecies } from './lookup.js';
 import { referenceB, referenceC } from './virial-reference.js';
-import { correlationConstants, pairConstants, tsonopoulosB } from './virial.js';
+import { correlationConstants, pairConstants, sizeDifferenceKij, tsonopoulosB } from './virial.js';
 
 export type VirialMethod =
   | 'reference' // tabulated reference-EOS value
@@ -62,7 +63,8 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
   }
   for (let i = 0; i < n; i++) {
     for (let j = i + 1; j < n; j++) {
-      const v = tsonopoulosB(pairConstants(consts[i], consts[j]), temperatureK);
+      // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes)
+      const v = tsonopoulosB(pairConstants(consts[i], consts[j], sizeDifferenceKij(consts[i], consts[j])), temperatureK);
       B[i][j] = v;
       B[j][i] = v;
       entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: v, method: 'combining-rule', source: 'prausnitz-1999' });

@@ -115,3 +115,12 @@ export function pairConstants(ci: CorrelationConstants, cj: CorrelationConstants
     b: 0,
   };
 }
+
+/**
+ * The size-difference binary parameter of Chueh & Prausnitz (1967), as used by Tarakad &
+ * Danner (1977): k_ij = 1 - 8 sqrt(Vci Vcj) / (Vci^(1/3) + Vcj^(1/3))^3. Zero for equal
+ * critical volumes; 0.0036 for CH4-O2, 0.027 for C3H8-N2.
+ */
+export function sizeDifferenceKij(ci: CorrelationConstants, cj: CorrelationConstants): number {
+  return 1 - (8 * Math.sqrt(ci.Vc * cj.Vc)) / (Math.cbrt(ci.Vc) + Math.cbrt(cj.Vc)) ** 3;
+}

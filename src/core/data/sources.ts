@@ -95,7 +95,7 @@ const list: readonly Source[] = [
   {
     key: 'prausnitz-1999',
     citation:
-      'J.M. Prausnitz, R.N. Lichtenthaler, E. Gomes de Azevedo, Molecular Thermodynamics of Fluid-Phase Equilibria, 3rd ed., Prentice Hall (1999), ch. 5 (combining rules for cross virial coefficients; effective constants of quantum gases)',
+      'J.M. Prausnitz, R.N. Lichtenthaler, E. Gomes de Azevedo, Molecular Thermodynamics of Fluid-Phase Equilibria, 3rd ed., Prentice Hall (1999), ch. 5 (combining rules for cross virial coefficients; effective constants of quantum gases); size-difference k_ij of P.L. Chueh, J.M. Prausnitz, AIChE J. 13, 1099 (1967), as used by R.R. Tarakad, R.P. Danner, AIChE J. 23, 685 (1977)',
     quality: 'correlation',
   },
   {
