@@ -120,7 +120,9 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
       </Text>
       <Text>
         Read on {step.gauge?.id ?? 'NO GAUGE'}
-        {step.gauge?.reference === 'gauge' ? ' (gauge-referenced: reads above ambient)' : ' (absolute)'}
+        {step.gauge?.reference === 'gauge'
+          ? ` (gauge-referenced: reads above ambient; barometer ${fromPa(h.barometer.pressure_Pa, unit).toFixed(dec)} ${unit} from the plan - give --barometer when it differs)`
+          : ' (absolute)'}
       </Text>
       {isolate.length ? <Text bold>Before this fill: close off {isolate.map((g) => g.id).join(', ')}</Text> : <Text> </Text>}
       <Text> </Text>
