@@ -1,8 +1,12 @@
-// bundle the CLI into one ESM file: fast start (no thousand-module import graph)
+// bundle the CLI into one ESM file (fast start: no thousand-module import graph), plus its side files
 import { build } from 'esbuild';
 import { chmodSync, mkdirSync } from 'node:fs';
 
 mkdirSync('dist', { recursive: true });
+
+// what every bundle shares: one ESM file for Node 20 that can still require() CommonJS dependencies
+const REQUIRE_BANNER = "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);";
+const base = { bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning', banner: { js: REQUIRE_BANNER } };
 
 // the interactive screens (ink, react) live in their own bundle, loaded only by `fill` and the wizard
 const tuiExternal = {
@@ -13,29 +17,22 @@ const tuiExternal = {
 };
 await build({
   entryPoints: ['src/tui/run.tsx'],
-  bundle: true,
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
+  ...base,
   minify: true,
   outfile: 'dist/tui.mjs',
   jsx: 'automatic',
   alias: { 'react-devtools-core': './scripts/devtools-stub.mjs' },
   define: { 'process.env.NODE_ENV': '"production"' },
-  banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
-  logLevel: 'warning',
 });
 
 // mathjs in its own CommonJS file, required on first use only (units outside the fast table)
 await build({
   entryPoints: ['src/io/mathjs-instance.ts'],
-  bundle: true,
-  platform: 'node',
+  ...base,
   format: 'cjs',
-  target: 'node20',
+  banner: {},
   minify: true,
   outfile: 'dist/units.cjs',
-  logLevel: 'warning',
 });
 const lazyMath = {
   name: 'lazy-mathjs',
@@ -52,55 +49,34 @@ const lazyMath = {
 await build({
   plugins: [tuiExternal, lazyMath],
   entryPoints: ['src/cli/main.ts'],
-  bundle: true,
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
+  ...base,
   outfile: 'dist/mixwright.mjs',
   jsx: 'automatic',
   alias: { 'react-devtools-core': './scripts/devtools-stub.mjs' },
-  banner: {
-    js: "#!/usr/bin/env node\nimport { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);",
-  },
+  banner: { js: `#!/usr/bin/env node\n${REQUIRE_BANNER}` },
   minify: true,
   sourcemap: 'linked',
-  logLevel: 'warning',
 });
 chmodSync('dist/mixwright.mjs', 0o755);
 
 // the Monte Carlo worker thread, loaded by the command from beside it
 await build({
   entryPoints: ['src/io/mc-worker.ts'],
-  bundle: true,
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
+  ...base,
   minify: true,
   outfile: 'dist/mc-worker.mjs',
-  banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
-  logLevel: 'warning',
 });
 
 // the re-check benchmark driver (not shipped)
 await build({
   entryPoints: ['scripts/bench-check.ts'],
-  bundle: true,
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
+  ...base,
   outfile: 'dist/bench-check.mjs',
-  banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
-  logLevel: 'warning',
 });
 
 // the accuracy record (npm run accuracy; not shipped)
 await build({
   entryPoints: ['scripts/accuracy.ts'],
-  bundle: true,
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
+  ...base,
   outfile: 'dist/accuracy.mjs',
-  banner: { js: "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);" },
-  logLevel: 'warning',
 });

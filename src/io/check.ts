@@ -8,6 +8,7 @@ import {
   describeFinding,
   fail,
   judge,
+  planFill,
   pureCylinder,
   type CheckVerdict,
   type CheckedReading,
@@ -21,7 +22,6 @@ import {
 import { gaugeFromLog, gaugeToLog, LOG_FORMAT, readLog, sourceFromLog, sourceToLog, type LogHeader, type ParsedLog } from './batch-log.js';
 import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.js';
 import { readReadingsCsv } from './readings-csv.js';
-import { planFill } from '../core/index.js';
 
 export interface CheckOptions {
   readonly trials: number;

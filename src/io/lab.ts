@@ -3,10 +3,9 @@
  * composition. An embedded demo profile (io/demo-lab.ts) serves when none is given.
  */
 import { z } from 'zod';
-import { blendSchema } from './recipe.js';
+import { blendSchema, quantity } from './recipe.js';
 import { PRESSURE_UNITS } from './quantity.js';
 
-const quantity = (what: string, example: string) => z.string().describe(`${what}: a number and a unit, e.g. "${example}"`);
 
 const tankSchema = z
   .object({

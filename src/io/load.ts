@@ -3,8 +3,11 @@
  * recipe, parse quantities and blends, build the sources and the order.
  */
 import { dirname, resolve as resolvePath } from 'node:path';
-import { fail, ProblemError, relocate, type Where } from '../core/index.js';
 import {
+  fail,
+  ProblemError,
+  relocate,
+  type Where,
   chooseSources,
   designMixture,
   getSpecies,

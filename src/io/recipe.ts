@@ -4,7 +4,8 @@
  */
 import { z } from 'zod';
 
-const quantity = (what: string, example: string) =>
+/** a quantity field: a string with a number and a unit (parsed later, with its line) */
+export const quantity = (what: string, example: string) =>
   z.string().describe(`${what}: a number and a unit, e.g. "${example}"`);
 
 /** "CH4", "CH4:0.8,C2H6:0.2" or { CH4: 0.8, C2H6: 0.2 } */

@@ -128,8 +128,3 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
       return { ...base, message: a.message };
   }
 }
-
-/** for tests and help: every species key */
-export function knownSpecies(): string[] {
-  return speciesKeys();
-}

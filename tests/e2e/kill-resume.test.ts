@@ -1,14 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { parseLog } from '../../src/io/batch-log.js';
+import { hasTmux, sleep, tmuxSession } from './tmux.js';
 
 // No data lost: the guided fill is killed with SIGKILL after every reading, at a random moment
 // just after Enter, over several batches; every reading the screen confirmed is in the log,
 // none twice, and --resume always continues at the right step.
-const hasTmux = spawnSync('sh', ['-c', 'command -v tmux'], { encoding: 'utf8' }).status === 0;
 const required = process.env.MIXWRIGHT_REQUIRE_BROWSER === '1';
 const BIN = resolve('dist/mixwright.mjs');
 const BATCHES = Number(process.env.KILL_BATCHES ?? 3);
@@ -16,64 +15,38 @@ const BATCHES = Number(process.env.KILL_BATCHES ?? 3);
 describe.runIf(hasTmux || required)('SIGKILL between readings, many times over', () => {
   it(`${BATCHES} batches, a kill after every reading: the log keeps every confirmed reading and resume continues`, async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-kill-'));
-    const sock = `mw-kill-${process.pid}`;
-    const tm = (...a: string[]) => execFileSync('tmux', ['-L', sock, ...a], { encoding: 'utf8' });
-    const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-    const screen = () => tm('capture-pane', '-p', '-t', 's');
-    const waitFor = async (re: RegExp, ms = 15000) => {
-      const t0 = Date.now();
-      while (Date.now() - t0 < ms) {
-        const s = screen();
-        if (re.test(s)) return s;
-        await sleep(80);
-      }
-      throw new Error(`timed out waiting for ${re}; screen:\n${screen()}`);
-    };
-    const start = (cmd: string) => {
-      tm('new-session', '-d', '-s', 's', '-x', '80', '-y', '24', '-c', dir, `env -u CI -u CONTINUOUS_INTEGRATION ${cmd}`);
-      tm('set-option', '-t', 's', 'remain-on-exit', 'on');
-    };
-    const kill = async () => {
-      const pid = Number(tm('display-message', '-p', '-t', 's', '#{pane_pid}').trim());
-      try {
-        process.kill(pid, 'SIGKILL');
-      } catch {
-        // already gone
-      }
-      await sleep(150);
-      tm('kill-session', '-t', 's');
-    };
+    const t = tmuxSession(`mw-kill-${process.pid}`, dir);
     try {
       for (let b = 0; b < BATCHES; b++) {
         const log = join(dir, 'batches', `k${b}.jsonl`);
         const typed = new Map<number, number>();
         let confirmed = 0;
-        start(`node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --batch k${b} --dir batches`);
+        t.start(`node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --batch k${b} --dir batches`);
         for (let round = 0; round < 12 && confirmed < 3; round++) {
-          const s = await waitFor(/fill (\d) of 3/);
+          const s = await t.waitFor(/fill (\d) of 3/);
           const step = Number(/fill (\d) of 3/.exec(s)![1]);
           expect(step).toBe(confirmed + 1);
           const target = Number(/STOP AT ([\d.]+) Torr/.exec(s)![1]);
           typed.set(step, target);
-          tm('send-keys', '-t', 's', '-l', String(target));
+          t.tm('send-keys', '-t', 's', '-l', String(target));
           await sleep(150);
-          tm('send-keys', '-t', 's', 'Enter');
+          t.tm('send-keys', '-t', 's', 'Enter');
           // kill at a random moment right after Enter: before or after the write
           await sleep(Math.floor(Math.random() * 120));
-          await kill();
+          await t.kill();
           const readings = parseLog(readFileSync(log, 'utf8'), log).readings;
           // each reading at most once, in step order, with the value typed for its step
           expect(readings.map((r) => r.step)).toEqual(readings.map((_, i) => i + 1));
           for (const r of readings) expect(Math.abs(r.pressure_Pa / (101325 / 760) - typed.get(r.step)!)).toBeLessThan(1e-9);
           expect(readings.length).toBeGreaterThanOrEqual(confirmed);
           confirmed = readings.length;
-          if (confirmed < 3) start(`node ${BIN} fill --resume ${log}`);
+          if (confirmed < 3) t.start(`node ${BIN} fill --resume ${log}`);
         }
         expect(confirmed).toBe(3);
         expect(existsSync(log)).toBe(true);
       }
     } finally {
-      spawnSync('tmux', ['-L', sock, 'kill-server']);
+      t.close();
     }
   }, 180000);
 });
