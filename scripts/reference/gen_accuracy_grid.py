@@ -7,7 +7,7 @@ Run:  .venv-ref/bin/python scripts/reference/gen_accuracy_grid.py
 import json
 import CoolProp
 import CoolProp.CoolProp as CP
-from coolprop_mix import NAMES, density as density_at, pressure as state
+from coolprop_mix import FLUIDS, density as density_at, pressure as state
 
 BAR = 1e5
 DESIGNS = [
@@ -18,6 +18,7 @@ DESIGNS = [
     ("h2-o2-n2", {"H2": 0.04, "O2": 0.02, "N2": 0.94}, ["H2", "O2", "N2"], "N2"),
     ("ch4-o2-he-ar", {"CH4": 0.01, "O2": 0.02, "He": 0.30, "Ar": 0.67}, ["CH4", "He", "Ar", "O2"], "He"),
     ("ch4-o2-he", {"CH4": 0.01, "O2": 0.02, "He": 0.97}, ["CH4", "He", "O2"], "He"),
+    ("ch4-o2-he90-ar", {"CH4": 0.01, "O2": 0.02, "He": 0.90, "Ar": 0.07}, ["CH4", "Ar", "He", "O2"], "He"),
     ("co2-rich", {"CH4": 0.02, "O2": 0.04, "CO2": 0.50, "Ar": 0.44}, ["CH4", "CO2", "Ar", "O2"], "CO2"),
     ("nc7-o2-n2", {"n-C7H16": 0.002, "O2": 0.022, "N2": 0.976}, ["n-C7H16", "N2", "O2"], "heavy"),
 ]
@@ -35,7 +36,7 @@ for did, x, order, bath in DESIGNS:
     for T in TEMPS:
         for P in PRESSURES:
             # skip states where a vapour would be above half its saturation pressure
-            if any(k in ("n-C7H16", "CO2", "C2H6", "C3H8", "C2H4") and x[k] * P > 0.5 * psat(NAMES[k], T) for k in x):
+            if any(k in ("n-C7H16", "CO2", "C2H6", "C3H8", "C2H4") and x[k] * P > 0.5 * psat(FLUIDS[k], T) for k in x):
                 continue
             rho_f = density_at(x, P, T)
             cum, readings = {}, []

@@ -8,7 +8,7 @@ Run:  .venv-ref/bin/python scripts/reference/gen_mixture_plans.py
 import json
 import CoolProp
 import CoolProp.CoolProp as CP
-from coolprop_mix import NAMES, density as density_at, pressure as state
+from coolprop_mix import FLUIDS, density as density_at, pressure as state
 
 TORR = 101325.0 / 760.0
 

@@ -9,18 +9,7 @@ import json
 import CoolProp
 import CoolProp.CoolProp as CP
 
-# species key -> CoolProp fluid name
-FLUIDS = {
-    "H2": "Hydrogen", "He": "Helium", "Ne": "Neon", "Ar": "Argon", "Kr": "Krypton",
-    "Xe": "Xenon", "N2": "Nitrogen", "O2": "Oxygen", "CO": "CarbonMonoxide",
-    "CO2": "CarbonDioxide", "H2O": "Water", "NH3": "Ammonia", "N2O": "NitrousOxide",
-    "CH4": "Methane", "C2H6": "Ethane", "C2H4": "Ethylene", "C3H8": "Propane",
-    "C3H6": "Propylene", "n-C4H10": "n-Butane", "i-C4H10": "IsoButane",
-    "n-C5H12": "n-Pentane", "n-C7H16": "n-Heptane", "C7H8": "Toluene",
-    "CH3OH": "Methanol", "C2H5OH": "Ethanol", "CH3OCH3": "DimethylEther",
-    "SF6": "SulfurHexafluoride",
-}
-T_GRID = [230.0 + 10.0 * i for i in range(26)]  # 230 .. 480 K
+from coolprop_mix import FLUIDS, T_GRID
 
 out = {
     "generator": "scripts/reference/gen_virial.py",

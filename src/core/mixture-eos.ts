@@ -1,22 +1,26 @@
 /**
  * The mixture equation of state: the density-form virial equation
  *   P = rho R T (1 + B_mix rho + C_mix rho^2),
- *   B_mix = sum_i sum_j y_i y_j B_ij,   C_mix = (sum_i y_i C_ii^(1/3))^3,
+ *   B_mix = sum_i sum_j y_i y_j B_ij,   C_mix = sum_i sum_j sum_k y_i y_j y_k C_ijk,
  * with B_ii from reference values where tabulated (always for He, H2, Ne), else
- * Tsonopoulos; B_ij (i != j) from Tsonopoulos with the Prausnitz combining rules and the
- * Chueh-Prausnitz size-difference k_ij.
+ * Tsonopoulos; B_ij (i != j) from the reference mixture model where the pair is tabulated
+ * (fitted to mixture data and virial-consistent: data/cross-virial-reference.json), else
+ * Tsonopoulos with the Prausnitz combining rules and the Chueh-Prausnitz size-difference
+ * k_ij. C_iii from reference values (non-polar species), C_iij likewise from the pair
+ * table, and every C_ijk not tabulated by the cube-root rule (C_iii C_jjj C_kkk)^(1/3).
  */
 import { R } from './constants.js';
 import { fail } from './problems.js';
 import { getSpecies } from './lookup.js';
-import { referenceB, referenceC } from './virial-reference.js';
+import { referenceB, referenceC, referenceCrossB, referenceCrossC } from './virial-reference.js';
 import { correlationConstants, pairConstants, sizeDifferenceKij, tsonopoulosB } from './virial.js';
 
 export type VirialMethod =
   | 'reference' // tabulated reference-EOS value
   | 'tsonopoulos' // pure species, correlation
   | 'tsonopoulos-quantum' // pure quantum gas outside the reference table: effective constants
-  | 'combining-rule'; // cross coefficient
+  | 'reference-mixture' // cross coefficient from a tabulated reference mixture model
+  | 'combining-rule'; // cross coefficient from the correlation
 
 export interface VirialEntry {
   readonly i: string;
@@ -24,6 +28,19 @@ export interface VirialEntry {
   readonly valueM3PerMol: number;
   readonly method: VirialMethod;
   readonly source: string;
+  /** the binary mixture model behind a 'reference-mixture' entry, as the library cites it */
+  readonly model?: string;
+}
+
+/** a tabulated C_iij (species i twice, j once) and its departure from the cube-root rule */
+export interface ThirdVirialPair {
+  readonly i: number;
+  readonly j: number;
+  /** C_iij, m6/mol2 */
+  readonly value: number;
+  /** C_iij - (C_ii^2 C_jj)^(1/3), m6/mol2: what the table adds to the cube-root rule */
+  readonly delta: number;
+  readonly model: string;
 }
 
 export interface VirialModel {
@@ -33,6 +50,8 @@ export interface VirialModel {
   readonly B: readonly (readonly number[])[];
   /** pure C_ii, m6/mol2; 0 where no reference value is used (polar species, untabulated species) */
   readonly C: readonly number[];
+  /** tabulated cross C_iij of the non-polar pairs (both orientations), indices into species */
+  readonly cPairs: readonly ThirdVirialPair[];
   readonly entries: readonly VirialEntry[];
 }
 
@@ -63,17 +82,37 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
   }
   for (let i = 0; i < n; i++) {
     for (let j = i + 1; j < n; j++) {
+      const ref = referenceCrossB(records[i].key, records[j].key, temperatureK);
+      if (ref) {
+        B[i][j] = B[j][i] = ref.value;
+        entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: ref.value, method: 'reference-mixture', source: 'coolprop-8-mixture', model: ref.model });
+        continue;
+      }
       // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes)
       const v = tsonopoulosB(pairConstants(consts[i], consts[j], sizeDifferenceKij(consts[i], consts[j])), temperatureK);
-      B[i][j] = v;
-      B[j][i] = v;
+      B[i][j] = B[j][i] = v;
       entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: v, method: 'combining-rule', source: 'prausnitz-1999' });
     }
   }
   // C enters only for non-polar species: the polar ones (H2O, NH3, alcohols, DME) have zero-density C
   // of order -1e6 cm6/mol2, which the cube-root rule would spread over the whole mixture
-  const C = records.map((r) => (r.polarClass === 'nonpolar' ? (referenceC(r.key, temperatureK) ?? 0) : 0));
-  return { temperatureK, species: records.map((r) => r.key), B, C, entries };
+  const nonpolar = records.map((r) => r.polarClass === 'nonpolar');
+  const C = records.map((r, i) => (nonpolar[i] ? (referenceC(r.key, temperatureK) ?? 0) : 0));
+  const cPairs: ThirdVirialPair[] = [];
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      // a pair C only where both pure C are tabulated, so that the cube-root rest is consistent
+      if (!nonpolar[i] || !nonpolar[j] || C[i] === 0 || C[j] === 0) continue;
+      const ref = referenceCrossC(records[i].key, records[j].key, temperatureK);
+      if (!ref) continue;
+      const model = referenceCrossB(records[i].key, records[j].key, temperatureK)?.model ?? '';
+      const ci = Math.cbrt(C[i]);
+      const cj = Math.cbrt(C[j]);
+      cPairs.push({ i, j, value: ref.aab, delta: ref.aab - ci * ci * cj, model });
+      cPairs.push({ i: j, j: i, value: ref.abb, delta: ref.abb - cj * cj * ci, model });
+    }
+  }
+  return { temperatureK, species: records.map((r) => r.key), B, C, cPairs, entries };
 }
 
 function fractionsVector(model: VirialModel, y: Readonly<Record<string, number>>): number[] {
@@ -93,16 +132,21 @@ export function bMix(model: VirialModel, y: Readonly<Record<string, number>>): n
 }
 
 /**
- * C_mix = (sum_i y_i C_ii^(1/3))^3, m6/mol2: a cube-root mixing rule (an estimate of
- * the Orentlicher-Prausnitz form C_ijk = (C_ij C_jk C_ik)^(1/3) with C_ij from the pure
- * values). Its share of Z is below 2e-4 up to about 10 bar for these gases.
+ * C_mix = sum_ijk y_i y_j y_k C_ijk, m6/mol2, written as the cube-root rule plus the
+ * tabulated pairs' departures from it:
+ *   C_mix = (sum_i y_i C_ii^(1/3))^3 + 3 sum_(i != j) y_i^2 y_j (C_iij - (C_ii^2 C_jj)^(1/3)).
+ * Untabulated C_iij and every C_ijk of three different species follow the cube-root rule
+ * (an estimate of the Orentlicher-Prausnitz form). Its share of Z is below 2e-4 up to
+ * about 10 bar for these gases.
  */
 export function cMix(model: VirialModel, y: Readonly<Record<string, number>>): number {
   const v = fractionsVector(model, y);
   const s = v.reduce((a, b) => a + b, 0);
   let c = 0;
   for (let i = 0; i < v.length; i++) c += (v[i] / s) * Math.cbrt(model.C[i]);
-  return c * c * c;
+  let extra = 0;
+  for (const p of model.cPairs) extra += 3 * (v[p.i] / s) ** 2 * (v[p.j] / s) * p.delta;
+  return c * c * c + extra;
 }
 
 /**

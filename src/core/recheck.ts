@@ -26,9 +26,11 @@ export interface InverseSetup {
   readonly C: readonly Float64Array[];
   /** cube roots of C, for the mixing rule */
   readonly cbrtC: readonly Float64Array[];
+  /** per reading: tabulated pair departures from the cube-root rule, flat triples (i, j, C_iij - rule) */
+  readonly cPairs: readonly Float64Array[];
   readonly temperaturesK: readonly number[];
   /** gas already in the tank: amounts per species per unit volume are solved from its reading */
-  readonly initial?: { readonly y: Float64Array; readonly pressurePa: number; readonly temperatureK: number; readonly B: Float64Array; readonly cbrtC: Float64Array };
+  readonly initial?: { readonly y: Float64Array; readonly pressurePa: number; readonly temperatureK: number; readonly B: Float64Array; readonly cbrtC: Float64Array; readonly cPairs: Float64Array };
   /** index of each reading's main identified species */
   readonly main: readonly number[];
   readonly model: VirialModel;
@@ -40,14 +42,20 @@ export interface ReadingInput {
   readonly temperatureK: number;
 }
 
-function matrixOf(m: VirialModel, idx: readonly number[], S: number): { B: Float64Array; C: Float64Array } {
+function matrixOf(m: VirialModel, idx: readonly number[], S: number): { B: Float64Array; C: Float64Array; cPairs: Float64Array } {
   const B = new Float64Array(S * S);
   const C = new Float64Array(S);
   for (let i = 0; i < S; i++) {
     C[i] = m.C[idx[i]];
     for (let j = 0; j < S; j++) B[i * S + j] = m.B[idx[i]][idx[j]];
   }
-  return { B, C };
+  const cPairs = new Float64Array(3 * m.cPairs.length);
+  m.cPairs.forEach((p, n) => {
+    cPairs[3 * n] = idx.indexOf(p.i);
+    cPairs[3 * n + 1] = idx.indexOf(p.j);
+    cPairs[3 * n + 2] = p.delta;
+  });
+  return { B, C, cPairs };
 }
 
 export function inverseSetup(readings: readonly ReadingInput[], initial?: { composition: Fractions; pressurePa: number; temperatureK: number }): InverseSetup {
@@ -66,6 +74,7 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
   const B: Float64Array[] = [];
   const dBdT: Float64Array[] = [];
   const C: Float64Array[] = [];
+  const cPairs: Float64Array[] = [];
   let model: VirialModel | undefined;
   for (const r of readings) {
     const e = new Float64Array(S);
@@ -84,6 +93,7 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     model ??= here.m;
     B.push(here.B);
     C.push(here.C);
+    cPairs.push(here.cPairs);
     const d = new Float64Array(S * S);
     for (let i = 0; i < S * S; i++) d[i] = (up.B[i] - dn.B[i]) / (2 * h);
     dBdT.push(d);
@@ -93,7 +103,7 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     const y = new Float64Array(S);
     for (const [k, v] of Object.entries(initial.composition)) y[species.indexOf(k)] = v;
     const here = at(initial.temperatureK);
-    init = { y, pressurePa: initial.pressurePa, temperatureK: initial.temperatureK, B: here.B, cbrtC: here.C.map(Math.cbrt) };
+    init = { y, pressurePa: initial.pressurePa, temperatureK: initial.temperatureK, B: here.B, cbrtC: here.C.map(Math.cbrt), cPairs: here.cPairs };
   }
   return {
     species,
@@ -104,6 +114,7 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     dBdT,
     C,
     cbrtC: C.map((c) => c.map(Math.cbrt)),
+    cPairs,
     temperaturesK: readings.map((r) => r.temperatureK),
     initial: init,
     main: wId.map((w) => {
@@ -137,13 +148,14 @@ export interface InverseResult {
   readonly amounts: Float64Array;
 }
 
-function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w: Float64Array, Beff: Float64Array, cbrtC: Float64Array, S: number, y: Float64Array, start = 0): number {
+function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w: Float64Array, Beff: Float64Array, cbrtC: Float64Array, cPairs: Float64Array, S: number, y: Float64Array, start = 0): number {
   const rt = R * T;
   let rho = start > rhoPrev ? start : P / rt;
   for (let it = 0; it < 30; it++) {
     const d = rho - rhoPrev;
     for (let i = 0; i < S; i++) y[i] = (nPrev[i] + d * w[i]) / rho;
-    // B_mix = y' B y over the upper triangle (B symmetric), C_mix = (sum y_i C_i^(1/3))^3
+    // B_mix = y' B y over the upper triangle (B symmetric); C_mix = (sum y_i C_i^(1/3))^3 plus the
+    // tabulated pairs' departures 3 y_i^2 y_j dC_iij (mixture-eos cMix)
     let b = 0;
     let c3 = 0;
     for (let i = 0; i < S; i++) {
@@ -155,7 +167,11 @@ function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w:
       for (let j = i + 1; j < S; j++) acc += Beff[row + j] * y[j];
       b += 2 * yi * acc;
     }
-    const c = c3 * c3 * c3;
+    let c = c3 * c3 * c3;
+    for (let q = 0; q < cPairs.length; q += 3) {
+      const yi = y[cPairs[q]];
+      c += 3 * yi * yi * y[cPairs[q + 1]] * cPairs[q + 2];
+    }
     // Newton on P(rho) at the current composition (quadratic: two steps from a close start)
     let r = rho;
     for (let n = 0; n < 3; n++) {
@@ -203,7 +219,7 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
   let unid = 0;
   if (setup.initial) {
     const i0 = setup.initial;
-    const r0 = solveRho(i0.pressurePa, i0.temperatureK, ws.zero, 0, i0.y, i0.B, i0.cbrtC, S, y);
+    const r0 = solveRho(i0.pressurePa, i0.temperatureK, ws.zero, 0, i0.y, i0.B, i0.cbrtC, i0.cPairs, S, y);
     for (let i = 0; i < S; i++) {
       n[i] = r0 * i0.y[i];
       nId[i] = n[i];
@@ -225,7 +241,7 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
     const bAbs = p?.bAbsolute;
     const Beff = ws.Beff;
     for (let i = 0; i < S * S; i++) Beff[i] = Bk[i] + dBk[i] * dT + (bAbs ? bAbs[i] : 0);
-    const rho = solveRho(P, T, n, rhoPrev, w, Beff, setup.cbrtC[k], S, y, start ? start[k] : 0);
+    const rho = solveRho(P, T, n, rhoPrev, w, Beff, setup.cbrtC[k], setup.cPairs[k], S, y, start ? start[k] : 0);
     const d = rho - rhoPrev;
     if (!(d > 0)) {
       return fail({ code: 'schema', reason: `reading ${k + 1} (${P.toPrecision(6)} Pa) is not above the one before it; each fill must raise the tank pressure` });

@@ -61,6 +61,8 @@ export const VIRIAL_U = {
   reference: { absolute: 0.5e-6, relative: 0.01 },
   correlation: { absolute: 2e-6, relative: 0.05 },
   cross: { absolute: 4e-6, relative: 0.15 },
+  /** cross B from a tabulated reference mixture model: at least half the largest spread the table admits (3 cm3/mol) */
+  referenceCross: { absolute: 1.5e-6, relative: 0.03 },
 } as const;
 
 export interface OutputStat {
@@ -125,7 +127,7 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
     if (!major.has(e.i) || !major.has(e.j)) continue;
     const i = setup.species.indexOf(e.i);
     const j = setup.species.indexOf(e.j);
-    const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : VIRIAL_U.cross;
+    const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : e.method === 'reference-mixture' ? VIRIAL_U.referenceCross : VIRIAL_U.cross;
     const u = Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
     bIdx.push({ i, j, c: add(`B ${e.i}-${e.j}`, 'normal', u, 'm3/mol') });
   }

@@ -2,9 +2,11 @@
  * Reference pure-fluid virial coefficients B(T) and C(T), tabulated from the
  * reference equations of state (data/virial-reference.json, generated with
  * CoolProp 8.0.0 by scripts/reference/gen_virial.py) and interpolated by a
- * four-point Lagrange polynomial in 1/T.
+ * four-point Lagrange polynomial in 1/T; cross coefficients of the pairs whose reference
+ * mixture model qualifies (see below) likewise.
  */
 import table from './data/virial-reference.json' with { type: 'json' };
+import crossTable from './data/cross-virial-reference.json' with { type: 'json' };
 
 interface TableEntry {
   readonly fluid: string;
@@ -61,4 +63,61 @@ export function referenceC(key: string, temperatureK: number): number | undefine
   const e = entries[key];
   if (!e || !inRange(temperatureK)) return undefined;
   return interpolate(e.C, temperatureK) * 1e-12; // cm6/mol2 -> m6/mol2
+}
+
+/*
+ * Cross coefficients from the reference mixture models (data/cross-virial-reference.json,
+ * generated with CoolProp 8.0.0 by scripts/reference/gen_cross_virial.py): only the pairs
+ * whose binary model is fitted to mixture data and whose zero-density B_mix is quadratic
+ * (and C_mix cubic) in composition, as a virial expansion must be. The other pairs keep
+ * the combining rules.
+ */
+
+interface CrossEntry {
+  readonly a: string;
+  readonly b: string;
+  readonly model: string;
+  readonly B_spread_max: number;
+  readonly B: readonly number[];
+  readonly C_aab?: readonly number[];
+  readonly C_abb?: readonly number[];
+}
+
+const crossEntries = crossTable.pairs as Record<string, CrossEntry>;
+export const CROSS_TABLE_LIBRARY: string = crossTable.library;
+if (crossTable.temperatures_K.some((t, i) => t !== temperatures[i])) throw new Error('cross-virial table and pure table use different temperature grids');
+
+function crossEntry(a: string, b: string): { e: CrossEntry; swapped: boolean } | undefined {
+  const direct = crossEntries[`${a}|${b}`];
+  if (direct) return { e: direct, swapped: false };
+  const rev = crossEntries[`${b}|${a}`];
+  return rev ? { e: rev, swapped: true } : undefined;
+}
+
+export interface ReferenceCrossB {
+  /** m3/mol */
+  readonly value: number;
+  /** the binary mixture model, as the library cites it */
+  readonly model: string;
+  /** largest spread of the model's implied B_ab over composition on the table grid, m3/mol */
+  readonly spread: number;
+}
+
+/** Reference cross B_ab, or undefined when the pair is not tabulated or T lies outside 230-480 K. */
+export function referenceCrossB(a: string, b: string, temperatureK: number): ReferenceCrossB | undefined {
+  const hit = crossEntry(a, b);
+  if (!hit || !inRange(temperatureK)) return undefined;
+  return { value: interpolate(hit.e.B, temperatureK) * 1e-6, model: hit.e.model, spread: hit.e.B_spread_max * 1e-6 };
+}
+
+/**
+ * Reference cross third virial coefficients of a pair, oriented as asked:
+ * aab = C_aab (a twice), abb = C_abb, m6/mol2; undefined when not tabulated.
+ */
+export function referenceCrossC(a: string, b: string, temperatureK: number): { aab: number; abb: number } | undefined {
+  const hit = crossEntry(a, b);
+  if (!hit || !inRange(temperatureK) || !hit.e.C_aab || !hit.e.C_abb) return undefined;
+  const first = interpolate(hit.e.C_aab, temperatureK) * 1e-12;
+  const second = interpolate(hit.e.C_abb, temperatureK) * 1e-12;
+  return hit.swapped ? { aab: second, abb: first } : { aab: first, abb: second };
 }
