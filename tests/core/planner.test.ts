@@ -43,11 +43,12 @@ describe('fill plan against outside references', () => {
     expect(Math.abs(plan.final.compressibility - worked.compressibility)).toBeLessThan(5e-5);
   });
 
-  // measured (ppm, ours / ideal-gas plan, at the final density): ch4-o2-ar 16/-880, h2-o2-ar 35/-1111,
-  // ch4-air 69/-1211, c3h8-o2-n2 33/-684, ch4-o2-co2-ar 240/-5816, c2h6-o2-he-ar -880/-1546.
+  // measured (ppm, ours / ideal-gas plan, at the final density): ch4-o2-ar -2/-880, h2-o2-ar 32/-1111,
+  // ch4-air -7/-1211, c3h8-o2-n2 31/-684, ch4-o2-co2-ar 207/-5816, c2h6-o2-he-ar -886/-1546.
   // The last case is dominated by the He-Ar cross coefficient: +18.5 cm3/mol here (combining rules with
-  // effective quantum constants) against +7.4 in the mixture model; the two models disagree and the
-  // case is held to a wider tolerance until a measured He-Ar B12 settles it.
+  // effective quantum constants), while the mixture model's zero-density B_He-Ar is not one number (from
+  // about -6 to +18 cm3/mol depending on composition, data/cross-virial-reference.json); the case is held
+  // to a wider tolerance until a measured He-Ar B12 settles it.
   const LIMITS: Record<string, { step: number; removed: number }> = {
     'ch4-o2-ar-1000torr': { step: 1e-4, removed: 0.9 },
     'h2-o2-ar-1500torr': { step: 1e-4, removed: 0.9 },
