@@ -11,6 +11,7 @@ import { R } from './constants.js';
 import type { Fractions } from './composition.js';
 import type { GasSource } from './supply.js';
 import { virialModel, type VirialModel } from './mixture-eos.js';
+import { VIRIAL_TABLE_RANGE_K } from './virial-reference.js';
 import { fail } from './problems.js';
 
 export interface InverseSetup {
@@ -86,16 +87,23 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     e[species.indexOf(r.source.mainSpecies)] += r.source.unidentified;
     wEos.push(e);
     wId.push(id);
+    // dB/dT by a central difference that stays on one side of the reference tables' edges, so that
+    // it never mixes a tabulated value with a correlation's
     const h = 0.5;
-    const here = at(r.temperatureK);
-    const up = at(r.temperatureK + h);
-    const dn = at(r.temperatureK - h);
+    const t = r.temperatureK;
+    const { min, max } = VIRIAL_TABLE_RANGE_K;
+    const side = (x: number) => (x < min ? -1 : x > max ? 1 : 0);
+    const tUp = side(t + h) === side(t) ? t + h : side(t) === 0 ? max : t; // never across an edge
+    const tDn = side(t - h) === side(t) ? t - h : side(t) === 0 ? min : t;
+    const here = at(t);
+    const up = at(tUp);
+    const dn = at(tDn);
     model ??= here.m;
     B.push(here.B);
     C.push(here.C);
     cPairs.push(here.cPairs);
     const d = new Float64Array(S * S);
-    for (let i = 0; i < S * S; i++) d[i] = (up.B[i] - dn.B[i]) / (2 * h);
+    for (let i = 0; i < S * S; i++) d[i] = (up.B[i] - dn.B[i]) / (tUp - tDn);
     dBdT.push(d);
   }
   let init: InverseSetup['initial'];

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { readFileSync } from 'node:fs';
 import {
   designMixture,
   evaluateUncertainty,
@@ -112,6 +113,22 @@ describe('inverse model', () => {
       expect(Math.sqrt(ours)).toBeLessThan(0.3 * Math.sqrt(ideal));
     });
   }
+});
+
+describe('temperature derivative of the B matrix (for temperature terms of the budget)', () => {
+  // reference: the CoolProp 8.0.0 table itself (src/core/data/virial-reference.json, cross-virial-reference.json),
+  // secant slope between its first two and last two nodes; 10 % covers the curvature over one 10 K step
+  const pure = JSON.parse(readFileSync('src/core/data/virial-reference.json', 'utf8'));
+  it('near the table edges (230.2 and 479.8 K) dB/dT follows the table, not a mix of table and correlation', () => {
+    const T: number[] = pure.temperatures_K;
+    const b = pure.species.CH4.B as number[];
+    const n = T.length;
+    for (const [t, slope] of [[230.2, (b[1] - b[0]) / (T[1] - T[0])], [479.8, (b[n - 1] - b[n - 2]) / (T[n - 1] - T[n - 2])]]) {
+      const setup = inverseSetup([{ source: pureCylinder({ id: 'c', species: 'CH4', purity: 1 }), pressurePa: 1e4, temperatureK: t }]);
+      const d = setup.dBdT[0][0] * 1e6;
+      expect(Math.abs(d / slope - 1), `${t} K: ${d} vs ${slope} cm3/mol/K`).toBeLessThan(0.1);
+    }
+  });
 });
 
 describe('uncertainty (GUM and Monte Carlo)', () => {
