@@ -11,6 +11,19 @@ function formatFractions(x: Readonly<Record<string, number>>): string {
     .join('  ');
 }
 
+/** where the cross coefficients of the design's own species come from (impurity pairs left out) */
+function virialSummary(plan: Plan): string {
+  const major = new Set(Object.keys(plan.design.composition));
+  const cross = plan.virial.entries.filter((e) => e.i !== e.j && major.has(e.i) && major.has(e.j));
+  const fromModel = cross.filter((e) => e.method === 'reference-mixture');
+  const byRule = cross.filter((e) => e.method !== 'reference-mixture');
+  const list = (es: typeof cross) => es.map((e) => `${e.i}-${e.j}`).join(', ');
+  const parts = [`B_mix ${(plan.final.bMixM3PerMol * 1e6).toFixed(2)} cm3/mol`];
+  if (fromModel.length) parts.push(`cross B from reference mixture models: ${list(fromModel)}`);
+  if (byRule.length) parts.push(`by combining rule: ${list(byRule)}`);
+  return parts.join('; ');
+}
+
 const SEVERITY_LABEL: Record<Severity, string> = { danger: 'DANGER ', warning: 'warning', note: 'note   ' };
 
 export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
@@ -27,6 +40,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push(`Tank        ${t.id}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`);
   out.push(`Final       ${P(plan.final.pressurePa)} absolute at ${plan.final.temperatureK.toFixed(2)} K (${(plan.final.temperatureK - 273.15).toFixed(2)} degC)`);
   out.push(`            Z = ${plan.final.compressibility.toFixed(6)}, ${fixedSig(plan.final.amountMol, 6)} mol (an ideal gas would need ${fixedSig(plan.final.idealAmountMol, 6)} mol)`);
+  out.push(`Real gas    ${virialSummary(plan)}`);
   if (plan.initial) out.push(`In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} (${fixedSig(plan.initial.amountMol, 5)} mol)`);
   out.push(`Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${meta.orderRecommended ? 'recommended: ' : ''}${plan.orderReason})`);
   const ex = meta.experiments;

@@ -13,6 +13,15 @@ describe('mixwright plan', () => {
     expect(r.stdout).toMatch(/1\s+CH4\s+cyl-CH4\s+head-1kT\s+10\.01 Torr/);
     expect(r.stdout).toContain('CH4 -> Ar -> O2  (recommended: keeps every intermediate tank state out of the flammable region');
     expect(r.stdout).toContain('Caution: This plan is an engineering estimate');
+    // cross coefficients: all three pairs are in the reference mixture-model table (CoolProp 8.0.0:
+    // Kunz-JCED-2012 for CH4-O2 and CH4-Ar, Gernert-Thesis-2013 for O2-Ar); B_mix as printed in --json
+    expect(r.stdout).toMatch(/Real gas\s+B_mix -15\.\d\d cm3\/mol; cross B from reference mixture models: CH4-O2, CH4-Ar, O2-Ar\n/);
+  });
+
+  it('names the pairs left to the combining rule: He-Ar and He-O2, which no library model gives as one virial coefficient', async () => {
+    const r = await runCli(['plan', '--fractions', 'CH4:0.01,O2:0.02,He:0.30,Ar:0.67', '--volume', '10 L', '--pressure', '1000 Torr', '--temperature', '298.15 K']);
+    expect(r.stdout).toMatch(/Real gas .*cross B from reference mixture models: [^;]*CH4-O2/);
+    expect(r.stdout).toMatch(/by combining rule: CH4-He, O2-He, Ar-He\n/);
   });
 
   it('inline options, --json: the BRIEF contract keys, targets of the worked vector (properties.md 1.2) within 0.01 Torr with the demo cylinders', async () => {
