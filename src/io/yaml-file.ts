@@ -1,5 +1,5 @@
 /** Read a YAML file and keep the way back from a data path to its line and column. */
-import { LineCounter, parseDocument, isMap, isScalar, type Document } from 'yaml';
+import { LineCounter, parseDocument, isCollection, isMap, isScalar, visit, type Document } from 'yaml';
 import { readTextFile } from './read-text.js';
 import { fail, type Where } from '../core/index.js';
 
@@ -20,6 +20,17 @@ export function parseYamlText(text: string, file: string): YamlSource {
     const pos = lineCounter.linePos(e.pos[0]);
     fail({ code: 'yaml-syntax', reason: e.message.split('\n')[0] }, { file, line: pos.line, column: pos.col });
   }
+  // a list or map used as a key (`? [a, b]: 1`, `{a: 1}: 2`) has no place in these files; refuse it here
+  // rather than let the parser turn it into a string with a warning on stderr
+  visit(doc, {
+    Pair(_, pair) {
+      if (isCollection(pair.key)) {
+        const r = (pair.key as { range?: [number, number, number] }).range;
+        const pos = r ? lineCounter.linePos(r[0]) : undefined;
+        fail({ code: 'yaml-syntax', reason: 'a key is a list or map; keys must be plain names such as "volume"' }, { file, line: pos?.line, column: pos?.col });
+      }
+    },
+  });
   const data = doc.toJS();
   const locate = (path: DataPath, key?: string): Where => {
     for (let n = path.length; n >= 0; n--) {

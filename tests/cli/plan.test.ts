@@ -77,6 +77,7 @@ describe('bad input: exit 2, one message naming what and where, never a stack tr
     ['an order with a gas the mixture does not fill', [...INLINE.slice(0, 17), '--order', 'CH4,O2,He'], 'order-unknown', /--order: the fill order names He/],
     ['a recipe with an unknown key: file, line and the allowed keys', ['plan', 'tests/cli/bad/unknown-key.yaml'], 'unknown-key', /unknown-key\.yaml:9:3 mixture\.dilutoin_ratio: unknown key "dilutoin_ratio"; allowed here: .*diluent_ratio/],
     ['a YAML syntax error, with its line', ['plan', 'tests/cli/bad/syntax.yaml'], 'yaml-syntax', /syntax\.yaml:\d+:\d+: not valid YAML/],
+    ['a map used as a key, with its line and no parser warning', ['plan', 'tests/cli/bad/collection-key.yaml'], 'yaml-syntax', /collection-key\.yaml:4:3: not valid YAML: a key is a list or map/],
     ['a volume where the recipe wants a pressure', ['plan', 'tests/cli/bad/volume-as-pressure.yaml'], 'wrong-dimension', /volume-as-pressure\.yaml:4:11 pressure: "30 L" is a volume/],
     ['phi 0 in a recipe, with its line', ['plan', 'tests/cli/bad/phi-zero.yaml'], 'not-positive', /phi-zero\.yaml:7:8 mixture\.phi: phi/],
     ['a missing recipe file', ['plan', 'tests/cli/bad/nope.yaml'], 'file-unreadable', /nope\.yaml: cannot read the file: no such file/],
@@ -92,6 +93,7 @@ describe('bad input: exit 2, one message naming what and where, never a stack tr
       expect(r.stderr).toContain(`(error code: ${code})`);
       expect(r.stderr).toMatch(message);
       expect(r.stderr).not.toMatch(/\n\s+at /);
+      expect(r.stderr).not.toMatch(/Warning:/);
       expect(r.stdout).toBe('');
     });
   }

@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -16,6 +16,11 @@ const file = (ext: string, text: string) => {
   writeFileSync(f, text);
   return f;
 };
+
+// a library warning on stderr (process 'warning' events) is output the user did not ask for: none allowed
+const warnings: string[] = [];
+process.on('warning', (w) => warnings.push(`${w.name}: ${w.message}`));
+afterAll(() => expect(warnings).toEqual([]));
 
 /** every run ends in a known exit code; a refusal names its code and place; nothing prints NaN, Infinity or a stack */
 function judge(r: { code: number; stdout: string; stderr: string }, allowed: number[]) {
