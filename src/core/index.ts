@@ -19,7 +19,7 @@ export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRo
 export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from './composition.js';
 export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole, sizeDifferenceKij } from './virial.js';
 export type { CorrelationConstants } from './virial.js';
-export { referenceB, referenceC, hasReferenceB, referenceCrossB, referenceCrossC, VIRIAL_TABLE_RANGE_K, VIRIAL_TABLE_LIBRARY, CROSS_TABLE_LIBRARY } from './virial-reference.js';
+export { referenceB, referenceC, hasReferenceB, referenceCrossB, referenceCrossC, referenceCrossPartners, VIRIAL_TABLE_RANGE_K, VIRIAL_TABLE_LIBRARY, CROSS_TABLE_LIBRARY } from './virial-reference.js';
 export { virialModel, bMix, cMix, pressureFromDensity, densityFromPressure, compressibility } from './mixture-eos.js';
 export type { VirialModel, VirialEntry, VirialMethod, ThirdVirialPair } from './mixture-eos.js';
 export { cpMolar, enthalpyMolar, entropyMolar, gammaMixture, hasThermo, thermoRangeK } from './thermo.js';

@@ -121,3 +121,13 @@ export function referenceCrossC(a: string, b: string, temperatureK: number): { a
   const second = interpolate(hit.e.C_abb, temperatureK) * 1e-12;
   return hit.swapped ? { aab: second, abb: first } : { aab: first, abb: second };
 }
+
+/** the species whose cross coefficients with `key` come from a tabulated reference mixture model, with the model */
+export function referenceCrossPartners(key: string): { species: string; model: string; withC: boolean }[] {
+  const out: { species: string; model: string; withC: boolean }[] = [];
+  for (const e of Object.values(crossEntries)) {
+    if (e.a === key) out.push({ species: e.b, model: e.model, withC: !!e.C_aab });
+    else if (e.b === key) out.push({ species: e.a, model: e.model, withC: !!e.C_aab });
+  }
+  return out;
+}

@@ -119,6 +119,9 @@ describe('other commands', () => {
     expect(r.stdout).toMatch(/molar mass\s+16\.043\s+g\/mol\s+iupac-2021/);
     expect(r.stdout).toMatch(/second virial coefficient at 298\.15 K\s+-42\.91\d\s+cm3\/mol\s+coolprop-8-virial/);
     expect(r.stdout).toMatch(/LFL in air\s+4\.40\s+vol %\s+iec-60079-20-1-2010/);
+    // the pair table (CoolProp 8.0.0 mixture models that qualify, data/cross-virial-reference.json)
+    expect(r.stdout).toContain('from reference mixture models (coolprop-8-mixture, 230-480 K) with: Ar, Kr, N2, O2, CO, C2H6 (B only), C2H4.');
+    expect((await runCli(['species', 'He'])).stdout).toContain('Cross virial coefficients with every other species: Prausnitz combining rules (prausnitz-1999); no reference mixture model qualifies');
     const all = await runCli(['species']);
     expect(all.stdout.split('\n').filter((l) => /^\S/.test(l)).length).toBeGreaterThan(31);
     const bad = await runCli(['species', 'methan']);
