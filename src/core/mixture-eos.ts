@@ -105,11 +105,10 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
       if (!nonpolar[i] || !nonpolar[j] || C[i] === 0 || C[j] === 0) continue;
       const ref = referenceCrossC(records[i].key, records[j].key, temperatureK);
       if (!ref) continue;
-      const model = referenceCrossB(records[i].key, records[j].key, temperatureK)?.model ?? '';
       const ci = Math.cbrt(C[i]);
       const cj = Math.cbrt(C[j]);
-      cPairs.push({ i, j, value: ref.aab, delta: ref.aab - ci * ci * cj, model });
-      cPairs.push({ i: j, j: i, value: ref.abb, delta: ref.abb - cj * cj * ci, model });
+      cPairs.push({ i, j, value: ref.aab, delta: ref.aab - ci * ci * cj, model: ref.model });
+      cPairs.push({ i: j, j: i, value: ref.abb, delta: ref.abb - cj * cj * ci, model: ref.model });
     }
   }
   return { temperatureK, species: records.map((r) => r.key), B, C, cPairs, entries };

@@ -114,12 +114,13 @@ export function referenceCrossB(a: string, b: string, temperatureK: number): Ref
  * Reference cross third virial coefficients of a pair, oriented as asked:
  * aab = C_aab (a twice), abb = C_abb, m6/mol2; undefined when not tabulated.
  */
-export function referenceCrossC(a: string, b: string, temperatureK: number): { aab: number; abb: number } | undefined {
+export function referenceCrossC(a: string, b: string, temperatureK: number): { aab: number; abb: number; model: string } | undefined {
   const hit = crossEntry(a, b);
   if (!hit || !inRange(temperatureK) || !hit.e.C_aab || !hit.e.C_abb) return undefined;
   const first = interpolate(hit.e.C_aab, temperatureK) * 1e-12;
   const second = interpolate(hit.e.C_abb, temperatureK) * 1e-12;
-  return hit.swapped ? { aab: second, abb: first } : { aab: first, abb: second };
+  const model = hit.e.model;
+  return hit.swapped ? { aab: second, abb: first, model } : { aab: first, abb: second, model };
 }
 
 /** the species whose cross coefficients with `key` come from a tabulated reference mixture model, with the model */
