@@ -114,6 +114,20 @@ describe('fuzz: malformed and random inputs', () => {
     );
   });
 
+  it('random recipes through sheet and ready: a refusal leaves no file, a written sheet is the only file', async () => {
+    await fc.assert(
+      fc.asyncProperty(recipeArb, fc.constantFrom('md', 'text', 'html'), async (r, format) => {
+        const f = file('yaml', stringify(r));
+        const out = mkdtempSync(join(tmpdir(), 'mw-fz-sheet-'));
+        const s = await runCli(['sheet', f, '--format', format, '-o', join(out, `s.${format}`)]);
+        judge(s, [0, 2, 3]);
+        expect(readdirSync(out), `exit ${s.code}: ${s.stderr}`).toEqual(s.code === 2 ? [] : [`s.${format}`]);
+        judge(await runCli(['ready', f]), [0, 2, 3]);
+      }),
+      { numRuns: Math.ceil(RUNS / 2) },
+    );
+  });
+
   it('a refused sheet leaves no file behind (no output, no temporary)', async () => {
     const out = mkdtempSync(join(tmpdir(), 'mw-out-'));
     const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--phi', '-1', '--format', 'md', '-o', join(out, 's.md')]);
@@ -122,36 +136,55 @@ describe('fuzz: malformed and random inputs', () => {
   });
 });
 
+const FUELS = ['CH4', 'C2H6', 'C2H4', 'C3H8', 'H2', 'CO', 'n-C7H16', 'CH3OH', 'C2H2', 'NH3', 'CH3OCH3', 'i-C8H18', 'C7H8'];
+const INERTS = ['Ar', 'N2', 'He', 'CO2', 'Ar:0.5,He:0.5'];
+const validDesign = fc.record({
+  fuel: fc.constantFrom(...FUELS),
+  ox: fc.constantFrom('O2', 'air', 'O2:0.5,N2:0.5', 'N2O'),
+  dil: fc.constantFrom(...INERTS),
+  phi: fc.double({ min: 0.1, max: 4, noNaN: true }),
+  dilution: fc.double({ min: 0.5, max: 0.995, noNaN: true }),
+  P: fc.double({ min: 20, max: 4000, noNaN: true }),
+  T: fc.double({ min: 260, max: 420, noNaN: true }),
+  tank: fc.constantFrom('MT-1', 'MT-2'),
+});
+type ValidDesign = typeof validDesign extends fc.Arbitrary<infer D> ? D : never;
+const designArgs = (d: ValidDesign) => ['--fuel', d.fuel, '--oxidizer', d.ox, '--phi', String(d.phi), '--diluent', d.dil, '--dilution', String(d.dilution), '--pressure', `${d.P} Torr`, '--temperature', `${d.T} K`, '--tank', d.tank];
+
 describe('fuzz: valid random designs', () => {
   it('plan, JSON: exit 0 or 3 (or 2 for a state outside the model), targets increasing and finite, fractions summing to 1', async () => {
-    const fuels = ['CH4', 'C2H6', 'C2H4', 'C3H8', 'H2', 'CO', 'n-C7H16', 'CH3OH', 'C2H2', 'NH3', 'CH3OCH3', 'i-C8H18', 'C7H8'];
-    const inerts = ['Ar', 'N2', 'He', 'CO2', 'Ar:0.5,He:0.5'];
     await fc.assert(
-      fc.asyncProperty(
-        fc.constantFrom(...fuels),
-        fc.constantFrom('O2', 'air', 'O2:0.5,N2:0.5', 'N2O'),
-        fc.constantFrom(...inerts),
-        fc.double({ min: 0.1, max: 4, noNaN: true }),
-        fc.double({ min: 0.5, max: 0.995, noNaN: true }),
-        fc.double({ min: 20, max: 4000, noNaN: true }),
-        fc.double({ min: 260, max: 420, noNaN: true }),
-        fc.constantFrom('MT-1', 'MT-2'),
-        async (fuel, ox, dil, phi, dilution, P, T, tank) => {
-          const r = await runCli(['plan', '--fuel', fuel, '--oxidizer', ox, '--phi', String(phi), '--diluent', dil, '--dilution', String(dilution), '--pressure', `${P} Torr`, '--temperature', `${T} K`, '--tank', tank, '--json']);
-          judge(r, [0, 2, 3]);
-          if (r.code === 2) return;
-          const j = JSON.parse(r.stdout);
-          const t = j.steps.map((s: { target_Pa: number }) => s.target_Pa);
-          for (let i = 0; i < t.length; i++) {
-            expect(Number.isFinite(t[i])).toBe(true);
-            if (i) expect(t[i]).toBeGreaterThan(t[i - 1]);
-          }
-          const sum = Object.values(j.mixture.composition as Record<string, number>).reduce((a, b) => a + b, 0);
-          expect(Math.abs(sum - 1)).toBeLessThan(1e-9);
-          expect(Math.abs(t[t.length - 1] / ((P * 101325) / 760) - 1)).toBeLessThan(1e-9);
-        },
-      ),
+      fc.asyncProperty(validDesign, async (d) => {
+        const r = await runCli(['plan', ...designArgs(d), '--json']);
+        judge(r, [0, 2, 3]);
+        if (r.code === 2) return;
+        const j = JSON.parse(r.stdout);
+        const t = j.steps.map((s: { target_Pa: number }) => s.target_Pa);
+        for (let i = 0; i < t.length; i++) {
+          expect(Number.isFinite(t[i])).toBe(true);
+          if (i) expect(t[i]).toBeGreaterThan(t[i - 1]);
+        }
+        const sum = Object.values(j.mixture.composition as Record<string, number>).reduce((a, b) => a + b, 0);
+        expect(Math.abs(sum - 1)).toBeLessThan(1e-9);
+        expect(Math.abs(t[t.length - 1] / ((d.P * 101325) / 760) - 1)).toBeLessThan(1e-9);
+      }),
       { numRuns: RUNS },
     );
+  });
+
+  it('sheet and ready: a written sheet is the only file in its folder (no temporary), a refusal writes nothing', async () => {
+    let written = 0;
+    await fc.assert(
+      fc.asyncProperty(validDesign, fc.constantFrom('md', 'text', 'html'), async (d, format) => {
+        const out = mkdtempSync(join(tmpdir(), 'mw-fz-sheet-'));
+        const s = await runCli(['sheet', ...designArgs(d), '--format', format, '-o', join(out, `s.${format}`)]);
+        judge(s, [0, 2, 3]);
+        expect(readdirSync(out), `exit ${s.code}: ${s.stderr}`).toEqual(s.code === 2 ? [] : [`s.${format}`]);
+        if (s.code !== 2) written++;
+        judge(await runCli(['ready', ...designArgs(d)]), [0, 2, 3]);
+      }),
+      { numRuns: Math.ceil(RUNS / 2) },
+    );
+    expect(written).toBeGreaterThan(0);
   });
 });
