@@ -1,6 +1,6 @@
 /** The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here, fsync'd, before the screen moves on. */
-import { useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
+import { useLatestState } from './latest-state.js';
 import { fillReducer, shownPa, type FillAction, type FillState } from './fill-state.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { LogEvent } from '../io/batch-log.js';
@@ -23,14 +23,14 @@ export function toActions(input: string, key: { return?: boolean; tab?: boolean;
 }
 
 export function FillApp({ initial, write, logFile, now = () => new Date().toISOString() }: FillAppProps) {
-  const [state, setState] = useState(initial);
+  const [state, current, setState] = useLatestState(initial);
   const app = useApp();
   useInput((input, key) => {
-    if (state.phase === 'done' && (input === 'q' || key.return || key.escape)) {
+    if (current().phase === 'done' && (input === 'q' || key.return || key.escape)) {
       app.exit();
       return;
     }
-    let s = state;
+    let s = current();
     for (const a of toActions(input, key, now())) {
       const next = fillReducer(s, a);
       try {

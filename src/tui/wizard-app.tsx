@@ -1,6 +1,6 @@
 /** The design wizard screen (ink): fields left, live preview right, actions below. */
-import { useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
+import { useLatestState } from './latest-state.js';
 import { splitChunk } from './keys.js';
 import { ACTIONS, FIELD_HELP, FIELDS, currentField, typeAhead, wizardReducer, type Evaluate, type WizardAction, type WizardState } from './wizard-state.js';
 
@@ -21,14 +21,14 @@ export function wizardActions(input: string, key: { upArrow?: boolean; downArrow
 }
 
 export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
-  const [state, setState] = useState(initial);
+  const [state, current, setState] = useLatestState(initial);
   const app = useApp();
   useInput((input, key) => {
     if (key.escape) {
       app.exit();
       return;
     }
-    let s = state;
+    let s = current();
     for (const a of wizardActions(input, key)) {
       s = wizardReducer(s, a, evaluate);
       if (s.request) {

@@ -11,35 +11,60 @@ import { makeEvaluator } from '../../src/tui/wizard-eval.js';
 import type { LogEvent } from '../../src/io/batch-log.js';
 
 const tick = () => new Promise((r) => setTimeout(r, 30));
+/** wait until the screen (or the log) shows what the test expects: input is handled asynchronously, and slower under load */
+async function until(cond: () => boolean, what: string, ms = 5000): Promise<void> {
+  const t0 = Date.now();
+  while (!cond()) {
+    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 10));
+  }
+}
+
+/** the guided fill of the demo recipe, its log events handed to write */
+function startDemoFill(write: (e: LogEvent) => void) {
+  const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+  const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
+  return render(<FillApp initial={initialState(setupFromHeader(h))} write={write} logFile="b1.jsonl" />);
+}
 
 describe('fill screen (ink)', () => {
   it('shows the target large with its band and gauge; a typed reading is written before the next step shows', async () => {
-    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
-    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
     const written: LogEvent[] = [];
-    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={(e) => written.push(e)} logFile="b1.jsonl" />);
-    await tick();
-    expect(ui.lastFrame()).toContain('STOP AT 10.01 Torr');
+    const ui = startDemoFill((e) => written.push(e));
+    await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     expect(ui.lastFrame()).toContain('head-1kT');
     expect(ui.lastFrame()).toContain('close off head-10T');
     ui.stdin.write('10.0128');
-    await tick();
+    await until(() => !!ui.lastFrame()?.includes('10.0128'), 'the typed reading');
     ui.stdin.write('\r');
-    await tick();
+    await until(() => written.length > 0 && !!ui.lastFrame()?.includes('fill 2 of 3'), 'the next step');
     expect(written).toHaveLength(1);
     expect(ui.lastFrame()).toContain('fill 2 of 3');
     expect(ui.lastFrame()).toMatch(/fill 1 logged/);
     ui.unmount();
   });
+  it('keys that arrive one by one faster than the screen redraws are all taken: the logged reading is the one typed', async () => {
+    const written: LogEvent[] = [];
+    const ui = startDemoFill((e) => written.push(e));
+    await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
+    for (const ch of '10.0128') ui.stdin.write(ch);
+    ui.stdin.write('\r');
+    await until(() => written.length > 0, 'the logged reading');
+    const e = written[0] as { kind: string; reading: string; pressure_Pa: number };
+    expect(e.kind).toBe('reading');
+    expect(e.reading).toBe('10.0128 Torr');
+    expect(e.pressure_Pa).toBeCloseTo((10.0128 * 101325) / 760, 9); // Torr = 101325/760 Pa exactly
+    ui.unmount();
+  });
+
   it('if the log cannot be written, the reading is not taken', async () => {
-    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
-    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
-    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={() => { throw new Error('disk full'); }} logFile="b1.jsonl" />);
-    await tick();
+    const ui = startDemoFill(() => {
+      throw new Error('disk full');
+    });
+    await until(() => !!ui.lastFrame()?.includes('fill 1 of 3'), 'the first step');
     ui.stdin.write('10.0128\r');
-    await tick();
+    await until(() => !!ui.lastFrame()?.includes('NOT recorded'), 'the refusal');
     expect(ui.lastFrame()).toContain('fill 1 of 3');
-    expect(ui.lastFrame()).toContain('NOT recorded');
     ui.unmount();
   });
 });
@@ -74,15 +99,20 @@ describe('wizard (reducer and screen)', () => {
   });
   it('screen: fields, the live preview and the reason next to a bad field', async () => {
     const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => 'ok'} />);
-    await tick();
-    expect(ui.lastFrame()).toContain('preview');
+    await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
     expect(ui.lastFrame()).toMatch(/1 CH4\s+head-1kT/);
     ui.stdin.write('\x1b[B'); // down: oxidizer
     await tick();
     ui.stdin.write('\x7f\x7fN2');
-    await tick();
-    expect(ui.lastFrame()).toMatch(/oxidizer\s+N2\s+!/);
+    await until(() => /oxidizer\s+N2\s+!/.test(ui.lastFrame() ?? ''), 'the refused oxidizer');
     expect(ui.lastFrame()).toContain('the oxidizer carries no oxygen');
+    ui.unmount();
+  });
+  it('screen: keys sent one by one without waiting for a redraw all land in the field', async () => {
+    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => 'ok'} />);
+    await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
+    for (const k of ['\x1b[B', '\x7f', '\x7f', 'N', '2']) ui.stdin.write(k);
+    await until(() => /oxidizer\s+N2\s+!/.test(ui.lastFrame() ?? ''), 'the refused oxidizer');
     ui.unmount();
   });
 });
