@@ -27,7 +27,7 @@ export interface InverseSetup {
   readonly C: readonly Float64Array[];
   /** cube roots of C, for the mixing rule */
   readonly cbrtC: readonly Float64Array[];
-  /** per reading: tabulated pair departures from the cube-root rule, flat triples (i, j, C_iij - rule) */
+  /** per reading: 3 (C_iij - cube-root rule) of the tabulated pairs, S x S row-major (i twice, j once), else 0 */
   readonly cPairs: readonly Float64Array[];
   readonly temperaturesK: readonly number[];
   /** gas already in the tank: amounts per species per unit volume are solved from its reading */
@@ -43,19 +43,24 @@ export interface ReadingInput {
   readonly temperatureK: number;
 }
 
-function matrixOf(m: VirialModel, idx: readonly number[], S: number): { B: Float64Array; C: Float64Array; cPairs: Float64Array } {
+/**
+ * @param major per setup species: 1e-4 or more in some source. Third-virial pair terms of a trace
+ * species change C_mix by about 3 y^2 1e-7 dC (< 1e-16 m6/mol2 here) and are left out of the
+ * array model, which the Monte Carlo runs a million times.
+ */
+function matrixOf(m: VirialModel, idx: readonly number[], S: number, major: readonly boolean[]): { B: Float64Array; C: Float64Array; cPairs: Float64Array } {
   const B = new Float64Array(S * S);
   const C = new Float64Array(S);
   for (let i = 0; i < S; i++) {
     C[i] = m.C[idx[i]];
     for (let j = 0; j < S; j++) B[i * S + j] = m.B[idx[i]][idx[j]];
   }
-  const cPairs = new Float64Array(3 * m.cPairs.length);
-  m.cPairs.forEach((p, n) => {
-    cPairs[3 * n] = idx.indexOf(p.i);
-    cPairs[3 * n + 1] = idx.indexOf(p.j);
-    cPairs[3 * n + 2] = p.delta;
-  });
+  const cPairs = new Float64Array(S * S);
+  for (const p of m.cPairs) {
+    const i = idx.indexOf(p.i);
+    const j = idx.indexOf(p.j);
+    if (major[i] && major[j]) cPairs[i * S + j] = 3 * p.delta;
+  }
   return { B, C, cPairs };
 }
 
@@ -65,10 +70,11 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
   for (const k of Object.keys(initial?.composition ?? {})) set.add(k);
   const species = [...set];
   const S = species.length;
+  const major = species.map((k) => readings.some((r) => (r.source.composition[k] ?? 0) >= 1e-4) || (initial?.composition[k] ?? 0) >= 1e-4);
   const at = (T: number) => {
     const m = virialModel(species, T);
     const idx = species.map((k) => m.species.indexOf(k));
-    return { m, ...matrixOf(m, idx, S) };
+    return { m, ...matrixOf(m, idx, S, major) };
   };
   const wEos: Float64Array[] = [];
   const wId: Float64Array[] = [];
@@ -163,23 +169,26 @@ function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w:
     const d = rho - rhoPrev;
     for (let i = 0; i < S; i++) y[i] = (nPrev[i] + d * w[i]) / rho;
     // B_mix = y' B y over the upper triangle (B symmetric); C_mix = (sum y_i C_i^(1/3))^3 plus the
-    // tabulated pairs' departures 3 y_i^2 y_j dC_iij (mixture-eos cMix)
+    // tabulated pairs' departures 3 y_i^2 y_j dC_iij + 3 y_j^2 y_i dC_jji (mixture-eos cMix)
     let b = 0;
     let c3 = 0;
+    let dc = 0;
     for (let i = 0; i < S; i++) {
       const yi = y[i];
       if (yi === 0) continue;
       c3 += yi * cbrtC[i];
       const row = i * S;
       let acc = 0.5 * Beff[row + i] * yi;
-      for (let j = i + 1; j < S; j++) acc += Beff[row + j] * y[j];
+      let accC = 0;
+      for (let j = i + 1; j < S; j++) {
+        const yj = y[j];
+        acc += Beff[row + j] * yj;
+        accC += yj * (yi * cPairs[row + j] + yj * cPairs[j * S + i]);
+      }
       b += 2 * yi * acc;
+      dc += yi * accC;
     }
-    let c = c3 * c3 * c3;
-    for (let q = 0; q < cPairs.length; q += 3) {
-      const yi = y[cPairs[q]];
-      c += 3 * yi * yi * y[cPairs[q + 1]] * cPairs[q + 2];
-    }
+    const c = c3 * c3 * c3 + dc;
     // Newton on P(rho) at the current composition (quadratic: two steps from a close start)
     let r = rho;
     for (let n = 0; n < 3; n++) {
