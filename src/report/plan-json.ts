@@ -86,7 +86,7 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     third_virial: {
       pure: plan.virial.species.map((k, i) => ({ species: k, C_m6_per_mol2: plan.virial.C[i] })),
       pairs: plan.virial.cPairs.map((p) => ({ twice: plan.virial.species[p.i], once: plan.virial.species[p.j], C_m6_per_mol2: p.value, source: 'coolprop-8-mixture', model: p.model })),
-      rule: 'C_mix = sum y_i y_j y_k C_ijk; untabulated C_ijk = (C_ii C_jj C_kk)^(1/3)',
+      rule: 'C_mix = sum y_i y_j y_k C_ijk; untabulated C_ijk = (C_ii C_jj C_kk)^(1/3); C of polar species and of species without a reference value is 0',
     },
     findings: plan.findings.map((f) => ({ ...f, step: f.step ?? null, message: describeFinding(f, fmt) })),
     caution: STANDING_CAUTION,
