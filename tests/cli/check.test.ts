@@ -52,4 +52,11 @@ describe('mixwright check', () => {
     expect(t.code).toBe(2);
     expect(t.stderr).toContain('--trials');
   });
+
+  it('more trials than memory allows is refused before any work, not an internal error', async () => {
+    const r = await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '99999999999']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/--trials: Monte Carlo trials = 99999999999 is outside the allowed range .* to 10000000/);
+    expect(r.stderr).toContain('(error code: out-of-range)');
+  });
 });

@@ -90,6 +90,25 @@ describe('fuzz: malformed and random inputs', () => {
     );
   });
 
+  it('random options of ready, sheet and check', async () => {
+    const word = fc.oneof(fc.string(), fc.constantFrom('0', '-1', '1e9', 'NaN', 'abc', '99999999999', '1.5', ''));
+    await fc.assert(
+      fc.asyncProperty(
+        fc.record({ height: quantity, days: word, leak: quantity, experiments: word, reactor: fc.constantFrom('ST-A', 'RCM-1', 'nope', ''), rv: quantity, fp: quantity, units: fc.constantFrom('Torr', 'kPa', 'furlong', ''), format: fc.constantFrom('md', 'text', 'html', 'docx', ''), trials: word, seed: word }),
+        async (o) => {
+          judge(await runCli(['ready', 'recipes/ch4-o2-ar-phi1.yaml', '--height', o.height, '--days', o.days, '--experiments', o.experiments, '--units', o.units]), [0, 2, 3]);
+          judge(await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--reactor', o.reactor, '--reactor-volume', o.rv, '--fill-pressure', o.fp]), [0, 2, 3]);
+          const out = mkdtempSync(join(tmpdir(), 'mw-fz-opt-'));
+          const sh = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', o.format, '--units', o.units, '-o', join(out, 's.out')]);
+          judge(sh, [0, 2, 3]);
+          expect(readdirSync(out)).toEqual(sh.code === 2 ? [] : ['s.out']);
+          judge(await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', o.trials, '--seed', o.seed]), [0, 2, 4]);
+        },
+      ),
+      { numRuns: Math.ceil(RUNS / 4) },
+    );
+  });
+
   it('random CSV readings with a recipe: exit 0, 2 or 4', async () => {
     const row = fc.tuple(fc.constantFrom('CH4', 'Ar', 'O2', 'He', 'x', ''), quantity, quantity).map(([s, p, t]) => `${s},${p},${t}`);
     await fc.assert(
