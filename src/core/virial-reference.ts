@@ -77,7 +77,6 @@ interface CrossEntry {
   readonly a: string;
   readonly b: string;
   readonly model: string;
-  readonly B_spread_max: number;
   readonly B: readonly number[];
   readonly C_aab?: readonly number[];
   readonly C_abb?: readonly number[];
@@ -99,15 +98,13 @@ export interface ReferenceCrossB {
   readonly value: number;
   /** the binary mixture model, as the library cites it */
   readonly model: string;
-  /** largest spread of the model's implied B_ab over composition on the table grid, m3/mol */
-  readonly spread: number;
 }
 
 /** Reference cross B_ab, or undefined when the pair is not tabulated or T lies outside 230-480 K. */
 export function referenceCrossB(a: string, b: string, temperatureK: number): ReferenceCrossB | undefined {
   const hit = crossEntry(a, b);
   if (!hit || !inRange(temperatureK)) return undefined;
-  return { value: interpolate(hit.e.B, temperatureK) * 1e-6, model: hit.e.model, spread: hit.e.B_spread_max * 1e-6 };
+  return { value: interpolate(hit.e.B, temperatureK) * 1e-6, model: hit.e.model };
 }
 
 /**
