@@ -21,6 +21,7 @@ export type Finding = Base &
     | { readonly code: 'supply-mismatch'; readonly species: string; readonly design: number; readonly actual: number }
     | { readonly code: 'impurity-present'; readonly species: string; readonly fraction: number }
     | { readonly code: 'virial-correlation'; readonly species: string; readonly method: string }
+    | { readonly code: 'cross-virial-estimate'; readonly pairs: readonly string[]; readonly relative: number; readonly shiftPa: number; readonly bandPa: number }
     | { readonly code: 'ideal-gas-error'; readonly worstPa: number; readonly bandPa: number }
     | { readonly code: 'supply-pressure-low'; readonly source: string; readonly supplyPa: number; readonly targetPa: number }
     | { readonly code: 'tank-rating-unknown'; readonly tank: string }
@@ -91,6 +92,8 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
       return `with the cylinders chosen, ${f.species} can only reach x = ${f.actual.toPrecision(5)} instead of the design ${f.design.toPrecision(5)}; check the cylinders' compositions`;
     case 'impurity-present':
       return `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} from cylinder impurities`;
+    case 'cross-virial-estimate':
+      return `the cross virial coefficients ${f.pairs.join(', ')} come from the combining rules (no reference mixture model qualifies for them); their uncertainty (our estimate: max(4 cm3/mol, 15 %) each, standard) could move this target by about +-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band of +-${p(f.bandPa)}${f.shiftPa * 3 >= f.bandPa ? ' - the target is less certain than its band; check the batch afterwards with mixwright check, or widen the tolerance' : ''}`;
     case 'virial-correlation':
       return `no reference virial coefficient for ${f.species} at this temperature; B from the ${f.method} correlation (less certain)`;
     case 'ideal-gas-error':

@@ -20,7 +20,7 @@ export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from 
 export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole, sizeDifferenceKij } from './virial.js';
 export type { CorrelationConstants } from './virial.js';
 export { referenceB, referenceC, hasReferenceB, referenceCrossB, referenceCrossC, referenceCrossPartners, VIRIAL_TABLE_RANGE_K, VIRIAL_TABLE_LIBRARY, CROSS_TABLE_LIBRARY } from './virial-reference.js';
-export { virialModel, bMix, cMix, pressureFromDensity, densityFromPressure, compressibility } from './mixture-eos.js';
+export { virialModel, bMix, cMix, pressureFromDensity, densityFromPressure, compressibility, VIRIAL_U, virialU } from './mixture-eos.js';
 export type { VirialModel, VirialEntry, VirialMethod, ThirdVirialPair } from './mixture-eos.js';
 export { cpMolar, enthalpyMolar, entropyMolar, gammaMixture, hasThermo, thermoRangeK } from './thermo.js';
 export { nnls } from './nnls.js';
@@ -49,7 +49,7 @@ export { xoshiro128ss } from './prng.js';
 export type { Rng } from './prng.js';
 export { inverseSetup, invertReadings, workspaceFor } from './recheck.js';
 export type { InverseResult, InverseSetup, Perturbation, ReadingInput, Workspace } from './recheck.js';
-export { evaluateUncertainty, MC_STREAMS, monteCarloSamples, numericalTolerance, streamSeed, streamTrials, VIRIAL_U } from './uncertainty.js';
+export { evaluateUncertainty, MC_STREAMS, monteCarloSamples, numericalTolerance, streamSeed, streamTrials } from './uncertainty.js';
 export type { CheckedReading, InputComponent, OutputStat, UncertaintyResult, UncertaintySettings } from './uncertainty.js';
 export { judge } from './verdict.js';
 export type { CheckVerdict, SpeciesDeviation, VerdictKind } from './verdict.js';

@@ -55,6 +55,21 @@ export interface VirialModel {
   readonly entries: readonly VirialEntry[];
 }
 
+/** our estimates of the virial-coefficient standard uncertainty, from the comparisons recorded in DEVELOPERS.md (m3/mol) */
+export const VIRIAL_U = {
+  reference: { absolute: 0.5e-6, relative: 0.01 },
+  correlation: { absolute: 2e-6, relative: 0.05 },
+  cross: { absolute: 4e-6, relative: 0.15 },
+  /** cross B from a tabulated reference mixture model: at least half the largest spread the table admits (3 cm3/mol) */
+  referenceCross: { absolute: 1.5e-6, relative: 0.03 },
+} as const;
+
+/** standard uncertainty of one B entry, m3/mol: max(absolute, relative |B|) of its method's class */
+export function virialU(e: VirialEntry): number {
+  const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : e.method === 'reference-mixture' ? VIRIAL_U.referenceCross : VIRIAL_U.cross;
+  return Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
+}
+
 /** Build the B matrix and pure C values of a set of species at one temperature. */
 export function virialModel(speciesKeys: readonly string[], temperatureK: number): VirialModel {
   const records = speciesKeys.map((k) => getSpecies(k));

@@ -11,7 +11,7 @@
 import { R } from './constants.js';
 import type { Design, Fractions } from './composition.js';
 import { allocate, type GasSource } from './supply.js';
-import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, virialModel, type VirialModel } from './mixture-eos.js';
+import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, virialModel, virialU, type VirialModel } from './mixture-eos.js';
 import { chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, type Gauge, type ReadingContext } from './gauges.js';
 import { getSpecies } from './lookup.js';
 import { molarMassKgPerMol } from './formula.js';
@@ -355,6 +355,13 @@ export function planFill(input: PlanInput): Plan {
   for (const e of model.entries) {
     if (e.i === e.j && e.method !== 'reference') findings.push({ severity: 'note', code: 'virial-correlation', species: e.i, method: e.method === 'tsonopoulos-quantum' ? 'Tsonopoulos (effective quantum-gas constants)' : 'Tsonopoulos' });
   }
+  // how far the combining-rule cross coefficients could move the targets: rho dB at the fill where it is
+  // largest, dB = sqrt(sum (2 y_i y_j u_ij)^2) over the pairs of species at 1e-4 or more
+  const crossShift = crossVirialShift(model, steps, T);
+  // a warning when it reaches a third of the band (the rule of gauge-coarser-than-band), else a note
+  if (crossShift && crossShift.relative > CROSS_NOTE_RELATIVE) {
+    findings.push({ severity: crossShift.shiftPa * 3 >= crossShift.bandPa ? 'warning' : 'note', code: 'cross-virial-estimate', ...crossShift });
+  }
   let worst = 0;
   let worstBand = Infinity;
   for (const s of steps) {
@@ -390,4 +397,28 @@ export function planFill(input: PlanInput): Plan {
     findings,
     tolerance: tol,
   };
+}
+
+/** a note is due when the combining-rule cross coefficients could move a target by more than this (relative) */
+const CROSS_NOTE_RELATIVE = 1e-4;
+
+function crossVirialShift(model: VirialModel, steps: readonly PlanStep[], temperatureK: number): { step: number; pairs: string[]; relative: number; shiftPa: number; bandPa: number } | undefined {
+  let best: { step: number; pairs: string[]; relative: number; shiftPa: number; bandPa: number } | undefined;
+  for (const s of steps) {
+    const y = s.compositionAfter;
+    const rho = s.targetPa / (s.compressibilityAfter * R * temperatureK);
+    let v = 0;
+    const pairs: string[] = [];
+    for (const e of model.entries) {
+      if (e.i === e.j || e.method !== 'combining-rule') continue;
+      const yi = y[e.i] ?? 0;
+      const yj = y[e.j] ?? 0;
+      if (yi < 1e-4 || yj < 1e-4) continue;
+      v += (2 * yi * yj * virialU(e)) ** 2;
+      pairs.push(`${e.i}-${e.j}`);
+    }
+    const relative = rho * Math.sqrt(v);
+    if (pairs.length && (!best || relative > best.relative)) best = { step: s.index, pairs, relative, shiftPa: relative * s.targetPa, bandPa: s.bandPa };
+  }
+  return best;
 }

@@ -18,6 +18,7 @@
 import { gaugeReadingPa, type Gauge } from './gauges.js';
 import type { GasSource } from './supply.js';
 import { inverseSetup, invertReadings, workspaceFor, type InverseSetup } from './recheck.js';
+import { virialU } from './mixture-eos.js';
 import { speciesRole, type Fractions } from './composition.js';
 import { oxygenDemand } from './formula.js';
 import { getSpecies } from './lookup.js';
@@ -56,14 +57,6 @@ export interface InputComponent {
   readonly unit: string;
 }
 
-/** our estimates of the virial-coefficient uncertainty, from the comparisons recorded in DEVELOPERS.md */
-export const VIRIAL_U = {
-  reference: { absolute: 0.5e-6, relative: 0.01 },
-  correlation: { absolute: 2e-6, relative: 0.05 },
-  cross: { absolute: 4e-6, relative: 0.15 },
-  /** cross B from a tabulated reference mixture model: at least half the largest spread the table admits (3 cm3/mol) */
-  referenceCross: { absolute: 1.5e-6, relative: 0.03 },
-} as const;
 
 export interface OutputStat {
   readonly value: number;
@@ -127,8 +120,7 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
     if (!major.has(e.i) || !major.has(e.j)) continue;
     const i = setup.species.indexOf(e.i);
     const j = setup.species.indexOf(e.j);
-    const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : e.method === 'reference-mixture' ? VIRIAL_U.referenceCross : VIRIAL_U.cross;
-    const u = Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
+    const u = virialU(e);
     bIdx.push({ i, j, c: add(`B ${e.i}-${e.j}`, 'normal', u, 'm3/mol') });
   }
   // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular

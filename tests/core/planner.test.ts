@@ -73,6 +73,40 @@ describe('fill plan against outside references', () => {
   }
 });
 
+describe('cross coefficients by combining rule: how far they could move a target', () => {
+  // the estimate is ours (VIRIAL_U.cross, max(4 cm3/mol, 15 %) standard, DEVELOPERS.md); checked here is its
+  // arithmetic, rho * 2 x1 x2 u for a binary, and that pairs from reference mixture models do not count
+  it('He/Ar 50/50 at 10 bar, 300 K: rho_f * 2 (0.5)(0.5) * 4 cm3/mol relative, within 1e-9 of that; a note (under a third of the wide band)', () => {
+    const plan = planFill(pureInput({ He: 0.5, Ar: 0.5 }, ['He', 'Ar'], 300, 10e5));
+    const f = plan.findings.find((x) => x.code === 'cross-virial-estimate');
+    expect(f && f.code === 'cross-virial-estimate' ? f.pairs : []).toEqual(['He-Ar']);
+    if (!f || f.code !== 'cross-virial-estimate') return;
+    expect(f.step).toBe(2);
+    expect(Math.abs(f.relative / (plan.final.densityMolPerM3 * 2 * 0.25 * 4e-6) - 1)).toBeLessThan(1e-9);
+    expect(f.severity).toBe('note');
+    expect(f.shiftPa * 3).toBeLessThan(f.bandPa);
+  });
+
+  it('1 % CH4, 2 % O2 in He/Ar at 10 bar: the narrow band of the small fractions makes it a warning, with the He pairs named', () => {
+    const plan = planFill(pureInput({ CH4: 0.01, O2: 0.02, He: 0.3, Ar: 0.67 }, ['CH4', 'He', 'Ar', 'O2'], 298.15, 10e5));
+    const f = plan.findings.find((x) => x.code === 'cross-virial-estimate');
+    if (!f || f.code !== 'cross-virial-estimate') throw new Error('no cross-virial-estimate finding');
+    expect(f.severity).toBe('warning');
+    expect(f.shiftPa * 3).toBeGreaterThanOrEqual(f.bandPa);
+    expect(f.pairs.every((x) => x.includes('He'))).toBe(true);
+  });
+
+  it('CH4/O2/Ar (every pair from a reference mixture model) gets no such finding at 10 bar', () => {
+    const plan = planFill(pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'Ar', 'O2'], 300, 10e5));
+    expect(plan.findings.some((x) => x.code === 'cross-virial-estimate')).toBe(false);
+  });
+
+  it('below 1e-4 relative there is no finding (He/Ar 50/50 at 0.1 bar)', () => {
+    const plan = planFill(pureInput({ He: 0.5, Ar: 0.5 }, ['He', 'Ar'], 300, 1e4));
+    expect(plan.findings.some((x) => x.code === 'cross-virial-estimate')).toBe(false);
+  });
+});
+
 describe('plan invariants', () => {
   it('property: cumulative targets strictly increase and end at the final pressure; increments are positive', () => {
     fc.assert(
