@@ -32,7 +32,7 @@ export interface RecordRow {
   pairs_not_from_reference: string[];
 }
 
-const leftOut = crossTable.left_out as Record<string, { reason: string }>;
+const leftOut = crossTable.left_out as Record<string, { kind: 'unfitted' | 'not-virial' }>;
 
 function pairsNotFromReference(c: GridCase): string[] {
   const keys = Object.keys(c.composition).filter((k) => c.composition[k] >= 0.01);
@@ -41,7 +41,7 @@ function pairsNotFromReference(c: GridCase): string[] {
     .filter((e) => e.i !== e.j && e.method === 'combining-rule')
     .map((e) => {
       const why = leftOut[`${e.i}|${e.j}`] ?? leftOut[`${e.j}|${e.i}`];
-      const reason = !why ? 'no binary model in the library' : why.reason.startsWith('default') ? 'unfitted in the library' : 'library model not virial-consistent';
+      const reason = !why ? 'no binary model in the library' : why.kind === 'unfitted' ? 'unfitted in the library' : 'library model not virial-consistent';
       return `${e.i}-${e.j}: ${reason}`;
     });
 }

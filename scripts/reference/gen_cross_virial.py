@@ -129,11 +129,11 @@ for a, b in itertools.combinations(FLUIDS, 2):
     fparam = pair_param(p, q, "F")
     key = f"{a}|{b}"
     if all(v is not None and float(v) == 1.0 for v in params) and (fparam is None or float(fparam) == 0.0):
-        out["left_out"][key] = {"model": model, "reason": "default (unfitted) binary parameters"}
+        out["left_out"][key] = {"model": model, "kind": "unfitted", "reason": "default (unfitted) binary parameters"}
         continue
     b_ok, c_ok, Bs, Caab, Cabb, worst_b, worst_c, floor_z = analyse(a, b)
     if not b_ok:
-        out["left_out"][key] = {"model": model, "reason": f"zero-density B not quadratic in composition: implied B_ab spreads up to {worst_b:.1f} cm3/mol",
+        out["left_out"][key] = {"model": model, "kind": "not-virial", "reason": f"zero-density B not quadratic in composition: implied B_ab spreads up to {worst_b:.1f} cm3/mol",
                                 "least_Z_error_10bar": float(f"{floor_z:.3g}")}
         continue
     entry = {"a": a, "b": b, "model": model, "B_spread_max": round(worst_b, 2), "B": Bs}

@@ -111,13 +111,12 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
   }
   // C enters only for non-polar species: the polar ones (H2O, NH3, alcohols, DME) have zero-density C
   // of order -1e6 cm6/mol2, which the cube-root rule would spread over the whole mixture
-  const nonpolar = records.map((r) => r.polarClass === 'nonpolar');
-  const C = records.map((r, i) => (nonpolar[i] ? (referenceC(r.key, temperatureK) ?? 0) : 0));
+  const C = records.map((r) => (r.polarClass === 'nonpolar' ? (referenceC(r.key, temperatureK) ?? 0) : 0));
   const cPairs: ThirdVirialPair[] = [];
   for (let i = 0; i < n; i++) {
     for (let j = i + 1; j < n; j++) {
-      // a pair C only where both pure C are tabulated, so that the cube-root rest is consistent
-      if (!nonpolar[i] || !nonpolar[j] || C[i] === 0 || C[j] === 0) continue;
+      // a pair C only where both pure C are in use (non-polar, tabulated), so that the cube-root rest is consistent
+      if (C[i] === 0 || C[j] === 0) continue;
       const ref = referenceCrossC(records[i].key, records[j].key, temperatureK);
       if (!ref) continue;
       const ci = Math.cbrt(C[i]);

@@ -1,5 +1,5 @@
 /** mixwright species: the data browser, every value with its unit and source. */
-import { getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
+import { getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, VIRIAL_TABLE_RANGE_K, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
 import { fixedSig, padTable } from './format.js';
 
 /** the units the tables are usually read in (SI inside) */
@@ -67,7 +67,7 @@ export function speciesDetail(name: string, temperatureK: number): string {
   out.push('');
   if (partners.length) {
     const names = partners.map((p) => `${p.species}${p.withC ? '' : ' (B only)'}`).join(', ');
-    out.push(`Cross virial coefficients B and C from reference mixture models (coolprop-8-mixture, 230-480 K) with: ${names}. With every other species: Prausnitz combining rules (prausnitz-1999).`);
+    out.push(`Cross virial coefficients B and C from reference mixture models (coolprop-8-mixture, ${VIRIAL_TABLE_RANGE_K.min}-${VIRIAL_TABLE_RANGE_K.max} K) with: ${names}. With every other species: Prausnitz combining rules (prausnitz-1999).`);
     cited.add('coolprop-8-mixture');
   } else {
     out.push('Cross virial coefficients with every other species: Prausnitz combining rules (prausnitz-1999); no reference mixture model qualifies for this species.');
