@@ -7,7 +7,13 @@
  *     (Zabetakis 1965; Crowl & Louvar 2001);
  *  2. the calculated adiabatic flame temperature: complete combustion, NASA data; a
  *     state is flammable when its flame temperature reaches the limit flame
- *     temperature of its fuel, calibrated on the fuel's LFL in air.
+ *     temperature of its fuel. The side of stoichiometric decides the calibration:
+ *     lean states (equivalence ratio <= 1) against the flame temperature at the LFL in
+ *     air; rich states against a threshold that rises from it at stoichiometric to the
+ *     flame temperature at the published UFL (in air, and in O2 where it is on file,
+ *     interpolated with the oxygen share of the oxidizer). A fuel without a finite UFL
+ *     (acetylene: 100 %) has no rich calibration; its rich states are judged by the
+ *     envelope alone.
  */
 import { FUEL_SAFETY, INERT_K, INERT_K_FALLBACK, MARGINS } from './data/safety-data.js';
 import { getSpecies } from './lookup.js';
@@ -158,21 +164,64 @@ export function diagramPoint(y: Fractions): { point: DiagramPoint; fuelBlend: Re
   return { point: { fuel: f / s, oxygen: o / s, inert: n / s }, fuelBlend, unknownInerts };
 }
 
-/** the envelope polygon in (fuel, oxygen) coordinates */
+/** vertices closer than this (mole fraction) are one vertex */
+const VERTEX_EPS = 1e-12;
+
+/**
+ * The envelope polygon in (fuel, oxygen) coordinates, without repeated vertices:
+ * a LOC of 0 puts the nose on the fuel axis, and a UFL of 100 % in air and in O2 (acetylene)
+ * puts both UFL vertices on the fuel corner (1, 0); equal neighbours are merged so that no
+ * edge has zero length.
+ */
 export function envelopePolygon(l: BlendLimits): [number, number][] {
   const noseFuel = l.z > 0 ? Math.max(l.lfl, l.loc / l.z) : l.lfl;
-  return [
+  const raw: [number, number][] = [
     [l.lfl, 1 - l.lfl], // LFL in O2 (about the LFL in air)
     [l.lfl, AIR_O2 * (1 - l.lfl)], // LFL in air
     [Math.min(noseFuel, l.ufl), Math.min(l.loc, AIR_O2 * (1 - l.lfl))], // nose at the LOC
     [l.ufl, AIR_O2 * (1 - l.ufl)], // UFL in air
     [l.uflO2, 1 - l.uflO2], // UFL in O2
   ];
+  const same = (a: [number, number], b: [number, number]) => Math.hypot(a[0] - b[0], a[1] - b[1]) < VERTEX_EPS;
+  const out: [number, number][] = [];
+  for (const v of raw) if (!out.length || !same(out[out.length - 1], v)) out.push(v);
+  while (out.length > 1 && same(out[0], out[out.length - 1])) out.pop();
+  return out;
+}
+
+/**
+ * The UFL at a state's oxygen share r = O2 / (O2 + N2-equivalent inert): where the line
+ * from the fuel corner through the state meets the rich edge of the envelope (nose ->
+ * UFL in air -> UFL in O2). r = 0.21 gives the UFL in air, r = 1 the UFL in O2; below the
+ * nose's share the line misses the envelope and the result is undefined.
+ */
+export function uflAtOxygenShare(l: BlendLimits, r: number): number | undefined {
+  const noseFuel = l.z > 0 ? Math.max(l.lfl, l.loc / l.z) : l.lfl;
+  const chain: [number, number][] = [
+    [Math.min(noseFuel, l.ufl), Math.min(l.loc, AIR_O2 * (1 - l.lfl))],
+    [l.ufl, AIR_O2 * (1 - l.ufl)],
+    [l.uflO2, 1 - l.uflO2],
+  ];
+  let best: number | undefined;
+  for (let i = 0; i + 1 < chain.length; i++) {
+    const [a, b] = [chain[i], chain[i + 1]];
+    // g(t) = o(t) - r (1 - u(t)), linear in t
+    const g0 = a[1] - r * (1 - a[0]);
+    const g1 = b[1] - r * (1 - b[0]);
+    if (g0 === g1) continue;
+    const t = g0 / (g0 - g1);
+    if (t < -1e-12 || t > 1 + 1e-12) continue;
+    const u = a[0] + t * (b[0] - a[0]);
+    if (best === undefined || u > best) best = u;
+  }
+  return best;
 }
 
 function onSegment(p: [number, number], a: [number, number], b: [number, number]): boolean {
-  const cross = (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0]);
   const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  // a zero-length edge (two equal vertices) holds only its own point
+  if (len < VERTEX_EPS) return Math.hypot(p[0] - a[0], p[1] - a[1]) < VERTEX_EPS;
+  const cross = (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0]);
   if (Math.abs(cross) > 1e-9 * Math.max(len, 1e-12)) return false;
   const dot = (p[0] - a[0]) * (b[0] - a[0]) + (p[1] - a[1]) * (b[1] - a[1]);
   return dot >= -1e-12 && dot <= len * len + 1e-12;
@@ -190,6 +239,23 @@ export function insidePolygon(p: [number, number], poly: [number, number][]): bo
   return inside;
 }
 
+/** how far a state lies from the flammable region, in the terms of each limit */
+export interface FlammabilityDistance {
+  /** equivalence ratio on the diagram: z x fuel / O2 (O2 carriers as their O2 equivalent) */
+  readonly equivalenceRatio: number;
+  readonly side: 'lean' | 'rich';
+  /** fuel / LFL of the blend */
+  readonly fuelOverLfl: number;
+  /** O2 on the diagram / LOC; undefined when the LOC is 0 */
+  readonly oxygenOverLoc?: number;
+  /** O2 share of the oxidizer side, O2 / (O2 + N2-equivalent inert): 0.21 in air, 1 in O2 */
+  readonly oxygenShare: number;
+  /** the envelope's UFL at this oxygen share; undefined below the nose */
+  readonly uflHere?: number;
+  /** fuel / uflHere */
+  readonly fuelOverUfl?: number;
+}
+
 export interface FlammabilityAssessment {
   readonly verdict: Verdict;
   readonly byEnvelope: Verdict;
@@ -197,7 +263,11 @@ export interface FlammabilityAssessment {
   readonly point: DiagramPoint;
   readonly limits?: BlendLimits;
   readonly flameK?: number;
+  /** the limit flame temperature this state was judged against (lean or rich calibration) */
   readonly limitFlameK?: number;
+  /** set on rich states: which calibration the flame-temperature method used */
+  readonly richCalibration?: 'ufl-air' | 'ufl-air-and-o2' | 'none';
+  readonly distance?: FlammabilityDistance;
   readonly unknownInerts: readonly string[];
 }
 
@@ -218,6 +288,55 @@ export function limitFlameTemperatureK(fuel: string): number | undefined {
   return t;
 }
 
+/** the rich-side calibration of one fuel: flame temperature and equivalence ratio at its UFL */
+export interface RichCalibration {
+  /** at the highest listed UFL in air */
+  readonly air: { readonly flameK: number; readonly phi: number; readonly ufl: number };
+  /** at the UFL in O2, where one is on file */
+  readonly oxygen?: { readonly flameK: number; readonly phi: number; readonly ufl: number };
+}
+
+const richCache = new Map<string, RichCalibration | null>();
+
+/**
+ * Rich-limit calibration of a fuel: the complete-combustion flame temperature (excess fuel
+ * unburnt, from 298.15 K) of its highest listed UFL in air, and of its UFL in O2 where one is
+ * on file; undefined when the UFL in air is 100 % (no rich limit: acetylene).
+ * Example: CH4, UFL 17 % in air (IEC 60079-20-1) -> about 2040 K at phi 1.95.
+ */
+export function richLimitCalibration(fuel: string): RichCalibration | undefined {
+  const cached = richCache.get(fuel);
+  if (cached !== undefined) return cached ?? undefined;
+  const rec = FUEL_SAFETY.get(fuel);
+  let out: RichCalibration | undefined;
+  if (rec) {
+    const z = oxygenDemand(getSpecies(fuel).elements);
+    const U = Math.max(...rec.uflAir.map((v) => v.value));
+    if (U < 1) {
+      const air = { flameK: flameTemperatureK({ [fuel]: U, O2: AIR_O2 * (1 - U), N2: (1 - AIR_O2) * (1 - U) }, 298.15), phi: (z * U) / (AIR_O2 * (1 - U)), ufl: U };
+      const UO = rec.uflO2?.value;
+      const oxygen = UO !== undefined && UO < 1 && UO > U ? { flameK: flameTemperatureK({ [fuel]: UO, O2: 1 - UO }, 298.15), phi: (z * UO) / (1 - UO), ufl: UO } : undefined;
+      out = { air, oxygen };
+    }
+  }
+  richCache.set(fuel, out ?? null);
+  return out;
+}
+
+/**
+ * The rich-side limit flame temperature of one fuel at equivalence ratio phi > 1 and oxygen
+ * share r: the calibration at the UFL (air at r <= 0.21, interpolated linearly in r up to the
+ * O2 calibration at r = 1), reached by a linear ramp in phi from the lean limit temperature at
+ * phi = 1 (near stoichiometric the limit is the lean one: the nose of the envelope at the LOC).
+ */
+function richThresholdK(c: RichCalibration, leanK: number, phi: number, r: number): number {
+  const s = c.oxygen ? Math.min(1, Math.max(0, (r - AIR_O2) / (1 - AIR_O2))) : 0;
+  const richK = c.oxygen ? c.air.flameK + s * (c.oxygen.flameK - c.air.flameK) : c.air.flameK;
+  const phiU = c.oxygen ? c.air.phi + s * (c.oxygen.phi - c.air.phi) : c.air.phi;
+  if (phiU <= 1 || phi >= phiU) return richK;
+  return leanK + ((richK - leanK) * (phi - 1)) / (phiU - 1);
+}
+
 /** flame-temperature margin for "near the limit": 60 % of the limit temperature rise (the same share as the LFL margin) */
 const FLAME_MARGIN = MARGINS.lflFraction;
 
@@ -228,6 +347,20 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
     return { verdict: 'non-flammable', byEnvelope: 'non-flammable', byFlameTemperature: 'non-flammable', point, unknownInerts };
   }
   const limits = blendLimits(fuelBlend, temperatureK, pressurePa);
+  // which side of stoichiometric, and how far from each limit
+  const phi = (limits.z * point.fuel) / point.oxygen;
+  const side: 'lean' | 'rich' = phi > 1 ? 'rich' : 'lean';
+  const oxygenShare = point.oxygen / (point.oxygen + point.inert);
+  const uflHere = uflAtOxygenShare(limits, oxygenShare);
+  const distance: FlammabilityDistance = {
+    equivalenceRatio: phi,
+    side,
+    fuelOverLfl: point.fuel / limits.lfl,
+    oxygenOverLoc: limits.loc > 0 ? point.oxygen / limits.loc : undefined,
+    oxygenShare,
+    uflHere,
+    fuelOverUfl: uflHere !== undefined ? point.fuel / uflHere : undefined,
+  };
   // envelope
   let byEnvelope: Verdict = 'non-flammable';
   const poly = envelopePolygon(limits);
@@ -239,12 +372,27 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
   // flame temperature; the limit of a blend is the fuel-weighted mean of its fuels' limits
   let limitFlameK = 0;
   let wsum = 0;
-  for (const [k, w] of Object.entries(fuelBlend)) {
-    const t = limitFlameTemperatureK(k);
-    if (t !== undefined) {
-      limitFlameK += w * t;
+  let richCalibration: FlammabilityAssessment['richCalibration'];
+  if (side === 'lean') {
+    for (const [k, w] of Object.entries(fuelBlend)) {
+      const t = limitFlameTemperatureK(k);
+      if (t !== undefined) {
+        limitFlameK += w * t;
+        wsum += w;
+      }
+    }
+  } else {
+    // rich: only fuels whose rich limit is calibrated on a UFL below 100 % count
+    let withO2 = false;
+    for (const [k, w] of Object.entries(fuelBlend)) {
+      const lean = limitFlameTemperatureK(k);
+      const c = richLimitCalibration(k);
+      if (lean === undefined || !c) continue;
+      if (c.oxygen) withO2 = true;
+      limitFlameK += w * richThresholdK(c, lean, phi, oxygenShare);
       wsum += w;
     }
+    richCalibration = wsum > 0 ? (withO2 ? 'ufl-air-and-o2' : 'ufl-air') : 'none';
   }
   let byFlameTemperature: Verdict = 'non-flammable';
   let flameK: number | undefined;
@@ -257,5 +405,16 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
   // a fuel without limit data cannot be judged non-flammable
   let verdict = worseVerdict(byEnvelope, byFlameTemperature);
   if (limits.missing.length && verdict === 'non-flammable') verdict = 'near-limit';
-  return { verdict, byEnvelope, byFlameTemperature, point, limits, flameK, limitFlameK: wsum > 0 ? limitFlameK : undefined, unknownInerts };
+  return {
+    verdict,
+    byEnvelope,
+    byFlameTemperature,
+    point,
+    limits,
+    flameK,
+    limitFlameK: wsum > 0 ? limitFlameK : undefined,
+    richCalibration,
+    distance,
+    unknownInerts,
+  };
 }
