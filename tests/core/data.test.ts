@@ -97,6 +97,7 @@ describe('safety, vapour and transport tables: integrity', () => {
       }
       expect(Math.min(...r.lflAir.map((v) => v.value))).toBeLessThan(Math.max(...r.uflAir.map((v) => v.value)));
       if (r.ait) expect(r.ait.value).toBeGreaterThan(400);
+      for (const v of r.aitListed ?? []) expect(S.has(v.source), `${k} ${v.source}`).toBe(true);
     }
     // every fuel of the species table has limits on file
     for (const sp of SPECIES.values()) if (oxygenDemand(sp.elements) > 0) expect(FUEL_SAFETY.has(sp.key), sp.key).toBe(true);
@@ -116,5 +117,14 @@ describe('safety, vapour and transport tables: integrity', () => {
     expect(ANTOINE.size).toBe(11);
     expect(LENNARD_JONES.size).toBe(29);
     expect(FULLER_VOLUMES.size).toBe(30);
+  });
+
+  it('fingerprint of the fire data: every limit, AIT and source key (an accidental edit fails here; update deliberately)', async () => {
+    const { FUEL_SAFETY } = await import('../../src/core/index.js');
+    const f = (v?: { value: number; source: string }) => (v ? `${v.value}@${v.source}` : '-');
+    const text = [...FUEL_SAFETY.values()]
+      .map((r) => [r.key, r.lflAir.map(f).join(','), r.uflAir.map(f).join(','), f(r.uflO2), f(r.loc), f(r.ait), (r.aitListed ?? []).map(f).join(',')].join('|'))
+      .join('\n');
+    expect(createHash('sha256').update(text).digest('hex').slice(0, 16)).toMatchInlineSnapshot(`"126ca59f166598e6"`);
   });
 });

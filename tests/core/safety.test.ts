@@ -36,10 +36,24 @@ describe('flammability data', () => {
       }
     }
   });
-  it('NFPA 497 autoignition temperatures, ISO 10156 K coefficients and ASTM E2079 LOCs as in properties.md', () => {
-    for (const [k, t] of Object.entries(limits.ait_K as Record<string, number>)) expect(FUEL_SAFETY.get(k)!.ait!.value).toBe(t);
+  it('autoignition temperatures are the NFPA 497 and IEC 60079-20-1 table values (exactly), the lower of the two used; ISO 10156 K coefficients and ASTM E2079 LOCs as in properties.md', () => {
+    const nfpa = limits.ait_nfpa497_K as Record<string, number>;
+    const iec = limits.ait_iec60079_K as Record<string, number>;
+    for (const [k, rec] of FUEL_SAFETY) {
+      const listed = [nfpa[k], iec[k]].filter((v) => v !== undefined);
+      expect(listed.length, `${k} has a published AIT`).toBeGreaterThan(0);
+      expect(rec.aitListed!.map((v) => v.value).sort()).toEqual([...listed].sort());
+      expect(rec.ait!.value, k).toBe(Math.min(...listed));
+      expect(['nfpa-497-2008', 'iec-60079-20-1-2010']).toContain(rec.ait!.source);
+    }
+    expect(FUEL_SAFETY.get('CH3OCH3')!.ait!.value).toBe(513.15); // IEC lists 240 degC, NFPA 350 degC: the lower is used
     for (const [k, v] of Object.entries(limits.iso10156_K as Record<string, number>)) expect(INERT_K.get(k)!.value).toBe(v);
     for (const [k, v] of Object.entries(limits.astm_e2079_loc_pct as Record<string, number>)) expect(FUEL_SAFETY.get(k)!.loc!.value).toBeCloseTo(v / 100, 12);
+  });
+  it('UFL in O2 of H2 and CH4 are Coward & Jones (USBM Bulletin 503) values: CH4 60.5 % (upward, 2-inch tube), H2 95.8 % (the widest, closed tubes)', () => {
+    const cj = limits.coward_jones_o2_pct;
+    expect(FUEL_SAFETY.get('CH4')!.uflO2).toEqual({ value: cj.CH4.upward_open_tube[1] / 100, source: 'coward-jones-1952' });
+    expect(FUEL_SAFETY.get('H2')!.uflO2).toEqual({ value: cj.H2.closed_tubes[1] / 100, source: 'coward-jones-1952' });
   });
   it('Le Chatelier: the textbook blend 0.8 % hexane, 2.0 % methane, 0.5 % ethylene (Crowl & Louvar, from memory) gives LFL 2.5 % and UFL 13 % (within half the last digit)', () => {
     const parts = (l: [number, number, number]) => [0.8, 2.0, 0.5].map((f, i) => ({ fraction: f, limit: l[i] }));

@@ -116,17 +116,34 @@ const list: readonly Source[] = [
     citation:
       'NFPA 497, Recommended Practice for the Classification of Flammable Liquids, Gases, or Vapors (2008), flammability limits and autoignition temperatures, as tabulated in the chemicals data library (Safety tables)',
     quality: 'standard',
+    detail: 'read in chemicals/Safety/NFPA 497 2008.tsv (LFL, UFL, T_autoignition in K)',
   },
   {
     key: 'iec-60079-20-1-2010',
     citation:
       'IEC 60079-20-1:2010, Explosive atmospheres - Material characteristics for gas and vapour classification, as tabulated in the chemicals data library',
     quality: 'standard',
+    detail: 'read in chemicals/Safety/IS IEC 60079-20-1 2010.tsv (LFL, UFL, T_autoignition in K)',
+  },
+  {
+    key: 'coward-jones-1952',
+    citation:
+      'H.F. Coward, G.W. Jones, Limits of Flammability of Gases and Vapors, US Bureau of Mines Bulletin 503 (1952): p. 19 hydrogen in oxygen (4.65-93.90 % upward in a 2-inch tube open at the firing end; 3.9-95.8 % in closed tubes), p. 44 methane in oxygen (5.15-60.5 %, upward, 2-inch tube)',
+    quality: 'experimental-review',
+    detail: 'read as quoted from the Bulletin\'s pages in a stored public transcription (page images of the Caltech Explosion Dynamics Laboratory copy)',
+  },
+  {
+    key: 'zabetakis-1965',
+    citation:
+      'M.G. Zabetakis, Flammability Characteristics of Combustible Gases and Vapors, US Bureau of Mines Bulletin 627 (1965): "Limits in other atmospheres" - the lower limit in oxygen is essentially that in air; methane 5.0-15.0 % and hydrogen 4.0-75 % in air (Table 2)',
+    quality: 'experimental-review',
+    detail: 'statements read in a stored public summary of the Bulletin, not in the scanned tables',
   },
   {
     key: 'zabetakis-1965-memory',
     citation: 'M.G. Zabetakis, Flammability Characteristics of Combustible Gases and Vapors, US Bureau of Mines Bulletin 627 (1965), limits in oxygen (values recalled, not read in a stored copy)',
     quality: 'from-memory',
+    detail: 'CO 94 %, C2H6 66 %, C2H4 80 %, C3H8 55 %, C3H6 53 %, n-C4H10 49 %, NH3 79 %; a retrieved web glossary lists H2 94, CO 94, CH4 61, mislabelled there as limits in air (not counted as a source)',
   },
   {
     key: 'astm-e2079-19',
@@ -149,11 +166,6 @@ const list: readonly Source[] = [
     key: 'iso-10156-2017',
     citation: 'ISO 10156:2017, Gas cylinders - Gases and gas mixtures - Determination of fire potential and oxidizing ability, nitrogen-equivalence coefficients K of inert gases',
     quality: 'standard',
-  },
-  {
-    key: 'ait-memory',
-    citation: 'Autoignition temperature recalled from NFPA 497 / handbook tables (not read in a stored copy)',
-    quality: 'from-memory',
   },
   {
     key: 'poling-2001-antoine',
