@@ -57,6 +57,18 @@ export interface FlammabilityNumbers {
   readonly flameK?: number;
   readonly limitFlameK?: number;
   readonly pressurePa: number;
+  /** how far the state is from the flammable region (set by the state review) */
+  readonly side?: 'lean' | 'rich';
+  readonly equivalenceRatio?: number;
+  /** fuel / LFL on the diagram */
+  readonly fuelOverLfl?: number;
+  /** O2 / LOC on the diagram; undefined when the LOC is 0 */
+  readonly oxygenOverLoc?: number;
+  /** the envelope's UFL at the state's O2 share (O2 / (O2 + inert)) */
+  readonly uflHere?: number;
+  readonly fuelOverUfl?: number;
+  /** true when the verdict was raised to near-limit only because a fuel has no limits on file */
+  readonly missingData?: boolean;
 }
 
 export type FindingCode = Finding['code'];
@@ -76,6 +88,26 @@ function flammabilityDetail(f: FlammabilityNumbers): string {
   if (f.loc !== undefined) parts.push(`LOC ${pct(f.loc)}`);
   if (f.flameK !== undefined && f.limitFlameK !== undefined) parts.push(`flame ${f.flameK.toFixed(0)} K vs limit ${f.limitFlameK.toFixed(0)} K`);
   return `${parts.join('; ')}; by ${f.method}`;
+}
+
+const times = (x: number) => `${x.toFixed(2)} x`;
+
+/**
+ * What keeps a near-limit state out of the flammable region, in the terms of each limit:
+ * "fuel at 0.68 x LFL (3.00 % against 4.40 %)", "O2 at 0.75 x LOC", "fuel at 1.18 x the UFL
+ * at this O2 share". Only the limits the state is outside of are named.
+ */
+function nearLimitDistance(f: FlammabilityNumbers): string {
+  const parts: string[] = [];
+  if (f.fuelOverLfl !== undefined && f.lfl !== undefined && f.fuelOverLfl < 1) parts.push(`fuel at ${times(f.fuelOverLfl)} LFL (${pct(f.fuelFraction)} against ${pct(f.lfl)})`);
+  if (f.oxygenOverLoc !== undefined && f.loc !== undefined && f.oxygenOverLoc < 1) parts.push(`O2 at ${times(f.oxygenOverLoc)} LOC (${pct(f.oxygenFraction)} against ${pct(f.loc)})`);
+  if (f.side === 'rich' && f.fuelOverUfl !== undefined && f.uflHere !== undefined && f.fuelOverUfl > 1) parts.push(`fuel at ${times(f.fuelOverUfl)} the UFL at this O2 share (${pct(f.fuelFraction)} against ${pct(f.uflHere)}): too rich to burn, but air or O2 let in would bring it into the region`);
+  if (f.flameK !== undefined && f.limitFlameK !== undefined && f.flameK < f.limitFlameK && (parts.length === 0 || f.method !== 'envelope')) {
+    parts.push(`flame ${f.flameK.toFixed(0)} K against a limit of ${f.limitFlameK.toFixed(0)} K (complete combustion)`);
+  }
+  if (f.missingData) parts.push('no flammability limits on file for a fuel it holds, so it cannot be judged non-flammable');
+  if (!parts.length) parts.push('outside the envelope between its corners, within the margins of the LFL and the LOC');
+  return parts.join('; ');
 }
 
 export function describeFinding(f: Finding, p: PressureFormatter): string {
@@ -111,7 +143,7 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'flammable-mixture':
       return `the finished batch is flammable (${flammabilityDetail(f)}): store and handle it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`;
     case 'near-flammable':
-      return `this state is outside the flammable region but within the safety margin of it (${flammabilityDetail(f)}); a small fill error or a wrong gas could make it flammable`;
+      return `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} (N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong gas could make it flammable`;
     case 'detonable-state':
       return `fuel and oxidizer with only ${pct(f.inertFraction)} N2-equivalent inert at ${p(f.pressurePa)}: such mixtures can detonate, and a reflected detonation exceeds the closed-vessel pressure several times - add the bath gas before the oxidizer, or do not make this state`;
     case 'closed-vessel-pressure':

@@ -7,13 +7,14 @@
  *     (Zabetakis 1965; Crowl & Louvar 2001);
  *  2. the calculated adiabatic flame temperature: complete combustion, NASA data; a
  *     state is flammable when its flame temperature reaches the limit flame
- *     temperature of its fuel. The side of stoichiometric decides the calibration:
- *     lean states (equivalence ratio <= 1) against the flame temperature at the LFL in
- *     air; rich states against a threshold that rises from it at stoichiometric to the
- *     flame temperature at the published UFL (in air, and in O2 where it is on file,
- *     interpolated with the oxygen share of the oxidizer). A fuel without a finite UFL
- *     (acetylene: 100 %) has no rich calibration; its rich states are judged by the
- *     envelope alone.
+ *     temperature of its fuel, calibrated on its listed limits: the flame temperature
+ *     at the LFL in air, at the nose (stoichiometric, O2 at the listed LOC) and at the
+ *     UFL (in air, and in O2 where it is on file). The side of stoichiometric decides
+ *     which: lean states (equivalence ratio phi <= 1) ramp in phi from the LFL
+ *     calibration to the nose one at phi = 1; rich states ramp from the nose to the UFL
+ *     calibration (interpolated with the oxygen share of the oxidizer), never against
+ *     the LFL calibration alone. A fuel without a finite UFL (acetylene: 100 %) has no
+ *     rich calibration; its rich states are judged by the envelope alone.
  */
 import { FUEL_SAFETY, INERT_K, INERT_K_FALLBACK, MARGINS } from './data/safety-data.js';
 import { getSpecies } from './lookup.js';
@@ -323,18 +324,56 @@ export function richLimitCalibration(fuel: string): RichCalibration | undefined 
   return out;
 }
 
+const locCache = new Map<string, number | null>();
+
+/**
+ * Limit flame temperature at the nose of a fuel's envelope: the complete-combustion flame
+ * temperature of the stoichiometric fuel in N2 with O2 at its listed LOC (from 298.15 K);
+ * undefined without a listed LOC above 0 (estimated LOCs do not calibrate).
+ * Example: H2, LOC 4.6 % (ASTM E2079) -> about 1040 K, against 627 K at its LFL in air: the
+ * lean-limit temperature of H2 does not hold near stoichiometric.
+ */
+export function locFlameTemperatureK(fuel: string): number | undefined {
+  const cached = locCache.get(fuel);
+  if (cached !== undefined) return cached ?? undefined;
+  const rec = FUEL_SAFETY.get(fuel);
+  let t: number | undefined;
+  if (rec?.loc && rec.loc.value > 0) {
+    const z = oxygenDemand(getSpecies(fuel).elements);
+    const o = rec.loc.value;
+    t = flameTemperatureK({ [fuel]: o / z, O2: o, N2: 1 - o - o / z }, 298.15);
+  }
+  locCache.set(fuel, t ?? null);
+  return t;
+}
+
+/**
+ * The lean-side limit flame temperature of one fuel at equivalence ratio phi <= 1: the LFL
+ * calibration up to the LFL in air's phi, then a linear ramp in phi to the LOC calibration at
+ * phi = 1 where a LOC is listed (else the LFL calibration throughout).
+ */
+function leanThresholdK(fuel: string, leanK: number, phi: number): number {
+  const nose = locFlameTemperatureK(fuel);
+  const rec = FUEL_SAFETY.get(fuel);
+  if (nose === undefined || !rec) return leanK;
+  const L = Math.min(...rec.lflAir.map((v) => v.value));
+  const phiL = (oxygenDemand(getSpecies(fuel).elements) * L) / (AIR_O2 * (1 - L));
+  if (phi <= phiL || phiL >= 1) return leanK;
+  return leanK + ((nose - leanK) * (Math.min(phi, 1) - phiL)) / (1 - phiL);
+}
+
 /**
  * The rich-side limit flame temperature of one fuel at equivalence ratio phi > 1 and oxygen
  * share r: the calibration at the UFL (air at r <= 0.21, interpolated linearly in r up to the
- * O2 calibration at r = 1), reached by a linear ramp in phi from the lean limit temperature at
- * phi = 1 (near stoichiometric the limit is the lean one: the nose of the envelope at the LOC).
+ * O2 calibration at r = 1), reached by a linear ramp in phi from the limit temperature at
+ * phi = 1 (`noseK`: the LOC calibration where a LOC is listed, else the LFL one).
  */
-function richThresholdK(c: RichCalibration, leanK: number, phi: number, r: number): number {
+function richThresholdK(c: RichCalibration, noseK: number, phi: number, r: number): number {
   const s = c.oxygen ? Math.min(1, Math.max(0, (r - AIR_O2) / (1 - AIR_O2))) : 0;
   const richK = c.oxygen ? c.air.flameK + s * (c.oxygen.flameK - c.air.flameK) : c.air.flameK;
   const phiU = c.oxygen ? c.air.phi + s * (c.oxygen.phi - c.air.phi) : c.air.phi;
   if (phiU <= 1 || phi >= phiU) return richK;
-  return leanK + ((richK - leanK) * (phi - 1)) / (phiU - 1);
+  return noseK + ((richK - noseK) * (phi - 1)) / (phiU - 1);
 }
 
 /** flame-temperature margin for "near the limit": 60 % of the limit temperature rise (the same share as the LFL margin) */
@@ -377,7 +416,7 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
     for (const [k, w] of Object.entries(fuelBlend)) {
       const t = limitFlameTemperatureK(k);
       if (t !== undefined) {
-        limitFlameK += w * t;
+        limitFlameK += w * leanThresholdK(k, t, phi);
         wsum += w;
       }
     }
@@ -389,7 +428,7 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
       const c = richLimitCalibration(k);
       if (lean === undefined || !c) continue;
       if (c.oxygen) withO2 = true;
-      limitFlameK += w * richThresholdK(c, lean, phi, oxygenShare);
+      limitFlameK += w * richThresholdK(c, locFlameTemperatureK(k) ?? lean, phi, oxygenShare);
       wsum += w;
     }
     richCalibration = wsum > 0 ? (withO2 ? 'ufl-air-and-o2' : 'ufl-air') : 'none';

@@ -71,6 +71,13 @@ export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: numbe
     flameK: a.flameK,
     limitFlameK: a.limitFlameK,
     pressurePa,
+    side: a.distance?.side,
+    equivalenceRatio: a.distance?.equivalenceRatio,
+    fuelOverLfl: a.distance?.fuelOverLfl,
+    oxygenOverLoc: a.distance?.oxygenOverLoc,
+    uflHere: a.distance?.uflHere,
+    fuelOverUfl: a.distance?.fuelOverUfl,
+    missingData: a.limits?.missing.length ? true : undefined,
   };
 }
 
