@@ -33,8 +33,8 @@ export { fillLabel, planFill, MODEL_T_RANGE_K, MAX_NON_IDEALITY } from './planne
 export type { GaugeAssignment, Plan, PlanInput, PlanStep, TankSpec, Tolerance } from './planner.js';
 export { STANDING_CAUTION, describeFinding, worstSeverity } from './findings.js';
 export type { Finding, FindingCode, FlammabilityNumbers, PressureFormatter, Severity } from './findings.js';
-export { assessFlammability, blendLimits, leChatelier, diagramPoint, envelopePolygon, insidePolygon, limitFlameTemperatureK, worseVerdict } from './flammability.js';
-export type { BlendLimits, DiagramPoint, FlammabilityAssessment, Verdict } from './flammability.js';
+export { assessFlammability, blendLimits, leChatelier, diagramPoint, envelopePolygon, insidePolygon, limitFlameTemperatureK, locFlameTemperatureK, richLimitCalibration, uflAtOxygenShare, worseVerdict } from './flammability.js';
+export type { BlendLimits, DiagramPoint, FlammabilityAssessment, FlammabilityDistance, RichCalibration, Verdict } from './flammability.js';
 export { adiabaticCompressionK, closedVesselCombustion, completeCombustion, flameTemperatureK } from './combustion.js';
 export { antoinePa, leeKeslerPa, saturationPressure, wagnerPa, waterPsatPa } from './vapour-pressure.js';
 export type { Psat, PsatMethod } from './vapour-pressure.js';
