@@ -39,7 +39,8 @@ export function speciesProperties(name: string, temperatureK: number): PropertyR
     for (const x of fire.uflAir) row('ufl', 'UFL in air', x.value, 'mol/mol', x.source);
     if (fire.uflO2) row('uflO2', 'UFL in O2', fire.uflO2.value, 'mol/mol', fire.uflO2.source);
     if (fire.loc) row('loc', 'limiting O2 concentration (N2)', fire.loc.value, 'mol/mol', fire.loc.source);
-    if (fire.ait) row('ait', 'autoignition temperature', fire.ait.value, 'K', fire.ait.source);
+    const aits = fire.aitListed ?? (fire.ait ? [fire.ait] : []);
+    for (const x of aits) row('ait', aits.length > 1 && x === fire.ait ? 'autoignition temperature (lower, used)' : 'autoignition temperature', x.value, 'K', x.source);
   }
   const k = INERT_K.get(sp.key);
   if (k) row('K', 'N2-equivalence coefficient K', k.value, '1', k.source);

@@ -1,5 +1,5 @@
 /** mixwright species: the data browser, every value with its unit and source. */
-import { getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, VIRIAL_TABLE_RANGE_K, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
+import { blendLimits, FUEL_SAFETY, getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, VIRIAL_TABLE_RANGE_K, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
 import { fixedSig, padTable } from './format.js';
 
 /** the units the tables are usually read in (SI inside) */
@@ -63,6 +63,18 @@ export function speciesDetail(name: string, temperatureK: number): string {
   }
   rows.push(['role in combustion', speciesRole(sp.key), '', 'c + h/4 - o/2 rule', '']);
   out.push(...padTable(rows, [false, true, false, false, false]));
+  // fire data that can raise a warning or danger: say which is still from memory or estimated
+  const gating = new Set(['lfl', 'ufl', 'uflO2', 'loc', 'ait']);
+  const recalled = speciesProperties(sp.key, temperatureK).filter((p) => gating.has(p.id) && p.source.quality === 'from-memory');
+  const estimated = FUEL_SAFETY.has(sp.key) ? blendLimits({ [sp.key]: 1 }, 298.15, 101325).estimated : [];
+  if (recalled.length || estimated.length) {
+    out.push('');
+    if (recalled.length) {
+      const list = recalled.map((p) => `${p.label} ${display(p).value} ${display(p).unit} (${p.source.key})`).join('; ');
+      out.push(`Still from memory (not read in a stored copy of the source; check it before relying on it): ${list}. The safety review uses these values.`);
+    }
+    if (estimated.length) out.push(`Estimated, no published value on file: ${estimated.join('; ')}. The safety review uses a conservative estimate and says so.`);
+  }
   const partners = referenceCrossPartners(sp.key);
   out.push('');
   if (partners.length) {
