@@ -157,3 +157,26 @@ describe('near-flammable wording says how far the state is from the region', () 
     expect(m).not.toContain('x LFL');
   });
 });
+
+describe('the limit flame temperature is continuous across stoichiometric', () => {
+  it('at phi = 1 -/+ 1e-6 the lean and rich thresholds agree within 0.01 K (both the nose calibration at the LOC, or the LFL one without a LOC), in air-like and O2-rich oxidizers', () => {
+    for (const fuel of ['H2', 'CO', 'CH4', 'C2H4', 'C3H8', 'n-C7H16', 'CH3OH']) {
+      for (const share of [0.15, 0.21, 0.5, 1]) {
+        const at = (phi: number) => {
+          // O2 = 0.1 of the mixture at oxygen share `share`, fuel set by phi
+          const z = blendLimits({ [fuel]: 1 }, T, 101325).z;
+          const o = 0.1;
+          const f = (phi * o) / z;
+          const n = o / share - o;
+          const s = f + o + n;
+          return assessFlammability({ [fuel]: f / s, O2: o / s, N2: n / s }, T, 101325);
+        };
+        const lean = at(1 - 1e-6);
+        const rich = at(1 + 1e-6);
+        expect(lean.distance!.side).toBe('lean');
+        expect(rich.distance!.side).toBe('rich');
+        expect(Math.abs(lean.limitFlameK! - rich.limitFlameK!), `${fuel} at O2 share ${share}`).toBeLessThan(0.01);
+      }
+    }
+  });
+});
