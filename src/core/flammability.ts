@@ -58,7 +58,8 @@ export function leChatelier(parts: readonly { fraction: number; limit: number }[
 /**
  * Limits of a fuel blend (fractions of the fuel alone) at temperature T and pressure P.
  * Le Chatelier: L_mix = 1 / sum(y_i / L_i), the same form for UFL, UFL in O2 and LOC
- * (Zlochower & Green 2009 for LOC). The lower listed LFL and higher listed UFL are used.
+ * (Zlochower & Green 2009 for LOC); fuels with a LOC of 0 (acetylene) scale the LOC of the
+ * others by the others' share instead of forcing it to 0. The lower listed LFL and higher listed UFL are used.
  * T above 25 degC widens both limits by 8 % per 100 K (modified Burgess-Wheeler);
  * P above 1 atm raises UFL by 20.6 (log10 P/MPa + 1) vol % (Zabetakis). Neither
  * narrows the limits below 25 degC or 1 atm (that would not be conservative).
@@ -69,6 +70,8 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
   let invU = 0;
   let invUO2 = 0;
   let invLoc = 0;
+  /** share of the (known) fuel whose LOC is above 0 */
+  let locShare = 0;
   let z = 0;
   const estimated: string[] = [];
   const missing: string[] = [];
@@ -109,13 +112,20 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
     invL += y / lfl;
     invU += y / ufl;
     invUO2 += y / uflO2;
-    invLoc += loc > 0 ? y / loc : Infinity;
+    if (loc > 0) {
+      invLoc += y / loc;
+      locShare += y;
+    }
   }
   const scale = known > 0 ? known : 1;
   let lfl = scale / invL;
   let ufl = scale / invU;
   const uflO2 = scale / invUO2;
-  const loc = Number.isFinite(invLoc) ? scale / invLoc : 0;
+  // a LOC of 0 (acetylene: it decomposes without oxidant) would make Le Chatelier's mean 0 for
+  // any share of it; instead the fuels with a LOC take their Le Chatelier mean, scaled by their
+  // share of the fuel (our rule, linear in the share of the decomposing fuel): 1 % C2H2 in CH4
+  // gives 0.99 x 10.7 %, pure C2H2 stays 0
+  const loc = invLoc > 0 ? (locShare / invLoc) * (locShare / scale) : 0;
   const dT = temperatureK - 298.15;
   if (dT > 0) {
     lfl *= 1 - 0.0008 * dT;

@@ -106,6 +106,14 @@ describe('degenerate envelope edges', () => {
   });
 });
 
+describe('a LOC of 0 in a blend', () => {
+  it('1 % C2H2 in the fuel no longer drags the blend LOC to 0: CH4 LOC 10.7 % (ASTM E2079) x 0.99 (our linear rule, exact), and 8 % of that fuel with 5 % O2 in N2 is not flammable; pure C2H2 keeps its LOC of 0', () => {
+    expect(blendLimits({ CH4: 0.99, C2H2: 0.01 }, T, 101325).loc).toBeCloseTo(0.107 * 0.99, 12);
+    expect(blendLimits({ C2H2: 1 }, T, 101325).loc).toBe(0);
+    expect(assessFlammability({ CH4: 0.0792, C2H2: 0.0008, O2: 0.05, N2: 0.87 }, T, 101325).verdict).not.toBe('flammable');
+  });
+});
+
 describe('rich-side calibration', () => {
   it('the rich-limit flame temperature reproduces the UFL it is calibrated on: CH4, C3H8, H2 in air at 0.98 x the IEC 60079-20-1 UFL flammable by flame temperature, at 1.02 x not (tolerance 2 % of the UFL)', () => {
     for (const [fuel, ufl] of [['CH4', 0.17], ['C3H8', 0.109], ['H2', 0.77]] as const) {
