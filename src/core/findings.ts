@@ -86,6 +86,7 @@ function flammabilityDetail(f: FlammabilityNumbers): string {
   const parts = [`fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} on the N2-equivalent diagram`];
   if (f.lfl !== undefined) parts.push(`LFL ${pct(f.lfl)}`);
   if (f.loc !== undefined) parts.push(`LOC ${pct(f.loc)}`);
+  if (f.side === 'rich' && f.uflHere !== undefined) parts.push(`rich side: UFL ${pct(f.uflHere)} at this O2 share`);
   if (f.flameK !== undefined && f.limitFlameK !== undefined) parts.push(`flame ${f.flameK.toFixed(0)} K vs limit ${f.limitFlameK.toFixed(0)} K`);
   return `${parts.join('; ')}; by ${f.method}`;
 }
