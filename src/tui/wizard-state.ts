@@ -209,7 +209,8 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
     case 'enter': {
       if (field) return { ...base, focus: base.focus + 1 };
       const action = ACTIONS[base.focus - FIELDS.length];
-      if (base.evaluation.error) return { ...base, message: `fix the design first: ${base.evaluation.error.message}` };
+      const err = base.evaluation.error;
+      if (err) return { ...base, message: `${action} refused: fix the design first (${err.field ?? 'the design'}, marked !): ${err.message}` };
       if (action === 'start guided fill' && base.evaluation.preview?.danger) {
         return { ...base, request: action, message: 'danger findings stand: the guided fill will ask you to acknowledge them' };
       }
