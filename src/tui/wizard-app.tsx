@@ -12,6 +12,8 @@ export interface WizardAppProps {
    * show, a question, or a hand-over to the fill screen ('start guided fill')
    */
   readonly act: (s: WizardState, action: (typeof ACTIONS)[number], replace: boolean) => ActOutcome | { readonly kind: 'handOver' };
+  /** the lab profile's name and where it came from, for the title */
+  readonly lab?: string;
 }
 
 export function wizardActions(input: string, key: { upArrow?: boolean; downArrow?: boolean; return?: boolean; backspace?: boolean; delete?: boolean; tab?: boolean; escape?: boolean; ctrl?: boolean }): WizardAction[] {
@@ -24,7 +26,7 @@ export function wizardActions(input: string, key: { upArrow?: boolean; downArrow
   return splitChunk(input).map((t): WizardAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter' } : t.kind === 'tab' ? { type: 'complete' } : { type: 'backspace' }));
 }
 
-export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
+export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const app = useApp();
   useInput((input, key) => {
@@ -49,10 +51,12 @@ export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
   });
   const field = currentField(state);
   const err = state.evaluation.error;
-  const tabLine = field && SPECIES_FIELDS.includes(field) ? completionLine(state.values[field]) : '';
+  const tabLine = field && SPECIES_FIELDS.includes(field) ? completionLine(state.values[field], field) : '';
   return (
     <Box flexDirection="column" width={80}>
-      <Text bold>mixwright - new mixture design (demo lab unless --lab)</Text>
+      <Text bold wrap="truncate-end">
+        {lab ? `mixwright - new mixture design - lab: ${lab}` : 'mixwright - new mixture design (demo lab unless --lab)'}
+      </Text>
       <Box>
         <Box flexDirection="column" width={44}>
           {FIELDS.map((f, i) => (
@@ -66,7 +70,7 @@ export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
         </Box>
         <Box flexDirection="column" width={36} borderStyle="single" paddingX={1}>
           <Text bold>preview</Text>
-          {(state.evaluation.preview?.lines ?? ['(fix the marked field)']).slice(0, 9).map((l, i) => (
+          {(state.evaluation.preview?.lines ?? [err?.field ? `(no plan: fix ${err.field}, marked !)` : '(no plan: see the message below)']).slice(0, 9).map((l, i) => (
             <Text key={i} wrap="truncate-end">
               {l}
             </Text>

@@ -4,7 +4,7 @@ import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } fro
 import type { RecipeFile } from '../io/recipe.js';
 import { fromPa, isPressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
-import type { Evaluation, FieldName } from './wizard-state.js';
+import { rankFor, type Evaluation, type FieldName } from './wizard-state.js';
 
 const FIELD_OF: [RegExp, FieldName][] = [
   [/^id/, 'id'],
@@ -93,7 +93,9 @@ export function makeEvaluator(labFile?: string) {
       if (!(e instanceof ProblemError)) return { error: { message: `the plan failed unexpectedly (${(e as Error).message}); this is a bug: note the values on screen and report them` } };
       const f = e.where.field ?? '';
       const field = FIELD_OF.find(([re]) => re.test(f))?.[1];
-      return { error: { field, message: describeProblem(e.problem) } };
+      // "did you mean" in the wizard's own ranking, the one Tab completes to (air first in a whole oxidizer)
+      const p = e.problem.code === 'unknown-species' && field ? { ...e.problem, suggestions: rankFor(field, e.problem.name, !/[,:]/.test(v[field])).slice(0, 3) } : e.problem;
+      return { error: { field, message: describeProblem(p) } };
     }
   };
 }

@@ -116,32 +116,38 @@ export interface Completion {
   readonly target?: string;
 }
 
-/** Tab completion of the last entry of a blend ("CH4:0.9,C2H" completes "C2H") */
-export function completionOf(text: string): Completion {
-  const query = text.split(',').pop()!.split(':')[0].trim();
+/**
+ * The ranking the wizard offers for a typed name: rankSpecies (the core's "did you mean"), with
+ * "air" first where a whole oxidizer may be air (the lab profile's air, not a species). The
+ * evaluator words an unknown species' "did you mean" from this same function.
+ */
+export function rankFor(field: FieldName | undefined, query: string, wholeField: boolean): string[] {
   const ranked = rankSpecies(query);
+  const q = query.trim().toLowerCase();
+  return field === 'oxidizer' && wholeField && q && 'air'.startsWith(q) ? ['air', ...ranked] : ranked;
+}
+
+/** Tab completion of the last entry of a blend ("CH4:0.9,C2H" completes "C2H") */
+export function completionOf(text: string, field?: FieldName): Completion {
+  const query = text.split(',').pop()!.split(':')[0].trim();
+  const ranked = rankFor(field, query, !/[,:]/.test(text));
   const target = ranked.length && ranked[0] !== query ? ranked[0] : undefined;
   return { query, ranked, target };
 }
 
-/** the species keys Tab offers for what is being typed, best first (the first is what Tab completes to) */
-export function typeAhead(text: string): string[] {
-  return completionOf(text).ranked.slice(0, 6);
-}
-
 /** the one line under the help: what Tab will do in a species field */
-export function completionLine(text: string): string {
-  const c = completionOf(text);
+export function completionLine(text: string, field?: FieldName): string {
+  const c = completionOf(text, field);
   if (!c.query) return '';
-  const label = (k: string) => `${k} (${getSpecies(k).name})`;
+  const label = (k: string) => (k === 'air' ? "air (the lab profile's air)" : `${k} (${getSpecies(k).name})`);
   if (!c.ranked.length) return `no known species starts with or is close to "${c.query}"; \`mixwright species\` lists them`;
-  if (!c.target) return `${label(c.ranked[0])}: a known species`;
+  if (!c.target) return `${label(c.ranked[0])}: ${c.ranked[0] === 'air' ? 'known' : 'a known species'}`;
   const also = c.ranked.slice(1, 5);
   return `Tab: ${label(c.target)}${also.length ? `   also: ${also.join(' ')}` : ''}`;
 }
 
-function completeBlend(text: string): string {
-  const { target } = completionOf(text);
+function completeBlend(text: string, field: FieldName): string {
+  const { target } = completionOf(text, field);
   if (!target) return text;
   const parts = text.split(',');
   const lastPart = parts.pop()!;
@@ -191,9 +197,9 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
       return { ...base, focus: (base.focus + 1) % total };
     case 'complete': {
       if (!field || !SPECIES_FIELDS.includes(field)) return { ...base, message: 'Tab completes a species name in fuel, oxidizer and diluent' };
-      const c = completionOf(base.values[field]);
-      if (c.query && !c.ranked.length) return { ...base, message: completionLine(base.values[field]) };
-      return withValue(field, completeBlend(base.values[field]));
+      const c = completionOf(base.values[field], field);
+      if (c.query && !c.ranked.length) return { ...base, message: completionLine(base.values[field], field) };
+      return withValue(field, completeBlend(base.values[field], field));
     }
     case 'escape': {
       const changed = unsavedFields(base);
