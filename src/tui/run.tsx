@@ -126,7 +126,7 @@ export async function runWizard(args: WizardContext): Promise<void> {
   };
   const lab = loadLab(args.labFile);
   // Ctrl-C goes to the wizard (it asks first when the design has unsaved changes), not straight to exit
-  const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} lab={args.labFile ? `${lab.name} (${args.labFile})` : undefined} />, { exitOnCtrlC: false });
+  const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} lab={args.labFile ? `${args.labFile}, ${lab.name}` : undefined} />, { exitOnCtrlC: false });
   await app.waitUntilExit();
   app.unmount();
   if (handOver) await runFill(handOver);

@@ -70,7 +70,7 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
         </Box>
         <Box flexDirection="column" width={36} borderStyle="single" paddingX={1}>
           <Text bold>preview</Text>
-          {(state.evaluation.preview?.lines ?? [err?.field ? `(no plan: fix ${err.field}, marked !)` : '(no plan: see the message below)']).slice(0, 9).map((l, i) => (
+          {(state.evaluation.preview?.lines ?? [err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)']).slice(0, 9).map((l, i) => (
             <Text key={i} wrap="truncate-end">
               {l}
             </Text>
