@@ -67,9 +67,10 @@ function writeWizardFile(file: string, data: string, what: string, action: Actio
     }
   }
   // replace only when the user said yes: a file that appeared since the check is refused, not replaced
+  const existed = replace && existsSync(file);
   writeFileAtomic(file, data, replace);
   ctx.written?.set(file, new Date());
-  return { kind: 'message', text: `${replace ? 'replaced' : 'saved'} ${file}${saved ? '' : ' (open it in a browser to print)'}`, savedRecipe: saved };
+  return { kind: 'message', text: `${existed ? 'replaced' : 'saved'} ${file}${saved ? '' : ' (open it in a browser to print)'}`, savedRecipe: saved };
 }
 
 /** a batch log name not taken yet: <id>-<UTC minute>, then -2, -3 ... when two fills start within one minute */
