@@ -188,7 +188,7 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
   };
   switch (a.type) {
     case 'char':
-      return field ? withValue(field, base.values[field] + a.text) : base;
+      return field ? withValue(field, base.values[field] + a.text) : { ...base, message: `"${a.text}" not taken: the cursor is on [${ACTIONS[base.focus - FIELDS.length]}]; Up moves to the fields, Enter does the action` };
     case 'backspace':
       return field ? withValue(field, base.values[field].slice(0, -1)) : base;
     case 'up':

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { render } from 'ink-testing-library';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, utimesSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { getSpecies, rankSpecies, resolveSpeciesKey, speciesKeys, suggestSpecies } from '../../src/core/index.js';
@@ -98,6 +98,12 @@ describe('wizard reducer: saving again', () => {
     expect(no.message).toBe('kept recipes/my-design.yaml as it was; nothing written. To keep both, change the id and save again');
     // the replace flag lasts one step only
     expect(run(yes, { type: 'down' }).replace).toBeUndefined();
+  });
+
+  it('a key typed while the cursor is on an action is not dropped silently: the message says where the cursor is', () => {
+    const s = run({ ...start(), focus: SAVE_FOCUS }, { type: 'char', text: 'y' });
+    expect(s.values).toEqual(start().values);
+    expect(s.message).toBe('"y" not taken: the cursor is on [save recipe]; Up moves to the fields, Enter does the action');
   });
 });
 
@@ -250,6 +256,9 @@ describe('wizard actions on files', () => {
     expect(buildPlanRequest(readRecipe(file)).input.design.composition.Ar).toBeCloseTo(0.98, 12); // not replaced by asking
     expect(wizardAct(changed, 'save recipe', ctx, true)).toEqual({ kind: 'message', text: `replaced ${file}`, savedRecipe: true });
     expect(buildPlanRequest(readRecipe(file)).input.design.composition.Ar).toBeCloseTo(0.97, 12);
+    // a yes for a file that is gone by then: saved, not "replaced"
+    rmSync(file);
+    expect(wizardAct(s, 'save recipe', ctx, true)).toEqual({ kind: 'message', text: `saved ${file}`, savedRecipe: true });
   });
 
   it('a file not written in this session: the question says so and when it last changed; its text stays until yes', () => {
