@@ -110,7 +110,7 @@ export const SPECIES_FIELDS: readonly FieldName[] = ['fuel', 'oxidizer', 'diluen
 export interface Completion {
   /** the species part of the last blend entry, as typed */
   readonly query: string;
-  /** rankSpecies(query): the same list, in the same order, as an unknown species' "did you mean" */
+  /** rankFor(field, query): the same list, in the same order, as the "did you mean" of an unknown species */
   readonly ranked: readonly string[];
   /** the species key Tab puts in place of the query: ranked[0], unless the query is already that key */
   readonly target?: string;
