@@ -11,6 +11,7 @@ export { ELEMENTS } from './data/elements.js';
 export type { ElementRecord } from './data/elements.js';
 export { molarMassKgPerMol, oxygenDemand } from './formula.js';
 export { getSpecies, lookup, resolveSpeciesKey, speciesKeys, suggestSpecies, PROPERTY_NAMES } from './lookup.js';
+export { rankSpecies } from './lookup.js';
 export type { PropertyName, PropertyValue } from './lookup.js';
 export { ProblemError, fail, relocate } from './problems.js';
 export type { Problem, ProblemCode, Where } from './problems.js';

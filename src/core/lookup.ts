@@ -20,17 +20,37 @@ function editDistance(a: string, b: string): number {
   return d[a.length][b.length];
 }
 
-/** closest known keys and names, for "did you mean" */
-export function suggestSpecies(name: string, max = 3): string[] {
-  const q = name.toLowerCase();
-  const scored: { key: string; d: number }[] = [];
-  for (const sp of SPECIES.values()) {
-    const d = Math.min(...[sp.key, sp.name, ...sp.aliases].map((n) => editDistance(q, n.toLowerCase())));
-    scored.push({ key: sp.key, d });
-  }
-  scored.sort((x, y) => x.d - y.d);
+/**
+ * The one ranking of species for a typed name: the "did you mean" list of an unknown species
+ * and the wizard's Tab completion both take it, so Tab completes to the first suggestion.
+ * Order: an exact (case-insensitive) key, name or alias; then species whose key, name or alias
+ * starts with the text, the shortest completion first; then the rest within an edit distance
+ * of max(2, half the text's length), the closest first. Ties keep the species table's order.
+ * rankSpecies('eth') -> ['C2H6', 'C2H4', 'C2H2', 'C2H5OH', ...]
+ */
+export function rankSpecies(name: string): string[] {
+  const q = name.trim().toLowerCase();
+  if (!q) return [];
   const limit = Math.max(2, Math.ceil(q.length / 2));
-  return scored.filter((s) => s.d <= limit).slice(0, max).map((s) => s.key);
+  const scored: { key: string; tier: number; d: number; order: number }[] = [];
+  let order = 0;
+  for (const sp of SPECIES.values()) {
+    const names = [sp.key, sp.name, ...sp.aliases].map((n) => n.toLowerCase());
+    order++;
+    if (names.includes(q)) scored.push({ key: sp.key, tier: 0, d: 0, order });
+    else if (names.some((n) => n.startsWith(q))) scored.push({ key: sp.key, tier: 1, d: Math.min(...names.filter((n) => n.startsWith(q)).map((n) => n.length - q.length)), order });
+    else {
+      const d = Math.min(...names.map((n) => editDistance(q, n)));
+      if (d <= limit) scored.push({ key: sp.key, tier: 2, d, order });
+    }
+  }
+  scored.sort((x, y) => x.tier - y.tier || x.d - y.d || x.order - y.order);
+  return scored.map((s) => s.key);
+}
+
+/** closest known keys, for "did you mean": the head of rankSpecies */
+export function suggestSpecies(name: string, max = 3): string[] {
+  return rankSpecies(name).slice(0, max);
 }
 
 /** exact key first; else a unique case-insensitive match of key, name or alias; else undefined */

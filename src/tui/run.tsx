@@ -1,12 +1,12 @@
 /** Entry points of the interactive commands; loaded only when one of them runs. */
-import { mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { render } from 'ink';
 import { stringify } from 'yaml';
 import { FillApp } from './fill-app.js';
 import { initialState, setupFromHeader } from './fill-state.js';
 import { WizardApp } from './wizard-app.js';
-import { DEFAULTS, wizardInit, type WizardState } from './wizard-state.js';
+import { DEFAULTS, wizardInit, type ActionName, type ActOutcome, type WizardState } from './wizard-state.js';
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
 import { appendEvent, createLog, readLog, type LogHeader, type ParsedLog } from '../io/batch-log.js';
@@ -32,51 +32,102 @@ export interface WizardContext {
   readonly batchesDir?: string;
   /** folder for the fill sheet (default: the working folder) */
   readonly sheetsDir?: string;
+  /** files this wizard session wrote, and when: a question about replacing one says so */
+  readonly written?: Map<string, Date>;
 }
 
-/** carry out a wizard action: a message to show, or the log of a guided fill to hand over to */
-export function wizardAct(s: WizardState, action: string, ctx: WizardContext): string | { header: LogHeader; logFile: string } {
+const clock = (d: Date) => d.toTimeString().slice(0, 8);
+
+/**
+ * Write a file the wizard makes. An existing file is never replaced silently: without replace
+ * the answer is a question naming the file (written by this session, or not, and when last
+ * changed); a file that already holds exactly this text is left alone and said so.
+ */
+function writeWizardFile(file: string, data: string, what: string, action: ActionName, replace: boolean, ctx: WizardContext): ActOutcome {
+  const saved = action === 'save recipe';
+  if (existsSync(file)) {
+    let same = false;
+    try {
+      same = readFileSync(file, 'utf8') === data;
+    } catch {
+      // unreadable (a folder, no permission): the question or the write says more
+    }
+    if (same) return { kind: 'message', text: `${file} already holds this ${what}; nothing to write`, savedRecipe: saved };
+    if (!replace) {
+      const when = ctx.written?.get(file);
+      let whose = when ? `written by this wizard at ${clock(when)}` : 'not written in this session';
+      if (!when) {
+        try {
+          whose += `, last changed ${statSync(file).mtime.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+        } catch {
+          // no date to show
+        }
+      }
+      return { kind: 'confirm', action, file, text: `${file} exists (${whose}). Replace it with the ${what} on screen? What it holds now is lost. y: replace   n: keep it` };
+    }
+  }
+  // replace only when the user said yes: a file that appeared since the check is refused, not replaced
+  const existed = replace && existsSync(file);
+  writeFileAtomic(file, data, replace);
+  ctx.written?.set(file, new Date());
+  return { kind: 'message', text: `${existed ? 'replaced' : 'saved'} ${file}${saved ? '' : ' (open it in a browser to print)'}`, savedRecipe: saved };
+}
+
+/** a batch log name not taken yet: <id>-<UTC minute>, then -2, -3 ... when two fills start within one minute */
+function freeLogName(dir: string, id: string): { id: string; file: string } {
+  const stamp = `${id}-${new Date().toISOString().replace(/[-:]/g, '').slice(0, 13)}`;
+  for (let n = 1; ; n++) {
+    const batchId = n === 1 ? stamp : `${stamp}-${n}`;
+    const file = join(dir, `${batchId}.jsonl`);
+    if (!existsSync(file)) return { id: batchId, file };
+  }
+}
+
+/** carry out a wizard action: what to show (a message or a question), or the log of a guided fill to hand over to */
+export function wizardAct(s: WizardState, action: string, ctx: WizardContext, replace = false): ActOutcome | { header: LogHeader; logFile: string } {
+  const what = action === 'save recipe' ? 'recipe' : action === 'write fill sheet' ? 'fill sheet' : 'guided fill';
   try {
     const built = buildFromValues(s.values, ctx.labFile);
     if (action === 'save recipe') {
       const dir = ctx.recipesDir ?? 'recipes';
       mkdirSync(dir, { recursive: true });
       const file = join(dir, `${s.values.id}.yaml`);
-      writeFileAtomic(file, `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`, false);
-      return `saved ${file}`;
+      return writeWizardFile(file, `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`, 'recipe', action, replace, ctx);
     }
     if (action === 'write fill sheet') {
       const file = join(ctx.sheetsDir ?? '.', `fill-${s.values.id}.html`);
       const h = built.req.tankInfo?.heightM;
       const mixing = h ? mixingEstimate(built.plan.composition, built.plan.temperatureK, built.plan.final.pressurePa, h, Boolean(built.req.tankInfo?.stirred)) : undefined;
       const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: ctx.version, paper: 'a4', mixing });
-      writeFileAtomic(file, sheetToHtml(model), false);
-      return `wrote ${file} (open it in a browser to print)`;
+      return writeWizardFile(file, sheetToHtml(model), 'fill sheet', action, replace, ctx);
     }
     const dir = ctx.batchesDir ?? 'batches';
     mkdirSync(dir, { recursive: true });
-    const id = `${s.values.id}-${new Date().toISOString().replace(/[-:]/g, '').slice(0, 13)}`;
-    const logFile = join(dir, `${id}.jsonl`);
+    const { id, file: logFile } = freeLogName(dir, s.values.id);
     createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString()));
     return { header: readLog(logFile).header, logFile };
   } catch (e) {
-    if (e instanceof ProblemError) return describeProblemAt(e.problem, e.where);
-    throw e;
+    const not = what === 'guided fill' ? 'guided fill not started' : `${what} not written`;
+    if (e instanceof ProblemError) return { kind: 'message', text: `${not}: ${describeProblemAt(e.problem, e.where)}` };
+    // a file-system error must not end the wizard: the design on screen would be lost with it
+    return { kind: 'message', text: `${not}: ${(e as Error).message}. The design is still on screen; check the folder (it must exist and be writable, with free space) and try again` };
   }
 }
 
-/** the wizard; returns when the user quits, or runs the guided fill it hands over to */
+/** the wizard; returns when the user leaves, or runs the guided fill it hands over to */
 export async function runWizard(args: WizardContext): Promise<void> {
   const evaluate = makeEvaluator(args.labFile);
+  const ctx: WizardContext = { ...args, written: args.written ?? new Map() };
   let handOver: { header: LogHeader; logFile: string } | undefined;
-  const act = (s: WizardState, action: string): string | { handOver: true } => {
-    const r = wizardAct(s, action, args);
-    if (typeof r === 'string') return r;
+  const act = (s: WizardState, action: ActionName, replace: boolean): ActOutcome | { kind: 'handOver' } => {
+    const r = wizardAct(s, action, ctx, replace);
+    if ('kind' in r) return r;
     handOver = r;
-    return { handOver: true };
+    return { kind: 'handOver' };
   };
   const lab = loadLab(args.labFile);
-  const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} />);
+  // Ctrl-C goes to the wizard (it asks first when the design has unsaved changes), not straight to exit
+  const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} lab={args.labFile ? `${args.labFile}, ${lab.name}` : undefined} />, { exitOnCtrlC: false });
   await app.waitUntilExit();
   app.unmount();
   if (handOver) await runFill(handOver);

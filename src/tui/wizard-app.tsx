@@ -2,16 +2,22 @@
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
 import { splitChunk } from './keys.js';
-import { ACTIONS, FIELD_HELP, FIELDS, currentField, typeAhead, wizardReducer, type Evaluate, type WizardAction, type WizardState } from './wizard-state.js';
+import { ACTIONS, FIELD_HELP, FIELDS, SPECIES_FIELDS, completionLine, currentField, wizardReducer, type ActOutcome, type Evaluate, type WizardAction, type WizardState } from './wizard-state.js';
 
 export interface WizardAppProps {
   readonly initial: WizardState;
   readonly evaluate: Evaluate;
-  /** carry out an action; returns the message to show. 'start guided fill' may hand over to the fill screen */
-  readonly act: (s: WizardState, action: (typeof ACTIONS)[number]) => string | { handOver: true };
+  /**
+   * carry out an action (replace: the user said yes to replacing its file); returns what to
+   * show, a question, or a hand-over to the fill screen ('start guided fill')
+   */
+  readonly act: (s: WizardState, action: (typeof ACTIONS)[number], replace: boolean) => ActOutcome | { readonly kind: 'handOver' };
+  /** the lab profile's name and where it came from, for the title */
+  readonly lab?: string;
 }
 
-export function wizardActions(input: string, key: { upArrow?: boolean; downArrow?: boolean; return?: boolean; backspace?: boolean; delete?: boolean; tab?: boolean }): WizardAction[] {
+export function wizardActions(input: string, key: { upArrow?: boolean; downArrow?: boolean; return?: boolean; backspace?: boolean; delete?: boolean; tab?: boolean; escape?: boolean; ctrl?: boolean }): WizardAction[] {
+  if (key.escape || (key.ctrl && input === 'c')) return [{ type: 'escape' }];
   if (key.upArrow) return [{ type: 'up' }];
   if (key.downArrow) return [{ type: 'down' }];
   if (key.return) return [{ type: 'enter' }];
@@ -20,34 +26,37 @@ export function wizardActions(input: string, key: { upArrow?: boolean; downArrow
   return splitChunk(input).map((t): WizardAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter' } : t.kind === 'tab' ? { type: 'complete' } : { type: 'backspace' }));
 }
 
-export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
+export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const app = useApp();
   useInput((input, key) => {
-    if (key.escape) {
-      app.exit();
-      return;
-    }
     let s = current();
     for (const a of wizardActions(input, key)) {
       s = wizardReducer(s, a, evaluate);
       if (s.request) {
-        const r = act(s, s.request);
-        if (typeof r !== 'string') {
+        const r = act(s, s.request, Boolean(s.replace));
+        if (r.kind === 'handOver') {
           app.exit();
           return;
         }
-        s = wizardReducer(s, { type: 'done', message: r }, evaluate);
+        s = wizardReducer(s, { type: 'result', outcome: r }, evaluate);
+      }
+      if (s.quit) {
+        setState(s);
+        app.exit();
+        return;
       }
     }
     setState(s);
   });
   const field = currentField(state);
   const err = state.evaluation.error;
-  const suggestions = field && ['fuel', 'oxidizer', 'diluent'].includes(field) ? typeAhead(state.values[field]) : [];
+  const tabLine = field && SPECIES_FIELDS.includes(field) ? completionLine(state.values[field], field) : '';
   return (
     <Box flexDirection="column" width={80}>
-      <Text bold>mixwright - new mixture design (demo lab unless --lab)</Text>
+      <Text bold wrap="truncate-end">
+        {lab ? `mixwright - new mixture design - lab: ${lab}` : 'mixwright - new mixture design (demo lab unless --lab)'}
+      </Text>
       <Box>
         <Box flexDirection="column" width={44}>
           {FIELDS.map((f, i) => (
@@ -61,7 +70,7 @@ export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
         </Box>
         <Box flexDirection="column" width={36} borderStyle="single" paddingX={1}>
           <Text bold>preview</Text>
-          {(state.evaluation.preview?.lines ?? ['(fix the marked field)']).slice(0, 9).map((l, i) => (
+          {(state.evaluation.preview?.lines ?? [err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)']).slice(0, 9).map((l, i) => (
             <Text key={i} wrap="truncate-end">
               {l}
             </Text>
@@ -69,7 +78,7 @@ export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
         </Box>
       </Box>
       <Text wrap="wrap">{field ? (err?.field === field ? `! ${err.message}` : FIELD_HELP[field]) : err ? `! ${err.message}` : ' '}</Text>
-      <Text wrap="truncate-end">{suggestions.length ? `Tab completes: ${suggestions.join(' ')}` : ' '}</Text>
+      <Text wrap="truncate-end">{tabLine || ' '}</Text>
       <Box>
         {ACTIONS.map((a, i) => (
           <Text key={a} inverse={state.focus === FIELDS.length + i}>
@@ -77,8 +86,13 @@ export function WizardApp({ initial, evaluate, act }: WizardAppProps) {
           </Text>
         ))}
       </Box>
+      {state.question ? (
+        <Text wrap="wrap" color="yellow" bold>
+          {state.question.text}
+        </Text>
+      ) : null}
       <Text wrap="wrap">{state.message ?? ' '}</Text>
-      <Text>Up/Down: move  Enter: next / do  Tab: complete a species  Esc: quit</Text>
+      <Text>{state.question ? 'y: yes   n, Enter or Esc: no' : 'Up/Down: move  Enter: next / do  Tab: complete a species  Esc: leave'}</Text>
     </Box>
   );
 }

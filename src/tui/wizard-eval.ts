@@ -1,10 +1,10 @@
 /** The wizard's evaluator: field values -> recipe -> plan preview, or the first problem and its field. */
 import { describeProblem, fillLabel, planFill, ProblemError, type Plan } from '../core/index.js';
-import { buildPlanRequest, validateRecipeObject, type PlanRequest } from '../io/load.js';
+import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } from '../io/load.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { fromPa, isPressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
-import type { Evaluation, FieldName } from './wizard-state.js';
+import { rankFor, type Evaluation, type FieldName } from './wizard-state.js';
 
 const FIELD_OF: [RegExp, FieldName][] = [
   [/^id/, 'id'],
@@ -49,23 +49,53 @@ export function buildFromValues(v: Readonly<Record<FieldName, string>>, labFile?
   return { recipe, req, plan: planFill(req.input) };
 }
 
-export function makeEvaluator(labFile?: string) {
-  return (v: Readonly<Record<FieldName, string>>): Evaluation => {
-    if (!/^[A-Za-z0-9._-]+$/.test(v.id)) return { error: { field: 'id', message: 'letters, digits, ".", "_" and "-" only' } };
-    if (!v.tank.trim()) return { error: { field: 'tank', message: 'name a tank of the lab profile or give a volume (30 L)' } };
-    for (const f of ['phi', 'dilution'] as const) {
-      if (v[f].trim() && !/^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/.test(v[f])) return { error: { field: f, message: `"${v[f]}" is not a number` } };
+const NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
+
+/** the problems the wizard finds before planning, each saying what is wrong, why and what to type */
+export function fieldProblem(v: Readonly<Record<FieldName, string>>, tankIds: readonly string[]): Evaluation['error'] {
+  if (!/^[A-Za-z0-9._-]+$/.test(v.id)) {
+    const what = v.id === '' ? 'the id is empty' : `the id "${v.id}" holds ${/\s/.test(v.id) ? 'a space' : 'a character other than letters, digits, ".", "_" and "-"'}`;
+    return { field: 'id', message: `${what}; it names the files (recipes/<id>.yaml, fill-<id>.html, batches/<id>-...), so use letters, digits, ".", "_" and "-" only` };
+  }
+  const tanks = tankIds.length ? ` (${tankIds.join(', ')})` : '';
+  if (!v.tank.trim()) return { field: 'tank', message: `the tank is empty: name a tank of the lab profile${tanks} or give a volume such as 30 L` };
+  if (/^\s*[\d.]/.test(v.tank) && !tankIds.includes(v.tank.trim()) && !/^\s*[\d.]+\s*(l|L|m\^3|cm\^3|mL)\s*$/.test(v.tank)) {
+    return { field: 'tank', message: `"${v.tank}" is not a volume the wizard reads: write a number and L, mL, cm^3 or m^3 (30 L), or name a tank of the lab profile${tanks}` };
+  }
+  const label = { phi: 'phi (the equivalence ratio)', dilution: 'dilution (the diluent mole fraction)' } as const;
+  const example = { phi: 'a number above 0 such as 1 or 0.8', dilution: 'a number from 0 to below 1 such as 0.95' } as const;
+  for (const f of ['phi', 'dilution'] as const) {
+    if (f === 'dilution' && !v.diluent.trim()) {
+      if (v.dilution.trim() && !NUMBER.test(v.dilution)) return { field: f, message: `${label[f]} "${v[f]}" is not a number; with no diluent leave it empty or 0` };
+      continue;
     }
+    if (!v[f].trim()) return { field: f, message: `${label[f]} is empty: give ${example[f]}` };
+    if (!NUMBER.test(v[f])) return { field: f, message: `${label[f]} "${v[f]}" is not a number: give ${example[f]}` };
+  }
+  return undefined;
+}
+
+export function makeEvaluator(labFile?: string) {
+  let tankIds: string[] = [];
+  try {
+    tankIds = loadLab(labFile).tanks.map((t) => t.id);
+  } catch {
+    // a lab profile that does not load: the plan below reports it, on the tank field or as the first problem
+  }
+  return (v: Readonly<Record<FieldName, string>>): Evaluation => {
+    const early = fieldProblem(v, tankIds);
+    if (early) return { error: early };
     try {
       const { plan } = buildFromValues(v, labFile);
       return { preview: previewOf(plan) };
     } catch (e) {
-      if (e instanceof ProblemError) {
-        const f = e.where.field ?? '';
-        const field = FIELD_OF.find(([re]) => re.test(f))?.[1];
-        return { error: { field, message: describeProblem(e.problem) } };
-      }
-      return { error: { message: (e as Error).message } };
+      // not a problem the core words (a bug): say so rather than end the wizard with the design in it
+      if (!(e instanceof ProblemError)) return { error: { message: `the plan failed unexpectedly (${(e as Error).message}); this is a bug: note the values on screen and report them` } };
+      const f = e.where.field ?? '';
+      const field = FIELD_OF.find(([re]) => re.test(f))?.[1];
+      // "did you mean" in the wizard's own ranking, the one Tab completes to (air first in a whole oxidizer)
+      const p = e.problem.code === 'unknown-species' && field ? { ...e.problem, suggestions: rankFor(field, e.problem.name, !/[,:]/.test(v[field])).slice(0, 3) } : e.problem;
+      return { error: { field, message: describeProblem(p) } };
     }
   };
 }

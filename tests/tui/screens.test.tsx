@@ -98,7 +98,7 @@ describe('wizard (reducer and screen)', () => {
     expect(r.message).toMatch(/fix the design first/);
   });
   it('screen: fields, the live preview and the reason next to a bad field', async () => {
-    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => 'ok'} />);
+    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => ({ kind: "message", text: "ok" })} />);
     await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
     expect(ui.lastFrame()).toMatch(/1 CH4\s+head-1kT/);
     ui.stdin.write('\x1b[B'); // down: oxidizer
@@ -109,7 +109,7 @@ describe('wizard (reducer and screen)', () => {
     ui.unmount();
   });
   it('screen: keys sent one by one without waiting for a redraw all land in the field', async () => {
-    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => 'ok'} />);
+    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => ({ kind: "message", text: "ok" })} />);
     await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
     for (const k of ['\x1b[B', '\x7f', '\x7f', 'N', '2']) ui.stdin.write(k);
     await until(() => /oxidizer\s+N2\s+!/.test(ui.lastFrame() ?? ''), 'the refused oxidizer');
@@ -118,7 +118,7 @@ describe('wizard (reducer and screen)', () => {
 });
 
 describe('wizard actions', () => {
-  it('save recipe writes a recipe that plans to the same design; write fill sheet writes HTML; neither overwrites', async () => {
+  it('save recipe writes a recipe that plans to the same design; write fill sheet writes HTML; an existing file is not overwritten without a yes', async () => {
     const { mkdtempSync, readFileSync, existsSync } = await import('node:fs');
     const { join } = await import('node:path');
     const { tmpdir } = await import('node:os');
@@ -128,11 +128,11 @@ describe('wizard actions', () => {
     const evaluate = makeEvaluator();
     const s = wizardInit(evaluate, { ...DEFAULTS, id: 'wz1', tank: 'MT-1', dilution: '0.98' });
     const ctx = { version: 'test', recipesDir: dir, batchesDir: join(dir, 'b'), sheetsDir: dir };
-    expect(wizardAct(s, 'save recipe', ctx)).toBe(`saved ${join(dir, 'wz1.yaml')}`);
+    expect(wizardAct(s, 'save recipe', ctx)).toMatchObject({ text: `saved ${join(dir, 'wz1.yaml')}` });
     const req = buildPlanRequest(readRecipe(join(dir, 'wz1.yaml')));
     expect(req.input.design.composition.Ar).toBeCloseTo(0.98, 12);
-    expect(wizardAct(s, 'save recipe', ctx)).toMatch(/exists; add --force/);
-    expect(wizardAct(s, 'write fill sheet', ctx)).toMatch(/wrote .*fill-wz1\.html/);
+    expect(wizardAct({ ...s, values: { ...s.values, dilution: '0.97' } }, 'save recipe', ctx)).toMatchObject({ kind: 'confirm' });
+    expect(wizardAct(s, 'write fill sheet', ctx)).toMatchObject({ text: expect.stringMatching(/saved .*fill-wz1\.html/) });
     expect(readFileSync(join(dir, 'fill-wz1.html'), 'utf8')).toContain('<svg');
     const hand = wizardAct(s, 'start guided fill', ctx);
     expect(typeof hand).toBe('object');
