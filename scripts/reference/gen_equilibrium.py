@@ -1,6 +1,8 @@
 """Generate tests/fixtures/reference/equilibrium-cantera.json: constant-volume adiabatic
 (UV) equilibrium end states and Chapman-Jouguet detonation states of tank mixtures,
-computed with Cantera from exactly the NASA 7-coefficient data mixwright uses
+computed with Cantera from exactly the NASA 7-coefficient data mixwright uses, with
+the 1 bar standard state of NASA TM-4513 (Cantera's own nasa_gas.yaml leaves NASA7 at
+its 1 atm default, which moves the dissociation equilibria by about 0.05 % in pressure),
 (src/core/data/nasa7-thermo.json and nasa7-products.json): every C/H/O/N species of
 both files plus the noble gases, and graphite C(gr) as a separate condensed phase.
 
@@ -45,7 +47,7 @@ def nasa_yaml(key, rec):
     else:
         ranges, data = r, c
     return {"name": key, "composition": rec["composition"],
-            "thermo": {"model": "NASA7", "temperature-ranges": ranges, "data": data}}
+            "thermo": {"model": "NASA7", "temperature-ranges": ranges, "data": data, "reference-pressure": 1e5}}
 
 
 gas_data = {**load("nasa7-thermo.json"), **load("nasa7-products.json")}
