@@ -262,6 +262,13 @@ for name, x0, p0, what, want_cj in CASES:
     c = {"name": name, "covers": what, "X0": x0, "T0_K": T0, "P0_Pa": p0,
          "uv_P_Pa": s["P"], "uv_T_K": s["T"], "uv_graphite": bool(s["graphite_mol_per_mol"] > 1e-9),
          "uv_graphite_mol_per_mol_initial": s["graphite_mol_per_mol"]}
+    gas.TPX = T0, p0, x0
+    try:
+        gas.equilibrate("HP", rtol=1e-12, max_steps=5000, max_iter=500)
+        if not graphite_stable():
+            c["hp_T_K"] = gas.T
+    except ct.CanteraError:
+        pass
     if want_cj:
         j = cj(x0, p0)
         c.update({"cj_P_Pa": j["P"], "cj_T_K": j["T"], "cj_velocity_m_per_s": j["velocity_m_per_s"], "cj_density_ratio": j["density_ratio"]})
@@ -272,7 +279,7 @@ out = {
     "generator": "scripts/reference/gen_equilibrium.py",
     "library": f"Cantera {ct.__version__}",
     "species": GAS + ["C(gr)"],
-    "method": "UV: Cantera equilibrate('UV') (gas; TV inside a T iteration where it fails), gas TV equilibrium inside graphite-amount and T iterations where graphite is stable; CJ: minimum wave speed on the equilibrium Hugoniot (equilibrate('TV')), golden-section in rho2/rho1",
+    "method": "HP (gas-only states): equilibrate('HP'); UV: Cantera equilibrate('UV') (gas; TV inside a T iteration where it fails), gas TV equilibrium inside graphite-amount and T iterations where graphite is stable; CJ: minimum wave speed on the equilibrium Hugoniot (equilibrate('TV')), golden-section in rho2/rho1",
     "cases": out_cases,
 }
 with open("tests/fixtures/reference/equilibrium-cantera.json", "w") as f:

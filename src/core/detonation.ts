@@ -27,13 +27,68 @@ export interface ChapmanJouguet {
 
 const cjCache = new Map<string, ChapmanJouguet>();
 
+/** Brent's minimisation (golden section with parabolic steps) of a unimodal f on [a, b], to tolerance tol in x */
+function minimise(f: (x: number) => number, a: number, b: number, tol: number): number {
+  const g = 0.3819660112501051;
+  let x = a + g * (b - a);
+  let w = x;
+  let v = x;
+  let fx = f(x);
+  let fw = fx;
+  let fv = fx;
+  let d = 0;
+  let e = 0;
+  for (let it = 0; it < 100; it++) {
+    const m = (a + b) / 2;
+    const tol1 = tol / 3 + 1e-10 * Math.abs(x);
+    if (Math.abs(x - m) <= 2 * tol1 - (b - a) / 2) break;
+    let golden = true;
+    if (Math.abs(e) > tol1) {
+      const r = (x - w) * (fx - fv);
+      let q = (x - v) * (fx - fw);
+      let p = (x - v) * q - (x - w) * r;
+      q = 2 * (q - r);
+      if (q > 0) p = -p;
+      else q = -q;
+      if (Math.abs(p) < Math.abs(0.5 * q * e) && p > q * (a - x) && p < q * (b - x)) {
+        e = d;
+        d = p / q;
+        const u = x + d;
+        if (u - a < 2 * tol1 || b - u < 2 * tol1) d = x < m ? tol1 : -tol1;
+        golden = false;
+      }
+    }
+    if (golden) {
+      e = (x < m ? b : a) - x;
+      d = g * e;
+    }
+    const u = Math.abs(d) >= tol1 ? x + d : x + (d > 0 ? tol1 : -tol1);
+    const fu = f(u);
+    if (fu <= fx) {
+      if (u < x) b = x;
+      else a = x;
+      [v, fv, w, fw, x, fx] = [w, fw, x, fx, u, fu];
+    } else {
+      if (u < x) a = u;
+      else b = u;
+      if (fu <= fw || w === x) {
+        [v, fv, w, fw] = [w, fw, u, fu];
+      } else if (fu <= fv || v === x || v === w) {
+        v = u;
+        fv = fu;
+      }
+    }
+  }
+  return x;
+}
+
 /**
  * Chapman-Jouguet detonation state by the minimum-velocity condition on the equilibrium
  * Hugoniot (Fickett & Davis, Detonation, 1979, ch. 2): for a density ratio r = rho2/rho1
  * the equilibrium state (T2, v2 = v1/r) satisfies h2 - h1 = (P2 - P1)(v1 + v2)/2, the
  * wave speed is w1^2 = (P2 - P1)/(rho1^2 (v1 - v2)), and the CJ state is the r that
  * minimises w1 (the Rayleigh line tangent to the Hugoniot, where the products move at
- * the equilibrium sound speed). Golden-section search in r over 1.1-3.2.
+ * the equilibrium sound speed). Brent's minimisation in r over 1.1-3.2.
  * y: initial mole fractions; temperatureK, pressurePa: initial state. Ideal gas.
  * Example: stoichiometric H2-air from 298.15 K, 1 bar -> P_CJ 15.58 bar, 2944 K, 1969 m/s
  * (Cantera 3.2.0 on the same data, tests/fixtures/reference/equilibrium-cantera.json).
@@ -63,29 +118,7 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
     const p2 = ws.at(t, v2).pressurePa;
     return { w2: ((p2 - pressurePa) * v0 * v0) / (massKg * (v0 - v2)), t, p2 };
   };
-  const g = (Math.sqrt(5) - 1) / 2;
-  let a = 1.1;
-  let b = 3.2;
-  let c = b - g * (b - a);
-  let d = a + g * (b - a);
-  let fc = hugoniot(c).w2;
-  let fd = hugoniot(d).w2;
-  while (b - a > 1e-6) {
-    if (fc < fd) {
-      b = d;
-      d = c;
-      fd = fc;
-      c = b - g * (b - a);
-      fc = hugoniot(c).w2;
-    } else {
-      a = c;
-      c = d;
-      fc = fd;
-      d = a + g * (b - a);
-      fd = hugoniot(d).w2;
-    }
-  }
-  const r = (a + b) / 2;
+  const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, 1e-6);
   const h = hugoniot(r);
   const out = { pressurePa: h.p2, temperatureK: h.t, velocityMPerS: Math.sqrt(h.w2), densityRatio: r, reflectedPa: REFLECTED_OVER_CJ * h.p2 };
   if (cjCache.size > 500) cjCache.clear();
