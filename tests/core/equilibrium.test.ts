@@ -9,6 +9,10 @@ import {
   equilibriumHP,
   equilibriumTP,
   equilibriumUV,
+  DETONATION_LIMITS,
+  EQUILIBRIUM_SPECIES_COUNT,
+  FUEL_SAFETY,
+  getSource,
   ProblemError,
   R,
 } from '../../src/core/index.js';
@@ -196,5 +200,31 @@ describe('detonability (data/detonation-data.ts: published limits, all recalled 
     expect(d.limits!.phiLow).toBeGreaterThan(0);
     expect(d.oxygenShare).toBeCloseTo(0.5, 10);
     expect(d.detonable).toBe(true);
+  });
+});
+
+describe('data integrity: product species and detonation limits', () => {
+  it('nasa7-products.json: 15 species (14 gases and graphite), 7 coefficients per range, the TM-4513 source named; the equilibrium uses 51 (the 36 C/H/O/N/noble-gas species of nasa7-thermo, 14 product gases, graphite)', () => {
+    const sp = products.species as Record<string, { coefficients: number[][]; temperatureRanges: number[]; phase: string }>;
+    expect(Object.keys(sp).length).toBe(15);
+    expect(sp['C(gr)'].phase).toBe('solid');
+    for (const [k, v] of Object.entries(sp)) {
+      expect(v.coefficients.length, k).toBe(v.temperatureRanges.length - 1);
+      for (const row of v.coefficients) expect(row.length).toBe(7);
+    }
+    expect(products.source).toMatch(/NASA TM-4513/);
+    expect(getSource('nasa-tm-4513-products').quality).toBe('experimental-review');
+    expect(EQUILIBRIUM_SPECIES_COUNT).toBe(51);
+  });
+  it('detonation limits: 9 published pairs, every source resolves and is marked from memory, low < high, and inside the flammable range of the fuel (NFPA 497 / IEC LFL in air; UFL in O2)', () => {
+    expect(DETONATION_LIMITS.length).toBe(9);
+    for (const r of DETONATION_LIMITS) {
+      for (const v of [r.low, r.high]) expect(getSource(v.source).quality, `${r.fuel}-${r.oxidizer}`).toBe('from-memory');
+      expect(r.low.value).toBeLessThan(r.high.value);
+      const f = FUEL_SAFETY.get(r.fuel)!;
+      expect(r.low.value).toBeGreaterThanOrEqual(Math.min(...f.lflAir.map((x) => x.value)));
+      const upper = r.oxidizer === 'air' ? Math.max(...f.uflAir.map((x) => x.value)) : (f.uflO2?.value ?? 1);
+      expect(r.high.value, `${r.fuel}-${r.oxidizer}`).toBeLessThanOrEqual(upper);
+    }
   });
 });
