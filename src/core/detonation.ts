@@ -106,19 +106,22 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
   const ws = equilibriumWorkspace(y, temperatureK, pressurePa);
   const { h0, v0, massKg } = ws;
   let tGuess = 2500;
+  let firstStep = 100;
   const hugoniot = (r: number) => {
     const v2 = v0 / r;
     const f = (t: number) => {
       const s = ws.at(t, v2);
       return s.enthalpyJ - h0 - 0.5 * (s.pressurePa - pressurePa) * (v0 + v2);
     };
-    const t = rootOfIncreasing(f, temperatureK, 6000, tGuess, 1e-7);
+    const t = rootOfIncreasing(f, temperatureK, 6000, tGuess, 1e-5, firstStep);
     if (t === undefined) return fail({ code: 'equilibrium-not-converged', what: `detonation Hugoniot at density ratio ${r.toFixed(3)} (too little fuel, or beyond 6000 K)` });
+    // the next density ratio is close: its Hugoniot temperature is within a few tens of kelvin
+    firstStep = Math.max(1, Math.min(100, Math.abs(t - tGuess) * 1.5));
     tGuess = t;
     const p2 = ws.at(t, v2).pressurePa;
     return { w2: ((p2 - pressurePa) * v0 * v0) / (massKg * (v0 - v2)), t, p2 };
   };
-  const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, 1e-6);
+  const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, 1e-5);
   const h = hugoniot(r);
   const out = { pressurePa: h.p2, temperatureK: h.t, velocityMPerS: Math.sqrt(h.w2), densityRatio: r, reflectedPa: REFLECTED_OVER_CJ * h.p2 };
   if (cjCache.size > 500) cjCache.clear();

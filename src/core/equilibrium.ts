@@ -151,6 +151,13 @@ class Solver {
   hGrRT = 0;
   started = false;
   private readonly tmp = { h: 0, s: 0, cp: 0 };
+  // newton workspace, allocated once per solver
+  private readonly H: Float64Array;
+  private readonly grad: Float64Array;
+  private readonly step: Float64Array;
+  private readonly old: Float64Array;
+  private readonly free: boolean[];
+  private readonly work: SpdWork;
   private tCached = NaN;
 
   private readonly products: ReadonlyMap<string, number>;
@@ -165,6 +172,12 @@ class Solver {
     this.n = new Float64Array(ns);
     this.g = new Float64Array(ns);
     this.hRT = new Float64Array(ns);
+    this.H = new Float64Array(m * m);
+    this.grad = new Float64Array(m);
+    this.step = new Float64Array(m);
+    this.old = new Float64Array(m);
+    this.free = new Array<boolean>(m).fill(true);
+    this.work = { L: new Float64Array(m * m), idx: new Int32Array(m), sc: new Float64Array(m), y: new Float64Array(m) };
   }
 
   private thermo(t: number) {
@@ -218,8 +231,8 @@ class Solver {
       });
       if (best >= 0) row(best, Math.log(Math.max(this.b[i] / sys.a[best * m + i], 1e-30)), 1e-3);
     }
-    const free = sys.elements.map(() => true);
-    if (!solveSpd(A, rhs, this.lambda, m, free)) this.lambda.fill(0);
+    this.free.fill(true);
+    if (!solveSpd(A, rhs, this.lambda, m, this.free, this.work)) this.lambda.fill(0);
     if (sys.graphite) this.lambda[sys.carbon] = Math.min(this.lambda[sys.carbon], this.gGr);
   }
 
@@ -286,13 +299,9 @@ class Solver {
   }
 
   private newton(shift: number, fixC: boolean): boolean {
-    const { sys, b, lambda, n } = this;
+    const { sys, b, lambda, n, H, grad, step, old, free } = this;
     const m = sys.elements.length;
-    const free = sys.elements.map((_, i) => !(fixC && i === sys.carbon));
-    const H = new Float64Array(m * m);
-    const grad = new Float64Array(m);
-    const step = new Float64Array(m);
-    const old = new Float64Array(m);
+    for (let i = 0; i < m; i++) free[i] = !(fixC && i === sys.carbon);
     let d = this.dual(shift);
     for (let it = 0; it < 200; it++) {
       H.fill(0);
@@ -310,7 +319,7 @@ class Solver {
       let converged = true;
       for (let i = 0; i < m; i++) if (free[i] && Math.abs(grad[i]) > 1e-11 * b[i] + 1e-15) converged = false;
       if (converged) return true;
-      if (!solveSpd(H, grad, step, m, free)) return false;
+      if (!solveSpd(H, grad, step, m, free, this.work)) return false;
       // limit the step so exp() stays finite; the line search does the rest (D is concave)
       let big = 0;
       for (let i = 0; i < m; i++) big = Math.max(big, Math.abs(step[i]));
@@ -360,13 +369,22 @@ class Solver {
   }
 }
 
+interface SpdWork {
+  readonly L: Float64Array;
+  readonly idx: Int32Array;
+  readonly sc: Float64Array;
+  readonly y: Float64Array;
+}
+
 /** Cholesky solve of the free block of a symmetric positive (semi)definite H (lower triangle filled), Jacobi-scaled */
-function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number, free: readonly boolean[]): boolean {
-  const idx: number[] = [];
-  for (let i = 0; i < m; i++) if (free[i]) idx.push(i);
-  const k = idx.length;
-  const L = new Float64Array(k * k);
-  const sc = idx.map((i) => (H[i * m + i] > 0 ? 1 / Math.sqrt(H[i * m + i]) : 1));
+function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number, free: readonly boolean[], w: SpdWork): boolean {
+  const { L, idx, sc, y } = w;
+  let k = 0;
+  for (let i = 0; i < m; i++) if (free[i]) idx[k++] = i;
+  for (let p = 0; p < k; p++) {
+    const hii = H[idx[p] * m + idx[p]];
+    sc[p] = hii > 0 ? 1 / Math.sqrt(hii) : 1;
+  }
   for (let p = 0; p < k; p++) for (let q = 0; q <= p; q++) L[p * k + q] = H[idx[p] * m + idx[q]] * sc[p] * sc[q];
   for (let p = 0; p < k; p++) L[p * k + p] += 1e-13;
   for (let p = 0; p < k; p++) {
@@ -379,7 +397,7 @@ function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number
       } else L[p * k + q] = s / L[q * k + q];
     }
   }
-  const y = idx.map((i, p) => rhs[i] * sc[p]);
+  for (let p = 0; p < k; p++) y[p] = rhs[idx[p]] * sc[p];
   for (let p = 0; p < k; p++) {
     for (let r = 0; r < p; r++) y[p] -= L[p * k + r] * y[r];
     y[p] /= L[p * k + p];
@@ -389,7 +407,7 @@ function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number
     y[p] /= L[p * k + p];
   }
   x.fill(0);
-  idx.forEach((i, p) => (x[i] = y[p] * sc[p]));
+  for (let p = 0; p < k; p++) x[idx[p]] = y[p] * sc[p];
   return true;
 }
 
@@ -398,11 +416,11 @@ function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number
  * solved near the answer and the rest warm-start): secant steps until the root is
  * bracketed, then Illinois regula falsi. undefined when f has no sign change on [lo, hi].
  */
-function rootIncreasing(f: (x: number) => number, lo: number, hi: number, guess: number, tol: number): number | undefined {
+function rootIncreasing(f: (x: number) => number, lo: number, hi: number, guess: number, tol: number, firstStep = 100): number | undefined {
   let x0 = Math.min(hi, Math.max(lo, guess));
   let f0 = f(x0);
   if (f0 === 0) return x0;
-  let step = f0 > 0 ? -100 : 100;
+  let step = f0 > 0 ? -firstStep : firstStep;
   let a = NaN;
   let fa = NaN;
   let b = NaN;
@@ -465,7 +483,8 @@ function initialState(y: Fractions, temperatureK: number, pressurePa: number) {
 /** start temperature: the complete-combustion value, pulled down where dissociation matters */
 function completeGuessK(y: Fractions, temperatureK: number, kind: 'UV' | 'HP'): number {
   const t = kind === 'UV' ? closedVesselCombustion(y, temperatureK).temperatureK : flameTemperatureK(y, temperatureK);
-  return t > 2200 ? 2200 + 0.6 * (t - 2200) : t;
+  // above about 2200 K dissociation takes a growing share of the heat (fitted loosely on stoichiometric fuel/air and fuel/O2)
+  return t > 2200 ? 2200 + (kind === 'UV' ? 0.5 : 0.3) * (t - 2200) : t;
 }
 
 function notConverged(what: string): never {
@@ -513,25 +532,33 @@ export function equilibriumUV(y: Fractions, temperatureK: number, pressurePa: nu
       return s.totals(t).u - u0;
     };
     const lo = Math.max(120, temperatureK - 50);
-    const t = rootIncreasing(f, lo, T_MAX_K, completeGuessK(y, temperatureK, 'UV'), 1e-7);
+    const t = rootIncreasing(f, lo, T_MAX_K, completeGuessK(y, temperatureK, 'UV'), 1e-5);
     if (t === undefined) notConverged('closed-vessel equilibrium: end temperature outside 120-6000 K');
     f(t);
     return s.state(t, v0);
   });
 }
 
-/** equilibrium at fixed T and P; the volume is iterated until the gas fills it at P */
+/** equilibrium at fixed T and P: secant iteration on ln V until the gas fills V at P */
 function solveTP(s: Solver, t: number, pressurePa: number, vGuess: number): number {
-  let lnV = Math.log(vGuess);
-  for (let it = 0; it < 100; it++) {
+  // err(ln V) = ln(n R T / (V P)); its slope d ln n/d ln V - 1 lies in (-1, 0]
+  const err = (lnV: number) => {
     if (!s.solveTV(t, Math.exp(lnV))) notConverged(`equilibrium at ${t.toFixed(0)} K`);
-    const nGas = s.totals(t).nGas;
-    const err = Math.log((nGas * R * t) / (Math.exp(lnV) * pressurePa));
-    if (Math.abs(err) < 1e-13) return Math.exp(lnV);
-    // d ln(nRT/V) / d ln V = d ln n / d ln V - 1, and 0 <= d ln n / d ln V < 1: a plain step overshoots little
-    lnV += err;
+    return Math.log((s.totals(t).nGas * R * t) / (Math.exp(lnV) * pressurePa));
+  };
+  let x0 = Math.log(vGuess);
+  let e0 = err(x0);
+  if (Math.abs(e0) < 1e-10) return Math.exp(x0);
+  let x1 = x0 + e0;
+  let e1 = err(x1);
+  for (let it = 0; it < 100 && Math.abs(e1) >= 1e-10; it++) {
+    const slope = (e1 - e0) / (x1 - x0);
+    const next = Number.isFinite(slope) && slope < -0.05 ? x1 - e1 / slope : x1 + e1;
+    [x0, e0] = [x1, e1];
+    x1 = next;
+    e1 = err(x1);
   }
-  return Math.exp(lnV);
+  return Math.exp(x1);
 }
 
 /**
@@ -560,11 +587,13 @@ export function equilibriumHP(y: Fractions, temperatureK: number, pressurePa: nu
     const { sys, b, h0, products } = initialState(y, temperatureK, pressurePa);
     const s = new Solver(sys, b, products);
     let v = (R * temperatureK) / pressurePa;
+    let tLast = temperatureK;
     const f = (t: number) => {
-      v = solveTP(s, t, pressurePa, (v * t) / Math.max(t, 1));
+      v = solveTP(s, t, pressurePa, (v * t) / tLast);
+      tLast = t;
       return s.totals(t).h - h0;
     };
-    const t = rootIncreasing(f, Math.max(120, temperatureK - 50), T_MAX_K, completeGuessK(y, temperatureK, 'HP'), 1e-7);
+    const t = rootIncreasing(f, Math.max(120, temperatureK - 50), T_MAX_K, completeGuessK(y, temperatureK, 'HP'), 1e-4);
     if (t === undefined) notConverged('flame equilibrium: temperature outside 120-6000 K');
     f(t);
     return s.state(t, v);
