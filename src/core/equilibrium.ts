@@ -517,8 +517,8 @@ function memo(kind: string, y: Fractions, a: number, b: number, run: () => Equil
  * contents burn completely to equilibrium without heat loss, U(T_e, V, n_e) = U(T0, V, n0).
  * y: mole fractions of the initial gas; temperatureK, pressurePa: initial state.
  * Valid for 150-1000 K and up to 1e8 Pa initially, end states up to 6000 K; ideal gas.
- * Example: stoichiometric CH4-air from 298.15 K, 1 atm -> 8.80 atm, 2586 K
- * (Cantera 3.2.0 on the same data: 8.797, 2585.7 K; tests/core/equilibrium.test.ts).
+ * Example: stoichiometric CH4-air from 298.15 K, 1 atm -> 8.799 atm, 2586.3 K
+ * (Cantera 3.2.0 on the same data; tests/core/equilibrium.test.ts).
  * Refuses (ProblemError) species without data or with elements other than C, H, O, N
  * and the noble gases.
  */
@@ -563,7 +563,8 @@ function solveTP(s: Solver, t: number, pressurePa: number, vGuess: number): numb
 
 /**
  * Equilibrium at fixed temperature and pressure (TP), per mole of initial mixture.
- * Example: stoichiometric H2-O2 at 3000 K, 1 bar is about 20 % dissociated (H2O mole fraction near 0.6).
+ * Example: stoichiometric H2-O2 at 3000 K, 1 bar: H2O 0.645, H2 0.134, OH 0.092, H 0.058, O2 0.046
+ * (the law of mass action with the same NASA data holds to 1e-6: tests/core/equilibrium.test.ts).
  */
 export function equilibriumTP(y: Fractions, temperatureK: number, pressurePa: number): EquilibriumState {
   if (!(temperatureK >= 150 && temperatureK <= T_MAX_K)) fail({ code: 'out-of-range', what: 'equilibrium temperature (K)', value: temperatureK, allowed: `150-${T_MAX_K} K` });
@@ -578,8 +579,8 @@ export function equilibriumTP(y: Fractions, temperatureK: number, pressurePa: nu
 
 /**
  * Adiabatic flame temperature at constant pressure with equilibrium products (HP):
- * H(T_ad, P, n_e) = H(T0, P, n0). Example: stoichiometric CH4-air from 298.15 K, 1 atm -> 2225 K
- * (Cantera 3.2.0: 2224.7 K, tests/fixtures/reference/flame-cantera.json).
+ * H(T_ad, P, n_e) = H(T0, P, n0). Example: stoichiometric CH4-air from 298.15 K, 1 atm -> 2225.0 K
+ * (Cantera 3.2.0 on the same data, tests/fixtures/reference/equilibrium-cantera.json).
  */
 export function equilibriumHP(y: Fractions, temperatureK: number, pressurePa: number): EquilibriumState {
   checkInputs(y, temperatureK, pressurePa);
