@@ -1,9 +1,10 @@
 // Re-check throughput, bundled into dist/bench-check.mjs by scripts/build.mjs and run by scripts/bench.mjs:
 //  1. the Monte Carlo re-check of a 4-gas batch with 1e6 trials (in-process wall time);
-//  2. writes a folder of 1000 batch logs for the folder re-check that bench.mjs times as a cold command.
+//  2. writes a folder of 1000 batch logs for the folder re-check that bench.mjs times as a cold command;
+//  3. ('equilibrium') the time per state of the closed-vessel equilibrium and of the CJ detonation state.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { planFill } from '../src/core/index.js';
+import { chapmanJouguet, equilibriumUV, planFill } from '../src/core/index.js';
 import { evaluateUncertaintyParallel } from '../src/io/parallel-mc.js';
 import { buildPlanRequest, loadLab } from '../src/io/load.js';
 import { appendEvent, createLog } from '../src/io/batch-log.js';
@@ -39,4 +40,35 @@ if (mode === 'mc') {
     }
   }
   console.log(JSON.stringify({ wrote: n, dir }));
+}
+if (mode === 'equilibrium') {
+  // flammable tank states of the kinds the review meets; each timed call uses a new pressure so no cache answers it
+  const states: Record<string, number>[] = [
+    { CH4: 0.095, O2: 0.19, N2: 0.715 },
+    { CH4: 1 / 3, O2: 2 / 3 },
+    { H2: 0.296, O2: 0.148, N2: 0.556 },
+    { C2H4: 0.24, O2: 0.24, N2: 0.52 },
+    { C2H4: 0.6, O2: 0.4 },
+    { CH4: 0.05, O2: 0.1, Ar: 0.85 },
+    { H2: 0.2, O2: 0.1, He: 0.7 },
+    { C3H8: 0.04, O2: 0.2, CO2: 0.76 },
+  ];
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+  const time = (f: (y: Record<string, number>, p: number) => unknown, rounds: number) => {
+    const t0 = performance.now();
+    f(states[0], 1e5 - 1);
+    const first = performance.now() - t0;
+    const each: number[] = [];
+    for (let r = 0; r < rounds; r++) {
+      for (const y of states) {
+        const t = performance.now();
+        f(y, 1e5 + r * 97 + 1);
+        each.push(performance.now() - t);
+      }
+    }
+    return { first, median: median(each), max: Math.max(...each) };
+  };
+  const uv = time((y, p) => equilibriumUV(y, 298.15, p), 20);
+  const cj = time((y, p) => chapmanJouguet(y, 298.15, p), 3);
+  console.log(JSON.stringify({ uv, cj }));
 }

@@ -72,6 +72,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 const mc = JSON.parse(spawnSync(process.execPath, ['dist/bench-check.mjs', 'mc', '1000000'], { encoding: 'utf8' }).stdout);
 console.log(`Monte Carlo re-check, 4-gas batch, ${mc.trials} trials: ${(mc.ms / 1000).toFixed(2)} s (target < 2 s) ${mc.ms < 2000 ? 'OK' : 'OVER TARGET'}; rss ${mc.rssMB.toFixed(0)} MB`);
+{
+  const eq = JSON.parse(spawnSync(process.execPath, ['dist/bench-check.mjs', 'equilibrium'], { encoding: 'utf8' }).stdout);
+  const f = (x) => `median ${x.median.toFixed(2)} ms, max ${x.max.toFixed(1)} ms, first call (cold) ${x.first.toFixed(1)} ms`;
+  console.log(`closed-vessel equilibrium (UV) per state, 8 states: ${f(eq.uv)} (target: a few ms) ${eq.uv.median < 5 ? 'OK' : 'OVER TARGET'}`);
+  console.log(`Chapman-Jouguet state per state, 8 states: ${f(eq.cj)}`);
+}
 const dir = mkdtempSync(join(tmpdir(), 'mw-bench-'));
 try {
   spawnSync(process.execPath, ['dist/bench-check.mjs', 'folder', dir, '1000'], { encoding: 'utf8' });

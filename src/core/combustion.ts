@@ -3,7 +3,9 @@
  * of a tank state, its adiabatic flame temperature (constant pressure) and its
  * closed-vessel (constant volume) end state. No dissociation: these are upper
  * bounds of the flame temperature, as the calculated adiabatic flame temperature
- * method for flammability wants.
+ * method for flammability wants. The safety review's closed-vessel pressure and the
+ * flame temperatures it shows come from chemical equilibrium (equilibrium.ts); the
+ * complete-combustion values here are its labelled cross-checks.
  */
 import { R } from './constants.js';
 import { getSpecies } from './lookup.js';

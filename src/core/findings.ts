@@ -29,8 +29,8 @@ export type Finding = Base &
     | { readonly code: 'tank-rating-unknown'; readonly tank: string }
     | { readonly code: 'isolate-gauge'; readonly gauge: string; readonly topPa: number }
     | ({ readonly code: 'flammable-state' | 'flammable-mixture' | 'near-flammable' } & FlammabilityNumbers)
-    | { readonly code: 'detonable-state'; readonly inertFraction: number; readonly pressurePa: number }
-    | { readonly code: 'closed-vessel-pressure'; readonly fromPa: number; readonly peakPa: number; readonly limitPa?: number }
+    | ({ readonly code: 'detonable-state'; readonly inertFraction: number; readonly pressurePa: number } & DetonationNumbers)
+    | ({ readonly code: 'closed-vessel-pressure'; readonly fromPa: number; readonly peakPa: number; readonly limitPa?: number } & ClosedVesselNumbers)
     | { readonly code: 'compression-heating'; readonly fuel: string; readonly fromPa: number; readonly toPa: number; readonly gamma: number; readonly endK: number; readonly aitK: number }
     | { readonly code: 'condensation'; readonly species: string; readonly partialPa: number; readonly psatPa: number; readonly fraction: number; readonly coldestK: number; readonly inLine: boolean; readonly method: string }
     | { readonly code: 'psat-estimated'; readonly species: string; readonly method: string; readonly coldestK: number }
@@ -56,6 +56,8 @@ export interface FlammabilityNumbers {
   readonly loc?: number;
   readonly flameK?: number;
   readonly limitFlameK?: number;
+  /** equilibrium adiabatic flame temperature at constant pressure (what the flame reaches; flameK is the complete-combustion value the method compares) */
+  readonly flameEquilibriumK?: number;
   readonly pressurePa: number;
   /** how far the state is from the flammable region (set by the state review) */
   readonly side?: 'lean' | 'rich';
@@ -69,6 +71,41 @@ export interface FlammabilityNumbers {
   readonly fuelOverUfl?: number;
   /** true when the verdict was raised to near-limit only because a fuel has no limits on file */
   readonly missingData?: boolean;
+}
+
+/** how the detonation was judged and what it would do (all optional: a path review may give only the basics) */
+export interface DetonationNumbers {
+  /** published detonation limits, or the conservative inert rule */
+  readonly basis?: 'published-limits' | 'inert-rule';
+  /** fuel/O2 with less than 10 % N2-equivalent inert */
+  readonly undiluted?: boolean;
+  readonly phi?: number;
+  /** the limits applied, as equivalence ratios, and their source keys */
+  readonly phiLow?: number;
+  readonly phiHigh?: number;
+  readonly limitSources?: readonly string[];
+  /** Chapman-Jouguet state from the equilibrium Hugoniot */
+  readonly cjPa?: number;
+  readonly cjK?: number;
+  readonly cjVelocityMPerS?: number;
+  /** about 2.5 x P_CJ (common practice) */
+  readonly reflectedPa?: number;
+  readonly limitPa?: number;
+  /** why the CJ state could not be computed */
+  readonly cjMissing?: string;
+}
+
+/** the closed-vessel end state: constant-volume adiabatic equilibrium, complete combustion as a cross-check */
+export interface ClosedVesselNumbers {
+  /** 'equilibrium' (UV) or, where the equilibrium data are missing, 'complete-combustion' */
+  readonly method?: 'equilibrium' | 'complete-combustion';
+  readonly temperatureK?: number;
+  /** complete combustion at constant volume, a cross-check */
+  readonly completePa?: number;
+  readonly completeK?: number;
+  /** graphite (soot) formed at equilibrium, mol per mol of gas filled */
+  readonly graphiteMol?: number;
+  readonly equilibriumMissing?: string;
 }
 
 export type FindingCode = Finding['code'];
@@ -87,7 +124,8 @@ function flammabilityDetail(f: FlammabilityNumbers): string {
   if (f.lfl !== undefined) parts.push(`LFL ${pct(f.lfl)}`);
   if (f.loc !== undefined) parts.push(`LOC ${pct(f.loc)}`);
   if (f.side === 'rich' && f.uflHere !== undefined) parts.push(`rich side: UFL ${pct(f.uflHere)} at this O2 share`);
-  if (f.flameK !== undefined && f.limitFlameK !== undefined) parts.push(`flame ${f.flameK.toFixed(0)} K vs limit ${f.limitFlameK.toFixed(0)} K`);
+  if (f.flameEquilibriumK !== undefined) parts.push(`flame ${f.flameEquilibriumK.toFixed(0)} K (equilibrium)`);
+  if (f.flameK !== undefined && f.limitFlameK !== undefined) parts.push(`flame-temperature method: ${f.flameK.toFixed(0)} K by complete combustion (a cross-check, no dissociation) vs limit ${f.limitFlameK.toFixed(0)} K`);
   return `${parts.join('; ')}; by ${f.method}`;
 }
 
@@ -109,6 +147,37 @@ function nearLimitDistance(f: FlammabilityNumbers): string {
   if (f.missingData) parts.push('no flammability limits on file for a fuel it holds, so it cannot be judged non-flammable');
   if (!parts.length) parts.push('outside the envelope between its corners, within the margins of the LFL and the LOC');
   return parts.join('; ');
+}
+
+function describeDetonation(f: Extract<Finding, { code: 'detonable-state' }>, p: PressureFormatter): string {
+  const basis =
+    f.basis === 'published-limits'
+      ? `inside the published detonation limits${f.phiLow !== undefined && f.phiHigh !== undefined ? ` (equivalence ratio ${f.phi?.toFixed(2)} within ${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : ''})` : ''}`
+      : `with ${pct(f.inertFraction)} N2-equivalent inert, below the 50 % of our conservative rule (no published detonation limits used for this fuel)`;
+  const what = f.undiluted ? `undiluted fuel/O2 at ${p(f.pressurePa)}, ${basis}` : `fuel and oxidizer at ${p(f.pressurePa)} ${basis}`;
+  const cj =
+    f.cjPa !== undefined && f.reflectedPa !== undefined
+      ? `; a detonation would reach about ${p(f.cjPa)} (Chapman-Jouguet, equilibrium, ${f.cjK?.toFixed(0)} K, ${f.cjVelocityMPerS?.toFixed(0)} m/s) and about ${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? ` against the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`
+      : f.cjMissing
+        ? `; its detonation pressure could not be estimated (${f.cjMissing})`
+        : '';
+  const advice = f.undiluted
+    ? ' - fuel/O2 mixtures without diluent are not made in a mixing tank (common practice; gauges and valves on the manifold are rated far below the tank): add the bath gas before the oxidizer, or do not make this state'
+    : f.severity === 'danger'
+      ? ' - the tank would not hold it: lower the pressure of this state, dilute it more, or change the fill order'
+      : ' - keep ignition sources away and consider a lower pressure or more diluent';
+  return `this state can detonate: ${what}${cj}${advice}`;
+}
+
+function describeClosedVessel(f: Extract<Finding, { code: 'closed-vessel-pressure' }>, p: PressureFormatter): string {
+  const how =
+    f.method === 'complete-combustion'
+      ? `complete combustion at constant volume from ${p(f.fromPa)}; no equilibrium: ${f.equilibriumMissing ?? 'data missing'}`
+      : `constant-volume adiabatic equilibrium from ${p(f.fromPa)}${f.temperatureK !== undefined ? `, ${f.temperatureK.toFixed(0)} K` : ''}${f.graphiteMol ? `, with soot (graphite) forming` : ''}${f.completePa !== undefined ? `; complete combustion, a cross-check, gives ${p(f.completePa)}` : ''}`;
+  const over = f.limitPa !== undefined && f.peakPa > f.limitPa;
+  return over
+    ? `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (${how}), above the tank's working limit ${p(f.limitPa!)} - lower the pressure of this state or change the fill order`
+    : `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (${how})${f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : '; the tank rating is unknown'}`;
 }
 
 export function describeFinding(f: Finding, p: PressureFormatter): string {
@@ -146,11 +215,9 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'near-flammable':
       return `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} (N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong gas could make it flammable`;
     case 'detonable-state':
-      return `fuel and oxidizer with only ${pct(f.inertFraction)} N2-equivalent inert at ${p(f.pressurePa)}: such mixtures can detonate, and a reflected detonation exceeds the closed-vessel pressure several times - add the bath gas before the oxidizer, or do not make this state`;
+      return describeDetonation(f, p);
     case 'closed-vessel-pressure':
-      return f.limitPa !== undefined && f.peakPa > f.limitPa
-        ? `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (complete combustion, constant volume, from ${p(f.fromPa)}), above the tank's working limit ${p(f.limitPa)}`
-        : `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (complete combustion, constant volume, from ${p(f.fromPa)})${f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : ''}`;
+      return describeClosedVessel(f, p);
     case 'compression-heating':
       return `this fill compresses gas holding ${f.fuel} from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it heats it to ${kelvin(f.endK)}, against an autoignition temperature of ${kelvin(f.aitK)}. Throttle the fill (open the valve slowly) or change the order`;
     case 'condensation':

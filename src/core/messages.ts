@@ -47,6 +47,10 @@ export function describeProblem(p: Problem): string {
       return p.reason;
     case 'model-range':
       return p.reason;
+    case 'no-equilibrium-data':
+      return `no equilibrium can be computed for ${list(p.species)}: the product data (NASA polynomials) cover only species of C, H, O, N and the noble gases; the closed-vessel and detonation pressures of such a state are not estimated - judge them from the supplier's data or a specialist`;
+    case 'equilibrium-not-converged':
+      return `the chemical equilibrium did not converge (${p.what}); the pressure estimate that needs it is not available - report this state to the maintainers`;
   }
 }
 

@@ -33,7 +33,9 @@ export type Problem =
   | { readonly code: 'unknown-reference'; readonly kind: string; readonly id: string; readonly choices: readonly string[] }
   | { readonly code: 'no-supply'; readonly species: string; readonly reason: string }
   | { readonly code: 'no-gauge'; readonly reason: string }
-  | { readonly code: 'model-range'; readonly reason: string };
+  | { readonly code: 'model-range'; readonly reason: string }
+  | { readonly code: 'no-equilibrium-data'; readonly species: readonly string[] }
+  | { readonly code: 'equilibrium-not-converged'; readonly what: string };
 
 export type ProblemCode = Problem['code'];
 

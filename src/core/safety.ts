@@ -8,7 +8,8 @@
 import type { Fractions } from './composition.js';
 import { ACETYLENE_LIMIT_PA, FUEL_SAFETY, INERT_K } from './data/safety-data.js';
 import { assessFlammability, blendLimits, type FlammabilityAssessment } from './flammability.js';
-import { adiabaticCompressionK, closedVesselCombustion } from './combustion.js';
+import { adiabaticCompressionK } from './combustion.js';
+import { closedVesselFinding, detonationFinding, equilibriumFlameK } from './explosion-review.js';
 import { gammaMixture } from './thermo.js';
 import { saturationPressure } from './vapour-pressure.js';
 import { getSpecies } from './lookup.js';
@@ -45,8 +46,6 @@ export interface FillEvent {
 
 /** fuels whose autoignition temperature is low enough to matter even without a flammable state */
 const COMPRESSION_WARNING_MARGIN_K = 100;
-/** inert share of the N2-equivalent diagram below which a flammable fuel/O2 state counts as detonable */
-const DETONABLE_INERT_BELOW = 0.5;
 const OXYGEN_ENRICHED_ABOVE = 0.235;
 
 function hasOxidizer(y: Fractions): boolean {
@@ -59,7 +58,8 @@ function fuelsIn(y: Fractions): string[] {
     .map(([k]) => k);
 }
 
-export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: number): FlammabilityNumbers {
+/** the numbers of a flammability finding; with the composition and temperature it adds the equilibrium flame temperature */
+export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: number, composition?: Fractions, temperatureK?: number): FlammabilityNumbers {
   const e = a.byEnvelope === a.verdict;
   const t = a.byFlameTemperature === a.verdict;
   return {
@@ -70,6 +70,7 @@ export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: numbe
     loc: a.limits?.loc,
     flameK: a.flameK,
     limitFlameK: a.limitFlameK,
+    flameEquilibriumK: composition && temperatureK !== undefined && a.flameK !== undefined && a.verdict !== 'non-flammable' ? equilibriumFlameK(composition, temperatureK, pressurePa) : undefined,
     pressurePa,
     side: a.distance?.side,
     equivalenceRatio: a.distance?.equivalenceRatio,
@@ -86,18 +87,15 @@ export function reviewState(s: TankState, ctx: SafetyContext): { findings: Findi
   const out: Finding[] = [];
   const step = s.step > 0 ? s.step : undefined;
   const a = assessFlammability(s.composition, ctx.temperatureK, s.pressurePa);
-  const nums = flammabilityNumbers(a, s.pressurePa);
+  const nums = flammabilityNumbers(a, s.pressurePa, s.composition, ctx.temperatureK);
   if (a.verdict === 'flammable') {
     out.push({ severity: 'warning', code: s.final ? 'flammable-mixture' : 'flammable-state', step, ...nums });
-    if (a.point.inert < DETONABLE_INERT_BELOW) out.push({ severity: 'danger', code: 'detonable-state', step, inertFraction: a.point.inert, pressurePa: s.pressurePa });
+    // detonation and closed-vessel pressure: flammable states only (explosion-review.ts)
+    const det = detonationFinding(s, ctx.temperatureK, ctx.workingLimitPa, step);
+    if (det) out.push(det);
+    out.push(closedVesselFinding(s, ctx.temperatureK, ctx.workingLimitPa, step));
   } else if (a.verdict === 'near-limit') {
     out.push({ severity: 'note', code: 'near-flammable', step, ...nums });
-  }
-  if (a.verdict !== 'non-flammable') {
-    const cv = closedVesselCombustion(s.composition, ctx.temperatureK);
-    const peak = s.pressurePa * cv.pressureRatio;
-    const over = ctx.workingLimitPa !== undefined && peak > ctx.workingLimitPa;
-    out.push({ severity: over ? (a.verdict === 'flammable' ? 'danger' : 'warning') : 'note', code: 'closed-vessel-pressure', step, fromPa: s.pressurePa, peakPa: peak, limitPa: ctx.workingLimitPa });
   }
   const y = s.composition;
   if ((y.NO ?? 0) > 0 && (y.O2 ?? 0) > 0) out.push({ severity: 'danger', code: 'no-with-o2', step, pressurePa: s.pressurePa });

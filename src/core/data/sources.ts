@@ -112,6 +112,30 @@ const list: readonly Source[] = [
     quality: 'experimental-review',
   },
   {
+    key: 'nasa-tm-4513-products',
+    citation:
+      'B.J. McBride, S. Gordon, M.A. Reno, NASA TM-4513 (1993): 7-coefficient fits of the combustion product species (H, O, OH, HO2, H2O2, N, NH, NH2, HCO, CH3, HCN, CN, C, O3) and graphite C(gr), as packaged with Cantera 3.2.0 (data/nasa_gas.yaml, data/nasa_condensed.yaml); data/nasa7-products.json',
+    quality: 'experimental-review',
+  },
+  {
+    key: 'lewis-von-elbe-1987-memory',
+    citation:
+      'B. Lewis, G. von Elbe, Combustion, Flames and Explosions of Gases, 3rd ed., Academic Press (1987), table of detonation limits of gases in air and in oxygen (values recalled, not read in a stored copy)',
+    quality: 'from-memory',
+  },
+  {
+    key: 'kuchta-1985-memory',
+    citation:
+      'J.M. Kuchta, Investigation of Fire and Explosion Accidents in the Chemical, Mining, and Fuel-Related Industries - A Manual, US Bureau of Mines Bulletin 680 (1985), detonation limits (values recalled, not read in a stored copy)',
+    quality: 'from-memory',
+  },
+  {
+    key: 'fuel-air-detonability-memory',
+    citation:
+      'Detonability limits of fuel-air mixtures from large-diameter tube and detonation cell-size data (e.g. the Caltech detonation database, J.E. Shepherd et al.; Benedick, Knystautas & Lee 1985) (values recalled, not read in a stored copy; wider than the classic small-tube limits)',
+    quality: 'from-memory',
+  },
+  {
     key: 'nfpa-497-2008',
     citation:
       'NFPA 497, Recommended Practice for the Classification of Flammable Liquids, Gases, or Vapors (2008), flammability limits and autoignition temperatures, as tabulated in the chemicals data library (Safety tables)',
