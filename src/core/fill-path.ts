@@ -18,6 +18,8 @@
  * the fill (the upper limit only widens with pressure).
  *
  * Search (every verdict from assessFlammability, the method used for states):
+ *  - a segment whose oxidizer stays below 0.1 % O2-equivalent, or whose fuel stays below
+ *    0.2 x the lowest LFL of its fuels, is judged at its ends only (see canBurn);
  *  - 9 evenly spaced points, both ends included;
  *  - thin crossings of the limit envelope: the distance of the path from the envelope
  *    polygon on the N2-equivalent diagram is cheap, so it is computed on a 65-point
@@ -30,11 +32,13 @@
  *    reaches 30 % of the limit is refined the same way and judged (along a mixing line
  *    the flame temperature rises to one peak near stoichiometric and falls);
  *  - each boundary between ranks (not flammable / flammable / detonable) is bisected
- *    nine times, to 1/4096 of the segment, for the pressure range that is reported.
+ *    nine times, to 1/4096 of the segment, for the pressure range that is reported
+ *    (four times in the order search, which needs only the ranks).
  */
 import type { Fractions } from './composition.js';
 import { assessFlammability, blendLimits, diagramPoint, envelopePolygon, insidePolygon, type FlammabilityAssessment } from './flammability.js';
 import { getSpecies } from './lookup.js';
+import { FUEL_SAFETY } from './data/safety-data.js';
 import { oxygenDemand } from './formula.js';
 import { detonableByRule, flammabilityNumbers, type FillEvent, type SafetyContext } from './safety.js';
 import type { Finding } from './findings.js';
@@ -68,6 +72,8 @@ const SAMPLES = 8;
 const FLAME_SHARE_SEARCH = 0.3;
 const FINE = 32;
 const BISECTIONS = 9;
+/** bisections where only the ranks are wanted (the order search) */
+const SEARCH_BISECTIONS = 4;
 const GOLDEN = 14;
 
 export function mix(a: Fractions, b: Fractions, u: number): Fractions {
@@ -85,13 +91,49 @@ function normalised(y: Fractions): Fractions {
   return out;
 }
 
-function hasKind(y: Fractions, sign: 1 | -1): boolean {
-  return Object.entries(y).some(([k, v]) => v > 0 && Math.sign(oxygenDemand(getSpecies(k).elements)) === sign);
+function amounts(y: Fractions): { fuel: number; oxygen: number; fuels: string[] } {
+  let fuel = 0;
+  let oxygen = 0;
+  const fuels: string[] = [];
+  for (const [k, v] of Object.entries(y)) {
+    if (v <= 0) continue;
+    const d = oxygenDemand(getSpecies(k).elements);
+    if (d > 0) {
+      fuel += v;
+      fuels.push(k);
+    } else if (d < 0) oxygen -= d * v;
+  }
+  return { fuel, oxygen, fuels };
 }
 
-/** a segment can only be flammable where fuel and oxidizer both occur along it */
+/** below this O2-equivalent fraction no fuel heats the gas by more than about 30 K (about 570 kJ per mol O2 at most, over cp of 20.8 J/mol K) */
+const TRACE_OXYGEN = 1e-3;
+/**
+ * below this share of the lowest LFL no state is flammable or near the limit: the heat
+ * released scales with fuel / LFL (Burgess-Wheeler: LFL x heat of combustion about
+ * constant), so the rise is under 0.2 x 1.4 (monatomic bath) of the limit rise, and on
+ * the N2-equivalent diagram the fuel share is at most 2x its mole fraction (K >= 0.5)
+ */
+const TRACE_FUEL_OF_LFL = 0.2;
+
+/**
+ * A segment can only be flammable where fuel and oxidizer both occur along it in more
+ * than traces (cylinder impurities would otherwise send every fill through the search).
+ * Mixing is linear, so the largest fractions along a segment are at its ends.
+ */
 function canBurn(a: Fractions, b: Fractions): boolean {
-  return (hasKind(a, 1) || hasKind(b, 1)) && (hasKind(a, -1) || hasKind(b, -1));
+  const x = amounts(a);
+  const y = amounts(b);
+  if (Math.max(x.oxygen, y.oxygen) < TRACE_OXYGEN) return false;
+  const fuels = new Set([...x.fuels, ...y.fuels]);
+  if (fuels.size === 0) return false;
+  let lfl = Infinity;
+  for (const k of fuels) {
+    const rec = FUEL_SAFETY.get(k);
+    if (!rec) return true; // no limits on file: never screened out
+    lfl = Math.min(lfl, ...rec.lflAir.map((v) => v.value));
+  }
+  return Math.max(x.fuel, y.fuel) >= TRACE_FUEL_OF_LFL * lfl;
 }
 
 function rankOf(a: FlammabilityAssessment, y: Fractions, pressurePa: number): PathRank {
@@ -187,14 +229,14 @@ export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number
         pts.push(at(goldenMin((u) => -flameShare(at(u).assessment, temperatureK), Math.max(0, (i - 1) / SAMPLES), Math.min(1, (i + 1) / SAMPLES), GOLDEN / 2)));
       }
     }
-    // locate each boundary between ranks by bisection (not needed where only the rank is wanted)
+    // locate each boundary between ranks by bisection (which also finds a stretch of a third rank between two)
     pts.sort((p, q) => p.u - q.u);
     const extra: PathPoint[] = [];
-    for (let i = 0; locate && i + 1 < pts.length; i++) {
+    for (let i = 0; i + 1 < pts.length; i++) {
       let lo = pts[i];
       let hi = pts[i + 1];
       if (lo.rank === hi.rank) continue;
-      for (let k = 0; k < BISECTIONS; k++) {
+      for (let k = 0; k < (locate ? BISECTIONS : SEARCH_BISECTIONS); k++) {
         const m = at((lo.u + hi.u) / 2);
         extra.push(m);
         if (m.rank === lo.rank) lo = m;
@@ -242,8 +284,8 @@ export function reviewInlet(e: FillEvent, temperatureK: number, locate = true): 
  * Findings of a fill's path: a bulk path that is flammable (or detonable) where
  * neither end state is is judged like such a state, at its worst point; an inlet that
  * is flammable where neither the bulk path nor the end states are is a warning.
- * `locate` false skips the bisection of the boundaries (the order search only needs
- * the severities; the pressure range it reports is then the span of the samples).
+ * `locate` false bisects the boundaries 4 times instead of 9 (the order search needs
+ * the severities, not the exact pressure range).
  */
 export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true): Finding[] {
   const out: Finding[] = [];

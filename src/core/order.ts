@@ -91,7 +91,7 @@ function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource,
       if (!after.final) found.push(...reviewState(after, ctx).findings.filter((x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation'));
       // the fill itself: its line (condensation, acetylene), compression heating, and its path in the tank and at the inlet
       found.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
-      found.push(...reviewFillPath(f, ctx));
+      found.push(...reviewFillPath(f, ctx, false));
       cache.set(key, found);
     }
     hazards.push(...found.map((h) => ({ ...h, step: h.step === undefined ? undefined : i + 1 })));
