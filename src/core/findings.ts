@@ -44,6 +44,9 @@ export type Finding = Base &
     | { readonly code: 'oxygen-service'; readonly source: string }
     | { readonly code: 'oxygen-enriched'; readonly oxygenFraction: number }
     | { readonly code: 'safer-order'; readonly order: readonly string[]; readonly reason: string }
+    | ({ readonly code: 'flammable-fill-path'; readonly source: string; readonly detonable: boolean; readonly inertFraction: number; readonly fromPa: number; readonly toPa: number } & FlammabilityNumbers)
+    | ({ readonly code: 'flammable-at-inlet'; readonly source: string; readonly incomingShare: number } & FlammabilityNumbers)
+    | { readonly code: 'oxygen-compression'; readonly oxygenFraction: number; readonly fromPa: number; readonly toPa: number; readonly gamma: number; readonly endK: number; readonly limitK: number }
     | { readonly code: 'no-safe-order'; readonly reason: string }
   );
 
@@ -219,7 +222,7 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'closed-vessel-pressure':
       return describeClosedVessel(f, p);
     case 'compression-heating':
-      return `this fill compresses gas holding ${f.fuel} from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it heats it to ${kelvin(f.endK)}, against an autoignition temperature of ${kelvin(f.aitK)}. Throttle the fill (open the valve slowly) or change the order`;
+      return `this fill compresses the gas already in the tank from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it heats it to ${kelvin(f.endK)}, against the autoignition temperature ${kelvin(f.aitK)} of ${f.fuel}, the fuel in the tank after this fill that ignites first. Throttle the fill (open the valve slowly) or change the order`;
     case 'condensation':
       return f.inLine
         ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it may condense in the line - fill the vapour first or heat the lines`
@@ -248,6 +251,12 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
       return `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} avoids them (${f.reason})`;
     case 'no-safe-order':
       return f.reason;
+    case 'flammable-fill-path':
+      return `during this fill (${f.source}) the tank passes through ${f.detonable ? 'detonable' : 'flammable'} compositions while it is between ${p(Math.min(f.fromPa, f.toPa))} and ${p(Math.max(f.fromPa, f.toPa))}, although the states before and after it are not${f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : ''} (worst point: ${flammabilityDetail(f)}); change the fill order, or charge a diluent first so the path stays outside the flammable region`;
+    case 'flammable-at-inlet':
+      return `where ${f.source} enters the tank it mixes with the tank gas into flammable compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), although the tank itself stays outside the flammable region; fill it in another order, or dilute the tank gas first, and open the valve slowly`;
+    case 'oxygen-compression':
+      return `this fill compresses oxygen-rich gas (${pct(f.oxygenFraction)} O2-equivalent) from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it reaches ${kelvin(f.endK)}, above ${kelvin(f.limitK)}, where seats and seals in oxygen service can ignite. Fill the oxidizer later, throttle this fill, or use only oxygen-compatible parts`;
   }
 }
 

@@ -47,6 +47,10 @@ export { closedVesselFinding, detonationFinding, equilibriumFlameK } from './exp
 export { antoinePa, leeKeslerPa, saturationPressure, wagnerPa, waterPsatPa } from './vapour-pressure.js';
 export type { Psat, PsatMethod } from './vapour-pressure.js';
 export { reviewFill, reviewFillSequence, reviewState } from './safety.js';
+export { detonableByRule } from './safety.js';
+export { bulkPressure, mix, reviewBulkPath, reviewFillPath, reviewInlet, reviewSegment } from './fill-path.js';
+export type { PathPoint, PathRank, SegmentReview } from './fill-path.js';
+export { fuelsThatMatter, reviewCompression, OXYGEN_COMPRESSION_LIMIT_K } from './compression.js';
 export type { FillEvent, SafetyContext, TankState } from './safety.js';
 export { adviseOrder, isSaferThan, scoreGivenOrder, sequenceOf } from './order.js';
 export type { OrderAdvice, OrderScore } from './order.js';

@@ -1,19 +1,24 @@
 /**
  * Fill-order advice: evaluate the candidate orders of a design's fills and
- * recommend one that keeps every intermediate tank state out of the flammable
- * region (and free of compression-heating and line hazards) where one exists;
- * among equally safe orders, the smallest partial pressure first.
+ * recommend one that keeps every intermediate tank state and the path of every
+ * fill (in the tank and at its inlet) out of the flammable region, and free of
+ * compression heating and line hazards (line condensation included), where one
+ * exists; among equally safe orders, the smallest partial pressure first. Orders
+ * are ranked by their count of dangers, then warnings, then notes. The review of
+ * one fill depends only on which sources are already in the tank, so it is cached
+ * by that set: n sources need n 2^(n-1) fill reviews, not n! n.
  */
 import type { Fractions } from './composition.js';
 import type { GasSource } from './supply.js';
 import { reviewFill, reviewState, type FillEvent, type SafetyContext, type TankState } from './safety.js';
 import type { Finding } from './findings.js';
+import { reviewFillPath } from './fill-path.js';
 
 export interface OrderScore {
   readonly danger: number;
   readonly warning: number;
   readonly note: number;
-  /** line condensation findings: order can move them but rarely remove them, so they only break ties */
+  /** of these, line condensation findings (counted in danger/warning too: a vapour filled early keeps its line below saturation) */
   readonly condensation: number;
   /** pairs out of smallest-first order */
   readonly inversions: number;
@@ -29,7 +34,7 @@ export interface OrderAdvice {
   readonly noSafeOrder: boolean;
 }
 
-const ORDER_RELEVANT = new Set(['flammable-state', 'near-flammable', 'detonable-state', 'closed-vessel-pressure', 'compression-heating', 'condensation', 'acetylene-pressure', 'no-with-o2', 'n2o-decomposition']);
+const ORDER_RELEVANT = new Set(['flammable-state', 'near-flammable', 'detonable-state', 'closed-vessel-pressure', 'compression-heating', 'oxygen-compression', 'condensation', 'acetylene-pressure', 'no-with-o2', 'n2o-decomposition']);
 
 function permutations<T>(xs: readonly T[]): T[][] {
   if (xs.length <= 1) return [[...xs]];
@@ -65,25 +70,42 @@ export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<Gas
   return { states, fills };
 }
 
-function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, ascending: readonly GasSource[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }): OrderScore {
-  const { states, fills } = sequenceOf(order, amounts, finalPa, initial);
+/** findings of one fill and of the state after it, cached by which sources are in the tank: orders share them */
+type ReviewCache = Map<string, Finding[]>;
+
+function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, ascending: readonly GasSource[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }, cache: ReviewCache = new Map()): OrderScore {
+  const { fills } = sequenceOf(order, amounts, finalPa, initial);
+  const index = new Map(ascending.map((s, i) => [s, i]));
   const hazards: Finding[] = [];
-  // in-tank condensation is left out: the vapour's partial pressure is the same in every order once it is in
-  for (const s of states) if (!s.final && s.step > 0) hazards.push(...reviewState(s, ctx).findings.filter((f) => ORDER_RELEVANT.has(f.code) && f.code !== 'condensation'));
-  for (const f of fills) hazards.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
-  const rank = new Map(ascending.map((s, i) => [s, i]));
+  fills.forEach((f, i) => {
+    const key = `${order
+      .slice(0, i)
+      .map((s) => index.get(s))
+      .sort((a, b) => a! - b!)
+      .join(',')}>${index.get(order[i])}`;
+    let found = cache.get(key);
+    if (!found) {
+      found = [];
+      const after = f.after;
+      // in-tank condensation of an intermediate state is left out: once the vapour is in, its partial pressure is the same in every order
+      if (!after.final) found.push(...reviewState(after, ctx).findings.filter((x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation'));
+      // the fill itself: its line (condensation, acetylene), compression heating, and its path in the tank and at the inlet
+      found.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
+      found.push(...reviewFillPath(f, ctx, false));
+      cache.set(key, found);
+    }
+    hazards.push(...found.map((h) => ({ ...h, step: h.step === undefined ? undefined : i + 1 })));
+  });
   let inversions = 0;
-  for (let i = 0; i < order.length; i++) for (let j = i + 1; j < order.length; j++) if (rank.get(order[i])! > rank.get(order[j])!) inversions++;
-  const main = hazards.filter((h) => h.code !== 'condensation');
-  const count = (sev: string) => main.filter((h) => h.severity === sev).length;
-  return { danger: count('danger'), warning: count('warning'), note: count('note'), condensation: hazards.length - main.length, inversions, hazards: main };
+  for (let i = 0; i < order.length; i++) for (let j = i + 1; j < order.length; j++) if (index.get(order[i])! > index.get(order[j])!) inversions++;
+  const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
+  return { danger: count('danger'), warning: count('warning'), note: count('note'), condensation: hazards.filter((h) => h.code === 'condensation').length, inversions, hazards };
 }
 
 function better(a: OrderScore, b: OrderScore): boolean {
   if (a.danger !== b.danger) return a.danger < b.danger;
   if (a.warning !== b.warning) return a.warning < b.warning;
   if (a.note !== b.note) return a.note < b.note;
-  if (a.condensation !== b.condensation) return a.condensation < b.condensation;
   return a.inversions < b.inversions;
 }
 
@@ -104,10 +126,11 @@ export function adviseOrder(
   const ascending = [...sources].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
   const candidates = sources.length <= MAX_EXHAUSTIVE ? permutations(ascending) : [ascending];
   let best = ascending;
-  let bestScore = scoreOrder(ascending, amounts, ascending, finalPa, ctx, initial);
+  const cache: ReviewCache = new Map();
+  let bestScore = scoreOrder(ascending, amounts, ascending, finalPa, ctx, initial, cache);
   const ascendingScore = bestScore;
   for (const c of candidates) {
-    const sc = scoreOrder(c, amounts, ascending, finalPa, ctx, initial);
+    const sc = scoreOrder(c, amounts, ascending, finalPa, ctx, initial, cache);
     if (better(sc, bestScore)) {
       best = c;
       bestScore = sc;
@@ -117,13 +140,13 @@ export function adviseOrder(
   const names = (o: readonly GasSource[]) => o.map((s) => s.id);
   let reason: string;
   if (clean && best === ascending) {
-    reason = 'smallest partial pressure first, largest last (best relative resolution for the small fills); every intermediate tank state is non-flammable';
+    reason = 'smallest partial pressure first, largest last (best relative resolution for the small fills); every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
   } else if (clean) {
     const first = ascendingScore.hazards[0];
-    reason = `keeps every intermediate tank state out of the flammable region and free of the hazards checked; the smallest-first order (${names(ascending).join(', ')}) would give ${first ? `${first.code} after fill ${first.step}` : 'a hazardous state'}`;
+    reason = `keeps every intermediate tank state and every fill path out of the flammable region and free of the hazards checked (fill lines included); the smallest-first order (${names(ascending).join(', ')}) would give ${first ? `${first.code} after fill ${first.step}` : 'a hazardous state'}`;
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
-    reason = `no fill order keeps every intermediate tank state non-flammable and hazard-free; this one has the fewest and least severe (${codes})`;
+    reason = `no fill order avoids every hazard checked (intermediate states, fill paths, fill lines); this one has the fewest and least severe (${bestScore.danger} danger, ${bestScore.warning} warning, ${bestScore.note} note: ${codes})`;
   }
   return { sources: best, reason, score: bestScore, noSafeOrder: !clean };
 }

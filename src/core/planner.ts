@@ -18,6 +18,7 @@ import { molarMassKgPerMol } from './formula.js';
 import type { Finding } from './findings.js';
 import { reviewFillSequence, type FillEvent, type SafetyContext, type TankState } from './safety.js';
 import { adviseOrder, isSaferThan, scoreGivenOrder } from './order.js';
+import { reviewFillPath } from './fill-path.js';
 import { fail } from './problems.js';
 
 /** temperatures the virial model is used at (reference table 230-480 K, correlation beyond) */
@@ -345,6 +346,14 @@ export function planFill(input: PlanInput): Plan {
     before = after;
   }
   findings.push(...reviewFillSequence(states, fills, safetyCtx));
+  // and the path of each fill between those states, in the tank and at its inlet
+  for (const f of fills) findings.push(...reviewFillPath(f, safetyCtx));
+  // the advice ranks orders at ideal-gas pressures; where the full review of the planned fill
+  // still finds a path or line hazard, the stated reason must not say the order is free of them
+  const left = findings.filter((f) => f.severity !== 'note' && (f.code === 'flammable-fill-path' || f.code === 'flammable-at-inlet' || (f.code === 'condensation' && f.inLine)));
+  if (input.order === 'recommend' && left.length && /free of the hazards checked/.test(orderReason)) {
+    orderReason = `the least hazardous order found, but the full review of the planned fill still finds ${[...new Set(left.map((f) => f.code))].join(', ')} (see the findings)`;
+  }
   for (const s of sources) if (s.purityAssumed) findings.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
   if (alloc.unidentified > 1e-7) findings.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
   for (const [sp, x] of Object.entries(alloc.composition)) {

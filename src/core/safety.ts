@@ -8,9 +8,9 @@
 import type { Fractions } from './composition.js';
 import { ACETYLENE_LIMIT_PA, FUEL_SAFETY, INERT_K } from './data/safety-data.js';
 import { assessFlammability, blendLimits, type FlammabilityAssessment } from './flammability.js';
-import { adiabaticCompressionK } from './combustion.js';
 import { closedVesselFinding, detonationFinding, equilibriumFlameK } from './explosion-review.js';
-import { gammaMixture } from './thermo.js';
+import { detonability } from './detonation.js';
+import { reviewCompression } from './compression.js';
 import { saturationPressure } from './vapour-pressure.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
@@ -44,9 +44,16 @@ export interface FillEvent {
   readonly after: TankState;
 }
 
-/** fuels whose autoignition temperature is low enough to matter even without a flammable state */
-const COMPRESSION_WARNING_MARGIN_K = 100;
 const OXYGEN_ENRICHED_ABOVE = 0.235;
+
+/**
+ * Detonability of a flammable state (a point on a fill's path): published detonation
+ * limits where they exist, else the conservative inert rule (`detonability` in
+ * detonation.ts, the same decision the state review makes).
+ */
+export function detonableByRule(a: FlammabilityAssessment, composition: Fractions, _pressurePa: number): boolean {
+  return a.verdict === 'flammable' && detonability(composition).detonable;
+}
 
 function hasOxidizer(y: Fractions): boolean {
   return Object.entries(y).some(([k, v]) => v > 0 && oxygenDemand(getSpecies(k).elements) < 0);
@@ -138,32 +145,8 @@ export function reviewFill(e: FillEvent, ctx: SafetyContext): Finding[] {
     if (main === 'C2H2' && linePa > ACETYLENE_LIMIT_PA) out.push({ severity: 'danger', code: 'acetylene-pressure', step, partialPa: linePa, limitPa: ACETYLENE_LIMIT_PA, inLine: true });
   }
   if (hasOxidizer(src)) out.push({ severity: 'note', code: 'oxygen-service', step, source: e.sourceId });
-  // compression heating of the gas already in the tank
-  if (e.before && e.before.pressurePa > 0) {
-    const fuels = fuelsIn(e.before.composition);
-    if (fuels.length && (hasOxidizer(e.before.composition) || hasOxidizer(src))) {
-      const gamma = gammaMixture(e.before.composition, ctx.temperatureK);
-      const endK = adiabaticCompressionK(ctx.temperatureK, e.after.pressurePa / e.before.pressurePa, gamma);
-      let worst: { fuel: string; ait: number } | undefined;
-      for (const f of fuels) {
-        const ait = FUEL_SAFETY.get(f)?.ait?.value;
-        if (ait !== undefined && (!worst || ait < worst.ait)) worst = { fuel: f, ait };
-      }
-      if (worst && endK >= worst.ait - COMPRESSION_WARNING_MARGIN_K) {
-        out.push({
-          severity: endK >= worst.ait ? 'danger' : 'warning',
-          code: 'compression-heating',
-          step,
-          fuel: worst.fuel,
-          fromPa: e.before.pressurePa,
-          toPa: e.after.pressurePa,
-          gamma,
-          endK,
-          aitK: worst.ait,
-        });
-      }
-    }
-  }
+  // compression heating of whatever gas is already in the tank
+  out.push(...reviewCompression(e, ctx));
   return out;
 }
 

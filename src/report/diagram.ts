@@ -3,9 +3,13 @@
  * inert (N2-equivalent) vertex bottom left, O2 bottom right and fuel at the top; the
  * flammable zone of the batch's fuel from the safety review's envelope, the air line,
  * the stoichiometric line, and the fill path of the tank states, numbered in order.
- * Plain strokes and hatching: readable in black and white.
+ * Each fill's path is the straight segment between the states before and after it
+ * (mixing is linear in mole fractions, and the N2-equivalent diagram is a projective
+ * map of them, so segments stay straight); the stretch of it that the safety review
+ * finds flammable is drawn as a wide grey band under the path.
+ * Plain strokes, grey and hatching: readable in black and white.
  */
-import { blendLimits, diagramPoint, envelopePolygon, type Plan } from '../core/index.js';
+import { blendLimits, diagramPoint, envelopePolygon, mix, reviewBulkPath, type Plan, type TankState } from '../core/index.js';
 
 /** mole fractions (fuel, oxygen) to unit-triangle coordinates; the inert share is 1 - fuel - oxygen */
 export function ternaryXY(fuel: number, oxygen: number): { x: number; y: number } {
@@ -18,6 +22,8 @@ export interface DiagramData {
   readonly ufl: number;
   readonly z: number;
   readonly path: readonly { readonly label: string; readonly fuel: number; readonly oxygen: number }[];
+  /** the stretches of fill paths where the tank is flammable (from the review of each fill's bulk path) */
+  readonly flammable: readonly { readonly step: number; readonly detonable: boolean; readonly from: { readonly fuel: number; readonly oxygen: number }; readonly to: { readonly fuel: number; readonly oxygen: number } }[];
 }
 
 export function diagramData(plan: Plan): DiagramData | undefined {
@@ -25,7 +31,22 @@ export function diagramData(plan: Plan): DiagramData | undefined {
   if (Object.keys(final.fuelBlend).length === 0) return undefined;
   const limits = blendLimits(final.fuelBlend, plan.temperatureK, plan.final.pressurePa);
   const states = [...(plan.initial ? [{ label: '0', y: plan.initial.composition }] : []), ...plan.steps.map((s) => ({ label: String(s.index), y: s.compositionAfter }))];
+  const flammable: DiagramData['flammable'][number][] = [];
+  let before: TankState | undefined = plan.initial ? { step: 0, composition: plan.initial.composition, pressurePa: plan.initial.pressurePa, final: false } : undefined;
+  for (const s of plan.steps) {
+    const after: TankState = { step: s.index, composition: s.compositionAfter, pressurePa: s.targetPa, final: s.index === plan.steps.length };
+    const r = before ? reviewBulkPath({ step: s.index, sourceId: s.source.id, sourceComposition: s.source.composition, before, after }, plan.temperatureK) : undefined;
+    if (r?.flammableU && before) {
+      const at = (u: number) => {
+        const p = diagramPoint(mix(before!.composition, after.composition, u)).point;
+        return { fuel: p.fuel, oxygen: p.oxygen };
+      };
+      flammable.push({ step: s.index, detonable: r.rank === 2, from: at(r.flammableU[0]), to: at(r.flammableU[1]) });
+    }
+    before = after;
+  }
   return {
+    flammable,
     envelope: envelopePolygon(limits),
     lfl: limits.lfl,
     ufl: limits.ufl,
@@ -71,6 +92,13 @@ export function diagramSvg(d: DiagramData, title: string): string {
   }
   const path = d.path.map((p) => px(p.fuel, p.oxygen));
   const pathLine = path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : '';
+  const burn = d.flammable
+    .map((b) => {
+      const [x1, y1] = px(b.from.fuel, b.from.oxygen);
+      const [x2, y2] = px(b.to.fuel, b.to.oxygen);
+      return `<line x1="${f1(x1)}" y1="${f1(y1)}" x2="${f1(x2)}" y2="${f1(y2)}" class="burn"><title>fill ${b.step}: ${b.detonable ? 'detonable' : 'flammable'} stretch</title></line>`;
+    })
+    .join('');
   const marks = d.path
     .map((p, i) => {
       const [x, y] = path[i];
@@ -81,7 +109,7 @@ export function diagramSvg(d: DiagramData, title: string): string {
   const [ux, uy] = px(d.ufl, 0.21 * (1 - d.ufl));
   return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="${title}">
 <defs><pattern id="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
-<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:12px sans-serif}</style>
+<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.burn{stroke:#999;stroke-width:9;stroke-linecap:round}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:12px sans-serif}</style>
 <title>${title}</title>
 ${grid.join('')}
 <polygon points="${pts(d.envelope)}" class="zone"/>
@@ -89,7 +117,7 @@ ${grid.join('')}
 <line x1="${f1(ax)}" y1="${f1(ay)}" x2="${f1(fx)}" y2="${f1(fy)}" class="air"/>
 <line x1="${f1(ix)}" y1="${f1(iy)}" x2="${f1(sx)}" y2="${f1(sy)}" class="stoich"/>
 <circle cx="${f1(lx)}" cy="${f1(ly)}" r="2.5"/><circle cx="${f1(ux)}" cy="${f1(uy)}" r="2.5"/>
-${pathLine}${marks}
+${burn}${pathLine}${marks}${d.flammable.length ? `\n<line x1="${f1(W - 150)}" y1="18" x2="${f1(W - 130)}" y2="18" class="burn"/><text x="${f1(W - 124)}" y="22" class="lab">flammable during a fill</text>` : ''}
 <text x="${f1(ix - 4)}" y="${f1(iy + 18)}" class="lab" text-anchor="start">inert (N2-eq.)</text>
 <text x="${f1(M + SCALE + 4)}" y="${f1(iy + 18)}" class="lab" text-anchor="end">O2</text>
 <text x="${f1(fx)}" y="${f1(fy - 8)}" class="lab" text-anchor="middle">fuel</text>
@@ -140,11 +168,11 @@ export function detailSvg(d: DiagramData, title: string): string {
   const stoich = `<line x1="${f1(X(0))}" y1="${f1(Y(0))}" x2="${f1(X(d.z * fs))}" y2="${f1(Y(fs))}" class="stoich"/>`;
   return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${w} ${h}" width="${w}" height="${h}" role="img" aria-label="${title}">
 <defs><clipPath id="plotarea"><rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}"/></clipPath><pattern id="hatch2" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
-<style>.edge{fill:none;stroke:#000;stroke-width:1.2}.zone{fill:url(#hatch2);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:11px sans-serif}</style>
+<style>.edge{fill:none;stroke:#000;stroke-width:1.2}.zone{fill:url(#hatch2);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.burn{stroke:#999;stroke-width:9;stroke-linecap:round}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:11px sans-serif}</style>
 <title>${title}</title>
 <g clip-path="url(#plotarea)"><polygon points="${poly}" class="zone"/>${air}${stoich}</g>
 <rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}" class="edge"/>
-<g clip-path="url(#plotarea)">${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
+<g clip-path="url(#plotarea)">${d.flammable.map((b) => `<line x1="${f1(X(b.from.oxygen))}" y1="${f1(Y(b.from.fuel))}" x2="${f1(X(b.to.oxygen))}" y2="${f1(Y(b.to.fuel))}" class="burn"/>`).join('')}${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
 ${d.path.map((p, i) => `<circle cx="${f1(path[i][0])}" cy="${f1(path[i][1])}" r="4.5" class="state"/><text x="${f1(path[i][0] + 7)}" y="${f1(path[i][1] - 6)}" class="num">${p.label}</text>`).join('')}</g>
 ${outside(d, oMax, fMax)}
 ${ticks.join('')}

@@ -11,7 +11,7 @@ describe('mixwright plan', () => {
     expect(r.stderr).toBe('');
     expect(r.stdout).toContain('Fill plan  ch4-phi1-ar98');
     expect(r.stdout).toMatch(/1\s+CH4\s+cyl-CH4\s+head-1kT\s+10\.01 Torr/);
-    expect(r.stdout).toContain('CH4 -> Ar -> O2  (recommended: keeps every intermediate tank state out of the flammable region');
+    expect(r.stdout).toContain('CH4 -> Ar -> O2  (recommended: keeps every intermediate tank state and every fill path out of the flammable region');
     expect(r.stdout).toContain('Caution: This plan is an engineering estimate');
     // cross coefficients: all three pairs are in the reference mixture-model table (CoolProp 8.0.0:
     // Kunz-JCED-2012 for CH4-O2 and CH4-Ar, Gernert-Thesis-2013 for O2-Ar); B_mix as printed in --json

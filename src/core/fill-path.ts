@@ -1,0 +1,324 @@
+/**
+ * The path of a fill: the tank passes through every composition between the state
+ * before a fill and the state after it, and at the inlet the incoming gas meets the
+ * tank gas. Both are straight segments in mole-fraction space; this module finds
+ * where they enter the flammable region, by the same method as for tank states
+ * (`assessFlammability`), and words the result as findings.
+ *
+ * Bulk path. With n0 mol of y0 in the tank and gas of composition s admitted, after
+ * admitting a mol the tank holds y(w) = (1 - w) y0 + w s with w = a / (n0 + a) the
+ * admitted share. The end state is y1 = y(w1), so the path is the segment y0 -> y1,
+ * y(u) = (1 - u) y0 + u y1 for u in [0, 1] (u = w / w1). At fixed volume and
+ * temperature the pressure follows the amount (ideal gas; the real-gas correction
+ * is below a percent for the states this tool plans):
+ *   P(u) = P0 P1 / (P1 - u (P1 - P0)).
+ * Inlet. While the tank holds y(u) the jet mixes it with s, which spans the segment
+ * y(u) -> s; over the whole fill these make up the segment y0 -> s, of which the part
+ * y1 -> s lies beyond the bulk path. It is judged at P1, the highest tank pressure of
+ * the fill (the upper limit only widens with pressure).
+ *
+ * Search (every verdict from assessFlammability, the method used for states):
+ *  - a segment whose oxidizer stays below 0.1 % O2-equivalent, or whose fuel stays below
+ *    0.2 x the lowest LFL of its fuels, is judged at its ends only (see canBurn);
+ *  - 9 evenly spaced points, both ends included;
+ *  - thin crossings of the limit envelope: the distance of the path from the envelope
+ *    polygon on the N2-equivalent diagram is cheap, so it is computed on a 65-point
+ *    grid and each local minimum outside the envelope is refined by golden-section
+ *    search; the closest point is then judged. A straight path meets a convex region
+ *    in one stretch and its distance has one minimum, so a crossing however thin is
+ *    found where the envelope is convex;
+ *  - thin crossings by flame temperature: each local maximum among the samples of the
+ *    flame temperature (as a share of the rise to the limit flame temperature) that
+ *    reaches 30 % of the limit is refined the same way and judged (along a mixing line
+ *    the flame temperature rises to one peak near stoichiometric and falls);
+ *  - each boundary between ranks (not flammable / flammable / detonable) is bisected
+ *    nine times, to 1/4096 of the segment, for the pressure range that is reported
+ *    (four times in the order search, which needs only the ranks).
+ */
+import type { Fractions } from './composition.js';
+import { assessFlammability, blendLimits, diagramPoint, envelopePolygon, insidePolygon, type FlammabilityAssessment } from './flammability.js';
+import { getSpecies } from './lookup.js';
+import { FUEL_SAFETY } from './data/safety-data.js';
+import { oxygenDemand } from './formula.js';
+import { detonableByRule, flammabilityNumbers, type FillEvent, type SafetyContext } from './safety.js';
+import type { Finding } from './findings.js';
+
+/** hazard rank of one composition: 0 not flammable (or only near the limit), 1 flammable, 2 detonable */
+export type PathRank = 0 | 1 | 2;
+
+export interface PathPoint {
+  /** position on the segment, 0 (start) to 1 (end) */
+  readonly u: number;
+  readonly pressurePa: number;
+  readonly composition: Fractions;
+  readonly assessment: FlammabilityAssessment;
+  readonly rank: PathRank;
+}
+
+export interface SegmentReview {
+  /** worst rank anywhere on the segment (ends included) */
+  readonly rank: PathRank;
+  /** the worst point: highest rank, then hottest flame */
+  readonly worst: PathPoint;
+  /** span of u over which the segment is flammable (undefined when nowhere) */
+  readonly flammableU?: readonly [number, number];
+  /** tank pressures at the ends of that span, Pa */
+  readonly flammablePa?: readonly [number, number];
+  readonly ranks: { readonly start: PathRank; readonly end: PathRank };
+}
+
+const SAMPLES = 8;
+/** flame-temperature share above which a local maximum between samples is searched */
+const FLAME_SHARE_SEARCH = 0.3;
+const FINE = 32;
+const BISECTIONS = 9;
+/** bisections where only the ranks are wanted (the order search) */
+const SEARCH_BISECTIONS = 4;
+const GOLDEN = 14;
+
+export function mix(a: Fractions, b: Fractions, u: number): Fractions {
+  const y: Record<string, number> = {};
+  for (const [k, v] of Object.entries(a)) y[k] = (1 - u) * v;
+  for (const [k, v] of Object.entries(b)) y[k] = (y[k] ?? 0) + u * v;
+  for (const k of Object.keys(y)) if (y[k] <= 0) delete y[k];
+  return y;
+}
+
+function normalised(y: Fractions): Fractions {
+  const s = Object.values(y).reduce((p, q) => p + q, 0);
+  const out: Record<string, number> = {};
+  for (const [k, v] of Object.entries(y)) if (v > 0) out[k] = v / s;
+  return out;
+}
+
+function amounts(y: Fractions): { fuel: number; oxygen: number; fuels: string[] } {
+  let fuel = 0;
+  let oxygen = 0;
+  const fuels: string[] = [];
+  for (const [k, v] of Object.entries(y)) {
+    if (v <= 0) continue;
+    const d = oxygenDemand(getSpecies(k).elements);
+    if (d > 0) {
+      fuel += v;
+      fuels.push(k);
+    } else if (d < 0) oxygen -= d * v;
+  }
+  return { fuel, oxygen, fuels };
+}
+
+/** below this O2-equivalent fraction no fuel heats the gas by more than about 30 K (about 570 kJ per mol O2 at most, over cp of 20.8 J/mol K) */
+const TRACE_OXYGEN = 1e-3;
+/**
+ * below this share of the lowest LFL no state is flammable or near the limit: the heat
+ * released scales with fuel / LFL (Burgess-Wheeler: LFL x heat of combustion about
+ * constant), so the rise is under 0.2 x 1.4 (monatomic bath) of the limit rise, and on
+ * the N2-equivalent diagram the fuel share is at most 2x its mole fraction (K >= 0.5)
+ */
+const TRACE_FUEL_OF_LFL = 0.2;
+
+/**
+ * A segment can only be flammable where fuel and oxidizer both occur along it in more
+ * than traces (cylinder impurities would otherwise send every fill through the search).
+ * Mixing is linear, so the largest fractions along a segment are at its ends.
+ */
+function canBurn(a: Fractions, b: Fractions): boolean {
+  const x = amounts(a);
+  const y = amounts(b);
+  if (Math.max(x.oxygen, y.oxygen) < TRACE_OXYGEN) return false;
+  const fuels = new Set([...x.fuels, ...y.fuels]);
+  if (fuels.size === 0) return false;
+  let lfl = Infinity;
+  for (const k of fuels) {
+    const rec = FUEL_SAFETY.get(k);
+    if (!rec) return true; // no limits on file: never screened out
+    lfl = Math.min(lfl, ...rec.lflAir.map((v) => v.value));
+  }
+  return Math.max(x.fuel, y.fuel) >= TRACE_FUEL_OF_LFL * lfl;
+}
+
+function rankOf(a: FlammabilityAssessment, y: Fractions, pressurePa: number): PathRank {
+  if (a.verdict !== 'flammable') return 0;
+  return detonableByRule(a, y, pressurePa) ? 2 : 1;
+}
+
+function distanceToSegment(p: [number, number], a: [number, number], b: [number, number]): number {
+  const dx = b[0] - a[0];
+  const dy = b[1] - a[1];
+  const l2 = dx * dx + dy * dy;
+  const t = l2 > 0 ? Math.min(1, Math.max(0, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / l2)) : 0;
+  return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
+}
+
+/**
+ * How far a composition lies outside the limit envelope on the N2-equivalent diagram
+ * (negative inside): a cheap guide to where a thin crossing could hide. The verdict
+ * itself always comes from assessFlammability.
+ */
+function envelopeGap(y: Fractions, temperatureK: number, pressurePa: number): number {
+  const { point, fuelBlend } = diagramPoint(y);
+  if (point.fuel <= 0 || point.oxygen <= 0) return 1;
+  const poly = envelopePolygon(blendLimits(fuelBlend, temperatureK, pressurePa));
+  const p: [number, number] = [point.fuel, point.oxygen];
+  let d = Infinity;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) d = Math.min(d, distanceToSegment(p, poly[j], poly[i]));
+  return insidePolygon(p, poly) ? -d : d;
+}
+
+/** golden-section search for the minimum of f on [lo, hi] */
+function goldenMin(f: (u: number) => number, lo: number, hi: number, iterations: number): number {
+  const g = (Math.sqrt(5) - 1) / 2;
+  let a = lo;
+  let b = hi;
+  let c = b - g * (b - a);
+  let d = a + g * (b - a);
+  let fc = f(c);
+  let fd = f(d);
+  for (let i = 0; i < iterations; i++) {
+    if (fc < fd) {
+      b = d;
+      d = c;
+      fd = fc;
+      c = b - g * (b - a);
+      fc = f(c);
+    } else {
+      a = c;
+      c = d;
+      fc = fd;
+      d = a + g * (b - a);
+      fd = f(d);
+    }
+  }
+  return (a + b) / 2;
+}
+
+/** flame temperature as a share of the rise to the limit flame temperature (1 = at the limit) */
+function flameShare(a: FlammabilityAssessment, temperatureK: number): number {
+  if (a.flameK === undefined || a.limitFlameK === undefined) return 0;
+  return (a.flameK - temperatureK) / Math.max(a.limitFlameK - 298.15, 1);
+}
+
+/**
+ * Review the segment a -> b at pressure P(u). Returns the worst rank along it, the worst
+ * point and the span of u where it is flammable.
+ */
+export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number) => number, temperatureK: number, locate = true): SegmentReview {
+  const at = (u: number): PathPoint => {
+    const y = mix(a, b, u);
+    const p = pressureAt(u);
+    const assessment = assessFlammability(y, temperatureK, p);
+    return { u, pressurePa: p, composition: y, assessment, rank: rankOf(assessment, y, p) };
+  };
+  let pts: PathPoint[] = [];
+  if (canBurn(a, b)) {
+    for (let i = 0; i <= SAMPLES; i++) pts.push(at(i / SAMPLES));
+    // thin crossings of the envelope: local minima of the (cheap) gap on a fine grid, refined
+    const gap = (u: number) => envelopeGap(mix(a, b, u), temperatureK, pressureAt(u));
+    const fine = Array.from({ length: FINE + 1 }, (_, i) => gap(i / FINE));
+    for (let i = 0; i <= FINE; i++) {
+      const left = i > 0 ? fine[i - 1] : Infinity;
+      const right = i < FINE ? fine[i + 1] : Infinity;
+      if (fine[i] > 0 && fine[i] <= left && fine[i] <= right) pts.push(at(goldenMin(gap, Math.max(0, (i - 1) / FINE), Math.min(1, (i + 1) / FINE), GOLDEN)));
+    }
+    // thin crossings by flame temperature: local maxima of the flame share near the limit, refined
+    const coarse = pts.slice(0, SAMPLES + 1);
+    for (let i = 0; i <= SAMPLES; i++) {
+      const s = flameShare(coarse[i].assessment, temperatureK);
+      const left = i > 0 ? flameShare(coarse[i - 1].assessment, temperatureK) : -Infinity;
+      const right = i < SAMPLES ? flameShare(coarse[i + 1].assessment, temperatureK) : -Infinity;
+      if (coarse[i].rank === 0 && s >= FLAME_SHARE_SEARCH && s >= left && s >= right) {
+        pts.push(at(goldenMin((u) => -flameShare(at(u).assessment, temperatureK), Math.max(0, (i - 1) / SAMPLES), Math.min(1, (i + 1) / SAMPLES), GOLDEN / 2)));
+      }
+    }
+    // locate each boundary between ranks by bisection (which also finds a stretch of a third rank between two)
+    pts.sort((p, q) => p.u - q.u);
+    const extra: PathPoint[] = [];
+    for (let i = 0; i + 1 < pts.length; i++) {
+      let lo = pts[i];
+      let hi = pts[i + 1];
+      if (lo.rank === hi.rank) continue;
+      for (let k = 0; k < (locate ? BISECTIONS : SEARCH_BISECTIONS); k++) {
+        const m = at((lo.u + hi.u) / 2);
+        extra.push(m);
+        if (m.rank === lo.rank) lo = m;
+        else hi = m;
+      }
+    }
+    pts = [...pts, ...extra];
+  } else {
+    pts.push(at(0), at(1));
+  }
+  let worst = pts[0];
+  for (const p of pts) {
+    if (p.rank > worst.rank || (p.rank === worst.rank && (p.assessment.flameK ?? 0) > (worst.assessment.flameK ?? 0))) worst = p;
+  }
+  const burning = pts.filter((p) => p.rank > 0).map((p) => p.u);
+  const span = burning.length ? ([Math.min(...burning), Math.max(...burning)] as const) : undefined;
+  return {
+    rank: worst.rank,
+    worst,
+    flammableU: span,
+    flammablePa: span ? [pressureAt(span[0]), pressureAt(span[1])] : undefined,
+    ranks: { start: pts.find((p) => p.u === 0)!.rank, end: pts.find((p) => p.u === 1)!.rank },
+  };
+}
+
+/** P(u) along the bulk path of a fill from P0 to P1 (amount-weighted, ideal gas) */
+export function bulkPressure(p0Pa: number, p1Pa: number): (u: number) => number {
+  return (u) => (p0Pa * p1Pa) / (p1Pa - u * (p1Pa - p0Pa));
+}
+
+/** the bulk path of a fill: every cumulative composition from the state before it to the state after it */
+export function reviewBulkPath(e: FillEvent, temperatureK: number, locate = true): SegmentReview | undefined {
+  if (!e.before || e.before.pressurePa <= 0) return undefined;
+  return reviewSegment(e.before.composition, e.after.composition, bulkPressure(e.before.pressurePa, e.after.pressurePa), temperatureK, locate);
+}
+
+/** the inlet of a fill beyond the bulk path: tank gas at the end of the fill meeting the incoming gas, at P1 */
+export function reviewInlet(e: FillEvent, temperatureK: number, locate = true): SegmentReview | undefined {
+  if (!e.before || e.before.pressurePa <= 0) return undefined;
+  const p1 = e.after.pressurePa;
+  return reviewSegment(e.after.composition, normalised(e.sourceComposition), () => p1, temperatureK, locate);
+}
+
+/**
+ * Findings of a fill's path: a bulk path that is flammable (or detonable) where
+ * neither end state is is judged like such a state, at its worst point; an inlet that
+ * is flammable where neither the bulk path nor the end states are is a warning.
+ * `locate` false bisects the boundaries 4 times instead of 9 (the order search needs
+ * the severities, not the exact pressure range).
+ */
+export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true): Finding[] {
+  const out: Finding[] = [];
+  const bulk = reviewBulkPath(e, ctx.temperatureK, locate);
+  if (!bulk) return out;
+  const ends = Math.max(bulk.ranks.start, bulk.ranks.end);
+  if (bulk.rank > ends) {
+    const w = bulk.worst;
+    out.push({
+      severity: bulk.rank === 2 ? 'danger' : 'warning',
+      code: 'flammable-fill-path',
+      step: e.step,
+      source: e.sourceId,
+      detonable: bulk.rank === 2,
+      inertFraction: w.assessment.point.inert,
+      fromPa: bulk.flammablePa![0],
+      toPa: bulk.flammablePa![1],
+      ...flammabilityNumbers(w.assessment, w.pressurePa),
+    });
+    return out;
+  }
+  if (bulk.rank > 0) return out;
+  const inlet = reviewInlet(e, ctx.temperatureK, locate);
+  if (inlet && inlet.rank > 0) {
+    const w = inlet.worst;
+    out.push({
+      severity: 'warning',
+      code: 'flammable-at-inlet',
+      step: e.step,
+      source: e.sourceId,
+      incomingShare: w.u,
+      ...flammabilityNumbers(w.assessment, w.pressurePa),
+    });
+  }
+  return out;
+}
