@@ -52,7 +52,7 @@ const refHeader: LogHeader = {
   steps: ref.order.map((sp, i) => ({ step: i + 1, source: `cyl-${sp}`, species: sp, target_Pa: ref.readings[i].pressure_Pa, band_Pa: 5, gauge: 'head-2kT' })),
 };
 
-function refReading(i: number, pa = ref.readings[i].pressure_Pa): NewLogEvent {
+function refReading(i: number, pa = ref.readings[i].pressure_Pa): Extract<NewLogEvent, { kind: 'reading' }> {
   return { kind: 'reading', step: i + 1, source: `cyl-${ref.order[i]}`, gauge: 'head-2kT', reading: `${pa / TORR} Torr`, pressure_Pa: pa, temperature: '25 degC', temperature_K: 298.15, time: `2026-12-02T09:1${i}:00Z`, by: 'QX' };
 }
 
@@ -163,6 +163,11 @@ describe('dangers in a log', () => {
     const j = JSON.parse((await runCli(['check', file, '--json', '--trials', '100000'])).stdout);
     expect(j.danger).toBe(true);
     expect(j.record_findings[0]).toMatchObject({ severity: 'danger', code: 'above-working-limit', step: 3, line: 4 });
+    // accepted at the manifold with initials (the fill logs the finding's code): named, and it stands
+    appendEvent(file, { kind: 'acknowledge', code: 'above-working-limit', step: 3, by: 'QX', time: '2026-12-02T10:20:00Z' });
+    const acc = await checkFile(file, { trials: 0, seed: 1 });
+    expect(findingsOf(acc.findings, 'above-working-limit')[0]).toMatchObject({ severity: 'danger', accepted: { by: 'QX', time: '2026-12-02T10:20:00Z' } });
+    expect(acc.caveats[0]).toMatch(/^DANGER/);
     // a folder with that log: the summary marks it, exit 3
     const folder = await runCli(['check', dir, '--trials', '100000']);
     expect(folder.code).toBe(3);
