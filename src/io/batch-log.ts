@@ -318,118 +318,157 @@ function bad(file: string, line: number, what: string, issues: readonly z.ZodIss
   return fail({ code: 'schema', reason: `bad ${what}: ${i.path.join('.') || '(event)'}: ${i.message}` }, { file, line });
 }
 
-export function parseLog(text: string, file: string): ParsedLog {
+/** the reader's state after some lines: kept by a fill's handle, so an append reads only the new line */
+interface ReaderState {
+  header?: LogHeader;
+  version: number;
+  byStep: Map<number, InForceReading>;
+  all: InForceReading[];
+  amendments: Amendment[];
+  acks: LogAck[];
+  barometer?: ParsedLog['barometer'];
+  start?: ParsedLog['start'];
+  closed: boolean;
+  issues: RecordIssue[];
+  link: string;
+  complete: number;
+  bytes: number;
+}
+
+const emptyReader = (): ReaderState => ({ version: 0, byStep: new Map(), all: [], amendments: [], acks: [], closed: false, issues: [], link: '', complete: 0, bytes: 0 });
+
+const cloneReader = (st: ReaderState): ReaderState => ({ ...st, byStep: new Map(st.byStep), all: [...st.all], amendments: [...st.amendments], acks: [...st.acks], issues: [...st.issues] });
+
+/** read one complete line (its line feed written) into the state */
+function readLine(st: ReaderState, raw: string, lineNo: number, file: string): void {
+  st.complete = lineNo;
+  st.bytes += Buffer.byteLength(raw, 'utf8') + 1;
+  if (raw.trim() === '') return;
+  let obj: unknown;
+  try {
+    obj = JSON.parse(raw);
+  } catch {
+    return fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
+  }
+  if (typeof obj !== 'object' || obj === null || Array.isArray(obj)) fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
+  const rec = obj as Record<string, unknown>;
+  if (typeof rec.chain === 'string') {
+    if (chainOf(st.link, withoutChain(rec)) !== rec.chain) st.issues.push({ code: 'line-edited', line: lineNo });
+  } else if (st.version >= 2) st.issues.push({ code: 'line-unhashed', line: lineNo });
+  st.link = linkOf(rec, raw);
+  const kind = rec.kind;
+  const header = st.header;
+  if (!header) {
+    if (kind !== 'batch') fail({ code: 'schema', reason: 'the first line of a batch log must be its "batch" header' }, { file, line: lineNo });
+    const fmt = String(rec.format ?? '');
+    const m = /^mixwright-batch\/(\d+)$/.exec(fmt);
+    if (!m) fail({ code: 'schema', reason: `unknown log format "${fmt}"; this version reads ${LOG_FORMAT}` }, { file, line: lineNo, field: 'format' });
+    if (Number(m[1]) > LOG_VERSION) fail({ code: 'schema', reason: `the log is format ${fmt}, newer than this version of mixwright reads (${LOG_FORMAT}); update mixwright` }, { file, line: lineNo, field: 'format' });
+    const h = headerSchema.safeParse(obj);
+    if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
+    st.header = h.data;
+    st.version = Number(m[1]);
+    if (st.version < 2) st.issues.push({ code: 'log-unhashed', format: fmt });
+    return;
+  }
+  const { byStep } = st;
+  if (kind === 'reading') {
+    const r = readingSchema.safeParse(obj);
+    if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
+    if (byStep.has(r.data.step)) {
+      fail({ code: 'schema', reason: `step ${r.data.step} has a second reading; a changed reading is logged as a "correction", a taken-back one as a "withdraw"` }, { file, line: lineNo });
+    }
+    const x = { ...r.data, line: lineNo };
+    byStep.set(x.step, x);
+    st.all.push(x);
+  } else if (kind === 'correction') {
+    const r = correctionSchema.safeParse(obj);
+    if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
+    if (st.version >= 2) {
+      if (!r.data.by) fail({ code: 'schema', reason: 'a correction names who made it ("by": initials)' }, { file, line: lineNo, field: 'by' });
+      if (!r.data.reason?.trim()) fail({ code: 'schema', reason: 'a correction gives its reason ("reason")' }, { file, line: lineNo, field: 'reason' });
+      if (r.data.replaces_line === undefined) fail({ code: 'schema', reason: 'a correction names the line of the reading it replaces ("replaces_line")' }, { file, line: lineNo, field: 'replaces_line' });
+    }
+    const old = byStep.get(r.data.step) ?? null;
+    if (!old || (r.data.replaces_line !== undefined && old.line !== r.data.replaces_line)) {
+      st.issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? (r.data.replaces_line ?? null) : null, inForce: old?.line ?? null });
+    }
+    const x = { ...r.data, line: lineNo };
+    byStep.set(x.step, x);
+    st.all.push(x);
+    st.amendments.push({ kind: 'correction', step: x.step, line: lineNo, by: x.by ?? null, time: x.time, reason: x.reason ?? null, old, new: x });
+  } else if (kind === 'withdraw') {
+    const r = withdrawSchema.safeParse(obj);
+    if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
+    const old = byStep.get(r.data.step) ?? null;
+    if (!old || old.line !== r.data.withdraws_line) st.issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? r.data.withdraws_line : null, inForce: old?.line ?? null });
+    const later = Math.max(0, ...[...byStep.keys()].filter((x) => x > r.data.step));
+    if (later) st.issues.push({ code: 'withdraw-not-last', line: lineNo, step: r.data.step, later });
+    byStep.delete(r.data.step);
+    st.amendments.push({ kind: 'withdraw', step: r.data.step, line: lineNo, by: r.data.by, time: r.data.time, reason: r.data.reason ?? null, old, new: null });
+  } else if (kind === 'barometer') {
+    const r = barometerSchema.safeParse(obj);
+    if (!r.success) bad(file, lineNo, 'barometer reading', r.error.issues);
+    st.barometer = { ...r.data, line: lineNo };
+  } else if (kind === 'start-pressure') {
+    const r = startSchema.safeParse(obj);
+    if (!r.success) bad(file, lineNo, 'starting pressure', r.error.issues);
+    if (st.all.length > 0) fail({ code: 'schema', reason: 'the starting pressure of a top-up is read before the first fill; this one comes after a reading' }, { file, line: lineNo });
+    st.start = { ...r.data, line: lineNo };
+  } else if (kind === 'acknowledge') {
+    const a = ackSchema.safeParse(obj);
+    if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
+    st.acks.push(a.data);
+  } else if (kind === 'close') {
+    const c = closeSchema.safeParse(obj);
+    if (!c.success) bad(file, lineNo, 'close', c.error.issues);
+    st.closed = true;
+  } else {
+    fail({ code: 'schema', reason: `unknown event kind "${String(kind)}"` }, { file, line: lineNo });
+  }
+}
+
+function parsedOf(st: ReaderState, file: string): ParsedLog {
+  const header = st.header;
+  if (!header) return fail({ code: 'schema', reason: 'the log is empty (it holds no complete line)' }, { file });
+  const readings = [...st.byStep.values()].sort((a, b) => a.step - b.step);
+  const warnings = st.issues.filter((i) => recordIssueSeverity(i) === 'warning').map(describeRecordIssue);
+  return {
+    file,
+    header,
+    version: st.version,
+    readings,
+    allReadings: [...st.all],
+    amendments: [...st.amendments],
+    barometer: st.barometer,
+    start: st.start,
+    acknowledgements: [...st.acks],
+    closed: st.closed,
+    issues: [...st.issues],
+    warnings,
+    lines: st.complete,
+    lastLink: st.link,
+    bytes: st.bytes,
+  };
+}
+
+function readText(text: string, file: string): ReaderState {
   const lines = text.split('\n');
   const endsClean = text.endsWith('\n') || text === '';
-  const issues: RecordIssue[] = [];
-  let header: LogHeader | undefined;
-  let version = 0;
-  const byStep = new Map<number, InForceReading>();
-  const all: InForceReading[] = [];
-  const amendments: Amendment[] = [];
-  const acks: LogAck[] = [];
-  let barometer: ParsedLog['barometer'];
-  let start: ParsedLog['start'];
-  let closed = false;
-  let link = '';
-  let complete = 0;
-  let bytes = 0;
+  const st = emptyReader();
   const limit = endsClean ? lines.length - 1 : lines.length;
   for (let i = 0; i < limit; i++) {
-    const raw = lines[i];
-    const lineNo = i + 1;
     if (i === lines.length - 1 && !endsClean) {
-      issues.push({ code: 'torn-tail', line: lineNo, bytes: Buffer.byteLength(raw, 'utf8') });
+      st.issues.push({ code: 'torn-tail', line: i + 1, bytes: Buffer.byteLength(lines[i], 'utf8') });
       break;
     }
-    complete = lineNo;
-    bytes += Buffer.byteLength(raw, 'utf8') + 1;
-    if (raw.trim() === '') continue;
-    let obj: unknown;
-    try {
-      obj = JSON.parse(raw);
-    } catch {
-      return fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
-    }
-    if (typeof obj !== 'object' || obj === null || Array.isArray(obj)) fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
-    const rec = obj as Record<string, unknown>;
-    if (typeof rec.chain === 'string') {
-      if (chainOf(link, withoutChain(rec)) !== rec.chain) issues.push({ code: 'line-edited', line: lineNo });
-    } else if (version >= 2) issues.push({ code: 'line-unhashed', line: lineNo });
-    link = linkOf(rec, raw);
-    const kind = rec.kind;
-    if (!header) {
-      if (kind !== 'batch') fail({ code: 'schema', reason: 'the first line of a batch log must be its "batch" header' }, { file, line: lineNo });
-      const fmt = String(rec.format ?? '');
-      const m = /^mixwright-batch\/(\d+)$/.exec(fmt);
-      if (!m) fail({ code: 'schema', reason: `unknown log format "${fmt}"; this version reads ${LOG_FORMAT}` }, { file, line: lineNo, field: 'format' });
-      if (Number(m[1]) > LOG_VERSION) fail({ code: 'schema', reason: `the log is format ${fmt}, newer than this version of mixwright reads (${LOG_FORMAT}); update mixwright` }, { file, line: lineNo, field: 'format' });
-      const h = headerSchema.safeParse(obj);
-      if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
-      header = h.data;
-      version = Number(m[1]);
-      if (version < 2) issues.push({ code: 'log-unhashed', format: fmt });
-      continue;
-    }
-    if (kind === 'reading') {
-      const r = readingSchema.safeParse(obj);
-      if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
-      if (byStep.has(r.data.step)) {
-        fail({ code: 'schema', reason: `step ${r.data.step} has a second reading; a changed reading is logged as a "correction", a taken-back one as a "withdraw"` }, { file, line: lineNo });
-      }
-      const x = { ...r.data, line: lineNo };
-      byStep.set(x.step, x);
-      all.push(x);
-    } else if (kind === 'correction') {
-      const r = correctionSchema.safeParse(obj);
-      if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
-      if (version >= 2) {
-        if (!r.data.by) fail({ code: 'schema', reason: 'a correction names who made it ("by": initials)' }, { file, line: lineNo, field: 'by' });
-        if (!r.data.reason?.trim()) fail({ code: 'schema', reason: 'a correction gives its reason ("reason")' }, { file, line: lineNo, field: 'reason' });
-        if (r.data.replaces_line === undefined) fail({ code: 'schema', reason: 'a correction names the line of the reading it replaces ("replaces_line")' }, { file, line: lineNo, field: 'replaces_line' });
-      }
-      const old = byStep.get(r.data.step) ?? null;
-      if (!old || (r.data.replaces_line !== undefined && old.line !== r.data.replaces_line)) {
-        issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? (r.data.replaces_line ?? null) : null, inForce: old?.line ?? null });
-      }
-      const x = { ...r.data, line: lineNo };
-      byStep.set(x.step, x);
-      all.push(x);
-      amendments.push({ kind: 'correction', step: x.step, line: lineNo, by: x.by ?? null, time: x.time, reason: x.reason ?? null, old, new: x });
-    } else if (kind === 'withdraw') {
-      const r = withdrawSchema.safeParse(obj);
-      if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
-      const old = byStep.get(r.data.step) ?? null;
-      if (!old || old.line !== r.data.withdraws_line) issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? r.data.withdraws_line : null, inForce: old?.line ?? null });
-      const later = Math.max(0, ...[...byStep.keys()].filter((s) => s > r.data.step));
-      if (later) issues.push({ code: 'withdraw-not-last', line: lineNo, step: r.data.step, later });
-      byStep.delete(r.data.step);
-      amendments.push({ kind: 'withdraw', step: r.data.step, line: lineNo, by: r.data.by, time: r.data.time, reason: r.data.reason ?? null, old, new: null });
-    } else if (kind === 'barometer') {
-      const r = barometerSchema.safeParse(obj);
-      if (!r.success) bad(file, lineNo, 'barometer reading', r.error.issues);
-      barometer = { ...r.data, line: lineNo };
-    } else if (kind === 'start-pressure') {
-      const r = startSchema.safeParse(obj);
-      if (!r.success) bad(file, lineNo, 'starting pressure', r.error.issues);
-      if (all.length > 0) fail({ code: 'schema', reason: 'the starting pressure of a top-up is read before the first fill; this one comes after a reading' }, { file, line: lineNo });
-      start = { ...r.data, line: lineNo };
-    } else if (kind === 'acknowledge') {
-      const a = ackSchema.safeParse(obj);
-      if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
-      acks.push(a.data);
-    } else if (kind === 'close') {
-      const c = closeSchema.safeParse(obj);
-      if (!c.success) bad(file, lineNo, 'close', c.error.issues);
-      closed = true;
-    } else {
-      fail({ code: 'schema', reason: `unknown event kind "${String(kind)}"` }, { file, line: lineNo });
-    }
+    readLine(st, lines[i], i + 1, file);
   }
-  if (!header) return fail({ code: 'schema', reason: 'the log is empty (it holds no complete line)' }, { file });
-  const readings = [...byStep.values()].sort((a, b) => a.step - b.step);
-  const warnings = issues.filter((i) => recordIssueSeverity(i) === 'warning').map(describeRecordIssue);
-  return { file, header, version, readings, allReadings: all, amendments, barometer, start, acknowledgements: acks, closed, issues, warnings, lines: complete, lastLink: link, bytes };
+  return st;
+}
+
+export function parseLog(text: string, file: string): ParsedLog {
+  return parsedOf(readText(text, file), file);
 }
 
 export function readLog(file: string): ParsedLog {
@@ -508,18 +547,19 @@ function checkNew(event: NewLogEvent, file: string): void {
 
 /**
  * the log with one more event, as it would read: refuses (before anything is written) an
- * event the reader would refuse, or one that amends anything but the reading in force
+ * event the reader would refuse, or one that amends anything but the reading in force.
+ * Only the new line is read: the state of the lines before is kept.
  */
-function nextState(current: { text: string; log: ParsedLog }, event: NewLogEvent): { text: string; log: ParsedLog; chain: string } {
-  const file = current.log.file;
+function nextState(current: { st: ReaderState; file: string }, event: NewLogEvent): { line: string; st: ReaderState; log: ParsedLog; chain: string } {
+  const file = current.file;
   checkNew(event, file);
-  const { text: line, chain: c } = lineFor(current.log.lastLink, event);
-  const text = current.text + line;
-  const log = parseLog(text, file);
-  const lineNo = current.log.lines + 1;
-  const fresh = log.issues.find((i) => 'line' in i && i.line === lineNo);
+  const { text: line, chain: c } = lineFor(current.st.link, event);
+  const st = cloneReader(current.st);
+  const lineNo = st.complete + 1;
+  readLine(st, line.slice(0, -1), lineNo, file);
+  const fresh = st.issues.find((i) => 'line' in i && i.line === lineNo);
   if (fresh) fail({ code: 'schema', reason: `not logged: ${describeRecordIssue(fresh)}` }, { file, line: lineNo });
-  return { text, log, chain: c };
+  return { line, st, log: parsedOf(st, file), chain: c };
 }
 
 /**
@@ -574,12 +614,13 @@ export function createLog(path: string, header: LogHeader): void {
  */
 export function appendEvent(path: string, event: NewLogEvent): { line: number; chain: string } {
   const text = readTextFile(path);
-  const log = parseLog(text, path);
-  const torn = log.issues.find((i) => i.code === 'torn-tail');
+  const st = readText(text, path);
+  parsedOf(st, path);
+  const torn = st.issues.find((i) => i.code === 'torn-tail');
   if (torn) fail({ code: 'write-failed', reason: `the last line of the log is incomplete; \`mixwright fill --resume\` moves it aside first. Nothing was appended` }, { file: path, line: torn.line });
-  const next = nextState({ text, log }, event);
-  appendBytes(path, Buffer.byteLength(text, 'utf8'), next.text.slice(text.length));
-  return { line: log.lines + 1, chain: next.chain };
+  const next = nextState({ st, file: path }, event);
+  appendBytes(path, st.bytes, next.line);
+  return { line: next.st.complete, chain: next.chain };
 }
 
 // ---------------------------------------------------------------- the fill's handle and lock
@@ -778,7 +819,8 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
     const torn = moveTornTail(path, buf, now);
     if (torn) messages.push(`the last line of the log (line ${torn.line}, ${torn.bytes} bytes) was incomplete - cut off mid-write - and was moved to ${torn.side}; nothing in it was confirmed. The log now ends at line ${torn.line - 1}`);
     const text = torn ? buf.subarray(0, buf.length - torn.bytes).toString('utf8') : buf.toString('utf8');
-    let state = { text, log: parseLog(text, path) };
+    const st = readText(text, path);
+    let state = { st, file: path, log: parsedOf(st, path) };
     const handle: LogHandle = {
       path,
       lockPath,
@@ -786,9 +828,9 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
       append(event) {
         if (released) fail({ code: 'write-failed', reason: 'the log was released by this fill; open it again to write' }, { file: path });
         const next = nextState(state, event);
-        appendBytes(path, Buffer.byteLength(state.text, 'utf8'), next.text.slice(state.text.length));
-        state = { text: next.text, log: next.log };
-        return { line: next.log.lines, chain: next.chain };
+        appendBytes(path, state.st.bytes, next.line);
+        state = { st: next.st, file: path, log: next.log };
+        return { line: next.st.complete, chain: next.chain };
       },
       release,
     };
