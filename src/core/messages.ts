@@ -51,6 +51,10 @@ export function describeProblem(p: Problem): string {
       return `no equilibrium can be computed for ${list(p.species)}: the product data (NASA polynomials) cover only species of C, H, O, N and the noble gases; the closed-vessel and detonation pressures of such a state are not estimated - judge them from the supplier's data or a specialist`;
     case 'equilibrium-not-converged':
       return `the chemical equilibrium did not converge (${p.what}); the pressure estimate that needs it is not available - report this state to the maintainers`;
+    case 'write-failed':
+      return `not written: ${p.reason}`;
+    case 'log-locked':
+      return p.reason;
   }
 }
 

@@ -35,7 +35,11 @@ export type Problem =
   | { readonly code: 'no-gauge'; readonly reason: string }
   | { readonly code: 'model-range'; readonly reason: string }
   | { readonly code: 'no-equilibrium-data'; readonly species: readonly string[] }
-  | { readonly code: 'equilibrium-not-converged'; readonly what: string };
+  | { readonly code: 'equilibrium-not-converged'; readonly what: string }
+  /** a file could not be written in full (disk full, I/O error, short write, no permission, name taken) */
+  | { readonly code: 'write-failed'; readonly reason: string }
+  /** another guided fill holds the batch log */
+  | { readonly code: 'log-locked'; readonly reason: string };
 
 export type ProblemCode = Problem['code'];
 

@@ -9,7 +9,7 @@ import { WizardApp } from './wizard-app.js';
 import { DEFAULTS, wizardInit, type ActionName, type ActOutcome, type WizardState } from './wizard-state.js';
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
-import { appendEvent, createLog, readLog, type LogHeader, type ParsedLog } from '../io/batch-log.js';
+import { createLog, openLogForFill, readLog, type LogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
 import { headerFromPlan } from '../io/check.js';
 import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';
@@ -17,12 +17,23 @@ import { sheetToHtml } from '../report/sheet-render.js';
 import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.js';
 
 export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<void> {
-  const setup = setupFromHeader(args.header);
-  const now = new Date().toISOString();
-  const initial = initialState(setup, args.log, now);
-  for (const e of initial.effects) appendEvent(args.logFile, e);
-  const app = render(<FillApp initial={{ ...initial, effects: [] }} write={(e) => appendEvent(args.logFile, e)} logFile={args.logFile} />);
-  await app.waitUntilExit();
+  // the lock is held for the whole fill; a torn last line is moved aside before anything is appended
+  const opened = openLogForFill(args.logFile);
+  try {
+    for (const m of opened.messages) process.stderr.write(`mixwright: ${args.logFile}: ${m}\n`);
+    const setup = setupFromHeader(opened.log.header);
+    const now = new Date().toISOString();
+    const initial = initialState(setup, args.log ? opened.log : undefined, now);
+    const write = (e: LogEvent) => {
+      if (e.kind === 'batch') throw new Error('the header is written once, by createLog');
+      opened.handle.append(e);
+    };
+    for (const e of initial.effects) write(e);
+    const app = render(<FillApp initial={{ ...initial, effects: [] }} write={write} logFile={args.logFile} />);
+    await app.waitUntilExit();
+  } finally {
+    opened.handle.release();
+  }
 }
 
 export interface WizardContext {
