@@ -271,7 +271,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       labName: req.lab.name,
       orderRecommended: req.orderRecommended,
       version: VERSION,
-      experiments: served && req.sizing ? { count: served.experiments, sizedFor: req.sizedFor, reactor: req.sizing.reactor, perExperimentMol: served.sizing.perExperimentMol, minTankPa: served.sizing.minTankPa, margin: req.sizing.margin } : undefined,
+      experiments: served && req.sizing ? { count: served.experiments, sizedFor: req.sizedFor, reactor: req.sizing.reactor, perExperimentMol: served.sizing.perExperimentMol, minTankPa: served.sizing.minTankPa, margin: req.sizing.margin } : undefined,      barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined },
     };
     return { plan, req, unit, meta };
   };
@@ -295,7 +295,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       const { plan, req, unit } = planFrom(recipeFile, o);
       const h = req.tankInfo?.heightM;
       const mixing = h ? mixingEstimate(plan.composition, plan.temperatureK, plan.final.pressurePa, h, Boolean(req.tankInfo?.stirred)) : undefined;
-      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing });
+      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing, barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined } });
       if (o.format === 'pdf') {
         if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' }, { field: '--output' });
         await writePdf(sheetToHtml(model), o.output, Boolean(o.force));
