@@ -49,7 +49,7 @@ export function sheetToHtml(m: SheetModel): string {
   const steps = m.rows
     .map((r) => {
       const before = r.before.length ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>` : '';
-      return `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.band).replace(' - ', ' &ndash; ')}</td><td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`;
+      return `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`;
     })
     .join('\n');
   const findings = m.findings.length
@@ -97,7 +97,7 @@ export function sheetToMarkdown(m: SheetModel): string {
   out.push('## Fills (target = reading to stop at, on that gauge)', '', '| # | gas / cylinder | gauge | target | band | actual reading | time | init. | done |', '|---:|---|---|---:|---|---|---|---|---|');
   for (const r of m.rows) {
     for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
-    out.push(`| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} | **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ')} | | | | [ ] |`);
+    out.push(`| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} | **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ').replace('+-', '±')} | | | | [ ] |`);
   }
   if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
   out.push('', '## After filling', '', ...m.postChecks.map((c) => `- [ ] ${c}`), '');
