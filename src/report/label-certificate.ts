@@ -89,10 +89,11 @@ function textField(o: unknown, ...keys: string[]): string {
   return '';
 }
 
-function corrections(log?: ParsedLog): string[] {
+function corrections(log?: ParsedLog, r?: CheckReport): string[] {
   if (!log) return [];
   const out: string[] = [];
-  const listed = (log as unknown as { corrections?: unknown }).corrections;
+  const fromLog = (log as unknown as { corrections?: unknown }).corrections;
+  const listed = Array.isArray(fromLog) ? fromLog : (r as unknown as { corrections?: unknown } | undefined)?.corrections;
   if (Array.isArray(listed)) {
     for (const c of listed) {
       const step = textField(c, 'step');
@@ -161,6 +162,14 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
   const findings: { severity: string; text: string }[] = [];
   // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
   for (const w of r.warnings) if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
+  // findings the re-check raised on the log itself, where the report carries them (worded already, or with a message)
+  const logFindings = (r as unknown as { findings?: unknown }).findings;
+  if (Array.isArray(logFindings)) {
+    for (const f of logFindings) {
+      const text = textField(f, 'message', 'text');
+      if (text) findings.push({ severity: textField(f, 'severity') || 'check', text: `${textField(f, 'code') ? `${textField(f, 'code')}: ` : ''}${text}` });
+    }
+  }
   for (const f of h?.findings ?? []) if (f.code !== 'isolate-gauge') findings.push({ severity: f.severity, text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}` });
   const order = ['danger', 'check', 'warning', 'note'];
   findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
@@ -194,7 +203,7 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
     phi,
     dilution,
     readings,
-    corrections: corrections(log),
+    corrections: corrections(log, r),
     acknowledgements,
     findings,
     method,

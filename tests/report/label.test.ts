@@ -215,3 +215,15 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML certificate and l
     });
   }
 });
+
+describe('what a newer log or report carries', () => {
+  it('a corrections list (who, when, old, new, why) and log findings on the report are shown on the certificate', async () => {
+    const log = readLog(PASSING);
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    const withMore = { ...report, findings: [{ severity: 'danger', code: 'over-working-limit', message: 'reading 3 is above the working limit' }] };
+    const logMore = { ...log, corrections: [{ step: 2, by: 'QX', time: '2026-11-30T09:50:00Z', old: '1408 Torr', new: '1480 Torr', reason: 'digits swapped' }] };
+    const c = buildCertificateModel(withMore, logMore, META);
+    expect(c.corrections).toEqual(['fill 2: 1408 Torr -> 1480 Torr, by QX at 2026-11-30T09:50:00Z - digits swapped']);
+    expect(c.findings[0]).toEqual({ severity: 'danger', text: 'over-working-limit: reading 3 is above the working limit' });
+  });
+});
