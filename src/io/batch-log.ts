@@ -48,7 +48,7 @@ export const headerSchema = z.object({
   id: z.string().min(1),
   created: z.string(),
   lab: z.string(),
-  tank: z.object({ id: z.string(), volume_m3: z.number().positive(), rated_pressure_Pa: z.number().positive().nullable() }),
+  tank: z.object({ id: z.string(), volume_m3: z.number().positive(), rated_pressure_Pa: z.number().positive().nullable(), working_limit_Pa: z.number().positive().nullable().optional().describe('rating x working fraction; logs without it use the rating') }),
   design: z.object({ composition: fractions, phi: z.number().nullable(), diluent: z.array(z.string()), diluent_fraction: z.number() }),
   tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
   temperature_K: z.number().positive(),

@@ -54,7 +54,7 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
     id,
     created,
     lab: req.lab.name,
-    tank: { id: plan.tank.id, volume_m3: plan.tank.volumeM3, rated_pressure_Pa: plan.tank.ratedPressurePa ?? null },
+    tank: { id: plan.tank.id, volume_m3: plan.tank.volumeM3, rated_pressure_Pa: plan.tank.ratedPressurePa ?? null, working_limit_Pa: plan.tank.ratedPressurePa === undefined ? null : plan.tank.ratedPressurePa * (plan.tank.workingFraction ?? 1) },
     design: { composition: { ...d.composition }, phi: d.phi ?? null, diluent: Object.keys(d.groups.diluent), diluent_fraction: d.diluentFraction },
     tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
     temperature_K: plan.temperatureK,
