@@ -1,0 +1,164 @@
+/**
+ * The as-filled tank label: what is in the tank by its own readings, never the design.
+ * Built from a re-check report (the same computation `check` prints), so the label and
+ * `check --json` of one log carry the same composition and expanded uncertainty. A
+ * failed re-check makes a label that says FAIL first and names what is off; a pass the
+ * measurement cannot prove says so in words.
+ *
+ * Pure: the fill's end screen and `mixwright label` both call it.
+ */
+import { assessFlammability, type OutputStat, type VerdictKind } from '../core/index.js';
+import type { CheckReport } from '../io/check.js';
+import type { ParsedLog } from '../io/batch-log.js';
+import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import { decimalsFor, fixedSig } from './format.js';
+
+/** one mole fraction on the label, in mole percent, with its expanded uncertainty U (k = 2) */
+export interface LabelFraction {
+  readonly species: string;
+  readonly value: number;
+  readonly expandedU: number;
+  /** e.g. "0.6669 % +- 0.0015 %", or ppm below 0.1 % (U to two significant digits, the value to the same place) */
+  readonly text: string;
+}
+
+export type LabelStatus = 'pass' | 'pass-uncertain' | 'fail' | 'incomplete' | 'no-design';
+
+export interface LabelModel {
+  readonly batchId: string;
+  readonly tank: string;
+  readonly lab: string;
+  /** date of the last logged reading (YYYY-MM-DD), or "date not logged" */
+  readonly filledOn: string;
+  readonly status: LabelStatus;
+  readonly verdict: VerdictKind;
+  /** the first line of the label: the verdict in capitals where it is not a proven pass */
+  readonly headline: string;
+  /** one line per design species outside its tolerance (fail), or whose U reaches past it (pass-uncertain) */
+  readonly offDesign: readonly string[];
+  readonly composition: readonly LabelFraction[];
+  readonly phi?: string;
+  readonly dilution?: string;
+  readonly finalPressure: string;
+  readonly finalTemperature: string;
+  /** flammability of the as-filled composition at the final state */
+  readonly hazard: string;
+}
+
+const PCT = 100;
+
+/** value +- U with U to two significant digits and the value to the same decimal place (GUM 7.2.6) */
+export function withU(value: number, U: number, unit = ''): string {
+  const sfx = unit ? ` ${unit}` : '';
+  if (!(U > 0) || !Number.isFinite(U)) return `${fixedSig(value, 6)}${sfx} (U not computed)`;
+  const place = Math.floor(Math.log10(U)) - 1;
+  const dec = Math.max(0, -place);
+  return `${value.toFixed(dec)}${sfx} +- ${U.toFixed(dec)}${sfx}`;
+}
+
+/** below this mole fraction the label gives ppm (mol/mol) instead of % */
+const PPM_BELOW = 1e-3;
+
+function fraction(species: string, st: OutputStat): LabelFraction {
+  const text = st.value < PPM_BELOW ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm') : withU(st.value * PCT, 2 * st.u * PCT, '%');
+  return { species, value: st.value, expandedU: 2 * st.u, text };
+}
+
+function unitOf(u: string): PressureUnit {
+  return isPressureUnit(u) ? u : 'Pa';
+}
+
+export function statusOf(r: CheckReport): LabelStatus {
+  if (r.incomplete.length) return 'incomplete';
+  return r.verdict.verdict;
+}
+
+const HEADLINE: Record<LabelStatus, string> = {
+  pass: 'PASS - as filled, within tolerance (uncertainty included)',
+  'pass-uncertain': 'PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it',
+  fail: 'FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE',
+  incomplete: 'FAIL - INCOMPLETE BATCH: NOT THE DESIGN MIXTURE',
+  'no-design': 'NO DESIGN TO COMPARE WITH - composition as measured',
+};
+
+function offDesign(r: CheckReport): string[] {
+  const out: string[] = [];
+  for (const d of r.verdict.deviations) {
+    const rel = d.deviation / d.design;
+    const dir = d.deviation < 0 ? 'below' : 'above';
+    const tolPct = (d.tolerance / d.design) * PCT;
+    if (!d.within) out.push(`${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design; tolerance ${fixedSig(tolPct, 2)} %`);
+    else if (!d.provenWithin) out.push(`${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design, but U ${fixedSig((d.expandedU / d.design) * PCT, 2)} % reaches past the tolerance ${fixedSig(tolPct, 2)} %`);
+  }
+  if (r.incomplete.length) out.push(`no reading for ${r.incomplete.join(', ')}`);
+  return out;
+}
+
+function hazardLine(r: CheckReport, log?: ParsedLog): string {
+  const y: Record<string, number> = {};
+  for (const [k, st] of Object.entries(r.result.composition)) y[k] = st.value;
+  const last = r.readings[r.readings.length - 1];
+  let verdict: string;
+  try {
+    verdict = assessFlammability(y, last.temperatureK, last.pressurePa).verdict;
+  } catch {
+    verdict = 'unknown';
+  }
+  const planned = (log?.header.findings ?? []).some((f) => f.code === 'flammable-mixture');
+  if (verdict === 'flammable' || planned) return 'FLAMMABLE GAS MIXTURE';
+  if (verdict === 'near-limit') return 'NEAR THE FLAMMABLE LIMIT - handle as flammable';
+  if (verdict === 'unknown') return 'flammability not assessed - see the findings before use';
+  return 'see the findings and supplier safety data before use';
+}
+
+export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
+  const status = statusOf(r);
+  const composition = Object.entries(r.result.composition)
+    .filter(([, st]) => st.value > 0)
+    .sort((a, b) => b[1].value - a[1].value)
+    .map(([k, st]) => fraction(k, st));
+  const last = r.readings[r.readings.length - 1];
+  const unit = unitOf(last.gauge.unit);
+  const dec = Math.max(0, decimalsFor(fromPa(last.gauge.resolutionPa, unit)));
+  const times = (log?.readings ?? []).map((x) => x.time).filter(Boolean).sort();
+  const lastTime = times[times.length - 1];
+  const phi = r.result.phi;
+  const dil = r.result.diluentFraction;
+  return {
+    batchId: r.id,
+    tank: log?.header.tank.id ?? 'tank not logged',
+    lab: log?.header.lab ?? '',
+    filledOn: lastTime ? lastTime.slice(0, 10) : 'date not logged',
+    status,
+    verdict: r.verdict.verdict,
+    headline: HEADLINE[status],
+    offDesign: offDesign(r),
+    composition,
+    phi: phi ? withU(phi.value, 2 * phi.u) : undefined,
+    dilution: dil ? withU(dil.value * PCT, 2 * dil.u * PCT, '%') : undefined,
+    finalPressure: `${fromPa(last.pressurePa, unit).toFixed(dec)} ${unit} absolute`,
+    finalTemperature: `${(last.temperatureK - 273.15).toFixed(1)} degC`,
+    hazard: hazardLine(r, log),
+  };
+}
+
+/** the label as lines of plain text, the verdict first; what the fill's end screen and `label` print */
+export function labelLines(m: LabelModel): string[] {
+  const bad = m.status === 'fail' || m.status === 'incomplete';
+  const out: string[] = [];
+  out.push(bad ? `*** ${m.headline} ***` : m.headline);
+  for (const o of m.offDesign) out.push(`  ${o}`);
+  out.push(`Batch ${m.batchId}   tank ${m.tank}   filled ${m.filledOn}`);
+  out.push('As filled, mole fraction +- U (k = 2):');
+  for (const c of m.composition) out.push(`  ${c.species.padEnd(8)} ${c.text}`);
+  const extra = [m.phi ? `phi ${m.phi}` : '', m.dilution ? `dilution ${m.dilution}` : ''].filter(Boolean);
+  if (extra.length) out.push(extra.join('   '));
+  out.push(`${m.finalPressure} at ${m.finalTemperature}`);
+  out.push(m.hazard);
+  if (bad) out.push('*** DO NOT USE AS THE DESIGN MIXTURE ***');
+  return out;
+}
+
+export function renderLabelText(m: LabelModel): string {
+  return labelLines(m).join('\n') + '\n';
+}
