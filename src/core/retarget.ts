@@ -236,13 +236,14 @@ export interface VentBack {
 /**
  * After a reading at or above the working limit: how far to vent (or pump) back. Venting removes
  * gas of the tank's own composition, so every amount scales by f = rho_after / rho_now and the
- * composition stays. The largest f in (0, 1) is sought (bisection, 50 halvings) for which the
- * re-target from the vented tank stays below the limit and gives up no more than it must from a
- * nearly empty tank (f = 1e-6), and without the limit binding (which would trade phi within its tolerance). With no fill left the composition is final: vent to the design
- * pressure, or to just below the limit if the design pressure is not below it.
- * Example: CH4 10 Torr, then Ar read 2800 Torr in a tank limited to 2700 Torr (design 1500 Torr
- * final, 2 % fuel and O2): vent back to about 1480 Torr, from where O2 restores phi near the
- * design pressure (tests/core/retarget.test.ts).
+ * composition stays. First choice: the f from which the re-targeted remaining fills end at the
+ * design pressure (bisection on f, 60 halvings; the final pressure rises with f), when the limit
+ * does not bind there. Otherwise (the design pressure is out of reach within the limit) the largest
+ * f from which the re-target ends below the limit without the limit binding. With no fill left the
+ * composition is final: vent to the design pressure, or just below the limit if that is not below it.
+ * Example: CH4 10.01 Torr, then Ar read 2800 Torr in MT-1 (limit 2700.6 Torr; design 1500 Torr,
+ * 2 % CH4 + O2): vent back to about 1480 Torr, from where O2 keeps phi and ends at 1500 Torr; the
+ * dilution stays as the Ar overshoot made it (tests/tui/fill-state.test.ts).
  */
 export function ventBack(input: RetargetInput & { readonly workingLimitPa: number }): VentBack {
   const limit = input.workingLimitPa;
@@ -251,17 +252,21 @@ export function ventBack(input: RetargetInput & { readonly workingLimitPa: numbe
     const now = at(1).nowPa;
     const targetPa = input.finalPressurePa < limit ? input.finalPressurePa : limit * (1 - 1e-3);
     const f = Math.min(1, targetPa / now);
-    return { targetPa, ventFactor: f, after: at(f) };
+    return { targetPa: at(f).nowPa, ventFactor: f, after: at(f) };
   }
-  const ref = new Set(at(1e-6).gave);
-  const ok = (r: RetargetResult) => r.nowPa < limit && !r.limitBinds && r.gave.every((g) => ref.has(g));
-  let lo = 1e-6;
-  let hi = 1;
-  for (let it = 0; it < 50; it++) {
-    const mid = Math.sqrt(lo * hi) > 0.01 ? (lo + hi) / 2 : Math.sqrt(lo * hi);
-    if (ok(at(mid))) lo = mid;
-    else hi = mid;
-  }
-  const after = at(lo);
-  return { targetPa: after.nowPa, ventFactor: lo, after };
+  const bisect = (good: (r: RetargetResult) => boolean): number => {
+    let lo = 1e-6;
+    let hi = 1;
+    for (let it = 0; it < 60; it++) {
+      const mid = Math.sqrt(lo * hi) > 0.01 ? (lo + hi) / 2 : Math.sqrt(lo * hi);
+      if (good(at(mid))) lo = mid;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const below = (r: RetargetResult) => r.nowPa < limit && !r.limitBinds;
+  const fDesign = bisect((r) => r.predicted.pressurePa <= input.finalPressurePa);
+  const f = below(at(fDesign)) ? fDesign : bisect(below);
+  const after = at(f);
+  return { targetPa: after.nowPa, ventFactor: f, after };
 }

@@ -10,19 +10,41 @@ import { DEFAULTS, wizardInit, type WizardState } from './wizard-state.js';
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
 import { appendEvent, createLog, readLog, type LogHeader, type ParsedLog } from '../io/batch-log.js';
-import { headerFromPlan } from '../io/check.js';
+import { checkLog, headerFromPlan } from '../io/check.js';
+
+/** the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default, so the two agree */
+const CHECK_TRIALS = 200000;
 import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';
 import { sheetToHtml } from '../report/sheet-render.js';
 import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.js';
 
-export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<void> {
+export interface FillOutcome {
+  /** Ctrl-C stopped the fill */
+  readonly interrupted: boolean;
+  /** readings in force in the log when the fill ended (read back from the file) */
+  readonly logged: number;
+  readonly steps: number;
+  readonly logFile: string;
+}
+
+export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<FillOutcome> {
   const setup = setupFromHeader(args.header);
   const now = new Date().toISOString();
   const initial = initialState(setup, args.log, now);
   for (const e of initial.effects) appendEvent(args.logFile, e);
-  const app = render(<FillApp initial={{ ...initial, effects: [] }} write={(e) => appendEvent(args.logFile, e)} logFile={args.logFile} />);
+  let interrupted = false;
+  const recheck = async () => {
+    const log = readLog(args.logFile);
+    return { report: await checkLog(log, { trials: CHECK_TRIALS, seed: 1 }), log };
+  };
+  const app = render(
+    <FillApp initial={{ ...initial, effects: [] }} write={(e) => appendEvent(args.logFile, e)} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} />,
+    { exitOnCtrlC: false },
+  );
   await app.waitUntilExit();
+  app.unmount();
+  return { interrupted, logged: readLog(args.logFile).readings.length, steps: setup.steps.length, logFile: args.logFile };
 }
 
 export interface WizardContext {
@@ -66,7 +88,7 @@ export function wizardAct(s: WizardState, action: string, ctx: WizardContext): s
 }
 
 /** the wizard; returns when the user quits, or runs the guided fill it hands over to */
-export async function runWizard(args: WizardContext): Promise<void> {
+export async function runWizard(args: WizardContext): Promise<FillOutcome | undefined> {
   const evaluate = makeEvaluator(args.labFile);
   let handOver: { header: LogHeader; logFile: string } | undefined;
   const act = (s: WizardState, action: string): string | { handOver: true } => {
@@ -79,5 +101,6 @@ export async function runWizard(args: WizardContext): Promise<void> {
   const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} />);
   await app.waitUntilExit();
   app.unmount();
-  if (handOver) await runFill(handOver);
+  if (handOver) return runFill(handOver);
+  return undefined;
 }
