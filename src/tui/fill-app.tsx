@@ -207,7 +207,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         </Text>
         <Text bold wrap="wrap">Close the cylinder valve and the tank valve now.</Text>
         <Text wrap="wrap">
-          Vent or pump back by at least {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to at most {absText(o.ventToPa)} (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
+          Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
         </Text>
         <Text> </Text>
         <Text wrap="wrap">vent: log the reading; you vent back (the fill stops here; finish as a top-up)   accept INITIALS: keep the tank as it is (logged)   edit: it was mistyped</Text>

@@ -97,7 +97,7 @@ export interface Pending {
 
 export interface OverLimit {
   readonly limitPa: number;
-  /** vent or pump back to at most this absolute pressure, Pa */
+  /** vent or pump back to this absolute pressure (from where the remaining fills end at the design pressure if they can; never above the limit), Pa */
   readonly ventToPa: number;
   /** what the remaining fills become from there */
   readonly after: string;
@@ -406,19 +406,19 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
     return commit(s, { ...p, event: { ...p.event, note: `above the working limit; accepted by ${acc[1]}` } }, [ack], now);
   }
   if (/^vent$/i.test(text)) {
-    const note = `above the working limit ${fmtIn(o.limitPa, unit)}; the operator vents the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute`;
+    const note = `above the working limit ${fmtIn(o.limitPa, unit)}; the operator vents the tank back to ${fmtIn(o.ventToPa, unit)} absolute`;
     const event: LogReading = { ...p.event, note };
     const done = [...s.done, p.done];
     const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
     if (last) {
       const f = finish({ ...base, effects: [event] }, now);
-      return { ...f, message: `fill ${step.index} logged above the working limit; vent the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the re-check below holds for the vented tank.` };
+      return { ...f, message: `fill ${step.index} logged above the working limit; vent the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the re-check below holds for the vented tank.` };
     }
     return {
       ...base,
       phase: 'ended',
-      effects: [event, { kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is vented back to at most ${fmtIn(o.ventToPa, unit)} absolute; the readings give its composition; finish the design as a top-up batch` }],
-      message: `fill ${step.index} logged. Vent or pump the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so this log's readings still give it; finish the design as a top-up batch (in_tank: the composition of \`mixwright check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
+      effects: [event, { kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} absolute; the readings give its composition; finish the design as a top-up batch` }],
+      message: `fill ${step.index} logged. Vent or pump the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so this log's readings still give it; finish the design as a top-up batch (in_tank: the composition of \`mixwright check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
     };
   }
   return { ...s, error: 'type "vent" (you vent or pump back), "accept" and your initials (keep the tank as it is; logged), or "edit" (the reading was mistyped), then Enter' };
