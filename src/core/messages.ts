@@ -47,6 +47,10 @@ export function describeProblem(p: Problem): string {
       return p.reason;
     case 'model-range':
       return p.reason;
+    case 'write-failed':
+      return `not written: ${p.reason}`;
+    case 'log-locked':
+      return p.reason;
   }
 }
 

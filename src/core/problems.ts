@@ -33,7 +33,11 @@ export type Problem =
   | { readonly code: 'unknown-reference'; readonly kind: string; readonly id: string; readonly choices: readonly string[] }
   | { readonly code: 'no-supply'; readonly species: string; readonly reason: string }
   | { readonly code: 'no-gauge'; readonly reason: string }
-  | { readonly code: 'model-range'; readonly reason: string };
+  | { readonly code: 'model-range'; readonly reason: string }
+  /** a file could not be written in full (disk full, I/O error, short write, no permission, name taken) */
+  | { readonly code: 'write-failed'; readonly reason: string }
+  /** another guided fill holds the batch log */
+  | { readonly code: 'log-locked'; readonly reason: string };
 
 export type ProblemCode = Problem['code'];
 

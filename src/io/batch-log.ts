@@ -1,23 +1,47 @@
 /**
- * The batch log: JSON Lines, one event per line, append-only, fsync after every
- * line. Format "mixwright-batch/1":
- *   {"kind":"batch", ...}        header: design, tank, gauges, sources, planned steps
- *   {"kind":"reading", ...}      one per fill: step, source, gauge, reading with unit, temperature, time
- *   {"kind":"correction", ...}   replaces the reading of a step (the original stays in the file)
- *   {"kind":"acknowledge", ...}  an operator's acknowledgement of a finding
- *   {"kind":"close", ...}        the batch is finished
- * A log is never overwritten; a torn last line (a crash mid-write) is reported and
- * ignored, every complete line kept.
+ * The batch log: JSON Lines, one event per line, append-only, every line written in full
+ * (the byte count checked) and fsync'd before the fill says "logged". Format
+ * "mixwright-batch/2" (a /1 log is read too; it has no line hashes, which is a note):
+ *
+ *   {"kind":"batch", ...}            header: design, tank (rating and working limit), gauges,
+ *                                    sources, planned steps, gas already in the tank (top-up)
+ *   {"kind":"barometer", ...}        today's barometric pressure: reading (as typed, with unit),
+ *                                    pressure_Pa, u_Pa?, by (initials), time
+ *   {"kind":"start-pressure", ...}   top-up: the tank's pressure before the first fill, read and
+ *                                    logged first: gauge, reading, pressure_Pa (absolute),
+ *                                    barometer_Pa?, temperature, temperature_K, by, time
+ *   {"kind":"reading", ...}          one per fill: step, source, gauge, reading (as typed, with
+ *                                    unit), pressure_Pa (absolute), barometer_Pa? (gauge-referenced
+ *                                    gauges), temperature (as typed), temperature_K, time, by?
+ *   {"kind":"correction", ...}       a reading's fields again, plus by, reason and replaces_line
+ *                                    (the line of the reading it replaces); the original stays
+ *   {"kind":"withdraw", ...}         step, withdraws_line, by, time, reason?: takes back the last
+ *                                    reading logged, before the next fill; the step is read again
+ *   {"kind":"acknowledge", ...}      an operator's acknowledgement of a danger finding
+ *   {"kind":"close", ...}            the batch is finished
+ *
+ * Every line carries "chain": the SHA-256 (hex) of the previous line's chain, a line feed,
+ * and this line's JSON without its chain (for a previous line without a chain, the SHA-256
+ * of its bytes stands in). An edited line no longer matches its chain; a removed line
+ * breaks the next one's. It is a check against accidents and quiet edits, not a signature.
+ *
+ * A line counts when its line feed is written: a last line without one was cut off mid-write
+ * (a crash or a full disk) and is never used. A guided fill opens the log with
+ * openLogForFill: an exclusive lock file beside the log, and a torn last line moved aside to
+ * a side file before anything is appended. A log is never overwritten.
  */
-import { closeSync, existsSync, fsyncSync, linkSync, openSync, unlinkSync, writeSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { closeSync, fstatSync, fsyncSync, ftruncateSync, linkSync, lstatSync, openSync, readdirSync, readFileSync, renameSync, unlinkSync } from 'node:fs';
+import { hostname } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
 import { z } from 'zod';
-import { fail } from '../core/index.js';
+import { fail, ProblemError } from '../core/index.js';
 import type { Gauge, GasSource } from '../core/index.js';
+import { failureReason, fsyncFolder, writeAllSync, writeErrorReason, writeFileAtomic } from './atomic.js';
 
-export const LOG_FORMAT = 'mixwright-batch/1';
-const LOG_VERSION = 1;
+export const LOG_FORMAT = 'mixwright-batch/2';
+const LOG_VERSION = 2;
 
 const fractions = z.record(z.string(), z.number().min(0).max(1));
 
@@ -48,7 +72,13 @@ export const headerSchema = z.object({
   id: z.string().min(1),
   created: z.string(),
   lab: z.string(),
-  tank: z.object({ id: z.string(), volume_m3: z.number().positive(), rated_pressure_Pa: z.number().positive().nullable(), working_limit_Pa: z.number().positive().nullable().optional().describe('rating x working fraction; logs without it use the rating') }),
+  tank: z.object({
+    id: z.string(),
+    volume_m3: z.number().positive(),
+    rated_pressure_Pa: z.number().positive().nullable(),
+    /** rating x working fraction; absent in /1 logs (then the rating is the limit) */
+    working_limit_Pa: z.number().positive().nullable().optional(),
+  }),
   design: z.object({ composition: fractions, phi: z.number().nullable(), diluent: z.array(z.string()), diluent_fraction: z.number() }),
   tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
   temperature_K: z.number().positive(),
@@ -58,12 +88,16 @@ export const headerSchema = z.object({
   gauges: z.array(gaugeSchema),
   sources: z.array(sourceSchema),
   steps: z.array(z.object({ step: z.number().int().positive(), source: z.string(), species: z.string(), target_Pa: z.number(), band_Pa: z.number(), gauge: z.string().nullable() })),
+  /** top-up: the gas the plan assumed already in the tank */
+  in_tank: z.object({ composition: fractions, pressure_Pa: z.number().positive() }).nullable().optional(),
   recipe: z.unknown().optional(),
   findings: z.array(z.object({ severity: z.enum(['danger', 'warning', 'note']), code: z.string(), step: z.number().nullable(), message: z.string() })).optional(),
 });
 
-const readingSchema = z.object({
-  kind: z.enum(['reading', 'correction']),
+const chain = z.string().regex(/^[0-9a-f]{64}$/).optional();
+const initials = z.string().trim().min(1).max(16);
+
+const readingFields = {
   step: z.number().int().positive(),
   source: z.string(),
   gauge: z.string(),
@@ -73,17 +107,64 @@ const readingSchema = z.object({
   temperature: z.string(),
   temperature_K: z.number().positive(),
   time: z.string(),
+  by: initials.optional(),
   note: z.string().optional(),
-  reason: z.string().optional(),
-});
+  chain,
+};
 
-const ackSchema = z.object({ kind: z.literal('acknowledge'), code: z.string(), step: z.number().int().nullable(), by: z.string(), time: z.string(), note: z.string().optional() });
-const closeSchema = z.object({ kind: z.literal('close'), time: z.string(), note: z.string().optional() });
+const readingSchema = z.object({ kind: z.literal('reading'), ...readingFields });
+const correctionSchema = z.object({
+  kind: z.literal('correction'),
+  ...readingFields,
+  reason: z.string().optional(),
+  replaces_line: z.number().int().positive().optional(),
+});
+const withdrawSchema = z.object({
+  kind: z.literal('withdraw'),
+  step: z.number().int().positive(),
+  withdraws_line: z.number().int().positive(),
+  by: initials,
+  time: z.string(),
+  reason: z.string().optional(),
+  chain,
+});
+const barometerSchema = z.object({
+  kind: z.literal('barometer'),
+  reading: z.string().describe('as typed, with its unit, e.g. "752.1 Torr"'),
+  pressure_Pa: z.number().positive(),
+  u_Pa: z.number().min(0).optional(),
+  by: initials,
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
+const startSchema = z.object({
+  kind: z.literal('start-pressure'),
+  gauge: z.string(),
+  reading: z.string(),
+  pressure_Pa: z.number().positive().describe('absolute tank pressure before the first fill'),
+  barometer_Pa: z.number().positive().optional(),
+  temperature: z.string(),
+  temperature_K: z.number().positive(),
+  by: initials,
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
+const ackSchema = z.object({ kind: z.literal('acknowledge'), code: z.string(), step: z.number().int().nullable(), by: z.string(), time: z.string(), note: z.string().optional(), chain });
+const closeSchema = z.object({ kind: z.literal('close'), time: z.string(), note: z.string().optional(), chain });
 
 export type LogHeader = z.infer<typeof headerSchema>;
-export type LogReading = z.infer<typeof readingSchema>;
+export type LogReading = z.infer<typeof readingSchema> | z.infer<typeof correctionSchema>;
+export type LogCorrection = z.infer<typeof correctionSchema>;
+export type LogWithdraw = z.infer<typeof withdrawSchema>;
+export type LogBarometer = z.infer<typeof barometerSchema>;
+export type LogStartPressure = z.infer<typeof startSchema>;
 export type LogAck = z.infer<typeof ackSchema>;
-export type LogEvent = LogHeader | LogReading | LogAck | z.infer<typeof closeSchema>;
+export type LogClose = z.infer<typeof closeSchema>;
+export type LogEvent = LogHeader | LogReading | LogWithdraw | LogBarometer | LogStartPressure | LogAck | LogClose;
+/** what a writer hands to append: any event but the header, without its chain (the writer adds it) */
+export type NewLogEvent = Exclude<LogEvent, LogHeader>;
 
 export function gaugeToLog(g: Gauge): LogHeader['gauges'][number] {
   return {
@@ -121,115 +202,602 @@ export function sourceFromLog(s: LogHeader['sources'][number]): GasSource {
   return { id: s.id, label: s.label, kind: s.kind, composition: s.composition, unidentified: s.unidentified, mainSpecies: s.main_species };
 }
 
-function appendLine(fd: number, event: LogEvent): void {
-  const line = JSON.stringify(event) + '\n';
-  writeSync(fd, line);
-  fsyncSync(fd);
+/** the working limit a log's readings are held to: rating x working fraction, else the rating */
+export function workingLimitOf(h: LogHeader): number | undefined {
+  return h.tank.working_limit_Pa ?? h.tank.rated_pressure_Pa ?? undefined;
 }
 
-/**
- * Start a new log; refuses to touch an existing file. The header is written to a
- * temporary file, fsync'd, then hard-linked into place (link fails if the name exists,
- * so there is no window in which a half-written header or an overwrite can happen).
- */
-export function createLog(path: string, header: LogHeader): void {
-  if (existsSync(path)) fail({ code: 'file-unreadable', reason: 'a batch log of that name exists already; it is never overwritten - choose another batch id' }, { file: path });
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
-  const fd = openSync(tmp, 'wx');
-  try {
-    appendLine(fd, header);
-  } finally {
-    closeSync(fd);
-  }
-  try {
-    linkSync(tmp, path);
-  } catch (e) {
-    if ((e as NodeJS.ErrnoException).code === 'EEXIST') fail({ code: 'file-unreadable', reason: 'a batch log of that name exists already; it is never overwritten - choose another batch id' }, { file: path });
-    throw e;
-  } finally {
-    unlinkSync(tmp);
+// ---------------------------------------------------------------- line hashes
+
+const sha256 = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
+
+/** the chain of a line: SHA-256 of the previous link, a line feed, and the line's JSON without its chain */
+export function chainOf(previousLink: string, eventJson: string): string {
+  return sha256(`${previousLink}\n${eventJson}`);
+}
+
+/** the link the next line chains to: this line's chain, or for a line without one, the hash of its bytes */
+function linkOf(obj: unknown, raw: string): string {
+  const c = (obj as { chain?: unknown })?.chain;
+  return typeof c === 'string' ? c : sha256(raw);
+}
+
+function withoutChain(obj: Record<string, unknown>): string {
+  const { chain: _drop, ...rest } = obj;
+  void _drop;
+  return JSON.stringify(rest);
+}
+
+function lineFor(previousLink: string, event: LogEvent): { text: string; chain: string } {
+  const { chain: _drop, ...body } = event as LogEvent & { chain?: string };
+  void _drop;
+  const json = JSON.stringify(body);
+  const c = chainOf(previousLink, json);
+  return { text: JSON.stringify({ ...body, chain: c }) + '\n', chain: c };
+}
+
+// ---------------------------------------------------------------- reading
+
+/** what the reader found in the record itself (not in the chemistry), worded by describeRecordIssue */
+export type RecordIssue =
+  | { readonly code: 'line-edited'; readonly line: number }
+  | { readonly code: 'line-unhashed'; readonly line: number }
+  | { readonly code: 'log-unhashed'; readonly format: string }
+  | { readonly code: 'torn-tail'; readonly line: number; readonly bytes: number }
+  | { readonly code: 'amend-target'; readonly line: number; readonly step: number; readonly named: number | null; readonly inForce: number | null }
+  | { readonly code: 'withdraw-not-last'; readonly line: number; readonly step: number; readonly later: number };
+
+export function recordIssueSeverity(i: RecordIssue): 'warning' | 'note' {
+  return i.code === 'log-unhashed' ? 'note' : 'warning';
+}
+
+export function describeRecordIssue(i: RecordIssue): string {
+  switch (i.code) {
+    case 'line-edited':
+      return `line ${i.line} does not match its hash: it was changed after it was written, or a line before it was removed`;
+    case 'line-unhashed':
+      return `line ${i.line} carries no hash although the log format has them: it was not written by mixwright`;
+    case 'log-unhashed':
+      return `this log (format ${i.format}) predates the line hashes, so an edit after writing cannot be detected`;
+    case 'torn-tail':
+      return `line ${i.line} is incomplete (${i.bytes} bytes without a line end: the write was cut off, e.g. by a crash or a full disk) and was ignored; every line before it is used`;
+    case 'amend-target':
+      return i.named === null
+        ? `line ${i.line} amends step ${i.step}, which has no reading in force`
+        : `line ${i.line} amends step ${i.step} naming line ${i.named}, but the reading in force for that step is ${i.inForce === null ? 'none' : `on line ${i.inForce}`}; it was applied to the step`;
+    case 'withdraw-not-last':
+      return `line ${i.line} withdraws the reading of step ${i.step}, but step ${i.later} was already filled after it; only the last reading can be withdrawn`;
   }
 }
 
-/** append one event and fsync it before returning */
-export function appendEvent(path: string, event: LogEvent): void {
-  const fd = openSync(path, 'a');
-  try {
-    appendLine(fd, event);
-  } finally {
-    closeSync(fd);
-  }
+export type InForceReading = LogReading & { readonly line: number };
+
+/** a correction or a withdrawal, with what it replaced */
+export interface Amendment {
+  readonly kind: 'correction' | 'withdraw';
+  readonly step: number;
+  readonly line: number;
+  readonly by: string | null;
+  readonly time: string;
+  readonly reason: string | null;
+  /** the reading in force before, or null */
+  readonly old: InForceReading | null;
+  /** the correcting reading; null for a withdrawal */
+  readonly new: InForceReading | null;
 }
 
 export interface ParsedLog {
   readonly file: string;
   readonly header: LogHeader;
-  /** the reading in force for each step (corrections applied), in step order, with its line number */
-  readonly readings: readonly (LogReading & { line: number })[];
+  /** the format version of the header (1 or 2) */
+  readonly version: number;
+  /** the reading in force for each step (corrections and withdrawals applied), in step order, with its line number */
+  readonly readings: readonly InForceReading[];
+  /** every reading and correction line, in file order, including those later replaced */
+  readonly allReadings: readonly InForceReading[];
+  readonly amendments: readonly Amendment[];
+  /** the last barometer event, if any */
+  readonly barometer?: LogBarometer & { readonly line: number };
+  /** the starting pressure of a top-up, if logged */
+  readonly start?: LogStartPressure & { readonly line: number };
   readonly acknowledgements: readonly LogAck[];
   readonly closed: boolean;
-  /** e.g. a torn last line */
+  readonly issues: readonly RecordIssue[];
+  /** the issues of severity warning, as sentences (e.g. a torn last line) */
   readonly warnings: readonly string[];
+  /** number of complete lines */
+  readonly lines: number;
+  /** the link the next appended line chains to */
+  readonly lastLink: string;
+  /** byte length of the complete lines */
+  readonly bytes: number;
+}
+
+function bad(file: string, line: number, what: string, issues: readonly z.ZodIssue[]): never {
+  const i = issues[0];
+  return fail({ code: 'schema', reason: `bad ${what}: ${i.path.join('.') || '(event)'}: ${i.message}` }, { file, line });
 }
 
 export function parseLog(text: string, file: string): ParsedLog {
   const lines = text.split('\n');
-  const warnings: string[] = [];
-  const endsClean = text.endsWith('\n');
+  const endsClean = text.endsWith('\n') || text === '';
+  const issues: RecordIssue[] = [];
   let header: LogHeader | undefined;
-  const byStep = new Map<number, LogReading & { line: number }>();
+  let version = 0;
+  const byStep = new Map<number, InForceReading>();
+  const all: InForceReading[] = [];
+  const amendments: Amendment[] = [];
   const acks: LogAck[] = [];
+  let barometer: ParsedLog['barometer'];
+  let start: ParsedLog['start'];
   let closed = false;
-  for (let i = 0; i < lines.length; i++) {
+  let link = '';
+  let complete = 0;
+  let bytes = 0;
+  const limit = endsClean ? lines.length - 1 : lines.length;
+  for (let i = 0; i < limit; i++) {
     const raw = lines[i];
     const lineNo = i + 1;
+    if (i === lines.length - 1 && !endsClean) {
+      issues.push({ code: 'torn-tail', line: lineNo, bytes: Buffer.byteLength(raw, 'utf8') });
+      break;
+    }
+    complete = lineNo;
+    bytes += Buffer.byteLength(raw, 'utf8') + 1;
     if (raw.trim() === '') continue;
-    const last = i === lines.length - 1 && !endsClean;
     let obj: unknown;
     try {
       obj = JSON.parse(raw);
     } catch {
-      if (last) {
-        warnings.push(`line ${lineNo} is incomplete (the write was cut off, e.g. by a crash) and was ignored; every line before it is used`);
-        break;
-      }
       return fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
     }
-    const kind = (obj as { kind?: unknown })?.kind;
-    if (lineNo === 1 || !header) {
+    if (typeof obj !== 'object' || obj === null || Array.isArray(obj)) fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
+    const rec = obj as Record<string, unknown>;
+    if (typeof rec.chain === 'string') {
+      if (chainOf(link, withoutChain(rec)) !== rec.chain) issues.push({ code: 'line-edited', line: lineNo });
+    } else if (version >= 2) issues.push({ code: 'line-unhashed', line: lineNo });
+    link = linkOf(rec, raw);
+    const kind = rec.kind;
+    if (!header) {
       if (kind !== 'batch') fail({ code: 'schema', reason: 'the first line of a batch log must be its "batch" header' }, { file, line: lineNo });
-      const fmt = String((obj as { format?: unknown }).format ?? '');
+      const fmt = String(rec.format ?? '');
       const m = /^mixwright-batch\/(\d+)$/.exec(fmt);
       if (!m) fail({ code: 'schema', reason: `unknown log format "${fmt}"; this version reads ${LOG_FORMAT}` }, { file, line: lineNo, field: 'format' });
       if (Number(m[1]) > LOG_VERSION) fail({ code: 'schema', reason: `the log is format ${fmt}, newer than this version of mixwright reads (${LOG_FORMAT}); update mixwright` }, { file, line: lineNo, field: 'format' });
       const h = headerSchema.safeParse(obj);
-      if (!h.success) fail({ code: 'schema', reason: `bad batch header: ${h.error.issues[0].path.join('.')}: ${h.error.issues[0].message}` }, { file, line: lineNo });
+      if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
       header = h.data;
+      version = Number(m[1]);
+      if (version < 2) issues.push({ code: 'log-unhashed', format: fmt });
       continue;
     }
-    if (kind === 'reading' || kind === 'correction') {
+    if (kind === 'reading') {
       const r = readingSchema.safeParse(obj);
-      if (!r.success) fail({ code: 'schema', reason: `bad ${kind}: ${r.error.issues[0].path.join('.')}: ${r.error.issues[0].message}` }, { file, line: lineNo });
-      if (kind === 'reading' && byStep.has(r.data.step)) {
-        fail({ code: 'schema', reason: `step ${r.data.step} has a second reading; a changed reading is logged as a "correction"` }, { file, line: lineNo });
+      if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
+      if (start === undefined && header.in_tank && byStep.size === 0 && all.length === 0) {
+        // a top-up whose starting pressure was not read: the reader says so (check), not here
       }
-      byStep.set(r.data.step, { ...r.data, line: lineNo });
+      if (byStep.has(r.data.step)) {
+        fail({ code: 'schema', reason: `step ${r.data.step} has a second reading; a changed reading is logged as a "correction", a taken-back one as a "withdraw"` }, { file, line: lineNo });
+      }
+      const x = { ...r.data, line: lineNo };
+      byStep.set(x.step, x);
+      all.push(x);
+    } else if (kind === 'correction') {
+      const r = correctionSchema.safeParse(obj);
+      if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
+      if (version >= 2) {
+        if (!r.data.by) fail({ code: 'schema', reason: 'a correction names who made it ("by": initials)' }, { file, line: lineNo, field: 'by' });
+        if (!r.data.reason?.trim()) fail({ code: 'schema', reason: 'a correction gives its reason ("reason")' }, { file, line: lineNo, field: 'reason' });
+        if (r.data.replaces_line === undefined) fail({ code: 'schema', reason: 'a correction names the line of the reading it replaces ("replaces_line")' }, { file, line: lineNo, field: 'replaces_line' });
+      }
+      const old = byStep.get(r.data.step) ?? null;
+      if (!old || (r.data.replaces_line !== undefined && old.line !== r.data.replaces_line)) {
+        issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? (r.data.replaces_line ?? null) : null, inForce: old?.line ?? null });
+      }
+      const x = { ...r.data, line: lineNo };
+      byStep.set(x.step, x);
+      all.push(x);
+      amendments.push({ kind: 'correction', step: x.step, line: lineNo, by: x.by ?? null, time: x.time, reason: x.reason ?? null, old, new: x });
+    } else if (kind === 'withdraw') {
+      const r = withdrawSchema.safeParse(obj);
+      if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
+      const old = byStep.get(r.data.step) ?? null;
+      if (!old || old.line !== r.data.withdraws_line) issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? r.data.withdraws_line : null, inForce: old?.line ?? null });
+      const later = Math.max(0, ...[...byStep.keys()].filter((s) => s > r.data.step));
+      if (later) issues.push({ code: 'withdraw-not-last', line: lineNo, step: r.data.step, later });
+      byStep.delete(r.data.step);
+      amendments.push({ kind: 'withdraw', step: r.data.step, line: lineNo, by: r.data.by, time: r.data.time, reason: r.data.reason ?? null, old, new: null });
+    } else if (kind === 'barometer') {
+      const r = barometerSchema.safeParse(obj);
+      if (!r.success) bad(file, lineNo, 'barometer reading', r.error.issues);
+      barometer = { ...r.data, line: lineNo };
+    } else if (kind === 'start-pressure') {
+      const r = startSchema.safeParse(obj);
+      if (!r.success) bad(file, lineNo, 'starting pressure', r.error.issues);
+      if (all.length > 0) fail({ code: 'schema', reason: 'the starting pressure of a top-up is read before the first fill; this one comes after a reading' }, { file, line: lineNo });
+      start = { ...r.data, line: lineNo };
     } else if (kind === 'acknowledge') {
       const a = ackSchema.safeParse(obj);
-      if (!a.success) fail({ code: 'schema', reason: `bad acknowledgement: ${a.error.issues[0].message}` }, { file, line: lineNo });
+      if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
       acks.push(a.data);
     } else if (kind === 'close') {
+      const c = closeSchema.safeParse(obj);
+      if (!c.success) bad(file, lineNo, 'close', c.error.issues);
       closed = true;
     } else {
       fail({ code: 'schema', reason: `unknown event kind "${String(kind)}"` }, { file, line: lineNo });
     }
   }
-  if (!header) return fail({ code: 'schema', reason: 'the log is empty' }, { file });
+  if (!header) return fail({ code: 'schema', reason: 'the log is empty (it holds no complete line)' }, { file });
   const readings = [...byStep.values()].sort((a, b) => a.step - b.step);
-  return { file, header, readings, acknowledgements: acks, closed, warnings };
+  const warnings = issues.filter((i) => recordIssueSeverity(i) === 'warning').map(describeRecordIssue);
+  return { file, header, version, readings, allReadings: all, amendments, barometer, start, acknowledgements: acks, closed, issues, warnings, lines: complete, lastLink: link, bytes };
 }
 
 export function readLog(file: string): ParsedLog {
   const text = readTextFile(file);
   return parseLog(text, file);
+}
+
+/** side files beside a log holding torn last lines that a fill moved aside */
+export function tornSideFiles(logFile: string): string[] {
+  const dir = dirname(logFile);
+  const prefix = `${basename(logFile)}.torn-`;
+  try {
+    return readdirSync(dir)
+      .filter((f) => f.startsWith(prefix))
+      .sort()
+      .map((f) => join(dir, f));
+  } catch {
+    return [];
+  }
+}
+
+// ---------------------------------------------------------------- writing
+
+/** write one line at the end of the log: every byte or none (a partial line is cut back off), then fsync */
+function appendBytes(path: string, expectedBytes: number, text: string): void {
+  let fd: number;
+  try {
+    fd = openSync(path, 'a');
+  } catch (e) {
+    return fail({ code: 'write-failed', reason: `${writeErrorReason(e)}; the event was not logged` }, { file: path });
+  }
+  let size = expectedBytes;
+  try {
+    size = fstatSync(fd).size;
+    if (size !== expectedBytes) {
+      fail({ code: 'write-failed', reason: `the log changed on disk since it was read (${size} bytes, expected ${expectedBytes}): another program wrote to it. Nothing was appended; stop and look at the file` }, { file: path });
+    }
+    writeAllSync(fd, Buffer.from(text, 'utf8'));
+    fsyncSync(fd);
+  } catch (e) {
+    if (e instanceof ProblemError) {
+      closeSync(fd);
+      throw e;
+    }
+    let cutBack = false;
+    try {
+      ftruncateSync(fd, size);
+      fsyncSync(fd);
+      cutBack = true;
+    } catch {
+      // the torn line stays; it is moved aside when the log is next opened for a fill
+    }
+    try {
+      closeSync(fd);
+    } catch {
+      // the write error is what is reported
+    }
+    const rest = cutBack ? 'the event was NOT logged (the log is as it was before)' : 'the event was NOT logged; a partial line may be left at the end of the log, and is moved aside when the fill is resumed';
+    return fail({ code: 'write-failed', reason: `${failureReason(e)}; ${rest}` }, { file: path });
+  }
+  try {
+    closeSync(fd);
+  } catch (e) {
+    fail({ code: 'write-failed', reason: `${failureReason(e)} on closing the log; the event was written and fsync'd, but check the disk` }, { file: path });
+  }
+}
+
+/** writer rules beyond the schema: what a new event must carry */
+function checkNew(event: NewLogEvent, file: string): void {
+  if (event.kind === 'correction') {
+    if (!event.by?.trim()) fail({ code: 'schema', reason: 'a correction names who made it (by: initials)' }, { file, field: 'by' });
+    if (!event.reason?.trim()) fail({ code: 'schema', reason: 'a correction needs its reason' }, { file, field: 'reason' });
+    if (event.replaces_line === undefined) fail({ code: 'schema', reason: 'a correction names the line of the reading it replaces (replaces_line)' }, { file, field: 'replaces_line' });
+  }
+}
+
+/**
+ * the log with one more event, as it would read: refuses (before anything is written) an
+ * event the reader would refuse, or one that amends anything but the reading in force
+ */
+function nextState(current: { text: string; log: ParsedLog }, event: NewLogEvent): { text: string; log: ParsedLog; chain: string } {
+  const file = current.log.file;
+  checkNew(event, file);
+  const { text: line, chain: c } = lineFor(current.log.lastLink, event);
+  const text = current.text + line;
+  const log = parseLog(text, file);
+  const lineNo = current.log.lines + 1;
+  const fresh = log.issues.find((i) => 'line' in i && i.line === lineNo);
+  if (fresh) fail({ code: 'schema', reason: `not logged: ${describeRecordIssue(fresh)}` }, { file, line: lineNo });
+  return { text, log, chain: c };
+}
+
+/**
+ * Start a new log; refuses to touch an existing name. The header is written to a temporary
+ * file (every byte, fsync), then hard-linked into place (the link fails if the name exists,
+ * so there is no window in which a half-written header or an overwrite can happen).
+ */
+export function createLog(path: string, header: LogHeader): void {
+  const exists = () => {
+    try {
+      lstatSync(path);
+      return true;
+    } catch {
+      return false;
+    }
+  };
+  const taken = 'a batch log of that name exists already; it is never overwritten - choose another batch id';
+  if (exists()) fail({ code: 'write-failed', reason: taken }, { file: path });
+  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
+  let fd: number | undefined;
+  try {
+    fd = openSync(tmp, 'wx');
+    writeAllSync(fd, Buffer.from(lineFor('', header).text, 'utf8'));
+    fsyncSync(fd);
+    closeSync(fd);
+    fd = undefined;
+    linkSync(tmp, path);
+    fsyncFolder(dirname(path) || '.');
+  } catch (e) {
+    if (fd !== undefined) {
+      try {
+        closeSync(fd);
+      } catch {
+        // reported below
+      }
+    }
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST' && exists()) fail({ code: 'write-failed', reason: taken }, { file: path });
+    fail({ code: 'write-failed', reason: `${failureReason(e)}; the batch log was not created` }, { file: path });
+  } finally {
+    try {
+      unlinkSync(tmp);
+    } catch {
+      // never created
+    }
+  }
+}
+
+/**
+ * Append one event (its chain added) and fsync it before returning. Outside a guided fill
+ * (tools, tests); the fill appends through the handle of openLogForFill, which holds the lock.
+ * A log with a torn last line is refused here: open it for a fill to move the tail aside.
+ */
+export function appendEvent(path: string, event: NewLogEvent): { line: number; chain: string } {
+  const text = readTextFile(path);
+  const log = parseLog(text, path);
+  const torn = log.issues.find((i) => i.code === 'torn-tail');
+  if (torn) fail({ code: 'write-failed', reason: `the last line of the log is incomplete; \`mixwright fill --resume\` moves it aside first. Nothing was appended` }, { file: path, line: torn.line });
+  const next = nextState({ text, log }, event);
+  appendBytes(path, Buffer.byteLength(text, 'utf8'), next.text.slice(text.length));
+  return { line: log.lines + 1, chain: next.chain };
+}
+
+// ---------------------------------------------------------------- the fill's handle and lock
+
+/** what a lock file holds */
+export interface LockInfo {
+  readonly pid: number;
+  readonly host: string;
+  readonly started: string;
+  /** Linux boot id: a lock from before a reboot is stale whatever its pid */
+  readonly boot?: string;
+}
+
+export interface LogHandle {
+  readonly path: string;
+  readonly lockPath: string;
+  /** the log as it stands, with every event appended through this handle */
+  current(): ParsedLog;
+  /**
+   * append one event: checked against the log (a second reading for a step, a correction of
+   * anything but the reading in force, a withdrawal of anything but the last reading are
+   * refused before writing), every byte written, fsync'd; a write that fails throws a
+   * `write-failed` ProblemError naming the path and cause, and the event is then not in the log
+   */
+  append(event: NewLogEvent): { line: number; chain: string };
+  /** remove the lock (also done when the process exits) */
+  release(): void;
+}
+
+export interface OpenedLog {
+  readonly log: ParsedLog;
+  readonly handle: LogHandle;
+  /** what the operator must be told: a torn tail moved aside, a stale lock taken over */
+  readonly messages: readonly string[];
+}
+
+function bootId(): string | undefined {
+  try {
+    return readFileSync('/proc/sys/kernel/random/boot_id', 'utf8').trim() || undefined;
+  } catch {
+    return undefined;
+  }
+}
+
+function alive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+function readLock(lockPath: string): { text: string; info?: LockInfo } | undefined {
+  let text: string;
+  try {
+    text = readFileSync(lockPath, 'utf8');
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'ENOENT') return undefined;
+    throw e;
+  }
+  try {
+    const o = JSON.parse(text) as LockInfo;
+    if (Number.isInteger(o.pid) && typeof o.host === 'string' && typeof o.started === 'string') return { text, info: o };
+  } catch {
+    // an unreadable lock: reported by the caller
+  }
+  return { text };
+}
+
+function holderText(h: LockInfo): string {
+  return `process ${h.pid} on host ${h.host}, started ${h.started}`;
+}
+
+/** take the lock or refuse, naming its holder; a stale lock of a dead process on this host is taken over */
+function acquireLock(lockPath: string, logPath: string, now: string): { info: LockInfo; message?: string } {
+  const info: LockInfo = { pid: process.pid, host: hostname(), started: now, ...(bootId() ? { boot: bootId() } : {}) };
+  let message: string | undefined;
+  const remove = `if you are sure no fill is running on it, delete ${lockPath} and try again`;
+  for (let attempt = 0; attempt < 4; attempt++) {
+    let fd: number | undefined;
+    try {
+      fd = openSync(lockPath, 'wx');
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== 'EEXIST') fail({ code: 'write-failed', reason: `the lock file cannot be made: ${writeErrorReason(e)}` }, { file: lockPath });
+    }
+    if (fd !== undefined) {
+      try {
+        writeAllSync(fd, Buffer.from(JSON.stringify(info) + '\n', 'utf8'));
+        fsyncSync(fd);
+      } catch (e) {
+        closeSync(fd);
+        unlinkSync(lockPath);
+        fail({ code: 'write-failed', reason: `the lock file cannot be written: ${failureReason(e)}` }, { file: lockPath });
+      }
+      closeSync(fd);
+      return { info, message };
+    }
+    const held = readLock(lockPath);
+    if (!held) continue;
+    const h = held.info;
+    if (!h) fail({ code: 'log-locked', reason: `the batch log ${logPath} has a lock file that cannot be read (${lockPath}), so another fill may hold it; ${remove}` }, { file: logPath });
+    if (h.host !== info.host) fail({ code: 'log-locked', reason: `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). Only one fill may write a log. A lock from another computer cannot be checked from here; ${remove}` }, { file: logPath });
+    const rebooted = h.boot !== undefined && info.boot !== undefined && h.boot !== info.boot;
+    if (h.pid === process.pid && !rebooted) fail({ code: 'log-locked', reason: `this program already has the batch log open for a fill (lock ${lockPath})` }, { file: logPath });
+    if (!rebooted && alive(h.pid)) fail({ code: 'log-locked', reason: `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). Finish or stop that fill first; ${remove}` }, { file: logPath });
+    // stale: move it aside by rename (atomic), and put it back if what was moved is not what was judged
+    const aside = `${lockPath}.stale-${process.pid}`;
+    try {
+      renameSync(lockPath, aside);
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code === 'ENOENT') continue;
+      throw e;
+    }
+    const moved = readLock(aside);
+    if (moved?.text !== held.text) {
+      try {
+        linkSync(aside, lockPath);
+      } catch {
+        // someone holds the name again; the loop reads it
+      }
+      unlinkSync(aside);
+      continue;
+    }
+    unlinkSync(aside);
+    message = `took over a stale lock: the fill of ${holderText(h)} is no longer running${rebooted ? ' (the computer was restarted since)' : ''}`;
+  }
+  return fail({ code: 'log-locked', reason: `could not take the lock ${lockPath}: other fills keep taking it; ${remove}` }, { file: logPath });
+}
+
+function tornStamp(now: string): string {
+  return now.replace(/[-:]/g, '').replace(/\.\d+/, '').replace(/[^0-9A-Za-z]/g, '') || String(Date.now());
+}
+
+/**
+ * move an incomplete last line (no line feed) aside: the fragment is first written in full to
+ * a side file beside the log (fsync), and only then cut off the log; returns the side file
+ */
+function moveTornTail(path: string, buf: Buffer, now: string): { side: string; bytes: number; line: number } | undefined {
+  if (buf.length === 0 || buf[buf.length - 1] === 0x0a) return undefined;
+  const cut = buf.lastIndexOf(0x0a) + 1;
+  if (cut === 0) fail({ code: 'schema', reason: 'the log holds no complete line (its header was cut off); it cannot be resumed. Start a new batch' }, { file: path });
+  const fragment = buf.subarray(cut);
+  let side = `${path}.torn-${tornStamp(now)}`;
+  for (let n = 2; tornSideFiles(path).includes(side); n++) side = `${path}.torn-${tornStamp(now)}-${n}`;
+  writeFileAtomic(side, fragment, false);
+  let fd: number | undefined;
+  try {
+    fd = openSync(path, 'r+');
+    ftruncateSync(fd, cut);
+    fsyncSync(fd);
+  } catch (e) {
+    fail({ code: 'write-failed', reason: `the incomplete last line was saved to ${side} but could not be cut off the log: ${writeErrorReason(e)}` }, { file: path });
+  } finally {
+    if (fd !== undefined) closeSync(fd);
+  }
+  const line = buf.subarray(0, cut).toString('utf8').split('\n').length;
+  return { side, bytes: fragment.length, line };
+}
+
+/**
+ * Open a batch log for a guided fill (new or resumed): take the exclusive lock (a second fill
+ * on the same log is refused and told who holds it; a stale lock from a dead process on this
+ * host, or from before a reboot, is taken over with a message), move a torn tail aside, read
+ * the log. The lock is removed by release() or when the process exits.
+ */
+export function openLogForFill(path: string, opts: { now?: string } = {}): OpenedLog {
+  const now = opts.now ?? new Date().toISOString();
+  try {
+    if (!lstatSync(path).isFile() && !lstatSync(path).isSymbolicLink()) fail({ code: 'file-unreadable', reason: 'not a regular file' }, { file: path });
+  } catch (e) {
+    if (e instanceof ProblemError) throw e;
+    fail({ code: 'file-unreadable', reason: (e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : writeErrorReason(e) }, { file: path });
+  }
+  const lockPath = `${path}.lock`;
+  const { info, message } = acquireLock(lockPath, path, now);
+  let released = false;
+  const release = () => {
+    if (released) return;
+    released = true;
+    process.removeListener('exit', release);
+    const held = readLock(lockPath);
+    if (held?.info && held.info.pid === info.pid && held.info.started === info.started && held.info.host === info.host) {
+      try {
+        unlinkSync(lockPath);
+      } catch {
+        // gone already
+      }
+    }
+  };
+  process.once('exit', release);
+  try {
+    const messages: string[] = [];
+    if (message) messages.push(message);
+    const buf = readFileSync(path);
+    const torn = moveTornTail(path, buf, now);
+    if (torn) messages.push(`the last line of the log (line ${torn.line}, ${torn.bytes} bytes) was incomplete - cut off mid-write - and was moved to ${torn.side}; nothing in it was confirmed. The log now ends at line ${torn.line - 1}`);
+    const text = torn ? buf.subarray(0, buf.length - torn.bytes).toString('utf8') : buf.toString('utf8');
+    let state = { text, log: parseLog(text, path) };
+    const handle: LogHandle = {
+      path,
+      lockPath,
+      current: () => state.log,
+      append(event) {
+        if (released) fail({ code: 'write-failed', reason: 'the log was released by this fill; open it again to write' }, { file: path });
+        const next = nextState(state, event);
+        appendBytes(path, Buffer.byteLength(state.text, 'utf8'), next.text.slice(state.text.length));
+        state = { text: next.text, log: next.log };
+        return { line: next.log.lines, chain: next.chain };
+      },
+      release,
+    };
+    return { log: state.log, handle, messages };
+  } catch (e) {
+    release();
+    throw e;
+  }
 }

@@ -19,7 +19,8 @@ import {
   type Tolerance,
   type UncertaintyResult,
 } from '../core/index.js';
-import { gaugeFromLog, gaugeToLog, LOG_FORMAT, readLog, sourceFromLog, sourceToLog, type LogHeader, type ParsedLog } from './batch-log.js';
+import { gaugeFromLog, gaugeToLog, LOG_FORMAT, readLog, sourceFromLog, sourceToLog, type Amendment, type LogHeader, type ParsedLog } from './batch-log.js';
+import { auditLog, describeLogFinding, type LogFinding } from './log-audit.js';
 import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.js';
 import { readReadingsCsv } from './readings-csv.js';
 
@@ -42,6 +43,30 @@ export interface CheckReport {
   readonly warnings: readonly string[];
   /** what is missing for a complete batch: planned steps without a reading, or design gases without a row */
   readonly incomplete: readonly string[];
+  /** the log as a record: readings past the working limit or a gauge's range (danger), edited lines, text/number disagreements, torn tails */
+  readonly findings: readonly LogFinding[];
+  /** corrections and withdrawals, in the order logged (applied to the readings above) */
+  readonly amendments: readonly Amendment[];
+  /** the barometric pressure the re-check used, and where it came from */
+  readonly barometer?: { readonly pressurePa: number; readonly uPa: number; readonly from: 'log' | 'plan' | 'lab'; readonly by?: string; readonly time?: string; readonly text?: string };
+  /** a top-up: the gas already in the tank before the first fill */
+  readonly start?: { readonly pressurePa: number; readonly temperatureK: number; readonly composition: Readonly<Record<string, number>>; readonly read: boolean; readonly by?: string; readonly time?: string };
+  /** what stands beside the verdict: a danger in the record, an edited record */
+  readonly caveats: readonly string[];
+}
+
+/** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
+export function verdictCaveats(findings: readonly LogFinding[]): string[] {
+  const out: string[] = [];
+  const dangers = findings.filter((f) => f.severity === 'danger');
+  if (dangers.length) {
+    out.push(
+      `DANGER: ${dangers.length === 1 ? 'a logged reading' : `${dangers.length} logged readings`} went past the tank's working limit or a gauge's range (see the findings). Whatever the composition, do not label or use this tank as fit until it and its gauges have been inspected under local practice`,
+    );
+  }
+  const edited = findings.filter((f) => f.code === 'text-number-mismatch' || (f.code === 'record' && (f.issue.code === 'line-edited' || f.issue.code === 'line-unhashed')));
+  if (edited.length) out.push(`the record was changed after it was written (${edited.length} line${edited.length === 1 ? '' : 's'}, see the findings): the verdict rests on numbers that are not as first logged`);
+  return out;
 }
 
 const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 };
@@ -54,7 +79,12 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
     id,
     created,
     lab: req.lab.name,
-    tank: { id: plan.tank.id, volume_m3: plan.tank.volumeM3, rated_pressure_Pa: plan.tank.ratedPressurePa ?? null, working_limit_Pa: plan.tank.ratedPressurePa === undefined ? null : plan.tank.ratedPressurePa * (plan.tank.workingFraction ?? 1) },
+    tank: {
+      id: plan.tank.id,
+      volume_m3: plan.tank.volumeM3,
+      rated_pressure_Pa: plan.tank.ratedPressurePa ?? null,
+      working_limit_Pa: plan.tank.ratedPressurePa === undefined ? null : plan.tank.ratedPressurePa * (plan.tank.workingFraction ?? 1),
+    },
     design: { composition: { ...d.composition }, phi: d.phi ?? null, diluent: Object.keys(d.groups.diluent), diluent_fraction: d.diluentFraction },
     tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
     temperature_K: plan.temperatureK,
@@ -64,6 +94,7 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
     gauges: req.input.gauges.map(gaugeToLog),
     sources: plan.steps.map((s) => sourceToLog(s.source)),
     steps: plan.steps.map((s) => ({ step: s.index, source: s.source.id, species: s.species, target_Pa: s.targetPa, band_Pa: s.bandPa, gauge: s.gauge?.id ?? null })),
+    in_tank: plan.initial ? { composition: { ...plan.initial.composition }, pressure_Pa: plan.initial.pressurePa } : null,
     recipe: req.recipe,
     findings: plan.findings.map((f) => ({ severity: f.severity, code: f.code, step: f.step ?? null, message: describeFinding(f, (pa) => `${(pa / (101325 / 760)).toPrecision(6)} Torr`) })),
   };
@@ -88,13 +119,18 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   const gauges = new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)]));
   const sources = new Map(h.sources.map((s) => [s.id, sourceFromLog(s)]));
   if (log.readings.length === 0) fail({ code: 'schema', reason: 'the log holds no readings yet; nothing to re-check' }, { file: log.file });
-  let prev = 0;
+  const start: CheckReport['start'] = h.in_tank
+    ? log.start
+      ? { pressurePa: log.start.pressure_Pa, temperatureK: log.start.temperature_K, composition: h.in_tank.composition, read: true, by: log.start.by, time: log.start.time }
+      : { pressurePa: h.in_tank.pressure_Pa, temperatureK: h.temperature_K, composition: h.in_tank.composition, read: false }
+    : undefined;
+  let prev = start?.pressurePa ?? 0;
   const readings: CheckedReading[] = log.readings.map((r) => {
     const source = sources.get(r.source);
     if (!source) fail({ code: 'schema', reason: `reading of step ${r.step} names the source "${r.source}", which the header does not list` }, { file: log.file, line: r.line });
     const gauge = gauges.get(r.gauge);
     if (!gauge) fail({ code: 'schema', reason: `reading of step ${r.step} names the gauge "${r.gauge}", which the header does not list` }, { file: log.file, line: r.line });
-    if (!(r.pressure_Pa > prev)) fail({ code: 'schema', reason: `the reading of step ${r.step} is not above the one before it; readings must increase` }, { file: log.file, line: r.line });
+    if (!(r.pressure_Pa > prev)) fail({ code: 'schema', reason: `the reading of step ${r.step} is not above the one before it${start && prev === start.pressurePa ? ' (the starting pressure of the top-up)' : ''}; readings must increase` }, { file: log.file, line: r.line });
     if (!(r.temperature_K >= 200 && r.temperature_K <= 600)) fail({ code: 'out-of-range', what: 'tank temperature', value: r.temperature_K, allowed: '200-600 K' }, { file: log.file, line: r.line });
     prev = r.pressure_Pa;
     return { step: r.step, source, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, gauge };
@@ -107,15 +143,42 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   if (unacked.length) warnings.push(`the plan of this batch had danger findings (${unacked.join(', ')}) that the log shows no acknowledgement of`);
   for (const a of log.acknowledgements) warnings.push(`danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`);
   if (missingSteps.length) warnings.push(`the log has no reading for step ${missingSteps.join(', ')}: the batch is incomplete and the re-check covers the fills logged so far`);
+  const findings = auditLog(log);
   const design = designFromHeader(h);
+  const b = log.barometer;
+  const barometer: NonNullable<CheckReport['barometer']> = b
+    ? { pressurePa: b.pressure_Pa, uPa: b.u_Pa ?? h.barometer.u_Pa, from: 'log', by: b.by, time: b.time, text: b.reading }
+    : { pressurePa: h.barometer.pressure_Pa, uPa: h.barometer.u_Pa, from: 'plan' };
   const result = await evaluateUncertaintyParallel(
     readings,
-    { barometricPa: h.barometer.pressure_Pa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: opts.trials, seed: opts.seed },
+    { barometricPa: barometer.pressurePa, barometricUncertaintyPa: barometer.uPa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: opts.trials, seed: opts.seed },
     h.design.diluent,
+    start ? { composition: start.composition, pressurePa: start.pressurePa, temperatureK: start.temperatureK } : undefined,
   );
   const tolerance = h.tolerance;
   const verdict = missingSteps.length ? { ...judge(result, design, tolerance), verdict: 'fail' as const } : judge(result, design, tolerance);
-  return { file: log.file, id: h.id, kind: 'log', readings, result, verdict, design, tolerance, warnings, incomplete: missingSteps.map((s) => `step ${s}`) };
+  return {
+    file: log.file,
+    id: h.id,
+    kind: 'log',
+    readings,
+    result,
+    verdict,
+    design,
+    tolerance,
+    warnings,
+    incomplete: missingSteps.map((s) => `step ${s}`),
+    findings,
+    amendments: log.amendments,
+    barometer,
+    start,
+    caveats: verdictCaveats(findings),
+  };
+}
+
+/** one line per finding, for the terminal and the folder summary */
+export function findingLines(r: CheckReport): string[] {
+  return r.findings.map((f) => `${f.severity}: ${describeLogFinding(f)}`);
 }
 
 export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
@@ -182,7 +245,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
       verdict = { ...verdict, verdict: 'fail' };
     }
   }
-  return { file, id, kind: 'csv', readings, result, verdict, design, tolerance, warnings, incomplete };
+  return { file, id, kind: 'csv', readings, result, verdict, design, tolerance, warnings, incomplete, findings: [], amendments: [], barometer: { pressurePa: ctx.barometricPa, uPa: ctx.barometricUncertaintyPa, from: opts.recipeFile ? 'plan' : 'lab' }, caveats: [] };
 }
 
 export async function checkFile(file: string, opts: CheckOptions): Promise<CheckReport> {

@@ -4,7 +4,7 @@ import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
 import { fillReducer, shownPa, type CompositionJudgement, type FillAction, type FillState, type FillStep } from './fill-state.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import type { LogEvent } from '../io/batch-log.js';
+import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
@@ -14,7 +14,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 export interface FillAppProps {
   readonly initial: FillState;
   /** append one event to the batch log (with fsync); throws on failure */
-  readonly write: (e: LogEvent) => void;
+  readonly write: (e: NewLogEvent) => void;
   readonly logFile: string;
   readonly now?: () => string;
   /** `check`'s own re-check of the log, for the end screen */

@@ -27,7 +27,7 @@ import {
 } from '../core/index.js';
 import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
-import { gaugeFromLog, sourceFromLog, type LogEvent, type LogHeader, type LogReading, type ParsedLog } from '../io/batch-log.js';
+import { gaugeFromLog, sourceFromLog, type NewLogEvent, type LogHeader, type LogReading, type ParsedLog } from '../io/batch-log.js';
 
 export interface FillStep {
   readonly index: number;
@@ -122,7 +122,7 @@ export interface FillState {
   readonly temperatureText: string;
   readonly message?: string;
   readonly error?: string;
-  readonly effects: readonly LogEvent[];
+  readonly effects: readonly NewLogEvent[];
   readonly summary?: UncertaintyResult;
   readonly judgement?: CompositionJudgement;
   readonly pending?: Pending;
@@ -263,7 +263,7 @@ function finalJudgement(s: FillState): { judgement: CompositionJudgement; summar
 
 function finish(s: FillState, now?: string): FillState {
   const { judgement, summary } = finalJudgement(s);
-  const effects: LogEvent[] = now ? [...s.effects, { kind: 'close', time: now }] : [...s.effects];
+  const effects: NewLogEvent[] = now ? [...s.effects, { kind: 'close', time: now }] : [...s.effects];
   return { ...s, phase: 'done', effects, summary, judgement };
 }
 
@@ -336,7 +336,7 @@ function readingEvent(s: FillState, step: FillStep, absolute: number, temperatur
 }
 
 /** take a reading the operator has confirmed: log it, judge the composition, re-target or finish */
-function commit(s: FillState, p: Pending, extra: readonly LogEvent[] = [], now: string): FillState {
+function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const target = s.targetsPa[s.current];
@@ -402,7 +402,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
   const last = s.current + 1 >= s.setup.steps.length;
   if (acc) {
-    const ack: LogEvent = { kind: 'acknowledge', code: 'over-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
+    const ack: NewLogEvent = { kind: 'acknowledge', code: 'over-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
     return commit(s, { ...p, event: { ...p.event, note: `above the working limit; accepted by ${acc[1]}` } }, [ack], now);
   }
   if (/^vent$/i.test(text)) {
@@ -425,7 +425,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
 }
 
 export function fillReducer(s: FillState, a: FillAction): FillState {
-  const base = { ...s, effects: [] as LogEvent[], error: undefined };
+  const base = { ...s, effects: [] as NewLogEvent[], error: undefined };
   const textPhase = base.phase === 'reading' && base.field === 'temperature';
   if (a.type === 'char') {
     if (base.phase === 'confirm') {
@@ -468,7 +468,7 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
     case 'acknowledge': {
       const m = /^\s*accept\s+([A-Za-z]{1,6})\s*$/.exec(base.input);
       if (!m) return { ...base, error: 'to go on past a danger finding, type "accept" and your initials (e.g. accept AB), then Enter; Ctrl-C stops' };
-      const effects: LogEvent[] = base.setup.dangers.map((d) => ({ kind: 'acknowledge', code: d.code, step: d.step, by: m[1], time: a.now, note: d.message }));
+      const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({ kind: 'acknowledge', code: d.code, step: d.step, by: m[1], time: a.now, note: d.message }));
       return enterStep({ ...base, phase: 'reading', input: '', effects, message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged` });
     }
     case 'reminder':

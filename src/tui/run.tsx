@@ -9,7 +9,7 @@ import { WizardApp } from './wizard-app.js';
 import { DEFAULTS, wizardInit, type WizardState } from './wizard-state.js';
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
-import { appendEvent, createLog, readLog, type LogHeader, type ParsedLog } from '../io/batch-log.js';
+import { createLog, openLogForFill, readLog, type NewLogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
 import { checkLog, headerFromPlan } from '../io/check.js';
 
 /** the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default, so the two agree */
@@ -29,22 +29,31 @@ export interface FillOutcome {
 }
 
 export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<FillOutcome> {
-  const setup = setupFromHeader(args.header);
-  const now = new Date().toISOString();
-  const initial = initialState(setup, args.log, now);
-  for (const e of initial.effects) appendEvent(args.logFile, e);
+  // the lock is held for the whole fill; a torn last line is moved aside before anything is appended
+  const opened = openLogForFill(args.logFile);
   let interrupted = false;
-  const recheck = async () => {
-    const log = readLog(args.logFile);
-    return { report: await checkLog(log, { trials: CHECK_TRIALS, seed: 1 }), log };
-  };
-  const app = render(
-    <FillApp initial={{ ...initial, effects: [] }} write={(e) => appendEvent(args.logFile, e)} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} />,
-    { exitOnCtrlC: false },
-  );
-  await app.waitUntilExit();
-  app.unmount();
-  return { interrupted, logged: readLog(args.logFile).readings.length, steps: setup.steps.length, logFile: args.logFile };
+  try {
+    for (const m of opened.messages) process.stderr.write(`mixwright: ${args.logFile}: ${m}
+`);
+    const setup = setupFromHeader(opened.log.header);
+    const now = new Date().toISOString();
+    const initial = initialState(setup, args.log ? opened.log : undefined, now);
+    const write = (e: NewLogEvent) => {
+      opened.handle.append(e);
+    };
+    for (const e of initial.effects) write(e);
+    const recheck = async () => {
+      const log = readLog(args.logFile);
+      return { report: await checkLog(log, { trials: CHECK_TRIALS, seed: 1 }), log };
+    };
+    const told = opened.messages.length ? { message: [...opened.messages, initial.message].filter(Boolean).join('; ') } : {};
+    const app = render(<FillApp initial={{ ...initial, ...told, effects: [] }} write={write} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} />, { exitOnCtrlC: false });
+    await app.waitUntilExit();
+    app.unmount();
+    return { interrupted, logged: opened.handle.current().readings.length, steps: setup.steps.length, logFile: args.logFile };
+  } finally {
+    opened.handle.release();
+  }
 }
 
 export interface WizardContext {

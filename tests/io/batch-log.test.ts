@@ -36,10 +36,10 @@ describe('batch log', () => {
     const file = demoLog(dir, [10.0128, 1480.025, 1500]);
     const lines = readFileSync(file, 'utf8').trim().split('\n');
     expect(lines).toHaveLength(4);
-    expect(JSON.parse(lines[0]).format).toBe('mixwright-batch/1');
+    expect(JSON.parse(lines[0]).format).toBe('mixwright-batch/2');
     const log = readLog(file);
     expect(log.readings.map((r) => r.step)).toEqual([1, 2, 3]);
-    expect(code(() => createLog(file, log.header))).toBe('file-unreadable@-');
+    expect(code(() => createLog(file, log.header))).toBe('write-failed@-');
     expect(readFileSync(file, 'utf8').trim().split('\n')).toHaveLength(4);
   });
 
@@ -59,7 +59,7 @@ describe('batch log', () => {
   it('a correction replaces the reading of its step; the original stays in the file', () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const file = demoLog(dir, [10.0128, 1480.025, 1500]);
-    appendEvent(file, { kind: 'correction', step: 1, source: 'cyl-CH4', gauge: 'head-1kT', reading: '10.0140 Torr', pressure_Pa: (10.014 * 101325) / 760, temperature: '25 degC', temperature_K: 298.15, time: 't', reason: 'misread' });
+    appendEvent(file, { kind: 'correction', step: 1, source: 'cyl-CH4', gauge: 'head-1kT', reading: '10.0140 Torr', pressure_Pa: (10.014 * 101325) / 760, temperature: '25 degC', temperature_K: 298.15, time: 't', reason: 'misread', by: 'QX', replaces_line: 2 });
     const log = readLog(file);
     expect(log.readings[0].reading).toBe('10.0140 Torr');
     expect(readFileSync(file, 'utf8')).toContain('10.0128 Torr');
@@ -70,7 +70,7 @@ describe('batch log', () => {
     const file = demoLog(dir, [10.0128, 1480.025, 1500]);
     const text = readFileSync(file, 'utf8');
     const lines = text.trim().split('\n');
-    const newer = JSON.stringify({ ...JSON.parse(lines[0]), format: 'mixwright-batch/2' });
+    const newer = JSON.stringify({ ...JSON.parse(lines[0]), format: 'mixwright-batch/3' });
     expect(code(() => parseLog([newer, ...lines.slice(1)].join('\n') + '\n', 'x'))).toBe('schema@1');
     expect(code(() => parseLog([lines[0], 'not json', ...lines.slice(1)].join('\n') + '\n', 'x'))).toBe('schema@2');
     expect(code(() => parseLog([...lines, lines[1]].join('\n') + '\n', 'x'))).toBe('schema@5');

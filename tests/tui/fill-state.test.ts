@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { checkLog, headerFromPlan } from '../../src/io/check.js';
-import { parseLog, type LogEvent, type LogHeader } from '../../src/io/batch-log.js';
+import { parseLog, type NewLogEvent, type LogHeader } from '../../src/io/batch-log.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
 
@@ -20,7 +20,7 @@ const type = (s: FillState, text: string) => fillReducer(s, { type: 'char', text
 const enter = (s: FillState) => fillReducer(s, { type: 'enter', now: NOW });
 const tab = (s: FillState) => fillReducer(s, { type: 'tab' });
 /** type a reading and Enter, collecting the effects */
-function read(s: FillState, text: string, log?: LogEvent[]): FillState {
+function read(s: FillState, text: string, log?: NewLogEvent[]): FillState {
   const n = enter(type(s, text));
   log?.push(...n.effects);
   return n;
@@ -30,7 +30,7 @@ function setTemperature(s: FillState, text: string): FillState {
   for (let i = 0; i < 12; i++) t = fillReducer(t, { type: 'backspace' });
   return tab(type(t, text));
 }
-const logText = (h: LogHeader, events: readonly LogEvent[]) => [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
+const logText = (h: LogHeader, events: readonly NewLogEvent[]) => [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
 
 describe('guided fill state machine', () => {
   it('a reading on target: one reading effect, next step, the rest re-targeted, the composition on course', () => {
@@ -79,7 +79,7 @@ describe('guided fill state machine', () => {
 
   it('a last reading typed 1.1 K warmer at the old target: the verdict is on composition (FAIL), the same as check of that log; re-targeted for the typed temperature it passes', async () => {
     const h = header();
-    const events: LogEvent[] = [];
+    const events: NewLogEvent[] = [];
     let s = initialState(setupFromHeader(h));
     s = read(s, (s.targetsPa[0] / TORR).toFixed(4), events);
     s = read(s, (s.targetsPa[1] / TORR).toFixed(1), events);
@@ -123,7 +123,7 @@ describe('guided fill state machine', () => {
   it('resume: the readings in the log set the step, the acknowledgements are remembered', () => {
     const h = header();
     let s = initialState(setupFromHeader(h));
-    const events: LogEvent[] = [];
+    const events: NewLogEvent[] = [];
     s = read(s, (s.targetsPa[0] / TORR).toFixed(4), events);
     const log = parseLog(logText(h, events), 'x.jsonl');
     const r = initialState(setupFromHeader(log.header), log);

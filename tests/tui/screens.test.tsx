@@ -8,7 +8,7 @@ import { initialState, setupFromHeader } from '../../src/tui/fill-state.js';
 import { WizardApp } from '../../src/tui/wizard-app.js';
 import { DEFAULTS, wizardInit, wizardReducer } from '../../src/tui/wizard-state.js';
 import { makeEvaluator } from '../../src/tui/wizard-eval.js';
-import type { LogEvent } from '../../src/io/batch-log.js';
+import type { NewLogEvent } from '../../src/io/batch-log.js';
 
 const tick = () => new Promise((r) => setTimeout(r, 30));
 /** wait until the screen (or the log) shows what the test expects: input is handled asynchronously, and slower under load */
@@ -21,7 +21,7 @@ async function until(cond: () => boolean, what: string, ms = 5000): Promise<void
 }
 
 /** the guided fill of the demo recipe, its log events handed to write */
-function startDemoFill(write: (e: LogEvent) => void) {
+function startDemoFill(write: (e: NewLogEvent) => void) {
   const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
   const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
   return render(<FillApp initial={initialState(setupFromHeader(h))} write={write} logFile="b1.jsonl" />);
@@ -29,7 +29,7 @@ function startDemoFill(write: (e: LogEvent) => void) {
 
 describe('fill screen (ink)', () => {
   it('shows the target large with its band and gauge; a typed reading is written before the next step shows', async () => {
-    const written: LogEvent[] = [];
+    const written: NewLogEvent[] = [];
     const ui = startDemoFill((e) => written.push(e));
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     expect(ui.lastFrame()).toContain('head-1kT');
@@ -44,7 +44,7 @@ describe('fill screen (ink)', () => {
     ui.unmount();
   });
   it('keys that arrive one by one faster than the screen redraws are all taken: the logged reading is the one typed', async () => {
-    const written: LogEvent[] = [];
+    const written: NewLogEvent[] = [];
     const ui = startDemoFill((e) => written.push(e));
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     for (const ch of '10.0128') ui.stdin.write(ch);
@@ -72,7 +72,7 @@ describe('fill screen (ink)', () => {
 describe('fill screens: danger, end, Ctrl-C (ink)', () => {
   const TORR = 101325 / 760;
   it('a reading past the working limit shows the danger screen with the vent-back reading; nothing is written until the operator decides', async () => {
-    const written: LogEvent[] = [];
+    const written: NewLogEvent[] = [];
     const ui = startDemoFill((e) => written.push(e));
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     ui.stdin.write('10.01\r');
