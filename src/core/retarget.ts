@@ -29,6 +29,8 @@ export interface RetargetInput {
   readonly finalPressurePa: number;
   readonly volumeM3: number;
   readonly workingLimitPa?: number;
+  /** a top-up: the gas in the tank before the first fill (its composition, and its reading) */
+  readonly initial?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number; readonly temperatureK: number };
   /**
    * amounts in the tank scaled by this factor (0 < f <= 1): the tank vented or pumped back after
    * the last reading, which removes gas of the same composition. Default 1.
@@ -61,19 +63,26 @@ export function retarget(input: RetargetInput): RetargetResult {
   const { design, sources, done, volumeM3: V } = input;
   const m = done.length;
   const T = input.temperatureK;
-  const species = [...new Set([...sources.flatMap((s) => Object.keys(s.composition)), ...Object.keys(design.composition)])];
+  const init = input.initial;
+  const species = [...new Set([...sources.flatMap((s) => Object.keys(s.composition)), ...Object.keys(design.composition), ...Object.keys(init?.composition ?? {})])];
   const S = species.length;
   const model = virialModel(species, T);
   // what is in the tank now (mol)
   const have = new Float64Array(S);
   let rhoNow = 0;
+  const f = input.ventFactor ?? 1;
+  if (!(f > 0 && f <= 1)) throw new RangeError(`ventFactor ${f} must be in (0, 1]`);
   if (m > 0) {
-    const setup = inverseSetup(sources.slice(0, m).map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })));
+    const setup = inverseSetup(sources.slice(0, m).map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })), init ? { composition: { ...init.composition }, pressurePa: init.pressurePa, temperatureK: init.temperatureK } : undefined);
     const res = invertReadings(setup, undefined, done.map((d) => d.pressurePa));
-    const f = input.ventFactor ?? 1;
-    if (!(f > 0 && f <= 1)) throw new RangeError(`ventFactor ${f} must be in (0, 1]`);
     setup.species.forEach((k, i) => (have[species.indexOf(k)] = res.amounts[i] * V * f));
     rhoNow = res.rho[m - 1] * f;
+  } else if (init) {
+    // the gas already in the tank, from its reading at its own temperature
+    const m0 = virialModel(species, init.temperatureK);
+    const rho0 = densityFromPressure(init.pressurePa, init.temperatureK, bMix(m0, init.composition), cMix(m0, init.composition));
+    for (const [k, y] of Object.entries(init.composition)) have[species.indexOf(k)] += y * rho0 * V * f;
+    rhoNow = rho0 * f;
   }
   const rest = sources.slice(m);
   const w = rest.map((s) => {
@@ -145,7 +154,7 @@ export function retarget(input: RetargetInput): RetargetResult {
   const limit = input.workingLimitPa;
   const fmtP = input.formatPressure ?? ((p: number) => `${p.toPrecision(5)} Pa`);
   const haveComp = compOf(have);
-  const nowPa = m > 0 ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
+  const nowPa = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
   let limitBinds = false;
   let a: number[];
   let pred: ReturnType<typeof predict>;
@@ -186,7 +195,7 @@ export function retarget(input: RetargetInput): RetargetResult {
   // cumulative targets of the remaining fills at the fill temperature
   const remaining: RetargetResult['remaining'][number][] = [];
   const n = Float64Array.from(have);
-  let prevP = m > 0 ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
+  let prevP = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
   rest.forEach((s, j) => {
     w[j].forEach((v, i) => (n[i] += a[j] * v));
     const comp = compOf(n);

@@ -13,8 +13,8 @@ import type { ParsedLog } from '../io/batch-log.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
-  /** append one event to the batch log (with fsync); throws on failure */
-  readonly write: (e: NewLogEvent) => void;
+  /** append one event to the batch log (with fsync); returns its line; throws on failure */
+  readonly write: (e: NewLogEvent) => { line: number } | void;
   readonly logFile: string;
   readonly now?: () => string;
   /** `check`'s own re-check of the log, for the end screen */
@@ -79,14 +79,26 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
     }
     let s = current();
     for (const a of toActions(input, key, now())) {
-      const next = fillReducer(s, a);
-      try {
-        for (const e of next.effects) write(e);
-      } catch (err) {
-        s = { ...s, error: `could not write the log ${logFile}: ${(err as Error).message}; the reading was NOT recorded` };
+      let next = fillReducer(s, a);
+      const lines: { step: number; line: number }[] = [];
+      let failed: string | undefined;
+      let failedKind: string | undefined;
+      for (const e of next.effects) {
+        try {
+          const w = write(e);
+          if (w && (e.kind === 'reading' || e.kind === 'correction')) lines.push({ step: e.step, line: w.line });
+        } catch (err) {
+          failed = (err as Error).message;
+          failedKind = e.kind;
+          break;
+        }
+      }
+      if (failed !== undefined && failedKind !== 'close') {
+        s = { ...s, error: `could not write the log ${logFile}: ${failed}; the ${failedKind} was NOT recorded` };
         break;
       }
-      s = next;
+      for (const l of lines) next = fillReducer(next, { type: 'logged', ...l });
+      s = failed !== undefined ? { ...next, error: `the readings are logged, but the closing line could not be written to ${logFile}: ${failed}` } : next;
     }
     setState(s);
   });
@@ -107,7 +119,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         <Text wrap="wrap">
           {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank pressure is that reading plus today&apos;s barometric pressure. The plan assumed {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
         </Text>
-        <Text wrap="wrap">Type today&apos;s barometric pressure with its unit (e.g. 752.3 Torr or 1003.1 hPa), then Enter. It is logged with each gauge-referenced reading.</Text>
+        <Text wrap="wrap">Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1 hPa AB), then Enter. It is logged.</Text>
         {prompt}
         {errorLine}
       </Box>
@@ -162,6 +174,62 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
   const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
   const onGauge = (absPa: number) => `${fromPa(shownPa(state, step, absPa), unit).toFixed(dec)} ${unit}`;
   const absText = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit} absolute`;
+  if (state.phase === 'start' && state.start) {
+    const comp = Object.entries(state.start.composition)
+      .sort((a, b) => b[1] - a[1])
+      .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
+      .join(', ');
+    return (
+      <Box flexDirection="column">
+        <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
+        <Text wrap="wrap">The plan assumed {absText(state.start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what you read.</Text>
+        <Text>
+          {state.field === 'reading' ? '> ' : '  '}tank reading [{unit}] and your initials (e.g. 120.4 AB): {state.input}
+          {state.field === 'reading' ? <Text inverse> </Text> : null}
+        </Text>
+        <Text>
+          {state.field === 'temperature' ? '> ' : '  '}tank temperature: {state.temperatureText}
+          {state.field === 'temperature' ? <Text inverse> </Text> : null}
+        </Text>
+        {errorLine}
+        <Text>Enter: log the starting pressure   Tab: temperature   Ctrl-C: stop</Text>
+      </Box>
+    );
+  }
+  if (state.phase === 'correct' && state.correcting) {
+    const c = state.correcting;
+    const d = state.done.find((x) => x.step === c.step)!;
+    const cs = state.setup.steps[c.step - 1];
+    return (
+      <Box flexDirection="column">
+        <Text bold>
+          mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on {cs.gauge?.id ?? 'no gauge'})
+        </Text>
+        <Text>
+          logged: {d.text} at {((d.temperatureK - 273.15).toFixed(1))} degC; the original stays in the log, the correction is added with your initials ({c.by}) and reason
+        </Text>
+        {c.pending ? (
+          <>
+            <Text>new: {c.pending.done.text} at {(c.pending.done.temperatureK - 273.15).toFixed(1)} degC</Text>
+            <Text>reason: {state.input}<Text inverse> </Text></Text>
+          </>
+        ) : (
+          <>
+            <Text>
+              {state.field === 'reading' ? '> ' : '  '}right reading [{unitOf(cs)}]: {state.input}
+              {state.field === 'reading' ? <Text inverse> </Text> : null}
+            </Text>
+            <Text>
+              {state.field === 'temperature' ? '> ' : '  '}tank temperature then: {state.temperatureText}
+              {state.field === 'temperature' ? <Text inverse> </Text> : null}
+            </Text>
+          </>
+        )}
+        {errorLine}
+        <Text>Enter: {c.pending ? 'log the correction' : 'next: the reason'}   Esc: cancel (nothing logged)</Text>
+      </Box>
+    );
+  }
   if (state.phase === 'reminder') {
     const ds = state.setup.dangers.filter((d) => d.step === step.index);
     return (
@@ -262,7 +330,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}
       <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
-      <Text>Enter: log   Tab: temperature   Ctrl-C: stop (logged readings are kept)</Text>
+      <Text>Enter: log  Tab: temp  undo AB: undo last  fix N AB: correct  Ctrl-C: stop</Text>
     </Box>
   );
 }

@@ -46,14 +46,17 @@ export interface FillSetup {
   readonly workingLimitPa?: number;
   /** a gauge-referenced sensor reads some step: today's barometric pressure is asked first */
   readonly needsBarometer: boolean;
+  /** a top-up: the gas the plan assumed already in the tank */
+  readonly inTank?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number };
 }
 
 /**
- * barometer: today's barometric pressure; acknowledge: danger findings of the plan; reminder: the
+ * barometer: today's barometric pressure; start: a top-up's starting pressure, read and logged;
+ * correct: a new value for an earlier reading; acknowledge: danger findings of the plan; reminder: the
  * accepted danger of this fill, again; reading: the step; confirm: an implausible reading, asked
  * first; over-limit: a reading past the working limit; ended: stopped before the last fill; done.
  */
-export type Phase = 'barometer' | 'acknowledge' | 'reminder' | 'reading' | 'confirm' | 'over-limit' | 'ended' | 'done';
+export type Phase = 'barometer' | 'acknowledge' | 'start' | 'reminder' | 'reading' | 'correct' | 'confirm' | 'over-limit' | 'ended' | 'done';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -61,6 +64,24 @@ export interface DoneReading {
   readonly pressurePa: number;
   readonly temperatureK: number;
   readonly text: string;
+  /** the log line it is on (known once written) */
+  readonly line?: number;
+}
+
+/** the gas in the tank before the first fill (top-up) */
+export interface StartGas {
+  readonly composition: Readonly<Record<string, number>>;
+  readonly pressurePa: number;
+  readonly temperatureK: number;
+  /** read at the manifold and logged (else the plan's assumption) */
+  readonly read: boolean;
+}
+
+export interface Correcting {
+  readonly step: number;
+  readonly by: string;
+  /** the new reading, once typed; then the reason is asked */
+  readonly pending?: Pending;
 }
 
 export interface FractionDeviation {
@@ -91,6 +112,8 @@ export interface CompositionJudgement {
 export interface Pending {
   readonly event: LogReading;
   readonly done: DoneReading;
+  /** the text as typed, given back when the operator edits it */
+  readonly typed: string;
   /** why the reading is asked about (confirm) */
   readonly reason?: string;
 }
@@ -129,6 +152,8 @@ export interface FillState {
   readonly overLimit?: OverLimit;
   /** steps whose accepted danger has been shown again */
   readonly reminded: readonly number[];
+  readonly start?: StartGas;
+  readonly correcting?: Correcting;
 }
 
 export type FillAction =
@@ -136,6 +161,8 @@ export type FillAction =
   | { readonly type: 'backspace' }
   | { readonly type: 'tab' }
   | { readonly type: 'escape' }
+  /** the shell wrote a reading or correction of this step on this log line */
+  | { readonly type: 'logged'; readonly step: number; readonly line: number }
   | { readonly type: 'enter'; readonly now: string };
 
 export function setupFromHeader(header: LogHeader): FillSetup {
@@ -144,7 +171,8 @@ export function setupFromHeader(header: LogHeader): FillSetup {
   const steps = header.steps.map((s) => ({ index: s.step, species: s.species, source: sources.get(s.source)!, gauge: s.gauge ? gauges.get(s.gauge) : undefined, bandPa: s.band_Pa }));
   const dangers = (header.findings ?? []).filter((f) => f.severity === 'danger').map((f) => ({ code: f.code, step: f.step, message: f.message }));
   const workingLimitPa = header.tank.working_limit_Pa ?? header.tank.rated_pressure_Pa ?? undefined;
-  return { header, design: designFromHeader(header), steps, dangers, workingLimitPa, needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge') };
+  const inTank = header.in_tank ? { composition: header.in_tank.composition, pressurePa: header.in_tank.pressure_Pa } : undefined;
+  return { header, design: designFromHeader(header), steps, dangers, workingLimitPa, needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge'), inTank };
 }
 
 const degC = (k: number) => `${(k - 273.15).toFixed(1)} degC`;
@@ -155,9 +183,15 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
   const h = setup.header;
   const targets = h.steps.map((s) => s.target_Pa);
   const acked = new Set((log?.acknowledgements ?? []).map((a) => a.code));
-  const done: DoneReading[] = (log?.readings ?? []).map((r) => ({ step: r.step, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, text: r.reading }));
+  const done: DoneReading[] = (log?.readings ?? []).map((r) => ({ step: r.step, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, text: r.reading, line: r.line }));
   const needsAck = setup.dangers.some((d) => !acked.has(d.code));
-  const lastBaro = [...(log?.readings ?? [])].reverse().find((r) => r.barometer_Pa !== undefined)?.barometer_Pa;
+  const lastBaro = log?.barometer?.pressure_Pa ?? [...(log?.readings ?? [])].reverse().find((r) => r.barometer_Pa !== undefined)?.barometer_Pa;
+  const inTank = setup.inTank;
+  const start: StartGas | undefined = inTank
+    ? log?.start
+      ? { composition: inTank.composition, pressurePa: log.start.pressure_Pa, temperatureK: log.start.temperature_K, read: true }
+      : { composition: inTank.composition, pressurePa: inTank.pressurePa, temperatureK: h.temperature_K, read: false }
+    : undefined;
   const T = done.length ? done[done.length - 1].temperatureK : h.temperature_K;
   let state: FillState = {
     setup,
@@ -173,9 +207,10 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     temperatureText: degC(T),
     effects: [],
     reminded: [],
+    start,
     message: done.length ? `resumed: ${done.length} of ${setup.steps.length} readings were in the log` : undefined,
   };
-  if (done.length) {
+  if (done.length || start?.read) {
     const r = retargetRun(state, done, T);
     state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
   }
@@ -187,6 +222,7 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
 function enterStep(s: FillState): FillState {
   if (s.phase === 'acknowledge') return s;
   if (s.setup.needsBarometer && !s.barometerToday) return { ...s, phase: 'barometer', input: '' };
+  if (s.start && !s.start.read && s.done.length === 0) return { ...s, phase: 'start', input: '' };
   const stepIndex = s.setup.steps[s.current]?.index;
   if (stepIndex !== undefined && !s.reminded.includes(stepIndex) && s.setup.dangers.some((d) => d.step === stepIndex)) return { ...s, phase: 'reminder', input: '' };
   return { ...s, phase: 'reading' };
@@ -203,6 +239,7 @@ export function retargetInput(s: FillState, done: readonly DoneReading[], temper
     finalPressurePa: h.final_pressure_Pa,
     volumeM3: h.tank.volume_m3,
     workingLimitPa: s.setup.workingLimitPa,
+    initial: s.start,
     formatPressure: (pa) => `${fromPa(pa, 'Torr').toPrecision(6)} Torr`,
   };
 }
@@ -237,6 +274,8 @@ function deviationsOf(composition: Readonly<Record<string, { value: number; u?: 
     });
 }
 
+const initialOf = (s: FillState) => (s.start ? { composition: { ...s.start.composition }, pressurePa: s.start.pressurePa, temperatureK: s.start.temperatureK } : undefined);
+
 /** the as-filled composition of all readings, with the GUM uncertainty where every step has a gauge */
 function finalJudgement(s: FillState): { judgement: CompositionJudgement; summary?: UncertaintyResult } {
   const h = s.setup.header;
@@ -244,7 +283,7 @@ function finalJudgement(s: FillState): { judgement: CompositionJudgement; summar
   if (withGauges) {
     try {
       const readings = s.done.map((d, i) => ({ step: d.step, source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK, gauge: s.setup.steps[i].gauge! }));
-      const summary = evaluateUncertainty(readings, { barometricPa: s.barometerPa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: 0, seed: 1 }, h.design.diluent);
+      const summary = evaluateUncertainty(readings, { barometricPa: s.barometerPa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: 0, seed: 1 }, h.design.diluent, initialOf(s));
       const v = judge(summary, s.setup.design, h.tolerance);
       const deviations = v.deviations.map((d) => ({ species: d.species, design: d.design, actual: d.actual, deviation: d.deviation, tolerance: d.tolerance, within: d.within, expandedU: d.expandedU }));
       return { summary, judgement: { kind: 'final', verdict: v.verdict === 'no-design' ? 'fail' : v.verdict, deviations, phi: summary.phi?.value } };
@@ -253,7 +292,7 @@ function finalJudgement(s: FillState): { judgement: CompositionJudgement; summar
     }
   }
   // a step without a gauge has no uncertainty model: the nominal inverse only
-  const setup = inverseSetup(s.done.map((d, i) => ({ source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK })));
+  const setup = inverseSetup(s.done.map((d, i) => ({ source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK })), initialOf(s));
   const res = invertReadings(setup, undefined, s.done.map((d) => d.pressurePa));
   const comp: Record<string, number> = {};
   setup.species.forEach((k, i) => (comp[k] = res.x[i] * (1 - res.unidentified)));
@@ -374,7 +413,7 @@ function onReadingEnter(s: FillState, now: string): FillState {
   if ('error' in parsed) return { ...s, error: parsed.error };
   const { shown, temperatureK } = parsed;
   const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
-  const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : 0;
+  const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
   if (!(absolute > prev)) {
     return {
       ...s,
@@ -386,7 +425,8 @@ function onReadingEnter(s: FillState, now: string): FillState {
   }
   // the judgement uses the temperature typed with the reading: re-target first if it changed
   const s1 = Math.abs(temperatureK - s.targetTemperatureK) >= 0.005 ? withTemperature(s) : s;
-  const p: Pending = { event: readingEvent(s1, step, absolute, temperatureK, now), done: { step: step.index, pressurePa: absolute, temperatureK, text: s1.input.trim() } };
+  const event = readingEvent(s1, step, absolute, temperatureK, now);
+  const p: Pending = { event, done: { step: step.index, pressurePa: absolute, temperatureK, text: event.reading }, typed: s1.input.trim() };
   const why = doubt(s1, step, shown);
   if (why) return { ...s1, phase: 'confirm', pending: { ...p, reason: why } };
   return afterDoubt(s1, p, now);
@@ -398,7 +438,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const text = s.input.trim();
-  if (/^edit$/i.test(text)) return { ...s, phase: 'reading', pending: undefined, overLimit: undefined, input: p.done.text };
+  if (/^edit$/i.test(text)) return { ...s, phase: 'reading', pending: undefined, overLimit: undefined, input: p.typed };
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
   const last = s.current + 1 >= s.setup.steps.length;
   if (acc) {
@@ -424,9 +464,84 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   return { ...s, error: 'type "vent" (you vent or pump back), "accept" and your initials (keep the tank as it is; logged), or "edit" (the reading was mistyped), then Enter' };
 }
 
+const INITIALS = /^(.*\S)\s+([A-Za-z]{1,6})$/;
+
+/** "VALUE INITIALS": the value text and the initials, or an error naming what is missing */
+function withInitials(text: string, what: string, example: string): { value: string; by: string } | { error: string } {
+  const m = INITIALS.exec(text.trim());
+  if (!m) return { error: `type the ${what} and then your initials, e.g. ${example}` };
+  return { value: m[1], by: m[2] };
+}
+
+/** after the reading set changed (undo, correction): re-target and judge from the readings in force */
+function rejudge(s: FillState): FillState {
+  if (s.current >= s.setup.steps.length) return s;
+  const r = retargetRun(s, s.done, s.targetTemperatureK);
+  if (!s.done.length) return { ...s, targetsPa: r.targets, judgement: undefined };
+  const deviations = deviationsOf(r.result.predicted.composition, s);
+  return { ...s, targetsPa: r.targets, judgement: { kind: 'predicted', verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course', deviations, phi: r.result.predicted.phi } };
+}
+
+/** the commands of the reading screen: undo INITIALS (the last reading) and fix N INITIALS (any earlier one) */
+function onCommand(s: FillState, text: string, now: string): FillState | undefined {
+  const undo = /^undo\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^undo\b/i.test(text) && !undo) return { ...s, error: 'type "undo" and your initials, e.g. undo AB' };
+  if (undo) {
+    const last = s.done[s.done.length - 1];
+    if (!last) return { ...s, error: 'no reading is logged yet; nothing to undo' };
+    if (last.line === undefined) return { ...s, error: 'the log line of the last reading is not known; stop and resume the fill to undo it' };
+    const done = s.done.slice(0, -1);
+    const next = rejudge({ ...s, done, current: s.current - 1, input: '', effects: [{ kind: 'withdraw', step: last.step, withdraws_line: last.line, by: undo[1], time: now, reason: 'taken back at the manifold before the next fill' }] });
+    return enterStep({ ...next, message: `the reading of fill ${last.step} (${last.text}) is withdrawn by ${undo[1]}; the log keeps it and the withdrawal. Read fill ${last.step} again` });
+  }
+  const fix = /^fix\s+(\d+)\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^fix\b/i.test(text) && !fix) return { ...s, error: 'type "fix", the fill number and your initials, e.g. fix 2 AB' };
+  if (fix) {
+    const n = Number(fix[1]);
+    const d = s.done.find((x) => x.step === n);
+    if (!d) return { ...s, error: `fill ${n} has no reading logged; only a logged reading can be corrected (fills logged: ${s.done.map((x) => x.step).join(', ') || 'none'})` };
+    if (d.line === undefined) return { ...s, error: `the log line of fill ${n} is not known; stop and resume the fill to correct it` };
+    return { ...s, phase: 'correct', correcting: { step: n, by: fix[2] }, input: '', field: 'reading', temperatureText: degC(d.temperatureK) };
+  }
+  return undefined;
+}
+
+function onCorrectEnter(s: FillState, now: string): FillState {
+  const c = s.correcting!;
+  const i = s.done.findIndex((x) => x.step === c.step);
+  const old = s.done[i];
+  const step = s.setup.steps[c.step - 1];
+  const unit = gaugeUnit(step);
+  if (!c.pending) {
+    const parsed = parseReading(s, step);
+    if ('error' in parsed) return { ...s, error: parsed.error };
+    const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+    const before = i > 0 ? s.done[i - 1].pressurePa : (s.start?.pressurePa ?? 0);
+    const after = s.done[i + 1]?.pressurePa;
+    if (!(absolute > before) || (after !== undefined && !(absolute < after))) {
+      return { ...s, error: `${fmtIn(absolute, unit)} absolute does not lie between the readings before and after fill ${c.step} (${fmtIn(before, unit)}${after !== undefined ? ` and ${fmtIn(after, unit)}` : ''}); correct those first, or check the value` };
+    }
+    if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}` };
+    const ev = readingEvent(s, step, absolute, parsed.temperatureK, now);
+    return { ...s, input: '', correcting: { ...c, pending: { event: ev, done: { step: c.step, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading }, typed: s.input.trim() } } };
+  }
+  const reason = s.input.trim();
+  if (!reason) return { ...s, error: 'type why the reading is corrected (e.g. "mistyped: 1480.0 not 1408.0"), then Enter; Esc cancels' };
+  const p = c.pending;
+  const event: NewLogEvent = { ...p.event, kind: 'correction', by: c.by, reason, replaces_line: old.line! };
+  const done = s.done.map((x, j) => (j === i ? p.done : x));
+  const limit = s.setup.workingLimitPa;
+  const over = limit !== undefined && p.done.pressurePa > limit ? ` - ${fmtIn(p.done.pressurePa, unit)} is ABOVE the working limit ${fmtIn(limit, unit)}` : '';
+  let next: FillState = { ...s, done, correcting: undefined, input: '', effects: [event], message: `fill ${c.step} corrected by ${c.by}: ${old.text} -> ${p.done.text} (the original stays in the log)${over}` };
+  if (next.current >= s.setup.steps.length) return { ...finish({ ...next, effects: [event] }), message: next.message };
+  next = rejudge(next);
+  return enterStep({ ...next, phase: 'reading' });
+}
+
 export function fillReducer(s: FillState, a: FillAction): FillState {
+  if (a.type === 'logged') return { ...s, effects: [], done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)) };
   const base = { ...s, effects: [] as NewLogEvent[], error: undefined };
-  const textPhase = base.phase === 'reading' && base.field === 'temperature';
+  const textPhase = (base.phase === 'reading' || base.phase === 'start' || (base.phase === 'correct' && !base.correcting?.pending)) && base.field === 'temperature';
   if (a.type === 'char') {
     if (base.phase === 'confirm') {
       if (/^[yY]/.test(a.text)) return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
@@ -441,10 +556,12 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
     return { ...base, input: base.input.slice(0, -1) };
   }
   if (a.type === 'escape') {
-    if (base.phase === 'confirm' || base.phase === 'over-limit') return { ...base, phase: 'reading', input: base.pending?.done.text ?? base.input, pending: undefined, overLimit: undefined };
+    if (base.phase === 'correct') return { ...base, phase: 'reading', correcting: undefined, input: '', temperatureText: degC(base.targetTemperatureK), message: 'correction cancelled; nothing logged' };
+    if (base.phase === 'confirm' || base.phase === 'over-limit') return { ...base, phase: 'reading', input: base.pending?.typed ?? base.input, pending: undefined, overLimit: undefined };
     return base;
   }
   if (a.type === 'tab') {
+    if (base.phase === 'start' || (base.phase === 'correct' && !base.correcting?.pending)) return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
     if (base.phase !== 'reading') return base;
     if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
     return { ...base, field: 'temperature' };
@@ -457,9 +574,21 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
       return base;
     case 'barometer': {
       try {
-        const p = parseQuantity(base.input.trim(), 'pressure', { field: 'barometric pressure' });
+        // a pressure alone: only the initials are missing
+        let whole = false;
+        try {
+          parseQuantity(base.input.trim(), 'pressure');
+          whole = true;
+        } catch {
+          whole = false;
+        }
+        if (whole) return { ...base, error: 'add your initials after the pressure, e.g. 752.3 Torr AB' };
+        const w = withInitials(base.input, 'barometric pressure with its unit', '752.3 Torr AB');
+        if ('error' in w) return { ...base, error: w.error };
+        const p = parseQuantity(w.value, 'pressure', { field: 'barometric pressure' });
         if (!(p >= BARO_RANGE_PA[0] && p <= BARO_RANGE_PA[1])) fail({ code: 'out-of-range', what: 'barometric pressure', value: p, allowed: '70-110 kPa (525-825 Torr)' });
-        return enterStep({ ...base, barometerPa: p, barometerToday: true, input: '', message: `barometric pressure today ${fmtIn(p, 'Torr', 5)}: the gauge-referenced targets use it, and each such reading logs it` });
+        const ev: NewLogEvent = { kind: 'barometer', reading: w.value, pressure_Pa: p, u_Pa: base.setup.header.barometer.u_Pa, by: w.by, time: a.now };
+        return enterStep({ ...base, barometerPa: p, barometerToday: true, input: '', effects: [ev], message: `barometric pressure today ${fmtIn(p, 'Torr', 5)} (logged): the gauge-referenced targets use it` });
       } catch (e) {
         if (e instanceof ProblemError) return { ...base, error: `${describeProblem(e.problem)} - type today's barometric pressure with its unit, e.g. 752.3 Torr or 1003.1 hPa` };
         throw e;
@@ -471,11 +600,47 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
       const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({ kind: 'acknowledge', code: d.code, step: d.step, by: m[1], time: a.now, note: d.message }));
       return enterStep({ ...base, phase: 'reading', input: '', effects, message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged` });
     }
+    case 'start':
+      return onStartEnter(base, a.now);
+    case 'correct':
+      return onCorrectEnter(base, a.now);
     case 'reminder':
       return { ...base, phase: 'reading', input: '', reminded: [...base.reminded, base.setup.steps[base.current].index] };
     case 'over-limit':
       return onOverLimitEnter(base, a.now);
     case 'reading':
-      return onReadingEnter(base, a.now);
+      return onCommand(base, base.input.trim(), a.now) ?? onReadingEnter(base, a.now);
   }
+  return base;
+}
+
+/** a top-up: the tank's pressure and temperature before the first fill, read on the first fill's gauge */
+function onStartEnter(s: FillState, now: string): FillState {
+  const step = s.setup.steps[0];
+  const unit = gaugeUnit(step);
+  const w = withInitials(s.input, 'reading', '120.4 AB');
+  if ('error' in w) return { ...s, error: w.error };
+  const parsed = parseReading({ ...s, input: w.value }, step);
+  if ('error' in parsed) return { ...s, error: parsed.error };
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}; read the tank on a gauge that covers it` };
+  const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+  if (!(absolute > 0)) return { ...s, error: 'the starting pressure must be above zero absolute; an empty tank is not a top-up' };
+  const limit = s.setup.workingLimitPa;
+  if (limit !== undefined && absolute >= limit) return { ...s, error: `${fmtIn(absolute, unit)} absolute is at or above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: no fill can be made. Vent the tank first` };
+  const text = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
+  const ev: NewLogEvent = {
+    kind: 'start-pressure',
+    gauge: step.gauge?.id ?? 'none',
+    reading: text,
+    pressure_Pa: absolute,
+    ...(step.gauge?.reference === 'gauge' ? { barometer_Pa: s.barometerPa } : {}),
+    temperature: s.temperatureText.trim(),
+    temperature_K: parsed.temperatureK,
+    by: w.by,
+    time: now,
+  };
+  const planned = s.start!.pressurePa;
+  const next: FillState = { ...s, start: { ...s.start!, pressurePa: absolute, temperatureK: parsed.temperatureK, read: true }, input: '', field: 'reading', effects: [ev] };
+  const r = retargetRun(next, [], parsed.temperatureK);
+  return enterStep({ ...next, targetsPa: r.targets, targetTemperatureK: parsed.temperatureK, message: `starting pressure ${text} logged by ${w.by} (the plan assumed ${fmtIn(planned, unit)} absolute); targets re-computed from it: ${r.message}` });
 }

@@ -38,9 +38,7 @@ export async function runFill(args: { header: LogHeader; logFile: string; log?: 
     const setup = setupFromHeader(opened.log.header);
     const now = new Date().toISOString();
     const initial = initialState(setup, args.log ? opened.log : undefined, now);
-    const write = (e: NewLogEvent) => {
-      opened.handle.append(e);
-    };
+    const write = (e: NewLogEvent) => opened.handle.append(e);
     for (const e of initial.effects) write(e);
     const recheck = async () => {
       const log = readLog(args.logFile);

@@ -200,10 +200,13 @@ describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 ps
   it('today\'s barometric pressure is asked first, refused without a unit or outside 70-110 kPa, and used for the gauge targets and logged with each gauge reading', () => {
     const s = start();
     expect(enter(type(s, '752.3')).error).toMatch(/unit/);
-    expect(enter(type(s, '75 Torr')).error).toMatch(/70-110 kPa/);
-    const b = enter(type(s, '745 Torr'));
+    expect(enter(type(s, '752.3 Torr')).error).toMatch(/add your initials/);
+    expect(enter(type(s, '75 Torr AB')).error).toMatch(/70-110 kPa/);
+    const b = enter(type(s, '745 Torr AB'));
     expect(b.phase).toBe('reading');
     expect(b.barometerPa / TORR).toBeCloseTo(745, 9);
+    expect(b.effects).toEqual([expect.objectContaining({ kind: 'barometer', reading: '745 Torr', by: 'AB' })]);
+    expect(b.effects[0]).toMatchObject({ pressure_Pa: 745 * TORR });
     const s1 = read(b, (b.targetsPa[0] / TORR).toFixed(2));
     const shownPsi = (s1.targetsPa[1] - 745 * TORR) / PSI;
     const s2 = read(s1, shownPsi.toFixed(2));
@@ -213,7 +216,7 @@ describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 ps
   });
 
   it('an absolute value typed on the gauge-referenced sensor asks first and names the cause; n goes back, y logs it', () => {
-    const b = enter(type(start(), '760 Torr'));
+    const b = enter(type(start(), '760 Torr AB'));
     const s1 = read(b, (b.targetsPa[0] / TORR).toFixed(2));
     const absPsi = s1.targetsPa[1] / PSI;
     const c = read(s1, absPsi.toFixed(2));
@@ -242,5 +245,107 @@ describe('the accepted danger is shown again at the fill that creates it', () =>
     const r = enter(s1);
     expect(r.phase).toBe('reading');
     expect(r.effects).toEqual([]);
+  });
+});
+
+describe('undo and correction, written through the batch log (lines, chain, check)', async () => {
+  const { mkdtempSync } = await import('node:fs');
+  const { join } = await import('node:path');
+  const { tmpdir } = await import('node:os');
+  const { createLog, appendEvent, readLog } = await import('../../src/io/batch-log.js');
+  /** a fill on a real log: every effect appended (chained, fsync'd), its line fed back as the component does */
+  function onLog(h: LogHeader) {
+    const file = join(mkdtempSync(join(tmpdir(), 'mw-fs-')), 'b.jsonl');
+    createLog(file, h);
+    let s = initialState(setupFromHeader(h));
+    const step = (a: Parameters<typeof fillReducer>[1]) => {
+      s = fillReducer(s, a);
+      for (const e of s.effects) {
+        const w = appendEvent(file, e);
+        if (e.kind === 'reading' || e.kind === 'correction') s = fillReducer(s, { type: 'logged', step: e.step, line: w.line });
+      }
+      return s;
+    };
+    const typeEnter = (t: string) => {
+      // what a refused entry left in the field is cleared first, as an operator would
+      while (s.input.length) step({ type: 'backspace' });
+      for (const c of t) step({ type: 'char', text: c });
+      return step({ type: 'enter', now: NOW });
+    };
+    return { file, typeEnter, step, get: () => s };
+  }
+
+  it('undo AB withdraws the last reading: the log keeps it and the withdrawal; the step is read again; check uses the new reading', async () => {
+    const f = onLog(header());
+    f.typeEnter('10.01');
+    f.typeEnter('1408');
+    expect(f.get().current).toBe(2);
+    expect(f.typeEnter('undo').error).toMatch(/undo AB/);
+    const u = f.typeEnter('undo AB');
+    expect(u.current).toBe(1);
+    expect(u.message).toMatch(/withdrawn by AB/);
+    const t2 = u.targetsPa[1] / TORR;
+    f.typeEnter(t2.toFixed(1));
+    f.typeEnter((f.get().targetsPa[2] / TORR).toFixed(1));
+    expect(f.get().phase).toBe('done');
+    const log = readLog(f.file);
+    expect(log.amendments.map((a) => a.kind)).toEqual(['withdraw']);
+    expect(log.allReadings.map((r) => r.reading)).toEqual(['10.01 Torr', '1408 Torr', `${t2.toFixed(1)} Torr`, expect.any(String)]);
+    expect(log.issues.filter((i) => i.code === 'line-edited')).toEqual([]);
+    const rep = await checkLog(log, { trials: 0, seed: 1 });
+    expect(rep.readings[1].pressurePa / TORR).toBeCloseTo(Number(t2.toFixed(1)), 9);
+  });
+
+  it('fix 2 AB corrects an earlier reading with a reason: a correction line naming the line it replaces; the targets follow the corrected value; Esc cancels', async () => {
+    const f = onLog(header());
+    f.typeEnter('10.01');
+    f.typeEnter('1480.0');
+    expect(f.typeEnter('fix 5 AB').error).toMatch(/fill 5 has no reading/);
+    const c = f.typeEnter('fix 2 AB');
+    expect(c.phase).toBe('correct');
+    expect(f.step({ type: 'escape' }).phase).toBe('reading');
+    f.typeEnter('fix 2 AB');
+    expect(f.typeEnter('9').error).toMatch(/does not lie between/);
+    const r = f.typeEnter('1481.0');
+    expect(r.correcting?.pending).toBeDefined();
+    expect(f.typeEnter('').error).toMatch(/type why/);
+    const before = r.targetsPa[2];
+    const done = f.typeEnter('mistyped: 1481.0 not 1480.0');
+    expect(done.phase).toBe('reading');
+    expect(done.current).toBe(2);
+    expect(done.message).toMatch(/fill 2 corrected by AB: 1480.0 Torr -> 1481.0 Torr/);
+    // one Torr more Ar: O2 (which keeps phi) stays near its amount, so its target rises by about that Torr
+    expect((done.targetsPa[2] - before) / TORR).toBeGreaterThan(0.9);
+    expect((done.targetsPa[2] - before) / TORR).toBeLessThan(1.1);
+    const log = readLog(f.file);
+    expect(log.amendments).toHaveLength(1);
+    expect(log.amendments[0]).toMatchObject({ kind: 'correction', step: 2, by: 'AB', reason: 'mistyped: 1481.0 not 1480.0' });
+    expect(log.amendments[0].old!.reading).toBe('1480.0 Torr');
+    expect(log.readings[1].pressure_Pa / TORR).toBeCloseTo(1481, 9);
+  });
+
+  it('top-up: the starting pressure and temperature are read and logged first; the targets re-compute from them; check uses the logged start', async () => {
+    // 120 Torr of a CH4/O2/Ar mixture already in MT-1 (the demo design's own composition)
+    const comp = { CH4: 0.02 / 3, O2: 0.04 / 3, Ar: 0.98 };
+    const h = header(undefined, (r) => ({ ...r, in_tank: { composition: comp, pressure: '120 Torr' } }));
+    expect(h.in_tank?.pressure_Pa).toBeCloseTo(120 * TORR, 6);
+    const f = onLog(h);
+    const s0 = f.get();
+    expect(s0.phase).toBe('start');
+    expect(f.typeEnter('118.5').error).toMatch(/your initials/);
+    const s1 = f.typeEnter('118.5 AB');
+    expect(s1.phase).toBe('reading');
+    expect(s1.message).toMatch(/starting pressure 118.5 Torr logged by AB \(the plan assumed 120.000 Torr absolute\)/);
+    // 1.5 Torr less gas of the design composition to start from: the first target falls by about that
+    expect((s0.targetsPa[0] - s1.targetsPa[0]) / TORR).toBeGreaterThan(1.3);
+    expect((s0.targetsPa[0] - s1.targetsPa[0]) / TORR).toBeLessThan(1.7);
+    const log = readLog(f.file);
+    expect(log.start).toMatchObject({ kind: 'start-pressure', reading: '118.5 Torr', by: 'AB' });
+    expect(log.start!.pressure_Pa / TORR).toBeCloseTo(118.5, 9);
+    // resumed: the start is not asked again
+    const r = initialState(setupFromHeader(log.header), log);
+    expect(r.phase).toBe('reading');
+    expect(r.start?.read).toBe(true);
+    expect(r.targetsPa[0]).toBeCloseTo(s1.targetsPa[0], 3);
   });
 });
