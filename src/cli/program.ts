@@ -346,6 +346,19 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       out(o.json ? JSON.stringify(readyToJson(report, VERSION), null, 2) + '\n' : readyToText(report));
     });
 
+  /**
+   * the interactive screens are a separate bundle (dist/tui.mjs) with its own copy of the core, so a
+   * refusal thrown there is not an instance of this bundle's ProblemError: carry it over by its shape
+   */
+  const fromTui = async <T,>(run: () => Promise<T>): Promise<T> => {
+    try {
+      return await run();
+    } catch (e) {
+      if (!(e instanceof ProblemError) && e instanceof Error && e.name === 'ProblemError' && 'problem' in e && 'where' in e) throw new ProblemError((e as ProblemError).problem, (e as ProblemError).where);
+      throw e;
+    }
+  };
+
   /** Ctrl-C in the guided fill: what the log holds and how to go on, then exit 130 */
   const fillEnded = (r: { interrupted: boolean; logged: number; steps: number } | undefined, logFile: string) => {
     if (!r?.interrupted) return;
@@ -367,7 +380,8 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         const log = readLog(o.resume);
         if (log.closed) throw new ProblemError({ code: 'design-conflict', reason: 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`' }, { file: o.resume });
         for (const w of log.warnings) err(`mixwright: ${o.resume}: ${w}\n`);
-        fillEnded(await tui.runFill({ header: log.header, logFile: o.resume, log }), o.resume);
+        const resume = o.resume;
+        fillEnded(await fromTui(() => tui.runFill({ header: log.header, logFile: resume, log })), resume);
         return;
       }
       const { plan, req } = planFrom(recipeFile, o);
@@ -377,7 +391,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       mkdirSync(o.dir, { recursive: true });
       const file = join(o.dir, `${id}.jsonl`);
       createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
-      fillEnded(await tui.runFill({ header: readLog(file).header, logFile: file }), file);
+      fillEnded(await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
     });
 
   program
@@ -461,7 +475,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .action(async (o: { lab?: string }) => {
       if (!streams.isTTY) throw new ProblemError({ code: 'design-missing', reason: 'the wizard needs a terminal. Use `mixwright plan`, `mixwright sheet` and `mixwright check`' }, { field: 'wizard' });
       const tui = await import('../tui/run.js');
-      const r = await tui.runWizard({ version: VERSION, labFile: o.lab });
+      const r = await fromTui(() => tui.runWizard({ version: VERSION, labFile: o.lab }));
       if (r) fillEnded(r, r.logFile);
     });
 
