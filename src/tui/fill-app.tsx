@@ -56,7 +56,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
   const app = useApp();
   const phase = state.phase;
   useEffect(() => {
-    if (phase !== 'done' || !recheck) return;
+    if ((phase !== 'done' && phase !== 'ended') || !recheck) return;
     let live = true;
     recheck().then(
       (r) => live && setCheck(r),
@@ -152,7 +152,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
         <Text> </Text>
         {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
-        {state.phase === 'done' && recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
+        {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
         {check && 'error' in check ? <Text wrap="wrap">! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`</Text> : null}
         {check && 'report' in check ? <Text bold>{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}`}</Text> : null}
         {label ? (

@@ -442,7 +442,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
   const last = s.current + 1 >= s.setup.steps.length;
   if (acc) {
-    const ack: NewLogEvent = { kind: 'acknowledge', code: 'over-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
+    const ack: NewLogEvent = { kind: 'acknowledge', code: 'above-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
     return commit(s, { ...p, event: { ...p.event, note: `above the working limit; accepted by ${acc[1]}` } }, [ack], now);
   }
   if (/^vent$/i.test(text)) {

@@ -47,7 +47,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       await t.keys('q');
       expect(await exitStatus(t)).toBe(0);
       const l = readLog(log);
-      expect(l.acknowledgements.map((a) => [a.code, a.by])).toEqual([['over-working-limit', 'JD']]);
+      expect(l.acknowledgements.map((a) => [a.code, a.by])).toEqual([['above-working-limit', 'JD']]);
       expect(l.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 2800].map((x) => expect.closeTo(x, 9)));
       expect(l.closed).toBe(true);
       const rep = await checkFile(log, { trials: 0, seed: 1 });

@@ -164,7 +164,7 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     const s1 = read(initialState(setupFromHeader(h)), '10.01');
     const a = enter(type(read(s1, '2800'), 'accept JD'));
     expect(a.effects.map((e) => e.kind)).toEqual(['acknowledge', 'reading', 'close']);
-    expect(a.effects[0]).toMatchObject({ code: 'over-working-limit', step: 2, by: 'JD' });
+    expect(a.effects[0]).toMatchObject({ code: 'above-working-limit', step: 2, by: 'JD' });
     expect(a.phase).toBe('ended');
     expect(a.message).toMatch(/at or above its working limit/);
     const log = parseLog(logText(h, a.effects), 'x.jsonl');
