@@ -432,12 +432,15 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         else out(folderSummary(rows));
         if (rows.some((r) => 'error' in r)) throw new ExitSignal(EXIT.input);
         if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail')) throw new ExitSignal(EXIT.outOfTolerance);
+        // a reading past a tank's working limit or a gauge's range stands beside any verdict
+        if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger'))) throw new ExitSignal(EXIT.danger);
         return;
       }
       const report = await checkFile(target, opts);
       if (o.json) out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
       else out(checkToText(report));
       if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
+      if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
     });
 
   program

@@ -374,9 +374,6 @@ export function parseLog(text: string, file: string): ParsedLog {
     if (kind === 'reading') {
       const r = readingSchema.safeParse(obj);
       if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
-      if (start === undefined && header.in_tank && byStep.size === 0 && all.length === 0) {
-        // a top-up whose starting pressure was not read: the reader says so (check), not here
-      }
       if (byStep.has(r.data.step)) {
         fail({ code: 'schema', reason: `step ${r.data.step} has a second reading; a changed reading is logged as a "correction", a taken-back one as a "withdraw"` }, { file, line: lineNo });
       }

@@ -137,7 +137,8 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   });
   const done = new Set(log.readings.map((r) => r.step));
   const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
-  const warnings = [...log.warnings];
+  // the log's own record issues (torn tail, edited lines) are findings, listed once with the others
+  const warnings: string[] = [];
   const acked = new Set(log.acknowledgements.map((a) => a.code));
   const unacked = [...new Set((h.findings ?? []).filter((f) => f.severity === 'danger' && !acked.has(f.code)).map((f) => f.code))];
   if (unacked.length) warnings.push(`the plan of this batch had danger findings (${unacked.join(', ')}) that the log shows no acknowledgement of`);

@@ -22,6 +22,8 @@ export type LogFinding =
       readonly unit: PressureUnit;
       /** the reading was later corrected or withdrawn */
       readonly replaced: boolean;
+      /** an acknowledgement of this code and fill in the log: who accepted it at the manifold, and when */
+      readonly accepted?: { readonly by: string; readonly time: string };
     }
   | {
       readonly code: 'above-gauge-range';
@@ -33,6 +35,7 @@ export type LogFinding =
       readonly fullScalePa: number;
       readonly unit: PressureUnit;
       readonly replaced: boolean;
+      readonly accepted?: { readonly by: string; readonly time: string };
     }
   | { readonly code: 'text-number-mismatch'; readonly severity: LogFindingSeverity; readonly step: number | null; readonly line: number; readonly field: 'reading' | 'temperature'; readonly text: string; readonly textSI: number; readonly loggedSI: number; readonly siUnit: 'Pa' | 'K' }
   | { readonly code: 'text-unreadable'; readonly severity: LogFindingSeverity; readonly step: number | null; readonly line: number; readonly field: 'reading' | 'temperature'; readonly text: string }
@@ -42,6 +45,10 @@ export type LogFinding =
 
 const show = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
 
+function acceptedText(a: { by: string; time: string } | undefined): string {
+  return a ? ` (accepted at the manifold by ${a.by} at ${a.time}; it stands all the same)` : '';
+}
+
 export function describeLogFinding(f: LogFinding): string {
   const at = f.line ? `line ${f.line}${f.step ? `, fill ${f.step}` : ''}: ` : '';
   switch (f.code) {
@@ -50,9 +57,9 @@ export function describeLogFinding(f: LogFinding): string {
         f.replaced
           ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
           : '. The tank was taken past its working limit: have it and its fittings inspected under local practice before the batch is used'
-      }`;
+      }${acceptedText(f.accepted)}`;
     case 'above-gauge-range':
-      return `${at}gauge ${f.gauge} shows ${show(f.shownPa, f.unit)}, above its full scale of ${show(f.fullScalePa, f.unit)}: the reading is not trustworthy and the gauge head may be damaged${f.replaced ? ' (the reading was later corrected or withdrawn)' : '; check the gauge before it is used again'}`;
+      return `${at}gauge ${f.gauge} shows ${show(f.shownPa, f.unit)}, above its full scale of ${show(f.fullScalePa, f.unit)}: the reading is not trustworthy and the gauge head may be damaged${f.replaced ? ' (the reading was later corrected or withdrawn)' : '; check the gauge before it is used again'}${acceptedText(f.accepted)}`;
     case 'text-number-mismatch':
       return `${at}the ${f.field} as typed, "${f.text}", is ${Number(f.textSI.toPrecision(9))} ${f.siUnit}, but the line logs ${Number(f.loggedSI.toPrecision(9))} ${f.siUnit}: the line was changed, or written wrongly; the logged number is what the re-check uses`;
     case 'text-unreadable':
@@ -100,13 +107,17 @@ export function auditLog(log: ParsedLog): LogFinding[] {
     ...(log.start ? [{ ...log.start, step: null, replaced: false }] : []),
     ...log.allReadings.map((r) => ({ ...r, replaced: !inForce.has(r.line) })),
   ];
+  const acceptedOf = (code: string, step: number | null) => {
+    const a = log.acknowledgements.find((x) => x.code === code && x.step === step);
+    return a ? { accepted: { by: a.by, time: a.time } } : {};
+  };
   for (const r of logged) {
     const unit = unitOf(r.gauge);
     const g = gauges.get(r.gauge);
     const severity: LogFindingSeverity = r.replaced ? 'warning' : 'danger';
-    if (limitPa !== undefined && r.pressure_Pa > limitPa) out.push({ code: 'above-working-limit', severity, step: r.step, line: r.line, pressurePa: r.pressure_Pa, limitPa, unit, replaced: r.replaced });
+    if (limitPa !== undefined && r.pressure_Pa > limitPa) out.push({ code: 'above-working-limit', severity, step: r.step, line: r.line, pressurePa: r.pressure_Pa, limitPa, unit, replaced: r.replaced, ...acceptedOf('above-working-limit', r.step) });
     const shownPa = g?.reference === 'gauge' ? r.pressure_Pa - baroOf(r) : r.pressure_Pa;
-    if (g && shownPa > g.full_scale_Pa) out.push({ code: 'above-gauge-range', severity, step: r.step, line: r.line, gauge: g.id, shownPa, fullScalePa: g.full_scale_Pa, unit, replaced: r.replaced });
+    if (g && shownPa > g.full_scale_Pa) out.push({ code: 'above-gauge-range', severity, step: r.step, line: r.line, gauge: g.id, shownPa, fullScalePa: g.full_scale_Pa, unit, replaced: r.replaced, ...acceptedOf('above-gauge-range', r.step) });
     const p = textSI(r.reading, 'pressure', unit);
     if (p === undefined) out.push({ code: 'text-unreadable', severity: 'note', step: r.step, line: r.line, field: 'reading', text: r.reading });
     else {

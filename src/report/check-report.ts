@@ -1,7 +1,9 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
-import { fromPa, isPressureUnit } from '../io/quantity.js';
+import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { CheckReport } from '../io/check.js';
+import type { Amendment, InForceReading } from '../io/batch-log.js';
+import { describeLogFinding } from '../io/log-audit.js';
 import type { OutputStat } from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
@@ -29,6 +31,21 @@ export function checkToText(r: CheckReport): string {
   }
   out.push(...padTable(readRows, [true, false, false, true, true]));
   out.push('');
+  if (r.start) {
+    const u = unitOfReport(r);
+    out.push(
+      r.start.read
+        ? `Top-up      started from ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u} at ${(r.start.temperatureK - 273.15).toFixed(2)} degC already in the tank, read by ${r.start.by} at ${r.start.time}`
+        : `Top-up      started from the planned ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u} already in the tank (not read: see the findings)`,
+    );
+  }
+  if (r.barometer?.from === 'log') out.push(`Barometer   ${r.barometer.text} logged by ${r.barometer.by} at ${r.barometer.time}; used for the gauge-referenced readings`);
+  if (r.start || r.barometer?.from === 'log') out.push('');
+  if (r.amendments.length) {
+    out.push('Corrections and withdrawals (applied to the readings above; the originals stay in the log)');
+    for (const a of r.amendments) out.push(`  ${amendmentText(a)}`);
+    out.push('');
+  }
   const rows: string[][] = [['species', 'actual x', 'u (GUM)', '95 % interval (GUM, k=2)', 'u (MC)', 'MC vs GUM', 'design', 'deviation', 'tolerance', '']];
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
   const order = Object.entries(r.result.composition).sort((a, b) => b[1].value - a[1].value);
@@ -65,9 +82,37 @@ export function checkToText(r: CheckReport): string {
       : 'GUM law of propagation only (no Monte Carlo run; give --trials 200000 for one)',
   );
   for (const w of r.warnings) out.push(`warning: ${w}`);
+  if (r.findings.length) {
+    out.push('');
+    out.push('The record (the log itself)');
+    for (const f of r.findings) out.push(`  ${f.severity}: ${describeLogFinding(f)}`);
+  }
   out.push('');
   out.push(`Verdict     ${VERDICT_TEXT[r.verdict.verdict]}`);
+  for (const c of r.caveats) out.push(`            ${c}`);
   return out.join('\n') + '\n';
+}
+
+function unitOfReport(r: CheckReport): PressureUnit {
+  const u = r.readings[0]?.gauge.unit;
+  return u && isPressureUnit(u) ? u : 'Pa';
+}
+
+function readingText(x: InForceReading): string {
+  return `${x.reading} at ${x.temperature} (line ${x.line})`;
+}
+
+/** "line 7  fill 1  corrected by QX at T: 10.0128 Torr at 25 degC (line 2) -> 10.0140 Torr at 25 degC; reason: misread" */
+export function amendmentText(a: Amendment): string {
+  const who = `${a.by ?? '(not named)'} at ${a.time}`;
+  const why = a.reason ? `; reason: ${a.reason}` : '';
+  const old = a.old ? readingText(a.old) : 'nothing in force';
+  if (a.kind === 'withdraw') return `line ${a.line}  fill ${a.step}  withdrawn by ${who}: ${old}${why}`;
+  return `line ${a.line}  fill ${a.step}  corrected by ${who}: ${old} -> ${a.new ? `${a.new.reading} at ${a.new.temperature}` : '-'}${why}`;
+}
+
+function readingJson(x: InForceReading | null) {
+  return x ? { line: x.line, reading: x.reading, pressure_Pa: x.pressure_Pa, temperature: x.temperature, temperature_K: x.temperature_K, time: x.time } : null;
 }
 
 function statJson(st: OutputStat) {
@@ -101,6 +146,12 @@ export function checkToJson(r: CheckReport, version: string): object {
     verdict: r.verdict.verdict,
     incomplete: r.incomplete,
     warnings: r.warnings,
+    corrections: r.amendments.map((a) => ({ kind: a.kind, step: a.step, line: a.line, by: a.by, time: a.time, reason: a.reason, old: readingJson(a.old), new: readingJson(a.new) })),
+    record_findings: r.findings.map((f) => ({ severity: f.severity, code: f.code === 'record' ? f.issue.code : f.code, step: f.step, line: f.line, message: describeLogFinding(f) })),
+    verdict_caveats: r.caveats,
+    danger: r.findings.some((f) => f.severity === 'danger'),
+    barometer: r.barometer ? { pressure_Pa: r.barometer.pressurePa, u_Pa: r.barometer.uPa, from: r.barometer.from, text: r.barometer.text ?? null, by: r.barometer.by ?? null, time: r.barometer.time ?? null } : null,
+    start: r.start ? { pressure_Pa: r.start.pressurePa, temperature_K: r.start.temperatureK, composition: r.start.composition, read: r.start.read, by: r.start.by ?? null, time: r.start.time ?? null } : null,
     trials: r.result.trials,
     seed: r.result.seed,
   };
@@ -115,7 +166,8 @@ export function folderSummary(rows: readonly ({ file: string } & ({ report: Chec
     }
     const rep = r.report;
     const worst = rep.verdict.deviations.reduce((m, d) => Math.max(m, Math.abs(d.deviation) / d.tolerance), 0);
-    table.push([r.file, rep.id, rep.verdict.verdict, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
+    const danger = rep.findings.some((f) => f.severity === 'danger');
+    table.push([r.file, rep.id, danger ? `${rep.verdict.verdict}, DANGER` : rep.verdict.verdict, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
   }
   return padTable(table, [false, false, false, true, true]).join('\n') + '\n';
 }

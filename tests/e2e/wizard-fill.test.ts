@@ -1,9 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { checkFile } from '../../src/io/check.js';
-import { hasTmux, tmuxSession } from './tmux.js';
+import { hasTmux, sleep, tmuxSession } from './tmux.js';
+
+async function waitUntil(ok: () => boolean, ms: number): Promise<void> {
+  for (const end = Date.now() + ms; !ok(); await sleep(100)) if (Date.now() > end) throw new Error('timed out waiting');
+}
 
 // A real terminal: tmux runs the wizard, a design is typed, the guided fill starts, readings
 // are typed, the process is killed with SIGKILL mid-fill, the fill is resumed and finished,
@@ -37,9 +41,10 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
         s = await t.waitFor(new RegExp(`fill ${k + 1} of 3`));
       }
       await t.kill();
-      // a SIGKILL leaves the fill's lock beside the log (a stale lock, taken over on resume)
+      // the killed fill leaves its lock beside the log; the resume takes it over as stale
       const logs = readdirSync(join(dir, 'batches')).filter((f) => f.endsWith('.jsonl'));
       expect(logs).toHaveLength(1);
+      expect(readdirSync(join(dir, 'batches'))).toContain(`${logs[0]}.lock`);
       const log = join(dir, 'batches', logs[0]);
       expect(readFileSync(log, 'utf8').trim().split('\n').filter((l) => l.includes('"reading"'))).toHaveLength(2);
       t.start(`node ${BIN} fill --resume ${log}`);
@@ -51,6 +56,7 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       await t.keys('Enter');
       await t.waitFor(/all 3 fills logged/);
       await t.keys('q');
+      await waitUntil(() => !existsSync(`${log}.lock`), 10000);
       const rep = await checkFile(log, { trials: 0, seed: 1 });
       const TORR = 101325 / 760;
       rep.readings.forEach((r, i) => expect(Math.abs(r.pressurePa / TORR - typed[i])).toBeLessThan(1e-9));

@@ -127,7 +127,7 @@ describe('fuzz: malformed and random inputs', () => {
         const chars = [...text.slice(0, cut)];
         for (const [i, c] of flips) if (i < chars.length) chars[i] = c;
         const f = file('jsonl', chars.join(''));
-        judge(await runCli(['check', f, '--trials', '100000']), [0, 2, 4]);
+        judge(await runCli(['check', f, '--trials', '100000']), [0, 2, 3, 4]); // 3: a damaged number can read past the working limit
       }),
       { numRuns: Math.ceil(RUNS / 2) },
     );
