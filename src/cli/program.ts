@@ -29,6 +29,9 @@ import { sheetToHtml, sheetToMarkdown, sheetToText } from '../report/sheet-rende
 import { writeFileAtomic } from '../io/atomic.js';
 import { writePdf } from '../io/pdf.js';
 import { checkToJson, checkToText, folderSummary } from '../report/check-report.js';
+import { checkLog } from '../io/check.js';
+import { buildCertificateModel } from '../report/label-certificate.js';
+import { certificateToHtml, certificateToMarkdown, certificateToText } from '../report/label-render.js';
 import { mkdirSync, readdirSync, statSync } from 'node:fs';
 import { createLog, readLog } from '../io/batch-log.js';
 import { headerFromPlan } from '../io/check.js';
@@ -268,7 +271,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       labName: req.lab.name,
       orderRecommended: req.orderRecommended,
       version: VERSION,
-      experiments: served && req.sizing ? { count: served.experiments, sizedFor: req.sizedFor, reactor: req.sizing.reactor, perExperimentMol: served.sizing.perExperimentMol, minTankPa: served.sizing.minTankPa, margin: req.sizing.margin } : undefined,
+      experiments: served && req.sizing ? { count: served.experiments, sizedFor: req.sizedFor, reactor: req.sizing.reactor, perExperimentMol: served.sizing.perExperimentMol, minTankPa: served.sizing.minTankPa, margin: req.sizing.margin } : undefined,      barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined },
     };
     return { plan, req, unit, meta };
   };
@@ -292,7 +295,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       const { plan, req, unit } = planFrom(recipeFile, o);
       const h = req.tankInfo?.heightM;
       const mixing = h ? mixingEstimate(plan.composition, plan.temperatureK, plan.final.pressurePa, h, Boolean(req.tankInfo?.stirred)) : undefined;
-      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing });
+      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing, barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined } });
       if (o.format === 'pdf') {
         if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' }, { field: '--output' });
         await writePdf(sheetToHtml(model), o.output, Boolean(o.force));
@@ -441,6 +444,43 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       else out(checkToText(report));
       if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
       if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
+    });
+
+  program
+    .command('label')
+    .description('as-filled tank label and one-page batch certificate from a batch log (the composition and U of `check`, never the design)')
+    .argument('<log>', 'batch log (.jsonl)')
+    .addOption(new Option('--format <format>', 'output format (txt: the label and the certificate as text)').choices(['txt', 'md', 'html', 'pdf']).default('txt'))
+    .option('-o, --output <file>', 'write to this file (required for pdf); stdout otherwise')
+    .option('--force', 'overwrite an existing output file')
+    .addOption(new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'))
+    .option('--trials <n>', 'Monte Carlo trials, 100000 to 10000000 (default 200000, as check)')
+    .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
+    .action(async (target: string, o: { format: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; trials?: string; seed: string }) => {
+      if (isDirectory(target) || !/\.jsonl$/i.test(target)) throw new ProblemError({ code: 'file-unreadable', reason: 'a label is made from one batch log (.jsonl) written by `mixwright fill`; re-check CSV readings with `mixwright check`' }, { file: target });
+      const trials = o.trials === undefined ? 200000 : numberOption(o.trials, '--trials');
+      if (o.trials !== undefined && !(Number.isInteger(trials) && trials >= 1e5 && trials <= MAX_TRIALS)) {
+        throw new ProblemError({ code: 'out-of-range', what: 'Monte Carlo trials', value: trials, allowed: `a whole number from 100000 to ${MAX_TRIALS}` }, { field: '--trials' });
+      }
+      const log = readLog(target);
+      // the same computation as `check` of this log, so the label and `check --json` agree
+      const report = await checkLog(log, { trials, seed: numberOption(o.seed, '--seed') });
+      const model = buildCertificateModel(report, log, { version: VERSION, paper: o.paper, generated: new Date().toISOString().slice(0, 16).replace('T', ' ') + ' UTC' });
+      if (o.format === 'pdf') {
+        if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o label.pdf' }, { field: '--output' });
+        await writePdf(certificateToHtml(model), o.output, Boolean(o.force));
+        out(`wrote ${o.output}\n`);
+      } else {
+        const text = o.format === 'md' ? certificateToMarkdown(model) : o.format === 'html' ? certificateToHtml(model) : certificateToText(model);
+        if (o.output) {
+          writeFileAtomic(o.output, text, Boolean(o.force));
+          out(`wrote ${o.output}\n`);
+        } else out(text);
+      }
+      if (model.label.status === 'fail' || model.label.status === 'incomplete') {
+        err(`mixwright: ${target}: the re-check FAILED; the label says so and gives the as-filled composition, not the design\n`);
+        throw new ExitSignal(EXIT.outOfTolerance);
+      }
     });
 
   program

@@ -49,6 +49,66 @@ function px(fuel: number, oxygen: number): [number, number] {
 
 const f1 = (v: number) => v.toFixed(1);
 
+/** a round tick step for an axis of length `span` with about `n` intervals: 1, 2, 2.5 or 5 times a power of ten */
+export function niceStep(span: number, n = 4): number {
+  const raw = span / n;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  for (const m of [1, 2, 2.5, 5, 10]) if (m * mag >= raw * (1 - 1e-9)) return m * mag;
+  return 10 * mag;
+}
+
+/** a percentage tick label without float noise: 0.025 -> "2.5" */
+const pctTick = (v: number) => String(Number((v * 100).toFixed(6)));
+
+type Box = { x0: number; y0: number; x1: number; y1: number };
+/** boxes closer than this (px) count as touching: "2" and "3" side by side would read as 23 */
+const GAP = 4;
+const overlaps = (a: Box, b: Box) => a.x0 < b.x1 + GAP && b.x0 < a.x1 + GAP && a.y0 < b.y1 + GAP && b.y0 < a.y1 + GAP;
+
+/** points closer than this (px) share one label, "2,3": separate labels would sit over each other's points */
+const CLUSTER_PX = 10;
+
+/**
+ * Number labels of the tank states. Points within CLUSTER_PX of an earlier one share its
+ * label ("2,3", text empty for the later ones); each label goes to the first of a few
+ * spots around its point that overlaps neither a label already placed nor the reserved
+ * boxes (axis and vertex labels), so the apex and near-coincident states stay readable.
+ */
+export function placeNumbers(points: readonly { label: string; x: number; y: number }[], reserved: readonly Box[]): { x: number; y: number; text: string }[] {
+  const owner = points.map((p, i) => points.findIndex((q, j) => j <= i && Math.hypot(q.x - p.x, q.y - p.y) < CLUSTER_PX));
+  const text = points.map((_, i) => (owner[i] === i ? points.filter((_, j) => owner[j] === i).map((q) => q.label).join(',') : ''));
+  const placed: Box[] = [...reserved];
+  const spots: [number, number][] = [
+    [7, -6],
+    [7, 15],
+    [-7, -6],
+    [-7, 15],
+    [11, 5],
+    [-11, 5],
+    [7, -19],
+    [-7, -19],
+    [7, 28],
+  ];
+  return points.map((p, i) => {
+    if (!text[i]) return { x: p.x, y: p.y, text: '' };
+    const w = 8 * text[i].length;
+    const boxAt = (dx: number, dy: number): Box => {
+      const x0 = dx >= 0 ? p.x + dx : p.x + dx - w;
+      return { x0, y0: p.y + dy - 11, x1: x0 + w, y1: p.y + dy + 2 };
+    };
+    let best = spots[0];
+    for (const sp of spots) {
+      if (!placed.some((b) => overlaps(b, boxAt(sp[0], sp[1])))) {
+        best = sp;
+        break;
+      }
+    }
+    const b = boxAt(best[0], best[1]);
+    placed.push(b);
+    return { x: b.x0, y: p.y + best[1], text: text[i] };
+  });
+}
+
 export function diagramSvg(d: DiagramData, title: string): string {
   const pts = (list: readonly [number, number][]) => list.map(([f, o]) => px(f, o).map(f1).join(',')).join(' ');
   const tri = pts([
@@ -71,17 +131,38 @@ export function diagramSvg(d: DiagramData, title: string): string {
   }
   const path = d.path.map((p) => px(p.fuel, p.oxygen));
   const pathLine = path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : '';
+  // vertex labels: fuel left of the apex (the state of a pure first fill sits on it); inert and O2 on a second row below the O2 scale
+  const vertexBoxes: Box[] = [
+    { x0: fx - 56, y0: fy - 8, x1: fx - 8, y1: fy + 8 },
+    { x0: ix - 4, y0: iy + 4, x1: ix + 90, y1: iy + 32 },
+    { x0: M + SCALE - 30, y0: iy + 4, x1: M + SCALE + 6, y1: iy + 32 },
+    { x0: ax - 12, y0: iy + 4, x1: ax + 12, y1: iy + 18 },
+  ];
+  const spots = placeNumbers(
+    d.path.map((p, i) => ({ label: p.label, x: path[i][0], y: path[i][1] })),
+    vertexBoxes,
+  );
   const marks = d.path
-    .map((p, i) => {
+    .map((_, i) => {
       const [x, y] = path[i];
-      return `<circle cx="${f1(x)}" cy="${f1(y)}" r="4.5" class="state"/><text x="${f1(x + 7)}" y="${f1(y - 6)}" class="num">${p.label}</text>`;
+      return `<circle cx="${f1(x)}" cy="${f1(y)}" r="4.5" class="state"/>${spots[i].text ? `<text x="${f1(spots[i].x)}" y="${f1(spots[i].y)}" class="num">${spots[i].text}</text>` : ''}`;
     })
     .join('');
+  // the scale: fuel fraction at the left ends of its grid lines, O2 fraction along the base
+  const scale: string[] = [];
+  for (const t of [0.2, 0.4, 0.6, 0.8]) {
+    const [lx0, ly0] = px(t, 0);
+    scale.push(`<text x="${f1(lx0 - 5)}" y="${f1(ly0 + 4)}" class="tick" text-anchor="end">${pctTick(t)}</text>`);
+    if (t >= 0.4) {
+      const [bx, by] = px(0, t);
+      scale.push(`<line x1="${f1(bx)}" y1="${f1(by)}" x2="${f1(bx)}" y2="${f1(by + 4)}" class="edge"/><text x="${f1(bx)}" y="${f1(by + 15)}" class="tick" text-anchor="middle">${pctTick(t)}</text>`);
+    }
+  }
   const [lx, ly] = px(d.lfl, 0.21 * (1 - d.lfl));
   const [ux, uy] = px(d.ufl, 0.21 * (1 - d.ufl));
   return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="${title}">
 <defs><pattern id="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
-<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:12px sans-serif}</style>
+<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:12px sans-serif}.tick{font:10px sans-serif}</style>
 <title>${title}</title>
 ${grid.join('')}
 <polygon points="${pts(d.envelope)}" class="zone"/>
@@ -90,10 +171,11 @@ ${grid.join('')}
 <line x1="${f1(ix)}" y1="${f1(iy)}" x2="${f1(sx)}" y2="${f1(sy)}" class="stoich"/>
 <circle cx="${f1(lx)}" cy="${f1(ly)}" r="2.5"/><circle cx="${f1(ux)}" cy="${f1(uy)}" r="2.5"/>
 ${pathLine}${marks}
-<text x="${f1(ix - 4)}" y="${f1(iy + 18)}" class="lab" text-anchor="start">inert (N2-eq.)</text>
-<text x="${f1(M + SCALE + 4)}" y="${f1(iy + 18)}" class="lab" text-anchor="end">O2</text>
-<text x="${f1(fx)}" y="${f1(fy - 8)}" class="lab" text-anchor="middle">fuel</text>
-<text x="${f1(ax)}" y="${f1(ay + 16)}" class="lab" text-anchor="middle">air</text>
+${scale.join('')}
+<text x="${f1(ix - 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="start">inert (N2-eq.)</text>
+<text x="${f1(M + SCALE + 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="end">O2, %</text>
+<text x="${f1(fx - 10)}" y="${f1(fy + 4)}" class="lab" text-anchor="end">fuel, %</text>
+<text x="${f1(ax)}" y="${f1(ay + 15)}" class="lab" text-anchor="middle">air</text>
 </svg>`;
 }
 
@@ -122,17 +204,28 @@ export function detailSvg(d: DiagramData, title: string): string {
   const w = 440;
   const h = 300;
   const m = { l: 56, r: 14, t: 14, b: 40 };
-  const { oMax, fMax } = detailRange(d);
+  const r = detailRange(d);
+  // round ticks: the axes end on a whole step of 1, 2, 2.5 or 5 times a power of ten
+  const oStep = niceStep(r.oMax);
+  const fStep = niceStep(r.fMax);
+  const oMax = Math.min(1, Math.ceil(r.oMax / oStep - 1e-9) * oStep);
+  const fMax = Math.min(1, Math.ceil(r.fMax / fStep - 1e-9) * fStep);
   const X = (o: number) => m.l + (o / oMax) * (w - m.l - m.r);
   const Y = (f: number) => h - m.b - (f / fMax) * (h - m.t - m.b);
   const poly = d.envelope.map(([f, o]) => `${f1(X(o))},${f1(Y(f))}`).join(' ');
   const path = d.path.map((p) => [X(p.oxygen), Y(p.fuel)] as const);
+  const spots = placeNumbers(
+    d.path.map((p, i) => ({ label: p.label, x: path[i][0], y: path[i][1] })),
+    [],
+  );
   const ticks: string[] = [];
-  for (let k = 0; k <= 4; k++) {
-    const o = (oMax * k) / 4;
-    const f = (fMax * k) / 4;
-    ticks.push(`<text x="${f1(X(o))}" y="${h - m.b + 16}" class="lab" text-anchor="middle">${(o * 100).toPrecision(2)}</text>`);
-    ticks.push(`<text x="${m.l - 6}" y="${f1(Y(f) + 4)}" class="lab" text-anchor="end">${(f * 100).toPrecision(2)}</text>`);
+  for (let k = 0; k * oStep <= oMax + 1e-12; k++) {
+    const o = k * oStep;
+    ticks.push(`<line x1="${f1(X(o))}" y1="${h - m.b}" x2="${f1(X(o))}" y2="${h - m.b + 4}" class="edge"/><text x="${f1(X(o))}" y="${h - m.b + 16}" class="lab" text-anchor="middle">${pctTick(o)}</text>`);
+  }
+  for (let k = 0; k * fStep <= fMax + 1e-12; k++) {
+    const f = k * fStep;
+    ticks.push(`<line x1="${m.l - 4}" y1="${f1(Y(f))}" x2="${m.l}" y2="${f1(Y(f))}" class="edge"/><text x="${m.l - 6}" y="${f1(Y(f) + 4)}" class="lab" text-anchor="end">${pctTick(f)}</text>`);
   }
   const airTop = Math.min(fMax, 1 - oMax / 0.21);
   const air = oMax >= 0.2 ? `<line x1="${f1(X(0.21))}" y1="${f1(Y(0))}" x2="${f1(X(0.21 * (1 - airTop)))}" y2="${f1(Y(airTop))}" class="air"/>` : '';
@@ -145,7 +238,7 @@ export function detailSvg(d: DiagramData, title: string): string {
 <g clip-path="url(#plotarea)"><polygon points="${poly}" class="zone"/>${air}${stoich}</g>
 <rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}" class="edge"/>
 <g clip-path="url(#plotarea)">${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
-${d.path.map((p, i) => `<circle cx="${f1(path[i][0])}" cy="${f1(path[i][1])}" r="4.5" class="state"/><text x="${f1(path[i][0] + 7)}" y="${f1(path[i][1] - 6)}" class="num">${p.label}</text>`).join('')}</g>
+${d.path.map((_, i) => `<circle cx="${f1(path[i][0])}" cy="${f1(path[i][1])}" r="4.5" class="state"/>${spots[i].text ? `<text x="${f1(spots[i].x)}" y="${f1(spots[i].y)}" class="num">${spots[i].text}</text>` : ''}`).join('')}</g>
 ${outside(d, oMax, fMax)}
 ${ticks.join('')}
 <text x="${f1((m.l + w - m.r) / 2)}" y="${h - 6}" class="lab" text-anchor="middle">O2, % (N2-equivalent basis)</text>

@@ -12,6 +12,8 @@ export interface PlanMeta {
   readonly version: string;
   /** how many experiments the batch serves, when a reactor is known */
   readonly experiments?: { readonly count: number; readonly sizedFor?: number; readonly reactor: ReactorSpec; readonly perExperimentMol: number; readonly minTankPa: number; readonly margin: number };
+  /** the barometric pressure gauge-referenced targets assume, and whether it was given (--barometer) or is the lab profile's */
+  readonly barometer?: { readonly pressurePa: number; readonly uncertaintyPa: number; readonly given: boolean };
 }
 
 export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Torr'): object {
@@ -49,6 +51,14 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     },
     order: { fills: plan.steps.map((s) => s.species), reason: plan.orderReason, recommended: meta.orderRecommended },
     tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
+    barometer: meta.barometer
+      ? {
+          pressure_Pa: meta.barometer.pressurePa,
+          u_Pa: meta.barometer.uncertaintyPa,
+          source: meta.barometer.given ? 'option' : 'lab profile',
+          gauge_referenced_steps: plan.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.index),
+        }
+      : null,
     experiments: meta.experiments
       ? {
           count: meta.experiments.count,

@@ -49,6 +49,12 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       `Serves      ${ex.count} experiments in ${ex.reactor.id} (${fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4)} L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank is used down to ${P(ex.minTankPa, 5)})${ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : ''}`,
     );
   }
+  const refSteps = plan.steps.filter((s) => s.gauge?.reference === 'gauge');
+  if (refSteps.length && meta.barometer) {
+    out.push(
+      `Barometer   ${pressure(meta.barometer.pressurePa, 'Torr', 5)} assumed by the gauge-referenced reading${refSteps.length > 1 ? 's' : ''} of fill ${refSteps.map((s) => s.index).join(', ')} (${meta.barometer.given ? '--barometer' : 'lab profile value, not today\'s: give --barometer'}); for another barometer B, stop at target + (${pressure(meta.barometer.pressurePa, 'Torr', 5)} - B) in the gauge's unit`,
+    );
+  }
   out.push(`Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} % relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`);
   out.push('');
 

@@ -4,7 +4,7 @@
  * before and after, one row per fill with the target in the gauge's own unit and its
  * band, blanks to write in, the findings and the caution, and the diagram.
  */
-import { describeFinding, fillLabel, STANDING_CAUTION, type Finding, type MixingEstimate, type Plan, type Severity } from '../core/index.js';
+import { blendLimits, describeFinding, diagramPoint, fillLabel, STANDING_CAUTION, type Finding, type MixingEstimate, type Plan, type Severity } from '../core/index.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { RecipeFile } from '../io/recipe.js';
@@ -20,6 +20,8 @@ export interface SheetRow {
   readonly target: string;
   readonly low: string;
   readonly high: string;
+  /** the band as printed: "low - high", or its half-width where the gauge's display cannot show it */
+  readonly band: string;
   readonly unit: string;
   readonly reference: 'absolute' | 'gauge';
   readonly absoluteTarget: string;
@@ -43,6 +45,8 @@ export interface SheetModel {
   readonly caution: string;
   readonly diagram?: { readonly triangle: string; readonly detail: string; readonly legend: string };
   readonly hasDanger: boolean;
+  /** where a target is read on a gauge-referenced sensor: the barometric pressure it assumes and how to correct it */
+  readonly barometer?: readonly string[];
 }
 
 export interface SheetMeta {
@@ -55,6 +59,65 @@ export interface SheetMeta {
   readonly paper: 'a4' | 'letter';
   /** the diffusion estimate of `mixwright ready`, when the tank height is known */
   readonly mixing?: MixingEstimate;
+  /** the barometric pressure the gauge-referenced targets assume, and whether it was given for today (--barometer) */
+  readonly barometer?: { readonly pressurePa: number; readonly uncertaintyPa: number; readonly given: boolean };
+}
+
+/** a title for a design given on the command line (no recipe title): its gases, phi and dilution, tank and pressure */
+export function designTitle(plan: Plan, unit: PressureUnit): string {
+  const d = plan.design;
+  const names = (g: Record<string, number>) => Object.keys(g).join('+');
+  const num = (v: number) => String(Number(v.toPrecision(3)));
+  const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${plan.tank.id}`;
+  if (d.phi !== undefined && Object.keys(d.groups.fuel).length && Object.keys(d.groups.oxidizer).length) {
+    const dil = Object.keys(d.groups.diluent).length ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}` : '';
+    return `${names(d.groups.fuel)}/${names(d.groups.oxidizer)} phi ${num(d.phi)}${dil}, ${at}`;
+  }
+  const parts = Object.entries(d.composition)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, v]) => `${k} ${num(v * 100)} %`);
+  return `${parts.join(', ')}, ${at}`;
+}
+
+/** the batch-id stem of a command-line design: its gases, e.g. "ch4-o2-ar" */
+function designSlug(plan: Plan): string {
+  return Object.keys(plan.design.composition)
+    .filter((k) => plan.design.composition[k] > 0)
+    .join('-')
+    .toLowerCase()
+    .replace(/[^a-z0-9.-]+/g, '-');
+}
+
+/** the limits the diagram shows are the listed ones corrected for the tank's state; say so, with the listed values */
+function limitsNote(plan: Plan, lfl: number, ufl: number): string {
+  const fuel = diagramPoint(plan.steps[plan.steps.length - 1].compositionAfter).fuelBlend;
+  const base = blendLimits(fuel, 298.15, 101325);
+  const pct = (v: number) => `${(v * 100).toPrecision(3)} %`;
+  const lflMoved = Math.abs(lfl - base.lfl) > 1e-9;
+  const uflMoved = Math.abs(ufl - base.ufl) > 1e-9;
+  if (!lflMoved && !uflMoved) return '';
+  const why: string[] = [];
+  if (plan.temperatureK > 298.15) why.push(`widened for ${(plan.temperatureK - 273.15).toFixed(1)} degC (modified Burgess-Wheeler)`);
+  if (plan.final.pressurePa > 101325) why.push(`UFL raised for ${pressure(plan.final.pressurePa, 'Torr', 5)} (Zabetakis)`);
+  return ` Limits shown pressure/temperature-corrected: ${why.join('; ')}; listed values at 25 degC and 1 atm: LFL ${pct(base.lfl)}, UFL ${pct(base.ufl)}.`;
+}
+
+function barometerLines(plan: Plan, meta: SheetMeta): string[] | undefined {
+  const refSteps = plan.steps.filter((s) => s.gauge?.reference === 'gauge');
+  if (!refSteps.length || !meta.barometer) return undefined;
+  const b = meta.barometer;
+  const g = refSteps[0].gauge!;
+  const gu: PressureUnit = isPressureUnit(g.unit) ? g.unit : meta.unit;
+  const perTorr = fromPa(101325 / 760, gu);
+  const dec = Math.max(decimalsFor(fromPa(g.resolutionPa, gu)), 0);
+  const ex = refSteps[0];
+  const exTarget = fromPa(ex.gauge!.readingPa, gu);
+  const today = b.pressurePa - 10 * (101325 / 760);
+  return [
+    `The gauge-referenced targets (fill ${refSteps.map((s) => s.index).join(', ')} on ${[...new Set(refSteps.map((s) => s.gauge!.id))].join(', ')}) assume a barometric pressure of ${pressure(b.pressurePa, 'Torr', 5)} (${b.given ? 'given for this sheet' : 'the lab profile value, not today\'s'}; u ${pressure(b.uncertaintyPa, 'Torr', 2)}).`,
+    `Read the barometer before the first fill: ________ Torr. Target to stop at today = printed target + (${pressure(b.pressurePa, 'Torr', 5)} - today's barometer), in the gauge's unit (1 Torr = ${fixedSig(perTorr, 5)} ${gu}).`,
+    `Example: fill ${ex.index} printed ${exTarget.toFixed(dec)} ${gu}; with today's barometer 10 Torr lower (${pressure(today, 'Torr', 5)}) stop at ${(exTarget + 10 * perTorr).toFixed(dec)} ${gu}. Or re-print the sheet with --barometer.`,
+  ];
 }
 
 const SEVERITY_ORDER: Severity[] = ['danger', 'warning', 'note'];
@@ -81,16 +144,35 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   const composition: [string, string][] = Object.entries(d.composition)
     .sort((a, b) => b[1] - a[1])
     .map(([k, v]) => [k, fixedSig(v, 6)]);
-  const firstGauge = plan.steps.find((s) => s.gauge)?.gauge;
-  const preChecks = [
-    'Leak-up test of tank and manifold under vacuum: rise ________ per ________ min (limit from your procedure)',
-    'Base vacuum before the first fill: ________',
-    `Gauge zeros checked (${[...new Set(plan.steps.map((s) => s.gauge?.id).filter(Boolean))].join(', ')}), heads at temperature`,
-    `Barometer (for gauge-referenced sensors): ________${firstGauge ? '' : ''}`,
+  const gaugeIds = [...new Set(plan.steps.map((s) => s.gauge?.id).filter(Boolean))].join(', ');
+  const baroCheck = plan.steps.some((s) => s.gauge?.reference === 'gauge')
+    ? 'Barometer read before the first fill: ________ Torr (the gauge-referenced targets assume the value under the fills; correct them as said there)'
+    : 'Barometer: ________ (every target here is on an absolute gauge; the value is for the record)';
+  const common = [
+    `Gauge zeros checked (${gaugeIds}), heads at temperature`,
+    baroCheck,
     'Valve line-up checked: only the cylinder of the current fill open to the manifold; vent and pump valves as the procedure says',
     'Before each fill: purge/evacuate the line, fill it from the cylinder above the tank pressure, then open the tank valve slowly',
     'Cylinders secured; regulators and lines cleaned for the gas they carry (oxygen service for oxidizers)',
   ];
+  const start = plan.initial;
+  const first = plan.steps[0];
+  // a top-up: the tank holds gas, so no leak-up under vacuum; the starting pressure is read, logged and confirmed first
+  const preChecks = start
+    ? [
+        'Gas already in the tank (top-up): do NOT evacuate the tank. Leak-check the manifold and line up to the closed tank valve: rise ________ per ________ min (limit from your procedure)',
+        'Line evacuated before the tank valve is opened; line vacuum: ________',
+        `Starting pressure, read before any fill on ${first.gauge?.id ?? 'a gauge that reads it'}: ________ at ________ degC, time ______, initials ____. The targets assume ${P(start.pressurePa)} absolute of ${Object.entries(start.composition)
+          .sort((a, b) => b[1] - a[1])
+          .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
+          .join(', ')}; if the reading differs by more than the band of fill 1 (+-${pressure(first.bandPa, meta.unit, 2)}), stop and re-plan from the reading (recipe in_tank.pressure)`,
+        ...common,
+      ]
+    : [
+        'Leak-up test of tank and manifold under vacuum: rise ________ per ________ min (limit from your procedure)',
+        'Base vacuum before the first fill: ________',
+        ...common,
+      ];
   const rows: SheetRow[] = plan.steps.map((s) => {
     const gu: PressureUnit = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : meta.unit;
     const dec = s.gauge ? Math.max(decimalsFor(fromPa(s.gauge.resolutionPa, gu)), 0) : 3;
@@ -105,6 +187,10 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
       target: fromPa(reading, gu).toFixed(dec),
       low: fromPa(reading - band, gu).toFixed(dec),
       high: fromPa(reading + band, gu).toFixed(dec),
+      band:
+        fromPa(reading - band, gu).toFixed(dec) === fromPa(reading + band, gu).toFixed(dec)
+          ? `+-${fixedSig(fromPa(band, gu), 2)}: finer than the display step ${fromPa(s.gauge?.resolutionPa ?? 0, gu).toFixed(dec)}`
+          : `${fromPa(reading - band, gu).toFixed(dec)} - ${fromPa(reading + band, gu).toFixed(dec)}`,
       unit: gu,
       reference: s.gauge?.reference ?? 'absolute',
       absoluteTarget: P(s.targetPa),
@@ -117,14 +203,18 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     'Final reading after mixing: ________ at ________ degC',
   ];
   const today = new Date().toISOString().slice(0, 10);
-  const batchId = meta.batchId ?? `${meta.recipe.id}-${today}`;
+  // a design from the command line has no recipe id of its own ("inline"): name it by its gases
+  const inline = meta.recipe.id === 'inline' && !meta.recipe.title;
+  const batchId = meta.batchId ?? `${inline ? designSlug(plan) : meta.recipe.id}-${today}`;
+  // the design is not the tank: the label here is marked so, and the as-filled one comes from the log
   const label = [
-    `${batchId}`,
-    `${Object.entries(d.composition)
+    `${batchId} - DESIGN, NOT YET CONFIRMED: after the fill, label the tank with \`mixwright label\` of its log`,
+    `design: ${Object.entries(d.composition)
       .sort((a, b) => b[1] - a[1])
       .map(([k, v]) => `${k} ${(v * 100).toPrecision(4)} %`)
       .join(', ')}`,
     `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${P(plan.final.pressurePa)} abs; filled ________ by ________`,
+    're-check verdict: pass / pass not proven / FAIL (circle one) ________',
     plan.findings.some((f) => f.code === 'flammable-mixture') ? 'FLAMMABLE GAS MIXTURE' : 'check the findings before use',
   ];
   const stepOf = (f: Finding) => (f.step ? `fill ${f.step}` : 'batch');
@@ -136,12 +226,12 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   const diagram = dd && {
     triangle: diagramSvg(dd, 'fuel / O2 / inert diagram with the flammable zone and the fill path'),
     detail: detailSvg(dd, 'detail near the inert corner'),
-    legend: `Hatched: flammable zone of ${Object.keys(d.groups.fuel).join('/') || 'the fuel'} (LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} % in air, inerts as N2-equivalent). Dashed: air line; dotted: stoichiometric line. Numbered points: the tank after each fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
+    legend: `Hatched: flammable zone of ${Object.keys(d.groups.fuel).join('/') || 'the fuel'} (LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} % in air, inerts as N2-equivalent).${limitsNote(plan, dd.lfl, dd.ufl)} Dashed: air line; dotted: stoichiometric line. Numbered points: the tank after each fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
   };
   return {
-    title: meta.recipe.title ?? meta.recipe.id,
+    title: meta.recipe.title ?? (inline ? designTitle(plan, meta.unit) : meta.recipe.id),
     batchId,
-    recipeId: meta.recipe.id,
+    recipeId: inline ? 'none (design from the command line)' : meta.recipe.id,
     labName: meta.labName,
     version: meta.version,
     paper: meta.paper,
@@ -155,5 +245,6 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     caution: STANDING_CAUTION,
     diagram,
     hasDanger: plan.findings.some((f) => f.severity === 'danger'),
+    barometer: barometerLines(plan, meta),
   };
 }

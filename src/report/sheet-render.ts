@@ -10,7 +10,10 @@ const CSS = (paper: 'a4' | 'letter') => `
 * { box-sizing: border-box; }
 body { font-family: "Liberation Sans", Arial, Helvetica, sans-serif; font-size: 10.5pt; color: #000; margin: 0; }
 h1 { font-size: 16pt; margin: 0 0 2mm 0; }
-h2 { font-size: 11.5pt; margin: 4mm 0 1.5mm 0; border-bottom: 1px solid #000; }
+h2 { font-size: 11.5pt; margin: 4mm 0 1.5mm 0; border-bottom: 1px solid #000; break-after: avoid; page-break-after: avoid; }
+.block { break-inside: avoid; page-break-inside: avoid; }
+.baro { border: 1px solid #000; padding: 1.5mm 3mm; margin-top: 2mm; font-size: 9.5pt; break-inside: avoid; page-break-inside: avoid; }
+.baro p { margin: 0.6mm 0; }
 .meta { display: flex; gap: 6mm; font-size: 10pt; margin-bottom: 2mm; }
 .field { flex: 1; border-bottom: 1px solid #000; min-height: 6mm; }
 .danger { border: 2.5px solid #000; padding: 2mm 3mm; font-weight: bold; margin: 2mm 0; }
@@ -29,8 +32,8 @@ tr.before td { border-bottom: none; font-weight: bold; font-size: 9.5pt; }
 .unit { font-size: 9pt; font-weight: normal; }
 ul.checks { list-style: none; padding-left: 0; margin: 0; }
 ul.checks li { margin: 0.8mm 0; }
-.label { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 11pt; }
-.findings li { margin: 0.6mm 0; }
+.label { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 11pt; break-inside: avoid; page-break-inside: avoid; }
+.findings li { margin: 0.6mm 0; break-inside: avoid; page-break-inside: avoid; }
 .sev { font-weight: bold; text-transform: uppercase; }
 .caution { font-size: 9pt; border-top: 1px solid #000; margin-top: 3mm; padding-top: 1.5mm; }
 .figures { break-inside: avoid; page-break-inside: avoid; }
@@ -46,7 +49,7 @@ export function sheetToHtml(m: SheetModel): string {
   const steps = m.rows
     .map((r) => {
       const before = r.before.length ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>` : '';
-      return `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.low)} &ndash; ${esc(r.high)}</td><td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`;
+      return `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.band).replace(' - ', ' &ndash; ')}</td><td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`;
     })
     .join('\n');
   const findings = m.findings.length
@@ -63,19 +66,20 @@ export function sheetToHtml(m: SheetModel): string {
 <div class="meta"><div class="field">Date:</div><div class="field">Operator:</div><div class="field">Checked by:</div></div>
 ${m.hasDanger ? '<div class="danger">DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.</div>' : ''}
 <div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole fraction)</h2>${kv(m.composition)}</div></div>
-<h2>Before filling</h2>
-<ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>
-<h2>Fills (target = reading to stop at, on that gauge)</h2>
+<section class="block"><h2>Before filling</h2>
+<ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul></section>
+<section class="block"><h2>Fills (target = reading to stop at, on that gauge)</h2>
 <table class="steps">
 <tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th><th>actual reading</th><th>time</th><th>init.</th><th>done</th></tr>
 ${steps}
 </table>
-<h2>After filling</h2>
-<ul class="checks">${m.postChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>
-<h2>Tank label</h2>
-<div class="label">${m.label.map(esc).join('<br>')}</div>
-<h2>Findings</h2>
-${findings}
+${m.barometer ? `<div class="baro"><b>Barometer.</b> ${m.barometer.map((l) => `<p>${esc(l)}</p>`).join('')}</div>` : ''}</section>
+<section class="block"><h2>After filling</h2>
+<ul class="checks">${m.postChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul></section>
+<section class="block"><h2>Tank label</h2>
+<div class="label">${m.label.map(esc).join('<br>')}</div></section>
+<section class="findings-block"><h2>Findings</h2>
+${findings}</section>
 <p class="caution"><b>Caution.</b> ${esc(m.caution)}</p>
 <footer>mixwright ${esc(m.version)} &middot; recipe ${esc(m.recipeId)}</footer>
 ${figures}
@@ -93,8 +97,9 @@ export function sheetToMarkdown(m: SheetModel): string {
   out.push('## Fills (target = reading to stop at, on that gauge)', '', '| # | gas / cylinder | gauge | target | band | actual reading | time | init. | done |', '|---:|---|---|---:|---|---|---|---|---|');
   for (const r of m.rows) {
     for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
-    out.push(`| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} | **${r.target} ${r.unit}** | ${r.low} – ${r.high} | | | | [ ] |`);
+    out.push(`| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} | **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ')} | | | | [ ] |`);
   }
+  if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
   out.push('', '## After filling', '', ...m.postChecks.map((c) => `- [ ] ${c}`), '');
   out.push('## Tank label', '', '```', ...m.label, '```', '');
   out.push('## Findings', '');
@@ -118,13 +123,14 @@ export function sheetToText(m: SheetModel): string {
   for (const c of m.preChecks) out.push(`  [ ] ${c}`);
   out.push('', 'FILLS (target = reading to stop at, on that gauge)');
   const rows: string[][] = [['#', 'gas', 'cylinder', 'gauge', 'target', 'band', 'actual', 'time', 'init', 'done']];
-  for (const r of m.rows) rows.push([String(r.n), r.fill, r.source, r.gauge + (r.reference === 'gauge' ? ' (g)' : ''), `${r.target} ${r.unit}`, `${r.low}-${r.high}`, '__________', '_____', '____', '[ ]']);
+  for (const r of m.rows) rows.push([String(r.n), r.fill, r.source, r.gauge + (r.reference === 'gauge' ? ' (g)' : ''), `${r.target} ${r.unit}`, r.band.replace(' - ', '-'), '__________', '_____', '____', '[ ]']);
   const table = padTable(rows, [true, false, false, false, true, true, false, false, false, false]);
   out.push(`  ${table[0]}`);
   m.rows.forEach((r, i) => {
     for (const b of r.before) out.push(`  >> before fill ${r.n}: ${b}`);
     out.push(`  ${table[i + 1]}`);
   });
+  if (m.barometer) out.push('', 'BAROMETER', ...m.barometer.map((l) => `  ${l}`));
   out.push('', 'AFTER FILLING');
   for (const c of m.postChecks) out.push(`  [ ] ${c}`);
   out.push('', 'TANK LABEL', ...m.label.map((l) => `  | ${l}`), '');

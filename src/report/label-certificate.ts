@@ -1,0 +1,203 @@
+/**
+ * The one-page batch certificate: design against the as-filled composition with its
+ * expanded uncertainty, phi and dilution, the readings as logged (time, initials, note),
+ * corrections, acknowledgements, findings, the verdict and the tank label. Built from
+ * the re-check report and the parsed log only; the renderers (label-render.ts) are pure
+ * functions of this model.
+ */
+import { STANDING_CAUTION } from '../core/index.js';
+import type { CheckReport } from '../io/check.js';
+import type { ParsedLog } from '../io/batch-log.js';
+import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import { decimalsFor, fixedSig } from './format.js';
+import { labelLines, labelModel, type LabelModel } from './label-model.js';
+
+export interface CertificateRow {
+  readonly species: string;
+  readonly design: string;
+  readonly asFilled: string;
+  readonly deviation: string;
+  readonly tolerance: string;
+  /** "within", "within, not proven", "OUT", or "-" for a species not in the design */
+  readonly status: string;
+}
+
+export interface CertificateReading {
+  readonly step: number;
+  readonly fill: string;
+  readonly gauge: string;
+  readonly typed: string;
+  readonly absolute: string;
+  readonly temperature: string;
+  readonly time: string;
+  readonly by: string;
+  readonly note: string;
+}
+
+export interface CertificateModel {
+  readonly title: string;
+  readonly batchId: string;
+  readonly lab: string;
+  readonly tank: string;
+  readonly created: string;
+  readonly closed: string;
+  readonly paper: 'a4' | 'letter';
+  readonly version: string;
+  readonly file: string;
+  readonly generated: string;
+  readonly label: LabelModel;
+  readonly labelLines: readonly string[];
+  readonly verdictText: string;
+  readonly rows: readonly CertificateRow[];
+  readonly phi: readonly [string, string];
+  readonly dilution: readonly [string, string];
+  readonly readings: readonly CertificateReading[];
+  readonly corrections: readonly string[];
+  readonly acknowledgements: readonly string[];
+  readonly findings: readonly { readonly severity: string; readonly text: string }[];
+  readonly method: string;
+  readonly caution: string;
+}
+
+export interface CertificateMeta {
+  readonly version: string;
+  readonly paper: 'a4' | 'letter';
+  /** when the certificate is made (ISO time); a parameter so a document is reproducible */
+  readonly generated: string;
+}
+
+const VERDICT_TEXT: Record<string, string> = {
+  pass: 'PASS - every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included.',
+  'pass-uncertain': 'PASS NOT PROVEN - every design mole fraction is within its tolerance, but for some the expanded uncertainty (k = 2) reaches past it: the measurement cannot prove conformity.',
+  fail: 'FAIL - out of tolerance: the tank does not hold the design mixture. Label it with the as-filled composition below, or re-fill.',
+  incomplete: 'FAIL - incomplete: the log lacks a reading for a planned fill; the composition covers the fills logged so far.',
+  'no-design': 'No design to compare with: the composition is as measured.',
+};
+
+function unitOf(u: string): PressureUnit {
+  return isPressureUnit(u) ? u : 'Pa';
+}
+
+/** a free-form field a newer log may carry (initials, corrections); read without trusting its type */
+function textField(o: unknown, ...keys: string[]): string {
+  if (!o || typeof o !== 'object') return '';
+  for (const k of keys) {
+    const v = (o as Record<string, unknown>)[k];
+    if (typeof v === 'string' && v.trim()) return v.trim();
+    if (typeof v === 'number' && Number.isFinite(v)) return String(v);
+  }
+  return '';
+}
+
+function corrections(log?: ParsedLog): string[] {
+  if (!log) return [];
+  const out: string[] = [];
+  const listed = (log as unknown as { corrections?: unknown }).corrections;
+  if (Array.isArray(listed)) {
+    for (const c of listed) {
+      const step = textField(c, 'step');
+      const was = textField(c, 'old', 'old_reading', 'was', 'from');
+      const now = textField(c, 'new', 'new_reading', 'reading', 'to');
+      const who = textField(c, 'by', 'initials', 'who');
+      const when = textField(c, 'time', 'when');
+      const why = textField(c, 'reason', 'why', 'note');
+      out.push(`fill ${step || '?'}: ${was ? `${was} -> ` : ''}${now || '(value not given)'}${who ? `, by ${who}` : ''}${when ? ` at ${when}` : ''}${why ? ` - ${why}` : ''}`);
+    }
+    return out;
+  }
+  // a log that keeps only the reading in force: a corrected one still says so
+  for (const r of log.readings) {
+    if (r.kind === 'correction') out.push(`fill ${r.step}: corrected to ${r.reading}${textField(r, 'by', 'initials') ? `, by ${textField(r, 'by', 'initials')}` : ''} at ${r.time}${r.reason ? ` - ${r.reason}` : ''} (line ${r.line}; the original stays in the log)`);
+  }
+  return out;
+}
+
+/** "2026-11-30T09:20:00Z" -> "2026-11-30 09:20:00 UTC"; other text as logged */
+function shortTime(t: string): string {
+  const m = /^(\d{4}-\d{2}-\d{2})T(\d{2}:\d{2}(:\d{2})?)(\.\d+)?Z$/.exec(t);
+  return m ? `${m[1]} ${m[2]} UTC` : t;
+}
+
+export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined, meta: CertificateMeta): CertificateModel {
+  const label = labelModel(r, log);
+  const h = log?.header;
+  const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
+  const pct = (x: number) => `${fixedSig(x * 100, 5)} %`;
+  const rows: CertificateRow[] = label.composition.map((c) => {
+    const d = dev.get(c.species);
+    return {
+      species: c.species,
+      design: d ? pct(d.design) : '-',
+      asFilled: c.text,
+      deviation: d ? `${d.deviation >= 0 ? '+' : '-'}${fixedSig((Math.abs(d.deviation) / d.design) * 100, 2)} %` : '-',
+      tolerance: d ? `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %` : '-',
+      status: d ? (d.provenWithin ? 'within' : d.within ? 'within, not proven' : 'OUT') : '-',
+    };
+  });
+  // a design species the re-check found none of still gets its row
+  for (const d of r.verdict.deviations) {
+    if (!rows.some((x) => x.species === d.species)) rows.push({ species: d.species, design: pct(d.design), asFilled: 'none found', deviation: '-100 %', tolerance: `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %`, status: 'OUT' });
+  }
+  const phi: [string, string] = [r.design?.phi !== undefined ? r.design.phi.toFixed(4) : 'n/a', label.phi ?? 'n/a'];
+  const dilution: [string, string] = [r.design ? pct(r.design.diluentFraction) : 'n/a', label.dilution ?? 'n/a'];
+  const byStep = new Map((log?.readings ?? []).map((x) => [x.step, x]));
+  const readings: CertificateReading[] = r.readings.map((x) => {
+    const u = unitOf(x.gauge.unit);
+    const dec = Math.max(0, decimalsFor(fromPa(x.gauge.resolutionPa, u)));
+    const lr = byStep.get(x.step);
+    return {
+      step: x.step,
+      fill: x.source.id,
+      gauge: `${x.gauge.id}${x.gauge.reference === 'gauge' ? ' (gauge-ref.)' : ''}`,
+      typed: lr?.reading ?? '-',
+      absolute: `${fromPa(x.pressurePa, u).toFixed(dec)} ${u}`,
+      temperature: `${(x.temperatureK - 273.15).toFixed(2)} degC`,
+      time: lr?.time ? shortTime(lr.time) : '-',
+      by: textField(lr, 'by', 'initials') || '-',
+      note: [lr?.kind === 'correction' ? 'corrected' : '', lr?.note ?? ''].filter(Boolean).join('; '),
+    };
+  });
+  const acknowledgements = (log?.acknowledgements ?? []).map((a) => `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`);
+  const findings: { severity: string; text: string }[] = [];
+  // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
+  for (const w of r.warnings) if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
+  for (const f of h?.findings ?? []) if (f.code !== 'isolate-gauge') findings.push({ severity: f.severity, text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}` });
+  const order = ['danger', 'check', 'warning', 'note'];
+  findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
+  const baro = h ? `Barometer ${fixedSig(fromPa(h.barometer.pressure_Pa, 'Torr'), 5)} Torr (u ${fixedSig(fromPa(h.barometer.u_Pa, 'Torr'), 2)} Torr) for gauge-referenced readings. ` : '';
+  const thermo = h ? `Thermometer u ${h.thermometer.u_K} K, resolution ${h.thermometer.resolution_K} K. ` : '';
+  const method =
+    `Composition from the logged readings by the real-gas inverse model of mixwright check; uncertainty by the GUM law of propagation (JCGM 100), U = 2u (k = 2)` +
+    (r.result.trials > 0 ? `, checked by Monte Carlo (JCGM 101, ${r.result.trials} trials, seed ${r.result.seed}). ` : '. ') +
+    baro +
+    thermo +
+    (r.result.unidentified > 0 ? `Unidentified cylinder impurity ${fixedSig(r.result.unidentified * 1e6, 3)} ppm, not in the fractions.` : '');
+  const tank = h ? `${h.tank.id}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${h.tank.rated_pressure_Pa ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr` : ', rating not known'}` : label.tank;
+  const recipe = h?.recipe as { title?: unknown; id?: unknown } | undefined;
+  const title = typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
+  const closeTime = log?.closed ? textField((log as unknown as { close?: unknown }).close, 'time') : '';
+  return {
+    title,
+    batchId: r.id,
+    lab: label.lab,
+    tank,
+    created: h?.created ? shortTime(h.created) : '-',
+    closed: log ? (log.closed ? `closed${closeTime ? ` ${closeTime}` : ''}` : 'NOT CLOSED - the fill may not be finished') : 'CSV readings, no log',
+    paper: meta.paper,
+    version: meta.version,
+    file: r.file,
+    generated: meta.generated,
+    label,
+    labelLines: labelLines(label),
+    verdictText: VERDICT_TEXT[label.status],
+    rows,
+    phi,
+    dilution,
+    readings,
+    corrections: corrections(log),
+    acknowledgements,
+    findings,
+    method,
+    caution: `The composition is computed from the logged readings and is only as good as they are. ${STANDING_CAUTION}`,
+  };
+}

@@ -1,0 +1,217 @@
+import { describe, expect, it } from 'vitest';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { checkLog } from '../../src/io/check.js';
+import { parseLog, readLog } from '../../src/io/batch-log.js';
+import { labelLines, labelModel, renderLabelText, withU } from '../../src/report/label-model.js';
+import { buildCertificateModel } from '../../src/report/label-certificate.js';
+import { certificateToHtml, certificateToMarkdown, certificateToText } from '../../src/report/label-render.js';
+import { findChromium } from '../../src/io/pdf.js';
+import { runCli } from '../helpers.js';
+
+const PASSING = 'batches/demo-ch4-phi1-ar98.jsonl';
+const FAILING = 'batches/demo-c2h4-phi05-ar-overshoot.jsonl';
+const META = { version: 'test', paper: 'a4' as const, generated: '2026-12-01 10:00 UTC' };
+
+/** a copy of a demo log with its lines changed, in a temporary folder */
+function editedLog(from: string, edit: (lines: string[]) => string[]): string {
+  const dir = mkdtempSync(join(tmpdir(), 'mw-label-'));
+  const f = join(dir, 'edited.jsonl');
+  const lines = readFileSync(from, 'utf8').trimEnd().split('\n');
+  writeFileSync(f, edit(lines).join('\n') + '\n');
+  return f;
+}
+
+describe('expanded uncertainty as printed', () => {
+  // GUM (JCGM 100:2008) 7.2.6: U to at most two significant digits, the value rounded to the same place
+  it('U to two significant digits, the value to the same decimal place', () => {
+    expect(withU(0.666871, 0.001534, '%')).toBe('0.6669 % +- 0.0015 %');
+    expect(withU(97.99812, 0.02811, '%')).toBe('97.998 % +- 0.028 %');
+    expect(withU(1.00031, 0.0213)).toBe('1.000 +- 0.021');
+    expect(withU(1516.2, 12.6)).toBe('1516 +- 13');
+  });
+  it('no U is said in words, not printed as zero', () => {
+    expect(withU(0.5, 0)).toBe('0.500000 (U not computed)');
+  });
+});
+
+describe('label and check agree (same log, same computation)', () => {
+  for (const log of [PASSING, FAILING]) {
+    it(`${log}: every mole fraction and U (k = 2) on the label is the one check --json gives`, async () => {
+      const j = JSON.parse((await runCli(['check', log, '--json', '--trials', '100000'])).stdout);
+      const m = labelModel(await checkLog(readLog(log), { trials: 100000, seed: 1 }), readLog(log));
+      expect(m.composition.map((c) => c.species).sort()).toEqual(Object.keys(j.composition).sort());
+      for (const c of m.composition) {
+        expect(c.value).toBe(j.composition[c.species].value);
+        expect(c.expandedU).toBe(2 * j.composition[c.species].u);
+      }
+      // and the printed label of `mixwright label` carries exactly those numbers
+      const printed = await runCli(['label', log, '--trials', '100000']);
+      for (const [k, st] of Object.entries(j.composition) as [string, { value: number; u: number }][]) {
+        const text = st.value < 1e-3 ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm') : withU(st.value * 100, 2 * st.u * 100, '%');
+        expect(printed.stdout, k).toContain(`${k.padEnd(8)} ${text}`);
+      }
+      expect(printed.stdout).toContain(`phi ${withU(j.phi.value, 2 * j.phi.u)}`);
+      expect(m.verdict).toBe(j.verdict);
+    });
+  }
+});
+
+describe('the label says what the readings say', () => {
+  it('a failed re-check: FAIL first and last, what is off, exit 4; the design fractions are not on the label', async () => {
+    const log = readLog(FAILING);
+    const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
+    const lines = labelLines(m);
+    expect(lines[0]).toBe('*** FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE ***');
+    expect(lines[lines.length - 1]).toBe('*** DO NOT USE AS THE DESIGN MIXTURE ***');
+    expect(m.offDesign.join('\n')).toMatch(/C2H4 1\.1 % \(relative\) below design; tolerance 0\.50 %/);
+    // design: C2H4 0.714286 %, O2 4.28571 % - neither appears on the label
+    const text = renderLabelText(m);
+    expect(text).not.toMatch(/0\.714/);
+    expect(text).not.toMatch(/4\.285/);
+    expect(text).toMatch(/C2H4\s+0\.7068 % \+- 0\.0016 %/);
+    const r = await runCli(['label', FAILING, '--trials', '100000']);
+    expect(r.code).toBe(4);
+    expect(r.stderr).toContain('the re-check FAILED');
+    expect(r.stdout).toContain('# *** FAIL - OUT OF TOLERANCE');
+  });
+
+  it('a pass the uncertainty cannot prove is said in words, with the species whose U reaches past the tolerance', async () => {
+    const log = readLog(PASSING);
+    const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
+    expect(m.status).toBe('pass-uncertain');
+    expect(labelLines(m)[0]).toBe('PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it');
+    expect(m.offDesign).toEqual([expect.stringMatching(/^O2 0\.11 % \(relative\) above design, but U 2\.1 % reaches past the tolerance 0\.50 %$/)]);
+    expect(m.finalPressure).toBe('1500.0 Torr absolute');
+    expect(m.finalTemperature).toBe('25.0 degC');
+    expect(m.filledOn).toBe('2026-11-30');
+  });
+
+  it('a log without its last fill: FAIL - INCOMPLETE, naming the missing step (exit 4)', async () => {
+    const f = editedLog(PASSING, (l) => l.filter((x) => !/^{"kind":"reading","step":3,/.test(x) && !/"kind":"close"/.test(x)));
+    const log = readLog(f);
+    const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
+    expect(m.status).toBe('incomplete');
+    expect(labelLines(m)[0]).toBe('*** FAIL - INCOMPLETE BATCH: NOT THE DESIGN MIXTURE ***');
+    expect(m.offDesign).toContain('no reading for step 3');
+    const c = buildCertificateModel(await checkLog(log, { trials: 0, seed: 1 }), log, META);
+    expect(c.closed).toContain('NOT CLOSED');
+    expect((await runCli(['label', f, '--trials', '100000'])).code).toBe(4);
+  });
+
+  it('a corrected reading: the label uses the correction, the certificate lists it and its reason', async () => {
+    const corr = JSON.stringify({ kind: 'correction', step: 2, source: 'cyl-Ar', gauge: 'head-10kT', reading: '1481 Torr', pressure_Pa: 1481 * (101325 / 760), temperature: '25 degC', temperature_K: 298.15, time: '2026-11-30T09:50:00Z', reason: 'digit misread' });
+    const f = editedLog(PASSING, (l) => [...l.slice(0, 3), corr, ...l.slice(3)]);
+    const log = readLog(f);
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    expect(report.readings[1].pressurePa).toBeCloseTo(1481 * (101325 / 760), 9);
+    const c = buildCertificateModel(report, log, META);
+    expect(c.corrections.join('\n')).toMatch(/fill 2: corrected to 1481 Torr at 2026-11-30T09:50:00Z - digit misread/);
+    expect(c.readings[1].note).toContain('corrected');
+    expect(c.readings[1].typed).toBe('1481 Torr');
+  });
+
+  it('acknowledgements and initials a log carries are shown', async () => {
+    const ack = JSON.stringify({ kind: 'acknowledge', code: 'gauge-coarser-than-band', step: 2, by: 'QX', time: '2026-11-30T09:15:00Z', note: 'wider band agreed' });
+    const f = editedLog(PASSING, (l) => [l[0], ack, ...l.slice(1)]);
+    const log = readLog(f);
+    const c = buildCertificateModel(await checkLog(log, { trials: 0, seed: 1 }), log, META);
+    expect(c.acknowledgements).toEqual(['gauge-coarser-than-band (fill 2): accepted by QX at 2026-11-30T09:15:00Z - wider band agreed']);
+    // initials on a reading, where a log carries them
+    const withBy = parseLog(readFileSync(PASSING, 'utf8'), PASSING);
+    const tagged = { ...withBy, readings: withBy.readings.map((r) => ({ ...r, by: 'QX' })) };
+    const c2 = buildCertificateModel(await checkLog(tagged, { trials: 0, seed: 1 }), tagged, META);
+    expect(c2.readings.map((r) => r.by)).toEqual(['QX', 'QX', 'QX']);
+  });
+});
+
+describe('certificate documents', () => {
+  const model = async (f: string) => {
+    const log = readLog(f);
+    return buildCertificateModel(await checkLog(log, { trials: 0, seed: 1 }), log, META);
+  };
+  it('Markdown snapshot (failing batch)', async () => {
+    expect(certificateToMarkdown(await model(FAILING))).toMatchSnapshot();
+  });
+  it('plain-text snapshot (passing batch)', async () => {
+    expect(certificateToText(await model(PASSING))).toMatchSnapshot();
+  });
+  it('HTML snapshot and self-contained: inline CSS, no external references, the paper size asked for', async () => {
+    const m = await model(FAILING);
+    const html = certificateToHtml(m);
+    expect(html).toMatchSnapshot();
+    expect(html).not.toMatch(/(src|href)="(https?:)?\/\//);
+    expect(html).not.toMatch(/<link /);
+    expect(html).toContain('@page { size: A4');
+    expect(certificateToHtml({ ...m, paper: 'letter' })).toContain('@page { size: letter');
+    expect(html).toContain('class="labelbox fail"');
+  });
+});
+
+describe('mixwright label', () => {
+  it('writes a file atomically, refuses to overwrite it without --force (exit 2), and writes over it with --force', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-'));
+    const f = join(dir, 'cert.md');
+    expect((await runCli(['label', PASSING, '--format', 'md', '-o', f, '--trials', '100000'])).code).toBe(0);
+    const first = readFileSync(f, 'utf8');
+    expect(first).toContain('# Batch certificate');
+    const again = await runCli(['label', PASSING, '--format', 'html', '-o', f, '--trials', '100000']);
+    expect(again.code).toBe(2);
+    expect(again.stderr).toContain('add --force');
+    expect(readFileSync(f, 'utf8')).toBe(first);
+    expect((await runCli(['label', PASSING, '--format', 'html', '-o', f, '--force', '--trials', '100000'])).code).toBe(0);
+    expect(readFileSync(f, 'utf8')).toMatch(/^<!DOCTYPE html>/);
+  });
+  it('refuses what is not one batch log, and a PDF without a file (exit 2)', async () => {
+    const csv = await runCli(['label', 'readings/ch4-phi1-ar98.csv']);
+    expect(csv.code).toBe(2);
+    expect(csv.stderr).toContain('a label is made from one batch log');
+    const pdf = await runCli(['label', PASSING, '--format', 'pdf']);
+    expect(pdf.code).toBe(2);
+    expect(pdf.stderr).toContain('give -o label.pdf');
+    expect((await runCli(['label', PASSING, '--trials', '10'])).code).toBe(2);
+  });
+});
+
+// the real-browser test: Chromium prints the HTML certificate, poppler reads the PDF back
+const chromium = findChromium();
+const required = process.env.MIXWRIGHT_REQUIRE_BROWSER === '1';
+const hasPoppler = spawnSync('sh', ['-c', 'command -v pdftotext && command -v pdftoppm'], { encoding: 'utf8' }).status === 0;
+if (!chromium || !hasPoppler) console.warn(`the real-browser label test needs chromium and poppler-utils; ${required ? 'required here' : 'skipped here'}`);
+describe.runIf((chromium && hasPoppler) || required)('the HTML certificate and label in a real browser', () => {
+  for (const [log, paper] of [
+    [FAILING, 'a4'],
+    [FAILING, 'letter'],
+    [PASSING, 'letter'],
+  ] as const) {
+    it(`${log} on ${paper}: one page, every word inside the printable area, the label whole with its verdict`, () => {
+      mkdirSync('artifacts', { recursive: true });
+      const base = join('artifacts', `label-${log.includes('overshoot') ? 'fail' : 'pass'}-${paper}`);
+      const pdf = `${base}.pdf`;
+      const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'label', log, '--format', 'pdf', '--paper', paper, '-o', pdf, '--force', '--trials', '100000'], { encoding: 'utf8' });
+      expect(r.status, r.stderr).toBe(log === FAILING ? 4 : 0);
+      const info = execFileSync('pdfinfo', [pdf], { encoding: 'utf8' });
+      expect(Number(/Pages:\s+(\d+)/.exec(info)![1])).toBe(1);
+      const [w, h] = /Page size:\s+([\d.]+) x ([\d.]+)/.exec(info)!.slice(1).map(Number);
+      expect(Math.round(w)).toBe(paper === 'a4' ? 595 : 612);
+      execFileSync('pdftotext', ['-bbox', pdf, `${base}.bbox.html`]);
+      const words = [...readFileSync(`${base}.bbox.html`, 'utf8').matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({ x0: +m[1], x1: +m[3], y1: +m[4], t: m[5] }));
+      for (const wd of words) {
+        expect(wd.x0, wd.t).toBeGreaterThanOrEqual(28);
+        expect(wd.x1, wd.t).toBeLessThanOrEqual(w - 28);
+        expect(wd.y1, wd.t).toBeLessThanOrEqual(h - 28);
+      }
+      const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
+      if (log === FAILING) {
+        expect(text).toContain('FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE');
+        expect(text).toContain('DO NOT USE AS THE DESIGN MIXTURE');
+        expect(text).toMatch(/C2H4 0\.7068 % ± 0\.0016 %/);
+      } else expect(text).toContain('PASS NOT PROVEN');
+      expect(text).toContain('Checked by');
+      execFileSync('pdftoppm', ['-png', '-r', '80', pdf, base]);
+      expect(existsSync(`${base}-1.png`)).toBe(true);
+    });
+  }
+});
