@@ -63,7 +63,7 @@ export interface Streams {
   readonly isTTY?: boolean;
 }
 
-export const EXIT = { ok: 0, internal: 1, input: 2, danger: 3, outOfTolerance: 4 } as const;
+export const EXIT = { ok: 0, internal: 1, input: 2, danger: 3, outOfTolerance: 4, interrupted: 130 } as const;
 
 class ExitSignal extends Error {
   constructor(readonly code: number) {
@@ -349,6 +349,26 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       out(o.json ? JSON.stringify(readyToJson(report, VERSION), null, 2) + '\n' : readyToText(report));
     });
 
+  /**
+   * the interactive screens are a separate bundle (dist/tui.mjs) with its own copy of the core, so a
+   * refusal thrown there is not an instance of this bundle's ProblemError: carry it over by its shape
+   */
+  const fromTui = async <T,>(run: () => Promise<T>): Promise<T> => {
+    try {
+      return await run();
+    } catch (e) {
+      if (!(e instanceof ProblemError) && e instanceof Error && e.name === 'ProblemError' && 'problem' in e && 'where' in e) throw new ProblemError((e as ProblemError).problem, (e as ProblemError).where);
+      throw e;
+    }
+  };
+
+  /** Ctrl-C in the guided fill: what the log holds and how to go on, then exit 130 */
+  const fillEnded = (r: { interrupted: boolean; logged: number; steps: number } | undefined, logFile: string) => {
+    if (!r?.interrupted) return;
+    err(`mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`);
+    throw new ExitSignal(EXIT.interrupted);
+  };
+
   withDesignOptions(program.command('fill').description('guided fill at the manifold: one step at a time, each reading logged at once, the rest re-targeted (interactive)'))
     .option('--resume <log>', 'continue an interrupted fill from its batch log')
     .option('--batch <id>', 'batch id (default: recipe id and date and time)')
@@ -363,7 +383,8 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         const log = readLog(o.resume);
         if (log.closed) throw new ProblemError({ code: 'design-conflict', reason: 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`' }, { file: o.resume });
         for (const w of log.warnings) err(`mixwright: ${o.resume}: ${w}\n`);
-        await tui.runFill({ header: log.header, logFile: o.resume, log });
+        const resume = o.resume;
+        fillEnded(await fromTui(() => tui.runFill({ header: log.header, logFile: resume, log })), resume);
         return;
       }
       const { plan, req } = planFrom(recipeFile, o);
@@ -373,7 +394,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       mkdirSync(o.dir, { recursive: true });
       const file = join(o.dir, `${id}.jsonl`);
       createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
-      await tui.runFill({ header: readLog(file).header, logFile: file });
+      fillEnded(await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
     });
 
   program
@@ -497,7 +518,8 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .action(async (o: { lab?: string }) => {
       if (!streams.isTTY) throw new ProblemError({ code: 'design-missing', reason: 'the wizard needs a terminal. Use `mixwright plan`, `mixwright sheet` and `mixwright check`' }, { field: 'wizard' });
       const tui = await import('../tui/run.js');
-      await tui.runWizard({ version: VERSION, labFile: o.lab });
+      const r = await fromTui(() => tui.runWizard({ version: VERSION, labFile: o.lab }));
+      if (r) fillEnded(r, r.logFile);
     });
 
   const run = async (argvIn: readonly string[]): Promise<number> => {

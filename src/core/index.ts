@@ -65,8 +65,8 @@ export { evaluateUncertainty, MC_STREAMS, monteCarloSamples, numericalTolerance,
 export type { CheckedReading, InputComponent, OutputStat, UncertaintyResult, UncertaintySettings } from './uncertainty.js';
 export { judge } from './verdict.js';
 export type { CheckVerdict, SpeciesDeviation, VerdictKind } from './verdict.js';
-export { retarget } from './retarget.js';
-export type { Kept, RetargetInput, RetargetResult } from './retarget.js';
+export { retarget, ventBack } from './retarget.js';
+export type { Kept, RetargetInput, RetargetResult, VentBack } from './retarget.js';
 export { chapmanEnskogD, diffusionMixingTimeS, fullerD, neufeldOmegaD, slowestPair } from './diffusion.js';
 export type { PairDiffusion } from './diffusion.js';
 export { experimentsServed, finalPressureForExperiments, sizingBasis } from './sizing.js';

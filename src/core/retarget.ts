@@ -29,6 +29,15 @@ export interface RetargetInput {
   readonly finalPressurePa: number;
   readonly volumeM3: number;
   readonly workingLimitPa?: number;
+  /** a top-up: the gas in the tank before the first fill (its composition, and its reading) */
+  readonly initial?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number; readonly temperatureK: number };
+  /**
+   * amounts in the tank scaled by this factor (0 < f <= 1): the tank vented or pumped back after
+   * the last reading, which removes gas of the same composition. Default 1.
+   */
+  readonly ventFactor?: number;
+  /** words a pressure in the message (default: Pa) */
+  readonly formatPressure?: (pressurePa: number) => string;
 }
 
 export type Kept = 'phi' | 'dilution' | 'pressure';
@@ -37,6 +46,10 @@ export interface RetargetResult {
   readonly remaining: readonly { readonly step: number; readonly source: GasSource; readonly targetPa: number; readonly incrementPa: number; readonly amountMol: number }[];
   readonly predicted: { readonly composition: Record<string, number>; readonly phi?: number; readonly diluentFraction: number; readonly pressurePa: number };
   readonly gave: readonly Kept[];
+  /** the working limit holds the final pressure (or the tank is at or above it already) */
+  readonly limitBinds: boolean;
+  /** tank pressure now (after the readings, and the vent if any), at the fill temperature, Pa */
+  readonly nowPa: number;
   readonly message: string;
 }
 
@@ -50,17 +63,26 @@ export function retarget(input: RetargetInput): RetargetResult {
   const { design, sources, done, volumeM3: V } = input;
   const m = done.length;
   const T = input.temperatureK;
-  const species = [...new Set([...sources.flatMap((s) => Object.keys(s.composition)), ...Object.keys(design.composition)])];
+  const init = input.initial;
+  const species = [...new Set([...sources.flatMap((s) => Object.keys(s.composition)), ...Object.keys(design.composition), ...Object.keys(init?.composition ?? {})])];
   const S = species.length;
   const model = virialModel(species, T);
   // what is in the tank now (mol)
   const have = new Float64Array(S);
   let rhoNow = 0;
+  const f = input.ventFactor ?? 1;
+  if (!(f > 0 && f <= 1)) throw new RangeError(`ventFactor ${f} must be in (0, 1]`);
   if (m > 0) {
-    const setup = inverseSetup(sources.slice(0, m).map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })));
+    const setup = inverseSetup(sources.slice(0, m).map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })), init ? { composition: { ...init.composition }, pressurePa: init.pressurePa, temperatureK: init.temperatureK } : undefined);
     const res = invertReadings(setup, undefined, done.map((d) => d.pressurePa));
-    setup.species.forEach((k, i) => (have[species.indexOf(k)] = res.amounts[i] * V));
-    rhoNow = res.rho[m - 1];
+    setup.species.forEach((k, i) => (have[species.indexOf(k)] = res.amounts[i] * V * f));
+    rhoNow = res.rho[m - 1] * f;
+  } else if (init) {
+    // the gas already in the tank, from its reading at its own temperature
+    const m0 = virialModel(species, init.temperatureK);
+    const rho0 = densityFromPressure(init.pressurePa, init.temperatureK, bMix(m0, init.composition), cMix(m0, init.composition));
+    for (const [k, y] of Object.entries(init.composition)) have[species.indexOf(k)] += y * rho0 * V * f;
+    rhoNow = rho0 * f;
   }
   const rest = sources.slice(m);
   const w = rest.map((s) => {
@@ -105,6 +127,15 @@ export function retarget(input: RetargetInput): RetargetResult {
     return rest.length ? nnls(rows, rhs).x : [];
   };
 
+  function compOf(v: Float64Array): Record<string, number> {
+    const t = v.reduce((p, q) => p + q, 0);
+    const c: Record<string, number> = {};
+    species.forEach((k, i) => {
+      if (v[i] > 0) c[k] = v[i] / t;
+    });
+    return c;
+  }
+
   const predict = (a: number[]) => {
     const n = Float64Array.from(have);
     a.forEach((aj, j) => w[j].forEach((v, i) => (n[i] += aj * v)));
@@ -120,19 +151,51 @@ export function retarget(input: RetargetInput): RetargetResult {
     return { n, comp, P, phi: equivalenceRatio(comp), dilF };
   };
 
-  let a = solve(Ntarget, W_TOTAL);
-  let pred = predict(a);
-  if (input.workingLimitPa !== undefined && pred.P > input.workingLimitPa) {
-    // the limit outranks everything: aim the total at the limit and let the rest give
-    const Nlimit = densityFromPressure(input.workingLimitPa, T, bMix(model, pred.comp), cMix(model, pred.comp)) * V;
-    a = solve(Nlimit * (1 - 1e-6), W_LIMIT);
+  const limit = input.workingLimitPa;
+  const fmtP = input.formatPressure ?? ((p: number) => `${p.toPrecision(5)} Pa`);
+  const haveComp = compOf(have);
+  const nowPa = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
+  let limitBinds = false;
+  let a: number[];
+  let pred: ReturnType<typeof predict>;
+  if (limit !== undefined && nowPa >= limit) {
+    // at or past the limit already: any further fill would raise the pressure more; none is proposed
+    a = rest.map(() => 0);
     pred = predict(a);
+    limitBinds = true;
+  } else {
+    a = solve(Ntarget, W_TOTAL);
+    pred = predict(a);
+    if (limit !== undefined && pred.P > limit) {
+      // the limit outranks everything: aim the total at the limit and let the rest give
+      limitBinds = true;
+      let aim = densityFromPressure(limit, T, bMix(model, pred.comp), cMix(model, pred.comp)) * V * (1 - 1e-6);
+      for (let it = 0; it < 8; it++) {
+        a = solve(aim, W_LIMIT);
+        pred = predict(a);
+        if (pred.P <= limit) break;
+        aim *= limit / pred.P;
+      }
+      if (pred.P > limit) {
+        // the weighted solve still ends above the limit: propose less of every remaining fill
+        let lo = 0;
+        let hi = 1;
+        const a0 = a;
+        for (let it = 0; it < 60; it++) {
+          const mid = (lo + hi) / 2;
+          if (predict(a0.map((x) => x * mid)).P <= limit) lo = mid;
+          else hi = mid;
+        }
+        a = a0.map((x) => x * lo);
+        pred = predict(a);
+      }
+    }
   }
 
   // cumulative targets of the remaining fills at the fill temperature
   const remaining: RetargetResult['remaining'][number][] = [];
   const n = Float64Array.from(have);
-  let prevP = m > 0 ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
+  let prevP = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
   rest.forEach((s, j) => {
     w[j].forEach((v, i) => (n[i] += a[j] * v));
     const comp = compOf(n);
@@ -141,14 +204,6 @@ export function retarget(input: RetargetInput): RetargetResult {
     remaining.push({ step: m + j + 1, source: s, targetPa: P, incrementPa: P - prevP, amountMol: a[j] });
     prevP = P;
   });
-  function compOf(v: Float64Array): Record<string, number> {
-    const t = v.reduce((p, q) => p + q, 0);
-    const c: Record<string, number> = {};
-    species.forEach((k, i) => {
-      if (v[i] > 0) c[k] = v[i] / t;
-    });
-    return c;
-  }
 
   const gave: Kept[] = [];
   const tol = input.tolerance;
@@ -157,19 +212,70 @@ export function retarget(input: RetargetInput): RetargetResult {
   if (Math.abs(pred.P / input.finalPressurePa - 1) > tol.relative) gave.push('pressure');
   const fmt = (x: number) => x.toPrecision(5);
   let message: string;
-  if (gave.length === 0) message = 'the remaining fills keep phi, the dilution and the final pressure within tolerance';
+  if (limit !== undefined && nowPa >= limit) {
+    message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}: no further fill can be made within the limit`;
+    if (rest.length === 0) message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}`;
+  } else if (gave.length === 0) message = 'the remaining fills keep phi, the dilution and the final pressure within tolerance';
   else {
     const parts: string[] = [];
     if (gave.includes('phi')) parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
     if (gave.includes('dilution')) parts.push(`the diluent fraction becomes ${fmt(pred.dilF)} (design ${fmt(xd)})`);
     if (gave.includes('pressure')) {
       parts.push(
-        input.workingLimitPa !== undefined && pred.P >= input.workingLimitPa * (1 - 1e-4)
-          ? `the final pressure is held at the tank's working limit ${fmt(pred.P)} Pa`
-          : `the final pressure becomes ${fmt(pred.P)} Pa (design ${fmt(input.finalPressurePa)} Pa) to keep ${gave.includes('phi') ? 'the dilution' : 'phi and the dilution'}`,
+        limitBinds
+          ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ${fmtP(input.finalPressurePa)})`
+          : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(input.finalPressurePa)}) to keep ${gave.includes('phi') ? 'the dilution' : 'phi and the dilution'}`,
       );
     }
     message = parts.join('; ');
+    if (limitBinds && !gave.includes('pressure')) message = `the tank's working limit ${fmtP(limit!)} holds the final pressure; ${message}`;
   }
-  return { remaining, predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P }, gave, message };
+  return { remaining, predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P }, gave, limitBinds, nowPa, message };
+}
+
+export interface VentBack {
+  /** vent or pump the tank back to at most this pressure (absolute, at the fill temperature), Pa */
+  readonly targetPa: number;
+  /** the fraction of the tank's gas that stays */
+  readonly ventFactor: number;
+  /** the re-target from the vented tank */
+  readonly after: RetargetResult;
+}
+
+/**
+ * After a reading at or above the working limit: how far to vent (or pump) back. Venting removes
+ * gas of the tank's own composition, so every amount scales by f = rho_after / rho_now and the
+ * composition stays. First choice: the f from which the re-targeted remaining fills end at the
+ * design pressure (bisection on f, 60 halvings; the final pressure rises with f), when the limit
+ * does not bind there. Otherwise (the design pressure is out of reach within the limit) the largest
+ * f from which the re-target ends below the limit without the limit binding. With no fill left the
+ * composition is final: vent to the design pressure, or just below the limit if that is not below it.
+ * Example: CH4 10.01 Torr, then Ar read 2800 Torr in MT-1 (limit 2700.6 Torr; design 1500 Torr,
+ * 2 % CH4 + O2): vent back to about 1480 Torr, from where O2 keeps phi and ends at 1500 Torr; the
+ * dilution stays as the Ar overshoot made it (tests/tui/fill-state.test.ts).
+ */
+export function ventBack(input: RetargetInput & { readonly workingLimitPa: number }): VentBack {
+  const limit = input.workingLimitPa;
+  const at = (f: number) => retarget({ ...input, ventFactor: f });
+  if (input.done.length >= input.sources.length) {
+    const now = at(1).nowPa;
+    const targetPa = input.finalPressurePa < limit ? input.finalPressurePa : limit * (1 - 1e-3);
+    const f = Math.min(1, targetPa / now);
+    return { targetPa: at(f).nowPa, ventFactor: f, after: at(f) };
+  }
+  const bisect = (good: (r: RetargetResult) => boolean): number => {
+    let lo = 1e-6;
+    let hi = 1;
+    for (let it = 0; it < 60; it++) {
+      const mid = Math.sqrt(lo * hi) > 0.01 ? (lo + hi) / 2 : Math.sqrt(lo * hi);
+      if (good(at(mid))) lo = mid;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const below = (r: RetargetResult) => r.nowPa < limit && !r.limitBinds;
+  const fDesign = bisect((r) => r.predicted.pressurePa <= input.finalPressurePa);
+  const f = below(at(fDesign)) ? fDesign : bisect(below);
+  const after = at(f);
+  return { targetPa: after.nowPa, ventFactor: f, after };
 }

@@ -1,50 +1,130 @@
 /** The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here, fsync'd, before the screen moves on. */
+import { useEffect, useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
-import { fillReducer, shownPa, type FillAction, type FillState } from './fill-state.js';
+import { fillReducer, shownPa, type CompositionJudgement, type FillAction, type FillState, type FillStep } from './fill-state.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import type { LogEvent } from '../io/batch-log.js';
+import type { NewLogEvent } from '../io/batch-log.js';
+import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
+import { labelLines, labelModel } from '../report/label-model.js';
+import type { ParsedLog } from '../io/batch-log.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
-  /** append one event to the batch log (with fsync); throws on failure */
-  readonly write: (e: LogEvent) => void;
+  /** append one event to the batch log (with fsync); returns its line; throws on failure */
+  readonly write: (e: NewLogEvent) => { line: number } | void;
   readonly logFile: string;
   readonly now?: () => string;
+  /** `check`'s own re-check of the log, for the end screen */
+  readonly recheck?: () => Promise<{ report: CheckReport; log: ParsedLog }>;
+  /** Ctrl-C: the fill stops (the shell exits 130) */
+  readonly onInterrupt?: () => void;
 }
 
-export function toActions(input: string, key: { return?: boolean; tab?: boolean; backspace?: boolean; delete?: boolean }, now: string): FillAction[] {
+export function toActions(input: string, key: { return?: boolean; tab?: boolean; backspace?: boolean; delete?: boolean; escape?: boolean }, now: string): FillAction[] {
   if (key.return) return [{ type: 'enter', now }];
   if (key.tab) return [{ type: 'tab' }];
+  if (key.escape) return [{ type: 'escape' }];
   if (key.backspace || key.delete) return [{ type: 'backspace' }];
   return splitChunk(input).map((t): FillAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter', now } : { type: t.kind }));
 }
 
-export function FillApp({ initial, write, logFile, now = () => new Date().toISOString() }: FillAppProps) {
+const unitOf = (step: FillStep): PressureUnit => (step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr');
+
+function JudgementView({ j }: { j: CompositionJudgement }) {
+  const head =
+    j.kind === 'final'
+      ? `Composition as filled (inverse model, typed temperatures): ${j.verdict === 'fail' ? 'FAIL - outside the tolerance' : j.verdict === 'pass' ? 'within the tolerance' : 'within the tolerance, not proven by U'}`
+      : `Composition: ${j.verdict === 'on-course' ? 'the remaining fills bring every fraction within the tolerance' : 'OFF COURSE - the remaining fills cannot bring every fraction within the tolerance'}`;
+  return (
+    <Box flexDirection="column">
+      <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
+      {j.deviations.map((d) => (
+        <Text key={d.species}>
+          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  design ${fixedSig(d.design, 5).padStart(10)}  ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} % rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'ok' : 'OUT'}`}
+        </Text>
+      ))}
+    </Box>
+  );
+}
+
+export function FillApp({ initial, write, logFile, now = () => new Date().toISOString(), recheck, onInterrupt }: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
+  const [check, setCheck] = useState<{ report: CheckReport; log: ParsedLog } | { error: string } | undefined>();
   const app = useApp();
+  const phase = state.phase;
+  useEffect(() => {
+    if ((phase !== 'done' && phase !== 'ended') || !recheck) return;
+    let live = true;
+    recheck().then(
+      (r) => live && setCheck(r),
+      (e: unknown) => live && setCheck({ error: (e as Error).message }),
+    );
+    return () => {
+      live = false;
+    };
+  }, [phase, recheck]);
   useInput((input, key) => {
-    if (current().phase === 'done' && (input === 'q' || key.return || key.escape)) {
+    if (key.ctrl && input === 'c') {
+      onInterrupt?.();
+      app.exit();
+      return;
+    }
+    const ph = current().phase;
+    if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
       app.exit();
       return;
     }
     let s = current();
     for (const a of toActions(input, key, now())) {
-      const next = fillReducer(s, a);
-      try {
-        for (const e of next.effects) write(e);
-      } catch (err) {
-        s = { ...s, error: `could not write the log ${logFile}: ${(err as Error).message}; the reading was NOT recorded` };
+      let next = fillReducer(s, a);
+      const lines: { step: number; line: number }[] = [];
+      let failed: string | undefined;
+      let failedKind: string | undefined;
+      for (const e of next.effects) {
+        try {
+          const w = write(e);
+          if (w && (e.kind === 'reading' || e.kind === 'correction')) lines.push({ step: e.step, line: w.line });
+        } catch (err) {
+          failed = (err as Error).message;
+          failedKind = e.kind;
+          break;
+        }
+      }
+      if (failed !== undefined && failedKind !== 'close') {
+        s = { ...s, error: `could not write the log ${logFile}: ${failed}; the ${failedKind} was NOT recorded` };
         break;
       }
-      s = next;
+      for (const l of lines) next = fillReducer(next, { type: 'logged', ...l });
+      s = failed !== undefined ? { ...next, error: `the readings are logged, but the closing line could not be written to ${logFile}: ${failed}` } : next;
     }
     setState(s);
   });
   const h = state.setup.header;
   const K = state.setup.steps.length;
+  const prompt = (
+    <Text>
+      &gt; {state.input}
+      <Text inverse> </Text>
+    </Text>
+  );
+  const errorLine = state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
+  if (state.phase === 'barometer') {
+    const gauges = [...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id))];
+    return (
+      <Box flexDirection="column">
+        <Text bold>mixwright fill {h.id} - barometric pressure today</Text>
+        <Text wrap="wrap">
+          {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank pressure is that reading plus today&apos;s barometric pressure. The plan assumed {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
+        </Text>
+        <Text wrap="wrap">Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1 hPa AB), then Enter. It is logged.</Text>
+        {prompt}
+        {errorLine}
+      </Box>
+    );
+  }
   if (state.phase === 'acknowledge') {
     return (
       <Box flexDirection="column">
@@ -57,53 +137,160 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         ))}
         <Text> </Text>
         <Text wrap="wrap">The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type: accept INITIALS, then Enter. Ctrl-C stops.</Text>
-        <Text>
-          &gt; {state.input}
-          <Text inverse> </Text>
-        </Text>
-        {state.error ? <Text wrap="wrap">! {state.error}</Text> : null}
+        {prompt}
+        {errorLine}
       </Box>
     );
   }
-  if (state.phase === 'done') {
-    const comp = state.summary ? Object.entries(state.summary.composition).sort((a, b) => b[1].value - a[1].value) : [];
+  if (state.phase === 'done' || state.phase === 'ended') {
+    const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
     return (
       <Box flexDirection="column">
-        <Text bold>mixwright fill {h.id} - all {K} fills logged</Text>
+        <Text bold>
+          mixwright fill {h.id} - {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
+        </Text>
         {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
         <Text> </Text>
-        <Text bold>Re-check of the logged readings (GUM)</Text>
-        {comp.slice(0, 6).map(([k, st]) => (
-          <Text key={k}>
-            {'  '}
-            {k.padEnd(9)} {fixedSig(st.value, 6).padStart(12)} u {fixedSig(st.u, 2)}
-            {h.design.composition[k] !== undefined ? `   design ${fixedSig(h.design.composition[k], 6)}` : ''}
-          </Text>
-        ))}
-        {state.summary?.phi ? <Text>{`  phi       ${state.summary.phi.value.toFixed(5)}   u ${fixedSig(state.summary.phi.u, 2)}`}</Text> : null}
-        <Text> </Text>
-        <Text bold>Tank label</Text>
-        <Text>{`  ${h.id}`}</Text>
-        <Text wrap="wrap">{`  ${Object.entries(h.design.composition)
-          .sort((a, b) => b[1] - a[1])
-          .map(([k, v]) => `${k} ${(v * 100).toPrecision(4)} %`)
-          .join(', ')}`}</Text>
-        <Text>{`  phi ${h.design.phi ?? 'n/a'}; filled ${new Date().toISOString().slice(0, 10)}`}</Text>
-        <Text> </Text>
-        <Text>Log: {logFile} - run `mixwright check {logFile}` for the full budget. Press q to quit.</Text>
+        {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
+        {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
+        {check && 'error' in check ? <Text wrap="wrap">! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`</Text> : null}
+        {check && 'report' in check ? <Text bold>{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}`}</Text> : null}
+        {label ? (
+          <Box flexDirection="column" borderStyle="single" paddingX={1}>
+            <Text bold>Tank label (as filled, from the readings)</Text>
+            {label.map((l, i) => (
+              <Text key={i} wrap="wrap">
+                {l}
+              </Text>
+            ))}
+          </Box>
+        ) : null}
+        <Text>Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.</Text>
       </Box>
     );
   }
   const step = state.setup.steps[state.current];
-  const unit: PressureUnit = step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr';
+  const unit = unitOf(step);
   const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
+  const onGauge = (absPa: number) => `${fromPa(shownPa(state, step, absPa), unit).toFixed(dec)} ${unit}`;
+  const absText = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit} absolute`;
+  if (state.phase === 'start' && state.start) {
+    const comp = Object.entries(state.start.composition)
+      .sort((a, b) => b[1] - a[1])
+      .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
+      .join(', ');
+    return (
+      <Box flexDirection="column">
+        <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
+        <Text wrap="wrap">The plan assumed {absText(state.start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what you read.</Text>
+        <Text>
+          {state.field === 'reading' ? '> ' : '  '}tank reading [{unit}] and your initials (e.g. 120.4 AB): {state.input}
+          {state.field === 'reading' ? <Text inverse> </Text> : null}
+        </Text>
+        <Text>
+          {state.field === 'temperature' ? '> ' : '  '}tank temperature: {state.temperatureText}
+          {state.field === 'temperature' ? <Text inverse> </Text> : null}
+        </Text>
+        {errorLine}
+        <Text>Enter: log the starting pressure   Tab: temperature   Ctrl-C: stop</Text>
+      </Box>
+    );
+  }
+  if (state.phase === 'correct' && state.correcting) {
+    const c = state.correcting;
+    const d = state.done.find((x) => x.step === c.step)!;
+    const cs = state.setup.steps[c.step - 1];
+    return (
+      <Box flexDirection="column">
+        <Text bold>
+          mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on {cs.gauge?.id ?? 'no gauge'})
+        </Text>
+        <Text>
+          logged: {d.text} at {((d.temperatureK - 273.15).toFixed(1))} degC; the original stays in the log, the correction is added with your initials ({c.by}) and reason
+        </Text>
+        {c.pending ? (
+          <>
+            <Text>new: {c.pending.done.text} at {(c.pending.done.temperatureK - 273.15).toFixed(1)} degC</Text>
+            <Text>reason: {state.input}<Text inverse> </Text></Text>
+          </>
+        ) : (
+          <>
+            <Text>
+              {state.field === 'reading' ? '> ' : '  '}right reading [{unitOf(cs)}]: {state.input}
+              {state.field === 'reading' ? <Text inverse> </Text> : null}
+            </Text>
+            <Text>
+              {state.field === 'temperature' ? '> ' : '  '}tank temperature then: {state.temperatureText}
+              {state.field === 'temperature' ? <Text inverse> </Text> : null}
+            </Text>
+          </>
+        )}
+        {errorLine}
+        <Text>Enter: {c.pending ? 'log the correction' : 'next: the reason'}   Esc: cancel (nothing logged)</Text>
+      </Box>
+    );
+  }
+  if (state.phase === 'reminder') {
+    const ds = state.setup.dangers.filter((d) => d.step === step.index);
+    return (
+      <Box flexDirection="column">
+        <Text bold>
+          mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER AT THIS FILL
+        </Text>
+        <Text wrap="wrap">This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at the start:</Text>
+        {ds.map((d, i) => (
+          <Text key={i} wrap="wrap">
+            - {d.code}: {d.message}
+          </Text>
+        ))}
+        <Text> </Text>
+        <Text wrap="wrap">Go on only with the protection your procedure requires for it. Enter: go on to the fill   Ctrl-C: stop (logged readings are kept)</Text>
+      </Box>
+    );
+  }
+  if (state.phase === 'confirm' && state.pending) {
+    return (
+      <Box flexDirection="column">
+        <Text bold>
+          mixwright fill {h.id} - fill {state.current + 1} of {K}: CHECK THIS READING
+        </Text>
+        <Text>typed: {state.pending.done.text}</Text>
+        <Text wrap="wrap">{state.pending.reason}</Text>
+        <Text> </Text>
+        <Text>y: it is right, log it as typed   n: back to the reading (not logged)</Text>
+        {errorLine}
+      </Box>
+    );
+  }
+  if (state.phase === 'over-limit' && state.pending && state.overLimit) {
+    const o = state.overLimit;
+    const p = state.pending.done.pressurePa;
+    return (
+      <Box flexDirection="column">
+        <Text bold>
+          mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER - ABOVE THE WORKING LIMIT
+        </Text>
+        <Text wrap="wrap">
+          The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit of {h.tank.id} ({absText(o.limitPa)}).
+        </Text>
+        <Text bold wrap="wrap">Close the cylinder valve and the tank valve now.</Text>
+        <Text wrap="wrap">
+          Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
+        </Text>
+        <Text> </Text>
+        <Text wrap="wrap">vent: log the reading; you vent back (the fill stops here; finish as a top-up)   accept INITIALS: keep the tank as it is (logged)   edit: it was mistyped</Text>
+        {prompt}
+        {errorLine}
+      </Box>
+    );
+  }
   const target = state.targetsPa[state.current];
   const shown = shownPa(state, step, target);
   const lo = fromPa(shown - step.bandPa, unit).toFixed(dec);
   const hi = fromPa(shown + step.bandPa, unit).toFixed(dec);
   const plan = h.steps[state.current];
   const isolate = state.setup.header.gauges.filter((g) => {
-    const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + h.barometer.pressure_Pa;
+    const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + state.barometerPa;
     return top < target + step.bandPa && (state.current === 0 || top >= state.targetsPa[state.current - 1]);
   });
   return (
@@ -120,23 +307,18 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
       </Text>
       <Text>
         Read on {step.gauge?.id ?? 'NO GAUGE'}
-        {step.gauge?.reference === 'gauge'
-          ? ` (gauge-referenced: reads above ambient; barometer ${fromPa(h.barometer.pressure_Pa, unit).toFixed(dec)} ${unit} from the plan - give --barometer when it differs)`
-          : ' (absolute)'}
+        {step.gauge?.reference === 'gauge' ? ` (gauge-referenced: reads above ambient; barometer ${fromPa(state.barometerPa, unit).toFixed(dec)} ${unit} typed today)` : ' (absolute)'}
       </Text>
       {isolate.length ? <Text bold>Before this fill: close off {isolate.map((g) => g.id).join(', ')}</Text> : <Text> </Text>}
-      <Text> </Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
-          band {lo} - {hi} {unit}
+          band {lo} - {hi} {unit} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {Math.abs(target - plan.target_Pa) > 1e-9 * target ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})` : ''}
         </Text>
       </Box>
-      <Text wrap="wrap">Evacuate or purge the line, fill it from the cylinder above the tank pressure, then open the tank valve slowly; close it at the target.</Text>
-      <Text> </Text>
       <Text>
         {state.field === 'reading' ? '> ' : '  '}actual reading [{unit}]: {state.input}
         {state.field === 'reading' ? <Text inverse> </Text> : null}
@@ -146,8 +328,9 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         {state.field === 'temperature' ? <Text inverse> </Text> : null}
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
+      {state.judgement ? <JudgementView j={state.judgement} /> : null}
       <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
-      <Text>Enter: log the reading   Tab: temperature   Ctrl-C: stop (logged readings are kept)</Text>
+      <Text>Enter: log  Tab: temp  undo AB: undo last  fix N AB: correct  Ctrl-C: stop</Text>
     </Box>
   );
 }

@@ -2,24 +2,32 @@
  * The guided fill as a pure state machine: one step at a time, the operator types the
  * actual reading (and the temperature when it changed); each accepted reading becomes
  * a log event (an effect the shell writes, with fsync, before the next screen), the
- * remaining targets are re-targeted, and a danger finding blocks the fill until it is
- * acknowledged in words. No ink, no files here: the component executes the effects.
+ * remaining targets are re-targeted, and the composition is judged with the same inverse
+ * model and typed temperatures as `check`. A danger finding blocks the fill until it is
+ * acknowledged in words, and is shown again on the screen of the fill that creates it. A
+ * reading past the tank's working limit stops the fill on a danger screen; an implausible
+ * reading asks first. No ink, no files here: the component executes the effects.
  */
 import {
   evaluateUncertainty,
   fail,
   gaugeReadingPa,
+  inverseSetup,
+  invertReadings,
+  judge,
   ProblemError,
   describeProblem,
   retarget,
+  ventBack,
   type Design,
   type GasSource,
   type Gauge,
+  type RetargetInput,
   type UncertaintyResult,
 } from '../core/index.js';
 import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
-import { gaugeFromLog, sourceFromLog, type LogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
+import { gaugeFromLog, sourceFromLog, type NewLogEvent, type LogHeader, type LogReading, type ParsedLog } from '../io/batch-log.js';
 
 export interface FillStep {
   readonly index: number;
@@ -34,9 +42,21 @@ export interface FillSetup {
   readonly design: Design;
   readonly steps: readonly FillStep[];
   readonly dangers: readonly { readonly code: string; readonly step: number | null; readonly message: string }[];
+  /** the tank's working limit (rating x working fraction; the rating for logs that lack it), Pa absolute */
+  readonly workingLimitPa?: number;
+  /** a gauge-referenced sensor reads some step: today's barometric pressure is asked first */
+  readonly needsBarometer: boolean;
+  /** a top-up: the gas the plan assumed already in the tank */
+  readonly inTank?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number };
 }
 
-export type Phase = 'acknowledge' | 'reading' | 'done';
+/**
+ * barometer: today's barometric pressure; start: a top-up's starting pressure, read and logged;
+ * correct: a new value for an earlier reading; acknowledge: danger findings of the plan; reminder: the
+ * accepted danger of this fill, again; reading: the step; confirm: an implausible reading, asked
+ * first; over-limit: a reading past the working limit; ended: stopped before the last fill; done.
+ */
+export type Phase = 'barometer' | 'acknowledge' | 'start' | 'reminder' | 'reading' | 'correct' | 'confirm' | 'over-limit' | 'ended' | 'done';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -44,6 +64,66 @@ export interface DoneReading {
   readonly pressurePa: number;
   readonly temperatureK: number;
   readonly text: string;
+  /** the log line it is on (known once written) */
+  readonly line?: number;
+}
+
+/** the gas in the tank before the first fill (top-up) */
+export interface StartGas {
+  readonly composition: Readonly<Record<string, number>>;
+  readonly pressurePa: number;
+  readonly temperatureK: number;
+  /** read at the manifold and logged (else the plan's assumption) */
+  readonly read: boolean;
+}
+
+export interface Correcting {
+  readonly step: number;
+  readonly by: string;
+  /** the new reading, once typed; then the reason is asked */
+  readonly pending?: Pending;
+}
+
+export interface FractionDeviation {
+  readonly species: string;
+  readonly design: number;
+  readonly actual: number;
+  /** actual - design */
+  readonly deviation: number;
+  /** allowed |deviation|: max(relative x design, absolute) */
+  readonly tolerance: number;
+  readonly within: boolean;
+  /** expanded uncertainty (k = 2), when the reading's gauges give an uncertainty model */
+  readonly expandedU?: number;
+}
+
+/**
+ * The verdict after a reading is on composition: after the last fill, the as-filled composition
+ * from the inverse model against the design (with U, as `judge` in `check`); before it, the
+ * composition the re-targeted remaining fills lead to, from the as-filled amounts.
+ */
+export interface CompositionJudgement {
+  readonly kind: 'final' | 'predicted';
+  readonly verdict: 'pass' | 'pass-uncertain' | 'fail' | 'on-course' | 'off-course';
+  readonly deviations: readonly FractionDeviation[];
+  readonly phi?: number;
+}
+
+export interface Pending {
+  readonly event: LogReading;
+  readonly done: DoneReading;
+  /** the text as typed, given back when the operator edits it */
+  readonly typed: string;
+  /** why the reading is asked about (confirm) */
+  readonly reason?: string;
+}
+
+export interface OverLimit {
+  readonly limitPa: number;
+  /** vent or pump back to this absolute pressure (from where the remaining fills end at the design pressure if they can; never above the limit), Pa */
+  readonly ventToPa: number;
+  /** what the remaining fills become from there */
+  readonly after: string;
 }
 
 export interface FillState {
@@ -52,21 +132,37 @@ export interface FillState {
   /** 0-based index of the current step */
   readonly current: number;
   readonly done: readonly DoneReading[];
-  /** absolute targets of every step, re-targeted after each reading, Pa */
+  /** absolute targets of every step, re-targeted after each reading and temperature change, Pa */
   readonly targetsPa: readonly number[];
+  /** the temperature the targets are computed for, K */
+  readonly targetTemperatureK: number;
+  /** barometric pressure for gauge-referenced readings, Pa */
+  readonly barometerPa: number;
+  /** today's value was typed (or taken from the log) */
+  readonly barometerToday: boolean;
   readonly field: Field;
   readonly input: string;
   readonly temperatureText: string;
   readonly message?: string;
   readonly error?: string;
-  readonly effects: readonly LogEvent[];
+  readonly effects: readonly NewLogEvent[];
   readonly summary?: UncertaintyResult;
+  readonly judgement?: CompositionJudgement;
+  readonly pending?: Pending;
+  readonly overLimit?: OverLimit;
+  /** steps whose accepted danger has been shown again */
+  readonly reminded: readonly number[];
+  readonly start?: StartGas;
+  readonly correcting?: Correcting;
 }
 
 export type FillAction =
   | { readonly type: 'char'; readonly text: string }
   | { readonly type: 'backspace' }
   | { readonly type: 'tab' }
+  | { readonly type: 'escape' }
+  /** the shell wrote a reading or correction of this step on this log line */
+  | { readonly type: 'logged'; readonly step: number; readonly line: number }
   | { readonly type: 'enter'; readonly now: string };
 
 export function setupFromHeader(header: LogHeader): FillSetup {
@@ -74,54 +170,86 @@ export function setupFromHeader(header: LogHeader): FillSetup {
   const sources = new Map(header.sources.map((s) => [s.id, sourceFromLog(s)]));
   const steps = header.steps.map((s) => ({ index: s.step, species: s.species, source: sources.get(s.source)!, gauge: s.gauge ? gauges.get(s.gauge) : undefined, bandPa: s.band_Pa }));
   const dangers = (header.findings ?? []).filter((f) => f.severity === 'danger').map((f) => ({ code: f.code, step: f.step, message: f.message }));
-  return { header, design: designFromHeader(header), steps, dangers };
+  const workingLimitPa = header.tank.working_limit_Pa ?? header.tank.rated_pressure_Pa ?? undefined;
+  const inTank = header.in_tank ? { composition: header.in_tank.composition, pressurePa: header.in_tank.pressure_Pa } : undefined;
+  return { header, design: designFromHeader(header), steps, dangers, workingLimitPa, needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge'), inTank };
 }
 
 const degC = (k: number) => `${(k - 273.15).toFixed(1)} degC`;
+const BARO_RANGE_PA = [70e3, 110e3] as const;
 
 /** a new fill, or one resumed from its log */
 export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillState {
-  const targets = setup.header.steps.map((s) => s.target_Pa);
+  const h = setup.header;
+  const targets = h.steps.map((s) => s.target_Pa);
   const acked = new Set((log?.acknowledgements ?? []).map((a) => a.code));
-  const done: DoneReading[] = (log?.readings ?? []).map((r) => ({ step: r.step, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, text: r.reading }));
+  const done: DoneReading[] = (log?.readings ?? []).map((r) => ({ step: r.step, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, text: r.reading, line: r.line }));
   const needsAck = setup.dangers.some((d) => !acked.has(d.code));
+  const lastBaro = log?.barometer?.pressure_Pa ?? [...(log?.readings ?? [])].reverse().find((r) => r.barometer_Pa !== undefined)?.barometer_Pa;
+  const inTank = setup.inTank;
+  const start: StartGas | undefined = inTank
+    ? log?.start
+      ? { composition: inTank.composition, pressurePa: log.start.pressure_Pa, temperatureK: log.start.temperature_K, read: true }
+      : { composition: inTank.composition, pressurePa: inTank.pressurePa, temperatureK: h.temperature_K, read: false }
+    : undefined;
+  const T = done.length ? done[done.length - 1].temperatureK : h.temperature_K;
   let state: FillState = {
     setup,
-    phase: needsAck ? 'acknowledge' : 'reading',
+    phase: 'reading',
     current: done.length,
     done,
     targetsPa: targets,
+    targetTemperatureK: h.temperature_K,
+    barometerPa: lastBaro ?? h.barometer.pressure_Pa,
+    barometerToday: lastBaro !== undefined,
     field: 'reading',
     input: '',
-    temperatureText: degC(done.length ? done[done.length - 1].temperatureK : setup.header.temperature_K),
+    temperatureText: degC(T),
     effects: [],
+    reminded: [],
+    start,
     message: done.length ? `resumed: ${done.length} of ${setup.steps.length} readings were in the log` : undefined,
   };
-  if (done.length) state = { ...state, targetsPa: retargeted(state, done) };
-  if (done.length >= setup.steps.length) state = finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
-  return state;
+  if (done.length || start?.read) {
+    const r = retargetRun(state, done, T);
+    state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
+  }
+  if (done.length >= setup.steps.length) return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
+  return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
 }
 
-/** the remaining targets after the readings done (and what had to give) */
-function retargeted(s: FillState, done: readonly DoneReading[]): number[] {
-  return retargetRun(s, done).targets;
+/** the phase a step opens with: today's barometer first, then the acknowledgement, then this fill's own danger */
+function enterStep(s: FillState): FillState {
+  if (s.phase === 'acknowledge') return s;
+  if (s.setup.needsBarometer && !s.barometerToday) return { ...s, phase: 'barometer', input: '' };
+  if (s.start && !s.start.read && s.done.length === 0) return { ...s, phase: 'start', input: '' };
+  const stepIndex = s.setup.steps[s.current]?.index;
+  if (stepIndex !== undefined && !s.reminded.includes(stepIndex) && s.setup.dangers.some((d) => d.step === stepIndex)) return { ...s, phase: 'reminder', input: '' };
+  return { ...s, phase: 'reading' };
 }
 
-function retargetRun(s: FillState, done: readonly DoneReading[]): { targets: number[]; message: string } {
+export function retargetInput(s: FillState, done: readonly DoneReading[], temperatureK: number): RetargetInput {
   const h = s.setup.header;
-  const r = retarget({
+  return {
     design: s.setup.design,
     tolerance: h.tolerance,
     sources: s.setup.steps.map((x) => x.source),
     done: done.map((d) => ({ pressurePa: d.pressurePa, temperatureK: d.temperatureK })),
-    temperatureK: done.length ? done[done.length - 1].temperatureK : h.temperature_K,
+    temperatureK,
     finalPressurePa: h.final_pressure_Pa,
     volumeM3: h.tank.volume_m3,
-    workingLimitPa: h.tank.rated_pressure_Pa ?? undefined,
-  });
+    workingLimitPa: s.setup.workingLimitPa,
+    initial: s.start,
+    formatPressure: (pa) => `${fromPa(pa, 'Torr').toPrecision(6)} Torr`,
+  };
+}
+
+/** the remaining targets after the readings done, at the temperature of the next fills */
+function retargetRun(s: FillState, done: readonly DoneReading[], temperatureK: number) {
+  const r = retarget(retargetInput(s, done, temperatureK));
   const t = [...s.targetsPa];
   for (const x of r.remaining) t[x.step - 1] = x.targetPa;
-  return { targets: t, message: r.message };
+  return { targets: t, message: r.message, result: r };
 }
 
 function gaugeUnit(step: FillStep): PressureUnit {
@@ -130,84 +258,389 @@ function gaugeUnit(step: FillStep): PressureUnit {
 
 /** what the operator should read on the gauge for an absolute tank pressure */
 export function shownPa(s: FillState, step: FillStep, absolutePa: number): number {
-  const ctx = { barometricPa: s.setup.header.barometer.pressure_Pa, barometricUncertaintyPa: s.setup.header.barometer.u_Pa };
+  const ctx = { barometricPa: s.barometerPa, barometricUncertaintyPa: s.setup.header.barometer.u_Pa };
   return step.gauge ? gaugeReadingPa(step.gauge, absolutePa, ctx) : absolutePa;
 }
 
-function finish(s: FillState, now?: string): FillState {
-  const h = s.setup.header;
-  // a step without a gauge (a danger finding the operator accepted) has no uncertainty model: no summary then
-  const withGauges = s.done.every((_, i) => s.setup.steps[i].gauge);
-  const readings = withGauges ? s.done.map((d, i) => ({ step: d.step, source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK, gauge: s.setup.steps[i].gauge! })) : [];
-  let summary: UncertaintyResult | undefined;
-  if (withGauges) try {
-    summary = evaluateUncertainty(readings, { barometricPa: h.barometer.pressure_Pa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: 0, seed: 1 }, h.design.diluent);
-  } catch {
-    summary = undefined;
-  }
-  const effects: LogEvent[] = now ? [...s.effects, { kind: 'close', time: now }] : [...s.effects];
-  return { ...s, phase: 'done', effects, summary };
+function deviationsOf(composition: Readonly<Record<string, { value: number; u?: number } | number>>, s: FillState): FractionDeviation[] {
+  const tol = s.setup.header.tolerance;
+  return Object.entries(s.setup.design.composition)
+    .filter(([, xd]) => xd > 0)
+    .map(([k, xd]) => {
+      const v = composition[k];
+      const actual = typeof v === 'number' ? v : (v?.value ?? 0);
+      const t = Math.max(tol.relative * xd, tol.absolute);
+      return { species: k, design: xd, actual, deviation: actual - xd, tolerance: t, within: Math.abs(actual - xd) <= t };
+    });
 }
 
-export function fillReducer(s: FillState, a: FillAction): FillState {
-  const base = { ...s, effects: [] as LogEvent[], error: undefined };
-  if (a.type === 'char') {
-    if (base.field === 'temperature' && base.phase === 'reading') return { ...base, temperatureText: base.temperatureText + a.text };
-    return { ...base, input: base.input + a.text.replace(/[\r\n]/g, '') };
+const initialOf = (s: FillState) => (s.start ? { composition: { ...s.start.composition }, pressurePa: s.start.pressurePa, temperatureK: s.start.temperatureK } : undefined);
+
+/** the as-filled composition of all readings, with the GUM uncertainty where every step has a gauge */
+function finalJudgement(s: FillState): { judgement: CompositionJudgement; summary?: UncertaintyResult } {
+  const h = s.setup.header;
+  const withGauges = s.done.every((_, i) => s.setup.steps[i].gauge);
+  if (withGauges) {
+    try {
+      const readings = s.done.map((d, i) => ({ step: d.step, source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK, gauge: s.setup.steps[i].gauge! }));
+      const summary = evaluateUncertainty(readings, { barometricPa: s.barometerPa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: 0, seed: 1 }, h.design.diluent, initialOf(s));
+      const v = judge(summary, s.setup.design, h.tolerance);
+      const deviations = v.deviations.map((d) => ({ species: d.species, design: d.design, actual: d.actual, deviation: d.deviation, tolerance: d.tolerance, within: d.within, expandedU: d.expandedU }));
+      return { summary, judgement: { kind: 'final', verdict: v.verdict === 'no-design' ? 'fail' : v.verdict, deviations, phi: summary.phi?.value } };
+    } catch (e) {
+      if (!(e instanceof ProblemError)) throw e;
+    }
   }
-  if (a.type === 'backspace') {
-    if (base.field === 'temperature' && base.phase === 'reading') return { ...base, temperatureText: base.temperatureText.slice(0, -1) };
-    return { ...base, input: base.input.slice(0, -1) };
-  }
-  if (a.type === 'tab') return base.phase === 'reading' ? { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' } : base;
-  // enter
-  if (base.phase === 'done') return base;
-  if (base.phase === 'acknowledge') {
-    const m = /^\s*accept\s+([A-Za-z]{1,6})\s*$/.exec(base.input);
-    if (!m) return { ...base, error: 'to go on past a danger finding, type "accept" and your initials (e.g. accept AB), then Enter; Ctrl-C stops' };
-    const effects: LogEvent[] = base.setup.dangers.map((d) => ({ kind: 'acknowledge', code: d.code, step: d.step, by: m[1], time: a.now, note: d.message }));
-    return { ...base, phase: 'reading', input: '', effects, message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged` };
-  }
-  const step = base.setup.steps[base.current];
-  const unit = gaugeUnit(step);
-  let shown: number;
-  let temperatureK: number;
+  // a step without a gauge has no uncertainty model: the nominal inverse only
+  const setup = inverseSetup(s.done.map((d, i) => ({ source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK })), initialOf(s));
+  const res = invertReadings(setup, undefined, s.done.map((d) => d.pressurePa));
+  const comp: Record<string, number> = {};
+  setup.species.forEach((k, i) => (comp[k] = res.x[i] * (1 - res.unidentified)));
+  const deviations = deviationsOf(comp, s);
+  return { judgement: { kind: 'final', verdict: deviations.every((d) => d.within) ? 'pass-uncertain' : 'fail', deviations } };
+}
+
+function finish(s: FillState, now?: string): FillState {
+  const { judgement, summary } = finalJudgement(s);
+  const effects: NewLogEvent[] = now ? [...s.effects, { kind: 'close', time: now }] : [...s.effects];
+  return { ...s, phase: 'done', effects, summary, judgement };
+}
+
+const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
+
+function parseReading(s: FillState, step: FillStep): { shown: number; temperatureK: number } | { error: string } {
   try {
-    const text = base.input.trim();
+    const text = s.input.trim();
     if (text === '') fail({ code: 'bad-quantity', text, expected: 'pressure', reason: 'type the reading first' });
-    shown = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(text) ? parseQuantity(`${text} ${unit}`, 'pressure') : parseQuantity(text, 'pressure');
-    temperatureK = parseQuantity(base.temperatureText.trim(), 'temperature');
-    if (!(temperatureK >= 200 && temperatureK <= 600)) fail({ code: 'out-of-range', what: 'tank temperature', value: temperatureK, allowed: '200-600 K' });
+    const shown = READING_NUMBER.test(text) ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure') : parseQuantity(text, 'pressure');
+    const temperatureK = parseTemperature(s.temperatureText);
+    return { shown, temperatureK };
   } catch (e) {
-    if (e instanceof ProblemError) return { ...base, error: describeProblem(e.problem) };
+    if (e instanceof ProblemError) return { error: describeProblem(e.problem) };
     throw e;
   }
-  const baro = base.setup.header.barometer.pressure_Pa;
-  const absolute = step.gauge?.reference === 'gauge' ? shown + baro : shown;
-  const prev = base.done.length ? base.done[base.done.length - 1].pressurePa : 0;
-  if (!(absolute > prev)) return { ...base, error: `the reading must be above the previous one (${fromPa(prev, unit).toFixed(4)} ${unit} absolute); each fill raises the tank pressure` };
-  if (step.gauge && shown > step.gauge.fullScalePa) return { ...base, error: `${step.gauge.id} reads only up to ${fromPa(step.gauge.fullScalePa, unit)} ${unit}; check the gauge and the unit` };
-  const target = base.targetsPa[base.current];
-  const deviation = absolute - target;
-  const within = Math.abs(deviation) <= step.bandPa;
-  const readingText = `${base.input.trim()}${/[A-Za-z]/.test(base.input) ? '' : ` ${unit}`}`;
-  const event: LogEvent = {
+}
+
+function parseTemperature(text: string): number {
+  const t = parseQuantity(text.trim(), 'temperature');
+  if (!(t >= 200 && t <= 600)) fail({ code: 'out-of-range', what: 'tank temperature', value: t, allowed: '200-600 K' });
+  return t;
+}
+
+/** re-target the current and later steps for a changed temperature (the fills ahead are read at it) */
+function withTemperature(s: FillState): FillState {
+  let T: number;
+  try {
+    T = parseTemperature(s.temperatureText);
+  } catch (e) {
+    if (e instanceof ProblemError) return { ...s, error: describeProblem(e.problem) };
+    throw e;
+  }
+  if (Math.abs(T - s.targetTemperatureK) < 0.005) return s;
+  const r = retargetRun(s, s.done, T);
+  return { ...s, targetsPa: r.targets, targetTemperatureK: T, message: `targets re-computed for ${degC(T)}: the amount to fill is the same, its pressure is not` };
+}
+
+const fmtIn = (pa: number, unit: PressureUnit, sig = 6) => `${fromPa(pa, unit).toPrecision(sig)} ${unit}`;
+
+/** plausibility: why a reading looks wrong, or undefined */
+function doubt(s: FillState, step: FillStep, shown: number): string | undefined {
+  const unit = gaugeUnit(step);
+  const target = s.targetsPa[s.current];
+  const targetShown = shownPa(s, step, target);
+  if (step.gauge?.reference === 'gauge' && Math.abs(Math.abs(shown - targetShown) - s.barometerPa) <= 0.1 * s.barometerPa) {
+    const sense = shown > targetShown ? 'an absolute pressure typed for a gauge-referenced sensor' : 'a gauge-referenced value where the target is absolute';
+    return `${fmtIn(shown, unit)} is about one barometric pressure (${fmtIn(s.barometerPa, unit, 5)}) from the target ${fmtIn(targetShown, unit)} on ${step.gauge.id}, which reads above ambient: likely ${sense}`;
+  }
+  if (step.gauge && shown < step.gauge.minimumPa) return `${fmtIn(shown, unit)} is below the range of ${step.gauge.id} (from ${fmtIn(step.gauge.minimumPa, unit)}): likely the unit, a sign, or a gauge not zeroed`;
+  return undefined;
+}
+
+function readingEvent(s: FillState, step: FillStep, absolute: number, temperatureK: number, now: string, note?: string): LogReading {
+  const unit = gaugeUnit(step);
+  const readingText = `${s.input.trim()}${/[A-Za-z]/.test(s.input) ? '' : ` ${unit}`}`;
+  return {
     kind: 'reading',
     step: step.index,
     source: step.source.id,
     gauge: step.gauge?.id ?? 'none',
     reading: readingText,
     pressure_Pa: absolute,
-    ...(step.gauge?.reference === 'gauge' ? { barometer_Pa: baro } : {}),
-    temperature: base.temperatureText.trim(),
+    ...(step.gauge?.reference === 'gauge' ? { barometer_Pa: s.barometerPa } : {}),
+    temperature: s.temperatureText.trim(),
     temperature_K: temperatureK,
-    time: a.now,
+    time: now,
+    ...(note ? { note } : {}),
   };
-  const done = [...base.done, { step: step.index, pressurePa: absolute, temperatureK, text: readingText }];
-  const devText = `fill ${step.index} logged: ${fromPa(deviation, unit) >= 0 ? '+' : ''}${fromPa(deviation, unit).toPrecision(3)} ${unit} from the target (${within ? 'inside' : 'OUTSIDE'} the band)`;
-  let next: FillState = { ...base, done, current: base.current + 1, input: '', field: 'reading', effects: [event] };
-  if (next.current >= base.setup.steps.length) return finish({ ...next, message: devText }, a.now);
-  const r = retargetRun(base, done);
-  next = { ...next, targetsPa: r.targets, message: `${devText}; re-targeted: ${r.message}` };
-  return next;
+}
+
+/** take a reading the operator has confirmed: log it, judge the composition, re-target or finish */
+function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], now: string): FillState {
+  const step = s.setup.steps[s.current];
+  const unit = gaugeUnit(step);
+  const target = s.targetsPa[s.current];
+  const deviation = p.done.pressurePa - target;
+  const within = Math.abs(deviation) <= step.bandPa;
+  const done = [...s.done, p.done];
+  const pressureText = `fill ${step.index} logged: ${fromPa(deviation, unit) >= 0 ? '+' : ''}${fromPa(deviation, unit).toPrecision(3)} ${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
+  let next: FillState = { ...s, done, current: s.current + 1, input: '', field: 'reading', effects: [...extra, p.event], pending: undefined, overLimit: undefined };
+  if (next.current >= s.setup.steps.length) return finish({ ...next, message: pressureText }, now);
+  const r = retargetRun(s, done, p.done.temperatureK);
+  const deviations = deviationsOf(r.result.predicted.composition, s);
+  const judgement: CompositionJudgement = { kind: 'predicted', verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course', deviations, phi: r.result.predicted.phi };
+  next = { ...next, targetsPa: r.targets, targetTemperatureK: p.done.temperatureK, judgement, message: `${pressureText}; ${r.message}` };
+  if (r.result.limitBinds && r.result.nowPa >= (s.setup.workingLimitPa ?? Infinity)) {
+    return { ...next, phase: 'ended', effects: [...next.effects, { kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is at or above its working limit; no further fill can be made within it` }] };
+  }
+  return enterStep(next);
+}
+
+/** after the reading is plausible (or confirmed): the working limit */
+function afterDoubt(s: FillState, p: Pending, now: string): FillState {
+  const limit = s.setup.workingLimitPa;
+  if (limit !== undefined && p.done.pressurePa > limit) {
+    const done = [...s.done, p.done];
+    const v = ventBack({ ...retargetInput(s, done, p.done.temperatureK), workingLimitPa: limit });
+    return { ...s, phase: 'over-limit', pending: p, input: '', overLimit: { limitPa: limit, ventToPa: v.targetPa, after: v.after.message } };
+  }
+  return commit(s, p, [], now);
+}
+
+function onReadingEnter(s: FillState, now: string): FillState {
+  const step = s.setup.steps[s.current];
+  const unit = gaugeUnit(step);
+  const parsed = parseReading(s, step);
+  if ('error' in parsed) return { ...s, error: parsed.error };
+  const { shown, temperatureK } = parsed;
+  const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
+  const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
+  if (!(absolute > prev)) {
+    return {
+      ...s,
+      error: `${fmtIn(absolute, unit)} absolute is not above the previous reading ${fmtIn(prev, unit)}, and a fill only adds gas. Likely: a typing slip or the unit; gas that flowed back into the line (it was below the tank pressure when the valve opened; the tank's composition is unchanged: fill on to the target and log that reading); or the tank cooled (check the temperature). The reading is not logged.`,
+    };
+  }
+  if (step.gauge && shown > step.gauge.fullScalePa) {
+    return { ...s, error: `${fmtIn(shown, unit)} is past the range of ${step.gauge.id} (up to ${fmtIn(step.gauge.fullScalePa, unit)}): a head past its range shows no measurement. Likely the unit or a typing slip; if the tank really is above it, close the head's valve and read the tank on a gauge with a higher range. The reading is not logged.` };
+  }
+  // the judgement uses the temperature typed with the reading: re-target first if it changed
+  const s1 = Math.abs(temperatureK - s.targetTemperatureK) >= 0.005 ? withTemperature(s) : s;
+  const event = readingEvent(s1, step, absolute, temperatureK, now);
+  const p: Pending = { event, done: { step: step.index, pressurePa: absolute, temperatureK, text: event.reading }, typed: s1.input.trim() };
+  const why = doubt(s1, step, shown);
+  if (why) return { ...s1, phase: 'confirm', pending: { ...p, reason: why } };
+  return afterDoubt(s1, p, now);
+}
+
+function onOverLimitEnter(s: FillState, now: string): FillState {
+  const p = s.pending!;
+  const o = s.overLimit!;
+  const step = s.setup.steps[s.current];
+  const unit = gaugeUnit(step);
+  const text = s.input.trim();
+  if (/^edit$/i.test(text)) return { ...s, phase: 'reading', pending: undefined, overLimit: undefined, input: p.typed };
+  const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
+  const last = s.current + 1 >= s.setup.steps.length;
+  if (acc) {
+    const ack: NewLogEvent = { kind: 'acknowledge', code: 'above-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
+    return commit(s, { ...p, event: { ...p.event, note: `above the working limit; accepted by ${acc[1]}` } }, [ack], now);
+  }
+  if (/^vent$/i.test(text)) {
+    const note = `above the working limit ${fmtIn(o.limitPa, unit)}; the operator vents the tank back to ${fmtIn(o.ventToPa, unit)} absolute`;
+    const event: LogReading = { ...p.event, note };
+    const done = [...s.done, p.done];
+    const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
+    if (last) {
+      const f = finish({ ...base, effects: [event] }, now);
+      return { ...f, message: `fill ${step.index} logged above the working limit; vent the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the re-check below holds for the vented tank.` };
+    }
+    return {
+      ...base,
+      phase: 'ended',
+      effects: [event, { kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} absolute; the readings give its composition; finish the design as a top-up batch` }],
+      message: `fill ${step.index} logged. Vent or pump the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so this log's readings still give it; finish the design as a top-up batch (in_tank: the composition of \`mixwright check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
+    };
+  }
+  return { ...s, error: 'type "vent" (you vent or pump back), "accept" and your initials (keep the tank as it is; logged), or "edit" (the reading was mistyped), then Enter' };
+}
+
+const INITIALS = /^(.*\S)\s+([A-Za-z]{1,6})$/;
+
+/** "VALUE INITIALS": the value text and the initials, or an error naming what is missing */
+function withInitials(text: string, what: string, example: string): { value: string; by: string } | { error: string } {
+  const m = INITIALS.exec(text.trim());
+  if (!m) return { error: `type the ${what} and then your initials, e.g. ${example}` };
+  return { value: m[1], by: m[2] };
+}
+
+/** after the reading set changed (undo, correction): re-target and judge from the readings in force */
+function rejudge(s: FillState): FillState {
+  if (s.current >= s.setup.steps.length) return s;
+  const r = retargetRun(s, s.done, s.targetTemperatureK);
+  if (!s.done.length) return { ...s, targetsPa: r.targets, judgement: undefined };
+  const deviations = deviationsOf(r.result.predicted.composition, s);
+  return { ...s, targetsPa: r.targets, judgement: { kind: 'predicted', verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course', deviations, phi: r.result.predicted.phi } };
+}
+
+/** the commands of the reading screen: undo INITIALS (the last reading) and fix N INITIALS (any earlier one) */
+function onCommand(s: FillState, text: string, now: string): FillState | undefined {
+  const undo = /^undo\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^undo\b/i.test(text) && !undo) return { ...s, error: 'type "undo" and your initials, e.g. undo AB' };
+  if (undo) {
+    const last = s.done[s.done.length - 1];
+    if (!last) return { ...s, error: 'no reading is logged yet; nothing to undo' };
+    if (last.line === undefined) return { ...s, error: 'the log line of the last reading is not known; stop and resume the fill to undo it' };
+    const done = s.done.slice(0, -1);
+    const next = rejudge({ ...s, done, current: s.current - 1, input: '', effects: [{ kind: 'withdraw', step: last.step, withdraws_line: last.line, by: undo[1], time: now, reason: 'taken back at the manifold before the next fill' }] });
+    return enterStep({ ...next, message: `the reading of fill ${last.step} (${last.text}) is withdrawn by ${undo[1]}; the log keeps it and the withdrawal. Read fill ${last.step} again` });
+  }
+  const fix = /^fix\s+(\d+)\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^fix\b/i.test(text) && !fix) return { ...s, error: 'type "fix", the fill number and your initials, e.g. fix 2 AB' };
+  if (fix) {
+    const n = Number(fix[1]);
+    const d = s.done.find((x) => x.step === n);
+    if (!d) return { ...s, error: `fill ${n} has no reading logged; only a logged reading can be corrected (fills logged: ${s.done.map((x) => x.step).join(', ') || 'none'})` };
+    if (d.line === undefined) return { ...s, error: `the log line of fill ${n} is not known; stop and resume the fill to correct it` };
+    return { ...s, phase: 'correct', correcting: { step: n, by: fix[2] }, input: '', field: 'reading', temperatureText: degC(d.temperatureK) };
+  }
+  return undefined;
+}
+
+function onCorrectEnter(s: FillState, now: string): FillState {
+  const c = s.correcting!;
+  const i = s.done.findIndex((x) => x.step === c.step);
+  const old = s.done[i];
+  const step = s.setup.steps[c.step - 1];
+  const unit = gaugeUnit(step);
+  if (!c.pending) {
+    const parsed = parseReading(s, step);
+    if ('error' in parsed) return { ...s, error: parsed.error };
+    const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+    const before = i > 0 ? s.done[i - 1].pressurePa : (s.start?.pressurePa ?? 0);
+    const after = s.done[i + 1]?.pressurePa;
+    if (!(absolute > before) || (after !== undefined && !(absolute < after))) {
+      return { ...s, error: `${fmtIn(absolute, unit)} absolute does not lie between the readings before and after fill ${c.step} (${fmtIn(before, unit)}${after !== undefined ? ` and ${fmtIn(after, unit)}` : ''}); correct those first, or check the value` };
+    }
+    if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}` };
+    const ev = readingEvent(s, step, absolute, parsed.temperatureK, now);
+    return { ...s, input: '', correcting: { ...c, pending: { event: ev, done: { step: c.step, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading }, typed: s.input.trim() } } };
+  }
+  const reason = s.input.trim();
+  if (!reason) return { ...s, error: 'type why the reading is corrected (e.g. "mistyped: 1480.0 not 1408.0"), then Enter; Esc cancels' };
+  const p = c.pending;
+  const event: NewLogEvent = { ...p.event, kind: 'correction', by: c.by, reason, replaces_line: old.line! };
+  const done = s.done.map((x, j) => (j === i ? p.done : x));
+  const limit = s.setup.workingLimitPa;
+  const over = limit !== undefined && p.done.pressurePa > limit ? ` - ${fmtIn(p.done.pressurePa, unit)} is ABOVE the working limit ${fmtIn(limit, unit)}` : '';
+  let next: FillState = { ...s, done, correcting: undefined, input: '', effects: [event], message: `fill ${c.step} corrected by ${c.by}: ${old.text} -> ${p.done.text} (the original stays in the log)${over}` };
+  if (next.current >= s.setup.steps.length) return { ...finish({ ...next, effects: [event] }), message: next.message };
+  next = rejudge(next);
+  return enterStep({ ...next, phase: 'reading' });
+}
+
+export function fillReducer(s: FillState, a: FillAction): FillState {
+  if (a.type === 'logged') return { ...s, effects: [], done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)) };
+  const base = { ...s, effects: [] as NewLogEvent[], error: undefined };
+  const textPhase = (base.phase === 'reading' || base.phase === 'start' || (base.phase === 'correct' && !base.correcting?.pending)) && base.field === 'temperature';
+  if (a.type === 'char') {
+    if (base.phase === 'confirm') {
+      if (/^[yY]/.test(a.text)) return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
+      if (/^[nNeE]/.test(a.text)) return { ...base, phase: 'reading', pending: undefined };
+      return { ...base, error: 'y: log the reading as typed   n: back to the reading' };
+    }
+    if (textPhase) return { ...base, temperatureText: base.temperatureText + a.text };
+    return { ...base, input: base.input + a.text.replace(/[\r\n]/g, '') };
+  }
+  if (a.type === 'backspace') {
+    if (textPhase) return { ...base, temperatureText: base.temperatureText.slice(0, -1) };
+    return { ...base, input: base.input.slice(0, -1) };
+  }
+  if (a.type === 'escape') {
+    if (base.phase === 'correct') return { ...base, phase: 'reading', correcting: undefined, input: '', temperatureText: degC(base.targetTemperatureK), message: 'correction cancelled; nothing logged' };
+    if (base.phase === 'confirm' || base.phase === 'over-limit') return { ...base, phase: 'reading', input: base.pending?.typed ?? base.input, pending: undefined, overLimit: undefined };
+    return base;
+  }
+  if (a.type === 'tab') {
+    if (base.phase === 'start' || (base.phase === 'correct' && !base.correcting?.pending)) return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
+    if (base.phase !== 'reading') return base;
+    if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
+    return { ...base, field: 'temperature' };
+  }
+  // enter
+  switch (base.phase) {
+    case 'done':
+    case 'ended':
+    case 'confirm':
+      return base;
+    case 'barometer': {
+      try {
+        // a pressure alone: only the initials are missing
+        let whole = false;
+        try {
+          parseQuantity(base.input.trim(), 'pressure');
+          whole = true;
+        } catch {
+          whole = false;
+        }
+        if (whole) return { ...base, error: 'add your initials after the pressure, e.g. 752.3 Torr AB' };
+        const w = withInitials(base.input, 'barometric pressure with its unit', '752.3 Torr AB');
+        if ('error' in w) return { ...base, error: w.error };
+        const p = parseQuantity(w.value, 'pressure', { field: 'barometric pressure' });
+        if (!(p >= BARO_RANGE_PA[0] && p <= BARO_RANGE_PA[1])) fail({ code: 'out-of-range', what: 'barometric pressure', value: p, allowed: '70-110 kPa (525-825 Torr)' });
+        const ev: NewLogEvent = { kind: 'barometer', reading: w.value, pressure_Pa: p, u_Pa: base.setup.header.barometer.u_Pa, by: w.by, time: a.now };
+        return enterStep({ ...base, barometerPa: p, barometerToday: true, input: '', effects: [ev], message: `barometric pressure today ${fmtIn(p, 'Torr', 5)} (logged): the gauge-referenced targets use it` });
+      } catch (e) {
+        if (e instanceof ProblemError) return { ...base, error: `${describeProblem(e.problem)} - type today's barometric pressure with its unit, e.g. 752.3 Torr or 1003.1 hPa` };
+        throw e;
+      }
+    }
+    case 'acknowledge': {
+      const m = /^\s*accept\s+([A-Za-z]{1,6})\s*$/.exec(base.input);
+      if (!m) return { ...base, error: 'to go on past a danger finding, type "accept" and your initials (e.g. accept AB), then Enter; Ctrl-C stops' };
+      const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({ kind: 'acknowledge', code: d.code, step: d.step, by: m[1], time: a.now, note: d.message }));
+      return enterStep({ ...base, phase: 'reading', input: '', effects, message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged` });
+    }
+    case 'start':
+      return onStartEnter(base, a.now);
+    case 'correct':
+      return onCorrectEnter(base, a.now);
+    case 'reminder':
+      return { ...base, phase: 'reading', input: '', reminded: [...base.reminded, base.setup.steps[base.current].index] };
+    case 'over-limit':
+      return onOverLimitEnter(base, a.now);
+    case 'reading':
+      return onCommand(base, base.input.trim(), a.now) ?? onReadingEnter(base, a.now);
+  }
+  return base;
+}
+
+/** a top-up: the tank's pressure and temperature before the first fill, read on the first fill's gauge */
+function onStartEnter(s: FillState, now: string): FillState {
+  const step = s.setup.steps[0];
+  const unit = gaugeUnit(step);
+  const w = withInitials(s.input, 'reading', '120.4 AB');
+  if ('error' in w) return { ...s, error: w.error };
+  const parsed = parseReading({ ...s, input: w.value }, step);
+  if ('error' in parsed) return { ...s, error: parsed.error };
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}; read the tank on a gauge that covers it` };
+  const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+  if (!(absolute > 0)) return { ...s, error: 'the starting pressure must be above zero absolute; an empty tank is not a top-up' };
+  const limit = s.setup.workingLimitPa;
+  if (limit !== undefined && absolute >= limit) return { ...s, error: `${fmtIn(absolute, unit)} absolute is at or above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: no fill can be made. Vent the tank first` };
+  const text = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
+  const ev: NewLogEvent = {
+    kind: 'start-pressure',
+    gauge: step.gauge?.id ?? 'none',
+    reading: text,
+    pressure_Pa: absolute,
+    ...(step.gauge?.reference === 'gauge' ? { barometer_Pa: s.barometerPa } : {}),
+    temperature: s.temperatureText.trim(),
+    temperature_K: parsed.temperatureK,
+    by: w.by,
+    time: now,
+  };
+  const planned = s.start!.pressurePa;
+  const next: FillState = { ...s, start: { ...s.start!, pressurePa: absolute, temperatureK: parsed.temperatureK, read: true }, input: '', field: 'reading', effects: [ev] };
+  const r = retargetRun(next, [], parsed.temperatureK);
+  return enterStep({ ...next, targetsPa: r.targets, targetTemperatureK: parsed.temperatureK, message: `starting pressure ${text} logged by ${w.by} (the plan assumed ${fmtIn(planned, unit)} absolute); targets re-computed from it: ${r.message}` });
 }

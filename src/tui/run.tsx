@@ -9,28 +9,46 @@ import { WizardApp } from './wizard-app.js';
 import { DEFAULTS, wizardInit, type ActionName, type ActOutcome, type WizardState } from './wizard-state.js';
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
-import { createLog, openLogForFill, readLog, type LogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
-import { headerFromPlan } from '../io/check.js';
+import { createLog, openLogForFill, readLog, type NewLogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
+import { checkLog, headerFromPlan } from '../io/check.js';
+
+/** the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default, so the two agree */
+const CHECK_TRIALS = 200000;
 import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';
 import { sheetToHtml } from '../report/sheet-render.js';
 import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.js';
 
-export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<void> {
+export interface FillOutcome {
+  /** Ctrl-C stopped the fill */
+  readonly interrupted: boolean;
+  /** readings in force in the log when the fill ended (read back from the file) */
+  readonly logged: number;
+  readonly steps: number;
+  readonly logFile: string;
+}
+
+export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<FillOutcome> {
   // the lock is held for the whole fill; a torn last line is moved aside before anything is appended
   const opened = openLogForFill(args.logFile);
+  let interrupted = false;
   try {
-    for (const m of opened.messages) process.stderr.write(`mixwright: ${args.logFile}: ${m}\n`);
+    for (const m of opened.messages) process.stderr.write(`mixwright: ${args.logFile}: ${m}
+`);
     const setup = setupFromHeader(opened.log.header);
     const now = new Date().toISOString();
     const initial = initialState(setup, args.log ? opened.log : undefined, now);
-    const write = (e: LogEvent) => {
-      if (e.kind === 'batch') throw new Error('the header is written once, by createLog');
-      opened.handle.append(e);
-    };
+    const write = (e: NewLogEvent) => opened.handle.append(e);
     for (const e of initial.effects) write(e);
-    const app = render(<FillApp initial={{ ...initial, effects: [] }} write={write} logFile={args.logFile} />);
+    const recheck = async () => {
+      const log = readLog(args.logFile);
+      return { report: await checkLog(log, { trials: CHECK_TRIALS, seed: 1 }), log };
+    };
+    const told = opened.messages.length ? { message: [...opened.messages, initial.message].filter(Boolean).join('; ') } : {};
+    const app = render(<FillApp initial={{ ...initial, ...told, effects: [] }} write={write} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} />, { exitOnCtrlC: false });
     await app.waitUntilExit();
+    app.unmount();
+    return { interrupted, logged: opened.handle.current().readings.length, steps: setup.steps.length, logFile: args.logFile };
   } finally {
     opened.handle.release();
   }
@@ -126,7 +144,7 @@ export function wizardAct(s: WizardState, action: string, ctx: WizardContext, re
 }
 
 /** the wizard; returns when the user leaves, or runs the guided fill it hands over to */
-export async function runWizard(args: WizardContext): Promise<void> {
+export async function runWizard(args: WizardContext): Promise<FillOutcome | undefined> {
   const evaluate = makeEvaluator(args.labFile);
   const ctx: WizardContext = { ...args, written: args.written ?? new Map() };
   let handOver: { header: LogHeader; logFile: string } | undefined;
@@ -141,5 +159,6 @@ export async function runWizard(args: WizardContext): Promise<void> {
   const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} lab={args.labFile ? `${args.labFile}, ${lab.name}` : undefined} />, { exitOnCtrlC: false });
   await app.waitUntilExit();
   app.unmount();
-  if (handOver) await runFill(handOver);
+  if (handOver) return runFill(handOver);
+  return undefined;
 }

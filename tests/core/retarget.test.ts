@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { designMixture, planFill, pureCylinder, retarget, type Gauge } from '../../src/core/index.js';
+import { designMixture, planFill, pureCylinder, retarget, ventBack, type Gauge } from '../../src/core/index.js';
 import { TORR } from '../helpers.js';
 
 const head = (id: string, fsTorr: number, res: number): Gauge => ({ id, label: id, reference: 'absolute', fullScalePa: fsTorr * TORR, minimumPa: 0, accuracyOfReading: 0.0012, accuracyOfFullScale: 0, resolutionPa: res * TORR, unit: 'Torr' });
@@ -60,5 +60,38 @@ describe('re-targeting', () => {
     expect(r.remaining[r.remaining.length - 1].targetPa).toBeLessThanOrEqual(limit * (1 + 1e-9));
     expect(Math.abs(r.predicted.phi! - 1)).toBeLessThan(1e-4);
     expect(r.gave).toContain('dilution');
+  });
+});
+
+describe('re-targeting at the working limit', () => {
+  const limit = 1002 * TORR;
+  it('an overshoot past the limit: no further fill is proposed, the message says so', () => {
+    const r = retarget({ ...base, workingLimitPa: limit, done: [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: 1010 * TORR, temperatureK: 298.15 }] });
+    expect(r.limitBinds).toBe(true);
+    expect(r.nowPa / TORR).toBeCloseTo(1010, 6); // same reading, same temperature: the EOS round trip
+    expect(r.remaining.every((x) => x.amountMol === 0)).toBe(true);
+    expect(r.message).toMatch(/at or above its working limit/);
+  });
+
+  it('no remaining target ever passes the limit, over a sweep of Ar overshoots (the limit 1e-9 relative)', () => {
+    for (const f of [1.0, 1.003, 1.01, 1.05, 1.2]) {
+      const r = retarget({ ...base, workingLimitPa: limit, done: [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: Math.min(plan.steps[1].targetPa * f, limit * 0.999), temperatureK: 298.15 }] });
+      for (const x of r.remaining) expect(x.targetPa).toBeLessThanOrEqual(limit * (1 + 1e-9));
+      expect(r.predicted.pressurePa).toBeLessThanOrEqual(limit * (1 + 1e-9));
+    }
+  });
+
+  it('vent back after an Ar reading past the limit: venting keeps the composition, so O2 can still restore phi; the vent target is below the limit and ends near the design pressure', () => {
+    const done = [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: 1010 * TORR, temperatureK: 298.15 }];
+    const v = ventBack({ ...base, workingLimitPa: limit, done });
+    expect(v.targetPa).toBeLessThan(limit);
+    expect(v.ventFactor).toBeGreaterThan(0);
+    expect(v.ventFactor).toBeLessThan(1);
+    // phi is kept by the O2 fill from the vented tank (algebra: venting scales CH4 and Ar alike)
+    expect(Math.abs(v.after.predicted.phi! - 1)).toBeLessThan(1e-4);
+    expect(v.after.predicted.pressurePa).toBeLessThanOrEqual(limit);
+    // from a tank vented a little further the re-target gives no more: the answer is the largest such vent
+    const more = retarget({ ...base, workingLimitPa: limit, done, ventFactor: v.ventFactor * 0.99 });
+    expect(more.gave.every((g) => v.after.gave.includes(g) || g === 'pressure')).toBe(true);
   });
 });

@@ -1,61 +1,114 @@
 import { describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { headerFromPlan } from '../../src/io/check.js';
-import { parseLog } from '../../src/io/batch-log.js';
+import { checkLog, headerFromPlan } from '../../src/io/check.js';
+import { parseLog, type NewLogEvent, type LogHeader } from '../../src/io/batch-log.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
 
-function header(pressure?: string) {
-  const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+const PSI = 6894.757293168361; // lbf/in2 in Pa (NIST SP 811, exact from the definitions)
+
+function header(pressure?: string, edit: (r: Record<string, unknown>) => Record<string, unknown> = (r) => r) {
+  const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
+  const req = buildPlanRequest({ ...rs, recipe: edit(rs.recipe as unknown as Record<string, unknown>) as unknown as typeof rs.recipe });
   const input = pressure ? { ...req.input, finalPressurePa: Number(pressure) } : req.input;
   const plan = planFill(input);
   return headerFromPlan(plan, { ...req, input }, 'b1', '2026-12-01T00:00:00Z');
 }
+const NOW = '2026-12-01T01:00:00Z';
 const type = (s: FillState, text: string) => fillReducer(s, { type: 'char', text });
-const enter = (s: FillState) => fillReducer(s, { type: 'enter', now: '2026-12-01T01:00:00Z' });
+const enter = (s: FillState) => fillReducer(s, { type: 'enter', now: NOW });
+const tab = (s: FillState) => fillReducer(s, { type: 'tab' });
+/** type a reading and Enter, collecting the effects */
+function read(s: FillState, text: string, log?: NewLogEvent[]): FillState {
+  const n = enter(type(s, text));
+  log?.push(...n.effects);
+  return n;
+}
+function setTemperature(s: FillState, text: string): FillState {
+  let t = tab(s);
+  for (let i = 0; i < 12; i++) t = fillReducer(t, { type: 'backspace' });
+  return tab(type(t, text));
+}
+const logText = (h: LogHeader, events: readonly NewLogEvent[]) => [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
 
 describe('guided fill state machine', () => {
-  it('a reading on target: one reading effect, next step, the rest re-targeted, nothing gives', () => {
+  it('a reading on target: one reading effect, next step, the rest re-targeted, the composition on course', () => {
     const s0 = initialState(setupFromHeader(header()));
     expect(s0.phase).toBe('reading');
-    const s1 = enter(type(s0, (s0.targetsPa[0] / TORR).toFixed(4)));
+    const s1 = read(s0, (s0.targetsPa[0] / TORR).toFixed(4));
     expect(s1.current).toBe(1);
     expect(s1.effects).toHaveLength(1);
     expect(s1.effects[0]).toMatchObject({ kind: 'reading', step: 1, source: 'cyl-CH4', gauge: 'head-1kT' });
-    expect(s1.message).toMatch(/inside the band/);
+    expect(s1.message).toMatch(/inside the pressure band/);
+    expect(s1.judgement?.kind).toBe('predicted');
+    expect(s1.judgement?.verdict).toBe('on-course');
     // the reading was typed to the gauge's 4 decimals: the rest moves by that rounding only
     expect(Math.abs(s1.targetsPa[1] / s0.targetsPa[1] - 1)).toBeLessThan(1e-4);
     expect(s1.message).toMatch(/keep phi, the dilution and the final pressure/);
   });
 
-  it('invalid input is refused with a reason and no effect: empty, not a number, a volume, below the previous reading, past full scale, impossible temperature', () => {
+  it('invalid input is refused with a reason and no effect: empty, not a number, a volume, below the previous reading (causes named), past full scale, impossible temperature', () => {
     const s0 = initialState(setupFromHeader(header()));
     expect(enter(s0).error).toMatch(/type the reading first/);
     expect(enter(type(s0, 'abc')).error).toMatch(/cannot read/);
     expect(enter(type(s0, '3 L')).error).toMatch(/is a volume/);
-    const s1 = enter(type(s0, '10.0128'));
-    const low = enter(type(s1, '9'));
-    expect(low.error).toMatch(/must be above the previous one/);
+    const s1 = read(s0, '10.0128');
+    const low = read(s1, '9');
+    expect(low.error).toMatch(/not above the previous reading/);
+    expect(low.error).toMatch(/flowed back into the line/);
+    expect(low.error).toMatch(/tank cooled/);
     expect(low.effects).toEqual([]);
     expect(low.current).toBe(1);
-    expect(enter(type(s1, '20000')).error).toMatch(/reads only up to/);
-    let t = fillReducer(s1, { type: 'tab' });
-    expect(t.field).toBe('temperature');
-    for (let i = 0; i < 10; i++) t = fillReducer(t, { type: 'backspace' });
-    t = fillReducer(type(t, '-300 degC'), { type: 'tab' });
-    expect(enter(type(t, '1480')).error).toMatch(/outside the allowed range 200-600 K/);
+    expect(read(s1, '20000').error).toMatch(/past the range of head-10kT/);
+    const t = setTemperature(s1, '-300 degC');
+    expect(t.error).toMatch(/outside the allowed range 200-600 K/);
+    expect(read(t, '1480').error).toMatch(/outside the allowed range 200-600 K/);
   });
 
-  it('the last reading closes the batch: close effect and a GUM re-check summary', () => {
+  it('the last reading closes the batch: close effect, a GUM re-check summary and a final verdict on composition', () => {
     let s = initialState(setupFromHeader(header()));
-    for (let k = 0; k < 3; k++) s = enter(type(s, (s.targetsPa[k] / TORR).toFixed(4)));
+    for (let k = 0; k < 3; k++) s = read(s, (s.targetsPa[k] / TORR).toFixed(4));
     expect(s.phase).toBe('done');
     expect(s.effects.map((e) => e.kind)).toEqual(['reading', 'close']);
+    // design CH4 = 0.02/3 (phi 1 in 98 % Ar: CH4 + 2 O2 = 2 %), readings to the gauge's resolution
     expect(s.summary!.composition.CH4.value).toBeCloseTo(0.0066667, 5);
+    expect(s.judgement?.kind).toBe('final');
+    expect(s.judgement?.verdict).not.toBe('fail');
   });
 
-  it('a danger finding blocks the fill until "accept INITIALS" is typed; the acknowledgement is an effect', () => {
+  it('a last reading typed 1.1 K warmer at the old target: the verdict is on composition (FAIL), the same as check of that log; re-targeted for the typed temperature it passes', async () => {
+    const h = header();
+    const events: NewLogEvent[] = [];
+    let s = initialState(setupFromHeader(h));
+    s = read(s, (s.targetsPa[0] / TORR).toFixed(4), events);
+    s = read(s, (s.targetsPa[1] / TORR).toFixed(1), events);
+    const oldTarget = s.targetsPa[2];
+    // the temperature is typed with the reading (Tab, type, Enter without leaving the field)
+    let t = tab(s);
+    for (let i = 0; i < 12; i++) t = fillReducer(t, { type: 'backspace' });
+    t = type(t, '26.1 degC');
+    t = fillReducer(t, { type: 'tab' });
+    // leaving the field re-targets: O2 at the same amount reads higher at 299.25 K (ideal gas: x T ratio)
+    expect(t.targetsPa[2] / oldTarget).toBeGreaterThan(1.003);
+    expect(t.targetsPa[2] / oldTarget).toBeLessThan(1.0045);
+    expect(t.message).toMatch(/targets re-computed for 26.1 degC/);
+    // the old target typed anyway: pressure inside its band, composition far off
+    const bad = read({ ...t, targetsPa: s.targetsPa, targetTemperatureK: t.targetTemperatureK }, (oldTarget / TORR).toFixed(1), events);
+    expect(bad.phase).toBe('done');
+    expect(bad.judgement?.verdict).toBe('fail');
+    const o2 = bad.judgement!.deviations.find((d) => d.species === 'O2')!;
+    expect(o2.within).toBe(false);
+    // the same inverse model and temperatures as `check`: the composition agrees to 1e-9 relative
+    const rep = await checkLog(parseLog(logText(h, events), 'x.jsonl'), { trials: 0, seed: 1 });
+    expect(rep.verdict.verdict).toBe('fail');
+    for (const d of bad.judgement!.deviations) expect(Math.abs(d.actual / rep.result.composition[d.species].value - 1)).toBeLessThan(1e-9);
+    // at the re-targeted pressure the composition is the design's
+    const good = read(t, (t.targetsPa[2] / TORR).toFixed(1));
+    expect(good.judgement?.verdict).not.toBe('fail');
+  });
+
+  it('a danger finding blocks the fill until "accept INITIALS" is typed; then today\'s barometer is asked (a gauge-referenced sensor is in the plan)', () => {
     const s0 = initialState(setupFromHeader(header(String(3.8e5))));
     expect(s0.phase).toBe('acknowledge');
     expect(s0.setup.dangers.length).toBeGreaterThan(0);
@@ -63,20 +116,236 @@ describe('guided fill state machine', () => {
     expect(no.phase).toBe('acknowledge');
     expect(no.error).toMatch(/type "accept" and your initials/);
     const yes = enter(type(s0, 'accept AB'));
-    expect(yes.phase).toBe('reading');
+    expect(yes.phase).toBe('barometer');
     expect(yes.effects.every((e) => e.kind === 'acknowledge' && e.by === 'AB')).toBe(true);
   });
 
   it('resume: the readings in the log set the step, the acknowledgements are remembered', () => {
     const h = header();
     let s = initialState(setupFromHeader(h));
-    const events: string[] = [JSON.stringify(h)];
-    s = enter(type(s, (s.targetsPa[0] / TORR).toFixed(4)));
-    events.push(...s.effects.map((e) => JSON.stringify(e)));
-    const log = parseLog(events.join('\n') + '\n', 'x.jsonl');
+    const events: NewLogEvent[] = [];
+    s = read(s, (s.targetsPa[0] / TORR).toFixed(4), events);
+    const log = parseLog(logText(h, events), 'x.jsonl');
     const r = initialState(setupFromHeader(log.header), log);
     expect(r.current).toBe(1);
     expect(r.message).toMatch(/resumed: 1 of 3/);
     expect(r.done[0].pressurePa).toBeCloseTo(s.done[0].pressurePa, 9);
+  });
+});
+
+describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700.2 Torr)', () => {
+  const h = header();
+  const limitTorr = (4e5 * 0.9) / TORR;
+  it('the header carries the working limit, not only the rating', () => {
+    expect(h.tank.working_limit_Pa! / TORR).toBeCloseTo(limitTorr, 9);
+    expect(setupFromHeader(h).workingLimitPa! / TORR).toBeCloseTo(limitTorr, 9);
+  });
+
+  it('10.01 then 2800 Torr: a danger screen, nothing logged yet; it says how far to vent and to what reading, below the limit', () => {
+    const s1 = read(initialState(setupFromHeader(h)), '10.01');
+    const d = read(s1, '2800');
+    expect(d.phase).toBe('over-limit');
+    expect(d.effects).toEqual([]);
+    expect(d.overLimit!.limitPa / TORR).toBeCloseTo(limitTorr, 6);
+    expect(d.overLimit!.ventToPa / TORR).toBeLessThan(limitTorr);
+    // venting keeps the CH4/Ar ratio; O2 then restores phi: from about the planned Ar reading (1480 Torr at the CH4 read)
+    expect(d.overLimit!.ventToPa / TORR).toBeGreaterThan(1400);
+    expect(d.overLimit!.ventToPa / TORR).toBeLessThan(1500);
+    // anything else than vent, accept INITIALS or edit is refused
+    expect(enter(type(d, 'ok')).error).toMatch(/type "vent"/);
+    // edit: back to the reading, the typed text kept, nothing logged
+    const e = enter(type(d, 'edit'));
+    expect(e.phase).toBe('reading');
+    expect(e.input).toBe('2800');
+    expect(e.effects).toEqual([]);
+  });
+
+  it('accept INITIALS: the acknowledgement and the reading are logged; no fill is proposed past the limit, the batch stops', () => {
+    const s1 = read(initialState(setupFromHeader(h)), '10.01');
+    const a = enter(type(read(s1, '2800'), 'accept JD'));
+    expect(a.effects.map((e) => e.kind)).toEqual(['acknowledge', 'reading', 'close']);
+    expect(a.effects[0]).toMatchObject({ code: 'above-working-limit', step: 2, by: 'JD' });
+    expect(a.phase).toBe('ended');
+    expect(a.message).toMatch(/at or above its working limit/);
+    const log = parseLog(logText(h, a.effects), 'x.jsonl');
+    expect(log.readings.map((r) => r.step)).toEqual([2]);
+  });
+
+  it('vent: the reading is logged with the vent note, the batch stops with the instruction to finish as a top-up', () => {
+    const s1 = read(initialState(setupFromHeader(h)), '10.01');
+    const v = enter(type(read(s1, '2800'), 'vent'));
+    expect(v.effects.map((e) => e.kind)).toEqual(['reading', 'close']);
+    expect(v.phase).toBe('ended');
+    expect(v.message).toMatch(/Vent or pump the tank back to 14\d\d\.\d+ Torr/);
+    expect(v.message).toMatch(/top-up/);
+  });
+
+  it('an Ar reading just under the limit: the O2 target stays at or under the limit and the screen says what gives', () => {
+    const s1 = read(initialState(setupFromHeader(h)), '10.01');
+    const s2 = read(s1, '2695');
+    expect(s2.phase).toBe('reading');
+    expect(s2.targetsPa[2] / TORR).toBeLessThanOrEqual(limitTorr * (1 + 1e-9));
+    expect(s2.message).toMatch(/working limit/);
+    expect(s2.judgement?.verdict).toBe('off-course');
+  });
+});
+
+describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 psi gauge-referenced transducer)', () => {
+  const h = header(undefined, (r) => ({ ...r, tank: 'MT-2', pressure: '3 bar' }));
+  const start = () => {
+    const s = initialState(setupFromHeader(h));
+    expect(s.phase).toBe('barometer');
+    return s;
+  };
+  it('today\'s barometric pressure is asked first, refused without a unit or outside 70-110 kPa, and used for the gauge targets and logged with each gauge reading', () => {
+    const s = start();
+    expect(enter(type(s, '752.3')).error).toMatch(/unit/);
+    expect(enter(type(s, '752.3 Torr')).error).toMatch(/add your initials/);
+    expect(enter(type(s, '75 Torr AB')).error).toMatch(/70-110 kPa/);
+    const b = enter(type(s, '745 Torr AB'));
+    expect(b.phase).toBe('reading');
+    expect(b.barometerPa / TORR).toBeCloseTo(745, 9);
+    expect(b.effects).toEqual([expect.objectContaining({ kind: 'barometer', reading: '745 Torr', by: 'AB' })]);
+    expect(b.effects[0]).toMatchObject({ pressure_Pa: 745 * TORR });
+    const s1 = read(b, (b.targetsPa[0] / TORR).toFixed(2));
+    const shownPsi = (s1.targetsPa[1] - 745 * TORR) / PSI;
+    const s2 = read(s1, shownPsi.toFixed(2));
+    const ev = s2.effects[0] as { barometer_Pa?: number; pressure_Pa: number };
+    expect(ev.barometer_Pa! / TORR).toBeCloseTo(745, 9);
+    expect(ev.pressure_Pa).toBeCloseTo(Number(shownPsi.toFixed(2)) * PSI + 745 * TORR, 6);
+  });
+
+  it('an absolute value typed on the gauge-referenced sensor asks first and names the cause; n goes back, y logs it', () => {
+    const b = enter(type(start(), '760 Torr AB'));
+    const s1 = read(b, (b.targetsPa[0] / TORR).toFixed(2));
+    const absPsi = s1.targetsPa[1] / PSI;
+    const c = read(s1, absPsi.toFixed(2));
+    expect(c.phase).toBe('confirm');
+    expect(c.effects).toEqual([]);
+    expect(c.pending!.reason).toMatch(/about one barometric pressure/);
+    expect(c.pending!.reason).toMatch(/absolute pressure typed for a gauge-referenced sensor/);
+    const n = type(c, 'n');
+    expect(n.phase).toBe('reading');
+    expect(n.effects).toEqual([]);
+    const y = type(c, 'y');
+    expect(y.effects.map((e) => e.kind)).toEqual(['reading']);
+  });
+});
+
+describe('the accepted danger is shown again at the fill that creates it', () => {
+  it('CH4 then O2 (detonable state at fill 2): after accept, fill 1 as usual, then a reminder screen before fill 2', () => {
+    const h = header(undefined, (r) => ({ ...r, order: ['CH4', 'O2', 'Ar'] }));
+    const setup = setupFromHeader(h);
+    expect(setup.dangers.some((d) => d.code === 'detonable-state' && d.step === 2)).toBe(true);
+    const a = enter(type(initialState(setup), 'accept AB'));
+    expect(a.phase).toBe('reading');
+    const s1 = read(a, (a.targetsPa[0] / TORR).toFixed(4));
+    expect(s1.phase).toBe('reminder');
+    expect(s1.current).toBe(1);
+    const r = enter(s1);
+    expect(r.phase).toBe('reading');
+    expect(r.effects).toEqual([]);
+  });
+});
+
+describe('undo and correction, written through the batch log (lines, chain, check)', async () => {
+  const { mkdtempSync } = await import('node:fs');
+  const { join } = await import('node:path');
+  const { tmpdir } = await import('node:os');
+  const { createLog, appendEvent, readLog } = await import('../../src/io/batch-log.js');
+  /** a fill on a real log: every effect appended (chained, fsync'd), its line fed back as the component does */
+  function onLog(h: LogHeader) {
+    const file = join(mkdtempSync(join(tmpdir(), 'mw-fs-')), 'b.jsonl');
+    createLog(file, h);
+    let s = initialState(setupFromHeader(h));
+    const step = (a: Parameters<typeof fillReducer>[1]) => {
+      s = fillReducer(s, a);
+      for (const e of s.effects) {
+        const w = appendEvent(file, e);
+        if (e.kind === 'reading' || e.kind === 'correction') s = fillReducer(s, { type: 'logged', step: e.step, line: w.line });
+      }
+      return s;
+    };
+    const typeEnter = (t: string) => {
+      // what a refused entry left in the field is cleared first, as an operator would
+      while (s.input.length) step({ type: 'backspace' });
+      for (const c of t) step({ type: 'char', text: c });
+      return step({ type: 'enter', now: NOW });
+    };
+    return { file, typeEnter, step, get: () => s };
+  }
+
+  it('undo AB withdraws the last reading: the log keeps it and the withdrawal; the step is read again; check uses the new reading', async () => {
+    const f = onLog(header());
+    f.typeEnter('10.01');
+    f.typeEnter('1408');
+    expect(f.get().current).toBe(2);
+    expect(f.typeEnter('undo').error).toMatch(/undo AB/);
+    const u = f.typeEnter('undo AB');
+    expect(u.current).toBe(1);
+    expect(u.message).toMatch(/withdrawn by AB/);
+    const t2 = u.targetsPa[1] / TORR;
+    f.typeEnter(t2.toFixed(1));
+    f.typeEnter((f.get().targetsPa[2] / TORR).toFixed(1));
+    expect(f.get().phase).toBe('done');
+    const log = readLog(f.file);
+    expect(log.amendments.map((a) => a.kind)).toEqual(['withdraw']);
+    expect(log.allReadings.map((r) => r.reading)).toEqual(['10.01 Torr', '1408 Torr', `${t2.toFixed(1)} Torr`, expect.any(String)]);
+    expect(log.issues.filter((i) => i.code === 'line-edited')).toEqual([]);
+    const rep = await checkLog(log, { trials: 0, seed: 1 });
+    expect(rep.readings[1].pressurePa / TORR).toBeCloseTo(Number(t2.toFixed(1)), 9);
+  });
+
+  it('fix 2 AB corrects an earlier reading with a reason: a correction line naming the line it replaces; the targets follow the corrected value; Esc cancels', async () => {
+    const f = onLog(header());
+    f.typeEnter('10.01');
+    f.typeEnter('1480.0');
+    expect(f.typeEnter('fix 5 AB').error).toMatch(/fill 5 has no reading/);
+    const c = f.typeEnter('fix 2 AB');
+    expect(c.phase).toBe('correct');
+    expect(f.step({ type: 'escape' }).phase).toBe('reading');
+    f.typeEnter('fix 2 AB');
+    expect(f.typeEnter('9').error).toMatch(/does not lie between/);
+    const r = f.typeEnter('1481.0');
+    expect(r.correcting?.pending).toBeDefined();
+    expect(f.typeEnter('').error).toMatch(/type why/);
+    const before = r.targetsPa[2];
+    const done = f.typeEnter('mistyped: 1481.0 not 1480.0');
+    expect(done.phase).toBe('reading');
+    expect(done.current).toBe(2);
+    expect(done.message).toMatch(/fill 2 corrected by AB: 1480.0 Torr -> 1481.0 Torr/);
+    // one Torr more Ar: O2 (which keeps phi) stays near its amount, so its target rises by about that Torr
+    expect((done.targetsPa[2] - before) / TORR).toBeGreaterThan(0.9);
+    expect((done.targetsPa[2] - before) / TORR).toBeLessThan(1.1);
+    const log = readLog(f.file);
+    expect(log.amendments).toHaveLength(1);
+    expect(log.amendments[0]).toMatchObject({ kind: 'correction', step: 2, by: 'AB', reason: 'mistyped: 1481.0 not 1480.0' });
+    expect(log.amendments[0].old!.reading).toBe('1480.0 Torr');
+    expect(log.readings[1].pressure_Pa / TORR).toBeCloseTo(1481, 9);
+  });
+
+  it('top-up: the starting pressure and temperature are read and logged first; the targets re-compute from them; check uses the logged start', async () => {
+    // 120 Torr of a CH4/O2/Ar mixture already in MT-1 (the demo design's own composition)
+    const comp = { CH4: 0.02 / 3, O2: 0.04 / 3, Ar: 0.98 };
+    const h = header(undefined, (r) => ({ ...r, in_tank: { composition: comp, pressure: '120 Torr' } }));
+    expect(h.in_tank?.pressure_Pa).toBeCloseTo(120 * TORR, 6);
+    const f = onLog(h);
+    const s0 = f.get();
+    expect(s0.phase).toBe('start');
+    expect(f.typeEnter('118.5').error).toMatch(/your initials/);
+    const s1 = f.typeEnter('118.5 AB');
+    expect(s1.phase).toBe('reading');
+    expect(s1.message).toMatch(/starting pressure 118.5 Torr logged by AB \(the plan assumed 120.000 Torr absolute\)/);
+    // 1.5 Torr less gas of the design composition to start from: the first target falls by about that
+    expect((s0.targetsPa[0] - s1.targetsPa[0]) / TORR).toBeGreaterThan(1.3);
+    expect((s0.targetsPa[0] - s1.targetsPa[0]) / TORR).toBeLessThan(1.7);
+    const log = readLog(f.file);
+    expect(log.start).toMatchObject({ kind: 'start-pressure', reading: '118.5 Torr', by: 'AB' });
+    expect(log.start!.pressure_Pa / TORR).toBeCloseTo(118.5, 9);
+    // resumed: the start is not asked again
+    const r = initialState(setupFromHeader(log.header), log);
+    expect(r.phase).toBe('reading');
+    expect(r.start?.read).toBe(true);
+    expect(r.targetsPa[0]).toBeCloseTo(s1.targetsPa[0], 3);
   });
 });

@@ -8,7 +8,7 @@ import { initialState, setupFromHeader } from '../../src/tui/fill-state.js';
 import { WizardApp } from '../../src/tui/wizard-app.js';
 import { DEFAULTS, wizardInit, wizardReducer } from '../../src/tui/wizard-state.js';
 import { makeEvaluator } from '../../src/tui/wizard-eval.js';
-import type { LogEvent } from '../../src/io/batch-log.js';
+import type { NewLogEvent } from '../../src/io/batch-log.js';
 
 const tick = () => new Promise((r) => setTimeout(r, 30));
 /** wait until the screen (or the log) shows what the test expects: input is handled asynchronously, and slower under load */
@@ -21,7 +21,7 @@ async function until(cond: () => boolean, what: string, ms = 5000): Promise<void
 }
 
 /** the guided fill of the demo recipe, its log events handed to write */
-function startDemoFill(write: (e: LogEvent) => void) {
+function startDemoFill(write: (e: NewLogEvent) => void) {
   const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
   const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
   return render(<FillApp initial={initialState(setupFromHeader(h))} write={write} logFile="b1.jsonl" />);
@@ -29,7 +29,7 @@ function startDemoFill(write: (e: LogEvent) => void) {
 
 describe('fill screen (ink)', () => {
   it('shows the target large with its band and gauge; a typed reading is written before the next step shows', async () => {
-    const written: LogEvent[] = [];
+    const written: NewLogEvent[] = [];
     const ui = startDemoFill((e) => written.push(e));
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     expect(ui.lastFrame()).toContain('head-1kT');
@@ -44,7 +44,7 @@ describe('fill screen (ink)', () => {
     ui.unmount();
   });
   it('keys that arrive one by one faster than the screen redraws are all taken: the logged reading is the one typed', async () => {
-    const written: LogEvent[] = [];
+    const written: NewLogEvent[] = [];
     const ui = startDemoFill((e) => written.push(e));
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     for (const ch of '10.0128') ui.stdin.write(ch);
@@ -65,6 +65,78 @@ describe('fill screen (ink)', () => {
     ui.stdin.write('10.0128\r');
     await until(() => !!ui.lastFrame()?.includes('NOT recorded'), 'the refusal');
     expect(ui.lastFrame()).toContain('fill 1 of 3');
+    ui.unmount();
+  });
+});
+
+describe('fill screens: danger, end, Ctrl-C (ink)', () => {
+  const TORR = 101325 / 760;
+  it('a reading past the working limit shows the danger screen with the vent-back reading; nothing is written until the operator decides', async () => {
+    const written: NewLogEvent[] = [];
+    const ui = startDemoFill((e) => written.push(e));
+    await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
+    ui.stdin.write('10.01\r');
+    await until(() => !!ui.lastFrame()?.includes('fill 2 of 3'), 'fill 2');
+    ui.stdin.write('2800\r');
+    await until(() => !!ui.lastFrame()?.includes('ABOVE THE WORKING LIMIT'), 'the danger screen');
+    const f = ui.lastFrame()!.replace(/\s+/g, ' ');
+    expect(f).toMatch(/2800\.0 Torr absolute, 99\.8 Torr above the working limit of MT-1 \(2700\.2 Torr absolute\)/);
+    expect(f).toMatch(/Close the cylinder valve and the tank valve now/);
+    expect(f).toMatch(/Vent or pump back by 13\d\d\.\d Torr, to 14\d\d\.\d Torr absolute/);
+    expect(written).toHaveLength(1);
+    ui.stdin.write('accept JD\r');
+    await until(() => !!ui.lastFrame()?.includes('STOPPED after fill 2 of 3'), 'the stop');
+    expect(written.map((e) => e.kind)).toEqual(['reading', 'acknowledge', 'reading', 'close']);
+    ui.unmount();
+  });
+
+  it('the end screen shows check\'s verdict and the label from the as-filled composition, marked FAIL when it failed', async () => {
+    const { mkdtempSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { tmpdir } = await import('node:os');
+    const { createLog, appendEvent, readLog } = await import('../../src/io/batch-log.js');
+    const { checkLog } = await import('../../src/io/check.js');
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
+    const file = join(mkdtempSync(join(tmpdir(), 'mw-end-')), 'b1.jsonl');
+    createLog(file, h);
+    const recheck = async () => {
+      const log = readLog(file);
+      return { report: await checkLog(log, { trials: 0, seed: 1 }), log };
+    };
+    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={(e) => appendEvent(file, e)} logFile={file} recheck={recheck} />);
+    await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
+    // Ar 1 % over (still well inside the limit): the dilution is off and cannot come back
+    ui.stdin.write('10.01\r');
+    await until(() => !!ui.lastFrame()?.includes('fill 2 of 3'), 'fill 2');
+    ui.stdin.write('1495\r');
+    await until(() => !!ui.lastFrame()?.includes('fill 3 of 3'), 'fill 3');
+    expect(ui.lastFrame()).toMatch(/OFF COURSE/);
+    const t3 = /STOP AT ([\d.]+) Torr/.exec(ui.lastFrame()!)![1];
+    ui.stdin.write(`${t3}\r`);
+    await until(() => !!ui.lastFrame()?.includes('Tank label'), 'the label', 15000);
+    const f = ui.lastFrame()!;
+    expect(f).toMatch(/Re-check of the log \(mixwright check\): FAIL/);
+    expect(f).toMatch(/\*\*\* FAIL/);
+    expect(f).toMatch(/DO NOT USE AS THE DESIGN MIXTURE/);
+    // the label's CH4 is the as-filled value from the readings, not the design's 0.6667 %
+    const rep = (await recheck()).report;
+    const ch4 = rep.result.composition.CH4.value * 100;
+    expect(Math.abs(ch4 / (0.02 / 3 * 100) - 1)).toBeGreaterThan(0.005);
+    expect(f).toContain(`CH4      ${ch4.toFixed(4).slice(0, 5)}`);
+    expect(f).not.toContain('0.6667 %');
+    void TORR;
+    ui.unmount();
+  });
+
+  it('Ctrl-C stops the fill and reports it to the shell (which exits 130)', async () => {
+    let stopped = 0;
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
+    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={() => undefined} logFile="b1.jsonl" onInterrupt={() => stopped++} />);
+    await until(() => !!ui.lastFrame()?.includes('fill 1 of 3'), 'the first step');
+    ui.stdin.write('\x03');
+    await until(() => stopped === 1, 'the interrupt');
     ui.unmount();
   });
 });

@@ -1,0 +1,215 @@
+import { describe, expect, it } from 'vitest';
+import { appendFileSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { readLog } from '../../src/io/batch-log.js';
+import { checkFile } from '../../src/io/check.js';
+import { hasTmux, tmuxSession } from './tmux.js';
+
+// The guided fill at the manifold in a real terminal (tmux, 80x24, CI unset so ink draws every
+// frame): the mistakes an operator makes, and what the screen and the log must do about them.
+const required = process.env.MIXWRIGHT_REQUIRE_BROWSER === '1';
+const BIN = resolve('dist/mixwright.mjs');
+const RECIPE = resolve('recipes/ch4-o2-ar-phi1.yaml');
+const TORR = 101325 / 760;
+const target = (s: string) => Number(/STOP AT ([\d.]+) (?:Torr|psi)/.exec(s)![1]);
+const flat = (s: string) => s.replace(/\s+/g, ' ');
+
+function session(tag: string) {
+  const dir = mkdtempSync(join(tmpdir(), `mw-${tag}-`));
+  return { dir, t: tmuxSession(`mw-${tag}-${process.pid}`, dir) };
+}
+/** run through sh so that the exit status is printed on the pane when the program ends */
+const withStatus = (cmd: string) => `sh -c '${cmd}; echo EXIT=$?; sleep 60'`;
+async function exitStatus(t: ReturnType<typeof tmuxSession>, ms = 15000): Promise<number> {
+  return Number(/EXIT=(\d+)/.exec(await t.waitFor(/EXIT=\d+/, ms))![1]);
+}
+
+describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => {
+  it('overshoot past the working limit: a danger screen with the vent-back reading; accept with initials is logged; the fill stops; check names the limit', async () => {
+    const { dir, t } = session('over');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch over --dir batches`));
+      await t.waitFor(/fill 1 of 3/);
+      await t.type('10.01');
+      await t.keys('Enter');
+      await t.waitFor(/fill 2 of 3/);
+      await t.type('2800');
+      await t.keys('Enter');
+      const s = flat(await t.waitFor(/ABOVE THE WORKING LIMIT/));
+      expect(s).toMatch(/2800\.0 Torr absolute, 99\.8 Torr above the working limit of MT-1/);
+      expect(s).toMatch(/Vent or pump back by 13\d\d\.\d Torr, to 14\d\d\.\d Torr absolute/);
+      const log = join(dir, 'batches', 'over.jsonl');
+      expect(readLog(log).readings).toHaveLength(1);
+      await t.type('accept JD');
+      await t.keys('Enter');
+      await t.waitFor(/STOPPED after fill 2 of 3/);
+      await t.keys('q');
+      expect(await exitStatus(t)).toBe(0);
+      const l = readLog(log);
+      expect(l.acknowledgements.map((a) => [a.code, a.by])).toEqual([['above-working-limit', 'JD']]);
+      expect(l.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 2800].map((x) => expect.closeTo(x, 9)));
+      expect(l.closed).toBe(true);
+      const rep = await checkFile(log, { trials: 0, seed: 1 });
+      expect(rep.verdict.verdict).toBe('fail');
+      expect(rep.findings.some((f) => f.severity === 'danger')).toBe(true);
+    } finally {
+      t.close();
+    }
+  }, 60000);
+
+  it('a temperature change before the last fill re-computes the target; filled to it, the end screen shows check\'s verdict and the as-filled label', async () => {
+    const { dir, t } = session('temp');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch temp --dir batches`));
+      let s = await t.waitFor(/fill 1 of 3/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = await t.waitFor(/fill 2 of 3/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = await t.waitFor(/fill 3 of 3/);
+      const before = target(s);
+      await t.keys('Tab');
+      for (let i = 0; i < 10; i++) await t.keys('BSpace');
+      await t.type('26.1 degC');
+      await t.keys('Tab');
+      s = await t.waitFor(/targets re-computed for 26\.1 degC/);
+      const after = target(s);
+      // the same amount of O2 at 1.1 K more: about 1500 x 1.1/298 = 5.5 Torr higher (ideal-gas estimate)
+      expect(after - before).toBeGreaterThan(5);
+      expect(after - before).toBeLessThan(6);
+      await t.type(String(after));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/Tank label/, 30000));
+      expect(s).toMatch(/Re-check of the log \(mixwright check\): PASS/);
+      await t.keys('q');
+      expect(await exitStatus(t)).toBe(0);
+      const rep = await checkFile(join(dir, 'batches', 'temp.jsonl'), { trials: 0, seed: 1 });
+      expect(rep.verdict.verdict).not.toBe('fail');
+      expect(rep.readings[2].temperatureK).toBeCloseTo(299.25, 9);
+    } finally {
+      t.close();
+    }
+  }, 60000);
+
+  it('a mistyped reading corrected before the next fill: the original stays, the correction is logged with initials and reason', async () => {
+    const { dir, t } = session('fix');
+    try {
+      t.start(`node ${BIN} fill ${RECIPE} --batch fix --dir batches`);
+      await t.waitFor(/fill 1 of 3/);
+      await t.type('10.01');
+      await t.keys('Enter');
+      await t.waitFor(/fill 2 of 3/);
+      await t.type('1408');
+      await t.keys('Enter');
+      await t.waitFor(/fill 3 of 3/);
+      await t.type('fix 2 AB');
+      await t.keys('Enter');
+      await t.waitFor(/correct the reading of fill 2/);
+      await t.type('1480.0');
+      await t.keys('Enter');
+      await t.waitFor(/reason:/);
+      await t.type('mistyped 1408 for 1480.0');
+      await t.keys('Enter');
+      const s = flat(await t.waitFor(/fill 2 corrected by AB/));
+      expect(s).toMatch(/1408 Torr -> 1480\.0 Torr/);
+      await t.kill();
+      const l = readLog(join(dir, 'batches', 'fix.jsonl'));
+      expect(l.amendments).toEqual([expect.objectContaining({ kind: 'correction', step: 2, by: 'AB', reason: 'mistyped 1408 for 1480.0' })]);
+      expect(l.allReadings.map((r) => r.reading)).toEqual(['10.01 Torr', '1408 Torr', '1480.0 Torr']);
+      expect(l.readings[1].pressure_Pa / TORR).toBeCloseTo(1480, 9);
+    } finally {
+      t.close();
+    }
+  }, 60000);
+
+  it('a gauge-referenced reading typed as absolute: the barometer is asked first; the reading is questioned with its likely cause and not logged until confirmed', async () => {
+    const { dir, t } = session('gref');
+    try {
+      t.start(`node ${BIN} fill ${RECIPE} --tank MT-2 --pressure "3 bar" --batch gref --dir batches`);
+      await t.waitFor(/barometric pressure today/);
+      await t.type('755.0 Torr AB');
+      await t.keys('Enter');
+      let s = await t.waitFor(/fill 1 of 3/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = await t.waitFor(/fill 2 of 3/);
+      const gaugePsi = target(s);
+      // the absolute value in psi: gauge + 755 Torr
+      const absPsi = (gaugePsi * 6894.757293168361 + 755 * TORR) / 6894.757293168361;
+      await t.type(absPsi.toFixed(2));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/CHECK THIS READING/));
+      expect(s).toMatch(/about one barometric pressure/);
+      expect(s).toMatch(/absolute pressure typed for a gauge-referenced sensor/);
+      const log = join(dir, 'batches', 'gref.jsonl');
+      expect(readLog(log).readings).toHaveLength(1);
+      await t.keys('n');
+      await t.waitFor(/fill 2 of 3/);
+      for (let i = 0; i < 8; i++) await t.keys('BSpace');
+      await t.type(String(gaugePsi));
+      await t.keys('Enter');
+      await t.waitFor(/fill 3 of 3/);
+      await t.kill();
+      const l = readLog(log);
+      expect(l.barometer).toMatchObject({ reading: '755.0 Torr', by: 'AB' });
+      expect(l.readings[1].barometer_Pa! / TORR).toBeCloseTo(755, 9);
+      expect(l.readings[1].pressure_Pa).toBeCloseTo(gaugePsi * 6894.757293168361 + 755 * TORR, 3);
+    } finally {
+      t.close();
+    }
+  }, 60000);
+
+  it('Ctrl-C ends the fill with exit 130 and says how many readings are logged and how to resume', async () => {
+    const { dir, t } = session('ctrlc');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch cc --dir batches`));
+      await t.waitFor(/fill 1 of 3/);
+      await t.type('10.01');
+      await t.keys('Enter');
+      await t.waitFor(/fill 2 of 3/);
+      await t.keys('C-c');
+      expect(await exitStatus(t)).toBe(130);
+      // the line may wrap at the 80th column: join the screen's lines
+      const s = t.screen().replace(/\n/g, '');
+      expect(s).toMatch(/fill stopped by Ctrl-C: 1 of 3 readings are logged in batches\/cc\.jsonl\. Resume with: mixwright fill --resume batches\/cc\.jsonl/);
+      expect(readdirSync(join(dir, 'batches')).filter((f) => f.endsWith('.lock'))).toEqual([]);
+    } finally {
+      t.close();
+    }
+  }, 60000);
+
+  it('a second fill on the same log is refused and names the holder; a torn tail is moved aside before the resumed fill appends, and check reads the log', async () => {
+    const a = session('lockA');
+    const b = tmuxSession(`mw-lockB-${process.pid}`, a.dir);
+    try {
+      a.t.start(`node ${BIN} fill ${RECIPE} --batch lk --dir batches`);
+      await a.t.waitFor(/fill 1 of 3/);
+      await a.t.type('10.01');
+      await a.t.keys('Enter');
+      await a.t.waitFor(/fill 2 of 3/);
+      b.start(withStatus(`node ${BIN} fill --resume batches/lk.jsonl`));
+      expect(await exitStatus(b)).toBe(2);
+      expect(flat(b.screen())).toMatch(/another guided fill holds this batch log: process \d+/);
+      await a.t.kill();
+      // a power cut mid-write: half a line at the end
+      const log = join(a.dir, 'batches', 'lk.jsonl');
+      appendFileSync(log, '{"kind":"reading","step":2,"source":"cyl-Ar","gau');
+      a.t.start(`node ${BIN} fill --resume batches/lk.jsonl`);
+      const s = flat(await a.t.waitFor(/fill 2 of 3/));
+      expect(s).toMatch(/moved to batches\/lk\.jsonl\.torn-/);
+      await a.t.type(String(target(s)));
+      await a.t.keys('Enter');
+      await a.t.waitFor(/fill 3 of 3/);
+      await a.t.kill();
+      expect(readdirSync(join(a.dir, 'batches')).some((f) => f.startsWith('lk.jsonl.torn-'))).toBe(true);
+      expect(readFileSync(log, 'utf8').endsWith('\n')).toBe(true);
+      const rep = await checkFile(log, { trials: 0, seed: 1 });
+      expect(rep.readings.map((r) => r.step)).toEqual([1, 2]);
+    } finally {
+      a.t.close();
+      b.close();
+    }
+  }, 60000);
+});
