@@ -186,7 +186,7 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML certificate and l
     [FAILING, 'letter'],
     [PASSING, 'letter'],
   ] as const) {
-    it(`${log} on ${paper}: one page, every word inside the printable area, the label whole with its verdict`, () => {
+    it(`${log} on ${paper}: one page, every word inside the printable area, the label whole with its verdict`, { timeout: 120000 }, () => {
       mkdirSync('artifacts', { recursive: true });
       const base = join('artifacts', `label-${log.includes('overshoot') ? 'fail' : 'pass'}-${paper}`);
       const pdf = `${base}.pdf`;
