@@ -14,7 +14,7 @@ export { getSpecies, lookup, resolveSpeciesKey, speciesKeys, suggestSpecies, PRO
 export type { PropertyName, PropertyValue } from './lookup.js';
 export { ProblemError, fail, relocate } from './problems.js';
 export type { Problem, ProblemCode, Where } from './problems.js';
-export { describeProblem, describeProblemAt, describeWhere } from './messages.js';
+export { describeProblem, describeProblemAt, describeWhere, formatNumber } from './messages.js';
 export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRole } from './composition.js';
 export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from './composition.js';
 export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole, sizeDifferenceKij } from './virial.js';
