@@ -54,6 +54,8 @@ export function describeProblem(p: Problem): string {
       return `not valid YAML: ${p.reason}`;
     case 'file-unreadable':
       return `cannot read the file: ${p.reason}`;
+    case 'name-too-long':
+      return `the ${p.what} "${p.start}..." is ${p.length} characters long; names have at most ${p.limit} characters. Check what was pasted here`;
     case 'file-too-large':
       return `cannot read the file: it holds ${bytes(p.bytes)} or more, and mixwright reads files of up to ${bytes(p.limitBytes)} (recipes, lab profiles, readings and batch logs are a few kB); check that this is the file you meant`;
     case 'file-unwritable':

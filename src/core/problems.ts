@@ -30,6 +30,7 @@ export type Problem =
   | { readonly code: 'schema'; readonly reason: string }
   | { readonly code: 'yaml-syntax'; readonly reason: string }
   | { readonly code: 'file-unreadable'; readonly reason: string }
+  | { readonly code: 'name-too-long'; readonly what: string; readonly start: string; readonly length: number; readonly limit: number }
   | { readonly code: 'file-too-large'; readonly bytes: number; readonly limitBytes: number }
   | { readonly code: 'file-unwritable'; readonly reason: string }
   | { readonly code: 'needs-barometer'; readonly text: string; readonly field: string }

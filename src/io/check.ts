@@ -7,6 +7,7 @@ import {
   chooseGauge,
   describeFinding,
   fail,
+  ProblemError,
   judge,
   planFill,
   pureCylinder,
@@ -28,6 +29,8 @@ export interface CheckOptions {
   readonly seed: number;
   readonly recipeFile?: string;
   readonly labFile?: string;
+  /** --barometer: the barometric pressure at the fill, Pa, for CSV readings (gauge-referenced sensors, "psig") */
+  readonly barometricPa?: number;
 }
 
 export interface CheckReport {
@@ -42,6 +45,22 @@ export interface CheckReport {
   readonly warnings: readonly string[];
   /** what is missing for a complete batch: planned steps without a reading, or design gases without a row */
   readonly incomplete: readonly string[];
+}
+
+/**
+ * Run the uncertainty evaluation for a file: a refusal from inside it (a Monte Carlo
+ * trial whose readings no longer increase) names the file and says what it means.
+ */
+async function withinFile<T>(file: string, f: () => Promise<T>): Promise<T> {
+  try {
+    return await f();
+  } catch (e) {
+    if (e instanceof ProblemError && e.problem.code === 'schema') {
+      return fail({ code: 'schema', reason: `the readings are too close together, or too close to zero, for their uncertainty: in the uncertainty evaluation, ${e.problem.reason}. Check the pressures, and the gauge named for each reading` }, { file });
+    }
+    if (e instanceof ProblemError) throw e.at({ file });
+    throw e;
+  }
 }
 
 const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 };
@@ -108,18 +127,17 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   for (const a of log.acknowledgements) warnings.push(`danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`);
   if (missingSteps.length) warnings.push(`the log has no reading for step ${missingSteps.join(', ')}: the batch is incomplete and the re-check covers the fills logged so far`);
   const design = designFromHeader(h);
-  const result = await evaluateUncertaintyParallel(
+  const result = await withinFile(log.file, () => evaluateUncertaintyParallel(
     readings,
     { barometricPa: h.barometer.pressure_Pa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: opts.trials, seed: opts.seed },
     h.design.diluent,
-  );
+  ));
   const tolerance = h.tolerance;
   const verdict = missingSteps.length ? { ...judge(result, design, tolerance), verdict: 'fail' as const } : judge(result, design, tolerance);
   return { file: log.file, id: h.id, kind: 'log', readings, result, verdict, design, tolerance, warnings, incomplete: missingSteps.map((s) => `step ${s}`) };
 }
 
 export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
-  const rows = readReadingsCsv(file);
   const warnings: string[] = [];
   let design: Design | undefined;
   let tolerance: Tolerance = { relative: 0.005, absolute: 0 };
@@ -128,13 +146,15 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   let thermo: { uncertaintyK: number; resolutionK: number };
   let sourceFor: (species: string, line: number) => GasSource;
   let id = file;
+  let baroGiven: boolean;
   if (opts.recipeFile) {
-    const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile);
+    const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, { barometricPa: opts.barometricPa });
     const plan = planFill(req.input);
     design = plan.design;
     tolerance = plan.tolerance;
     gauges = req.input.gauges;
     ctx = req.input.reading;
+    baroGiven = opts.barometricPa !== undefined || req.lab.file.barometer !== undefined;
     thermo = req.lab.thermometer ?? DEFAULT_THERMOMETER;
     if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
     id = req.recipe.id;
@@ -147,11 +167,14 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   } else {
     const lab = loadLab(opts.labFile);
     gauges = lab.gauges;
-    ctx = { barometricPa: lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa };
+    ctx = { barometricPa: opts.barometricPa ?? lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa };
+    baroGiven = opts.barometricPa !== undefined || lab.file.barometer !== undefined;
     thermo = lab.thermometer ?? DEFAULT_THERMOMETER;
     warnings.push('no recipe given: the gases are taken as pure (purity 1), the gauges from the lab profile, and there is no design to compare with (use --recipe)');
     sourceFor = (sp) => pureCylinder({ id: sp, species: sp, purity: 1 });
   }
+  // gauge-referenced sensors (lab profile) and gauge units are made absolute with the barometer given
+  const rows = readReadingsCsv(file, { barometricPa: baroGiven ? ctx.barometricPa : undefined, referenceOf: (id) => gauges.find((g) => g.id === id)?.reference });
   const used = new Set<string>();
   const readings: CheckedReading[] = rows.map((r, i) => {
     const source = sourceFor(r.species, r.line);
@@ -167,11 +190,11 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     }
     return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
   });
-  const result = await evaluateUncertaintyParallel(
+  const result = await withinFile(file, () => evaluateUncertaintyParallel(
     readings,
     { barometricPa: ctx.barometricPa, barometricUncertaintyPa: ctx.barometricUncertaintyPa, thermometerUncertaintyK: thermo.uncertaintyK, thermometerResolutionK: thermo.resolutionK, trials: opts.trials, seed: opts.seed },
     design ? Object.keys(design.groups.diluent) : undefined,
-  );
+  ));
   let verdict = judge(result, design, tolerance);
   let incomplete: string[] = [];
   if (design) {
@@ -188,5 +211,6 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
 export async function checkFile(file: string, opts: CheckOptions): Promise<CheckReport> {
   if (/\.csv$/i.test(file)) return checkCsv(file, opts);
   if (opts.recipeFile) fail({ code: 'design-conflict', reason: 'a batch log carries its own design; --recipe is for CSV readings only' }, { field: '--recipe' });
+  if (opts.barometricPa !== undefined) fail({ code: 'design-conflict', reason: 'a batch log records the barometric pressure of its fill; --barometer is for CSV readings only' }, { field: '--barometer' });
   return checkLog(readLog(file), opts);
 }

@@ -103,6 +103,18 @@ const SPELLINGS: Readonly<Record<string, string>> = {
   'kPa(a)': 'kPa',
 };
 
+/** whether a quantity is written with an explicit absolute unit ("29.7 psia", "2 bar(a)") */
+export function isAbsoluteSpelling(text: string): boolean {
+  const m = /[A-Za-z()]+$/.exec(text.trim());
+  return m !== null && Object.prototype.hasOwnProperty.call(SPELLINGS, m[0]) && /a\)?$/.test(m[0]);
+}
+
+/** whether a quantity is written with a gauge unit ("15 psig", "1.2 bar(g)") */
+export function isGaugeSpelling(text: string): boolean {
+  const m = /[A-Za-z()]+$/.exec(text.trim());
+  return m !== null && Object.prototype.hasOwnProperty.call(GAUGE_UNITS, m[0]);
+}
+
 /** gauge pressures (above the ambient pressure): the unit they are read in */
 export const GAUGE_UNITS: Readonly<Record<string, string>> = {
   psig: 'psi',
