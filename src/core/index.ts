@@ -57,7 +57,7 @@ export { retarget } from './retarget.js';
 export type { Kept, RetargetInput, RetargetResult } from './retarget.js';
 export { chapmanEnskogD, diffusionMixingTimeS, fullerD, neufeldOmegaD, slowestPair } from './diffusion.js';
 export type { PairDiffusion } from './diffusion.js';
-export { experimentsServed, finalPressureForExperiments, sizingBasis } from './sizing.js';
+export { batchSizeFinding, experimentsServed, finalPressureForExperiments, sizingBasis } from './sizing.js';
 export type { ReactorSpec, Sizing, SizingInput } from './sizing.js';
 export { contamination, mixingEstimate } from './readiness.js';
 export type { Contamination, ContaminationInput, MixingEstimate } from './readiness.js';

@@ -7,7 +7,7 @@ import type { OutputStat } from '../core/index.js';
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
   'pass-uncertain': 'PASS (not proven) - every design fraction is within its tolerance, but the 95 % uncertainty reaches past it for some',
-  fail: 'FAIL - out of tolerance (or incomplete)',
+  fail: 'FAIL - out of tolerance',
   'no-design': 'no design to compare with',
 };
 
@@ -66,7 +66,7 @@ export function checkToText(r: CheckReport): string {
   );
   for (const w of r.warnings) out.push(`warning: ${w}`);
   out.push('');
-  out.push(`Verdict     ${VERDICT_TEXT[r.verdict.verdict]}`);
+  out.push(`Verdict     ${r.incomplete.length ? `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not finished, so it is not passed; the fractions above cover the fills logged so far` : VERDICT_TEXT[r.verdict.verdict]}`);
   return out.join('\n') + '\n';
 }
 
@@ -115,7 +115,7 @@ export function folderSummary(rows: readonly ({ file: string } & ({ report: Chec
     }
     const rep = r.report;
     const worst = rep.verdict.deviations.reduce((m, d) => Math.max(m, Math.abs(d.deviation) / d.tolerance), 0);
-    table.push([r.file, rep.id, rep.verdict.verdict, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
+    table.push([r.file, rep.id, rep.incomplete.length ? 'incomplete' : rep.verdict.verdict, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
   }
   return padTable(table, [false, false, false, true, true]).join('\n') + '\n';
 }
