@@ -90,8 +90,9 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
   const r = schema.safeParse(src.data, { reportInput: true });
   if (r.success) return r.data;
   let issue: z.core.$ZodIssue = r.error.issues[0];
-  let siblings: readonly z.core.$ZodIssue[] = r.error.issues;
   let prefix: PropertyKey[] = [];
+  // every level of issues passed on the way down, with the path it is relative to
+  const levels: { prefix: PropertyKey[]; issues: readonly z.core.$ZodIssue[] }[] = [{ prefix: [], issues: r.error.issues }];
   // a union (two forms of the mixture, a string or a map): follow the branch that got furthest
   while (issue.code === 'invalid_union' && issue.errors.length) {
     const branches = issue.errors.filter((b) => b.length > 0);
@@ -99,7 +100,7 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
     if (!best || depth(best) === 0) break;
     prefix = [...prefix, ...issue.path];
     issue = best[0];
-    siblings = best;
+    levels.push({ prefix, issues: best });
   }
   const fullPath = [...prefix, ...issue.path];
   const path = fullPath.filter((p): p is string | number => typeof p !== 'symbol');
@@ -109,20 +110,21 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
     return fail({ code: 'unknown-key', key, allowed: allowedKeysAt(path) }, { ...where, field: fieldName([...path, key]) });
   }
   const where = src.locate(path);
-  const field = fieldName(path) || '(top level)';
+  // the field as the user knows it: the option (--tolerance) on the command line, the key path in a file
+  const field = where.field ?? (fieldName(path) || '(top level)');
   let reason = reasonOf(issue, field, hintAt(schema, path));
   // a missing field next to an unknown key is most often a misspelling: name both
   if (issue.code === 'invalid_type' && (issue as { input?: unknown }).input === undefined) {
-    const parent = issue.path.slice(0, -1);
-    const unknown = siblings.filter((i) => i.code === 'unrecognized_keys' && i.path.length === parent.length && i.path.every((p, k) => p === parent[k]));
-    const keys = unknown.flatMap((i) => (i.code === 'unrecognized_keys' ? i.keys : []));
+    const parent = fullPath.slice(0, -1);
+    const same = (a: readonly PropertyKey[]) => a.length === parent.length && a.every((p, k) => p === parent[k]);
+    const keys = levels.flatMap((l) => l.issues.filter((i) => i.code === 'unrecognized_keys' && same([...l.prefix, ...i.path])).flatMap((i) => (i.code === 'unrecognized_keys' ? i.keys : [])));
     if (keys.length) {
       const wanted = String(path[path.length - 1]);
       const close = keys.find((k) => closestKey(k, [wanted]) !== undefined);
       reason += close ? `; the key "${close}" is there instead - did you mean "${wanted}"?` : `; there is an unknown key "${keys[0]}" (allowed here: ${allowedKeysAt(path.slice(0, -1)).join(', ')})`;
     }
   }
-  return fail({ code: 'schema', reason }, { ...where, field });
+  return fail({ code: 'schema', reason }, { ...where, field: where.field ?? fieldName(path) });
 }
 
 interface AnyDef {
