@@ -30,7 +30,7 @@ import { sheetToHtml, sheetToMarkdown, sheetToText } from '../report/sheet-rende
 import { writeFileAtomic } from '../io/atomic.js';
 import { writePdf } from '../io/pdf.js';
 import { checkToJson, checkToText, folderSummary } from '../report/check-report.js';
-import { accessSync, constants as fsConstants, lstatSync, mkdirSync, readdirSync, statSync } from 'node:fs';
+import { accessSync, constants as fsConstants, lstatSync, mkdirSync, readdirSync, statSync, unlinkSync } from 'node:fs';
 import { createLog, readLog } from '../io/batch-log.js';
 import { headerFromPlan } from '../io/check.js';
 import { dirname, extname, join } from 'node:path';
@@ -58,6 +58,27 @@ function checkOutputTarget(path: string, force: boolean): void {
     accessSync(dir, fsConstants.W_OK);
   } catch {
     throw new ProblemError({ code: 'file-unwritable', reason: `the folder ${dir} is not writable (permission denied); choose another place, or ask for write access` }, where);
+  }
+}
+
+/**
+ * "wrote" is said only of a file that holds every byte: a short write (a full disk)
+ * that slipped through is found here, the truncated file removed and the write refused.
+ */
+function verifyWritten(path: string, bytes: number): void {
+  let size: number;
+  try {
+    size = statSync(path).size;
+  } catch {
+    throw new ProblemError({ code: 'file-unwritable', reason: 'the file is not there after writing it; nothing was written' }, { file: path });
+  }
+  if (size !== bytes) {
+    try {
+      unlinkSync(path);
+    } catch {
+      // removing it is a courtesy; the refusal below stands either way
+    }
+    throw new ProblemError({ code: 'file-unwritable', reason: `only ${size} of ${bytes} bytes reached the disk (is it full?); the incomplete file was removed` }, { file: path });
   }
 }
 
@@ -391,6 +412,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         const text = format === 'md' ? sheetToMarkdown(model) : format === 'txt' ? sheetToText(model) : sheetToHtml(model);
         if (o.output) {
           writeFileAtomic(o.output, text, Boolean(o.force));
+          verifyWritten(o.output, Buffer.byteLength(text, 'utf8'));
           out(`wrote ${o.output}\n`);
         } else out(text);
       }
