@@ -143,7 +143,7 @@ const MISREAD: Readonly<Record<string, { meant: string; library: string }>> = {
  */
 export const PHYSICAL_RANGE: Readonly<Record<Dimension, { min: number; max: number; text: string }>> = {
   pressure: { min: 1e-12, max: 1e10, text: 'from 1e-12 Pa to 1e10 Pa (1e-14 Torr to 100000 bar)' },
-  temperature: { min: 0, max: 1e5, text: 'above absolute zero (0 K = -273.15 degC) and at most 100000 K' },
+  temperature: { min: 1, max: 1e5, text: 'from 1 K to 100000 K (absolute zero, 0 K, is -273.15 degC)' },
   volume: { min: 1e-12, max: 1e6, text: 'from 1e-12 m^3 (1 nL) to 1e6 m^3' },
   'pressure rate': { min: 1e-15, max: 1e10, text: 'from 1e-15 Pa/s to 1e10 Pa/s' },
   time: { min: 1e-9, max: 1e10, text: 'from 1 ns to 1e10 s' },
@@ -163,7 +163,7 @@ function checkRange(v: number, s: string, expected: Dimension, where: Where): nu
   const r = PHYSICAL_RANGE[expected];
   if (!Number.isFinite(v)) return fail({ code: 'bad-quantity', text: s, expected, reason: `the number is too large to represent; the allowed range is ${r.text}` }, where);
   if (expected === 'temperature') {
-    if (!(v > 0)) return fail({ code: 'out-of-range', what: `temperature`, value: v, text: s, allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : 'below absolute zero'}` }, where);
+    if (!(v >= r.min)) return fail({ code: 'out-of-range', what: `temperature`, value: v, text: s, allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : v < 0 ? 'below absolute zero' : 'colder than any gas in a lab'}` }, where);
   } else if (v !== 0 && Math.abs(v) < r.min) {
     return fail({ code: 'out-of-range', what: expected, value: v, text: s, allowed: `${r.text}; this is too small to be measured, check the exponent and the unit` }, where);
   }

@@ -4,7 +4,7 @@ import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stringify } from 'yaml';
-import { runCli } from '../helpers.js';
+import { cliRuns, runCli } from '../helpers.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 
 // bounded here; `npm run fuzz` runs many more (FUZZ_RUNS)
@@ -21,6 +21,7 @@ const file = (ext: string, text: string) => {
 const warnings: string[] = [];
 process.on('warning', (w) => warnings.push(`${w.name}: ${w.message}`));
 afterAll(() => expect(warnings).toEqual([]));
+afterAll(() => console.log(`fuzz inputs: ${cliRuns.count} invocations`));
 
 /** every run ends in a known exit code; a refusal names its code and place; nothing prints NaN, Infinity or a stack */
 function judge(r: { code: number; stdout: string; stderr: string }, allowed: number[]) {
