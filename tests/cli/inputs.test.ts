@@ -64,7 +64,7 @@ describe('input people type', () => {
   it('a gauge pressure with no barometer anywhere is refused, saying what to give', async () => {
     const d = tmp();
     const lab = join(d, 'lab.yaml');
-    writeFileSync(lab, DEMO_LAB_YAML.replace(/barometer:\n  pressure: 760 Torr\n  uncertainty: 0.4 Torr\n/, ''));
+    writeFileSync(lab, DEMO_LAB_YAML.replace(/barometer:\n {2}pressure: 760 Torr\n {2}uncertainty: 0.4 Torr\n/, ''));
     const r = await runCli(['plan', RECIPE, '--lab', lab, '--pressure', '15 psig']);
     refused(r, 'needs-barometer');
     expect(r.stderr).toMatch(/--pressure.*--barometer/);

@@ -207,7 +207,7 @@ describe('fuzz: hostile files and numbers', () => {
     const value = fc.oneof(fc.constantFrom('0', '15', '-14.7', '1.2', '100', '-20', '1e3'), fc.double({ min: -50, max: 500, noNaN: true }).map((v) => v.toPrecision(5)));
     const pu = fc.constantFrom('psig', 'psi(g)', 'barg', 'bar(g)', 'kPag', 'kPa(g)', 'mbarg', 'psia', 'psi(a)', 'bara', 'bar(a)', 'kPa(a)', 'Torr', 'psi');
     const tu = fc.constantFrom('°C', '℃', '°F', 'degC', 'degF', 'K', 'C', 'F', '°K', 'c');
-    const noBaroLab = file('yaml', DEMO_LAB_YAML.replace(/barometer:\n  pressure: 760 Torr\n  uncertainty: 0.4 Torr\n/, ''));
+    const noBaroLab = file('yaml', DEMO_LAB_YAML.replace(/barometer:\n {2}pressure: 760 Torr\n {2}uncertainty: 0.4 Torr\n/, ''));
     await fc.assert(
       fc.asyncProperty(value, pu, value, tu, fc.constantFrom(undefined, '750 Torr', '1013 hPa', '29.9 inHg', '5 psig', '2 bar'), fc.boolean(), async (p, u, t, v, baro, labless) => {
         const args = ['plan', RECIPE, '--pressure', `${p} ${u}`, '--temperature', `${t} ${v}`];
