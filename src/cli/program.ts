@@ -95,7 +95,9 @@ function sheetFormat(format: string | undefined, output: string | undefined): st
     if (fromExt) return fromExt;
     throw new ProblemError({ code: 'schema', reason: `cannot tell the sheet format from the file name "${output}" (extension ${ext || 'none'}); name the file ${known}, or give --format html|md|txt|pdf` }, { field: '--output' });
   }
-  if (fromExt && fromExt !== format) {
+  // md and txt are both plain text; html and pdf are not interchangeable with anything
+  const plain = (f: string) => f === 'md' || f === 'txt';
+  if (fromExt && fromExt !== format && !(plain(fromExt) && plain(format))) {
     throw new ProblemError({ code: 'design-conflict', reason: `--format ${format} would write ${format} into a file named ${ext}; give a file name that ends in the format's extension, or leave --format out to take it from the name` }, { field: '--format' });
   }
   return format;

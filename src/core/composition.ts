@@ -244,7 +244,8 @@ export function designMixture(input: DesignInput): Design {
   addInto(composition, fuel, F);
   addInto(composition, oxidizer, X);
   if (D > 0) addInto(composition, diluent, D);
-  checkTrace(composition, basis.kind === 'fuel-fraction' ? 'fuel_fraction' : basis.kind === 'diluent-ratio' ? 'diluent_ratio' : 'dilution');
+  // the groups, not each species of a blend: a trace inside a blend comes with it from a premix cylinder
+  checkTrace({ fuel: F, oxidizer: X, diluent: D }, basis.kind === 'fuel-fraction' ? 'fuel_fraction' : basis.kind === 'diluent-ratio' ? 'diluent_ratio' : 'dilution');
   return {
     composition,
     phi,

@@ -11,6 +11,7 @@ export function formatNumber(x: number): string {
   if (!Number.isFinite(x)) return x > 0 ? 'too large to represent' : 'too large (negative) to represent';
   if (x === 0) return '0';
   const a = Math.abs(x);
+  if (Number.isInteger(x) && a < 1e15) return String(x);
   if (a >= 1e-4 && a < 1e9) return String(Number(x.toPrecision(6)));
   // 2.0505e+5 -> 2.0505e5
   return x.toExponential(5).replace(/\.?0+e/, 'e').replace('e+', 'e');

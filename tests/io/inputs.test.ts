@@ -96,7 +96,9 @@ describe('quantities: finite, physical, and the spellings people type', () => {
   it('numbers in messages: six significant digits, no float noise', () => {
     expect(formatNumber(1000.0000000000001)).toBe('1000');
     expect(formatNumber(205050)).toBe('205050');
-    expect(formatNumber(2.0505e12)).toBe('2.0505e12');
+    expect(formatNumber(2.0505e17)).toBe('2.0505e17');
+    expect(formatNumber(99999999999)).toBe('99999999999');
+    expect(formatNumber(1.5e-7)).toBe('1.5e-7');
     expect(formatNumber(Number.NaN)).toBe('not a number');
     expect(formatNumber(-666.6118421052631)).toBe('-666.612');
   });

@@ -44,7 +44,7 @@ describe('guided fill state machine', () => {
     expect(t.field).toBe('temperature');
     for (let i = 0; i < 10; i++) t = fillReducer(t, { type: 'backspace' });
     t = fillReducer(type(t, '-300 degC'), { type: 'tab' });
-    expect(enter(type(t, '1480')).error).toMatch(/outside the allowed range 200-600 K/);
+    expect(enter(type(t, '1480')).error).toMatch(/outside the allowed range .*below absolute zero/);
   });
 
   it('the last reading closes the batch: close effect and a GUM re-check summary', () => {
