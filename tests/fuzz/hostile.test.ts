@@ -18,6 +18,8 @@ import { cliRuns, runCli } from '../helpers.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 40);
+/** a property's time budget grows with its runs (the 5 s rule is per invocation, in judge) */
+const BUDGET_MS = 30000 + RUNS * 300;
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const CSV = readFileSync('readings/ch4-phi1-ar98.csv', 'utf8');
 const dir = mkdtempSync(join(tmpdir(), 'mw-hostile-'));
@@ -134,7 +136,7 @@ describe('fuzz: hostile files and numbers', () => {
       }),
       { numRuns: Math.ceil(RUNS / 4) },
     );
-  });
+  }, BUDGET_MS);
 
   const extreme = fc.oneof(
     fc.constantFrom(1e300, 1e-300, 5e-324, Number.MAX_VALUE, Number.MIN_VALUE, 1e30, 1e-30, -0, -1e300, 1e16, 0.9999999999999999),
@@ -158,7 +160,7 @@ describe('fuzz: hostile files and numbers', () => {
       ),
       { numRuns: Math.ceil(RUNS / 2) },
     );
-  });
+  }, BUDGET_MS);
 
   it('extreme CSV readings with Monte Carlo trials: exit 0, 2 or 4, never an internal error', async () => {
     await fc.assert(
@@ -168,7 +170,7 @@ describe('fuzz: hostile files and numbers', () => {
       }),
       { numRuns: Math.ceil(RUNS / 40) },
     );
-  });
+  }, BUDGET_MS);
 
   it('YAML alias bombs and unresolved aliases, in recipes and lab profiles: refused or inert, never expanded', async () => {
     const bomb = fc.record({ depth: fc.integer({ min: 1, max: 7 }), width: fc.integer({ min: 1, max: 12 }), at: fc.constantFrom('notes', 'order', 'mixture', 'junk', 'tank'), unresolved: fc.boolean() });
@@ -184,7 +186,7 @@ describe('fuzz: hostile files and numbers', () => {
       }),
       { numRuns: Math.ceil(RUNS / 4) },
     );
-  });
+  }, BUDGET_MS);
 
   it('a byte-order mark changes nothing: the same exit and output as without it', async () => {
     await fc.assert(
@@ -201,7 +203,7 @@ describe('fuzz: hostile files and numbers', () => {
       }),
       { numRuns: Math.ceil(RUNS / 40) },
     );
-  });
+  }, BUDGET_MS);
 
   it('suffixed gauge and degree units, with and without a barometer: converted or refused with what to give', async () => {
     const value = fc.oneof(fc.constantFrom('0', '15', '-14.7', '1.2', '100', '-20', '1e3'), fc.double({ min: -50, max: 500, noNaN: true }).map((v) => v.toPrecision(5)));
@@ -224,7 +226,7 @@ describe('fuzz: hostile files and numbers', () => {
       }),
       { numRuns: Math.ceil(RUNS / 16) },
     );
-  });
+  }, BUDGET_MS);
 
   it('output through symlinks, folders, read-only and full targets: "wrote" only for the whole file, else nothing changed', async () => {
     const target = fc.constantFrom('plain', 'exists', 'dangling-link', 'link-to-file', 'link-to-folder', 'folder', 'missing-folder', 'read-only', 'full');
@@ -270,5 +272,5 @@ describe('fuzz: hostile files and numbers', () => {
       }),
       { numRuns: Math.ceil(RUNS / 8) },
     );
-  });
+  }, BUDGET_MS);
 });
