@@ -9,6 +9,9 @@ export function fixture<T = any>(name: string): T {
 
 export const TORR = 101325 / 760;
 
+/** invocations of runCli in this test file's process (the fuzz suites report it) */
+export const cliRuns = { count: 0 };
+
 /** run the CLI in-process; returns exit code and captured output */
 export async function runCli(argv: string[], isTTY = false): Promise<{ code: number; stdout: string; stderr: string }> {
   let stdout = '';
@@ -18,6 +21,7 @@ export async function runCli(argv: string[], isTTY = false): Promise<{ code: num
     stderr: { write: (s: string) => (stderr += s) },
     isTTY,
   });
+  cliRuns.count++;
   const code = await run(argv);
   return { code, stdout, stderr };
 }

@@ -11,6 +11,7 @@ import {
   relocate,
   worstSeverity,
   experimentsServed,
+  batchSizeFinding,
   mixingEstimate,
   contamination,
 } from '../core/index.js';
@@ -32,10 +33,78 @@ import { checkToJson, checkToText, folderSummary } from '../report/check-report.
 import { checkLog } from '../io/check.js';
 import { buildCertificateModel } from '../report/label-certificate.js';
 import { certificateToHtml, certificateToMarkdown, certificateToText } from '../report/label-render.js';
-import { mkdirSync, readdirSync, statSync } from 'node:fs';
+import { accessSync, constants as fsConstants, lstatSync, mkdirSync, readdirSync, statSync, unlinkSync } from 'node:fs';
 import { createLog, readLog } from '../io/batch-log.js';
 import { headerFromPlan } from '../io/check.js';
-import { join } from 'node:path';
+import { dirname, extname, join } from 'node:path';
+
+/**
+ * Refuse an output path that cannot take the file, before anything is computed or
+ * written: a folder, a missing or read-only folder, an existing file (or link, even a
+ * dangling one) without --force. The write itself stays atomic (io/atomic.ts).
+ */
+function checkOutputTarget(path: string, force: boolean): void {
+  const where = { file: path, field: '--output' };
+  let st: ReturnType<typeof lstatSync> | undefined;
+  try {
+    st = lstatSync(path);
+  } catch {
+    st = undefined;
+  }
+  if (st) {
+    if (isDirectory(path)) throw new ProblemError({ code: 'file-unwritable', reason: 'it is a folder; give a file name inside it, e.g. -o FOLDER/fill.html (--force never replaces a folder)' }, where);
+    if (!force) throw new ProblemError({ code: 'file-unwritable', reason: `${st.isSymbolicLink() ? 'a symbolic link of that name' : 'the file'} exists; add --force to replace it, or choose another name` }, where);
+  }
+  const dir = dirname(path);
+  if (!isDirectory(dir)) throw new ProblemError({ code: 'file-unwritable', reason: `the folder ${dir} does not exist; create it first, or choose another place` }, where);
+  try {
+    accessSync(dir, fsConstants.W_OK);
+  } catch {
+    throw new ProblemError({ code: 'file-unwritable', reason: `the folder ${dir} is not writable (permission denied); choose another place, or ask for write access` }, where);
+  }
+}
+
+/**
+ * "wrote" is said only of a file that holds every byte: a short write (a full disk)
+ * that slipped through is found here, the truncated file removed and the write refused.
+ */
+function verifyWritten(path: string, bytes: number): void {
+  let size: number;
+  try {
+    size = statSync(path).size;
+  } catch {
+    throw new ProblemError({ code: 'file-unwritable', reason: 'the file is not there after writing it; nothing was written' }, { file: path });
+  }
+  if (size !== bytes) {
+    try {
+      unlinkSync(path);
+    } catch {
+      // removing it is a courtesy; the refusal below stands either way
+    }
+    throw new ProblemError({ code: 'file-unwritable', reason: `only ${size} of ${bytes} bytes reached the disk (is it full?); the incomplete file was removed` }, { file: path });
+  }
+}
+
+/** the sheet formats, by file extension */
+const FORMAT_OF_EXTENSION: Readonly<Record<string, string>> = { '.html': 'html', '.htm': 'html', '.md': 'md', '.markdown': 'md', '.txt': 'txt', '.pdf': 'pdf' };
+
+/** the sheet's format: --format, else from the extension of -o, else html; a known extension that disagrees is refused */
+function sheetFormat(format: string | undefined, output: string | undefined): string {
+  const ext = output ? extname(output).toLowerCase() : '';
+  const fromExt = Object.prototype.hasOwnProperty.call(FORMAT_OF_EXTENSION, ext) ? FORMAT_OF_EXTENSION[ext] : undefined;
+  const known = Object.keys(FORMAT_OF_EXTENSION).join(', ');
+  if (format === undefined) {
+    if (!output) return 'html';
+    if (fromExt) return fromExt;
+    throw new ProblemError({ code: 'schema', reason: `cannot tell the sheet format from the file name "${output}" (extension ${ext || 'none'}); name the file ${known}, or give --format html|md|txt|pdf` }, { field: '--output' });
+  }
+  // md and txt are both plain text; html and pdf are not interchangeable with anything
+  const plain = (f: string) => f === 'md' || f === 'txt';
+  if (fromExt && fromExt !== format && !(plain(fromExt) && plain(format))) {
+    throw new ProblemError({ code: 'design-conflict', reason: `--format ${format} would write ${format} into a file named ${ext}; give a file name that ends in the format's extension, or leave --format out to take it from the name` }, { field: '--format' });
+  }
+  return format;
+}
 
 function isDirectory(p: string): boolean {
   try {
@@ -61,6 +130,26 @@ export interface Streams {
   readonly stderr: { write(s: string): unknown };
   /** whether stdin and stdout are a terminal (bare `mixwright` opens the wizard only then) */
   readonly isTTY?: boolean;
+}
+
+function systemReason(code: string): string {
+  switch (code) {
+    case 'ENOSPC':
+      return 'the disk is full; free some space, or write elsewhere';
+    case 'EACCES':
+    case 'EPERM':
+      return 'permission denied; choose another place, or ask for access';
+    case 'EISDIR':
+      return 'a folder is in the way';
+    case 'EROFS':
+      return 'the file system is read-only';
+    case 'EDQUOT':
+      return 'the disk quota is used up';
+    case 'ENOENT':
+      return 'a folder on the path does not exist';
+    default:
+      return 'an input/output error';
+  }
 }
 
 export const EXIT = { ok: 0, internal: 1, input: 2, danger: 3, outOfTolerance: 4, interrupted: 130 } as const;
@@ -91,6 +180,8 @@ interface PlanOptions {
   barometer?: string;
   tolerance?: string;
   experiments?: string;
+  rating?: string;
+  workingFraction?: string;
   reactor?: string;
   reactorVolume?: string;
   lineVolume?: string;
@@ -107,6 +198,8 @@ const OPTION_OF: Record<string, string> = {
   'mixture.fuel_fraction': '--fuel-fraction',
   'mixture.fractions': '--fractions',
   volume: '--volume',
+  rating: '--rating',
+  working_fraction: '--working-fraction',
   tank: '--tank',
   pressure: '--pressure',
   temperature: '--temperature',
@@ -119,12 +212,23 @@ const OPTION_OF: Record<string, string> = {
   'experiments.fill_pressure': '--fill-pressure',
 };
 
+/** --barometer: an absolute pressure in the range of the atmosphere anywhere people work */
+function parseBarometer(text: string): number {
+  const pa = parseQuantity(text, 'pressure', { field: '--barometer' });
+  if (!(pa >= 30000 && pa <= 110000)) {
+    throw new ProblemError({ code: 'out-of-range', what: 'barometric pressure', value: pa, text, allowed: '300 hPa to 1100 hPa (225 to 825 Torr), absolute: the atmosphere from high mountains to below sea level' }, { field: '--barometer' });
+  }
+  return pa;
+}
+
 function numberOption(text: string, option: string): number {
   const s = text.trim();
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
     throw new ProblemError({ code: 'schema', reason: `"${text}" is not a number` }, { field: option });
   }
-  return Number(s);
+  const v = Number(s);
+  if (!Number.isFinite(v)) throw new ProblemError({ code: 'schema', reason: `"${text}" is too large a number to represent; check the exponent` }, { field: option });
+  return v;
 }
 
 /** merge inline options over a recipe (or build one from options alone) */
@@ -166,6 +270,8 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
     if (o.fuelFraction !== undefined) set('mixture.fuel_fraction', numberOption(o.fuelFraction, '--fuel-fraction'));
   }
   if (o.volume !== undefined) set('volume', o.volume);
+  if (o.rating !== undefined) set('rating', o.rating);
+  if (o.workingFraction !== undefined) set('working_fraction', numberOption(o.workingFraction, '--working-fraction'));
   if (o.tank !== undefined) set('tank', o.tank);
   if (o.pressure !== undefined) set('pressure', o.pressure);
   if (o.temperature !== undefined) set('temperature', o.temperature);
@@ -235,12 +341,14 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       .option('--fractions <list>', 'explicit mole fractions, e.g. CH4:0.05,O2:0.10,Ar:0.85')
       .option('--volume <quantity>', 'tank volume, e.g. "30 L"')
       .option('--tank <id>', 'tank from the lab profile')
+      .option('--rating <quantity>', 'maximum allowed working pressure of the tank given by --volume, e.g. "4 bar" or "45 psig"')
+      .option('--working-fraction <fraction>', 'fraction of --rating used as the working limit (default 1)')
       .option('--pressure <quantity>', 'final pressure, absolute, e.g. "1500 Torr"')
       .option('--temperature <quantity>', 'tank temperature, e.g. "22 degC"')
       .option('--order <list>', 'fill order, e.g. CH4,O2,Ar')
       .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
       .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
-      .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings, e.g. "752.3 Torr"')
+      .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings and gauge pressures such as "15 psig", e.g. "752.3 Torr"')
       .option('--experiments <n>', 'size the batch for n experiments (sets the final pressure)')
       .option('--reactor <id>', 'reactor or driven section from the lab profile')
       .option('--reactor-volume <quantity>', 'reactor volume filled per experiment, e.g. "0.9 L"')
@@ -250,9 +358,9 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
 
   /** recipe and options -> plan, with errors pointed at the file line or option */
   const planFrom = (recipeFile: string | undefined, o: PlanOptions) => {
+    const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
     const base = recipeFile ? readRecipe(recipeFile) : undefined;
     const rs = mergeOptions(base, o);
-    const barometricPa = o.barometer === undefined ? undefined : parseQuantity(o.barometer, 'pressure', { field: '--barometer' });
     const req = buildPlanRequest(rs, o.lab, { barometricPa });
     let plan;
     try {
@@ -265,6 +373,9 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     // default: the unit the final pressure was given in, when it is one of ours; else Torr
     const given = /[A-Za-z]+$/.exec((req.recipe.pressure ?? '').trim())?.[0] ?? '';
     const unit: PressureUnit = o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
+    // a batch too small for one experiment is a warning finding, with the plan's own
+    const tooSmall = req.sizing ? batchSizeFinding(req.sizing, plan.final.pressurePa) : undefined;
+    if (tooSmall) plan = { ...plan, findings: [...plan.findings, tooSmall] };
     const served = req.sizing ? experimentsServed(req.sizing, plan.final.pressurePa) : undefined;
     const meta = {
       recipeId: req.recipe.id,
@@ -286,24 +397,27 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     });
 
   withDesignOptions(program.command('sheet').description('printable fill checklist: steps with targets and bands, checks, findings, and the fuel/O2/inert diagram'))
-    .addOption(new Option('--format <format>', 'output format').choices(['html', 'md', 'txt', 'pdf']).default('html'))
+    .addOption(new Option('--format <format>', 'output format (default: from the extension of -o, else html)').choices(['html', 'md', 'txt', 'pdf']))
     .option('-o, --output <file>', 'write to this file (required for pdf); stdout otherwise')
     .option('--force', 'overwrite an existing output file')
     .addOption(new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'))
     .option('--batch <id>', 'batch id printed on the sheet (default: recipe id and date)')
-    .action(async (recipeFile: string | undefined, o: PlanOptions & { format: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; batch?: string }) => {
+    .action(async (recipeFile: string | undefined, o: PlanOptions & { format?: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; batch?: string }) => {
+      const format = sheetFormat(o.format, o.output);
+      if (o.output) checkOutputTarget(o.output, Boolean(o.force));
       const { plan, req, unit } = planFrom(recipeFile, o);
       const h = req.tankInfo?.heightM;
       const mixing = h ? mixingEstimate(plan.composition, plan.temperatureK, plan.final.pressurePa, h, Boolean(req.tankInfo?.stirred)) : undefined;
       const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing, barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined } });
-      if (o.format === 'pdf') {
+      if (format === 'pdf') {
         if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' }, { field: '--output' });
         await writePdf(sheetToHtml(model), o.output, Boolean(o.force));
         out(`wrote ${o.output}\n`);
       } else {
-        const text = o.format === 'md' ? sheetToMarkdown(model) : o.format === 'txt' ? sheetToText(model) : sheetToHtml(model);
+        const text = format === 'md' ? sheetToMarkdown(model) : format === 'txt' ? sheetToText(model) : sheetToHtml(model);
         if (o.output) {
           writeFileAtomic(o.output, text, Boolean(o.force));
+          verifyWritten(o.output, Buffer.byteLength(text, 'utf8'));
           out(`wrote ${o.output}\n`);
         } else out(text);
       }
@@ -330,7 +444,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       if (base === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the base vacuum is not known: give --base-vacuum or add "base_vacuum" to the tank in the lab profile' }, { field: '--base-vacuum' });
       if (o.leak === undefined) notes.push('leak-up rate from the lab profile; measure it before each batch and give --leak');
       const days = numberOption(o.days, '--days');
-      if (!(days >= 0)) throw new ProblemError({ code: 'out-of-range', what: 'days', value: days, allowed: '>= 0' }, { field: '--days' });
+      if (!(days >= 0 && days <= 36500)) throw new ProblemError({ code: 'out-of-range', what: 'days', value: days, text: o.days, allowed: '0 to 36500 (100 years)' }, { field: '--days' });
       const stirred = Boolean(o.stirred ?? info?.stirred);
       const y = plan.composition;
       const report = {
@@ -406,7 +520,8 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .option('--json', 'print one JSON object')
     .option('--trials <n>', 'Monte Carlo trials, 100000 to 10000000 (default 200000 for one log; a folder is checked by GUM alone unless given)')
     .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
-    .action(async (target: string, o: { recipe?: string; lab?: string; json?: boolean; trials?: string; seed: string }) => {
+    .option('--barometer <quantity>', 'barometric pressure at the fill, for CSV readings of gauge-referenced sensors and gauge units such as "psig", e.g. "752.3 Torr" (default: the lab profile)')
+    .action(async (target: string, o: { recipe?: string; lab?: string; json?: boolean; trials?: string; seed: string; barometer?: string }) => {
       const folder = isDirectory(target);
       const trials = o.trials === undefined ? (folder ? 0 : 200000) : numberOption(o.trials, '--trials');
       // the trials are kept in memory for the interval: about 1.2 GB at 1e7 (measured), so that is the ceiling
@@ -417,7 +532,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         );
       }
       const seed = numberOption(o.seed, '--seed');
-      const opts = { trials, seed, recipeFile: o.recipe, labFile: o.lab };
+      const opts = { trials, seed, recipeFile: o.recipe, labFile: o.lab, barometricPa: o.barometer === undefined ? undefined : parseBarometer(o.barometer) };
       if (folder) {
         const files = listLogs(target);
         if (files.length === 0) throw new ProblemError({ code: 'file-unreadable', reason: 'the folder holds no .jsonl or .csv files' }, { file: target });
@@ -425,15 +540,21 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         const rows: Row[] = [];
         for (const f of files) {
           try {
-            rows.push({ file: f, report: await checkFile(f, opts) });
+            // --barometer is for CSV readings; a log in the folder keeps its own
+            rows.push({ file: f, report: await checkFile(f, /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined }) });
           } catch (e) {
-            if (e instanceof ProblemError) rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
-            else throw e;
+            if (e instanceof ProblemError) {
+              rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
+              err(`mixwright: ${describeProblemAt(e.problem, e.where.file ? e.where : { ...e.where, file: f })}\n  (error code: ${e.problem.code})\n`);
+            } else throw e;
           }
         }
         if (o.json) out(JSON.stringify(rows.map((r) => ('report' in r ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) } : r)), null, 2) + '\n');
         else out(folderSummary(rows));
-        if (rows.some((r) => 'error' in r)) throw new ExitSignal(EXIT.input);
+        if (rows.some((r) => 'error' in r)) {
+          err(`mixwright: ${rows.filter((r) => 'error' in r).length} of ${rows.length} files in ${target} could not be checked (above)\n`);
+          throw new ExitSignal(EXIT.input);
+        }
         if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail')) throw new ExitSignal(EXIT.outOfTolerance);
         // a reading past a tank's working limit or a gauge's range stands beside any verdict
         if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger'))) throw new ExitSignal(EXIT.danger);
@@ -499,7 +620,7 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .argument('<format>', 'recipe or lab')
     .action((format: string) => {
       const schemas: Record<string, z.ZodType> = { recipe: recipeSchema, lab: labSchema };
-      const s = schemas[format];
+      const s = Object.prototype.hasOwnProperty.call(schemas, format) ? schemas[format] : undefined;
       if (!s) throw new ProblemError({ code: 'schema', reason: `unknown format "${format}"; choose recipe or lab` }, { field: 'schema' });
       out(JSON.stringify(z.toJSONSchema(s, { io: 'input' }), null, 2) + '\n');
     });
@@ -542,6 +663,12 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       }
       if (e instanceof ProblemError) {
         err(`mixwright: ${describeProblemAt(e.problem, e.where)}\n  (error code: ${e.problem.code})\n`);
+        return EXIT.input;
+      }
+      const sys = e as NodeJS.ErrnoException;
+      if (typeof sys.code === 'string' && /^E[A-Z]+$/.test(sys.code) && typeof sys.syscall === 'string') {
+        // a refusal by the system (full disk, permission, a folder in the way): the file and the cause, no stack
+        err(`mixwright: ${sys.path ?? ''}${sys.path ? ': ' : ''}the system refused to ${sys.syscall} it: ${systemReason(sys.code)} (${sys.code})\n  (error code: file-unwritable)\n`);
         return EXIT.input;
       }
       err(`mixwright: internal error: ${(e as Error).message}\n  This is a fault in mixwright, not in your input; please report it with the command you ran.\n`);

@@ -136,12 +136,36 @@ export function equivalenceRatio(x: Fractions): number | undefined {
 }
 
 /**
+ * The equivalence ratios a design may ask for (our limits, common practice): far
+ * outside them one of fuel and oxidizer is below the resolution of any fill, and the
+ * arithmetic of the plan loses meaning (phi 1e300 overflows it).
+ */
+export const PHI_RANGE = { min: 1e-3, max: 1e3 } as const;
+/** the largest diluent ratio (mol diluent per mol O2): beyond it O2 is below 1 ppm */
+export const DILUENT_RATIO_MAX = 1e6;
+/**
+ * The smallest mole fraction a design may give a species: 1e-9 (1 ppb). Below it no
+ * partial-pressure fill can meter the gas (at 10 bar it is 1 mPa of a gauge reading);
+ * a trace that small is made by serial dilution of a premix (common practice).
+ */
+export const MIN_DESIGN_FRACTION = 1e-9;
+
+function checkTrace(x: Fractions, field: string): void {
+  for (const [k, v] of Object.entries(x)) {
+    if (v > 0 && v < MIN_DESIGN_FRACTION) {
+      fail({ code: 'out-of-range', what: `the mole fraction of ${k}`, value: v, allowed: `0, or from ${MIN_DESIGN_FRACTION} (1 ppb) to 1: a smaller fraction cannot be metered by partial pressure; fill a premix of ${k} instead, or check the design's numbers` }, { field });
+    }
+  }
+}
+
+/**
  * Build the target composition of a design.
  * Example: CH4 in air (O2 0.21, N2 0.79), phi 1, no diluent -> x_CH4 = 1/(1 + 2/0.21) = 0.0950.
  */
 export function designMixture(input: DesignInput): Design {
   if (input.kind === 'fractions') {
     const x = checkBlend(input.fractions, 'fractions', false);
+    checkTrace(x, 'fractions');
     const g = groupsOf(x);
     const fuelD = demandOf(g.fuelBlend);
     return {
@@ -156,6 +180,9 @@ export function designMixture(input: DesignInput): Design {
   }
   const { phi, basis } = input;
   if (!Number.isFinite(phi) || phi <= 0) fail({ code: 'not-positive', what: 'phi (equivalence ratio)', value: phi }, { field: 'phi' });
+  if (phi < PHI_RANGE.min || phi > PHI_RANGE.max) {
+    fail({ code: 'out-of-range', what: 'phi (equivalence ratio)', value: phi, allowed: `${PHI_RANGE.min} to ${PHI_RANGE.max}: beyond it the mixture is, to the precision of a fill, the pure oxidizer or the pure fuel; give such a mixture by its fractions` }, { field: 'phi' });
+  }
   const fuel = checkBlend(input.fuel, 'fuel', false);
   const oxidizer = checkBlend(input.oxidizer, 'oxidizer', false);
   const diluent = checkBlend(input.diluent, 'diluent', true);
@@ -189,7 +216,7 @@ export function designMixture(input: DesignInput): Design {
     }
     case 'diluent-ratio': {
       const r = basis.value;
-      if (!(r >= 0) || !Number.isFinite(r)) fail({ code: 'out-of-range', what: 'diluent ratio (mol diluent per mol O2)', value: r, allowed: '[0, infinity)' }, { field: 'diluent_ratio' });
+      if (!(r >= 0) || !Number.isFinite(r) || r > DILUENT_RATIO_MAX) fail({ code: 'out-of-range', what: 'diluent ratio (mol diluent per mol O2)', value: r, allowed: `0 to ${DILUENT_RATIO_MAX} (a larger ratio leaves less than 1 ppm of O2; give such a mixture by its fractions)` }, { field: 'diluent_ratio' });
       if (r > 0 && !hasDiluent) fail({ code: 'design-missing', reason: `diluent ratio is ${r} but no diluent is named; add a diluent (e.g. N2)` }, { field: 'diluent' });
       // per mol fuel: oxPerFuel mol oxidizer carrying oxPerFuel * supplyPerOx mol O2-equivalent
       const dPerFuel = r * oxPerFuel * supplyPerOx;
@@ -217,6 +244,8 @@ export function designMixture(input: DesignInput): Design {
   addInto(composition, fuel, F);
   addInto(composition, oxidizer, X);
   if (D > 0) addInto(composition, diluent, D);
+  // the groups, not each species of a blend: a trace inside a blend comes with it from a premix cylinder
+  checkTrace({ fuel: F, oxidizer: X, diluent: D }, basis.kind === 'fuel-fraction' ? 'fuel_fraction' : basis.kind === 'diluent-ratio' ? 'diluent_ratio' : 'dilution');
   return {
     composition,
     phi,

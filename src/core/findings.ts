@@ -27,6 +27,7 @@ export type Finding = Base &
     | { readonly code: 'ideal-gas-error'; readonly worstPa: number; readonly bandPa: number }
     | { readonly code: 'supply-pressure-low'; readonly source: string; readonly supplyPa: number; readonly targetPa: number }
     | { readonly code: 'tank-rating-unknown'; readonly tank: string }
+    | { readonly code: 'batch-too-small'; readonly reactor: string; readonly finalPa: number; readonly minTankPa: number }
     | { readonly code: 'isolate-gauge'; readonly gauge: string; readonly topPa: number }
     | ({ readonly code: 'flammable-state' | 'flammable-mixture' | 'near-flammable' } & FlammabilityNumbers)
     | ({ readonly code: 'detonable-state'; readonly inertFraction: number; readonly pressurePa: number } & DetonationNumbers)
@@ -208,7 +209,9 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'supply-pressure-low':
       return `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} the tank must reach in this fill; the fill cannot be completed from it - raise the regulator setting (within the cylinder's and line's ratings) or lower the final pressure`;
     case 'tank-rating-unknown':
-      return `the lab profile gives no pressure rating for tank ${f.tank}; no rating is assumed, so the pressure checks cannot be made - add its rating (maximum allowed working pressure) to the profile`;
+      return `the lab profile gives no pressure rating for tank ${f.tank}; no rating is assumed, so the pressure checks cannot be made - add its rating (maximum allowed working pressure) to the profile, or give --rating with --volume`;
+    case 'batch-too-small':
+      return `the batch serves no experiment in ${f.reactor}: at ${p(f.finalPa)} the tank holds less than one fill plus the reserve (it is used down to ${p(f.minTankPa)}); raise the final pressure, use a larger tank, or size the batch with --experiments`;
     case 'isolate-gauge':
       return `close off ${f.gauge} before this fill: it reads only up to ${p(f.topPa)} absolute`;
     case 'flammable-state':

@@ -63,7 +63,11 @@ export function resolveSpeciesKey(name: string): string | undefined {
   return hits.length === 1 ? hits[0].key : undefined;
 }
 
+/** the longest species name looked up: the longest key, name or alias is far shorter; a longer text is a paste error */
+export const MAX_SPECIES_NAME = 64;
+
 export function getSpecies(name: string): SpeciesRecord {
+  if (name.length > MAX_SPECIES_NAME) return fail({ code: 'name-too-long', what: 'species name', start: name.slice(0, 24), length: name.length, limit: MAX_SPECIES_NAME });
   const key = resolveSpeciesKey(name);
   const sp = key ? SPECIES.get(key) : undefined;
   if (!sp) return fail({ code: 'unknown-species', name, suggestions: suggestSpecies(name) });

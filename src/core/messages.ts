@@ -5,14 +5,30 @@ function list(xs: readonly string[]): string {
   return xs.join(', ');
 }
 
+/** a number for a message: six significant digits at most, no float noise, never NaN or Infinity */
+export function formatNumber(x: number): string {
+  if (Number.isNaN(x)) return 'not a number';
+  if (!Number.isFinite(x)) return x > 0 ? 'too large to represent' : 'too large (negative) to represent';
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  if (Number.isInteger(x) && a < 1e15) return String(x);
+  if (a >= 1e-4 && a < 1e9) return String(Number(x.toPrecision(6)));
+  // 2.0505e+5 -> 2.0505e5
+  return x.toExponential(5).replace(/\.?0+e/, 'e').replace('e+', 'e');
+}
+
+function bytes(n: number): string {
+  return n >= 1024 * 1024 ? `${formatNumber(n / (1024 * 1024))} MB` : n >= 1024 ? `${formatNumber(n / 1024)} kB` : `${n} bytes`;
+}
+
 export function describeProblem(p: Problem): string {
   switch (p.code) {
     case 'unknown-species':
       return `unknown species "${p.name}"` + (p.suggestions.length ? `; did you mean ${list(p.suggestions)}?` : '; `mixwright species` lists the known species');
     case 'not-positive':
-      return `${p.what} must be greater than zero (got ${p.value})`;
+      return `${p.what} must be greater than zero (got ${p.text !== undefined ? `"${p.text}"` : formatNumber(p.value)})`;
     case 'out-of-range':
-      return `${p.what} = ${p.value} is outside the allowed range ${p.allowed}`;
+      return `${p.what} = ${p.text !== undefined ? `"${p.text}"` : formatNumber(p.value)} is outside the allowed range ${p.allowed}`;
     case 'wrong-dimension':
       return `"${p.text}" is a ${p.got}, but a ${p.expected} is needed here`;
     case 'bad-quantity':
@@ -39,6 +55,14 @@ export function describeProblem(p: Problem): string {
       return `not valid YAML: ${p.reason}`;
     case 'file-unreadable':
       return `cannot read the file: ${p.reason}`;
+    case 'name-too-long':
+      return `the ${p.what} "${p.start}..." is ${p.length} characters long; names have at most ${p.limit} characters. Check what was pasted here`;
+    case 'file-too-large':
+      return `cannot read the file: it holds ${bytes(p.bytes)} or more, and mixwright reads files of up to ${bytes(p.limitBytes)} (recipes, lab profiles, readings and batch logs are a few kB); check that this is the file you meant`;
+    case 'file-unwritable':
+      return `cannot write the file: ${p.reason}`;
+    case 'needs-barometer':
+      return `"${p.text}" is a gauge pressure (measured above the ambient pressure), and ${p.field} needs an absolute pressure; converting it needs the barometric pressure. Give it with --barometer (e.g. "752.3 Torr") or in the lab profile's barometer section, or give the absolute pressure (e.g. "29.7 psia" or "2.2 bar")`;
     case 'unknown-reference':
       return `no ${p.kind} "${p.id}" in the lab profile` + (p.choices.length ? `; it lists ${list(p.choices)}` : '');
     case 'no-supply':
@@ -65,7 +89,7 @@ function exampleFor(expected: string): string {
     case 'volume':
       return '"30 L" or "0.03 m^3"';
     case 'temperature':
-      return '"22 degC" or "295.15 K"';
+      return '"22 degC", "22 °C", "71.6 degF" or "295.15 K"';
     case 'pressure rate':
       return '"1e-4 Torr/min"';
     default:

@@ -15,8 +15,8 @@ export interface Where {
 
 export type Problem =
   | { readonly code: 'unknown-species'; readonly name: string; readonly suggestions: readonly string[] }
-  | { readonly code: 'not-positive'; readonly what: string; readonly value: number }
-  | { readonly code: 'out-of-range'; readonly what: string; readonly value: number; readonly allowed: string }
+  | { readonly code: 'not-positive'; readonly what: string; readonly value: number; /** what the user typed, shown instead of the SI value */ readonly text?: string }
+  | { readonly code: 'out-of-range'; readonly what: string; readonly value: number; readonly allowed: string; /** what the user typed, shown instead of the value */ readonly text?: string }
   | { readonly code: 'wrong-dimension'; readonly text: string; readonly expected: string; readonly got: string }
   | { readonly code: 'bad-quantity'; readonly text: string; readonly expected: string; readonly reason: string }
   | { readonly code: 'bad-list'; readonly text: string; readonly reason: string }
@@ -30,6 +30,10 @@ export type Problem =
   | { readonly code: 'schema'; readonly reason: string }
   | { readonly code: 'yaml-syntax'; readonly reason: string }
   | { readonly code: 'file-unreadable'; readonly reason: string }
+  | { readonly code: 'name-too-long'; readonly what: string; readonly start: string; readonly length: number; readonly limit: number }
+  | { readonly code: 'file-too-large'; readonly bytes: number; readonly limitBytes: number }
+  | { readonly code: 'file-unwritable'; readonly reason: string }
+  | { readonly code: 'needs-barometer'; readonly text: string; readonly field: string }
   | { readonly code: 'unknown-reference'; readonly kind: string; readonly id: string; readonly choices: readonly string[] }
   | { readonly code: 'no-supply'; readonly species: string; readonly reason: string }
   | { readonly code: 'no-gauge'; readonly reason: string }

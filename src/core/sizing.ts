@@ -8,6 +8,7 @@
 import type { Fractions } from './composition.js';
 import { bMix, cMix, densityFromPressure, pressureFromDensity, virialModel } from './mixture-eos.js';
 import { fail } from './problems.js';
+import type { Finding } from './findings.js';
 
 export interface ReactorSpec {
   readonly id: string;
@@ -65,6 +66,16 @@ export function experimentsServed(input: SizingInput, finalPressurePa: number): 
   const have = density(input.composition, finalPressurePa, input.temperatureK) * input.tankVolumeM3;
   const n = Math.floor((have - sizing.reserveMol) / sizing.perExperimentMol + 1e-9);
   return { experiments: Math.max(0, n), sizing };
+}
+
+/**
+ * The finding for a batch too small for even one experiment (a warning: the plan is
+ * valid, but the batch serves nothing in this reactor); undefined when it serves one or more.
+ */
+export function batchSizeFinding(input: SizingInput, finalPressurePa: number): Finding | undefined {
+  const { experiments, sizing } = experimentsServed(input, finalPressurePa);
+  if (experiments > 0) return undefined;
+  return { severity: 'warning', code: 'batch-too-small', reactor: input.reactor.id, finalPa: finalPressurePa, minTankPa: sizing.minTankPa };
 }
 
 /** the final tank pressure that serves `count` experiments */

@@ -7,6 +7,7 @@ import {
   chooseGauge,
   describeFinding,
   fail,
+  ProblemError,
   judge,
   planFill,
   pureCylinder,
@@ -29,6 +30,8 @@ export interface CheckOptions {
   readonly seed: number;
   readonly recipeFile?: string;
   readonly labFile?: string;
+  /** --barometer: the barometric pressure at the fill, Pa, for CSV readings (gauge-referenced sensors, "psig") */
+  readonly barometricPa?: number;
 }
 
 export interface CheckReport {
@@ -67,6 +70,22 @@ export function verdictCaveats(findings: readonly LogFinding[]): string[] {
   const edited = findings.filter((f) => f.code === 'text-number-mismatch' || (f.code === 'record' && (f.issue.code === 'line-edited' || f.issue.code === 'line-unhashed')));
   if (edited.length) out.push(`the record was changed after it was written (${edited.length} line${edited.length === 1 ? '' : 's'}, see the findings): the verdict rests on numbers that are not as first logged`);
   return out;
+}
+
+/**
+ * Run the uncertainty evaluation for a file: a refusal from inside it (a Monte Carlo
+ * trial whose readings no longer increase) names the file and says what it means.
+ */
+async function withinFile<T>(file: string, f: () => Promise<T>): Promise<T> {
+  try {
+    return await f();
+  } catch (e) {
+    if (e instanceof ProblemError && e.problem.code === 'schema') {
+      return fail({ code: 'schema', reason: `the readings are too close together, or too close to zero, for their uncertainty: in the uncertainty evaluation, ${e.problem.reason}. Check the pressures, and the gauge named for each reading` }, { file });
+    }
+    if (e instanceof ProblemError) throw e.at({ file });
+    throw e;
+  }
 }
 
 const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 };
@@ -150,12 +169,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   const barometer: NonNullable<CheckReport['barometer']> = b
     ? { pressurePa: b.pressure_Pa, uPa: b.u_Pa ?? h.barometer.u_Pa, from: 'log', by: b.by, time: b.time, text: b.reading }
     : { pressurePa: h.barometer.pressure_Pa, uPa: h.barometer.u_Pa, from: 'plan' };
-  const result = await evaluateUncertaintyParallel(
+  const result = await withinFile(log.file, () => evaluateUncertaintyParallel(
     readings,
     { barometricPa: barometer.pressurePa, barometricUncertaintyPa: barometer.uPa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: opts.trials, seed: opts.seed },
     h.design.diluent,
     start ? { composition: start.composition, pressurePa: start.pressurePa, temperatureK: start.temperatureK } : undefined,
-  );
+  ));
   const tolerance = h.tolerance;
   const verdict = missingSteps.length ? { ...judge(result, design, tolerance), verdict: 'fail' as const } : judge(result, design, tolerance);
   return {
@@ -183,7 +202,6 @@ export function findingLines(r: CheckReport): string[] {
 }
 
 export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
-  const rows = readReadingsCsv(file);
   const warnings: string[] = [];
   let design: Design | undefined;
   let tolerance: Tolerance = { relative: 0.005, absolute: 0 };
@@ -192,13 +210,15 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   let thermo: { uncertaintyK: number; resolutionK: number };
   let sourceFor: (species: string, line: number) => GasSource;
   let id = file;
+  let baroGiven: boolean;
   if (opts.recipeFile) {
-    const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile);
+    const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, { barometricPa: opts.barometricPa });
     const plan = planFill(req.input);
     design = plan.design;
     tolerance = plan.tolerance;
     gauges = req.input.gauges;
     ctx = req.input.reading;
+    baroGiven = opts.barometricPa !== undefined || req.lab.file.barometer !== undefined;
     thermo = req.lab.thermometer ?? DEFAULT_THERMOMETER;
     if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
     id = req.recipe.id;
@@ -211,11 +231,14 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   } else {
     const lab = loadLab(opts.labFile);
     gauges = lab.gauges;
-    ctx = { barometricPa: lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa };
+    ctx = { barometricPa: opts.barometricPa ?? lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa };
+    baroGiven = opts.barometricPa !== undefined || lab.file.barometer !== undefined;
     thermo = lab.thermometer ?? DEFAULT_THERMOMETER;
     warnings.push('no recipe given: the gases are taken as pure (purity 1), the gauges from the lab profile, and there is no design to compare with (use --recipe)');
     sourceFor = (sp) => pureCylinder({ id: sp, species: sp, purity: 1 });
   }
+  // gauge-referenced sensors (lab profile) and gauge units are made absolute with the barometer given
+  const rows = readReadingsCsv(file, { barometricPa: baroGiven ? ctx.barometricPa : undefined, referenceOf: (id) => gauges.find((g) => g.id === id)?.reference });
   const used = new Set<string>();
   const readings: CheckedReading[] = rows.map((r, i) => {
     const source = sourceFor(r.species, r.line);
@@ -231,11 +254,11 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     }
     return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
   });
-  const result = await evaluateUncertaintyParallel(
+  const result = await withinFile(file, () => evaluateUncertaintyParallel(
     readings,
     { barometricPa: ctx.barometricPa, barometricUncertaintyPa: ctx.barometricUncertaintyPa, thermometerUncertaintyK: thermo.uncertaintyK, thermometerResolutionK: thermo.resolutionK, trials: opts.trials, seed: opts.seed },
     design ? Object.keys(design.groups.diluent) : undefined,
-  );
+  ));
   let verdict = judge(result, design, tolerance);
   let incomplete: string[] = [];
   if (design) {
@@ -252,5 +275,6 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
 export async function checkFile(file: string, opts: CheckOptions): Promise<CheckReport> {
   if (/\.csv$/i.test(file)) return checkCsv(file, opts);
   if (opts.recipeFile) fail({ code: 'design-conflict', reason: 'a batch log carries its own design; --recipe is for CSV readings only' }, { field: '--recipe' });
+  if (opts.barometricPa !== undefined) fail({ code: 'design-conflict', reason: 'a batch log records the barometric pressure of its fill; --barometer is for CSV readings only' }, { field: '--barometer' });
   return checkLog(readLog(file), opts);
 }

@@ -95,6 +95,11 @@ export function loadLab(file?: string): LoadedLab {
   const lab = validate(labSchema, src, (p) => keysAt(labSchema, p));
   const w = (path: DataPath, field: string): Where => ({ ...src.locate(path), field });
   const air = lab.air !== undefined ? parseBlend(lab.air, w(['air'], 'air')) : { O2: 0.21, N2: 0.79 };
+  // the barometer first: gauge pressures elsewhere in the profile ("4 barg") are converted with it
+  const baroPa = lab.barometer ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure')) : 101325;
+  const baroU = lab.barometer ? parseQuantity(lab.barometer.uncertainty, 'pressure', w(['barometer', 'uncertainty'], 'barometer.uncertainty')) : 100;
+  if (!(baroPa > 0)) fail({ code: 'not-positive', what: 'barometric pressure', value: baroPa, text: lab.barometer?.pressure }, w(['barometer', 'pressure'], 'barometer.pressure'));
+  const gaugeCtx = { barometricPa: lab.barometer ? baroPa : undefined };
   const ids = new Set<string>();
   const unique = (id: string, path: DataPath) => {
     if (ids.has(id)) fail({ code: 'schema', reason: `the id "${id}" is used twice; ids of tanks, gauges and cylinders must be unique` }, w(path, 'id'));
@@ -103,8 +108,9 @@ export function loadLab(file?: string): LoadedLab {
   const tanks = lab.tanks.map((t, i): LoadedLab['tanks'][number] => {
     unique(t.id, ['tanks', i, 'id']);
     const volumeM3 = parseQuantity(t.volume, 'volume', w(['tanks', i, 'volume'], `tanks[${i}].volume`));
-    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3 }, w(['tanks', i, 'volume'], `tanks[${i}].volume`));
-    const rated = t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`));
+    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3, text: t.volume }, w(['tanks', i, 'volume'], `tanks[${i}].volume`));
+    const rated = t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`), gaugeCtx);
+    if (rated !== undefined && !(rated > 0)) fail({ code: 'not-positive', what: `rating of tank ${t.id}`, value: rated, text: t.rating }, w(['tanks', i, 'rating'], `tanks[${i}].rating`));
     const q = (key: 'height' | 'base_vacuum' | 'leak_rate', dim: 'volume' | 'pressure' | 'pressure rate' | 'length') => {
       const text = t[key];
       if (text === undefined) return undefined;
@@ -130,7 +136,7 @@ export function loadLab(file?: string): LoadedLab {
       label: r.label ?? r.id,
       volumeM3: parseQuantity(r.volume, 'volume', at('volume')),
       lineVolumeM3: r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
-      fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure')),
+      fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure'), gaugeCtx),
       temperatureK: r.temperature === undefined ? undefined : parseQuantity(r.temperature, 'temperature', at('temperature')),
     };
   });
@@ -139,7 +145,7 @@ export function loadLab(file?: string): LoadedLab {
     const q = (key: 'full_scale' | 'minimum' | 'resolution' | 'overpressure', text: string) =>
       parseQuantity(text, 'pressure', w(['gauges', i, key], `gauges[${i}].${key}`));
     const fullScalePa = q('full_scale', g.full_scale);
-    if (!(fullScalePa > 0)) fail({ code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa }, w(['gauges', i, 'full_scale'], `gauges[${i}].full_scale`));
+    if (!(fullScalePa > 0)) fail({ code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa, text: g.full_scale }, w(['gauges', i, 'full_scale'], `gauges[${i}].full_scale`));
     return {
       id: g.id,
       label: g.label ?? g.id,
@@ -150,13 +156,13 @@ export function loadLab(file?: string): LoadedLab {
       accuracyOfFullScale: (g.accuracy_pct_full_scale ?? 0) / 100,
       resolutionPa: q('resolution', g.resolution),
       unit: g.unit,
-      overpressurePa: g.overpressure === undefined ? undefined : q('overpressure', g.overpressure),
+      overpressurePa: g.overpressure === undefined ? undefined : parseQuantity(g.overpressure, 'pressure', w(['gauges', i, 'overpressure'], `gauges[${i}].overpressure`), gaugeCtx),
     };
   });
   const cylinders = lab.cylinders.map((c, i): GasSource => {
     unique(c.id, ['cylinders', i, 'id']);
     const where = w(['cylinders', i], `cylinders[${i}]`);
-    const supply = c.supply_pressure === undefined ? undefined : parseQuantity(c.supply_pressure, 'pressure', w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`));
+    const supply = c.supply_pressure === undefined ? undefined : parseQuantity(c.supply_pressure, 'pressure', w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`), gaugeCtx);
     if ('composition' in c) {
       const comp = parseBlend(c.composition, where);
       return at(where, () => premix({ id: c.id, label: c.label, composition: comp, supplyPressurePa: supply }));
@@ -167,14 +173,14 @@ export function loadLab(file?: string): LoadedLab {
       pureCylinder({ id: c.id, label: c.label, species, purity: c.purity, impurities, kind: c.vapour ? 'vapour' : 'cylinder', supplyPressurePa: supply }),
     );
   });
-  const baroPa = lab.barometer ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure')) : 101325;
-  const baroU = lab.barometer ? parseQuantity(lab.barometer.uncertainty, 'pressure', w(['barometer', 'uncertainty'], 'barometer.uncertainty')) : 100;
   const coldestK = lab.coldest === undefined ? undefined : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest'));
   // a temperature difference: K (or degC steps) only, never an offset conversion
   const kelvinDiff = (text: string, path: DataPath, field: string) => {
     const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(K|mK)\s*$/.exec(text);
     if (!m) fail({ code: 'bad-quantity', text, expected: 'temperature difference', reason: 'give it in K (e.g. "0.3 K")' }, w(path, field));
-    return Number(m[1]) * (m[2] === 'mK' ? 1e-3 : 1);
+    const v = Number(m[1]) * (m[2] === 'mK' ? 1e-3 : 1);
+    if (!(v >= 0 && v <= 100)) fail({ code: 'out-of-range', what: field, value: v, text, allowed: '0 K to 100 K (a thermometer uncertainty or resolution)' }, w(path, field));
+    return v;
   };
   const thermometer = lab.thermometer && {
     uncertaintyK: kelvinDiff(lab.thermometer.uncertainty, ['thermometer', 'uncertainty'], 'thermometer.uncertainty'),
@@ -233,6 +239,7 @@ export interface PlanRequest {
 }
 
 export interface Overrides {
+  /** --barometer: today's barometric pressure, Pa; it also converts gauge pressures ("15 psig") */
   readonly barometricPa?: number;
 }
 
@@ -241,6 +248,8 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   const r = rs.recipe;
   const W = (path: DataPath, field = path.join('.')): Where => ({ ...rs.locate(path), field: rs.locate(path).field ?? field });
   const lab = loadLab(labFileOverride ?? (r.lab ? resolvePath(rs.baseDir, r.lab) : undefined));
+  // gauge pressures in the recipe are converted with the barometer given now, else the lab profile's own
+  const gaugeCtx = { barometricPa: overrides.barometricPa ?? (lab.file.barometer ? lab.barometricPa : undefined) };
 
   // tank and volume
   let tank: TankSpec | undefined;
@@ -250,8 +259,16 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   }
   if (r.volume !== undefined) {
     const volumeM3 = parseQuantity(r.volume, 'volume', W(['volume']));
-    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: volumeM3 }, W(['volume']));
+    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: volumeM3, text: r.volume }, W(['volume']));
     tank = tank ? { ...tank, volumeM3 } : { id: 'given-volume', label: 'tank of the given volume (no rating known)', volumeM3 };
+  }
+  if (r.rating !== undefined || r.working_fraction !== undefined) {
+    // a rating belongs to the tank of a given volume; a lab tank's rating is the profile's, never overridden here
+    if (r.tank !== undefined) fail({ code: 'design-conflict', reason: `the tank ${r.tank} has its rating in the lab profile; a rating here is for a tank given by its volume only` }, W([r.rating !== undefined ? 'rating' : 'working_fraction']));
+    if (r.rating === undefined) fail({ code: 'design-missing', reason: 'a working fraction is a fraction of the rating: give the rating too' }, W(['working_fraction'], 'working_fraction'));
+    const ratedPressurePa = parseQuantity(r.rating, 'pressure', W(['rating']), gaugeCtx);
+    if (!(ratedPressurePa > 0)) fail({ code: 'not-positive', what: 'tank rating', value: ratedPressurePa, text: r.rating }, W(['rating']));
+    if (tank) tank = { ...tank, label: 'tank of the given volume and rating', ratedPressurePa, workingFraction: r.working_fraction };
   }
   if (!tank) fail({ code: 'design-missing', reason: `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) or give a volume` }, W(['tank'], 'tank'));
 
@@ -270,7 +287,7 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   } else if (ex?.reactor_volume === undefined) reactor = lab.reactors[0];
   if (ex?.reactor_volume !== undefined || ex?.fill_pressure !== undefined || ex?.line_volume !== undefined) {
     const volumeM3 = ex.reactor_volume !== undefined ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume'])) : reactor?.volumeM3;
-    const fillPressurePa = ex.fill_pressure !== undefined ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure'])) : reactor?.fillPressurePa;
+    const fillPressurePa = ex.fill_pressure !== undefined ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure']), gaugeCtx) : reactor?.fillPressurePa;
     if (volumeM3 === undefined || fillPressurePa === undefined) fail({ code: 'design-missing', reason: 'give both the reactor volume and the fill pressure of one experiment (or a reactor from the lab profile)' }, W(['experiments'], 'experiments'));
     reactor = {
       id: reactor?.id ?? 'reactor',
@@ -282,7 +299,7 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     };
   }
   if (count !== undefined && !reactor) fail({ code: 'design-missing', reason: 'sizing for a number of experiments needs a reactor: name one from the lab profile or give its volume and fill pressure' }, W(['experiments'], 'experiments'));
-  if (!(temperatureK > 0)) fail({ code: 'out-of-range', what: `temperature "${r.temperature}" (${temperatureK.toFixed(2)} K)`, value: temperatureK, allowed: 'above absolute zero (0 K = -273.15 degC)' }, W(['temperature']));
+  if (!(temperatureK > 0)) fail({ code: 'out-of-range', what: 'temperature', text: r.temperature, value: temperatureK, allowed: 'above absolute zero (0 K = -273.15 degC)' }, W(['temperature']));
 
   // design
   const m = r.mixture;
@@ -345,7 +362,7 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   if (r.in_tank) {
     inTank = {
       composition: parseBlend(r.in_tank.composition, W(['in_tank', 'composition'])),
-      pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure'])),
+      pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure']), gaugeCtx),
     };
   }
   const tolerance = { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 };
@@ -354,8 +371,8 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   if (count !== undefined) {
     pressurePa = at(W(['experiments', 'count'], 'experiments.count'), () => finalPressureForExperiments(sizingInput!, count).pressurePa);
   } else {
-    pressurePa = parseQuantity(r.pressure!, 'pressure', W(['pressure']));
-    if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa }, W(['pressure']));
+    pressurePa = parseQuantity(r.pressure!, 'pressure', W(['pressure']), gaugeCtx);
+    if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa, text: r.pressure }, W(['pressure']));
   }
   const input: PlanInput = {
     design,

@@ -8,6 +8,9 @@ import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import {
   evaluateUncertainty,
+  ProblemError,
+  type Problem,
+  type Where,
   MC_STREAMS,
   streamSeed,
   streamTrials,
@@ -48,7 +51,10 @@ export async function evaluateUncertaintyParallel(
       (job) =>
         new Promise<Float64Array[]>((resolve, reject) => {
           const w = new Worker(script, { workerData: job });
-          w.once('message', (m: Float64Array[]) => resolve(m));
+          w.once('message', (m: Float64Array[] | { problem: Problem; where: Where }) => {
+            if (Array.isArray(m)) resolve(m);
+            else reject(new ProblemError(m.problem, m.where));
+          });
           w.once('error', reject);
           w.once('exit', (code) => {
             if (code !== 0) reject(new Error(`Monte Carlo worker stopped with exit code ${code}`));

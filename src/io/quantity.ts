@@ -84,27 +84,135 @@ function dimensionOf(u: Unit): string {
 }
 
 /**
+ * Other spellings people type, read as a fast-path unit: the degree sign, and the
+ * explicit absolute suffixes ("psia", "bara", "bar(a)").
+ */
+const SPELLINGS: Readonly<Record<string, string>> = {
+  '°C': 'degC',
+  '℃': 'degC',
+  '°F': 'degF',
+  '℉': 'degF',
+  '°K': 'K',
+  psia: 'psi',
+  'psi(a)': 'psi',
+  bara: 'bar',
+  'bar(a)': 'bar',
+  mbara: 'mbar',
+  'mbar(a)': 'mbar',
+  kPaa: 'kPa',
+  'kPa(a)': 'kPa',
+};
+
+/** whether a quantity is written with an explicit absolute unit ("29.7 psia", "2 bar(a)") */
+export function isAbsoluteSpelling(text: string): boolean {
+  const m = /[A-Za-z()]+$/.exec(text.trim());
+  return m !== null && Object.prototype.hasOwnProperty.call(SPELLINGS, m[0]) && /a\)?$/.test(m[0]);
+}
+
+/** whether a quantity is written with a gauge unit ("15 psig", "1.2 bar(g)") */
+export function isGaugeSpelling(text: string): boolean {
+  const m = /[A-Za-z()]+$/.exec(text.trim());
+  return m !== null && Object.prototype.hasOwnProperty.call(GAUGE_UNITS, m[0]);
+}
+
+/** gauge pressures (above the ambient pressure): the unit they are read in */
+export const GAUGE_UNITS: Readonly<Record<string, string>> = {
+  psig: 'psi',
+  'psi(g)': 'psi',
+  barg: 'bar',
+  'bar(g)': 'bar',
+  mbarg: 'mbar',
+  'mbar(g)': 'mbar',
+  kPag: 'kPa',
+  'kPa(g)': 'kPa',
+};
+
+/** bare letters that unit libraries read as something else than the lab meant */
+const MISREAD: Readonly<Record<string, { meant: string; library: string }>> = {
+  C: { meant: 'degC', library: 'the coulomb, a unit of charge' },
+  F: { meant: 'degF', library: 'the farad, a unit of capacitance' },
+  c: { meant: 'degC', library: 'not a unit' },
+  f: { meant: 'degF', library: 'not a unit' },
+};
+
+/**
+ * The physical window of each dimension, SI: a non-zero magnitude below `min` or above
+ * `max` is refused as a typing error rather than carried into the model (a denormal
+ * pressure or 1e999 Torr would otherwise surface as NaN or a hang far from the input).
+ * The limits are far outside any mixing lab (common practice, not a standard).
+ */
+export const PHYSICAL_RANGE: Readonly<Record<Dimension, { min: number; max: number; text: string }>> = {
+  pressure: { min: 1e-12, max: 1e10, text: 'from 1e-12 Pa to 1e10 Pa (1e-14 Torr to 100000 bar)' },
+  temperature: { min: 1, max: 1e5, text: 'from 1 K to 100000 K (absolute zero, 0 K, is -273.15 degC)' },
+  volume: { min: 1e-12, max: 1e6, text: 'from 1e-12 m^3 (1 nL) to 1e6 m^3' },
+  'pressure rate': { min: 1e-15, max: 1e10, text: 'from 1e-15 Pa/s to 1e10 Pa/s' },
+  time: { min: 1e-9, max: 1e10, text: 'from 1 ns to 1e10 s' },
+  mass: { min: 1e-15, max: 1e6, text: 'from 1e-15 kg to 1e6 kg' },
+  length: { min: 1e-9, max: 1e6, text: 'from 1 nm to 1000 km' },
+};
+
+export interface QuantityContext {
+  /**
+   * barometric pressure, Pa, for converting gauge pressures ("15 psig") to absolute;
+   * undefined when none was given, and a gauge pressure is then refused
+   */
+  readonly barometricPa?: number;
+}
+
+function checkRange(v: number, s: string, expected: Dimension, where: Where): number {
+  const r = PHYSICAL_RANGE[expected];
+  if (!Number.isFinite(v)) return fail({ code: 'bad-quantity', text: s, expected, reason: `the number is too large to represent; the allowed range is ${r.text}` }, where);
+  if (expected === 'temperature') {
+    if (!(v >= r.min)) return fail({ code: 'out-of-range', what: `temperature`, value: v, text: s, allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : v < 0 ? 'below absolute zero' : 'colder than any gas in a lab'}` }, where);
+  } else if (v !== 0 && Math.abs(v) < r.min) {
+    return fail({ code: 'out-of-range', what: expected, value: v, text: s, allowed: `${r.text}; this is too small to be measured, check the exponent and the unit` }, where);
+  }
+  if (Math.abs(v) > r.max) return fail({ code: 'out-of-range', what: expected, value: v, text: s, allowed: `${r.text}; check the exponent and the unit` }, where);
+  return v;
+}
+
+const own = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
+
+/**
  * Parse "<number> <unit>" into the SI value of the expected dimension.
  * A bare number is refused: a pressure without a unit is the classic wrong-target error.
+ * Gauge pressures ("15 psig", "1.2 barg", "2 bar(g)") are converted to absolute with
+ * ctx.barometricPa and refused when it is not given; "psia", "bara" are absolute.
+ * Temperatures take K, degC, degF, °C and °F; a bare "C" (the coulomb to a unit
+ * library) is refused with a hint. Every value is checked against PHYSICAL_RANGE.
  */
-export function parseQuantity(text: string | number, expected: Dimension, where: Where = {}): number {
+export function parseQuantity(text: string | number, expected: Dimension, where: Where = {}, ctx: QuantityContext = {}): number {
   if (typeof text === 'number') {
     return fail({ code: 'bad-quantity', text: String(text), expected, reason: 'a unit is required' }, where);
   }
   const s = text.trim();
+  if (s.length > 200) return fail({ code: 'bad-quantity', text: `${s.slice(0, 40)}...`, expected, reason: `the text is ${s.length} characters long; a quantity is a number and a unit` }, where);
   if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
     return fail({ code: 'bad-quantity', text: s, expected, reason: 'a unit is required' }, where);
   }
+  const typed = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([°℃℉]?[A-Za-z]*(?:\([ag]\))?)$/.exec(s);
+  if (typed && own(MISREAD, typed[2]) && expected === 'temperature') {
+    const m = MISREAD[typed[2]];
+    return fail({ code: 'bad-quantity', text: s, expected, reason: `"${typed[2]}" alone is ${m.library}; did you mean ${m.meant}? Write "${typed[1]} ${m.meant}" or "${typed[1]} °${m.meant.slice(3)}"` }, where);
+  }
+  if (typed && own(GAUGE_UNITS, typed[2])) {
+    const unit = GAUGE_UNITS[typed[2]];
+    if (expected !== 'pressure') return fail({ code: 'wrong-dimension', text: s, expected, got: 'pressure' }, where);
+    const above = Number(typed[1]) * FAST_UNITS[unit].factor;
+    if (ctx.barometricPa === undefined) return fail({ code: 'needs-barometer', text: s, field: where.field ?? 'this field' }, where);
+    return checkRange(above + ctx.barometricPa, s, expected, where);
+  }
+  if (typed && own(SPELLINGS, typed[2])) return parseQuantity(`${typed[1]} ${SPELLINGS[typed[2]]}`, expected, where, ctx);
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
     return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' }, where);
   }
   const fast = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z^0-9/]+)$/.exec(s);
-  const known = fast ? FAST_UNITS[fast[2]] : undefined;
+  const known = fast && own(FAST_UNITS, fast[2]) ? FAST_UNITS[fast[2]] : undefined;
   if (fast && known) {
     if (known.dim !== expected) return fail({ code: 'wrong-dimension', text: s, expected, got: known.dim }, where);
     const v = Number(fast[1]);
     // offset units: (v + offset) x factor, e.g. degF: (v + 459.67) x 5/9 K
-    return known.offset === undefined ? v * known.factor : (v + known.offset) * known.factor;
+    return checkRange(known.offset === undefined ? v * known.factor : (v + known.offset) * known.factor, s, expected, where);
   }
   const math = mathjs();
   let u: Unit;
@@ -117,8 +225,7 @@ export function parseQuantity(text: string | number, expected: Dimension, where:
     return fail({ code: 'wrong-dimension', text: s, expected, got: dimensionOf(u) }, where);
   }
   const v = u.toNumber(SI[expected]);
-  if (!Number.isFinite(v)) return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a finite number' }, where);
-  return v;
+  return checkRange(v, s, expected, where);
 }
 
 /** the display units a user may choose with --units */

@@ -1,12 +1,22 @@
 /**
  * Readings typed from a paper record: CSV with the header
  *   species,pressure,temperature[,gauge][,time][,note]
- * one row per fill in fill order; pressure is the absolute reading after that fill
- * and temperature the tank temperature at that reading, both with units.
+ * one row per fill in fill order; pressure is the reading after that fill and
+ * temperature the tank temperature at that reading, both with units. The pressure is
+ * absolute, unless the row's gauge is gauge-referenced in the lab profile (then it is
+ * what that sensor shows, above the ambient pressure) or its unit says so ("15 psig");
+ * such readings are made absolute with the barometric pressure given.
  */
 import { fail, getSpecies, ProblemError, relocate } from '../core/index.js';
 import { readTextFile } from './read-text.js';
-import { parseQuantity } from './quantity.js';
+import { isAbsoluteSpelling, isGaugeSpelling, parseQuantity } from './quantity.js';
+
+export interface CsvContext {
+  /** barometric pressure, Pa, to make gauge readings absolute; undefined when none was given */
+  readonly barometricPa?: number;
+  /** how the named gauge is referenced, from the lab profile (undefined: not known) */
+  readonly referenceOf?: (gaugeId: string) => 'absolute' | 'gauge' | undefined;
+}
 
 export interface CsvReading {
   readonly line: number;
@@ -44,7 +54,7 @@ export function splitCsvLine(line: string): string[] {
   return out;
 }
 
-export function parseReadingsCsv(text: string, file: string): CsvReading[] {
+export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {}): CsvReading[] {
   const lines = text.replace(/\r\n?/g, '\n').split('\n');
   const headerLine = lines.findIndex((l) => l.trim() !== '' && !l.trim().startsWith('#'));
   if (headerLine < 0) fail({ code: 'schema', reason: 'the file is empty; it needs the header species,pressure,temperature and one row per fill' }, { file });
@@ -68,9 +78,18 @@ export function parseReadingsCsv(text: string, file: string): CsvReading[] {
       if (e instanceof ProblemError) throw relocate(e, where('species'));
       throw e;
     }
-    const pressurePa = parseQuantity(cell('pressure')!, 'pressure', where('pressure'));
+    const gaugeId = cell('gauge') || undefined;
+    const pressureText = cell('pressure')!;
+    let pressurePa: number;
+    if (gaugeId !== undefined && ctx.referenceOf?.(gaugeId) === 'gauge' && !isAbsoluteSpelling(pressureText)) {
+      // a gauge-referenced sensor shows the pressure above ambient: add the barometer
+      const shown = parseQuantity(pressureText, 'pressure', where('pressure'), ctx);
+      if (isGaugeSpelling(pressureText)) pressurePa = shown; // "psig" was already made absolute
+      else if (ctx.barometricPa === undefined) return fail({ code: 'needs-barometer', text: `${pressureText} on ${gaugeId}`, field: 'the pressure column' }, where('pressure'));
+      else pressurePa = shown + ctx.barometricPa;
+    } else pressurePa = parseQuantity(pressureText, 'pressure', where('pressure'), ctx);
     const temperatureK = parseQuantity(cell('temperature')!, 'temperature', where('temperature'));
-    if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'pressure', value: pressurePa }, where('pressure'));
+    if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'absolute pressure', value: pressurePa, text: pressureText }, where('pressure'));
     if (!(temperatureK >= 200 && temperatureK <= 600)) {
       fail({ code: 'out-of-range', what: `tank temperature "${cell('temperature')}" (${temperatureK.toFixed(2)} K)`, value: temperatureK, allowed: '200-600 K' }, where('temperature'));
     }
@@ -78,13 +97,13 @@ export function parseReadingsCsv(text: string, file: string): CsvReading[] {
     if (prev && pressurePa <= prev.pressurePa) {
       fail({ code: 'schema', reason: `the reading ${cell('pressure')} is not above the previous one; each row is the absolute pressure after a fill, so readings must increase` }, where('pressure'));
     }
-    out.push({ line, species, pressurePa, temperatureK, gauge: cell('gauge') || undefined, time: cell('time') || undefined, note: cell('note') || undefined });
+    out.push({ line, species, pressurePa, temperatureK, gauge: gaugeId, time: cell('time') || undefined, note: cell('note') || undefined });
   }
   if (out.length === 0) fail({ code: 'schema', reason: 'no readings below the header' }, { file });
   return out;
 }
 
-export function readReadingsCsv(file: string): CsvReading[] {
+export function readReadingsCsv(file: string, ctx: CsvContext = {}): CsvReading[] {
   const text = readTextFile(file);
-  return parseReadingsCsv(text, file);
+  return parseReadingsCsv(text, file, ctx);
 }

@@ -39,6 +39,8 @@ export const recipeSchema = z
     lab: z.string().optional().describe('path of the lab profile (YAML), relative to this recipe; the embedded demo lab if absent'),
     tank: z.string().optional().describe('tank id from the lab profile'),
     volume: quantity('tank volume, if no tank is named or to override it', '10 L').optional(),
+    rating: quantity('maximum allowed working pressure of the tank given by volume, absolute or gauge with the barometer', '4 bar').optional(),
+    working_fraction: z.number().gt(0).max(1).optional().describe('fraction of the rating used as the working limit of the tank given by volume; default 1'),
     mixture: z.union([phiDesign, fractionsDesign]),
     pressure: quantity('final tank pressure, absolute (or give experiments.count)', '1000 Torr').optional(),
     experiments: z

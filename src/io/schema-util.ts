@@ -1,6 +1,6 @@
 /** Turn zod issues into our Problems, with file, line and field. */
 import type { z } from 'zod';
-import { fail } from '../core/index.js';
+import { fail, formatNumber } from '../core/index.js';
 import type { YamlSource } from './yaml-file.js';
 
 export function fieldName(path: readonly PropertyKey[]): string {
@@ -14,11 +14,85 @@ function depth(issues: readonly z.core.$ZodIssue[]): number {
   return i.code === 'unrecognized_keys' ? 0 : i.path.length + 1;
 }
 
+/** how far apart two short words are (for "did you mean" on a misspelled key) */
+function distance(a: string, b: string): number {
+  if (Math.abs(a.length - b.length) > 3) return 99;
+  const d = Array.from({ length: a.length + 1 }, (_, i) => [i, ...Array<number>(b.length).fill(0)]);
+  for (let j = 1; j <= b.length; j++) d[0][j] = j;
+  for (let i = 1; i <= a.length; i++)
+    for (let j = 1; j <= b.length; j++) d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1));
+  return d[a.length][b.length];
+}
+
+/** the allowed key closest to a misspelled one, if it is close */
+export function closestKey(key: string, allowed: readonly string[]): string | undefined {
+  if (key.length > 64) return undefined;
+  const k = key.toLowerCase();
+  const best = allowed.map((a) => ({ a, d: distance(k, a.toLowerCase()) })).sort((x, y) => x.d - y.d)[0];
+  return best && best.d <= Math.max(1, Math.floor(k.length / 3)) ? best.a : undefined;
+}
+
+/** a value for a message: short, and a number without float noise */
+function shown(v: unknown): string {
+  if (typeof v === 'number') return formatNumber(v);
+  if (typeof v === 'string') return `"${v.length > 40 ? `${v.slice(0, 40)}...` : v}"`;
+  if (v === null) return 'null (an empty value)';
+  if (Array.isArray(v)) return 'a list';
+  if (typeof v === 'object') return 'a map of keys';
+  return String(v);
+}
+
+function typeName(expected: string): string {
+  switch (expected) {
+    case 'string':
+      return 'a text';
+    case 'number':
+      return 'a number';
+    case 'int':
+      return 'a whole number';
+    case 'boolean':
+      return 'true or false';
+    case 'array':
+      return 'a list';
+    case 'object':
+    case 'record':
+      return 'a map of keys';
+    default:
+      return `a ${expected}`;
+  }
+}
+
+/** our wording of a zod issue: what is wrong with the field, and what to write instead */
+function reasonOf(issue: z.core.$ZodIssue, field: string, hint: string | undefined): string {
+  const input = (issue as { input?: unknown }).input;
+  switch (issue.code) {
+    case 'invalid_type':
+      if (input === undefined) return `the required field "${field}" is missing` + (hint ? `; it is the ${hint}` : '');
+      if (issue.expected === 'string' && typeof input === 'number' && hint && /a number and a unit/.test(hint)) {
+        return `${field} is the bare number ${shown(input)}; it needs a unit (${hint})`;
+      }
+      return `${field} must be ${typeName(issue.expected)}, not ${shown(input)}` + (hint ? ` (${hint})` : '');
+    case 'too_big':
+      return `${field} = ${shown(input)} is too large; the allowed range is ${issue.inclusive ? 'at most' : 'below'} ${formatNumber(Number(issue.maximum))}` + (hint ? ` (${hint})` : '');
+    case 'too_small':
+      if (issue.origin === 'string' || issue.origin === 'array') return `${field} is empty; give a value` + (hint ? ` (${hint})` : '');
+      return `${field} = ${shown(input)} is too small; the allowed range is ${issue.inclusive ? 'at least' : 'above'} ${formatNumber(Number(issue.minimum))}` + (hint ? ` (${hint})` : '');
+    case 'invalid_value':
+      return `${field} = ${shown(input)} is not one of the choices: ${issue.values.map((v) => String(v)).join(', ')}`;
+    case 'invalid_union':
+      return `${field} has neither accepted form; see \`mixwright schema recipe\``;
+    default:
+      return `${field}: ${issue.message}`;
+  }
+}
+
 export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt: (path: readonly PropertyKey[]) => readonly string[]): T {
-  const r = schema.safeParse(src.data);
+  const r = schema.safeParse(src.data, { reportInput: true });
   if (r.success) return r.data;
   let issue: z.core.$ZodIssue = r.error.issues[0];
   let prefix: PropertyKey[] = [];
+  // every level of issues passed on the way down, with the path it is relative to
+  const levels: { prefix: PropertyKey[]; issues: readonly z.core.$ZodIssue[] }[] = [{ prefix: [], issues: r.error.issues }];
   // a union (two forms of the mixture, a string or a map): follow the branch that got furthest
   while (issue.code === 'invalid_union' && issue.errors.length) {
     const branches = issue.errors.filter((b) => b.length > 0);
@@ -26,6 +100,7 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
     if (!best || depth(best) === 0) break;
     prefix = [...prefix, ...issue.path];
     issue = best[0];
+    levels.push({ prefix, issues: best });
   }
   const fullPath = [...prefix, ...issue.path];
   const path = fullPath.filter((p): p is string | number => typeof p !== 'symbol');
@@ -35,11 +110,21 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
     return fail({ code: 'unknown-key', key, allowed: allowedKeysAt(path) }, { ...where, field: fieldName([...path, key]) });
   }
   const where = src.locate(path);
-  const field = fieldName(path) || '(top level)';
-  let reason = issue.message;
-  if (issue.code === 'invalid_type' && reason.includes('received undefined')) reason = `the required field "${field}" is missing`;
-  else if (issue.code === 'invalid_union') reason = `${field} has neither accepted form; see \`mixwright schema recipe\``;
-  return fail({ code: 'schema', reason }, { ...where, field });
+  // the field as the user knows it: the option (--tolerance) on the command line, the key path in a file
+  const field = where.field ?? (fieldName(path) || '(top level)');
+  let reason = reasonOf(issue, field, hintAt(schema, path));
+  // a missing field next to an unknown key is most often a misspelling: name both
+  if (issue.code === 'invalid_type' && (issue as { input?: unknown }).input === undefined) {
+    const parent = fullPath.slice(0, -1);
+    const same = (a: readonly PropertyKey[]) => a.length === parent.length && a.every((p, k) => p === parent[k]);
+    const keys = levels.flatMap((l) => l.issues.filter((i) => i.code === 'unrecognized_keys' && same([...l.prefix, ...i.path])).flatMap((i) => (i.code === 'unrecognized_keys' ? i.keys : [])));
+    if (keys.length) {
+      const wanted = String(path[path.length - 1]);
+      const close = keys.find((k) => closestKey(k, [wanted]) !== undefined);
+      reason += close ? `; the key "${close}" is there instead - did you mean "${wanted}"?` : `; there is an unknown key "${keys[0]}" (allowed here: ${allowedKeysAt(path.slice(0, -1)).join(', ')})`;
+    }
+  }
+  return fail({ code: 'schema', reason }, { ...where, field: where.field ?? fieldName(path) });
 }
 
 interface AnyDef {
@@ -81,11 +166,33 @@ export function keysAt(schema: z.ZodType, path: readonly PropertyKey[]): string[
       const u = unwrap(s);
       if (u.def.type === 'array' && u.def.element && typeof p === 'number') next.push(u.def.element);
       for (const o of objectsOf(u)) {
-        const child = o.def.shape?.[String(p)];
-        if (child) next.push(child);
+        const shape = o.def.shape;
+        if (shape && Object.prototype.hasOwnProperty.call(shape, String(p))) next.push(shape[String(p)]);
       }
     }
     cur = next;
   }
   return [...new Set(cur.flatMap(objectsOf).flatMap((o) => Object.keys(o.def.shape ?? {})))];
+}
+
+/** the description of the field at a data path (its unit and example), for messages */
+export function hintAt(schema: z.ZodType, path: readonly PropertyKey[]): string | undefined {
+  let cur: ZodLike[] = [schema as unknown as ZodLike];
+  for (const p of path) {
+    const next: ZodLike[] = [];
+    for (const s of cur) {
+      const u = unwrap(s);
+      if (u.def.type === 'array' && u.def.element && typeof p === 'number') next.push(u.def.element);
+      for (const o of objectsOf(u)) {
+        const shape = o.def.shape;
+        if (shape && Object.prototype.hasOwnProperty.call(shape, String(p))) next.push(shape[String(p)]);
+      }
+    }
+    cur = next;
+  }
+  for (const s of cur) {
+    const d = (s as unknown as { description?: string }).description ?? (unwrap(s) as unknown as { description?: string }).description;
+    if (d) return d;
+  }
+  return undefined;
 }

@@ -3,6 +3,9 @@ import { LineCounter, parseDocument, isCollection, isMap, isScalar, visit, type 
 import { readTextFile } from './read-text.js';
 import { fail, type Where } from '../core/index.js';
 
+/** the most alias expansions a file may use (yaml's own default guard, stated here) */
+const MAX_ALIAS_COUNT = 100;
+
 export type DataPath = readonly (string | number)[];
 
 export interface YamlSource {
@@ -31,7 +34,20 @@ export function parseYamlText(text: string, file: string): YamlSource {
       }
     },
   });
-  const data = doc.toJS();
+  // anchors and aliases: an alias bomb (aliases of aliases, each a list of the last) would expand to
+  // gigabytes, and an alias to a missing anchor has no value; both are refused with their reason
+  let data: unknown;
+  try {
+    data = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
+  } catch (e) {
+    const msg = (e as Error).message;
+    const reason = /alias count/i.test(msg)
+      ? `the file expands its aliases (*name) more than ${MAX_ALIAS_COUNT} times, which would make it far larger than it looks; write the values out, or use fewer aliases`
+      : /unresolved alias/i.test(msg)
+        ? `an alias (*${/: (.*)$/.exec(msg)?.[1] ?? 'name'}) refers to no anchor (&name) set before it; define the anchor first, or write the value out`
+        : `the file cannot be read as data (${msg.split('\n')[0]})`;
+    return fail({ code: 'yaml-syntax', reason }, { file });
+  }
   const locate = (path: DataPath, key?: string): Where => {
     for (let n = path.length; n >= 0; n--) {
       const node = doc.getIn(path.slice(0, n), true) as { range?: [number, number, number] } | undefined;

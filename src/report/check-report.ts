@@ -9,7 +9,7 @@ import type { OutputStat } from '../core/index.js';
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
   'pass-uncertain': 'PASS (not proven) - every design fraction is within its tolerance, but the 95 % uncertainty reaches past it for some',
-  fail: 'FAIL - out of tolerance (or incomplete)',
+  fail: 'FAIL - out of tolerance',
   'no-design': 'no design to compare with',
 };
 
@@ -88,7 +88,7 @@ export function checkToText(r: CheckReport): string {
     for (const f of r.findings) out.push(`  ${f.severity}: ${describeLogFinding(f)}`);
   }
   out.push('');
-  out.push(`Verdict     ${VERDICT_TEXT[r.verdict.verdict]}`);
+  out.push(`Verdict     ${r.incomplete.length ? `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not finished, so it is not passed; the fractions above cover the fills logged so far` : VERDICT_TEXT[r.verdict.verdict]}`);
   for (const c of r.caveats) out.push(`            ${c}`);
   return out.join('\n') + '\n';
 }
@@ -167,7 +167,7 @@ export function folderSummary(rows: readonly ({ file: string } & ({ report: Chec
     const rep = r.report;
     const worst = rep.verdict.deviations.reduce((m, d) => Math.max(m, Math.abs(d.deviation) / d.tolerance), 0);
     const danger = rep.findings.some((f) => f.severity === 'danger');
-    table.push([r.file, rep.id, danger ? `${rep.verdict.verdict}, DANGER` : rep.verdict.verdict, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
+    table.push([r.file, rep.id, `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}${danger ? ', DANGER' : ''}`, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
   }
   return padTable(table, [false, false, false, true, true]).join('\n') + '\n';
 }

@@ -4,8 +4,11 @@ import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stringify } from 'yaml';
-import { runCli } from '../helpers.js';
+import { cliRuns, runCli } from '../helpers.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
+
+/** a property's time budget grows with FUZZ_RUNS (npm run fuzz runs 2000 on a shared machine) */
+const FUZZ_BUDGET_MS = 30000 + Number(process.env.FUZZ_RUNS ?? 40) * 300;
 
 // bounded here; `npm run fuzz` runs many more (FUZZ_RUNS)
 const RUNS = Number(process.env.FUZZ_RUNS ?? 40);
@@ -21,6 +24,7 @@ const file = (ext: string, text: string) => {
 const warnings: string[] = [];
 process.on('warning', (w) => warnings.push(`${w.name}: ${w.message}`));
 afterAll(() => expect(warnings).toEqual([]));
+afterAll(() => console.log(`fuzz inputs: ${cliRuns.count} invocations`));
 
 /** every run ends in a known exit code; a refusal names its code and place; nothing prints NaN, Infinity or a stack */
 function judge(r: { code: number; stdout: string; stderr: string }, allowed: number[]) {
@@ -66,7 +70,7 @@ describe('fuzz: malformed and random inputs', () => {
       }),
       { numRuns: RUNS },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('random inline options', async () => {
     await fc.assert(
@@ -75,7 +79,7 @@ describe('fuzz: malformed and random inputs', () => {
       }),
       { numRuns: RUNS },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('random lab profiles (the demo profile with lines dropped or changed)', async () => {
     const lines = DEMO_LAB_YAML.split('\n');
@@ -88,7 +92,7 @@ describe('fuzz: malformed and random inputs', () => {
       }),
       { numRuns: RUNS },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('random options of ready, sheet and check', async () => {
     const word = fc.oneof(fc.string(), fc.constantFrom('0', '-1', '1e9', 'NaN', 'abc', '99999999999', '1.5', ''));
@@ -107,7 +111,7 @@ describe('fuzz: malformed and random inputs', () => {
       ),
       { numRuns: Math.ceil(RUNS / 4) },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('random CSV readings with a recipe: exit 0, 2 or 4', async () => {
     const row = fc.tuple(fc.constantFrom('CH4', 'Ar', 'O2', 'He', 'x', ''), quantity, quantity).map(([s, p, t]) => `${s},${p},${t}`);
@@ -118,7 +122,7 @@ describe('fuzz: malformed and random inputs', () => {
       }),
       { numRuns: Math.ceil(RUNS / 2) },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('damaged batch logs (cut, bytes changed, lines dropped): exit 0, 2 or 4, never a stack', async () => {
     const text = readFileSync('batches/demo-ch4-phi1-ar98.jsonl', 'utf8');
@@ -131,7 +135,7 @@ describe('fuzz: malformed and random inputs', () => {
       }),
       { numRuns: Math.ceil(RUNS / 2) },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('random recipes through sheet and ready: a refusal leaves no file, a written sheet is the only file', async () => {
     await fc.assert(
@@ -145,7 +149,7 @@ describe('fuzz: malformed and random inputs', () => {
       }),
       { numRuns: Math.ceil(RUNS / 2) },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('a refused sheet leaves no file behind (no output, no temporary)', async () => {
     const out = mkdtempSync(join(tmpdir(), 'mw-out-'));
@@ -189,7 +193,7 @@ describe('fuzz: valid random designs', () => {
       }),
       { numRuns: RUNS },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 
   it('sheet and ready: a written sheet is the only file in its folder (no temporary), a refusal writes nothing', async () => {
     let written = 0;
@@ -205,5 +209,5 @@ describe('fuzz: valid random designs', () => {
       { numRuns: Math.ceil(RUNS / 2) },
     );
     expect(written).toBeGreaterThan(0);
-  });
+  }, FUZZ_BUDGET_MS);
 });

@@ -9,6 +9,9 @@ import fc from 'fast-check';
 import { DEFAULTS, wizardInit, wizardReducer, type WizardAction } from '../../src/tui/wizard-state.js';
 import { makeEvaluator } from '../../src/tui/wizard-eval.js';
 
+/** a property's time budget grows with FUZZ_RUNS (npm run fuzz runs 2000 on a shared machine) */
+const FUZZ_BUDGET_MS = 30000 + Number(process.env.FUZZ_RUNS ?? 40) * 300;
+
 const RUNS = Number(process.env.FUZZ_RUNS ?? 40);
 const evaluate = makeEvaluator();
 
@@ -38,5 +41,5 @@ describe('fuzz: wizard under random keys', () => {
       }),
       { numRuns: RUNS * 5 },
     );
-  });
+  }, FUZZ_BUDGET_MS);
 });
