@@ -120,6 +120,37 @@ export function referenceCrossC(a: string, b: string, temperatureK: number): { a
   return hit.swapped ? { aab: second, abb: first, model } : { aab: first, abb: second, model };
 }
 
+/*
+ * Pairs the library fits to mixture data but whose zero-density B_mix is not quadratic in
+ * composition: the table gives, per temperature, the composition average of the implied B_ab
+ * and a standard uncertainty covering their spread, max(half the range, standard deviation).
+ */
+interface AveragedEntry {
+  readonly a: string;
+  readonly b: string;
+  readonly model: string;
+  readonly B: readonly number[];
+  readonly B_u: readonly number[];
+}
+
+const averagedEntries = crossTable.averaged as Record<string, AveragedEntry>;
+
+export interface AveragedCrossB extends ReferenceCrossB {
+  /** standard uncertainty covering the spread of the implied B_ab over composition, m3/mol */
+  readonly u: number;
+}
+
+/**
+ * Composition-averaged cross B_ab of a fitted pair whose implied B_ab varies with composition,
+ * with its spread as standard uncertainty; undefined when the pair is not in that part of the
+ * table or T lies outside 230-480 K. Example: CO2-C2H6 at 300 K -> about -167 cm3/mol, u 2 cm3/mol.
+ */
+export function averagedCrossB(a: string, b: string, temperatureK: number): AveragedCrossB | undefined {
+  const e = averagedEntries[`${a}|${b}`] ?? averagedEntries[`${b}|${a}`];
+  if (!e || !inRange(temperatureK)) return undefined;
+  return { value: interpolate(e.B, temperatureK) * 1e-6, u: interpolate(e.B_u, temperatureK) * 1e-6, model: e.model };
+}
+
 /** the species whose cross coefficients with `key` come from a tabulated reference mixture model, with the model */
 export function referenceCrossPartners(key: string): { species: string; model: string; withC: boolean }[] {
   const out: { species: string; model: string; withC: boolean }[] = [];
