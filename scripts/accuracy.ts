@@ -19,7 +19,7 @@ for (const r of rows) {
   byBath.set(r.bath, { model: Math.max(b.model, r.model_error), ideal: Math.max(b.ideal, r.ideal_error) });
 }
 const limit: Record<string, number> = { Ar: TARGET, N2: TARGET, CO2: TARGET_CO2, heavy: TARGET_HEAVY };
-for (const [b, v] of byBath) console.log(`bath ${b}: target ${limit[b] ?? 'none (He: judged only where the reference is virial-consistent)'}`);
+for (const b of byBath.keys()) console.log(`bath ${b}: target ${limit[b] ?? 'none (He: judged only where the reference is virial-consistent)'}`);
 console.log(`largest error / predicted u: ${Math.max(...rows.map((r) => r.error_over_u)).toFixed(2)}`);
 // the cross-B rule's calibration on the fitted pairs (leave-one-out)
 const cal = calibrate(VIRIAL_U.cross.absolute * 1e6);

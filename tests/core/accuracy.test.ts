@@ -26,12 +26,13 @@ describe('accuracy record (docs/accuracy-record.json, written by npm run accurac
     for (const r of rows) expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_HEAVY);
   });
 
-  it(`CO2-containing designs: within ${TARGET_CO2} up to 10 bar at 300-350 K but for C3H8-O2-CO2 at 300 K/10 bar; measured worst 9.8e-4 (C2H6-O2-CO2, 250 K, 10 bar) - the target does not hold at 250 K and 10 bar`, () => {
+  it(`CO2-containing designs: within ${TARGET_CO2} up to 3 bar everywhere and up to 10 bar at 300-350 K; measured worst 9.1e-4 (C2H6-O2-CO2, 250 K, 10 bar) - the target does not hold at 250 K and 10 bar`, () => {
     const rows = record.rows.filter((r) => r.bath === 'CO2');
     expect(rows.length).toBe(26);
     for (const r of rows.filter((x) => x.final_bar <= 3)) expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_CO2);
     const over = rows.filter((r) => r.model_error > TARGET_CO2).map((r) => r.id);
-    expect(over.sort()).toEqual(['c2h6-o2-co2-250K-10bar', 'c3h8-o2-co2-300K-10bar', 'co2-rich-250K-10bar']);
+    expect(over.sort()).toEqual(['c2h6-o2-co2-250K-10bar', 'co2-rich-250K-10bar']);
+    for (const r of rows.filter((x) => x.temperature_K >= 300)) expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_CO2);
     expect(Math.max(...rows.map((r) => r.model_error))).toBeLessThan(1e-3);
   });
 
@@ -54,7 +55,7 @@ describe('accuracy record (docs/accuracy-record.json, written by npm run accurac
     for (const x of record.rows) expect(x.cross_methods.length, x.id).toBeGreaterThan(0);
   });
 
-  it('measured worst cases on record (bounds, not the target): Ar 4.9e-5, N2 6.5e-5, He 3.1e-3, CO2 9.8e-4, heavy 2.9e-4; the ideal-gas plan is off by 2e-3 to 5e-2 there', () => {
+  it('measured worst cases on record (bounds, not the target): Ar 4.9e-5, N2 6.5e-5, He 3.1e-3, CO2 9.1e-4, heavy 2.9e-4; the ideal-gas plan is off by 2e-3 to 5e-2 there', () => {
     const worst = (bath: string) => Math.max(...record.rows.filter((r) => r.bath === bath).map((r) => r.model_error));
     expect(worst('Ar')).toBeLessThan(6e-5);
     expect(worst('N2')).toBeLessThan(8e-5);
