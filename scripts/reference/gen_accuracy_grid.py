@@ -21,6 +21,12 @@ DESIGNS = [
     ("ch4-o2-he90-ar", {"CH4": 0.01, "O2": 0.02, "He": 0.90, "Ar": 0.07}, ["CH4", "Ar", "He", "O2"], "He"),
     ("co2-rich", {"CH4": 0.02, "O2": 0.04, "CO2": 0.50, "Ar": 0.44}, ["CH4", "CO2", "Ar", "O2"], "CO2"),
     ("nc7-o2-n2", {"n-C7H16": 0.002, "O2": 0.022, "N2": 0.976}, ["n-C7H16", "N2", "O2"], "heavy"),
+    # CO2 and size-asymmetric pairs (cross B from composition averages or the fitted rule)
+    ("c2h6-o2-co2", {"C2H6": 0.5 / 9.75, "O2": 0.5 * 8.75 / 9.75, "CO2": 0.5}, ["C2H6", "CO2", "O2"], "CO2"),
+    ("c3h8-o2-co2", {"C3H8": 0.02, "O2": 0.20, "CO2": 0.78}, ["C3H8", "CO2", "O2"], "CO2"),
+    ("c3h8-o2-n2", {"C3H8": 0.02, "O2": 0.20, "N2": 0.78}, ["C3H8", "N2", "O2"], "heavy"),
+    ("nc4-o2-n2", {"n-C4H10": 0.01, "O2": 0.10, "N2": 0.89}, ["n-C4H10", "N2", "O2"], "heavy"),
+    ("nc7-o2-co2", {"n-C7H16": 0.002, "O2": 0.022, "CO2": 0.976}, ["n-C7H16", "CO2", "O2"], "heavy"),
 ]
 TEMPS = [250.0, 300.0, 350.0]
 PRESSURES = [1 * BAR, 3 * BAR, 10 * BAR]
@@ -36,9 +42,12 @@ for did, x, order, bath in DESIGNS:
     for T in TEMPS:
         for P in PRESSURES:
             # skip states where a vapour would be above half its saturation pressure
-            if any(k in ("n-C7H16", "CO2", "C2H6", "C3H8", "C2H4") and x[k] * P > 0.5 * psat(FLUIDS[k], T) for k in x):
+            if any(k in ("n-C7H16", "n-C4H10", "CO2", "C2H6", "C3H8", "C2H4") and x[k] * P > 0.5 * psat(FLUIDS[k], T) for k in x):
                 continue
             rho_f = density_at(x, P, T)
+            # skip states the planner refuses: its truncated virial model is trusted within 5 % of ideal gas
+            if P / (rho_f * 8.314462618 * T) < 0.95:
+                continue
             cum, readings = {}, []
             for sp in order:
                 cum[sp] = x[sp]

@@ -201,7 +201,7 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'impurity-present':
       return `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} from cylinder impurities`;
     case 'cross-virial-estimate':
-      return `the cross virial coefficients ${f.pairs.join(', ')} come from the combining rules (no reference mixture model qualifies for them); their uncertainty (our estimate: max(${VIRIAL_U.cross.absolute * 1e6} cm3/mol, ${VIRIAL_U.cross.relative * 100} %) each, standard) could move this target by about +-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band of +-${p(f.bandPa)}${f.severity === 'warning' ? ' - the target is less certain than its band; check the batch afterwards with mixwright check, or widen the tolerance' : ''}`;
+      return `the cross virial coefficients ${f.pairs.join(', ')} come from the combining rules (no reference mixture model qualifies for them); their uncertainty (calibrated on the fitted pairs: max(${VIRIAL_U.cross.absolute * 1e6} cm3/mol, ${VIRIAL_U.cross.relative * 100} %) each, standard, more at low reduced temperature; ${VIRIAL_U.crossUncalibrated.relative * 100} % for pairs with He, H2, Ne or a hydrogen-bonding species) could move this target by about +-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band of +-${p(f.bandPa)}${f.severity === 'warning' ? ' - the target is less certain than its band; check the batch afterwards with mixwright check, or widen the tolerance' : ''}`;
     case 'virial-correlation':
       return `no reference virial coefficient for ${f.species} at this temperature; B from the ${f.method} correlation (less certain)`;
     case 'ideal-gas-error':

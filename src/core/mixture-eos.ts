@@ -12,14 +12,15 @@
 import { R } from './constants.js';
 import { fail } from './problems.js';
 import { getSpecies } from './lookup.js';
-import { referenceB, referenceC, referenceCrossB, referenceCrossC } from './virial-reference.js';
-import { correlationConstants, pairConstants, sizeDifferenceKij, tsonopoulosB } from './virial.js';
+import { averagedCrossB, referenceB, referenceC, referenceCrossB, referenceCrossC } from './virial-reference.js';
+import { correlationConstants, crossRuleCalibrated, crossRuleKij, crossRuleLowTFactor, pairConstants, tsonopoulosB } from './virial.js';
 
 export type VirialMethod =
   | 'reference' // tabulated reference-EOS value
   | 'tsonopoulos' // pure species, correlation
   | 'tsonopoulos-quantum' // pure quantum gas outside the reference table: effective constants
   | 'reference-mixture' // cross coefficient from a tabulated reference mixture model
+  | 'reference-mixture-average' // composition average of a fitted but not virial-consistent reference mixture model
   | 'combining-rule'; // cross coefficient from the correlation
 
 export interface VirialEntry {
@@ -30,6 +31,8 @@ export interface VirialEntry {
   readonly source: string;
   /** the binary mixture model behind a 'reference-mixture' entry, as the library cites it */
   readonly model?: string;
+  /** standard uncertainty of this entry where it is its own (a composition average: its spread), m3/mol */
+  readonly uM3PerMol?: number;
 }
 
 /** a tabulated C_iij (species i twice, j once) and its departure from the cube-root rule */
@@ -59,13 +62,20 @@ export interface VirialModel {
 export const VIRIAL_U = {
   reference: { absolute: 0.5e-6, relative: 0.01 },
   correlation: { absolute: 2e-6, relative: 0.05 },
-  cross: { absolute: 4e-6, relative: 0.15 },
+  /**
+   * cross B by the fitted rule (classical pairs): calibrated so that leaving each fitted pair out, at least 95 % of
+   * them lie within 2u over 250-350 K (scripts/cross-rule-lib.ts); the relative part grows as crossRuleLowTFactor
+   */
+  cross: { absolute: 4e-6, relative: 0.05 },
+  /** cross B by the rule where it is not calibrated (pairs with He, H2, Ne or a hydrogen-bonding species): our estimate */
+  crossUncalibrated: { absolute: 4e-6, relative: 0.15 },
   /** cross B from a tabulated reference mixture model: at least half the largest spread the table admits (3 cm3/mol) */
   referenceCross: { absolute: 1.5e-6, relative: 0.03 },
 } as const;
 
 /** standard uncertainty of one B entry, m3/mol: max(absolute, relative |B|) of its method's class */
 export function virialU(e: VirialEntry): number {
+  if (e.uM3PerMol !== undefined) return e.uM3PerMol;
   const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : e.method === 'reference-mixture' ? VIRIAL_U.referenceCross : VIRIAL_U.cross;
   return Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
 }
@@ -103,10 +113,23 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
         entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: ref.value, method: 'reference-mixture', source: 'coolprop-8-mixture', model: ref.model });
         continue;
       }
-      // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes)
-      const v = tsonopoulosB(pairConstants(consts[i], consts[j], sizeDifferenceKij(consts[i], consts[j])), temperatureK);
+      // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes) and the fitted additions
+      const v = tsonopoulosB(pairConstants(consts[i], consts[j], crossRuleKij(records[i], records[j], consts[i], consts[j])), temperatureK);
+      const calibrated = crossRuleCalibrated(records[i], records[j]);
+      const cls = calibrated ? VIRIAL_U.cross : VIRIAL_U.crossUncalibrated;
+      const lowT = calibrated ? crossRuleLowTFactor(Math.sqrt(consts[i].Tc * consts[j].Tc), temperatureK) : 1;
+      const uRule = Math.max(cls.absolute, cls.relative * lowT * Math.abs(v));
+      const rule: VirialEntry = { i: records[i].key, j: records[j].key, valueM3PerMol: v, method: 'combining-rule', source: 'prausnitz-1999', uM3PerMol: uRule };
+      // a fitted model's composition average where its spread is the smaller uncertainty (at least the tabulated pairs' floor)
+      const avg = averagedCrossB(records[i].key, records[j].key, temperatureK);
+      const avgU = avg && Math.max(avg.u, VIRIAL_U.referenceCross.absolute, VIRIAL_U.referenceCross.relative * Math.abs(avg.value));
+      if (avg && avgU !== undefined && avgU < virialU(rule)) {
+        B[i][j] = B[j][i] = avg.value;
+        entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: avg.value, method: 'reference-mixture-average', source: 'coolprop-8-mixture', model: avg.model, uM3PerMol: avgU });
+        continue;
+      }
       B[i][j] = B[j][i] = v;
-      entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: v, method: 'combining-rule', source: 'prausnitz-1999' });
+      entries.push(rule);
     }
   }
   // C enters only for non-polar species: the polar ones (H2O, NH3, alcohols, DME) have zero-density C

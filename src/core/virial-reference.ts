@@ -112,12 +112,51 @@ export function referenceCrossB(a: string, b: string, temperatureK: number): Ref
  * aab = C_aab (a twice), abb = C_abb, m6/mol2; undefined when not tabulated.
  */
 export function referenceCrossC(a: string, b: string, temperatureK: number): { aab: number; abb: number; model: string } | undefined {
-  const hit = crossEntry(a, b);
+  const hit = crossEntry(a, b) ?? averagedCEntry(a, b);
   if (!hit || !inRange(temperatureK) || !hit.e.C_aab || !hit.e.C_abb) return undefined;
   const first = interpolate(hit.e.C_aab, temperatureK) * 1e-12;
   const second = interpolate(hit.e.C_abb, temperatureK) * 1e-12;
   const model = hit.e.model;
   return hit.swapped ? { aab: second, abb: first, model } : { aab: first, abb: second, model };
+}
+
+/*
+ * Pairs the library fits to mixture data but whose zero-density B_mix is not quadratic in
+ * composition: the table gives, per temperature, the composition average of the implied B_ab
+ * and a standard uncertainty covering their spread, max(half the range, standard deviation).
+ */
+interface AveragedEntry {
+  readonly a: string;
+  readonly b: string;
+  readonly model: string;
+  readonly B: readonly number[];
+  readonly B_u: readonly number[];
+}
+
+const averagedEntries = crossTable.averaged as Record<string, AveragedEntry & { readonly C_aab?: readonly number[]; readonly C_abb?: readonly number[] }>;
+
+/** an averaged pair whose C_mix is nevertheless cubic in composition (the table's C acceptance) */
+function averagedCEntry(a: string, b: string): { e: CrossEntry; swapped: boolean } | undefined {
+  const direct = averagedEntries[`${a}|${b}`];
+  if (direct?.C_aab) return { e: direct, swapped: false };
+  const rev = averagedEntries[`${b}|${a}`];
+  return rev?.C_aab ? { e: rev, swapped: true } : undefined;
+}
+
+export interface AveragedCrossB extends ReferenceCrossB {
+  /** standard uncertainty covering the spread of the implied B_ab over composition, m3/mol */
+  readonly u: number;
+}
+
+/**
+ * Composition-averaged cross B_ab of a fitted pair whose implied B_ab varies with composition,
+ * with its spread as standard uncertainty; undefined when the pair is not in that part of the
+ * table or T lies outside 230-480 K. Example: CO2-C2H6 at 300 K -> -123.2 cm3/mol, u 0.5 cm3/mol (the model floors it at 3 %).
+ */
+export function averagedCrossB(a: string, b: string, temperatureK: number): AveragedCrossB | undefined {
+  const e = averagedEntries[`${a}|${b}`] ?? averagedEntries[`${b}|${a}`];
+  if (!e || !inRange(temperatureK)) return undefined;
+  return { value: interpolate(e.B, temperatureK) * 1e-6, u: interpolate(e.B_u, temperatureK) * 1e-6, model: e.model };
 }
 
 /** the species whose cross coefficients with `key` come from a tabulated reference mixture model, with the model */

@@ -124,3 +124,37 @@ export function pairConstants(ci: CorrelationConstants, cj: CorrelationConstants
 export function sizeDifferenceKij(ci: CorrelationConstants, cj: CorrelationConstants): number {
   return 1 - (8 * Math.sqrt(ci.Vc * cj.Vc)) / (Math.cbrt(ci.Vc) + Math.cbrt(cj.Vc)) ** 3;
 }
+
+/**
+ * How the relative uncertainty of the cross-B rule grows at low reduced temperature, where the
+ * correlation leaves its range (calibrated with scripts/cross-rule-lib.ts):
+ *   factor = max(1, Tcij / (CROSS_RULE_LOW_T.tr T))^CROSS_RULE_LOW_T.power, Tcij = sqrt(Tci Tcj).
+ * Example: n-C7H16-C7H8 (Tcij 572 K) at 250 K -> 1.5^3 = 3.3 with tr 1.5, power 3.
+ */
+export const CROSS_RULE_LOW_T = { tr: 1.5, power: 3 } as const;
+export function crossRuleLowTFactor(TcijK: number, temperatureK: number): number {
+  return Math.max(1, TcijK / (CROSS_RULE_LOW_T.tr * temperatureK)) ** CROSS_RULE_LOW_T.power;
+}
+
+/**
+ * Extra binary parameter of the cross-B rule, added to the size-difference k_ij for classical
+ * pairs: a corresponding-states rule fitted (least squares in relative B, 250-350 K) on the pairs
+ * the reference library fits to mixture data, and validated by leaving each pair out
+ * (scripts/cross-rule-lib.ts; tests/core/virial-rule.test.ts). CO2, quadrupolar, takes its own
+ * addition, as the published k_ij of CO2 with hydrocarbons are larger than those of like pairs
+ * (Tsonopoulos 1974 - from memory). Not for quantum gases (He, H2, Ne) or hydrogen-bonding species.
+ */
+export const CROSS_RULE_KIJ = { general: 0.0099, co2: 0.0548 } as const;
+
+/** whether the fitted rule and its calibrated uncertainty apply to a pair (classical, not hydrogen-bonding) */
+export function crossRuleCalibrated(a: SpeciesRecord, b: SpeciesRecord): boolean {
+  const hb = (s: SpeciesRecord) => s.polarClass === 'alkanol' || s.polarClass === 'methanol' || s.polarClass === 'water';
+  return !a.quantum && !b.quantum && !hb(a) && !hb(b);
+}
+
+/** k_ij of the cross-B rule: size difference, plus the fitted additions where the rule is calibrated */
+export function crossRuleKij(a: SpeciesRecord, b: SpeciesRecord, ci: CorrelationConstants, cj: CorrelationConstants): number {
+  const size = sizeDifferenceKij(ci, cj);
+  if (!crossRuleCalibrated(a, b)) return size;
+  return size + CROSS_RULE_KIJ.general + (a.key === 'CO2' || b.key === 'CO2' ? CROSS_RULE_KIJ.co2 : 0);
+}

@@ -16,10 +16,12 @@ function virialSummary(plan: Plan): string {
   const major = new Set(Object.keys(plan.design.composition));
   const cross = plan.virial.entries.filter((e) => e.i !== e.j && major.has(e.i) && major.has(e.j));
   const fromModel = cross.filter((e) => e.method === 'reference-mixture');
-  const byRule = cross.filter((e) => e.method !== 'reference-mixture');
+  const averaged = cross.filter((e) => e.method === 'reference-mixture-average');
+  const byRule = cross.filter((e) => e.method !== 'reference-mixture' && e.method !== 'reference-mixture-average');
   const list = (es: typeof cross) => es.map((e) => `${e.i}-${e.j}`).join(', ');
   const parts = [`B_mix ${(plan.final.bMixM3PerMol * 1e6).toFixed(2)} cm3/mol`];
   if (fromModel.length) parts.push(`cross B from reference mixture models: ${list(fromModel)}`);
+  if (averaged.length) parts.push(`composition averages of reference mixture models: ${list(averaged)}`);
   if (byRule.length) parts.push(`by combining rule: ${list(byRule)}`);
   return parts.join('; ');
 }

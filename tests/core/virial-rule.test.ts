@@ -1,0 +1,53 @@
+/**
+ * The cross-B rule for pairs no reference mixture model fixes: its fitted k_ij additions and its stated
+ * uncertainty, calibrated on the pairs the reference library (CoolProp 8.0.0 HEOS, committed table
+ * src/core/data/cross-virial-reference.json) fits to mixture data, validated by leaving each pair out.
+ */
+import { describe, expect, it } from 'vitest';
+import { calibrate, calibrationPairs } from '../../scripts/cross-rule-lib.js';
+import { VIRIAL_U, virialModel, virialU } from '../../src/core/index.js';
+import { CROSS_RULE_KIJ } from '../../src/core/virial.js';
+
+describe('cross-B rule calibrated on the fitted pairs (reference: CoolProp 8.0.0 mixture models, 250-350 K)', () => {
+  const cal = calibrate(VIRIAL_U.cross.absolute * 1e6);
+
+  it('the committed k_ij additions are the least-squares fit over the committed table (within 5e-4)', () => {
+    expect(cal.pairs).toBeGreaterThanOrEqual(40);
+    expect(Math.abs(cal.fit.general - CROSS_RULE_KIJ.general)).toBeLessThan(5e-4);
+    expect(Math.abs(cal.fit.co2 - CROSS_RULE_KIJ.co2)).toBeLessThan(5e-4);
+  });
+
+  it('leave-one-out: at least 95 % of the fitted pairs within 2u of the reference at every temperature', () => {
+    expect(cal.looCovered).toBeGreaterThanOrEqual(0.95);
+    // the stated relative u is no smaller than the one calibrated on all pairs
+    expect(VIRIAL_U.cross.relative).toBeGreaterThanOrEqual(cal.relative);
+  });
+
+  it('the model states that u: a CO2-C3H6 rule entry carries max(4 cm3/mol, 5 % |B|) at 300 K', () => {
+    const pairs = calibrationPairs();
+    expect(pairs.some((p) => p.key === 'CO2|C3H6')).toBe(true);
+    const m = virialModel(['N2', 'C3H8'], 300);
+    const e = m.entries.find((q) => q.i !== q.j)!;
+    expect(e.method).toBe('combining-rule');
+    expect(virialU(e)).toBeCloseTo(Math.max(4e-6, 0.05 * Math.abs(e.valueM3PerMol)), 12);
+  });
+
+  it('He pairs keep the uncalibrated class: u = 4 cm3/mol at 298 K for He-Ar (rule +18.5; +19 to +21 from memory, Brewer & Vaughn 1969)', () => {
+    const m = virialModel(['He', 'Ar'], 298.15);
+    const e = m.entries.find((q) => q.i !== q.j)!;
+    expect(e.method).toBe('combining-rule');
+    expect(e.valueM3PerMol * 1e6).toBeCloseTo(18.5, 0);
+    expect(virialU(e) * 1e6).toBeCloseTo(4, 6);
+  });
+});
+
+describe('composition-averaged cross B carries its own uncertainty into every budget (one virialU)', () => {
+  it('CO2-C2H6 at 300 K: the library average -123.2 cm3/mol (CoolProp 8.0.0, table) with u = max(its spread, 1.5 cm3/mol, 3 %)', () => {
+    const m = virialModel(['CO2', 'C2H6'], 300);
+    const e = m.entries.find((q) => q.i !== q.j)!;
+    expect(e.method).toBe('reference-mixture-average');
+    expect(Math.abs(e.valueM3PerMol * 1e6 + 123.2)).toBeLessThan(0.1);
+    expect(virialU(e)).toBe(e.uM3PerMol);
+    expect(virialU(e) * 1e6).toBeCloseTo(0.03 * 123.2, 1);
+  });
+});
