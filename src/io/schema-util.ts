@@ -157,8 +157,8 @@ function objectsOf(s: ZodLike): ZodLike[] {
   return [];
 }
 
-/** the keys allowed by a schema at a data path (for "allowed here: ..." messages) */
-export function keysAt(schema: z.ZodType, path: readonly PropertyKey[]): string[] {
+/** the schemas a data path can lead to (through objects, unions and arrays) */
+function schemasAt(schema: z.ZodType, path: readonly PropertyKey[]): ZodLike[] {
   let cur: ZodLike[] = [schema as unknown as ZodLike];
   for (const p of path) {
     const next: ZodLike[] = [];
@@ -172,24 +172,18 @@ export function keysAt(schema: z.ZodType, path: readonly PropertyKey[]): string[
     }
     cur = next;
   }
+  return cur;
+}
+
+/** the keys allowed by a schema at a data path (for "allowed here: ..." messages) */
+export function keysAt(schema: z.ZodType, path: readonly PropertyKey[]): string[] {
+  const cur = schemasAt(schema, path);
   return [...new Set(cur.flatMap(objectsOf).flatMap((o) => Object.keys(o.def.shape ?? {})))];
 }
 
 /** the description of the field at a data path (its unit and example), for messages */
 export function hintAt(schema: z.ZodType, path: readonly PropertyKey[]): string | undefined {
-  let cur: ZodLike[] = [schema as unknown as ZodLike];
-  for (const p of path) {
-    const next: ZodLike[] = [];
-    for (const s of cur) {
-      const u = unwrap(s);
-      if (u.def.type === 'array' && u.def.element && typeof p === 'number') next.push(u.def.element);
-      for (const o of objectsOf(u)) {
-        const shape = o.def.shape;
-        if (shape && Object.prototype.hasOwnProperty.call(shape, String(p))) next.push(shape[String(p)]);
-      }
-    }
-    cur = next;
-  }
+  const cur = schemasAt(schema, path);
   for (const s of cur) {
     const d = (s as unknown as { description?: string }).description ?? (unwrap(s) as unknown as { description?: string }).description;
     if (d) return d;
