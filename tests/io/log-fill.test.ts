@@ -8,6 +8,7 @@ import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { appendEvent, createLog, openLogForFill, readLog, type NewLogEvent } from '../../src/io/batch-log.js';
 import { checkFile, headerFromPlan } from '../../src/io/check.js';
+import { writeFileAtomic } from '../../src/io/atomic.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planFill, ProblemError, type Plan } from '../../src/core/index.js';
 import { runCli, TORR } from '../helpers.js';
@@ -219,11 +220,11 @@ describe('writes that fail (injected in node:fs)', () => {
     expect(readdirSync(dir)).toEqual([]);
     fault.mode = 'enospc';
     fault.budget = 0;
-    const r2 = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', out]).finally(() => (fault.mode = 'none'));
+    const r2 = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'html', '-o', out]).finally(() => (fault.mode = 'none'));
     expect(r2.code).toBe(2);
     expect(r2.stderr).toMatch(/not written: the disk is full \(ENOSPC\)/);
     expect(readdirSync(dir)).toEqual([]);
-    const ok = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', out]);
+    const ok = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'html', '-o', out]);
     expect(ok.code).toBe(0);
     expect(ok.stdout).toBe(`wrote ${out}\n`);
   });
@@ -234,7 +235,8 @@ describe('writes that fail (injected in node:fs)', () => {
     symlinkSync(join(dir, 'missing.md'), link);
     const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', link]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/symbolic link of that name exists \(it may point nowhere\); add --force/);
+    // the command refuses before any work (src/cli/program.ts); writeFileAtomic refuses the same on its own (next test)
+    expect(r.stderr).toMatch(/a symbolic link of that name exists; add --force/);
     expect(existsSync(join(dir, 'missing.md'))).toBe(false);
     const forced = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', link, '--force']);
     expect(forced.code).toBe(0);
@@ -243,7 +245,27 @@ describe('writes that fail (injected in node:fs)', () => {
     mkdirSync(join(dir, 'sub'));
     const f = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', join(dir, 'sub'), '--force']);
     expect(f.code).toBe(2);
-    expect(f.stderr).toMatch(/the name is a folder/);
+    expect(f.stderr).toMatch(/it is a folder/);
+  });
+});
+
+describe('writeFileAtomic on its own', () => {
+  it('keeps a dangling symlink without force (the link is not followed or replaced), replaces it with force', () => {
+    const dir = tmp();
+    const link = join(dir, 'y.md');
+    symlinkSync(join(dir, 'nowhere.md'), link);
+    let err: unknown;
+    try {
+      writeFileAtomic(link, 'x', false);
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(ProblemError);
+    expect(JSON.stringify((err as ProblemError).problem)).toMatch(/symbolic link of that name exists \(it may point nowhere\)/);
+    expect(existsSync(join(dir, 'nowhere.md'))).toBe(false);
+    writeFileAtomic(link, 'x', true);
+    expect(readFileSync(link, 'utf8')).toBe('x');
+    expect(existsSync(join(dir, 'nowhere.md'))).toBe(false);
   });
 });
 
