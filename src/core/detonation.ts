@@ -9,7 +9,7 @@ import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { equilibriumWorkspace, rootOfIncreasing } from './equilibrium.js';
 import { fail } from './problems.js';
-import { DETONABLE_INERT_BELOW, DETONATION_LIMITS, REFLECTED_OVER_CJ, UNDILUTED_INERT_BELOW, type DetonationLimits } from './data/detonation-data.js';
+import { DETONABLE_INERT_BELOW, DETONABLE_OXYGEN_SHARE_FROM, DETONATION_LIMITS, REFLECTED_OVER_CJ, UNDILUTED_INERT_BELOW, type DetonationLimits } from './data/detonation-data.js';
 
 /** O2 share of air on the N2-equivalent diagram */
 const AIR_O2 = 0.21;
@@ -161,7 +161,8 @@ function phiOf(rec: DetonationLimits, x: number): number {
  * air limits are kept (dilution only narrows detonation limits: conservative). A fuel
  * with limits in O2 only is judged by them and, inside them, by the inert rule.
  * Elsewhere the conservative rule: detonable when the N2-equivalent inert share is below
- * 50 %. Limits are those near 1 atm; they widen at higher pressure and in larger vessels.
+ * 50 %, or the oxidizer is about as rich in O2 as air or richer (O2 share 0.20 or more:
+ * stoichiometric alkane-air mixtures detonate in large geometries, common practice). Limits are those near 1 atm; they widen at higher pressure and in larger vessels.
  * Example: stoichiometric H2-air (29.6 % H2) is detonable by published limits
  * (18.3-59 %); 70 % H2 in air is not.
  */
@@ -173,7 +174,8 @@ export function detonability(y: Fractions): Detonability {
   const oxygenShare = point.oxygen + point.inert > 0 ? point.oxygen / (point.oxygen + point.inert) : 0;
   const undiluted = point.inert < UNDILUTED_INERT_BELOW;
   const base = { inertFraction: point.inert, phi, oxygenShare, undiluted };
-  const rule = (): Detonability => ({ ...base, detonable: point.fuel > 0 && point.oxygen > 0 && point.inert < DETONABLE_INERT_BELOW, basis: 'inert-rule' });
+  const byRule = point.inert < DETONABLE_INERT_BELOW || oxygenShare >= DETONABLE_OXYGEN_SHARE_FROM;
+  const rule = (): Detonability => ({ ...base, detonable: point.fuel > 0 && point.oxygen > 0 && byRule, basis: 'inert-rule' });
   const main = Object.entries(fuelBlend).find(([, w]) => w >= 0.99)?.[0];
   if (!main) return rule();
   const inAir = DETONATION_LIMITS.find((r) => r.fuel === main && r.oxidizer === 'air');
@@ -196,6 +198,7 @@ export function detonability(y: Fractions): Detonability {
   const inside = phi >= phiLow && phi <= phiHigh;
   const limits = { phiLow, phiHigh, records };
   if (!inside) return { ...base, detonable: false, basis: 'published-limits', limits };
-  if (!inAir && point.inert >= DETONABLE_INERT_BELOW) return { ...base, detonable: false, basis: 'inert-rule', limits };
-  return { ...base, detonable: point.fuel > 0 && point.oxygen > 0, basis: 'published-limits', limits };
+  if (!inAir && !byRule) return { ...base, detonable: false, basis: 'inert-rule', limits };
+  // limits in O2 only: inside them the conservative rule decides, and says so
+  return { ...base, detonable: point.fuel > 0 && point.oxygen > 0, basis: inAir ? 'published-limits' : 'inert-rule', limits };
 }

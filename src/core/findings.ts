@@ -157,7 +157,7 @@ function describeDetonation(f: Extract<Finding, { code: 'detonable-state' }>, p:
   const basis =
     f.basis === 'published-limits'
       ? `inside the published detonation limits${f.phiLow !== undefined && f.phiHigh !== undefined ? ` (equivalence ratio ${f.phi?.toFixed(2)} within ${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : ''})` : ''}`
-      : `with ${pct(f.inertFraction)} N2-equivalent inert, below the 50 % of our conservative rule (no published detonation limits used for this fuel)`;
+      : `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule where no detonation limits are on file for this fuel in this oxidizer (detonable when flammable with less than 50 % N2-equivalent inert, or with an oxidizer about as rich in O2 as air or richer)`;
   const what = f.undiluted ? `undiluted fuel/O2 at ${p(f.pressurePa)}, ${basis}` : `fuel and oxidizer at ${p(f.pressurePa)} ${basis}`;
   const cj =
     f.cjPa !== undefined && f.reflectedPa !== undefined
