@@ -602,6 +602,11 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
         err(`mixwright: ${target}: the re-check FAILED; the label says so and gives the as-filled composition, not the design\n`);
         throw new ExitSignal(EXIT.outOfTolerance);
       }
+      // as `check`: a reading past the tank's working limit or a gauge's range stands whatever the composition
+      if (model.label.danger) {
+        err(`mixwright: ${target}: the log records a danger; the label says the tank is not fit to use\n`);
+        throw new ExitSignal(EXIT.danger);
+      }
     });
 
   program

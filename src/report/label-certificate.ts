@@ -1,13 +1,15 @@
 /**
  * The one-page batch certificate: design against the as-filled composition with its
  * expanded uncertainty, phi and dilution, the readings as logged (time, initials, note),
- * corrections, acknowledgements, findings, the verdict and the tank label. Built from
+ * corrections and withdrawals (who, when, old, new, why), acknowledgements, the record
+ * findings of the log, the verdict with its caveats and the tank label. Built from
  * the re-check report and the parsed log only; the renderers (label-render.ts) are pure
  * functions of this model.
  */
 import { STANDING_CAUTION } from '../core/index.js';
 import type { CheckReport } from '../io/check.js';
-import type { ParsedLog } from '../io/batch-log.js';
+import type { InForceReading, ParsedLog } from '../io/batch-log.js';
+import { describeLogFinding } from '../io/log-audit.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from './format.js';
 import { labelLines, labelModel, type LabelModel } from './label-model.js';
@@ -48,6 +50,8 @@ export interface CertificateModel {
   readonly label: LabelModel;
   readonly labelLines: readonly string[];
   readonly verdictText: string;
+  /** what stands beside the verdict (report.caveats): a danger in the record, an edited record */
+  readonly caveats: readonly string[];
   readonly rows: readonly CertificateRow[];
   readonly phi: readonly [string, string];
   readonly dilution: readonly [string, string];
@@ -78,39 +82,20 @@ function unitOf(u: string): PressureUnit {
   return isPressureUnit(u) ? u : 'Pa';
 }
 
-/** a free-form field a newer log may carry (initials, corrections); read without trusting its type */
-function textField(o: unknown, ...keys: string[]): string {
-  if (!o || typeof o !== 'object') return '';
-  for (const k of keys) {
-    const v = (o as Record<string, unknown>)[k];
-    if (typeof v === 'string' && v.trim()) return v.trim();
-    if (typeof v === 'number' && Number.isFinite(v)) return String(v);
-  }
-  return '';
+/** how a reading is named in a correction line: as typed, with the line it sits on */
+function readingText(x: InForceReading | null): string {
+  return x ? `${x.reading} (line ${x.line})` : '(no reading in force)';
 }
 
-function corrections(log?: ParsedLog, r?: CheckReport): string[] {
-  if (!log) return [];
-  const out: string[] = [];
-  const fromLog = (log as unknown as { corrections?: unknown }).corrections;
-  const listed = Array.isArray(fromLog) ? fromLog : (r as unknown as { corrections?: unknown } | undefined)?.corrections;
-  if (Array.isArray(listed)) {
-    for (const c of listed) {
-      const step = textField(c, 'step');
-      const was = textField(c, 'old', 'old_reading', 'was', 'from');
-      const now = textField(c, 'new', 'new_reading', 'reading', 'to');
-      const who = textField(c, 'by', 'initials', 'who');
-      const when = textField(c, 'time', 'when');
-      const why = textField(c, 'reason', 'why', 'note');
-      out.push(`fill ${step || '?'}: ${was ? `${was} -> ` : ''}${now || '(value not given)'}${who ? `, by ${who}` : ''}${when ? ` at ${when}` : ''}${why ? ` - ${why}` : ''}`);
-    }
-    return out;
-  }
-  // a log that keeps only the reading in force: a corrected one still says so
-  for (const r of log.readings) {
-    if (r.kind === 'correction') out.push(`fill ${r.step}: corrected to ${r.reading}${textField(r, 'by', 'initials') ? `, by ${textField(r, 'by', 'initials')}` : ''} at ${r.time}${r.reason ? ` - ${r.reason}` : ''} (line ${r.line}; the original stays in the log)`);
-  }
-  return out;
+/** corrections and withdrawals as `check` applied them: who, when, old, new, why */
+function amendmentLines(r: CheckReport): string[] {
+  return r.amendments.map((a) => {
+    const who = `by ${a.by ?? 'initials not logged'} at ${shortTime(a.time)}`;
+    const why = a.reason ? ` - ${a.reason}` : ' - no reason logged';
+    return a.kind === 'correction'
+      ? `fill ${a.step}: ${readingText(a.old)} corrected to ${readingText(a.new)}, ${who}${why}; the original stays in the log`
+      : `fill ${a.step}: ${readingText(a.old)} withdrawn (line ${a.line}), ${who}${why}; the original stays in the log`;
+  });
 }
 
 /** "2026-11-30T09:20:00Z" -> "2026-11-30 09:20:00 UTC"; other text as logged */
@@ -142,6 +127,7 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
   const phi: [string, string] = [r.design?.phi !== undefined ? r.design.phi.toFixed(4) : 'n/a', label.phi ?? 'n/a'];
   const dilution: [string, string] = [r.design ? pct(r.design.diluentFraction) : 'n/a', label.dilution ?? 'n/a'];
   const byStep = new Map((log?.readings ?? []).map((x) => [x.step, x]));
+  const dangerLines = new Set(r.findings.filter((f) => f.severity === 'danger' && f.line !== null).map((f) => f.line));
   const readings: CertificateReading[] = r.readings.map((x) => {
     const u = unitOf(x.gauge.unit);
     const dec = Math.max(0, decimalsFor(fromPa(x.gauge.resolutionPa, u)));
@@ -154,22 +140,16 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
       absolute: `${fromPa(x.pressurePa, u).toFixed(dec)} ${u}`,
       temperature: `${(x.temperatureK - 273.15).toFixed(2)} degC`,
       time: lr?.time ? shortTime(lr.time) : '-',
-      by: textField(lr, 'by', 'initials') || '-',
-      note: [lr?.kind === 'correction' ? 'corrected' : '', lr?.note ?? ''].filter(Boolean).join('; '),
+      by: lr?.by ?? '-',
+      note: [lr && dangerLines.has(lr.line) ? 'DANGER: past a limit, see the findings' : '', lr?.kind === 'correction' ? `corrected (replaces line ${lr.replaces_line ?? '?'})` : '', lr?.note ?? ''].filter(Boolean).join('; '),
     };
   });
   const acknowledgements = (log?.acknowledgements ?? []).map((a) => `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`);
   const findings: { severity: string; text: string }[] = [];
   // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
   for (const w of r.warnings) if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
-  // findings the re-check raised on the log itself, where the report carries them (worded already, or with a message)
-  const logFindings = (r as unknown as { findings?: unknown }).findings;
-  if (Array.isArray(logFindings)) {
-    for (const f of logFindings) {
-      const text = textField(f, 'message', 'text');
-      if (text) findings.push({ severity: textField(f, 'severity') || 'check', text: `${textField(f, 'code') ? `${textField(f, 'code')}: ` : ''}${text}` });
-    }
-  }
+  // the log as a record (readings past a limit, edited lines, text and number that disagree), worded once
+  for (const f of r.findings) findings.push({ severity: f.severity, text: describeLogFinding(f) });
   for (const f of h?.findings ?? []) if (f.code !== 'isolate-gauge') findings.push({ severity: f.severity, text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}` });
   const order = ['danger', 'check', 'warning', 'note'];
   findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
@@ -184,26 +164,26 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
   const tank = h ? `${h.tank.id}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${h.tank.rated_pressure_Pa ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr` : ', rating not known'}` : label.tank;
   const recipe = h?.recipe as { title?: unknown; id?: unknown } | undefined;
   const title = typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
-  const closeTime = log?.closed ? textField((log as unknown as { close?: unknown }).close, 'time') : '';
   return {
     title,
     batchId: r.id,
     lab: label.lab,
     tank,
     created: h?.created ? shortTime(h.created) : '-',
-    closed: log ? (log.closed ? `closed${closeTime ? ` ${closeTime}` : ''}` : 'NOT CLOSED - the fill may not be finished') : 'CSV readings, no log',
+    closed: log ?  (log.closed ? 'closed' : 'NOT CLOSED - the fill may not be finished') : 'CSV readings, no log',
     paper: meta.paper,
     version: meta.version,
     file: r.file,
     generated: meta.generated,
     label,
     labelLines: labelLines(label),
-    verdictText: VERDICT_TEXT[label.status],
+    verdictText: label.danger ? `${VERDICT_TEXT[label.status]} This is the composition only: the log records a danger (below), and the tank is not fit to use.` : VERDICT_TEXT[label.status],
+    caveats: r.caveats,
     rows,
     phi,
     dilution,
     readings,
-    corrections: corrections(log, r),
+    corrections: amendmentLines(r),
     acknowledgements,
     findings,
     method,

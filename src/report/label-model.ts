@@ -3,7 +3,9 @@
  * Built from a re-check report (the same computation `check` prints), so the label and
  * `check --json` of one log carry the same composition and expanded uncertainty. A
  * failed re-check makes a label that says FAIL first and names what is off; a pass the
- * measurement cannot prove says so in words.
+ * measurement cannot prove says so in words. A log that records a reading past the tank's
+ * working limit or a gauge's range makes a label that says DANGER before any verdict, with
+ * the caveats of `check` beside it: such a label never reads as fit.
  *
  * Pure: the fill's end screen and `mixwright label` both call it.
  */
@@ -43,6 +45,10 @@ export interface LabelModel {
   readonly finalTemperature: string;
   /** flammability of the as-filled composition at the final state */
   readonly hazard: string;
+  /** the log records a danger (a reading past the tank's working limit or a gauge's range): whatever the composition, the tank is not fit to use */
+  readonly danger: boolean;
+  /** what stands beside the verdict, as `check` words it (report.caveats) */
+  readonly caveats: readonly string[];
 }
 
 const PCT = 100;
@@ -81,6 +87,29 @@ const HEADLINE: Record<LabelStatus, string> = {
   'no-design': 'NO DESIGN TO COMPARE WITH - composition as measured',
 };
 
+/** the first line of a label whose log records a danger: it comes before any composition verdict */
+export const DANGER_HEADLINE = 'DANGER - NOT FIT FOR USE: A READING WENT PAST A TANK OR GAUGE LIMIT';
+const DANGER_FOOTER = '*** DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED ***';
+
+/** a standing danger in the log's record (the same test as the exit code 3 of `check`) */
+export function recordsDanger(r: CheckReport): boolean {
+  return r.findings.some((f) => f.severity === 'danger');
+}
+
+/** a sentence broken into lines of at most `width` characters at spaces, for the boxed text label */
+function wrap(text: string, width: number): string[] {
+  const out: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    if (line && line.length + 1 + word.length > width) {
+      out.push(line);
+      line = word;
+    } else line = line ? `${line} ${word}` : word;
+  }
+  if (line) out.push(line);
+  return out;
+}
+
 function offDesign(r: CheckReport): string[] {
   const out: string[] = [];
   for (const d of r.verdict.deviations) {
@@ -113,6 +142,7 @@ function hazardLine(r: CheckReport, log?: ParsedLog): string {
 
 export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
   const status = statusOf(r);
+  const danger = recordsDanger(r);
   const composition = Object.entries(r.result.composition)
     .filter(([, st]) => st.value > 0)
     .sort((a, b) => b[1].value - a[1].value)
@@ -131,7 +161,8 @@ export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
     filledOn: lastTime ? lastTime.slice(0, 10) : 'date not logged',
     status,
     verdict: r.verdict.verdict,
-    headline: HEADLINE[status],
+    // beside a danger the verdict speaks of the composition only
+    headline: danger ? `composition only: ${HEADLINE[status]}` : HEADLINE[status],
     offDesign: offDesign(r),
     composition,
     phi: phi ? withU(phi.value, 2 * phi.u) : undefined,
@@ -139,6 +170,8 @@ export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
     finalPressure: `${fromPa(last.pressurePa, unit).toFixed(dec)} ${unit} absolute`,
     finalTemperature: `${(last.temperatureK - 273.15).toFixed(1)} degC`,
     hazard: hazardLine(r, log),
+    danger,
+    caveats: r.caveats,
   };
 }
 
@@ -146,8 +179,11 @@ export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
 export function labelLines(m: LabelModel): string[] {
   const bad = m.status === 'fail' || m.status === 'incomplete';
   const out: string[] = [];
+  // a danger in the record comes first: a composition within tolerance never reads as fit beside it
+  if (m.danger) out.push(`*** ${DANGER_HEADLINE} ***`);
   out.push(bad ? `*** ${m.headline} ***` : m.headline);
   for (const o of m.offDesign) out.push(`  ${o}`);
+  for (const c of m.caveats) out.push(...wrap(c, 76).map((l, i) => (i === 0 ? `! ${l}` : `  ${l}`)));
   out.push(`Batch ${m.batchId}   tank ${m.tank}   filled ${m.filledOn}`);
   out.push('As filled, mole fraction +- U (k = 2):');
   for (const c of m.composition) out.push(`  ${c.species.padEnd(8)} ${c.text}`);
@@ -156,6 +192,7 @@ export function labelLines(m: LabelModel): string[] {
   out.push(`${m.finalPressure} at ${m.finalTemperature}`);
   out.push(m.hazard);
   if (bad) out.push('*** DO NOT USE AS THE DESIGN MIXTURE ***');
+  if (m.danger) out.push(DANGER_FOOTER);
   return out;
 }
 

@@ -1,11 +1,13 @@
 /** The batch certificate with its tank label, in three formats, each a pure function of the model. */
 import type { CertificateModel } from './label-certificate.js';
+import { DANGER_HEADLINE } from './label-model.js';
 import { padTable } from './format.js';
 
 const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 /** the text form writes "+-"; the printed forms the sign itself */
 const pm = (s: string) => s.replace(/\+-/g, '±');
-const bad = (m: CertificateModel) => m.label.status === 'fail' || m.label.status === 'incomplete';
+/** drawn as a warning: a failed re-check, or a log that records a danger whatever the composition */
+const bad = (m: CertificateModel) => m.label.status === 'fail' || m.label.status === 'incomplete' || m.label.danger;
 
 const CSS = (paper: 'a4' | 'letter') => `
 @page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 11mm; }
@@ -65,19 +67,19 @@ export function certificateToHtml(m: CertificateModel): string {
     (notes.length ? `<p class="notes"><span class="sev">notes</span> ${notes.map((f) => esc(pm(f.text))).join(' &middot; ')}</p>` : '') +
     (m.findings.length ? '' : '<p class="small">No findings.</p>');
   const L = m.label;
-  const labelBox = `<div class="labelbox${bad(m) ? ' fail' : ''}"><div class="head">${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}
+  const labelBox = `<div class="labelbox${bad(m) ? ' fail' : ''}">${L.danger ? `<div class="head">${esc(DANGER_HEADLINE)}</div>` : ''}<div class="head">${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}${L.caveats.map((c) => `<div class="off">${esc(c)}</div>`).join('')}
 <div>Batch <b>${esc(L.batchId)}</b> &middot; tank <b>${esc(L.tank)}</b> &middot; filled ${esc(L.filledOn)}</div>
 <div class="small">As filled, mole fraction &plusmn; U (k = 2):</div>
 <div class="grid">${L.composition.map((c) => `<div><b>${esc(c.species)}</b> ${esc(pm(c.text))}</div>`).join('')}</div>
 <div>${[L.phi ? `phi ${esc(pm(L.phi))}` : '', L.dilution ? `dilution ${esc(pm(L.dilution))}` : ''].filter(Boolean).join(' &middot; ')}</div>
 <div>${esc(L.finalPressure)} at ${esc(L.finalTemperature)}</div>
-<div class="hazard">${esc(L.hazard)}</div>${bad(m) ? '<div class="head">DO NOT USE AS THE DESIGN MIXTURE</div>' : ''}</div>`;
+<div class="hazard">${esc(L.hazard)}</div>${L.status === 'fail' || L.status === 'incomplete' ? '<div class="head">DO NOT USE AS THE DESIGN MIXTURE</div>' : ''}${L.danger ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED</div>' : ''}</div>`;
   return `<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>Batch certificate ${esc(m.batchId)}</title><style>${CSS(m.paper)}</style></head>
 <body>
 <h1>Batch certificate &mdash; ${esc(m.title)}</h1>
 <div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.lab)}</div><div>Tank: ${esc(m.tank)}</div><div>Log started ${esc(m.created)}, ${esc(m.closed)}</div></div>
-<div class="verdict${bad(m) ? ' fail' : ''}">${esc(m.verdictText)}</div>
+<div class="verdict${bad(m) ? ' fail' : ''}">${esc(m.verdictText)}${m.caveats.map((c) => `<br>${esc(c)}`).join('')}</div>
 <section class="block"><h2>Composition: design and as filled (mole fraction, &plusmn; U at k = 2)</h2>
 <table><tr><th>species</th><th>design</th><th>as filled &plusmn; U</th><th>deviation (rel.)</th><th>tolerance</th><th>status</th></tr>${comp}
 <tr><td><b>phi</b></td><td class="num">${esc(m.phi[0])}</td><td class="num">${esc(pm(m.phi[1]))}</td><td></td><td></td><td></td></tr>
@@ -99,6 +101,7 @@ export function certificateToMarkdown(m: CertificateModel): string {
   const out: string[] = [];
   out.push(`# Batch certificate — ${m.title}`, '', `Batch **${m.batchId}** · Lab: ${m.lab} · Tank: ${m.tank} · Log started ${m.created}, ${m.closed}`, '');
   out.push(bad(m) ? `> **${m.verdictText}**` : `**${m.verdictText}**`, '');
+  for (const c of m.caveats) out.push(`> **${c}**`, '');
   out.push('## Composition: design and as filled (mole fraction, ± U at k = 2)', '', '| species | design | as filled ± U | deviation (rel.) | tolerance | status |', '|---|---:|---:|---:|---:|---|');
   for (const r of m.rows) out.push(`| ${r.species} | ${r.design} | ${pm(r.asFilled)} | ${r.deviation} | ${pm(r.tolerance)} | ${r.status === 'OUT' ? '**OUT**' : r.status} |`);
   out.push(`| phi | ${m.phi[0]} | ${pm(m.phi[1])} | | | |`, `| dilution | ${m.dilution[0]} | ${pm(m.dilution[1])} | | | |`, '');
@@ -123,7 +126,7 @@ export function certificateToText(m: CertificateModel): string {
   const edge = bad(m) ? '#' : '-';
   out.push('TANK LABEL (from the readings)', `+${edge.repeat(w + 2)}+`, ...m.labelLines.map((l) => `${edge === '#' ? '#' : '|'} ${l.padEnd(w)} ${edge === '#' ? '#' : '|'}`), `+${edge.repeat(w + 2)}+`, '');
   out.push(rule, `BATCH CERTIFICATE  ${m.title}`, `Batch ${m.batchId}    Lab: ${m.lab}`, `Tank ${m.tank}    log started ${m.created}, ${m.closed}`, rule, '');
-  out.push(`VERDICT  ${m.verdictText}`, '');
+  out.push(`VERDICT  ${m.verdictText}`, ...m.caveats.map((c) => `         ${c}`), '');
   out.push('COMPOSITION (mole fraction, +- U at k = 2)');
   const rows = [['species', 'design', 'as filled +- U', 'deviation (rel.)', 'tolerance', 'status'], ...m.rows.map((r) => [r.species, r.design, r.asFilled, r.deviation, r.tolerance, r.status])];
   rows.push(['phi', m.phi[0], m.phi[1], '', '', ''], ['dilution', m.dilution[0], m.dilution[1], '', '', '']);

@@ -1,26 +1,37 @@
 import { describe, expect, it } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { checkLog } from '../../src/io/check.js';
-import { parseLog, readLog } from '../../src/io/batch-log.js';
-import { labelLines, labelModel, renderLabelText, withU } from '../../src/report/label-model.js';
+import { appendEvent, createLog, readLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
+import { describeLogFinding } from '../../src/io/log-audit.js';
+import { DANGER_HEADLINE, labelLines, labelModel, renderLabelText, withU } from '../../src/report/label-model.js';
 import { buildCertificateModel } from '../../src/report/label-certificate.js';
 import { certificateToHtml, certificateToMarkdown, certificateToText } from '../../src/report/label-render.js';
 import { findChromium } from '../../src/io/pdf.js';
-import { runCli } from '../helpers.js';
+import { runCli, TORR } from '../helpers.js';
 
 const PASSING = 'batches/demo-ch4-phi1-ar98.jsonl';
 const FAILING = 'batches/demo-c2h4-phi05-ar-overshoot.jsonl';
 const META = { version: 'test', paper: 'a4' as const, generated: '2026-12-01 10:00 UTC' };
 
-/** a copy of a demo log with its lines changed, in a temporary folder */
-function editedLog(from: string, edit: (lines: string[]) => string[]): string {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-label-'));
-  const f = join(dir, 'edited.jsonl');
-  const lines = readFileSync(from, 'utf8').trimEnd().split('\n');
-  writeFileSync(f, edit(lines).join('\n') + '\n');
+/** the demo log's readings as events to append (their chain is recomputed by the writer) */
+const demoReadings = readFileSync(PASSING, 'utf8')
+  .trim()
+  .split('\n')
+  .slice(1, 4)
+  .map((l) => {
+    const { chain: _c, ...e } = JSON.parse(l) as Record<string, unknown>;
+    void _c;
+    return { ...e, by: 'QX' } as Extract<NewLogEvent, { kind: 'reading' }>;
+  });
+
+/** a new log with a demo log's header (changed by `header`), its events written through the log API */
+function rebuilt(from: string, write: (file: string) => void, header: (h: LogHeader) => LogHeader = (h) => h): string {
+  const f = join(mkdtempSync(join(tmpdir(), 'mw-label-')), 'rebuilt.jsonl');
+  createLog(f, header(readLog(from).header));
+  write(f);
   return f;
 }
 
@@ -90,7 +101,10 @@ describe('the label says what the readings say', () => {
   });
 
   it('a log without its last fill: FAIL - INCOMPLETE, naming the missing step (exit 4)', async () => {
-    const f = editedLog(PASSING, (l) => l.filter((x) => !/^{"kind":"reading","step":3,/.test(x) && !/"kind":"close"/.test(x)));
+    const f = rebuilt(PASSING, (file) => {
+      appendEvent(file, demoReadings[0]);
+      appendEvent(file, demoReadings[1]);
+    });
     const log = readLog(f);
     const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
     expect(m.status).toBe('incomplete');
@@ -101,29 +115,111 @@ describe('the label says what the readings say', () => {
     expect((await runCli(['label', f, '--trials', '100000'])).code).toBe(4);
   });
 
-  it('a corrected reading: the label uses the correction, the certificate lists it and its reason', async () => {
-    const corr = JSON.stringify({ kind: 'correction', step: 2, source: 'cyl-Ar', gauge: 'head-10kT', reading: '1481 Torr', pressure_Pa: 1481 * (101325 / 760), temperature: '25 degC', temperature_K: 298.15, time: '2026-11-30T09:50:00Z', reason: 'digit misread' });
-    const f = editedLog(PASSING, (l) => [...l.slice(0, 3), corr, ...l.slice(3)]);
+  it('a correction written through the log API (by, reason, replaces_line): the label uses it; the certificate lists who, when, old, new, why', async () => {
+    const f = rebuilt(PASSING, (file) => {
+      appendEvent(file, demoReadings[0]);
+      const at = appendEvent(file, demoReadings[1]).line;
+      appendEvent(file, { ...demoReadings[1], kind: 'correction', reading: '1481 Torr', pressure_Pa: 1481 * TORR, time: '2026-11-30T09:50:00Z', by: 'QX', reason: 'digit misread', replaces_line: at });
+      appendEvent(file, demoReadings[2]);
+    });
     const log = readLog(f);
     const report = await checkLog(log, { trials: 0, seed: 1 });
-    expect(report.readings[1].pressurePa).toBeCloseTo(1481 * (101325 / 760), 9);
+    expect(report.readings[1].pressurePa).toBeCloseTo(1481 * TORR, 9);
+    expect(report.amendments).toHaveLength(1);
     const c = buildCertificateModel(report, log, META);
-    expect(c.corrections.join('\n')).toMatch(/fill 2: corrected to 1481 Torr at 2026-11-30T09:50:00Z - digit misread/);
-    expect(c.readings[1].note).toContain('corrected');
+    expect(c.corrections).toEqual(['fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX at 2026-11-30 09:50:00 UTC - digit misread; the original stays in the log']);
+    expect(c.readings[1].note).toBe('corrected (replaces line 3)');
     expect(c.readings[1].typed).toBe('1481 Torr');
+    expect(c.readings[1].by).toBe('QX');
+    // a correction is not an edit of the record: no caveat, no record finding
+    expect(report.caveats).toEqual([]);
+    expect(report.findings).toEqual([]);
+    expect(certificateToText(c)).toContain('CORRECTIONS\n  fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX');
   });
 
-  it('acknowledgements and initials a log carries are shown', async () => {
-    const ack = JSON.stringify({ kind: 'acknowledge', code: 'gauge-coarser-than-band', step: 2, by: 'QX', time: '2026-11-30T09:15:00Z', note: 'wider band agreed' });
-    const f = editedLog(PASSING, (l) => [l[0], ack, ...l.slice(1)]);
+  it('a withdrawal is listed with who, when and why', async () => {
+    const f = rebuilt(PASSING, (file) => {
+      appendEvent(file, demoReadings[0]);
+      appendEvent(file, demoReadings[1]);
+      const at = appendEvent(file, demoReadings[2]).line;
+      appendEvent(file, { kind: 'withdraw', step: 3, withdraws_line: at, by: 'RB', time: '2026-11-30T10:05:00Z', reason: 'valve left open to the vent' });
+    });
+    const log = readLog(f);
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    const c = buildCertificateModel(report, log, META);
+    expect(c.corrections).toEqual(['fill 3: 1500 Torr (line 4) withdrawn (line 5), by RB at 2026-11-30 10:05:00 UTC - valve left open to the vent; the original stays in the log']);
+    expect(c.label.status).toBe('incomplete');
+  });
+
+  it('acknowledgements and the initials of each reading, from the log', async () => {
+    const f = rebuilt(PASSING, (file) => {
+      appendEvent(file, { kind: 'acknowledge', code: 'gauge-coarser-than-band', step: 2, by: 'QX', time: '2026-11-30T09:15:00Z', note: 'wider band agreed' });
+      appendEvent(file, demoReadings[0]);
+      appendEvent(file, { ...demoReadings[1], by: 'RB' });
+      appendEvent(file, demoReadings[2]);
+    });
     const log = readLog(f);
     const c = buildCertificateModel(await checkLog(log, { trials: 0, seed: 1 }), log, META);
     expect(c.acknowledgements).toEqual(['gauge-coarser-than-band (fill 2): accepted by QX at 2026-11-30T09:15:00Z - wider band agreed']);
-    // initials on a reading, where a log carries them
-    const withBy = parseLog(readFileSync(PASSING, 'utf8'), PASSING);
-    const tagged = { ...withBy, readings: withBy.readings.map((r) => ({ ...r, by: 'QX' })) };
-    const c2 = buildCertificateModel(await checkLog(tagged, { trials: 0, seed: 1 }), tagged, META);
-    expect(c2.readings.map((r) => r.by)).toEqual(['QX', 'QX', 'QX']);
+    expect(c.readings.map((r) => r.by)).toEqual(['QX', 'RB', 'QX']);
+  });
+});
+
+describe('a log that records a danger', () => {
+  // the demo readings in a log whose tank has a working limit of 1495 Torr: the last (1500 Torr) goes past it
+  const pastLimit = () =>
+    rebuilt(PASSING, (file) => {
+      for (const e of demoReadings) appendEvent(file, e);
+    }, (h) => ({ ...h, tank: { ...h.tank, working_limit_Pa: 1495 * TORR } }));
+
+  it('a composition within tolerance never reads as fit: DANGER first, the caveat beside the verdict, the finding worded once, exit 3', async () => {
+    const f = pastLimit();
+    const log = readLog(f);
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    expect(['pass', 'pass-uncertain']).toContain(report.verdict.verdict);
+    const m = labelModel(report, log);
+    expect(m.danger).toBe(true);
+    const lines = labelLines(m);
+    expect(lines[0]).toBe(`*** ${DANGER_HEADLINE} ***`);
+    expect(lines[1]).toBe('composition only: PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it');
+    expect(lines.join(' ')).toContain("! DANGER: a logged reading went past the tank's working limit");
+    expect(lines[lines.length - 1]).toBe('*** DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED ***');
+    // the caveat is wrapped for the boxed text label
+    for (const l of lines.filter((x) => /^[! ] /.test(x) && !/^ {2}[A-Z][A-Za-z0-9]* /.test(x))) expect(l.length, l).toBeLessThanOrEqual(78);
+    const c = buildCertificateModel(report, log, META);
+    expect(c.caveats).toEqual(report.caveats);
+    expect(c.caveats[0]).toMatch(/^DANGER: a logged reading went past the tank's working limit/);
+    expect(c.verdictText).toMatch(/the log records a danger \(below\), and the tank is not fit to use\.$/);
+    expect(c.findings[0]).toEqual({ severity: 'danger', text: describeLogFinding(report.findings[0]) });
+    expect(c.findings[0].text).toContain("line 4, fill 3: the tank reading 1500 Torr (absolute) is above the tank's working limit of 1495 Torr");
+    expect(c.readings[2].note).toContain('DANGER');
+    for (const doc of [certificateToText(c), certificateToMarkdown(c), certificateToHtml(c)]) expect(doc).toContain("DANGER: a logged reading went past the tank's working limit");
+    expect(certificateToHtml(c)).toContain('class="labelbox fail"');
+    const cli = await runCli(['label', f, '--trials', '100000']);
+    expect(cli.code).toBe(3);
+    expect(cli.stderr).toContain('the log records a danger');
+    expect(cli.stdout).toContain(`# *** ${DANGER_HEADLINE} ***`);
+    expect((await runCli(['check', f, '--trials', '100000'])).code).toBe(3);
+  });
+
+  it('an acknowledgement at the manifold does not lift it: still DANGER, still exit 3', async () => {
+    const f = pastLimit();
+    appendEvent(f, { kind: 'acknowledge', code: 'above-working-limit', step: 3, by: 'QX', time: '2026-11-30T10:20:00Z' });
+    const log = readLog(f);
+    const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
+    expect(labelLines(m)[0]).toBe(`*** ${DANGER_HEADLINE} ***`);
+    expect((await runCli(['label', f, '--trials', '100000'])).code).toBe(3);
+  });
+
+  it('the same readings under the demo working limit: no danger, no caveat, exit 0', async () => {
+    const f = rebuilt(PASSING, (file) => {
+      for (const e of demoReadings) appendEvent(file, e);
+    });
+    const log = readLog(f);
+    const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
+    expect(m.danger).toBe(false);
+    expect(m.caveats).toEqual([]);
+    expect(labelLines(m)[0]).toBe('PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it');
   });
 });
 
@@ -214,16 +310,4 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML certificate and l
       expect(existsSync(`${base}-1.png`)).toBe(true);
     });
   }
-});
-
-describe('what a newer log or report carries', () => {
-  it('a corrections list (who, when, old, new, why) and log findings on the report are shown on the certificate', async () => {
-    const log = readLog(PASSING);
-    const report = await checkLog(log, { trials: 0, seed: 1 });
-    const withMore = { ...report, findings: [{ severity: 'danger', code: 'over-working-limit', message: 'reading 3 is above the working limit' }] };
-    const logMore = { ...log, corrections: [{ step: 2, by: 'QX', time: '2026-11-30T09:50:00Z', old: '1408 Torr', new: '1480 Torr', reason: 'digits swapped' }] };
-    const c = buildCertificateModel(withMore, logMore, META);
-    expect(c.corrections).toEqual(['fill 2: 1408 Torr -> 1480 Torr, by QX at 2026-11-30T09:50:00Z - digits swapped']);
-    expect(c.findings[0]).toEqual({ severity: 'danger', text: 'over-working-limit: reading 3 is above the working limit' });
-  });
 });
