@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import {
   adviseOrder,
   assessFlammability,
+  describeFinding,
   designMixture,
   detonableByRule,
   fuelsThatMatter,
@@ -13,7 +14,9 @@ import {
   pureCylinder,
   reviewBulkPath,
   reviewCompression,
+  reviewFillPath,
   reviewSegment,
+  reviewState,
   scoreGivenOrder,
   type FillEvent,
   type Finding,
@@ -28,6 +31,7 @@ const T = 298.15;
 const ctx: SafetyContext = { temperatureK: T, workingLimitPa: 20e5, tankId: 'T' };
 const head = (id: string, fsTorr: number, res: number): Gauge => ({ id, label: id, reference: 'absolute', fullScalePa: fsTorr * TORR, minimumPa: 0, accuracyOfReading: 0.0012, accuracyOfFullScale: 0, resolutionPa: res * TORR, unit: 'Torr' });
 const AIR = { O2: 0.2095, N2: 0.7905 };
+const describeFindingOf = (f: Finding) => describeFinding(f, (pa) => `${(pa / 1e5).toFixed(3)} bar`);
 
 function source(id: string): GasSource {
   return id === 'air' ? premix({ id: 'air', composition: AIR }) : pureCylinder({ id, species: id, purity: 1 });
@@ -287,5 +291,64 @@ describe('property tests (fast-check)', () => {
       }),
       { numRuns: 40 },
     );
+  });
+});
+
+describe('a detonable stretch of a fill path is judged by the rule for detonable states', () => {
+  // H2 first (0.1 bar), then air to 10 % H2 at 1 bar: the path passes 59-18.3 % H2 in air, inside the published
+  // detonation limits of H2-air (data/detonation-data.ts), while the end states (100 % H2, 10 % H2) are not detonable
+  const e: FillEvent = {
+    step: 2,
+    sourceId: 'air',
+    sourceComposition: AIR,
+    before: { step: 1, composition: { H2: 1 }, pressurePa: 0.1e5, final: false },
+    after: { step: 2, composition: mix({ H2: 1 }, AIR, 0.9), pressurePa: 1e5, final: true },
+  };
+  const find = (limitPa: number) => {
+    const f = reviewFillPath(e, { ...ctx, workingLimitPa: limitPa }).find((x) => x.code === 'flammable-fill-path');
+    if (f?.code !== 'flammable-fill-path') throw new Error('no path finding');
+    return f;
+  };
+
+  it('diluted (H2-air): a warning while the reflected pressure (2.5 x P_CJ, common practice) stays under the working limit, a danger above it; the same verdict as reviewState gives the state at that point', () => {
+    const ample = find(200e5);
+    expect(ample.detonable).toBe(true);
+    expect(ample.undiluted).toBe(false);
+    expect(ample.reflectedPa! / ample.cjPa!).toBeCloseTo(2.5, 6);
+    // the detonable stretch lies between 0.1/0.59 and 0.1/0.183 bar of tank pressure (published limits 18.3-59 % H2 in air)
+    expect(ample.detonationAtPa!).toBeGreaterThan(0.1e5 / 0.59 - 100);
+    expect(ample.detonationAtPa!).toBeLessThan(0.1e5 / 0.183 + 100);
+    // P_CJ / P1 of H2-air lies between 10 and 16.5 across its detonation limits (about 15.6 at stoichiometric,
+    // Chapman-Jouguet tables of the common reference libraries, from memory)
+    expect(ample.cjPa! / ample.detonationAtPa!).toBeGreaterThan(10);
+    expect(ample.cjPa! / ample.detonationAtPa!).toBeLessThan(16.5);
+    expect(ample.severity).toBe('warning');
+    const tight = find(ample.reflectedPa! * 0.9);
+    expect(tight.severity).toBe('danger');
+    expect(tight.reflectedPa).toBeCloseTo(ample.reflectedPa!, 0);
+    // the state review's verdict on the same composition and pressure, for both ratings
+    const y = mix(e.before!.composition, e.after.composition, (1 - 0.1e5 / ample.detonationAtPa!) / (1 - 0.1e5 / 1e5));
+    for (const [limitPa, want] of [[200e5, 'warning'], [ample.reflectedPa! * 0.9, 'danger']] as const) {
+      const s = reviewState({ step: 2, composition: y, pressurePa: ample.detonationAtPa!, final: false }, { ...ctx, workingLimitPa: limitPa });
+      expect(s.findings.find((x) => x.code === 'detonable-state')?.severity).toBe(want);
+    }
+    expect(describeFindingOf(tight)).toMatch(/reflects \(2\.5 x P_CJ, common practice\), above the tank's working limit/);
+    expect(describeFindingOf(ample)).toMatch(/below the tank's working limit/);
+  });
+
+  it('undiluted (O2 first, then CH4 to 90 % CH4): a danger whatever the rating (common practice), as for a state', () => {
+    const u: FillEvent = {
+      step: 2,
+      sourceId: 'CH4',
+      sourceComposition: { CH4: 1 },
+      before: { step: 1, composition: { O2: 1 }, pressurePa: 0.1e5, final: false },
+      after: { step: 2, composition: { CH4: 0.9, O2: 0.1 }, pressurePa: 1e5, final: true },
+    };
+    const f = reviewFillPath(u, { ...ctx, workingLimitPa: 1000e5 }).find((x) => x.code === 'flammable-fill-path');
+    if (f?.code !== 'flammable-fill-path') throw new Error('no path finding');
+    expect(f.detonable).toBe(true);
+    expect(f.undiluted).toBe(true);
+    expect(f.severity).toBe('danger');
+    expect(describeFindingOf(f)).toMatch(/undiluted fuel\/O2 at .* is a danger whatever the tank's rating/);
   });
 });
