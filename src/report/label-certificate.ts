@@ -7,6 +7,7 @@
  */
 import { STANDING_CAUTION } from '../core/index.js';
 import type { CheckReport } from '../io/check.js';
+import { describeLogFinding } from '../io/log-audit.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from './format.js';
@@ -162,14 +163,8 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
   const findings: { severity: string; text: string }[] = [];
   // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
   for (const w of r.warnings) if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
-  // findings the re-check raised on the log itself, where the report carries them (worded already, or with a message)
-  const logFindings = (r as unknown as { findings?: unknown }).findings;
-  if (Array.isArray(logFindings)) {
-    for (const f of logFindings) {
-      const text = textField(f, 'message', 'text');
-      if (text) findings.push({ severity: textField(f, 'severity') || 'check', text: `${textField(f, 'code') ? `${textField(f, 'code')}: ` : ''}${text}` });
-    }
-  }
+  // findings the re-check raised on the log itself, worded once by describeLogFinding
+  for (const f of r.findings ?? []) findings.push({ severity: f.severity, text: `${f.code === 'record' ? f.issue.code : f.code}: ${describeLogFinding(f)}` });
   for (const f of h?.findings ?? []) if (f.code !== 'isolate-gauge') findings.push({ severity: f.severity, text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}` });
   const order = ['danger', 'check', 'warning', 'note'];
   findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));

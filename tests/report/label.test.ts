@@ -4,6 +4,7 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { checkLog } from '../../src/io/check.js';
+import { describeLogFinding, type LogFinding } from '../../src/io/log-audit.js';
 import { parseLog, readLog } from '../../src/io/batch-log.js';
 import { labelLines, labelModel, renderLabelText, withU } from '../../src/report/label-model.js';
 import { buildCertificateModel } from '../../src/report/label-certificate.js';
@@ -220,10 +221,12 @@ describe('what a newer log or report carries', () => {
   it('a corrections list (who, when, old, new, why) and log findings on the report are shown on the certificate', async () => {
     const log = readLog(PASSING);
     const report = await checkLog(log, { trials: 0, seed: 1 });
-    const withMore = { ...report, findings: [{ severity: 'danger', code: 'over-working-limit', message: 'reading 3 is above the working limit' }] };
+    const over: LogFinding = { code: 'above-working-limit', severity: 'danger', step: 3, line: 7, pressurePa: 21e5, limitPa: 20e5, unit: 'bar', replaced: false };
+    const withMore = { ...report, findings: [over] };
     const logMore = { ...log, corrections: [{ step: 2, by: 'QX', time: '2026-11-30T09:50:00Z', old: '1408 Torr', new: '1480 Torr', reason: 'digits swapped' }] };
     const c = buildCertificateModel(withMore, logMore, META);
     expect(c.corrections).toEqual(['fill 2: 1408 Torr -> 1480 Torr, by QX at 2026-11-30T09:50:00Z - digits swapped']);
-    expect(c.findings[0]).toEqual({ severity: 'danger', text: 'over-working-limit: reading 3 is above the working limit' });
+    expect(c.findings[0]).toEqual({ severity: 'danger', text: `above-working-limit: ${describeLogFinding(over)}` });
+    expect(c.findings[0].text).toMatch(/line 7, fill 3: the tank reading 21 bar \(absolute\) is above the tank's working limit of 20 bar/);
   });
 });
