@@ -42,6 +42,8 @@ import { FUEL_SAFETY } from './data/safety-data.js';
 import { oxygenDemand } from './formula.js';
 import { detonableByRule, flammabilityNumbers, type FillEvent, type SafetyContext } from './safety.js';
 import type { Finding } from './findings.js';
+import { detonationFinding } from './explosion-review.js';
+import { detonability } from './detonation.js';
 
 /** hazard rank of one composition: 0 not flammable (or only near the limit), 1 flammable, 2 detonable */
 export type PathRank = 0 | 1 | 2;
@@ -64,6 +66,8 @@ export interface SegmentReview {
   readonly flammableU?: readonly [number, number];
   /** tank pressures at the ends of that span, Pa */
   readonly flammablePa?: readonly [number, number];
+  /** the detonable points the review judged (rank 2), in order of u: samples, refinements and boundaries */
+  readonly detonable: readonly PathPoint[];
   readonly ranks: { readonly start: PathRank; readonly end: PathRank };
 }
 
@@ -258,6 +262,7 @@ export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number
     worst,
     flammableU: span,
     flammablePa: span ? [pressureAt(span[0]), pressureAt(span[1])] : undefined,
+    detonable: pts.filter((p) => p.rank === 2).sort((p, q) => p.u - q.u),
     ranks: { start: pts.find((p) => p.u === 0)!.rank, end: pts.find((p) => p.u === 1)!.rank },
   };
 }
@@ -281,6 +286,29 @@ export function reviewInlet(e: FillEvent, temperatureK: number, locate = true): 
 }
 
 /**
+ * The detonation finding of a detonable stretch, by the rule for states (detonationFinding
+ * in explosion-review.ts): undiluted fuel/O2 anywhere on it is a danger whatever the
+ * rating; a diluted stretch is a danger when the reflected pressure (about 2.5 x P_CJ at
+ * the path's pressure there) exceeds the working limit anywhere on it, else a warning.
+ * Judged at every detonable point the review found (its ends, the samples inside it and
+ * the worst point), and the highest reflected pressure is kept.
+ */
+export function detonableStretchFinding(points: readonly PathPoint[], temperatureK: number, workingLimitPa: number | undefined, step: number | undefined): Extract<Finding, { code: 'detonable-state' }> | undefined {
+  const judge = (p: PathPoint) => detonationFinding({ composition: p.composition, pressurePa: p.pressurePa }, temperatureK, workingLimitPa, step) as Extract<Finding, { code: 'detonable-state' }> | undefined;
+  // undiluted anywhere: a danger whatever the numbers; the first such point carries them
+  const undiluted = points.find((p) => detonability(p.composition).undiluted);
+  if (undiluted) return judge(undiluted);
+  let worst: Extract<Finding, { code: 'detonable-state' }> | undefined;
+  const rank = (f: Extract<Finding, { code: 'detonable-state' }>) => (f.severity === 'danger' ? 2 : f.severity === 'warning' ? 1 : 0);
+  for (const p of points) {
+    const f = judge(p);
+    if (!f) continue;
+    if (!worst || rank(f) > rank(worst) || (rank(f) === rank(worst) && (f.reflectedPa ?? -1) > (worst.reflectedPa ?? -1))) worst = f;
+  }
+  return worst;
+}
+
+/**
  * Findings of a fill's path: a bulk path that is flammable (or detonable) where
  * neither end state is is judged like such a state, at its worst point; an inlet that
  * is flammable where neither the bulk path nor the end states are is a warning.
@@ -294,8 +322,10 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
   const ends = Math.max(bulk.ranks.start, bulk.ranks.end);
   if (bulk.rank > ends) {
     const w = bulk.worst;
+    // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
+    const det = bulk.rank === 2 ? detonableStretchFinding(bulk.detonable, ctx.temperatureK, ctx.workingLimitPa, e.step) : undefined;
     out.push({
-      severity: bulk.rank === 2 ? 'danger' : 'warning',
+      severity: bulk.rank === 2 ? (det?.severity ?? 'danger') : 'warning',
       code: 'flammable-fill-path',
       step: e.step,
       source: e.sourceId,
@@ -304,6 +334,9 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
       fromPa: bulk.flammablePa![0],
       toPa: bulk.flammablePa![1],
       ...flammabilityNumbers(w.assessment, w.pressurePa),
+      ...(det
+        ? { detonationAtPa: det.pressurePa, basis: det.basis, undiluted: det.undiluted, phi: det.phi, phiLow: det.phiLow, phiHigh: det.phiHigh, limitSources: det.limitSources, cjPa: det.cjPa, cjK: det.cjK, cjVelocityMPerS: det.cjVelocityMPerS, reflectedPa: det.reflectedPa, limitPa: det.limitPa, cjMissing: det.cjMissing }
+        : {}),
     });
     return out;
   }
