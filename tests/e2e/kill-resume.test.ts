@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -24,7 +25,8 @@ const BATCHES = Number(process.env.KILL_BATCHES ?? 3);
 describe.runIf(hasTmux || required)('SIGKILL between readings, many times over', () => {
   it(`${BATCHES} batches, a kill after every reading: the log keeps every confirmed reading and resume continues`, async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-kill-'));
-    const t = tmuxSession(`mw-kill-${process.pid}`, dir);
+    const server = `mw-kill-${process.pid}`;
+    const t = tmuxSession(server, dir);
     let checkedOnScreen = 0;
     try {
       for (let b = 0; b < BATCHES; b++) {
@@ -41,18 +43,31 @@ describe.runIf(hasTmux || required)('SIGKILL between readings, many times over',
           typed.set(step, target);
           t.tm('send-keys', '-t', 's', '-l', String(target));
           await sleep(150);
-          t.tm('send-keys', '-t', 's', 'Enter');
+          // Enter is sent without waiting for tmux (on a loaded machine send-keys alone can take
+          // longer than the fill needs to log), so the random kill can land before, during or
+          // after the write; the program is killed by its pid (env execs it: the pane's pid)
+          const pid = Number(t.tm('display-message', '-p', '-t', 's', '#{pane_pid}').trim());
+          const enter = spawn('tmux', ['-L', server, 'send-keys', '-t', 's', 'Enter'], { stdio: 'ignore' });
+          const sent = new Promise((r) => enter.on('close', r));
           // what the screen says once the line is fsync'd (on the next fill's screen, or the end screen)
           const shownLogged = new RegExp(`fill ${step} logged`);
           if (stalled || (b === BATCHES - 1 && step === 3)) {
             // the last round logged nothing (and, so the check below surely runs, the last reading
             // of all): kill at a random moment after the screen confirms
+            await sent;
             await t.waitFor(shownLogged);
           }
-          // kill at a random moment: before, during or after the write
           await sleep(Math.floor(Math.random() * 300));
+          try {
+            process.kill(pid, 'SIGKILL');
+          } catch {
+            // already gone: what it left is checked below
+          }
+          await sent;
+          await sleep(150);
+          // the pane keeps what the dead program drew, all of it before the kill
           const before = t.screen();
-          await t.kill();
+          t.tm('kill-session', '-t', 's');
           const readings = parseLog(readFileSync(log, 'utf8'), log).readings;
           // confirmed on screen before the kill: in the log after it
           if (shownLogged.test(before)) {
