@@ -233,20 +233,19 @@ export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number
         pts.push(at(goldenMin((u) => -flameShare(at(u).assessment, temperatureK), Math.max(0, (i - 1) / SAMPLES), Math.min(1, (i + 1) / SAMPLES), GOLDEN / 2)));
       }
     }
-    // locate each boundary between ranks by bisection (which also finds a stretch of a third rank between two)
+    // locate each boundary between ranks by bisection; a midpoint of a third rank (flammable
+    // between detonable and non-flammable) has a boundary on each side, and both are followed,
+    // so the flammable stretch is not cut off at the detonable one
     pts.sort((p, q) => p.u - q.u);
     const extra: PathPoint[] = [];
-    for (let i = 0; i + 1 < pts.length; i++) {
-      let lo = pts[i];
-      let hi = pts[i + 1];
-      if (lo.rank === hi.rank) continue;
-      for (let k = 0; k < (locate ? BISECTIONS : SEARCH_BISECTIONS); k++) {
-        const m = at((lo.u + hi.u) / 2);
-        extra.push(m);
-        if (m.rank === lo.rank) lo = m;
-        else hi = m;
-      }
-    }
+    const bisect = (lo: PathPoint, hi: PathPoint, depth: number): void => {
+      if (depth === 0 || lo.rank === hi.rank) return;
+      const m = at((lo.u + hi.u) / 2);
+      extra.push(m);
+      if (m.rank !== lo.rank) bisect(lo, m, depth - 1);
+      if (m.rank !== hi.rank) bisect(m, hi, depth - 1);
+    };
+    for (let i = 0; i + 1 < pts.length; i++) bisect(pts[i], pts[i + 1], locate ? BISECTIONS : SEARCH_BISECTIONS);
     pts = [...pts, ...extra];
   } else {
     pts.push(at(0), at(1));
@@ -333,6 +332,7 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
       inertFraction: w.assessment.point.inert,
       fromPa: bulk.flammablePa![0],
       toPa: bulk.flammablePa![1],
+      ...(bulk.detonable.length ? { detonableFromPa: bulk.detonable[0].pressurePa, detonableToPa: bulk.detonable[bulk.detonable.length - 1].pressurePa } : {}),
       ...flammabilityNumbers(w.assessment, w.pressurePa),
       ...(det
         ? { detonationAtPa: det.pressurePa, basis: det.basis, undiluted: det.undiluted, phi: det.phi, phiLow: det.phiLow, phiHigh: det.phiHigh, limitSources: det.limitSources, cjPa: det.cjPa, cjK: det.cjK, cjVelocityMPerS: det.cjVelocityMPerS, reflectedPa: det.reflectedPa, limitPa: det.limitPa, cjMissing: det.cjMissing }

@@ -45,7 +45,7 @@ export type Finding = Base &
     | { readonly code: 'oxygen-service'; readonly source: string }
     | { readonly code: 'oxygen-enriched'; readonly oxygenFraction: number }
     | { readonly code: 'safer-order'; readonly order: readonly string[]; readonly reason: string }
-    | ({ readonly code: 'flammable-fill-path'; readonly source: string; readonly detonable: boolean; readonly inertFraction: number; readonly fromPa: number; readonly toPa: number; /** tank pressure of the detonable point judged by the rule for detonable states */ readonly detonationAtPa?: number } & FlammabilityNumbers & DetonationNumbers)
+    | ({ readonly code: 'flammable-fill-path'; readonly source: string; readonly detonable: boolean; readonly inertFraction: number; readonly fromPa: number; readonly toPa: number; /** the detonable part of the flammable stretch, tank pressures */ readonly detonableFromPa?: number; readonly detonableToPa?: number; /** tank pressure of the detonable point judged by the rule for detonable states */ readonly detonationAtPa?: number } & FlammabilityNumbers & DetonationNumbers)
     | ({ readonly code: 'flammable-at-inlet'; readonly source: string; readonly incomingShare: number } & FlammabilityNumbers)
     | { readonly code: 'oxygen-compression'; readonly oxygenFraction: number; readonly fromPa: number; readonly toPa: number; readonly gamma: number; readonly endK: number; readonly limitK: number }
     | { readonly code: 'no-safe-order'; readonly reason: string }
@@ -265,7 +265,7 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'no-safe-order':
       return f.reason;
     case 'flammable-fill-path':
-      return `during this fill (${f.source}) the tank passes through ${f.detonable ? 'detonable' : 'flammable'} compositions while it is between ${p(Math.min(f.fromPa, f.toPa))} and ${p(Math.max(f.fromPa, f.toPa))}, although the states before and after it are not${f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : ''} (worst point: ${flammabilityDetail(f)})${f.detonable ? pathDetonation(f, p) : ''}; change the fill order, or charge a diluent first so the path stays outside the flammable region`;
+      return `during this fill (${f.source}) the tank passes through flammable compositions while it is between ${p(Math.min(f.fromPa, f.toPa))} and ${p(Math.max(f.fromPa, f.toPa))}${f.detonable && f.detonableFromPa !== undefined && f.detonableToPa !== undefined ? `, detonable ones between ${p(Math.min(f.detonableFromPa, f.detonableToPa))} and ${p(Math.max(f.detonableFromPa, f.detonableToPa))}` : ''}, although the states before and after it are not${f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : ''} (worst point: ${flammabilityDetail(f)})${f.detonable ? pathDetonation(f, p) : ''}; change the fill order, or charge a diluent first so the path stays outside the flammable region`;
     case 'flammable-at-inlet':
       return `where ${f.source} enters the tank it mixes with the tank gas into flammable compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), although the tank itself stays outside the flammable region; fill it in another order, or dilute the tank gas first, and open the valve slowly`;
     case 'oxygen-compression':
