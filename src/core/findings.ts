@@ -237,9 +237,14 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
     case 'compression-heating':
       return `this fill compresses the gas already in the tank from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it heats it to ${kelvin(f.endK)}, against the autoignition temperature ${kelvin(f.aitK)} of ${f.fuel}, the fuel in the tank after this fill that ignites first. Throttle the fill (open the valve slowly) or change the order`;
     case 'condensation':
-      return f.inLine
-        ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it may condense in the line - fill the vapour first or heat the lines`
-        : `${f.species} partial pressure ${p(f.partialPa)} exceeds ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it may condense - lower its partial pressure or heat the tank and lines`;
+      {
+        // above the vapour pressure itself it will condense, not "may"
+        const saturated = f.partialPa >= f.psatPa;
+        const share = saturated ? `above its vapour pressure ${p(f.psatPa)} itself (${((f.partialPa / f.psatPa) * 100).toFixed(0)} %)` : `above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)}`;
+        return f.inLine
+          ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense in the line - fill the vapour first or heat the lines`
+          : `${f.species} partial pressure ${p(f.partialPa)} is ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense - lower its partial pressure or heat the tank and lines`;
+      }
     case 'psat-estimated':
       return `the vapour pressure of ${f.species} at ${kelvin(f.coldestK)} comes from ${f.method} (outside the range of its measured constants); the condensation check is less certain`;
     case 'coldest-temperature-assumed':
