@@ -242,7 +242,7 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
         const saturated = f.partialPa >= f.psatPa;
         const share = saturated ? `above its vapour pressure ${p(f.psatPa)} itself (${((f.partialPa / f.psatPa) * 100).toFixed(0)} %)` : `above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)}`;
         return f.inLine
-          ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense in the line - fill the vapour first or heat the lines`
+          ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense in the line - ${f.step === 1 ? 'it is the first fill already: heat the lines, or lower its partial pressure' : 'fill the vapour first or heat the lines'}`
           : `${f.species} partial pressure ${p(f.partialPa)} is ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense - lower its partial pressure or heat the tank and lines`;
       }
     case 'psat-estimated':
