@@ -1,5 +1,5 @@
 /** mixwright species: the data browser, every value with its unit and source. */
-import { blendLimits, FUEL_SAFETY, getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, VIRIAL_TABLE_RANGE_K, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
+import { blendLimits, DETONATION_LIMITS, FUEL_SAFETY, getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, VIRIAL_TABLE_RANGE_K, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
 import { fixedSig, padTable } from './format.js';
 
 /** the units the tables are usually read in (SI inside) */
@@ -74,6 +74,20 @@ export function speciesDetail(name: string, temperatureK: number): string {
       out.push(`Still from memory (not read in a stored copy of the source; check it before relying on it): ${list}. The safety review uses these values.`);
     }
     if (estimated.length) out.push(`Estimated, no published value on file: ${estimated.join('; ')}. The safety review uses a conservative estimate and says so.`);
+  }
+  // detonation limits gate the detonable-state finding: list them with their source and quality
+  const det = DETONATION_LIMITS.filter((r) => r.fuel === sp.key);
+  if (FUEL_SAFETY.has(sp.key)) {
+    out.push('');
+    if (det.length) {
+      const recalledDet = det.filter((r) => getSource(r.low.source).quality === 'from-memory' || getSource(r.high.source).quality === 'from-memory');
+      out.push(`Detonation limits: ${det.map((r) => `in ${r.oxidizer} ${(r.low.value * 100).toPrecision(3)}-${(r.high.value * 100).toPrecision(3)} vol % (${r.low.source})`).join('; ')}.${recalledDet.length ? ' These are from memory (check before relying on them); the safety review uses them.' : ''}`);
+      for (const r of det) {
+        cited.add(r.low.source);
+        cited.add(r.high.source);
+      }
+    }
+    if (!det.some((r) => r.oxidizer === 'air')) out.push('No detonation limits in air on file: a flammable state with an oxidizer about as rich in O2 as air, or with less than 50 % N2-equivalent inert, counts as detonable (our conservative rule).');
   }
   const partners = referenceCrossPartners(sp.key);
   out.push('');
