@@ -668,9 +668,17 @@ function bootId(): string | undefined {
 function alive(pid: number): boolean {
   try {
     process.kill(pid, 0);
-    return true;
   } catch (e) {
     return (e as NodeJS.ErrnoException).code === 'EPERM';
+  }
+  // a killed fill whose parent has not yet reaped it is a zombie: it answers signal 0 but
+  // holds nothing (Linux: state Z or X in /proc/PID/stat; elsewhere the signal decides)
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const state = stat.slice(stat.lastIndexOf(')') + 2, stat.lastIndexOf(')') + 3);
+    return state !== 'Z' && state !== 'X';
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code !== 'ENOENT';
   }
 }
 

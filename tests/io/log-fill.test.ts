@@ -125,6 +125,29 @@ describe('the lock of a guided fill', () => {
     unlinkSync(`${file}.lock`);
   });
 
+  it('a lock whose fill was killed but not yet reaped by its parent (a zombie, as a terminal leaves it for a moment) is stale', async () => {
+    const file = newLog(tmp(), 1);
+    // a parent that forks a child and never reaps it: the killed child stays a zombie
+    const parent = spawn('python3', ['-c', 'import os,sys,time\npid=os.fork()\nif pid==0:\n    time.sleep(60)\n    os._exit(0)\nprint(pid,flush=True)\ntime.sleep(5)'], { stdio: ['ignore', 'pipe', 'ignore'] });
+    const pid = await new Promise<number>((resolve) => parent.stdout!.once('data', (d: Buffer) => resolve(Number(String(d).trim()))));
+    try {
+      process.kill(pid, 'SIGKILL');
+      let state = '';
+      for (let i = 0; i < 100 && state !== 'Z'; i++) {
+        await new Promise((r) => setTimeout(r, 10));
+        const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+        state = stat.slice(stat.lastIndexOf(')') + 2, stat.lastIndexOf(')') + 3);
+      }
+      expect(state).toBe('Z');
+      writeFileSync(`${file}.lock`, JSON.stringify({ pid, host: hostname(), started: '2026-12-02T08:00:00Z' }) + '\n');
+      const o = openLogForFill(file);
+      expect(o.messages.join('\n')).toMatch(/took over a stale lock/);
+      o.handle.release();
+    } finally {
+      parent.kill('SIGKILL');
+    }
+  });
+
   it('a lock from before a restart of this computer (another boot id) is stale even if its pid is in use now', (ctx) => {
     if (!existsSync('/proc/sys/kernel/random/boot_id')) ctx.skip();
     const file = newLog(tmp(), 1);
