@@ -13,11 +13,15 @@ describe('recipe and lab files', () => {
   });
 
   for (const f of readdirSync('recipes').filter((n) => n.endsWith('.yaml'))) {
-    it(`demo recipe ${f} loads and plans without a danger finding`, () => {
+    // the natural-gas/air batch is itself flammable, and with no detonation limits in air on
+    // file the conservative rule counts it detonable (its reflected pressure is above MT-2's
+    // working limit): that danger, and only that one, stands; the others plan clean
+    const expected = f === 'ng-blend-air.yaml' ? ['detonable-state'] : [];
+    it(`demo recipe ${f} loads and plans with dangers ${JSON.stringify(expected)} only`, () => {
       const req = buildPlanRequest(readRecipe(`recipes/${f}`));
       const plan = planFill(req.input);
       expect(plan.steps.length).toBeGreaterThan(1);
-      expect(plan.findings.filter((x) => x.severity === 'danger')).toEqual([]);
+      expect(plan.findings.filter((x) => x.severity === 'danger').map((x) => x.code)).toEqual(expected);
     });
   }
 
