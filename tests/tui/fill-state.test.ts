@@ -141,40 +141,77 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(setupFromHeader(h).workingLimitPa! / TORR).toBeCloseTo(limitTorr, 9);
   });
 
-  it('10.01 then 2800 Torr: a danger screen, nothing logged yet; it says how far to vent and to what reading, below the limit', () => {
+  /** 10.01 then 2800 Torr, the over-limit reading logged on line 3 (line 1 the header, line 2 fill 1) */
+  const overLimit = () => {
     const s1 = read(initialState(setupFromHeader(h)), '10.01');
     const d = read(s1, '2800');
-    expect(d.phase).toBe('over-limit');
-    expect(d.effects).toEqual([]);
+    return { s1, d, logged: fillReducer(d, { type: 'logged', step: 2, line: 3 }) };
+  };
+  it('10.01 then 2800 Torr: the reading is logged at once, then a danger screen; it says how far to vent and to what reading, below the limit', () => {
+    const { d: d0, logged: d } = overLimit();
+    expect(d0.phase).toBe('over-limit');
+    // a reading is a fact about the tank: logged before the operator chooses (Ctrl-C there keeps it)
+    expect(d0.effects.map((e) => e.kind)).toEqual(['reading']);
+    expect(d0.effects[0]).toMatchObject({ step: 2, pressure_Pa: 2800 * TORR, note: expect.stringMatching(/above the working limit/) });
+    expect(d.pending!.done.line).toBe(3);
+    // venting keeps the composition: the CH4 overshoot-free CH4/Ar ratio, O2 restores phi: the screen says whether that is within the tolerance
+    expect(typeof d.overLimit!.within).toBe('boolean');
+    expect(d.overLimit!.within).toBe(d.overLimit!.outside.length === 0);
     expect(d.overLimit!.limitPa / TORR).toBeCloseTo(limitTorr, 6);
     expect(d.overLimit!.ventToPa / TORR).toBeLessThan(limitTorr);
     // venting keeps the CH4/Ar ratio; O2 then restores phi: from about the planned Ar reading (1480 Torr at the CH4 read)
     expect(d.overLimit!.ventToPa / TORR).toBeGreaterThan(1400);
     expect(d.overLimit!.ventToPa / TORR).toBeLessThan(1500);
-    // anything else than vent, accept INITIALS or edit is refused
-    expect(enter(type(d, 'ok')).error).toMatch(/type "vent"/);
-    // edit: back to the reading, the typed text kept, nothing logged
-    const e = enter(type(d, 'edit'));
+    // anything else than vent, accept INITIALS or edit INITIALS is refused; Esc does not drop the logged reading
+    expect(enter(type(d, 'ok')).error).toMatch(/type "vent"/i);
+    expect(enter(type(d, 'edit')).error).toMatch(/"edit" and your initials/);
+    const esc = fillReducer(d, { type: 'escape' });
+    expect(esc.phase).toBe('over-limit');
+    expect(esc.error).toMatch(/logged/);
+  });
+
+  it('edit INITIALS (mistyped): a withdrawal with initials and reason, the typed text back; check still reports the over-limit line as withdrawn', async () => {
+    const { s1, logged: d } = overLimit();
+    const e = enter(type(d, 'edit JD'));
     expect(e.phase).toBe('reading');
+    expect(e.current).toBe(1);
     expect(e.input).toBe('2800');
-    expect(e.effects).toEqual([]);
+    expect(e.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2, withdraws_line: 3, by: 'JD', reason: expect.stringMatching(/mistyped/) })]);
+    const ok = read({ ...e, input: '' }, '1480');
+    expect(ok.effects.map((x) => x.kind)).toEqual(['reading']);
+    const log = parseLog(logText(h, [...s1.effects, ...overLimit().d.effects, ...e.effects, ...ok.effects]), 'x.jsonl');
+    expect(log.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 1480]);
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    const f = report.findings.find((x) => x.code === 'above-working-limit');
+    expect(f).toBeDefined();
+    expect(f!.severity).toBe('warning');
+  });
+
+  it('resumed after Ctrl-C on the danger screen: the logged reading brings the danger screen back', () => {
+    const { s1, d } = overLimit();
+    const log = parseLog(logText(h, [...s1.effects, ...d.effects]), 'x.jsonl');
+    const r = initialState(setupFromHeader(h), log, NOW);
+    expect(r.phase).toBe('over-limit');
+    expect(r.pending!.done.line).toBe(3);
+    expect(r.done).toHaveLength(1);
+    expect(enter(type(r, 'edit JD')).effects[0]).toMatchObject({ kind: 'withdraw', withdraws_line: 3 });
   });
 
   it('accept INITIALS: the acknowledgement and the reading are logged; no fill is proposed past the limit, the batch stops', () => {
-    const s1 = read(initialState(setupFromHeader(h)), '10.01');
-    const a = enter(type(read(s1, '2800'), 'accept JD'));
-    expect(a.effects.map((e) => e.kind)).toEqual(['acknowledge', 'reading', 'close']);
+    const { logged: d } = overLimit();
+    const a = enter(type(d, 'accept JD'));
+    expect(a.effects.map((e) => e.kind)).toEqual(['acknowledge', 'close']);
     expect(a.effects[0]).toMatchObject({ code: 'above-working-limit', step: 2, by: 'JD' });
     expect(a.phase).toBe('ended');
     expect(a.message).toMatch(/at or above its working limit/);
-    const log = parseLog(logText(h, a.effects), 'x.jsonl');
+    const log = parseLog(logText(h, [...overLimit().d.effects, ...a.effects]), 'x.jsonl');
     expect(log.readings.map((r) => r.step)).toEqual([2]);
   });
 
-  it('vent: the reading is logged with the vent note, the batch stops with the instruction to finish as a top-up', () => {
-    const s1 = read(initialState(setupFromHeader(h)), '10.01');
-    const v = enter(type(read(s1, '2800'), 'vent'));
-    expect(v.effects.map((e) => e.kind)).toEqual(['reading', 'close']);
+  it('vent: the reading is already logged; the batch stops with the instruction to finish as a top-up', () => {
+    const { logged: d } = overLimit();
+    const v = enter(type(d, 'vent'));
+    expect(v.effects.map((e) => e.kind)).toEqual(['close']);
     expect(v.phase).toBe('ended');
     expect(v.message).toMatch(/Vent or pump the tank back to 14\d\d\.\d+ Torr/);
     expect(v.message).toMatch(/top-up/);
