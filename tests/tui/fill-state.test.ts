@@ -264,6 +264,8 @@ describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 ps
     const n = type(c, 'n');
     expect(n.phase).toBe('reading');
     expect(n.effects).toEqual([]);
+    // the wrong value is cleared from the field
+    expect(n.input).toBe('');
     const y = type(c, 'y');
     expect(y.effects.map((e) => e.kind)).toEqual(['reading']);
   });
@@ -384,5 +386,71 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     expect(r.phase).toBe('reading');
     expect(r.start?.read).toBe(true);
     expect(r.targetsPa[0]).toBeCloseTo(s1.targetsPa[0], 3);
+  });
+});
+
+describe('the last fill below its band: the batch stays open for more gas', () => {
+  const h = header();
+  /** fills 1 and 2 on target, logged on lines 2 and 3; the last fill typed `lowBy` bands below its target */
+  function lastLow(events: NewLogEvent[]) {
+    let s = initialState(setupFromHeader(h));
+    s = fillReducer(read(s, (s.targetsPa[0] / TORR).toFixed(4), events), { type: 'logged', step: 1, line: 2 });
+    s = fillReducer(read(s, (s.targetsPa[1] / TORR).toFixed(2), events), { type: 'logged', step: 2, line: 3 });
+    const t = s.targetsPa[2] / TORR;
+    const band = s.setup.steps[2].bandPa / TORR;
+    return { s, t, band };
+  }
+  it('a low last reading is logged, not closed; a lower "more gas" value is refused; the new reading is a correction ("more gas added") and closes; check uses it', async () => {
+    const events: NewLogEvent[] = [];
+    const { s, t, band } = lastLow(events);
+    const low = read(s, (t - 3 * band).toFixed(2), events);
+    expect(low.phase).toBe('below');
+    expect(low.effects.map((e) => e.kind)).toEqual(['reading']);
+    expect(low.message).toMatch(/BELOW the target/);
+    expect(low.message).not.toMatch(/e[+-]\d/);
+    const b = fillReducer(low, { type: 'logged', step: 3, line: 4 });
+    expect(enter(type(b, (t - 2 * band).toFixed(2))).error).toMatch(/initials/);
+    const lower = enter(type(b, `${(t - 4 * band).toFixed(2)} AB`));
+    expect(lower.error).toMatch(/not above the logged reading of fill 3/);
+    expect(lower.effects).toEqual([]);
+    // still below: a correction, the batch stays open
+    const still = read(b, `${(t - 2 * band).toFixed(2)} AB`, events);
+    expect(still.phase).toBe('below');
+    expect(still.effects).toEqual([expect.objectContaining({ kind: 'correction', step: 3, by: 'AB', replaces_line: 4, reason: expect.stringMatching(/more gas added/) })]);
+    const b2 = fillReducer(still, { type: 'logged', step: 3, line: 5 });
+    const ok = read(b2, `${t.toFixed(2)} AB`, events);
+    expect(ok.phase).toBe('done');
+    expect(ok.effects.map((e) => e.kind)).toEqual(['correction', 'close']);
+    expect(ok.effects[0]).toMatchObject({ replaces_line: 5 });
+    const log = parseLog(logText(h, events), 'x.jsonl');
+    expect(log.closed).toBe(true);
+    expect(log.readings[2].pressure_Pa / TORR).toBeCloseTo(Number(t.toFixed(2)), 9);
+    const rep = await checkLog(log, { trials: 0, seed: 1 });
+    expect(rep.verdict.verdict).not.toBe('fail');
+  });
+
+  it('undo AB withdraws the low reading and reads the last fill again; close AB closes the batch below the target (check: FAIL); a resumed open log comes back to the choice', async () => {
+    const events: NewLogEvent[] = [];
+    const { s, t, band } = lastLow(events);
+    const b = fillReducer(read(s, (t - 3 * band).toFixed(2), events), { type: 'logged', step: 3, line: 4 });
+    const u = enter(type(b, 'undo AB'));
+    expect(u.phase).toBe('reading');
+    expect(u.current).toBe(2);
+    expect(u.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 3, withdraws_line: 4, by: 'AB' })]);
+    const resumed = initialState(setupFromHeader(h), parseLog(logText(h, events), 'x.jsonl'), NOW);
+    expect(resumed.phase).toBe('below');
+    expect(resumed.effects).toEqual([]);
+    const c = enter(type(b, 'close AB'));
+    expect(c.phase).toBe('done');
+    expect(c.effects).toEqual([expect.objectContaining({ kind: 'close', note: expect.stringMatching(/below its target band/) })]);
+    const rep = await checkLog(parseLog(logText(h, [...events, ...c.effects]), 'x.jsonl'), { trials: 0, seed: 1 });
+    expect(rep.verdict.verdict).toBe('fail');
+  });
+
+  it('smaller: n on the "check this reading" prompt clears the field; a low reading is refused with both values in the typed unit and says what was typed', () => {
+    const s0 = initialState(setupFromHeader(header()));
+    const s1 = read(s0, '10.0128');
+    const low = read(s1, '1 kPa');
+    expect(low.error).toMatch(/typed "1 kPa": 1\.00000 kPa absolute is not above the previous reading, 1\.33\d+ kPa absolute/);
   });
 });
