@@ -454,3 +454,25 @@ describe('the last fill below its band: the batch stays open for more gas', () =
     expect(low.error).toMatch(/typed "1 kPa": 1\.00000 kPa absolute is not above the previous reading, 1\.33\d+ kPa absolute/);
   });
 });
+
+describe('the re-target message names only what the design has', () => {
+  it('with phi: "keep phi, the dilution and the final pressure"; a design without phi (no fuel-oxidizer pair) is not told about phi', () => {
+    const h = header();
+    const setup = setupFromHeader(h);
+    const s0 = initialState(setup);
+    const withPhi = read(s0, (s0.targetsPa[0] / TORR).toFixed(4));
+    expect(withPhi.message).toMatch(/keep phi, the dilution and the final pressure within tolerance/);
+    const noPhi = initialState({ ...setup, design: { ...setup.design, phi: undefined } });
+    const m = read(noPhi, (noPhi.targetsPa[0] / TORR).toFixed(4)).message!;
+    expect(m).toMatch(/keep the dilution and the final pressure within tolerance/);
+    expect(m).not.toMatch(/phi/);
+  });
+  it('a deviation of about a thousand Torr prints in plain notation (no "1.17e+3")', () => {
+    const s0 = initialState(setupFromHeader(header()));
+    const s1 = read(s0, (s0.targetsPa[0] / TORR).toFixed(4));
+    const dev = 2650 - s1.targetsPa[1] / TORR;
+    const s2 = read(s1, '2650');
+    expect(s2.message).toContain(`fill 2 logged: +${dev.toFixed(0)} Torr from the target`);
+    expect(s2.message).not.toMatch(/\de[+-]\d/);
+  });
+});
