@@ -61,7 +61,8 @@ describe('guided fill state machine', () => {
     expect(low.effects).toEqual([]);
     expect(low.current).toBe(1);
     expect(read(s1, '20000').error).toMatch(/past the range of head-10kT/);
-    const t = setTemperature(s1, '-300 degC');
+    expect(setTemperature(s1, '-300 degC').error).toMatch(/below absolute zero/);
+    const t = setTemperature(s1, '400 degC');
     expect(t.error).toMatch(/outside the allowed range 200-600 K/);
     expect(read(t, '1480').error).toMatch(/outside the allowed range 200-600 K/);
   });
