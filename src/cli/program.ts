@@ -477,10 +477,21 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
   };
 
   /** Ctrl-C in the guided fill: what the log holds and how to go on, then exit 130 */
-  const fillEnded = (r: { interrupted: boolean; logged: number; steps: number } | undefined, logFile: string) => {
-    if (!r?.interrupted) return;
-    err(`mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`);
-    throw new ExitSignal(EXIT.interrupted);
+  const fillEnded = (r: { interrupted: boolean; logged: number; steps: number; verdict?: string; danger?: boolean } | undefined, logFile: string) => {
+    if (!r) return;
+    if (r.interrupted) {
+      err(`mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`);
+      throw new ExitSignal(EXIT.interrupted);
+    }
+    // the outcome as \`check\` of the log reports it: out of tolerance (or ended incomplete) 4, a danger in the record 3
+    if (r.verdict === 'fail') {
+      err(`mixwright: ${logFile}: the re-check of the batch is FAIL (out of tolerance, or stopped before the last fill); see \`mixwright check ${logFile}\`\n`);
+      throw new ExitSignal(EXIT.outOfTolerance);
+    }
+    if (r.danger) {
+      err(`mixwright: ${logFile}: a danger finding stands in the record (e.g. a reading past the working limit): do not use the tank as fit until it is inspected; see \`mixwright check ${logFile}\`\n`);
+      throw new ExitSignal(EXIT.danger);
+    }
   };
 
   withDesignOptions(program.command('fill').description('guided fill at the manifold: one step at a time, each reading logged at once, the rest re-targeted (interactive)'))

@@ -215,7 +215,11 @@ export function retarget(input: RetargetInput): RetargetResult {
   if (limit !== undefined && nowPa >= limit) {
     message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}: no further fill can be made within the limit`;
     if (rest.length === 0) message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}`;
-  } else if (gave.length === 0) message = 'the remaining fills keep phi, the dilution and the final pressure within tolerance';
+  } else if (gave.length === 0) {
+    // name only what the design has: a design without phi is not told about phi
+    const kept = [...(phi !== undefined ? ['phi'] : []), ...(dil.size > 0 ? ['the dilution'] : []), 'the final pressure'];
+    message = `the remaining fills keep ${kept.length > 1 ? `${kept.slice(0, -1).join(', ')} and ${kept[kept.length - 1]}` : kept[0]} within tolerance`;
+  }
   else {
     const parts: string[] = [];
     if (gave.includes('phi')) parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
@@ -224,7 +228,7 @@ export function retarget(input: RetargetInput): RetargetResult {
       parts.push(
         limitBinds
           ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ${fmtP(input.finalPressurePa)})`
-          : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(input.finalPressurePa)}) to keep ${gave.includes('phi') ? 'the dilution' : 'phi and the dilution'}`,
+          : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(input.finalPressurePa)}) to keep ${[...(phi !== undefined && !gave.includes('phi') ? ['phi'] : []), ...(dil.size > 0 ? ['the dilution'] : [])].join(' and ') || 'the composition'}`,
       );
     }
     message = parts.join('; ');

@@ -21,6 +21,8 @@ export interface FillAppProps {
   readonly recheck?: () => Promise<{ report: CheckReport; log: ParsedLog }>;
   /** Ctrl-C: the fill stops (the shell exits 130) */
   readonly onInterrupt?: () => void;
+  /** the end screen's re-check, once it is there (the shell's exit code follows it) */
+  readonly onReport?: (report: CheckReport) => void;
 }
 
 export function toActions(input: string, key: { return?: boolean; tab?: boolean; backspace?: boolean; delete?: boolean; escape?: boolean }, now: string): FillAction[] {
@@ -50,7 +52,7 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
   );
 }
 
-export function FillApp({ initial, write, logFile, now = () => new Date().toISOString(), recheck, onInterrupt }: FillAppProps) {
+export function FillApp({ initial, write, logFile, now = () => new Date().toISOString(), recheck, onInterrupt, onReport }: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const [check, setCheck] = useState<{ report: CheckReport; log: ParsedLog } | { error: string } | undefined>();
   const app = useApp();
@@ -59,13 +61,17 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
     if ((phase !== 'done' && phase !== 'ended') || !recheck) return;
     let live = true;
     recheck().then(
-      (r) => live && setCheck(r),
+      (r) => {
+        if (!live) return;
+        onReport?.(r.report);
+        setCheck(r);
+      },
       (e: unknown) => live && setCheck({ error: (e as Error).message }),
     );
     return () => {
       live = false;
     };
-  }, [phase, recheck]);
+  }, [phase, recheck, onReport]);
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
       onInterrupt?.();
@@ -144,6 +150,8 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
   }
   if (state.phase === 'done' || state.phase === 'ended') {
     const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
+    // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
+    const caveats = check && 'report' in check ? check.report.caveats : [];
     return (
       <Box flexDirection="column">
         <Text bold>
@@ -154,10 +162,20 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
         {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
         {check && 'error' in check ? <Text wrap="wrap">! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`</Text> : null}
-        {check && 'report' in check ? <Text bold>{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}`}</Text> : null}
+        {check && 'report' in check ? <Text bold>{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}${check.report.caveats.length ? ' - BUT SEE BELOW' : ''}`}</Text> : null}
+        {caveats.map((c, i) => (
+          <Text key={i} bold wrap="wrap">
+            ! {c}
+          </Text>
+        ))}
         {label ? (
-          <Box flexDirection="column" borderStyle="single" paddingX={1}>
+          <Box flexDirection="column" borderStyle={caveats.length ? 'double' : 'single'} paddingX={1}>
             <Text bold>Tank label (as filled, from the readings)</Text>
+            {caveats.map((c, i) => (
+              <Text key={`c${i}`} bold wrap="wrap">
+                {c}
+              </Text>
+            ))}
             {label.map((l, i) => (
               <Text key={i} wrap="wrap">
                 {l}
@@ -166,6 +184,41 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
           </Box>
         ) : null}
         <Text>Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.</Text>
+      </Box>
+    );
+  }
+  if (state.phase === 'below') {
+    const ls = state.setup.steps[K - 1];
+    const lu = unitOf(ls);
+    const ld = ls.gauge ? decimalsFor(fromPa(ls.gauge.resolutionPa, lu)) : 3;
+    const t = state.targetsPa[K - 1];
+    const st = shownPa(state, ls, t);
+    return (
+      <Box flexDirection="column">
+        <Text bold>
+          mixwright fill {h.id} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
+        </Text>
+        <Text wrap="wrap">{state.message ?? ' '}</Text>
+        <Box borderStyle="single" paddingX={2} flexDirection="column">
+          <Text bold>
+            STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
+          </Text>
+          <Text>
+            band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
+          </Text>
+        </Box>
+        {state.judgement ? <JudgementView j={state.judgement} /> : null}
+        <Text wrap="wrap">Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw the reading)   close INITIALS (close the batch below the target; the re-check judges it)</Text>
+        <Text>
+          {state.field === 'reading' ? '> ' : '  '}new reading [{lu}] and initials: {state.input}
+          {state.field === 'reading' ? <Text inverse> </Text> : null}
+        </Text>
+        <Text>
+          {state.field === 'temperature' ? '> ' : '  '}tank temperature: {state.temperatureText}
+          {state.field === 'temperature' ? <Text inverse> </Text> : null}
+        </Text>
+        {errorLine}
+        <Text>Enter: log   Tab: temp   Ctrl-C: stop (the batch stays open; resume it)</Text>
       </Box>
     );
   }
@@ -274,11 +327,17 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
           The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit of {h.tank.id} ({absText(o.limitPa)}).
         </Text>
         <Text bold wrap="wrap">Close the cylinder valve and the tank valve now.</Text>
+        <Text wrap="wrap">The reading is logged ({state.pending.done.line !== undefined ? `line ${state.pending.done.line}` : 'as typed'}); what you choose is logged beside it.</Text>
         <Text wrap="wrap">
           Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
         </Text>
+        <Text bold wrap="wrap">
+          {o.within
+            ? 'After venting (venting keeps the composition) the composition is within the tolerance.'
+            : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} outside): venting keeps the composition, it cannot repair it.`}
+        </Text>
         <Text> </Text>
-        <Text wrap="wrap">vent: log the reading; you vent back (the fill stops here; finish as a top-up)   accept INITIALS: keep the tank as it is (logged)   edit: it was mistyped</Text>
+        <Text wrap="wrap">vent: you vent back (the fill stops here; finish as a top-up)   accept INITIALS: keep the tank as it is (logged)   edit INITIALS: it was mistyped (withdrawn, with a trace)</Text>
         {prompt}
         {errorLine}
       </Box>

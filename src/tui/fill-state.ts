@@ -25,6 +25,7 @@ import {
   type RetargetInput,
   type UncertaintyResult,
 } from '../core/index.js';
+import { fixedSig } from '../report/format.js';
 import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
 import { gaugeFromLog, sourceFromLog, type NewLogEvent, type LogHeader, type LogReading, type ParsedLog } from '../io/batch-log.js';
@@ -54,9 +55,10 @@ export interface FillSetup {
  * barometer: today's barometric pressure; start: a top-up's starting pressure, read and logged;
  * correct: a new value for an earlier reading; acknowledge: danger findings of the plan; reminder: the
  * accepted danger of this fill, again; reading: the step; confirm: an implausible reading, asked
- * first; over-limit: a reading past the working limit; ended: stopped before the last fill; done.
+ * first; over-limit: a reading past the working limit (already logged); below: the last fill's reading
+ * (logged) is below its band, more gas may be added; ended: stopped before the last fill; done.
  */
-export type Phase = 'barometer' | 'acknowledge' | 'start' | 'reminder' | 'reading' | 'correct' | 'confirm' | 'over-limit' | 'ended' | 'done';
+export type Phase = 'barometer' | 'acknowledge' | 'start' | 'reminder' | 'reading' | 'correct' | 'confirm' | 'over-limit' | 'below' | 'ended' | 'done';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -116,6 +118,8 @@ export interface Pending {
   readonly typed: string;
   /** why the reading is asked about (confirm) */
   readonly reason?: string;
+  /** already written to the log (a reading past the working limit is logged before the operator chooses) */
+  readonly logged?: boolean;
 }
 
 export interface OverLimit {
@@ -124,6 +128,10 @@ export interface OverLimit {
   readonly ventToPa: number;
   /** what the remaining fills become from there */
   readonly after: string;
+  /** the composition the vented tank leads to (venting keeps it; the remaining fills re-targeted) is within the tolerance */
+  readonly within: boolean;
+  /** the species outside the tolerance there */
+  readonly outside: readonly string[];
 }
 
 export interface FillState {
@@ -214,6 +222,25 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     const r = retargetRun(state, done, T);
     state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
   }
+  const limit = setup.workingLimitPa;
+  const lastRead = log?.readings[log.readings.length - 1];
+  if (lastRead && !log?.closed && limit !== undefined && lastRead.pressure_Pa > limit && !(log?.acknowledgements ?? []).some((a) => a.code === 'above-working-limit' && a.step === lastRead.step)) {
+    // stopped on the danger screen: the reading is in the log, the operator's choice is not; ask again
+    const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
+    const prior = before.done.length ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets : before.targetsPa;
+    const reading = done[done.length - 1];
+    const pending: Pending = { event: lastRead, done: reading, typed: lastRead.reading.replace(/\s+\S+$/, ''), logged: true };
+    return { ...before, targetsPa: prior, phase: 'over-limit', pending, overLimit: overLimitOf(before, reading, limit), message: `resumed: the reading of fill ${reading.step} (${reading.text}, logged) is above the working limit and no choice was logged` };
+  }
+  if (done.length >= setup.steps.length && !log?.closed) {
+    // all read but not closed: a last fill below its band stays open for more gas
+    const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
+    const prior = before.done.length ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets : before.targetsPa;
+    const step = setup.steps[setup.steps.length - 1];
+    const last = done[done.length - 1];
+    const target = prior[setup.steps.length - 1];
+    if (last.pressurePa - target < -step.bandPa) return belowBand({ ...state, targetsPa: prior }, step, target, `resumed: fill ${step.index} logged at ${last.text}`);
+  }
   if (done.length >= setup.steps.length) return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
   return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
 }
@@ -300,10 +327,16 @@ function finalJudgement(s: FillState): { judgement: CompositionJudgement; summar
   return { judgement: { kind: 'final', verdict: deviations.every((d) => d.within) ? 'pass-uncertain' : 'fail', deviations } };
 }
 
-function finish(s: FillState, now?: string): FillState {
+function finish(s: FillState, now?: string, note?: string): FillState {
   const { judgement, summary } = finalJudgement(s);
-  const effects: NewLogEvent[] = now ? [...s.effects, { kind: 'close', time: now }] : [...s.effects];
+  const effects: NewLogEvent[] = now ? [...s.effects, { kind: 'close', time: now, ...(note ? { note } : {}) }] : [...s.effects];
   return { ...s, phase: 'done', effects, summary, judgement };
+}
+
+/** the pressure unit the operator typed (a bare number is in the gauge's unit) */
+function typedUnitOf(text: string, fallback: PressureUnit): PressureUnit {
+  const m = /([A-Za-z][A-Za-z0-9]*)\s*$/.exec(text.trim());
+  return m && isPressureUnit(m[1]) ? m[1] : fallback;
 }
 
 const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
@@ -382,9 +415,12 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
   const deviation = p.done.pressurePa - target;
   const within = Math.abs(deviation) <= step.bandPa;
   const done = [...s.done, p.done];
-  const pressureText = `fill ${step.index} logged: ${fromPa(deviation, unit) >= 0 ? '+' : ''}${fromPa(deviation, unit).toPrecision(3)} ${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
-  let next: FillState = { ...s, done, current: s.current + 1, input: '', field: 'reading', effects: [...extra, p.event], pending: undefined, overLimit: undefined };
-  if (next.current >= s.setup.steps.length) return finish({ ...next, message: pressureText }, now);
+  const pressureText = `fill ${step.index} logged: ${signed(fromPa(deviation, unit))} ${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
+  let next: FillState = { ...s, done, current: s.current + 1, input: '', field: 'reading', effects: [...extra, ...(p.logged ? [] : [p.event])], pending: undefined, overLimit: undefined };
+  if (next.current >= s.setup.steps.length) {
+    if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
+    return finish({ ...next, message: pressureText }, now);
+  }
   const r = retargetRun(s, done, p.done.temperatureK);
   const deviations = deviationsOf(r.result.predicted.composition, s);
   const judgement: CompositionJudgement = { kind: 'predicted', verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course', deviations, phi: r.result.predicted.phi };
@@ -399,11 +435,46 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
 function afterDoubt(s: FillState, p: Pending, now: string): FillState {
   const limit = s.setup.workingLimitPa;
   if (limit !== undefined && p.done.pressurePa > limit) {
-    const done = [...s.done, p.done];
-    const v = ventBack({ ...retargetInput(s, done, p.done.temperatureK), workingLimitPa: limit });
-    return { ...s, phase: 'over-limit', pending: p, input: '', overLimit: { limitPa: limit, ventToPa: v.targetPa, after: v.after.message } };
+    // a reading is a fact about the tank: it is logged now, before the operator chooses (Ctrl-C or a crash on the danger screen keeps it)
+    const unit = gaugeUnit(s.setup.steps[s.current]);
+    const event: LogReading = { ...p.event, note: `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}; logged as typed, before the operator's choice (vent, accept or withdraw as mistyped)` };
+    return { ...s, phase: 'over-limit', pending: { ...p, event, logged: true }, input: '', effects: [event], overLimit: overLimitOf(s, p.done, limit) };
   }
   return commit(s, p, [], now);
+}
+
+/** the vent-back advice for a reading past the limit, and whether the composition from there is within the tolerance */
+function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLimit {
+  const done = [...s.done, reading];
+  const v = ventBack({ ...retargetInput(s, done, reading.temperatureK), workingLimitPa: limit });
+  const deviations = deviationsOf(v.after.predicted.composition, s);
+  const outside = deviations.filter((d) => !d.within).map((d) => d.species);
+  return { limitPa: limit, ventToPa: v.targetPa, after: v.after.message, within: outside.length === 0, outside };
+}
+
+/** a signed number in plain notation, 3 significant figures (never "1.32e+3") */
+function signed(v: number): string {
+  return `${v >= 0 ? '+' : '-'}${fixedSig(Math.abs(v), 3)}`;
+}
+
+/**
+ * The last fill read below its band: the reading is logged, the batch stays open. More gas can be
+ * added (the new reading corrects this step's reading, reason "more gas added"), the reading undone,
+ * or the batch closed as it is.
+ */
+function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText: string): FillState {
+  const unit = gaugeUnit(step);
+  const { judgement, summary } = finalJudgement(s);
+  const last = s.done[s.done.length - 1];
+  return {
+    ...s,
+    phase: 'below',
+    judgement,
+    summary,
+    input: '',
+    field: 'reading',
+    message: `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); the batch is not closed`,
+  };
 }
 
 function onReadingEnter(s: FillState, now: string): FillState {
@@ -415,9 +486,14 @@ function onReadingEnter(s: FillState, now: string): FillState {
   const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
   const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
   if (!(absolute > prev)) {
+    // both values in the unit typed and on the basis of this step's gauge (gauge-referenced: above ambient)
+    const typedUnit = typedUnitOf(s.input, unit);
+    const gaugeRef = step.gauge?.reference === 'gauge';
+    const basis = gaugeRef ? `on ${step.gauge!.id} (above ambient; barometer ${fmtIn(s.barometerPa, typedUnit, 5)})` : 'absolute';
+    const prevShown = gaugeRef ? prev - s.barometerPa : prev;
     return {
       ...s,
-      error: `${fmtIn(absolute, unit)} absolute is not above the previous reading ${fmtIn(prev, unit)}, and a fill only adds gas. Likely: a typing slip or the unit; gas that flowed back into the line (it was below the tank pressure when the valve opened; the tank's composition is unchanged: fill on to the target and log that reading); or the tank cooled (check the temperature). The reading is not logged.`,
+      error: `typed "${s.input.trim()}": ${fmtIn(shown, typedUnit)} ${basis} is not above the previous reading, ${fmtIn(prevShown, typedUnit)} ${basis}, and a fill only adds gas. Likely: a typing slip or the unit; gas that flowed back into the line (it was below the tank pressure when the valve opened; the tank's composition is unchanged: fill on to the target and log that reading); or the tank cooled (check the temperature). The reading is not logged.`,
     };
   }
   if (step.gauge && shown > step.gauge.fullScalePa) {
@@ -438,30 +514,34 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const text = s.input.trim();
-  if (/^edit$/i.test(text)) return { ...s, phase: 'reading', pending: undefined, overLimit: undefined, input: p.typed };
+  const edit = /^edit\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^edit\b/i.test(text) && !edit) return { ...s, error: 'type "edit" and your initials (e.g. edit AB): the reading is withdrawn as mistyped (the log keeps it and the withdrawal), then type the right one' };
+  if (edit) {
+    if (p.done.line === undefined) return { ...s, error: 'the log line of this reading is not known; stop (Ctrl-C) and resume the fill to withdraw it' };
+    const withdraw: NewLogEvent = { kind: 'withdraw', step: step.index, withdraws_line: p.done.line, by: edit[1], time: now, reason: `mistyped: ${p.done.text} (above the working limit) withdrawn at the manifold` };
+    return { ...s, phase: 'reading', pending: undefined, overLimit: undefined, input: p.typed, effects: [withdraw], message: `the reading ${p.done.text} of fill ${step.index} is withdrawn by ${edit[1]} as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading` };
+  }
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
   const last = s.current + 1 >= s.setup.steps.length;
   if (acc) {
     const ack: NewLogEvent = { kind: 'acknowledge', code: 'above-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
-    return commit(s, { ...p, event: { ...p.event, note: `above the working limit; accepted by ${acc[1]}` } }, [ack], now);
+    return commit(s, p, [ack], now);
   }
   if (/^vent$/i.test(text)) {
-    const note = `above the working limit ${fmtIn(o.limitPa, unit)}; the operator vents the tank back to ${fmtIn(o.ventToPa, unit)} absolute`;
-    const event: LogReading = { ...p.event, note };
     const done = [...s.done, p.done];
     const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
     if (last) {
-      const f = finish({ ...base, effects: [event] }, now);
+      const f = finish({ ...base, effects: [] }, now, `fill ${step.index} read above the working limit; the operator vents the tank back to ${fmtIn(o.ventToPa, unit)} absolute`);
       return { ...f, message: `fill ${step.index} logged above the working limit; vent the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the re-check below holds for the vented tank.` };
     }
     return {
       ...base,
       phase: 'ended',
-      effects: [event, { kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} absolute; the readings give its composition; finish the design as a top-up batch` }],
+      effects: [{ kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} absolute; the readings give its composition; finish the design as a top-up batch` }],
       message: `fill ${step.index} logged. Vent or pump the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so this log's readings still give it; finish the design as a top-up batch (in_tank: the composition of \`mixwright check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
     };
   }
-  return { ...s, error: 'type "vent" (you vent or pump back), "accept" and your initials (keep the tank as it is; logged), or "edit" (the reading was mistyped), then Enter' };
+  return { ...s, error: 'the reading is logged. Type "vent" (you vent or pump back), "accept" and your initials (keep the tank as it is; logged), or "edit" and your initials (it was mistyped: the reading is withdrawn, with a trace), then Enter' };
 }
 
 const INITIALS = /^(.*\S)\s+([A-Za-z]{1,6})$/;
@@ -539,13 +619,16 @@ function onCorrectEnter(s: FillState, now: string): FillState {
 }
 
 export function fillReducer(s: FillState, a: FillAction): FillState {
-  if (a.type === 'logged') return { ...s, effects: [], done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)) };
+  if (a.type === 'logged') {
+    const pending = s.pending?.logged && s.pending.done.step === a.step ? { ...s.pending, done: { ...s.pending.done, line: a.line } } : s.pending;
+    return { ...s, effects: [], pending, done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)) };
+  }
   const base = { ...s, effects: [] as NewLogEvent[], error: undefined };
-  const textPhase = (base.phase === 'reading' || base.phase === 'start' || (base.phase === 'correct' && !base.correcting?.pending)) && base.field === 'temperature';
+  const textPhase = (base.phase === 'reading' || base.phase === 'start' || base.phase === 'below' || (base.phase === 'correct' && !base.correcting?.pending)) && base.field === 'temperature';
   if (a.type === 'char') {
     if (base.phase === 'confirm') {
       if (/^[yY]/.test(a.text)) return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
-      if (/^[nNeE]/.test(a.text)) return { ...base, phase: 'reading', pending: undefined };
+      if (/^[nNeE]/.test(a.text)) return { ...base, phase: 'reading', pending: undefined, input: '', message: `${base.pending!.done.text} is not logged; type the reading again` };
       return { ...base, error: 'y: log the reading as typed   n: back to the reading' };
     }
     if (textPhase) return { ...base, temperatureText: base.temperatureText + a.text };
@@ -557,11 +640,13 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
   }
   if (a.type === 'escape') {
     if (base.phase === 'correct') return { ...base, phase: 'reading', correcting: undefined, input: '', temperatureText: degC(base.targetTemperatureK), message: 'correction cancelled; nothing logged' };
-    if (base.phase === 'confirm' || base.phase === 'over-limit') return { ...base, phase: 'reading', input: base.pending?.typed ?? base.input, pending: undefined, overLimit: undefined };
+    // the over-limit reading is already logged: only vent, accept or edit (a withdrawal with a trace) leave the screen
+    if (base.phase === 'over-limit') return { ...base, error: 'the reading is logged; Esc does not take it back. Type vent, accept INITIALS, or edit INITIALS (mistyped: withdrawn with a trace)' };
+    if (base.phase === 'confirm') return { ...base, phase: 'reading', input: base.pending?.typed ?? base.input, pending: undefined, overLimit: undefined };
     return base;
   }
   if (a.type === 'tab') {
-    if (base.phase === 'start' || (base.phase === 'correct' && !base.correcting?.pending)) return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
+    if (base.phase === 'start' || base.phase === 'below' || (base.phase === 'correct' && !base.correcting?.pending)) return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
     if (base.phase !== 'reading') return base;
     if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
     return { ...base, field: 'temperature' };
@@ -610,6 +695,8 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
       return onOverLimitEnter(base, a.now);
     case 'reading':
       return onCommand(base, base.input.trim(), a.now) ?? onReadingEnter(base, a.now);
+    case 'below':
+      return onBelowEnter(base, a.now);
   }
   return base;
 }
@@ -643,4 +730,47 @@ function onStartEnter(s: FillState, now: string): FillState {
   const next: FillState = { ...s, start: { ...s.start!, pressurePa: absolute, temperatureK: parsed.temperatureK, read: true }, input: '', field: 'reading', effects: [ev] };
   const r = retargetRun(next, [], parsed.temperatureK);
   return enterStep({ ...next, targetsPa: r.targets, targetTemperatureK: parsed.temperatureK, message: `starting pressure ${text} logged by ${w.by} (the plan assumed ${fmtIn(planned, unit)} absolute); targets re-computed from it: ${r.message}` });
+}
+
+/**
+ * The last fill read below its band. "VALUE INITIALS": more gas was added, the new reading corrects
+ * this step's reading (reason "more gas added"; the final re-check uses it); "undo INITIALS": the
+ * reading is withdrawn; "close INITIALS": the batch is closed as it is (the re-check judges it).
+ */
+function onBelowEnter(s: FillState, now: string): FillState {
+  const text = s.input.trim();
+  const close = /^close\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^close\b/i.test(text) && !close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  const last = s.done[s.done.length - 1];
+  const step = s.setup.steps[s.done.length - 1];
+  const unit = gaugeUnit(step);
+  if (close) {
+    const f = finish({ ...s, input: '' }, now, `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`);
+    return { ...f, message: `the batch is closed by ${close[1]} with fill ${step.index} below its target; the re-check below judges the tank as it is` };
+  }
+  if (/^fix\b/i.test(text)) return { ...s, error: 'on this screen: type the new reading after adding gas, undo INITIALS, or close INITIALS; undo first to correct an earlier fill' };
+  if (/^undo\b/i.test(text)) return onCommand(s, text, now) ?? s;
+  const w = withInitials(text, 'new reading after adding gas', '1500.2 AB');
+  if ('error' in w) return { ...s, error: `${w.error}; or undo INITIALS, or close INITIALS (closes the batch below the target)` };
+  const parsed = parseReading({ ...s, input: w.value }, step);
+  if ('error' in parsed) return { ...s, error: parsed.error };
+  const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+  if (!(absolute > last.pressurePa)) {
+    return { ...s, error: `typed "${w.value}": ${fmtIn(absolute, unit)} absolute is not above the logged reading of fill ${step.index}, ${fmtIn(last.pressurePa, unit)} absolute; adding gas only raises it. Check the value, or undo INITIALS to withdraw the logged reading` };
+  }
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id} (up to ${fmtIn(step.gauge.fullScalePa, unit)}); read the tank on a gauge that covers it` };
+  if (last.line === undefined) return { ...s, error: 'the log line of the last reading is not known; stop (Ctrl-C) and resume the fill to go on' };
+  const limit = s.setup.workingLimitPa;
+  const over = limit !== undefined && absolute > limit;
+  const ev = readingEvent({ ...s, input: w.value }, step, absolute, parsed.temperatureK, now, over ? `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}` : undefined);
+  const event: NewLogEvent = { ...ev, kind: 'correction', by: w.by, reason: 'more gas added after a reading below the target band', replaces_line: last.line };
+  const done = [...s.done.slice(0, -1), { step: step.index, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading }];
+  const target = s.targetsPa[s.done.length - 1];
+  const deviation = absolute - target;
+  const within = Math.abs(deviation) <= step.bandPa;
+  const pressureText = `fill ${step.index}: more gas added, ${ev.reading} logged by ${w.by} (it replaces ${last.text}; the log keeps both): ${signed(fromPa(deviation, unit))} ${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
+  const next: FillState = { ...s, done, input: '', effects: [event] };
+  if (over) return { ...finish(next, now, `fill ${step.index} read above the working limit after more gas was added`), message: `${pressureText}. DANGER: ${fmtIn(absolute, unit)} absolute is ABOVE the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: close the valves; vent or pump the tank back before it is used, and have it inspected under local practice` };
+  if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
+  return { ...finish(next, now), message: pressureText };
 }

@@ -10,7 +10,7 @@ import { DEFAULTS, wizardInit, type ActionName, type ActOutcome, type WizardStat
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
 import { createLog, openLogForFill, readLog, type NewLogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
-import { checkLog, headerFromPlan } from '../io/check.js';
+import { checkLog, headerFromPlan, type CheckReport } from '../io/check.js';
 
 /** the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default, so the two agree */
 const CHECK_TRIALS = 200000;
@@ -26,6 +26,10 @@ export interface FillOutcome {
   readonly logged: number;
   readonly steps: number;
   readonly logFile: string;
+  /** `check`'s verdict of the closed log (undefined when the fill stopped with the batch open) */
+  readonly verdict?: 'pass' | 'pass-uncertain' | 'fail' | 'no-design';
+  /** a danger finding stands in the record (e.g. an accepted reading past the working limit) */
+  readonly danger: boolean;
 }
 
 export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<FillOutcome> {
@@ -45,10 +49,20 @@ export async function runFill(args: { header: LogHeader; logFile: string; log?: 
       return { report: await checkLog(log, { trials: CHECK_TRIALS, seed: 1 }), log };
     };
     const told = opened.messages.length ? { message: [...opened.messages, initial.message].filter(Boolean).join('; ') } : {};
-    const app = render(<FillApp initial={{ ...initial, ...told, effects: [] }} write={write} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} />, { exitOnCtrlC: false });
+    let report: CheckReport | undefined;
+    const app = render(<FillApp initial={{ ...initial, ...told, effects: [] }} write={write} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} onReport={(r) => (report = r)} />, { exitOnCtrlC: false });
     await app.waitUntilExit();
     app.unmount();
-    return { interrupted, logged: opened.handle.current().readings.length, steps: setup.steps.length, logFile: args.logFile };
+    // the exit code follows `check` of the log: quit before the end screen's re-check came, it is made here
+    if (!interrupted && !report && opened.handle.current().closed) report = (await recheck()).report;
+    return {
+      interrupted,
+      logged: opened.handle.current().readings.length,
+      steps: setup.steps.length,
+      logFile: args.logFile,
+      verdict: report?.verdict.verdict,
+      danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
+    };
   } finally {
     opened.handle.release();
   }

@@ -40,12 +40,17 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       expect(s).toMatch(/2800\.0 Torr absolute, 99\.8 Torr above the working limit of MT-1/);
       expect(s).toMatch(/Vent or pump back by 13\d\d\.\d Torr, to 14\d\d\.\d Torr absolute/);
       const log = join(dir, 'batches', 'over.jsonl');
-      expect(readLog(log).readings).toHaveLength(1);
+      // the reading is a fact about the tank: in the log before the operator chooses
+      expect(readLog(log).readings).toHaveLength(2);
+      expect(s).toMatch(/The reading is logged/);
       await t.type('accept JD');
       await t.keys('Enter');
       await t.waitFor(/STOPPED after fill 2 of 3/);
+      const end = flat(await t.waitFor(/do not label or use/, 30000));
+      expect(end).toMatch(/DANGER:/);
       await t.keys('q');
-      expect(await exitStatus(t)).toBe(0);
+      // stopped before the last fill: the re-check fails (4), as `check` of the log exits
+      expect(await exitStatus(t)).toBe(4);
       const l = readLog(log);
       expect(l.acknowledgements.map((a) => [a.code, a.by])).toEqual([['above-working-limit', 'JD']]);
       expect(l.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 2800].map((x) => expect.closeTo(x, 9)));
@@ -88,6 +93,39 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       const rep = await checkFile(join(dir, 'batches', 'temp.jsonl'), { trials: 0, seed: 1 });
       expect(rep.verdict.verdict).not.toBe('fail');
       expect(rep.readings[2].temperatureK).toBeCloseTo(299.25, 9);
+    } finally {
+      t.close();
+    }
+  }, 60000);
+
+  it('a last fill read below its band keeps the batch open: more gas, the new reading with initials corrects it, then the batch closes (exit 0)', async () => {
+    const { dir, t } = session('low');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch low --dir batches`));
+      let s = await t.waitFor(/fill 1 of 3/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = await t.waitFor(/fill 2 of 3/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = await t.waitFor(/fill 3 of 3/);
+      const t3 = target(s);
+      await t.type((t3 - 5).toFixed(1));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/BELOW THE TARGET/));
+      expect(s).toMatch(/the batch is not closed/);
+      const log = join(dir, 'batches', 'low.jsonl');
+      expect(readLog(log).closed).toBe(false);
+      await t.type(`${t3} AB`);
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/Tank label/, 30000));
+      expect(s).toMatch(/Re-check of the log \(mixwright check\): PASS/);
+      await t.keys('q');
+      expect(await exitStatus(t)).toBe(0);
+      const l = readLog(log);
+      expect(l.closed).toBe(true);
+      expect(l.amendments.map((a) => [a.kind, a.by, a.reason])).toEqual([['correction', 'AB', expect.stringMatching(/more gas added/)]]);
+      expect(l.readings[2].pressure_Pa / TORR).toBeCloseTo(t3, 6);
     } finally {
       t.close();
     }

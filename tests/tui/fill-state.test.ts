@@ -61,9 +61,10 @@ describe('guided fill state machine', () => {
     expect(low.effects).toEqual([]);
     expect(low.current).toBe(1);
     expect(read(s1, '20000').error).toMatch(/past the range of head-10kT/);
-    const t = setTemperature(s1, '-300 degC');
-    expect(t.error).toMatch(/outside the allowed range .*below absolute zero/);
-    expect(read(t, '1480').error).toMatch(/outside the allowed range .*below absolute zero/);
+    expect(setTemperature(s1, '-300 degC').error).toMatch(/below absolute zero/);
+    const t = setTemperature(s1, '400 degC');
+    expect(t.error).toMatch(/outside the allowed range 200-600 K/);
+    expect(read(t, '1480').error).toMatch(/outside the allowed range 200-600 K/);
   });
 
   it('the last reading closes the batch: close effect, a GUM re-check summary and a final verdict on composition', () => {
@@ -141,40 +142,77 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(setupFromHeader(h).workingLimitPa! / TORR).toBeCloseTo(limitTorr, 9);
   });
 
-  it('10.01 then 2800 Torr: a danger screen, nothing logged yet; it says how far to vent and to what reading, below the limit', () => {
+  /** 10.01 then 2800 Torr, the over-limit reading logged on line 3 (line 1 the header, line 2 fill 1) */
+  const overLimit = () => {
     const s1 = read(initialState(setupFromHeader(h)), '10.01');
     const d = read(s1, '2800');
-    expect(d.phase).toBe('over-limit');
-    expect(d.effects).toEqual([]);
+    return { s1, d, logged: fillReducer(d, { type: 'logged', step: 2, line: 3 }) };
+  };
+  it('10.01 then 2800 Torr: the reading is logged at once, then a danger screen; it says how far to vent and to what reading, below the limit', () => {
+    const { d: d0, logged: d } = overLimit();
+    expect(d0.phase).toBe('over-limit');
+    // a reading is a fact about the tank: logged before the operator chooses (Ctrl-C there keeps it)
+    expect(d0.effects.map((e) => e.kind)).toEqual(['reading']);
+    expect(d0.effects[0]).toMatchObject({ step: 2, pressure_Pa: 2800 * TORR, note: expect.stringMatching(/above the working limit/) });
+    expect(d.pending!.done.line).toBe(3);
+    // venting keeps the composition: the CH4 overshoot-free CH4/Ar ratio, O2 restores phi: the screen says whether that is within the tolerance
+    expect(typeof d.overLimit!.within).toBe('boolean');
+    expect(d.overLimit!.within).toBe(d.overLimit!.outside.length === 0);
     expect(d.overLimit!.limitPa / TORR).toBeCloseTo(limitTorr, 6);
     expect(d.overLimit!.ventToPa / TORR).toBeLessThan(limitTorr);
     // venting keeps the CH4/Ar ratio; O2 then restores phi: from about the planned Ar reading (1480 Torr at the CH4 read)
     expect(d.overLimit!.ventToPa / TORR).toBeGreaterThan(1400);
     expect(d.overLimit!.ventToPa / TORR).toBeLessThan(1500);
-    // anything else than vent, accept INITIALS or edit is refused
-    expect(enter(type(d, 'ok')).error).toMatch(/type "vent"/);
-    // edit: back to the reading, the typed text kept, nothing logged
-    const e = enter(type(d, 'edit'));
+    // anything else than vent, accept INITIALS or edit INITIALS is refused; Esc does not drop the logged reading
+    expect(enter(type(d, 'ok')).error).toMatch(/type "vent"/i);
+    expect(enter(type(d, 'edit')).error).toMatch(/"edit" and your initials/);
+    const esc = fillReducer(d, { type: 'escape' });
+    expect(esc.phase).toBe('over-limit');
+    expect(esc.error).toMatch(/logged/);
+  });
+
+  it('edit INITIALS (mistyped): a withdrawal with initials and reason, the typed text back; check still reports the over-limit line as withdrawn', async () => {
+    const { s1, logged: d } = overLimit();
+    const e = enter(type(d, 'edit JD'));
     expect(e.phase).toBe('reading');
+    expect(e.current).toBe(1);
     expect(e.input).toBe('2800');
-    expect(e.effects).toEqual([]);
+    expect(e.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2, withdraws_line: 3, by: 'JD', reason: expect.stringMatching(/mistyped/) })]);
+    const ok = read({ ...e, input: '' }, '1480');
+    expect(ok.effects.map((x) => x.kind)).toEqual(['reading']);
+    const log = parseLog(logText(h, [...s1.effects, ...overLimit().d.effects, ...e.effects, ...ok.effects]), 'x.jsonl');
+    expect(log.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 1480]);
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    const f = report.findings.find((x) => x.code === 'above-working-limit');
+    expect(f).toBeDefined();
+    expect(f!.severity).toBe('warning');
+  });
+
+  it('resumed after Ctrl-C on the danger screen: the logged reading brings the danger screen back', () => {
+    const { s1, d } = overLimit();
+    const log = parseLog(logText(h, [...s1.effects, ...d.effects]), 'x.jsonl');
+    const r = initialState(setupFromHeader(h), log, NOW);
+    expect(r.phase).toBe('over-limit');
+    expect(r.pending!.done.line).toBe(3);
+    expect(r.done).toHaveLength(1);
+    expect(enter(type(r, 'edit JD')).effects[0]).toMatchObject({ kind: 'withdraw', withdraws_line: 3 });
   });
 
   it('accept INITIALS: the acknowledgement and the reading are logged; no fill is proposed past the limit, the batch stops', () => {
-    const s1 = read(initialState(setupFromHeader(h)), '10.01');
-    const a = enter(type(read(s1, '2800'), 'accept JD'));
-    expect(a.effects.map((e) => e.kind)).toEqual(['acknowledge', 'reading', 'close']);
+    const { logged: d } = overLimit();
+    const a = enter(type(d, 'accept JD'));
+    expect(a.effects.map((e) => e.kind)).toEqual(['acknowledge', 'close']);
     expect(a.effects[0]).toMatchObject({ code: 'above-working-limit', step: 2, by: 'JD' });
     expect(a.phase).toBe('ended');
     expect(a.message).toMatch(/at or above its working limit/);
-    const log = parseLog(logText(h, a.effects), 'x.jsonl');
+    const log = parseLog(logText(h, [...overLimit().d.effects, ...a.effects]), 'x.jsonl');
     expect(log.readings.map((r) => r.step)).toEqual([2]);
   });
 
-  it('vent: the reading is logged with the vent note, the batch stops with the instruction to finish as a top-up', () => {
-    const s1 = read(initialState(setupFromHeader(h)), '10.01');
-    const v = enter(type(read(s1, '2800'), 'vent'));
-    expect(v.effects.map((e) => e.kind)).toEqual(['reading', 'close']);
+  it('vent: the reading is already logged; the batch stops with the instruction to finish as a top-up', () => {
+    const { logged: d } = overLimit();
+    const v = enter(type(d, 'vent'));
+    expect(v.effects.map((e) => e.kind)).toEqual(['close']);
     expect(v.phase).toBe('ended');
     expect(v.message).toMatch(/Vent or pump the tank back to 14\d\d\.\d+ Torr/);
     expect(v.message).toMatch(/top-up/);
@@ -227,6 +265,8 @@ describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 ps
     const n = type(c, 'n');
     expect(n.phase).toBe('reading');
     expect(n.effects).toEqual([]);
+    // the wrong value is cleared from the field
+    expect(n.input).toBe('');
     const y = type(c, 'y');
     expect(y.effects.map((e) => e.kind)).toEqual(['reading']);
   });
@@ -347,5 +387,93 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     expect(r.phase).toBe('reading');
     expect(r.start?.read).toBe(true);
     expect(r.targetsPa[0]).toBeCloseTo(s1.targetsPa[0], 3);
+  });
+});
+
+describe('the last fill below its band: the batch stays open for more gas', () => {
+  const h = header();
+  /** fills 1 and 2 on target, logged on lines 2 and 3; the last fill typed `lowBy` bands below its target */
+  function lastLow(events: NewLogEvent[]) {
+    let s = initialState(setupFromHeader(h));
+    s = fillReducer(read(s, (s.targetsPa[0] / TORR).toFixed(4), events), { type: 'logged', step: 1, line: 2 });
+    s = fillReducer(read(s, (s.targetsPa[1] / TORR).toFixed(2), events), { type: 'logged', step: 2, line: 3 });
+    const t = s.targetsPa[2] / TORR;
+    const band = s.setup.steps[2].bandPa / TORR;
+    return { s, t, band };
+  }
+  it('a low last reading is logged, not closed; a lower "more gas" value is refused; the new reading is a correction ("more gas added") and closes; check uses it', async () => {
+    const events: NewLogEvent[] = [];
+    const { s, t, band } = lastLow(events);
+    const low = read(s, (t - 3 * band).toFixed(2), events);
+    expect(low.phase).toBe('below');
+    expect(low.effects.map((e) => e.kind)).toEqual(['reading']);
+    expect(low.message).toMatch(/BELOW the target/);
+    expect(low.message).not.toMatch(/e[+-]\d/);
+    const b = fillReducer(low, { type: 'logged', step: 3, line: 4 });
+    expect(enter(type(b, (t - 2 * band).toFixed(2))).error).toMatch(/initials/);
+    const lower = enter(type(b, `${(t - 4 * band).toFixed(2)} AB`));
+    expect(lower.error).toMatch(/not above the logged reading of fill 3/);
+    expect(lower.effects).toEqual([]);
+    // still below: a correction, the batch stays open
+    const still = read(b, `${(t - 2 * band).toFixed(2)} AB`, events);
+    expect(still.phase).toBe('below');
+    expect(still.effects).toEqual([expect.objectContaining({ kind: 'correction', step: 3, by: 'AB', replaces_line: 4, reason: expect.stringMatching(/more gas added/) })]);
+    const b2 = fillReducer(still, { type: 'logged', step: 3, line: 5 });
+    const ok = read(b2, `${t.toFixed(2)} AB`, events);
+    expect(ok.phase).toBe('done');
+    expect(ok.effects.map((e) => e.kind)).toEqual(['correction', 'close']);
+    expect(ok.effects[0]).toMatchObject({ replaces_line: 5 });
+    const log = parseLog(logText(h, events), 'x.jsonl');
+    expect(log.closed).toBe(true);
+    expect(log.readings[2].pressure_Pa / TORR).toBeCloseTo(Number(t.toFixed(2)), 9);
+    const rep = await checkLog(log, { trials: 0, seed: 1 });
+    expect(rep.verdict.verdict).not.toBe('fail');
+  });
+
+  it('undo AB withdraws the low reading and reads the last fill again; close AB closes the batch below the target (check: FAIL); a resumed open log comes back to the choice', async () => {
+    const events: NewLogEvent[] = [];
+    const { s, t, band } = lastLow(events);
+    const b = fillReducer(read(s, (t - 3 * band).toFixed(2), events), { type: 'logged', step: 3, line: 4 });
+    const u = enter(type(b, 'undo AB'));
+    expect(u.phase).toBe('reading');
+    expect(u.current).toBe(2);
+    expect(u.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 3, withdraws_line: 4, by: 'AB' })]);
+    const resumed = initialState(setupFromHeader(h), parseLog(logText(h, events), 'x.jsonl'), NOW);
+    expect(resumed.phase).toBe('below');
+    expect(resumed.effects).toEqual([]);
+    const c = enter(type(b, 'close AB'));
+    expect(c.phase).toBe('done');
+    expect(c.effects).toEqual([expect.objectContaining({ kind: 'close', note: expect.stringMatching(/below its target band/) })]);
+    const rep = await checkLog(parseLog(logText(h, [...events, ...c.effects]), 'x.jsonl'), { trials: 0, seed: 1 });
+    expect(rep.verdict.verdict).toBe('fail');
+  });
+
+  it('smaller: n on the "check this reading" prompt clears the field; a low reading is refused with both values in the typed unit and says what was typed', () => {
+    const s0 = initialState(setupFromHeader(header()));
+    const s1 = read(s0, '10.0128');
+    const low = read(s1, '1 kPa');
+    expect(low.error).toMatch(/typed "1 kPa": 1\.00000 kPa absolute is not above the previous reading, 1\.33\d+ kPa absolute/);
+  });
+});
+
+describe('the re-target message names only what the design has', () => {
+  it('with phi: "keep phi, the dilution and the final pressure"; a design without phi (no fuel-oxidizer pair) is not told about phi', () => {
+    const h = header();
+    const setup = setupFromHeader(h);
+    const s0 = initialState(setup);
+    const withPhi = read(s0, (s0.targetsPa[0] / TORR).toFixed(4));
+    expect(withPhi.message).toMatch(/keep phi, the dilution and the final pressure within tolerance/);
+    const noPhi = initialState({ ...setup, design: { ...setup.design, phi: undefined } });
+    const m = read(noPhi, (noPhi.targetsPa[0] / TORR).toFixed(4)).message!;
+    expect(m).toMatch(/keep the dilution and the final pressure within tolerance/);
+    expect(m).not.toMatch(/phi/);
+  });
+  it('a deviation of about a thousand Torr prints in plain notation (no "1.17e+3")', () => {
+    const s0 = initialState(setupFromHeader(header()));
+    const s1 = read(s0, (s0.targetsPa[0] / TORR).toFixed(4));
+    const dev = 2650 - s1.targetsPa[1] / TORR;
+    const s2 = read(s1, '2650');
+    expect(s2.message).toContain(`fill 2 logged: +${dev.toFixed(0)} Torr from the target`);
+    expect(s2.message).not.toMatch(/\de[+-]\d/);
   });
 });

@@ -71,7 +71,7 @@ describe('fill screen (ink)', () => {
 
 describe('fill screens: danger, end, Ctrl-C (ink)', () => {
   const TORR = 101325 / 760;
-  it('a reading past the working limit shows the danger screen with the vent-back reading; nothing is written until the operator decides', async () => {
+  it('a reading past the working limit is written at once, then the danger screen with the vent-back reading; the choice is written beside it', async () => {
     const written: NewLogEvent[] = [];
     const ui = startDemoFill((e) => written.push(e));
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
@@ -83,10 +83,12 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     expect(f).toMatch(/2800\.0 Torr absolute, 99\.8 Torr above the working limit of MT-1 \(2700\.2 Torr absolute\)/);
     expect(f).toMatch(/Close the cylinder valve and the tank valve now/);
     expect(f).toMatch(/Vent or pump back by 13\d\d\.\d Torr, to 14\d\d\.\d Torr absolute/);
-    expect(written).toHaveLength(1);
+    expect(f).toMatch(/The reading is logged/);
+    expect(f).toMatch(/After venting .*the composition is (NOT )?within the tolerance/);
+    expect(written.map((e) => e.kind)).toEqual(['reading', 'reading']);
     ui.stdin.write('accept JD\r');
     await until(() => !!ui.lastFrame()?.includes('STOPPED after fill 2 of 3'), 'the stop');
-    expect(written.map((e) => e.kind)).toEqual(['reading', 'acknowledge', 'reading', 'close']);
+    expect(written.map((e) => e.kind)).toEqual(['reading', 'reading', 'acknowledge', 'close']);
     ui.unmount();
   });
 
@@ -126,6 +128,40 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     expect(f).toContain(`CH4      ${ch4.toFixed(4).slice(0, 5)}`);
     expect(f).not.toContain('0.6667 %');
     void TORR;
+    ui.unmount();
+  });
+
+  it('an accepted reading past the working limit: the end screen shows check\'s DANGER caveat beside the verdict and in the label box, and hands the report to the shell', async () => {
+    const { mkdtempSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { tmpdir } = await import('node:os');
+    const { createLog, appendEvent, readLog } = await import('../../src/io/batch-log.js');
+    const { checkLog } = await import('../../src/io/check.js');
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
+    const file = join(mkdtempSync(join(tmpdir(), 'mw-danger-')), 'b1.jsonl');
+    createLog(file, h);
+    const recheck = async () => {
+      const log = readLog(file);
+      return { report: await checkLog(log, { trials: 0, seed: 1 }), log };
+    };
+    let caveats: readonly string[] | undefined;
+    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={(e) => appendEvent(file, e)} logFile={file} recheck={recheck} onReport={(r) => (caveats = r.caveats)} />);
+    await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
+    ui.stdin.write('10.01\r');
+    await until(() => !!ui.lastFrame()?.includes('fill 2 of 3'), 'fill 2');
+    ui.stdin.write('2800\r');
+    await until(() => !!ui.lastFrame()?.includes('ABOVE THE WORKING LIMIT'), 'the danger screen');
+    // logged before the choice: the file holds it now
+    expect(readLog(file).readings.map((r) => r.step)).toEqual([1, 2]);
+    ui.stdin.write('accept JD\r');
+    await until(() => caveats !== undefined && !!ui.lastFrame()?.includes('Tank label'), 'the end screen', 15000);
+    const f = ui.lastFrame()!.replace(/\s+/g, ' ');
+    expect(caveats!.some((c) => /^DANGER:/.test(c))).toBe(true);
+    expect(f).toMatch(/BUT SEE BELOW/);
+    // beside the verdict and again inside the label box
+    expect(f.match(/DANGER: a logged reading went past the tank's working limit/g)?.length).toBeGreaterThanOrEqual(2);
+    expect(f).toMatch(/do not label or use this tank as fit/);
     ui.unmount();
   });
 
