@@ -261,7 +261,7 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
     const rho = solveRho(P, T, n, rhoPrev, w, Beff, setup.cbrtC[k], setup.cPairs[k], S, y, start ? start[k] : 0);
     const d = rho - rhoPrev;
     if (!(d > 0)) {
-      return fail({ code: 'schema', reason: `reading ${k + 1} (${P.toPrecision(6)} Pa) is not above the one before it; each fill must raise the tank pressure` });
+      return fail({ code: 'schema', reason: `reading ${k + 1} (${Number(P.toPrecision(6))} Pa) is not above the one before it; each fill must raise the tank pressure` });
     }
     const wid = setup.wId[k];
     const main = setup.main[k];

@@ -152,7 +152,8 @@ export function retarget(input: RetargetInput): RetargetResult {
   };
 
   const limit = input.workingLimitPa;
-  const fmtP = input.formatPressure ?? ((p: number) => `${p.toPrecision(5)} Pa`);
+  // significant digits without an exponent (205050 Pa, not 2.0505e+5 Pa)
+  const fmtP = input.formatPressure ?? ((p: number) => `${Number(p.toPrecision(5))} Pa`);
   const haveComp = compOf(have);
   const nowPa = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
   let limitBinds = false;
@@ -210,7 +211,7 @@ export function retarget(input: RetargetInput): RetargetResult {
   if (phi !== undefined && pred.phi !== undefined && Math.abs(pred.phi / phi - 1) > tol.relative) gave.push('phi');
   if (dil.size > 0 && Math.abs(pred.dilF - xd) > Math.max(tol.relative * xd, tol.absolute)) gave.push('dilution');
   if (Math.abs(pred.P / input.finalPressurePa - 1) > tol.relative) gave.push('pressure');
-  const fmt = (x: number) => x.toPrecision(5);
+  const fmt = (x: number) => String(Number(x.toPrecision(5)));
   let message: string;
   if (limit !== undefined && nowPa >= limit) {
     message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}: no further fill can be made within the limit`;

@@ -267,7 +267,7 @@ export function retargetInput(s: FillState, done: readonly DoneReading[], temper
     volumeM3: h.tank.volume_m3,
     workingLimitPa: s.setup.workingLimitPa,
     initial: s.start,
-    formatPressure: (pa) => `${fromPa(pa, 'Torr').toPrecision(6)} Torr`,
+    formatPressure: (pa) => `${Number(fromPa(pa, 'Torr').toPrecision(6))} Torr`,
   };
 }
 
