@@ -15,8 +15,7 @@ not converge on these states.) Where equilibrate('UV') fails, the same TV solve 
 temperature iteration.
 
 CJ: the minimum-velocity condition on the equilibrium Hugoniot (e.g. W. Fickett &
-W.C. Davis, Detonation, 1979, ch. 2; the procedure of the Caltech shock and detonation
-notes, Browne, Ziegler & Shepherd 2008): for a density ratio r = rho2/rho1 the
+W.C. Davis, Detonation, 1979, ch. 2; Browne, Ziegler & Shepherd 2008): for a density ratio r = rho2/rho1 the
 equilibrium state (T2, rho2) with h2 - h1 = (P2 - P1)(v1 + v2)/2 is found (Cantera
 equilibrate('TV') at each trial T2), the wave speed is w1^2 = (P2 - P1)/(rho1^2 (v1 - v2)),
 and the CJ state is the r that minimises w1 (Brent). Gas-phase only.

@@ -132,7 +132,7 @@ const list: readonly Source[] = [
   {
     key: 'fuel-air-detonability-memory',
     citation:
-      'Detonability limits of fuel-air mixtures from large-diameter tube and detonation cell-size data (e.g. the Caltech detonation database, J.E. Shepherd et al.; Benedick, Knystautas & Lee 1985) (values recalled, not read in a stored copy; wider than the classic small-tube limits)',
+      'Detonability limits of fuel-air mixtures from large-diameter tube and detonation cell-size data (e.g. Benedick, Knystautas & Lee 1985) (values recalled, not read in a stored copy; wider than the classic small-tube limits)',
     quality: 'from-memory',
   },
   {
@@ -154,7 +154,7 @@ const list: readonly Source[] = [
     citation:
       'H.F. Coward, G.W. Jones, Limits of Flammability of Gases and Vapors, US Bureau of Mines Bulletin 503 (1952): p. 19 hydrogen in oxygen (4.65-93.90 % upward in a 2-inch tube open at the firing end; 3.9-95.8 % in closed tubes), p. 44 methane in oxygen (5.15-60.5 %, upward, 2-inch tube)',
     quality: 'experimental-review',
-    detail: 'read as quoted from the Bulletin\'s pages in a stored public transcription (page images of the Caltech Explosion Dynamics Laboratory copy)',
+    detail: 'read as quoted from the Bulletin\'s pages (p. 19, p. 44)',
   },
   {
     key: 'zabetakis-1965',
