@@ -35,6 +35,24 @@ export function toActions(input: string, key: { return?: boolean; tab?: boolean;
 
 const unitOf = (step: FillStep): PressureUnit => (step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr');
 
+/** the two input fields of a reading screen, the focused one marked and with a cursor */
+function ReadingFields({ state, reading, temperature }: { state: FillState; reading: string; temperature: string }) {
+  return (
+    <>
+      <Text>
+        {state.field === 'reading' ? '> ' : '  '}
+        {reading}: {state.input}
+        {state.field === 'reading' ? <Text inverse> </Text> : null}
+      </Text>
+      <Text>
+        {state.field === 'temperature' ? '> ' : '  '}
+        {temperature}: {state.temperatureText}
+        {state.field === 'temperature' ? <Text inverse> </Text> : null}
+      </Text>
+    </>
+  );
+}
+
 function JudgementView({ j }: { j: CompositionJudgement }) {
   const head =
     j.kind === 'final'
@@ -209,14 +227,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         </Box>
         {state.judgement ? <JudgementView j={state.judgement} /> : null}
         <Text wrap="wrap">Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw the reading)   close INITIALS (close the batch below the target; the re-check judges it)</Text>
-        <Text>
-          {state.field === 'reading' ? '> ' : '  '}new reading [{lu}] and initials: {state.input}
-          {state.field === 'reading' ? <Text inverse> </Text> : null}
-        </Text>
-        <Text>
-          {state.field === 'temperature' ? '> ' : '  '}tank temperature: {state.temperatureText}
-          {state.field === 'temperature' ? <Text inverse> </Text> : null}
-        </Text>
+        <ReadingFields state={state} reading={`new reading [${lu}] and initials`} temperature="tank temperature" />
         {errorLine}
         <Text>Enter: log   Tab: temp   Ctrl-C: stop (the batch stays open; resume it)</Text>
       </Box>
@@ -236,14 +247,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
       <Box flexDirection="column">
         <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
         <Text wrap="wrap">The plan assumed {absText(state.start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what you read.</Text>
-        <Text>
-          {state.field === 'reading' ? '> ' : '  '}tank reading [{unit}] and your initials (e.g. 120.4 AB): {state.input}
-          {state.field === 'reading' ? <Text inverse> </Text> : null}
-        </Text>
-        <Text>
-          {state.field === 'temperature' ? '> ' : '  '}tank temperature: {state.temperatureText}
-          {state.field === 'temperature' ? <Text inverse> </Text> : null}
-        </Text>
+        <ReadingFields state={state} reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`} temperature="tank temperature" />
         {errorLine}
         <Text>Enter: log the starting pressure   Tab: temperature   Ctrl-C: stop</Text>
       </Box>
@@ -268,14 +272,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
           </>
         ) : (
           <>
-            <Text>
-              {state.field === 'reading' ? '> ' : '  '}right reading [{unitOf(cs)}]: {state.input}
-              {state.field === 'reading' ? <Text inverse> </Text> : null}
-            </Text>
-            <Text>
-              {state.field === 'temperature' ? '> ' : '  '}tank temperature then: {state.temperatureText}
-              {state.field === 'temperature' ? <Text inverse> </Text> : null}
-            </Text>
+            <ReadingFields state={state} reading={`right reading [${unitOf(cs)}]`} temperature="tank temperature then" />
           </>
         )}
         {errorLine}
@@ -378,14 +375,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
           {Math.abs(target - plan.target_Pa) > 1e-9 * target ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})` : ''}
         </Text>
       </Box>
-      <Text>
-        {state.field === 'reading' ? '> ' : '  '}actual reading [{unit}]: {state.input}
-        {state.field === 'reading' ? <Text inverse> </Text> : null}
-      </Text>
-      <Text>
-        {state.field === 'temperature' ? '> ' : '  '}tank temperature: {state.temperatureText}
-        {state.field === 'temperature' ? <Text inverse> </Text> : null}
-      </Text>
+      <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}
       <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
