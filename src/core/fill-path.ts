@@ -22,7 +22,7 @@
  *    0.2 x the lowest LFL of its fuels, is judged at its ends only (see canBurn);
  *  - 9 evenly spaced points, both ends included;
  *  - thin crossings of the limit envelope: the distance of the path from the envelope
- *    polygon on the N2-equivalent diagram is cheap, so it is computed on a 65-point
+ *    polygon on the N2-equivalent diagram is cheap, so it is computed on a 33-point
  *    grid and each local minimum outside the envelope is refined by golden-section
  *    search; the closest point is then judged. A straight path meets a convex region
  *    in one stretch and its distance has one minimum, so a crossing however thin is
