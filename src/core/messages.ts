@@ -21,6 +21,9 @@ function bytes(n: number): string {
   return n >= 1024 * 1024 ? `${formatNumber(n / (1024 * 1024))} MB` : n >= 1024 ? `${formatNumber(n / 1024)} kB` : `${n} bytes`;
 }
 
+/** a reason as one sentence: a library's own message may already end in a full stop */
+const sentence = (reason: string): string => (/[.!?]$/.test(reason.trim()) ? reason.trim() : `${reason.trim()}.`);
+
 export function describeProblem(p: Problem): string {
   switch (p.code) {
     case 'unknown-species':
@@ -32,9 +35,9 @@ export function describeProblem(p: Problem): string {
     case 'wrong-dimension':
       return `"${p.text}" is a ${p.got}, but a ${p.expected} is needed here`;
     case 'bad-quantity':
-      return `cannot read "${p.text}" as a ${p.expected}: ${p.reason}. Give a number and a unit, e.g. ${exampleFor(p.expected)}`;
+      return `cannot read "${p.text}" as a ${p.expected}: ${sentence(p.reason)} Give a number and a unit, e.g. ${exampleFor(p.expected)}`;
     case 'bad-list':
-      return `cannot read "${p.text}": ${p.reason}. Write species, or species:fraction pairs separated by commas, e.g. CH4:0.8,C2H6:0.2`;
+      return `cannot read "${p.text}": ${sentence(p.reason)} Write species, or species:fraction pairs separated by commas, e.g. CH4:0.8,C2H6:0.2`;
     case 'order-missing':
       return `the fill order leaves out ${list(p.missing)}; name every fill exactly once`;
     case 'order-repeated':

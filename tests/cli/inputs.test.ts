@@ -54,6 +54,12 @@ describe('the output file of sheet', () => {
 });
 
 describe('input people type', () => {
+  it('a misspelled unit is named in one sentence (the unit library\'s own full stop is not doubled)', async () => {
+    const r = await runCli(['plan', RECIPE, '--pressure', '1500 Tor']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('cannot read "1500 Tor" as a pressure: Unit "Tor" not found. Give a number and a unit');
+    expect(r.stderr).not.toContain('..');
+  });
   it('a gauge pressure is converted with --barometer: 15 psig at 750 Torr = 15 psi + 750 Torr absolute (definition of gauge pressure)', async () => {
     const r = await runCli(['plan', RECIPE, '--pressure', '15 psig', '--barometer', '750 Torr', '--json']);
     expect([0, 3]).toContain(r.code);
