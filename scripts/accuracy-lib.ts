@@ -2,7 +2,15 @@
 // mixture equation of state (tests/fixtures/reference/accuracy-grid-coolprop.json), beside
 // the ideal-gas plan's error. Used by scripts/accuracy.ts (prints and writes docs/accuracy-record.json)
 // and by tests/core/accuracy.test.ts (checks the committed record).
-import { R, designMixture, planFill, pureCylinder, virialModel, virialU, type Plan } from '../src/core/index.js';
+import {
+  R,
+  designMixture,
+  planFill,
+  pureCylinder,
+  virialModel,
+  virialU,
+  type Plan,
+} from '../src/core/index.js';
 import crossTable from '../src/core/data/cross-virial-reference.json' with { type: 'json' };
 
 export interface GridCase {
@@ -95,7 +103,11 @@ function pairsNotFromReference(c: GridCase): string[] {
     .map((e) => {
       const why = leftOut[`${e.i}|${e.j}`] ?? leftOut[`${e.j}|${e.i}`];
       const avg = averaged[`${e.i}|${e.j}`] ?? averaged[`${e.j}|${e.i}`];
-      const reason = avg ? 'library model not virial-consistent' : !why ? 'no binary model in the library' : 'unfitted in the library';
+      const reason = avg
+        ? 'library model not virial-consistent'
+        : !why
+          ? 'no binary model in the library'
+          : 'unfitted in the library';
       return `${e.i}-${e.j}: ${reason}`;
     });
 }

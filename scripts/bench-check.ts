@@ -12,21 +12,49 @@ import { headerFromPlan } from '../src/io/check.js';
 import { validateRecipeObject } from '../src/io/load.js';
 
 const recipe = validateRecipeObject(
-  { id: 'bench-4gas', tank: 'MT-2', mixture: { fractions: { CH4: 0.02, O2: 0.04, He: 0.2, Ar: 0.74 } }, pressure: '1500 Torr', temperature: '22 degC' },
+  {
+    id: 'bench-4gas',
+    tank: 'MT-2',
+    mixture: { fractions: { CH4: 0.02, O2: 0.04, He: 0.2, Ar: 0.74 } },
+    pressure: '1500 Torr',
+    temperature: '22 degC',
+  },
   'bench',
   () => ({}),
 );
 const req = buildPlanRequest({ recipe, locate: () => ({}), baseDir: process.cwd(), origin: 'bench' });
 const plan = planFill(req.input);
 const lab = loadLab();
-const readings = plan.steps.map((s) => ({ step: s.index, source: s.source, pressurePa: s.targetPa, temperatureK: plan.temperatureK, gauge: lab.gauges.find((g) => g.id === s.gauge!.id)! }));
+const readings = plan.steps.map((s) => ({
+  step: s.index,
+  source: s.source,
+  pressurePa: s.targetPa,
+  temperatureK: plan.temperatureK,
+  gauge: lab.gauges.find((g) => g.id === s.gauge!.id)!,
+}));
 const mode = process.argv[2];
 if (mode === 'mc') {
   const trials = Number(process.argv[3] ?? 1e6);
   const t0 = performance.now();
-  const r = await evaluateUncertaintyParallel(readings, { barometricPa: 101325, barometricUncertaintyPa: 50, thermometerUncertaintyK: 0.3, thermometerResolutionK: 0.1, trials, seed: 1 });
+  const r = await evaluateUncertaintyParallel(readings, {
+    barometricPa: 101325,
+    barometricUncertaintyPa: 50,
+    thermometerUncertaintyK: 0.3,
+    thermometerResolutionK: 0.1,
+    trials,
+    seed: 1,
+  });
   const ms = performance.now() - t0;
-  console.log(JSON.stringify({ trials, ms, u_CH4: r.composition.CH4.u, mc_u_CH4: r.composition.CH4.mc?.u, heapMB: process.memoryUsage().heapUsed / 1e6, rssMB: process.memoryUsage().rss / 1e6 }));
+  console.log(
+    JSON.stringify({
+      trials,
+      ms,
+      u_CH4: r.composition.CH4.u,
+      mc_u_CH4: r.composition.CH4.mc?.u,
+      heapMB: process.memoryUsage().heapUsed / 1e6,
+      rssMB: process.memoryUsage().rss / 1e6,
+    }),
+  );
 } else if (mode === 'folder') {
   const dir = process.argv[3];
   const n = Number(process.argv[4] ?? 1000);
@@ -36,7 +64,17 @@ if (mode === 'mc') {
     createLog(file, headerFromPlan(plan, req, `bench-${i}`, '2026-12-01T00:00:00Z'));
     for (const s of plan.steps) {
       const p = s.targetPa * (1 + ((i % 7) - 3) * 1e-5);
-      appendEvent(file, { kind: 'reading', step: s.index, source: s.source.id, gauge: s.gauge!.id, reading: `${p} Pa`, pressure_Pa: p, temperature: '22 degC', temperature_K: 295.15, time: 't' });
+      appendEvent(file, {
+        kind: 'reading',
+        step: s.index,
+        source: s.source.id,
+        gauge: s.gauge!.id,
+        reading: `${p} Pa`,
+        pressure_Pa: p,
+        temperature: '22 degC',
+        temperature_K: 295.15,
+        time: 't',
+      });
     }
   }
   console.log(JSON.stringify({ wrote: n, dir }));

@@ -7,9 +7,43 @@ const cases = {
   'node -e 0': ['-e', '0'],
   'mixwright --help': ['dist/mixwright.mjs', '--help'],
   'mixwright plan recipes/ch4-o2-ar-phi1.yaml': ['dist/mixwright.mjs', 'plan', 'recipes/ch4-o2-ar-phi1.yaml'],
-  'mixwright plan --json (inline)': ['dist/mixwright.mjs', 'plan', '--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.85', '--volume', '10 L', '--pressure', '1000 Torr', '--temperature', '298.15 K', '--json'],
-  'mixwright sheet --format md': ['dist/mixwright.mjs', 'sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '--batch', 'bench'],
-  'mixwright check demo log (MC 1e5 trials)': ['dist/mixwright.mjs', 'check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '100000'],
+  'mixwright plan --json (inline)': [
+    'dist/mixwright.mjs',
+    'plan',
+    '--fuel',
+    'CH4',
+    '--oxidizer',
+    'O2',
+    '--phi',
+    '1',
+    '--diluent',
+    'Ar',
+    '--dilution',
+    '0.85',
+    '--volume',
+    '10 L',
+    '--pressure',
+    '1000 Torr',
+    '--temperature',
+    '298.15 K',
+    '--json',
+  ],
+  'mixwright sheet --format md': [
+    'dist/mixwright.mjs',
+    'sheet',
+    'recipes/ch4-o2-ar-phi1.yaml',
+    '--format',
+    'md',
+    '--batch',
+    'bench',
+  ],
+  'mixwright check demo log (MC 1e5 trials)': [
+    'dist/mixwright.mjs',
+    'check',
+    'batches/demo-ch4-phi1-ar98.jsonl',
+    '--trials',
+    '100000',
+  ],
 };
 const times = Object.fromEntries(Object.keys(cases).map((k) => [k, []]));
 for (let i = 0; i < N + 2; i++) {
@@ -29,7 +63,9 @@ const median = (xs) => {
   return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 };
 const base = median(times['node -e 0']);
-console.log(`cold start, median of ${N} runs (NODE_EXTRA_CA_CERTS ${process.env.NODE_EXTRA_CA_CERTS ? 'set' : 'unset'})`);
+console.log(
+  `cold start, median of ${N} runs (NODE_EXTRA_CA_CERTS ${process.env.NODE_EXTRA_CA_CERTS ? 'set' : 'unset'})`,
+);
 for (const [name, xs] of Object.entries(times)) {
   const m = median(xs);
   console.log(`${name.padEnd(48)} ${m.toFixed(1).padStart(8)} ms   ${(m / base).toFixed(2)} x node`);
@@ -50,10 +86,24 @@ for (const [name, args] of Object.entries(cases)) {
   const has = spawnSync('sh', ['-c', 'command -v tmux']).status === 0;
   if (has) {
     const t0 = Date.now();
-    spawnSync('tmux', ['-L', sock, 'new-session', '-d', '-s', 'b', '-x', '80', '-y', '24', `env -u CI ${process.execPath} dist/mixwright.mjs`]);
+    spawnSync('tmux', [
+      '-L',
+      sock,
+      'new-session',
+      '-d',
+      '-s',
+      'b',
+      '-x',
+      '80',
+      '-y',
+      '24',
+      `env -u CI ${process.execPath} dist/mixwright.mjs`,
+    ]);
     let shown = false;
     while (Date.now() - t0 < 10000) {
-      const out = spawnSync('tmux', ['-L', sock, 'capture-pane', '-p', '-t', 'b'], { encoding: 'utf8' }).stdout;
+      const out = spawnSync('tmux', ['-L', sock, 'capture-pane', '-p', '-t', 'b'], {
+        encoding: 'utf8',
+      }).stdout;
       if (out.includes('preview')) {
         shown = true;
         break;
@@ -62,7 +112,9 @@ for (const [name, args] of Object.entries(cases)) {
     }
     const ms = Date.now() - t0;
     spawnSync('tmux', ['-L', sock, 'kill-server']);
-    console.log(`wizard first screen (tmux, cold): ${shown ? `${ms} ms (target < 1000 ms) ${ms < 1000 ? 'OK' : 'OVER TARGET'}` : 'did not appear'}`);
+    console.log(
+      `wizard first screen (tmux, cold): ${shown ? `${ms} ms (target < 1000 ms) ${ms < 1000 ? 'OK' : 'OVER TARGET'}` : 'did not appear'}`,
+    );
   }
 }
 
@@ -70,22 +122,36 @@ for (const [name, args] of Object.entries(cases)) {
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-const mc = JSON.parse(spawnSync(process.execPath, ['dist/bench-check.mjs', 'mc', '1000000'], { encoding: 'utf8' }).stdout);
-console.log(`Monte Carlo re-check, 4-gas batch, ${mc.trials} trials: ${(mc.ms / 1000).toFixed(2)} s (target < 2 s) ${mc.ms < 2000 ? 'OK' : 'OVER TARGET'}; rss ${mc.rssMB.toFixed(0)} MB`);
+const mc = JSON.parse(
+  spawnSync(process.execPath, ['dist/bench-check.mjs', 'mc', '1000000'], { encoding: 'utf8' }).stdout,
+);
+console.log(
+  `Monte Carlo re-check, 4-gas batch, ${mc.trials} trials: ${(mc.ms / 1000).toFixed(2)} s (target < 2 s) ${mc.ms < 2000 ? 'OK' : 'OVER TARGET'}; rss ${mc.rssMB.toFixed(0)} MB`,
+);
 {
-  const eq = JSON.parse(spawnSync(process.execPath, ['dist/bench-check.mjs', 'equilibrium'], { encoding: 'utf8' }).stdout);
-  const f = (x) => `median ${x.median.toFixed(2)} ms, max ${x.max.toFixed(1)} ms, first call (cold) ${x.first.toFixed(1)} ms`;
-  console.log(`closed-vessel equilibrium (UV) per state, 8 states: ${f(eq.uv)} (target: a few ms) ${eq.uv.median < 5 ? 'OK' : 'OVER TARGET'}`);
+  const eq = JSON.parse(
+    spawnSync(process.execPath, ['dist/bench-check.mjs', 'equilibrium'], { encoding: 'utf8' }).stdout,
+  );
+  const f = (x) =>
+    `median ${x.median.toFixed(2)} ms, max ${x.max.toFixed(1)} ms, first call (cold) ${x.first.toFixed(1)} ms`;
+  console.log(
+    `closed-vessel equilibrium (UV) per state, 8 states: ${f(eq.uv)} (target: a few ms) ${eq.uv.median < 5 ? 'OK' : 'OVER TARGET'}`,
+  );
   console.log(`Chapman-Jouguet state per state, 8 states: ${f(eq.cj)}`);
 }
 const dir = mkdtempSync(join(tmpdir(), 'mw-bench-'));
 try {
   spawnSync(process.execPath, ['dist/bench-check.mjs', 'folder', dir, '1000'], { encoding: 'utf8' });
   const t0 = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'check', dir], { encoding: 'utf8', maxBuffer: 1 << 26 });
+  const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'check', dir], {
+    encoding: 'utf8',
+    maxBuffer: 1 << 26,
+  });
   const ms = Number(process.hrtime.bigint() - t0) / 1e6;
   const rows = r.stdout.trim().split('\n').length - 1;
-  console.log(`folder re-check, ${rows} logs (GUM): ${(ms / 1000).toFixed(2)} s cold (target < 5 s) ${ms < 5000 && r.status === 0 ? 'OK' : 'OVER TARGET or failed (exit ' + r.status + ')'}`);
+  console.log(
+    `folder re-check, ${rows} logs (GUM): ${(ms / 1000).toFixed(2)} s cold (target < 5 s) ${ms < 5000 && r.status === 0 ? 'OK' : 'OVER TARGET or failed (exit ' + r.status + ')'}`,
+  );
 } finally {
   rmSync(dir, { recursive: true, force: true });
 }

@@ -5,8 +5,16 @@ import { chmodSync, mkdirSync } from 'node:fs';
 mkdirSync('dist', { recursive: true });
 
 // what every bundle shares: one ESM file for Node 20 that can still require() CommonJS dependencies
-const REQUIRE_BANNER = "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);";
-const base = { bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning', banner: { js: REQUIRE_BANNER } };
+const REQUIRE_BANNER =
+  "import { createRequire as __mwCreateRequire } from 'node:module'; const require = __mwCreateRequire(import.meta.url);";
+const base = {
+  bundle: true,
+  platform: 'node',
+  format: 'esm',
+  target: 'node20',
+  logLevel: 'warning',
+  banner: { js: REQUIRE_BANNER },
+};
 
 // the interactive screens (ink, react) live in their own bundle, loaded only by `fill` and the wizard
 const tuiExternal = {
@@ -39,7 +47,8 @@ const lazyMath = {
   setup(b) {
     b.onResolve({ filter: /mathjs-instance\.js$/ }, () => ({ path: 'lazy-mathjs', namespace: 'lazy' }));
     b.onLoad({ filter: /.*/, namespace: 'lazy' }, () => ({
-      contents: "import { createRequire } from 'node:module'; const req = createRequire(import.meta.url); export function createMath() { return req('./units.cjs').createMath(); }",
+      contents:
+        "import { createRequire } from 'node:module'; const req = createRequire(import.meta.url); export function createMath() { return req('./units.cjs').createMath(); }",
       loader: 'js',
       resolveDir: '.',
     }));

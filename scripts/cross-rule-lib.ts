@@ -5,10 +5,34 @@
 // Used by scripts/accuracy.ts (prints it) and tests/core/virial-rule.test.ts (asserts the coverage).
 import table from '../src/core/data/cross-virial-reference.json' with { type: 'json' };
 import { getSpecies } from '../src/core/index.js';
-import { correlationConstants, crossRuleLowTFactor, pairConstants, sizeDifferenceKij, tsonopoulosB } from '../src/core/virial.js';
+import {
+  correlationConstants,
+  crossRuleLowTFactor,
+  pairConstants,
+  sizeDifferenceKij,
+  tsonopoulosB,
+} from '../src/core/virial.js';
 
-interface Entry { a: string; b: string; B: number[]; B_u?: number[] }
-export interface CalPair { key: string; a: string; b: string; co2: boolean; points: { T: number; ref: number; uRef: number; kSize: number; ca: ReturnType<typeof correlationConstants>; cb: ReturnType<typeof correlationConstants> }[] }
+interface Entry {
+  a: string;
+  b: string;
+  B: number[];
+  B_u?: number[];
+}
+export interface CalPair {
+  key: string;
+  a: string;
+  b: string;
+  co2: boolean;
+  points: {
+    T: number;
+    ref: number;
+    uRef: number;
+    kSize: number;
+    ca: ReturnType<typeof correlationConstants>;
+    cb: ReturnType<typeof correlationConstants>;
+  }[];
+}
 
 /** temperatures of the calibration, K: the record's range */
 export const CAL_T = table.temperatures_K.filter((t) => t >= 250 && t <= 350);
@@ -16,13 +40,22 @@ export const CAL_T = table.temperatures_K.filter((t) => t >= 250 && t <= 350);
 const AVG_ADMIT = { absolute: 3, relative: 0.05 };
 
 export function calibrationPairs(): CalPair[] {
-  const all = [...Object.entries(table.pairs as Record<string, Entry>), ...Object.entries(table.averaged as Record<string, Entry>)];
+  const all = [
+    ...Object.entries(table.pairs as Record<string, Entry>),
+    ...Object.entries(table.averaged as Record<string, Entry>),
+  ];
   const out: CalPair[] = [];
   for (const [key, e] of all) {
     const A = getSpecies(e.a);
     const B = getSpecies(e.b);
     // the rule is calibrated for classical gases; quantum gases and hydrogen-bonding species are outside it
-    if (A.quantum || B.quantum || ['alkanol', 'methanol', 'water'].includes(A.polarClass) || ['alkanol', 'methanol', 'water'].includes(B.polarClass)) continue;
+    if (
+      A.quantum ||
+      B.quantum ||
+      ['alkanol', 'methanol', 'water'].includes(A.polarClass) ||
+      ['alkanol', 'methanol', 'water'].includes(B.polarClass)
+    )
+      continue;
     const points: CalPair['points'] = [];
     let admit = true;
     for (const T of CAL_T) {
@@ -45,7 +78,11 @@ function ruleB(p: CalPair['points'][number], k: number): number {
 /** least-squares extra k_ij (relative deviations) over a set of pairs, by golden-section search in [-0.1, 0.3] */
 function fitK(pairs: readonly CalPair[], base = 0): number {
   if (!pairs.length) return 0;
-  const cost = (k: number) => pairs.reduce((s, q) => s + q.points.reduce((t, p) => t + ((ruleB(p, base + k) - p.ref) / p.ref) ** 2, 0), 0);
+  const cost = (k: number) =>
+    pairs.reduce(
+      (s, q) => s + q.points.reduce((t, p) => t + ((ruleB(p, base + k) - p.ref) / p.ref) ** 2, 0),
+      0,
+    );
   let lo = -0.1;
   let hi = 0.3;
   const g = (Math.sqrt(5) - 1) / 2;
@@ -58,10 +95,19 @@ function fitK(pairs: readonly CalPair[], base = 0): number {
   return (lo + hi) / 2;
 }
 
-export interface RuleFit { general: number; co2: number }
+export interface RuleFit {
+  general: number;
+  co2: number;
+}
 export function fitRule(pairs: readonly CalPair[]): RuleFit {
   const general = fitK(pairs.filter((p) => !p.co2));
-  return { general, co2: fitK(pairs.filter((p) => p.co2), general) };
+  return {
+    general,
+    co2: fitK(
+      pairs.filter((p) => p.co2),
+      general,
+    ),
+  };
 }
 
 /** the worst ratio over temperature of |rule - reference| to sqrt(u_rule^2 + u_ref^2) with u_rule = max(abs, rel |B|) */
@@ -69,7 +115,10 @@ function zOf(q: CalPair, fit: RuleFit, rel: number, absCm3: number): number {
   let z = 0;
   for (const p of q.points) {
     const v = ruleB(p, fit.general + (q.co2 ? fit.co2 : 0));
-    const u = Math.hypot(Math.max(absCm3, rel * crossRuleLowTFactor(Math.sqrt(p.ca.Tc * p.cb.Tc), p.T) * Math.abs(v)), p.uRef);
+    const u = Math.hypot(
+      Math.max(absCm3, rel * crossRuleLowTFactor(Math.sqrt(p.ca.Tc * p.cb.Tc), p.T) * Math.abs(v)),
+      p.uRef,
+    );
     z = Math.max(z, Math.abs(v - p.ref) / u);
   }
   return z;
@@ -114,5 +163,12 @@ export function calibrate(absCm3: number): Calibration {
     looZ[q.key] = zOf(q, f, r, absCm3);
     if (looZ[q.key] > 2) looMissed.push(q.key);
   }
-  return { fit, relative, pairs: pairs.length, looCovered: (pairs.length - looMissed.length) / pairs.length, looMissed, looZ };
+  return {
+    fit,
+    relative,
+    pairs: pairs.length,
+    looCovered: (pairs.length - looMissed.length) / pairs.length,
+    looMissed,
+    looZ,
+  };
 }

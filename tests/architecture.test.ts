@@ -9,7 +9,10 @@ function files(dir: string): string[] {
     return statSync(p).isDirectory() ? files(p) : /\.(ts|tsx)$/.test(n) ? [p] : [];
   });
 }
-const importsOf = (file: string) => [...readFileSync(file, 'utf8').matchAll(/^\s*(?:import|export)[^'"]*from\s+['"]([^'"]+)['"]/gm)].map((m) => m[1]);
+const importsOf = (file: string) =>
+  [...readFileSync(file, 'utf8').matchAll(/^\s*(?:import|export)[^'"]*from\s+['"]([^'"]+)['"]/gm)].map(
+    (m) => m[1],
+  );
 
 describe('architecture', () => {
   it('src/core imports no node:*, process, commander, ink, react, mathjs, yaml or zod, and nothing outside src/core', () => {
@@ -38,7 +41,8 @@ describe('architecture', () => {
 
   it('ink and react are not imported by the non-interactive commands', () => {
     for (const f of ['src/cli', 'src/report', 'src/io'].flatMap(files)) {
-      for (const spec of importsOf(f)) expect(['ink', 'react'].includes(spec), `${f} imports ${spec}`).toBe(false);
+      for (const spec of importsOf(f))
+        expect(['ink', 'react'].includes(spec), `${f} imports ${spec}`).toBe(false);
     }
   });
 });

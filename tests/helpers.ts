@@ -13,7 +13,10 @@ export const TORR = 101325 / 760;
 export const cliRuns = { count: 0 };
 
 /** run the CLI in-process; returns exit code and captured output */
-export async function runCli(argv: string[], isTTY = false): Promise<{ code: number; stdout: string; stderr: string }> {
+export async function runCli(
+  argv: string[],
+  isTTY = false,
+): Promise<{ code: number; stdout: string; stderr: string }> {
   let stdout = '';
   let stderr = '';
   const { run } = createProgram({

@@ -15,10 +15,22 @@ import {
   mixingEstimate,
   contamination,
 } from '../core/index.js';
-import { buildPlanRequest, readRecipe, validateRecipeObject, type Locate, type RecipeSource } from '../io/load.js';
+import {
+  buildPlanRequest,
+  readRecipe,
+  validateRecipeObject,
+  type Locate,
+  type RecipeSource,
+} from '../io/load.js';
 import { recipeSchema, type RecipeFile } from '../io/recipe.js';
 import { labSchema } from '../io/lab.js';
-import { isPressureUnit, parseLength, parseQuantity, PRESSURE_UNITS, type PressureUnit } from '../io/quantity.js';
+import {
+  isPressureUnit,
+  parseLength,
+  parseQuantity,
+  PRESSURE_UNITS,
+  type PressureUnit,
+} from '../io/quantity.js';
 import { readyToJson, readyToText } from '../report/ready-report.js';
 import { planToJson } from '../report/plan-json.js';
 import { planToText } from '../report/plan-text.js';
@@ -33,7 +45,15 @@ import { checkToJson, checkToText, folderSummary } from '../report/check-report.
 import { checkLog } from '../io/check.js';
 import { buildCertificateModel } from '../report/label-certificate.js';
 import { certificateToHtml, certificateToMarkdown, certificateToText } from '../report/label-render.js';
-import { accessSync, constants as fsConstants, lstatSync, mkdirSync, readdirSync, statSync, unlinkSync } from 'node:fs';
+import {
+  accessSync,
+  constants as fsConstants,
+  lstatSync,
+  mkdirSync,
+  readdirSync,
+  statSync,
+  unlinkSync,
+} from 'node:fs';
 import { createLog, readLog } from '../io/batch-log.js';
 import { headerFromPlan } from '../io/check.js';
 import { dirname, extname, join } from 'node:path';
@@ -52,15 +72,45 @@ function checkOutputTarget(path: string, force: boolean): void {
     st = undefined;
   }
   if (st) {
-    if (isDirectory(path)) throw new ProblemError({ code: 'file-unwritable', reason: 'it is a folder; give a file name inside it, e.g. -o FOLDER/fill.html (--force never replaces a folder)' }, where);
-    if (!force) throw new ProblemError({ code: 'file-unwritable', reason: `${st.isSymbolicLink() ? 'a symbolic link of that name' : 'the file'} exists; add --force to replace it, or choose another name` }, where);
+    if (isDirectory(path))
+      throw new ProblemError(
+        {
+          code: 'file-unwritable',
+          reason:
+            'it is a folder; give a file name inside it, e.g. -o FOLDER/fill.html (--force never replaces a folder)',
+        },
+        where,
+      );
+    if (!force)
+      throw new ProblemError(
+        {
+          code: 'file-unwritable',
+          reason:
+            `${st.isSymbolicLink() ? 'a symbolic link of that name' : 'the file'} exists; ` +
+            `add --force to replace it, or choose another name`,
+        },
+        where,
+      );
   }
   const dir = dirname(path);
-  if (!isDirectory(dir)) throw new ProblemError({ code: 'file-unwritable', reason: `the folder ${dir} does not exist; create it first, or choose another place` }, where);
+  if (!isDirectory(dir))
+    throw new ProblemError(
+      {
+        code: 'file-unwritable',
+        reason: `the folder ${dir} does not exist; create it first, or choose another place`,
+      },
+      where,
+    );
   try {
     accessSync(dir, fsConstants.W_OK);
   } catch {
-    throw new ProblemError({ code: 'file-unwritable', reason: `the folder ${dir} is not writable (permission denied); choose another place, or ask for write access` }, where);
+    throw new ProblemError(
+      {
+        code: 'file-unwritable',
+        reason: `the folder ${dir} is not writable (permission denied); choose another place, or ask for write access`,
+      },
+      where,
+    );
   }
 }
 
@@ -73,7 +123,10 @@ function verifyWritten(path: string, bytes: number): void {
   try {
     size = statSync(path).size;
   } catch {
-    throw new ProblemError({ code: 'file-unwritable', reason: 'the file is not there after writing it; nothing was written' }, { file: path });
+    throw new ProblemError(
+      { code: 'file-unwritable', reason: 'the file is not there after writing it; nothing was written' },
+      { file: path },
+    );
   }
   if (size !== bytes) {
     try {
@@ -81,27 +134,59 @@ function verifyWritten(path: string, bytes: number): void {
     } catch {
       // removing it is a courtesy; the refusal below stands either way
     }
-    throw new ProblemError({ code: 'file-unwritable', reason: `only ${size} of ${bytes} bytes reached the disk (is it full?); the incomplete file was removed` }, { file: path });
+    throw new ProblemError(
+      {
+        code: 'file-unwritable',
+        reason: `only ${size} of ${bytes} bytes reached the disk (is it full?); the incomplete file was removed`,
+      },
+      { file: path },
+    );
   }
 }
 
 /** the sheet formats, by file extension */
-const FORMAT_OF_EXTENSION: Readonly<Record<string, string>> = { '.html': 'html', '.htm': 'html', '.md': 'md', '.markdown': 'md', '.txt': 'txt', '.pdf': 'pdf' };
+const FORMAT_OF_EXTENSION: Readonly<Record<string, string>> = {
+  '.html': 'html',
+  '.htm': 'html',
+  '.md': 'md',
+  '.markdown': 'md',
+  '.txt': 'txt',
+  '.pdf': 'pdf',
+};
 
 /** the sheet's format: --format, else from the extension of -o, else html; a known extension that disagrees is refused */
 function sheetFormat(format: string | undefined, output: string | undefined): string {
   const ext = output ? extname(output).toLowerCase() : '';
-  const fromExt = Object.prototype.hasOwnProperty.call(FORMAT_OF_EXTENSION, ext) ? FORMAT_OF_EXTENSION[ext] : undefined;
+  const fromExt = Object.prototype.hasOwnProperty.call(FORMAT_OF_EXTENSION, ext)
+    ? FORMAT_OF_EXTENSION[ext]
+    : undefined;
   const known = Object.keys(FORMAT_OF_EXTENSION).join(', ');
   if (format === undefined) {
     if (!output) return 'html';
     if (fromExt) return fromExt;
-    throw new ProblemError({ code: 'schema', reason: `cannot tell the sheet format from the file name "${output}" (extension ${ext || 'none'}); name the file ${known}, or give --format html|md|txt|pdf` }, { field: '--output' });
+    throw new ProblemError(
+      {
+        code: 'schema',
+        reason:
+          `cannot tell the sheet format from the file name "${output}" (extension ${ext || 'none'}); ` +
+          `name the file ${known}, or give --format html|md|txt|pdf`,
+      },
+      { field: '--output' },
+    );
   }
   // md and txt are both plain text; html and pdf are not interchangeable with anything
   const plain = (f: string) => f === 'md' || f === 'txt';
   if (fromExt && fromExt !== format && !(plain(fromExt) && plain(format))) {
-    throw new ProblemError({ code: 'design-conflict', reason: `--format ${format} would write ${format} into a file named ${ext}; give a file name that ends in the format's extension, or leave --format out to take it from the name` }, { field: '--format' });
+    throw new ProblemError(
+      {
+        code: 'design-conflict',
+        reason:
+          `--format ${format} would write ${format} into a file named ${ext}; give ` +
+          `a file name that ends in the format's extension, or leave --format out to ` +
+          `take it from the name`,
+      },
+      { field: '--format' },
+    );
   }
   return format;
 }
@@ -216,7 +301,17 @@ const OPTION_OF: Record<string, string> = {
 function parseBarometer(text: string): number {
   const pa = parseQuantity(text, 'pressure', { field: '--barometer' });
   if (!(pa >= 30000 && pa <= 110000)) {
-    throw new ProblemError({ code: 'out-of-range', what: 'barometric pressure', value: pa, text, allowed: '300 hPa to 1100 hPa (225 to 825 Torr), absolute: the atmosphere from high mountains to below sea level' }, { field: '--barometer' });
+    throw new ProblemError(
+      {
+        code: 'out-of-range',
+        what: 'barometric pressure',
+        value: pa,
+        text,
+        allowed:
+          '300 hPa to 1100 hPa (225 to 825 Torr), absolute: the atmosphere from high mountains to below sea level',
+      },
+      { field: '--barometer' },
+    );
   }
   return pa;
 }
@@ -227,7 +322,11 @@ function numberOption(text: string, option: string): number {
     throw new ProblemError({ code: 'schema', reason: `"${text}" is not a number` }, { field: option });
   }
   const v = Number(s);
-  if (!Number.isFinite(v)) throw new ProblemError({ code: 'schema', reason: `"${text}" is too large a number to represent; check the exponent` }, { field: option });
+  if (!Number.isFinite(v))
+    throw new ProblemError(
+      { code: 'schema', reason: `"${text}" is too large a number to represent; check the exponent` },
+      { field: option },
+    );
   return v;
 }
 
@@ -245,9 +344,16 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
     cur[keys[keys.length - 1]] = value;
     overridden.add(path);
   };
-  const phiOptions = o.fuel ?? o.oxidizer ?? o.phi ?? o.diluent ?? o.dilution ?? o.diluentRatio ?? o.fuelFraction;
+  const phiOptions =
+    o.fuel ?? o.oxidizer ?? o.phi ?? o.diluent ?? o.dilution ?? o.diluentRatio ?? o.fuelFraction;
   if (o.fractions !== undefined && phiOptions !== undefined) {
-    throw new ProblemError({ code: 'design-conflict', reason: 'give either --fractions, or --fuel/--oxidizer/--phi with one dilution measure, not both' }, { field: '--fractions' });
+    throw new ProblemError(
+      {
+        code: 'design-conflict',
+        reason: 'give either --fractions, or --fuel/--oxidizer/--phi with one dilution measure, not both',
+      },
+      { field: '--fractions' },
+    );
   }
   if (o.fractions !== undefined) {
     r.mixture = {};
@@ -266,22 +372,35 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
     if (o.phi !== undefined) set('mixture.phi', numberOption(o.phi, '--phi'));
     if (o.diluent !== undefined) set('mixture.diluent', o.diluent);
     if (o.dilution !== undefined) set('mixture.dilution', numberOption(o.dilution, '--dilution'));
-    if (o.diluentRatio !== undefined) set('mixture.diluent_ratio', numberOption(o.diluentRatio, '--diluent-ratio'));
-    if (o.fuelFraction !== undefined) set('mixture.fuel_fraction', numberOption(o.fuelFraction, '--fuel-fraction'));
+    if (o.diluentRatio !== undefined)
+      set('mixture.diluent_ratio', numberOption(o.diluentRatio, '--diluent-ratio'));
+    if (o.fuelFraction !== undefined)
+      set('mixture.fuel_fraction', numberOption(o.fuelFraction, '--fuel-fraction'));
   }
   if (o.volume !== undefined) set('volume', o.volume);
   if (o.rating !== undefined) set('rating', o.rating);
-  if (o.workingFraction !== undefined) set('working_fraction', numberOption(o.workingFraction, '--working-fraction'));
+  if (o.workingFraction !== undefined)
+    set('working_fraction', numberOption(o.workingFraction, '--working-fraction'));
   if (o.tank !== undefined) set('tank', o.tank);
   if (o.pressure !== undefined) set('pressure', o.pressure);
   if (o.temperature !== undefined) set('temperature', o.temperature);
-  if (o.order !== undefined) set('order', o.order.split(',').map((s) => s.trim()));
+  if (o.order !== undefined)
+    set(
+      'order',
+      o.order.split(',').map((s) => s.trim()),
+    );
   if (o.tolerance !== undefined) set('tolerance.relative', numberOption(o.tolerance, '--tolerance'));
   if (o.experiments !== undefined) {
     set('experiments.count', numberOption(o.experiments, '--experiments'));
     if (o.pressure === undefined) delete r.pressure; // the count sets the final pressure
   }
-  if (o.pressure !== undefined && o.experiments === undefined && r.experiments && typeof r.experiments === 'object') delete (r.experiments as Record<string, unknown>).count;
+  if (
+    o.pressure !== undefined &&
+    o.experiments === undefined &&
+    r.experiments &&
+    typeof r.experiments === 'object'
+  )
+    delete (r.experiments as Record<string, unknown>).count;
   if (o.reactor !== undefined) set('experiments.reactor', o.reactor);
   if (o.reactorVolume !== undefined) set('experiments.reactor_volume', o.reactorVolume);
   if (o.lineVolume !== undefined) set('experiments.line_volume', o.lineVolume);
@@ -303,25 +422,42 @@ function mergeOptions(base: RecipeSource | undefined, o: PlanOptions): RecipeSou
   if (!base) {
     // say which options are missing, in option names rather than recipe keys
     const missing: string[] = [];
-    if (o.fractions === undefined && (o.fuel === undefined || o.oxidizer === undefined || o.phi === undefined)) missing.push('--fuel, --oxidizer and --phi (or --fractions)');
-    if (o.pressure === undefined && o.experiments === undefined) missing.push('--pressure (or --experiments)');
+    if (
+      o.fractions === undefined &&
+      (o.fuel === undefined || o.oxidizer === undefined || o.phi === undefined)
+    )
+      missing.push('--fuel, --oxidizer and --phi (or --fractions)');
+    if (o.pressure === undefined && o.experiments === undefined)
+      missing.push('--pressure (or --experiments)');
     if (o.temperature === undefined) missing.push('--temperature');
     if (o.volume === undefined && o.tank === undefined) missing.push('--volume or --tank');
     if (missing.length) {
-      throw new ProblemError({ code: 'design-missing', reason: `give a recipe file, or on the command line: ${missing.join('; ')}` }, { field: 'plan' });
+      throw new ProblemError(
+        {
+          code: 'design-missing',
+          reason: `give a recipe file, or on the command line: ${missing.join('; ')}`,
+        },
+        { field: 'plan' },
+      );
     }
   }
   const recipe: RecipeFile = validateRecipeObject(r, base?.origin ?? 'command line', locate);
   return { recipe, locate, baseDir: base?.baseDir ?? process.cwd(), origin: base?.origin ?? 'command line' };
 }
 
-export function createProgram(streams: Streams): { program: Command; run: (argv: readonly string[]) => Promise<number> } {
+export function createProgram(streams: Streams): {
+  program: Command;
+  run: (argv: readonly string[]) => Promise<number>;
+} {
   const out = (s: string) => streams.stdout.write(s);
   const err = (s: string) => streams.stderr.write(s);
   const program = new Command();
   program
     .name('mixwright')
-    .description('Plan, guide and re-check the manometric preparation of reactant gas mixtures.\nRun with no command in a terminal to open the wizard.')
+    .description(
+      'Plan, guide and re-check the manometric preparation of reactant gas mixtures.\nRun ' +
+        'with no command in a terminal to open the wizard.',
+    )
     .version(VERSION, '-V, --version')
     .configureOutput({ writeOut: out, writeErr: err })
     .exitOverride()
@@ -341,20 +477,32 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       .option('--fractions <list>', 'explicit mole fractions, e.g. CH4:0.05,O2:0.10,Ar:0.85')
       .option('--volume <quantity>', 'tank volume, e.g. "30 L"')
       .option('--tank <id>', 'tank from the lab profile')
-      .option('--rating <quantity>', 'maximum allowed working pressure of the tank given by --volume, e.g. "4 bar" or "45 psig"')
+      .option(
+        '--rating <quantity>',
+        'maximum allowed working pressure of the tank given by --volume, e.g. "4 bar" or "45 psig"',
+      )
       .option('--working-fraction <fraction>', 'fraction of --rating used as the working limit (default 1)')
       .option('--pressure <quantity>', 'final pressure, absolute, e.g. "1500 Torr"')
       .option('--temperature <quantity>', 'tank temperature, e.g. "22 degC"')
       .option('--order <list>', 'fill order, e.g. CH4,O2,Ar')
       .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
       .option('--tolerance <fraction>', 'allowed relative deviation of each mole fraction (default 0.005)')
-      .option('--barometer <quantity>', 'barometric pressure now, for gauge-referenced readings and gauge pressures such as "15 psig", e.g. "752.3 Torr"')
+      .option(
+        '--barometer <quantity>',
+        'barometric pressure now, for gauge-referenced readings and gauge pressures ' +
+          'such as "15 psig", e.g. "752.3 Torr"',
+      )
       .option('--experiments <n>', 'size the batch for n experiments (sets the final pressure)')
       .option('--reactor <id>', 'reactor or driven section from the lab profile')
       .option('--reactor-volume <quantity>', 'reactor volume filled per experiment, e.g. "0.9 L"')
       .option('--line-volume <quantity>', 'line volume to the reactor, e.g. "0.05 L"')
       .option('--fill-pressure <quantity>', 'fill pressure of one experiment, e.g. "50 Torr"')
-      .addOption(new Option('--units <unit>', 'pressure unit of the tables (default: the unit of the final pressure, else Torr)').choices([...PRESSURE_UNITS]));
+      .addOption(
+        new Option(
+          '--units <unit>',
+          'pressure unit of the tables (default: the unit of the final pressure, else Torr)',
+        ).choices([...PRESSURE_UNITS]),
+      );
 
   /** recipe and options -> plan, with errors pointed at the file line or option */
   const planFrom = (recipeFile: string | undefined, o: PlanOptions) => {
@@ -367,12 +515,17 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       plan = planFill(req.input);
     } catch (e) {
       // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
-      if (e instanceof ProblemError && e.where.field) throw relocate(e, { ...rs.locate([e.where.field]), field: rs.locate([e.where.field]).field ?? e.where.field });
+      if (e instanceof ProblemError && e.where.field)
+        throw relocate(e, {
+          ...rs.locate([e.where.field]),
+          field: rs.locate([e.where.field]).field ?? e.where.field,
+        });
       throw e;
     }
     // default: the unit the final pressure was given in, when it is one of ours; else Torr
     const given = /[A-Za-z]+$/.exec((req.recipe.pressure ?? '').trim())?.[0] ?? '';
-    const unit: PressureUnit = o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
+    const unit: PressureUnit =
+      o.units && isPressureUnit(o.units) ? o.units : isPressureUnit(given) ? given : 'Torr';
     // a batch too small for one experiment is a warning finding, with the plan's own
     const tooSmall = req.sizing ? batchSizeFinding(req.sizing, plan.final.pressurePa) : undefined;
     if (tooSmall) plan = { ...plan, findings: [...plan.findings, tooSmall] };
@@ -382,12 +535,31 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       labName: req.lab.name,
       orderRecommended: req.orderRecommended,
       version: VERSION,
-      experiments: served && req.sizing ? { count: served.experiments, sizedFor: req.sizedFor, reactor: req.sizing.reactor, perExperimentMol: served.sizing.perExperimentMol, minTankPa: served.sizing.minTankPa, margin: req.sizing.margin } : undefined,      barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined },
+      experiments:
+        served && req.sizing
+          ? {
+              count: served.experiments,
+              sizedFor: req.sizedFor,
+              reactor: req.sizing.reactor,
+              perExperimentMol: served.sizing.perExperimentMol,
+              minTankPa: served.sizing.minTankPa,
+              margin: req.sizing.margin,
+            }
+          : undefined,
+      barometer: {
+        pressurePa: req.input.reading.barometricPa,
+        uncertaintyPa: req.input.reading.barometricUncertaintyPa,
+        given: o.barometer !== undefined,
+      },
     };
     return { plan, req, unit, meta };
   };
 
-  withDesignOptions(program.command('plan').description('fill plan of a mixture: real-gas target readings, gauges, tolerance bands and findings'))
+  withDesignOptions(
+    program
+      .command('plan')
+      .description('fill plan of a mixture: real-gas target readings, gauges, tolerance bands and findings'),
+  )
     .option('--json', 'print one JSON object (SI units in the key names)')
     .action(async (recipeFile: string | undefined, o: PlanOptions) => {
       const { plan, unit, meta } = planFrom(recipeFile, o);
@@ -396,229 +568,544 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
     });
 
-  withDesignOptions(program.command('sheet').description('printable fill checklist: steps with targets and bands, checks, findings, and the fuel/O2/inert diagram'))
-    .addOption(new Option('--format <format>', 'output format (default: from the extension of -o, else html)').choices(['html', 'md', 'txt', 'pdf']))
+  withDesignOptions(
+    program
+      .command('sheet')
+      .description(
+        'printable fill checklist: steps with targets and bands, checks, findings, and the fuel/O2/inert diagram',
+      ),
+  )
+    .addOption(
+      new Option('--format <format>', 'output format (default: from the extension of -o, else html)').choices(
+        ['html', 'md', 'txt', 'pdf'],
+      ),
+    )
     .option('-o, --output <file>', 'write to this file (required for pdf); stdout otherwise')
     .option('--force', 'overwrite an existing output file')
-    .addOption(new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'))
+    .addOption(
+      new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'),
+    )
     .option('--batch <id>', 'batch id printed on the sheet (default: recipe id and date)')
-    .action(async (recipeFile: string | undefined, o: PlanOptions & { format?: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; batch?: string }) => {
-      const format = sheetFormat(o.format, o.output);
-      if (o.output) checkOutputTarget(o.output, Boolean(o.force));
-      const { plan, req, unit } = planFrom(recipeFile, o);
-      const h = req.tankInfo?.heightM;
-      const mixing = h ? mixingEstimate(plan.composition, plan.temperatureK, plan.final.pressurePa, h, Boolean(req.tankInfo?.stirred)) : undefined;
-      const model = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit, batchId: o.batch, version: VERSION, paper: o.paper, mixing, barometer: { pressurePa: req.input.reading.barometricPa, uncertaintyPa: req.input.reading.barometricUncertaintyPa, given: o.barometer !== undefined } });
-      if (format === 'pdf') {
-        if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' }, { field: '--output' });
-        await writePdf(sheetToHtml(model), o.output, Boolean(o.force));
-        out(`wrote ${o.output}\n`);
-      } else {
-        const text = format === 'md' ? sheetToMarkdown(model) : format === 'txt' ? sheetToText(model) : sheetToHtml(model);
-        if (o.output) {
-          writeFileAtomic(o.output, text, Boolean(o.force));
-          verifyWritten(o.output, Buffer.byteLength(text, 'utf8'));
+    .action(
+      async (
+        recipeFile: string | undefined,
+        o: PlanOptions & {
+          format?: string;
+          output?: string;
+          force?: boolean;
+          paper: 'a4' | 'letter';
+          batch?: string;
+        },
+      ) => {
+        const format = sheetFormat(o.format, o.output);
+        if (o.output) checkOutputTarget(o.output, Boolean(o.force));
+        const { plan, req, unit } = planFrom(recipeFile, o);
+        const h = req.tankInfo?.heightM;
+        const mixing = h
+          ? mixingEstimate(
+              plan.composition,
+              plan.temperatureK,
+              plan.final.pressurePa,
+              h,
+              Boolean(req.tankInfo?.stirred),
+            )
+          : undefined;
+        const model = buildSheetModel(plan, {
+          recipe: req.recipe,
+          labName: req.lab.name,
+          orderRecommended: req.orderRecommended,
+          unit,
+          batchId: o.batch,
+          version: VERSION,
+          paper: o.paper,
+          mixing,
+          barometer: {
+            pressurePa: req.input.reading.barometricPa,
+            uncertaintyPa: req.input.reading.barometricUncertaintyPa,
+            given: o.barometer !== undefined,
+          },
+        });
+        if (format === 'pdf') {
+          if (!o.output)
+            throw new ProblemError(
+              { code: 'design-missing', reason: 'a PDF needs a file: give -o fill.pdf' },
+              { field: '--output' },
+            );
+          await writePdf(sheetToHtml(model), o.output, Boolean(o.force));
           out(`wrote ${o.output}\n`);
-        } else out(text);
-      }
-      if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
-    });
+        } else {
+          const text =
+            format === 'md'
+              ? sheetToMarkdown(model)
+              : format === 'txt'
+                ? sheetToText(model)
+                : sheetToHtml(model);
+          if (o.output) {
+            writeFileAtomic(o.output, text, Boolean(o.force));
+            verifyWritten(o.output, Buffer.byteLength(text, 'utf8'));
+            out(`wrote ${o.output}\n`);
+          } else out(text);
+        }
+        if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+      },
+    );
 
-  withDesignOptions(program.command('ready').description('readiness of the filled tank: diffusion mixing time, and contamination from the base vacuum and leak-up over storage'))
+  withDesignOptions(
+    program
+      .command('ready')
+      .description(
+        'readiness of the filled tank: diffusion mixing time, and contamination from ' +
+          'the base vacuum and leak-up over storage',
+      ),
+  )
     .option('--json', 'print one JSON object')
     .option('--stirred', 'the tank is stirred')
     .option('--height <length>', 'inside height of the tank, e.g. "0.8 m" (default: the lab profile)')
-    .option('--leak <rate>', 'leak-up rate measured under vacuum, e.g. "2e-5 Torr/min" (default: the lab profile)')
-    .option('--base-vacuum <pressure>', 'pressure before the first fill, e.g. "1e-4 Torr" (default: the lab profile)')
+    .option(
+      '--leak <rate>',
+      'leak-up rate measured under vacuum, e.g. "2e-5 Torr/min" (default: the lab profile)',
+    )
+    .option(
+      '--base-vacuum <pressure>',
+      'pressure before the first fill, e.g. "1e-4 Torr" (default: the lab profile)',
+    )
     .option('--days <n>', 'storage time for the contamination estimate', '14')
-    .action(async (recipeFile: string | undefined, o: PlanOptions & { stirred?: boolean; height?: string; leak?: string; baseVacuum?: string; days: string }) => {
-      const { plan, req } = planFrom(recipeFile, o);
-      const info = req.tankInfo;
-      const notes: string[] = [];
-      const heightM = o.height !== undefined ? parseLength(o.height, { field: '--height' }) : info?.heightM;
-      if (heightM === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the tank height is not known: give --height or add "height" to the tank in the lab profile' }, { field: '--height' });
-      if (!(heightM > 0)) throw new ProblemError({ code: 'not-positive', what: 'tank height', value: heightM }, { field: '--height' });
-      const leak = o.leak !== undefined ? parseQuantity(o.leak, 'pressure rate', { field: '--leak' }) : info?.leakRatePaPerS;
-      if (leak === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the leak-up rate is not known: measure it and give --leak, or add "leak_rate" to the tank in the lab profile' }, { field: '--leak' });
-      const base = o.baseVacuum !== undefined ? parseQuantity(o.baseVacuum, 'pressure', { field: '--base-vacuum' }) : info?.baseVacuumPa;
-      if (base === undefined) throw new ProblemError({ code: 'design-missing', reason: 'the base vacuum is not known: give --base-vacuum or add "base_vacuum" to the tank in the lab profile' }, { field: '--base-vacuum' });
-      if (o.leak === undefined) notes.push('leak-up rate from the lab profile; measure it before each batch and give --leak');
-      const days = numberOption(o.days, '--days');
-      if (!(days >= 0 && days <= 36500)) throw new ProblemError({ code: 'out-of-range', what: 'days', value: days, text: o.days, allowed: '0 to 36500 (100 years)' }, { field: '--days' });
-      const stirred = Boolean(o.stirred ?? info?.stirred);
-      const y = plan.composition;
-      const report = {
-        id: req.recipe.id,
-        tank: plan.tank.id,
-        heightM,
-        pressurePa: plan.final.pressurePa,
-        temperatureK: plan.temperatureK,
-        mixing: mixingEstimate(y, plan.temperatureK, plan.final.pressurePa, heightM, stirred),
-        contamination: contamination({ composition: y, tankPressurePa: plan.final.pressurePa, baseVacuumPa: base, leakRatePaPerS: leak, days, atmosphericPa: req.input.reading.barometricPa, air: req.lab.air }),
-        days,
-        leakRatePaPerS: leak,
-        baseVacuumPa: base,
-        notes,
-      };
-      out(o.json ? JSON.stringify(readyToJson(report, VERSION), null, 2) + '\n' : readyToText(report));
-    });
+    .action(
+      async (
+        recipeFile: string | undefined,
+        o: PlanOptions & {
+          stirred?: boolean;
+          height?: string;
+          leak?: string;
+          baseVacuum?: string;
+          days: string;
+        },
+      ) => {
+        const { plan, req } = planFrom(recipeFile, o);
+        const info = req.tankInfo;
+        const notes: string[] = [];
+        const heightM = o.height !== undefined ? parseLength(o.height, { field: '--height' }) : info?.heightM;
+        if (heightM === undefined)
+          throw new ProblemError(
+            {
+              code: 'design-missing',
+              reason:
+                'the tank height is not known: give --height or add "height" to the tank in the lab profile',
+            },
+            { field: '--height' },
+          );
+        if (!(heightM > 0))
+          throw new ProblemError(
+            { code: 'not-positive', what: 'tank height', value: heightM },
+            { field: '--height' },
+          );
+        const leak =
+          o.leak !== undefined
+            ? parseQuantity(o.leak, 'pressure rate', { field: '--leak' })
+            : info?.leakRatePaPerS;
+        if (leak === undefined)
+          throw new ProblemError(
+            {
+              code: 'design-missing',
+              reason:
+                'the leak-up rate is not known: measure it and give --leak, or add "leak_rate" ' +
+                'to the tank in the lab profile',
+            },
+            { field: '--leak' },
+          );
+        const base =
+          o.baseVacuum !== undefined
+            ? parseQuantity(o.baseVacuum, 'pressure', { field: '--base-vacuum' })
+            : info?.baseVacuumPa;
+        if (base === undefined)
+          throw new ProblemError(
+            {
+              code: 'design-missing',
+              reason:
+                'the base vacuum is not known: give --base-vacuum or add "base_vacuum" to the tank in the lab profile',
+            },
+            { field: '--base-vacuum' },
+          );
+        if (o.leak === undefined)
+          notes.push('leak-up rate from the lab profile; measure it before each batch and give --leak');
+        const days = numberOption(o.days, '--days');
+        if (!(days >= 0 && days <= 36500))
+          throw new ProblemError(
+            {
+              code: 'out-of-range',
+              what: 'days',
+              value: days,
+              text: o.days,
+              allowed: '0 to 36500 (100 years)',
+            },
+            { field: '--days' },
+          );
+        const stirred = Boolean(o.stirred ?? info?.stirred);
+        const y = plan.composition;
+        const report = {
+          id: req.recipe.id,
+          tank: plan.tank.id,
+          heightM,
+          pressurePa: plan.final.pressurePa,
+          temperatureK: plan.temperatureK,
+          mixing: mixingEstimate(y, plan.temperatureK, plan.final.pressurePa, heightM, stirred),
+          contamination: contamination({
+            composition: y,
+            tankPressurePa: plan.final.pressurePa,
+            baseVacuumPa: base,
+            leakRatePaPerS: leak,
+            days,
+            atmosphericPa: req.input.reading.barometricPa,
+            air: req.lab.air,
+          }),
+          days,
+          leakRatePaPerS: leak,
+          baseVacuumPa: base,
+          notes,
+        };
+        out(o.json ? JSON.stringify(readyToJson(report, VERSION), null, 2) + '\n' : readyToText(report));
+      },
+    );
 
   /**
    * the interactive screens are a separate bundle (dist/tui.mjs) with its own copy of the core, so a
    * refusal thrown there is not an instance of this bundle's ProblemError: carry it over by its shape
    */
-  const fromTui = async <T,>(run: () => Promise<T>): Promise<T> => {
+  const fromTui = async <T>(run: () => Promise<T>): Promise<T> => {
     try {
       return await run();
     } catch (e) {
-      if (!(e instanceof ProblemError) && e instanceof Error && e.name === 'ProblemError' && 'problem' in e && 'where' in e) throw new ProblemError((e as ProblemError).problem, (e as ProblemError).where);
+      if (
+        !(e instanceof ProblemError) &&
+        e instanceof Error &&
+        e.name === 'ProblemError' &&
+        'problem' in e &&
+        'where' in e
+      )
+        throw new ProblemError((e as ProblemError).problem, (e as ProblemError).where);
       throw e;
     }
   };
 
   /** Ctrl-C in the guided fill: what the log holds and how to go on, then exit 130 */
-  const fillEnded = (r: { interrupted: boolean; logged: number; steps: number; verdict?: string; danger?: boolean } | undefined, logFile: string) => {
+  const fillEnded = (
+    r:
+      { interrupted: boolean; logged: number; steps: number; verdict?: string; danger?: boolean } | undefined,
+    logFile: string,
+  ) => {
     if (!r) return;
     if (r.interrupted) {
-      err(`mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`);
+      err(
+        `mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are ` +
+          `logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`,
+      );
       throw new ExitSignal(EXIT.interrupted);
     }
     // the outcome as \`check\` of the log reports it: out of tolerance (or ended incomplete) 4, a danger in the record 3
     if (r.verdict === 'fail') {
-      err(`mixwright: ${logFile}: the re-check of the batch is FAIL (out of tolerance, or stopped before the last fill); see \`mixwright check ${logFile}\`\n`);
+      err(
+        `mixwright: ${logFile}: the re-check of the batch is FAIL (out of tolerance, ` +
+          `or stopped before the last fill); see \`mixwright check ${logFile}\`\n`,
+      );
       throw new ExitSignal(EXIT.outOfTolerance);
     }
     if (r.danger) {
-      err(`mixwright: ${logFile}: a danger finding stands in the record (e.g. a reading past the working limit): do not use the tank as fit until it is inspected; see \`mixwright check ${logFile}\`\n`);
+      err(
+        `mixwright: ${logFile}: a danger finding stands in the record (e.g. a reading ` +
+          `past the working limit): do not use the tank as fit until it is inspected; ` +
+          `see \`mixwright check ${logFile}\`\n`,
+      );
       throw new ExitSignal(EXIT.danger);
     }
   };
 
-  withDesignOptions(program.command('fill').description('guided fill at the manifold: one step at a time, each reading logged at once, the rest re-targeted (interactive)'))
+  withDesignOptions(
+    program
+      .command('fill')
+      .description(
+        'guided fill at the manifold: one step at a time, each reading logged at ' +
+          'once, the rest re-targeted (interactive)',
+      ),
+  )
     .option('--resume <log>', 'continue an interrupted fill from its batch log')
     .option('--batch <id>', 'batch id (default: recipe id and date and time)')
     .option('--dir <folder>', 'folder of the batch logs', 'batches')
-    .action(async (recipeFile: string | undefined, o: PlanOptions & { resume?: string; batch?: string; dir: string }) => {
-      if (!streams.isTTY) {
-        throw new ProblemError({ code: 'design-missing', reason: 'the guided fill needs a terminal (stdin and stdout are not one). Use `mixwright plan` or `mixwright sheet` to prepare, and `mixwright check` on the log or a CSV of the readings' }, { field: 'fill' });
-      }
-      const tui = await import('../tui/run.js');
-      if (o.resume) {
-        if (recipeFile) throw new ProblemError({ code: 'design-conflict', reason: 'a resumed fill takes its design from the log; give --resume LOG alone' }, { field: '--resume' });
-        const log = readLog(o.resume);
-        if (log.closed) throw new ProblemError({ code: 'design-conflict', reason: 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`' }, { file: o.resume });
-        for (const w of log.warnings) err(`mixwright: ${o.resume}: ${w}\n`);
-        const resume = o.resume;
-        fillEnded(await fromTui(() => tui.runFill({ header: log.header, logFile: resume, log })), resume);
-        return;
-      }
-      const { plan, req } = planFrom(recipeFile, o);
-      const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
-      const id = o.batch ?? `${req.recipe.id}-${stamp}`;
-      if (!/^[A-Za-z0-9._-]+$/.test(id)) throw new ProblemError({ code: 'schema', reason: `batch id "${id}" may hold letters, digits, '.', '_' and '-' only` }, { field: '--batch' });
-      mkdirSync(o.dir, { recursive: true });
-      const file = join(o.dir, `${id}.jsonl`);
-      createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
-      fillEnded(await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
-    });
+    .action(
+      async (
+        recipeFile: string | undefined,
+        o: PlanOptions & { resume?: string; batch?: string; dir: string },
+      ) => {
+        if (!streams.isTTY) {
+          throw new ProblemError(
+            {
+              code: 'design-missing',
+              reason:
+                'the guided fill needs a terminal (stdin and stdout are not one). Use `mixwright ' +
+                'plan` or `mixwright sheet` to prepare, and `mixwright check` on the log ' +
+                'or a CSV of the readings',
+            },
+            { field: 'fill' },
+          );
+        }
+        const tui = await import('../tui/run.js');
+        if (o.resume) {
+          if (recipeFile)
+            throw new ProblemError(
+              {
+                code: 'design-conflict',
+                reason: 'a resumed fill takes its design from the log; give --resume LOG alone',
+              },
+              { field: '--resume' },
+            );
+          const log = readLog(o.resume);
+          if (log.closed)
+            throw new ProblemError(
+              {
+                code: 'design-conflict',
+                reason: 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`',
+              },
+              { file: o.resume },
+            );
+          for (const w of log.warnings) err(`mixwright: ${o.resume}: ${w}\n`);
+          const resume = o.resume;
+          fillEnded(await fromTui(() => tui.runFill({ header: log.header, logFile: resume, log })), resume);
+          return;
+        }
+        const { plan, req } = planFrom(recipeFile, o);
+        const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
+        const id = o.batch ?? `${req.recipe.id}-${stamp}`;
+        if (!/^[A-Za-z0-9._-]+$/.test(id))
+          throw new ProblemError(
+            { code: 'schema', reason: `batch id "${id}" may hold letters, digits, '.', '_' and '-' only` },
+            { field: '--batch' },
+          );
+        mkdirSync(o.dir, { recursive: true });
+        const file = join(o.dir, `${id}.jsonl`);
+        createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
+        fillEnded(await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+      },
+    );
 
   program
     .command('check')
-    .description('re-check a batch from its logged fills: composition, phi and dilution with a GUM and Monte Carlo uncertainty budget, against the design')
+    .description(
+      're-check a batch from its logged fills: composition, phi and dilution with ' +
+        'a GUM and Monte Carlo uncertainty budget, against the design',
+    )
     .argument('<log>', 'batch log (.jsonl), CSV readings (species,pressure,temperature), or a folder of them')
-    .option('--recipe <file>', 'the design the CSV readings were filled to (its lab profile, cylinders and tolerance)')
+    .option(
+      '--recipe <file>',
+      'the design the CSV readings were filled to (its lab profile, cylinders and tolerance)',
+    )
     .option('--lab <file>', 'lab profile for CSV readings (gauges, barometer, thermometer)')
     .option('--json', 'print one JSON object')
-    .option('--trials <n>', 'Monte Carlo trials, 100000 to 10000000 (default 200000 for one log; a folder is checked by GUM alone unless given)')
+    .option(
+      '--trials <n>',
+      'Monte Carlo trials, 100000 to 10000000 (default 200000 for one log; a folder ' +
+        'is checked by GUM alone unless given)',
+    )
     .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
-    .option('--barometer <quantity>', 'barometric pressure at the fill, for CSV readings of gauge-referenced sensors and gauge units such as "psig", e.g. "752.3 Torr" (default: the lab profile)')
-    .action(async (target: string, o: { recipe?: string; lab?: string; json?: boolean; trials?: string; seed: string; barometer?: string }) => {
-      const folder = isDirectory(target);
-      const trials = o.trials === undefined ? (folder ? 0 : 200000) : numberOption(o.trials, '--trials');
-      // the trials are kept in memory for the interval: about 1.2 GB at 1e7 (measured), so that is the ceiling
-      if (o.trials !== undefined && !(Number.isInteger(trials) && trials >= 1e5 && trials <= MAX_TRIALS)) {
-        throw new ProblemError(
-          { code: 'out-of-range', what: 'Monte Carlo trials', value: trials, allowed: `a whole number from 100000 (JCGM 101 needs enough trials for a 95 % interval) to ${MAX_TRIALS} (the trials are held in memory, about 1.2 GB at that count)` },
-          { field: '--trials' },
-        );
-      }
-      const seed = numberOption(o.seed, '--seed');
-      const opts = { trials, seed, recipeFile: o.recipe, labFile: o.lab, barometricPa: o.barometer === undefined ? undefined : parseBarometer(o.barometer) };
-      if (folder) {
-        const files = listLogs(target);
-        if (files.length === 0) throw new ProblemError({ code: 'file-unreadable', reason: 'the folder holds no .jsonl or .csv files' }, { file: target });
-        type Row = { file: string; report: CheckReport } | { file: string; error: string };
-        const rows: Row[] = [];
-        for (const f of files) {
-          try {
-            // --barometer is for CSV readings; a log in the folder keeps its own
-            rows.push({ file: f, report: await checkFile(f, /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined }) });
-          } catch (e) {
-            if (e instanceof ProblemError) {
-              rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
-              err(`mixwright: ${describeProblemAt(e.problem, e.where.file ? e.where : { ...e.where, file: f })}\n  (error code: ${e.problem.code})\n`);
-            } else throw e;
+    .option(
+      '--barometer <quantity>',
+      'barometric pressure at the fill, for CSV readings of gauge-referenced sensors ' +
+        'and gauge units such as "psig", e.g. "752.3 Torr" (default: the lab profile)',
+    )
+    .action(
+      async (
+        target: string,
+        o: {
+          recipe?: string;
+          lab?: string;
+          json?: boolean;
+          trials?: string;
+          seed: string;
+          barometer?: string;
+        },
+      ) => {
+        const folder = isDirectory(target);
+        const trials = o.trials === undefined ? (folder ? 0 : 200000) : numberOption(o.trials, '--trials');
+        // the trials are kept in memory for the interval: about 1.2 GB at 1e7 (measured), so that is the ceiling
+        if (o.trials !== undefined && !(Number.isInteger(trials) && trials >= 1e5 && trials <= MAX_TRIALS)) {
+          throw new ProblemError(
+            {
+              code: 'out-of-range',
+              what: 'Monte Carlo trials',
+              value: trials,
+              allowed:
+                `a whole number from 100000 (JCGM 101 needs enough trials for a 95 % interval) ` +
+                `to ${MAX_TRIALS} (the trials are held in memory, about 1.2 GB at that count)`,
+            },
+            { field: '--trials' },
+          );
+        }
+        const seed = numberOption(o.seed, '--seed');
+        const opts = {
+          trials,
+          seed,
+          recipeFile: o.recipe,
+          labFile: o.lab,
+          barometricPa: o.barometer === undefined ? undefined : parseBarometer(o.barometer),
+        };
+        if (folder) {
+          const files = listLogs(target);
+          if (files.length === 0)
+            throw new ProblemError(
+              { code: 'file-unreadable', reason: 'the folder holds no .jsonl or .csv files' },
+              { file: target },
+            );
+          type Row = { file: string; report: CheckReport } | { file: string; error: string };
+          const rows: Row[] = [];
+          for (const f of files) {
+            try {
+              // --barometer is for CSV readings; a log in the folder keeps its own
+              rows.push({
+                file: f,
+                report: await checkFile(f, /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined }),
+              });
+            } catch (e) {
+              if (e instanceof ProblemError) {
+                rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
+                err(
+                  `mixwright: ${describeProblemAt(e.problem, e.where.file ? e.where : { ...e.where, file: f })}\n ` +
+                    ` (error code: ${e.problem.code})\n`,
+                );
+              } else throw e;
+            }
           }
+          if (o.json)
+            out(
+              JSON.stringify(
+                rows.map((r) =>
+                  'report' in r
+                    ? {
+                        file: r.file,
+                        verdict: r.report.verdict.verdict,
+                        check: checkToJson(r.report, VERSION),
+                      }
+                    : r,
+                ),
+                null,
+                2,
+              ) + '\n',
+            );
+          else out(folderSummary(rows));
+          if (rows.some((r) => 'error' in r)) {
+            err(
+              `mixwright: ${rows.filter((r) => 'error' in r).length} of ${rows.length} ` +
+                `files in ${target} could not be checked (above)\n`,
+            );
+            throw new ExitSignal(EXIT.input);
+          }
+          if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail'))
+            throw new ExitSignal(EXIT.outOfTolerance);
+          // a reading past a tank's working limit or a gauge's range stands beside any verdict
+          if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger')))
+            throw new ExitSignal(EXIT.danger);
+          return;
         }
-        if (o.json) out(JSON.stringify(rows.map((r) => ('report' in r ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) } : r)), null, 2) + '\n');
-        else out(folderSummary(rows));
-        if (rows.some((r) => 'error' in r)) {
-          err(`mixwright: ${rows.filter((r) => 'error' in r).length} of ${rows.length} files in ${target} could not be checked (above)\n`);
-          throw new ExitSignal(EXIT.input);
-        }
-        if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail')) throw new ExitSignal(EXIT.outOfTolerance);
-        // a reading past a tank's working limit or a gauge's range stands beside any verdict
-        if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger'))) throw new ExitSignal(EXIT.danger);
-        return;
-      }
-      const report = await checkFile(target, opts);
-      if (o.json) out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
-      else out(checkToText(report));
-      if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
-      if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
-    });
+        const report = await checkFile(target, opts);
+        if (o.json) out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
+        else out(checkToText(report));
+        if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
+        if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
+      },
+    );
 
   program
     .command('label')
-    .description('as-filled tank label and one-page batch certificate from a batch log (the composition and U of `check`, never the design)')
+    .description(
+      'as-filled tank label and one-page batch certificate from a batch log (the ' +
+        'composition and U of `check`, never the design)',
+    )
     .argument('<log>', 'batch log (.jsonl)')
-    .addOption(new Option('--format <format>', 'output format (txt: the label and the certificate as text)').choices(['txt', 'md', 'html', 'pdf']).default('txt'))
+    .addOption(
+      new Option('--format <format>', 'output format (txt: the label and the certificate as text)')
+        .choices(['txt', 'md', 'html', 'pdf'])
+        .default('txt'),
+    )
     .option('-o, --output <file>', 'write to this file (required for pdf); stdout otherwise')
     .option('--force', 'overwrite an existing output file')
-    .addOption(new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'))
+    .addOption(
+      new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'),
+    )
     .option('--trials <n>', 'Monte Carlo trials, 100000 to 10000000 (default 200000, as check)')
     .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
-    .action(async (target: string, o: { format: string; output?: string; force?: boolean; paper: 'a4' | 'letter'; trials?: string; seed: string }) => {
-      if (isDirectory(target) || !/\.jsonl$/i.test(target)) throw new ProblemError({ code: 'file-unreadable', reason: 'a label is made from one batch log (.jsonl) written by `mixwright fill`; re-check CSV readings with `mixwright check`' }, { file: target });
-      const trials = o.trials === undefined ? 200000 : numberOption(o.trials, '--trials');
-      if (o.trials !== undefined && !(Number.isInteger(trials) && trials >= 1e5 && trials <= MAX_TRIALS)) {
-        throw new ProblemError({ code: 'out-of-range', what: 'Monte Carlo trials', value: trials, allowed: `a whole number from 100000 to ${MAX_TRIALS}` }, { field: '--trials' });
-      }
-      const log = readLog(target);
-      // the same computation as `check` of this log, so the label and `check --json` agree
-      const report = await checkLog(log, { trials, seed: numberOption(o.seed, '--seed') });
-      const model = buildCertificateModel(report, log, { version: VERSION, paper: o.paper, generated: new Date().toISOString().slice(0, 16).replace('T', ' ') + ' UTC' });
-      if (o.format === 'pdf') {
-        if (!o.output) throw new ProblemError({ code: 'design-missing', reason: 'a PDF needs a file: give -o label.pdf' }, { field: '--output' });
-        await writePdf(certificateToHtml(model), o.output, Boolean(o.force));
-        out(`wrote ${o.output}\n`);
-      } else {
-        const text = o.format === 'md' ? certificateToMarkdown(model) : o.format === 'html' ? certificateToHtml(model) : certificateToText(model);
-        if (o.output) {
-          writeFileAtomic(o.output, text, Boolean(o.force));
+    .action(
+      async (
+        target: string,
+        o: {
+          format: string;
+          output?: string;
+          force?: boolean;
+          paper: 'a4' | 'letter';
+          trials?: string;
+          seed: string;
+        },
+      ) => {
+        if (isDirectory(target) || !/\.jsonl$/i.test(target))
+          throw new ProblemError(
+            {
+              code: 'file-unreadable',
+              reason:
+                'a label is made from one batch log (.jsonl) written by `mixwright fill`; ' +
+                're-check CSV readings with `mixwright check`',
+            },
+            { file: target },
+          );
+        const trials = o.trials === undefined ? 200000 : numberOption(o.trials, '--trials');
+        if (o.trials !== undefined && !(Number.isInteger(trials) && trials >= 1e5 && trials <= MAX_TRIALS)) {
+          throw new ProblemError(
+            {
+              code: 'out-of-range',
+              what: 'Monte Carlo trials',
+              value: trials,
+              allowed: `a whole number from 100000 to ${MAX_TRIALS}`,
+            },
+            { field: '--trials' },
+          );
+        }
+        const log = readLog(target);
+        // the same computation as `check` of this log, so the label and `check --json` agree
+        const report = await checkLog(log, { trials, seed: numberOption(o.seed, '--seed') });
+        const model = buildCertificateModel(report, log, {
+          version: VERSION,
+          paper: o.paper,
+          generated: new Date().toISOString().slice(0, 16).replace('T', ' ') + ' UTC',
+        });
+        if (o.format === 'pdf') {
+          if (!o.output)
+            throw new ProblemError(
+              { code: 'design-missing', reason: 'a PDF needs a file: give -o label.pdf' },
+              { field: '--output' },
+            );
+          await writePdf(certificateToHtml(model), o.output, Boolean(o.force));
           out(`wrote ${o.output}\n`);
-        } else out(text);
-      }
-      if (model.label.status === 'fail' || model.label.status === 'incomplete') {
-        err(`mixwright: ${target}: the re-check FAILED; the label says so and gives the as-filled composition, not the design\n`);
-        throw new ExitSignal(EXIT.outOfTolerance);
-      }
-      // as `check`: a reading past the tank's working limit or a gauge's range stands whatever the composition
-      if (model.label.danger) {
-        err(`mixwright: ${target}: the log records a danger; the label says the tank is not fit to use\n`);
-        throw new ExitSignal(EXIT.danger);
-      }
-    });
+        } else {
+          const text =
+            o.format === 'md'
+              ? certificateToMarkdown(model)
+              : o.format === 'html'
+                ? certificateToHtml(model)
+                : certificateToText(model);
+          if (o.output) {
+            writeFileAtomic(o.output, text, Boolean(o.force));
+            out(`wrote ${o.output}\n`);
+          } else out(text);
+        }
+        if (model.label.status === 'fail' || model.label.status === 'incomplete') {
+          err(
+            `mixwright: ${target}: the re-check FAILED; the label says so and gives the ` +
+              `as-filled composition, not the design\n`,
+          );
+          throw new ExitSignal(EXIT.outOfTolerance);
+        }
+        // as `check`: a reading past the tank's working limit or a gauge's range stands whatever the composition
+        if (model.label.danger) {
+          err(`mixwright: ${target}: the log records a danger; the label says the tank is not fit to use\n`);
+          throw new ExitSignal(EXIT.danger);
+        }
+      },
+    );
 
   program
     .command('species')
@@ -637,7 +1124,11 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     .action((format: string) => {
       const schemas: Record<string, z.ZodType> = { recipe: recipeSchema, lab: labSchema };
       const s = Object.prototype.hasOwnProperty.call(schemas, format) ? schemas[format] : undefined;
-      if (!s) throw new ProblemError({ code: 'schema', reason: `unknown format "${format}"; choose recipe or lab` }, { field: 'schema' });
+      if (!s)
+        throw new ProblemError(
+          { code: 'schema', reason: `unknown format "${format}"; choose recipe or lab` },
+          { field: 'schema' },
+        );
       out(JSON.stringify(z.toJSONSchema(s, { io: 'input' }), null, 2) + '\n');
     });
 
@@ -650,10 +1141,21 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
 
   program
     .command('wizard')
-    .description('build a mixture design step by step, with the plan and findings updating live (interactive; also what bare `mixwright` opens)')
+    .description(
+      'build a mixture design step by step, with the plan and findings updating ' +
+        'live (interactive; also what bare `mixwright` opens)',
+    )
     .option('--lab <file>', 'lab profile (YAML); the embedded demo lab if absent')
     .action(async (o: { lab?: string }) => {
-      if (!streams.isTTY) throw new ProblemError({ code: 'design-missing', reason: 'the wizard needs a terminal. Use `mixwright plan`, `mixwright sheet` and `mixwright check`' }, { field: 'wizard' });
+      if (!streams.isTTY)
+        throw new ProblemError(
+          {
+            code: 'design-missing',
+            reason:
+              'the wizard needs a terminal. Use `mixwright plan`, `mixwright sheet` and `mixwright check`',
+          },
+          { field: 'wizard' },
+        );
       const tui = await import('../tui/run.js');
       const r = await fromTui(() => tui.runWizard({ version: VERSION, labFile: o.lab }));
       if (r) fillEnded(r, r.logFile);
@@ -663,7 +1165,10 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     let argv = argvIn;
     if (argv.length === 0) {
       if (!streams.isTTY) {
-        err('mixwright: not a terminal, so the wizard cannot open.\nUse `mixwright plan`, `mixwright sheet` and `mixwright check`; `mixwright --help` lists the commands.\n');
+        err(
+          'mixwright: not a terminal, so the wizard cannot open.\nUse `mixwright plan`, ' +
+            '`mixwright sheet` and `mixwright check`; `mixwright --help` lists the commands.\n',
+        );
         return EXIT.input;
       }
       argv = ['wizard'];
@@ -674,7 +1179,8 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
     } catch (e) {
       if (e instanceof ExitSignal) return e.code;
       if (e instanceof CommanderError) {
-        if (e.code === 'commander.helpDisplayed' || e.code === 'commander.version' || e.exitCode === 0) return EXIT.ok;
+        if (e.code === 'commander.helpDisplayed' || e.code === 'commander.version' || e.exitCode === 0)
+          return EXIT.ok;
         return EXIT.input;
       }
       if (e instanceof ProblemError) {
@@ -684,10 +1190,17 @@ export function createProgram(streams: Streams): { program: Command; run: (argv:
       const sys = e as NodeJS.ErrnoException;
       if (typeof sys.code === 'string' && /^E[A-Z]+$/.test(sys.code) && typeof sys.syscall === 'string') {
         // a refusal by the system (full disk, permission, a folder in the way): the file and the cause, no stack
-        err(`mixwright: ${sys.path ?? ''}${sys.path ? ': ' : ''}the system refused to ${sys.syscall} it: ${systemReason(sys.code)} (${sys.code})\n  (error code: file-unwritable)\n`);
+        err(
+          `mixwright: ${sys.path ?? ''}${sys.path ? ': ' : ''}the system refused to ` +
+            `${sys.syscall} it: ${systemReason(sys.code)} (${sys.code})\n  (error code: ` +
+            `file-unwritable)\n`,
+        );
         return EXIT.input;
       }
-      err(`mixwright: internal error: ${(e as Error).message}\n  This is a fault in mixwright, not in your input; please report it with the command you ran.\n`);
+      err(
+        `mixwright: internal error: ${(e as Error).message}\n  This is a fault in ` +
+          `mixwright, not in your input; please report it with the command you ran.\n`,
+      );
       return EXIT.internal;
     }
   };

@@ -18,7 +18,10 @@ import { oxygenBalance, type Fractions } from './composition.js';
  * reaches (a rich state burns the fraction lambda = supply/demand of every fuel);
  * oxygen carriers (N2O, NO) give up their oxygen and nitrogen; inerts pass through.
  */
-export function completeCombustion(y: Fractions): { products: Record<string, number>; burntFraction: number } {
+export function completeCombustion(y: Fractions): {
+  products: Record<string, number>;
+  burntFraction: number;
+} {
   const { need: demand, supply } = oxygenBalance(y);
   const lambda = demand > 0 ? Math.min(1, supply / demand) : 0;
   const p: Record<string, number> = {};
@@ -93,12 +96,20 @@ export function flameTemperatureK(y: Fractions, initialK: number): number {
  * sum_p n u(T_v) = sum_r n u(T0), u = h - R T; P_v/P0 = (n_p T_v)/(n_r T0) (ideal gas).
  * Example: stoichiometric CH4-air from 1 atm, 298 K -> about 9.5 atm without dissociation.
  */
-export function closedVesselCombustion(y: Fractions, initialK: number): { temperatureK: number; pressureRatio: number } {
+export function closedVesselCombustion(
+  y: Fractions,
+  initialK: number,
+): { temperatureK: number; pressureRatio: number } {
   const { products } = completeCombustion(y);
   const nr = totalMoles(y);
   const np = totalMoles(products);
   const u0 = totalEnthalpy(y, initialK) - nr * R * initialK;
-  const t = solveIncreasing((tt) => totalEnthalpy(products, tt) - np * R * tt, u0, initialK, fitCeilingK(products));
+  const t = solveIncreasing(
+    (tt) => totalEnthalpy(products, tt) - np * R * tt,
+    u0,
+    initialK,
+    fitCeilingK(products),
+  );
   return { temperatureK: t, pressureRatio: (np * t) / (nr * initialK) };
 }
 

@@ -58,7 +58,8 @@ function checkBlend(blend: Fractions, field: string, allowEmpty: boolean): Recor
   let sum = 0;
   for (const [name, v] of Object.entries(blend)) {
     const key = getSpecies(name).key;
-    if (!Number.isFinite(v) || v < 0) fail({ code: 'out-of-range', what: `fraction of ${key}`, value: v, allowed: '[0, 1]' }, { field });
+    if (!Number.isFinite(v) || v < 0)
+      fail({ code: 'out-of-range', what: `fraction of ${key}`, value: v, allowed: '[0, 1]' }, { field });
     out[key] = (out[key] ?? 0) + v;
     sum += v;
   }
@@ -81,7 +82,14 @@ function demandOf(blend: Fractions): number {
 }
 
 /** split an arbitrary composition into fuel, oxidizer and inert parts */
-function groupsOf(x: Fractions): { fuel: number; ox: number; inert: number; fuelBlend: Record<string, number>; oxBlend: Record<string, number>; inertBlend: Record<string, number> } {
+function groupsOf(x: Fractions): {
+  fuel: number;
+  ox: number;
+  inert: number;
+  fuelBlend: Record<string, number>;
+  oxBlend: Record<string, number>;
+  inertBlend: Record<string, number>;
+} {
   const fuelBlend: Record<string, number> = {};
   const oxBlend: Record<string, number> = {};
   const inertBlend: Record<string, number> = {};
@@ -153,7 +161,18 @@ export const MIN_DESIGN_FRACTION = 1e-9;
 function checkTrace(x: Fractions, field: string): void {
   for (const [k, v] of Object.entries(x)) {
     if (v > 0 && v < MIN_DESIGN_FRACTION) {
-      fail({ code: 'out-of-range', what: `the mole fraction of ${k}`, value: v, allowed: `0, or from ${MIN_DESIGN_FRACTION} (1 ppb) to 1: a smaller fraction cannot be metered by partial pressure; fill a premix of ${k} instead, or check the design's numbers` }, { field });
+      fail(
+        {
+          code: 'out-of-range',
+          what: `the mole fraction of ${k}`,
+          value: v,
+          allowed:
+            `0, or from ${MIN_DESIGN_FRACTION} (1 ppb) to 1: a smaller fraction cannot ` +
+            `be metered by partial pressure; fill a premix of ${k} instead, or check ` +
+            `the design's numbers`,
+        },
+        { field },
+      );
     }
   }
 }
@@ -179,25 +198,58 @@ export function designMixture(input: DesignInput): Design {
     };
   }
   const { phi, basis } = input;
-  if (!Number.isFinite(phi) || phi <= 0) fail({ code: 'not-positive', what: 'phi (equivalence ratio)', value: phi }, { field: 'phi' });
+  if (!Number.isFinite(phi) || phi <= 0)
+    fail({ code: 'not-positive', what: 'phi (equivalence ratio)', value: phi }, { field: 'phi' });
   if (phi < PHI_RANGE.min || phi > PHI_RANGE.max) {
-    fail({ code: 'out-of-range', what: 'phi (equivalence ratio)', value: phi, allowed: `${PHI_RANGE.min} to ${PHI_RANGE.max}: beyond it the mixture is, to the precision of a fill, the pure oxidizer or the pure fuel; give such a mixture by its fractions` }, { field: 'phi' });
+    fail(
+      {
+        code: 'out-of-range',
+        what: 'phi (equivalence ratio)',
+        value: phi,
+        allowed:
+          `${PHI_RANGE.min} to ${PHI_RANGE.max}: beyond it the mixture is, to the precision ` +
+          `of a fill, the pure oxidizer or the pure fuel; give such a mixture by its fractions`,
+      },
+      { field: 'phi' },
+    );
   }
   const fuel = checkBlend(input.fuel, 'fuel', false);
   const oxidizer = checkBlend(input.oxidizer, 'oxidizer', false);
   const diluent = checkBlend(input.diluent, 'diluent', true);
   for (const k of Object.keys(fuel)) {
-    if (speciesRole(k) !== 'fuel') fail({ code: 'design-conflict', reason: `${k} is not a fuel (it needs no oxygen to burn); list it as oxidizer or diluent` }, { field: 'fuel' });
+    if (speciesRole(k) !== 'fuel')
+      fail(
+        {
+          code: 'design-conflict',
+          reason: `${k} is not a fuel (it needs no oxygen to burn); list it as oxidizer or diluent`,
+        },
+        { field: 'fuel' },
+      );
   }
   for (const k of Object.keys(oxidizer)) {
-    if (speciesRole(k) === 'fuel') fail({ code: 'design-conflict', reason: `${k} is a fuel and cannot be part of the oxidizer` }, { field: 'oxidizer' });
+    if (speciesRole(k) === 'fuel')
+      fail(
+        { code: 'design-conflict', reason: `${k} is a fuel and cannot be part of the oxidizer` },
+        { field: 'oxidizer' },
+      );
   }
   for (const k of Object.keys(diluent)) {
-    if (speciesRole(k) !== 'inert') fail({ code: 'design-conflict', reason: `${k} takes part in combustion and cannot be a diluent; use an inert gas (Ar, He, N2, CO2, ...)` }, { field: 'diluent' });
+    if (speciesRole(k) !== 'inert')
+      fail(
+        {
+          code: 'design-conflict',
+          reason: `${k} takes part in combustion and cannot be a diluent; use an inert gas (Ar, He, N2, CO2, ...)`,
+        },
+        { field: 'diluent' },
+      );
   }
   const needPerFuel = demandOf(fuel); // mol O2 per mol fuel blend
   const supplyPerOx = -demandOf(oxidizer); // mol O2-equivalent per mol oxidizer blend
-  if (supplyPerOx <= 0) fail({ code: 'design-conflict', reason: 'the oxidizer carries no oxygen; it needs O2 (or N2O, NO)' }, { field: 'oxidizer' });
+  if (supplyPerOx <= 0)
+    fail(
+      { code: 'design-conflict', reason: 'the oxidizer carries no oxygen; it needs O2 (or N2O, NO)' },
+      { field: 'oxidizer' },
+    );
   const oxPerFuel = needPerFuel / (phi * supplyPerOx);
   const hasDiluent = Object.keys(diluent).length > 0;
 
@@ -207,8 +259,19 @@ export function designMixture(input: DesignInput): Design {
   switch (basis.kind) {
     case 'dilution': {
       const xd = basis.value;
-      if (!(xd >= 0 && xd < 1)) fail({ code: 'out-of-range', what: 'dilution (diluent mole fraction)', value: xd, allowed: '[0, 1)' }, { field: 'dilution' });
-      if (xd > 0 && !hasDiluent) fail({ code: 'design-missing', reason: `dilution is ${xd} but no diluent is named; add a diluent (e.g. Ar)` }, { field: 'diluent' });
+      if (!(xd >= 0 && xd < 1))
+        fail(
+          { code: 'out-of-range', what: 'dilution (diluent mole fraction)', value: xd, allowed: '[0, 1)' },
+          { field: 'dilution' },
+        );
+      if (xd > 0 && !hasDiluent)
+        fail(
+          {
+            code: 'design-missing',
+            reason: `dilution is ${xd} but no diluent is named; add a diluent (e.g. Ar)`,
+          },
+          { field: 'diluent' },
+        );
       F = (1 - xd) / (1 + oxPerFuel);
       X = F * oxPerFuel;
       D = xd;
@@ -216,8 +279,26 @@ export function designMixture(input: DesignInput): Design {
     }
     case 'diluent-ratio': {
       const r = basis.value;
-      if (!(r >= 0) || !Number.isFinite(r) || r > DILUENT_RATIO_MAX) fail({ code: 'out-of-range', what: 'diluent ratio (mol diluent per mol O2)', value: r, allowed: `0 to ${DILUENT_RATIO_MAX} (a larger ratio leaves less than 1 ppm of O2; give such a mixture by its fractions)` }, { field: 'diluent_ratio' });
-      if (r > 0 && !hasDiluent) fail({ code: 'design-missing', reason: `diluent ratio is ${r} but no diluent is named; add a diluent (e.g. N2)` }, { field: 'diluent' });
+      if (!(r >= 0) || !Number.isFinite(r) || r > DILUENT_RATIO_MAX)
+        fail(
+          {
+            code: 'out-of-range',
+            what: 'diluent ratio (mol diluent per mol O2)',
+            value: r,
+            allowed:
+              `0 to ${DILUENT_RATIO_MAX} (a larger ratio leaves less than 1 ppm of O2; ` +
+              `give such a mixture by its fractions)`,
+          },
+          { field: 'diluent_ratio' },
+        );
+      if (r > 0 && !hasDiluent)
+        fail(
+          {
+            code: 'design-missing',
+            reason: `diluent ratio is ${r} but no diluent is named; add a diluent (e.g. N2)`,
+          },
+          { field: 'diluent' },
+        );
       // per mol fuel: oxPerFuel mol oxidizer carrying oxPerFuel * supplyPerOx mol O2-equivalent
       const dPerFuel = r * oxPerFuel * supplyPerOx;
       F = 1 / (1 + oxPerFuel + dPerFuel);
@@ -227,16 +308,36 @@ export function designMixture(input: DesignInput): Design {
     }
     case 'fuel-fraction': {
       const xf = basis.value;
-      if (!(xf > 0 && xf < 1)) fail({ code: 'out-of-range', what: 'fuel fraction', value: xf, allowed: '(0, 1)' }, { field: 'fuel_fraction' });
+      if (!(xf > 0 && xf < 1))
+        fail(
+          { code: 'out-of-range', what: 'fuel fraction', value: xf, allowed: '(0, 1)' },
+          { field: 'fuel_fraction' },
+        );
       F = xf;
       X = xf * oxPerFuel;
       D = 1 - F - X;
       if (D < -1e-12) {
         const maxXf = 1 / (1 + oxPerFuel);
-        fail({ code: 'design-conflict', reason: `at phi ${phi} a fuel fraction of ${xf} leaves no room: fuel and oxidizer alone would be ${(F + X).toFixed(4)} of the mixture; the largest fuel fraction is ${maxXf.toFixed(5)}` }, { field: 'fuel_fraction' });
+        fail(
+          {
+            code: 'design-conflict',
+            reason:
+              `at phi ${phi} a fuel fraction of ${xf} leaves no room: fuel and oxidizer ` +
+              `alone would be ${(F + X).toFixed(4)} of the mixture; the largest fuel fraction ` +
+              `is ${maxXf.toFixed(5)}`,
+          },
+          { field: 'fuel_fraction' },
+        );
       }
       D = Math.max(D, 0);
-      if (D > 1e-12 && !hasDiluent) fail({ code: 'design-missing', reason: `the fuel fraction ${xf} leaves ${D.toFixed(4)} of the mixture for a diluent, but none is named` }, { field: 'diluent' });
+      if (D > 1e-12 && !hasDiluent)
+        fail(
+          {
+            code: 'design-missing',
+            reason: `the fuel fraction ${xf} leaves ${D.toFixed(4)} of the mixture for a diluent, but none is named`,
+          },
+          { field: 'diluent' },
+        );
       break;
     }
   }
@@ -245,7 +346,14 @@ export function designMixture(input: DesignInput): Design {
   addInto(composition, oxidizer, X);
   if (D > 0) addInto(composition, diluent, D);
   // the groups, not each species of a blend: a trace inside a blend comes with it from a premix cylinder
-  checkTrace({ fuel: F, oxidizer: X, diluent: D }, basis.kind === 'fuel-fraction' ? 'fuel_fraction' : basis.kind === 'diluent-ratio' ? 'diluent_ratio' : 'dilution');
+  checkTrace(
+    { fuel: F, oxidizer: X, diluent: D },
+    basis.kind === 'fuel-fraction'
+      ? 'fuel_fraction'
+      : basis.kind === 'diluent-ratio'
+        ? 'diluent_ratio'
+        : 'dilution',
+  );
   return {
     composition,
     phi,

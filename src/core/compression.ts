@@ -72,12 +72,32 @@ export function reviewCompression(e: FillEvent, ctx: SafetyContext): Finding[] {
   if (oxygenEquivalent(e.after.composition) > 0) {
     const worst = fuelsThatMatter(e.after.composition).find((f) => f.aitK !== undefined);
     if (worst && endK >= worst.aitK! - COMPRESSION_WARNING_MARGIN_K) {
-      out.push({ severity: endK >= worst.aitK! ? 'danger' : 'warning', code: 'compression-heating', step, fuel: worst.species, fromPa: e.before.pressurePa, toPa: e.after.pressurePa, gamma, endK, aitK: worst.aitK! });
+      out.push({
+        severity: endK >= worst.aitK! ? 'danger' : 'warning',
+        code: 'compression-heating',
+        step,
+        fuel: worst.species,
+        fromPa: e.before.pressurePa,
+        toPa: e.after.pressurePa,
+        gamma,
+        endK,
+        aitK: worst.aitK!,
+      });
     }
   }
   const o2 = oxygenEquivalent(resident);
   if (o2 > OXYGEN_RICH_ABOVE && endK >= OXYGEN_COMPRESSION_LIMIT_K) {
-    out.push({ severity: 'warning', code: 'oxygen-compression', step, oxygenFraction: o2, fromPa: e.before.pressurePa, toPa: e.after.pressurePa, gamma, endK, limitK: OXYGEN_COMPRESSION_LIMIT_K });
+    out.push({
+      severity: 'warning',
+      code: 'oxygen-compression',
+      step,
+      oxygenFraction: o2,
+      fromPa: e.before.pressurePa,
+      toPa: e.after.pressurePa,
+      gamma,
+      endK,
+      limitK: OXYGEN_COMPRESSION_LIMIT_K,
+    });
   }
   return out;
 }

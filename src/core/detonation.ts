@@ -9,7 +9,14 @@ import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { equilibriumWorkspace, rootOfIncreasing } from './equilibrium.js';
 import { fail } from './problems.js';
-import { DETONABLE_INERT_BELOW, DETONABLE_OXYGEN_SHARE_FROM, DETONATION_LIMITS, REFLECTED_OVER_CJ, UNDILUTED_INERT_BELOW, type DetonationLimits } from './data/detonation-data.js';
+import {
+  DETONABLE_INERT_BELOW,
+  DETONABLE_OXYGEN_SHARE_FROM,
+  DETONATION_LIMITS,
+  REFLECTED_OVER_CJ,
+  UNDILUTED_INERT_BELOW,
+  type DetonationLimits,
+} from './data/detonation-data.js';
 
 /** O2 share of air on the N2-equivalent diagram */
 const AIR_O2 = 0.21;
@@ -114,7 +121,11 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
       return s.enthalpyJ - h0 - 0.5 * (s.pressurePa - pressurePa) * (v0 + v2);
     };
     const t = rootOfIncreasing(f, temperatureK, 6000, tGuess, 1e-5, firstStep);
-    if (t === undefined) return fail({ code: 'equilibrium-not-converged', what: `detonation Hugoniot at density ratio ${r.toFixed(3)} (too little fuel, or beyond 6000 K)` });
+    if (t === undefined)
+      return fail({
+        code: 'equilibrium-not-converged',
+        what: `detonation Hugoniot at density ratio ${r.toFixed(3)} (too little fuel, or beyond 6000 K)`,
+      });
     // the next density ratio is close: its Hugoniot temperature is within a few tens of kelvin
     firstStep = Math.max(1, Math.min(100, Math.abs(t - tGuess) * 1.5));
     tGuess = t;
@@ -123,7 +134,13 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
   };
   const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, 1e-5);
   const h = hugoniot(r);
-  const out = { pressurePa: h.p2, temperatureK: h.t, velocityMPerS: Math.sqrt(h.w2), densityRatio: r, reflectedPa: REFLECTED_OVER_CJ * h.p2 };
+  const out = {
+    pressurePa: h.p2,
+    temperatureK: h.t,
+    velocityMPerS: Math.sqrt(h.w2),
+    densityRatio: r,
+    reflectedPa: REFLECTED_OVER_CJ * h.p2,
+  };
   if (cjCache.size > 500) cjCache.clear();
   cjCache.set(key, out);
   return out;
@@ -142,7 +159,11 @@ export interface Detonability {
   /** O2 share of the oxidizer + inert, 0.21 for air, 1 for pure O2 */
   readonly oxygenShare: number;
   /** the limits applied, as equivalence ratios, with the records they came from */
-  readonly limits?: { readonly phiLow: number; readonly phiHigh: number; readonly records: readonly DetonationLimits[] };
+  readonly limits?: {
+    readonly phiLow: number;
+    readonly phiHigh: number;
+    readonly records: readonly DetonationLimits[];
+  };
 }
 
 function phiOf(rec: DetonationLimits, x: number): number {
@@ -175,7 +196,11 @@ export function detonability(y: Fractions): Detonability {
   const undiluted = point.inert < UNDILUTED_INERT_BELOW;
   const base = { inertFraction: point.inert, phi, oxygenShare, undiluted };
   const byRule = point.inert < DETONABLE_INERT_BELOW || oxygenShare >= DETONABLE_OXYGEN_SHARE_FROM;
-  const rule = (): Detonability => ({ ...base, detonable: point.fuel > 0 && point.oxygen > 0 && byRule, basis: 'inert-rule' });
+  const rule = (): Detonability => ({
+    ...base,
+    detonable: point.fuel > 0 && point.oxygen > 0 && byRule,
+    basis: 'inert-rule',
+  });
   const main = Object.entries(fuelBlend).find(([, w]) => w >= 0.99)?.[0];
   if (!main) return rule();
   const inAir = DETONATION_LIMITS.find((r) => r.fuel === main && r.oxidizer === 'air');
@@ -200,5 +225,10 @@ export function detonability(y: Fractions): Detonability {
   if (!inside) return { ...base, detonable: false, basis: 'published-limits', limits };
   if (!inAir && !byRule) return { ...base, detonable: false, basis: 'inert-rule', limits };
   // limits in O2 only: inside them the conservative rule decides, and says so
-  return { ...base, detonable: point.fuel > 0 && point.oxygen > 0, basis: inAir ? 'published-limits' : 'inert-rule', limits };
+  return {
+    ...base,
+    detonable: point.fuel > 0 && point.oxygen > 0,
+    basis: inAir ? 'published-limits' : 'inert-rule',
+    limits,
+  };
 }

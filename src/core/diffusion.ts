@@ -37,18 +37,32 @@ export function fullerD(a: string, b: string, temperatureK: number, pressurePa: 
 
 /** Neufeld et al. (1972) fit of the diffusion collision integral Omega_D(T*) */
 export function neufeldOmegaD(tStar: number): number {
-  return 1.06036 / tStar ** 0.1561 + 0.193 / Math.exp(0.47635 * tStar) + 1.03587 / Math.exp(1.52996 * tStar) + 1.76474 / Math.exp(3.89411 * tStar);
+  return (
+    1.06036 / tStar ** 0.1561 +
+    0.193 / Math.exp(0.47635 * tStar) +
+    1.03587 / Math.exp(1.52996 * tStar) +
+    1.76474 / Math.exp(3.89411 * tStar)
+  );
 }
 
 /** Chapman-Enskog D_AB, m2/s; undefined without Lennard-Jones data. Example: O2-N2 at 298.15 K, 1 atm -> 2.04e-5 m2/s. */
-export function chapmanEnskogD(a: string, b: string, temperatureK: number, pressurePa: number): number | undefined {
+export function chapmanEnskogD(
+  a: string,
+  b: string,
+  temperatureK: number,
+  pressurePa: number,
+): number | undefined {
   const la = LENNARD_JONES.get(getSpecies(a).key);
   const lb = LENNARD_JONES.get(getSpecies(b).key);
   if (!la || !lb) return undefined;
   const sigma = (la.sigmaA + lb.sigmaA) / 2;
   const eps = Math.sqrt(la.epsK * lb.epsK);
   const pBar = pressurePa / PA_PER_BAR;
-  return ((0.00266 * temperatureK ** 1.5) / (pBar * Math.sqrt(mAB(a, b)) * sigma * sigma * neufeldOmegaD(temperatureK / eps))) * CM2_TO_M2;
+  return (
+    ((0.00266 * temperatureK ** 1.5) /
+      (pBar * Math.sqrt(mAB(a, b)) * sigma * sigma * neufeldOmegaD(temperatureK / eps))) *
+    CM2_TO_M2
+  );
 }
 
 export interface PairDiffusion {
@@ -64,7 +78,12 @@ export interface PairDiffusion {
  * The slowest binary pair among the species that make up at least `minFraction` of the
  * mixture: the one that governs how long diffusion takes to homogenise the tank.
  */
-export function slowestPair(y: Readonly<Record<string, number>>, temperatureK: number, pressurePa: number, minFraction = 1e-3): PairDiffusion | undefined {
+export function slowestPair(
+  y: Readonly<Record<string, number>>,
+  temperatureK: number,
+  pressurePa: number,
+  minFraction = 1e-3,
+): PairDiffusion | undefined {
   const ks = Object.keys(y).filter((k) => y[k] >= minFraction);
   let worst: PairDiffusion | undefined;
   for (let i = 0; i < ks.length; i++) {
@@ -74,7 +93,8 @@ export function slowestPair(y: Readonly<Record<string, number>>, temperatureK: n
       const vals = [f, c].filter((v): v is number => v !== undefined);
       if (!vals.length) continue;
       const g = Math.min(...vals);
-      if (!worst || g < worst.governingM2s) worst = { a: ks[i], b: ks[j], fullerM2s: f, chapmanEnskogM2s: c, governingM2s: g };
+      if (!worst || g < worst.governingM2s)
+        worst = { a: ks[i], b: ks[j], fullerM2s: f, chapmanEnskogM2s: c, governingM2s: g };
     }
   }
   return worst;

@@ -48,13 +48,22 @@ interface RawFit {
 
 function toFit(key: string, r: RawFit): Fit {
   const two = r.coefficients.length > 1;
-  return { key, atoms: r.composition, tMid: two ? r.temperatureRanges[1] : Infinity, low: r.coefficients[0], high: r.coefficients[two ? 1 : 0] };
+  return {
+    key,
+    atoms: r.composition,
+    tMid: two ? r.temperatureRanges[1] : Infinity,
+    low: r.coefficients[0],
+    high: r.coefficients[two ? 1 : 0],
+  };
 }
 
 const allowed = new Set<string>(ELEMENTS);
 const GAS_FITS: Fit[] = [];
 let GRAPHITE: Fit | undefined;
-for (const [k, r] of [...Object.entries(baseData.species as Record<string, RawFit>), ...Object.entries(productData.species as Record<string, RawFit>)]) {
+for (const [k, r] of [
+  ...Object.entries(baseData.species as Record<string, RawFit>),
+  ...Object.entries(productData.species as Record<string, RawFit>),
+]) {
   if (r.phase === 'solid') {
     if (k === 'C(gr)') GRAPHITE = toFit(k, r);
     continue;
@@ -90,7 +99,13 @@ function systemFor(elements: readonly string[]): System {
   const m = elements.length;
   const a = new Float64Array(species.length * m);
   species.forEach((f, j) => elements.forEach((e, i) => (a[j * m + i] = f.atoms[e] ?? 0)));
-  const sys = { elements, species, a, carbon: elements.indexOf('C'), graphite: set.has('C') && GRAPHITE !== undefined };
+  const sys = {
+    elements,
+    species,
+    a,
+    carbon: elements.indexOf('C'),
+    graphite: set.has('C') && GRAPHITE !== undefined,
+  };
   systems.set(key, sys);
   return sys;
 }
@@ -115,7 +130,8 @@ function elementTotals(y: Fractions): { elements: string[]; b: number[]; sum: nu
   const tot = new Map<string, number>();
   for (const [k, v] of Object.entries(y)) {
     if (v <= 0) continue;
-    for (const [e, c] of Object.entries(getSpecies(k).elements)) tot.set(e, (tot.get(e) ?? 0) + (c * v) / sum);
+    for (const [e, c] of Object.entries(getSpecies(k).elements))
+      tot.set(e, (tot.get(e) ?? 0) + (c * v) / sum);
   }
   const elements = ELEMENTS.filter((e) => (tot.get(e) ?? 0) > 0);
   return { elements: [...elements], b: elements.map((e) => tot.get(e)!), sum };
@@ -177,7 +193,12 @@ class Solver {
     this.step = new Float64Array(m);
     this.old = new Float64Array(m);
     this.free = new Array<boolean>(m).fill(true);
-    this.work = { L: new Float64Array(m * m), idx: new Int32Array(m), sc: new Float64Array(m), y: new Float64Array(m) };
+    this.work = {
+      L: new Float64Array(m * m),
+      idx: new Int32Array(m),
+      sc: new Float64Array(m),
+      y: new Float64Array(m),
+    };
   }
 
   private thermo(t: number) {
@@ -365,7 +386,16 @@ class Solver {
       const x = this.n[j] / nGas;
       if (x > 1e-12) gas[f.key] = x;
     });
-    return { temperatureK: t, pressurePa: (nGas * R * t) / v, volumeM3: v, gas, gasMol: nGas, graphiteMol: this.nGr, internalEnergyJ: u, enthalpyJ: h };
+    return {
+      temperatureK: t,
+      pressurePa: (nGas * R * t) / v,
+      volumeM3: v,
+      gas,
+      gasMol: nGas,
+      graphiteMol: this.nGr,
+      internalEnergyJ: u,
+      enthalpyJ: h,
+    };
   }
 }
 
@@ -377,7 +407,14 @@ interface SpdWork {
 }
 
 /** Cholesky solve of the free block of a symmetric positive (semi)definite H (lower triangle filled), Jacobi-scaled */
-function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number, free: readonly boolean[], w: SpdWork): boolean {
+function solveSpd(
+  H: Float64Array,
+  rhs: Float64Array,
+  x: Float64Array,
+  m: number,
+  free: readonly boolean[],
+  w: SpdWork,
+): boolean {
   const { L, idx, sc, y } = w;
   let k = 0;
   for (let i = 0; i < m; i++) if (free[i]) idx[k++] = i;
@@ -385,7 +422,8 @@ function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number
     const hii = H[idx[p] * m + idx[p]];
     sc[p] = hii > 0 ? 1 / Math.sqrt(hii) : 1;
   }
-  for (let p = 0; p < k; p++) for (let q = 0; q <= p; q++) L[p * k + q] = H[idx[p] * m + idx[q]] * sc[p] * sc[q];
+  for (let p = 0; p < k; p++)
+    for (let q = 0; q <= p; q++) L[p * k + q] = H[idx[p] * m + idx[q]] * sc[p] * sc[q];
   for (let p = 0; p < k; p++) L[p * k + p] += 1e-13;
   for (let p = 0; p < k; p++) {
     for (let q = 0; q <= p; q++) {
@@ -416,7 +454,14 @@ function solveSpd(H: Float64Array, rhs: Float64Array, x: Float64Array, m: number
  * solved near the answer and the rest warm-start): secant steps until the root is
  * bracketed, then Illinois regula falsi. undefined when f has no sign change on [lo, hi].
  */
-function rootIncreasing(f: (x: number) => number, lo: number, hi: number, guess: number, tol: number, firstStep = 100): number | undefined {
+function rootIncreasing(
+  f: (x: number) => number,
+  lo: number,
+  hi: number,
+  guess: number,
+  tol: number,
+  firstStep = 100,
+): number | undefined {
   let x0 = Math.min(hi, Math.max(lo, guess));
   let f0 = f(x0);
   if (f0 === 0) return x0;
@@ -436,7 +481,9 @@ function rootIncreasing(f: (x: number) => number, lo: number, hi: number, guess:
     if (x1 === lo || x1 === hi) return undefined;
     // secant estimate of the distance left, at least doubling the step
     const secant = (f1 * (x1 - x0)) / (f0 - f1);
-    const next = Number.isFinite(secant) ? Math.sign(step) * Math.max(Math.abs(secant) * 1.2, 2 * Math.abs(step)) : 2 * step;
+    const next = Number.isFinite(secant)
+      ? Math.sign(step) * Math.max(Math.abs(secant) * 1.2, 2 * Math.abs(step))
+      : 2 * step;
     x0 = x1;
     f0 = f1;
     step = next;
@@ -471,7 +518,11 @@ function initialState(y: Fractions, temperatureK: number, pressurePa: number) {
   let hRT = 0;
   for (const [k, v] of Object.entries(y)) {
     if (v <= 0) continue;
-    hsc(GAS_FITS.find((f) => f.key === k)!, temperatureK, tmp);
+    hsc(
+      GAS_FITS.find((f) => f.key === k)!,
+      temperatureK,
+      tmp,
+    );
     hRT += (v / sum) * tmp.h;
   }
   const h0 = hRT * R * temperatureK;
@@ -482,7 +533,8 @@ function initialState(y: Fractions, temperatureK: number, pressurePa: number) {
 
 /** start temperature: the complete-combustion value, pulled down where dissociation matters */
 function completeGuessK(y: Fractions, temperatureK: number, kind: 'UV' | 'HP'): number {
-  const t = kind === 'UV' ? closedVesselCombustion(y, temperatureK).temperatureK : flameTemperatureK(y, temperatureK);
+  const t =
+    kind === 'UV' ? closedVesselCombustion(y, temperatureK).temperatureK : flameTemperatureK(y, temperatureK);
   // above about 2200 K dissociation takes a growing share of the heat (fitted loosely on stoichiometric fuel/air and fuel/O2)
   return t > 2200 ? 2200 + (kind === 'UV' ? 0.5 : 0.3) * (t - 2200) : t;
 }
@@ -492,13 +544,31 @@ function notConverged(what: string): never {
 }
 
 function checkInputs(y: Fractions, temperatureK: number, pressurePa: number) {
-  if (!(temperatureK >= 150 && temperatureK <= 1000)) fail({ code: 'out-of-range', what: 'initial temperature for the equilibrium (K)', value: temperatureK, allowed: '150-1000 K' });
-  if (!(pressurePa > 0 && pressurePa <= 1e8)) fail({ code: 'out-of-range', what: 'initial pressure for the equilibrium (Pa)', value: pressurePa, allowed: '0-1e8 Pa' });
+  if (!(temperatureK >= 150 && temperatureK <= 1000))
+    fail({
+      code: 'out-of-range',
+      what: 'initial temperature for the equilibrium (K)',
+      value: temperatureK,
+      allowed: '150-1000 K',
+    });
+  if (!(pressurePa > 0 && pressurePa <= 1e8))
+    fail({
+      code: 'out-of-range',
+      what: 'initial pressure for the equilibrium (Pa)',
+      value: pressurePa,
+      allowed: '0-1e8 Pa',
+    });
   if (!Object.values(y).some((v) => v > 0)) fail({ code: 'fractions-sum', sum: 0 });
 }
 
 const cache = new Map<string, EquilibriumState>();
-function memo(kind: string, y: Fractions, a: number, b: number, run: () => EquilibriumState): EquilibriumState {
+function memo(
+  kind: string,
+  y: Fractions,
+  a: number,
+  b: number,
+  run: () => EquilibriumState,
+): EquilibriumState {
   const key = `${kind}|${a.toPrecision(12)}|${b.toPrecision(12)}|${Object.entries(y)
     .filter(([, v]) => v > 0)
     .sort(([p], [q]) => (p < q ? -1 : 1))
@@ -567,7 +637,13 @@ function solveTP(s: Solver, t: number, pressurePa: number, vGuess: number): numb
  * (the law of mass action with the same NASA data holds to 1e-6: tests/core/equilibrium.test.ts).
  */
 export function equilibriumTP(y: Fractions, temperatureK: number, pressurePa: number): EquilibriumState {
-  if (!(temperatureK >= 150 && temperatureK <= T_MAX_K)) fail({ code: 'out-of-range', what: 'equilibrium temperature (K)', value: temperatureK, allowed: `150-${T_MAX_K} K` });
+  if (!(temperatureK >= 150 && temperatureK <= T_MAX_K))
+    fail({
+      code: 'out-of-range',
+      what: 'equilibrium temperature (K)',
+      value: temperatureK,
+      allowed: `150-${T_MAX_K} K`,
+    });
   checkInputs(y, 300, pressurePa);
   return memo('TP', y, temperatureK, pressurePa, () => {
     const { sys, b, products } = initialState(y, 298.15, pressurePa);
@@ -594,7 +670,13 @@ export function equilibriumHP(y: Fractions, temperatureK: number, pressurePa: nu
       tLast = t;
       return s.totals(t).h - h0;
     };
-    const t = rootIncreasing(f, Math.max(120, temperatureK - 50), T_MAX_K, completeGuessK(y, temperatureK, 'HP'), 1e-4);
+    const t = rootIncreasing(
+      f,
+      Math.max(120, temperatureK - 50),
+      T_MAX_K,
+      completeGuessK(y, temperatureK, 'HP'),
+      1e-4,
+    );
     if (t === undefined) notConverged('flame equilibrium: temperature outside 120-6000 K');
     f(t);
     return s.state(t, v);

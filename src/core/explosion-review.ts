@@ -25,20 +25,43 @@ function why(e: unknown): string {
 }
 
 /** closed-vessel end state of a flammable state, judged against the working limit (danger above it, else a note) */
-export function closedVesselFinding(s: StateLike, temperatureK: number, workingLimitPa: number | undefined, step: number | undefined): Finding {
+export function closedVesselFinding(
+  s: StateLike,
+  temperatureK: number,
+  workingLimitPa: number | undefined,
+  step: number | undefined,
+): Finding {
   const cc = closedVesselCombustion(s.composition, temperatureK);
   const completePa = s.pressurePa * cc.pressureRatio;
   let peakPa = completePa;
-  let extra: Record<string, unknown> = { method: 'complete-combustion', completePa, completeK: cc.temperatureK };
+  let extra: Record<string, unknown> = {
+    method: 'complete-combustion',
+    completePa,
+    completeK: cc.temperatureK,
+  };
   try {
     const eq = equilibriumUV(s.composition, temperatureK, s.pressurePa);
     peakPa = eq.pressurePa;
-    extra = { method: 'equilibrium', temperatureK: eq.temperatureK, completePa, completeK: cc.temperatureK, graphiteMol: eq.graphiteMol };
+    extra = {
+      method: 'equilibrium',
+      temperatureK: eq.temperatureK,
+      completePa,
+      completeK: cc.temperatureK,
+      graphiteMol: eq.graphiteMol,
+    };
   } catch (e) {
     extra = { ...extra, equilibriumMissing: why(e) };
   }
   const over = workingLimitPa !== undefined && peakPa > workingLimitPa;
-  return { severity: over ? 'danger' : 'note', code: 'closed-vessel-pressure', step, fromPa: s.pressurePa, peakPa, limitPa: workingLimitPa, ...extra };
+  return {
+    severity: over ? 'danger' : 'note',
+    code: 'closed-vessel-pressure',
+    step,
+    fromPa: s.pressurePa,
+    peakPa,
+    limitPa: workingLimitPa,
+    ...extra,
+  };
 }
 
 /**
@@ -46,7 +69,12 @@ export function closedVesselFinding(s: StateLike, temperatureK: number, workingL
  * limits is a danger whatever the rating (common practice); a diluted detonable state is a
  * danger when the reflected pressure exceeds the working limit, else a warning with the numbers.
  */
-export function detonationFinding(s: StateLike, temperatureK: number, workingLimitPa: number | undefined, step: number | undefined): Finding | undefined {
+export function detonationFinding(
+  s: StateLike,
+  temperatureK: number,
+  workingLimitPa: number | undefined,
+  step: number | undefined,
+): Finding | undefined {
   const d = detonability(s.composition);
   if (!d.detonable) return undefined;
   let cj: Record<string, number> = {};
@@ -55,7 +83,12 @@ export function detonationFinding(s: StateLike, temperatureK: number, workingLim
   try {
     const c = chapmanJouguet(s.composition, temperatureK, s.pressurePa);
     reflectedPa = c.reflectedPa;
-    cj = { cjPa: c.pressurePa, cjK: c.temperatureK, cjVelocityMPerS: c.velocityMPerS, reflectedPa: c.reflectedPa };
+    cj = {
+      cjPa: c.pressurePa,
+      cjK: c.temperatureK,
+      cjVelocityMPerS: c.velocityMPerS,
+      reflectedPa: c.reflectedPa,
+    };
   } catch (e) {
     cjMissing = why(e);
   }
@@ -73,7 +106,9 @@ export function detonationFinding(s: StateLike, temperatureK: number, workingLim
     phi: d.phi,
     phiLow: d.limits?.phiLow,
     phiHigh: d.limits?.phiHigh,
-    limitSources: d.limits ? [...new Set(d.limits.records.flatMap((r) => [r.low.source, r.high.source]))] : undefined,
+    limitSources: d.limits
+      ? [...new Set(d.limits.records.flatMap((r) => [r.low.source, r.high.source]))]
+      : undefined,
     limitPa: workingLimitPa,
     cjMissing,
     ...cj,
@@ -81,7 +116,11 @@ export function detonationFinding(s: StateLike, temperatureK: number, workingLim
 }
 
 /** equilibrium adiabatic flame temperature at constant pressure, or undefined where the data are missing */
-export function equilibriumFlameK(y: Fractions, temperatureK: number, pressurePa: number): number | undefined {
+export function equilibriumFlameK(
+  y: Fractions,
+  temperatureK: number,
+  pressurePa: number,
+): number | undefined {
   try {
     return equilibriumHP(y, temperatureK, pressurePa).temperatureK;
   } catch (e) {

@@ -36,7 +36,14 @@
  *    (four times in the order search, which needs only the ranks).
  */
 import type { Fractions } from './composition.js';
-import { assessFlammability, blendLimits, diagramPoint, envelopePolygon, insidePolygon, type FlammabilityAssessment } from './flammability.js';
+import {
+  assessFlammability,
+  blendLimits,
+  diagramPoint,
+  envelopePolygon,
+  insidePolygon,
+  type FlammabilityAssessment,
+} from './flammability.js';
 import { getSpecies } from './lookup.js';
 import { FUEL_SAFETY } from './data/safety-data.js';
 import { oxygenDemand } from './formula.js';
@@ -164,7 +171,8 @@ function envelopeGap(y: Fractions, temperatureK: number, pressurePa: number): nu
   const poly = envelopePolygon(blendLimits(fuelBlend, temperatureK, pressurePa));
   const p: [number, number] = [point.fuel, point.oxygen];
   let d = Infinity;
-  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) d = Math.min(d, distanceToSegment(p, poly[j], poly[i]));
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++)
+    d = Math.min(d, distanceToSegment(p, poly[j], poly[i]));
   return insidePolygon(p, poly) ? -d : d;
 }
 
@@ -205,7 +213,13 @@ function flameShare(a: FlammabilityAssessment, temperatureK: number): number {
  * Review the segment a -> b at pressure P(u). Returns the worst rank along it, the worst
  * point and the span of u where it is flammable.
  */
-export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number) => number, temperatureK: number, locate = true): SegmentReview {
+export function reviewSegment(
+  a: Fractions,
+  b: Fractions,
+  pressureAt: (u: number) => number,
+  temperatureK: number,
+  locate = true,
+): SegmentReview {
   const at = (u: number): PathPoint => {
     const y = mix(a, b, u);
     const p = pressureAt(u);
@@ -221,7 +235,8 @@ export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number
     for (let i = 0; i <= FINE; i++) {
       const left = i > 0 ? fine[i - 1] : Infinity;
       const right = i < FINE ? fine[i + 1] : Infinity;
-      if (fine[i] > 0 && fine[i] <= left && fine[i] <= right) pts.push(at(goldenMin(gap, Math.max(0, (i - 1) / FINE), Math.min(1, (i + 1) / FINE), GOLDEN)));
+      if (fine[i] > 0 && fine[i] <= left && fine[i] <= right)
+        pts.push(at(goldenMin(gap, Math.max(0, (i - 1) / FINE), Math.min(1, (i + 1) / FINE), GOLDEN)));
     }
     // thin crossings by flame temperature: local maxima of the flame share near the limit, refined
     const coarse = pts.slice(0, SAMPLES + 1);
@@ -230,7 +245,16 @@ export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number
       const left = i > 0 ? flameShare(coarse[i - 1].assessment, temperatureK) : -Infinity;
       const right = i < SAMPLES ? flameShare(coarse[i + 1].assessment, temperatureK) : -Infinity;
       if (coarse[i].rank === 0 && s >= FLAME_SHARE_SEARCH && s >= left && s >= right) {
-        pts.push(at(goldenMin((u) => -flameShare(at(u).assessment, temperatureK), Math.max(0, (i - 1) / SAMPLES), Math.min(1, (i + 1) / SAMPLES), GOLDEN / 2)));
+        pts.push(
+          at(
+            goldenMin(
+              (u) => -flameShare(at(u).assessment, temperatureK),
+              Math.max(0, (i - 1) / SAMPLES),
+              Math.min(1, (i + 1) / SAMPLES),
+              GOLDEN / 2,
+            ),
+          ),
+        );
       }
     }
     // locate each boundary between ranks by bisection; a midpoint of a third rank (flammable
@@ -245,14 +269,19 @@ export function reviewSegment(a: Fractions, b: Fractions, pressureAt: (u: number
       if (m.rank !== lo.rank) bisect(lo, m, depth - 1);
       if (m.rank !== hi.rank) bisect(m, hi, depth - 1);
     };
-    for (let i = 0; i + 1 < pts.length; i++) bisect(pts[i], pts[i + 1], locate ? BISECTIONS : SEARCH_BISECTIONS);
+    for (let i = 0; i + 1 < pts.length; i++)
+      bisect(pts[i], pts[i + 1], locate ? BISECTIONS : SEARCH_BISECTIONS);
     pts = [...pts, ...extra];
   } else {
     pts.push(at(0), at(1));
   }
   let worst = pts[0];
   for (const p of pts) {
-    if (p.rank > worst.rank || (p.rank === worst.rank && (p.assessment.flameK ?? 0) > (worst.assessment.flameK ?? 0))) worst = p;
+    if (
+      p.rank > worst.rank ||
+      (p.rank === worst.rank && (p.assessment.flameK ?? 0) > (worst.assessment.flameK ?? 0))
+    )
+      worst = p;
   }
   const burning = pts.filter((p) => p.rank > 0).map((p) => p.u);
   const span = burning.length ? ([Math.min(...burning), Math.max(...burning)] as const) : undefined;
@@ -274,7 +303,13 @@ export function bulkPressure(p0Pa: number, p1Pa: number): (u: number) => number 
 /** the bulk path of a fill: every cumulative composition from the state before it to the state after it */
 export function reviewBulkPath(e: FillEvent, temperatureK: number, locate = true): SegmentReview | undefined {
   if (!e.before || e.before.pressurePa <= 0) return undefined;
-  return reviewSegment(e.before.composition, e.after.composition, bulkPressure(e.before.pressurePa, e.after.pressurePa), temperatureK, locate);
+  return reviewSegment(
+    e.before.composition,
+    e.after.composition,
+    bulkPressure(e.before.pressurePa, e.after.pressurePa),
+    temperatureK,
+    locate,
+  );
 }
 
 /** the inlet of a fill beyond the bulk path: tank gas at the end of the fill meeting the incoming gas, at P1 */
@@ -292,17 +327,34 @@ export function reviewInlet(e: FillEvent, temperatureK: number, locate = true): 
  * Judged at every detonable point the review found (its ends, the samples inside it and
  * the worst point), and the highest reflected pressure is kept.
  */
-export function detonableStretchFinding(points: readonly PathPoint[], temperatureK: number, workingLimitPa: number | undefined, step: number | undefined): Extract<Finding, { code: 'detonable-state' }> | undefined {
-  const judge = (p: PathPoint) => detonationFinding({ composition: p.composition, pressurePa: p.pressurePa }, temperatureK, workingLimitPa, step) as Extract<Finding, { code: 'detonable-state' }> | undefined;
+export function detonableStretchFinding(
+  points: readonly PathPoint[],
+  temperatureK: number,
+  workingLimitPa: number | undefined,
+  step: number | undefined,
+): Extract<Finding, { code: 'detonable-state' }> | undefined {
+  const judge = (p: PathPoint) =>
+    detonationFinding(
+      { composition: p.composition, pressurePa: p.pressurePa },
+      temperatureK,
+      workingLimitPa,
+      step,
+    ) as Extract<Finding, { code: 'detonable-state' }> | undefined;
   // undiluted anywhere: a danger whatever the numbers; the first such point carries them
   const undiluted = points.find((p) => detonability(p.composition).undiluted);
   if (undiluted) return judge(undiluted);
   let worst: Extract<Finding, { code: 'detonable-state' }> | undefined;
-  const rank = (f: Extract<Finding, { code: 'detonable-state' }>) => (f.severity === 'danger' ? 2 : f.severity === 'warning' ? 1 : 0);
+  const rank = (f: Extract<Finding, { code: 'detonable-state' }>) =>
+    f.severity === 'danger' ? 2 : f.severity === 'warning' ? 1 : 0;
   for (const p of points) {
     const f = judge(p);
     if (!f) continue;
-    if (!worst || rank(f) > rank(worst) || (rank(f) === rank(worst) && (f.reflectedPa ?? -1) > (worst.reflectedPa ?? -1))) worst = f;
+    if (
+      !worst ||
+      rank(f) > rank(worst) ||
+      (rank(f) === rank(worst) && (f.reflectedPa ?? -1) > (worst.reflectedPa ?? -1))
+    )
+      worst = f;
   }
   return worst;
 }
@@ -322,7 +374,10 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
   if (bulk.rank > ends) {
     const w = bulk.worst;
     // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
-    const det = bulk.rank === 2 ? detonableStretchFinding(bulk.detonable, ctx.temperatureK, ctx.workingLimitPa, e.step) : undefined;
+    const det =
+      bulk.rank === 2
+        ? detonableStretchFinding(bulk.detonable, ctx.temperatureK, ctx.workingLimitPa, e.step)
+        : undefined;
     out.push({
       severity: bulk.rank === 2 ? (det?.severity ?? 'danger') : 'warning',
       code: 'flammable-fill-path',
@@ -332,10 +387,29 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
       inertFraction: w.assessment.point.inert,
       fromPa: bulk.flammablePa![0],
       toPa: bulk.flammablePa![1],
-      ...(bulk.detonable.length ? { detonableFromPa: bulk.detonable[0].pressurePa, detonableToPa: bulk.detonable[bulk.detonable.length - 1].pressurePa } : {}),
+      ...(bulk.detonable.length
+        ? {
+            detonableFromPa: bulk.detonable[0].pressurePa,
+            detonableToPa: bulk.detonable[bulk.detonable.length - 1].pressurePa,
+          }
+        : {}),
       ...flammabilityNumbers(w.assessment, w.pressurePa),
       ...(det
-        ? { detonationAtPa: det.pressurePa, basis: det.basis, undiluted: det.undiluted, phi: det.phi, phiLow: det.phiLow, phiHigh: det.phiHigh, limitSources: det.limitSources, cjPa: det.cjPa, cjK: det.cjK, cjVelocityMPerS: det.cjVelocityMPerS, reflectedPa: det.reflectedPa, limitPa: det.limitPa, cjMissing: det.cjMissing }
+        ? {
+            detonationAtPa: det.pressurePa,
+            basis: det.basis,
+            undiluted: det.undiluted,
+            phi: det.phi,
+            phiLow: det.phiLow,
+            phiHigh: det.phiHigh,
+            limitSources: det.limitSources,
+            cjPa: det.cjPa,
+            cjK: det.cjK,
+            cjVelocityMPerS: det.cjVelocityMPerS,
+            reflectedPa: det.reflectedPa,
+            limitPa: det.limitPa,
+            cjMissing: det.cjMissing,
+          }
         : {}),
     });
     return out;

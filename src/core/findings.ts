@@ -15,39 +15,130 @@ interface Base {
 
 export type Finding = Base &
   (
-    | { readonly code: 'tank-over-rating'; readonly pressurePa: number; readonly limitPa: number; readonly ratedPa: number; readonly tank: string }
+    | {
+        readonly code: 'tank-over-rating';
+        readonly pressurePa: number;
+        readonly limitPa: number;
+        readonly ratedPa: number;
+        readonly tank: string;
+      }
     | { readonly code: 'no-gauge-covers'; readonly pressurePa: number }
-    | { readonly code: 'gauge-coarser-than-band'; readonly gauge: string; readonly uncertaintyPa: number; readonly bandPa: number }
+    | {
+        readonly code: 'gauge-coarser-than-band';
+        readonly gauge: string;
+        readonly uncertaintyPa: number;
+        readonly bandPa: number;
+      }
     | { readonly code: 'purity-assumed'; readonly source: string; readonly species: string }
     | { readonly code: 'unidentified-impurity'; readonly fraction: number }
-    | { readonly code: 'supply-mismatch'; readonly species: string; readonly design: number; readonly actual: number }
+    | {
+        readonly code: 'supply-mismatch';
+        readonly species: string;
+        readonly design: number;
+        readonly actual: number;
+      }
     | { readonly code: 'impurity-present'; readonly species: string; readonly fraction: number }
     | { readonly code: 'virial-correlation'; readonly species: string; readonly method: string }
-    | { readonly code: 'cross-virial-estimate'; readonly pairs: readonly string[]; readonly relative: number; readonly shiftPa: number; readonly bandPa: number }
+    | {
+        readonly code: 'cross-virial-estimate';
+        readonly pairs: readonly string[];
+        readonly relative: number;
+        readonly shiftPa: number;
+        readonly bandPa: number;
+      }
     | { readonly code: 'ideal-gas-error'; readonly worstPa: number; readonly bandPa: number }
-    | { readonly code: 'supply-pressure-low'; readonly source: string; readonly supplyPa: number; readonly targetPa: number }
+    | {
+        readonly code: 'supply-pressure-low';
+        readonly source: string;
+        readonly supplyPa: number;
+        readonly targetPa: number;
+      }
     | { readonly code: 'tank-rating-unknown'; readonly tank: string }
-    | { readonly code: 'batch-too-small'; readonly reactor: string; readonly finalPa: number; readonly minTankPa: number }
+    | {
+        readonly code: 'batch-too-small';
+        readonly reactor: string;
+        readonly finalPa: number;
+        readonly minTankPa: number;
+      }
     | { readonly code: 'isolate-gauge'; readonly gauge: string; readonly topPa: number }
     | ({ readonly code: 'flammable-state' | 'flammable-mixture' | 'near-flammable' } & FlammabilityNumbers)
-    | ({ readonly code: 'detonable-state'; readonly inertFraction: number; readonly pressurePa: number } & DetonationNumbers)
-    | ({ readonly code: 'closed-vessel-pressure'; readonly fromPa: number; readonly peakPa: number; readonly limitPa?: number } & ClosedVesselNumbers)
-    | { readonly code: 'compression-heating'; readonly fuel: string; readonly fromPa: number; readonly toPa: number; readonly gamma: number; readonly endK: number; readonly aitK: number }
-    | { readonly code: 'condensation'; readonly species: string; readonly partialPa: number; readonly psatPa: number; readonly fraction: number; readonly coldestK: number; readonly inLine: boolean; readonly method: string }
-    | { readonly code: 'psat-estimated'; readonly species: string; readonly method: string; readonly coldestK: number }
+    | ({
+        readonly code: 'detonable-state';
+        readonly inertFraction: number;
+        readonly pressurePa: number;
+      } & DetonationNumbers)
+    | ({
+        readonly code: 'closed-vessel-pressure';
+        readonly fromPa: number;
+        readonly peakPa: number;
+        readonly limitPa?: number;
+      } & ClosedVesselNumbers)
+    | {
+        readonly code: 'compression-heating';
+        readonly fuel: string;
+        readonly fromPa: number;
+        readonly toPa: number;
+        readonly gamma: number;
+        readonly endK: number;
+        readonly aitK: number;
+      }
+    | {
+        readonly code: 'condensation';
+        readonly species: string;
+        readonly partialPa: number;
+        readonly psatPa: number;
+        readonly fraction: number;
+        readonly coldestK: number;
+        readonly inLine: boolean;
+        readonly method: string;
+      }
+    | {
+        readonly code: 'psat-estimated';
+        readonly species: string;
+        readonly method: string;
+        readonly coldestK: number;
+      }
     | { readonly code: 'coldest-temperature-assumed'; readonly temperatureK: number }
     | { readonly code: 'no-flammability-data'; readonly species: string }
     | { readonly code: 'flammability-data-estimated'; readonly what: string }
     | { readonly code: 'inert-coefficient-unknown'; readonly species: string; readonly used: number }
     | { readonly code: 'no-with-o2'; readonly pressurePa: number }
-    | { readonly code: 'acetylene-pressure'; readonly partialPa: number; readonly limitPa: number; readonly inLine: boolean }
+    | {
+        readonly code: 'acetylene-pressure';
+        readonly partialPa: number;
+        readonly limitPa: number;
+        readonly inLine: boolean;
+      }
     | { readonly code: 'n2o-decomposition'; readonly partialPa: number }
     | { readonly code: 'oxygen-service'; readonly source: string }
     | { readonly code: 'oxygen-enriched'; readonly oxygenFraction: number }
     | { readonly code: 'safer-order'; readonly order: readonly string[]; readonly reason: string }
-    | ({ readonly code: 'flammable-fill-path'; readonly source: string; readonly detonable: boolean; readonly inertFraction: number; readonly fromPa: number; readonly toPa: number; /** the detonable part of the flammable stretch, tank pressures */ readonly detonableFromPa?: number; readonly detonableToPa?: number; /** tank pressure of the detonable point judged by the rule for detonable states */ readonly detonationAtPa?: number } & FlammabilityNumbers & DetonationNumbers)
-    | ({ readonly code: 'flammable-at-inlet'; readonly source: string; readonly incomingShare: number } & FlammabilityNumbers)
-    | { readonly code: 'oxygen-compression'; readonly oxygenFraction: number; readonly fromPa: number; readonly toPa: number; readonly gamma: number; readonly endK: number; readonly limitK: number }
+    | ({
+        readonly code: 'flammable-fill-path';
+        readonly source: string;
+        readonly detonable: boolean;
+        readonly inertFraction: number;
+        readonly fromPa: number;
+        readonly toPa: number;
+        /** the detonable part of the flammable stretch, tank pressures */ readonly detonableFromPa?: number;
+        readonly detonableToPa?: number;
+        /** tank pressure of the detonable point judged by the rule for detonable states */ readonly detonationAtPa?: number;
+      } & FlammabilityNumbers &
+        DetonationNumbers)
+    | ({
+        readonly code: 'flammable-at-inlet';
+        readonly source: string;
+        readonly incomingShare: number;
+      } & FlammabilityNumbers)
+    | {
+        readonly code: 'oxygen-compression';
+        readonly oxygenFraction: number;
+        readonly fromPa: number;
+        readonly toPa: number;
+        readonly gamma: number;
+        readonly endK: number;
+        readonly limitK: number;
+      }
     | { readonly code: 'no-safe-order'; readonly reason: string }
   );
 
@@ -116,7 +207,9 @@ export type FindingCode = Finding['code'];
 
 /** what every output that carries findings must also say */
 export const STANDING_CAUTION =
-  'This plan is an engineering estimate, not a hazard review. Follow the gas suppliers\' safety data sheets, your institution\'s rules, local codes and licensed practice; have the procedure reviewed before the first fill.';
+  'This plan is an engineering estimate, not a hazard review. Follow the gas ' +
+  "suppliers' safety data sheets, your institution's rules, local codes and " +
+  'licensed practice; have the procedure reviewed before the first fill.';
 
 export type PressureFormatter = (pa: number) => string;
 
@@ -127,9 +220,15 @@ function flammabilityDetail(f: FlammabilityNumbers): string {
   const parts = [`fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} on the N2-equivalent diagram`];
   if (f.lfl !== undefined) parts.push(`LFL ${pct(f.lfl)}`);
   if (f.loc !== undefined) parts.push(`LOC ${pct(f.loc)}`);
-  if (f.side === 'rich' && f.uflHere !== undefined) parts.push(`rich side: UFL ${pct(f.uflHere)} at this O2 share`);
-  if (f.flameEquilibriumK !== undefined) parts.push(`flame ${f.flameEquilibriumK.toFixed(0)} K (equilibrium)`);
-  if (f.flameK !== undefined && f.limitFlameK !== undefined) parts.push(`flame-temperature method: ${f.flameK.toFixed(0)} K by complete combustion (a cross-check, no dissociation) vs limit ${f.limitFlameK.toFixed(0)} K`);
+  if (f.side === 'rich' && f.uflHere !== undefined)
+    parts.push(`rich side: UFL ${pct(f.uflHere)} at this O2 share`);
+  if (f.flameEquilibriumK !== undefined)
+    parts.push(`flame ${f.flameEquilibriumK.toFixed(0)} K (equilibrium)`);
+  if (f.flameK !== undefined && f.limitFlameK !== undefined)
+    parts.push(
+      `flame-temperature method: ${f.flameK.toFixed(0)} K by complete combustion ` +
+        `(a cross-check, no dissociation) vs limit ${f.limitFlameK.toFixed(0)} K`,
+    );
   return `${parts.join('; ')}; by ${f.method}`;
 }
 
@@ -142,14 +241,30 @@ const times = (x: number) => `${x.toFixed(2)} x`;
  */
 function nearLimitDistance(f: FlammabilityNumbers): string {
   const parts: string[] = [];
-  if (f.fuelOverLfl !== undefined && f.lfl !== undefined && f.fuelOverLfl < 1) parts.push(`fuel at ${times(f.fuelOverLfl)} LFL (${pct(f.fuelFraction)} against ${pct(f.lfl)})`);
-  if (f.oxygenOverLoc !== undefined && f.loc !== undefined && f.oxygenOverLoc < 1) parts.push(`O2 at ${times(f.oxygenOverLoc)} LOC (${pct(f.oxygenFraction)} against ${pct(f.loc)})`);
-  if (f.side === 'rich' && f.fuelOverUfl !== undefined && f.uflHere !== undefined && f.fuelOverUfl > 1) parts.push(`fuel at ${times(f.fuelOverUfl)} the UFL at this O2 share (${pct(f.fuelFraction)} against ${pct(f.uflHere)}): too rich to burn, but air or O2 let in would bring it into the region`);
-  if (f.flameK !== undefined && f.limitFlameK !== undefined && f.flameK < f.limitFlameK && (parts.length === 0 || f.method !== 'envelope')) {
-    parts.push(`flame ${f.flameK.toFixed(0)} K against a limit of ${f.limitFlameK.toFixed(0)} K (complete combustion)`);
+  if (f.fuelOverLfl !== undefined && f.lfl !== undefined && f.fuelOverLfl < 1)
+    parts.push(`fuel at ${times(f.fuelOverLfl)} LFL (${pct(f.fuelFraction)} against ${pct(f.lfl)})`);
+  if (f.oxygenOverLoc !== undefined && f.loc !== undefined && f.oxygenOverLoc < 1)
+    parts.push(`O2 at ${times(f.oxygenOverLoc)} LOC (${pct(f.oxygenFraction)} against ${pct(f.loc)})`);
+  if (f.side === 'rich' && f.fuelOverUfl !== undefined && f.uflHere !== undefined && f.fuelOverUfl > 1)
+    parts.push(
+      `fuel at ${times(f.fuelOverUfl)} the UFL at this O2 share (${pct(f.fuelFraction)} ` +
+        `against ${pct(f.uflHere)}): too rich to burn, but air or O2 let in would ` +
+        `bring it into the region`,
+    );
+  if (
+    f.flameK !== undefined &&
+    f.limitFlameK !== undefined &&
+    f.flameK < f.limitFlameK &&
+    (parts.length === 0 || f.method !== 'envelope')
+  ) {
+    parts.push(
+      `flame ${f.flameK.toFixed(0)} K against a limit of ${f.limitFlameK.toFixed(0)} K (complete combustion)`,
+    );
   }
-  if (f.missingData) parts.push('no flammability limits on file for a fuel it holds, so it cannot be judged non-flammable');
-  if (!parts.length) parts.push('outside the envelope between its corners, within the margins of the LFL and the LOC');
+  if (f.missingData)
+    parts.push('no flammability limits on file for a fuel it holds, so it cannot be judged non-flammable');
+  if (!parts.length)
+    parts.push('outside the envelope between its corners, within the margins of the LFL and the LOC');
   return parts.join('; ');
 }
 
@@ -158,7 +273,10 @@ function pathDetonation(f: Extract<Finding, { code: 'flammable-fill-path' }>, p:
   const at = f.detonationAtPa !== undefined ? ` at ${p(f.detonationAtPa)}` : '';
   if (f.undiluted) return `; undiluted fuel/O2${at} is a danger whatever the tank's rating (common practice)`;
   if (f.cjPa !== undefined && f.reflectedPa !== undefined)
-    return `; a detonation${at} would reach about ${p(f.cjPa)} (Chapman-Jouguet) and about ${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? `, ${f.reflectedPa > f.limitPa ? 'above' : 'below'} the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`;
+    return (
+      `; a detonation${at} would reach about ${p(f.cjPa)} (Chapman-Jouguet) and ` +
+      `about ${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? `, ${f.reflectedPa > f.limitPa ? 'above' : 'below'} the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`
+    );
   if (f.cjMissing) return `; its detonation pressure could not be estimated (${f.cjMissing})`;
   return '';
 }
@@ -167,114 +285,254 @@ function describeDetonation(f: Extract<Finding, { code: 'detonable-state' }>, p:
   const basis =
     f.basis === 'published-limits'
       ? `inside the published detonation limits${f.phiLow !== undefined && f.phiHigh !== undefined ? ` (equivalence ratio ${f.phi?.toFixed(2)} within ${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : ''})` : ''}`
-      : `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule where no detonation limits are on file for this fuel in this oxidizer (detonable when flammable with less than 50 % N2-equivalent inert, or with an oxidizer about as rich in O2 as air or richer)`;
-  const what = f.undiluted ? `undiluted fuel/O2 at ${p(f.pressurePa)}, ${basis}` : `fuel and oxidizer at ${p(f.pressurePa)} ${basis}`;
+      : `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule ` +
+        `where no detonation limits are on file for this fuel in this oxidizer (detonable ` +
+        `when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
+        `about as rich in O2 as air or richer)`;
+  const what = f.undiluted
+    ? `undiluted fuel/O2 at ${p(f.pressurePa)}, ${basis}`
+    : `fuel and oxidizer at ${p(f.pressurePa)} ${basis}`;
   const cj =
     f.cjPa !== undefined && f.reflectedPa !== undefined
-      ? `; a detonation would reach about ${p(f.cjPa)} (Chapman-Jouguet, equilibrium, ${f.cjK?.toFixed(0)} K, ${f.cjVelocityMPerS?.toFixed(0)} m/s) and about ${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? ` against the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`
+      ? `; a detonation would reach about ${p(f.cjPa)} (Chapman-Jouguet, equilibrium, ` +
+        `${f.cjK?.toFixed(0)} K, ${f.cjVelocityMPerS?.toFixed(0)} m/s) and about ` +
+        `${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? ` against the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`
       : f.cjMissing
         ? `; its detonation pressure could not be estimated (${f.cjMissing})`
         : '';
   const advice = f.undiluted
-    ? ' - fuel/O2 mixtures without diluent are not made in a mixing tank (common practice; gauges and valves on the manifold are rated far below the tank): add the bath gas before the oxidizer, or do not make this state'
+    ? ' - fuel/O2 mixtures without diluent are not made in a mixing tank (common ' +
+      'practice; gauges and valves on the manifold are rated far below the tank): ' +
+      'add the bath gas before the oxidizer, or do not make this state'
     : f.severity === 'danger'
       ? ' - the tank would not hold it: lower the pressure of this state, dilute it more, or change the fill order'
       : ' - keep ignition sources away and consider a lower pressure or more diluent';
   return `this state can detonate: ${what}${cj}${advice}`;
 }
 
-function describeClosedVessel(f: Extract<Finding, { code: 'closed-vessel-pressure' }>, p: PressureFormatter): string {
+function describeClosedVessel(
+  f: Extract<Finding, { code: 'closed-vessel-pressure' }>,
+  p: PressureFormatter,
+): string {
   const how =
     f.method === 'complete-combustion'
-      ? `complete combustion at constant volume from ${p(f.fromPa)}; no equilibrium: ${f.equilibriumMissing ?? 'data missing'}`
+      ? `complete combustion at constant volume from ${p(f.fromPa)}; no equilibrium: ` +
+        `${f.equilibriumMissing ?? 'data missing'}`
       : `constant-volume adiabatic equilibrium from ${p(f.fromPa)}${f.temperatureK !== undefined ? `, ${f.temperatureK.toFixed(0)} K` : ''}${f.graphiteMol ? `, with soot (graphite) forming` : ''}${f.completePa !== undefined ? `; complete combustion, a cross-check, gives ${p(f.completePa)}` : ''}`;
   const over = f.limitPa !== undefined && f.peakPa > f.limitPa;
   return over
-    ? `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (${how}), above the tank's working limit ${p(f.limitPa!)} - lower the pressure of this state or change the fill order`
-    : `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} (${how})${f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : '; the tank rating is unknown'}`;
+    ? `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} ` +
+        `(${how}), above the tank's working limit ${p(f.limitPa!)} - lower the pressure ` +
+        `of this state or change the fill order`
+    : `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} ` +
+        `(${how})${f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : '; the tank rating is unknown'}`;
 }
 
 export function describeFinding(f: Finding, p: PressureFormatter): string {
   switch (f.code) {
     case 'tank-over-rating':
-      return `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} of tank ${f.tank} (rated ${p(f.ratedPa)}); lower the final pressure or use a tank rated for it`;
+      return (
+        `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
+        `of tank ${f.tank} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
+        `a tank rated for it`
+      );
     case 'no-gauge-covers':
-      return `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add a gauge with that range or change the final pressure`;
+      return (
+        `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add ` +
+        `a gauge with that range or change the final pressure`
+      );
     case 'gauge-coarser-than-band':
-      return `gauge ${f.gauge} has a standard uncertainty of ${p(f.uncertaintyPa)} at this reading, as large as a third or more of the tolerance band +-${p(f.bandPa)}; the composition tolerance may not be met - use a lower-range gauge or widen the tolerance`;
+      return (
+        `gauge ${f.gauge} has a standard uncertainty of ${p(f.uncertaintyPa)} at ` +
+        `this reading, as large as a third or more of the tolerance band +-${p(f.bandPa)}; ` +
+        `the composition tolerance may not be met - use a lower-range gauge or widen ` +
+        `the tolerance`
+      );
     case 'purity-assumed':
-      return `no purity is given for ${f.source} (${f.species}); 100 % was assumed - enter the certificate purity and impurities in the lab profile`;
+      return (
+        `no purity is given for ${f.source} (${f.species}); 100 % was assumed - enter ` +
+        `the certificate purity and impurities in the lab profile`
+      );
     case 'unidentified-impurity':
-      return `up to ${(f.fraction * 1e6).toPrecision(3)} ppm of the batch is cylinder impurity that the lab profile does not identify (1 - purity minus listed impurities)`;
+      return (
+        `up to ${(f.fraction * 1e6).toPrecision(3)} ppm of the batch is cylinder ` +
+        `impurity that the lab profile does not identify (1 - purity minus listed impurities)`
+      );
     case 'supply-mismatch':
-      return `with the cylinders chosen, ${f.species} can only reach x = ${f.actual.toPrecision(5)} instead of the design ${f.design.toPrecision(5)}; check the cylinders' compositions`;
+      return (
+        `with the cylinders chosen, ${f.species} can only reach x = ${f.actual.toPrecision(5)} ` +
+        `instead of the design ${f.design.toPrecision(5)}; check the cylinders' compositions`
+      );
     case 'impurity-present':
-      return `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} from cylinder impurities`;
+      return (
+        `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} ` +
+        `from cylinder impurities`
+      );
     case 'cross-virial-estimate':
-      return `the cross virial coefficients ${f.pairs.join(', ')} come from the combining rules (no reference mixture model qualifies for them); their uncertainty (calibrated on the fitted pairs: max(${VIRIAL_U.cross.absolute * 1e6} cm3/mol, ${VIRIAL_U.cross.relative * 100} %) each, standard, more at low reduced temperature; ${VIRIAL_U.crossUncalibrated.relative * 100} % for pairs with He, H2, Ne or a hydrogen-bonding species) could move this target by about +-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band of +-${p(f.bandPa)}${f.severity === 'warning' ? ' - the target is less certain than its band; check the batch afterwards with mixwright check, or widen the tolerance' : ''}`;
+      return (
+        `the cross virial coefficients ${f.pairs.join(', ')} come from the combining ` +
+        `rules (no reference mixture model qualifies for them); their uncertainty ` +
+        `(calibrated on the fitted pairs: max(${VIRIAL_U.cross.absolute * 1e6} cm3/mol, ` +
+        `${VIRIAL_U.cross.relative * 100} %) each, standard, more at low reduced ` +
+        `temperature; ${VIRIAL_U.crossUncalibrated.relative * 100} % for pairs with ` +
+        `He, H2, Ne or a hydrogen-bonding species) could move this target by about ` +
+        `+-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band ` +
+        `of +-${p(f.bandPa)}${f.severity === 'warning' ? ' - the target is less certain than its band; check the batch afterwards with mixwright check, or widen the tolerance' : ''}`
+      );
     case 'virial-correlation':
-      return `no reference virial coefficient for ${f.species} at this temperature; B from the ${f.method} correlation (less certain)`;
+      return (
+        `no reference virial coefficient for ${f.species} at this temperature; B ` +
+        `from the ${f.method} correlation (less certain)`
+      );
     case 'ideal-gas-error':
-      return `an ideal-gas plan would be off by up to ${p(f.worstPa)} at one reading, against a tolerance band of +-${p(f.bandPa)}: use the real-gas targets`;
+      return (
+        `an ideal-gas plan would be off by up to ${p(f.worstPa)} at one reading, ` +
+        `against a tolerance band of +-${p(f.bandPa)}: use the real-gas targets`
+      );
     case 'supply-pressure-low':
-      return `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} the tank must reach in this fill; the fill cannot be completed from it - raise the regulator setting (within the cylinder's and line's ratings) or lower the final pressure`;
+      return (
+        `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} ` +
+        `the tank must reach in this fill; the fill cannot be completed from it - ` +
+        `raise the regulator setting (within the cylinder's and line's ratings) or ` +
+        `lower the final pressure`
+      );
     case 'tank-rating-unknown':
-      return `the lab profile gives no pressure rating for tank ${f.tank}; no rating is assumed, so the pressure checks cannot be made - add its rating (maximum allowed working pressure) to the profile, or give --rating with --volume`;
+      return (
+        `the lab profile gives no pressure rating for tank ${f.tank}; no rating is ` +
+        `assumed, so the pressure checks cannot be made - add its rating (maximum ` +
+        `allowed working pressure) to the profile, or give --rating with --volume`
+      );
     case 'batch-too-small':
-      return `the batch serves no experiment in ${f.reactor}: at ${p(f.finalPa)} the tank holds less than one fill plus the reserve (it is used down to ${p(f.minTankPa)}); raise the final pressure, use a larger tank, or size the batch with --experiments`;
+      return (
+        `the batch serves no experiment in ${f.reactor}: at ${p(f.finalPa)} the tank ` +
+        `holds less than one fill plus the reserve (it is used down to ${p(f.minTankPa)}); ` +
+        `raise the final pressure, use a larger tank, or size the batch with --experiments`
+      );
     case 'isolate-gauge':
       return `close off ${f.gauge} before this fill: it reads only up to ${p(f.topPa)} absolute`;
     case 'flammable-state':
-      return `the tank is flammable after this fill (${flammabilityDetail(f)}); choose a fill order that avoids it, or treat this state as a flammable, possibly explosive gas at ${p(f.pressurePa)}`;
+      return (
+        `the tank is flammable after this fill (${flammabilityDetail(f)}); choose ` +
+        `a fill order that avoids it, or treat this state as a flammable, possibly ` +
+        `explosive gas at ${p(f.pressurePa)}`
+      );
     case 'flammable-mixture':
-      return `the finished batch is flammable (${flammabilityDetail(f)}): store and handle it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`;
+      return (
+        `the finished batch is flammable (${flammabilityDetail(f)}): store and handle ` +
+        `it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`
+      );
     case 'near-flammable':
-      return `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} (N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong gas could make it flammable`;
+      return (
+        `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. ` +
+        `Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} ` +
+        `(N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points ` +
+        `below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong ` +
+        `gas could make it flammable`
+      );
     case 'detonable-state':
       return describeDetonation(f, p);
     case 'closed-vessel-pressure':
       return describeClosedVessel(f, p);
     case 'compression-heating':
-      return `this fill compresses the gas already in the tank from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it heats it to ${kelvin(f.endK)}, against the autoignition temperature ${kelvin(f.aitK)} of ${f.fuel}, the fuel in the tank after this fill that ignites first. Throttle the fill (open the valve slowly) or change the order`;
-    case 'condensation':
-      {
-        // above the vapour pressure itself it will condense, not "may"
-        const saturated = f.partialPa >= f.psatPa;
-        const share = saturated ? `above its vapour pressure ${p(f.psatPa)} itself (${((f.partialPa / f.psatPa) * 100).toFixed(0)} %)` : `above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)}`;
-        return f.inLine
-          ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense in the line - ${f.step === 1 ? 'it is the first fill already: heat the lines, or lower its partial pressure' : 'fill the vapour first or heat the lines'}`
-          : `${f.species} partial pressure ${p(f.partialPa)} is ${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} condense - lower its partial pressure or heat the tank and lines`;
-      }
+      return (
+        `this fill compresses the gas already in the tank from ${p(f.fromPa)} to ` +
+        `${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it ` +
+        `heats it to ${kelvin(f.endK)}, against the autoignition temperature ${kelvin(f.aitK)} ` +
+        `of ${f.fuel}, the fuel in the tank after this fill that ignites first. Throttle ` +
+        `the fill (open the valve slowly) or change the order`
+      );
+    case 'condensation': {
+      // above the vapour pressure itself it will condense, not "may"
+      const saturated = f.partialPa >= f.psatPa;
+      const share = saturated
+        ? `above its vapour pressure ${p(f.psatPa)} itself (${((f.partialPa / f.psatPa) * 100).toFixed(0)} %)`
+        : `above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)}`;
+      return f.inLine
+        ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ` +
+            `${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} ` +
+            `condense in the line - ${f.step === 1 ? 'it is the first fill already: heat the lines, or lower its partial pressure' : 'fill the vapour first or heat the lines'}`
+        : `${f.species} partial pressure ${p(f.partialPa)} is ${share} at the coldest ` +
+            `point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} ` +
+            `condense - lower its partial pressure or heat the tank and lines`;
+    }
     case 'psat-estimated':
-      return `the vapour pressure of ${f.species} at ${kelvin(f.coldestK)} comes from ${f.method} (outside the range of its measured constants); the condensation check is less certain`;
+      return (
+        `the vapour pressure of ${f.species} at ${kelvin(f.coldestK)} comes from ` +
+        `${f.method} (outside the range of its measured constants); the condensation ` +
+        `check is less certain`
+      );
     case 'coldest-temperature-assumed':
-      return `the lab profile gives no coldest temperature for tank and lines; the condensation check used the fill temperature ${kelvin(f.temperatureK)} - add "coldest" to the profile`;
+      return (
+        `the lab profile gives no coldest temperature for tank and lines; the condensation ` +
+        `check used the fill temperature ${kelvin(f.temperatureK)} - add "coldest" ` +
+        `to the profile`
+      );
     case 'no-flammability-data':
-      return `no flammability limits are on file for ${f.species}; the safety review is incomplete for it - treat every state holding it as flammable`;
+      return (
+        `no flammability limits are on file for ${f.species}; the safety review is ` +
+        `incomplete for it - treat every state holding it as flammable`
+      );
     case 'flammability-data-estimated':
       return `flammability data estimated, not measured: ${f.what}`;
     case 'inert-coefficient-unknown':
-      return `no ISO 10156 nitrogen-equivalence coefficient for ${f.species}; the smallest listed value ${f.used} was used (conservative)`;
+      return (
+        `no ISO 10156 nitrogen-equivalence coefficient for ${f.species}; the smallest ` +
+        `listed value ${f.used} was used (conservative)`
+      );
     case 'no-with-o2':
       return `NO and O2 in one tank react to NO2; never premix them - fill them in separate batches`;
     case 'acetylene-pressure':
-      return `${f.inLine ? 'the acetylene line' : 'acetylene'} reaches ${p(f.partialPa)} absolute, above about 15 psig (${p(f.limitPa)} absolute), where acetylene can decompose explosively`;
+      return (
+        `${f.inLine ? 'the acetylene line' : 'acetylene'} reaches ${p(f.partialPa)} ` +
+        `absolute, above about 15 psig (${p(f.limitPa)} absolute), where acetylene ` +
+        `can decompose explosively`
+      );
     case 'n2o-decomposition':
-      return `N2O at ${p(f.partialPa)} partial pressure: it can decompose exothermically at elevated pressure and temperature - keep its pressure low and its lines clean`;
+      return (
+        `N2O at ${p(f.partialPa)} partial pressure: it can decompose exothermically ` +
+        `at elevated pressure and temperature - keep its pressure low and its lines clean`
+      );
     case 'oxygen-service':
-      return `${f.source} is an oxidizer: open its valve slowly, use only parts cleaned for oxygen service and no hydrocarbon grease`;
+      return (
+        `${f.source} is an oxidizer: open its valve slowly, use only parts cleaned ` +
+        `for oxygen service and no hydrocarbon grease`
+      );
     case 'oxygen-enriched':
-      return `the tank holds ${pct(f.oxygenFraction)} oxygen (above 23.5 %, oxygen-enriched): materials burn far more readily - oxygen-clean parts and slow valves`;
+      return (
+        `the tank holds ${pct(f.oxygenFraction)} oxygen (above 23.5 %, oxygen-enriched): ` +
+        `materials burn far more readily - oxygen-clean parts and slow valves`
+      );
     case 'safer-order':
-      return `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} avoids them (${f.reason})`;
+      return (
+        `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} ` +
+        `avoids them (${f.reason})`
+      );
     case 'no-safe-order':
       return f.reason;
     case 'flammable-fill-path':
-      return `during this fill (${f.source}) the tank passes through flammable compositions while it is between ${p(Math.min(f.fromPa, f.toPa))} and ${p(Math.max(f.fromPa, f.toPa))}${f.detonable && f.detonableFromPa !== undefined && f.detonableToPa !== undefined ? `, detonable ones between ${p(Math.min(f.detonableFromPa, f.detonableToPa))} and ${p(Math.max(f.detonableFromPa, f.detonableToPa))}` : ''}, although the states before and after it are not${f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : ''} (worst point: ${flammabilityDetail(f)})${f.detonable ? pathDetonation(f, p) : ''}; change the fill order, or charge a diluent first so the path stays outside the flammable region`;
+      return (
+        `during this fill (${f.source}) the tank passes through flammable compositions ` +
+        `while it is between ${p(Math.min(f.fromPa, f.toPa))} and ${p(Math.max(f.fromPa, f.toPa))}${f.detonable && f.detonableFromPa !== undefined && f.detonableToPa !== undefined ? `, detonable ones between ${p(Math.min(f.detonableFromPa, f.detonableToPa))} and ${p(Math.max(f.detonableFromPa, f.detonableToPa))}` : ''}, ` +
+        `although the states before and after it are not${f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : ''} ` +
+        `(worst point: ${flammabilityDetail(f)})${f.detonable ? pathDetonation(f, p) : ''}; ` +
+        `change the fill order, or charge a diluent first so the path stays outside ` +
+        `the flammable region`
+      );
     case 'flammable-at-inlet':
-      return `where ${f.source} enters the tank it mixes with the tank gas into flammable compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), although the tank itself stays outside the flammable region; fill it in another order, or dilute the tank gas first, and open the valve slowly`;
+      return (
+        `where ${f.source} enters the tank it mixes with the tank gas into flammable ` +
+        `compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), ` +
+        `although the tank itself stays outside the flammable region; fill it in ` +
+        `another order, or dilute the tank gas first, and open the valve slowly`
+      );
     case 'oxygen-compression':
-      return `this fill compresses oxygen-rich gas (${pct(f.oxygenFraction)} O2-equivalent) from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it reaches ${kelvin(f.endK)}, above ${kelvin(f.limitK)}, where seats and seals in oxygen service can ignite. Fill the oxidizer later, throttle this fill, or use only oxygen-compatible parts`;
+      return (
+        `this fill compresses oxygen-rich gas (${pct(f.oxygenFraction)} O2-equivalent) ` +
+        `from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) ` +
+        `it reaches ${kelvin(f.endK)}, above ${kelvin(f.limitK)}, where seats and ` +
+        `seals in oxygen service can ignite. Fill the oxidizer later, throttle this ` +
+        `fill, or use only oxygen-compatible parts`
+      );
   }
 }
 

@@ -21,9 +21,20 @@ import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { flameTemperatureK } from './combustion.js';
 import type { Fractions } from './composition.js';
-import { leanThresholdK, limitFlameTemperatureK, locFlameTemperatureK, richLimitCalibration, richThresholdK } from './limit-flame.js';
+import {
+  leanThresholdK,
+  limitFlameTemperatureK,
+  locFlameTemperatureK,
+  richLimitCalibration,
+  richThresholdK,
+} from './limit-flame.js';
 
-export { limitFlameTemperatureK, locFlameTemperatureK, richLimitCalibration, type RichCalibration } from './limit-flame.js';
+export {
+  limitFlameTemperatureK,
+  locFlameTemperatureK,
+  richLimitCalibration,
+  type RichCalibration,
+} from './limit-flame.js';
 
 export type Verdict = 'flammable' | 'near-limit' | 'non-flammable';
 
@@ -135,7 +146,8 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
     ufl *= 1 + 0.0008 * dT;
   }
   const pMPa = pressurePa / 1e6;
-  if (pMPa > 0.101325) ufl = Math.min(uflO2, ufl + 0.206 * (Math.log10(pMPa) + 1) - 0.206 * (Math.log10(0.101325) + 1));
+  if (pMPa > 0.101325)
+    ufl = Math.min(uflO2, ufl + 0.206 * (Math.log10(pMPa) + 1) - 0.206 * (Math.log10(0.101325) + 1));
   return { lfl, ufl: Math.min(ufl, 1), uflO2, loc, z, estimated, missing, sources: [...sources] };
 }
 
@@ -151,7 +163,11 @@ export interface DiagramPoint {
  * K x their amount of N2 (ISO 10156:2017); oxygen carriers as their O2 equivalent
  * (N2O and NO: half a mole of O2, their N2 as inert).
  */
-export function diagramPoint(y: Fractions): { point: DiagramPoint; fuelBlend: Record<string, number>; unknownInerts: string[] } {
+export function diagramPoint(y: Fractions): {
+  point: DiagramPoint;
+  fuelBlend: Record<string, number>;
+  unknownInerts: string[];
+} {
   let f = 0;
   let o = 0;
   let n = 0;
@@ -196,7 +212,8 @@ export function envelopePolygon(l: BlendLimits): [number, number][] {
     [l.ufl, AIR_O2 * (1 - l.ufl)], // UFL in air
     [l.uflO2, 1 - l.uflO2], // UFL in O2
   ];
-  const same = (a: [number, number], b: [number, number]) => Math.hypot(a[0] - b[0], a[1] - b[1]) < VERTEX_EPS;
+  const same = (a: [number, number], b: [number, number]) =>
+    Math.hypot(a[0] - b[0], a[1] - b[1]) < VERTEX_EPS;
   const out: [number, number][] = [];
   for (const v of raw) if (!out.length || !same(out[out.length - 1], v)) out.push(v);
   while (out.length > 1 && same(out[0], out[out.length - 1])) out.pop();
@@ -243,7 +260,8 @@ function onSegment(p: [number, number], a: [number, number], b: [number, number]
 
 /** inside or on the boundary (an undiluted fuel/O2 state lies on the fuel-O2 edge) */
 export function insidePolygon(p: [number, number], poly: [number, number][]): boolean {
-  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) if (onSegment(p, poly[j], poly[i])) return true;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++)
+    if (onSegment(p, poly[j], poly[i])) return true;
   let inside = false;
   for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
     const [xi, yi] = poly[i];
@@ -288,11 +306,21 @@ export interface FlammabilityAssessment {
 /** flame-temperature margin for "near the limit": 60 % of the limit temperature rise (the same share as the LFL margin) */
 const FLAME_MARGIN = MARGINS.lflFraction;
 
-export function assessFlammability(y: Fractions, temperatureK: number, pressurePa: number): FlammabilityAssessment {
+export function assessFlammability(
+  y: Fractions,
+  temperatureK: number,
+  pressurePa: number,
+): FlammabilityAssessment {
   const { point, fuelBlend, unknownInerts } = diagramPoint(y);
   const hasFuel = Object.keys(fuelBlend).length > 0;
   if (!hasFuel || point.oxygen <= 0) {
-    return { verdict: 'non-flammable', byEnvelope: 'non-flammable', byFlameTemperature: 'non-flammable', point, unknownInerts };
+    return {
+      verdict: 'non-flammable',
+      byEnvelope: 'non-flammable',
+      byFlameTemperature: 'non-flammable',
+      point,
+      unknownInerts,
+    };
   }
   const limits = blendLimits(fuelBlend, temperatureK, pressurePa);
   // which side of stoichiometric, and how far from each limit
@@ -315,7 +343,12 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
   if (insidePolygon([point.fuel, point.oxygen], poly)) byEnvelope = 'flammable';
   else {
     const locNear = limits.loc >= 0.05 ? limits.loc - MARGINS.locOffset : limits.loc * MARGINS.locFractionLow;
-    if (point.fuel >= MARGINS.lflFraction * limits.lfl && point.oxygen >= locNear && point.fuel <= limits.uflO2) byEnvelope = 'near-limit';
+    if (
+      point.fuel >= MARGINS.lflFraction * limits.lfl &&
+      point.oxygen >= locNear &&
+      point.fuel <= limits.uflO2
+    )
+      byEnvelope = 'near-limit';
   }
   // flame temperature; the limit of a blend is the fuel-weighted mean of its fuels' limits
   let limitFlameK = 0;
@@ -348,7 +381,8 @@ export function assessFlammability(y: Fractions, temperatureK: number, pressureP
     limitFlameK /= wsum;
     flameK = flameTemperatureK(y, temperatureK);
     if (flameK >= limitFlameK) byFlameTemperature = 'flammable';
-    else if (flameK - temperatureK >= FLAME_MARGIN * (limitFlameK - 298.15)) byFlameTemperature = 'near-limit';
+    else if (flameK - temperatureK >= FLAME_MARGIN * (limitFlameK - 298.15))
+      byFlameTemperature = 'near-limit';
   }
   // a fuel without limit data cannot be judged non-flammable
   let verdict = worseVerdict(byEnvelope, byFlameTemperature);

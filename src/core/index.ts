@@ -10,7 +10,14 @@ export type { Source, SourceQuality } from './data/sources.js';
 export { ELEMENTS } from './data/elements.js';
 export type { ElementRecord } from './data/elements.js';
 export { molarMassKgPerMol, oxygenDemand } from './formula.js';
-export { getSpecies, lookup, resolveSpeciesKey, speciesKeys, suggestSpecies, PROPERTY_NAMES } from './lookup.js';
+export {
+  getSpecies,
+  lookup,
+  resolveSpeciesKey,
+  speciesKeys,
+  suggestSpecies,
+  PROPERTY_NAMES,
+} from './lookup.js';
 export { rankSpecies } from './lookup.js';
 export type { PropertyName, PropertyValue } from './lookup.js';
 export { ProblemError, fail, relocate } from './problems.js';
@@ -18,10 +25,36 @@ export type { Problem, ProblemCode, Where } from './problems.js';
 export { describeProblem, describeProblemAt, describeWhere, formatNumber } from './messages.js';
 export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRole } from './composition.js';
 export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from './composition.js';
-export { tsonopoulosB, pairConstants, correlationConstants, polarConstants, reducedDipole, sizeDifferenceKij } from './virial.js';
+export {
+  tsonopoulosB,
+  pairConstants,
+  correlationConstants,
+  polarConstants,
+  reducedDipole,
+  sizeDifferenceKij,
+} from './virial.js';
 export type { CorrelationConstants } from './virial.js';
-export { referenceB, referenceC, hasReferenceB, referenceCrossB, referenceCrossC, referenceCrossPartners, VIRIAL_TABLE_RANGE_K, VIRIAL_TABLE_LIBRARY, CROSS_TABLE_LIBRARY } from './virial-reference.js';
-export { virialModel, bMix, cMix, pressureFromDensity, densityFromPressure, compressibility, VIRIAL_U, virialU } from './mixture-eos.js';
+export {
+  referenceB,
+  referenceC,
+  hasReferenceB,
+  referenceCrossB,
+  referenceCrossC,
+  referenceCrossPartners,
+  VIRIAL_TABLE_RANGE_K,
+  VIRIAL_TABLE_LIBRARY,
+  CROSS_TABLE_LIBRARY,
+} from './virial-reference.js';
+export {
+  virialModel,
+  bMix,
+  cMix,
+  pressureFromDensity,
+  densityFromPressure,
+  compressibility,
+  VIRIAL_U,
+  virialU,
+} from './mixture-eos.js';
 export type { VirialModel, VirialEntry, VirialMethod, ThirdVirialPair } from './mixture-eos.js';
 export { cpMolar, enthalpyMolar, entropyMolar, gammaMixture, hasThermo, thermoRangeK } from './thermo.js';
 export { nnls } from './nnls.js';
@@ -33,22 +66,72 @@ export type { Gauge, GaugeReference, ReadingContext } from './gauges.js';
 export { fillLabel, planFill, MODEL_T_RANGE_K, MAX_NON_IDEALITY } from './planner.js';
 export type { GaugeAssignment, Plan, PlanInput, PlanStep, TankSpec, Tolerance } from './planner.js';
 export { STANDING_CAUTION, describeFinding, worstSeverity } from './findings.js';
-export type { ClosedVesselNumbers, DetonationNumbers, Finding, FindingCode, FlammabilityNumbers, PressureFormatter, Severity } from './findings.js';
-export { assessFlammability, blendLimits, leChatelier, diagramPoint, envelopePolygon, insidePolygon, limitFlameTemperatureK, locFlameTemperatureK, richLimitCalibration, uflAtOxygenShare, worseVerdict } from './flammability.js';
-export type { BlendLimits, DiagramPoint, FlammabilityAssessment, FlammabilityDistance, RichCalibration, Verdict } from './flammability.js';
-export { adiabaticCompressionK, closedVesselCombustion, completeCombustion, flameTemperatureK } from './combustion.js';
-export { equilibriumGaps, equilibriumHP, equilibriumTP, equilibriumUV, EQUILIBRIUM_SPECIES_COUNT } from './equilibrium.js';
+export type {
+  ClosedVesselNumbers,
+  DetonationNumbers,
+  Finding,
+  FindingCode,
+  FlammabilityNumbers,
+  PressureFormatter,
+  Severity,
+} from './findings.js';
+export {
+  assessFlammability,
+  blendLimits,
+  leChatelier,
+  diagramPoint,
+  envelopePolygon,
+  insidePolygon,
+  limitFlameTemperatureK,
+  locFlameTemperatureK,
+  richLimitCalibration,
+  uflAtOxygenShare,
+  worseVerdict,
+} from './flammability.js';
+export type {
+  BlendLimits,
+  DiagramPoint,
+  FlammabilityAssessment,
+  FlammabilityDistance,
+  RichCalibration,
+  Verdict,
+} from './flammability.js';
+export {
+  adiabaticCompressionK,
+  closedVesselCombustion,
+  completeCombustion,
+  flameTemperatureK,
+} from './combustion.js';
+export {
+  equilibriumGaps,
+  equilibriumHP,
+  equilibriumTP,
+  equilibriumUV,
+  EQUILIBRIUM_SPECIES_COUNT,
+} from './equilibrium.js';
 export type { EquilibriumState } from './equilibrium.js';
 export { chapmanJouguet, detonability } from './detonation.js';
 export type { ChapmanJouguet, Detonability } from './detonation.js';
-export { DETONATION_LIMITS, DETONABLE_INERT_BELOW, REFLECTED_OVER_CJ, UNDILUTED_INERT_BELOW } from './data/detonation-data.js';
+export {
+  DETONATION_LIMITS,
+  DETONABLE_INERT_BELOW,
+  REFLECTED_OVER_CJ,
+  UNDILUTED_INERT_BELOW,
+} from './data/detonation-data.js';
 export type { DetonationLimits } from './data/detonation-data.js';
 export { closedVesselFinding, detonationFinding, equilibriumFlameK } from './explosion-review.js';
 export { antoinePa, leeKeslerPa, saturationPressure, wagnerPa, waterPsatPa } from './vapour-pressure.js';
 export type { Psat, PsatMethod } from './vapour-pressure.js';
 export { reviewFill, reviewFillSequence, reviewState } from './safety.js';
 export { detonableByRule } from './safety.js';
-export { bulkPressure, mix, reviewBulkPath, reviewFillPath, reviewInlet, reviewSegment } from './fill-path.js';
+export {
+  bulkPressure,
+  mix,
+  reviewBulkPath,
+  reviewFillPath,
+  reviewInlet,
+  reviewSegment,
+} from './fill-path.js';
 export type { PathPoint, PathRank, SegmentReview } from './fill-path.js';
 export { fuelsThatMatter, reviewCompression, OXYGEN_COMPRESSION_LIMIT_K } from './compression.js';
 export type { FillEvent, SafetyContext, TankState } from './safety.js';
@@ -61,8 +144,21 @@ export { xoshiro128ss } from './prng.js';
 export type { Rng } from './prng.js';
 export { inverseSetup, invertReadings, workspaceFor } from './recheck.js';
 export type { InverseResult, InverseSetup, Perturbation, ReadingInput, Workspace } from './recheck.js';
-export { evaluateUncertainty, MC_STREAMS, monteCarloSamples, numericalTolerance, streamSeed, streamTrials } from './uncertainty.js';
-export type { CheckedReading, InputComponent, OutputStat, UncertaintyResult, UncertaintySettings } from './uncertainty.js';
+export {
+  evaluateUncertainty,
+  MC_STREAMS,
+  monteCarloSamples,
+  numericalTolerance,
+  streamSeed,
+  streamTrials,
+} from './uncertainty.js';
+export type {
+  CheckedReading,
+  InputComponent,
+  OutputStat,
+  UncertaintyResult,
+  UncertaintySettings,
+} from './uncertainty.js';
 export { judge } from './verdict.js';
 export type { CheckVerdict, SpeciesDeviation, VerdictKind } from './verdict.js';
 export { retarget, ventBack } from './retarget.js';

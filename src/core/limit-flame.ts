@@ -59,9 +59,20 @@ export function richLimitCalibration(fuel: string): RichCalibration | undefined 
     const z = oxygenDemand(getSpecies(fuel).elements);
     const U = Math.max(...rec.uflAir.map((v) => v.value));
     if (U < 1) {
-      const air = { flameK: flameTemperatureK({ [fuel]: U, O2: AIR_O2 * (1 - U), N2: (1 - AIR_O2) * (1 - U) }, 298.15), phi: (z * U) / (AIR_O2 * (1 - U)), ufl: U };
+      const air = {
+        flameK: flameTemperatureK({ [fuel]: U, O2: AIR_O2 * (1 - U), N2: (1 - AIR_O2) * (1 - U) }, 298.15),
+        phi: (z * U) / (AIR_O2 * (1 - U)),
+        ufl: U,
+      };
       const UO = rec.uflO2?.value;
-      const oxygen = UO !== undefined && UO < 1 && UO > U ? { flameK: flameTemperatureK({ [fuel]: UO, O2: 1 - UO }, 298.15), phi: (z * UO) / (1 - UO), ufl: UO } : undefined;
+      const oxygen =
+        UO !== undefined && UO < 1 && UO > U
+          ? {
+              flameK: flameTemperatureK({ [fuel]: UO, O2: 1 - UO }, 298.15),
+              phi: (z * UO) / (1 - UO),
+              ufl: UO,
+            }
+          : undefined;
       out = { air, oxygen };
     }
   }
@@ -120,4 +131,3 @@ export function richThresholdK(c: RichCalibration, noseK: number, phi: number, r
   if (phiU <= 1 || phi >= phiU) return richK;
   return noseK + ((richK - noseK) * (phi - 1)) / (phiU - 1);
 }
-

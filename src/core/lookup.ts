@@ -12,7 +12,10 @@ export function speciesKeys(): string[] {
 }
 
 function editDistance(a: string, b: string): number {
-  const d: number[][] = Array.from({ length: a.length + 1 }, (_, i) => [i, ...new Array<number>(b.length).fill(0)]);
+  const d: number[][] = Array.from({ length: a.length + 1 }, (_, i) => [
+    i,
+    ...new Array<number>(b.length).fill(0),
+  ]);
   for (let j = 1; j <= b.length; j++) d[0][j] = j;
   for (let i = 1; i <= a.length; i++)
     for (let j = 1; j <= b.length; j++)
@@ -38,7 +41,13 @@ export function rankSpecies(name: string): string[] {
     const names = [sp.key, sp.name, ...sp.aliases].map((n) => n.toLowerCase());
     order++;
     if (names.includes(q)) scored.push({ key: sp.key, tier: 0, d: 0, order });
-    else if (names.some((n) => n.startsWith(q))) scored.push({ key: sp.key, tier: 1, d: Math.min(...names.filter((n) => n.startsWith(q)).map((n) => n.length - q.length)), order });
+    else if (names.some((n) => n.startsWith(q)))
+      scored.push({
+        key: sp.key,
+        tier: 1,
+        d: Math.min(...names.filter((n) => n.startsWith(q)).map((n) => n.length - q.length)),
+        order,
+      });
     else {
       const d = Math.min(...names.map((n) => editDistance(q, n)));
       if (d <= limit) scored.push({ key: sp.key, tier: 2, d, order });
@@ -58,7 +67,10 @@ export function resolveSpeciesKey(name: string): string | undefined {
   if (SPECIES.has(name)) return name;
   const q = name.trim().toLowerCase();
   const hits = [...SPECIES.values()].filter(
-    (sp) => sp.key.toLowerCase() === q || sp.name.toLowerCase() === q || sp.aliases.some((a) => a.toLowerCase() === q),
+    (sp) =>
+      sp.key.toLowerCase() === q ||
+      sp.name.toLowerCase() === q ||
+      sp.aliases.some((a) => a.toLowerCase() === q),
   );
   return hits.length === 1 ? hits[0].key : undefined;
 }
@@ -67,7 +79,14 @@ export function resolveSpeciesKey(name: string): string | undefined {
 export const MAX_SPECIES_NAME = 64;
 
 export function getSpecies(name: string): SpeciesRecord {
-  if (name.length > MAX_SPECIES_NAME) return fail({ code: 'name-too-long', what: 'species name', start: name.slice(0, 24), length: name.length, limit: MAX_SPECIES_NAME });
+  if (name.length > MAX_SPECIES_NAME)
+    return fail({
+      code: 'name-too-long',
+      what: 'species name',
+      start: name.slice(0, 24),
+      length: name.length,
+      limit: MAX_SPECIES_NAME,
+    });
   const key = resolveSpeciesKey(name);
   const sp = key ? SPECIES.get(key) : undefined;
   if (!sp) return fail({ code: 'unknown-species', name, suggestions: suggestSpecies(name) });

@@ -12,8 +12,21 @@
 import { R } from './constants.js';
 import { fail } from './problems.js';
 import { getSpecies } from './lookup.js';
-import { averagedCrossB, referenceB, referenceC, referenceCrossB, referenceCrossC } from './virial-reference.js';
-import { correlationConstants, crossRuleCalibrated, crossRuleKij, crossRuleLowTFactor, pairConstants, tsonopoulosB } from './virial.js';
+import {
+  averagedCrossB,
+  referenceB,
+  referenceC,
+  referenceCrossB,
+  referenceCrossC,
+} from './virial-reference.js';
+import {
+  correlationConstants,
+  crossRuleCalibrated,
+  crossRuleKij,
+  crossRuleLowTFactor,
+  pairConstants,
+  tsonopoulosB,
+} from './virial.js';
 
 export type VirialMethod =
   | 'reference' // tabulated reference-EOS value
@@ -76,7 +89,14 @@ export const VIRIAL_U = {
 /** standard uncertainty of one B entry, m3/mol: max(absolute, relative |B|) of its method's class */
 export function virialU(e: VirialEntry): number {
   if (e.uM3PerMol !== undefined) return e.uM3PerMol;
-  const rule = e.i === e.j ? (e.method === 'reference' ? VIRIAL_U.reference : VIRIAL_U.correlation) : e.method === 'reference-mixture' ? VIRIAL_U.referenceCross : VIRIAL_U.cross;
+  const rule =
+    e.i === e.j
+      ? e.method === 'reference'
+        ? VIRIAL_U.reference
+        : VIRIAL_U.correlation
+      : e.method === 'reference-mixture'
+        ? VIRIAL_U.referenceCross
+        : VIRIAL_U.cross;
   return Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
 }
 
@@ -110,22 +130,53 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
       const ref = referenceCrossB(records[i].key, records[j].key, temperatureK);
       if (ref) {
         B[i][j] = B[j][i] = ref.value;
-        entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: ref.value, method: 'reference-mixture', source: 'coolprop-8-mixture', model: ref.model });
+        entries.push({
+          i: records[i].key,
+          j: records[j].key,
+          valueM3PerMol: ref.value,
+          method: 'reference-mixture',
+          source: 'coolprop-8-mixture',
+          model: ref.model,
+        });
         continue;
       }
       // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes) and the fitted additions
-      const v = tsonopoulosB(pairConstants(consts[i], consts[j], crossRuleKij(records[i], records[j], consts[i], consts[j])), temperatureK);
+      const v = tsonopoulosB(
+        pairConstants(consts[i], consts[j], crossRuleKij(records[i], records[j], consts[i], consts[j])),
+        temperatureK,
+      );
       const calibrated = crossRuleCalibrated(records[i], records[j]);
       const cls = calibrated ? VIRIAL_U.cross : VIRIAL_U.crossUncalibrated;
       const lowT = calibrated ? crossRuleLowTFactor(Math.sqrt(consts[i].Tc * consts[j].Tc), temperatureK) : 1;
       const uRule = Math.max(cls.absolute, cls.relative * lowT * Math.abs(v));
-      const rule: VirialEntry = { i: records[i].key, j: records[j].key, valueM3PerMol: v, method: 'combining-rule', source: 'prausnitz-1999', uM3PerMol: uRule };
+      const rule: VirialEntry = {
+        i: records[i].key,
+        j: records[j].key,
+        valueM3PerMol: v,
+        method: 'combining-rule',
+        source: 'prausnitz-1999',
+        uM3PerMol: uRule,
+      };
       // a fitted model's composition average where its spread is the smaller uncertainty (at least the tabulated pairs' floor)
       const avg = averagedCrossB(records[i].key, records[j].key, temperatureK);
-      const avgU = avg && Math.max(avg.u, VIRIAL_U.referenceCross.absolute, VIRIAL_U.referenceCross.relative * Math.abs(avg.value));
+      const avgU =
+        avg &&
+        Math.max(
+          avg.u,
+          VIRIAL_U.referenceCross.absolute,
+          VIRIAL_U.referenceCross.relative * Math.abs(avg.value),
+        );
       if (avg && avgU !== undefined && avgU < virialU(rule)) {
         B[i][j] = B[j][i] = avg.value;
-        entries.push({ i: records[i].key, j: records[j].key, valueM3PerMol: avg.value, method: 'reference-mixture-average', source: 'coolprop-8-mixture', model: avg.model, uM3PerMol: avgU });
+        entries.push({
+          i: records[i].key,
+          j: records[j].key,
+          valueM3PerMol: avg.value,
+          method: 'reference-mixture-average',
+          source: 'coolprop-8-mixture',
+          model: avg.model,
+          uM3PerMol: avgU,
+        });
         continue;
       }
       B[i][j] = B[j][i] = v;
@@ -212,7 +263,10 @@ export function densityFromPressure(pressurePa: number, temperatureK: number, B:
   }
   return fail({
     code: 'model-range',
-    reason: `the virial equation has no gas-phase solution at ${pressurePa.toPrecision(6)} Pa and ${temperatureK.toFixed(2)} K (B = ${(B * 1e6).toPrecision(4)} cm3/mol); the state is outside the model's range - lower the pressure`,
+    reason:
+      `the virial equation has no gas-phase solution at ${pressurePa.toPrecision(6)} ` +
+      `Pa and ${temperatureK.toFixed(2)} K (B = ${(B * 1e6).toPrecision(4)} cm3/mol); ` +
+      `the state is outside the model's range - lower the pressure`,
   });
 }
 

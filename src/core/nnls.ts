@@ -4,7 +4,11 @@
  * Prentice-Hall 1974, ch. 23). Dense and small: a handful of sources.
  */
 
-function solveLeastSquares(A: readonly (readonly number[])[], b: readonly number[], cols: readonly number[]): number[] {
+function solveLeastSquares(
+  A: readonly (readonly number[])[],
+  b: readonly number[],
+  cols: readonly number[],
+): number[] {
   // normal equations on the passive columns, solved by Gaussian elimination with partial pivoting
   const k = cols.length;
   const M: number[][] = Array.from({ length: k }, () => new Array<number>(k + 1).fill(0));
@@ -23,7 +27,8 @@ function solveLeastSquares(A: readonly (readonly number[])[], b: readonly number
     for (let r = c + 1; r < k; r++) if (Math.abs(M[r][c]) > Math.abs(M[piv][c])) piv = r;
     [M[c], M[piv]] = [M[piv], M[c]];
     const d = M[c][c];
-    if (Math.abs(d) < 1e-300) throw new Error('nnls: singular system (two sources supply the same gases in the same ratio)');
+    if (Math.abs(d) < 1e-300)
+      throw new Error('nnls: singular system (two sources supply the same gases in the same ratio)');
     for (let r = 0; r < k; r++) {
       if (r === c) continue;
       const f = M[r][c] / d;
@@ -68,10 +73,11 @@ export function nnls(A: readonly (readonly number[])[], b: readonly number[], ma
         if (z[i] <= 0) alpha = Math.min(alpha, x[c] / (x[c] - z[i]));
       });
       cols.forEach((c, i) => (x[c] += alpha * (z[i] - x[c])));
-      for (const c of cols) if (x[c] <= 1e-15 * scale) {
-        x[c] = 0;
-        passive.delete(c);
-      }
+      for (const c of cols)
+        if (x[c] <= 1e-15 * scale) {
+          x[c] = 0;
+          passive.delete(c);
+        }
       if (passive.size === 0) break;
     }
   }

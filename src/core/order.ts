@@ -34,7 +34,18 @@ export interface OrderAdvice {
   readonly noSafeOrder: boolean;
 }
 
-const ORDER_RELEVANT = new Set(['flammable-state', 'near-flammable', 'detonable-state', 'closed-vessel-pressure', 'compression-heating', 'oxygen-compression', 'condensation', 'acetylene-pressure', 'no-with-o2', 'n2o-decomposition']);
+const ORDER_RELEVANT = new Set([
+  'flammable-state',
+  'near-flammable',
+  'detonable-state',
+  'closed-vessel-pressure',
+  'compression-heating',
+  'oxygen-compression',
+  'condensation',
+  'acetylene-pressure',
+  'no-with-o2',
+  'n2o-decomposition',
+]);
 
 function permutations<T>(xs: readonly T[]): T[][] {
   if (xs.length <= 1) return [[...xs]];
@@ -42,7 +53,12 @@ function permutations<T>(xs: readonly T[]): T[][] {
 }
 
 /** states and fills of one order, with pressures from the amounts (ideal gas: enough for ranking) */
-export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, finalPa: number, initial?: { composition: Fractions; amountMol: number }) {
+export function sequenceOf(
+  order: readonly GasSource[],
+  amounts: ReadonlyMap<GasSource, number>,
+  finalPa: number,
+  initial?: { composition: Fractions; amountMol: number },
+) {
   const total = [...amounts.values()].reduce((a, b) => a + b, 0) + (initial?.amountMol ?? 0);
   const cum: Record<string, number> = {};
   let n = 0;
@@ -52,7 +68,9 @@ export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<Gas
   }
   const states: TankState[] = [];
   const fills: FillEvent[] = [];
-  let before: TankState | undefined = initial ? { step: 0, composition: { ...initial.composition }, pressurePa: (finalPa * n) / total, final: false } : undefined;
+  let before: TankState | undefined = initial
+    ? { step: 0, composition: { ...initial.composition }, pressurePa: (finalPa * n) / total, final: false }
+    : undefined;
   if (before) states.push(before);
   order.forEach((s, i) => {
     const a = amounts.get(s) ?? 0;
@@ -62,7 +80,12 @@ export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<Gas
     const y: Record<string, number> = {};
     const sum = Object.values(cum).reduce((p, q) => p + q, 0);
     for (const [k, v] of Object.entries(cum)) y[k] = v / sum;
-    const after: TankState = { step: i + 1, composition: y, pressurePa: (finalPa * n) / total, final: i === order.length - 1 };
+    const after: TankState = {
+      step: i + 1,
+      composition: y,
+      pressurePa: (finalPa * n) / total,
+      final: i === order.length - 1,
+    };
     states.push(after);
     fills.push({ step: i + 1, sourceId: s.id, sourceComposition: s.composition, before, after });
     before = after;
@@ -73,7 +96,15 @@ export function sequenceOf(order: readonly GasSource[], amounts: ReadonlyMap<Gas
 /** findings of one fill and of the state after it, cached by which sources are in the tank: orders share them */
 type ReviewCache = Map<string, Finding[]>;
 
-function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource, number>, ascending: readonly GasSource[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }, cache: ReviewCache = new Map()): OrderScore {
+function scoreOrder(
+  order: readonly GasSource[],
+  amounts: ReadonlyMap<GasSource, number>,
+  ascending: readonly GasSource[],
+  finalPa: number,
+  ctx: SafetyContext,
+  initial?: { composition: Fractions; amountMol: number },
+  cache: ReviewCache = new Map(),
+): OrderScore {
   const { fills } = sequenceOf(order, amounts, finalPa, initial);
   const index = new Map(ascending.map((s, i) => [s, i]));
   const hazards: Finding[] = [];
@@ -88,7 +119,12 @@ function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource,
       found = [];
       const after = f.after;
       // in-tank condensation of an intermediate state is left out: once the vapour is in, its partial pressure is the same in every order
-      if (!after.final) found.push(...reviewState(after, ctx).findings.filter((x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation'));
+      if (!after.final)
+        found.push(
+          ...reviewState(after, ctx).findings.filter(
+            (x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation',
+          ),
+        );
       // the fill itself: its line (condensation, acetylene), compression heating, and its path in the tank and at the inlet
       found.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
       found.push(...reviewFillPath(f, ctx, false));
@@ -97,9 +133,17 @@ function scoreOrder(order: readonly GasSource[], amounts: ReadonlyMap<GasSource,
     hazards.push(...found.map((h) => ({ ...h, step: h.step === undefined ? undefined : i + 1 })));
   });
   let inversions = 0;
-  for (let i = 0; i < order.length; i++) for (let j = i + 1; j < order.length; j++) if (index.get(order[i])! > index.get(order[j])!) inversions++;
+  for (let i = 0; i < order.length; i++)
+    for (let j = i + 1; j < order.length; j++) if (index.get(order[i])! > index.get(order[j])!) inversions++;
   const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
-  return { danger: count('danger'), warning: count('warning'), note: count('note'), condensation: hazards.filter((h) => h.code === 'condensation').length, inversions, hazards };
+  return {
+    danger: count('danger'),
+    warning: count('warning'),
+    note: count('note'),
+    condensation: hazards.filter((h) => h.code === 'condensation').length,
+    inversions,
+    hazards,
+  };
 }
 
 function better(a: OrderScore, b: OrderScore): boolean {
@@ -140,19 +184,34 @@ export function adviseOrder(
   const names = (o: readonly GasSource[]) => o.map((s) => s.id);
   let reason: string;
   if (clean && best === ascending) {
-    reason = 'smallest partial pressure first, largest last (best relative resolution for the small fills); every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
+    reason =
+      'smallest partial pressure first, largest last (best relative resolution ' +
+      'for the small fills); every intermediate tank state and every fill path ' +
+      'is non-flammable and free of the hazards checked';
   } else if (clean) {
     const first = ascendingScore.hazards[0];
-    reason = `keeps every intermediate tank state and every fill path out of the flammable region and free of the hazards checked (fill lines included); the smallest-first order (${names(ascending).join(', ')}) would give ${first ? `${first.code} after fill ${first.step}` : 'a hazardous state'}`;
+    reason =
+      `keeps every intermediate tank state and every fill path out of the flammable ` +
+      `region and free of the hazards checked (fill lines included); the smallest-first ` +
+      `order (${names(ascending).join(', ')}) would give ${first ? `${first.code} after fill ${first.step}` : 'a hazardous state'}`;
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
-    reason = `no fill order avoids every hazard checked (intermediate states, fill paths, fill lines); this one has the fewest and least severe (${bestScore.danger} danger, ${bestScore.warning} warning, ${bestScore.note} note: ${codes})`;
+    reason =
+      `no fill order avoids every hazard checked (intermediate states, fill paths, ` +
+      `fill lines); this one has the fewest and least severe (${bestScore.danger} ` +
+      `danger, ${bestScore.warning} warning, ${bestScore.note} note: ${codes})`;
   }
   return { sources: best, reason, score: bestScore, noSafeOrder: !clean };
 }
 
 /** the score of a given order (its own smallest-first ranking for the tie-break) */
-export function scoreGivenOrder(order: readonly GasSource[], amountsMol: readonly number[], finalPa: number, ctx: SafetyContext, initial?: { composition: Fractions; amountMol: number }): OrderScore {
+export function scoreGivenOrder(
+  order: readonly GasSource[],
+  amountsMol: readonly number[],
+  finalPa: number,
+  ctx: SafetyContext,
+  initial?: { composition: Fractions; amountMol: number },
+): OrderScore {
   const amounts = new Map(order.map((s, i) => [s, amountsMol[i]]));
   const ascending = [...order].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
   return scoreOrder(order, amounts, ascending, finalPa, ctx, initial);

@@ -11,8 +11,23 @@
 import { R } from './constants.js';
 import type { Design, Fractions } from './composition.js';
 import { allocate, type GasSource } from './supply.js';
-import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, virialModel, virialU, type VirialModel } from './mixture-eos.js';
-import { chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, type Gauge, type ReadingContext } from './gauges.js';
+import {
+  bMix,
+  cMix,
+  compressibility,
+  densityFromPressure,
+  pressureFromDensity,
+  virialModel,
+  virialU,
+  type VirialModel,
+} from './mixture-eos.js';
+import {
+  chooseGauge,
+  gaugeReadingPa,
+  gaugeTopAbsolutePa,
+  type Gauge,
+  type ReadingContext,
+} from './gauges.js';
 import { getSpecies } from './lookup.js';
 import { molarMassKgPerMol } from './formula.js';
 import type { Finding } from './findings.js';
@@ -102,7 +117,11 @@ export interface Plan {
   /** composition the tank will hold, with cylinder impurities */
   readonly composition: Record<string, number>;
   readonly unidentifiedFraction: number;
-  readonly initial?: { readonly pressurePa: number; readonly amountMol: number; readonly composition: Fractions };
+  readonly initial?: {
+    readonly pressurePa: number;
+    readonly amountMol: number;
+    readonly composition: Fractions;
+  };
   readonly final: {
     readonly pressurePa: number;
     readonly temperatureK: number;
@@ -129,7 +148,9 @@ export function fillLabel(s: GasSource): string {
     .join('+');
 }
 
-function eosComposition(parts: readonly { source: GasSource | Fractions; mol: number }[]): Record<string, number> {
+function eosComposition(
+  parts: readonly { source: GasSource | Fractions; mol: number }[],
+): Record<string, number> {
   // for the equation of state a source's unidentified remainder is counted as its main gas
   const y: Record<string, number> = {};
   let total = 0;
@@ -166,15 +187,26 @@ export function planFill(input: PlanInput): Plan {
   const { design, finalPressurePa: Pf, temperatureK: T, tank } = input;
   if (!(Pf > 0)) fail({ code: 'not-positive', what: 'final pressure', value: Pf }, { field: 'pressure' });
   if (!(T > 0)) fail({ code: 'not-positive', what: 'temperature', value: T }, { field: 'temperature' });
-  if (!(tank.volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: tank.volumeM3 }, { field: 'volume' });
+  if (!(tank.volumeM3 > 0))
+    fail({ code: 'not-positive', what: 'tank volume', value: tank.volumeM3 }, { field: 'volume' });
   if (input.sources.length === 0) fail({ code: 'design-missing', reason: 'the plan has no fills' });
   if (T < MODEL_T_RANGE_K.min || T > MODEL_T_RANGE_K.max) {
-    fail({ code: 'model-range', reason: `a fill at ${T.toFixed(2)} K is outside the range the gas model is built for (${MODEL_T_RANGE_K.min}-${MODEL_T_RANGE_K.max} K); check the temperature and its unit` }, { field: 'temperature' });
+    fail(
+      {
+        code: 'model-range',
+        reason:
+          `a fill at ${T.toFixed(2)} K is outside the range the gas model is built ` +
+          `for (${MODEL_T_RANGE_K.min}-${MODEL_T_RANGE_K.max} K); check the temperature ` +
+          `and its unit`,
+      },
+      { field: 'temperature' },
+    );
   }
   const V = tank.volumeM3;
 
   const speciesSet = new Set<string>();
-  for (const s of input.sources) for (const k of Object.keys(s.composition)) speciesSet.add(getSpecies(k).key);
+  for (const s of input.sources)
+    for (const k of Object.keys(s.composition)) speciesSet.add(getSpecies(k).key);
   for (const k of Object.keys(input.inTank?.composition ?? {})) speciesSet.add(getSpecies(k).key);
   const model = virialModel([...speciesSet], T);
 
@@ -185,18 +217,38 @@ export function planFill(input: PlanInput): Plan {
     const rho0 = densityFromPressure(input.inTank.pressurePa, T, bMix(model, y0), cMix(model, y0));
     initial = { pressurePa: input.inTank.pressurePa, amountMol: rho0 * V, composition: y0 };
     if (input.inTank.pressurePa >= Pf) {
-      fail({ code: 'design-conflict', reason: 'the tank already holds gas at or above the final pressure; evacuate it or raise the final pressure' }, { field: 'in_tank.pressure' });
+      fail(
+        {
+          code: 'design-conflict',
+          reason:
+            'the tank already holds gas at or above the final pressure; evacuate it or raise the final pressure',
+        },
+        { field: 'in_tank.pressure' },
+      );
     }
   }
 
   // total amount: iterate allocation and density until the final reading is P_f
   let N = (Pf * V) / (R * T);
-  let alloc = allocate(input.sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
+  let alloc = allocate(
+    input.sources,
+    design.composition,
+    N,
+    initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined,
+  );
   let yFinal: Record<string, number> = {};
   let rhoF = 0;
   for (let it = 0; it < 30; it++) {
-    alloc = allocate(input.sources, design.composition, N, initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined);
-    const parts = input.sources.map((s, i) => ({ source: s as GasSource | Fractions, mol: alloc.amountsMol[i] }));
+    alloc = allocate(
+      input.sources,
+      design.composition,
+      N,
+      initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined,
+    );
+    const parts = input.sources.map((s, i) => ({
+      source: s as GasSource | Fractions,
+      mol: alloc.amountsMol[i],
+    }));
     if (initial) parts.push({ source: initial.composition, mol: initial.amountMol });
     yFinal = eosComposition(parts);
     rhoF = densityFromPressure(Pf, T, bMix(model, yFinal), cMix(model, yFinal));
@@ -209,13 +261,23 @@ export function planFill(input: PlanInput): Plan {
   const totalMol = rhoF * V;
   const zF = compressibility(rhoF, bMix(model, yFinal), cMix(model, yFinal));
   if (Math.abs(1 - zF) > MAX_NON_IDEALITY) {
-    fail({ code: 'model-range', reason: `the finished batch would have Z = ${zF.toFixed(4)}; the truncated virial model is trusted only within ${MAX_NON_IDEALITY * 100} % of ideal gas. Lower the final pressure or plan this mixture with a full equation of state` }, { field: 'pressure' });
+    fail(
+      {
+        code: 'model-range',
+        reason:
+          `the finished batch would have Z = ${zF.toFixed(4)}; the truncated virial ` +
+          `model is trusted only within ${MAX_NON_IDEALITY * 100} % of ideal gas. Lower ` +
+          `the final pressure or plan this mixture with a full equation of state`,
+      },
+      { field: 'pressure' },
+    );
   }
   const Bf = bMix(model, yFinal);
   const Cf = cMix(model, yFinal);
 
   const findings: Finding[] = [];
-  const workingLimitPa = tank.ratedPressurePa === undefined ? undefined : tank.ratedPressurePa * (tank.workingFraction ?? 1);
+  const workingLimitPa =
+    tank.ratedPressurePa === undefined ? undefined : tank.ratedPressurePa * (tank.workingFraction ?? 1);
   const safetyCtx: SafetyContext = {
     temperatureK: T,
     workingLimitPa,
@@ -223,21 +285,30 @@ export function planFill(input: PlanInput): Plan {
     coldestK: input.safety?.coldestK,
     condensationFraction: input.safety?.condensationFraction,
   };
-  const initialForOrder = initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined;
+  const initialForOrder = initial
+    ? { composition: initial.composition, amountMol: initial.amountMol }
+    : undefined;
   let sources: readonly GasSource[];
   let orderReason: string;
   if (input.order === 'recommend') {
     const advice = adviseOrder(input.sources, alloc.amountsMol, Pf, safetyCtx, initialForOrder);
     sources = advice.sources;
     orderReason = advice.reason;
-    if (advice.noSafeOrder) findings.push({ severity: 'warning', code: 'no-safe-order', reason: advice.reason });
+    if (advice.noSafeOrder)
+      findings.push({ severity: 'warning', code: 'no-safe-order', reason: advice.reason });
   } else {
     sources = input.sources;
     orderReason = 'as given';
     const given = scoreGivenOrder(input.sources, alloc.amountsMol, Pf, safetyCtx, initialForOrder);
     if (given.danger + given.warning > 0) {
       const advice = adviseOrder(input.sources, alloc.amountsMol, Pf, safetyCtx, initialForOrder);
-      if (isSaferThan(advice.score, given)) findings.push({ severity: 'warning', code: 'safer-order', order: advice.sources.map(fillLabel), reason: advice.reason });
+      if (isSaferThan(advice.score, given))
+        findings.push({
+          severity: 'warning',
+          code: 'safer-order',
+          order: advice.sources.map(fillLabel),
+          reason: advice.reason,
+        });
     }
   }
   const amountOf = new Map(input.sources.map((s, i) => [s, alloc.amountsMol[i]]));
@@ -245,7 +316,9 @@ export function planFill(input: PlanInput): Plan {
   const tolOf = (k: string) => Math.max(tol.relative * (design.composition[k] ?? 0), tol.absolute);
 
   // cumulative states
-  const parts: { source: GasSource | Fractions; mol: number }[] = initial ? [{ source: initial.composition, mol: initial.amountMol }] : [];
+  const parts: { source: GasSource | Fractions; mol: number }[] = initial
+    ? [{ source: initial.composition, mol: initial.amountMol }]
+    : [];
   let cumMol = initial?.amountMol ?? 0;
   let prevP = initial?.pressurePa ?? 0;
   const raw = sources.map((s) => {
@@ -259,7 +332,8 @@ export function planFill(input: PlanInput): Plan {
     return out;
   });
 
-  const sourceVec = (s: GasSource, k: string) => (s.composition[k] ?? 0) + (s.mainSpecies === k ? s.unidentified : 0);
+  const sourceVec = (s: GasSource, k: string) =>
+    (s.composition[k] ?? 0) + (s.mainSpecies === k ? s.unidentified : 0);
   const allSpecies = [...speciesSet];
   const connected = new Set(input.gauges.map((g) => g.id));
   const steps: PlanStep[] = raw.map((r, k) => {
@@ -269,8 +343,11 @@ export function planFill(input: PlanInput): Plan {
     let dnMax = Infinity;
     for (const sp of allSpecies) {
       const allowed = tolOf(sp);
-      const sens = next ? Math.abs(sourceVec(r.source, sp) - sourceVec(next.source, sp)) : Math.abs(sourceVec(r.source, sp) - (yFinal[sp] ?? 0));
-      if (sens > 1e-15 && (design.composition[sp] ?? 0) > 0) dnMax = Math.min(dnMax, (allowed * totalMol) / sens);
+      const sens = next
+        ? Math.abs(sourceVec(r.source, sp) - sourceVec(next.source, sp))
+        : Math.abs(sourceVec(r.source, sp) - (yFinal[sp] ?? 0));
+      if (sens > 1e-15 && (design.composition[sp] ?? 0) > 0)
+        dnMax = Math.min(dnMax, (allowed * totalMol) / sens);
     }
     if (!Number.isFinite(dnMax)) dnMax = tol.relative * r.mol;
     const bandPa = (dnMax / V) * dPdRho(r.st.rho, T, r.st.B, r.st.C);
@@ -290,15 +367,31 @@ export function planFill(input: PlanInput): Plan {
       input.reading,
     );
     const stepNo = k + 1;
-    if (!choice) findings.push({ severity: 'danger', code: 'no-gauge-covers', step: stepNo, pressurePa: r.st.P });
+    if (!choice)
+      findings.push({ severity: 'danger', code: 'no-gauge-covers', step: stepNo, pressurePa: r.st.P });
     else if (choice.uncertaintyPa * 3 > bandPa) {
-      findings.push({ severity: 'warning', code: 'gauge-coarser-than-band', step: stepNo, gauge: choice.gauge.id, uncertaintyPa: choice.uncertaintyPa, bandPa });
+      findings.push({
+        severity: 'warning',
+        code: 'gauge-coarser-than-band',
+        step: stepNo,
+        gauge: choice.gauge.id,
+        uncertaintyPa: choice.uncertaintyPa,
+        bandPa,
+      });
     }
     let massKg = 0;
-    for (const [sp, w] of Object.entries(r.source.composition)) massKg += w * r.mol * molarMassKgPerMol(getSpecies(sp).elements);
+    for (const [sp, w] of Object.entries(r.source.composition))
+      massKg += w * r.mol * molarMassKgPerMol(getSpecies(sp).elements);
     massKg += r.source.unidentified * r.mol * molarMassKgPerMol(getSpecies(r.source.mainSpecies).elements);
     if (r.source.supplyPressurePa !== undefined && r.source.supplyPressurePa <= r.st.P) {
-      findings.push({ severity: 'danger', code: 'supply-pressure-low', step: stepNo, source: r.source.id, supplyPa: r.source.supplyPressurePa, targetPa: r.st.P });
+      findings.push({
+        severity: 'danger',
+        code: 'supply-pressure-low',
+        step: stepNo,
+        source: r.source.id,
+        supplyPa: r.source.supplyPressurePa,
+        targetPa: r.st.P,
+      });
     }
     return {
       kind: 'fill' as const,
@@ -330,19 +423,42 @@ export function planFill(input: PlanInput): Plan {
   if (tank.ratedPressurePa !== undefined && workingLimitPa !== undefined) {
     const top = steps[steps.length - 1];
     if (top.targetPa + top.bandPa > workingLimitPa) {
-      findings.push({ severity: 'danger', code: 'tank-over-rating', step: top.index, pressurePa: top.targetPa + top.bandPa, limitPa: workingLimitPa, ratedPa: tank.ratedPressurePa, tank: tank.id });
+      findings.push({
+        severity: 'danger',
+        code: 'tank-over-rating',
+        step: top.index,
+        pressurePa: top.targetPa + top.bandPa,
+        limitPa: workingLimitPa,
+        ratedPa: tank.ratedPressurePa,
+        tank: tank.id,
+      });
     }
   }
-  for (const s of steps) for (const g of s.isolateBefore) findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
+  for (const s of steps)
+    for (const g of s.isolateBefore)
+      findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
   // the safety review of every state the fill passes through, at the real-gas pressures
   const states: TankState[] = [];
   const fills: FillEvent[] = [];
-  let before: TankState | undefined = initial ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa, final: false } : undefined;
+  let before: TankState | undefined = initial
+    ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa, final: false }
+    : undefined;
   if (before) states.push(before);
   for (const s of steps) {
-    const after: TankState = { step: s.index, composition: s.compositionAfter, pressurePa: s.targetPa, final: s.index === steps.length };
+    const after: TankState = {
+      step: s.index,
+      composition: s.compositionAfter,
+      pressurePa: s.targetPa,
+      final: s.index === steps.length,
+    };
     states.push(after);
-    fills.push({ step: s.index, sourceId: s.source.id, sourceComposition: s.source.composition, before, after });
+    fills.push({
+      step: s.index,
+      sourceId: s.source.id,
+      sourceComposition: s.source.composition,
+      before,
+      after,
+    });
     before = after;
   }
   findings.push(...reviewFillSequence(states, fills, safetyCtx));
@@ -350,26 +466,52 @@ export function planFill(input: PlanInput): Plan {
   for (const f of fills) findings.push(...reviewFillPath(f, safetyCtx));
   // the advice ranks orders at ideal-gas pressures; where the full review of the planned fill
   // still finds a path or line hazard, the stated reason must not say the order is free of them
-  const left = findings.filter((f) => f.severity !== 'note' && (f.code === 'flammable-fill-path' || f.code === 'flammable-at-inlet' || (f.code === 'condensation' && f.inLine)));
+  const left = findings.filter(
+    (f) =>
+      f.severity !== 'note' &&
+      (f.code === 'flammable-fill-path' ||
+        f.code === 'flammable-at-inlet' ||
+        (f.code === 'condensation' && f.inLine)),
+  );
   if (input.order === 'recommend' && left.length && /free of the hazards checked/.test(orderReason)) {
-    orderReason = `the least hazardous order found, but the full review of the planned fill still finds ${[...new Set(left.map((f) => f.code))].join(', ')} (see the findings)`;
+    orderReason =
+      `the least hazardous order found, but the full review of the planned fill ` +
+      `still finds ${[...new Set(left.map((f) => f.code))].join(', ')} (see the findings)`;
   }
-  for (const s of sources) if (s.purityAssumed) findings.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
-  if (alloc.unidentified > 1e-7) findings.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
+  for (const s of sources)
+    if (s.purityAssumed)
+      findings.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
+  if (alloc.unidentified > 1e-7)
+    findings.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
   for (const [sp, x] of Object.entries(alloc.composition)) {
     const xd = design.composition[sp] ?? 0;
-    if (xd === 0 && x > 1e-7) findings.push({ severity: 'note', code: 'impurity-present', species: sp, fraction: x });
-    else if (xd > 0 && Math.abs(x - xd) > tolOf(sp)) findings.push({ severity: 'warning', code: 'supply-mismatch', species: sp, design: xd, actual: x });
+    if (xd === 0 && x > 1e-7)
+      findings.push({ severity: 'note', code: 'impurity-present', species: sp, fraction: x });
+    else if (xd > 0 && Math.abs(x - xd) > tolOf(sp))
+      findings.push({ severity: 'warning', code: 'supply-mismatch', species: sp, design: xd, actual: x });
   }
   for (const e of model.entries) {
-    if (e.i === e.j && e.method !== 'reference') findings.push({ severity: 'note', code: 'virial-correlation', species: e.i, method: e.method === 'tsonopoulos-quantum' ? 'Tsonopoulos (effective quantum-gas constants)' : 'Tsonopoulos' });
+    if (e.i === e.j && e.method !== 'reference')
+      findings.push({
+        severity: 'note',
+        code: 'virial-correlation',
+        species: e.i,
+        method:
+          e.method === 'tsonopoulos-quantum'
+            ? 'Tsonopoulos (effective quantum-gas constants)'
+            : 'Tsonopoulos',
+      });
   }
   // how far the combining-rule cross coefficients could move the targets: rho dB at the fill where it is
   // largest, dB = sqrt(sum (2 y_i y_j u_ij)^2) over the pairs of species at 1e-4 or more
   const crossShift = crossVirialShift(model, steps, T);
   // a warning when it reaches a third of the band (the rule of gauge-coarser-than-band), else a note
   if (crossShift && crossShift.relative > CROSS_NOTE_RELATIVE) {
-    findings.push({ severity: crossShift.shiftPa * 3 >= crossShift.bandPa ? 'warning' : 'note', code: 'cross-virial-estimate', ...crossShift });
+    findings.push({
+      severity: crossShift.shiftPa * 3 >= crossShift.bandPa ? 'warning' : 'note',
+      code: 'cross-virial-estimate',
+      ...crossShift,
+    });
   }
   let worst = 0;
   let worstBand = Infinity;
@@ -380,7 +522,8 @@ export function planFill(input: PlanInput): Plan {
       worstBand = s.bandPa;
     }
   }
-  if (worst > worstBand) findings.push({ severity: 'warning', code: 'ideal-gas-error', worstPa: worst, bandPa: worstBand });
+  if (worst > worstBand)
+    findings.push({ severity: 'warning', code: 'ideal-gas-error', worstPa: worst, bandPa: worstBand });
 
   return {
     design,
@@ -411,7 +554,11 @@ export function planFill(input: PlanInput): Plan {
 /** a note is due when the combining-rule cross coefficients could move a target by more than this (relative) */
 const CROSS_NOTE_RELATIVE = 1e-4;
 
-function crossVirialShift(model: VirialModel, steps: readonly PlanStep[], temperatureK: number): { step: number; pairs: string[]; relative: number; shiftPa: number; bandPa: number } | undefined {
+function crossVirialShift(
+  model: VirialModel,
+  steps: readonly PlanStep[],
+  temperatureK: number,
+): { step: number; pairs: string[]; relative: number; shiftPa: number; bandPa: number } | undefined {
   let best: { step: number; pairs: string[]; relative: number; shiftPa: number; bandPa: number } | undefined;
   for (const s of steps) {
     const y = s.compositionAfter;
@@ -427,7 +574,8 @@ function crossVirialShift(model: VirialModel, steps: readonly PlanStep[], temper
       pairs.push(`${e.i}-${e.j}`);
     }
     const relative = rho * Math.sqrt(v);
-    if (pairs.length && (!best || relative > best.relative)) best = { step: s.index, pairs, relative, shiftPa: relative * s.targetPa, bandPa: s.bandPa };
+    if (pairs.length && (!best || relative > best.relative))
+      best = { step: s.index, pairs, relative, shiftPa: relative * s.targetPa, bandPa: s.bandPa };
   }
   return best;
 }

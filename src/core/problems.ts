@@ -15,14 +15,39 @@ export interface Where {
 
 export type Problem =
   | { readonly code: 'unknown-species'; readonly name: string; readonly suggestions: readonly string[] }
-  | { readonly code: 'not-positive'; readonly what: string; readonly value: number; /** what the user typed, shown instead of the SI value */ readonly text?: string }
-  | { readonly code: 'out-of-range'; readonly what: string; readonly value: number; readonly allowed: string; /** what the user typed, shown instead of the value */ readonly text?: string }
-  | { readonly code: 'wrong-dimension'; readonly text: string; readonly expected: string; readonly got: string }
-  | { readonly code: 'bad-quantity'; readonly text: string; readonly expected: string; readonly reason: string }
+  | {
+      readonly code: 'not-positive';
+      readonly what: string;
+      readonly value: number;
+      /** what the user typed, shown instead of the SI value */ readonly text?: string;
+    }
+  | {
+      readonly code: 'out-of-range';
+      readonly what: string;
+      readonly value: number;
+      readonly allowed: string;
+      /** what the user typed, shown instead of the value */ readonly text?: string;
+    }
+  | {
+      readonly code: 'wrong-dimension';
+      readonly text: string;
+      readonly expected: string;
+      readonly got: string;
+    }
+  | {
+      readonly code: 'bad-quantity';
+      readonly text: string;
+      readonly expected: string;
+      readonly reason: string;
+    }
   | { readonly code: 'bad-list'; readonly text: string; readonly reason: string }
   | { readonly code: 'order-missing'; readonly missing: readonly string[] }
   | { readonly code: 'order-repeated'; readonly repeated: readonly string[] }
-  | { readonly code: 'order-unknown'; readonly unknown: readonly string[]; readonly choices: readonly string[] }
+  | {
+      readonly code: 'order-unknown';
+      readonly unknown: readonly string[];
+      readonly choices: readonly string[];
+    }
   | { readonly code: 'fractions-sum'; readonly sum: number }
   | { readonly code: 'design-conflict'; readonly reason: string }
   | { readonly code: 'design-missing'; readonly reason: string }
@@ -30,11 +55,22 @@ export type Problem =
   | { readonly code: 'schema'; readonly reason: string }
   | { readonly code: 'yaml-syntax'; readonly reason: string }
   | { readonly code: 'file-unreadable'; readonly reason: string }
-  | { readonly code: 'name-too-long'; readonly what: string; readonly start: string; readonly length: number; readonly limit: number }
+  | {
+      readonly code: 'name-too-long';
+      readonly what: string;
+      readonly start: string;
+      readonly length: number;
+      readonly limit: number;
+    }
   | { readonly code: 'file-too-large'; readonly bytes: number; readonly limitBytes: number }
   | { readonly code: 'file-unwritable'; readonly reason: string }
   | { readonly code: 'needs-barometer'; readonly text: string; readonly field: string }
-  | { readonly code: 'unknown-reference'; readonly kind: string; readonly id: string; readonly choices: readonly string[] }
+  | {
+      readonly code: 'unknown-reference';
+      readonly kind: string;
+      readonly id: string;
+      readonly choices: readonly string[];
+    }
   | { readonly code: 'no-supply'; readonly species: string; readonly reason: string }
   | { readonly code: 'no-gauge'; readonly reason: string }
   | { readonly code: 'model-range'; readonly reason: string }
@@ -42,10 +78,42 @@ export type Problem =
   | { readonly code: 'equilibrium-not-converged'; readonly what: string }
   /** a file could not be written in full (disk full, I/O error, short write, no permission, name taken) */
   | { readonly code: 'write-failed'; readonly reason: string }
+  /**
+   * the typed form of a failed or refused write; replaces the `reason` form above and
+   * `file-unwritable` (both to be removed once every raise site uses this one). `outcome`
+   * says what happened to the data, e.g. "the event was not logged".
+   */
+  | { readonly code: 'write-failed'; readonly cause: WriteCause; readonly outcome?: string }
+  /**
+   * an iterative computation stopped without meeting its tolerance; `computation` names it
+   * (e.g. "fill amounts", "density from pressure"), `residual` is what was left of the error
+   */
+  | {
+      readonly code: 'not-converged';
+      readonly computation: string;
+      readonly iterations: number;
+      readonly residual: number;
+      readonly tolerance: number;
+    }
   /** another guided fill holds the batch log */
   | { readonly code: 'log-locked'; readonly reason: string };
 
 export type ProblemCode = Problem['code'];
+
+/**
+ * Why a file was not written (the typed form that replaces the free-text reasons of
+ * `write-failed` and `file-unwritable`). `system` carries the operating system's error code
+ * (ENOSPC, EACCES, EROFS, EIO, ...) and its message.
+ */
+export type WriteCause =
+  | { readonly kind: 'is-folder' }
+  | { readonly kind: 'exists'; readonly what: 'file' | 'symlink' | 'other' }
+  | { readonly kind: 'appeared-while-writing' }
+  | { readonly kind: 'no-folder'; readonly folder: string }
+  | { readonly kind: 'folder-not-writable'; readonly folder: string }
+  | { readonly kind: 'short-write'; readonly written: number; readonly expected: number }
+  | { readonly kind: 'missing-after-write' }
+  | { readonly kind: 'system'; readonly errno: string; readonly message: string };
 
 export class ProblemError extends Error {
   readonly problem: Problem;
@@ -58,7 +126,11 @@ export class ProblemError extends Error {
   }
   /** the same problem, with more of the location filled in (outer values fill gaps only) */
   at(where: Where): ProblemError {
-    return new ProblemError(this.problem, { ...where, ...this.where, field: joinField(where.field, this.where.field) });
+    return new ProblemError(this.problem, {
+      ...where,
+      ...this.where,
+      field: joinField(where.field, this.where.field),
+    });
   }
 }
 

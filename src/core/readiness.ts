@@ -14,7 +14,13 @@ export interface MixingEstimate {
   readonly stirred: boolean;
 }
 
-export function mixingEstimate(y: Fractions, temperatureK: number, pressurePa: number, heightM: number, stirred: boolean): MixingEstimate {
+export function mixingEstimate(
+  y: Fractions,
+  temperatureK: number,
+  pressurePa: number,
+  heightM: number,
+  stirred: boolean,
+): MixingEstimate {
   const pair = slowestPair(y, temperatureK, pressurePa);
   if (!pair) return { stirred };
   return {

@@ -31,7 +31,14 @@ export interface InverseSetup {
   readonly cPairs: readonly Float64Array[];
   readonly temperaturesK: readonly number[];
   /** gas already in the tank: amounts per species per unit volume are solved from its reading */
-  readonly initial?: { readonly y: Float64Array; readonly pressurePa: number; readonly temperatureK: number; readonly B: Float64Array; readonly cbrtC: Float64Array; readonly cPairs: Float64Array };
+  readonly initial?: {
+    readonly y: Float64Array;
+    readonly pressurePa: number;
+    readonly temperatureK: number;
+    readonly B: Float64Array;
+    readonly cbrtC: Float64Array;
+    readonly cPairs: Float64Array;
+  };
   /** index of each reading's main identified species */
   readonly main: readonly number[];
   readonly model: VirialModel;
@@ -48,7 +55,12 @@ export interface ReadingInput {
  * species (below 1e-4) change C_mix by at most 3e-4 dC, under 1e-7 in Z at 10 bar, and are left
  * out of the array model, which the Monte Carlo runs a million times.
  */
-function matrixOf(m: VirialModel, idx: readonly number[], S: number, major: readonly boolean[]): { B: Float64Array; C: Float64Array; cPairs: Float64Array } {
+function matrixOf(
+  m: VirialModel,
+  idx: readonly number[],
+  S: number,
+  major: readonly boolean[],
+): { B: Float64Array; C: Float64Array; cPairs: Float64Array } {
   const B = new Float64Array(S * S);
   const C = new Float64Array(S);
   for (let i = 0; i < S; i++) {
@@ -64,13 +76,19 @@ function matrixOf(m: VirialModel, idx: readonly number[], S: number, major: read
   return { B, C, cPairs };
 }
 
-export function inverseSetup(readings: readonly ReadingInput[], initial?: { composition: Fractions; pressurePa: number; temperatureK: number }): InverseSetup {
+export function inverseSetup(
+  readings: readonly ReadingInput[],
+  initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
+): InverseSetup {
   const set = new Set<string>();
   for (const r of readings) for (const k of Object.keys(r.source.composition)) set.add(k);
   for (const k of Object.keys(initial?.composition ?? {})) set.add(k);
   const species = [...set];
   const S = species.length;
-  const major = species.map((k) => readings.some((r) => (r.source.composition[k] ?? 0) >= 1e-4) || (initial?.composition[k] ?? 0) >= 1e-4);
+  const major = species.map(
+    (k) =>
+      readings.some((r) => (r.source.composition[k] ?? 0) >= 1e-4) || (initial?.composition[k] ?? 0) >= 1e-4,
+  );
   const at = (T: number) => {
     const m = virialModel(species, T);
     const idx = species.map((k) => m.species.indexOf(k));
@@ -117,7 +135,14 @@ export function inverseSetup(readings: readonly ReadingInput[], initial?: { comp
     const y = new Float64Array(S);
     for (const [k, v] of Object.entries(initial.composition)) y[species.indexOf(k)] = v;
     const here = at(initial.temperatureK);
-    init = { y, pressurePa: initial.pressurePa, temperatureK: initial.temperatureK, B: here.B, cbrtC: here.C.map(Math.cbrt), cPairs: here.cPairs };
+    init = {
+      y,
+      pressurePa: initial.pressurePa,
+      temperatureK: initial.temperatureK,
+      B: here.B,
+      cbrtC: here.C.map(Math.cbrt),
+      cPairs: here.cPairs,
+    };
   }
   return {
     species,
@@ -162,7 +187,19 @@ export interface InverseResult {
   readonly amounts: Float64Array;
 }
 
-function solveRho(P: number, T: number, nPrev: Float64Array, rhoPrev: number, w: Float64Array, Beff: Float64Array, cbrtC: Float64Array, cPairs: Float64Array, S: number, y: Float64Array, start = 0): number {
+function solveRho(
+  P: number,
+  T: number,
+  nPrev: Float64Array,
+  rhoPrev: number,
+  w: Float64Array,
+  Beff: Float64Array,
+  cbrtC: Float64Array,
+  cPairs: Float64Array,
+  S: number,
+  y: Float64Array,
+  start = 0,
+): number {
   const rt = R * T;
   let rho = start > rhoPrev ? start : P / rt;
   for (let it = 0; it < 30; it++) {
@@ -220,13 +257,28 @@ export interface Workspace {
 export function workspaceFor(setup: InverseSetup): Workspace {
   const S = setup.species.length;
   const K = setup.wEos.length;
-  return { n: new Float64Array(S), nId: new Float64Array(S), y: new Float64Array(S), w: new Float64Array(S), x: new Float64Array(S), rho: new Float64Array(K), zero: new Float64Array(S), Beff: new Float64Array(S * S) };
+  return {
+    n: new Float64Array(S),
+    nId: new Float64Array(S),
+    y: new Float64Array(S),
+    w: new Float64Array(S),
+    x: new Float64Array(S),
+    rho: new Float64Array(K),
+    zero: new Float64Array(S),
+    Beff: new Float64Array(S * S),
+  };
 }
 
 /**
  * @param start densities to start the iteration from (the nominal result, in a Monte Carlo loop)
  */
-export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?: readonly number[], ws: Workspace = workspaceFor(setup), start?: Float64Array): InverseResult {
+export function invertReadings(
+  setup: InverseSetup,
+  p?: Perturbation,
+  nominalP?: readonly number[],
+  ws: Workspace = workspaceFor(setup),
+  start?: Float64Array,
+): InverseResult {
   const S = setup.species.length;
   const K = setup.wEos.length;
   const { n, nId, y, w, rho: rhoOut } = ws;
@@ -258,10 +310,27 @@ export function invertReadings(setup: InverseSetup, p?: Perturbation, nominalP?:
     const bAbs = p?.bAbsolute;
     const Beff = ws.Beff;
     for (let i = 0; i < S * S; i++) Beff[i] = Bk[i] + dBk[i] * dT + (bAbs ? bAbs[i] : 0);
-    const rho = solveRho(P, T, n, rhoPrev, w, Beff, setup.cbrtC[k], setup.cPairs[k], S, y, start ? start[k] : 0);
+    const rho = solveRho(
+      P,
+      T,
+      n,
+      rhoPrev,
+      w,
+      Beff,
+      setup.cbrtC[k],
+      setup.cPairs[k],
+      S,
+      y,
+      start ? start[k] : 0,
+    );
     const d = rho - rhoPrev;
     if (!(d > 0)) {
-      return fail({ code: 'schema', reason: `reading ${k + 1} (${Number(P.toPrecision(6))} Pa) is not above the one before it; each fill must raise the tank pressure` });
+      return fail({
+        code: 'schema',
+        reason:
+          `reading ${k + 1} (${Number(P.toPrecision(6))} Pa) is not above the one before ` +
+          `it; each fill must raise the tank pressure`,
+      });
     }
     const wid = setup.wId[k];
     const main = setup.main[k];

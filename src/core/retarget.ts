@@ -30,7 +30,11 @@ export interface RetargetInput {
   readonly volumeM3: number;
   readonly workingLimitPa?: number;
   /** a top-up: the gas in the tank before the first fill (its composition, and its reading) */
-  readonly initial?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number; readonly temperatureK: number };
+  readonly initial?: {
+    readonly composition: Readonly<Record<string, number>>;
+    readonly pressurePa: number;
+    readonly temperatureK: number;
+  };
   /**
    * amounts in the tank scaled by this factor (0 < f <= 1): the tank vented or pumped back after
    * the last reading, which removes gas of the same composition. Default 1.
@@ -43,8 +47,19 @@ export interface RetargetInput {
 export type Kept = 'phi' | 'dilution' | 'pressure';
 
 export interface RetargetResult {
-  readonly remaining: readonly { readonly step: number; readonly source: GasSource; readonly targetPa: number; readonly incrementPa: number; readonly amountMol: number }[];
-  readonly predicted: { readonly composition: Record<string, number>; readonly phi?: number; readonly diluentFraction: number; readonly pressurePa: number };
+  readonly remaining: readonly {
+    readonly step: number;
+    readonly source: GasSource;
+    readonly targetPa: number;
+    readonly incrementPa: number;
+    readonly amountMol: number;
+  }[];
+  readonly predicted: {
+    readonly composition: Record<string, number>;
+    readonly phi?: number;
+    readonly diluentFraction: number;
+    readonly pressurePa: number;
+  };
   readonly gave: readonly Kept[];
   /** the working limit holds the final pressure (or the tank is at or above it already) */
   readonly limitBinds: boolean;
@@ -64,7 +79,13 @@ export function retarget(input: RetargetInput): RetargetResult {
   const m = done.length;
   const T = input.temperatureK;
   const init = input.initial;
-  const species = [...new Set([...sources.flatMap((s) => Object.keys(s.composition)), ...Object.keys(design.composition), ...Object.keys(init?.composition ?? {})])];
+  const species = [
+    ...new Set([
+      ...sources.flatMap((s) => Object.keys(s.composition)),
+      ...Object.keys(design.composition),
+      ...Object.keys(init?.composition ?? {}),
+    ]),
+  ];
   const S = species.length;
   const model = virialModel(species, T);
   // what is in the tank now (mol)
@@ -73,14 +94,34 @@ export function retarget(input: RetargetInput): RetargetResult {
   const f = input.ventFactor ?? 1;
   if (!(f > 0 && f <= 1)) throw new RangeError(`ventFactor ${f} must be in (0, 1]`);
   if (m > 0) {
-    const setup = inverseSetup(sources.slice(0, m).map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })), init ? { composition: { ...init.composition }, pressurePa: init.pressurePa, temperatureK: init.temperatureK } : undefined);
-    const res = invertReadings(setup, undefined, done.map((d) => d.pressurePa));
+    const setup = inverseSetup(
+      sources
+        .slice(0, m)
+        .map((s, i) => ({ source: s, pressurePa: done[i].pressurePa, temperatureK: done[i].temperatureK })),
+      init
+        ? {
+            composition: { ...init.composition },
+            pressurePa: init.pressurePa,
+            temperatureK: init.temperatureK,
+          }
+        : undefined,
+    );
+    const res = invertReadings(
+      setup,
+      undefined,
+      done.map((d) => d.pressurePa),
+    );
     setup.species.forEach((k, i) => (have[species.indexOf(k)] = res.amounts[i] * V * f));
     rhoNow = res.rho[m - 1] * f;
   } else if (init) {
     // the gas already in the tank, from its reading at its own temperature
     const m0 = virialModel(species, init.temperatureK);
-    const rho0 = densityFromPressure(init.pressurePa, init.temperatureK, bMix(m0, init.composition), cMix(m0, init.composition));
+    const rho0 = densityFromPressure(
+      init.pressurePa,
+      init.temperatureK,
+      bMix(m0, init.composition),
+      cMix(m0, init.composition),
+    );
     for (const [k, y] of Object.entries(init.composition)) have[species.indexOf(k)] += y * rho0 * V * f;
     rhoNow = rho0 * f;
   }
@@ -155,7 +196,8 @@ export function retarget(input: RetargetInput): RetargetResult {
   // significant digits without an exponent (205050 Pa, not 2.0505e+5 Pa)
   const fmtP = input.formatPressure ?? ((p: number) => `${Number(p.toPrecision(5))} Pa`);
   const haveComp = compOf(have);
-  const nowPa = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
+  const nowPa =
+    m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
   let limitBinds = false;
   let a: number[];
   let pred: ReturnType<typeof predict>;
@@ -170,7 +212,8 @@ export function retarget(input: RetargetInput): RetargetResult {
     if (limit !== undefined && pred.P > limit) {
       // the limit outranks everything: aim the total at the limit and let the rest give
       limitBinds = true;
-      let aim = densityFromPressure(limit, T, bMix(model, pred.comp), cMix(model, pred.comp)) * V * (1 - 1e-6);
+      let aim =
+        densityFromPressure(limit, T, bMix(model, pred.comp), cMix(model, pred.comp)) * V * (1 - 1e-6);
       for (let it = 0; it < 8; it++) {
         a = solve(aim, W_LIMIT);
         pred = predict(a);
@@ -196,7 +239,8 @@ export function retarget(input: RetargetInput): RetargetResult {
   // cumulative targets of the remaining fills at the fill temperature
   const remaining: RetargetResult['remaining'][number][] = [];
   const n = Float64Array.from(have);
-  let prevP = m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
+  let prevP =
+    m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
   rest.forEach((s, j) => {
     w[j].forEach((v, i) => (n[i] += a[j] * v));
     const comp = compOf(n);
@@ -208,34 +252,56 @@ export function retarget(input: RetargetInput): RetargetResult {
 
   const gave: Kept[] = [];
   const tol = input.tolerance;
-  if (phi !== undefined && pred.phi !== undefined && Math.abs(pred.phi / phi - 1) > tol.relative) gave.push('phi');
-  if (dil.size > 0 && Math.abs(pred.dilF - xd) > Math.max(tol.relative * xd, tol.absolute)) gave.push('dilution');
+  if (phi !== undefined && pred.phi !== undefined && Math.abs(pred.phi / phi - 1) > tol.relative)
+    gave.push('phi');
+  if (dil.size > 0 && Math.abs(pred.dilF - xd) > Math.max(tol.relative * xd, tol.absolute))
+    gave.push('dilution');
   if (Math.abs(pred.P / input.finalPressurePa - 1) > tol.relative) gave.push('pressure');
   const fmt = (x: number) => String(Number(x.toPrecision(5)));
   let message: string;
   if (limit !== undefined && nowPa >= limit) {
-    message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}: no further fill can be made within the limit`;
-    if (rest.length === 0) message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}`;
+    message =
+      `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}: ` +
+      `no further fill can be made within the limit`;
+    if (rest.length === 0)
+      message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}`;
   } else if (gave.length === 0) {
     // name only what the design has: a design without phi is not told about phi
-    const kept = [...(phi !== undefined ? ['phi'] : []), ...(dil.size > 0 ? ['the dilution'] : []), 'the final pressure'];
-    message = `the remaining fills keep ${kept.length > 1 ? `${kept.slice(0, -1).join(', ')} and ${kept[kept.length - 1]}` : kept[0]} within tolerance`;
-  }
-  else {
+    const kept = [
+      ...(phi !== undefined ? ['phi'] : []),
+      ...(dil.size > 0 ? ['the dilution'] : []),
+      'the final pressure',
+    ];
+    message =
+      `the remaining fills keep ${kept.length > 1 ? `${kept.slice(0, -1).join(', ')} and ${kept[kept.length - 1]}` : kept[0]} ` +
+      `within tolerance`;
+  } else {
     const parts: string[] = [];
-    if (gave.includes('phi')) parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
-    if (gave.includes('dilution')) parts.push(`the diluent fraction becomes ${fmt(pred.dilF)} (design ${fmt(xd)})`);
+    if (gave.includes('phi'))
+      parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
+    if (gave.includes('dilution'))
+      parts.push(`the diluent fraction becomes ${fmt(pred.dilF)} (design ${fmt(xd)})`);
     if (gave.includes('pressure')) {
       parts.push(
         limitBinds
-          ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ${fmtP(input.finalPressurePa)})`
-          : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(input.finalPressurePa)}) to keep ${[...(phi !== undefined && !gave.includes('phi') ? ['phi'] : []), ...(dil.size > 0 ? ['the dilution'] : [])].join(' and ') || 'the composition'}`,
+          ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ` +
+              `${fmtP(input.finalPressurePa)})`
+          : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(input.finalPressurePa)}) ` +
+              `to keep ${[...(phi !== undefined && !gave.includes('phi') ? ['phi'] : []), ...(dil.size > 0 ? ['the dilution'] : [])].join(' and ') || 'the composition'}`,
       );
     }
     message = parts.join('; ');
-    if (limitBinds && !gave.includes('pressure')) message = `the tank's working limit ${fmtP(limit!)} holds the final pressure; ${message}`;
+    if (limitBinds && !gave.includes('pressure'))
+      message = `the tank's working limit ${fmtP(limit!)} holds the final pressure; ${message}`;
   }
-  return { remaining, predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P }, gave, limitBinds, nowPa, message };
+  return {
+    remaining,
+    predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P },
+    gave,
+    limitBinds,
+    nowPa,
+    message,
+  };
 }
 
 export interface VentBack {

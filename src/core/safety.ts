@@ -51,7 +51,11 @@ const OXYGEN_ENRICHED_ABOVE = 0.235;
  * limits where they exist, else the conservative inert rule (`detonability` in
  * detonation.ts, the same decision the state review makes).
  */
-export function detonableByRule(a: FlammabilityAssessment, composition: Fractions, _pressurePa: number): boolean {
+export function detonableByRule(
+  a: FlammabilityAssessment,
+  composition: Fractions,
+  _pressurePa: number,
+): boolean {
   return a.verdict === 'flammable' && detonability(composition).detonable;
 }
 
@@ -66,7 +70,12 @@ function fuelsIn(y: Fractions): string[] {
 }
 
 /** the numbers of a flammability finding; with the composition and temperature it adds the equilibrium flame temperature */
-export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: number, composition?: Fractions, temperatureK?: number): FlammabilityNumbers {
+export function flammabilityNumbers(
+  a: FlammabilityAssessment,
+  pressurePa: number,
+  composition?: Fractions,
+  temperatureK?: number,
+): FlammabilityNumbers {
   const e = a.byEnvelope === a.verdict;
   const t = a.byFlameTemperature === a.verdict;
   return {
@@ -77,7 +86,10 @@ export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: numbe
     loc: a.limits?.loc,
     flameK: a.flameK,
     limitFlameK: a.limitFlameK,
-    flameEquilibriumK: composition && temperatureK !== undefined && a.flameK !== undefined && a.verdict !== 'non-flammable' ? equilibriumFlameK(composition, temperatureK, pressurePa) : undefined,
+    flameEquilibriumK:
+      composition && temperatureK !== undefined && a.flameK !== undefined && a.verdict !== 'non-flammable'
+        ? equilibriumFlameK(composition, temperatureK, pressurePa)
+        : undefined,
     pressurePa,
     side: a.distance?.side,
     equivalenceRatio: a.distance?.equivalenceRatio,
@@ -90,7 +102,10 @@ export function flammabilityNumbers(a: FlammabilityAssessment, pressurePa: numbe
 }
 
 /** the hazards of one state, as findings */
-export function reviewState(s: TankState, ctx: SafetyContext): { findings: Finding[]; flammability: FlammabilityAssessment } {
+export function reviewState(
+  s: TankState,
+  ctx: SafetyContext,
+): { findings: Finding[]; flammability: FlammabilityAssessment } {
   const out: Finding[] = [];
   const step = s.step > 0 ? s.step : undefined;
   const a = assessFlammability(s.composition, ctx.temperatureK, s.pressurePa);
@@ -105,13 +120,23 @@ export function reviewState(s: TankState, ctx: SafetyContext): { findings: Findi
     out.push({ severity: 'note', code: 'near-flammable', step, ...nums });
   }
   const y = s.composition;
-  if ((y.NO ?? 0) > 0 && (y.O2 ?? 0) > 0) out.push({ severity: 'danger', code: 'no-with-o2', step, pressurePa: s.pressurePa });
+  if ((y.NO ?? 0) > 0 && (y.O2 ?? 0) > 0)
+    out.push({ severity: 'danger', code: 'no-with-o2', step, pressurePa: s.pressurePa });
   const pC2H2 = (y.C2H2 ?? 0) * s.pressurePa;
-  if (pC2H2 > ACETYLENE_LIMIT_PA) out.push({ severity: 'danger', code: 'acetylene-pressure', step, partialPa: pC2H2, limitPa: ACETYLENE_LIMIT_PA, inLine: false });
+  if (pC2H2 > ACETYLENE_LIMIT_PA)
+    out.push({
+      severity: 'danger',
+      code: 'acetylene-pressure',
+      step,
+      partialPa: pC2H2,
+      limitPa: ACETYLENE_LIMIT_PA,
+      inLine: false,
+    });
   const pN2O = (y.N2O ?? 0) * s.pressurePa;
   if (pN2O > 1e5) out.push({ severity: 'warning', code: 'n2o-decomposition', step, partialPa: pN2O });
   const xO2 = (y.O2 ?? 0) + 0.5 * (y.N2O ?? 0);
-  if (xO2 > OXYGEN_ENRICHED_ABOVE) out.push({ severity: 'note', code: 'oxygen-enriched', step, oxygenFraction: xO2 });
+  if (xO2 > OXYGEN_ENRICHED_ABOVE)
+    out.push({ severity: 'note', code: 'oxygen-enriched', step, oxygenFraction: xO2 });
   // condensation of each species below its critical temperature
   const cold = ctx.coldestK ?? ctx.temperatureK;
   const frac = ctx.condensationFraction ?? 0.5;
@@ -121,7 +146,18 @@ export function reviewState(s: TankState, ctx: SafetyContext): { findings: Findi
     if (!ps) continue;
     const partial = v * s.pressurePa;
     if (partial > frac * ps.pressurePa) {
-      out.push({ severity: partial > ps.pressurePa ? 'danger' : 'warning', code: 'condensation', step, species: k, partialPa: partial, psatPa: ps.pressurePa, fraction: frac, coldestK: cold, inLine: false, method: ps.method });
+      out.push({
+        severity: partial > ps.pressurePa ? 'danger' : 'warning',
+        code: 'condensation',
+        step,
+        species: k,
+        partialPa: partial,
+        psatPa: ps.pressurePa,
+        fraction: frac,
+        coldestK: cold,
+        inLine: false,
+        method: ps.method,
+      });
     }
   }
   return { findings: out, flammability: a };
@@ -140,9 +176,28 @@ export function reviewFill(e: FillEvent, ctx: SafetyContext): Finding[] {
     const ps = saturationPressure(main, cold);
     const linePa = e.after.pressurePa * (src[main] ?? 1);
     if (ps && linePa > frac * ps.pressurePa) {
-      out.push({ severity: linePa > ps.pressurePa ? 'danger' : 'warning', code: 'condensation', step, species: main, partialPa: linePa, psatPa: ps.pressurePa, fraction: frac, coldestK: cold, inLine: true, method: ps.method });
+      out.push({
+        severity: linePa > ps.pressurePa ? 'danger' : 'warning',
+        code: 'condensation',
+        step,
+        species: main,
+        partialPa: linePa,
+        psatPa: ps.pressurePa,
+        fraction: frac,
+        coldestK: cold,
+        inLine: true,
+        method: ps.method,
+      });
     }
-    if (main === 'C2H2' && linePa > ACETYLENE_LIMIT_PA) out.push({ severity: 'danger', code: 'acetylene-pressure', step, partialPa: linePa, limitPa: ACETYLENE_LIMIT_PA, inLine: true });
+    if (main === 'C2H2' && linePa > ACETYLENE_LIMIT_PA)
+      out.push({
+        severity: 'danger',
+        code: 'acetylene-pressure',
+        step,
+        partialPa: linePa,
+        limitPa: ACETYLENE_LIMIT_PA,
+        inLine: true,
+      });
   }
   if (hasOxidizer(src)) out.push({ severity: 'note', code: 'oxygen-service', step, source: e.sourceId });
   // compression heating of whatever gas is already in the tank
@@ -157,7 +212,8 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
   for (const s of states) for (const [k, v] of Object.entries(s.composition)) if (v > 1e-7) species.add(k);
   for (const k of species) {
     const d = oxygenDemand(getSpecies(k).elements);
-    if (d > 0 && !FUEL_SAFETY.has(k)) out.push({ severity: 'warning', code: 'no-flammability-data', species: k });
+    if (d > 0 && !FUEL_SAFETY.has(k))
+      out.push({ severity: 'warning', code: 'no-flammability-data', species: k });
     if (d === 0 && !INERT_K.has(k) && states.some((s) => fuelsIn(s.composition).length > 0)) {
       out.push({ severity: 'note', code: 'inert-coefficient-unknown', species: k, used: 0.5 });
     }
@@ -165,24 +221,41 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
     if (ps && (ps.method === 'lee-kesler' || ps.method === 'antoine-extrapolated')) {
       // only worth saying where the species is present in more than trace amounts
       if (states.some((s) => (s.composition[k] ?? 0) * s.pressurePa > 0.05 * ps.pressurePa)) {
-        out.push({ severity: 'note', code: 'psat-estimated', species: k, method: ps.method, coldestK: ctx.coldestK ?? ctx.temperatureK });
+        out.push({
+          severity: 'note',
+          code: 'psat-estimated',
+          species: k,
+          method: ps.method,
+          coldestK: ctx.coldestK ?? ctx.temperatureK,
+        });
       }
     }
   }
-  const fuels = [...species].filter((k) => FUEL_SAFETY.has(k) && states.some((st) => (st.composition[k] ?? 0) > 1e-4));
+  const fuels = [...species].filter(
+    (k) => FUEL_SAFETY.has(k) && states.some((st) => (st.composition[k] ?? 0) > 1e-4),
+  );
   for (const k of fuels) {
-    for (const what of blendLimits({ [k]: 1 }, 298.15, 101325).estimated) out.push({ severity: 'note', code: 'flammability-data-estimated', what });
+    for (const what of blendLimits({ [k]: 1 }, 298.15, 101325).estimated)
+      out.push({ severity: 'note', code: 'flammability-data-estimated', what });
   }
-  if (ctx.coldestK === undefined && [...species].some((k) => saturationPressure(k, ctx.temperatureK) !== undefined)) {
+  if (
+    ctx.coldestK === undefined &&
+    [...species].some((k) => saturationPressure(k, ctx.temperatureK) !== undefined)
+  ) {
     out.push({ severity: 'note', code: 'coldest-temperature-assumed', temperatureK: ctx.temperatureK });
   }
   return out;
 }
 
 /** the whole review: every state, every fill, the data gaps */
-export function reviewFillSequence(states: readonly TankState[], fills: readonly FillEvent[], ctx: SafetyContext): Finding[] {
+export function reviewFillSequence(
+  states: readonly TankState[],
+  fills: readonly FillEvent[],
+  ctx: SafetyContext,
+): Finding[] {
   const out: Finding[] = [];
-  if (ctx.workingLimitPa === undefined) out.push({ severity: 'warning', code: 'tank-rating-unknown', tank: ctx.tankId });
+  if (ctx.workingLimitPa === undefined)
+    out.push({ severity: 'warning', code: 'tank-rating-unknown', tank: ctx.tankId });
   // a vapour too close to saturation stays so in every later state: said once, at the first state it happens
   const condensing = new Set<string>();
   for (const s of states) {

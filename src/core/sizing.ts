@@ -45,10 +45,23 @@ function density(y: Fractions, pressurePa: number, temperatureK: number): number
 
 export function sizingBasis(input: SizingInput): Sizing {
   const r = input.reactor;
-  if (!(r.volumeM3 > 0)) fail({ code: 'not-positive', what: 'reactor volume', value: r.volumeM3 }, { field: 'reactor_volume' });
-  if (!(r.lineVolumeM3 >= 0)) fail({ code: 'out-of-range', what: 'line volume', value: r.lineVolumeM3, allowed: '>= 0' }, { field: 'line_volume' });
-  if (!(r.fillPressurePa > 0)) fail({ code: 'not-positive', what: 'fill pressure', value: r.fillPressurePa }, { field: 'fill_pressure' });
-  if (!(input.margin >= 0)) fail({ code: 'out-of-range', what: 'fill margin', value: input.margin, allowed: '>= 0' }, { field: 'fill_margin' });
+  if (!(r.volumeM3 > 0))
+    fail({ code: 'not-positive', what: 'reactor volume', value: r.volumeM3 }, { field: 'reactor_volume' });
+  if (!(r.lineVolumeM3 >= 0))
+    fail(
+      { code: 'out-of-range', what: 'line volume', value: r.lineVolumeM3, allowed: '>= 0' },
+      { field: 'line_volume' },
+    );
+  if (!(r.fillPressurePa > 0))
+    fail(
+      { code: 'not-positive', what: 'fill pressure', value: r.fillPressurePa },
+      { field: 'fill_pressure' },
+    );
+  if (!(input.margin >= 0))
+    fail(
+      { code: 'out-of-range', what: 'fill margin', value: input.margin, allowed: '>= 0' },
+      { field: 'fill_margin' },
+    );
   const Tr = r.temperatureK ?? input.temperatureK;
   const perExperimentMol = density(input.composition, r.fillPressurePa, Tr) * (r.volumeM3 + r.lineVolumeM3);
   const minTankPa = r.fillPressurePa * (1 + input.margin);
@@ -61,7 +74,10 @@ export function sizingBasis(input: SizingInput): Sizing {
  * Example: a 10 L tank at 1500 Torr, 1 L reactor + 0.1 L line filled to 50 Torr, margin 10 %:
  * about (1500 - 55) x 10 / (50 x 1.1) = 262 experiments (ideal gas).
  */
-export function experimentsServed(input: SizingInput, finalPressurePa: number): { experiments: number; sizing: Sizing } {
+export function experimentsServed(
+  input: SizingInput,
+  finalPressurePa: number,
+): { experiments: number; sizing: Sizing } {
   const sizing = sizingBasis(input);
   const have = density(input.composition, finalPressurePa, input.temperatureK) * input.tankVolumeM3;
   const n = Math.floor((have - sizing.reserveMol) / sizing.perExperimentMol + 1e-9);
@@ -75,16 +91,34 @@ export function experimentsServed(input: SizingInput, finalPressurePa: number): 
 export function batchSizeFinding(input: SizingInput, finalPressurePa: number): Finding | undefined {
   const { experiments, sizing } = experimentsServed(input, finalPressurePa);
   if (experiments > 0) return undefined;
-  return { severity: 'warning', code: 'batch-too-small', reactor: input.reactor.id, finalPa: finalPressurePa, minTankPa: sizing.minTankPa };
+  return {
+    severity: 'warning',
+    code: 'batch-too-small',
+    reactor: input.reactor.id,
+    finalPa: finalPressurePa,
+    minTankPa: sizing.minTankPa,
+  };
 }
 
 /** the final tank pressure that serves `count` experiments */
-export function finalPressureForExperiments(input: SizingInput, count: number): { pressurePa: number; sizing: Sizing } {
-  if (!(Number.isInteger(count) && count > 0)) fail({ code: 'out-of-range', what: 'number of experiments', value: count, allowed: 'a whole number > 0' }, { field: 'experiments' });
+export function finalPressureForExperiments(
+  input: SizingInput,
+  count: number,
+): { pressurePa: number; sizing: Sizing } {
+  if (!(Number.isInteger(count) && count > 0))
+    fail(
+      { code: 'out-of-range', what: 'number of experiments', value: count, allowed: 'a whole number > 0' },
+      { field: 'experiments' },
+    );
   const sizing = sizingBasis(input);
   const need = sizing.reserveMol + count * sizing.perExperimentMol;
   const rho = need / input.tankVolumeM3;
   const m = virialModel(Object.keys(input.composition), input.temperatureK);
-  const P = pressureFromDensity(rho, input.temperatureK, bMix(m, input.composition), cMix(m, input.composition));
+  const P = pressureFromDensity(
+    rho,
+    input.temperatureK,
+    bMix(m, input.composition),
+    cMix(m, input.composition),
+  );
   return { pressurePa: P, sizing };
 }

@@ -40,16 +40,36 @@ export function pureCylinder(args: {
   supplyPressurePa?: number;
 }): GasSource {
   const purity = args.purity ?? 1;
-  if (!(purity > 0 && purity <= 1)) fail({ code: 'out-of-range', what: `purity of ${args.id}`, value: purity, allowed: '(0, 1]' }, { field: 'purity' });
+  if (!(purity > 0 && purity <= 1))
+    fail(
+      { code: 'out-of-range', what: `purity of ${args.id}`, value: purity, allowed: '(0, 1]' },
+      { field: 'purity' },
+    );
   const imp = args.impurities ?? {};
   let impSum = 0;
   for (const [k, v] of Object.entries(imp)) {
-    if (!(v >= 0)) fail({ code: 'out-of-range', what: `impurity ${k} of ${args.id}`, value: v, allowed: '[0, 1 - purity]' }, { field: 'impurities' });
-    if (k === args.species) fail({ code: 'design-conflict', reason: `cylinder ${args.id} lists its own gas ${k} as an impurity` }, { field: 'impurities' });
+    if (!(v >= 0))
+      fail(
+        { code: 'out-of-range', what: `impurity ${k} of ${args.id}`, value: v, allowed: '[0, 1 - purity]' },
+        { field: 'impurities' },
+      );
+    if (k === args.species)
+      fail(
+        { code: 'design-conflict', reason: `cylinder ${args.id} lists its own gas ${k} as an impurity` },
+        { field: 'impurities' },
+      );
     impSum += v;
   }
   if (impSum > 1 - purity + 1e-12) {
-    fail({ code: 'design-conflict', reason: `cylinder ${args.id}: impurities add up to ${impSum}, more than 1 - purity = ${(1 - purity).toPrecision(3)}` }, { field: 'impurities' });
+    fail(
+      {
+        code: 'design-conflict',
+        reason:
+          `cylinder ${args.id}: impurities add up to ${impSum}, more than 1 - purity ` +
+          `= ${(1 - purity).toPrecision(3)}`,
+      },
+      { field: 'impurities' },
+    );
   }
   const composition: Record<string, number> = { [args.species]: purity };
   for (const [k, v] of Object.entries(imp)) if (v > 0) composition[k] = v;
@@ -65,12 +85,26 @@ export function pureCylinder(args: {
   };
 }
 
-export function premix(args: { id: string; label?: string; composition: Fractions; supplyPressurePa?: number }): GasSource {
+export function premix(args: {
+  id: string;
+  label?: string;
+  composition: Fractions;
+  supplyPressurePa?: number;
+}): GasSource {
   const entries = Object.entries(args.composition);
   const sum = entries.reduce((s, [, v]) => s + v, 0);
-  if (Math.abs(sum - 1) > 1e-6) fail({ code: 'fractions-sum', sum }, { field: `cylinders.${args.id}.composition` });
+  if (Math.abs(sum - 1) > 1e-6)
+    fail({ code: 'fractions-sum', sum }, { field: `cylinders.${args.id}.composition` });
   const main = entries.reduce((a, b) => (b[1] > a[1] ? b : a))[0];
-  return { id: args.id, label: args.label ?? args.id, kind: 'premix', composition: args.composition, unidentified: 0, mainSpecies: main, supplyPressurePa: args.supplyPressurePa };
+  return {
+    id: args.id,
+    label: args.label ?? args.id,
+    kind: 'premix',
+    composition: args.composition,
+    unidentified: 0,
+    mainSpecies: main,
+    supplyPressurePa: args.supplyPressurePa,
+  };
 }
 
 export interface Allocation {
@@ -97,15 +131,30 @@ export function allocate(
 ): Allocation {
   const designSpecies = Object.keys(design).filter((k) => design[k] > 0);
   for (const sp of designSpecies) {
-    if (!sources.some((s) => (s.composition[sp] ?? 0) > 0) && !(inTank && (inTank.composition[sp] ?? 0) > 0)) {
-      fail({ code: 'no-supply', species: sp, reason: 'no cylinder in the lab profile carries it; add one under cylinders' });
+    if (
+      !sources.some((s) => (s.composition[sp] ?? 0) > 0) &&
+      !(inTank && (inTank.composition[sp] ?? 0) > 0)
+    ) {
+      fail({
+        code: 'no-supply',
+        species: sp,
+        reason: 'no cylinder in the lab profile carries it; add one under cylinders',
+      });
     }
   }
   const A = designSpecies.map((sp) => sources.map((s) => (s.composition[sp] ?? 0) / design[sp]));
-  const b = designSpecies.map((sp) => (totalMol * design[sp] - (inTank ? inTank.amountMol * (inTank.composition[sp] ?? 0) : 0)) / design[sp]);
+  const b = designSpecies.map(
+    (sp) =>
+      (totalMol * design[sp] - (inTank ? inTank.amountMol * (inTank.composition[sp] ?? 0) : 0)) / design[sp],
+  );
   if (b.some((v) => v < -1e-9 * totalMol)) {
     const over = designSpecies.filter((_, i) => b[i] < 0);
-    fail({ code: 'design-conflict', reason: `the gas already in the tank holds more ${over.join(', ')} than the finished batch should; evacuate the tank or raise the final pressure` });
+    fail({
+      code: 'design-conflict',
+      reason:
+        `the gas already in the tank holds more ${over.join(', ')} than the finished ` +
+        `batch should; evacuate the tank or raise the final pressure`,
+    });
   }
   const { x } = nnls(A, b);
   const composition: Record<string, number> = {};
@@ -124,8 +173,14 @@ export function allocate(
   });
   for (const k of Object.keys(composition)) composition[k] /= total;
   let worst = 0;
-  for (const sp of designSpecies) worst = Math.max(worst, Math.abs((composition[sp] ?? 0) - design[sp]) / design[sp]);
-  return { amountsMol: x, composition, unidentified: unknown / (total + unknown), worstRelativeDeviation: worst };
+  for (const sp of designSpecies)
+    worst = Math.max(worst, Math.abs((composition[sp] ?? 0) - design[sp]) / design[sp]);
+  return {
+    amountsMol: x,
+    composition,
+    unidentified: unknown / (total + unknown),
+    worstRelativeDeviation: worst,
+  };
 }
 
 /**
@@ -156,7 +211,10 @@ export function chooseSources(design: Fractions, available: readonly GasSource[]
     const pure = available
       .filter((s) => s.kind !== 'premix' && s.kind !== 'in-tank' && s.mainSpecies === sp)
       .sort((a, b) => (b.composition[sp] ?? 0) - (a.composition[sp] ?? 0));
-    chosen.push(pure[0] ?? pureCylinder({ id: `${sp}-assumed`, label: `${sp} (no cylinder in lab profile)`, species: sp }));
+    chosen.push(
+      pure[0] ??
+        pureCylinder({ id: `${sp}-assumed`, label: `${sp} (no cylinder in lab profile)`, species: sp }),
+    );
   }
   return chosen;
 }
@@ -165,13 +223,20 @@ export function chooseSources(design: Fractions, available: readonly GasSource[]
  * Put sources in the order the user names them. Each name is a source id or the
  * main species of one source; every source must be named exactly once.
  */
-export function orderSources(sources: readonly GasSource[], names: readonly string[], resolve: (n: string) => string | undefined): GasSource[] {
+export function orderSources(
+  sources: readonly GasSource[],
+  names: readonly string[],
+  resolve: (n: string) => string | undefined,
+): GasSource[] {
   const picked: GasSource[] = [];
   const unknown: string[] = [];
   const repeated: string[] = [];
   for (const n of names) {
     const key = resolve(n) ?? n;
-    const s = sources.find((x) => x.id === n) ?? sources.find((x) => x.mainSpecies === key) ?? sources.find((x) => (x.composition[key] ?? 0) >= 0.01);
+    const s =
+      sources.find((x) => x.id === n) ??
+      sources.find((x) => x.mainSpecies === key) ??
+      sources.find((x) => (x.composition[key] ?? 0) >= 0.01);
     if (!s) unknown.push(n);
     else if (picked.includes(s)) repeated.push(n);
     else picked.push(s);
@@ -179,7 +244,9 @@ export function orderSources(sources: readonly GasSource[], names: readonly stri
   const choices = sources.map((s) => (s.kind === 'premix' ? s.id : s.mainSpecies));
   if (unknown.length) fail({ code: 'order-unknown', unknown, choices }, { field: 'order' });
   if (repeated.length) fail({ code: 'order-repeated', repeated }, { field: 'order' });
-  const missing = sources.filter((s) => !picked.includes(s)).map((s) => (s.kind === 'premix' ? s.id : s.mainSpecies));
+  const missing = sources
+    .filter((s) => !picked.includes(s))
+    .map((s) => (s.kind === 'premix' ? s.id : s.mainSpecies));
   if (missing.length) fail({ code: 'order-missing', missing }, { field: 'order' });
   return picked;
 }

@@ -57,14 +57,20 @@ export interface InputComponent {
   readonly unit: string;
 }
 
-
 export interface OutputStat {
   readonly value: number;
   readonly u: number;
   /** GUM 95 % interval, k = 2 */
   readonly low: number;
   readonly high: number;
-  readonly mc?: { readonly mean: number; readonly u: number; readonly low: number; readonly high: number; readonly validated: boolean; readonly tolerance: number };
+  readonly mc?: {
+    readonly mean: number;
+    readonly u: number;
+    readonly low: number;
+    readonly high: number;
+    readonly validated: boolean;
+    readonly tolerance: number;
+  };
   /** the largest contributions c_i u_i, largest first */
   readonly budget: readonly { readonly name: string; readonly contribution: number }[];
 }
@@ -88,7 +94,12 @@ interface Model {
   readonly outputs: readonly string[];
 }
 
-function buildModel(readings: readonly CheckedReading[], settings: UncertaintySettings, diluent: readonly string[], initial?: { composition: Fractions; pressurePa: number; temperatureK: number }): Model {
+function buildModel(
+  readings: readonly CheckedReading[],
+  settings: UncertaintySettings,
+  diluent: readonly string[],
+  initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
+): Model {
   const setup = inverseSetup(
     readings.map((r) => ({ source: r.source, pressurePa: r.pressurePa, temperatureK: r.temperatureK })),
     initial,
@@ -101,21 +112,46 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
     components.push({ name, dist, scale, u, unit });
     return components.length - 1;
   };
-  const ctx = { barometricPa: settings.barometricPa, barometricUncertaintyPa: settings.barometricUncertaintyPa };
+  const ctx = {
+    barometricPa: settings.barometricPa,
+    barometricUncertaintyPa: settings.barometricUncertaintyPa,
+  };
   const gauges = [...new Map(readings.map((r) => [r.gauge.id, r.gauge])).values()];
   const spanIdx = new Map<string, number>();
   const offIdx = new Map<string, number>();
   for (const g of gauges) {
-    if (g.accuracyOfReading > 0) spanIdx.set(g.id, add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1'));
-    if (g.accuracyOfFullScale > 0) offIdx.set(g.id, add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa'));
+    if (g.accuracyOfReading > 0)
+      spanIdx.set(g.id, add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1'));
+    if (g.accuracyOfFullScale > 0)
+      offIdx.set(g.id, add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa'));
   }
-  const resIdx = readings.map((r) => (r.gauge.resolutionPa > 0 ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa') : -1));
-  const baroIdx = readings.some((r) => r.gauge.reference === 'gauge') ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa') : -1;
-  const thermoIdx = settings.thermometerUncertaintyK > 0 ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K') : -1;
-  const tResIdx = readings.map((r) => (settings.thermometerResolutionK > 0 ? add(`temperature resolution, reading ${r.step}`, 'rectangular', settings.thermometerResolutionK / 2, 'K') : -1));
+  const resIdx = readings.map((r) =>
+    r.gauge.resolutionPa > 0
+      ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa')
+      : -1,
+  );
+  const baroIdx = readings.some((r) => r.gauge.reference === 'gauge')
+    ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa')
+    : -1;
+  const thermoIdx =
+    settings.thermometerUncertaintyK > 0
+      ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K')
+      : -1;
+  const tResIdx = readings.map((r) =>
+    settings.thermometerResolutionK > 0
+      ? add(
+          `temperature resolution, reading ${r.step}`,
+          'rectangular',
+          settings.thermometerResolutionK / 2,
+          'K',
+        )
+      : -1,
+  );
   const bIdx: { i: number; j: number; c: number }[] = [];
   // virial terms of trace species (impurities below 1e-4 in every source) move no output measurably: left out
-  const major = new Set(setup.species.filter((_, i) => setup.wId.some((w) => w[i] >= 1e-4) || (setup.initial?.y[i] ?? 0) >= 1e-4));
+  const major = new Set(
+    setup.species.filter((_, i) => setup.wId.some((w) => w[i] >= 1e-4) || (setup.initial?.y[i] ?? 0) >= 1e-4),
+  );
   for (const e of setup.model.entries) {
     if (!major.has(e.i) || !major.has(e.j)) continue;
     const i = setup.species.indexOf(e.i);
@@ -124,7 +160,11 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
     bIdx.push({ i, j, c: add(`B ${e.i}-${e.j}`, 'normal', u, 'm3/mol') });
   }
   // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular
-  const purIdx = readings.map((r) => (r.source.unidentified > 0 ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1') : -1));
+  const purIdx = readings.map((r) =>
+    r.source.unidentified > 0
+      ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1')
+      : -1,
+  );
 
   const readingPa = readings.map((r) => gaugeReadingPa(r.gauge, r.pressurePa, ctx));
   const dilIdx = diluent.map((k) => setup.species.indexOf(k)).filter((i) => i >= 0);
@@ -136,7 +176,13 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
   const ws = workspaceFor(setup);
   const demand = setup.species.map((k) => oxygenDemand(getSpecies(k).elements));
   const out = new Float64Array(S + 2);
-  const nominalRho = Float64Array.from(invertReadings(setup, undefined, readings.map((r) => r.pressurePa)).rho);
+  const nominalRho = Float64Array.from(
+    invertReadings(
+      setup,
+      undefined,
+      readings.map((r) => r.pressurePa),
+    ).rho,
+  );
   // per-reading component indices as plain arrays (-1: none), for the hot loop
   const spanOf = Int32Array.from(readings.map((r) => spanIdx.get(r.gauge.id) ?? -1));
   const offOf = Int32Array.from(readings.map((r) => offIdx.get(r.gauge.id) ?? -1));
@@ -159,7 +205,13 @@ function buildModel(readings: readonly CheckedReading[], settings: UncertaintySe
       bAbs[b.i * S + b.j] = v[b.c];
       bAbs[b.j * S + b.i] = v[b.c];
     }
-    const res = invertReadings(setup, { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur }, undefined, ws, nominalRho);
+    const res = invertReadings(
+      setup,
+      { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur },
+      undefined,
+      ws,
+      nominalRho,
+    );
     out.set(res.x);
     // phi on the O-atom basis, as composition.equivalenceRatio, from precomputed O2 demands
     let need = 0;
@@ -254,7 +306,9 @@ export function monteCarloSamples(
 }
 
 function defaultDiluent(readings: readonly CheckedReading[]): string[] {
-  return [...new Set(readings.flatMap((r) => Object.keys(r.source.composition)))].filter((k) => speciesRole(k) === 'inert');
+  return [...new Set(readings.flatMap((r) => Object.keys(r.source.composition)))].filter(
+    (k) => speciesRole(k) === 'inert',
+  );
 }
 
 function drawSamples(m: Model, trials: number, seed: number): Float64Array[] {
@@ -292,7 +346,11 @@ export function evaluateUncertainty(
   const N = m.components.length;
   const nominalV = new Float64Array(N);
   const nominal = Float64Array.from(m.evaluate(nominalV));
-  const nominalUnid = invertReadings(m.setup, undefined, readings.map((r) => r.pressurePa)).unidentified;
+  const nominalUnid = invertReadings(
+    m.setup,
+    undefined,
+    readings.map((r) => r.pressurePa),
+  ).unidentified;
   const O = nominal.length;
   const contrib: number[][] = Array.from({ length: O }, () => []);
   const v = new Float64Array(N);
@@ -307,7 +365,13 @@ export function evaluateUncertainty(
   }
   // Monte Carlo: the streams' samples joined
   const M = settings.trials;
-  const parts = streams ?? (M > 0 ? Array.from({ length: MC_STREAMS }, (_, i) => drawSamples(m, streamTrials(M, i), streamSeed(settings.seed, i))) : []);
+  const parts =
+    streams ??
+    (M > 0
+      ? Array.from({ length: MC_STREAMS }, (_, i) =>
+          drawSamples(m, streamTrials(M, i), streamSeed(settings.seed, i)),
+        )
+      : []);
   const samples: Float64Array[] = Array.from({ length: O }, () => new Float64Array(M));
   let offset = 0;
   for (const part of parts) {

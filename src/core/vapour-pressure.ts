@@ -34,7 +34,10 @@ export function antoinePa(A: number, B: number, C: number, temperatureK: number)
 }
 
 /** Wagner, ln(P/Pc) = (a tau + b tau^1.5 + c tau^2.5 + d tau^5)/Tr. */
-export function wagnerPa(w: { a: number; b: number; c: number; d: number; TcK: number; PcPa: number }, temperatureK: number): number {
+export function wagnerPa(
+  w: { a: number; b: number; c: number; d: number; TcK: number; PcPa: number },
+  temperatureK: number,
+): number {
   const tr = temperatureK / w.TcK;
   const tau = 1 - tr;
   return w.PcPa * Math.exp((w.a * tau + w.b * tau ** 1.5 + w.c * tau ** 2.5 + w.d * tau ** 5) / tr);
@@ -67,9 +70,18 @@ export function saturationPressure(key: string, temperatureK: number): Psat | un
     return { pressurePa: antoinePa(a.A, a.B, a.C, temperatureK), method: 'antoine', source: a.source };
   }
   const w = WAGNER.get(sp.key);
-  if (w && temperatureK < w.TcK) return { pressurePa: wagnerPa(w, temperatureK), method: 'wagner', source: w.source };
+  if (w && temperatureK < w.TcK)
+    return { pressurePa: wagnerPa(w, temperatureK), method: 'wagner', source: w.source };
   if (a && temperatureK >= a.TminK - EXTRAPOLATION_K && temperatureK <= a.TmaxK + EXTRAPOLATION_K) {
-    return { pressurePa: antoinePa(a.A, a.B, a.C, temperatureK), method: 'antoine-extrapolated', source: a.source };
+    return {
+      pressurePa: antoinePa(a.A, a.B, a.C, temperatureK),
+      method: 'antoine-extrapolated',
+      source: a.source,
+    };
   }
-  return { pressurePa: leeKeslerPa(sp.Tc, sp.Pc, sp.omega, temperatureK), method: 'lee-kesler', source: 'lee-kesler-1975' };
+  return {
+    pressurePa: leeKeslerPa(sp.Tc, sp.Pc, sp.omega, temperatureK),
+    method: 'lee-kesler',
+    source: 'lee-kesler-1975',
+  };
 }

@@ -40,13 +40,28 @@ export function judge(result: UncertaintyResult, design: Design | undefined, tol
     const U = 2 * (st?.u ?? 0);
     const t = Math.max(tol.relative * xd, tol.absolute);
     const d = actual - xd;
-    deviations.push({ species: k, design: xd, actual, deviation: d, tolerance: t, expandedU: U, within: Math.abs(d) <= t, provenWithin: Math.abs(d) + U <= t });
+    deviations.push({
+      species: k,
+      design: xd,
+      actual,
+      deviation: d,
+      tolerance: t,
+      expandedU: U,
+      within: Math.abs(d) <= t,
+      provenWithin: Math.abs(d) + U <= t,
+    });
   }
-  const verdict: VerdictKind = deviations.every((d) => d.within) ? (deviations.every((d) => d.provenWithin) ? 'pass' : 'pass-uncertain') : 'fail';
+  const verdict: VerdictKind = deviations.every((d) => d.within)
+    ? deviations.every((d) => d.provenWithin)
+      ? 'pass'
+      : 'pass-uncertain'
+    : 'fail';
   return {
     verdict,
     deviations,
     phiDeviation: design.phi !== undefined && result.phi ? result.phi.value - design.phi : undefined,
-    diluentDeviation: result.diluentFraction ? result.diluentFraction.value - design.diluentFraction : undefined,
+    diluentDeviation: result.diluentFraction
+      ? result.diluentFraction.value - design.diluentFraction
+      : undefined,
   };
 }

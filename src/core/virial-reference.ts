@@ -17,7 +17,10 @@ interface TableEntry {
 const temperatures: readonly number[] = table.temperatures_K;
 const entries = table.species as Record<string, TableEntry>;
 
-export const VIRIAL_TABLE_RANGE_K = { min: temperatures[0], max: temperatures[temperatures.length - 1] } as const;
+export const VIRIAL_TABLE_RANGE_K = {
+  min: temperatures[0],
+  max: temperatures[temperatures.length - 1],
+} as const;
 export const VIRIAL_TABLE_LIBRARY: string = table.library;
 
 function interpolate(values: readonly number[], temperatureK: number): number {
@@ -84,7 +87,8 @@ interface CrossEntry {
 
 const crossEntries = crossTable.pairs as Record<string, CrossEntry>;
 export const CROSS_TABLE_LIBRARY: string = crossTable.library;
-if (crossTable.temperatures_K.some((t, i) => t !== temperatures[i])) throw new Error('cross-virial table and pure table use different temperature grids');
+if (crossTable.temperatures_K.some((t, i) => t !== temperatures[i]))
+  throw new Error('cross-virial table and pure table use different temperature grids');
 
 function crossEntry(a: string, b: string): { e: CrossEntry; swapped: boolean } | undefined {
   const direct = crossEntries[`${a}|${b}`];
@@ -111,7 +115,11 @@ export function referenceCrossB(a: string, b: string, temperatureK: number): Ref
  * Reference cross third virial coefficients of a pair, oriented as asked:
  * aab = C_aab (a twice), abb = C_abb, m6/mol2; undefined when not tabulated.
  */
-export function referenceCrossC(a: string, b: string, temperatureK: number): { aab: number; abb: number; model: string } | undefined {
+export function referenceCrossC(
+  a: string,
+  b: string,
+  temperatureK: number,
+): { aab: number; abb: number; model: string } | undefined {
   const hit = crossEntry(a, b) ?? averagedCEntry(a, b);
   if (!hit || !inRange(temperatureK) || !hit.e.C_aab || !hit.e.C_abb) return undefined;
   const first = interpolate(hit.e.C_aab, temperatureK) * 1e-12;
@@ -133,7 +141,10 @@ interface AveragedEntry {
   readonly B_u: readonly number[];
 }
 
-const averagedEntries = crossTable.averaged as Record<string, AveragedEntry & { readonly C_aab?: readonly number[]; readonly C_abb?: readonly number[] }>;
+const averagedEntries = crossTable.averaged as Record<
+  string,
+  AveragedEntry & { readonly C_aab?: readonly number[]; readonly C_abb?: readonly number[] }
+>;
 
 /** an averaged pair whose C_mix is nevertheless cubic in composition (the table's C acceptance) */
 function averagedCEntry(a: string, b: string): { e: CrossEntry; swapped: boolean } | undefined {
@@ -156,7 +167,11 @@ export interface AveragedCrossB extends ReferenceCrossB {
 export function averagedCrossB(a: string, b: string, temperatureK: number): AveragedCrossB | undefined {
   const e = averagedEntries[`${a}|${b}`] ?? averagedEntries[`${b}|${a}`];
   if (!e || !inRange(temperatureK)) return undefined;
-  return { value: interpolate(e.B, temperatureK) * 1e-6, u: interpolate(e.B_u, temperatureK) * 1e-6, model: e.model };
+  return {
+    value: interpolate(e.B, temperatureK) * 1e-6,
+    u: interpolate(e.B_u, temperatureK) * 1e-6,
+    model: e.model,
+  };
 }
 
 /** the species whose cross coefficients with `key` come from a tabulated reference mixture model, with the model */

@@ -100,7 +100,11 @@ export function correlationConstants(sp: SpeciesRecord, temperatureK: number): C
  *   Zcij = (Zci + Zcj)/2; Pcij = Zcij R Tcij / Vcij; omega_ij = (omega_i + omega_j)/2.
  * Polar terms: both polar -> a_ij = (a_i + a_j)/2, b_ij = 0; otherwise a = b = 0 (Tsonopoulos).
  */
-export function pairConstants(ci: CorrelationConstants, cj: CorrelationConstants, kij = 0): CorrelationConstants {
+export function pairConstants(
+  ci: CorrelationConstants,
+  cj: CorrelationConstants,
+  kij = 0,
+): CorrelationConstants {
   const Tc = Math.sqrt(ci.Tc * cj.Tc) * (1 - kij);
   const Vc = ((Math.cbrt(ci.Vc) + Math.cbrt(cj.Vc)) / 2) ** 3;
   const Zc = ((ci.Pc * ci.Vc) / (R * ci.Tc) + (cj.Pc * cj.Vc) / (R * cj.Tc)) / 2;
@@ -148,12 +152,18 @@ export const CROSS_RULE_KIJ = { general: 0.0099, co2: 0.0548 } as const;
 
 /** whether the fitted rule and its calibrated uncertainty apply to a pair (classical, not hydrogen-bonding) */
 export function crossRuleCalibrated(a: SpeciesRecord, b: SpeciesRecord): boolean {
-  const hb = (s: SpeciesRecord) => s.polarClass === 'alkanol' || s.polarClass === 'methanol' || s.polarClass === 'water';
+  const hb = (s: SpeciesRecord) =>
+    s.polarClass === 'alkanol' || s.polarClass === 'methanol' || s.polarClass === 'water';
   return !a.quantum && !b.quantum && !hb(a) && !hb(b);
 }
 
 /** k_ij of the cross-B rule: size difference, plus the fitted additions where the rule is calibrated */
-export function crossRuleKij(a: SpeciesRecord, b: SpeciesRecord, ci: CorrelationConstants, cj: CorrelationConstants): number {
+export function crossRuleKij(
+  a: SpeciesRecord,
+  b: SpeciesRecord,
+  ci: CorrelationConstants,
+  cj: CorrelationConstants,
+): number {
   const size = sizeDifferenceKij(ci, cj);
   if (!crossRuleCalibrated(a, b)) return size;
   return size + CROSS_RULE_KIJ.general + (a.key === 'CO2' || b.key === 'CO2' ? CROSS_RULE_KIJ.co2 : 0);

@@ -10,7 +10,16 @@
  * `write-failed` problem names the path and the cause (disk full, I/O error, short write,
  * no permission); nothing is reported written that was not.
  */
-import { closeSync, fsyncSync, linkSync, lstatSync, openSync, renameSync, unlinkSync, writeSync } from 'node:fs';
+import {
+  closeSync,
+  fsyncSync,
+  linkSync,
+  lstatSync,
+  openSync,
+  renameSync,
+  unlinkSync,
+  writeSync,
+} from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { fail, ProblemError } from '../core/index.js';
 
@@ -71,7 +80,8 @@ export function writeAllSync(fd: number, buf: Uint8Array): void {
 
 /** why a write failed, for a write-failed problem: a short write says how many bytes went in */
 export function failureReason(e: unknown): string {
-  if (e instanceof ShortWriteError) return `only ${e.written} of ${e.expected} bytes could be written (the disk is probably full)`;
+  if (e instanceof ShortWriteError)
+    return `only ${e.written} of ${e.expected} bytes could be written (the disk is probably full)`;
   return writeErrorReason(e);
 }
 
@@ -101,8 +111,11 @@ function whatIsAt(path: string): 'file' | 'folder' | 'symlink' | 'other' | undef
 
 const TAKEN: Record<string, string> = {
   file: 'a file of that name exists; add --force to replace it, or choose another name',
-  symlink: 'a symbolic link of that name exists (it may point nowhere); add --force to replace the link, or choose another name',
-  other: 'something that is not a regular file (a device, a fifo or a socket) has that name; choose another name',
+  symlink:
+    'a symbolic link of that name exists (it may point nowhere); add --force ' +
+    'to replace the link, or choose another name',
+  other:
+    'something that is not a regular file (a device, a fifo or a socket) has that name; choose another name',
 };
 
 /**
@@ -125,8 +138,16 @@ function placeNew(tmp: string, path: string): void {
 
 export function writeFileAtomic(path: string, data: string | Uint8Array, force: boolean): void {
   const there = whatIsAt(path);
-  if (there === 'folder') fail({ code: 'write-failed', reason: 'the name is a folder; give a file name inside it, e.g. FOLDER/fill.html' }, { file: path });
-  if (there === 'other' || (there !== undefined && !force)) fail({ code: 'write-failed', reason: TAKEN[there] }, { file: path });
+  if (there === 'folder')
+    fail(
+      {
+        code: 'write-failed',
+        reason: 'the name is a folder; give a file name inside it, e.g. FOLDER/fill.html',
+      },
+      { file: path },
+    );
+  if (there === 'other' || (there !== undefined && !force))
+    fail({ code: 'write-failed', reason: TAKEN[there] }, { file: path });
   const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
   let fd: number | undefined;
   let created = false;
@@ -165,7 +186,15 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, force: 
     }
     if (e instanceof ProblemError) throw e;
     const code = (e as NodeJS.ErrnoException).code;
-    if (code === 'EEXIST') fail({ code: 'write-failed', reason: 'a file of that name appeared while writing; add --force to replace it, or choose another name' }, { file: path });
+    if (code === 'EEXIST')
+      fail(
+        {
+          code: 'write-failed',
+          reason:
+            'a file of that name appeared while writing; add --force to replace it, or choose another name',
+        },
+        { file: path },
+      );
     return fail({ code: 'write-failed', reason: failureReason(e) }, { file: path });
   }
 }

@@ -31,7 +31,19 @@
  * a side file before anything is appended. A log is never overwritten.
  */
 import { createHash } from 'node:crypto';
-import { closeSync, fstatSync, fsyncSync, ftruncateSync, linkSync, lstatSync, openSync, readdirSync, readFileSync, renameSync, unlinkSync } from 'node:fs';
+import {
+  closeSync,
+  fstatSync,
+  fsyncSync,
+  ftruncateSync,
+  linkSync,
+  lstatSync,
+  openSync,
+  readdirSync,
+  readFileSync,
+  renameSync,
+  unlinkSync,
+} from 'node:fs';
 import { hostname } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
@@ -79,7 +91,12 @@ export const headerSchema = z.object({
     /** rating x working fraction; absent in /1 logs (then the rating is the limit) */
     working_limit_Pa: z.number().positive().nullable().optional(),
   }),
-  design: z.object({ composition: fractions, phi: z.number().nullable(), diluent: z.array(z.string()), diluent_fraction: z.number() }),
+  design: z.object({
+    composition: fractions,
+    phi: z.number().nullable(),
+    diluent: z.array(z.string()),
+    diluent_fraction: z.number(),
+  }),
   tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
   temperature_K: z.number().positive(),
   final_pressure_Pa: z.number().positive(),
@@ -87,14 +104,35 @@ export const headerSchema = z.object({
   thermometer: z.object({ u_K: z.number().min(0), resolution_K: z.number().min(0) }),
   gauges: z.array(gaugeSchema),
   sources: z.array(sourceSchema),
-  steps: z.array(z.object({ step: z.number().int().positive(), source: z.string(), species: z.string(), target_Pa: z.number(), band_Pa: z.number(), gauge: z.string().nullable() })),
+  steps: z.array(
+    z.object({
+      step: z.number().int().positive(),
+      source: z.string(),
+      species: z.string(),
+      target_Pa: z.number(),
+      band_Pa: z.number(),
+      gauge: z.string().nullable(),
+    }),
+  ),
   /** top-up: the gas the plan assumed already in the tank */
   in_tank: z.object({ composition: fractions, pressure_Pa: z.number().positive() }).nullable().optional(),
   recipe: z.unknown().optional(),
-  findings: z.array(z.object({ severity: z.enum(['danger', 'warning', 'note']), code: z.string(), step: z.number().nullable(), message: z.string() })).optional(),
+  findings: z
+    .array(
+      z.object({
+        severity: z.enum(['danger', 'warning', 'note']),
+        code: z.string(),
+        step: z.number().nullable(),
+        message: z.string(),
+      }),
+    )
+    .optional(),
 });
 
-const chain = z.string().regex(/^[0-9a-f]{64}$/).optional();
+const chain = z
+  .string()
+  .regex(/^[0-9a-f]{64}$/)
+  .optional();
 const initials = z.string().trim().min(1).max(16);
 
 const readingFields = {
@@ -151,8 +189,21 @@ const startSchema = z.object({
   note: z.string().optional(),
   chain,
 });
-const ackSchema = z.object({ kind: z.literal('acknowledge'), code: z.string(), step: z.number().int().nullable(), by: z.string(), time: z.string(), note: z.string().optional(), chain });
-const closeSchema = z.object({ kind: z.literal('close'), time: z.string(), note: z.string().optional(), chain });
+const ackSchema = z.object({
+  kind: z.literal('acknowledge'),
+  code: z.string(),
+  step: z.number().int().nullable(),
+  by: z.string(),
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
+const closeSchema = z.object({
+  kind: z.literal('close'),
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
 
 export type LogHeader = z.infer<typeof headerSchema>;
 export type LogReading = z.infer<typeof readingSchema> | z.infer<typeof correctionSchema>;
@@ -162,7 +213,8 @@ export type LogBarometer = z.infer<typeof barometerSchema>;
 export type LogStartPressure = z.infer<typeof startSchema>;
 export type LogAck = z.infer<typeof ackSchema>;
 export type LogClose = z.infer<typeof closeSchema>;
-export type LogEvent = LogHeader | LogReading | LogWithdraw | LogBarometer | LogStartPressure | LogAck | LogClose;
+export type LogEvent =
+  LogHeader | LogReading | LogWithdraw | LogBarometer | LogStartPressure | LogAck | LogClose;
 /** what a writer hands to append: any event but the header, without its chain (the writer adds it) */
 export type NewLogEvent = Exclude<LogEvent, LogHeader>;
 
@@ -195,11 +247,25 @@ export function gaugeFromLog(g: LogHeader['gauges'][number]): Gauge {
 }
 
 export function sourceToLog(s: GasSource): LogHeader['sources'][number] {
-  return { id: s.id, label: s.label, kind: s.kind, composition: { ...s.composition }, unidentified: s.unidentified, main_species: s.mainSpecies };
+  return {
+    id: s.id,
+    label: s.label,
+    kind: s.kind,
+    composition: { ...s.composition },
+    unidentified: s.unidentified,
+    main_species: s.mainSpecies,
+  };
 }
 
 export function sourceFromLog(s: LogHeader['sources'][number]): GasSource {
-  return { id: s.id, label: s.label, kind: s.kind, composition: s.composition, unidentified: s.unidentified, mainSpecies: s.main_species };
+  return {
+    id: s.id,
+    label: s.label,
+    kind: s.kind,
+    composition: s.composition,
+    unidentified: s.unidentified,
+    mainSpecies: s.main_species,
+  };
 }
 
 /** the working limit a log's readings are held to: rating x working fraction, else the rating */
@@ -244,8 +310,19 @@ export type RecordIssue =
   | { readonly code: 'line-unhashed'; readonly line: number }
   | { readonly code: 'log-unhashed'; readonly format: string }
   | { readonly code: 'torn-tail'; readonly line: number; readonly bytes: number }
-  | { readonly code: 'amend-target'; readonly line: number; readonly step: number; readonly named: number | null; readonly inForce: number | null }
-  | { readonly code: 'withdraw-not-last'; readonly line: number; readonly step: number; readonly later: number };
+  | {
+      readonly code: 'amend-target';
+      readonly line: number;
+      readonly step: number;
+      readonly named: number | null;
+      readonly inForce: number | null;
+    }
+  | {
+      readonly code: 'withdraw-not-last';
+      readonly line: number;
+      readonly step: number;
+      readonly later: number;
+    };
 
 export function recordIssueSeverity(i: RecordIssue): 'warning' | 'note' {
   return i.code === 'log-unhashed' ? 'note' : 'warning';
@@ -254,19 +331,31 @@ export function recordIssueSeverity(i: RecordIssue): 'warning' | 'note' {
 export function describeRecordIssue(i: RecordIssue): string {
   switch (i.code) {
     case 'line-edited':
-      return `line ${i.line} does not match its hash: it was changed after it was written, or a line before it was removed`;
+      return (
+        `line ${i.line} does not match its hash: it was changed after it was written, ` +
+        `or a line before it was removed`
+      );
     case 'line-unhashed':
       return `line ${i.line} carries no hash although the log format has them: it was not written by mixwright`;
     case 'log-unhashed':
       return `this log (format ${i.format}) predates the line hashes, so an edit after writing cannot be detected`;
     case 'torn-tail':
-      return `line ${i.line} is incomplete (${i.bytes} bytes without a line end: the write was cut off, e.g. by a crash or a full disk) and was ignored; every line before it is used`;
+      return (
+        `line ${i.line} is incomplete (${i.bytes} bytes without a line end: the write ` +
+        `was cut off, e.g. by a crash or a full disk) and was ignored; every line ` +
+        `before it is used`
+      );
     case 'amend-target':
       return i.named === null
         ? `line ${i.line} amends step ${i.step}, which has no reading in force`
-        : `line ${i.line} amends step ${i.step} naming line ${i.named}, but the reading in force for that step is ${i.inForce === null ? 'none' : `on line ${i.inForce}`}; it was applied to the step`;
+        : `line ${i.line} amends step ${i.step} naming line ${i.named}, but the reading ` +
+            `in force for that step is ${i.inForce === null ? 'none' : `on line ${i.inForce}`}; ` +
+            `it was applied to the step`;
     case 'withdraw-not-last':
-      return `line ${i.line} withdraws the reading of step ${i.step}, but step ${i.later} was already filled after it; only the last reading can be withdrawn`;
+      return (
+        `line ${i.line} withdraws the reading of step ${i.step}, but step ${i.later} ` +
+        `was already filled after it; only the last reading can be withdrawn`
+      );
   }
 }
 
@@ -315,7 +404,10 @@ export interface ParsedLog {
 
 function bad(file: string, line: number, what: string, issues: readonly z.ZodIssue[]): never {
   const i = issues[0];
-  return fail({ code: 'schema', reason: `bad ${what}: ${i.path.join('.') || '(event)'}: ${i.message}` }, { file, line });
+  return fail(
+    { code: 'schema', reason: `bad ${what}: ${i.path.join('.') || '(event)'}: ${i.message}` },
+    { file, line },
+  );
 }
 
 /** the reader's state after some lines: kept by a fill's handle, so an append reads only the new line */
@@ -335,9 +427,27 @@ interface ReaderState {
   bytes: number;
 }
 
-const emptyReader = (): ReaderState => ({ version: 0, byStep: new Map(), all: [], amendments: [], acks: [], closed: false, issues: [], link: '', complete: 0, bytes: 0 });
+const emptyReader = (): ReaderState => ({
+  version: 0,
+  byStep: new Map(),
+  all: [],
+  amendments: [],
+  acks: [],
+  closed: false,
+  issues: [],
+  link: '',
+  complete: 0,
+  bytes: 0,
+});
 
-const cloneReader = (st: ReaderState): ReaderState => ({ ...st, byStep: new Map(st.byStep), all: [...st.all], amendments: [...st.amendments], acks: [...st.acks], issues: [...st.issues] });
+const cloneReader = (st: ReaderState): ReaderState => ({
+  ...st,
+  byStep: new Map(st.byStep),
+  all: [...st.all],
+  amendments: [...st.amendments],
+  acks: [...st.acks],
+  issues: [...st.issues],
+});
 
 /** read one complete line (its line feed written) into the state */
 function readLine(st: ReaderState, raw: string, lineNo: number, file: string): void {
@@ -348,22 +458,47 @@ function readLine(st: ReaderState, raw: string, lineNo: number, file: string): v
   try {
     obj = JSON.parse(raw);
   } catch {
-    return fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
+    return fail(
+      { code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' },
+      { file, line: lineNo },
+    );
   }
-  if (typeof obj !== 'object' || obj === null || Array.isArray(obj)) fail({ code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' }, { file, line: lineNo });
+  if (typeof obj !== 'object' || obj === null || Array.isArray(obj))
+    fail(
+      { code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' },
+      { file, line: lineNo },
+    );
   const rec = obj as Record<string, unknown>;
   if (typeof rec.chain === 'string') {
-    if (chainOf(st.link, withoutChain(rec)) !== rec.chain) st.issues.push({ code: 'line-edited', line: lineNo });
+    if (chainOf(st.link, withoutChain(rec)) !== rec.chain)
+      st.issues.push({ code: 'line-edited', line: lineNo });
   } else if (st.version >= 2) st.issues.push({ code: 'line-unhashed', line: lineNo });
   st.link = linkOf(rec, raw);
   const kind = rec.kind;
   const header = st.header;
   if (!header) {
-    if (kind !== 'batch') fail({ code: 'schema', reason: 'the first line of a batch log must be its "batch" header' }, { file, line: lineNo });
+    if (kind !== 'batch')
+      fail(
+        { code: 'schema', reason: 'the first line of a batch log must be its "batch" header' },
+        { file, line: lineNo },
+      );
     const fmt = String(rec.format ?? '');
     const m = /^mixwright-batch\/(\d+)$/.exec(fmt);
-    if (!m) fail({ code: 'schema', reason: `unknown log format "${fmt}"; this version reads ${LOG_FORMAT}` }, { file, line: lineNo, field: 'format' });
-    if (Number(m[1]) > LOG_VERSION) fail({ code: 'schema', reason: `the log is format ${fmt}, newer than this version of mixwright reads (${LOG_FORMAT}); update mixwright` }, { file, line: lineNo, field: 'format' });
+    if (!m)
+      fail(
+        { code: 'schema', reason: `unknown log format "${fmt}"; this version reads ${LOG_FORMAT}` },
+        { file, line: lineNo, field: 'format' },
+      );
+    if (Number(m[1]) > LOG_VERSION)
+      fail(
+        {
+          code: 'schema',
+          reason:
+            `the log is format ${fmt}, newer than this version of mixwright reads (${LOG_FORMAT}); ` +
+            `update mixwright`,
+        },
+        { file, line: lineNo, field: 'format' },
+      );
     const h = headerSchema.safeParse(obj);
     if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
     st.header = h.data;
@@ -376,7 +511,15 @@ function readLine(st: ReaderState, raw: string, lineNo: number, file: string): v
     const r = readingSchema.safeParse(obj);
     if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
     if (byStep.has(r.data.step)) {
-      fail({ code: 'schema', reason: `step ${r.data.step} has a second reading; a changed reading is logged as a "correction", a taken-back one as a "withdraw"` }, { file, line: lineNo });
+      fail(
+        {
+          code: 'schema',
+          reason:
+            `step ${r.data.step} has a second reading; a changed reading is logged as ` +
+            `a "correction", a taken-back one as a "withdraw"`,
+        },
+        { file, line: lineNo },
+      );
     }
     const x = { ...r.data, line: lineNo };
     byStep.set(x.step, x);
@@ -385,27 +528,73 @@ function readLine(st: ReaderState, raw: string, lineNo: number, file: string): v
     const r = correctionSchema.safeParse(obj);
     if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
     if (st.version >= 2) {
-      if (!r.data.by) fail({ code: 'schema', reason: 'a correction names who made it ("by": initials)' }, { file, line: lineNo, field: 'by' });
-      if (!r.data.reason?.trim()) fail({ code: 'schema', reason: 'a correction gives its reason ("reason")' }, { file, line: lineNo, field: 'reason' });
-      if (r.data.replaces_line === undefined) fail({ code: 'schema', reason: 'a correction names the line of the reading it replaces ("replaces_line")' }, { file, line: lineNo, field: 'replaces_line' });
+      if (!r.data.by)
+        fail(
+          { code: 'schema', reason: 'a correction names who made it ("by": initials)' },
+          { file, line: lineNo, field: 'by' },
+        );
+      if (!r.data.reason?.trim())
+        fail(
+          { code: 'schema', reason: 'a correction gives its reason ("reason")' },
+          { file, line: lineNo, field: 'reason' },
+        );
+      if (r.data.replaces_line === undefined)
+        fail(
+          {
+            code: 'schema',
+            reason: 'a correction names the line of the reading it replaces ("replaces_line")',
+          },
+          { file, line: lineNo, field: 'replaces_line' },
+        );
     }
     const old = byStep.get(r.data.step) ?? null;
     if (!old || (r.data.replaces_line !== undefined && old.line !== r.data.replaces_line)) {
-      st.issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? (r.data.replaces_line ?? null) : null, inForce: old?.line ?? null });
+      st.issues.push({
+        code: 'amend-target',
+        line: lineNo,
+        step: r.data.step,
+        named: old ? (r.data.replaces_line ?? null) : null,
+        inForce: old?.line ?? null,
+      });
     }
     const x = { ...r.data, line: lineNo };
     byStep.set(x.step, x);
     st.all.push(x);
-    st.amendments.push({ kind: 'correction', step: x.step, line: lineNo, by: x.by ?? null, time: x.time, reason: x.reason ?? null, old, new: x });
+    st.amendments.push({
+      kind: 'correction',
+      step: x.step,
+      line: lineNo,
+      by: x.by ?? null,
+      time: x.time,
+      reason: x.reason ?? null,
+      old,
+      new: x,
+    });
   } else if (kind === 'withdraw') {
     const r = withdrawSchema.safeParse(obj);
     if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
     const old = byStep.get(r.data.step) ?? null;
-    if (!old || old.line !== r.data.withdraws_line) st.issues.push({ code: 'amend-target', line: lineNo, step: r.data.step, named: old ? r.data.withdraws_line : null, inForce: old?.line ?? null });
+    if (!old || old.line !== r.data.withdraws_line)
+      st.issues.push({
+        code: 'amend-target',
+        line: lineNo,
+        step: r.data.step,
+        named: old ? r.data.withdraws_line : null,
+        inForce: old?.line ?? null,
+      });
     const later = Math.max(0, ...[...byStep.keys()].filter((x) => x > r.data.step));
     if (later) st.issues.push({ code: 'withdraw-not-last', line: lineNo, step: r.data.step, later });
     byStep.delete(r.data.step);
-    st.amendments.push({ kind: 'withdraw', step: r.data.step, line: lineNo, by: r.data.by, time: r.data.time, reason: r.data.reason ?? null, old, new: null });
+    st.amendments.push({
+      kind: 'withdraw',
+      step: r.data.step,
+      line: lineNo,
+      by: r.data.by,
+      time: r.data.time,
+      reason: r.data.reason ?? null,
+      old,
+      new: null,
+    });
   } else if (kind === 'barometer') {
     const r = barometerSchema.safeParse(obj);
     if (!r.success) bad(file, lineNo, 'barometer reading', r.error.issues);
@@ -413,7 +602,15 @@ function readLine(st: ReaderState, raw: string, lineNo: number, file: string): v
   } else if (kind === 'start-pressure') {
     const r = startSchema.safeParse(obj);
     if (!r.success) bad(file, lineNo, 'starting pressure', r.error.issues);
-    if (st.all.length > 0) fail({ code: 'schema', reason: 'the starting pressure of a top-up is read before the first fill; this one comes after a reading' }, { file, line: lineNo });
+    if (st.all.length > 0)
+      fail(
+        {
+          code: 'schema',
+          reason:
+            'the starting pressure of a top-up is read before the first fill; this one comes after a reading',
+        },
+        { file, line: lineNo },
+      );
     st.start = { ...r.data, line: lineNo };
   } else if (kind === 'acknowledge') {
     const a = ackSchema.safeParse(obj);
@@ -430,7 +627,8 @@ function readLine(st: ReaderState, raw: string, lineNo: number, file: string): v
 
 function parsedOf(st: ReaderState, file: string): ParsedLog {
   const header = st.header;
-  if (!header) return fail({ code: 'schema', reason: 'the log is empty (it holds no complete line)' }, { file });
+  if (!header)
+    return fail({ code: 'schema', reason: 'the log is empty (it holds no complete line)' }, { file });
   const readings = [...st.byStep.values()].sort((a, b) => a.step - b.step);
   const warnings = st.issues.filter((i) => recordIssueSeverity(i) === 'warning').map(describeRecordIssue);
   return {
@@ -498,13 +696,24 @@ function appendBytes(path: string, expectedBytes: number, text: string): void {
   try {
     fd = openSync(path, 'a');
   } catch (e) {
-    return fail({ code: 'write-failed', reason: `${writeErrorReason(e)}; the event was not logged` }, { file: path });
+    return fail(
+      { code: 'write-failed', reason: `${writeErrorReason(e)}; the event was not logged` },
+      { file: path },
+    );
   }
   let size = expectedBytes;
   try {
     size = fstatSync(fd).size;
     if (size !== expectedBytes) {
-      fail({ code: 'write-failed', reason: `the log changed on disk since it was read (${size} bytes, expected ${expectedBytes}): another program wrote to it. Nothing was appended; stop and look at the file` }, { file: path });
+      fail(
+        {
+          code: 'write-failed',
+          reason:
+            `the log changed on disk since it was read (${size} bytes, expected ${expectedBytes}): ` +
+            `another program wrote to it. Nothing was appended; stop and look at the file`,
+        },
+        { file: path },
+      );
     }
     writeAllSync(fd, Buffer.from(text, 'utf8'));
     fsyncSync(fd);
@@ -526,22 +735,40 @@ function appendBytes(path: string, expectedBytes: number, text: string): void {
     } catch {
       // the write error is what is reported
     }
-    const rest = cutBack ? 'the event was NOT logged (the log is as it was before)' : 'the event was NOT logged; a partial line may be left at the end of the log, and is moved aside when the fill is resumed';
+    const rest = cutBack
+      ? 'the event was NOT logged (the log is as it was before)'
+      : 'the event was NOT logged; a partial line may be left at the end of the log, ' +
+        'and is moved aside when the fill is resumed';
     return fail({ code: 'write-failed', reason: `${failureReason(e)}; ${rest}` }, { file: path });
   }
   try {
     closeSync(fd);
   } catch (e) {
-    fail({ code: 'write-failed', reason: `${failureReason(e)} on closing the log; the event was written and fsync'd, but check the disk` }, { file: path });
+    fail(
+      {
+        code: 'write-failed',
+        reason: `${failureReason(e)} on closing the log; the event was written and fsync'd, but check the disk`,
+      },
+      { file: path },
+    );
   }
 }
 
 /** writer rules beyond the schema: what a new event must carry */
 function checkNew(event: NewLogEvent, file: string): void {
   if (event.kind === 'correction') {
-    if (!event.by?.trim()) fail({ code: 'schema', reason: 'a correction names who made it (by: initials)' }, { file, field: 'by' });
-    if (!event.reason?.trim()) fail({ code: 'schema', reason: 'a correction needs its reason' }, { file, field: 'reason' });
-    if (event.replaces_line === undefined) fail({ code: 'schema', reason: 'a correction names the line of the reading it replaces (replaces_line)' }, { file, field: 'replaces_line' });
+    if (!event.by?.trim())
+      fail(
+        { code: 'schema', reason: 'a correction names who made it (by: initials)' },
+        { file, field: 'by' },
+      );
+    if (!event.reason?.trim())
+      fail({ code: 'schema', reason: 'a correction needs its reason' }, { file, field: 'reason' });
+    if (event.replaces_line === undefined)
+      fail(
+        { code: 'schema', reason: 'a correction names the line of the reading it replaces (replaces_line)' },
+        { file, field: 'replaces_line' },
+      );
   }
 }
 
@@ -550,7 +777,10 @@ function checkNew(event: NewLogEvent, file: string): void {
  * event the reader would refuse, or one that amends anything but the reading in force.
  * Only the new line is read: the state of the lines before is kept.
  */
-function nextState(current: { st: ReaderState; file: string }, event: NewLogEvent): { line: string; st: ReaderState; log: ParsedLog; chain: string } {
+function nextState(
+  current: { st: ReaderState; file: string },
+  event: NewLogEvent,
+): { line: string; st: ReaderState; log: ParsedLog; chain: string } {
   const file = current.file;
   checkNew(event, file);
   const { text: line, chain: c } = lineFor(current.st.link, event);
@@ -558,7 +788,8 @@ function nextState(current: { st: ReaderState; file: string }, event: NewLogEven
   const lineNo = st.complete + 1;
   readLine(st, line.slice(0, -1), lineNo, file);
   const fresh = st.issues.find((i) => 'line' in i && i.line === lineNo);
-  if (fresh) fail({ code: 'schema', reason: `not logged: ${describeRecordIssue(fresh)}` }, { file, line: lineNo });
+  if (fresh)
+    fail({ code: 'schema', reason: `not logged: ${describeRecordIssue(fresh)}` }, { file, line: lineNo });
   return { line, st, log: parsedOf(st, file), chain: c };
 }
 
@@ -596,8 +827,12 @@ export function createLog(path: string, header: LogHeader): void {
         // reported below
       }
     }
-    if ((e as NodeJS.ErrnoException).code === 'EEXIST' && exists()) fail({ code: 'write-failed', reason: taken }, { file: path });
-    fail({ code: 'write-failed', reason: `${failureReason(e)}; the batch log was not created` }, { file: path });
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST' && exists())
+      fail({ code: 'write-failed', reason: taken }, { file: path });
+    fail(
+      { code: 'write-failed', reason: `${failureReason(e)}; the batch log was not created` },
+      { file: path },
+    );
   } finally {
     try {
       unlinkSync(tmp);
@@ -617,7 +852,16 @@ export function appendEvent(path: string, event: NewLogEvent): { line: number; c
   const st = readText(text, path);
   parsedOf(st, path);
   const torn = st.issues.find((i) => i.code === 'torn-tail');
-  if (torn) fail({ code: 'write-failed', reason: `the last line of the log is incomplete; \`mixwright fill --resume\` moves it aside first. Nothing was appended` }, { file: path, line: torn.line });
+  if (torn)
+    fail(
+      {
+        code: 'write-failed',
+        reason:
+          `the last line of the log is incomplete; \`mixwright fill --resume\` moves ` +
+          `it aside first. Nothing was appended`,
+      },
+      { file: path, line: torn.line },
+    );
   const next = nextState({ st, file: path }, event);
   appendBytes(path, st.bytes, next.line);
   return { line: next.st.complete, chain: next.chain };
@@ -692,7 +936,8 @@ function readLock(lockPath: string): { text: string; info?: LockInfo } | undefin
   }
   try {
     const o = JSON.parse(text) as LockInfo;
-    if (Number.isInteger(o.pid) && typeof o.host === 'string' && typeof o.started === 'string') return { text, info: o };
+    if (Number.isInteger(o.pid) && typeof o.host === 'string' && typeof o.started === 'string')
+      return { text, info: o };
   } catch {
     // an unreadable lock: reported by the caller
   }
@@ -705,7 +950,12 @@ function holderText(h: LockInfo): string {
 
 /** take the lock or refuse, naming its holder; a stale lock of a dead process on this host is taken over */
 function acquireLock(lockPath: string, logPath: string, now: string): { info: LockInfo; message?: string } {
-  const info: LockInfo = { pid: process.pid, host: hostname(), started: now, ...(bootId() ? { boot: bootId() } : {}) };
+  const info: LockInfo = {
+    pid: process.pid,
+    host: hostname(),
+    started: now,
+    ...(bootId() ? { boot: bootId() } : {}),
+  };
   let message: string | undefined;
   const remove = `if you are sure no fill is running on it, delete ${lockPath} and try again`;
   for (let attempt = 0; attempt < 4; attempt++) {
@@ -713,7 +963,11 @@ function acquireLock(lockPath: string, logPath: string, now: string): { info: Lo
     try {
       fd = openSync(lockPath, 'wx');
     } catch (e) {
-      if ((e as NodeJS.ErrnoException).code !== 'EEXIST') fail({ code: 'write-failed', reason: `the lock file cannot be made: ${writeErrorReason(e)}` }, { file: lockPath });
+      if ((e as NodeJS.ErrnoException).code !== 'EEXIST')
+        fail(
+          { code: 'write-failed', reason: `the lock file cannot be made: ${writeErrorReason(e)}` },
+          { file: lockPath },
+        );
     }
     if (fd !== undefined) {
       try {
@@ -722,7 +976,10 @@ function acquireLock(lockPath: string, logPath: string, now: string): { info: Lo
       } catch (e) {
         closeSync(fd);
         unlinkSync(lockPath);
-        fail({ code: 'write-failed', reason: `the lock file cannot be written: ${failureReason(e)}` }, { file: lockPath });
+        fail(
+          { code: 'write-failed', reason: `the lock file cannot be written: ${failureReason(e)}` },
+          { file: lockPath },
+        );
       }
       closeSync(fd);
       return { info, message };
@@ -730,11 +987,46 @@ function acquireLock(lockPath: string, logPath: string, now: string): { info: Lo
     const held = readLock(lockPath);
     if (!held) continue;
     const h = held.info;
-    if (!h) fail({ code: 'log-locked', reason: `the batch log ${logPath} has a lock file that cannot be read (${lockPath}), so another fill may hold it; ${remove}` }, { file: logPath });
-    if (h.host !== info.host) fail({ code: 'log-locked', reason: `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). Only one fill may write a log. A lock from another computer cannot be checked from here; ${remove}` }, { file: logPath });
+    if (!h)
+      fail(
+        {
+          code: 'log-locked',
+          reason:
+            `the batch log ${logPath} has a lock file that cannot be read (${lockPath}), ` +
+            `so another fill may hold it; ${remove}`,
+        },
+        { file: logPath },
+      );
+    if (h.host !== info.host)
+      fail(
+        {
+          code: 'log-locked',
+          reason:
+            `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). ` +
+            `Only one fill may write a log. A lock from another computer cannot be checked ` +
+            `from here; ${remove}`,
+        },
+        { file: logPath },
+      );
     const rebooted = h.boot !== undefined && info.boot !== undefined && h.boot !== info.boot;
-    if (h.pid === process.pid && !rebooted) fail({ code: 'log-locked', reason: `this program already has the batch log open for a fill (lock ${lockPath})` }, { file: logPath });
-    if (!rebooted && alive(h.pid)) fail({ code: 'log-locked', reason: `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). Finish or stop that fill first; ${remove}` }, { file: logPath });
+    if (h.pid === process.pid && !rebooted)
+      fail(
+        {
+          code: 'log-locked',
+          reason: `this program already has the batch log open for a fill (lock ${lockPath})`,
+        },
+        { file: logPath },
+      );
+    if (!rebooted && alive(h.pid))
+      fail(
+        {
+          code: 'log-locked',
+          reason:
+            `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). ` +
+            `Finish or stop that fill first; ${remove}`,
+        },
+        { file: logPath },
+      );
     // stale: move it aside by rename (atomic), and put it back if what was moved is not what was judged
     const aside = `${lockPath}.stale-${process.pid}`;
     try {
@@ -756,21 +1048,44 @@ function acquireLock(lockPath: string, logPath: string, now: string): { info: Lo
     unlinkSync(aside);
     message = `took over a stale lock: the fill of ${holderText(h)} is no longer running${rebooted ? ' (the computer was restarted since)' : ''}`;
   }
-  return fail({ code: 'log-locked', reason: `could not take the lock ${lockPath}: other fills keep taking it; ${remove}` }, { file: logPath });
+  return fail(
+    {
+      code: 'log-locked',
+      reason: `could not take the lock ${lockPath}: other fills keep taking it; ${remove}`,
+    },
+    { file: logPath },
+  );
 }
 
 function tornStamp(now: string): string {
-  return now.replace(/[-:]/g, '').replace(/\.\d+/, '').replace(/[^0-9A-Za-z]/g, '') || String(Date.now());
+  return (
+    now
+      .replace(/[-:]/g, '')
+      .replace(/\.\d+/, '')
+      .replace(/[^0-9A-Za-z]/g, '') || String(Date.now())
+  );
 }
 
 /**
  * move an incomplete last line (no line feed) aside: the fragment is first written in full to
  * a side file beside the log (fsync), and only then cut off the log; returns the side file
  */
-function moveTornTail(path: string, buf: Buffer, now: string): { side: string; bytes: number; line: number } | undefined {
+function moveTornTail(
+  path: string,
+  buf: Buffer,
+  now: string,
+): { side: string; bytes: number; line: number } | undefined {
   if (buf.length === 0 || buf[buf.length - 1] === 0x0a) return undefined;
   const cut = buf.lastIndexOf(0x0a) + 1;
-  if (cut === 0) fail({ code: 'schema', reason: 'the log holds no complete line (its header was cut off); it cannot be resumed. Start a new batch' }, { file: path });
+  if (cut === 0)
+    fail(
+      {
+        code: 'schema',
+        reason:
+          'the log holds no complete line (its header was cut off); it cannot be resumed. Start a new batch',
+      },
+      { file: path },
+    );
   const fragment = buf.subarray(cut);
   let side = `${path}.torn-${tornStamp(now)}`;
   for (let n = 2; tornSideFiles(path).includes(side); n++) side = `${path}.torn-${tornStamp(now)}-${n}`;
@@ -781,7 +1096,15 @@ function moveTornTail(path: string, buf: Buffer, now: string): { side: string; b
     ftruncateSync(fd, cut);
     fsyncSync(fd);
   } catch (e) {
-    fail({ code: 'write-failed', reason: `the incomplete last line was saved to ${side} but could not be cut off the log: ${writeErrorReason(e)}` }, { file: path });
+    fail(
+      {
+        code: 'write-failed',
+        reason:
+          `the incomplete last line was saved to ${side} but could not be cut off the ` +
+          `log: ${writeErrorReason(e)}`,
+      },
+      { file: path },
+    );
   } finally {
     if (fd !== undefined) closeSync(fd);
   }
@@ -798,10 +1121,17 @@ function moveTornTail(path: string, buf: Buffer, now: string): { side: string; b
 export function openLogForFill(path: string, opts: { now?: string } = {}): OpenedLog {
   const now = opts.now ?? new Date().toISOString();
   try {
-    if (!lstatSync(path).isFile() && !lstatSync(path).isSymbolicLink()) fail({ code: 'file-unreadable', reason: 'not a regular file' }, { file: path });
+    if (!lstatSync(path).isFile() && !lstatSync(path).isSymbolicLink())
+      fail({ code: 'file-unreadable', reason: 'not a regular file' }, { file: path });
   } catch (e) {
     if (e instanceof ProblemError) throw e;
-    fail({ code: 'file-unreadable', reason: (e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : writeErrorReason(e) }, { file: path });
+    fail(
+      {
+        code: 'file-unreadable',
+        reason: (e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : writeErrorReason(e),
+      },
+      { file: path },
+    );
   }
   const lockPath = `${path}.lock`;
   const { info, message } = acquireLock(lockPath, path, now);
@@ -811,7 +1141,12 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
     released = true;
     process.removeListener('exit', release);
     const held = readLock(lockPath);
-    if (held?.info && held.info.pid === info.pid && held.info.started === info.started && held.info.host === info.host) {
+    if (
+      held?.info &&
+      held.info.pid === info.pid &&
+      held.info.started === info.started &&
+      held.info.host === info.host
+    ) {
       try {
         unlinkSync(lockPath);
       } catch {
@@ -825,7 +1160,12 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
     if (message) messages.push(message);
     const buf = readFileSync(path);
     const torn = moveTornTail(path, buf, now);
-    if (torn) messages.push(`the last line of the log (line ${torn.line}, ${torn.bytes} bytes) was incomplete - cut off mid-write - and was moved to ${torn.side}; nothing in it was confirmed. The log now ends at line ${torn.line - 1}`);
+    if (torn)
+      messages.push(
+        `the last line of the log (line ${torn.line}, ${torn.bytes} bytes) was incomplete ` +
+          `- cut off mid-write - and was moved to ${torn.side}; nothing in it was confirmed. ` +
+          `The log now ends at line ${torn.line - 1}`,
+      );
     const text = torn ? buf.subarray(0, buf.length - torn.bytes).toString('utf8') : buf.toString('utf8');
     const st = readText(text, path);
     let state = { st, file: path, log: parsedOf(st, path) };
@@ -834,7 +1174,11 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
       lockPath,
       current: () => state.log,
       append(event) {
-        if (released) fail({ code: 'write-failed', reason: 'the log was released by this fill; open it again to write' }, { file: path });
+        if (released)
+          fail(
+            { code: 'write-failed', reason: 'the log was released by this fill; open it again to write' },
+            { file: path },
+          );
         const next = nextState(state, event);
         appendBytes(path, state.st.bytes, next.line);
         state = { st: next.st, file: path, log: next.log };

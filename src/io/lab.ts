@@ -6,14 +6,18 @@ import { z } from 'zod';
 import { blendSchema, quantity } from './recipe.js';
 import { PRESSURE_UNITS } from './quantity.js';
 
-
 const tankSchema = z
   .object({
     id: z.string().min(1),
     label: z.string().optional(),
     volume: quantity('internal volume (tank and the manifold up to its valve)', '10.0 L'),
     rating: quantity('maximum allowed working pressure, absolute', '4 bar').optional(),
-    working_fraction: z.number().gt(0).max(1).optional().describe('fraction of the rating used as working limit; default 1'),
+    working_fraction: z
+      .number()
+      .gt(0)
+      .max(1)
+      .optional()
+      .describe('fraction of the rating used as working limit; default 1'),
     height: quantity('inside height, for the diffusion mixing time', '0.45 m').optional(),
     stirred: z.boolean().optional().describe('true when the tank has a stirrer or fan'),
     base_vacuum: quantity('usual pressure before the first fill', '1e-4 Torr').optional(),
@@ -26,7 +30,10 @@ const reactorSchema = z
     id: z.string().min(1),
     label: z.string().optional(),
     volume: quantity('reactor or driven-section volume filled per experiment', '0.9 L'),
-    line_volume: quantity('line volume from the tank valve to the reactor, filled and lost each time', '0.05 L').optional(),
+    line_volume: quantity(
+      'line volume from the tank valve to the reactor, filled and lost each time',
+      '0.05 L',
+    ).optional(),
     fill_pressure: quantity('fill pressure of one experiment, absolute', '50 Torr'),
     temperature: quantity('temperature of reactor and line at fill', '22 degC').optional(),
   })
@@ -36,11 +43,18 @@ const gaugeSchema = z
   .object({
     id: z.string().min(1),
     label: z.string().optional(),
-    reference: z.enum(['absolute', 'gauge']).describe('absolute head, or gauge-referenced (reads above ambient)'),
+    reference: z
+      .enum(['absolute', 'gauge'])
+      .describe('absolute head, or gauge-referenced (reads above ambient)'),
     full_scale: quantity('full-scale reading', '1000 Torr'),
     minimum: quantity('lowest reading (compound gauges may read below ambient)', '0 Torr').optional(),
     accuracy_pct_reading: z.number().min(0).max(10).describe('accuracy, % of reading'),
-    accuracy_pct_full_scale: z.number().min(0).max(10).optional().describe('accuracy, % of full scale; default 0'),
+    accuracy_pct_full_scale: z
+      .number()
+      .min(0)
+      .max(10)
+      .optional()
+      .describe('accuracy, % of full scale; default 0'),
     resolution: quantity('display resolution', '0.01 Torr'),
     unit: z.enum(PRESSURE_UNITS).describe('unit the readout shows'),
     overpressure: quantity('pressure it survives without damage, absolute', '2000 Torr').optional(),
@@ -63,7 +77,9 @@ const premixSchema = z
   .object({
     id: z.string().min(1),
     label: z.string().optional(),
-    composition: z.record(z.string(), z.number().min(0).max(1)).describe('certified mole fractions, summing to 1'),
+    composition: z
+      .record(z.string(), z.number().min(0).max(1))
+      .describe('certified mole fractions, summing to 1'),
     supply_pressure: quantity('delivery pressure, absolute', '3 bar').optional(),
   })
   .strict();
@@ -87,11 +103,26 @@ export const labSchema = z
       })
       .strict()
       .optional(),
-    coldest: quantity('coldest temperature any wetted part (tank, lines, gauge heads) reaches, for the condensation check', '18 degC').optional(),
-    condensation_fraction: z.number().gt(0).max(1).optional().describe('largest allowed fraction of the saturation pressure at the coldest point; default 0.5 (common practice)'),
+    coldest: quantity(
+      'coldest temperature any wetted part (tank, lines, gauge heads) reaches, for the condensation check',
+      '18 degC',
+    ).optional(),
+    condensation_fraction: z
+      .number()
+      .gt(0)
+      .max(1)
+      .optional()
+      .describe(
+        'largest allowed fraction of the saturation pressure at the coldest point; default 0.5 (common practice)',
+      ),
     tanks: z.array(tankSchema).default([]),
     reactors: z.array(reactorSchema).default([]).describe('reactors or driven sections the batches serve'),
-    fill_margin: z.number().min(0).max(5).optional().describe('the tank is used down to fill pressure x (1 + margin); default 0.1'),
+    fill_margin: z
+      .number()
+      .min(0)
+      .max(5)
+      .optional()
+      .describe('the tank is used down to fill pressure x (1 + margin); default 0.1'),
     gauges: z.array(gaugeSchema).default([]),
     cylinders: z.array(z.union([pureCylinderSchema, premixSchema])).default([]),
   })

@@ -44,7 +44,11 @@ function at<T>(where: Where, f: () => T): T {
 }
 
 /** "CH4", "CH4:0.8,C2H6:0.2" or a map -> fractions keyed by species key */
-export function parseBlend(value: string | Readonly<Record<string, number>>, where: Where, air?: Fractions): Record<string, number> {
+export function parseBlend(
+  value: string | Readonly<Record<string, number>>,
+  where: Where,
+  air?: Fractions,
+): Record<string, number> {
   const out: Record<string, number> = {};
   if (typeof value !== 'string') {
     for (const [k, v] of Object.entries(value)) {
@@ -77,7 +81,12 @@ export interface LoadedLab {
   readonly barometricPa: number;
   readonly barometricUncertaintyPa: number;
   readonly air: Fractions;
-  readonly tanks: readonly (TankSpec & { readonly heightM?: number; readonly stirred?: boolean; readonly baseVacuumPa?: number; readonly leakRatePaPerS?: number })[];
+  readonly tanks: readonly (TankSpec & {
+    readonly heightM?: number;
+    readonly stirred?: boolean;
+    readonly baseVacuumPa?: number;
+    readonly leakRatePaPerS?: number;
+  })[];
   readonly reactors: readonly ReactorSpec[];
   readonly fillMargin: number;
   readonly gauges: readonly Gauge[];
@@ -91,30 +100,67 @@ export interface LoadedLab {
 
 export function loadLab(file?: string): LoadedLab {
   // the embedded profile comes pre-parsed (reading YAML costs ~20 ms of start-up); a test keeps it equal to its text
-  const src: YamlSource = file ? readYamlFile(file) : { file: DEMO_LAB_NAME, data: DEMO_LAB_DATA, locate: () => ({ file: DEMO_LAB_NAME }) };
+  const src: YamlSource = file
+    ? readYamlFile(file)
+    : { file: DEMO_LAB_NAME, data: DEMO_LAB_DATA, locate: () => ({ file: DEMO_LAB_NAME }) };
   const lab = validate(labSchema, src, (p) => keysAt(labSchema, p));
   const w = (path: DataPath, field: string): Where => ({ ...src.locate(path), field });
   const air = lab.air !== undefined ? parseBlend(lab.air, w(['air'], 'air')) : { O2: 0.21, N2: 0.79 };
   // the barometer first: gauge pressures elsewhere in the profile ("4 barg") are converted with it
-  const baroPa = lab.barometer ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure')) : 101325;
-  const baroU = lab.barometer ? parseQuantity(lab.barometer.uncertainty, 'pressure', w(['barometer', 'uncertainty'], 'barometer.uncertainty')) : 100;
-  if (!(baroPa > 0)) fail({ code: 'not-positive', what: 'barometric pressure', value: baroPa, text: lab.barometer?.pressure }, w(['barometer', 'pressure'], 'barometer.pressure'));
+  const baroPa = lab.barometer
+    ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure'))
+    : 101325;
+  const baroU = lab.barometer
+    ? parseQuantity(
+        lab.barometer.uncertainty,
+        'pressure',
+        w(['barometer', 'uncertainty'], 'barometer.uncertainty'),
+      )
+    : 100;
+  if (!(baroPa > 0))
+    fail(
+      { code: 'not-positive', what: 'barometric pressure', value: baroPa, text: lab.barometer?.pressure },
+      w(['barometer', 'pressure'], 'barometer.pressure'),
+    );
   const gaugeCtx = { barometricPa: lab.barometer ? baroPa : undefined };
   const ids = new Set<string>();
   const unique = (id: string, path: DataPath) => {
-    if (ids.has(id)) fail({ code: 'schema', reason: `the id "${id}" is used twice; ids of tanks, gauges and cylinders must be unique` }, w(path, 'id'));
+    if (ids.has(id))
+      fail(
+        {
+          code: 'schema',
+          reason: `the id "${id}" is used twice; ids of tanks, gauges and cylinders must be unique`,
+        },
+        w(path, 'id'),
+      );
     ids.add(id);
   };
   const tanks = lab.tanks.map((t, i): LoadedLab['tanks'][number] => {
     unique(t.id, ['tanks', i, 'id']);
     const volumeM3 = parseQuantity(t.volume, 'volume', w(['tanks', i, 'volume'], `tanks[${i}].volume`));
-    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3, text: t.volume }, w(['tanks', i, 'volume'], `tanks[${i}].volume`));
-    const rated = t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`), gaugeCtx);
-    if (rated !== undefined && !(rated > 0)) fail({ code: 'not-positive', what: `rating of tank ${t.id}`, value: rated, text: t.rating }, w(['tanks', i, 'rating'], `tanks[${i}].rating`));
-    const q = (key: 'height' | 'base_vacuum' | 'leak_rate', dim: 'volume' | 'pressure' | 'pressure rate' | 'length') => {
+    if (!(volumeM3 > 0))
+      fail(
+        { code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3, text: t.volume },
+        w(['tanks', i, 'volume'], `tanks[${i}].volume`),
+      );
+    const rated =
+      t.rating === undefined
+        ? undefined
+        : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`), gaugeCtx);
+    if (rated !== undefined && !(rated > 0))
+      fail(
+        { code: 'not-positive', what: `rating of tank ${t.id}`, value: rated, text: t.rating },
+        w(['tanks', i, 'rating'], `tanks[${i}].rating`),
+      );
+    const q = (
+      key: 'height' | 'base_vacuum' | 'leak_rate',
+      dim: 'volume' | 'pressure' | 'pressure rate' | 'length',
+    ) => {
       const text = t[key];
       if (text === undefined) return undefined;
-      return dim === 'length' ? parseLength(text, w(['tanks', i, key], `tanks[${i}].${key}`)) : parseQuantity(text, dim, w(['tanks', i, key], `tanks[${i}].${key}`));
+      return dim === 'length'
+        ? parseLength(text, w(['tanks', i, key], `tanks[${i}].${key}`))
+        : parseQuantity(text, dim, w(['tanks', i, key], `tanks[${i}].${key}`));
     };
     return {
       id: t.id,
@@ -135,9 +181,13 @@ export function loadLab(file?: string): LoadedLab {
       id: r.id,
       label: r.label ?? r.id,
       volumeM3: parseQuantity(r.volume, 'volume', at('volume')),
-      lineVolumeM3: r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
+      lineVolumeM3:
+        r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
       fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure'), gaugeCtx),
-      temperatureK: r.temperature === undefined ? undefined : parseQuantity(r.temperature, 'temperature', at('temperature')),
+      temperatureK:
+        r.temperature === undefined
+          ? undefined
+          : parseQuantity(r.temperature, 'temperature', at('temperature')),
     };
   });
   const gauges = lab.gauges.map((g, i): Gauge => {
@@ -145,7 +195,11 @@ export function loadLab(file?: string): LoadedLab {
     const q = (key: 'full_scale' | 'minimum' | 'resolution' | 'overpressure', text: string) =>
       parseQuantity(text, 'pressure', w(['gauges', i, key], `gauges[${i}].${key}`));
     const fullScalePa = q('full_scale', g.full_scale);
-    if (!(fullScalePa > 0)) fail({ code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa, text: g.full_scale }, w(['gauges', i, 'full_scale'], `gauges[${i}].full_scale`));
+    if (!(fullScalePa > 0))
+      fail(
+        { code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa, text: g.full_scale },
+        w(['gauges', i, 'full_scale'], `gauges[${i}].full_scale`),
+      );
     return {
       id: g.id,
       label: g.label ?? g.id,
@@ -156,35 +210,92 @@ export function loadLab(file?: string): LoadedLab {
       accuracyOfFullScale: (g.accuracy_pct_full_scale ?? 0) / 100,
       resolutionPa: q('resolution', g.resolution),
       unit: g.unit,
-      overpressurePa: g.overpressure === undefined ? undefined : parseQuantity(g.overpressure, 'pressure', w(['gauges', i, 'overpressure'], `gauges[${i}].overpressure`), gaugeCtx),
+      overpressurePa:
+        g.overpressure === undefined
+          ? undefined
+          : parseQuantity(
+              g.overpressure,
+              'pressure',
+              w(['gauges', i, 'overpressure'], `gauges[${i}].overpressure`),
+              gaugeCtx,
+            ),
     };
   });
   const cylinders = lab.cylinders.map((c, i): GasSource => {
     unique(c.id, ['cylinders', i, 'id']);
     const where = w(['cylinders', i], `cylinders[${i}]`);
-    const supply = c.supply_pressure === undefined ? undefined : parseQuantity(c.supply_pressure, 'pressure', w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`), gaugeCtx);
+    const supply =
+      c.supply_pressure === undefined
+        ? undefined
+        : parseQuantity(
+            c.supply_pressure,
+            'pressure',
+            w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`),
+            gaugeCtx,
+          );
     if ('composition' in c) {
       const comp = parseBlend(c.composition, where);
-      return at(where, () => premix({ id: c.id, label: c.label, composition: comp, supplyPressurePa: supply }));
+      return at(where, () =>
+        premix({ id: c.id, label: c.label, composition: comp, supplyPressurePa: supply }),
+      );
     }
     const species = at(where, () => getSpecies(c.species).key);
-    const impurities = c.impurities ? parseBlend(c.impurities, w(['cylinders', i, 'impurities'], `cylinders[${i}].impurities`)) : undefined;
+    const impurities = c.impurities
+      ? parseBlend(c.impurities, w(['cylinders', i, 'impurities'], `cylinders[${i}].impurities`))
+      : undefined;
     return at(where, () =>
-      pureCylinder({ id: c.id, label: c.label, species, purity: c.purity, impurities, kind: c.vapour ? 'vapour' : 'cylinder', supplyPressurePa: supply }),
+      pureCylinder({
+        id: c.id,
+        label: c.label,
+        species,
+        purity: c.purity,
+        impurities,
+        kind: c.vapour ? 'vapour' : 'cylinder',
+        supplyPressurePa: supply,
+      }),
     );
   });
-  const coldestK = lab.coldest === undefined ? undefined : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest'));
+  const coldestK =
+    lab.coldest === undefined
+      ? undefined
+      : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest'));
   // a temperature difference: K (or degC steps) only, never an offset conversion
   const kelvinDiff = (text: string, path: DataPath, field: string) => {
     const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(K|mK)\s*$/.exec(text);
-    if (!m) fail({ code: 'bad-quantity', text, expected: 'temperature difference', reason: 'give it in K (e.g. "0.3 K")' }, w(path, field));
+    if (!m)
+      fail(
+        {
+          code: 'bad-quantity',
+          text,
+          expected: 'temperature difference',
+          reason: 'give it in K (e.g. "0.3 K")',
+        },
+        w(path, field),
+      );
     const v = Number(m[1]) * (m[2] === 'mK' ? 1e-3 : 1);
-    if (!(v >= 0 && v <= 100)) fail({ code: 'out-of-range', what: field, value: v, text, allowed: '0 K to 100 K (a thermometer uncertainty or resolution)' }, w(path, field));
+    if (!(v >= 0 && v <= 100))
+      fail(
+        {
+          code: 'out-of-range',
+          what: field,
+          value: v,
+          text,
+          allowed: '0 K to 100 K (a thermometer uncertainty or resolution)',
+        },
+        w(path, field),
+      );
     return v;
   };
   const thermometer = lab.thermometer && {
-    uncertaintyK: kelvinDiff(lab.thermometer.uncertainty, ['thermometer', 'uncertainty'], 'thermometer.uncertainty'),
-    resolutionK: lab.thermometer.resolution === undefined ? 0 : kelvinDiff(lab.thermometer.resolution, ['thermometer', 'resolution'], 'thermometer.resolution'),
+    uncertaintyK: kelvinDiff(
+      lab.thermometer.uncertainty,
+      ['thermometer', 'uncertainty'],
+      'thermometer.uncertainty',
+    ),
+    resolutionK:
+      lab.thermometer.resolution === undefined
+        ? 0
+        : kelvinDiff(lab.thermometer.resolution, ['thermometer', 'resolution'], 'thermometer.resolution'),
   };
   return {
     name: lab.name,
@@ -244,62 +355,172 @@ export interface Overrides {
 }
 
 /** Build the core's plan input from a recipe (file or options) and its lab profile. */
-export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, overrides: Overrides = {}): PlanRequest {
+export function buildPlanRequest(
+  rs: RecipeSource,
+  labFileOverride?: string,
+  overrides: Overrides = {},
+): PlanRequest {
   const r = rs.recipe;
-  const W = (path: DataPath, field = path.join('.')): Where => ({ ...rs.locate(path), field: rs.locate(path).field ?? field });
+  const W = (path: DataPath, field = path.join('.')): Where => ({
+    ...rs.locate(path),
+    field: rs.locate(path).field ?? field,
+  });
   const lab = loadLab(labFileOverride ?? (r.lab ? resolvePath(rs.baseDir, r.lab) : undefined));
   // gauge pressures in the recipe are converted with the barometer given now, else the lab profile's own
-  const gaugeCtx = { barometricPa: overrides.barometricPa ?? (lab.file.barometer ? lab.barometricPa : undefined) };
+  const gaugeCtx = {
+    barometricPa: overrides.barometricPa ?? (lab.file.barometer ? lab.barometricPa : undefined),
+  };
 
   // tank and volume
   let tank: TankSpec | undefined;
   if (r.tank !== undefined) {
     tank = lab.tanks.find((t) => t.id === r.tank);
-    if (!tank) fail({ code: 'unknown-reference', kind: 'tank', id: r.tank, choices: lab.tanks.map((t) => t.id) }, W(['tank']));
+    if (!tank)
+      fail(
+        { code: 'unknown-reference', kind: 'tank', id: r.tank, choices: lab.tanks.map((t) => t.id) },
+        W(['tank']),
+      );
   }
   if (r.volume !== undefined) {
     const volumeM3 = parseQuantity(r.volume, 'volume', W(['volume']));
-    if (!(volumeM3 > 0)) fail({ code: 'not-positive', what: 'tank volume', value: volumeM3, text: r.volume }, W(['volume']));
-    tank = tank ? { ...tank, volumeM3 } : { id: 'given-volume', label: 'tank of the given volume (no rating known)', volumeM3 };
+    if (!(volumeM3 > 0))
+      fail({ code: 'not-positive', what: 'tank volume', value: volumeM3, text: r.volume }, W(['volume']));
+    tank = tank
+      ? { ...tank, volumeM3 }
+      : { id: 'given-volume', label: 'tank of the given volume (no rating known)', volumeM3 };
   }
   if (r.rating !== undefined || r.working_fraction !== undefined) {
     // a rating belongs to the tank of a given volume; a lab tank's rating is the profile's, never overridden here
-    if (r.tank !== undefined) fail({ code: 'design-conflict', reason: `the tank ${r.tank} has its rating in the lab profile; a rating here is for a tank given by its volume only` }, W([r.rating !== undefined ? 'rating' : 'working_fraction']));
-    if (r.rating === undefined) fail({ code: 'design-missing', reason: 'a working fraction is a fraction of the rating: give the rating too' }, W(['working_fraction'], 'working_fraction'));
+    if (r.tank !== undefined)
+      fail(
+        {
+          code: 'design-conflict',
+          reason:
+            `the tank ${r.tank} has its rating in the lab profile; a rating here is for ` +
+            `a tank given by its volume only`,
+        },
+        W([r.rating !== undefined ? 'rating' : 'working_fraction']),
+      );
+    if (r.rating === undefined)
+      fail(
+        {
+          code: 'design-missing',
+          reason: 'a working fraction is a fraction of the rating: give the rating too',
+        },
+        W(['working_fraction'], 'working_fraction'),
+      );
     const ratedPressurePa = parseQuantity(r.rating, 'pressure', W(['rating']), gaugeCtx);
-    if (!(ratedPressurePa > 0)) fail({ code: 'not-positive', what: 'tank rating', value: ratedPressurePa, text: r.rating }, W(['rating']));
-    if (tank) tank = { ...tank, label: 'tank of the given volume and rating', ratedPressurePa, workingFraction: r.working_fraction };
+    if (!(ratedPressurePa > 0))
+      fail(
+        { code: 'not-positive', what: 'tank rating', value: ratedPressurePa, text: r.rating },
+        W(['rating']),
+      );
+    if (tank)
+      tank = {
+        ...tank,
+        label: 'tank of the given volume and rating',
+        ratedPressurePa,
+        workingFraction: r.working_fraction,
+      };
   }
-  if (!tank) fail({ code: 'design-missing', reason: `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) or give a volume` }, W(['tank'], 'tank'));
+  if (!tank)
+    fail(
+      {
+        code: 'design-missing',
+        reason:
+          `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) ` +
+          `or give a volume`,
+      },
+      W(['tank'], 'tank'),
+    );
 
   const count = r.experiments?.count;
   if (count !== undefined && r.pressure !== undefined) {
-    fail({ code: 'design-conflict', reason: 'give the final pressure or the number of experiments, not both (the count sets the pressure)' }, W(['experiments', 'count'], 'experiments.count'));
+    fail(
+      {
+        code: 'design-conflict',
+        reason:
+          'give the final pressure or the number of experiments, not both (the count sets the pressure)',
+      },
+      W(['experiments', 'count'], 'experiments.count'),
+    );
   }
-  if (count === undefined && r.pressure === undefined) fail({ code: 'design-missing', reason: 'give the final pressure, or the number of experiments the batch must serve' }, W(['pressure'], 'pressure'));
+  if (count === undefined && r.pressure === undefined)
+    fail(
+      {
+        code: 'design-missing',
+        reason: 'give the final pressure, or the number of experiments the batch must serve',
+      },
+      W(['pressure'], 'pressure'),
+    );
   const temperatureK = parseQuantity(r.temperature, 'temperature', W(['temperature']));
   // the reactor the batch serves: the recipe's, else the lab's first
   let reactor: ReactorSpec | undefined;
   const ex = r.experiments;
   if (ex?.reactor !== undefined) {
     reactor = lab.reactors.find((x) => x.id === ex.reactor);
-    if (!reactor) fail({ code: 'unknown-reference', kind: 'reactor', id: ex.reactor, choices: lab.reactors.map((x) => x.id) }, W(['experiments', 'reactor'], 'experiments.reactor'));
+    if (!reactor)
+      fail(
+        {
+          code: 'unknown-reference',
+          kind: 'reactor',
+          id: ex.reactor,
+          choices: lab.reactors.map((x) => x.id),
+        },
+        W(['experiments', 'reactor'], 'experiments.reactor'),
+      );
   } else if (ex?.reactor_volume === undefined) reactor = lab.reactors[0];
   if (ex?.reactor_volume !== undefined || ex?.fill_pressure !== undefined || ex?.line_volume !== undefined) {
-    const volumeM3 = ex.reactor_volume !== undefined ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume'])) : reactor?.volumeM3;
-    const fillPressurePa = ex.fill_pressure !== undefined ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure']), gaugeCtx) : reactor?.fillPressurePa;
-    if (volumeM3 === undefined || fillPressurePa === undefined) fail({ code: 'design-missing', reason: 'give both the reactor volume and the fill pressure of one experiment (or a reactor from the lab profile)' }, W(['experiments'], 'experiments'));
+    const volumeM3 =
+      ex.reactor_volume !== undefined
+        ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume']))
+        : reactor?.volumeM3;
+    const fillPressurePa =
+      ex.fill_pressure !== undefined
+        ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure']), gaugeCtx)
+        : reactor?.fillPressurePa;
+    if (volumeM3 === undefined || fillPressurePa === undefined)
+      fail(
+        {
+          code: 'design-missing',
+          reason:
+            'give both the reactor volume and the fill pressure of one experiment (or a reactor from the lab profile)',
+        },
+        W(['experiments'], 'experiments'),
+      );
     reactor = {
       id: reactor?.id ?? 'reactor',
       label: reactor?.label ?? 'reactor of the given volume',
       volumeM3,
-      lineVolumeM3: ex.line_volume !== undefined ? parseQuantity(ex.line_volume, 'volume', W(['experiments', 'line_volume'])) : (reactor?.lineVolumeM3 ?? 0),
+      lineVolumeM3:
+        ex.line_volume !== undefined
+          ? parseQuantity(ex.line_volume, 'volume', W(['experiments', 'line_volume']))
+          : (reactor?.lineVolumeM3 ?? 0),
       fillPressurePa,
       temperatureK: reactor?.temperatureK,
     };
   }
-  if (count !== undefined && !reactor) fail({ code: 'design-missing', reason: 'sizing for a number of experiments needs a reactor: name one from the lab profile or give its volume and fill pressure' }, W(['experiments'], 'experiments'));
-  if (!(temperatureK > 0)) fail({ code: 'out-of-range', what: 'temperature', text: r.temperature, value: temperatureK, allowed: 'above absolute zero (0 K = -273.15 degC)' }, W(['temperature']));
+  if (count !== undefined && !reactor)
+    fail(
+      {
+        code: 'design-missing',
+        reason:
+          'sizing for a number of experiments needs a reactor: name one from the lab ' +
+          'profile or give its volume and fill pressure',
+      },
+      W(['experiments'], 'experiments'),
+    );
+  if (!(temperatureK > 0))
+    fail(
+      {
+        code: 'out-of-range',
+        what: 'temperature',
+        text: r.temperature,
+        value: temperatureK,
+        allowed: 'above absolute zero (0 K = -273.15 degC)',
+      },
+      W(['temperature']),
+    );
 
   // design
   const m = r.mixture;
@@ -308,7 +529,14 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     designInput = { kind: 'fractions', fractions: parseBlend(m.fractions, W(['mixture', 'fractions'])) };
   } else {
     const bases = (['dilution', 'diluent_ratio', 'fuel_fraction'] as const).filter((k) => m[k] !== undefined);
-    if (bases.length > 1) fail({ code: 'design-conflict', reason: `give only one of dilution, diluent_ratio, fuel_fraction (got ${bases.join(' and ')})` }, W(['mixture', bases[1]]));
+    if (bases.length > 1)
+      fail(
+        {
+          code: 'design-conflict',
+          reason: `give only one of dilution, diluent_ratio, fuel_fraction (got ${bases.join(' and ')})`,
+        },
+        W(['mixture', bases[1]]),
+      );
     const diluent = m.diluent === undefined ? {} : parseBlend(m.diluent, W(['mixture', 'diluent']));
     const basisKey = bases[0];
     const basis =
@@ -318,7 +546,13 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
           ? ({ kind: 'fuel-fraction', value: m.fuel_fraction! } as const)
           : ({ kind: 'dilution', value: m.dilution ?? 0 } as const);
     if (!basisKey && Object.keys(diluent).length > 0) {
-      fail({ code: 'design-missing', reason: 'a diluent is named but not how much: give dilution, diluent_ratio or fuel_fraction' }, W(['mixture', 'diluent']));
+      fail(
+        {
+          code: 'design-missing',
+          reason: 'a diluent is named but not how much: give dilution, diluent_ratio or fuel_fraction',
+        },
+        W(['mixture', 'diluent']),
+      );
     }
     designInput = {
       kind: 'phi',
@@ -334,7 +568,8 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     design = designMixture(designInput);
   } catch (e) {
     // the core names the design field (phi, dilution, fuel, ...): point at it in the recipe
-    if (e instanceof ProblemError) throw relocate(e, W(e.where.field ? ['mixture', e.where.field] : ['mixture']));
+    if (e instanceof ProblemError)
+      throw relocate(e, W(e.where.field ? ['mixture', e.where.field] : ['mixture']));
     throw e;
   }
 
@@ -343,7 +578,11 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
   if (r.sources) {
     sources = r.sources.map((id, i) => {
       const c = lab.cylinders.find((x) => x.id === id);
-      if (!c) fail({ code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) }, W(['sources', i], `sources[${i}]`));
+      if (!c)
+        fail(
+          { code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) },
+          W(['sources', i], `sources[${i}]`),
+        );
       return c;
     });
   } else {
@@ -366,13 +605,26 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     };
   }
   const tolerance = { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 };
-  const sizingInput = reactor && { composition: design.composition, tankVolumeM3: tank.volumeM3, temperatureK, reactor, margin: lab.fillMargin };
+  const sizingInput = reactor && {
+    composition: design.composition,
+    tankVolumeM3: tank.volumeM3,
+    temperatureK,
+    reactor,
+    margin: lab.fillMargin,
+  };
   let pressurePa: number;
   if (count !== undefined) {
-    pressurePa = at(W(['experiments', 'count'], 'experiments.count'), () => finalPressureForExperiments(sizingInput!, count).pressurePa);
+    pressurePa = at(
+      W(['experiments', 'count'], 'experiments.count'),
+      () => finalPressureForExperiments(sizingInput!, count).pressurePa,
+    );
   } else {
     pressurePa = parseQuantity(r.pressure!, 'pressure', W(['pressure']), gaugeCtx);
-    if (!(pressurePa > 0)) fail({ code: 'not-positive', what: 'final pressure', value: pressurePa, text: r.pressure }, W(['pressure']));
+    if (!(pressurePa > 0))
+      fail(
+        { code: 'not-positive', what: 'final pressure', value: pressurePa, text: r.pressure },
+        W(['pressure']),
+      );
   }
   const input: PlanInput = {
     design,
@@ -384,8 +636,19 @@ export function buildPlanRequest(rs: RecipeSource, labFileOverride?: string, ove
     safety: { coldestK: lab.coldestK, condensationFraction: lab.condensationFraction },
     inTank,
     gauges: lab.gauges,
-    reading: { barometricPa: overrides.barometricPa ?? lab.barometricPa, barometricUncertaintyPa: lab.barometricUncertaintyPa },
+    reading: {
+      barometricPa: overrides.barometricPa ?? lab.barometricPa,
+      barometricUncertaintyPa: lab.barometricUncertaintyPa,
+    },
     tolerance,
   };
-  return { input, lab, recipe: r, orderRecommended: !r.order, sizing: sizingInput, sizedFor: count, tankInfo: lab.tanks.find((t) => t.id === tank.id) };
+  return {
+    input,
+    lab,
+    recipe: r,
+    orderRecommended: !r.order,
+    sizing: sizingInput,
+    sizedFor: count,
+    tankInfo: lab.tanks.find((t) => t.id === tank.id),
+  };
 }

@@ -6,7 +6,15 @@
  * data, worded once in describeLogFinding.
  */
 import { ProblemError } from '../core/index.js';
-import { describeRecordIssue, recordIssueSeverity, tornSideFiles, workingLimitOf, type InForceReading, type ParsedLog, type RecordIssue } from './batch-log.js';
+import {
+  describeRecordIssue,
+  recordIssueSeverity,
+  tornSideFiles,
+  workingLimitOf,
+  type InForceReading,
+  type ParsedLog,
+  type RecordIssue,
+} from './batch-log.js';
 import { fromPa, isPressureUnit, parseQuantity, type PressureUnit } from './quantity.js';
 
 export type LogFindingSeverity = 'danger' | 'warning' | 'note';
@@ -37,11 +45,47 @@ export type LogFinding =
       readonly replaced: boolean;
       readonly accepted?: { readonly by: string; readonly time: string };
     }
-  | { readonly code: 'text-number-mismatch'; readonly severity: LogFindingSeverity; readonly step: number | null; readonly line: number; readonly field: 'reading' | 'temperature'; readonly text: string; readonly textSI: number; readonly loggedSI: number; readonly siUnit: 'Pa' | 'K' }
-  | { readonly code: 'text-unreadable'; readonly severity: LogFindingSeverity; readonly step: number | null; readonly line: number; readonly field: 'reading' | 'temperature'; readonly text: string }
-  | { readonly code: 'record'; readonly severity: LogFindingSeverity; readonly step: number | null; readonly line: number | null; readonly issue: RecordIssue }
-  | { readonly code: 'torn-side-file'; readonly severity: LogFindingSeverity; readonly step: null; readonly line: null; readonly file: string }
-  | { readonly code: 'start-not-read'; readonly severity: LogFindingSeverity; readonly step: null; readonly line: null; readonly plannedPa: number; readonly unit: PressureUnit };
+  | {
+      readonly code: 'text-number-mismatch';
+      readonly severity: LogFindingSeverity;
+      readonly step: number | null;
+      readonly line: number;
+      readonly field: 'reading' | 'temperature';
+      readonly text: string;
+      readonly textSI: number;
+      readonly loggedSI: number;
+      readonly siUnit: 'Pa' | 'K';
+    }
+  | {
+      readonly code: 'text-unreadable';
+      readonly severity: LogFindingSeverity;
+      readonly step: number | null;
+      readonly line: number;
+      readonly field: 'reading' | 'temperature';
+      readonly text: string;
+    }
+  | {
+      readonly code: 'record';
+      readonly severity: LogFindingSeverity;
+      readonly step: number | null;
+      readonly line: number | null;
+      readonly issue: RecordIssue;
+    }
+  | {
+      readonly code: 'torn-side-file';
+      readonly severity: LogFindingSeverity;
+      readonly step: null;
+      readonly line: null;
+      readonly file: string;
+    }
+  | {
+      readonly code: 'start-not-read';
+      readonly severity: LogFindingSeverity;
+      readonly step: null;
+      readonly line: null;
+      readonly plannedPa: number;
+      readonly unit: PressureUnit;
+    };
 
 const show = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
 
@@ -56,20 +100,39 @@ export function describeLogFinding(f: LogFinding): string {
       return `${at}the tank reading ${show(f.pressurePa, f.unit)} (absolute) is above the tank's working limit of ${show(f.limitPa, f.unit)}${
         f.replaced
           ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
-          : '. The tank was taken past its working limit: have it and its fittings inspected under local practice before the batch is used'
+          : '. The tank was taken past its working limit: have it and its fittings inspected ' +
+            'under local practice before the batch is used'
       }${acceptedText(f.accepted)}`;
     case 'above-gauge-range':
-      return `${at}gauge ${f.gauge} shows ${show(f.shownPa, f.unit)}, above its full scale of ${show(f.fullScalePa, f.unit)}: the reading is not trustworthy and the gauge head may be damaged${f.replaced ? ' (the reading was later corrected or withdrawn)' : '; check the gauge before it is used again'}${acceptedText(f.accepted)}`;
+      return (
+        `${at}gauge ${f.gauge} shows ${show(f.shownPa, f.unit)}, above its full scale ` +
+        `of ${show(f.fullScalePa, f.unit)}: the reading is not trustworthy and the ` +
+        `gauge head may be damaged${f.replaced ? ' (the reading was later corrected or withdrawn)' : '; check the gauge before it is used again'}${acceptedText(f.accepted)}`
+      );
     case 'text-number-mismatch':
-      return `${at}the ${f.field} as typed, "${f.text}", is ${Number(f.textSI.toPrecision(9))} ${f.siUnit}, but the line logs ${Number(f.loggedSI.toPrecision(9))} ${f.siUnit}: the line was changed, or written wrongly; the logged number is what the re-check uses`;
+      return (
+        `${at}the ${f.field} as typed, "${f.text}", is ${Number(f.textSI.toPrecision(9))} ` +
+        `${f.siUnit}, but the line logs ${Number(f.loggedSI.toPrecision(9))} ${f.siUnit}: ` +
+        `the line was changed, or written wrongly; the logged number is what the ` +
+        `re-check uses`
+      );
     case 'text-unreadable':
-      return `${at}the ${f.field} as typed, "${f.text}", cannot be read as a quantity, so it cannot be checked against the number logged beside it`;
+      return (
+        `${at}the ${f.field} as typed, "${f.text}", cannot be read as a quantity, ` +
+        `so it cannot be checked against the number logged beside it`
+      );
     case 'record':
       return describeRecordIssue(f.issue);
     case 'torn-side-file':
-      return `a fill found the log's last line cut off mid-write and moved it to ${f.file}; it was never confirmed and is not used`;
+      return (
+        `a fill found the log's last line cut off mid-write and moved it to ${f.file}; ` +
+        `it was never confirmed and is not used`
+      );
     case 'start-not-read':
-      return `this is a top-up, but the log holds no reading of the starting pressure; the re-check assumes the planned ${show(f.plannedPa, f.unit)} already in the tank`;
+      return (
+        `this is a top-up, but the log holds no reading of the starting pressure; ` +
+        `the re-check assumes the planned ${show(f.plannedPa, f.unit)} already in the tank`
+      );
   }
 }
 
@@ -83,7 +146,9 @@ function close(a: number, b: number): boolean {
 function textSI(text: string, dim: 'pressure' | 'temperature', fallbackUnit: string): number | undefined {
   const t = text.trim();
   try {
-    return /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(t) ? parseQuantity(`${t} ${fallbackUnit}`, dim) : parseQuantity(t, dim);
+    return /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(t)
+      ? parseQuantity(`${t} ${fallbackUnit}`, dim)
+      : parseQuantity(t, dim);
   } catch (e) {
     if (e instanceof ProblemError) return undefined;
     throw e;
@@ -96,13 +161,17 @@ export function auditLog(log: ParsedLog): LogFinding[] {
   const gauges = new Map(h.gauges.map((g) => [g.id, g]));
   const limitPa = workingLimitOf(h);
   const inForce = new Set(log.readings.map((r) => r.line));
-  const baroOf = (r: { barometer_Pa?: number }) => r.barometer_Pa ?? log.barometer?.pressure_Pa ?? h.barometer.pressure_Pa;
+  const baroOf = (r: { barometer_Pa?: number }) =>
+    r.barometer_Pa ?? log.barometer?.pressure_Pa ?? h.barometer.pressure_Pa;
   const unitOf = (gaugeId: string): PressureUnit => {
     const u = gauges.get(gaugeId)?.unit;
     return u && isPressureUnit(u) ? u : 'Torr';
   };
 
-  type Logged = Pick<InForceReading, 'gauge' | 'reading' | 'pressure_Pa' | 'barometer_Pa' | 'temperature' | 'temperature_K' | 'line'> & { step: number | null; replaced: boolean };
+  type Logged = Pick<
+    InForceReading,
+    'gauge' | 'reading' | 'pressure_Pa' | 'barometer_Pa' | 'temperature' | 'temperature_K' | 'line'
+  > & { step: number | null; replaced: boolean };
   const logged: Logged[] = [
     ...(log.start ? [{ ...log.start, step: null, replaced: false }] : []),
     ...log.allReadings.map((r) => ({ ...r, replaced: !inForce.has(r.line) })),
@@ -115,32 +184,132 @@ export function auditLog(log: ParsedLog): LogFinding[] {
     const unit = unitOf(r.gauge);
     const g = gauges.get(r.gauge);
     const severity: LogFindingSeverity = r.replaced ? 'warning' : 'danger';
-    if (limitPa !== undefined && r.pressure_Pa > limitPa) out.push({ code: 'above-working-limit', severity, step: r.step, line: r.line, pressurePa: r.pressure_Pa, limitPa, unit, replaced: r.replaced, ...acceptedOf('above-working-limit', r.step) });
+    if (limitPa !== undefined && r.pressure_Pa > limitPa)
+      out.push({
+        code: 'above-working-limit',
+        severity,
+        step: r.step,
+        line: r.line,
+        pressurePa: r.pressure_Pa,
+        limitPa,
+        unit,
+        replaced: r.replaced,
+        ...acceptedOf('above-working-limit', r.step),
+      });
     const shownPa = g?.reference === 'gauge' ? r.pressure_Pa - baroOf(r) : r.pressure_Pa;
-    if (g && shownPa > g.full_scale_Pa) out.push({ code: 'above-gauge-range', severity, step: r.step, line: r.line, gauge: g.id, shownPa, fullScalePa: g.full_scale_Pa, unit, replaced: r.replaced, ...acceptedOf('above-gauge-range', r.step) });
+    if (g && shownPa > g.full_scale_Pa)
+      out.push({
+        code: 'above-gauge-range',
+        severity,
+        step: r.step,
+        line: r.line,
+        gauge: g.id,
+        shownPa,
+        fullScalePa: g.full_scale_Pa,
+        unit,
+        replaced: r.replaced,
+        ...acceptedOf('above-gauge-range', r.step),
+      });
     const p = textSI(r.reading, 'pressure', unit);
-    if (p === undefined) out.push({ code: 'text-unreadable', severity: 'note', step: r.step, line: r.line, field: 'reading', text: r.reading });
+    if (p === undefined)
+      out.push({
+        code: 'text-unreadable',
+        severity: 'note',
+        step: r.step,
+        line: r.line,
+        field: 'reading',
+        text: r.reading,
+      });
     else {
       const absolute = g?.reference === 'gauge' ? p + baroOf(r) : p;
-      if (!close(absolute, r.pressure_Pa)) out.push({ code: 'text-number-mismatch', severity: 'warning', step: r.step, line: r.line, field: 'reading', text: r.reading, textSI: absolute, loggedSI: r.pressure_Pa, siUnit: 'Pa' });
+      if (!close(absolute, r.pressure_Pa))
+        out.push({
+          code: 'text-number-mismatch',
+          severity: 'warning',
+          step: r.step,
+          line: r.line,
+          field: 'reading',
+          text: r.reading,
+          textSI: absolute,
+          loggedSI: r.pressure_Pa,
+          siUnit: 'Pa',
+        });
     }
     const t = textSI(r.temperature, 'temperature', 'degC');
-    if (t === undefined) out.push({ code: 'text-unreadable', severity: 'note', step: r.step, line: r.line, field: 'temperature', text: r.temperature });
-    else if (!close(t, r.temperature_K)) out.push({ code: 'text-number-mismatch', severity: 'warning', step: r.step, line: r.line, field: 'temperature', text: r.temperature, textSI: t, loggedSI: r.temperature_K, siUnit: 'K' });
+    if (t === undefined)
+      out.push({
+        code: 'text-unreadable',
+        severity: 'note',
+        step: r.step,
+        line: r.line,
+        field: 'temperature',
+        text: r.temperature,
+      });
+    else if (!close(t, r.temperature_K))
+      out.push({
+        code: 'text-number-mismatch',
+        severity: 'warning',
+        step: r.step,
+        line: r.line,
+        field: 'temperature',
+        text: r.temperature,
+        textSI: t,
+        loggedSI: r.temperature_K,
+        siUnit: 'K',
+      });
   }
   if (log.barometer) {
     const b = textSI(log.barometer.reading, 'pressure', 'Torr');
-    if (b === undefined) out.push({ code: 'text-unreadable', severity: 'note', step: null, line: log.barometer.line, field: 'reading', text: log.barometer.reading });
-    else if (!close(b, log.barometer.pressure_Pa)) out.push({ code: 'text-number-mismatch', severity: 'warning', step: null, line: log.barometer.line, field: 'reading', text: log.barometer.reading, textSI: b, loggedSI: log.barometer.pressure_Pa, siUnit: 'Pa' });
+    if (b === undefined)
+      out.push({
+        code: 'text-unreadable',
+        severity: 'note',
+        step: null,
+        line: log.barometer.line,
+        field: 'reading',
+        text: log.barometer.reading,
+      });
+    else if (!close(b, log.barometer.pressure_Pa))
+      out.push({
+        code: 'text-number-mismatch',
+        severity: 'warning',
+        step: null,
+        line: log.barometer.line,
+        field: 'reading',
+        text: log.barometer.reading,
+        textSI: b,
+        loggedSI: log.barometer.pressure_Pa,
+        siUnit: 'Pa',
+      });
   }
-  for (const issue of log.issues) out.push({ code: 'record', severity: recordIssueSeverity(issue), step: 'step' in issue ? issue.step : null, line: 'line' in issue ? issue.line : null, issue });
-  for (const file of tornSideFiles(log.file)) out.push({ code: 'torn-side-file', severity: 'note', step: null, line: null, file });
-  if (h.in_tank && !log.start) out.push({ code: 'start-not-read', severity: 'warning', step: null, line: null, plannedPa: h.in_tank.pressure_Pa, unit: unitOf(h.steps[0]?.gauge ?? '') });
-  return out.sort((a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] || (a.line ?? 0) - (b.line ?? 0));
+  for (const issue of log.issues)
+    out.push({
+      code: 'record',
+      severity: recordIssueSeverity(issue),
+      step: 'step' in issue ? issue.step : null,
+      line: 'line' in issue ? issue.line : null,
+      issue,
+    });
+  for (const file of tornSideFiles(log.file))
+    out.push({ code: 'torn-side-file', severity: 'note', step: null, line: null, file });
+  if (h.in_tank && !log.start)
+    out.push({
+      code: 'start-not-read',
+      severity: 'warning',
+      step: null,
+      line: null,
+      plannedPa: h.in_tank.pressure_Pa,
+      unit: unitOf(h.steps[0]?.gauge ?? ''),
+    });
+  return out.sort(
+    (a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] || (a.line ?? 0) - (b.line ?? 0),
+  );
 }
 
 /** the findings of one code, typed */
-export function findingsOf<C extends LogFinding['code']>(fs: readonly LogFinding[], code: C): Extract<LogFinding, { code: C }>[] {
+export function findingsOf<C extends LogFinding['code']>(
+  fs: readonly LogFinding[],
+  code: C,
+): Extract<LogFinding, { code: C }>[] {
   return fs.filter((f): f is Extract<LogFinding, { code: C }> => f.code === code);
 }
-

@@ -5,8 +5,18 @@ import type { McJob } from './parallel-mc.js';
 
 const job = workerData as McJob;
 try {
-  const samples = monteCarloSamples(job.readings, job.settings, job.diluent, job.initial, job.trials, job.seed);
-  parentPort!.postMessage(samples, samples.map((s) => s.buffer as ArrayBuffer));
+  const samples = monteCarloSamples(
+    job.readings,
+    job.settings,
+    job.diluent,
+    job.initial,
+    job.trials,
+    job.seed,
+  );
+  parentPort!.postMessage(
+    samples,
+    samples.map((s) => s.buffer as ArrayBuffer),
+  );
 } catch (e) {
   // a refusal of the input crosses the thread as data, so the command can word it (a class does not survive the copy)
   if (e instanceof ProblemError) parentPort!.postMessage({ problem: e.problem, where: e.where });

@@ -44,8 +44,16 @@ export async function evaluateUncertaintyParallel(
   initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
 ): Promise<UncertaintyResult> {
   const script = workerScript();
-  if (!script || settings.trials < PARALLEL_FROM) return evaluateUncertainty(readings, settings, diluent, initial);
-  const jobs: McJob[] = Array.from({ length: MC_STREAMS }, (_, i) => ({ readings, settings, diluent, initial, trials: streamTrials(settings.trials, i), seed: streamSeed(settings.seed, i) }));
+  if (!script || settings.trials < PARALLEL_FROM)
+    return evaluateUncertainty(readings, settings, diluent, initial);
+  const jobs: McJob[] = Array.from({ length: MC_STREAMS }, (_, i) => ({
+    readings,
+    settings,
+    diluent,
+    initial,
+    trials: streamTrials(settings.trials, i),
+    seed: streamSeed(settings.seed, i),
+  }));
   const streams = await Promise.all(
     jobs.map(
       (job) =>

@@ -19,7 +19,16 @@ export function findChromium(): string | undefined {
 export async function writePdf(html: string, output: string, force: boolean): Promise<void> {
   const chromium = findChromium();
   if (!chromium) {
-    fail({ code: 'file-unreadable', reason: 'Chromium is not installed, so no PDF can be made here. Write the sheet with --format html and print it from any browser (File > Print, margins "default"), or install Chromium (apt-get install chromium)' }, { field: '--format pdf' });
+    fail(
+      {
+        code: 'file-unreadable',
+        reason:
+          'Chromium is not installed, so no PDF can be made here. Write the sheet with ' +
+          '--format html and print it from any browser (File > Print, margins "default"), ' +
+          'or install Chromium (apt-get install chromium)',
+      },
+      { field: '--format pdf' },
+    );
   }
   const dir = mkdtempSync(join(tmpdir(), 'mixwright-pdf-'));
   try {
@@ -28,14 +37,37 @@ export async function writePdf(html: string, output: string, force: boolean): Pr
     writeFileSync(src, html);
     const r = spawnSync(
       chromium,
-      ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic', `--user-data-dir=${join(dir, 'profile')}`, '--no-pdf-header-footer', `--print-to-pdf=${pdf}`, src],
+      [
+        '--headless',
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+        '--no-first-run',
+        '--disable-quic',
+        `--user-data-dir=${join(dir, 'profile')}`,
+        '--no-pdf-header-footer',
+        `--print-to-pdf=${pdf}`,
+        src,
+      ],
       { encoding: 'utf8', timeout: 60000 },
     );
     let bytes: Buffer;
     try {
       bytes = readFileSync(pdf);
     } catch {
-      return fail({ code: 'file-unreadable', reason: `Chromium did not write a PDF (exit ${r.status}): ${(r.stderr || '').split('\n').filter((l) => /error/i.test(l)).slice(0, 2).join(' ')}` }, { field: '--format pdf' });
+      return fail(
+        {
+          code: 'file-unreadable',
+          reason: `Chromium did not write a PDF (exit ${r.status}): ${(r.stderr || '')
+            .split('\n')
+            .filter((l) => /error/i.test(l))
+            .slice(0, 2)
+            .join(' ')}`,
+        },
+        { field: '--format pdf' },
+      );
     }
     writeFileAtomic(output, bytes, force);
   } finally {

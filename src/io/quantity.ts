@@ -75,7 +75,15 @@ const SI: Record<Dimension, string> = {
   length: 'm',
 };
 
-const PROBES: readonly Dimension[] = ['pressure', 'volume', 'temperature', 'pressure rate', 'time', 'mass', 'length'];
+const PROBES: readonly Dimension[] = [
+  'pressure',
+  'volume',
+  'temperature',
+  'pressure rate',
+  'time',
+  'mass',
+  'length',
+];
 
 function dimensionOf(u: Unit): string {
   const math = mathjs();
@@ -161,13 +169,51 @@ export interface QuantityContext {
 
 function checkRange(v: number, s: string, expected: Dimension, where: Where): number {
   const r = PHYSICAL_RANGE[expected];
-  if (!Number.isFinite(v)) return fail({ code: 'bad-quantity', text: s, expected, reason: `the number is too large to represent; the allowed range is ${r.text}` }, where);
+  if (!Number.isFinite(v))
+    return fail(
+      {
+        code: 'bad-quantity',
+        text: s,
+        expected,
+        reason: `the number is too large to represent; the allowed range is ${r.text}`,
+      },
+      where,
+    );
   if (expected === 'temperature') {
-    if (!(v >= r.min)) return fail({ code: 'out-of-range', what: `temperature`, value: v, text: s, allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : v < 0 ? 'below absolute zero' : 'colder than any gas in a lab'}` }, where);
+    if (!(v >= r.min))
+      return fail(
+        {
+          code: 'out-of-range',
+          what: `temperature`,
+          value: v,
+          text: s,
+          allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : v < 0 ? 'below absolute zero' : 'colder than any gas in a lab'}`,
+        },
+        where,
+      );
   } else if (v !== 0 && Math.abs(v) < r.min) {
-    return fail({ code: 'out-of-range', what: expected, value: v, text: s, allowed: `${r.text}; this is too small to be measured, check the exponent and the unit` }, where);
+    return fail(
+      {
+        code: 'out-of-range',
+        what: expected,
+        value: v,
+        text: s,
+        allowed: `${r.text}; this is too small to be measured, check the exponent and the unit`,
+      },
+      where,
+    );
   }
-  if (Math.abs(v) > r.max) return fail({ code: 'out-of-range', what: expected, value: v, text: s, allowed: `${r.text}; check the exponent and the unit` }, where);
+  if (Math.abs(v) > r.max)
+    return fail(
+      {
+        code: 'out-of-range',
+        what: expected,
+        value: v,
+        text: s,
+        allowed: `${r.text}; check the exponent and the unit`,
+      },
+      where,
+    );
   return v;
 }
 
@@ -181,45 +227,84 @@ const own = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k)
  * Temperatures take K, degC, degF, °C and °F; a bare "C" (the coulomb to a unit
  * library) is refused with a hint. Every value is checked against PHYSICAL_RANGE.
  */
-export function parseQuantity(text: string | number, expected: Dimension, where: Where = {}, ctx: QuantityContext = {}): number {
+export function parseQuantity(
+  text: string | number,
+  expected: Dimension,
+  where: Where = {},
+  ctx: QuantityContext = {},
+): number {
   if (typeof text === 'number') {
     return fail({ code: 'bad-quantity', text: String(text), expected, reason: 'a unit is required' }, where);
   }
   const s = text.trim();
-  if (s.length > 200) return fail({ code: 'bad-quantity', text: `${s.slice(0, 40)}...`, expected, reason: `the text is ${s.length} characters long; a quantity is a number and a unit` }, where);
+  if (s.length > 200)
+    return fail(
+      {
+        code: 'bad-quantity',
+        text: `${s.slice(0, 40)}...`,
+        expected,
+        reason: `the text is ${s.length} characters long; a quantity is a number and a unit`,
+      },
+      where,
+    );
   if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
     return fail({ code: 'bad-quantity', text: s, expected, reason: 'a unit is required' }, where);
   }
   const typed = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([°℃℉]?[A-Za-z]*(?:\([ag]\))?)$/.exec(s);
   if (typed && own(MISREAD, typed[2]) && expected === 'temperature') {
     const m = MISREAD[typed[2]];
-    return fail({ code: 'bad-quantity', text: s, expected, reason: `"${typed[2]}" alone is ${m.library}; did you mean ${m.meant}? Write "${typed[1]} ${m.meant}" or "${typed[1]} °${m.meant.slice(3)}"` }, where);
+    return fail(
+      {
+        code: 'bad-quantity',
+        text: s,
+        expected,
+        reason:
+          `"${typed[2]}" alone is ${m.library}; did you mean ${m.meant}? Write "${typed[1]} ` +
+          `${m.meant}" or "${typed[1]} °${m.meant.slice(3)}"`,
+      },
+      where,
+    );
   }
   if (typed && own(GAUGE_UNITS, typed[2])) {
     const unit = GAUGE_UNITS[typed[2]];
-    if (expected !== 'pressure') return fail({ code: 'wrong-dimension', text: s, expected, got: 'pressure' }, where);
+    if (expected !== 'pressure')
+      return fail({ code: 'wrong-dimension', text: s, expected, got: 'pressure' }, where);
     const above = Number(typed[1]) * FAST_UNITS[unit].factor;
-    if (ctx.barometricPa === undefined) return fail({ code: 'needs-barometer', text: s, field: where.field ?? 'this field' }, where);
+    if (ctx.barometricPa === undefined)
+      return fail({ code: 'needs-barometer', text: s, field: where.field ?? 'this field' }, where);
     return checkRange(above + ctx.barometricPa, s, expected, where);
   }
-  if (typed && own(SPELLINGS, typed[2])) return parseQuantity(`${typed[1]} ${SPELLINGS[typed[2]]}`, expected, where, ctx);
+  if (typed && own(SPELLINGS, typed[2]))
+    return parseQuantity(`${typed[1]} ${SPELLINGS[typed[2]]}`, expected, where, ctx);
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
-    return fail({ code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' }, where);
+    return fail(
+      { code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' },
+      where,
+    );
   }
   const fast = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z^0-9/]+)$/.exec(s);
   const known = fast && own(FAST_UNITS, fast[2]) ? FAST_UNITS[fast[2]] : undefined;
   if (fast && known) {
-    if (known.dim !== expected) return fail({ code: 'wrong-dimension', text: s, expected, got: known.dim }, where);
+    if (known.dim !== expected)
+      return fail({ code: 'wrong-dimension', text: s, expected, got: known.dim }, where);
     const v = Number(fast[1]);
     // offset units: (v + offset) x factor, e.g. degF: (v + 459.67) x 5/9 K
-    return checkRange(known.offset === undefined ? v * known.factor : (v + known.offset) * known.factor, s, expected, where);
+    return checkRange(
+      known.offset === undefined ? v * known.factor : (v + known.offset) * known.factor,
+      s,
+      expected,
+      where,
+    );
   }
   const math = mathjs();
   let u: Unit;
   try {
     u = math.unit(s);
   } catch (e) {
-    return fail({ code: 'bad-quantity', text: s, expected, reason: (e as Error).message.replace(/^Error: /, '') }, where);
+    return fail(
+      { code: 'bad-quantity', text: s, expected, reason: (e as Error).message.replace(/^Error: /, '') },
+      where,
+    );
   }
   if (!u.equalBase(math.unit(SI[expected]))) {
     return fail({ code: 'wrong-dimension', text: s, expected, got: dimensionOf(u) }, where);

@@ -16,8 +16,13 @@ export const MAX_TEXT_BYTES = 8 * 1024 * 1024;
 
 function kindOf(st: Stats): string {
   if (st.isDirectory()) return 'it is a folder, not a file';
-  if (st.isFIFO()) return 'it is a named pipe (FIFO), not a regular file; pipes are not read because they can wait forever. Save the content to a file and give that file';
-  if (st.isCharacterDevice() || st.isBlockDevice()) return 'it is a device, not a regular file; give a recipe, lab profile, readings or log file';
+  if (st.isFIFO())
+    return (
+      'it is a named pipe (FIFO), not a regular file; pipes are not read because ' +
+      'they can wait forever. Save the content to a file and give that file'
+    );
+  if (st.isCharacterDevice() || st.isBlockDevice())
+    return 'it is a device, not a regular file; give a recipe, lab profile, readings or log file';
   if (st.isSocket()) return 'it is a socket, not a regular file';
   return 'it is not a regular file';
 }
@@ -52,7 +57,8 @@ export function readTextFile(file: string): string {
   try {
     const st = fstatSync(fd);
     if (!st.isFile()) return fail({ code: 'file-unreadable', reason: kindOf(st) }, { file });
-    if (st.size > MAX_TEXT_BYTES) return fail({ code: 'file-too-large', bytes: st.size, limitBytes: MAX_TEXT_BYTES }, { file });
+    if (st.size > MAX_TEXT_BYTES)
+      return fail({ code: 'file-too-large', bytes: st.size, limitBytes: MAX_TEXT_BYTES }, { file });
     // read to the end, but never past the limit (a file may grow, or report size 0 as /proc files do)
     const chunks: Buffer[] = [];
     let total = 0;
@@ -67,10 +73,18 @@ export function readTextFile(file: string): string {
       if (n === 0) break;
       chunks.push(buf.subarray(0, n));
       total += n;
-      if (total > MAX_TEXT_BYTES) return fail({ code: 'file-too-large', bytes: total, limitBytes: MAX_TEXT_BYTES }, { file });
+      if (total > MAX_TEXT_BYTES)
+        return fail({ code: 'file-too-large', bytes: total, limitBytes: MAX_TEXT_BYTES }, { file });
     }
     const bytes = Buffer.concat(chunks, total);
-    if (bytes.includes(0)) return fail({ code: 'file-unreadable', reason: 'it holds NUL bytes, so it is not a text file; give a YAML, CSV or JSON-lines text file' }, { file });
+    if (bytes.includes(0))
+      return fail(
+        {
+          code: 'file-unreadable',
+          reason: 'it holds NUL bytes, so it is not a text file; give a YAML, CSV or JSON-lines text file',
+        },
+        { file },
+      );
     const text = bytes.toString('utf8');
     return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   } finally {

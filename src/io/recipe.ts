@@ -11,12 +11,16 @@ export const quantity = (what: string, example: string) =>
 /** "CH4", "CH4:0.8,C2H6:0.2" or { CH4: 0.8, C2H6: 0.2 } */
 export const blendSchema = z
   .union([z.string().min(1), z.record(z.string(), z.number().min(0).max(1))])
-  .describe('one species ("Ar"), a list "Ar:0.5,He:0.5", or a map { Ar: 0.5, He: 0.5 } of fractions that sum to 1');
+  .describe(
+    'one species ("Ar"), a list "Ar:0.5,He:0.5", or a map { Ar: 0.5, He: 0.5 } of fractions that sum to 1',
+  );
 
 const phiDesign = z
   .object({
     fuel: blendSchema,
-    oxidizer: blendSchema.describe('O2, air (composition from the lab profile), or a blend such as "O2:0.21,N2:0.79"'),
+    oxidizer: blendSchema.describe(
+      'O2, air (composition from the lab profile), or a blend such as "O2:0.21,N2:0.79"',
+    ),
     diluent: blendSchema.optional(),
     phi: z.number().describe('equivalence ratio, > 0'),
     dilution: z.number().optional().describe('diluent mole fraction of the final mixture, in [0, 1)'),
@@ -27,7 +31,10 @@ const phiDesign = z
 
 const fractionsDesign = z
   .object({
-    fractions: blendSchema.describe('explicit mole fractions that sum to 1: a map { CH4: 0.05, O2: 0.10, Ar: 0.85 } or a list "CH4:0.05,O2:0.10,Ar:0.85"'),
+    fractions: blendSchema.describe(
+      'explicit mole fractions that sum to 1: a map { CH4: 0.05, O2: 0.10, Ar: ' +
+        '0.85 } or a list "CH4:0.05,O2:0.10,Ar:0.85"',
+    ),
   })
   .strict();
 
@@ -36,16 +43,32 @@ export const recipeSchema = z
     id: z.string().min(1).describe('short identifier of the design, used in batch ids and file names'),
     title: z.string().optional(),
     notes: z.string().optional(),
-    lab: z.string().optional().describe('path of the lab profile (YAML), relative to this recipe; the embedded demo lab if absent'),
+    lab: z
+      .string()
+      .optional()
+      .describe('path of the lab profile (YAML), relative to this recipe; the embedded demo lab if absent'),
     tank: z.string().optional().describe('tank id from the lab profile'),
     volume: quantity('tank volume, if no tank is named or to override it', '10 L').optional(),
-    rating: quantity('maximum allowed working pressure of the tank given by volume, absolute or gauge with the barometer', '4 bar').optional(),
-    working_fraction: z.number().gt(0).max(1).optional().describe('fraction of the rating used as the working limit of the tank given by volume; default 1'),
+    rating: quantity(
+      'maximum allowed working pressure of the tank given by volume, absolute or gauge with the barometer',
+      '4 bar',
+    ).optional(),
+    working_fraction: z
+      .number()
+      .gt(0)
+      .max(1)
+      .optional()
+      .describe('fraction of the rating used as the working limit of the tank given by volume; default 1'),
     mixture: z.union([phiDesign, fractionsDesign]),
     pressure: quantity('final tank pressure, absolute (or give experiments.count)', '1000 Torr').optional(),
     experiments: z
       .object({
-        count: z.number().int().positive().optional().describe('size the batch for this many experiments (sets the final pressure)'),
+        count: z
+          .number()
+          .int()
+          .positive()
+          .optional()
+          .describe('size the batch for this many experiments (sets the final pressure)'),
         reactor: z.string().optional().describe('reactor id from the lab profile'),
         reactor_volume: quantity('reactor volume, instead of a lab reactor', '0.9 L').optional(),
         line_volume: quantity('line volume to the reactor', '0.05 L').optional(),
@@ -66,8 +89,18 @@ export const recipeSchema = z
       .describe('gas already in the tank (topping up an earlier batch)'),
     tolerance: z
       .object({
-        relative: z.number().min(0).max(0.5).optional().describe('allowed relative deviation of each mole fraction; default 0.005'),
-        absolute: z.number().min(0).max(0.1).optional().describe('floor on the allowed absolute deviation of a mole fraction; default 0'),
+        relative: z
+          .number()
+          .min(0)
+          .max(0.5)
+          .optional()
+          .describe('allowed relative deviation of each mole fraction; default 0.005'),
+        absolute: z
+          .number()
+          .min(0)
+          .max(0.1)
+          .optional()
+          .describe('floor on the allowed absolute deviation of a mole fraction; default 0'),
       })
       .strict()
       .optional(),

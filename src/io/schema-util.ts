@@ -4,7 +4,10 @@ import { fail, formatNumber } from '../core/index.js';
 import type { YamlSource } from './yaml-file.js';
 
 export function fieldName(path: readonly PropertyKey[]): string {
-  return path.map((p) => (typeof p === 'number' ? `[${p}]` : String(p))).join('.').replace(/\.\[/g, '[');
+  return path
+    .map((p) => (typeof p === 'number' ? `[${p}]` : String(p)))
+    .join('.')
+    .replace(/\.\[/g, '[');
 }
 
 /** validate data against a schema; on failure raise one Problem naming the first issue's place */
@@ -20,7 +23,8 @@ function distance(a: string, b: string): number {
   const d = Array.from({ length: a.length + 1 }, (_, i) => [i, ...Array<number>(b.length).fill(0)]);
   for (let j = 1; j <= b.length; j++) d[0][j] = j;
   for (let i = 1; i <= a.length; i++)
-    for (let j = 1; j <= b.length; j++) d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1));
+    for (let j = 1; j <= b.length; j++)
+      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1));
   return d[a.length][b.length];
 }
 
@@ -67,16 +71,31 @@ function reasonOf(issue: z.core.$ZodIssue, field: string, hint: string | undefin
   const input = (issue as { input?: unknown }).input;
   switch (issue.code) {
     case 'invalid_type':
-      if (input === undefined) return `the required field "${field}" is missing` + (hint ? `; it is the ${hint}` : '');
-      if (issue.expected === 'string' && typeof input === 'number' && hint && /a number and a unit/.test(hint)) {
+      if (input === undefined)
+        return `the required field "${field}" is missing` + (hint ? `; it is the ${hint}` : '');
+      if (
+        issue.expected === 'string' &&
+        typeof input === 'number' &&
+        hint &&
+        /a number and a unit/.test(hint)
+      ) {
         return `${field} is the bare number ${shown(input)}; it needs a unit (${hint})`;
       }
       return `${field} must be ${typeName(issue.expected)}, not ${shown(input)}` + (hint ? ` (${hint})` : '');
     case 'too_big':
-      return `${field} = ${shown(input)} is too large; the allowed range is ${issue.inclusive ? 'at most' : 'below'} ${formatNumber(Number(issue.maximum))}` + (hint ? ` (${hint})` : '');
+      return (
+        `${field} = ${shown(input)} is too large; the allowed range is ${issue.inclusive ? 'at most' : 'below'} ` +
+        `${formatNumber(Number(issue.maximum))}` +
+        (hint ? ` (${hint})` : '')
+      );
     case 'too_small':
-      if (issue.origin === 'string' || issue.origin === 'array') return `${field} is empty; give a value` + (hint ? ` (${hint})` : '');
-      return `${field} = ${shown(input)} is too small; the allowed range is ${issue.inclusive ? 'at least' : 'above'} ${formatNumber(Number(issue.minimum))}` + (hint ? ` (${hint})` : '');
+      if (issue.origin === 'string' || issue.origin === 'array')
+        return `${field} is empty; give a value` + (hint ? ` (${hint})` : '');
+      return (
+        `${field} = ${shown(input)} is too small; the allowed range is ${issue.inclusive ? 'at least' : 'above'} ` +
+        `${formatNumber(Number(issue.minimum))}` +
+        (hint ? ` (${hint})` : '')
+      );
     case 'invalid_value':
       return `${field} = ${shown(input)} is not one of the choices: ${issue.values.map((v) => String(v)).join(', ')}`;
     case 'invalid_union':
@@ -86,13 +105,19 @@ function reasonOf(issue: z.core.$ZodIssue, field: string, hint: string | undefin
   }
 }
 
-export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt: (path: readonly PropertyKey[]) => readonly string[]): T {
+export function validate<T>(
+  schema: z.ZodType<T>,
+  src: YamlSource,
+  allowedKeysAt: (path: readonly PropertyKey[]) => readonly string[],
+): T {
   const r = schema.safeParse(src.data, { reportInput: true });
   if (r.success) return r.data;
   let issue: z.core.$ZodIssue = r.error.issues[0];
   let prefix: PropertyKey[] = [];
   // every level of issues passed on the way down, with the path it is relative to
-  const levels: { prefix: PropertyKey[]; issues: readonly z.core.$ZodIssue[] }[] = [{ prefix: [], issues: r.error.issues }];
+  const levels: { prefix: PropertyKey[]; issues: readonly z.core.$ZodIssue[] }[] = [
+    { prefix: [], issues: r.error.issues },
+  ];
   // a union (two forms of the mixture, a string or a map): follow the branch that got furthest
   while (issue.code === 'invalid_union' && issue.errors.length) {
     const branches = issue.errors.filter((b) => b.length > 0);
@@ -107,7 +132,10 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
   if (issue.code === 'unrecognized_keys') {
     const key = issue.keys[0];
     const where = src.locate(path, key);
-    return fail({ code: 'unknown-key', key, allowed: allowedKeysAt(path) }, { ...where, field: fieldName([...path, key]) });
+    return fail(
+      { code: 'unknown-key', key, allowed: allowedKeysAt(path) },
+      { ...where, field: fieldName([...path, key]) },
+    );
   }
   const where = src.locate(path);
   // the field as the user knows it: the option (--tolerance) on the command line, the key path in a file
@@ -116,12 +144,19 @@ export function validate<T>(schema: z.ZodType<T>, src: YamlSource, allowedKeysAt
   // a missing field next to an unknown key is most often a misspelling: name both
   if (issue.code === 'invalid_type' && (issue as { input?: unknown }).input === undefined) {
     const parent = fullPath.slice(0, -1);
-    const same = (a: readonly PropertyKey[]) => a.length === parent.length && a.every((p, k) => p === parent[k]);
-    const keys = levels.flatMap((l) => l.issues.filter((i) => i.code === 'unrecognized_keys' && same([...l.prefix, ...i.path])).flatMap((i) => (i.code === 'unrecognized_keys' ? i.keys : [])));
+    const same = (a: readonly PropertyKey[]) =>
+      a.length === parent.length && a.every((p, k) => p === parent[k]);
+    const keys = levels.flatMap((l) =>
+      l.issues
+        .filter((i) => i.code === 'unrecognized_keys' && same([...l.prefix, ...i.path]))
+        .flatMap((i) => (i.code === 'unrecognized_keys' ? i.keys : [])),
+    );
     if (keys.length) {
       const wanted = String(path[path.length - 1]);
       const close = keys.find((k) => closestKey(k, [wanted]) !== undefined);
-      reason += close ? `; the key "${close}" is there instead - did you mean "${wanted}"?` : `; there is an unknown key "${keys[0]}" (allowed here: ${allowedKeysAt(path.slice(0, -1)).join(', ')})`;
+      reason += close
+        ? `; the key "${close}" is there instead - did you mean "${wanted}"?`
+        : `; there is an unknown key "${keys[0]}" (allowed here: ${allowedKeysAt(path.slice(0, -1)).join(', ')})`;
     }
   }
   return fail({ code: 'schema', reason }, { ...where, field: where.field ?? fieldName(path) });
@@ -185,7 +220,9 @@ export function keysAt(schema: z.ZodType, path: readonly PropertyKey[]): string[
 export function hintAt(schema: z.ZodType, path: readonly PropertyKey[]): string | undefined {
   const cur = schemasAt(schema, path);
   for (const s of cur) {
-    const d = (s as unknown as { description?: string }).description ?? (unwrap(s) as unknown as { description?: string }).description;
+    const d =
+      (s as unknown as { description?: string }).description ??
+      (unwrap(s) as unknown as { description?: string }).description;
     if (d) return d;
   }
   return undefined;

@@ -21,7 +21,10 @@ export function parseYamlText(text: string, file: string): YamlSource {
   if (doc.errors.length) {
     const e = doc.errors[0];
     const pos = lineCounter.linePos(e.pos[0]);
-    fail({ code: 'yaml-syntax', reason: e.message.split('\n')[0] }, { file, line: pos.line, column: pos.col });
+    fail(
+      { code: 'yaml-syntax', reason: e.message.split('\n')[0] },
+      { file, line: pos.line, column: pos.col },
+    );
   }
   // a list or map used as a key (`? [a, b]: 1`, `{a: 1}: 2`) has no place in these files; refuse it here
   // rather than let the parser turn it into a string with a warning on stderr
@@ -30,7 +33,13 @@ export function parseYamlText(text: string, file: string): YamlSource {
       if (isCollection(pair.key)) {
         const r = (pair.key as { range?: [number, number, number] }).range;
         const pos = r ? lineCounter.linePos(r[0]) : undefined;
-        fail({ code: 'yaml-syntax', reason: 'a key is a list or map; keys must be plain names such as "volume"' }, { file, line: pos?.line, column: pos?.col });
+        fail(
+          {
+            code: 'yaml-syntax',
+            reason: 'a key is a list or map; keys must be plain names such as "volume"',
+          },
+          { file, line: pos?.line, column: pos?.col },
+        );
       }
     },
   });
@@ -42,9 +51,12 @@ export function parseYamlText(text: string, file: string): YamlSource {
   } catch (e) {
     const msg = (e as Error).message;
     const reason = /alias count/i.test(msg)
-      ? `the file expands its aliases (*name) more than ${MAX_ALIAS_COUNT} times, which would make it far larger than it looks; write the values out, or use fewer aliases`
+      ? `the file expands its aliases (*name) more than ${MAX_ALIAS_COUNT} times, ` +
+        `which would make it far larger than it looks; write the values out, or use ` +
+        `fewer aliases`
       : /unresolved alias/i.test(msg)
-        ? `an alias (*${/: (.*)$/.exec(msg)?.[1] ?? 'name'}) refers to no anchor (&name) set before it; define the anchor first, or write the value out`
+        ? `an alias (*${/: (.*)$/.exec(msg)?.[1] ?? 'name'}) refers to no anchor (&name) ` +
+          `set before it; define the anchor first, or write the value out`
         : `the file cannot be read as data (${msg.split('\n')[0]})`;
     return fail({ code: 'yaml-syntax', reason }, { file });
   }

@@ -8,7 +8,9 @@ import type { OutputStat } from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
-  'pass-uncertain': 'PASS (not proven) - every design fraction is within its tolerance, but the 95 % uncertainty reaches past it for some',
+  'pass-uncertain':
+    'PASS (not proven) - every design fraction is within its tolerance, but the ' +
+    '95 % uncertainty reaches past it for some',
   fail: 'FAIL - out of tolerance',
   'no-design': 'no design to compare with',
 };
@@ -27,7 +29,13 @@ export function checkToText(r: CheckReport): string {
   const readRows: string[][] = [['#', 'fill', 'gauge', 'absolute pressure', 'T degC']];
   for (const x of r.readings) {
     const u = isPressureUnit(x.gauge.unit) ? x.gauge.unit : 'Pa';
-    readRows.push([String(x.step), x.source.id, x.gauge.id, `${fixedSig(fromPa(x.pressurePa, u), 7)} ${u}`, (x.temperatureK - 273.15).toFixed(2)]);
+    readRows.push([
+      String(x.step),
+      x.source.id,
+      x.gauge.id,
+      `${fixedSig(fromPa(x.pressurePa, u), 7)} ${u}`,
+      (x.temperatureK - 273.15).toFixed(2),
+    ]);
   }
   out.push(...padTable(readRows, [true, false, false, true, true]));
   out.push('');
@@ -35,18 +43,38 @@ export function checkToText(r: CheckReport): string {
     const u = unitOfReport(r);
     out.push(
       r.start.read
-        ? `Top-up      started from ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u} at ${(r.start.temperatureK - 273.15).toFixed(2)} degC already in the tank, read by ${r.start.by} at ${r.start.time}`
-        : `Top-up      started from the planned ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u} already in the tank (not read: see the findings)`,
+        ? `Top-up      started from ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u} ` +
+            `at ${(r.start.temperatureK - 273.15).toFixed(2)} degC already in the tank, ` +
+            `read by ${r.start.by} at ${r.start.time}`
+        : `Top-up      started from the planned ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ` +
+            `${u} already in the tank (not read: see the findings)`,
     );
   }
-  if (r.barometer?.from === 'log') out.push(`Barometer   ${r.barometer.text} logged by ${r.barometer.by} at ${r.barometer.time}; used for the gauge-referenced readings`);
+  if (r.barometer?.from === 'log')
+    out.push(
+      `Barometer   ${r.barometer.text} logged by ${r.barometer.by} at ${r.barometer.time}; ` +
+        `used for the gauge-referenced readings`,
+    );
   if (r.start || r.barometer?.from === 'log') out.push('');
   if (r.amendments.length) {
     out.push('Corrections and withdrawals (applied to the readings above; the originals stay in the log)');
     for (const a of r.amendments) out.push(`  ${amendmentText(a)}`);
     out.push('');
   }
-  const rows: string[][] = [['species', 'actual x', 'u (GUM)', '95 % interval (GUM, k=2)', 'u (MC)', 'MC vs GUM', 'design', 'deviation', 'tolerance', '']];
+  const rows: string[][] = [
+    [
+      'species',
+      'actual x',
+      'u (GUM)',
+      '95 % interval (GUM, k=2)',
+      'u (MC)',
+      'MC vs GUM',
+      'design',
+      'deviation',
+      'tolerance',
+      '',
+    ],
+  ];
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
   const order = Object.entries(r.result.composition).sort((a, b) => b[1].value - a[1].value);
   for (const [k, st] of order) {
@@ -66,10 +94,23 @@ export function checkToText(r: CheckReport): string {
   }
   out.push(...padTable(rows, [false, true, true, true, true, false, true, true, true, false]));
   out.push('');
-  if (r.result.phi) out.push(`phi         ${r.result.phi.value.toFixed(5)}  u ${fixedSig(r.result.phi.u, 2)}  95 %: ${r.result.phi.low.toFixed(5)} - ${r.result.phi.high.toFixed(5)}${r.design?.phi !== undefined ? `  (design ${r.design.phi.toFixed(4)})` : ''}`);
-  if (r.result.diluentFraction) out.push(`diluent     ${fixedSig(r.result.diluentFraction.value, 6)}  u ${fixedSig(r.result.diluentFraction.u, 2)}${r.design ? `  (design ${fixedSig(r.design.diluentFraction, 6)})` : ''}`);
-  if (r.result.unidentified > 0) out.push(`unidentified cylinder impurity: ${fixedSig(r.result.unidentified * 1e6, 3)} ppm (not included in the fractions above)`);
-  const fuel = order.find(([k]) => (r.design?.composition[k] ?? 0) > 0 && k !== 'O2' && !(r.design && k in r.design.groups.diluent));
+  if (r.result.phi)
+    out.push(
+      `phi         ${r.result.phi.value.toFixed(5)}  u ${fixedSig(r.result.phi.u, 2)} ` +
+        ` 95 %: ${r.result.phi.low.toFixed(5)} - ${r.result.phi.high.toFixed(5)}${r.design?.phi !== undefined ? `  (design ${r.design.phi.toFixed(4)})` : ''}`,
+    );
+  if (r.result.diluentFraction)
+    out.push(
+      `diluent     ${fixedSig(r.result.diluentFraction.value, 6)}  u ${fixedSig(r.result.diluentFraction.u, 2)}${r.design ? `  (design ${fixedSig(r.design.diluentFraction, 6)})` : ''}`,
+    );
+  if (r.result.unidentified > 0)
+    out.push(
+      `unidentified cylinder impurity: ${fixedSig(r.result.unidentified * 1e6, 3)} ` +
+        `ppm (not included in the fractions above)`,
+    );
+  const fuel = order.find(
+    ([k]) => (r.design?.composition[k] ?? 0) > 0 && k !== 'O2' && !(r.design && k in r.design.groups.diluent),
+  );
   if (fuel) {
     out.push('');
     out.push(`Largest contributions to u(${fuel[0]}):`);
@@ -78,7 +119,9 @@ export function checkToText(r: CheckReport): string {
   out.push('');
   out.push(
     r.result.trials > 0
-      ? `Monte Carlo: ${r.result.trials} trials, seed ${r.result.seed} (JCGM 101; "agrees": the GUM interval is validated to within its numerical tolerance; "narrower": the Monte Carlo interval lies inside the GUM one)`
+      ? `Monte Carlo: ${r.result.trials} trials, seed ${r.result.seed} (JCGM 101; ` +
+          `"agrees": the GUM interval is validated to within its numerical tolerance; ` +
+          `"narrower": the Monte Carlo interval lies inside the GUM one)`
       : 'GUM law of propagation only (no Monte Carlo run; give --trials 200000 for one)',
   );
   for (const w of r.warnings) out.push(`warning: ${w}`);
@@ -88,7 +131,14 @@ export function checkToText(r: CheckReport): string {
     for (const f of r.findings) out.push(`  ${f.severity}: ${describeLogFinding(f)}`);
   }
   out.push('');
-  out.push(`Verdict     ${r.incomplete.length ? `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not finished, so it is not passed; the fractions above cover the fills logged so far` : VERDICT_TEXT[r.verdict.verdict]}`);
+  out.push(
+    `Verdict     ${
+      r.incomplete.length
+        ? `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not ` +
+          `finished, so it is not passed; the fractions above cover the fills logged so far`
+        : VERDICT_TEXT[r.verdict.verdict]
+    }`,
+  );
   for (const c of r.caveats) out.push(`            ${c}`);
   return out.join('\n') + '\n';
 }
@@ -112,7 +162,16 @@ export function amendmentText(a: Amendment): string {
 }
 
 function readingJson(x: InForceReading | null) {
-  return x ? { line: x.line, reading: x.reading, pressure_Pa: x.pressure_Pa, temperature: x.temperature, temperature_K: x.temperature_K, time: x.time } : null;
+  return x
+    ? {
+        line: x.line,
+        reading: x.reading,
+        pressure_Pa: x.pressure_Pa,
+        temperature: x.temperature,
+        temperature_K: x.temperature_K,
+        time: x.time,
+      }
+    : null;
 }
 
 function statJson(st: OutputStat) {
@@ -120,7 +179,15 @@ function statJson(st: OutputStat) {
     value: st.value,
     u: st.u,
     interval95: [st.low, st.high],
-    mc: st.mc ? { mean: st.mc.mean, u: st.mc.u, interval95: [st.mc.low, st.mc.high], validated: st.mc.validated, tolerance: st.mc.tolerance } : null,
+    mc: st.mc
+      ? {
+          mean: st.mc.mean,
+          u: st.mc.u,
+          interval95: [st.mc.low, st.mc.high],
+          validated: st.mc.validated,
+          tolerance: st.mc.tolerance,
+        }
+      : null,
     budget: st.budget,
   };
 }
@@ -139,25 +206,66 @@ export function checkToJson(r: CheckReport, version: string): object {
     phi: r.result.phi ? statJson(r.result.phi) : null,
     dilution: r.result.diluentFraction ? statJson(r.result.diluentFraction) : null,
     unidentified_fraction: r.result.unidentified,
-    readings: r.readings.map((x) => ({ step: x.step, source: x.source.id, gauge: x.gauge.id, pressure_Pa: x.pressurePa, temperature_K: x.temperatureK })),
+    readings: r.readings.map((x) => ({
+      step: x.step,
+      source: x.source.id,
+      gauge: x.gauge.id,
+      pressure_Pa: x.pressurePa,
+      temperature_K: x.temperatureK,
+    })),
     design: r.design ? { composition: r.design.composition, phi: r.design.phi ?? null } : null,
     tolerance: r.tolerance,
     deviations: r.verdict.deviations,
     verdict: r.verdict.verdict,
     incomplete: r.incomplete,
     warnings: r.warnings,
-    corrections: r.amendments.map((a) => ({ kind: a.kind, step: a.step, line: a.line, by: a.by, time: a.time, reason: a.reason, old: readingJson(a.old), new: readingJson(a.new) })),
-    record_findings: r.findings.map((f) => ({ severity: f.severity, code: f.code === 'record' ? f.issue.code : f.code, step: f.step, line: f.line, message: describeLogFinding(f) })),
+    corrections: r.amendments.map((a) => ({
+      kind: a.kind,
+      step: a.step,
+      line: a.line,
+      by: a.by,
+      time: a.time,
+      reason: a.reason,
+      old: readingJson(a.old),
+      new: readingJson(a.new),
+    })),
+    record_findings: r.findings.map((f) => ({
+      severity: f.severity,
+      code: f.code === 'record' ? f.issue.code : f.code,
+      step: f.step,
+      line: f.line,
+      message: describeLogFinding(f),
+    })),
     verdict_caveats: r.caveats,
     danger: r.findings.some((f) => f.severity === 'danger'),
-    barometer: r.barometer ? { pressure_Pa: r.barometer.pressurePa, u_Pa: r.barometer.uPa, from: r.barometer.from, text: r.barometer.text ?? null, by: r.barometer.by ?? null, time: r.barometer.time ?? null } : null,
-    start: r.start ? { pressure_Pa: r.start.pressurePa, temperature_K: r.start.temperatureK, composition: r.start.composition, read: r.start.read, by: r.start.by ?? null, time: r.start.time ?? null } : null,
+    barometer: r.barometer
+      ? {
+          pressure_Pa: r.barometer.pressurePa,
+          u_Pa: r.barometer.uPa,
+          from: r.barometer.from,
+          text: r.barometer.text ?? null,
+          by: r.barometer.by ?? null,
+          time: r.barometer.time ?? null,
+        }
+      : null,
+    start: r.start
+      ? {
+          pressure_Pa: r.start.pressurePa,
+          temperature_K: r.start.temperatureK,
+          composition: r.start.composition,
+          read: r.start.read,
+          by: r.start.by ?? null,
+          time: r.start.time ?? null,
+        }
+      : null,
     trials: r.result.trials,
     seed: r.result.seed,
   };
 }
 
-export function folderSummary(rows: readonly ({ file: string } & ({ report: CheckReport } | { error: string }))[]): string {
+export function folderSummary(
+  rows: readonly ({ file: string } & ({ report: CheckReport } | { error: string }))[],
+): string {
   const table: string[][] = [['file', 'batch', 'verdict', 'phi', 'worst |dev|/tol']];
   for (const r of rows) {
     if ('error' in r) {
@@ -165,9 +273,18 @@ export function folderSummary(rows: readonly ({ file: string } & ({ report: Chec
       continue;
     }
     const rep = r.report;
-    const worst = rep.verdict.deviations.reduce((m, d) => Math.max(m, Math.abs(d.deviation) / d.tolerance), 0);
+    const worst = rep.verdict.deviations.reduce(
+      (m, d) => Math.max(m, Math.abs(d.deviation) / d.tolerance),
+      0,
+    );
     const danger = rep.findings.some((f) => f.severity === 'danger');
-    table.push([r.file, rep.id, `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}${danger ? ', DANGER' : ''}`, rep.result.phi ? rep.result.phi.value.toFixed(4) : '-', rep.verdict.deviations.length ? worst.toFixed(2) : '-']);
+    table.push([
+      r.file,
+      rep.id,
+      `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}${danger ? ', DANGER' : ''}`,
+      rep.result.phi ? rep.result.phi.value.toFixed(4) : '-',
+      rep.verdict.deviations.length ? worst.toFixed(2) : '-',
+    ]);
   }
   return padTable(table, [false, false, false, true, true]).join('\n') + '\n';
 }

@@ -9,7 +9,15 @@
  * finds flammable is drawn as a wide grey band under the path.
  * Plain strokes, grey and hatching: readable in black and white.
  */
-import { blendLimits, diagramPoint, envelopePolygon, mix, reviewBulkPath, type Plan, type TankState } from '../core/index.js';
+import {
+  blendLimits,
+  diagramPoint,
+  envelopePolygon,
+  mix,
+  reviewBulkPath,
+  type Plan,
+  type TankState,
+} from '../core/index.js';
 
 /** mole fractions (fuel, oxygen) to unit-triangle coordinates; the inert share is 1 - fuel - oxygen */
 export function ternaryXY(fuel: number, oxygen: number): { x: number; y: number } {
@@ -23,25 +31,50 @@ export interface DiagramData {
   readonly z: number;
   readonly path: readonly { readonly label: string; readonly fuel: number; readonly oxygen: number }[];
   /** the stretches of fill paths where the tank is flammable (from the review of each fill's bulk path) */
-  readonly flammable: readonly { readonly step: number; readonly detonable: boolean; readonly from: { readonly fuel: number; readonly oxygen: number }; readonly to: { readonly fuel: number; readonly oxygen: number } }[];
+  readonly flammable: readonly {
+    readonly step: number;
+    readonly detonable: boolean;
+    readonly from: { readonly fuel: number; readonly oxygen: number };
+    readonly to: { readonly fuel: number; readonly oxygen: number };
+  }[];
 }
 
 export function diagramData(plan: Plan): DiagramData | undefined {
   const final = diagramPoint(plan.steps[plan.steps.length - 1].compositionAfter);
   if (Object.keys(final.fuelBlend).length === 0) return undefined;
   const limits = blendLimits(final.fuelBlend, plan.temperatureK, plan.final.pressurePa);
-  const states = [...(plan.initial ? [{ label: '0', y: plan.initial.composition }] : []), ...plan.steps.map((s) => ({ label: String(s.index), y: s.compositionAfter }))];
+  const states = [
+    ...(plan.initial ? [{ label: '0', y: plan.initial.composition }] : []),
+    ...plan.steps.map((s) => ({ label: String(s.index), y: s.compositionAfter })),
+  ];
   const flammable: DiagramData['flammable'][number][] = [];
-  let before: TankState | undefined = plan.initial ? { step: 0, composition: plan.initial.composition, pressurePa: plan.initial.pressurePa, final: false } : undefined;
+  let before: TankState | undefined = plan.initial
+    ? { step: 0, composition: plan.initial.composition, pressurePa: plan.initial.pressurePa, final: false }
+    : undefined;
   for (const s of plan.steps) {
-    const after: TankState = { step: s.index, composition: s.compositionAfter, pressurePa: s.targetPa, final: s.index === plan.steps.length };
-    const r = before ? reviewBulkPath({ step: s.index, sourceId: s.source.id, sourceComposition: s.source.composition, before, after }, plan.temperatureK) : undefined;
+    const after: TankState = {
+      step: s.index,
+      composition: s.compositionAfter,
+      pressurePa: s.targetPa,
+      final: s.index === plan.steps.length,
+    };
+    const r = before
+      ? reviewBulkPath(
+          { step: s.index, sourceId: s.source.id, sourceComposition: s.source.composition, before, after },
+          plan.temperatureK,
+        )
+      : undefined;
     if (r?.flammableU && before) {
       const at = (u: number) => {
         const p = diagramPoint(mix(before!.composition, after.composition, u)).point;
         return { fuel: p.fuel, oxygen: p.oxygen };
       };
-      flammable.push({ step: s.index, detonable: r.rank === 2, from: at(r.flammableU[0]), to: at(r.flammableU[1]) });
+      flammable.push({
+        step: s.index,
+        detonable: r.rank === 2,
+        from: at(r.flammableU[0]),
+        to: at(r.flammableU[1]),
+      });
     }
     before = after;
   }
@@ -84,7 +117,8 @@ const pctTick = (v: number) => String(Number((v * 100).toFixed(6)));
 type Box = { x0: number; y0: number; x1: number; y1: number };
 /** boxes closer than this (px) count as touching: "2" and "3" side by side would read as 23 */
 const GAP = 4;
-const overlaps = (a: Box, b: Box) => a.x0 < b.x1 + GAP && b.x0 < a.x1 + GAP && a.y0 < b.y1 + GAP && b.y0 < a.y1 + GAP;
+const overlaps = (a: Box, b: Box) =>
+  a.x0 < b.x1 + GAP && b.x0 < a.x1 + GAP && a.y0 < b.y1 + GAP && b.y0 < a.y1 + GAP;
 
 /** points closer than this (px) share one label, "2,3": separate labels would sit over each other's points */
 const CLUSTER_PX = 10;
@@ -95,9 +129,21 @@ const CLUSTER_PX = 10;
  * spots around its point that overlaps neither a label already placed nor the reserved
  * boxes (axis and vertex labels), so the apex and near-coincident states stay readable.
  */
-export function placeNumbers(points: readonly { label: string; x: number; y: number }[], reserved: readonly Box[]): { x: number; y: number; text: string }[] {
-  const owner = points.map((p, i) => points.findIndex((q, j) => j <= i && Math.hypot(q.x - p.x, q.y - p.y) < CLUSTER_PX));
-  const text = points.map((_, i) => (owner[i] === i ? points.filter((_, j) => owner[j] === i).map((q) => q.label).join(',') : ''));
+export function placeNumbers(
+  points: readonly { label: string; x: number; y: number }[],
+  reserved: readonly Box[],
+): { x: number; y: number; text: string }[] {
+  const owner = points.map((p, i) =>
+    points.findIndex((q, j) => j <= i && Math.hypot(q.x - p.x, q.y - p.y) < CLUSTER_PX),
+  );
+  const text = points.map((_, i) =>
+    owner[i] === i
+      ? points
+          .filter((_, j) => owner[j] === i)
+          .map((q) => q.label)
+          .join(',')
+      : '',
+  );
   const placed: Box[] = [...reserved];
   const spots: [number, number][] = [
     [7, -6],
@@ -131,7 +177,8 @@ export function placeNumbers(points: readonly { label: string; x: number; y: num
 }
 
 export function diagramSvg(d: DiagramData, title: string): string {
-  const pts = (list: readonly [number, number][]) => list.map(([f, o]) => px(f, o).map(f1).join(',')).join(' ');
+  const pts = (list: readonly [number, number][]) =>
+    list.map(([f, o]) => px(f, o).map(f1).join(',')).join(' ');
   const tri = pts([
     [0, 0],
     [0, 1],
@@ -151,12 +198,18 @@ export function diagramSvg(d: DiagramData, title: string): string {
     grid.push(`<line x1="${f1(x1)}" y1="${f1(y1)}" x2="${f1(x2)}" y2="${f1(y2)}" class="grid"/>`);
   }
   const path = d.path.map((p) => px(p.fuel, p.oxygen));
-  const pathLine = path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : '';
+  const pathLine =
+    path.length > 1
+      ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>`
+      : '';
   const burn = d.flammable
     .map((b) => {
       const [x1, y1] = px(b.from.fuel, b.from.oxygen);
       const [x2, y2] = px(b.to.fuel, b.to.oxygen);
-      return `<line x1="${f1(x1)}" y1="${f1(y1)}" x2="${f1(x2)}" y2="${f1(y2)}" class="burn"><title>fill ${b.step}: ${b.detonable ? 'detonable' : 'flammable'} stretch</title></line>`;
+      return (
+        `<line x1="${f1(x1)}" y1="${f1(y1)}" x2="${f1(x2)}" y2="${f1(y2)}" class="burn"><title>fill ` +
+        `${b.step}: ${b.detonable ? 'detonable' : 'flammable'} stretch</title></line>`
+      );
     })
     .join('');
   // vertex labels: fuel left of the apex (the state of a pure first fill sits on it); inert and O2 on a second row below the O2 scale
@@ -180,10 +233,15 @@ export function diagramSvg(d: DiagramData, title: string): string {
   const scale: string[] = [];
   for (const t of [0.2, 0.4, 0.6, 0.8]) {
     const [lx0, ly0] = px(t, 0);
-    scale.push(`<text x="${f1(lx0 - 5)}" y="${f1(ly0 + 4)}" class="tick" text-anchor="end">${pctTick(t)}</text>`);
+    scale.push(
+      `<text x="${f1(lx0 - 5)}" y="${f1(ly0 + 4)}" class="tick" text-anchor="end">${pctTick(t)}</text>`,
+    );
     if (t >= 0.4) {
       const [bx, by] = px(0, t);
-      scale.push(`<line x1="${f1(bx)}" y1="${f1(by)}" x2="${f1(bx)}" y2="${f1(by + 4)}" class="edge"/><text x="${f1(bx)}" y="${f1(by + 15)}" class="tick" text-anchor="middle">${pctTick(t)}</text>`);
+      scale.push(
+        `<line x1="${f1(bx)}" y1="${f1(by)}" x2="${f1(bx)}" y2="${f1(by + 4)}" class="edge"/><text ` +
+          `x="${f1(bx)}" y="${f1(by + 15)}" class="tick" text-anchor="middle">${pctTick(t)}</text>`,
+      );
     }
   }
   const [lx, ly] = px(d.lfl, 0.21 * (1 - d.lfl));
@@ -198,7 +256,12 @@ ${grid.join('')}
 <line x1="${f1(ax)}" y1="${f1(ay)}" x2="${f1(fx)}" y2="${f1(fy)}" class="air"/>
 <line x1="${f1(ix)}" y1="${f1(iy)}" x2="${f1(sx)}" y2="${f1(sy)}" class="stoich"/>
 <circle cx="${f1(lx)}" cy="${f1(ly)}" r="2.5"/><circle cx="${f1(ux)}" cy="${f1(uy)}" r="2.5"/>
-${burn}${pathLine}${marks}${d.flammable.length ? `\n<line x1="${f1(W - 150)}" y1="18" x2="${f1(W - 130)}" y2="18" class="burn"/><text x="${f1(W - 124)}" y="22" class="lab">flammable during a fill</text>` : ''}
+${burn}${pathLine}${marks}${
+    d.flammable.length
+      ? `\n<line x1="${f1(W - 150)}" y1="18" x2="${f1(W - 130)}" y2="18" class="burn"/><text ` +
+        `x="${f1(W - 124)}" y="22" class="lab">flammable during a fill</text>`
+      : ''
+  }
 ${scale.join('')}
 <text x="${f1(ix - 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="start">inert (N2-eq.)</text>
 <text x="${f1(M + SCALE + 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="end">O2, %</text>
@@ -225,7 +288,10 @@ export function detailRange(d: DiagramData): { oMax: number; fMax: number } {
 
 function outside(d: DiagramData, oMax: number, fMax: number): string {
   const off = d.path.filter((p) => p.fuel > fMax || p.oxygen > oMax).map((p) => p.label);
-  return off.length ? `<text x="440" y="12" class="lab" text-anchor="end">state ${off.join(', ')} outside this detail (see the triangle)</text>` : '';
+  return off.length
+    ? `<text x="440" y="12" class="lab" text-anchor="end">state ${off.join(', ')} ` +
+        `outside this detail (see the triangle)</text>`
+    : '';
 }
 
 export function detailSvg(d: DiagramData, title: string): string {
@@ -249,14 +315,24 @@ export function detailSvg(d: DiagramData, title: string): string {
   const ticks: string[] = [];
   for (let k = 0; k * oStep <= oMax + 1e-12; k++) {
     const o = k * oStep;
-    ticks.push(`<line x1="${f1(X(o))}" y1="${h - m.b}" x2="${f1(X(o))}" y2="${h - m.b + 4}" class="edge"/><text x="${f1(X(o))}" y="${h - m.b + 16}" class="lab" text-anchor="middle">${pctTick(o)}</text>`);
+    ticks.push(
+      `<line x1="${f1(X(o))}" y1="${h - m.b}" x2="${f1(X(o))}" y2="${h - m.b + 4}" ` +
+        `class="edge"/><text x="${f1(X(o))}" y="${h - m.b + 16}" class="lab" text-anchor="middle">${pctTick(o)}</text>`,
+    );
   }
   for (let k = 0; k * fStep <= fMax + 1e-12; k++) {
     const f = k * fStep;
-    ticks.push(`<line x1="${m.l - 4}" y1="${f1(Y(f))}" x2="${m.l}" y2="${f1(Y(f))}" class="edge"/><text x="${m.l - 6}" y="${f1(Y(f) + 4)}" class="lab" text-anchor="end">${pctTick(f)}</text>`);
+    ticks.push(
+      `<line x1="${m.l - 4}" y1="${f1(Y(f))}" x2="${m.l}" y2="${f1(Y(f))}" class="edge"/><text ` +
+        `x="${m.l - 6}" y="${f1(Y(f) + 4)}" class="lab" text-anchor="end">${pctTick(f)}</text>`,
+    );
   }
   const airTop = Math.min(fMax, 1 - oMax / 0.21);
-  const air = oMax >= 0.2 ? `<line x1="${f1(X(0.21))}" y1="${f1(Y(0))}" x2="${f1(X(0.21 * (1 - airTop)))}" y2="${f1(Y(airTop))}" class="air"/>` : '';
+  const air =
+    oMax >= 0.2
+      ? `<line x1="${f1(X(0.21))}" y1="${f1(Y(0))}" x2="${f1(X(0.21 * (1 - airTop)))}" ` +
+        `y2="${f1(Y(airTop))}" class="air"/>`
+      : '';
   const fs = Math.min(fMax, oMax / Math.max(d.z, 1e-9));
   const stoich = `<line x1="${f1(X(0))}" y1="${f1(Y(0))}" x2="${f1(X(d.z * fs))}" y2="${f1(Y(fs))}" class="stoich"/>`;
   return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${w} ${h}" width="${w}" height="${h}" role="img" aria-label="${title}">
@@ -265,7 +341,15 @@ export function detailSvg(d: DiagramData, title: string): string {
 <title>${title}</title>
 <g clip-path="url(#plotarea)"><polygon points="${poly}" class="zone"/>${air}${stoich}</g>
 <rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}" class="edge"/>
-<g clip-path="url(#plotarea)">${d.flammable.map((b) => `<line x1="${f1(X(b.from.oxygen))}" y1="${f1(Y(b.from.fuel))}" x2="${f1(X(b.to.oxygen))}" y2="${f1(Y(b.to.fuel))}" class="burn"/>`).join('')}${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
+<g clip-path="url(#plotarea)">${d.flammable
+    .map(
+      (b) =>
+        `<line x1="${f1(X(b.from.oxygen))}" y1="${f1(Y(b.from.fuel))}" x2="${f1(X(b.to.oxygen))}" ` +
+        `y2="${f1(Y(b.to.fuel))}" class="burn"/>`,
+    )
+    .join(
+      '',
+    )}${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
 ${d.path.map((_, i) => `<circle cx="${f1(path[i][0])}" cy="${f1(path[i][1])}" r="4.5" class="state"/>${spots[i].text ? `<text x="${f1(spots[i].x)}" y="${f1(spots[i].y)}" class="num">${spots[i].text}</text>` : ''}`).join('')}</g>
 ${outside(d, oMax, fMax)}
 ${ticks.join('')}

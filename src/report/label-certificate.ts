@@ -72,9 +72,15 @@ export interface CertificateMeta {
 
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included.',
-  'pass-uncertain': 'PASS NOT PROVEN - every design mole fraction is within its tolerance, but for some the expanded uncertainty (k = 2) reaches past it: the measurement cannot prove conformity.',
-  fail: 'FAIL - out of tolerance: the tank does not hold the design mixture. Label it with the as-filled composition below, or re-fill.',
-  incomplete: 'FAIL - incomplete: the log lacks a reading for a planned fill; the composition covers the fills logged so far.',
+  'pass-uncertain':
+    'PASS NOT PROVEN - every design mole fraction is within its tolerance, but ' +
+    'for some the expanded uncertainty (k = 2) reaches past it: the measurement ' +
+    'cannot prove conformity.',
+  fail:
+    'FAIL - out of tolerance: the tank does not hold the design mixture. Label ' +
+    'it with the as-filled composition below, or re-fill.',
+  incomplete:
+    'FAIL - incomplete: the log lacks a reading for a planned fill; the composition covers the fills logged so far.',
   'no-design': 'No design to compare with: the composition is as measured.',
 };
 
@@ -93,7 +99,8 @@ function amendmentLines(r: CheckReport): string[] {
     const who = `by ${a.by ?? 'initials not logged'} at ${shortTime(a.time)}`;
     const why = a.reason ? ` - ${a.reason}` : ' - no reason logged';
     return a.kind === 'correction'
-      ? `fill ${a.step}: ${readingText(a.old)} corrected to ${readingText(a.new)}, ${who}${why}; the original stays in the log`
+      ? `fill ${a.step}: ${readingText(a.old)} corrected to ${readingText(a.new)}, ` +
+          `${who}${why}; the original stays in the log`
       : `fill ${a.step}: ${readingText(a.old)} withdrawn (line ${a.line}), ${who}${why}; the original stays in the log`;
   });
 }
@@ -104,7 +111,11 @@ function shortTime(t: string): string {
   return m ? `${m[1]} ${m[2]} UTC` : t;
 }
 
-export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined, meta: CertificateMeta): CertificateModel {
+export function buildCertificateModel(
+  r: CheckReport,
+  log: ParsedLog | undefined,
+  meta: CertificateMeta,
+): CertificateModel {
   const label = labelModel(r, log);
   const h = log?.header;
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
@@ -115,19 +126,37 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
       species: c.species,
       design: d ? pct(d.design) : '-',
       asFilled: c.text,
-      deviation: d ? `${d.deviation >= 0 ? '+' : '-'}${fixedSig((Math.abs(d.deviation) / d.design) * 100, 2)} %` : '-',
+      deviation: d
+        ? `${d.deviation >= 0 ? '+' : '-'}${fixedSig((Math.abs(d.deviation) / d.design) * 100, 2)} %`
+        : '-',
       tolerance: d ? `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %` : '-',
       status: d ? (d.provenWithin ? 'within' : d.within ? 'within, not proven' : 'OUT') : '-',
     };
   });
   // a design species the re-check found none of still gets its row
   for (const d of r.verdict.deviations) {
-    if (!rows.some((x) => x.species === d.species)) rows.push({ species: d.species, design: pct(d.design), asFilled: 'none found', deviation: '-100 %', tolerance: `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %`, status: 'OUT' });
+    if (!rows.some((x) => x.species === d.species))
+      rows.push({
+        species: d.species,
+        design: pct(d.design),
+        asFilled: 'none found',
+        deviation: '-100 %',
+        tolerance: `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %`,
+        status: 'OUT',
+      });
   }
-  const phi: [string, string] = [r.design?.phi !== undefined ? r.design.phi.toFixed(4) : 'n/a', label.phi ?? 'n/a'];
-  const dilution: [string, string] = [r.design ? pct(r.design.diluentFraction) : 'n/a', label.dilution ?? 'n/a'];
+  const phi: [string, string] = [
+    r.design?.phi !== undefined ? r.design.phi.toFixed(4) : 'n/a',
+    label.phi ?? 'n/a',
+  ];
+  const dilution: [string, string] = [
+    r.design ? pct(r.design.diluentFraction) : 'n/a',
+    label.dilution ?? 'n/a',
+  ];
   const byStep = new Map((log?.readings ?? []).map((x) => [x.step, x]));
-  const dangerLines = new Set(r.findings.filter((f) => f.severity === 'danger' && f.line !== null).map((f) => f.line));
+  const dangerLines = new Set(
+    r.findings.filter((f) => f.severity === 'danger' && f.line !== null).map((f) => f.line),
+  );
   const readings: CertificateReading[] = r.readings.map((x) => {
     const u = unitOf(x.gauge.unit);
     const dec = Math.max(0, decimalsFor(fromPa(x.gauge.resolutionPa, u)));
@@ -141,43 +170,78 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
       temperature: `${(x.temperatureK - 273.15).toFixed(2)} degC`,
       time: lr?.time ? shortTime(lr.time) : '-',
       by: lr?.by ?? '-',
-      note: [lr && dangerLines.has(lr.line) ? 'DANGER: past a limit, see the findings' : '', lr?.kind === 'correction' ? `corrected (replaces line ${lr.replaces_line ?? '?'})` : '', lr?.note ?? ''].filter(Boolean).join('; '),
+      note: [
+        lr && dangerLines.has(lr.line) ? 'DANGER: past a limit, see the findings' : '',
+        lr?.kind === 'correction' ? `corrected (replaces line ${lr.replaces_line ?? '?'})` : '',
+        lr?.note ?? '',
+      ]
+        .filter(Boolean)
+        .join('; '),
     };
   });
-  const acknowledgements = (log?.acknowledgements ?? []).map((a) => `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`);
+  const acknowledgements = (log?.acknowledgements ?? []).map(
+    (a) =>
+      `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`,
+  );
   const findings: { severity: string; text: string }[] = [];
   // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
-  for (const w of r.warnings) if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
+  for (const w of r.warnings)
+    if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
   // the log as a record (readings past a limit, edited lines, text and number that disagree), worded once
   for (const f of r.findings) findings.push({ severity: f.severity, text: describeLogFinding(f) });
-  for (const f of h?.findings ?? []) if (f.code !== 'isolate-gauge') findings.push({ severity: f.severity, text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}` });
+  for (const f of h?.findings ?? [])
+    if (f.code !== 'isolate-gauge')
+      findings.push({
+        severity: f.severity,
+        text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}`,
+      });
   const order = ['danger', 'check', 'warning', 'note'];
   findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
-  const baro = h ? `Barometer ${fixedSig(fromPa(h.barometer.pressure_Pa, 'Torr'), 5)} Torr (u ${fixedSig(fromPa(h.barometer.u_Pa, 'Torr'), 2)} Torr) for gauge-referenced readings. ` : '';
-  const thermo = h ? `Thermometer u ${h.thermometer.u_K} K, resolution ${h.thermometer.resolution_K} K. ` : '';
+  const baro = h
+    ? `Barometer ${fixedSig(fromPa(h.barometer.pressure_Pa, 'Torr'), 5)} Torr (u ` +
+      `${fixedSig(fromPa(h.barometer.u_Pa, 'Torr'), 2)} Torr) for gauge-referenced readings. `
+    : '';
+  const thermo = h
+    ? `Thermometer u ${h.thermometer.u_K} K, resolution ${h.thermometer.resolution_K} K. `
+    : '';
   const method =
-    `Composition from the logged readings by the real-gas inverse model of mixwright check; uncertainty by the GUM law of propagation (JCGM 100), U = 2u (k = 2)` +
-    (r.result.trials > 0 ? `, checked by Monte Carlo (JCGM 101, ${r.result.trials} trials, seed ${r.result.seed}). ` : '. ') +
+    `Composition from the logged readings by the real-gas inverse model of mixwright ` +
+    `check; uncertainty by the GUM law of propagation (JCGM 100), U = 2u (k = 2)` +
+    (r.result.trials > 0
+      ? `, checked by Monte Carlo (JCGM 101, ${r.result.trials} trials, seed ${r.result.seed}). `
+      : '. ') +
     baro +
     thermo +
-    (r.result.unidentified > 0 ? `Unidentified cylinder impurity ${fixedSig(r.result.unidentified * 1e6, 3)} ppm, not in the fractions.` : '');
-  const tank = h ? `${h.tank.id}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${h.tank.rated_pressure_Pa ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr` : ', rating not known'}` : label.tank;
+    (r.result.unidentified > 0
+      ? `Unidentified cylinder impurity ${fixedSig(r.result.unidentified * 1e6, 3)} ppm, not in the fractions.`
+      : '');
+  const tank = h
+    ? `${h.tank.id}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${h.tank.rated_pressure_Pa ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr` : ', rating not known'}`
+    : label.tank;
   const recipe = h?.recipe as { title?: unknown; id?: unknown } | undefined;
-  const title = typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
+  const title =
+    typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
   return {
     title,
     batchId: r.id,
     lab: label.lab,
     tank,
     created: h?.created ? shortTime(h.created) : '-',
-    closed: log ?  (log.closed ? 'closed' : 'NOT CLOSED - the fill may not be finished') : 'CSV readings, no log',
+    closed: log
+      ? log.closed
+        ? 'closed'
+        : 'NOT CLOSED - the fill may not be finished'
+      : 'CSV readings, no log',
     paper: meta.paper,
     version: meta.version,
     file: r.file,
     generated: meta.generated,
     label,
     labelLines: labelLines(label),
-    verdictText: label.danger ? `${VERDICT_TEXT[label.status]} This is the composition only: the log records a danger (below), and the tank is not fit to use.` : VERDICT_TEXT[label.status],
+    verdictText: label.danger
+      ? `${VERDICT_TEXT[label.status]} This is the composition only: the log records ` +
+        `a danger (below), and the tank is not fit to use.`
+      : VERDICT_TEXT[label.status],
     caveats: r.caveats,
     rows,
     phi,
@@ -187,6 +251,8 @@ export function buildCertificateModel(r: CheckReport, log: ParsedLog | undefined
     acknowledgements,
     findings,
     method,
-    caution: `The composition is computed from the logged readings and is only as good as they are. ${STANDING_CAUTION}`,
+    caution:
+      `The composition is computed from the logged readings and is only as good ` +
+      `as they are. ${STANDING_CAUTION}`,
   };
 }

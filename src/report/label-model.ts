@@ -66,7 +66,10 @@ export function withU(value: number, U: number, unit = ''): string {
 const PPM_BELOW = 1e-3;
 
 function fraction(species: string, st: OutputStat): LabelFraction {
-  const text = st.value < PPM_BELOW ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm') : withU(st.value * PCT, 2 * st.u * PCT, '%');
+  const text =
+    st.value < PPM_BELOW
+      ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm')
+      : withU(st.value * PCT, 2 * st.u * PCT, '%');
   return { species, value: st.value, expandedU: 2 * st.u, text };
 }
 
@@ -116,8 +119,17 @@ function offDesign(r: CheckReport): string[] {
     const rel = d.deviation / d.design;
     const dir = d.deviation < 0 ? 'below' : 'above';
     const tolPct = (d.tolerance / d.design) * PCT;
-    if (!d.within) out.push(`${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design; tolerance ${fixedSig(tolPct, 2)} %`);
-    else if (!d.provenWithin) out.push(`${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design, but U ${fixedSig((d.expandedU / d.design) * PCT, 2)} % reaches past the tolerance ${fixedSig(tolPct, 2)} %`);
+    if (!d.within)
+      out.push(
+        `${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design; ` +
+          `tolerance ${fixedSig(tolPct, 2)} %`,
+      );
+    else if (!d.provenWithin)
+      out.push(
+        `${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design, ` +
+          `but U ${fixedSig((d.expandedU / d.design) * PCT, 2)} % reaches past the ` +
+          `tolerance ${fixedSig(tolPct, 2)} %`,
+      );
   }
   if (r.incomplete.length) out.push(`no reading for ${r.incomplete.join(', ')}`);
   return out;
@@ -150,7 +162,10 @@ export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
   const last = r.readings[r.readings.length - 1];
   const unit = unitOf(last.gauge.unit);
   const dec = Math.max(0, decimalsFor(fromPa(last.gauge.resolutionPa, unit)));
-  const times = (log?.readings ?? []).map((x) => x.time).filter(Boolean).sort();
+  const times = (log?.readings ?? [])
+    .map((x) => x.time)
+    .filter(Boolean)
+    .sort();
   const lastTime = times[times.length - 1];
   const phi = r.result.phi;
   const dil = r.result.diluentFraction;

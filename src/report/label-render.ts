@@ -3,11 +3,13 @@ import type { CertificateModel } from './label-certificate.js';
 import { DANGER_HEADLINE } from './label-model.js';
 import { padTable } from './format.js';
 
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+const esc = (s: string) =>
+  s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 /** the text form writes "+-"; the printed forms the sign itself */
 const pm = (s: string) => s.replace(/\+-/g, '±');
 /** drawn as a warning: a failed re-check, or a log that records a danger whatever the composition */
-const bad = (m: CertificateModel) => m.label.status === 'fail' || m.label.status === 'incomplete' || m.label.danger;
+const bad = (m: CertificateModel) =>
+  m.label.status === 'fail' || m.label.status === 'incomplete' || m.label.danger;
 
 const CSS = (paper: 'a4' | 'letter') => `
 @page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 11mm; }
@@ -50,21 +52,37 @@ footer { font-size: 7.5pt; margin-top: 1mm; }
 `;
 
 function list(items: readonly string[], none: string): string {
-  return items.length ? `<ul>${items.map((i) => `<li>${esc(pm(i))}</li>`).join('')}</ul>` : `<p class="small">${esc(none)}</p>`;
+  return items.length
+    ? `<ul>${items.map((i) => `<li>${esc(pm(i))}</li>`).join('')}</ul>`
+    : `<p class="small">${esc(none)}</p>`;
 }
 
 export function certificateToHtml(m: CertificateModel): string {
   const comp = m.rows
-    .map((r) => `<tr><td><b>${esc(r.species)}</b></td><td class="num">${esc(r.design)}</td><td class="num">${esc(pm(r.asFilled))}</td><td class="num">${esc(r.deviation)}</td><td class="num">${esc(pm(r.tolerance))}</td><td class="${r.status === 'OUT' ? 'out' : ''}">${esc(r.status)}</td></tr>`)
+    .map(
+      (r) =>
+        `<tr><td><b>${esc(r.species)}</b></td><td class="num">${esc(r.design)}</td><td ` +
+        `class="num">${esc(pm(r.asFilled))}</td><td class="num">${esc(r.deviation)}</td><td ` +
+        `class="num">${esc(pm(r.tolerance))}</td><td class="${r.status === 'OUT' ? 'out' : ''}">${esc(r.status)}</td></tr>`,
+    )
     .join('');
   const readings = m.readings
-    .map((r) => `<tr><td>${r.step}</td><td class="nw">${esc(r.fill)}</td><td class="nw">${esc(r.gauge)}</td><td class="num">${esc(r.typed)}</td><td class="num">${esc(r.absolute)}</td><td class="num">${esc(r.temperature)}</td><td class="nw">${esc(r.time)}</td><td>${esc(r.by)}</td><td>${esc(r.note)}</td></tr>`)
+    .map(
+      (r) =>
+        `<tr><td>${r.step}</td><td class="nw">${esc(r.fill)}</td><td class="nw">${esc(r.gauge)}</td><td ` +
+        `class="num">${esc(r.typed)}</td><td class="num">${esc(r.absolute)}</td><td ` +
+        `class="num">${esc(r.temperature)}</td><td class="nw">${esc(r.time)}</td><td>${esc(r.by)}</td><td>${esc(r.note)}</td></tr>`,
+    )
     .join('');
   const major = m.findings.filter((f) => f.severity !== 'note');
   const notes = m.findings.filter((f) => f.severity === 'note');
   const findings =
-    (major.length ? `<ul>${major.map((f) => `<li><span class="sev">${esc(f.severity)}</span> ${esc(pm(f.text))}</li>`).join('')}</ul>` : '') +
-    (notes.length ? `<p class="notes"><span class="sev">notes</span> ${notes.map((f) => esc(pm(f.text))).join(' &middot; ')}</p>` : '') +
+    (major.length
+      ? `<ul>${major.map((f) => `<li><span class="sev">${esc(f.severity)}</span> ${esc(pm(f.text))}</li>`).join('')}</ul>`
+      : '') +
+    (notes.length
+      ? `<p class="notes"><span class="sev">notes</span> ${notes.map((f) => esc(pm(f.text))).join(' &middot; ')}</p>`
+      : '') +
     (m.findings.length ? '' : '<p class="small">No findings.</p>');
   const L = m.label;
   const labelBox = `<div class="labelbox${bad(m) ? ' fail' : ''}">${L.danger ? `<div class="head">${esc(DANGER_HEADLINE)}</div>` : ''}<div class="head">${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}${L.caveats.map((c) => `<div class="off">${esc(c)}</div>`).join('')}
@@ -73,7 +91,11 @@ export function certificateToHtml(m: CertificateModel): string {
 <div class="grid">${L.composition.map((c) => `<div><b>${esc(c.species)}</b> ${esc(pm(c.text))}</div>`).join('')}</div>
 <div>${[L.phi ? `phi ${esc(pm(L.phi))}` : '', L.dilution ? `dilution ${esc(pm(L.dilution))}` : ''].filter(Boolean).join(' &middot; ')}</div>
 <div>${esc(L.finalPressure)} at ${esc(L.finalTemperature)}</div>
-<div class="hazard">${esc(L.hazard)}</div>${L.status === 'fail' || L.status === 'incomplete' ? '<div class="head">DO NOT USE AS THE DESIGN MIXTURE</div>' : ''}${L.danger ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED</div>' : ''}</div>`;
+<div class="hazard">${esc(L.hazard)}</div>${L.status === 'fail' || L.status === 'incomplete' ? '<div class="head">DO NOT USE AS THE DESIGN MIXTURE</div>' : ''}${
+    L.danger
+      ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN ' + 'INSPECTED</div>'
+      : ''
+  }</div>`;
   return `<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>Batch certificate ${esc(m.batchId)}</title><style>${CSS(m.paper)}</style></head>
 <body>
@@ -99,22 +121,71 @@ ${m.corrections.length || m.acknowledgements.length ? `${list(m.corrections, 'No
 
 export function certificateToMarkdown(m: CertificateModel): string {
   const out: string[] = [];
-  out.push(`# Batch certificate — ${m.title}`, '', `Batch **${m.batchId}** · Lab: ${m.lab} · Tank: ${m.tank} · Log started ${m.created}, ${m.closed}`, '');
+  out.push(
+    `# Batch certificate — ${m.title}`,
+    '',
+    `Batch **${m.batchId}** · Lab: ${m.lab} · Tank: ${m.tank} · Log started ${m.created}, ${m.closed}`,
+    '',
+  );
   out.push(bad(m) ? `> **${m.verdictText}**` : `**${m.verdictText}**`, '');
   for (const c of m.caveats) out.push(`> **${c}**`, '');
-  out.push('## Composition: design and as filled (mole fraction, ± U at k = 2)', '', '| species | design | as filled ± U | deviation (rel.) | tolerance | status |', '|---|---:|---:|---:|---:|---|');
-  for (const r of m.rows) out.push(`| ${r.species} | ${r.design} | ${pm(r.asFilled)} | ${r.deviation} | ${pm(r.tolerance)} | ${r.status === 'OUT' ? '**OUT**' : r.status} |`);
-  out.push(`| phi | ${m.phi[0]} | ${pm(m.phi[1])} | | | |`, `| dilution | ${m.dilution[0]} | ${pm(m.dilution[1])} | | | |`, '');
-  out.push('## Readings as logged', '', '| # | fill | gauge | as read | absolute | tank T | time | by | note |', '|---:|---|---|---:|---:|---:|---|---|---|');
-  for (const r of m.readings) out.push(`| ${r.step} | ${r.fill} | ${r.gauge} | ${r.typed} | ${r.absolute} | ${r.temperature} | ${r.time} | ${r.by} | ${r.note} |`);
+  out.push(
+    '## Composition: design and as filled (mole fraction, ± U at k = 2)',
+    '',
+    '| species | design | as filled ± U | deviation (rel.) | tolerance | status |',
+    '|---|---:|---:|---:|---:|---|',
+  );
+  for (const r of m.rows)
+    out.push(
+      `| ${r.species} | ${r.design} | ${pm(r.asFilled)} | ${r.deviation} | ${pm(r.tolerance)} ` +
+        `| ${r.status === 'OUT' ? '**OUT**' : r.status} |`,
+    );
+  out.push(
+    `| phi | ${m.phi[0]} | ${pm(m.phi[1])} | | | |`,
+    `| dilution | ${m.dilution[0]} | ${pm(m.dilution[1])} | | | |`,
+    '',
+  );
+  out.push(
+    '## Readings as logged',
+    '',
+    '| # | fill | gauge | as read | absolute | tank T | time | by | note |',
+    '|---:|---|---|---:|---:|---:|---|---|---|',
+  );
+  for (const r of m.readings)
+    out.push(
+      `| ${r.step} | ${r.fill} | ${r.gauge} | ${r.typed} | ${r.absolute} | ${r.temperature} ` +
+        `| ${r.time} | ${r.by} | ${r.note} |`,
+    );
   out.push('', '## Corrections and acknowledgements', '');
   out.push(...(m.corrections.length ? m.corrections.map((c) => `- ${c}`) : ['No corrections logged.']), '');
-  out.push(...(m.acknowledgements.length ? m.acknowledgements.map((c) => `- ${c}`) : ['No acknowledgements logged.']), '');
+  out.push(
+    ...(m.acknowledgements.length
+      ? m.acknowledgements.map((c) => `- ${c}`)
+      : ['No acknowledgements logged.']),
+    '',
+  );
   out.push('## Findings', '');
-  out.push(...(m.findings.length ? m.findings.map((f) => `- **${f.severity}** ${pm(f.text)}`) : ['No findings.']), '');
+  out.push(
+    ...(m.findings.length ? m.findings.map((f) => `- **${f.severity}** ${pm(f.text)}`) : ['No findings.']),
+    '',
+  );
   out.push(`**Method.** ${m.method}`, '');
-  out.push('## Tank label (from the readings)', '', '```', ...m.labelLines, '```', '', 'Checked by: ________  Date: ________', '');
-  out.push(`**Caution.** ${m.caution}`, '', `*mixwright ${m.version} · from ${m.file} · made ${m.generated}*`, '');
+  out.push(
+    '## Tank label (from the readings)',
+    '',
+    '```',
+    ...m.labelLines,
+    '```',
+    '',
+    'Checked by: ________  Date: ________',
+    '',
+  );
+  out.push(
+    `**Caution.** ${m.caution}`,
+    '',
+    `*mixwright ${m.version} · from ${m.file} · made ${m.generated}*`,
+    '',
+  );
   return out.join('\n');
 }
 
@@ -124,19 +195,71 @@ export function certificateToText(m: CertificateModel): string {
   const rule = '='.repeat(78);
   const w = Math.max(...m.labelLines.map((l) => l.length));
   const edge = bad(m) ? '#' : '-';
-  out.push('TANK LABEL (from the readings)', `+${edge.repeat(w + 2)}+`, ...m.labelLines.map((l) => `${edge === '#' ? '#' : '|'} ${l.padEnd(w)} ${edge === '#' ? '#' : '|'}`), `+${edge.repeat(w + 2)}+`, '');
-  out.push(rule, `BATCH CERTIFICATE  ${m.title}`, `Batch ${m.batchId}    Lab: ${m.lab}`, `Tank ${m.tank}    log started ${m.created}, ${m.closed}`, rule, '');
+  out.push(
+    'TANK LABEL (from the readings)',
+    `+${edge.repeat(w + 2)}+`,
+    ...m.labelLines.map((l) => `${edge === '#' ? '#' : '|'} ${l.padEnd(w)} ${edge === '#' ? '#' : '|'}`),
+    `+${edge.repeat(w + 2)}+`,
+    '',
+  );
+  out.push(
+    rule,
+    `BATCH CERTIFICATE  ${m.title}`,
+    `Batch ${m.batchId}    Lab: ${m.lab}`,
+    `Tank ${m.tank}    log started ${m.created}, ${m.closed}`,
+    rule,
+    '',
+  );
   out.push(`VERDICT  ${m.verdictText}`, ...m.caveats.map((c) => `         ${c}`), '');
   out.push('COMPOSITION (mole fraction, +- U at k = 2)');
-  const rows = [['species', 'design', 'as filled +- U', 'deviation (rel.)', 'tolerance', 'status'], ...m.rows.map((r) => [r.species, r.design, r.asFilled, r.deviation, r.tolerance, r.status])];
+  const rows = [
+    ['species', 'design', 'as filled +- U', 'deviation (rel.)', 'tolerance', 'status'],
+    ...m.rows.map((r) => [r.species, r.design, r.asFilled, r.deviation, r.tolerance, r.status]),
+  ];
   rows.push(['phi', m.phi[0], m.phi[1], '', '', ''], ['dilution', m.dilution[0], m.dilution[1], '', '', '']);
   out.push(...padTable(rows, [false, true, true, true, true, false]).map((l) => `  ${l}`), '');
   out.push('READINGS AS LOGGED');
-  const rr = [['#', 'fill', 'gauge', 'as read', 'absolute', 'tank T', 'time', 'by', 'note'], ...m.readings.map((r) => [String(r.step), r.fill, r.gauge, r.typed, r.absolute, r.temperature, r.time, r.by, r.note])];
-  out.push(...padTable(rr, [true, false, false, true, true, true, false, false, false]).map((l) => `  ${l}`), '');
-  out.push('CORRECTIONS', ...(m.corrections.length ? m.corrections.map((c) => `  ${c}`) : ['  none logged']), '');
-  out.push('ACKNOWLEDGEMENTS', ...(m.acknowledgements.length ? m.acknowledgements.map((c) => `  ${c}`) : ['  none logged']), '');
-  out.push('FINDINGS', ...(m.findings.length ? m.findings.map((f) => `  ${f.severity.toUpperCase().padEnd(7)} ${f.text}`) : ['  none']), '');
-  out.push(`METHOD: ${m.method}`, '', `CAUTION: ${m.caution}`, '', `mixwright ${m.version} - from ${m.file} - made ${m.generated}`);
+  const rr = [
+    ['#', 'fill', 'gauge', 'as read', 'absolute', 'tank T', 'time', 'by', 'note'],
+    ...m.readings.map((r) => [
+      String(r.step),
+      r.fill,
+      r.gauge,
+      r.typed,
+      r.absolute,
+      r.temperature,
+      r.time,
+      r.by,
+      r.note,
+    ]),
+  ];
+  out.push(
+    ...padTable(rr, [true, false, false, true, true, true, false, false, false]).map((l) => `  ${l}`),
+    '',
+  );
+  out.push(
+    'CORRECTIONS',
+    ...(m.corrections.length ? m.corrections.map((c) => `  ${c}`) : ['  none logged']),
+    '',
+  );
+  out.push(
+    'ACKNOWLEDGEMENTS',
+    ...(m.acknowledgements.length ? m.acknowledgements.map((c) => `  ${c}`) : ['  none logged']),
+    '',
+  );
+  out.push(
+    'FINDINGS',
+    ...(m.findings.length
+      ? m.findings.map((f) => `  ${f.severity.toUpperCase().padEnd(7)} ${f.text}`)
+      : ['  none']),
+    '',
+  );
+  out.push(
+    `METHOD: ${m.method}`,
+    '',
+    `CAUTION: ${m.caution}`,
+    '',
+    `mixwright ${m.version} - from ${m.file} - made ${m.generated}`,
+  );
   return out.join('\n') + '\n';
 }

@@ -11,9 +11,20 @@ export interface PlanMeta {
   readonly orderRecommended: boolean;
   readonly version: string;
   /** how many experiments the batch serves, when a reactor is known */
-  readonly experiments?: { readonly count: number; readonly sizedFor?: number; readonly reactor: ReactorSpec; readonly perExperimentMol: number; readonly minTankPa: number; readonly margin: number };
+  readonly experiments?: {
+    readonly count: number;
+    readonly sizedFor?: number;
+    readonly reactor: ReactorSpec;
+    readonly perExperimentMol: number;
+    readonly minTankPa: number;
+    readonly margin: number;
+  };
   /** the barometric pressure gauge-referenced targets assume, and whether it was given (--barometer) or is the lab profile's */
-  readonly barometer?: { readonly pressurePa: number; readonly uncertaintyPa: number; readonly given: boolean };
+  readonly barometer?: {
+    readonly pressurePa: number;
+    readonly uncertaintyPa: number;
+    readonly given: boolean;
+  };
 }
 
 export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Torr'): object {
@@ -37,8 +48,19 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
       filled_composition: plan.composition,
       unidentified_fraction: plan.unidentifiedFraction,
     },
-    tank: { id: plan.tank.id, label: plan.tank.label, volume_m3: plan.tank.volumeM3, rated_pressure_Pa: plan.tank.ratedPressurePa ?? null },
-    initial: plan.initial ? { pressure_Pa: plan.initial.pressurePa, amount_mol: plan.initial.amountMol, composition: plan.initial.composition } : null,
+    tank: {
+      id: plan.tank.id,
+      label: plan.tank.label,
+      volume_m3: plan.tank.volumeM3,
+      rated_pressure_Pa: plan.tank.ratedPressurePa ?? null,
+    },
+    initial: plan.initial
+      ? {
+          pressure_Pa: plan.initial.pressurePa,
+          amount_mol: plan.initial.amountMol,
+          composition: plan.initial.composition,
+        }
+      : null,
     final: {
       pressure_Pa: plan.final.pressurePa,
       temperature_K: plan.final.temperatureK,
@@ -49,14 +71,20 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
       B_mix_m3_per_mol: plan.final.bMixM3PerMol,
       C_mix_m6_per_mol2: plan.final.cMixM6PerMol2,
     },
-    order: { fills: plan.steps.map((s) => s.species), reason: plan.orderReason, recommended: meta.orderRecommended },
+    order: {
+      fills: plan.steps.map((s) => s.species),
+      reason: plan.orderReason,
+      recommended: meta.orderRecommended,
+    },
     tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
     barometer: meta.barometer
       ? {
           pressure_Pa: meta.barometer.pressurePa,
           u_Pa: meta.barometer.uncertaintyPa,
           source: meta.barometer.given ? 'option' : 'lab profile',
-          gauge_referenced_steps: plan.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.index),
+          gauge_referenced_steps: plan.steps
+            .filter((s) => s.gauge?.reference === 'gauge')
+            .map((s) => s.index),
         }
       : null,
     experiments: meta.experiments
@@ -92,11 +120,26 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
       gauge_u_Pa: s.gauge?.uncertaintyPa ?? null,
       isolate_before: s.isolateBefore.map((g) => g.id),
     })),
-    virial: plan.virial.entries.map((e) => ({ i: e.i, j: e.j, B_m3_per_mol: e.valueM3PerMol, method: e.method, source: e.source, model: e.model ?? null })),
+    virial: plan.virial.entries.map((e) => ({
+      i: e.i,
+      j: e.j,
+      B_m3_per_mol: e.valueM3PerMol,
+      method: e.method,
+      source: e.source,
+      model: e.model ?? null,
+    })),
     third_virial: {
       pure: plan.virial.species.map((k, i) => ({ species: k, C_m6_per_mol2: plan.virial.C[i] })),
-      pairs: plan.virial.cPairs.map((p) => ({ twice: plan.virial.species[p.i], once: plan.virial.species[p.j], C_m6_per_mol2: p.value, source: 'coolprop-8-mixture', model: p.model })),
-      rule: 'C_mix = sum y_i y_j y_k C_ijk; untabulated C_ijk = (C_ii C_jj C_kk)^(1/3); C of polar species and of species without a reference value is 0',
+      pairs: plan.virial.cPairs.map((p) => ({
+        twice: plan.virial.species[p.i],
+        once: plan.virial.species[p.j],
+        C_m6_per_mol2: p.value,
+        source: 'coolprop-8-mixture',
+        model: p.model,
+      })),
+      rule:
+        'C_mix = sum y_i y_j y_k C_ijk; untabulated C_ijk = (C_ii C_jj C_kk)^(1/3); ' +
+        'C of polar species and of species without a reference value is 0',
     },
     findings: plan.findings.map((f) => ({ ...f, step: f.step ?? null, message: describeFinding(f, fmt) })),
     caution: STANDING_CAUTION,

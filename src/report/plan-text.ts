@@ -17,7 +17,9 @@ function virialSummary(plan: Plan): string {
   const cross = plan.virial.entries.filter((e) => e.i !== e.j && major.has(e.i) && major.has(e.j));
   const fromModel = cross.filter((e) => e.method === 'reference-mixture');
   const averaged = cross.filter((e) => e.method === 'reference-mixture-average');
-  const byRule = cross.filter((e) => e.method !== 'reference-mixture' && e.method !== 'reference-mixture-average');
+  const byRule = cross.filter(
+    (e) => e.method !== 'reference-mixture' && e.method !== 'reference-mixture-average',
+  );
   const list = (es: typeof cross) => es.map((e) => `${e.i}-${e.j}`).join(', ');
   const parts = [`B_mix ${(plan.final.bMixM3PerMol * 1e6).toFixed(2)} cm3/mol`];
   if (fromModel.length) parts.push(`cross B from reference mixture models: ${list(fromModel)}`);
@@ -35,29 +37,56 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push(`Fill plan  ${meta.recipeId}   (lab: ${meta.labName})`);
   out.push('');
   const phi = d.phi === undefined ? 'n/a' : d.phi.toFixed(4);
-  out.push(`Design      phi ${phi}   fuel ${fixedSig(d.fuelFraction, 5)}   oxidizer ${fixedSig(d.oxidizerFraction, 5)}   diluent ${fixedSig(d.diluentFraction, 5)}`);
+  out.push(
+    `Design      phi ${phi}   fuel ${fixedSig(d.fuelFraction, 5)}   oxidizer ` +
+      `${fixedSig(d.oxidizerFraction, 5)}   diluent ${fixedSig(d.diluentFraction, 5)}`,
+  );
   out.push(`            ${formatFractions(d.composition)}`);
   const t = plan.tank;
-  const rating = t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${t.workingFraction && t.workingFraction < 1 ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}` : ''}`;
+  const rating =
+    t.ratedPressurePa === undefined
+      ? 'rating not known'
+      : `rated ${P(t.ratedPressurePa, 4)}${t.workingFraction && t.workingFraction < 1 ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}` : ''}`;
   out.push(`Tank        ${t.id}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`);
-  out.push(`Final       ${P(plan.final.pressurePa)} absolute at ${plan.final.temperatureK.toFixed(2)} K (${(plan.final.temperatureK - 273.15).toFixed(2)} degC)`);
-  out.push(`            Z = ${plan.final.compressibility.toFixed(6)}, ${fixedSig(plan.final.amountMol, 6)} mol (an ideal gas would need ${fixedSig(plan.final.idealAmountMol, 6)} mol)`);
+  out.push(
+    `Final       ${P(plan.final.pressurePa)} absolute at ${plan.final.temperatureK.toFixed(2)} ` +
+      `K (${(plan.final.temperatureK - 273.15).toFixed(2)} degC)`,
+  );
+  out.push(
+    `            Z = ${plan.final.compressibility.toFixed(6)}, ${fixedSig(plan.final.amountMol, 6)} ` +
+      `mol (an ideal gas would need ${fixedSig(plan.final.idealAmountMol, 6)} mol)`,
+  );
   out.push(`Real gas    ${virialSummary(plan)}`);
-  if (plan.initial) out.push(`In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} (${fixedSig(plan.initial.amountMol, 5)} mol)`);
-  out.push(`Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${meta.orderRecommended ? 'recommended: ' : ''}${plan.orderReason})`);
+  if (plan.initial)
+    out.push(
+      `In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} ` +
+        `(${fixedSig(plan.initial.amountMol, 5)} mol)`,
+    );
+  out.push(
+    `Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${meta.orderRecommended ? 'recommended: ' : ''}${plan.orderReason})`,
+  );
   const ex = meta.experiments;
   if (ex) {
     out.push(
-      `Serves      ${ex.count} experiments in ${ex.reactor.id} (${fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4)} L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank is used down to ${P(ex.minTankPa, 5)})${ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : ''}`,
+      `Serves      ${ex.count} experiments in ${ex.reactor.id} (${fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4)} ` +
+        `L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank ` +
+        `is used down to ${P(ex.minTankPa, 5)})${ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : ''}`,
     );
   }
   const refSteps = plan.steps.filter((s) => s.gauge?.reference === 'gauge');
   if (refSteps.length && meta.barometer) {
     out.push(
-      `Barometer   ${pressure(meta.barometer.pressurePa, 'Torr', 5)} assumed by the gauge-referenced reading${refSteps.length > 1 ? 's' : ''} of fill ${refSteps.map((s) => s.index).join(', ')} (${meta.barometer.given ? '--barometer' : 'lab profile value, not today\'s: give --barometer'}); for another barometer B, stop at target + (${pressure(meta.barometer.pressurePa, 'Torr', 5)} - B) in the gauge's unit`,
+      `Barometer   ${pressure(meta.barometer.pressurePa, 'Torr', 5)} assumed by ` +
+        `the gauge-referenced reading${refSteps.length > 1 ? 's' : ''} of fill ${refSteps.map((s) => s.index).join(', ')} ` +
+        `(${meta.barometer.given ? '--barometer' : "lab profile value, not today's: give --barometer"}); ` +
+        `for another barometer B, stop at target + (${pressure(meta.barometer.pressurePa, 'Torr', 5)} ` +
+        `- B) in the gauge's unit`,
     );
   }
-  out.push(`Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} % relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`);
+  out.push(
+    `Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} ` +
+      `% relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`,
+  );
   out.push('');
 
   // table 1: what the operator needs at the manifold; table 2: the numbers behind it
@@ -73,11 +102,21 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       const bandDec = Math.max(dec, decimalsFor(bandValue / 10));
       band = `${bandValue.toFixed(bandDec)} ${gu}`;
     }
-    rows.push([String(s.index), s.species, s.source.id, s.gauge?.id ?? '-', reading, band, fixedSig(fromPa(s.targetPa, unit), 7)]);
+    rows.push([
+      String(s.index),
+      s.species,
+      s.source.id,
+      s.gauge?.id ?? '-',
+      reading,
+      band,
+      fixedSig(fromPa(s.targetPa, unit), 7),
+    ]);
   }
   out.push(...padTable(rows, [true, false, false, false, true, true, true]));
   out.push('');
-  const rows2: string[][] = [['#', `increment ${unit}`, 'amount mol', 'mass g', 'Z after', `ideal-gas plan ${unit}`, 'real - ideal']];
+  const rows2: string[][] = [
+    ['#', `increment ${unit}`, 'amount mol', 'mass g', 'Z after', `ideal-gas plan ${unit}`, 'real - ideal'],
+  ];
   for (const s of plan.steps) {
     const diff = s.targetPa - s.idealTargetPa;
     rows2.push([
@@ -94,20 +133,29 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push('');
   for (const s of plan.steps) {
     for (const g of s.isolateBefore) {
-      out.push(`Before fill ${s.index}: close off ${g.id} (${g.label}); it reads only up to ${P(g.topPa, 4)} absolute.`);
+      out.push(
+        `Before fill ${s.index}: close off ${g.id} (${g.label}); it reads only up to ${P(g.topPa, 4)} absolute.`,
+      );
     }
   }
   out.push('');
   out.push(`Filled composition (with cylinder impurities):`);
-  out.push(`            ${formatFractions(plan.composition)}${plan.unidentifiedFraction > 0 ? `   + unidentified ${fixedSig(plan.unidentifiedFraction * 1e6, 3)} ppm` : ''}`);
+  out.push(
+    `            ${formatFractions(plan.composition)}${plan.unidentifiedFraction > 0 ? `   + unidentified ${fixedSig(plan.unidentifiedFraction * 1e6, 3)} ppm` : ''}`,
+  );
   out.push('');
   if (plan.findings.length) {
     out.push('Findings');
     const order: Severity[] = ['danger', 'warning', 'note'];
     // gauge isolation is already said under the table
-    const sorted = plan.findings.filter((f) => f.code !== 'isolate-gauge').sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
+    const sorted = plan.findings
+      .filter((f) => f.code !== 'isolate-gauge')
+      .sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
     for (const f of sorted) {
-      out.push(`  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${describeFinding(f, (pa) => P(pa, 5))}`);
+      out.push(
+        `  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ` +
+          `${describeFinding(f, (pa) => P(pa, 5))}`,
+      );
     }
     out.push('');
   }

@@ -26,27 +26,58 @@ export function duration(s: number): string {
 export function readyToText(r: ReadyReport): string {
   const out: string[] = [];
   const m = r.mixing;
-  out.push(`Readiness  ${r.id}   (tank ${r.tank}, ${fixedSig(r.pressurePa / (101325 / 760), 5)} Torr, ${(r.temperatureK - 273.15).toFixed(1)} degC)`, '');
+  out.push(
+    `Readiness  ${r.id}   (tank ${r.tank}, ${fixedSig(r.pressurePa / (101325 / 760), 5)} ` +
+      `Torr, ${(r.temperatureK - 273.15).toFixed(1)} degC)`,
+    '',
+  );
   out.push('Mixing');
   if (m.pair) {
     const cm2 = (v?: number) => (v === undefined ? '-' : `${fixedSig(v * 1e4, 3)} cm2/s`);
-    out.push(`  slowest pair ${m.pair.a}-${m.pair.b}: D = ${cm2(m.pair.fullerM2s)} (Fuller), ${cm2(m.pair.chapmanEnskogM2s)} (Chapman-Enskog) at the tank pressure`);
-    out.push(`  by diffusion alone over the tank height ${fixedSig(r.heightM * 100, 3)} cm: ${duration(m.to1PercentS!)} to 1 %, ${duration(m.to01PercentS!)} to 0.1 % residual non-uniformity`);
+    out.push(
+      `  slowest pair ${m.pair.a}-${m.pair.b}: D = ${cm2(m.pair.fullerM2s)} (Fuller), ` +
+        `${cm2(m.pair.chapmanEnskogM2s)} (Chapman-Enskog) at the tank pressure`,
+    );
+    out.push(
+      `  by diffusion alone over the tank height ${fixedSig(r.heightM * 100, 3)} ` +
+        `cm: ${duration(m.to1PercentS!)} to 1 %, ${duration(m.to01PercentS!)} to ` +
+        `0.1 % residual non-uniformity`,
+    );
   }
   if (m.stirred) {
-    out.push('  the tank is stirred: its mixing is set by the stirrer flow and takes minutes (common practice: run it 15-30 min); the diffusion times above are the unstirred bound');
+    out.push(
+      '  the tank is stirred: its mixing is set by the stirrer flow and takes minutes ' +
+        '(common practice: run it 15-30 min); the diffusion times above are the unstirred bound',
+    );
   } else {
-    out.push('  not stirred: wait at least the 0.1 % time before the first use; a heavy fuel layered at the bottom mixes slower still');
+    out.push(
+      '  not stirred: wait at least the 0.1 % time before the first use; a heavy ' +
+        'fuel layered at the bottom mixes slower still',
+    );
   }
   const c = r.contamination;
   out.push('', 'Contamination');
-  out.push(`  residual gas from the base vacuum ${fixedSig(r.baseVacuumPa / (101325 / 760), 3)} Torr: ${fixedSig(c.residualFraction * 1e6, 3)} ppm of the batch (taken as air)`);
-  if (c.aboveAmbient) out.push('  the tank is above ambient pressure: air does not leak in (gas leaks out; the composition keeps, the pressure falls)');
+  out.push(
+    `  residual gas from the base vacuum ${fixedSig(r.baseVacuumPa / (101325 / 760), 3)} ` +
+      `Torr: ${fixedSig(c.residualFraction * 1e6, 3)} ppm of the batch (taken as air)`,
+  );
+  if (c.aboveAmbient)
+    out.push(
+      '  the tank is above ambient pressure: air does not leak in (gas leaks out; ' +
+        'the composition keeps, the pressure falls)',
+    );
   else {
-    out.push(`  air leaking in at ${fixedSig((r.leakRatePaPerS * 60) / (101325 / 760), 3)} Torr/min (under vacuum), scaled by the pressure difference: ${fixedSig(c.ingressPerDay * 1e6, 3)} ppm of the batch per day, ${fixedSig(c.o2PerDay * 1e6, 3)} ppm O2 per day`);
+    out.push(
+      `  air leaking in at ${fixedSig((r.leakRatePaPerS * 60) / (101325 / 760), 3)} ` +
+        `Torr/min (under vacuum), scaled by the pressure difference: ${fixedSig(c.ingressPerDay * 1e6, 3)} ` +
+        `ppm of the batch per day, ${fixedSig(c.o2PerDay * 1e6, 3)} ppm O2 per day`,
+    );
   }
   if (c.phiStart !== undefined && c.phiAfter !== undefined) {
-    out.push(`  phi ${c.phiStart.toFixed(5)} at the start, ${c.phiAfter.toFixed(5)} after ${r.days} days${c.phiDriftPerDay !== undefined ? ` (${(c.phiDriftPerDay * 100).toPrecision(2)} % per day)` : ''}`);
+    out.push(
+      `  phi ${c.phiStart.toFixed(5)} at the start, ${c.phiAfter.toFixed(5)} after ` +
+        `${r.days} days${c.phiDriftPerDay !== undefined ? ` (${(c.phiDriftPerDay * 100).toPrecision(2)} % per day)` : ''}`,
+    );
   }
   for (const n of r.notes) out.push(`note: ${n}`);
   return out.join('\n') + '\n';

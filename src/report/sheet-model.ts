@@ -4,7 +4,17 @@
  * before and after, one row per fill with the target in the gauge's own unit and its
  * band, blanks to write in, the findings and the caution, and the diagram.
  */
-import { blendLimits, describeFinding, diagramPoint, fillLabel, STANDING_CAUTION, type Finding, type MixingEstimate, type Plan, type Severity } from '../core/index.js';
+import {
+  blendLimits,
+  describeFinding,
+  diagramPoint,
+  fillLabel,
+  STANDING_CAUTION,
+  type Finding,
+  type MixingEstimate,
+  type Plan,
+  type Severity,
+} from '../core/index.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { RecipeFile } from '../io/recipe.js';
@@ -41,7 +51,12 @@ export interface SheetModel {
   readonly rows: readonly SheetRow[];
   readonly postChecks: readonly string[];
   readonly label: readonly string[];
-  readonly findings: readonly { readonly severity: Severity; readonly code: string; readonly where: string; readonly message: string }[];
+  readonly findings: readonly {
+    readonly severity: Severity;
+    readonly code: string;
+    readonly where: string;
+    readonly message: string;
+  }[];
   readonly caution: string;
   readonly diagram?: { readonly triangle: string; readonly detail: string; readonly legend: string };
   readonly hasDanger: boolean;
@@ -60,7 +75,11 @@ export interface SheetMeta {
   /** the diffusion estimate of `mixwright ready`, when the tank height is known */
   readonly mixing?: MixingEstimate;
   /** the barometric pressure the gauge-referenced targets assume, and whether it was given for today (--barometer) */
-  readonly barometer?: { readonly pressurePa: number; readonly uncertaintyPa: number; readonly given: boolean };
+  readonly barometer?: {
+    readonly pressurePa: number;
+    readonly uncertaintyPa: number;
+    readonly given: boolean;
+  };
 }
 
 /** a title for a design given on the command line (no recipe title): its gases, phi and dilution, tank and pressure */
@@ -70,7 +89,9 @@ export function designTitle(plan: Plan, unit: PressureUnit): string {
   const num = (v: number) => String(Number(v.toPrecision(3)));
   const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${plan.tank.id}`;
   if (d.phi !== undefined && Object.keys(d.groups.fuel).length && Object.keys(d.groups.oxidizer).length) {
-    const dil = Object.keys(d.groups.diluent).length ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}` : '';
+    const dil = Object.keys(d.groups.diluent).length
+      ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}`
+      : '';
     return `${names(d.groups.fuel)}/${names(d.groups.oxidizer)} phi ${num(d.phi)}${dil}, ${at}`;
   }
   const parts = Object.entries(d.composition)
@@ -97,9 +118,14 @@ function limitsNote(plan: Plan, lfl: number, ufl: number): string {
   const uflMoved = Math.abs(ufl - base.ufl) > 1e-9;
   if (!lflMoved && !uflMoved) return '';
   const why: string[] = [];
-  if (plan.temperatureK > 298.15) why.push(`widened for ${(plan.temperatureK - 273.15).toFixed(1)} degC (modified Burgess-Wheeler)`);
-  if (plan.final.pressurePa > 101325) why.push(`UFL raised for ${pressure(plan.final.pressurePa, 'Torr', 5)} (Zabetakis)`);
-  return ` Limits shown pressure/temperature-corrected: ${why.join('; ')}; listed values at 25 degC and 1 atm: LFL ${pct(base.lfl)}, UFL ${pct(base.ufl)}.`;
+  if (plan.temperatureK > 298.15)
+    why.push(`widened for ${(plan.temperatureK - 273.15).toFixed(1)} degC (modified Burgess-Wheeler)`);
+  if (plan.final.pressurePa > 101325)
+    why.push(`UFL raised for ${pressure(plan.final.pressurePa, 'Torr', 5)} (Zabetakis)`);
+  return (
+    ` Limits shown pressure/temperature-corrected: ${why.join('; ')}; listed ` +
+    `values at 25 degC and 1 atm: LFL ${pct(base.lfl)}, UFL ${pct(base.ufl)}.`
+  );
 }
 
 function barometerLines(plan: Plan, meta: SheetMeta): string[] | undefined {
@@ -114,18 +140,30 @@ function barometerLines(plan: Plan, meta: SheetMeta): string[] | undefined {
   const exTarget = fromPa(ex.gauge!.readingPa, gu);
   const today = b.pressurePa - 10 * (101325 / 760);
   return [
-    `The gauge-referenced targets (fill ${refSteps.map((s) => s.index).join(', ')} on ${[...new Set(refSteps.map((s) => s.gauge!.id))].join(', ')}) assume a barometric pressure of ${pressure(b.pressurePa, 'Torr', 5)} (${b.given ? 'given for this sheet' : 'the lab profile value, not today\'s'}; u ${pressure(b.uncertaintyPa, 'Torr', 2)}).`,
-    `Read the barometer before the first fill: ________ Torr. Target to stop at today = printed target + (${pressure(b.pressurePa, 'Torr', 5)} - today's barometer), in the gauge's unit (1 Torr = ${fixedSig(perTorr, 5)} ${gu}).`,
-    `Example: fill ${ex.index} printed ${exTarget.toFixed(dec)} ${gu}; with today's barometer 10 Torr lower (${pressure(today, 'Torr', 5)}) stop at ${(exTarget + 10 * perTorr).toFixed(dec)} ${gu}. Or re-print the sheet with --barometer.`,
+    `The gauge-referenced targets (fill ${refSteps.map((s) => s.index).join(', ')} ` +
+      `on ${[...new Set(refSteps.map((s) => s.gauge!.id))].join(', ')}) assume ` +
+      `a barometric pressure of ${pressure(b.pressurePa, 'Torr', 5)} (${b.given ? 'given for this sheet' : "the lab profile value, not today's"}; ` +
+      `u ${pressure(b.uncertaintyPa, 'Torr', 2)}).`,
+    `Read the barometer before the first fill: ________ Torr. Target to stop ` +
+      `at today = printed target + (${pressure(b.pressurePa, 'Torr', 5)} - today's ` +
+      `barometer), in the gauge's unit (1 Torr = ${fixedSig(perTorr, 5)} ${gu}).`,
+    `Example: fill ${ex.index} printed ${exTarget.toFixed(dec)} ${gu}; with today's ` +
+      `barometer 10 Torr lower (${pressure(today, 'Torr', 5)}) stop at ${(exTarget + 10 * perTorr).toFixed(dec)} ` +
+      `${gu}. Or re-print the sheet with --barometer.`,
   ];
 }
 
 const SEVERITY_ORDER: Severity[] = ['danger', 'warning', 'note'];
 
 function mixingLine(m?: MixingEstimate): string {
-  if (!m?.pair || m.to1PercentS === undefined || m.to01PercentS === undefined) return 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
-  const est = `diffusion alone: about ${duration(m.to1PercentS)} to 1 %, ${duration(m.to01PercentS)} to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b})`;
-  return m.stirred ? `Mixing: stirrer on ________ min (${est} without it)` : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;
+  if (!m?.pair || m.to1PercentS === undefined || m.to01PercentS === undefined)
+    return 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
+  const est =
+    `diffusion alone: about ${duration(m.to1PercentS)} to 1 %, ${duration(m.to01PercentS)} ` +
+    `to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b})`;
+  return m.stirred
+    ? `Mixing: stirrer on ________ min (${est} without it)`
+    : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;
 }
 
 export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
@@ -133,12 +171,32 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   const d = plan.design;
   const design: [string, string][] = [
     ['phi', d.phi === undefined ? 'n/a' : d.phi.toFixed(4)],
-    ['fuel', Object.entries(d.groups.fuel).map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`)).join(', ') || '-'],
-    ['oxidizer', Object.entries(d.groups.oxidizer).map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`)).join(', ') || '-'],
+    [
+      'fuel',
+      Object.entries(d.groups.fuel)
+        .map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`))
+        .join(', ') || '-',
+    ],
+    [
+      'oxidizer',
+      Object.entries(d.groups.oxidizer)
+        .map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`))
+        .join(', ') || '-',
+    ],
     ['diluent', `${Object.keys(d.groups.diluent).join(', ') || '-'} (${fixedSig(d.diluentFraction, 5)})`],
-    ['tank', `${plan.tank.id}, ${fixedSig(plan.tank.volumeM3 * 1000, 4)} L${plan.tank.ratedPressurePa ? `, rated ${pressure(plan.tank.ratedPressurePa, meta.unit, 4)}` : ', rating not known'}`],
-    ['final', `${P(plan.final.pressurePa)} absolute at ${(plan.temperatureK - 273.15).toFixed(1)} degC (Z ${plan.final.compressibility.toFixed(5)}, ${fixedSig(plan.final.amountMol, 5)} mol)`],
-    ['order', `${plan.steps.map((s) => s.species).join(' -> ')}${meta.orderRecommended ? ' (recommended)' : ''}`],
+    [
+      'tank',
+      `${plan.tank.id}, ${fixedSig(plan.tank.volumeM3 * 1000, 4)} L${plan.tank.ratedPressurePa ? `, rated ${pressure(plan.tank.ratedPressurePa, meta.unit, 4)}` : ', rating not known'}`,
+    ],
+    [
+      'final',
+      `${P(plan.final.pressurePa)} absolute at ${(plan.temperatureK - 273.15).toFixed(1)} ` +
+        `degC (Z ${plan.final.compressibility.toFixed(5)}, ${fixedSig(plan.final.amountMol, 5)} mol)`,
+    ],
+    [
+      'order',
+      `${plan.steps.map((s) => s.species).join(' -> ')}${meta.orderRecommended ? ' (recommended)' : ''}`,
+    ],
     ['tolerance', `each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} %`],
   ];
   const composition: [string, string][] = Object.entries(d.composition)
@@ -146,13 +204,16 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     .map(([k, v]) => [k, fixedSig(v, 6)]);
   const gaugeIds = [...new Set(plan.steps.map((s) => s.gauge?.id).filter(Boolean))].join(', ');
   const baroCheck = plan.steps.some((s) => s.gauge?.reference === 'gauge')
-    ? 'Barometer read before the first fill: ________ Torr (the gauge-referenced targets assume the value under the fills; correct them as said there)'
+    ? 'Barometer read before the first fill: ________ Torr (the gauge-referenced ' +
+      'targets assume the value under the fills; correct them as said there)'
     : 'Barometer: ________ (every target here is on an absolute gauge; the value is for the record)';
   const common = [
     `Gauge zeros checked (${gaugeIds}), heads at temperature`,
     baroCheck,
-    'Valve line-up checked: only the cylinder of the current fill open to the manifold; vent and pump valves as the procedure says',
-    'Before each fill: purge/evacuate the line, fill it from the cylinder above the tank pressure, then open the tank valve slowly',
+    'Valve line-up checked: only the cylinder of the current fill open to the ' +
+      'manifold; vent and pump valves as the procedure says',
+    'Before each fill: purge/evacuate the line, fill it from the cylinder above ' +
+      'the tank pressure, then open the tank valve slowly',
     'Cylinders secured; regulators and lines cleaned for the gas they carry (oxygen service for oxidizers)',
   ];
   const start = plan.initial;
@@ -160,12 +221,18 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   // a top-up: the tank holds gas, so no leak-up under vacuum; the starting pressure is read, logged and confirmed first
   const preChecks = start
     ? [
-        'Gas already in the tank (top-up): do NOT evacuate the tank. Leak-check the manifold and line up to the closed tank valve: rise ________ per ________ min (limit from your procedure)',
+        'Gas already in the tank (top-up): do NOT evacuate the tank. Leak-check the ' +
+          'manifold and line up to the closed tank valve: rise ________ per ________ ' +
+          'min (limit from your procedure)',
         'Line evacuated before the tank valve is opened; line vacuum: ________',
-        `Starting pressure, read before any fill on ${first.gauge?.id ?? 'a gauge that reads it'}: ________ at ________ degC, time ______, initials ____. The targets assume ${P(start.pressurePa)} absolute of ${Object.entries(start.composition)
+        `Starting pressure, read before any fill on ${first.gauge?.id ?? 'a gauge that reads it'}: ________ at ________ degC, time ______, initials ____. The targets assume ${P(start.pressurePa)} absolute of ${Object.entries(
+          start.composition,
+        )
           .sort((a, b) => b[1] - a[1])
           .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
-          .join(', ')}; if the reading differs by more than the band of fill 1 (+-${pressure(first.bandPa, meta.unit, 2)}), stop and re-plan from the reading (recipe in_tank.pressure)`,
+          .join(
+            ', ',
+          )}; if the reading differs by more than the band of fill 1 (+-${pressure(first.bandPa, meta.unit, 2)}), stop and re-plan from the reading (recipe in_tank.pressure)`,
         ...common,
       ]
     : [
@@ -213,20 +280,33 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
       .sort((a, b) => b[1] - a[1])
       .map(([k, v]) => `${k} ${(v * 100).toPrecision(4)} %`)
       .join(', ')}`,
-    `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${P(plan.final.pressurePa)} abs; filled ________ by ________`,
+    `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${P(plan.final.pressurePa)} ` +
+      `abs; filled ________ by ________`,
     're-check verdict: pass / pass not proven / FAIL (circle one) ________',
-    plan.findings.some((f) => f.code === 'flammable-mixture') ? 'FLAMMABLE GAS MIXTURE' : 'check the findings before use',
+    plan.findings.some((f) => f.code === 'flammable-mixture')
+      ? 'FLAMMABLE GAS MIXTURE'
+      : 'check the findings before use',
   ];
   const stepOf = (f: Finding) => (f.step ? `fill ${f.step}` : 'batch');
   const findings = [...plan.findings]
     .filter((f) => f.code !== 'isolate-gauge')
     .sort((a, b) => SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity))
-    .map((f) => ({ severity: f.severity, code: f.code, where: stepOf(f), message: describeFinding(f, (pa) => pressure(pa, meta.unit, 5)) }));
+    .map((f) => ({
+      severity: f.severity,
+      code: f.code,
+      where: stepOf(f),
+      message: describeFinding(f, (pa) => pressure(pa, meta.unit, 5)),
+    }));
   const dd = diagramData(plan);
   const diagram = dd && {
     triangle: diagramSvg(dd, 'fuel / O2 / inert diagram with the flammable zone and the fill path'),
     detail: detailSvg(dd, 'detail near the inert corner'),
-    legend: `Hatched: flammable zone of ${Object.keys(d.groups.fuel).join('/') || 'the fuel'} (LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} % in air, inerts as N2-equivalent).${limitsNote(plan, dd.lfl, dd.ufl)} Dashed: air line; dotted: stoichiometric line. Numbered points: the tank after each fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
+    legend:
+      `Hatched: flammable zone of ${Object.keys(d.groups.fuel).join('/') || 'the fuel'} ` +
+      `(LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} ` +
+      `% in air, inerts as N2-equivalent).${limitsNote(plan, dd.lfl, dd.ufl)} Dashed: ` +
+      `air line; dotted: stoichiometric line. Numbered points: the tank after each ` +
+      `fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
   };
   return {
     title: meta.recipe.title ?? (inline ? designTitle(plan, meta.unit) : meta.recipe.id),

@@ -2,7 +2,8 @@
 import type { SheetModel } from './sheet-model.js';
 import { padTable } from './format.js';
 
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+const esc = (s: string) =>
+  s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 const BOX = '&#9744;';
 
 const CSS = (paper: 'a4' | 'letter') => `
@@ -45,18 +46,32 @@ footer { font-size: 8pt; margin-top: 2mm; }
 `;
 
 export function sheetToHtml(m: SheetModel): string {
-  const kv = (rows: readonly [string, string][]) => `<table class="kv">${rows.map(([k, v]) => `<tr><td>${esc(k)}</td><td>${esc(v)}</td></tr>`).join('')}</table>`;
+  const kv = (rows: readonly [string, string][]) =>
+    `<table class="kv">${rows.map(([k, v]) => `<tr><td>${esc(k)}</td><td>${esc(v)}</td></tr>`).join('')}</table>`;
   const steps = m.rows
     .map((r) => {
-      const before = r.before.length ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>` : '';
-      return `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`;
+      const before = r.before.length
+        ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
+        : '';
+      return (
+        `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td ` +
+        `class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td ` +
+        `class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`
+      );
     })
     .join('\n');
   const findings = m.findings.length
-    ? `<ul class="findings">${m.findings.map((f) => `<li><span class="sev">${esc(f.severity)}</span> ${esc(f.code)} (${esc(f.where)}): ${esc(f.message)}</li>`).join('')}</ul>`
+    ? `<ul class="findings">${m.findings
+        .map(
+          (f) =>
+            `<li><span class="sev">${esc(f.severity)}</span> ${esc(f.code)} (${esc(f.where)}): ` +
+            `${esc(f.message)}</li>`,
+        )
+        .join('')}</ul>`
     : '<p>No findings.</p>';
   const figures = m.diagram
-    ? `<section class="figures"><h2>Fuel / O2 / inert diagram</h2><div class="cols"><div>${m.diagram.triangle}</div><div>${m.diagram.detail}</div></div><p class="legend">${esc(m.diagram.legend)}</p></section>`
+    ? `<section class="figures"><h2>Fuel / O2 / inert diagram</h2><div class="cols"><div>${m.diagram.triangle}</div><div>${m.diagram.detail}</div></div><p ` +
+      `class="legend">${esc(m.diagram.legend)}</p></section>`
     : '';
   return `<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>Fill sheet ${esc(m.batchId)}</title><style>${CSS(m.paper)}</style></head>
@@ -64,7 +79,12 @@ export function sheetToHtml(m: SheetModel): string {
 <h1>Fill sheet &mdash; ${esc(m.title)}</h1>
 <div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.labName)}</div></div>
 <div class="meta"><div class="field">Date:</div><div class="field">Operator:</div><div class="field">Checked by:</div></div>
-${m.hasDanger ? '<div class="danger">DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.</div>' : ''}
+${
+  m.hasDanger
+    ? '<div class="danger">DANGER findings stand (see below). Do not fill until ' +
+      'each is resolved or formally accepted.</div>'
+    : ''
+}
 <div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole fraction)</h2>${kv(m.composition)}</div></div>
 <section class="block"><h2>Before filling</h2>
 <ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul></section>
@@ -89,24 +109,62 @@ ${figures}
 
 export function sheetToMarkdown(m: SheetModel): string {
   const out: string[] = [];
-  out.push(`# Fill sheet — ${m.title}`, '', `Batch **${m.batchId}** · Lab: ${m.labName}`, '', 'Date: ________  Operator: ________  Checked by: ________', '');
-  if (m.hasDanger) out.push('> **DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.**', '');
+  out.push(
+    `# Fill sheet — ${m.title}`,
+    '',
+    `Batch **${m.batchId}** · Lab: ${m.labName}`,
+    '',
+    'Date: ________  Operator: ________  Checked by: ________',
+    '',
+  );
+  if (m.hasDanger)
+    out.push(
+      '> **DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.**',
+      '',
+    );
   out.push('## Design', '', '| | |', '|---|---|', ...m.design.map(([k, v]) => `| ${k} | ${v} |`), '');
-  out.push('## Composition (mole fraction)', '', '| species | x |', '|---|---:|', ...m.composition.map(([k, v]) => `| ${k} | ${v} |`), '');
+  out.push(
+    '## Composition (mole fraction)',
+    '',
+    '| species | x |',
+    '|---|---:|',
+    ...m.composition.map(([k, v]) => `| ${k} | ${v} |`),
+    '',
+  );
   out.push('## Before filling', '', ...m.preChecks.map((c) => `- [ ] ${c}`), '');
-  out.push('## Fills (target = reading to stop at, on that gauge)', '', '| # | gas / cylinder | gauge | target | band | actual reading | time | init. | done |', '|---:|---|---|---:|---|---|---|---|---|');
+  out.push(
+    '## Fills (target = reading to stop at, on that gauge)',
+    '',
+    '| # | gas / cylinder | gauge | target | band | actual reading | time | init. | done |',
+    '|---:|---|---|---:|---|---|---|---|---|',
+  );
   for (const r of m.rows) {
     for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
-    out.push(`| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} | **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ').replace('+-', '±')} | | | | [ ] |`);
+    out.push(
+      `| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
+        `| **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ').replace('+-', '±')} ` +
+        `| | | | [ ] |`,
+    );
   }
   if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
   out.push('', '## After filling', '', ...m.postChecks.map((c) => `- [ ] ${c}`), '');
   out.push('## Tank label', '', '```', ...m.label, '```', '');
   out.push('## Findings', '');
-  if (m.findings.length) out.push(...m.findings.map((f) => `- **${f.severity}** ${f.code} (${f.where}): ${f.message}`));
+  if (m.findings.length)
+    out.push(...m.findings.map((f) => `- **${f.severity}** ${f.code} (${f.where}): ${f.message}`));
   else out.push('No findings.');
   out.push('', `**Caution.** ${m.caution}`, '');
-  if (m.diagram) out.push('## Fuel / O2 / inert diagram', '', m.diagram.triangle, '', m.diagram.detail, '', m.diagram.legend, '');
+  if (m.diagram)
+    out.push(
+      '## Fuel / O2 / inert diagram',
+      '',
+      m.diagram.triangle,
+      '',
+      m.diagram.detail,
+      '',
+      m.diagram.legend,
+      '',
+    );
   out.push(`*mixwright ${m.version} · recipe ${m.recipeId}*`, '');
   return out.join('\n');
 }
@@ -114,16 +172,47 @@ export function sheetToMarkdown(m: SheetModel): string {
 export function sheetToText(m: SheetModel): string {
   const out: string[] = [];
   const rule = '='.repeat(78);
-  out.push(rule, `FILL SHEET  ${m.title}`, `Batch ${m.batchId}    Lab: ${m.labName}`, '', 'Date: ____________   Operator: ____________   Checked by: ____________', rule, '');
-  if (m.hasDanger) out.push('*** DANGER findings stand (see below). Do not fill until each is resolved or formally accepted. ***', '');
+  out.push(
+    rule,
+    `FILL SHEET  ${m.title}`,
+    `Batch ${m.batchId}    Lab: ${m.labName}`,
+    '',
+    'Date: ____________   Operator: ____________   Checked by: ____________',
+    rule,
+    '',
+  );
+  if (m.hasDanger)
+    out.push(
+      '*** DANGER findings stand (see below). Do not fill until each is resolved or formally accepted. ***',
+      '',
+    );
   out.push('DESIGN');
   for (const [k, v] of m.design) out.push(`  ${k.padEnd(10)} ${v}`);
-  out.push('', 'COMPOSITION (mole fraction)', `  ${m.composition.map(([k, v]) => `${k} ${v}`).join('   ')}`, '');
+  out.push(
+    '',
+    'COMPOSITION (mole fraction)',
+    `  ${m.composition.map(([k, v]) => `${k} ${v}`).join('   ')}`,
+    '',
+  );
   out.push('BEFORE FILLING');
   for (const c of m.preChecks) out.push(`  [ ] ${c}`);
   out.push('', 'FILLS (target = reading to stop at, on that gauge)');
-  const rows: string[][] = [['#', 'gas', 'cylinder', 'gauge', 'target', 'band', 'actual', 'time', 'init', 'done']];
-  for (const r of m.rows) rows.push([String(r.n), r.fill, r.source, r.gauge + (r.reference === 'gauge' ? ' (g)' : ''), `${r.target} ${r.unit}`, r.band.replace(' - ', '-'), '__________', '_____', '____', '[ ]']);
+  const rows: string[][] = [
+    ['#', 'gas', 'cylinder', 'gauge', 'target', 'band', 'actual', 'time', 'init', 'done'],
+  ];
+  for (const r of m.rows)
+    rows.push([
+      String(r.n),
+      r.fill,
+      r.source,
+      r.gauge + (r.reference === 'gauge' ? ' (g)' : ''),
+      `${r.target} ${r.unit}`,
+      r.band.replace(' - ', '-'),
+      '__________',
+      '_____',
+      '____',
+      '[ ]',
+    ]);
   const table = padTable(rows, [true, false, false, false, true, true, false, false, false, false]);
   out.push(`  ${table[0]}`);
   m.rows.forEach((r, i) => {
@@ -135,7 +224,9 @@ export function sheetToText(m: SheetModel): string {
   for (const c of m.postChecks) out.push(`  [ ] ${c}`);
   out.push('', 'TANK LABEL', ...m.label.map((l) => `  | ${l}`), '');
   out.push('FINDINGS');
-  if (m.findings.length) for (const f of m.findings) out.push(`  ${f.severity.toUpperCase().padEnd(7)} ${f.code} (${f.where}): ${f.message}`);
+  if (m.findings.length)
+    for (const f of m.findings)
+      out.push(`  ${f.severity.toUpperCase().padEnd(7)} ${f.code} (${f.where}): ${f.message}`);
   else out.push('  none');
   out.push('', `CAUTION: ${m.caution}`, '');
   if (m.diagram) out.push(`DIAGRAM: see the HTML or PDF sheet. ${m.diagram.legend}`, '');

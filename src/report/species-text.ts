@@ -1,5 +1,19 @@
 /** mixwright species: the data browser, every value with its unit and source. */
-import { blendLimits, DETONATION_LIMITS, FUEL_SAFETY, getSource, getSpecies, lookup, referenceCrossPartners, speciesKeys, VIRIAL_TABLE_RANGE_K, speciesProperties, speciesRole, virialModel, type PropertyRow } from '../core/index.js';
+import {
+  blendLimits,
+  DETONATION_LIMITS,
+  FUEL_SAFETY,
+  getSource,
+  getSpecies,
+  lookup,
+  referenceCrossPartners,
+  speciesKeys,
+  VIRIAL_TABLE_RANGE_K,
+  speciesProperties,
+  speciesRole,
+  virialModel,
+  type PropertyRow,
+} from '../core/index.js';
 import { fixedSig, padTable } from './format.js';
 
 /** the units the tables are usually read in (SI inside) */
@@ -46,14 +60,27 @@ export function speciesList(): string {
   for (const key of speciesKeys()) {
     const sp = getSpecies(key);
     const m = virialModel([key], 298.15).entries[0];
-    rows.push([key, sp.name, speciesRole(key), (lookup('M', key).value * 1000).toFixed(3), fixedSig(lookup('Tc', key).value, 6), m.method]);
+    rows.push([
+      key,
+      sp.name,
+      speciesRole(key),
+      (lookup('M', key).value * 1000).toFixed(3),
+      fixedSig(lookup('Tc', key).value, 6),
+      m.method,
+    ]);
   }
-  return padTable(rows, [false, false, false, true, true, false]).join('\n') + '\n\n`mixwright species NAME` shows every property of one species with its source.\n';
+  return (
+    padTable(rows, [false, false, false, true, true, false]).join('\n') +
+    '\n\n`mixwright species NAME` shows every property of one species with its source.\n'
+  );
 }
 
 export function speciesDetail(name: string, temperatureK: number): string {
   const sp = getSpecies(name);
-  const out: string[] = [`${sp.key}  ${sp.name}${sp.aliases.length ? `  (also: ${sp.aliases.join(', ')})` : ''}`, ''];
+  const out: string[] = [
+    `${sp.key}  ${sp.name}${sp.aliases.length ? `  (also: ${sp.aliases.join(', ')})` : ''}`,
+    '',
+  ];
   const rows: string[][] = [['property', 'value', 'unit', 'source', 'quality']];
   const cited = new Set<string>();
   for (const p of speciesProperties(sp.key, temperatureK)) {
@@ -65,38 +92,75 @@ export function speciesDetail(name: string, temperatureK: number): string {
   out.push(...padTable(rows, [false, true, false, false, false]));
   // fire data that can raise a warning or danger: say which is still from memory or estimated
   const gating = new Set(['lfl', 'ufl', 'uflO2', 'loc', 'ait']);
-  const recalled = speciesProperties(sp.key, temperatureK).filter((p) => gating.has(p.id) && p.source.quality === 'from-memory');
+  const recalled = speciesProperties(sp.key, temperatureK).filter(
+    (p) => gating.has(p.id) && p.source.quality === 'from-memory',
+  );
   const estimated = FUEL_SAFETY.has(sp.key) ? blendLimits({ [sp.key]: 1 }, 298.15, 101325).estimated : [];
   if (recalled.length || estimated.length) {
     out.push('');
     if (recalled.length) {
-      const list = recalled.map((p) => `${p.label} ${display(p).value} ${display(p).unit} (${p.source.key})`).join('; ');
-      out.push(`Still from memory (not read in a stored copy of the source; check it before relying on it): ${list}. The safety review uses these values.`);
+      const list = recalled
+        .map((p) => `${p.label} ${display(p).value} ${display(p).unit} (${p.source.key})`)
+        .join('; ');
+      out.push(
+        `Still from memory (not read in a stored copy of the source; check it before ` +
+          `relying on it): ${list}. The safety review uses these values.`,
+      );
     }
-    if (estimated.length) out.push(`Estimated, no published value on file: ${estimated.join('; ')}. The safety review uses a conservative estimate and says so.`);
+    if (estimated.length)
+      out.push(
+        `Estimated, no published value on file: ${estimated.join('; ')}. The safety ` +
+          `review uses a conservative estimate and says so.`,
+      );
   }
   // detonation limits gate the detonable-state finding: list them with their source and quality
   const det = DETONATION_LIMITS.filter((r) => r.fuel === sp.key);
   if (FUEL_SAFETY.has(sp.key)) {
     out.push('');
     if (det.length) {
-      const recalledDet = det.filter((r) => getSource(r.low.source).quality === 'from-memory' || getSource(r.high.source).quality === 'from-memory');
-      out.push(`Detonation limits: ${det.map((r) => `in ${r.oxidizer} ${(r.low.value * 100).toPrecision(3)}-${(r.high.value * 100).toPrecision(3)} vol % (${r.low.source})`).join('; ')}.${recalledDet.length ? ' These are from memory (check before relying on them); the safety review uses them.' : ''}`);
+      const recalledDet = det.filter(
+        (r) =>
+          getSource(r.low.source).quality === 'from-memory' ||
+          getSource(r.high.source).quality === 'from-memory',
+      );
+      out.push(
+        `Detonation limits: ${det
+          .map(
+            (r) =>
+              `in ${r.oxidizer} ${(r.low.value * 100).toPrecision(3)}-${(r.high.value * 100).toPrecision(3)} ` +
+              `vol % (${r.low.source})`,
+          )
+          .join(
+            '; ',
+          )}.${recalledDet.length ? ' These are from memory (check before relying on them); the safety review uses them.' : ''}`,
+      );
       for (const r of det) {
         cited.add(r.low.source);
         cited.add(r.high.source);
       }
     }
-    if (!det.some((r) => r.oxidizer === 'air')) out.push('No detonation limits in air on file: a flammable state with an oxidizer about as rich in O2 as air, or with less than 50 % N2-equivalent inert, counts as detonable (our conservative rule).');
+    if (!det.some((r) => r.oxidizer === 'air'))
+      out.push(
+        'No detonation limits in air on file: a flammable state with an oxidizer ' +
+          'about as rich in O2 as air, or with less than 50 % N2-equivalent inert, ' +
+          'counts as detonable (our conservative rule).',
+      );
   }
   const partners = referenceCrossPartners(sp.key);
   out.push('');
   if (partners.length) {
     const names = partners.map((p) => `${p.species}${p.withC ? '' : ' (B only)'}`).join(', ');
-    out.push(`Cross virial coefficients B and C from reference mixture models (coolprop-8-mixture, ${VIRIAL_TABLE_RANGE_K.min}-${VIRIAL_TABLE_RANGE_K.max} K) with: ${names}. With every other species: Prausnitz combining rules (prausnitz-1999).`);
+    out.push(
+      `Cross virial coefficients B and C from reference mixture models (coolprop-8-mixture, ` +
+        `${VIRIAL_TABLE_RANGE_K.min}-${VIRIAL_TABLE_RANGE_K.max} K) with: ${names}. ` +
+        `With every other species: Prausnitz combining rules (prausnitz-1999).`,
+    );
     cited.add('coolprop-8-mixture');
   } else {
-    out.push('Cross virial coefficients with every other species: Prausnitz combining rules (prausnitz-1999); no reference mixture model qualifies for this species.');
+    out.push(
+      'Cross virial coefficients with every other species: Prausnitz combining ' +
+        'rules (prausnitz-1999); no reference mixture model qualifies for this species.',
+    );
   }
   cited.add('prausnitz-1999');
   out.push('', 'Sources');

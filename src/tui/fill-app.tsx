@@ -2,7 +2,14 @@
 import { useEffect, useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
-import { fillReducer, shownPa, type CompositionJudgement, type FillAction, type FillState, type FillStep } from './fill-state.js';
+import {
+  fillReducer,
+  shownPa,
+  type CompositionJudgement,
+  type FillAction,
+  type FillState,
+  type FillStep,
+} from './fill-state.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
@@ -25,18 +32,37 @@ export interface FillAppProps {
   readonly onReport?: (report: CheckReport) => void;
 }
 
-export function toActions(input: string, key: { return?: boolean; tab?: boolean; backspace?: boolean; delete?: boolean; escape?: boolean }, now: string): FillAction[] {
+export function toActions(
+  input: string,
+  key: { return?: boolean; tab?: boolean; backspace?: boolean; delete?: boolean; escape?: boolean },
+  now: string,
+): FillAction[] {
   if (key.return) return [{ type: 'enter', now }];
   if (key.tab) return [{ type: 'tab' }];
   if (key.escape) return [{ type: 'escape' }];
   if (key.backspace || key.delete) return [{ type: 'backspace' }];
-  return splitChunk(input).map((t): FillAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter', now } : { type: t.kind }));
+  return splitChunk(input).map((t): FillAction =>
+    t.kind === 'text'
+      ? { type: 'char', text: t.text }
+      : t.kind === 'enter'
+        ? { type: 'enter', now }
+        : { type: t.kind },
+  );
 }
 
-const unitOf = (step: FillStep): PressureUnit => (step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr');
+const unitOf = (step: FillStep): PressureUnit =>
+  step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr';
 
 /** the two input fields of a reading screen, the focused one marked and with a cursor */
-function ReadingFields({ state, reading, temperature }: { state: FillState; reading: string; temperature: string }) {
+function ReadingFields({
+  state,
+  reading,
+  temperature,
+}: {
+  state: FillState;
+  reading: string;
+  temperature: string;
+}) {
   return (
     <>
       <Text>
@@ -63,16 +89,28 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
       {j.deviations.map((d) => (
         <Text key={d.species}>
-          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  design ${fixedSig(d.design, 5).padStart(10)}  ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} % rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'ok' : 'OUT'}`}
+          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  design ${fixedSig(d.design, 5).padStart(10)} ` +
+            ` ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} ` +
+            `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'ok' : 'OUT'}`}
         </Text>
       ))}
     </Box>
   );
 }
 
-export function FillApp({ initial, write, logFile, now = () => new Date().toISOString(), recheck, onInterrupt, onReport }: FillAppProps) {
+export function FillApp({
+  initial,
+  write,
+  logFile,
+  now = () => new Date().toISOString(),
+  recheck,
+  onInterrupt,
+  onReport,
+}: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
-  const [check, setCheck] = useState<{ report: CheckReport; log: ParsedLog } | { error: string } | undefined>();
+  const [check, setCheck] = useState<
+    { report: CheckReport; log: ParsedLog } | { error: string } | undefined
+  >();
   const app = useApp();
   const phase = state.phase;
   useEffect(() => {
@@ -110,7 +148,8 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
       for (const e of next.effects) {
         try {
           const w = write(e);
-          if (w && (e.kind === 'reading' || e.kind === 'correction')) lines.push({ step: e.step, line: w.line });
+          if (w && (e.kind === 'reading' || e.kind === 'correction'))
+            lines.push({ step: e.step, line: w.line });
         } catch (err) {
           failed = (err as Error).message;
           failedKind = e.kind;
@@ -118,11 +157,20 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         }
       }
       if (failed !== undefined && failedKind !== 'close') {
-        s = { ...s, error: `could not write the log ${logFile}: ${failed}; the ${failedKind} was NOT recorded` };
+        s = {
+          ...s,
+          error: `could not write the log ${logFile}: ${failed}; the ${failedKind} was NOT recorded`,
+        };
         break;
       }
       for (const l of lines) next = fillReducer(next, { type: 'logged', ...l });
-      s = failed !== undefined ? { ...next, error: `the readings are logged, but the closing line could not be written to ${logFile}: ${failed}` } : next;
+      s =
+        failed !== undefined
+          ? {
+              ...next,
+              error: `the readings are logged, but the closing line could not be written to ${logFile}: ${failed}`,
+            }
+          : next;
     }
     setState(s);
   });
@@ -136,14 +184,21 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
   );
   const errorLine = state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
   if (state.phase === 'barometer') {
-    const gauges = [...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id))];
+    const gauges = [
+      ...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id)),
+    ];
     return (
       <Box flexDirection="column">
         <Text bold>mixwright fill {h.id} - barometric pressure today</Text>
         <Text wrap="wrap">
-          {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank pressure is that reading plus today&apos;s barometric pressure. The plan assumed {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
+          {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
+          pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
+          {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
         </Text>
-        <Text wrap="wrap">Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1 hPa AB), then Enter. It is logged.</Text>
+        <Text wrap="wrap">
+          Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or
+          1003.1 hPa AB), then Enter. It is logged.
+        </Text>
         {prompt}
         {errorLine}
       </Box>
@@ -160,7 +215,10 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
           </Text>
         ))}
         <Text> </Text>
-        <Text wrap="wrap">The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type: accept INITIALS, then Enter. Ctrl-C stops.</Text>
+        <Text wrap="wrap">
+          The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
+          accept INITIALS, then Enter. Ctrl-C stops.
+        </Text>
         {prompt}
         {errorLine}
       </Box>
@@ -173,14 +231,23 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
     return (
       <Box flexDirection="column">
         <Text bold>
-          mixwright fill {h.id} - {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
+          mixwright fill {h.id} -{' '}
+          {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
         </Text>
         {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
         <Text> </Text>
         {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
         {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
-        {check && 'error' in check ? <Text wrap="wrap">! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`</Text> : null}
-        {check && 'report' in check ? <Text bold>{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}${check.report.caveats.length ? ' - BUT SEE BELOW' : ''}`}</Text> : null}
+        {check && 'error' in check ? (
+          <Text wrap="wrap">
+            ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
+          </Text>
+        ) : null}
+        {check && 'report' in check ? (
+          <Text
+            bold
+          >{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}${check.report.caveats.length ? ' - BUT SEE BELOW' : ''}`}</Text>
+        ) : null}
         {caveats.map((c, i) => (
           <Text key={i} bold wrap="wrap">
             ! {c}
@@ -201,7 +268,9 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
             ))}
           </Box>
         ) : null}
-        <Text>Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.</Text>
+        <Text>
+          Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.
+        </Text>
       </Box>
     );
   }
@@ -222,14 +291,23 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
             STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
           </Text>
           <Text>
-            band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
+            band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on{' '}
+            {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
           </Text>
         </Box>
         {state.judgement ? <JudgementView j={state.judgement} /> : null}
-        <Text wrap="wrap">Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw the reading)   close INITIALS (close the batch below the target; the re-check judges it)</Text>
-        <ReadingFields state={state} reading={`new reading [${lu}] and initials`} temperature="tank temperature" />
+        <Text wrap="wrap">
+          Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
+          AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
+          (withdraw the reading) close INITIALS (close the batch below the target; the re-check judges it)
+        </Text>
+        <ReadingFields
+          state={state}
+          reading={`new reading [${lu}] and initials`}
+          temperature="tank temperature"
+        />
         {errorLine}
-        <Text>Enter: log   Tab: temp   Ctrl-C: stop (the batch stays open; resume it)</Text>
+        <Text>Enter: log Tab: temp Ctrl-C: stop (the batch stays open; resume it)</Text>
       </Box>
     );
   }
@@ -246,10 +324,18 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
     return (
       <Box flexDirection="column">
         <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
-        <Text wrap="wrap">The plan assumed {absText(state.start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what you read.</Text>
-        <ReadingFields state={state} reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`} temperature="tank temperature" />
+        <Text wrap="wrap">
+          The plan assumed {absText(state.start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now,
+          before any fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are
+          re-computed from what you read.
+        </Text>
+        <ReadingFields
+          state={state}
+          reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`}
+          temperature="tank temperature"
+        />
         {errorLine}
-        <Text>Enter: log the starting pressure   Tab: temperature   Ctrl-C: stop</Text>
+        <Text>Enter: log the starting pressure Tab: temperature Ctrl-C: stop</Text>
       </Box>
     );
   }
@@ -260,23 +346,36 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
     return (
       <Box flexDirection="column">
         <Text bold>
-          mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on {cs.gauge?.id ?? 'no gauge'})
+          mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on{' '}
+          {cs.gauge?.id ?? 'no gauge'})
         </Text>
         <Text>
-          logged: {d.text} at {((d.temperatureK - 273.15).toFixed(1))} degC; the original stays in the log, the correction is added with your initials ({c.by}) and reason
+          logged: {d.text} at {(d.temperatureK - 273.15).toFixed(1)} degC; the original stays in the log, the
+          correction is added with your initials ({c.by}) and reason
         </Text>
         {c.pending ? (
           <>
-            <Text>new: {c.pending.done.text} at {(c.pending.done.temperatureK - 273.15).toFixed(1)} degC</Text>
-            <Text>reason: {state.input}<Text inverse> </Text></Text>
+            <Text>
+              new: {c.pending.done.text} at {(c.pending.done.temperatureK - 273.15).toFixed(1)} degC
+            </Text>
+            <Text>
+              reason: {state.input}
+              <Text inverse> </Text>
+            </Text>
           </>
         ) : (
           <>
-            <ReadingFields state={state} reading={`right reading [${unitOf(cs)}]`} temperature="tank temperature then" />
+            <ReadingFields
+              state={state}
+              reading={`right reading [${unitOf(cs)}]`}
+              temperature="tank temperature then"
+            />
           </>
         )}
         {errorLine}
-        <Text>Enter: {c.pending ? 'log the correction' : 'next: the reason'}   Esc: cancel (nothing logged)</Text>
+        <Text>
+          Enter: {c.pending ? 'log the correction' : 'next: the reason'} Esc: cancel (nothing logged)
+        </Text>
       </Box>
     );
   }
@@ -287,14 +386,20 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         <Text bold>
           mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER AT THIS FILL
         </Text>
-        <Text wrap="wrap">This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at the start:</Text>
+        <Text wrap="wrap">
+          This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at
+          the start:
+        </Text>
         {ds.map((d, i) => (
           <Text key={i} wrap="wrap">
             - {d.code}: {d.message}
           </Text>
         ))}
         <Text> </Text>
-        <Text wrap="wrap">Go on only with the protection your procedure requires for it. Enter: go on to the fill   Ctrl-C: stop (logged readings are kept)</Text>
+        <Text wrap="wrap">
+          Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
+          (logged readings are kept)
+        </Text>
       </Box>
     );
   }
@@ -307,7 +412,7 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
         <Text>typed: {state.pending.done.text}</Text>
         <Text wrap="wrap">{state.pending.reason}</Text>
         <Text> </Text>
-        <Text>y: it is right, log it as typed   n: back to the reading (not logged)</Text>
+        <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
         {errorLine}
       </Box>
     );
@@ -321,20 +426,32 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
           mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER - ABOVE THE WORKING LIMIT
         </Text>
         <Text wrap="wrap">
-          The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit of {h.tank.id} ({absText(o.limitPa)}).
+          The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working
+          limit of {h.tank.id} ({absText(o.limitPa)}).
         </Text>
-        <Text bold wrap="wrap">Close the cylinder valve and the tank valve now.</Text>
-        <Text wrap="wrap">The reading is logged ({state.pending.done.line !== undefined ? `line ${state.pending.done.line}` : 'as typed'}); what you choose is logged beside it.</Text>
+        <Text bold wrap="wrap">
+          Close the cylinder valve and the tank valve now.
+        </Text>
         <Text wrap="wrap">
-          Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
+          The reading is logged (
+          {state.pending.done.line !== undefined ? `line ${state.pending.done.line}` : 'as typed'}); what you
+          choose is logged beside it.
+        </Text>
+        <Text wrap="wrap">
+          Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)}{' '}
+          (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
         </Text>
         <Text bold wrap="wrap">
           {o.within
             ? 'After venting (venting keeps the composition) the composition is within the tolerance.'
-            : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} outside): venting keeps the composition, it cannot repair it.`}
+            : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} ` +
+              `outside): venting keeps the composition, it cannot repair it.`}
         </Text>
         <Text> </Text>
-        <Text wrap="wrap">vent: you vent back (the fill stops here; finish as a top-up)   accept INITIALS: keep the tank as it is (logged)   edit INITIALS: it was mistyped (withdrawn, with a trace)</Text>
+        <Text wrap="wrap">
+          vent: you vent back (the fill stops here; finish as a top-up) accept INITIALS: keep the tank as it
+          is (logged) edit INITIALS: it was mistyped (withdrawn, with a trace)
+        </Text>
         {prompt}
         {errorLine}
       </Box>
@@ -363,23 +480,32 @@ export function FillApp({ initial, write, logFile, now = () => new Date().toISOS
       </Text>
       <Text>
         Read on {step.gauge?.id ?? 'NO GAUGE'}
-        {step.gauge?.reference === 'gauge' ? ` (gauge-referenced: reads above ambient; barometer ${fromPa(state.barometerPa, unit).toFixed(dec)} ${unit} typed today)` : ' (absolute)'}
+        {step.gauge?.reference === 'gauge'
+          ? ` (gauge-referenced: reads above ambient; barometer ${fromPa(state.barometerPa, unit).toFixed(dec)} ` +
+            `${unit} typed today)`
+          : ' (absolute)'}
       </Text>
-      {isolate.length ? <Text bold>Before this fill: close off {isolate.map((g) => g.id).join(', ')}</Text> : <Text> </Text>}
+      {isolate.length ? (
+        <Text bold>Before this fill: close off {isolate.map((g) => g.id).join(', ')}</Text>
+      ) : (
+        <Text> </Text>
+      )}
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
           band {lo} - {hi} {unit} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
-          {Math.abs(target - plan.target_Pa) > 1e-9 * target ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})` : ''}
+          {Math.abs(target - plan.target_Pa) > 1e-9 * target
+            ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})`
+            : ''}
         </Text>
       </Box>
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}
       <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
-      <Text>Enter: log  Tab: temp  undo AB: undo last  fix N AB: correct  Ctrl-C: stop</Text>
+      <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
     </Box>
   );
 }

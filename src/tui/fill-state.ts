@@ -28,7 +28,14 @@ import {
 import { fixedSig } from '../report/format.js';
 import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
-import { gaugeFromLog, sourceFromLog, type NewLogEvent, type LogHeader, type LogReading, type ParsedLog } from '../io/batch-log.js';
+import {
+  gaugeFromLog,
+  sourceFromLog,
+  type NewLogEvent,
+  type LogHeader,
+  type LogReading,
+  type ParsedLog,
+} from '../io/batch-log.js';
 
 export interface FillStep {
   readonly index: number;
@@ -42,7 +49,11 @@ export interface FillSetup {
   readonly header: LogHeader;
   readonly design: Design;
   readonly steps: readonly FillStep[];
-  readonly dangers: readonly { readonly code: string; readonly step: number | null; readonly message: string }[];
+  readonly dangers: readonly {
+    readonly code: string;
+    readonly step: number | null;
+    readonly message: string;
+  }[];
   /** the tank's working limit (rating x working fraction; the rating for logs that lack it), Pa absolute */
   readonly workingLimitPa?: number;
   /** a gauge-referenced sensor reads some step: today's barometric pressure is asked first */
@@ -58,7 +69,18 @@ export interface FillSetup {
  * first; over-limit: a reading past the working limit (already logged); below: the last fill's reading
  * (logged) is below its band, more gas may be added; ended: stopped before the last fill; done.
  */
-export type Phase = 'barometer' | 'acknowledge' | 'start' | 'reminder' | 'reading' | 'correct' | 'confirm' | 'over-limit' | 'below' | 'ended' | 'done';
+export type Phase =
+  | 'barometer'
+  | 'acknowledge'
+  | 'start'
+  | 'reminder'
+  | 'reading'
+  | 'correct'
+  | 'confirm'
+  | 'over-limit'
+  | 'below'
+  | 'ended'
+  | 'done';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -176,11 +198,29 @@ export type FillAction =
 export function setupFromHeader(header: LogHeader): FillSetup {
   const gauges = new Map(header.gauges.map((g) => [g.id, gaugeFromLog(g)]));
   const sources = new Map(header.sources.map((s) => [s.id, sourceFromLog(s)]));
-  const steps = header.steps.map((s) => ({ index: s.step, species: s.species, source: sources.get(s.source)!, gauge: s.gauge ? gauges.get(s.gauge) : undefined, bandPa: s.band_Pa }));
-  const dangers = (header.findings ?? []).filter((f) => f.severity === 'danger').map((f) => ({ code: f.code, step: f.step, message: f.message }));
+  const steps = header.steps.map((s) => ({
+    index: s.step,
+    species: s.species,
+    source: sources.get(s.source)!,
+    gauge: s.gauge ? gauges.get(s.gauge) : undefined,
+    bandPa: s.band_Pa,
+  }));
+  const dangers = (header.findings ?? [])
+    .filter((f) => f.severity === 'danger')
+    .map((f) => ({ code: f.code, step: f.step, message: f.message }));
   const workingLimitPa = header.tank.working_limit_Pa ?? header.tank.rated_pressure_Pa ?? undefined;
-  const inTank = header.in_tank ? { composition: header.in_tank.composition, pressurePa: header.in_tank.pressure_Pa } : undefined;
-  return { header, design: designFromHeader(header), steps, dangers, workingLimitPa, needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge'), inTank };
+  const inTank = header.in_tank
+    ? { composition: header.in_tank.composition, pressurePa: header.in_tank.pressure_Pa }
+    : undefined;
+  return {
+    header,
+    design: designFromHeader(header),
+    steps,
+    dangers,
+    workingLimitPa,
+    needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge'),
+    inTank,
+  };
 }
 
 const degC = (k: number) => `${(k - 273.15).toFixed(1)} degC`;
@@ -191,14 +231,32 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
   const h = setup.header;
   const targets = h.steps.map((s) => s.target_Pa);
   const acked = new Set((log?.acknowledgements ?? []).map((a) => a.code));
-  const done: DoneReading[] = (log?.readings ?? []).map((r) => ({ step: r.step, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, text: r.reading, line: r.line }));
+  const done: DoneReading[] = (log?.readings ?? []).map((r) => ({
+    step: r.step,
+    pressurePa: r.pressure_Pa,
+    temperatureK: r.temperature_K,
+    text: r.reading,
+    line: r.line,
+  }));
   const needsAck = setup.dangers.some((d) => !acked.has(d.code));
-  const lastBaro = log?.barometer?.pressure_Pa ?? [...(log?.readings ?? [])].reverse().find((r) => r.barometer_Pa !== undefined)?.barometer_Pa;
+  const lastBaro =
+    log?.barometer?.pressure_Pa ??
+    [...(log?.readings ?? [])].reverse().find((r) => r.barometer_Pa !== undefined)?.barometer_Pa;
   const inTank = setup.inTank;
   const start: StartGas | undefined = inTank
     ? log?.start
-      ? { composition: inTank.composition, pressurePa: log.start.pressure_Pa, temperatureK: log.start.temperature_K, read: true }
-      : { composition: inTank.composition, pressurePa: inTank.pressurePa, temperatureK: h.temperature_K, read: false }
+      ? {
+          composition: inTank.composition,
+          pressurePa: log.start.pressure_Pa,
+          temperatureK: log.start.temperature_K,
+          read: true,
+        }
+      : {
+          composition: inTank.composition,
+          pressurePa: inTank.pressurePa,
+          temperatureK: h.temperature_K,
+          read: false,
+        }
     : undefined;
   const T = done.length ? done[done.length - 1].temperatureK : h.temperature_K;
   let state: FillState = {
@@ -216,7 +274,9 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     effects: [],
     reminded: [],
     start,
-    message: done.length ? `resumed: ${done.length} of ${setup.steps.length} readings were in the log` : undefined,
+    message: done.length
+      ? `resumed: ${done.length} of ${setup.steps.length} readings were in the log`
+      : undefined,
   };
   if (done.length || start?.read) {
     const r = retargetRun(state, done, T);
@@ -224,24 +284,55 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
   }
   const limit = setup.workingLimitPa;
   const lastRead = log?.readings[log.readings.length - 1];
-  if (lastRead && !log?.closed && limit !== undefined && lastRead.pressure_Pa > limit && !(log?.acknowledgements ?? []).some((a) => a.code === 'above-working-limit' && a.step === lastRead.step)) {
+  if (
+    lastRead &&
+    !log?.closed &&
+    limit !== undefined &&
+    lastRead.pressure_Pa > limit &&
+    !(log?.acknowledgements ?? []).some((a) => a.code === 'above-working-limit' && a.step === lastRead.step)
+  ) {
     // stopped on the danger screen: the reading is in the log, the operator's choice is not; ask again
     const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
-    const prior = before.done.length ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets : before.targetsPa;
+    const prior = before.done.length
+      ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
+      : before.targetsPa;
     const reading = done[done.length - 1];
-    const pending: Pending = { event: lastRead, done: reading, typed: lastRead.reading.replace(/\s+\S+$/, ''), logged: true };
-    return { ...before, targetsPa: prior, phase: 'over-limit', pending, overLimit: overLimitOf(before, reading, limit), message: `resumed: the reading of fill ${reading.step} (${reading.text}, logged) is above the working limit and no choice was logged` };
+    const pending: Pending = {
+      event: lastRead,
+      done: reading,
+      typed: lastRead.reading.replace(/\s+\S+$/, ''),
+      logged: true,
+    };
+    return {
+      ...before,
+      targetsPa: prior,
+      phase: 'over-limit',
+      pending,
+      overLimit: overLimitOf(before, reading, limit),
+      message:
+        `resumed: the reading of fill ${reading.step} (${reading.text}, logged) is ` +
+        `above the working limit and no choice was logged`,
+    };
   }
   if (done.length >= setup.steps.length && !log?.closed) {
     // all read but not closed: a last fill below its band stays open for more gas
     const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
-    const prior = before.done.length ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets : before.targetsPa;
+    const prior = before.done.length
+      ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
+      : before.targetsPa;
     const step = setup.steps[setup.steps.length - 1];
     const last = done[done.length - 1];
     const target = prior[setup.steps.length - 1];
-    if (last.pressurePa - target < -step.bandPa) return belowBand({ ...state, targetsPa: prior }, step, target, `resumed: fill ${step.index} logged at ${last.text}`);
+    if (last.pressurePa - target < -step.bandPa)
+      return belowBand(
+        { ...state, targetsPa: prior },
+        step,
+        target,
+        `resumed: fill ${step.index} logged at ${last.text}`,
+      );
   }
-  if (done.length >= setup.steps.length) return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
+  if (done.length >= setup.steps.length)
+    return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
   return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
 }
 
@@ -251,11 +342,20 @@ function enterStep(s: FillState): FillState {
   if (s.setup.needsBarometer && !s.barometerToday) return { ...s, phase: 'barometer', input: '' };
   if (s.start && !s.start.read && s.done.length === 0) return { ...s, phase: 'start', input: '' };
   const stepIndex = s.setup.steps[s.current]?.index;
-  if (stepIndex !== undefined && !s.reminded.includes(stepIndex) && s.setup.dangers.some((d) => d.step === stepIndex)) return { ...s, phase: 'reminder', input: '' };
+  if (
+    stepIndex !== undefined &&
+    !s.reminded.includes(stepIndex) &&
+    s.setup.dangers.some((d) => d.step === stepIndex)
+  )
+    return { ...s, phase: 'reminder', input: '' };
   return { ...s, phase: 'reading' };
 }
 
-export function retargetInput(s: FillState, done: readonly DoneReading[], temperatureK: number): RetargetInput {
+export function retargetInput(
+  s: FillState,
+  done: readonly DoneReading[],
+  temperatureK: number,
+): RetargetInput {
   const h = s.setup.header;
   return {
     design: s.setup.design,
@@ -289,7 +389,10 @@ export function shownPa(s: FillState, step: FillStep, absolutePa: number): numbe
   return step.gauge ? gaugeReadingPa(step.gauge, absolutePa, ctx) : absolutePa;
 }
 
-function deviationsOf(composition: Readonly<Record<string, { value: number; u?: number } | number>>, s: FillState): FractionDeviation[] {
+function deviationsOf(
+  composition: Readonly<Record<string, { value: number; u?: number } | number>>,
+  s: FillState,
+): FractionDeviation[] {
   const tol = s.setup.header.tolerance;
   return Object.entries(s.setup.design.composition)
     .filter(([, xd]) => xd > 0)
@@ -297,11 +400,25 @@ function deviationsOf(composition: Readonly<Record<string, { value: number; u?: 
       const v = composition[k];
       const actual = typeof v === 'number' ? v : (v?.value ?? 0);
       const t = Math.max(tol.relative * xd, tol.absolute);
-      return { species: k, design: xd, actual, deviation: actual - xd, tolerance: t, within: Math.abs(actual - xd) <= t };
+      return {
+        species: k,
+        design: xd,
+        actual,
+        deviation: actual - xd,
+        tolerance: t,
+        within: Math.abs(actual - xd) <= t,
+      };
     });
 }
 
-const initialOf = (s: FillState) => (s.start ? { composition: { ...s.start.composition }, pressurePa: s.start.pressurePa, temperatureK: s.start.temperatureK } : undefined);
+const initialOf = (s: FillState) =>
+  s.start
+    ? {
+        composition: { ...s.start.composition },
+        pressurePa: s.start.pressurePa,
+        temperatureK: s.start.temperatureK,
+      }
+    : undefined;
 
 /** the as-filled composition of all readings, with the GUM uncertainty where every step has a gauge */
 function finalJudgement(s: FillState): { judgement: CompositionJudgement; summary?: UncertaintyResult } {
@@ -309,27 +426,80 @@ function finalJudgement(s: FillState): { judgement: CompositionJudgement; summar
   const withGauges = s.done.every((_, i) => s.setup.steps[i].gauge);
   if (withGauges) {
     try {
-      const readings = s.done.map((d, i) => ({ step: d.step, source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK, gauge: s.setup.steps[i].gauge! }));
-      const summary = evaluateUncertainty(readings, { barometricPa: s.barometerPa, barometricUncertaintyPa: h.barometer.u_Pa, thermometerUncertaintyK: h.thermometer.u_K, thermometerResolutionK: h.thermometer.resolution_K, trials: 0, seed: 1 }, h.design.diluent, initialOf(s));
+      const readings = s.done.map((d, i) => ({
+        step: d.step,
+        source: s.setup.steps[i].source,
+        pressurePa: d.pressurePa,
+        temperatureK: d.temperatureK,
+        gauge: s.setup.steps[i].gauge!,
+      }));
+      const summary = evaluateUncertainty(
+        readings,
+        {
+          barometricPa: s.barometerPa,
+          barometricUncertaintyPa: h.barometer.u_Pa,
+          thermometerUncertaintyK: h.thermometer.u_K,
+          thermometerResolutionK: h.thermometer.resolution_K,
+          trials: 0,
+          seed: 1,
+        },
+        h.design.diluent,
+        initialOf(s),
+      );
       const v = judge(summary, s.setup.design, h.tolerance);
-      const deviations = v.deviations.map((d) => ({ species: d.species, design: d.design, actual: d.actual, deviation: d.deviation, tolerance: d.tolerance, within: d.within, expandedU: d.expandedU }));
-      return { summary, judgement: { kind: 'final', verdict: v.verdict === 'no-design' ? 'fail' : v.verdict, deviations, phi: summary.phi?.value } };
+      const deviations = v.deviations.map((d) => ({
+        species: d.species,
+        design: d.design,
+        actual: d.actual,
+        deviation: d.deviation,
+        tolerance: d.tolerance,
+        within: d.within,
+        expandedU: d.expandedU,
+      }));
+      return {
+        summary,
+        judgement: {
+          kind: 'final',
+          verdict: v.verdict === 'no-design' ? 'fail' : v.verdict,
+          deviations,
+          phi: summary.phi?.value,
+        },
+      };
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
     }
   }
   // a step without a gauge has no uncertainty model: the nominal inverse only
-  const setup = inverseSetup(s.done.map((d, i) => ({ source: s.setup.steps[i].source, pressurePa: d.pressurePa, temperatureK: d.temperatureK })), initialOf(s));
-  const res = invertReadings(setup, undefined, s.done.map((d) => d.pressurePa));
+  const setup = inverseSetup(
+    s.done.map((d, i) => ({
+      source: s.setup.steps[i].source,
+      pressurePa: d.pressurePa,
+      temperatureK: d.temperatureK,
+    })),
+    initialOf(s),
+  );
+  const res = invertReadings(
+    setup,
+    undefined,
+    s.done.map((d) => d.pressurePa),
+  );
   const comp: Record<string, number> = {};
   setup.species.forEach((k, i) => (comp[k] = res.x[i] * (1 - res.unidentified)));
   const deviations = deviationsOf(comp, s);
-  return { judgement: { kind: 'final', verdict: deviations.every((d) => d.within) ? 'pass-uncertain' : 'fail', deviations } };
+  return {
+    judgement: {
+      kind: 'final',
+      verdict: deviations.every((d) => d.within) ? 'pass-uncertain' : 'fail',
+      deviations,
+    },
+  };
 }
 
 function finish(s: FillState, now?: string, note?: string): FillState {
   const { judgement, summary } = finalJudgement(s);
-  const effects: NewLogEvent[] = now ? [...s.effects, { kind: 'close', time: now, ...(note ? { note } : {}) }] : [...s.effects];
+  const effects: NewLogEvent[] = now
+    ? [...s.effects, { kind: 'close', time: now, ...(note ? { note } : {}) }]
+    : [...s.effects];
   return { ...s, phase: 'done', effects, summary, judgement };
 }
 
@@ -341,11 +511,17 @@ function typedUnitOf(text: string, fallback: PressureUnit): PressureUnit {
 
 const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 
-function parseReading(s: FillState, step: FillStep): { shown: number; temperatureK: number } | { error: string } {
+function parseReading(
+  s: FillState,
+  step: FillStep,
+): { shown: number; temperatureK: number } | { error: string } {
   try {
     const text = s.input.trim();
-    if (text === '') fail({ code: 'bad-quantity', text, expected: 'pressure', reason: 'type the reading first' });
-    const shown = READING_NUMBER.test(text) ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure') : parseQuantity(text, 'pressure');
+    if (text === '')
+      fail({ code: 'bad-quantity', text, expected: 'pressure', reason: 'type the reading first' });
+    const shown = READING_NUMBER.test(text)
+      ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure')
+      : parseQuantity(text, 'pressure');
     const temperatureK = parseTemperature(s.temperatureText);
     return { shown, temperatureK };
   } catch (e) {
@@ -356,7 +532,8 @@ function parseReading(s: FillState, step: FillStep): { shown: number; temperatur
 
 function parseTemperature(text: string): number {
   const t = parseQuantity(text.trim(), 'temperature');
-  if (!(t >= 200 && t <= 600)) fail({ code: 'out-of-range', what: 'tank temperature', value: t, allowed: '200-600 K' });
+  if (!(t >= 200 && t <= 600))
+    fail({ code: 'out-of-range', what: 'tank temperature', value: t, allowed: '200-600 K' });
   return t;
 }
 
@@ -371,7 +548,12 @@ function withTemperature(s: FillState): FillState {
   }
   if (Math.abs(T - s.targetTemperatureK) < 0.005) return s;
   const r = retargetRun(s, s.done, T);
-  return { ...s, targetsPa: r.targets, targetTemperatureK: T, message: `targets re-computed for ${degC(T)}: the amount to fill is the same, its pressure is not` };
+  return {
+    ...s,
+    targetsPa: r.targets,
+    targetTemperatureK: T,
+    message: `targets re-computed for ${degC(T)}: the amount to fill is the same, its pressure is not`,
+  };
 }
 
 const fmtIn = (pa: number, unit: PressureUnit, sig = 6) => `${fromPa(pa, unit).toPrecision(sig)} ${unit}`;
@@ -381,15 +563,36 @@ function doubt(s: FillState, step: FillStep, shown: number): string | undefined 
   const unit = gaugeUnit(step);
   const target = s.targetsPa[s.current];
   const targetShown = shownPa(s, step, target);
-  if (step.gauge?.reference === 'gauge' && Math.abs(Math.abs(shown - targetShown) - s.barometerPa) <= 0.1 * s.barometerPa) {
-    const sense = shown > targetShown ? 'an absolute pressure typed for a gauge-referenced sensor' : 'a gauge-referenced value where the target is absolute';
-    return `${fmtIn(shown, unit)} is about one barometric pressure (${fmtIn(s.barometerPa, unit, 5)}) from the target ${fmtIn(targetShown, unit)} on ${step.gauge.id}, which reads above ambient: likely ${sense}`;
+  if (
+    step.gauge?.reference === 'gauge' &&
+    Math.abs(Math.abs(shown - targetShown) - s.barometerPa) <= 0.1 * s.barometerPa
+  ) {
+    const sense =
+      shown > targetShown
+        ? 'an absolute pressure typed for a gauge-referenced sensor'
+        : 'a gauge-referenced value where the target is absolute';
+    return (
+      `${fmtIn(shown, unit)} is about one barometric pressure (${fmtIn(s.barometerPa, unit, 5)}) ` +
+      `from the target ${fmtIn(targetShown, unit)} on ${step.gauge.id}, which reads ` +
+      `above ambient: likely ${sense}`
+    );
   }
-  if (step.gauge && shown < step.gauge.minimumPa) return `${fmtIn(shown, unit)} is below the range of ${step.gauge.id} (from ${fmtIn(step.gauge.minimumPa, unit)}): likely the unit, a sign, or a gauge not zeroed`;
+  if (step.gauge && shown < step.gauge.minimumPa)
+    return (
+      `${fmtIn(shown, unit)} is below the range of ${step.gauge.id} (from ${fmtIn(step.gauge.minimumPa, unit)}): ` +
+      `likely the unit, a sign, or a gauge not zeroed`
+    );
   return undefined;
 }
 
-function readingEvent(s: FillState, step: FillStep, absolute: number, temperatureK: number, now: string, note?: string): LogReading {
+function readingEvent(
+  s: FillState,
+  step: FillStep,
+  absolute: number,
+  temperatureK: number,
+  now: string,
+  note?: string,
+): LogReading {
   const unit = gaugeUnit(step);
   const readingText = `${s.input.trim()}${/[A-Za-z]/.test(s.input) ? '' : ` ${unit}`}`;
   return {
@@ -415,18 +618,53 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
   const deviation = p.done.pressurePa - target;
   const within = Math.abs(deviation) <= step.bandPa;
   const done = [...s.done, p.done];
-  const pressureText = `fill ${step.index} logged: ${signed(fromPa(deviation, unit))} ${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
-  let next: FillState = { ...s, done, current: s.current + 1, input: '', field: 'reading', effects: [...extra, ...(p.logged ? [] : [p.event])], pending: undefined, overLimit: undefined };
+  const pressureText =
+    `fill ${step.index} logged: ${signed(fromPa(deviation, unit))} ${unit} from ` +
+    `the target (${within ? 'inside' : 'outside'} the pressure band)`;
+  let next: FillState = {
+    ...s,
+    done,
+    current: s.current + 1,
+    input: '',
+    field: 'reading',
+    effects: [...extra, ...(p.logged ? [] : [p.event])],
+    pending: undefined,
+    overLimit: undefined,
+  };
   if (next.current >= s.setup.steps.length) {
     if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
     return finish({ ...next, message: pressureText }, now);
   }
   const r = retargetRun(s, done, p.done.temperatureK);
   const deviations = deviationsOf(r.result.predicted.composition, s);
-  const judgement: CompositionJudgement = { kind: 'predicted', verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course', deviations, phi: r.result.predicted.phi };
-  next = { ...next, targetsPa: r.targets, targetTemperatureK: p.done.temperatureK, judgement, message: `${pressureText}; ${r.message}` };
+  const judgement: CompositionJudgement = {
+    kind: 'predicted',
+    verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course',
+    deviations,
+    phi: r.result.predicted.phi,
+  };
+  next = {
+    ...next,
+    targetsPa: r.targets,
+    targetTemperatureK: p.done.temperatureK,
+    judgement,
+    message: `${pressureText}; ${r.message}`,
+  };
   if (r.result.limitBinds && r.result.nowPa >= (s.setup.workingLimitPa ?? Infinity)) {
-    return { ...next, phase: 'ended', effects: [...next.effects, { kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is at or above its working limit; no further fill can be made within it` }] };
+    return {
+      ...next,
+      phase: 'ended',
+      effects: [
+        ...next.effects,
+        {
+          kind: 'close',
+          time: now,
+          note:
+            `stopped after fill ${step.index}: the tank is at or above its working limit; ` +
+            `no further fill can be made within it`,
+        },
+      ],
+    };
   }
   return enterStep(next);
 }
@@ -437,8 +675,21 @@ function afterDoubt(s: FillState, p: Pending, now: string): FillState {
   if (limit !== undefined && p.done.pressurePa > limit) {
     // a reading is a fact about the tank: it is logged now, before the operator chooses (Ctrl-C or a crash on the danger screen keeps it)
     const unit = gaugeUnit(s.setup.steps[s.current]);
-    const event: LogReading = { ...p.event, note: `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}; logged as typed, before the operator's choice (vent, accept or withdraw as mistyped)` };
-    return { ...s, phase: 'over-limit', pending: { ...p, event, logged: true }, input: '', effects: [event], overLimit: overLimitOf(s, p.done, limit) };
+    const event: LogReading = {
+      ...p.event,
+      note:
+        `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}; ` +
+        `logged as typed, before the operator's choice (vent, accept or withdraw ` +
+        `as mistyped)`,
+    };
+    return {
+      ...s,
+      phase: 'over-limit',
+      pending: { ...p, event, logged: true },
+      input: '',
+      effects: [event],
+      overLimit: overLimitOf(s, p.done, limit),
+    };
   }
   return commit(s, p, [], now);
 }
@@ -449,7 +700,13 @@ function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLim
   const v = ventBack({ ...retargetInput(s, done, reading.temperatureK), workingLimitPa: limit });
   const deviations = deviationsOf(v.after.predicted.composition, s);
   const outside = deviations.filter((d) => !d.within).map((d) => d.species);
-  return { limitPa: limit, ventToPa: v.targetPa, after: v.after.message, within: outside.length === 0, outside };
+  return {
+    limitPa: limit,
+    ventToPa: v.targetPa,
+    after: v.after.message,
+    within: outside.length === 0,
+    outside,
+  };
 }
 
 /** a signed number in plain notation, 3 significant figures (never "1.32e+3") */
@@ -473,7 +730,10 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     summary,
     input: '',
     field: 'reading',
-    message: `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); the batch is not closed`,
+    message:
+      `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
+      `${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); ` +
+      `the batch is not closed`,
   };
 }
 
@@ -489,20 +749,39 @@ function onReadingEnter(s: FillState, now: string): FillState {
     // both values in the unit typed and on the basis of this step's gauge (gauge-referenced: above ambient)
     const typedUnit = typedUnitOf(s.input, unit);
     const gaugeRef = step.gauge?.reference === 'gauge';
-    const basis = gaugeRef ? `on ${step.gauge!.id} (above ambient; barometer ${fmtIn(s.barometerPa, typedUnit, 5)})` : 'absolute';
+    const basis = gaugeRef
+      ? `on ${step.gauge!.id} (above ambient; barometer ${fmtIn(s.barometerPa, typedUnit, 5)})`
+      : 'absolute';
     const prevShown = gaugeRef ? prev - s.barometerPa : prev;
     return {
       ...s,
-      error: `typed "${s.input.trim()}": ${fmtIn(shown, typedUnit)} ${basis} is not above the previous reading, ${fmtIn(prevShown, typedUnit)} ${basis}, and a fill only adds gas. Likely: a typing slip or the unit; gas that flowed back into the line (it was below the tank pressure when the valve opened; the tank's composition is unchanged: fill on to the target and log that reading); or the tank cooled (check the temperature). The reading is not logged.`,
+      error:
+        `typed "${s.input.trim()}": ${fmtIn(shown, typedUnit)} ${basis} is not above ` +
+        `the previous reading, ${fmtIn(prevShown, typedUnit)} ${basis}, and a fill ` +
+        `only adds gas. Likely: a typing slip or the unit; gas that flowed back into ` +
+        `the line (it was below the tank pressure when the valve opened; the tank's ` +
+        `composition is unchanged: fill on to the target and log that reading); or ` +
+        `the tank cooled (check the temperature). The reading is not logged.`,
     };
   }
   if (step.gauge && shown > step.gauge.fullScalePa) {
-    return { ...s, error: `${fmtIn(shown, unit)} is past the range of ${step.gauge.id} (up to ${fmtIn(step.gauge.fullScalePa, unit)}): a head past its range shows no measurement. Likely the unit or a typing slip; if the tank really is above it, close the head's valve and read the tank on a gauge with a higher range. The reading is not logged.` };
+    return {
+      ...s,
+      error:
+        `${fmtIn(shown, unit)} is past the range of ${step.gauge.id} (up to ${fmtIn(step.gauge.fullScalePa, unit)}): ` +
+        `a head past its range shows no measurement. Likely the unit or a typing ` +
+        `slip; if the tank really is above it, close the head's valve and read the ` +
+        `tank on a gauge with a higher range. The reading is not logged.`,
+    };
   }
   // the judgement uses the temperature typed with the reading: re-target first if it changed
   const s1 = Math.abs(temperatureK - s.targetTemperatureK) >= 0.005 ? withTemperature(s) : s;
   const event = readingEvent(s1, step, absolute, temperatureK, now);
-  const p: Pending = { event, done: { step: step.index, pressurePa: absolute, temperatureK, text: event.reading }, typed: s1.input.trim() };
+  const p: Pending = {
+    event,
+    done: { step: step.index, pressurePa: absolute, temperatureK, text: event.reading },
+    typed: s1.input.trim(),
+  };
   const why = doubt(s1, step, shown);
   if (why) return { ...s1, phase: 'confirm', pending: { ...p, reason: why } };
   return afterDoubt(s1, p, now);
@@ -515,39 +794,108 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   const unit = gaugeUnit(step);
   const text = s.input.trim();
   const edit = /^edit\s+([A-Za-z]{1,6})$/i.exec(text);
-  if (/^edit\b/i.test(text) && !edit) return { ...s, error: 'type "edit" and your initials (e.g. edit AB): the reading is withdrawn as mistyped (the log keeps it and the withdrawal), then type the right one' };
+  if (/^edit\b/i.test(text) && !edit)
+    return {
+      ...s,
+      error:
+        'type "edit" and your initials (e.g. edit AB): the reading is withdrawn as ' +
+        'mistyped (the log keeps it and the withdrawal), then type the right one',
+    };
   if (edit) {
-    if (p.done.line === undefined) return { ...s, error: 'the log line of this reading is not known; stop (Ctrl-C) and resume the fill to withdraw it' };
-    const withdraw: NewLogEvent = { kind: 'withdraw', step: step.index, withdraws_line: p.done.line, by: edit[1], time: now, reason: `mistyped: ${p.done.text} (above the working limit) withdrawn at the manifold` };
-    return { ...s, phase: 'reading', pending: undefined, overLimit: undefined, input: p.typed, effects: [withdraw], message: `the reading ${p.done.text} of fill ${step.index} is withdrawn by ${edit[1]} as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading` };
+    if (p.done.line === undefined)
+      return {
+        ...s,
+        error: 'the log line of this reading is not known; stop (Ctrl-C) and resume the fill to withdraw it',
+      };
+    const withdraw: NewLogEvent = {
+      kind: 'withdraw',
+      step: step.index,
+      withdraws_line: p.done.line,
+      by: edit[1],
+      time: now,
+      reason: `mistyped: ${p.done.text} (above the working limit) withdrawn at the manifold`,
+    };
+    return {
+      ...s,
+      phase: 'reading',
+      pending: undefined,
+      overLimit: undefined,
+      input: p.typed,
+      effects: [withdraw],
+      message:
+        `the reading ${p.done.text} of fill ${step.index} is withdrawn by ${edit[1]} ` +
+        `as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading`,
+    };
   }
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
   const last = s.current + 1 >= s.setup.steps.length;
   if (acc) {
-    const ack: NewLogEvent = { kind: 'acknowledge', code: 'above-working-limit', step: step.index, by: acc[1], time: now, note: `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted` };
+    const ack: NewLogEvent = {
+      kind: 'acknowledge',
+      code: 'above-working-limit',
+      step: step.index,
+      by: acc[1],
+      time: now,
+      note:
+        `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} ` +
+        `is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted`,
+    };
     return commit(s, p, [ack], now);
   }
   if (/^vent$/i.test(text)) {
     const done = [...s.done, p.done];
     const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
     if (last) {
-      const f = finish({ ...base, effects: [] }, now, `fill ${step.index} read above the working limit; the operator vents the tank back to ${fmtIn(o.ventToPa, unit)} absolute`);
-      return { ...f, message: `fill ${step.index} logged above the working limit; vent the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the re-check below holds for the vented tank.` };
+      const f = finish(
+        { ...base, effects: [] },
+        now,
+        `fill ${step.index} read above the working limit; the operator vents the ` +
+          `tank back to ${fmtIn(o.ventToPa, unit)} absolute`,
+      );
+      return {
+        ...f,
+        message:
+          `fill ${step.index} logged above the working limit; vent the tank back to ` +
+          `${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the ` +
+          `re-check below holds for the vented tank.`,
+      };
     }
     return {
       ...base,
       phase: 'ended',
-      effects: [{ kind: 'close', time: now, note: `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} absolute; the readings give its composition; finish the design as a top-up batch` }],
-      message: `fill ${step.index} logged. Vent or pump the tank back to ${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so this log's readings still give it; finish the design as a top-up batch (in_tank: the composition of \`mixwright check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
+      effects: [
+        {
+          kind: 'close',
+          time: now,
+          note:
+            `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} ` +
+            `absolute; the readings give its composition; finish the design as a top-up batch`,
+        },
+      ],
+      message:
+        `fill ${step.index} logged. Vent or pump the tank back to ${fmtIn(o.ventToPa, unit)} ` +
+        `absolute. Venting keeps the composition, so this log's readings still give ` +
+        `it; finish the design as a top-up batch (in_tank: the composition of \`mixwright ` +
+        `check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
     };
   }
-  return { ...s, error: 'the reading is logged. Type "vent" (you vent or pump back), "accept" and your initials (keep the tank as it is; logged), or "edit" and your initials (it was mistyped: the reading is withdrawn, with a trace), then Enter' };
+  return {
+    ...s,
+    error:
+      'the reading is logged. Type "vent" (you vent or pump back), "accept" and ' +
+      'your initials (keep the tank as it is; logged), or "edit" and your initials ' +
+      '(it was mistyped: the reading is withdrawn, with a trace), then Enter',
+  };
 }
 
 const INITIALS = /^(.*\S)\s+([A-Za-z]{1,6})$/;
 
 /** "VALUE INITIALS": the value text and the initials, or an error naming what is missing */
-function withInitials(text: string, what: string, example: string): { value: string; by: string } | { error: string } {
+function withInitials(
+  text: string,
+  what: string,
+  example: string,
+): { value: string; by: string } | { error: string } {
   const m = INITIALS.exec(text.trim());
   if (!m) return { error: `type the ${what} and then your initials, e.g. ${example}` };
   return { value: m[1], by: m[2] };
@@ -559,7 +907,16 @@ function rejudge(s: FillState): FillState {
   const r = retargetRun(s, s.done, s.targetTemperatureK);
   if (!s.done.length) return { ...s, targetsPa: r.targets, judgement: undefined };
   const deviations = deviationsOf(r.result.predicted.composition, s);
-  return { ...s, targetsPa: r.targets, judgement: { kind: 'predicted', verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course', deviations, phi: r.result.predicted.phi } };
+  return {
+    ...s,
+    targetsPa: r.targets,
+    judgement: {
+      kind: 'predicted',
+      verdict: deviations.every((d) => d.within) ? 'on-course' : 'off-course',
+      deviations,
+      phi: r.result.predicted.phi,
+    },
+  };
 }
 
 /** the commands of the reading screen: undo INITIALS (the last reading) and fix N INITIALS (any earlier one) */
@@ -569,19 +926,61 @@ function onCommand(s: FillState, text: string, now: string): FillState | undefin
   if (undo) {
     const last = s.done[s.done.length - 1];
     if (!last) return { ...s, error: 'no reading is logged yet; nothing to undo' };
-    if (last.line === undefined) return { ...s, error: 'the log line of the last reading is not known; stop and resume the fill to undo it' };
+    if (last.line === undefined)
+      return {
+        ...s,
+        error: 'the log line of the last reading is not known; stop and resume the fill to undo it',
+      };
     const done = s.done.slice(0, -1);
-    const next = rejudge({ ...s, done, current: s.current - 1, input: '', effects: [{ kind: 'withdraw', step: last.step, withdraws_line: last.line, by: undo[1], time: now, reason: 'taken back at the manifold before the next fill' }] });
-    return enterStep({ ...next, message: `the reading of fill ${last.step} (${last.text}) is withdrawn by ${undo[1]}; the log keeps it and the withdrawal. Read fill ${last.step} again` });
+    const next = rejudge({
+      ...s,
+      done,
+      current: s.current - 1,
+      input: '',
+      effects: [
+        {
+          kind: 'withdraw',
+          step: last.step,
+          withdraws_line: last.line,
+          by: undo[1],
+          time: now,
+          reason: 'taken back at the manifold before the next fill',
+        },
+      ],
+    });
+    return enterStep({
+      ...next,
+      message:
+        `the reading of fill ${last.step} (${last.text}) is withdrawn by ${undo[1]}; ` +
+        `the log keeps it and the withdrawal. Read fill ${last.step} again`,
+    });
   }
   const fix = /^fix\s+(\d+)\s+([A-Za-z]{1,6})$/i.exec(text);
-  if (/^fix\b/i.test(text) && !fix) return { ...s, error: 'type "fix", the fill number and your initials, e.g. fix 2 AB' };
+  if (/^fix\b/i.test(text) && !fix)
+    return { ...s, error: 'type "fix", the fill number and your initials, e.g. fix 2 AB' };
   if (fix) {
     const n = Number(fix[1]);
     const d = s.done.find((x) => x.step === n);
-    if (!d) return { ...s, error: `fill ${n} has no reading logged; only a logged reading can be corrected (fills logged: ${s.done.map((x) => x.step).join(', ') || 'none'})` };
-    if (d.line === undefined) return { ...s, error: `the log line of fill ${n} is not known; stop and resume the fill to correct it` };
-    return { ...s, phase: 'correct', correcting: { step: n, by: fix[2] }, input: '', field: 'reading', temperatureText: degC(d.temperatureK) };
+    if (!d)
+      return {
+        ...s,
+        error:
+          `fill ${n} has no reading logged; only a logged reading can be corrected ` +
+          `(fills logged: ${s.done.map((x) => x.step).join(', ') || 'none'})`,
+      };
+    if (d.line === undefined)
+      return {
+        ...s,
+        error: `the log line of fill ${n} is not known; stop and resume the fill to correct it`,
+      };
+    return {
+      ...s,
+      phase: 'correct',
+      correcting: { step: n, by: fix[2] },
+      input: '',
+      field: 'reading',
+      temperatureText: degC(d.temperatureK),
+    };
   }
   return undefined;
 }
@@ -599,36 +998,93 @@ function onCorrectEnter(s: FillState, now: string): FillState {
     const before = i > 0 ? s.done[i - 1].pressurePa : (s.start?.pressurePa ?? 0);
     const after = s.done[i + 1]?.pressurePa;
     if (!(absolute > before) || (after !== undefined && !(absolute < after))) {
-      return { ...s, error: `${fmtIn(absolute, unit)} absolute does not lie between the readings before and after fill ${c.step} (${fmtIn(before, unit)}${after !== undefined ? ` and ${fmtIn(after, unit)}` : ''}); correct those first, or check the value` };
+      return {
+        ...s,
+        error:
+          `${fmtIn(absolute, unit)} absolute does not lie between the readings before ` +
+          `and after fill ${c.step} (${fmtIn(before, unit)}${after !== undefined ? ` and ${fmtIn(after, unit)}` : ''}); ` +
+          `correct those first, or check the value`,
+      };
     }
-    if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}` };
+    if (step.gauge && parsed.shown > step.gauge.fullScalePa)
+      return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}` };
     const ev = readingEvent(s, step, absolute, parsed.temperatureK, now);
-    return { ...s, input: '', correcting: { ...c, pending: { event: ev, done: { step: c.step, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading }, typed: s.input.trim() } } };
+    return {
+      ...s,
+      input: '',
+      correcting: {
+        ...c,
+        pending: {
+          event: ev,
+          done: { step: c.step, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading },
+          typed: s.input.trim(),
+        },
+      },
+    };
   }
   const reason = s.input.trim();
-  if (!reason) return { ...s, error: 'type why the reading is corrected (e.g. "mistyped: 1480.0 not 1408.0"), then Enter; Esc cancels' };
+  if (!reason)
+    return {
+      ...s,
+      error:
+        'type why the reading is corrected (e.g. "mistyped: 1480.0 not 1408.0"), then Enter; Esc cancels',
+    };
   const p = c.pending;
   const event: NewLogEvent = { ...p.event, kind: 'correction', by: c.by, reason, replaces_line: old.line! };
   const done = s.done.map((x, j) => (j === i ? p.done : x));
   const limit = s.setup.workingLimitPa;
-  const over = limit !== undefined && p.done.pressurePa > limit ? ` - ${fmtIn(p.done.pressurePa, unit)} is ABOVE the working limit ${fmtIn(limit, unit)}` : '';
-  let next: FillState = { ...s, done, correcting: undefined, input: '', effects: [event], message: `fill ${c.step} corrected by ${c.by}: ${old.text} -> ${p.done.text} (the original stays in the log)${over}` };
-  if (next.current >= s.setup.steps.length) return { ...finish({ ...next, effects: [event] }), message: next.message };
+  const over =
+    limit !== undefined && p.done.pressurePa > limit
+      ? ` - ${fmtIn(p.done.pressurePa, unit)} is ABOVE the working limit ${fmtIn(limit, unit)}`
+      : '';
+  let next: FillState = {
+    ...s,
+    done,
+    correcting: undefined,
+    input: '',
+    effects: [event],
+    message:
+      `fill ${c.step} corrected by ${c.by}: ${old.text} -> ${p.done.text} (the ` +
+      `original stays in the log)${over}`,
+  };
+  if (next.current >= s.setup.steps.length)
+    return { ...finish({ ...next, effects: [event] }), message: next.message };
   next = rejudge(next);
   return enterStep({ ...next, phase: 'reading' });
 }
 
 export function fillReducer(s: FillState, a: FillAction): FillState {
   if (a.type === 'logged') {
-    const pending = s.pending?.logged && s.pending.done.step === a.step ? { ...s.pending, done: { ...s.pending.done, line: a.line } } : s.pending;
-    return { ...s, effects: [], pending, done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)) };
+    const pending =
+      s.pending?.logged && s.pending.done.step === a.step
+        ? { ...s.pending, done: { ...s.pending.done, line: a.line } }
+        : s.pending;
+    return {
+      ...s,
+      effects: [],
+      pending,
+      done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)),
+    };
   }
   const base = { ...s, effects: [] as NewLogEvent[], error: undefined };
-  const textPhase = (base.phase === 'reading' || base.phase === 'start' || base.phase === 'below' || (base.phase === 'correct' && !base.correcting?.pending)) && base.field === 'temperature';
+  const textPhase =
+    (base.phase === 'reading' ||
+      base.phase === 'start' ||
+      base.phase === 'below' ||
+      (base.phase === 'correct' && !base.correcting?.pending)) &&
+    base.field === 'temperature';
   if (a.type === 'char') {
     if (base.phase === 'confirm') {
-      if (/^[yY]/.test(a.text)) return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
-      if (/^[nNeE]/.test(a.text)) return { ...base, phase: 'reading', pending: undefined, input: '', message: `${base.pending!.done.text} is not logged; type the reading again` };
+      if (/^[yY]/.test(a.text))
+        return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
+      if (/^[nNeE]/.test(a.text))
+        return {
+          ...base,
+          phase: 'reading',
+          pending: undefined,
+          input: '',
+          message: `${base.pending!.done.text} is not logged; type the reading again`,
+        };
       return { ...base, error: 'y: log the reading as typed   n: back to the reading' };
     }
     if (textPhase) return { ...base, temperatureText: base.temperatureText + a.text };
@@ -639,14 +1095,40 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
     return { ...base, input: base.input.slice(0, -1) };
   }
   if (a.type === 'escape') {
-    if (base.phase === 'correct') return { ...base, phase: 'reading', correcting: undefined, input: '', temperatureText: degC(base.targetTemperatureK), message: 'correction cancelled; nothing logged' };
+    if (base.phase === 'correct')
+      return {
+        ...base,
+        phase: 'reading',
+        correcting: undefined,
+        input: '',
+        temperatureText: degC(base.targetTemperatureK),
+        message: 'correction cancelled; nothing logged',
+      };
     // the over-limit reading is already logged: only vent, accept or edit (a withdrawal with a trace) leave the screen
-    if (base.phase === 'over-limit') return { ...base, error: 'the reading is logged; Esc does not take it back. Type vent, accept INITIALS, or edit INITIALS (mistyped: withdrawn with a trace)' };
-    if (base.phase === 'confirm') return { ...base, phase: 'reading', input: base.pending?.typed ?? base.input, pending: undefined, overLimit: undefined };
+    if (base.phase === 'over-limit')
+      return {
+        ...base,
+        error:
+          'the reading is logged; Esc does not take it back. Type vent, accept INITIALS, ' +
+          'or edit INITIALS (mistyped: withdrawn with a trace)',
+      };
+    if (base.phase === 'confirm')
+      return {
+        ...base,
+        phase: 'reading',
+        input: base.pending?.typed ?? base.input,
+        pending: undefined,
+        overLimit: undefined,
+      };
     return base;
   }
   if (a.type === 'tab') {
-    if (base.phase === 'start' || base.phase === 'below' || (base.phase === 'correct' && !base.correcting?.pending)) return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
+    if (
+      base.phase === 'start' ||
+      base.phase === 'below' ||
+      (base.phase === 'correct' && !base.correcting?.pending)
+    )
+      return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
     if (base.phase !== 'reading') return base;
     if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
     return { ...base, field: 'temperature' };
@@ -671,26 +1153,76 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
         const w = withInitials(base.input, 'barometric pressure with its unit', '752.3 Torr AB');
         if ('error' in w) return { ...base, error: w.error };
         const p = parseQuantity(w.value, 'pressure', { field: 'barometric pressure' });
-        if (!(p >= BARO_RANGE_PA[0] && p <= BARO_RANGE_PA[1])) fail({ code: 'out-of-range', what: 'barometric pressure', value: p, allowed: '70-110 kPa (525-825 Torr)' });
-        const ev: NewLogEvent = { kind: 'barometer', reading: w.value, pressure_Pa: p, u_Pa: base.setup.header.barometer.u_Pa, by: w.by, time: a.now };
-        return enterStep({ ...base, barometerPa: p, barometerToday: true, input: '', effects: [ev], message: `barometric pressure today ${fmtIn(p, 'Torr', 5)} (logged): the gauge-referenced targets use it` });
+        if (!(p >= BARO_RANGE_PA[0] && p <= BARO_RANGE_PA[1]))
+          fail({
+            code: 'out-of-range',
+            what: 'barometric pressure',
+            value: p,
+            allowed: '70-110 kPa (525-825 Torr)',
+          });
+        const ev: NewLogEvent = {
+          kind: 'barometer',
+          reading: w.value,
+          pressure_Pa: p,
+          u_Pa: base.setup.header.barometer.u_Pa,
+          by: w.by,
+          time: a.now,
+        };
+        return enterStep({
+          ...base,
+          barometerPa: p,
+          barometerToday: true,
+          input: '',
+          effects: [ev],
+          message: `barometric pressure today ${fmtIn(p, 'Torr', 5)} (logged): the gauge-referenced targets use it`,
+        });
       } catch (e) {
-        if (e instanceof ProblemError) return { ...base, error: `${describeProblem(e.problem)} - type today's barometric pressure with its unit, e.g. 752.3 Torr or 1003.1 hPa` };
+        if (e instanceof ProblemError)
+          return {
+            ...base,
+            error:
+              `${describeProblem(e.problem)} - type today's barometric pressure with its ` +
+              `unit, e.g. 752.3 Torr or 1003.1 hPa`,
+          };
         throw e;
       }
     }
     case 'acknowledge': {
       const m = /^\s*accept\s+([A-Za-z]{1,6})\s*$/.exec(base.input);
-      if (!m) return { ...base, error: 'to go on past a danger finding, type "accept" and your initials (e.g. accept AB), then Enter; Ctrl-C stops' };
-      const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({ kind: 'acknowledge', code: d.code, step: d.step, by: m[1], time: a.now, note: d.message }));
-      return enterStep({ ...base, phase: 'reading', input: '', effects, message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged` });
+      if (!m)
+        return {
+          ...base,
+          error:
+            'to go on past a danger finding, type "accept" and your initials (e.g. accept ' +
+            'AB), then Enter; Ctrl-C stops',
+        };
+      const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({
+        kind: 'acknowledge',
+        code: d.code,
+        step: d.step,
+        by: m[1],
+        time: a.now,
+        note: d.message,
+      }));
+      return enterStep({
+        ...base,
+        phase: 'reading',
+        input: '',
+        effects,
+        message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged`,
+      });
     }
     case 'start':
       return onStartEnter(base, a.now);
     case 'correct':
       return onCorrectEnter(base, a.now);
     case 'reminder':
-      return { ...base, phase: 'reading', input: '', reminded: [...base.reminded, base.setup.steps[base.current].index] };
+      return {
+        ...base,
+        phase: 'reading',
+        input: '',
+        reminded: [...base.reminded, base.setup.steps[base.current].index],
+      };
     case 'over-limit':
       return onOverLimitEnter(base, a.now);
     case 'reading':
@@ -709,11 +1241,27 @@ function onStartEnter(s: FillState, now: string): FillState {
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return { ...s, error: parsed.error };
-  if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}; read the tank on a gauge that covers it` };
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa)
+    return {
+      ...s,
+      error:
+        `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}; read ` +
+        `the tank on a gauge that covers it`,
+    };
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
-  if (!(absolute > 0)) return { ...s, error: 'the starting pressure must be above zero absolute; an empty tank is not a top-up' };
+  if (!(absolute > 0))
+    return {
+      ...s,
+      error: 'the starting pressure must be above zero absolute; an empty tank is not a top-up',
+    };
   const limit = s.setup.workingLimitPa;
-  if (limit !== undefined && absolute >= limit) return { ...s, error: `${fmtIn(absolute, unit)} absolute is at or above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: no fill can be made. Vent the tank first` };
+  if (limit !== undefined && absolute >= limit)
+    return {
+      ...s,
+      error:
+        `${fmtIn(absolute, unit)} absolute is at or above the working limit ${fmtIn(limit, unit)} ` +
+        `of ${s.setup.header.tank.id}: no fill can be made. Vent the tank first`,
+    };
   const text = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
   const ev: NewLogEvent = {
     kind: 'start-pressure',
@@ -727,9 +1275,22 @@ function onStartEnter(s: FillState, now: string): FillState {
     time: now,
   };
   const planned = s.start!.pressurePa;
-  const next: FillState = { ...s, start: { ...s.start!, pressurePa: absolute, temperatureK: parsed.temperatureK, read: true }, input: '', field: 'reading', effects: [ev] };
+  const next: FillState = {
+    ...s,
+    start: { ...s.start!, pressurePa: absolute, temperatureK: parsed.temperatureK, read: true },
+    input: '',
+    field: 'reading',
+    effects: [ev],
+  };
   const r = retargetRun(next, [], parsed.temperatureK);
-  return enterStep({ ...next, targetsPa: r.targets, targetTemperatureK: parsed.temperatureK, message: `starting pressure ${text} logged by ${w.by} (the plan assumed ${fmtIn(planned, unit)} absolute); targets re-computed from it: ${r.message}` });
+  return enterStep({
+    ...next,
+    targetsPa: r.targets,
+    targetTemperatureK: parsed.temperatureK,
+    message:
+      `starting pressure ${text} logged by ${w.by} (the plan assumed ${fmtIn(planned, unit)} ` +
+      `absolute); targets re-computed from it: ${r.message}`,
+  });
 }
 
 /**
@@ -740,37 +1301,101 @@ function onStartEnter(s: FillState, now: string): FillState {
 function onBelowEnter(s: FillState, now: string): FillState {
   const text = s.input.trim();
   const close = /^close\s+([A-Za-z]{1,6})$/i.exec(text);
-  if (/^close\b/i.test(text) && !close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  if (/^close\b/i.test(text) && !close)
+    return { ...s, error: 'type "close" and your initials, e.g. close AB' };
   const last = s.done[s.done.length - 1];
   const step = s.setup.steps[s.done.length - 1];
   const unit = gaugeUnit(step);
   if (close) {
-    const f = finish({ ...s, input: '' }, now, `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`);
-    return { ...f, message: `the batch is closed by ${close[1]} with fill ${step.index} below its target; the re-check below judges the tank as it is` };
+    const f = finish(
+      { ...s, input: '' },
+      now,
+      `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
+    );
+    return {
+      ...f,
+      message:
+        `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
+        `the re-check below judges the tank as it is`,
+    };
   }
-  if (/^fix\b/i.test(text)) return { ...s, error: 'on this screen: type the new reading after adding gas, undo INITIALS, or close INITIALS; undo first to correct an earlier fill' };
+  if (/^fix\b/i.test(text))
+    return {
+      ...s,
+      error:
+        'on this screen: type the new reading after adding gas, undo INITIALS, or ' +
+        'close INITIALS; undo first to correct an earlier fill',
+    };
   if (/^undo\b/i.test(text)) return onCommand(s, text, now) ?? s;
   const w = withInitials(text, 'new reading after adding gas', '1500.2 AB');
-  if ('error' in w) return { ...s, error: `${w.error}; or undo INITIALS, or close INITIALS (closes the batch below the target)` };
+  if ('error' in w)
+    return {
+      ...s,
+      error: `${w.error}; or undo INITIALS, or close INITIALS (closes the batch below the target)`,
+    };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return { ...s, error: parsed.error };
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (!(absolute > last.pressurePa)) {
-    return { ...s, error: `typed "${w.value}": ${fmtIn(absolute, unit)} absolute is not above the logged reading of fill ${step.index}, ${fmtIn(last.pressurePa, unit)} absolute; adding gas only raises it. Check the value, or undo INITIALS to withdraw the logged reading` };
+    return {
+      ...s,
+      error:
+        `typed "${w.value}": ${fmtIn(absolute, unit)} absolute is not above the logged ` +
+        `reading of fill ${step.index}, ${fmtIn(last.pressurePa, unit)} absolute; ` +
+        `adding gas only raises it. Check the value, or undo INITIALS to withdraw ` +
+        `the logged reading`,
+    };
   }
-  if (step.gauge && parsed.shown > step.gauge.fullScalePa) return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id} (up to ${fmtIn(step.gauge.fullScalePa, unit)}); read the tank on a gauge that covers it` };
-  if (last.line === undefined) return { ...s, error: 'the log line of the last reading is not known; stop (Ctrl-C) and resume the fill to go on' };
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa)
+    return {
+      ...s,
+      error:
+        `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id} (up to ` +
+        `${fmtIn(step.gauge.fullScalePa, unit)}); read the tank on a gauge that covers it`,
+    };
+  if (last.line === undefined)
+    return {
+      ...s,
+      error: 'the log line of the last reading is not known; stop (Ctrl-C) and resume the fill to go on',
+    };
   const limit = s.setup.workingLimitPa;
   const over = limit !== undefined && absolute > limit;
-  const ev = readingEvent({ ...s, input: w.value }, step, absolute, parsed.temperatureK, now, over ? `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}` : undefined);
-  const event: NewLogEvent = { ...ev, kind: 'correction', by: w.by, reason: 'more gas added after a reading below the target band', replaces_line: last.line };
-  const done = [...s.done.slice(0, -1), { step: step.index, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading }];
+  const ev = readingEvent(
+    { ...s, input: w.value },
+    step,
+    absolute,
+    parsed.temperatureK,
+    now,
+    over ? `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}` : undefined,
+  );
+  const event: NewLogEvent = {
+    ...ev,
+    kind: 'correction',
+    by: w.by,
+    reason: 'more gas added after a reading below the target band',
+    replaces_line: last.line,
+  };
+  const done = [
+    ...s.done.slice(0, -1),
+    { step: step.index, pressurePa: absolute, temperatureK: parsed.temperatureK, text: ev.reading },
+  ];
   const target = s.targetsPa[s.done.length - 1];
   const deviation = absolute - target;
   const within = Math.abs(deviation) <= step.bandPa;
-  const pressureText = `fill ${step.index}: more gas added, ${ev.reading} logged by ${w.by} (it replaces ${last.text}; the log keeps both): ${signed(fromPa(deviation, unit))} ${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
+  const pressureText =
+    `fill ${step.index}: more gas added, ${ev.reading} logged by ${w.by} (it ` +
+    `replaces ${last.text}; the log keeps both): ${signed(fromPa(deviation, unit))} ` +
+    `${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
   const next: FillState = { ...s, done, input: '', effects: [event] };
-  if (over) return { ...finish(next, now, `fill ${step.index} read above the working limit after more gas was added`), message: `${pressureText}. DANGER: ${fmtIn(absolute, unit)} absolute is ABOVE the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: close the valves; vent or pump the tank back before it is used, and have it inspected under local practice` };
+  if (over)
+    return {
+      ...finish(next, now, `fill ${step.index} read above the working limit after more gas was added`),
+      message:
+        `${pressureText}. DANGER: ${fmtIn(absolute, unit)} absolute is ABOVE the ` +
+        `working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: close ` +
+        `the valves; vent or pump the tank back before it is used, and have it inspected ` +
+        `under local practice`,
+    };
   if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
   return { ...finish(next, now), message: pressureText };
 }

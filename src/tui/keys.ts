@@ -1,5 +1,6 @@
 /** Keys that arrive together (a paste, or tmux sending several) come as one chunk: split it. */
-export type KeyToken = { readonly kind: 'enter' | 'tab' | 'backspace' } | { readonly kind: 'text'; readonly text: string };
+export type KeyToken =
+  { readonly kind: 'enter' | 'tab' | 'backspace' } | { readonly kind: 'text'; readonly text: string };
 
 export function splitChunk(input: string): KeyToken[] {
   const out: KeyToken[] = [];

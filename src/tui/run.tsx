@@ -9,7 +9,14 @@ import { WizardApp } from './wizard-app.js';
 import { DEFAULTS, wizardInit, type ActionName, type ActOutcome, type WizardState } from './wizard-state.js';
 import { loadLab } from '../io/load.js';
 import { buildFromValues, makeEvaluator, recipeFromValues } from './wizard-eval.js';
-import { createLog, openLogForFill, readLog, type NewLogEvent, type LogHeader, type ParsedLog } from '../io/batch-log.js';
+import {
+  createLog,
+  openLogForFill,
+  readLog,
+  type NewLogEvent,
+  type LogHeader,
+  type ParsedLog,
+} from '../io/batch-log.js';
 import { checkLog, headerFromPlan, type CheckReport } from '../io/check.js';
 
 /** the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default, so the two agree */
@@ -32,12 +39,17 @@ export interface FillOutcome {
   readonly danger: boolean;
 }
 
-export async function runFill(args: { header: LogHeader; logFile: string; log?: ParsedLog }): Promise<FillOutcome> {
+export async function runFill(args: {
+  header: LogHeader;
+  logFile: string;
+  log?: ParsedLog;
+}): Promise<FillOutcome> {
   // the lock is held for the whole fill; a torn last line is moved aside before anything is appended
   const opened = openLogForFill(args.logFile);
   let interrupted = false;
   try {
-    for (const m of opened.messages) process.stderr.write(`mixwright: ${args.logFile}: ${m}
+    for (const m of opened.messages)
+      process.stderr.write(`mixwright: ${args.logFile}: ${m}
 `);
     const setup = setupFromHeader(opened.log.header);
     const now = new Date().toISOString();
@@ -48,9 +60,21 @@ export async function runFill(args: { header: LogHeader; logFile: string; log?: 
       const log = readLog(args.logFile);
       return { report: await checkLog(log, { trials: CHECK_TRIALS, seed: 1 }), log };
     };
-    const told = opened.messages.length ? { message: [...opened.messages, initial.message].filter(Boolean).join('; ') } : {};
+    const told = opened.messages.length
+      ? { message: [...opened.messages, initial.message].filter(Boolean).join('; ') }
+      : {};
     let report: CheckReport | undefined;
-    const app = render(<FillApp initial={{ ...initial, ...told, effects: [] }} write={write} logFile={args.logFile} recheck={recheck} onInterrupt={() => (interrupted = true)} onReport={(r) => (report = r)} />, { exitOnCtrlC: false });
+    const app = render(
+      <FillApp
+        initial={{ ...initial, ...told, effects: [] }}
+        write={write}
+        logFile={args.logFile}
+        recheck={recheck}
+        onInterrupt={() => (interrupted = true)}
+        onReport={(r) => (report = r)}
+      />,
+      { exitOnCtrlC: false },
+    );
     await app.waitUntilExit();
     app.unmount();
     // the exit code follows `check` of the log: quit before the end screen's re-check came, it is made here
@@ -86,7 +110,14 @@ const clock = (d: Date) => d.toTimeString().slice(0, 8);
  * the answer is a question naming the file (written by this session, or not, and when last
  * changed); a file that already holds exactly this text is left alone and said so.
  */
-function writeWizardFile(file: string, data: string, what: string, action: ActionName, replace: boolean, ctx: WizardContext): ActOutcome {
+function writeWizardFile(
+  file: string,
+  data: string,
+  what: string,
+  action: ActionName,
+  replace: boolean,
+  ctx: WizardContext,
+): ActOutcome {
   const saved = action === 'save recipe';
   if (existsSync(file)) {
     let same = false;
@@ -95,7 +126,12 @@ function writeWizardFile(file: string, data: string, what: string, action: Actio
     } catch {
       // unreadable (a folder, no permission): the question or the write says more
     }
-    if (same) return { kind: 'message', text: `${file} already holds this ${what}; nothing to write`, savedRecipe: saved };
+    if (same)
+      return {
+        kind: 'message',
+        text: `${file} already holds this ${what}; nothing to write`,
+        savedRecipe: saved,
+      };
     if (!replace) {
       const when = ctx.written?.get(file);
       let whose = when ? `written by this wizard at ${clock(when)}` : 'not written in this session';
@@ -106,14 +142,25 @@ function writeWizardFile(file: string, data: string, what: string, action: Actio
           // no date to show
         }
       }
-      return { kind: 'confirm', action, file, text: `${file} exists (${whose}). Replace it with the ${what} on screen? What it holds now is lost. y: replace   n: keep it` };
+      return {
+        kind: 'confirm',
+        action,
+        file,
+        text:
+          `${file} exists (${whose}). Replace it with the ${what} on screen? What it ` +
+          `holds now is lost. y: replace   n: keep it`,
+      };
     }
   }
   // replace only when the user said yes: a file that appeared since the check is refused, not replaced
   const existed = replace && existsSync(file);
   writeFileAtomic(file, data, replace);
   ctx.written?.set(file, new Date());
-  return { kind: 'message', text: `${existed ? 'replaced' : 'saved'} ${file}${saved ? '' : ' (open it in a browser to print)'}`, savedRecipe: saved };
+  return {
+    kind: 'message',
+    text: `${existed ? 'replaced' : 'saved'} ${file}${saved ? '' : ' (open it in a browser to print)'}`,
+    savedRecipe: saved,
+  };
 }
 
 /** a batch log name not taken yet: <id>-<UTC minute>, then -2, -3 ... when two fills start within one minute */
@@ -127,21 +174,50 @@ function freeLogName(dir: string, id: string): { id: string; file: string } {
 }
 
 /** carry out a wizard action: what to show (a message or a question), or the log of a guided fill to hand over to */
-export function wizardAct(s: WizardState, action: string, ctx: WizardContext, replace = false): ActOutcome | { header: LogHeader; logFile: string } {
-  const what = action === 'save recipe' ? 'recipe' : action === 'write fill sheet' ? 'fill sheet' : 'guided fill';
+export function wizardAct(
+  s: WizardState,
+  action: string,
+  ctx: WizardContext,
+  replace = false,
+): ActOutcome | { header: LogHeader; logFile: string } {
+  const what =
+    action === 'save recipe' ? 'recipe' : action === 'write fill sheet' ? 'fill sheet' : 'guided fill';
   try {
     const built = buildFromValues(s.values, ctx.labFile);
     if (action === 'save recipe') {
       const dir = ctx.recipesDir ?? 'recipes';
       mkdirSync(dir, { recursive: true });
       const file = join(dir, `${s.values.id}.yaml`);
-      return writeWizardFile(file, `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`, 'recipe', action, replace, ctx);
+      return writeWizardFile(
+        file,
+        `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`,
+        'recipe',
+        action,
+        replace,
+        ctx,
+      );
     }
     if (action === 'write fill sheet') {
       const file = join(ctx.sheetsDir ?? '.', `fill-${s.values.id}.html`);
       const h = built.req.tankInfo?.heightM;
-      const mixing = h ? mixingEstimate(built.plan.composition, built.plan.temperatureK, built.plan.final.pressurePa, h, Boolean(built.req.tankInfo?.stirred)) : undefined;
-      const model = buildSheetModel(built.plan, { recipe: built.recipe, labName: built.req.lab.name, orderRecommended: built.req.orderRecommended, unit: 'Torr', version: ctx.version, paper: 'a4', mixing });
+      const mixing = h
+        ? mixingEstimate(
+            built.plan.composition,
+            built.plan.temperatureK,
+            built.plan.final.pressurePa,
+            h,
+            Boolean(built.req.tankInfo?.stirred),
+          )
+        : undefined;
+      const model = buildSheetModel(built.plan, {
+        recipe: built.recipe,
+        labName: built.req.lab.name,
+        orderRecommended: built.req.orderRecommended,
+        unit: 'Torr',
+        version: ctx.version,
+        paper: 'a4',
+        mixing,
+      });
       return writeWizardFile(file, sheetToHtml(model), 'fill sheet', action, replace, ctx);
     }
     const dir = ctx.batchesDir ?? 'batches';
@@ -151,9 +227,15 @@ export function wizardAct(s: WizardState, action: string, ctx: WizardContext, re
     return { header: readLog(logFile).header, logFile };
   } catch (e) {
     const not = what === 'guided fill' ? 'guided fill not started' : `${what} not written`;
-    if (e instanceof ProblemError) return { kind: 'message', text: `${not}: ${describeProblemAt(e.problem, e.where)}` };
+    if (e instanceof ProblemError)
+      return { kind: 'message', text: `${not}: ${describeProblemAt(e.problem, e.where)}` };
     // a file-system error must not end the wizard: the design on screen would be lost with it
-    return { kind: 'message', text: `${not}: ${(e as Error).message}. The design is still on screen; check the folder (it must exist and be writable, with free space) and try again` };
+    return {
+      kind: 'message',
+      text:
+        `${not}: ${(e as Error).message}. The design is still on screen; check the ` +
+        `folder (it must exist and be writable, with free space) and try again`,
+    };
   }
 }
 
@@ -170,7 +252,15 @@ export async function runWizard(args: WizardContext): Promise<FillOutcome | unde
   };
   const lab = loadLab(args.labFile);
   // Ctrl-C goes to the wizard (it asks first when the design has unsaved changes), not straight to exit
-  const app = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })} evaluate={evaluate} act={act} lab={args.labFile ? `${args.labFile}, ${lab.name}` : undefined} />, { exitOnCtrlC: false });
+  const app = render(
+    <WizardApp
+      initial={wizardInit(evaluate, { ...DEFAULTS, tank: lab.tanks[0]?.id ?? '' })}
+      evaluate={evaluate}
+      act={act}
+      lab={args.labFile ? `${args.labFile}, ${lab.name}` : undefined}
+    />,
+    { exitOnCtrlC: false },
+  );
   await app.waitUntilExit();
   app.unmount();
   if (handOver) return runFill(handOver);

@@ -2,7 +2,19 @@
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
 import { splitChunk } from './keys.js';
-import { ACTIONS, FIELD_HELP, FIELDS, SPECIES_FIELDS, completionLine, currentField, wizardReducer, type ActOutcome, type Evaluate, type WizardAction, type WizardState } from './wizard-state.js';
+import {
+  ACTIONS,
+  FIELD_HELP,
+  FIELDS,
+  SPECIES_FIELDS,
+  completionLine,
+  currentField,
+  wizardReducer,
+  type ActOutcome,
+  type Evaluate,
+  type WizardAction,
+  type WizardState,
+} from './wizard-state.js';
 
 export interface WizardAppProps {
   readonly initial: WizardState;
@@ -11,19 +23,43 @@ export interface WizardAppProps {
    * carry out an action (replace: the user said yes to replacing its file); returns what to
    * show, a question, or a hand-over to the fill screen ('start guided fill')
    */
-  readonly act: (s: WizardState, action: (typeof ACTIONS)[number], replace: boolean) => ActOutcome | { readonly kind: 'handOver' };
+  readonly act: (
+    s: WizardState,
+    action: (typeof ACTIONS)[number],
+    replace: boolean,
+  ) => ActOutcome | { readonly kind: 'handOver' };
   /** the lab profile's name and where it came from, for the title */
   readonly lab?: string;
 }
 
-export function wizardActions(input: string, key: { upArrow?: boolean; downArrow?: boolean; return?: boolean; backspace?: boolean; delete?: boolean; tab?: boolean; escape?: boolean; ctrl?: boolean }): WizardAction[] {
+export function wizardActions(
+  input: string,
+  key: {
+    upArrow?: boolean;
+    downArrow?: boolean;
+    return?: boolean;
+    backspace?: boolean;
+    delete?: boolean;
+    tab?: boolean;
+    escape?: boolean;
+    ctrl?: boolean;
+  },
+): WizardAction[] {
   if (key.escape || (key.ctrl && input === 'c')) return [{ type: 'escape' }];
   if (key.upArrow) return [{ type: 'up' }];
   if (key.downArrow) return [{ type: 'down' }];
   if (key.return) return [{ type: 'enter' }];
   if (key.tab) return [{ type: 'complete' }];
   if (key.backspace || key.delete) return [{ type: 'backspace' }];
-  return splitChunk(input).map((t): WizardAction => (t.kind === 'text' ? { type: 'char', text: t.text } : t.kind === 'enter' ? { type: 'enter' } : t.kind === 'tab' ? { type: 'complete' } : { type: 'backspace' }));
+  return splitChunk(input).map((t): WizardAction =>
+    t.kind === 'text'
+      ? { type: 'char', text: t.text }
+      : t.kind === 'enter'
+        ? { type: 'enter' }
+        : t.kind === 'tab'
+          ? { type: 'complete' }
+          : { type: 'backspace' },
+  );
 }
 
 export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
@@ -55,7 +91,9 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
   return (
     <Box flexDirection="column" width={80}>
       <Text bold wrap="truncate-end">
-        {lab ? `mixwright - new mixture design - lab: ${lab}` : 'mixwright - new mixture design (demo lab unless --lab)'}
+        {lab
+          ? `mixwright - new mixture design - lab: ${lab}`
+          : 'mixwright - new mixture design (demo lab unless --lab)'}
       </Text>
       <Box>
         <Box flexDirection="column" width={44}>
@@ -70,14 +108,28 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
         </Box>
         <Box flexDirection="column" width={36} borderStyle="single" paddingX={1}>
           <Text bold>preview</Text>
-          {(state.evaluation.preview?.lines ?? [err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)']).slice(0, 9).map((l, i) => (
-            <Text key={i} wrap="truncate-end">
-              {l}
-            </Text>
-          ))}
+          {(
+            state.evaluation.preview?.lines ?? [
+              err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)',
+            ]
+          )
+            .slice(0, 9)
+            .map((l, i) => (
+              <Text key={i} wrap="truncate-end">
+                {l}
+              </Text>
+            ))}
         </Box>
       </Box>
-      <Text wrap="wrap">{field ? (err?.field === field ? `! ${err.message}` : FIELD_HELP[field]) : err ? `! ${err.message}` : ' '}</Text>
+      <Text wrap="wrap">
+        {field
+          ? err?.field === field
+            ? `! ${err.message}`
+            : FIELD_HELP[field]
+          : err
+            ? `! ${err.message}`
+            : ' '}
+      </Text>
       <Text wrap="truncate-end">{tabLine || ' '}</Text>
       <Box>
         {ACTIONS.map((a, i) => (
@@ -92,7 +144,11 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
         </Text>
       ) : null}
       <Text wrap="wrap">{state.message ?? ' '}</Text>
-      <Text>{state.question ? 'y: yes   n, Enter or Esc: no' : 'Up/Down: move  Enter: next / do  Tab: complete a species  Esc: leave'}</Text>
+      <Text>
+        {state.question
+          ? 'y: yes   n, Enter or Esc: no'
+          : 'Up/Down: move  Enter: next / do  Tab: complete a species  Esc: leave'}
+      </Text>
     </Box>
   );
 }

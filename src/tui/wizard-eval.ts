@@ -52,25 +52,60 @@ export function buildFromValues(v: Readonly<Record<FieldName, string>>, labFile?
 const NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
 
 /** the problems the wizard finds before planning, each saying what is wrong, why and what to type */
-export function fieldProblem(v: Readonly<Record<FieldName, string>>, tankIds: readonly string[]): Evaluation['error'] {
+export function fieldProblem(
+  v: Readonly<Record<FieldName, string>>,
+  tankIds: readonly string[],
+): Evaluation['error'] {
   if (!/^[A-Za-z0-9._-]+$/.test(v.id)) {
-    const what = v.id === '' ? 'the id is empty' : `the id "${v.id}" holds ${/\s/.test(v.id) ? 'a space' : 'a character other than letters, digits, ".", "_" and "-"'}`;
-    return { field: 'id', message: `${what}; it names the files (recipes/<id>.yaml, fill-<id>.html, batches/<id>-...), so use letters, digits, ".", "_" and "-" only` };
+    const what =
+      v.id === ''
+        ? 'the id is empty'
+        : `the id "${v.id}" holds ${/\s/.test(v.id) ? 'a space' : 'a character other than letters, digits, ".", "_" and "-"'}`;
+    return {
+      field: 'id',
+      message:
+        `${what}; it names the files (recipes/<id>.yaml, fill-<id>.html, batches/<id>-...), ` +
+        `so use letters, digits, ".", "_" and "-" only`,
+    };
   }
   const tanks = tankIds.length ? ` (${tankIds.join(', ')})` : '';
-  if (!v.tank.trim()) return { field: 'tank', message: `the tank is empty: name a tank of the lab profile${tanks} or give a volume such as 30 L` };
-  if (/^\s*[\d.]/.test(v.tank) && !tankIds.includes(v.tank.trim()) && !/^\s*[\d.]+\s*(l|L|m\^3|cm\^3|mL)\s*$/.test(v.tank)) {
-    return { field: 'tank', message: `"${v.tank}" is not a volume the wizard reads: write a number and L, mL, cm^3 or m^3 (30 L), or name a tank of the lab profile${tanks}` };
+  if (!v.tank.trim())
+    return {
+      field: 'tank',
+      message: `the tank is empty: name a tank of the lab profile${tanks} or give a volume such as 30 L`,
+    };
+  if (
+    /^\s*[\d.]/.test(v.tank) &&
+    !tankIds.includes(v.tank.trim()) &&
+    !/^\s*[\d.]+\s*(l|L|m\^3|cm\^3|mL)\s*$/.test(v.tank)
+  ) {
+    return {
+      field: 'tank',
+      message:
+        `"${v.tank}" is not a volume the wizard reads: write a number and L, mL, ` +
+        `cm^3 or m^3 (30 L), or name a tank of the lab profile${tanks}`,
+    };
   }
-  const label = { phi: 'phi (the equivalence ratio)', dilution: 'dilution (the diluent mole fraction)' } as const;
-  const example = { phi: 'a number above 0 such as 1 or 0.8', dilution: 'a number from 0 to below 1 such as 0.95' } as const;
+  const label = {
+    phi: 'phi (the equivalence ratio)',
+    dilution: 'dilution (the diluent mole fraction)',
+  } as const;
+  const example = {
+    phi: 'a number above 0 such as 1 or 0.8',
+    dilution: 'a number from 0 to below 1 such as 0.95',
+  } as const;
   for (const f of ['phi', 'dilution'] as const) {
     if (f === 'dilution' && !v.diluent.trim()) {
-      if (v.dilution.trim() && !NUMBER.test(v.dilution)) return { field: f, message: `${label[f]} "${v[f]}" is not a number; with no diluent leave it empty or 0` };
+      if (v.dilution.trim() && !NUMBER.test(v.dilution))
+        return {
+          field: f,
+          message: `${label[f]} "${v[f]}" is not a number; with no diluent leave it empty or 0`,
+        };
       continue;
     }
     if (!v[f].trim()) return { field: f, message: `${label[f]} is empty: give ${example[f]}` };
-    if (!NUMBER.test(v[f])) return { field: f, message: `${label[f]} "${v[f]}" is not a number: give ${example[f]}` };
+    if (!NUMBER.test(v[f]))
+      return { field: f, message: `${label[f]} "${v[f]}" is not a number: give ${example[f]}` };
   }
   return undefined;
 }
@@ -90,11 +125,21 @@ export function makeEvaluator(labFile?: string) {
       return { preview: previewOf(plan) };
     } catch (e) {
       // not a problem the core words (a bug): say so rather than end the wizard with the design in it
-      if (!(e instanceof ProblemError)) return { error: { message: `the plan failed unexpectedly (${(e as Error).message}); this is a bug: note the values on screen and report them` } };
+      if (!(e instanceof ProblemError))
+        return {
+          error: {
+            message:
+              `the plan failed unexpectedly (${(e as Error).message}); this is a bug: note ` +
+              `the values on screen and report them`,
+          },
+        };
       const f = e.where.field ?? '';
       const field = FIELD_OF.find(([re]) => re.test(f))?.[1];
       // "did you mean" in the wizard's own ranking, the one Tab completes to (air first in a whole oxidizer)
-      const p = e.problem.code === 'unknown-species' && field ? { ...e.problem, suggestions: rankFor(field, e.problem.name, !/[,:]/.test(v[field])).slice(0, 3) } : e.problem;
+      const p =
+        e.problem.code === 'unknown-species' && field
+          ? { ...e.problem, suggestions: rankFor(field, e.problem.name, !/[,:]/.test(v[field])).slice(0, 3) }
+          : e.problem;
       return { error: { field, message: describeProblem(p) } };
     }
   };
@@ -108,15 +153,25 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
       .map(([k, x]) => `${k} ${fixedSig(x, 4)}`)
       .join('  '),
   );
-  lines.push(`final ${fixedSig(fromPa(plan.final.pressurePa, 'Torr'), 6)} Torr, Z ${plan.final.compressibility.toFixed(5)}`);
+  lines.push(
+    `final ${fixedSig(fromPa(plan.final.pressurePa, 'Torr'), 6)} Torr, Z ${plan.final.compressibility.toFixed(5)}`,
+  );
   for (const s of plan.steps) {
     const u = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : 'Torr';
     const dec = s.gauge ? decimalsFor(fromPa(s.gauge.resolutionPa, u)) : 3;
-    lines.push(`${s.index} ${fillLabel(s.source).padEnd(7)} ${s.gauge?.id ?? 'NO GAUGE'} ${s.gauge ? fromPa(s.gauge.readingPa, u).toFixed(dec) : '-'} ${u}`);
+    lines.push(
+      `${s.index} ${fillLabel(s.source).padEnd(7)} ${s.gauge?.id ?? 'NO GAUGE'} ` +
+        `${s.gauge ? fromPa(s.gauge.readingPa, u).toFixed(dec) : '-'} ${u}`,
+    );
   }
   const rank = { danger: 0, warning: 1, note: 2 } as const;
-  const top = [...plan.findings].filter((f) => f.severity !== 'note').sort((a, b) => rank[a.severity] - rank[b.severity]);
-  for (const f of top.slice(0, 4)) lines.push(`${f.severity === 'danger' ? 'DANGER' : 'warning'} ${f.code}${f.step ? ` (fill ${f.step})` : ''}`);
+  const top = [...plan.findings]
+    .filter((f) => f.severity !== 'note')
+    .sort((a, b) => rank[a.severity] - rank[b.severity]);
+  for (const f of top.slice(0, 4))
+    lines.push(
+      `${f.severity === 'danger' ? 'DANGER' : 'warning'} ${f.code}${f.step ? ` (fill ${f.step})` : ''}`,
+    );
   if (top.length > 4) lines.push(`+${top.length - 4} more; see mixwright plan`);
   return { lines, danger: plan.findings.some((f) => f.severity === 'danger') };
 }

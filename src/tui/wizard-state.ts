@@ -11,7 +11,17 @@
  */
 import { getSpecies, rankSpecies } from '../core/index.js';
 
-export const FIELDS = ['id', 'fuel', 'oxidizer', 'phi', 'diluent', 'dilution', 'tank', 'pressure', 'temperature'] as const;
+export const FIELDS = [
+  'id',
+  'fuel',
+  'oxidizer',
+  'phi',
+  'diluent',
+  'dilution',
+  'tank',
+  'pressure',
+  'temperature',
+] as const;
 export type FieldName = (typeof FIELDS)[number];
 export const ACTIONS = ['save recipe', 'write fill sheet', 'start guided fill'] as const;
 export type ActionName = (typeof ACTIONS)[number];
@@ -67,7 +77,11 @@ export interface WizardState {
 
 /** what the shell reports back after carrying out an action */
 export type ActOutcome =
-  | { readonly kind: 'message'; readonly text: string; /** the recipe file now holds the values on screen */ readonly savedRecipe?: boolean }
+  | {
+      readonly kind: 'message';
+      readonly text: string;
+      /** the recipe file now holds the values on screen */ readonly savedRecipe?: boolean;
+    }
   | { readonly kind: 'confirm'; readonly action: ActionName; readonly file: string; readonly text: string };
 
 export type WizardAction =
@@ -140,7 +154,8 @@ export function completionLine(text: string, field?: FieldName): string {
   const c = completionOf(text, field);
   if (!c.query) return '';
   const label = (k: string) => (k === 'air' ? "air (the lab profile's air)" : `${k} (${getSpecies(k).name})`);
-  if (!c.ranked.length) return `no known species starts with or is close to "${c.query}"; \`mixwright species\` lists them`;
+  if (!c.ranked.length)
+    return `no known species starts with or is close to "${c.query}"; \`mixwright species\` lists them`;
   if (!c.target) return `${label(c.ranked[0])}: ${c.ranked[0] === 'air' ? 'known' : 'a known species'}`;
   const also = c.ranked.slice(1, 5);
   return `Tab: ${label(c.target)}${also.length ? `   also: ${also.join(' ')}` : ''}`;
@@ -162,9 +177,17 @@ export function currentField(s: WizardState): FieldName | undefined {
 
 function answer(s: WizardState, q: Question, yes: boolean): WizardState {
   const base: WizardState = { ...s, question: undefined };
-  if (q.kind === 'leave') return yes ? { ...base, quit: true, message: undefined } : { ...base, message: 'staying: the design is kept on screen; [save recipe] is below the fields' };
+  if (q.kind === 'leave')
+    return yes
+      ? { ...base, quit: true, message: undefined }
+      : { ...base, message: 'staying: the design is kept on screen; [save recipe] is below the fields' };
   if (yes) return { ...base, request: q.action, replace: true, message: undefined };
-  return { ...base, message: `kept ${q.file} as it was; nothing written. To keep both, change the id and ${q.action === 'save recipe' ? 'save' : 'write'} again` };
+  return {
+    ...base,
+    message:
+      `kept ${q.file} as it was; nothing written. To keep both, change the id and ` +
+      `${q.action === 'save recipe' ? 'save' : 'write'} again`,
+  };
 }
 
 function answerKey(s: WizardState, q: Question, a: WizardAction): WizardState {
@@ -188,7 +211,14 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
   };
   switch (a.type) {
     case 'char':
-      return field ? withValue(field, base.values[field] + a.text) : { ...base, message: `"${a.text}" not taken: the cursor is on [${ACTIONS[base.focus - FIELDS.length]}]; Up moves to the fields, Enter does the action` };
+      return field
+        ? withValue(field, base.values[field] + a.text)
+        : {
+            ...base,
+            message:
+              `"${a.text}" not taken: the cursor is on [${ACTIONS[base.focus - FIELDS.length]}]; ` +
+              `Up moves to the fields, Enter does the action`,
+          };
     case 'backspace':
       return field ? withValue(field, base.values[field].slice(0, -1)) : base;
     case 'up':
@@ -196,7 +226,8 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
     case 'down':
       return { ...base, focus: (base.focus + 1) % total };
     case 'complete': {
-      if (!field || !SPECIES_FIELDS.includes(field)) return { ...base, message: 'Tab completes a species name in fuel, oxidizer and diluent' };
+      if (!field || !SPECIES_FIELDS.includes(field))
+        return { ...base, message: 'Tab completes a species name in fuel, oxidizer and diluent' };
       const c = completionOf(base.values[field], field);
       if (c.query && !c.ranked.length) return { ...base, message: completionLine(base.values[field], field) };
       return withValue(field, completeBlend(base.values[field], field));
@@ -204,21 +235,36 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
     case 'escape': {
       const changed = unsavedFields(base);
       if (!changed.length) return { ...base, quit: true };
-      const text = `The design has changes not saved as a recipe (${changed.join(', ')}). Leave without saving? y: leave and lose them   n: stay`;
+      const text =
+        `The design has changes not saved as a recipe (${changed.join(', ')}). Leave ` +
+        `without saving? y: leave and lose them   n: stay`;
       return { ...base, question: { kind: 'leave', text }, message: undefined };
     }
     case 'result': {
       const o = a.outcome;
-      if (o.kind === 'confirm') return { ...base, question: { kind: 'replace', text: o.text, action: o.action, file: o.file }, message: undefined };
+      if (o.kind === 'confirm')
+        return {
+          ...base,
+          question: { kind: 'replace', text: o.text, action: o.action, file: o.file },
+          message: undefined,
+        };
       return { ...base, message: o.text, savedValues: o.savedRecipe ? base.values : base.savedValues };
     }
     case 'enter': {
       if (field) return { ...base, focus: base.focus + 1 };
       const action = ACTIONS[base.focus - FIELDS.length];
       const err = base.evaluation.error;
-      if (err) return { ...base, message: `${action} refused: fix the design first (${err.field ?? 'the design'}, marked !): ${err.message}` };
+      if (err)
+        return {
+          ...base,
+          message: `${action} refused: fix the design first (${err.field ?? 'the design'}, marked !): ${err.message}`,
+        };
       if (action === 'start guided fill' && base.evaluation.preview?.danger) {
-        return { ...base, request: action, message: 'danger findings stand: the guided fill will ask you to acknowledge them' };
+        return {
+          ...base,
+          request: action,
+          message: 'danger findings stand: the guided fill will ask you to acknowledge them',
+        };
       }
       return { ...base, request: action };
     }

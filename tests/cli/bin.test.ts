@@ -5,7 +5,9 @@ import { runCli } from '../helpers.js';
 describe('the built command', () => {
   it('runs the Monte Carlo streams in worker threads and gets the same numbers as the in-process run (same streams, same seeds)', async () => {
     const args = ['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--json', '--trials', '200000', '--seed', '3'];
-    const bundled = JSON.parse(execFileSync(process.execPath, ['dist/mixwright.mjs', ...args], { encoding: 'utf8' }));
+    const bundled = JSON.parse(
+      execFileSync(process.execPath, ['dist/mixwright.mjs', ...args], { encoding: 'utf8' }),
+    );
     const inProcess = JSON.parse((await runCli(args)).stdout);
     for (const k of ['CH4', 'O2', 'Ar']) {
       expect(bundled.composition[k].mc.u).toBe(inProcess.composition[k].mc.u);
@@ -17,7 +19,10 @@ describe('the built command', () => {
     let code = 0;
     let err = '';
     try {
-      execFileSync(process.execPath, ['dist/mixwright.mjs'], { encoding: 'utf8', stdio: ['pipe', 'pipe', 'pipe'] });
+      execFileSync(process.execPath, ['dist/mixwright.mjs'], {
+        encoding: 'utf8',
+        stdio: ['pipe', 'pipe', 'pipe'],
+      });
     } catch (e) {
       code = (e as { status: number }).status;
       err = (e as { stderr: string }).stderr;

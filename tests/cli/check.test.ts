@@ -13,7 +13,15 @@ describe('mixwright check', () => {
   });
 
   it('--json: composition species to {value, u}, phi, verdict (the BRIEF contract)', async () => {
-    const r = await runCli(['check', 'readings/ch4-phi1-ar98.csv', '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', '--json', '--trials', '100000']);
+    const r = await runCli([
+      'check',
+      'readings/ch4-phi1-ar98.csv',
+      '--recipe',
+      'recipes/ch4-o2-ar-phi1.yaml',
+      '--json',
+      '--trials',
+      '100000',
+    ]);
     expect(r.code, r.stderr).toBe(0);
     const j = JSON.parse(r.stdout);
     for (const k of ['CH4', 'O2', 'Ar']) {
@@ -27,7 +35,10 @@ describe('mixwright check', () => {
   it('out of tolerance: exit 4', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const f = join(dir, 'r.csv');
-    writeFileSync(f, 'species,pressure,temperature\nCH4,10.4 Torr,25 degC\nAr,1480 Torr,25 degC\nO2,1500 Torr,25 degC\n');
+    writeFileSync(
+      f,
+      'species,pressure,temperature\nCH4,10.4 Torr,25 degC\nAr,1480 Torr,25 degC\nO2,1500 Torr,25 degC\n',
+    );
     const r = await runCli(['check', f, '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', '--trials', '100000']);
     expect(r.code).toBe(4);
     expect(r.stdout).toContain('FAIL');
@@ -56,7 +67,9 @@ describe('mixwright check', () => {
   it('more trials than memory allows is refused before any work, not an internal error', async () => {
     const r = await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '99999999999']);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/--trials: Monte Carlo trials = 99999999999 is outside the allowed range .* to 10000000/);
+    expect(r.stderr).toMatch(
+      /--trials: Monte Carlo trials = 99999999999 is outside the allowed range .* to 10000000/,
+    );
     expect(r.stderr).toContain('(error code: out-of-range)');
   });
 });

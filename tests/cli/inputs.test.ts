@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
+import {
+  copyFileSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  symlinkSync,
+  writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli, TORR } from '../helpers.js';
@@ -54,10 +62,12 @@ describe('the output file of sheet', () => {
 });
 
 describe('input people type', () => {
-  it('a misspelled unit is named in one sentence (the unit library\'s own full stop is not doubled)', async () => {
+  it("a misspelled unit is named in one sentence (the unit library's own full stop is not doubled)", async () => {
     const r = await runCli(['plan', RECIPE, '--pressure', '1500 Tor']);
     expect(r.code).toBe(2);
-    expect(r.stderr).toContain('cannot read "1500 Tor" as a pressure: Unit "Tor" not found. Give a number and a unit');
+    expect(r.stderr).toContain(
+      'cannot read "1500 Tor" as a pressure: Unit "Tor" not found. Give a number and a unit',
+    );
     expect(r.stderr).not.toContain('..');
   });
   it('a gauge pressure is converted with --barometer: 15 psig at 750 Torr = 15 psi + 750 Torr absolute (definition of gauge pressure)', async () => {
@@ -70,7 +80,10 @@ describe('input people type', () => {
   it('a gauge pressure with no barometer anywhere is refused, saying what to give', async () => {
     const d = tmp();
     const lab = join(d, 'lab.yaml');
-    writeFileSync(lab, DEMO_LAB_YAML.replace(/barometer:\n {2}pressure: 760 Torr\n {2}uncertainty: 0.4 Torr\n/, ''));
+    writeFileSync(
+      lab,
+      DEMO_LAB_YAML.replace(/barometer:\n {2}pressure: 760 Torr\n {2}uncertainty: 0.4 Torr\n/, ''),
+    );
     const r = await runCli(['plan', RECIPE, '--lab', lab, '--pressure', '15 psig']);
     refused(r, 'needs-barometer');
     expect(r.stderr).toMatch(/--pressure.*--barometer/);
@@ -87,13 +100,35 @@ describe('input people type', () => {
     expect((await runCli(['plan', RECIPE, '--temperature', '22 °C'])).code).toBe(0);
   });
   it('--rating for a tank given by --volume: a final pressure above it is the tank-over-rating danger (exit 3)', async () => {
-    const inline = ['plan', '--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.98', '--volume', '10 L', '--pressure', '1500 Torr', '--temperature', '25 degC'];
+    const inline = [
+      'plan',
+      '--fuel',
+      'CH4',
+      '--oxidizer',
+      'O2',
+      '--phi',
+      '1',
+      '--diluent',
+      'Ar',
+      '--dilution',
+      '0.98',
+      '--volume',
+      '10 L',
+      '--pressure',
+      '1500 Torr',
+      '--temperature',
+      '25 degC',
+    ];
     const over = await runCli([...inline, '--rating', '1 bar', '--json']);
     expect(over.code, over.stderr).toBe(3);
-    expect(JSON.parse(over.stdout).findings.map((f: { code: string }) => f.code)).toContain('tank-over-rating');
+    expect(JSON.parse(over.stdout).findings.map((f: { code: string }) => f.code)).toContain(
+      'tank-over-rating',
+    );
     const ok = await runCli([...inline, '--rating', '45 psig', '--working-fraction', '0.9', '--json']);
     expect(ok.code, ok.stderr).toBe(0);
-    expect(JSON.parse(ok.stdout).findings.map((f: { code: string }) => f.code)).not.toContain('tank-rating-unknown');
+    expect(JSON.parse(ok.stdout).findings.map((f: { code: string }) => f.code)).not.toContain(
+      'tank-rating-unknown',
+    );
     refused(await runCli([...inline, '--working-fraction', '0.9']), 'design-missing');
     refused(await runCli(['plan', RECIPE, '--rating', '4 bar']), 'design-conflict');
   });
@@ -116,7 +151,10 @@ describe('check: readings as people write them', () => {
   it('a gauge-referenced sensor in the gauge column: its reading plus --barometer is the absolute pressure', async () => {
     const d = tmp();
     const f = join(d, 'g.csv');
-    writeFileSync(f, 'species,pressure,temperature,gauge\nCH4,50 Torr,25 degC,head-1kT\nAr,5 psi,25 degC,xdcr-100g\nO2,25 psia,25 degC,xdcr-100g\n');
+    writeFileSync(
+      f,
+      'species,pressure,temperature,gauge\nCH4,50 Torr,25 degC,head-1kT\nAr,5 psi,25 degC,xdcr-100g\nO2,25 psia,25 degC,xdcr-100g\n',
+    );
     const r = await runCli(['check', f, '--barometer', '750 Torr', '--json', '--trials', '100000']);
     expect([0, 4]).toContain(r.code);
     const p = JSON.parse(r.stdout).readings.map((x: { pressure_Pa: number }) => x.pressure_Pa);
@@ -125,7 +163,10 @@ describe('check: readings as people write them', () => {
     expect(Math.abs(p[2] - 25 * PSI)).toBeLessThan(1e-6); // "psia" says absolute
   });
   it('--barometer on a batch log is refused (the log records its own)', async () => {
-    refused(await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--barometer', '750 Torr']), 'design-conflict');
+    refused(
+      await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--barometer', '750 Torr']),
+      'design-conflict',
+    );
   });
   it('a folder with a bad log: exit 2 and the refused file named on stderr', async () => {
     const d = tmp();

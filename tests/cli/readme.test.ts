@@ -8,9 +8,13 @@ import { join, resolve } from 'node:path';
 // reads the user's own logs (fill writes them into batches/ by default)
 const shipped = (dir: string): string[] => {
   try {
-    return execFileSync('git', ['ls-files', '--', dir], { encoding: 'utf8' }).split('\n').filter((f) => f.startsWith(`${dir}/`));
+    return execFileSync('git', ['ls-files', '--', dir], { encoding: 'utf8' })
+      .split('\n')
+      .filter((f) => f.startsWith(`${dir}/`));
   } catch {
-    return readdirSync(dir).filter((f) => f.startsWith('demo-') || dir !== 'batches').map((f) => `${dir}/${f}`);
+    return readdirSync(dir)
+      .filter((f) => f.startsWith('demo-') || dir !== 'batches')
+      .map((f) => `${dir}/${f}`);
   }
 };
 const work = mkdtempSync(join(tmpdir(), 'mw-readme-'));
@@ -23,11 +27,20 @@ const bundle = resolve('dist/mixwright.mjs');
 // every `$ mixwright ...` line of the README's console blocks runs against the built bundle
 const readme = readFileSync('README.md', 'utf8');
 const blocks = [...readme.matchAll(/```console\n([\s\S]*?)```/g)].map((m) => m[1]);
-const commands = blocks.flatMap((b) => b.split('\n').filter((l) => l.startsWith('$ mixwright')).map((l) => l.slice(2)));
+const commands = blocks.flatMap((b) =>
+  b
+    .split('\n')
+    .filter((l) => l.startsWith('$ mixwright'))
+    .map((l) => l.slice(2)),
+);
 
 function run(cmd: string): { code: number; out: string } {
   try {
-    const out = execFileSync('bash', ['-c', cmd.replace(/^mixwright/, `node ${JSON.stringify(bundle)}`)], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], cwd: work });
+    const out = execFileSync('bash', ['-c', cmd.replace(/^mixwright/, `node ${JSON.stringify(bundle)}`)], {
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'pipe'],
+      cwd: work,
+    });
     return { code: 0, out };
   } catch (e) {
     const err = e as { status: number; stdout: string; stderr: string };
@@ -40,7 +53,11 @@ describe('README examples', () => {
     expect(commands.length).toBeGreaterThanOrEqual(8);
   });
   it('they run on a copy of the shipped demo files only', () => {
-    expect(readdirSync(join(work, 'batches')).sort()).toEqual(shipped('batches').map((f) => f.slice('batches/'.length)).sort());
+    expect(readdirSync(join(work, 'batches')).sort()).toEqual(
+      shipped('batches')
+        .map((f) => f.slice('batches/'.length))
+        .sort(),
+    );
     expect(readdirSync(join(work, 'batches')).length).toBeGreaterThan(0);
   });
   for (const line of commands) {

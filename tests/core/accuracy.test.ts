@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { accuracyRows, TARGET, TARGET_CO2, TARGET_HEAVY, type GridCase, type RecordRow } from '../../scripts/accuracy-lib.js';
+import {
+  accuracyRows,
+  TARGET,
+  TARGET_CO2,
+  TARGET_HEAVY,
+  type GridCase,
+  type RecordRow,
+} from '../../scripts/accuracy-lib.js';
 import { fixture } from '../helpers.js';
 
 // reference: readings from the CoolProp 8.0 HEOS mixture model (scripts/reference/gen_accuracy_grid.py)
@@ -29,10 +36,12 @@ describe('accuracy record (docs/accuracy-record.json, written by npm run accurac
   it(`CO2-containing designs: within ${TARGET_CO2} up to 3 bar everywhere and up to 10 bar at 300-350 K; measured worst 9.1e-4 (C2H6-O2-CO2, 250 K, 10 bar) - the target does not hold at 250 K and 10 bar`, () => {
     const rows = record.rows.filter((r) => r.bath === 'CO2');
     expect(rows.length).toBe(26);
-    for (const r of rows.filter((x) => x.final_bar <= 3)) expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_CO2);
+    for (const r of rows.filter((x) => x.final_bar <= 3))
+      expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_CO2);
     const over = rows.filter((r) => r.model_error > TARGET_CO2).map((r) => r.id);
     expect(over.sort()).toEqual(['c2h6-o2-co2-250K-10bar', 'co2-rich-250K-10bar']);
-    for (const r of rows.filter((x) => x.temperature_K >= 300)) expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_CO2);
+    for (const r of rows.filter((x) => x.temperature_K >= 300))
+      expect(r.model_error, r.id).toBeLessThanOrEqual(TARGET_CO2);
     expect(Math.max(...rows.map((r) => r.model_error))).toBeLessThan(1e-3);
   });
 
@@ -45,7 +54,10 @@ describe('accuracy record (docs/accuracy-record.json, written by npm run accurac
     // every He row is left unjudged because a He pair of the reference spreads over composition by more than our u
     for (const r of record.rows.filter((x) => x.bath === 'He')) {
       expect(r.reference_virial_consistent, r.id).toBe(false);
-      expect(r.pairs_not_from_reference.some((p) => /He/.test(p) && /not virial-consistent/.test(p)), r.id).toBe(true);
+      expect(
+        r.pairs_not_from_reference.some((p) => /He/.test(p) && /not virial-consistent/.test(p)),
+        r.id,
+      ).toBe(true);
     }
   });
 
@@ -56,7 +68,8 @@ describe('accuracy record (docs/accuracy-record.json, written by npm run accurac
   });
 
   it('measured worst cases on record (bounds, not the target): Ar 4.9e-5, N2 6.5e-5, He 3.1e-3, CO2 9.1e-4, heavy 2.9e-4; the ideal-gas plan is off by 2e-3 to 5e-2 there', () => {
-    const worst = (bath: string) => Math.max(...record.rows.filter((r) => r.bath === bath).map((r) => r.model_error));
+    const worst = (bath: string) =>
+      Math.max(...record.rows.filter((r) => r.bath === bath).map((r) => r.model_error));
     expect(worst('Ar')).toBeLessThan(6e-5);
     expect(worst('N2')).toBeLessThan(8e-5);
     expect(worst('He')).toBeLessThan(3.5e-3);
@@ -66,7 +79,9 @@ describe('accuracy record (docs/accuracy-record.json, written by npm run accurac
     // reference mixture model's zero-density B_He-Ar at that composition (about +2 cm3/mol; +18 at the He-rich
     // end) and the combining rule's +19.8 differ by more than the whole non-ideality
     const heAr350 = (x: RecordRow) => x.id.startsWith('ch4-o2-he-ar-') && x.temperature_K === 350;
-    for (const r of record.rows.filter((x) => !heAr350(x))) expect(r.model_error, r.id).toBeLessThan(r.ideal_error);
-    for (const r of record.rows.filter(heAr350)) expect(r.model_error / r.ideal_error, r.id).toBeLessThan(1.6);
+    for (const r of record.rows.filter((x) => !heAr350(x)))
+      expect(r.model_error, r.id).toBeLessThan(r.ideal_error);
+    for (const r of record.rows.filter(heAr350))
+      expect(r.model_error / r.ideal_error, r.id).toBeLessThan(1.6);
   });
 });

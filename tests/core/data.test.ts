@@ -1,11 +1,53 @@
 import { describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
-import { ELEMENTS, getSource, lookup, molarMassKgPerMol, PROPERTY_NAMES, SOURCES, SPECIES, hasThermo, hasReferenceB } from '../../src/core/index.js';
+import {
+  ELEMENTS,
+  getSource,
+  lookup,
+  molarMassKgPerMol,
+  PROPERTY_NAMES,
+  SOURCES,
+  SPECIES,
+  hasThermo,
+  hasReferenceB,
+} from '../../src/core/index.js';
 import nasa from '../../src/core/data/nasa7-thermo.json' with { type: 'json' };
 import virialTable from '../../src/core/data/virial-reference.json' with { type: 'json' };
 import { fixture } from '../helpers.js';
 
-const REQUIRED = ['H2', 'He', 'Ne', 'Ar', 'Kr', 'Xe', 'N2', 'O2', 'CO', 'CO2', 'H2O', 'NH3', 'N2O', 'NO', 'CH4', 'C2H6', 'C2H4', 'C2H2', 'C3H8', 'C3H6', 'n-C4H10', 'i-C4H10', 'n-C5H12', 'n-C7H16', 'i-C8H18', 'C7H8', 'CH3OH', 'C2H5OH', 'CH3OCH3', 'CH2O', 'SF6'];
+const REQUIRED = [
+  'H2',
+  'He',
+  'Ne',
+  'Ar',
+  'Kr',
+  'Xe',
+  'N2',
+  'O2',
+  'CO',
+  'CO2',
+  'H2O',
+  'NH3',
+  'N2O',
+  'NO',
+  'CH4',
+  'C2H6',
+  'C2H4',
+  'C2H2',
+  'C3H8',
+  'C3H6',
+  'n-C4H10',
+  'i-C4H10',
+  'n-C5H12',
+  'n-C7H16',
+  'i-C8H18',
+  'C7H8',
+  'CH3OH',
+  'C2H5OH',
+  'CH3OCH3',
+  'CH2O',
+  'SF6',
+];
 
 describe('species table integrity', () => {
   it('holds every required species, with unique keys and aliases', () => {
@@ -18,7 +60,8 @@ describe('species table integrity', () => {
     for (const sp of SPECIES.values()) {
       expect(SOURCES.has(sp.criticalSource), `${sp.key} critical source`).toBe(true);
       expect(SOURCES.has(sp.dipoleSource), `${sp.key} dipole source`).toBe(true);
-      for (const el of Object.keys(sp.elements)) expect(ELEMENTS.has(el), `${sp.key} element ${el}`).toBe(true);
+      for (const el of Object.keys(sp.elements))
+        expect(ELEMENTS.has(el), `${sp.key} element ${el}`).toBe(true);
     }
     for (const el of ELEMENTS.values()) expect(SOURCES.has(el.source)).toBe(true);
   });
@@ -41,7 +84,9 @@ describe('species table integrity', () => {
 
   it('fingerprint: row count and a checksum of the constants (an accidental edit fails here)', () => {
     expect(SPECIES.size).toBe(31);
-    const text = [...SPECIES.values()].map((s) => [s.key, s.Tc, s.Pc, s.Vc, s.omega, s.dipole, s.polarClass].join('|')).join('\n');
+    const text = [...SPECIES.values()]
+      .map((s) => [s.key, s.Tc, s.Pc, s.Vc, s.omega, s.dipole, s.polarClass].join('|'))
+      .join('\n');
     const sum = createHash('sha256').update(text).digest('hex').slice(0, 16);
     expect(sum).toMatchInlineSnapshot(`"9729144c6c6aa6c2"`);
   });
@@ -60,7 +105,9 @@ describe('species table integrity', () => {
     expect(virialTable.library).toMatch(/CoolProp 8\.0\.0/);
     expect(virialTable.generator).toBe('scripts/reference/gen_virial.py');
     const n = virialTable.temperatures_K.length;
-    for (const [k, v] of Object.entries(virialTable.species as Record<string, { B: number[]; C: number[] }>)) {
+    for (const [k, v] of Object.entries(
+      virialTable.species as Record<string, { B: number[]; C: number[] }>,
+    )) {
       expect(SPECIES.has(k), k).toBe(true);
       expect(v.B.length).toBe(n);
       expect(v.C.length).toBe(n);
@@ -86,7 +133,16 @@ describe('molar masses', () => {
 
 describe('safety, vapour and transport tables: integrity', () => {
   it('every key is a known species, every source resolves, every value is in its physical range', async () => {
-    const { FUEL_SAFETY, INERT_K, ANTOINE, WAGNER, LENNARD_JONES, FULLER_VOLUMES, SOURCES: S, oxygenDemand } = await import('../../src/core/index.js');
+    const {
+      FUEL_SAFETY,
+      INERT_K,
+      ANTOINE,
+      WAGNER,
+      LENNARD_JONES,
+      FULLER_VOLUMES,
+      SOURCES: S,
+      oxygenDemand,
+    } = await import('../../src/core/index.js');
     for (const [k, r] of FUEL_SAFETY) {
       expect(SPECIES.has(k), k).toBe(true);
       expect(oxygenDemand(SPECIES.get(k)!.elements), `${k} is a fuel`).toBeGreaterThan(0);
@@ -95,12 +151,15 @@ describe('safety, vapour and transport tables: integrity', () => {
         expect(v.value).toBeGreaterThanOrEqual(0);
         expect(v.value).toBeLessThanOrEqual(1);
       }
-      expect(Math.min(...r.lflAir.map((v) => v.value))).toBeLessThan(Math.max(...r.uflAir.map((v) => v.value)));
+      expect(Math.min(...r.lflAir.map((v) => v.value))).toBeLessThan(
+        Math.max(...r.uflAir.map((v) => v.value)),
+      );
       if (r.ait) expect(r.ait.value).toBeGreaterThan(400);
       for (const v of r.aitListed ?? []) expect(S.has(v.source), `${k} ${v.source}`).toBe(true);
     }
     // every fuel of the species table has limits on file
-    for (const sp of SPECIES.values()) if (oxygenDemand(sp.elements) > 0) expect(FUEL_SAFETY.has(sp.key), sp.key).toBe(true);
+    for (const sp of SPECIES.values())
+      if (oxygenDemand(sp.elements) > 0) expect(FUEL_SAFETY.has(sp.key), sp.key).toBe(true);
     for (const [k, v] of INERT_K) {
       expect(SPECIES.has(k)).toBe(true);
       expect(S.has(v.source)).toBe(true);
@@ -111,7 +170,8 @@ describe('safety, vapour and transport tables: integrity', () => {
       expect(a.TminK).toBeLessThan(a.TmaxK);
     }
     for (const [k, w] of WAGNER) expect(SPECIES.has(k) && S.has(w.source)).toBe(true);
-    for (const [k, l] of LENNARD_JONES) expect(SPECIES.has(k) && S.has(l.source) && l.sigmaA > 0 && l.epsK > 0).toBe(true);
+    for (const [k, l] of LENNARD_JONES)
+      expect(SPECIES.has(k) && S.has(l.source) && l.sigmaA > 0 && l.epsK > 0).toBe(true);
     for (const [k, f] of FULLER_VOLUMES) expect(SPECIES.has(k) && S.has(f.source) && f.volume > 0).toBe(true);
     expect(FUEL_SAFETY.size).toBe(19);
     expect(ANTOINE.size).toBe(11);
@@ -123,8 +183,20 @@ describe('safety, vapour and transport tables: integrity', () => {
     const { FUEL_SAFETY } = await import('../../src/core/index.js');
     const f = (v?: { value: number; source: string }) => (v ? `${v.value}@${v.source}` : '-');
     const text = [...FUEL_SAFETY.values()]
-      .map((r) => [r.key, r.lflAir.map(f).join(','), r.uflAir.map(f).join(','), f(r.uflO2), f(r.loc), f(r.ait), (r.aitListed ?? []).map(f).join(',')].join('|'))
+      .map((r) =>
+        [
+          r.key,
+          r.lflAir.map(f).join(','),
+          r.uflAir.map(f).join(','),
+          f(r.uflO2),
+          f(r.loc),
+          f(r.ait),
+          (r.aitListed ?? []).map(f).join(','),
+        ].join('|'),
+      )
       .join('\n');
-    expect(createHash('sha256').update(text).digest('hex').slice(0, 16)).toMatchInlineSnapshot(`"126ca59f166598e6"`);
+    expect(createHash('sha256').update(text).digest('hex').slice(0, 16)).toMatchInlineSnapshot(
+      `"126ca59f166598e6"`,
+    );
   });
 });

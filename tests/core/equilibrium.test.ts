@@ -41,19 +41,28 @@ const cases = ref.cases as RefCase[];
 
 /** atoms of every species, read from the data files (independent of the solver's tables) */
 const atoms: Record<string, Record<string, number>> = {};
-for (const [k, v] of Object.entries({ ...base.species, ...products.species } as Record<string, { composition: Record<string, number> }>)) atoms[k] = v.composition;
+for (const [k, v] of Object.entries({ ...base.species, ...products.species } as Record<
+  string,
+  { composition: Record<string, number> }
+>))
+  atoms[k] = v.composition;
 
 function elementTotals(amounts: Record<string, number>): Record<string, number> {
   const out: Record<string, number> = {};
-  for (const [k, n] of Object.entries(amounts)) for (const [e, c] of Object.entries(atoms[k])) out[e] = (out[e] ?? 0) + c * n;
+  for (const [k, n] of Object.entries(amounts))
+    for (const [e, c] of Object.entries(atoms[k])) out[e] = (out[e] ?? 0) + c * n;
   return out;
 }
 
 describe(`constant-volume adiabatic equilibrium (UV) against ${lib} on the same NASA data`, () => {
-  it('the fixture covers lean, stoichiometric, rich and graphite-forming states, Ar/He/N2/CO2 baths and 0.1-10 bar, and the issue\'s rich C2H4/O2/N2 case', () => {
+  it("the fixture covers lean, stoichiometric, rich and graphite-forming states, Ar/He/N2/CO2 baths and 0.1-10 bar, and the issue's rich C2H4/O2/N2 case", () => {
     expect(cases.length).toBeGreaterThanOrEqual(12);
     expect(cases.filter((c) => c.uv_graphite).length).toBeGreaterThanOrEqual(2);
-    for (const bath of ['Ar', 'He', 'N2', 'CO2']) expect(cases.some((c) => (c.X0[bath] ?? 0) > 0.5), bath).toBe(true);
+    for (const bath of ['Ar', 'He', 'N2', 'CO2'])
+      expect(
+        cases.some((c) => (c.X0[bath] ?? 0) > 0.5),
+        bath,
+      ).toBe(true);
     expect(Math.min(...cases.map((c) => c.P0_Pa))).toBeLessThanOrEqual(1e4);
     expect(Math.max(...cases.map((c) => c.P0_Pa))).toBeGreaterThanOrEqual(1e6);
   });
@@ -63,10 +72,11 @@ describe(`constant-volume adiabatic equilibrium (UV) against ${lib} on the same 
       expect(Math.abs(s.pressurePa / c.uv_P_Pa - 1)).toBeLessThan(1e-3);
       expect(Math.abs(s.temperatureK - c.uv_T_K)).toBeLessThan(1);
       expect(s.graphiteMol > 1e-9).toBe(c.uv_graphite);
-      if (c.uv_graphite) expect(Math.abs(s.graphiteMol / c.uv_graphite_mol_per_mol_initial - 1)).toBeLessThan(1e-3);
+      if (c.uv_graphite)
+        expect(Math.abs(s.graphiteMol / c.uv_graphite_mol_per_mol_initial - 1)).toBeLessThan(1e-3);
     });
   }
-  it('the issue\'s case: rich C2H4/O2/N2 24/24/52 % from 0.95 bar reaches about 10.1 bar at equilibrium, 13 % above complete combustion (8.9 bar)', () => {
+  it("the issue's case: rich C2H4/O2/N2 24/24/52 % from 0.95 bar reaches about 10.1 bar at equilibrium, 13 % above complete combustion (8.9 bar)", () => {
     const y = { C2H4: 0.24, O2: 0.24, N2: 0.52 };
     const eq = equilibriumUV(y, 298.15, 95000).pressurePa;
     const complete = 95000 * closedVesselCombustion(y, 298.15).pressureRatio;
@@ -96,8 +106,12 @@ describe(`Chapman-Jouguet detonation against the minimum-velocity computation wi
   it('CJ pressure ratios of stoichiometric fuel/O2 near the handbook values (properties.md 7.6, from memory): H2-O2 about 19, CH4-O2 about 29, C3H8-O2 about 36, within 10 %', () => {
     expect(chapmanJouguet({ H2: 2 / 3, O2: 1 / 3 }, 298.15, 1e5).pressurePa / 1e5 / 19).toBeGreaterThan(0.9);
     expect(chapmanJouguet({ H2: 2 / 3, O2: 1 / 3 }, 298.15, 1e5).pressurePa / 1e5 / 19).toBeLessThan(1.1);
-    expect(Math.abs(chapmanJouguet({ CH4: 1 / 3, O2: 2 / 3 }, 298.15, 1e5).pressurePa / 1e5 / 29 - 1)).toBeLessThan(0.1);
-    expect(Math.abs(chapmanJouguet({ C3H8: 1 / 6, O2: 5 / 6 }, 298.15, 1e5).pressurePa / 1e5 / 36 - 1)).toBeLessThan(0.1);
+    expect(
+      Math.abs(chapmanJouguet({ CH4: 1 / 3, O2: 2 / 3 }, 298.15, 1e5).pressurePa / 1e5 / 29 - 1),
+    ).toBeLessThan(0.1);
+    expect(
+      Math.abs(chapmanJouguet({ C3H8: 1 / 6, O2: 5 / 6 }, 298.15, 1e5).pressurePa / 1e5 / 36 - 1),
+    ).toBeLessThan(0.1);
   });
 });
 
@@ -122,7 +136,12 @@ describe('hand-checkable equilibria', () => {
   });
   it('lean and cool: 10 % H2 in air burns almost completely (dissociation small at 1340 K): UV pressure within 0.5 % of complete combustion', () => {
     const y = { H2: 0.1, O2: 0.189, N2: 0.711 };
-    expect(Math.abs(equilibriumUV(y, 298.15, 1e6).pressurePa / (1e6 * closedVesselCombustion(y, 298.15).pressureRatio) - 1)).toBeLessThan(0.005);
+    expect(
+      Math.abs(
+        equilibriumUV(y, 298.15, 1e6).pressurePa / (1e6 * closedVesselCombustion(y, 298.15).pressureRatio) -
+          1,
+      ),
+    ).toBeLessThan(0.005);
   });
   it('refuses, with a problem naming the species, a state holding a species it has no product data for (SF6: no S or F products)', () => {
     let caught: unknown;
@@ -163,10 +182,13 @@ describe('properties of the equilibrium (fast-check)', () => {
         }
         expect(Math.abs(sum - 1)).toBeLessThan(1e-9);
         const before = elementTotals(y);
-        const after = elementTotals(Object.fromEntries(Object.entries(s.gas).map(([k, x]) => [k, x * s.gasMol])));
+        const after = elementTotals(
+          Object.fromEntries(Object.entries(s.gas).map(([k, x]) => [k, x * s.gasMol])),
+        );
         after.C = (after.C ?? 0) + s.graphiteMol;
         const ySum = Object.values(y).reduce((a, b) => a + b, 0);
-        for (const [e, b] of Object.entries(before)) expect(Math.abs((after[e] ?? 0) - b / ySum), e).toBeLessThan(1e-9 * Math.max(1, b));
+        for (const [e, b] of Object.entries(before))
+          expect(Math.abs((after[e] ?? 0) - b / ySum), e).toBeLessThan(1e-9 * Math.max(1, b));
         let u0 = 0;
         for (const [k, v] of Object.entries(y)) u0 += (v / ySum) * (enthalpyMolar(k, 298.15) - R * 298.15);
         expect(Math.abs(s.internalEnergyJ - u0)).toBeLessThan(1e-6 * Math.max(1, Math.abs(u0)) + 1e-3);
@@ -193,7 +215,10 @@ describe('detonability (data/detonation-data.ts: published limits, all recalled 
   });
   it('a fuel without published limits (C2H6) falls back to the conservative rule: detonable below 50 % N2-equivalent inert, said so', () => {
     expect(detonability({ C2H6: 2 / 9, O2: 7 / 9 })).toMatchObject({ detonable: true, basis: 'inert-rule' });
-    expect(detonability({ C2H6: 0.05, O2: 0.175, N2: 0.775 })).toMatchObject({ detonable: false, basis: 'inert-rule' });
+    expect(detonability({ C2H6: 0.05, O2: 0.175, N2: 0.775 })).toMatchObject({
+      detonable: false,
+      basis: 'inert-rule',
+    });
   });
   it('limits interpolate between air and O2 in the oxygen share: 50 % H2 in O2-enriched air (50 % O2 share) lies between the air and O2 limits', () => {
     const d = detonability({ H2: 0.5, O2: 0.25, N2: 0.25 });
@@ -205,7 +230,10 @@ describe('detonability (data/detonation-data.ts: published limits, all recalled 
 
 describe('data integrity: product species and detonation limits', () => {
   it('nasa7-products.json: 15 species (14 gases and graphite), 7 coefficients per range, the TM-4513 source named; the equilibrium uses 51 (the 36 C/H/O/N/noble-gas species of nasa7-thermo, 14 product gases, graphite)', () => {
-    const sp = products.species as Record<string, { coefficients: number[][]; temperatureRanges: number[]; phase: string }>;
+    const sp = products.species as Record<
+      string,
+      { coefficients: number[][]; temperatureRanges: number[]; phase: string }
+    >;
     expect(Object.keys(sp).length).toBe(15);
     expect(sp['C(gr)'].phase).toBe('solid');
     for (const [k, v] of Object.entries(sp)) {
@@ -219,7 +247,8 @@ describe('data integrity: product species and detonation limits', () => {
   it('detonation limits: 9 published pairs, every source resolves and is marked from memory, low < high, and inside the flammable range of the fuel (NFPA 497 / IEC LFL in air; UFL in O2)', () => {
     expect(DETONATION_LIMITS.length).toBe(9);
     for (const r of DETONATION_LIMITS) {
-      for (const v of [r.low, r.high]) expect(getSource(v.source).quality, `${r.fuel}-${r.oxidizer}`).toBe('from-memory');
+      for (const v of [r.low, r.high])
+        expect(getSource(v.source).quality, `${r.fuel}-${r.oxidizer}`).toBe('from-memory');
       expect(r.low.value).toBeLessThan(r.high.value);
       const f = FUEL_SAFETY.get(r.fuel)!;
       expect(r.low.value).toBeGreaterThanOrEqual(Math.min(...f.lflAir.map((x) => x.value)));

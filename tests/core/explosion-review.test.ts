@@ -3,11 +3,17 @@ import { describeFinding, reviewState, type Finding } from '../../src/core/index
 import { fixture } from '../helpers.js';
 
 const ref = fixture('equilibrium-cantera.json');
-const refCase = (name: string) => (ref.cases as { name: string; uv_P_Pa: number; cj_P_Pa?: number; hp_T_K?: number }[]).find((c) => c.name.startsWith(name))!;
+const refCase = (name: string) =>
+  (ref.cases as { name: string; uv_P_Pa: number; cj_P_Pa?: number; hp_T_K?: number }[]).find((c) =>
+    c.name.startsWith(name),
+  )!;
 const bar = (pa: number) => `${(pa / 1e5).toFixed(3)} bar`;
 
 function review(composition: Record<string, number>, pressurePa: number, workingLimitPa?: number) {
-  return reviewState({ step: 1, composition, pressurePa, final: true }, { temperatureK: 298.15, tankId: 'T', workingLimitPa }).findings;
+  return reviewState(
+    { step: 1, composition, pressurePa, final: true },
+    { temperatureK: 298.15, tankId: 'T', workingLimitPa },
+  ).findings;
 }
 const find = (fs: Finding[], code: string) => fs.find((f) => f.code === code);
 
@@ -48,14 +54,20 @@ describe('detonation finding: published limits, CJ and reflected pressure, sever
     expect(describeFinding(f, bar)).toMatch(/not made in a mixing tank/);
   });
   it('stoichiometric H2-air at 1 bar in a tank with a 10 bar working limit: reflected about 2.5 x 15.6 bar = 39 bar - danger (it was only a warning under the old inert rule)', () => {
-    const f = find(review({ H2: 0.2958, O2: 0.21 * 0.7042, N2: 0.79 * 0.7042 }, 1e5, 10e5), 'detonable-state')!;
+    const f = find(
+      review({ H2: 0.2958, O2: 0.21 * 0.7042, N2: 0.79 * 0.7042 }, 1e5, 10e5),
+      'detonable-state',
+    )!;
     expect(f.severity).toBe('danger');
     if (f.code !== 'detonable-state') throw new Error('unreachable');
     expect(f.basis).toBe('published-limits');
     expect(Math.abs(f.reflectedPa! / 39e5 - 1)).toBeLessThan(0.01);
   });
   it('the same H2-air at 0.1 bar: reflected about 3.9 bar, under the 10 bar limit - a warning that gives the numbers', () => {
-    const f = find(review({ H2: 0.2958, O2: 0.21 * 0.7042, N2: 0.79 * 0.7042 }, 1e4, 10e5), 'detonable-state')!;
+    const f = find(
+      review({ H2: 0.2958, O2: 0.21 * 0.7042, N2: 0.79 * 0.7042 }, 1e4, 10e5),
+      'detonable-state',
+    )!;
     expect(f.severity).toBe('warning');
     const text = describeFinding(f, bar);
     expect(text).toMatch(/Chapman-Jouguet/);
@@ -82,7 +94,10 @@ describe('flame temperatures shown are equilibrium values; complete combustion i
     expect(text).toMatch(/\d+ K by complete combustion \(a cross-check/);
   });
   it(`stoichiometric CH4-air: equilibrium flame within 1 K of ${ref.library} (HP)`, () => {
-    const f = find(review({ CH4: 0.0950226, O2: 0.1900452, N2: 0.7149321 }, 101325, 100e5), 'flammable-mixture')!;
+    const f = find(
+      review({ CH4: 0.0950226, O2: 0.1900452, N2: 0.7149321 }, 101325, 100e5),
+      'flammable-mixture',
+    )!;
     if (f.code !== 'flammable-mixture') throw new Error('unreachable');
     expect(Math.abs(f.flameEquilibriumK! - refCase('stoichiometric CH4-air').hp_T_K!)).toBeLessThan(1);
   });

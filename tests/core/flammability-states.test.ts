@@ -7,7 +7,18 @@
  * danger finding on a state clearly outside the published limits.
  */
 import { describe, expect, it } from 'vitest';
-import { assessFlammability, blendLimits, describeFinding, envelopePolygon, insidePolygon, reviewState, richLimitCalibration, SOURCES, uflAtOxygenShare, type Fractions } from '../../src/core/index.js';
+import {
+  assessFlammability,
+  blendLimits,
+  describeFinding,
+  envelopePolygon,
+  insidePolygon,
+  reviewState,
+  richLimitCalibration,
+  SOURCES,
+  uflAtOxygenShare,
+  type Fractions,
+} from '../../src/core/index.js';
 import { fixture } from '../helpers.js';
 
 interface Entry {
@@ -42,19 +53,29 @@ describe('final states with published verdicts', () => {
   it('at least 60 states, each source key resolves, both verdicts and all seven fuels represented', () => {
     expect(states.length).toBeGreaterThanOrEqual(60);
     for (const e of states) for (const k of e.source) expect(SOURCES.has(k), `${e.id}: ${k}`).toBe(true);
-    expect(new Set(states.map((e) => e.fuel))).toEqual(new Set(['H2', 'CH4', 'C2H4', 'C2H2', 'C3H8', 'CO', 'n-C7H16']));
+    expect(new Set(states.map((e) => e.fuel))).toEqual(
+      new Set(['H2', 'CH4', 'C2H4', 'C2H2', 'C3H8', 'CO', 'n-C7H16']),
+    );
     for (const f of ['H2', 'CH4', 'C2H4', 'C3H8', 'CO']) {
       // both sides of LFL and UFL, in air and in O2
       const of = states.filter((e) => e.fuel === f);
       for (const where of ['air', 'O2'] as const) {
-        expect(of.some((e) => e.in === where && e.published === 'flammable'), `${f} flammable in ${where}`).toBe(true);
-        expect(of.filter((e) => e.in === where && e.published === 'non-flammable').length, `${f} outside in ${where}`).toBeGreaterThanOrEqual(where === 'air' ? 3 : 2);
+        expect(
+          of.some((e) => e.in === where && e.published === 'flammable'),
+          `${f} flammable in ${where}`,
+        ).toBe(true);
+        expect(
+          of.filter((e) => e.in === where && e.published === 'non-flammable').length,
+          `${f} outside in ${where}`,
+        ).toBeGreaterThanOrEqual(where === 'air' ? 3 : 2);
       }
     }
   });
 
   it('0 false "safe" verdicts: every published-flammable state is judged flammable (the tolerance is exact: no margin)', () => {
-    const falseSafe = states.filter((e) => e.published === 'flammable').filter((e) => assessFlammability(composition(e), T, e.pressure_kPa * 1000).verdict !== 'flammable');
+    const falseSafe = states
+      .filter((e) => e.published === 'flammable')
+      .filter((e) => assessFlammability(composition(e), T, e.pressure_kPa * 1000).verdict !== 'flammable');
     expect(falseSafe.map((e) => e.id)).toEqual([]);
   });
 
@@ -64,7 +85,10 @@ describe('final states with published verdicts', () => {
     const dangers: string[] = [];
     const flagged: string[] = [];
     for (const e of clear) {
-      const r = reviewState({ step: 2, composition: composition(e), pressurePa: e.pressure_kPa * 1000, final: true }, ctx);
+      const r = reviewState(
+        { step: 2, composition: composition(e), pressurePa: e.pressure_kPa * 1000, final: true },
+        ctx,
+      );
       for (const f of r.findings) if (f.severity === 'danger') dangers.push(`${e.id}: ${f.code}`);
       if (r.flammability.verdict === 'flammable') flagged.push(e.id);
     }
@@ -73,7 +97,10 @@ describe('final states with published verdicts', () => {
   });
 
   it('states above the UFL in air and in O2 are judged on the rich side against the UFL calibration, not the LFL one', () => {
-    for (const e of states.filter((s) => s.published === 'non-flammable' && s.clearly && s.note.startsWith('1.25 x the higher listed UFL'))) {
+    for (const e of states.filter(
+      (s) =>
+        s.published === 'non-flammable' && s.clearly && s.note.startsWith('1.25 x the higher listed UFL'),
+    )) {
       const a = assessFlammability(composition(e), T, e.pressure_kPa * 1000);
       expect(a.distance!.side, e.id).toBe('rich');
       expect(a.distance!.fuelOverUfl!, e.id).toBeGreaterThan(1);
@@ -90,10 +117,14 @@ describe('degenerate envelope edges', () => {
       const [a, b] = [poly[i], poly[(i + 1) % poly.length]];
       expect(Math.hypot(a[0] - b[0], a[1] - b[1]), `edge ${i}`).toBeGreaterThan(1e-9);
     }
-    expect(assessFlammability({ C2H2: 0.001, O2: 0.21 * 0.999, N2: 0.79 * 0.999 }, T, 101325).verdict).toBe('non-flammable');
+    expect(assessFlammability({ C2H2: 0.001, O2: 0.21 * 0.999, N2: 0.79 * 0.999 }, T, 101325).verdict).toBe(
+      'non-flammable',
+    );
     expect(assessFlammability({ C2H2: 0.01, O2: 0.99 }, T, 101325).byEnvelope).not.toBe('flammable');
     // inside stays inside: stoichiometric C2H2-air (7.7 %, between 2.3 and 100 %)
-    expect(assessFlammability({ C2H2: 0.0775, O2: 0.21 * 0.9225, N2: 0.79 * 0.9225 }, T, 101325).verdict).toBe('flammable');
+    expect(
+      assessFlammability({ C2H2: 0.0775, O2: 0.21 * 0.9225, N2: 0.79 * 0.9225 }, T, 101325).verdict,
+    ).toBe('flammable');
   });
   it('any limits with a LOC of 0 and a UFL of 100 % give a polygon without repeated vertices, and a point far from it is outside', () => {
     const l = { lfl: 0.05, ufl: 1, uflO2: 1, loc: 0, z: 2, estimated: [], missing: [], sources: [] };
@@ -102,7 +133,17 @@ describe('degenerate envelope edges', () => {
     expect(insidePolygon([0.001, 0.5], poly)).toBe(false);
     expect(insidePolygon([0.3, 0.3], poly)).toBe(true);
     // a zero-length edge handed in directly holds only its own point
-    expect(insidePolygon([0.001, 0.5], [[0.05, 0.95], [0.05, 0.2], [1, 0], [1, 0]])).toBe(false);
+    expect(
+      insidePolygon(
+        [0.001, 0.5],
+        [
+          [0.05, 0.95],
+          [0.05, 0.2],
+          [1, 0],
+          [1, 0],
+        ],
+      ),
+    ).toBe(false);
   });
 });
 
@@ -110,25 +151,45 @@ describe('a LOC of 0 in a blend', () => {
   it('1 % C2H2 in the fuel no longer drags the blend LOC to 0: CH4 LOC 10.7 % (ASTM E2079) x 0.99 (our linear rule, exact), and 8 % of that fuel with 5 % O2 in N2 is not flammable; pure C2H2 keeps its LOC of 0', () => {
     expect(blendLimits({ CH4: 0.99, C2H2: 0.01 }, T, 101325).loc).toBeCloseTo(0.107 * 0.99, 12);
     expect(blendLimits({ C2H2: 1 }, T, 101325).loc).toBe(0);
-    expect(assessFlammability({ CH4: 0.0792, C2H2: 0.0008, O2: 0.05, N2: 0.87 }, T, 101325).verdict).not.toBe('flammable');
+    expect(assessFlammability({ CH4: 0.0792, C2H2: 0.0008, O2: 0.05, N2: 0.87 }, T, 101325).verdict).not.toBe(
+      'flammable',
+    );
   });
 });
 
 describe('rich-side calibration', () => {
   it('the rich-limit flame temperature reproduces the UFL it is calibrated on: CH4, C3H8, H2 in air at 0.98 x the IEC 60079-20-1 UFL flammable by flame temperature, at 1.02 x not (tolerance 2 % of the UFL)', () => {
-    for (const [fuel, ufl] of [['CH4', 0.17], ['C3H8', 0.109], ['H2', 0.77]] as const) {
+    for (const [fuel, ufl] of [
+      ['CH4', 0.17],
+      ['C3H8', 0.109],
+      ['H2', 0.77],
+    ] as const) {
       expect(richLimitCalibration(fuel)!.air.ufl).toBe(ufl);
-      const at = (x: number) => assessFlammability({ [fuel]: x, O2: 0.21 * (1 - x), N2: 0.79 * (1 - x) }, T, 101325);
+      const at = (x: number) =>
+        assessFlammability({ [fuel]: x, O2: 0.21 * (1 - x), N2: 0.79 * (1 - x) }, T, 101325);
       expect(at(0.98 * ufl).byFlameTemperature, fuel).toBe('flammable');
       expect(at(1.02 * ufl).byFlameTemperature, fuel).not.toBe('flammable');
       expect(at(1.02 * ufl).distance!.side).toBe('rich');
     }
   });
   it('in O2 the calibration is the UFL in O2 (Coward & Jones: CH4 60.5 %, H2 95.8 %): 0.98 x flammable, 1.02 x not, by flame temperature', () => {
-    for (const [fuel, ufl] of [['CH4', 0.605], ['H2', 0.958]] as const) {
+    for (const [fuel, ufl] of [
+      ['CH4', 0.605],
+      ['H2', 0.958],
+    ] as const) {
       expect(richLimitCalibration(fuel)!.oxygen!.ufl).toBe(ufl);
-      expect(assessFlammability({ [fuel]: 0.98 * ufl, O2: 1 - 0.98 * ufl }, T, 101325).byFlameTemperature, fuel).toBe('flammable');
-      expect(assessFlammability({ [fuel]: Math.min(0.999, 1.02 * ufl), O2: 1 - Math.min(0.999, 1.02 * ufl) }, T, 101325).byFlameTemperature, fuel).not.toBe('flammable');
+      expect(
+        assessFlammability({ [fuel]: 0.98 * ufl, O2: 1 - 0.98 * ufl }, T, 101325).byFlameTemperature,
+        fuel,
+      ).toBe('flammable');
+      expect(
+        assessFlammability(
+          { [fuel]: Math.min(0.999, 1.02 * ufl), O2: 1 - Math.min(0.999, 1.02 * ufl) },
+          T,
+          101325,
+        ).byFlameTemperature,
+        fuel,
+      ).not.toBe('flammable');
     }
   });
   it('acetylene has no rich calibration (UFL 100 %): its rich states are judged by the envelope alone', () => {
@@ -183,7 +244,9 @@ describe('the limit flame temperature is continuous across stoichiometric', () =
         const rich = at(1 + 1e-6);
         expect(lean.distance!.side).toBe('lean');
         expect(rich.distance!.side).toBe('rich');
-        expect(Math.abs(lean.limitFlameK! - rich.limitFlameK!), `${fuel} at O2 share ${share}`).toBeLessThan(0.01);
+        expect(Math.abs(lean.limitFlameK! - rich.limitFlameK!), `${fuel} at O2 share ${share}`).toBeLessThan(
+          0.01,
+        );
       }
     }
   });

@@ -1,6 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { bMix, cMix, compressibility, densityFromPressure, pressureFromDensity, ProblemError, R, virialModel } from '../../src/core/index.js';
+import {
+  bMix,
+  cMix,
+  compressibility,
+  densityFromPressure,
+  pressureFromDensity,
+  ProblemError,
+  R,
+  virialModel,
+} from '../../src/core/index.js';
 import { fixture } from '../helpers.js';
 
 describe('mixture equation of state', () => {
@@ -8,7 +17,10 @@ describe('mixture equation of state', () => {
   it('pure-gas Z at 298.15 K, 1 and 5 bar, within 1e-4 of the reference EOS (properties.md section 4); C3H8 at 5 bar within 1e-3', () => {
     for (const [k, v] of Object.entries(zref.values as Record<string, { '1bar': number; '5bar': number }>)) {
       const m = virialModel([k], 298.15);
-      for (const [label, P] of [['1bar', 1e5], ['5bar', 5e5]] as const) {
+      for (const [label, P] of [
+        ['1bar', 1e5],
+        ['5bar', 5e5],
+      ] as const) {
         const rho = densityFromPressure(P, 298.15, m.B[0][0], m.C[0]);
         const Z = compressibility(rho, m.B[0][0], m.C[0]);
         // propane at 5 bar (Tr 0.81, Z 0.915): the truncated series misses D rho^3
@@ -28,26 +40,36 @@ describe('mixture equation of state', () => {
   it('property: P -> rho -> P round trip to 1e-12 relative for any state 1 Pa - 20 bar, 250-450 K', () => {
     const m = virialModel(['CH4', 'O2', 'Ar', 'CO2', 'He'], 300);
     fc.assert(
-      fc.property(fc.double({ min: 1, max: 2e6, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }), (P, a, b) => {
-        const y = { CH4: a, O2: b, Ar: 1 - a * b, CO2: 0.1, He: 0.05 };
-        const B = bMix(m, y);
-        const C = cMix(m, y);
-        const rho = densityFromPressure(P, 300, B, C);
-        return Math.abs(pressureFromDensity(rho, 300, B, C) / P - 1) < 1e-12;
-      }),
+      fc.property(
+        fc.double({ min: 1, max: 2e6, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (P, a, b) => {
+          const y = { CH4: a, O2: b, Ar: 1 - a * b, CO2: 0.1, He: 0.05 };
+          const B = bMix(m, y);
+          const C = cMix(m, y);
+          const rho = densityFromPressure(P, 300, B, C);
+          return Math.abs(pressureFromDensity(rho, 300, B, C) / P - 1) < 1e-12;
+        },
+      ),
     );
   });
 
   it('property: dP/drho from the analytic form matches a central finite difference to 1e-7', () => {
     fc.assert(
-      fc.property(fc.double({ min: 1, max: 500, noNaN: true }), fc.double({ min: -500e-6, max: 50e-6, noNaN: true }), (rho, B) => {
-        const C = 2e-9;
-        const T = 298.15;
-        const h = rho * 1e-6;
-        const fd = (pressureFromDensity(rho + h, T, B, C) - pressureFromDensity(rho - h, T, B, C)) / (2 * h);
-        const an = R * T * (1 + 2 * B * rho + 3 * C * rho * rho);
-        return Math.abs(fd / an - 1) < 1e-7;
-      }),
+      fc.property(
+        fc.double({ min: 1, max: 500, noNaN: true }),
+        fc.double({ min: -500e-6, max: 50e-6, noNaN: true }),
+        (rho, B) => {
+          const C = 2e-9;
+          const T = 298.15;
+          const h = rho * 1e-6;
+          const fd =
+            (pressureFromDensity(rho + h, T, B, C) - pressureFromDensity(rho - h, T, B, C)) / (2 * h);
+          const an = R * T * (1 + 2 * B * rho + 3 * C * rho * rho);
+          return Math.abs(fd / an - 1) < 1e-7;
+        },
+      ),
     );
   });
 

@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { designMixture, planFill, pureCylinder, premix, R, type Gauge, type PlanInput } from '../../src/core/index.js';
+import {
+  designMixture,
+  planFill,
+  pureCylinder,
+  premix,
+  R,
+  type Gauge,
+  type PlanInput,
+} from '../../src/core/index.js';
 import { fixture, TORR } from '../helpers.js';
 
 const worked = fixture('worked-plan.json');
@@ -20,7 +28,13 @@ const head = (id: string, fsTorr: number, resTorr: number): Gauge => ({
 });
 const GAUGES = [head('h10', 10, 1e-4), head('h1k', 1000, 0.01), head('h10k', 10000, 0.1)];
 
-function pureInput(x: Record<string, number>, order: string[], T: number, Pf: number, volumeM3 = 0.01): PlanInput {
+function pureInput(
+  x: Record<string, number>,
+  order: string[],
+  T: number,
+  Pf: number,
+  volumeM3 = 0.01,
+): PlanInput {
   return {
     design: designMixture({ kind: 'fractions', fractions: x }),
     finalPressurePa: Pf,
@@ -36,8 +50,18 @@ function pureInput(x: Record<string, number>, order: string[], T: number, Pf: nu
 
 describe('fill plan against outside references', () => {
   it('worked vector of properties.md 1.2 (CoolProp 8.0): targets 50.038 / 150.106 / 1000.000 Torr within 0.01 Torr, amount 0.538290 mol within 0.01 %', () => {
-    const plan = planFill(pureInput(worked.composition, worked.order, worked.temperature_K, worked.final_Torr * TORR, worked.volume_L / 1000));
-    plan.steps.forEach((s, i) => expect(Math.abs(s.targetPa / TORR - worked.targets_Torr[i]), s.species).toBeLessThan(0.01));
+    const plan = planFill(
+      pureInput(
+        worked.composition,
+        worked.order,
+        worked.temperature_K,
+        worked.final_Torr * TORR,
+        worked.volume_L / 1000,
+      ),
+    );
+    plan.steps.forEach((s, i) =>
+      expect(Math.abs(s.targetPa / TORR - worked.targets_Torr[i]), s.species).toBeLessThan(0.01),
+    );
     expect(Math.abs(plan.final.amountMol / worked.amount_mol - 1)).toBeLessThan(1e-4);
     expect(Math.abs(plan.final.idealAmountMol / worked.ideal_amount_mol - 1)).toBeLessThan(1e-5);
     expect(Math.abs(plan.final.compressibility - worked.compressibility)).toBeLessThan(5e-5);
@@ -63,7 +87,9 @@ describe('fill plan against outside references', () => {
       const plan = planFill(pureInput(c.composition, c.order, c.temperature_K, c.final_pressure_Pa));
       plan.steps.forEach((s, i) => {
         const ref = c.readings[i].pressure_Pa;
-        expect(Math.abs(s.targetPa / ref - 1), `${s.species}: ${s.targetPa} vs ${ref}`).toBeLessThan(lim.step);
+        expect(Math.abs(s.targetPa / ref - 1), `${s.species}: ${s.targetPa} vs ${ref}`).toBeLessThan(
+          lim.step,
+        );
       });
       const ideal = c.final_pressure_Pa / (R * c.temperature_K);
       const errReal = Math.abs(plan.final.densityMolPerM3 / c.final_density_mol_per_m3 - 1);
@@ -88,7 +114,9 @@ describe('cross coefficients by combining rule: how far they could move a target
   });
 
   it('1 % CH4, 2 % O2 in He/Ar at 10 bar: the narrow band of the small fractions makes it a warning, with the He pairs named', () => {
-    const plan = planFill(pureInput({ CH4: 0.01, O2: 0.02, He: 0.3, Ar: 0.67 }, ['CH4', 'He', 'Ar', 'O2'], 298.15, 10e5));
+    const plan = planFill(
+      pureInput({ CH4: 0.01, O2: 0.02, He: 0.3, Ar: 0.67 }, ['CH4', 'He', 'Ar', 'O2'], 298.15, 10e5),
+    );
     const f = plan.findings.find((x) => x.code === 'cross-virial-estimate');
     if (!f || f.code !== 'cross-virial-estimate') throw new Error('no cross-virial-estimate finding');
     expect(f.severity).toBe('warning');
@@ -120,7 +148,11 @@ describe('plan invariants', () => {
           const x = { CH4: xf, O2: xo, Ar: 1 - xf - xo };
           const plan = planFill(pureInput(x, [...order], T, PTorr * TORR));
           const p = plan.steps.map((s) => s.targetPa);
-          return p.every((v, i) => i === 0 || v > p[i - 1]) && Math.abs(p[p.length - 1] / (PTorr * TORR) - 1) < 1e-12 && plan.steps.every((s) => s.incrementPa > 0 && s.bandPa > 0);
+          return (
+            p.every((v, i) => i === 0 || v > p[i - 1]) &&
+            Math.abs(p[p.length - 1] / (PTorr * TORR) - 1) < 1e-12 &&
+            plan.steps.every((s) => s.incrementPa > 0 && s.bandPa > 0)
+          );
         },
       ),
       { numRuns: 200 },
@@ -128,33 +160,46 @@ describe('plan invariants', () => {
   });
 
   it('the sum of amounts is the final amount, and mass follows the molar masses', () => {
-    const plan = planFill(pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 1000 * TORR));
+    const plan = planFill(
+      pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 1000 * TORR),
+    );
     const sum = plan.steps.reduce((a, s) => a + s.amountMol, 0);
     expect(sum).toBeCloseTo(plan.final.amountMol, 12);
     expect(plan.steps[2].massKg / plan.steps[2].amountMol).toBeCloseTo(0.03995, 8);
   });
 
   it('each reading gets the gauge with the smallest uncertainty that covers it, and low-range heads are isolated first', () => {
-    const plan = planFill(pureInput({ CH4: 0.002, O2: 0.004, Ar: 0.994 }, ['CH4', 'O2', 'Ar'], 298.15, 1500 * TORR));
+    const plan = planFill(
+      pureInput({ CH4: 0.002, O2: 0.004, Ar: 0.994 }, ['CH4', 'O2', 'Ar'], 298.15, 1500 * TORR),
+    );
     expect(plan.steps.map((s) => s.gauge?.id)).toEqual(['h10', 'h10', 'h10k']);
     expect(plan.steps[2].isolateBefore.map((g) => g.id)).toEqual(['h10', 'h1k']);
     expect(plan.steps[0].isolateBefore).toEqual([]);
   });
 
   it('a reading beyond every gauge is a danger finding, not a silent choice', () => {
-    const plan = planFill({ ...pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 12000 * TORR) });
-    expect(plan.findings.some((f) => f.code === 'no-gauge-covers' && f.severity === 'danger' && f.step === 3)).toBe(true);
+    const plan = planFill({
+      ...pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 12000 * TORR),
+    });
+    expect(
+      plan.findings.some((f) => f.code === 'no-gauge-covers' && f.severity === 'danger' && f.step === 3),
+    ).toBe(true);
   });
 
   it('a final pressure over the tank working limit is a danger finding', () => {
     const input = pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 3 * 1e5);
-    const plan = planFill({ ...input, tank: { ...input.tank, ratedPressurePa: 3.2e5, workingFraction: 0.9 } });
+    const plan = planFill({
+      ...input,
+      tank: { ...input.tank, ratedPressurePa: 3.2e5, workingFraction: 0.9 },
+    });
     const f = plan.findings.find((x) => x.code === 'tank-over-rating');
     expect(f?.severity).toBe('danger');
   });
 
   it('tolerance band: CH4 first at 0.5 % relative gives +-0.5 % of its own partial pressure (the next fill makes good the error)', () => {
-    const plan = planFill(pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 1000 * TORR));
+    const plan = planFill(
+      pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 1000 * TORR),
+    );
     // an error dn in CH4 is taken from O2 by the next cumulative target: limited by CH4 (0.5 % of 0.05 N)
     expect(plan.steps[0].bandPa / TORR).toBeCloseTo(0.005 * 50.04, 2);
     // the last fill moves every fraction by dn/N: 0.5 % of the total
@@ -164,13 +209,23 @@ describe('plan invariants', () => {
 
 describe('sources', () => {
   it('impurities of a cylinder appear in the filled composition; a premix fills two species in one step', () => {
-    const design = designMixture({ kind: 'phi', fuel: { CH4: 1 }, oxidizer: { O2: 0.21, N2: 0.79 }, diluent: {}, phi: 1, basis: { kind: 'dilution', value: 0 } });
+    const design = designMixture({
+      kind: 'phi',
+      fuel: { CH4: 1 },
+      oxidizer: { O2: 0.21, N2: 0.79 },
+      diluent: {},
+      phi: 1,
+      basis: { kind: 'dilution', value: 0 },
+    });
     const plan = planFill({
       design,
       finalPressurePa: 1e5,
       temperatureK: 296,
       tank: { id: 'T', label: 'T', volumeM3: 0.01 },
-      sources: [pureCylinder({ id: 'ch4', species: 'CH4', purity: 0.999, impurities: { C2H6: 0.0005, N2: 0.0003 } }), premix({ id: 'air', composition: { O2: 0.21, N2: 0.79 } })],
+      sources: [
+        pureCylinder({ id: 'ch4', species: 'CH4', purity: 0.999, impurities: { C2H6: 0.0005, N2: 0.0003 } }),
+        premix({ id: 'air', composition: { O2: 0.21, N2: 0.79 } }),
+      ],
       order: 'given',
       gauges: GAUGES,
       reading,
@@ -185,7 +240,10 @@ describe('sources', () => {
 
   it('gas already in the tank is counted: a top-up fills only the difference', () => {
     const base = pureInput({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 298.15, 1000 * TORR);
-    const plan = planFill({ ...base, inTank: { composition: { CH4: 0.05, O2: 0.1, Ar: 0.85 }, pressurePa: 400 * TORR } });
+    const plan = planFill({
+      ...base,
+      inTank: { composition: { CH4: 0.05, O2: 0.1, Ar: 0.85 }, pressurePa: 400 * TORR },
+    });
     expect(plan.initial!.pressurePa).toBeCloseTo(400 * TORR, 8);
     const added = plan.steps.reduce((a, s) => a + s.amountMol, 0) + plan.initial!.amountMol;
     expect(added).toBeCloseTo(plan.final.amountMol, 12);

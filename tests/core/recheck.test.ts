@@ -16,7 +16,17 @@ import {
 import { fixture, TORR } from '../helpers.js';
 
 const mixtures = fixture('mixture-plans-coolprop.json');
-const head = (id: string, fsTorr: number, resTorr: number, acc = 0.0012): Gauge => ({ id, label: id, reference: 'absolute', fullScalePa: fsTorr * TORR, minimumPa: 0, accuracyOfReading: acc, accuracyOfFullScale: 0, resolutionPa: resTorr * TORR, unit: 'Torr' });
+const head = (id: string, fsTorr: number, resTorr: number, acc = 0.0012): Gauge => ({
+  id,
+  label: id,
+  reference: 'absolute',
+  fullScalePa: fsTorr * TORR,
+  minimumPa: 0,
+  accuracyOfReading: acc,
+  accuracyOfFullScale: 0,
+  resolutionPa: resTorr * TORR,
+  unit: 'Torr',
+});
 const GAUGES = [head('h10', 10, 1e-4), head('h1k', 1000, 0.01), head('h10k', 10000, 0.1)];
 
 function planOf(x: Record<string, number>, order: string[], PTorr: number, purity = 1) {
@@ -25,7 +35,14 @@ function planOf(x: Record<string, number>, order: string[], PTorr: number, purit
     finalPressurePa: PTorr * TORR,
     temperatureK: 298.15,
     tank: { id: 'T', label: 'T', volumeM3: 0.01 },
-    sources: order.map((s) => pureCylinder({ id: s, species: s, purity, impurities: purity < 1 && s !== 'N2' ? { N2: (1 - purity) / 2 } : undefined })),
+    sources: order.map((s) =>
+      pureCylinder({
+        id: s,
+        species: s,
+        purity,
+        impurities: purity < 1 && s !== 'N2' ? { N2: (1 - purity) / 2 } : undefined,
+      }),
+    ),
     order: 'given',
     gauges: GAUGES,
     reading: { barometricPa: 101325, barometricUncertaintyPa: 40 },
@@ -34,9 +51,20 @@ function planOf(x: Record<string, number>, order: string[], PTorr: number, purit
 }
 
 function invertPlan(plan: ReturnType<typeof planOf>) {
-  const readings = plan.steps.map((s) => ({ source: s.source, pressurePa: s.targetPa, temperatureK: plan.temperatureK }));
+  const readings = plan.steps.map((s) => ({
+    source: s.source,
+    pressurePa: s.targetPa,
+    temperatureK: plan.temperatureK,
+  }));
   const setup = inverseSetup(readings);
-  return { setup, res: invertReadings(setup, undefined, readings.map((r) => r.pressurePa)) };
+  return {
+    setup,
+    res: invertReadings(
+      setup,
+      undefined,
+      readings.map((r) => r.pressurePa),
+    ),
+  };
 }
 
 describe('inverse model', () => {
@@ -50,21 +78,38 @@ describe('inverse model', () => {
 
   it('property: plan then re-check of a perfect log returns the planned composition (impurities included) for any design', () => {
     fc.assert(
-      fc.property(fc.double({ min: 0.002, max: 0.2, noNaN: true }), fc.double({ min: 0.01, max: 0.3, noNaN: true }), fc.double({ min: 20, max: 6000, noNaN: true }), fc.constantFrom(1, 0.999), (xf, xo, P, purity) => {
-        const plan = planOf({ CH4: xf, O2: xo, N2: 1 - xf - xo }, ['CH4', 'N2', 'O2'], P, purity);
-        const { setup, res } = invertPlan(plan);
-        return setup.species.every((k, i) => Math.abs(res.x[i] - (plan.composition[k] ?? 0)) < 1e-9) && Math.abs(res.unidentified - plan.unidentifiedFraction) < 1e-9;
-      }),
+      fc.property(
+        fc.double({ min: 0.002, max: 0.2, noNaN: true }),
+        fc.double({ min: 0.01, max: 0.3, noNaN: true }),
+        fc.double({ min: 20, max: 6000, noNaN: true }),
+        fc.constantFrom(1, 0.999),
+        (xf, xo, P, purity) => {
+          const plan = planOf({ CH4: xf, O2: xo, N2: 1 - xf - xo }, ['CH4', 'N2', 'O2'], P, purity);
+          const { setup, res } = invertPlan(plan);
+          return (
+            setup.species.every((k, i) => Math.abs(res.x[i] - (plan.composition[k] ?? 0)) < 1e-9) &&
+            Math.abs(res.unidentified - plan.unidentifiedFraction) < 1e-9
+          );
+        },
+      ),
       { numRuns: 60 },
     );
   });
 
   const readingsOf = (c: { order: string[]; readings: { pressure_Pa: number; temperature_K: number }[] }) =>
-    c.readings.map((r, i) => ({ source: pureCylinder({ id: c.order[i], species: c.order[i], purity: 1 }), pressurePa: r.pressure_Pa, temperatureK: r.temperature_K }));
+    c.readings.map((r, i) => ({
+      source: pureCylinder({ id: c.order[i], species: c.order[i], purity: 1 }),
+      pressurePa: r.pressure_Pa,
+      temperatureK: r.temperature_K,
+    }));
   const recovered = (c: { order: string[]; readings: { pressure_Pa: number; temperature_K: number }[] }) => {
     const rd = readingsOf(c);
     const setup = inverseSetup(rd);
-    const res = invertReadings(setup, undefined, rd.map((r) => r.pressurePa));
+    const res = invertReadings(
+      setup,
+      undefined,
+      rd.map((r) => r.pressurePa),
+    );
     return Object.fromEntries(setup.species.map((k, i) => [k, res.x[i]]));
   };
   const idealOf = (c: { order: string[]; readings: { pressure_Pa: number; temperature_K: number }[] }) => {
@@ -81,18 +126,26 @@ describe('inverse model', () => {
   };
 
   // readings computed with the CoolProp 8.0 HEOS mixture model (scripts/reference/gen_mixture_plans.py)
-  for (const id of ['ch4-o2-ar-1000torr', 'h2-o2-ar-1500torr', 'ch4-air-3bar', 'c3h8-o2-n2-2bar', 'ch4-o2-ar-drift']) {
+  for (const id of [
+    'ch4-o2-ar-1000torr',
+    'h2-o2-ar-1500torr',
+    'ch4-air-3bar',
+    'c3h8-o2-n2-2bar',
+    'ch4-o2-ar-drift',
+  ]) {
     it(`${id}: fractions recovered from CoolProp readings within 2e-4 relative (Ar/N2-diluted, per-reading temperatures)`, () => {
       const c = mixtures.cases.find((x: { id: string }) => x.id === id);
       const x = recovered(c);
-      for (const [k, truth] of Object.entries(c.composition as Record<string, number>)) expect(Math.abs(x[k] / truth - 1), k).toBeLessThan(2e-4);
+      for (const [k, truth] of Object.entries(c.composition as Record<string, number>))
+        expect(Math.abs(x[k] / truth - 1), k).toBeLessThan(2e-4);
     });
   }
 
   it('c2h6-o2-he-ar-4bar: He-diluted case within 1e-3 (measured 955 ppm on He: the He-Ar cross coefficient, which the mixture model does not give as one number)', () => {
     const c = mixtures.cases.find((x: { id: string }) => x.id === 'c2h6-o2-he-ar-4bar');
     const x = recovered(c);
-    for (const [k, truth] of Object.entries(c.composition as Record<string, number>)) expect(Math.abs(x[k] / truth - 1), k).toBeLessThan(1e-3);
+    for (const [k, truth] of Object.entries(c.composition as Record<string, number>))
+      expect(Math.abs(x[k] / truth - 1), k).toBeLessThan(1e-3);
   });
 
   // measured RMS relative error of the fractions, ours / ideal gas: n-heptane 3 bar 50 / 1423 ppm,
@@ -123,8 +176,13 @@ describe('temperature derivative of the B matrix (for temperature terms of the b
     const T: number[] = pure.temperatures_K;
     const b = pure.species.CH4.B as number[];
     const n = T.length;
-    for (const [t, slope] of [[230.2, (b[1] - b[0]) / (T[1] - T[0])], [479.8, (b[n - 1] - b[n - 2]) / (T[n - 1] - T[n - 2])]]) {
-      const setup = inverseSetup([{ source: pureCylinder({ id: 'c', species: 'CH4', purity: 1 }), pressurePa: 1e4, temperatureK: t }]);
+    for (const [t, slope] of [
+      [230.2, (b[1] - b[0]) / (T[1] - T[0])],
+      [479.8, (b[n - 1] - b[n - 2]) / (T[n - 1] - T[n - 2])],
+    ]) {
+      const setup = inverseSetup([
+        { source: pureCylinder({ id: 'c', species: 'CH4', purity: 1 }), pressurePa: 1e4, temperatureK: t },
+      ]);
       const d = setup.dBdT[0][0] * 1e6;
       expect(Math.abs(d / slope - 1), `${t} K: ${d} vs ${slope} cm3/mol/K`).toBeLessThan(0.1);
     }
@@ -132,7 +190,14 @@ describe('temperature derivative of the B matrix (for temperature terms of the b
 });
 
 describe('uncertainty (GUM and Monte Carlo)', () => {
-  const settings = { barometricPa: 101325, barometricUncertaintyPa: 40, thermometerUncertaintyK: 0, thermometerResolutionK: 0, trials: 0, seed: 7 };
+  const settings = {
+    barometricPa: 101325,
+    barometricUncertaintyPa: 40,
+    thermometerUncertaintyK: 0,
+    thermometerResolutionK: 0,
+    trials: 0,
+    seed: 7,
+  };
 
   it('two gases with independent reading errors: u(x1) matches the closed form of properties.md 1.3, u^2 = [u^2(P1) + x1^2 u^2(P2)] / P2^2, within 1 %', () => {
     // resolution only (no span), two different gauges so nothing is shared; Ar/He at low pressure (B terms negligible)
@@ -142,8 +207,20 @@ describe('uncertainty (GUM and Monte Carlo)', () => {
     const P2 = 400 * TORR;
     const r = evaluateUncertainty(
       [
-        { step: 1, source: pureCylinder({ id: 'Ar', species: 'Ar', purity: 1 }), pressurePa: P1, temperatureK: 298.15, gauge: g1 },
-        { step: 2, source: pureCylinder({ id: 'He', species: 'He', purity: 1 }), pressurePa: P2, temperatureK: 298.15, gauge: g2 },
+        {
+          step: 1,
+          source: pureCylinder({ id: 'Ar', species: 'Ar', purity: 1 }),
+          pressurePa: P1,
+          temperatureK: 298.15,
+          gauge: g1,
+        },
+        {
+          step: 2,
+          source: pureCylinder({ id: 'He', species: 'He', purity: 1 }),
+          pressurePa: P2,
+          temperatureK: 298.15,
+          gauge: g2,
+        },
       ],
       settings,
     );
@@ -158,19 +235,47 @@ describe('uncertainty (GUM and Monte Carlo)', () => {
   it('a span error common to all readings of one gauge cancels in the fractions (properties.md 1.3)', () => {
     const g: Gauge = { ...head('one', 1000, 0, 0.0025) };
     const plan = planOf({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'Ar', 'O2'], 900);
-    const r = evaluateUncertainty(plan.steps.map((s) => ({ step: s.index, source: s.source, pressurePa: s.targetPa, temperatureK: 298.15, gauge: g })), settings);
+    const r = evaluateUncertainty(
+      plan.steps.map((s) => ({
+        step: s.index,
+        source: s.source,
+        pressurePa: s.targetPa,
+        temperatureK: 298.15,
+        gauge: g,
+      })),
+      settings,
+    );
     // only the tiny real-gas curvature remains: u(x_CH4) below 1e-3 of the value
     expect(r.composition.CH4.u / 0.05).toBeLessThan(1e-3);
   });
 
   it('Monte Carlo (2e5 trials, seeded) reproduces the GUM standard uncertainty within 2 % for the demo batch, and the same seed gives the same result', () => {
     const plan = planOf({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'Ar', 'O2'], 1000);
-    const readings = plan.steps.map((s) => ({ step: s.index, source: s.source, pressurePa: s.targetPa, temperatureK: 298.15, gauge: GAUGES.find((g) => g.id === s.gauge!.id)! }));
-    const a = evaluateUncertainty(readings, { ...settings, thermometerUncertaintyK: 0.3, thermometerResolutionK: 0.1, trials: 200000 });
-    for (const k of ['CH4', 'O2', 'Ar']) expect(Math.abs(a.composition[k].mc!.u / a.composition[k].u - 1), k).toBeLessThan(0.02);
+    const readings = plan.steps.map((s) => ({
+      step: s.index,
+      source: s.source,
+      pressurePa: s.targetPa,
+      temperatureK: 298.15,
+      gauge: GAUGES.find((g) => g.id === s.gauge!.id)!,
+    }));
+    const a = evaluateUncertainty(readings, {
+      ...settings,
+      thermometerUncertaintyK: 0.3,
+      thermometerResolutionK: 0.1,
+      trials: 200000,
+    });
+    for (const k of ['CH4', 'O2', 'Ar'])
+      expect(Math.abs(a.composition[k].mc!.u / a.composition[k].u - 1), k).toBeLessThan(0.02);
     // the mean of a ratio carries a second-order bias of about u^2/value beside the sampling noise
-    expect(Math.abs(a.phi!.mc!.mean - a.phi!.value)).toBeLessThan((3 * a.phi!.u) / Math.sqrt(200000) + (2 * a.phi!.u ** 2) / a.phi!.value);
-    const b = evaluateUncertainty(readings, { ...settings, thermometerUncertaintyK: 0.3, thermometerResolutionK: 0.1, trials: 200000 });
+    expect(Math.abs(a.phi!.mc!.mean - a.phi!.value)).toBeLessThan(
+      (3 * a.phi!.u) / Math.sqrt(200000) + (2 * a.phi!.u ** 2) / a.phi!.value,
+    );
+    const b = evaluateUncertainty(readings, {
+      ...settings,
+      thermometerUncertaintyK: 0.3,
+      thermometerResolutionK: 0.1,
+      trials: 200000,
+    });
     expect(b.phi!.mc!.u).toBe(a.phi!.mc!.u);
   });
 
@@ -224,7 +329,10 @@ describe('uncertainty (GUM and Monte Carlo)', () => {
     const g: Gauge = { ...head('g', 10000, 0, 0), resolutionPa: sigma * Math.sqrt(12) };
     const src = ['CH4', 'O2', 'Ar'].map((s) => pureCylinder({ id: s, species: s, purity: 1 }));
     const P = [1000, 3000, 20000];
-    const r = evaluateUncertainty(src.map((s, i) => ({ step: i + 1, source: s, pressurePa: P[i], temperatureK: 298.15, gauge: g })), settings);
+    const r = evaluateUncertainty(
+      src.map((s, i) => ({ step: i + 1, source: s, pressurePa: P[i], temperatureK: 298.15, gauge: g })),
+      settings,
+    );
     expect(Math.abs(r.composition.O2.u / sd(own[1]) - 1)).toBeLessThan(0.03);
   });
 

@@ -1,11 +1,35 @@
 import { describe, expect, it } from 'vitest';
-import { designMixture, planFill, pureCylinder, retarget, ventBack, type Gauge } from '../../src/core/index.js';
+import {
+  designMixture,
+  planFill,
+  pureCylinder,
+  retarget,
+  ventBack,
+  type Gauge,
+} from '../../src/core/index.js';
 import { TORR } from '../helpers.js';
 
-const head = (id: string, fsTorr: number, res: number): Gauge => ({ id, label: id, reference: 'absolute', fullScalePa: fsTorr * TORR, minimumPa: 0, accuracyOfReading: 0.0012, accuracyOfFullScale: 0, resolutionPa: res * TORR, unit: 'Torr' });
+const head = (id: string, fsTorr: number, res: number): Gauge => ({
+  id,
+  label: id,
+  reference: 'absolute',
+  fullScalePa: fsTorr * TORR,
+  minimumPa: 0,
+  accuracyOfReading: 0.0012,
+  accuracyOfFullScale: 0,
+  resolutionPa: res * TORR,
+  unit: 'Torr',
+});
 
 // CH4/O2 phi 1 in 85 % Ar, fill order CH4, Ar, O2 (each expectation is algebra on the design, worked here)
-const design = designMixture({ kind: 'phi', fuel: { CH4: 1 }, oxidizer: { O2: 1 }, diluent: { Ar: 1 }, phi: 1, basis: { kind: 'dilution', value: 0.85 } });
+const design = designMixture({
+  kind: 'phi',
+  fuel: { CH4: 1 },
+  oxidizer: { O2: 1 },
+  diluent: { Ar: 1 },
+  phi: 1,
+  basis: { kind: 'dilution', value: 0.85 },
+});
 const sources = ['CH4', 'Ar', 'O2'].map((s) => pureCylinder({ id: s, species: s, purity: 1 }));
 const plan = planFill({
   design,
@@ -18,17 +42,29 @@ const plan = planFill({
   reading: { barometricPa: 101325, barometricUncertaintyPa: 40 },
   tolerance: { relative: 0.005, absolute: 0 },
 });
-const base = { design, tolerance: plan.tolerance, sources: plan.steps.map((s) => s.source), temperatureK: 298.15, finalPressurePa: 1000 * TORR, volumeM3: 0.01 };
+const base = {
+  design,
+  tolerance: plan.tolerance,
+  sources: plan.steps.map((s) => s.source),
+  temperatureK: 298.15,
+  finalPressurePa: 1000 * TORR,
+  volumeM3: 0.01,
+};
 
 describe('re-targeting', () => {
-  it('readings on target: the remaining targets are the plan\'s own (1e-7 relative) and nothing gives', () => {
+  it("readings on target: the remaining targets are the plan's own (1e-7 relative) and nothing gives", () => {
     const r = retarget({ ...base, done: [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }] });
-    r.remaining.forEach((s, i) => expect(Math.abs(s.targetPa / plan.steps[i + 1].targetPa - 1)).toBeLessThan(1e-7));
+    r.remaining.forEach((s, i) =>
+      expect(Math.abs(s.targetPa / plan.steps[i + 1].targetPa - 1)).toBeLessThan(1e-7),
+    );
     expect(r.gave).toEqual([]);
   });
 
   it('CH4 overfilled by 2 %: O2 is raised 2 % to keep phi, Ar 2 % to keep the 85 % dilution; so the whole batch, and the final pressure, grow 2 % (pressure gives)', () => {
-    const r = retarget({ ...base, done: [{ pressurePa: plan.steps[0].targetPa * 1.02, temperatureK: 298.15 }] });
+    const r = retarget({
+      ...base,
+      done: [{ pressurePa: plan.steps[0].targetPa * 1.02, temperatureK: 298.15 }],
+    });
     expect(Math.abs(r.predicted.phi! - 1)).toBeLessThan(1e-6);
     expect(Math.abs(r.predicted.diluentFraction - 0.85)).toBeLessThan(1e-6);
     // fuel and O2 are 15 % of the batch and both grow 2 %; keeping 85 % Ar scales the rest alike
@@ -37,16 +73,28 @@ describe('re-targeting', () => {
   });
 
   it('CH4 underfilled by 0.2 %: within tolerance, nothing gives (the pressure is 0.2 % low)', () => {
-    const r = retarget({ ...base, done: [{ pressurePa: plan.steps[0].targetPa * 0.998, temperatureK: 298.15 }] });
+    const r = retarget({
+      ...base,
+      done: [{ pressurePa: plan.steps[0].targetPa * 0.998, temperatureK: 298.15 }],
+    });
     expect(r.gave).toEqual([]);
     expect(r.message).toMatch(/keep phi, the dilution and the final pressure/);
-    const big = retarget({ ...base, done: [{ pressurePa: plan.steps[0].targetPa * 1.1, temperatureK: 298.15 }] });
+    const big = retarget({
+      ...base,
+      done: [{ pressurePa: plan.steps[0].targetPa * 1.1, temperatureK: 298.15 }],
+    });
     expect(big.gave).toEqual(['pressure']);
     expect(big.message).toMatch(/final pressure becomes/);
   });
 
   it('Ar overfilled by 5 % of the reading after CH4: O2 still sets phi; the dilution cannot come back (0.8565 against 0.85)', () => {
-    const r = retarget({ ...base, done: [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: plan.steps[1].targetPa * 1.05, temperatureK: 298.15 }] });
+    const r = retarget({
+      ...base,
+      done: [
+        { pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 },
+        { pressurePa: plan.steps[1].targetPa * 1.05, temperatureK: 298.15 },
+      ],
+    });
     expect(Math.abs(r.predicted.diluentFraction - 0.8565)).toBeLessThan(5e-4);
     expect(Math.abs(r.predicted.phi! - 1)).toBeLessThan(1e-6);
     expect(r.predicted.diluentFraction).toBeGreaterThan(0.85);
@@ -55,7 +103,11 @@ describe('re-targeting', () => {
 
   it('the tank working limit is never passed: the pressure is held at the limit and dilution gives', () => {
     const limit = 1002 * TORR;
-    const r = retarget({ ...base, workingLimitPa: limit, done: [{ pressurePa: plan.steps[0].targetPa * 1.1, temperatureK: 298.15 }] });
+    const r = retarget({
+      ...base,
+      workingLimitPa: limit,
+      done: [{ pressurePa: plan.steps[0].targetPa * 1.1, temperatureK: 298.15 }],
+    });
     expect(r.predicted.pressurePa).toBeLessThanOrEqual(limit * (1 + 1e-9));
     expect(r.remaining[r.remaining.length - 1].targetPa).toBeLessThanOrEqual(limit * (1 + 1e-9));
     expect(Math.abs(r.predicted.phi! - 1)).toBeLessThan(1e-4);
@@ -66,7 +118,14 @@ describe('re-targeting', () => {
 describe('re-targeting at the working limit', () => {
   const limit = 1002 * TORR;
   it('an overshoot past the limit: no further fill is proposed, the message says so', () => {
-    const r = retarget({ ...base, workingLimitPa: limit, done: [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: 1010 * TORR, temperatureK: 298.15 }] });
+    const r = retarget({
+      ...base,
+      workingLimitPa: limit,
+      done: [
+        { pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 },
+        { pressurePa: 1010 * TORR, temperatureK: 298.15 },
+      ],
+    });
     expect(r.limitBinds).toBe(true);
     expect(r.nowPa / TORR).toBeCloseTo(1010, 6); // same reading, same temperature: the EOS round trip
     expect(r.remaining.every((x) => x.amountMol === 0)).toBe(true);
@@ -75,14 +134,24 @@ describe('re-targeting at the working limit', () => {
 
   it('no remaining target ever passes the limit, over a sweep of Ar overshoots (the limit 1e-9 relative)', () => {
     for (const f of [1.0, 1.003, 1.01, 1.05, 1.2]) {
-      const r = retarget({ ...base, workingLimitPa: limit, done: [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: Math.min(plan.steps[1].targetPa * f, limit * 0.999), temperatureK: 298.15 }] });
+      const r = retarget({
+        ...base,
+        workingLimitPa: limit,
+        done: [
+          { pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 },
+          { pressurePa: Math.min(plan.steps[1].targetPa * f, limit * 0.999), temperatureK: 298.15 },
+        ],
+      });
       for (const x of r.remaining) expect(x.targetPa).toBeLessThanOrEqual(limit * (1 + 1e-9));
       expect(r.predicted.pressurePa).toBeLessThanOrEqual(limit * (1 + 1e-9));
     }
   });
 
   it('vent back after an Ar reading past the limit: venting keeps the composition, so O2 can still restore phi; the vent target is below the limit and ends near the design pressure', () => {
-    const done = [{ pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 }, { pressurePa: 1010 * TORR, temperatureK: 298.15 }];
+    const done = [
+      { pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 },
+      { pressurePa: 1010 * TORR, temperatureK: 298.15 },
+    ];
     const v = ventBack({ ...base, workingLimitPa: limit, done });
     expect(v.targetPa).toBeLessThan(limit);
     expect(v.ventFactor).toBeGreaterThan(0);

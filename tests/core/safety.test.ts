@@ -28,7 +28,10 @@ const vp = fixture('vapour-pressure.json');
 
 describe('flammability data', () => {
   it('LFL/UFL in air equal the NFPA 497 and IEC 60079-20-1 values of properties.md 7.1 (exactly)', () => {
-    for (const [src, table] of [['nfpa-497-2008', limits.nfpa497], ['iec-60079-20-1-2010', limits.iec60079]] as const) {
+    for (const [src, table] of [
+      ['nfpa-497-2008', limits.nfpa497],
+      ['iec-60079-20-1-2010', limits.iec60079],
+    ] as const) {
       for (const [k, [l, u]] of Object.entries(table as Record<string, [number, number]>)) {
         const rec = FUEL_SAFETY.get(k)!;
         expect(rec.lflAir.find((v) => v.source === src)?.value, `${k} LFL ${src}`).toBeCloseTo(l / 100, 12);
@@ -47,16 +50,25 @@ describe('flammability data', () => {
       expect(['nfpa-497-2008', 'iec-60079-20-1-2010']).toContain(rec.ait!.source);
     }
     expect(FUEL_SAFETY.get('CH3OCH3')!.ait!.value).toBe(513.15); // IEC lists 240 degC, NFPA 350 degC: the lower is used
-    for (const [k, v] of Object.entries(limits.iso10156_K as Record<string, number>)) expect(INERT_K.get(k)!.value).toBe(v);
-    for (const [k, v] of Object.entries(limits.astm_e2079_loc_pct as Record<string, number>)) expect(FUEL_SAFETY.get(k)!.loc!.value).toBeCloseTo(v / 100, 12);
+    for (const [k, v] of Object.entries(limits.iso10156_K as Record<string, number>))
+      expect(INERT_K.get(k)!.value).toBe(v);
+    for (const [k, v] of Object.entries(limits.astm_e2079_loc_pct as Record<string, number>))
+      expect(FUEL_SAFETY.get(k)!.loc!.value).toBeCloseTo(v / 100, 12);
   });
   it('UFL in O2 of H2 and CH4 are Coward & Jones (USBM Bulletin 503) values: CH4 60.5 % (upward, 2-inch tube), H2 95.8 % (the widest, closed tubes)', () => {
     const cj = limits.coward_jones_o2_pct;
-    expect(FUEL_SAFETY.get('CH4')!.uflO2).toEqual({ value: cj.CH4.upward_open_tube[1] / 100, source: 'coward-jones-1952' });
-    expect(FUEL_SAFETY.get('H2')!.uflO2).toEqual({ value: cj.H2.closed_tubes[1] / 100, source: 'coward-jones-1952' });
+    expect(FUEL_SAFETY.get('CH4')!.uflO2).toEqual({
+      value: cj.CH4.upward_open_tube[1] / 100,
+      source: 'coward-jones-1952',
+    });
+    expect(FUEL_SAFETY.get('H2')!.uflO2).toEqual({
+      value: cj.H2.closed_tubes[1] / 100,
+      source: 'coward-jones-1952',
+    });
   });
   it('Le Chatelier: the textbook blend 0.8 % hexane, 2.0 % methane, 0.5 % ethylene (Crowl & Louvar, from memory) gives LFL 2.5 % and UFL 13 % (within half the last digit)', () => {
-    const parts = (l: [number, number, number]) => [0.8, 2.0, 0.5].map((f, i) => ({ fraction: f, limit: l[i] }));
+    const parts = (l: [number, number, number]) =>
+      [0.8, 2.0, 0.5].map((f, i) => ({ fraction: f, limit: l[i] }));
     expect(Math.abs(leChatelier(parts([1.1, 5.0, 2.7])) - 2.5)).toBeLessThanOrEqual(0.05);
     expect(leChatelier(parts([7.5, 15, 36]))).toBeCloseTo(13.0, 1);
   });
@@ -122,7 +134,10 @@ describe('flammability of known states', () => {
     expect(a.point.fuel).toBeCloseTo(0.05 / (0.15 + 0.85 * 0.55), 10);
   });
   it('an undiluted intermediate CH4/O2 state is flagged flammable and detonable (danger)', () => {
-    const r = reviewState({ step: 2, composition: { CH4: 1 / 3, O2: 2 / 3 }, pressurePa: 150 * TORR, final: false }, { temperatureK: 298.15, tankId: 'T', workingLimitPa: 3.6e5 });
+    const r = reviewState(
+      { step: 2, composition: { CH4: 1 / 3, O2: 2 / 3 }, pressurePa: 150 * TORR, final: false },
+      { temperatureK: 298.15, tankId: 'T', workingLimitPa: 3.6e5 },
+    );
     const codes = r.findings.map((f) => `${f.severity}:${f.code}`);
     expect(codes).toContain('warning:flammable-state');
     expect(codes).toContain('danger:detonable-state');
@@ -154,9 +169,15 @@ describe('vapour pressure', () => {
         if (c.startsWith('eos')) {
           const t = Number(c.slice(3)) + 273.15;
           // outside the Antoine range (propane, n-butane at 25 degC) this is the Wagner equation
-          expect(Math.abs(saturationPressure(k, t)!.pressurePa / 1000 / p - 1), `${k} ${c} (${saturationPressure(k, t)!.method})`).toBeLessThan(0.01);
+          expect(
+            Math.abs(saturationPressure(k, t)!.pressurePa / 1000 / p - 1),
+            `${k} ${c} (${saturationPressure(k, t)!.method})`,
+          ).toBeLessThan(0.01);
         } else {
-          expect(Math.abs(antoinePa(a.A, a.B, a.C, Number(c) + 273.15) / 1000 / p - 1), `${k} ${c}`).toBeLessThan(1e-3);
+          expect(
+            Math.abs(antoinePa(a.A, a.B, a.C, Number(c) + 273.15) / 1000 / p - 1),
+            `${k} ${c}`,
+          ).toBeLessThan(1e-3);
         }
       }
     }
@@ -172,14 +193,33 @@ describe('vapour pressure', () => {
     for (const k of ['n-C7H16', 'C7H8']) {
       const sp = getSpecies(k);
       const a = ANTOINE.get(k)!;
-      expect(Math.abs(leeKeslerPa(sp.Tc, sp.Pc, sp.omega, 298.15) / antoinePa(a.A, a.B, a.C, 298.15) - 1), k).toBeLessThan(0.06);
+      expect(
+        Math.abs(leeKeslerPa(sp.Tc, sp.Pc, sp.omega, 298.15) / antoinePa(a.A, a.B, a.C, 298.15) - 1),
+        k,
+      ).toBeLessThan(0.06);
     }
   });
 });
 
 describe('the review inside a plan', () => {
-  const head = (id: string, fsTorr: number, res: number): Gauge => ({ id, label: id, reference: 'absolute', fullScalePa: fsTorr * TORR, minimumPa: 0, accuracyOfReading: 0.0012, accuracyOfFullScale: 0, resolutionPa: res * TORR, unit: 'Torr' });
-  const base = (x: Record<string, number>, order: string[], PTorr: number, order_: 'given' | 'recommend', coldestK?: number) =>
+  const head = (id: string, fsTorr: number, res: number): Gauge => ({
+    id,
+    label: id,
+    reference: 'absolute',
+    fullScalePa: fsTorr * TORR,
+    minimumPa: 0,
+    accuracyOfReading: 0.0012,
+    accuracyOfFullScale: 0,
+    resolutionPa: res * TORR,
+    unit: 'Torr',
+  });
+  const base = (
+    x: Record<string, number>,
+    order: string[],
+    PTorr: number,
+    order_: 'given' | 'recommend',
+    coldestK?: number,
+  ) =>
     planFill({
       design: designMixture({ kind: 'fractions', fractions: x }),
       finalPressurePa: PTorr * TORR,
@@ -196,7 +236,9 @@ describe('the review inside a plan', () => {
   it('the recommended order keeps the intermediate states out of the flammable region: CH4 -> Ar -> O2, not CH4 -> O2 -> Ar', () => {
     const plan = base({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'O2', 'Ar'], 1000, 'recommend');
     expect(plan.steps.map((s) => s.species)).toEqual(['CH4', 'Ar', 'O2']);
-    expect(plan.findings.some((f) => f.code === 'flammable-state' || f.code === 'detonable-state')).toBe(false);
+    expect(plan.findings.some((f) => f.code === 'flammable-state' || f.code === 'detonable-state')).toBe(
+      false,
+    );
     expect(plan.orderReason).toMatch(/would give flammable-state after fill 2/);
   });
 
@@ -216,7 +258,13 @@ describe('the review inside a plan', () => {
 
   it('n-heptane: condensation in the tank and in its own fill line is checked at the coldest temperature', () => {
     // 4 % heptane of 1000 Torr = 40 Torr, above half its vapour pressure at 18 degC (about 33 Torr)
-    const plan = base({ 'n-C7H16': 0.04, O2: 0.44, Ar: 0.52 }, ['n-C7H16', 'Ar', 'O2'], 1000, 'given', 291.15);
+    const plan = base(
+      { 'n-C7H16': 0.04, O2: 0.44, Ar: 0.52 },
+      ['n-C7H16', 'Ar', 'O2'],
+      1000,
+      'given',
+      291.15,
+    );
     const c = plan.findings.filter((f) => f.code === 'condensation');
     expect(c.length).toBeGreaterThan(0);
     expect(c.some((f) => f.severity === 'danger')).toBe(true); // 40 Torr > P_sat(18 degC) ~ 33 Torr
@@ -229,7 +277,12 @@ describe('the review inside a plan', () => {
         sourceId: 'Ar',
         sourceComposition: { Ar: 1 },
         before: { step: 2, composition: { 'n-C7H16': 0.1, O2: 0.9 }, pressurePa: 100 * TORR, final: false },
-        after: { step: 3, composition: { 'n-C7H16': 0.005, O2: 0.045, Ar: 0.95 }, pressurePa: 2000 * TORR, final: true },
+        after: {
+          step: 3,
+          composition: { 'n-C7H16': 0.005, O2: 0.045, Ar: 0.95 },
+          pressurePa: 2000 * TORR,
+          final: true,
+        },
       },
       { temperatureK: 298.15, tankId: 'T' },
     );

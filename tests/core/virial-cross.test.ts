@@ -27,7 +27,10 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
       const x = p.x_a;
       const b = bMix(m, { [p.a]: x, [p.b]: 1 - x }) * cm3;
       const tol = 2 * x * (1 - x) * pairs[`${p.a}|${p.b}`].B_spread_max + 0.02;
-      expect(Math.abs(b - p.B_mix), `${p.a}-${p.b} x=${x} ${p.temperature_K} K: ${b} vs ${p.B_mix}`).toBeLessThanOrEqual(tol);
+      expect(
+        Math.abs(b - p.B_mix),
+        `${p.a}-${p.b} x=${x} ${p.temperature_K} K: ${b} vs ${p.B_mix}`,
+      ).toBeLessThanOrEqual(tol);
     }
   });
 
@@ -42,7 +45,10 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
       const x = p.x_a;
       const b = bMix(m, { [p.a]: x, [p.b]: 1 - x }) * cm3;
       const tol = 2 * x * (1 - x) * 2 * e.uM3PerMol! * cm3 + 0.02;
-      expect(Math.abs(b - p.B_mix), `${p.a}-${p.b} x=${x} ${p.temperature_K} K: ${b} vs ${p.B_mix}`).toBeLessThanOrEqual(tol);
+      expect(
+        Math.abs(b - p.B_mix),
+        `${p.a}-${p.b} x=${x} ${p.temperature_K} K: ${b} vs ${p.B_mix}`,
+      ).toBeLessThanOrEqual(tol);
       n++;
     }
     expect(n).toBeGreaterThan(100);
@@ -56,7 +62,10 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
       const m = virialModel([p.a, p.b], p.temperature_K);
       if (m.C.some((c) => c === 0)) continue; // polar member: the model does not use C
       const c = cMix(m, { [p.a]: p.x_a, [p.b]: 1 - p.x_a }) * cm6;
-      expect(Math.abs(c - p.C_mix), `${p.a}-${p.b} x=${p.x_a} ${p.temperature_K} K: ${c} vs ${p.C_mix}`).toBeLessThanOrEqual(Math.max(50, 0.035 * Math.abs(p.C_mix)));
+      expect(
+        Math.abs(c - p.C_mix),
+        `${p.a}-${p.b} x=${p.x_a} ${p.temperature_K} K: ${c} vs ${p.C_mix}`,
+      ).toBeLessThanOrEqual(Math.max(50, 0.035 * Math.abs(p.C_mix)));
       n++;
     }
     expect(n).toBeGreaterThan(200);
@@ -71,7 +80,9 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
       const e = m.entries.find((q) => q.i !== q.j)!;
       if (tabulated.has(`${p.i}-${p.j}`)) {
         expect(e.method, `${p.i}-${p.j}`).toBe('reference-mixture');
-        expect(Math.abs(m.B[0][1] * cm3 - p.mixture_model), `${p.i}-${p.j}: ${m.B[0][1] * cm3}`).toBeLessThan(0.5);
+        expect(Math.abs(m.B[0][1] * cm3 - p.mixture_model), `${p.i}-${p.j}: ${m.B[0][1] * cm3}`).toBeLessThan(
+          0.5,
+        );
       } else {
         expect(e.method, `${p.i}-${p.j}`).toMatch(/^(combining-rule|reference-mixture-average)$/);
       }
@@ -79,8 +90,13 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
   });
 
   it('the worked vector inputs of properties.md 1.2 (CH4-O2 -21.3, CH4-Ar -24.6, O2-Ar -15.0 cm3/mol at 298.15 K) within 0.5', () => {
-    const want: [string, string, number][] = [['CH4', 'O2', -21.3], ['CH4', 'Ar', -24.6], ['O2', 'Ar', -15.0]];
-    for (const [a, b, v] of want) expect(Math.abs(referenceCrossB(a, b, 298.15)!.value * cm3 - v), `${a}-${b}`).toBeLessThan(0.5);
+    const want: [string, string, number][] = [
+      ['CH4', 'O2', -21.3],
+      ['CH4', 'Ar', -24.6],
+      ['O2', 'Ar', -15.0],
+    ];
+    for (const [a, b, v] of want)
+      expect(Math.abs(referenceCrossB(a, b, 298.15)!.value * cm3 - v), `${a}-${b}`).toBeLessThan(0.5);
   });
 
   it('is symmetric in the pair, and C_aab / C_abb swap with the order asked', () => {
@@ -96,7 +112,9 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     for (const other of ['Ar', 'N2', 'O2', 'CH4', 'H2', 'CO2']) {
       expect(referenceCrossB('He', other, 300), other).toBeUndefined();
       const m = virialModel(['He', other], 300);
-      expect(m.entries.find((q) => q.i !== q.j)!.method).toBe(other === 'N2' ? 'reference-mixture-average' : 'combining-rule');
+      expect(m.entries.find((q) => q.i !== q.j)!.method).toBe(
+        other === 'N2' ? 'reference-mixture-average' : 'combining-rule',
+      );
     }
     const left = table.averaged as Record<string, { reason: string; least_Z_error_10bar?: number }>;
     const heAr = left['He|Ar'];
@@ -118,13 +136,21 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     const y = [0.05, 0.1, 0.85];
     const c = m.C.map(Math.cbrt);
     // full triple sum: C_iij from cPairs where tabulated, else c_i c_i c_j; C_123 = c1 c2 c3
-    const cij = (i: number, j: number) => m.cPairs.find((p) => p.i === i && p.j === j)?.value ?? c[i] * c[i] * c[j];
+    const cij = (i: number, j: number) =>
+      m.cPairs.find((p) => p.i === i && p.j === j)?.value ?? c[i] * c[i] * c[j];
     let full = 0;
     for (let i = 0; i < 3; i++)
       for (let j = 0; j < 3; j++)
         for (let k = 0; k < 3; k++) {
           const idx = [i, j, k].sort();
-          const v = idx[0] === idx[2] ? m.C[idx[0]] : idx[0] === idx[1] ? cij(idx[0], idx[2]) : idx[1] === idx[2] ? cij(idx[1], idx[0]) : c[0] * c[1] * c[2];
+          const v =
+            idx[0] === idx[2]
+              ? m.C[idx[0]]
+              : idx[0] === idx[1]
+                ? cij(idx[0], idx[2])
+                : idx[1] === idx[2]
+                  ? cij(idx[1], idx[0])
+                  : c[0] * c[1] * c[2];
           full += y[i] * y[j] * y[k] * v;
         }
     expect(m.cPairs.length).toBe(6);

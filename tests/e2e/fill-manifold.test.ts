@@ -53,7 +53,9 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       expect(await exitStatus(t)).toBe(4);
       const l = readLog(log);
       expect(l.acknowledgements.map((a) => [a.code, a.by])).toEqual([['above-working-limit', 'JD']]);
-      expect(l.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 2800].map((x) => expect.closeTo(x, 9)));
+      expect(l.readings.map((r) => r.pressure_Pa / TORR)).toEqual(
+        [10.01, 2800].map((x) => expect.closeTo(x, 9)),
+      );
       expect(l.closed).toBe(true);
       const rep = await checkFile(log, { trials: 0, seed: 1 });
       expect(rep.verdict.verdict).toBe('fail');
@@ -63,7 +65,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
     }
   }, 60000);
 
-  it('a temperature change before the last fill re-computes the target; filled to it, the end screen shows check\'s verdict and the as-filled label', async () => {
+  it("a temperature change before the last fill re-computes the target; filled to it, the end screen shows check's verdict and the as-filled label", async () => {
     const { dir, t } = session('temp');
     try {
       t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch temp --dir batches`));
@@ -124,7 +126,9 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       expect(await exitStatus(t)).toBe(0);
       const l = readLog(log);
       expect(l.closed).toBe(true);
-      expect(l.amendments.map((a) => [a.kind, a.by, a.reason])).toEqual([['correction', 'AB', expect.stringMatching(/more gas added/)]]);
+      expect(l.amendments.map((a) => [a.kind, a.by, a.reason])).toEqual([
+        ['correction', 'AB', expect.stringMatching(/more gas added/)],
+      ]);
       expect(l.readings[2].pressure_Pa / TORR).toBeCloseTo(t3, 6);
     } finally {
       t.close();
@@ -154,7 +158,14 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       expect(s).toMatch(/1408 Torr -> 1480\.0 Torr/);
       await t.kill();
       const l = readLog(join(dir, 'batches', 'fix.jsonl'));
-      expect(l.amendments).toEqual([expect.objectContaining({ kind: 'correction', step: 2, by: 'AB', reason: 'mistyped 1408 for 1480.0' })]);
+      expect(l.amendments).toEqual([
+        expect.objectContaining({
+          kind: 'correction',
+          step: 2,
+          by: 'AB',
+          reason: 'mistyped 1408 for 1480.0',
+        }),
+      ]);
       expect(l.allReadings.map((r) => r.reading)).toEqual(['10.01 Torr', '1408 Torr', '1480.0 Torr']);
       expect(l.readings[1].pressure_Pa / TORR).toBeCloseTo(1480, 9);
     } finally {
@@ -211,7 +222,9 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       expect(await exitStatus(t)).toBe(130);
       // the line may wrap at the 80th column: join the screen's lines
       const s = t.screen().replace(/\n/g, '');
-      expect(s).toMatch(/fill stopped by Ctrl-C: 1 of 3 readings are logged in batches\/cc\.jsonl\. Resume with: mixwright fill --resume batches\/cc\.jsonl/);
+      expect(s).toMatch(
+        /fill stopped by Ctrl-C: 1 of 3 readings are logged in batches\/cc\.jsonl\. Resume with: mixwright fill --resume batches\/cc\.jsonl/,
+      );
       expect(readdirSync(join(dir, 'batches')).filter((f) => f.endsWith('.lock'))).toEqual([]);
     } finally {
       t.close();

@@ -76,7 +76,8 @@ describe.runIf(hasTmux || required)('SIGKILL between readings, many times over',
           }
           // each reading at most once, in step order, with the value typed for its step
           expect(readings.map((r) => r.step)).toEqual(readings.map((_, i) => i + 1));
-          for (const r of readings) expect(Math.abs(r.pressure_Pa / (101325 / 760) - typed.get(r.step)!)).toBeLessThan(1e-9);
+          for (const r of readings)
+            expect(Math.abs(r.pressure_Pa / (101325 / 760) - typed.get(r.step)!)).toBeLessThan(1e-9);
           expect(readings.length).toBeGreaterThanOrEqual(confirmed);
           stalled = readings.length === confirmed;
           confirmed = readings.length;

@@ -12,7 +12,19 @@ export function tmuxSession(name: string, cwd: string) {
     tm,
     screen,
     start(cmd: string) {
-      tm('new-session', '-d', '-s', 's', '-x', '80', '-y', '24', '-c', cwd, `env -u CI -u CONTINUOUS_INTEGRATION ${cmd}`);
+      tm(
+        'new-session',
+        '-d',
+        '-s',
+        's',
+        '-x',
+        '80',
+        '-y',
+        '24',
+        '-c',
+        cwd,
+        `env -u CI -u CONTINUOUS_INTEGRATION ${cmd}`,
+      );
       tm('set-option', '-t', 's', 'remain-on-exit', 'on');
     },
     async waitFor(re: RegExp, ms = 15000): Promise<string> {

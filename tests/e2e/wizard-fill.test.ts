@@ -6,7 +6,8 @@ import { checkFile } from '../../src/io/check.js';
 import { hasTmux, sleep, tmuxSession } from './tmux.js';
 
 async function waitUntil(ok: () => boolean, ms: number): Promise<void> {
-  for (const end = Date.now() + ms; !ok(); await sleep(100)) if (Date.now() > end) throw new Error('timed out waiting');
+  for (const end = Date.now() + ms; !ok(); await sleep(100))
+    if (Date.now() > end) throw new Error('timed out waiting');
 }
 
 // A real terminal: tmux runs the wizard, a design is typed, the guided fill starts, readings
@@ -46,7 +47,12 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       expect(logs).toHaveLength(1);
       expect(readdirSync(join(dir, 'batches'))).toContain(`${logs[0]}.lock`);
       const log = join(dir, 'batches', logs[0]);
-      expect(readFileSync(log, 'utf8').trim().split('\n').filter((l) => l.includes('"reading"'))).toHaveLength(2);
+      expect(
+        readFileSync(log, 'utf8')
+          .trim()
+          .split('\n')
+          .filter((l) => l.includes('"reading"')),
+      ).toHaveLength(2);
       t.start(`node ${BIN} fill --resume ${log}`);
       s = await t.waitFor(/fill 3 of 3/);
       expect(s).toContain('resumed: 2 of 3');

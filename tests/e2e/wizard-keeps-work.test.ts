@@ -36,7 +36,9 @@ describe.runIf(hasTmux || required)('wizard keeps work in a real terminal (tmux)
       await setDilution('8');
       await t.keys('Enter');
       let s = await t.waitFor(/Replace it/);
-      expect(s.replace(/\s+/g, ' ')).toMatch(/recipes\/my-design\.yaml exists \(written by this wizard at \d\d:\d\d:\d\d\)\. Replace it with the recipe on screen\?/);
+      expect(s.replace(/\s+/g, ' ')).toMatch(
+        /recipes\/my-design\.yaml exists \(written by this wizard at \d\d:\d\d:\d\d\)\. Replace it with the recipe on screen\?/,
+      );
       await t.keys('n');
       await t.waitFor(/kept recipes\/my-design\.yaml as it was; nothing written/);
       expect(dilution()).toBe('0.95');

@@ -25,7 +25,17 @@ function demoLog(dir: string, readingsTorr: number[]): string {
   createLog(file, headerFromPlan(plan, req, 'test-batch', '2026-12-01T10:00:00Z'));
   readingsTorr.forEach((t, i) => {
     const s = plan.steps[i];
-    appendEvent(file, { kind: 'reading', step: s.index, source: s.source.id, gauge: s.gauge!.id, reading: `${t} Torr`, pressure_Pa: (t * 101325) / 760, temperature: '25 degC', temperature_K: 298.15, time: '2026-12-01T10:0' + i + ':00Z' });
+    appendEvent(file, {
+      kind: 'reading',
+      step: s.index,
+      source: s.source.id,
+      gauge: s.gauge!.id,
+      reading: `${t} Torr`,
+      pressure_Pa: (t * 101325) / 760,
+      temperature: '25 degC',
+      temperature_K: 298.15,
+      time: '2026-12-01T10:0' + i + ':00Z',
+    });
   });
   return file;
 }
@@ -59,7 +69,20 @@ describe('batch log', () => {
   it('a correction replaces the reading of its step; the original stays in the file', () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const file = demoLog(dir, [10.0128, 1480.025, 1500]);
-    appendEvent(file, { kind: 'correction', step: 1, source: 'cyl-CH4', gauge: 'head-1kT', reading: '10.0140 Torr', pressure_Pa: (10.014 * 101325) / 760, temperature: '25 degC', temperature_K: 298.15, time: 't', reason: 'misread', by: 'QX', replaces_line: 2 });
+    appendEvent(file, {
+      kind: 'correction',
+      step: 1,
+      source: 'cyl-CH4',
+      gauge: 'head-1kT',
+      reading: '10.0140 Torr',
+      pressure_Pa: (10.014 * 101325) / 760,
+      temperature: '25 degC',
+      temperature_K: 298.15,
+      time: 't',
+      reason: 'misread',
+      by: 'QX',
+      replaces_line: 2,
+    });
     const log = readLog(file);
     expect(log.readings[0].reading).toBe('10.0140 Torr');
     expect(readFileSync(file, 'utf8')).toContain('10.0128 Torr');
@@ -72,24 +95,37 @@ describe('batch log', () => {
     const lines = text.trim().split('\n');
     const newer = JSON.stringify({ ...JSON.parse(lines[0]), format: 'mixwright-batch/3' });
     expect(code(() => parseLog([newer, ...lines.slice(1)].join('\n') + '\n', 'x'))).toBe('schema@1');
-    expect(code(() => parseLog([lines[0], 'not json', ...lines.slice(1)].join('\n') + '\n', 'x'))).toBe('schema@2');
+    expect(code(() => parseLog([lines[0], 'not json', ...lines.slice(1)].join('\n') + '\n', 'x'))).toBe(
+      'schema@2',
+    );
     expect(code(() => parseLog([...lines, lines[1]].join('\n') + '\n', 'x'))).toBe('schema@5');
-    const swapped = [lines[0], lines[1], lines[2].replace(/"pressure_Pa":[0-9.e+]+/, '"pressure_Pa":1000'), lines[3]].join('\n') + '\n';
+    const swapped =
+      [lines[0], lines[1], lines[2].replace(/"pressure_Pa":[0-9.e+]+/, '"pressure_Pa":1000'), lines[3]].join(
+        '\n',
+      ) + '\n';
     writeFileSync(join(dir, 'd.jsonl'), swapped);
-    await expect(checkFile(join(dir, 'd.jsonl'), { trials: 0, seed: 1 })).rejects.toMatchObject({ problem: { code: 'schema' }, where: { line: 3 } });
+    await expect(checkFile(join(dir, 'd.jsonl'), { trials: 0, seed: 1 })).rejects.toMatchObject({
+      problem: { code: 'schema' },
+      where: { line: 3 },
+    });
   });
 });
 
 describe('CSV readings', () => {
   const H = 'species,pressure,temperature\n';
   it('reads species, pressures and temperatures with units; quoted notes may hold commas', () => {
-    const r = parseReadingsCsv('species,pressure,temperature,note\nCH4,50.04 Torr,25 degC,"purged, then filled"\nO2,150.1 Torr,25 degC,\n', 'r.csv');
+    const r = parseReadingsCsv(
+      'species,pressure,temperature,note\nCH4,50.04 Torr,25 degC,"purged, then filled"\nO2,150.1 Torr,25 degC,\n',
+      'r.csv',
+    );
     expect(r.map((x) => x.species)).toEqual(['CH4', 'O2']);
     expect(r[0].pressurePa).toBeCloseTo((50.04 * 101325) / 760, 9);
     expect(r[0].note).toBe('purged, then filled');
   });
   it('refuses with the line: decreasing readings, a missing unit, an impossible temperature, an unknown species, a bad header', () => {
-    expect(code(() => parseReadingsCsv(H + 'CH4,50 Torr,25 degC\nO2,40 Torr,25 degC\n', 'r.csv'))).toBe('schema@3');
+    expect(code(() => parseReadingsCsv(H + 'CH4,50 Torr,25 degC\nO2,40 Torr,25 degC\n', 'r.csv'))).toBe(
+      'schema@3',
+    );
     expect(code(() => parseReadingsCsv(H + 'CH4,50,25 degC\n', 'r.csv'))).toBe('bad-quantity@2');
     expect(code(() => parseReadingsCsv(H + 'CH4,50 Torr,-300 degC\n', 'r.csv'))).toBe('out-of-range@2');
     expect(code(() => parseReadingsCsv(H + 'CH5,50 Torr,25 degC\n', 'r.csv'))).toBe('unknown-species@2');
@@ -105,9 +141,23 @@ describe('danger findings in the re-check', () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const file = join(dir, 'd.jsonl');
     createLog(file, headerFromPlan(plan, { ...req, input }, 'danger-batch', 't'));
-    plan.steps.forEach((s) => appendEvent(file, { kind: 'reading', step: s.index, source: s.source.id, gauge: s.gauge!.id, reading: 'x', pressure_Pa: s.targetPa, temperature: '25 degC', temperature_K: 298.15, time: 't' }));
+    plan.steps.forEach((s) =>
+      appendEvent(file, {
+        kind: 'reading',
+        step: s.index,
+        source: s.source.id,
+        gauge: s.gauge!.id,
+        reading: 'x',
+        pressure_Pa: s.targetPa,
+        temperature: '25 degC',
+        temperature_K: 298.15,
+        time: 't',
+      }),
+    );
     const rep = await checkFile(file, { trials: 0, seed: 1 });
-    expect(rep.warnings.some((w) => /danger findings \(tank-over-rating.*no acknowledgement/.test(w))).toBe(true);
+    expect(rep.warnings.some((w) => /danger findings \(tank-over-rating.*no acknowledgement/.test(w))).toBe(
+      true,
+    );
     appendEvent(file, { kind: 'acknowledge', code: 'tank-over-rating', step: 3, by: 'AB', time: 't2' });
     const rep2 = await checkFile(file, { trials: 0, seed: 1 });
     expect(rep2.warnings.some((w) => w.includes('no acknowledgement'))).toBe(false);

@@ -8,7 +8,13 @@ import { parseQuantity } from '../../src/io/quantity.js';
 import { parseYamlText } from '../../src/io/yaml-file.js';
 import { parseReadingsCsv } from '../../src/io/readings-csv.js';
 import { validateRecipeObject } from '../../src/io/load.js';
-import { designMixture, describeProblemAt, formatNumber, getSpecies, ProblemError } from '../../src/core/index.js';
+import {
+  designMixture,
+  describeProblemAt,
+  formatNumber,
+  getSpecies,
+  ProblemError,
+} from '../../src/core/index.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'mw-inputs-'));
 
@@ -17,7 +23,8 @@ function refusal(f: () => unknown): { code: string; text: string } {
   try {
     f();
   } catch (e) {
-    if (e instanceof ProblemError) return { code: e.problem.code, text: describeProblemAt(e.problem, e.where) };
+    if (e instanceof ProblemError)
+      return { code: e.problem.code, text: describeProblemAt(e.problem, e.where) };
     throw e;
   }
   throw new Error('no refusal');
@@ -59,7 +66,9 @@ describe('reading files: only regular files of a sane size', () => {
 
 describe('quantities: finite, physical, and the spellings people type', () => {
   it('non-finite and out-of-window numbers are refused with the allowed range', () => {
-    expect(refusal(() => parseQuantity('1e999 Torr', 'pressure')).text).toMatch(/too large to represent; the allowed range is from 1e-12 Pa/);
+    expect(refusal(() => parseQuantity('1e999 Torr', 'pressure')).text).toMatch(
+      /too large to represent; the allowed range is from 1e-12 Pa/,
+    );
     expect(refusal(() => parseQuantity('1e999 L', 'volume')).code).toBe('bad-quantity');
     expect(refusal(() => parseQuantity('5e-324 Pa', 'pressure')).text).toContain('too small to be measured');
     expect(refusal(() => parseQuantity('1e11 Pa', 'pressure')).code).toBe('out-of-range');
@@ -79,7 +88,10 @@ describe('quantities: finite, physical, and the spellings people type', () => {
   });
   it('gauge pressures: absolute = gauge + barometric (definition of gauge pressure); refused without a barometer', () => {
     const psi = 6894.757293168; // lb x g_n / in^2, exact chain of definitions
-    expect(parseQuantity('15 psig', 'pressure', {}, { barometricPa: 101325 })).toBeCloseTo(15 * psi + 101325, 6);
+    expect(parseQuantity('15 psig', 'pressure', {}, { barometricPa: 101325 })).toBeCloseTo(
+      15 * psi + 101325,
+      6,
+    );
     expect(parseQuantity('1.2 barg', 'pressure', {}, { barometricPa: 100000 })).toBeCloseTo(220000, 6);
     expect(parseQuantity('1.2 bar(g)', 'pressure', {}, { barometricPa: 100000 })).toBeCloseTo(220000, 6);
     expect(parseQuantity('29.7 psia', 'pressure')).toBeCloseTo(29.7 * psi, 6);
@@ -90,8 +102,12 @@ describe('quantities: finite, physical, and the spellings people type', () => {
     expect(refusal(() => parseQuantity('15 psig', 'volume')).code).toBe('wrong-dimension');
   });
   it('inherited object names are no units', () => {
-    expect(refusal(() => parseQuantity('1 constructor', 'pressure')).code).toMatch(/bad-quantity|wrong-dimension/);
-    expect(refusal(() => parseQuantity('1 toString', 'pressure')).code).toMatch(/bad-quantity|wrong-dimension/);
+    expect(refusal(() => parseQuantity('1 constructor', 'pressure')).code).toMatch(
+      /bad-quantity|wrong-dimension/,
+    );
+    expect(refusal(() => parseQuantity('1 toString', 'pressure')).code).toMatch(
+      /bad-quantity|wrong-dimension/,
+    );
   });
   it('numbers in messages: six significant digits, no float noise', () => {
     expect(formatNumber(1000.0000000000001)).toBe('1000');
@@ -106,7 +122,13 @@ describe('quantities: finite, physical, and the spellings people type', () => {
 
 describe('YAML: aliases', () => {
   it('an alias bomb is refused before it expands', () => {
-    const bomb = ['a: &a [1,1,1,1,1,1,1,1,1]', 'b: &b [*a,*a,*a,*a,*a,*a,*a,*a,*a]', 'c: &c [*b,*b,*b,*b,*b,*b,*b,*b,*b]', 'd: &d [*c,*c,*c,*c,*c,*c,*c,*c,*c]', 'e: [*d,*d,*d,*d,*d,*d,*d,*d,*d]'].join('\n');
+    const bomb = [
+      'a: &a [1,1,1,1,1,1,1,1,1]',
+      'b: &b [*a,*a,*a,*a,*a,*a,*a,*a,*a]',
+      'c: &c [*b,*b,*b,*b,*b,*b,*b,*b,*b]',
+      'd: &d [*c,*c,*c,*c,*c,*c,*c,*c,*c]',
+      'e: [*d,*d,*d,*d,*d,*d,*d,*d,*d]',
+    ].join('\n');
     const r = refusal(() => parseYamlText(bomb, 'bomb.yaml'));
     expect(r.code).toBe('yaml-syntax');
     expect(r.text).toContain('aliases');
@@ -125,16 +147,26 @@ describe('schema messages in our words', () => {
   const base = { id: 'x', tank: 'MT-1', pressure: '1000 Torr', temperature: '25 degC' };
   const locate = () => ({ file: 'r.yaml' });
   it('a misspelled key beside the missing one: both named, with the suggestion', () => {
-    const r = refusal(() => validateRecipeObject({ ...base, mixture: { fuel: 'CH4', oxidiser: 'O2', phi: 1 } }, 'r.yaml', locate));
+    const r = refusal(() =>
+      validateRecipeObject({ ...base, mixture: { fuel: 'CH4', oxidiser: 'O2', phi: 1 } }, 'r.yaml', locate),
+    );
     expect(r.text).toMatch(/"mixture.oxidizer" is missing.*"oxidiser".*did you mean "oxidizer"\?/);
   });
   it('a bare number for a quantity: says a unit is needed, with an example', () => {
-    const r = refusal(() => validateRecipeObject({ ...base, pressure: 1500, mixture: { fractions: 'Ar' } }, 'r.yaml', locate));
+    const r = refusal(() =>
+      validateRecipeObject({ ...base, pressure: 1500, mixture: { fractions: 'Ar' } }, 'r.yaml', locate),
+    );
     expect(r.text).toMatch(/pressure is the bare number 1500; it needs a unit .*e\.g\. "1000 Torr"/);
     expect(r.text).not.toMatch(/Invalid input|expected string/);
   });
   it('a number out of range: the allowed range in plain words', () => {
-    const r = refusal(() => validateRecipeObject({ ...base, mixture: { fractions: 'Ar' }, tolerance: { relative: 5 } }, 'r.yaml', locate));
+    const r = refusal(() =>
+      validateRecipeObject(
+        { ...base, mixture: { fractions: 'Ar' }, tolerance: { relative: 5 } },
+        'r.yaml',
+        locate,
+      ),
+    );
     expect(r.text).toMatch(/tolerance.relative = 5 is too large; the allowed range is at most 0.5/);
   });
 });
@@ -142,7 +174,16 @@ describe('schema messages in our words', () => {
 describe('designs and names at the edge', () => {
   it('phi outside 0.001-1000 is refused with the range (phi 1e300 used to hang)', () => {
     for (const phi of [1e300, 1e-300, 1e30, 1001]) {
-      const r = refusal(() => designMixture({ kind: 'phi', fuel: { CH4: 1 }, oxidizer: { O2: 1 }, diluent: {}, phi, basis: { kind: 'dilution', value: 0 } }));
+      const r = refusal(() =>
+        designMixture({
+          kind: 'phi',
+          fuel: { CH4: 1 },
+          oxidizer: { O2: 1 },
+          diluent: {},
+          phi,
+          basis: { kind: 'dilution', value: 0 },
+        }),
+      );
       expect(r.code).toBe('out-of-range');
       expect(r.text).toContain('0.001 to 1000');
     }

@@ -3,7 +3,19 @@
 // nothing confirmed is lost, nothing is reported written that was not.
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { execFileSync, spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, unlinkSync, writeFileSync, appendFileSync } from 'node:fs';
+import {
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  symlinkSync,
+  unlinkSync,
+  writeFileSync,
+  appendFileSync,
+} from 'node:fs';
 import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { appendEvent, createLog, openLogForFill, readLog, type NewLogEvent } from '../../src/io/batch-log.js';
@@ -14,18 +26,24 @@ import { planFill, ProblemError, type Plan } from '../../src/core/index.js';
 import { runCli, TORR } from '../helpers.js';
 
 /** the fault injected into node:fs writes: none, a disk that fills after `budget` bytes, or writes of at most 7 bytes a call */
-const fault = vi.hoisted(() => ({ mode: 'none' as 'none' | 'short' | 'enospc' | 'trickle', budget: 0, fsyncFailures: 0 }));
+const fault = vi.hoisted(() => ({
+  mode: 'none' as 'none' | 'short' | 'enospc' | 'trickle',
+  budget: 0,
+  fsyncFailures: 0,
+}));
 
 vi.mock('node:fs', async (importOriginal) => {
   const real = await importOriginal<typeof import('node:fs')>();
   const writeSync = ((fd: number, buf: unknown, off?: number, len?: number, pos?: number | null) => {
-    if (fault.mode === 'none' || !(buf instanceof Uint8Array)) return (real.writeSync as (...a: unknown[]) => number)(fd, buf, off, len, pos);
+    if (fault.mode === 'none' || !(buf instanceof Uint8Array))
+      return (real.writeSync as (...a: unknown[]) => number)(fd, buf, off, len, pos);
     const o = off ?? 0;
     const l = len ?? buf.length - o;
     if (fault.mode === 'trickle') return real.writeSync(fd, buf, o, Math.min(l, 7));
     const n = Math.min(l, fault.budget);
     if (n === 0) {
-      if (fault.mode === 'enospc') throw Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC' });
+      if (fault.mode === 'enospc')
+        throw Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC' });
       return 0;
     }
     fault.budget -= n;
@@ -67,7 +85,18 @@ const TARGETS_TORR = [10.0128, 1480.025, 1500];
 
 function reading(i: number, torr = TARGETS_TORR[i]): NewLogEvent {
   const s = plan.steps[i];
-  return { kind: 'reading', step: s.index, source: s.source.id, gauge: s.gauge!.id, reading: `${torr} Torr`, pressure_Pa: torr * TORR, temperature: '25 degC', temperature_K: 298.15, time: `2026-12-02T10:0${i}:00Z`, by: 'QX' };
+  return {
+    kind: 'reading',
+    step: s.index,
+    source: s.source.id,
+    gauge: s.gauge!.id,
+    reading: `${torr} Torr`,
+    pressure_Pa: torr * TORR,
+    temperature: '25 degC',
+    temperature_K: 298.15,
+    time: `2026-12-02T10:0${i}:00Z`,
+    by: 'QX',
+  };
 }
 
 function newLog(dir: string, n: number, name = 'b.jsonl'): string {
@@ -83,7 +112,10 @@ describe('the lock of a guided fill', () => {
   it('a second fill on the same log is refused and told who holds it; after release the log opens again', () => {
     const file = newLog(tmp(), 1);
     const a = openLogForFill(file);
-    expect(JSON.parse(readFileSync(`${file}.lock`, 'utf8'))).toMatchObject({ pid: process.pid, host: hostname() });
+    expect(JSON.parse(readFileSync(`${file}.lock`, 'utf8'))).toMatchObject({
+      pid: process.pid,
+      host: hostname(),
+    });
     const e = problemOf(() => openLogForFill(file));
     expect(e.problem.code).toBe('log-locked');
     a.handle.release();
@@ -97,7 +129,10 @@ describe('the lock of a guided fill', () => {
     const file = newLog(tmp(), 1);
     const child = spawn(process.execPath, ['-e', 'setTimeout(() => {}, 20000)'], { stdio: 'ignore' });
     try {
-      writeFileSync(`${file}.lock`, JSON.stringify({ pid: child.pid, host: hostname(), started: '2026-12-02T09:59:00Z' }) + '\n');
+      writeFileSync(
+        `${file}.lock`,
+        JSON.stringify({ pid: child.pid, host: hostname(), started: '2026-12-02T09:59:00Z' }) + '\n',
+      );
       const e = problemOf(() => openLogForFill(file));
       expect(e.problem.code).toBe('log-locked');
       const text = (e.problem as { reason: string }).reason;
@@ -112,24 +147,47 @@ describe('the lock of a guided fill', () => {
   it('a stale lock (its process is gone, this host) is taken over with a message; a lock from another host or an unreadable one is not', () => {
     const file = newLog(tmp(), 1);
     const dead = spawnSync(process.execPath, ['-e', '']).pid!;
-    writeFileSync(`${file}.lock`, JSON.stringify({ pid: dead, host: hostname(), started: '2026-12-02T08:00:00Z' }) + '\n');
+    writeFileSync(
+      `${file}.lock`,
+      JSON.stringify({ pid: dead, host: hostname(), started: '2026-12-02T08:00:00Z' }) + '\n',
+    );
     const o = openLogForFill(file);
-    expect(o.messages.join('\n')).toMatch(new RegExp(`took over a stale lock: the fill of process ${dead} on host .* started 2026-12-02T08:00:00Z is no longer running`));
+    expect(o.messages.join('\n')).toMatch(
+      new RegExp(
+        `took over a stale lock: the fill of process ${dead} on host .* started 2026-12-02T08:00:00Z is no longer running`,
+      ),
+    );
     expect(JSON.parse(readFileSync(`${file}.lock`, 'utf8')).pid).toBe(process.pid);
     o.handle.release();
 
-    writeFileSync(`${file}.lock`, JSON.stringify({ pid: dead, host: 'bench-pc-7', started: '2026-12-02T08:00:00Z' }) + '\n');
-    expect((problemOf(() => openLogForFill(file)).problem as { reason: string }).reason).toMatch(/process \d+ on host bench-pc-7.*another computer/);
+    writeFileSync(
+      `${file}.lock`,
+      JSON.stringify({ pid: dead, host: 'bench-pc-7', started: '2026-12-02T08:00:00Z' }) + '\n',
+    );
+    expect((problemOf(() => openLogForFill(file)).problem as { reason: string }).reason).toMatch(
+      /process \d+ on host bench-pc-7.*another computer/,
+    );
     writeFileSync(`${file}.lock`, '{"pid":');
-    expect((problemOf(() => openLogForFill(file)).problem as { reason: string }).reason).toMatch(/lock file that cannot be read/);
+    expect((problemOf(() => openLogForFill(file)).problem as { reason: string }).reason).toMatch(
+      /lock file that cannot be read/,
+    );
     unlinkSync(`${file}.lock`);
   });
 
   it('a lock whose fill was killed but not yet reaped by its parent (a zombie, as a terminal leaves it for a moment) is stale', async () => {
     const file = newLog(tmp(), 1);
     // a parent that forks a child and never reaps it: the killed child stays a zombie
-    const parent = spawn('python3', ['-c', 'import os,sys,time\npid=os.fork()\nif pid==0:\n    time.sleep(60)\n    os._exit(0)\nprint(pid,flush=True)\ntime.sleep(5)'], { stdio: ['ignore', 'pipe', 'ignore'] });
-    const pid = await new Promise<number>((resolve) => parent.stdout!.once('data', (d: Buffer) => resolve(Number(String(d).trim()))));
+    const parent = spawn(
+      'python3',
+      [
+        '-c',
+        'import os,sys,time\npid=os.fork()\nif pid==0:\n    time.sleep(60)\n    os._exit(0)\nprint(pid,flush=True)\ntime.sleep(5)',
+      ],
+      { stdio: ['ignore', 'pipe', 'ignore'] },
+    );
+    const pid = await new Promise<number>((resolve) =>
+      parent.stdout!.once('data', (d: Buffer) => resolve(Number(String(d).trim()))),
+    );
     try {
       process.kill(pid, 'SIGKILL');
       let state = '';
@@ -139,7 +197,10 @@ describe('the lock of a guided fill', () => {
         state = stat.slice(stat.lastIndexOf(')') + 2, stat.lastIndexOf(')') + 3);
       }
       expect(state).toBe('Z');
-      writeFileSync(`${file}.lock`, JSON.stringify({ pid, host: hostname(), started: '2026-12-02T08:00:00Z' }) + '\n');
+      writeFileSync(
+        `${file}.lock`,
+        JSON.stringify({ pid, host: hostname(), started: '2026-12-02T08:00:00Z' }) + '\n',
+      );
       const o = openLogForFill(file);
       expect(o.messages.join('\n')).toMatch(/took over a stale lock/);
       o.handle.release();
@@ -151,7 +212,15 @@ describe('the lock of a guided fill', () => {
   it('a lock from before a restart of this computer (another boot id) is stale even if its pid is in use now', (ctx) => {
     if (!existsSync('/proc/sys/kernel/random/boot_id')) ctx.skip();
     const file = newLog(tmp(), 1);
-    writeFileSync(`${file}.lock`, JSON.stringify({ pid: process.ppid, host: hostname(), started: '2026-12-01T08:00:00Z', boot: '00000000-0000-0000-0000-000000000000' }) + '\n');
+    writeFileSync(
+      `${file}.lock`,
+      JSON.stringify({
+        pid: process.ppid,
+        host: hostname(),
+        started: '2026-12-01T08:00:00Z',
+        boot: '00000000-0000-0000-0000-000000000000',
+      }) + '\n',
+    );
     const o = openLogForFill(file);
     expect(o.messages.join('\n')).toMatch(/restarted since/);
     o.handle.release();
@@ -195,7 +264,9 @@ describe('writes that fail (injected in node:fs)', () => {
     const e = problemOf(() => withFault('short', 40, () => o.handle.append(reading(2))));
     expect(e.problem.code).toBe('write-failed');
     expect(e.where.file).toBe(file);
-    expect((e.problem as { reason: string }).reason).toMatch(/only 40 of \d+ bytes could be written .*the event was NOT logged \(the log is as it was before\)/);
+    expect((e.problem as { reason: string }).reason).toMatch(
+      /only 40 of \d+ bytes could be written .*the event was NOT logged \(the log is as it was before\)/,
+    );
     expect(readFileSync(file).equals(before)).toBe(true);
     // the disk has room again: the same reading goes in, and the chain holds
     o.handle.append(reading(2));
@@ -235,7 +306,9 @@ describe('writes that fail (injected in node:fs)', () => {
     const out = join(dir, 'fill.html');
     fault.mode = 'short';
     fault.budget = 8192;
-    const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'html', '-o', out]).finally(() => (fault.mode = 'none'));
+    const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'html', '-o', out]).finally(
+      () => (fault.mode = 'none'),
+    );
     expect(r.code).toBe(2);
     expect(r.stdout).not.toContain('wrote');
     expect(r.stderr).toMatch(new RegExp(`${out}: not written: only 8192 of \\d+ bytes could be written`));
@@ -243,7 +316,9 @@ describe('writes that fail (injected in node:fs)', () => {
     expect(readdirSync(dir)).toEqual([]);
     fault.mode = 'enospc';
     fault.budget = 0;
-    const r2 = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'html', '-o', out]).finally(() => (fault.mode = 'none'));
+    const r2 = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'html', '-o', out]).finally(
+      () => (fault.mode = 'none'),
+    );
     expect(r2.code).toBe(2);
     expect(r2.stderr).toMatch(/not written: the disk is full \(ENOSPC\)/);
     expect(readdirSync(dir)).toEqual([]);
@@ -261,12 +336,28 @@ describe('writes that fail (injected in node:fs)', () => {
     // the command refuses before any work (src/cli/program.ts); writeFileAtomic refuses the same on its own (next test)
     expect(r.stderr).toMatch(/a symbolic link of that name exists; add --force/);
     expect(existsSync(join(dir, 'missing.md'))).toBe(false);
-    const forced = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', link, '--force']);
+    const forced = await runCli([
+      'sheet',
+      'recipes/ch4-o2-ar-phi1.yaml',
+      '--format',
+      'md',
+      '-o',
+      link,
+      '--force',
+    ]);
     expect(forced.code).toBe(0);
     expect(statSync(link).isFile()).toBe(true);
     expect(existsSync(join(dir, 'missing.md'))).toBe(false);
     mkdirSync(join(dir, 'sub'));
-    const f = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', join(dir, 'sub'), '--force']);
+    const f = await runCli([
+      'sheet',
+      'recipes/ch4-o2-ar-phi1.yaml',
+      '--format',
+      'md',
+      '-o',
+      join(dir, 'sub'),
+      '--force',
+    ]);
     expect(f.code).toBe(2);
     expect(f.stderr).toMatch(/it is a folder/);
   });
@@ -284,7 +375,9 @@ describe('writeFileAtomic on its own', () => {
       err = e;
     }
     expect(err).toBeInstanceOf(ProblemError);
-    expect(JSON.stringify((err as ProblemError).problem)).toMatch(/symbolic link of that name exists \(it may point nowhere\)/);
+    expect(JSON.stringify((err as ProblemError).problem)).toMatch(
+      /symbolic link of that name exists \(it may point nowhere\)/,
+    );
     expect(existsSync(join(dir, 'nowhere.md'))).toBe(false);
     writeFileAtomic(link, 'x', true);
     expect(readFileSync(link, 'utf8')).toBe('x');
@@ -355,7 +448,18 @@ describe('a real full disk (64 kB tmpfs)', () => {
     // steps 1-3 then notes as acknowledgements, until the disk refuses
     for (let i = 0; i < 60 && !failure; i++) {
       try {
-        o.handle.append(i < 3 ? reading(i) : { kind: 'acknowledge', code: 'test-filler', step: null, by: 'QX', time: 't', note: 'x'.repeat(300) });
+        o.handle.append(
+          i < 3
+            ? reading(i)
+            : {
+                kind: 'acknowledge',
+                code: 'test-filler',
+                step: null,
+                by: 'QX',
+                time: 't',
+                note: 'x'.repeat(300),
+              },
+        );
         confirmed++;
       } catch (e) {
         if (!(e instanceof ProblemError)) throw e;

@@ -53,13 +53,23 @@ describe('units, exact by definition', () => {
 describe('fast path for common units', () => {
   it('every fast-path unit gives what mathjs (our instance, exact Torr and psi) gives, to 1e-12 relative', async () => {
     const { FAST_UNITS, mathjs } = await import('../../src/io/quantity.js');
-    const SI: Record<string, string> = { pressure: 'Pa', temperature: 'K', volume: 'm^3', time: 's', mass: 'kg', length: 'm', 'pressure rate': 'Pa/s' };
+    const SI: Record<string, string> = {
+      pressure: 'Pa',
+      temperature: 'K',
+      volume: 'm^3',
+      time: 's',
+      mass: 'kg',
+      length: 'm',
+      'pressure rate': 'Pa/s',
+    };
     for (const [u, def] of Object.entries(FAST_UNITS)) {
       for (const v of [0, 1, 22.5, -3.25e2, 1e4]) {
         if (def.dim === 'temperature' && (v < -273 || (u === 'K' && v < 1))) continue; // below 1 K is refused
         const ours = parseQuantity(`${v} ${u}`, def.dim);
         const theirs = mathjs().unit(`${v} ${u}`).toNumber(SI[def.dim]);
-        expect(Math.abs(ours - theirs), `${v} ${u}`).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(theirs)));
+        expect(Math.abs(ours - theirs), `${v} ${u}`).toBeLessThanOrEqual(
+          1e-12 * Math.max(1, Math.abs(theirs)),
+        );
       }
     }
   });

@@ -6,7 +6,8 @@ import { planFill } from '../../src/core/index.js';
 
 describe('start-up guard', () => {
   it('planning the demo recipes with the demo lab never builds mathjs (its units all take the fast table; building mathjs costs ~0.1 s)', () => {
-    for (const f of readdirSync('recipes').filter((n) => n.endsWith('.yaml'))) planFill(buildPlanRequest(readRecipe(`recipes/${f}`)).input);
+    for (const f of readdirSync('recipes').filter((n) => n.endsWith('.yaml')))
+      planFill(buildPlanRequest(readRecipe(`recipes/${f}`)).input);
     expect(mathjsBuilt()).toBe(false);
   });
 });

@@ -3,7 +3,17 @@ import { designMixture, diagramPoint, planFill, pureCylinder, type Gauge } from 
 import { diagramData, diagramSvg, detailSvg } from '../../src/report/diagram.js';
 import { TORR } from '../helpers.js';
 
-const head = (id: string, fsTorr: number, res: number): Gauge => ({ id, label: id, reference: 'absolute', fullScalePa: fsTorr * TORR, minimumPa: 0, accuracyOfReading: 0.0012, accuracyOfFullScale: 0, resolutionPa: res * TORR, unit: 'Torr' });
+const head = (id: string, fsTorr: number, res: number): Gauge => ({
+  id,
+  label: id,
+  reference: 'absolute',
+  fullScalePa: fsTorr * TORR,
+  minimumPa: 0,
+  accuracyOfReading: 0.0012,
+  accuracyOfFullScale: 0,
+  resolutionPa: res * TORR,
+  unit: 'Torr',
+});
 const plan = (x: Record<string, number>, order: string[]) =>
   planFill({
     design: designMixture({ kind: 'fractions', fractions: x }),

@@ -6,9 +6,19 @@ import { join } from 'node:path';
 import { checkLog } from '../../src/io/check.js';
 import { appendEvent, createLog, readLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
 import { describeLogFinding } from '../../src/io/log-audit.js';
-import { DANGER_HEADLINE, labelLines, labelModel, renderLabelText, withU } from '../../src/report/label-model.js';
+import {
+  DANGER_HEADLINE,
+  labelLines,
+  labelModel,
+  renderLabelText,
+  withU,
+} from '../../src/report/label-model.js';
 import { buildCertificateModel } from '../../src/report/label-certificate.js';
-import { certificateToHtml, certificateToMarkdown, certificateToText } from '../../src/report/label-render.js';
+import {
+  certificateToHtml,
+  certificateToMarkdown,
+  certificateToText,
+} from '../../src/report/label-render.js';
 import { findChromium } from '../../src/io/pdf.js';
 import { runCli, TORR } from '../helpers.js';
 
@@ -28,7 +38,11 @@ const demoReadings = readFileSync(PASSING, 'utf8')
   });
 
 /** a new log with a demo log's header (changed by `header`), its events written through the log API */
-function rebuilt(from: string, write: (file: string) => void, header: (h: LogHeader) => LogHeader = (h) => h): string {
+function rebuilt(
+  from: string,
+  write: (file: string) => void,
+  header: (h: LogHeader) => LogHeader = (h) => h,
+): string {
   const f = join(mkdtempSync(join(tmpdir(), 'mw-label-')), 'rebuilt.jsonl');
   createLog(f, header(readLog(from).header));
   write(f);
@@ -61,7 +75,10 @@ describe('label and check agree (same log, same computation)', () => {
       // and the printed label of `mixwright label` carries exactly those numbers
       const printed = await runCli(['label', log, '--trials', '100000']);
       for (const [k, st] of Object.entries(j.composition) as [string, { value: number; u: number }][]) {
-        const text = st.value < 1e-3 ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm') : withU(st.value * 100, 2 * st.u * 100, '%');
+        const text =
+          st.value < 1e-3
+            ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm')
+            : withU(st.value * 100, 2 * st.u * 100, '%');
         expect(printed.stdout, k).toContain(`${k.padEnd(8)} ${text}`);
       }
       expect(printed.stdout).toContain(`phi ${withU(j.phi.value, 2 * j.phi.u)}`);
@@ -94,7 +111,11 @@ describe('the label says what the readings say', () => {
     const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
     expect(m.status).toBe('pass-uncertain');
     expect(labelLines(m)[0]).toBe('PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it');
-    expect(m.offDesign).toEqual([expect.stringMatching(/^O2 0\.11 % \(relative\) above design, but U 2\.1 % reaches past the tolerance 0\.50 %$/)]);
+    expect(m.offDesign).toEqual([
+      expect.stringMatching(
+        /^O2 0\.11 % \(relative\) above design, but U 2\.1 % reaches past the tolerance 0\.50 %$/,
+      ),
+    ]);
     expect(m.finalPressure).toBe('1500.0 Torr absolute');
     expect(m.finalTemperature).toBe('25.0 degC');
     expect(m.filledOn).toBe('2026-11-30');
@@ -119,7 +140,16 @@ describe('the label says what the readings say', () => {
     const f = rebuilt(PASSING, (file) => {
       appendEvent(file, demoReadings[0]);
       const at = appendEvent(file, demoReadings[1]).line;
-      appendEvent(file, { ...demoReadings[1], kind: 'correction', reading: '1481 Torr', pressure_Pa: 1481 * TORR, time: '2026-11-30T09:50:00Z', by: 'QX', reason: 'digit misread', replaces_line: at });
+      appendEvent(file, {
+        ...demoReadings[1],
+        kind: 'correction',
+        reading: '1481 Torr',
+        pressure_Pa: 1481 * TORR,
+        time: '2026-11-30T09:50:00Z',
+        by: 'QX',
+        reason: 'digit misread',
+        replaces_line: at,
+      });
       appendEvent(file, demoReadings[2]);
     });
     const log = readLog(f);
@@ -127,14 +157,18 @@ describe('the label says what the readings say', () => {
     expect(report.readings[1].pressurePa).toBeCloseTo(1481 * TORR, 9);
     expect(report.amendments).toHaveLength(1);
     const c = buildCertificateModel(report, log, META);
-    expect(c.corrections).toEqual(['fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX at 2026-11-30 09:50:00 UTC - digit misread; the original stays in the log']);
+    expect(c.corrections).toEqual([
+      'fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX at 2026-11-30 09:50:00 UTC - digit misread; the original stays in the log',
+    ]);
     expect(c.readings[1].note).toBe('corrected (replaces line 3)');
     expect(c.readings[1].typed).toBe('1481 Torr');
     expect(c.readings[1].by).toBe('QX');
     // a correction is not an edit of the record: no caveat, no record finding
     expect(report.caveats).toEqual([]);
     expect(report.findings).toEqual([]);
-    expect(certificateToText(c)).toContain('CORRECTIONS\n  fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX');
+    expect(certificateToText(c)).toContain(
+      'CORRECTIONS\n  fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX',
+    );
   });
 
   it('a withdrawal is listed with who, when and why', async () => {
@@ -142,25 +176,43 @@ describe('the label says what the readings say', () => {
       appendEvent(file, demoReadings[0]);
       appendEvent(file, demoReadings[1]);
       const at = appendEvent(file, demoReadings[2]).line;
-      appendEvent(file, { kind: 'withdraw', step: 3, withdraws_line: at, by: 'RB', time: '2026-11-30T10:05:00Z', reason: 'valve left open to the vent' });
+      appendEvent(file, {
+        kind: 'withdraw',
+        step: 3,
+        withdraws_line: at,
+        by: 'RB',
+        time: '2026-11-30T10:05:00Z',
+        reason: 'valve left open to the vent',
+      });
     });
     const log = readLog(f);
     const report = await checkLog(log, { trials: 0, seed: 1 });
     const c = buildCertificateModel(report, log, META);
-    expect(c.corrections).toEqual(['fill 3: 1500 Torr (line 4) withdrawn (line 5), by RB at 2026-11-30 10:05:00 UTC - valve left open to the vent; the original stays in the log']);
+    expect(c.corrections).toEqual([
+      'fill 3: 1500 Torr (line 4) withdrawn (line 5), by RB at 2026-11-30 10:05:00 UTC - valve left open to the vent; the original stays in the log',
+    ]);
     expect(c.label.status).toBe('incomplete');
   });
 
   it('acknowledgements and the initials of each reading, from the log', async () => {
     const f = rebuilt(PASSING, (file) => {
-      appendEvent(file, { kind: 'acknowledge', code: 'gauge-coarser-than-band', step: 2, by: 'QX', time: '2026-11-30T09:15:00Z', note: 'wider band agreed' });
+      appendEvent(file, {
+        kind: 'acknowledge',
+        code: 'gauge-coarser-than-band',
+        step: 2,
+        by: 'QX',
+        time: '2026-11-30T09:15:00Z',
+        note: 'wider band agreed',
+      });
       appendEvent(file, demoReadings[0]);
       appendEvent(file, { ...demoReadings[1], by: 'RB' });
       appendEvent(file, demoReadings[2]);
     });
     const log = readLog(f);
     const c = buildCertificateModel(await checkLog(log, { trials: 0, seed: 1 }), log, META);
-    expect(c.acknowledgements).toEqual(['gauge-coarser-than-band (fill 2): accepted by QX at 2026-11-30T09:15:00Z - wider band agreed']);
+    expect(c.acknowledgements).toEqual([
+      'gauge-coarser-than-band (fill 2): accepted by QX at 2026-11-30T09:15:00Z - wider band agreed',
+    ]);
     expect(c.readings.map((r) => r.by)).toEqual(['QX', 'RB', 'QX']);
   });
 });
@@ -168,9 +220,13 @@ describe('the label says what the readings say', () => {
 describe('a log that records a danger', () => {
   // the demo readings in a log whose tank has a working limit of 1495 Torr: the last (1500 Torr) goes past it
   const pastLimit = () =>
-    rebuilt(PASSING, (file) => {
-      for (const e of demoReadings) appendEvent(file, e);
-    }, (h) => ({ ...h, tank: { ...h.tank, working_limit_Pa: 1495 * TORR } }));
+    rebuilt(
+      PASSING,
+      (file) => {
+        for (const e of demoReadings) appendEvent(file, e);
+      },
+      (h) => ({ ...h, tank: { ...h.tank, working_limit_Pa: 1495 * TORR } }),
+    );
 
   it('a composition within tolerance never reads as fit: DANGER first, the caveat beside the verdict, the finding worded once, exit 3', async () => {
     const f = pastLimit();
@@ -181,19 +237,27 @@ describe('a log that records a danger', () => {
     expect(m.danger).toBe(true);
     const lines = labelLines(m);
     expect(lines[0]).toBe(`*** ${DANGER_HEADLINE} ***`);
-    expect(lines[1]).toBe('composition only: PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it');
+    expect(lines[1]).toBe(
+      'composition only: PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it',
+    );
     expect(lines.join(' ')).toContain("! DANGER: a logged reading went past the tank's working limit");
-    expect(lines[lines.length - 1]).toBe('*** DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED ***');
+    expect(lines[lines.length - 1]).toBe(
+      '*** DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED ***',
+    );
     // the caveat is wrapped for the boxed text label
-    for (const l of lines.filter((x) => /^[! ] /.test(x) && !/^ {2}[A-Z][A-Za-z0-9]* /.test(x))) expect(l.length, l).toBeLessThanOrEqual(78);
+    for (const l of lines.filter((x) => /^[! ] /.test(x) && !/^ {2}[A-Z][A-Za-z0-9]* /.test(x)))
+      expect(l.length, l).toBeLessThanOrEqual(78);
     const c = buildCertificateModel(report, log, META);
     expect(c.caveats).toEqual(report.caveats);
     expect(c.caveats[0]).toMatch(/^DANGER: a logged reading went past the tank's working limit/);
     expect(c.verdictText).toMatch(/the log records a danger \(below\), and the tank is not fit to use\.$/);
     expect(c.findings[0]).toEqual({ severity: 'danger', text: describeLogFinding(report.findings[0]) });
-    expect(c.findings[0].text).toContain("line 4, fill 3: the tank reading 1500 Torr (absolute) is above the tank's working limit of 1495 Torr");
+    expect(c.findings[0].text).toContain(
+      "line 4, fill 3: the tank reading 1500 Torr (absolute) is above the tank's working limit of 1495 Torr",
+    );
     expect(c.readings[2].note).toContain('DANGER');
-    for (const doc of [certificateToText(c), certificateToMarkdown(c), certificateToHtml(c)]) expect(doc).toContain("DANGER: a logged reading went past the tank's working limit");
+    for (const doc of [certificateToText(c), certificateToMarkdown(c), certificateToHtml(c)])
+      expect(doc).toContain("DANGER: a logged reading went past the tank's working limit");
     expect(certificateToHtml(c)).toContain('class="labelbox fail"');
     const cli = await runCli(['label', f, '--trials', '100000']);
     expect(cli.code).toBe(3);
@@ -204,7 +268,13 @@ describe('a log that records a danger', () => {
 
   it('an acknowledgement at the manifold does not lift it: still DANGER, still exit 3', async () => {
     const f = pastLimit();
-    appendEvent(f, { kind: 'acknowledge', code: 'above-working-limit', step: 3, by: 'QX', time: '2026-11-30T10:20:00Z' });
+    appendEvent(f, {
+      kind: 'acknowledge',
+      code: 'above-working-limit',
+      step: 3,
+      by: 'QX',
+      time: '2026-11-30T10:20:00Z',
+    });
     const log = readLog(f);
     const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
     expect(labelLines(m)[0]).toBe(`*** ${DANGER_HEADLINE} ***`);
@@ -257,7 +327,9 @@ describe('mixwright label', () => {
     expect(again.code).toBe(2);
     expect(again.stderr).toContain('add --force');
     expect(readFileSync(f, 'utf8')).toBe(first);
-    expect((await runCli(['label', PASSING, '--format', 'html', '-o', f, '--force', '--trials', '100000'])).code).toBe(0);
+    expect(
+      (await runCli(['label', PASSING, '--format', 'html', '-o', f, '--force', '--trials', '100000'])).code,
+    ).toBe(0);
     expect(readFileSync(f, 'utf8')).toMatch(/^<!DOCTYPE html>/);
   });
   it('refuses what is not one batch log, and a PDF without a file (exit 2)', async () => {
@@ -274,40 +346,72 @@ describe('mixwright label', () => {
 // the real-browser test: Chromium prints the HTML certificate, poppler reads the PDF back
 const chromium = findChromium();
 const required = process.env.MIXWRIGHT_REQUIRE_BROWSER === '1';
-const hasPoppler = spawnSync('sh', ['-c', 'command -v pdftotext && command -v pdftoppm'], { encoding: 'utf8' }).status === 0;
-if (!chromium || !hasPoppler) console.warn(`the real-browser label test needs chromium and poppler-utils; ${required ? 'required here' : 'skipped here'}`);
-describe.runIf((chromium && hasPoppler) || required)('the HTML certificate and label in a real browser', () => {
-  for (const [log, paper] of [
-    [FAILING, 'a4'],
-    [FAILING, 'letter'],
-    [PASSING, 'letter'],
-  ] as const) {
-    it(`${log} on ${paper}: one page, every word inside the printable area, the label whole with its verdict`, { timeout: 120000 }, () => {
-      mkdirSync('artifacts', { recursive: true });
-      const base = join('artifacts', `label-${log.includes('overshoot') ? 'fail' : 'pass'}-${paper}`);
-      const pdf = `${base}.pdf`;
-      const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'label', log, '--format', 'pdf', '--paper', paper, '-o', pdf, '--force', '--trials', '100000'], { encoding: 'utf8' });
-      expect(r.status, r.stderr).toBe(log === FAILING ? 4 : 0);
-      const info = execFileSync('pdfinfo', [pdf], { encoding: 'utf8' });
-      expect(Number(/Pages:\s+(\d+)/.exec(info)![1])).toBe(1);
-      const [w, h] = /Page size:\s+([\d.]+) x ([\d.]+)/.exec(info)!.slice(1).map(Number);
-      expect(Math.round(w)).toBe(paper === 'a4' ? 595 : 612);
-      execFileSync('pdftotext', ['-bbox', pdf, `${base}.bbox.html`]);
-      const words = [...readFileSync(`${base}.bbox.html`, 'utf8').matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({ x0: +m[1], x1: +m[3], y1: +m[4], t: m[5] }));
-      for (const wd of words) {
-        expect(wd.x0, wd.t).toBeGreaterThanOrEqual(28);
-        expect(wd.x1, wd.t).toBeLessThanOrEqual(w - 28);
-        expect(wd.y1, wd.t).toBeLessThanOrEqual(h - 28);
-      }
-      const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
-      if (log === FAILING) {
-        expect(text).toContain('FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE');
-        expect(text).toContain('DO NOT USE AS THE DESIGN MIXTURE');
-        expect(text).toMatch(/C2H4 0\.7068 % ± 0\.0016 %/);
-      } else expect(text).toContain('PASS NOT PROVEN');
-      expect(text).toContain('Checked by');
-      execFileSync('pdftoppm', ['-png', '-r', '80', pdf, base]);
-      expect(existsSync(`${base}-1.png`)).toBe(true);
-    });
-  }
-});
+const hasPoppler =
+  spawnSync('sh', ['-c', 'command -v pdftotext && command -v pdftoppm'], { encoding: 'utf8' }).status === 0;
+if (!chromium || !hasPoppler)
+  console.warn(
+    `the real-browser label test needs chromium and poppler-utils; ${required ? 'required here' : 'skipped here'}`,
+  );
+describe.runIf((chromium && hasPoppler) || required)(
+  'the HTML certificate and label in a real browser',
+  () => {
+    for (const [log, paper] of [
+      [FAILING, 'a4'],
+      [FAILING, 'letter'],
+      [PASSING, 'letter'],
+    ] as const) {
+      it(
+        `${log} on ${paper}: one page, every word inside the printable area, the label whole with its verdict`,
+        { timeout: 120000 },
+        () => {
+          mkdirSync('artifacts', { recursive: true });
+          const base = join('artifacts', `label-${log.includes('overshoot') ? 'fail' : 'pass'}-${paper}`);
+          const pdf = `${base}.pdf`;
+          const r = spawnSync(
+            process.execPath,
+            [
+              'dist/mixwright.mjs',
+              'label',
+              log,
+              '--format',
+              'pdf',
+              '--paper',
+              paper,
+              '-o',
+              pdf,
+              '--force',
+              '--trials',
+              '100000',
+            ],
+            { encoding: 'utf8' },
+          );
+          expect(r.status, r.stderr).toBe(log === FAILING ? 4 : 0);
+          const info = execFileSync('pdfinfo', [pdf], { encoding: 'utf8' });
+          expect(Number(/Pages:\s+(\d+)/.exec(info)![1])).toBe(1);
+          const [w, h] = /Page size:\s+([\d.]+) x ([\d.]+)/.exec(info)!.slice(1).map(Number);
+          expect(Math.round(w)).toBe(paper === 'a4' ? 595 : 612);
+          execFileSync('pdftotext', ['-bbox', pdf, `${base}.bbox.html`]);
+          const words = [
+            ...readFileSync(`${base}.bbox.html`, 'utf8').matchAll(
+              /<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g,
+            ),
+          ].map((m) => ({ x0: +m[1], x1: +m[3], y1: +m[4], t: m[5] }));
+          for (const wd of words) {
+            expect(wd.x0, wd.t).toBeGreaterThanOrEqual(28);
+            expect(wd.x1, wd.t).toBeLessThanOrEqual(w - 28);
+            expect(wd.y1, wd.t).toBeLessThanOrEqual(h - 28);
+          }
+          const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
+          if (log === FAILING) {
+            expect(text).toContain('FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE');
+            expect(text).toContain('DO NOT USE AS THE DESIGN MIXTURE');
+            expect(text).toMatch(/C2H4 0\.7068 % ± 0\.0016 %/);
+          } else expect(text).toContain('PASS NOT PROVEN');
+          expect(text).toContain('Checked by');
+          execFileSync('pdftoppm', ['-png', '-r', '80', pdf, base]);
+          expect(existsSync(`${base}-1.png`)).toBe(true);
+        },
+      );
+    }
+  },
+);

@@ -14,7 +14,18 @@ import { runCli } from '../helpers.js';
 function demoSheet(recipe = 'recipes/ch4-o2-ar-phi1.yaml', paper: 'a4' | 'letter' = 'a4') {
   const req = buildPlanRequest(readRecipe(recipe));
   const plan = planFill(req.input);
-  return { plan, model: buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: req.orderRecommended, unit: 'Torr', batchId: 'demo-001', version: 'test', paper }) };
+  return {
+    plan,
+    model: buildSheetModel(plan, {
+      recipe: req.recipe,
+      labName: req.lab.name,
+      orderRecommended: req.orderRecommended,
+      unit: 'Torr',
+      batchId: 'demo-001',
+      version: 'test',
+      paper,
+    }),
+  };
 }
 
 describe('diagram geometry', () => {
@@ -71,7 +82,15 @@ describe('renderings of the demo sheet', () => {
   it('a plan with a danger finding carries the banner', () => {
     const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
     const plan = planFill({ ...req.input, finalPressurePa: 3.8e5 });
-    const m = buildSheetModel(plan, { recipe: req.recipe, labName: req.lab.name, orderRecommended: true, unit: 'Torr', batchId: 'x', version: 'test', paper: 'a4' });
+    const m = buildSheetModel(plan, {
+      recipe: req.recipe,
+      labName: req.lab.name,
+      orderRecommended: true,
+      unit: 'Torr',
+      batchId: 'x',
+      version: 'test',
+      paper: 'a4',
+    });
     expect(sheetToText(m)).toContain('*** DANGER findings stand');
   });
 });
@@ -80,13 +99,18 @@ describe('mixwright sheet', () => {
   it('writes a file atomically and refuses to overwrite it without --force (exit 2)', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-'));
     const f = join(dir, 'fill.md');
-    expect((await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', f, '--batch', 'b1'])).code).toBe(0);
+    expect(
+      (await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', f, '--batch', 'b1']))
+        .code,
+    ).toBe(0);
     const first = readFileSync(f, 'utf8');
     const again = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', f]);
     expect(again.code).toBe(2);
     expect(again.stderr).toContain('add --force');
     expect(readFileSync(f, 'utf8')).toBe(first);
-    expect((await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'txt', '-o', f, '--force'])).code).toBe(0);
+    expect(
+      (await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'txt', '-o', f, '--force'])).code,
+    ).toBe(0);
   });
   it('the printed sheet carries the diffusion mixing estimate of the lab tank', async () => {
     const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'txt', '--batch', 'b2']);
@@ -95,7 +119,19 @@ describe('mixwright sheet', () => {
     expect(s.stdout).toMatch(/Mixing: stirrer on ________ min \(diffusion alone/);
   });
   it('without Chromium on the PATH, --format pdf says how to print the HTML instead (exit 2)', () => {
-    const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'pdf', '-o', join(tmpdir(), 'x.pdf')], { encoding: 'utf8', env: { ...process.env, PATH: '/nonexistent' } });
+    const r = spawnSync(
+      process.execPath,
+      [
+        'dist/mixwright.mjs',
+        'sheet',
+        'recipes/ch4-o2-ar-phi1.yaml',
+        '--format',
+        'pdf',
+        '-o',
+        join(tmpdir(), 'x.pdf'),
+      ],
+      { encoding: 'utf8', env: { ...process.env, PATH: '/nonexistent' } },
+    );
     expect(r.status).toBe(2);
     expect(r.stderr).toContain('--format html and print it from any browser');
   });
@@ -104,7 +140,8 @@ describe('mixwright sheet', () => {
 // the real-browser test: Chromium prints the HTML sheet, poppler reads the PDF back
 const chromium = findChromium();
 const required = process.env.MIXWRIGHT_REQUIRE_BROWSER === '1';
-const hasPoppler = spawnSync('sh', ['-c', 'command -v pdftotext && command -v pdftoppm'], { encoding: 'utf8' }).status === 0;
+const hasPoppler =
+  spawnSync('sh', ['-c', 'command -v pdftotext && command -v pdftoppm'], { encoding: 'utf8' }).status === 0;
 if (!chromium || !hasPoppler) {
   const msg = `the real-browser sheet test needs chromium and poppler-utils (apt-get install -y chromium poppler-utils); ${required ? 'required here' : 'skipped here'}`;
   console.warn(msg);
@@ -115,7 +152,24 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML sheet in a real b
       const out = 'artifacts';
       mkdirSync(out, { recursive: true });
       const pdf = join(out, `demo-sheet-${paper}.pdf`);
-      const r = spawnSync(process.execPath, ['dist/mixwright.mjs', 'sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--batch', 'demo-001', '--format', 'pdf', '--paper', paper, '-o', pdf, '--force'], { encoding: 'utf8' });
+      const r = spawnSync(
+        process.execPath,
+        [
+          'dist/mixwright.mjs',
+          'sheet',
+          'recipes/ch4-o2-ar-phi1.yaml',
+          '--batch',
+          'demo-001',
+          '--format',
+          'pdf',
+          '--paper',
+          paper,
+          '-o',
+          pdf,
+          '--force',
+        ],
+        { encoding: 'utf8' },
+      );
       expect(r.status, r.stderr).toBe(0);
       const info = execFileSync('pdfinfo', [pdf], { encoding: 'utf8' });
       const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
@@ -127,7 +181,12 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML sheet in a real b
       execFileSync('pdftotext', ['-bbox', pdf, bbox]);
       const xml = readFileSync(bbox, 'utf8');
       const pageBlocks = xml.split('<page ').slice(1);
-      const words = (i: number) => [...pageBlocks[i].matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({ x0: +m[1], y0: +m[2], x1: +m[3], y1: +m[4], t: m[5] }));
+      const words = (i: number) =>
+        [
+          ...pageBlocks[i].matchAll(
+            /<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g,
+          ),
+        ].map((m) => ({ x0: +m[1], y0: +m[2], x1: +m[3], y1: +m[4], t: m[5] }));
       for (let i = 0; i < pages; i++) {
         for (const wd of words(i)) {
           expect(wd.x0, wd.t).toBeGreaterThanOrEqual(30);
@@ -136,7 +195,8 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML sheet in a real b
         }
       }
       const page1 = words(0).map((x) => x.t);
-      for (const t of ['cyl-CH4', 'cyl-Ar', 'cyl-O2', '10.01', '1480.0', '1500.0', 'actual']) expect(page1, t).toContain(t);
+      for (const t of ['cyl-CH4', 'cyl-Ar', 'cyl-O2', '10.01', '1480.0', '1500.0', 'actual'])
+        expect(page1, t).toContain(t);
       const all = pageBlocks.flatMap((_, i) => words(i).map((x) => x.t));
       expect(all).toContain('inert');
       expect(all).toContain('fuel');

@@ -16,12 +16,18 @@ describe('species: fire data from memory or estimated is named', () => {
     expect(r.stdout).toContain('coward-jones-1952');
   });
   it('n-heptane says its UFL in O2 and LOC are estimated; acetylene names its LOC of 0 as from memory', async () => {
-    expect((await runCli(['species', 'n-C7H16'])).stdout).toContain('Estimated, no published value on file: n-C7H16 (UFL in O2); n-C7H16 (LOC = z x LFL)');
-    expect((await runCli(['species', 'C2H2'])).stdout).toMatch(/Still from memory[^\n]*limiting O2 concentration \(N2\) 0\.00 vol % \(acetylene-practice\)/);
+    expect((await runCli(['species', 'n-C7H16'])).stdout).toContain(
+      'Estimated, no published value on file: n-C7H16 (UFL in O2); n-C7H16 (LOC = z x LFL)',
+    );
+    expect((await runCli(['species', 'C2H2'])).stdout).toMatch(
+      /Still from memory[^\n]*limiting O2 concentration \(N2\) 0\.00 vol % \(acetylene-practice\)/,
+    );
   });
   it('detonation limits are listed with their source and marked from memory (Kuchta 1985, USBM Bulletin 680; recalled), and a fuel without limits in air names the conservative rule', async () => {
     const c2h4 = (await runCli(['species', 'C2H4'])).stdout;
-    expect(c2h4).toMatch(/Detonation limits: in air 3\.30-14\.7 vol % \(fuel-air-detonability-memory\); in O2 3\.00-80\.0 vol % \(kuchta-1985-memory\)\. These are from memory/);
+    expect(c2h4).toMatch(
+      /Detonation limits: in air 3\.30-14\.7 vol % \(fuel-air-detonability-memory\); in O2 3\.00-80\.0 vol % \(kuchta-1985-memory\)\. These are from memory/,
+    );
     const ch4 = (await runCli(['species', 'CH4'])).stdout;
     expect(ch4).toMatch(/Detonation limits: in O2 8\.30-55\.0 vol % \(kuchta-1985-memory\)/);
     expect(ch4).toMatch(/No detonation limits in air on file: .*our conservative rule/);
@@ -30,8 +36,12 @@ describe('species: fire data from memory or estimated is named', () => {
     const { readFileSync } = await import('node:fs');
     const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
     for (const [k, r] of FUEL_SAFETY) {
-      for (const [what, v] of [['UFL in O2', r.uflO2], ['LOC', r.loc]] as const) {
-        if (v && SOURCES.get(v.source)!.quality === 'from-memory') expect(readme, `${k} ${what}`).toMatch(new RegExp(`${k.replace(/[-]/g, '\\-')} ${what}`));
+      for (const [what, v] of [
+        ['UFL in O2', r.uflO2],
+        ['LOC', r.loc],
+      ] as const) {
+        if (v && SOURCES.get(v.source)!.quality === 'from-memory')
+          expect(readme, `${k} ${what}`).toMatch(new RegExp(`${k.replace(/[-]/g, '\\-')} ${what}`));
       }
     }
   });

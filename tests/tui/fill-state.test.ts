@@ -10,7 +10,10 @@ const PSI = 6894.757293168361; // lbf/in2 in Pa (NIST SP 811, exact from the def
 
 function header(pressure?: string, edit: (r: Record<string, unknown>) => Record<string, unknown> = (r) => r) {
   const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
-  const req = buildPlanRequest({ ...rs, recipe: edit(rs.recipe as unknown as Record<string, unknown>) as unknown as typeof rs.recipe });
+  const req = buildPlanRequest({
+    ...rs,
+    recipe: edit(rs.recipe as unknown as Record<string, unknown>) as unknown as typeof rs.recipe,
+  });
   const input = pressure ? { ...req.input, finalPressurePa: Number(pressure) } : req.input;
   const plan = planFill(input);
   return headerFromPlan(plan, { ...req, input }, 'b1', '2026-12-01T00:00:00Z');
@@ -30,7 +33,8 @@ function setTemperature(s: FillState, text: string): FillState {
   for (let i = 0; i < 12; i++) t = fillReducer(t, { type: 'backspace' });
   return tab(type(t, text));
 }
-const logText = (h: LogHeader, events: readonly NewLogEvent[]) => [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
+const logText = (h: LogHeader, events: readonly NewLogEvent[]) =>
+  [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
 
 describe('guided fill state machine', () => {
   it('a reading on target: one reading effect, next step, the rest re-targeted, the composition on course', () => {
@@ -95,7 +99,11 @@ describe('guided fill state machine', () => {
     expect(t.targetsPa[2] / oldTarget).toBeLessThan(1.0045);
     expect(t.message).toMatch(/targets re-computed for 26.1 degC/);
     // the old target typed anyway: pressure inside its band, composition far off
-    const bad = read({ ...t, targetsPa: s.targetsPa, targetTemperatureK: t.targetTemperatureK }, (oldTarget / TORR).toFixed(1), events);
+    const bad = read(
+      { ...t, targetsPa: s.targetsPa, targetTemperatureK: t.targetTemperatureK },
+      (oldTarget / TORR).toFixed(1),
+      events,
+    );
     expect(bad.phase).toBe('done');
     expect(bad.judgement?.verdict).toBe('fail');
     const o2 = bad.judgement!.deviations.find((d) => d.species === 'O2')!;
@@ -103,7 +111,8 @@ describe('guided fill state machine', () => {
     // the same inverse model and temperatures as `check`: the composition agrees to 1e-9 relative
     const rep = await checkLog(parseLog(logText(h, events), 'x.jsonl'), { trials: 0, seed: 1 });
     expect(rep.verdict.verdict).toBe('fail');
-    for (const d of bad.judgement!.deviations) expect(Math.abs(d.actual / rep.result.composition[d.species].value - 1)).toBeLessThan(1e-9);
+    for (const d of bad.judgement!.deviations)
+      expect(Math.abs(d.actual / rep.result.composition[d.species].value - 1)).toBeLessThan(1e-9);
     // at the re-targeted pressure the composition is the design's
     const good = read(t, (t.targetsPa[2] / TORR).toFixed(1));
     expect(good.judgement?.verdict).not.toBe('fail');
@@ -153,7 +162,11 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(d0.phase).toBe('over-limit');
     // a reading is a fact about the tank: logged before the operator chooses (Ctrl-C there keeps it)
     expect(d0.effects.map((e) => e.kind)).toEqual(['reading']);
-    expect(d0.effects[0]).toMatchObject({ step: 2, pressure_Pa: 2800 * TORR, note: expect.stringMatching(/above the working limit/) });
+    expect(d0.effects[0]).toMatchObject({
+      step: 2,
+      pressure_Pa: 2800 * TORR,
+      note: expect.stringMatching(/above the working limit/),
+    });
     expect(d.pending!.done.line).toBe(3);
     // venting keeps the composition: the CH4 overshoot-free CH4/Ar ratio, O2 restores phi: the screen says whether that is within the tolerance
     expect(typeof d.overLimit!.within).toBe('boolean');
@@ -177,10 +190,21 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(e.phase).toBe('reading');
     expect(e.current).toBe(1);
     expect(e.input).toBe('2800');
-    expect(e.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2, withdraws_line: 3, by: 'JD', reason: expect.stringMatching(/mistyped/) })]);
+    expect(e.effects).toEqual([
+      expect.objectContaining({
+        kind: 'withdraw',
+        step: 2,
+        withdraws_line: 3,
+        by: 'JD',
+        reason: expect.stringMatching(/mistyped/),
+      }),
+    ]);
     const ok = read({ ...e, input: '' }, '1480');
     expect(ok.effects.map((x) => x.kind)).toEqual(['reading']);
-    const log = parseLog(logText(h, [...s1.effects, ...overLimit().d.effects, ...e.effects, ...ok.effects]), 'x.jsonl');
+    const log = parseLog(
+      logText(h, [...s1.effects, ...overLimit().d.effects, ...e.effects, ...ok.effects]),
+      'x.jsonl',
+    );
     expect(log.readings.map((r) => r.pressure_Pa / TORR)).toEqual([10.01, 1480]);
     const report = await checkLog(log, { trials: 0, seed: 1 });
     const f = report.findings.find((x) => x.code === 'above-working-limit');
@@ -235,7 +259,7 @@ describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 ps
     expect(s.phase).toBe('barometer');
     return s;
   };
-  it('today\'s barometric pressure is asked first, refused without a unit or outside 70-110 kPa, and used for the gauge targets and logged with each gauge reading', () => {
+  it("today's barometric pressure is asked first, refused without a unit or outside 70-110 kPa, and used for the gauge targets and logged with each gauge reading", () => {
     const s = start();
     expect(enter(type(s, '752.3')).error).toMatch(/unit/);
     expect(enter(type(s, '752.3 Torr')).error).toMatch(/add your initials/);
@@ -243,7 +267,9 @@ describe('plausibility and the barometer (MT-2 at 3 bar: Ar and O2 on the 100 ps
     const b = enter(type(s, '745 Torr AB'));
     expect(b.phase).toBe('reading');
     expect(b.barometerPa / TORR).toBeCloseTo(745, 9);
-    expect(b.effects).toEqual([expect.objectContaining({ kind: 'barometer', reading: '745 Torr', by: 'AB' })]);
+    expect(b.effects).toEqual([
+      expect.objectContaining({ kind: 'barometer', reading: '745 Torr', by: 'AB' }),
+    ]);
     expect(b.effects[0]).toMatchObject({ pressure_Pa: 745 * TORR });
     const s1 = read(b, (b.targetsPa[0] / TORR).toFixed(2));
     const shownPsi = (s1.targetsPa[1] - 745 * TORR) / PSI;
@@ -302,7 +328,8 @@ describe('undo and correction, written through the batch log (lines, chain, chec
       s = fillReducer(s, a);
       for (const e of s.effects) {
         const w = appendEvent(file, e);
-        if (e.kind === 'reading' || e.kind === 'correction') s = fillReducer(s, { type: 'logged', step: e.step, line: w.line });
+        if (e.kind === 'reading' || e.kind === 'correction')
+          s = fillReducer(s, { type: 'logged', step: e.step, line: w.line });
       }
       return s;
     };
@@ -330,7 +357,12 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     expect(f.get().phase).toBe('done');
     const log = readLog(f.file);
     expect(log.amendments.map((a) => a.kind)).toEqual(['withdraw']);
-    expect(log.allReadings.map((r) => r.reading)).toEqual(['10.01 Torr', '1408 Torr', `${t2.toFixed(1)} Torr`, expect.any(String)]);
+    expect(log.allReadings.map((r) => r.reading)).toEqual([
+      '10.01 Torr',
+      '1408 Torr',
+      `${t2.toFixed(1)} Torr`,
+      expect.any(String),
+    ]);
     expect(log.issues.filter((i) => i.code === 'line-edited')).toEqual([]);
     const rep = await checkLog(log, { trials: 0, seed: 1 });
     expect(rep.readings[1].pressurePa / TORR).toBeCloseTo(Number(t2.toFixed(1)), 9);
@@ -359,7 +391,12 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     expect((done.targetsPa[2] - before) / TORR).toBeLessThan(1.1);
     const log = readLog(f.file);
     expect(log.amendments).toHaveLength(1);
-    expect(log.amendments[0]).toMatchObject({ kind: 'correction', step: 2, by: 'AB', reason: 'mistyped: 1481.0 not 1480.0' });
+    expect(log.amendments[0]).toMatchObject({
+      kind: 'correction',
+      step: 2,
+      by: 'AB',
+      reason: 'mistyped: 1481.0 not 1480.0',
+    });
     expect(log.amendments[0].old!.reading).toBe('1480.0 Torr');
     expect(log.readings[1].pressure_Pa / TORR).toBeCloseTo(1481, 9);
   });
@@ -375,7 +412,9 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     expect(f.typeEnter('118.5').error).toMatch(/your initials/);
     const s1 = f.typeEnter('118.5 AB');
     expect(s1.phase).toBe('reading');
-    expect(s1.message).toMatch(/starting pressure 118.5 Torr logged by AB \(the plan assumed 120.000 Torr absolute\)/);
+    expect(s1.message).toMatch(
+      /starting pressure 118.5 Torr logged by AB \(the plan assumed 120.000 Torr absolute\)/,
+    );
     // 1.5 Torr less gas of the design composition to start from: the first target falls by about that
     expect((s0.targetsPa[0] - s1.targetsPa[0]) / TORR).toBeGreaterThan(1.3);
     expect((s0.targetsPa[0] - s1.targetsPa[0]) / TORR).toBeLessThan(1.7);
@@ -395,8 +434,16 @@ describe('the last fill below its band: the batch stays open for more gas', () =
   /** fills 1 and 2 on target, logged on lines 2 and 3; the last fill typed `lowBy` bands below its target */
   function lastLow(events: NewLogEvent[]) {
     let s = initialState(setupFromHeader(h));
-    s = fillReducer(read(s, (s.targetsPa[0] / TORR).toFixed(4), events), { type: 'logged', step: 1, line: 2 });
-    s = fillReducer(read(s, (s.targetsPa[1] / TORR).toFixed(2), events), { type: 'logged', step: 2, line: 3 });
+    s = fillReducer(read(s, (s.targetsPa[0] / TORR).toFixed(4), events), {
+      type: 'logged',
+      step: 1,
+      line: 2,
+    });
+    s = fillReducer(read(s, (s.targetsPa[1] / TORR).toFixed(2), events), {
+      type: 'logged',
+      step: 2,
+      line: 3,
+    });
     const t = s.targetsPa[2] / TORR;
     const band = s.setup.steps[2].bandPa / TORR;
     return { s, t, band };
@@ -417,7 +464,15 @@ describe('the last fill below its band: the batch stays open for more gas', () =
     // still below: a correction, the batch stays open
     const still = read(b, `${(t - 2 * band).toFixed(2)} AB`, events);
     expect(still.phase).toBe('below');
-    expect(still.effects).toEqual([expect.objectContaining({ kind: 'correction', step: 3, by: 'AB', replaces_line: 4, reason: expect.stringMatching(/more gas added/) })]);
+    expect(still.effects).toEqual([
+      expect.objectContaining({
+        kind: 'correction',
+        step: 3,
+        by: 'AB',
+        replaces_line: 4,
+        reason: expect.stringMatching(/more gas added/),
+      }),
+    ]);
     const b2 = fillReducer(still, { type: 'logged', step: 3, line: 5 });
     const ok = read(b2, `${t.toFixed(2)} AB`, events);
     expect(ok.phase).toBe('done');
@@ -437,14 +492,21 @@ describe('the last fill below its band: the batch stays open for more gas', () =
     const u = enter(type(b, 'undo AB'));
     expect(u.phase).toBe('reading');
     expect(u.current).toBe(2);
-    expect(u.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 3, withdraws_line: 4, by: 'AB' })]);
+    expect(u.effects).toEqual([
+      expect.objectContaining({ kind: 'withdraw', step: 3, withdraws_line: 4, by: 'AB' }),
+    ]);
     const resumed = initialState(setupFromHeader(h), parseLog(logText(h, events), 'x.jsonl'), NOW);
     expect(resumed.phase).toBe('below');
     expect(resumed.effects).toEqual([]);
     const c = enter(type(b, 'close AB'));
     expect(c.phase).toBe('done');
-    expect(c.effects).toEqual([expect.objectContaining({ kind: 'close', note: expect.stringMatching(/below its target band/) })]);
-    const rep = await checkLog(parseLog(logText(h, [...events, ...c.effects]), 'x.jsonl'), { trials: 0, seed: 1 });
+    expect(c.effects).toEqual([
+      expect.objectContaining({ kind: 'close', note: expect.stringMatching(/below its target band/) }),
+    ]);
+    const rep = await checkLog(parseLog(logText(h, [...events, ...c.effects]), 'x.jsonl'), {
+      trials: 0,
+      seed: 1,
+    });
     expect(rep.verdict.verdict).toBe('fail');
   });
 
@@ -452,7 +514,9 @@ describe('the last fill below its band: the batch stays open for more gas', () =
     const s0 = initialState(setupFromHeader(header()));
     const s1 = read(s0, '10.0128');
     const low = read(s1, '1 kPa');
-    expect(low.error).toMatch(/typed "1 kPa": 1\.00000 kPa absolute is not above the previous reading, 1\.33\d+ kPa absolute/);
+    expect(low.error).toMatch(
+      /typed "1 kPa": 1\.00000 kPa absolute is not above the previous reading, 1\.33\d+ kPa absolute/,
+    );
   });
 });
 

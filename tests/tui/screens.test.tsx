@@ -80,7 +80,9 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     ui.stdin.write('2800\r');
     await until(() => !!ui.lastFrame()?.includes('ABOVE THE WORKING LIMIT'), 'the danger screen');
     const f = ui.lastFrame()!.replace(/\s+/g, ' ');
-    expect(f).toMatch(/2800\.0 Torr absolute, 99\.8 Torr above the working limit of MT-1 \(2700\.2 Torr absolute\)/);
+    expect(f).toMatch(
+      /2800\.0 Torr absolute, 99\.8 Torr above the working limit of MT-1 \(2700\.2 Torr absolute\)/,
+    );
     expect(f).toMatch(/Close the cylinder valve and the tank valve now/);
     expect(f).toMatch(/Vent or pump back by 13\d\d\.\d Torr, to 14\d\d\.\d Torr absolute/);
     expect(f).toMatch(/The reading is logged/);
@@ -92,7 +94,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     ui.unmount();
   });
 
-  it('the end screen shows check\'s verdict and the label from the as-filled composition, marked FAIL when it failed', async () => {
+  it("the end screen shows check's verdict and the label from the as-filled composition, marked FAIL when it failed", async () => {
     const { mkdtempSync } = await import('node:fs');
     const { join } = await import('node:path');
     const { tmpdir } = await import('node:os');
@@ -106,7 +108,14 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
       const log = readLog(file);
       return { report: await checkLog(log, { trials: 0, seed: 1 }), log };
     };
-    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={(e) => appendEvent(file, e)} logFile={file} recheck={recheck} />);
+    const ui = render(
+      <FillApp
+        initial={initialState(setupFromHeader(h))}
+        write={(e) => appendEvent(file, e)}
+        logFile={file}
+        recheck={recheck}
+      />,
+    );
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     // Ar 1 % over (still well inside the limit): the dilution is off and cannot come back
     ui.stdin.write('10.01\r');
@@ -124,14 +133,14 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     // the label's CH4 is the as-filled value from the readings, not the design's 0.6667 %
     const rep = (await recheck()).report;
     const ch4 = rep.result.composition.CH4.value * 100;
-    expect(Math.abs(ch4 / (0.02 / 3 * 100) - 1)).toBeGreaterThan(0.005);
+    expect(Math.abs(ch4 / ((0.02 / 3) * 100) - 1)).toBeGreaterThan(0.005);
     expect(f).toContain(`CH4      ${ch4.toFixed(4).slice(0, 5)}`);
     expect(f).not.toContain('0.6667 %');
     void TORR;
     ui.unmount();
   });
 
-  it('an accepted reading past the working limit: the end screen shows check\'s DANGER caveat beside the verdict and in the label box, and hands the report to the shell', async () => {
+  it("an accepted reading past the working limit: the end screen shows check's DANGER caveat beside the verdict and in the label box, and hands the report to the shell", async () => {
     const { mkdtempSync } = await import('node:fs');
     const { join } = await import('node:path');
     const { tmpdir } = await import('node:os');
@@ -146,7 +155,15 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
       return { report: await checkLog(log, { trials: 0, seed: 1 }), log };
     };
     let caveats: readonly string[] | undefined;
-    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={(e) => appendEvent(file, e)} logFile={file} recheck={recheck} onReport={(r) => (caveats = r.caveats)} />);
+    const ui = render(
+      <FillApp
+        initial={initialState(setupFromHeader(h))}
+        write={(e) => appendEvent(file, e)}
+        logFile={file}
+        recheck={recheck}
+        onReport={(r) => (caveats = r.caveats)}
+      />,
+    );
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     ui.stdin.write('10.01\r');
     await until(() => !!ui.lastFrame()?.includes('fill 2 of 3'), 'fill 2');
@@ -155,12 +172,18 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     // logged before the choice: the file holds it now
     expect(readLog(file).readings.map((r) => r.step)).toEqual([1, 2]);
     ui.stdin.write('accept JD\r');
-    await until(() => caveats !== undefined && !!ui.lastFrame()?.includes('Tank label'), 'the end screen', 15000);
+    await until(
+      () => caveats !== undefined && !!ui.lastFrame()?.includes('Tank label'),
+      'the end screen',
+      15000,
+    );
     const f = ui.lastFrame()!.replace(/\s+/g, ' ');
     expect(caveats!.some((c) => /^DANGER:/.test(c))).toBe(true);
     expect(f).toMatch(/BUT SEE BELOW/);
     // beside the verdict and again inside the label box
-    expect(f.match(/DANGER: a logged reading went past the tank's working limit/g)?.length).toBeGreaterThanOrEqual(2);
+    expect(
+      f.match(/DANGER: a logged reading went past the tank's working limit/g)?.length,
+    ).toBeGreaterThanOrEqual(2);
     expect(f).toMatch(/do not label or use this tank as fit/);
     ui.unmount();
   });
@@ -169,7 +192,14 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     let stopped = 0;
     const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
     const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
-    const ui = render(<FillApp initial={initialState(setupFromHeader(h))} write={() => undefined} logFile="b1.jsonl" onInterrupt={() => stopped++} />);
+    const ui = render(
+      <FillApp
+        initial={initialState(setupFromHeader(h))}
+        write={() => undefined}
+        logFile="b1.jsonl"
+        onInterrupt={() => stopped++}
+      />,
+    );
     await until(() => !!ui.lastFrame()?.includes('fill 1 of 3'), 'the first step');
     ui.stdin.write('\x03');
     await until(() => stopped === 1, 'the interrupt');
@@ -206,7 +236,13 @@ describe('wizard (reducer and screen)', () => {
     expect(r.message).toMatch(/fix the design first/);
   });
   it('screen: fields, the live preview and the reason next to a bad field', async () => {
-    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => ({ kind: "message", text: "ok" })} />);
+    const ui = render(
+      <WizardApp
+        initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })}
+        evaluate={evaluate}
+        act={() => ({ kind: 'message', text: 'ok' })}
+      />,
+    );
     await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
     expect(ui.lastFrame()).toMatch(/1 CH4\s+head-1kT/);
     ui.stdin.write('\x1b[B'); // down: oxidizer
@@ -217,7 +253,13 @@ describe('wizard (reducer and screen)', () => {
     ui.unmount();
   });
   it('screen: keys sent one by one without waiting for a redraw all land in the field', async () => {
-    const ui = render(<WizardApp initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })} evaluate={evaluate} act={() => ({ kind: "message", text: "ok" })} />);
+    const ui = render(
+      <WizardApp
+        initial={wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' })}
+        evaluate={evaluate}
+        act={() => ({ kind: 'message', text: 'ok' })}
+      />,
+    );
     await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
     for (const k of ['\x1b[B', '\x7f', '\x7f', 'N', '2']) ui.stdin.write(k);
     await until(() => /oxidizer\s+N2\s+!/.test(ui.lastFrame() ?? ''), 'the refused oxidizer');
@@ -239,8 +281,12 @@ describe('wizard actions', () => {
     expect(wizardAct(s, 'save recipe', ctx)).toMatchObject({ text: `saved ${join(dir, 'wz1.yaml')}` });
     const req = buildPlanRequest(readRecipe(join(dir, 'wz1.yaml')));
     expect(req.input.design.composition.Ar).toBeCloseTo(0.98, 12);
-    expect(wizardAct({ ...s, values: { ...s.values, dilution: '0.97' } }, 'save recipe', ctx)).toMatchObject({ kind: 'confirm' });
-    expect(wizardAct(s, 'write fill sheet', ctx)).toMatchObject({ text: expect.stringMatching(/saved .*fill-wz1\.html/) });
+    expect(wizardAct({ ...s, values: { ...s.values, dilution: '0.97' } }, 'save recipe', ctx)).toMatchObject({
+      kind: 'confirm',
+    });
+    expect(wizardAct(s, 'write fill sheet', ctx)).toMatchObject({
+      text: expect.stringMatching(/saved .*fill-wz1\.html/),
+    });
     expect(readFileSync(join(dir, 'fill-wz1.html'), 'utf8')).toContain('<svg');
     const hand = wizardAct(s, 'start guided fill', ctx);
     expect(typeof hand).toBe('object');
