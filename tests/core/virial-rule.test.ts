@@ -32,7 +32,8 @@ describe('cross-B rule calibrated on the fitted pairs (reference: CoolProp 8.0.0
     expect(virialU(e)).toBeCloseTo(Math.max(4e-6, 0.05 * Math.abs(e.valueM3PerMol)), 12);
   });
 
-  it('He pairs keep the uncalibrated class: u = 4 cm3/mol at 298 K for He-Ar (rule +18.5; +19 to +21 from memory, Brewer & Vaughn 1969)', () => {
+  // rule +18.5; +19 to +21 from memory (Brewer & Vaughn 1969)
+  it('He pairs keep the uncalibrated class: u = 4 cm3/mol at 298 K for He-Ar', () => {
     const m = virialModel(['He', 'Ar'], 298.15);
     const e = m.entries.find((q) => q.i !== q.j)!;
     expect(e.method).toBe('combining-rule');
@@ -42,7 +43,8 @@ describe('cross-B rule calibrated on the fitted pairs (reference: CoolProp 8.0.0
 });
 
 describe('composition-averaged cross B carries its own uncertainty into every budget (one virialU)', () => {
-  it('CO2-C2H6 at 300 K: the library average -123.0 cm3/mol (CoolProp 8.0.0, table: least-squares fit of B_mix over composition) with u = max(its spread, 1.5 cm3/mol, 3 %)', () => {
+  // CoolProp 8.0.0, table: the least-squares fit of B_mix over composition
+  it('CO2-C2H6 at 300 K: the library average -123.0 cm3/mol, u = max(its spread, 1.5 cm3/mol, 3 %)', () => {
     const m = virialModel(['CO2', 'C2H6'], 300);
     const e = m.entries.find((q) => q.i !== q.j)!;
     expect(e.method).toBe('reference-mixture-average');
