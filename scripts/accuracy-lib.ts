@@ -4,6 +4,8 @@
 // and by tests/core/accuracy.test.ts (checks the committed record).
 import {
   R,
+  bMix,
+  cMix,
   designMixture,
   planFill,
   pureCylinder,
@@ -21,7 +23,34 @@ export interface GridCase {
   order: string[];
   temperature_K: number;
   final_pressure_Pa: number;
-  readings: { species: string; pressure_Pa: number }[];
+  final_density_mol_per_m3: number;
+  readings: {
+    species: string;
+    pressure_Pa: number;
+    /** the library's zero-density B_mix (cm3/mol) and C_mix (cm6/mol2) at the reading's composition */
+    B_mix_cm3_per_mol: number;
+    C_mix_cm6_per_mol2: number;
+    /** the library's Z at the reading minus 1 + B_mix rho + C_mix rho^2: the terms beyond C */
+    Z_beyond_C: number;
+    /** per pair 'a|b', the B_ab the library's binary model implies at the pair's own share, cm3/mol */
+    pair_B_cm3_per_mol: Record<string, number>;
+  }[];
+}
+
+/**
+ * Where the error of the worst target of a row comes from, first order in the differences between our
+ * model and the library (relative error of that target): each cross B's share, 2 y_i y_j (B_ij - B_ij,lib)
+ * rho at the target's state minus the same at the final state (the amounts follow from the final state),
+ * with B_ij,lib what the library's binary model implies at the pair's own share there; what of B_mix is
+ * not in the pairs (pure B, and the library's B_mix of three or more species not being the sum of its
+ * binaries); C_mix; the library's terms beyond C. Their sum matches the error to a few per cent.
+ */
+export interface ErrorParts {
+  /** 'i-j' -> share of the relative error */
+  B_pairs: Record<string, number>;
+  B_rest: number;
+  C: number;
+  beyond_C: number;
 }
 
 export interface RecordRow {
@@ -50,6 +79,8 @@ export interface RecordRow {
    * expansion and the row compares two estimates; such rows are recorded but not judged
    */
   reference_virial_consistent: boolean;
+  /** the worst target's error split by coefficient and pair (see ErrorParts) */
+  error_parts: ErrorParts;
 }
 
 function referenceVirialConsistent(c: GridCase): boolean {
@@ -112,6 +143,41 @@ function pairsNotFromReference(c: GridCase): string[] {
     });
 }
 
+function errorParts(c: GridCase, plan: Plan, k: number): ErrorParts {
+  const m = plan.virial;
+  const last = c.readings.length - 1;
+  const sig = (x: number) => Number(x.toPrecision(3));
+  const at = (i: number) => {
+    const y = plan.steps[i].compositionAfter;
+    const r = c.readings[i];
+    const cum = c.order.slice(0, i + 1).reduce((a, sp) => a + c.composition[sp], 0);
+    const rho = c.final_density_mol_per_m3 * cum;
+    const pairs: Record<string, number> = {};
+    let pairSum = 0;
+    for (const e of m.entries) {
+      if (e.i === e.j || !(y[e.i] > 0) || !(y[e.j] > 0)) continue;
+      const lib = r.pair_B_cm3_per_mol[`${e.i}|${e.j}`] ?? r.pair_B_cm3_per_mol[`${e.j}|${e.i}`];
+      const share = 2 * y[e.i] * y[e.j] * (e.valueM3PerMol * 1e6 - lib) * 1e-6 * rho;
+      pairs[`${e.i}-${e.j}`] = share;
+      pairSum += share;
+    }
+    const dB = (bMix(m, y) * 1e6 - r.B_mix_cm3_per_mol) * 1e-6 * rho;
+    const dC = (cMix(m, y) * 1e12 - r.C_mix_cm6_per_mol2) * 1e-12 * rho * rho;
+    return { pairs, rest: dB - pairSum, C: dC, beyond: -r.Z_beyond_C };
+  };
+  const s = at(k);
+  const f = at(last);
+  const B_pairs: Record<string, number> = {};
+  for (const key of new Set([...Object.keys(s.pairs), ...Object.keys(f.pairs)]))
+    B_pairs[key] = sig((s.pairs[key] ?? 0) - (f.pairs[key] ?? 0));
+  return {
+    B_pairs,
+    B_rest: sig(s.rest - f.rest),
+    C: sig(s.C - f.C),
+    beyond_C: sig(s.beyond - f.beyond),
+  };
+}
+
 export function accuracyRows(cases: readonly GridCase[]): RecordRow[] {
   return cases.map((c) => {
     const plan = planFill({
@@ -128,12 +194,16 @@ export function accuracyRows(cases: readonly GridCase[]): RecordRow[] {
     let model = 0;
     let ideal = 0;
     let uAtWorst = 0;
+    let worst = 0;
     let overU = 0;
     const u = targetUncertainties(plan);
     plan.steps.forEach((s, i) => {
       const ref = c.readings[i].pressure_Pa;
       const err = Math.abs(s.targetPa / ref - 1);
-      if (err >= model) uAtWorst = u[i];
+      if (err >= model) {
+        uAtWorst = u[i];
+        worst = i;
+      }
       model = Math.max(model, err);
       ideal = Math.max(ideal, Math.abs(s.idealTargetPa / ref - 1));
       // the final target is the final pressure itself (u = 0, error 0 up to rounding): judged only where u > 0
@@ -152,6 +222,7 @@ export function accuracyRows(cases: readonly GridCase[]): RecordRow[] {
       predicted_u: round(uAtWorst),
       error_over_u: Number(overU.toPrecision(3)),
       reference_virial_consistent: referenceVirialConsistent(c),
+      error_parts: errorParts(c, plan, worst),
     };
   });
 }

@@ -110,7 +110,10 @@ export function fitRule(pairs: readonly CalPair[]): RuleFit {
   };
 }
 
-/** the worst ratio over temperature of |rule - reference| to sqrt(u_rule^2 + u_ref^2) with u_rule = max(abs, rel |B|) */
+/**
+ * the worst ratio over temperature of |rule - reference| to sqrt(u_rule^2 + u_ref^2),
+ * with u_rule = max(abs, rel |B|)
+ */
 function zOf(q: CalPair, fit: RuleFit, rel: number, absCm3: number): number {
   let z = 0;
   for (const p of q.points) {
@@ -124,7 +127,10 @@ function zOf(q: CalPair, fit: RuleFit, rel: number, absCm3: number): number {
   return z;
 }
 
-/** in-sample share of the pairs the calibrated u must put within 2u: set above 95 % so that leave-one-out reaches 95 % */
+/**
+ * in-sample share of the pairs the calibrated u must put within 2u: set above 95 % so that
+ * leave-one-out reaches 95 %
+ */
 export const CAL_QUANTILE = 0.975;
 /** the least relative u (with the given absolute floor) that puts at least CAL_QUANTILE of the pairs within 2u */
 function calibrateRel(pairs: readonly CalPair[], fit: RuleFit, absCm3: number): number {

@@ -36,3 +36,10 @@ def density(x, P, T):
     st = _state(x)
     st.update(CP.PT_INPUTS, P, T)
     return st.rhomolar()
+
+
+def zero_density(x, T):
+    """zero-density B_mix, cm3/mol, and C_mix, cm6/mol2, of composition x at T, K"""
+    st = _state(x)
+    st.update(CP.DmolarT_INPUTS, 1e-6, T)
+    return st.Bvirial() * 1e6, st.Cvirial() * 1e12

@@ -7,7 +7,7 @@ Run:  .venv-ref/bin/python scripts/reference/gen_accuracy_grid.py
 import json
 import CoolProp
 import CoolProp.CoolProp as CP
-from coolprop_mix import FLUIDS, density as density_at, pressure as state
+from coolprop_mix import FLUIDS, density as density_at, pressure as state, zero_density
 
 BAR = 1e5
 DESIGNS = [
@@ -37,6 +37,26 @@ def psat(fluid, T):
     except Exception:
         return float("inf")
 
+
+def diagnosis(y, rho, p, T):
+    """what the reading is made of in the library: its zero-density B_mix and C_mix at the composition, the
+    rest of Z beyond them at the reading's density, and for each pair the B_ab implied by the binary model at
+    the pair's own share (x_a / (x_a + x_b)); used by scripts/accuracy-lib.ts to split a target's error"""
+    b, c = zero_density(y, T)
+    z = p / (rho * 8.314462618 * T)
+    pairs = {}
+    keys = list(y)
+    for i, a in enumerate(keys):
+        for bk in keys[i + 1:]:
+            xa = y[a] / (y[a] + y[bk])
+            bm, _ = zero_density({a: xa, bk: 1 - xa}, T)
+            ba, _ = zero_density({a: 1.0}, T)
+            bb, _ = zero_density({bk: 1.0}, T)
+            pairs[f"{a}|{bk}"] = round((bm - xa * xa * ba - (1 - xa) ** 2 * bb) / (2 * xa * (1 - xa)), 4)
+    return {"B_mix_cm3_per_mol": round(b, 4), "C_mix_cm6_per_mol2": round(c, 2),
+            "Z_beyond_C": float(f"{z - 1 - b * 1e-6 * rho - c * 1e-12 * rho * rho:.4g}"), "pair_B_cm3_per_mol": pairs}
+
+
 cases = []
 for did, x, order, bath in DESIGNS:
     for T in TEMPS:
@@ -52,7 +72,8 @@ for did, x, order, bath in DESIGNS:
             for sp in order:
                 cum[sp] = x[sp]
                 rho = rho_f * sum(cum.values())
-                readings.append({"species": sp, "pressure_Pa": state(dict(cum), rho, T)})
+                p = state(dict(cum), rho, T)
+                readings.append({"species": sp, "pressure_Pa": p, **diagnosis(dict(cum), rho, p, T)})
             cases.append({"id": f"{did}-{int(T)}K-{int(P / BAR)}bar", "design": did, "bath": bath, "composition": x,
                           "order": order, "temperature_K": T, "final_pressure_Pa": P, "final_density_mol_per_m3": rho_f,
                           "readings": readings})

@@ -130,8 +130,9 @@ export function referenceCrossC(
 
 /*
  * Pairs the library fits to mixture data but whose zero-density B_mix is not quadratic in
- * composition: the table gives, per temperature, the composition average of the implied B_ab
- * and a standard uncertainty covering their spread, max(half the range, standard deviation).
+ * composition: the table gives, per temperature, the composition average of the implied B_ab (the
+ * constant B_ab that fits the model's B_mix over composition best, least squares: weights (2x(1-x))^2 on
+ * the implied values) and a standard uncertainty covering their spread, max(half the range, standard deviation).
  */
 interface AveragedEntry {
   readonly a: string;
@@ -162,7 +163,8 @@ export interface AveragedCrossB extends ReferenceCrossB {
 /**
  * Composition-averaged cross B_ab of a fitted pair whose implied B_ab varies with composition,
  * with its spread as standard uncertainty; undefined when the pair is not in that part of the
- * table or T lies outside 230-480 K. Example: CO2-C2H6 at 300 K -> -123.2 cm3/mol, u 0.5 cm3/mol (the model floors it at 3 %).
+ * table or T lies outside 230-480 K. Example: CO2-C2H6 at 300 K -> -123.0 cm3/mol, u 0.5 cm3/mol
+ * (the model floors it at 3 %).
  */
 export function averagedCrossB(a: string, b: string, temperatureK: number): AveragedCrossB | undefined {
   const e = averagedEntries[`${a}|${b}`] ?? averagedEntries[`${b}|${a}`];

@@ -148,7 +148,7 @@ export function crossRuleLowTFactor(TcijK: number, temperatureK: number): number
  * addition, as the published k_ij of CO2 with hydrocarbons are larger than those of like pairs
  * (Tsonopoulos 1974 - from memory). Not for quantum gases (He, H2, Ne) or hydrogen-bonding species.
  */
-export const CROSS_RULE_KIJ = { general: 0.0099, co2: 0.0548 } as const;
+export const CROSS_RULE_KIJ = { general: 0.0099, co2: 0.0575 } as const;
 
 /** whether the fitted rule and its calibrated uncertainty apply to a pair (classical, not hydrogen-bonding) */
 export function crossRuleCalibrated(a: SpeciesRecord, b: SpeciesRecord): boolean {

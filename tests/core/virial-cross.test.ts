@@ -20,7 +20,8 @@ interface Pair {
 const pairs = table.pairs as Record<string, Pair>;
 
 describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 HEOS, zero density)', () => {
-  it('binary B_mix at 255, 298.15 and 345 K, x = 0.1/0.3/0.7/0.9, within 2x(1-x) of the pair spread the table records + 0.02 cm3/mol', () => {
+  // 255, 298.15 and 345 K, x = 0.1/0.3/0.7/0.9
+  it('binary B_mix within 2x(1-x) of the pair spread the table records + 0.02 cm3/mol', () => {
     for (const p of check.points) {
       if (!pairs[`${p.a}|${p.b}`]) continue; // a composition-averaged pair: next test
       const m = virialModel([p.a, p.b], p.temperature_K);
@@ -34,7 +35,8 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     }
   });
 
-  it('composition-averaged pairs, where the model uses them: binary B_mix within 2x(1-x) (2 u + the spread the table records at T) of the library', () => {
+  // composition-averaged pairs, where the model uses them
+  it('averaged pairs: binary B_mix within 2x(1-x) (2 u + the spread at T) of the library', () => {
     const averaged = table.averaged as Record<string, { B_spread_max: number }>;
     let n = 0;
     for (const p of check.points) {
@@ -54,7 +56,8 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     expect(n).toBeGreaterThan(100);
   });
 
-  it('binary C_mix of the pairs with tabulated C (virial-consistent or averaged) within 50 cm6/mol2 or 3 % (the table acceptance) + 0.5 % for interpolation', () => {
+  // pairs with tabulated C, virial-consistent or averaged; tolerance: the table acceptance + 0.5 % for interpolation
+  it('binary C_mix within 50 cm6/mol2 or 3 % + 0.5 % of the library', () => {
     const averagedC = table.averaged as Record<string, { C_aab?: number[] }>;
     let n = 0;
     for (const p of check.points) {
@@ -70,10 +73,14 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     }
     expect(n).toBeGreaterThan(200);
   });
+});
 
-  it('properties.md 3.2 mixture-model values at 298.15 K: the tabulated pairs within 0.5 cm3/mol, the others left to the combining rule', () => {
+describe('cross coefficients: published comparisons, symmetry and the pair selection', () => {
+  // the others are left to the combining rule
+  it('properties.md 3.2 mixture-model values at 298.15 K: the tabulated pairs within 0.5 cm3/mol', () => {
     // N2-O2 -10.7, CH4-O2 -21.3, CH4-Ar -24.6, CH4-N2 -18.1, O2-Ar -15.0 are tabulated; CO2-Ar, H2-Ar, H2-O2 are not
-    // (CO2-Ar: the model's implied B_ab spreads 5.5 cm3/mol over composition; H2-Ar, H2-O2: unfitted default parameters)
+    // (CO2-Ar: the model's implied B_ab spreads 5.5 cm3/mol over composition; H2-Ar, H2-O2: unfitted default
+    // parameters)
     const tabulated = new Set(['N2-O2', 'CH4-O2', 'CH4-Ar', 'CH4-N2', 'O2-Ar']);
     for (const p of cross.pairs) {
       const m = virialModel([p.i, p.j], 298.15);
@@ -89,7 +96,8 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     }
   });
 
-  it('the worked vector inputs of properties.md 1.2 (CH4-O2 -21.3, CH4-Ar -24.6, O2-Ar -15.0 cm3/mol at 298.15 K) within 0.5', () => {
+  // CH4-O2 -21.3, CH4-Ar -24.6, O2-Ar -15.0 cm3/mol at 298.15 K
+  it('the worked vector inputs of properties.md 1.2 within 0.5 cm3/mol', () => {
     const want: [string, string, number][] = [
       ['CH4', 'O2', -21.3],
       ['CH4', 'Ar', -24.6],
@@ -108,7 +116,8 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     expect(ab.aab).not.toBe(ab.abb);
   });
 
-  it('no He pair qualifies as virial-consistent; only He-N2 is used, as a composition average (20.9 cm3/mol, spread below the rule u); He-Ar spreads > 20 cm3/mol', () => {
+  // He-N2 as a composition average: 20.9 cm3/mol, its spread below the rule's u; He-Ar spreads > 20 cm3/mol
+  it('no He pair qualifies as virial-consistent; only He-N2 is used, as a composition average', () => {
     for (const other of ['Ar', 'N2', 'O2', 'CH4', 'H2', 'CO2']) {
       expect(referenceCrossB('He', other, 300), other).toBeUndefined();
       const m = virialModel(['He', other], 300);
@@ -124,14 +133,15 @@ describe('cross coefficients from the reference mixture models (CoolProp 8.0.0 H
     expect(heAr.least_Z_error_10bar!).toBeGreaterThan(1e-3);
   });
 
-  it('outside the 230-480 K table the pairs fall back to the combining rule, and C_mix reduces to the cube-root rule', () => {
+  it('outside the 230-480 K table: the combining rule, and C_mix reduces to the cube-root rule', () => {
     expect(referenceCrossB('Ar', 'N2', 500)).toBeUndefined();
     const m = virialModel(['Ar', 'N2'], 500);
     expect(m.entries.find((q) => q.i !== q.j)!.method).toBe('combining-rule');
     expect(m.cPairs.length).toBe(0);
   });
 
-  it('a ternary C_mix is the cube-root rule plus the pair departures (algebraic identity of the two forms)', () => {
+  // algebraic identity of the two forms
+  it('a ternary C_mix is the cube-root rule plus the pair departures', () => {
     const m = virialModel(['CH4', 'O2', 'Ar'], 300);
     const y = [0.05, 0.1, 0.85];
     const c = m.C.map(Math.cbrt);

@@ -22,7 +22,8 @@ function tsonopoulos(key: string, t: number): number {
 
 describe('pure B(T) used by the model vs the reference-EOS table (properties.md section 4, CoolProp 8.0)', () => {
   for (const [key, row] of Object.entries(table.species as Record<string, { B: number[] }>)) {
-    it(`${key}: 250-400 K within 0.05 cm3/mol (light), 0.1 % (others), 0.03 % + rounding for rows given to whole units`, () => {
+    // 0.03 % + rounding for rows given to whole units
+    it(`${key}: 250-400 K within 0.05 cm3/mol (light), 0.1 % (others)`, () => {
       T.forEach((t, i) => {
         const b = virialModel([key], t).B[0][0] * cm3;
         // rows printed to whole cm3/mol (H2O, alcohols, heavy vapours) carry +-0.5 of rounding
@@ -37,7 +38,8 @@ describe('pure B(T) used by the model vs the reference-EOS table (properties.md 
     });
   }
 
-  it('interpolation between grid nodes agrees with the published cubic fits in 100/T within 0.05 cm3/mol (255-395 K)', () => {
+  // 255-395 K
+  it('interpolation between grid nodes agrees with the published cubic fits in 100/T within 0.05 cm3/mol', () => {
     for (const [key, c] of Object.entries(table.fits.coefficients as Record<string, number[]>)) {
       for (let t = 255; t <= 395; t += 7) {
         const x = 100 / t;
@@ -49,7 +51,8 @@ describe('pure B(T) used by the model vs the reference-EOS table (properties.md 
 });
 
 describe('Tsonopoulos (1974) correlation', () => {
-  it('reproduces the non-polar values computed in properties.md at 298.15 K within 0.3 cm3/mol or 0.3 % (n-heptane 0.6 %)', () => {
+  // n-heptane 0.6 %
+  it('reproduces the non-polar values of properties.md at 298.15 K within 0.3 cm3/mol or 0.3 %', () => {
     for (const [key, row] of Object.entries(table.species as Record<string, { tsonopoulos_298?: number }>)) {
       if (row.tsonopoulos_298 === undefined || ['CH3OCH3', 'H2O', 'CH3OH', 'Ne'].includes(key)) continue;
       const b = tsonopoulos(key, 298.15);
@@ -62,7 +65,8 @@ describe('Tsonopoulos (1974) correlation', () => {
     }
   });
 
-  it('polar terms: water -1237, methanol -1915, NH3 -275, DME -463 cm3/mol at 298.15 K (properties.md 3.1) within 1 %', () => {
+  // properties.md 3.1
+  it('polar terms: water -1237, methanol -1915, NH3 -275, DME -463 cm3/mol at 298.15 K within 1 %', () => {
     const ref: Record<string, number> = { H2O: -1237, CH3OH: -1915, NH3: -275, CH3OCH3: -463 };
     for (const [k, v] of Object.entries(ref)) {
       const b = tsonopoulos(k, 298.15);
@@ -70,7 +74,8 @@ describe('Tsonopoulos (1974) correlation', () => {
     }
   });
 
-  it('against the reference EOS (properties.md section 4) 250-400 K: light gases within 1 cm3/mol, CO2, C2H6, C3H8 within 3 % (C3H8 at 250 K: 3.5 %)', () => {
+  // properties.md section 4, 250-400 K; C3H8 at 250 K: 3.5 %
+  it('against the reference EOS: light gases within 1 cm3/mol, CO2, C2H6, C3H8 within 3 %', () => {
     for (const key of ['Ar', 'N2', 'O2', 'CH4']) {
       T.forEach((t, i) =>
         expect(Math.abs(tsonopoulos(key, t) - table.species[key].B[i]), `${key} ${t} K`).toBeLessThanOrEqual(
@@ -89,7 +94,8 @@ describe('Tsonopoulos (1974) correlation', () => {
     }
   });
 
-  it('quantum gases with effective constants give He +17.2, H2 +17.2, Ne +12.5 cm3/mol at 298 K (properties.md 3.3) within 0.3', () => {
+  // properties.md 3.3
+  it('quantum gases, effective constants: He +17.2, H2 +17.2, Ne +12.5 cm3/mol at 298 K within 0.3', () => {
     for (const k of ['He', 'H2', 'Ne']) {
       const b = tsonopoulos(k, 298);
       expect(Math.abs(b - cross.quantum_effective_298[k].effective), `${k}: ${b}`).toBeLessThan(0.3);
@@ -106,9 +112,11 @@ describe('Tsonopoulos (1974) correlation', () => {
 });
 
 describe('cross coefficients (Prausnitz combining rules)', () => {
-  it('reproduce the Prausnitz + Tsonopoulos values of properties.md 3.2 at 298.15 K within 0.4 cm3/mol (non-quantum pairs)', () => {
+  // non-quantum pairs
+  it('reproduce the Prausnitz + Tsonopoulos values of properties.md 3.2 at 298.15 K within 0.4 cm3/mol', () => {
     // the H2 pairs there used the true critical constants of H2 (we get 11.67 and 11.54 that way); the model uses the
-    // Gunn-Chueh-Prausnitz effective constants inside cross terms (+10.0, +9.9), checked against the mixture model below
+    // Gunn-Chueh-Prausnitz effective constants inside cross terms (+10.0, +9.9), checked against the mixture
+    // model below
     for (const p of cross.pairs.filter((q: { i: string }) => q.i !== 'H2')) {
       const ci = correlationConstants(getSpecies(p.i), 298.15);
       const cj = correlationConstants(getSpecies(p.j), 298.15);
@@ -117,7 +125,8 @@ describe('cross coefficients (Prausnitz combining rules)', () => {
     }
   });
 
-  it('stay within 7 cm3/mol of the CoolProp mixture-model cross values of properties.md 3.2 (the known spread of combining rules)', () => {
+  // the known spread of combining rules
+  it('stay within 7 cm3/mol of the CoolProp mixture-model cross values of properties.md 3.2', () => {
     for (const p of cross.pairs) {
       const ci = correlationConstants(getSpecies(p.i), 298.15);
       const cj = correlationConstants(getSpecies(p.j), 298.15);
