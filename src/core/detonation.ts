@@ -9,14 +9,13 @@ import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { equilibriumWorkspace, rootOfIncreasing } from './equilibrium.js';
 import { fail } from './problems.js';
+import { DETONATION_LIMITS, type DetonationLimits } from './data/detonation-data.js';
 import {
   DETONABLE_INERT_BELOW,
   DETONABLE_OXYGEN_SHARE_FROM,
-  DETONATION_LIMITS,
   REFLECTED_OVER_CJ,
   UNDILUTED_INERT_BELOW,
-  type DetonationLimits,
-} from './data/detonation-data.js';
+} from './thresholds.js';
 
 /** O2 share of air on the N2-equivalent diagram */
 const AIR_O2 = 0.21;

@@ -172,3 +172,6 @@ export type { Contamination, ContaminationInput, MixingEstimate } from './readin
 export { LENNARD_JONES, FULLER_VOLUMES } from './data/transport-data.js';
 export { speciesProperties } from './properties.js';
 export type { PropertyId, PropertyRow } from './properties.js';
+// defaults and thresholds of the safety review, each with its basis
+export { THRESHOLDS } from './thresholds.js';
+export type { Threshold, ThresholdBasis, ThresholdName } from './thresholds.js';

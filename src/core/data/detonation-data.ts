@@ -32,16 +32,10 @@ const rows: DetonationLimits[] = [
 
 export const DETONATION_LIMITS: readonly DetonationLimits[] = rows;
 
-/** the conservative rule where no limits are published: a flammable state with less N2-equivalent inert than this can detonate */
-export const DETONABLE_INERT_BELOW = 0.5;
-/**
- * ... or whose oxidizer is about as rich as air or richer: O2 / (O2 + N2-equivalent inert)
- * at least this (air is 0.21). Stoichiometric fuel-air mixtures of the alkanes detonate
- * in large enough geometries (common practice), so a flammable state with air's oxygen
- * share or more is not called non-detonable without published limits (our conservative rule).
- */
-export const DETONABLE_OXYGEN_SHARE_FROM = 0.2;
-/** a fuel/oxidizer state with less N2-equivalent inert than this counts as undiluted fuel/O2 (our threshold) */
-export const UNDILUTED_INERT_BELOW = 0.1;
-/** reflected detonation pressure over P_CJ: about 2.5 (common practice; properties.md 7.6) */
-export const REFLECTED_OVER_CJ = 2.5;
+// the detonability rule's thresholds and the reflected-pressure ratio live with the other thresholds
+export {
+  DETONABLE_INERT_BELOW,
+  DETONABLE_OXYGEN_SHARE_FROM,
+  REFLECTED_OVER_CJ,
+  UNDILUTED_INERT_BELOW,
+} from '../thresholds.js';

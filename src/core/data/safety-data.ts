@@ -189,19 +189,5 @@ export const INERT_K: ReadonlyMap<string, SourcedNumber> = new Map(
   ).map(([k, v]) => [k, { value: v, source: 'iso-10156-2017' }]),
 );
 
-/** the smallest listed K: used, with a note, for an inert that has none (a smaller K widens the flammable zone) */
-export const INERT_K_FALLBACK = 0.5;
-
-/** NFPA 69 operating margins used for "near the limit" */
-export const MARGINS = {
-  /** fraction of the LFL (instrumented practice) */
-  lflFraction: 0.6,
-  /** vol-fraction below the LOC when LOC >= 5 % */
-  locOffset: 0.02,
-  /** fraction of the LOC when LOC < 5 % */
-  locFractionLow: 0.6,
-  source: 'nfpa-69-margins-memory',
-} as const;
-
-/** acetylene: about 15 psig (1 bar gauge) outside the cylinder, Pa absolute */
-export const ACETYLENE_LIMIT_PA = 101325 + 15 * ((0.45359237 * 9.80665) / (0.0254 * 0.0254));
+// the inert fallback, the NFPA 69 margins and the acetylene limit live with the other thresholds
+export { ACETYLENE_LIMIT_PA, INERT_K_FALLBACK, MARGINS } from '../thresholds.js';

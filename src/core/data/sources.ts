@@ -293,6 +293,13 @@ const list: readonly Source[] = [
     quality: 'from-memory',
   },
   {
+    key: 'osha-1910-146-memory',
+    citation:
+      'US OSHA 29 CFR 1910.146 (permit-required confined spaces), definition of an ' +
+      'oxygen-enriched atmosphere: more than 23.5 % oxygen by volume (recalled)',
+    quality: 'from-memory',
+  },
+  {
     key: 'acetylene-practice',
     citation:
       'Common practice for acetylene: do not use it at more than 15 psig (about ' +
