@@ -5,7 +5,7 @@
 export { R, ATM_PA, TORR_PA } from './constants.js';
 export { SPECIES } from './data/species.js';
 export type { SpeciesRecord, PolarClass } from './data/species.js';
-export { SOURCES, SOURCE_PRIORITY, getSource } from './data/sources.js';
+export { SOURCES, getSource } from './data/sources.js';
 export type { Source, SourceQuality } from './data/sources.js';
 export { ELEMENTS } from './data/elements.js';
 export type { ElementRecord } from './data/elements.js';
