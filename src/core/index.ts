@@ -175,3 +175,15 @@ export type { PropertyId, PropertyRow } from './properties.js';
 // defaults and thresholds of the safety review, each with its basis
 export { THRESHOLDS } from './thresholds.js';
 export type { Threshold, ThresholdBasis, ThresholdName } from './thresholds.js';
+// data coverage: the tables each species needs and the explicit "not known" entries
+export {
+  coverageGaps,
+  FUEL_TABLES,
+  NOT_KNOWN,
+  notKnown,
+  onFile,
+  SPECIES_TABLES,
+  TABLE_FILE,
+} from './data/coverage.js';
+export type { DataTable, NotKnown } from './data/coverage.js';
+export { transportGaps } from './diffusion.js';

@@ -2,6 +2,7 @@
 import type { Contamination, MixingEstimate } from '../core/index.js';
 import { fixedSig } from './format.js';
 import { TORR_PA } from '../core/index.js';
+import { describeFinding } from '../core/index.js';
 
 export interface ReadyReport {
   readonly id: string;
@@ -45,6 +46,8 @@ export function readyToText(r: ReadyReport): string {
         `0.1 % residual non-uniformity`,
     );
   }
+  // transport data not on file: said, never dropped from the slowest pair in silence
+  for (const f of m.findings) out.push(`  ${f.severity}: ${describeFinding(f, (pa) => `${pa} Pa`)}`);
   if (m.stirred) {
     out.push(
       '  the tank is stirred: its mixing is set by the stirrer flow and takes minutes ' +
@@ -101,6 +104,7 @@ export function readyToJson(r: ReadyReport, version: string): object {
       D_chapman_enskog_m2_per_s: r.mixing.pair?.chapmanEnskogM2s ?? null,
       diffusion_to_1pct_s: r.mixing.to1PercentS ?? null,
       diffusion_to_0_1pct_s: r.mixing.to01PercentS ?? null,
+      findings: r.mixing.findings.map((f) => ({ ...f, message: describeFinding(f, (pa) => `${pa} Pa`) })),
     },
     contamination: {
       base_vacuum_Pa: r.baseVacuumPa,

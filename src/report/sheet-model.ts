@@ -161,7 +161,10 @@ function mixingLine(m?: MixingEstimate): string {
     return 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
   const est =
     `diffusion alone: about ${duration(m.to1PercentS)} to 1 %, ${duration(m.to01PercentS)} ` +
-    `to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b})`;
+    `to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b}` +
+    (m.findings.some((f) => f.severity === 'warning')
+      ? '; pairs without diffusion data left out: may take longer)'
+      : ')');
   return m.stirred
     ? `Mixing: stirrer on ________ min (${est} without it)`
     : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;
