@@ -47,7 +47,10 @@ export function neufeldOmegaD(tStar: number): number {
   );
 }
 
-/** Chapman-Enskog D_AB, m2/s; undefined without Lennard-Jones data. Example: O2-N2 at 298.15 K, 1 atm -> 2.04e-5 m2/s. */
+/**
+ * Chapman-Enskog D_AB, m2/s; undefined without Lennard-Jones data.
+ * Example: O2-N2 at 298.15 K, 1 atm -> 2.04e-5 m2/s.
+ */
 export function chapmanEnskogD(
   a: string,
   b: string,

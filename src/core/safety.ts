@@ -76,7 +76,10 @@ function fuelsIn(y: Fractions): string[] {
     .map(([k]) => k);
 }
 
-/** the numbers of a flammability finding; with the composition and temperature it adds the equilibrium flame temperature */
+/**
+ * the numbers of a flammability finding; with the composition and temperature it adds the
+ * equilibrium flame temperature
+ */
 export function flammabilityNumbers(
   a: FlammabilityAssessment,
   pressurePa: number,
