@@ -556,7 +556,7 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
             `pairs ${f.pairsLeftOut.join(', ')} are left out of the slowest pair, so the ` +
             `mixing time may be too short - stir the tank or wait well beyond it`
         : `no ${f.missing.join(', ')} data are on file for ${f.species}: its diffusion ` +
-            `coefficients rest on ${f.missing.includes('lennard-jones') ? 'the Fuller correlation' : 'Chapman-Enskog'} ` +
+            `coefficients rest on ${f.missing.includes('lennard-jones') ? 'Fuller' : 'Chapman-Enskog'} ` +
             `alone, not the smaller of the two methods`;
   }
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   coverageGaps,
+  describeFinding,
   FULLER_VOLUMES,
   FUEL_SAFETY,
   FUEL_TABLES,
@@ -123,6 +124,7 @@ describe('a "not known" is reported, never dropped in silence', () => {
         pairsLeftOut: [],
       },
     ]);
+    expect(describeFinding(m.findings[0], String)).toContain('coefficients rest on Fuller alone');
   });
 
   it('review: a fuel present without an autoignition temperature is a warning, not a skipped compression check', () => {
