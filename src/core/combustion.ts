@@ -113,7 +113,10 @@ export function closedVesselCombustion(
   return { temperatureK: t, pressureRatio: (np * t) / (nr * initialK) };
 }
 
-/** T0 (P2/P1)^((gamma-1)/gamma): the end temperature of adiabatic compression. Example: gamma 1.4, 293 K, x10 -> 565.7 K. */
+/**
+ * T0 (P2/P1)^((gamma-1)/gamma): the end temperature of adiabatic compression.
+ * Example: gamma 1.4, 293 K, x10 -> 565.7 K.
+ */
 export function adiabaticCompressionK(initialK: number, pressureRatio: number, gamma: number): number {
   return initialK * pressureRatio ** ((gamma - 1) / gamma);
 }

@@ -24,16 +24,21 @@ import { oxygenDemand } from './formula.js';
 import type { FillEvent, SafetyContext } from './safety.js';
 import type { Finding } from './findings.js';
 
-/** a fuel within this much of its autoignition temperature is a warning */
-export const COMPRESSION_WARNING_MARGIN_K = 100;
-/** a fuel counts when it is at least this share of all fuel in the tank ... */
-export const FUEL_SHARE_THAT_MATTERS = 0.01;
-/** ... and at least this mole fraction of the tank */
-export const FUEL_FRACTION_THAT_MATTERS = 1e-4;
-/** resident gas richer in O2 (O2-equivalent) than this is oxygen-enriched */
-const OXYGEN_RICH_ABOVE = 0.235;
-/** end temperature of compressed oxygen-rich gas that the review flags: 200 degC (our threshold) */
-export const OXYGEN_COMPRESSION_LIMIT_K = 473.15;
+import {
+  COMPRESSION_WARNING_MARGIN_K,
+  FUEL_FRACTION_THAT_MATTERS,
+  FUEL_SHARE_THAT_MATTERS,
+  OXYGEN_COMPRESSION_LIMIT_K,
+  OXYGEN_ENRICHED_ABOVE as OXYGEN_RICH_ABOVE,
+} from './thresholds.js';
+
+// the thresholds of this check live in thresholds.ts (each with its basis)
+export {
+  COMPRESSION_WARNING_MARGIN_K,
+  FUEL_FRACTION_THAT_MATTERS,
+  FUEL_SHARE_THAT_MATTERS,
+  OXYGEN_COMPRESSION_LIMIT_K,
+};
 
 function oxygenEquivalent(y: Fractions): number {
   let o = 0;

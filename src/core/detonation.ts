@@ -9,14 +9,13 @@ import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { equilibriumWorkspace, rootOfIncreasing } from './equilibrium.js';
 import { fail } from './problems.js';
+import { DETONATION_LIMITS, type DetonationLimits } from './data/detonation-data.js';
 import {
   DETONABLE_INERT_BELOW,
   DETONABLE_OXYGEN_SHARE_FROM,
-  DETONATION_LIMITS,
   REFLECTED_OVER_CJ,
   UNDILUTED_INERT_BELOW,
-  type DetonationLimits,
-} from './data/detonation-data.js';
+} from './thresholds.js';
 
 /** O2 share of air on the N2-equivalent diagram */
 const AIR_O2 = 0.21;
@@ -182,8 +181,10 @@ function phiOf(rec: DetonationLimits, x: number): number {
  * air limits are kept (dilution only narrows detonation limits: conservative). A fuel
  * with limits in O2 only is judged by them and, inside them, by the inert rule.
  * Elsewhere the conservative rule: detonable when the N2-equivalent inert share is below
- * 50 %, or the oxidizer is about as rich in O2 as air or richer (O2 share 0.20 or more:
- * stoichiometric alkane-air mixtures detonate in large geometries, common practice). Limits are those near 1 atm; they widen at higher pressure and in larger vessels.
+ * 50 %, or the oxidizer is about as rich in O2 as air or richer (O2 share 0.20 or more;
+ * both thresholds in thresholds.ts;
+ * stoichiometric alkane-air mixtures detonate in large geometries, common practice).
+ * Limits are those near 1 atm; they widen at higher pressure and in larger vessels.
  * Example: stoichiometric H2-air (29.6 % H2) is detonable by published limits
  * (18.3-59 %); 70 % H2 in air is not.
  */

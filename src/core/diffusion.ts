@@ -14,6 +14,8 @@ import { molarMassKgPerMol } from './formula.js';
 
 const CM2_TO_M2 = 1e-4;
 const PA_PER_BAR = 1e5;
+/** species below this mole fraction do not count for the slowest pair */
+export const SLOWEST_PAIR_MIN_FRACTION = 1e-3;
 
 function mAB(a: string, b: string): number {
   const ma = molarMassKgPerMol(getSpecies(a).elements) * 1000; // kg/mol -> g/mol, as the correlations are written
@@ -45,7 +47,10 @@ export function neufeldOmegaD(tStar: number): number {
   );
 }
 
-/** Chapman-Enskog D_AB, m2/s; undefined without Lennard-Jones data. Example: O2-N2 at 298.15 K, 1 atm -> 2.04e-5 m2/s. */
+/**
+ * Chapman-Enskog D_AB, m2/s; undefined without Lennard-Jones data.
+ * Example: O2-N2 at 298.15 K, 1 atm -> 2.04e-5 m2/s.
+ */
 export function chapmanEnskogD(
   a: string,
   b: string,
@@ -76,13 +81,15 @@ export interface PairDiffusion {
 
 /**
  * The slowest binary pair among the species that make up at least `minFraction` of the
- * mixture: the one that governs how long diffusion takes to homogenise the tank.
+ * mixture: the one that governs how long diffusion takes to homogenise the tank. A pair
+ * with neither method's data is left out here; `transportGaps` names it (readiness.ts
+ * reports it as a finding).
  */
 export function slowestPair(
   y: Readonly<Record<string, number>>,
   temperatureK: number,
   pressurePa: number,
-  minFraction = 1e-3,
+  minFraction = SLOWEST_PAIR_MIN_FRACTION,
 ): PairDiffusion | undefined {
   const ks = Object.keys(y).filter((k) => y[k] >= minFraction);
   let worst: PairDiffusion | undefined;
@@ -98,6 +105,24 @@ export function slowestPair(
     }
   }
   return worst;
+}
+
+/** species of at least `minFraction` without Lennard-Jones parameters or a diffusion volume, and why */
+export function transportGaps(
+  y: Readonly<Record<string, number>>,
+  minFraction = SLOWEST_PAIR_MIN_FRACTION,
+): { species: string; lennardJones: boolean; fullerVolume: boolean }[] {
+  return Object.keys(y)
+    .filter((k) => y[k] >= minFraction)
+    .map((k) => {
+      const key = getSpecies(k).key;
+      return {
+        species: k,
+        lennardJones: LENNARD_JONES.has(key),
+        fullerVolume: fullerVolume(key) !== undefined,
+      };
+    })
+    .filter((g) => !g.lennardJones || !g.fullerVolume);
 }
 
 /**

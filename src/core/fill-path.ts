@@ -47,6 +47,7 @@ import {
 import { getSpecies } from './lookup.js';
 import { FUEL_SAFETY } from './data/safety-data.js';
 import { oxygenDemand } from './formula.js';
+import { TRACE_FUEL_OF_LFL, TRACE_OXYGEN } from './thresholds.js';
 import { detonableByRule, flammabilityNumbers, type FillEvent, type SafetyContext } from './safety.js';
 import type { Finding } from './findings.js';
 import { detonationFinding } from './explosion-review.js';
@@ -117,15 +118,14 @@ function amounts(y: Fractions): { fuel: number; oxygen: number; fuels: string[] 
   return { fuel, oxygen, fuels };
 }
 
-/** below this O2-equivalent fraction no fuel heats the gas by more than about 30 K (about 570 kJ per mol O2 at most, over cp of 20.8 J/mol K) */
-const TRACE_OXYGEN = 1e-3;
-/**
- * below this share of the lowest LFL no state is flammable or near the limit: the heat
+/*
+ * Traces (thresholds.ts): below TRACE_OXYGEN O2-equivalent no fuel heats the gas by more
+ * than about 30 K (about 570 kJ per mol O2 at most, over cp of 20.8 J/mol K). Below
+ * TRACE_FUEL_OF_LFL of the lowest LFL no state is flammable or near the limit: the heat
  * released scales with fuel / LFL (Burgess-Wheeler: LFL x heat of combustion about
  * constant), so the rise is under 0.2 x 1.4 (monatomic bath) of the limit rise, and on
- * the N2-equivalent diagram the fuel share is at most 2x its mole fraction (K >= 0.5)
+ * the N2-equivalent diagram the fuel share is at most 2x its mole fraction (K >= 0.5).
  */
-const TRACE_FUEL_OF_LFL = 0.2;
 
 /**
  * A segment can only be flammable where fuel and oxidizer both occur along it in more

@@ -140,6 +140,16 @@ export type Finding = Base &
         readonly limitK: number;
       }
     | { readonly code: 'no-safe-order'; readonly reason: string }
+    // raised where a data table has no value for a species present (data coverage)
+    | { readonly code: 'no-autoignition-data'; readonly species: string }
+    | {
+        readonly code: 'transport-data-not-known';
+        readonly species: string;
+        /** the transport data missing: Lennard-Jones parameters, the Fuller diffusion volume, or both */
+        readonly missing: readonly ('lennard-jones' | 'diffusion volume')[];
+        /** the pairs with this species left out of the slowest pair (no diffusion coefficient at all) */
+        readonly pairsLeftOut: readonly string[];
+      }
   );
 
 export interface FlammabilityNumbers {
@@ -533,6 +543,21 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
         `seals in oxygen service can ignite. Fill the oxidizer later, throttle this ` +
         `fill, or use only oxygen-compatible parts`
       );
+    // raised where a data table has no value for a species present (data coverage)
+    case 'no-autoignition-data':
+      return (
+        `no autoignition temperature is on file for ${f.species}; the compression-heating ` +
+        `check cannot judge it - take its autoignition temperature from the supplier's ` +
+        `safety data sheet and throttle every fill that compresses gas holding it`
+      );
+    case 'transport-data-not-known':
+      return f.pairsLeftOut.length
+        ? `no diffusion data (${f.missing.join(', ')}) are on file for ${f.species}: the ` +
+            `pairs ${f.pairsLeftOut.join(', ')} are left out of the slowest pair, so the ` +
+            `mixing time may be too short - stir the tank or wait well beyond it`
+        : `no ${f.missing.join(', ')} data are on file for ${f.species}: its diffusion ` +
+            `coefficients rest on ${f.missing.includes('lennard-jones') ? 'Fuller' : 'Chapman-Enskog'} ` +
+            `alone, not the smaller of the two methods`;
   }
 }
 

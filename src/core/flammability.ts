@@ -16,7 +16,8 @@
  *     the LFL calibration alone. A fuel without a finite UFL (acetylene: 100 %) has no
  *     rich calibration; its rich states are judged by the envelope alone.
  */
-import { FUEL_SAFETY, INERT_K, INERT_K_FALLBACK, MARGINS } from './data/safety-data.js';
+import { FUEL_SAFETY, INERT_K } from './data/safety-data.js';
+import { INERT_K_FALLBACK, MARGINS, NEAR_LIMIT_FLAME_SHARE } from './thresholds.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { flameTemperatureK } from './combustion.js';
@@ -303,8 +304,8 @@ export interface FlammabilityAssessment {
   readonly unknownInerts: readonly string[];
 }
 
-/** flame-temperature margin for "near the limit": 60 % of the limit temperature rise (the same share as the LFL margin) */
-const FLAME_MARGIN = MARGINS.lflFraction;
+/** flame-temperature margin for "near the limit": a share of the limit temperature rise (thresholds.ts) */
+const FLAME_MARGIN = NEAR_LIMIT_FLAME_SHARE;
 
 export function assessFlammability(
   y: Fractions,
@@ -342,7 +343,10 @@ export function assessFlammability(
   const poly = envelopePolygon(limits);
   if (insidePolygon([point.fuel, point.oxygen], poly)) byEnvelope = 'flammable';
   else {
-    const locNear = limits.loc >= 0.05 ? limits.loc - MARGINS.locOffset : limits.loc * MARGINS.locFractionLow;
+    const locNear =
+      limits.loc >= MARGINS.lowLocBelow
+        ? limits.loc - MARGINS.locOffset
+        : limits.loc * MARGINS.locFractionLow;
     if (
       point.fuel >= MARGINS.lflFraction * limits.lfl &&
       point.oxygen >= locNear &&

@@ -5,7 +5,7 @@
 export { R, ATM_PA, TORR_PA } from './constants.js';
 export { SPECIES } from './data/species.js';
 export type { SpeciesRecord, PolarClass } from './data/species.js';
-export { SOURCES, SOURCE_PRIORITY, getSource } from './data/sources.js';
+export { SOURCES, getSource } from './data/sources.js';
 export type { Source, SourceQuality } from './data/sources.js';
 export { ELEMENTS } from './data/elements.js';
 export type { ElementRecord } from './data/elements.js';
@@ -172,3 +172,18 @@ export type { Contamination, ContaminationInput, MixingEstimate } from './readin
 export { LENNARD_JONES, FULLER_VOLUMES } from './data/transport-data.js';
 export { speciesProperties } from './properties.js';
 export type { PropertyId, PropertyRow } from './properties.js';
+// defaults and thresholds of the safety review, each with its basis
+export { THRESHOLDS } from './thresholds.js';
+export type { Threshold, ThresholdBasis, ThresholdName } from './thresholds.js';
+// data coverage: the tables each species needs and the explicit "not known" entries
+export {
+  coverageGaps,
+  FUEL_TABLES,
+  NOT_KNOWN,
+  notKnown,
+  onFile,
+  SPECIES_TABLES,
+  TABLE_FILE,
+} from './data/coverage.js';
+export type { DataTable, NotKnown } from './data/coverage.js';
+export { transportGaps } from './diffusion.js';

@@ -34,7 +34,7 @@ export interface OrderAdvice {
   readonly noSafeOrder: boolean;
 }
 
-const ORDER_RELEVANT = new Set([
+const ORDER_RELEVANT: ReadonlySet<Finding['code']> = new Set<Finding['code']>([
   'flammable-state',
   'near-flammable',
   'detonable-state',

@@ -4,7 +4,14 @@
  */
 import type { Fractions } from './composition.js';
 import { equivalenceRatio } from './composition.js';
-import { diffusionMixingTimeS, slowestPair, type PairDiffusion } from './diffusion.js';
+import {
+  diffusionMixingTimeS,
+  slowestPair,
+  SLOWEST_PAIR_MIN_FRACTION,
+  transportGaps,
+  type PairDiffusion,
+} from './diffusion.js';
+import type { Finding } from './findings.js';
 
 export interface MixingEstimate {
   readonly pair?: PairDiffusion;
@@ -12,6 +19,33 @@ export interface MixingEstimate {
   readonly to1PercentS?: number;
   readonly to01PercentS?: number;
   readonly stirred: boolean;
+  /**
+   * species whose transport data are not on file: a note where one method is left, a
+   * warning where pairs are left out of the slowest pair (the time may then be too short)
+   */
+  readonly findings: readonly Finding[];
+}
+
+/** the transport-data gaps of the species that count for the slowest pair, as findings */
+function transportFindings(y: Fractions): Finding[] {
+  const gaps = transportGaps(y);
+  const blind = new Set(gaps.filter((g) => !g.lennardJones && !g.fullerVolume).map((g) => g.species));
+  const present = Object.keys(y).filter((k) => y[k] >= SLOWEST_PAIR_MIN_FRACTION);
+  return gaps.map((g): Finding => {
+    const pairsLeftOut = blind.has(g.species)
+      ? present.filter((k) => k !== g.species).map((k) => `${g.species}-${k}`)
+      : [];
+    return {
+      severity: pairsLeftOut.length ? 'warning' : 'note',
+      code: 'transport-data-not-known',
+      species: g.species,
+      missing: [
+        ...(g.lennardJones ? [] : ['lennard-jones' as const]),
+        ...(g.fullerVolume ? [] : ['diffusion volume' as const]),
+      ],
+      pairsLeftOut,
+    };
+  });
 }
 
 export function mixingEstimate(
@@ -22,12 +56,14 @@ export function mixingEstimate(
   stirred: boolean,
 ): MixingEstimate {
   const pair = slowestPair(y, temperatureK, pressurePa);
-  if (!pair) return { stirred };
+  const findings = transportFindings(y);
+  if (!pair) return { stirred, findings };
   return {
     pair,
     to1PercentS: diffusionMixingTimeS(heightM, pair.governingM2s, 0.01),
     to01PercentS: diffusionMixingTimeS(heightM, pair.governingM2s, 0.001),
     stirred,
+    findings,
   };
 }
 

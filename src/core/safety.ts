@@ -6,7 +6,16 @@
  * the plan.
  */
 import type { Fractions } from './composition.js';
-import { ACETYLENE_LIMIT_PA, FUEL_SAFETY, INERT_K } from './data/safety-data.js';
+import { FUEL_SAFETY, INERT_K } from './data/safety-data.js';
+import {
+  ACETYLENE_LIMIT_PA,
+  DEFAULT_CONDENSATION_FRACTION,
+  INERT_K_FALLBACK,
+  N2O_DECOMPOSITION_ABOVE_PA,
+  N2O_OXYGEN_EQUIVALENT,
+  OXYGEN_ENRICHED_ABOVE,
+  PSAT_ESTIMATE_NOTE_ABOVE,
+} from './thresholds.js';
 import { assessFlammability, blendLimits, type FlammabilityAssessment } from './flammability.js';
 import { closedVesselFinding, detonationFinding, equilibriumFlameK } from './explosion-review.js';
 import { detonability } from './detonation.js';
@@ -23,7 +32,7 @@ export interface SafetyContext {
   readonly tankId: string;
   /** coldest wetted temperature of tank and lines, K */
   readonly coldestK?: number;
-  /** fraction of the saturation pressure a partial pressure may reach (default 0.5) */
+  /** fraction of the saturation pressure a partial pressure may reach (default DEFAULT_CONDENSATION_FRACTION, 0.5) */
   readonly condensationFraction?: number;
 }
 
@@ -43,8 +52,6 @@ export interface FillEvent {
   readonly before?: TankState;
   readonly after: TankState;
 }
-
-const OXYGEN_ENRICHED_ABOVE = 0.235;
 
 /**
  * Detonability of a flammable state (a point on a fill's path): published detonation
@@ -69,7 +76,10 @@ function fuelsIn(y: Fractions): string[] {
     .map(([k]) => k);
 }
 
-/** the numbers of a flammability finding; with the composition and temperature it adds the equilibrium flame temperature */
+/**
+ * the numbers of a flammability finding; with the composition and temperature it adds the
+ * equilibrium flame temperature
+ */
 export function flammabilityNumbers(
   a: FlammabilityAssessment,
   pressurePa: number,
@@ -133,13 +143,14 @@ export function reviewState(
       inLine: false,
     });
   const pN2O = (y.N2O ?? 0) * s.pressurePa;
-  if (pN2O > 1e5) out.push({ severity: 'warning', code: 'n2o-decomposition', step, partialPa: pN2O });
-  const xO2 = (y.O2 ?? 0) + 0.5 * (y.N2O ?? 0);
+  if (pN2O > N2O_DECOMPOSITION_ABOVE_PA)
+    out.push({ severity: 'warning', code: 'n2o-decomposition', step, partialPa: pN2O });
+  const xO2 = (y.O2 ?? 0) + N2O_OXYGEN_EQUIVALENT * (y.N2O ?? 0);
   if (xO2 > OXYGEN_ENRICHED_ABOVE)
     out.push({ severity: 'note', code: 'oxygen-enriched', step, oxygenFraction: xO2 });
   // condensation of each species below its critical temperature
   const cold = ctx.coldestK ?? ctx.temperatureK;
-  const frac = ctx.condensationFraction ?? 0.5;
+  const frac = ctx.condensationFraction ?? DEFAULT_CONDENSATION_FRACTION;
   for (const [k, v] of Object.entries(y)) {
     if (v <= 0) continue;
     const ps = saturationPressure(k, cold);
@@ -169,7 +180,7 @@ export function reviewFill(e: FillEvent, ctx: SafetyContext): Finding[] {
   const step = e.step;
   const src = e.sourceComposition;
   const cold = ctx.coldestK ?? ctx.temperatureK;
-  const frac = ctx.condensationFraction ?? 0.5;
+  const frac = ctx.condensationFraction ?? DEFAULT_CONDENSATION_FRACTION;
   // the line of a pure vapour or gas holds it at (at least) the pressure the tank reaches
   const main = Object.entries(src).reduce((a, b) => (b[1] > a[1] ? b : a))[0];
   if ((src[main] ?? 0) > 0.5) {
@@ -215,12 +226,14 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
     if (d > 0 && !FUEL_SAFETY.has(k))
       out.push({ severity: 'warning', code: 'no-flammability-data', species: k });
     if (d === 0 && !INERT_K.has(k) && states.some((s) => fuelsIn(s.composition).length > 0)) {
-      out.push({ severity: 'note', code: 'inert-coefficient-unknown', species: k, used: 0.5 });
+      out.push({ severity: 'note', code: 'inert-coefficient-unknown', species: k, used: INERT_K_FALLBACK });
     }
     const ps = saturationPressure(k, ctx.coldestK ?? ctx.temperatureK);
     if (ps && (ps.method === 'lee-kesler' || ps.method === 'antoine-extrapolated')) {
       // only worth saying where the species is present in more than trace amounts
-      if (states.some((s) => (s.composition[k] ?? 0) * s.pressurePa > 0.05 * ps.pressurePa)) {
+      if (
+        states.some((s) => (s.composition[k] ?? 0) * s.pressurePa > PSAT_ESTIMATE_NOTE_ABOVE * ps.pressurePa)
+      ) {
         out.push({
           severity: 'note',
           code: 'psat-estimated',
@@ -235,6 +248,9 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
     (k) => FUEL_SAFETY.has(k) && states.some((st) => (st.composition[k] ?? 0) > 1e-4),
   );
   for (const k of fuels) {
+    // an autoignition temperature not on file (data/coverage.ts): the compression check cannot judge this fuel
+    if (FUEL_SAFETY.get(k)?.ait === undefined)
+      out.push({ severity: 'warning', code: 'no-autoignition-data', species: k });
     for (const what of blendLimits({ [k]: 1 }, 298.15, 101325).estimated)
       out.push({ severity: 'note', code: 'flammability-data-estimated', what });
   }

@@ -7,6 +7,7 @@
  */
 import { ANTOINE, IAPWS_WATER, WAGNER } from './data/vapour-data.js';
 import { getSpecies } from './lookup.js';
+import { PSAT_EXTRAPOLATION_K } from './thresholds.js';
 
 export type PsatMethod = 'iapws' | 'antoine' | 'antoine-extrapolated' | 'wagner' | 'lee-kesler';
 
@@ -57,8 +58,6 @@ export function leeKeslerPa(TcK: number, PcPa: number, omega: number, temperatur
   return PcPa * Math.exp(f0 + omega * f1);
 }
 
-const EXTRAPOLATION_K = 10;
-
 export function saturationPressure(key: string, temperatureK: number): Psat | undefined {
   const sp = getSpecies(key);
   if (temperatureK >= sp.Tc) return undefined;
@@ -72,7 +71,7 @@ export function saturationPressure(key: string, temperatureK: number): Psat | un
   const w = WAGNER.get(sp.key);
   if (w && temperatureK < w.TcK)
     return { pressurePa: wagnerPa(w, temperatureK), method: 'wagner', source: w.source };
-  if (a && temperatureK >= a.TminK - EXTRAPOLATION_K && temperatureK <= a.TmaxK + EXTRAPOLATION_K) {
+  if (a && temperatureK >= a.TminK - PSAT_EXTRAPOLATION_K && temperatureK <= a.TmaxK + PSAT_EXTRAPOLATION_K) {
     return {
       pressurePa: antoinePa(a.A, a.B, a.C, temperatureK),
       method: 'antoine-extrapolated',

@@ -34,6 +34,7 @@ import {
 import { auditLog, describeLogFinding, type LogFinding } from './log-audit.js';
 import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.js';
 import { readReadingsCsv } from './readings-csv.js';
+import { TORR_PA } from '../core/index.js';
 
 export interface CheckOptions {
   readonly trials: number;
@@ -186,7 +187,7 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
       severity: f.severity,
       code: f.code,
       step: f.step ?? null,
-      message: describeFinding(f, (pa) => `${(pa / (101325 / 760)).toPrecision(6)} Torr`),
+      message: describeFinding(f, (pa) => `${(pa / TORR_PA).toPrecision(6)} Torr`),
     })),
   };
 }

@@ -6,6 +6,7 @@
 import type { Unit } from 'mathjs';
 import { fail, type Where } from '../core/index.js';
 import { createMath, type MathJs } from './mathjs-instance.js';
+import { TORR_PA } from '../core/index.js';
 
 let instance: MathJs | undefined;
 
@@ -34,9 +35,9 @@ export const FAST_UNITS: Readonly<Record<string, { dim: Dimension; factor: numbe
   bar: { dim: 'pressure', factor: 1e5 },
   mbar: { dim: 'pressure', factor: 100 },
   atm: { dim: 'pressure', factor: 101325 },
-  Torr: { dim: 'pressure', factor: 101325 / 760 },
-  torr: { dim: 'pressure', factor: 101325 / 760 },
-  mTorr: { dim: 'pressure', factor: 101325 / 760 / 1000 },
+  Torr: { dim: 'pressure', factor: TORR_PA },
+  torr: { dim: 'pressure', factor: TORR_PA },
+  mTorr: { dim: 'pressure', factor: TORR_PA / 1000 },
   psi: { dim: 'pressure', factor: PSI },
   K: { dim: 'temperature', factor: 1 },
   degC: { dim: 'temperature', factor: 1, offset: 273.15 },
@@ -48,11 +49,11 @@ export const FAST_UNITS: Readonly<Record<string, { dim: Dimension; factor: numbe
   'cm^3': { dim: 'volume', factor: 1e-6 },
   'Pa/s': { dim: 'pressure rate', factor: 1 },
   'Pa/min': { dim: 'pressure rate', factor: 1 / 60 },
-  'Torr/s': { dim: 'pressure rate', factor: 101325 / 760 },
-  'Torr/min': { dim: 'pressure rate', factor: 101325 / 760 / 60 },
-  'Torr/h': { dim: 'pressure rate', factor: 101325 / 760 / 3600 },
+  'Torr/s': { dim: 'pressure rate', factor: TORR_PA },
+  'Torr/min': { dim: 'pressure rate', factor: TORR_PA / 60 },
+  'Torr/h': { dim: 'pressure rate', factor: TORR_PA / 3600 },
   'mbar/min': { dim: 'pressure rate', factor: 100 / 60 },
-  'mTorr/min': { dim: 'pressure rate', factor: 101325 / 760 / 1000 / 60 },
+  'mTorr/min': { dim: 'pressure rate', factor: TORR_PA / 1000 / 60 },
   s: { dim: 'time', factor: 1 },
   min: { dim: 'time', factor: 60 },
   h: { dim: 'time', factor: 3600 },
@@ -318,7 +319,7 @@ export const PRESSURE_UNITS = ['Torr', 'kPa', 'bar', 'psi', 'mbar', 'Pa', 'atm']
 export type PressureUnit = (typeof PRESSURE_UNITS)[number];
 
 const PA_PER: Record<PressureUnit, number> = {
-  Torr: 101325 / 760,
+  Torr: TORR_PA,
   kPa: 1000,
   bar: 1e5,
   psi: (0.45359237 * 9.80665) / (0.0254 * 0.0254), // lb x g_n / in^2, all exact

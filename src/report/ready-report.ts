@@ -1,6 +1,8 @@
 /** mixwright ready: mixing time and contamination of a filled tank, as text and JSON. */
 import type { Contamination, MixingEstimate } from '../core/index.js';
 import { fixedSig } from './format.js';
+import { TORR_PA } from '../core/index.js';
+import { describeFinding } from '../core/index.js';
 
 export interface ReadyReport {
   readonly id: string;
@@ -27,7 +29,7 @@ export function readyToText(r: ReadyReport): string {
   const out: string[] = [];
   const m = r.mixing;
   out.push(
-    `Readiness  ${r.id}   (tank ${r.tank}, ${fixedSig(r.pressurePa / (101325 / 760), 5)} ` +
+    `Readiness  ${r.id}   (tank ${r.tank}, ${fixedSig(r.pressurePa / TORR_PA, 5)} ` +
       `Torr, ${(r.temperatureK - 273.15).toFixed(1)} degC)`,
     '',
   );
@@ -44,6 +46,8 @@ export function readyToText(r: ReadyReport): string {
         `0.1 % residual non-uniformity`,
     );
   }
+  // transport data not on file: said, never dropped from the slowest pair in silence
+  for (const f of m.findings) out.push(`  ${f.severity}: ${describeFinding(f, (pa) => `${pa} Pa`)}`);
   if (m.stirred) {
     out.push(
       '  the tank is stirred: its mixing is set by the stirrer flow and takes minutes ' +
@@ -58,7 +62,7 @@ export function readyToText(r: ReadyReport): string {
   const c = r.contamination;
   out.push('', 'Contamination');
   out.push(
-    `  residual gas from the base vacuum ${fixedSig(r.baseVacuumPa / (101325 / 760), 3)} ` +
+    `  residual gas from the base vacuum ${fixedSig(r.baseVacuumPa / TORR_PA, 3)} ` +
       `Torr: ${fixedSig(c.residualFraction * 1e6, 3)} ppm of the batch (taken as air)`,
   );
   if (c.aboveAmbient)
@@ -68,7 +72,7 @@ export function readyToText(r: ReadyReport): string {
     );
   else {
     out.push(
-      `  air leaking in at ${fixedSig((r.leakRatePaPerS * 60) / (101325 / 760), 3)} ` +
+      `  air leaking in at ${fixedSig((r.leakRatePaPerS * 60) / TORR_PA, 3)} ` +
         `Torr/min (under vacuum), scaled by the pressure difference: ${fixedSig(c.ingressPerDay * 1e6, 3)} ` +
         `ppm of the batch per day, ${fixedSig(c.o2PerDay * 1e6, 3)} ppm O2 per day`,
     );
@@ -100,6 +104,7 @@ export function readyToJson(r: ReadyReport, version: string): object {
       D_chapman_enskog_m2_per_s: r.mixing.pair?.chapmanEnskogM2s ?? null,
       diffusion_to_1pct_s: r.mixing.to1PercentS ?? null,
       diffusion_to_0_1pct_s: r.mixing.to01PercentS ?? null,
+      findings: r.mixing.findings.map((f) => ({ ...f, message: describeFinding(f, (pa) => `${pa} Pa`) })),
     },
     contamination: {
       base_vacuum_Pa: r.baseVacuumPa,

@@ -20,6 +20,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { decimalsFor, fixedSig, pressure } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
+import { TORR_PA } from '../core/index.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -134,11 +135,11 @@ function barometerLines(plan: Plan, meta: SheetMeta): string[] | undefined {
   const b = meta.barometer;
   const g = refSteps[0].gauge!;
   const gu: PressureUnit = isPressureUnit(g.unit) ? g.unit : meta.unit;
-  const perTorr = fromPa(101325 / 760, gu);
+  const perTorr = fromPa(TORR_PA, gu);
   const dec = Math.max(decimalsFor(fromPa(g.resolutionPa, gu)), 0);
   const ex = refSteps[0];
   const exTarget = fromPa(ex.gauge!.readingPa, gu);
-  const today = b.pressurePa - 10 * (101325 / 760);
+  const today = b.pressurePa - 10 * TORR_PA;
   return [
     `The gauge-referenced targets (fill ${refSteps.map((s) => s.index).join(', ')} ` +
       `on ${[...new Set(refSteps.map((s) => s.gauge!.id))].join(', ')}) assume ` +
@@ -160,7 +161,10 @@ function mixingLine(m?: MixingEstimate): string {
     return 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
   const est =
     `diffusion alone: about ${duration(m.to1PercentS)} to 1 %, ${duration(m.to01PercentS)} ` +
-    `to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b})`;
+    `to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b}` +
+    (m.findings.some((f) => f.severity === 'warning')
+      ? '; pairs without diffusion data left out: may take longer)'
+      : ')');
   return m.stirred
     ? `Mixing: stirrer on ________ min (${est} without it)`
     : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;

@@ -14,34 +14,37 @@ export interface DetonationLimits {
   readonly high: SourcedNumber;
 }
 
-const L = (v: number) => ({ value: v / 100, source: 'lewis-von-elbe-1987-memory' });
-const K = (v: number) => ({ value: v / 100, source: 'kuchta-1985-memory' });
-const B = (v: number) => ({ value: v / 100, source: 'fuel-air-detonability-memory' });
+/** a limit in vol % from Lewis & von Elbe (1987), recalled */
+const lewisVonElbe = (pct: number): SourcedNumber => ({
+  value: pct / 100,
+  source: 'lewis-von-elbe-1987-memory',
+});
+/** a limit in vol % from Kuchta, USBM Bulletin 680 (1985), recalled */
+const kuchta = (pct: number): SourcedNumber => ({ value: pct / 100, source: 'kuchta-1985-memory' });
+/** a fuel-air limit in vol % from large-tube and cell-size data, recalled */
+const fuelAirCellSize = (pct: number): SourcedNumber => ({
+  value: pct / 100,
+  source: 'fuel-air-detonability-memory',
+});
 
 const rows: DetonationLimits[] = [
-  { fuel: 'H2', oxidizer: 'air', low: L(18.3), high: L(59) },
-  { fuel: 'H2', oxidizer: 'O2', low: L(15), high: L(90) },
-  { fuel: 'CH4', oxidizer: 'O2', low: K(8.3), high: K(55) },
-  { fuel: 'C2H4', oxidizer: 'air', low: B(3.3), high: B(14.7) },
-  { fuel: 'C2H4', oxidizer: 'O2', low: K(3.0), high: K(80) },
-  { fuel: 'C2H2', oxidizer: 'air', low: L(4.2), high: L(50) },
-  { fuel: 'C2H2', oxidizer: 'O2', low: L(3.5), high: L(92) },
-  { fuel: 'C3H8', oxidizer: 'air', low: B(2.5), high: B(7.4) },
-  { fuel: 'C3H8', oxidizer: 'O2', low: L(3.2), high: L(37) },
+  { fuel: 'H2', oxidizer: 'air', low: lewisVonElbe(18.3), high: lewisVonElbe(59) },
+  { fuel: 'H2', oxidizer: 'O2', low: lewisVonElbe(15), high: lewisVonElbe(90) },
+  { fuel: 'CH4', oxidizer: 'O2', low: kuchta(8.3), high: kuchta(55) },
+  { fuel: 'C2H4', oxidizer: 'air', low: fuelAirCellSize(3.3), high: fuelAirCellSize(14.7) },
+  { fuel: 'C2H4', oxidizer: 'O2', low: kuchta(3.0), high: kuchta(80) },
+  { fuel: 'C2H2', oxidizer: 'air', low: lewisVonElbe(4.2), high: lewisVonElbe(50) },
+  { fuel: 'C2H2', oxidizer: 'O2', low: lewisVonElbe(3.5), high: lewisVonElbe(92) },
+  { fuel: 'C3H8', oxidizer: 'air', low: fuelAirCellSize(2.5), high: fuelAirCellSize(7.4) },
+  { fuel: 'C3H8', oxidizer: 'O2', low: lewisVonElbe(3.2), high: lewisVonElbe(37) },
 ];
 
 export const DETONATION_LIMITS: readonly DetonationLimits[] = rows;
 
-/** the conservative rule where no limits are published: a flammable state with less N2-equivalent inert than this can detonate */
-export const DETONABLE_INERT_BELOW = 0.5;
-/**
- * ... or whose oxidizer is about as rich as air or richer: O2 / (O2 + N2-equivalent inert)
- * at least this (air is 0.21). Stoichiometric fuel-air mixtures of the alkanes detonate
- * in large enough geometries (common practice), so a flammable state with air's oxygen
- * share or more is not called non-detonable without published limits (our conservative rule).
- */
-export const DETONABLE_OXYGEN_SHARE_FROM = 0.2;
-/** a fuel/oxidizer state with less N2-equivalent inert than this counts as undiluted fuel/O2 (our threshold) */
-export const UNDILUTED_INERT_BELOW = 0.1;
-/** reflected detonation pressure over P_CJ: about 2.5 (common practice; properties.md 7.6) */
-export const REFLECTED_OVER_CJ = 2.5;
+// the detonability rule's thresholds and the reflected-pressure ratio live with the other thresholds
+export {
+  DETONABLE_INERT_BELOW,
+  DETONABLE_OXYGEN_SHARE_FROM,
+  REFLECTED_OVER_CJ,
+  UNDILUTED_INERT_BELOW,
+} from '../thresholds.js';

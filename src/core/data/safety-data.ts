@@ -28,14 +28,18 @@ export interface FuelSafetyRecord {
   readonly aitListed?: readonly SourcedNumber[];
 }
 
-const N = (value: number) => ({ value, source: 'nfpa-497-2008' });
-const I = (value: number) => ({ value, source: 'iec-60079-20-1-2010' });
-const Z = (value: number) => ({ value, source: 'zabetakis-1965-memory' });
+/** a limit as listed by NFPA 497 (2008) */
+const nfpa497 = (value: number): SourcedNumber => ({ value, source: 'nfpa-497-2008' });
+/** a limit as listed by IEC 60079-20-1 (2010) */
+const iec60079 = (value: number): SourcedNumber => ({ value, source: 'iec-60079-20-1-2010' });
+/** a limit in oxygen from Zabetakis, USBM Bulletin 627, recalled */
+const zabetakisRecalled = (value: number): SourcedNumber => ({ value, source: 'zabetakis-1965-memory' });
 /** Coward & Jones, USBM Bulletin 503: limits in oxygen, read (quoted) from the Bulletin's pages */
-const CJ = (value: number) => ({ value, source: 'coward-jones-1952' });
-const E = (value: number) => ({ value, source: 'astm-e2079-19' });
-/** NFPA 69 tube value adjusted by TIA 1211: -2 vol % for LOC >= 10 %, x0.85 below */
-const T = (tubePct: number) => ({
+const cowardJones = (value: number): SourcedNumber => ({ value, source: 'coward-jones-1952' });
+/** a large-vessel limiting oxygen concentration of ASTM E2079-19 */
+const astmE2079 = (value: number): SourcedNumber => ({ value, source: 'astm-e2079-19' });
+/** NFPA 69 tube value (vol %) adjusted by TIA 1211: -2 vol % for LOC >= 10 %, x0.85 below */
+const nfpa69Adjusted = (tubePct: number): SourcedNumber => ({
   value: (tubePct >= 10 ? tubePct - 2 : tubePct * 0.85) / 100,
   source: 'nfpa-69-memory',
 });
@@ -59,116 +63,136 @@ function ait(
 const rows: FuelSafetyRecord[] = [
   {
     key: 'H2',
-    lflAir: [N(0.04), I(0.04)],
-    uflAir: [N(0.75), I(0.77)],
-    uflO2: CJ(0.958),
-    loc: E(0.046),
+    lflAir: [nfpa497(0.04), iec60079(0.04)],
+    uflAir: [nfpa497(0.75), iec60079(0.77)],
+    uflO2: cowardJones(0.958),
+    loc: astmE2079(0.046),
     ...ait(773.15, 833.15),
   },
   {
     key: 'CO',
-    lflAir: [N(0.125), I(0.109)],
-    uflAir: [N(0.74), I(0.74)],
-    uflO2: Z(0.94),
-    loc: E(0.051),
+    lflAir: [nfpa497(0.125), iec60079(0.109)],
+    uflAir: [nfpa497(0.74), iec60079(0.74)],
+    uflO2: zabetakisRecalled(0.94),
+    loc: astmE2079(0.051),
     ...ait(882.15, 880.15),
   },
   {
     key: 'CH4',
-    lflAir: [N(0.05), I(0.044)],
-    uflAir: [N(0.15), I(0.17)],
-    uflO2: CJ(0.605),
-    loc: E(0.107),
+    lflAir: [nfpa497(0.05), iec60079(0.044)],
+    uflAir: [nfpa497(0.15), iec60079(0.17)],
+    uflO2: cowardJones(0.605),
+    loc: astmE2079(0.107),
     ...ait(873.15, 873.15),
   },
   {
     key: 'C2H6',
-    lflAir: [N(0.03), I(0.024)],
-    uflAir: [N(0.125), I(0.155)],
-    uflO2: Z(0.66),
-    loc: T(11),
+    lflAir: [nfpa497(0.03), iec60079(0.024)],
+    uflAir: [nfpa497(0.125), iec60079(0.155)],
+    uflO2: zabetakisRecalled(0.66),
+    loc: nfpa69Adjusted(11),
     ...ait(745.15, 788.15),
   },
   {
     key: 'C2H4',
-    lflAir: [N(0.027), I(0.023)],
-    uflAir: [N(0.36), I(0.36)],
-    uflO2: Z(0.8),
-    loc: E(0.085),
+    lflAir: [nfpa497(0.027), iec60079(0.023)],
+    uflAir: [nfpa497(0.36), iec60079(0.36)],
+    uflO2: zabetakisRecalled(0.8),
+    loc: astmE2079(0.085),
     ...ait(763.15, 713.15),
   },
   {
     key: 'C2H2',
-    lflAir: [N(0.025), I(0.023)],
-    uflAir: [N(1.0), I(1.0)],
-    uflO2: Z(1.0),
+    lflAir: [nfpa497(0.025), iec60079(0.023)],
+    uflAir: [nfpa497(1.0), iec60079(1.0)],
+    uflO2: zabetakisRecalled(1.0),
     loc: { value: 0, source: 'acetylene-practice' },
     ...ait(578.15, 578.15),
   },
   {
     key: 'C3H8',
-    lflAir: [N(0.021), I(0.017)],
-    uflAir: [N(0.095), I(0.109)],
-    uflO2: Z(0.55),
-    loc: E(0.105),
+    lflAir: [nfpa497(0.021), iec60079(0.017)],
+    uflAir: [nfpa497(0.095), iec60079(0.109)],
+    uflO2: zabetakisRecalled(0.55),
+    loc: astmE2079(0.105),
     ...ait(723.15, 723.15),
   },
   {
     key: 'C3H6',
-    lflAir: [N(0.024), I(0.02)],
-    uflAir: [N(0.103), I(0.111)],
-    uflO2: Z(0.53),
-    loc: T(11.5),
+    lflAir: [nfpa497(0.024), iec60079(0.02)],
+    uflAir: [nfpa497(0.103), iec60079(0.111)],
+    uflO2: zabetakisRecalled(0.53),
+    loc: nfpa69Adjusted(11.5),
     ...ait(733.15, 728.15),
   },
   {
     key: 'n-C4H10',
-    lflAir: [N(0.019), I(0.014)],
-    uflAir: [N(0.085), I(0.093)],
-    uflO2: Z(0.49),
-    loc: T(12),
+    lflAir: [nfpa497(0.019), iec60079(0.014)],
+    uflAir: [nfpa497(0.085), iec60079(0.093)],
+    uflO2: zabetakisRecalled(0.49),
+    loc: nfpa69Adjusted(12),
     ...ait(561.15, 645.15),
   },
   {
     key: 'i-C4H10',
-    lflAir: [N(0.018), I(0.013)],
-    uflAir: [N(0.084), I(0.098)],
-    loc: T(12),
+    lflAir: [nfpa497(0.018), iec60079(0.013)],
+    uflAir: [nfpa497(0.084), iec60079(0.098)],
+    loc: nfpa69Adjusted(12),
     ...ait(733.15, 733.15),
   },
   {
     key: 'n-C5H12',
-    lflAir: [N(0.015), I(0.011)],
-    uflAir: [N(0.078), I(0.087)],
-    loc: T(12),
+    lflAir: [nfpa497(0.015), iec60079(0.011)],
+    uflAir: [nfpa497(0.078), iec60079(0.087)],
+    loc: nfpa69Adjusted(12),
     ...ait(516.15, 516.15),
   },
-  { key: 'n-C7H16', lflAir: [N(0.01), I(0.0085)], uflAir: [N(0.067), I(0.067)], ...ait(477.15, 477.15) },
-  { key: 'i-C8H18', lflAir: [I(0.007)], uflAir: [I(0.06)], ...ait(undefined, 686.15) },
-  { key: 'C7H8', lflAir: [N(0.011), I(0.01)], uflAir: [N(0.071), I(0.078)], ...ait(753.15, 803.15) },
+  {
+    key: 'n-C7H16',
+    lflAir: [nfpa497(0.01), iec60079(0.0085)],
+    uflAir: [nfpa497(0.067), iec60079(0.067)],
+    ...ait(477.15, 477.15),
+  },
+  { key: 'i-C8H18', lflAir: [iec60079(0.007)], uflAir: [iec60079(0.06)], ...ait(undefined, 686.15) },
+  {
+    key: 'C7H8',
+    lflAir: [nfpa497(0.011), iec60079(0.01)],
+    uflAir: [nfpa497(0.071), iec60079(0.078)],
+    ...ait(753.15, 803.15),
+  },
   {
     key: 'CH3OH',
-    lflAir: [N(0.06), I(0.06)],
-    uflAir: [N(0.36), I(0.36)],
-    loc: T(10),
+    lflAir: [nfpa497(0.06), iec60079(0.06)],
+    uflAir: [nfpa497(0.36), iec60079(0.36)],
+    loc: nfpa69Adjusted(10),
     ...ait(658.15, 713.15),
   },
   {
     key: 'C2H5OH',
-    lflAir: [N(0.033), I(0.031)],
-    uflAir: [N(0.19), I(0.19)],
-    loc: T(10.5),
+    lflAir: [nfpa497(0.033), iec60079(0.031)],
+    uflAir: [nfpa497(0.19), iec60079(0.19)],
+    loc: nfpa69Adjusted(10.5),
     ...ait(636.15, 673.15),
   },
-  { key: 'CH3OCH3', lflAir: [N(0.034), I(0.027)], uflAir: [N(0.27), I(0.32)], ...ait(623.15, 513.15) },
+  {
+    key: 'CH3OCH3',
+    lflAir: [nfpa497(0.034), iec60079(0.027)],
+    uflAir: [nfpa497(0.27), iec60079(0.32)],
+    ...ait(623.15, 513.15),
+  },
   {
     key: 'NH3',
-    lflAir: [N(0.15), I(0.15)],
-    uflAir: [N(0.28), I(0.336)],
-    uflO2: Z(0.79),
+    lflAir: [nfpa497(0.15), iec60079(0.15)],
+    uflAir: [nfpa497(0.28), iec60079(0.336)],
+    uflO2: zabetakisRecalled(0.79),
     ...ait(924.15, 903.15),
   },
-  { key: 'CH2O', lflAir: [N(0.07), I(0.07)], uflAir: [N(0.73), I(0.73)], ...ait(703.15, 697.15) },
+  {
+    key: 'CH2O',
+    lflAir: [nfpa497(0.07), iec60079(0.07)],
+    uflAir: [nfpa497(0.73), iec60079(0.73)],
+    ...ait(703.15, 697.15),
+  },
 ];
 
 export const FUEL_SAFETY: ReadonlyMap<string, FuelSafetyRecord> = new Map(rows.map((r) => [r.key, r]));
@@ -189,19 +213,5 @@ export const INERT_K: ReadonlyMap<string, SourcedNumber> = new Map(
   ).map(([k, v]) => [k, { value: v, source: 'iso-10156-2017' }]),
 );
 
-/** the smallest listed K: used, with a note, for an inert that has none (a smaller K widens the flammable zone) */
-export const INERT_K_FALLBACK = 0.5;
-
-/** NFPA 69 operating margins used for "near the limit" */
-export const MARGINS = {
-  /** fraction of the LFL (instrumented practice) */
-  lflFraction: 0.6,
-  /** vol-fraction below the LOC when LOC >= 5 % */
-  locOffset: 0.02,
-  /** fraction of the LOC when LOC < 5 % */
-  locFractionLow: 0.6,
-  source: 'nfpa-69-margins-memory',
-} as const;
-
-/** acetylene: about 15 psig (1 bar gauge) outside the cylinder, Pa absolute */
-export const ACETYLENE_LIMIT_PA = 101325 + 15 * ((0.45359237 * 9.80665) / (0.0254 * 0.0254));
+// the inert fallback, the NFPA 69 margins and the acetylene limit live with the other thresholds
+export { ACETYLENE_LIMIT_PA, INERT_K_FALLBACK, MARGINS } from '../thresholds.js';

@@ -3,7 +3,13 @@
  * keys in its `source` field. A data test checks that every key resolves.
  */
 
-/** How much a value from a source can be trusted, best first. */
+/**
+ * How much a value from a source can be trusted, best first. The class is shown beside
+ * every value; it does not pick between values. Where a property has values from several
+ * sources (the LFL, UFL and autoignition temperature of NFPA 497 and IEC 60079-20-1) every
+ * value is kept and shown, and the safety review applies the conservative one (the lowest
+ * LFL, the highest UFL, the lowest autoignition temperature), whatever its class.
+ */
 export type SourceQuality =
   | 'standard' // a published standard or exact definition
   | 'reference-eos' // evaluated from a published reference equation of state
@@ -293,6 +299,13 @@ const list: readonly Source[] = [
     quality: 'from-memory',
   },
   {
+    key: 'osha-1910-146-memory',
+    citation:
+      'US OSHA 29 CFR 1910.146 (permit-required confined spaces), definition of an ' +
+      'oxygen-enriched atmosphere: more than 23.5 % oxygen by volume (recalled)',
+    quality: 'from-memory',
+  },
+  {
     key: 'acetylene-practice',
     citation:
       'Common practice for acetylene: do not use it at more than 15 psig (about ' +
@@ -336,15 +349,6 @@ const list: readonly Source[] = [
 ];
 
 export const SOURCES: ReadonlyMap<string, Source> = new Map(list.map((s) => [s.key, s]));
-
-/** The order in which sources win when one property has values from several. */
-export const SOURCE_PRIORITY: readonly SourceQuality[] = [
-  'standard',
-  'reference-eos',
-  'experimental-review',
-  'correlation',
-  'from-memory',
-];
 
 export function getSource(key: string): Source {
   const s = SOURCES.get(key);
