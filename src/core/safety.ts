@@ -6,7 +6,7 @@
  * the plan.
  */
 import type { Fractions } from './composition.js';
-import { ACETYLENE_LIMIT_PA, FUEL_SAFETY, INERT_K } from './data/safety-data.js';
+import { ACETYLENE_LIMIT_PA, FUEL_SAFETY, INERT_K, INERT_K_FALLBACK } from './data/safety-data.js';
 import { assessFlammability, blendLimits, type FlammabilityAssessment } from './flammability.js';
 import { closedVesselFinding, detonationFinding, equilibriumFlameK } from './explosion-review.js';
 import { detonability } from './detonation.js';
@@ -23,9 +23,15 @@ export interface SafetyContext {
   readonly tankId: string;
   /** coldest wetted temperature of tank and lines, K */
   readonly coldestK?: number;
-  /** fraction of the saturation pressure a partial pressure may reach (default 0.5) */
+  /** fraction of the saturation pressure a partial pressure may reach (default DEFAULT_CONDENSATION_FRACTION) */
   readonly condensationFraction?: number;
 }
+
+/**
+ * The fraction of the saturation pressure a partial pressure may reach when the lab profile
+ * gives none: half, a margin for cold spots and gauge error (common practice, our choice).
+ */
+export const DEFAULT_CONDENSATION_FRACTION = 0.5;
 
 /** one tank state: after fill `step` (0 = gas already in the tank) */
 export interface TankState {
@@ -139,7 +145,7 @@ export function reviewState(
     out.push({ severity: 'note', code: 'oxygen-enriched', step, oxygenFraction: xO2 });
   // condensation of each species below its critical temperature
   const cold = ctx.coldestK ?? ctx.temperatureK;
-  const frac = ctx.condensationFraction ?? 0.5;
+  const frac = ctx.condensationFraction ?? DEFAULT_CONDENSATION_FRACTION;
   for (const [k, v] of Object.entries(y)) {
     if (v <= 0) continue;
     const ps = saturationPressure(k, cold);
@@ -169,7 +175,7 @@ export function reviewFill(e: FillEvent, ctx: SafetyContext): Finding[] {
   const step = e.step;
   const src = e.sourceComposition;
   const cold = ctx.coldestK ?? ctx.temperatureK;
-  const frac = ctx.condensationFraction ?? 0.5;
+  const frac = ctx.condensationFraction ?? DEFAULT_CONDENSATION_FRACTION;
   // the line of a pure vapour or gas holds it at (at least) the pressure the tank reaches
   const main = Object.entries(src).reduce((a, b) => (b[1] > a[1] ? b : a))[0];
   if ((src[main] ?? 0) > 0.5) {
@@ -215,7 +221,7 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
     if (d > 0 && !FUEL_SAFETY.has(k))
       out.push({ severity: 'warning', code: 'no-flammability-data', species: k });
     if (d === 0 && !INERT_K.has(k) && states.some((s) => fuelsIn(s.composition).length > 0)) {
-      out.push({ severity: 'note', code: 'inert-coefficient-unknown', species: k, used: 0.5 });
+      out.push({ severity: 'note', code: 'inert-coefficient-unknown', species: k, used: INERT_K_FALLBACK });
     }
     const ps = saturationPressure(k, ctx.coldestK ?? ctx.temperatureK);
     if (ps && (ps.method === 'lee-kesler' || ps.method === 'antoine-extrapolated')) {

@@ -16,7 +16,7 @@ import type { PlanBasis } from './validate.js';
 import type { PlanAmounts } from './amounts.js';
 import type { PlanSequence } from './sequence.js';
 import type { PlanSteps } from './steps.js';
-import type { PlanStep } from './types.js';
+import { allowedDeviation, type PlanStep } from './types.js';
 
 /** what the review stage hands on */
 export interface PlanReview {
@@ -25,6 +25,9 @@ export interface PlanReview {
   /** the sequence's reason, corrected where the full review contradicts it */
   readonly orderReason: string;
 }
+
+/** below this mole fraction an impurity or an unidentified remainder is not reported */
+export const TRACE_FRACTION = 1e-7;
 
 /** a note is due when the combining-rule cross coefficients could move a target by more than this (relative) */
 export const CROSS_NOTE_RELATIVE = 1e-4;
@@ -126,13 +129,13 @@ function sourceFindings(basis: PlanBasis, amounts: PlanAmounts, sequence: PlanSe
   for (const { source: s } of sequence.charges)
     if (s.purityAssumed)
       out.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
-  if (alloc.unidentified > 1e-7)
+  if (alloc.unidentified > TRACE_FRACTION)
     out.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
   for (const [sp, x] of Object.entries(alloc.composition)) {
     const xd = design.composition[sp] ?? 0;
-    if (xd === 0 && x > 1e-7)
+    if (xd === 0 && x > TRACE_FRACTION)
       out.push({ severity: 'note', code: 'impurity-present', species: sp, fraction: x });
-    else if (xd > 0 && Math.abs(x - xd) > Math.max(tol.relative * xd, tol.absolute))
+    else if (xd > 0 && Math.abs(x - xd) > allowedDeviation(tol, xd))
       out.push({ severity: 'warning', code: 'supply-mismatch', species: sp, design: xd, actual: x });
   }
   return out;

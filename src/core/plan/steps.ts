@@ -18,7 +18,7 @@ import { fail } from '../problems.js';
 import type { PlanBasis } from './validate.js';
 import { eosComposition, type PlanAmounts } from './amounts.js';
 import type { Charge, PlanSequence } from './sequence.js';
-import type { PlanStep } from './types.js';
+import { allowedDeviation, type PlanStep } from './types.js';
 
 /** what the step stage hands on */
 export interface PlanSteps {
@@ -176,7 +176,7 @@ function toleranceBandPa(
   const { design, tolerance: tol } = basis.input;
   let dnMax = Infinity;
   for (const sp of basis.species) {
-    const allowed = Math.max(tol.relative * (design.composition[sp] ?? 0), tol.absolute);
+    const allowed = allowedDeviation(tol, design.composition[sp] ?? 0);
     const sens = next
       ? Math.abs(sourceFraction(st.source, sp) - sourceFraction(next.source, sp))
       : Math.abs(sourceFraction(st.source, sp) - (amounts.composition[sp] ?? 0));

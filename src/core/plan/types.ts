@@ -16,6 +16,11 @@ export interface Tolerance {
   readonly absolute: number;
 }
 
+/** the allowed absolute deviation of a mole fraction whose design value is `design` */
+export function allowedDeviation(tol: Tolerance, design: number): number {
+  return Math.max(tol.relative * design, tol.absolute);
+}
+
 export interface TankSpec {
   readonly id: string;
   readonly label: string;
