@@ -147,30 +147,36 @@ export function describeProblem(p: Problem): string {
 }
 
 // raised by the planner
-// every kind listed (the Record makes the compiler check it), so the guard below knows them all
-const PLANNER_KINDS: Readonly<Record<PlannerProblem['kind'], true>> = {
-  'not-a-fuel': true,
-  'fuel-in-oxidizer': true,
-  'reactive-diluent': true,
-  'oxidizer-without-oxygen': true,
-  'fuel-fraction-too-large': true,
-  'impurity-is-main-gas': true,
-  'impurities-over-purity': true,
-  'in-tank-excess': true,
-  'in-tank-at-final': true,
-  'split-charges': true,
-  'no-fills': true,
-  'empty-blend': true,
-  'diluent-for-dilution': true,
-  'diluent-for-ratio': true,
-  'diluent-for-fuel-fraction': true,
-  'no-cylinder': true,
-  temperature: true,
-  'non-ideal': true,
+// every kind with its code (the Record makes the compiler check the list), so the guard below knows them all
+const PLANNER_KINDS: Readonly<Record<PlannerProblem['kind'], PlannerProblem['code']>> = {
+  'not-a-fuel': 'design-conflict',
+  'fuel-in-oxidizer': 'design-conflict',
+  'reactive-diluent': 'design-conflict',
+  'oxidizer-without-oxygen': 'design-conflict',
+  'fuel-fraction-too-large': 'design-conflict',
+  'impurity-is-main-gas': 'design-conflict',
+  'impurities-over-purity': 'design-conflict',
+  'in-tank-excess': 'design-conflict',
+  'in-tank-at-final': 'design-conflict',
+  'split-charges': 'design-conflict',
+  'no-fills': 'design-missing',
+  'empty-blend': 'design-missing',
+  'diluent-for-dilution': 'design-missing',
+  'diluent-for-ratio': 'design-missing',
+  'diluent-for-fuel-fraction': 'design-missing',
+  'no-cylinder': 'no-supply',
+  temperature: 'model-range',
+  'non-ideal': 'model-range',
 };
 
 function isPlannerProblem(p: Problem): p is PlannerProblem {
-  return 'kind' in p && typeof p.kind === 'string' && Object.hasOwn(PLANNER_KINDS, p.kind);
+  // other problems have a `kind` too (unknown-reference): the code must match as well
+  return (
+    'kind' in p &&
+    typeof p.kind === 'string' &&
+    Object.hasOwn(PLANNER_KINDS, p.kind) &&
+    PLANNER_KINDS[p.kind as PlannerProblem['kind']] === p.code
+  );
 }
 
 function describePlannerProblem(p: PlannerProblem): string {
