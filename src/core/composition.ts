@@ -41,7 +41,8 @@ export interface Design {
   readonly groups: { readonly fuel: Fractions; readonly oxidizer: Fractions; readonly diluent: Fractions };
 }
 
-const FRACTION_SUM_TOL = 1e-6;
+/** how far from 1 the mole fractions of a blend or premix may sum */
+export const FRACTION_SUM_TOL = 1e-6;
 
 export type SpeciesRole = 'fuel' | 'oxidizer' | 'inert';
 
@@ -65,7 +66,7 @@ function checkBlend(blend: Fractions, field: string, allowEmpty: boolean): Recor
   }
   if (Object.keys(out).length === 0) {
     if (allowEmpty) return out;
-    fail({ code: 'design-missing', reason: `${field} names no species` }, { field });
+    fail({ code: 'design-missing', kind: 'empty-blend', blend: field }, { field });
   }
   if (Math.abs(sum - 1) > FRACTION_SUM_TOL) fail({ code: 'fractions-sum', sum }, { field });
   return out;
@@ -182,22 +183,66 @@ function checkTrace(x: Fractions, field: string): void {
  * Example: CH4 in air (O2 0.21, N2 0.79), phi 1, no diluent -> x_CH4 = 1/(1 + 2/0.21) = 0.0950.
  */
 export function designMixture(input: DesignInput): Design {
-  if (input.kind === 'fractions') {
-    const x = checkBlend(input.fractions, 'fractions', false);
-    checkTrace(x, 'fractions');
-    const g = groupsOf(x);
-    const fuelD = demandOf(g.fuelBlend);
-    return {
-      composition: x,
-      phi: equivalenceRatio(x),
-      fuelFraction: g.fuel,
-      oxidizerFraction: g.ox,
-      diluentFraction: g.inert,
-      stoichO2PerFuel: g.fuel > 0 ? fuelD : undefined,
-      groups: { fuel: g.fuelBlend, oxidizer: g.oxBlend, diluent: g.inertBlend },
-    };
-  }
+  if (input.kind === 'fractions') return designFromFractions(input.fractions);
   const { phi, basis } = input;
+  checkPhi(phi);
+  const blends = checkRoles({
+    fuel: checkBlend(input.fuel, 'fuel', false),
+    oxidizer: checkBlend(input.oxidizer, 'oxidizer', false),
+    diluent: checkBlend(input.diluent, 'diluent', true),
+  });
+  const needPerFuel = demandOf(blends.fuel); // mol O2 per mol fuel blend
+  const supplyPerOx = -demandOf(blends.oxidizer); // mol O2-equivalent per mol oxidizer blend
+  if (supplyPerOx <= 0)
+    fail({ code: 'design-conflict', kind: 'oxidizer-without-oxygen' }, { field: 'oxidizer' });
+  const { F, X, D } = groupFractions({
+    phi,
+    basis,
+    oxPerFuel: needPerFuel / (phi * supplyPerOx),
+    supplyPerOx,
+    hasDiluent: Object.keys(blends.diluent).length > 0,
+  });
+  const composition: Record<string, number> = {};
+  addInto(composition, blends.fuel, F);
+  addInto(composition, blends.oxidizer, X);
+  if (D > 0) addInto(composition, blends.diluent, D);
+  // the groups, not each species of a blend: a trace inside a blend comes with it from a premix cylinder
+  checkTrace({ fuel: F, oxidizer: X, diluent: D }, BASIS_FIELD[basis.kind]);
+  return {
+    composition,
+    phi,
+    fuelFraction: F,
+    oxidizerFraction: X,
+    diluentFraction: D,
+    stoichO2PerFuel: needPerFuel,
+    groups: blends,
+  };
+}
+
+/** the recipe field that gives each dilution basis */
+const BASIS_FIELD: Readonly<Record<DilutionBasis['kind'], string>> = {
+  dilution: 'dilution',
+  'diluent-ratio': 'diluent_ratio',
+  'fuel-fraction': 'fuel_fraction',
+};
+
+function designFromFractions(fractions: Fractions): Design {
+  const x = checkBlend(fractions, 'fractions', false);
+  checkTrace(x, 'fractions');
+  const g = groupsOf(x);
+  const fuelD = demandOf(g.fuelBlend);
+  return {
+    composition: x,
+    phi: equivalenceRatio(x),
+    fuelFraction: g.fuel,
+    oxidizerFraction: g.ox,
+    diluentFraction: g.inert,
+    stoichO2PerFuel: g.fuel > 0 ? fuelD : undefined,
+    groups: { fuel: g.fuelBlend, oxidizer: g.oxBlend, diluent: g.inertBlend },
+  };
+}
+
+function checkPhi(phi: number): void {
   if (!Number.isFinite(phi) || phi <= 0)
     fail({ code: 'not-positive', what: 'phi (equivalence ratio)', value: phi }, { field: 'phi' });
   if (phi < PHI_RANGE.min || phi > PHI_RANGE.max) {
@@ -213,156 +258,112 @@ export function designMixture(input: DesignInput): Design {
       { field: 'phi' },
     );
   }
-  const fuel = checkBlend(input.fuel, 'fuel', false);
-  const oxidizer = checkBlend(input.oxidizer, 'oxidizer', false);
-  const diluent = checkBlend(input.diluent, 'diluent', true);
-  for (const k of Object.keys(fuel)) {
-    if (speciesRole(k) !== 'fuel')
-      fail(
-        {
-          code: 'design-conflict',
-          reason: `${k} is not a fuel (it needs no oxygen to burn); list it as oxidizer or diluent`,
-        },
-        { field: 'fuel' },
-      );
-  }
-  for (const k of Object.keys(oxidizer)) {
-    if (speciesRole(k) === 'fuel')
-      fail(
-        { code: 'design-conflict', reason: `${k} is a fuel and cannot be part of the oxidizer` },
-        { field: 'oxidizer' },
-      );
-  }
-  for (const k of Object.keys(diluent)) {
-    if (speciesRole(k) !== 'inert')
-      fail(
-        {
-          code: 'design-conflict',
-          reason: `${k} takes part in combustion and cannot be a diluent; use an inert gas (Ar, He, N2, CO2, ...)`,
-        },
-        { field: 'diluent' },
-      );
-  }
-  const needPerFuel = demandOf(fuel); // mol O2 per mol fuel blend
-  const supplyPerOx = -demandOf(oxidizer); // mol O2-equivalent per mol oxidizer blend
-  if (supplyPerOx <= 0)
-    fail(
-      { code: 'design-conflict', reason: 'the oxidizer carries no oxygen; it needs O2 (or N2O, NO)' },
-      { field: 'oxidizer' },
-    );
-  const oxPerFuel = needPerFuel / (phi * supplyPerOx);
-  const hasDiluent = Object.keys(diluent).length > 0;
+}
 
-  let F: number;
-  let X: number;
-  let D: number;
-  switch (basis.kind) {
-    case 'dilution': {
-      const xd = basis.value;
-      if (!(xd >= 0 && xd < 1))
-        fail(
-          { code: 'out-of-range', what: 'dilution (diluent mole fraction)', value: xd, allowed: '[0, 1)' },
-          { field: 'dilution' },
-        );
-      if (xd > 0 && !hasDiluent)
-        fail(
-          {
-            code: 'design-missing',
-            reason: `dilution is ${xd} but no diluent is named; add a diluent (e.g. Ar)`,
-          },
-          { field: 'diluent' },
-        );
-      F = (1 - xd) / (1 + oxPerFuel);
-      X = F * oxPerFuel;
-      D = xd;
-      break;
-    }
-    case 'diluent-ratio': {
-      const r = basis.value;
-      if (!(r >= 0) || !Number.isFinite(r) || r > DILUENT_RATIO_MAX)
-        fail(
-          {
-            code: 'out-of-range',
-            what: 'diluent ratio (mol diluent per mol O2)',
-            value: r,
-            allowed:
-              `0 to ${DILUENT_RATIO_MAX} (a larger ratio leaves less than 1 ppm of O2; ` +
-              `give such a mixture by its fractions)`,
-          },
-          { field: 'diluent_ratio' },
-        );
-      if (r > 0 && !hasDiluent)
-        fail(
-          {
-            code: 'design-missing',
-            reason: `diluent ratio is ${r} but no diluent is named; add a diluent (e.g. N2)`,
-          },
-          { field: 'diluent' },
-        );
-      // per mol fuel: oxPerFuel mol oxidizer carrying oxPerFuel * supplyPerOx mol O2-equivalent
-      const dPerFuel = r * oxPerFuel * supplyPerOx;
-      F = 1 / (1 + oxPerFuel + dPerFuel);
-      X = F * oxPerFuel;
-      D = F * dPerFuel;
-      break;
-    }
-    case 'fuel-fraction': {
-      const xf = basis.value;
-      if (!(xf > 0 && xf < 1))
-        fail(
-          { code: 'out-of-range', what: 'fuel fraction', value: xf, allowed: '(0, 1)' },
-          { field: 'fuel_fraction' },
-        );
-      F = xf;
-      X = xf * oxPerFuel;
-      D = 1 - F - X;
-      if (D < -1e-12) {
-        const maxXf = 1 / (1 + oxPerFuel);
-        fail(
-          {
-            code: 'design-conflict',
-            reason:
-              `at phi ${phi} a fuel fraction of ${xf} leaves no room: fuel and oxidizer ` +
-              `alone would be ${(F + X).toFixed(4)} of the mixture; the largest fuel fraction ` +
-              `is ${maxXf.toFixed(5)}`,
-          },
-          { field: 'fuel_fraction' },
-        );
-      }
-      D = Math.max(D, 0);
-      if (D > 1e-12 && !hasDiluent)
-        fail(
-          {
-            code: 'design-missing',
-            reason: `the fuel fraction ${xf} leaves ${D.toFixed(4)} of the mixture for a diluent, but none is named`,
-          },
-          { field: 'diluent' },
-        );
-      break;
-    }
+type Blends = {
+  fuel: Record<string, number>;
+  oxidizer: Record<string, number>;
+  diluent: Record<string, number>;
+};
+
+/** each species in a group whose role it has: fuels burn, the oxidizer holds no fuel, diluents are inert */
+function checkRoles(blends: Blends): Blends {
+  for (const k of Object.keys(blends.fuel))
+    if (speciesRole(k) !== 'fuel')
+      fail({ code: 'design-conflict', kind: 'not-a-fuel', species: k }, { field: 'fuel' });
+  for (const k of Object.keys(blends.oxidizer))
+    if (speciesRole(k) === 'fuel')
+      fail({ code: 'design-conflict', kind: 'fuel-in-oxidizer', species: k }, { field: 'oxidizer' });
+  for (const k of Object.keys(blends.diluent))
+    if (speciesRole(k) !== 'inert')
+      fail({ code: 'design-conflict', kind: 'reactive-diluent', species: k }, { field: 'diluent' });
+  return blends;
+}
+
+interface GroupArgs {
+  readonly phi: number;
+  readonly basis: DilutionBasis;
+  /** mol oxidizer blend per mol fuel blend at this phi */
+  readonly oxPerFuel: number;
+  /** mol O2-equivalent per mol oxidizer blend */
+  readonly supplyPerOx: number;
+  readonly hasDiluent: boolean;
+}
+
+/** mole fractions of the fuel (F), oxidizer (X) and diluent (D) groups, from the dilution basis */
+function groupFractions(a: GroupArgs): { F: number; X: number; D: number } {
+  switch (a.basis.kind) {
+    case 'dilution':
+      return byDilution(a.basis.value, a);
+    case 'diluent-ratio':
+      return byDiluentRatio(a.basis.value, a);
+    case 'fuel-fraction':
+      return byFuelFraction(a.basis.value, a);
   }
-  const composition: Record<string, number> = {};
-  addInto(composition, fuel, F);
-  addInto(composition, oxidizer, X);
-  if (D > 0) addInto(composition, diluent, D);
-  // the groups, not each species of a blend: a trace inside a blend comes with it from a premix cylinder
-  checkTrace(
-    { fuel: F, oxidizer: X, diluent: D },
-    basis.kind === 'fuel-fraction'
-      ? 'fuel_fraction'
-      : basis.kind === 'diluent-ratio'
-        ? 'diluent_ratio'
-        : 'dilution',
-  );
-  return {
-    composition,
-    phi,
-    fuelFraction: F,
-    oxidizerFraction: X,
-    diluentFraction: D,
-    stoichO2PerFuel: needPerFuel,
-    groups: { fuel, oxidizer, diluent },
-  };
+}
+
+function byDilution(xd: number, a: GroupArgs): { F: number; X: number; D: number } {
+  if (!(xd >= 0 && xd < 1))
+    fail(
+      { code: 'out-of-range', what: 'dilution (diluent mole fraction)', value: xd, allowed: '[0, 1)' },
+      { field: 'dilution' },
+    );
+  if (xd > 0 && !a.hasDiluent)
+    fail({ code: 'design-missing', kind: 'diluent-for-dilution', dilution: xd }, { field: 'diluent' });
+  const F = (1 - xd) / (1 + a.oxPerFuel);
+  return { F, X: F * a.oxPerFuel, D: xd };
+}
+
+function byDiluentRatio(r: number, a: GroupArgs): { F: number; X: number; D: number } {
+  if (!(r >= 0) || !Number.isFinite(r) || r > DILUENT_RATIO_MAX)
+    fail(
+      {
+        code: 'out-of-range',
+        what: 'diluent ratio (mol diluent per mol O2)',
+        value: r,
+        allowed:
+          `0 to ${DILUENT_RATIO_MAX} (a larger ratio leaves less than 1 ppm of O2; ` +
+          `give such a mixture by its fractions)`,
+      },
+      { field: 'diluent_ratio' },
+    );
+  if (r > 0 && !a.hasDiluent)
+    fail({ code: 'design-missing', kind: 'diluent-for-ratio', ratio: r }, { field: 'diluent' });
+  // per mol fuel: oxPerFuel mol oxidizer carrying oxPerFuel * supplyPerOx mol O2-equivalent
+  const dPerFuel = r * a.oxPerFuel * a.supplyPerOx;
+  const F = 1 / (1 + a.oxPerFuel + dPerFuel);
+  return { F, X: F * a.oxPerFuel, D: F * dPerFuel };
+}
+
+function byFuelFraction(xf: number, a: GroupArgs): { F: number; X: number; D: number } {
+  if (!(xf > 0 && xf < 1))
+    fail(
+      { code: 'out-of-range', what: 'fuel fraction', value: xf, allowed: '(0, 1)' },
+      { field: 'fuel_fraction' },
+    );
+  const F = xf;
+  const X = xf * a.oxPerFuel;
+  let D = 1 - F - X;
+  if (D < -1e-12) {
+    fail(
+      {
+        code: 'design-conflict',
+        kind: 'fuel-fraction-too-large',
+        phi: a.phi,
+        fuelFraction: xf,
+        reactantFraction: F + X,
+        maxFuelFraction: 1 / (1 + a.oxPerFuel),
+      },
+      { field: 'fuel_fraction' },
+    );
+  }
+  D = Math.max(D, 0);
+  if (D > 1e-12 && !a.hasDiluent)
+    fail(
+      { code: 'design-missing', kind: 'diluent-for-fuel-fraction', fuelFraction: xf, diluentFraction: D },
+      { field: 'diluent' },
+    );
+  return { F, X, D };
 }
 
 /** sum and non-negativity check used by tests and by the planner's own guard */

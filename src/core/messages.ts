@@ -1,5 +1,5 @@
 /** The wording of every Problem, in one place. */
-import type { Problem, Where, WriteCause } from './problems.js';
+import type { PlannerProblem, Problem, Where, WriteCause } from './problems.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -33,6 +33,8 @@ const sentence = (reason: string): string =>
   /[.!?]$/.test(reason.trim()) ? reason.trim() : `${reason.trim()}.`;
 
 export function describeProblem(p: Problem): string {
+  // raised by the planner: the typed variants share their codes with the free-text forms
+  if (isPlannerProblem(p)) return describePlannerProblem(p);
   switch (p.code) {
     case 'unknown-species':
       return (
@@ -141,6 +143,106 @@ export function describeProblem(p: Problem): string {
       );
     case 'log-locked':
       return p.reason;
+  }
+}
+
+// raised by the planner
+// every kind with its code (the Record makes the compiler check the list), so the guard below knows them all
+const PLANNER_KINDS: Readonly<Record<PlannerProblem['kind'], PlannerProblem['code']>> = {
+  'not-a-fuel': 'design-conflict',
+  'fuel-in-oxidizer': 'design-conflict',
+  'reactive-diluent': 'design-conflict',
+  'oxidizer-without-oxygen': 'design-conflict',
+  'fuel-fraction-too-large': 'design-conflict',
+  'impurity-is-main-gas': 'design-conflict',
+  'impurities-over-purity': 'design-conflict',
+  'in-tank-excess': 'design-conflict',
+  'in-tank-at-final': 'design-conflict',
+  'split-charges': 'design-conflict',
+  'no-fills': 'design-missing',
+  'empty-blend': 'design-missing',
+  'diluent-for-dilution': 'design-missing',
+  'diluent-for-ratio': 'design-missing',
+  'diluent-for-fuel-fraction': 'design-missing',
+  'no-cylinder': 'no-supply',
+  temperature: 'model-range',
+  'non-ideal': 'model-range',
+};
+
+function isPlannerProblem(p: Problem): p is PlannerProblem {
+  // other problems have a `kind` too (unknown-reference): the code must match as well
+  return (
+    'kind' in p &&
+    typeof p.kind === 'string' &&
+    Object.hasOwn(PLANNER_KINDS, p.kind) &&
+    PLANNER_KINDS[p.kind as PlannerProblem['kind']] === p.code
+  );
+}
+
+function describePlannerProblem(p: PlannerProblem): string {
+  switch (p.kind) {
+    case 'not-a-fuel':
+      return `${p.species} is not a fuel (it needs no oxygen to burn); list it as oxidizer or diluent`;
+    case 'fuel-in-oxidizer':
+      return `${p.species} is a fuel and cannot be part of the oxidizer`;
+    case 'reactive-diluent':
+      return (
+        `${p.species} takes part in combustion and cannot be a diluent; ` +
+        `use an inert gas (Ar, He, N2, CO2, ...)`
+      );
+    case 'oxidizer-without-oxygen':
+      return 'the oxidizer carries no oxygen; it needs O2 (or N2O, NO)';
+    case 'fuel-fraction-too-large':
+      return (
+        `at phi ${p.phi} a fuel fraction of ${p.fuelFraction} leaves no room: fuel and oxidizer ` +
+        `alone would be ${p.reactantFraction.toFixed(4)} of the mixture; the largest fuel fraction ` +
+        `is ${p.maxFuelFraction.toFixed(5)}`
+      );
+    case 'impurity-is-main-gas':
+      return `cylinder ${p.cylinder} lists its own gas ${p.species} as an impurity`;
+    case 'impurities-over-purity':
+      return (
+        `cylinder ${p.cylinder}: impurities add up to ${p.impuritySum}, more than 1 - purity ` +
+        `= ${p.allowed.toPrecision(3)}`
+      );
+    case 'in-tank-excess':
+      return (
+        `the gas already in the tank holds more ${list(p.species)} than the finished ` +
+        `batch should; evacuate the tank or raise the final pressure`
+      );
+    case 'in-tank-at-final':
+      return 'the tank already holds gas at or above the final pressure; evacuate it or raise the final pressure';
+    case 'split-charges':
+      return (
+        `the fill sequence fills ${list(p.sources)} in more than one charge, which this version ` +
+        `does not plan; name every fill exactly once`
+      );
+    case 'no-fills':
+      return 'the plan has no fills';
+    case 'empty-blend':
+      return `${p.blend} names no species`;
+    case 'diluent-for-dilution':
+      return `dilution is ${p.dilution} but no diluent is named; add a diluent (e.g. Ar)`;
+    case 'diluent-for-ratio':
+      return `diluent ratio is ${p.ratio} but no diluent is named; add a diluent (e.g. N2)`;
+    case 'diluent-for-fuel-fraction':
+      return (
+        `the fuel fraction ${p.fuelFraction} leaves ${p.diluentFraction.toFixed(4)} of the mixture ` +
+        `for a diluent, but none is named`
+      );
+    case 'no-cylinder':
+      return `no source can supply ${p.species}: no cylinder in the lab profile carries it; add one under cylinders`;
+    case 'temperature':
+      return (
+        `a fill at ${p.temperatureK.toFixed(2)} K is outside the range the gas model is built ` +
+        `for (${p.minK}-${p.maxK} K); check the temperature and its unit`
+      );
+    case 'non-ideal':
+      return (
+        `the finished batch would have Z = ${p.compressibility.toFixed(4)}; the truncated virial ` +
+        `model is trusted only within ${p.maxDeviation * 100} % of ideal gas. Lower ` +
+        `the final pressure or plan this mixture with a full equation of state`
+      );
   }
 }
 

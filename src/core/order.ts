@@ -11,14 +11,17 @@
 import type { Fractions } from './composition.js';
 import type { GasSource } from './supply.js';
 import { reviewFill, reviewState, type FillEvent, type SafetyContext, type TankState } from './safety.js';
-import type { Finding } from './findings.js';
+import type { Finding, FindingCode } from './findings.js';
 import { reviewFillPath } from './fill-path.js';
 
 export interface OrderScore {
   readonly danger: number;
   readonly warning: number;
   readonly note: number;
-  /** of these, line condensation findings (counted in danger/warning too: a vapour filled early keeps its line below saturation) */
+  /**
+   * of these, line condensation findings (counted in danger/warning too: a vapour filled
+   * early keeps its line below saturation)
+   */
   readonly condensation: number;
   /** pairs out of smallest-first order */
   readonly inversions: number;
@@ -34,7 +37,8 @@ export interface OrderAdvice {
   readonly noSafeOrder: boolean;
 }
 
-const ORDER_RELEVANT: ReadonlySet<Finding['code']> = new Set<Finding['code']>([
+/** the finding codes an order can change (typed: a misspelt code does not compile) */
+const ORDER_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-state',
   'near-flammable',
   'detonable-state',
@@ -96,15 +100,26 @@ export function sequenceOf(
 /** findings of one fill and of the state after it, cached by which sources are in the tank: orders share them */
 type ReviewCache = Map<string, Finding[]>;
 
-function scoreOrder(
-  order: readonly GasSource[],
-  amounts: ReadonlyMap<GasSource, number>,
-  ascending: readonly GasSource[],
-  finalPa: number,
-  ctx: SafetyContext,
-  initial?: { composition: Fractions; amountMol: number },
-  cache: ReviewCache = new Map(),
-): OrderScore {
+/** what scoring one order needs */
+export interface ScoreRequest {
+  readonly order: readonly GasSource[];
+  /** mol each source delivers */
+  readonly amounts: ReadonlyMap<GasSource, number>;
+  /** the sources smallest amount first: the tie-break counts pairs out of this order */
+  readonly ascending: readonly GasSource[];
+  /** final tank pressure, Pa (states are placed at ideal-gas pressures on it) */
+  readonly finalPa: number;
+  readonly ctx: SafetyContext;
+  /** gas already in the tank, with its amount on the same scale */
+  readonly initial?: { composition: Fractions; amountMol: number };
+  /** reviews shared between the orders of one search (a fresh cache when absent) */
+  readonly cache?: ReviewCache;
+}
+
+/** the hazards of one order, counted by severity, with its inversions for the tie-break */
+export function scoreOrder(req: ScoreRequest): OrderScore {
+  const { order, amounts, ascending, finalPa, ctx, initial } = req;
+  const cache: ReviewCache = req.cache ?? new Map();
   const { fills } = sequenceOf(order, amounts, finalPa, initial);
   const index = new Map(ascending.map((s, i) => [s, i]));
   const hazards: Finding[] = [];
@@ -118,14 +133,16 @@ function scoreOrder(
     if (!found) {
       found = [];
       const after = f.after;
-      // in-tank condensation of an intermediate state is left out: once the vapour is in, its partial pressure is the same in every order
+      // in-tank condensation of an intermediate state is left out: once the vapour is in, its
+      // partial pressure is the same in every order
       if (!after.final)
         found.push(
           ...reviewState(after, ctx).findings.filter(
             (x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation',
           ),
         );
-      // the fill itself: its line (condensation, acetylene), compression heating, and its path in the tank and at the inlet
+      // the fill itself: its line (condensation, acetylene), compression heating, and its path
+      // in the tank and at the inlet
       found.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
       found.push(...reviewFillPath(f, ctx, false));
       cache.set(key, found);
@@ -171,10 +188,11 @@ export function adviseOrder(
   const candidates = sources.length <= MAX_EXHAUSTIVE ? permutations(ascending) : [ascending];
   let best = ascending;
   const cache: ReviewCache = new Map();
-  let bestScore = scoreOrder(ascending, amounts, ascending, finalPa, ctx, initial, cache);
+  const common = { amounts, ascending, finalPa, ctx, initial, cache };
+  let bestScore = scoreOrder({ order: ascending, ...common });
   const ascendingScore = bestScore;
   for (const c of candidates) {
-    const sc = scoreOrder(c, amounts, ascending, finalPa, ctx, initial, cache);
+    const sc = scoreOrder({ order: c, ...common });
     if (better(sc, bestScore)) {
       best = c;
       bestScore = sc;
@@ -193,7 +211,8 @@ export function adviseOrder(
     reason =
       `keeps every intermediate tank state and every fill path out of the flammable ` +
       `region and free of the hazards checked (fill lines included); the smallest-first ` +
-      `order (${names(ascending).join(', ')}) would give ${first ? `${first.code} after fill ${first.step}` : 'a hazardous state'}`;
+      `order (${names(ascending).join(', ')}) would give ` +
+      (first ? `${first.code} after fill ${first.step}` : 'a hazardous state');
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
     reason =
@@ -214,7 +233,7 @@ export function scoreGivenOrder(
 ): OrderScore {
   const amounts = new Map(order.map((s, i) => [s, amountsMol[i]]));
   const ascending = [...order].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
-  return scoreOrder(order, amounts, ascending, finalPa, ctx, initial);
+  return scoreOrder({ order, amounts, ascending, finalPa, ctx, initial });
 }
 
 export function isSaferThan(a: OrderScore, b: OrderScore): boolean {

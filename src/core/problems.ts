@@ -96,9 +96,81 @@ export type Problem =
       readonly tolerance: number;
     }
   /** another guided fill holds the batch log */
-  | { readonly code: 'log-locked'; readonly reason: string };
+  | { readonly code: 'log-locked'; readonly reason: string }
+  // raised by the planner
+  | PlannerProblem;
 
 export type ProblemCode = Problem['code'];
+
+/**
+ * The typed problems of the planner, design and supply (one variant per condition, its
+ * particulars as fields). They share their codes with the free-text forms above, so the
+ * printed error code stays what it was; `kind` tells the conditions apart.
+ */
+export type PlannerProblem =
+  | { readonly code: 'design-conflict'; readonly kind: 'not-a-fuel'; readonly species: string }
+  | { readonly code: 'design-conflict'; readonly kind: 'fuel-in-oxidizer'; readonly species: string }
+  | { readonly code: 'design-conflict'; readonly kind: 'reactive-diluent'; readonly species: string }
+  | { readonly code: 'design-conflict'; readonly kind: 'oxidizer-without-oxygen' }
+  | {
+      readonly code: 'design-conflict';
+      readonly kind: 'fuel-fraction-too-large';
+      readonly phi: number;
+      readonly fuelFraction: number;
+      /** fuel and oxidizer together at this fuel fraction */
+      readonly reactantFraction: number;
+      readonly maxFuelFraction: number;
+    }
+  | {
+      readonly code: 'design-conflict';
+      readonly kind: 'impurity-is-main-gas';
+      readonly cylinder: string;
+      readonly species: string;
+    }
+  | {
+      readonly code: 'design-conflict';
+      readonly kind: 'impurities-over-purity';
+      readonly cylinder: string;
+      readonly impuritySum: number;
+      /** 1 - purity */
+      readonly allowed: number;
+    }
+  /** the gas already in the tank holds more of these species than the finished batch should */
+  | { readonly code: 'design-conflict'; readonly kind: 'in-tank-excess'; readonly species: readonly string[] }
+  | {
+      readonly code: 'design-conflict';
+      readonly kind: 'in-tank-at-final';
+      readonly inTankPa: number;
+      readonly finalPa: number;
+    }
+  /** a source named in more than one charge: the planner plans one charge per source */
+  | { readonly code: 'design-conflict'; readonly kind: 'split-charges'; readonly sources: readonly string[] }
+  | { readonly code: 'design-missing'; readonly kind: 'no-fills' }
+  /** a blend (fuel, oxidizer, diluent or fractions) names no species */
+  | { readonly code: 'design-missing'; readonly kind: 'empty-blend'; readonly blend: string }
+  | { readonly code: 'design-missing'; readonly kind: 'diluent-for-dilution'; readonly dilution: number }
+  | { readonly code: 'design-missing'; readonly kind: 'diluent-for-ratio'; readonly ratio: number }
+  | {
+      readonly code: 'design-missing';
+      readonly kind: 'diluent-for-fuel-fraction';
+      readonly fuelFraction: number;
+      readonly diluentFraction: number;
+    }
+  | { readonly code: 'no-supply'; readonly kind: 'no-cylinder'; readonly species: string }
+  | {
+      readonly code: 'model-range';
+      readonly kind: 'temperature';
+      readonly temperatureK: number;
+      readonly minK: number;
+      readonly maxK: number;
+    }
+  | {
+      readonly code: 'model-range';
+      readonly kind: 'non-ideal';
+      readonly compressibility: number;
+      /** the largest |1 - Z| the truncated virial series is trusted for */
+      readonly maxDeviation: number;
+    };
 
 /**
  * Why a file was not written (the typed form that replaces the free-text reasons of

@@ -4,7 +4,7 @@
  * from each, by non-negative least squares on the species amounts.
  */
 import { nnls } from './nnls.js';
-import type { Fractions } from './composition.js';
+import { FRACTION_SUM_TOL, type Fractions } from './composition.js';
 import { fail } from './problems.js';
 
 export type SourceKind = 'cylinder' | 'premix' | 'vapour' | 'in-tank';
@@ -55,7 +55,7 @@ export function pureCylinder(args: {
       );
     if (k === args.species)
       fail(
-        { code: 'design-conflict', reason: `cylinder ${args.id} lists its own gas ${k} as an impurity` },
+        { code: 'design-conflict', kind: 'impurity-is-main-gas', cylinder: args.id, species: k },
         { field: 'impurities' },
       );
     impSum += v;
@@ -64,9 +64,10 @@ export function pureCylinder(args: {
     fail(
       {
         code: 'design-conflict',
-        reason:
-          `cylinder ${args.id}: impurities add up to ${impSum}, more than 1 - purity ` +
-          `= ${(1 - purity).toPrecision(3)}`,
+        kind: 'impurities-over-purity',
+        cylinder: args.id,
+        impuritySum: impSum,
+        allowed: 1 - purity,
       },
       { field: 'impurities' },
     );
@@ -93,7 +94,7 @@ export function premix(args: {
 }): GasSource {
   const entries = Object.entries(args.composition);
   const sum = entries.reduce((s, [, v]) => s + v, 0);
-  if (Math.abs(sum - 1) > 1e-6)
+  if (Math.abs(sum - 1) > FRACTION_SUM_TOL)
     fail({ code: 'fractions-sum', sum }, { field: `cylinders.${args.id}.composition` });
   const main = entries.reduce((a, b) => (b[1] > a[1] ? b : a))[0];
   return {
@@ -105,6 +106,27 @@ export function premix(args: {
     mainSpecies: main,
     supplyPressurePa: args.supplyPressurePa,
   };
+}
+
+/**
+ * A premix's major components: those of 1 % or more (our limit). They name the fill ("N2+O2"),
+ * let an order name the premix by one of them, and must match the design for the premix to be used.
+ */
+export const MAJOR_COMPONENT_FRACTION = 0.01;
+/** a premix is used when the design holds its major components in its ratios within this (relative) */
+export const PREMIX_RATIO_MATCH = 1e-3;
+
+function majorComponents(s: GasSource): [string, number][] {
+  return Object.entries(s.composition).filter(([, v]) => v >= MAJOR_COMPONENT_FRACTION);
+}
+
+/** how a fill is named: its gas, or for a premix its major gases ("N2+O2") */
+export function fillLabel(s: GasSource): string {
+  if (s.kind !== 'premix') return s.mainSpecies;
+  return majorComponents(s)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k]) => k)
+    .join('+');
 }
 
 export interface Allocation {
@@ -135,11 +157,7 @@ export function allocate(
       !sources.some((s) => (s.composition[sp] ?? 0) > 0) &&
       !(inTank && (inTank.composition[sp] ?? 0) > 0)
     ) {
-      fail({
-        code: 'no-supply',
-        species: sp,
-        reason: 'no cylinder in the lab profile carries it; add one under cylinders',
-      });
+      fail({ code: 'no-supply', kind: 'no-cylinder', species: sp });
     }
   }
   const A = designSpecies.map((sp) => sources.map((s) => (s.composition[sp] ?? 0) / design[sp]));
@@ -149,12 +167,7 @@ export function allocate(
   );
   if (b.some((v) => v < -1e-9 * totalMol)) {
     const over = designSpecies.filter((_, i) => b[i] < 0);
-    fail({
-      code: 'design-conflict',
-      reason:
-        `the gas already in the tank holds more ${over.join(', ')} than the finished ` +
-        `batch should; evacuate the tank or raise the final pressure`,
-    });
+    fail({ code: 'design-conflict', kind: 'in-tank-excess', species: over });
   }
   const { x } = nnls(A, b);
   const composition: Record<string, number> = {};
@@ -194,11 +207,11 @@ export function chooseSources(design: Fractions, available: readonly GasSource[]
   const chosen: GasSource[] = [];
   const premixes = available
     .filter((s) => s.kind === 'premix')
-    .map((s) => ({ s, major: Object.entries(s.composition).filter(([, v]) => v >= 0.01) }))
+    .map((s) => ({ s, major: majorComponents(s) }))
     .filter(({ major }) => major.length > 1 && major.every(([k]) => need.has(k)))
     .filter(({ major }) => {
       const [k0, v0] = major[0];
-      return major.every(([k, v]) => Math.abs(design[k] / design[k0] / (v / v0) - 1) <= 1e-3);
+      return major.every(([k, v]) => Math.abs(design[k] / design[k0] / (v / v0) - 1) <= PREMIX_RATIO_MATCH);
     })
     .sort((a, b) => b.major.length - a.major.length);
   for (const { s, major } of premixes) {
@@ -236,7 +249,7 @@ export function orderSources(
     const s =
       sources.find((x) => x.id === n) ??
       sources.find((x) => x.mainSpecies === key) ??
-      sources.find((x) => (x.composition[key] ?? 0) >= 0.01);
+      sources.find((x) => (x.composition[key] ?? 0) >= MAJOR_COMPONENT_FRACTION);
     if (!s) unknown.push(n);
     else if (picked.includes(s)) repeated.push(n);
     else picked.push(s);

@@ -1,0 +1,218 @@
+/**
+ * Stage 5 of the fill plan: the review of the whole planned fill. The tank rating, the
+ * gauges to isolate, the safety review of every state the fill passes through and of
+ * the path of every charge (at the real-gas pressures of the steps), the sources
+ * (assumed purities, impurities, a composition off the design), and the model itself
+ * (virial correlations, combining-rule cross coefficients, the error an ideal-gas plan
+ * would make). Findings only: the review never changes the steps.
+ */
+import { R } from '../constants.js';
+import type { VirialModel } from '../mixture-eos.js';
+import { virialU } from '../mixture-eos.js';
+import type { Finding } from '../findings.js';
+import { reviewFillSequence, type FillEvent, type TankState } from '../safety.js';
+import { reviewFillPath } from '../fill-path.js';
+import type { PlanBasis } from './validate.js';
+import type { PlanAmounts } from './amounts.js';
+import type { PlanSequence } from './sequence.js';
+import type { PlanSteps } from './steps.js';
+import { allowedDeviation, type PlanStep } from './types.js';
+
+/** what the review stage hands on */
+export interface PlanReview {
+  /** the review's own findings, in the order they are shown after those of the earlier stages */
+  readonly findings: readonly Finding[];
+  /** the sequence's reason, corrected where the full review contradicts it */
+  readonly orderReason: string;
+}
+
+/** below this mole fraction an impurity or an unidentified remainder is not reported */
+export const TRACE_FRACTION = 1e-7;
+
+/** a note is due when the combining-rule cross coefficients could move a target by more than this (relative) */
+export const CROSS_NOTE_RELATIVE = 1e-4;
+
+export function reviewPlan(
+  basis: PlanBasis,
+  amounts: PlanAmounts,
+  sequence: PlanSequence,
+  planned: PlanSteps,
+): PlanReview {
+  const { steps } = planned;
+  const findings: Finding[] = [...ratingFindings(basis, steps)];
+  for (const s of steps)
+    for (const g of s.isolateBefore)
+      findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
+  const safety = safetyFindings(basis, steps);
+  findings.push(...safety);
+  const orderReason = correctedReason(basis, sequence.reason, safety);
+  findings.push(...sourceFindings(basis, amounts, sequence));
+  findings.push(...modelFindings(basis, steps));
+  return { findings, orderReason };
+}
+
+/** the top of the last band over the tank's working limit */
+function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[] {
+  const { tank } = basis.input;
+  if (tank.ratedPressurePa === undefined || basis.workingLimitPa === undefined) return [];
+  const top = steps[steps.length - 1];
+  if (top.targetPa + top.bandPa <= basis.workingLimitPa) return [];
+  return [
+    {
+      severity: 'danger',
+      code: 'tank-over-rating',
+      step: top.index,
+      pressurePa: top.targetPa + top.bandPa,
+      limitPa: basis.workingLimitPa,
+      ratedPa: tank.ratedPressurePa,
+      tank: tank.id,
+    },
+  ];
+}
+
+/** the safety review of every state the fill passes through, and of each fill's path in the tank and at its inlet */
+export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[] {
+  const { initial } = basis;
+  const states: TankState[] = [];
+  const fills: FillEvent[] = [];
+  let before: TankState | undefined = initial
+    ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa, final: false }
+    : undefined;
+  if (before) states.push(before);
+  for (const s of steps) {
+    const after: TankState = {
+      step: s.index,
+      composition: s.compositionAfter,
+      pressurePa: s.targetPa,
+      final: s.index === steps.length,
+    };
+    states.push(after);
+    fills.push({
+      step: s.index,
+      sourceId: s.source.id,
+      sourceComposition: s.source.composition,
+      before,
+      after,
+    });
+    before = after;
+  }
+  const out = [...reviewFillSequence(states, fills, basis.safety)];
+  for (const f of fills) out.push(...reviewFillPath(f, basis.safety));
+  return out;
+}
+
+/**
+ * The advice ranks orders at ideal-gas pressures; where the full review of the planned fill
+ * still finds a path or line hazard, the stated reason must not say the order is free of them.
+ */
+function correctedReason(basis: PlanBasis, reason: string, safety: readonly Finding[]): string {
+  const left = safety.filter(
+    (f) =>
+      f.severity !== 'note' &&
+      (f.code === 'flammable-fill-path' ||
+        f.code === 'flammable-at-inlet' ||
+        (f.code === 'condensation' && f.inLine)),
+  );
+  if (basis.input.order !== 'recommend' || !left.length || !/free of the hazards checked/.test(reason))
+    return reason;
+  return (
+    `the least hazardous order found, but the full review of the planned fill ` +
+    `still finds ${[...new Set(left.map((f) => f.code))].join(', ')} (see the findings)`
+  );
+}
+
+/** assumed purities, unidentified remainders, impurities, and fractions the sources cannot meet */
+function sourceFindings(basis: PlanBasis, amounts: PlanAmounts, sequence: PlanSequence): Finding[] {
+  const { design, tolerance: tol } = basis.input;
+  const alloc = amounts.allocation;
+  const out: Finding[] = [];
+  for (const { source: s } of sequence.charges)
+    if (s.purityAssumed)
+      out.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
+  if (alloc.unidentified > TRACE_FRACTION)
+    out.push({ severity: 'note', code: 'unidentified-impurity', fraction: alloc.unidentified });
+  for (const [sp, x] of Object.entries(alloc.composition)) {
+    const xd = design.composition[sp] ?? 0;
+    if (xd === 0 && x > TRACE_FRACTION)
+      out.push({ severity: 'note', code: 'impurity-present', species: sp, fraction: x });
+    else if (xd > 0 && Math.abs(x - xd) > allowedDeviation(tol, xd))
+      out.push({ severity: 'warning', code: 'supply-mismatch', species: sp, design: xd, actual: x });
+  }
+  return out;
+}
+
+/** virial coefficients from a correlation, the combining-rule estimate, and the ideal-gas error */
+function modelFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[] {
+  const out: Finding[] = [];
+  for (const e of basis.model.entries) {
+    if (e.i === e.j && e.method !== 'reference')
+      out.push({
+        severity: 'note',
+        code: 'virial-correlation',
+        species: e.i,
+        method:
+          e.method === 'tsonopoulos-quantum'
+            ? 'Tsonopoulos (effective quantum-gas constants)'
+            : 'Tsonopoulos',
+      });
+  }
+  const crossShift = crossVirialShift(basis.model, steps, basis.temperatureK);
+  // a warning when it reaches a third of the band (the rule of gauge-coarser-than-band), else a note
+  if (crossShift && crossShift.relative > CROSS_NOTE_RELATIVE) {
+    out.push({
+      severity: crossShift.shiftPa * 3 >= crossShift.bandPa ? 'warning' : 'note',
+      code: 'cross-virial-estimate',
+      ...crossShift,
+    });
+  }
+  let worst = 0;
+  let worstBand = Infinity;
+  for (const s of steps) {
+    const d = Math.abs(s.targetPa - s.idealTargetPa);
+    if (d > worst) {
+      worst = d;
+      worstBand = s.bandPa;
+    }
+  }
+  if (worst > worstBand)
+    out.push({ severity: 'warning', code: 'ideal-gas-error', worstPa: worst, bandPa: worstBand });
+  return out;
+}
+
+interface CrossShift {
+  readonly step: number;
+  readonly pairs: string[];
+  readonly relative: number;
+  readonly shiftPa: number;
+  readonly bandPa: number;
+}
+
+/**
+ * How far the combining-rule cross coefficients could move the targets: rho dB at the step
+ * where it is largest, dB = sqrt(sum (2 y_i y_j u_ij)^2) over the pairs of species at 1e-4 or more.
+ */
+export function crossVirialShift(
+  model: VirialModel,
+  steps: readonly PlanStep[],
+  temperatureK: number,
+): CrossShift | undefined {
+  let best: CrossShift | undefined;
+  for (const s of steps) {
+    const y = s.compositionAfter;
+    const rho = s.targetPa / (s.compressibilityAfter * R * temperatureK);
+    let v = 0;
+    const pairs: string[] = [];
+    for (const e of model.entries) {
+      if (e.i === e.j || e.method !== 'combining-rule') continue;
+      const yi = y[e.i] ?? 0;
+      const yj = y[e.j] ?? 0;
+      if (yi < 1e-4 || yj < 1e-4) continue;
+      v += (2 * yi * yj * virialU(e)) ** 2;
+      pairs.push(`${e.i}-${e.j}`);
+    }
+    const relative = rho * Math.sqrt(v);
+    if (pairs.length && (!best || relative > best.relative))
+      best = { step: s.index, pairs, relative, shiftPa: relative * s.targetPa, bandPa: s.bandPa };
+  }
+  return best;
+}
