@@ -141,6 +141,46 @@ export function describeProblem(p: Problem): string {
       );
     // raised by the batch log and the guided fill
     case 'log-locked':
+    case 'log-changed':
+    case 'log-torn-tail':
+    case 'log-header-torn':
+    case 'torn-tail-stuck':
+    case 'log-released':
+    case 'lock-unwritable':
+    case 'lock-unreadable':
+    case 'lock-contended':
+    case 'log-not-found':
+    case 'log-not-file':
+    case 'log-unopenable':
+    case 'amend-not-in-force':
+    case 'withdraw-not-last':
+    case 'reading-missing':
+      return describeLogProblem(p);
+  }
+}
+
+// raised by the batch log and the guided fill
+type LogProblem = Extract<Problem, { code: LogProblemCode }>;
+type LogProblemCode =
+  | 'log-locked'
+  | 'log-changed'
+  | 'log-torn-tail'
+  | 'log-header-torn'
+  | 'torn-tail-stuck'
+  | 'log-released'
+  | 'lock-unwritable'
+  | 'lock-unreadable'
+  | 'lock-contended'
+  | 'log-not-found'
+  | 'log-not-file'
+  | 'log-unopenable'
+  | 'amend-not-in-force'
+  | 'withdraw-not-last'
+  | 'reading-missing';
+
+function describeLogProblem(p: LogProblem): string {
+  switch (p.code) {
+    case 'log-locked':
       if (p.held === 'this-process')
         return `this program already has the batch log open for a fill (lock ${p.lockFile})`;
       return (
@@ -211,7 +251,6 @@ export function describeProblem(p: Problem): string {
   }
 }
 
-// raised by the batch log and the guided fill
 function holderText(h: { pid: number; host: string; started: string }): string {
   return `process ${h.pid} on host ${h.host}, started ${h.started}`;
 }
