@@ -697,7 +697,21 @@ function afterDoubt(s: FillState, p: Pending, now: string): FillState {
 /** the vent-back advice for a reading past the limit, and whether the composition from there is within the tolerance */
 function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLimit {
   const done = [...s.done, reading];
-  const v = ventBack({ ...retargetInput(s, done, reading.temperatureK), workingLimitPa: limit });
+  let v: ReturnType<typeof ventBack>;
+  try {
+    v = ventBack({ ...retargetInput(s, done, reading.temperatureK), workingLimitPa: limit });
+  } catch (e) {
+    if (!(e instanceof ProblemError) || e.problem.code !== 'not-converged') throw e;
+    // no vent lets the remaining fills go on within the limit: the hard stop stands, with a vent
+    // to just below the limit and the reason why nothing can follow
+    return {
+      limitPa: limit,
+      ventToPa: limit * (1 - 1e-3),
+      after: `no further fill can be re-targeted within the limit (${describeProblem(e.problem)})`,
+      within: false,
+      outside: [],
+    };
+  }
   const deviations = deviationsOf(v.after.predicted.composition, s);
   const outside = deviations.filter((d) => !d.within).map((d) => d.species);
   return {
