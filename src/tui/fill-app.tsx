@@ -400,7 +400,8 @@ function BelowScreen({ state }: ScreenProps) {
       <Text wrap="wrap">
         Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB):
         it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw
-        the reading) close INITIALS (close the batch below the target; the re-check judges it)
+        the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the target; the
+        re-check judges it)
       </Text>
       <ReadingFields
         state={state}

@@ -1079,10 +1079,28 @@ function onCorrectEnter(s: FillState, now: string): FillState {
       `fill ${c.step} corrected by ${c.by}: ${old.text} -> ${p.done.text} (the ` +
       `original stays in the log)${over}`,
   };
-  if (next.current >= s.setup.steps.length)
-    return { ...finish({ ...next, effects: [event] }), message: next.message };
+  if (next.current >= s.setup.steps.length) return afterBelowCorrection(next, now);
   next = rejudge(next);
   return enterStep({ ...next, phase: 'reading' });
+}
+
+/**
+ * a correction made from the below-target screen (every fill read, the batch open): the last fill's
+ * target follows the corrected readings; still below its band, the screen stays; else the batch closes
+ */
+function afterBelowCorrection(next: FillState, now: string): FillState {
+  const K = next.setup.steps.length;
+  const before: FillState = { ...next, done: next.done.slice(0, -1), current: K - 1 };
+  const prior = before.done.length
+    ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
+    : before.targetsPa;
+  const step = next.setup.steps[K - 1];
+  const last = next.done[K - 1];
+  const target = prior[K - 1];
+  const text = next.message ?? '';
+  if (last.pressurePa - target < -step.bandPa)
+    return belowBand({ ...next, targetsPa: prior }, step, target, text);
+  return { ...finish({ ...next, targetsPa: prior }, now), message: text };
 }
 
 export function fillReducer(s: FillState, a: FillAction): FillState {
@@ -1145,7 +1163,7 @@ function onEscape(base: FillState): FillState {
   if (base.phase === 'correct')
     return {
       ...base,
-      phase: 'reading',
+      phase: base.current >= base.setup.steps.length ? 'below' : 'reading',
       correcting: undefined,
       input: '',
       temperatureText: degC(base.targetTemperatureK),
@@ -1376,19 +1394,14 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `the re-check below judges the tank as it is`,
     };
   }
-  if (/^fix\b/i.test(text))
-    return {
-      ...s,
-      error:
-        'on this screen: type the new reading after adding gas, undo INITIALS, or ' +
-        'close INITIALS; undo first to correct an earlier fill',
-    };
-  if (/^undo\b/i.test(text)) return onCommand(s, text, now) ?? s;
+  if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text, now) ?? s;
   const w = withInitials(text, 'new reading after adding gas', '1500.2 AB');
   if ('error' in w)
     return {
       ...s,
-      error: `${w.error}; or undo INITIALS, or close INITIALS (closes the batch below the target)`,
+      error:
+        `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or close INITIALS ` +
+        `(closes the batch below the target)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return { ...s, error: parsed.error };
@@ -1444,15 +1457,19 @@ function onBelowEnter(s: FillState, now: string): FillState {
     `replaces ${last.text}; the log keeps both): ${signed(fromPa(deviation, unit))} ` +
     `${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
   const next: FillState = { ...s, done, input: '', effects: [event] };
-  if (over)
+  if (over) {
+    // the same hard stop as any reading past the limit: logged now, then vent, accept or edit
+    const before: FillState = { ...s, done: s.done.slice(0, -1), current: s.done.length - 1, input: '' };
+    const reading = done[done.length - 1];
     return {
-      ...finish(next, now, `fill ${step.index} read above the working limit after more gas was added`),
-      message:
-        `${pressureText}. DANGER: ${fmtIn(absolute, unit)} absolute is ABOVE the ` +
-        `working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: close ` +
-        `the valves; vent or pump the tank back before it is used, and have it inspected ` +
-        `under local practice`,
+      ...before,
+      phase: 'over-limit',
+      pending: { event, done: reading, typed: w.value, logged: true },
+      effects: [event],
+      overLimit: overLimitOf(before, reading, limit),
+      message: pressureText,
     };
+  }
   if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
   return { ...finish(next, now), message: pressureText };
 }
