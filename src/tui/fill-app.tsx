@@ -20,6 +20,7 @@ import { splitChunk } from './keys.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import type { ParsedLog } from '../io/batch-log.js';
+import { describeProblem, type Problem } from '../core/index.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -188,7 +189,7 @@ export function applyActions(
         if (w && (e.kind === 'reading' || e.kind === 'correction'))
           lines.push({ step: e.step, line: w.line });
       } catch (err) {
-        failed = (err as Error).message;
+        failed = failureText(err);
         failedKind = e.kind;
         break;
       }
@@ -210,6 +211,16 @@ export function applyActions(
         : next;
   }
   return s;
+}
+
+/**
+ * why a write failed, in words: a problem (recognised by shape: the log writer may come from
+ * another bundle's copy of the core) is worded by describeProblem, not shown as its bare code
+ */
+function failureText(err: unknown): string {
+  const p = (err as { problem?: Problem })?.problem;
+  if (p && typeof p === 'object' && typeof p.code === 'string') return describeProblem(p);
+  return (err as Error)?.message ?? String(err);
 }
 
 interface ScreenProps {
