@@ -1,5 +1,5 @@
 /** The wording of every Problem, in one place. */
-import type { PlannerProblem, Problem, Where, WriteCause } from './problems.js';
+import type { LogFault, PlannerProblem, Problem, Where, WriteCause } from './problems.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -83,7 +83,7 @@ export function describeProblem(p: Problem): string {
     case 'unknown-key':
       return `unknown key "${p.key}"; allowed here: ${list(p.allowed)}`;
     case 'schema':
-      return p.reason;
+      return 'log' in p ? describeLogFault(p.log) : p.reason;
     case 'yaml-syntax':
       return `not valid YAML: ${p.reason}`;
     case 'file-unreadable':
@@ -141,8 +141,154 @@ export function describeProblem(p: Problem): string {
         `${formatNumber(p.residual)} against a tolerance of ${formatNumber(p.tolerance)}. No result is ` +
         `given; check the inputs for an extreme state, and report it to the maintainers if they are ordinary`
       );
+    // raised by the batch log and the guided fill
     case 'log-locked':
-      return p.reason;
+    case 'log-changed':
+    case 'log-torn-tail':
+    case 'log-header-torn':
+    case 'torn-tail-stuck':
+    case 'log-released':
+    case 'lock-unwritable':
+    case 'lock-unreadable':
+    case 'lock-contended':
+    case 'log-not-found':
+    case 'log-not-file':
+    case 'log-unopenable':
+    case 'amend-not-in-force':
+    case 'withdraw-not-last':
+    case 'reading-missing':
+      return describeLogProblem(p);
+  }
+}
+
+// raised by the batch log and the guided fill
+type LogProblem = Extract<Problem, { code: LogProblemCode }>;
+type LogProblemCode =
+  | 'log-locked'
+  | 'log-changed'
+  | 'log-torn-tail'
+  | 'log-header-torn'
+  | 'torn-tail-stuck'
+  | 'log-released'
+  | 'lock-unwritable'
+  | 'lock-unreadable'
+  | 'lock-contended'
+  | 'log-not-found'
+  | 'log-not-file'
+  | 'log-unopenable'
+  | 'amend-not-in-force'
+  | 'withdraw-not-last'
+  | 'reading-missing';
+
+function describeLogProblem(p: LogProblem): string {
+  switch (p.code) {
+    case 'log-locked':
+      if (p.held === 'this-process')
+        return `this program already has the batch log open for a fill (lock ${p.lockFile})`;
+      return (
+        `another guided fill holds this batch log: ${holderText(p.holder)} (lock ${p.lockFile}). ` +
+        (p.held === 'another-host'
+          ? `Only one fill may write a log. A lock from another computer cannot be checked from here; `
+          : `Finish or stop that fill first; `) +
+        removeLock(p.lockFile)
+      );
+    case 'log-changed':
+      return (
+        `the log changed on disk since it was read (${p.bytes} bytes, expected ${p.expectedBytes}): ` +
+        `another program wrote to it. Nothing was appended, so the event was NOT logged; stop and look at the file`
+      );
+    case 'log-torn-tail':
+      return (
+        `the last line of the log (line ${p.line}) is incomplete; \`mixwright fill --resume\` moves ` +
+        `it aside first. Nothing was appended, so the event was NOT logged`
+      );
+    case 'log-header-torn':
+      return 'the log holds no complete line (its header was cut off); it cannot be resumed. Start a new batch';
+    case 'torn-tail-stuck':
+      return (
+        `the incomplete last line was saved to ${p.sideFile} but could not be cut off the ` +
+        `log: ${describeWriteCause(p.cause)}. Nothing was appended`
+      );
+    case 'log-released':
+      return 'the log was released by this fill; open it again to write. The event was NOT logged';
+    case 'lock-unwritable':
+      return (
+        `the lock file ${p.lockFile} cannot be ${p.stage === 'create' ? 'made' : 'written'}: ` +
+        `${describeWriteCause(p.cause)}; the log was not opened for the fill`
+      );
+    case 'lock-unreadable':
+      return (
+        `the batch log ${p.log} has a lock file that cannot be read (${p.lockFile}), ` +
+        `so another fill may hold it; ${removeLock(p.lockFile)}`
+      );
+    case 'lock-contended':
+      return (
+        `could not take the lock ${p.lockFile} in ${p.attempts} attempts: other fills keep taking it; ` +
+        removeLock(p.lockFile)
+      );
+    case 'log-not-found':
+      return 'cannot read the file: no such file';
+    case 'log-not-file':
+      return 'cannot read the file: not a regular file';
+    case 'log-unopenable':
+      return `cannot read the file: ${p.message} (${p.errno})`;
+    case 'amend-not-in-force':
+      return (
+        'not logged: ' +
+        (p.named === null
+          ? `it amends step ${p.step}, which has no reading in force`
+          : `it amends step ${p.step} naming line ${p.named}, but the reading in force for that step ` +
+            `is ${p.inForce === null ? 'none' : `on line ${p.inForce}`}`)
+      );
+    case 'withdraw-not-last':
+      return (
+        `not logged: it withdraws the reading of step ${p.step}, but step ${p.later} was already ` +
+        `filled after it; only the last reading can be withdrawn`
+      );
+    case 'reading-missing':
+      return (
+        `cannot read "" as a ${p.expected}: type the reading first. Give a number and a unit, ` +
+        `e.g. ${exampleFor(p.expected)}`
+      );
+  }
+}
+
+function holderText(h: { pid: number; host: string; started: string }): string {
+  return `process ${h.pid} on host ${h.host}, started ${h.started}`;
+}
+
+const removeLock = (lockFile: string): string =>
+  `if you are sure no fill is running on it, delete ${lockFile} and try again`;
+
+function describeLogFault(f: LogFault): string {
+  switch (f.kind) {
+    case 'not-json':
+      return 'not a JSON object; a batch log has one JSON event per line';
+    case 'no-header':
+      return 'the first line of a batch log must be its "batch" header';
+    case 'unknown-format':
+      return `unknown log format "${f.format}"; this version reads ${f.reads}`;
+    case 'newer-format':
+      return `the log is format ${f.format}, newer than this version of mixwright reads (${f.reads}); update mixwright`;
+    case 'invalid-event':
+      return `bad ${f.event}: ${f.path || '(event)'}: ${f.message}`;
+    case 'second-reading':
+      return (
+        `step ${f.step} has a second reading; a changed reading is logged as ` +
+        `a "correction", a taken-back one as a "withdraw"`
+      );
+    case 'correction-incomplete':
+      return f.missing === 'by'
+        ? 'a correction names who made it ("by": initials)'
+        : f.missing === 'reason'
+          ? 'a correction needs its reason ("reason")'
+          : 'a correction names the line of the reading it replaces ("replaces_line")';
+    case 'start-after-reading':
+      return 'the starting pressure of a top-up is read before the first fill; this one comes after a reading';
+    case 'unknown-event':
+      return `unknown event kind "${f.eventKind}"`;
+    case 'empty':
+      return 'the log is empty (it holds no complete line)';
   }
 }
 
@@ -268,6 +414,9 @@ function describeWriteCause(c: WriteCause): string {
       return 'the file is not there after writing it';
     case 'system':
       return `${c.message} (${c.errno})`;
+    // raised by the batch log
+    case 'log-exists':
+      return 'a batch log of that name exists already; it is never overwritten - choose another batch id';
   }
 }
 

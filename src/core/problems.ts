@@ -95,10 +95,85 @@ export type Problem =
       readonly residual: number;
       readonly tolerance: number;
     }
-  /** another guided fill holds the batch log */
-  | { readonly code: 'log-locked'; readonly reason: string }
+  // raised by the batch log and the guided fill
+  /** another guided fill (another process, here or on another host) holds the batch log */
+  | {
+      readonly code: 'log-locked';
+      readonly log: string;
+      readonly lockFile: string;
+      readonly holder: LockHolder;
+      /**
+       * another-host: whether it still runs cannot be checked from here; this-process: this very
+       * program has the log open for a fill already; running: a live process on this host
+       */
+      readonly held: 'another-host' | 'this-process' | 'running';
+    }
+  /** a batch log line that breaks the log format, typed by its fault (the code stays `schema`) */
+  | { readonly code: 'schema'; readonly log: LogFault }
+  /** the log's size on disk is not what this fill read and wrote: another program wrote to it */
+  | { readonly code: 'log-changed'; readonly bytes: number; readonly expectedBytes: number }
+  /** the log's last line is incomplete (cut off mid-write); only a resumed fill moves it aside */
+  | { readonly code: 'log-torn-tail'; readonly line: number }
+  /** the log holds no complete line: its header was cut off mid-write */
+  | { readonly code: 'log-header-torn' }
+  /** a torn last line was saved to a side file, but cutting it off the log failed */
+  | { readonly code: 'torn-tail-stuck'; readonly sideFile: string; readonly cause: WriteCause }
+  /** an append through a fill's handle after the fill released the log */
+  | { readonly code: 'log-released' }
+  /** the lock file of a fill could not be made or written; no fill was started */
+  | {
+      readonly code: 'lock-unwritable';
+      readonly lockFile: string;
+      readonly stage: 'create' | 'write';
+      readonly cause: WriteCause;
+    }
+  /** a lock file beside the log that cannot be read: another fill may hold the log */
+  | { readonly code: 'lock-unreadable'; readonly log: string; readonly lockFile: string }
+  /** the lock kept being taken by other fills while this one tried to take it */
+  | { readonly code: 'lock-contended'; readonly lockFile: string; readonly attempts: number }
+  /** the batch log to open for a fill is not there, or not a regular file, or cannot be opened */
+  | { readonly code: 'log-not-found' }
+  | { readonly code: 'log-not-file' }
+  | { readonly code: 'log-unopenable'; readonly errno: string; readonly message: string }
+  /** a correction or withdrawal that names anything but the reading in force for its step */
+  | {
+      readonly code: 'amend-not-in-force';
+      readonly step: number;
+      readonly named: number | null;
+      readonly inForce: number | null;
+    }
+  /** a withdrawal of a reading that is not the last one (a later step was filled after it) */
+  | { readonly code: 'withdraw-not-last'; readonly step: number; readonly later: number }
+  /** Enter on an empty reading field */
+  | { readonly code: 'reading-missing'; readonly expected: string }
   // raised by the planner
   | PlannerProblem;
+
+/** who holds a batch log's lock: from the lock file */
+export interface LockHolder {
+  readonly pid: number;
+  readonly host: string;
+  readonly started: string;
+}
+
+/** how a batch log line breaks the log format */
+export type LogFault =
+  | { readonly kind: 'not-json' }
+  | { readonly kind: 'no-header' }
+  | { readonly kind: 'unknown-format'; readonly format: string; readonly reads: string }
+  | { readonly kind: 'newer-format'; readonly format: string; readonly reads: string }
+  /** the event does not match its schema; `message` is the schema library's own */
+  | {
+      readonly kind: 'invalid-event';
+      readonly event: string;
+      readonly path: string;
+      readonly message: string;
+    }
+  | { readonly kind: 'second-reading'; readonly step: number }
+  | { readonly kind: 'correction-incomplete'; readonly missing: 'by' | 'reason' | 'replaces_line' }
+  | { readonly kind: 'start-after-reading' }
+  | { readonly kind: 'unknown-event'; readonly eventKind: string }
+  | { readonly kind: 'empty' };
 
 export type ProblemCode = Problem['code'];
 
@@ -185,7 +260,9 @@ export type WriteCause =
   | { readonly kind: 'folder-not-writable'; readonly folder: string }
   | { readonly kind: 'short-write'; readonly written: number; readonly expected: number }
   | { readonly kind: 'missing-after-write' }
-  | { readonly kind: 'system'; readonly errno: string; readonly message: string };
+  | { readonly kind: 'system'; readonly errno: string; readonly message: string }
+  /** a batch log of that name exists (raised by the batch log: a log is never overwritten) */
+  | { readonly kind: 'log-exists' };
 
 export class ProblemError extends Error {
   readonly problem: Problem;

@@ -16,6 +16,7 @@ import { bMix, cMix, densityFromPressure, pressureFromDensity, virialModel } fro
 import { inverseSetup, invertReadings } from './recheck.js';
 import type { GasSource } from './supply.js';
 import type { Tolerance } from './planner.js';
+import { fail } from './problems.js';
 
 export interface RetargetInput {
   readonly design: Design;
@@ -74,25 +75,107 @@ const W_DIL = 1e3;
 const W_TOTAL = 1;
 const W_SPECIES = 1e-3;
 
+/** the problem the remaining fills are solved in: species, what is in the tank now, what each fill adds */
+interface RetargetProblem {
+  readonly input: RetargetInput;
+  readonly species: readonly string[];
+  readonly model: ReturnType<typeof virialModel>;
+  readonly T: number;
+  readonly V: number;
+  /** amount of each species in the tank now (after the readings, and the vent if any), mol */
+  readonly have: Float64Array;
+  /** molar density in the tank now, mol/m^3 */
+  readonly rhoNow: number;
+  readonly rest: readonly GasSource[];
+  /** the species amounts one mole of each remaining fill adds */
+  readonly w: readonly Float64Array[];
+  /** target total amount at the design pressure, with the design composition, mol */
+  readonly Ntarget: number;
+  readonly dil: ReadonlySet<string>;
+  /** oxygen demand of each species, and of the design's fuel at Ntarget */
+  readonly d: readonly number[];
+  readonly fuelDemand: number;
+}
+
+type Prediction = {
+  n: Float64Array;
+  comp: Record<string, number>;
+  P: number;
+  phi: number | undefined;
+  dilF: number;
+};
+
+/** iterations of the search for amounts that end at the working limit (aim, then scale back) */
+const AIM_ITERATIONS = 8;
+const SCALE_HALVINGS = 60;
+
 export function retarget(input: RetargetInput): RetargetResult {
-  const { design, sources, done, volumeM3: V } = input;
-  const m = done.length;
+  const pr = retargetProblem(input);
+  const { rest, T } = pr;
+  const limit = input.workingLimitPa;
+  // significant digits without an exponent (205050 Pa, not 2.0505e+5 Pa)
+  const fmtP = input.formatPressure ?? ((p: number) => `${Number(p.toPrecision(5))} Pa`);
+  const haveComp = compOf(pr, pr.have);
+  const filled = input.done.length > 0 || input.initial !== undefined;
+  const nowPa = filled
+    ? pressureFromDensity(pr.rhoNow, T, bMix(pr.model, haveComp), cMix(pr.model, haveComp))
+    : 0;
+  const { a, pred, limitBinds } = amountsWithinLimit(pr, nowPa);
+  const gave = gaveOf(pr, pred);
+  const atLimit = limit !== undefined && nowPa >= limit;
+  const message = atLimit
+    ? `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}` +
+      (rest.length === 0 ? '' : `: no further fill can be made within the limit`)
+    : messageOf(pr, pred, gave, limitBinds, fmtP);
+  return {
+    remaining: remainingTargets(pr, a, filled),
+    predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P },
+    gave,
+    limitBinds,
+    nowPa,
+    message,
+  };
+}
+
+function retargetProblem(input: RetargetInput): RetargetProblem {
+  const { design, sources, volumeM3: V } = input;
   const T = input.temperatureK;
-  const init = input.initial;
   const species = [
     ...new Set([
       ...sources.flatMap((s) => Object.keys(s.composition)),
       ...Object.keys(design.composition),
-      ...Object.keys(init?.composition ?? {}),
+      ...Object.keys(input.initial?.composition ?? {}),
     ]),
   ];
-  const S = species.length;
   const model = virialModel(species, T);
-  // what is in the tank now (mol)
-  const have = new Float64Array(S);
-  let rhoNow = 0;
   const f = input.ventFactor ?? 1;
   if (!(f > 0 && f <= 1)) throw new RangeError(`ventFactor ${f} must be in (0, 1]`);
+  const { have, rhoNow } = tankNow(input, species, f);
+  const rest = sources.slice(input.done.length);
+  const w = rest.map((s) => {
+    const v = new Float64Array(species.length);
+    for (const [k, x] of Object.entries(s.composition)) v[species.indexOf(k)] += x;
+    v[species.indexOf(s.mainSpecies)] += s.unidentified;
+    return v;
+  });
+  const yd = design.composition;
+  const Ntarget = densityFromPressure(input.finalPressurePa, T, bMix(model, yd), cMix(model, yd)) * V;
+  const dil = new Set(Object.keys(design.groups.diluent));
+  const d = species.map((k) => oxygenDemand(getSpecies(k).elements));
+  const fuelDemand = species.reduce((a, k, i) => a + Math.max(d[i], 0) * (yd[k] ?? 0), 0) * Ntarget;
+  return { input, species, model, T, V, have, rhoNow, rest, w, Ntarget, dil, d, fuelDemand };
+}
+
+/** what is in the tank now (mol of each species, and the molar density), scaled by the vent factor f */
+function tankNow(
+  input: RetargetInput,
+  species: readonly string[],
+  f: number,
+): { have: Float64Array; rhoNow: number } {
+  const { sources, done, volumeM3: V } = input;
+  const init = input.initial;
+  const m = done.length;
+  const have = new Float64Array(species.length);
   if (m > 0) {
     const setup = inverseSetup(
       sources
@@ -112,10 +195,11 @@ export function retarget(input: RetargetInput): RetargetResult {
       done.map((d) => d.pressurePa),
     );
     setup.species.forEach((k, i) => (have[species.indexOf(k)] = res.amounts[i] * V * f));
-    rhoNow = res.rho[m - 1] * f;
-  } else if (init) {
+    return { have, rhoNow: res.rho[m - 1] * f };
+  }
+  if (init) {
     // the gas already in the tank, from its reading at its own temperature
-    const m0 = virialModel(species, init.temperatureK);
+    const m0 = virialModel([...species], init.temperatureK);
     const rho0 = densityFromPressure(
       init.pressurePa,
       init.temperatureK,
@@ -123,185 +207,200 @@ export function retarget(input: RetargetInput): RetargetResult {
       cMix(m0, init.composition),
     );
     for (const [k, y] of Object.entries(init.composition)) have[species.indexOf(k)] += y * rho0 * V * f;
-    rhoNow = rho0 * f;
+    return { have, rhoNow: rho0 * f };
   }
-  const rest = sources.slice(m);
-  const w = rest.map((s) => {
-    const v = new Float64Array(S);
-    for (const [k, x] of Object.entries(s.composition)) v[species.indexOf(k)] += x;
-    v[species.indexOf(s.mainSpecies)] += s.unidentified;
-    return v;
-  });
-  // target total amount at the design pressure, with the design composition
+  return { have, rhoNow: 0 };
+}
+
+/** the weighted least-squares solve for the amounts of the remaining fills, aiming the total at totalTarget */
+function solveAmounts(pr: RetargetProblem, totalTarget: number, totalWeight: number): number[] {
+  const { species, have, w, Ntarget, dil, d, fuelDemand } = pr;
+  const { design } = pr.input;
   const yd = design.composition;
-  const Ntarget = densityFromPressure(input.finalPressurePa, T, bMix(model, yd), cMix(model, yd)) * V;
-  const d = species.map((k) => oxygenDemand(getSpecies(k).elements));
   const phi = design.phi;
-  const dil = new Set(Object.keys(design.groups.diluent));
   const xd = design.diluentFraction;
-  const fuelDemand = species.reduce((a, k, i) => a + Math.max(d[i], 0) * (yd[k] ?? 0), 0) * Ntarget;
-
-  const solve = (totalTarget: number, totalWeight: number) => {
-    const rows: number[][] = [];
-    const rhs: number[] = [];
-    const addRow = (coef: (i: number) => number, constant: number, scale: number, weight: number) => {
-      rows.push(w.map((wj) => (weight * wj.reduce((a, v, i) => a + v * coef(i), 0)) / scale));
-      rhs.push((weight * -constant) / scale);
-    };
-    const constantOf = (coef: (i: number) => number) => have.reduce((a, v, i) => a + v * coef(i), 0);
-    if (phi !== undefined && fuelDemand > 0) {
-      const g = (i: number) => Math.max(d[i], 0) + phi * Math.min(d[i], 0);
-      addRow(g, constantOf(g), fuelDemand, W_PHI);
-    }
-    if (dil.size > 0) {
-      const g = (i: number) => (dil.has(species[i]) ? 1 : 0) - xd;
-      addRow(g, constantOf(g), Ntarget, W_DIL);
-    }
-    const one = () => 1;
-    addRow(one, constantOf(one) - totalTarget, Ntarget, totalWeight);
-    for (const [k, x] of Object.entries(yd)) {
-      if (!(x > 0)) continue;
-      const idx = species.indexOf(k);
-      const g = (i: number) => (i === idx ? 1 : 0);
-      addRow(g, constantOf(g) - x * totalTarget, Ntarget * x, W_SPECIES);
-    }
-    return rest.length ? nnls(rows, rhs).x : [];
+  const rows: number[][] = [];
+  const rhs: number[] = [];
+  const addRow = (coef: (i: number) => number, constant: number, scale: number, weight: number) => {
+    rows.push(w.map((wj) => (weight * wj.reduce((a, v, i) => a + v * coef(i), 0)) / scale));
+    rhs.push((weight * -constant) / scale);
   };
-
-  function compOf(v: Float64Array): Record<string, number> {
-    const t = v.reduce((p, q) => p + q, 0);
-    const c: Record<string, number> = {};
-    species.forEach((k, i) => {
-      if (v[i] > 0) c[k] = v[i] / t;
-    });
-    return c;
+  const constantOf = (coef: (i: number) => number) => have.reduce((a, v, i) => a + v * coef(i), 0);
+  if (phi !== undefined && fuelDemand > 0) {
+    const g = (i: number) => Math.max(d[i], 0) + phi * Math.min(d[i], 0);
+    addRow(g, constantOf(g), fuelDemand, W_PHI);
   }
+  if (dil.size > 0) {
+    const g = (i: number) => (dil.has(species[i]) ? 1 : 0) - xd;
+    addRow(g, constantOf(g), Ntarget, W_DIL);
+  }
+  const one = () => 1;
+  addRow(one, constantOf(one) - totalTarget, Ntarget, totalWeight);
+  for (const [k, x] of Object.entries(yd)) {
+    if (!(x > 0)) continue;
+    const idx = species.indexOf(k);
+    const g = (i: number) => (i === idx ? 1 : 0);
+    addRow(g, constantOf(g) - x * totalTarget, Ntarget * x, W_SPECIES);
+  }
+  return pr.rest.length ? nnls(rows, rhs).x : [];
+}
 
-  const predict = (a: number[]) => {
-    const n = Float64Array.from(have);
-    a.forEach((aj, j) => w[j].forEach((v, i) => (n[i] += aj * v)));
-    const tot = n.reduce((p, q) => p + q, 0);
-    const comp: Record<string, number> = {};
-    species.forEach((k, i) => {
-      if (n[i] > 0) comp[k] = n[i] / tot;
-    });
-    const rho = tot / V;
-    const P = pressureFromDensity(rho, T, bMix(model, comp), cMix(model, comp));
-    let dilF = 0;
-    for (const k of dil) dilF += comp[k] ?? 0;
-    return { n, comp, P, phi: equivalenceRatio(comp), dilF };
-  };
+function compOf(pr: RetargetProblem, v: Float64Array): Record<string, number> {
+  const t = v.reduce((p, q) => p + q, 0);
+  const c: Record<string, number> = {};
+  pr.species.forEach((k, i) => {
+    if (v[i] > 0) c[k] = v[i] / t;
+  });
+  return c;
+}
 
-  const limit = input.workingLimitPa;
-  // significant digits without an exponent (205050 Pa, not 2.0505e+5 Pa)
-  const fmtP = input.formatPressure ?? ((p: number) => `${Number(p.toPrecision(5))} Pa`);
-  const haveComp = compOf(have);
-  const nowPa =
-    m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, haveComp), cMix(model, haveComp)) : 0;
-  let limitBinds = false;
-  let a: number[];
-  let pred: ReturnType<typeof predict>;
+/** the tank after the remaining fills with amounts a: species amounts, composition, pressure, phi, dilution */
+function predict(pr: RetargetProblem, a: readonly number[]): Prediction {
+  const n = Float64Array.from(pr.have);
+  a.forEach((aj, j) => pr.w[j].forEach((v, i) => (n[i] += aj * v)));
+  const tot = n.reduce((p, q) => p + q, 0);
+  const comp = compOf(pr, n);
+  const P = pressureFromDensity(tot / pr.V, pr.T, bMix(pr.model, comp), cMix(pr.model, comp));
+  let dilF = 0;
+  for (const k of pr.dil) dilF += comp[k] ?? 0;
+  return { n, comp, P, phi: equivalenceRatio(comp), dilF };
+}
+
+/**
+ * the amounts of the remaining fills: the design's, unless they would pass the working limit;
+ * then the total is aimed at the limit (the limit outranks everything and the rest gives), and
+ * if the weighted solve still ends above it, every remaining fill is scaled back by bisection.
+ * Raises `not-converged` if the result is still above the limit (it never should be: no fill
+ * at all leaves the tank at nowPa, below the limit).
+ */
+function amountsWithinLimit(
+  pr: RetargetProblem,
+  nowPa: number,
+): { a: number[]; pred: Prediction; limitBinds: boolean } {
+  const limit = pr.input.workingLimitPa;
   if (limit !== undefined && nowPa >= limit) {
     // at or past the limit already: any further fill would raise the pressure more; none is proposed
-    a = rest.map(() => 0);
-    pred = predict(a);
-    limitBinds = true;
-  } else {
-    a = solve(Ntarget, W_TOTAL);
-    pred = predict(a);
-    if (limit !== undefined && pred.P > limit) {
-      // the limit outranks everything: aim the total at the limit and let the rest give
-      limitBinds = true;
-      let aim =
-        densityFromPressure(limit, T, bMix(model, pred.comp), cMix(model, pred.comp)) * V * (1 - 1e-6);
-      for (let it = 0; it < 8; it++) {
-        a = solve(aim, W_LIMIT);
-        pred = predict(a);
-        if (pred.P <= limit) break;
-        aim *= limit / pred.P;
-      }
-      if (pred.P > limit) {
-        // the weighted solve still ends above the limit: propose less of every remaining fill
-        let lo = 0;
-        let hi = 1;
-        const a0 = a;
-        for (let it = 0; it < 60; it++) {
-          const mid = (lo + hi) / 2;
-          if (predict(a0.map((x) => x * mid)).P <= limit) lo = mid;
-          else hi = mid;
-        }
-        a = a0.map((x) => x * lo);
-        pred = predict(a);
-      }
-    }
+    const a = pr.rest.map(() => 0);
+    return { a, pred: predict(pr, a), limitBinds: true };
   }
+  let a = solveAmounts(pr, pr.Ntarget, W_TOTAL);
+  let pred = predict(pr, a);
+  if (limit === undefined || pred.P <= limit) return { a, pred, limitBinds: false };
+  let aim = densityFromPressure(limit, pr.T, bMix(pr.model, pred.comp), cMix(pr.model, pred.comp)) * pr.V;
+  aim *= 1 - 1e-6;
+  for (let it = 0; it < AIM_ITERATIONS; it++) {
+    a = solveAmounts(pr, aim, W_LIMIT);
+    pred = predict(pr, a);
+    if (pred.P <= limit) break;
+    aim *= limit / pred.P;
+  }
+  if (pred.P > limit) {
+    // the weighted solve still ends above the limit: propose less of every remaining fill
+    let lo = 0;
+    let hi = 1;
+    const a0 = a;
+    for (let it = 0; it < SCALE_HALVINGS; it++) {
+      const mid = (lo + hi) / 2;
+      if (predict(pr, scaled(a0, mid)).P <= limit) lo = mid;
+      else hi = mid;
+    }
+    a = scaled(a0, lo);
+    pred = predict(pr, a);
+  }
+  if (!(pred.P <= limit))
+    fail({
+      code: 'not-converged',
+      computation: 're-target of the remaining fills within the working limit',
+      iterations: AIM_ITERATIONS + SCALE_HALVINGS,
+      residual: pred.P - limit,
+      tolerance: 0,
+    });
+  return { a, pred, limitBinds: true };
+}
 
-  // cumulative targets of the remaining fills at the fill temperature
+const scaled = (a: readonly number[], k: number) => a.map((x) => x * k);
+
+/** cumulative targets of the remaining fills at the fill temperature */
+function remainingTargets(
+  pr: RetargetProblem,
+  a: readonly number[],
+  filled: boolean,
+): RetargetResult['remaining'][number][] {
+  const { model, T, V } = pr;
+  const m = pr.input.done.length;
   const remaining: RetargetResult['remaining'][number][] = [];
-  const n = Float64Array.from(have);
-  let prevP =
-    m > 0 || init ? pressureFromDensity(rhoNow, T, bMix(model, compOf(n)), cMix(model, compOf(n))) : 0;
-  rest.forEach((s, j) => {
-    w[j].forEach((v, i) => (n[i] += a[j] * v));
-    const comp = compOf(n);
+  const n = Float64Array.from(pr.have);
+  const c0 = compOf(pr, n);
+  let prevP = filled ? pressureFromDensity(pr.rhoNow, T, bMix(model, c0), cMix(model, c0)) : 0;
+  pr.rest.forEach((s, j) => {
+    pr.w[j].forEach((v, i) => (n[i] += a[j] * v));
+    const comp = compOf(pr, n);
     const tot = n.reduce((p, q) => p + q, 0);
     const P = pressureFromDensity(tot / V, T, bMix(model, comp), cMix(model, comp));
     remaining.push({ step: m + j + 1, source: s, targetPa: P, incrementPa: P - prevP, amountMol: a[j] });
     prevP = P;
   });
+  return remaining;
+}
 
+/** which of the design's properties the remaining fills cannot keep within tolerance */
+function gaveOf(pr: RetargetProblem, pred: Prediction): Kept[] {
+  const { design, tolerance: tol, finalPressurePa } = pr.input;
+  const phi = design.phi;
+  const xd = design.diluentFraction;
   const gave: Kept[] = [];
-  const tol = input.tolerance;
   if (phi !== undefined && pred.phi !== undefined && Math.abs(pred.phi / phi - 1) > tol.relative)
     gave.push('phi');
-  if (dil.size > 0 && Math.abs(pred.dilF - xd) > Math.max(tol.relative * xd, tol.absolute))
+  if (pr.dil.size > 0 && Math.abs(pred.dilF - xd) > Math.max(tol.relative * xd, tol.absolute))
     gave.push('dilution');
-  if (Math.abs(pred.P / input.finalPressurePa - 1) > tol.relative) gave.push('pressure');
+  if (Math.abs(pred.P / finalPressurePa - 1) > tol.relative) gave.push('pressure');
+  return gave;
+}
+
+/** the re-target in words: what is kept, or what gives and why */
+function messageOf(
+  pr: RetargetProblem,
+  pred: Prediction,
+  gave: readonly Kept[],
+  limitBinds: boolean,
+  fmtP: (p: number) => string,
+): string {
+  const { design, finalPressurePa, workingLimitPa: limit } = pr.input;
+  const phi = design.phi;
+  const hasDil = pr.dil.size > 0;
   const fmt = (x: number) => String(Number(x.toPrecision(5)));
-  let message: string;
-  if (limit !== undefined && nowPa >= limit) {
-    message =
-      `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}: ` +
-      `no further fill can be made within the limit`;
-    if (rest.length === 0)
-      message = `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}`;
-  } else if (gave.length === 0) {
+  if (gave.length === 0) {
     // name only what the design has: a design without phi is not told about phi
     const kept = [
       ...(phi !== undefined ? ['phi'] : []),
-      ...(dil.size > 0 ? ['the dilution'] : []),
+      ...(hasDil ? ['the dilution'] : []),
       'the final pressure',
     ];
-    message =
-      `the remaining fills keep ${kept.length > 1 ? `${kept.slice(0, -1).join(', ')} and ${kept[kept.length - 1]}` : kept[0]} ` +
-      `within tolerance`;
-  } else {
-    const parts: string[] = [];
-    if (gave.includes('phi'))
-      parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
-    if (gave.includes('dilution'))
-      parts.push(`the diluent fraction becomes ${fmt(pred.dilF)} (design ${fmt(xd)})`);
-    if (gave.includes('pressure')) {
-      parts.push(
-        limitBinds
-          ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ` +
-              `${fmtP(input.finalPressurePa)})`
-          : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(input.finalPressurePa)}) ` +
-              `to keep ${[...(phi !== undefined && !gave.includes('phi') ? ['phi'] : []), ...(dil.size > 0 ? ['the dilution'] : [])].join(' and ') || 'the composition'}`,
-      );
-    }
-    message = parts.join('; ');
-    if (limitBinds && !gave.includes('pressure'))
-      message = `the tank's working limit ${fmtP(limit!)} holds the final pressure; ${message}`;
+    const listed = kept.length > 1 ? `${kept.slice(0, -1).join(', ')} and ${kept[kept.length - 1]}` : kept[0];
+    return `the remaining fills keep ${listed} within tolerance`;
   }
-  return {
-    remaining,
-    predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P },
-    gave,
-    limitBinds,
-    nowPa,
-    message,
-  };
+  const parts: string[] = [];
+  if (gave.includes('phi'))
+    parts.push(`phi becomes ${fmt(pred.phi ?? NaN)} (design ${fmt(phi!)}): the fills that set it are done`);
+  if (gave.includes('dilution'))
+    parts.push(`the diluent fraction becomes ${fmt(pred.dilF)} (design ${fmt(design.diluentFraction)})`);
+  if (gave.includes('pressure')) {
+    const keeps =
+      [
+        ...(phi !== undefined && !gave.includes('phi') ? ['phi'] : []),
+        ...(hasDil ? ['the dilution'] : []),
+      ].join(' and ') || 'the composition';
+    parts.push(
+      limitBinds
+        ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ` +
+            `${fmtP(finalPressurePa)})`
+        : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(finalPressurePa)}) to keep ${keeps}`,
+    );
+  }
+  const message = parts.join('; ');
+  return limitBinds && !gave.includes('pressure')
+    ? `the tank's working limit ${fmtP(limit!)} holds the final pressure; ${message}`
+    : message;
 }
 
 export interface VentBack {
@@ -321,6 +420,8 @@ export interface VentBack {
  * does not bind there. Otherwise (the design pressure is out of reach within the limit) the largest
  * f from which the re-target ends below the limit without the limit binding. With no fill left the
  * composition is final: vent to the design pressure, or just below the limit if that is not below it.
+ * Raises `not-converged` when no vent keeps the limit from holding the remaining fills (a design
+ * pressure at or above the working limit), rather than propose a vent to an empty tank.
  * Example: CH4 10.01 Torr, then Ar read 2800 Torr in MT-1 (limit 2700.6 Torr; design 1500 Torr,
  * 2 % CH4 + O2): vent back to about 1480 Torr, from where O2 keeps phi and ends at 1500 Torr; the
  * dilution stays as the Ar overshoot made it (tests/tui/fill-state.test.ts).
@@ -335,9 +436,9 @@ export function ventBack(input: RetargetInput & { readonly workingLimitPa: numbe
     return { targetPa: at(f).nowPa, ventFactor: f, after: at(f) };
   }
   const bisect = (good: (r: RetargetResult) => boolean): number => {
-    let lo = 1e-6;
+    let lo = VENT_FLOOR;
     let hi = 1;
-    for (let it = 0; it < 60; it++) {
+    for (let it = 0; it < VENT_HALVINGS; it++) {
       const mid = Math.sqrt(lo * hi) > 0.01 ? (lo + hi) / 2 : Math.sqrt(lo * hi);
       if (good(at(mid))) lo = mid;
       else hi = mid;
@@ -348,5 +449,20 @@ export function ventBack(input: RetargetInput & { readonly workingLimitPa: numbe
   const fDesign = bisect((r) => r.predicted.pressurePa <= input.finalPressurePa);
   const f = below(at(fDesign)) ? fDesign : bisect(below);
   const after = at(f);
+  if (!below(after))
+    // even a tank vented to almost nothing cannot be filled on without the limit holding it:
+    // no vent target exists (the design pressure is at or above the working limit)
+    fail({
+      code: 'not-converged',
+      computation: 'vent-back target below the working limit',
+      iterations: 2 * VENT_HALVINGS,
+      // how far above the limit the remaining fills would end, from the emptiest tank tried
+      residual: retarget({ ...input, ventFactor: f, workingLimitPa: undefined }).predicted.pressurePa - limit,
+      tolerance: 0,
+    });
   return { targetPa: after.nowPa, ventFactor: f, after };
 }
+
+/** the smallest fraction of the tank's gas a vent back keeps, and the halvings of the search for it */
+const VENT_FLOOR = 1e-6;
+const VENT_HALVINGS = 60;

@@ -49,8 +49,8 @@ import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
 import { z } from 'zod';
 import { fail, ProblemError } from '../core/index.js';
-import type { Gauge, GasSource } from '../core/index.js';
-import { failureReason, fsyncFolder, writeAllSync, writeErrorReason, writeFileAtomic } from './atomic.js';
+import type { Gauge, GasSource, LogFault, Problem, WriteCause } from '../core/index.js';
+import { fsyncFolder, ShortWriteError, writeAllSync, writeErrorReason, writeFileAtomic } from './atomic.js';
 
 export const LOG_FORMAT = 'mixwright-batch/2';
 const LOG_VERSION = 2;
@@ -402,12 +402,32 @@ export interface ParsedLog {
   readonly bytes: number;
 }
 
-function bad(file: string, line: number, what: string, issues: readonly z.ZodIssue[]): never {
+/** a line that breaks the log format, at its line */
+function fault(log: LogFault, file: string, line?: number, field?: string): never {
+  return fail({ code: 'schema', log }, { file, line, field });
+}
+
+function bad(file: string, line: number, event: string, issues: readonly z.ZodIssue[]): never {
   const i = issues[0];
-  return fail(
-    { code: 'schema', reason: `bad ${what}: ${i.path.join('.') || '(event)'}: ${i.message}` },
-    { file, line },
-  );
+  return fault({ kind: 'invalid-event', event, path: i.path.join('.'), message: i.message }, file, line);
+}
+
+/**
+ * the typed cause of a failed write: a short write with its byte counts, else the operating
+ * system's error code and a plain account of it (the code itself is shown beside it)
+ */
+export function writeCauseOf(e: unknown): WriteCause {
+  if (e instanceof ShortWriteError) return { kind: 'short-write', written: e.written, expected: e.expected };
+  const err = e as NodeJS.ErrnoException;
+  const errno = typeof err?.code === 'string' ? err.code : 'no error code';
+  const text = writeErrorReason(e);
+  const plain = err?.code ? text.replace(` (${err.code})`, '').replace(`${err.code}: `, '') : text;
+  return { kind: 'system', errno, message: plain };
+}
+
+/** a write of the log that failed: what happened to the event is said in the outcome */
+function writeFailed(file: string, e: unknown, outcome: string): never {
+  return fail({ code: 'write-failed', cause: writeCauseOf(e), outcome }, { file });
 }
 
 /** the reader's state after some lines: kept by a fill's handle, so an append reads only the new line */
@@ -458,177 +478,145 @@ function readLine(st: ReaderState, raw: string, lineNo: number, file: string): v
   try {
     obj = JSON.parse(raw);
   } catch {
-    return fail(
-      { code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' },
-      { file, line: lineNo },
-    );
+    return fault({ kind: 'not-json' }, file, lineNo);
   }
   if (typeof obj !== 'object' || obj === null || Array.isArray(obj))
-    fail(
-      { code: 'schema', reason: 'not a JSON object; a batch log has one JSON event per line' },
-      { file, line: lineNo },
-    );
+    fault({ kind: 'not-json' }, file, lineNo);
   const rec = obj as Record<string, unknown>;
   if (typeof rec.chain === 'string') {
     if (chainOf(st.link, withoutChain(rec)) !== rec.chain)
       st.issues.push({ code: 'line-edited', line: lineNo });
   } else if (st.version >= 2) st.issues.push({ code: 'line-unhashed', line: lineNo });
   st.link = linkOf(rec, raw);
-  const kind = rec.kind;
-  const header = st.header;
-  if (!header) {
-    if (kind !== 'batch')
-      fail(
-        { code: 'schema', reason: 'the first line of a batch log must be its "batch" header' },
-        { file, line: lineNo },
-      );
-    const fmt = String(rec.format ?? '');
-    const m = /^mixwright-batch\/(\d+)$/.exec(fmt);
-    if (!m)
-      fail(
-        { code: 'schema', reason: `unknown log format "${fmt}"; this version reads ${LOG_FORMAT}` },
-        { file, line: lineNo, field: 'format' },
-      );
-    if (Number(m[1]) > LOG_VERSION)
-      fail(
-        {
-          code: 'schema',
-          reason:
-            `the log is format ${fmt}, newer than this version of mixwright reads (${LOG_FORMAT}); ` +
-            `update mixwright`,
-        },
-        { file, line: lineNo, field: 'format' },
-      );
-    const h = headerSchema.safeParse(obj);
-    if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
-    st.header = h.data;
-    st.version = Number(m[1]);
-    if (st.version < 2) st.issues.push({ code: 'log-unhashed', format: fmt });
-    return;
+  if (!st.header) return readHeader(st, rec, lineNo, file);
+  const kind = String(rec.kind);
+  const read = Object.hasOwn(EVENT_READERS, kind) ? EVENT_READERS[kind] : undefined;
+  if (!read) fault({ kind: 'unknown-event', eventKind: kind }, file, lineNo);
+  read(st, rec, lineNo, file);
+}
+
+/** the first line: the header, in a format this version reads */
+function readHeader(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
+  if (rec.kind !== 'batch') fault({ kind: 'no-header' }, file, lineNo);
+  const fmt = String(rec.format ?? '');
+  const m = /^mixwright-batch\/(\d+)$/.exec(fmt);
+  if (!m) fault({ kind: 'unknown-format', format: fmt, reads: LOG_FORMAT }, file, lineNo, 'format');
+  if (Number(m[1]) > LOG_VERSION)
+    fault({ kind: 'newer-format', format: fmt, reads: LOG_FORMAT }, file, lineNo, 'format');
+  const h = headerSchema.safeParse(rec);
+  if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
+  st.header = h.data;
+  st.version = Number(m[1]);
+  if (st.version < 2) st.issues.push({ code: 'log-unhashed', format: fmt });
+}
+
+type EventReader = (st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string) => void;
+
+function readReading(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
+  const r = readingSchema.safeParse(rec);
+  if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
+  if (st.byStep.has(r.data.step)) fault({ kind: 'second-reading', step: r.data.step }, file, lineNo);
+  const x = { ...r.data, line: lineNo };
+  st.byStep.set(x.step, x);
+  st.all.push(x);
+}
+
+function readCorrection(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
+  const r = correctionSchema.safeParse(rec);
+  if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
+  if (st.version >= 2) {
+    const missing = !r.data.by
+      ? 'by'
+      : !r.data.reason?.trim()
+        ? 'reason'
+        : r.data.replaces_line === undefined
+          ? 'replaces_line'
+          : undefined;
+    if (missing) fault({ kind: 'correction-incomplete', missing }, file, lineNo, missing);
   }
-  const { byStep } = st;
-  if (kind === 'reading') {
-    const r = readingSchema.safeParse(obj);
-    if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
-    if (byStep.has(r.data.step)) {
-      fail(
-        {
-          code: 'schema',
-          reason:
-            `step ${r.data.step} has a second reading; a changed reading is logged as ` +
-            `a "correction", a taken-back one as a "withdraw"`,
-        },
-        { file, line: lineNo },
-      );
-    }
-    const x = { ...r.data, line: lineNo };
-    byStep.set(x.step, x);
-    st.all.push(x);
-  } else if (kind === 'correction') {
-    const r = correctionSchema.safeParse(obj);
-    if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
-    if (st.version >= 2) {
-      if (!r.data.by)
-        fail(
-          { code: 'schema', reason: 'a correction names who made it ("by": initials)' },
-          { file, line: lineNo, field: 'by' },
-        );
-      if (!r.data.reason?.trim())
-        fail(
-          { code: 'schema', reason: 'a correction gives its reason ("reason")' },
-          { file, line: lineNo, field: 'reason' },
-        );
-      if (r.data.replaces_line === undefined)
-        fail(
-          {
-            code: 'schema',
-            reason: 'a correction names the line of the reading it replaces ("replaces_line")',
-          },
-          { file, line: lineNo, field: 'replaces_line' },
-        );
-    }
-    const old = byStep.get(r.data.step) ?? null;
-    if (!old || (r.data.replaces_line !== undefined && old.line !== r.data.replaces_line)) {
-      st.issues.push({
-        code: 'amend-target',
-        line: lineNo,
-        step: r.data.step,
-        named: old ? (r.data.replaces_line ?? null) : null,
-        inForce: old?.line ?? null,
-      });
-    }
-    const x = { ...r.data, line: lineNo };
-    byStep.set(x.step, x);
-    st.all.push(x);
-    st.amendments.push({
-      kind: 'correction',
-      step: x.step,
+  const old = st.byStep.get(r.data.step) ?? null;
+  if (!old || (r.data.replaces_line !== undefined && old.line !== r.data.replaces_line)) {
+    st.issues.push({
+      code: 'amend-target',
       line: lineNo,
-      by: x.by ?? null,
-      time: x.time,
-      reason: x.reason ?? null,
-      old,
-      new: x,
-    });
-  } else if (kind === 'withdraw') {
-    const r = withdrawSchema.safeParse(obj);
-    if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
-    const old = byStep.get(r.data.step) ?? null;
-    if (!old || old.line !== r.data.withdraws_line)
-      st.issues.push({
-        code: 'amend-target',
-        line: lineNo,
-        step: r.data.step,
-        named: old ? r.data.withdraws_line : null,
-        inForce: old?.line ?? null,
-      });
-    const later = Math.max(0, ...[...byStep.keys()].filter((x) => x > r.data.step));
-    if (later) st.issues.push({ code: 'withdraw-not-last', line: lineNo, step: r.data.step, later });
-    byStep.delete(r.data.step);
-    st.amendments.push({
-      kind: 'withdraw',
       step: r.data.step,
-      line: lineNo,
-      by: r.data.by,
-      time: r.data.time,
-      reason: r.data.reason ?? null,
-      old,
-      new: null,
+      named: old ? (r.data.replaces_line ?? null) : null,
+      inForce: old?.line ?? null,
     });
-  } else if (kind === 'barometer') {
-    const r = barometerSchema.safeParse(obj);
+  }
+  const x = { ...r.data, line: lineNo };
+  st.byStep.set(x.step, x);
+  st.all.push(x);
+  st.amendments.push({
+    kind: 'correction',
+    step: x.step,
+    line: lineNo,
+    by: x.by ?? null,
+    time: x.time,
+    reason: x.reason ?? null,
+    old,
+    new: x,
+  });
+}
+
+function readWithdraw(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
+  const r = withdrawSchema.safeParse(rec);
+  if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
+  const { byStep } = st;
+  const old = byStep.get(r.data.step) ?? null;
+  if (!old || old.line !== r.data.withdraws_line)
+    st.issues.push({
+      code: 'amend-target',
+      line: lineNo,
+      step: r.data.step,
+      named: old ? r.data.withdraws_line : null,
+      inForce: old?.line ?? null,
+    });
+  const later = Math.max(0, ...[...byStep.keys()].filter((x) => x > r.data.step));
+  if (later) st.issues.push({ code: 'withdraw-not-last', line: lineNo, step: r.data.step, later });
+  byStep.delete(r.data.step);
+  st.amendments.push({
+    kind: 'withdraw',
+    step: r.data.step,
+    line: lineNo,
+    by: r.data.by,
+    time: r.data.time,
+    reason: r.data.reason ?? null,
+    old,
+    new: null,
+  });
+}
+
+const EVENT_READERS: Readonly<Record<string, EventReader>> = {
+  reading: readReading,
+  correction: readCorrection,
+  withdraw: readWithdraw,
+  barometer(st, rec, lineNo, file) {
+    const r = barometerSchema.safeParse(rec);
     if (!r.success) bad(file, lineNo, 'barometer reading', r.error.issues);
     st.barometer = { ...r.data, line: lineNo };
-  } else if (kind === 'start-pressure') {
-    const r = startSchema.safeParse(obj);
+  },
+  'start-pressure'(st, rec, lineNo, file) {
+    const r = startSchema.safeParse(rec);
     if (!r.success) bad(file, lineNo, 'starting pressure', r.error.issues);
-    if (st.all.length > 0)
-      fail(
-        {
-          code: 'schema',
-          reason:
-            'the starting pressure of a top-up is read before the first fill; this one comes after a reading',
-        },
-        { file, line: lineNo },
-      );
+    if (st.all.length > 0) fault({ kind: 'start-after-reading' }, file, lineNo);
     st.start = { ...r.data, line: lineNo };
-  } else if (kind === 'acknowledge') {
-    const a = ackSchema.safeParse(obj);
+  },
+  acknowledge(st, rec, lineNo, file) {
+    const a = ackSchema.safeParse(rec);
     if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
     st.acks.push(a.data);
-  } else if (kind === 'close') {
-    const c = closeSchema.safeParse(obj);
+  },
+  close(st, rec, lineNo, file) {
+    const c = closeSchema.safeParse(rec);
     if (!c.success) bad(file, lineNo, 'close', c.error.issues);
     st.closed = true;
-  } else {
-    fail({ code: 'schema', reason: `unknown event kind "${String(kind)}"` }, { file, line: lineNo });
-  }
-}
+  },
+};
 
 function parsedOf(st: ReaderState, file: string): ParsedLog {
   const header = st.header;
-  if (!header)
-    return fail({ code: 'schema', reason: 'the log is empty (it holds no complete line)' }, { file });
+  if (!header) return fault({ kind: 'empty' }, file);
   const readings = [...st.byStep.values()].sort((a, b) => a.step - b.step);
   const warnings = st.issues.filter((i) => recordIssueSeverity(i) === 'warning').map(describeRecordIssue);
   return {
@@ -696,25 +684,12 @@ function appendBytes(path: string, expectedBytes: number, text: string): void {
   try {
     fd = openSync(path, 'a');
   } catch (e) {
-    return fail(
-      { code: 'write-failed', reason: `${writeErrorReason(e)}; the event was not logged` },
-      { file: path },
-    );
+    return writeFailed(path, e, 'the event was NOT logged');
   }
   let size = expectedBytes;
   try {
     size = fstatSync(fd).size;
-    if (size !== expectedBytes) {
-      fail(
-        {
-          code: 'write-failed',
-          reason:
-            `the log changed on disk since it was read (${size} bytes, expected ${expectedBytes}): ` +
-            `another program wrote to it. Nothing was appended; stop and look at the file`,
-        },
-        { file: path },
-      );
-    }
+    if (size !== expectedBytes) fail({ code: 'log-changed', bytes: size, expectedBytes }, { file: path });
     writeAllSync(fd, Buffer.from(text, 'utf8'));
     fsyncSync(fd);
   } catch (e) {
@@ -739,17 +714,15 @@ function appendBytes(path: string, expectedBytes: number, text: string): void {
       ? 'the event was NOT logged (the log is as it was before)'
       : 'the event was NOT logged; a partial line may be left at the end of the log, ' +
         'and is moved aside when the fill is resumed';
-    return fail({ code: 'write-failed', reason: `${failureReason(e)}; ${rest}` }, { file: path });
+    return writeFailed(path, e, rest);
   }
   try {
     closeSync(fd);
   } catch (e) {
-    fail(
-      {
-        code: 'write-failed',
-        reason: `${failureReason(e)} on closing the log; the event was written and fsync'd, but check the disk`,
-      },
-      { file: path },
+    writeFailed(
+      path,
+      e,
+      "the log could not be closed; the event was written and fsync'd, but check the disk",
     );
   }
 }
@@ -757,18 +730,14 @@ function appendBytes(path: string, expectedBytes: number, text: string): void {
 /** writer rules beyond the schema: what a new event must carry */
 function checkNew(event: NewLogEvent, file: string): void {
   if (event.kind === 'correction') {
-    if (!event.by?.trim())
-      fail(
-        { code: 'schema', reason: 'a correction names who made it (by: initials)' },
-        { file, field: 'by' },
-      );
-    if (!event.reason?.trim())
-      fail({ code: 'schema', reason: 'a correction needs its reason' }, { file, field: 'reason' });
-    if (event.replaces_line === undefined)
-      fail(
-        { code: 'schema', reason: 'a correction names the line of the reading it replaces (replaces_line)' },
-        { file, field: 'replaces_line' },
-      );
+    const missing = !event.by?.trim()
+      ? 'by'
+      : !event.reason?.trim()
+        ? 'reason'
+        : event.replaces_line === undefined
+          ? 'replaces_line'
+          : undefined;
+    if (missing) fault({ kind: 'correction-incomplete', missing }, file, undefined, missing);
   }
 }
 
@@ -788,9 +757,21 @@ function nextState(
   const lineNo = st.complete + 1;
   readLine(st, line.slice(0, -1), lineNo, file);
   const fresh = st.issues.find((i) => 'line' in i && i.line === lineNo);
-  if (fresh)
-    fail({ code: 'schema', reason: `not logged: ${describeRecordIssue(fresh)}` }, { file, line: lineNo });
+  if (fresh) fail(refusalOf(fresh), { file, line: lineNo });
   return { line, st, log: parsedOf(st, file), chain: c };
+}
+
+/** a record issue that a new line would bring, as the problem that refuses it */
+function refusalOf(i: RecordIssue): Problem {
+  switch (i.code) {
+    case 'amend-target':
+      return { code: 'amend-not-in-force', step: i.step, named: i.named, inForce: i.inForce };
+    case 'withdraw-not-last':
+      return { code: 'withdraw-not-last', step: i.step, later: i.later };
+    default:
+      // a fresh line is hashed by the writer and written whole: no other issue can arise
+      throw new Error(`internal: a new log line has the record issue ${i.code}`);
+  }
 }
 
 /**
@@ -807,8 +788,8 @@ export function createLog(path: string, header: LogHeader): void {
       return false;
     }
   };
-  const taken = 'a batch log of that name exists already; it is never overwritten - choose another batch id';
-  if (exists()) fail({ code: 'write-failed', reason: taken }, { file: path });
+  const taken: Problem = { code: 'write-failed', cause: { kind: 'log-exists' } };
+  if (exists()) fail(taken, { file: path });
   const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
   let fd: number | undefined;
   try {
@@ -827,12 +808,8 @@ export function createLog(path: string, header: LogHeader): void {
         // reported below
       }
     }
-    if ((e as NodeJS.ErrnoException).code === 'EEXIST' && exists())
-      fail({ code: 'write-failed', reason: taken }, { file: path });
-    fail(
-      { code: 'write-failed', reason: `${failureReason(e)}; the batch log was not created` },
-      { file: path },
-    );
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST' && exists()) fail(taken, { file: path });
+    writeFailed(path, e, 'the batch log was not created');
   } finally {
     try {
       unlinkSync(tmp);
@@ -852,16 +829,7 @@ export function appendEvent(path: string, event: NewLogEvent): { line: number; c
   const st = readText(text, path);
   parsedOf(st, path);
   const torn = st.issues.find((i) => i.code === 'torn-tail');
-  if (torn)
-    fail(
-      {
-        code: 'write-failed',
-        reason:
-          `the last line of the log is incomplete; \`mixwright fill --resume\` moves ` +
-          `it aside first. Nothing was appended`,
-      },
-      { file: path, line: torn.line },
-    );
+  if (torn) fail({ code: 'log-torn-tail', line: torn.line }, { file: path, line: torn.line });
   const next = nextState({ st, file: path }, event);
   appendBytes(path, st.bytes, next.line);
   return { line: next.st.complete, chain: next.chain };
@@ -948,6 +916,8 @@ function holderText(h: LockInfo): string {
   return `process ${h.pid} on host ${h.host}, started ${h.started}`;
 }
 
+const LOCK_ATTEMPTS = 4;
+
 /** take the lock or refuse, naming its holder; a stale lock of a dead process on this host is taken over */
 function acquireLock(lockPath: string, logPath: string, now: string): { info: LockInfo; message?: string } {
   const info: LockInfo = {
@@ -957,104 +927,87 @@ function acquireLock(lockPath: string, logPath: string, now: string): { info: Lo
     ...(bootId() ? { boot: bootId() } : {}),
   };
   let message: string | undefined;
-  const remove = `if you are sure no fill is running on it, delete ${lockPath} and try again`;
-  for (let attempt = 0; attempt < 4; attempt++) {
-    let fd: number | undefined;
-    try {
-      fd = openSync(lockPath, 'wx');
-    } catch (e) {
-      if ((e as NodeJS.ErrnoException).code !== 'EEXIST')
-        fail(
-          { code: 'write-failed', reason: `the lock file cannot be made: ${writeErrorReason(e)}` },
-          { file: lockPath },
-        );
-    }
-    if (fd !== undefined) {
-      try {
-        writeAllSync(fd, Buffer.from(JSON.stringify(info) + '\n', 'utf8'));
-        fsyncSync(fd);
-      } catch (e) {
-        closeSync(fd);
-        unlinkSync(lockPath);
-        fail(
-          { code: 'write-failed', reason: `the lock file cannot be written: ${failureReason(e)}` },
-          { file: lockPath },
-        );
-      }
-      closeSync(fd);
-      return { info, message };
-    }
+  for (let attempt = 0; attempt < LOCK_ATTEMPTS; attempt++) {
+    if (createLockFile(lockPath, info)) return { info, message };
     const held = readLock(lockPath);
     if (!held) continue;
     const h = held.info;
-    if (!h)
-      fail(
-        {
-          code: 'log-locked',
-          reason:
-            `the batch log ${logPath} has a lock file that cannot be read (${lockPath}), ` +
-            `so another fill may hold it; ${remove}`,
-        },
-        { file: logPath },
-      );
-    if (h.host !== info.host)
-      fail(
-        {
-          code: 'log-locked',
-          reason:
-            `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). ` +
-            `Only one fill may write a log. A lock from another computer cannot be checked ` +
-            `from here; ${remove}`,
-        },
-        { file: logPath },
-      );
-    const rebooted = h.boot !== undefined && info.boot !== undefined && h.boot !== info.boot;
-    if (h.pid === process.pid && !rebooted)
-      fail(
-        {
-          code: 'log-locked',
-          reason: `this program already has the batch log open for a fill (lock ${lockPath})`,
-        },
-        { file: logPath },
-      );
-    if (!rebooted && alive(h.pid))
-      fail(
-        {
-          code: 'log-locked',
-          reason:
-            `another guided fill holds this batch log: ${holderText(h)} (lock ${lockPath}). ` +
-            `Finish or stop that fill first; ${remove}`,
-        },
-        { file: logPath },
-      );
-    // stale: move it aside by rename (atomic), and put it back if what was moved is not what was judged
-    const aside = `${lockPath}.stale-${process.pid}`;
+    if (!h) fail({ code: 'lock-unreadable', log: logPath, lockFile: lockPath }, { file: logPath });
+    const rebooted = refuseLiveHolder(h, info, lockPath, logPath);
+    if (!moveStaleLock(lockPath, held.text)) continue;
+    message =
+      `took over a stale lock: the fill of ${holderText(h)} is no longer running` +
+      (rebooted ? ' (the computer was restarted since)' : '');
+  }
+  return fail({ code: 'lock-contended', lockFile: lockPath, attempts: LOCK_ATTEMPTS }, { file: logPath });
+}
+
+/** make the lock file with this fill's details, written in full and fsync'd; false if it exists */
+function createLockFile(lockPath: string, info: LockInfo): boolean {
+  let fd: number;
+  try {
+    fd = openSync(lockPath, 'wx');
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST') return false;
+    return fail(
+      { code: 'lock-unwritable', lockFile: lockPath, stage: 'create', cause: writeCauseOf(e) },
+      { file: lockPath },
+    );
+  }
+  try {
+    writeAllSync(fd, Buffer.from(JSON.stringify(info) + '\n', 'utf8'));
+    fsyncSync(fd);
+  } catch (e) {
+    closeSync(fd);
+    unlinkSync(lockPath);
+    fail(
+      { code: 'lock-unwritable', lockFile: lockPath, stage: 'write', cause: writeCauseOf(e) },
+      { file: lockPath },
+    );
+  }
+  closeSync(fd);
+  return true;
+}
+
+/**
+ * refuse a lock whose holder may still run (another host, this process, a live process here);
+ * returns whether the holder's computer was restarted since it took the lock (then it is stale)
+ */
+function refuseLiveHolder(h: LockInfo, me: LockInfo, lockPath: string, logPath: string): boolean {
+  const holder = { pid: h.pid, host: h.host, started: h.started };
+  const locked = (held: 'another-host' | 'this-process' | 'running') =>
+    fail({ code: 'log-locked', log: logPath, lockFile: lockPath, holder, held }, { file: logPath });
+  if (h.host !== me.host) locked('another-host');
+  const rebooted = h.boot !== undefined && me.boot !== undefined && h.boot !== me.boot;
+  if (h.pid === process.pid && !rebooted) locked('this-process');
+  if (!rebooted && alive(h.pid)) locked('running');
+  return rebooted;
+}
+
+/**
+ * move a stale lock aside by rename (atomic), and put it back if what was moved is not what
+ * was judged (another fill took the name meanwhile); true when the stale lock is gone
+ */
+function moveStaleLock(lockPath: string, judged: string): boolean {
+  const aside = `${lockPath}.stale-${process.pid}`;
+  try {
+    renameSync(lockPath, aside);
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'ENOENT') return false;
+    throw e;
+  }
+  const moved = readLock(aside);
+  if (moved?.text !== judged) {
     try {
-      renameSync(lockPath, aside);
-    } catch (e) {
-      if ((e as NodeJS.ErrnoException).code === 'ENOENT') continue;
-      throw e;
-    }
-    const moved = readLock(aside);
-    if (moved?.text !== held.text) {
-      try {
-        linkSync(aside, lockPath);
-      } catch {
-        // someone holds the name again; the loop reads it
-      }
-      unlinkSync(aside);
-      continue;
+      linkSync(aside, lockPath);
+    } catch {
+      // someone holds the name again; the loop reads it
     }
     unlinkSync(aside);
-    message = `took over a stale lock: the fill of ${holderText(h)} is no longer running${rebooted ? ' (the computer was restarted since)' : ''}`;
+    return false;
   }
-  return fail(
-    {
-      code: 'log-locked',
-      reason: `could not take the lock ${lockPath}: other fills keep taking it; ${remove}`,
-    },
-    { file: logPath },
-  );
+  unlinkSync(aside);
+  return true;
 }
 
 function tornStamp(now: string): string {
@@ -1077,15 +1030,7 @@ function moveTornTail(
 ): { side: string; bytes: number; line: number } | undefined {
   if (buf.length === 0 || buf[buf.length - 1] === 0x0a) return undefined;
   const cut = buf.lastIndexOf(0x0a) + 1;
-  if (cut === 0)
-    fail(
-      {
-        code: 'schema',
-        reason:
-          'the log holds no complete line (its header was cut off); it cannot be resumed. Start a new batch',
-      },
-      { file: path },
-    );
+  if (cut === 0) fail({ code: 'log-header-torn' }, { file: path });
   const fragment = buf.subarray(cut);
   let side = `${path}.torn-${tornStamp(now)}`;
   for (let n = 2; tornSideFiles(path).includes(side); n++) side = `${path}.torn-${tornStamp(now)}-${n}`;
@@ -1096,15 +1041,7 @@ function moveTornTail(
     ftruncateSync(fd, cut);
     fsyncSync(fd);
   } catch (e) {
-    fail(
-      {
-        code: 'write-failed',
-        reason:
-          `the incomplete last line was saved to ${side} but could not be cut off the ` +
-          `log: ${writeErrorReason(e)}`,
-      },
-      { file: path },
-    );
+    fail({ code: 'torn-tail-stuck', sideFile: side, cause: writeCauseOf(e) }, { file: path });
   } finally {
     if (fd !== undefined) closeSync(fd);
   }
@@ -1122,14 +1059,13 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
   const now = opts.now ?? new Date().toISOString();
   try {
     if (!lstatSync(path).isFile() && !lstatSync(path).isSymbolicLink())
-      fail({ code: 'file-unreadable', reason: 'not a regular file' }, { file: path });
+      fail({ code: 'log-not-file' }, { file: path });
   } catch (e) {
     if (e instanceof ProblemError) throw e;
+    const err = e as NodeJS.ErrnoException;
+    if (err.code === 'ENOENT') fail({ code: 'log-not-found' }, { file: path });
     fail(
-      {
-        code: 'file-unreadable',
-        reason: (e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : writeErrorReason(e),
-      },
+      { code: 'log-unopenable', errno: err.code ?? 'no error code', message: String(err.message ?? e) },
       { file: path },
     );
   }
@@ -1174,11 +1110,7 @@ export function openLogForFill(path: string, opts: { now?: string } = {}): Opene
       lockPath,
       current: () => state.log,
       append(event) {
-        if (released)
-          fail(
-            { code: 'write-failed', reason: 'the log was released by this fill; open it again to write' },
-            { file: path },
-          );
+        if (released) fail({ code: 'log-released' }, { file: path });
         const next = nextState(state, event);
         appendBytes(path, state.st.bytes, next.line);
         state = { st: next.st, file: path, log: next.log };

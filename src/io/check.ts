@@ -116,7 +116,7 @@ async function withinFile<T>(file: string, f: () => Promise<T>): Promise<T> {
   try {
     return await f();
   } catch (e) {
-    if (e instanceof ProblemError && e.problem.code === 'schema') {
+    if (e instanceof ProblemError && e.problem.code === 'schema' && 'reason' in e.problem) {
       return fail(
         {
           code: 'schema',

@@ -97,17 +97,24 @@ export function describeLogFinding(f: LogFinding): string {
   const at = f.line ? `line ${f.line}${f.step ? `, fill ${f.step}` : ''}: ` : '';
   switch (f.code) {
     case 'above-working-limit':
-      return `${at}the tank reading ${show(f.pressurePa, f.unit)} (absolute) is above the tank's working limit of ${show(f.limitPa, f.unit)}${
-        f.replaced
+      return (
+        `${at}the tank reading ${show(f.pressurePa, f.unit)} (absolute) is above the tank's ` +
+        `working limit of ${show(f.limitPa, f.unit)}` +
+        (f.replaced
           ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
           : '. The tank was taken past its working limit: have it and its fittings inspected ' +
-            'under local practice before the batch is used'
-      }${acceptedText(f.accepted)}`;
+            'under local practice before the batch is used') +
+        acceptedText(f.accepted)
+      );
     case 'above-gauge-range':
       return (
         `${at}gauge ${f.gauge} shows ${show(f.shownPa, f.unit)}, above its full scale ` +
         `of ${show(f.fullScalePa, f.unit)}: the reading is not trustworthy and the ` +
-        `gauge head may be damaged${f.replaced ? ' (the reading was later corrected or withdrawn)' : '; check the gauge before it is used again'}${acceptedText(f.accepted)}`
+        `gauge head may be damaged` +
+        (f.replaced
+          ? ' (the reading was later corrected or withdrawn)'
+          : '; check the gauge before it is used again') +
+        acceptedText(f.accepted)
       );
     case 'text-number-mismatch':
       return (
@@ -155,133 +162,47 @@ function textSI(text: string, dim: 'pressure' | 'temperature', fallbackUnit: str
   }
 }
 
+type Logged = Pick<
+  InForceReading,
+  'gauge' | 'reading' | 'pressure_Pa' | 'barometer_Pa' | 'temperature' | 'temperature_K' | 'line'
+> & { step: number | null; replaced: boolean };
+
+/** what every check of a log line needs to know about the log */
+interface AuditContext {
+  readonly log: ParsedLog;
+  readonly gauges: ReadonlyMap<string, ParsedLog['header']['gauges'][number]>;
+  readonly limitPa: number | undefined;
+  readonly baroOf: (r: { barometer_Pa?: number }) => number;
+  readonly unitOf: (gaugeId: string) => PressureUnit;
+}
+
+function contextOf(log: ParsedLog): AuditContext {
+  const h = log.header;
+  const gauges = new Map(h.gauges.map((g) => [g.id, g]));
+  return {
+    log,
+    gauges,
+    limitPa: workingLimitOf(h),
+    baroOf: (r) => r.barometer_Pa ?? log.barometer?.pressure_Pa ?? h.barometer.pressure_Pa,
+    unitOf: (gaugeId) => {
+      const u = gauges.get(gaugeId)?.unit;
+      return u && isPressureUnit(u) ? u : 'Torr';
+    },
+  };
+}
+
 export function auditLog(log: ParsedLog): LogFinding[] {
   const h = log.header;
-  const out: LogFinding[] = [];
-  const gauges = new Map(h.gauges.map((g) => [g.id, g]));
-  const limitPa = workingLimitOf(h);
+  const cx = contextOf(log);
   const inForce = new Set(log.readings.map((r) => r.line));
-  const baroOf = (r: { barometer_Pa?: number }) =>
-    r.barometer_Pa ?? log.barometer?.pressure_Pa ?? h.barometer.pressure_Pa;
-  const unitOf = (gaugeId: string): PressureUnit => {
-    const u = gauges.get(gaugeId)?.unit;
-    return u && isPressureUnit(u) ? u : 'Torr';
-  };
-
-  type Logged = Pick<
-    InForceReading,
-    'gauge' | 'reading' | 'pressure_Pa' | 'barometer_Pa' | 'temperature' | 'temperature_K' | 'line'
-  > & { step: number | null; replaced: boolean };
   const logged: Logged[] = [
     ...(log.start ? [{ ...log.start, step: null, replaced: false }] : []),
     ...log.allReadings.map((r) => ({ ...r, replaced: !inForce.has(r.line) })),
   ];
-  const acceptedOf = (code: string, step: number | null) => {
-    const a = log.acknowledgements.find((x) => x.code === code && x.step === step);
-    return a ? { accepted: { by: a.by, time: a.time } } : {};
-  };
-  for (const r of logged) {
-    const unit = unitOf(r.gauge);
-    const g = gauges.get(r.gauge);
-    const severity: LogFindingSeverity = r.replaced ? 'warning' : 'danger';
-    if (limitPa !== undefined && r.pressure_Pa > limitPa)
-      out.push({
-        code: 'above-working-limit',
-        severity,
-        step: r.step,
-        line: r.line,
-        pressurePa: r.pressure_Pa,
-        limitPa,
-        unit,
-        replaced: r.replaced,
-        ...acceptedOf('above-working-limit', r.step),
-      });
-    const shownPa = g?.reference === 'gauge' ? r.pressure_Pa - baroOf(r) : r.pressure_Pa;
-    if (g && shownPa > g.full_scale_Pa)
-      out.push({
-        code: 'above-gauge-range',
-        severity,
-        step: r.step,
-        line: r.line,
-        gauge: g.id,
-        shownPa,
-        fullScalePa: g.full_scale_Pa,
-        unit,
-        replaced: r.replaced,
-        ...acceptedOf('above-gauge-range', r.step),
-      });
-    const p = textSI(r.reading, 'pressure', unit);
-    if (p === undefined)
-      out.push({
-        code: 'text-unreadable',
-        severity: 'note',
-        step: r.step,
-        line: r.line,
-        field: 'reading',
-        text: r.reading,
-      });
-    else {
-      const absolute = g?.reference === 'gauge' ? p + baroOf(r) : p;
-      if (!close(absolute, r.pressure_Pa))
-        out.push({
-          code: 'text-number-mismatch',
-          severity: 'warning',
-          step: r.step,
-          line: r.line,
-          field: 'reading',
-          text: r.reading,
-          textSI: absolute,
-          loggedSI: r.pressure_Pa,
-          siUnit: 'Pa',
-        });
-    }
-    const t = textSI(r.temperature, 'temperature', 'degC');
-    if (t === undefined)
-      out.push({
-        code: 'text-unreadable',
-        severity: 'note',
-        step: r.step,
-        line: r.line,
-        field: 'temperature',
-        text: r.temperature,
-      });
-    else if (!close(t, r.temperature_K))
-      out.push({
-        code: 'text-number-mismatch',
-        severity: 'warning',
-        step: r.step,
-        line: r.line,
-        field: 'temperature',
-        text: r.temperature,
-        textSI: t,
-        loggedSI: r.temperature_K,
-        siUnit: 'K',
-      });
-  }
-  if (log.barometer) {
-    const b = textSI(log.barometer.reading, 'pressure', 'Torr');
-    if (b === undefined)
-      out.push({
-        code: 'text-unreadable',
-        severity: 'note',
-        step: null,
-        line: log.barometer.line,
-        field: 'reading',
-        text: log.barometer.reading,
-      });
-    else if (!close(b, log.barometer.pressure_Pa))
-      out.push({
-        code: 'text-number-mismatch',
-        severity: 'warning',
-        step: null,
-        line: log.barometer.line,
-        field: 'reading',
-        text: log.barometer.reading,
-        textSI: b,
-        loggedSI: log.barometer.pressure_Pa,
-        siUnit: 'Pa',
-      });
-  }
+  const out: LogFinding[] = [
+    ...logged.flatMap((r) => [...pastLimits(cx, r), ...typedTextOf(cx, r)]),
+    ...barometerText(log),
+  ];
   for (const issue of log.issues)
     out.push({
       code: 'record',
@@ -299,11 +220,102 @@ export function auditLog(log: ParsedLog): LogFinding[] {
       step: null,
       line: null,
       plannedPa: h.in_tank.pressure_Pa,
-      unit: unitOf(h.steps[0]?.gauge ?? ''),
+      unit: cx.unitOf(h.steps[0]?.gauge ?? ''),
     });
   return out.sort(
     (a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] || (a.line ?? 0) - (b.line ?? 0),
   );
+}
+
+/** a reading past the tank's working limit or past its gauge's full scale (danger unless replaced) */
+function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
+  const out: LogFinding[] = [];
+  const unit = cx.unitOf(r.gauge);
+  const g = cx.gauges.get(r.gauge);
+  const severity: LogFindingSeverity = r.replaced ? 'warning' : 'danger';
+  const acceptedOf = (code: string) => {
+    const a = cx.log.acknowledgements.find((x) => x.code === code && x.step === r.step);
+    return a ? { accepted: { by: a.by, time: a.time } } : {};
+  };
+  const { limitPa } = cx;
+  if (limitPa !== undefined && r.pressure_Pa > limitPa)
+    out.push({
+      code: 'above-working-limit',
+      severity,
+      step: r.step,
+      line: r.line,
+      pressurePa: r.pressure_Pa,
+      limitPa,
+      unit,
+      replaced: r.replaced,
+      ...acceptedOf('above-working-limit'),
+    });
+  const shownPa = g?.reference === 'gauge' ? r.pressure_Pa - cx.baroOf(r) : r.pressure_Pa;
+  if (g && shownPa > g.full_scale_Pa)
+    out.push({
+      code: 'above-gauge-range',
+      severity,
+      step: r.step,
+      line: r.line,
+      gauge: g.id,
+      shownPa,
+      fullScalePa: g.full_scale_Pa,
+      unit,
+      replaced: r.replaced,
+      ...acceptedOf('above-gauge-range'),
+    });
+  return out;
+}
+
+/** the typed text of a reading and its temperature against the numbers logged beside them */
+function typedTextOf(cx: AuditContext, r: Logged): LogFinding[] {
+  const g = cx.gauges.get(r.gauge);
+  const at = { step: r.step, line: r.line };
+  const p = textSI(r.reading, 'pressure', cx.unitOf(r.gauge));
+  const absolute = p !== undefined && g?.reference === 'gauge' ? p + cx.baroOf(r) : p;
+  return [
+    ...textAgainst(at, 'reading', r.reading, absolute, r.pressure_Pa, 'Pa'),
+    ...textAgainst(
+      at,
+      'temperature',
+      r.temperature,
+      textSI(r.temperature, 'temperature', 'degC'),
+      r.temperature_K,
+      'K',
+    ),
+  ];
+}
+
+function barometerText(log: ParsedLog): LogFinding[] {
+  const b = log.barometer;
+  if (!b) return [];
+  const at = { step: null, line: b.line };
+  return textAgainst(at, 'reading', b.reading, textSI(b.reading, 'pressure', 'Torr'), b.pressure_Pa, 'Pa');
+}
+
+/** a note when the typed text cannot be read, a warning when it disagrees with the logged number */
+function textAgainst(
+  at: { step: number | null; line: number },
+  field: 'reading' | 'temperature',
+  text: string,
+  textValue: number | undefined,
+  loggedSI: number,
+  siUnit: 'Pa' | 'K',
+): LogFinding[] {
+  if (textValue === undefined) return [{ code: 'text-unreadable', severity: 'note', ...at, field, text }];
+  if (close(textValue, loggedSI)) return [];
+  return [
+    {
+      code: 'text-number-mismatch',
+      severity: 'warning',
+      ...at,
+      field,
+      text,
+      textSI: textValue,
+      loggedSI,
+      siUnit,
+    },
+  ];
 }
 
 /** the findings of one code, typed */

@@ -1,4 +1,7 @@
-/** The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here, fsync'd, before the screen moves on. */
+/**
+ * The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here,
+ * fsync'd, before the screen moves on. One component per phase's screen.
+ */
 import { useEffect, useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
@@ -17,6 +20,7 @@ import { splitChunk } from './keys.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import type { ParsedLog } from '../io/batch-log.js';
+import { describeProblem, type Problem } from '../core/index.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -82,14 +86,23 @@ function ReadingFields({
 function JudgementView({ j }: { j: CompositionJudgement }) {
   const head =
     j.kind === 'final'
-      ? `Composition as filled (inverse model, typed temperatures): ${j.verdict === 'fail' ? 'FAIL - outside the tolerance' : j.verdict === 'pass' ? 'within the tolerance' : 'within the tolerance, not proven by U'}`
-      : `Composition: ${j.verdict === 'on-course' ? 'the remaining fills bring every fraction within the tolerance' : 'OFF COURSE - the remaining fills cannot bring every fraction within the tolerance'}`;
+      ? 'Composition as filled (inverse model, typed temperatures): ' +
+        (j.verdict === 'fail'
+          ? 'FAIL - outside the tolerance'
+          : j.verdict === 'pass'
+            ? 'within the tolerance'
+            : 'within the tolerance, not proven by U')
+      : 'Composition: ' +
+        (j.verdict === 'on-course'
+          ? 'the remaining fills bring every fraction within the tolerance'
+          : 'OFF COURSE - the remaining fills cannot bring every fraction within the tolerance');
   return (
     <Box flexDirection="column">
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
       {j.deviations.map((d) => (
         <Text key={d.species}>
-          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  design ${fixedSig(d.design, 5).padStart(10)} ` +
+          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
+            `design ${fixedSig(d.design, 5).padStart(10)} ` +
             ` ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} ` +
             `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'ok' : 'OUT'}`}
         </Text>
@@ -97,6 +110,8 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
     </Box>
   );
 }
+
+type Recheck = { report: CheckReport; log: ParsedLog } | { error: string } | undefined;
 
 export function FillApp({
   initial,
@@ -108,11 +123,31 @@ export function FillApp({
   onReport,
 }: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
-  const [check, setCheck] = useState<
-    { report: CheckReport; log: ParsedLog } | { error: string } | undefined
-  >();
+  const check = useRecheckAtEnd(state.phase, recheck, onReport);
   const app = useApp();
-  const phase = state.phase;
+  useInput((input, key) => {
+    if (key.ctrl && input === 'c') {
+      onInterrupt?.();
+      app.exit();
+      return;
+    }
+    const ph = current().phase;
+    if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
+      app.exit();
+      return;
+    }
+    setState(applyActions(current(), toActions(input, key, now()), write, logFile));
+  });
+  return <FillScreen state={state} check={check} recheck={recheck !== undefined} logFile={logFile} />;
+}
+
+/** once the fill is done or ended: `check`'s own re-check of the log, for the end screen */
+function useRecheckAtEnd(
+  phase: FillState['phase'],
+  recheck: FillAppProps['recheck'],
+  onReport: FillAppProps['onReport'],
+): Recheck {
+  const [check, setCheck] = useState<Recheck>();
   useEffect(() => {
     if ((phase !== 'done' && phase !== 'ended') || !recheck) return;
     let live = true;
@@ -128,335 +163,428 @@ export function FillApp({
       live = false;
     };
   }, [phase, recheck, onReport]);
-  useInput((input, key) => {
-    if (key.ctrl && input === 'c') {
-      onInterrupt?.();
-      app.exit();
-      return;
-    }
-    const ph = current().phase;
-    if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
-      app.exit();
-      return;
-    }
-    let s = current();
-    for (const a of toActions(input, key, now())) {
-      let next = fillReducer(s, a);
-      const lines: { step: number; line: number }[] = [];
-      let failed: string | undefined;
-      let failedKind: string | undefined;
-      for (const e of next.effects) {
-        try {
-          const w = write(e);
-          if (w && (e.kind === 'reading' || e.kind === 'correction'))
-            lines.push({ step: e.step, line: w.line });
-        } catch (err) {
-          failed = (err as Error).message;
-          failedKind = e.kind;
-          break;
-        }
-      }
-      if (failed !== undefined && failedKind !== 'close') {
-        s = {
-          ...s,
-          error: `could not write the log ${logFile}: ${failed}; the ${failedKind} was NOT recorded`,
-        };
+  return check;
+}
+
+/**
+ * the actions of one input chunk, each through the reducer, its log events written (fsync'd) before
+ * the next: a write that fails leaves the state before the action, with the error and "NOT recorded"
+ * (a failed closing line keeps the logged readings and says so); the rest of the chunk is dropped
+ */
+export function applyActions(
+  start: FillState,
+  actions: readonly FillAction[],
+  write: FillAppProps['write'],
+  logFile: string,
+): FillState {
+  let s = start;
+  for (const a of actions) {
+    let next = fillReducer(s, a);
+    const lines: { step: number; line: number }[] = [];
+    let failed: string | undefined;
+    let failedKind: string | undefined;
+    for (const e of next.effects) {
+      try {
+        const w = write(e);
+        if (w && (e.kind === 'reading' || e.kind === 'correction'))
+          lines.push({ step: e.step, line: w.line });
+      } catch (err) {
+        failed = failureText(err);
+        failedKind = e.kind;
         break;
       }
-      for (const l of lines) next = fillReducer(next, { type: 'logged', ...l });
-      s =
-        failed !== undefined
-          ? {
-              ...next,
-              error: `the readings are logged, but the closing line could not be written to ${logFile}: ${failed}`,
-            }
-          : next;
     }
-    setState(s);
-  });
-  const h = state.setup.header;
-  const K = state.setup.steps.length;
-  const prompt = (
+    if (failed !== undefined && failedKind !== 'close')
+      return {
+        ...s,
+        error: `could not write the log ${logFile}: ${failed}; the ${failedKind} was NOT recorded`,
+      };
+    for (const l of lines) next = fillReducer(next, { type: 'logged', ...l });
+    s =
+      failed !== undefined
+        ? {
+            ...next,
+            error:
+              `the readings are logged, but the closing line could not be written to ` +
+              `${logFile}: ${failed}`,
+          }
+        : next;
+  }
+  return s;
+}
+
+/**
+ * why a write failed, in words: a problem (recognised by shape: the log writer may come from
+ * another bundle's copy of the core) is worded by describeProblem, not shown as its bare code
+ */
+function failureText(err: unknown): string {
+  const p = (err as { problem?: Problem })?.problem;
+  if (p && typeof p === 'object' && typeof p.code === 'string') return describeProblem(p);
+  return (err as Error)?.message ?? String(err);
+}
+
+interface ScreenProps {
+  readonly state: FillState;
+}
+
+/** the screen of the fill's phase */
+function FillScreen({
+  state,
+  check,
+  recheck,
+  logFile,
+}: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
+  switch (state.phase) {
+    case 'barometer':
+      return <BarometerScreen state={state} />;
+    case 'acknowledge':
+      return <AcknowledgeScreen state={state} />;
+    case 'done':
+    case 'ended':
+      return <EndScreen state={state} check={check} recheck={recheck} logFile={logFile} />;
+    case 'below':
+      return <BelowScreen state={state} />;
+  }
+  if (state.phase === 'start' && state.start) return <StartScreen state={state} />;
+  if (state.phase === 'correct' && state.correcting) return <CorrectScreen state={state} />;
+  if (state.phase === 'reminder') return <ReminderScreen state={state} />;
+  if (state.phase === 'confirm' && state.pending) return <ConfirmScreen state={state} />;
+  if (state.phase === 'over-limit' && state.pending && state.overLimit)
+    return <OverLimitScreen state={state} />;
+  return <ReadingScreen state={state} />;
+}
+
+function Prompt({ state }: ScreenProps) {
+  return (
     <Text>
       &gt; {state.input}
       <Text inverse> </Text>
     </Text>
   );
-  const errorLine = state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
-  if (state.phase === 'barometer') {
-    const gauges = [
-      ...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id)),
-    ];
-    return (
-      <Box flexDirection="column">
-        <Text bold>mixwright fill {h.id} - barometric pressure today</Text>
-        <Text wrap="wrap">
-          {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
-          pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
-          {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
-        </Text>
-        <Text wrap="wrap">
-          Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or
-          1003.1 hPa AB), then Enter. It is logged.
-        </Text>
-        {prompt}
-        {errorLine}
-      </Box>
-    );
-  }
-  if (state.phase === 'acknowledge') {
-    return (
-      <Box flexDirection="column">
-        <Text bold>mixwright fill {h.id} - DANGER findings stand</Text>
-        {state.setup.dangers.map((d, i) => (
-          <Text key={i} wrap="wrap">
-            - {d.code}
-            {d.step ? ` (fill ${d.step})` : ''}: {d.message}
-          </Text>
-        ))}
-        <Text> </Text>
-        <Text wrap="wrap">
-          The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
-          accept INITIALS, then Enter. Ctrl-C stops.
-        </Text>
-        {prompt}
-        {errorLine}
-      </Box>
-    );
-  }
-  if (state.phase === 'done' || state.phase === 'ended') {
-    const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
-    // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
-    const caveats = check && 'report' in check ? check.report.caveats : [];
-    return (
-      <Box flexDirection="column">
-        <Text bold>
-          mixwright fill {h.id} -{' '}
-          {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
-        </Text>
-        {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
-        <Text> </Text>
-        {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
-        {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
-        {check && 'error' in check ? (
-          <Text wrap="wrap">
-            ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
-          </Text>
-        ) : null}
-        {check && 'report' in check ? (
-          <Text
-            bold
-          >{`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}${check.report.caveats.length ? ' - BUT SEE BELOW' : ''}`}</Text>
-        ) : null}
-        {caveats.map((c, i) => (
-          <Text key={i} bold wrap="wrap">
-            ! {c}
-          </Text>
-        ))}
-        {label ? (
-          <Box flexDirection="column" borderStyle={caveats.length ? 'double' : 'single'} paddingX={1}>
-            <Text bold>Tank label (as filled, from the readings)</Text>
-            {caveats.map((c, i) => (
-              <Text key={`c${i}`} bold wrap="wrap">
-                {c}
-              </Text>
-            ))}
-            {label.map((l, i) => (
-              <Text key={i} wrap="wrap">
-                {l}
-              </Text>
-            ))}
-          </Box>
-        ) : null}
-        <Text>
-          Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.
-        </Text>
-      </Box>
-    );
-  }
-  if (state.phase === 'below') {
-    const ls = state.setup.steps[K - 1];
-    const lu = unitOf(ls);
-    const ld = ls.gauge ? decimalsFor(fromPa(ls.gauge.resolutionPa, lu)) : 3;
-    const t = state.targetsPa[K - 1];
-    const st = shownPa(state, ls, t);
-    return (
-      <Box flexDirection="column">
-        <Text bold>
-          mixwright fill {h.id} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
-        </Text>
-        <Text wrap="wrap">{state.message ?? ' '}</Text>
-        <Box borderStyle="single" paddingX={2} flexDirection="column">
-          <Text bold>
-            STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
-          </Text>
-          <Text>
-            band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on{' '}
-            {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
-          </Text>
-        </Box>
-        {state.judgement ? <JudgementView j={state.judgement} /> : null}
-        <Text wrap="wrap">
-          Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
-          AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
-          (withdraw the reading) close INITIALS (close the batch below the target; the re-check judges it)
-        </Text>
-        <ReadingFields
-          state={state}
-          reading={`new reading [${lu}] and initials`}
-          temperature="tank temperature"
-        />
-        {errorLine}
-        <Text>Enter: log Tab: temp Ctrl-C: stop (the batch stays open; resume it)</Text>
-      </Box>
-    );
-  }
+}
+
+function ErrorLine({ state }: ScreenProps) {
+  return state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
+}
+
+/** the current step's unit, decimals and how a pressure is shown on its gauge */
+function stepView(state: FillState) {
   const step = state.setup.steps[state.current];
   const unit = unitOf(step);
   const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
   const onGauge = (absPa: number) => `${fromPa(shownPa(state, step, absPa), unit).toFixed(dec)} ${unit}`;
   const absText = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit} absolute`;
-  if (state.phase === 'start' && state.start) {
-    const comp = Object.entries(state.start.composition)
-      .sort((a, b) => b[1] - a[1])
-      .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
-      .join(', ');
-    return (
-      <Box flexDirection="column">
-        <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
-        <Text wrap="wrap">
-          The plan assumed {absText(state.start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now,
-          before any fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are
-          re-computed from what you read.
+  return { step, unit, dec, onGauge, absText };
+}
+
+function BarometerScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const gauges = [
+    ...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id)),
+  ];
+  return (
+    <Box flexDirection="column">
+      <Text bold>mixwright fill {h.id} - barometric pressure today</Text>
+      <Text wrap="wrap">
+        {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
+        pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
+        {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
+      </Text>
+      <Text wrap="wrap">
+        Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1
+        hPa AB), then Enter. It is logged.
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+function AcknowledgeScreen({ state }: ScreenProps) {
+  return (
+    <Box flexDirection="column">
+      <Text bold>mixwright fill {state.setup.header.id} - DANGER findings stand</Text>
+      {state.setup.dangers.map((d, i) => (
+        <Text key={i} wrap="wrap">
+          - {d.code}
+          {d.step ? ` (fill ${d.step})` : ''}: {d.message}
         </Text>
-        <ReadingFields
-          state={state}
-          reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`}
-          temperature="tank temperature"
-        />
-        {errorLine}
-        <Text>Enter: log the starting pressure Tab: temperature Ctrl-C: stop</Text>
-      </Box>
-    );
-  }
-  if (state.phase === 'correct' && state.correcting) {
-    const c = state.correcting;
-    const d = state.done.find((x) => x.step === c.step)!;
-    const cs = state.setup.steps[c.step - 1];
-    return (
-      <Box flexDirection="column">
+      ))}
+      <Text> </Text>
+      <Text wrap="wrap">
+        The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
+        accept INITIALS, then Enter. Ctrl-C stops.
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+function EndScreen({
+  state,
+  check,
+  recheck,
+  logFile,
+}: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
+  const h = state.setup.header;
+  const K = state.setup.steps.length;
+  const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
+  // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
+  const caveats = check && 'report' in check ? check.report.caveats : [];
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} -{' '}
+        {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
+      </Text>
+      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      <Text> </Text>
+      {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
+      {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
+      {check && 'error' in check ? (
+        <Text wrap="wrap">
+          ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
+        </Text>
+      ) : null}
+      {check && 'report' in check ? (
         <Text bold>
-          mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on{' '}
-          {cs.gauge?.id ?? 'no gauge'})
+          {`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}` +
+            `${check.report.caveats.length ? ' - BUT SEE BELOW' : ''}`}
+        </Text>
+      ) : null}
+      {caveats.map((c, i) => (
+        <Text key={i} bold wrap="wrap">
+          ! {c}
+        </Text>
+      ))}
+      {label ? <LabelBox caveats={caveats} label={label} /> : null}
+      <Text>
+        Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.
+      </Text>
+    </Box>
+  );
+}
+
+function LabelBox({ caveats, label }: { caveats: readonly string[]; label: readonly string[] }) {
+  return (
+    <Box flexDirection="column" borderStyle={caveats.length ? 'double' : 'single'} paddingX={1}>
+      <Text bold>Tank label (as filled, from the readings)</Text>
+      {caveats.map((c, i) => (
+        <Text key={`c${i}`} bold wrap="wrap">
+          {c}
+        </Text>
+      ))}
+      {label.map((l, i) => (
+        <Text key={i} wrap="wrap">
+          {l}
+        </Text>
+      ))}
+    </Box>
+  );
+}
+
+function BelowScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const K = state.setup.steps.length;
+  const ls = state.setup.steps[K - 1];
+  const lu = unitOf(ls);
+  const ld = ls.gauge ? decimalsFor(fromPa(ls.gauge.resolutionPa, lu)) : 3;
+  const t = state.targetsPa[K - 1];
+  const st = shownPa(state, ls, t);
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
+      </Text>
+      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <Box borderStyle="single" paddingX={2} flexDirection="column">
+        <Text bold>
+          STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
         </Text>
         <Text>
-          logged: {d.text} at {(d.temperatureK - 273.15).toFixed(1)} degC; the original stays in the log, the
-          correction is added with your initials ({c.by}) and reason
-        </Text>
-        {c.pending ? (
-          <>
-            <Text>
-              new: {c.pending.done.text} at {(c.pending.done.temperatureK - 273.15).toFixed(1)} degC
-            </Text>
-            <Text>
-              reason: {state.input}
-              <Text inverse> </Text>
-            </Text>
-          </>
-        ) : (
-          <>
-            <ReadingFields
-              state={state}
-              reading={`right reading [${unitOf(cs)}]`}
-              temperature="tank temperature then"
-            />
-          </>
-        )}
-        {errorLine}
-        <Text>
-          Enter: {c.pending ? 'log the correction' : 'next: the reason'} Esc: cancel (nothing logged)
+          band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on{' '}
+          {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
         </Text>
       </Box>
-    );
-  }
-  if (state.phase === 'reminder') {
-    const ds = state.setup.dangers.filter((d) => d.step === step.index);
-    return (
-      <Box flexDirection="column">
-        <Text bold>
-          mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER AT THIS FILL
-        </Text>
-        <Text wrap="wrap">
-          This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at
-          the start:
-        </Text>
-        {ds.map((d, i) => (
-          <Text key={i} wrap="wrap">
-            - {d.code}: {d.message}
+      {state.judgement ? <JudgementView j={state.judgement} /> : null}
+      <Text wrap="wrap">
+        Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB):
+        it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw
+        the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the target; the
+        re-check judges it)
+      </Text>
+      <ReadingFields
+        state={state}
+        reading={`new reading [${lu}] and initials`}
+        temperature="tank temperature"
+      />
+      <ErrorLine state={state} />
+      <Text>Enter: log Tab: temp Ctrl-C: stop (the batch stays open; resume it)</Text>
+    </Box>
+  );
+}
+
+function StartScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const { step, unit, absText } = stepView(state);
+  const start = state.start!;
+  const comp = Object.entries(start.composition)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
+    .join(', ');
+  return (
+    <Box flexDirection="column">
+      <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
+      <Text wrap="wrap">
+        The plan assumed {absText(start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any
+        fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what
+        you read.
+      </Text>
+      <ReadingFields
+        state={state}
+        reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`}
+        temperature="tank temperature"
+      />
+      <ErrorLine state={state} />
+      <Text>Enter: log the starting pressure Tab: temperature Ctrl-C: stop</Text>
+    </Box>
+  );
+}
+
+function CorrectScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const c = state.correcting!;
+  const d = state.done.find((x) => x.step === c.step)!;
+  const cs = state.setup.steps[c.step - 1];
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on{' '}
+        {cs.gauge?.id ?? 'no gauge'})
+      </Text>
+      <Text>
+        logged: {d.text} at {(d.temperatureK - 273.15).toFixed(1)} degC; the original stays in the log, the
+        correction is added with your initials ({c.by}) and reason
+      </Text>
+      {c.pending ? (
+        <>
+          <Text>
+            new: {c.pending.done.text} at {(c.pending.done.temperatureK - 273.15).toFixed(1)} degC
           </Text>
-        ))}
-        <Text> </Text>
-        <Text wrap="wrap">
-          Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
-          (logged readings are kept)
+          <Text>
+            reason: {state.input}
+            <Text inverse> </Text>
+          </Text>
+        </>
+      ) : (
+        <>
+          <ReadingFields
+            state={state}
+            reading={`right reading [${unitOf(cs)}]`}
+            temperature="tank temperature then"
+          />
+        </>
+      )}
+      <ErrorLine state={state} />
+      <Text>Enter: {c.pending ? 'log the correction' : 'next: the reason'} Esc: cancel (nothing logged)</Text>
+    </Box>
+  );
+}
+
+function ReminderScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const K = state.setup.steps.length;
+  const { step } = stepView(state);
+  const ds = state.setup.dangers.filter((d) => d.step === step.index);
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER AT THIS FILL
+      </Text>
+      <Text wrap="wrap">
+        This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at
+        the start:
+      </Text>
+      {ds.map((d, i) => (
+        <Text key={i} wrap="wrap">
+          - {d.code}: {d.message}
         </Text>
-      </Box>
-    );
-  }
-  if (state.phase === 'confirm' && state.pending) {
-    return (
-      <Box flexDirection="column">
-        <Text bold>
-          mixwright fill {h.id} - fill {state.current + 1} of {K}: CHECK THIS READING
-        </Text>
-        <Text>typed: {state.pending.done.text}</Text>
-        <Text wrap="wrap">{state.pending.reason}</Text>
-        <Text> </Text>
-        <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
-        {errorLine}
-      </Box>
-    );
-  }
-  if (state.phase === 'over-limit' && state.pending && state.overLimit) {
-    const o = state.overLimit;
-    const p = state.pending.done.pressurePa;
-    return (
-      <Box flexDirection="column">
-        <Text bold>
-          mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER - ABOVE THE WORKING LIMIT
-        </Text>
-        <Text wrap="wrap">
-          The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working
-          limit of {h.tank.id} ({absText(o.limitPa)}).
-        </Text>
-        <Text bold wrap="wrap">
-          Close the cylinder valve and the tank valve now.
-        </Text>
-        <Text wrap="wrap">
-          The reading is logged (
-          {state.pending.done.line !== undefined ? `line ${state.pending.done.line}` : 'as typed'}); what you
-          choose is logged beside it.
-        </Text>
-        <Text wrap="wrap">
-          Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)}{' '}
-          (on {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
-        </Text>
-        <Text bold wrap="wrap">
-          {o.within
-            ? 'After venting (venting keeps the composition) the composition is within the tolerance.'
-            : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} ` +
-              `outside): venting keeps the composition, it cannot repair it.`}
-        </Text>
-        <Text> </Text>
-        <Text wrap="wrap">
-          vent: you vent back (the fill stops here; finish as a top-up) accept INITIALS: keep the tank as it
-          is (logged) edit INITIALS: it was mistyped (withdrawn, with a trace)
-        </Text>
-        {prompt}
-        {errorLine}
-      </Box>
-    );
-  }
+      ))}
+      <Text> </Text>
+      <Text wrap="wrap">
+        Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
+        (logged readings are kept)
+      </Text>
+    </Box>
+  );
+}
+
+function ConfirmScreen({ state }: ScreenProps) {
+  const pending = state.pending!;
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}: CHECK
+        THIS READING
+      </Text>
+      <Text>typed: {pending.done.text}</Text>
+      <Text wrap="wrap">{pending.reason}</Text>
+      <Text> </Text>
+      <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+function OverLimitScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const K = state.setup.steps.length;
+  const { step, unit, dec, onGauge, absText } = stepView(state);
+  const o = state.overLimit!;
+  const pending = state.pending!;
+  const p = pending.done.pressurePa;
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER - ABOVE THE WORKING LIMIT
+      </Text>
+      <Text wrap="wrap">
+        The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
+        of {h.tank.id} ({absText(o.limitPa)}).
+      </Text>
+      <Text bold wrap="wrap">
+        Close the cylinder valve and the tank valve now.
+      </Text>
+      <Text wrap="wrap">
+        The reading is logged ({pending.done.line !== undefined ? `line ${pending.done.line}` : 'as typed'});
+        what you choose is logged beside it.
+      </Text>
+      <Text wrap="wrap">
+        Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
+        {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
+      </Text>
+      <Text bold wrap="wrap">
+        {o.within
+          ? 'After venting (venting keeps the composition) the composition is within the tolerance.'
+          : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} ` +
+            `outside): venting keeps the composition, it cannot repair it.`}
+      </Text>
+      <Text> </Text>
+      <Text wrap="wrap">
+        vent: you vent back (the fill stops here; finish as a top-up) accept INITIALS: keep the tank as it is
+        (logged) edit INITIALS: it was mistyped (withdrawn, with a trace)
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+function ReadingScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const K = state.setup.steps.length;
+  const { step, unit, dec } = stepView(state);
   const target = state.targetsPa[state.current];
   const shown = shownPa(state, step, target);
   const lo = fromPa(shown - step.bandPa, unit).toFixed(dec);

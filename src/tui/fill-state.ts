@@ -146,11 +146,17 @@ export interface Pending {
 
 export interface OverLimit {
   readonly limitPa: number;
-  /** vent or pump back to this absolute pressure (from where the remaining fills end at the design pressure if they can; never above the limit), Pa */
+  /**
+   * vent or pump back to this absolute pressure (from where the remaining fills end at the design
+   * pressure if they can; never above the limit), Pa
+   */
   readonly ventToPa: number;
   /** what the remaining fills become from there */
   readonly after: string;
-  /** the composition the vented tank leads to (venting keeps it; the remaining fills re-targeted) is within the tolerance */
+  /**
+   * the composition the vented tank leads to (venting keeps it; the remaining fills re-targeted)
+   * is within the tolerance
+   */
   readonly within: boolean;
   /** the species outside the tolerance there */
   readonly outside: readonly string[];
@@ -282,6 +288,19 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     const r = retargetRun(state, done, T);
     state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
   }
+  const stopped = resumedAtStop(state, log);
+  if (stopped) return stopped;
+  if (done.length >= setup.steps.length)
+    return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
+  return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
+}
+
+/**
+ * a fill resumed where it stopped on a screen whose choice is not in the log: a reading past the
+ * working limit with no choice logged (asked again), or a last fill below its band, not closed
+ */
+function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState | undefined {
+  const { setup, done } = state;
   const limit = setup.workingLimitPa;
   const lastRead = log?.readings[log.readings.length - 1];
   if (
@@ -331,9 +350,7 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
         `resumed: fill ${step.index} logged at ${last.text}`,
       );
   }
-  if (done.length >= setup.steps.length)
-    return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
-  return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
+  return undefined;
 }
 
 /** the phase a step opens with: today's barometer first, then the acknowledgement, then this fill's own danger */
@@ -517,8 +534,7 @@ function parseReading(
 ): { shown: number; temperatureK: number } | { error: string } {
   try {
     const text = s.input.trim();
-    if (text === '')
-      fail({ code: 'bad-quantity', text, expected: 'pressure', reason: 'type the reading first' });
+    if (text === '') fail({ code: 'reading-missing', expected: 'pressure' });
     const shown = READING_NUMBER.test(text)
       ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure')
       : parseQuantity(text, 'pressure');
@@ -673,7 +689,8 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
 function afterDoubt(s: FillState, p: Pending, now: string): FillState {
   const limit = s.setup.workingLimitPa;
   if (limit !== undefined && p.done.pressurePa > limit) {
-    // a reading is a fact about the tank: it is logged now, before the operator chooses (Ctrl-C or a crash on the danger screen keeps it)
+    // a reading is a fact about the tank: it is logged now, before the operator chooses
+    // (Ctrl-C or a crash on the danger screen keeps it)
     const unit = gaugeUnit(s.setup.steps[s.current]);
     const event: LogReading = {
       ...p.event,
@@ -697,7 +714,21 @@ function afterDoubt(s: FillState, p: Pending, now: string): FillState {
 /** the vent-back advice for a reading past the limit, and whether the composition from there is within the tolerance */
 function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLimit {
   const done = [...s.done, reading];
-  const v = ventBack({ ...retargetInput(s, done, reading.temperatureK), workingLimitPa: limit });
+  let v: ReturnType<typeof ventBack>;
+  try {
+    v = ventBack({ ...retargetInput(s, done, reading.temperatureK), workingLimitPa: limit });
+  } catch (e) {
+    if (!(e instanceof ProblemError) || e.problem.code !== 'not-converged') throw e;
+    // no vent lets the remaining fills go on within the limit: the hard stop stands, with a vent
+    // to just below the limit and the reason why nothing can follow
+    return {
+      limitPa: limit,
+      ventToPa: limit * (1 - 1e-3),
+      after: `no further fill can be re-targeted within the limit (${describeProblem(e.problem)})`,
+      within: false,
+      outside: [],
+    };
+  }
   const deviations = deviationsOf(v.after.predicted.composition, s);
   const outside = deviations.filter((d) => !d.within).map((d) => d.species);
   return {
@@ -1002,7 +1033,8 @@ function onCorrectEnter(s: FillState, now: string): FillState {
         ...s,
         error:
           `${fmtIn(absolute, unit)} absolute does not lie between the readings before ` +
-          `and after fill ${c.step} (${fmtIn(before, unit)}${after !== undefined ? ` and ${fmtIn(after, unit)}` : ''}); ` +
+          `and after fill ${c.step} (${fmtIn(before, unit)}` +
+          `${after !== undefined ? ` and ${fmtIn(after, unit)}` : ''}); ` +
           `correct those first, or check the value`,
       };
     }
@@ -1047,25 +1079,32 @@ function onCorrectEnter(s: FillState, now: string): FillState {
       `fill ${c.step} corrected by ${c.by}: ${old.text} -> ${p.done.text} (the ` +
       `original stays in the log)${over}`,
   };
-  if (next.current >= s.setup.steps.length)
-    return { ...finish({ ...next, effects: [event] }), message: next.message };
+  if (next.current >= s.setup.steps.length) return afterBelowCorrection(next, now);
   next = rejudge(next);
   return enterStep({ ...next, phase: 'reading' });
 }
 
+/**
+ * a correction made from the below-target screen (every fill read, the batch open): the last fill's
+ * target follows the corrected readings; still below its band, the screen stays; else the batch closes
+ */
+function afterBelowCorrection(next: FillState, now: string): FillState {
+  const K = next.setup.steps.length;
+  const before: FillState = { ...next, done: next.done.slice(0, -1), current: K - 1 };
+  const prior = before.done.length
+    ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
+    : before.targetsPa;
+  const step = next.setup.steps[K - 1];
+  const last = next.done[K - 1];
+  const target = prior[K - 1];
+  const text = next.message ?? '';
+  if (last.pressurePa - target < -step.bandPa)
+    return belowBand({ ...next, targetsPa: prior }, step, target, text);
+  return { ...finish({ ...next, targetsPa: prior }, now), message: text };
+}
+
 export function fillReducer(s: FillState, a: FillAction): FillState {
-  if (a.type === 'logged') {
-    const pending =
-      s.pending?.logged && s.pending.done.step === a.step
-        ? { ...s.pending, done: { ...s.pending.done, line: a.line } }
-        : s.pending;
-    return {
-      ...s,
-      effects: [],
-      pending,
-      done: s.done.map((d) => (d.step === a.step ? { ...d, line: a.line } : d)),
-    };
-  }
+  if (a.type === 'logged') return onLogged(s, a.step, a.line);
   const base = { ...s, effects: [] as NewLogEvent[], error: undefined };
   const textPhase =
     (base.phase === 'reading' ||
@@ -1073,149 +1112,108 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
       base.phase === 'below' ||
       (base.phase === 'correct' && !base.correcting?.pending)) &&
     base.field === 'temperature';
-  if (a.type === 'char') {
-    if (base.phase === 'confirm') {
-      if (/^[yY]/.test(a.text))
-        return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
-      if (/^[nNeE]/.test(a.text))
-        return {
-          ...base,
-          phase: 'reading',
-          pending: undefined,
-          input: '',
-          message: `${base.pending!.done.text} is not logged; type the reading again`,
-        };
-      return { ...base, error: 'y: log the reading as typed   n: back to the reading' };
-    }
-    if (textPhase) return { ...base, temperatureText: base.temperatureText + a.text };
-    return { ...base, input: base.input + a.text.replace(/[\r\n]/g, '') };
+  switch (a.type) {
+    case 'char':
+      return onChar(base, a.text, textPhase);
+    case 'backspace':
+      if (textPhase) return { ...base, temperatureText: base.temperatureText.slice(0, -1) };
+      return { ...base, input: base.input.slice(0, -1) };
+    case 'escape':
+      return onEscape(base);
+    case 'tab':
+      return onTab(base);
+    case 'enter':
+      return onEnter(base, a.now);
   }
-  if (a.type === 'backspace') {
-    if (textPhase) return { ...base, temperatureText: base.temperatureText.slice(0, -1) };
-    return { ...base, input: base.input.slice(0, -1) };
-  }
-  if (a.type === 'escape') {
-    if (base.phase === 'correct')
+}
+
+/** the shell wrote a reading or correction of this step on this log line */
+function onLogged(s: FillState, step: number, line: number): FillState {
+  const pending =
+    s.pending?.logged && s.pending.done.step === step
+      ? { ...s.pending, done: { ...s.pending.done, line } }
+      : s.pending;
+  return {
+    ...s,
+    effects: [],
+    pending,
+    done: s.done.map((d) => (d.step === step ? { ...d, line } : d)),
+  };
+}
+
+function onChar(base: FillState, text: string, textPhase: boolean): FillState {
+  if (base.phase === 'confirm') {
+    if (/^[yY]/.test(text))
+      return afterDoubt({ ...base, phase: 'reading' }, base.pending!, base.pending!.event.time);
+    if (/^[nNeE]/.test(text))
       return {
         ...base,
         phase: 'reading',
-        correcting: undefined,
-        input: '',
-        temperatureText: degC(base.targetTemperatureK),
-        message: 'correction cancelled; nothing logged',
-      };
-    // the over-limit reading is already logged: only vent, accept or edit (a withdrawal with a trace) leave the screen
-    if (base.phase === 'over-limit')
-      return {
-        ...base,
-        error:
-          'the reading is logged; Esc does not take it back. Type vent, accept INITIALS, ' +
-          'or edit INITIALS (mistyped: withdrawn with a trace)',
-      };
-    if (base.phase === 'confirm')
-      return {
-        ...base,
-        phase: 'reading',
-        input: base.pending?.typed ?? base.input,
         pending: undefined,
-        overLimit: undefined,
+        input: '',
+        message: `${base.pending!.done.text} is not logged; type the reading again`,
       };
-    return base;
+    return { ...base, error: 'y: log the reading as typed   n: back to the reading' };
   }
-  if (a.type === 'tab') {
-    if (
-      base.phase === 'start' ||
-      base.phase === 'below' ||
-      (base.phase === 'correct' && !base.correcting?.pending)
-    )
-      return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
-    if (base.phase !== 'reading') return base;
-    if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
-    return { ...base, field: 'temperature' };
-  }
-  // enter
+  if (textPhase) return { ...base, temperatureText: base.temperatureText + text };
+  return { ...base, input: base.input + text.replace(/[\r\n]/g, '') };
+}
+
+function onEscape(base: FillState): FillState {
+  if (base.phase === 'correct')
+    return {
+      ...base,
+      phase: base.current >= base.setup.steps.length ? 'below' : 'reading',
+      correcting: undefined,
+      input: '',
+      temperatureText: degC(base.targetTemperatureK),
+      message: 'correction cancelled; nothing logged',
+    };
+  // the over-limit reading is already logged: only vent, accept or edit (a withdrawal with a trace) leave the screen
+  if (base.phase === 'over-limit')
+    return {
+      ...base,
+      error:
+        'the reading is logged; Esc does not take it back. Type vent, accept INITIALS, ' +
+        'or edit INITIALS (mistyped: withdrawn with a trace)',
+    };
+  if (base.phase === 'confirm')
+    return {
+      ...base,
+      phase: 'reading',
+      input: base.pending?.typed ?? base.input,
+      pending: undefined,
+      overLimit: undefined,
+    };
+  return base;
+}
+
+function onTab(base: FillState): FillState {
+  if (
+    base.phase === 'start' ||
+    base.phase === 'below' ||
+    (base.phase === 'correct' && !base.correcting?.pending)
+  )
+    return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
+  if (base.phase !== 'reading') return base;
+  if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
+  return { ...base, field: 'temperature' };
+}
+
+function onEnter(base: FillState, now: string): FillState {
   switch (base.phase) {
     case 'done':
     case 'ended':
     case 'confirm':
       return base;
-    case 'barometer': {
-      try {
-        // a pressure alone: only the initials are missing
-        let whole = false;
-        try {
-          parseQuantity(base.input.trim(), 'pressure');
-          whole = true;
-        } catch {
-          whole = false;
-        }
-        if (whole) return { ...base, error: 'add your initials after the pressure, e.g. 752.3 Torr AB' };
-        const w = withInitials(base.input, 'barometric pressure with its unit', '752.3 Torr AB');
-        if ('error' in w) return { ...base, error: w.error };
-        const p = parseQuantity(w.value, 'pressure', { field: 'barometric pressure' });
-        if (!(p >= BARO_RANGE_PA[0] && p <= BARO_RANGE_PA[1]))
-          fail({
-            code: 'out-of-range',
-            what: 'barometric pressure',
-            value: p,
-            allowed: '70-110 kPa (525-825 Torr)',
-          });
-        const ev: NewLogEvent = {
-          kind: 'barometer',
-          reading: w.value,
-          pressure_Pa: p,
-          u_Pa: base.setup.header.barometer.u_Pa,
-          by: w.by,
-          time: a.now,
-        };
-        return enterStep({
-          ...base,
-          barometerPa: p,
-          barometerToday: true,
-          input: '',
-          effects: [ev],
-          message: `barometric pressure today ${fmtIn(p, 'Torr', 5)} (logged): the gauge-referenced targets use it`,
-        });
-      } catch (e) {
-        if (e instanceof ProblemError)
-          return {
-            ...base,
-            error:
-              `${describeProblem(e.problem)} - type today's barometric pressure with its ` +
-              `unit, e.g. 752.3 Torr or 1003.1 hPa`,
-          };
-        throw e;
-      }
-    }
-    case 'acknowledge': {
-      const m = /^\s*accept\s+([A-Za-z]{1,6})\s*$/.exec(base.input);
-      if (!m)
-        return {
-          ...base,
-          error:
-            'to go on past a danger finding, type "accept" and your initials (e.g. accept ' +
-            'AB), then Enter; Ctrl-C stops',
-        };
-      const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({
-        kind: 'acknowledge',
-        code: d.code,
-        step: d.step,
-        by: m[1],
-        time: a.now,
-        note: d.message,
-      }));
-      return enterStep({
-        ...base,
-        phase: 'reading',
-        input: '',
-        effects,
-        message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged`,
-      });
-    }
+    case 'barometer':
+      return onBarometerEnter(base, now);
+    case 'acknowledge':
+      return onAcknowledgeEnter(base, now);
     case 'start':
-      return onStartEnter(base, a.now);
+      return onStartEnter(base, now);
     case 'correct':
-      return onCorrectEnter(base, a.now);
+      return onCorrectEnter(base, now);
     case 'reminder':
       return {
         ...base,
@@ -1224,13 +1222,90 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
         reminded: [...base.reminded, base.setup.steps[base.current].index],
       };
     case 'over-limit':
-      return onOverLimitEnter(base, a.now);
+      return onOverLimitEnter(base, now);
     case 'reading':
-      return onCommand(base, base.input.trim(), a.now) ?? onReadingEnter(base, a.now);
+      return onCommand(base, base.input.trim(), now) ?? onReadingEnter(base, now);
     case 'below':
-      return onBelowEnter(base, a.now);
+      return onBelowEnter(base, now);
   }
   return base;
+}
+
+/** today's barometric pressure with the initials of who read it */
+function onBarometerEnter(base: FillState, now: string): FillState {
+  try {
+    // a pressure alone: only the initials are missing
+    let whole = false;
+    try {
+      parseQuantity(base.input.trim(), 'pressure');
+      whole = true;
+    } catch {
+      whole = false;
+    }
+    if (whole) return { ...base, error: 'add your initials after the pressure, e.g. 752.3 Torr AB' };
+    const w = withInitials(base.input, 'barometric pressure with its unit', '752.3 Torr AB');
+    if ('error' in w) return { ...base, error: w.error };
+    const p = parseQuantity(w.value, 'pressure', { field: 'barometric pressure' });
+    if (!(p >= BARO_RANGE_PA[0] && p <= BARO_RANGE_PA[1]))
+      fail({
+        code: 'out-of-range',
+        what: 'barometric pressure',
+        value: p,
+        allowed: '70-110 kPa (525-825 Torr)',
+      });
+    const ev: NewLogEvent = {
+      kind: 'barometer',
+      reading: w.value,
+      pressure_Pa: p,
+      u_Pa: base.setup.header.barometer.u_Pa,
+      by: w.by,
+      time: now,
+    };
+    return enterStep({
+      ...base,
+      barometerPa: p,
+      barometerToday: true,
+      input: '',
+      effects: [ev],
+      message: `barometric pressure today ${fmtIn(p, 'Torr', 5)} (logged): the gauge-referenced targets use it`,
+    });
+  } catch (e) {
+    if (e instanceof ProblemError)
+      return {
+        ...base,
+        error:
+          `${describeProblem(e.problem)} - type today's barometric pressure with its ` +
+          `unit, e.g. 752.3 Torr or 1003.1 hPa`,
+      };
+    throw e;
+  }
+}
+
+/** the plan's danger findings, acknowledged with the operator's initials before the first fill */
+function onAcknowledgeEnter(base: FillState, now: string): FillState {
+  const m = /^\s*accept\s+([A-Za-z]{1,6})\s*$/.exec(base.input);
+  if (!m)
+    return {
+      ...base,
+      error:
+        'to go on past a danger finding, type "accept" and your initials (e.g. accept ' +
+        'AB), then Enter; Ctrl-C stops',
+    };
+  const effects: NewLogEvent[] = base.setup.dangers.map((d) => ({
+    kind: 'acknowledge',
+    code: d.code,
+    step: d.step,
+    by: m[1],
+    time: now,
+    note: d.message,
+  }));
+  return enterStep({
+    ...base,
+    phase: 'reading',
+    input: '',
+    effects,
+    message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged`,
+  });
 }
 
 /** a top-up: the tank's pressure and temperature before the first fill, read on the first fill's gauge */
@@ -1319,19 +1394,14 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `the re-check below judges the tank as it is`,
     };
   }
-  if (/^fix\b/i.test(text))
-    return {
-      ...s,
-      error:
-        'on this screen: type the new reading after adding gas, undo INITIALS, or ' +
-        'close INITIALS; undo first to correct an earlier fill',
-    };
-  if (/^undo\b/i.test(text)) return onCommand(s, text, now) ?? s;
+  if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text, now) ?? s;
   const w = withInitials(text, 'new reading after adding gas', '1500.2 AB');
   if ('error' in w)
     return {
       ...s,
-      error: `${w.error}; or undo INITIALS, or close INITIALS (closes the batch below the target)`,
+      error:
+        `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or close INITIALS ` +
+        `(closes the batch below the target)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return { ...s, error: parsed.error };
@@ -1387,15 +1457,19 @@ function onBelowEnter(s: FillState, now: string): FillState {
     `replaces ${last.text}; the log keeps both): ${signed(fromPa(deviation, unit))} ` +
     `${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
   const next: FillState = { ...s, done, input: '', effects: [event] };
-  if (over)
+  if (over) {
+    // the same hard stop as any reading past the limit: logged now, then vent, accept or edit
+    const before: FillState = { ...s, done: s.done.slice(0, -1), current: s.done.length - 1, input: '' };
+    const reading = done[done.length - 1];
     return {
-      ...finish(next, now, `fill ${step.index} read above the working limit after more gas was added`),
-      message:
-        `${pressureText}. DANGER: ${fmtIn(absolute, unit)} absolute is ABOVE the ` +
-        `working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}: close ` +
-        `the valves; vent or pump the tank back before it is used, and have it inspected ` +
-        `under local practice`,
+      ...before,
+      phase: 'over-limit',
+      pending: { event, done: reading, typed: w.value, logged: true },
+      effects: [event],
+      overLimit: overLimitOf(before, reading, limit),
+      message: pressureText,
     };
+  }
   if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
   return { ...finish(next, now), message: pressureText };
 }

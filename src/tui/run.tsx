@@ -19,7 +19,10 @@ import {
 } from '../io/batch-log.js';
 import { checkLog, headerFromPlan, type CheckReport } from '../io/check.js';
 
-/** the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default, so the two agree */
+/**
+ * the Monte Carlo trials of the end screen's re-check: those `mixwright check LOG` runs by default,
+ * so the two agree
+ */
 const CHECK_TRIALS = 200000;
 import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';

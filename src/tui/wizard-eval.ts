@@ -60,7 +60,8 @@ export function fieldProblem(
     const what =
       v.id === ''
         ? 'the id is empty'
-        : `the id "${v.id}" holds ${/\s/.test(v.id) ? 'a space' : 'a character other than letters, digits, ".", "_" and "-"'}`;
+        : `the id "${v.id}" holds ` +
+          (/\s/.test(v.id) ? 'a space' : 'a character other than letters, digits, ".", "_" and "-"');
     return {
       field: 'id',
       message:

@@ -7,6 +7,7 @@ import {
   ventBack,
   type Gauge,
 } from '../../src/core/index.js';
+import { ProblemError } from '../../src/core/index.js';
 import { TORR } from '../helpers.js';
 
 const head = (id: string, fsTorr: number, res: number): Gauge => ({
@@ -162,5 +163,49 @@ describe('re-targeting at the working limit', () => {
     // from a tank vented a little further the re-target gives no more: the answer is the largest such vent
     const more = retarget({ ...base, workingLimitPa: limit, done, ventFactor: v.ventFactor * 0.99 });
     expect(more.gave.every((g) => v.after.gave.includes(g) || g === 'pressure')).toBe(true);
+  });
+  it('a working limit below the design pressure: no vent lets the remaining fills go on, and ventBack raises not-converged instead of proposing a vent to an empty tank', () => {
+    // a fuel blend (no phi, no diluent): the last fill is held only by the total amount, so from
+    // any vented tank it ends at the design's 1000 Torr, above a 900 Torr limit (algebra on the design)
+    const blend = designMixture({ kind: 'fractions', fractions: { CH4: 0.5, C2H6: 0.5 } });
+    const low = 900 * TORR;
+    const input = {
+      design: blend,
+      tolerance: { relative: 0.005, absolute: 0 },
+      sources: ['CH4', 'C2H6'].map((x) => pureCylinder({ id: x, species: x, purity: 1 })),
+      temperatureK: 298.15,
+      finalPressurePa: 1000 * TORR,
+      volumeM3: 0.01,
+      done: [{ pressurePa: 910 * TORR, temperatureK: 298.15 }],
+    };
+    let caught: unknown;
+    try {
+      ventBack({ ...input, workingLimitPa: low });
+    } catch (e) {
+      caught = e;
+    }
+    expect(caught).toBeInstanceOf(ProblemError);
+    const p = (caught as ProblemError).problem;
+    expect(p.code).toBe('not-converged');
+    if (p.code !== 'not-converged') return;
+    expect(p.computation).toMatch(/vent-back/);
+    expect(p.iterations).toBe(120);
+    // what was left: without the limit the last fill would end at the design's 1000 Torr, 100 Torr above
+    // it (algebra on the design; 0.5 % for the virial non-ideality of the blend)
+    expect(Math.abs(p.residual / (100 * TORR) - 1)).toBeLessThan(0.05);
+    expect(p.tolerance).toBe(0);
+  });
+
+  it('the re-target itself never ends above the working limit: every search for amounts ends within it or raises', () => {
+    // a limit just above the tank pressure now: the O2 fill is scaled back to fit (60 halvings)
+    const done = [
+      { pressurePa: plan.steps[0].targetPa, temperatureK: 298.15 },
+      { pressurePa: plan.steps[1].targetPa, temperatureK: 298.15 },
+    ];
+    const tight = plan.steps[1].targetPa * 1.0001;
+    const r = retarget({ ...base, workingLimitPa: tight, done });
+    expect(r.limitBinds).toBe(true);
+    expect(r.predicted.pressurePa).toBeLessThanOrEqual(tight);
+    expect(r.gave).toContain('pressure');
   });
 });

@@ -22,7 +22,7 @@ import { appendEvent, createLog, openLogForFill, readLog, type NewLogEvent } fro
 import { checkFile, headerFromPlan } from '../../src/io/check.js';
 import { writeFileAtomic } from '../../src/io/atomic.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { planFill, ProblemError, type Plan } from '../../src/core/index.js';
+import { describeProblem, planFill, ProblemError, type Plan } from '../../src/core/index.js';
 import { runCli, TORR } from '../helpers.js';
 
 /** the fault injected into node:fs writes: none, a disk that fills after `budget` bytes, or writes of at most 7 bytes a call */
@@ -135,7 +135,7 @@ describe('the lock of a guided fill', () => {
       );
       const e = problemOf(() => openLogForFill(file));
       expect(e.problem.code).toBe('log-locked');
-      const text = (e.problem as { reason: string }).reason;
+      const text = describeProblem(e.problem);
       expect(text).toContain(`process ${child.pid} on host ${hostname()}, started 2026-12-02T09:59:00Z`);
       expect(text).toContain(`${file}.lock`);
       expect(readFileSync(file, 'utf8').trim().split('\n')).toHaveLength(2);
@@ -164,11 +164,11 @@ describe('the lock of a guided fill', () => {
       `${file}.lock`,
       JSON.stringify({ pid: dead, host: 'bench-pc-7', started: '2026-12-02T08:00:00Z' }) + '\n',
     );
-    expect((problemOf(() => openLogForFill(file)).problem as { reason: string }).reason).toMatch(
+    expect(describeProblem(problemOf(() => openLogForFill(file)).problem)).toMatch(
       /process \d+ on host bench-pc-7.*another computer/,
     );
     writeFileSync(`${file}.lock`, '{"pid":');
-    expect((problemOf(() => openLogForFill(file)).problem as { reason: string }).reason).toMatch(
+    expect(describeProblem(problemOf(() => openLogForFill(file)).problem)).toMatch(
       /lock file that cannot be read/,
     );
     unlinkSync(`${file}.lock`);
@@ -233,7 +233,7 @@ describe('a torn last line', () => {
     const file = newLog(dir, 2);
     const fragment = '{"kind":"reading","step":3,"sour';
     appendFileSync(file, fragment);
-    expect(problemOf(() => appendEvent(file, reading(2))).problem.code).toBe('write-failed');
+    expect(problemOf(() => appendEvent(file, reading(2))).problem.code).toBe('log-torn-tail');
     const o = openLogForFill(file, { now: '2026-12-02T10:30:00Z' });
     const side = readdirSync(dir).filter((f) => f.includes('.torn-'));
     expect(side).toHaveLength(1);
@@ -264,8 +264,8 @@ describe('writes that fail (injected in node:fs)', () => {
     const e = problemOf(() => withFault('short', 40, () => o.handle.append(reading(2))));
     expect(e.problem.code).toBe('write-failed');
     expect(e.where.file).toBe(file);
-    expect((e.problem as { reason: string }).reason).toMatch(
-      /only 40 of \d+ bytes could be written .*the event was NOT logged \(the log is as it was before\)/,
+    expect(describeProblem(e.problem)).toMatch(
+      /only 40 of \d+ bytes reached the disk .*the event was NOT logged \(the log is as it was before\)/,
     );
     expect(readFileSync(file).equals(before)).toBe(true);
     // the disk has room again: the same reading goes in, and the chain holds
@@ -281,11 +281,11 @@ describe('writes that fail (injected in node:fs)', () => {
     const o = openLogForFill(file);
     const before = readFileSync(file);
     const e1 = problemOf(() => withFault('enospc', 100, () => o.handle.append(reading(1))));
-    expect((e1.problem as { reason: string }).reason).toMatch(/^the disk is full \(ENOSPC\)/);
+    expect(describeProblem(e1.problem)).toMatch(/^not written: the disk is full; .*\(ENOSPC\)/);
     expect(readFileSync(file).equals(before)).toBe(true);
     fault.fsyncFailures = 1;
     const e2 = problemOf(() => o.handle.append(reading(1)));
-    expect((e2.problem as { reason: string }).reason).toMatch(/input\/output error \(EIO\).*NOT logged/);
+    expect(describeProblem(e2.problem)).toMatch(/input\/output error; .*\(EIO\); the event was NOT logged/);
     expect(readFileSync(file).equals(before)).toBe(true);
     o.handle.release();
     expect(readLog(file).readings).toHaveLength(1);
@@ -468,7 +468,7 @@ describe('a real full disk (64 kB tmpfs)', () => {
     }
     o.handle.release();
     expect(failure?.problem.code).toBe('write-failed');
-    expect((failure!.problem as { reason: string }).reason).toMatch(/disk is full|bytes could be written/);
+    expect(describeProblem(failure!.problem)).toMatch(/disk is full|bytes reached the disk/);
     const text = readFileSync(file, 'utf8');
     expect(text.endsWith('\n')).toBe(true);
     const log = readLog(file);

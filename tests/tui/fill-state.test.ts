@@ -510,6 +510,66 @@ describe('the last fill below its band: the batch stays open for more gas', () =
     expect(rep.verdict.verdict).toBe('fail');
   });
 
+  it('more gas past the working limit on the below-target screen: the same hard stop as any reading past it - logged at once, then vent, accept or edit; resumed, the danger screen comes back', () => {
+    const events: NewLogEvent[] = [];
+    const { s, t, band } = lastLow(events);
+    const b = fillReducer(read(s, (t - 3 * band).toFixed(2), events), { type: 'logged', step: 3, line: 4 });
+    const limitTorr = h.tank.working_limit_Pa! / TORR;
+    const gauge = s.setup.steps[2].gauge!;
+    // a reading past the limit that the last fill's gauge can still show (else the range refusal comes first)
+    const pastTorr = Math.min(limitTorr + 50, gauge.fullScalePa / TORR - 1);
+    expect(pastTorr).toBeGreaterThan(limitTorr);
+    const over = read(b, `${pastTorr.toFixed(2)} AB`, events);
+    expect(over.phase).toBe('over-limit');
+    expect(over.effects).toEqual([
+      expect.objectContaining({ kind: 'correction', step: 3, by: 'AB', replaces_line: 4 }),
+    ]);
+    expect(over.overLimit!.ventToPa).toBeLessThan(h.tank.working_limit_Pa!);
+    expect(over.effects.some((e) => e.kind === 'close')).toBe(false);
+    const logged = fillReducer(over, { type: 'logged', step: 3, line: 5 });
+    // Esc does not leave the screen; accept logs the acknowledgement and closes
+    expect(fillReducer(logged, { type: 'escape' }).phase).toBe('over-limit');
+    const acc = enter(type(logged, 'accept AB'));
+    expect(acc.phase).toBe('done');
+    expect(acc.effects.map((e) => e.kind)).toEqual(['acknowledge', 'close']);
+    expect(acc.effects[0]).toMatchObject({ code: 'above-working-limit', step: 3, by: 'AB' });
+    // edit: the correction is withdrawn with a trace, and fill 3 is read again
+    const ed = enter(type(logged, 'edit AB'));
+    expect(ed.phase).toBe('reading');
+    expect(ed.current).toBe(2);
+    expect(ed.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 3, withdraws_line: 5 })]);
+    const withdrawn = parseLog(logText(h, [...events, ...ed.effects]), 'x.jsonl');
+    expect(withdrawn.readings.map((r) => r.step)).toEqual([1, 2]);
+    // stopped (Ctrl-C) on the danger screen: the logged correction brings it back
+    const resumed = initialState(setupFromHeader(h), parseLog(logText(h, events), 'x.jsonl'), NOW);
+    expect(resumed.phase).toBe('over-limit');
+    expect(resumed.pending!.done.step).toBe(3);
+  });
+
+  it('fix N INITIALS on the below-target screen corrects an earlier fill; the last target follows it, and the screen comes back; Esc returns to it too', () => {
+    const events: NewLogEvent[] = [];
+    const { s, t, band } = lastLow(events);
+    const b = fillReducer(read(s, (t - 3 * band).toFixed(2), events), { type: 'logged', step: 3, line: 4 });
+    const fix = enter(type(b, 'fix 1 AB'));
+    expect(fix.error).toBeUndefined();
+    expect(fix.phase).toBe('correct');
+    expect(fillReducer(fix, { type: 'escape' }).phase).toBe('below');
+    const fill1 = events[0] as { pressure_Pa: number };
+    const right = enter(type(fix, ((fill1.pressure_Pa / TORR) * 1.001).toFixed(4)));
+    expect(right.correcting?.pending).toBeDefined();
+    const done = enter(type(right, 'misread the head'));
+    expect(done.effects).toEqual([
+      expect.objectContaining({ kind: 'correction', step: 1, by: 'AB', replaces_line: 2 }),
+    ]);
+    expect(done.phase).toBe('below');
+    expect(done.message).toMatch(/fill 1 corrected by AB/);
+    // more CH4 in the tank: the last fill's target moves with the corrected reading
+    expect(done.targetsPa[2]).not.toBe(b.targetsPa[2]);
+    const log = parseLog(logText(h, [...events, ...done.effects]), 'x.jsonl');
+    expect(log.closed).toBe(false);
+    expect(log.readings[0].pressure_Pa / TORR).toBeCloseTo((fill1.pressure_Pa / TORR) * 1.001, 3);
+  });
+
   it('smaller: n on the "check this reading" prompt clears the field; a low reading is refused with both values in the typed unit and says what was typed', () => {
     const s0 = initialState(setupFromHeader(header()));
     const s1 = read(s0, '10.0128');

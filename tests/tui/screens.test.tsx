@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { render } from 'ink-testing-library';
-import { planFill } from '../../src/core/index.js';
+import { planFill, ProblemError } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
 import { FillApp } from '../../src/tui/fill-app.js';
@@ -65,6 +65,27 @@ describe('fill screen (ink)', () => {
     ui.stdin.write('10.0128\r');
     await until(() => !!ui.lastFrame()?.includes('NOT recorded'), 'the refusal');
     expect(ui.lastFrame()).toContain('fill 1 of 3');
+    ui.unmount();
+  });
+
+  it("a log writer's typed problem is shown in words (the cause and that the event was NOT logged), not as its code", async () => {
+    const ui = startDemoFill(() => {
+      throw new ProblemError(
+        {
+          code: 'write-failed',
+          cause: { kind: 'short-write', written: 40, expected: 300 },
+          outcome: 'the event was NOT logged',
+        },
+        { file: 'b.jsonl' },
+      );
+    });
+    await until(() => !!ui.lastFrame()?.includes('fill 1 of 3'), 'the first step');
+    ui.stdin.write('10.0128\r');
+    await until(() => !!ui.lastFrame()?.includes('NOT recorded'), 'the refusal');
+    const frame = (ui.lastFrame() ?? '').replace(/\s+/g, ' ');
+    expect(frame).toMatch(/only 40 of 300 bytes reached the disk/);
+    expect(frame).toMatch(/the event was NOT logged/);
+    expect(frame).not.toMatch(/: write-failed;/);
     ui.unmount();
   });
 });
