@@ -313,32 +313,8 @@ export function parseQuantity(
   return checkRange(v, s, expected, where);
 }
 
-/** the display units a user may choose with --units */
-export const PRESSURE_UNITS = ['Torr', 'kPa', 'bar', 'psi', 'mbar', 'Pa', 'atm'] as const;
-export type PressureUnit = (typeof PRESSURE_UNITS)[number];
-
-const PA_PER: Record<PressureUnit, number> = {
-  Torr: 101325 / 760,
-  kPa: 1000,
-  bar: 1e5,
-  psi: (0.45359237 * 9.80665) / (0.0254 * 0.0254), // lb x g_n / in^2, all exact
-  mbar: 100,
-  Pa: 1,
-  atm: 101325,
-};
-
-export function isPressureUnit(u: string): u is PressureUnit {
-  return (PRESSURE_UNITS as readonly string[]).includes(u);
-}
-
-export function paPerUnit(unit: PressureUnit): number {
-  return PA_PER[unit];
-}
-
-/** convert Pa to a display unit; plain arithmetic, no mathjs on the hot path */
-export function fromPa(pa: number, unit: PressureUnit): number {
-  return pa / PA_PER[unit];
-}
+// the display half (units a renderer shows, Pa to a display unit) lives beside the renderers
+export { fromPa, isPressureUnit, paPerUnit, PRESSURE_UNITS, type PressureUnit } from '../report/units.js';
 
 /** convert a value in unit to SI through mathjs (tests compare this path against fromPa) */
 export function toSI(value: number, unit: string): number {

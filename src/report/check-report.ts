@@ -1,9 +1,7 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import type { CheckReport } from '../io/check.js';
-import type { Amendment, InForceReading } from '../io/batch-log.js';
-import { describeLogFinding } from '../io/log-audit.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import type { AmendmentRecord, CheckReport, LoggedReading } from './check-types.js';
 import type { OutputStat } from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
@@ -128,7 +126,7 @@ export function checkToText(r: CheckReport): string {
   if (r.findings.length) {
     out.push('');
     out.push('The record (the log itself)');
-    for (const f of r.findings) out.push(`  ${f.severity}: ${describeLogFinding(f)}`);
+    for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
   out.push('');
   out.push(
@@ -148,12 +146,12 @@ function unitOfReport(r: CheckReport): PressureUnit {
   return u && isPressureUnit(u) ? u : 'Pa';
 }
 
-function readingText(x: InForceReading): string {
+function readingText(x: LoggedReading): string {
   return `${x.reading} at ${x.temperature} (line ${x.line})`;
 }
 
 /** "line 7  fill 1  corrected by QX at T: 10.0128 Torr at 25 degC (line 2) -> 10.0140 Torr at 25 degC; reason: misread" */
-export function amendmentText(a: Amendment): string {
+export function amendmentText(a: AmendmentRecord): string {
   const who = `${a.by ?? '(not named)'} at ${a.time}`;
   const why = a.reason ? `; reason: ${a.reason}` : '';
   const old = a.old ? readingText(a.old) : 'nothing in force';
@@ -161,7 +159,7 @@ export function amendmentText(a: Amendment): string {
   return `line ${a.line}  fill ${a.step}  corrected by ${who}: ${old} -> ${a.new ? `${a.new.reading} at ${a.new.temperature}` : '-'}${why}`;
 }
 
-function readingJson(x: InForceReading | null) {
+function readingJson(x: LoggedReading | null) {
   return x
     ? {
         line: x.line,
@@ -231,10 +229,10 @@ export function checkToJson(r: CheckReport, version: string): object {
     })),
     record_findings: r.findings.map((f) => ({
       severity: f.severity,
-      code: f.code === 'record' ? f.issue.code : f.code,
+      code: f.code === 'record' && f.issue ? f.issue.code : f.code,
       step: f.step,
       line: f.line,
-      message: describeLogFinding(f),
+      message: f.message,
     })),
     verdict_caveats: r.caveats,
     danger: r.findings.some((f) => f.severity === 'danger'),

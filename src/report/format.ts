@@ -1,5 +1,5 @@
 /** Number and pressure formatting shared by every renderer. */
-import { fromPa, type PressureUnit } from '../io/quantity.js';
+import { fromPa, type PressureUnit } from './units.js';
 
 /** a fixed number of decimals that keeps about `sig` significant digits */
 export function fixedSig(v: number, sig = 6): string {

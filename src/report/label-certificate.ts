@@ -7,10 +7,8 @@
  * functions of this model.
  */
 import { STANDING_CAUTION } from '../core/index.js';
-import type { CheckReport } from '../io/check.js';
-import type { InForceReading, ParsedLog } from '../io/batch-log.js';
-import { describeLogFinding } from '../io/log-audit.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import type { CheckReport, LoggedReading, LogView } from './check-types.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig } from './format.js';
 import { labelLines, labelModel, type LabelModel } from './label-model.js';
 
@@ -89,7 +87,7 @@ function unitOf(u: string): PressureUnit {
 }
 
 /** how a reading is named in a correction line: as typed, with the line it sits on */
-function readingText(x: InForceReading | null): string {
+function readingText(x: LoggedReading | null): string {
   return x ? `${x.reading} (line ${x.line})` : '(no reading in force)';
 }
 
@@ -113,7 +111,7 @@ function shortTime(t: string): string {
 
 export function buildCertificateModel(
   r: CheckReport,
-  log: ParsedLog | undefined,
+  log: LogView | undefined,
   meta: CertificateMeta,
 ): CertificateModel {
   const label = labelModel(r, log);
@@ -188,7 +186,7 @@ export function buildCertificateModel(
   for (const w of r.warnings)
     if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
   // the log as a record (readings past a limit, edited lines, text and number that disagree), worded once
-  for (const f of r.findings) findings.push({ severity: f.severity, text: describeLogFinding(f) });
+  for (const f of r.findings) findings.push({ severity: f.severity, text: f.message });
   for (const f of h?.findings ?? [])
     if (f.code !== 'isolate-gauge')
       findings.push({

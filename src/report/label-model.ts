@@ -10,9 +10,8 @@
  * Pure: the fill's end screen and `mixwright label` both call it.
  */
 import { assessFlammability, type OutputStat, type VerdictKind } from '../core/index.js';
-import type { CheckReport } from '../io/check.js';
-import type { ParsedLog } from '../io/batch-log.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import type { CheckReport, LogView } from './check-types.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig } from './format.js';
 
 /** one mole fraction on the label, in mole percent, with its expanded uncertainty U (k = 2) */
@@ -135,7 +134,7 @@ function offDesign(r: CheckReport): string[] {
   return out;
 }
 
-function hazardLine(r: CheckReport, log?: ParsedLog): string {
+function hazardLine(r: CheckReport, log?: LogView): string {
   const y: Record<string, number> = {};
   for (const [k, st] of Object.entries(r.result.composition)) y[k] = st.value;
   const last = r.readings[r.readings.length - 1];
@@ -152,7 +151,7 @@ function hazardLine(r: CheckReport, log?: ParsedLog): string {
   return 'see the findings and supplier safety data before use';
 }
 
-export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
+export function labelModel(r: CheckReport, log?: LogView): LabelModel {
   const status = statusOf(r);
   const danger = recordsDanger(r);
   const composition = Object.entries(r.result.composition)

@@ -1,7 +1,7 @@
 /** plan --json: one object, SI units in the key names (the contract other tools read). */
 import { describeFinding, STANDING_CAUTION, type Plan } from '../core/index.js';
 import { pressure } from './format.js';
-import type { PressureUnit } from '../io/quantity.js';
+import type { PressureUnit } from './units.js';
 
 import type { ReactorSpec } from '../core/index.js';
 

@@ -1,6 +1,6 @@
 /** The plan as a readable table for the terminal. */
 import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../core/index.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, padTable, pressure, signed } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 

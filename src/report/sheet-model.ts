@@ -16,8 +16,7 @@ import {
   type Severity,
 } from '../core/index.js';
 import { duration } from './ready-report.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import type { RecipeFile } from '../io/recipe.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, pressure } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 
@@ -65,7 +64,8 @@ export interface SheetModel {
 }
 
 export interface SheetMeta {
-  readonly recipe: RecipeFile;
+  /** the recipe's id and title (a recipe file fits as it is) */
+  readonly recipe: { readonly id: string; readonly title?: string };
   readonly labName: string;
   readonly orderRecommended: boolean;
   readonly unit: PressureUnit;
