@@ -167,6 +167,11 @@ export interface QuantityContext {
   readonly barometricPa?: number;
 }
 
+/** what a temperature below the physical window is */
+function coldText(k: number): string {
+  return k === 0 ? 'absolute zero' : k < 0 ? 'below absolute zero' : 'colder than any gas in a lab';
+}
+
 function checkRange(v: number, s: string, expected: Dimension, where: Where): number {
   const r = PHYSICAL_RANGE[expected];
   if (!Number.isFinite(v))
@@ -187,7 +192,7 @@ function checkRange(v: number, s: string, expected: Dimension, where: Where): nu
           what: `temperature`,
           value: v,
           text: s,
-          allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : v < 0 ? 'below absolute zero' : 'colder than any gas in a lab'}`,
+          allowed: `${r.text}; ${s} is ${coldText(v)}`,
         },
         where,
       );

@@ -44,7 +44,10 @@ export interface LabelModel {
   readonly finalTemperature: string;
   /** flammability of the as-filled composition at the final state */
   readonly hazard: string;
-  /** the log records a danger (a reading past the tank's working limit or a gauge's range): whatever the composition, the tank is not fit to use */
+  /**
+   * the log records a danger (a reading past the tank's working limit or a gauge's range):
+   * whatever the composition, the tank is not fit to use
+   */
   readonly danger: boolean;
   /** what stands beside the verdict, as `check` words it (report.caveats) */
   readonly caveats: readonly string[];
