@@ -218,6 +218,12 @@ export const STANDING_CAUTION =
 
 export type PressureFormatter = (pa: number) => string;
 
+/** the id the loader gives a tank known only by its volume (--volume, no tank of the lab profile) */
+export const GIVEN_VOLUME_TANK = 'given-volume';
+
+/** a tank as a sentence names it: "tank T-30", or the tank of the given volume (it has no name) */
+const tankPhrase = (id: string) => (id === GIVEN_VOLUME_TANK ? 'the tank of the given volume' : `tank ${id}`);
+
 const pct = (x: number) => `${(x * 100).toPrecision(3)} %`;
 const kelvin = (k: number) => `${k.toFixed(0)} K (${(k - 273.15).toFixed(0)} degC)`;
 
@@ -381,7 +387,7 @@ const TANK_AND_GAUGES: WordingTable<
 > = {
   'tank-over-rating': (f, p) =>
     `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
-    `of tank ${f.tank} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
+    `of ${tankPhrase(f.tank)} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
     `a tank rated for it`,
   'no-gauge-covers': (f, p) =>
     `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add ` +
@@ -392,7 +398,7 @@ const TANK_AND_GAUGES: WordingTable<
     `the composition tolerance may not be met - use a lower-range gauge or widen ` +
     `the tolerance`,
   'tank-rating-unknown': (f) =>
-    `the lab profile gives no pressure rating for tank ${f.tank}; no rating is ` +
+    `the lab profile gives no pressure rating for ${tankPhrase(f.tank)}; no rating is ` +
     `assumed, so the pressure checks cannot be made - add its rating (maximum ` +
     `allowed working pressure) to the profile, or give --rating with --volume`,
   'isolate-gauge': (f, p) =>

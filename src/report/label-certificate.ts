@@ -9,7 +9,7 @@
 import { STANDING_CAUTION } from '../core/index.js';
 import type { CheckReport, LoggedReading, LogView } from './check-types.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig } from './format.js';
+import { decimalsFor, fixedSig, tankName } from './format.js';
 import { labelLines, labelModel, type LabelModel } from './label-model.js';
 
 export interface CertificateRow {
@@ -219,7 +219,7 @@ function tankText(h: LogView['header'] | undefined, label: LabelModel): string {
   const rated = h.tank.rated_pressure_Pa
     ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr`
     : ', rating not known';
-  return `${h.tank.id}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${rated}`;
+  return `${tankName(h.tank.id)}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${rated}`;
 }
 
 export function buildCertificateModel(

@@ -12,7 +12,7 @@
 import { assessFlammability, type OutputStat, type VerdictKind } from '../core/index.js';
 import type { CheckReport, LogView } from './check-types.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig } from './format.js';
+import { decimalsFor, fixedSig, tankName } from './format.js';
 
 /** one mole fraction on the label, in mole percent, with its expanded uncertainty U (k = 2) */
 export interface LabelFraction {
@@ -173,7 +173,7 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
   const dil = r.result.diluentFraction;
   return {
     batchId: r.id,
-    tank: log?.header.tank.id ?? 'tank not logged',
+    tank: log ? tankName(log.header.tank.id) : 'tank not logged',
     lab: log?.header.lab ?? '',
     filledOn: lastTime ? lastTime.slice(0, 10) : 'date not logged',
     status,

@@ -1,7 +1,7 @@
 /** The plan as a readable table for the terminal. */
 import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../core/index.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig, padTable, pressure, signed } from './format.js';
+import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
@@ -39,7 +39,7 @@ function tankLine(plan: Plan, P: (pa: number, sig?: number) => string): string {
       : '';
   const rating =
     t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${limit}`;
-  return `Tank        ${t.id}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`;
+  return `Tank        ${tankName(t.id)}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`;
 }
 
 /** how many experiments the batch serves in the lab's reactor */

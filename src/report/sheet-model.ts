@@ -9,6 +9,7 @@ import {
   describeFinding,
   diagramPoint,
   fillLabel,
+  GIVEN_VOLUME_TANK,
   STANDING_CAUTION,
   type Finding,
   type MixingEstimate,
@@ -18,7 +19,7 @@ import {
 } from '../core/index.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig, pressure } from './format.js';
+import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 
 export interface SheetRow {
@@ -88,7 +89,9 @@ export function designTitle(plan: Plan, unit: PressureUnit): string {
   const d = plan.design;
   const names = (g: Record<string, number>) => Object.keys(g).join('+');
   const num = (v: number) => String(Number(v.toPrecision(3)));
-  const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${plan.tank.id}`;
+  const tank =
+    plan.tank.id === GIVEN_VOLUME_TANK ? `a ${fixedSig(plan.tank.volumeM3 * 1000, 4)} L tank` : plan.tank.id;
+  const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${tank}`;
   if (d.phi !== undefined && Object.keys(d.groups.fuel).length && Object.keys(d.groups.oxidizer).length) {
     const dil = Object.keys(d.groups.diluent).length
       ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}`
@@ -186,7 +189,7 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
     ['fuel', groupText(d.groups.fuel)],
     ['oxidizer', groupText(d.groups.oxidizer)],
     ['diluent', `${Object.keys(d.groups.diluent).join(', ') || '-'} (${fixedSig(d.diluentFraction, 5)})`],
-    ['tank', `${t.id}, ${fixedSig(t.volumeM3 * 1000, 4)} L${rating}`],
+    ['tank', `${tankName(t.id)}, ${fixedSig(t.volumeM3 * 1000, 4)} L${rating}`],
     [
       'final',
       `${P(plan.final.pressurePa)} absolute at ${(plan.temperatureK - 273.15).toFixed(1)} ` +
