@@ -299,24 +299,30 @@ export function detailRange(d: DiagramData): { oMax: number; fMax: number } {
   return { oMax, fMax };
 }
 
-function outside(d: DiagramData, oMax: number, fMax: number): string {
+function outside(d: DiagramData, oMax: number, fMax: number, right: number): string {
   const off = d.path.filter((p) => p.fuel > fMax || p.oxygen > oMax).map((p) => p.label);
   return off.length
-    ? `<text x="440" y="12" class="lab" text-anchor="end">state ${off.join(', ')} ` +
+    ? `<text x="${right}" y="${OUTSIDE_BASELINE}" class="lab" text-anchor="end">state ${off.join(', ')} ` +
         `outside this detail (see the triangle)</text>`
     : '';
 }
 
+/** the baseline of the "outside this detail" caption, and the frame's top when it is there (room for its descenders) */
+const OUTSIDE_BASELINE = 13;
+const TOP_WITH_CAPTION = 24;
+
 export function detailSvg(d: DiagramData, title: string): string {
   const w = 440;
   const h = 300;
-  const m = { l: 56, r: 14, t: 14, b: 40 };
   const r = detailRange(d);
   // round ticks: the axes end on a whole step of 1, 2, 2.5 or 5 times a power of ten
   const oStep = niceStep(r.oMax);
   const fStep = niceStep(r.fMax);
   const oMax = Math.min(1, Math.ceil(r.oMax / oStep - 1e-9) * oStep);
   const fMax = Math.min(1, Math.ceil(r.fMax / fStep - 1e-9) * fStep);
+  // a caption above the frame moves the frame down so they do not overlap; it ends where the frame ends
+  const caption = outside(d, oMax, fMax, w - 14);
+  const m = { l: 56, r: 14, t: caption ? TOP_WITH_CAPTION : 14, b: 40 };
   const X = (o: number) => m.l + (o / oMax) * (w - m.l - m.r);
   const Y = (f: number) => h - m.b - (f / fMax) * (h - m.t - m.b);
   const poly = d.envelope.map(([f, o]) => `${f1(X(o))},${f1(Y(f))}`).join(' ');
@@ -373,7 +379,7 @@ export function detailSvg(d: DiagramData, title: string): string {
         .join('')}` +
       `${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}`,
     `${d.path.map((_, i) => stateMark(path[i][0], path[i][1], spots[i])).join('')}` + `</g>`,
-    `${outside(d, oMax, fMax)}`,
+    caption,
     `${ticks.join('')}`,
     `<text x="${f1((m.l + w - m.r) / 2)}" y="${h - 6}" class="lab" text-anchor="middle">O2, % ` +
       `(N2-equivalent basis)</text>`,
