@@ -39,6 +39,15 @@ describe('architecture', () => {
     }
   });
 
+  it('no renderer in src/report imports the file-handling shell src/io', () => {
+    for (const f of files('src/report')) {
+      for (const spec of importsOf(f)) {
+        const rel = relative('src', join(f, '..', spec)).replace(/\\/g, '/');
+        expect(rel.startsWith('io/'), `${f} imports ${spec}`).toBe(false);
+      }
+    }
+  });
+
   it('ink and react are not imported by the non-interactive commands', () => {
     for (const f of ['src/cli', 'src/report', 'src/io'].flatMap(files)) {
       for (const spec of importsOf(f))

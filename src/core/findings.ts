@@ -120,9 +120,11 @@ export type Finding = Base &
         readonly inertFraction: number;
         readonly fromPa: number;
         readonly toPa: number;
-        /** the detonable part of the flammable stretch, tank pressures */ readonly detonableFromPa?: number;
+        /** the detonable part of the flammable stretch, tank pressures */
+        readonly detonableFromPa?: number;
         readonly detonableToPa?: number;
-        /** tank pressure of the detonable point judged by the rule for detonable states */ readonly detonationAtPa?: number;
+        /** tank pressure of the detonable point judged by the rule for detonable states */
+        readonly detonationAtPa?: number;
       } & FlammabilityNumbers &
         DetonationNumbers)
     | ({
@@ -161,7 +163,10 @@ export interface FlammabilityNumbers {
   readonly loc?: number;
   readonly flameK?: number;
   readonly limitFlameK?: number;
-  /** equilibrium adiabatic flame temperature at constant pressure (what the flame reaches; flameK is the complete-combustion value the method compares) */
+  /**
+   * equilibrium adiabatic flame temperature at constant pressure (what the flame reaches;
+   * flameK is the complete-combustion value the method compares)
+   */
   readonly flameEquilibriumK?: number;
   readonly pressurePa: number;
   /** how far the state is from the flammable region (set by the state review) */
@@ -223,6 +228,12 @@ export const STANDING_CAUTION =
 
 export type PressureFormatter = (pa: number) => string;
 
+/** the id the loader gives a tank known only by its volume (--volume, no tank of the lab profile) */
+export const GIVEN_VOLUME_TANK = 'given-volume';
+
+/** a tank as a sentence names it: "tank T-30", or the tank of the given volume (it has no name) */
+const tankPhrase = (id: string) => (id === GIVEN_VOLUME_TANK ? 'the tank of the given volume' : `tank ${id}`);
+
 const pct = (x: number) => `${(x * 100).toPrecision(3)} %`;
 const kelvin = (k: number) => `${k.toFixed(0)} K (${(k - 273.15).toFixed(0)} degC)`;
 
@@ -278,6 +289,12 @@ function nearLimitDistance(f: FlammabilityNumbers): string {
   return parts.join('; ');
 }
 
+/** the tank's working limit against a pressure, or that the rating is unknown */
+function againstLimit(peakPa: number, limitPa: number | undefined, p: PressureFormatter): string {
+  if (limitPa === undefined) return ', and the tank rating is unknown';
+  return `, ${peakPa > limitPa ? 'above' : 'below'} the tank's working limit ${p(limitPa)}`;
+}
+
 /** the detonation numbers of a detonable fill path, judged like a detonable state */
 function pathDetonation(f: Extract<Finding, { code: 'flammable-fill-path' }>, p: PressureFormatter): string {
   const at = f.detonationAtPa !== undefined ? ` at ${p(f.detonationAtPa)}` : '';
@@ -285,31 +302,53 @@ function pathDetonation(f: Extract<Finding, { code: 'flammable-fill-path' }>, p:
   if (f.cjPa !== undefined && f.reflectedPa !== undefined)
     return (
       `; a detonation${at} would reach about ${p(f.cjPa)} (Chapman-Jouguet) and ` +
-      `about ${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? `, ${f.reflectedPa > f.limitPa ? 'above' : 'below'} the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`
+      `about ${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)` +
+      againstLimit(f.reflectedPa, f.limitPa, p)
     );
   if (f.cjMissing) return `; its detonation pressure could not be estimated (${f.cjMissing})`;
   return '';
 }
 
-function describeDetonation(f: Extract<Finding, { code: 'detonable-state' }>, p: PressureFormatter): string {
-  const basis =
-    f.basis === 'published-limits'
-      ? `inside the published detonation limits${f.phiLow !== undefined && f.phiHigh !== undefined ? ` (equivalence ratio ${f.phi?.toFixed(2)} within ${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : ''})` : ''}`
-      : `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule ` +
-        `where no detonation limits are on file for this fuel in this oxidizer (detonable ` +
-        `when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
-        `about as rich in O2 as air or richer)`;
+type DetonableState = Extract<Finding, { code: 'detonable-state' }>;
+
+/** why a state counts as detonable: inside published limits, or by our inert rule */
+function detonationBasis(f: DetonableState): string {
+  if (f.basis !== 'published-limits')
+    return (
+      `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule ` +
+      `where no detonation limits are on file for this fuel in this oxidizer (detonable ` +
+      `when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
+      `about as rich in O2 as air or richer)`
+    );
+  if (f.phiLow === undefined || f.phiHigh === undefined) return 'inside the published detonation limits';
+  const sources = f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : '';
+  return (
+    `inside the published detonation limits (equivalence ratio ${f.phi?.toFixed(2)} within ` +
+    `${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${sources})`
+  );
+}
+
+/** the Chapman-Jouguet and reflected pressures of a detonable state, or why they are missing */
+function detonationPressures(f: DetonableState, p: PressureFormatter): string {
+  if (f.cjPa !== undefined && f.reflectedPa !== undefined) {
+    const limit =
+      f.limitPa !== undefined
+        ? ` against the tank's working limit ${p(f.limitPa)}`
+        : ', and the tank rating is unknown';
+    return (
+      `; a detonation would reach about ${p(f.cjPa)} (Chapman-Jouguet, equilibrium, ` +
+      `${f.cjK?.toFixed(0)} K, ${f.cjVelocityMPerS?.toFixed(0)} m/s) and about ` +
+      `${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${limit}`
+    );
+  }
+  return f.cjMissing ? `; its detonation pressure could not be estimated (${f.cjMissing})` : '';
+}
+
+function describeDetonation(f: DetonableState, p: PressureFormatter): string {
+  const basis = detonationBasis(f);
   const what = f.undiluted
     ? `undiluted fuel/O2 at ${p(f.pressurePa)}, ${basis}`
     : `fuel and oxidizer at ${p(f.pressurePa)} ${basis}`;
-  const cj =
-    f.cjPa !== undefined && f.reflectedPa !== undefined
-      ? `; a detonation would reach about ${p(f.cjPa)} (Chapman-Jouguet, equilibrium, ` +
-        `${f.cjK?.toFixed(0)} K, ${f.cjVelocityMPerS?.toFixed(0)} m/s) and about ` +
-        `${p(f.reflectedPa)} where it reflects (2.5 x P_CJ, common practice)${f.limitPa !== undefined ? ` against the tank's working limit ${p(f.limitPa)}` : ', and the tank rating is unknown'}`
-      : f.cjMissing
-        ? `; its detonation pressure could not be estimated (${f.cjMissing})`
-        : '';
   const advice = f.undiluted
     ? ' - fuel/O2 mixtures without diluent are not made in a mixing tank (common ' +
       'practice; gauges and valves on the manifold are rated far below the tank): ' +
@@ -317,248 +356,293 @@ function describeDetonation(f: Extract<Finding, { code: 'detonable-state' }>, p:
     : f.severity === 'danger'
       ? ' - the tank would not hold it: lower the pressure of this state, dilute it more, or change the fill order'
       : ' - keep ignition sources away and consider a lower pressure or more diluent';
-  return `this state can detonate: ${what}${cj}${advice}`;
+  return `this state can detonate: ${what}${detonationPressures(f, p)}${advice}`;
 }
 
-function describeClosedVessel(
-  f: Extract<Finding, { code: 'closed-vessel-pressure' }>,
+type ClosedVessel = Extract<Finding, { code: 'closed-vessel-pressure' }>;
+
+/** how the closed-vessel peak was computed */
+function closedVesselMethod(f: ClosedVessel, p: PressureFormatter): string {
+  if (f.method === 'complete-combustion')
+    return (
+      `complete combustion at constant volume from ${p(f.fromPa)}; no equilibrium: ` +
+      `${f.equilibriumMissing ?? 'data missing'}`
+    );
+  const at = f.temperatureK !== undefined ? `, ${f.temperatureK.toFixed(0)} K` : '';
+  const soot = f.graphiteMol ? `, with soot (graphite) forming` : '';
+  const cross =
+    f.completePa !== undefined ? `; complete combustion, a cross-check, gives ${p(f.completePa)}` : '';
+  return `constant-volume adiabatic equilibrium from ${p(f.fromPa)}${at}${soot}${cross}`;
+}
+
+function describeClosedVessel(f: ClosedVessel, p: PressureFormatter): string {
+  const how = closedVesselMethod(f, p);
+  const reach = `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} `;
+  if (f.limitPa !== undefined && f.peakPa > f.limitPa)
+    return (
+      `${reach}(${how}), above the tank's working limit ${p(f.limitPa)} - lower the pressure ` +
+      `of this state or change the fill order`
+    );
+  const limit = f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : '; the tank rating is unknown';
+  return `${reach}(${how})${limit}`;
+}
+
+/** the wording of one finding code */
+type Wording<C extends FindingCode> = (f: Finding & { readonly code: C }, p: PressureFormatter) => string;
+/** the wording of a family of finding codes, one entry per code (a missing code does not compile) */
+type WordingTable<C extends FindingCode> = { readonly [K in C]: Wording<K> };
+
+const TANK_AND_GAUGES: WordingTable<
+  'tank-over-rating' | 'no-gauge-covers' | 'gauge-coarser-than-band' | 'tank-rating-unknown' | 'isolate-gauge'
+> = {
+  'tank-over-rating': (f, p) =>
+    `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
+    `of ${tankPhrase(f.tank)} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
+    `a tank rated for it`,
+  'no-gauge-covers': (f, p) =>
+    `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add ` +
+    `a gauge with that range or change the final pressure`,
+  'gauge-coarser-than-band': (f, p) =>
+    `gauge ${f.gauge} has a standard uncertainty of ${p(f.uncertaintyPa)} at ` +
+    `this reading, as large as a third or more of the tolerance band +-${p(f.bandPa)}; ` +
+    `the composition tolerance may not be met - use a lower-range gauge or widen ` +
+    `the tolerance`,
+  'tank-rating-unknown': (f) =>
+    `the lab profile gives no pressure rating for ${tankPhrase(f.tank)}; no rating is ` +
+    `assumed, so the pressure checks cannot be made - add its rating (maximum ` +
+    `allowed working pressure) to the profile, or give --rating with --volume`,
+  'isolate-gauge': (f, p) =>
+    `close off ${f.gauge} before this fill: it reads only up to ${p(f.topPa)} absolute`,
+};
+
+const SUPPLY: WordingTable<
+  | 'purity-assumed'
+  | 'unidentified-impurity'
+  | 'supply-mismatch'
+  | 'impurity-present'
+  | 'supply-pressure-low'
+  | 'batch-too-small'
+> = {
+  'purity-assumed': (f) =>
+    `no purity is given for ${f.source} (${f.species}); 100 % was assumed - enter ` +
+    `the certificate purity and impurities in the lab profile`,
+  'unidentified-impurity': (f) =>
+    `up to ${(f.fraction * 1e6).toPrecision(3)} ppm of the batch is cylinder ` +
+    `impurity that the lab profile does not identify (1 - purity minus listed impurities)`,
+  'supply-mismatch': (f) =>
+    `with the cylinders chosen, ${f.species} can only reach x = ${f.actual.toPrecision(5)} ` +
+    `instead of the design ${f.design.toPrecision(5)}; check the cylinders' compositions`,
+  'impurity-present': (f) =>
+    `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} ` +
+    `from cylinder impurities`,
+  'supply-pressure-low': (f, p) =>
+    `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} ` +
+    `the tank must reach in this fill; the fill cannot be completed from it - ` +
+    `raise the regulator setting (within the cylinder's and line's ratings) or ` +
+    `lower the final pressure`,
+  'batch-too-small': (f, p) =>
+    `the batch serves no experiment in ${f.reactor}: at ${p(f.finalPa)} the tank ` +
+    `holds less than one fill plus the reserve (it is used down to ${p(f.minTankPa)}); ` +
+    `raise the final pressure, use a larger tank, or size the batch with --experiments`,
+};
+
+const REAL_GAS: WordingTable<'cross-virial-estimate' | 'virial-correlation' | 'ideal-gas-error'> = {
+  'cross-virial-estimate': (f, p) =>
+    `the cross virial coefficients ${f.pairs.join(', ')} come from the combining ` +
+    `rules (no reference mixture model qualifies for them); their uncertainty ` +
+    `(calibrated on the fitted pairs: max(${VIRIAL_U.cross.absolute * 1e6} cm3/mol, ` +
+    `${VIRIAL_U.cross.relative * 100} %) each, standard, more at low reduced ` +
+    `temperature; ${VIRIAL_U.crossUncalibrated.relative * 100} % for pairs with ` +
+    `He, H2, Ne or a hydrogen-bonding species) could move this target by about ` +
+    `+-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band ` +
+    `of +-${p(f.bandPa)}` +
+    (f.severity === 'warning'
+      ? ' - the target is less certain than its band; check the batch afterwards ' +
+        'with mixwright check, or widen the tolerance'
+      : ''),
+  'virial-correlation': (f) =>
+    `no reference virial coefficient for ${f.species} at this temperature; B ` +
+    `from the ${f.method} correlation (less certain)`,
+  'ideal-gas-error': (f, p) =>
+    `an ideal-gas plan would be off by up to ${p(f.worstPa)} at one reading, ` +
+    `against a tolerance band of +-${p(f.bandPa)}: use the real-gas targets`,
+};
+
+/** the two flammable-path dangers: a fill that crosses the region, a fill that enters it at the inlet */
+function describeFillPath(
+  f: Extract<Finding, { code: 'flammable-fill-path' }>,
   p: PressureFormatter,
 ): string {
-  const how =
-    f.method === 'complete-combustion'
-      ? `complete combustion at constant volume from ${p(f.fromPa)}; no equilibrium: ` +
-        `${f.equilibriumMissing ?? 'data missing'}`
-      : `constant-volume adiabatic equilibrium from ${p(f.fromPa)}${f.temperatureK !== undefined ? `, ${f.temperatureK.toFixed(0)} K` : ''}${f.graphiteMol ? `, with soot (graphite) forming` : ''}${f.completePa !== undefined ? `; complete combustion, a cross-check, gives ${p(f.completePa)}` : ''}`;
-  const over = f.limitPa !== undefined && f.peakPa > f.limitPa;
-  return over
-    ? `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} ` +
-        `(${how}), above the tank's working limit ${p(f.limitPa!)} - lower the pressure ` +
-        `of this state or change the fill order`
-    : `if this state ignites in the closed tank the pressure can reach ${p(f.peakPa)} ` +
-        `(${how})${f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : '; the tank rating is unknown'}`;
+  const range = (a: number, b: number) => `between ${p(Math.min(a, b))} and ${p(Math.max(a, b))}`;
+  const detonableRange =
+    f.detonable && f.detonableFromPa !== undefined && f.detonableToPa !== undefined
+      ? `, detonable ones ${range(f.detonableFromPa, f.detonableToPa)}`
+      : '';
+  const inert = f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : '';
+  return (
+    `during this fill (${f.source}) the tank passes through flammable compositions ` +
+    `while it is ${range(f.fromPa, f.toPa)}${detonableRange}, ` +
+    `although the states before and after it are not${inert} ` +
+    `(worst point: ${flammabilityDetail(f)})${f.detonable ? pathDetonation(f, p) : ''}; ` +
+    `change the fill order, or charge a diluent first so the path stays outside ` +
+    `the flammable region`
+  );
 }
 
+const FLAMMABILITY: WordingTable<
+  | 'flammable-state'
+  | 'flammable-mixture'
+  | 'near-flammable'
+  | 'detonable-state'
+  | 'closed-vessel-pressure'
+  | 'no-flammability-data'
+  | 'flammability-data-estimated'
+  | 'inert-coefficient-unknown'
+  | 'flammable-fill-path'
+  | 'flammable-at-inlet'
+> = {
+  'flammable-state': (f, p) =>
+    `the tank is flammable after this fill (${flammabilityDetail(f)}); choose ` +
+    `a fill order that avoids it, or treat this state as a flammable, possibly ` +
+    `explosive gas at ${p(f.pressurePa)}`,
+  'flammable-mixture': (f) =>
+    `the finished batch is flammable (${flammabilityDetail(f)}): store and handle ` +
+    `it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`,
+  'near-flammable': (f) =>
+    `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. ` +
+    `Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} ` +
+    `(N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points ` +
+    `below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong ` +
+    `gas could make it flammable`,
+  'detonable-state': describeDetonation,
+  'closed-vessel-pressure': describeClosedVessel,
+  'no-flammability-data': (f) =>
+    `no flammability limits are on file for ${f.species}; the safety review is ` +
+    `incomplete for it - treat every state holding it as flammable`,
+  'flammability-data-estimated': (f) => `flammability data estimated, not measured: ${f.what}`,
+  'inert-coefficient-unknown': (f) =>
+    `no ISO 10156 nitrogen-equivalence coefficient for ${f.species}; the smallest ` +
+    `listed value ${f.used} was used (conservative)`,
+  'flammable-fill-path': describeFillPath,
+  'flammable-at-inlet': (f) =>
+    `where ${f.source} enters the tank it mixes with the tank gas into flammable ` +
+    `compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), ` +
+    `although the tank itself stays outside the flammable region; fill it in ` +
+    `another order, or dilute the tank gas first, and open the valve slowly`,
+};
+
+/** condensation of a vapour: in its own fill line, or in the tank */
+function describeCondensation(f: Extract<Finding, { code: 'condensation' }>, p: PressureFormatter): string {
+  // above the vapour pressure itself it will condense, not "may"
+  const saturated = f.partialPa >= f.psatPa;
+  const share = saturated
+    ? `above its vapour pressure ${p(f.psatPa)} itself (${((f.partialPa / f.psatPa) * 100).toFixed(0)} %)`
+    : `above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)}`;
+  const will = saturated ? 'will' : 'may';
+  const where = `at the coldest point (${kelvin(f.coldestK)}, ${f.method})`;
+  if (!f.inLine)
+    return (
+      `${f.species} partial pressure ${p(f.partialPa)} is ${share} ${where}; it ${will} ` +
+      `condense - lower its partial pressure or heat the tank and lines`
+    );
+  const advice =
+    f.step === 1
+      ? 'it is the first fill already: heat the lines, or lower its partial pressure'
+      : 'fill the vapour first or heat the lines';
+  return (
+    `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ` +
+    `${share} ${where}; it ${will} condense in the line - ${advice}`
+  );
+}
+
+const HEAT_AND_VAPOUR: WordingTable<
+  | 'compression-heating'
+  | 'condensation'
+  | 'psat-estimated'
+  | 'coldest-temperature-assumed'
+  | 'oxygen-compression'
+> = {
+  'compression-heating': (f, p) =>
+    `this fill compresses the gas already in the tank from ${p(f.fromPa)} to ` +
+    `${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it ` +
+    `heats it to ${kelvin(f.endK)}, against the autoignition temperature ${kelvin(f.aitK)} ` +
+    `of ${f.fuel}, the fuel in the tank after this fill that ignites first. Throttle ` +
+    `the fill (open the valve slowly) or change the order`,
+  condensation: describeCondensation,
+  'psat-estimated': (f) =>
+    `the vapour pressure of ${f.species} at ${kelvin(f.coldestK)} comes from ` +
+    `${f.method} (outside the range of its measured constants); the condensation ` +
+    `check is less certain`,
+  'coldest-temperature-assumed': (f) =>
+    `the lab profile gives no coldest temperature for tank and lines; the condensation ` +
+    `check used the fill temperature ${kelvin(f.temperatureK)} - add "coldest" ` +
+    `to the profile`,
+  'oxygen-compression': (f, p) =>
+    `this fill compresses oxygen-rich gas (${pct(f.oxygenFraction)} O2-equivalent) ` +
+    `from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) ` +
+    `it reaches ${kelvin(f.endK)}, above ${kelvin(f.limitK)}, where seats and ` +
+    `seals in oxygen service can ignite. Fill the oxidizer later, throttle this ` +
+    `fill, or use only oxygen-compatible parts`,
+};
+
+const REACTIVE_GASES: WordingTable<
+  'no-with-o2' | 'acetylene-pressure' | 'n2o-decomposition' | 'oxygen-service' | 'oxygen-enriched'
+> = {
+  'no-with-o2': () => `NO and O2 in one tank react to NO2; never premix them - fill them in separate batches`,
+  'acetylene-pressure': (f, p) =>
+    `${f.inLine ? 'the acetylene line' : 'acetylene'} reaches ${p(f.partialPa)} ` +
+    `absolute, above about 15 psig (${p(f.limitPa)} absolute), where acetylene ` +
+    `can decompose explosively`,
+  'n2o-decomposition': (f, p) =>
+    `N2O at ${p(f.partialPa)} partial pressure: it can decompose exothermically ` +
+    `at elevated pressure and temperature - keep its pressure low and its lines clean`,
+  'oxygen-service': (f) =>
+    `${f.source} is an oxidizer: open its valve slowly, use only parts cleaned ` +
+    `for oxygen service and no hydrocarbon grease`,
+  'oxygen-enriched': (f) =>
+    `the tank holds ${pct(f.oxygenFraction)} oxygen (above 23.5 %, oxygen-enriched): ` +
+    `materials burn far more readily - oxygen-clean parts and slow valves`,
+};
+
+const ORDER: WordingTable<'safer-order' | 'no-safe-order'> = {
+  'safer-order': (f) =>
+    `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} ` +
+    `avoids them (${f.reason})`,
+  'no-safe-order': (f) => f.reason,
+};
+
+/** every finding code's wording, by family; a code without one does not compile */
+/** raised where a data table has no value for a species present (data coverage) */
+const DATA_COVERAGE: WordingTable<'no-autoignition-data' | 'transport-data-not-known'> = {
+  'no-autoignition-data': (f) =>
+    `no autoignition temperature is on file for ${f.species}; the compression-heating ` +
+    `check cannot judge it - take its autoignition temperature from the supplier's ` +
+    `safety data sheet and throttle every fill that compresses gas holding it`,
+  'transport-data-not-known': (f) =>
+    f.pairsLeftOut.length
+      ? `no diffusion data (${f.missing.join(', ')}) are on file for ${f.species}: the ` +
+        `pairs ${f.pairsLeftOut.join(', ')} are left out of the slowest pair, so the ` +
+        `mixing time may be too short - stir the tank or wait well beyond it`
+      : `no ${f.missing.join(', ')} data are on file for ${f.species}: its diffusion ` +
+        `coefficients rest on ${f.missing.includes('lennard-jones') ? 'Fuller' : 'Chapman-Enskog'} ` +
+        `alone, not the smaller of the two methods`,
+};
+
+const WORDING: WordingTable<FindingCode> = {
+  ...DATA_COVERAGE,
+  ...TANK_AND_GAUGES,
+  ...SUPPLY,
+  ...REAL_GAS,
+  ...FLAMMABILITY,
+  ...HEAT_AND_VAPOUR,
+  ...REACTIVE_GASES,
+  ...ORDER,
+};
+
+/** a finding in one sentence: what, the numbers behind it, what to do */
 export function describeFinding(f: Finding, p: PressureFormatter): string {
-  switch (f.code) {
-    case 'tank-over-rating':
-      return (
-        `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
-        `of tank ${f.tank} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
-        `a tank rated for it`
-      );
-    case 'no-gauge-covers':
-      return (
-        `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add ` +
-        `a gauge with that range or change the final pressure`
-      );
-    case 'gauge-coarser-than-band':
-      return (
-        `gauge ${f.gauge} has a standard uncertainty of ${p(f.uncertaintyPa)} at ` +
-        `this reading, as large as a third or more of the tolerance band +-${p(f.bandPa)}; ` +
-        `the composition tolerance may not be met - use a lower-range gauge or widen ` +
-        `the tolerance`
-      );
-    case 'purity-assumed':
-      return (
-        `no purity is given for ${f.source} (${f.species}); 100 % was assumed - enter ` +
-        `the certificate purity and impurities in the lab profile`
-      );
-    case 'unidentified-impurity':
-      return (
-        `up to ${(f.fraction * 1e6).toPrecision(3)} ppm of the batch is cylinder ` +
-        `impurity that the lab profile does not identify (1 - purity minus listed impurities)`
-      );
-    case 'supply-mismatch':
-      return (
-        `with the cylinders chosen, ${f.species} can only reach x = ${f.actual.toPrecision(5)} ` +
-        `instead of the design ${f.design.toPrecision(5)}; check the cylinders' compositions`
-      );
-    case 'impurity-present':
-      return (
-        `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} ` +
-        `from cylinder impurities`
-      );
-    case 'cross-virial-estimate':
-      return (
-        `the cross virial coefficients ${f.pairs.join(', ')} come from the combining ` +
-        `rules (no reference mixture model qualifies for them); their uncertainty ` +
-        `(calibrated on the fitted pairs: max(${VIRIAL_U.cross.absolute * 1e6} cm3/mol, ` +
-        `${VIRIAL_U.cross.relative * 100} %) each, standard, more at low reduced ` +
-        `temperature; ${VIRIAL_U.crossUncalibrated.relative * 100} % for pairs with ` +
-        `He, H2, Ne or a hydrogen-bonding species) could move this target by about ` +
-        `+-${p(f.shiftPa)} (${f.relative.toPrecision(2)} relative) against a band ` +
-        `of +-${p(f.bandPa)}${f.severity === 'warning' ? ' - the target is less certain than its band; check the batch afterwards with mixwright check, or widen the tolerance' : ''}`
-      );
-    case 'virial-correlation':
-      return (
-        `no reference virial coefficient for ${f.species} at this temperature; B ` +
-        `from the ${f.method} correlation (less certain)`
-      );
-    case 'ideal-gas-error':
-      return (
-        `an ideal-gas plan would be off by up to ${p(f.worstPa)} at one reading, ` +
-        `against a tolerance band of +-${p(f.bandPa)}: use the real-gas targets`
-      );
-    case 'supply-pressure-low':
-      return (
-        `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} ` +
-        `the tank must reach in this fill; the fill cannot be completed from it - ` +
-        `raise the regulator setting (within the cylinder's and line's ratings) or ` +
-        `lower the final pressure`
-      );
-    case 'tank-rating-unknown':
-      return (
-        `the lab profile gives no pressure rating for tank ${f.tank}; no rating is ` +
-        `assumed, so the pressure checks cannot be made - add its rating (maximum ` +
-        `allowed working pressure) to the profile, or give --rating with --volume`
-      );
-    case 'batch-too-small':
-      return (
-        `the batch serves no experiment in ${f.reactor}: at ${p(f.finalPa)} the tank ` +
-        `holds less than one fill plus the reserve (it is used down to ${p(f.minTankPa)}); ` +
-        `raise the final pressure, use a larger tank, or size the batch with --experiments`
-      );
-    case 'isolate-gauge':
-      return `close off ${f.gauge} before this fill: it reads only up to ${p(f.topPa)} absolute`;
-    case 'flammable-state':
-      return (
-        `the tank is flammable after this fill (${flammabilityDetail(f)}); choose ` +
-        `a fill order that avoids it, or treat this state as a flammable, possibly ` +
-        `explosive gas at ${p(f.pressurePa)}`
-      );
-    case 'flammable-mixture':
-      return (
-        `the finished batch is flammable (${flammabilityDetail(f)}): store and handle ` +
-        `it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`
-      );
-    case 'near-flammable':
-      return (
-        `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. ` +
-        `Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} ` +
-        `(N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points ` +
-        `below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong ` +
-        `gas could make it flammable`
-      );
-    case 'detonable-state':
-      return describeDetonation(f, p);
-    case 'closed-vessel-pressure':
-      return describeClosedVessel(f, p);
-    case 'compression-heating':
-      return (
-        `this fill compresses the gas already in the tank from ${p(f.fromPa)} to ` +
-        `${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) it ` +
-        `heats it to ${kelvin(f.endK)}, against the autoignition temperature ${kelvin(f.aitK)} ` +
-        `of ${f.fuel}, the fuel in the tank after this fill that ignites first. Throttle ` +
-        `the fill (open the valve slowly) or change the order`
-      );
-    case 'condensation': {
-      // above the vapour pressure itself it will condense, not "may"
-      const saturated = f.partialPa >= f.psatPa;
-      const share = saturated
-        ? `above its vapour pressure ${p(f.psatPa)} itself (${((f.partialPa / f.psatPa) * 100).toFixed(0)} %)`
-        : `above ${(f.fraction * 100).toFixed(0)} % of its vapour pressure ${p(f.psatPa)}`;
-      return f.inLine
-        ? `during its own fill the line holds pure ${f.species} at ${p(f.partialPa)}, ` +
-            `${share} at the coldest point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} ` +
-            `condense in the line - ${f.step === 1 ? 'it is the first fill already: heat the lines, or lower its partial pressure' : 'fill the vapour first or heat the lines'}`
-        : `${f.species} partial pressure ${p(f.partialPa)} is ${share} at the coldest ` +
-            `point (${kelvin(f.coldestK)}, ${f.method}); it ${saturated ? 'will' : 'may'} ` +
-            `condense - lower its partial pressure or heat the tank and lines`;
-    }
-    case 'psat-estimated':
-      return (
-        `the vapour pressure of ${f.species} at ${kelvin(f.coldestK)} comes from ` +
-        `${f.method} (outside the range of its measured constants); the condensation ` +
-        `check is less certain`
-      );
-    case 'coldest-temperature-assumed':
-      return (
-        `the lab profile gives no coldest temperature for tank and lines; the condensation ` +
-        `check used the fill temperature ${kelvin(f.temperatureK)} - add "coldest" ` +
-        `to the profile`
-      );
-    case 'no-flammability-data':
-      return (
-        `no flammability limits are on file for ${f.species}; the safety review is ` +
-        `incomplete for it - treat every state holding it as flammable`
-      );
-    case 'flammability-data-estimated':
-      return `flammability data estimated, not measured: ${f.what}`;
-    case 'inert-coefficient-unknown':
-      return (
-        `no ISO 10156 nitrogen-equivalence coefficient for ${f.species}; the smallest ` +
-        `listed value ${f.used} was used (conservative)`
-      );
-    case 'no-with-o2':
-      return `NO and O2 in one tank react to NO2; never premix them - fill them in separate batches`;
-    case 'acetylene-pressure':
-      return (
-        `${f.inLine ? 'the acetylene line' : 'acetylene'} reaches ${p(f.partialPa)} ` +
-        `absolute, above about 15 psig (${p(f.limitPa)} absolute), where acetylene ` +
-        `can decompose explosively`
-      );
-    case 'n2o-decomposition':
-      return (
-        `N2O at ${p(f.partialPa)} partial pressure: it can decompose exothermically ` +
-        `at elevated pressure and temperature - keep its pressure low and its lines clean`
-      );
-    case 'oxygen-service':
-      return (
-        `${f.source} is an oxidizer: open its valve slowly, use only parts cleaned ` +
-        `for oxygen service and no hydrocarbon grease`
-      );
-    case 'oxygen-enriched':
-      return (
-        `the tank holds ${pct(f.oxygenFraction)} oxygen (above 23.5 %, oxygen-enriched): ` +
-        `materials burn far more readily - oxygen-clean parts and slow valves`
-      );
-    case 'safer-order':
-      return (
-        `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} ` +
-        `avoids them (${f.reason})`
-      );
-    case 'no-safe-order':
-      return f.reason;
-    case 'flammable-fill-path':
-      return (
-        `during this fill (${f.source}) the tank passes through flammable compositions ` +
-        `while it is between ${p(Math.min(f.fromPa, f.toPa))} and ${p(Math.max(f.fromPa, f.toPa))}${f.detonable && f.detonableFromPa !== undefined && f.detonableToPa !== undefined ? `, detonable ones between ${p(Math.min(f.detonableFromPa, f.detonableToPa))} and ${p(Math.max(f.detonableFromPa, f.detonableToPa))}` : ''}, ` +
-        `although the states before and after it are not${f.detonable ? ` (only ${pct(f.inertFraction)} N2-equivalent inert at the worst point)` : ''} ` +
-        `(worst point: ${flammabilityDetail(f)})${f.detonable ? pathDetonation(f, p) : ''}; ` +
-        `change the fill order, or charge a diluent first so the path stays outside ` +
-        `the flammable region`
-      );
-    case 'flammable-at-inlet':
-      return (
-        `where ${f.source} enters the tank it mixes with the tank gas into flammable ` +
-        `compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), ` +
-        `although the tank itself stays outside the flammable region; fill it in ` +
-        `another order, or dilute the tank gas first, and open the valve slowly`
-      );
-    case 'oxygen-compression':
-      return (
-        `this fill compresses oxygen-rich gas (${pct(f.oxygenFraction)} O2-equivalent) ` +
-        `from ${p(f.fromPa)} to ${p(f.toPa)}; done fast (adiabatically, gamma ${f.gamma.toFixed(3)}) ` +
-        `it reaches ${kelvin(f.endK)}, above ${kelvin(f.limitK)}, where seats and ` +
-        `seals in oxygen service can ignite. Fill the oxidizer later, throttle this ` +
-        `fill, or use only oxygen-compatible parts`
-      );
-    // raised where a data table has no value for a species present (data coverage)
-    case 'no-autoignition-data':
-      return (
-        `no autoignition temperature is on file for ${f.species}; the compression-heating ` +
-        `check cannot judge it - take its autoignition temperature from the supplier's ` +
-        `safety data sheet and throttle every fill that compresses gas holding it`
-      );
-    case 'transport-data-not-known':
-      return f.pairsLeftOut.length
-        ? `no diffusion data (${f.missing.join(', ')}) are on file for ${f.species}: the ` +
-            `pairs ${f.pairsLeftOut.join(', ')} are left out of the slowest pair, so the ` +
-            `mixing time may be too short - stir the tank or wait well beyond it`
-        : `no ${f.missing.join(', ')} data are on file for ${f.species}: its diffusion ` +
-            `coefficients rest on ${f.missing.includes('lennard-jones') ? 'Fuller' : 'Chapman-Enskog'} ` +
-            `alone, not the smaller of the two methods`;
-  }
+  const word = WORDING[f.code] as (f: Finding, p: PressureFormatter) => string;
+  return word(f, p);
 }
 
 export function worstSeverity(findings: readonly Finding[]): Severity | undefined {

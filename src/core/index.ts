@@ -76,6 +76,7 @@ export type {
   PressureFormatter,
   Severity,
 } from './findings.js';
+export { GIVEN_VOLUME_TANK } from './findings.js';
 export {
   assessFlammability,
   blendLimits,

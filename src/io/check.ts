@@ -11,14 +11,12 @@ import {
   judge,
   planFill,
   pureCylinder,
-  type CheckVerdict,
   type CheckedReading,
   type Design,
   type GasSource,
   type Gauge,
   type Plan,
   type Tolerance,
-  type UncertaintyResult,
 } from '../core/index.js';
 import {
   gaugeFromLog,
@@ -27,7 +25,6 @@ import {
   readLog,
   sourceFromLog,
   sourceToLog,
-  type Amendment,
   type LogHeader,
   type ParsedLog,
 } from './batch-log.js';
@@ -35,6 +32,7 @@ import { auditLog, describeLogFinding, type LogFinding } from './log-audit.js';
 import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.js';
 import { readReadingsCsv } from './readings-csv.js';
 import { TORR_PA } from '../core/index.js';
+import type { CheckReportOf } from '../report/check-types.js';
 
 export interface CheckOptions {
   readonly trials: number;
@@ -45,43 +43,8 @@ export interface CheckOptions {
   readonly barometricPa?: number;
 }
 
-export interface CheckReport {
-  readonly file: string;
-  readonly id: string;
-  readonly kind: 'log' | 'csv';
-  readonly readings: readonly CheckedReading[];
-  readonly result: UncertaintyResult;
-  readonly verdict: CheckVerdict;
-  readonly design?: Design;
-  readonly tolerance: Tolerance;
-  readonly warnings: readonly string[];
-  /** what is missing for a complete batch: planned steps without a reading, or design gases without a row */
-  readonly incomplete: readonly string[];
-  /** the log as a record: readings past the working limit or a gauge's range (danger), edited lines, text/number disagreements, torn tails */
-  readonly findings: readonly LogFinding[];
-  /** corrections and withdrawals, in the order logged (applied to the readings above) */
-  readonly amendments: readonly Amendment[];
-  /** the barometric pressure the re-check used, and where it came from */
-  readonly barometer?: {
-    readonly pressurePa: number;
-    readonly uPa: number;
-    readonly from: 'log' | 'plan' | 'lab';
-    readonly by?: string;
-    readonly time?: string;
-    readonly text?: string;
-  };
-  /** a top-up: the gas already in the tank before the first fill */
-  readonly start?: {
-    readonly pressurePa: number;
-    readonly temperatureK: number;
-    readonly composition: Readonly<Record<string, number>>;
-    readonly read: boolean;
-    readonly by?: string;
-    readonly time?: string;
-  };
-  /** what stands beside the verdict: a danger in the record, an edited record */
-  readonly caveats: readonly string[];
-}
+/** the report of `check`; its record findings carry their sentence (the type lives beside the renderers) */
+export type CheckReport = CheckReportOf<LogFinding & { readonly message: string }>;
 
 /** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
 export function verdictCaveats(findings: readonly LogFinding[]): string[] {
@@ -293,7 +256,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
       `the log has no reading for step ${missingSteps.join(', ')}: the batch is ` +
         `incomplete and the re-check covers the fills logged so far`,
     );
-  const findings = auditLog(log);
+  const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
   const design = designFromHeader(h);
   const b = log.barometer;
   const barometer: NonNullable<CheckReport['barometer']> = b

@@ -168,6 +168,11 @@ export interface QuantityContext {
   readonly barometricPa?: number;
 }
 
+/** what a temperature below the physical window is */
+function coldText(k: number): string {
+  return k === 0 ? 'absolute zero' : k < 0 ? 'below absolute zero' : 'colder than any gas in a lab';
+}
+
 function checkRange(v: number, s: string, expected: Dimension, where: Where): number {
   const r = PHYSICAL_RANGE[expected];
   if (!Number.isFinite(v))
@@ -188,7 +193,7 @@ function checkRange(v: number, s: string, expected: Dimension, where: Where): nu
           what: `temperature`,
           value: v,
           text: s,
-          allowed: `${r.text}; ${s} is ${v === 0 ? 'absolute zero' : v < 0 ? 'below absolute zero' : 'colder than any gas in a lab'}`,
+          allowed: `${r.text}; ${s} is ${coldText(v)}`,
         },
         where,
       );
@@ -314,32 +319,8 @@ export function parseQuantity(
   return checkRange(v, s, expected, where);
 }
 
-/** the display units a user may choose with --units */
-export const PRESSURE_UNITS = ['Torr', 'kPa', 'bar', 'psi', 'mbar', 'Pa', 'atm'] as const;
-export type PressureUnit = (typeof PRESSURE_UNITS)[number];
-
-const PA_PER: Record<PressureUnit, number> = {
-  Torr: TORR_PA,
-  kPa: 1000,
-  bar: 1e5,
-  psi: (0.45359237 * 9.80665) / (0.0254 * 0.0254), // lb x g_n / in^2, all exact
-  mbar: 100,
-  Pa: 1,
-  atm: 101325,
-};
-
-export function isPressureUnit(u: string): u is PressureUnit {
-  return (PRESSURE_UNITS as readonly string[]).includes(u);
-}
-
-export function paPerUnit(unit: PressureUnit): number {
-  return PA_PER[unit];
-}
-
-/** convert Pa to a display unit; plain arithmetic, no mathjs on the hot path */
-export function fromPa(pa: number, unit: PressureUnit): number {
-  return pa / PA_PER[unit];
-}
+// the display half (units a renderer shows, Pa to a display unit) lives beside the renderers
+export { fromPa, isPressureUnit, paPerUnit, PRESSURE_UNITS, type PressureUnit } from '../report/units.js';
 
 /** convert a value in unit to SI through mathjs (tests compare this path against fromPa) */
 export function toSI(value: number, unit: string): number {

@@ -1,9 +1,7 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import type { CheckReport } from '../io/check.js';
-import type { Amendment, InForceReading } from '../io/batch-log.js';
-import { describeLogFinding } from '../io/log-audit.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import type { AmendmentRecord, CheckReport, LoggedReading } from './check-types.js';
 import type { OutputStat } from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
@@ -22,10 +20,8 @@ function mcNote(st: OutputStat): string {
   return inside ? 'narrower' : 'DIFFERS';
 }
 
-export function checkToText(r: CheckReport): string {
-  const out: string[] = [];
-  out.push(`Re-check  ${r.id}   (${r.kind === 'log' ? 'batch log' : 'CSV readings'} ${r.file})`);
-  out.push('');
+/** the readings the re-check used, in the gauge's own unit */
+function readingsTable(r: CheckReport): string[] {
   const readRows: string[][] = [['#', 'fill', 'gauge', 'absolute pressure', 'T degC']];
   for (const x of r.readings) {
     const u = isPressureUnit(x.gauge.unit) ? x.gauge.unit : 'Pa';
@@ -37,17 +33,21 @@ export function checkToText(r: CheckReport): string {
       (x.temperatureK - 273.15).toFixed(2),
     ]);
   }
-  out.push(...padTable(readRows, [true, false, false, true, true]));
-  out.push('');
+  return padTable(readRows, [true, false, false, true, true]);
+}
+
+/** a top-up's starting pressure and a barometer read at the fill, where the log has them */
+function startLines(r: CheckReport): string[] {
+  const out: string[] = [];
   if (r.start) {
     const u = unitOfReport(r);
+    const p = `${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u}`;
     out.push(
       r.start.read
-        ? `Top-up      started from ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ${u} ` +
+        ? `Top-up      started from ${p} ` +
             `at ${(r.start.temperatureK - 273.15).toFixed(2)} degC already in the tank, ` +
             `read by ${r.start.by} at ${r.start.time}`
-        : `Top-up      started from the planned ${fixedSig(fromPa(r.start.pressurePa, u), 7)} ` +
-            `${u} already in the tank (not read: see the findings)`,
+        : `Top-up      started from the planned ${p} already in the tank (not read: see the findings)`,
     );
   }
   if (r.barometer?.from === 'log')
@@ -55,12 +55,19 @@ export function checkToText(r: CheckReport): string {
       `Barometer   ${r.barometer.text} logged by ${r.barometer.by} at ${r.barometer.time}; ` +
         `used for the gauge-referenced readings`,
     );
-  if (r.start || r.barometer?.from === 'log') out.push('');
+  if (out.length) out.push('');
   if (r.amendments.length) {
     out.push('Corrections and withdrawals (applied to the readings above; the originals stay in the log)');
     for (const a of r.amendments) out.push(`  ${amendmentText(a)}`);
     out.push('');
   }
+  return out;
+}
+
+type Ordered = readonly (readonly [string, OutputStat])[];
+
+/** the composition with its uncertainty against the design, largest fraction first */
+function compositionTable(r: CheckReport, order: Ordered): string[] {
   const rows: string[][] = [
     [
       'species',
@@ -76,7 +83,6 @@ export function checkToText(r: CheckReport): string {
     ],
   ];
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
-  const order = Object.entries(r.result.composition).sort((a, b) => b[1].value - a[1].value);
   for (const [k, st] of order) {
     const d = dev.get(k);
     rows.push([
@@ -92,31 +98,47 @@ export function checkToText(r: CheckReport): string {
       d ? (d.provenWithin ? 'ok' : d.within ? 'ok?' : 'OUT') : '',
     ]);
   }
-  out.push(...padTable(rows, [false, true, true, true, true, false, true, true, true, false]));
-  out.push('');
-  if (r.result.phi)
+  return padTable(rows, [false, true, true, true, true, false, true, true, true, false]);
+}
+
+/** phi, the diluent fraction and the unidentified impurity, each against the design */
+function derivedLines(r: CheckReport): string[] {
+  const out: string[] = [];
+  const phi = r.result.phi;
+  if (phi) {
+    const design = r.design?.phi !== undefined ? `  (design ${r.design.phi.toFixed(4)})` : '';
     out.push(
-      `phi         ${r.result.phi.value.toFixed(5)}  u ${fixedSig(r.result.phi.u, 2)} ` +
-        ` 95 %: ${r.result.phi.low.toFixed(5)} - ${r.result.phi.high.toFixed(5)}${r.design?.phi !== undefined ? `  (design ${r.design.phi.toFixed(4)})` : ''}`,
+      `phi         ${phi.value.toFixed(5)}  u ${fixedSig(phi.u, 2)} ` +
+        ` 95 %: ${phi.low.toFixed(5)} - ${phi.high.toFixed(5)}${design}`,
     );
-  if (r.result.diluentFraction)
-    out.push(
-      `diluent     ${fixedSig(r.result.diluentFraction.value, 6)}  u ${fixedSig(r.result.diluentFraction.u, 2)}${r.design ? `  (design ${fixedSig(r.design.diluentFraction, 6)})` : ''}`,
-    );
+  }
+  const dil = r.result.diluentFraction;
+  if (dil) {
+    const design = r.design ? `  (design ${fixedSig(r.design.diluentFraction, 6)})` : '';
+    out.push(`diluent     ${fixedSig(dil.value, 6)}  u ${fixedSig(dil.u, 2)}${design}`);
+  }
   if (r.result.unidentified > 0)
     out.push(
       `unidentified cylinder impurity: ${fixedSig(r.result.unidentified * 1e6, 3)} ` +
         `ppm (not included in the fractions above)`,
     );
+  return out;
+}
+
+/** the uncertainty budget of the largest fuel fraction */
+function budgetLines(r: CheckReport, order: Ordered): string[] {
   const fuel = order.find(
     ([k]) => (r.design?.composition[k] ?? 0) > 0 && k !== 'O2' && !(r.design && k in r.design.groups.diluent),
   );
-  if (fuel) {
-    out.push('');
-    out.push(`Largest contributions to u(${fuel[0]}):`);
-    for (const b of fuel[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
-  }
-  out.push('');
+  if (!fuel) return [];
+  const out = ['', `Largest contributions to u(${fuel[0]}):`];
+  for (const b of fuel[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
+  return out;
+}
+
+/** the method note, warnings, the record's findings and the verdict with its caveats */
+function verdictLines(r: CheckReport): string[] {
+  const out: string[] = [''];
   out.push(
     r.result.trials > 0
       ? `Monte Carlo: ${r.result.trials} trials, seed ${r.result.seed} (JCGM 101; ` +
@@ -128,7 +150,7 @@ export function checkToText(r: CheckReport): string {
   if (r.findings.length) {
     out.push('');
     out.push('The record (the log itself)');
-    for (const f of r.findings) out.push(`  ${f.severity}: ${describeLogFinding(f)}`);
+    for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
   out.push('');
   out.push(
@@ -140,6 +162,22 @@ export function checkToText(r: CheckReport): string {
     }`,
   );
   for (const c of r.caveats) out.push(`            ${c}`);
+  return out;
+}
+
+export function checkToText(r: CheckReport): string {
+  const out: string[] = [];
+  out.push(`Re-check  ${r.id}   (${r.kind === 'log' ? 'batch log' : 'CSV readings'} ${r.file})`);
+  out.push('');
+  out.push(...readingsTable(r));
+  out.push('');
+  out.push(...startLines(r));
+  const order = Object.entries(r.result.composition).sort((a, b) => b[1].value - a[1].value);
+  out.push(...compositionTable(r, order));
+  out.push('');
+  out.push(...derivedLines(r));
+  out.push(...budgetLines(r, order));
+  out.push(...verdictLines(r));
   return out.join('\n') + '\n';
 }
 
@@ -148,20 +186,24 @@ function unitOfReport(r: CheckReport): PressureUnit {
   return u && isPressureUnit(u) ? u : 'Pa';
 }
 
-function readingText(x: InForceReading): string {
+function readingText(x: LoggedReading): string {
   return `${x.reading} at ${x.temperature} (line ${x.line})`;
 }
 
-/** "line 7  fill 1  corrected by QX at T: 10.0128 Torr at 25 degC (line 2) -> 10.0140 Torr at 25 degC; reason: misread" */
-export function amendmentText(a: Amendment): string {
+/**
+ * "line 7  fill 1  corrected by QX at T: 10.0128 Torr at 25 degC (line 2) -> 10.0140 Torr
+ * at 25 degC; reason: misread"
+ */
+export function amendmentText(a: AmendmentRecord): string {
   const who = `${a.by ?? '(not named)'} at ${a.time}`;
   const why = a.reason ? `; reason: ${a.reason}` : '';
   const old = a.old ? readingText(a.old) : 'nothing in force';
   if (a.kind === 'withdraw') return `line ${a.line}  fill ${a.step}  withdrawn by ${who}: ${old}${why}`;
-  return `line ${a.line}  fill ${a.step}  corrected by ${who}: ${old} -> ${a.new ? `${a.new.reading} at ${a.new.temperature}` : '-'}${why}`;
+  const now = a.new ? `${a.new.reading} at ${a.new.temperature}` : '-';
+  return `line ${a.line}  fill ${a.step}  corrected by ${who}: ${old} -> ${now}${why}`;
 }
 
-function readingJson(x: InForceReading | null) {
+function readingJson(x: LoggedReading | null) {
   return x
     ? {
         line: x.line,
@@ -215,7 +257,16 @@ export function checkToJson(r: CheckReport, version: string): object {
     })),
     design: r.design ? { composition: r.design.composition, phi: r.design.phi ?? null } : null,
     tolerance: r.tolerance,
-    deviations: r.verdict.deviations,
+    deviations: r.verdict.deviations.map((d) => ({
+      species: d.species,
+      design: d.design,
+      actual: d.actual,
+      deviation: d.deviation,
+      tolerance: d.tolerance,
+      expanded_u: d.expandedU,
+      within: d.within,
+      proven_within: d.provenWithin,
+    })),
     verdict: r.verdict.verdict,
     incomplete: r.incomplete,
     warnings: r.warnings,
@@ -231,10 +282,10 @@ export function checkToJson(r: CheckReport, version: string): object {
     })),
     record_findings: r.findings.map((f) => ({
       severity: f.severity,
-      code: f.code === 'record' ? f.issue.code : f.code,
+      code: f.code === 'record' && f.issue ? f.issue.code : f.code,
       step: f.step,
       line: f.line,
-      message: describeLogFinding(f),
+      message: f.message,
     })),
     verdict_caveats: r.caveats,
     danger: r.findings.some((f) => f.severity === 'danger'),

@@ -176,6 +176,12 @@ export function placeNumbers(
   });
 }
 
+/** a tank state on a diagram: its circle, and its number where placeNumbers put it */
+function stateMark(x: number, y: number, spot: { x: number; y: number; text: string }): string {
+  const num = spot.text ? `<text x="${f1(spot.x)}" y="${f1(spot.y)}" class="num">${spot.text}</text>` : '';
+  return `<circle cx="${f1(x)}" cy="${f1(y)}" r="4.5" class="state"/>${num}`;
+}
+
 export function diagramSvg(d: DiagramData, title: string): string {
   const pts = (list: readonly [number, number][]) =>
     list.map(([f, o]) => px(f, o).map(f1).join(',')).join(' ');
@@ -212,7 +218,8 @@ export function diagramSvg(d: DiagramData, title: string): string {
       );
     })
     .join('');
-  // vertex labels: fuel left of the apex (the state of a pure first fill sits on it); inert and O2 on a second row below the O2 scale
+  // vertex labels: fuel left of the apex (the state of a pure first fill sits on it); inert and O2
+  // on a second row below the O2 scale
   const vertexBoxes: Box[] = [
     { x0: fx - 56, y0: fy - 8, x1: fx - 8, y1: fy + 8 },
     { x0: ix - 4, y0: iy + 4, x1: ix + 90, y1: iy + 32 },
@@ -223,12 +230,7 @@ export function diagramSvg(d: DiagramData, title: string): string {
     d.path.map((p, i) => ({ label: p.label, x: path[i][0], y: path[i][1] })),
     vertexBoxes,
   );
-  const marks = d.path
-    .map((_, i) => {
-      const [x, y] = path[i];
-      return `<circle cx="${f1(x)}" cy="${f1(y)}" r="4.5" class="state"/>${spots[i].text ? `<text x="${f1(spots[i].x)}" y="${f1(spots[i].y)}" class="num">${spots[i].text}</text>` : ''}`;
-    })
-    .join('');
+  const marks = d.path.map((_, i) => stateMark(path[i][0], path[i][1], spots[i])).join('');
   // the scale: fuel fraction at the left ends of its grid lines, O2 fraction along the base
   const scale: string[] = [];
   for (const t of [0.2, 0.4, 0.6, 0.8]) {
@@ -246,28 +248,39 @@ export function diagramSvg(d: DiagramData, title: string): string {
   }
   const [lx, ly] = px(d.lfl, 0.21 * (1 - d.lfl));
   const [ux, uy] = px(d.ufl, 0.21 * (1 - d.ufl));
-  return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="${title}">
-<defs><pattern id="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
-<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:12px sans-serif}.burn{stroke:#999;stroke-width:9;stroke-linecap:round}.tick{font:10px sans-serif}</style>
-<title>${title}</title>
-${grid.join('')}
-<polygon points="${pts(d.envelope)}" class="zone"/>
-<polygon points="${tri}" class="edge"/>
-<line x1="${f1(ax)}" y1="${f1(ay)}" x2="${f1(fx)}" y2="${f1(fy)}" class="air"/>
-<line x1="${f1(ix)}" y1="${f1(iy)}" x2="${f1(sx)}" y2="${f1(sy)}" class="stoich"/>
-<circle cx="${f1(lx)}" cy="${f1(ly)}" r="2.5"/><circle cx="${f1(ux)}" cy="${f1(uy)}" r="2.5"/>
-${burn}${pathLine}${marks}${
-    d.flammable.length
-      ? `\n<line x1="${f1(W - 150)}" y1="18" x2="${f1(W - 130)}" y2="18" class="burn"/><text ` +
-        `x="${f1(W - 124)}" y="22" class="lab">flammable during a fill</text>`
-      : ''
-  }
-${scale.join('')}
-<text x="${f1(ix - 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="start">inert (N2-eq.)</text>
-<text x="${f1(M + SCALE + 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="end">O2, %</text>
-<text x="${f1(fx - 10)}" y="${f1(fy + 4)}" class="lab" text-anchor="end">fuel, %</text>
-<text x="${f1(ax)}" y="${f1(ay + 15)}" class="lab" text-anchor="middle">air</text>
-</svg>`;
+  return [
+    `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" ` +
+      `role="img" aria-label="${title}">`,
+    `<defs><pattern id="hatch" width="6" height="6" patternUnits="userSpaceOnUse" ` +
+      `patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/>` +
+      `</pattern></defs>`,
+    `<style>.grid{stroke:#bbb;stroke-width:0.5}.edge{fill:none;stroke:#000;stroke-width:1.5}` +
+      `.zone{fill:url(#hatch);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;` +
+      `stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;` +
+      `stroke:#000;stroke-width:2}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px ` +
+      `sans-serif}.lab{font:12px sans-serif}.burn{stroke:#999;stroke-width:9;stroke-linecap:round}` +
+      `.tick{font:10px sans-serif}</style>`,
+    `<title>${title}</title>`,
+    `${grid.join('')}`,
+    `<polygon points="${pts(d.envelope)}" class="zone"/>`,
+    `<polygon points="${tri}" class="edge"/>`,
+    `<line x1="${f1(ax)}" y1="${f1(ay)}" x2="${f1(fx)}" y2="${f1(fy)}" class="air"/>`,
+    `<line x1="${f1(ix)}" y1="${f1(iy)}" x2="${f1(sx)}" y2="${f1(sy)}" class="stoich"/>`,
+    `<circle cx="${f1(lx)}" cy="${f1(ly)}" r="2.5"/><circle cx="${f1(ux)}" cy="${f1(uy)}" r="2.5"/>`,
+    `${burn}${pathLine}${marks}` +
+      `${
+        d.flammable.length
+          ? `\n<line x1="${f1(W - 150)}" y1="18" x2="${f1(W - 130)}" y2="18" class="burn"/><text ` +
+            `x="${f1(W - 124)}" y="22" class="lab">flammable during a fill</text>`
+          : ''
+      }`,
+    `${scale.join('')}`,
+    `<text x="${f1(ix - 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="start">inert (N2-eq.)</text>`,
+    `<text x="${f1(M + SCALE + 4)}" y="${f1(iy + 29)}" class="lab" text-anchor="end">O2, %</text>`,
+    `<text x="${f1(fx - 10)}" y="${f1(fy + 4)}" class="lab" text-anchor="end">fuel, %</text>`,
+    `<text x="${f1(ax)}" y="${f1(ay + 15)}" class="lab" text-anchor="middle">air</text>`,
+    `</svg>`,
+  ].join('\n');
 }
 
 /**
@@ -286,24 +299,30 @@ export function detailRange(d: DiagramData): { oMax: number; fMax: number } {
   return { oMax, fMax };
 }
 
-function outside(d: DiagramData, oMax: number, fMax: number): string {
+function outside(d: DiagramData, oMax: number, fMax: number, right: number): string {
   const off = d.path.filter((p) => p.fuel > fMax || p.oxygen > oMax).map((p) => p.label);
   return off.length
-    ? `<text x="440" y="12" class="lab" text-anchor="end">state ${off.join(', ')} ` +
+    ? `<text x="${right}" y="${OUTSIDE_BASELINE}" class="lab" text-anchor="end">state ${off.join(', ')} ` +
         `outside this detail (see the triangle)</text>`
     : '';
 }
 
+/** the baseline of the "outside this detail" caption, and the frame's top when it is there (room for its descenders) */
+const OUTSIDE_BASELINE = 13;
+const TOP_WITH_CAPTION = 24;
+
 export function detailSvg(d: DiagramData, title: string): string {
   const w = 440;
   const h = 300;
-  const m = { l: 56, r: 14, t: 14, b: 40 };
   const r = detailRange(d);
   // round ticks: the axes end on a whole step of 1, 2, 2.5 or 5 times a power of ten
   const oStep = niceStep(r.oMax);
   const fStep = niceStep(r.fMax);
   const oMax = Math.min(1, Math.ceil(r.oMax / oStep - 1e-9) * oStep);
   const fMax = Math.min(1, Math.ceil(r.fMax / fStep - 1e-9) * fStep);
+  // a caption above the frame moves the frame down so they do not overlap; it ends where the frame ends
+  const caption = outside(d, oMax, fMax, w - 14);
+  const m = { l: 56, r: 14, t: caption ? TOP_WITH_CAPTION : 14, b: 40 };
   const X = (o: number) => m.l + (o / oMax) * (w - m.l - m.r);
   const Y = (f: number) => h - m.b - (f / fMax) * (h - m.t - m.b);
   const poly = d.envelope.map(([f, o]) => `${f1(X(o))},${f1(Y(f))}`).join(' ');
@@ -335,25 +354,37 @@ export function detailSvg(d: DiagramData, title: string): string {
       : '';
   const fs = Math.min(fMax, oMax / Math.max(d.z, 1e-9));
   const stoich = `<line x1="${f1(X(0))}" y1="${f1(Y(0))}" x2="${f1(X(d.z * fs))}" y2="${f1(Y(fs))}" class="stoich"/>`;
-  return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${w} ${h}" width="${w}" height="${h}" role="img" aria-label="${title}">
-<defs><clipPath id="plotarea"><rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}"/></clipPath><pattern id="hatch2" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="#000" stroke-width="1"/></pattern></defs>
-<style>.edge{fill:none;stroke:#000;stroke-width:1.2}.zone{fill:url(#hatch2);stroke:#000;stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}.burn{stroke:#999;stroke-width:9;stroke-linecap:round}.state{fill:#fff;stroke:#000;stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:11px sans-serif}</style>
-<title>${title}</title>
-<g clip-path="url(#plotarea)"><polygon points="${poly}" class="zone"/>${air}${stoich}</g>
-<rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}" class="edge"/>
-<g clip-path="url(#plotarea)">${d.flammable
-    .map(
-      (b) =>
-        `<line x1="${f1(X(b.from.oxygen))}" y1="${f1(Y(b.from.fuel))}" x2="${f1(X(b.to.oxygen))}" ` +
-        `y2="${f1(Y(b.to.fuel))}" class="burn"/>`,
-    )
-    .join(
-      '',
-    )}${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}
-${d.path.map((_, i) => `<circle cx="${f1(path[i][0])}" cy="${f1(path[i][1])}" r="4.5" class="state"/>${spots[i].text ? `<text x="${f1(spots[i].x)}" y="${f1(spots[i].y)}" class="num">${spots[i].text}</text>` : ''}`).join('')}</g>
-${outside(d, oMax, fMax)}
-${ticks.join('')}
-<text x="${f1((m.l + w - m.r) / 2)}" y="${h - 6}" class="lab" text-anchor="middle">O2, % (N2-equivalent basis)</text>
-<text x="14" y="${f1((m.t + h - m.b) / 2)}" class="lab" text-anchor="middle" transform="rotate(-90 14 ${f1((m.t + h - m.b) / 2)})">fuel, %</text>
-</svg>`;
+  return [
+    `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${w} ${h}" width="${w}" height="${h}" ` +
+      `role="img" aria-label="${title}">`,
+    `<defs><clipPath id="plotarea"><rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="` +
+      `${h - m.t - m.b}"/></clipPath><pattern id="hatch2" width="6" height="6" ` +
+      `patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" ` +
+      `stroke="#000" stroke-width="1"/></pattern></defs>`,
+    `<style>.edge{fill:none;stroke:#000;stroke-width:1.2}.zone{fill:url(#hatch2);stroke:#000;` +
+      `stroke-width:1.2}.air{stroke:#000;stroke-width:1;stroke-dasharray:6 3}.stoich{stroke:#000;` +
+      `stroke-width:1;stroke-dasharray:2 3}.path{fill:none;stroke:#000;stroke-width:2}` +
+      `.burn{stroke:#999;stroke-width:9;stroke-linecap:round}.state{fill:#fff;stroke:#000;` +
+      `stroke-width:1.5}.num{font:bold 13px sans-serif}.lab{font:11px sans-serif}</style>`,
+    `<title>${title}</title>`,
+    `<g clip-path="url(#plotarea)"><polygon points="${poly}" class="zone"/>${air}${stoich}</g>`,
+    `<rect x="${m.l}" y="${m.t}" width="${w - m.l - m.r}" height="${h - m.t - m.b}" class="edge"/>`,
+    `<g clip-path="url(#plotarea)">` +
+      `${d.flammable
+        .map(
+          (b) =>
+            `<line x1="${f1(X(b.from.oxygen))}" y1="${f1(Y(b.from.fuel))}" x2="${f1(X(b.to.oxygen))}" ` +
+            `y2="${f1(Y(b.to.fuel))}" class="burn"/>`,
+        )
+        .join('')}` +
+      `${path.length > 1 ? `<polyline points="${path.map((p) => p.map(f1).join(',')).join(' ')}" class="path"/>` : ''}`,
+    `${d.path.map((_, i) => stateMark(path[i][0], path[i][1], spots[i])).join('')}` + `</g>`,
+    caption,
+    `${ticks.join('')}`,
+    `<text x="${f1((m.l + w - m.r) / 2)}" y="${h - 6}" class="lab" text-anchor="middle">O2, % ` +
+      `(N2-equivalent basis)</text>`,
+    `<text x="14" y="${f1((m.t + h - m.b) / 2)}" class="lab" text-anchor="middle" ` +
+      `transform="rotate(-90 14 ${f1((m.t + h - m.b) / 2)})">fuel, %</text>`,
+    `</svg>`,
+  ].join('\n');
 }

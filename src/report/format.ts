@@ -1,5 +1,6 @@
 /** Number and pressure formatting shared by every renderer. */
-import { fromPa, type PressureUnit } from '../io/quantity.js';
+import { GIVEN_VOLUME_TANK } from '../core/index.js';
+import { fromPa, type PressureUnit } from './units.js';
 
 /** a fixed number of decimals that keeps about `sig` significant digits */
 export function fixedSig(v: number, sig = 6): string {
@@ -31,4 +32,9 @@ export function padTable(rows: readonly (readonly string[])[], rightAlign: reado
       .join('  ')
       .trimEnd(),
   );
+}
+
+/** a tank as a lab member reads its name: a tank known only by its volume is said to be so */
+export function tankName(id: string): string {
+  return id === GIVEN_VOLUME_TANK ? 'unnamed tank (volume given)' : id;
 }

@@ -7,11 +7,9 @@
  * functions of this model.
  */
 import { STANDING_CAUTION } from '../core/index.js';
-import type { CheckReport } from '../io/check.js';
-import type { InForceReading, ParsedLog } from '../io/batch-log.js';
-import { describeLogFinding } from '../io/log-audit.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import { decimalsFor, fixedSig } from './format.js';
+import type { CheckReport, LoggedReading, LogView } from './check-types.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import { decimalsFor, fixedSig, tankName } from './format.js';
 import { labelLines, labelModel, type LabelModel } from './label-model.js';
 
 export interface CertificateRow {
@@ -89,7 +87,7 @@ function unitOf(u: string): PressureUnit {
 }
 
 /** how a reading is named in a correction line: as typed, with the line it sits on */
-function readingText(x: InForceReading | null): string {
+function readingText(x: LoggedReading | null): string {
   return x ? `${x.reading} (line ${x.line})` : '(no reading in force)';
 }
 
@@ -111,13 +109,8 @@ function shortTime(t: string): string {
   return m ? `${m[1]} ${m[2]} UTC` : t;
 }
 
-export function buildCertificateModel(
-  r: CheckReport,
-  log: ParsedLog | undefined,
-  meta: CertificateMeta,
-): CertificateModel {
-  const label = labelModel(r, log);
-  const h = log?.header;
+/** one row per species: design, as filled with U, deviation, tolerance and status */
+function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
   const pct = (x: number) => `${fixedSig(x * 100, 5)} %`;
   const rows: CertificateRow[] = label.composition.map((c) => {
@@ -145,19 +138,16 @@ export function buildCertificateModel(
         status: 'OUT',
       });
   }
-  const phi: [string, string] = [
-    r.design?.phi !== undefined ? r.design.phi.toFixed(4) : 'n/a',
-    label.phi ?? 'n/a',
-  ];
-  const dilution: [string, string] = [
-    r.design ? pct(r.design.diluentFraction) : 'n/a',
-    label.dilution ?? 'n/a',
-  ];
+  return rows;
+}
+
+/** the readings as the re-check used them, with what the log says of each (typed text, time, initials) */
+function certificateReadings(r: CheckReport, log: LogView | undefined): CertificateReading[] {
   const byStep = new Map((log?.readings ?? []).map((x) => [x.step, x]));
   const dangerLines = new Set(
     r.findings.filter((f) => f.severity === 'danger' && f.line !== null).map((f) => f.line),
   );
-  const readings: CertificateReading[] = r.readings.map((x) => {
+  return r.readings.map((x) => {
     const u = unitOf(x.gauge.unit);
     const dec = Math.max(0, decimalsFor(fromPa(x.gauge.resolutionPa, u)));
     const lr = byStep.get(x.step);
@@ -179,17 +169,17 @@ export function buildCertificateModel(
         .join('; '),
     };
   });
-  const acknowledgements = (log?.acknowledgements ?? []).map(
-    (a) =>
-      `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`,
-  );
+}
+
+/** the check's warnings, the record's findings and the plan's findings, dangers first */
+function certificateFindings(r: CheckReport, log: LogView | undefined): { severity: string; text: string }[] {
   const findings: { severity: string; text: string }[] = [];
   // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
   for (const w of r.warnings)
     if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
   // the log as a record (readings past a limit, edited lines, text and number that disagree), worded once
-  for (const f of r.findings) findings.push({ severity: f.severity, text: describeLogFinding(f) });
-  for (const f of h?.findings ?? [])
+  for (const f of r.findings) findings.push({ severity: f.severity, text: f.message });
+  for (const f of log?.header.findings ?? [])
     if (f.code !== 'isolate-gauge')
       findings.push({
         severity: f.severity,
@@ -197,6 +187,11 @@ export function buildCertificateModel(
       });
   const order = ['danger', 'check', 'warning', 'note'];
   findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
+  return findings;
+}
+
+/** how the composition and its uncertainty were computed, with the barometer and thermometer used */
+function methodText(r: CheckReport, h: LogView['header'] | undefined): string {
   const baro = h
     ? `Barometer ${fixedSig(fromPa(h.barometer.pressure_Pa, 'Torr'), 5)} Torr (u ` +
       `${fixedSig(fromPa(h.barometer.u_Pa, 'Torr'), 2)} Torr) for gauge-referenced readings. `
@@ -204,7 +199,7 @@ export function buildCertificateModel(
   const thermo = h
     ? `Thermometer u ${h.thermometer.u_K} K, resolution ${h.thermometer.resolution_K} K. `
     : '';
-  const method =
+  return (
     `Composition from the logged readings by the real-gas inverse model of mixwright ` +
     `check; uncertainty by the GUM law of propagation (JCGM 100), U = 2u (k = 2)` +
     (r.result.trials > 0
@@ -214,10 +209,39 @@ export function buildCertificateModel(
     thermo +
     (r.result.unidentified > 0
       ? `Unidentified cylinder impurity ${fixedSig(r.result.unidentified * 1e6, 3)} ppm, not in the fractions.`
-      : '');
-  const tank = h
-    ? `${h.tank.id}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${h.tank.rated_pressure_Pa ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr` : ', rating not known'}`
-    : label.tank;
+      : '')
+  );
+}
+
+/** the tank as the log names it: volume and rating */
+function tankText(h: LogView['header'] | undefined, label: LabelModel): string {
+  if (!h) return label.tank;
+  const rated = h.tank.rated_pressure_Pa
+    ? `, rated ${fixedSig(fromPa(h.tank.rated_pressure_Pa, 'Torr'), 4)} Torr`
+    : ', rating not known';
+  return `${tankName(h.tank.id)}, ${fixedSig(h.tank.volume_m3 * 1000, 4)} L${rated}`;
+}
+
+export function buildCertificateModel(
+  r: CheckReport,
+  log: LogView | undefined,
+  meta: CertificateMeta,
+): CertificateModel {
+  const label = labelModel(r, log);
+  const h = log?.header;
+  const pct = (x: number) => `${fixedSig(x * 100, 5)} %`;
+  const phi: [string, string] = [
+    r.design?.phi !== undefined ? r.design.phi.toFixed(4) : 'n/a',
+    label.phi ?? 'n/a',
+  ];
+  const dilution: [string, string] = [
+    r.design ? pct(r.design.diluentFraction) : 'n/a',
+    label.dilution ?? 'n/a',
+  ];
+  const acknowledgements = (log?.acknowledgements ?? []).map(
+    (a) =>
+      `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`,
+  );
   const recipe = h?.recipe as { title?: unknown; id?: unknown } | undefined;
   const title =
     typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
@@ -225,7 +249,7 @@ export function buildCertificateModel(
     title,
     batchId: r.id,
     lab: label.lab,
-    tank,
+    tank: tankText(h, label),
     created: h?.created ? shortTime(h.created) : '-',
     closed: log
       ? log.closed
@@ -243,14 +267,14 @@ export function buildCertificateModel(
         `a danger (below), and the tank is not fit to use.`
       : VERDICT_TEXT[label.status],
     caveats: r.caveats,
-    rows,
+    rows: compositionRows(r, label),
     phi,
     dilution,
-    readings,
+    readings: certificateReadings(r, log),
     corrections: amendmentLines(r),
     acknowledgements,
-    findings,
-    method,
+    findings: certificateFindings(r, log),
+    method: methodText(r, h),
     caution:
       `The composition is computed from the logged readings and is only as good ` +
       `as they are. ${STANDING_CAUTION}`,

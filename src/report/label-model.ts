@@ -10,10 +10,9 @@
  * Pure: the fill's end screen and `mixwright label` both call it.
  */
 import { assessFlammability, type OutputStat, type VerdictKind } from '../core/index.js';
-import type { CheckReport } from '../io/check.js';
-import type { ParsedLog } from '../io/batch-log.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import { decimalsFor, fixedSig } from './format.js';
+import type { CheckReport, LogView } from './check-types.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import { decimalsFor, fixedSig, tankName } from './format.js';
 
 /** one mole fraction on the label, in mole percent, with its expanded uncertainty U (k = 2) */
 export interface LabelFraction {
@@ -45,7 +44,10 @@ export interface LabelModel {
   readonly finalTemperature: string;
   /** flammability of the as-filled composition at the final state */
   readonly hazard: string;
-  /** the log records a danger (a reading past the tank's working limit or a gauge's range): whatever the composition, the tank is not fit to use */
+  /**
+   * the log records a danger (a reading past the tank's working limit or a gauge's range):
+   * whatever the composition, the tank is not fit to use
+   */
   readonly danger: boolean;
   /** what stands beside the verdict, as `check` words it (report.caveats) */
   readonly caveats: readonly string[];
@@ -135,7 +137,7 @@ function offDesign(r: CheckReport): string[] {
   return out;
 }
 
-function hazardLine(r: CheckReport, log?: ParsedLog): string {
+function hazardLine(r: CheckReport, log?: LogView): string {
   const y: Record<string, number> = {};
   for (const [k, st] of Object.entries(r.result.composition)) y[k] = st.value;
   const last = r.readings[r.readings.length - 1];
@@ -152,7 +154,7 @@ function hazardLine(r: CheckReport, log?: ParsedLog): string {
   return 'see the findings and supplier safety data before use';
 }
 
-export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
+export function labelModel(r: CheckReport, log?: LogView): LabelModel {
   const status = statusOf(r);
   const danger = recordsDanger(r);
   const composition = Object.entries(r.result.composition)
@@ -171,7 +173,7 @@ export function labelModel(r: CheckReport, log?: ParsedLog): LabelModel {
   const dil = r.result.diluentFraction;
   return {
     batchId: r.id,
-    tank: log?.header.tank.id ?? 'tank not logged',
+    tank: log ? tankName(log.header.tank.id) : 'tank not logged',
     lab: log?.header.lab ?? '',
     filledOn: lastTime ? lastTime.slice(0, 10) : 'date not logged',
     status,

@@ -11,45 +11,54 @@ const pm = (s: string) => s.replace(/\+-/g, '±');
 const bad = (m: CertificateModel) =>
   m.label.status === 'fail' || m.label.status === 'incomplete' || m.label.danger;
 
-const CSS = (paper: 'a4' | 'letter') => `
-@page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 11mm; }
-* { box-sizing: border-box; }
-body { font-family: "Liberation Sans", Arial, Helvetica, sans-serif; font-size: 9pt; color: #000; margin: 0; }
-h1 { font-size: 15pt; margin: 0 0 1.5mm 0; }
-h2 { font-size: 10.5pt; margin: 2.2mm 0 0.8mm 0; border-bottom: 1px solid #000; break-after: avoid; page-break-after: avoid; }
-.meta { display: flex; flex-wrap: wrap; gap: 1mm 6mm; font-size: 9pt; margin-bottom: 1.5mm; }
-.verdict { border: 2px solid #000; padding: 1.2mm 3mm; margin: 1.5mm 0; font-weight: bold; }
-.verdict.fail { border-width: 4px; font-size: 11pt; }
-table { border-collapse: collapse; width: 100%; }
-td, th { border: 1px solid #000; padding: 0.5mm 1.3mm; vertical-align: top; }
-th { background: #eee; font-size: 8.5pt; text-align: left; }
-td.num { text-align: right; white-space: nowrap; }
-td.out { font-weight: bold; }
-tr { break-inside: avoid; page-break-inside: avoid; }
-ul { margin: 0; padding-left: 5mm; }
-li { margin: 0.4mm 0; }
-.findings li { font-size: 8.5pt; margin: 0.2mm 0; }
-.findings p.notes { font-size: 8pt; margin: 0.8mm 0 0 0; }
-p { margin: 1mm 0; }
-.sev { font-weight: bold; text-transform: uppercase; }
-.small { font-size: 8.5pt; }
-.block { break-inside: avoid; page-break-inside: avoid; }
-.labelbox { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 10pt; break-inside: avoid; page-break-inside: avoid; }
-.labelbox.fail { border: 4px solid #000; }
-.labelbox .head { font-weight: bold; }
-.labelbox.fail .head { font-size: 11pt; }
-.labelbox .off { font-weight: bold; }
-.labelbox .grid { display: grid; grid-template-columns: repeat(2, auto); gap: 0 5mm; justify-content: start; white-space: nowrap; }
-.labelbox .hazard { font-weight: bold; }
-.labelrow { display: flex; gap: 5mm; align-items: flex-start; }
-.labelrow .labelbox { flex: 0 0 136mm; }
-.sign { flex: 1; display: flex; flex-direction: column; gap: 3mm; }
-.field { border-bottom: 1px solid #000; min-height: 8mm; font-size: 8.5pt; }
-td.nw { white-space: nowrap; }
-.caution { font-size: 8pt; border-top: 1px solid #000; margin-top: 2mm; padding-top: 0.8mm; }
-footer { font-size: 7.5pt; margin-top: 1mm; }
-@media screen { body { max-width: 190mm; margin: 8mm auto; } }
-`;
+const CSS = (paper: 'a4' | 'letter') =>
+  [
+    '',
+    `@page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 11mm; }`,
+    `* { box-sizing: border-box; }`,
+    `body { font-family: "Liberation Sans", Arial, Helvetica, sans-serif; font-size: 9pt; color: ` +
+      `#000; margin: 0; }`,
+    `h1 { font-size: 15pt; margin: 0 0 1.5mm 0; }`,
+    `h2 { font-size: 10.5pt; margin: 2.2mm 0 0.8mm 0; border-bottom: 1px solid #000; break-after: ` +
+      `avoid; page-break-after: avoid; }`,
+    `.meta { display: flex; flex-wrap: wrap; gap: 1mm 6mm; font-size: 9pt; margin-bottom: 1.5mm; }`,
+    `.verdict { border: 2px solid #000; padding: 1.2mm 3mm; margin: 1.5mm 0; font-weight: bold; }`,
+    `.verdict.fail { border-width: 4px; font-size: 11pt; }`,
+    `table { border-collapse: collapse; width: 100%; }`,
+    `td, th { border: 1px solid #000; padding: 0.5mm 1.3mm; vertical-align: top; }`,
+    `th { background: #eee; font-size: 8.5pt; text-align: left; }`,
+    `td.num { text-align: right; white-space: nowrap; }`,
+    `td.out { font-weight: bold; }`,
+    `tr { break-inside: avoid; page-break-inside: avoid; }`,
+    `ul { margin: 0; padding-left: 5mm; }`,
+    `li { margin: 0.4mm 0; }`,
+    `.findings li { font-size: 8.5pt; margin: 0.2mm 0; }`,
+    `.findings p.notes { font-size: 8pt; margin: 0.8mm 0 0 0; }`,
+    `p { margin: 1mm 0; }`,
+    `.sev { font-weight: bold; text-transform: uppercase; }`,
+    `.small { font-size: 8.5pt; }`,
+    `.block { break-inside: avoid; page-break-inside: avoid; }`,
+    `.labelbox { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 10pt; break-inside: avoid; ` +
+      `page-break-inside: avoid; }`,
+    `.labelbox.fail { border: 4px solid #000; }`,
+    `.labelbox .head { font-weight: bold; }`,
+    `.labelbox.fail .head { font-size: 11pt; }`,
+    `.labelbox .off { font-weight: bold; }`,
+    `.labelbox .grid { display: grid; grid-template-columns: repeat(2, auto); gap: 0 5mm; ` +
+      `justify-content: start; white-space: nowrap; }`,
+    `.labelbox .hazard { font-weight: bold; }`,
+    `.labelrow { display: flex; gap: 5mm; align-items: flex-start; }`,
+    `.labelrow .labelbox { flex: 0 0 136mm; }`,
+    `.sign { flex: 1; display: flex; flex-direction: column; gap: 3mm; }`,
+    `.field { border-bottom: 1px solid #000; min-height: 8mm; font-size: 8.5pt; }`,
+    `td.nw { white-space: nowrap; }`,
+    `.caution { font-size: 8pt; border-top: 1px solid #000; margin-top: 2mm; padding-top: 0.8mm; }`,
+    `footer { font-size: 7.5pt; margin-top: 1mm; }`,
+    `@media screen { body { max-width: 190mm; margin: 8mm auto; } }`,
+    '',
+  ].join('\n');
+
+const NOT_DESIGN = 'DO NOT USE AS THE DESIGN MIXTURE';
 
 function list(items: readonly string[], none: string): string {
   return items.length
@@ -63,7 +72,8 @@ export function certificateToHtml(m: CertificateModel): string {
       (r) =>
         `<tr><td><b>${esc(r.species)}</b></td><td class="num">${esc(r.design)}</td><td ` +
         `class="num">${esc(pm(r.asFilled))}</td><td class="num">${esc(r.deviation)}</td><td ` +
-        `class="num">${esc(pm(r.tolerance))}</td><td class="${r.status === 'OUT' ? 'out' : ''}">${esc(r.status)}</td></tr>`,
+        (`class="num">${esc(pm(r.tolerance))}</td><td class="${r.status === 'OUT' ? 'out' : ''}">` +
+          `${esc(r.status)}</td></tr>`),
     )
     .join('');
   const readings = m.readings
@@ -71,52 +81,87 @@ export function certificateToHtml(m: CertificateModel): string {
       (r) =>
         `<tr><td>${r.step}</td><td class="nw">${esc(r.fill)}</td><td class="nw">${esc(r.gauge)}</td><td ` +
         `class="num">${esc(r.typed)}</td><td class="num">${esc(r.absolute)}</td><td ` +
-        `class="num">${esc(r.temperature)}</td><td class="nw">${esc(r.time)}</td><td>${esc(r.by)}</td><td>${esc(r.note)}</td></tr>`,
+        (`class="num">${esc(r.temperature)}</td><td class="nw">${esc(r.time)}</td><td>${esc(r.by)}</td>` +
+          `<td>${esc(r.note)}</td></tr>`),
     )
     .join('');
   const major = m.findings.filter((f) => f.severity !== 'note');
   const notes = m.findings.filter((f) => f.severity === 'note');
   const findings =
     (major.length
-      ? `<ul>${major.map((f) => `<li><span class="sev">${esc(f.severity)}</span> ${esc(pm(f.text))}</li>`).join('')}</ul>`
+      ? `<ul>` +
+        `${major.map((f) => `<li><span class="sev">${esc(f.severity)}</span> ${esc(pm(f.text))}</li>`).join('')}` +
+        `</ul>`
       : '') +
     (notes.length
       ? `<p class="notes"><span class="sev">notes</span> ${notes.map((f) => esc(pm(f.text))).join(' &middot; ')}</p>`
       : '') +
     (m.findings.length ? '' : '<p class="small">No findings.</p>');
   const L = m.label;
-  const labelBox = `<div class="labelbox${bad(m) ? ' fail' : ''}">${L.danger ? `<div class="head">${esc(DANGER_HEADLINE)}</div>` : ''}<div class="head">${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}${L.caveats.map((c) => `<div class="off">${esc(c)}</div>`).join('')}
-<div>Batch <b>${esc(L.batchId)}</b> &middot; tank <b>${esc(L.tank)}</b> &middot; filled ${esc(L.filledOn)}</div>
-<div class="small">As filled, mole fraction &plusmn; U (k = 2):</div>
-<div class="grid">${L.composition.map((c) => `<div><b>${esc(c.species)}</b> ${esc(pm(c.text))}</div>`).join('')}</div>
-<div>${[L.phi ? `phi ${esc(pm(L.phi))}` : '', L.dilution ? `dilution ${esc(pm(L.dilution))}` : ''].filter(Boolean).join(' &middot; ')}</div>
-<div>${esc(L.finalPressure)} at ${esc(L.finalTemperature)}</div>
-<div class="hazard">${esc(L.hazard)}</div>${L.status === 'fail' || L.status === 'incomplete' ? '<div class="head">DO NOT USE AS THE DESIGN MIXTURE</div>' : ''}${
-    L.danger
-      ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN ' + 'INSPECTED</div>'
-      : ''
-  }</div>`;
-  return `<!DOCTYPE html>
-<html lang="en"><head><meta charset="utf-8"><title>Batch certificate ${esc(m.batchId)}</title><style>${CSS(m.paper)}</style></head>
-<body>
-<h1>Batch certificate &mdash; ${esc(m.title)}</h1>
-<div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.lab)}</div><div>Tank: ${esc(m.tank)}</div><div>Log started ${esc(m.created)}, ${esc(m.closed)}</div></div>
-<div class="verdict${bad(m) ? ' fail' : ''}">${esc(m.verdictText)}${m.caveats.map((c) => `<br>${esc(c)}`).join('')}</div>
-<section class="block"><h2>Composition: design and as filled (mole fraction, &plusmn; U at k = 2)</h2>
-<table><tr><th>species</th><th>design</th><th>as filled &plusmn; U</th><th>deviation (rel.)</th><th>tolerance</th><th>status</th></tr>${comp}
-<tr><td><b>phi</b></td><td class="num">${esc(m.phi[0])}</td><td class="num">${esc(pm(m.phi[1]))}</td><td></td><td></td><td></td></tr>
-<tr><td><b>dilution</b></td><td class="num">${esc(m.dilution[0])}</td><td class="num">${esc(pm(m.dilution[1]))}</td><td></td><td></td><td></td></tr></table></section>
-<section class="block"><h2>Readings as logged</h2>
-<table><tr><th>#</th><th>fill</th><th>gauge</th><th>as read</th><th>absolute</th><th>tank T</th><th>time</th><th>by</th><th>note</th></tr>${readings}</table></section>
-<section class="block"><h2>Corrections and acknowledgements</h2>
-${m.corrections.length || m.acknowledgements.length ? `${list(m.corrections, 'No corrections logged.')}${list(m.acknowledgements, 'No acknowledgements logged.')}` : '<p class="small">No corrections and no acknowledgements logged.</p>'}</section>
-<section class="block findings"><h2>Findings</h2>${findings}</section>
-<section class="block"><h2>Tank label (from the readings; cut out)</h2>
-<div class="labelrow">${labelBox}<div class="sign"><div class="field">Checked by:</div><div class="field">Date:</div><div class="field">Label fixed to the tank by:</div></div></div></section>
-<p class="caution"><b>Method.</b> ${esc(m.method)}<br><b>Caution.</b> ${esc(m.caution)}</p>
-<footer>mixwright ${esc(m.version)} &middot; from ${esc(m.file)} &middot; made ${esc(m.generated)}</footer>
-</body></html>
-`;
+  const extras = [L.phi ? `phi ${esc(pm(L.phi))}` : '', L.dilution ? `dilution ${esc(pm(L.dilution))}` : '']
+    .filter(Boolean)
+    .join(' &middot; ');
+  const labelBox = [
+    `<div class="labelbox${bad(m) ? ' fail' : ''}">` +
+      `${L.danger ? `<div class="head">${esc(DANGER_HEADLINE)}</div>` : ''}<div class="head">` +
+      `${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}` +
+      `${L.caveats.map((c) => `<div class="off">${esc(c)}</div>`).join('')}`,
+    `<div>Batch <b>${esc(L.batchId)}</b> &middot; tank <b>${esc(L.tank)}</b> &middot; filled ` +
+      `${esc(L.filledOn)}</div>`,
+    `<div class="small">As filled, mole fraction &plusmn; U (k = 2):</div>`,
+    `<div class="grid">` +
+      `${L.composition.map((c) => `<div><b>${esc(c.species)}</b> ${esc(pm(c.text))}</div>`).join('')}` +
+      `</div>`,
+    `<div>${extras}</div>`,
+    `<div>${esc(L.finalPressure)} at ${esc(L.finalTemperature)}</div>`,
+    `<div class="hazard">${esc(L.hazard)}</div>` +
+      `${L.status === 'fail' || L.status === 'incomplete' ? `<div class="head">${NOT_DESIGN}</div>` : ''}` +
+      `${
+        L.danger
+          ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN ' + 'INSPECTED</div>'
+          : ''
+      }` +
+      `</div>`,
+  ].join('\n');
+  const amendments =
+    m.corrections.length || m.acknowledgements.length
+      ? list(m.corrections, 'No corrections logged.') +
+        list(m.acknowledgements, 'No acknowledgements logged.')
+      : '<p class="small">No corrections and no acknowledgements logged.</p>';
+  return [
+    `<!DOCTYPE html>`,
+    `<html lang="en"><head><meta charset="utf-8"><title>Batch certificate ${esc(m.batchId)}</title>` +
+      `<style>${CSS(m.paper)}</style></head>`,
+    `<body>`,
+    `<h1>Batch certificate &mdash; ${esc(m.title)}</h1>`,
+    `<div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.lab)}</div>` +
+      `<div>Tank: ${esc(m.tank)}</div><div>Log started ${esc(m.created)}, ${esc(m.closed)}</div></div>`,
+    `<div class="verdict${bad(m) ? ' fail' : ''}">${esc(m.verdictText)}` +
+      `${m.caveats.map((c) => `<br>${esc(c)}`).join('')}</div>`,
+    `<section class="block"><h2>Composition: design and as filled (mole fraction, &plusmn; U at k = ` +
+      `2)</h2>`,
+    `<table><tr><th>species</th><th>design</th><th>as filled &plusmn; U</th><th>deviation (rel.)</th>` +
+      `<th>tolerance</th><th>status</th></tr>${comp}`,
+    `<tr><td><b>phi</b></td><td class="num">${esc(m.phi[0])}</td><td class="num">${esc(pm(m.phi[1]))}` +
+      `</td><td></td><td></td><td></td></tr>`,
+    `<tr><td><b>dilution</b></td><td class="num">${esc(m.dilution[0])}</td><td class="num">` +
+      `${esc(pm(m.dilution[1]))}</td><td></td><td></td><td></td></tr></table></section>`,
+    `<section class="block"><h2>Readings as logged</h2>`,
+    `<table><tr><th>#</th><th>fill</th><th>gauge</th><th>as read</th><th>absolute</th><th>tank T</th>` +
+      `<th>time</th><th>by</th><th>note</th></tr>${readings}</table></section>`,
+    `<section class="block"><h2>Corrections and acknowledgements</h2>`,
+    `${amendments}</section>`,
+    `<section class="block findings"><h2>Findings</h2>${findings}</section>`,
+    `<section class="block"><h2>Tank label (from the readings; cut out)</h2>`,
+    `<div class="labelrow">${labelBox}<div class="sign"><div class="field">Checked by:</div><div ` +
+      `class="field">Date:</div><div class="field">Label fixed to the tank by:</div></div></div>` +
+      `</section>`,
+    `<p class="caution"><b>Method.</b> ${esc(m.method)}<br><b>Caution.</b> ${esc(m.caution)}</p>`,
+    `<footer>mixwright ${esc(m.version)} &middot; from ${esc(m.file)} &middot; made ` +
+      `${esc(m.generated)}</footer>`,
+    `</body></html>`,
+    '',
+  ].join('\n');
 }
 
 export function certificateToMarkdown(m: CertificateModel): string {

@@ -1,7 +1,8 @@
 /** plan --json: one object, SI units in the key names (the contract other tools read). */
-import { describeFinding, STANDING_CAUTION, type Plan } from '../core/index.js';
+import { describeFinding, STANDING_CAUTION, type Plan, type PlanStep } from '../core/index.js';
 import { pressure } from './format.js';
-import type { PressureUnit } from '../io/quantity.js';
+import { withJsonKeys } from './json-keys.js';
+import type { PressureUnit } from './units.js';
 
 import type { ReactorSpec } from '../core/index.js';
 
@@ -19,7 +20,10 @@ export interface PlanMeta {
     readonly minTankPa: number;
     readonly margin: number;
   };
-  /** the barometric pressure gauge-referenced targets assume, and whether it was given (--barometer) or is the lab profile's */
+  /**
+   * the barometric pressure gauge-referenced targets assume, and whether it was given
+   * (--barometer) or is the lab profile's
+   */
   readonly barometer?: {
     readonly pressurePa: number;
     readonly uncertaintyPa: number;
@@ -27,99 +31,88 @@ export interface PlanMeta {
   };
 }
 
-export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Torr'): object {
-  const fmt = (pa: number) => pressure(pa, unit);
+function mixtureJson(plan: Plan) {
   return {
-    tool: 'mixwright',
-    version: meta.version,
-    kind: 'plan',
-    recipe: meta.recipeId,
-    lab: meta.labName,
-    mixture: {
-      composition: plan.design.composition,
-      phi: plan.design.phi ?? null,
-      fuel_fraction: plan.design.fuelFraction,
-      oxidizer_fraction: plan.design.oxidizerFraction,
-      diluent_fraction: plan.design.diluentFraction,
-      stoich_O2_per_fuel: plan.design.stoichO2PerFuel ?? null,
-      fuel: plan.design.groups.fuel,
-      oxidizer: plan.design.groups.oxidizer,
-      diluent: plan.design.groups.diluent,
-      filled_composition: plan.composition,
-      unidentified_fraction: plan.unidentifiedFraction,
-    },
-    tank: {
-      id: plan.tank.id,
-      label: plan.tank.label,
-      volume_m3: plan.tank.volumeM3,
-      rated_pressure_Pa: plan.tank.ratedPressurePa ?? null,
-    },
-    initial: plan.initial
-      ? {
-          pressure_Pa: plan.initial.pressurePa,
-          amount_mol: plan.initial.amountMol,
-          composition: plan.initial.composition,
-        }
-      : null,
-    final: {
-      pressure_Pa: plan.final.pressurePa,
-      temperature_K: plan.final.temperatureK,
-      compressibility: plan.final.compressibility,
-      amount_mol: plan.final.amountMol,
-      ideal_amount_mol: plan.final.idealAmountMol,
-      density_mol_per_m3: plan.final.densityMolPerM3,
-      B_mix_m3_per_mol: plan.final.bMixM3PerMol,
-      C_mix_m6_per_mol2: plan.final.cMixM6PerMol2,
-    },
-    order: {
-      fills: plan.steps.map((s) => s.species),
-      reason: plan.orderReason,
-      recommended: meta.orderRecommended,
-    },
-    tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
-    barometer: meta.barometer
-      ? {
-          pressure_Pa: meta.barometer.pressurePa,
-          u_Pa: meta.barometer.uncertaintyPa,
-          source: meta.barometer.given ? 'option' : 'lab profile',
-          gauge_referenced_steps: plan.steps
-            .filter((s) => s.gauge?.reference === 'gauge')
-            .map((s) => s.index),
-        }
-      : null,
-    experiments: meta.experiments
-      ? {
-          count: meta.experiments.count,
-          sized_for: meta.experiments.sizedFor ?? null,
-          reactor: meta.experiments.reactor.id,
-          reactor_volume_m3: meta.experiments.reactor.volumeM3,
-          line_volume_m3: meta.experiments.reactor.lineVolumeM3,
-          fill_pressure_Pa: meta.experiments.reactor.fillPressurePa,
-          per_experiment_mol: meta.experiments.perExperimentMol,
-          min_tank_pressure_Pa: meta.experiments.minTankPa,
-        }
-      : null,
-    steps: plan.steps.map((s) => ({
-      step: s.index,
-      species: s.species,
-      source: s.source.id,
-      source_kind: s.source.kind,
-      target_Pa: s.targetPa,
-      increment_Pa: s.incrementPa,
-      amount_mol: s.amountMol,
-      mass_kg: s.massKg,
-      ideal_target_Pa: s.idealTargetPa,
-      real_minus_ideal_Pa: s.targetPa - s.idealTargetPa,
-      band_Pa: s.bandPa,
-      compressibility: s.compressibilityAfter,
-      composition_after: s.compositionAfter,
-      gauge: s.gauge?.id ?? null,
-      gauge_reference: s.gauge?.reference ?? null,
-      gauge_reading_Pa: s.gauge?.readingPa ?? null,
-      gauge_unit: s.gauge?.unit ?? null,
-      gauge_u_Pa: s.gauge?.uncertaintyPa ?? null,
-      isolate_before: s.isolateBefore.map((g) => g.id),
-    })),
+    composition: plan.design.composition,
+    phi: plan.design.phi ?? null,
+    fuel_fraction: plan.design.fuelFraction,
+    oxidizer_fraction: plan.design.oxidizerFraction,
+    diluent_fraction: plan.design.diluentFraction,
+    stoich_O2_per_fuel: plan.design.stoichO2PerFuel ?? null,
+    fuel: plan.design.groups.fuel,
+    oxidizer: plan.design.groups.oxidizer,
+    diluent: plan.design.groups.diluent,
+    filled_composition: plan.composition,
+    unidentified_fraction: plan.unidentifiedFraction,
+  };
+}
+
+function finalJson(plan: Plan) {
+  return {
+    pressure_Pa: plan.final.pressurePa,
+    temperature_K: plan.final.temperatureK,
+    compressibility: plan.final.compressibility,
+    amount_mol: plan.final.amountMol,
+    ideal_amount_mol: plan.final.idealAmountMol,
+    density_mol_per_m3: plan.final.densityMolPerM3,
+    B_mix_m3_per_mol: plan.final.bMixM3PerMol,
+    C_mix_m6_per_mol2: plan.final.cMixM6PerMol2,
+  };
+}
+
+function barometerJson(plan: Plan, meta: PlanMeta) {
+  return meta.barometer
+    ? {
+        pressure_Pa: meta.barometer.pressurePa,
+        u_Pa: meta.barometer.uncertaintyPa,
+        source: meta.barometer.given ? 'option' : 'lab profile',
+        gauge_referenced_steps: plan.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.index),
+      }
+    : null;
+}
+
+function experimentsJson(meta: PlanMeta) {
+  return meta.experiments
+    ? {
+        count: meta.experiments.count,
+        sized_for: meta.experiments.sizedFor ?? null,
+        reactor: meta.experiments.reactor.id,
+        reactor_volume_m3: meta.experiments.reactor.volumeM3,
+        line_volume_m3: meta.experiments.reactor.lineVolumeM3,
+        fill_pressure_Pa: meta.experiments.reactor.fillPressurePa,
+        per_experiment_mol: meta.experiments.perExperimentMol,
+        min_tank_pressure_Pa: meta.experiments.minTankPa,
+      }
+    : null;
+}
+
+function stepJson(s: PlanStep) {
+  return {
+    step: s.index,
+    species: s.species,
+    source: s.source.id,
+    source_kind: s.source.kind,
+    target_Pa: s.targetPa,
+    increment_Pa: s.incrementPa,
+    amount_mol: s.amountMol,
+    mass_kg: s.massKg,
+    ideal_target_Pa: s.idealTargetPa,
+    real_minus_ideal_Pa: s.targetPa - s.idealTargetPa,
+    band_Pa: s.bandPa,
+    compressibility: s.compressibilityAfter,
+    composition_after: s.compositionAfter,
+    gauge: s.gauge?.id ?? null,
+    gauge_reference: s.gauge?.reference ?? null,
+    gauge_reading_Pa: s.gauge?.readingPa ?? null,
+    gauge_unit: s.gauge?.unit ?? null,
+    gauge_u_Pa: s.gauge?.uncertaintyPa ?? null,
+    isolate_before: s.isolateBefore.map((g) => g.id),
+  };
+}
+
+/** the second and third virial coefficients used, with their sources */
+function virialJson(plan: Plan) {
+  return {
     virial: plan.virial.entries.map((e) => ({
       i: e.i,
       j: e.j,
@@ -141,7 +134,48 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
         'C_mix = sum y_i y_j y_k C_ijk; untabulated C_ijk = (C_ii C_jj C_kk)^(1/3); ' +
         'C of polar species and of species without a reference value is 0',
     },
-    findings: plan.findings.map((f) => ({ ...f, step: f.step ?? null, message: describeFinding(f, fmt) })),
+  };
+}
+
+export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Torr'): object {
+  const fmt = (pa: number) => pressure(pa, unit);
+  return {
+    tool: 'mixwright',
+    version: meta.version,
+    kind: 'plan',
+    recipe: meta.recipeId,
+    lab: meta.labName,
+    mixture: mixtureJson(plan),
+    tank: {
+      id: plan.tank.id,
+      label: plan.tank.label,
+      volume_m3: plan.tank.volumeM3,
+      rated_pressure_Pa: plan.tank.ratedPressurePa ?? null,
+    },
+    initial: plan.initial
+      ? {
+          pressure_Pa: plan.initial.pressurePa,
+          amount_mol: plan.initial.amountMol,
+          composition: plan.initial.composition,
+        }
+      : null,
+    final: finalJson(plan),
+    order: {
+      fills: plan.steps.map((s) => s.species),
+      reason: plan.orderReason,
+      recommended: meta.orderRecommended,
+    },
+    tolerance: { relative: plan.tolerance.relative, absolute: plan.tolerance.absolute },
+    barometer: barometerJson(plan, meta),
+    experiments: experimentsJson(meta),
+    steps: plan.steps.map(stepJson),
+    ...virialJson(plan),
+    // a finding's numbers keep their names, in the JSON key style (uncertaintyPa -> uncertainty_Pa)
+    findings: plan.findings.map((f) => ({
+      ...(withJsonKeys(f) as object),
+      step: f.step ?? null,
+      message: describeFinding(f, fmt),
+    })),
     caution: STANDING_CAUTION,
   };
 }

@@ -1,7 +1,7 @@
 /** The plan as a readable table for the terminal. */
 import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../core/index.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import { decimalsFor, fixedSig, padTable, pressure, signed } from './format.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
@@ -30,7 +30,47 @@ function virialSummary(plan: Plan): string {
 
 const SEVERITY_LABEL: Record<Severity, string> = { danger: 'DANGER ', warning: 'warning', note: 'note   ' };
 
-export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
+/** the tank line: its volume and its rating with the working limit */
+function tankLine(plan: Plan, P: (pa: number, sig?: number) => string): string {
+  const t = plan.tank;
+  const limit =
+    t.ratedPressurePa !== undefined && t.workingFraction && t.workingFraction < 1
+      ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}`
+      : '';
+  const rating =
+    t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${limit}`;
+  return `Tank        ${tankName(t.id)}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`;
+}
+
+/** how many experiments the batch serves in the lab's reactor */
+function servesLine(
+  ex: NonNullable<PlanMeta['experiments']>,
+  P: (pa: number, sig?: number) => string,
+): string {
+  const litres = fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4);
+  const sized = ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : '';
+  return (
+    `Serves      ${ex.count} experiments in ${ex.reactor.id} (${litres} ` +
+    `L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank ` +
+    `is used down to ${P(ex.minTankPa, 5)})${sized}`
+  );
+}
+
+/** the barometric pressure that gauge-referenced readings assume, and how to correct for another */
+function barometerLine(plan: Plan, meta: PlanMeta): string[] {
+  const refSteps = plan.steps.filter((s) => s.gauge?.reference === 'gauge');
+  if (!refSteps.length || !meta.barometer) return [];
+  const b = pressure(meta.barometer.pressurePa, 'Torr', 5);
+  const which = `reading${refSteps.length > 1 ? 's' : ''} of fill ${refSteps.map((s) => s.index).join(', ')}`;
+  const given = meta.barometer.given ? '--barometer' : "lab profile value, not today's: give --barometer";
+  return [
+    `Barometer   ${b} assumed by the gauge-referenced ${which} (${given}); ` +
+      `for another barometer B, stop at target + (${b} - B) in the gauge's unit`,
+  ];
+}
+
+/** the lines above the tables: design, tank, final state, real gas, order, serves, barometer, tolerance */
+function headerLines(plan: Plan, meta: PlanMeta, unit: PressureUnit): string[] {
   const out: string[] = [];
   const P = (pa: number, sig = 6) => pressure(pa, unit, sig);
   const d = plan.design;
@@ -42,12 +82,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       `${fixedSig(d.oxidizerFraction, 5)}   diluent ${fixedSig(d.diluentFraction, 5)}`,
   );
   out.push(`            ${formatFractions(d.composition)}`);
-  const t = plan.tank;
-  const rating =
-    t.ratedPressurePa === undefined
-      ? 'rating not known'
-      : `rated ${P(t.ratedPressurePa, 4)}${t.workingFraction && t.workingFraction < 1 ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}` : ''}`;
-  out.push(`Tank        ${t.id}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`);
+  out.push(tankLine(plan, P));
   out.push(
     `Final       ${P(plan.final.pressurePa)} absolute at ${plan.final.temperatureK.toFixed(2)} ` +
       `K (${(plan.final.temperatureK - 273.15).toFixed(2)} degC)`,
@@ -62,34 +97,23 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       `In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} ` +
         `(${fixedSig(plan.initial.amountMol, 5)} mol)`,
     );
+  const recommended = meta.orderRecommended ? 'recommended: ' : '';
   out.push(
-    `Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${meta.orderRecommended ? 'recommended: ' : ''}${plan.orderReason})`,
+    `Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${recommended}${plan.orderReason})`,
   );
-  const ex = meta.experiments;
-  if (ex) {
-    out.push(
-      `Serves      ${ex.count} experiments in ${ex.reactor.id} (${fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4)} ` +
-        `L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank ` +
-        `is used down to ${P(ex.minTankPa, 5)})${ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : ''}`,
-    );
-  }
-  const refSteps = plan.steps.filter((s) => s.gauge?.reference === 'gauge');
-  if (refSteps.length && meta.barometer) {
-    out.push(
-      `Barometer   ${pressure(meta.barometer.pressurePa, 'Torr', 5)} assumed by ` +
-        `the gauge-referenced reading${refSteps.length > 1 ? 's' : ''} of fill ${refSteps.map((s) => s.index).join(', ')} ` +
-        `(${meta.barometer.given ? '--barometer' : "lab profile value, not today's: give --barometer"}); ` +
-        `for another barometer B, stop at target + (${pressure(meta.barometer.pressurePa, 'Torr', 5)} ` +
-        `- B) in the gauge's unit`,
-    );
-  }
+  if (meta.experiments) out.push(servesLine(meta.experiments, P));
+  out.push(...barometerLine(plan, meta));
+  const absolute = plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : '';
   out.push(
     `Tolerance   each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} ` +
-      `% relative${plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : ''}`,
+      `% relative${absolute}`,
   );
   out.push('');
+  return out;
+}
 
-  // table 1: what the operator needs at the manifold; table 2: the numbers behind it
+/** table 1: what the operator needs at the manifold, the reading in the gauge's own unit */
+function manifoldTable(plan: Plan, unit: PressureUnit): string[] {
   const rows: string[][] = [['#', 'fill', 'from', 'gauge', 'read on gauge', 'band +-', `target ${unit} abs`]];
   for (const s of plan.steps) {
     let reading = 'NO GAUGE';
@@ -97,7 +121,8 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
     if (s.gauge) {
       const gu = isPressureUnit(s.gauge.unit) ? s.gauge.unit : unit;
       const dec = decimalsFor(fromPa(s.gauge.resolutionPa, gu));
-      reading = `${fromPa(s.gauge.readingPa, gu).toFixed(dec)} ${gu}${s.gauge.reference === 'gauge' ? ' (gauge)' : ''}`;
+      const ref = s.gauge.reference === 'gauge' ? ' (gauge)' : '';
+      reading = `${fromPa(s.gauge.readingPa, gu).toFixed(dec)} ${gu}${ref}`;
       const bandValue = fromPa(s.bandPa, gu);
       const bandDec = Math.max(dec, decimalsFor(bandValue / 10));
       band = `${bandValue.toFixed(bandDec)} ${gu}`;
@@ -112,14 +137,17 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       fixedSig(fromPa(s.targetPa, unit), 7),
     ]);
   }
-  out.push(...padTable(rows, [true, false, false, false, true, true, true]));
-  out.push('');
-  const rows2: string[][] = [
+  return padTable(rows, [true, false, false, false, true, true, true]);
+}
+
+/** table 2: the numbers behind each fill, real gas beside the ideal-gas plan */
+function numbersTable(plan: Plan, unit: PressureUnit): string[] {
+  const rows: string[][] = [
     ['#', `increment ${unit}`, 'amount mol', 'mass g', 'Z after', `ideal-gas plan ${unit}`, 'real - ideal'],
   ];
   for (const s of plan.steps) {
     const diff = s.targetPa - s.idealTargetPa;
-    rows2.push([
+    rows.push([
       String(s.index),
       fixedSig(fromPa(s.incrementPa, unit), 6),
       fixedSig(s.amountMol, 5),
@@ -129,36 +157,50 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       Math.abs(diff) < 1e-9 * s.targetPa ? '0' : signed(fixedSig(fromPa(diff, unit), 3)),
     ]);
   }
-  out.push(...padTable(rows2, [true, true, true, true, true, true, true]));
+  return padTable(rows, [true, true, true, true, true, true, true]);
+}
+
+/** the findings, dangers first (gauge isolation is already said under the table) */
+function findingLines(plan: Plan, unit: PressureUnit): string[] {
+  if (!plan.findings.length) return [];
+  const order: Severity[] = ['danger', 'warning', 'note'];
+  const sorted = plan.findings
+    .filter((f) => f.code !== 'isolate-gauge')
+    .sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
+  const out = ['Findings'];
+  for (const f of sorted) {
+    out.push(
+      `  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ` +
+        `${describeFinding(f, (pa) => pressure(pa, unit, 5))}`,
+    );
+  }
+  out.push('');
+  return out;
+}
+
+export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
+  const out: string[] = headerLines(plan, meta, unit);
+  out.push(...manifoldTable(plan, unit));
+  out.push('');
+  out.push(...numbersTable(plan, unit));
   out.push('');
   for (const s of plan.steps) {
     for (const g of s.isolateBefore) {
       out.push(
-        `Before fill ${s.index}: close off ${g.id} (${g.label}); it reads only up to ${P(g.topPa, 4)} absolute.`,
+        `Before fill ${s.index}: close off ${g.id} (${g.label}); it reads only up to ` +
+          `${pressure(g.topPa, unit, 4)} absolute.`,
       );
     }
   }
   out.push('');
   out.push(`Filled composition (with cylinder impurities):`);
-  out.push(
-    `            ${formatFractions(plan.composition)}${plan.unidentifiedFraction > 0 ? `   + unidentified ${fixedSig(plan.unidentifiedFraction * 1e6, 3)} ppm` : ''}`,
-  );
+  const unidentified =
+    plan.unidentifiedFraction > 0
+      ? `   + unidentified ${fixedSig(plan.unidentifiedFraction * 1e6, 3)} ppm`
+      : '';
+  out.push(`            ${formatFractions(plan.composition)}${unidentified}`);
   out.push('');
-  if (plan.findings.length) {
-    out.push('Findings');
-    const order: Severity[] = ['danger', 'warning', 'note'];
-    // gauge isolation is already said under the table
-    const sorted = plan.findings
-      .filter((f) => f.code !== 'isolate-gauge')
-      .sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
-    for (const f of sorted) {
-      out.push(
-        `  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ` +
-          `${describeFinding(f, (pa) => P(pa, 5))}`,
-      );
-    }
-    out.push('');
-  }
+  out.push(...findingLines(plan, unit));
   out.push(`Caution: ${STANDING_CAUTION}`);
   return out.join('\n') + '\n';
 }

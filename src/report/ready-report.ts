@@ -78,9 +78,11 @@ export function readyToText(r: ReadyReport): string {
     );
   }
   if (c.phiStart !== undefined && c.phiAfter !== undefined) {
+    const drift =
+      c.phiDriftPerDay !== undefined ? ` (${(c.phiDriftPerDay * 100).toPrecision(2)} % per day)` : '';
     out.push(
       `  phi ${c.phiStart.toFixed(5)} at the start, ${c.phiAfter.toFixed(5)} after ` +
-        `${r.days} days${c.phiDriftPerDay !== undefined ? ` (${(c.phiDriftPerDay * 100).toPrecision(2)} % per day)` : ''}`,
+        `${r.days} days${drift}`,
     );
   }
   for (const n of r.notes) out.push(`note: ${n}`);

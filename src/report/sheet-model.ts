@@ -9,16 +9,17 @@ import {
   describeFinding,
   diagramPoint,
   fillLabel,
+  GIVEN_VOLUME_TANK,
   STANDING_CAUTION,
   type Finding,
   type MixingEstimate,
   type Plan,
+  type PlanStep,
   type Severity,
 } from '../core/index.js';
 import { duration } from './ready-report.js';
-import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
-import type { RecipeFile } from '../io/recipe.js';
-import { decimalsFor, fixedSig, pressure } from './format.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 
@@ -66,7 +67,8 @@ export interface SheetModel {
 }
 
 export interface SheetMeta {
-  readonly recipe: RecipeFile;
+  /** the recipe's id and title (a recipe file fits as it is) */
+  readonly recipe: { readonly id: string; readonly title?: string };
   readonly labName: string;
   readonly orderRecommended: boolean;
   readonly unit: PressureUnit;
@@ -88,7 +90,9 @@ export function designTitle(plan: Plan, unit: PressureUnit): string {
   const d = plan.design;
   const names = (g: Record<string, number>) => Object.keys(g).join('+');
   const num = (v: number) => String(Number(v.toPrecision(3)));
-  const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${plan.tank.id}`;
+  const tank =
+    plan.tank.id === GIVEN_VOLUME_TANK ? `a ${fixedSig(plan.tank.volumeM3 * 1000, 4)} L tank` : plan.tank.id;
+  const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${tank}`;
   if (d.phi !== undefined && Object.keys(d.groups.fuel).length && Object.keys(d.groups.oxidizer).length) {
     const dil = Object.keys(d.groups.diluent).length
       ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}`
@@ -140,10 +144,11 @@ function barometerLines(plan: Plan, meta: SheetMeta): string[] | undefined {
   const ex = refSteps[0];
   const exTarget = fromPa(ex.gauge!.readingPa, gu);
   const today = b.pressurePa - 10 * TORR_PA;
+  const given = b.given ? 'given for this sheet' : "the lab profile value, not today's";
   return [
     `The gauge-referenced targets (fill ${refSteps.map((s) => s.index).join(', ')} ` +
       `on ${[...new Set(refSteps.map((s) => s.gauge!.id))].join(', ')}) assume ` +
-      `a barometric pressure of ${pressure(b.pressurePa, 'Torr', 5)} (${b.given ? 'given for this sheet' : "the lab profile value, not today's"}; ` +
+      `a barometric pressure of ${pressure(b.pressurePa, 'Torr', 5)} (${given}; ` +
       `u ${pressure(b.uncertaintyPa, 'Torr', 2)}).`,
     `Read the barometer before the first fill: ________ Torr. Target to stop ` +
       `at today = printed target + (${pressure(b.pressurePa, 'Torr', 5)} - today's ` +
@@ -170,28 +175,25 @@ function mixingLine(m?: MixingEstimate): string {
     : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;
 }
 
-export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
+const groupText = (g: Readonly<Record<string, number>>) =>
+  Object.entries(g)
+    .map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`))
+    .join(', ') || '-';
+
+/** the design block: phi, the gas groups, tank, final state, order and tolerance */
+function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
   const d = plan.design;
-  const design: [string, string][] = [
+  const t = plan.tank;
+  const rating = t.ratedPressurePa
+    ? `, rated ${pressure(t.ratedPressurePa, meta.unit, 4)}`
+    : ', rating not known';
+  return [
     ['phi', d.phi === undefined ? 'n/a' : d.phi.toFixed(4)],
-    [
-      'fuel',
-      Object.entries(d.groups.fuel)
-        .map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`))
-        .join(', ') || '-',
-    ],
-    [
-      'oxidizer',
-      Object.entries(d.groups.oxidizer)
-        .map(([k, v]) => (v === 1 ? k : `${k} ${fixedSig(v, 4)}`))
-        .join(', ') || '-',
-    ],
+    ['fuel', groupText(d.groups.fuel)],
+    ['oxidizer', groupText(d.groups.oxidizer)],
     ['diluent', `${Object.keys(d.groups.diluent).join(', ') || '-'} (${fixedSig(d.diluentFraction, 5)})`],
-    [
-      'tank',
-      `${plan.tank.id}, ${fixedSig(plan.tank.volumeM3 * 1000, 4)} L${plan.tank.ratedPressurePa ? `, rated ${pressure(plan.tank.ratedPressurePa, meta.unit, 4)}` : ', rating not known'}`,
-    ],
+    ['tank', `${tankName(t.id)}, ${fixedSig(t.volumeM3 * 1000, 4)} L${rating}`],
     [
       'final',
       `${P(plan.final.pressurePa)} absolute at ${(plan.temperatureK - 273.15).toFixed(1)} ` +
@@ -203,9 +205,10 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     ],
     ['tolerance', `each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} %`],
   ];
-  const composition: [string, string][] = Object.entries(d.composition)
-    .sort((a, b) => b[1] - a[1])
-    .map(([k, v]) => [k, fixedSig(v, 6)]);
+}
+
+/** the checks before the first fill; a top-up reads, logs and confirms its starting pressure first */
+function preChecks(plan: Plan, meta: SheetMeta): string[] {
   const gaugeIds = [...new Set(plan.steps.map((s) => s.gauge?.id).filter(Boolean))].join(', ');
   const baroCheck = plan.steps.some((s) => s.gauge?.reference === 'gauge')
     ? 'Barometer read before the first fill: ________ Torr (the gauge-referenced ' +
@@ -222,52 +225,114 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   ];
   const start = plan.initial;
   const first = plan.steps[0];
-  // a top-up: the tank holds gas, so no leak-up under vacuum; the starting pressure is read, logged and confirmed first
-  const preChecks = start
-    ? [
-        'Gas already in the tank (top-up): do NOT evacuate the tank. Leak-check the ' +
-          'manifold and line up to the closed tank valve: rise ________ per ________ ' +
-          'min (limit from your procedure)',
-        'Line evacuated before the tank valve is opened; line vacuum: ________',
-        `Starting pressure, read before any fill on ${first.gauge?.id ?? 'a gauge that reads it'}: ________ at ________ degC, time ______, initials ____. The targets assume ${P(start.pressurePa)} absolute of ${Object.entries(
-          start.composition,
-        )
-          .sort((a, b) => b[1] - a[1])
-          .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
-          .join(
-            ', ',
-          )}; if the reading differs by more than the band of fill 1 (+-${pressure(first.bandPa, meta.unit, 2)}), stop and re-plan from the reading (recipe in_tank.pressure)`,
-        ...common,
-      ]
-    : [
-        'Leak-up test of tank and manifold under vacuum: rise ________ per ________ min (limit from your procedure)',
-        'Base vacuum before the first fill: ________',
-        ...common,
-      ];
-  const rows: SheetRow[] = plan.steps.map((s) => {
-    const gu: PressureUnit = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : meta.unit;
-    const dec = s.gauge ? Math.max(decimalsFor(fromPa(s.gauge.resolutionPa, gu)), 0) : 3;
-    const reading = s.gauge ? s.gauge.readingPa : s.targetPa;
-    const band = s.bandPa;
-    return {
-      n: s.index,
-      fill: s.species,
-      source: s.source.id,
-      sourceLabel: s.source.label,
-      gauge: s.gauge?.id ?? 'NO GAUGE',
-      target: fromPa(reading, gu).toFixed(dec),
-      low: fromPa(reading - band, gu).toFixed(dec),
-      high: fromPa(reading + band, gu).toFixed(dec),
-      band:
-        fromPa(reading - band, gu).toFixed(dec) === fromPa(reading + band, gu).toFixed(dec)
-          ? `+-${fixedSig(fromPa(band, gu), 2)}: finer than the display step ${fromPa(s.gauge?.resolutionPa ?? 0, gu).toFixed(dec)}`
-          : `${fromPa(reading - band, gu).toFixed(dec)} - ${fromPa(reading + band, gu).toFixed(dec)}`,
-      unit: gu,
-      reference: s.gauge?.reference ?? 'absolute',
-      absoluteTarget: P(s.targetPa),
-      before: s.isolateBefore.map((g) => `close off ${g.id} (reads only up to ${P(g.topPa)})`),
-    };
-  });
+  if (!start)
+    return [
+      'Leak-up test of tank and manifold under vacuum: rise ________ per ________ min (limit from your procedure)',
+      'Base vacuum before the first fill: ________',
+      ...common,
+    ];
+  // a top-up: the tank holds gas, so no leak-up under vacuum
+  const held = Object.entries(start.composition)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, v]) => `${k} ${fixedSig(v, 4)}`)
+    .join(', ');
+  return [
+    'Gas already in the tank (top-up): do NOT evacuate the tank. Leak-check the ' +
+      'manifold and line up to the closed tank valve: rise ________ per ________ ' +
+      'min (limit from your procedure)',
+    'Line evacuated before the tank valve is opened; line vacuum: ________',
+    `Starting pressure, read before any fill on ${first.gauge?.id ?? 'a gauge that reads it'}: ` +
+      `________ at ________ degC, time ______, initials ____. The targets assume ` +
+      `${pressure(start.pressurePa, meta.unit, 6)} absolute of ${held}; if the reading differs by more ` +
+      `than the band of fill 1 (+-${pressure(first.bandPa, meta.unit, 2)}), stop and re-plan from ` +
+      `the reading (recipe in_tank.pressure)`,
+    ...common,
+  ];
+}
+
+/** one fill: the target and its band in the gauge's own unit */
+function sheetRow(s: PlanStep, meta: SheetMeta): SheetRow {
+  const P = (pa: number) => pressure(pa, meta.unit, 6);
+  const gu: PressureUnit = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : meta.unit;
+  const dec = s.gauge ? Math.max(decimalsFor(fromPa(s.gauge.resolutionPa, gu)), 0) : 3;
+  const reading = s.gauge ? s.gauge.readingPa : s.targetPa;
+  const band = s.bandPa;
+  const low = fromPa(reading - band, gu).toFixed(dec);
+  const high = fromPa(reading + band, gu).toFixed(dec);
+  return {
+    n: s.index,
+    fill: s.species,
+    source: s.source.id,
+    sourceLabel: s.source.label,
+    gauge: s.gauge?.id ?? 'NO GAUGE',
+    target: fromPa(reading, gu).toFixed(dec),
+    low,
+    high,
+    band:
+      low === high
+        ? `+-${fixedSig(fromPa(band, gu), 2)}: finer than the display step ` +
+          fromPa(s.gauge?.resolutionPa ?? 0, gu).toFixed(dec)
+        : `${low} - ${high}`,
+    unit: gu,
+    reference: s.gauge?.reference ?? 'absolute',
+    absoluteTarget: P(s.targetPa),
+    before: s.isolateBefore.map((g) => `close off ${g.id} (reads only up to ${P(g.topPa)})`),
+  };
+}
+
+/** the design label: marked so, since the as-filled one comes from the log */
+function designLabel(plan: Plan, meta: SheetMeta, batchId: string): string[] {
+  const d = plan.design;
+  return [
+    `${batchId} - DESIGN, NOT YET CONFIRMED: after the fill, label the tank with \`mixwright label\` of its log`,
+    `design: ${Object.entries(d.composition)
+      .sort((a, b) => b[1] - a[1])
+      .map(([k, v]) => `${k} ${(v * 100).toPrecision(4)} %`)
+      .join(', ')}`,
+    `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${pressure(plan.final.pressurePa, meta.unit, 6)} ` +
+      `abs; filled ________ by ________`,
+    're-check verdict: pass / pass not proven / FAIL (circle one) ________',
+    plan.findings.some((f) => f.code === 'flammable-mixture')
+      ? 'FLAMMABLE GAS MIXTURE'
+      : 'check the findings before use',
+  ];
+}
+
+/** the findings, dangers first (gauge isolation is said in the step rows) */
+function sheetFindings(plan: Plan, meta: SheetMeta): SheetModel['findings'] {
+  const stepOf = (f: Finding) => (f.step ? `fill ${f.step}` : 'batch');
+  return [...plan.findings]
+    .filter((f) => f.code !== 'isolate-gauge')
+    .sort((a, b) => SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity))
+    .map((f) => ({
+      severity: f.severity,
+      code: f.code,
+      where: stepOf(f),
+      message: describeFinding(f, (pa) => pressure(pa, meta.unit, 5)),
+    }));
+}
+
+/** the fuel / O2 / inert diagram with its detail and legend, where the plan has one */
+function sheetDiagram(plan: Plan): SheetModel['diagram'] {
+  const dd = diagramData(plan);
+  return (
+    dd && {
+      triangle: diagramSvg(dd, 'fuel / O2 / inert diagram with the flammable zone and the fill path'),
+      detail: detailSvg(dd, 'detail near the inert corner'),
+      legend:
+        `Hatched: flammable zone of ${Object.keys(plan.design.groups.fuel).join('/') || 'the fuel'} ` +
+        `(LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} ` +
+        `% in air, inerts as N2-equivalent).${limitsNote(plan, dd.lfl, dd.ufl)} Dashed: ` +
+        `air line; dotted: stoichiometric line. Numbered points: the tank after each ` +
+        `fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
+    }
+  );
+}
+
+export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
+  const composition: [string, string][] = Object.entries(plan.design.composition)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, v]) => [k, fixedSig(v, 6)]);
   const postChecks = [
     'All cylinder and line valves closed; tank valve closed; line evacuated or vented safely',
     mixingLine(meta.mixing),
@@ -277,41 +342,6 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   // a design from the command line has no recipe id of its own ("inline"): name it by its gases
   const inline = meta.recipe.id === 'inline' && !meta.recipe.title;
   const batchId = meta.batchId ?? `${inline ? designSlug(plan) : meta.recipe.id}-${today}`;
-  // the design is not the tank: the label here is marked so, and the as-filled one comes from the log
-  const label = [
-    `${batchId} - DESIGN, NOT YET CONFIRMED: after the fill, label the tank with \`mixwright label\` of its log`,
-    `design: ${Object.entries(d.composition)
-      .sort((a, b) => b[1] - a[1])
-      .map(([k, v]) => `${k} ${(v * 100).toPrecision(4)} %`)
-      .join(', ')}`,
-    `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${P(plan.final.pressurePa)} ` +
-      `abs; filled ________ by ________`,
-    're-check verdict: pass / pass not proven / FAIL (circle one) ________',
-    plan.findings.some((f) => f.code === 'flammable-mixture')
-      ? 'FLAMMABLE GAS MIXTURE'
-      : 'check the findings before use',
-  ];
-  const stepOf = (f: Finding) => (f.step ? `fill ${f.step}` : 'batch');
-  const findings = [...plan.findings]
-    .filter((f) => f.code !== 'isolate-gauge')
-    .sort((a, b) => SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity))
-    .map((f) => ({
-      severity: f.severity,
-      code: f.code,
-      where: stepOf(f),
-      message: describeFinding(f, (pa) => pressure(pa, meta.unit, 5)),
-    }));
-  const dd = diagramData(plan);
-  const diagram = dd && {
-    triangle: diagramSvg(dd, 'fuel / O2 / inert diagram with the flammable zone and the fill path'),
-    detail: detailSvg(dd, 'detail near the inert corner'),
-    legend:
-      `Hatched: flammable zone of ${Object.keys(d.groups.fuel).join('/') || 'the fuel'} ` +
-      `(LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} ` +
-      `% in air, inerts as N2-equivalent).${limitsNote(plan, dd.lfl, dd.ufl)} Dashed: ` +
-      `air line; dotted: stoichiometric line. Numbered points: the tank after each ` +
-      `fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
-  };
   return {
     title: meta.recipe.title ?? (inline ? designTitle(plan, meta.unit) : meta.recipe.id),
     batchId,
@@ -319,15 +349,15 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     labName: meta.labName,
     version: meta.version,
     paper: meta.paper,
-    design,
+    design: designRows(plan, meta),
     composition,
-    preChecks,
-    rows,
+    preChecks: preChecks(plan, meta),
+    rows: plan.steps.map((s) => sheetRow(s, meta)),
     postChecks,
-    label,
-    findings,
+    label: designLabel(plan, meta, batchId),
+    findings: sheetFindings(plan, meta),
     caution: STANDING_CAUTION,
-    diagram,
+    diagram: sheetDiagram(plan),
     hasDanger: plan.findings.some((f) => f.severity === 'danger'),
     barometer: barometerLines(plan, meta),
   };

@@ -6,44 +6,55 @@ const esc = (s: string) =>
   s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 const BOX = '&#9744;';
 
-const CSS = (paper: 'a4' | 'letter') => `
-@page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 12mm; }
-* { box-sizing: border-box; }
-body { font-family: "Liberation Sans", Arial, Helvetica, sans-serif; font-size: 10.5pt; color: #000; margin: 0; }
-h1 { font-size: 16pt; margin: 0 0 2mm 0; }
-h2 { font-size: 11.5pt; margin: 4mm 0 1.5mm 0; border-bottom: 1px solid #000; break-after: avoid; page-break-after: avoid; }
-.block { break-inside: avoid; page-break-inside: avoid; }
-.baro { border: 1px solid #000; padding: 1.5mm 3mm; margin-top: 2mm; font-size: 9.5pt; break-inside: avoid; page-break-inside: avoid; }
-.baro p { margin: 0.6mm 0; }
-.meta { display: flex; gap: 6mm; font-size: 10pt; margin-bottom: 2mm; }
-.field { flex: 1; border-bottom: 1px solid #000; min-height: 6mm; }
-.danger { border: 2.5px solid #000; padding: 2mm 3mm; font-weight: bold; margin: 2mm 0; }
-.cols { display: flex; gap: 6mm; }
-.cols > div { flex: 1; }
-table { border-collapse: collapse; width: 100%; }
-td, th { border: 1px solid #000; padding: 1.2mm 1.5mm; vertical-align: middle; }
-th { background: #eee; font-size: 9pt; text-align: left; }
-table.kv td { border: none; padding: 0.4mm 1mm; }
-table.kv td:first-child { font-weight: bold; width: 22mm; }
-table.steps tr { break-inside: avoid; page-break-inside: avoid; }
-table.steps td.target { font-size: 15pt; font-weight: bold; white-space: nowrap; }
-table.steps td.blank { min-width: 26mm; }
-table.steps td.small { width: 13mm; }
-tr.before td { border-bottom: none; font-weight: bold; font-size: 9.5pt; }
-.unit { font-size: 9pt; font-weight: normal; }
-ul.checks { list-style: none; padding-left: 0; margin: 0; }
-ul.checks li { margin: 0.8mm 0; }
-.label { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 11pt; break-inside: avoid; page-break-inside: avoid; }
-.findings li { margin: 0.6mm 0; break-inside: avoid; page-break-inside: avoid; }
-.sev { font-weight: bold; text-transform: uppercase; }
-.caution { font-size: 9pt; border-top: 1px solid #000; margin-top: 3mm; padding-top: 1.5mm; }
-.figures { break-inside: avoid; page-break-inside: avoid; }
-.figures .cols > div { flex: 1; }
-.figures svg { width: 100%; height: auto; }
-.legend { font-size: 9pt; }
-footer { font-size: 8pt; margin-top: 2mm; }
-@media screen { body { max-width: 190mm; margin: 8mm auto; } }
-`;
+const CSS = (paper: 'a4' | 'letter') =>
+  [
+    '',
+    `@page { size: ${paper === 'a4' ? 'A4' : 'letter'}; margin: 12mm; }`,
+    `* { box-sizing: border-box; }`,
+    `body { font-family: "Liberation Sans", Arial, Helvetica, sans-serif; font-size: 10.5pt; color: ` +
+      `#000; margin: 0; }`,
+    `h1 { font-size: 16pt; margin: 0 0 2mm 0; }`,
+    `h2 { font-size: 11.5pt; margin: 4mm 0 1.5mm 0; border-bottom: 1px solid #000; break-after: ` +
+      `avoid; page-break-after: avoid; }`,
+    `.block { break-inside: avoid; page-break-inside: avoid; }`,
+    `.baro { border: 1px solid #000; padding: 1.5mm 3mm; margin-top: 2mm; font-size: 9.5pt; ` +
+      `break-inside: avoid; page-break-inside: avoid; }`,
+    `.baro p { margin: 0.6mm 0; }`,
+    `.meta { display: flex; gap: 6mm; font-size: 10pt; margin-bottom: 2mm; }`,
+    `.field { flex: 1; border-bottom: 1px solid #000; min-height: 6mm; }`,
+    `.danger { border: 2.5px solid #000; padding: 2mm 3mm; font-weight: bold; margin: 2mm 0; }`,
+    `.cols { display: flex; gap: 6mm; }`,
+    `.cols > div { flex: 1; }`,
+    `table { border-collapse: collapse; width: 100%; }`,
+    `td, th { border: 1px solid #000; padding: 1.2mm 1.5mm; vertical-align: middle; }`,
+    `th { background: #eee; font-size: 9pt; text-align: left; }`,
+    `table.kv td { border: none; padding: 0.4mm 1mm; }`,
+    `table.kv td:first-child { font-weight: bold; width: 22mm; }`,
+    `table.steps tr { break-inside: avoid; page-break-inside: avoid; }`,
+    `table.steps td.target { font-size: 15pt; font-weight: bold; white-space: nowrap; }`,
+    `table.steps td.blank { min-width: 26mm; }`,
+    `table.steps td.small { width: 13mm; }`,
+    `tr.before td { border-bottom: none; font-weight: bold; font-size: 9.5pt; }`,
+    `.unit { font-size: 9pt; font-weight: normal; }`,
+    `ul.checks { list-style: none; padding-left: 0; margin: 0; }`,
+    `ul.checks li { margin: 0.8mm 0; }`,
+    `.label { border: 1.5px dashed #000; padding: 2mm 3mm; font-size: 11pt; break-inside: avoid; ` +
+      `page-break-inside: avoid; }`,
+    `.findings li { margin: 0.6mm 0; break-inside: avoid; page-break-inside: avoid; }`,
+    `.sev { font-weight: bold; text-transform: uppercase; }`,
+    `.caution { font-size: 9pt; border-top: 1px solid #000; margin-top: 3mm; padding-top: 1.5mm; }`,
+    `.figures { break-inside: avoid; page-break-inside: avoid; }`,
+    `.figures .cols > div { flex: 1; }`,
+    `.figures svg { width: 100%; height: auto; }`,
+    `.legend { font-size: 9pt; }`,
+    `footer { font-size: 8pt; margin-top: 2mm; }`,
+    `@media screen { body { max-width: 190mm; margin: 8mm auto; } }`,
+    '',
+  ].join('\n');
+
+function paragraphs(lines: readonly string[]): string {
+  return lines.map((l) => `<p>${esc(l)}</p>`).join('');
+}
 
 export function sheetToHtml(m: SheetModel): string {
   const kv = (rows: readonly [string, string][]) =>
@@ -54,8 +65,11 @@ export function sheetToHtml(m: SheetModel): string {
         ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
         : '';
       return (
-        `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}</span></td><td>${esc(r.gauge)}${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td ` +
-        `class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td ` +
+        `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}` +
+        `</span></td><td>${esc(r.gauge)}` +
+        `${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td ` +
+        (`class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>` +
+          `${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td `) +
         `class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`
       );
     })
@@ -70,41 +84,49 @@ export function sheetToHtml(m: SheetModel): string {
         .join('')}</ul>`
     : '<p>No findings.</p>';
   const figures = m.diagram
-    ? `<section class="figures"><h2>Fuel / O2 / inert diagram</h2><div class="cols"><div>${m.diagram.triangle}</div><div>${m.diagram.detail}</div></div><p ` +
+    ? `<section class="figures"><h2>Fuel / O2 / inert diagram</h2><div class="cols"><div>` +
+      `${m.diagram.triangle}</div><div>${m.diagram.detail}</div></div><p ` +
       `class="legend">${esc(m.diagram.legend)}</p></section>`
     : '';
-  return `<!DOCTYPE html>
-<html lang="en"><head><meta charset="utf-8"><title>Fill sheet ${esc(m.batchId)}</title><style>${CSS(m.paper)}</style></head>
-<body>
-<h1>Fill sheet &mdash; ${esc(m.title)}</h1>
-<div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.labName)}</div></div>
-<div class="meta"><div class="field">Date:</div><div class="field">Operator:</div><div class="field">Checked by:</div></div>
-${
-  m.hasDanger
-    ? '<div class="danger">DANGER findings stand (see below). Do not fill until ' +
-      'each is resolved or formally accepted.</div>'
-    : ''
-}
-<div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole fraction)</h2>${kv(m.composition)}</div></div>
-<section class="block"><h2>Before filling</h2>
-<ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul></section>
-<section class="block"><h2>Fills (target = reading to stop at, on that gauge)</h2>
-<table class="steps">
-<tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th><th>actual reading</th><th>time</th><th>init.</th><th>done</th></tr>
-${steps}
-</table>
-${m.barometer ? `<div class="baro"><b>Barometer.</b> ${m.barometer.map((l) => `<p>${esc(l)}</p>`).join('')}</div>` : ''}</section>
-<section class="block"><h2>After filling</h2>
-<ul class="checks">${m.postChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul></section>
-<section class="block"><h2>Tank label</h2>
-<div class="label">${m.label.map(esc).join('<br>')}</div></section>
-<section class="findings-block"><h2>Findings</h2>
-${findings}</section>
-<p class="caution"><b>Caution.</b> ${esc(m.caution)}</p>
-<footer>mixwright ${esc(m.version)} &middot; recipe ${esc(m.recipeId)}</footer>
-${figures}
-</body></html>
-`;
+  return [
+    `<!DOCTYPE html>`,
+    `<html lang="en"><head><meta charset="utf-8"><title>Fill sheet ${esc(m.batchId)}</title><style>` +
+      `${CSS(m.paper)}</style></head>`,
+    `<body>`,
+    `<h1>Fill sheet &mdash; ${esc(m.title)}</h1>`,
+    `<div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.labName)}</div>` + `</div>`,
+    `<div class="meta"><div class="field">Date:</div><div class="field">Operator:</div><div ` +
+      `class="field">Checked by:</div></div>`,
+    `${
+      m.hasDanger
+        ? '<div class="danger">DANGER findings stand (see below). Do not fill until ' +
+          'each is resolved or formally accepted.</div>'
+        : ''
+    }`,
+    `<div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole ` +
+      `fraction)</h2>${kv(m.composition)}</div></div>`,
+    `<section class="block"><h2>Before filling</h2>`,
+    `<ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>` + `</section>`,
+    `<section class="block"><h2>Fills (target = reading to stop at, on that gauge)</h2>`,
+    `<table class="steps">`,
+    `<tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th><th>actual ` +
+      `reading</th><th>time</th><th>init.</th><th>done</th></tr>`,
+    `${steps}`,
+    `</table>`,
+    `${m.barometer ? `<div class="baro"><b>Barometer.</b> ${paragraphs(m.barometer)}</div>` : ''}` +
+      `</section>`,
+    `<section class="block"><h2>After filling</h2>`,
+    `<ul class="checks">${m.postChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>` + `</section>`,
+    `<section class="block"><h2>Tank label</h2>`,
+    `<div class="label">${m.label.map(esc).join('<br>')}</div></section>`,
+    `<section class="findings-block"><h2>Findings</h2>`,
+    `${findings}</section>`,
+    `<p class="caution"><b>Caution.</b> ${esc(m.caution)}</p>`,
+    `<footer>mixwright ${esc(m.version)} &middot; recipe ${esc(m.recipeId)}</footer>`,
+    `${figures}`,
+    `</body></html>`,
+    '',
+  ].join('\n');
 }
 
 export function sheetToMarkdown(m: SheetModel): string {

@@ -123,17 +123,14 @@ export function speciesDetail(name: string, temperatureK: number): string {
           getSource(r.low.source).quality === 'from-memory' ||
           getSource(r.high.source).quality === 'from-memory',
       );
-      out.push(
-        `Detonation limits: ${det
-          .map(
-            (r) =>
-              `in ${r.oxidizer} ${(r.low.value * 100).toPrecision(3)}-${(r.high.value * 100).toPrecision(3)} ` +
-              `vol % (${r.low.source})`,
-          )
-          .join(
-            '; ',
-          )}.${recalledDet.length ? ' These are from memory (check before relying on them); the safety review uses them.' : ''}`,
-      );
+      const pctOf = (v: number) => (v * 100).toPrecision(3);
+      const limits = det
+        .map((r) => `in ${r.oxidizer} ${pctOf(r.low.value)}-${pctOf(r.high.value)} vol % (${r.low.source})`)
+        .join('; ');
+      const recalled = recalledDet.length
+        ? ' These are from memory (check before relying on them); the safety review uses them.'
+        : '';
+      out.push(`Detonation limits: ${limits}.${recalled}`);
       for (const r of det) {
         cited.add(r.low.source);
         cited.add(r.high.source);

@@ -54,3 +54,28 @@ describe('the diagram draws each fill as a segment with its flammable stretch', 
     expect(diagramSvg(d, 't')).not.toContain('class="burn"');
   });
 });
+
+describe('the caption of a state outside the detail', () => {
+  // 11 px sans-serif: descenders reach about 0.25 em below the baseline (typical of sans-serif
+  // faces, from memory); the caption must end above the frame and not run past its right edge
+  const DESCENT = 0.25 * 11;
+  const frameOf = (svg: string) => {
+    const m = /<rect x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="[\d.]+" class="edge"\/>/.exec(svg)!;
+    return { x: Number(m[1]), y: Number(m[2]), right: Number(m[1]) + Number(m[3]) };
+  };
+
+  it('CH4 first (pure fuel, off the detail): the caption sits clear above the frame and ends at its right edge', () => {
+    const svg = detailSvg(diagramData(plan({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['CH4', 'Ar', 'O2']))!, 't');
+    const cap = /<text x="([\d.]+)" y="([\d.]+)"[^>]*>state 1 outside this detail/.exec(svg);
+    expect(cap).not.toBeNull();
+    const frame = frameOf(svg);
+    expect(Number(cap![2]) + DESCENT).toBeLessThan(frame.y);
+    expect(Number(cap![1])).toBeLessThanOrEqual(frame.right);
+  });
+
+  it('Ar first (every state inside the detail): no caption, and the frame keeps its top', () => {
+    const svg = detailSvg(diagramData(plan({ CH4: 0.05, O2: 0.1, Ar: 0.85 }, ['Ar', 'CH4', 'O2']))!, 't');
+    expect(svg).not.toContain('outside this detail');
+    expect(frameOf(svg).y).toBe(14);
+  });
+});

@@ -1,0 +1,129 @@
+/**
+ * What the re-check renderers read: the report of `check` and the parts of a batch log a
+ * label or certificate shows. Declared here, beside the renderers, so no renderer imports
+ * the file-handling shell (src/io); src/io/check.ts builds a CheckReport and the parsed
+ * batch log (src/io/batch-log.ts) fits LogView as it is.
+ */
+import type { CheckVerdict, CheckedReading, Design, Tolerance, UncertaintyResult } from '../core/index.js';
+
+export type RecordSeverity = 'danger' | 'warning' | 'note';
+
+/** a finding about the log as a record (a reading past a limit, an edited line), with its sentence */
+export interface RecordFinding {
+  readonly code: string;
+  readonly severity: RecordSeverity;
+  readonly step: number | null;
+  readonly line: number | null;
+  /** a finding on the record itself (an edited line, a torn tail) names its own issue code */
+  readonly issue?: { readonly code: string };
+  /** the sentence, worded once where the finding is made (describeLogFinding in the log audit) */
+  readonly message: string;
+}
+
+/** a reading line of a batch log as it was written, with its line number */
+export interface LoggedReading {
+  readonly kind: 'reading' | 'correction';
+  readonly step: number;
+  readonly gauge: string;
+  /** as shown on the gauge, with its unit */
+  readonly reading: string;
+  /** absolute tank pressure */
+  readonly pressure_Pa: number;
+  readonly temperature: string;
+  readonly temperature_K: number;
+  readonly time: string;
+  readonly by?: string;
+  readonly note?: string;
+  readonly replaces_line?: number;
+  readonly line: number;
+}
+
+/** a correction or a withdrawal, with what it replaced */
+export interface AmendmentRecord {
+  readonly kind: 'correction' | 'withdraw';
+  readonly step: number;
+  readonly line: number;
+  readonly by: string | null;
+  readonly time: string;
+  readonly reason: string | null;
+  /** the reading in force before, or null */
+  readonly old: LoggedReading | null;
+  /** the correcting reading; null for a withdrawal */
+  readonly new: LoggedReading | null;
+}
+
+/** the report of `check` for one log or CSV; F is the record finding as its producer types it */
+export interface CheckReportOf<F extends RecordFinding> {
+  readonly file: string;
+  readonly id: string;
+  readonly kind: 'log' | 'csv';
+  readonly readings: readonly CheckedReading[];
+  readonly result: UncertaintyResult;
+  readonly verdict: CheckVerdict;
+  readonly design?: Design;
+  readonly tolerance: Tolerance;
+  readonly warnings: readonly string[];
+  /** what is missing for a complete batch: planned steps without a reading, or design gases without a row */
+  readonly incomplete: readonly string[];
+  /**
+   * the log as a record: readings past the working limit or a gauge's range (danger),
+   * edited lines, text/number disagreements, torn tails
+   */
+  readonly findings: readonly F[];
+  /** corrections and withdrawals, in the order logged (applied to the readings above) */
+  readonly amendments: readonly AmendmentRecord[];
+  /** the barometric pressure the re-check used, and where it came from */
+  readonly barometer?: {
+    readonly pressurePa: number;
+    readonly uPa: number;
+    readonly from: 'log' | 'plan' | 'lab';
+    readonly by?: string;
+    readonly time?: string;
+    readonly text?: string;
+  };
+  /** a top-up: the gas already in the tank before the first fill */
+  readonly start?: {
+    readonly pressurePa: number;
+    readonly temperatureK: number;
+    readonly composition: Readonly<Record<string, number>>;
+    readonly read: boolean;
+    readonly by?: string;
+    readonly time?: string;
+  };
+  /** what stands beside the verdict: a danger in the record, an edited record */
+  readonly caveats: readonly string[];
+}
+
+export type CheckReport = CheckReportOf<RecordFinding>;
+
+/** the parts of a parsed batch log that the label and the certificate show */
+export interface LogView {
+  readonly header: {
+    readonly created: string;
+    readonly lab: string;
+    readonly tank: {
+      readonly id: string;
+      readonly volume_m3: number;
+      readonly rated_pressure_Pa: number | null;
+    };
+    readonly barometer: { readonly pressure_Pa: number; readonly u_Pa: number };
+    readonly thermometer: { readonly u_K: number; readonly resolution_K: number };
+    readonly recipe?: unknown;
+    readonly findings?: readonly {
+      readonly severity: RecordSeverity;
+      readonly code: string;
+      readonly step: number | null;
+      readonly message: string;
+    }[];
+  };
+  /** the reading in force for each step, in step order */
+  readonly readings: readonly LoggedReading[];
+  readonly acknowledgements: readonly {
+    readonly code: string;
+    readonly step: number | null;
+    readonly by: string;
+    readonly time: string;
+    readonly note?: string;
+  }[];
+  readonly closed: boolean;
+}
