@@ -4,6 +4,8 @@
  */
 
 import { VIRIAL_U } from './mixture-eos.js';
+import { describePredictedOver } from './predict-words.js';
+import type { ComponentAbout } from './uncertainty.js';
 
 export type Severity = 'danger' | 'warning' | 'note';
 
@@ -140,6 +142,19 @@ export type Finding = Base &
         readonly limitK: number;
       }
     | { readonly code: 'no-safe-order'; readonly reason: string }
+    // raised by the predicted uncertainty (predict.ts)
+    | {
+        readonly code: 'predicted-u-over-tolerance';
+        readonly species: string;
+        readonly design: number;
+        /** predicted U (k = 2) of the mole fraction, and the tolerance half-width, both as fractions */
+        readonly expandedU: number;
+        readonly tolerance: number;
+        /** the largest contribution, its share of u^2, and what it is */
+        readonly dominant: string;
+        readonly dominantShare: number;
+        readonly about?: ComponentAbout;
+      }
   );
 
 export interface FlammabilityNumbers {
@@ -533,6 +548,8 @@ export function describeFinding(f: Finding, p: PressureFormatter): string {
         `seals in oxygen service can ignite. Fill the oxidizer later, throttle this ` +
         `fill, or use only oxygen-compatible parts`
       );
+    case 'predicted-u-over-tolerance':
+      return describePredictedOver(f, p);
   }
 }
 

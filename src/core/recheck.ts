@@ -345,12 +345,7 @@ export function invertReadings(
     });
     const d = rho - rhoPrev;
     if (!(d > 0)) {
-      return fail({
-        code: 'schema',
-        reason:
-          `reading ${k + 1} (${Number(P.toPrecision(6))} Pa) is not above the one before ` +
-          `it; each fill must raise the tank pressure`,
-      });
+      return fail({ code: 'density-not-rising', reading: k + 1, pressurePa: P, inUncertainty: false });
     }
     const wid = setup.wId[k];
     const main = setup.main[k];

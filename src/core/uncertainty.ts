@@ -61,7 +61,22 @@ export interface InputComponent {
   /** standard uncertainty */
   readonly u: number;
   readonly unit: string;
+  /** what the component is: which gauge, reading (step), source or coefficient it belongs to */
+  readonly about: ComponentAbout;
 }
+
+export type ComponentAbout =
+  | { readonly kind: 'span' | 'zero'; readonly gauge: string }
+  | {
+      readonly kind: 'resolution';
+      readonly gauge: string;
+      readonly step: number;
+      readonly pressurePa: number;
+    }
+  | { readonly kind: 'barometer' | 'thermometer' }
+  | { readonly kind: 'temperature-resolution' | 'temperature-settling'; readonly step: number }
+  | { readonly kind: 'virial'; readonly pair: readonly [string, string] }
+  | { readonly kind: 'purity'; readonly source: string };
 
 export interface OutputStat {
   readonly value: number;
@@ -79,6 +94,8 @@ export interface OutputStat {
   };
   /** the largest contributions c_i u_i, largest first */
   readonly budget: readonly { readonly name: string; readonly contribution: number }[];
+  /** every contribution c_i u_i (signed), in the order of the result's components */
+  readonly contributions?: readonly number[];
 }
 
 export interface UncertaintyResult {
@@ -115,6 +132,8 @@ export interface ModelInput {
   readonly initial?: InTank;
 }
 
+type AddComponent = (name: string, dist: Dist, scale: number, unit: string, about: ComponentAbout) => number;
+
 /** per reading, the index of each input component that moves it (-1: none) */
 interface ReadingInputs {
   readonly span: Int32Array;
@@ -135,9 +154,9 @@ function buildComponents(
   setup: InverseSetup,
 ): { components: InputComponent[]; inputs: ReadingInputs } {
   const components: InputComponent[] = [];
-  const add = (name: string, dist: Dist, scale: number, unit: string) => {
+  const add: AddComponent = (name, dist, scale, unit, about) => {
     const u = dist === 'rectangular' ? scale / Math.sqrt(3) : scale;
-    components.push({ name, dist, scale, u, unit });
+    components.push({ name, dist, scale, u, unit, about });
     return components.length - 1;
   };
   const perReading = (f: (r: CheckedReading) => number) => Int32Array.from(readings.map(f));
@@ -146,35 +165,62 @@ function buildComponents(
   const offIdx = new Map<string, number>();
   for (const g of gauges) {
     if (g.accuracyOfReading > 0)
-      spanIdx.set(g.id, add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1'));
+      spanIdx.set(
+        g.id,
+        add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1', { kind: 'span', gauge: g.id }),
+      );
     if (g.accuracyOfFullScale > 0)
-      offIdx.set(g.id, add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa'));
+      offIdx.set(
+        g.id,
+        add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa', {
+          kind: 'zero',
+          gauge: g.id,
+        }),
+      );
   }
   const resolution = perReading((r) =>
     r.gauge.resolutionPa > 0
-      ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa')
+      ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa', {
+          kind: 'resolution',
+          gauge: r.gauge.id,
+          step: r.step,
+          pressurePa: r.pressurePa,
+        })
       : -1,
   );
   const baroIdx = readings.some((r) => r.gauge.reference === 'gauge')
-    ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa')
+    ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa', { kind: 'barometer' })
     : -1;
   const thermometer =
     settings.thermometerUncertaintyK > 0
-      ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K')
+      ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K', { kind: 'thermometer' })
       : -1;
   const tRes = settings.thermometerResolutionK;
   const temperatureResolution = perReading((r) =>
-    tRes > 0 ? add(`temperature resolution, reading ${r.step}`, 'rectangular', tRes / 2, 'K') : -1,
+    tRes > 0
+      ? add(`temperature resolution, reading ${r.step}`, 'rectangular', tRes / 2, 'K', {
+          kind: 'temperature-resolution',
+          step: r.step,
+        })
+      : -1,
   );
   const settle = settings.temperatureSettlingK ?? 0;
   const settling = perReading((r) =>
-    settle > 0 ? add(`temperature settling, reading ${r.step}`, 'rectangular', settle, 'K') : -1,
+    settle > 0
+      ? add(`temperature settling, reading ${r.step}`, 'rectangular', settle, 'K', {
+          kind: 'temperature-settling',
+          step: r.step,
+        })
+      : -1,
   );
   const virial = virialComponents(setup, add);
   // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular
   const purity = perReading((r) =>
     r.source.unidentified > 0
-      ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1')
+      ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1', {
+          kind: 'purity',
+          source: r.source.id,
+        })
       : -1,
   );
   const inputs: ReadingInputs = {
@@ -192,10 +238,7 @@ function buildComponents(
 }
 
 /** one normal component per second virial coefficient of the species at 1e-4 or more */
-function virialComponents(
-  setup: InverseSetup,
-  add: (name: string, dist: Dist, scale: number, unit: string) => number,
-): { i: number; j: number; c: number }[] {
+function virialComponents(setup: InverseSetup, add: AddComponent): { i: number; j: number; c: number }[] {
   const out: { i: number; j: number; c: number }[] = [];
   // virial terms of trace species (impurities below 1e-4 in every source) move no output measurably: left out
   const major = new Set(
@@ -205,7 +248,11 @@ function virialComponents(
     if (!major.has(e.i) || !major.has(e.j)) continue;
     const i = setup.species.indexOf(e.i);
     const j = setup.species.indexOf(e.j);
-    out.push({ i, j, c: add(`B ${e.i}-${e.j}`, 'normal', virialU(e), 'm3/mol') });
+    out.push({
+      i,
+      j,
+      c: add(`B ${e.i}-${e.j}`, 'normal', virialU(e), 'm3/mol', { kind: 'virial', pair: [e.i, e.j] }),
+    });
   }
   return out;
 }
@@ -450,7 +497,7 @@ export function evaluateUncertainty(
       const validated = Math.abs(value - 2 * u - low) <= tol && Math.abs(value + 2 * u - high) <= tol;
       mc = { mean, u: uMc, low, high, validated, tolerance: tol };
     }
-    return { value, u, low: value - 2 * u, high: value + 2 * u, mc, budget };
+    return { value, u, low: value - 2 * u, high: value + 2 * u, mc, budget, contributions: cs };
   };
   const S = m.setup.species.length;
   const composition: Record<string, OutputStat> = {};

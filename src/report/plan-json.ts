@@ -1,6 +1,7 @@
 /** plan --json: one object, SI units in the key names (the contract other tools read). */
 import { describeFinding, STANDING_CAUTION, type Plan } from '../core/index.js';
 import { pressure } from './format.js';
+import { predictedJson } from './predicted-text.js';
 import type { PressureUnit } from '../io/quantity.js';
 
 import type { ReactorSpec } from '../core/index.js';
@@ -141,6 +142,7 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
         'C_mix = sum y_i y_j y_k C_ijk; untabulated C_ijk = (C_ii C_jj C_kk)^(1/3); ' +
         'C of polar species and of species without a reference value is 0',
     },
+    predicted: predictedJson(plan),
     findings: plan.findings.map((f) => ({ ...f, step: f.step ?? null, message: describeFinding(f, fmt) })),
     caution: STANDING_CAUTION,
   };

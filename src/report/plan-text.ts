@@ -3,6 +3,7 @@ import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig, padTable, pressure, signed } from './format.js';
 import type { PlanMeta } from './plan-json.js';
+import { predictedLines } from './predicted-text.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -144,6 +145,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
     `            ${formatFractions(plan.composition)}${plan.unidentifiedFraction > 0 ? `   + unidentified ${fixedSig(plan.unidentifiedFraction * 1e6, 3)} ppm` : ''}`,
   );
   out.push('');
+  out.push(...predictedLines(plan));
   if (plan.findings.length) {
     out.push('Findings');
     const order: Severity[] = ['danger', 'warning', 'note'];
