@@ -71,7 +71,10 @@ export interface VirialModel {
   readonly entries: readonly VirialEntry[];
 }
 
-/** our estimates of the virial-coefficient standard uncertainty, from the comparisons recorded in DEVELOPERS.md (m3/mol) */
+/**
+ * our estimates of the virial-coefficient standard uncertainty, from the comparisons recorded in
+ * DEVELOPERS.md (m3/mol)
+ */
 export const VIRIAL_U = {
   reference: { absolute: 0.5e-6, relative: 0.01 },
   correlation: { absolute: 2e-6, relative: 0.05 },
@@ -80,7 +83,10 @@ export const VIRIAL_U = {
    * them lie within 2u over 250-350 K (scripts/cross-rule-lib.ts); the relative part grows as crossRuleLowTFactor
    */
   cross: { absolute: 4e-6, relative: 0.05 },
-  /** cross B by the rule where it is not calibrated (pairs with He, H2, Ne or a hydrogen-bonding species): our estimate */
+  /**
+   * cross B by the rule where it is not calibrated (pairs with He, H2, Ne or a hydrogen-bonding
+   * species): our estimate
+   */
   crossUncalibrated: { absolute: 4e-6, relative: 0.15 },
   /** cross B from a tabulated reference mixture model: at least half the largest spread the table admits (3 cm3/mol) */
   referenceCross: { absolute: 1.5e-6, relative: 0.03 },
@@ -157,7 +163,8 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
         source: 'prausnitz-1999',
         uM3PerMol: uRule,
       };
-      // a fitted model's composition average where its spread is the smaller uncertainty (at least the tabulated pairs' floor)
+      // a fitted model's composition average where its spread is the smaller uncertainty (at least the
+      // tabulated pairs' floor)
       const avg = averagedCrossB(records[i].key, records[j].key, temperatureK);
       const avgU =
         avg &&

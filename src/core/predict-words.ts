@@ -29,7 +29,9 @@ export function contributionAdvice(
   switch (about.kind) {
     case 'resolution':
       return {
-        what: `the display resolution of ${about.gauge} (largest at the reading of step ${about.step}, ${p(about.pressurePa)})`,
+        what:
+          `the display resolution of ${about.gauge} ` +
+          `(largest at the reading of step ${about.step}, ${p(about.pressurePa)})`,
         fix:
           `read step ${about.step} at ${p(about.pressurePa)} on a gauge head with a finer resolution, ` +
           `or fill that charge earlier in the order, where a lower-range head reads it`,

@@ -425,7 +425,8 @@ function drawSamples(m: Model, trials: number, seed: number): Float64Array[] {
 /**
  * Composition, phi and diluent fraction of a logged batch with their GUM and Monte
  * Carlo uncertainties. The trials run as MC_STREAMS streams one after another, unless
- * the caller passes the streams' samples (computed in parallel with monteCarloSamples). `diluent` names the species counted in the diluent fraction
+ * the caller passes the streams' samples (computed in parallel with monteCarloSamples).
+ * `diluent` names the species counted in the diluent fraction
  * (the design's diluent group; the inerts when there is no design).
  */
 export function evaluateUncertainty(
