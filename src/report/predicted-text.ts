@@ -74,6 +74,32 @@ function pct(x: number): string {
   return `${Number((x * 100).toPrecision(2))} %`;
 }
 
+/**
+ * The sheet's plan summary: one line with each design fraction's (and phi's) predicted value
+ * +- U beside its tolerance, so the person at the manifold knows before the first fill whether
+ * a perfect fill can be shown within tolerance. [] for a plan without a prediction.
+ */
+export function predictedSheetLines(plan: Plan): [string, string][] {
+  const p = predictionOf(plan);
+  if (!p) return [];
+  const parts = p.rows
+    .filter((r) => r.kind !== 'dilution')
+    .map(
+      (r) =>
+        `${label(r)} ${fixedSig(r.stat.value, 5)} +- ${fixedSig(r.expandedU, 2)} ` +
+        `(${pct(r.expandedU / r.design)}; tolerance ${pct(r.tolerance / r.design)}${r.within ? '' : ', OVER'})`,
+    );
+  return [
+    [
+      'predicted U',
+      `(k = 2) if every reading hits its target: ${parts.join('; ')}` +
+        (p.rows.some((r) => r.kind === 'fraction' && !r.within)
+          ? ' - a perfect fill cannot be shown within tolerance: see the findings'
+          : ''),
+    ],
+  ];
+}
+
 /** the plan's block of predicted uncertainty, or a line saying why there is none; [] without either */
 export function predictedLines(plan: Plan): string[] {
   const p = predictionOf(plan);

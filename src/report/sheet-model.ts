@@ -20,6 +20,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { decimalsFor, fixedSig, pressure } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
+import { predictedSheetLines } from './predicted-text.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -315,7 +316,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     labName: meta.labName,
     version: meta.version,
     paper: meta.paper,
-    design,
+    design: [...design, ...predictedSheetLines(plan)],
     composition,
     preChecks,
     rows,
