@@ -100,6 +100,18 @@ export function predictedSheetLines(plan: Plan): [string, string][] {
   ];
 }
 
+/** one short line for the wizard's preview: the design fraction with the largest U against its tolerance */
+export function predictedShortLines(plan: Plan): string[] {
+  const p = predictionOf(plan);
+  const rows = p ? p.rows.filter((r) => r.kind === 'fraction') : [];
+  if (!rows.length) return [];
+  const worst = rows.reduce((a, b) => (b.expandedU / b.tolerance > a.expandedU / a.tolerance ? b : a));
+  return [
+    `predicted U (k = 2): ${label(worst)} ${pct(worst.expandedU / worst.design)} ` +
+      `vs tolerance ${pct(worst.tolerance / worst.design)}${worst.within ? '' : ' OVER'}`,
+  ];
+}
+
 /** the plan's block of predicted uncertainty, or a line saying why there is none; [] without either */
 export function predictedLines(plan: Plan): string[] {
   const p = predictionOf(plan);

@@ -2,6 +2,7 @@
 import { describeProblem, fillLabel, planFill, ProblemError, type Plan } from '../core/index.js';
 import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } from '../io/load.js';
 import { planWithPrediction } from '../io/plan-predict.js';
+import { predictedShortLines } from '../report/predicted-text.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { fromPa, isPressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
@@ -165,6 +166,7 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
         `${s.gauge ? fromPa(s.gauge.readingPa, u).toFixed(dec) : '-'} ${u}`,
     );
   }
+  lines.push(...predictedShortLines(plan));
   const rank = { danger: 0, warning: 1, note: 2 } as const;
   const top = [...plan.findings]
     .filter((f) => f.severity !== 'note')
