@@ -22,6 +22,7 @@ import {
   type Locate,
   type RecipeSource,
 } from '../io/load.js';
+import { planWithPrediction } from '../io/plan-predict.js';
 import { recipeSchema, type RecipeFile } from '../io/recipe.js';
 import { labSchema } from '../io/lab.js';
 import {
@@ -512,7 +513,7 @@ export function createProgram(streams: Streams): {
     const req = buildPlanRequest(rs, o.lab, { barometricPa });
     let plan;
     try {
-      plan = planFill(req.input);
+      plan = planWithPrediction(planFill(req.input), req);
     } catch (e) {
       // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
       if (e instanceof ProblemError && e.where.field)

@@ -4,6 +4,8 @@
  */
 
 import { VIRIAL_U } from './mixture-eos.js';
+import { describePredictedOver } from './predict-words.js';
+import type { ComponentAbout } from './uncertainty.js';
 
 export type Severity = 'danger' | 'warning' | 'note';
 
@@ -151,6 +153,19 @@ export type Finding = Base &
         readonly missing: readonly ('lennard-jones' | 'diffusion volume')[];
         /** the pairs with this species left out of the slowest pair (no diffusion coefficient at all) */
         readonly pairsLeftOut: readonly string[];
+      }
+    // raised by the predicted uncertainty (predict.ts)
+    | {
+        readonly code: 'predicted-u-over-tolerance';
+        readonly species: string;
+        readonly design: number;
+        /** predicted U (k = 2) of the mole fraction, and the tolerance half-width, both as fractions */
+        readonly expandedU: number;
+        readonly tolerance: number;
+        /** the largest contribution, its share of u^2, and what it is */
+        readonly dominant: string;
+        readonly dominantShare: number;
+        readonly about?: ComponentAbout;
       }
   );
 
@@ -629,6 +644,7 @@ const DATA_COVERAGE: WordingTable<'no-autoignition-data' | 'transport-data-not-k
 };
 
 const WORDING: WordingTable<FindingCode> = {
+  'predicted-u-over-tolerance': describePredictedOver,
   ...DATA_COVERAGE,
   ...TANK_AND_GAUGES,
   ...SUPPLY,

@@ -189,3 +189,24 @@ export {
 } from './data/coverage.js';
 export type { DataTable, NotKnown } from './data/coverage.js';
 export { transportGaps } from './diffusion.js';
+// the predicted uncertainty of a plan, and the re-check's model input it shares with check
+export {
+  DEFAULT_TEMPERATURE_SETTLING_K,
+  plannedModelInput,
+  predictionFindings,
+  predictionOf,
+  predictPlan,
+  withPrediction,
+} from './predict.js';
+export type {
+  PlanPrediction,
+  PredictedContribution,
+  PredictedQuantity,
+  PredictedRow,
+  PredictedPlan,
+  PredictionInput,
+} from './predict.js';
+export { contributionAdvice } from './predict-words.js';
+export { READING_TEMPERATURE_RANGE_K, recheckModelInput } from './recheck-input.js';
+export type { RecheckBasis, RecheckModelInput, RecheckRecord } from './recheck-input.js';
+export type { ComponentAbout, InTank, MonteCarloJob } from './uncertainty.js';

@@ -141,6 +141,45 @@ export function describeProblem(p: Problem): string {
         `${formatNumber(p.residual)} against a tolerance of ${formatNumber(p.tolerance)}. No result is ` +
         `given; check the inputs for an extreme state, and report it to the maintainers if they are ordinary`
       );
+    // raised by the re-check
+    case 'record-unknown-id':
+      return `reading of step ${p.step} names the ${p.kind} "${p.id}", which the header does not list`;
+    case 'reading-not-rising':
+      return (
+        `the reading of step ${p.step} is not above the one before it` +
+        `${p.afterStart ? ' (the starting pressure of the top-up)' : ''}; readings must increase`
+      );
+    case 'density-not-rising': {
+      const what =
+        `reading ${p.reading} (${Number(p.pressurePa.toPrecision(6))} Pa) is not above the one before ` +
+        `it; each fill must raise the tank pressure`;
+      return p.inUncertainty
+        ? `the readings are too close together, or too close to zero, for their uncertainty: ` +
+            `in the uncertainty evaluation, ${what}. Check the pressures, and the gauge named for each reading`
+        : what;
+    }
+    case 'log-no-readings':
+      return 'the log holds no readings yet; nothing to re-check';
+    case 'csv-empty':
+      return 'the file is empty; it needs the header species,pressure,temperature and one row per fill';
+    case 'csv-missing-column':
+      return (
+        `the header lacks the column "${p.column}"; it must be species,pressure,temperature ` +
+        `(optional: ${p.optional.join(', ')})`
+      );
+    case 'csv-field-count':
+      return `${p.got} fields where the header has ${p.expected}`;
+    case 'csv-not-rising':
+      return (
+        `the reading ${p.text} is not above the previous one; each row ` +
+        `is the absolute pressure after a fill, so readings must increase`
+      );
+    case 'csv-no-rows':
+      return 'no readings below the header';
+    case 'csv-fill-repeated':
+      return `${p.species} is filled twice; each fill has one row`;
+    case 'csv-species-not-filled':
+      return `${p.species} is not filled in the design of ${p.recipe} (its fills: ${p.fills.join(', ')})`;
     // raised by the batch log and the guided fill
     case 'log-locked':
     case 'log-changed':

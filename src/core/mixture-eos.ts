@@ -71,7 +71,10 @@ export interface VirialModel {
   readonly entries: readonly VirialEntry[];
 }
 
-/** our estimates of the virial-coefficient standard uncertainty, from the comparisons recorded in DEVELOPERS.md (m3/mol) */
+/**
+ * our estimates of the virial-coefficient standard uncertainty, from the comparisons recorded in
+ * DEVELOPERS.md (m3/mol)
+ */
 export const VIRIAL_U = {
   reference: { absolute: 0.5e-6, relative: 0.01 },
   correlation: { absolute: 2e-6, relative: 0.05 },
@@ -80,7 +83,10 @@ export const VIRIAL_U = {
    * them lie within 2u over 250-350 K (scripts/cross-rule-lib.ts); the relative part grows as crossRuleLowTFactor
    */
   cross: { absolute: 4e-6, relative: 0.05 },
-  /** cross B by the rule where it is not calibrated (pairs with He, H2, Ne or a hydrogen-bonding species): our estimate */
+  /**
+   * cross B by the rule where it is not calibrated (pairs with He, H2, Ne or a hydrogen-bonding
+   * species): our estimate
+   */
   crossUncalibrated: { absolute: 4e-6, relative: 0.15 },
   /** cross B from a tabulated reference mixture model: at least half the largest spread the table admits (3 cm3/mol) */
   referenceCross: { absolute: 1.5e-6, relative: 0.03 },
@@ -157,7 +163,8 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
         source: 'prausnitz-1999',
         uM3PerMol: uRule,
       };
-      // a fitted model's composition average where its spread is the smaller uncertainty (at least the tabulated pairs' floor)
+      // a fitted model's composition average where its spread is the smaller uncertainty (at least the
+      // tabulated pairs' floor)
       const avg = averagedCrossB(records[i].key, records[j].key, temperatureK);
       const avgU =
         avg &&
@@ -207,6 +214,53 @@ function fractionsVector(model: VirialModel, y: Readonly<Record<string, number>>
     if (!model.species.includes(k) && y[k] !== 0) throw new Error(`species ${k} is not in the virial model`);
   }
   return model.species.map((k) => y[k] ?? 0);
+}
+
+/**
+ * B_mix = sum_i sum_j y_i y_j B_ij over arrays (the form the re-check's Monte Carlo loop uses),
+ * summed over the upper triangle of the symmetric S x S matrix B (row-major), m3/mol; y is used
+ * as given (normalised by the caller). Terms of a species with y_i = 0 are skipped.
+ * Example: y = (0.5, 0.5), B = [[-40, -20], [-20, 10]] cm3/mol -> -17.5 cm3/mol.
+ */
+export function bMixOf(y: ArrayLike<number>, B: ArrayLike<number>, S: number): number {
+  let b = 0;
+  for (let i = 0; i < S; i++) {
+    const yi = y[i];
+    if (yi === 0) continue;
+    const row = i * S;
+    let acc = 0.5 * B[row + i] * yi;
+    for (let j = i + 1; j < S; j++) acc += B[row + j] * y[j];
+    b += 2 * yi * acc;
+  }
+  return b;
+}
+
+/**
+ * C_mix over arrays, the same rule as cMix: (sum_i y_i C_ii^(1/3))^3 plus the tabulated pairs'
+ * departures 3 y_i^2 y_j dC_iij + 3 y_j^2 y_i dC_jji, m6/mol2. `cbrtC` holds C_ii^(1/3);
+ * `cPairs` (S x S, row-major) holds 3 (C_iij - (C_ii^2 C_jj)^(1/3)) at [i][j] (i twice, j once),
+ * else 0; y is used as given.
+ */
+export function cMixOf(
+  y: ArrayLike<number>,
+  cbrtC: ArrayLike<number>,
+  cPairs: ArrayLike<number>,
+  S: number,
+): number {
+  let c3 = 0;
+  let dc = 0;
+  for (let i = 0; i < S; i++) {
+    const yi = y[i];
+    if (yi === 0) continue;
+    c3 += yi * cbrtC[i];
+    let accC = 0;
+    for (let j = i + 1; j < S; j++) {
+      const yj = y[j];
+      accC += yj * (yi * cPairs[i * S + j] + yj * cPairs[j * S + i]);
+    }
+    dc += yi * accC;
+  }
+  return c3 * c3 * c3 + dc;
 }
 
 /** B_mix = sum_i sum_j y_i y_j B_ij, m3/mol; y need not be normalised (it is normalised here). */

@@ -146,6 +146,50 @@ export type Problem =
   | { readonly code: 'withdraw-not-last'; readonly step: number; readonly later: number }
   /** Enter on an empty reading field */
   | { readonly code: 'reading-missing'; readonly expected: string }
+  // raised by the re-check
+  /** a log's reading names a source or gauge that its header does not list */
+  | {
+      readonly code: 'record-unknown-id';
+      readonly kind: 'source' | 'gauge';
+      readonly id: string;
+      readonly step: number;
+    }
+  /** a logged reading is not above the one before it (or above a top-up's starting pressure) */
+  | {
+      readonly code: 'reading-not-rising';
+      readonly step: number;
+      readonly pressurePa: number;
+      readonly previousPa: number;
+      readonly afterStart: boolean;
+    }
+  /**
+   * the inverse model found a fill that does not raise the tank's density: reading `reading`
+   * (1-based) at `pressurePa`; `inUncertainty`: it happened in a perturbed evaluation
+   */
+  | {
+      readonly code: 'density-not-rising';
+      readonly reading: number;
+      readonly pressurePa: number;
+      readonly inUncertainty: boolean;
+    }
+  /** a batch log holds no readings */
+  | { readonly code: 'log-no-readings' }
+  /** a readings CSV holds no header (empty or comments only) */
+  | { readonly code: 'csv-empty' }
+  | { readonly code: 'csv-missing-column'; readonly column: string; readonly optional: readonly string[] }
+  | { readonly code: 'csv-field-count'; readonly got: number; readonly expected: number }
+  /** a CSV row's pressure (as typed) is not above the row before */
+  | { readonly code: 'csv-not-rising'; readonly text: string }
+  | { readonly code: 'csv-no-rows' }
+  /** two CSV rows fill from the same source */
+  | { readonly code: 'csv-fill-repeated'; readonly species: string }
+  /** a CSV row names a species that the recipe's plan does not fill */
+  | {
+      readonly code: 'csv-species-not-filled';
+      readonly species: string;
+      readonly recipe: string;
+      readonly fills: readonly string[];
+    }
   // raised by the planner
   | PlannerProblem;
 

@@ -10,7 +10,7 @@
 import { R } from './constants.js';
 import type { Fractions } from './composition.js';
 import type { GasSource } from './supply.js';
-import { virialModel, type VirialModel } from './mixture-eos.js';
+import { bMixOf, cMixOf, virialModel, type VirialModel } from './mixture-eos.js';
 import { VIRIAL_TABLE_RANGE_K } from './virial-reference.js';
 import { fail } from './problems.js';
 
@@ -187,46 +187,50 @@ export interface InverseResult {
   readonly amounts: Float64Array;
 }
 
-function solveRho(
-  P: number,
-  T: number,
-  nPrev: Float64Array,
-  rhoPrev: number,
-  w: Float64Array,
-  Beff: Float64Array,
-  cbrtC: Float64Array,
-  cPairs: Float64Array,
-  S: number,
-  y: Float64Array,
-  start = 0,
-): number {
-  const rt = R * T;
-  let rho = start > rhoPrev ? start : P / rt;
-  for (let it = 0; it < 30; it++) {
+/** what solveRho needs: the reading, the gas before it, the source and the mixture's coefficients */
+export interface RhoProblem {
+  /** absolute pressure of the reading, Pa */
+  readonly pressurePa: number;
+  readonly temperatureK: number;
+  /** amounts per unit volume before the fill, mol/m3 (length S) */
+  readonly nPrev: Float64Array;
+  /** molar density before the fill, mol/m3 */
+  readonly rhoPrev: number;
+  /** the source's EOS composition (length S) */
+  readonly w: Float64Array;
+  /** B matrix at the reading (S x S, row-major, perturbations applied), m3/mol */
+  readonly B: Float64Array;
+  /** cube roots of C_ii, and the pair departures of the mixing rule (mixture-eos cMixOf) */
+  readonly cbrtC: Float64Array;
+  readonly cPairs: Float64Array;
+  /** scratch and result: the mixture's composition after the fill (length S) */
+  readonly y: Float64Array;
+  /** density to start from, mol/m3 (the nominal result in a Monte Carlo loop); else ideal gas */
+  readonly start?: number;
+}
+
+/** iterations of the composition fixed point, and its relative tolerance on rho */
+const RHO_ITERATIONS = 30;
+const RHO_TOLERANCE = 1e-13;
+
+/**
+ * The density after a fill: rho solves P = rho R T (1 + B_mix(y) rho + C_mix(y) rho^2) with
+ * y = (n_prev + (rho - rho_prev) w) / rho, by a fixed point on y with Newton steps on rho
+ * (quadratic: two steps from a close start). Raises `not-converged` when the fixed point has
+ * not settled to 1e-13 of rho in 30 iterations.
+ */
+export function solveRho(q: RhoProblem): number {
+  const S = q.w.length;
+  const { y, w, nPrev, rhoPrev } = q;
+  const P = q.pressurePa;
+  const rt = R * q.temperatureK;
+  let rho = q.start !== undefined && q.start > rhoPrev ? q.start : P / rt;
+  let change = Infinity;
+  for (let it = 0; it < RHO_ITERATIONS; it++) {
     const d = rho - rhoPrev;
     for (let i = 0; i < S; i++) y[i] = (nPrev[i] + d * w[i]) / rho;
-    // B_mix = y' B y over the upper triangle (B symmetric); C_mix = (sum y_i C_i^(1/3))^3 plus the
-    // tabulated pairs' departures 3 y_i^2 y_j dC_iij + 3 y_j^2 y_i dC_jji (mixture-eos cMix)
-    let b = 0;
-    let c3 = 0;
-    let dc = 0;
-    for (let i = 0; i < S; i++) {
-      const yi = y[i];
-      if (yi === 0) continue;
-      c3 += yi * cbrtC[i];
-      const row = i * S;
-      let acc = 0.5 * Beff[row + i] * yi;
-      let accC = 0;
-      for (let j = i + 1; j < S; j++) {
-        const yj = y[j];
-        acc += Beff[row + j] * yj;
-        accC += yj * (yi * cPairs[row + j] + yj * cPairs[j * S + i]);
-      }
-      b += 2 * yi * acc;
-      dc += yi * accC;
-    }
-    const c = c3 * c3 * c3 + dc;
-    // Newton on P(rho) at the current composition (quadratic: two steps from a close start)
+    const b = bMixOf(y, q.B, S);
+    const c = cMixOf(y, q.cbrtC, q.cPairs, S);
     let r = rho;
     for (let n = 0; n < 3; n++) {
       const f = r * rt * (1 + b * r + c * r * r) - P;
@@ -235,10 +239,17 @@ function solveRho(
       r -= step;
       if (Math.abs(step) <= 1e-14 * r) break;
     }
-    if (Math.abs(r - rho) <= 1e-13 * rho) return r;
+    change = Math.abs(r - rho) / Math.abs(rho);
+    if (change <= RHO_TOLERANCE) return r;
     rho = r;
   }
-  return rho;
+  return fail({
+    code: 'not-converged',
+    computation: 'density after a fill (re-check)',
+    iterations: RHO_ITERATIONS,
+    residual: change,
+    tolerance: RHO_TOLERANCE,
+  });
 }
 
 /** scratch arrays, so that a Monte Carlo loop allocates nothing per trial */
@@ -288,7 +299,17 @@ export function invertReadings(
   let unid = 0;
   if (setup.initial) {
     const i0 = setup.initial;
-    const r0 = solveRho(i0.pressurePa, i0.temperatureK, ws.zero, 0, i0.y, i0.B, i0.cbrtC, i0.cPairs, S, y);
+    const r0 = solveRho({
+      pressurePa: i0.pressurePa,
+      temperatureK: i0.temperatureK,
+      nPrev: ws.zero,
+      rhoPrev: 0,
+      w: i0.y,
+      B: i0.B,
+      cbrtC: i0.cbrtC,
+      cPairs: i0.cPairs,
+      y,
+    });
     for (let i = 0; i < S; i++) {
       n[i] = r0 * i0.y[i];
       nId[i] = n[i];
@@ -310,27 +331,21 @@ export function invertReadings(
     const bAbs = p?.bAbsolute;
     const Beff = ws.Beff;
     for (let i = 0; i < S * S; i++) Beff[i] = Bk[i] + dBk[i] * dT + (bAbs ? bAbs[i] : 0);
-    const rho = solveRho(
-      P,
-      T,
-      n,
+    const rho = solveRho({
+      pressurePa: P,
+      temperatureK: T,
+      nPrev: n,
       rhoPrev,
       w,
-      Beff,
-      setup.cbrtC[k],
-      setup.cPairs[k],
-      S,
+      B: Beff,
+      cbrtC: setup.cbrtC[k],
+      cPairs: setup.cPairs[k],
       y,
-      start ? start[k] : 0,
-    );
+      start: start?.[k],
+    });
     const d = rho - rhoPrev;
     if (!(d > 0)) {
-      return fail({
-        code: 'schema',
-        reason:
-          `reading ${k + 1} (${Number(P.toPrecision(6))} Pa) is not above the one before ` +
-          `it; each fill must raise the tank pressure`,
-      });
+      return fail({ code: 'density-not-rising', reading: k + 1, pressurePa: P, inUncertainty: false });
     }
     const wid = setup.wId[k];
     const main = setup.main[k];

@@ -40,6 +40,12 @@ export interface UncertaintySettings {
   readonly thermometerUncertaintyK: number;
   /** thermometer display resolution, K */
   readonly thermometerResolutionK: number;
+  /**
+   * half-width of a rectangular difference between the gas temperature and the thermometer at
+   * each reading after the settling time (the heat of the fill not yet gone), K; independent
+   * from reading to reading. Undefined or 0: not counted (the re-check of a log made before it)
+   */
+  readonly temperatureSettlingK?: number;
   /** Monte Carlo trials (>= 1e5 for a reported result) and seed */
   readonly trials: number;
   readonly seed: number;
@@ -55,7 +61,22 @@ export interface InputComponent {
   /** standard uncertainty */
   readonly u: number;
   readonly unit: string;
+  /** what the component is: which gauge, reading (step), source or coefficient it belongs to */
+  readonly about: ComponentAbout;
 }
+
+export type ComponentAbout =
+  | { readonly kind: 'span' | 'zero'; readonly gauge: string }
+  | {
+      readonly kind: 'resolution';
+      readonly gauge: string;
+      readonly step: number;
+      readonly pressurePa: number;
+    }
+  | { readonly kind: 'barometer' | 'thermometer' }
+  | { readonly kind: 'temperature-resolution' | 'temperature-settling'; readonly step: number }
+  | { readonly kind: 'virial'; readonly pair: readonly [string, string] }
+  | { readonly kind: 'purity'; readonly source: string };
 
 export interface OutputStat {
   readonly value: number;
@@ -73,6 +94,8 @@ export interface OutputStat {
   };
   /** the largest contributions c_i u_i, largest first */
   readonly budget: readonly { readonly name: string; readonly contribution: number }[];
+  /** every contribution c_i u_i (signed), in the order of the result's components */
+  readonly contributions?: readonly number[];
 }
 
 export interface UncertaintyResult {
@@ -94,60 +117,129 @@ interface Model {
   readonly outputs: readonly string[];
 }
 
-function buildModel(
+/** gas already in the tank before the first fill (a top-up) */
+export interface InTank {
+  readonly composition: Fractions;
+  readonly pressurePa: number;
+  readonly temperatureK: number;
+}
+
+/** what the model is built from: the readings, the settings, the diluent group, a top-up's start */
+export interface ModelInput {
+  readonly readings: readonly CheckedReading[];
+  readonly settings: UncertaintySettings;
+  readonly diluent: readonly string[];
+  readonly initial?: InTank;
+}
+
+type AddComponent = (name: string, dist: Dist, scale: number, unit: string, about: ComponentAbout) => number;
+
+/** per reading, the index of each input component that moves it (-1: none) */
+interface ReadingInputs {
+  readonly span: Int32Array;
+  readonly zero: Int32Array;
+  readonly resolution: Int32Array;
+  readonly barometer: Int32Array;
+  readonly thermometer: number;
+  readonly temperatureResolution: Int32Array;
+  readonly settling: Int32Array;
+  readonly purity: Int32Array;
+  readonly virial: readonly { i: number; j: number; c: number }[];
+}
+
+/** the independent input components (module comment) and which reading each one moves */
+function buildComponents(
   readings: readonly CheckedReading[],
   settings: UncertaintySettings,
-  diluent: readonly string[],
-  initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
-): Model {
-  const setup = inverseSetup(
-    readings.map((r) => ({ source: r.source, pressurePa: r.pressurePa, temperatureK: r.temperatureK })),
-    initial,
-  );
-  const S = setup.species.length;
-  const K = readings.length;
+  setup: InverseSetup,
+): { components: InputComponent[]; inputs: ReadingInputs } {
   const components: InputComponent[] = [];
-  const add = (name: string, dist: Dist, scale: number, unit: string) => {
+  const add: AddComponent = (name, dist, scale, unit, about) => {
     const u = dist === 'rectangular' ? scale / Math.sqrt(3) : scale;
-    components.push({ name, dist, scale, u, unit });
+    components.push({ name, dist, scale, u, unit, about });
     return components.length - 1;
   };
-  const ctx = {
-    barometricPa: settings.barometricPa,
-    barometricUncertaintyPa: settings.barometricUncertaintyPa,
-  };
+  const perReading = (f: (r: CheckedReading) => number) => Int32Array.from(readings.map(f));
   const gauges = [...new Map(readings.map((r) => [r.gauge.id, r.gauge])).values()];
   const spanIdx = new Map<string, number>();
   const offIdx = new Map<string, number>();
   for (const g of gauges) {
     if (g.accuracyOfReading > 0)
-      spanIdx.set(g.id, add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1'));
+      spanIdx.set(
+        g.id,
+        add(`span of ${g.id}`, 'rectangular', g.accuracyOfReading, '1', { kind: 'span', gauge: g.id }),
+      );
     if (g.accuracyOfFullScale > 0)
-      offIdx.set(g.id, add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa'));
+      offIdx.set(
+        g.id,
+        add(`zero of ${g.id}`, 'rectangular', g.accuracyOfFullScale * g.fullScalePa, 'Pa', {
+          kind: 'zero',
+          gauge: g.id,
+        }),
+      );
   }
-  const resIdx = readings.map((r) =>
+  const resolution = perReading((r) =>
     r.gauge.resolutionPa > 0
-      ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa')
+      ? add(`resolution, reading ${r.step}`, 'rectangular', r.gauge.resolutionPa / 2, 'Pa', {
+          kind: 'resolution',
+          gauge: r.gauge.id,
+          step: r.step,
+          pressurePa: r.pressurePa,
+        })
       : -1,
   );
   const baroIdx = readings.some((r) => r.gauge.reference === 'gauge')
-    ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa')
+    ? add('barometer', 'normal', settings.barometricUncertaintyPa, 'Pa', { kind: 'barometer' })
     : -1;
-  const thermoIdx =
+  const thermometer =
     settings.thermometerUncertaintyK > 0
-      ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K')
+      ? add('thermometer', 'normal', settings.thermometerUncertaintyK, 'K', { kind: 'thermometer' })
       : -1;
-  const tResIdx = readings.map((r) =>
-    settings.thermometerResolutionK > 0
-      ? add(
-          `temperature resolution, reading ${r.step}`,
-          'rectangular',
-          settings.thermometerResolutionK / 2,
-          'K',
-        )
+  const tRes = settings.thermometerResolutionK;
+  const temperatureResolution = perReading((r) =>
+    tRes > 0
+      ? add(`temperature resolution, reading ${r.step}`, 'rectangular', tRes / 2, 'K', {
+          kind: 'temperature-resolution',
+          step: r.step,
+        })
       : -1,
   );
-  const bIdx: { i: number; j: number; c: number }[] = [];
+  const settle = settings.temperatureSettlingK ?? 0;
+  const settling = perReading((r) =>
+    settle > 0
+      ? add(`temperature settling, reading ${r.step}`, 'rectangular', settle, 'K', {
+          kind: 'temperature-settling',
+          step: r.step,
+        })
+      : -1,
+  );
+  const virial = virialComponents(setup, add);
+  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular
+  const purity = perReading((r) =>
+    r.source.unidentified > 0
+      ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1', {
+          kind: 'purity',
+          source: r.source.id,
+        })
+      : -1,
+  );
+  const inputs: ReadingInputs = {
+    span: perReading((r) => spanIdx.get(r.gauge.id) ?? -1),
+    zero: perReading((r) => offIdx.get(r.gauge.id) ?? -1),
+    resolution,
+    barometer: perReading((r) => (r.gauge.reference === 'gauge' ? baroIdx : -1)),
+    thermometer,
+    temperatureResolution,
+    settling,
+    purity,
+    virial,
+  };
+  return { components, inputs };
+}
+
+/** one normal component per second virial coefficient of the species at 1e-4 or more */
+function virialComponents(setup: InverseSetup, add: AddComponent): { i: number; j: number; c: number }[] {
+  const out: { i: number; j: number; c: number }[] = [];
   // virial terms of trace species (impurities below 1e-4 in every source) move no output measurably: left out
   const major = new Set(
     setup.species.filter((_, i) => setup.wId.some((w) => w[i] >= 1e-4) || (setup.initial?.y[i] ?? 0) >= 1e-4),
@@ -156,16 +248,28 @@ function buildModel(
     if (!major.has(e.i) || !major.has(e.j)) continue;
     const i = setup.species.indexOf(e.i);
     const j = setup.species.indexOf(e.j);
-    const u = virialU(e);
-    bIdx.push({ i, j, c: add(`B ${e.i}-${e.j}`, 'normal', u, 'm3/mol') });
+    out.push({
+      i,
+      j,
+      c: add(`B ${e.i}-${e.j}`, 'normal', virialU(e), 'm3/mol', { kind: 'virial', pair: [e.i, e.j] }),
+    });
   }
-  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular
-  const purIdx = readings.map((r) =>
-    r.source.unidentified > 0
-      ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1')
-      : -1,
-  );
+  return out;
+}
 
+function buildModel(input: ModelInput): Model {
+  const { readings, settings, diluent, initial } = input;
+  const setup = inverseSetup(
+    readings.map((r) => ({ source: r.source, pressurePa: r.pressurePa, temperatureK: r.temperatureK })),
+    initial,
+  );
+  const S = setup.species.length;
+  const K = readings.length;
+  const { components, inputs: ix } = buildComponents(readings, settings, setup);
+  const ctx = {
+    barometricPa: settings.barometricPa,
+    barometricUncertaintyPa: settings.barometricUncertaintyPa,
+  };
   const readingPa = readings.map((r) => gaugeReadingPa(r.gauge, r.pressurePa, ctx));
   const dilIdx = diluent.map((k) => setup.species.indexOf(k)).filter((i) => i >= 0);
   const outputs = [...setup.species, 'phi', 'diluent'];
@@ -176,42 +280,28 @@ function buildModel(
   const ws = workspaceFor(setup);
   const demand = setup.species.map((k) => oxygenDemand(getSpecies(k).elements));
   const out = new Float64Array(S + 2);
-  const nominalRho = Float64Array.from(
-    invertReadings(
-      setup,
-      undefined,
-      readings.map((r) => r.pressurePa),
-    ).rho,
-  );
-  // per-reading component indices as plain arrays (-1: none), for the hot loop
-  const spanOf = Int32Array.from(readings.map((r) => spanIdx.get(r.gauge.id) ?? -1));
-  const offOf = Int32Array.from(readings.map((r) => offIdx.get(r.gauge.id) ?? -1));
-  const baroOf = Int32Array.from(readings.map((r) => (r.gauge.reference === 'gauge' ? baroIdx : -1)));
   const P0 = Float64Array.from(readings.map((r) => r.pressurePa));
   const T0 = Float64Array.from(readings.map((r) => r.temperatureK));
+  const nominalRho = Float64Array.from(invertReadings(setup, undefined, [...P0]).rho);
+  const at = (v: Float64Array, idx: number) => (idx >= 0 ? v[idx] : 0);
   const evaluate = (v: Float64Array): Float64Array => {
     for (let k = 0; k < K; k++) {
-      let p = P0[k];
-      if (spanOf[k] >= 0) p += v[spanOf[k]] * readingPa[k];
-      if (offOf[k] >= 0) p += v[offOf[k]];
-      if (resIdx[k] >= 0) p += v[resIdx[k]];
-      if (baroOf[k] >= 0) p += v[baroOf[k]];
-      P[k] = p;
-      T[k] = T0[k] + (thermoIdx >= 0 ? v[thermoIdx] : 0) + (tResIdx[k] >= 0 ? v[tResIdx[k]] : 0);
-      pur[k] = purIdx[k] >= 0 ? v[purIdx[k]] : 0;
+      P[k] =
+        P0[k] +
+        at(v, ix.span[k]) * readingPa[k] +
+        at(v, ix.zero[k]) +
+        at(v, ix.resolution[k]) +
+        at(v, ix.barometer[k]);
+      T[k] = T0[k] + at(v, ix.thermometer) + at(v, ix.temperatureResolution[k]) + at(v, ix.settling[k]);
+      pur[k] = at(v, ix.purity[k]);
     }
     bAbs.fill(0);
-    for (const b of bIdx) {
+    for (const b of ix.virial) {
       bAbs[b.i * S + b.j] = v[b.c];
       bAbs[b.j * S + b.i] = v[b.c];
     }
-    const res = invertReadings(
-      setup,
-      { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur },
-      undefined,
-      ws,
-      nominalRho,
-    );
+    const perturbation = { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur };
+    const res = invertReadings(setup, perturbation, undefined, ws, nominalRho);
     out.set(res.x);
     // phi on the O-atom basis, as composition.equivalenceRatio, from precomputed O2 demands
     let need = 0;
@@ -288,21 +378,25 @@ export function streamTrials(trials: number, i: number): number {
   return i < trials - base * MC_STREAMS ? base + 1 : base;
 }
 
+/** one stream of Monte Carlo trials: the model's input and the stream's size and seed */
+export interface MonteCarloJob {
+  readonly readings: readonly CheckedReading[];
+  readonly settings: UncertaintySettings;
+  /** the species counted in the diluent fraction; the inerts when not given */
+  readonly diluent?: readonly string[];
+  readonly initial?: InTank;
+  readonly trials: number;
+  readonly seed: number;
+}
+
 /**
  * The Monte Carlo draws of one stream: outputs (species fractions, phi, diluent) by trial.
  * Pure and self-contained, so a shell may run the streams in parallel.
  */
-export function monteCarloSamples(
-  readings: readonly CheckedReading[],
-  settings: UncertaintySettings,
-  diluent: readonly string[] | undefined,
-  initial: { composition: Fractions; pressurePa: number; temperatureK: number } | undefined,
-  trials: number,
-  seed: number,
-): Float64Array[] {
-  const dil = diluent ?? defaultDiluent(readings);
-  const m = buildModel(readings, settings, dil, initial);
-  return drawSamples(m, trials, seed);
+export function monteCarloSamples(job: MonteCarloJob): Float64Array[] {
+  const diluent = job.diluent ?? defaultDiluent(job.readings);
+  const m = buildModel({ readings: job.readings, settings: job.settings, diluent, initial: job.initial });
+  return drawSamples(m, job.trials, job.seed);
 }
 
 function defaultDiluent(readings: readonly CheckedReading[]): string[] {
@@ -331,7 +425,8 @@ function drawSamples(m: Model, trials: number, seed: number): Float64Array[] {
 /**
  * Composition, phi and diluent fraction of a logged batch with their GUM and Monte
  * Carlo uncertainties. The trials run as MC_STREAMS streams one after another, unless
- * the caller passes the streams' samples (computed in parallel with monteCarloSamples). `diluent` names the species counted in the diluent fraction
+ * the caller passes the streams' samples (computed in parallel with monteCarloSamples).
+ * `diluent` names the species counted in the diluent fraction
  * (the design's diluent group; the inerts when there is no design).
  */
 export function evaluateUncertainty(
@@ -342,7 +437,7 @@ export function evaluateUncertainty(
   streams?: readonly Float64Array[][],
 ): UncertaintyResult {
   const dil = diluent ?? defaultDiluent(readings);
-  const m = buildModel(readings, settings, dil, initial);
+  const m = buildModel({ readings, settings, diluent: dil, initial });
   const N = m.components.length;
   const nominalV = new Float64Array(N);
   const nominal = Float64Array.from(m.evaluate(nominalV));
@@ -403,7 +498,7 @@ export function evaluateUncertainty(
       const validated = Math.abs(value - 2 * u - low) <= tol && Math.abs(value + 2 * u - high) <= tol;
       mc = { mean, u: uMc, low, high, validated, tolerance: tol };
     }
-    return { value, u, low: value - 2 * u, high: value + 2 * u, mc, budget };
+    return { value, u, low: value - 2 * u, high: value + 2 * u, mc, budget, contributions: cs };
   };
   const S = m.setup.species.length;
   const composition: Record<string, OutputStat> = {};

@@ -11,11 +11,13 @@ import {
   judge,
   planFill,
   pureCylinder,
+  recheckModelInput,
   type CheckedReading,
   type Design,
   type GasSource,
   type Gauge,
   type Plan,
+  type RecheckModelInput,
   type Tolerance,
 } from '../core/index.js';
 import {
@@ -33,6 +35,7 @@ import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.
 import { readReadingsCsv } from './readings-csv.js';
 import { TORR_PA } from '../core/index.js';
 import type { CheckReportOf } from '../report/check-types.js';
+import { DEFAULT_THERMOMETER } from './plan-predict.js';
 
 export interface CheckOptions {
   readonly trials: number;
@@ -79,24 +82,12 @@ async function withinFile<T>(file: string, f: () => Promise<T>): Promise<T> {
   try {
     return await f();
   } catch (e) {
-    if (e instanceof ProblemError && e.problem.code === 'schema' && 'reason' in e.problem) {
-      return fail(
-        {
-          code: 'schema',
-          reason:
-            `the readings are too close together, or too close to zero, for their uncertainty: ` +
-            `in the uncertainty evaluation, ${e.problem.reason}. Check the pressures, ` +
-            `and the gauge named for each reading`,
-        },
-        { file },
-      );
-    }
+    if (e instanceof ProblemError && e.problem.code === 'density-not-rising')
+      return fail({ ...e.problem, inUncertainty: true }, { file });
     if (e instanceof ProblemError) throw e.at({ file });
     throw e;
   }
 }
-
-const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 };
 
 export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created: string): LogHeader {
   const d = plan.design;
@@ -169,73 +160,46 @@ export function designFromHeader(h: LogHeader): Design {
   };
 }
 
-export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
+/** a top-up's starting gas: the logged starting reading, else the plan's */
+function startOf(log: ParsedLog): CheckReport['start'] {
   const h = log.header;
-  const gauges = new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)]));
-  const sources = new Map(h.sources.map((s) => [s.id, sourceFromLog(s)]));
-  if (log.readings.length === 0)
-    fail(
-      { code: 'schema', reason: 'the log holds no readings yet; nothing to re-check' },
-      { file: log.file },
-    );
-  const start: CheckReport['start'] = h.in_tank
-    ? log.start
-      ? {
-          pressurePa: log.start.pressure_Pa,
-          temperatureK: log.start.temperature_K,
-          composition: h.in_tank.composition,
-          read: true,
-          by: log.start.by,
-          time: log.start.time,
-        }
-      : {
-          pressurePa: h.in_tank.pressure_Pa,
-          temperatureK: h.temperature_K,
-          composition: h.in_tank.composition,
-          read: false,
-        }
-    : undefined;
-  let prev = start?.pressurePa ?? 0;
-  const readings: CheckedReading[] = log.readings.map((r) => {
-    const source = sources.get(r.source);
-    if (!source)
-      fail(
-        {
-          code: 'schema',
-          reason: `reading of step ${r.step} names the source "${r.source}", which the header does not list`,
-        },
-        { file: log.file, line: r.line },
-      );
-    const gauge = gauges.get(r.gauge);
-    if (!gauge)
-      fail(
-        {
-          code: 'schema',
-          reason: `reading of step ${r.step} names the gauge "${r.gauge}", which the header does not list`,
-        },
-        { file: log.file, line: r.line },
-      );
-    if (!(r.pressure_Pa > prev))
-      fail(
-        {
-          code: 'schema',
-          reason:
-            `the reading of step ${r.step} is not above the one before it${start && prev === start.pressurePa ? ' (the starting pressure of the top-up)' : ''}; ` +
-            `readings must increase`,
-        },
-        { file: log.file, line: r.line },
-      );
-    if (!(r.temperature_K >= 200 && r.temperature_K <= 600))
-      fail(
-        { code: 'out-of-range', what: 'tank temperature', value: r.temperature_K, allowed: '200-600 K' },
-        { file: log.file, line: r.line },
-      );
-    prev = r.pressure_Pa;
-    return { step: r.step, source, pressurePa: r.pressure_Pa, temperatureK: r.temperature_K, gauge };
-  });
-  const done = new Set(log.readings.map((r) => r.step));
-  const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
-  // the log's own record issues (torn tail, edited lines) are findings, listed once with the others
+  if (!h.in_tank) return undefined;
+  return log.start
+    ? {
+        pressurePa: log.start.pressure_Pa,
+        temperatureK: log.start.temperature_K,
+        composition: h.in_tank.composition,
+        read: true,
+        by: log.start.by,
+        time: log.start.time,
+      }
+    : {
+        pressurePa: h.in_tank.pressure_Pa,
+        temperatureK: h.temperature_K,
+        composition: h.in_tank.composition,
+        read: false,
+      };
+}
+
+/** the barometer of the fill: the last one logged, else the plan's */
+function barometerOf(log: ParsedLog): NonNullable<CheckReport['barometer']> {
+  const b = log.barometer;
+  const h = log.header;
+  return b
+    ? {
+        pressurePa: b.pressure_Pa,
+        uPa: b.u_Pa ?? h.barometer.u_Pa,
+        from: 'log',
+        by: b.by,
+        time: b.time,
+        text: b.reading,
+      }
+    : { pressurePa: h.barometer.pressure_Pa, uPa: h.barometer.u_Pa, from: 'plan' };
+}
+
+/** the warnings of a log's record: unacknowledged dangers of its plan, acknowledgements, missing steps */
+function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] {
+  const h = log.header;
   const warnings: string[] = [];
   const acked = new Set(log.acknowledgements.map((a) => a.code));
   const unacked = [
@@ -256,35 +220,64 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
       `the log has no reading for step ${missingSteps.join(', ')}: the batch is ` +
         `incomplete and the re-check covers the fills logged so far`,
     );
+  return warnings;
+}
+
+/**
+ * The re-check's model input of a log: its header's sources, gauges and instruments, its
+ * readings in force (the core's recheckModelInput, the same code the plan's prediction uses).
+ */
+export function logModelInput(
+  log: ParsedLog,
+  barometer: { pressurePa: number; uPa: number },
+  start: CheckReport['start'],
+  mc: { trials: number; seed: number },
+): RecheckModelInput {
+  const h = log.header;
+  try {
+    return recheckModelInput(
+      {
+        sources: new Map(h.sources.map((s) => [s.id, sourceFromLog(s)])),
+        gauges: new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)])),
+        barometer,
+        thermometer: { uK: h.thermometer.u_K, resolutionK: h.thermometer.resolution_K },
+        diluent: h.design.diluent,
+        start: start && {
+          composition: start.composition,
+          pressurePa: start.pressurePa,
+          temperatureK: start.temperatureK,
+        },
+      },
+      log.readings.map((r) => ({
+        step: r.step,
+        sourceId: r.source,
+        gaugeId: r.gauge,
+        pressurePa: r.pressure_Pa,
+        temperatureK: r.temperature_K,
+        line: r.line,
+      })),
+      mc,
+    );
+  } catch (e) {
+    if (e instanceof ProblemError) throw e.at({ file: log.file });
+    throw e;
+  }
+}
+
+export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
+  const h = log.header;
+  if (log.readings.length === 0) fail({ code: 'log-no-readings' }, { file: log.file });
+  const start = startOf(log);
+  const barometer = barometerOf(log);
+  const model = logModelInput(log, barometer, start, opts);
+  const done = new Set(log.readings.map((r) => r.step));
+  const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
+  // the log's own record issues (torn tail, edited lines) are findings, listed once with the others
+  const warnings = logWarnings(log, missingSteps);
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
   const design = designFromHeader(h);
-  const b = log.barometer;
-  const barometer: NonNullable<CheckReport['barometer']> = b
-    ? {
-        pressurePa: b.pressure_Pa,
-        uPa: b.u_Pa ?? h.barometer.u_Pa,
-        from: 'log',
-        by: b.by,
-        time: b.time,
-        text: b.reading,
-      }
-    : { pressurePa: h.barometer.pressure_Pa, uPa: h.barometer.u_Pa, from: 'plan' };
   const result = await withinFile(log.file, () =>
-    evaluateUncertaintyParallel(
-      readings,
-      {
-        barometricPa: barometer.pressurePa,
-        barometricUncertaintyPa: barometer.uPa,
-        thermometerUncertaintyK: h.thermometer.u_K,
-        thermometerResolutionK: h.thermometer.resolution_K,
-        trials: opts.trials,
-        seed: opts.seed,
-      },
-      h.design.diluent,
-      start
-        ? { composition: start.composition, pressurePa: start.pressurePa, temperatureK: start.temperatureK }
-        : undefined,
-    ),
+    evaluateUncertaintyParallel(model.readings, model.settings, model.diluent, model.initial),
   );
   const tolerance = h.tolerance;
   const verdict = missingSteps.length
@@ -294,7 +287,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
     file: log.file,
     id: h.id,
     kind: 'log',
-    readings,
+    readings: model.readings,
     result,
     verdict,
     design,
@@ -314,82 +307,97 @@ export function findingLines(r: CheckReport): string[] {
   return r.findings.map((f) => `${f.severity}: ${describeLogFinding(f)}`);
 }
 
-export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
+/** what CSV rows are re-checked with: the recipe's plan and lab profile, or the lab profile alone */
+interface CsvBasis {
+  readonly id: string;
+  readonly design?: Design;
+  readonly tolerance: Tolerance;
+  readonly gauges: readonly Gauge[];
+  readonly ctx: { barometricPa: number; barometricUncertaintyPa: number };
+  readonly thermo: { uncertaintyK: number; resolutionK: number };
+  readonly baroGiven: boolean;
+  readonly sourceFor: (species: string, line: number) => GasSource;
+  readonly warnings: string[];
+}
+
+function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: string }): CsvBasis {
+  const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, {
+    barometricPa: opts.barometricPa,
+  });
+  const plan = planFill(req.input);
   const warnings: string[] = [];
-  let design: Design | undefined;
-  let tolerance: Tolerance = { relative: 0.005, absolute: 0 };
-  let gauges: readonly Gauge[];
-  let ctx: { barometricPa: number; barometricUncertaintyPa: number };
-  let thermo: { uncertaintyK: number; resolutionK: number };
-  let sourceFor: (species: string, line: number) => GasSource;
-  let id = file;
-  let baroGiven: boolean;
-  if (opts.recipeFile) {
-    const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, {
-      barometricPa: opts.barometricPa,
-    });
-    const plan = planFill(req.input);
-    design = plan.design;
-    tolerance = plan.tolerance;
-    gauges = req.input.gauges;
-    ctx = req.input.reading;
-    baroGiven = opts.barometricPa !== undefined || req.lab.file.barometer !== undefined;
-    thermo = req.lab.thermometer ?? DEFAULT_THERMOMETER;
-    if (!req.lab.thermometer)
-      warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
-    id = req.recipe.id;
-    const bySpecies = new Map(plan.steps.map((s) => [s.source.mainSpecies, s.source]));
-    sourceFor = (sp, line) => {
-      const s = bySpecies.get(sp) ?? plan.steps.find((x) => (x.source.composition[sp] ?? 0) >= 0.01)?.source;
-      if (!s)
-        return fail(
-          {
-            code: 'schema',
-            reason: `${sp} is not filled in the design of ${opts.recipeFile} (its fills: ${plan.steps.map((x) => x.species).join(', ')})`,
-          },
-          { file, line, field: 'species' },
-        );
-      return s;
-    };
-  } else {
-    const lab = loadLab(opts.labFile);
-    gauges = lab.gauges;
-    ctx = {
+  if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
+  const bySpecies = new Map(plan.steps.map((s) => [s.source.mainSpecies, s.source]));
+  const sourceFor = (sp: string, line: number): GasSource => {
+    const s = bySpecies.get(sp) ?? plan.steps.find((x) => (x.source.composition[sp] ?? 0) >= 0.01)?.source;
+    if (!s)
+      return fail(
+        {
+          code: 'csv-species-not-filled',
+          species: sp,
+          recipe: opts.recipeFile,
+          fills: plan.steps.map((x) => x.species),
+        },
+        { file, line, field: 'species' },
+      );
+    return s;
+  };
+  return {
+    id: req.recipe.id,
+    design: plan.design,
+    tolerance: plan.tolerance,
+    gauges: req.input.gauges,
+    ctx: req.input.reading,
+    thermo: req.lab.thermometer ?? DEFAULT_THERMOMETER,
+    baroGiven: opts.barometricPa !== undefined || req.lab.file.barometer !== undefined,
+    sourceFor,
+    warnings,
+  };
+}
+
+function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
+  const lab = loadLab(opts.labFile);
+  return {
+    id: file,
+    tolerance: { relative: 0.005, absolute: 0 },
+    gauges: lab.gauges,
+    ctx: {
       barometricPa: opts.barometricPa ?? lab.barometricPa,
       barometricUncertaintyPa: lab.barometricUncertaintyPa,
-    };
-    baroGiven = opts.barometricPa !== undefined || lab.file.barometer !== undefined;
-    thermo = lab.thermometer ?? DEFAULT_THERMOMETER;
-    warnings.push(
+    },
+    thermo: lab.thermometer ?? DEFAULT_THERMOMETER,
+    baroGiven: opts.barometricPa !== undefined || lab.file.barometer !== undefined,
+    sourceFor: (sp) => pureCylinder({ id: sp, species: sp, purity: 1 }),
+    warnings: [
       'no recipe given: the gases are taken as pure (purity 1), the gauges from ' +
         'the lab profile, and there is no design to compare with (use --recipe)',
-    );
-    sourceFor = (sp) => pureCylinder({ id: sp, species: sp, purity: 1 });
-  }
+    ],
+  };
+}
+
+/** the CSV rows as the re-check's readings: a source per row (each once), the named gauge or the best one */
+function csvReadings(file: string, b: CsvBasis): CheckedReading[] {
   // gauge-referenced sensors (lab profile) and gauge units are made absolute with the barometer given
   const rows = readReadingsCsv(file, {
-    barometricPa: baroGiven ? ctx.barometricPa : undefined,
-    referenceOf: (id) => gauges.find((g) => g.id === id)?.reference,
+    barometricPa: b.baroGiven ? b.ctx.barometricPa : undefined,
+    referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
   });
   const used = new Set<string>();
-  const readings: CheckedReading[] = rows.map((r, i) => {
-    const source = sourceFor(r.species, r.line);
+  return rows.map((r, i) => {
+    const source = b.sourceFor(r.species, r.line);
     if (used.has(source.id))
-      fail(
-        { code: 'schema', reason: `${r.species} is filled twice; each fill has one row` },
-        { file, line: r.line, field: 'species' },
-      );
+      fail({ code: 'csv-fill-repeated', species: r.species }, { file, line: r.line, field: 'species' });
     used.add(source.id);
     let gauge: Gauge | undefined;
     if (r.gauge) {
-      gauge = gauges.find((g) => g.id === r.gauge);
+      gauge = b.gauges.find((g) => g.id === r.gauge);
       if (!gauge)
         fail(
-          { code: 'unknown-reference', kind: 'gauge', id: r.gauge, choices: gauges.map((g) => g.id) },
+          { code: 'unknown-reference', kind: 'gauge', id: r.gauge, choices: b.gauges.map((g) => g.id) },
           { file, line: r.line, field: 'gauge' },
         );
     } else {
-      gauge = chooseGauge(gauges, r.pressurePa, r.pressurePa, ctx)?.gauge;
+      gauge = chooseGauge(b.gauges, r.pressurePa, r.pressurePa, b.ctx)?.gauge;
       if (!gauge)
         fail(
           {
@@ -403,6 +411,15 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     }
     return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
   });
+}
+
+export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
+  const b = opts.recipeFile
+    ? csvBasisFromRecipe(file, { ...opts, recipeFile: opts.recipeFile })
+    : csvBasisFromLab(file, opts);
+  const { design, tolerance, ctx, thermo } = b;
+  const warnings = [...b.warnings];
+  const readings = csvReadings(file, b);
   const result = await withinFile(file, () =>
     evaluateUncertaintyParallel(
       readings,
@@ -429,7 +446,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   }
   return {
     file,
-    id,
+    id: b.id,
     kind: 'csv',
     readings,
     result,

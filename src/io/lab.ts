@@ -100,6 +100,11 @@ export const labSchema = z
       .object({
         uncertainty: quantity('standard uncertainty of the tank thermometer', '0.3 K'),
         resolution: quantity('display resolution of the tank thermometer', '0.1 K').optional(),
+        settling: quantity(
+          'largest difference between the gas and the thermometer left at a reading after the ' +
+            'settling time, used by the predicted uncertainty of a plan; default 0.05 K (our own assumption)',
+          '0.05 K',
+        ).optional(),
       })
       .strict()
       .optional(),

@@ -94,7 +94,12 @@ export interface LoadedLab {
   /** coldest wetted temperature of tank, lines and gauge heads, K */
   readonly coldestK?: number;
   /** tank thermometer: standard uncertainty and resolution, K; undefined when the profile gives none */
-  readonly thermometer?: { readonly uncertaintyK: number; readonly resolutionK: number };
+  readonly thermometer?: {
+    readonly uncertaintyK: number;
+    readonly resolutionK: number;
+    /** gas-thermometer difference left after settling, K (predicted uncertainty); undefined: the default */
+    readonly settlingK?: number;
+  };
   readonly condensationFraction?: number;
 }
 
@@ -296,6 +301,10 @@ export function loadLab(file?: string): LoadedLab {
       lab.thermometer.resolution === undefined
         ? 0
         : kelvinDiff(lab.thermometer.resolution, ['thermometer', 'resolution'], 'thermometer.resolution'),
+    settlingK:
+      lab.thermometer.settling === undefined
+        ? undefined
+        : kelvinDiff(lab.thermometer.settling, ['thermometer', 'settling'], 'thermometer.settling'),
   };
   return {
     name: lab.name,

@@ -5,14 +5,7 @@ import type { McJob } from './parallel-mc.js';
 
 const job = workerData as McJob;
 try {
-  const samples = monteCarloSamples(
-    job.readings,
-    job.settings,
-    job.diluent,
-    job.initial,
-    job.trials,
-    job.seed,
-  );
+  const samples = monteCarloSamples(job);
   parentPort!.postMessage(
     samples,
     samples.map((s) => s.buffer as ArrayBuffer),

@@ -54,115 +54,107 @@ export function splitCsvLine(line: string): string[] {
   return out;
 }
 
-export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {}): CsvReading[] {
-  const lines = text.replace(/\r\n?/g, '\n').split('\n');
-  const headerLine = lines.findIndex((l) => l.trim() !== '' && !l.trim().startsWith('#'));
-  if (headerLine < 0)
-    fail(
-      {
-        code: 'schema',
-        reason: 'the file is empty; it needs the header species,pressure,temperature and one row per fill',
-      },
-      { file },
-    );
-  const header = splitCsvLine(lines[headerLine]).map((h) => h.toLowerCase());
+/** the header line's columns (lower case) and its index; refuses a missing required or unknown column */
+function readHeader(lines: readonly string[], file: string): { header: string[]; at: number } {
+  const at = lines.findIndex((l) => l.trim() !== '' && !l.trim().startsWith('#'));
+  if (at < 0) fail({ code: 'csv-empty' }, { file });
+  const header = splitCsvLine(lines[at]).map((h) => h.toLowerCase());
   for (const r of REQUIRED)
     if (!header.includes(r))
-      fail(
-        {
-          code: 'schema',
-          reason:
-            `the header lacks the column "${r}"; it must be species,pressure,temperature ` +
-            `(optional: ${OPTIONAL.join(', ')})`,
-        },
-        { file, line: headerLine + 1 },
-      );
+      fail({ code: 'csv-missing-column', column: r, optional: OPTIONAL }, { file, line: at + 1 });
   for (const h of header)
     if (![...REQUIRED, ...OPTIONAL].includes(h))
-      fail(
-        { code: 'unknown-key', key: h, allowed: [...REQUIRED, ...OPTIONAL] },
-        { file, line: headerLine + 1 },
+      fail({ code: 'unknown-key', key: h, allowed: [...REQUIRED, ...OPTIONAL] }, { file, line: at + 1 });
+  return { header, at };
+}
+
+type At = (field: string) => { file: string; line: number; field: string };
+
+/** a row's absolute pressure: a gauge-referenced sensor's reading made absolute with the barometer */
+function rowPressurePa(text: string, gaugeId: string | undefined, ctx: CsvContext, where: At): number {
+  let pressurePa: number;
+  if (gaugeId !== undefined && ctx.referenceOf?.(gaugeId) === 'gauge' && !isAbsoluteSpelling(text)) {
+    // a gauge-referenced sensor shows the pressure above ambient: add the barometer
+    const shown = parseQuantity(text, 'pressure', where('pressure'), ctx);
+    if (isGaugeSpelling(text))
+      pressurePa = shown; // "psig" was already made absolute
+    else if (ctx.barometricPa === undefined)
+      return fail(
+        { code: 'needs-barometer', text: `${text} on ${gaugeId}`, field: 'the pressure column' },
+        where('pressure'),
       );
-  const col = (name: string) => header.indexOf(name);
+    else pressurePa = shown + ctx.barometricPa;
+  } else pressurePa = parseQuantity(text, 'pressure', where('pressure'), ctx);
+  return pressurePa;
+}
+
+/** refuses a row's values outside the re-check's range (after both are parsed, as the columns read) */
+function checkRow(pressurePa: number, pressureText: string, temperatureK: number, text: string, where: At) {
+  if (!(pressurePa > 0))
+    fail(
+      { code: 'not-positive', what: 'absolute pressure', value: pressurePa, text: pressureText },
+      where('pressure'),
+    );
+  if (!(temperatureK >= 200 && temperatureK <= 600)) {
+    fail(
+      {
+        code: 'out-of-range',
+        what: `tank temperature "${text}" (${temperatureK.toFixed(2)} K)`,
+        value: temperatureK,
+        allowed: '200-600 K',
+      },
+      where('temperature'),
+    );
+  }
+}
+
+/** one data row; `prev` is the row before it (readings must rise) */
+function parseRow(
+  cells: readonly string[],
+  header: readonly string[],
+  where: At,
+  ctx: CsvContext,
+  prev: CsvReading | undefined,
+): CsvReading {
+  const cell = (name: string) => (header.indexOf(name) >= 0 ? cells[header.indexOf(name)] : undefined);
+  let species: string;
+  try {
+    species = getSpecies(cell('species')!).key;
+  } catch (e) {
+    if (e instanceof ProblemError) throw relocate(e, where('species'));
+    throw e;
+  }
+  const gaugeId = cell('gauge') || undefined;
+  const pressurePa = rowPressurePa(cell('pressure')!, gaugeId, ctx, where);
+  const temperatureK = parseQuantity(cell('temperature')!, 'temperature', where('temperature'));
+  checkRow(pressurePa, cell('pressure')!, temperatureK, cell('temperature')!, where);
+  if (prev && pressurePa <= prev.pressurePa)
+    fail({ code: 'csv-not-rising', text: cell('pressure')! }, where('pressure'));
+  return {
+    line: where('').line,
+    species,
+    pressurePa,
+    temperatureK,
+    gauge: gaugeId,
+    time: cell('time') || undefined,
+    note: cell('note') || undefined,
+  };
+}
+
+export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {}): CsvReading[] {
+  const lines = text.replace(/\r\n?/g, '\n').split('\n');
+  const { header, at } = readHeader(lines, file);
   const out: CsvReading[] = [];
-  for (let i = headerLine + 1; i < lines.length; i++) {
+  for (let i = at + 1; i < lines.length; i++) {
     const raw = lines[i];
     if (raw.trim() === '' || raw.trim().startsWith('#')) continue;
     const line = i + 1;
     const cells = splitCsvLine(raw);
     if (cells.length !== header.length)
-      fail(
-        { code: 'schema', reason: `${cells.length} fields where the header has ${header.length}` },
-        { file, line },
-      );
-    const cell = (name: string) => (col(name) >= 0 ? cells[col(name)] : undefined);
-    const where = (field: string) => ({ file, line, field });
-    let species: string;
-    try {
-      species = getSpecies(cell('species')!).key;
-    } catch (e) {
-      if (e instanceof ProblemError) throw relocate(e, where('species'));
-      throw e;
-    }
-    const gaugeId = cell('gauge') || undefined;
-    const pressureText = cell('pressure')!;
-    let pressurePa: number;
-    if (
-      gaugeId !== undefined &&
-      ctx.referenceOf?.(gaugeId) === 'gauge' &&
-      !isAbsoluteSpelling(pressureText)
-    ) {
-      // a gauge-referenced sensor shows the pressure above ambient: add the barometer
-      const shown = parseQuantity(pressureText, 'pressure', where('pressure'), ctx);
-      if (isGaugeSpelling(pressureText))
-        pressurePa = shown; // "psig" was already made absolute
-      else if (ctx.barometricPa === undefined)
-        return fail(
-          { code: 'needs-barometer', text: `${pressureText} on ${gaugeId}`, field: 'the pressure column' },
-          where('pressure'),
-        );
-      else pressurePa = shown + ctx.barometricPa;
-    } else pressurePa = parseQuantity(pressureText, 'pressure', where('pressure'), ctx);
-    const temperatureK = parseQuantity(cell('temperature')!, 'temperature', where('temperature'));
-    if (!(pressurePa > 0))
-      fail(
-        { code: 'not-positive', what: 'absolute pressure', value: pressurePa, text: pressureText },
-        where('pressure'),
-      );
-    if (!(temperatureK >= 200 && temperatureK <= 600)) {
-      fail(
-        {
-          code: 'out-of-range',
-          what: `tank temperature "${cell('temperature')}" (${temperatureK.toFixed(2)} K)`,
-          value: temperatureK,
-          allowed: '200-600 K',
-        },
-        where('temperature'),
-      );
-    }
-    const prev = out[out.length - 1];
-    if (prev && pressurePa <= prev.pressurePa) {
-      fail(
-        {
-          code: 'schema',
-          reason:
-            `the reading ${cell('pressure')} is not above the previous one; each row ` +
-            `is the absolute pressure after a fill, so readings must increase`,
-        },
-        where('pressure'),
-      );
-    }
-    out.push({
-      line,
-      species,
-      pressurePa,
-      temperatureK,
-      gauge: gaugeId,
-      time: cell('time') || undefined,
-      note: cell('note') || undefined,
-    });
+      fail({ code: 'csv-field-count', got: cells.length, expected: header.length }, { file, line });
+    out.push(parseRow(cells, header, (field) => ({ file, line, field }), ctx, out[out.length - 1]));
   }
-  if (out.length === 0) fail({ code: 'schema', reason: 'no readings below the header' }, { file });
+  if (out.length === 0) fail({ code: 'csv-no-rows' }, { file });
   return out;
 }
 

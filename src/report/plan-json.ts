@@ -3,6 +3,7 @@ import { describeFinding, STANDING_CAUTION, type Plan, type PlanStep } from '../
 import { pressure } from './format.js';
 import { withJsonKeys } from './json-keys.js';
 import type { PressureUnit } from './units.js';
+import { predictedJson } from './predicted-text.js';
 
 import type { ReactorSpec } from '../core/index.js';
 
@@ -170,6 +171,7 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     experiments: experimentsJson(meta),
     steps: plan.steps.map(stepJson),
     ...virialJson(plan),
+    predicted: predictedJson(plan),
     // a finding's numbers keep their names, in the JSON key style (uncertaintyPa -> uncertainty_Pa)
     findings: plan.findings.map((f) => ({
       ...(withJsonKeys(f) as object),

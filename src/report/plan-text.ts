@@ -3,6 +3,7 @@ import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
+import { predictedLines } from './predicted-text.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -200,6 +201,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       : '';
   out.push(`            ${formatFractions(plan.composition)}${unidentified}`);
   out.push('');
+  out.push(...predictedLines(plan));
   out.push(...findingLines(plan, unit));
   out.push(`Caution: ${STANDING_CAUTION}`);
   return out.join('\n') + '\n';

@@ -22,6 +22,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
+import { predictedSheetLines } from './predicted-text.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -349,7 +350,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     labName: meta.labName,
     version: meta.version,
     paper: meta.paper,
-    design: designRows(plan, meta),
+    design: [...designRows(plan, meta), ...predictedSheetLines(plan)],
     composition,
     preChecks: preChecks(plan, meta),
     rows: plan.steps.map((s) => sheetRow(s, meta)),

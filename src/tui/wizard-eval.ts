@@ -1,6 +1,8 @@
 /** The wizard's evaluator: field values -> recipe -> plan preview, or the first problem and its field. */
 import { describeProblem, fillLabel, planFill, ProblemError, type Plan } from '../core/index.js';
 import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } from '../io/load.js';
+import { planWithPrediction } from '../io/plan-predict.js';
+import { predictedShortLines } from '../report/predicted-text.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { fromPa, isPressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
@@ -46,7 +48,7 @@ export function buildFromValues(v: Readonly<Record<FieldName, string>>, labFile?
   const locate = (path: readonly (string | number)[]) => ({ field: path.join('.') });
   const recipe = validateRecipeObject(raw, 'wizard', locate);
   const req = buildPlanRequest({ recipe, locate, baseDir: process.cwd(), origin: 'wizard' }, labFile);
-  return { recipe, req, plan: planFill(req.input) };
+  return { recipe, req, plan: planWithPrediction(planFill(req.input), req) };
 }
 
 const NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
@@ -165,6 +167,7 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
         `${s.gauge ? fromPa(s.gauge.readingPa, u).toFixed(dec) : '-'} ${u}`,
     );
   }
+  lines.push(...predictedShortLines(plan));
   const rank = { danger: 0, warning: 1, note: 2 } as const;
   const top = [...plan.findings]
     .filter((f) => f.severity !== 'note')

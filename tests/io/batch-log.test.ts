@@ -104,8 +104,9 @@ describe('batch log', () => {
         '\n',
       ) + '\n';
     writeFileSync(join(dir, 'd.jsonl'), swapped);
+    // a typed problem of its own since the re-check's problems were typed (was `schema`)
     await expect(checkFile(join(dir, 'd.jsonl'), { trials: 0, seed: 1 })).rejects.toMatchObject({
-      problem: { code: 'schema' },
+      problem: { code: 'reading-not-rising' },
       where: { line: 3 },
     });
   });
@@ -123,13 +124,16 @@ describe('CSV readings', () => {
     expect(r[0].note).toBe('purged, then filled');
   });
   it('refuses with the line: decreasing readings, a missing unit, an impossible temperature, an unknown species, a bad header', () => {
+    // typed problems of their own since the re-check's problems were typed (were `schema`)
     expect(code(() => parseReadingsCsv(H + 'CH4,50 Torr,25 degC\nO2,40 Torr,25 degC\n', 'r.csv'))).toBe(
-      'schema@3',
+      'csv-not-rising@3',
     );
     expect(code(() => parseReadingsCsv(H + 'CH4,50,25 degC\n', 'r.csv'))).toBe('bad-quantity@2');
     expect(code(() => parseReadingsCsv(H + 'CH4,50 Torr,-300 degC\n', 'r.csv'))).toBe('out-of-range@2');
     expect(code(() => parseReadingsCsv(H + 'CH5,50 Torr,25 degC\n', 'r.csv'))).toBe('unknown-species@2');
-    expect(code(() => parseReadingsCsv('species,pressure\nCH4,50 Torr\n', 'r.csv'))).toBe('schema@1');
+    expect(code(() => parseReadingsCsv('species,pressure\nCH4,50 Torr\n', 'r.csv'))).toBe(
+      'csv-missing-column@1',
+    );
   });
 });
 

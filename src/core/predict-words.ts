@@ -1,0 +1,94 @@
+/**
+ * The wording of the predicted-uncertainty finding: what the largest contribution is, and
+ * what would make it smaller. Kept beside findings.ts so that it stays short.
+ */
+import type { ComponentAbout } from './uncertainty.js';
+
+/** the fields of the `predicted-u-over-tolerance` finding that the sentence uses */
+export interface PredictedOver {
+  readonly species: string;
+  readonly design: number;
+  readonly expandedU: number;
+  readonly tolerance: number;
+  readonly dominant: string;
+  readonly dominantShare: number;
+  readonly about?: ComponentAbout;
+}
+
+/** a relative size in per cent, two significant digits ("2.1 %", "0.50 %") */
+function relPct(x: number): string {
+  return `${Number((x * 100).toPrecision(2)).toString()} %`;
+}
+
+/** what the contribution is, and what would reduce it */
+export function contributionAdvice(
+  about: ComponentAbout | undefined,
+  p: (pa: number) => string,
+): { what: string; fix: string } {
+  if (!about) return { what: 'an input of the budget', fix: 'see the budget of the prediction' };
+  switch (about.kind) {
+    case 'resolution':
+      return {
+        what:
+          `the display resolution of ${about.gauge} ` +
+          `(largest at the reading of step ${about.step}, ${p(about.pressurePa)})`,
+        fix:
+          `read step ${about.step} at ${p(about.pressurePa)} on a gauge head with a finer resolution, ` +
+          `or fill that charge earlier in the order, where a lower-range head reads it`,
+      };
+    case 'span':
+    case 'zero':
+      return {
+        what: `the ${about.kind === 'span' ? 'span (of-reading)' : 'zero (of-full-scale)'} accuracy of ${about.gauge}`,
+        fix: `a more accurate or recently calibrated gauge than ${about.gauge}, or a lower-range head for its readings`,
+      };
+    case 'barometer':
+      return {
+        what: 'the barometer (gauge-referenced readings)',
+        fix: 'absolute gauges for the readings, or a better barometer',
+      };
+    case 'thermometer':
+      return {
+        what: 'the thermometer offset',
+        fix: 'a better (calibrated) thermometer: a smaller standard uncertainty in the lab profile',
+      };
+    case 'temperature-resolution':
+      return {
+        what: `the thermometer's display resolution (largest at the reading of step ${about.step})`,
+        fix:
+          'a better thermometer with a finer display resolution, or an order that reads this fill ' +
+          'at a lower tank pressure, where a temperature error moves less gas',
+      };
+    case 'temperature-settling':
+      return {
+        what: `the gas temperature not yet settled (largest at the reading of step ${about.step})`,
+        fix:
+          'a longer wait before each reading, then a smaller thermometer.settling in the ' +
+          'lab profile once measured; or an order that reads this fill at a lower tank pressure',
+      };
+    case 'virial':
+      return {
+        what: `the second virial coefficient ${about.pair[0]}-${about.pair[1]}`,
+        fix: 'a lower final pressure (the real-gas correction shrinks with it)',
+      };
+    case 'purity':
+      return {
+        what: `the unidentified impurity of ${about.source}`,
+        fix: `a certified analysis or a higher grade for ${about.source}`,
+      };
+  }
+}
+
+/**
+ * "the predicted U (k = 2) of x(O2) is 2.1 % of its design value, beyond the tolerance of
+ * 0.50 %: ..."
+ */
+export function describePredictedOver(f: PredictedOver, p: (pa: number) => string): string {
+  const a = contributionAdvice(f.about, p);
+  return (
+    `the predicted U (k = 2) of x(${f.species}) is ${relPct(f.expandedU / f.design)} of its design ` +
+    `value, beyond the tolerance of ${relPct(f.tolerance / f.design)}: even readings exactly at the ` +
+    `targets cannot show the batch within tolerance. The largest cause ` +
+    `(${Math.round(f.dominantShare * 100)} % of u^2) is ${a.what}; what would fix it: ${a.fix}`
+  );
+}

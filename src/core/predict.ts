@@ -1,0 +1,224 @@
+/**
+ * The predicted uncertainty of a plan: the re-check's own model and GUM budget
+ * (uncertainty.ts, JCGM 100:2008 law of propagation) applied to the planned readings
+ * before any valve opens. Each step's target is taken as its reading, at the plan's
+ * temperature, on the gauge the plan assigns, with the lab's barometer and thermometer;
+ * the inputs are the re-check's (span and zero per gauge shared by its readings, display
+ * resolution per reading, barometer for gauge-referenced sensors, thermometer offset and
+ * resolution, virial coefficients, purity) plus one the re-check of a log cannot see: the
+ * difference between the gas temperature and the thermometer that remains after the
+ * settling time (`thermometer.settlingK`, per reading, rectangular).
+ *
+ * The predicted value is the plan's own composition; what matters is U (k = 2) against the
+ * tolerance: when U exceeds it, a perfect fill cannot be proven within tolerance by `check`.
+ */
+import type { Plan } from './planner.js';
+import type { Gauge, ReadingContext } from './gauges.js';
+import type { Finding } from './findings.js';
+import {
+  evaluateUncertainty,
+  type ComponentAbout,
+  type OutputStat,
+  type UncertaintyResult,
+} from './uncertainty.js';
+import { recheckModelInput, type RecheckModelInput } from './recheck-input.js';
+
+/**
+ * Our own assumption (no published source): after the settling time the gas temperature may
+ * still differ from the thermometer by up to 0.05 K (rectangular half-width), independently at
+ * each reading. A lab that has measured it gives `thermometer.settling` in its profile.
+ */
+export const DEFAULT_TEMPERATURE_SETTLING_K = 0.05;
+
+export interface PredictionInput {
+  readonly plan: Plan;
+  /** the lab's gauges (the plan names them by id) */
+  readonly gauges: readonly Gauge[];
+  /** the barometer the plan's gauge-referenced targets assume */
+  readonly reading: ReadingContext;
+  readonly thermometer: { readonly uK: number; readonly resolutionK: number; readonly settlingK: number };
+}
+
+export type PredictedQuantity = 'fraction' | 'phi' | 'dilution';
+
+export interface PredictedContribution {
+  readonly name: string;
+  /** |c_i u_i|, in the unit of the quantity */
+  readonly contribution: number;
+  readonly about?: ComponentAbout;
+}
+
+export interface PredictedRow {
+  /** species key, 'phi' or 'dilution' */
+  readonly name: string;
+  readonly kind: PredictedQuantity;
+  readonly design: number;
+  readonly stat: OutputStat;
+  /** U = 2 u (k = 2) */
+  readonly expandedU: number;
+  /** the half-width allowed: max(relative x design, absolute) for fractions, relative x design for phi */
+  readonly tolerance: number;
+  readonly within: boolean;
+  /** the two largest contributions, largest first */
+  readonly top: readonly PredictedContribution[];
+}
+
+export interface PlanPrediction {
+  readonly result: UncertaintyResult;
+  readonly rows: readonly PredictedRow[];
+  readonly model: RecheckModelInput;
+  readonly settlingK: number;
+}
+
+/** the re-check's model input for the planned readings; undefined when a step has no gauge */
+export function plannedModelInput(input: PredictionInput): RecheckModelInput | undefined {
+  const { plan } = input;
+  if (plan.steps.some((s) => !s.gauge || !input.gauges.some((g) => g.id === s.gauge!.id))) return undefined;
+  const T = plan.temperatureK;
+  return recheckModelInput(
+    {
+      sources: new Map(plan.steps.map((s) => [s.source.id, s.source])),
+      gauges: new Map(input.gauges.map((g) => [g.id, g])),
+      barometer: { pressurePa: input.reading.barometricPa, uPa: input.reading.barometricUncertaintyPa },
+      thermometer: input.thermometer,
+      diluent: Object.keys(plan.design.groups.diluent),
+      start: plan.initial
+        ? { composition: plan.initial.composition, pressurePa: plan.initial.pressurePa, temperatureK: T }
+        : undefined,
+    },
+    plan.steps.map((s) => ({
+      step: s.index,
+      sourceId: s.source.id,
+      gaugeId: s.gauge!.id,
+      pressurePa: s.targetPa,
+      temperatureK: T,
+    })),
+    { trials: 0, seed: 0 },
+  );
+}
+
+/**
+ * Predicted value +- U (k = 2) of every design mole fraction, phi and the diluent fraction,
+ * with the two largest contributions. Undefined when a step has no gauge (the plan then
+ * carries a no-gauge-covers danger and nothing can be read).
+ */
+export function predictPlan(input: PredictionInput): PlanPrediction | undefined {
+  const model = plannedModelInput(input);
+  if (!model) return undefined;
+  const result = evaluateUncertainty(model.readings, model.settings, model.diluent, model.initial);
+  const { design, tolerance } = input.plan;
+  const aboutOf = new Map(result.components.map((c) => [c.name, c.about]));
+  const row = (name: string, kind: PredictedQuantity, d: number, stat: OutputStat): PredictedRow => {
+    const allowed =
+      kind === 'phi' ? tolerance.relative * d : Math.max(tolerance.relative * d, tolerance.absolute);
+    const U = 2 * stat.u;
+    const top = stat.budget.slice(0, 2).map((b) => ({ ...b, about: aboutOf.get(b.name) }));
+    return { name, kind, design: d, stat, expandedU: U, tolerance: allowed, within: U <= allowed, top };
+  };
+  const rows: PredictedRow[] = [];
+  for (const [k, xd] of Object.entries(design.composition)) {
+    const st = result.composition[k];
+    if (xd > 0 && st) rows.push(row(k, 'fraction', xd, st));
+  }
+  if (design.phi !== undefined && result.phi) rows.push(row('phi', 'phi', design.phi, result.phi));
+  if (result.diluentFraction && design.diluentFraction > 0)
+    rows.push(row('dilution', 'dilution', design.diluentFraction, result.diluentFraction));
+  return { result, rows, model, settlingK: input.thermometer.settlingK };
+}
+
+/** the group a component belongs to for advice: per-reading terms of one kind (and gauge) together */
+function groupKey(a: ComponentAbout): string {
+  switch (a.kind) {
+    case 'span':
+    case 'zero':
+    case 'resolution':
+      return `${a.kind} ${a.gauge}`;
+    case 'virial':
+      return 'virial';
+    case 'purity':
+      return `purity ${a.source}`;
+    default:
+      return a.kind;
+  }
+}
+
+/**
+ * The dominant group of inputs of a predicted quantity: the per-reading terms of one kind are
+ * summed (their u^2), so that four equal temperature terms count as one cause; the group is
+ * named by its largest member.
+ */
+export function dominantGroup(
+  p: PlanPrediction,
+  st: OutputStat,
+): { name: string; share: number; about: ComponentAbout } | undefined {
+  const cs = st.contributions;
+  if (!cs || !(st.u > 0)) return undefined;
+  const groups = new Map<string, { sum: number; best: number; index: number }>();
+  cs.forEach((c, i) => {
+    const key = groupKey(p.result.components[i].about);
+    const g = groups.get(key) ?? { sum: 0, best: 0, index: i };
+    g.sum += c * c;
+    if (Math.abs(c) > g.best) {
+      g.best = Math.abs(c);
+      g.index = i;
+    }
+    groups.set(key, g);
+  });
+  const top = [...groups.values()].sort((a, b) => b.sum - a.sum)[0];
+  if (!top) return undefined;
+  const comp = p.result.components[top.index];
+  return { name: comp.name, share: top.sum / (st.u * st.u), about: comp.about };
+}
+
+/** one warning per design mole fraction whose predicted U exceeds its tolerance, worst first */
+export function predictionFindings(p: PlanPrediction): Finding[] {
+  return p.rows
+    .filter((r) => r.kind === 'fraction' && !r.within)
+    .sort((a, b) => b.expandedU / b.tolerance - a.expandedU / a.tolerance)
+    .map((r): Finding => {
+      const dominant = dominantGroup(p, r.stat);
+      const step = dominant && 'step' in dominant.about ? dominant.about.step : undefined;
+      return {
+        severity: 'warning',
+        code: 'predicted-u-over-tolerance',
+        step,
+        species: r.name,
+        design: r.design,
+        expandedU: r.expandedU,
+        tolerance: r.tolerance,
+        dominant: dominant?.name ?? '-',
+        dominantShare: dominant?.share ?? 0,
+        about: dominant?.about,
+      };
+    });
+}
+
+/** a plan that carries its predicted uncertainty (or why there is none) */
+export interface PredictedPlan extends Plan {
+  readonly predicted?: PlanPrediction;
+  /** why no prediction was made (a step without a gauge, a refused state) */
+  readonly predictionMissing?: string;
+}
+
+/** the prediction a plan carries, if any */
+export function predictionOf(plan: Plan): PlanPrediction | undefined {
+  return (plan as PredictedPlan).predicted;
+}
+
+/**
+ * The plan with its prediction, and the prediction's findings in place of the per-reading
+ * heuristic `gauge-coarser-than-band` (the budget correlates a gauge's span between its
+ * readings, the heuristic did not). Without a prediction the plan keeps its findings and says why.
+ */
+export function withPrediction(plan: Plan, p: PlanPrediction | undefined, missing?: string): PredictedPlan {
+  if (!p) return { ...plan, predictionMissing: missing ?? 'a step has no gauge that reads its target' };
+  const kept = plan.findings.filter((f) => f.code !== 'gauge-coarser-than-band');
+  // warnings stand before the notes, as the planner lists them
+  const at = kept.findIndex((f) => f.severity === 'note');
+  const cut = at < 0 ? kept.length : at;
+  return {
+    ...plan,
+    predicted: p,
+    findings: [...kept.slice(0, cut), ...predictionFindings(p), ...kept.slice(cut)],
+  };
+}

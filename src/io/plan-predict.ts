@@ -1,0 +1,47 @@
+/**
+ * The predicted uncertainty of a plan with the lab's instruments: the lab profile's
+ * gauges, barometer and thermometer (and its settling value, else our default) handed to
+ * the core's prediction. One call after planFill: `planWithPrediction(planFill(req.input), req)`.
+ */
+import {
+  DEFAULT_TEMPERATURE_SETTLING_K,
+  describeProblem,
+  predictPlan,
+  ProblemError,
+  withPrediction,
+  type Plan,
+  type PredictedPlan,
+  type PredictionInput,
+} from '../core/index.js';
+import type { PlanRequest } from './load.js';
+
+/** the thermometer a lab profile without one is taken to have (as check does) */
+export const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 } as const;
+
+/** the prediction's input from a plan request: the lab's instruments, the default settling value where none is given */
+export function predictionInput(plan: Plan, req: PlanRequest): PredictionInput {
+  const t = req.lab.thermometer ?? DEFAULT_THERMOMETER;
+  return {
+    plan,
+    gauges: req.input.gauges,
+    reading: req.input.reading,
+    thermometer: {
+      uK: t.uncertaintyK,
+      resolutionK: t.resolutionK,
+      settlingK: req.lab.thermometer?.settlingK ?? DEFAULT_TEMPERATURE_SETTLING_K,
+    },
+  };
+}
+
+/**
+ * The plan with its predicted uncertainty. A refusal inside the prediction (a state the
+ * re-check's model cannot evaluate) does not stop the plan: the plan says why there is no prediction.
+ */
+export function planWithPrediction(plan: Plan, req: PlanRequest): PredictedPlan {
+  try {
+    return withPrediction(plan, predictPlan(predictionInput(plan, req)));
+  } catch (e) {
+    if (e instanceof ProblemError) return withPrediction(plan, undefined, describeProblem(e.problem));
+    throw e;
+  }
+}
