@@ -53,7 +53,9 @@ describe('a fuel without limit data is never judged non-flammable (CH4 limits re
     );
     const f = r.findings.find((x) => x.code === 'near-flammable');
     expect(f).toMatchObject({ severity: 'note', missingData: true });
-    expect(describeFinding(f!)).toMatch(/no flammability limits on file for a fuel it holds/);
+    expect(describeFinding(f!, (pa) => `${pa} Pa`)).toMatch(
+      /no flammability limits on file for a fuel it holds/,
+    );
   });
 
   it('a state with no oxygen stays non-flammable even with the fuel missing (nothing to burn with)', () => {
