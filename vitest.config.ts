@@ -9,6 +9,8 @@ import { defineConfig, type TestProjectConfiguration } from 'vitest/config';
  * isolated, found by reading the files, as a mock must not leak into other files.
  */
 const QUICK_DIRS = ['tests/core', 'tests/io'];
+/** files that need a fresh module graph besides those that mock: startup asserts mathjs was never built */
+const FRESH_MODULES = ['tests/io/startup.test.ts'];
 
 function testFiles(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
@@ -20,7 +22,9 @@ function testFiles(dir: string): string[] {
 
 function quickProjects(): TestProjectConfiguration[] {
   const files = [...QUICK_DIRS.flatMap(testFiles), 'tests/architecture.test.ts'];
-  const mocking = files.filter((f) => readFileSync(f, 'utf8').includes('vi.mock('));
+  const mocking = files.filter(
+    (f) => FRESH_MODULES.includes(f) || readFileSync(f, 'utf8').includes('vi.mock('),
+  );
   return [
     { extends: true, test: { name: 'quick-isolated', include: mocking } },
     { extends: true, test: { name: 'quick-shared', include: files, exclude: mocking, isolate: false } },
