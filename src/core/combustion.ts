@@ -82,7 +82,9 @@ function solveIncreasing(f: (t: number) => number, target: number, lo: number, h
 /**
  * Adiabatic flame temperature at constant pressure, complete combustion:
  * sum_products n h(T_ad) = sum_reactants n h(T0).
- * Example: stoichiometric CH4-air (21 % O2) from 298.15 K -> about 2330 K (no dissociation).
+ * Example: flameTemperatureK({ CH4: 1 / 10.5238, O2: 2 / 10.5238, N2: 7.5238 / 10.5238 }, 298.15) -> 2325.6 K
+ *   (stoichiometric CH4-air, no dissociation; Cantera 3.2.0 with frozen products: 2325.6 K,
+ *   tests/fixtures/reference/flame-cantera.json).
  * Capped at the top of the NASA fits (5000-6000 K): undiluted fuel/O2 reaches the cap.
  */
 export function flameTemperatureK(y: Fractions, initialK: number): number {
@@ -94,7 +96,10 @@ export function flameTemperatureK(y: Fractions, initialK: number): number {
 /**
  * Closed-vessel complete combustion (constant volume, the worst-case deflagration):
  * sum_p n u(T_v) = sum_r n u(T0), u = h - R T; P_v/P0 = (n_p T_v)/(n_r T0) (ideal gas).
- * Example: stoichiometric CH4-air from 1 atm, 298 K -> about 9.5 atm without dissociation.
+ * Example: closedVesselCombustion({ CH4: 1 / 10.5238, O2: 2 / 10.5238, N2: 7.5238 / 10.5238 }, 298.15)
+ *   .pressureRatio -> 9.449
+ *   (stoichiometric CH4-air from 1 atm ends at 9.449 atm without dissociation; Cantera 3.2.0 with frozen
+ *   products: 9.449, tests/fixtures/reference/flame-cantera.json).
  */
 export function closedVesselCombustion(
   y: Fractions,
@@ -115,7 +120,8 @@ export function closedVesselCombustion(
 
 /**
  * T0 (P2/P1)^((gamma-1)/gamma): the end temperature of adiabatic compression.
- * Example: gamma 1.4, 293 K, x10 -> 565.7 K.
+ * Example: adiabaticCompressionK(293, 10, 1.4) -> 565.7 K (293 K x 10^(0.4/1.4) = 565.69 K by hand;
+ *   properties.md 7.6: about 566 K).
  */
 export function adiabaticCompressionK(initialK: number, pressureRatio: number, gamma: number): number {
   return initialK * pressureRatio ** ((gamma - 1) / gamma);

@@ -136,7 +136,8 @@ export function oxygenBalance(x: Fractions): { need: number; supply: number } {
 
 /**
  * Equivalence ratio of any composition on the O-atom basis.
- * Example: CH4 0.095, O2 0.19, N2 0.715 -> phi = 0.095 x 2 / 0.19 = 1.
+ * Example: equivalenceRatio({ CH4: 0.095, O2: 0.19, N2: 0.715 }) -> 1.000 (CH4 + 2 O2 -> CO2 + 2 H2O:
+ *   phi = 0.095 x 2 / 0.19 = 1 by hand).
  */
 export function equivalenceRatio(x: Fractions): number | undefined {
   const { need, supply } = oxygenBalance(x);
@@ -180,7 +181,9 @@ function checkTrace(x: Fractions, field: string): void {
 
 /**
  * Build the target composition of a design.
- * Example: CH4 in air (O2 0.21, N2 0.79), phi 1, no diluent -> x_CH4 = 1/(1 + 2/0.21) = 0.0950.
+ * Example: designMixture({ kind: 'phi', fuel: { CH4: 1 }, oxidizer: { O2: 0.21, N2: 0.79 }, diluent: {},
+ *   phi: 1, basis: { kind: 'dilution', value: 0 } }).composition.CH4 -> 0.0950 (CH4 in air, phi 1, no
+ *   diluent: x_CH4 = 1/(1 + 2/0.21) = 0.0950 by hand).
  */
 export function designMixture(input: DesignInput): Design {
   if (input.kind === 'fractions') return designFromFractions(input.fractions);

@@ -51,7 +51,9 @@ function oxygenEquivalent(y: Fractions): number {
 
 /**
  * The fuels of a composition that matter for ignition, lowest autoignition temperature first.
- * Example: CH4 0.9 with 9 ppm C2H6 -> [CH4] (the ethane is a trace).
+ * Example: fuelsThatMatter({ CH4: 0.9, C2H6: 9e-6, N2: 0.099991 }) -> { length: 1, 0.species: 'CH4',
+ *   0.aitK: 873.15 K } (the 9 ppm of ethane is a trace; the AIT of CH4, 600 degC, is the NFPA 497 and
+ *   IEC 60079-20-1 value).
  */
 export function fuelsThatMatter(y: Fractions): { species: string; fraction: number; aitK?: number }[] {
   const fuels = Object.entries(y).filter(([k, v]) => v > 0 && oxygenDemand(getSpecies(k).elements) > 0);
@@ -63,9 +65,15 @@ export function fuelsThatMatter(y: Fractions): { species: string; fraction: numb
 }
 
 /**
- * Compression findings of one fill. Example: 0.1 bar O2 compressed to 10 bar by H2 at
- * 298.15 K: gamma 1.395, T2 about 1098 K, above the AIT of H2 (773 K) -> danger naming H2,
- * and a warning for compressing oxygen-rich gas.
+ * Compression findings of one fill: 0.1 bar O2 compressed to 10 bar by H2 at 298.15 K gives a danger
+ * naming H2 and a warning for compressing oxygen-rich gas.
+ * Example: reviewCompression({ step: 2, sourceId: 'H2', sourceComposition: { H2: 1 },
+ *   before: { step: 1, composition: { O2: 1 }, pressurePa: 1e4, final: false },
+ *   after: { step: 2, composition: { O2: 0.01, H2: 0.99 }, pressurePa: 1e6, final: true } },
+ *   { temperatureK: 298.15, tankId: 'T' }) -> { 0.severity: 'danger', 0.fuel: 'H2', 0.gamma: 1.395,
+ *   0.endK: 1098 K, 0.aitK: 773.15 K, 1.severity: 'warning', 1.code: 'oxygen-compression' }
+ *   (gamma of O2 = 29.376 / (29.376 - 8.314) = 1.395 from its ideal-gas cp, CoolProp 8.0.0;
+ *   298.15 K x 100^(0.395 / 1.395) = 1098 K by hand; the AIT of H2, 500 degC, is the NFPA 497 value).
  */
 export function reviewCompression(e: FillEvent, ctx: SafetyContext): Finding[] {
   const out: Finding[] = [];

@@ -96,8 +96,9 @@ function minimise(f: (x: number) => number, a: number, b: number, tol: number): 
  * minimises w1 (the Rayleigh line tangent to the Hugoniot, where the products move at
  * the equilibrium sound speed). Brent's minimisation in r over 1.1-3.2.
  * y: initial mole fractions; temperatureK, pressurePa: initial state. Ideal gas.
- * Example: stoichiometric H2-air from 298.15 K, 1 bar -> P_CJ 15.58 bar, 2944 K, 1969 m/s
- * (Cantera 3.2.0 on the same data, tests/fixtures/reference/equilibrium-cantera.json).
+ * Example: chapmanJouguet({ H2: 0.42 / 1.42, O2: 0.21 / 1.42, N2: 0.79 / 1.42 }, 298.15, 1e5)
+ *   -> { pressurePa: 15.58 bar, temperatureK: 2944 K, velocityMPerS: 1969 m/s } (stoichiometric H2-air from
+ *   1 bar; Cantera 3.2.0 on the same data, tests/fixtures/reference/equilibrium-cantera.json).
  * Refuses (ProblemError) species without equilibrium data and states without a Hugoniot
  * in range (too little fuel to burn).
  */
@@ -182,11 +183,12 @@ function phiOf(rec: DetonationLimits, x: number): number {
  * with limits in O2 only is judged by them and, inside them, by the inert rule.
  * Elsewhere the conservative rule: detonable when the N2-equivalent inert share is below
  * 50 %, or the oxidizer is about as rich in O2 as air or richer (O2 share 0.20 or more;
- * both thresholds in thresholds.ts;
- * stoichiometric alkane-air mixtures detonate in large geometries, common practice).
- * Limits are those near 1 atm; they widen at higher pressure and in larger vessels.
- * Example: stoichiometric H2-air (29.6 % H2) is detonable by published limits
- * (18.3-59 %); 70 % H2 in air is not.
+ * both thresholds in thresholds.ts; stoichiometric alkane-air mixtures detonate in large
+ * geometries, common practice). Limits are those near 1 atm; they widen at higher pressure
+ * and in larger vessels.
+ * Example: detonability({ H2: 0.42 / 1.42, O2: 0.21 / 1.42, N2: 0.79 / 1.42 }).detonable -> true
+ *   (stoichiometric H2-air, 29.6 % H2, inside the published limits 18.3-59 %, Lewis & von Elbe 1987, from memory).
+ * Example: detonability({ H2: 0.7, O2: 0.063, N2: 0.237 }).detonable -> false (70 % H2 in air, above 59 %).
  */
 export function detonability(y: Fractions): Detonability {
   const { point, fuelBlend } = diagramPoint(y);

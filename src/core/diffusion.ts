@@ -27,7 +27,10 @@ function fullerVolume(k: string): number | undefined {
   return (FULLER_VOLUMES.get(k) ?? FULLER_FALLBACK.get(k))?.volume;
 }
 
-/** Fuller D_AB, m2/s; undefined without diffusion volumes. Example: O2-N2 at 298.15 K, 1 atm -> 2.06e-5 m2/s. */
+/**
+ * Fuller D_AB, m2/s; undefined without diffusion volumes.
+ * Example: fullerD('O2', 'N2', 298.15, 101325) -> 2.06e-5 m2/s (properties.md section 8: 0.206 cm2/s).
+ */
 export function fullerD(a: string, b: string, temperatureK: number, pressurePa: number): number | undefined {
   const va = fullerVolume(getSpecies(a).key);
   const vb = fullerVolume(getSpecies(b).key);
@@ -49,7 +52,7 @@ export function neufeldOmegaD(tStar: number): number {
 
 /**
  * Chapman-Enskog D_AB, m2/s; undefined without Lennard-Jones data.
- * Example: O2-N2 at 298.15 K, 1 atm -> 2.04e-5 m2/s.
+ * Example: chapmanEnskogD('O2', 'N2', 298.15, 101325) -> 2.04e-5 m2/s (properties.md section 8: 0.204 cm2/s).
  */
 export function chapmanEnskogD(
   a: string,
@@ -128,7 +131,9 @@ export function transportGaps(
 /**
  * Time for a layered tank of height L to homogenise by diffusion to a residual
  * non-uniformity eps: the slowest 1-D mode decays as exp(-pi^2 D t / L^2), so
- * t = L^2 / (pi^2 D) ln(1/eps). Example: D = 0.206 cm2/s, L = 30 cm, eps = 0.01 -> 34 min.
+ * t = L^2 / (pi^2 D) ln(1/eps).
+ * Example: diffusionMixingTimeS(0.3, 0.206e-4, 0.01) -> 34 min (D = 0.206 cm2/s, L = 30 cm, eps = 0.01:
+ *   0.3^2 / (pi^2 x 2.06e-5) x ln 100 = 2039 s by hand).
  */
 export function diffusionMixingTimeS(heightM: number, dM2s: number, eps: number): number {
   return ((heightM * heightM) / (Math.PI * Math.PI * dM2s)) * Math.log(1 / eps);

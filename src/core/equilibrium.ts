@@ -102,8 +102,9 @@ function memo(
  * contents burn completely to equilibrium without heat loss, U(T_e, V, n_e) = U(T0, V, n0).
  * y: mole fractions of the initial gas; temperatureK, pressurePa: initial state.
  * Valid for 150-1000 K and up to 1e8 Pa initially, end states up to 6000 K; ideal gas.
- * Example: stoichiometric CH4-air from 298.15 K, 1 atm -> 8.799 atm, 2586.3 K
- * (Cantera 3.2.0 on the same data; tests/core/equilibrium.test.ts).
+ * Example: equilibriumUV({ CH4: 1 / 10.5238, O2: 2 / 10.5238, N2: 7.5238 / 10.5238 }, 298.15, 101325)
+ *   -> { pressurePa: 8.799 atm, temperatureK: 2586.3 K } (stoichiometric CH4-air from 1 atm; Cantera 3.2.0
+ *   on the same data, tests/fixtures/reference/equilibrium-cantera.json).
  * Refuses (ProblemError) species without data or with elements other than C, H, O, N
  * and the noble gases.
  */
@@ -148,8 +149,10 @@ function solveTP(s: Solver, t: number, pressurePa: number, vGuess: number): numb
 
 /**
  * Equilibrium at fixed temperature and pressure (TP), per mole of initial mixture.
- * Example: stoichiometric H2-O2 at 3000 K, 1 bar: H2O 0.645, H2 0.134, OH 0.092, H 0.058, O2 0.046
- * (the law of mass action with the same NASA data holds to 1e-6: tests/core/equilibrium.test.ts).
+ * Example: equilibriumTP({ H2: 2 / 3, O2: 1 / 3 }, 3000, 1e5).gas
+ *   -> { H2O: 0.645, H2: 0.134, OH: 0.092, H: 0.058, O2: 0.046 } (stoichiometric H2-O2 at 3000 K, 1 bar;
+ *   Cantera 3.2.0 equilibrate('TP') on the same data, run with scripts/reference/gen_equilibrium.py's
+ *   species: H2O 0.64485, H2 0.13428, OH 0.09229, H 0.05786, O2 0.04632).
  */
 export function equilibriumTP(y: Fractions, temperatureK: number, pressurePa: number): EquilibriumState {
   if (!(temperatureK >= 150 && temperatureK <= T_MAX_K))
@@ -170,8 +173,10 @@ export function equilibriumTP(y: Fractions, temperatureK: number, pressurePa: nu
 
 /**
  * Adiabatic flame temperature at constant pressure with equilibrium products (HP):
- * H(T_ad, P, n_e) = H(T0, P, n0). Example: stoichiometric CH4-air from 298.15 K, 1 atm -> 2225.0 K
- * (Cantera 3.2.0 on the same data, tests/fixtures/reference/equilibrium-cantera.json).
+ * H(T_ad, P, n_e) = H(T0, P, n0).
+ * Example: equilibriumHP({ CH4: 1 / 10.5238, O2: 2 / 10.5238, N2: 7.5238 / 10.5238 }, 298.15, 101325)
+ *   .temperatureK -> 2225.0 K (stoichiometric CH4-air at 1 atm; Cantera 3.2.0 on the same data,
+ *   tests/fixtures/reference/equilibrium-cantera.json).
  */
 export function equilibriumHP(y: Fractions, temperatureK: number, pressurePa: number): EquilibriumState {
   checkInputs(y, temperatureK, pressurePa);

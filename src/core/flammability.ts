@@ -62,8 +62,10 @@ export interface BlendLimits {
 
 /**
  * Le Chatelier's rule: L_mix = 1 / sum(y_i / L_i), y_i the fractions of the fuel alone.
- * Example (a textbook blend): 0.8 % hexane, 2.0 % methane, 0.5 % ethylene with LFL 1.1, 5.0, 2.7 %
- * -> LFL 2.52 %.
+ * Example: leChatelier([{ fraction: 0.008, limit: 0.011 }, { fraction: 0.02, limit: 0.05 },
+ *   { fraction: 0.005, limit: 0.027 }]) -> 2.51 % (a textbook blend, 0.8 % hexane, 2.0 % methane and
+ *   0.5 % ethylene with LFL 1.1, 5.0 and 2.7 %: 3.3 / (0.8/1.1 + 2.0/5.0 + 0.5/2.7) = 2.514 % by hand;
+ *   Crowl & Louvar 2001, from memory: 2.5 %).
  */
 export function leChatelier(parts: readonly { fraction: number; limit: number }[]): number {
   const s = parts.reduce((a, p) => a + p.fraction, 0);

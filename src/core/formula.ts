@@ -3,7 +3,9 @@ import { ELEMENTS } from './data/elements.js';
 
 /**
  * Molar mass from IUPAC 2021 conventional atomic weights.
- * @returns kg/mol. Example: CH4 -> 0.016043 kg/mol (12.011 + 4 x 1.008 g/mol).
+ * @returns kg/mol.
+ * Example: molarMassKgPerMol({ C: 1, H: 4 }) -> 0.016043 kg/mol (CH4: 12.011 + 4 x 1.008 g/mol, the IUPAC
+ *   conventional atomic weights).
  */
 export function molarMassKgPerMol(elements: Readonly<Record<string, number>>): number {
   let g = 0;

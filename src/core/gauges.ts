@@ -49,8 +49,11 @@ export function gaugeTopAbsolutePa(g: Gauge, ctx: ReadingContext): number {
 
 /**
  * Standard uncertainty of the absolute pressure inferred from one reading, Pa.
- * Example: a 1000 Torr absolute head at 0.12 % of reading, resolution 0.01 Torr,
- * reading 150 Torr: u = sqrt((0.18/sqrt 3)^2 + (0.01/sqrt 12)^2) = 0.1040 Torr.
+ * Example: readingUncertaintyPa({ id: 'h', label: 'h', reference: 'absolute', fullScalePa: 1000 * 101325 / 760,
+ *   minimumPa: 0, accuracyOfReading: 0.0012, accuracyOfFullScale: 0, resolutionPa: 0.01 * 101325 / 760,
+ *   unit: 'Torr' }, 150 * 101325 / 760, { barometricPa: 101325, barometricUncertaintyPa: 10 }) -> 0.1040 Torr
+ *   (a 1000 Torr absolute head at 0.12 % of reading, resolution 0.01 Torr, reading 150 Torr; GUM 4.3.7 and
+ *   F.2.2.1: sqrt((0.18/sqrt 3)^2 + (0.01/sqrt 12)^2) = 0.1040 Torr by hand).
  */
 export function readingUncertaintyPa(g: Gauge, absolutePa: number, ctx: ReadingContext): number {
   const reading = gaugeReadingPa(g, absolutePa, ctx);

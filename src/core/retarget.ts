@@ -422,9 +422,19 @@ export interface VentBack {
  * composition is final: vent to the design pressure, or just below the limit if that is not below it.
  * Raises `not-converged` when no vent keeps the limit from holding the remaining fills (a design
  * pressure at or above the working limit), rather than propose a vent to an empty tank.
- * Example: CH4 10.01 Torr, then Ar read 2800 Torr in MT-1 (limit 2700.6 Torr; design 1500 Torr,
- * 2 % CH4 + O2): vent back to about 1480 Torr, from where O2 keeps phi and ends at 1500 Torr; the
- * dilution stays as the Ar overshoot made it (tests/tui/fill-state.test.ts).
+ * A worked case: CH4 10.01 Torr, then Ar read 2800 Torr in a 10 L tank (limit 3.6 bar = 2700.2 Torr; design
+ * 1500 Torr, 2 % CH4 + O2 at phi 1): vent back to 1489 Torr, from where O2 keeps phi and ends at 1500 Torr;
+ * the dilution stays as the Ar overshoot made it:
+ * Example: ventBack({ design: designMixture({ kind: 'phi', fuel: { CH4: 1 }, oxidizer: { O2: 1 },
+ *   diluent: { Ar: 1 }, phi: 1, basis: { kind: 'dilution', value: 0.98 } }),
+ *   tolerance: { relative: 0.005, absolute: 0 }, sources: [pureCylinder({ id: 'CH4', species: 'CH4' }),
+ *   pureCylinder({ id: 'Ar', species: 'Ar' }), pureCylinder({ id: 'O2', species: 'O2' })],
+ *   done: [{ pressurePa: 10.01 * 101325 / 760, temperatureK: 298.15 },
+ *   { pressurePa: 2800 * 101325 / 760, temperatureK: 298.15 }], temperatureK: 298.15,
+ *   finalPressurePa: 1500 * 101325 / 760, volumeM3: 0.01, workingLimitPa: 3.6e5 })
+ *   -> { targetPa: 1489 Torr, after.predicted.pressurePa: 1500.0 Torr, after.predicted.phi: 1.0000 }
+ *   (by hand for an ideal gas: venting by f keeps CH4:Ar, and O2 = 2 x CH4 ends at 1500 Torr when
+ *   f (2800 + 2 x 10.01) = 1500, so f = 0.5319 and the tank is vented to 0.5319 x 2800 = 1489.3 Torr).
  */
 export function ventBack(input: RetargetInput & { readonly workingLimitPa: number }): VentBack {
   const limit = input.workingLimitPa;

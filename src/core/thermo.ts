@@ -39,7 +39,7 @@ function coefficientsAt(key: string, temperatureK: number): readonly number[] {
 
 /**
  * Molar heat capacity at constant pressure, J/(mol K).
- * Example: N2 at 298.15 K -> 29.12 J/(mol K).
+ * Example: cpMolar('N2', 298.15) -> 29.12 J/(mol K) (CoolProp 8.0.0, ideal-gas cp of N2: 29.125 J/(mol K)).
  */
 export function cpMolar(key: string, temperatureK: number): number {
   const a = coefficientsAt(key, temperatureK);
@@ -47,7 +47,11 @@ export function cpMolar(key: string, temperatureK: number): number {
   return R * (a[0] + t * (a[1] + t * (a[2] + t * (a[3] + t * a[4]))));
 }
 
-/** Molar enthalpy including the enthalpy of formation at 298.15 K, J/mol. Example: CO2 at 298.15 K -> -393.5 kJ/mol. */
+/**
+ * Molar enthalpy including the enthalpy of formation at 298.15 K, J/mol.
+ * Example: enthalpyMolar('CO2', 298.15) -> -393.5 kJ/mol (the enthalpy of formation of CO2, -393.51 kJ/mol,
+ *   CODATA Key Values 1989).
+ */
 export function enthalpyMolar(key: string, temperatureK: number): number {
   const a = coefficientsAt(key, temperatureK);
   const t = temperatureK;

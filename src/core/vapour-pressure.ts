@@ -20,7 +20,9 @@ export interface Psat {
 /**
  * IAPWS saturation pressure of water (Wagner & Pruss 1993):
  *   ln(P/Pc) = (Tc/T)(a1 t + a2 t^1.5 + a3 t^3 + a4 t^3.5 + a5 t^4 + a6 t^7.5), t = 1 - T/Tc.
- * Valid 273.16 K to Tc. Example: 25 degC -> 3169.9 Pa.
+ * Valid 273.16 K to Tc.
+ * Example: waterPsatPa(298.15) -> 3169.8 Pa (25 degC; IAPWS, Wagner & Pruss: 3169.8 Pa, properties.md 6.2;
+ *   IAPWS-95 through CoolProp 8.0.0: 3169.93 Pa).
  */
 export function waterPsatPa(temperatureK: number): number {
   const { a, TcK, PcPa } = IAPWS_WATER;
@@ -29,7 +31,11 @@ export function waterPsatPa(temperatureK: number): number {
   return PcPa * Math.exp((TcK / temperatureK) * s);
 }
 
-/** Antoine, log10(P/Pa) = A - B/(T + C). Example: n-heptane at 298.15 K -> 6.10 kPa. */
+/**
+ * Antoine, log10(P/Pa) = A - B/(T + C).
+ * Example: antoinePa(9.02023, 1263.909, -56.718, 298.15) -> 6.10 kPa (n-heptane with the constants of
+ *   data/vapour-data.ts, Poling et al. 2001; its reference EOS, CoolProp 8.0.0: 6.09 kPa).
+ */
 export function antoinePa(A: number, B: number, C: number, temperatureK: number): number {
   return 10 ** (A - B / (temperatureK + C));
 }

@@ -53,7 +53,8 @@ function inRange(temperatureK: number): boolean {
 /**
  * Reference B of a pure species.
  * @returns m3/mol, or undefined when the species is not tabulated or T lies
- * outside the table (230-480 K). Example: Ar at 298.15 K -> -15.55e-6 m3/mol.
+ * outside the table (230-480 K).
+ * Example: referenceB('Ar', 298.15) -> -15.55 cm3/mol (the reference EOS of argon, CoolProp 8.0.0: -15.554 cm3/mol).
  */
 export function referenceB(key: string, temperatureK: number): number | undefined {
   const e = entries[key];
@@ -163,8 +164,9 @@ export interface AveragedCrossB extends ReferenceCrossB {
 /**
  * Composition-averaged cross B_ab of a fitted pair whose implied B_ab varies with composition,
  * with its spread as standard uncertainty; undefined when the pair is not in that part of the
- * table or T lies outside 230-480 K. Example: CO2-C2H6 at 300 K -> -123.0 cm3/mol, u 0.5 cm3/mol
- * (the model floors it at 3 %).
+ * table or T lies outside 230-480 K (the virial model floors the relative uncertainty at 3 %).
+ * Example: averagedCrossB('CO2', 'C2H6', 300) -> { value: -123.0 cm3/mol, u: 0.5 cm3/mol } (CO2-C2H6 at 300 K,
+ *   the Kunz & Wagner 2012 mixture model through CoolProp 8.0.0, data/cross-virial-reference.json).
  */
 export function averagedCrossB(a: string, b: string, temperatureK: number): AveragedCrossB | undefined {
   const e = averagedEntries[`${a}|${b}`] ?? averagedEntries[`${b}|${a}`];

@@ -26,8 +26,8 @@ export interface CorrelationConstants {
  *   f2 = a/Tr^6 - b/Tr^8
  * @param temperatureK T in K; meaningful for roughly Tr > 0.5 in the gas phase
  * @returns B in m3/mol
- * Example: argon (Tc 150.687 K, Pc 4.863 MPa, omega -0.0022) at 298.15 K gives
- * -15.3 cm3/mol (reference EOS -15.55).
+ * Example: tsonopoulosB({ Tc: 150.687, Pc: 4.863e6, Vc: 74.59e-6, omega: -0.0022, a: 0, b: 0 }, 298.15)
+ *   -> -15.3 cm3/mol (argon; its reference EOS, CoolProp 8.0.0, gives -15.55 cm3/mol).
  */
 export function tsonopoulosB(c: CorrelationConstants, temperatureK: number): number {
   const tr = c.Tc / temperatureK; // 1/Tr
@@ -133,7 +133,8 @@ export function sizeDifferenceKij(ci: CorrelationConstants, cj: CorrelationConst
  * How the relative uncertainty of the cross-B rule grows at low reduced temperature, where the
  * correlation leaves its range (calibrated with scripts/cross-rule-lib.ts):
  *   factor = max(1, Tcij / (CROSS_RULE_LOW_T.tr T))^CROSS_RULE_LOW_T.power, Tcij = sqrt(Tci Tcj).
- * Example: n-C7H16-C7H8 (Tcij 572 K) at 250 K -> 1.5^3 = 3.3 with tr 1.5, power 3.
+ * Example: crossRuleLowTFactor(565.4, 250) -> 3.43 (n-C7H16-C7H8 at 250 K: Tcij = sqrt(540.2 x 591.75 K)
+ *   = 565.4 K from the critical temperatures of data/species.ts; (565.4 / (1.5 x 250))^3 = 3.43 by hand).
  */
 export const CROSS_RULE_LOW_T = { tr: 1.5, power: 3 } as const;
 export function crossRuleLowTFactor(TcijK: number, temperatureK: number): number {

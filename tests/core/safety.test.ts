@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
   adiabaticCompressionK,
   assessFlammability,
+  blendLimits,
   closedVesselCombustion,
   FUEL_SAFETY,
   flameTemperatureK,
@@ -16,6 +17,7 @@ import {
   reviewState,
   reviewFill,
   designMixture,
+  equilibriumHP,
   planFill,
   pureCylinder,
   type Gauge,
@@ -72,6 +74,25 @@ describe('flammability data', () => {
     expect(Math.abs(leChatelier(parts([1.1, 5.0, 2.7])) - 2.5)).toBeLessThanOrEqual(0.05);
     expect(leChatelier(parts([7.5, 15, 36]))).toBeCloseTo(13.0, 1);
   });
+  it("the blend limits the review uses (blendLimits) follow Le Chatelier's rule on the listed limits: 60 % CH4, 25 % C2H4, 15 % C3H8 against the rule worked here on the NFPA 497 and IEC 60079-20-1 values (lower LFL, higher UFL), 1e-12 relative", () => {
+    const blend = { CH4: 0.6, C2H4: 0.25, C3H8: 0.15 };
+    const listed = (k: string, i: 0 | 1) =>
+      [limits.nfpa497[k], limits.iec60079[k]]
+        .filter((v): v is [number, number] => v !== undefined)
+        .map((v) => v[i] / 100);
+    const rule = (limit: (k: string) => number) =>
+      1 / Object.entries(blend).reduce((a, [k, y]) => a + y / limit(k), 0);
+    const lfl = rule((k) => Math.min(...listed(k, 0)));
+    const ufl = rule((k) => Math.max(...listed(k, 1)));
+    // at 25 degC and 1 atm neither the temperature nor the pressure correction applies
+    const b = blendLimits(blend, 298.15, 101325);
+    expect(b.missing).toEqual([]);
+    expect(Math.abs(b.lfl / lfl - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(b.ufl / ufl - 1)).toBeLessThan(1e-12);
+    // and the documented helper gives the same number as the production path
+    const parts = Object.entries(blend).map(([k, y]) => ({ fraction: y, limit: Math.min(...listed(k, 0)) }));
+    expect(Math.abs(leChatelier(parts) / b.lfl - 1)).toBeLessThan(1e-12);
+  });
 });
 
 describe('complete-combustion thermochemistry (NASA TM-4513 polynomials)', () => {
@@ -83,9 +104,16 @@ describe('complete-combustion thermochemistry (NASA TM-4513 polynomials)', () =>
       const cv = closedVesselCombustion(y, c.T0_K);
       expect(Math.abs(cv.temperatureK - c.closed_vessel_K_complete)).toBeLessThan(0.5);
       expect(Math.abs(cv.pressureRatio / c.closed_vessel_pressure_ratio_complete - 1)).toBeLessThan(1e-3);
-      // without dissociation the flame is hotter than at equilibrium, by less than 150 K here
-      expect(c.flame_K_complete - c.flame_K_equilibrium).toBeGreaterThan(0);
-      expect(c.flame_K_complete - c.flame_K_equilibrium).toBeLessThan(150);
+      // without dissociation the flame is hotter than at equilibrium, by less than 150 K here: our
+      // complete-combustion flame against Cantera's equilibrium flame (HP, same initial state)
+      const ours = flameTemperatureK(y, c.T0_K);
+      expect(ours - c.flame_K_equilibrium).toBeGreaterThan(0);
+      expect(ours - c.flame_K_equilibrium).toBeLessThan(150);
+    });
+    it(`${c.name}: our equilibrium flame (HP) within 1 K of Cantera ${flame.library.split(' ')[1]}'s equilibrium (nasa_gas.yaml: other data and a 1 atm standard state, 0.5 K apart at most here)`, () => {
+      const y: Record<string, number> = { ...(c.reactants as Record<string, number>) };
+      const hp = equilibriumHP(y, c.T0_K, 101325);
+      expect(Math.abs(hp.temperatureK - c.flame_K_equilibrium)).toBeLessThan(1);
     });
   }
   it('handbook adiabatic flame temperatures (equilibrium, from memory): CH4-air 2226 K, H2-air 2390 K; complete combustion lies 0-150 K above', () => {
@@ -142,9 +170,11 @@ describe('flammability of known states', () => {
     expect(codes).toContain('warning:flammable-state');
     expect(codes).toContain('danger:detonable-state');
   });
-  it('a fuel without limit data is never judged non-flammable', () => {
+  it('a state without fuel is non-flammable: SF6 with O2 (SF6 is no fuel)', () => {
+    // the branch for a fuel without limit data: tests/core/flammability-missing-data.test.ts
     const a = assessFlammability({ SF6: 0.5, O2: 0.5 }, 298.15, 1e5);
-    expect(a.verdict).toBe('non-flammable'); // SF6 is no fuel
+    expect(a.verdict).toBe('non-flammable');
+    expect(a.limits).toBeUndefined();
   });
 });
 
