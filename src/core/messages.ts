@@ -1,5 +1,14 @@
 /** The wording of every Problem, in one place. */
-import type { ListFault, Problem, ReadCause, Where, WriteCause, YamlFault } from './problems.js';
+import type {
+  FieldIssue,
+  ListFault,
+  Problem,
+  ReadCause,
+  ShownValue,
+  Where,
+  WriteCause,
+  YamlFault,
+} from './problems.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -151,6 +160,7 @@ type FileProblemCode =
   | 'pdf-no-browser'
   | 'pdf-not-made';
 type RecipeProblemCode =
+  | 'invalid-field'
   | 'rating-with-lab-tank'
   | 'pressure-and-count'
   | 'dilution-measures'
@@ -292,6 +302,84 @@ function describeRecipeProblem(p: Extract<Problem, { code: RecipeProblemCode }>)
       );
     case 'diluent-amount-missing':
       return 'a diluent is named but not how much: give dilution, diluent_ratio or fuel_fraction';
+    case 'invalid-field':
+      return describeFieldIssue(p.field, p.issue);
+  }
+}
+
+/** a value for a message: short, and a number without float noise */
+function shownValue(v: ShownValue): string {
+  switch (v.type) {
+    case 'number':
+      return formatNumber(v.value);
+    case 'text':
+      return `"${v.value}"`;
+    case 'null':
+      return 'null (an empty value)';
+    case 'list':
+      return 'a list';
+    case 'map':
+      return 'a map of keys';
+    case 'other':
+      return v.value;
+  }
+}
+
+function typeName(expected: string): string {
+  switch (expected) {
+    case 'string':
+      return 'a text';
+    case 'number':
+      return 'a number';
+    case 'int':
+      return 'a whole number';
+    case 'boolean':
+      return 'true or false';
+    case 'array':
+      return 'a list';
+    case 'object':
+    case 'record':
+      return 'a map of keys';
+    default:
+      return `a ${expected}`;
+  }
+}
+
+/** our wording of a field the format refuses: what is wrong, and what to write instead */
+function describeFieldIssue(field: string, i: FieldIssue): string {
+  const hint = (h: string | undefined) => (h ? ` (${h})` : '');
+  switch (i.kind) {
+    case 'missing':
+      return (
+        `the required field "${field}" is missing` +
+        (i.hint ? `; it is the ${i.hint}` : '') +
+        (i.misspelled
+          ? `; the key "${i.misspelled.key}" is there instead - did you mean "${i.misspelled.wanted}"?`
+          : i.unknown
+            ? `; there is an unknown key "${i.unknown.key}" (allowed here: ${list(i.unknown.allowed)})`
+            : '')
+      );
+    case 'bare-number':
+      return `${field} is the bare number ${formatNumber(i.value)}; it needs a unit (${i.hint})`;
+    case 'wrong-type':
+      return `${field} must be ${typeName(i.expected)}, not ${shownValue(i.got)}` + hint(i.hint);
+    case 'too-large':
+    case 'too-small':
+      return (
+        `${field} = ${shownValue(i.got)} is ${i.kind === 'too-large' ? 'too large' : 'too small'}; ` +
+        `the allowed range is ` +
+        (i.kind === 'too-large' ? (i.inclusive ? 'at most' : 'below') : i.inclusive ? 'at least' : 'above') +
+        ` ${formatNumber(i.limit)}` +
+        hint(i.hint)
+      );
+    case 'empty':
+      return `${field} is empty; give a value` + hint(i.hint);
+    case 'not-a-choice':
+      return `${field} = ${shownValue(i.got)} is not one of the choices: ${list(i.choices)}`;
+    case 'no-form':
+      return `${field} has neither accepted form; see \`mixwright schema recipe\``;
+    case 'library':
+      return `${field}: ${i.message}`;
   }
 }
 

@@ -162,7 +162,46 @@ export type Problem =
   | { readonly code: 'pressure-missing' }
   | { readonly code: 'reactor-incomplete' }
   | { readonly code: 'reactor-missing' }
-  | { readonly code: 'diluent-amount-missing' };
+  | { readonly code: 'diluent-amount-missing' }
+  /** a recipe or lab-profile field that its format refuses (the schema's verdict, in our words) */
+  | { readonly code: 'invalid-field'; readonly field: string; readonly issue: FieldIssue };
+
+/** a value as a message shows it: a number, a text (cut at 40 characters), or what kind of thing it is */
+export type ShownValue =
+  | { readonly type: 'number'; readonly value: number }
+  | { readonly type: 'text'; readonly value: string }
+  | { readonly type: 'null' | 'list' | 'map' }
+  | { readonly type: 'other'; readonly value: string };
+
+/** what is wrong with a field; `hint` is the field's own description (its unit and an example) */
+export type FieldIssue =
+  | {
+      readonly kind: 'missing';
+      readonly hint?: string;
+      /** an unknown key beside it that is close to its name (`wanted`) */
+      readonly misspelled?: { readonly key: string; readonly wanted: string };
+      /** an unknown key beside it, and the keys allowed there */
+      readonly unknown?: { readonly key: string; readonly allowed: readonly string[] };
+    }
+  | { readonly kind: 'bare-number'; readonly value: number; readonly hint: string }
+  | {
+      readonly kind: 'wrong-type';
+      readonly expected: string;
+      readonly got: ShownValue;
+      readonly hint?: string;
+    }
+  | {
+      readonly kind: 'too-large' | 'too-small';
+      readonly got: ShownValue;
+      readonly limit: number;
+      readonly inclusive: boolean;
+      readonly hint?: string;
+    }
+  | { readonly kind: 'empty'; readonly hint?: string }
+  | { readonly kind: 'not-a-choice'; readonly got: ShownValue; readonly choices: readonly string[] }
+  | { readonly kind: 'no-form' }
+  /** an issue the schema library words itself */
+  | { readonly kind: 'library'; readonly message: string };
 
 /** why a file was not read; `system` carries the operating system's error code */
 export type ReadCause =
