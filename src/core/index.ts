@@ -22,7 +22,16 @@ export { rankSpecies } from './lookup.js';
 export type { PropertyName, PropertyValue } from './lookup.js';
 export { ProblemError, fail, relocate } from './problems.js';
 export type { Problem, ProblemCode, Where } from './problems.js';
-export type { LockHolder, LogFault, WriteCause } from './problems.js';
+export type {
+  FieldIssue,
+  ListFault,
+  LockHolder,
+  LogFault,
+  ReadCause,
+  ShownValue,
+  WriteCause,
+  YamlFault,
+} from './problems.js';
 export { describeProblem, describeProblemAt, describeWhere, formatNumber } from './messages.js';
 export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRole } from './composition.js';
 export type { Design, DesignInput, DilutionBasis, Fractions, SpeciesRole } from './composition.js';

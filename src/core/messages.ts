@@ -1,5 +1,16 @@
 /** The wording of every Problem, in one place. */
-import type { LogFault, PlannerProblem, Problem, Where, WriteCause } from './problems.js';
+import type {
+  FieldIssue,
+  ListFault,
+  LogFault,
+  PlannerProblem,
+  Problem,
+  ReadCause,
+  ShownValue,
+  Where,
+  WriteCause,
+  YamlFault,
+} from './problems.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -57,11 +68,6 @@ export function describeProblem(p: Problem): string {
         `cannot read "${p.text}" as a ${p.expected}: ${sentence(p.reason)} Give a ` +
         `number and a unit, e.g. ${exampleFor(p.expected)}`
       );
-    case 'bad-list':
-      return (
-        `cannot read "${p.text}": ${sentence(p.reason)} Write species, or species:fraction ` +
-        `pairs separated by commas, e.g. CH4:0.8,C2H6:0.2`
-      );
     case 'order-missing':
       return `the fill order leaves out ${list(p.missing)}; name every fill exactly once`;
     case 'order-repeated':
@@ -84,10 +90,6 @@ export function describeProblem(p: Problem): string {
       return `unknown key "${p.key}"; allowed here: ${list(p.allowed)}`;
     case 'schema':
       return 'log' in p ? describeLogFault(p.log) : p.reason;
-    case 'yaml-syntax':
-      return `not valid YAML: ${p.reason}`;
-    case 'file-unreadable':
-      return `cannot read the file: ${p.reason}`;
     case 'name-too-long':
       return (
         `the ${p.what} "${p.start}..." is ${p.length} characters long; names have ` +
@@ -99,8 +101,6 @@ export function describeProblem(p: Problem): string {
         `reads files of up to ${bytes(p.limitBytes)} (recipes, lab profiles, readings ` +
         `and batch logs are a few kB); check that this is the file you meant`
       );
-    case 'file-unwritable':
-      return `cannot write the file: ${p.reason}`;
     case 'needs-barometer':
       return (
         `"${p.text}" is a gauge pressure (measured above the ambient pressure), and ` +
@@ -197,6 +197,9 @@ export function describeProblem(p: Problem): string {
     case 'withdraw-not-last':
     case 'reading-missing':
       return describeLogProblem(p);
+    // raised by the command line and recipe files
+    default:
+      return describeCommandLineProblem(p);
   }
 }
 
@@ -431,6 +434,339 @@ function describePlannerProblem(p: PlannerProblem): string {
   }
 }
 
+type FileProblemCode =
+  | 'file-unreadable'
+  | 'yaml-syntax'
+  | 'bad-list'
+  | 'not-a-number'
+  | 'number-too-large'
+  | 'option-repeated'
+  | 'options-exclusive'
+  | 'options-missing'
+  | 'format-unknown'
+  | 'format-mismatch'
+  | 'pdf-needs-file'
+  | 'pdf-no-browser'
+  | 'pdf-not-made';
+type RecipeProblemCode =
+  | 'invalid-field'
+  | 'rating-with-lab-tank'
+  | 'pressure-and-count'
+  | 'dilution-measures'
+  | 'working-fraction-without-rating'
+  | 'tank-or-volume-missing'
+  | 'pressure-missing'
+  | 'reactor-incomplete'
+  | 'reactor-missing'
+  | 'diluent-amount-missing';
+type CommandLineProblemCode =
+  | 'tank-data-missing'
+  | 'needs-terminal'
+  | 'resume-with-recipe'
+  | 'log-closed'
+  | 'bad-batch-id'
+  | 'no-logs-in-folder'
+  | 'label-needs-log'
+  | 'unknown-schema'
+  | 'duplicate-id'
+  | 'bad-temperature-difference'
+  | FileProblemCode
+  | RecipeProblemCode;
+
+/** the wording of the problems raised by the command line and recipe files (continued) */
+function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProblemCode }>): string {
+  switch (p.code) {
+    case 'tank-data-missing':
+      return describeMissingTankData(p.quantity);
+    case 'needs-terminal':
+      return p.command === 'fill'
+        ? 'the guided fill needs a terminal (stdin and stdout are not one). Use `mixwright ' +
+            'plan` or `mixwright sheet` to prepare, and `mixwright check` on the log ' +
+            'or a CSV of the readings'
+        : 'the wizard needs a terminal. Use `mixwright plan`, `mixwright sheet` and `mixwright check`';
+    case 'resume-with-recipe':
+      return 'a resumed fill takes its design from the log; give --resume LOG alone';
+    case 'log-closed':
+      return 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`';
+    case 'bad-batch-id':
+      return `batch id "${p.id}" may hold letters, digits, '.', '_' and '-' only`;
+    case 'no-logs-in-folder':
+      return 'the folder holds no .jsonl or .csv files; give a folder of batch logs or CSV readings';
+    case 'label-needs-log':
+      return (
+        'a label is made from one batch log (.jsonl) written by `mixwright fill`; ' +
+        're-check CSV readings with `mixwright check`'
+      );
+    case 'unknown-schema':
+      return `unknown format "${p.name}"; choose ${p.choices.join(' or ')}`;
+    case 'duplicate-id':
+      return `the id "${p.id}" is used twice; ids of tanks, reactors, gauges and cylinders must be unique`;
+    case 'bad-temperature-difference':
+      return (
+        `cannot read "${p.text}" as a temperature difference: give it in K or mK, e.g. "0.3 K" ` +
+        `(a difference, so never in degC or degF, whose zero is offset)`
+      );
+    default:
+      return describeFileProblem(p);
+  }
+}
+
+/** the wording of unreadable files and options (continued) */
+function describeFileProblem(p: Extract<Problem, { code: FileProblemCode | RecipeProblemCode }>): string {
+  switch (p.code) {
+    case 'file-unreadable':
+      return `cannot read the file: ${'cause' in p ? describeReadCause(p.cause) : p.reason}`;
+    case 'yaml-syntax':
+      return `not valid YAML: ${describeYamlFault(p.fault)}`;
+    case 'bad-list':
+      return (
+        `cannot read "${p.text}": ${describeListFault(p.fault)}. Write species, or species:fraction ` +
+        `pairs separated by commas, e.g. CH4:0.8,C2H6:0.2`
+      );
+    case 'not-a-number':
+      return `"${p.text}" is not a number`;
+    case 'number-too-large':
+      return `"${p.text}" is too large a number to represent; check the exponent`;
+    case 'option-repeated':
+      return (
+        `${p.option} is given twice ("${p.first}" and "${p.second}"); give it once, ` +
+        `with the value you mean`
+      );
+    case 'options-exclusive':
+      return (
+        `give either ${p.option}, or --fuel/--oxidizer/--phi with one dilution measure, not both ` +
+        `(got ${p.option} with ${list(p.others)})`
+      );
+    case 'options-missing':
+      return `give a recipe file, or on the command line: ${p.missing.join('; ')}`;
+    case 'format-unknown':
+      return (
+        `cannot tell the sheet format from the file name "${p.file}" (extension ${p.extension || 'none'}); ` +
+        `name the file ${list(p.known)}, or give --format html|md|txt|pdf`
+      );
+    case 'format-mismatch':
+      return (
+        `--format ${p.format} would write ${p.format} into a file named ${p.extension}; give ` +
+        `a file name that ends in the format's extension, or leave --format out to take it from the name`
+      );
+    case 'pdf-needs-file':
+      return `a PDF needs a file: give -o ${p.example}`;
+    case 'pdf-no-browser':
+      return (
+        'Chromium is not installed, so no PDF can be made here. Write the sheet with ' +
+        '--format html and print it from any browser (File > Print, margins "default"), ' +
+        'or install Chromium (apt-get install chromium)'
+      );
+    case 'pdf-not-made':
+      return `Chromium did not write a PDF (exit ${p.status ?? 'none'})${p.detail ? `: ${p.detail}` : ''}`;
+    default:
+      return describeRecipeProblem(p);
+  }
+}
+
+/** the wording of the recipe's conflicting and missing fields */
+function describeRecipeProblem(p: Extract<Problem, { code: RecipeProblemCode }>): string {
+  switch (p.code) {
+    case 'rating-with-lab-tank':
+      return (
+        `the tank ${p.tank} has its rating in the lab profile; a rating here is for ` +
+        `a tank given by its volume only`
+      );
+    case 'pressure-and-count':
+      return 'give the final pressure or the number of experiments, not both (the count sets the pressure)';
+    case 'dilution-measures':
+      return `give only one of dilution, diluent_ratio, fuel_fraction (got ${p.given.join(' and ')})`;
+    case 'working-fraction-without-rating':
+      return 'a working fraction is a fraction of the rating: give the rating too';
+    case 'tank-or-volume-missing':
+      return `name a tank from the lab profile (${list(p.tanks) || 'none listed'}) or give a volume`;
+    case 'pressure-missing':
+      return 'give the final pressure, or the number of experiments the batch must serve';
+    case 'reactor-incomplete':
+      return 'give both the reactor volume and the fill pressure of one experiment (or a reactor from the lab profile)';
+    case 'reactor-missing':
+      return (
+        'sizing for a number of experiments needs a reactor: name one from the lab ' +
+        'profile or give its volume and fill pressure'
+      );
+    case 'diluent-amount-missing':
+      return 'a diluent is named but not how much: give dilution, diluent_ratio or fuel_fraction';
+    case 'invalid-field':
+      return describeFieldIssue(p.field, p.issue);
+  }
+}
+
+/** a value for a message: short, and a number without float noise */
+function shownValue(v: ShownValue): string {
+  switch (v.type) {
+    case 'number':
+      return formatNumber(v.value);
+    case 'text':
+      return `"${v.value}"`;
+    case 'null':
+      return 'null (an empty value)';
+    case 'list':
+      return 'a list';
+    case 'map':
+      return 'a map of keys';
+    case 'other':
+      return v.value;
+  }
+}
+
+function typeName(expected: string): string {
+  switch (expected) {
+    case 'string':
+      return 'a text';
+    case 'number':
+      return 'a number';
+    case 'int':
+      return 'a whole number';
+    case 'boolean':
+      return 'true or false';
+    case 'array':
+      return 'a list';
+    case 'object':
+    case 'record':
+      return 'a map of keys';
+    default:
+      return `a ${expected}`;
+  }
+}
+
+/** our wording of a field the format refuses: what is wrong, and what to write instead */
+function describeFieldIssue(field: string, i: FieldIssue): string {
+  const hint = (h: string | undefined) => (h ? ` (${h})` : '');
+  switch (i.kind) {
+    case 'missing':
+      return (
+        `the required field "${field}" is missing` +
+        (i.hint ? `; it is the ${i.hint}` : '') +
+        (i.misspelled
+          ? `; the key "${i.misspelled.key}" is there instead - did you mean "${i.misspelled.wanted}"?`
+          : i.unknown
+            ? `; there is an unknown key "${i.unknown.key}" (allowed here: ${list(i.unknown.allowed)})`
+            : '')
+      );
+    case 'bare-number':
+      return `${field} is the bare number ${formatNumber(i.value)}; it needs a unit (${i.hint})`;
+    case 'wrong-type':
+      return `${field} must be ${typeName(i.expected)}, not ${shownValue(i.got)}` + hint(i.hint);
+    case 'too-large':
+    case 'too-small':
+      return (
+        `${field} = ${shownValue(i.got)} is ${i.kind === 'too-large' ? 'too large' : 'too small'}; ` +
+        `the allowed range is ` +
+        (i.kind === 'too-large' ? (i.inclusive ? 'at most' : 'below') : i.inclusive ? 'at least' : 'above') +
+        ` ${formatNumber(i.limit)}` +
+        hint(i.hint)
+      );
+    case 'empty':
+      return `${field} is empty; give a value` + hint(i.hint);
+    case 'not-a-choice':
+      return `${field} = ${shownValue(i.got)} is not one of the choices: ${list(i.choices)}`;
+    case 'no-form':
+      return `${field} has neither accepted form; see \`mixwright schema recipe\``;
+    case 'library':
+      return `${field}: ${i.message}`;
+  }
+}
+
+function describeMissingTankData(quantity: 'height' | 'leak-rate' | 'base-vacuum'): string {
+  switch (quantity) {
+    case 'height':
+      return 'the tank height is not known: give --height or add "height" to the tank in the lab profile';
+    case 'leak-rate':
+      return (
+        'the leak-up rate is not known: measure it and give --leak, or add "leak_rate" ' +
+        'to the tank in the lab profile'
+      );
+    case 'base-vacuum':
+      return 'the base vacuum is not known: give --base-vacuum or add "base_vacuum" to the tank in the lab profile';
+  }
+}
+
+function describeReadCause(c: ReadCause): string {
+  switch (c.kind) {
+    case 'system':
+      return readErrno(c.errno);
+    case 'not-regular':
+      return notRegular(c.what);
+    case 'binary':
+      return 'it holds NUL bytes, so it is not a text file; give a YAML, CSV or JSON-lines text file';
+  }
+}
+
+function readErrno(errno: string): string {
+  switch (errno) {
+    case 'ENOENT':
+      return 'no such file';
+    case 'EISDIR':
+      return 'it is a folder, not a file';
+    case 'EACCES':
+    case 'EPERM':
+      return 'permission denied; check the file permissions';
+    case 'ENOTDIR':
+      return 'a part of the path is not a folder';
+    case 'ENAMETOOLONG':
+      return 'the path is too long';
+    case 'ELOOP':
+      return 'the path has a symbolic link loop';
+    default:
+      return `the system refused it (${errno})`;
+  }
+}
+
+function notRegular(what: 'folder' | 'fifo' | 'device' | 'socket' | 'other'): string {
+  switch (what) {
+    case 'folder':
+      return 'it is a folder, not a file';
+    case 'fifo':
+      return (
+        'it is a named pipe (FIFO), not a regular file; pipes are not read because ' +
+        'they can wait forever. Save the content to a file and give that file'
+      );
+    case 'device':
+      return 'it is a device, not a regular file; give a recipe, lab profile, readings or log file';
+    case 'socket':
+      return 'it is a socket, not a regular file';
+    case 'other':
+      return 'it is not a regular file';
+  }
+}
+
+function describeYamlFault(f: YamlFault): string {
+  switch (f.kind) {
+    case 'parser':
+      return f.message;
+    case 'collection-key':
+      return 'a key is a list or map; keys must be plain names such as "volume"';
+    case 'too-many-aliases':
+      return (
+        `the file expands its aliases (*name) more than ${f.limit} times, ` +
+        `which would make it far larger than it looks; write the values out, or use fewer aliases`
+      );
+    case 'unresolved-alias':
+      return (
+        `an alias (*${f.alias}) refers to no anchor (&name) set before it; define the anchor ` +
+        `first, or write the value out`
+      );
+    case 'not-data':
+      return `the file cannot be read as data (${f.message})`;
+  }
+}
+
+function describeListFault(f: ListFault): string {
+  switch (f.kind) {
+    case 'empty-entry':
+      return 'an empty entry';
+    case 'not-a-pair':
+      return `"${f.entry}" is not species:fraction`;
+    case 'repeated':
+      return `${f.species} appears twice`;
+  }
+}
+
 function describeWriteCause(c: WriteCause): string {
   switch (c.kind) {
     case 'is-folder':
@@ -448,11 +784,12 @@ function describeWriteCause(c: WriteCause): string {
     case 'folder-not-writable':
       return `the folder ${c.folder} is not writable (permission denied); choose another place, or ask for write access`;
     case 'short-write':
-      return `only ${c.written} of ${c.expected} bytes reached the disk (is it full?)`;
+      return `only ${c.written} of ${c.expected} bytes could be written (the disk is probably full)`;
     case 'missing-after-write':
       return 'the file is not there after writing it';
     case 'system':
-      return `${c.message} (${c.errno})`;
+      // a message that names its own code (as io/atomic.ts words them) is not given it twice
+      return c.message.includes(c.errno) ? c.message : `${c.message} (${c.errno})`;
     // raised by the batch log
     case 'log-exists':
       return 'a batch log of that name exists already; it is never overwritten - choose another batch id';

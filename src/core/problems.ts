@@ -40,7 +40,6 @@ export type Problem =
       readonly expected: string;
       readonly reason: string;
     }
-  | { readonly code: 'bad-list'; readonly text: string; readonly reason: string }
   | { readonly code: 'order-missing'; readonly missing: readonly string[] }
   | { readonly code: 'order-repeated'; readonly repeated: readonly string[] }
   | {
@@ -53,8 +52,6 @@ export type Problem =
   | { readonly code: 'design-missing'; readonly reason: string }
   | { readonly code: 'unknown-key'; readonly key: string; readonly allowed: readonly string[] }
   | { readonly code: 'schema'; readonly reason: string }
-  | { readonly code: 'yaml-syntax'; readonly reason: string }
-  | { readonly code: 'file-unreadable'; readonly reason: string }
   | {
       readonly code: 'name-too-long';
       readonly what: string;
@@ -63,7 +60,6 @@ export type Problem =
       readonly limit: number;
     }
   | { readonly code: 'file-too-large'; readonly bytes: number; readonly limitBytes: number }
-  | { readonly code: 'file-unwritable'; readonly reason: string }
   | { readonly code: 'needs-barometer'; readonly text: string; readonly field: string }
   | {
       readonly code: 'unknown-reference';
@@ -190,6 +186,78 @@ export type Problem =
       readonly recipe: string;
       readonly fills: readonly string[];
     }
+  /** the free-text form of an unreadable file, raised by io/batch-log.ts only (to be replaced by `cause`) */
+  | { readonly code: 'file-unreadable'; readonly reason: string }
+  // raised by the command line and recipe files
+  /**
+   * a file that cannot be read, and why (the typed form; the `reason` form just above stays until
+   * io/batch-log.ts raises this one)
+   */
+  | { readonly code: 'file-unreadable'; readonly cause: ReadCause }
+  /** a YAML file the parser refuses, or one whose data cannot be used */
+  | { readonly code: 'yaml-syntax'; readonly fault: YamlFault }
+  /** a species list ("CH4:0.8,C2H6:0.2") that cannot be read */
+  | { readonly code: 'bad-list'; readonly text: string; readonly fault: ListFault }
+  /** a number option (--phi, --days, --trials, ...) that is not a number, or too large for one */
+  | { readonly code: 'not-a-number'; readonly text: string }
+  | { readonly code: 'number-too-large'; readonly text: string }
+  /** a value option given twice, e.g. --phi 1 --phi 0.5 */
+  | {
+      readonly code: 'option-repeated';
+      readonly option: string;
+      readonly first: string;
+      readonly second: string;
+    }
+  /** explicit fractions together with a phi design */
+  | { readonly code: 'options-exclusive'; readonly option: string; readonly others: readonly string[] }
+  /** a plan from options alone that lacks some: the options (or groups) to give */
+  | { readonly code: 'options-missing'; readonly missing: readonly string[] }
+  /** the sheet's format cannot be told from the output's extension */
+  | {
+      readonly code: 'format-unknown';
+      readonly file: string;
+      readonly extension: string;
+      readonly known: readonly string[];
+    }
+  /** --format and the output's extension disagree */
+  | { readonly code: 'format-mismatch'; readonly format: string; readonly extension: string }
+  /** a PDF goes to a file only; `example` is the file name to suggest */
+  | { readonly code: 'pdf-needs-file'; readonly example: string }
+  /** no Chromium to print a PDF with */
+  | { readonly code: 'pdf-no-browser' }
+  /** Chromium ran but wrote no PDF: its exit status and its own error lines */
+  | { readonly code: 'pdf-not-made'; readonly status: number | null; readonly detail: string }
+  /** `ready` lacks a property of the tank that neither an option nor the lab profile gives */
+  | { readonly code: 'tank-data-missing'; readonly quantity: 'height' | 'leak-rate' | 'base-vacuum' }
+  /** an interactive command run where stdin and stdout are not a terminal */
+  | { readonly code: 'needs-terminal'; readonly command: 'fill' | 'wizard' }
+  | { readonly code: 'resume-with-recipe' }
+  /** a batch log whose fill is finished, given to --resume */
+  | { readonly code: 'log-closed' }
+  /** a batch id that cannot be a file name */
+  | { readonly code: 'bad-batch-id'; readonly id: string }
+  /** `check FOLDER` on a folder without logs or readings */
+  | { readonly code: 'no-logs-in-folder' }
+  /** `label` given something other than one batch log */
+  | { readonly code: 'label-needs-log' }
+  | { readonly code: 'unknown-schema'; readonly name: string; readonly choices: readonly string[] }
+  /** an id used twice among the tanks, reactors, gauges and cylinders of a lab profile */
+  | { readonly code: 'duplicate-id'; readonly id: string }
+  /** a thermometer uncertainty or resolution not in K or mK */
+  | { readonly code: 'bad-temperature-difference'; readonly text: string }
+  /** recipe fields that exclude each other */
+  | { readonly code: 'rating-with-lab-tank'; readonly tank: string }
+  | { readonly code: 'pressure-and-count' }
+  | { readonly code: 'dilution-measures'; readonly given: readonly string[] }
+  /** recipe fields missing */
+  | { readonly code: 'working-fraction-without-rating' }
+  | { readonly code: 'tank-or-volume-missing'; readonly tanks: readonly string[] }
+  | { readonly code: 'pressure-missing' }
+  | { readonly code: 'reactor-incomplete' }
+  | { readonly code: 'reactor-missing' }
+  | { readonly code: 'diluent-amount-missing' }
+  /** a recipe or lab-profile field that its format refuses (the schema's verdict, in our words) */
+  | { readonly code: 'invalid-field'; readonly field: string; readonly issue: FieldIssue }
   // raised by the planner
   | PlannerProblem;
 
@@ -218,6 +286,63 @@ export type LogFault =
   | { readonly kind: 'start-after-reading' }
   | { readonly kind: 'unknown-event'; readonly eventKind: string }
   | { readonly kind: 'empty' };
+
+/** a value as a message shows it: a number, a text (cut at 40 characters), or what kind of thing it is */
+export type ShownValue =
+  | { readonly type: 'number'; readonly value: number }
+  | { readonly type: 'text'; readonly value: string }
+  | { readonly type: 'null' | 'list' | 'map' }
+  | { readonly type: 'other'; readonly value: string };
+
+/** what is wrong with a field; `hint` is the field's own description (its unit and an example) */
+export type FieldIssue =
+  | {
+      readonly kind: 'missing';
+      readonly hint?: string;
+      /** an unknown key beside it that is close to its name (`wanted`) */
+      readonly misspelled?: { readonly key: string; readonly wanted: string };
+      /** an unknown key beside it, and the keys allowed there */
+      readonly unknown?: { readonly key: string; readonly allowed: readonly string[] };
+    }
+  | { readonly kind: 'bare-number'; readonly value: number; readonly hint: string }
+  | {
+      readonly kind: 'wrong-type';
+      readonly expected: string;
+      readonly got: ShownValue;
+      readonly hint?: string;
+    }
+  | {
+      readonly kind: 'too-large' | 'too-small';
+      readonly got: ShownValue;
+      readonly limit: number;
+      readonly inclusive: boolean;
+      readonly hint?: string;
+    }
+  | { readonly kind: 'empty'; readonly hint?: string }
+  | { readonly kind: 'not-a-choice'; readonly got: ShownValue; readonly choices: readonly string[] }
+  | { readonly kind: 'no-form' }
+  /** an issue the schema library words itself */
+  | { readonly kind: 'library'; readonly message: string };
+
+/** why a file was not read; `system` carries the operating system's error code */
+export type ReadCause =
+  | { readonly kind: 'system'; readonly errno: string }
+  | { readonly kind: 'not-regular'; readonly what: 'folder' | 'fifo' | 'device' | 'socket' | 'other' }
+  | { readonly kind: 'binary' };
+
+/** what is wrong with a YAML file; `message` is the parser's own first line */
+export type YamlFault =
+  | { readonly kind: 'parser'; readonly message: string }
+  | { readonly kind: 'collection-key' }
+  | { readonly kind: 'too-many-aliases'; readonly limit: number }
+  | { readonly kind: 'unresolved-alias'; readonly alias: string }
+  | { readonly kind: 'not-data'; readonly message: string };
+
+/** what is wrong with a species list */
+export type ListFault =
+  | { readonly kind: 'empty-entry' }
+  | { readonly kind: 'not-a-pair'; readonly entry: string }
+  | { readonly kind: 'repeated'; readonly species: string };
 
 export type ProblemCode = Problem['code'];
 

@@ -113,6 +113,8 @@ export function finalPressureForExperiments(
       { code: 'out-of-range', what: 'number of experiments', value: count, allowed: 'a whole number > 0' },
       { field: 'experiments' },
     );
+  if (!(input.tankVolumeM3 > 0))
+    fail({ code: 'not-positive', what: 'tank volume', value: input.tankVolumeM3 }, { field: 'volume' });
   const sizing = sizingBasis(input);
   const need = sizing.reserveMol + count * sizing.perExperimentMol;
   const rho = need / input.tankVolumeM3;

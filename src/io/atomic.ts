@@ -21,7 +21,7 @@ import {
   writeSync,
 } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { fail, ProblemError } from '../core/index.js';
+import { fail, ProblemError, type WriteCause } from '../core/index.js';
 
 /** the cause of a failed write, in words a lab member can act on */
 export function writeErrorReason(e: unknown): string {
@@ -85,6 +85,13 @@ export function failureReason(e: unknown): string {
   return writeErrorReason(e);
 }
 
+/** why a write failed, as the typed cause of a write-failed problem */
+export function writeCauseOf(e: unknown): WriteCause {
+  if (e instanceof ShortWriteError) return { kind: 'short-write', written: e.written, expected: e.expected };
+  const errno = (e as NodeJS.ErrnoException)?.code;
+  return { kind: 'system', errno: errno ?? 'no error code', message: writeErrorReason(e) };
+}
+
 /** fsync a folder so that a new name in it survives a power cut; not every platform allows it */
 export function fsyncFolder(dir: string): void {
   let fd: number | undefined;
@@ -105,18 +112,9 @@ function whatIsAt(path: string): 'file' | 'folder' | 'symlink' | 'other' | undef
     return st.isSymbolicLink() ? 'symlink' : st.isDirectory() ? 'folder' : st.isFile() ? 'file' : 'other';
   } catch (e) {
     if ((e as NodeJS.ErrnoException).code === 'ENOENT') return undefined;
-    return fail({ code: 'write-failed', reason: writeErrorReason(e) }, { file: path });
+    return fail({ code: 'write-failed', cause: writeCauseOf(e) }, { file: path });
   }
 }
-
-const TAKEN: Record<string, string> = {
-  file: 'a file of that name exists; add --force to replace it, or choose another name',
-  symlink:
-    'a symbolic link of that name exists (it may point nowhere); add --force ' +
-    'to replace the link, or choose another name',
-  other:
-    'something that is not a regular file (a device, a fifo or a socket) has that name; choose another name',
-};
 
 /**
  * move a finished temporary file to a name that must not exist: a hard link fails if the
@@ -138,16 +136,9 @@ function placeNew(tmp: string, path: string): void {
 
 export function writeFileAtomic(path: string, data: string | Uint8Array, force: boolean): void {
   const there = whatIsAt(path);
-  if (there === 'folder')
-    fail(
-      {
-        code: 'write-failed',
-        reason: 'the name is a folder; give a file name inside it, e.g. FOLDER/fill.html',
-      },
-      { file: path },
-    );
+  if (there === 'folder') fail({ code: 'write-failed', cause: { kind: 'is-folder' } }, { file: path });
   if (there === 'other' || (there !== undefined && !force))
-    fail({ code: 'write-failed', reason: TAKEN[there] }, { file: path });
+    fail({ code: 'write-failed', cause: { kind: 'exists', what: there } }, { file: path });
   const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
   let fd: number | undefined;
   let created = false;
@@ -187,14 +178,7 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, force: 
     if (e instanceof ProblemError) throw e;
     const code = (e as NodeJS.ErrnoException).code;
     if (code === 'EEXIST')
-      fail(
-        {
-          code: 'write-failed',
-          reason:
-            'a file of that name appeared while writing; add --force to replace it, or choose another name',
-        },
-        { file: path },
-      );
-    return fail({ code: 'write-failed', reason: failureReason(e) }, { file: path });
+      fail({ code: 'write-failed', cause: { kind: 'appeared-while-writing' } }, { file: path });
+    return fail({ code: 'write-failed', cause: writeCauseOf(e) }, { file: path });
   }
 }

@@ -23,6 +23,7 @@ import {
   type TankSpec,
   type ReactorSpec,
   finalPressureForExperiments,
+  type SizingInput,
 } from '../core/index.js';
 import { parseLength, parseQuantity } from './quantity.js';
 import { labSchema, type LabFile } from './lab.js';
@@ -60,15 +61,15 @@ export function parseBlend(
   const text = value.trim();
   if (air && text.toLowerCase() === 'air') return { ...air };
   const parts = text.split(',').map((p) => p.trim());
-  if (parts.some((p) => p === '')) fail({ code: 'bad-list', text, reason: 'an empty entry' }, where);
+  if (parts.some((p) => p === '')) fail({ code: 'bad-list', text, fault: { kind: 'empty-entry' } }, where);
   if (parts.length === 1 && !parts[0].includes(':')) {
     return { [at(where, () => getSpecies(parts[0]).key)]: 1 };
   }
   for (const p of parts) {
     const m = /^([^:\s]+)\s*:\s*([-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?)$/.exec(p);
-    if (!m) fail({ code: 'bad-list', text, reason: `"${p}" is not species:fraction` }, where);
+    if (!m) fail({ code: 'bad-list', text, fault: { kind: 'not-a-pair', entry: p } }, where);
     const key = at(where, () => getSpecies(m[1]).key);
-    if (key in out) fail({ code: 'bad-list', text, reason: `${key} appears twice` }, where);
+    if (key in out) fail({ code: 'bad-list', text, fault: { kind: 'repeated', species: key } }, where);
     out[key] = Number(m[2]);
   }
   return out;
@@ -103,223 +104,230 @@ export interface LoadedLab {
   readonly condensationFraction?: number;
 }
 
+type LabWhere = (path: DataPath, field: string) => Where;
+type GaugeContext = { readonly barometricPa?: number };
+
+/** the profile's barometer (default 101325 Pa +- 100 Pa): read first, it converts gauge pressures elsewhere */
+function labBarometer(lab: LabFile, w: LabWhere): { pa: number; uPa: number } {
+  if (!lab.barometer) return { pa: 101325, uPa: 100 };
+  const pa = parseQuantity(
+    lab.barometer.pressure,
+    'pressure',
+    w(['barometer', 'pressure'], 'barometer.pressure'),
+  );
+  const uPa = parseQuantity(
+    lab.barometer.uncertainty,
+    'pressure',
+    w(['barometer', 'uncertainty'], 'barometer.uncertainty'),
+  );
+  if (!(pa > 0))
+    fail(
+      { code: 'not-positive', what: 'barometric pressure', value: pa, text: lab.barometer.pressure },
+      w(['barometer', 'pressure'], 'barometer.pressure'),
+    );
+  return { pa, uPa };
+}
+
+/** ids of tanks, reactors, gauges and cylinders share one name space: a second use is refused */
+function uniqueIds(w: LabWhere): (id: string, path: DataPath) => void {
+  const ids = new Set<string>();
+  return (id, path) => {
+    if (ids.has(id)) fail({ code: 'duplicate-id', id }, w(path, 'id'));
+    ids.add(id);
+  };
+}
+
+function loadTank(t: LabFile['tanks'][number], i: number, w: LabWhere, gaugeCtx: GaugeContext) {
+  const at = (key: string) => w(['tanks', i, key], `tanks[${i}].${key}`);
+  const volumeM3 = parseQuantity(t.volume, 'volume', at('volume'));
+  if (!(volumeM3 > 0))
+    fail(
+      { code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3, text: t.volume },
+      at('volume'),
+    );
+  const rated =
+    t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', at('rating'), gaugeCtx);
+  if (rated !== undefined && !(rated > 0))
+    fail(
+      { code: 'not-positive', what: `rating of tank ${t.id}`, value: rated, text: t.rating },
+      at('rating'),
+    );
+  const q = (key: 'base_vacuum' | 'leak_rate', dim: 'pressure' | 'pressure rate') =>
+    t[key] === undefined ? undefined : parseQuantity(t[key], dim, at(key));
+  return {
+    id: t.id,
+    label: t.label ?? t.id,
+    volumeM3,
+    ratedPressurePa: rated,
+    workingFraction: t.working_fraction,
+    heightM: t.height === undefined ? undefined : parseLength(t.height, at('height')),
+    stirred: t.stirred,
+    baseVacuumPa: q('base_vacuum', 'pressure'),
+    leakRatePaPerS: q('leak_rate', 'pressure rate'),
+  };
+}
+
+function loadReactor(
+  r: LabFile['reactors'][number],
+  i: number,
+  w: LabWhere,
+  gaugeCtx: GaugeContext,
+): ReactorSpec {
+  const at = (key: string) => w(['reactors', i, key], `reactors[${i}].${key}`);
+  return {
+    id: r.id,
+    label: r.label ?? r.id,
+    volumeM3: parseQuantity(r.volume, 'volume', at('volume')),
+    lineVolumeM3: r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
+    fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure'), gaugeCtx),
+    temperatureK:
+      r.temperature === undefined
+        ? undefined
+        : parseQuantity(r.temperature, 'temperature', at('temperature')),
+  };
+}
+
+function loadGauge(g: LabFile['gauges'][number], i: number, w: LabWhere, gaugeCtx: GaugeContext): Gauge {
+  const at = (key: string) => w(['gauges', i, key], `gauges[${i}].${key}`);
+  const q = (key: 'full_scale' | 'minimum' | 'resolution' | 'overpressure', text: string) =>
+    parseQuantity(text, 'pressure', at(key));
+  const fullScalePa = q('full_scale', g.full_scale);
+  if (!(fullScalePa > 0))
+    fail(
+      { code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa, text: g.full_scale },
+      at('full_scale'),
+    );
+  return {
+    id: g.id,
+    label: g.label ?? g.id,
+    reference: g.reference,
+    fullScalePa,
+    minimumPa: g.minimum === undefined ? 0 : q('minimum', g.minimum),
+    accuracyOfReading: g.accuracy_pct_reading / 100,
+    accuracyOfFullScale: (g.accuracy_pct_full_scale ?? 0) / 100,
+    resolutionPa: q('resolution', g.resolution),
+    unit: g.unit,
+    overpressurePa:
+      g.overpressure === undefined
+        ? undefined
+        : parseQuantity(g.overpressure, 'pressure', at('overpressure'), gaugeCtx),
+  };
+}
+
+function loadCylinder(
+  c: LabFile['cylinders'][number],
+  i: number,
+  w: LabWhere,
+  gaugeCtx: GaugeContext,
+): GasSource {
+  const where = w(['cylinders', i], `cylinders[${i}]`);
+  const supply =
+    c.supply_pressure === undefined
+      ? undefined
+      : parseQuantity(
+          c.supply_pressure,
+          'pressure',
+          w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`),
+          gaugeCtx,
+        );
+  if ('composition' in c) {
+    const comp = parseBlend(c.composition, where);
+    return at(where, () => premix({ id: c.id, label: c.label, composition: comp, supplyPressurePa: supply }));
+  }
+  const species = at(where, () => getSpecies(c.species).key);
+  const impurities = c.impurities
+    ? parseBlend(c.impurities, w(['cylinders', i, 'impurities'], `cylinders[${i}].impurities`))
+    : undefined;
+  return at(where, () =>
+    pureCylinder({
+      id: c.id,
+      label: c.label,
+      species,
+      purity: c.purity,
+      impurities,
+      kind: c.vapour ? 'vapour' : 'cylinder',
+      supplyPressurePa: supply,
+    }),
+  );
+}
+
+/** a temperature difference: K or mK only, never an offset conversion from degC or degF */
+function kelvinDiff(text: string, where: Where, field: string): number {
+  const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(K|mK)\s*$/.exec(text);
+  if (!m) return fail({ code: 'bad-temperature-difference', text }, where);
+  const v = Number(m[1]) * (m[2] === 'mK' ? 1e-3 : 1);
+  if (!(v >= 0 && v <= 100))
+    fail(
+      {
+        code: 'out-of-range',
+        what: field,
+        value: v,
+        text,
+        allowed: '0 K to 100 K (a thermometer uncertainty or resolution)',
+      },
+      where,
+    );
+  return v;
+}
+
+function thermometerOf(lab: LabFile, w: LabWhere): LoadedLab['thermometer'] {
+  if (!lab.thermometer) return undefined;
+  const { uncertainty, resolution, settling } = lab.thermometer;
+  const field = (key: string) => `thermometer.${key}`;
+  return {
+    uncertaintyK: kelvinDiff(
+      uncertainty,
+      w(['thermometer', 'uncertainty'], field('uncertainty')),
+      field('uncertainty'),
+    ),
+    resolutionK:
+      resolution === undefined
+        ? 0
+        : kelvinDiff(resolution, w(['thermometer', 'resolution'], field('resolution')), field('resolution')),
+    settlingK:
+      settling === undefined
+        ? undefined
+        : kelvinDiff(settling, w(['thermometer', 'settling'], field('settling')), field('settling')),
+  };
+}
+
 export function loadLab(file?: string): LoadedLab {
   // the embedded profile comes pre-parsed (reading YAML costs ~20 ms of start-up); a test keeps it equal to its text
   const src: YamlSource = file
     ? readYamlFile(file)
     : { file: DEMO_LAB_NAME, data: DEMO_LAB_DATA, locate: () => ({ file: DEMO_LAB_NAME }) };
   const lab = validate(labSchema, src, (p) => keysAt(labSchema, p));
-  const w = (path: DataPath, field: string): Where => ({ ...src.locate(path), field });
+  const w: LabWhere = (path, field) => ({ ...src.locate(path), field });
   const air = lab.air !== undefined ? parseBlend(lab.air, w(['air'], 'air')) : { O2: 0.21, N2: 0.79 };
-  // the barometer first: gauge pressures elsewhere in the profile ("4 barg") are converted with it
-  const baroPa = lab.barometer
-    ? parseQuantity(lab.barometer.pressure, 'pressure', w(['barometer', 'pressure'], 'barometer.pressure'))
-    : 101325;
-  const baroU = lab.barometer
-    ? parseQuantity(
-        lab.barometer.uncertainty,
-        'pressure',
-        w(['barometer', 'uncertainty'], 'barometer.uncertainty'),
-      )
-    : 100;
-  if (!(baroPa > 0))
-    fail(
-      { code: 'not-positive', what: 'barometric pressure', value: baroPa, text: lab.barometer?.pressure },
-      w(['barometer', 'pressure'], 'barometer.pressure'),
-    );
-  const gaugeCtx = { barometricPa: lab.barometer ? baroPa : undefined };
-  const ids = new Set<string>();
-  const unique = (id: string, path: DataPath) => {
-    if (ids.has(id))
-      fail(
-        {
-          code: 'schema',
-          reason: `the id "${id}" is used twice; ids of tanks, gauges and cylinders must be unique`,
-        },
-        w(path, 'id'),
-      );
-    ids.add(id);
-  };
-  const tanks = lab.tanks.map((t, i): LoadedLab['tanks'][number] => {
-    unique(t.id, ['tanks', i, 'id']);
-    const volumeM3 = parseQuantity(t.volume, 'volume', w(['tanks', i, 'volume'], `tanks[${i}].volume`));
-    if (!(volumeM3 > 0))
-      fail(
-        { code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3, text: t.volume },
-        w(['tanks', i, 'volume'], `tanks[${i}].volume`),
-      );
-    const rated =
-      t.rating === undefined
-        ? undefined
-        : parseQuantity(t.rating, 'pressure', w(['tanks', i, 'rating'], `tanks[${i}].rating`), gaugeCtx);
-    if (rated !== undefined && !(rated > 0))
-      fail(
-        { code: 'not-positive', what: `rating of tank ${t.id}`, value: rated, text: t.rating },
-        w(['tanks', i, 'rating'], `tanks[${i}].rating`),
-      );
-    const q = (
-      key: 'height' | 'base_vacuum' | 'leak_rate',
-      dim: 'volume' | 'pressure' | 'pressure rate' | 'length',
-    ) => {
-      const text = t[key];
-      if (text === undefined) return undefined;
-      return dim === 'length'
-        ? parseLength(text, w(['tanks', i, key], `tanks[${i}].${key}`))
-        : parseQuantity(text, dim, w(['tanks', i, key], `tanks[${i}].${key}`));
-    };
-    return {
-      id: t.id,
-      label: t.label ?? t.id,
-      volumeM3,
-      ratedPressurePa: rated,
-      workingFraction: t.working_fraction,
-      heightM: q('height', 'length'),
-      stirred: t.stirred,
-      baseVacuumPa: q('base_vacuum', 'pressure'),
-      leakRatePaPerS: q('leak_rate', 'pressure rate'),
-    };
-  });
-  const reactors = lab.reactors.map((r, i): ReactorSpec => {
-    unique(r.id, ['reactors', i, 'id']);
-    const at = (key: string) => w(['reactors', i, key], `reactors[${i}].${key}`);
-    return {
-      id: r.id,
-      label: r.label ?? r.id,
-      volumeM3: parseQuantity(r.volume, 'volume', at('volume')),
-      lineVolumeM3:
-        r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
-      fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure'), gaugeCtx),
-      temperatureK:
-        r.temperature === undefined
-          ? undefined
-          : parseQuantity(r.temperature, 'temperature', at('temperature')),
-    };
-  });
-  const gauges = lab.gauges.map((g, i): Gauge => {
-    unique(g.id, ['gauges', i, 'id']);
-    const q = (key: 'full_scale' | 'minimum' | 'resolution' | 'overpressure', text: string) =>
-      parseQuantity(text, 'pressure', w(['gauges', i, key], `gauges[${i}].${key}`));
-    const fullScalePa = q('full_scale', g.full_scale);
-    if (!(fullScalePa > 0))
-      fail(
-        { code: 'not-positive', what: `full scale of gauge ${g.id}`, value: fullScalePa, text: g.full_scale },
-        w(['gauges', i, 'full_scale'], `gauges[${i}].full_scale`),
-      );
-    return {
-      id: g.id,
-      label: g.label ?? g.id,
-      reference: g.reference,
-      fullScalePa,
-      minimumPa: g.minimum === undefined ? 0 : q('minimum', g.minimum),
-      accuracyOfReading: g.accuracy_pct_reading / 100,
-      accuracyOfFullScale: (g.accuracy_pct_full_scale ?? 0) / 100,
-      resolutionPa: q('resolution', g.resolution),
-      unit: g.unit,
-      overpressurePa:
-        g.overpressure === undefined
-          ? undefined
-          : parseQuantity(
-              g.overpressure,
-              'pressure',
-              w(['gauges', i, 'overpressure'], `gauges[${i}].overpressure`),
-              gaugeCtx,
-            ),
-    };
-  });
-  const cylinders = lab.cylinders.map((c, i): GasSource => {
-    unique(c.id, ['cylinders', i, 'id']);
-    const where = w(['cylinders', i], `cylinders[${i}]`);
-    const supply =
-      c.supply_pressure === undefined
-        ? undefined
-        : parseQuantity(
-            c.supply_pressure,
-            'pressure',
-            w(['cylinders', i, 'supply_pressure'], `cylinders[${i}].supply_pressure`),
-            gaugeCtx,
-          );
-    if ('composition' in c) {
-      const comp = parseBlend(c.composition, where);
-      return at(where, () =>
-        premix({ id: c.id, label: c.label, composition: comp, supplyPressurePa: supply }),
-      );
-    }
-    const species = at(where, () => getSpecies(c.species).key);
-    const impurities = c.impurities
-      ? parseBlend(c.impurities, w(['cylinders', i, 'impurities'], `cylinders[${i}].impurities`))
-      : undefined;
-    return at(where, () =>
-      pureCylinder({
-        id: c.id,
-        label: c.label,
-        species,
-        purity: c.purity,
-        impurities,
-        kind: c.vapour ? 'vapour' : 'cylinder',
-        supplyPressurePa: supply,
-      }),
-    );
-  });
-  const coldestK =
-    lab.coldest === undefined
-      ? undefined
-      : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest'));
-  // a temperature difference: K (or degC steps) only, never an offset conversion
-  const kelvinDiff = (text: string, path: DataPath, field: string) => {
-    const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(K|mK)\s*$/.exec(text);
-    if (!m)
-      fail(
-        {
-          code: 'bad-quantity',
-          text,
-          expected: 'temperature difference',
-          reason: 'give it in K (e.g. "0.3 K")',
-        },
-        w(path, field),
-      );
-    const v = Number(m[1]) * (m[2] === 'mK' ? 1e-3 : 1);
-    if (!(v >= 0 && v <= 100))
-      fail(
-        {
-          code: 'out-of-range',
-          what: field,
-          value: v,
-          text,
-          allowed: '0 K to 100 K (a thermometer uncertainty or resolution)',
-        },
-        w(path, field),
-      );
-    return v;
-  };
-  const thermometer = lab.thermometer && {
-    uncertaintyK: kelvinDiff(
-      lab.thermometer.uncertainty,
-      ['thermometer', 'uncertainty'],
-      'thermometer.uncertainty',
-    ),
-    resolutionK:
-      lab.thermometer.resolution === undefined
-        ? 0
-        : kelvinDiff(lab.thermometer.resolution, ['thermometer', 'resolution'], 'thermometer.resolution'),
-    settlingK:
-      lab.thermometer.settling === undefined
-        ? undefined
-        : kelvinDiff(lab.thermometer.settling, ['thermometer', 'settling'], 'thermometer.settling'),
-  };
+  const baro = labBarometer(lab, w);
+  const gaugeCtx = { barometricPa: lab.barometer ? baro.pa : undefined };
+  const unique = uniqueIds(w);
+  const each = <T, R>(
+    key: 'tanks' | 'reactors' | 'gauges' | 'cylinders',
+    items: readonly (T & { id: string })[],
+    load: (x: T, i: number, w: LabWhere, g: GaugeContext) => R,
+  ) =>
+    items.map((x, i) => {
+      unique(x.id, [key, i, 'id']);
+      return load(x, i, w, gaugeCtx);
+    });
   return {
     name: lab.name,
     origin: file ?? DEMO_LAB_NAME,
     file: lab,
-    barometricPa: baroPa,
-    barometricUncertaintyPa: baroU,
+    barometricPa: baro.pa,
+    barometricUncertaintyPa: baro.uPa,
     air,
-    tanks,
-    reactors,
+    tanks: each('tanks', lab.tanks, loadTank),
+    reactors: each('reactors', lab.reactors, loadReactor),
     fillMargin: lab.fill_margin ?? 0.1,
-    gauges,
-    cylinders,
-    coldestK,
-    thermometer,
+    gauges: each('gauges', lab.gauges, loadGauge),
+    cylinders: each('cylinders', lab.cylinders, loadCylinder),
+    coldestK:
+      lab.coldest === undefined
+        ? undefined
+        : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest')),
+    thermometer: thermometerOf(lab, w),
     condensationFraction: lab.condensation_fraction,
   };
 }
@@ -351,7 +359,7 @@ export interface PlanRequest {
   /** the order was recommended by the tool, not given */
   readonly orderRecommended: boolean;
   /** how experiments are counted, when a reactor is known */
-  readonly sizing?: import('../core/index.js').SizingInput;
+  readonly sizing?: SizingInput;
   /** the experiment count the final pressure was sized for */
   readonly sizedFor?: number;
   /** the lab's record of the tank (height, stirrer, vacuum), when it came from the profile */
@@ -363,24 +371,47 @@ export interface Overrides {
   readonly barometricPa?: number;
 }
 
-/** Build the core's plan input from a recipe (file or options) and its lab profile. */
-export function buildPlanRequest(
-  rs: RecipeSource,
-  labFileOverride?: string,
-  overrides: Overrides = {},
-): PlanRequest {
-  const r = rs.recipe;
-  const W = (path: DataPath, field = path.join('.')): Where => ({
-    ...rs.locate(path),
-    field: rs.locate(path).field ?? field,
-  });
-  const lab = loadLab(labFileOverride ?? (r.lab ? resolvePath(rs.baseDir, r.lab) : undefined));
-  // gauge pressures in the recipe are converted with the barometer given now, else the lab profile's own
-  const gaugeCtx = {
-    barometricPa: overrides.barometricPa ?? (lab.file.barometer ? lab.barometricPa : undefined),
-  };
+type RecipeWhere = (path: DataPath, field?: string) => Where;
 
-  // tank and volume
+/** where a recipe field is: its line in the file, or the option that gave it */
+function recipeWhere(rs: RecipeSource): RecipeWhere {
+  return (path, field = path.join('.')) => {
+    const where = rs.locate(path);
+    return { ...where, field: where.field ?? field };
+  };
+}
+
+/** the recipe key of each field the core names in a problem */
+const RECIPE_PATH_OF_CORE_FIELD: Readonly<Record<string, DataPath>> = {
+  experiments: ['experiments', 'count'],
+  'in_tank.pressure': ['in_tank', 'pressure'],
+};
+
+/**
+ * A problem the core raised about a value of the plan (final pressure, volume, temperature,
+ * ...) pointed at the recipe line or option that gave it, with the text typed there when the
+ * core only knew the SI value. The value checks themselves are the core's.
+ */
+export function locateCoreProblem(e: ProblemError, rs: RecipeSource): ProblemError {
+  const field = e.where.field;
+  if (!field) return e;
+  const path = RECIPE_PATH_OF_CORE_FIELD[field] ?? field.split('.');
+  const where = recipeWhere(rs)(path, field);
+  let typed: unknown = rs.recipe;
+  for (const k of path)
+    typed = typeof typed === 'object' && typed !== null ? (typed as Record<string, unknown>)[k] : undefined;
+  const p = e.problem;
+  if (
+    (p.code === 'not-positive' || p.code === 'out-of-range') &&
+    p.text === undefined &&
+    typeof typed === 'string'
+  )
+    return new ProblemError({ ...p, text: typed }, where);
+  return relocate(e, where);
+}
+
+/** the tank: a lab tank, a given volume (overriding the lab tank's), and a rating for a tank given by volume */
+function resolveTank(r: RecipeFile, lab: LoadedLab, W: RecipeWhere, gaugeCtx: GaugeContext): TankSpec {
   let tank: TankSpec | undefined;
   if (r.tank !== undefined) {
     tank = lab.tanks.find((t) => t.id === r.tank);
@@ -391,9 +422,8 @@ export function buildPlanRequest(
       );
   }
   if (r.volume !== undefined) {
+    // a volume of zero or less is the core's to refuse (planner and sizing), pointed back here by locateCoreProblem
     const volumeM3 = parseQuantity(r.volume, 'volume', W(['volume']));
-    if (!(volumeM3 > 0))
-      fail({ code: 'not-positive', what: 'tank volume', value: volumeM3, text: r.volume }, W(['volume']));
     tank = tank
       ? { ...tank, volumeM3 }
       : { id: 'given-volume', label: 'tank of the given volume (no rating known)', volumeM3 };
@@ -402,22 +432,10 @@ export function buildPlanRequest(
     // a rating belongs to the tank of a given volume; a lab tank's rating is the profile's, never overridden here
     if (r.tank !== undefined)
       fail(
-        {
-          code: 'design-conflict',
-          reason:
-            `the tank ${r.tank} has its rating in the lab profile; a rating here is for ` +
-            `a tank given by its volume only`,
-        },
+        { code: 'rating-with-lab-tank', tank: r.tank },
         W([r.rating !== undefined ? 'rating' : 'working_fraction']),
       );
-    if (r.rating === undefined)
-      fail(
-        {
-          code: 'design-missing',
-          reason: 'a working fraction is a fraction of the rating: give the rating too',
-        },
-        W(['working_fraction'], 'working_fraction'),
-      );
+    if (r.rating === undefined) fail({ code: 'working-fraction-without-rating' }, W(['working_fraction']));
     const ratedPressurePa = parseQuantity(r.rating, 'pressure', W(['rating']), gaugeCtx);
     if (!(ratedPressurePa > 0))
       fail(
@@ -432,38 +450,12 @@ export function buildPlanRequest(
         workingFraction: r.working_fraction,
       };
   }
-  if (!tank)
-    fail(
-      {
-        code: 'design-missing',
-        reason:
-          `name a tank from the lab profile (${lab.tanks.map((t) => t.id).join(', ') || 'none listed'}) ` +
-          `or give a volume`,
-      },
-      W(['tank'], 'tank'),
-    );
+  if (!tank) return fail({ code: 'tank-or-volume-missing', tanks: lab.tanks.map((t) => t.id) }, W(['tank']));
+  return tank;
+}
 
-  const count = r.experiments?.count;
-  if (count !== undefined && r.pressure !== undefined) {
-    fail(
-      {
-        code: 'design-conflict',
-        reason:
-          'give the final pressure or the number of experiments, not both (the count sets the pressure)',
-      },
-      W(['experiments', 'count'], 'experiments.count'),
-    );
-  }
-  if (count === undefined && r.pressure === undefined)
-    fail(
-      {
-        code: 'design-missing',
-        reason: 'give the final pressure, or the number of experiments the batch must serve',
-      },
-      W(['pressure'], 'pressure'),
-    );
-  const temperatureK = parseQuantity(r.temperature, 'temperature', W(['temperature']));
-  // the reactor the batch serves: the recipe's, else the lab's first
+/** the reactor the batch serves: the recipe's (by id, or by volume and fill pressure), else the lab's first */
+function resolveReactor(r: RecipeFile, lab: LoadedLab, W: RecipeWhere, gaugeCtx: GaugeContext) {
   let reactor: ReactorSpec | undefined;
   const ex = r.experiments;
   if (ex?.reactor !== undefined) {
@@ -476,49 +468,125 @@ export function buildPlanRequest(
           id: ex.reactor,
           choices: lab.reactors.map((x) => x.id),
         },
-        W(['experiments', 'reactor'], 'experiments.reactor'),
+        W(['experiments', 'reactor']),
       );
   } else if (ex?.reactor_volume === undefined) reactor = lab.reactors[0];
-  if (ex?.reactor_volume !== undefined || ex?.fill_pressure !== undefined || ex?.line_volume !== undefined) {
-    const volumeM3 =
-      ex.reactor_volume !== undefined
-        ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume']))
-        : reactor?.volumeM3;
-    const fillPressurePa =
-      ex.fill_pressure !== undefined
-        ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure']), gaugeCtx)
-        : reactor?.fillPressurePa;
-    if (volumeM3 === undefined || fillPressurePa === undefined)
-      fail(
-        {
-          code: 'design-missing',
-          reason:
-            'give both the reactor volume and the fill pressure of one experiment (or a reactor from the lab profile)',
-        },
-        W(['experiments'], 'experiments'),
-      );
-    reactor = {
-      id: reactor?.id ?? 'reactor',
-      label: reactor?.label ?? 'reactor of the given volume',
-      volumeM3,
-      lineVolumeM3:
-        ex.line_volume !== undefined
-          ? parseQuantity(ex.line_volume, 'volume', W(['experiments', 'line_volume']))
-          : (reactor?.lineVolumeM3 ?? 0),
-      fillPressurePa,
-      temperatureK: reactor?.temperatureK,
-    };
+  if (ex?.reactor_volume === undefined && ex?.fill_pressure === undefined && ex?.line_volume === undefined)
+    return reactor;
+  const volumeM3 =
+    ex.reactor_volume !== undefined
+      ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume']))
+      : reactor?.volumeM3;
+  const fillPressurePa =
+    ex.fill_pressure !== undefined
+      ? parseQuantity(ex.fill_pressure, 'pressure', W(['experiments', 'fill_pressure']), gaugeCtx)
+      : reactor?.fillPressurePa;
+  if (volumeM3 === undefined || fillPressurePa === undefined)
+    return fail({ code: 'reactor-incomplete' }, W(['experiments']));
+  return {
+    id: reactor?.id ?? 'reactor',
+    label: reactor?.label ?? 'reactor of the given volume',
+    volumeM3,
+    lineVolumeM3:
+      ex.line_volume !== undefined
+        ? parseQuantity(ex.line_volume, 'volume', W(['experiments', 'line_volume']))
+        : (reactor?.lineVolumeM3 ?? 0),
+    fillPressurePa,
+    temperatureK: reactor?.temperatureK,
+  };
+}
+
+/** the core's design input from the recipe's mixture: explicit fractions, or phi with one dilution measure */
+function designInputOf(m: RecipeFile['mixture'], lab: LoadedLab, W: RecipeWhere): DesignInput {
+  if ('fractions' in m)
+    return { kind: 'fractions', fractions: parseBlend(m.fractions, W(['mixture', 'fractions'])) };
+  const bases = (['dilution', 'diluent_ratio', 'fuel_fraction'] as const).filter((k) => m[k] !== undefined);
+  if (bases.length > 1) fail({ code: 'dilution-measures', given: bases }, W(['mixture', bases[1]]));
+  const diluent = m.diluent === undefined ? {} : parseBlend(m.diluent, W(['mixture', 'diluent']));
+  const basisKey = bases[0];
+  const basis =
+    basisKey === 'diluent_ratio'
+      ? ({ kind: 'diluent-ratio', value: m.diluent_ratio! } as const)
+      : basisKey === 'fuel_fraction'
+        ? ({ kind: 'fuel-fraction', value: m.fuel_fraction! } as const)
+        : ({ kind: 'dilution', value: m.dilution ?? 0 } as const);
+  if (!basisKey && Object.keys(diluent).length > 0)
+    fail({ code: 'diluent-amount-missing' }, W(['mixture', 'diluent']));
+  return {
+    kind: 'phi',
+    fuel: parseBlend(m.fuel, W(['mixture', 'fuel'])),
+    oxidizer: parseBlend(m.oxidizer, W(['mixture', 'oxidizer']), lab.air),
+    diluent,
+    phi: m.phi,
+    basis,
+  };
+}
+
+function designOf(r: RecipeFile, lab: LoadedLab, W: RecipeWhere) {
+  const input = designInputOf(r.mixture, lab, W);
+  try {
+    return designMixture(input);
+  } catch (e) {
+    // the core names the design field (phi, dilution, fuel, ...): point at it in the recipe
+    if (e instanceof ProblemError)
+      throw relocate(e, W(e.where.field ? ['mixture', e.where.field] : ['mixture']));
+    throw e;
   }
-  if (count !== undefined && !reactor)
-    fail(
-      {
-        code: 'design-missing',
-        reason:
-          'sizing for a number of experiments needs a reactor: name one from the lab ' +
-          'profile or give its volume and fill pressure',
-      },
-      W(['experiments'], 'experiments'),
-    );
+}
+
+/** the cylinders to fill from (the recipe's, else the lab's best match) in the recipe's order, if given */
+function sourcesOf(r: RecipeFile, lab: LoadedLab, composition: Fractions, W: RecipeWhere): GasSource[] {
+  const sources = r.sources
+    ? r.sources.map((id, i) => {
+        const c = lab.cylinders.find((x) => x.id === id);
+        if (!c)
+          fail(
+            { code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) },
+            W(['sources', i], `sources[${i}]`),
+          );
+        return c;
+      })
+    : chooseSources(composition, lab.cylinders);
+  if (!r.order) return sources;
+  try {
+    return orderSources(sources, r.order, resolveSpeciesKey);
+  } catch (e) {
+    if (e instanceof ProblemError) throw relocate(e, W(['order']));
+    throw e;
+  }
+}
+
+/** the final pressure or the number of experiments: one of them, not both (the count sets the pressure) */
+function checkPressureOrCount(r: RecipeFile, W: RecipeWhere): void {
+  const count = r.experiments?.count;
+  if (count !== undefined && r.pressure !== undefined)
+    fail({ code: 'pressure-and-count' }, W(['experiments', 'count']));
+  if (count === undefined && r.pressure === undefined) fail({ code: 'pressure-missing' }, W(['pressure']));
+}
+
+/** the final pressure: given, or the one that serves the number of experiments */
+function finalPressure(
+  r: RecipeFile,
+  rs: RecipeSource,
+  sizing: SizingInput | undefined,
+  gaugeCtx: GaugeContext,
+): number {
+  const W = recipeWhere(rs);
+  const count = r.experiments?.count;
+  // a final pressure of zero or less is the core's to refuse (the planner), pointed back here by planFrom
+  if (count === undefined) return parseQuantity(r.pressure!, 'pressure', W(['pressure']), gaugeCtx);
+  if (!sizing) return fail({ code: 'reactor-missing' }, W(['experiments']));
+  try {
+    return finalPressureForExperiments(sizing, count).pressurePa;
+  } catch (e) {
+    if (e instanceof ProblemError) throw locateCoreProblem(e, rs);
+    throw e;
+  }
+}
+
+/** the recipe's temperature, above absolute zero (the model's range is the planner's to check) */
+function temperatureOf(r: RecipeFile, W: RecipeWhere): number {
+  const temperatureK = parseQuantity(r.temperature, 'temperature', W(['temperature']));
   if (!(temperatureK > 0))
     fail(
       {
@@ -530,114 +598,43 @@ export function buildPlanRequest(
       },
       W(['temperature']),
     );
+  return temperatureK;
+}
 
-  // design
-  const m = r.mixture;
-  let designInput: DesignInput;
-  if ('fractions' in m) {
-    designInput = { kind: 'fractions', fractions: parseBlend(m.fractions, W(['mixture', 'fractions'])) };
-  } else {
-    const bases = (['dilution', 'diluent_ratio', 'fuel_fraction'] as const).filter((k) => m[k] !== undefined);
-    if (bases.length > 1)
-      fail(
-        {
-          code: 'design-conflict',
-          reason: `give only one of dilution, diluent_ratio, fuel_fraction (got ${bases.join(' and ')})`,
-        },
-        W(['mixture', bases[1]]),
-      );
-    const diluent = m.diluent === undefined ? {} : parseBlend(m.diluent, W(['mixture', 'diluent']));
-    const basisKey = bases[0];
-    const basis =
-      basisKey === 'diluent_ratio'
-        ? ({ kind: 'diluent-ratio', value: m.diluent_ratio! } as const)
-        : basisKey === 'fuel_fraction'
-          ? ({ kind: 'fuel-fraction', value: m.fuel_fraction! } as const)
-          : ({ kind: 'dilution', value: m.dilution ?? 0 } as const);
-    if (!basisKey && Object.keys(diluent).length > 0) {
-      fail(
-        {
-          code: 'design-missing',
-          reason: 'a diluent is named but not how much: give dilution, diluent_ratio or fuel_fraction',
-        },
-        W(['mixture', 'diluent']),
-      );
-    }
-    designInput = {
-      kind: 'phi',
-      fuel: parseBlend(m.fuel, W(['mixture', 'fuel'])),
-      oxidizer: parseBlend(m.oxidizer, W(['mixture', 'oxidizer']), lab.air),
-      diluent,
-      phi: m.phi,
-      basis,
-    };
-  }
-  let design;
-  try {
-    design = designMixture(designInput);
-  } catch (e) {
-    // the core names the design field (phi, dilution, fuel, ...): point at it in the recipe
-    if (e instanceof ProblemError)
-      throw relocate(e, W(e.where.field ? ['mixture', e.where.field] : ['mixture']));
-    throw e;
-  }
-
-  // sources
-  let sources: GasSource[];
-  if (r.sources) {
-    sources = r.sources.map((id, i) => {
-      const c = lab.cylinders.find((x) => x.id === id);
-      if (!c)
-        fail(
-          { code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) },
-          W(['sources', i], `sources[${i}]`),
-        );
-      return c;
-    });
-  } else {
-    sources = chooseSources(design.composition, lab.cylinders);
-  }
-  if (r.order) {
-    try {
-      sources = orderSources(sources, r.order, resolveSpeciesKey);
-    } catch (e) {
-      if (e instanceof ProblemError) throw relocate(e, W(['order']));
-      throw e;
-    }
-  }
-
-  let inTank: PlanInput['inTank'];
-  if (r.in_tank) {
-    inTank = {
-      composition: parseBlend(r.in_tank.composition, W(['in_tank', 'composition'])),
-      pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure']), gaugeCtx),
-    };
-  }
-  const tolerance = { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 };
-  const sizingInput = reactor && {
+/** Build the core's plan input from a recipe (file or options) and its lab profile. */
+export function buildPlanRequest(
+  rs: RecipeSource,
+  labFileOverride?: string,
+  overrides: Overrides = {},
+): PlanRequest {
+  const r = rs.recipe;
+  const W = recipeWhere(rs);
+  const lab = loadLab(labFileOverride ?? (r.lab ? resolvePath(rs.baseDir, r.lab) : undefined));
+  // gauge pressures in the recipe are converted with the barometer given now, else the lab profile's own
+  const gaugeCtx = {
+    barometricPa: overrides.barometricPa ?? (lab.file.barometer ? lab.barometricPa : undefined),
+  };
+  const tank = resolveTank(r, lab, W, gaugeCtx);
+  checkPressureOrCount(r, W);
+  const temperatureK = temperatureOf(r, W);
+  const reactor = resolveReactor(r, lab, W, gaugeCtx);
+  if (r.experiments?.count !== undefined && !reactor) fail({ code: 'reactor-missing' }, W(['experiments']));
+  const design = designOf(r, lab, W);
+  const sources = sourcesOf(r, lab, design.composition, W);
+  const inTank: PlanInput['inTank'] = r.in_tank && {
+    composition: parseBlend(r.in_tank.composition, W(['in_tank', 'composition'])),
+    pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure']), gaugeCtx),
+  };
+  const sizing: SizingInput | undefined = reactor && {
     composition: design.composition,
     tankVolumeM3: tank.volumeM3,
     temperatureK,
     reactor,
     margin: lab.fillMargin,
   };
-  let pressurePa: number;
-  if (count !== undefined) {
-    pressurePa = at(
-      W(['experiments', 'count'], 'experiments.count'),
-      () => finalPressureForExperiments(sizingInput!, count).pressurePa,
-    );
-  } else {
-    pressurePa = parseQuantity(r.pressure!, 'pressure', W(['pressure']), gaugeCtx);
-    if (!(pressurePa > 0))
-      fail(
-        { code: 'not-positive', what: 'final pressure', value: pressurePa, text: r.pressure },
-        W(['pressure']),
-      );
-  }
   const input: PlanInput = {
     design,
-    finalPressurePa: pressurePa,
+    finalPressurePa: finalPressure(r, rs, sizing, gaugeCtx),
     temperatureK,
     tank,
     sources,
@@ -649,15 +646,15 @@ export function buildPlanRequest(
       barometricPa: overrides.barometricPa ?? lab.barometricPa,
       barometricUncertaintyPa: lab.barometricUncertaintyPa,
     },
-    tolerance,
+    tolerance: { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 },
   };
   return {
     input,
     lab,
     recipe: r,
     orderRecommended: !r.order,
-    sizing: sizingInput,
-    sizedFor: count,
+    sizing,
+    sizedFor: r.experiments?.count,
     tankInfo: lab.tanks.find((t) => t.id === tank.id),
   };
 }

@@ -19,16 +19,7 @@ export function findChromium(): string | undefined {
 export async function writePdf(html: string, output: string, force: boolean): Promise<void> {
   const chromium = findChromium();
   if (!chromium) {
-    fail(
-      {
-        code: 'file-unreadable',
-        reason:
-          'Chromium is not installed, so no PDF can be made here. Write the sheet with ' +
-          '--format html and print it from any browser (File > Print, margins "default"), ' +
-          'or install Chromium (apt-get install chromium)',
-      },
-      { field: '--format pdf' },
-    );
+    fail({ code: 'pdf-no-browser' }, { field: '--format pdf' });
   }
   const dir = mkdtempSync(join(tmpdir(), 'mixwright-pdf-'));
   try {
@@ -57,17 +48,12 @@ export async function writePdf(html: string, output: string, force: boolean): Pr
     try {
       bytes = readFileSync(pdf);
     } catch {
-      return fail(
-        {
-          code: 'file-unreadable',
-          reason: `Chromium did not write a PDF (exit ${r.status}): ${(r.stderr || '')
-            .split('\n')
-            .filter((l) => /error/i.test(l))
-            .slice(0, 2)
-            .join(' ')}`,
-        },
-        { field: '--format pdf' },
-      );
+      const detail = (r.stderr || '')
+        .split('\n')
+        .filter((l) => /error/i.test(l))
+        .slice(0, 2)
+        .join(' ');
+      return fail({ code: 'pdf-not-made', status: r.status, detail }, { field: '--format pdf' });
     }
     writeFileAtomic(output, bytes, force);
   } finally {

@@ -1,6 +1,6 @@
 /** Turn zod issues into our Problems, with file, line and field. */
 import type { z } from 'zod';
-import { fail, formatNumber } from '../core/index.js';
+import { fail, type FieldIssue, type ShownValue } from '../core/index.js';
 import type { YamlSource } from './yaml-file.js';
 
 export function fieldName(path: readonly PropertyKey[]): string {
@@ -36,72 +36,53 @@ export function closestKey(key: string, allowed: readonly string[]): string | un
   return best && best.d <= Math.max(1, Math.floor(k.length / 3)) ? best.a : undefined;
 }
 
-/** a value for a message: short, and a number without float noise */
-function shown(v: unknown): string {
-  if (typeof v === 'number') return formatNumber(v);
-  if (typeof v === 'string') return `"${v.length > 40 ? `${v.slice(0, 40)}...` : v}"`;
-  if (v === null) return 'null (an empty value)';
-  if (Array.isArray(v)) return 'a list';
-  if (typeof v === 'object') return 'a map of keys';
-  return String(v);
+/** a value as a message shows it: short, a number as it is */
+function shown(v: unknown): ShownValue {
+  if (typeof v === 'number') return { type: 'number', value: v };
+  if (typeof v === 'string') return { type: 'text', value: v.length > 40 ? `${v.slice(0, 40)}...` : v };
+  if (v === null) return { type: 'null' };
+  if (Array.isArray(v)) return { type: 'list' };
+  if (typeof v === 'object') return { type: 'map' };
+  return { type: 'other', value: String(v) };
 }
 
-function typeName(expected: string): string {
-  switch (expected) {
-    case 'string':
-      return 'a text';
-    case 'number':
-      return 'a number';
-    case 'int':
-      return 'a whole number';
-    case 'boolean':
-      return 'true or false';
-    case 'array':
-      return 'a list';
-    case 'object':
-    case 'record':
-      return 'a map of keys';
-    default:
-      return `a ${expected}`;
-  }
-}
-
-/** our wording of a zod issue: what is wrong with the field, and what to write instead */
-function reasonOf(issue: z.core.$ZodIssue, field: string, hint: string | undefined): string {
+/** what is wrong with the field, as a typed issue (worded by describeProblem) */
+function issueOf(issue: z.core.$ZodIssue, hint: string | undefined): FieldIssue {
   const input = (issue as { input?: unknown }).input;
   switch (issue.code) {
     case 'invalid_type':
-      if (input === undefined)
-        return `the required field "${field}" is missing` + (hint ? `; it is the ${hint}` : '');
+      if (input === undefined) return { kind: 'missing', hint };
       if (
         issue.expected === 'string' &&
         typeof input === 'number' &&
         hint &&
         /a number and a unit/.test(hint)
-      ) {
-        return `${field} is the bare number ${shown(input)}; it needs a unit (${hint})`;
-      }
-      return `${field} must be ${typeName(issue.expected)}, not ${shown(input)}` + (hint ? ` (${hint})` : '');
+      )
+        return { kind: 'bare-number', value: input, hint };
+      return { kind: 'wrong-type', expected: issue.expected, got: shown(input), hint };
     case 'too_big':
-      return (
-        `${field} = ${shown(input)} is too large; the allowed range is ${issue.inclusive ? 'at most' : 'below'} ` +
-        `${formatNumber(Number(issue.maximum))}` +
-        (hint ? ` (${hint})` : '')
-      );
+      return {
+        kind: 'too-large',
+        got: shown(input),
+        limit: Number(issue.maximum),
+        inclusive: Boolean(issue.inclusive),
+        hint,
+      };
     case 'too_small':
-      if (issue.origin === 'string' || issue.origin === 'array')
-        return `${field} is empty; give a value` + (hint ? ` (${hint})` : '');
-      return (
-        `${field} = ${shown(input)} is too small; the allowed range is ${issue.inclusive ? 'at least' : 'above'} ` +
-        `${formatNumber(Number(issue.minimum))}` +
-        (hint ? ` (${hint})` : '')
-      );
+      if (issue.origin === 'string' || issue.origin === 'array') return { kind: 'empty', hint };
+      return {
+        kind: 'too-small',
+        got: shown(input),
+        limit: Number(issue.minimum),
+        inclusive: Boolean(issue.inclusive),
+        hint,
+      };
     case 'invalid_value':
-      return `${field} = ${shown(input)} is not one of the choices: ${issue.values.map((v) => String(v)).join(', ')}`;
+      return { kind: 'not-a-choice', got: shown(input), choices: issue.values.map((v) => String(v)) };
     case 'invalid_union':
-      return `${field} has neither accepted form; see \`mixwright schema recipe\``;
+      return { kind: 'no-form' };
     default:
-      return `${field}: ${issue.message}`;
+      return { kind: 'library', message: issue.message };
   }
 }
 
@@ -140,9 +121,9 @@ export function validate<T>(
   const where = src.locate(path);
   // the field as the user knows it: the option (--tolerance) on the command line, the key path in a file
   const field = where.field ?? (fieldName(path) || '(top level)');
-  let reason = reasonOf(issue, field, hintAt(schema, path));
+  let fieldIssue = issueOf(issue, hintAt(schema, path));
   // a missing field next to an unknown key is most often a misspelling: name both
-  if (issue.code === 'invalid_type' && (issue as { input?: unknown }).input === undefined) {
+  if (fieldIssue.kind === 'missing') {
     const parent = fullPath.slice(0, -1);
     const same = (a: readonly PropertyKey[]) =>
       a.length === parent.length && a.every((p, k) => p === parent[k]);
@@ -154,12 +135,15 @@ export function validate<T>(
     if (keys.length) {
       const wanted = String(path[path.length - 1]);
       const close = keys.find((k) => closestKey(k, [wanted]) !== undefined);
-      reason += close
-        ? `; the key "${close}" is there instead - did you mean "${wanted}"?`
-        : `; there is an unknown key "${keys[0]}" (allowed here: ${allowedKeysAt(path.slice(0, -1)).join(', ')})`;
+      fieldIssue = close
+        ? { ...fieldIssue, misspelled: { key: close, wanted } }
+        : { ...fieldIssue, unknown: { key: keys[0], allowed: allowedKeysAt(path.slice(0, -1)) } };
     }
   }
-  return fail({ code: 'schema', reason }, { ...where, field: where.field ?? fieldName(path) });
+  return fail(
+    { code: 'invalid-field', field, issue: fieldIssue },
+    { ...where, field: where.field ?? fieldName(path) },
+  );
 }
 
 interface AnyDef {

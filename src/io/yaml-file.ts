@@ -1,7 +1,7 @@
 /** Read a YAML file and keep the way back from a data path to its line and column. */
 import { LineCounter, parseDocument, isCollection, isMap, isScalar, visit, type Document } from 'yaml';
 import { readTextFile } from './read-text.js';
-import { fail, type Where } from '../core/index.js';
+import { fail, type Where, type YamlFault } from '../core/index.js';
 
 /** the most alias expansions a file may use (yaml's own default guard, stated here) */
 const MAX_ALIAS_COUNT = 100;
@@ -22,7 +22,7 @@ export function parseYamlText(text: string, file: string): YamlSource {
     const e = doc.errors[0];
     const pos = lineCounter.linePos(e.pos[0]);
     fail(
-      { code: 'yaml-syntax', reason: e.message.split('\n')[0] },
+      { code: 'yaml-syntax', fault: { kind: 'parser', message: e.message.split('\n')[0] } },
       { file, line: pos.line, column: pos.col },
     );
   }
@@ -34,10 +34,7 @@ export function parseYamlText(text: string, file: string): YamlSource {
         const r = (pair.key as { range?: [number, number, number] }).range;
         const pos = r ? lineCounter.linePos(r[0]) : undefined;
         fail(
-          {
-            code: 'yaml-syntax',
-            reason: 'a key is a list or map; keys must be plain names such as "volume"',
-          },
+          { code: 'yaml-syntax', fault: { kind: 'collection-key' } },
           { file, line: pos?.line, column: pos?.col },
         );
       }
@@ -50,15 +47,12 @@ export function parseYamlText(text: string, file: string): YamlSource {
     data = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (e) {
     const msg = (e as Error).message;
-    const reason = /alias count/i.test(msg)
-      ? `the file expands its aliases (*name) more than ${MAX_ALIAS_COUNT} times, ` +
-        `which would make it far larger than it looks; write the values out, or use ` +
-        `fewer aliases`
+    const fault: YamlFault = /alias count/i.test(msg)
+      ? { kind: 'too-many-aliases', limit: MAX_ALIAS_COUNT }
       : /unresolved alias/i.test(msg)
-        ? `an alias (*${/: (.*)$/.exec(msg)?.[1] ?? 'name'}) refers to no anchor (&name) ` +
-          `set before it; define the anchor first, or write the value out`
-        : `the file cannot be read as data (${msg.split('\n')[0]})`;
-    return fail({ code: 'yaml-syntax', reason }, { file });
+        ? { kind: 'unresolved-alias', alias: /: (.*)$/.exec(msg)?.[1] ?? 'name' }
+        : { kind: 'not-data', message: msg.split('\n')[0] };
+    return fail({ code: 'yaml-syntax', fault }, { file });
   }
   const locate = (path: DataPath, key?: string): Where => {
     for (let n = path.length; n >= 0; n--) {

@@ -28,7 +28,7 @@ describe('the output file of sheet', () => {
   it('-o FOLDER --force is refused (a folder is never replaced) and nothing is written', async () => {
     const d = tmp();
     mkdirSync(join(d, 'out.html'));
-    refused(await runCli(['sheet', RECIPE, '-o', join(d, 'out.html'), '--force']), 'file-unwritable');
+    refused(await runCli(['sheet', RECIPE, '-o', join(d, 'out.html'), '--force']), 'write-failed');
     expect(readdirSync(d)).toEqual(['out.html']);
     expect(readdirSync(join(d, 'out.html'))).toEqual([]);
   });
@@ -36,13 +36,13 @@ describe('the output file of sheet', () => {
     const d = tmp();
     symlinkSync(join(d, 'missing.md'), join(d, 'x.md'));
     const r = await runCli(['sheet', RECIPE, '-o', join(d, 'x.md')]);
-    refused(r, 'file-unwritable');
+    refused(r, 'write-failed');
     expect(r.stderr).toContain('symbolic link');
     expect(r.stdout).not.toContain('wrote');
   });
   it('a missing folder is named', async () => {
     const r = await runCli(['sheet', RECIPE, '-o', join(tmp(), 'nope', 's.md')]);
-    refused(r, 'file-unwritable');
+    refused(r, 'write-failed');
     expect(r.stderr).toContain('does not exist');
   });
   it('the format comes from the extension of -o; an unknown extension or a disagreeing --format is refused', async () => {
@@ -54,9 +54,9 @@ describe('the output file of sheet', () => {
     expect(txt.code, txt.stderr).toBe(0);
     expect(readFileSync(join(d, 's.txt'), 'utf8')).not.toMatch(/<html/i);
     const docx = await runCli(['sheet', RECIPE, '-o', join(d, 's.docx')]);
-    refused(docx, 'schema');
+    refused(docx, 'format-unknown');
     expect(docx.stderr).toContain('.docx');
-    refused(await runCli(['sheet', RECIPE, '--format', 'html', '-o', join(d, 's.pdf')]), 'design-conflict');
+    refused(await runCli(['sheet', RECIPE, '--format', 'html', '-o', join(d, 's.pdf')]), 'format-mismatch');
     expect(readdirSync(d).sort()).toEqual(['s.md', 's.txt']);
   });
 });
@@ -129,8 +129,8 @@ describe('input people type', () => {
     expect(JSON.parse(ok.stdout).findings.map((f: { code: string }) => f.code)).not.toContain(
       'tank-rating-unknown',
     );
-    refused(await runCli([...inline, '--working-fraction', '0.9']), 'design-missing');
-    refused(await runCli(['plan', RECIPE, '--rating', '4 bar']), 'design-conflict');
+    refused(await runCli([...inline, '--working-fraction', '0.9']), 'working-fraction-without-rating');
+    refused(await runCli(['plan', RECIPE, '--rating', '4 bar']), 'rating-with-lab-tank');
   });
   it('a batch too small for one experiment is a warning finding', async () => {
     const r = await runCli(['plan', RECIPE, '--pressure', '42 Torr', '--json']);
@@ -198,7 +198,7 @@ describe('check: readings as people write them', () => {
 
 describe('names the lookups must not find', () => {
   it('schema constructor, species constructor and --fuel __proto__ are refused as unknown', async () => {
-    refused(await runCli(['schema', 'constructor']), 'schema');
+    refused(await runCli(['schema', 'constructor']), 'unknown-schema');
     refused(await runCli(['species', 'constructor']), 'unknown-species');
     refused(await runCli(['plan', RECIPE, '--fuel', '__proto__']), 'unknown-species');
     refused(await runCli(['plan', RECIPE, '--pressure', '1 constructor']), 'bad-quantity');

@@ -222,7 +222,7 @@ describe('bad input: exit 2, one message naming what and where, never a stack tr
     [
       'options missing without a recipe',
       ['plan', '--fuel', 'CH4'],
-      'design-missing',
+      'options-missing',
       /give a recipe file, or on the command line: --fuel, --oxidizer and --phi/,
     ],
     [

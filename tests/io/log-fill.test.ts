@@ -334,7 +334,7 @@ describe('writes that fail (injected in node:fs)', () => {
     const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'md', '-o', link]);
     expect(r.code).toBe(2);
     // the command refuses before any work (src/cli/program.ts); writeFileAtomic refuses the same on its own (next test)
-    expect(r.stderr).toMatch(/a symbolic link of that name exists; add --force/);
+    expect(r.stderr).toMatch(/a symbolic link of that name exists \(it may point nowhere\); add --force/);
     expect(existsSync(join(dir, 'missing.md'))).toBe(false);
     const forced = await runCli([
       'sheet',
@@ -359,7 +359,7 @@ describe('writes that fail (injected in node:fs)', () => {
       '--force',
     ]);
     expect(f.code).toBe(2);
-    expect(f.stderr).toMatch(/it is a folder/);
+    expect(f.stderr).toMatch(/the name is a folder/);
   });
 });
 
@@ -375,7 +375,7 @@ describe('writeFileAtomic on its own', () => {
       err = e;
     }
     expect(err).toBeInstanceOf(ProblemError);
-    expect(JSON.stringify((err as ProblemError).problem)).toMatch(
+    expect(describeProblem((err as ProblemError).problem)).toMatch(
       /symbolic link of that name exists \(it may point nowhere\)/,
     );
     expect(existsSync(join(dir, 'nowhere.md'))).toBe(false);

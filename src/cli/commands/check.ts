@@ -1,0 +1,109 @@
+/** `mixwright check`: re-check a batch, or a folder of batches, from what was logged. */
+import type { Command } from 'commander';
+import { describeProblemAt, ProblemError } from '../../core/index.js';
+import { checkFile, type CheckReport } from '../../io/check.js';
+import { checkToJson, checkToText, folderSummary } from '../../report/check-report.js';
+import { VERSION } from '../../version.js';
+import { EXIT, ExitSignal, type Cli } from '../context.js';
+import { numberOption, parseBarometer, parseTrials } from '../numbers.js';
+import { isDirectory, listLogs } from '../output.js';
+
+interface CheckOptions {
+  recipe?: string;
+  lab?: string;
+  json?: boolean;
+  trials?: string;
+  seed: string;
+  barometer?: string;
+}
+type CheckOpts = Parameters<typeof checkFile>[1];
+type Row = { file: string; report: CheckReport } | { file: string; error: string };
+
+/** each file of the folder checked on its own: a refusal is a row of the summary, not the end */
+async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): Promise<Row[]> {
+  const rows: Row[] = [];
+  for (const f of files) {
+    try {
+      // --barometer is for CSV readings; a log in the folder keeps its own
+      rows.push({
+        file: f,
+        report: await checkFile(f, /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined }),
+      });
+    } catch (e) {
+      if (!(e instanceof ProblemError)) throw e;
+      rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
+      const where = e.where.file ? e.where : { ...e.where, file: f };
+      cli.err(`mixwright: ${describeProblemAt(e.problem, where)}\n  (error code: ${e.problem.code})\n`);
+    }
+  }
+  return rows;
+}
+
+async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: CheckOpts): Promise<void> {
+  const files = listLogs(target);
+  if (files.length === 0) throw new ProblemError({ code: 'no-logs-in-folder' }, { file: target });
+  const rows = await checkEach(cli, files, opts);
+  if (o.json) {
+    const json = rows.map((r) =>
+      'report' in r
+        ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) }
+        : r,
+    );
+    cli.out(JSON.stringify(json, null, 2) + '\n');
+  } else cli.out(folderSummary(rows));
+  const failed = rows.filter((r) => 'error' in r).length;
+  if (failed) {
+    cli.err(`mixwright: ${failed} of ${rows.length} files in ${target} could not be checked (above)\n`);
+    throw new ExitSignal(EXIT.input);
+  }
+  if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail'))
+    throw new ExitSignal(EXIT.outOfTolerance);
+  // a reading past a tank's working limit or a gauge's range stands beside any verdict
+  if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger')))
+    throw new ExitSignal(EXIT.danger);
+}
+
+async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
+  const folder = isDirectory(target);
+  const opts: CheckOpts = {
+    trials: parseTrials(o.trials, folder ? 0 : 200000, 'explain'),
+    seed: numberOption(o.seed, '--seed'),
+    recipeFile: o.recipe,
+    labFile: o.lab,
+    barometricPa: o.barometer === undefined ? undefined : parseBarometer(o.barometer),
+  };
+  if (folder) return checkFolder(cli, target, o, opts);
+  const report = await checkFile(target, opts);
+  if (o.json) cli.out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
+  else cli.out(checkToText(report));
+  if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
+  if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
+}
+
+export function registerCheck(program: Command, cli: Cli): void {
+  program
+    .command('check')
+    .description(
+      're-check a batch from its logged fills: composition, phi and dilution with ' +
+        'a GUM and Monte Carlo uncertainty budget, against the design',
+    )
+    .argument('<log>', 'batch log (.jsonl), CSV readings (species,pressure,temperature), or a folder of them')
+    .option(
+      '--recipe <file>',
+      'the design the CSV readings were filled to (its lab profile, cylinders and tolerance)',
+    )
+    .option('--lab <file>', 'lab profile for CSV readings (gauges, barometer, thermometer)')
+    .option('--json', 'print one JSON object')
+    .option(
+      '--trials <n>',
+      'Monte Carlo trials, 100000 to 10000000 (default 200000 for one log; a folder ' +
+        'is checked by GUM alone unless given)',
+    )
+    .option('--seed <n>', 'seed of the Monte Carlo generator', '1')
+    .option(
+      '--barometer <quantity>',
+      'barometric pressure at the fill, for CSV readings of gauge-referenced sensors ' +
+        'and gauge units such as "psig", e.g. "752.3 Torr" (default: the lab profile)',
+    )
+    .action((target: string, o: CheckOptions) => check(cli, target, o));
+}

@@ -1,0 +1,52 @@
+/** `mixwright fill`: the guided fill at the manifold (interactive; the screens load only here). */
+import type { Command } from 'commander';
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { ProblemError } from '../../core/index.js';
+import { createLog, readLog } from '../../io/batch-log.js';
+import { headerFromPlan } from '../../io/check.js';
+import { fillEnded, fromTui, type Cli } from '../context.js';
+import { addDesignOptions, type DesignValues } from '../design-options.js';
+import { planFrom } from '../plan-from.js';
+
+type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string };
+
+/** continue an interrupted fill from its log: the design is the log's own */
+async function resume(cli: Cli, recipeFile: string | undefined, logFile: string): Promise<void> {
+  if (recipeFile) throw new ProblemError({ code: 'resume-with-recipe' }, { field: '--resume' });
+  const tui = await import('../../tui/run.js');
+  const log = readLog(logFile);
+  if (log.closed) throw new ProblemError({ code: 'log-closed' }, { file: logFile });
+  for (const w of log.warnings) cli.err(`mixwright: ${logFile}: ${w}\n`);
+  fillEnded(cli, await fromTui(() => tui.runFill({ header: log.header, logFile, log })), logFile);
+}
+
+async function fill(cli: Cli, recipeFile: string | undefined, o: FillOptions): Promise<void> {
+  if (!cli.isTTY) throw new ProblemError({ code: 'needs-terminal', command: 'fill' }, { field: 'fill' });
+  if (o.resume) return resume(cli, recipeFile, o.resume);
+  const tui = await import('../../tui/run.js');
+  const { plan, req } = planFrom(recipeFile, o);
+  const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
+  const id = o.batch ?? `${req.recipe.id}-${stamp}`;
+  if (!/^[A-Za-z0-9._-]+$/.test(id))
+    throw new ProblemError({ code: 'bad-batch-id', id }, { field: '--batch' });
+  mkdirSync(o.dir, { recursive: true });
+  const file = join(o.dir, `${id}.jsonl`);
+  createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
+  fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+}
+
+export function registerFill(program: Command, cli: Cli): void {
+  addDesignOptions(
+    program
+      .command('fill')
+      .description(
+        'guided fill at the manifold: one step at a time, each reading logged at ' +
+          'once, the rest re-targeted (interactive)',
+      ),
+  )
+    .option('--resume <log>', 'continue an interrupted fill from its batch log')
+    .option('--batch <id>', 'batch id (default: recipe id and date and time)')
+    .option('--dir <folder>', 'folder of the batch logs', 'batches')
+    .action((recipeFile: string | undefined, o: FillOptions) => fill(cli, recipeFile, o));
+}

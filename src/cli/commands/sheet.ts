@@ -1,0 +1,76 @@
+/** `mixwright sheet`: the printable fill checklist. */
+import { Option, type Command } from 'commander';
+import { mixingEstimate, worstSeverity } from '../../core/index.js';
+import { buildSheetModel } from '../../report/sheet-model.js';
+import { sheetToHtml, sheetToMarkdown, sheetToText } from '../../report/sheet-render.js';
+import { VERSION } from '../../version.js';
+import { EXIT, ExitSignal, type Cli } from '../context.js';
+import { addDesignOptions, type DesignValues } from '../design-options.js';
+import { checkOutputTarget, emitDocument, sheetFormat } from '../output.js';
+import { planFrom } from '../plan-from.js';
+
+type SheetOptions = DesignValues & {
+  format?: string;
+  output?: string;
+  force?: boolean;
+  paper: 'a4' | 'letter';
+  batch?: string;
+};
+
+async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions): Promise<void> {
+  const format = sheetFormat(o.format, o.output);
+  if (o.output) checkOutputTarget(o.output, Boolean(o.force));
+  const { plan, req, unit, meta } = planFrom(recipeFile, o);
+  const h = req.tankInfo?.heightM;
+  const mixing = h
+    ? mixingEstimate(
+        plan.composition,
+        plan.temperatureK,
+        plan.final.pressurePa,
+        h,
+        Boolean(req.tankInfo?.stirred),
+      )
+    : undefined;
+  const model = buildSheetModel(plan, {
+    recipe: req.recipe,
+    labName: req.lab.name,
+    orderRecommended: req.orderRecommended,
+    unit,
+    batchId: o.batch,
+    version: VERSION,
+    paper: o.paper,
+    mixing,
+    barometer: meta.barometer,
+  });
+  const render = () =>
+    format === 'md' ? sheetToMarkdown(model) : format === 'txt' ? sheetToText(model) : sheetToHtml(model);
+  await emitDocument(
+    cli,
+    { format, output: o.output, force: Boolean(o.force), example: 'fill.pdf' },
+    render,
+    () => sheetToHtml(model),
+  );
+  if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+}
+
+export function registerSheet(program: Command, cli: Cli): void {
+  addDesignOptions(
+    program
+      .command('sheet')
+      .description(
+        'printable fill checklist: steps with targets and bands, checks, findings, and the fuel/O2/inert diagram',
+      ),
+  )
+    .addOption(
+      new Option('--format <format>', 'output format (default: from the extension of -o, else html)').choices(
+        ['html', 'md', 'txt', 'pdf'],
+      ),
+    )
+    .option('-o, --output <file>', 'write to this file (required for pdf); stdout otherwise')
+    .option('--force', 'overwrite an existing output file')
+    .addOption(
+      new Option('--paper <size>', 'page size for html and pdf').choices(['a4', 'letter']).default('a4'),
+    )
+    .option('--batch <id>', 'batch id printed on the sheet (default: recipe id and date)')
+    .action((recipeFile: string | undefined, o: SheetOptions) => sheet(cli, recipeFile, o));
+}

@@ -1,0 +1,73 @@
+/** A recipe file and the design options -> the plan, with every refusal pointed at the file line or option. */
+import { planWithPrediction } from '../io/plan-predict.js';
+import { batchSizeFinding, experimentsServed, planFill, ProblemError, type Plan } from '../core/index.js';
+import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
+import { isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import type { PlanMeta } from '../report/plan-json.js';
+import { VERSION } from '../version.js';
+import { mergeOptions, type DesignValues } from './design-options.js';
+import { parseBarometer } from './numbers.js';
+
+export interface Planned {
+  readonly plan: Plan;
+  readonly req: PlanRequest;
+  readonly unit: PressureUnit;
+  readonly meta: PlanMeta & { readonly barometer: NonNullable<PlanMeta['barometer']> };
+}
+
+/** the unit of the tables: --units, else the unit the final pressure was given in when it is one of ours, else Torr */
+function tableUnit(units: string | undefined, pressureText: string | undefined): PressureUnit {
+  const given = /[A-Za-z]+$/.exec((pressureText ?? '').trim())?.[0] ?? '';
+  return units && isPressureUnit(units) ? units : isPressureUnit(given) ? given : 'Torr';
+}
+
+function metaOf(plan: Plan, req: PlanRequest, barometerGiven: boolean): Planned['meta'] {
+  const served = req.sizing ? experimentsServed(req.sizing, plan.final.pressurePa) : undefined;
+  return {
+    recipeId: req.recipe.id,
+    labName: req.lab.name,
+    orderRecommended: req.orderRecommended,
+    version: VERSION,
+    experiments:
+      served && req.sizing
+        ? {
+            count: served.experiments,
+            sizedFor: req.sizedFor,
+            reactor: req.sizing.reactor,
+            perExperimentMol: served.sizing.perExperimentMol,
+            minTankPa: served.sizing.minTankPa,
+            margin: req.sizing.margin,
+          }
+        : undefined,
+    barometer: {
+      pressurePa: req.input.reading.barometricPa,
+      uncertaintyPa: req.input.reading.barometricUncertaintyPa,
+      given: barometerGiven,
+    },
+  };
+}
+
+/** recipe and options -> plan, with errors pointed at the file line or option */
+export function planFrom(recipeFile: string | undefined, o: DesignValues): Planned {
+  const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
+  const base = recipeFile ? readRecipe(recipeFile) : undefined;
+  const rs = mergeOptions(base, o);
+  const req = buildPlanRequest(rs, o.lab, { barometricPa });
+  let plan: Plan;
+  try {
+    plan = planWithPrediction(planFill(req.input), req);
+  } catch (e) {
+    // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
+    if (e instanceof ProblemError) throw locateCoreProblem(e, rs);
+    throw e;
+  }
+  // a batch too small for one experiment is a warning finding, with the plan's own
+  const tooSmall = req.sizing ? batchSizeFinding(req.sizing, plan.final.pressurePa) : undefined;
+  if (tooSmall) plan = { ...plan, findings: [...plan.findings, tooSmall] };
+  return {
+    plan,
+    req,
+    unit: tableUnit(o.units, req.recipe.pressure),
+    meta: metaOf(plan, req, o.barometer !== undefined),
+  };
+}
