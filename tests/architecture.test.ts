@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 
 // the dependency rule of the house: a pure core; shells reach it only through src/core/index.ts
@@ -53,5 +54,26 @@ describe('architecture', () => {
       for (const spec of importsOf(f))
         expect(['ink', 'react'].includes(spec), `${f} imports ${spec}`).toBe(false);
     }
+  });
+
+  it('the shape of src/: no line over 120 characters, no function body over 100 lines', async () => {
+    // scripts/check-shape.mjs is the same check run by hand; here it must find nothing
+    const { shapeOffences, MAX_LINE, MAX_BODY_LINES } = await import('../scripts/check-shape.mjs');
+    expect([MAX_LINE, MAX_BODY_LINES]).toEqual([120, 100]);
+    expect(shapeOffences(files('src'))).toEqual([]);
+  });
+
+  it('the shape check finds a long line and a long function (it can fail)', async () => {
+    const { shapeOffences } = await import('../scripts/check-shape.mjs');
+    const dir = mkdtempSync(join(tmpdir(), 'shape-'));
+    const file = join(dir, 'long.ts');
+    const body = Array.from({ length: 101 }, (_, i) => `  const v${i} = ${i};`).join('\n');
+    writeFileSync(
+      file,
+      `export function long(): void {\n${body}\n}\nexport const s = '${'x'.repeat(120)}';\n`,
+    );
+    const found = shapeOffences([file]);
+    expect(found.some((o: string) => o.includes('function long has a body of 101 lines'))).toBe(true);
+    expect(found.some((o: string) => /long.ts:104: line of 140 characters/.test(o))).toBe(true);
   });
 });

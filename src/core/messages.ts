@@ -5,6 +5,7 @@ import type {
   LogFault,
   PlannerProblem,
   Problem,
+  QuantityFault,
   ReadCause,
   ShownValue,
   Where,
@@ -44,7 +45,7 @@ const sentence = (reason: string): string =>
   /[.!?]$/.test(reason.trim()) ? reason.trim() : `${reason.trim()}.`;
 
 export function describeProblem(p: Problem): string {
-  // raised by the planner: the typed variants share their codes with the free-text forms
+  // raised by the planner: its typed variants share a few codes, told apart by `kind`
   if (isPlannerProblem(p)) return describePlannerProblem(p);
   switch (p.code) {
     case 'unknown-species':
@@ -55,7 +56,10 @@ export function describeProblem(p: Problem): string {
           : '; `mixwright species` lists the known species')
       );
     case 'not-positive':
-      return `${p.what} must be greater than zero (got ${p.text !== undefined ? `"${p.text}"` : formatNumber(p.value)})`;
+      return (
+        `${p.what} must be greater than zero ` +
+        `(got ${p.text !== undefined ? `"${p.text}"` : formatNumber(p.value)})`
+      );
     case 'out-of-range':
       return (
         `${p.what} = ${p.text !== undefined ? `"${p.text}"` : formatNumber(p.value)} ` +
@@ -65,9 +69,94 @@ export function describeProblem(p: Problem): string {
       return `"${p.text}" is a ${p.got}, but a ${p.expected} is needed here`;
     case 'bad-quantity':
       return (
-        `cannot read "${p.text}" as a ${p.expected}: ${sentence(p.reason)} Give a ` +
+        `cannot read "${p.text}" as a ${p.expected}: ${sentence(describeQuantityFault(p.fault))} Give a ` +
         `number and a unit, e.g. ${exampleFor(p.expected)}`
       );
+    case 'order-missing':
+    case 'order-repeated':
+    case 'order-unknown':
+    case 'fractions-sum':
+    case 'needs-barometer':
+    case 'unknown-reference':
+    case 'no-gauge':
+    case 'option-for-csv-only':
+      return describeInputProblem(p);
+    case 'unknown-key':
+      return `unknown key "${p.key}"; allowed here: ${list(p.allowed)}`;
+    case 'schema':
+      return describeLogFault(p.log);
+    case 'name-too-long':
+      return (
+        `the ${p.what} "${p.start}..." is ${p.length} characters long; names have ` +
+        `at most ${p.limit} characters. Check what was pasted here`
+      );
+    case 'file-too-large':
+      return (
+        `cannot read the file: it holds ${bytes(p.bytes)} or more, and mixwright ` +
+        `reads files of up to ${bytes(p.limitBytes)} (recipes, lab profiles, readings ` +
+        `and batch logs are a few kB); check that this is the file you meant`
+      );
+    case 'no-equilibrium-data':
+    case 'equilibrium-not-converged':
+      return describeModelProblem(p);
+    case 'write-failed':
+      return `not written: ${describeWriteCause(p.cause)}${p.outcome ? `; ${p.outcome}` : ''}`;
+    case 'not-converged':
+      return describeModelProblem(p);
+    // raised by the re-check
+    case 'record-unknown-id':
+    case 'reading-not-rising':
+    case 'density-not-rising':
+    case 'log-no-readings':
+    case 'csv-empty':
+    case 'csv-missing-column':
+    case 'csv-field-count':
+    case 'csv-not-rising':
+    case 'csv-no-rows':
+    case 'csv-fill-repeated':
+    case 'csv-species-not-filled':
+      return describeRecheckProblem(p);
+    // raised by the batch log and the guided fill
+    case 'log-locked':
+    case 'log-changed':
+    case 'log-torn-tail':
+    case 'log-header-torn':
+    case 'torn-tail-stuck':
+    case 'log-released':
+    case 'lock-unwritable':
+    case 'lock-unreadable':
+    case 'lock-contended':
+    case 'log-not-found':
+    case 'log-not-file':
+    case 'log-unopenable':
+    case 'amend-not-in-force':
+    case 'withdraw-not-last':
+    case 'reading-missing':
+      return describeLogProblem(p);
+    // raised by the command line and recipe files
+    default:
+      return describeCommandLineProblem(p);
+  }
+}
+
+/** the fill order, the fractions, the barometer, lab-profile references and gauges of a reading */
+function describeInputProblem(
+  p: Extract<
+    Problem,
+    {
+      code:
+        | 'order-missing'
+        | 'order-repeated'
+        | 'order-unknown'
+        | 'fractions-sum'
+        | 'needs-barometer'
+        | 'unknown-reference'
+        | 'no-gauge'
+        | 'option-for-csv-only';
+    }
+  >,
+): string {
+  switch (p.code) {
     case 'order-missing':
       return `the fill order leaves out ${list(p.missing)}; name every fill exactly once`;
     case 'order-repeated':
@@ -82,25 +171,6 @@ export function describeProblem(p: Problem): string {
         `the mole fractions add up to ${p.sum.toPrecision(6)}, not 1; correct them ` +
         `so that they sum to 1 (within 1e-6)`
       );
-    case 'design-conflict':
-      return p.reason;
-    case 'design-missing':
-      return p.reason;
-    case 'unknown-key':
-      return `unknown key "${p.key}"; allowed here: ${list(p.allowed)}`;
-    case 'schema':
-      return 'log' in p ? describeLogFault(p.log) : p.reason;
-    case 'name-too-long':
-      return (
-        `the ${p.what} "${p.start}..." is ${p.length} characters long; names have ` +
-        `at most ${p.limit} characters. Check what was pasted here`
-      );
-    case 'file-too-large':
-      return (
-        `cannot read the file: it holds ${bytes(p.bytes)} or more, and mixwright ` +
-        `reads files of up to ${bytes(p.limitBytes)} (recipes, lab profiles, readings ` +
-        `and batch logs are a few kB); check that this is the file you meant`
-      );
     case 'needs-barometer':
       return (
         `"${p.text}" is a gauge pressure (measured above the ambient pressure), and ` +
@@ -113,35 +183,32 @@ export function describeProblem(p: Problem): string {
         `no ${p.kind} "${p.id}" in the lab profile` +
         (p.choices.length ? `; it lists ${list(p.choices)}` : '')
       );
-    case 'no-supply':
-      return `no source can supply ${p.species}: ${p.reason}`;
     case 'no-gauge':
-      return p.reason;
-    case 'model-range':
-      return p.reason;
-    case 'no-equilibrium-data':
       return (
-        `no equilibrium can be computed for ${list(p.species)}: the product data ` +
-        `(NASA polynomials) cover only species of C, H, O, N and the noble gases; ` +
-        `the closed-vessel and detonation pressures of such a state are not estimated ` +
-        `- judge them from the supplier's data or a specialist`
+        `no gauge in the lab profile reads ${p.pressurePa.toPrecision(6)} Pa; name ` +
+        `the gauge in a "gauge" column`
       );
-    case 'equilibrium-not-converged':
-      return (
-        `the chemical equilibrium did not converge (${p.what}); the pressure estimate ` +
-        `that needs it is not available - report this state to the maintainers`
-      );
-    case 'write-failed':
-      if ('cause' in p)
-        return `not written: ${describeWriteCause(p.cause)}${p.outcome ? `; ${p.outcome}` : ''}`;
-      return `not written: ${p.reason}`;
-    case 'not-converged':
-      return (
-        `the ${p.computation} did not converge: after ${p.iterations} iterations the error is ` +
-        `${formatNumber(p.residual)} against a tolerance of ${formatNumber(p.tolerance)}. No result is ` +
-        `given; check the inputs for an extreme state, and report it to the maintainers if they are ordinary`
-      );
-    // raised by the re-check
+    case 'option-for-csv-only':
+      return `a batch log carries ${p.logCarries}; ${p.option} is for CSV readings only`;
+  }
+}
+
+// raised by the re-check
+type RecheckProblemCode =
+  | 'record-unknown-id'
+  | 'reading-not-rising'
+  | 'density-not-rising'
+  | 'log-no-readings'
+  | 'csv-empty'
+  | 'csv-missing-column'
+  | 'csv-field-count'
+  | 'csv-not-rising'
+  | 'csv-no-rows'
+  | 'csv-fill-repeated'
+  | 'csv-species-not-filled';
+
+function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }>): string {
+  switch (p.code) {
     case 'record-unknown-id':
       return `reading of step ${p.step} names the ${p.kind} "${p.id}", which the header does not list`;
     case 'reading-not-rising':
@@ -180,26 +247,32 @@ export function describeProblem(p: Problem): string {
       return `${p.species} is filled twice; each fill has one row`;
     case 'csv-species-not-filled':
       return `${p.species} is not filled in the design of ${p.recipe} (its fills: ${p.fills.join(', ')})`;
-    // raised by the batch log and the guided fill
-    case 'log-locked':
-    case 'log-changed':
-    case 'log-torn-tail':
-    case 'log-header-torn':
-    case 'torn-tail-stuck':
-    case 'log-released':
-    case 'lock-unwritable':
-    case 'lock-unreadable':
-    case 'lock-contended':
-    case 'log-not-found':
-    case 'log-not-file':
-    case 'log-unopenable':
-    case 'amend-not-in-force':
-    case 'withdraw-not-last':
-    case 'reading-missing':
-      return describeLogProblem(p);
-    // raised by the command line and recipe files
-    default:
-      return describeCommandLineProblem(p);
+  }
+}
+
+/** the models that could not give a result: equilibrium data and convergence */
+function describeModelProblem(
+  p: Extract<Problem, { code: 'no-equilibrium-data' | 'equilibrium-not-converged' | 'not-converged' }>,
+): string {
+  switch (p.code) {
+    case 'no-equilibrium-data':
+      return (
+        `no equilibrium can be computed for ${list(p.species)}: the product data ` +
+        `(NASA polynomials) cover only species of C, H, O, N and the noble gases; ` +
+        `the closed-vessel and detonation pressures of such a state are not estimated ` +
+        `- judge them from the supplier's data or a specialist`
+      );
+    case 'equilibrium-not-converged':
+      return (
+        `the chemical equilibrium did not converge (${p.what}); the pressure estimate ` +
+        `that needs it is not available - report this state to the maintainers`
+      );
+    case 'not-converged':
+      return (
+        `the ${p.computation} did not converge: after ${p.iterations} iterations the error is ` +
+        `${formatNumber(p.residual)} against a tolerance of ${formatNumber(p.tolerance)}. No result is ` +
+        `given; check the inputs for an extreme state, and report it to the maintainers if they are ordinary`
+      );
   }
 }
 
@@ -355,6 +428,7 @@ const PLANNER_KINDS: Readonly<Record<PlannerProblem['kind'], PlannerProblem['cod
   'no-cylinder': 'no-supply',
   temperature: 'model-range',
   'non-ideal': 'model-range',
+  'no-gas-solution': 'model-range',
 };
 
 function isPlannerProblem(p: Problem): p is PlannerProblem {
@@ -424,6 +498,12 @@ function describePlannerProblem(p: PlannerProblem): string {
       return (
         `a fill at ${p.temperatureK.toFixed(2)} K is outside the range the gas model is built ` +
         `for (${p.minK}-${p.maxK} K); check the temperature and its unit`
+      );
+    case 'no-gas-solution':
+      return (
+        `the virial equation has no gas-phase solution at ${p.pressurePa.toPrecision(6)} ` +
+        `Pa and ${p.temperatureK.toFixed(2)} K (B = ${(p.secondVirialM3PerMol * 1e6).toPrecision(4)} ` +
+        `cm3/mol); the state is outside the model's range - lower the pressure`
       );
     case 'non-ideal':
       return (
@@ -515,7 +595,7 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
 function describeFileProblem(p: Extract<Problem, { code: FileProblemCode | RecipeProblemCode }>): string {
   switch (p.code) {
     case 'file-unreadable':
-      return `cannot read the file: ${'cause' in p ? describeReadCause(p.cause) : p.reason}`;
+      return `cannot read the file: ${describeReadCause(p.cause)}`;
     case 'yaml-syntax':
       return `not valid YAML: ${describeYamlFault(p.fault)}`;
     case 'bad-list':
@@ -756,6 +836,26 @@ function describeYamlFault(f: YamlFault): string {
   }
 }
 
+function describeQuantityFault(f: QuantityFault): string {
+  switch (f.kind) {
+    case 'unrepresentable':
+      return `the number is too large to represent; the allowed range is ${f.range}`;
+    case 'unit-missing':
+      return 'a unit is required';
+    case 'too-long':
+      return `the text is ${f.length} characters long; a quantity is a number and a unit`;
+    case 'ambiguous-unit':
+      return (
+        `"${f.unit}" alone is ${f.means}; did you mean ${f.meant}? Write "${f.number} ` +
+        `${f.meant}" or "${f.number} °${f.meant.slice(3)}"`
+      );
+    case 'not-number-and-unit':
+      return 'not a number followed by a unit';
+    case 'library':
+      return f.message;
+  }
+}
+
 function describeListFault(f: ListFault): string {
   switch (f.kind) {
     case 'empty-entry':
@@ -770,19 +870,26 @@ function describeListFault(f: ListFault): string {
 function describeWriteCause(c: WriteCause): string {
   switch (c.kind) {
     case 'is-folder':
-      return 'the name is a folder; give a file name inside it, e.g. FOLDER/fill.html (--force never replaces a folder)';
+      return (
+        'the name is a folder; give a file name inside it, e.g. FOLDER/fill.html ' +
+        '(--force never replaces a folder)'
+      );
     case 'exists':
       return c.what === 'file'
         ? 'a file of that name exists; add --force to replace it, or choose another name'
         : c.what === 'symlink'
-          ? 'a symbolic link of that name exists (it may point nowhere); add --force to replace the link, or choose another name'
+          ? 'a symbolic link of that name exists (it may point nowhere); add --force to replace ' +
+            'the link, or choose another name'
           : 'something that is not a regular file (a device, a fifo or a socket) has that name; choose another name';
     case 'appeared-while-writing':
       return 'a file of that name appeared while writing; add --force to replace it, or choose another name';
     case 'no-folder':
       return `the folder ${c.folder} does not exist; create it first, or choose another place`;
     case 'folder-not-writable':
-      return `the folder ${c.folder} is not writable (permission denied); choose another place, or ask for write access`;
+      return (
+        `the folder ${c.folder} is not writable (permission denied); choose another place, ` +
+        `or ask for write access`
+      );
     case 'short-write':
       return `only ${c.written} of ${c.expected} bytes could be written (the disk is probably full)`;
     case 'missing-after-write':

@@ -318,10 +318,10 @@ export function densityFromPressure(pressurePa: number, temperatureK: number, B:
   }
   return fail({
     code: 'model-range',
-    reason:
-      `the virial equation has no gas-phase solution at ${pressurePa.toPrecision(6)} ` +
-      `Pa and ${temperatureK.toFixed(2)} K (B = ${(B * 1e6).toPrecision(4)} cm3/mol); ` +
-      `the state is outside the model's range - lower the pressure`,
+    kind: 'no-gas-solution',
+    pressurePa,
+    temperatureK,
+    secondVirialM3PerMol: B,
   });
 }
 

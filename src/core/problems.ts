@@ -38,7 +38,7 @@ export type Problem =
       readonly code: 'bad-quantity';
       readonly text: string;
       readonly expected: string;
-      readonly reason: string;
+      readonly fault: QuantityFault;
     }
   | { readonly code: 'order-missing'; readonly missing: readonly string[] }
   | { readonly code: 'order-repeated'; readonly repeated: readonly string[] }
@@ -48,10 +48,7 @@ export type Problem =
       readonly choices: readonly string[];
     }
   | { readonly code: 'fractions-sum'; readonly sum: number }
-  | { readonly code: 'design-conflict'; readonly reason: string }
-  | { readonly code: 'design-missing'; readonly reason: string }
   | { readonly code: 'unknown-key'; readonly key: string; readonly allowed: readonly string[] }
-  | { readonly code: 'schema'; readonly reason: string }
   | {
       readonly code: 'name-too-long';
       readonly what: string;
@@ -67,17 +64,16 @@ export type Problem =
       readonly id: string;
       readonly choices: readonly string[];
     }
-  | { readonly code: 'no-supply'; readonly species: string; readonly reason: string }
-  | { readonly code: 'no-gauge'; readonly reason: string }
-  | { readonly code: 'model-range'; readonly reason: string }
+  /** a CSV reading that no gauge of the lab profile reads, and no gauge column names one */
+  | { readonly code: 'no-gauge'; readonly pressurePa: number }
+  /** an option of `check` that only a CSV of readings needs: a batch log carries it */
+  | { readonly code: 'option-for-csv-only'; readonly option: string; readonly logCarries: string }
   | { readonly code: 'no-equilibrium-data'; readonly species: readonly string[] }
   | { readonly code: 'equilibrium-not-converged'; readonly what: string }
-  /** a file could not be written in full (disk full, I/O error, short write, no permission, name taken) */
-  | { readonly code: 'write-failed'; readonly reason: string }
   /**
-   * the typed form of a failed or refused write; replaces the `reason` form above and
-   * `file-unwritable` (both to be removed once every raise site uses this one). `outcome`
-   * says what happened to the data, e.g. "the event was not logged".
+   * a file not written in full, or a write refused (disk full, I/O error, short write, no
+   * permission, name taken); `outcome` says what happened to the data, e.g. "the event was
+   * not logged"
    */
   | { readonly code: 'write-failed'; readonly cause: WriteCause; readonly outcome?: string }
   /**
@@ -186,13 +182,8 @@ export type Problem =
       readonly recipe: string;
       readonly fills: readonly string[];
     }
-  /** the free-text form of an unreadable file, raised by io/batch-log.ts only (to be replaced by `cause`) */
-  | { readonly code: 'file-unreadable'; readonly reason: string }
   // raised by the command line and recipe files
-  /**
-   * a file that cannot be read, and why (the typed form; the `reason` form just above stays until
-   * io/batch-log.ts raises this one)
-   */
+  /** a file that cannot be read, and why */
   | { readonly code: 'file-unreadable'; readonly cause: ReadCause }
   /** a YAML file the parser refuses, or one whose data cannot be used */
   | { readonly code: 'yaml-syntax'; readonly fault: YamlFault }
@@ -348,8 +339,9 @@ export type ProblemCode = Problem['code'];
 
 /**
  * The typed problems of the planner, design and supply (one variant per condition, its
- * particulars as fields). They share their codes with the free-text forms above, so the
- * printed error code stays what it was; `kind` tells the conditions apart.
+ * particulars as fields). Several share a code (`design-conflict`, `design-missing`,
+ * `no-supply`, `model-range`), so the printed error code stays what it was; `kind` tells
+ * the conditions apart.
  */
 export type PlannerProblem =
   | { readonly code: 'design-conflict'; readonly kind: 'not-a-fuel'; readonly species: string }
@@ -414,12 +406,36 @@ export type PlannerProblem =
       readonly compressibility: number;
       /** the largest |1 - Z| the truncated virial series is trusted for */
       readonly maxDeviation: number;
+    }
+  /** the truncated virial equation has no gas-phase root at this pressure and temperature */
+  | {
+      readonly code: 'model-range';
+      readonly kind: 'no-gas-solution';
+      readonly pressurePa: number;
+      readonly temperatureK: number;
+      readonly secondVirialM3PerMol: number;
     };
 
+/** why a quantity ("1500 Torr") cannot be read */
+export type QuantityFault =
+  | { readonly kind: 'unrepresentable'; readonly range: string }
+  | { readonly kind: 'unit-missing' }
+  | { readonly kind: 'too-long'; readonly length: number }
+  /** a unit that the unit library reads as something else (e.g. "C" as coulomb) */
+  | {
+      readonly kind: 'ambiguous-unit';
+      readonly unit: string;
+      readonly means: string;
+      readonly meant: string;
+      readonly number: string;
+    }
+  | { readonly kind: 'not-number-and-unit' }
+  /** the unit library's own message */
+  | { readonly kind: 'library'; readonly message: string };
+
 /**
- * Why a file was not written (the typed form that replaces the free-text reasons of
- * `write-failed` and `file-unwritable`). `system` carries the operating system's error code
- * (ENOSPC, EACCES, EROFS, EIO, ...) and its message.
+ * Why a file was not written or a write was refused. `system` carries the operating system's
+ * error code (ENOSPC, EACCES, EROFS, EIO, ...) and its message.
  */
 export type WriteCause =
   | { readonly kind: 'is-folder' }

@@ -398,16 +398,7 @@ function csvReadings(file: string, b: CsvBasis): CheckedReading[] {
         );
     } else {
       gauge = chooseGauge(b.gauges, r.pressurePa, r.pressurePa, b.ctx)?.gauge;
-      if (!gauge)
-        fail(
-          {
-            code: 'no-gauge',
-            reason:
-              `no gauge in the lab profile reads ${r.pressurePa.toPrecision(6)} Pa; name ` +
-              `the gauge in a "gauge" column`,
-          },
-          { file, line: r.line },
-        );
+      if (!gauge) fail({ code: 'no-gauge', pressurePa: r.pressurePa }, { file, line: r.line });
     }
     return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
   });
@@ -470,18 +461,15 @@ export async function checkFile(file: string, opts: CheckOptions): Promise<Check
   if (/\.csv$/i.test(file)) return checkCsv(file, opts);
   if (opts.recipeFile)
     fail(
-      {
-        code: 'design-conflict',
-        reason: 'a batch log carries its own design; --recipe is for CSV readings only',
-      },
+      { code: 'option-for-csv-only', option: '--recipe', logCarries: 'its own design' },
       { field: '--recipe' },
     );
   if (opts.barometricPa !== undefined)
     fail(
       {
-        code: 'design-conflict',
-        reason:
-          'a batch log records the barometric pressure of its fill; --barometer is for CSV readings only',
+        code: 'option-for-csv-only',
+        option: '--barometer',
+        logCarries: 'the barometric pressure of its fill',
       },
       { field: '--barometer' },
     );

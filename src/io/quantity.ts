@@ -181,7 +181,7 @@ function checkRange(v: number, s: string, expected: Dimension, where: Where): nu
         code: 'bad-quantity',
         text: s,
         expected,
-        reason: `the number is too large to represent; the allowed range is ${r.text}`,
+        fault: { kind: 'unrepresentable', range: r.text },
       },
       where,
     );
@@ -240,7 +240,10 @@ export function parseQuantity(
   ctx: QuantityContext = {},
 ): number {
   if (typeof text === 'number') {
-    return fail({ code: 'bad-quantity', text: String(text), expected, reason: 'a unit is required' }, where);
+    return fail(
+      { code: 'bad-quantity', text: String(text), expected, fault: { kind: 'unit-missing' } },
+      where,
+    );
   }
   const s = text.trim();
   if (s.length > 200)
@@ -249,12 +252,12 @@ export function parseQuantity(
         code: 'bad-quantity',
         text: `${s.slice(0, 40)}...`,
         expected,
-        reason: `the text is ${s.length} characters long; a quantity is a number and a unit`,
+        fault: { kind: 'too-long', length: s.length },
       },
       where,
     );
   if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
-    return fail({ code: 'bad-quantity', text: s, expected, reason: 'a unit is required' }, where);
+    return fail({ code: 'bad-quantity', text: s, expected, fault: { kind: 'unit-missing' } }, where);
   }
   const typed = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([°℃℉]?[A-Za-z]*(?:\([ag]\))?)$/.exec(s);
   if (typed && own(MISREAD, typed[2]) && expected === 'temperature') {
@@ -264,9 +267,7 @@ export function parseQuantity(
         code: 'bad-quantity',
         text: s,
         expected,
-        reason:
-          `"${typed[2]}" alone is ${m.library}; did you mean ${m.meant}? Write "${typed[1]} ` +
-          `${m.meant}" or "${typed[1]} °${m.meant.slice(3)}"`,
+        fault: { kind: 'ambiguous-unit', unit: typed[2], means: m.library, meant: m.meant, number: typed[1] },
       },
       where,
     );
@@ -283,10 +284,7 @@ export function parseQuantity(
   if (typed && own(SPELLINGS, typed[2]))
     return parseQuantity(`${typed[1]} ${SPELLINGS[typed[2]]}`, expected, where, ctx);
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*[A-Za-z^/ 0-9*.]+$/.test(s)) {
-    return fail(
-      { code: 'bad-quantity', text: s, expected, reason: 'not a number followed by a unit' },
-      where,
-    );
+    return fail({ code: 'bad-quantity', text: s, expected, fault: { kind: 'not-number-and-unit' } }, where);
   }
   const fast = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z^0-9/]+)$/.exec(s);
   const known = fast && own(FAST_UNITS, fast[2]) ? FAST_UNITS[fast[2]] : undefined;
@@ -308,7 +306,12 @@ export function parseQuantity(
     u = math.unit(s);
   } catch (e) {
     return fail(
-      { code: 'bad-quantity', text: s, expected, reason: (e as Error).message.replace(/^Error: /, '') },
+      {
+        code: 'bad-quantity',
+        text: s,
+        expected,
+        fault: { kind: 'library', message: (e as Error).message.replace(/^Error: /, '') },
+      },
       where,
     );
   }
