@@ -891,7 +891,7 @@ function describeWriteCause(c: WriteCause): string {
         `or ask for write access`
       );
     case 'short-write':
-      return `only ${c.written} of ${c.expected} bytes could be written (the disk is probably full)`;
+      return `only ${c.written} of ${c.expected} bytes reached the disk (the disk is probably full)`;
     case 'missing-after-write':
       return 'the file is not there after writing it';
     case 'system':

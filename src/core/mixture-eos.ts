@@ -220,7 +220,8 @@ function fractionsVector(model: VirialModel, y: Readonly<Record<string, number>>
  * B_mix = sum_i sum_j y_i y_j B_ij over arrays (the form the re-check's Monte Carlo loop uses),
  * summed over the upper triangle of the symmetric S x S matrix B (row-major), m3/mol; y is used
  * as given (normalised by the caller). Terms of a species with y_i = 0 are skipped.
- * Example: y = (0.5, 0.5), B = [[-40, -20], [-20, 10]] cm3/mol -> -17.5 cm3/mol.
+ * Example: bMixOf([0.5, 0.5], [-40e-6, -20e-6, -20e-6, 10e-6], 2) -> -17.5 cm3/mol (by hand:
+ *   0.25 x (-40) + 2 x 0.25 x (-20) + 0.25 x 10 = -17.5 cm3/mol, the quadratic mixing rule of the virial B).
  */
 export function bMixOf(y: ArrayLike<number>, B: ArrayLike<number>, S: number): number {
   let b = 0;

@@ -81,7 +81,7 @@ export function writeAllSync(fd: number, buf: Uint8Array): void {
 /** why a write failed, for a write-failed problem: a short write says how many bytes went in */
 export function failureReason(e: unknown): string {
   if (e instanceof ShortWriteError)
-    return `only ${e.written} of ${e.expected} bytes could be written (the disk is probably full)`;
+    return `only ${e.written} of ${e.expected} bytes reached the disk (the disk is probably full)`;
   return writeErrorReason(e);
 }
 

@@ -311,7 +311,7 @@ describe('writes that fail (injected in node:fs)', () => {
     );
     expect(r.code).toBe(2);
     expect(r.stdout).not.toContain('wrote');
-    expect(r.stderr).toMatch(new RegExp(`${out}: not written: only 8192 of \\d+ bytes could be written`));
+    expect(r.stderr).toMatch(new RegExp(`${out}: not written: only 8192 of \\d+ bytes reached the disk`));
     expect(r.stderr).toContain('(error code: write-failed)');
     expect(readdirSync(dir)).toEqual([]);
     fault.mode = 'enospc';
