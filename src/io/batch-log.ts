@@ -101,7 +101,12 @@ export const headerSchema = z.object({
   temperature_K: z.number().positive(),
   final_pressure_Pa: z.number().positive(),
   barometer: z.object({ pressure_Pa: z.number().positive(), u_Pa: z.number().min(0) }),
-  thermometer: z.object({ u_K: z.number().min(0), resolution_K: z.number().min(0) }),
+  thermometer: z.object({
+    u_K: z.number().min(0),
+    resolution_K: z.number().min(0),
+    /** gas-thermometer difference after settling (K, rectangular half-width); older logs lack it */
+    settling_K: z.number().min(0).optional(),
+  }),
   gauges: z.array(gaugeSchema),
   sources: z.array(sourceSchema),
   steps: z.array(

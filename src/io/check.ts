@@ -35,7 +35,7 @@ import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.
 import { readReadingsCsv } from './readings-csv.js';
 import { TORR_PA } from '../core/index.js';
 import type { CheckReportOf } from '../report/check-types.js';
-import { DEFAULT_THERMOMETER } from './plan-predict.js';
+import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 
 export interface CheckOptions {
   readonly trials: number;
@@ -122,6 +122,7 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
     thermometer: {
       u_K: (req.lab.thermometer ?? DEFAULT_THERMOMETER).uncertaintyK,
       resolution_K: (req.lab.thermometer ?? DEFAULT_THERMOMETER).resolutionK,
+      settling_K: settlingOf(req.lab.thermometer),
     },
     gauges: req.input.gauges.map(gaugeToLog),
     sources: plan.steps.map((s) => sourceToLog(s.source)),
@@ -215,6 +216,11 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
     warnings.push(
       `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
+  if (h.thermometer.settling_K === undefined)
+    warnings.push(
+      `the log does not record the thermometer's settling value (made before logs recorded it); ` +
+        `our default of ${settlingOf(undefined)} K per reading was used, the value plan predicts with`,
+    );
   if (missingSteps.length)
     warnings.push(
       `the log has no reading for step ${missingSteps.join(', ')}: the batch is ` +
@@ -240,7 +246,11 @@ export function logModelInput(
         sources: new Map(h.sources.map((s) => [s.id, sourceFromLog(s)])),
         gauges: new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)])),
         barometer,
-        thermometer: { uK: h.thermometer.u_K, resolutionK: h.thermometer.resolution_K },
+        thermometer: {
+          uK: h.thermometer.u_K,
+          resolutionK: h.thermometer.resolution_K,
+          settlingK: h.thermometer.settling_K ?? settlingOf(undefined),
+        },
         diluent: h.design.diluent,
         start: start && {
           composition: start.composition,
@@ -314,7 +324,7 @@ interface CsvBasis {
   readonly tolerance: Tolerance;
   readonly gauges: readonly Gauge[];
   readonly ctx: { barometricPa: number; barometricUncertaintyPa: number };
-  readonly thermo: { uncertaintyK: number; resolutionK: number };
+  readonly thermo: { uncertaintyK: number; resolutionK: number; settlingK?: number };
   readonly baroGiven: boolean;
   readonly sourceFor: (species: string, line: number) => GasSource;
   readonly warnings: string[];
@@ -419,6 +429,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
         barometricUncertaintyPa: ctx.barometricUncertaintyPa,
         thermometerUncertaintyK: thermo.uncertaintyK,
         thermometerResolutionK: thermo.resolutionK,
+        temperatureSettlingK: settlingOf(thermo),
         trials: opts.trials,
         seed: opts.seed,
       },

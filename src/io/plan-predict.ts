@@ -18,6 +18,15 @@ import type { PlanRequest } from './load.js';
 /** the thermometer a lab profile without one is taken to have (as check does) */
 export const DEFAULT_THERMOMETER = { uncertaintyK: 0.5, resolutionK: 0 } as const;
 
+/**
+ * The gas-thermometer difference after settling that plan and check both use: the lab
+ * profile's `thermometer.settling`, else our default (the same value in the prediction and
+ * in the re-check, so a plan predicts what check will find).
+ */
+export function settlingOf(t: { readonly settlingK?: number } | undefined): number {
+  return t?.settlingK ?? DEFAULT_TEMPERATURE_SETTLING_K;
+}
+
 /** the prediction's input from a plan request: the lab's instruments, the default settling value where none is given */
 export function predictionInput(plan: Plan, req: PlanRequest): PredictionInput {
   const t = req.lab.thermometer ?? DEFAULT_THERMOMETER;
@@ -28,7 +37,7 @@ export function predictionInput(plan: Plan, req: PlanRequest): PredictionInput {
     thermometer: {
       uK: t.uncertaintyK,
       resolutionK: t.resolutionK,
-      settlingK: req.lab.thermometer?.settlingK ?? DEFAULT_TEMPERATURE_SETTLING_K,
+      settlingK: settlingOf(req.lab.thermometer),
     },
   };
 }

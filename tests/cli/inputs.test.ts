@@ -165,7 +165,7 @@ describe('check: readings as people write them', () => {
   it('--barometer on a batch log is refused (the log records its own)', async () => {
     refused(
       await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--barometer', '750 Torr']),
-      'design-conflict',
+      'option-for-csv-only',
     );
   });
   it('a folder with a bad log: exit 2 and the refused file named on stderr', async () => {
