@@ -87,7 +87,10 @@ export function predictedSheetLines(plan: Plan): [string, string][] {
     .map(
       (r) =>
         `${label(r)} ${fixedSig(r.stat.value, 5)} +- ${fixedSig(r.expandedU, 2)} ` +
-        `(${pct(r.expandedU / r.design)}; tolerance ${pct(r.tolerance / r.design)}${r.within ? '' : ', OVER'})`,
+        `(${pct(r.expandedU / r.design)}` +
+        (r.kind === 'fraction'
+          ? `; tolerance ${pct(r.tolerance / r.design)}${r.within ? '' : ', OVER'})`
+          : ')'),
     );
   return [
     [
@@ -131,8 +134,9 @@ export function predictedLines(plan: Plan): string[] {
       fixedSig(r.stat.value, 6),
       fixedSig(r.expandedU, 2),
       pct(r.expandedU / r.design),
-      `+-${pct(r.tolerance / r.design)}`,
-      r.within ? 'within' : 'OVER',
+      // the tolerance is set for the mole fractions; phi and the dilution are shown, not judged
+      r.kind === 'fraction' ? `+-${pct(r.tolerance / r.design)}` : '-',
+      r.kind === 'fraction' ? (r.within ? 'within' : 'OVER') : '',
       top,
     ]);
   }
