@@ -34,8 +34,8 @@ export function contributionAdvice(
           `(largest at the reading of step ${about.step}, ${p(about.pressurePa)})`,
         fix:
           `read step ${about.step} at ${p(about.pressurePa)} on a gauge head with a finer resolution, ` +
-          `or fill that charge earlier in the order, where a lower-range head reads it (an order ` +
-          `the safety review passes: \`plan --order\` shows its findings)`,
+          `or fill that charge earlier in the order, where a lower-range head reads it (only an ` +
+          `order the safety review passes)`,
       };
     case 'span':
     case 'zero':
@@ -58,8 +58,8 @@ export function contributionAdvice(
         what: `the thermometer's display resolution (largest at the reading of step ${about.step})`,
         fix:
           'a better thermometer with a finer display resolution, or an order that reads this fill ' +
-          'at a lower tank pressure, where a temperature error moves less gas (an order the safety ' +
-          'review passes: `plan --order` shows its findings)',
+          'at a lower tank pressure, where a temperature error moves less gas (only an order the ' +
+          'safety review passes)',
       };
     case 'temperature-settling':
       return {
@@ -67,7 +67,7 @@ export function contributionAdvice(
         fix:
           'a longer wait before each reading, then a smaller thermometer.settling in the ' +
           'lab profile once measured; or an order that reads this fill at a lower tank pressure ' +
-          '(an order the safety review passes: `plan --order` shows its findings)',
+          '(only an order the safety review passes)',
       };
     case 'virial':
       return {
@@ -92,7 +92,7 @@ export function describePredictedOver(f: PredictedOver, p: (pa: number) => strin
     `the predicted U (k = 2) of x(${f.species}) is ${relPct(f.expandedU / f.design)} of its design ` +
     `value, beyond the tolerance of ${relPct(f.tolerance / f.design)}: even readings exactly at the ` +
     `targets cannot show the batch within tolerance. The largest cause ` +
-    `(${Math.round(f.dominantShare * 100)} % of u^2) is ${a.what}; what would reduce it: ${a.fix}. ` +
-    `One remedy may not be enough when other terms are about as large: re-plan to see the new U`
+    `(${Math.round(f.dominantShare * 100)} % of u^2) is ${a.what}; what would reduce it: ${a.fix} ` +
+    `(re-plan to see the new U)`
   );
 }
