@@ -78,13 +78,6 @@ export function writeAllSync(fd: number, buf: Uint8Array): void {
   }
 }
 
-/** why a write failed, for a write-failed problem: a short write says how many bytes went in */
-export function failureReason(e: unknown): string {
-  if (e instanceof ShortWriteError)
-    return `only ${e.written} of ${e.expected} bytes reached the disk (the disk is probably full)`;
-  return writeErrorReason(e);
-}
-
 /** why a write failed, as the typed cause of a write-failed problem */
 export function writeCauseOf(e: unknown): WriteCause {
   if (e instanceof ShortWriteError) return { kind: 'short-write', written: e.written, expected: e.expected };
