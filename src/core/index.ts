@@ -74,7 +74,15 @@ export type { Allocation, GasSource, SourceKind } from './supply.js';
 export { canRead, chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, readingUncertaintyPa } from './gauges.js';
 export type { Gauge, GaugeReference, ReadingContext } from './gauges.js';
 export { fillLabel, planFill, MODEL_T_RANGE_K, MAX_NON_IDEALITY } from './planner.js';
-export type { GaugeAssignment, Plan, PlanInput, PlanStep, TankSpec, Tolerance } from './planner.js';
+export type {
+  ChargeRequest,
+  GaugeAssignment,
+  Plan,
+  PlanInput,
+  PlanStep,
+  TankSpec,
+  Tolerance,
+} from './planner.js';
 export { STANDING_CAUTION, describeFinding, worstSeverity } from './findings.js';
 export type {
   ClosedVesselNumbers,

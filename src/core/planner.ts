@@ -18,6 +18,7 @@ import { planResult } from './plan/result.js';
 import type { Plan, PlanInput } from './plan/types.js';
 
 export type {
+  ChargeRequest,
   GaugeAssignment,
   InitialGas,
   Plan,

@@ -107,6 +107,7 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
       index: stepNo,
       source: st.source,
       species: fillLabel(st.source),
+      charge: chargeNumber(sequence.charges, k),
       targetPa: st.P,
       incrementPa: st.incrementPa,
       amountMol: st.mol,
@@ -120,6 +121,15 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
     };
   });
   return { steps, findings };
+}
+
+/** which charge of its source charge k is, and of how many */
+function chargeNumber(charges: readonly Charge[], k: number): PlanStep['charge'] {
+  const same = charges.filter((c) => c.source === charges[k].source);
+  return {
+    number: charges.slice(0, k + 1).filter((c) => c.source === charges[k].source).length,
+    of: same.length,
+  };
 }
 
 /** the cumulative state of the tank after each charge */

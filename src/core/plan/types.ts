@@ -31,6 +31,13 @@ export interface TankSpec {
   readonly workingFraction?: number;
 }
 
+/** one opening of a source's valve, as asked for */
+export interface ChargeRequest {
+  readonly source: GasSource;
+  /** absolute tank pressure to stop this charge at, Pa; only on a charge that is not its source's last */
+  readonly stopPa?: number;
+}
+
 export interface PlanInput {
   readonly design: Design;
   readonly finalPressurePa: number;
@@ -39,6 +46,13 @@ export interface PlanInput {
   /** the fills: in fill order when `order` is 'given', in any order when 'recommend' */
   readonly sources: readonly GasSource[];
   readonly order: 'given' | 'recommend';
+  /**
+   * With order 'given': the charges in fill order, when a source is filled in more than one
+   * charge. Every source of `sources` appears at least once; `stopPa` (absolute tank pressure
+   * to stop at) only on a charge that is not its source's last (without it the planner
+   * chooses the split point). Absent: one charge per source, in the order of `sources`.
+   */
+  readonly charges?: readonly ChargeRequest[];
   /** safety-review settings beyond the tank and temperature */
   readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
   readonly inTank?: { readonly composition: Fractions; readonly pressurePa: number };
@@ -65,6 +79,8 @@ export interface PlanStep {
   readonly index: number;
   readonly source: GasSource;
   readonly species: string;
+  /** this step is charge `number` of the `of` charges its source is filled in (1 of 1 for most) */
+  readonly charge: { readonly number: number; readonly of: number };
   /** absolute tank pressure after this fill, Pa */
   readonly targetPa: number;
   readonly incrementPa: number;
