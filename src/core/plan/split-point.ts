@@ -146,9 +146,14 @@ export function chooseSplitPoints(
     const grid = SPLIT_SEARCH.shares.map(evaluate);
     let best = grid[0];
     for (const g of grid) if (!noWorse(best.hazards, g.hazards)) best = g;
-    const first = grid.findIndex((g) => noWorse(g.hazards, best.hazards));
-    let hi = grid[first];
-    let lo = first > 0 ? grid[first - 1] : undefined;
+    // no share plannable at all (never seen: every share is a valid stop): the highest, whose
+    // refusal the amounts stage then states
+    const first = Math.max(
+      0,
+      grid.findIndex((g) => noWorse(g.hazards, best.hazards)),
+    );
+    let hi = best.hazards ? grid[first] : grid[grid.length - 1];
+    let lo = best.hazards && first > 0 ? grid[first - 1] : undefined;
     if (lo) {
       for (let i = 0; i < SPLIT_SEARCH.bisections; i++) {
         const mid = evaluate((lo.share + hi.share) / 2);
