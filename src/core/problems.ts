@@ -233,7 +233,12 @@ export type Problem =
   | { readonly code: 'label-needs-log' }
   | { readonly code: 'unknown-schema'; readonly name: string; readonly choices: readonly string[] }
   /** an id used twice among the tanks, reactors, gauges and cylinders of a lab profile */
-  | { readonly code: 'duplicate-id'; readonly id: string }
+  | {
+      readonly code: 'duplicate-id';
+      readonly id: string;
+      /** where the id was first used: its line (when the profile is a file) and field */
+      readonly first?: { readonly line?: number; readonly field: string };
+    }
   /** a thermometer uncertainty or resolution not in K or mK */
   | { readonly code: 'bad-temperature-difference'; readonly text: string }
   /** recipe fields that exclude each other */
@@ -250,7 +255,33 @@ export type Problem =
   /** a recipe or lab-profile field that its format refuses (the schema's verdict, in our words) */
   | { readonly code: 'invalid-field'; readonly field: string; readonly issue: FieldIssue }
   // raised by the planner
-  | PlannerProblem;
+  | PlannerProblem
+  // raised by the fill order (charges and their stops)
+  | {
+      readonly code: 'order-stop';
+      /** the order entry as typed, e.g. "Ar@400 Torr" */
+      readonly entry: string;
+      readonly fault: StopFault;
+    };
+
+/** why the tank reading to stop a charge at (after `@` in a fill order) is refused */
+export type StopFault =
+  /** a stop on the last charge of its source: that charge fills to the design amount */
+  | { readonly kind: 'on-last-charge'; readonly source: string; readonly charges: number }
+  | { readonly kind: 'empty' }
+  | { readonly kind: 'unit-missing' }
+  | { readonly kind: 'not-a-pressure'; readonly got: string }
+  | { readonly kind: 'unreadable'; readonly quantity: QuantityFault }
+  /** stops rise with the fill: each above the stop before it, the gas already in the tank, or zero */
+  | {
+      readonly kind: 'not-above-previous';
+      readonly stopPa: number;
+      readonly previous:
+        | { readonly kind: 'stop'; readonly entry: string; readonly stopPa: number }
+        | { readonly kind: 'in-tank'; readonly pressurePa: number }
+        | { readonly kind: 'evacuated' };
+    }
+  | { readonly kind: 'not-below-final'; readonly stopPa: number; readonly finalPa: number };
 
 /** who holds a batch log's lock: from the lock file */
 export interface LockHolder {

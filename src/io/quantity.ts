@@ -160,6 +160,25 @@ export const PHYSICAL_RANGE: Readonly<Record<Dimension, { min: number; max: numb
   length: { min: 1e-9, max: 1e6, text: 'from 1 nm to 1000 km' },
 };
 
+/**
+ * The volumes a mixing tank, a reactor or its line can have: a positive volume outside this window
+ * is refused as a slip of unit or exponent ("1e9 L"), not planned (our limit: lab mixing tanks and
+ * reactors hold from a few mL to a few m^3; common practice, not a standard).
+ */
+export const PLAUSIBLE_VOLUME_M3 = {
+  min: 1e-6,
+  max: 10,
+  text: '1 mL to 10 m^3 (10000 L), the sizes of lab mixing tanks and reactors (our limit, so that a slip of unit or exponent is caught); check the number and the unit',
+} as const;
+
+/** refuse a positive volume outside PLAUSIBLE_VOLUME_M3 (zero or less is the core's to refuse) */
+export function checkPlausibleVolume(volumeM3: number, what: string, text: string, where: Where): number {
+  const r = PLAUSIBLE_VOLUME_M3;
+  if (volumeM3 > 0 && (volumeM3 < r.min || volumeM3 > r.max))
+    fail({ code: 'out-of-range', what, value: volumeM3, text, allowed: r.text }, where);
+  return volumeM3;
+}
+
 export interface QuantityContext {
   /**
    * barometric pressure, Pa, for converting gauge pressures ("15 psig") to absolute;
@@ -268,6 +287,26 @@ export function parseQuantity(
         text: s,
         expected,
         fault: { kind: 'ambiguous-unit', unit: typed[2], means: m.library, meant: m.meant, number: typed[1] },
+      },
+      where,
+    );
+  }
+  // "22 deg C": two words to a unit library (deg times coulomb); say what to write instead
+  const spaced = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*deg\s+([CF])$/i.exec(s);
+  if (spaced && expected === 'temperature') {
+    const meant = `deg${spaced[2].toUpperCase()}`;
+    return fail(
+      {
+        code: 'bad-quantity',
+        text: s,
+        expected,
+        fault: {
+          kind: 'ambiguous-unit',
+          unit: `deg ${spaced[2]}`,
+          means: 'two words, not a unit',
+          meant,
+          number: spaced[1],
+        },
       },
       where,
     );
