@@ -355,8 +355,9 @@ export function orderCharges(
   const picked: GasSource[] = [];
   for (const e of entries) {
     const s = names.pick(e.name);
-    if (!s) unknown.push(e.name);
-    else {
+    if (!s) {
+      if (!unknown.includes(e.name)) unknown.push(e.name);
+    } else {
       charges.push(e.stopPa === undefined ? { source: s } : { source: s, stopPa: e.stopPa });
       if (!picked.includes(s)) picked.push(s);
     }

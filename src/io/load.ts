@@ -602,7 +602,7 @@ function orderEntries(
   gaugeCtx: GaugeContext,
 ): OrderEntry[] {
   return order.map((item, i) => {
-    const where = W(['order', i], 'order');
+    const where = W(['order', i], `order[${i}]`);
     const typed =
       typeof item === 'string'
         ? item.trim()
@@ -680,7 +680,7 @@ function checkStopsBelowFinal(r: RecipeFile, supply: Supply, finalPa: number, W:
     const entry = typeof item === 'string' ? item.trim() : `${item.fill}@${item.until}`;
     fail(
       { code: 'order-stop', entry, fault: { kind: 'not-below-final', stopPa: c.stopPa, finalPa } },
-      W(['order', k], 'order'),
+      W(['order', k], `order[${k}]`),
     );
   });
 }

@@ -168,7 +168,9 @@ export const PHYSICAL_RANGE: Readonly<Record<Dimension, { min: number; max: numb
 export const PLAUSIBLE_VOLUME_M3 = {
   min: 1e-6,
   max: 10,
-  text: '1 mL to 10 m^3 (10000 L), the sizes of lab mixing tanks and reactors (our limit, so that a slip of unit or exponent is caught); check the number and the unit',
+  text:
+    '1 mL to 10 m^3 (10000 L), the sizes of lab mixing tanks and reactors (our limit, so that ' +
+    'a slip of unit or exponent is caught); check the number and the unit',
 } as const;
 
 /** refuse a positive volume outside PLAUSIBLE_VOLUME_M3 (zero or less is the core's to refuse) */
@@ -244,6 +246,20 @@ function checkRange(v: number, s: string, expected: Dimension, where: Where): nu
 
 const own = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
 
+/** "22 deg C": two words to a unit library (deg times coulomb); refused, saying what to write instead */
+function spacedDegrees(s: string, where: Where): void {
+  const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*deg\s+([CF])$/i.exec(s);
+  if (!m) return;
+  const fault = {
+    kind: 'ambiguous-unit',
+    unit: `deg ${m[2]}`,
+    means: 'two words, not a unit',
+    meant: `deg${m[2].toUpperCase()}`,
+    number: m[1],
+  } as const;
+  fail({ code: 'bad-quantity', text: s, expected: 'temperature', fault }, where);
+}
+
 /**
  * Parse "<number> <unit>" into the SI value of the expected dimension.
  * A bare number is refused: a pressure without a unit is the classic wrong-target error.
@@ -291,26 +307,7 @@ export function parseQuantity(
       where,
     );
   }
-  // "22 deg C": two words to a unit library (deg times coulomb); say what to write instead
-  const spaced = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*deg\s+([CF])$/i.exec(s);
-  if (spaced && expected === 'temperature') {
-    const meant = `deg${spaced[2].toUpperCase()}`;
-    return fail(
-      {
-        code: 'bad-quantity',
-        text: s,
-        expected,
-        fault: {
-          kind: 'ambiguous-unit',
-          unit: `deg ${spaced[2]}`,
-          means: 'two words, not a unit',
-          meant,
-          number: spaced[1],
-        },
-      },
-      where,
-    );
-  }
+  if (expected === 'temperature') spacedDegrees(s, where);
   if (typed && own(GAUGE_UNITS, typed[2])) {
     const unit = GAUGE_UNITS[typed[2]];
     if (expected !== 'pressure')
