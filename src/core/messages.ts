@@ -143,9 +143,6 @@ export function describeProblem(p: Problem): string {
     case 'charges-invalid':
     case 'split-stop':
       return describeChargeProblem(p);
-    // raised by the fill order (charges and their stops)
-    case 'order-stop':
-      return describeOrderStop(p.entry, p.fault);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);
@@ -566,6 +563,7 @@ type CommandLineProblemCode =
   | 'unknown-schema'
   | 'duplicate-id'
   | 'bad-temperature-difference'
+  | 'order-stop'
   | FileProblemCode
   | RecipeProblemCode;
 
@@ -608,6 +606,9 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
         `cannot read "${p.text}" as a temperature difference: give it in K or mK, e.g. "0.3 K" ` +
         `(a difference, so never in degC or degF, whose zero is offset)`
       );
+    // raised by the fill order (charges and their stops)
+    case 'order-stop':
+      return describeOrderStop(p.entry, p.fault);
     default:
       return describeFileProblem(p);
   }

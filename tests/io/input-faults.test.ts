@@ -166,8 +166,8 @@ describe('one writeCauseOf for file writes and the batch log', () => {
       'not written: the disk is full; free some space and try again (ENOSPC)',
     );
     const other = Object.assign(new Error('cross-device link not permitted'), { code: 'EXDEV' });
-    expect(writeCauseOf(other).message).toBe('EXDEV: cross-device link not permitted');
-    expect(writeCauseOf(other, 'after').message).toBe('cross-device link not permitted');
+    expect(writeCauseOf(other)).toMatchObject({ message: 'EXDEV: cross-device link not permitted' });
+    expect(writeCauseOf(other, 'after')).toMatchObject({ message: 'cross-device link not permitted' });
     expect(writeCauseOf(new ShortWriteError(3, 10), 'after')).toEqual({
       kind: 'short-write',
       written: 3,
