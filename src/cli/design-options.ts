@@ -134,7 +134,9 @@ export const DESIGN_OPTIONS: readonly DesignOption[] = [
   },
   {
     flag: '--order <list>',
-    help: 'fill order, e.g. CH4,O2,Ar',
+    help:
+      'fill order, e.g. CH4,O2,Ar; a gas named again is filled in another charge, which may ' +
+      'stop at an absolute reading: "CH4,Ar@400 Torr,O2,Ar"',
     recipe: 'order',
     parse: 'list',
     json: 'order.fills',

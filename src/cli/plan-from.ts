@@ -1,6 +1,13 @@
 /** A recipe file and the design options -> the plan, with every refusal pointed at the file line or option. */
 import { planWithPrediction } from '../io/plan-predict.js';
-import { batchSizeFinding, experimentsServed, planFill, ProblemError, type Plan } from '../core/index.js';
+import {
+  batchSizeFinding,
+  experimentsServed,
+  planFill,
+  premixFindings,
+  ProblemError,
+  type Plan,
+} from '../core/index.js';
 import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
 import { isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { PlanMeta } from '../report/plan-json.js';
@@ -64,6 +71,9 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues): Plann
   // a batch too small for one experiment is a warning finding, with the plan's own
   const tooSmall = req.sizing ? batchSizeFinding(req.sizing, plan.final.pressurePa) : undefined;
   if (tooSmall) plan = { ...plan, findings: [...plan.findings, tooSmall] };
+  // a premix filled in place of single gases is stated, with the composition change it causes
+  const inPlace = premixFindings(req.premixInPlace, plan);
+  if (inPlace.length) plan = { ...plan, findings: [...plan.findings, ...inPlace] };
   return {
     plan,
     req,

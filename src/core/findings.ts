@@ -172,6 +172,22 @@ export type Finding = Base &
         /** no danger or warning that a stop can change (states, paths, gauges, supply) remains at this stop */
         readonly clean: boolean;
       }
+    // raised by the choice of cylinders (supply.ts): a premix filled in place of single gases
+    | {
+        readonly code: 'premix-in-place';
+        readonly source: string;
+        readonly label: string;
+        /** the gases it fills together, in a single-gas order (inerts first, oxidizers last) */
+        readonly gases: readonly string[];
+        /** design and filled mole fraction of each of those gases */
+        readonly changes: readonly {
+          readonly species: string;
+          readonly design: number;
+          readonly filled: number;
+        }[];
+        /** the plan's order with the premix replaced by its gases */
+        readonly order: readonly string[];
+      }
   );
 
 export interface FlammabilityNumbers {
@@ -257,12 +273,21 @@ const tankPhrase = (id: string) => (id === GIVEN_VOLUME_TANK ? 'the tank of the 
 const pct = (x: number) => `${(x * 100).toPrecision(3)} %`;
 const kelvin = (k: number) => `${k.toFixed(0)} K (${(k - 273.15).toFixed(0)} degC)`;
 
+/**
+ * A limit of the blend as a percentage, or "not known": with no limit data for any fuel of the
+ * blend, Le Chatelier's mean has nothing to average (the LFL comes out infinite, the LOC 0).
+ */
+function limitPct(f: FlammabilityNumbers, v: number): string {
+  return limitsKnown(f) && Number.isFinite(v) ? pct(v) : 'not known';
+}
+const limitsKnown = (f: FlammabilityNumbers) => f.lfl === undefined || Number.isFinite(f.lfl);
+
 function flammabilityDetail(f: FlammabilityNumbers): string {
   const parts = [`fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} on the N2-equivalent diagram`];
-  if (f.lfl !== undefined) parts.push(`LFL ${pct(f.lfl)}`);
-  if (f.loc !== undefined) parts.push(`LOC ${pct(f.loc)}`);
+  if (f.lfl !== undefined) parts.push(`LFL ${limitPct(f, f.lfl)}`);
+  if (f.loc !== undefined) parts.push(`LOC ${limitPct(f, f.loc)}`);
   if (f.side === 'rich' && f.uflHere !== undefined)
-    parts.push(`rich side: UFL ${pct(f.uflHere)} at this O2 share`);
+    parts.push(`rich side: UFL ${limitPct(f, f.uflHere)} at this O2 share`);
   if (f.flameEquilibriumK !== undefined)
     parts.push(`flame ${f.flameEquilibriumK.toFixed(0)} K (equilibrium)`);
   if (f.flameK !== undefined && f.limitFlameK !== undefined)
@@ -281,6 +306,8 @@ const times = (x: number) => `${x.toFixed(2)} x`;
  * at this O2 share". Only the limits the state is outside of are named.
  */
 function nearLimitDistance(f: FlammabilityNumbers): string {
+  if (!limitsKnown(f))
+    return 'no flammability limits on file for any fuel it holds, so its distance from them is not known';
   const parts: string[] = [];
   if (f.fuelOverLfl !== undefined && f.lfl !== undefined && f.fuelOverLfl < 1)
     parts.push(`fuel at ${times(f.fuelOverLfl)} LFL (${pct(f.fuelFraction)} against ${pct(f.lfl)})`);
@@ -660,6 +687,7 @@ const SPLIT: WordingTable<'split-point-chosen'> = {
 
 const WORDING: WordingTable<FindingCode> = {
   'predicted-u-over-tolerance': describePredictedOver,
+  'premix-in-place': describePremixInPlace,
   ...DATA_COVERAGE,
   ...TANK_AND_GAUGES,
   ...SUPPLY,
@@ -682,4 +710,26 @@ export function worstSeverity(findings: readonly Finding[]): Severity | undefine
   if (findings.some((f) => f.severity === 'warning')) return 'warning';
   if (findings.length) return 'note';
   return undefined;
+}
+
+// raised by the choice of cylinders (supply.ts)
+/** a premix filled in place of single gases: which, why, the composition change, how to avoid it */
+function describePremixInPlace(f: Extract<Finding, { code: 'premix-in-place' }>): string {
+  const change = f.changes
+    .map((c) => {
+      const rel =
+        c.design > 0
+          ? ` (${c.filled >= c.design ? '+' : ''}${((c.filled / c.design - 1) * 100).toPrecision(2)} %)`
+          : '';
+      return `x(${c.species}) ${c.design.toPrecision(6)} designed, ${c.filled.toPrecision(6)} filled${rel}`;
+    })
+    .join('; ');
+  const verdict = f.severity === 'warning' ? 'outside the tolerance' : 'within the tolerance';
+  return (
+    `${f.source}, ${f.label}, fills ${f.gases.join(' and ')} together, in place of single-gas ` +
+    `cylinders, because the design holds them in the cylinder's ratio (within 0.1 %): ${change} - ` +
+    `${verdict}. ` +
+    `To fill each gas from its own cylinder, name them one by one in the fill order, e.g. ` +
+    `--order ${f.order.join(',')} (or order: in the recipe); the safety review then judges that order`
+  );
 }

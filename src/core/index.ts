@@ -31,6 +31,7 @@ export type {
   ShownValue,
   WriteCause,
   YamlFault,
+  StopFault,
 } from './problems.js';
 export { describeProblem, describeProblemAt, describeWhere, formatNumber } from './messages.js';
 export { designMixture, equivalenceRatio, isNormalised, oxygenBalance, speciesRole } from './composition.js';
@@ -69,8 +70,17 @@ export type { VirialModel, VirialEntry, VirialMethod, ThirdVirialPair } from './
 export { cpMolar, enthalpyMolar, entropyMolar, gammaMixture, hasThermo, thermoRangeK } from './thermo.js';
 export { nnls } from './nnls.js';
 export type { NnlsResult } from './nnls.js';
-export { allocate, chooseSources, orderSources, premix, pureCylinder } from './supply.js';
-export type { Allocation, GasSource, SourceKind } from './supply.js';
+export {
+  allocate,
+  chooseSources,
+  orderCharges,
+  premix,
+  premixFindings,
+  pureCylinder,
+  sourcesByName,
+  sourcesFromList,
+} from './supply.js';
+export type { Allocation, GasSource, OrderEntry, OrderedCharges, SourceKind } from './supply.js';
 export { canRead, chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, readingUncertaintyPa } from './gauges.js';
 export type { Gauge, GaugeReference, ReadingContext } from './gauges.js';
 export { fillLabel, planFill, MODEL_T_RANGE_K, MAX_NON_IDEALITY } from './planner.js';

@@ -10,6 +10,7 @@ import type {
   ReadCause,
   ShownValue,
   Where,
+  StopFault,
   WriteCause,
   YamlFault,
 } from './problems.js';
@@ -68,7 +69,10 @@ export function describeProblem(p: Problem): string {
         `is outside the allowed range ${p.allowed}`
       );
     case 'wrong-dimension':
-      return `"${p.text}" is a ${p.got}, but a ${p.expected} is needed here`;
+      return (
+        `"${p.text}" is a ${p.got}, but a ${p.expected} is needed here; give a number and a ` +
+        `${p.expected} unit, e.g. ${exampleFor(p.expected)}`
+      );
     case 'bad-quantity':
       return (
         `cannot read "${p.text}" as a ${p.expected}: ${sentence(describeQuantityFault(p.fault))} Give a ` +
@@ -164,7 +168,10 @@ function describeInputProblem(
 ): string {
   switch (p.code) {
     case 'order-missing':
-      return `the fill order leaves out ${list(p.missing)}; name every fill exactly once`;
+      return (
+        `the fill order leaves out ${list(p.missing)}; name every fill at least once ` +
+        `(a gas named again is filled in another charge)`
+      );
     case 'order-repeated':
       return `the fill order names ${list(p.repeated)} more than once; name every fill exactly once`;
     case 'order-unknown':
@@ -550,6 +557,7 @@ type CommandLineProblemCode =
   | 'unknown-schema'
   | 'duplicate-id'
   | 'bad-temperature-difference'
+  | 'order-stop'
   | FileProblemCode
   | RecipeProblemCode;
 
@@ -580,12 +588,21 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
     case 'unknown-schema':
       return `unknown format "${p.name}"; choose ${p.choices.join(' or ')}`;
     case 'duplicate-id':
-      return `the id "${p.id}" is used twice; ids of tanks, reactors, gauges and cylinders must be unique`;
+      return (
+        `the id "${p.id}" is used twice` +
+        (p.first
+          ? ` (first at ${p.first.line !== undefined ? `line ${p.first.line}, ` : ''}${p.first.field}, again here)`
+          : '') +
+        `; ids of tanks, reactors, gauges and cylinders must be unique - rename one of them`
+      );
     case 'bad-temperature-difference':
       return (
         `cannot read "${p.text}" as a temperature difference: give it in K or mK, e.g. "0.3 K" ` +
         `(a difference, so never in degC or degF, whose zero is offset)`
       );
+    // raised by the fill order (charges and their stops)
+    case 'order-stop':
+      return describeOrderStop(p.entry, p.fault);
     default:
       return describeFileProblem(p);
   }
@@ -913,6 +930,12 @@ function exampleFor(expected: string): string {
       return '"22 degC", "22 °C", "71.6 degF" or "295.15 K"';
     case 'pressure rate':
       return '"1e-4 Torr/min"';
+    case 'length':
+      return '"0.32 m" or "320 mm"';
+    case 'time':
+      return '"30 min" or "2 h"';
+    case 'mass':
+      return '"1.5 g" or "0.2 kg"';
     default:
       return '"1 bar"';
   }
@@ -980,6 +1003,55 @@ function describeChargeProblem(p: ChargeProblem): string {
         `the stop reading of ${which(p)}, ${paTorr(p.stopPa)}, needs all of the ${p.source} the batch ` +
         `takes or more, leaving nothing for its last charge; a stop must be below ${paTorr(p.largestPa)} - ` +
         `give a lower stop, or raise the final pressure`
+      );
+  }
+}
+
+// raised by the fill order (charges and their stops)
+/** a pressure of a stop message: Pa and Torr, absolute */
+const stopPressure = (pa: number) => `${formatNumber(pa)} Pa (${formatNumber(pa / TORR_PA)} Torr) absolute`;
+
+const STOP_FORM =
+  'the absolute tank reading to stop at after @, a number and a pressure unit, ' +
+  'e.g. "Ar@400 Torr" or "Ar@53.3 kPa"';
+
+/** why a charge's stop (after @ in a fill order) is refused, and what to write instead */
+function describeOrderStop(entry: string, f: StopFault): string {
+  const at = `the fill order entry "${entry}"`;
+  switch (f.kind) {
+    case 'on-last-charge':
+      return (
+        `${at} gives a stop on the last charge of ${f.source}` +
+        (f.charges > 1 ? ` (charge ${f.charges} of ${f.charges})` : ' (its only charge)') +
+        `; the last charge fills to the design amount, so its reading is the plan's. Leave out ` +
+        `the @ on it, or name ${f.source} again later for a further charge`
+      );
+    case 'empty':
+      return `${at} has nothing after @; write ${STOP_FORM}, or leave out the @ and let the plan choose`;
+    case 'unit-missing':
+      return `${at} gives a stop without a unit; write ${STOP_FORM}`;
+    case 'not-a-pressure':
+      return `${at} gives a stop that is a ${f.got}, not a pressure; write ${STOP_FORM}`;
+    case 'unreadable':
+      return `${at}: cannot read its stop: ${sentence(describeQuantityFault(f.quantity))} Write ${STOP_FORM}`;
+    case 'not-above-previous': {
+      const before =
+        f.previous.kind === 'stop'
+          ? `the stop before it ("${f.previous.entry}", ${stopPressure(f.previous.stopPa)})`
+          : f.previous.kind === 'in-tank'
+            ? `the gas already in the tank (${stopPressure(f.previous.pressurePa)})`
+            : 'the evacuated tank (0 Pa)';
+      return (
+        `${at} stops at ${stopPressure(f.stopPa)}, not above ${before}; the tank pressure ` +
+        `only rises during a fill, so each stop must be higher than the one before it - ` +
+        `correct the stops, or leave one out and let the plan choose`
+      );
+    }
+    case 'not-below-final':
+      return (
+        `${at} stops at ${stopPressure(f.stopPa)}, not below the final pressure ` +
+        `${stopPressure(f.finalPa)}; a stop must leave room for the charges after it - ` +
+        `give a lower stop, or leave it out and let the plan choose`
       );
   }
 }

@@ -233,7 +233,12 @@ export type Problem =
   | { readonly code: 'label-needs-log' }
   | { readonly code: 'unknown-schema'; readonly name: string; readonly choices: readonly string[] }
   /** an id used twice among the tanks, reactors, gauges and cylinders of a lab profile */
-  | { readonly code: 'duplicate-id'; readonly id: string }
+  | {
+      readonly code: 'duplicate-id';
+      readonly id: string;
+      /** where the id was first used: its line (when the profile is a file) and field */
+      readonly first?: { readonly line?: number; readonly field: string };
+    }
   /** a thermometer uncertainty or resolution not in K or mK */
   | { readonly code: 'bad-temperature-difference'; readonly text: string }
   /** recipe fields that exclude each other */
@@ -252,7 +257,14 @@ export type Problem =
   // raised by the planner
   | PlannerProblem
   // raised by the planner's split charges (a source filled in more than one charge)
-  | ChargeProblem;
+  | ChargeProblem
+  // raised by the fill order (charges and their stops)
+  | {
+      readonly code: 'order-stop';
+      /** the order entry as typed, e.g. "Ar@400 Torr" */
+      readonly entry: string;
+      readonly fault: StopFault;
+    };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
 export type ChargeProblem =
@@ -315,6 +327,25 @@ export type ChargeProblem =
       /** the reading with all that is left of the source's allocation: a stop must be below it */
       readonly largestPa: number;
     };
+
+/** why the tank reading to stop a charge at (after `@` in a fill order) is refused */
+export type StopFault =
+  /** a stop on the last charge of its source: that charge fills to the design amount */
+  | { readonly kind: 'on-last-charge'; readonly source: string; readonly charges: number }
+  | { readonly kind: 'empty' }
+  | { readonly kind: 'unit-missing' }
+  | { readonly kind: 'not-a-pressure'; readonly got: string }
+  | { readonly kind: 'unreadable'; readonly quantity: QuantityFault }
+  /** stops rise with the fill: each above the stop before it, the gas already in the tank, or zero */
+  | {
+      readonly kind: 'not-above-previous';
+      readonly stopPa: number;
+      readonly previous:
+        | { readonly kind: 'stop'; readonly entry: string; readonly stopPa: number }
+        | { readonly kind: 'in-tank'; readonly pressurePa: number }
+        | { readonly kind: 'evacuated' };
+    }
+  | { readonly kind: 'not-below-final'; readonly stopPa: number; readonly finalPa: number };
 
 /** who holds a batch log's lock: from the lock file */
 export interface LockHolder {

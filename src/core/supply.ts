@@ -4,8 +4,10 @@
  * from each, by non-negative least squares on the species amounts.
  */
 import { nnls } from './nnls.js';
-import { FRACTION_SUM_TOL, type Fractions } from './composition.js';
-import { fail } from './problems.js';
+import { FRACTION_SUM_TOL, speciesRole, type Fractions } from './composition.js';
+import type { Finding } from './findings.js';
+import { allowedDeviation, type Tolerance } from './plan/types.js';
+import { fail, type StopFault, type Where } from './problems.js';
 
 export type SourceKind = 'cylinder' | 'premix' | 'vapour' | 'in-tank';
 
@@ -196,16 +198,20 @@ export function allocate(
   };
 }
 
-/**
- * Choose the sources for a design from the cylinders on hand: a premixed cylinder
- * when the design holds its major components in the same ratio (within 0.1 %
- * relative), else the purest cylinder of each species, else an assumed-pure one
- * (flagged by the planner).
- */
-export function chooseSources(design: Fractions, available: readonly GasSource[]): GasSource[] {
+/** the purest single-gas cylinder of a species on hand, else an assumed-pure one (flagged by the planner) */
+function singleGasCylinder(sp: string, available: readonly GasSource[]): GasSource {
+  const pure = available
+    .filter((s) => s.kind !== 'premix' && s.kind !== 'in-tank' && s.mainSpecies === sp)
+    .sort((a, b) => (b.composition[sp] ?? 0) - (a.composition[sp] ?? 0));
+  return (
+    pure[0] ?? pureCylinder({ id: `${sp}-assumed`, label: `${sp} (no cylinder in lab profile)`, species: sp })
+  );
+}
+
+/** the premixes whose major components are all in the design, in the design's ratios (within 0.1 %) */
+function matchingPremixes(design: Fractions, available: readonly GasSource[]) {
   const need = new Set(Object.keys(design).filter((k) => design[k] > 0));
-  const chosen: GasSource[] = [];
-  const premixes = available
+  return available
     .filter((s) => s.kind === 'premix')
     .map((s) => ({ s, major: majorComponents(s) }))
     .filter(({ major }) => major.length > 1 && major.every(([k]) => need.has(k)))
@@ -214,52 +220,220 @@ export function chooseSources(design: Fractions, available: readonly GasSource[]
       return major.every(([k, v]) => Math.abs(design[k] / design[k0] / (v / v0) - 1) <= PREMIX_RATIO_MATCH);
     })
     .sort((a, b) => b.major.length - a.major.length);
-  for (const { s, major } of premixes) {
+}
+
+/**
+ * Choose the sources for a design from the cylinders on hand, when no fill order names them:
+ * a premixed cylinder when the design holds its major components in the same ratio (within
+ * 0.1 % relative), else the purest cylinder of each species, else an assumed-pure one
+ * (flagged by the planner). A premix used in place of single gases is a substitution that the
+ * plan states (`premixFindings`); naming the gases in the order avoids it.
+ */
+export function chooseSources(design: Fractions, available: readonly GasSource[]): GasSource[] {
+  const need = new Set(Object.keys(design).filter((k) => design[k] > 0));
+  const chosen: GasSource[] = [];
+  for (const { s, major } of matchingPremixes(design, available)) {
     if (major.every(([k]) => need.has(k))) {
       chosen.push(s);
       for (const [k] of major) need.delete(k);
     }
   }
-  for (const sp of need) {
-    const pure = available
-      .filter((s) => s.kind !== 'premix' && s.kind !== 'in-tank' && s.mainSpecies === sp)
-      .sort((a, b) => (b.composition[sp] ?? 0) - (a.composition[sp] ?? 0));
-    chosen.push(
-      pure[0] ??
-        pureCylinder({ id: `${sp}-assumed`, label: `${sp} (no cylinder in lab profile)`, species: sp }),
-    );
-  }
+  for (const sp of need) chosen.push(singleGasCylinder(sp, available));
   return chosen;
 }
 
+/** one entry of a fill order: a source's name, and the absolute tank pressure to stop that charge at */
+export interface OrderEntry {
+  readonly name: string;
+  /** Pa, absolute; only on a charge that is not its source's last */
+  readonly stopPa?: number;
+  /** the entry as typed, for messages ("Ar@400 Torr") */
+  readonly text: string;
+  /** where the entry was given (its option or recipe line), for messages */
+  readonly where?: Where;
+}
+
+/** the charges of a fill order: the distinct sources in order of first charge, and every charge */
+export interface OrderedCharges {
+  readonly sources: readonly GasSource[];
+  readonly charges: readonly { readonly source: GasSource; readonly stopPa?: number }[];
+  /** true when some source is filled in more than one charge */
+  readonly split: boolean;
+}
+
+/** how an order names a source: its gas for a single-gas cylinder, its id for a premix */
+const orderName = (s: GasSource) => (s.kind === 'premix' ? s.id : s.mainSpecies);
+
 /**
- * Put sources in the order the user names them. Each name is a source id or the
- * main species of one source; every source must be named exactly once.
+ * The sources an order names, when it names them from the whole lab: a cylinder id; a premix by
+ * its fill label ("N2+O2"); a species of the design by its single-gas cylinder. Species named one
+ * by one are never taken from a premix. Returns the resolver and the names it accepts.
  */
-export function orderSources(
-  sources: readonly GasSource[],
-  names: readonly string[],
+export function sourcesByName(
+  design: Fractions,
+  available: readonly GasSource[],
   resolve: (n: string) => string | undefined,
-): GasSource[] {
-  const picked: GasSource[] = [];
-  const unknown: string[] = [];
-  const repeated: string[] = [];
-  for (const n of names) {
+): { pick: (name: string) => GasSource | undefined; choices: string[] } {
+  // a premix serves when every gas it brings is in the design (else it would add a gas not asked for)
+  const inDesign = (s: GasSource) =>
+    s.kind === 'premix'
+      ? majorComponents(s).every(([k]) => (design[k] ?? 0) > 0)
+      : (design[s.mainSpecies] ?? 0) > 0;
+  const usable = available.filter((s) => s.kind !== 'in-tank' && inDesign(s));
+  const single = new Map<string, GasSource>();
+  const pick = (name: string): GasSource | undefined => {
+    const byId =
+      usable.find((s) => s.id === name) ?? usable.find((s) => s.kind === 'premix' && fillLabel(s) === name);
+    if (byId) return byId;
+    const key = resolve(name) ?? name;
+    if (!((design[key] ?? 0) > 0)) return undefined;
+    if (!single.has(key)) single.set(key, singleGasCylinder(key, available));
+    return single.get(key);
+  };
+  const species = Object.keys(design).filter((k) => design[k] > 0);
+  const premixIds = usable.filter((s) => s.kind === 'premix').map((s) => s.id);
+  return { pick, choices: [...species, ...premixIds] };
+}
+
+/**
+ * The sources of the given list (a recipe's `sources`) by name: a source id, the main species of
+ * one source, or a major component of a premix among them.
+ */
+export function sourcesFromList(
+  sources: readonly GasSource[],
+  resolve: (n: string) => string | undefined,
+): { pick: (name: string) => GasSource | undefined; choices: string[] } {
+  const pick = (n: string) => {
     const key = resolve(n) ?? n;
-    const s =
+    return (
       sources.find((x) => x.id === n) ??
       sources.find((x) => x.mainSpecies === key) ??
-      sources.find((x) => (x.composition[key] ?? 0) >= MAJOR_COMPONENT_FRACTION);
-    if (!s) unknown.push(n);
-    else if (picked.includes(s)) repeated.push(n);
-    else picked.push(s);
+      sources.find((x) => (x.composition[key] ?? 0) >= MAJOR_COMPONENT_FRACTION)
+    );
+  };
+  return { pick, choices: sources.map(orderName) };
+}
+
+/** stops rise: each above the stop before it, the gas already in the tank, or the evacuated tank */
+function checkStopsRise(entries: readonly OrderEntry[], inTankPa: number | undefined): void {
+  type Previous = Extract<StopFault, { kind: 'not-above-previous' }>['previous'];
+  let previous: Previous =
+    inTankPa !== undefined && inTankPa > 0
+      ? { kind: 'in-tank', pressurePa: inTankPa }
+      : { kind: 'evacuated' };
+  let floorPa = previous.kind === 'in-tank' ? previous.pressurePa : 0;
+  for (const e of entries) {
+    if (e.stopPa === undefined) continue;
+    if (!(e.stopPa > floorPa))
+      fail(
+        {
+          code: 'order-stop',
+          entry: e.text,
+          fault: { kind: 'not-above-previous', stopPa: e.stopPa, previous },
+        },
+        e.where,
+      );
+    previous = { kind: 'stop', entry: e.text, stopPa: e.stopPa };
+    floorPa = e.stopPa;
   }
-  const choices = sources.map((s) => (s.kind === 'premix' ? s.id : s.mainSpecies));
-  if (unknown.length) fail({ code: 'order-unknown', unknown, choices }, { field: 'order' });
-  if (repeated.length) fail({ code: 'order-repeated', repeated }, { field: 'order' });
-  const missing = sources
-    .filter((s) => !picked.includes(s))
-    .map((s) => (s.kind === 'premix' ? s.id : s.mainSpecies));
+}
+
+/**
+ * Put the charges in the order the user names them. A source may be named more than once (one
+ * charge each); a charge that is not its source's last may carry the absolute tank pressure to
+ * stop at, and stops rise along the order. `required`: the sources that must each be named (a
+ * recipe's list), or the design species the named sources must together supply.
+ */
+export function orderCharges(
+  entries: readonly OrderEntry[],
+  names: { pick: (name: string) => GasSource | undefined; choices: readonly string[] },
+  required: { readonly sources: readonly GasSource[] } | { readonly species: readonly string[] },
+  inTankPa?: number,
+): OrderedCharges {
+  const unknown: string[] = [];
+  const charges: { source: GasSource; stopPa?: number }[] = [];
+  const picked: GasSource[] = [];
+  for (const e of entries) {
+    const s = names.pick(e.name);
+    if (!s) {
+      if (!unknown.includes(e.name)) unknown.push(e.name);
+    } else {
+      charges.push(e.stopPa === undefined ? { source: s } : { source: s, stopPa: e.stopPa });
+      if (!picked.includes(s)) picked.push(s);
+    }
+  }
+  if (unknown.length)
+    fail({ code: 'order-unknown', unknown, choices: [...names.choices] }, { field: 'order' });
+  const missing =
+    'sources' in required
+      ? required.sources.filter((s) => !picked.includes(s)).map(orderName)
+      : required.species.filter(
+          (sp) => !picked.some((s) => (s.composition[sp] ?? 0) >= MAJOR_COMPONENT_FRACTION),
+        );
   if (missing.length) fail({ code: 'order-missing', missing }, { field: 'order' });
-  return picked;
+  charges.forEach((c, k) => {
+    if (c.stopPa === undefined || charges.slice(k + 1).some((d) => d.source === c.source)) return;
+    const count = charges.filter((d) => d.source === c.source).length;
+    fail(
+      {
+        code: 'order-stop',
+        entry: entries[k].text,
+        fault: { kind: 'on-last-charge', source: orderName(c.source), charges: count },
+      },
+      entries[k].where,
+    );
+  });
+  checkStopsRise(entries, inTankPa);
+  return { sources: picked, charges, split: charges.length > picked.length };
+}
+
+/** the gases of a premix in the order a single-gas fill would take them: inerts first, oxidizers last */
+function gasesOf(s: GasSource): string[] {
+  const rank = (k: string) => ({ fuel: 0, inert: 1, oxidizer: 2 })[speciesRole(k)];
+  return majorComponents(s)
+    .map(([k]) => k)
+    .sort((a, b) => rank(a) - rank(b) || (s.composition[b] ?? 0) - (s.composition[a] ?? 0));
+}
+
+/**
+ * The premixes a plan fills in place of single gases, stated: which cylinder fills which gases,
+ * and the composition change it causes (design against filled fraction of each of its gases, the
+ * filled one with every cylinder's impurities). A warning when a change exceeds the tolerance,
+ * else a note. `order` is the plan's order with each premix replaced by its gases: naming them so
+ * in the fill order uses single-gas cylinders instead.
+ */
+export function premixFindings(
+  premixes: readonly GasSource[],
+  plan: {
+    readonly design: { readonly composition: Fractions };
+    readonly composition: Fractions;
+    readonly tolerance: Tolerance;
+    readonly steps: readonly { readonly source: GasSource }[];
+  },
+): Finding[] {
+  const order: string[] = [];
+  for (const { source } of plan.steps)
+    for (const n of source.kind === 'premix' ? gasesOf(source) : [source.mainSpecies])
+      if (!order.includes(n)) order.push(n);
+  return premixes
+    .filter((p) => plan.steps.some((s) => s.source === p))
+    .map((p) => {
+      const changes = gasesOf(p).map((species) => ({
+        species,
+        design: plan.design.composition[species] ?? 0,
+        filled: plan.composition[species] ?? 0,
+      }));
+      const outside = changes.some(
+        (c) => Math.abs(c.filled - c.design) > allowedDeviation(plan.tolerance, c.design),
+      );
+      return {
+        severity: outside ? 'warning' : 'note',
+        code: 'premix-in-place',
+        source: p.id,
+        label: p.label,
+        gases: gasesOf(p),
+        changes,
+        order,
+      };
+    });
 }

@@ -78,12 +78,25 @@ export function writeAllSync(fd: number, buf: Uint8Array): void {
   }
 }
 
-/** why a write failed, as the typed cause of a write-failed problem */
-export function writeCauseOf(e: unknown): WriteCause {
+/**
+ * Why a write failed, as the typed cause of a write-failed problem: a short write with its byte
+ * counts, else the operating system's error code and a plain account of it. `code`: where the
+ * message shows the error code, inside the account as writeErrorReason words it ("the disk is
+ * full (ENOSPC); free some space ...", file writes), or after it ("the disk is full; free some
+ * space ... (ENOSPC)", the batch log: the account is kept free of the code, and the wording adds it).
+ */
+export function writeCauseOf(e: unknown, code: 'inside' | 'after' = 'inside'): WriteCause {
   if (e instanceof ShortWriteError) return { kind: 'short-write', written: e.written, expected: e.expected };
-  const errno = (e as NodeJS.ErrnoException)?.code;
-  return { kind: 'system', errno: errno ?? 'no error code', message: writeErrorReason(e) };
+  const err = e as NodeJS.ErrnoException;
+  const errno = typeof err?.code === 'string' ? err.code : 'no error code';
+  const text = writeErrorReason(e);
+  const message =
+    code === 'after' && err?.code ? text.replace(` (${err.code})`, '').replace(`${err.code}: `, '') : text;
+  return { kind: 'system', errno, message };
 }
+
+/** writeCauseOf with the error code after the account (the batch log's wording) */
+export const writeCauseCodeAfter = (e: unknown): WriteCause => writeCauseOf(e, 'after');
 
 /** fsync a folder so that a new name in it survives a power cut; not every platform allows it */
 export function fsyncFolder(dir: string): void {

@@ -49,8 +49,8 @@ import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
 import { z } from 'zod';
 import { fail, ProblemError } from '../core/index.js';
-import type { Gauge, GasSource, LogFault, Problem, WriteCause } from '../core/index.js';
-import { fsyncFolder, ShortWriteError, writeAllSync, writeErrorReason, writeFileAtomic } from './atomic.js';
+import type { Gauge, GasSource, LogFault, Problem } from '../core/index.js';
+import { fsyncFolder, writeAllSync, writeCauseCodeAfter as writeCauseOf, writeFileAtomic } from './atomic.js';
 
 export const LOG_FORMAT = 'mixwright-batch/2';
 const LOG_VERSION = 2;
@@ -415,19 +415,6 @@ function fault(log: LogFault, file: string, line?: number, field?: string): neve
 function bad(file: string, line: number, event: string, issues: readonly z.ZodIssue[]): never {
   const i = issues[0];
   return fault({ kind: 'invalid-event', event, path: i.path.join('.'), message: i.message }, file, line);
-}
-
-/**
- * the typed cause of a failed write: a short write with its byte counts, else the operating
- * system's error code and a plain account of it (the code itself is shown beside it)
- */
-export function writeCauseOf(e: unknown): WriteCause {
-  if (e instanceof ShortWriteError) return { kind: 'short-write', written: e.written, expected: e.expected };
-  const err = e as NodeJS.ErrnoException;
-  const errno = typeof err?.code === 'string' ? err.code : 'no error code';
-  const text = writeErrorReason(e);
-  const plain = err?.code ? text.replace(` (${err.code})`, '').replace(`${err.code}: `, '') : text;
-  return { kind: 'system', errno, message: plain };
 }
 
 /** a write of the log that failed: what happened to the event is said in the outcome */

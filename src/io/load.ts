@@ -11,11 +11,15 @@ import {
   chooseSources,
   designMixture,
   getSpecies,
-  orderSources,
+  orderCharges,
   premix,
   pureCylinder,
   resolveSpeciesKey,
+  sourcesByName,
+  sourcesFromList,
   type DesignInput,
+  type OrderEntry,
+  type StopFault,
   type Fractions,
   type GasSource,
   type Gauge,
@@ -25,7 +29,7 @@ import {
   finalPressureForExperiments,
   type SizingInput,
 } from '../core/index.js';
-import { parseLength, parseQuantity } from './quantity.js';
+import { checkPlausibleVolume, parseLength, parseQuantity } from './quantity.js';
 import { labSchema, type LabFile } from './lab.js';
 import { recipeSchema, type RecipeFile } from './recipe.js';
 import { keysAt, validate } from './schema-util.js';
@@ -130,10 +134,14 @@ function labBarometer(lab: LabFile, w: LabWhere): { pa: number; uPa: number } {
 
 /** ids of tanks, reactors, gauges and cylinders share one name space: a second use is refused */
 function uniqueIds(w: LabWhere): (id: string, path: DataPath) => void {
-  const ids = new Set<string>();
+  const ids = new Map<string, DataPath>();
   return (id, path) => {
-    if (ids.has(id)) fail({ code: 'duplicate-id', id }, w(path, 'id'));
-    ids.add(id);
+    const first = ids.get(id);
+    if (first) {
+      const field = `${String(first[0])}[${String(first[1])}].id`;
+      fail({ code: 'duplicate-id', id, first: { line: w(first, field).line, field } }, w(path, 'id'));
+    }
+    ids.set(id, path);
   };
 }
 
@@ -145,6 +153,7 @@ function loadTank(t: LabFile['tanks'][number], i: number, w: LabWhere, gaugeCtx:
       { code: 'not-positive', what: `volume of tank ${t.id}`, value: volumeM3, text: t.volume },
       at('volume'),
     );
+  checkPlausibleVolume(volumeM3, `volume of tank ${t.id}`, t.volume, at('volume'));
   const rated =
     t.rating === undefined ? undefined : parseQuantity(t.rating, 'pressure', at('rating'), gaugeCtx);
   if (rated !== undefined && !(rated > 0))
@@ -177,8 +186,21 @@ function loadReactor(
   return {
     id: r.id,
     label: r.label ?? r.id,
-    volumeM3: parseQuantity(r.volume, 'volume', at('volume')),
-    lineVolumeM3: r.line_volume === undefined ? 0 : parseQuantity(r.line_volume, 'volume', at('line_volume')),
+    volumeM3: checkPlausibleVolume(
+      parseQuantity(r.volume, 'volume', at('volume')),
+      `volume of reactor ${r.id}`,
+      r.volume,
+      at('volume'),
+    ),
+    lineVolumeM3:
+      r.line_volume === undefined
+        ? 0
+        : checkPlausibleVolume(
+            parseQuantity(r.line_volume, 'volume', at('line_volume')),
+            `line volume of reactor ${r.id}`,
+            r.line_volume,
+            at('line_volume'),
+          ),
     fillPressurePa: parseQuantity(r.fill_pressure, 'pressure', at('fill_pressure'), gaugeCtx),
     temperatureK:
       r.temperature === undefined
@@ -364,6 +386,8 @@ export interface PlanRequest {
   readonly sizedFor?: number;
   /** the lab's record of the tank (height, stirrer, vacuum), when it came from the profile */
   readonly tankInfo?: LoadedLab['tanks'][number];
+  /** premixes filled in place of single gases without being asked for: the plan states them (premixFindings) */
+  readonly premixInPlace: readonly GasSource[];
 }
 
 export interface Overrides {
@@ -423,7 +447,12 @@ function resolveTank(r: RecipeFile, lab: LoadedLab, W: RecipeWhere, gaugeCtx: Ga
   }
   if (r.volume !== undefined) {
     // a volume of zero or less is the core's to refuse (planner and sizing), pointed back here by locateCoreProblem
-    const volumeM3 = parseQuantity(r.volume, 'volume', W(['volume']));
+    const volumeM3 = checkPlausibleVolume(
+      parseQuantity(r.volume, 'volume', W(['volume'])),
+      'tank volume',
+      r.volume,
+      W(['volume']),
+    );
     tank = tank
       ? { ...tank, volumeM3 }
       : { id: 'given-volume', label: 'tank of the given volume (no rating known)', volumeM3 };
@@ -473,9 +502,16 @@ function resolveReactor(r: RecipeFile, lab: LoadedLab, W: RecipeWhere, gaugeCtx:
   } else if (ex?.reactor_volume === undefined) reactor = lab.reactors[0];
   if (ex?.reactor_volume === undefined && ex?.fill_pressure === undefined && ex?.line_volume === undefined)
     return reactor;
+  const volume = (key: 'reactor_volume' | 'line_volume', text: string, what: string) =>
+    checkPlausibleVolume(
+      parseQuantity(text, 'volume', W(['experiments', key])),
+      what,
+      text,
+      W(['experiments', key]),
+    );
   const volumeM3 =
     ex.reactor_volume !== undefined
-      ? parseQuantity(ex.reactor_volume, 'volume', W(['experiments', 'reactor_volume']))
+      ? volume('reactor_volume', ex.reactor_volume, 'reactor volume')
       : reactor?.volumeM3;
   const fillPressurePa =
     ex.fill_pressure !== undefined
@@ -489,7 +525,7 @@ function resolveReactor(r: RecipeFile, lab: LoadedLab, W: RecipeWhere, gaugeCtx:
     volumeM3,
     lineVolumeM3:
       ex.line_volume !== undefined
-        ? parseQuantity(ex.line_volume, 'volume', W(['experiments', 'line_volume']))
+        ? volume('line_volume', ex.line_volume, 'line volume')
         : (reactor?.lineVolumeM3 ?? 0),
     fillPressurePa,
     temperatureK: reactor?.temperatureK,
@@ -534,26 +570,119 @@ function designOf(r: RecipeFile, lab: LoadedLab, W: RecipeWhere) {
   }
 }
 
-/** the cylinders to fill from (the recipe's, else the lab's best match) in the recipe's order, if given */
-function sourcesOf(r: RecipeFile, lab: LoadedLab, composition: Fractions, W: RecipeWhere): GasSource[] {
-  const sources = r.sources
-    ? r.sources.map((id, i) => {
-        const c = lab.cylinders.find((x) => x.id === id);
-        if (!c)
-          fail(
-            { code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) },
-            W(['sources', i], `sources[${i}]`),
-          );
-        return c;
-      })
-    : chooseSources(composition, lab.cylinders);
-  if (!r.order) return sources;
+/** what the fill order and the cylinders give the plan */
+interface Supply {
+  /** distinct sources, in fill order when the order is given */
+  readonly sources: GasSource[];
+  /** the charges in fill order, when a source is filled in more than one */
+  readonly charges?: PlanInput['charges'];
+  /** premixes the chooser filled in place of single gases (no order, no list given): the plan states them */
+  readonly premixInPlace: GasSource[];
+}
+
+/** a stop's problem, as the typed problem of the order entry that carries it */
+function stopProblem(e: ProblemError, entry: string): ProblemError {
+  const p = e.problem;
+  const fault: StopFault | undefined =
+    p.code === 'bad-quantity'
+      ? p.fault.kind === 'unit-missing'
+        ? { kind: 'unit-missing' }
+        : { kind: 'unreadable', quantity: p.fault }
+      : p.code === 'wrong-dimension'
+        ? { kind: 'not-a-pressure', got: p.got }
+        : undefined;
+  // a gauge pressure without a barometer, or a value outside the physical window: their own words
+  return fault ? new ProblemError({ code: 'order-stop', entry, fault }, e.where) : e;
+}
+
+/** the recipe's order entries: "Ar", "Ar@400 Torr" or { fill: Ar, until: 400 Torr }, each stop parsed */
+function orderEntries(
+  order: NonNullable<RecipeFile['order']>,
+  W: RecipeWhere,
+  gaugeCtx: GaugeContext,
+): OrderEntry[] {
+  return order.map((item, i) => {
+    const where = W(['order', i], `order[${i}]`);
+    const typed =
+      typeof item === 'string'
+        ? item.trim()
+        : `${item.fill}${item.until === undefined ? '' : `@${item.until}`}`;
+    const at = typeof item === 'string' ? typed.indexOf('@') : -1;
+    const name = (typeof item === 'string' ? (at < 0 ? typed : typed.slice(0, at)) : item.fill).trim();
+    const stopText =
+      typeof item === 'string' ? (at < 0 ? undefined : typed.slice(at + 1).trim()) : item.until;
+    if (stopText === undefined) return { name, text: typed, where };
+    if (stopText === '') return fail({ code: 'order-stop', entry: typed, fault: { kind: 'empty' } }, where);
+    try {
+      return { name, text: typed, where, stopPa: parseQuantity(stopText, 'pressure', where, gaugeCtx) };
+    } catch (e) {
+      if (e instanceof ProblemError) throw stopProblem(e, typed);
+      throw e;
+    }
+  });
+}
+
+/**
+ * The cylinders to fill from and the charges. A recipe's `sources` list, ordered by the order if
+ * one is given; else an order names the cylinders itself (species one by one from single-gas
+ * cylinders, a premix by its id); else the lab's best match, with a premix in place of single
+ * gases where the design holds them in its ratio (stated by the plan).
+ */
+function supplyOf(
+  r: RecipeFile,
+  lab: LoadedLab,
+  composition: Fractions,
+  W: RecipeWhere,
+  gaugeCtx: GaugeContext,
+  inTankPa: number | undefined,
+): Supply {
+  const listed = r.sources?.map((id, i) => {
+    const c = lab.cylinders.find((x) => x.id === id);
+    if (!c)
+      fail(
+        { code: 'unknown-reference', kind: 'cylinder', id, choices: lab.cylinders.map((x) => x.id) },
+        W(['sources', i], `sources[${i}]`),
+      );
+    return c;
+  });
+  if (!r.order) {
+    if (listed) return { sources: listed, premixInPlace: [] };
+    const sources = chooseSources(composition, lab.cylinders);
+    return { sources, premixInPlace: sources.filter((s) => s.kind === 'premix') };
+  }
+  const entries = orderEntries(r.order, W, gaugeCtx);
   try {
-    return orderSources(sources, r.order, resolveSpeciesKey);
+    const ordered = listed
+      ? orderCharges(entries, sourcesFromList(listed, resolveSpeciesKey), { sources: listed }, inTankPa)
+      : orderCharges(
+          entries,
+          sourcesByName(composition, lab.cylinders, resolveSpeciesKey),
+          { species: Object.keys(composition).filter((k) => composition[k] > 0) },
+          inTankPa,
+        );
+    return {
+      sources: [...ordered.sources],
+      charges: ordered.split ? ordered.charges : undefined,
+      premixInPlace: [],
+    };
   } catch (e) {
-    if (e instanceof ProblemError) throw relocate(e, W(['order']));
+    // a stop's problem carries its own entry's line; the others concern the whole order
+    if (e instanceof ProblemError && e.problem.code !== 'order-stop') throw relocate(e, W(['order']));
     throw e;
   }
+}
+
+/** every stop below the final pressure: the charges after it need room */
+function checkStopsBelowFinal(r: RecipeFile, supply: Supply, finalPa: number, W: RecipeWhere): void {
+  supply.charges?.forEach((c, k) => {
+    if (c.stopPa === undefined || c.stopPa < finalPa) return;
+    const item = r.order![k];
+    const entry = typeof item === 'string' ? item.trim() : `${item.fill}@${item.until}`;
+    fail(
+      { code: 'order-stop', entry, fault: { kind: 'not-below-final', stopPa: c.stopPa, finalPa } },
+      W(['order', k], `order[${k}]`),
+    );
+  });
 }
 
 /** the final pressure or the number of experiments: one of them, not both (the count sets the pressure) */
@@ -620,11 +749,11 @@ export function buildPlanRequest(
   const reactor = resolveReactor(r, lab, W, gaugeCtx);
   if (r.experiments?.count !== undefined && !reactor) fail({ code: 'reactor-missing' }, W(['experiments']));
   const design = designOf(r, lab, W);
-  const sources = sourcesOf(r, lab, design.composition, W);
   const inTank: PlanInput['inTank'] = r.in_tank && {
     composition: parseBlend(r.in_tank.composition, W(['in_tank', 'composition'])),
     pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure']), gaugeCtx),
   };
+  const supply = supplyOf(r, lab, design.composition, W, gaugeCtx, inTank?.pressurePa);
   const sizing: SizingInput | undefined = reactor && {
     composition: design.composition,
     tankVolumeM3: tank.volumeM3,
@@ -632,13 +761,16 @@ export function buildPlanRequest(
     reactor,
     margin: lab.fillMargin,
   };
+  const finalPressurePa = finalPressure(r, rs, sizing, gaugeCtx);
+  checkStopsBelowFinal(r, supply, finalPressurePa, W);
   const input: PlanInput = {
     design,
-    finalPressurePa: finalPressure(r, rs, sizing, gaugeCtx),
+    finalPressurePa,
     temperatureK,
     tank,
-    sources,
+    sources: supply.sources,
     order: r.order ? 'given' : 'recommend',
+    charges: supply.charges,
     safety: { coldestK: lab.coldestK, condensationFraction: lab.condensationFraction },
     inTank,
     gauges: lab.gauges,
@@ -656,5 +788,6 @@ export function buildPlanRequest(
     sizing,
     sizedFor: r.experiments?.count,
     tankInfo: lab.tanks.find((t) => t.id === tank.id),
+    premixInPlace: supply.premixInPlace,
   };
 }

@@ -160,6 +160,27 @@ export const PHYSICAL_RANGE: Readonly<Record<Dimension, { min: number; max: numb
   length: { min: 1e-9, max: 1e6, text: 'from 1 nm to 1000 km' },
 };
 
+/**
+ * The volumes a mixing tank, a reactor or its line can have: a positive volume outside this window
+ * is refused as a slip of unit or exponent ("1e9 L"), not planned (our limit: lab mixing tanks and
+ * reactors hold from a few mL to a few m^3; common practice, not a standard).
+ */
+export const PLAUSIBLE_VOLUME_M3 = {
+  min: 1e-6,
+  max: 10,
+  text:
+    '1 mL to 10 m^3 (10000 L), the sizes of lab mixing tanks and reactors (our limit, so that ' +
+    'a slip of unit or exponent is caught); check the number and the unit',
+} as const;
+
+/** refuse a positive volume outside PLAUSIBLE_VOLUME_M3 (zero or less is the core's to refuse) */
+export function checkPlausibleVolume(volumeM3: number, what: string, text: string, where: Where): number {
+  const r = PLAUSIBLE_VOLUME_M3;
+  if (volumeM3 > 0 && (volumeM3 < r.min || volumeM3 > r.max))
+    fail({ code: 'out-of-range', what, value: volumeM3, text, allowed: r.text }, where);
+  return volumeM3;
+}
+
 export interface QuantityContext {
   /**
    * barometric pressure, Pa, for converting gauge pressures ("15 psig") to absolute;
@@ -225,6 +246,20 @@ function checkRange(v: number, s: string, expected: Dimension, where: Where): nu
 
 const own = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
 
+/** "22 deg C": two words to a unit library (deg times coulomb); refused, saying what to write instead */
+function spacedDegrees(s: string, where: Where): void {
+  const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*deg\s+([CF])$/i.exec(s);
+  if (!m) return;
+  const fault = {
+    kind: 'ambiguous-unit',
+    unit: `deg ${m[2]}`,
+    means: 'two words, not a unit',
+    meant: `deg${m[2].toUpperCase()}`,
+    number: m[1],
+  } as const;
+  fail({ code: 'bad-quantity', text: s, expected: 'temperature', fault }, where);
+}
+
 /**
  * Parse "<number> <unit>" into the SI value of the expected dimension.
  * A bare number is refused: a pressure without a unit is the classic wrong-target error.
@@ -272,6 +307,7 @@ export function parseQuantity(
       where,
     );
   }
+  if (expected === 'temperature') spacedDegrees(s, where);
   if (typed && own(GAUGE_UNITS, typed[2])) {
     const unit = GAUGE_UNITS[typed[2]];
     if (expected !== 'pressure')

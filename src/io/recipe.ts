@@ -77,7 +77,29 @@ export const recipeSchema = z
       .strict()
       .optional(),
     temperature: quantity('tank temperature during the fill', '22 degC'),
-    order: z.array(z.string()).optional().describe('fill order: species or cylinder ids, each fill once'),
+    order: z
+      .array(
+        z.union([
+          z
+            .string()
+            .min(1)
+            .describe('a species or cylinder id, optionally with the stop after @, e.g. "Ar@400 Torr"'),
+          z
+            .object({
+              fill: z.string().min(1).describe('species or cylinder id'),
+              until: quantity(
+                'absolute tank reading to stop this charge at (not on the last charge of its gas)',
+                '400 Torr',
+              ).optional(),
+            })
+            .strict(),
+        ]),
+      )
+      .optional()
+      .describe(
+        'fill order: species or cylinder ids; a gas named again is filled in another charge, and a ' +
+          'charge that is not its gas\'s last may stop at an absolute reading ("Ar@400 Torr")',
+      ),
     sources: z.array(z.string()).optional().describe('cylinder ids from the lab profile to fill from'),
     in_tank: z
       .object({

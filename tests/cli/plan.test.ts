@@ -150,10 +150,10 @@ describe('bad input: exit 2, one message naming what and where, never a stack tr
       /--order: the fill order leaves out Ar/,
     ],
     [
-      'an order that repeats a gas',
-      [...INLINE.slice(0, 17), '--order', 'CH4,O2,Ar,O2'],
-      'order-repeated',
-      /--order: the fill order names O2 more than once/,
+      'an order that repeats a gas with a stop on its last charge (a gas named again is another charge)',
+      [...INLINE.slice(0, 17), '--order', 'CH4,O2,Ar,O2@900 Torr'],
+      'order-stop',
+      /--order: the fill order entry "O2@900 Torr" gives a stop on the last charge of O2 \(charge 2 of 2\)/,
     ],
     [
       'an order with a gas the mixture does not fill',
