@@ -75,7 +75,9 @@ describe('guided fill of a split plan: CH4, Ar to 400 Torr (charge 1 of 2), O2, 
     expect(s2.judgement?.verdict).toBe('on-course');
     expect(s2.targetsPa[3] / TORR).toBeGreaterThan(1510);
     expect(s2.targetsPa[3] / TORR).toBeLessThan(1520);
-    expect(s2.message).toMatch(/the final pressure becomes 151\d(\.\d+)? Torr \(design 1500 Torr\) to keep phi and the dilution/);
+    expect(s2.message).toMatch(
+      /the final pressure becomes 151\d(\.\d+)? Torr \(design 1500 Torr\) to keep phi and the dilution/,
+    );
   });
 
   it("a reading near the second charge's target typed for the first is asked about, and logged only as the first charge's", () => {
