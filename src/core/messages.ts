@@ -434,7 +434,6 @@ const PLANNER_KINDS: Readonly<Record<PlannerProblem['kind'], PlannerProblem['cod
   'impurities-over-purity': 'design-conflict',
   'in-tank-excess': 'design-conflict',
   'in-tank-at-final': 'design-conflict',
-  'split-charges': 'design-conflict',
   'no-fills': 'design-missing',
   'empty-blend': 'design-missing',
   'diluent-for-dilution': 'design-missing',
@@ -489,11 +488,6 @@ function describePlannerProblem(p: PlannerProblem): string {
       );
     case 'in-tank-at-final':
       return 'the tank already holds gas at or above the final pressure; evacuate it or raise the final pressure';
-    case 'split-charges':
-      return (
-        `the fill sequence fills ${list(p.sources)} in more than one charge, which this version ` +
-        `does not plan; name every fill exactly once`
-      );
     case 'no-fills':
       return 'the plan has no fills';
     case 'empty-blend':

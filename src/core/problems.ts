@@ -452,8 +452,6 @@ export type PlannerProblem =
       readonly inTankPa: number;
       readonly finalPa: number;
     }
-  /** a source named in more than one charge: the planner plans one charge per source */
-  | { readonly code: 'design-conflict'; readonly kind: 'split-charges'; readonly sources: readonly string[] }
   | { readonly code: 'design-missing'; readonly kind: 'no-fills' }
   /** a blend (fuel, oxidizer, diluent or fractions) names no species */
   | { readonly code: 'design-missing'; readonly kind: 'empty-blend'; readonly blend: string }

@@ -16,9 +16,9 @@
  * a lower tank pressure, so on a lower-range gauge or with a smaller share of the span error
  * and resolution; the safety review sets how low it may go. The search: the share of what is
  * left of the source's allocation that the charge delivers is tried on a grid (1/32, then
- * 1/16 to 15/16 in steps of 1/16; 1/32 is the lowest split we consider: a charge of less is
- * not worth a valve opening), and the step from the highest hazardous grid point below the
- * lowest acceptable one is bisected 10 times (to 1/16384 of the allocation). Hazards need not
+ * 1/8 to 7/8 in steps of 1/8; 1/32 is the lowest split we consider: a charge of less is not
+ * worth a valve opening), and the step from the highest hazardous grid point below the
+ * lowest acceptable one is bisected 11 times (to 1/16384 of the allocation). Hazards need not
  * fall monotonically as the stop rises, so the grid is searched first and the lowest
  * acceptable share kept. Charges are chosen in fill order; while one is searched, a later
  * charge without a stop is taken at half of what is left of its source.
@@ -37,8 +37,8 @@ import { safetyFindings } from './review.js';
 
 /** the search's grid and refinement (module comment) */
 export const SPLIT_SEARCH = {
-  shares: [1 / 32, ...Array.from({ length: 15 }, (_, i) => (i + 1) / 16)],
-  bisections: 10,
+  shares: [1 / 32, ...Array.from({ length: 7 }, (_, i) => (i + 1) / 8)],
+  bisections: 11,
   /** share of a later charge without a stop while an earlier one is searched */
   laterShare: 1 / 2,
 } as const;
