@@ -417,6 +417,15 @@ function describeLogFault(f: LogFault): string {
       return `unknown event kind "${f.eventKind}"`;
     case 'empty':
       return 'the log is empty (it holds no complete line)';
+    // raised by the batch log
+    case 'charge-mismatch': {
+      const c = (x: { source: string; number: number; of: number }) =>
+        `charge ${x.number} of ${x.of} of ${x.source}`;
+      return f.planned
+        ? `step ${f.step} names ${c(f.named)}, but step ${f.step} of the plan is ${c(f.planned)}: ` +
+            `a reading belongs to the charge it was read after, and is never taken for another charge`
+        : `step ${f.step} names ${c(f.named)}, but the plan has no step ${f.step}`;
+    }
   }
 }
 

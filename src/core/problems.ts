@@ -371,7 +371,16 @@ export type LogFault =
   | { readonly kind: 'correction-incomplete'; readonly missing: 'by' | 'reason' | 'replaces_line' }
   | { readonly kind: 'start-after-reading' }
   | { readonly kind: 'unknown-event'; readonly eventKind: string }
-  | { readonly kind: 'empty' };
+  | { readonly kind: 'empty' }
+  // raised by the batch log: a reading (or a header step) whose charge of a split source is not its step's
+  | {
+      readonly kind: 'charge-mismatch';
+      readonly step: number;
+      /** what the line names: source id and charge */
+      readonly named: { readonly source: string; readonly number: number; readonly of: number };
+      /** what the plan in the header has at that step, or null for a step it does not have */
+      readonly planned: { readonly source: string; readonly number: number; readonly of: number } | null;
+    };
 
 /** a value as a message shows it: a number, a text (cut at 40 characters), or what kind of thing it is */
 export type ShownValue =

@@ -12,7 +12,9 @@
  *                                    barometer_Pa?, temperature, temperature_K, by, time
  *   {"kind":"reading", ...}          one per fill: step, source, gauge, reading (as typed, with
  *                                    unit), pressure_Pa (absolute), barometer_Pa? (gauge-referenced
- *                                    gauges), temperature (as typed), temperature_K, time, by?
+ *                                    gauges), temperature (as typed), temperature_K, time, by?,
+ *                                    charge? ({number, of}: which charge of a split source; must be
+ *                                    the header step's; logs before split charges lack it)
  *   {"kind":"correction", ...}       a reading's fields again, plus by, reason and replaces_line
  *                                    (the line of the reading it replaces); the original stays
  *   {"kind":"withdraw", ...}         step, withdraws_line, by, time, reason?: takes back the last
@@ -24,6 +26,12 @@
  * and this line's JSON without its chain (for a previous line without a chain, the SHA-256
  * of its bytes stands in). An edited line no longer matches its chain; a removed line
  * breaks the next one's. It is a check against accidents and quiet edits, not a signature.
+ *
+ * Split charges: a source filled in more than one charge has one step per charge. A header step
+ * carries charge {number, of} (written by createLog; a header without it gets the charges counted
+ * from its steps' sources, the way the plan numbers them), and so does each new reading. A line
+ * whose charge is not its step's is refused: a reading of Ar's first charge is never taken for
+ * its second.
  *
  * A line counts when its line feed is written: a last line without one was cut off mid-write
  * (a crash or a full disk) and is never used. A guided fill opens the log with
@@ -51,6 +59,7 @@ import { z } from 'zod';
 import { fail, ProblemError } from '../core/index.js';
 import type { Gauge, GasSource, LogFault, Problem } from '../core/index.js';
 import { fsyncFolder, writeAllSync, writeCauseCodeAfter as writeCauseOf, writeFileAtomic } from './atomic.js';
+import { chargesOf, type ChargeOf } from '../report/charges.js';
 
 export const LOG_FORMAT = 'mixwright-batch/2';
 const LOG_VERSION = 2;
@@ -68,6 +77,11 @@ const gaugeSchema = z.object({
   resolution_Pa: z.number().min(0),
   unit: z.string(),
 });
+
+/** charge `number` of the `of` charges of a split source (1 of 1 for a source filled once) */
+const chargeSchema = z
+  .object({ number: z.number().int().positive(), of: z.number().int().positive() })
+  .refine((c) => c.number <= c.of, { message: 'the charge number is above the number of charges' });
 
 const sourceSchema = z.object({
   id: z.string(),
@@ -117,6 +131,8 @@ export const headerSchema = z.object({
       target_Pa: z.number(),
       band_Pa: z.number(),
       gauge: z.string().nullable(),
+      /** absent in logs made before split charges: then counted from the sources (chargesOfHeader) */
+      charge: chargeSchema.optional(),
     }),
   ),
   /** top-up: the gas the plan assumed already in the tank */
@@ -152,6 +168,8 @@ const readingFields = {
   time: z.string(),
   by: initials.optional(),
   note: z.string().optional(),
+  /** which charge of its source the step is; absent in logs made before split charges */
+  charge: chargeSchema.optional(),
   chain,
 };
 
@@ -271,6 +289,18 @@ export function sourceFromLog(s: LogHeader['sources'][number]): GasSource {
     unidentified: s.unidentified,
     mainSpecies: s.main_species,
   };
+}
+
+/** the charge of every planned step: as the header logs it, else counted from the steps' sources */
+export function chargesOfHeader(h: Pick<LogHeader, 'steps'>): ChargeOf[] {
+  const counted = chargesOf(h.steps);
+  return h.steps.map((s, i) => s.charge ?? counted[i]);
+}
+
+/** the header with every step's charge written out (a new log's header; the charges counted where absent) */
+export function withCharges(h: LogHeader): LogHeader {
+  const charges = chargesOfHeader(h);
+  return { ...h, steps: h.steps.map((s, i) => ({ ...s, charge: { ...charges[i] } })) };
 }
 
 /** the working limit a log's readings are held to: rating x working fraction, else the rating */
@@ -497,6 +527,23 @@ function readHeader(st: ReaderState, rec: Record<string, unknown>, lineNo: numbe
     fault({ kind: 'newer-format', format: fmt, reads: LOG_FORMAT }, file, lineNo, 'format');
   const h = headerSchema.safeParse(rec);
   if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
+  // a logged charge must be the one the steps' sources give: one source id is one cylinder
+  const counted = chargesOf(h.data.steps);
+  h.data.steps.forEach((s, i) => {
+    const c = s.charge;
+    if (c && (c.number !== counted[i].number || c.of !== counted[i].of))
+      fault(
+        {
+          kind: 'charge-mismatch',
+          step: s.step,
+          named: { source: s.source, ...c },
+          planned: { source: s.source, ...counted[i] },
+        },
+        file,
+        lineNo,
+        `steps.${i}.charge`,
+      );
+  });
   st.header = h.data;
   st.version = Number(m[1]);
   if (st.version < 2) st.issues.push({ code: 'log-unhashed', format: fmt });
@@ -504,9 +551,35 @@ function readHeader(st: ReaderState, rec: Record<string, unknown>, lineNo: numbe
 
 type EventReader = (st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string) => void;
 
+/**
+ * a reading or correction that names its charge must name its step's (source and charge): the
+ * reading of Ar's first charge is never taken for its second. A line without a charge (a log made
+ * before split charges) is read as before.
+ */
+function checkCharge(st: ReaderState, r: LogReading, lineNo: number, file: string): void {
+  const c = r.charge;
+  if (!c || !st.header) return;
+  const i = st.header.steps.findIndex((s) => s.step === r.step);
+  const planned = i >= 0 ? chargesOfHeader(st.header)[i] : undefined;
+  const source = i >= 0 ? st.header.steps[i].source : undefined;
+  if (planned && source === r.source && planned.number === c.number && planned.of === c.of) return;
+  fault(
+    {
+      kind: 'charge-mismatch',
+      step: r.step,
+      named: { source: r.source, ...c },
+      planned: planned && source !== undefined ? { source, ...planned } : null,
+    },
+    file,
+    lineNo,
+    'charge',
+  );
+}
+
 function readReading(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
   const r = readingSchema.safeParse(rec);
   if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
+  checkCharge(st, r.data, lineNo, file);
   if (st.byStep.has(r.data.step)) fault({ kind: 'second-reading', step: r.data.step }, file, lineNo);
   const x = { ...r.data, line: lineNo };
   st.byStep.set(x.step, x);
@@ -516,6 +589,7 @@ function readReading(st: ReaderState, rec: Record<string, unknown>, lineNo: numb
 function readCorrection(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
   const r = correctionSchema.safeParse(rec);
   if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
+  checkCharge(st, r.data, lineNo, file);
   if (st.version >= 2) {
     const missing = !r.data.by
       ? 'by'
@@ -786,7 +860,8 @@ export function createLog(path: string, header: LogHeader): void {
   let fd: number | undefined;
   try {
     fd = openSync(tmp, 'wx');
-    writeAllSync(fd, Buffer.from(lineFor('', header).text, 'utf8'));
+    // every step's charge written out: a split source's charges are named in the record itself
+    writeAllSync(fd, Buffer.from(lineFor('', withCharges(header)).text, 'utf8'));
     fsyncSync(fd);
     closeSync(fd);
     fd = undefined;

@@ -109,6 +109,12 @@ export interface LogView {
     readonly barometer: { readonly pressure_Pa: number; readonly u_Pa: number };
     readonly thermometer: { readonly u_K: number; readonly resolution_K: number };
     readonly recipe?: unknown;
+    /** the planned fills (the charge of a split source: logged, or counted from the sources) */
+    readonly steps?: readonly {
+      readonly step: number;
+      readonly source: string;
+      readonly charge?: { readonly number: number; readonly of: number };
+    }[];
     readonly findings?: readonly {
       readonly severity: RecordSeverity;
       readonly code: string;

@@ -11,6 +11,7 @@ import type { CheckReport, LoggedReading, LogView } from './check-types.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, tankName } from './format.js';
 import { labelLines, labelModel, type LabelModel } from './label-model.js';
+import { chargesOf, chargeSuffix, type ChargeOf } from './charges.js';
 
 export interface CertificateRow {
   readonly species: string;
@@ -144,6 +145,9 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
 /** the readings as the re-check used them, with what the log says of each (typed text, time, initials) */
 function certificateReadings(r: CheckReport, log: LogView | undefined): CertificateReading[] {
   const byStep = new Map((log?.readings ?? []).map((x) => [x.step, x]));
+  const planned = log?.header.steps ?? [];
+  const counted = chargesOf(planned);
+  const chargeOfStep = new Map<number, ChargeOf>(planned.map((p, i) => [p.step, p.charge ?? counted[i]]));
   const dangerLines = new Set(
     r.findings.filter((f) => f.severity === 'danger' && f.line !== null).map((f) => f.line),
   );
@@ -153,7 +157,7 @@ function certificateReadings(r: CheckReport, log: LogView | undefined): Certific
     const lr = byStep.get(x.step);
     return {
       step: x.step,
-      fill: x.source.id,
+      fill: `${x.source.id}${chargeSuffix(chargeOfStep.get(x.step))}`,
       gauge: `${x.gauge.id}${x.gauge.reference === 'gauge' ? ' (gauge-ref.)' : ''}`,
       typed: lr?.reading ?? '-',
       absolute: `${fromPa(x.pressurePa, u).toFixed(dec)} ${u}`,

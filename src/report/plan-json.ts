@@ -93,6 +93,8 @@ function stepJson(s: PlanStep) {
     species: s.species,
     source: s.source.id,
     source_kind: s.source.kind,
+    // charge `number` of the `of` charges of this source (1 of 1 unless the source is split)
+    charge: { number: s.charge.number, of: s.charge.of },
     target_Pa: s.targetPa,
     increment_Pa: s.incrementPa,
     amount_mol: s.amountMol,

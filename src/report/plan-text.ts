@@ -4,6 +4,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 import { predictedLines } from './predicted-text.js';
+import { chargeName, chargeShort, chargeWords, isSplit } from './charges.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -100,7 +101,8 @@ function headerLines(plan: Plan, meta: PlanMeta, unit: PressureUnit): string[] {
     );
   const recommended = meta.orderRecommended ? 'recommended: ' : '';
   out.push(
-    `Order       ${plan.steps.map((s) => s.species).join(' -> ')}  (${recommended}${plan.orderReason})`,
+    `Order       ${plan.steps.map((s) => chargeShort(s.species, s.charge)).join(' -> ')}  ` +
+      `(${recommended}${plan.orderReason})`,
   );
   if (meta.experiments) out.push(servesLine(meta.experiments, P));
   out.push(...barometerLine(plan, meta));
@@ -130,7 +132,7 @@ function manifoldTable(plan: Plan, unit: PressureUnit): string[] {
     }
     rows.push([
       String(s.index),
-      s.species,
+      chargeName(s.species, s.charge),
       s.source.id,
       s.gauge?.id ?? '-',
       reading,
@@ -161,6 +163,34 @@ function numbersTable(plan: Plan, unit: PressureUnit): string[] {
   return padTable(rows, [true, true, true, true, true, true, true]);
 }
 
+/**
+ * a source filled in more than one charge: where each charge stops, and that every charge is its
+ * own fill with its own reading (the earlier charge's stop reading is its target)
+ */
+export function splitChargeLines(plan: Plan, unit: PressureUnit): string[] {
+  const out: string[] = [];
+  const sources = [...new Set(plan.steps.filter((s) => isSplit(s.charge)).map((s) => s.source.id))];
+  for (const id of sources) {
+    const charges = plan.steps.filter((s) => s.source.id === id);
+    const each = charges.map(
+      (s) =>
+        `${chargeWords(s.charge)} (fill ${s.index}) ` +
+        `${s.charge.number < s.charge.of ? 'stops at' : 'ends at'} ${pressure(s.targetPa, unit, 6)} absolute`,
+    );
+    out.push(
+      `Split       ${charges[0].species} from ${id} goes in ${charges.length} charges: ${each.join(', then ')}. ` +
+        `Close the cylinder valve at each stop; each charge is read and logged as its own fill.`,
+    );
+  }
+  return out;
+}
+
+/** "fill 2" or, for a split source, "fill 2, Ar charge 1 of 2" */
+function fillRef(plan: Plan, step: number): string {
+  const s = plan.steps.find((x) => x.index === step);
+  return s && isSplit(s.charge) ? `fill ${step}, ${s.species} ${chargeWords(s.charge)}` : `fill ${step}`;
+}
+
 /** the findings, dangers first (gauge isolation is already said under the table) */
 function findingLines(plan: Plan, unit: PressureUnit): string[] {
   if (!plan.findings.length) return [];
@@ -171,7 +201,7 @@ function findingLines(plan: Plan, unit: PressureUnit): string[] {
   const out = ['Findings'];
   for (const f of sorted) {
     out.push(
-      `  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (fill ${f.step})` : ''}: ` +
+      `  ${SEVERITY_LABEL[f.severity]} ${f.code}${f.step ? ` (${fillRef(plan, f.step)})` : ''}: ` +
         `${describeFinding(f, (pa) => pressure(pa, unit, 5))}`,
     );
   }
@@ -193,6 +223,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
       );
     }
   }
+  out.push(...splitChargeLines(plan, unit));
   out.push('');
   out.push(`Filled composition (with cylinder impurities):`);
   const unidentified =

@@ -23,6 +23,7 @@ import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
+import { chargeName, chargeShort, chargeWords, isSplit, siblingWords } from './charges.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -39,6 +40,13 @@ export interface SheetRow {
   readonly reference: 'absolute' | 'gauge';
   readonly absoluteTarget: string;
   readonly before: readonly string[];
+  /** a source filled in more than one charge: which charge this row is (absent for a source filled once) */
+  readonly charge?: { readonly number: number; readonly of: number };
+  /**
+   * the charge in words under its row: "Ar, charge 1 of 2 - stop at 400.00 Torr on head-1kT ...";
+   * a non-last charge's stop reading is its target
+   */
+  readonly chargeNote?: string;
 }
 
 export interface SheetModel {
@@ -202,7 +210,8 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
     ],
     [
       'order',
-      `${plan.steps.map((s) => s.species).join(' -> ')}${meta.orderRecommended ? ' (recommended)' : ''}`,
+      `${plan.steps.map((s) => chargeShort(s.species, s.charge)).join(' -> ')}` +
+        `${meta.orderRecommended ? ' (recommended)' : ''}`,
     ],
     ['tolerance', `each mole fraction within ${(plan.tolerance.relative * 100).toFixed(2)} %`],
   ];
@@ -251,8 +260,25 @@ function preChecks(plan: Plan, meta: SheetMeta): string[] {
   ];
 }
 
+/**
+ * a charge of a split source in words: where to stop, and the other charges of the same
+ * cylinder, so its two openings are never taken for one another
+ */
+function chargeNoteOf(plan: Plan, k: number, stopText: string): string {
+  const s = plan.steps[k];
+  const others = siblingWords(
+    plan.steps.map((x) => ({ index: x.index, source: x.source.id, charge: x.charge })),
+    k,
+  );
+  const last = s.charge.number === s.charge.of;
+  return (
+    `${chargeName(s.species, s.charge)} - ${last ? 'fill on to' : 'stop at'} ${stopText}` +
+    `${last ? '' : ', then close the cylinder valve'}; ${others}`
+  );
+}
+
 /** one fill: the target and its band in the gauge's own unit */
-function sheetRow(s: PlanStep, meta: SheetMeta): SheetRow {
+function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
   const gu: PressureUnit = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : meta.unit;
   const dec = s.gauge ? Math.max(decimalsFor(fromPa(s.gauge.resolutionPa, gu)), 0) : 3;
@@ -278,6 +304,17 @@ function sheetRow(s: PlanStep, meta: SheetMeta): SheetRow {
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),
     before: s.isolateBefore.map((g) => `close off ${g.id} (reads only up to ${P(g.topPa)})`),
+    ...(isSplit(s.charge)
+      ? {
+          charge: { number: s.charge.number, of: s.charge.of },
+          chargeNote: chargeNoteOf(
+            plan,
+            plan.steps.indexOf(s),
+            `${fromPa(reading, gu).toFixed(dec)} ${gu}${s.gauge?.reference === 'gauge' ? ' (gauge)' : ''} ` +
+              `on ${s.gauge?.id ?? 'the gauge'}`,
+          ),
+        }
+      : {}),
   };
 }
 
@@ -301,7 +338,13 @@ function designLabel(plan: Plan, meta: SheetMeta, batchId: string): string[] {
 
 /** the findings, dangers first (gauge isolation is said in the step rows) */
 function sheetFindings(plan: Plan, meta: SheetMeta): SheetModel['findings'] {
-  const stepOf = (f: Finding) => (f.step ? `fill ${f.step}` : 'batch');
+  const stepOf = (f: Finding) => {
+    if (!f.step) return 'batch';
+    const s = plan.steps.find((x) => x.index === f.step);
+    return s && isSplit(s.charge)
+      ? `fill ${f.step}, ${s.species} ${chargeWords(s.charge)}`
+      : `fill ${f.step}`;
+  };
   return [...plan.findings]
     .filter((f) => f.code !== 'isolate-gauge')
     .sort((a, b) => SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity))
@@ -325,7 +368,7 @@ function sheetDiagram(plan: Plan): SheetModel['diagram'] {
         `(LFL ${(dd.lfl * 100).toPrecision(3)} %, UFL ${(dd.ufl * 100).toPrecision(3)} ` +
         `% in air, inerts as N2-equivalent).${limitsNote(plan, dd.lfl, dd.ufl)} Dashed: ` +
         `air line; dotted: stoichiometric line. Numbered points: the tank after each ` +
-        `fill (${plan.steps.map((s) => `${s.index} ${fillLabel(s.source)}`).join(', ')}).`,
+        `fill (${plan.steps.map((s) => `${s.index} ${chargeShort(fillLabel(s.source), s.charge)}`).join(', ')}).`,
     }
   );
 }
@@ -353,7 +396,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     design: [...designRows(plan, meta), ...predictedSheetLines(plan)],
     composition,
     preChecks: preChecks(plan, meta),
-    rows: plan.steps.map((s) => sheetRow(s, meta)),
+    rows: plan.steps.map((s) => sheetRow(s, meta, plan)),
     postChecks,
     label: designLabel(plan, meta, batchId),
     findings: sheetFindings(plan, meta),

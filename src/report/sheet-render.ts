@@ -35,6 +35,7 @@ const CSS = (paper: 'a4' | 'letter') =>
     `table.steps td.blank { min-width: 26mm; }`,
     `table.steps td.small { width: 13mm; }`,
     `tr.before td { border-bottom: none; font-weight: bold; font-size: 9.5pt; }`,
+    `tr.charge td { border-top: none; font-size: 9.5pt; padding-top: 0.4mm; }`,
     `.unit { font-size: 9pt; font-weight: normal; }`,
     `ul.checks { list-style: none; padding-left: 0; margin: 0; }`,
     `ul.checks li { margin: 0.8mm 0; }`,
@@ -64,13 +65,17 @@ export function sheetToHtml(m: SheetModel): string {
       const before = r.before.length
         ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
         : '';
+      const charge = r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : '';
+      const note = r.chargeNote
+        ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8">${esc(r.chargeNote)}</td></tr>`
+        : '';
       return (
-        `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b><br><span class="unit">${esc(r.source)}` +
+        `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b>${esc(charge)}<br><span class="unit">${esc(r.source)}` +
         `</span></td><td>${esc(r.gauge)}` +
         `${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td ` +
         (`class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>` +
           `${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td `) +
-        `class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>`
+        `class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>${note}`
       );
     })
     .join('\n');
@@ -163,10 +168,12 @@ export function sheetToMarkdown(m: SheetModel): string {
   for (const r of m.rows) {
     for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
     out.push(
-      `| ${r.n} | **${r.fill}** (${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
+      `| ${r.n} | **${r.fill}**${r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : ''} ` +
+        `(${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
         `| **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ').replace('+-', '±')} ` +
         `| | | | [ ] |`,
     );
+    if (r.chargeNote) out.push(`| | ${r.chargeNote} | | | | | | | |`);
   }
   if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
   out.push('', '## After filling', '', ...m.postChecks.map((c) => `- [ ] ${c}`), '');
@@ -225,7 +232,7 @@ export function sheetToText(m: SheetModel): string {
   for (const r of m.rows)
     rows.push([
       String(r.n),
-      r.fill,
+      r.charge ? `${r.fill} ${r.charge.number}/${r.charge.of}` : r.fill,
       r.source,
       r.gauge + (r.reference === 'gauge' ? ' (g)' : ''),
       `${r.target} ${r.unit}`,
@@ -240,6 +247,7 @@ export function sheetToText(m: SheetModel): string {
   m.rows.forEach((r, i) => {
     for (const b of r.before) out.push(`  >> before fill ${r.n}: ${b}`);
     out.push(`  ${table[i + 1]}`);
+    if (r.chargeNote) out.push(`     ^ fill ${r.n}: ${r.chargeNote}`);
   });
   if (m.barometer) out.push('', 'BAROMETER', ...m.barometer.map((l) => `  ${l}`));
   out.push('', 'AFTER FILLING');

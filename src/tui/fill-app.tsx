@@ -21,6 +21,7 @@ import { decimalsFor, fixedSig } from '../report/format.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
+import { chargeWords, isSplit } from '../report/charges.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -460,8 +461,8 @@ function CorrectScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species} on{' '}
-        {cs.gauge?.id ?? 'no gauge'})
+        mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species}
+        {isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on {cs.gauge?.id ?? 'no gauge'})
       </Text>
       <Text>
         logged: {d.text} at {(d.temperatureK - 273.15).toFixed(1)} degC; the original stays in the log, the
@@ -500,7 +501,8 @@ function ReminderScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER AT THIS FILL
+        mixwright fill {h.id} - fill {state.current + 1} of {K}
+        {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
       </Text>
       <Text wrap="wrap">
         This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at
@@ -525,8 +527,8 @@ function ConfirmScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}: CHECK
-        THIS READING
+        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}
+        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THIS READING
       </Text>
       <Text>typed: {pending.done.text}</Text>
       <Text wrap="wrap">{pending.reason}</Text>
@@ -547,7 +549,8 @@ function OverLimitScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {state.current + 1} of {K}: DANGER - ABOVE THE WORKING LIMIT
+        mixwright fill {h.id} - fill {state.current + 1} of {K}
+        {chargeSuffixOf(state.setup.steps[state.current])}: DANGER - ABOVE THE WORKING LIMIT
       </Text>
       <Text wrap="wrap">
         The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
@@ -581,6 +584,37 @@ function OverLimitScreen({ state }: ScreenProps) {
   );
 }
 
+/** " (Ar, charge 1 of 2)" after a fill's number, for a charge of a split source */
+const chargeSuffixOf = (step: FillStep) =>
+  isSplit(step.charge) ? ` (${step.species}, ${chargeWords(step.charge)})` : '';
+
+/**
+ * a charge of a split source: the valve instruction names the charge, where it stops and the other
+ * charges of the same cylinder (the earlier one with its logged reading), so the two are never confused
+ */
+function ChargeLine({ state }: ScreenProps) {
+  const { step, onGauge } = stepView(state);
+  if (!isSplit(step.charge)) return null;
+  const same = state.setup.steps.filter((x) => x.source.id === step.source.id && x.index !== step.index);
+  const others = same.map((x) => {
+    const d = state.done.find((r) => r.step === x.index);
+    return x.index < step.index
+      ? `${chargeWords(x.charge)} was fill ${x.index}${d ? ` (logged ${d.text})` : ''}`
+      : `${chargeWords(x.charge)} follows at fill ${x.index}`;
+  });
+  const last = step.charge.number === step.charge.of;
+  const stop = onGauge(state.targetsPa[state.current]);
+  return (
+    <Text bold wrap="wrap">
+      {last
+        ? `Open ${step.source.id} again for ${chargeWords(step.charge)} of ${step.species}: fill on to ${stop}`
+        : `Open ${step.source.id} for ${chargeWords(step.charge)} of ${step.species} only: stop at ${stop}, ` +
+          `then close the cylinder valve`}
+      {`; ${others.join('; ')}.`}
+    </Text>
+  );
+}
+
 function ReadingScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
@@ -604,8 +638,11 @@ function ReadingScreen({ state }: ScreenProps) {
       </Box>
       <Text>{'-'.repeat(78)}</Text>
       <Text>
-        Fill <Text bold>{step.species}</Text> from {step.source.id} ({step.source.label})
+        Fill <Text bold>{step.species}</Text>
+        {isSplit(step.charge) ? <Text bold>, {chargeWords(step.charge)}</Text> : null} from {step.source.id} (
+        {step.source.label})
       </Text>
+      <ChargeLine state={state} />
       <Text>
         Read on {step.gauge?.id ?? 'NO GAUGE'}
         {step.gauge?.reference === 'gauge'

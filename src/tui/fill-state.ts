@@ -28,7 +28,9 @@ import {
 import { fixedSig } from '../report/format.js';
 import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
+import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
 import {
+  chargesOfHeader,
   gaugeFromLog,
   sourceFromLog,
   type NewLogEvent,
@@ -43,6 +45,21 @@ export interface FillStep {
   readonly source: GasSource;
   readonly gauge?: Gauge;
   readonly bandPa: number;
+  /** charge `number` of the `of` charges of its source (1 of 1 unless the source is split) */
+  readonly charge: ChargeOf;
+}
+
+/** "fill 2", or "fill 2 (Ar, charge 1 of 2)" for a charge of a split source */
+export function fillName(step: FillStep): string {
+  return isSplit(step.charge)
+    ? `fill ${step.index} (${chargeName(step.species, step.charge)})`
+    : `fill ${step.index}`;
+}
+
+/** the later charges of the current step's source, with the step index (for a split source only) */
+function laterCharges(setup: FillSetup, k: number): number[] {
+  const me = setup.steps[k];
+  return setup.steps.map((_, j) => j).filter((j) => j > k && setup.steps[j].source.id === me.source.id);
 }
 
 export interface FillSetup {
@@ -204,12 +221,14 @@ export type FillAction =
 export function setupFromHeader(header: LogHeader): FillSetup {
   const gauges = new Map(header.gauges.map((g) => [g.id, gaugeFromLog(g)]));
   const sources = new Map(header.sources.map((s) => [s.id, sourceFromLog(s)]));
-  const steps = header.steps.map((s) => ({
+  const charges = chargesOfHeader(header);
+  const steps = header.steps.map((s, i) => ({
     index: s.step,
     species: s.species,
     source: sources.get(s.source)!,
     gauge: s.gauge ? gauges.get(s.gauge) : undefined,
     bandPa: s.band_Pa,
+    charge: charges[i],
   }));
   const dangers = (header.findings ?? [])
     .filter((f) => f.severity === 'danger')
@@ -280,9 +299,7 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     effects: [],
     reminded: [],
     start,
-    message: done.length
-      ? `resumed: ${done.length} of ${setup.steps.length} readings were in the log`
-      : undefined,
+    message: done.length ? resumedText(setup, done.length) : undefined,
   };
   if (done.length || start?.read) {
     const r = retargetRun(state, done, T);
@@ -293,6 +310,16 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
   if (done.length >= setup.steps.length)
     return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
   return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
+}
+
+/** what a resumed fill says first: how many readings the log held, and which fill (and charge) is next */
+function resumedText(setup: FillSetup, n: number): string {
+  const next = setup.steps[n];
+  const split = setup.steps.some((x) => isSplit(x.charge));
+  return (
+    `resumed: ${n} of ${setup.steps.length} readings were in the log` +
+    (next && split ? `; next: ${fillName(next)} from ${next.source.id}` : '')
+  );
 }
 
 /**
@@ -388,12 +415,49 @@ export function retargetInput(
   };
 }
 
-/** the remaining targets after the readings done, at the temperature of the next fills */
+/**
+ * The remaining targets after the readings done, at the temperature of the next fills. A charge
+ * of a split source that is not its source's last keeps its stop reading (the plan's target): the
+ * fills after it are re-targeted from the tank as it will be at that stop (each such stop taken in
+ * turn as if read), so the amount of the source is split as planned and not all put in its first
+ * charge (the re-target alone cannot tell two charges of one cylinder apart). A stop the tank is
+ * already past cannot be kept: then the re-target stands as it is, and the message says so.
+ */
 function retargetRun(s: FillState, done: readonly DoneReading[], temperatureK: number) {
-  const r = retarget(retargetInput(s, done, temperatureK));
+  const base = retarget(retargetInput(s, done, temperatureK));
   const t = [...s.targetsPa];
-  for (const x of r.remaining) t[x.step - 1] = x.targetPa;
-  return { targets: t, message: r.message, result: r };
+  for (const x of base.remaining) t[x.step - 1] = x.targetPa;
+  const { steps, header } = s.setup;
+  let result = base;
+  let passed = '';
+  const held: DoneReading[] = [...done];
+  for (let k = done.length; k < steps.length; k++) {
+    const st = steps[k];
+    if (!laterCharges(s.setup, k).length) continue;
+    const stopPa = header.steps[k].target_Pa;
+    const prevPa = k > 0 ? (held[k - 1]?.pressurePa ?? t[k - 1]) : (s.start?.pressurePa ?? 0);
+    if (!(stopPa > prevPa)) {
+      passed =
+        `; the tank is already past the stop of ${fillName(st)} ` +
+        `(${fmtIn(stopPa, 'Torr')}): that stop cannot be kept, the targets above are re-computed without it`;
+      break;
+    }
+    for (let j = held.length; j < k; j++)
+      held.push({ step: steps[j].index, pressurePa: t[j], temperatureK, text: '' });
+    held.push({ step: st.index, pressurePa: stopPa, temperatureK, text: '' });
+    t[k] = stopPa;
+    result = retarget(retargetInput(s, held, temperatureK));
+    for (const x of result.remaining) t[x.step - 1] = x.targetPa;
+  }
+  if (result === base && !passed) return { targets: t, message: base.message, result: base };
+  if (passed) {
+    const t0 = [...s.targetsPa];
+    for (const x of base.remaining) t0[x.step - 1] = x.targetPa;
+    return { targets: t0, message: base.message + passed, result: base };
+  }
+  // what the tank holds now and whether the limit binds are the actual readings', not the held stops'
+  const merged = { ...result, nowPa: base.nowPa, limitBinds: base.limitBinds || result.limitBinds };
+  return { targets: t, message: result.message, result: merged };
 }
 
 function gaugeUnit(step: FillStep): PressureUnit {
@@ -593,6 +657,22 @@ function doubt(s: FillState, step: FillStep, shown: number): string | undefined 
       `above ambient: likely ${sense}`
     );
   }
+  const later = laterCharges(s.setup, s.current).find((j) => {
+    const other = shownPa(s, s.setup.steps[j], s.targetsPa[j]);
+    return (
+      Math.abs(shown - targetShown) > step.bandPa && Math.abs(shown - other) < Math.abs(shown - targetShown)
+    );
+  });
+  if (later !== undefined) {
+    const other = s.setup.steps[later];
+    return (
+      `${fmtIn(shown, unit)} is nearer the target of ${fillName(other)}, ` +
+      `${fmtIn(shownPa(s, other, s.targetsPa[later]), unit)}, than the stop of this one, ` +
+      `${fmtIn(targetShown, unit)}: this is ${chargeWords(step.charge)} of ${step.species}, which stops ` +
+      `at ${fmtIn(targetShown, unit)}. If the tank really reads this, log it as this charge's reading ` +
+      `(y); a typing slip: n`
+    );
+  }
   if (step.gauge && shown < step.gauge.minimumPa)
     return (
       `${fmtIn(shown, unit)} is below the range of ${step.gauge.id} (from ${fmtIn(step.gauge.minimumPa, unit)}): ` +
@@ -615,6 +695,8 @@ function readingEvent(
     kind: 'reading',
     step: step.index,
     source: step.source.id,
+    // the charge of its source this reading belongs to: the log refuses it for any other
+    charge: { number: step.charge.number, of: step.charge.of },
     gauge: step.gauge?.id ?? 'none',
     reading: readingText,
     pressure_Pa: absolute,
@@ -635,7 +717,7 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
   const within = Math.abs(deviation) <= step.bandPa;
   const done = [...s.done, p.done];
   const pressureText =
-    `fill ${step.index} logged: ${signed(fromPa(deviation, unit))} ${unit} from ` +
+    `${fillName(step)} logged: ${signed(fromPa(deviation, unit))} ${unit} from ` +
     `the target (${within ? 'inside' : 'outside'} the pressure band)`;
   let next: FillState = {
     ...s,
@@ -982,8 +1064,8 @@ function onCommand(s: FillState, text: string, now: string): FillState | undefin
     return enterStep({
       ...next,
       message:
-        `the reading of fill ${last.step} (${last.text}) is withdrawn by ${undo[1]}; ` +
-        `the log keeps it and the withdrawal. Read fill ${last.step} again`,
+        `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
+        `${undo[1]}; the log keeps it and the withdrawal. Read fill ${last.step} again`,
     });
   }
   const fix = /^fix\s+(\d+)\s+([A-Za-z]{1,6})$/i.exec(text);

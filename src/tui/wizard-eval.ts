@@ -6,6 +6,7 @@ import { predictedShortLines } from '../report/predicted-text.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { fromPa, isPressureUnit } from '../io/quantity.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
+import { chargeShort } from '../report/charges.js';
 import { rankFor, type Evaluation, type FieldName } from './wizard-state.js';
 
 const FIELD_OF: [RegExp, FieldName][] = [
@@ -163,7 +164,7 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
     const u = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : 'Torr';
     const dec = s.gauge ? decimalsFor(fromPa(s.gauge.resolutionPa, u)) : 3;
     lines.push(
-      `${s.index} ${fillLabel(s.source).padEnd(7)} ${s.gauge?.id ?? 'NO GAUGE'} ` +
+      `${s.index} ${chargeShort(fillLabel(s.source), s.charge).padEnd(7)} ${s.gauge?.id ?? 'NO GAUGE'} ` +
         `${s.gauge ? fromPa(s.gauge.readingPa, u).toFixed(dec) : '-'} ${u}`,
     );
   }

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { appendFileSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { readLog } from '../../src/io/batch-log.js';
+import { createLog, readLog } from '../../src/io/batch-log.js';
+import { splitHeader } from '../split-plan.js';
 import { checkFile } from '../../src/io/check.js';
 import { hasTmux, tmuxSession } from './tmux.js';
 
@@ -263,4 +264,69 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       b.close();
     }
   }, 60000);
+  it('a split plan (CH4, Ar to 400 Torr, O2, Ar): each charge named on screen and logged with its charge; killed on the second charge, resumed on it, filled to the end', async () => {
+    const { dir, t } = session('split');
+    try {
+      const log = join(dir, 'split.jsonl');
+      // the header as `fill` writes it (the split order given to the planner), then the fill itself
+      createLog(log, splitHeader());
+      t.start(withStatus(`node ${BIN} fill --resume ${log}`));
+      let s = await t.waitFor(/fill 1 of 4/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/fill 2 of 4/));
+      expect(s).toMatch(/Fill Ar, charge 1 of 2 from cyl-Ar/);
+      expect(s).toMatch(
+        /Open cyl-Ar for charge 1 of 2 of Ar only: stop at 400\.\d+ Torr, then close the cylinder valve; charge 2 of 2 follows at fill 4\./,
+      );
+      expect(target(s)).toBeCloseTo(400, 1);
+      const first = target(s);
+      await t.type(String(first));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/fill 3 of 4/));
+      expect(s).toMatch(/fill 2 \(Ar, charge 1 of 2\) logged/);
+      expect(s).toMatch(/Fill O2 from cyl-O2/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/fill 4 of 4/));
+      expect(s).toMatch(/Fill Ar, charge 2 of 2 from cyl-Ar/);
+      expect(s).toMatch(
+        /Open cyl-Ar again for charge 2 of 2 of Ar: fill on to 1[45]\d\d\.\d+ Torr; charge 1 of 2 was fill 2 \(logged 400(\.\d+)? Torr\)/,
+      );
+      // killed on the second charge, before its reading: three readings are logged, each with its charge
+      await t.kill();
+      const mid = readLog(log);
+      expect(mid.closed).toBe(false);
+      expect(mid.readings.map((r) => [r.step, r.source, r.charge?.number, r.charge?.of])).toEqual([
+        [1, 'cyl-CH4', 1, 1],
+        [2, 'cyl-Ar', 1, 2],
+        [3, 'cyl-O2', 1, 1],
+      ]);
+      expect(mid.readings[1].pressure_Pa / TORR).toBeCloseTo(first, 9);
+      t.start(withStatus(`node ${BIN} fill --resume ${log}`));
+      s = flat(await t.waitFor(/fill 4 of 4/));
+      expect(s).toMatch(
+        /resumed: 3 of 4 readings were in the log; next: fill 4 \(Ar, charge 2 of 2\) from cyl-Ar/,
+      );
+      expect(s).toMatch(/Fill Ar, charge 2 of 2 from cyl-Ar/);
+      await t.type(String(target(s)));
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/Tank label/, 30000));
+      expect(s).toMatch(/Re-check of the log \(mixwright check\): PASS/);
+      await t.keys('q');
+      expect(await exitStatus(t)).toBe(0);
+      const l = readLog(log);
+      expect(l.closed).toBe(true);
+      expect(l.readings.map((r) => [r.step, r.source, r.charge])).toEqual([
+        [1, 'cyl-CH4', { number: 1, of: 1 }],
+        [2, 'cyl-Ar', { number: 1, of: 2 }],
+        [3, 'cyl-O2', { number: 1, of: 1 }],
+        [4, 'cyl-Ar', { number: 2, of: 2 }],
+      ]);
+      const rep = await checkFile(log, { trials: 0, seed: 1 });
+      expect(rep.verdict.deviations.every((d) => d.within)).toBe(true);
+    } finally {
+      t.close();
+    }
+  }, 90000);
 });

@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { readdirSync } from 'node:fs';
 import { runCli } from '../helpers.js';
 import { jsonKey, withJsonKeys } from '../../src/report/json-keys.js';
+import { planToJson } from '../../src/report/plan-json.js';
+import { splitPlan } from '../split-plan.js';
 
 // the house rule for JSON keys: snake_case, the SI unit in the name, the unit in its own
 // spelling as a part of its own (`pressure_Pa`, `u_Pa`, `D_fuller_m2_per_s`)
@@ -86,6 +88,20 @@ describe('JSON key style', () => {
       expect(keyOffences(plan), `plan ${r}`).toEqual([]);
       expect(keyOffences(await jsonOf(['ready', `recipes/${r}`, '--json'])), `ready ${r}`).toEqual([]);
     }
+  });
+
+  it('plan --json of a split plan keeps the style: each step its charge {number, of}', () => {
+    const { plan } = splitPlan();
+    const doc = planToJson(plan, {
+      recipeId: 'x',
+      labName: 'demo',
+      orderRecommended: false,
+      version: 't',
+    }) as {
+      steps: { charge: { number: number; of: number } }[];
+    };
+    expect(keyOffences(doc)).toEqual([]);
+    expect(doc.steps.map((x) => `${x.charge.number}/${x.charge.of}`)).toEqual(['1/1', '1/2', '1/1', '2/2']);
   });
 
   it('check --json of every demo batch log, the folder and the demo CSV keep the style', async () => {

@@ -9,8 +9,9 @@ import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 import { buildSheetModel, designTitle } from '../../src/report/sheet-model.js';
 import { sheetToHtml, sheetToText } from '../../src/report/sheet-render.js';
 import { detailSvg, diagramData, diagramSvg, niceStep, placeNumbers } from '../../src/report/diagram.js';
-import { findChromium } from '../../src/io/pdf.js';
+import { findChromium, writePdf } from '../../src/io/pdf.js';
 import { runCli, TORR } from '../helpers.js';
+import { splitPlan } from '../split-plan.js';
 
 const PSI = 6894.757293168361; // Pa per psi (NIST SP 811, B.8: 1 psi = 6.894 757 E+03 Pa)
 
@@ -439,6 +440,59 @@ describe.runIf((chromium && hasPoppler) || required)(
           }
         }
         expect(readFileSync(join('artifacts', 'sheet-breaks-gref-letter.pdf')).length).toBeGreaterThan(1000);
+      },
+    );
+
+    it(
+      'a split charge prints as its own row, the charge named, with its stop reading as the target',
+      { timeout: 120000 },
+      async () => {
+        mkdirSync('artifacts', { recursive: true });
+        const { plan, req } = splitPlan();
+        const model = buildSheetModel(plan, {
+          recipe: req.recipe,
+          labName: req.lab.name,
+          orderRecommended: false,
+          unit: 'Torr',
+          batchId: 'split-001',
+          version: 'test',
+          paper: 'a4',
+        });
+        const pdf = join('artifacts', 'sheet-split-a4.pdf');
+        await writePdf(sheetToHtml(model), pdf, true);
+        const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
+        const lines = text.split('\n').map((l) => l.replace(/\s+/g, ' ').trim());
+        // the fills table (pdftotext sets a row's cells on several lines: the gas, its number, the
+        // cylinder, then gauge, target and band): rows 1 to 4 in order, each Ar charge a row of its own
+        const table = lines.slice(
+          lines.findIndex((l) => l.startsWith('Fills (target')),
+          lines.findIndex((l) => l.startsWith('After filling')),
+        );
+        const gasAt = (gas: string) => table.findIndex((l) => l === gas);
+        const rows = [gasAt('CH4'), gasAt('Ar, charge 1 of 2'), gasAt('O2'), gasAt('Ar, charge 2 of 2')];
+        expect(
+          rows.every((i) => i >= 0),
+          text,
+        ).toBe(true);
+        expect([...rows].sort((a, b) => a - b)).toEqual(rows);
+        const r2 = model.rows[1];
+        const r4 = model.rows[3];
+        // each row's number beside its gas, and its target (the first gauge line after it) is the model's
+        const targetAfter = (i: number) => table.slice(i).find((l) => / Torr /.test(l)) ?? '';
+        expect(table.slice(rows[1], rows[1] + 3)).toContain('2');
+        expect(table.slice(rows[3], rows[3] + 3)).toContain('4');
+        expect(targetAfter(rows[1])).toContain(`${r2.gauge} ${r2.target} Torr`);
+        expect(targetAfter(rows[3])).toContain(`${r4.gauge} ${r4.target} Torr`);
+        expect(Number(r2.target)).toBeCloseTo(400, 2);
+        // the charge's words under its row, before the next fill's row
+        const note2 = table.findIndex((l) => l.startsWith('Ar, charge 1 of 2 - stop at'));
+        expect(note2).toBeGreaterThan(rows[1]);
+        expect(note2).toBeLessThan(rows[2]);
+        expect(table.slice(note2, note2 + 2).join(' ')).toContain('charge 2 of 2 follows at fill 4');
+        const note4 = table.findIndex((l) => l.startsWith('Ar, charge 2 of 2 - fill on to'));
+        expect(note4).toBeGreaterThan(rows[3]);
+        expect(table.slice(note4, note4 + 2).join(' ')).toContain('charge 1 of 2 was fill 2');
+        expect(text).toContain('CH4 -> Ar 1/2 -> O2 -> Ar 2/2');
       },
     );
   },
