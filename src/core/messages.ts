@@ -134,15 +134,8 @@ export function describeProblem(p: Problem): string {
       return describeLogProblem(p);
     // raised by the re-check of readings (how a CSV row names its source)
     case 'csv-name-ambiguous':
-      return (
-        `"${p.name}" names more than one source: ${list(p.choices)}; write the cylinder id ` +
-        `of the one filled in this row`
-      );
     case 'csv-name-in-premix':
-      return (
-        `${p.name} is not filled on its own here: it comes in ${list(p.premixes)}; name ` +
-        `that fill by its gases or its cylinder id, one row per charge`
-      );
+      return describeRecheckProblem(p);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);
@@ -214,7 +207,9 @@ type RecheckProblemCode =
   | 'csv-field-count'
   | 'csv-not-rising'
   | 'csv-no-rows'
-  | 'csv-species-not-filled';
+  | 'csv-species-not-filled'
+  | 'csv-name-ambiguous'
+  | 'csv-name-in-premix';
 
 function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }>): string {
   switch (p.code) {
@@ -254,6 +249,17 @@ function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }
       return 'no readings below the header';
     case 'csv-species-not-filled':
       return `${p.species} is not filled in the design of ${p.recipe} (its fills: ${p.fills.join(', ')})`;
+    // how a CSV row names its source
+    case 'csv-name-ambiguous':
+      return (
+        `"${p.name}" names more than one source: ${list(p.choices)}; write the cylinder id ` +
+        `of the one filled in this row`
+      );
+    case 'csv-name-in-premix':
+      return (
+        `${p.name} is not filled on its own here: it comes in ${list(p.premixes)}; name ` +
+        `that fill by its gases or its cylinder id, one row per charge`
+      );
   }
 }
 
