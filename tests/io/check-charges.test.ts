@@ -55,25 +55,9 @@ describe('CSV rows that repeat a source: each row a charge, in fill order', () =
     (r) => `${name[r.source]},${r.pressure_Pa} Pa,${r.temperature_K} K,${gaugeOf(r.pressure_Pa)}`,
   );
 
-  it('CH4, Ar, O2, Ar (pure gases, no recipe): the CoolProp 8.0.0 composition within 2e-4 relative', async () => {
-    // 2e-4: the tolerance of the other re-checks against CoolProp near 1-2 bar (tests/core/recheck.test.ts);
-    // the difference is our virial model against CoolProp's multi-fluid mixture model
-    const r = await checkFile(csvFile(rows), { trials: 0, seed: 1 });
-    expect(r.readings.map((x) => x.source.id)).toEqual(['CH4', 'Ar', 'O2', 'Ar']);
-    for (const [k, truth] of Object.entries(split.composition))
-      expect(rel(r.result.composition[k].value, truth), k).toBeLessThan(2e-4);
-    expect(r.readings.map((x) => x.charge)).toEqual([
-      { number: 1, of: 1 },
-      { number: 1, of: 2 },
-      { number: 1, of: 1 },
-      { number: 2, of: 2 },
-    ]);
-  });
-
-  it('the same CSV with the recipe equals a batch log whose steps charge cyl-Ar twice (identity of the same model, 1e-12 relative)', async () => {
+  /** a batch log of the split fill, its header as a split plan writes it: one step per charge, the source per step */
+  function splitLog(): string {
     const recipe = 'recipes/ch4-o2-ar-phi1.yaml';
-    const csv = await checkFile(csvFile(rows), { trials: 0, seed: 1, recipeFile: recipe });
-    // a log header as a split plan writes it: one step per charge, the source listed per step
     const req = buildPlanRequest(readRecipe(recipe));
     const plan = planFill(req.input);
     const base = headerFromPlan(plan, req, 'split-sim', '2026-12-02T09:00:00Z');
@@ -106,6 +90,28 @@ describe('CSV rows that repeat a source: each row a charge, in fill order', () =
         by: 'QX',
       }),
     );
+    return file;
+  }
+
+  it('CH4, Ar, O2, Ar (pure gases, no recipe): the CoolProp 8.0.0 composition within 2e-4 relative', async () => {
+    // 2e-4: the tolerance of the other re-checks against CoolProp near 1-2 bar (tests/core/recheck.test.ts);
+    // the difference is our virial model against CoolProp's multi-fluid mixture model
+    const r = await checkFile(csvFile(rows), { trials: 0, seed: 1 });
+    expect(r.readings.map((x) => x.source.id)).toEqual(['CH4', 'Ar', 'O2', 'Ar']);
+    for (const [k, truth] of Object.entries(split.composition))
+      expect(rel(r.result.composition[k].value, truth), k).toBeLessThan(2e-4);
+    expect(r.readings.map((x) => x.charge)).toEqual([
+      { number: 1, of: 1 },
+      { number: 1, of: 2 },
+      { number: 1, of: 1 },
+      { number: 2, of: 2 },
+    ]);
+  });
+
+  it('the same CSV with the recipe equals a batch log whose steps charge cyl-Ar twice (identity of the same model, 1e-12 relative)', async () => {
+    const recipe = 'recipes/ch4-o2-ar-phi1.yaml';
+    const csv = await checkFile(csvFile(rows), { trials: 0, seed: 1, recipeFile: recipe });
+    const file = splitLog();
     const log = await checkFile(file, { trials: 0, seed: 1 });
     expect(log.incomplete).toEqual([]);
     for (const [k, st] of Object.entries(csv.result.composition)) {
@@ -127,6 +133,15 @@ describe('CSV rows that repeat a source: each row a charge, in fill order', () =
     };
     const withField = await checkLog(marked, { trials: 0, seed: 1 });
     expect(withField.readings[3].charge).toEqual({ number: 2, of: 9 });
+  });
+
+  it('label of the split log: the exit of check, both Ar charges listed with their number', async () => {
+    const file = splitLog();
+    const check = await runCli(['check', file, '--json', '--trials', '100000']);
+    const label = await runCli(['label', file, '--format', 'md', '--trials', '100000']);
+    expect(label.code).toBe(check.code);
+    expect(label.stdout).toContain('cyl-Ar (1 of 2)');
+    expect(label.stdout).toContain('cyl-Ar (2 of 2)');
   });
 
   it('the text names each charge of a source; the JSON gives every reading its charge', async () => {
