@@ -40,9 +40,9 @@ interface RefCase {
   temperature_K: number;
   readings: { source: string; pressure_Pa: number; temperature_K: number }[];
 }
-// reference: CoolProp 8.0.0 HEOS mixture model, tests/fixtures/reference/split-charges-coolprop.json
-// (scripts/reference/gen_split_charges.py): cumulative readings of charges in fill order
-const refs = fixture<{ cases: RefCase[] }>('split-charges-coolprop.json').cases;
+// reference: CoolProp 8.0.0 HEOS mixture model, tests/fixtures/reference/csv-charges-coolprop.json
+// (scripts/reference/gen_csv_charges.py): cumulative readings of charges in fill order
+const refs = fixture<{ cases: RefCase[] }>('csv-charges-coolprop.json').cases;
 const refCase = (id: string) => refs.find((c) => c.id === id)!;
 
 const rel = (a: number, b: number) => Math.abs(a / b - 1);

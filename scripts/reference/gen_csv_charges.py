@@ -1,4 +1,4 @@
-"""Generate tests/fixtures/reference/split-charges-coolprop.json: cumulative fill readings
+"""Generate tests/fixtures/reference/csv-charges-coolprop.json: cumulative fill readings
 of fills in which a source is charged more than once (split diluent) or is a premixed
 cylinder (synthetic air), computed with the CoolProp HEOS multi-fluid mixture model, as an
 outside reference for the re-check of CSV rows that repeat a source or name a premix.
@@ -8,7 +8,7 @@ final amount it delivers (sum 1). The final density follows from the final compo
 P and T; the reading after charge k is the pressure of the gas delivered so far at the
 density it has in the tank (rigid tank, constant T; the volume cancels).
 
-Run from the repository root:  /work/.venv-ref/bin/python scripts/reference/gen_split_charges.py
+Run from the repository root:  /work/.venv-ref/bin/python scripts/reference/gen_csv_charges.py
 """
 import json
 import CoolProp
@@ -31,7 +31,7 @@ CASES = [
                  ("cyl-air", AIR, 1 - 0.00724763 - 0.0652286)]},
 ]
 
-out = {"generator": "scripts/reference/gen_split_charges.py",
+out = {"generator": "scripts/reference/gen_csv_charges.py",
        "library": f"CoolProp {CoolProp.__version__} HEOS mixture model",
        "note": "cumulative absolute readings after each charge into an evacuated rigid tank at constant T; "
                "a source may be charged more than once; amounts per m3",
@@ -54,7 +54,7 @@ for c in CASES:
                          "temperature_K": c["T"], "density_mol_per_m3": rho})
     out["cases"].append({"id": c["id"], "composition": final, "temperature_K": c["T"],
                          "final_pressure_Pa": c["P"], "final_density_mol_per_m3": rho_f, "readings": readings})
-with open("tests/fixtures/reference/split-charges-coolprop.json", "w") as f:
+with open("tests/fixtures/reference/csv-charges-coolprop.json", "w") as f:
     json.dump(out, f, indent=1)
     f.write("\n")
 print("ok", len(out["cases"]))
