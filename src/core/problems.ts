@@ -249,11 +249,75 @@ export type Problem =
   | { readonly code: 'invalid-field'; readonly field: string; readonly issue: FieldIssue }
   // raised by the planner
   | PlannerProblem
+  // raised by the planner's split charges (a source filled in more than one charge)
+  | ChargeProblem
   // raised by the re-check of readings (how a CSV row names its source)
   /** a CSV name that fits more than one source: the choices as "id (label)" */
   | { readonly code: 'csv-name-ambiguous'; readonly name: string; readonly choices: readonly string[] }
   /** a CSV row naming a gas that is filled only as part of a premix: the premixes as "id (label)" */
   | { readonly code: 'csv-name-in-premix'; readonly name: string; readonly premixes: readonly string[] };
+
+/** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
+export type ChargeProblem =
+  /** charges are a fill order: they need order 'given' */
+  | { readonly code: 'charges-invalid'; readonly kind: 'not-given-order' }
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'unknown-source';
+      readonly sources: readonly string[];
+      readonly choices: readonly string[];
+    }
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'source-not-charged';
+      readonly sources: readonly string[];
+    }
+  /** the same source in two charges in a row (`charge` is the 1-based position of the second) */
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'consecutive';
+      readonly source: string;
+      readonly charge: number;
+    }
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'stop-on-last';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'stop-missing';
+      readonly source: string;
+      readonly charge: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'not-above-previous';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+      readonly previousPa: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'not-below-last';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+      /** the reading the source's last charge reaches */
+      readonly lastPa: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'over-allocation';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+      /** the reading with all that is left of the source's allocation: a stop must be below it */
+      readonly largestPa: number;
+    };
 
 /** who holds a batch log's lock: from the lock file */
 export interface LockHolder {

@@ -216,8 +216,8 @@ function buildComponents(
       : -1,
   );
   const virial = virialComponents(setup, add);
-  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it,
-  // rectangular; one term per source, shared by its charges (the same cylinder filled twice)
+  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular;
+  // one term per source, shared by its readings (a source filled in two charges is one cylinder's gas)
   const purityIdx = new Map<string, number>();
   const purity = perReading((r) => {
     if (!(r.source.unidentified > 0)) return -1;
