@@ -163,6 +163,38 @@ describe('CSV rows that repeat a source: each row a charge, in fill order', () =
   });
 });
 
+describe('plan -> CSV -> check with a split plan (CH4, Ar, O2, Ar on recipes/ch4-o2-ar-phi1.yaml)', () => {
+  it("a CSV at the split plan's targets, written with the plan's step labels, re-checks to its predicted u within 1 % (an identity of the same model)", async () => {
+    const recipe = 'recipes/ch4-o2-ar-phi1.yaml';
+    const req = buildPlanRequest(readRecipe(recipe));
+    const src = (sp: string) => req.input.sources.find((x) => x.mainSpecies === sp)!;
+    const order = ['CH4', 'Ar', 'O2', 'Ar'];
+    const plan = planFill({
+      ...req.input,
+      order: 'given',
+      sources: [...new Set(order)].map(src),
+      charges: order.map((sp) => ({ source: src(sp) })),
+    });
+    expect(plan.steps.map((x) => `${x.species} ${x.charge.number}/${x.charge.of}`)).toEqual([
+      'CH4 1/1',
+      'Ar 1/2',
+      'O2 1/1',
+      'Ar 2/2',
+    ]);
+    const p = planWithPrediction(plan, req).predicted!;
+    const T = plan.temperatureK;
+    const f = csvFile(plan.steps.map((x) => `${x.species},${x.targetPa} Pa,${T} K,${x.gauge!.id}`));
+    const r = await checkFile(f, { trials: 0, seed: 1, recipeFile: recipe });
+    expect(r.readings.map((x) => x.charge)).toEqual(plan.steps.map((x) => x.charge));
+    for (const [k, st] of Object.entries(r.result.composition)) {
+      if (!(st.u > 0)) continue;
+      expect(rel(p.result.composition[k].u, st.u), k).toBeLessThan(0.01);
+      expect(Math.abs(p.result.composition[k].value - st.value), k).toBeLessThan(1e-9);
+    }
+    expect(rel(p.result.phi!.u, r.result.phi!.u)).toBeLessThan(0.01);
+  });
+});
+
 describe('a CSV row naming a premix fill: by its gases ("N2+O2") or its cylinder id', () => {
   const recipe = 'recipes/ng-blend-air.yaml';
   const req = buildPlanRequest(readRecipe(recipe));
