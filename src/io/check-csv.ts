@@ -196,7 +196,7 @@ const unitOf = (g: Gauge): PressureUnit => (isPressureUnit(g.unit) ? g.unit : 'T
  * Each reading against the tank's working limit (and rating) and its gauge's full scale: a
  * danger, worded as the log audit words it (a CSV row is a record of the fill as a log line is).
  */
-export function csvLimitFindings(
+function csvLimitFindings(
   rows: readonly CsvReading[],
   readings: readonly CheckedReading[],
   tank: CsvTank | undefined,
