@@ -153,8 +153,7 @@ function certificateReadings(r: CheckReport, log: LogView | undefined): Certific
     const lr = byStep.get(x.step);
     return {
       step: x.step,
-      fill:
-        x.charge && x.charge.of > 1 ? `${x.source.id} (${x.charge.number} of ${x.charge.of})` : x.source.id,
+      fill: x.source.id,
       gauge: `${x.gauge.id}${x.gauge.reference === 'gauge' ? ' (gauge-ref.)' : ''}`,
       typed: lr?.reading ?? '-',
       absolute: `${fromPa(x.pressurePa, u).toFixed(dec)} ${u}`,
