@@ -119,7 +119,6 @@ export function describeProblem(p: Problem): string {
     case 'csv-field-count':
     case 'csv-not-rising':
     case 'csv-no-rows':
-    case 'csv-fill-repeated':
     case 'csv-species-not-filled':
       return describeRecheckProblem(p);
     // raised by the batch log and the guided fill
@@ -143,6 +142,10 @@ export function describeProblem(p: Problem): string {
     case 'charges-invalid':
     case 'split-stop':
       return describeChargeProblem(p);
+    // raised by the re-check of readings (how a CSV row names its source)
+    case 'csv-name-ambiguous':
+    case 'csv-name-in-premix':
+      return describeRecheckProblem(p);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);
@@ -217,8 +220,9 @@ type RecheckProblemCode =
   | 'csv-field-count'
   | 'csv-not-rising'
   | 'csv-no-rows'
-  | 'csv-fill-repeated'
-  | 'csv-species-not-filled';
+  | 'csv-species-not-filled'
+  | 'csv-name-ambiguous'
+  | 'csv-name-in-premix';
 
 function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }>): string {
   switch (p.code) {
@@ -256,10 +260,19 @@ function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }
       );
     case 'csv-no-rows':
       return 'no readings below the header';
-    case 'csv-fill-repeated':
-      return `${p.species} is filled twice; each fill has one row`;
     case 'csv-species-not-filled':
       return `${p.species} is not filled in the design of ${p.recipe} (its fills: ${p.fills.join(', ')})`;
+    // how a CSV row names its source
+    case 'csv-name-ambiguous':
+      return (
+        `"${p.name}" names more than one source: ${list(p.choices)}; write the cylinder id ` +
+        `of the one filled in this row`
+      );
+    case 'csv-name-in-premix':
+      return (
+        `${p.name} is not filled on its own here: it comes in ${list(p.premixes)}; name ` +
+        `that fill by its gases or its cylinder id, one row per charge`
+      );
   }
 }
 

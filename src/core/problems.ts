@@ -173,8 +173,6 @@ export type Problem =
   /** a CSV row's pressure (as typed) is not above the row before */
   | { readonly code: 'csv-not-rising'; readonly text: string }
   | { readonly code: 'csv-no-rows' }
-  /** two CSV rows fill from the same source */
-  | { readonly code: 'csv-fill-repeated'; readonly species: string }
   /** a CSV row names a species that the recipe's plan does not fill */
   | {
       readonly code: 'csv-species-not-filled';
@@ -264,7 +262,12 @@ export type Problem =
       /** the order entry as typed, e.g. "Ar@400 Torr" */
       readonly entry: string;
       readonly fault: StopFault;
-    };
+    }
+  // raised by the re-check of readings (how a CSV row names its source)
+  /** a CSV name that fits more than one source: the choices as "id (label)" */
+  | { readonly code: 'csv-name-ambiguous'; readonly name: string; readonly choices: readonly string[] }
+  /** a CSV row naming a gas that is filled only as part of a premix: the premixes as "id (label)" */
+  | { readonly code: 'csv-name-in-premix'; readonly name: string; readonly premixes: readonly string[] };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
 export type ChargeProblem =

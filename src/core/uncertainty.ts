@@ -27,6 +27,8 @@ import { xoshiro128ss } from './prng.js';
 export interface CheckedReading {
   readonly step: number;
   readonly source: GasSource;
+  /** which charge of its source this reading ends, of how many (a source filled in more than one charge) */
+  readonly charge?: { readonly number: number; readonly of: number };
   /** absolute pressure after the fill, Pa */
   readonly pressurePa: number;
   readonly temperatureK: number;

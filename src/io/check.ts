@@ -1,24 +1,17 @@
 /**
- * From a batch log, or CSV readings with a recipe, to the core's re-check input;
- * and the header of a new log from a plan.
+ * From a batch log (or, through check-csv.ts, CSV readings) to the core's re-check input and
+ * the report of `check`; and the header of a new log from a plan.
  */
 import { evaluateUncertaintyParallel } from './parallel-mc.js';
 import {
-  chooseGauge,
   describeFinding,
   fail,
-  ProblemError,
   judge,
-  planFill,
-  pureCylinder,
+  ProblemError,
   recheckModelInput,
-  type CheckedReading,
   type Design,
-  type GasSource,
-  type Gauge,
   type Plan,
   type RecheckModelInput,
-  type Tolerance,
 } from '../core/index.js';
 import {
   gaugeFromLog,
@@ -27,67 +20,25 @@ import {
   readLog,
   sourceFromLog,
   sourceToLog,
+  workingLimitOf,
   type LogHeader,
   type ParsedLog,
 } from './batch-log.js';
-import { auditLog, describeLogFinding, type LogFinding } from './log-audit.js';
-import { buildPlanRequest, loadLab, readRecipe, type PlanRequest } from './load.js';
-import { readReadingsCsv } from './readings-csv.js';
+import { auditLog, describeLogFinding } from './log-audit.js';
+import type { PlanRequest } from './load.js';
 import { TORR_PA } from '../core/index.js';
-import type { CheckReportOf } from '../report/check-types.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
+import {
+  chargesOf,
+  verdictCaveats,
+  withinFile,
+  type ChargeNumber,
+  type CheckOptions,
+  type CheckReport,
+} from './check-shared.js';
+import { checkCsv } from './check-csv.js';
 
-export interface CheckOptions {
-  readonly trials: number;
-  readonly seed: number;
-  readonly recipeFile?: string;
-  readonly labFile?: string;
-  /** --barometer: the barometric pressure at the fill, Pa, for CSV readings (gauge-referenced sensors, "psig") */
-  readonly barometricPa?: number;
-}
-
-/** the report of `check`; its record findings carry their sentence (the type lives beside the renderers) */
-export type CheckReport = CheckReportOf<LogFinding & { readonly message: string }>;
-
-/** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
-export function verdictCaveats(findings: readonly LogFinding[]): string[] {
-  const out: string[] = [];
-  const dangers = findings.filter((f) => f.severity === 'danger');
-  if (dangers.length) {
-    out.push(
-      `DANGER: ${dangers.length === 1 ? 'a logged reading' : `${dangers.length} logged readings`} ` +
-        `went past the tank's working limit or a gauge's range (see the findings). ` +
-        `Whatever the composition, do not label or use this tank as fit until it ` +
-        `and its gauges have been inspected under local practice`,
-    );
-  }
-  const edited = findings.filter(
-    (f) =>
-      f.code === 'text-number-mismatch' ||
-      (f.code === 'record' && (f.issue.code === 'line-edited' || f.issue.code === 'line-unhashed')),
-  );
-  if (edited.length)
-    out.push(
-      `the record was changed after it was written (${edited.length} line${edited.length === 1 ? '' : 's'}, ` +
-        `see the findings): the verdict rests on numbers that are not as first logged`,
-    );
-  return out;
-}
-
-/**
- * Run the uncertainty evaluation for a file: a refusal from inside it (a Monte Carlo
- * trial whose readings no longer increase) names the file and says what it means.
- */
-async function withinFile<T>(file: string, f: () => Promise<T>): Promise<T> {
-  try {
-    return await f();
-  } catch (e) {
-    if (e instanceof ProblemError && e.problem.code === 'density-not-rising')
-      return fail({ ...e.problem, inUncertainty: true }, { file });
-    if (e instanceof ProblemError) throw e.at({ file });
-    throw e;
-  }
-}
+export { verdictCaveats, type CheckOptions, type CheckReport } from './check-shared.js';
 
 export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created: string): LogHeader {
   const d = plan.design;
@@ -241,7 +192,7 @@ export function logModelInput(
 ): RecheckModelInput {
   const h = log.header;
   try {
-    return recheckModelInput(
+    const model = recheckModelInput(
       {
         sources: new Map(h.sources.map((s) => [s.id, sourceFromLog(s)])),
         gauges: new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)])),
@@ -268,10 +219,31 @@ export function logModelInput(
       })),
       mc,
     );
+    const charges = logCharges(h);
+    return { ...model, readings: model.readings.map((r) => ({ ...r, charge: charges.get(r.step) })) };
   } catch (e) {
     if (e instanceof ProblemError) throw e.at({ file: log.file });
     throw e;
   }
+}
+
+/** a step's `charge` as the log records it, when it does (never required: older logs have none) */
+function loggedCharge(step: object): ChargeNumber | undefined {
+  const c = (step as { charge?: { number?: unknown; of?: unknown } | null }).charge;
+  const n = c?.number;
+  const of = c?.of;
+  return Number.isInteger(n) && Number.isInteger(of) && (n as number) >= 1 && (n as number) <= (of as number)
+    ? { number: n as number, of: of as number }
+    : undefined;
+}
+
+/**
+ * The charge of each planned step (a source filled in more than one charge): the log's own
+ * `charge` where its header records one, else counted from the source ids in step order.
+ */
+function logCharges(h: LogHeader): Map<number, ChargeNumber> {
+  const counted = chargesOf(h.steps.map((s) => s.source));
+  return new Map(h.steps.map((s, i) => [s.step, loggedCharge(s) ?? counted[i]]));
 }
 
 export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
@@ -308,6 +280,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
     amendments: log.amendments,
     barometer,
     start,
+    tank: {
+      id: h.tank.id,
+      ratedPa: h.tank.rated_pressure_Pa ?? undefined,
+      limitPa: workingLimitOf(h),
+      from: 'log',
+    },
     caveats: verdictCaveats(findings),
   };
 }
@@ -315,157 +293,6 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
 /** one line per finding, for the terminal and the folder summary */
 export function findingLines(r: CheckReport): string[] {
   return r.findings.map((f) => `${f.severity}: ${describeLogFinding(f)}`);
-}
-
-/** what CSV rows are re-checked with: the recipe's plan and lab profile, or the lab profile alone */
-interface CsvBasis {
-  readonly id: string;
-  readonly design?: Design;
-  readonly tolerance: Tolerance;
-  readonly gauges: readonly Gauge[];
-  readonly ctx: { barometricPa: number; barometricUncertaintyPa: number };
-  readonly thermo: { uncertaintyK: number; resolutionK: number; settlingK?: number };
-  readonly baroGiven: boolean;
-  readonly sourceFor: (species: string, line: number) => GasSource;
-  readonly warnings: string[];
-}
-
-function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: string }): CsvBasis {
-  const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, {
-    barometricPa: opts.barometricPa,
-  });
-  const plan = planFill(req.input);
-  const warnings: string[] = [];
-  if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
-  const bySpecies = new Map(plan.steps.map((s) => [s.source.mainSpecies, s.source]));
-  const sourceFor = (sp: string, line: number): GasSource => {
-    const s = bySpecies.get(sp) ?? plan.steps.find((x) => (x.source.composition[sp] ?? 0) >= 0.01)?.source;
-    if (!s)
-      return fail(
-        {
-          code: 'csv-species-not-filled',
-          species: sp,
-          recipe: opts.recipeFile,
-          fills: plan.steps.map((x) => x.species),
-        },
-        { file, line, field: 'species' },
-      );
-    return s;
-  };
-  return {
-    id: req.recipe.id,
-    design: plan.design,
-    tolerance: plan.tolerance,
-    gauges: req.input.gauges,
-    ctx: req.input.reading,
-    thermo: req.lab.thermometer ?? DEFAULT_THERMOMETER,
-    baroGiven: opts.barometricPa !== undefined || req.lab.file.barometer !== undefined,
-    sourceFor,
-    warnings,
-  };
-}
-
-function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
-  const lab = loadLab(opts.labFile);
-  return {
-    id: file,
-    tolerance: { relative: 0.005, absolute: 0 },
-    gauges: lab.gauges,
-    ctx: {
-      barometricPa: opts.barometricPa ?? lab.barometricPa,
-      barometricUncertaintyPa: lab.barometricUncertaintyPa,
-    },
-    thermo: lab.thermometer ?? DEFAULT_THERMOMETER,
-    baroGiven: opts.barometricPa !== undefined || lab.file.barometer !== undefined,
-    sourceFor: (sp) => pureCylinder({ id: sp, species: sp, purity: 1 }),
-    warnings: [
-      'no recipe given: the gases are taken as pure (purity 1), the gauges from ' +
-        'the lab profile, and there is no design to compare with (use --recipe)',
-    ],
-  };
-}
-
-/** the CSV rows as the re-check's readings: a source per row (each once), the named gauge or the best one */
-function csvReadings(file: string, b: CsvBasis): CheckedReading[] {
-  // gauge-referenced sensors (lab profile) and gauge units are made absolute with the barometer given
-  const rows = readReadingsCsv(file, {
-    barometricPa: b.baroGiven ? b.ctx.barometricPa : undefined,
-    referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
-  });
-  const used = new Set<string>();
-  return rows.map((r, i) => {
-    const source = b.sourceFor(r.species, r.line);
-    if (used.has(source.id))
-      fail({ code: 'csv-fill-repeated', species: r.species }, { file, line: r.line, field: 'species' });
-    used.add(source.id);
-    let gauge: Gauge | undefined;
-    if (r.gauge) {
-      gauge = b.gauges.find((g) => g.id === r.gauge);
-      if (!gauge)
-        fail(
-          { code: 'unknown-reference', kind: 'gauge', id: r.gauge, choices: b.gauges.map((g) => g.id) },
-          { file, line: r.line, field: 'gauge' },
-        );
-    } else {
-      gauge = chooseGauge(b.gauges, r.pressurePa, r.pressurePa, b.ctx)?.gauge;
-      if (!gauge) fail({ code: 'no-gauge', pressurePa: r.pressurePa }, { file, line: r.line });
-    }
-    return { step: i + 1, source, pressurePa: r.pressurePa, temperatureK: r.temperatureK, gauge };
-  });
-}
-
-export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
-  const b = opts.recipeFile
-    ? csvBasisFromRecipe(file, { ...opts, recipeFile: opts.recipeFile })
-    : csvBasisFromLab(file, opts);
-  const { design, tolerance, ctx, thermo } = b;
-  const warnings = [...b.warnings];
-  const readings = csvReadings(file, b);
-  const result = await withinFile(file, () =>
-    evaluateUncertaintyParallel(
-      readings,
-      {
-        barometricPa: ctx.barometricPa,
-        barometricUncertaintyPa: ctx.barometricUncertaintyPa,
-        thermometerUncertaintyK: thermo.uncertaintyK,
-        thermometerResolutionK: thermo.resolutionK,
-        temperatureSettlingK: settlingOf(thermo),
-        trials: opts.trials,
-        seed: opts.seed,
-      },
-      design ? Object.keys(design.groups.diluent) : undefined,
-    ),
-  );
-  let verdict = judge(result, design, tolerance);
-  let incomplete: string[] = [];
-  if (design) {
-    const covered = new Set(readings.flatMap((r) => Object.keys(r.source.composition)));
-    incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
-    if (incomplete.length) {
-      warnings.push(`no row fills ${incomplete.join(', ')}: the batch is incomplete`);
-      verdict = { ...verdict, verdict: 'fail' };
-    }
-  }
-  return {
-    file,
-    id: b.id,
-    kind: 'csv',
-    readings,
-    result,
-    verdict,
-    design,
-    tolerance,
-    warnings,
-    incomplete,
-    findings: [],
-    amendments: [],
-    barometer: {
-      pressurePa: ctx.barometricPa,
-      uPa: ctx.barometricUncertaintyPa,
-      from: opts.recipeFile ? 'plan' : 'lab',
-    },
-    caveats: [],
-  };
 }
 
 export async function checkFile(file: string, opts: CheckOptions): Promise<CheckReport> {
@@ -484,5 +311,7 @@ export async function checkFile(file: string, opts: CheckOptions): Promise<Check
       },
       { field: '--barometer' },
     );
+  if (opts.tankId !== undefined)
+    fail({ code: 'option-for-csv-only', option: '--tank', logCarries: 'its own tank' }, { field: '--tank' });
   return checkLog(readLog(file), opts);
 }

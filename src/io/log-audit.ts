@@ -27,6 +27,8 @@ export type LogFinding =
       readonly line: number;
       readonly pressurePa: number;
       readonly limitPa: number;
+      /** the tank's pressure rating, when known: a reading above it is said so */
+      readonly ratedPa?: number;
       readonly unit: PressureUnit;
       /** the reading was later corrected or withdrawn */
       readonly replaced: boolean;
@@ -100,6 +102,9 @@ export function describeLogFinding(f: LogFinding): string {
       return (
         `${at}the tank reading ${show(f.pressurePa, f.unit)} (absolute) is above the tank's ` +
         `working limit of ${show(f.limitPa, f.unit)}` +
+        (f.ratedPa !== undefined && f.pressurePa > f.ratedPa
+          ? ` and above its pressure rating of ${show(f.ratedPa, f.unit)}`
+          : '') +
         (f.replaced
           ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
           : '. The tank was taken past its working limit: have it and its fittings inspected ' +
@@ -246,6 +251,7 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
       line: r.line,
       pressurePa: r.pressure_Pa,
       limitPa,
+      ...(cx.log.header.tank.rated_pressure_Pa ? { ratedPa: cx.log.header.tank.rated_pressure_Pa } : {}),
       unit,
       replaced: r.replaced,
       ...acceptedOf('above-working-limit'),

@@ -1,7 +1,9 @@
 /**
  * Readings typed from a paper record: CSV with the header
  *   species,pressure,temperature[,gauge][,time][,note]
- * one row per fill in fill order; pressure is the reading after that fill and
+ * one row per fill (a charge of its source) in fill order: a source filled in two charges has
+ * two rows. The species column names a gas, a premix fill by its gases ("N2+O2") or a
+ * cylinder id of the lab profile. Pressure is the reading after that fill and
  * temperature the tank temperature at that reading, both with units. The pressure is
  * absolute, unless the row's gauge is gauge-referenced in the lab profile (then it is
  * what that sensor shows, above the ambient pressure) or its unit says so ("15 psig");
@@ -16,10 +18,13 @@ export interface CsvContext {
   readonly barometricPa?: number;
   /** how the named gauge is referenced, from the lab profile (undefined: not known) */
   readonly referenceOf?: (gaugeId: string) => 'absolute' | 'gauge' | undefined;
+  /** true for a name that is not a species but names a source (a cylinder id, a premix label "N2+O2") */
+  readonly acceptsName?: (name: string) => boolean;
 }
 
 export interface CsvReading {
   readonly line: number;
+  /** the species key, or the source name as typed when the context accepts it (acceptsName) */
   readonly species: string;
   readonly pressurePa: number;
   readonly temperatureK: number;
@@ -118,11 +123,13 @@ function parseRow(
 ): CsvReading {
   const cell = (name: string) => (header.indexOf(name) >= 0 ? cells[header.indexOf(name)] : undefined);
   let species: string;
+  const name = cell('species')!;
   try {
-    species = getSpecies(cell('species')!).key;
+    species = getSpecies(name).key;
   } catch (e) {
-    if (e instanceof ProblemError) throw relocate(e, where('species'));
-    throw e;
+    if (!(e instanceof ProblemError)) throw e;
+    if (!ctx.acceptsName?.(name)) throw relocate(e, where('species'));
+    species = name;
   }
   const gaugeId = cell('gauge') || undefined;
   const pressurePa = rowPressurePa(cell('pressure')!, gaugeId, ctx, where);

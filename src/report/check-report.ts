@@ -2,7 +2,7 @@
 import { fixedSig, padTable } from './format.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import type { AmendmentRecord, CheckReport, LoggedReading } from './check-types.js';
-import type { OutputStat } from '../core/index.js';
+import { speciesRole, type OutputStat } from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
@@ -27,7 +27,10 @@ function readingsTable(r: CheckReport): string[] {
     const u = isPressureUnit(x.gauge.unit) ? x.gauge.unit : 'Pa';
     readRows.push([
       String(x.step),
-      x.source.id,
+      // a source filled in more than one charge: which charge this reading ends
+      x.charge && x.charge.of > 1
+        ? `${x.source.id} (charge ${x.charge.number} of ${x.charge.of})`
+        : x.source.id,
       x.gauge.id,
       `${fixedSig(fromPa(x.pressurePa, u), 7)} ${u}`,
       (x.temperatureK - 273.15).toFixed(2),
@@ -127,9 +130,11 @@ function derivedLines(r: CheckReport): string[] {
 
 /** the uncertainty budget of the largest fuel fraction */
 function budgetLines(r: CheckReport, order: Ordered): string[] {
-  const fuel = order.find(
-    ([k]) => (r.design?.composition[k] ?? 0) > 0 && k !== 'O2' && !(r.design && k in r.design.groups.diluent),
-  );
+  const inDesign = ([k]: readonly [string, OutputStat]) => (r.design?.composition[k] ?? 0) > 0;
+  // the largest fuel of the design (never the N2 of an air fill); else the largest non-O2, non-diluent gas
+  const fuel =
+    order.find((e) => inDesign(e) && speciesRole(e[0]) === 'fuel') ??
+    order.find((e) => inDesign(e) && e[0] !== 'O2' && !(r.design && e[0] in r.design.groups.diluent));
   if (!fuel) return [];
   const out = ['', `Largest contributions to u(${fuel[0]}):`];
   for (const b of fuel[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
@@ -149,7 +154,7 @@ function verdictLines(r: CheckReport): string[] {
   for (const w of r.warnings) out.push(`warning: ${w}`);
   if (r.findings.length) {
     out.push('');
-    out.push('The record (the log itself)');
+    out.push(r.kind === 'log' ? 'The record (the log itself)' : 'The record (the readings as typed)');
     for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
   out.push('');
@@ -251,6 +256,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     readings: r.readings.map((x) => ({
       step: x.step,
       source: x.source.id,
+      charge: x.charge ? { number: x.charge.number, of: x.charge.of } : { number: 1, of: 1 },
       gauge: x.gauge.id,
       pressure_Pa: x.pressurePa,
       temperature_K: x.temperatureK,
@@ -288,6 +294,14 @@ export function checkToJson(r: CheckReport, version: string): object {
       message: f.message,
     })),
     verdict_caveats: r.caveats,
+    tank: r.tank
+      ? {
+          id: r.tank.id,
+          rated_pressure_Pa: r.tank.ratedPa ?? null,
+          working_limit_Pa: r.tank.limitPa ?? null,
+          from: r.tank.from,
+        }
+      : null,
     danger: r.findings.some((f) => f.severity === 'danger'),
     barometer: r.barometer
       ? {

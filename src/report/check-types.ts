@@ -90,6 +90,16 @@ export interface CheckReportOf<F extends RecordFinding> {
     readonly by?: string;
     readonly time?: string;
   };
+  /**
+   * the tank the readings are checked against (working limit and rating, Pa, where known);
+   * undefined when the re-check does not know it (CSV readings without --recipe or --tank)
+   */
+  readonly tank?: {
+    readonly id: string;
+    readonly ratedPa?: number;
+    readonly limitPa?: number;
+    readonly from: 'log' | 'recipe' | '--tank';
+  };
   /** what stands beside the verdict: a danger in the record, an edited record */
   readonly caveats: readonly string[];
 }

@@ -15,6 +15,7 @@ interface CheckOptions {
   trials?: string;
   seed: string;
   barometer?: string;
+  tank?: string;
 }
 type CheckOpts = Parameters<typeof checkFile>[1];
 type Row = { file: string; report: CheckReport } | { file: string; error: string };
@@ -24,10 +25,13 @@ async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): P
   const rows: Row[] = [];
   for (const f of files) {
     try {
-      // --barometer is for CSV readings; a log in the folder keeps its own
+      // --barometer and --tank are for CSV readings; a log in the folder keeps its own
       rows.push({
         file: f,
-        report: await checkFile(f, /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined }),
+        report: await checkFile(
+          f,
+          /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined, tankId: undefined },
+        ),
       });
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
@@ -71,6 +75,7 @@ async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
     recipeFile: o.recipe,
     labFile: o.lab,
     barometricPa: o.barometer === undefined ? undefined : parseBarometer(o.barometer),
+    tankId: o.tank,
   };
   if (folder) return checkFolder(cli, target, o, opts);
   const report = await checkFile(target, opts);
@@ -87,7 +92,10 @@ export function registerCheck(program: Command, cli: Cli): void {
       're-check a batch from its logged fills: composition, phi and dilution with ' +
         'a GUM and Monte Carlo uncertainty budget, against the design',
     )
-    .argument('<log>', 'batch log (.jsonl), CSV readings (species,pressure,temperature), or a folder of them')
+    .argument(
+      '<log>',
+      'batch log (.jsonl), CSV readings (species,pressure,temperature; one row per charge), or a folder of them',
+    )
     .option(
       '--recipe <file>',
       'the design the CSV readings were filled to (its lab profile, cylinders and tolerance)',
@@ -104,6 +112,11 @@ export function registerCheck(program: Command, cli: Cli): void {
       '--barometer <quantity>',
       'barometric pressure at the fill, for CSV readings of gauge-referenced sensors ' +
         'and gauge units such as "psig", e.g. "752.3 Torr" (default: the lab profile)',
+    )
+    .option(
+      '--tank <id>',
+      "the lab profile's tank CSV readings were filled in, to check them against its working " +
+        "limit and rating (default: the recipe's tank; without either they are not checked)",
     )
     .action((target: string, o: CheckOptions) => check(cli, target, o));
 }

@@ -1,0 +1,305 @@
+/**
+ * The re-check of readings typed from a paper record (CSV): each row a charge of the source it
+ * names (a gas, a premix fill "N2+O2", or a cylinder id of the lab profile), re-checked with a
+ * recipe's design and cylinders or with the lab profile alone; and the readings against the
+ * tank's working limit and rating and against a named gauge's range, as the log audit does.
+ */
+import { evaluateUncertaintyParallel } from './parallel-mc.js';
+import {
+  chooseGauge,
+  fail,
+  judge,
+  planFill,
+  pureCylinder,
+  type CheckedReading,
+  type Design,
+  type Gauge,
+  type TankSpec,
+  type Tolerance,
+} from '../core/index.js';
+import { describeLogFinding, type LogFinding } from './log-audit.js';
+import { buildPlanRequest, loadLab, readRecipe, type LoadedLab } from './load.js';
+import { readReadingsCsv, type CsvReading } from './readings-csv.js';
+import { sourceNames, type SourceNames } from './csv-names.js';
+import { isPressureUnit, type PressureUnit } from './quantity.js';
+import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
+import {
+  chargesOf,
+  verdictCaveats,
+  withinFile,
+  type CheckOptions,
+  type CheckReport,
+} from './check-shared.js';
+
+/** the tank the readings were filled in: its working limit and rating, Pa, where known */
+interface CsvTank {
+  readonly id: string;
+  readonly ratedPa?: number;
+  readonly limitPa?: number;
+  /** where the tank came from, for the report */
+  readonly from: 'recipe' | '--tank';
+}
+
+/** what CSV rows are re-checked with: the recipe's plan and lab profile, or the lab profile alone */
+interface CsvBasis {
+  readonly id: string;
+  readonly design?: Design;
+  readonly tolerance: Tolerance;
+  readonly gauges: readonly Gauge[];
+  readonly ctx: { barometricPa: number; barometricUncertaintyPa: number };
+  readonly thermo: { uncertaintyK: number; resolutionK: number; settlingK?: number };
+  readonly baroGiven: boolean;
+  readonly names: SourceNames;
+  readonly tank?: CsvTank;
+  readonly warnings: string[];
+}
+
+function tankOf(t: TankSpec, from: CsvTank['from']): CsvTank {
+  const ratedPa = t.ratedPressurePa;
+  return {
+    id: t.id,
+    ratedPa,
+    limitPa: ratedPa === undefined ? undefined : ratedPa * (t.workingFraction ?? 1),
+    from,
+  };
+}
+
+/** --tank: the lab profile's tank of that id (refused when the profile has none) */
+function labTank(lab: LoadedLab, id: string): CsvTank {
+  const t = lab.tanks.find((x) => x.id === id);
+  if (!t)
+    return fail(
+      { code: 'unknown-reference', kind: 'tank', id, choices: lab.tanks.map((x) => x.id) },
+      { field: '--tank' },
+    );
+  return tankOf(t, '--tank');
+}
+
+function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBasis {
+  const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, {
+    barometricPa: opts.barometricPa,
+  });
+  const plan = planFill(req.input);
+  const warnings: string[] = [];
+  if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
+  const tank = opts.tankId === undefined ? tankOf(plan.tank, 'recipe') : labTank(req.lab, opts.tankId);
+  if (tank.id !== plan.tank.id)
+    warnings.push(
+      `--tank ${tank.id} is not the tank of the recipe (${plan.tank.id}): the readings are checked ` +
+        `against the limits of ${tank.id}`,
+    );
+  const names = sourceNames({
+    filled: plan.steps.map((s) => s.source),
+    cylinders: req.lab.cylinders,
+    notFilled: (name, where) =>
+      fail(
+        {
+          code: 'csv-species-not-filled',
+          species: name,
+          recipe: opts.recipeFile,
+          fills: [...new Set(plan.steps.map((x) => x.species))],
+        },
+        where,
+      ),
+  });
+  return {
+    id: req.recipe.id,
+    design: plan.design,
+    tolerance: plan.tolerance,
+    gauges: req.input.gauges,
+    ctx: req.input.reading,
+    thermo: req.lab.thermometer ?? DEFAULT_THERMOMETER,
+    baroGiven: opts.barometricPa !== undefined || req.lab.file.barometer !== undefined,
+    names,
+    tank,
+    warnings,
+  };
+}
+
+function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
+  const lab = loadLab(opts.labFile);
+  const premixes = lab.cylinders.filter((c) => c.kind === 'premix');
+  const names = sourceNames({
+    filled: premixes,
+    cylinders: lab.cylinders,
+    pure: (sp) => pureCylinder({ id: sp, species: sp, purity: 1 }),
+    notFilled: (name, where) =>
+      fail(
+        {
+          code: 'unknown-reference',
+          kind: 'cylinder or premix',
+          id: name,
+          choices: lab.cylinders.map((c) => c.id),
+        },
+        where,
+      ),
+  });
+  return {
+    id: file,
+    tolerance: { relative: 0.005, absolute: 0 },
+    gauges: lab.gauges,
+    ctx: {
+      barometricPa: opts.barometricPa ?? lab.barometricPa,
+      barometricUncertaintyPa: lab.barometricUncertaintyPa,
+    },
+    thermo: lab.thermometer ?? DEFAULT_THERMOMETER,
+    baroGiven: opts.barometricPa !== undefined || lab.file.barometer !== undefined,
+    names,
+    tank: opts.tankId === undefined ? undefined : labTank(lab, opts.tankId),
+    warnings: [
+      'no recipe given: the gases named by species are taken as pure (purity 1), a cylinder id ' +
+        'or premix as the lab profile lists it, the gauges from the lab profile, and there is no ' +
+        'design to compare with (use --recipe)',
+    ],
+  };
+}
+
+/** the CSV rows as the re-check's readings: each row a charge of the source it names, on its gauge */
+function csvReadings(file: string, b: CsvBasis): { rows: CsvReading[]; readings: CheckedReading[] } {
+  // gauge-referenced sensors (lab profile) and gauge units are made absolute with the barometer given
+  const rows = readReadingsCsv(file, {
+    barometricPa: b.baroGiven ? b.ctx.barometricPa : undefined,
+    referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
+    acceptsName: b.names.accepts,
+  });
+  const sources = rows.map((r) => b.names.resolve(r.species, { file, line: r.line, field: 'species' }));
+  const charges = chargesOf(sources.map((s) => s.id));
+  const readings = rows.map((r, i): CheckedReading => {
+    let gauge: Gauge | undefined;
+    if (r.gauge) {
+      gauge = b.gauges.find((g) => g.id === r.gauge);
+      if (!gauge)
+        fail(
+          { code: 'unknown-reference', kind: 'gauge', id: r.gauge, choices: b.gauges.map((g) => g.id) },
+          { file, line: r.line, field: 'gauge' },
+        );
+    } else {
+      gauge = chooseGauge(b.gauges, r.pressurePa, r.pressurePa, b.ctx)?.gauge;
+      if (!gauge) fail({ code: 'no-gauge', pressurePa: r.pressurePa }, { file, line: r.line });
+    }
+    const source = sources[i];
+    return {
+      step: i + 1,
+      source,
+      charge: charges[i],
+      pressurePa: r.pressurePa,
+      temperatureK: r.temperatureK,
+      gauge,
+    };
+  });
+  return { rows, readings };
+}
+
+const unitOf = (g: Gauge): PressureUnit => (isPressureUnit(g.unit) ? g.unit : 'Torr');
+
+/**
+ * Each reading against the tank's working limit (and rating) and its gauge's full scale: a
+ * danger, worded as the log audit words it (a CSV row is a record of the fill as a log line is).
+ */
+function csvLimitFindings(
+  rows: readonly CsvReading[],
+  readings: readonly CheckedReading[],
+  tank: CsvTank | undefined,
+  barometricPa: number,
+): LogFinding[] {
+  const out: LogFinding[] = [];
+  readings.forEach((x, i) => {
+    const at = { step: x.step, line: rows[i].line, unit: unitOf(x.gauge), replaced: false };
+    if (tank?.limitPa !== undefined && x.pressurePa > tank.limitPa)
+      out.push({
+        code: 'above-working-limit',
+        severity: 'danger',
+        ...at,
+        pressurePa: x.pressurePa,
+        limitPa: tank.limitPa,
+        ...(tank.ratedPa !== undefined ? { ratedPa: tank.ratedPa } : {}),
+      });
+    const shownPa = x.gauge.reference === 'gauge' ? x.pressurePa - barometricPa : x.pressurePa;
+    if (shownPa > x.gauge.fullScalePa)
+      out.push({
+        code: 'above-gauge-range',
+        severity: 'danger',
+        ...at,
+        gauge: x.gauge.id,
+        shownPa,
+        fullScalePa: x.gauge.fullScalePa,
+      });
+  });
+  return out;
+}
+
+/** what the report says of the tank's limits: not checked, and why, when they are not known */
+function tankWarning(tank: CsvTank | undefined): string | undefined {
+  if (!tank)
+    return (
+      'the tank is not known (no --recipe, no --tank): the readings were NOT checked against a ' +
+      "tank's working limit or pressure rating; give --tank ID (a tank of the lab profile) to check them"
+    );
+  if (tank.limitPa === undefined)
+    return (
+      `tank ${tank.id} has no pressure rating (lab profile or recipe): the readings were NOT ` +
+      `checked against a working limit`
+    );
+  return undefined;
+}
+
+export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
+  const b = opts.recipeFile
+    ? csvBasisFromRecipe({ ...opts, recipeFile: opts.recipeFile })
+    : csvBasisFromLab(file, opts);
+  const { design, tolerance, ctx, thermo } = b;
+  const warnings = [...b.warnings];
+  const { rows, readings } = csvReadings(file, b);
+  const result = await withinFile(file, () =>
+    evaluateUncertaintyParallel(
+      readings,
+      {
+        barometricPa: ctx.barometricPa,
+        barometricUncertaintyPa: ctx.barometricUncertaintyPa,
+        thermometerUncertaintyK: thermo.uncertaintyK,
+        thermometerResolutionK: thermo.resolutionK,
+        temperatureSettlingK: settlingOf(thermo),
+        trials: opts.trials,
+        seed: opts.seed,
+      },
+      design ? Object.keys(design.groups.diluent) : undefined,
+    ),
+  );
+  let verdict = judge(result, design, tolerance);
+  let incomplete: string[] = [];
+  if (design) {
+    const covered = new Set(readings.flatMap((r) => Object.keys(r.source.composition)));
+    incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
+    if (incomplete.length) {
+      warnings.push(`no row fills ${incomplete.join(', ')}: the batch is incomplete`);
+      verdict = { ...verdict, verdict: 'fail' };
+    }
+  }
+  const unchecked = tankWarning(b.tank);
+  if (unchecked) warnings.push(unchecked);
+  const found = csvLimitFindings(rows, readings, b.tank, ctx.barometricPa);
+  const findings = found.map((f) => ({ ...f, message: describeLogFinding(f) }));
+  return {
+    file,
+    id: b.id,
+    kind: 'csv',
+    readings,
+    result,
+    verdict,
+    design,
+    tolerance,
+    warnings,
+    incomplete,
+    findings,
+    amendments: [],
+    barometer: {
+      pressurePa: ctx.barometricPa,
+      uPa: ctx.barometricUncertaintyPa,
+      from: opts.recipeFile ? 'plan' : 'lab',
+    },
+    tank: b.tank
+      ? { id: b.tank.id, ratedPa: b.tank.ratedPa, limitPa: b.tank.limitPa, from: b.tank.from }
+      : undefined,
+    caveats: verdictCaveats(findings, 'recorded reading'),
+  };
+}
