@@ -27,6 +27,12 @@ DESIGNS = [
     ("c3h8-o2-n2", {"C3H8": 0.02, "O2": 0.20, "N2": 0.78}, ["C3H8", "N2", "O2"], "heavy"),
     ("nc4-o2-n2", {"n-C4H10": 0.01, "O2": 0.10, "N2": 0.89}, ["n-C4H10", "N2", "O2"], "heavy"),
     ("nc7-o2-co2", {"n-C7H16": 0.002, "O2": 0.022, "CO2": 0.976}, ["n-C7H16", "CO2", "O2"], "heavy"),
+    # a He bath whose pairs the library gives as (near) virial expansions: He-N2 (fitted, implied B_12 spread
+    # about 1 cm3/mol), H2-N2 (fitted, quadratic), H2-He (default parameters, spread 0.2 cm3/mol); with O2, CH4 or
+    # Ar the He pairs spread by 6-12 cm3/mol, so He baths are judged on this design (a fuel premix without oxidizer)
+    ("h2-he-n2", {"H2": 0.04, "He": 0.48, "N2": 0.48}, ["H2", "He", "N2"], "He"),
+    # CO2 as diluent of a fuel-air mixture: N2-CO2 and O2-CO2 (both fitted in the library, not quadratic)
+    ("ch4-air-co2", {"CH4": 0.03, "O2": 0.14, "N2": 0.53, "CO2": 0.30}, ["CH4", "CO2", "O2", "N2"], "CO2"),
 ]
 TEMPS = [250.0, 300.0, 350.0]
 PRESSURES = [1 * BAR, 3 * BAR, 10 * BAR]

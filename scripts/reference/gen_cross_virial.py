@@ -73,7 +73,7 @@ P_FLOOR = 10e5  # Pa: the accuracy record's highest pressure
 
 def analyse(a, b):
     fa, fb = FLUIDS[a], FLUIDS[b]
-    Bs, Caab, Cabb, Bavg, Bu = [], [], [], [], []
+    Bs, Caab, Cabb, Bavg, Bu, Bmin, Bmax = [], [], [], [], [], [], []
     worst_b, worst_c, floor_z = 0.0, 0.0, 0.0
     b_ok, c_ok = True, a not in POLAR and b not in POLAR
     for T in T_GRID:
@@ -92,6 +92,8 @@ def analyse(a, b):
         # 2x(1-x), the same say as the middle: CO2-Ar at 250 K -66.1 against the fit's -64.6 cm3/mol.)
         Bavg.append(round(bab, 4))
         Bu.append(round(max(spread / 2, float(np.std(implied, ddof=1))), 4))
+        Bmin.append(round(min(implied), 4))
+        Bmax.append(round(max(implied), 4))
         worst_b = max(worst_b, spread)
         if 250.0 <= T <= 350.0:
             # the least error in Z at 10 bar that any composition-independent B_ab leaves
@@ -111,7 +113,7 @@ def analyse(a, b):
             c_ok = False
         Caab.append(round(float(sol[0]), 2))
         Cabb.append(round(float(sol[1]), 2))
-    return b_ok, c_ok, Bs, Caab, Cabb, worst_b, worst_c, floor_z, Bavg, Bu
+    return b_ok, c_ok, Bs, Caab, Cabb, worst_b, worst_c, floor_z, Bavg, Bu, (Bmin, Bmax)
 
 
 out = {
@@ -122,7 +124,8 @@ out = {
     "compositions": X_GRID,
     "acceptance": {
         "B_spread": f"max - min of the implied B_ab over the compositions <= max({B_SPREAD_ABS} cm3/mol, {B_SPREAD_REL} |B_ab|) at every temperature",
-        "B_average": "pairs fitted to mixture data whose implied B_ab is not composition-independent: B_ab = least-squares fit of B_mix over the compositions (weights (2x(1-x))^2 on the implied values) at each temperature, u(B_ab) = max(half their range, their standard deviation)",
+        "B_average": "pairs fitted to mixture data whose implied B_ab is not composition-independent: B_ab = least-squares fit of B_mix over the compositions (weights (2x(1-x))^2 on the implied values) at each temperature, u(B_ab) = max(half their range, their standard deviation); B_min, B_max: the range of the implied values (mixwright uses the fitted rule instead only where the rule lies within 2 of its own u of that range)",
+        "unfitted": "pairs with the library's default binary parameters are not used; their B (least-squares fit as for B_average) and B_u (its spread) are recorded only to show how far the library's B_mix of such a pair is from a virial expansion",
         "C_residual": f"residual of the cubic fit <= max({C_RESID_ABS} cm6/mol2, {C_RESID_REL} |C_mix|) at every composition and temperature; polar species excluded",
     },
     "pairs": {},
@@ -140,16 +143,21 @@ for a, b in itertools.combinations(FLUIDS, 2):
     params = [pair_param(p, q, k) for k in ("betaT", "gammaT", "betaV", "gammaV")]
     fparam = pair_param(p, q, "F")
     key = f"{a}|{b}"
+    b_ok, c_ok, Bs, Caab, Cabb, worst_b, worst_c, floor_z, Bavg, Bu, (Bmin, Bmax) = analyse(a, b)
     if all(v is not None and float(v) == 1.0 for v in params) and (fparam is None or float(fparam) == 0.0):
-        out["left_out"][key] = {"model": model, "kind": "unfitted", "reason": "default (unfitted) binary parameters"}
+        # not used by mixwright (the library's own default rule, not data); its spread over composition is recorded
+        # so that the accuracy record can say where a reference reading rests on a pair that is no virial expansion
+        out["left_out"][key] = {"model": model, "kind": "unfitted", "reason": "default (unfitted) binary parameters",
+                                "B_spread_max": round(worst_b, 2), "least_Z_error_10bar": float(f"{floor_z:.3g}"),
+                                "B": Bavg, "B_u": Bu}
         continue
-    b_ok, c_ok, Bs, Caab, Cabb, worst_b, worst_c, floor_z, Bavg, Bu = analyse(a, b)
     if not b_ok:
         # fitted to mixture data, but B_mix not quadratic: the composition average with its spread as
         # uncertainty; mixwright uses it at a temperature only where that uncertainty is below the rule's
         out["averaged"][key] = {"a": a, "b": b, "model": model, "method": "composition-average",
                                 "reason": f"zero-density B not quadratic in composition: implied B_ab spreads up to {worst_b:.1f} cm3/mol",
-                                "least_Z_error_10bar": float(f"{floor_z:.3g}"), "B_spread_max": round(worst_b, 2), "B": Bavg, "B_u": Bu}
+                                "least_Z_error_10bar": float(f"{floor_z:.3g}"), "B_spread_max": round(worst_b, 2), "B": Bavg, "B_u": Bu,
+                                "B_min": Bmin, "B_max": Bmax}
         if c_ok and not ({a, b} & QUANTUM):
             # its C_mix is nevertheless cubic in composition within the acceptance: the pair C are tabulated
             out["averaged"][key].update({"C_residual_max": round(worst_c, 1), "C_aab": Caab, "C_abb": Cabb})

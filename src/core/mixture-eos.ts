@@ -6,12 +6,15 @@
  * Tsonopoulos; B_ij (i != j) from the reference mixture model where the pair is tabulated
  * (fitted to mixture data and virial-consistent: data/cross-virial-reference.json), else
  * Tsonopoulos with the Prausnitz combining rules and the Chueh-Prausnitz size-difference
- * k_ij. C_iii from reference values (non-polar species), C_iij likewise from the pair
+ * k_ij plus the fitted additions, or, for a pair the library fits but not as a virial
+ * expansion, its composition average where that is the smaller uncertainty or refutes the
+ * rule (crossEntry). C_iii from reference values (non-polar species), C_iij likewise from the pair
  * table, and every C_ijk not tabulated by the cube-root rule (C_iii C_jjj C_kkk)^(1/3).
  */
 import { R } from './constants.js';
 import { fail } from './problems.js';
 import { getSpecies } from './lookup.js';
+import type { SpeciesRecord } from './data/species.js';
 import {
   averagedCrossB,
   referenceB,
@@ -26,6 +29,7 @@ import {
   crossRuleLowTFactor,
   pairConstants,
   tsonopoulosB,
+  type CorrelationConstants,
 } from './virial.js';
 
 export type VirialMethod =
@@ -92,6 +96,14 @@ export const VIRIAL_U = {
   referenceCross: { absolute: 1.5e-6, relative: 0.03 },
 } as const;
 
+/**
+ * When the fitted reference model of a pair refutes the calibrated cross-B rule (classical pairs; the rule is not
+ * calibrated for quantum gases and hydrogen-bonding species): its implied B_12 spreads over composition
+ * by at most this share of their average (so it defines B_12 to that extent, our choice), and the rule lies more
+ * than 2 of its own u outside every value it implies. The composition average is used there, with its spread as u.
+ */
+export const CROSS_RULE_REFUTED = { maxRelativeSpread: 0.2 } as const;
+
 /** standard uncertainty of one B entry, m3/mol: max(absolute, relative |B|) of its method's class */
 export function virialU(e: VirialEntry): number {
   if (e.uM3PerMol !== undefined) return e.uM3PerMol;
@@ -104,6 +116,67 @@ export function virialU(e: VirialEntry): number {
         ? VIRIAL_U.referenceCross
         : VIRIAL_U.cross;
   return Math.max(rule.absolute, rule.relative * Math.abs(e.valueM3PerMol));
+}
+
+/**
+ * The cross B_ij entry of one pair at T: the tabulated reference mixture model where it is a virial expansion;
+ * else the calibrated rule, or the fitted model's composition average where its spread is the smaller
+ * uncertainty (at least the tabulated pairs' floor) or where it refutes the rule (CROSS_RULE_REFUTED).
+ */
+function crossEntry(
+  a: SpeciesRecord,
+  b: SpeciesRecord,
+  ca: CorrelationConstants,
+  cb: CorrelationConstants,
+  temperatureK: number,
+): VirialEntry {
+  const ref = referenceCrossB(a.key, b.key, temperatureK);
+  if (ref)
+    return {
+      i: a.key,
+      j: b.key,
+      valueM3PerMol: ref.value,
+      method: 'reference-mixture',
+      source: 'coolprop-8-mixture',
+      model: ref.model,
+    };
+  // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes) and the fitted additions
+  const v = tsonopoulosB(pairConstants(ca, cb, crossRuleKij(a, b, ca, cb)), temperatureK);
+  const calibrated = crossRuleCalibrated(a, b);
+  const cls = calibrated ? VIRIAL_U.cross : VIRIAL_U.crossUncalibrated;
+  const lowT = calibrated ? crossRuleLowTFactor(Math.sqrt(ca.Tc * cb.Tc), temperatureK) : 1;
+  const uRule = Math.max(cls.absolute, cls.relative * lowT * Math.abs(v));
+  const avg = averagedCrossB(a.key, b.key, temperatureK);
+  if (avg) {
+    const avgU = Math.max(
+      avg.u,
+      VIRIAL_U.referenceCross.absolute,
+      VIRIAL_U.referenceCross.relative * Math.abs(avg.value),
+    );
+    // the rule more than 2 of its own u outside every value a well-defined fitted model implies: N2-CO2, CO-CO2
+    const refuted =
+      calibrated &&
+      avg.u <= CROSS_RULE_REFUTED.maxRelativeSpread * Math.abs(avg.value) &&
+      (v < avg.min - 2 * uRule || v > avg.max + 2 * uRule);
+    if (avgU < uRule || refuted)
+      return {
+        i: a.key,
+        j: b.key,
+        valueM3PerMol: avg.value,
+        method: 'reference-mixture-average',
+        source: 'coolprop-8-mixture',
+        model: avg.model,
+        uM3PerMol: avgU,
+      };
+  }
+  return {
+    i: a.key,
+    j: b.key,
+    valueM3PerMol: v,
+    method: 'combining-rule',
+    source: 'prausnitz-1999',
+    uM3PerMol: uRule,
+  };
 }
 
 /** Build the B matrix and pure C values of a set of species at one temperature. */
@@ -133,61 +206,9 @@ export function virialModel(speciesKeys: readonly string[], temperatureK: number
   }
   for (let i = 0; i < n; i++) {
     for (let j = i + 1; j < n; j++) {
-      const ref = referenceCrossB(records[i].key, records[j].key, temperatureK);
-      if (ref) {
-        B[i][j] = B[j][i] = ref.value;
-        entries.push({
-          i: records[i].key,
-          j: records[j].key,
-          valueM3PerMol: ref.value,
-          method: 'reference-mixture',
-          source: 'coolprop-8-mixture',
-          model: ref.model,
-        });
-        continue;
-      }
-      // Prausnitz rules with the Chueh-Prausnitz size-difference k_ij (0 for like sizes) and the fitted additions
-      const v = tsonopoulosB(
-        pairConstants(consts[i], consts[j], crossRuleKij(records[i], records[j], consts[i], consts[j])),
-        temperatureK,
-      );
-      const calibrated = crossRuleCalibrated(records[i], records[j]);
-      const cls = calibrated ? VIRIAL_U.cross : VIRIAL_U.crossUncalibrated;
-      const lowT = calibrated ? crossRuleLowTFactor(Math.sqrt(consts[i].Tc * consts[j].Tc), temperatureK) : 1;
-      const uRule = Math.max(cls.absolute, cls.relative * lowT * Math.abs(v));
-      const rule: VirialEntry = {
-        i: records[i].key,
-        j: records[j].key,
-        valueM3PerMol: v,
-        method: 'combining-rule',
-        source: 'prausnitz-1999',
-        uM3PerMol: uRule,
-      };
-      // a fitted model's composition average where its spread is the smaller uncertainty (at least the
-      // tabulated pairs' floor)
-      const avg = averagedCrossB(records[i].key, records[j].key, temperatureK);
-      const avgU =
-        avg &&
-        Math.max(
-          avg.u,
-          VIRIAL_U.referenceCross.absolute,
-          VIRIAL_U.referenceCross.relative * Math.abs(avg.value),
-        );
-      if (avg && avgU !== undefined && avgU < virialU(rule)) {
-        B[i][j] = B[j][i] = avg.value;
-        entries.push({
-          i: records[i].key,
-          j: records[j].key,
-          valueM3PerMol: avg.value,
-          method: 'reference-mixture-average',
-          source: 'coolprop-8-mixture',
-          model: avg.model,
-          uM3PerMol: avgU,
-        });
-        continue;
-      }
-      B[i][j] = B[j][i] = v;
-      entries.push(rule);
+      const e = crossEntry(records[i], records[j], consts[i], consts[j], temperatureK);
+      B[i][j] = B[j][i] = e.valueM3PerMol;
+      entries.push(e);
     }
   }
   // C enters only for non-polar species: the polar ones (H2O, NH3, alcohols, DME) have zero-density C

@@ -141,6 +141,9 @@ interface AveragedEntry {
   readonly model: string;
   readonly B: readonly number[];
   readonly B_u: readonly number[];
+  /** the range of the implied B_ab over the compositions, per temperature */
+  readonly B_min: readonly number[];
+  readonly B_max: readonly number[];
 }
 
 const averagedEntries = crossTable.averaged as Record<
@@ -159,6 +162,9 @@ function averagedCEntry(a: string, b: string): { e: CrossEntry; swapped: boolean
 export interface AveragedCrossB extends ReferenceCrossB {
   /** standard uncertainty covering the spread of the implied B_ab over composition, m3/mol */
   readonly u: number;
+  /** the least and the largest implied B_ab over composition, m3/mol */
+  readonly min: number;
+  readonly max: number;
 }
 
 /**
@@ -174,6 +180,8 @@ export function averagedCrossB(a: string, b: string, temperatureK: number): Aver
   return {
     value: interpolate(e.B, temperatureK) * 1e-6,
     u: interpolate(e.B_u, temperatureK) * 1e-6,
+    min: interpolate(e.B_min, temperatureK) * 1e-6,
+    max: interpolate(e.B_max, temperatureK) * 1e-6,
     model: e.model,
   };
 }

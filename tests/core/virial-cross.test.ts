@@ -5,7 +5,7 @@
  * scripts/reference/gen_cross_virial.py), and the pair selection itself.
  */
 import { describe, expect, it } from 'vitest';
-import { bMix, cMix, referenceCrossB, referenceCrossC, virialModel } from '../../src/core/index.js';
+import { bMix, cMix, referenceCrossB, referenceCrossC, virialModel, virialU } from '../../src/core/index.js';
 import table from '../../src/core/data/cross-virial-reference.json' with { type: 'json' };
 import { fixture } from '../helpers.js';
 
@@ -131,6 +131,32 @@ describe('cross coefficients: published comparisons, symmetry and the pair selec
     expect(Number(/up to ([\d.]+)/.exec(heAr.reason)![1])).toBeGreaterThan(20);
     // any composition-independent B_He-Ar stays >= 1e-3 off the model's Z at 10 bar somewhere in composition
     expect(heAr.least_Z_error_10bar!).toBeGreaterThan(1e-3);
+  });
+
+  // CoolProp 8.0.0: O2 with C2H6 / C3H8 has only the library's default parameters; the table records their spread
+  // (scripts/reference/gen_cross_virial.py) so that the accuracy record can tell where its reference is no virial
+  // expansion; the model never uses them (the calibrated rule: -88.1 and -124.1 cm3/mol at 250 K)
+  it('unfitted pairs are not used; O2 with C2H6 and C3H8 spread in the library far beyond the rule u', () => {
+    const left = table.left_out as Record<
+      string,
+      { kind: string; B: number[]; B_u: number[]; least_Z_error_10bar: number }
+    >;
+    const t = table.temperatures_K.indexOf(250);
+    for (const [key, minSpread] of [
+      ['O2|C2H6', 15],
+      ['O2|C3H8', 80],
+    ] as const) {
+      const e = left[key];
+      expect(e.kind).toBe('unfitted');
+      const [a, b] = key.split('|');
+      expect(referenceCrossB(a, b, 250)).toBeUndefined();
+      const m = virialModel([a, b], 250);
+      const x = m.entries.find((q) => q.i !== q.j)!;
+      expect(x.method).toBe('combining-rule');
+      expect(e.B_u[t]).toBeGreaterThan(minSpread);
+      expect(e.B_u[t]).toBeGreaterThan(3 * virialU(x) * cm3);
+      expect(e.least_Z_error_10bar).toBeGreaterThan(1e-3);
+    }
   });
 
   it('outside the 230-480 K table: the combining rule, and C_mix reduces to the cube-root rule', () => {

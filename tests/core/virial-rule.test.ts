@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { calibrate, calibrationPairs } from '../../scripts/cross-rule-lib.js';
 import { VIRIAL_U, virialModel, virialU } from '../../src/core/index.js';
+import { CROSS_RULE_REFUTED } from '../../src/core/mixture-eos.js';
 import { CROSS_RULE_KIJ } from '../../src/core/virial.js';
 
 describe('cross-B rule calibrated on the fitted pairs (reference: CoolProp 8.0.0 mixture models, 250-350 K)', () => {
@@ -54,5 +55,32 @@ describe('composition-averaged cross B carries its own uncertainty into every bu
     expect(Math.abs(e.valueM3PerMol * 1e6 + 123.02)).toBeLessThan(0.05);
     expect(virialU(e)).toBe(e.uM3PerMol);
     expect(virialU(e) * 1e6).toBeCloseTo(0.03 * 123.0, 1);
+  });
+});
+
+describe('a fitted model refutes the rule: the composition average instead (CROSS_RULE_REFUTED)', () => {
+  // CoolProp 8.0.0 (GERG-2008 N2-CO2) through the committed table: implied B_12 at 300 K from -53.2 (5 % N2) to
+  // -41.6 cm3/mol (95 % N2), average -43.8, u 5.8; the rule gives -32.1 +- 4, more than 2u above every value
+  it('N2-CO2 at 300 K: the average -43.8 cm3/mol with u 5.8, not the rule', () => {
+    const m = virialModel(['N2', 'CO2'], 300);
+    const e = m.entries.find((q) => q.i !== q.j)!;
+    expect(e.method).toBe('reference-mixture-average');
+    expect(e.valueM3PerMol * 1e6).toBeCloseTo(-43.83, 1);
+    expect(virialU(e) * 1e6).toBeCloseTo(5.79, 1);
+  });
+
+  it('the refutation needs a well-defined library (spread <= 20 %) and a calibrated rule', () => {
+    expect(CROSS_RULE_REFUTED.maxRelativeSpread).toBe(0.2);
+    // N2-n-C7H16 at 300 K: the library's implied values run from about -102 to +793 cm3/mol; the rule stays
+    const heavy = virialModel(['N2', 'n-C7H16'], 300).entries.find((q) => q.i !== q.j)!;
+    expect(heavy.method).toBe('combining-rule');
+    // O2-CO2 at 250 K: the rule (-62.6) lies inside the library's -69.0 to -53.4; the rule stays, with its own u
+    const o2 = virialModel(['O2', 'CO2'], 250).entries.find((q) => q.i !== q.j)!;
+    expect(o2.method).toBe('combining-rule');
+    expect(virialU(o2) * 1e6).toBeCloseTo(4, 6);
+    // water-methanol (hydrogen-bonding: the rule is not calibrated) keeps the rule at 300 K (the library's
+    // average there: -1871 cm3/mol, its spread 18 %)
+    const hb = virialModel(['H2O', 'CH3OH'], 300).entries.find((q) => q.i !== q.j)!;
+    expect(hb.method).toBe('combining-rule');
   });
 });
