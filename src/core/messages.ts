@@ -120,6 +120,8 @@ export function describeProblem(p: Problem): string {
     case 'csv-not-rising':
     case 'csv-no-rows':
     case 'csv-species-not-filled':
+    case 'csv-name-ambiguous':
+    case 'csv-name-in-premix':
       return describeRecheckProblem(p);
     // raised by the batch log and the guided fill
     case 'log-locked':
@@ -142,10 +144,6 @@ export function describeProblem(p: Problem): string {
     case 'charges-invalid':
     case 'split-stop':
       return describeChargeProblem(p);
-    // raised by the re-check of readings (how a CSV row names its source)
-    case 'csv-name-ambiguous':
-    case 'csv-name-in-premix':
-      return describeRecheckProblem(p);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);
