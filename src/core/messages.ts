@@ -12,6 +12,7 @@ import type {
   WriteCause,
   YamlFault,
 } from './problems.js';
+import { describeTwoStageProblem } from './two-stage-words.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -133,6 +134,9 @@ export function describeProblem(p: Problem): string {
     case 'withdraw-not-last':
     case 'reading-missing':
       return describeLogProblem(p);
+    // raised by two-stage preparation
+    case 'two-stage-refused':
+      return describeTwoStageProblem(p, describeProblem);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);

@@ -250,7 +250,21 @@ export type Problem =
   /** a recipe or lab-profile field that its format refuses (the schema's verdict, in our words) */
   | { readonly code: 'invalid-field'; readonly field: string; readonly issue: FieldIssue }
   // raised by the planner
-  | PlannerProblem;
+  | PlannerProblem
+  // raised by two-stage preparation (plan/two-stage.ts)
+  | {
+      readonly code: 'two-stage-refused';
+      readonly kind: 'same-tank';
+      readonly tank: string;
+    }
+  | { readonly code: 'two-stage-refused'; readonly kind: 'no-diluent' }
+  | {
+      readonly code: 'two-stage-refused';
+      readonly kind: 'no-plan';
+      readonly tried: number;
+      /** the first choice's refusal */
+      readonly cause?: Problem;
+    };
 
 /** who holds a batch log's lock: from the lock file */
 export interface LockHolder {
