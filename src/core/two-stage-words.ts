@@ -52,7 +52,10 @@ export function describeTwoStageProblem(
 ): string {
   switch (p.kind) {
     case 'same-tank':
-      return `the premix must be made in another tank than the batch (both are ${p.tank}); name a second tank of the lab profile`;
+      return (
+        `the premix must be made in another tank than the batch (both are ${p.tank}); ` +
+        'name a second tank of the lab profile'
+      );
     case 'no-diluent':
       return 'the design has no diluent to make a premix in; a two-stage preparation needs one';
     case 'no-plan':

@@ -148,7 +148,11 @@ interface ReadingInputs {
   readonly purity: Int32Array;
   readonly virial: readonly { i: number; j: number; c: number }[];
   /** a source's composition terms: the component, the readings from that source, the change per unit (length S) */
-  readonly composition: readonly { readonly c: number; readonly readings: number[]; readonly dw: Float64Array }[];
+  readonly composition: readonly {
+    readonly c: number;
+    readonly readings: number[];
+    readonly dw: Float64Array;
+  }[];
 }
 
 /** the independent input components (module comment) and which reading each one moves */

@@ -25,7 +25,7 @@ import { predictPlan, withPrediction, type PredictedPlan, type PredictionInput }
 import { fail, ProblemError, type Problem } from '../problems.js';
 import { premixDelivery, PREMIX_DELIVERY_MARGIN, type Delivery } from '../premix-tank.js';
 import { premixSource } from './premix-source.js';
-import type { PlanInput, TankSpec } from './types.js';
+import type { Plan, PlanInput, TankSpec } from './types.js';
 
 export interface TwoStageInput {
   /** the batch as a single-tank request: design, batch tank, cylinders, gauges, tolerance */
@@ -144,8 +144,18 @@ function predicted(plan: ReturnType<typeof planFill>, input: TwoStageInput): Pre
   return withPrediction(plan, p);
 }
 
-/** the delivery check: the premix tank's pressure after the batch's premix charges */
-function deliveryCheck(batch: PredictedPlan, source: GasSource, input: TwoStageInput, startPa: number) {
+/**
+ * The delivery check: the premix tank's pressure after the batch's premix charges (premix-tank.ts),
+ * against the reading its last charge must reach plus PREMIX_DELIVERY_MARGIN. A danger
+ * (`premix-runs-low`) when the settled pressure is below it, a warning (`premix-cools-low`) when
+ * only a fast delivery's cold gas is.
+ */
+export function premixDeliveryCheck(
+  batch: Plan,
+  source: GasSource,
+  premixTank: TankSpec,
+  startPa: number,
+): { check: PremixDeliveryCheck; findings: Finding[] } {
   const from = batch.steps.filter((s) => s.source.id === source.id);
   const deliveredMol = from.reduce((a, s) => a + s.amountMol, 0);
   const last = from[from.length - 1];
@@ -153,8 +163,8 @@ function deliveryCheck(batch: PredictedPlan, source: GasSource, input: TwoStageI
   const requiredPa = targetPa * (1 + PREMIX_DELIVERY_MARGIN);
   const d = premixDelivery({
     composition: source.composition,
-    volumeM3: input.premixTank.volumeM3,
-    temperatureK: input.batch.temperatureK,
+    volumeM3: premixTank.volumeM3,
+    temperatureK: batch.temperatureK,
     startPa,
     deliveredMol,
   });
@@ -162,7 +172,7 @@ function deliveryCheck(batch: PredictedPlan, source: GasSource, input: TwoStageI
   const findings: Finding[] = [];
   const common = {
     step: last?.index,
-    tank: input.premixTank.id,
+    tank: premixTank.id,
     startPa,
     targetPa,
     requiredPa,
@@ -257,7 +267,7 @@ function planChoice(
   // the draft's premix stands in for the premix as stage 1 makes it: same id, the predicted composition
   const steps = draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s));
   const stage2 = predicted({ ...draft.plan, steps }, input);
-  const { check, findings } = deliveryCheck(stage2, source, input, choice.pressurePa);
+  const { check, findings } = premixDeliveryCheck(stage2, source, input.premixTank, choice.pressurePa);
   const batch: PredictedPlan = { ...stage2, findings: [...stage2.findings, ...findings] };
   return {
     premix: stage1,
