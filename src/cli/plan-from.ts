@@ -1,5 +1,6 @@
 /** A recipe file and the design options -> the plan, with every refusal pointed at the file line or option. */
 import { planWithPrediction } from '../io/plan-predict.js';
+import { planTwoStageFrom, twoStageInputOf, twoStageProposal } from '../io/two-stage-request.js';
 import { batchSizeFinding, experimentsServed, planFill, ProblemError, type Plan } from '../core/index.js';
 import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
 import { isPressureUnit, type PressureUnit } from '../io/quantity.js';
@@ -47,6 +48,11 @@ function metaOf(plan: Plan, req: PlanRequest, barometerGiven: boolean): Planned[
   };
 }
 
+/** the command a proposal names: the plan of this recipe file */
+function proposalCommand(recipeFile: string | undefined): string {
+  return recipeFile ? `mixwright plan ${recipeFile}` : 'the same plan command';
+}
+
 /** recipe and options -> plan, with errors pointed at the file line or option */
 export function planFrom(recipeFile: string | undefined, o: DesignValues): Planned {
   const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
@@ -55,7 +61,11 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues): Plann
   const req = buildPlanRequest(rs, o.lab, { barometricPa });
   let plan: Plan;
   try {
-    plan = planWithPrediction(planFill(req.input), req);
+    // two stages when the recipe or --premix-tank asks; else one tank, and a premix proposed when it helps
+    const two = twoStageInputOf(req, rs);
+    plan = two ? planTwoStageFrom(two, rs) : planWithPrediction(planFill(req.input), req);
+    const proposal = two ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
+    if (proposal) plan = { ...plan, findings: [...plan.findings, proposal] };
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
     if (e instanceof ProblemError) throw locateCoreProblem(e, rs);

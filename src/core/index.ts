@@ -228,7 +228,7 @@ export { READING_TEMPERATURE_RANGE_K, recheckModelInput } from './recheck-input.
 export type { RecheckBasis, RecheckModelInput, RecheckRecord } from './recheck-input.js';
 export type { ComponentAbout, InTank, MonteCarloJob } from './uncertainty.js';
 // two-stage preparation: a premix in a second tank, then the batch from it
-export { planTwoStage, premixDeliveryCheck } from './plan/two-stage.js';
+export { allStageFindings, planTwoStage, premixDeliveryCheck } from './plan/two-stage.js';
 export type {
   PremixChoice,
   PremixDeliveryCheck,

@@ -4,6 +4,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 import { predictedLines } from './predicted-text.js';
+import { twoStageDeliveryLines, twoStageHead } from './two-stage-text.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -180,7 +181,7 @@ function findingLines(plan: Plan, unit: PressureUnit): string[] {
 }
 
 export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
-  const out: string[] = headerLines(plan, meta, unit);
+  const out: string[] = [...twoStageHead(plan, meta, unit, planToText), ...headerLines(plan, meta, unit)];
   out.push(...manifoldTable(plan, unit));
   out.push('');
   out.push(...numbersTable(plan, unit));
@@ -202,6 +203,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push(`            ${formatFractions(plan.composition)}${unidentified}`);
   out.push('');
   out.push(...predictedLines(plan));
+  out.push(...twoStageDeliveryLines(plan, unit));
   out.push(...findingLines(plan, unit));
   out.push(`Caution: ${STANDING_CAUTION}`);
   return out.join('\n') + '\n';

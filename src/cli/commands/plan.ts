@@ -1,6 +1,6 @@
 /** `mixwright plan`: the fill plan of a mixture, as text or JSON. */
 import type { Command } from 'commander';
-import { worstSeverity } from '../../core/index.js';
+import { allStageFindings, worstSeverity } from '../../core/index.js';
 import { planToJson } from '../../report/plan-json.js';
 import { planToText } from '../../report/plan-text.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
@@ -18,6 +18,6 @@ export function registerPlan(program: Command, cli: Cli): void {
       const { plan, unit, meta } = planFrom(recipeFile, o);
       if (o.json) cli.out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
       else cli.out(planToText(plan, meta, unit));
-      if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+      if (worstSeverity(allStageFindings(plan)) === 'danger') throw new ExitSignal(EXIT.danger);
     });
 }

@@ -1,6 +1,6 @@
 /** `mixwright sheet`: the printable fill checklist. */
 import { Option, type Command } from 'commander';
-import { mixingEstimate, worstSeverity } from '../../core/index.js';
+import { allStageFindings, mixingEstimate, worstSeverity } from '../../core/index.js';
 import { buildSheetModel } from '../../report/sheet-model.js';
 import { sheetToHtml, sheetToMarkdown, sheetToText } from '../../report/sheet-render.js';
 import { VERSION } from '../../version.js';
@@ -50,7 +50,7 @@ async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions):
     render,
     () => sheetToHtml(model),
   );
-  if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+  if (worstSeverity(allStageFindings(plan)) === 'danger') throw new ExitSignal(EXIT.danger);
 }
 
 export function registerSheet(program: Command, cli: Cli): void {

@@ -37,6 +37,10 @@ export interface TwoStageInput {
   readonly premixSpecies?: readonly string[];
   /** the premix tank's final pressure, Pa absolute; default: searched */
   readonly premixPressurePa?: number;
+  /** the mole fraction of the premix's gases (besides the diluent) in the premix; default: searched */
+  readonly premixFraction?: number;
+  /** stage 1's order; default: searched */
+  readonly premixOrder?: PremixChoice['order'];
 }
 
 /** what was chosen for the premix */
@@ -54,6 +58,8 @@ export interface PremixChoice {
 }
 
 export interface PremixDeliveryCheck extends Delivery {
+  /** the premix tank's pressure before the batch draws from it, Pa absolute */
+  readonly startPa: number;
   readonly deliveredMol: number;
   /** the batch reading the premix's last charge must reach, Pa absolute */
   readonly targetPa: number;
@@ -120,13 +126,20 @@ function premixCompositions(
   if (!(dilSum > 0) || !(minor > 0)) return [];
   const matched = minor / (minor + design.diluentFraction);
   const out: { x: Fractions; matched: boolean }[] = [];
-  for (const factor of FRACTION_FACTORS) {
-    const f = matched * factor;
-    if (factor > 1 && f > PREMIX_MAX_FRACTION) continue;
+  const given = input.premixFraction;
+  if (given !== undefined && !(given > 0 && given < 1))
+    fail(
+      { code: 'out-of-range', what: 'premix fraction', value: given, allowed: '(0, 1)' },
+      { field: 'premix.fraction' },
+    );
+  const fractions = given !== undefined ? [given] : FRACTION_FACTORS.map((k) => k * matched);
+  for (const f of fractions) {
+    const factor = f / matched;
+    if (given === undefined && factor > 1 && f > PREMIX_MAX_FRACTION) continue;
     const x: Record<string, number> = {};
     for (const k of species) x[k] = (f * (design.composition[k] ?? 0)) / minor;
     for (const [k, v] of Object.entries(dil)) x[k] = (x[k] ?? 0) + ((1 - f) * v) / dilSum;
-    out.push({ x, matched: factor === 1 });
+    out.push({ x, matched: Math.abs(factor - 1) < 1e-9 });
   }
   return out;
 }
@@ -168,7 +181,7 @@ export function premixDeliveryCheck(
     startPa,
     deliveredMol,
   });
-  const check: PremixDeliveryCheck = { ...d, deliveredMol, targetPa, requiredPa };
+  const check: PremixDeliveryCheck = { ...d, startPa, deliveredMol, targetPa, requiredPa };
   const findings: Finding[] = [];
   const common = {
     step: last?.index,
@@ -341,7 +354,7 @@ function choicesFor(
   const out: { choice: PremixChoice; gauges: Gauge[] }[] = [];
   for (const pressurePa of pressures)
     for (const gauges of gaugeChoices(input, pressurePa))
-      for (const order of ['minor-first', 'recommended'] as const)
+      for (const order of input.premixOrder ? [input.premixOrder] : (['minor-first', 'recommended'] as const))
         out.push({ choice: { ...base, pressurePa, gauges: gauges.map((g) => g.id), order }, gauges });
   return out;
 }
@@ -418,4 +431,9 @@ export function planTwoStage(input: TwoStageInput, search: TwoStageSearch = 'ful
         }
       : undefined;
   return { ...chosen, candidates: tried, mostPrecise };
+}
+
+/** every finding of a plan and, for a two-stage batch, of its premix stage (stage 1 first): what the exit code judges */
+export function allStageFindings(plan: Plan): Finding[] {
+  return [...(plan.twoStage?.premix.findings ?? []), ...plan.findings];
 }
