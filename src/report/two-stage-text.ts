@@ -32,9 +32,23 @@ function premixMeta(meta: PlanMeta): PlanMeta {
 function choiceLine(t: TwoStage, unit: PressureUnit): string {
   const order = t.choice.order === 'minor-first' ? 'its minor gases first' : 'the recommended order';
   return (
-    `Premix      ${premixName(t)} in ${tankName(t.premix.tank.id)}, filled to ${pressure(t.choice.pressurePa, unit, 5)} ` +
+    `Premix      ${premixName(t)} in ${tankName(t.premix.tank.id)}, ` +
+    `filled to ${pressure(t.choice.pressurePa, unit, 5)} ` +
     `in ${order}, read on ${t.choice.gauges.join(', ')} (chosen from ${t.candidates} premix choices planned)`
   );
+}
+
+/** the more precise choice the search passed over for its warnings, if any */
+function alternativeLine(t: TwoStage, unit: PressureUnit): string[] {
+  const m = t.mostPrecise;
+  if (!m) return [];
+  const gases = m.choice.species;
+  const share = gases.reduce((a, k) => a + (m.choice.composition[k] ?? 0), 0);
+  return [
+    `            a more precise choice (worst U ${fixedSig(m.worstRatio * 100, 2)} % of its tolerance) ` +
+      `has warnings (${m.warnings.join(', ')}): ${fixedSig(share * 100, 3)} % ${gases.join('+')}, ` +
+      `${pressure(m.choice.pressurePa, unit, 4)}, order ${m.choice.order} (premix: fraction, pressure, order)`,
+  ];
 }
 
 /** the lines before the batch: the two-stage header and stage 1 rendered whole */
@@ -46,20 +60,10 @@ export function twoStageHead(
 ): string[] {
   const t = plan.twoStage;
   if (!t) return [];
-  const alt = t.mostPrecise
-    ? [
-        `            a more precise choice (worst U ${fixedSig(t.mostPrecise.worstRatio * 100, 2)} % of its tolerance) ` +
-          `has warnings (${t.mostPrecise.warnings.join(', ')}): ${fixedSig(
-            Object.entries(t.mostPrecise.choice.composition).find(([k]) =>
-              t.mostPrecise!.choice.species.includes(k),
-            )![1] * 100,
-            3,
-          )} % ${t.mostPrecise.choice.species.join('+')}, ${pressure(t.mostPrecise.choice.pressurePa, unit, 4)}, ` +
-          `order ${t.mostPrecise.choice.order}`,
-      ]
-    : [];
+  const alt = alternativeLine(t, unit);
   return [
-    `Two-stage preparation: stage 1 makes the premix in ${tankName(t.premix.tank.id)}; stage 2 fills the batch from it.`,
+    `Two-stage preparation: stage 1 makes the premix in ${tankName(t.premix.tank.id)}; ` +
+      'stage 2 fills the batch from it.',
     choiceLine(t, unit),
     ...alt,
     '',

@@ -139,7 +139,7 @@ function premixCompositions(
     const x: Record<string, number> = {};
     for (const k of species) x[k] = (f * (design.composition[k] ?? 0)) / minor;
     for (const [k, v] of Object.entries(dil)) x[k] = (x[k] ?? 0) + ((1 - f) * v) / dilSum;
-    out.push({ x, matched: Math.abs(factor - 1) < 1e-9 });
+    out.push({ x, matched: Math.abs(factor - 1) < 1e-6 });
   }
   return out;
 }
@@ -433,7 +433,7 @@ export function planTwoStage(input: TwoStageInput, search: TwoStageSearch = 'ful
   return { ...chosen, candidates: tried, mostPrecise };
 }
 
-/** every finding of a plan and, for a two-stage batch, of its premix stage (stage 1 first): what the exit code judges */
+/** every finding of a plan and, for a two-stage batch, of its premix stage (stage 1 first): the exit code's */
 export function allStageFindings(plan: Plan): Finding[] {
   return [...(plan.twoStage?.premix.findings ?? []), ...plan.findings];
 }
