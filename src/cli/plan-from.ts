@@ -53,8 +53,11 @@ function proposalCommand(recipeFile: string | undefined): string {
   return recipeFile ? `mixwright plan ${recipeFile}` : 'the same plan command';
 }
 
-/** recipe and options -> plan, with errors pointed at the file line or option */
-export function planFrom(recipeFile: string | undefined, o: DesignValues): Planned {
+/**
+ * recipe and options -> plan, with errors pointed at the file line or option; `propose`: a
+ * single-tank plan over tolerance proposes a premix in another tank (`plan` asks for it)
+ */
+export function planFrom(recipeFile: string | undefined, o: DesignValues, propose = false): Planned {
   const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
   const base = recipeFile ? readRecipe(recipeFile) : undefined;
   const rs = mergeOptions(base, o);
@@ -64,7 +67,7 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues): Plann
     // two stages when the recipe or --premix-tank asks; else one tank, and a premix proposed when it helps
     const two = twoStageInputOf(req, rs);
     plan = two ? planTwoStageFrom(two, rs) : planWithPrediction(planFill(req.input), req);
-    const proposal = two ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
+    const proposal = two || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
     if (proposal) plan = { ...plan, findings: [...plan.findings, proposal] };
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option

@@ -32,10 +32,8 @@ function coolsLow(f: Of<'premix-cools-low'>, p: PressureFormatter): string {
 
 function proposed(f: Of<'two-stage-proposed'>): string {
   return (
-    `a premix of ${f.premix} made first in ${f.premixTank}, then the batch from it, is predicted ` +
-    `to give U (k = 2) of x(${f.species}) ${rel(f.twoStageU)} instead of ${rel(f.singleU)} ` +
-    `(tolerance ${rel(f.tolerance)}; worst design fraction of the batch: ${rel(f.twoStageWorst)} of its ` +
-    `tolerance used): plan it with ${f.command}`
+    `a premix of ${f.premix} in ${f.premixTank} first would give U of x(${f.species}) ` +
+    `${rel(f.twoStageU)} instead of ${rel(f.singleU)}: ${f.command}`
   );
 }
 

@@ -15,7 +15,7 @@ export function registerPlan(program: Command, cli: Cli): void {
   )
     .option('--json', 'print one JSON object (SI units in the key names)')
     .action(async (recipeFile: string | undefined, o: DesignValues & { json?: boolean }) => {
-      const { plan, unit, meta } = planFrom(recipeFile, o);
+      const { plan, unit, meta } = planFrom(recipeFile, o, true);
       if (o.json) cli.out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
       else cli.out(planToText(plan, meta, unit));
       if (worstSeverity(allStageFindings(plan)) === 'danger') throw new ExitSignal(EXIT.danger);
