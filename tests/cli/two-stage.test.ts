@@ -92,4 +92,21 @@ describe('mixwright plan --premix-tank', () => {
     expect(Math.abs((2 * o2.u) / o2.value - 0.00235)).toBeLessThan(1e-4);
     expect(t.stages[0].findings.map((f: { code: string }) => f.code)).toContain('oxygen-compression');
   });
+
+  it('sheet: one sheet per stage, stage 1 first; HTML one document with a page break', async () => {
+    const txt = await runCli(['sheet', RECIPE, '--premix-tank', 'MT-2', '--format', 'txt']);
+    expect(txt.code).toBe(0);
+    const a = txt.stdout.indexOf('FILL SHEET  Stage 1 of 2: premix in MT-2');
+    const b = txt.stdout.indexOf('FILL SHEET  Stage 2 of 2:');
+    expect(a).toBeGreaterThanOrEqual(0);
+    expect(b).toBeGreaterThan(a);
+    expect(txt.stdout.slice(b)).toContain('premix-MT-2');
+    expect(txt.stdout.slice(b)).toMatch(/Premix tank\s+MT-2 at 1890\.2 Torr before; 1840\.9 Torr after/);
+    const html = await runCli(['sheet', RECIPE, '--premix-tank', 'MT-2', '--format', 'html']);
+    expect(html.code).toBe(0);
+    expect(html.stdout.match(/<html/g)?.length).toBe(1);
+    expect(html.stdout.match(/<\/body>/g)?.length).toBe(1);
+    expect(html.stdout).toContain('break-before: page');
+    expect(html.stdout.indexOf('Stage 1 of 2')).toBeLessThan(html.stdout.indexOf('Stage 2 of 2'));
+  });
 });
