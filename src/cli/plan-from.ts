@@ -1,7 +1,14 @@
 /** A recipe file and the design options -> the plan, with every refusal pointed at the file line or option. */
 import { planWithPrediction } from '../io/plan-predict.js';
 import { planTwoStageFrom, twoStageInputOf, twoStageProposal } from '../io/two-stage-request.js';
-import { batchSizeFinding, experimentsServed, planFill, ProblemError, type Plan } from '../core/index.js';
+import {
+  batchSizeFinding,
+  experimentsServed,
+  planFill,
+  ProblemError,
+  type Finding,
+  type Plan,
+} from '../core/index.js';
 import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
 import { isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { PlanMeta } from '../report/plan-json.js';
@@ -14,6 +21,8 @@ export interface Planned {
   readonly req: PlanRequest;
   readonly unit: PressureUnit;
   readonly meta: PlanMeta & { readonly barometer: NonNullable<PlanMeta['barometer']> };
+  /** a premix in another tank, proposed for a single-tank plan over tolerance (`plan` only) */
+  readonly proposal?: Finding;
 }
 
 /** the unit of the tables: --units, else the unit the final pressure was given in when it is one of ours, else Torr */
@@ -63,12 +72,12 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues, propos
   const rs = mergeOptions(base, o);
   const req = buildPlanRequest(rs, o.lab, { barometricPa });
   let plan: Plan;
+  let proposal: Finding | undefined;
   try {
     // two stages when the recipe or --premix-tank asks; else one tank, and a premix proposed when it helps
     const two = twoStageInputOf(req, rs);
     plan = two ? planTwoStageFrom(two, rs) : planWithPrediction(planFill(req.input), req);
-    const proposal = two || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
-    if (proposal) plan = { ...plan, findings: [...plan.findings, proposal] };
+    proposal = two || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
     if (e instanceof ProblemError) throw locateCoreProblem(e, rs);
@@ -82,5 +91,6 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues, propos
     req,
     unit: tableUnit(o.units, req.recipe.pressure),
     meta: metaOf(plan, req, o.barometer !== undefined),
+    proposal,
   };
 }

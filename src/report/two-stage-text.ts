@@ -4,7 +4,8 @@
  * falling pressure while it delivers. plan-text.ts and plan-json.ts call these; each returns
  * nothing for a single-tank plan. The stage's own plan is rendered by the caller's renderer.
  */
-import { predictionOf, type Plan } from '../core/index.js';
+import { describeFinding, predictionOf, type Finding, type Plan } from '../core/index.js';
+import { withJsonKeys } from './json-keys.js';
 import { fixedSig, pressure, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 import type { PressureUnit } from './units.js';
@@ -150,4 +151,10 @@ export function twoStageJson(
       { stage: 2, role: 'batch', ...render(batch, meta, unit) },
     ],
   };
+}
+
+/** `two_stage_proposal` of plan --json: the proposal finding in the JSON key style, with its sentence; null without one */
+export function proposalJson(f: Finding | undefined, unit: PressureUnit): object | null {
+  if (!f) return null;
+  return { ...(withJsonKeys(f) as object), message: describeFinding(f, (pa) => pressure(pa, unit)) };
 }

@@ -50,7 +50,13 @@ describe('mixwright plan --premix-tank', () => {
     const r = await runCli(['plan', RECIPE, '--json']);
     const j = JSON.parse(r.stdout);
     expect(j.two_stage).toBeNull();
-    const f = j.findings.find((x: { code: string }) => x.code === 'two-stage-proposed');
+    const f = j.two_stage_proposal;
+    expect(f.code).toBe('two-stage-proposed');
+    // the plan's findings stay those the sheet prints; the text lists the proposal among them
+    expect(j.findings.map((x: { code: string }) => x.code)).not.toContain('two-stage-proposed');
+    expect((await runCli(['plan', RECIPE])).stdout).toContain(
+      'note    two-stage-proposed: a premix of 13.4 % O2 in Ar',
+    );
     expect(f.severity).toBe('note');
     expect(f.premix_tank).toBe('MT-2');
     expect(f.command).toBe(`mixwright plan ${RECIPE} --premix-tank MT-2`);
