@@ -153,7 +153,7 @@ export function twoStageJson(
   };
 }
 
-/** `two_stage_proposal` of plan --json: the proposal finding in the JSON key style, with its sentence; null without one */
+/** `two_stage_proposal` of plan --json: the proposal finding in the JSON key style, with its sentence */
 export function proposalJson(f: Finding | undefined, unit: PressureUnit): object | null {
   if (!f) return null;
   return { ...(withJsonKeys(f) as object), message: describeFinding(f, (pa) => pressure(pa, unit)) };

@@ -17,7 +17,7 @@ export function registerPlan(program: Command, cli: Cli): void {
     .option('--json', 'print one JSON object (SI units in the key names)')
     .action(async (recipeFile: string | undefined, o: DesignValues & { json?: boolean }) => {
       const { plan, unit, meta, proposal } = planFrom(recipeFile, o, true);
-      // a proposed premix: among the findings of the text, its own key in the JSON (the plan's findings are the sheet's)
+      // a proposed premix: among the text's findings, its own key in the JSON (the plan's findings are the sheet's)
       const json = { ...planToJson(plan, meta, unit), two_stage_proposal: proposalJson(proposal, unit) };
       if (o.json) cli.out(JSON.stringify(json, null, 2) + '\n');
       else
