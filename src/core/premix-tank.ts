@@ -48,9 +48,10 @@ export interface Delivery {
 /**
  * The premix tank's pressure after it has delivered `deliveredMol`.
  * Valid where the virial equation is (up to about 10 bar for permanent gases, 200-600 K).
- * Example: 30.2 L of 1.342 % O2 in Ar at 4500 Torr and 298.15 K holds 7.336 mol; after delivering
- * 0.8 mol it settles at 4010.9 Torr (CoolProp 8.0.0 HEOS mixture: 7.336 mol and 4010.9 Torr; asserted
- * in tests/core/premix-tank.test.ts); delivered fast, the gas left cools to about 276 K and 3712 Torr.
+ * Example: premixDelivery({ composition: { Ar: 0.98657718121, O2: 0.01342281879 }, volumeM3: 0.0302,
+ *   temperatureK: 298.15, startPa: 4500 * 133.322368, deliveredMol: 0.8 }) -> { startAmountMol: 7.336,
+ *   endPa: 4010.9 Torr } (CoolProp 8.0.0 HEOS Ar-O2 mixture: 7.3362 mol, 534741 Pa = 4010.88 Torr); delivered
+ * fast, the gas left cools to about 276 K and 3712 Torr.
  */
 export function premixDelivery(input: DeliveryInput): Delivery {
   const { composition: y, volumeM3: V, temperatureK: T, startPa } = input;
