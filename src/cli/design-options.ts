@@ -194,6 +194,12 @@ export const DESIGN_OPTIONS: readonly DesignOption[] = [
     choices: PRESSURE_UNITS,
     json: null,
   },
+  {
+    flag: '--premix-tank <id>',
+    help: 'make a premix first in this second tank of the lab profile, then the batch from it (two stages)',
+    recipe: 'premix.tank',
+    json: 'two_stage',
+  },
 ];
 
 /** "--diluent-ratio <number>" -> "--diluent-ratio" */

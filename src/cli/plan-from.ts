@@ -1,11 +1,13 @@
 /** A recipe file and the design options -> the plan, with every refusal pointed at the file line or option. */
 import { planWithPrediction } from '../io/plan-predict.js';
+import { planTwoStageFrom, twoStageInputOf, twoStageProposal } from '../io/two-stage-request.js';
 import {
   batchSizeFinding,
   experimentsServed,
   planFill,
   premixFindings,
   ProblemError,
+  type Finding,
   type Plan,
 } from '../core/index.js';
 import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
@@ -20,6 +22,8 @@ export interface Planned {
   readonly req: PlanRequest;
   readonly unit: PressureUnit;
   readonly meta: PlanMeta & { readonly barometer: NonNullable<PlanMeta['barometer']> };
+  /** a premix in another tank, proposed for a single-tank plan over tolerance (`plan` only) */
+  readonly proposal?: Finding;
 }
 
 /** the unit of the tables: --units, else the unit the final pressure was given in when it is one of ours, else Torr */
@@ -54,15 +58,27 @@ function metaOf(plan: Plan, req: PlanRequest, barometerGiven: boolean): Planned[
   };
 }
 
-/** recipe and options -> plan, with errors pointed at the file line or option */
-export function planFrom(recipeFile: string | undefined, o: DesignValues): Planned {
+/** the command a proposal names: the plan of this recipe file */
+function proposalCommand(recipeFile: string | undefined): string {
+  return recipeFile ? `mixwright plan ${recipeFile}` : 'the same plan command';
+}
+
+/**
+ * recipe and options -> plan, with errors pointed at the file line or option; `propose`: a
+ * single-tank plan over tolerance proposes a premix in another tank (`plan` asks for it)
+ */
+export function planFrom(recipeFile: string | undefined, o: DesignValues, propose = false): Planned {
   const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
   const base = recipeFile ? readRecipe(recipeFile) : undefined;
   const rs = mergeOptions(base, o);
   const req = buildPlanRequest(rs, o.lab, { barometricPa });
   let plan: Plan;
+  let proposal: Finding | undefined;
   try {
-    plan = planWithPrediction(planFill(req.input), req);
+    // two stages when the recipe or --premix-tank asks; else one tank, and a premix proposed when it helps
+    const two = twoStageInputOf(req, rs);
+    plan = two ? planTwoStageFrom(two, rs) : planWithPrediction(planFill(req.input), req);
+    proposal = two || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
     if (e instanceof ProblemError) throw locateCoreProblem(e, rs);
@@ -79,5 +95,6 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues): Plann
     req,
     unit: tableUnit(o.units, req.recipe.pressure),
     meta: metaOf(plan, req, o.barometer !== undefined),
+    proposal,
   };
 }

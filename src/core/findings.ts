@@ -6,6 +6,7 @@
 import { VIRIAL_U } from './mixture-eos.js';
 import { describePredictedOver } from './predict-words.js';
 import type { ComponentAbout } from './uncertainty.js';
+import { TWO_STAGE_WORDING } from './two-stage-words.js';
 
 export type Severity = 'danger' | 'warning' | 'note';
 
@@ -187,6 +188,35 @@ export type Finding = Base &
         }[];
         /** the plan's order with the premix replaced by its gases */
         readonly order: readonly string[];
+      }
+    // raised by two-stage preparation (plan/two-stage.ts)
+    | {
+        readonly code: 'premix-runs-low' | 'premix-cools-low';
+        /** the premix tank, its pressure before and after the delivery (Pa absolute), the amount drawn */
+        readonly tank: string;
+        readonly startPa: number;
+        readonly endPa: number;
+        /** the gas temperature at the end of a fast delivery (premix-cools-low), K */
+        readonly endK?: number;
+        readonly deliveredMol: number;
+        /** the batch reading the charge must reach, and the end pressure it needs with the margin */
+        readonly targetPa: number;
+        readonly requiredPa: number;
+      }
+    | {
+        readonly code: 'two-stage-proposed';
+        readonly premixTank: string;
+        /** the premix, as the plan names it ("1.34 % O2 in Ar") */
+        readonly premix: string;
+        /** the design fraction it helps most, its relative U (k = 2) now and in two stages, its tolerance */
+        readonly species: string;
+        readonly singleU: number;
+        readonly twoStageU: number;
+        readonly tolerance: number;
+        /** the two-stage batch's worst U / tolerance over its design fractions */
+        readonly twoStageWorst: number;
+        /** the command (or option) that plans it */
+        readonly command: string;
       }
   );
 
@@ -697,6 +727,7 @@ const WORDING: WordingTable<FindingCode> = {
   ...REACTIVE_GASES,
   ...ORDER,
   ...SPLIT,
+  ...TWO_STAGE_WORDING,
 };
 
 /** a finding in one sentence: what, the numbers behind it, what to do */

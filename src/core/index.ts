@@ -237,3 +237,17 @@ export { contributionAdvice } from './predict-words.js';
 export { READING_TEMPERATURE_RANGE_K, recheckModelInput } from './recheck-input.js';
 export type { RecheckBasis, RecheckModelInput, RecheckRecord } from './recheck-input.js';
 export type { ComponentAbout, InTank, MonteCarloJob } from './uncertainty.js';
+// two-stage preparation: a premix in a second tank, then the batch from it
+export { allStageFindings, planTwoStage, premixDeliveryCheck } from './plan/two-stage.js';
+export type {
+  PremixChoice,
+  PremixDeliveryCheck,
+  TwoStageInput,
+  TwoStagePlan,
+  TwoStageSearch,
+} from './plan/two-stage.js';
+export { compositionTermsOf, premixSource } from './plan/premix-source.js';
+export type { PremixSourceArgs } from './plan/premix-source.js';
+export { premixDelivery, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
+export type { Delivery, DeliveryInput } from './premix-tank.js';
+export type { CompositionTerm } from './supply.js';

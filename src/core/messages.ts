@@ -15,6 +15,7 @@ import type {
   YamlFault,
 } from './problems.js';
 import { TORR_PA } from './constants.js';
+import { describeTwoStageProblem } from './two-stage-words.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -144,6 +145,9 @@ export function describeProblem(p: Problem): string {
     case 'charges-invalid':
     case 'split-stop':
       return describeChargeProblem(p);
+    // raised by two-stage preparation
+    case 'two-stage-refused':
+      return describeTwoStageProblem(p, describeProblem);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);

@@ -79,6 +79,12 @@ export function contributionAdvice(
         what: `the unidentified impurity of ${about.source}`,
         fix: `a certified analysis or a higher grade for ${about.source}`,
       };
+    // raised by a two-stage plan: the premix's own budget carried into the batch
+    case 'source-composition':
+      return {
+        what: `the composition of premix ${about.source} (its first-stage input ${about.input})`,
+        fix: `a more precise first stage for ${about.source} (see its own budget), or a re-check of its log`,
+      };
   }
 }
 

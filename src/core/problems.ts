@@ -267,7 +267,21 @@ export type Problem =
   /** a CSV name that fits more than one source: the choices as "id (label)" */
   | { readonly code: 'csv-name-ambiguous'; readonly name: string; readonly choices: readonly string[] }
   /** a CSV row naming a gas that is filled only as part of a premix: the premixes as "id (label)" */
-  | { readonly code: 'csv-name-in-premix'; readonly name: string; readonly premixes: readonly string[] };
+  | { readonly code: 'csv-name-in-premix'; readonly name: string; readonly premixes: readonly string[] }
+  // raised by two-stage preparation (plan/two-stage.ts)
+  | {
+      readonly code: 'two-stage-refused';
+      readonly kind: 'same-tank';
+      readonly tank: string;
+    }
+  | { readonly code: 'two-stage-refused'; readonly kind: 'no-diluent' }
+  | {
+      readonly code: 'two-stage-refused';
+      readonly kind: 'no-plan';
+      readonly tried: number;
+      /** the first choice's refusal */
+      readonly cause?: Problem;
+    };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
 export type ChargeProblem =

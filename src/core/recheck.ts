@@ -175,6 +175,8 @@ export interface Perturbation {
   readonly bAbsolute?: ArrayLike<number>;
   /** change of each reading's main-gas share (purity), absolute */
   readonly purity?: ArrayLike<number>;
+  /** change of each reading's source composition (K x S, row-major), mole fractions; sums to 0 per reading */
+  readonly composition?: ArrayLike<number>;
 }
 
 export interface InverseResult {
@@ -321,7 +323,8 @@ export function invertReadings(
     const T0 = setup.temperaturesK[k];
     const T = p ? p.temperatureK[k] : T0;
     const wk = setup.wEos[k];
-    for (let i = 0; i < S; i++) w[i] = wk[i];
+    const dw = p?.composition;
+    for (let i = 0; i < S; i++) w[i] = wk[i] + (dw ? dw[k * S + i] : 0);
     // a purity perturbation moves gas between the main species and the unidentified remainder;
     // the EOS composition already counts the remainder as main gas, so only the bookkeeping changes
     const dp = p?.purity?.[k] ?? 0;
@@ -351,7 +354,7 @@ export function invertReadings(
     const main = setup.main[k];
     for (let i = 0; i < S; i++) {
       n[i] += d * w[i];
-      nId[i] += d * wid[i];
+      nId[i] += d * (wid[i] + (dw ? dw[k * S + i] : 0));
     }
     // the unidentified remainder, less what the purity perturbation moves into the main gas
     const u = Math.max(0, setup.unidentified[k] - dp);

@@ -25,6 +25,25 @@ export interface GasSource {
   readonly supplyPressurePa?: number;
   /** true when the purity was not given and 1 was assumed */
   readonly purityAssumed?: boolean;
+  /**
+   * the standard uncertainty of the composition itself, as independent inputs that move it
+   * (a premix made in a first stage: the inputs of that stage's budget); counted by the budget
+   */
+  readonly compositionTerms?: readonly CompositionTerm[];
+}
+
+/**
+ * One input of a source's composition uncertainty: its distribution (rectangular: half-width;
+ * normal: standard deviation, in its unit) and the change of each mole fraction of the source per
+ * unit of the input (linear, as the GUM law of propagation uses it). The changes sum to zero.
+ */
+export interface CompositionTerm {
+  readonly name: string;
+  readonly dist: 'rectangular' | 'normal';
+  readonly scale: number;
+  readonly unit: string;
+  /** d(mole fraction of the species in the source) / d(input), per unit of the input */
+  readonly sensitivity: Readonly<Record<string, number>>;
 }
 
 /**

@@ -78,7 +78,9 @@ export type ComponentAbout =
   | { readonly kind: 'barometer' | 'thermometer' }
   | { readonly kind: 'temperature-resolution' | 'temperature-settling'; readonly step: number }
   | { readonly kind: 'virial'; readonly pair: readonly [string, string] }
-  | { readonly kind: 'purity'; readonly source: string };
+  | { readonly kind: 'purity'; readonly source: string }
+  /** an input of a source's own composition uncertainty (a premix's first-stage budget) */
+  | { readonly kind: 'source-composition'; readonly source: string; readonly input: string };
 
 export interface OutputStat {
   readonly value: number;
@@ -147,6 +149,12 @@ interface ReadingInputs {
   readonly settling: Int32Array;
   readonly purity: Int32Array;
   readonly virial: readonly { i: number; j: number; c: number }[];
+  /** a source's composition terms: the component, the readings from that source, the change per unit (length S) */
+  readonly composition: readonly {
+    readonly c: number;
+    readonly readings: number[];
+    readonly dw: Float64Array;
+  }[];
 }
 
 /** the independent input components (module comment) and which reading each one moves */
@@ -230,7 +238,9 @@ function buildComponents(
     purityIdx.set(r.source.id, idx);
     return idx;
   });
+  const composition = compositionComponents(readings, setup, add);
   const inputs: ReadingInputs = {
+    composition,
     span: perReading((r) => spanIdx.get(r.gauge.id) ?? -1),
     zero: perReading((r) => offIdx.get(r.gauge.id) ?? -1),
     resolution,
@@ -242,6 +252,34 @@ function buildComponents(
     virial,
   };
   return { components, inputs };
+}
+
+/**
+ * One component per composition term of each source (GasSource.compositionTerms), shared by every
+ * reading from that source: the same premix gas is drawn at each of its charges.
+ */
+function compositionComponents(
+  readings: readonly CheckedReading[],
+  setup: InverseSetup,
+  add: AddComponent,
+): ReadingInputs['composition'] {
+  const out: { c: number; readings: number[]; dw: Float64Array }[] = [];
+  const sources = [...new Map(readings.map((r) => [r.source.id, r.source])).values()];
+  for (const src of sources) {
+    const at = readings.flatMap((r, k) => (r.source.id === src.id ? [k] : []));
+    for (const t of src.compositionTerms ?? []) {
+      const dw = new Float64Array(setup.species.length);
+      for (const [k, v] of Object.entries(t.sensitivity)) {
+        const i = setup.species.indexOf(k);
+        // a species the source does not hold cannot change: a term naming one is a caller's error
+        if (i < 0) throw new Error(`composition term ${t.name} of ${src.id} names ${k}, not in the source`);
+        dw[i] = v;
+      }
+      const about: ComponentAbout = { kind: 'source-composition', source: src.id, input: t.name };
+      out.push({ c: add(`${src.id}: ${t.name}`, t.dist, t.scale, t.unit, about), readings: at, dw });
+    }
+  }
+  return out;
 }
 
 /** one normal component per second virial coefficient of the species at 1e-4 or more */
@@ -284,6 +322,7 @@ function buildModel(input: ModelInput): Model {
   const T = new Float64Array(K);
   const bAbs = new Float64Array(S * S);
   const pur = new Float64Array(K);
+  const dw = ix.composition.length ? new Float64Array(K * S) : undefined;
   const ws = workspaceFor(setup);
   const demand = setup.species.map((k) => oxygenDemand(getSpecies(k).elements));
   const out = new Float64Array(S + 2);
@@ -307,7 +346,14 @@ function buildModel(input: ModelInput): Model {
       bAbs[b.i * S + b.j] = v[b.c];
       bAbs[b.j * S + b.i] = v[b.c];
     }
-    const perturbation = { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur };
+    if (dw) {
+      dw.fill(0);
+      for (const t of ix.composition) {
+        const val = v[t.c];
+        if (val !== 0) for (const k of t.readings) for (let i = 0; i < S; i++) dw[k * S + i] += val * t.dw[i];
+      }
+    }
+    const perturbation = { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur, composition: dw };
     const res = invertReadings(setup, perturbation, undefined, ws, nominalRho);
     out.set(res.x);
     // phi on the O-atom basis, as composition.equivalenceRatio, from precomputed O2 demands

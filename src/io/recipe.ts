@@ -109,6 +109,30 @@ export const recipeSchema = z
       .strict()
       .optional()
       .describe('gas already in the tank (topping up an earlier batch)'),
+    premix: z
+      .object({
+        tank: z.string().describe('a second tank id from the lab profile: the premix is made there first'),
+        gases: z
+          .array(z.string())
+          .optional()
+          .describe('the gases the premix carries besides the diluent, e.g. [O2]; default: chosen'),
+        fraction: z
+          .number()
+          .gt(0)
+          .lt(1)
+          .optional()
+          .describe('mole fraction of those gases in the premix, e.g. 0.04; default: chosen'),
+        pressure: quantity('final pressure of the premix tank, absolute', '2800 Torr').optional(),
+        order: z
+          .enum(['minor-first', 'recommended'])
+          .optional()
+          .describe(
+            "the premix's fill order: its minor gases first, or the order the safety review recommends",
+          ),
+      })
+      .strict()
+      .optional()
+      .describe('two-stage preparation: a premix in a second tank first, then the batch from it'),
     tolerance: z
       .object({
         relative: z

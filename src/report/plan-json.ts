@@ -4,6 +4,7 @@ import { pressure } from './format.js';
 import { withJsonKeys } from './json-keys.js';
 import type { PressureUnit } from './units.js';
 import { predictedJson } from './predicted-text.js';
+import { twoStageJson } from './two-stage-text.js';
 
 import type { ReactorSpec } from '../core/index.js';
 
@@ -174,6 +175,7 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     steps: plan.steps.map(stepJson),
     ...virialJson(plan),
     predicted: predictedJson(plan),
+    two_stage: twoStageJson(plan, meta, unit, planToJson),
     // a finding's numbers keep their names, in the JSON key style (uncertaintyPa -> uncertainty_Pa)
     findings: plan.findings.map((f) => ({
       ...(withJsonKeys(f) as object),

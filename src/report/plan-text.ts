@@ -5,6 +5,7 @@ import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './f
 import type { PlanMeta } from './plan-json.js';
 import { predictedLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit } from './charges.js';
+import { twoStageDeliveryLines, twoStageHead } from './two-stage-text.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -210,7 +211,7 @@ function findingLines(plan: Plan, unit: PressureUnit): string[] {
 }
 
 export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
-  const out: string[] = headerLines(plan, meta, unit);
+  const out: string[] = [...twoStageHead(plan, meta, unit, planToText), ...headerLines(plan, meta, unit)];
   out.push(...manifoldTable(plan, unit));
   out.push('');
   out.push(...numbersTable(plan, unit));
@@ -233,6 +234,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push(`            ${formatFractions(plan.composition)}${unidentified}`);
   out.push('');
   out.push(...predictedLines(plan));
+  out.push(...twoStageDeliveryLines(plan, unit));
   out.push(...findingLines(plan, unit));
   out.push(`Caution: ${STANDING_CAUTION}`);
   return out.join('\n') + '\n';

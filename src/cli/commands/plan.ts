@@ -1,8 +1,9 @@
 /** `mixwright plan`: the fill plan of a mixture, as text or JSON. */
 import type { Command } from 'commander';
-import { worstSeverity } from '../../core/index.js';
+import { allStageFindings, worstSeverity } from '../../core/index.js';
 import { planToJson } from '../../report/plan-json.js';
 import { planToText } from '../../report/plan-text.js';
+import { proposalJson } from '../../report/two-stage-text.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { planFrom } from '../plan-from.js';
@@ -15,9 +16,14 @@ export function registerPlan(program: Command, cli: Cli): void {
   )
     .option('--json', 'print one JSON object (SI units in the key names)')
     .action(async (recipeFile: string | undefined, o: DesignValues & { json?: boolean }) => {
-      const { plan, unit, meta } = planFrom(recipeFile, o);
-      if (o.json) cli.out(JSON.stringify(planToJson(plan, meta, unit), null, 2) + '\n');
-      else cli.out(planToText(plan, meta, unit));
-      if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+      const { plan, unit, meta, proposal } = planFrom(recipeFile, o, true);
+      // a proposed premix: among the text's findings, its own key in the JSON (the plan's findings are the sheet's)
+      const json = { ...planToJson(plan, meta, unit), two_stage_proposal: proposalJson(proposal, unit) };
+      if (o.json) cli.out(JSON.stringify(json, null, 2) + '\n');
+      else
+        cli.out(
+          planToText(proposal ? { ...plan, findings: [...plan.findings, proposal] } : plan, meta, unit),
+        );
+      if (worstSeverity(allStageFindings(plan)) === 'danger') throw new ExitSignal(EXIT.danger);
     });
 }

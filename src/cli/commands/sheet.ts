@@ -1,7 +1,8 @@
 /** `mixwright sheet`: the printable fill checklist. */
 import { Option, type Command } from 'commander';
-import { mixingEstimate, worstSeverity } from '../../core/index.js';
-import { buildSheetModel } from '../../report/sheet-model.js';
+import { allStageFindings, mixingEstimate, worstSeverity } from '../../core/index.js';
+import { buildSheetModel, type SheetModel } from '../../report/sheet-model.js';
+import { joinSheets, stageSheets } from '../../report/two-stage-sheet.js';
 import { sheetToHtml, sheetToMarkdown, sheetToText } from '../../report/sheet-render.js';
 import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
@@ -31,26 +32,32 @@ async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions):
         Boolean(req.tankInfo?.stirred),
       )
     : undefined;
-  const model = buildSheetModel(plan, {
-    recipe: req.recipe,
-    labName: req.lab.name,
-    orderRecommended: req.orderRecommended,
-    unit,
-    batchId: o.batch,
-    version: VERSION,
-    paper: o.paper,
-    mixing,
-    barometer: meta.barometer,
-  });
-  const render = () =>
+  // a two-stage plan prints one sheet per stage, stage 1 first (report/two-stage-sheet.ts)
+  const models = stageSheets(
+    plan,
+    {
+      recipe: req.recipe,
+      labName: req.lab.name,
+      orderRecommended: req.orderRecommended,
+      unit,
+      batchId: o.batch,
+      version: VERSION,
+      paper: o.paper,
+      mixing,
+      barometer: meta.barometer,
+    },
+    buildSheetModel,
+  );
+  const one = (model: SheetModel) =>
     format === 'md' ? sheetToMarkdown(model) : format === 'txt' ? sheetToText(model) : sheetToHtml(model);
+  const render = () => joinSheets(models.map(one), format === 'md' || format === 'txt' ? format : 'html');
   await emitDocument(
     cli,
     { format, output: o.output, force: Boolean(o.force), example: 'fill.pdf' },
     render,
-    () => sheetToHtml(model),
+    () => joinSheets(models.map(sheetToHtml), 'html'),
   );
-  if (worstSeverity(plan.findings) === 'danger') throw new ExitSignal(EXIT.danger);
+  if (worstSeverity(allStageFindings(plan)) === 'danger') throw new ExitSignal(EXIT.danger);
 }
 
 export function registerSheet(program: Command, cli: Cli): void {

@@ -8,6 +8,7 @@ import type { GasSource } from '../supply.js';
 import type { Gauge, ReadingContext } from '../gauges.js';
 import type { VirialModel } from '../mixture-eos.js';
 import type { Finding } from '../findings.js';
+import type { TwoStagePlan } from './two-stage.js';
 
 export interface Tolerance {
   /** allowed relative deviation of each mole fraction (0.005 = 0.5 %) */
@@ -128,4 +129,6 @@ export interface Plan {
   readonly virial: VirialModel;
   readonly findings: readonly Finding[];
   readonly tolerance: Tolerance;
+  /** a two-stage preparation: this plan is its stage 2 (the batch); stage 1 made the premix it draws from */
+  readonly twoStage?: Omit<TwoStagePlan, 'batch'>;
 }

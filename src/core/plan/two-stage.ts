@@ -1,0 +1,439 @@
+/**
+ * Two-stage preparation: a premix of one or more minor gases in the diluent is made first in a
+ * second tank (stage 1), then the batch is filled from it (stage 2). A small fill that a single
+ * tank reads as the difference of two large readings is then read as a large fill of the premix,
+ * and the premix's own fills are read where the gauges are good.
+ *
+ * Both stages are planned by the planner (planFill: the same sequence, targets, gauges and safety
+ * review of every state and fill path as any plan) and predicted by the re-check's own model
+ * (predict.ts). The premix enters the batch as a source whose composition is stage 1's predicted
+ * composition and whose uncertainty is stage 1's budget (premix-source.ts), so the batch's
+ * predicted U includes the premix's. The premix tank's falling pressure while it delivers is
+ * checked against the batch reading it must reach (premix-tank.ts).
+ *
+ * Without a choice from the caller the premix is searched: which minor gas, its fraction in the
+ * premix (matched to the design's ratio to the diluent, or richer with a diluent fill in the
+ * batch), its final pressure and the gauge heads that read it. The chosen one has the smallest
+ * worst ratio U / tolerance over the batch's design fractions among those with no danger.
+ */
+import type { Finding } from '../findings.js';
+import { designMixture, speciesRole, type Fractions } from '../composition.js';
+import { canRead, type Gauge } from '../gauges.js';
+import type { GasSource } from '../supply.js';
+import { planFill } from '../planner.js';
+import { predictPlan, withPrediction, type PredictedPlan, type PredictionInput } from '../predict.js';
+import { fail, ProblemError, type Problem } from '../problems.js';
+import { premixDelivery, PREMIX_DELIVERY_MARGIN, type Delivery } from '../premix-tank.js';
+import { premixSource } from './premix-source.js';
+import type { Plan, PlanInput, TankSpec } from './types.js';
+
+export interface TwoStageInput {
+  /** the batch as a single-tank request: design, batch tank, cylinders, gauges, tolerance */
+  readonly batch: PlanInput;
+  /** the second tank the premix is made in */
+  readonly premixTank: TankSpec;
+  readonly thermometer: PredictionInput['thermometer'];
+  /** the gases the premix carries besides the diluent; default: searched (each minor gas alone) */
+  readonly premixSpecies?: readonly string[];
+  /** the premix tank's final pressure, Pa absolute; default: searched */
+  readonly premixPressurePa?: number;
+  /** the mole fraction of the premix's gases (besides the diluent) in the premix; default: searched */
+  readonly premixFraction?: number;
+  /** stage 1's order; default: searched */
+  readonly premixOrder?: PremixChoice['order'];
+}
+
+/** what was chosen for the premix */
+export interface PremixChoice {
+  readonly species: readonly string[];
+  /** the premix's composition (design of stage 1) */
+  readonly composition: Fractions;
+  /** true when the premix holds its gases in the design's ratio to the diluent (no diluent fill in the batch) */
+  readonly matched: boolean;
+  readonly pressurePa: number;
+  /** the gauge heads stage 1 may read on (all the lab's, or one head for every reading) */
+  readonly gauges: readonly string[];
+  /** stage 1's order: the minor gases first (each read alone), or the planner's recommended order */
+  readonly order: 'minor-first' | 'recommended';
+}
+
+export interface PremixDeliveryCheck extends Delivery {
+  /** the premix tank's pressure before the batch draws from it, Pa absolute */
+  readonly startPa: number;
+  readonly deliveredMol: number;
+  /** the batch reading the premix's last charge must reach, Pa absolute */
+  readonly targetPa: number;
+  /** the lowest settled end pressure allowed: target (1 + PREMIX_DELIVERY_MARGIN), Pa */
+  readonly requiredPa: number;
+}
+
+export interface TwoStagePlan {
+  /** stage 1: the premix in the second tank */
+  readonly premix: PredictedPlan;
+  /** stage 2: the batch, with the premix as a source (its findings include the delivery check's) */
+  readonly batch: PredictedPlan;
+  /** the premix as the batch's source (composition and uncertainty from stage 1) */
+  readonly source: GasSource;
+  readonly choice: PremixChoice;
+  readonly delivery: PremixDeliveryCheck;
+  /** the largest predicted U / tolerance over the batch's design fractions (Infinity: no prediction) */
+  readonly worstRatio: number;
+  /** premix choices planned in the search */
+  readonly candidates: number;
+  /**
+   * the most precise choice without a danger, when it is not the one chosen (it has more warnings):
+   * the user may weigh them and fix its pressure, gas and order
+   */
+  readonly mostPrecise?: {
+    readonly choice: PremixChoice;
+    readonly worstRatio: number;
+    readonly warnings: readonly Finding['code'][];
+  };
+}
+
+/** fractions of the premix tried, as multiples of the matched fraction (capped at PREMIX_MAX_FRACTION) */
+const FRACTION_FACTORS = [1, 3, 10] as const;
+/** our own cap: a premix stays mostly diluent */
+const PREMIX_MAX_FRACTION = 0.5;
+/** premix final pressures tried, as fractions of the premix tank's working limit */
+const PRESSURE_FRACTIONS = [0.9, 0.6, 0.4] as const;
+
+/** the batch's worst predicted U / tolerance over its design fractions */
+function worstRatioOf(p: PredictedPlan): number {
+  const rows = p.predicted?.rows.filter((r) => r.kind === 'fraction') ?? [];
+  return rows.length ? Math.max(...rows.map((r) => r.expandedU / r.tolerance)) : Infinity;
+}
+
+function hasDanger(...fs: (readonly Finding[])[]): boolean {
+  return fs.some((f) => f.some((x) => x.severity === 'danger'));
+}
+
+/** the premix tank's working limit: rating times working fraction, else the highest gauge's top */
+function premixLimitPa(tank: TankSpec, gauges: readonly Gauge[]): number {
+  if (tank.ratedPressurePa !== undefined) return tank.ratedPressurePa * (tank.workingFraction ?? 1);
+  return Math.max(...gauges.map((g) => g.fullScalePa + (g.reference === 'gauge' ? 101325 : 0)));
+}
+
+/** the diluent group of the design and the premix compositions to try for the given minor gases */
+function premixCompositions(
+  input: TwoStageInput,
+  species: readonly string[],
+): { x: Fractions; matched: boolean }[] {
+  const { design } = input.batch;
+  const dil = design.groups.diluent;
+  const dilSum = Object.values(dil).reduce((a, b) => a + b, 0);
+  const minor = species.reduce((a, k) => a + (design.composition[k] ?? 0), 0);
+  if (!(dilSum > 0) || !(minor > 0)) return [];
+  const matched = minor / (minor + design.diluentFraction);
+  const out: { x: Fractions; matched: boolean }[] = [];
+  const given = input.premixFraction;
+  if (given !== undefined && !(given > 0 && given < 1))
+    fail(
+      { code: 'out-of-range', what: 'premix fraction', value: given, allowed: '(0, 1)' },
+      { field: 'premix.fraction' },
+    );
+  const fractions = given !== undefined ? [given] : FRACTION_FACTORS.map((k) => k * matched);
+  for (const f of fractions) {
+    const factor = f / matched;
+    if (given === undefined && factor > 1 && f > PREMIX_MAX_FRACTION) continue;
+    const x: Record<string, number> = {};
+    for (const k of species) x[k] = (f * (design.composition[k] ?? 0)) / minor;
+    for (const [k, v] of Object.entries(dil)) x[k] = (x[k] ?? 0) + ((1 - f) * v) / dilSum;
+    out.push({ x, matched: Math.abs(factor - 1) < 1e-6 });
+  }
+  return out;
+}
+
+/** the stage-1 gauge choices: all heads, or one head that reads every reading up to the premix pressure */
+function gaugeChoices(input: TwoStageInput, pressurePa: number): Gauge[][] {
+  const all = input.batch.gauges;
+  const single = all.filter((g) => canRead(g, pressurePa, input.batch.reading)).map((g) => [g]);
+  return [[...all], ...single];
+}
+
+function predicted(plan: ReturnType<typeof planFill>, input: TwoStageInput): PredictedPlan {
+  const b = input.batch;
+  const p = predictPlan({ plan, gauges: b.gauges, reading: b.reading, thermometer: input.thermometer });
+  return withPrediction(plan, p);
+}
+
+/**
+ * The delivery check: the premix tank's pressure after the batch's premix charges (premix-tank.ts),
+ * against the reading its last charge must reach plus PREMIX_DELIVERY_MARGIN. A danger
+ * (`premix-runs-low`) when the settled pressure is below it, a warning (`premix-cools-low`) when
+ * only a fast delivery's cold gas is.
+ */
+export function premixDeliveryCheck(
+  batch: Plan,
+  source: GasSource,
+  premixTank: TankSpec,
+  startPa: number,
+): { check: PremixDeliveryCheck; findings: Finding[] } {
+  const from = batch.steps.filter((s) => s.source.id === source.id);
+  const deliveredMol = from.reduce((a, s) => a + s.amountMol, 0);
+  const last = from[from.length - 1];
+  const targetPa = last?.targetPa ?? 0;
+  const requiredPa = targetPa * (1 + PREMIX_DELIVERY_MARGIN);
+  const d = premixDelivery({
+    composition: source.composition,
+    volumeM3: premixTank.volumeM3,
+    temperatureK: batch.temperatureK,
+    startPa,
+    deliveredMol,
+  });
+  const check: PremixDeliveryCheck = { ...d, startPa, deliveredMol, targetPa, requiredPa };
+  const findings: Finding[] = [];
+  const common = {
+    step: last?.index,
+    tank: premixTank.id,
+    startPa,
+    targetPa,
+    requiredPa,
+    deliveredMol,
+  };
+  if (d.endPa < requiredPa)
+    findings.push({ severity: 'danger', code: 'premix-runs-low', endPa: d.endPa, ...common });
+  else if (d.endFastPa < requiredPa)
+    findings.push({
+      severity: 'warning',
+      code: 'premix-cools-low',
+      endPa: d.endFastPa,
+      endK: d.endFastK,
+      ...common,
+    });
+  return { check, findings };
+}
+
+/** stage 2 planned once per premix composition: the premix source stands in with its nominal composition */
+interface BatchDraft {
+  readonly plan: ReturnType<typeof planFill>;
+  readonly sourceId: string;
+}
+
+function premixId(input: TwoStageInput): string {
+  return `premix-${input.premixTank.id}`;
+}
+
+function planBatchDraft(
+  input: TwoStageInput,
+  choice: Pick<PremixChoice, 'species' | 'matched'>,
+  premixGas: { composition: Fractions; unidentified: number; pressurePa: number },
+): BatchDraft {
+  const b = input.batch;
+  const dil = new Set(Object.keys(b.design.groups.diluent));
+  const others = b.sources.filter(
+    (s) => !choice.species.includes(s.mainSpecies) && !(choice.matched && dil.has(s.mainSpecies)),
+  );
+  const draft = premixSource({
+    id: premixId(input),
+    tank: input.premixTank.id,
+    ...premixGas,
+  });
+  const plan = planFill({ ...b, sources: [...others, draft], order: 'recommend', charges: undefined });
+  return { plan, sourceId: draft.id };
+}
+
+/** stage 1 for one choice: the premix planned in its tank, in the order and on the heads chosen */
+function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly Gauge[]): PredictedPlan {
+  const b = input.batch;
+  const cylinders = b.sources.filter(
+    (s) => s.kind !== 'premix' && s.kind !== 'in-tank' && s.mainSpecies in choice.composition,
+  );
+  // minor gases first: each is read alone on an evacuated tank, where a small fill is read best
+  const sources =
+    choice.order === 'minor-first'
+      ? [...cylinders].sort((a, c) => choice.composition[a.mainSpecies] - choice.composition[c.mainSpecies])
+      : cylinders;
+  return predicted(
+    planFill({
+      design: designMixture({ kind: 'fractions', fractions: choice.composition }),
+      finalPressurePa: choice.pressurePa,
+      temperatureK: b.temperatureK,
+      tank: input.premixTank,
+      sources,
+      order: choice.order === 'minor-first' ? 'given' : 'recommend',
+      safety: b.safety,
+      gauges,
+      reading: b.reading,
+      tolerance: b.tolerance,
+    }),
+    input,
+  );
+}
+
+/** both stages for one choice: stage 1, the premix source from its prediction, the batch draft predicted with it */
+function planChoice(
+  input: TwoStageInput,
+  choice: PremixChoice,
+  gauges: readonly Gauge[],
+  draft: BatchDraft,
+): TwoStagePlan {
+  const stage1 = planPremix(input, choice, gauges);
+  const source = premixSource({
+    id: draft.sourceId,
+    tank: input.premixTank.id,
+    composition: stage1.composition,
+    unidentified: stage1.unidentifiedFraction,
+    pressurePa: choice.pressurePa,
+    budget: stage1.predicted?.result,
+  });
+  // the draft's premix stands in for the premix as stage 1 makes it: same id, the predicted composition
+  const steps = draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s));
+  const stage2 = predicted({ ...draft.plan, steps }, input);
+  const { check, findings } = premixDeliveryCheck(stage2, source, input.premixTank, choice.pressurePa);
+  const batch: PredictedPlan = { ...stage2, findings: [...stage2.findings, ...findings] };
+  return {
+    premix: stage1,
+    batch,
+    source,
+    choice,
+    delivery: check,
+    worstRatio: worstRatioOf(batch),
+    candidates: 1,
+  };
+}
+
+/**
+ * The minor gases a premix may carry, each alone: the caller's, else those the single-tank plan
+ * predicts over tolerance (all minor gases when it has no prediction or none is over).
+ */
+function speciesChoices(input: TwoStageInput, single: PredictedPlan | undefined): (readonly string[])[] {
+  if (input.premixSpecies) return [input.premixSpecies];
+  const { design } = input.batch;
+  const dil = design.groups.diluent;
+  const minor = Object.keys(design.composition).filter(
+    (k) => design.composition[k] > 0 && !(k in dil) && speciesRole(k) !== 'inert',
+  );
+  const over = single?.predicted?.rows.filter((r) => r.kind === 'fraction' && !r.within).map((r) => r.name);
+  const pick = over?.length ? minor.filter((k) => over.includes(k)) : minor;
+  return (pick.length ? pick : minor).map((k) => [k]);
+}
+
+/** the single-tank plan with its prediction, when it can be planned (else the search tries every minor gas) */
+function singleTank(input: TwoStageInput): PredictedPlan | undefined {
+  try {
+    return predicted(planFill(input.batch), input);
+  } catch (e) {
+    if (e instanceof ProblemError) return undefined;
+    throw e;
+  }
+}
+
+/** 'full' searches every choice; 'quick' (a proposal) the matched premix near the tank's limit only */
+export type TwoStageSearch = 'full' | 'quick';
+
+/**
+ * The ranking of choices: no danger first, then every design fraction within tolerance, then the
+ * fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
+ * tolerance, e.g. no compression of pure O2), then the smallest worst U / tolerance.
+ */
+function rankKey(c: TwoStagePlan): number[] {
+  const all = [...c.premix.findings, ...c.batch.findings];
+  return [
+    hasDanger(all) ? 1 : 0,
+    c.worstRatio <= 1 ? 0 : 1,
+    all.filter((f) => f.severity === 'warning').length,
+    c.worstRatio,
+  ];
+}
+
+function better(c: TwoStagePlan, best: TwoStagePlan | undefined): boolean {
+  if (!best) return true;
+  const a = rankKey(c);
+  const b = rankKey(best);
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i] < b[i];
+  return false;
+}
+
+/** the choices for one premix gas and composition: pressures, stage-1 heads and orders */
+function choicesFor(
+  input: TwoStageInput,
+  base: Pick<PremixChoice, 'species' | 'composition' | 'matched'>,
+  pressures: readonly number[],
+): { choice: PremixChoice; gauges: Gauge[] }[] {
+  const out: { choice: PremixChoice; gauges: Gauge[] }[] = [];
+  for (const pressurePa of pressures)
+    for (const gauges of gaugeChoices(input, pressurePa))
+      for (const order of input.premixOrder ? [input.premixOrder] : (['minor-first', 'recommended'] as const))
+        out.push({ choice: { ...base, pressurePa, gauges: gauges.map((g) => g.id), order }, gauges });
+  return out;
+}
+
+/**
+ * Plan a two-stage preparation: the premix in `premixTank`, then the batch from it. Searches the
+ * premix (gas, fraction, pressure, stage-1 order and gauges) unless the caller fixes them; refuses
+ * (`two-stage-refused`) when the design has no diluent to make a premix in, the premix tank is
+ * the batch tank, or no choice can be planned. Among the choices with no danger the smallest
+ * worst U / tolerance wins; a choice with a danger is returned only when every choice has one.
+ */
+export function planTwoStage(input: TwoStageInput, search: TwoStageSearch = 'full'): TwoStagePlan {
+  const b = input.batch;
+  if (input.premixTank.id === b.tank.id)
+    fail({ code: 'two-stage-refused', kind: 'same-tank', tank: b.tank.id });
+  if (!(b.design.diluentFraction > 0)) fail({ code: 'two-stage-refused', kind: 'no-diluent' });
+  const limit = premixLimitPa(input.premixTank, b.gauges);
+  const pressures =
+    input.premixPressurePa !== undefined
+      ? [input.premixPressurePa]
+      : (search === 'quick' ? [PRESSURE_FRACTIONS[0]] : PRESSURE_FRACTIONS).map((f) => f * limit);
+  let best: TwoStagePlan | undefined;
+  let precise: TwoStagePlan | undefined;
+  let tried = 0;
+  let refusal: Problem | undefined;
+  const attempt = (f: () => void) => {
+    try {
+      f();
+    } catch (e) {
+      if (!(e instanceof ProblemError)) throw e;
+      refusal ??= e.problem;
+    }
+  };
+  const species = speciesChoices(input, input.premixSpecies ? undefined : singleTank(input));
+  for (const sp of species)
+    for (const { x, matched } of premixCompositions(input, sp).slice(0, search === 'quick' ? 1 : undefined))
+      attempt(() => {
+        const base = { species: sp, composition: x, matched };
+        // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
+        const first = planPremix(
+          input,
+          { ...base, pressurePa: pressures[0], gauges: [], order: 'recommended' },
+          b.gauges,
+        );
+        const draft = planBatchDraft(input, base, {
+          composition: first.composition,
+          unidentified: first.unidentifiedFraction,
+          pressurePa: pressures[0],
+        });
+        for (const { choice, gauges } of choicesFor(input, base, pressures)) {
+          tried++;
+          attempt(() => {
+            const c = planChoice(input, choice, gauges, draft);
+            if (better(c, best)) best = c;
+            if (
+              !hasDanger(c.premix.findings, c.batch.findings) &&
+              c.worstRatio < (precise?.worstRatio ?? Infinity)
+            )
+              precise = c;
+          });
+        }
+      });
+  if (!best) return fail({ code: 'two-stage-refused', kind: 'no-plan', tried, cause: refusal });
+  const chosen = best as TwoStagePlan;
+  const p = precise as TwoStagePlan | undefined;
+  const mostPrecise =
+    p && p !== chosen && p.worstRatio < chosen.worstRatio
+      ? {
+          choice: p.choice,
+          worstRatio: p.worstRatio,
+          warnings: [...p.premix.findings, ...p.batch.findings]
+            .filter((f) => f.severity === 'warning')
+            .map((f) => f.code),
+        }
+      : undefined;
+  return { ...chosen, candidates: tried, mostPrecise };
+}
+
+/** every finding of a plan and, for a two-stage batch, of its premix stage (stage 1 first): the exit code's */
+export function allStageFindings(plan: Plan): Finding[] {
+  return [...(plan.twoStage?.premix.findings ?? []), ...plan.findings];
+}

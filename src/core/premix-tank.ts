@@ -1,0 +1,82 @@
+/**
+ * A premix tank emptying into the batch tank: its pressure falls as it delivers. Gas flows from
+ * the premix tank only while its pressure is above the batch tank's, so the premix tank must end
+ * the delivery above the batch reading it has to reach, with room to spare for a throttled flow.
+ *
+ * Settled (the gas back at the tank temperature):
+ *   n0 = rho(P0, T) V,   n1 = n0 - dn,   P1 = rho1 R T (1 + B_mix rho1 + C_mix rho1^2),  rho1 = n1 / V
+ * with the density-form virial equation of the premix (mixture-eos.ts).
+ * Fast (the gas left in the tank expands adiabatically and reversibly while it delivers, ideal-gas
+ * gamma of the premix from the NASA polynomials, thermo.ts):
+ *   T1 = T (rho1 / rho0)^(gamma - 1),   P1,fast = P(rho1, T1)
+ * the lowest the tank pressure falls before it warms back to the tank temperature.
+ */
+import type { Fractions } from './composition.js';
+import { bMix, cMix, densityFromPressure, pressureFromDensity, virialModel } from './mixture-eos.js';
+import { gammaMixture, hasThermo } from './thermo.js';
+
+/**
+ * Our own choice (no published source): the premix tank must end the delivery at least 10 % above
+ * the batch reading it has to reach, so that the last part of the charge still flows through a
+ * metering valve at a controllable rate.
+ */
+export const PREMIX_DELIVERY_MARGIN = 0.1;
+
+export interface DeliveryInput {
+  /** the premix's composition (mole fractions) */
+  readonly composition: Fractions;
+  readonly volumeM3: number;
+  readonly temperatureK: number;
+  /** absolute pressure of the premix tank before the delivery, Pa */
+  readonly startPa: number;
+  /** amount drawn from the premix tank, mol */
+  readonly deliveredMol: number;
+}
+
+export interface Delivery {
+  readonly startAmountMol: number;
+  readonly endAmountMol: number;
+  /** settled end pressure (tank temperature), Pa absolute; 0 when the tank cannot deliver that much */
+  readonly endPa: number;
+  /** end pressure while the gas is still cold from its own expansion, Pa absolute */
+  readonly endFastPa: number;
+  /** the gas temperature at the end of a fast delivery, K */
+  readonly endFastK: number;
+  readonly gamma: number;
+}
+
+/**
+ * The premix tank's pressure after it has delivered `deliveredMol`.
+ * Valid where the virial equation is (up to about 10 bar for permanent gases, 200-600 K).
+ * Example: premixDelivery({ composition: { Ar: 0.98657718121, O2: 0.01342281879 }, volumeM3: 0.0302,
+ *   temperatureK: 298.15, startPa: 4500 * 133.322368, deliveredMol: 0.8 }) -> { startAmountMol: 7.336,
+ *   endPa: 4010.9 Torr } (CoolProp 8.0.0 HEOS Ar-O2 mixture: 7.3362 mol, 534741 Pa = 4010.88 Torr); delivered
+ * fast, the gas left cools to about 276 K and 3712 Torr.
+ */
+export function premixDelivery(input: DeliveryInput): Delivery {
+  const { composition: y, volumeM3: V, temperatureK: T, startPa } = input;
+  const species = Object.keys(y).filter((k) => y[k] > 0);
+  const at = (t: number) => {
+    const m = virialModel(species, t);
+    return { B: bMix(m, y), C: cMix(m, y) };
+  };
+  const here = at(T);
+  const rho0 = densityFromPressure(startPa, T, here.B, here.C);
+  const n0 = rho0 * V;
+  const n1 = n0 - input.deliveredMol;
+  const withThermo = Object.fromEntries(Object.entries(y).filter(([k, v]) => v > 0 && hasThermo(k)));
+  const gamma = gammaMixture(withThermo, T);
+  if (!(n1 > 0)) return { startAmountMol: n0, endAmountMol: 0, endPa: 0, endFastPa: 0, endFastK: 0, gamma };
+  const rho1 = n1 / V;
+  const endPa = pressureFromDensity(rho1, T, here.B, here.C);
+  const endFastK = T * (rho1 / rho0) ** (gamma - 1);
+  const cold = at(endFastK);
+  return {
+    startAmountMol: n0,
+    endAmountMol: n1,
+    endPa,
+    endFastPa: pressureFromDensity(rho1, endFastK, cold.B, cold.C),
+    endFastK,
+    gamma,
+  };
+}

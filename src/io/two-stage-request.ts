@@ -1,0 +1,123 @@
+/**
+ * Two-stage preparation from a recipe's `premix` block (or `--premix-tank`): the premix tank from
+ * the lab profile, the gases, fraction, pressure and order when given, and the lab's thermometer;
+ * and, for a single-tank plan that cannot meet its tolerance, the proposal of a premix in another
+ * tank of the lab (a finding naming the option and the predicted U it gives).
+ */
+import {
+  fail,
+  planTwoStage,
+  ProblemError,
+  relocate,
+  resolveSpeciesKey,
+  type Finding,
+  type PredictedPlan,
+  type TwoStageInput,
+  type TwoStagePlan,
+} from '../core/index.js';
+import type { PlanRequest, RecipeSource } from './load.js';
+import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
+import { parseQuantity } from './quantity.js';
+
+/** the lab's thermometer as the prediction takes it (plan-predict.ts: the same defaults) */
+function thermometerOf(req: PlanRequest): TwoStageInput['thermometer'] {
+  const t = req.lab.thermometer ?? DEFAULT_THERMOMETER;
+  return { uK: t.uncertaintyK, resolutionK: t.resolutionK, settlingK: settlingOf(req.lab.thermometer) };
+}
+
+/** the core's two-stage input from the recipe's premix block; undefined when the recipe asks for none */
+export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInput | undefined {
+  const pm = req.recipe.premix;
+  if (!pm) return undefined;
+  const where = (key: string) => ({ ...rs.locate(['premix', key]), field: `premix.${key}` });
+  const premixTank = req.lab.tanks.find((t) => t.id === pm.tank);
+  if (!premixTank)
+    fail(
+      { code: 'unknown-reference', kind: 'tank', id: pm.tank, choices: req.lab.tanks.map((t) => t.id) },
+      where('tank'),
+    );
+  const gases = pm.gases?.map((g) => {
+    const key = resolveSpeciesKey(g);
+    if (!key) return fail({ code: 'unknown-species', name: g, suggestions: [] }, where('gases'));
+    return key;
+  });
+  const barometricPa = req.input.reading.barometricPa;
+  return {
+    batch: req.input,
+    premixTank,
+    thermometer: thermometerOf(req),
+    premixSpecies: gases,
+    premixPressurePa:
+      pm.pressure === undefined
+        ? undefined
+        : parseQuantity(pm.pressure, 'pressure', where('pressure'), { barometricPa }),
+    premixFraction: pm.fraction,
+    premixOrder: pm.order,
+  };
+}
+
+/** the batch plan (stage 2) carrying its stage 1 */
+export function asBatchPlan(two: TwoStagePlan): PredictedPlan {
+  const { batch, ...rest } = two;
+  return { ...batch, twoStage: rest };
+}
+
+/** plan both stages, a refusal pointed at the recipe's premix block (or the option) */
+export function planTwoStageFrom(input: TwoStageInput, rs: RecipeSource): PredictedPlan {
+  try {
+    return asBatchPlan(planTwoStage(input));
+  } catch (e) {
+    if (e instanceof ProblemError && !e.where.field)
+      throw relocate(e, { ...rs.locate(['premix']), field: 'premix' });
+    throw e;
+  }
+}
+
+/** "1.34 % O2 in Ar" */
+export function premixName(composition: Readonly<Record<string, number>>, minor: readonly string[]): string {
+  const pct = (x: number) => `${Number((x * 100).toPrecision(3))} %`;
+  const rest = Object.entries(composition)
+    .filter(([k, v]) => !minor.includes(k) && v >= 0.01)
+    .map(([k]) => k);
+  return `${minor.map((k) => `${pct(composition[k] ?? 0)} ${k}`).join(', ')} in ${rest.join('+')}`;
+}
+
+/**
+ * When the single-tank plan predicts a design fraction over tolerance and the lab has another
+ * tank: plan the two stages (the same search `--premix-tank` runs) and, when it does better, a
+ * note naming the option and the U it gives. A refusal of the two-stage plan proposes nothing.
+ */
+export function twoStageProposal(
+  plan: PredictedPlan,
+  req: PlanRequest,
+  command: string,
+): Finding | undefined {
+  const over = plan.predicted?.rows.filter((r) => r.kind === 'fraction' && !r.within) ?? [];
+  if (!over.length) return undefined;
+  const worst = over.reduce((a, r) => (r.expandedU / r.tolerance > a.expandedU / a.tolerance ? r : a));
+  const singleRatio = worst.expandedU / worst.tolerance;
+  let best: TwoStagePlan | undefined;
+  for (const tank of req.lab.tanks.filter((t) => t.id !== plan.tank.id)) {
+    try {
+      const two = planTwoStage({ batch: req.input, premixTank: tank, thermometer: thermometerOf(req) });
+      const danger = [...two.premix.findings, ...two.batch.findings].some((f) => f.severity === 'danger');
+      if (!danger && two.worstRatio < (best?.worstRatio ?? singleRatio)) best = two;
+    } catch (e) {
+      if (!(e instanceof ProblemError)) throw e;
+    }
+  }
+  const row = best?.batch.predicted?.rows.find((r) => r.name === worst.name);
+  if (!best || !row) return undefined;
+  return {
+    severity: 'note',
+    code: 'two-stage-proposed',
+    premixTank: best.premix.tank.id,
+    premix: premixName(best.choice.composition, best.choice.species),
+    species: worst.name,
+    singleU: worst.expandedU / worst.design,
+    twoStageU: row.expandedU / row.design,
+    tolerance: worst.tolerance / worst.design,
+    twoStageWorst: best.worstRatio,
+    command: `${command} --premix-tank ${best.premix.tank.id}`,
+  };
+}

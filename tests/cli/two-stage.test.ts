@@ -1,0 +1,118 @@
+// plan with a premix in a second tank: --premix-tank, the recipe's premix block, and the proposal.
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { runCli, TORR } from '../helpers.js';
+
+const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
+
+describe('mixwright plan --premix-tank', () => {
+  it('prints both stages, stage 1 first, and the premix tank delivery; exit 0', async () => {
+    const r = await runCli(['plan', RECIPE, '--premix-tank', 'MT-2']);
+    expect(r.code).toBe(0);
+    const s1 = r.stdout.indexOf('=== Stage 1 of 2: premix in MT-2 ===');
+    const s2 = r.stdout.indexOf('=== Stage 2 of 2: the batch in MT-1, from the premix ===');
+    expect(s1).toBeGreaterThan(0);
+    expect(s2).toBeGreaterThan(s1);
+    expect(r.stdout).toContain('Premix      13.42 % O2 in Ar in MT-2, filled to 1890.2 Torr');
+    expect(r.stdout).toMatch(/3\s+Ar\+O2\s+premix-MT-2\s+head-10kT\s+1500\.0 Torr/);
+    expect(r.stdout).toContain(
+      'Premix tank  MT-2: 1890.2 Torr before the batch, 1840.9 Torr after delivering',
+    );
+    expect(r.stdout).toMatch(/x\(O2\)\s+0\.0133333\s+0\.000059\s+0\.44 %\s+\+-0\.5 %\s+within/);
+  });
+
+  it('--json: two_stage with stage 1 then the batch, each with steps, findings and predicted; the batch U includes the premix', async () => {
+    const r = await runCli(['plan', RECIPE, '--premix-tank', 'MT-2', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    const t = j.two_stage;
+    expect(t.premix_tank).toBe('MT-2');
+    expect(t.stages.map((s: { role: string }) => s.role)).toEqual(['premix', 'batch']);
+    expect(t.stages[0].order.fills).toEqual(['Ar', 'O2']);
+    expect(t.stages[1].order.fills).toEqual(['CH4', 'Ar', 'Ar+O2']);
+    for (const s of t.stages) {
+      expect(s.steps.length).toBeGreaterThan(0);
+      expect(Array.isArray(s.findings)).toBe(true);
+      expect(s.predicted.composition.O2.u).toBeGreaterThan(0);
+    }
+    // the top level stays the batch (the documented keys), the same as stage 2
+    expect(j.steps).toEqual(t.stages[1].steps);
+    expect(t.delivery.start_Pa / TORR).toBeCloseTo(1890.2, 1);
+    expect(t.delivery.end_Pa).toBeGreaterThan(t.delivery.required_Pa);
+    // the batch budget names the premix's inputs
+    const names = Object.keys(j.predicted.budget ?? {}).join(' ') + JSON.stringify(j.predicted);
+    expect(names).toContain('premix-MT-2: ');
+  });
+
+  it('a single-tank plan over tolerance proposes the premix: a note naming the option and the U', async () => {
+    const r = await runCli(['plan', RECIPE, '--json']);
+    const j = JSON.parse(r.stdout);
+    expect(j.two_stage).toBeNull();
+    const f = j.two_stage_proposal;
+    expect(f.code).toBe('two-stage-proposed');
+    // the plan's findings stay those the sheet prints; the text lists the proposal among them
+    expect(j.findings.map((x: { code: string }) => x.code)).not.toContain('two-stage-proposed');
+    expect((await runCli(['plan', RECIPE])).stdout).toContain(
+      'note    two-stage-proposed: a premix of 13.4 % O2 in Ar',
+    );
+    expect(f.severity).toBe('note');
+    expect(f.premix_tank).toBe('MT-2');
+    expect(f.command).toBe(`mixwright plan ${RECIPE} --premix-tank MT-2`);
+    expect(f.two_stage_u).toBeCloseTo(0.0044, 4);
+    expect(f.single_u).toBeGreaterThan(0.02);
+    expect(f.message).toContain('--premix-tank MT-2');
+  });
+
+  it('an unknown premix tank, or the batch tank itself, is refused with exit 2', async () => {
+    const unknown = await runCli(['plan', RECIPE, '--premix-tank', 'MT-9']);
+    expect(unknown.code).toBe(2);
+    expect(unknown.stderr).toContain('MT-9');
+    const same = await runCli(['plan', RECIPE, '--premix-tank', 'MT-1']);
+    expect(same.code).toBe(2);
+    expect(same.stderr).toContain('another tank than the batch');
+  });
+
+  it("the recipe's premix block fixes fraction, pressure and order (the more precise choice)", async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-premix-'));
+    const file = join(dir, 'r.yaml');
+    writeFileSync(
+      file,
+      [
+        'id: two-stage-o2',
+        'tank: MT-1',
+        'mixture: { fuel: CH4, oxidizer: O2, diluent: Ar, phi: 1.0, dilution: 0.98 }',
+        'pressure: 1500 Torr',
+        'temperature: 25 degC',
+        'premix: { tank: MT-2, gases: [O2], fraction: 0.04026845637583896, pressure: 2835 Torr, order: minor-first }',
+      ].join('\n'),
+    );
+    const r = await runCli(['plan', file, '--json']);
+    expect(r.code).toBe(0);
+    const t = JSON.parse(r.stdout).two_stage;
+    expect(t.premix.order).toBe('minor-first');
+    expect(t.stages[0].order.fills).toEqual(['O2', 'Ar']);
+    const o2 = t.stages[1].predicted.composition.O2;
+    // predicted U (k = 2) of O2 0.235 % (tests/core/two-stage.test.ts), +-0.01 % abs
+    expect(Math.abs((2 * o2.u) / o2.value - 0.00235)).toBeLessThan(1e-4);
+    expect(t.stages[0].findings.map((f: { code: string }) => f.code)).toContain('oxygen-compression');
+  });
+
+  it('sheet: one sheet per stage, stage 1 first; HTML one document with a page break', async () => {
+    const txt = await runCli(['sheet', RECIPE, '--premix-tank', 'MT-2', '--format', 'txt']);
+    expect(txt.code).toBe(0);
+    const a = txt.stdout.indexOf('FILL SHEET  Stage 1 of 2: premix in MT-2');
+    const b = txt.stdout.indexOf('FILL SHEET  Stage 2 of 2:');
+    expect(a).toBeGreaterThanOrEqual(0);
+    expect(b).toBeGreaterThan(a);
+    expect(txt.stdout.slice(b)).toContain('premix-MT-2');
+    expect(txt.stdout.slice(b)).toMatch(/Premix tank\s+MT-2 at 1890\.2 Torr before; 1840\.9 Torr after/);
+    const html = await runCli(['sheet', RECIPE, '--premix-tank', 'MT-2', '--format', 'html']);
+    expect(html.code).toBe(0);
+    expect(html.stdout.match(/<html/g)?.length).toBe(1);
+    expect(html.stdout.match(/<\/body>/g)?.length).toBe(1);
+    expect(html.stdout).toContain('break-before: page');
+    expect(html.stdout.indexOf('Stage 1 of 2')).toBeLessThan(html.stdout.indexOf('Stage 2 of 2'));
+  });
+});
