@@ -5,6 +5,7 @@
 
 import { VIRIAL_U } from './mixture-eos.js';
 import { describePredictedOver } from './predict-words.js';
+import { describePreciseOption, describeSequenceChosen } from './search-words.js';
 import type { ComponentAbout } from './uncertainty.js';
 
 export type Severity = 'danger' | 'warning' | 'note';
@@ -166,6 +167,38 @@ export type Finding = Base &
         readonly dominant: string;
         readonly dominantShare: number;
         readonly about?: ComponentAbout;
+      }
+    // raised by the sequence search (plan/search.ts)
+    | {
+        readonly code: 'sequence-chosen';
+        /** the design fraction whose U the chosen sequence improved (the advised order's worst) */
+        readonly species: string;
+        /** the fill that delivers it, its reading (absolute) and gauge in the chosen sequence */
+        readonly source: string;
+        readonly readingPa: number;
+        readonly gauge: string;
+        /** U (k = 2) of the fraction relative to its design value, chosen and advised order */
+        readonly relativeU: number;
+        readonly baselineReadingPa: number;
+        readonly baselineGauge: string;
+        readonly baselineRelativeU: number;
+        /** the advised single-charge order, by fill label */
+        readonly baselineOrder: readonly string[];
+        /** the largest relative U of the design fractions and phi, chosen and advised order */
+        readonly worst: string;
+        readonly worstRelativeU: number;
+        readonly baselineWorst: string;
+        readonly baselineWorstRelativeU: number;
+      }
+    | {
+        readonly code: 'precise-sequence-hazard';
+        /** the charges in fill order: fill label, and the stop reading of a charge that is not its source's last */
+        readonly charges: readonly { readonly label: string; readonly stopPa?: number }[];
+        readonly worst: string;
+        readonly worstRelativeU: number;
+        readonly toleranceRelative: number;
+        /** the hazards it passes (dangers and warnings), by code and step */
+        readonly hazards: readonly { readonly code: string; readonly step?: number }[];
       }
   );
 
@@ -643,6 +676,12 @@ const DATA_COVERAGE: WordingTable<'no-autoignition-data' | 'transport-data-not-k
         `alone, not the smaller of the two methods`,
 };
 
+/** raised by the sequence search (plan/search.ts) */
+const SEARCH: WordingTable<'sequence-chosen' | 'precise-sequence-hazard'> = {
+  'sequence-chosen': describeSequenceChosen,
+  'precise-sequence-hazard': describePreciseOption,
+};
+
 const WORDING: WordingTable<FindingCode> = {
   'predicted-u-over-tolerance': describePredictedOver,
   ...DATA_COVERAGE,
@@ -653,6 +692,7 @@ const WORDING: WordingTable<FindingCode> = {
   ...HEAT_AND_VAPOUR,
   ...REACTIVE_GASES,
   ...ORDER,
+  ...SEARCH,
 };
 
 /** a finding in one sentence: what, the numbers behind it, what to do */

@@ -11,6 +11,7 @@ import type { Finding } from '../findings.js';
 import { adviseOrder, isSaferThan, scoreGivenOrder } from '../order.js';
 import type { PlanBasis } from './validate.js';
 import type { PlanAmounts } from './amounts.js';
+import { searchSequence } from './search.js';
 
 export interface Charge {
   readonly source: GasSource;
@@ -36,6 +37,9 @@ export function planSequence(basis: PlanBasis, amounts: PlanAmounts): PlanSequen
   const inTank = initial ? { composition: initial.composition, amountMol: initial.amountMol } : undefined;
   const findings: Finding[] = [];
   const single = (sources: readonly GasSource[]) => sources.map((source) => ({ source }));
+  // the sequence search (plan/search.ts), when the lab's thermometer lets it predict the uncertainty
+  if (input.order === 'recommend' && input.thermometer)
+    return searchSequence(basis, amounts, input.thermometer);
   if (input.order === 'recommend') {
     const advice = adviseOrder(input.sources, amountsMol, Pf, safety, inTank);
     if (advice.noSafeOrder)
