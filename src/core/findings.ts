@@ -26,12 +26,6 @@ export type Finding = Base &
         readonly tank: string;
       }
     | { readonly code: 'no-gauge-covers'; readonly pressurePa: number }
-    | {
-        readonly code: 'gauge-coarser-than-band';
-        readonly gauge: string;
-        readonly uncertaintyPa: number;
-        readonly bandPa: number;
-      }
     | { readonly code: 'purity-assumed'; readonly source: string; readonly species: string }
     | { readonly code: 'unidentified-impurity'; readonly fraction: number }
     | {
@@ -167,6 +161,17 @@ export type Finding = Base &
         readonly dominant: string;
         readonly dominantShare: number;
         readonly about?: ComponentAbout;
+      }
+    // raised by the split-point search (plan/split-point.ts)
+    | {
+        readonly code: 'split-point-chosen';
+        readonly source: string;
+        /** the stop reading chosen, Pa absolute */
+        readonly stopPa: number;
+        /** the highest stop found below it that is more hazardous, Pa (undefined: the lowest stop searched) */
+        readonly hazardousBelowPa?: number;
+        /** no danger or warning that a stop can change (states, paths, gauges, supply) remains at this stop */
+        readonly clean: boolean;
       }
     // raised by the sequence search (plan/search.ts)
     | {
@@ -441,7 +446,7 @@ type Wording<C extends FindingCode> = (f: Finding & { readonly code: C }, p: Pre
 type WordingTable<C extends FindingCode> = { readonly [K in C]: Wording<K> };
 
 const TANK_AND_GAUGES: WordingTable<
-  'tank-over-rating' | 'no-gauge-covers' | 'gauge-coarser-than-band' | 'tank-rating-unknown' | 'isolate-gauge'
+  'tank-over-rating' | 'no-gauge-covers' | 'tank-rating-unknown' | 'isolate-gauge'
 > = {
   'tank-over-rating': (f, p) =>
     `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
@@ -450,11 +455,6 @@ const TANK_AND_GAUGES: WordingTable<
   'no-gauge-covers': (f, p) =>
     `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add ` +
     `a gauge with that range or change the final pressure`,
-  'gauge-coarser-than-band': (f, p) =>
-    `gauge ${f.gauge} has a standard uncertainty of ${p(f.uncertaintyPa)} at ` +
-    `this reading, as large as a third or more of the tolerance band +-${p(f.bandPa)}; ` +
-    `the composition tolerance may not be met - use a lower-range gauge or widen ` +
-    `the tolerance`,
   'tank-rating-unknown': (f) =>
     `the lab profile gives no pressure rating for ${tankPhrase(f.tank)}; no rating is ` +
     `assumed, so the pressure checks cannot be made - add its rating (maximum ` +
@@ -676,6 +676,21 @@ const DATA_COVERAGE: WordingTable<'no-autoignition-data' | 'transport-data-not-k
         `alone, not the smaller of the two methods`,
 };
 
+/** raised by the split-point search (plan/split-point.ts) */
+const SPLIT: WordingTable<'split-point-chosen'> = {
+  'split-point-chosen': (f, p) =>
+    `the planner chose to stop this charge of ${f.source} at ${p(f.stopPa)}: ` +
+    (f.hazardousBelowPa !== undefined
+      ? `the lowest stop at which every state and fill path stays as free of the hazards checked ` +
+        `as any stop can make it (at ${p(f.hazardousBelowPa)} the review finds more)`
+      : `the lowest stop searched (1/32 of the source's charge); no lower stop is needed for safety`) +
+    (f.clean
+      ? ''
+      : `; the sequence still has dangers or warnings at this stop - see the other findings ` +
+        `and consider another order`) +
+    ` - do not stop this charge lower, and give the stop after "@" to set it yourself`,
+};
+
 /** raised by the sequence search (plan/search.ts) */
 const SEARCH: WordingTable<'sequence-chosen' | 'precise-sequence-hazard'> = {
   'sequence-chosen': describeSequenceChosen,
@@ -692,6 +707,7 @@ const WORDING: WordingTable<FindingCode> = {
   ...HEAT_AND_VAPOUR,
   ...REACTIVE_GASES,
   ...ORDER,
+  ...SPLIT,
   ...SEARCH,
 };
 

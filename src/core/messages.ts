@@ -4,6 +4,7 @@ import type {
   ListFault,
   LogFault,
   PlannerProblem,
+  ChargeProblem,
   Problem,
   QuantityFault,
   ReadCause,
@@ -12,6 +13,7 @@ import type {
   WriteCause,
   YamlFault,
 } from './problems.js';
+import { TORR_PA } from './constants.js';
 
 function list(xs: readonly string[]): string {
   return xs.join(', ');
@@ -133,6 +135,10 @@ export function describeProblem(p: Problem): string {
     case 'withdraw-not-last':
     case 'reading-missing':
       return describeLogProblem(p);
+    // raised by the planner's split charges
+    case 'charges-invalid':
+    case 'split-stop':
+      return describeChargeProblem(p);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);
@@ -929,4 +935,57 @@ export function describeWhere(w: Where): string {
 export function describeProblemAt(p: Problem, w: Where): string {
   const at = describeWhere(w);
   return at ? `${at}: ${describeProblem(p)}` : describeProblem(p);
+}
+
+// raised by the planner's split charges
+/** a pressure in a charge problem: Pa, and Torr for the manifold's usual unit */
+function paTorr(pa: number): string {
+  return `${formatNumber(pa)} Pa (${formatNumber(pa / TORR_PA)} Torr)`;
+}
+
+function describeChargeProblem(p: ChargeProblem): string {
+  const which = (c: { source: string; charge: number }) =>
+    `charge ${c.charge} of the fill order (${c.source})`;
+  switch (p.kind) {
+    case 'not-given-order':
+      return (
+        'charges (a source named more than once, or a stop reading) are a fill order, but the plan was ' +
+        'asked to recommend the order; give the order with the charges, or leave the charges out'
+      );
+    case 'unknown-source':
+      return (
+        `the fill order charges ${list(p.sources)}, which this mixture does not fill; ` +
+        `the fills are ${list(p.choices)}`
+      );
+    case 'source-not-charged':
+      return `the fill order leaves out ${list(p.sources)}; charge every fill at least once`;
+    case 'consecutive':
+      return (
+        `${which(p)} follows a charge of the same source: two charges in a row are one ` +
+        `charge; name it once, or put another fill between them`
+      );
+    case 'stop-on-last':
+      return (
+        `${which(p)} has a stop reading (${paTorr(p.stopPa)}) but is the last charge of ` +
+        `${p.source}, which fills to the plan's own target; remove the stop from its last charge`
+      );
+    case 'stop-missing':
+      return `${which(p)} is not the last charge of ${p.source} and has no stop reading; give one after "@"`;
+    case 'not-above-previous':
+      return (
+        `the stop reading of ${which(p)}, ${paTorr(p.stopPa)}, is not above the reading before it ` +
+        `(${paTorr(p.previousPa)}), so the charge would fill nothing; give a higher stop`
+      );
+    case 'not-below-last':
+      return (
+        `the stop reading of ${which(p)}, ${paTorr(p.stopPa)}, is not below the reading the last charge ` +
+        `of ${p.source} reaches (${paTorr(p.lastPa)}); give a lower stop`
+      );
+    case 'over-allocation':
+      return (
+        `the stop reading of ${which(p)}, ${paTorr(p.stopPa)}, needs all of the ${p.source} the batch ` +
+        `takes or more, leaving nothing for its last charge; a stop must be below ${paTorr(p.largestPa)} - ` +
+        `give a lower stop, or raise the final pressure`
+      );
+  }
 }

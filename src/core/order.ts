@@ -38,7 +38,7 @@ export interface OrderAdvice {
 }
 
 /** the finding codes an order can change (typed: a misspelt code does not compile) */
-const ORDER_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
+export const ORDER_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-state',
   'near-flammable',
   'detonable-state',
@@ -56,6 +56,12 @@ function permutations<T>(xs: readonly T[]): T[][] {
   return xs.flatMap((x, i) => permutations([...xs.slice(0, i), ...xs.slice(i + 1)]).map((p) => [x, ...p]));
 }
 
+/** one charge as the scoring sees it: a source and the mol it delivers (a source may come more than once) */
+export interface ScoredCharge {
+  readonly source: GasSource;
+  readonly mol: number;
+}
+
 /** states and fills of one order, with pressures from the amounts (ideal gas: enough for ranking) */
 export function sequenceOf(
   order: readonly GasSource[],
@@ -63,7 +69,23 @@ export function sequenceOf(
   finalPa: number,
   initial?: { composition: Fractions; amountMol: number },
 ) {
-  const total = [...amounts.values()].reduce((a, b) => a + b, 0) + (initial?.amountMol ?? 0);
+  return chargeSequenceOf(
+    order.map((source) => ({ source, mol: amounts.get(source) ?? 0 })),
+    finalPa,
+    initial,
+  );
+}
+
+/**
+ * states and fills of a sequence of charges (a source may be charged more than once), with
+ * pressures from the amounts: P after a charge = final pressure x cumulative mol / total mol
+ */
+export function chargeSequenceOf(
+  charges: readonly ScoredCharge[],
+  finalPa: number,
+  initial?: { composition: Fractions; amountMol: number },
+) {
+  const total = charges.reduce((a, c) => a + c.mol, 0) + (initial?.amountMol ?? 0);
   const cum: Record<string, number> = {};
   let n = 0;
   if (initial) {
@@ -76,8 +98,7 @@ export function sequenceOf(
     ? { step: 0, composition: { ...initial.composition }, pressurePa: (finalPa * n) / total, final: false }
     : undefined;
   if (before) states.push(before);
-  order.forEach((s, i) => {
-    const a = amounts.get(s) ?? 0;
+  charges.forEach(({ source: s, mol: a }, i) => {
     for (const [k, v] of Object.entries(s.composition)) cum[k] = (cum[k] ?? 0) + v * a;
     cum[s.mainSpecies] = (cum[s.mainSpecies] ?? 0) + s.unidentified * a;
     n += a;
@@ -88,13 +109,32 @@ export function sequenceOf(
       step: i + 1,
       composition: y,
       pressurePa: (finalPa * n) / total,
-      final: i === order.length - 1,
+      final: i === charges.length - 1,
     };
     states.push(after);
     fills.push({ step: i + 1, sourceId: s.id, sourceComposition: s.composition, before, after });
     before = after;
   });
   return { states, fills };
+}
+
+/**
+ * The hazards an order can change of one fill: the state after it (unless final; in-tank
+ * condensation of an intermediate state left out: once the vapour is in, its partial pressure
+ * is the same in every order), the fill itself (its line, compression heating), and its path
+ * in the tank and at the inlet.
+ */
+export function fillHazards(f: FillEvent, ctx: SafetyContext): Finding[] {
+  const found: Finding[] = [];
+  if (!f.after.final)
+    found.push(
+      ...reviewState(f.after, ctx).findings.filter(
+        (x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation',
+      ),
+    );
+  found.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
+  found.push(...reviewFillPath(f, ctx, false));
+  return found;
 }
 
 /** findings of one fill and of the state after it, cached by which sources are in the tank: orders share them */
@@ -131,20 +171,7 @@ export function scoreOrder(req: ScoreRequest): OrderScore {
       .join(',')}>${index.get(order[i])}`;
     let found = cache.get(key);
     if (!found) {
-      found = [];
-      const after = f.after;
-      // in-tank condensation of an intermediate state is left out: once the vapour is in, its
-      // partial pressure is the same in every order
-      if (!after.final)
-        found.push(
-          ...reviewState(after, ctx).findings.filter(
-            (x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation',
-          ),
-        );
-      // the fill itself: its line (condensation, acetylene), compression heating, and its path
-      // in the tank and at the inlet
-      found.push(...reviewFill(f, ctx).filter((x) => ORDER_RELEVANT.has(x.code)));
-      found.push(...reviewFillPath(f, ctx, false));
+      found = fillHazards(f, ctx);
       cache.set(key, found);
     }
     hazards.push(...found.map((h) => ({ ...h, step: h.step === undefined ? undefined : i + 1 })));
@@ -152,6 +179,10 @@ export function scoreOrder(req: ScoreRequest): OrderScore {
   let inversions = 0;
   for (let i = 0; i < order.length; i++)
     for (let j = i + 1; j < order.length; j++) if (index.get(order[i])! > index.get(order[j])!) inversions++;
+  return counted(hazards, inversions);
+}
+
+function counted(hazards: Finding[], inversions: number): OrderScore {
   const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
   return {
     danger: count('danger'),
@@ -234,6 +265,25 @@ export function scoreGivenOrder(
   const amounts = new Map(order.map((s, i) => [s, amountsMol[i]]));
   const ascending = [...order].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
   return scoreOrder({ order, amounts, ascending, finalPa, ctx, initial });
+}
+
+/**
+ * The score of a given sequence of charges, a source possibly charged more than once (a split
+ * charge): every charge's state and path reviewed as it is, at ideal-gas pressures on the final
+ * pressure; the tie-break counts pairs of charges out of smallest-first order.
+ */
+export function scoreGivenCharges(
+  charges: readonly ScoredCharge[],
+  finalPa: number,
+  ctx: SafetyContext,
+  initial?: { composition: Fractions; amountMol: number },
+): OrderScore {
+  const { fills } = chargeSequenceOf(charges, finalPa, initial);
+  const hazards = fills.flatMap((f) => fillHazards(f, ctx));
+  let inversions = 0;
+  for (let i = 0; i < charges.length; i++)
+    for (let j = i + 1; j < charges.length; j++) if (charges[i].mol > charges[j].mol) inversions++;
+  return counted(hazards, inversions);
 }
 
 export function isSaferThan(a: OrderScore, b: OrderScore): boolean {

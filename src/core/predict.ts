@@ -206,13 +206,14 @@ export function predictionOf(plan: Plan): PlanPrediction | undefined {
 }
 
 /**
- * The plan with its prediction, and the prediction's findings in place of the per-reading
- * heuristic `gauge-coarser-than-band` (the budget correlates a gauge's span between its
- * readings, the heuristic did not). Without a prediction the plan keeps its findings and says why.
+ * The plan with its prediction and the prediction's findings (they replace the former
+ * per-reading heuristic, which the planner no longer emits: the budget correlates a gauge's
+ * span between its readings, the heuristic did not). Without a prediction the plan keeps its
+ * findings and says why.
  */
 export function withPrediction(plan: Plan, p: PlanPrediction | undefined, missing?: string): PredictedPlan {
   if (!p) return { ...plan, predictionMissing: missing ?? 'a step has no gauge that reads its target' };
-  const kept = plan.findings.filter((f) => f.code !== 'gauge-coarser-than-band');
+  const kept = plan.findings;
   // warnings stand before the notes, as the planner lists them
   const at = kept.findIndex((f) => f.severity === 'note');
   const cut = at < 0 ? kept.length : at;

@@ -250,7 +250,71 @@ export type Problem =
   /** a recipe or lab-profile field that its format refuses (the schema's verdict, in our words) */
   | { readonly code: 'invalid-field'; readonly field: string; readonly issue: FieldIssue }
   // raised by the planner
-  | PlannerProblem;
+  | PlannerProblem
+  // raised by the planner's split charges (a source filled in more than one charge)
+  | ChargeProblem;
+
+/** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
+export type ChargeProblem =
+  /** charges are a fill order: they need order 'given' */
+  | { readonly code: 'charges-invalid'; readonly kind: 'not-given-order' }
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'unknown-source';
+      readonly sources: readonly string[];
+      readonly choices: readonly string[];
+    }
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'source-not-charged';
+      readonly sources: readonly string[];
+    }
+  /** the same source in two charges in a row (`charge` is the 1-based position of the second) */
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'consecutive';
+      readonly source: string;
+      readonly charge: number;
+    }
+  | {
+      readonly code: 'charges-invalid';
+      readonly kind: 'stop-on-last';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'stop-missing';
+      readonly source: string;
+      readonly charge: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'not-above-previous';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+      readonly previousPa: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'not-below-last';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+      /** the reading the source's last charge reaches */
+      readonly lastPa: number;
+    }
+  | {
+      readonly code: 'split-stop';
+      readonly kind: 'over-allocation';
+      readonly source: string;
+      readonly charge: number;
+      readonly stopPa: number;
+      /** the reading with all that is left of the source's allocation: a stop must be below it */
+      readonly largestPa: number;
+    };
 
 /** who holds a batch log's lock: from the lock file */
 export interface LockHolder {

@@ -214,15 +214,20 @@ function buildComponents(
       : -1,
   );
   const virial = virialComponents(setup, add);
-  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular
-  const purity = perReading((r) =>
-    r.source.unidentified > 0
-      ? add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1', {
-          kind: 'purity',
-          source: r.source.id,
-        })
-      : -1,
-  );
+  // the unidentified remainder of a cylinder could be more or less of its main gas: +-half of it, rectangular;
+  // one term per source, shared by its readings (a source filled in two charges is one cylinder's gas)
+  const purityIdx = new Map<string, number>();
+  const purity = perReading((r) => {
+    if (!(r.source.unidentified > 0)) return -1;
+    const known = purityIdx.get(r.source.id);
+    if (known !== undefined) return known;
+    const idx = add(`purity of ${r.source.id}`, 'rectangular', r.source.unidentified / 2, '1', {
+      kind: 'purity',
+      source: r.source.id,
+    });
+    purityIdx.set(r.source.id, idx);
+    return idx;
+  });
   const inputs: ReadingInputs = {
     span: perReading((r) => spanIdx.get(r.gauge.id) ?? -1),
     zero: perReading((r) => offIdx.get(r.gauge.id) ?? -1),

@@ -3,7 +3,8 @@ import { describeProblem, ProblemError } from '../../src/core/index.js';
 import { validatePlanInput } from '../../src/core/plan/validate.js';
 import { planAmounts } from '../../src/core/plan/amounts.js';
 import { planSequence } from '../../src/core/plan/sequence.js';
-import { chargeAmounts, planSteps } from '../../src/core/plan/steps.js';
+import { planSteps } from '../../src/core/plan/steps.js';
+import { chargeAmounts } from '../../src/core/plan/charges.js';
 import { workedInput } from './planner-input.js';
 import { fixture, TORR } from '../helpers.js';
 
@@ -52,20 +53,24 @@ describe('plan stage 4: steps and gauges', () => {
     expect(f).toMatchObject({ severity: 'danger', step: 2, source: 'O2' });
   });
 
-  it('chargeAmounts: one charge per source gets that source’s amount; a repeated source or a stop reading is refused', () => {
+  it('chargeAmounts: one charge per source gets that source’s amount; a non-last charge without a stop is refused', () => {
     const { basis, amounts, seq } = stepsOf();
     const src = basis.input.sources;
     const mol = amounts.allocation.amountsMol;
-    expect(chargeAmounts(seq.charges, src, mol)).toEqual(mol);
-    const split = [...seq.charges, { source: src[2] }];
+    expect(chargeAmounts(basis, seq.charges, src, mol)).toEqual(mol);
+    // the sequence stage chooses every missing stop; called without one, the amounts refuse
     let problem: unknown;
     try {
-      chargeAmounts(split, src, mol);
+      chargeAmounts(
+        basis,
+        [seq.charges[0], seq.charges[1], { source: src[2] }, { source: src[1] }, { source: src[2] }],
+        src,
+        mol,
+      );
     } catch (e) {
       problem = e instanceof ProblemError ? e.problem : e;
     }
-    expect(problem).toEqual({ code: 'design-conflict', kind: 'split-charges', sources: ['Ar'] });
-    expect(describeProblem(problem as ProblemError['problem'])).toContain('fills Ar in more than one charge');
-    expect(() => chargeAmounts([{ source: src[0], stopPa: 30 * TORR }], src, mol)).toThrow(ProblemError);
+    expect(problem).toMatchObject({ code: 'split-stop', kind: 'stop-missing', source: 'O2', charge: 2 });
+    expect(describeProblem(problem as ProblemError['problem'])).toContain('has no stop reading');
   });
 });

@@ -144,7 +144,7 @@ describe('predicted uncertainty: the budget against a hand GUM calculation (JCGM
     expect(Math.abs(p.result.composition.O2.contributions![i])).toBeLessThan(1e-3 * uncorrelated);
   });
 
-  it('the plan carries the prediction, and the over-tolerance finding replaces gauge-coarser-than-band', () => {
+  it('the plan carries the prediction and its over-tolerance finding (the planner emits no per-reading gauge heuristic)', () => {
     // a coarse 10000 Torr head for a 1 % O2 fill at 1500 Torr: U far beyond 0.5 %
     const coarse = head('C-10kT', 10000, 1, 0.0015);
     const plan = planFill({
@@ -161,7 +161,9 @@ describe('predicted uncertainty: the budget against a hand GUM calculation (JCGM
     const p = predictPlan({ ...input(plan), gauges: [coarse] })!;
     const out = withPrediction(plan, p);
     expect(out.predicted).toBe(p);
-    expect(out.findings.some((f) => f.code === 'gauge-coarser-than-band')).toBe(false);
+    expect(plan.findings.filter((f) => f.severity === 'warning').map((f) => f.code)).toEqual([
+      'tank-rating-unknown',
+    ]);
     const over = out.findings.filter((f) => f.code === 'predicted-u-over-tolerance');
     expect(over.map((f) => (f.code === 'predicted-u-over-tolerance' ? f.species : ''))).toContain('O2');
     const o2 = over.find((f) => f.code === 'predicted-u-over-tolerance' && f.species === 'O2');

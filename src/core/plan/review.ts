@@ -70,8 +70,12 @@ function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[]
   ];
 }
 
-/** the safety review of every state the fill passes through, and of each fill's path in the tank and at its inlet */
-export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[] {
+/**
+ * the safety review of every state the fill passes through (after every charge, split charges
+ * included), and of each charge's path in the tank and at its inlet; `locate` false bisects the
+ * path boundaries 4 times instead of 9 (the split-point search needs the severities only)
+ */
+export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[], locate = true): Finding[] {
   const { initial } = basis;
   const states: TankState[] = [];
   const fills: FillEvent[] = [];
@@ -97,7 +101,7 @@ export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[]): Fi
     before = after;
   }
   const out = [...reviewFillSequence(states, fills, basis.safety)];
-  for (const f of fills) out.push(...reviewFillPath(f, basis.safety));
+  for (const f of fills) out.push(...reviewFillPath(f, basis.safety, locate));
   return out;
 }
 
@@ -126,7 +130,8 @@ function sourceFindings(basis: PlanBasis, amounts: PlanAmounts, sequence: PlanSe
   const { design, tolerance: tol } = basis.input;
   const alloc = amounts.allocation;
   const out: Finding[] = [];
-  for (const { source: s } of sequence.charges)
+  // once per source, however many charges it is filled in
+  for (const s of new Map(sequence.charges.map((c) => [c.source.id, c.source])).values())
     if (s.purityAssumed)
       out.push({ severity: 'note', code: 'purity-assumed', source: s.id, species: s.mainSpecies });
   if (alloc.unidentified > TRACE_FRACTION)

@@ -11,7 +11,6 @@
  * that step) whose range covers the reading and the top of its band.
  */
 import { canRead, gaugeReadingPa, gaugeTopAbsolutePa, readingUncertaintyPa, type Gauge } from '../gauges.js';
-import type { Finding } from '../findings.js';
 import type { PlanBasis } from './validate.js';
 import type { PlanSteps } from './steps.js';
 import type { GaugeAssignment, PlanStep } from './types.js';
@@ -57,43 +56,23 @@ function assignmentOf(basis: PlanBasis, g: Gauge, absolutePa: number): GaugeAssi
 
 /**
  * The steps with the gauge of each reading set to `ids` (undefined: keep the step stage's
- * choice). A gauge that does not cover a reading is refused by the caller before (see
- * gaugeAlternatives); the gauge-coarser-than-band heuristic of a changed step is re-judged
- * with its new gauge, as the step stage judges it.
+ * choice). Each id must name a gauge that covers its reading (see gaugeAlternatives); the step
+ * stage's findings (a reading no gauge covers, a supply below its target) do not depend on
+ * which covering gauge reads it.
  */
 export function withGauges(
   basis: PlanBasis,
   planned: PlanSteps,
   ids: readonly (string | undefined)[],
 ): PlanSteps {
-  const changed = new Set<number>();
+  let changed = false;
   const steps = planned.steps.map((s, k) => {
     const id = ids[k];
     if (id === undefined || id === s.gauge?.id) return s;
     const g = basis.input.gauges.find((x) => x.id === id);
     if (!g) return s;
-    changed.add(s.index);
+    changed = true;
     return { ...s, gauge: assignmentOf(basis, g, s.targetPa) };
   });
-  if (!changed.size) return planned;
-  const findings: Finding[] = [];
-  for (const f of planned.findings) {
-    if (f.code === 'gauge-coarser-than-band' && f.step !== undefined && changed.has(f.step)) continue;
-    findings.push(f);
-  }
-  for (const s of steps) {
-    if (!changed.has(s.index) || !s.gauge || s.gauge.uncertaintyPa * 3 <= s.bandPa) continue;
-    const f: Finding = {
-      severity: 'warning',
-      code: 'gauge-coarser-than-band',
-      step: s.index,
-      gauge: s.gauge.id,
-      uncertaintyPa: s.gauge.uncertaintyPa,
-      bandPa: s.bandPa,
-    };
-    // in step order among the step stage's findings
-    const at = findings.findIndex((x) => x.step !== undefined && x.step > s.index);
-    findings.splice(at < 0 ? findings.length : at, 0, f);
-  }
-  return { steps, findings };
+  return changed ? { ...planned, steps } : planned;
 }

@@ -14,16 +14,16 @@ import { chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, type Gauge } from '../
 import { getSpecies } from '../lookup.js';
 import { molarMassKgPerMol } from '../formula.js';
 import type { Finding } from '../findings.js';
-import { fail } from '../problems.js';
 import type { PlanBasis } from './validate.js';
 import { eosComposition, type PlanAmounts } from './amounts.js';
-import type { Charge, PlanSequence } from './sequence.js';
+import type { PlanSequence } from './sequence.js';
+import { chargeAmounts, type Charge } from './charges.js';
 import { allowedDeviation, type PlanStep } from './types.js';
 
 /** what the step stage hands on */
 export interface PlanSteps {
   readonly steps: readonly PlanStep[];
-  /** no-gauge-covers, gauge-coarser-than-band and supply-pressure-low, in step order */
+  /** no-gauge-covers and supply-pressure-low, in step order */
   readonly findings: readonly Finding[];
 }
 
@@ -41,31 +41,9 @@ interface ChargeState {
   readonly incrementPa: number;
 }
 
-/**
- * The mol each charge delivers. One charge per source (the only sequences planned yet):
- * a source in more than one charge, or a stop reading, is refused rather than guessed.
- */
-export function chargeAmounts(
-  charges: readonly Charge[],
-  sources: readonly GasSource[],
-  amountsMol: readonly number[],
-): number[] {
-  const split = charges.filter(
-    (c, i) => c.stopPa !== undefined || charges.findIndex((d) => d.source === c.source) !== i,
-  );
-  if (split.length)
-    fail({
-      code: 'design-conflict',
-      kind: 'split-charges',
-      sources: [...new Set(split.map((c) => c.source.id))],
-    });
-  const amountOf = new Map(sources.map((s, i) => [s, amountsMol[i]]));
-  return charges.map((c) => amountOf.get(c.source) ?? 0);
-}
-
 /** the steps of the plan and the findings of each */
 export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: PlanSequence): PlanSteps {
-  const mols = chargeAmounts(sequence.charges, basis.input.sources, amounts.allocation.amountsMol);
+  const mols = chargeAmounts(basis, sequence.charges, basis.input.sources, amounts.allocation.amountsMol);
   const states = chargeStates(basis, sequence.charges, mols);
   const connected = new Set(basis.input.gauges.map((g) => g.id));
   const findings: Finding[] = [];
@@ -79,18 +57,9 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
       st.P + bandPa,
       basis.input.reading,
     );
+    // how well the readings are known is the predicted uncertainty's (predict.ts), not a per-reading rule
     if (!choice)
       findings.push({ severity: 'danger', code: 'no-gauge-covers', step: stepNo, pressurePa: st.P });
-    else if (choice.uncertaintyPa * 3 > bandPa) {
-      findings.push({
-        severity: 'warning',
-        code: 'gauge-coarser-than-band',
-        step: stepNo,
-        gauge: choice.gauge.id,
-        uncertaintyPa: choice.uncertaintyPa,
-        bandPa,
-      });
-    }
     const supplyPa = st.source.supplyPressurePa;
     if (supplyPa !== undefined && supplyPa <= st.P) {
       findings.push({
@@ -125,10 +94,10 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
 
 /** which charge of its source charge k is, and of how many */
 function chargeNumber(charges: readonly Charge[], k: number): PlanStep['charge'] {
-  const same = charges.filter((c) => c.source === charges[k].source);
+  const id = charges[k].source.id;
   return {
-    number: charges.slice(0, k + 1).filter((c) => c.source === charges[k].source).length,
-    of: same.length,
+    number: charges.slice(0, k + 1).filter((c) => c.source.id === id).length,
+    of: charges.filter((c) => c.source.id === id).length,
   };
 }
 
@@ -176,6 +145,10 @@ function sourceFraction(s: GasSource, k: string): number {
  * charge, made good by the next charge's printed cumulative target, moves x_i by
  * (w_k,i - w_k+1,i) dn / N; on the last charge by (w_K,i - x_i) dn / N. The band is the dn
  * that keeps every design fraction within its tolerance, times dP/dn at fixed composition.
+ * With split charges the same holds: every later charge, a later charge of this same source
+ * included, fills to its own printed cumulative target, so it delivers its planned amount and
+ * only the next charge absorbs dn (two charges of one source are never next to each other,
+ * charges.ts refuses that). A stop reading is such a printed target too.
  */
 function toleranceBandPa(
   basis: PlanBasis,
