@@ -60,17 +60,17 @@ function orderText(f: PreciseOption, p: (pa: number) => string): string {
 }
 
 /**
- * "only a sequence with a flammable state or fill path meets the tolerance of 0.5 %: ..."
+ * "no sequence as safe as the advised order meets the tolerance of 0.5 %; CH4 -> Ar -> O2 -> Ar
+ * does (...) but passes flammable-state (fill 3): ..."
  */
 export function describePreciseOption(f: PreciseOption, p: (pa: number) => string): string {
   const hazards = [
     ...new Set(f.hazards.map((h) => (h.step === undefined ? h.code : `${h.code} (fill ${h.step})`))),
   ].join(', ');
   return (
-    `only a sequence with a flammable state or fill path meets the tolerance of ` +
-    `${relPct(f.toleranceRelative)}: ${f.charges.map((c) => c.label).join(' -> ')} (largest ` +
-    `predicted U ${relPct(f.worstRelativeU)}, ${quantity(f.worst)}) passes ${hazards}. It is not ` +
-    `recommended; to fill it anyway, have those states reviewed under your lab's rules and give ` +
-    `the order "${orderText(f, p)}" (--order)`
+    `no sequence as safe as the advised order meets the tolerance of ${relPct(f.toleranceRelative)}; ` +
+    `${f.charges.map((c) => c.label).join(' -> ')} does (largest predicted U ${relPct(f.worstRelativeU)}, ` +
+    `${quantity(f.worst)}) but passes ${hazards}. It is not recommended; to fill it anyway, have ` +
+    `those states reviewed under your lab's rules and give the order "${orderText(f, p)}" (--order)`
   );
 }

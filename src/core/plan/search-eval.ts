@@ -203,14 +203,14 @@ function eventsOf(basis: PlanBasis, planned: PlanSteps): FillEvent[] {
 
 /**
  * The sequence hazards of planned steps: every state and fill path, and the steps' own. With
- * `firstOnly` the review stops at the first fill with a danger or warning (enough to reject a
- * candidate when the advised order is clean); `complete` says whether every fill was reviewed.
+ * `firstOnly` the review stops at the first fill with a hazard of any severity (enough to reject
+ * a candidate when the advised order is clean); `complete` says whether every fill was reviewed.
  */
 export function screen(ctx: SearchContext, planned: PlanSteps, firstOnly = false): HazardCount {
   const hazards: Finding[] = planned.findings.filter(countsAgainstSequence);
   let complete = true;
   for (const f of eventsOf(ctx.basis, planned)) {
-    if (firstOnly && hazards.some((h) => h.severity !== 'note')) {
+    if (firstOnly && hazards.length) {
       complete = false;
       break;
     }
@@ -221,9 +221,15 @@ export function screen(ctx: SearchContext, planned: PlanSteps, firstOnly = false
   return { danger: count('danger'), warning: count('warning'), note: count('note'), hazards, complete };
 }
 
-/** a is not less safe than b: fewer dangers, or as many and no more warnings */
+/**
+ * a is not less safe than b, in the advice's own ranking (order.ts): fewer dangers, or as many
+ * and fewer warnings, or as many of both and no more notes (a near-flammable state is a note:
+ * inside the NFPA 69 operating margins, which the search does not trade for precision)
+ */
 export function notLessSafe(a: HazardCount, b: HazardCount): boolean {
-  return a.danger < b.danger || (a.danger === b.danger && a.warning <= b.warning);
+  if (a.danger !== b.danger) return a.danger < b.danger;
+  if (a.warning !== b.warning) return a.warning < b.warning;
+  return a.note <= b.note;
 }
 
 /** the sequence stage's hand-off for a candidate (the reason is the search's, set by the caller) */

@@ -75,7 +75,7 @@ export function wonFinding(win: Evaluated, base: Evaluated): Finding {
 
 /** a sequence that meets the tolerance only through a hazard: offered, not recommended */
 export function optionFinding(ev: Evaluated, toleranceRelative: number): Finding {
-  const hazards = ev.safety.hazards.filter((h) => h.severity !== 'note');
+  const hazards = ev.safety.hazards;
   return {
     severity: 'note',
     code: 'precise-sequence-hazard',

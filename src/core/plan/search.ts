@@ -131,7 +131,8 @@ function candidateOf(st: Structure, shares: readonly number[]): CandidateCharge[
   return out;
 }
 
-const isClean = (ev: Evaluated) => ev.safety.danger === 0 && ev.safety.warning === 0;
+/** no danger, warning or note of a state or path (the advice's "free of the hazards checked") */
+const isClean = (ev: Evaluated) => ev.safety.danger + ev.safety.warning + ev.safety.note === 0;
 
 const better = (a: Evaluated | undefined, b: Evaluated | undefined): boolean =>
   !!a?.worst && (!b?.worst || a.worst.relative < b.worst.relative);
@@ -268,7 +269,7 @@ export function searchSequence(
       advice.reason,
     );
   const admissible = (ev: Evaluated) => notLessSafe(ev.safety, base.safety);
-  // with a clean advised order, one hazard rejects a candidate: its review may stop there
+  // with a clean advised order, one hazard (a note included) rejects a candidate: its review may stop there
   const firstOnly = isClean(base);
   const found = explore(ctx, base, advice.sources, admissible, firstOnly);
   const ranked = [base, ...found.safe].sort((a, b) => a.worst!.relative - b.worst!.relative);
@@ -352,8 +353,11 @@ function isWithin(ev: Evaluated): boolean {
   return !!ev.prediction && ev.prediction.rows.every((r) => r.kind === 'dilution' || r.within);
 }
 
-/** its hazards are flammable states or fill paths only (warnings, no danger) */
-function flammableOnly(ev: Evaluated): boolean {
+/**
+ * Its hazards are near-flammable or flammable states or fill paths only (no danger, no other
+ * warning), every fill reviewed: such a sequence may be offered as an option, never chosen.
+ */
+function optionable(ev: Evaluated): boolean {
   return (
     ev.safety.complete &&
     ev.safety.danger === 0 &&
@@ -368,10 +372,11 @@ function flammableOnly(ev: Evaluated): boolean {
 }
 
 /**
- * A candidate that meets the tolerance but carries a hazard: only flammable states or paths
- * (warnings, no danger) qualify, so a detonable or otherwise dangerous sequence is never
- * offered. Tried: the single-charge orders, then below the first unsafe share of the two most
- * precise one-extra splits, each share 3/4 of the last, ending at a danger.
+ * A candidate that meets the tolerance but is less safe than the advised order: only
+ * near-flammable or flammable states or paths qualify (optionable), so a detonable or otherwise
+ * dangerous sequence is never offered. Tried: the single-charge orders, then below the first
+ * unsafe share of the two most precise one-extra splits, each share 3/4 of the last (the
+ * largest such share that meets the tolerance: the least hazardous), ending at a danger.
  */
 function preciseOption(
   ctx: SearchContext,
@@ -381,20 +386,18 @@ function preciseOption(
   let best: Evaluated | undefined;
   for (const e of found.unsafeOrders) {
     const full = reviewedFully(ctx, e);
-    if (!flammableOnly(full)) continue;
+    if (!optionable(full)) continue;
     const p = predicted(ctx, full);
     if (isWithin(p) && better(p, best)) best = p;
   }
-  const splits = found.swept
-    .filter((sw) => sw.firstUnsafe !== undefined && sw.best?.worst)
-    .sort((a, b) => a.best!.worst!.relative - b.best!.worst!.relative)
-    .slice(0, 2);
+  // the swept structures are in order of promise (byPromise)
+  const splits = found.swept.filter((sw) => sw.firstUnsafe !== undefined).slice(0, 2);
   for (const sw of splits) {
     let share = sw.firstUnsafe!;
     for (let i = 0; i < MAX_OPTION_STEPS; i++, share *= 0.75) {
       const ev = review(ctx, candidateOf(sw.st, [share]));
       if (!ev || admissible(ev)) continue;
-      if (!flammableOnly(ev)) break;
+      if (!optionable(ev)) break;
       const p = predicted(ctx, ev);
       if (isWithin(p)) {
         if (better(p, best)) best = p;
