@@ -59,7 +59,7 @@ export const MAX_PERMUTED = 4;
 /** the range of the share of a split source's amount its extra charge delivers */
 export const SHARE_MAX = 0.64;
 export const SHARE_MIN = 0.04;
-/** bisection steps on the share (log scale): SHARE_MAX / SHARE_MIN = 16, so 4 steps end within a factor 16^(1/16) = 1.19 */
+/** bisections of the share (log scale): SHARE_MAX / SHARE_MIN = 16, so 4 end within a factor 16^(1/16) = 1.19 */
 export const BISECTIONS = 4;
 /** shares of each of two extra charges */
 export const SHARES_TWO = [0.3, 0.1] as const;
