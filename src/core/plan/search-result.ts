@@ -107,7 +107,7 @@ export function searchReason(a: {
       ? `the advised order ${labels(base).join(', ')} with other gauges`
       : 'the sequence';
   return (
-    `${what} with the smallest predicted U (k = 2) of the ${n}: worst ` +
+    `${what}: the smallest predicted U (k = 2) of the ${n}, worst ` +
     `${relPct(win.worst!.relative)} (${quantity(win.worst!.name)}) instead of ` +
     `${relPct(base.worst!.relative)} (${quantity(base.worst!.name)}) for the advised order ` +
     `${labels(base).join(', ')}; ${safety}`
