@@ -293,10 +293,10 @@ export function reviewIfPromising(
   firstOnly: boolean,
   toBeat: number,
 ): Evaluated | 'hopeless' | undefined {
+  if (temperatureBound(ctx, candidate) >= toBeat) return 'hopeless';
   const charges = chargesOf(ctx, candidate);
   const steps = buildSteps(ctx, charges);
   if (!steps) return undefined;
-  if (temperatureBound(ctx, steps) >= toBeat) return 'hopeless';
   ctx.stats.reviewed++;
   const safety = screen(ctx, steps, firstOnly);
   return { candidate, charges, steps, safety, gauges: steps.steps.map((s) => s.gauge?.id) };
@@ -343,24 +343,36 @@ export function regauged(
  * rectangular: u_T^2 = d^2/12 + s^2/3, as predict.ts counts them; GUM 5.1.2, uncorrelated inputs
  * add in quadrature, so leaving the other inputs out can only lower u). A fuel or oxidizer filled
  * in one charge k is the difference of the amounts read before and after it, n_s = n_k - n_k-1,
- * and a reading's amount moves by -n dT/T (ideal gas), so
+ * and a reading's amount moves by -n dT/T (n = P V / (Z R T) at the reading P), so
  *   u(x_s)/x_s >= (u_T/T) sqrt(n_k^2 + n_k-1^2) / n_s          (k not the last charge),
- *   u(x_s)/x_s >= (u_T/T) sqrt(2) n_k-1 / n_s                  (k the last: n_k is the total).
- * Amounts from the readings P/T (ideal gas; times 0.95 for the real-gas and impurity margin).
+ *   u(x_s)/x_s >= (u_T/T) sqrt(2) n_k-1 / n_s                  (k the last: n_k is the total);
+ * times 0.95 for the temperature dependence of Z and the impurities. From the amounts alone: no
+ * steps are planned for it.
  */
-export function temperatureBound(ctx: SearchContext, planned: PlanSteps): number {
-  const { thermometer: th, basis } = ctx;
+export function temperatureBound(ctx: SearchContext, candidate: readonly CandidateCharge[]): number {
+  const { thermometer: th, basis, amounts } = ctx;
   const uT = Math.sqrt(th.resolutionK ** 2 / 12 + th.settlingK ** 2 / 3) / basis.temperatureK;
-  const steps = planned.steps;
+  const amountOf = new Map(basis.input.sources.map((s, i) => [s, amounts.allocation.amountsMol[i]]));
+  const once = (s: GasSource) => candidate.filter((c) => c.source === s).length === 1;
+  let cum = basis.initial?.amountMol ?? 0;
   let bound = 0;
-  steps.forEach((s, k) => {
-    const sp = s.source.mainSpecies;
-    if (s.charge.of !== 1 || !(basis.input.design.composition[sp] > 0) || speciesRole(sp) === 'inert') return;
-    const before = k > 0 ? steps[k - 1].targetPa : (basis.initial?.pressurePa ?? 0);
-    const d = s.targetPa - before;
-    if (!(d > 0)) return;
-    const spread = k === steps.length - 1 ? Math.SQRT2 * before : Math.hypot(s.targetPa, before);
+  candidate.forEach(({ source, share }, k) => {
+    const before = cum;
+    cum +=
+      share === undefined
+        ? (amountOf.get(source) ?? 0) * (once(source) ? 1 : 1 - sharesOf(candidate, source))
+        : share * (amountOf.get(source) ?? 0);
+    const sp = source.mainSpecies;
+    const d = cum - before;
+    if (!once(source) || !(basis.input.design.composition[sp] > 0) || speciesRole(sp) === 'inert' || !(d > 0))
+      return;
+    const spread = k === candidate.length - 1 ? Math.SQRT2 * before : Math.hypot(cum, before);
     bound = Math.max(bound, (0.95 * 2 * uT * spread) / d);
   });
   return bound;
+}
+
+/** the shares of a source's split charges, summed */
+function sharesOf(candidate: readonly CandidateCharge[], source: GasSource): number {
+  return candidate.reduce((a, c) => a + (c.source === source ? (c.share ?? 0) : 0), 0);
 }

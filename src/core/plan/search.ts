@@ -35,8 +35,6 @@ import type { Charge, PlanSequence } from './sequence.js';
 import { gaugeAlternatives, withGauges } from './search-gauges.js';
 import type { PlanSteps } from './steps.js';
 import {
-  buildSteps,
-  chargesOf,
   notLessSafe,
   predicted,
   reviewIfPromising,
@@ -204,9 +202,30 @@ function sweepTwo(a: SweepArgs, st: Structure): Swept {
   return { st, best: safe && predicted(a.ctx, safe) };
 }
 
+/**
+ * the share of u^2 of the worst row that the gauges carry (span, zero, resolution, barometer):
+ * what another head for a reading can change
+ */
+function gaugeShare(ev: Evaluated): number {
+  const p = ev.prediction;
+  const row = p?.rows.find((r) => r.name === ev.worst?.name);
+  const cs = row?.stat.contributions;
+  if (!p || !row || !cs || !(row.stat.u > 0)) return 0;
+  let sum = 0;
+  cs.forEach((c, i) => {
+    const kind = p.result.components[i].about.kind;
+    if (kind === 'span' || kind === 'zero' || kind === 'resolution' || kind === 'barometer') sum += c * c;
+  });
+  return sum / (row.stat.u * row.stat.u);
+}
+
+/** gauges are searched only when they carry at least this share of the worst row's u^2 */
+export const GAUGE_SHARE_MIN = 0.2;
+
 /** coordinate descent over the gauge of each reading (a second pass only after a change) */
 function tuneGauges(ctx: SearchContext, ev: Evaluated): Evaluated {
   let best = ev;
+  if (gaugeShare(ev) < GAUGE_SHARE_MIN) return best;
   const alternatives = gaugeAlternatives(ctx.basis, ev.steps.steps, true);
   for (let pass = 0; pass < 2; pass++) {
     let improved = false;
@@ -292,21 +311,24 @@ interface Explored {
   readonly swept: readonly Swept[];
 }
 
+/**
+ * two extra charges are tried for 4 sources (MAX_PERMUTED): with 3, a second extra charge of the
+ * diluent has no second small fill to sit under; beyond 4 the structures are too many
+ */
+const twoExtra = (n: number) => n === MAX_PERMUTED;
+
 /** the structures, most promising first: by the lower bound of their smallest share (hopeless ones late) */
 function byPromise(ctx: SearchContext, sts: readonly Structure[]): Structure[] {
-  const keyed = sts.map((st) => {
-    const steps = buildSteps(
+  const keyed = sts.map((st) => ({
+    st,
+    bound: temperatureBound(
       ctx,
-      chargesOf(
-        ctx,
-        candidateOf(
-          st,
-          st.positions.map(() => SHARE_MIN),
-        ),
+      candidateOf(
+        st,
+        st.positions.map(() => SHARE_MIN),
       ),
-    );
-    return { st, bound: steps ? temperatureBound(ctx, steps) : Infinity };
-  });
+    ),
+  }));
   return keyed.sort((a, b) => a.bound - b.bound).map((k) => k.st);
 }
 
@@ -339,7 +361,7 @@ function explore(
   }
   const swept: Swept[] = [];
   const args: SweepArgs = { ctx, admissible, firstOnly, toBeat };
-  for (const st of byPromise(ctx, structures(all, split, basis.input.sources.length <= MAX_PERMUTED))) {
+  for (const st of byPromise(ctx, structures(all, split, twoExtra(basis.input.sources.length)))) {
     ctx.stats.structures++;
     const sw = sweep(args, st);
     swept.push(sw);
