@@ -1,7 +1,8 @@
 // Re-check throughput, bundled into dist/bench-check.mjs by scripts/build.mjs and run by scripts/bench.mjs:
 //  1. the Monte Carlo re-check of a 4-gas batch with 1e6 trials (in-process wall time);
 //  2. writes a folder of 1000 batch logs for the folder re-check that bench.mjs times as a cold command;
-//  3. ('equilibrium') the time per state of the closed-vessel equilibrium and of the CJ detonation state.
+//  3. ('equilibrium') the time per state of the closed-vessel equilibrium and of the CJ detonation state;
+//  4. ('search') the size and time of the sequence search of each demo recipe and of a 5-source design.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { chapmanJouguet, equilibriumUV, planFill } from '../src/core/index.js';
@@ -9,7 +10,10 @@ import { evaluateUncertaintyParallel } from '../src/io/parallel-mc.js';
 import { buildPlanRequest, loadLab } from '../src/io/load.js';
 import { appendEvent, createLog } from '../src/io/batch-log.js';
 import { headerFromPlan } from '../src/io/check.js';
-import { validateRecipeObject } from '../src/io/load.js';
+import { readRecipe, validateRecipeObject, type RecipeSource } from '../src/io/load.js';
+import { validatePlanInput } from '../src/core/plan/validate.js';
+import { planAmounts } from '../src/core/plan/amounts.js';
+import { searchSequence } from '../src/core/plan/search.js';
 
 const recipe = validateRecipeObject(
   {
@@ -109,4 +113,59 @@ if (mode === 'equilibrium') {
   const uv = time((y, p) => equilibriumUV(y, 298.15, p), 20);
   const cj = time((y, p) => chapmanJouguet(y, 298.15, p), 3);
   console.log(JSON.stringify({ uv, cj }));
+}
+if (mode === 'search') {
+  // the sequence search (src/core/plan/search.ts) of each demo recipe and of a 5-source design:
+  // its size (structures, candidates reviewed and predicted, distinct fill reviews) and its time in
+  // this process, the first call (cold: the code not yet compiled) and the median of 3 more
+  const designs: [string, RecipeSource][] = [
+    ...['ch4-o2-ar-phi1', 'c2h4-o2-ar-phi05', 'nc7h16-o2-ar', 'ng-blend-air'].map(
+      (n): [string, RecipeSource] => [n, readRecipe(`recipes/${n}.yaml`)],
+    ),
+    [
+      '5 sources (CH4+H2, O2, Ar+He)',
+      {
+        recipe: validateRecipeObject(
+          {
+            id: 'bench-5',
+            tank: 'MT-2',
+            mixture: {
+              fuel: { CH4: 0.5, H2: 0.5 },
+              oxidizer: 'O2',
+              diluent: { Ar: 0.5, He: 0.5 },
+              phi: 0.5,
+              dilution: 0.9,
+            },
+            pressure: '1500 Torr',
+            temperature: '22 degC',
+          },
+          'bench',
+          () => ({}),
+        ),
+        locate: () => ({}),
+        baseDir: process.cwd(),
+        origin: 'bench',
+      },
+    ],
+  ];
+  const out = designs.map(([name, rs]) => {
+    const r = buildPlanRequest(rs);
+    const basis = validatePlanInput(r.input);
+    const amounts = planAmounts(basis);
+    const run = () => {
+      const t0 = performance.now();
+      const s = searchSequence(basis, amounts, r.input.thermometer!);
+      return { s, ms: performance.now() - t0 };
+    };
+    const first = run();
+    const warm = [run(), run(), run()].map((x) => x.ms).sort((a, b) => a - b)[1];
+    const order = first.s.charges
+      .map(
+        (c) =>
+          `${c.source.mainSpecies}${c.stopPa === undefined ? '' : `@${(c.stopPa / (101325 / 760)).toFixed(1)} Torr`}`,
+      )
+      .join(' -> ');
+    return { name, ...first.s.stats, firstMs: first.ms, warmMs: warm, order };
+  });
+  console.log(JSON.stringify(out));
 }

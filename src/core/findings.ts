@@ -5,6 +5,7 @@
 
 import { VIRIAL_U } from './mixture-eos.js';
 import { describePredictedOver } from './predict-words.js';
+import { describePreciseOption, describeSequenceChosen } from './search-words.js';
 import type { ComponentAbout } from './uncertainty.js';
 import { TWO_STAGE_WORDING } from './two-stage-words.js';
 
@@ -217,6 +218,38 @@ export type Finding = Base &
         readonly twoStageWorst: number;
         /** the command (or option) that plans it */
         readonly command: string;
+      }
+    // raised by the sequence search (plan/search.ts)
+    | {
+        readonly code: 'sequence-chosen';
+        /** the design fraction whose U the chosen sequence improved (the advised order's worst) */
+        readonly species: string;
+        /** the fill that delivers it, its reading (absolute) and gauge in the chosen sequence */
+        readonly source: string;
+        readonly readingPa: number;
+        readonly gauge: string;
+        /** U (k = 2) of the fraction relative to its design value, chosen and advised order */
+        readonly relativeU: number;
+        readonly baselineReadingPa: number;
+        readonly baselineGauge: string;
+        readonly baselineRelativeU: number;
+        /** the advised single-charge order, by fill label */
+        readonly baselineOrder: readonly string[];
+        /** the largest relative U of the design fractions and phi, chosen and advised order */
+        readonly worst: string;
+        readonly worstRelativeU: number;
+        readonly baselineWorst: string;
+        readonly baselineWorstRelativeU: number;
+      }
+    | {
+        readonly code: 'precise-sequence-hazard';
+        /** the charges in fill order: fill label, and the stop reading of a charge that is not its source's last */
+        readonly charges: readonly { readonly label: string; readonly stopPa?: number }[];
+        readonly worst: string;
+        readonly worstRelativeU: number;
+        readonly toleranceRelative: number;
+        /** the hazards it passes (dangers and warnings), by code and step */
+        readonly hazards: readonly { readonly code: string; readonly step?: number }[];
       }
   );
 
@@ -715,6 +748,12 @@ const SPLIT: WordingTable<'split-point-chosen'> = {
     ` - do not stop this charge lower, and give the stop after "@" to set it yourself`,
 };
 
+/** raised by the sequence search (plan/search.ts) */
+const SEARCH: WordingTable<'sequence-chosen' | 'precise-sequence-hazard'> = {
+  'sequence-chosen': describeSequenceChosen,
+  'precise-sequence-hazard': describePreciseOption,
+};
+
 const WORDING: WordingTable<FindingCode> = {
   'predicted-u-over-tolerance': describePredictedOver,
   'premix-in-place': describePremixInPlace,
@@ -728,6 +767,7 @@ const WORDING: WordingTable<FindingCode> = {
   ...ORDER,
   ...SPLIT,
   ...TWO_STAGE_WORDING,
+  ...SEARCH,
 };
 
 /** a finding in one sentence: what, the numbers behind it, what to do */

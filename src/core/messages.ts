@@ -51,6 +51,9 @@ const sentence = (reason: string): string =>
 export function describeProblem(p: Problem): string {
   // raised by the planner: its typed variants share a few codes, told apart by `kind`
   if (isPlannerProblem(p)) return describePlannerProblem(p);
+  // raised by the planner's split charges, and by two-stage preparation
+  if (p.code === 'charges-invalid' || p.code === 'split-stop') return describeChargeProblem(p);
+  if (p.code === 'two-stage-refused') return describeTwoStageProblem(p, describeProblem);
   switch (p.code) {
     case 'unknown-species':
       return (
@@ -141,13 +144,6 @@ export function describeProblem(p: Problem): string {
     case 'withdraw-not-last':
     case 'reading-missing':
       return describeLogProblem(p);
-    // raised by the planner's split charges
-    case 'charges-invalid':
-    case 'split-stop':
-      return describeChargeProblem(p);
-    // raised by two-stage preparation
-    case 'two-stage-refused':
-      return describeTwoStageProblem(p, describeProblem);
     // raised by the command line and recipe files
     default:
       return describeCommandLineProblem(p);

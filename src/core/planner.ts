@@ -15,6 +15,7 @@ import { planSequence } from './plan/sequence.js';
 import { planSteps } from './plan/steps.js';
 import { reviewPlan } from './plan/review.js';
 import { planResult } from './plan/result.js';
+import { searchedGauges } from './plan/search.js';
 import type { Plan, PlanInput } from './plan/types.js';
 
 export type {
@@ -35,7 +36,8 @@ export function planFill(input: PlanInput): Plan {
   const basis = validatePlanInput(input);
   const amounts = planAmounts(basis);
   const sequence = planSequence(basis, amounts);
-  const steps = planSteps(basis, amounts, sequence);
+  // the gauges the sequence search chose for the readings (none without a search)
+  const steps = searchedGauges(basis, planSteps(basis, amounts, sequence), sequence);
   const review = reviewPlan(basis, amounts, sequence, steps);
   return planResult(basis, amounts, sequence, steps, review);
 }

@@ -31,6 +31,7 @@ import {
 } from '../core/index.js';
 import { checkPlausibleVolume, parseLength, parseQuantity } from './quantity.js';
 import { labSchema, type LabFile } from './lab.js';
+import { predictionThermometer } from './plan-predict.js';
 import { recipeSchema, type RecipeFile } from './recipe.js';
 import { keysAt, validate } from './schema-util.js';
 import { readYamlFile, type DataPath, type YamlSource } from './yaml-file.js';
@@ -779,6 +780,7 @@ export function buildPlanRequest(
       barometricUncertaintyPa: lab.barometricUncertaintyPa,
     },
     tolerance: { relative: r.tolerance?.relative ?? 0.005, absolute: r.tolerance?.absolute ?? 0 },
+    thermometer: predictionThermometer(lab.thermometer),
   };
   return {
     input,

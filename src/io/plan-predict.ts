@@ -27,18 +27,24 @@ export function settlingOf(t: { readonly settlingK?: number } | undefined): numb
   return t?.settlingK ?? DEFAULT_TEMPERATURE_SETTLING_K;
 }
 
+/**
+ * The thermometer the prediction (and the planner's sequence search, `PlanInput.thermometer`)
+ * uses: the lab profile's, else DEFAULT_THERMOMETER, with its settling value or our default.
+ */
+export function predictionThermometer(
+  t: { readonly uncertaintyK: number; readonly resolutionK: number; readonly settlingK?: number } | undefined,
+): PredictionInput['thermometer'] {
+  const used = t ?? DEFAULT_THERMOMETER;
+  return { uK: used.uncertaintyK, resolutionK: used.resolutionK, settlingK: settlingOf(t) };
+}
+
 /** the prediction's input from a plan request: the lab's instruments, the default settling value where none is given */
 export function predictionInput(plan: Plan, req: PlanRequest): PredictionInput {
-  const t = req.lab.thermometer ?? DEFAULT_THERMOMETER;
   return {
     plan,
     gauges: req.input.gauges,
     reading: req.input.reading,
-    thermometer: {
-      uK: t.uncertaintyK,
-      resolutionK: t.resolutionK,
-      settlingK: settlingOf(req.lab.thermometer),
-    },
+    thermometer: predictionThermometer(req.lab.thermometer),
   };
 }
 

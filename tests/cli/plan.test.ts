@@ -31,9 +31,11 @@ describe('mixwright plan', () => {
     expect(r.stderr).toBe('');
     expect(r.stdout).toContain('Fill plan  ch4-phi1-ar98');
     expect(r.stdout).toMatch(/1\s+CH4\s+cyl-CH4\s+head-1kT\s+10\.01 Torr/);
+    // the sequence search's choice: the Ar split so that O2 is read on the 1000 Torr head
     expect(r.stdout).toContain(
-      'CH4 -> Ar -> O2  (recommended: keeps every intermediate tank state and every fill path out of the flammable region',
+      'CH4 -> Ar -> O2 -> Ar  (recommended: the sequence: the smallest predicted U (k = 2) of the',
     );
+    expect(r.stdout).toMatch(/every intermediate tank state and every fill path is non-flammable/);
     expect(r.stdout).toContain('Caution: This plan is an engineering estimate');
     // cross coefficients: all three pairs are in the reference mixture-model table (CoolProp 8.0.0:
     // Kunz-JCED-2012 for CH4-O2 and CH4-Ar, Gernert-Thesis-2013 for O2-Ar); B_mix as printed in --json

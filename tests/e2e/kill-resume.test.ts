@@ -34,7 +34,9 @@ describe.runIf(hasTmux || required)('SIGKILL between readings, many times over',
         const typed = new Map<number, number>();
         let confirmed = 0;
         let stalled = false;
-        t.start(`node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --batch k${b} --dir batches`);
+        t.start(
+          `node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --order CH4,Ar,O2 --batch k${b} --dir batches`,
+        );
         for (let round = 0; round < 12 && confirmed < 3; round++) {
           const s = await t.waitFor(/fill (\d) of 3/);
           const step = Number(/fill (\d) of 3/.exec(s)![1]);

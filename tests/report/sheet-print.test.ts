@@ -44,10 +44,11 @@ function topUpRecipe(): string {
   return f;
 }
 
+// the three-fill order the advice gives (the sequence search would split the Ar): the barometer rule per reading
 describe('the barometric pressure behind gauge-referenced targets', () => {
   it('plan says which value its gauge-referenced targets assume, and --json carries it', async () => {
     const lab = gaugeRefLab();
-    const t = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--lab', lab]);
+    const t = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--order', 'CH4,Ar,O2', '--lab', lab]);
     expect(t.code, t.stderr).toBe(0);
     expect(t.stdout).toMatch(
       /Barometer {3}760\.00 Torr assumed by the gauge-referenced readings of fill 2, 3 \(lab profile value, not today's: give --barometer\)/,
@@ -57,6 +58,8 @@ describe('the barometric pressure behind gauge-referenced targets', () => {
         await runCli([
           'plan',
           'recipes/ch4-o2-ar-phi1.yaml',
+          '--order',
+          'CH4,Ar,O2',
           '--lab',
           lab,
           '--json',
@@ -77,6 +80,8 @@ describe('the barometric pressure behind gauge-referenced targets', () => {
     const at760 = await runCli([
       'sheet',
       'recipes/ch4-o2-ar-phi1.yaml',
+      '--order',
+      'CH4,Ar,O2',
       '--lab',
       lab,
       '--format',
@@ -103,6 +108,8 @@ describe('the barometric pressure behind gauge-referenced targets', () => {
         await runCli([
           'plan',
           'recipes/ch4-o2-ar-phi1.yaml',
+          '--order',
+          'CH4,Ar,O2',
           '--lab',
           lab,
           '--json',
@@ -117,6 +124,8 @@ describe('the barometric pressure behind gauge-referenced targets', () => {
     const given = await runCli([
       'sheet',
       'recipes/ch4-o2-ar-phi1.yaml',
+      '--order',
+      'CH4,Ar,O2',
       '--lab',
       lab,
       '--format',

@@ -56,7 +56,8 @@ describe('diagram geometry', () => {
   it('the fill path has one point per tank state, at its N2-equivalent coordinates', () => {
     const { plan } = demoSheet();
     const d = diagramData(plan)!;
-    expect(d.path.map((p) => p.label)).toEqual(['1', '2', '3']);
+    // one point per fill (the demo's recommended sequence splits the Ar charge: four fills)
+    expect(d.path.map((p) => p.label)).toEqual(plan.steps.map((s) => String(s.index)));
     const p3 = diagramPoint(plan.steps[2].compositionAfter).point;
     expect(d.path[2].fuel).toBe(p3.fuel);
     expect(d.path[2].oxygen).toBe(p3.oxygen);
@@ -158,6 +159,9 @@ describe.runIf((chromium && hasPoppler) || required)('the HTML sheet in a real b
           'dist/mixwright.mjs',
           'sheet',
           'recipes/ch4-o2-ar-phi1.yaml',
+          // the three-fill order the advice gives, whose readings the checks below name
+          '--order',
+          'CH4,Ar,O2',
           '--batch',
           'demo-001',
           '--format',

@@ -12,7 +12,11 @@ function header(pressure?: string, edit: (r: Record<string, unknown>) => Record<
   const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
   const req = buildPlanRequest({
     ...rs,
-    recipe: edit(rs.recipe as unknown as Record<string, unknown>) as unknown as typeof rs.recipe,
+    // the three-fill order the advice gives (the sequence search would split the Ar): the reducer's cases name its steps
+    recipe: edit({
+      ...(rs.recipe as unknown as Record<string, unknown>),
+      order: ['CH4', 'Ar', 'O2'],
+    }) as unknown as typeof rs.recipe,
   });
   const input = pressure ? { ...req.input, finalPressurePa: Number(pressure) } : req.input;
   const plan = planFill(input);

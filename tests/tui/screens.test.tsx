@@ -20,9 +20,14 @@ async function until(cond: () => boolean, what: string, ms = 5000): Promise<void
   }
 }
 
+/** the demo recipe in the three-fill order the advice gives (the sequence search would split the Ar) */
+function threeFills(rs: ReturnType<typeof readRecipe>): ReturnType<typeof readRecipe> {
+  return { ...rs, recipe: { ...rs.recipe, order: ['CH4', 'Ar', 'O2'] } };
+}
+
 /** the guided fill of the demo recipe, its log events handed to write */
 function startDemoFill(write: (e: NewLogEvent) => void) {
-  const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+  const req = buildPlanRequest(threeFills(readRecipe('recipes/ch4-o2-ar-phi1.yaml')));
   const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
   return render(<FillApp initial={initialState(setupFromHeader(h))} write={write} logFile="b1.jsonl" />);
 }
@@ -121,7 +126,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     const { tmpdir } = await import('node:os');
     const { createLog, appendEvent, readLog } = await import('../../src/io/batch-log.js');
     const { checkLog } = await import('../../src/io/check.js');
-    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const req = buildPlanRequest(threeFills(readRecipe('recipes/ch4-o2-ar-phi1.yaml')));
     const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
     const file = join(mkdtempSync(join(tmpdir(), 'mw-end-')), 'b1.jsonl');
     createLog(file, h);
@@ -167,7 +172,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     const { tmpdir } = await import('node:os');
     const { createLog, appendEvent, readLog } = await import('../../src/io/batch-log.js');
     const { checkLog } = await import('../../src/io/check.js');
-    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const req = buildPlanRequest(threeFills(readRecipe('recipes/ch4-o2-ar-phi1.yaml')));
     const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
     const file = join(mkdtempSync(join(tmpdir(), 'mw-danger-')), 'b1.jsonl');
     createLog(file, h);
@@ -211,7 +216,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
 
   it('Ctrl-C stops the fill and reports it to the shell (which exits 130)', async () => {
     let stopped = 0;
-    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const req = buildPlanRequest(threeFills(readRecipe('recipes/ch4-o2-ar-phi1.yaml')));
     const h = headerFromPlan(planFill(req.input), req, 'b1', 't');
     const ui = render(
       <FillApp

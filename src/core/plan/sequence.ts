@@ -16,6 +16,7 @@ import type { PlanBasis } from './validate.js';
 import type { PlanAmounts } from './amounts.js';
 import { chargeAmounts, checkCharges, type Charge } from './charges.js';
 import { chooseSplitPoints } from './split-point.js';
+import { searchSequence } from './search.js';
 
 export type { Charge } from './charges.js';
 
@@ -38,6 +39,9 @@ export function planSequence(basis: PlanBasis, amounts: PlanAmounts): PlanSequen
   if (input.charges) return givenCharges(basis, amounts);
   const findings: Finding[] = [];
   const single = (sources: readonly GasSource[]) => sources.map((source) => ({ source }));
+  // the sequence search (plan/search.ts), when the lab's thermometer lets it predict the uncertainty
+  if (input.order === 'recommend' && input.thermometer)
+    return searchSequence(basis, amounts, input.thermometer);
   if (input.order === 'recommend') {
     const advice = adviseOrder(input.sources, amountsMol, Pf, safety, inTank);
     if (advice.noSafeOrder)

@@ -60,6 +60,13 @@ export interface PlanInput {
   readonly gauges: readonly Gauge[];
   readonly reading: ReadingContext;
   readonly tolerance: Tolerance;
+  /**
+   * The lab's tank thermometer (standard uncertainty, display resolution, gas-thermometer
+   * difference left after settling, K): with it, a recommended order is chosen by the
+   * sequence search (plan/search.ts) for the smallest predicted U; without it, by the
+   * safety advice alone.
+   */
+  readonly thermometer?: { readonly uK: number; readonly resolutionK: number; readonly settlingK: number };
 }
 
 export interface GaugeAssignment {

@@ -1,0 +1,76 @@
+/**
+ * The wording of the sequence search's findings (plan/search.ts): why the chosen sequence
+ * won, with its reading and U beside the advised order's, and a more precise sequence that
+ * is offered but not recommended because of its hazard. Kept beside findings.ts so that it
+ * stays short.
+ */
+
+/** a relative size in per cent, two significant digits ("2.9 %", "0.45 %") */
+function relPct(x: number): string {
+  return `${Number((x * 100).toPrecision(2)).toString()} %`;
+}
+
+/** x(species) for a species key, phi as it is */
+const quantity = (name: string) => (name === 'phi' ? 'phi' : `x(${name})`);
+
+/** the fields of `sequence-chosen` the sentence uses */
+export interface SequenceChosen {
+  readonly species: string;
+  readonly source: string;
+  readonly readingPa: number;
+  readonly gauge: string;
+  readonly relativeU: number;
+  readonly baselineReadingPa: number;
+  readonly baselineGauge: string;
+  readonly baselineRelativeU: number;
+  readonly baselineOrder: readonly string[];
+  readonly worst: string;
+  readonly worstRelativeU: number;
+  readonly baselineWorst: string;
+  readonly baselineWorstRelativeU: number;
+}
+
+/**
+ * "O2 read at 410 Torr on head-1kT: U (k = 2) of x(O2) 0.4 % instead of 2.9 % (read at
+ * 1500 Torr on head-10kT in CH4 -> Ar -> O2, the advised single-charge order); ..."
+ */
+export function describeSequenceChosen(f: SequenceChosen, p: (pa: number) => string): string {
+  return (
+    `${f.source} read at ${p(f.readingPa)} on ${f.gauge}: U (k = 2) of ${quantity(f.species)} ` +
+    `${relPct(f.relativeU)} instead of ${relPct(f.baselineRelativeU)} (read at ` +
+    `${p(f.baselineReadingPa)} on ${f.baselineGauge} in ${f.baselineOrder.join(' -> ')}, the ` +
+    `advised single-charge order); the largest predicted U of the design fractions and phi is ` +
+    `${relPct(f.worstRelativeU)} (${quantity(f.worst)}) instead of ${relPct(f.baselineWorstRelativeU)} ` +
+    `(${quantity(f.baselineWorst)})`
+  );
+}
+
+/** the fields of `precise-sequence-hazard` the sentence uses */
+export interface PreciseOption {
+  readonly charges: readonly { readonly label: string; readonly stopPa?: number }[];
+  readonly worst: string;
+  readonly worstRelativeU: number;
+  readonly toleranceRelative: number;
+  readonly hazards: readonly { readonly code: string; readonly step?: number }[];
+}
+
+/** the order as --order takes it: fill labels, a split charge's stop reading after "@" */
+function orderText(f: PreciseOption, p: (pa: number) => string): string {
+  return f.charges.map((c) => (c.stopPa === undefined ? c.label : `${c.label}@${p(c.stopPa)}`)).join(',');
+}
+
+/**
+ * "no sequence as safe as the advised order meets the tolerance of 0.5 %; CH4 -> Ar -> O2 -> Ar
+ * does (...) but passes flammable-state (fill 3): ..."
+ */
+export function describePreciseOption(f: PreciseOption, p: (pa: number) => string): string {
+  const hazards = [
+    ...new Set(f.hazards.map((h) => (h.step === undefined ? h.code : `${h.code} (fill ${h.step})`))),
+  ].join(', ');
+  return (
+    `no sequence as safe as the advised order meets the tolerance of ${relPct(f.toleranceRelative)}; ` +
+    `${f.charges.map((c) => c.label).join(' -> ')} does (largest predicted U ${relPct(f.worstRelativeU)}, ` +
+    `${quantity(f.worst)}) but passes ${hazards}. It is not recommended; to fill it anyway, have ` +
+    `those states reviewed under your lab's rules and give the order "${orderText(f, p)}" (--order)`
+  );
+}

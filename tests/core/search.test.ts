@@ -1,0 +1,222 @@
+// The sequence search (src/core/plan/search.ts): orders, split diluent charges and gauge
+// assignments chosen by the predicted U (predict.ts, check's GUM budget) among the sequences the
+// safety review passes. The hazards and the budget themselves are checked against their
+// references in safety.test.ts, fill-path.test.ts and predict.test.ts; here the search's own
+// properties (never less safe, never less precise than the advised order, a true lower bound,
+// gauges that cover their readings) and its wording.
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import {
+  describeFinding,
+  designMixture,
+  planFill,
+  predictPlan,
+  pureCylinder,
+  type Finding,
+  type Plan,
+  type PlanInput,
+} from '../../src/core/index.js';
+import { countsAgainstSequence, notLessSafe, worstOf } from '../../src/core/plan/search-eval.js';
+import { gaugeAlternatives } from '../../src/core/plan/search-gauges.js';
+import { validatePlanInput } from '../../src/core/plan/validate.js';
+import { planAmounts } from '../../src/core/plan/amounts.js';
+import { searchSequence } from '../../src/core/plan/search.js';
+import { planSteps } from '../../src/core/plan/steps.js';
+import { gaugeTopAbsolutePa, canRead } from '../../src/core/gauges.js';
+import { GAUGES, READING } from './planner-input.js';
+import { TORR } from '../helpers.js';
+
+/** the demo lab's thermometer (invented instrument): 0.3 K, resolution 0.1 K, settling 0.05 K */
+const THERMO = { uK: 0.3, resolutionK: 0.1, settlingK: 0.05 } as const;
+
+const torr = (pa: number) => `${(pa / TORR).toFixed(2)} Torr`;
+
+function phiInput(a: {
+  fuel: string;
+  diluent: string;
+  phi: number;
+  dilution: number;
+  finalTorr: number;
+  order: readonly string[];
+}): PlanInput {
+  return {
+    design: designMixture({
+      kind: 'phi',
+      fuel: { [a.fuel]: 1 },
+      oxidizer: { O2: 1 },
+      diluent: { [a.diluent]: 1 },
+      phi: a.phi,
+      basis: { kind: 'dilution', value: a.dilution },
+    }),
+    finalPressurePa: a.finalTorr * TORR,
+    temperatureK: 298.15,
+    tank: { id: 'T', label: 'T', volumeM3: 0.01, ratedPressurePa: 4e5, workingFraction: 0.9 },
+    sources: a.order.map((s) => pureCylinder({ id: `cyl-${s}`, species: s, purity: 1 })),
+    order: 'recommend',
+    gauges: GAUGES,
+    reading: READING,
+    tolerance: { relative: 0.005, absolute: 0 },
+  };
+}
+
+/** the demo's shock-tube mixture: CH4/O2 phi 1 in 98 % Ar, 1500 Torr, 10 L, 25 degC */
+const DEMO = {
+  fuel: 'CH4',
+  diluent: 'Ar',
+  phi: 1,
+  dilution: 0.98,
+  finalTorr: 1500,
+  order: ['CH4', 'O2', 'Ar'],
+};
+
+/** danger, warning and note counts of the findings a sequence can change (as the search counts them) */
+function hazardCount(plan: Plan) {
+  const hs = plan.findings.filter(countsAgainstSequence);
+  const n = (s: Finding['severity']) => hs.filter((h) => h.severity === s).length;
+  return { danger: n('danger'), warning: n('warning'), note: n('note'), hazards: hs, complete: true };
+}
+
+const worst = (plan: Plan) =>
+  worstOf(predictPlan({ plan, gauges: GAUGES, reading: READING, thermometer: THERMO })!)!;
+
+describe('sequence search', () => {
+  it('property: never less safe, never less precise than the advised order (same model), random designs', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom('CH4', 'C2H4', 'H2'),
+        fc.constantFrom('Ar', 'N2'),
+        fc.double({ min: 0.3, max: 2, noNaN: true }),
+        fc.double({ min: 0.8, max: 0.99, noNaN: true }),
+        fc.double({ min: 300, max: 2000, noNaN: true }),
+        fc.shuffledSubarray(['F', 'O2', 'D'], { minLength: 3, maxLength: 3 }),
+        (fuel, diluent, phi, dilution, finalTorr, order) => {
+          const names = order.map((s) => (s === 'F' ? fuel : s === 'D' ? diluent : s));
+          const input = phiInput({ fuel, diluent, phi, dilution, finalTorr, order: names });
+          const advised = planFill(input);
+          const searched = planFill({ ...input, thermometer: THERMO });
+          // property: the advice's own ranking (dangers, then warnings, then notes), full review of both plans
+          expect(notLessSafe(hazardCount(searched), hazardCount(advised))).toBe(true);
+          // property: the advised order is one of the candidates, so the chosen one predicts no larger U
+          expect(worst(searched).relative).toBeLessThanOrEqual(worst(advised).relative * (1 + 1e-9));
+        },
+      ),
+      { numRuns: 8, seed: 14 },
+    );
+  }, 300_000);
+
+  it('the demo mixture: a split Ar charge reads O2 low, on the 1000 Torr head; the reason carries the numbers', () => {
+    const input = phiInput(DEMO);
+    const plan = planFill({ ...input, thermometer: THERMO });
+    const advised = planFill(input);
+    const labels = plan.steps.map((s) => s.species);
+    expect(labels).toEqual(['CH4', 'Ar', 'O2', 'Ar']);
+    const o2 = plan.steps[2];
+    expect(o2.gauge!.id).toBe('h1k');
+    expect(o2.targetPa).toBeLessThan(1000 * TORR);
+    // identity: the reason's "worst X % ... instead of Y %" are the predicted worst relative U of the
+    // chosen and the advised plan, to the two significant digits written
+    const m = /worst ([\d.]+) % \((x\(\w+\)|phi)\) instead of ([\d.]+) %/.exec(plan.orderReason);
+    expect(m).not.toBeNull();
+    expect(Number(m![1])).toBeCloseTo(Number((worst(plan).relative * 100).toPrecision(2)), 6);
+    expect(Number(m![3])).toBeCloseTo(Number((worst(advised).relative * 100).toPrecision(2)), 6);
+    // the note names the O2 reading (in the table's units), its gauge and both U
+    const won = plan.findings.find((f) => f.code === 'sequence-chosen');
+    expect(won).toBeDefined();
+    const text = describeFinding(won!, torr);
+    expect(text).toContain(`O2 read at ${torr(o2.targetPa)} on h1k`);
+    const u = (p: Plan) => {
+      const r = predictPlan({ plan: p, gauges: GAUGES, reading: READING, thermometer: THERMO })!.rows;
+      const row = r.find((x) => x.name === 'O2')!;
+      return `${Number(((row.expandedU / row.design) * 100).toPrecision(2))} %`;
+    };
+    expect(text).toContain(`U (k = 2) of x(O2) ${u(plan)} instead of ${u(advised)}`);
+  }, 120_000);
+
+  it('a more precise sequence through a flammable state is offered with its hazard, not recommended', () => {
+    const input = phiInput(DEMO);
+    const plan = planFill({ ...input, thermometer: THERMO });
+    // the recommended sequence: no danger or warning a sequence can change
+    expect(hazardCount(plan).danger + hazardCount(plan).warning).toBe(0);
+    const option = plan.findings.find((f) => f.code === 'precise-sequence-hazard');
+    expect(option).toBeDefined();
+    if (option?.code !== 'precise-sequence-hazard') return;
+    expect(option.hazards.map((h) => h.code)).toContain('flammable-state');
+    expect(option.worstRelativeU).toBeLessThanOrEqual(option.toleranceRelative);
+    const text = describeFinding(option, torr);
+    expect(text).toContain('not recommended');
+    expect(text).toMatch(/--order/);
+    // the option as the user would give it: the review finds its hazard and the prediction its U
+    const byId = new Map(input.sources.map((s) => [s.mainSpecies, s]));
+    const given = planFill({
+      ...input,
+      order: 'given',
+      charges: option.charges.map((c) => ({ source: byId.get(c.label)!, stopPa: c.stopPa })),
+    });
+    expect(given.findings.some((f) => f.code === 'flammable-state')).toBe(true);
+    expect(worst(given).relative).toBeCloseTo(option.worstRelativeU, 9);
+  }, 120_000);
+
+  it('property: the lower bound used for pruning never exceeds the predicted worst U', async () => {
+    const { temperatureBound } = await import('../../src/core/plan/search-eval.js');
+    fc.assert(
+      fc.property(fc.double({ min: 0.03, max: 0.9, noNaN: true }), (share) => {
+        const input = { ...phiInput(DEMO), thermometer: THERMO };
+        const basis = validatePlanInput(input);
+        const amounts = planAmounts(basis);
+        const [ch4, o2, ar] = input.sources;
+        const nAr = amounts.allocation.amountsMol[2];
+        // the stop reading after `share` of the Ar, from the planner's own charges (stop after CH4 + share Ar)
+        const probe = planSteps(basis, amounts, {
+          charges: [{ source: ch4 }, { source: ar }],
+          reason: '',
+          recommended: true,
+          findings: [],
+        });
+        const stopPa = probe.steps[0].targetPa + (probe.steps[1].targetPa - probe.steps[0].targetPa) * share;
+        const charges = [{ source: ch4 }, { source: ar, stopPa }, { source: o2 }, { source: ar }];
+        const steps = planSteps(basis, amounts, { charges, reason: '', recommended: true, findings: [] });
+        const ctx = { basis, amounts, thermometer: THERMO, cache: new Map(), stats: {} as never };
+        const plan = planFill({ ...input, order: 'given', charges });
+        // the same candidate as the search writes it: the split charge's share of the Ar
+        const candidate = [
+          { source: ch4 },
+          { source: ar, share: steps.steps[1].amountMol / nAr },
+          { source: o2 },
+          { source: ar },
+        ];
+        // property (GUM 5.1.2: independent inputs add in quadrature, so a subset gives a lower u)
+        expect(temperatureBound(ctx, candidate)).toBeLessThanOrEqual(worst(plan).relative);
+        expect(temperatureBound(ctx, candidate)).toBeGreaterThan(0);
+      }),
+      { numRuns: 6, seed: 3 },
+    );
+  }, 120_000);
+
+  it("property: every gauge assigned covers its reading and is still connected (isolation before a head's top)", () => {
+    const input = { ...phiInput(DEMO), thermometer: THERMO };
+    const basis = validatePlanInput(input);
+    const amounts = planAmounts(basis);
+    const seq = searchSequence(basis, amounts, THERMO);
+    const plan = planFill(input);
+    const alternatives = gaugeAlternatives(basis, plan.steps);
+    let highest = 0;
+    plan.steps.forEach((s, k) => {
+      highest = Math.max(highest, s.targetPa + s.bandPa);
+      const g = GAUGES.find((x) => x.id === s.gauge!.id)!;
+      expect(canRead(g, s.targetPa, READING) && canRead(g, s.targetPa + s.bandPa, READING)).toBe(true);
+      // a head closed off before an earlier step (its top below that step's band) is never used again
+      expect(gaugeTopAbsolutePa(g, READING)).toBeGreaterThanOrEqual(highest);
+      expect(alternatives[k].map((x) => x.id)).toContain(g.id);
+      expect(seq.gauges[k] === undefined || seq.gauges[k] === g.id).toBe(true);
+    });
+    // the search's size is reported (npm run bench prints it)
+    expect(seq.stats.reviewed).toBeGreaterThan(0);
+    expect(seq.stats.predicted).toBeGreaterThan(0);
+  }, 120_000);
+
+  it('without a thermometer the planner keeps the advice', () => {
+    const plan = planFill(phiInput(DEMO));
+    expect(plan.steps.map((s) => s.species)).toEqual(['CH4', 'Ar', 'O2']);
+    expect(plan.findings.some((f) => f.code === 'sequence-chosen')).toBe(false);
+  });
+});
