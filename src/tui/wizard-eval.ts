@@ -49,7 +49,10 @@ export function buildFromValues(v: Readonly<Record<FieldName, string>>, labFile?
   const locate = (path: readonly (string | number)[]) => ({ field: path.join('.') });
   const recipe = validateRecipeObject(raw, 'wizard', locate);
   const req = buildPlanRequest({ recipe, locate, baseDir: process.cwd(), origin: 'wizard' }, labFile);
-  return { recipe, req, plan: planWithPrediction(planFill(req.input), req) };
+  // the live preview plans in the advised order: the sequence search (hundreds of ms per design)
+  // runs when the saved recipe is planned, and the preview says so
+  const input = { ...req.input, thermometer: undefined };
+  return { recipe, req, plan: planWithPrediction(planFill(input), req) };
 }
 
 const NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
@@ -169,6 +172,7 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
     );
   }
   lines.push(...predictedShortLines(plan));
+  lines.push('order as advised; `mixwright plan` on the saved recipe may find a more precise safe sequence');
   const rank = { danger: 0, warning: 1, note: 2 } as const;
   const top = [...plan.findings]
     .filter((f) => f.severity !== 'note')
