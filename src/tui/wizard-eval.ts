@@ -44,14 +44,21 @@ export interface WizardBuild {
   readonly plan: Plan;
 }
 
-export function buildFromValues(v: Readonly<Record<FieldName, string>>, labFile?: string): WizardBuild {
+/**
+ * The recipe, request and plan of the wizard's values. `preview`: plan in the advised order
+ * without the sequence search (hundreds of ms per design; the live preview says so); the
+ * sheet and guided fill the wizard starts plan with the search, as `plan` does.
+ */
+export function buildFromValues(
+  v: Readonly<Record<FieldName, string>>,
+  labFile?: string,
+  preview = false,
+): WizardBuild {
   const raw = recipeFromValues(v);
   const locate = (path: readonly (string | number)[]) => ({ field: path.join('.') });
   const recipe = validateRecipeObject(raw, 'wizard', locate);
   const req = buildPlanRequest({ recipe, locate, baseDir: process.cwd(), origin: 'wizard' }, labFile);
-  // the live preview plans in the advised order: the sequence search (hundreds of ms per design)
-  // runs when the saved recipe is planned, and the preview says so
-  const input = { ...req.input, thermometer: undefined };
+  const input = preview ? { ...req.input, thermometer: undefined } : req.input;
   return { recipe, req, plan: planWithPrediction(planFill(input), req) };
 }
 
@@ -128,7 +135,7 @@ export function makeEvaluator(labFile?: string) {
     const early = fieldProblem(v, tankIds);
     if (early) return { error: early };
     try {
-      const { plan } = buildFromValues(v, labFile);
+      const { plan } = buildFromValues(v, labFile, true);
       return { preview: previewOf(plan) };
     } catch (e) {
       // not a problem the core words (a bug): say so rather than end the wizard with the design in it
@@ -172,7 +179,9 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
     );
   }
   lines.push(...predictedShortLines(plan));
-  lines.push('order as advised; `mixwright plan` on the saved recipe may find a more precise safe sequence');
+  lines.push(
+    'preview in the advised order; the sheet, the fill and `mixwright plan` search for a more precise safe sequence',
+  );
   const rank = { danger: 0, warning: 1, note: 2 } as const;
   const top = [...plan.findings]
     .filter((f) => f.severity !== 'note')
