@@ -35,11 +35,14 @@ export interface SequenceChosen {
  * 1500 Torr on head-10kT in CH4 -> Ar -> O2, the advised single-charge order); ..."
  */
 export function describeSequenceChosen(f: SequenceChosen, p: (pa: number) => string): string {
+  // phi and the dilution are not read at one fill: no reading to name
+  const read = f.gauge !== '-';
   return (
-    `${f.source} read at ${p(f.readingPa)} on ${f.gauge}: U (k = 2) of ${quantity(f.species)} ` +
-    `${relPct(f.relativeU)} instead of ${relPct(f.baselineRelativeU)} (read at ` +
-    `${p(f.baselineReadingPa)} on ${f.baselineGauge} in ${f.baselineOrder.join(' -> ')}, the ` +
-    `advised single-charge order); the largest predicted U of the design fractions and phi is ` +
+    (read ? `${f.source} read at ${p(f.readingPa)} on ${f.gauge}: ` : '') +
+    `U (k = 2) of ${quantity(f.species)} ${relPct(f.relativeU)} instead of ${relPct(f.baselineRelativeU)} (` +
+    (read && f.baselineGauge !== '-' ? `read at ${p(f.baselineReadingPa)} on ${f.baselineGauge} ` : '') +
+    `in ${f.baselineOrder.join(' -> ')}, the advised single-charge order); ` +
+    `the largest predicted U of the design fractions and phi is ` +
     `${relPct(f.worstRelativeU)} (${quantity(f.worst)}) instead of ${relPct(f.baselineWorstRelativeU)} ` +
     `(${quantity(f.baselineWorst)})`
   );

@@ -43,9 +43,18 @@ function improvedSpecies(win: Evaluated, base: Evaluated): string | undefined {
   return best?.name;
 }
 
-/** the last charge that delivers a species (its main gas), in a candidate's steps */
+/**
+ * The last charge that delivers a species, in a candidate's steps: a source whose main gas it
+ * is, else the source that carries the largest share of it (a premix); none for phi or dilution.
+ */
 function stepOf(ev: Evaluated, species: string): PlanStep | undefined {
-  return [...ev.steps.steps].reverse().find((s) => s.source.mainSpecies === species);
+  const steps = [...ev.steps.steps].reverse();
+  const main = steps.find((s) => s.source.mainSpecies === species);
+  if (main) return main;
+  let best: PlanStep | undefined;
+  for (const s of steps)
+    if ((s.source.composition[species] ?? 0) > (best?.source.composition[species] ?? 0)) best = s;
+  return best;
 }
 
 /** why the chosen sequence won, with its readings and U beside the advised order's */

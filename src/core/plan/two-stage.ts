@@ -214,16 +214,41 @@ function premixId(input: TwoStageInput): string {
   return `premix-${input.premixTank.id}`;
 }
 
+/** the batch's sources other than the gases the premix brings */
+function othersThan(input: TwoStageInput, choice: Pick<PremixChoice, 'species' | 'matched'>): GasSource[] {
+  const b = input.batch;
+  const dil = new Set(Object.keys(b.design.groups.diluent));
+  return b.sources.filter(
+    (s) => !choice.species.includes(s.mainSpecies) && !(choice.matched && dil.has(s.mainSpecies)),
+  );
+}
+
+/**
+ * The chosen batch planned again with the premix as stage 1 makes it (its uncertainty
+ * included): the draft's sequence search saw the premix as exact, so its choice and the
+ * numbers it states are redone with the source the prediction uses.
+ */
+function replanned(input: TwoStageInput, c: TwoStagePlan): TwoStagePlan {
+  const b = input.batch;
+  const plan = planFill({
+    ...b,
+    sources: [...othersThan(input, c.choice), c.source],
+    order: 'recommend',
+    charges: undefined,
+  });
+  const stage2 = predicted(plan, input);
+  const { check, findings } = premixDeliveryCheck(stage2, c.source, input.premixTank, c.choice.pressurePa);
+  const batch: PredictedPlan = { ...stage2, findings: [...stage2.findings, ...findings] };
+  return { ...c, batch, delivery: check, worstRatio: worstRatioOf(batch) };
+}
+
 function planBatchDraft(
   input: TwoStageInput,
   choice: Pick<PremixChoice, 'species' | 'matched'>,
   premixGas: { composition: Fractions; unidentified: number; pressurePa: number },
 ): BatchDraft {
   const b = input.batch;
-  const dil = new Set(Object.keys(b.design.groups.diluent));
-  const others = b.sources.filter(
-    (s) => !choice.species.includes(s.mainSpecies) && !(choice.matched && dil.has(s.mainSpecies)),
-  );
+  const others = othersThan(input, choice);
   const draft = premixSource({
     id: premixId(input),
     tank: input.premixTank.id,
@@ -418,10 +443,13 @@ export function planTwoStage(input: TwoStageInput, search: TwoStageSearch = 'ful
         }
       });
   if (!best) return fail({ code: 'two-stage-refused', kind: 'no-plan', tried, cause: refusal });
-  const chosen = best as TwoStagePlan;
+  let chosen = best as TwoStagePlan;
+  attempt(() => {
+    chosen = replanned(input, chosen);
+  });
   const p = precise as TwoStagePlan | undefined;
   const mostPrecise =
-    p && p !== chosen && p.worstRatio < chosen.worstRatio
+    p && p !== best && p.worstRatio < chosen.worstRatio
       ? {
           choice: p.choice,
           worstRatio: p.worstRatio,
