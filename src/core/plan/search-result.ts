@@ -113,10 +113,10 @@ export function searchReason(a: {
     : `as safe as the advised order (${win.safety.danger} danger, ${win.safety.warning} warning)`;
   const what =
     win.candidate === base.candidate
-      ? `the advised order ${labels(base).join(', ')} with other gauges`
-      : 'the sequence';
+      ? `the advised order ${labels(base).join(', ')}, read on other gauges,`
+      : 'this sequence';
   return (
-    `${what}: the smallest predicted U (k = 2) of the ${n}, worst ` +
+    `${what} has the smallest predicted U (k = 2) of the ${n}, worst ` +
     `${relPct(win.worst!.relative)} (${quantity(win.worst!.name)}) instead of ` +
     `${relPct(base.worst!.relative)} (${quantity(base.worst!.name)}) for the advised order ` +
     `${labels(base).join(', ')}; ${safety}`
