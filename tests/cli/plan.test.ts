@@ -33,7 +33,7 @@ describe('mixwright plan', () => {
     expect(r.stdout).toMatch(/1\s+CH4\s+cyl-CH4\s+head-1kT\s+10\.01 Torr/);
     // the sequence search's choice: the Ar split so that O2 is read on the 1000 Torr head
     expect(r.stdout).toContain(
-      'CH4 -> Ar -> O2 -> Ar  (recommended: this sequence has the smallest predicted U (k = 2) of the',
+      'CH4 -> Ar 1/2 -> O2 -> Ar 2/2  (recommended: this sequence has the smallest predicted U (k = 2) of the',
     );
     expect(r.stdout).toMatch(/every intermediate tank state and every fill path is non-flammable/);
     expect(r.stdout).toContain('Caution: This plan is an engineering estimate');
