@@ -68,7 +68,7 @@ export {
 export type { VirialModel, VirialEntry, VirialMethod, ThirdVirialPair } from './mixture-eos.js';
 export { cpMolar, enthalpyMolar, entropyMolar, gammaMixture, hasThermo, thermoRangeK } from './thermo.js';
 export { nnls } from './nnls.js';
-export type { NnlsResult } from './nnls.js';
+export type { NnlsResult, NnlsOptions } from './nnls.js';
 export { allocate, chooseSources, orderSources, premix, pureCylinder } from './supply.js';
 export type { Allocation, GasSource, SourceKind } from './supply.js';
 export { canRead, chooseGauge, gaugeReadingPa, gaugeTopAbsolutePa, readingUncertaintyPa } from './gauges.js';
