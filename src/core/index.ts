@@ -182,6 +182,7 @@ export { judge } from './verdict.js';
 export type { CheckVerdict, SpeciesDeviation, VerdictKind } from './verdict.js';
 export { retarget, ventBack } from './retarget.js';
 export type { Kept, RetargetInput, RetargetResult, VentBack } from './retarget.js';
+export type { RetargetCharge, RetargetStop } from './retarget.js';
 export { chapmanEnskogD, diffusionMixingTimeS, fullerD, neufeldOmegaD, slowestPair } from './diffusion.js';
 export type { PairDiffusion } from './diffusion.js';
 export { batchSizeFinding, experimentsServed, finalPressureForExperiments, sizingBasis } from './sizing.js';
