@@ -5,7 +5,9 @@
  * working limit is never passed. Solved as one weighted non-negative least-squares
  * problem in the amounts of the remaining fills, the weights 1e6 : 1e3 : 1 : 1e-3
  * (phi : dilution : total amount : each design fraction) standing in for the
- * strict priority order. Says which property had to give.
+ * strict priority order. Says which property had to give. A split source's charges share one
+ * column; a charge that is not its source's last is held at its stop reading (the split point is
+ * part of the plan's safety design), and a stop that cannot be kept is said with its numbers.
  */
 import type { Design } from './composition.js';
 import { equivalenceRatio } from './composition.js';
@@ -141,6 +143,12 @@ type Prediction = {
 const AIM_ITERATIONS = 8;
 const SCALE_HALVINGS = 60;
 
+/**
+ * The remaining targets after the readings done (module comment). A source filled in more than one
+ * charge needs `charges`: its charges share one column of the solve, a charge that is not its
+ * source's last keeps its stop reading where it can (`retargetHolding`), and its last charge takes
+ * the rest of its gas. Throws a RangeError for charges that do not match the fills.
+ */
 export function retarget(input: RetargetInput): RetargetResult {
   checkCharges(input);
   const k = nextStop(input);
@@ -148,7 +156,7 @@ export function retarget(input: RetargetInput): RetargetResult {
 }
 
 /** the re-target with every remaining fill free (no stop of a charge ahead), and its problem and amounts */
-function retargetFree(input: RetargetInput): { result: RetargetResult; pr: RetargetProblem; a: number[] } {
+function retargetFree(input: RetargetInput): { result: RetargetResult; pr: RetargetProblem } {
   const pr = retargetProblem(input);
   const { rest, T } = pr;
   const limit = input.workingLimitPa;
@@ -175,7 +183,7 @@ function retargetFree(input: RetargetInput): { result: RetargetResult; pr: Retar
     message,
     stops: [],
   };
-  return { result, pr, a };
+  return { result, pr };
 }
 
 /** a source in more than one remaining fill needs the charges, and each charge but the last its stop */
