@@ -69,7 +69,7 @@ export {
 export type { VirialModel, VirialEntry, VirialMethod, ThirdVirialPair } from './mixture-eos.js';
 export { cpMolar, enthalpyMolar, entropyMolar, gammaMixture, hasThermo, thermoRangeK } from './thermo.js';
 export { nnls } from './nnls.js';
-export type { NnlsResult } from './nnls.js';
+export type { NnlsResult, NnlsOptions } from './nnls.js';
 export {
   allocate,
   chooseSources,
@@ -192,6 +192,7 @@ export { judge } from './verdict.js';
 export type { CheckVerdict, SpeciesDeviation, VerdictKind } from './verdict.js';
 export { retarget, ventBack } from './retarget.js';
 export type { Kept, RetargetInput, RetargetResult, VentBack } from './retarget.js';
+export type { RetargetCharge, RetargetStop } from './retarget.js';
 export { chapmanEnskogD, diffusionMixingTimeS, fullerD, neufeldOmegaD, slowestPair } from './diffusion.js';
 export type { PairDiffusion } from './diffusion.js';
 export { batchSizeFinding, experimentsServed, finalPressureForExperiments, sizingBasis } from './sizing.js';

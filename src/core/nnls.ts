@@ -44,7 +44,36 @@ export interface NnlsResult {
   readonly residualNorm: number;
 }
 
-export function nnls(A: readonly (readonly number[])[], b: readonly number[], maxIter = 200): NnlsResult {
+/**
+ * How a column's gradient is judged positive (the test that lets a column into the passive set).
+ * 'largest-entry' (the default): above 1e-12 x max|b| x max|A|, one threshold for every column.
+ * 'per-column': above the rounding noise of that column's own gradient, 1e3 x eps x
+ * sum_i |A_ij| (|b_i| + sum_k |A_ik x_k|) (the floating-point error bound of A_j^T (b - A x)); for
+ * rows weighted over many orders of magnitude (a priority order written as weights), where one
+ * threshold set by the heaviest row hides the gradients of the lighter rows.
+ */
+export interface NnlsOptions {
+  readonly gradientTest?: 'largest-entry' | 'per-column';
+}
+
+/** the rounding-noise bound of each column's gradient at x (NnlsOptions 'per-column') */
+function gradientNoise(
+  A: readonly (readonly number[])[],
+  b: readonly number[],
+  x: readonly number[],
+): number[] {
+  const rowNoise = A.map((row, i) => Math.abs(b[i]) + row.reduce((s, a, k) => s + Math.abs(a * x[k]), 0));
+  return x.map(
+    (_, j) => 1e3 * Number.EPSILON * A.reduce((s, row, i) => s + Math.abs(row[j]) * rowNoise[i], 0),
+  );
+}
+
+export function nnls(
+  A: readonly (readonly number[])[],
+  b: readonly number[],
+  maxIter = 200,
+  options: NnlsOptions = {},
+): NnlsResult {
   const n = A[0]?.length ?? 0;
   const x = new Array<number>(n).fill(0);
   const passive = new Set<number>();
@@ -56,8 +85,10 @@ export function nnls(A: readonly (readonly number[])[], b: readonly number[], ma
   const tol = 1e-12 * scale * Math.max(1, ...A.flat().map(Math.abs));
   for (let iter = 0; iter < maxIter; iter++) {
     const w = grad();
+    const tols = options.gradientTest === 'per-column' ? gradientNoise(A, b, x) : undefined;
     let best = -1;
-    for (let j = 0; j < n; j++) if (!passive.has(j) && w[j] > tol && (best < 0 || w[j] > w[best])) best = j;
+    for (let j = 0; j < n; j++)
+      if (!passive.has(j) && w[j] > (tols?.[j] ?? tol) && (best < 0 || w[j] > w[best])) best = j;
     if (best < 0) break;
     passive.add(best);
     for (;;) {

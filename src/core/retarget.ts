@@ -5,7 +5,9 @@
  * working limit is never passed. Solved as one weighted non-negative least-squares
  * problem in the amounts of the remaining fills, the weights 1e6 : 1e3 : 1 : 1e-3
  * (phi : dilution : total amount : each design fraction) standing in for the
- * strict priority order. Says which property had to give.
+ * strict priority order. Says which property had to give. A split source's charges share one
+ * column; a charge that is not its source's last is held at its stop reading (the split point is
+ * part of the plan's safety design), and a stop that cannot be kept is said with its numbers.
  */
 import type { Design } from './composition.js';
 import { equivalenceRatio } from './composition.js';
@@ -43,6 +45,30 @@ export interface RetargetInput {
   readonly ventFactor?: number;
   /** words a pressure in the message (default: Pa) */
   readonly formatPressure?: (pressurePa: number) => string;
+  /**
+   * the charge of each fill, in the order of `sources` (needed when a source is filled in more
+   * than one charge): a charge that is not its source's last carries its stop reading (absolute,
+   * at the fill temperature, Pa), which the re-target keeps where it can (see `retarget`)
+   */
+  readonly charges?: readonly RetargetCharge[];
+}
+
+/** charge `number` of the `of` charges of a fill's source; `stopPa` on every charge but the last */
+export interface RetargetCharge {
+  readonly number: number;
+  readonly of: number;
+  readonly stopPa?: number;
+}
+
+/** a stop reading of a charge still ahead: kept, or not (and why) */
+export interface RetargetStop {
+  /** 1-based step of the charge */
+  readonly step: number;
+  readonly stopPa: number;
+  /** the tank pressure the re-targeted fills reach before this charge, Pa */
+  readonly beforePa: number;
+  /** passed: the tank is past the stop before the charge; limit: the stop is at or above the working limit */
+  readonly kept: true | 'passed' | 'limit';
 }
 
 export type Kept = 'phi' | 'dilution' | 'pressure';
@@ -67,6 +93,8 @@ export interface RetargetResult {
   /** tank pressure now (after the readings, and the vent if any), at the fill temperature, Pa */
   readonly nowPa: number;
   readonly message: string;
+  /** the stops of the charges still ahead that are not their source's last, in fill order */
+  readonly stops: readonly RetargetStop[];
 }
 
 const W_LIMIT = 1e9;
@@ -87,7 +115,13 @@ interface RetargetProblem {
   /** molar density in the tank now, mol/m^3 */
   readonly rhoNow: number;
   readonly rest: readonly GasSource[];
-  /** the species amounts one mole of each remaining fill adds */
+  /**
+   * the distinct sources of the remaining fills (the charges of one source share one column: their
+   * columns would be equal), and the column of each remaining fill
+   */
+  readonly cols: readonly GasSource[];
+  readonly colOf: readonly number[];
+  /** the species amounts one mole of each column's source adds */
   readonly w: readonly Float64Array[];
   /** target total amount at the design pressure, with the design composition, mol */
   readonly Ntarget: number;
@@ -109,7 +143,20 @@ type Prediction = {
 const AIM_ITERATIONS = 8;
 const SCALE_HALVINGS = 60;
 
+/**
+ * The remaining targets after the readings done (module comment). A source filled in more than one
+ * charge needs `charges`: its charges share one column of the solve, a charge that is not its
+ * source's last keeps its stop reading where it can (`retargetHolding`), and its last charge takes
+ * the rest of its gas. Throws a RangeError for charges that do not match the fills.
+ */
 export function retarget(input: RetargetInput): RetargetResult {
+  checkCharges(input);
+  const k = nextStop(input);
+  return k === undefined ? retargetFree(input).result : retargetHolding(input, k);
+}
+
+/** the re-target with every remaining fill free (no stop of a charge ahead), and its problem and amounts */
+function retargetFree(input: RetargetInput): { result: RetargetResult; pr: RetargetProblem } {
   const pr = retargetProblem(input);
   const { rest, T } = pr;
   const limit = input.workingLimitPa;
@@ -127,14 +174,142 @@ export function retarget(input: RetargetInput): RetargetResult {
     ? `the tank is at ${fmtP(nowPa)}, at or above its working limit ${fmtP(limit)}` +
       (rest.length === 0 ? '' : `: no further fill can be made within the limit`)
     : messageOf(pr, pred, gave, limitBinds, fmtP);
-  return {
+  const result = {
     remaining: remainingTargets(pr, a, filled),
     predicted: { composition: pred.comp, phi: pred.phi, diluentFraction: pred.dilF, pressurePa: pred.P },
     gave,
     limitBinds,
     nowPa,
     message,
+    stops: [],
   };
+  return { result, pr };
+}
+
+/** a source in more than one remaining fill needs the charges, and each charge but the last its stop */
+function checkCharges(input: RetargetInput): void {
+  const { sources, charges } = input;
+  if (charges !== undefined && charges.length !== sources.length)
+    throw new RangeError(`charges: ${charges.length} given for ${sources.length} fills`);
+  sources.forEach((s, j) => {
+    if (j < input.done.length) return;
+    const c = charges?.[j];
+    const again = sources.some((x, i) => i > j && x.id === s.id);
+    if (again && (c === undefined || !(c.number < c.of) || !(c.stopPa! > 0)))
+      throw new RangeError(
+        `fill ${j + 1} (${s.id}) is not its source's last charge: its charge and stop reading are needed`,
+      );
+  });
+}
+
+/** the index of the first remaining fill that is a charge, not its source's last, with a stop */
+function nextStop(input: RetargetInput): number | undefined {
+  const { charges } = input;
+  for (let k = input.done.length; k < (charges?.length ?? 0); k++)
+    if (charges![k].number < charges![k].of && charges![k].stopPa !== undefined) return k;
+  return undefined;
+}
+
+/**
+ * The re-target with the stop of charge k (not its source's last) held: the fills before it as the
+ * free re-target puts them (each of them is its source's last charge), charge k to its stop reading
+ * (the amount found by bisection on the real-gas pressure), and the fills after it re-targeted from
+ * the tank at the stop (as a top-up, so a vent before it is counted once), their later stops in turn.
+ * A stop the tank is already past before the charge, or one at or above the working limit, cannot be
+ * kept: the charge adds no gas, the source's gas goes to its later charges, and the message says so.
+ */
+function retargetHolding(input: RetargetInput, k: number): RetargetResult {
+  const { result: free, pr } = retargetFree(input);
+  const m = input.done.length;
+  const n = Float64Array.from(pr.have);
+  for (let j = m; j < k; j++)
+    pr.w[pr.colOf[j - m]].forEach((v, i) => (n[i] += free.remaining[j - m].amountMol * v));
+  const pressureOf = (v: Float64Array) => {
+    const comp = compOf(pr, v);
+    const tot = v.reduce((p, q) => p + q, 0);
+    return tot > 0 ? pressureFromDensity(tot / pr.V, pr.T, bMix(pr.model, comp), cMix(pr.model, comp)) : 0;
+  };
+  const beforePa = pressureOf(n);
+  const stopPa = input.charges![k].stopPa!;
+  const limit = input.workingLimitPa;
+  const kept: RetargetStop['kept'] =
+    limit !== undefined && stopPa >= limit ? 'limit' : beforePa >= stopPa ? 'passed' : true;
+  const wk = pr.w[pr.colOf[k - m]];
+  const ak = kept === true ? amountToStop(n, wk, stopPa, pressureOf) : 0;
+  wk.forEach((v, i) => (n[i] += ak * v));
+  const atPa = kept === true ? stopPa : beforePa;
+  const tail = retarget({
+    ...input,
+    sources: input.sources.slice(k + 1),
+    charges: input.charges!.slice(k + 1),
+    done: [],
+    ventFactor: undefined,
+    initial: { composition: compOf(pr, n), pressurePa: atPa, temperatureK: pr.T },
+  });
+  const stop: RetargetStop = { step: k + 1, stopPa, beforePa, kept };
+  const fmtP = input.formatPressure ?? ((p: number) => `${Number(p.toPrecision(5))} Pa`);
+  const note = kept === true ? '' : stopNote(input, stop, fmtP);
+  return {
+    ...tail,
+    remaining: [
+      ...free.remaining.slice(0, k - m),
+      { step: k + 1, source: input.sources[k], targetPa: atPa, incrementPa: atPa - beforePa, amountMol: ak },
+      ...tail.remaining.map((x) => ({ ...x, step: x.step + k + 1 })),
+    ],
+    // the tank now, and whether the limit holds it, are the actual readings' (not the held stop's)
+    nowPa: free.nowPa,
+    limitBinds: free.limitBinds || tail.limitBinds,
+    message: note ? `${note}; ${tail.message}` : tail.message,
+    stops: [stop, ...tail.stops.map((x) => ({ ...x, step: x.step + k + 1 }))],
+  };
+}
+
+/** the amount of a fill (adding w per mole to the tank n) that brings the tank to stopPa: bisection */
+function amountToStop(
+  n: Float64Array,
+  w: Float64Array,
+  stopPa: number,
+  pressureOf: (v: Float64Array) => number,
+): number {
+  const at = (x: number) => pressureOf(n.map((v, i) => v + x * w[i]));
+  let hi = 1e-6 + n.reduce((p, q) => p + q, 0);
+  for (let it = 0; at(hi) < stopPa; it++) {
+    if (it > 200)
+      fail({
+        code: 'not-converged',
+        computation: 'amount to a stop reading',
+        iterations: it,
+        residual: stopPa - at(hi),
+        tolerance: 0,
+      });
+    hi *= 2;
+  }
+  let lo = 0;
+  for (let it = 0; it < SCALE_HALVINGS; it++) {
+    const mid = (lo + hi) / 2;
+    if (at(mid) < stopPa) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
+}
+
+/** a stop that cannot be kept, in words: the numbers, and what it means for the safety design */
+function stopNote(input: RetargetInput, stop: RetargetStop, fmtP: (p: number) => string): string {
+  const k = stop.step - 1;
+  const src = input.sources[k];
+  const c = input.charges![k];
+  const last = input.sources.map((x) => x.id).lastIndexOf(src.id) + 1;
+  const why =
+    stop.kept === 'limit'
+      ? `its stop ${fmtP(stop.stopPa)} is at or above the tank's working limit ${fmtP(input.workingLimitPa!)}`
+      : `the tank is at ${fmtP(stop.beforePa)} before it, past its stop ${fmtP(stop.stopPa)}`;
+  return (
+    `the stop of fill ${stop.step} (charge ${c.number} of ${c.of} of ${src.id}) cannot be kept: ${why}; ` +
+    `that charge adds no gas and the rest of ${src.id} goes in its later charges (the last is fill ${last}). ` +
+    `The stop is part of the plan's safety design (the split point keeps the later fills out of the ` +
+    `flammable region): the fills after it start from another tank than the plan reviewed, so have the ` +
+    `remaining sequence reviewed before going on`
+  );
 }
 
 function retargetProblem(input: RetargetInput): RetargetProblem {
@@ -152,7 +327,9 @@ function retargetProblem(input: RetargetInput): RetargetProblem {
   if (!(f > 0 && f <= 1)) throw new RangeError(`ventFactor ${f} must be in (0, 1]`);
   const { have, rhoNow } = tankNow(input, species, f);
   const rest = sources.slice(input.done.length);
-  const w = rest.map((s) => {
+  const cols = rest.filter((s, j) => rest.findIndex((x) => x.id === s.id) === j);
+  const colOf = rest.map((s) => cols.findIndex((x) => x.id === s.id));
+  const w = cols.map((s) => {
     const v = new Float64Array(species.length);
     for (const [k, x] of Object.entries(s.composition)) v[species.indexOf(k)] += x;
     v[species.indexOf(s.mainSpecies)] += s.unidentified;
@@ -163,7 +340,7 @@ function retargetProblem(input: RetargetInput): RetargetProblem {
   const dil = new Set(Object.keys(design.groups.diluent));
   const d = species.map((k) => oxygenDemand(getSpecies(k).elements));
   const fuelDemand = species.reduce((a, k, i) => a + Math.max(d[i], 0) * (yd[k] ?? 0), 0) * Ntarget;
-  return { input, species, model, T, V, have, rhoNow, rest, w, Ntarget, dil, d, fuelDemand };
+  return { input, species, model, T, V, have, rhoNow, rest, cols, colOf, w, Ntarget, dil, d, fuelDemand };
 }
 
 /** what is in the tank now (mol of each species, and the molar density), scaled by the vent factor f */
@@ -242,7 +419,9 @@ function solveAmounts(pr: RetargetProblem, totalTarget: number, totalWeight: num
     const g = (i: number) => (i === idx ? 1 : 0);
     addRow(g, constantOf(g) - x * totalTarget, Ntarget * x, W_SPECIES);
   }
-  return pr.rest.length ? nnls(rows, rhs).x : [];
+  // the rows are weighted over 12 orders of magnitude: each column's gradient is judged against its own
+  // rounding noise, not one threshold set by the phi row (which hid the dilution and total rows' pull)
+  return pr.cols.length ? nnls(rows, rhs, undefined, { gradientTest: 'per-column' }).x : [];
 }
 
 function compOf(pr: RetargetProblem, v: Float64Array): Record<string, number> {
@@ -280,7 +459,7 @@ function amountsWithinLimit(
   const limit = pr.input.workingLimitPa;
   if (limit !== undefined && nowPa >= limit) {
     // at or past the limit already: any further fill would raise the pressure more; none is proposed
-    const a = pr.rest.map(() => 0);
+    const a = pr.cols.map(() => 0);
     return { a, pred: predict(pr, a), limitBinds: true };
   }
   let a = solveAmounts(pr, pr.Ntarget, W_TOTAL);
@@ -333,11 +512,14 @@ function remainingTargets(
   const c0 = compOf(pr, n);
   let prevP = filled ? pressureFromDensity(pr.rhoNow, T, bMix(model, c0), cMix(model, c0)) : 0;
   pr.rest.forEach((s, j) => {
-    pr.w[j].forEach((v, i) => (n[i] += a[j] * v));
+    // a source's remaining gas goes in its last remaining charge (the earlier ones are held at their stops)
+    const last = pr.colOf.lastIndexOf(pr.colOf[j]) === j;
+    const aj = last ? a[pr.colOf[j]] : 0;
+    pr.w[pr.colOf[j]].forEach((v, i) => (n[i] += aj * v));
     const comp = compOf(pr, n);
     const tot = n.reduce((p, q) => p + q, 0);
     const P = pressureFromDensity(tot / V, T, bMix(model, comp), cMix(model, comp));
-    remaining.push({ step: m + j + 1, source: s, targetPa: P, incrementPa: P - prevP, amountMol: a[j] });
+    remaining.push({ step: m + j + 1, source: s, targetPa: P, incrementPa: P - prevP, amountMol: aj });
     prevP = P;
   });
   return remaining;

@@ -412,52 +412,26 @@ export function retargetInput(
     workingLimitPa: s.setup.workingLimitPa,
     initial: s.start,
     formatPressure: (pa) => `${Number(fromPa(pa, 'Torr').toPrecision(6))} Torr`,
+    // each charge of a split source, and the stop reading (the plan's target) of each but its last
+    charges: s.setup.steps.map((x, k) => ({
+      number: x.charge.number,
+      of: x.charge.of,
+      stopPa: x.charge.number < x.charge.of ? h.steps[k].target_Pa : undefined,
+    })),
   };
 }
 
 /**
  * The remaining targets after the readings done, at the temperature of the next fills. A charge
- * of a split source that is not its source's last keeps its stop reading (the plan's target): the
- * fills after it are re-targeted from the tank as it will be at that stop (each such stop taken in
- * turn as if read), so the amount of the source is split as planned and not all put in its first
- * charge (the re-target alone cannot tell two charges of one cylinder apart). A stop the tank is
- * already past cannot be kept: then the re-target stands as it is, and the message says so.
+ * of a split source that is not its source's last keeps its stop reading (the plan's target):
+ * the core re-target holds it, gives the rest of the source's gas to its last charge, and says
+ * so in its message when a stop cannot be kept.
  */
 function retargetRun(s: FillState, done: readonly DoneReading[], temperatureK: number) {
-  const base = retarget(retargetInput(s, done, temperatureK));
+  const result = retarget(retargetInput(s, done, temperatureK));
   const t = [...s.targetsPa];
-  for (const x of base.remaining) t[x.step - 1] = x.targetPa;
-  const { steps, header } = s.setup;
-  let result = base;
-  let passed = '';
-  const held: DoneReading[] = [...done];
-  for (let k = done.length; k < steps.length; k++) {
-    const st = steps[k];
-    if (!laterCharges(s.setup, k).length) continue;
-    const stopPa = header.steps[k].target_Pa;
-    const prevPa = k > 0 ? (held[k - 1]?.pressurePa ?? t[k - 1]) : (s.start?.pressurePa ?? 0);
-    if (!(stopPa > prevPa)) {
-      passed =
-        `; the tank is already past the stop of ${fillName(st)} ` +
-        `(${fmtIn(stopPa, 'Torr')}): that stop cannot be kept, the targets above are re-computed without it`;
-      break;
-    }
-    for (let j = held.length; j < k; j++)
-      held.push({ step: steps[j].index, pressurePa: t[j], temperatureK, text: '' });
-    held.push({ step: st.index, pressurePa: stopPa, temperatureK, text: '' });
-    t[k] = stopPa;
-    result = retarget(retargetInput(s, held, temperatureK));
-    for (const x of result.remaining) t[x.step - 1] = x.targetPa;
-  }
-  if (result === base && !passed) return { targets: t, message: base.message, result: base };
-  if (passed) {
-    const t0 = [...s.targetsPa];
-    for (const x of base.remaining) t0[x.step - 1] = x.targetPa;
-    return { targets: t0, message: base.message + passed, result: base };
-  }
-  // what the tank holds now and whether the limit binds are the actual readings', not the held stops'
-  const merged = { ...result, nowPa: base.nowPa, limitBinds: base.limitBinds || result.limitBinds };
-  return { targets: t, message: result.message, result: merged };
+  for (const x of result.remaining) t[x.step - 1] = x.targetPa;
+  return { targets: t, message: result.message, result };
 }
 
 function gaugeUnit(step: FillStep): PressureUnit {

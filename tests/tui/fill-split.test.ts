@@ -80,6 +80,36 @@ describe('guided fill of a split plan: CH4, Ar to 400 Torr (charge 1 of 2), O2, 
     );
   });
 
+  it('stop at 1200 Torr: an exact CH4 reading keeps the stop and gives the second Ar charge the rest (it got none before)', () => {
+    const s0 = initialState(setupFromHeader(splitHeader(1200)));
+    const s1 = read(s0, at(s0, 0));
+    // the stop is kept; the second charge ends at the design's 1500 Torr (the plan's own target, 0.1 Torr:
+    // the re-target's total-row weighting), not at the O2 target 1219.99 Torr
+    expect(s1.targetsPa[1] / TORR).toBeCloseTo(1200, 9);
+    expect(Math.abs(s1.targetsPa[3] / TORR - 1500)).toBeLessThan(0.1);
+    expect(s1.targetsPa[3] - s1.targetsPa[2]).toBeGreaterThan(270 * TORR);
+    expect(s1.message).toMatch(/keep phi, the dilution and the final pressure within tolerance/);
+    // the readings at the targets close the batch, and its judgement (the re-check's model) passes the design
+    let s = s1;
+    for (let k = 1; k < 4; k++) s = read(s, at(s, k));
+    expect(s.phase).toBe('done');
+    expect(['pass', 'pass-uncertain']).toContain(s.judgement?.verdict);
+  });
+
+  it('a stop the tank is already past is not kept: the fill says so with the numbers, and the Ar goes in its last charge', () => {
+    const s0 = initialState(setupFromHeader(splitHeader()));
+    // CH4 mistyped as 405 Torr (a gross overfill): taken as read, the next fill is the first Ar charge
+    const s1 = read(s0, '405.0000');
+    expect(s1.phase).toBe('reading');
+    expect(s1.current).toBe(1);
+    expect(s1.message).toMatch(
+      /the stop of fill 2 \(charge 1 of 2 of cyl-Ar\) cannot be kept: the tank is at 405(\.\d+)? Torr before it, past its stop 400 Torr/,
+    );
+    expect(s1.message).toMatch(/have the remaining sequence reviewed before going on/);
+    expect(s1.targetsPa[1] / TORR).toBeCloseTo(405, 6);
+    expect(s1.targetsPa[3]).toBeGreaterThan(s1.targetsPa[2]);
+  });
+
   it("a reading near the second charge's target typed for the first is asked about, and logged only as the first charge's", () => {
     // stop at 1100 Torr: both Ar charges read on head-10kT, so a reading at the final pressure can be typed
     const s0 = initialState(setupFromHeader(splitHeader(1100)));
