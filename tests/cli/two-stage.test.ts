@@ -16,11 +16,12 @@ describe('mixwright plan --premix-tank', () => {
     expect(s1).toBeGreaterThan(0);
     expect(s2).toBeGreaterThan(s1);
     expect(r.stdout).toContain('Premix      13.42 % O2 in Ar in MT-2, filled to 1890.2 Torr');
-    expect(r.stdout).toMatch(/3\s+Ar\+O2\s+premix-MT-2\s+head-10kT\s+1500\.0 Torr/);
+    // the sequence search splits the batch's Ar so that the premix is read on the 1000 Torr head
+    expect(r.stdout).toMatch(/3\s+Ar\+O2\s+premix-MT-2\s+head-1kT\s+520\.27 Torr/);
     expect(r.stdout).toContain(
       'Premix tank  MT-2: 1890.2 Torr before the batch, 1840.9 Torr after delivering',
     );
-    expect(r.stdout).toMatch(/x\(O2\)\s+0\.0133333\s+0\.000059\s+0\.44 %\s+\+-0\.5 %\s+within/);
+    expect(r.stdout).toMatch(/x\(O2\)\s+0\.0133333\s+0\.000048\s+0\.36 %\s+\+-0\.5 %\s+within/);
   });
 
   it('--json: two_stage with stage 1 then the batch, each with steps, findings and predicted; the batch U includes the premix', async () => {
@@ -31,7 +32,7 @@ describe('mixwright plan --premix-tank', () => {
     expect(t.premix_tank).toBe('MT-2');
     expect(t.stages.map((s: { role: string }) => s.role)).toEqual(['premix', 'batch']);
     expect(t.stages[0].order.fills).toEqual(['Ar', 'O2']);
-    expect(t.stages[1].order.fills).toEqual(['CH4', 'Ar', 'Ar+O2']);
+    expect(t.stages[1].order.fills).toEqual(['CH4', 'Ar', 'Ar+O2', 'Ar']);
     for (const s of t.stages) {
       expect(s.steps.length).toBeGreaterThan(0);
       expect(Array.isArray(s.findings)).toBe(true);
@@ -60,8 +61,9 @@ describe('mixwright plan --premix-tank', () => {
     expect(f.severity).toBe('note');
     expect(f.premix_tank).toBe('MT-2');
     expect(f.command).toBe(`mixwright plan ${RECIPE} --premix-tank MT-2`);
-    expect(f.two_stage_u).toBeCloseTo(0.0044, 4);
-    expect(f.single_u).toBeGreaterThan(0.02);
+    expect(f.two_stage_u).toBeCloseTo(0.0036, 4);
+    // the single tank's best safe sequence (split Ar) is still over the 0.5 % tolerance
+    expect(f.single_u).toBeGreaterThan(0.005);
     expect(f.message).toContain('--premix-tank MT-2');
   });
 

@@ -41,7 +41,8 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     expect(two.choice.pressurePa / TORR).toBeCloseTo((0.4 * 0.9 * 7e5) / TORR, 3);
     expect(two.choice.gauges).toEqual(['head-10kT']);
     expect(two.premix.steps.map((s) => s.species)).toEqual(['Ar', 'O2']);
-    expect(two.batch.steps.map((s) => s.species)).toEqual(['CH4', 'Ar', 'Ar+O2']);
+    // the sequence search splits the Ar so that the premix is read on the 1000 Torr head
+    expect(two.batch.steps.map((s) => s.species)).toEqual(['CH4', 'Ar', 'Ar+O2', 'Ar']);
     expect(two.candidates).toBeGreaterThan(1);
   });
 
@@ -59,9 +60,9 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     expect(relU(two.premix, 'Ar')).toBeCloseTo(0.000399, 4);
     // stage 2: the batch, the premix's own uncertainty included
     expect(relU(two.batch, 'CH4')).toBeCloseTo(0.002328, 4);
-    expect(relU(two.batch, 'O2')).toBeCloseTo(0.004404, 4);
-    expect(relU(two.batch, 'Ar')).toBeCloseTo(0.000061, 4);
-    expect(relU(two.batch, 'phi')).toBeCloseTo(0.005122, 4);
+    expect(relU(two.batch, 'O2')).toBeCloseTo(0.00361, 4);
+    expect(relU(two.batch, 'Ar')).toBeCloseTo(0.00006, 4);
+    expect(relU(two.batch, 'phi')).toBeCloseTo(0.002904, 4);
   });
 
   it("the batch's U includes the premix's: larger than with the premix taken as exact, and its budget names it", () => {
@@ -78,10 +79,10 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     expect(r.composition.O2.u ** 2).toBeCloseTo(bare.result.composition.O2.u ** 2 + premixU2, 14);
   });
 
-  it('the premix tank stays above the batch reading it must reach: 1890.2 -> 1840.9 Torr, 1650 Torr needed', () => {
+  it('the premix tank stays above the batch reading it must reach: 1890.2 -> 1840.9 Torr, 572.3 Torr needed (its charge ends at 520.27 Torr, + 10 %)', () => {
     expect(two.delivery.startPa / TORR).toBeCloseTo(1890.2, 1);
     expect(two.delivery.endPa / TORR).toBeCloseTo(1840.9, 1);
-    expect(two.delivery.requiredPa / TORR).toBeCloseTo(1650.0, 1);
+    expect(two.delivery.requiredPa / TORR).toBeCloseTo(572.3, 1);
   });
 
   it('the more precise choice: 4.03 % O2 in Ar, O2 first, reaches 0.235 % on O2 but carries oxygen-compression', () => {
