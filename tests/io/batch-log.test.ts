@@ -20,7 +20,10 @@ const code = (f: () => unknown) => {
 
 function demoLog(dir: string, readingsTorr: number[]): string {
   const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
-  const plan = planFill(req.input);
+  const plan = planFill({
+    ...req.input,
+    thermometer: undefined,
+  }); /* the demo log: the advised order CH4, Ar, O2, without the sequence search */
   const file = join(dir, 'b.jsonl');
   createLog(file, headerFromPlan(plan, req, 'test-batch', '2026-12-01T10:00:00Z'));
   readingsTorr.forEach((t, i) => {

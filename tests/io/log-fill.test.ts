@@ -80,7 +80,10 @@ function problemOf(f: () => unknown): ProblemError {
 }
 
 const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
-const plan: Plan = planFill(req.input);
+const plan: Plan = planFill({
+  ...req.input,
+  thermometer: undefined,
+}); /* the demo log: the advised order CH4, Ar, O2, without the sequence search */
 const TARGETS_TORR = [10.0128, 1480.025, 1500];
 
 function reading(i: number, torr = TARGETS_TORR[i]): NewLogEvent {
