@@ -33,13 +33,14 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       await t.waitFor(/1 CH4\s+head-1kT 10\.\d+ Torr/);
       // to the actions: tank, pressure, temperature, then save, sheet, fill
       await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
-      let s = await t.waitFor(/fill 1 of 3/);
+      // the wizard's fill plans with the sequence search: CH4, Ar (charge 1 of 2), O2, Ar (charge 2 of 2)
+      let s = await t.waitFor(/fill 1 of 4/);
       for (const k of [1, 2]) {
         const target = readTarget(s);
         typed.push(target);
         await t.type(String(target));
         await t.keys('Enter');
-        s = await t.waitFor(new RegExp(`fill ${k + 1} of 3`));
+        s = await t.waitFor(new RegExp(`fill ${k + 1} of 4`));
       }
       await t.kill();
       // the killed fill leaves its lock beside the log; the resume takes it over as stale
@@ -54,13 +55,18 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
           .filter((l) => l.includes('"reading"')),
       ).toHaveLength(2);
       t.start(`node ${BIN} fill --resume ${log}`);
-      s = await t.waitFor(/fill 3 of 3/);
-      expect(s).toContain('resumed: 2 of 3');
+      s = await t.waitFor(/fill 3 of 4/);
+      expect(s).toContain('resumed: 2 of 4');
       const t3 = readTarget(s);
       typed.push(t3);
       await t.type(String(t3));
       await t.keys('Enter');
-      await t.waitFor(/all 3 fills logged/);
+      s = await t.waitFor(/fill 4 of 4/);
+      const t4 = readTarget(s);
+      typed.push(t4);
+      await t.type(String(t4));
+      await t.keys('Enter');
+      await t.waitFor(/all 4 fills logged/);
       await t.keys('q');
       await waitUntil(() => !existsSync(`${log}.lock`), 10000);
       const rep = await checkFile(log, { trials: 0, seed: 1 });
