@@ -7,8 +7,8 @@ import { speciesRole, type OutputStat } from '../core/index.js';
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
   'pass-uncertain':
-    'PASS (not proven) - every design fraction is within its tolerance, but the ' +
-    '95 % uncertainty reaches past it for some',
+    'NOT SHOWN WITHIN TOLERANCE - the readings put every design fraction inside its ' +
+    'tolerance, but for some the 95 % uncertainty reaches past it: this is not a pass',
   fail: 'FAIL - out of tolerance',
   'no-design': 'no design to compare with',
 };

@@ -19,7 +19,7 @@ export interface CertificateRow {
   readonly asFilled: string;
   readonly deviation: string;
   readonly tolerance: string;
-  /** "within", "within, not proven", "OUT", or "-" for a species not in the design */
+  /** "within", "inside, not shown", "OUT", or "-" for a species not in the design */
   readonly status: string;
 }
 
@@ -72,7 +72,7 @@ export interface CertificateMeta {
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included.',
   'pass-uncertain':
-    'PASS NOT PROVEN - every design mole fraction is within its tolerance, but ' +
+    'NOT SHOWN WITHIN TOLERANCE - every design mole fraction is inside its tolerance on the readings, but ' +
     'for some the expanded uncertainty (k = 2) reaches past it: the measurement ' +
     'cannot prove conformity.',
   fail:
@@ -124,7 +124,7 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
         ? `${d.deviation >= 0 ? '+' : '-'}${fixedSig((Math.abs(d.deviation) / d.design) * 100, 2)} %`
         : '-',
       tolerance: d ? `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %` : '-',
-      status: d ? (d.provenWithin ? 'within' : d.within ? 'within, not proven' : 'OUT') : '-',
+      status: d ? (d.provenWithin ? 'within' : d.within ? 'inside, not shown' : 'OUT') : '-',
     };
   });
   // a design species the re-check found none of still gets its row

@@ -86,7 +86,8 @@ export function statusOf(r: CheckReport): LabelStatus {
 
 const HEADLINE: Record<LabelStatus, string> = {
   pass: 'PASS - as filled, within tolerance (uncertainty included)',
-  'pass-uncertain': 'PASS NOT PROVEN - within tolerance, but the uncertainty reaches past it',
+  'pass-uncertain':
+    'NOT SHOWN WITHIN TOLERANCE - inside on the readings, but the uncertainty reaches past it',
   fail: 'FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE',
   incomplete: 'FAIL - INCOMPLETE BATCH: NOT THE DESIGN MIXTURE',
   'no-design': 'NO DESIGN TO COMPARE WITH - composition as measured',

@@ -329,7 +329,7 @@ function designLabel(plan: Plan, meta: SheetMeta, batchId: string): string[] {
       .join(', ')}`,
     `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${pressure(plan.final.pressurePa, meta.unit, 6)} ` +
       `abs; filled ________ by ________`,
-    're-check verdict: pass / pass not proven / FAIL (circle one) ________',
+    're-check verdict: pass / not shown within / FAIL (circle one) ________',
     plan.findings.some((f) => f.code === 'flammable-mixture')
       ? 'FLAMMABLE GAS MIXTURE'
       : 'check the findings before use',

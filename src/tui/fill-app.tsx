@@ -92,7 +92,7 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
           ? 'FAIL - outside the tolerance'
           : j.verdict === 'pass'
             ? 'within the tolerance'
-            : 'within the tolerance, not proven by U')
+            : 'NOT SHOWN within the tolerance (inside on the readings, U reaches past it)')
       : 'Composition: ' +
         (j.verdict === 'on-course'
           ? 'the remaining fills bring every fraction within the tolerance'
