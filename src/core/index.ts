@@ -252,3 +252,4 @@ export type { PremixSourceArgs } from './plan/premix-source.js';
 export { premixDelivery, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
 export type { Delivery, DeliveryInput } from './premix-tank.js';
 export type { CompositionTerm } from './supply.js';
+export { chargeNumbers } from './plan/charges.js';

@@ -4,6 +4,7 @@
  * is offered but not recommended because of its hazard. Kept beside findings.ts so that it
  * stays short.
  */
+import type { Finding } from './findings.js';
 
 /** a relative size in per cent, two significant digits ("2.9 %", "0.45 %") */
 function relPct(x: number): string {
@@ -13,22 +14,8 @@ function relPct(x: number): string {
 /** x(species) for a species key, phi as it is */
 const quantity = (name: string) => (name === 'phi' ? 'phi' : `x(${name})`);
 
-/** the fields of `sequence-chosen` the sentence uses */
-export interface SequenceChosen {
-  readonly species: string;
-  readonly source: string;
-  readonly readingPa: number;
-  readonly gauge: string;
-  readonly relativeU: number;
-  readonly baselineReadingPa: number;
-  readonly baselineGauge: string;
-  readonly baselineRelativeU: number;
-  readonly baselineOrder: readonly string[];
-  readonly worst: string;
-  readonly worstRelativeU: number;
-  readonly baselineWorst: string;
-  readonly baselineWorstRelativeU: number;
-}
+/** the finding `sequence-chosen` the sentence words */
+type SequenceChosen = Extract<Finding, { code: 'sequence-chosen' }>;
 
 /**
  * "O2 read at 410 Torr on head-1kT: U (k = 2) of x(O2) 0.4 % instead of 2.9 % (read at
@@ -48,14 +35,8 @@ export function describeSequenceChosen(f: SequenceChosen, p: (pa: number) => str
   );
 }
 
-/** the fields of `precise-sequence-hazard` the sentence uses */
-export interface PreciseOption {
-  readonly charges: readonly { readonly label: string; readonly stopPa?: number }[];
-  readonly worst: string;
-  readonly worstRelativeU: number;
-  readonly toleranceRelative: number;
-  readonly hazards: readonly { readonly code: string; readonly step?: number }[];
-}
+/** the finding `precise-sequence-hazard` the sentence words */
+type PreciseOption = Extract<Finding, { code: 'precise-sequence-hazard' }>;
 
 /** the order as --order takes it: fill labels, a split charge's stop reading after "@" */
 function orderText(f: PreciseOption, p: (pa: number) => string): string {

@@ -5,6 +5,7 @@
  * tank's working limit and rating and against a named gauge's range, as the log audit does.
  */
 import { evaluateUncertaintyParallel } from './parallel-mc.js';
+import { chargeNumbers } from '../core/index.js';
 import {
   chooseGauge,
   fail,
@@ -23,13 +24,7 @@ import { readReadingsCsv, type CsvReading } from './readings-csv.js';
 import { sourceNames, type SourceNames } from './csv-names.js';
 import { isPressureUnit, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
-import {
-  chargesOf,
-  verdictCaveats,
-  withinFile,
-  type CheckOptions,
-  type CheckReport,
-} from './check-shared.js';
+import { verdictCaveats, withinFile, type CheckOptions, type CheckReport } from './check-shared.js';
 
 /** the tank the readings were filled in: its working limit and rating, Pa, where known */
 interface CsvTank {
@@ -163,7 +158,7 @@ function csvReadings(file: string, b: CsvBasis): { rows: CsvReading[]; readings:
     acceptsName: b.names.accepts,
   });
   const sources = rows.map((r) => b.names.resolve(r.species, { file, line: r.line, field: 'species' }));
-  const charges = chargesOf(sources.map((s) => s.id));
+  const charges = chargeNumbers(sources.map((s) => s.id));
   const readings = rows.map((r, i): CheckedReading => {
     let gauge: Gauge | undefined;
     if (r.gauge) {

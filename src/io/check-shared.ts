@@ -3,7 +3,7 @@
  * the caveats beside a verdict, the file a refusal from inside the evaluation belongs to, and
  * the charge number of each fill (a source filled in more than one charge).
  */
-import { fail, ProblemError } from '../core/index.js';
+import { fail, ProblemError, type PlanStep } from '../core/index.js';
 import type { LogFinding } from './log-audit.js';
 import type { CheckReportOf } from '../report/check-types.js';
 
@@ -62,17 +62,4 @@ export async function withinFile<T>(file: string, f: () => Promise<T>): Promise<
 }
 
 /** a fill's charge of its source: its number among that source's charges, and how many there are */
-export interface ChargeNumber {
-  readonly number: number;
-  readonly of: number;
-}
-
-/** the charge of each fill, from the source ids in fill order ("Ar, O2, Ar" -> Ar 1 of 2, O2 1 of 1, Ar 2 of 2) */
-export function chargesOf(sourceIds: readonly string[]): ChargeNumber[] {
-  const seen = new Map<string, number>();
-  return sourceIds.map((id) => {
-    const number = (seen.get(id) ?? 0) + 1;
-    seen.set(id, number);
-    return { number, of: sourceIds.filter((x) => x === id).length };
-  });
-}
+export type ChargeNumber = PlanStep['charge'];

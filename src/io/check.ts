@@ -26,10 +26,9 @@ import {
 } from './batch-log.js';
 import { auditLog, describeLogFinding } from './log-audit.js';
 import type { PlanRequest } from './load.js';
-import { TORR_PA } from '../core/index.js';
+import { chargeNumbers, TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
-  chargesOf,
   verdictCaveats,
   withinFile,
   type ChargeNumber,
@@ -242,7 +241,7 @@ function loggedCharge(step: object): ChargeNumber | undefined {
  * `charge` where its header records one, else counted from the source ids in step order.
  */
 function logCharges(h: LogHeader): Map<number, ChargeNumber> {
-  const counted = chargesOf(h.steps.map((s) => s.source));
+  const counted = chargeNumbers(h.steps.map((s) => s.source));
   return new Map(h.steps.map((s, i) => [s.step, loggedCharge(s) ?? counted[i]]));
 }
 

@@ -5,6 +5,8 @@
  * the guided fill and the batch log share these words.
  */
 
+import { chargeNumbers } from '../core/index.js';
+
 /** charge `number` of the `of` charges its source is filled in */
 export interface ChargeOf {
   readonly number: number;
@@ -38,14 +40,7 @@ export function chargeShort(gas: string, c: ChargeOf | undefined): string {
  * (one source id is one cylinder), so a record that predates the charge numbers gets the same ones.
  */
 export function chargesOf(fills: readonly { readonly source: string }[]): ChargeOf[] {
-  const total = new Map<string, number>();
-  for (const f of fills) total.set(f.source, (total.get(f.source) ?? 0) + 1);
-  const seen = new Map<string, number>();
-  return fills.map((f) => {
-    const number = (seen.get(f.source) ?? 0) + 1;
-    seen.set(f.source, number);
-    return { number, of: total.get(f.source)! };
-  });
+  return chargeNumbers(fills.map((f) => f.source));
 }
 
 /**

@@ -19,6 +19,23 @@ import type { PlanBasis } from './validate.js';
 import { eosComposition } from './amounts.js';
 import type { ChargeRequest } from './types.js';
 
+/**
+ * The charge of every fill, from the source ids in fill order: the k-th fill from a source is
+ * its charge k, of as many as the list holds ("Ar, O2, Ar" -> Ar 1 of 2, O2 1 of 1, Ar 2 of 2).
+ * One source id is one cylinder: the plan numbers its steps so, and a record that predates the
+ * charge numbers is counted the same way.
+ */
+export function chargeNumbers(sourceIds: readonly string[]): { number: number; of: number }[] {
+  const total = new Map<string, number>();
+  for (const id of sourceIds) total.set(id, (total.get(id) ?? 0) + 1);
+  const seen = new Map<string, number>();
+  return sourceIds.map((id) => {
+    const number = (seen.get(id) ?? 0) + 1;
+    seen.set(id, number);
+    return { number, of: total.get(id)! };
+  });
+}
+
 export interface Charge {
   readonly source: GasSource;
   /** absolute tank pressure to stop this charge at, Pa; only on a charge that is not its source's last */

@@ -9,6 +9,7 @@ import type { GasSource } from '../supply.js';
 import type { Fractions } from '../composition.js';
 import { bMix, cMix, pressureFromDensity } from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
+import { ORDER_RELEVANT } from '../order.js';
 import { ProblemError } from '../problems.js';
 import { flammabilityNumbers, reviewFill, reviewState, type FillEvent, type TankState } from '../safety.js';
 import { assessFlammability } from '../flammability.js';
@@ -84,16 +85,7 @@ export interface Evaluated {
  * those of the steps that make a sequence unusable (no gauge, supply pressure).
  */
 const SEQUENCE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
-  'flammable-state',
-  'near-flammable',
-  'detonable-state',
-  'closed-vessel-pressure',
-  'compression-heating',
-  'oxygen-compression',
-  'condensation',
-  'acetylene-pressure',
-  'no-with-o2',
-  'n2o-decomposition',
+  ...ORDER_RELEVANT,
   'flammable-fill-path',
   'flammable-at-inlet',
   'no-gauge-covers',
@@ -294,12 +286,7 @@ export function reviewIfPromising(
   toBeat: number,
 ): Evaluated | 'hopeless' | undefined {
   if (temperatureBound(ctx, candidate) >= toBeat) return 'hopeless';
-  const charges = chargesOf(ctx, candidate);
-  const steps = buildSteps(ctx, charges);
-  if (!steps) return undefined;
-  ctx.stats.reviewed++;
-  const safety = screen(ctx, steps, firstOnly);
-  return { candidate, charges, steps, safety, gauges: steps.steps.map((s) => s.gauge?.id) };
+  return review(ctx, candidate, firstOnly);
 }
 
 /** the candidate with every fill reviewed (after a review that stopped at the first hazard) */

@@ -17,7 +17,7 @@ import type { Finding } from '../findings.js';
 import type { PlanBasis } from './validate.js';
 import { eosComposition, type PlanAmounts } from './amounts.js';
 import type { PlanSequence } from './sequence.js';
-import { chargeAmounts, type Charge } from './charges.js';
+import { chargeAmounts, chargeNumbers, type Charge } from './charges.js';
 import { allowedDeviation, type PlanStep } from './types.js';
 
 /** what the step stage hands on */
@@ -45,6 +45,7 @@ interface ChargeState {
 export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: PlanSequence): PlanSteps {
   const mols = chargeAmounts(basis, sequence.charges, basis.input.sources, amounts.allocation.amountsMol);
   const states = chargeStates(basis, sequence.charges, mols);
+  const numbers = chargeNumbers(sequence.charges.map((c) => c.source.id));
   const connected = new Set(basis.input.gauges.map((g) => g.id));
   const findings: Finding[] = [];
   const steps = states.map((st, k): PlanStep => {
@@ -76,7 +77,7 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
       index: stepNo,
       source: st.source,
       species: fillLabel(st.source),
-      charge: chargeNumber(sequence.charges, k),
+      charge: numbers[k],
       targetPa: st.P,
       incrementPa: st.incrementPa,
       amountMol: st.mol,
@@ -90,15 +91,6 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
     };
   });
   return { steps, findings };
-}
-
-/** which charge of its source charge k is, and of how many */
-function chargeNumber(charges: readonly Charge[], k: number): PlanStep['charge'] {
-  const id = charges[k].source.id;
-  return {
-    number: charges.slice(0, k + 1).filter((c) => c.source.id === id).length,
-    of: charges.filter((c) => c.source.id === id).length,
-  };
 }
 
 /** the cumulative state of the tank after each charge */
