@@ -253,3 +253,5 @@ export { premixDelivery, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
 export type { Delivery, DeliveryInput } from './premix-tank.js';
 export type { CompositionTerm } from './supply.js';
 export { chargeNumbers } from './plan/charges.js';
+// the guided fill of a two-stage preparation: its refusals (worded in stage-words.ts)
+export type { StageFillCause, StageProblem } from './problems.js';

@@ -281,6 +281,58 @@ export type Problem =
       readonly tried: number;
       /** the first choice's refusal */
       readonly cause?: Problem;
+    }
+  // raised by the guided fill of a two-stage preparation (cli/stage-fill.ts) and the fill order of one
+  | StageProblem;
+
+/**
+ * Two-stage preparation at the manifold: a stage fill that cannot start (`stage-fill`, its
+ * `cause` typed), and a fill order given with a premix tank (`stage-order`). Worded in
+ * core/stage-words.ts.
+ */
+export type StageProblem =
+  | { readonly code: 'stage-order'; readonly premixTank: string; readonly order: string }
+  | { readonly code: 'stage-fill'; readonly cause: StageFillCause };
+
+/** why a stage of a two-stage fill cannot start */
+export type StageFillCause =
+  /** the stage's log exists already: a fill of it was started (resume it, or give another batch id) */
+  | { readonly kind: 'log-exists'; readonly stage: 1 | 2; readonly file: string }
+  /** the premix tank would fall below what the batch must reach (pressures in Pa, absolute) */
+  | {
+      readonly kind: 'premix-low';
+      readonly tank: string;
+      readonly startPa: number;
+      readonly endPa: number;
+      readonly targetPa: number;
+      readonly requiredPa: number;
+      /** stage 1 (planned premix pressure) or stage 2 (the premix log's last reading) */
+      readonly from: 'plan' | 'log';
+    }
+  /** the premix log is not closed: its fill is unfinished */
+  | { readonly kind: 'premix-open'; readonly file: string; readonly logged: number; readonly steps: number }
+  /** the premix log's record holds a danger (a reading past a limit, a line changed after writing) */
+  | { readonly kind: 'premix-danger'; readonly file: string; readonly findings: readonly string[] }
+  /** the premix log's re-check does not show its composition within tolerance */
+  | {
+      readonly kind: 'premix-unproven';
+      readonly file: string;
+      readonly verdict: 'pass-uncertain' | 'fail' | 'no-design';
+      readonly worst: string;
+    }
+  /** the premix log differs from the one the batch was started from (its sha256) */
+  | {
+      readonly kind: 'premix-changed';
+      readonly file: string;
+      readonly expected: string;
+      readonly found: string | null;
+    }
+  /** the premix log names another batch than the one asked for */
+  | {
+      readonly kind: 'premix-other-batch';
+      readonly file: string;
+      readonly batch: string;
+      readonly asked: string;
     };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */

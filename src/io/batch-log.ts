@@ -92,6 +92,24 @@ const sourceSchema = z.object({
   main_species: z.string(),
 });
 
+/**
+ * The stage of a two-stage preparation a log records: stage 1 the premix (`next_command` fills the
+ * batch from it), stage 2 the batch (`premix_log` names the premix log and the sha256 of its bytes
+ * when the batch was started from it). Optional: a log without it is a single-tank batch.
+ */
+const stageSchema = z.object({
+  number: z.union([z.literal(1), z.literal(2)]),
+  of: z.literal(2),
+  /** the batch id both stages belong to */
+  batch: z.string().min(1),
+  next_command: z.string().optional(),
+  premix_log: z
+    .object({ file: z.string().min(1), id: z.string(), sha256: z.string().regex(/^[0-9a-f]{64}$/) })
+    .optional(),
+  /** stage 1: the premix tank's height and stirrer (lab profile), for the mixing time of the end screen */
+  premix_tank: z.object({ height_m: z.number().positive(), stirred: z.boolean() }).optional(),
+});
+
 export const headerSchema = z.object({
   kind: z.literal('batch'),
   format: z.string(),
@@ -138,6 +156,8 @@ export const headerSchema = z.object({
   /** top-up: the gas the plan assumed already in the tank */
   in_tank: z.object({ composition: fractions, pressure_Pa: z.number().positive() }).nullable().optional(),
   recipe: z.unknown().optional(),
+  /** two-stage preparation: which stage this log records (absent: a single-tank batch; io/stage-log.ts) */
+  stage: stageSchema.optional(),
   findings: z
     .array(
       z.object({

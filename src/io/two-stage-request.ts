@@ -25,6 +25,11 @@ function thermometerOf(req: PlanRequest): TwoStageInput['thermometer'] {
   return { uK: t.uncertaintyK, resolutionK: t.resolutionK, settlingK: settlingOf(req.lab.thermometer) };
 }
 
+/** an order as typed: "CH4,Ar@400 Torr,O2,Ar" */
+function orderText(order: NonNullable<PlanRequest['recipe']['order']>): string {
+  return order.map((e) => (typeof e === 'string' ? e : `${e.fill}@${e.until}`)).join(',');
+}
+
 /** the core's two-stage input from the recipe's premix block; undefined when the recipe asks for none */
 export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInput | undefined {
   const pm = req.recipe.premix;
@@ -41,6 +46,12 @@ export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInp
     if (!key) return fail({ code: 'unknown-species', name: g, suggestions: [] }, where('gases'));
     return key;
   });
+  // the two-stage plan chooses the batch's order around its premix: an order given would be ignored
+  if (req.recipe.order)
+    fail(
+      { code: 'stage-order', premixTank: pm.tank, order: orderText(req.recipe.order) },
+      { field: 'order' }, // pointed at the recipe line or the option by the caller (locateCoreProblem)
+    );
   const barometricPa = req.input.reading.barometricPa;
   return {
     batch: req.input,

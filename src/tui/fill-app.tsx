@@ -22,6 +22,7 @@ import { labelLines, labelModel } from '../report/label-model.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
+import { StageEnd } from './stage-view.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -363,6 +364,14 @@ function EndScreen({
       <Text>
         Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.
       </Text>
+      {/* two-stage preparation: the premix's re-check, mixing time and stage-2 command (stage-view.tsx) */}
+      {h.stage ? (
+        <StageEnd
+          header={h}
+          report={check && 'report' in check ? check.report : undefined}
+          closed={state.phase === 'done'}
+        />
+      ) : null}
     </Box>
   );
 }

@@ -27,6 +27,8 @@ const CHECK_TRIALS = 200000;
 import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';
 import { sheetToHtml } from '../report/sheet-render.js';
+import { joinSheets, stageSheets } from '../report/two-stage-sheet.js';
+import { premixLogPath, refuseLowPremix, shellLine, stage1Header } from '../io/stage-log.js';
 import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.js';
 
 export interface FillOutcome {
@@ -166,14 +168,52 @@ function writeWizardFile(
   };
 }
 
-/** a batch log name not taken yet: <id>-<UTC minute>, then -2, -3 ... when two fills start within one minute */
+/**
+ * a batch log name not taken yet: <id>-<UTC minute>, then -2, -3 ... when two fills start within one
+ * minute (neither the batch's log nor its premix log taken)
+ */
 function freeLogName(dir: string, id: string): { id: string; file: string } {
   const stamp = `${id}-${new Date().toISOString().replace(/[-:]/g, '').slice(0, 13)}`;
   for (let n = 1; ; n++) {
     const batchId = n === 1 ? stamp : `${stamp}-${n}`;
     const file = join(dir, `${batchId}.jsonl`);
-    if (!existsSync(file)) return { id: batchId, file };
+    if (!existsSync(file) && !existsSync(premixLogPath(dir, batchId))) return { id: batchId, file };
   }
+}
+
+/**
+ * Stage 1 from the wizard: the premix log, once the recipe on screen is saved (stage 2 is filled
+ * from that recipe file and the premix log: the command the end screen gives names both).
+ */
+function wizardPremixFill(
+  s: WizardState,
+  built: ReturnType<typeof buildFromValues>,
+  dir: string,
+  ctx: WizardContext,
+): ActOutcome | { header: LogHeader; logFile: string } {
+  const recipeFile = join(ctx.recipesDir ?? 'recipes', `${s.values.id}.yaml`);
+  const text = `# written by the mixwright wizard\n${stringify(recipeFromValues(s.values))}`;
+  let saved = false;
+  try {
+    saved = readFileSync(recipeFile, 'utf8') === text;
+  } catch {
+    // not saved yet
+  }
+  if (!saved)
+    return {
+      kind: 'message',
+      text:
+        `guided fill not started: a two-stage fill needs the recipe saved first (${recipeFile}): ` +
+        'stage 2 is filled from it and the premix log. Use [save recipe], then start the fill again',
+    };
+  refuseLowPremix(built.plan);
+  mkdirSync(dir, { recursive: true });
+  const { id } = freeLogName(dir, s.values.id);
+  const logFile = premixLogPath(dir, id);
+  const words = ['mixwright', 'fill', recipeFile, ...(ctx.labFile ? ['--lab', ctx.labFile] : [])];
+  const next = shellLine([...words, '--premix-log', logFile, '--batch', id, '--dir', dir]);
+  createLog(logFile, stage1Header(built.plan, built.req, id, new Date().toISOString(), next));
+  return { header: readLog(logFile).header, logFile };
 }
 
 /** carry out a wizard action: what to show (a message or a question), or the log of a guided fill to hand over to */
@@ -212,18 +252,26 @@ export function wizardAct(
             Boolean(built.req.tankInfo?.stirred),
           )
         : undefined;
-      const model = buildSheetModel(built.plan, {
-        recipe: built.recipe,
-        labName: built.req.lab.name,
-        orderRecommended: built.req.orderRecommended,
-        unit: 'Torr',
-        version: ctx.version,
-        paper: 'a4',
-        mixing,
-      });
-      return writeWizardFile(file, sheetToHtml(model), 'fill sheet', action, replace, ctx);
+      // a two-stage design writes both stages, stage 1 first (as `sheet --premix-tank`)
+      const models = stageSheets(
+        built.plan,
+        {
+          recipe: built.recipe,
+          labName: built.req.lab.name,
+          orderRecommended: built.req.orderRecommended,
+          unit: 'Torr',
+          version: ctx.version,
+          paper: 'a4',
+          mixing,
+        },
+        buildSheetModel,
+      );
+      const html = joinSheets(models.map(sheetToHtml), 'html');
+      return writeWizardFile(file, html, 'fill sheet', action, replace, ctx);
     }
     const dir = ctx.batchesDir ?? 'batches';
+    // two stages: the guided fill makes the premix (stage 1); its end screen gives the stage-2 command
+    if (built.plan.twoStage) return wizardPremixFill(s, built, dir, ctx);
     mkdirSync(dir, { recursive: true });
     const { id, file: logFile } = freeLogName(dir, s.values.id);
     createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString()));

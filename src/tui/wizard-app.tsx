@@ -1,4 +1,5 @@
 /** The design wizard screen (ink): fields left, live preview right, actions below. */
+import { useEffect } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
 import { splitChunk } from './keys.js';
@@ -62,6 +63,31 @@ export function wizardActions(
   );
 }
 
+/** preview lines shown: one tank, and two stages (both stages' fills; the screen has 24 rows) */
+const PREVIEW_LINES = 9;
+const PREVIEW_LINES_TWO_STAGE = 13;
+/** the pause in typing after which a two-stage design is planned (a plan takes about a second) */
+export const EVALUATE_PAUSE_MS = 400;
+
+/** a two-stage design is evaluated after a pause in typing: each change restarts the wait */
+function usePausedEvaluation(
+  state: WizardState,
+  current: () => WizardState,
+  setState: (s: WizardState) => void,
+  evaluate: Evaluate,
+): void {
+  const { pending } = state.evaluation;
+  const { values } = state;
+  useEffect(() => {
+    if (!pending) return undefined;
+    const t = setTimeout(() => {
+      const evaluation = evaluate(values, true);
+      setState(wizardReducer(current(), { type: 'evaluated', values, evaluation }, evaluate));
+    }, EVALUATE_PAUSE_MS);
+    return () => clearTimeout(t);
+  }, [pending, values, current, setState, evaluate]);
+}
+
 export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const app = useApp();
@@ -85,6 +111,7 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
     }
     setState(s);
   });
+  usePausedEvaluation(state, current, setState, evaluate);
   const field = currentField(state);
   const err = state.evaluation.error;
   const tabLine = field && SPECIES_FIELDS.includes(field) ? completionLine(state.values[field], field) : '';
@@ -113,7 +140,7 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
               err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)',
             ]
           )
-            .slice(0, 9)
+            .slice(0, state.values.premix.trim() ? PREVIEW_LINES_TWO_STAGE : PREVIEW_LINES)
             .map((l, i) => (
               <Text key={i} wrap="truncate-end">
                 {l}

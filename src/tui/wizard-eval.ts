@@ -1,12 +1,13 @@
 /** The wizard's evaluator: field values -> recipe -> plan preview, or the first problem and its field. */
-import { describeProblem, fillLabel, planFill, ProblemError, type Plan } from '../core/index.js';
+import { describeProblem, planFill, ProblemError, type Plan } from '../core/index.js';
 import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } from '../io/load.js';
 import { planWithPrediction } from '../io/plan-predict.js';
+import { planTwoStageFrom, twoStageInputOf } from '../io/two-stage-request.js';
+import { findingLines, stepLines, twoStagePreview } from './stage-preview.js';
 import { predictedShortLines } from '../report/predicted-text.js';
 import type { RecipeFile } from '../io/recipe.js';
-import { fromPa, isPressureUnit } from '../io/quantity.js';
-import { decimalsFor, fixedSig } from '../report/format.js';
-import { chargeShort } from '../report/charges.js';
+import { fromPa } from '../io/quantity.js';
+import { fixedSig } from '../report/format.js';
 import { rankFor, type Evaluation, type FieldName } from './wizard-state.js';
 
 const FIELD_OF: [RegExp, FieldName][] = [
@@ -18,6 +19,7 @@ const FIELD_OF: [RegExp, FieldName][] = [
   [/^mixture\.dilution/, 'dilution'],
   [/^mixture/, 'fuel'],
   [/^(tank|volume)/, 'tank'],
+  [/^premix/, 'premix'],
   [/^(pressure|experiments)/, 'pressure'],
   [/^temperature/, 'temperature'],
 ];
@@ -32,6 +34,7 @@ export function recipeFromValues(v: Readonly<Record<FieldName, string>>): Record
   const r: Record<string, unknown> = { id: v.id, mixture, temperature: v.temperature };
   if (/^\s*[\d.]+\s*(l|L|m\^3|cm\^3|mL)\s*$/.test(v.tank)) r.volume = v.tank.trim();
   else if (v.tank.trim()) r.tank = v.tank.trim();
+  if (v.premix.trim()) r.premix = { tank: v.premix.trim() };
   const ex = /^\s*(\d+)\s*(exp|experiments?)\s*$/i.exec(v.pressure);
   if (ex) r.experiments = { count: Number(ex[1]) };
   else r.pressure = v.pressure;
@@ -57,7 +60,11 @@ export function buildFromValues(
   const raw = recipeFromValues(v);
   const locate = (path: readonly (string | number)[]) => ({ field: path.join('.') });
   const recipe = validateRecipeObject(raw, 'wizard', locate);
-  const req = buildPlanRequest({ recipe, locate, baseDir: process.cwd(), origin: 'wizard' }, labFile);
+  const rs = { recipe, locate, baseDir: process.cwd(), origin: 'wizard' };
+  const req = buildPlanRequest(rs, labFile);
+  // two stages: the same plan (and search) as `plan --premix-tank`, preview or not
+  const two = twoStageInputOf(req, rs);
+  if (two) return { recipe, req, plan: planTwoStageFrom(two, rs) };
   const input = preview ? { ...req.input, thermometer: undefined } : req.input;
   return { recipe, req, plan: planWithPrediction(planFill(input), req) };
 }
@@ -121,8 +128,24 @@ export function fieldProblem(
     if (!NUMBER.test(v[f]))
       return { field: f, message: `${label[f]} "${v[f]}" is not a number: give ${example[f]}` };
   }
+  const premix = v.premix.trim();
+  if (premix && !tankIds.includes(premix))
+    return {
+      field: 'premix',
+      message:
+        `"${premix}" is not a tank of the lab profile${tanks}: name a second tank to make the ` +
+        'premix in, or leave it empty for a single tank',
+    };
+  if (premix && premix === v.tank.trim())
+    return {
+      field: 'premix',
+      message: `the premix must be made in another tank than the batch (both are ${premix}); name a second tank`,
+    };
   return undefined;
 }
+
+/** what the preview shows while a two-stage design waits for a pause in typing */
+export const PENDING_LINES = ['two stages: planned after a short pause in typing ...'];
 
 export function makeEvaluator(labFile?: string) {
   let tankIds: string[] = [];
@@ -131,12 +154,14 @@ export function makeEvaluator(labFile?: string) {
   } catch {
     // a lab profile that does not load: the plan below reports it, on the tank field or as the first problem
   }
-  return (v: Readonly<Record<FieldName, string>>): Evaluation => {
+  return (v: Readonly<Record<FieldName, string>>, full = false): Evaluation => {
     const early = fieldProblem(v, tankIds);
     if (early) return { error: early };
+    // a two-stage plan takes about a second: not on every key, after a pause in typing (wizard-app.tsx)
+    if (v.premix.trim() && !full) return { pending: true, preview: { lines: PENDING_LINES, danger: false } };
     try {
       const { plan } = buildFromValues(v, labFile, true);
-      return { preview: previewOf(plan) };
+      return { preview: plan.twoStage ? twoStagePreview(plan) : previewOf(plan) };
     } catch (e) {
       // not a problem the core words (a bug): say so rather than end the wizard with the design in it
       if (!(e instanceof ProblemError))
@@ -170,26 +195,11 @@ function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
   lines.push(
     `final ${fixedSig(fromPa(plan.final.pressurePa, 'Torr'), 6)} Torr, Z ${plan.final.compressibility.toFixed(5)}`,
   );
-  for (const s of plan.steps) {
-    const u = s.gauge && isPressureUnit(s.gauge.unit) ? s.gauge.unit : 'Torr';
-    const dec = s.gauge ? decimalsFor(fromPa(s.gauge.resolutionPa, u)) : 3;
-    lines.push(
-      `${s.index} ${chargeShort(fillLabel(s.source), s.charge).padEnd(7)} ${s.gauge?.id ?? 'NO GAUGE'} ` +
-        `${s.gauge ? fromPa(s.gauge.readingPa, u).toFixed(dec) : '-'} ${u}`,
-    );
-  }
+  lines.push(...stepLines(plan));
   lines.push(...predictedShortLines(plan));
   lines.push(
     'preview in the advised order; the sheet, the fill and `mixwright plan` search for a more precise safe sequence',
   );
-  const rank = { danger: 0, warning: 1, note: 2 } as const;
-  const top = [...plan.findings]
-    .filter((f) => f.severity !== 'note')
-    .sort((a, b) => rank[a.severity] - rank[b.severity]);
-  for (const f of top.slice(0, 4))
-    lines.push(
-      `${f.severity === 'danger' ? 'DANGER' : 'warning'} ${f.code}${f.step ? ` (fill ${f.step})` : ''}`,
-    );
-  if (top.length > 4) lines.push(`+${top.length - 4} more; see mixwright plan`);
+  lines.push(...findingLines(plan.findings));
   return { lines, danger: plan.findings.some((f) => f.severity === 'danger') };
 }

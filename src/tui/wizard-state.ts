@@ -19,6 +19,7 @@ export const FIELDS = [
   'diluent',
   'dilution',
   'tank',
+  'premix',
   'pressure',
   'temperature',
 ] as const;
@@ -34,6 +35,7 @@ export const FIELD_HELP: Record<FieldName, string> = {
   diluent: 'bath gas: Ar, or Ar:0.5,He:0.5 (empty: none)',
   dilution: 'diluent mole fraction, 0 to below 1',
   tank: 'a tank of the lab profile, or a volume such as 30 L',
+  premix: 'two stages: a second tank to make a premix in first (MT-2); empty: one tank',
   pressure: 'final pressure such as 1500 Torr, or 40 exp (enough for 40 experiments)',
   temperature: 'tank temperature such as 22 degC',
 };
@@ -45,6 +47,11 @@ export interface Preview {
 
 export interface Evaluation {
   readonly preview?: Preview;
+  /**
+   * a two-stage design: its plan (about a second) is evaluated after a pause in typing, not on every
+   * key (the screen sends `evaluated`); until then the preview says it is waiting
+   */
+  readonly pending?: boolean;
   /** the first problem, with the field it concerns */
   readonly error?: { readonly field?: FieldName; readonly message: string };
 }
@@ -94,9 +101,16 @@ export type WizardAction =
   /** Esc or Ctrl-C */
   | { readonly type: 'escape' }
   | { readonly type: 'result'; readonly outcome: ActOutcome }
+  /** the full (two-stage) evaluation of `values`, made after a pause in typing: taken if they are still on screen */
+  | {
+      readonly type: 'evaluated';
+      readonly values: Readonly<Record<FieldName, string>>;
+      readonly evaluation: Evaluation;
+    }
   | { readonly type: 'done'; readonly message: string };
 
-export type Evaluate = (values: Readonly<Record<FieldName, string>>) => Evaluation;
+/** `full`: evaluate a two-stage design now (else it comes back `pending`, for a pause in typing) */
+export type Evaluate = (values: Readonly<Record<FieldName, string>>, full?: boolean) => Evaluation;
 
 export const DEFAULTS: Record<FieldName, string> = {
   id: 'my-design',
@@ -106,6 +120,7 @@ export const DEFAULTS: Record<FieldName, string> = {
   diluent: 'Ar',
   dilution: '0.95',
   tank: '',
+  premix: '',
   pressure: '1500 Torr',
   temperature: '22 degC',
 };
@@ -270,5 +285,10 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
     }
     case 'done':
       return { ...base, message: a.message };
+    case 'evaluated':
+      // a result for values no longer on screen (typed on meanwhile) is dropped: the next pause brings its own
+      return FIELDS.every((f) => a.values[f] === base.values[f])
+        ? { ...base, evaluation: a.evaluation }
+        : base;
   }
 }

@@ -31,8 +31,8 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       await t.type('0.98');
       await t.waitFor(/dilution\s+0\.98/);
       await t.waitFor(/1 CH4\s+head-1kT 10\.\d+ Torr/);
-      // to the actions: tank, pressure, temperature, then save, sheet, fill
-      await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
+      // to the actions: tank, premix, pressure, temperature, then save, sheet, fill
+      await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
       // the wizard's fill plans with the sequence search: CH4, Ar (charge 1 of 2), O2, Ar (charge 2 of 2)
       let s = await t.waitFor(/fill 1 of 4/);
       for (const k of [1, 2]) {

@@ -18,16 +18,16 @@ describe.runIf(hasTmux || required)('wizard keeps work in a real terminal (tmux)
     const dilution = () => /dilution: ([\d.]+)/.exec(readFileSync(recipe, 'utf8'))![1];
     const setDilution = async (last: string) => {
       // from [save recipe] up to dilution, change its last digit, back down to [save recipe]
-      await t.keys('Up', 'Up', 'Up', 'Up', 'BSpace');
+      await t.keys('Up', 'Up', 'Up', 'Up', 'Up', 'BSpace');
       await t.type(last);
       await t.waitFor(new RegExp(`dilution\\s+0\\.9${last}`));
-      await t.keys('Down', 'Down', 'Down', 'Down');
+      await t.keys('Down', 'Down', 'Down', 'Down', 'Down');
     };
     try {
       t.start(`node ${BIN}; echo EXIT=$?`);
       await t.waitFor(/preview/);
       // from fuel down to [save recipe]
-      await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
+      await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
       await t.waitFor(/saved recipes\/my-design\.yaml/);
       expect(dilution()).toBe('0.95');
       await t.keys('Enter');

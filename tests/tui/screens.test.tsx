@@ -254,7 +254,7 @@ describe('wizard (reducer and screen)', () => {
   });
   it('reducer: an action on an invalid design is refused; on a valid one it is requested', () => {
     let s = wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' });
-    for (let i = 0; i < 8; i++) s = wizardReducer(s, { type: 'down' }, evaluate); // from fuel to "save recipe"
+    for (let i = 0; i < 9; i++) s = wizardReducer(s, { type: 'down' }, evaluate); // from fuel to "save recipe"
     expect(wizardReducer(s, { type: 'enter' }, evaluate).request).toBe('save recipe');
     const bad = { ...s, evaluation: { error: { message: 'x' } } };
     const r = wizardReducer(bad, { type: 'enter' }, evaluate);

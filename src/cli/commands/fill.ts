@@ -8,6 +8,7 @@ import { headerFromPlan } from '../../io/check.js';
 import { fillEnded, fromTui, type Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { planFrom } from '../plan-from.js';
+import { fillPremixStage } from '../stage-fill.js';
 
 type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string };
 
@@ -25,11 +26,14 @@ async function fill(cli: Cli, recipeFile: string | undefined, o: FillOptions): P
   if (!cli.isTTY) throw new ProblemError({ code: 'needs-terminal', command: 'fill' }, { field: 'fill' });
   if (o.resume) return resume(cli, recipeFile, o.resume);
   const tui = await import('../../tui/run.js');
-  const { plan, req } = planFrom(recipeFile, o);
+  const planned = planFrom(recipeFile, o);
+  const { plan, req } = planned;
   const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
   const id = o.batch ?? `${req.recipe.id}-${stamp}`;
   if (!/^[A-Za-z0-9._-]+$/.test(id))
     throw new ProblemError({ code: 'bad-batch-id', id }, { field: '--batch' });
+  // two stages: this fill makes the premix (stage 1); the batch is filled from its log (cli/stage-fill.ts)
+  if (plan.twoStage) return fillPremixStage(cli, recipeFile, o, planned, id);
   mkdirSync(o.dir, { recursive: true });
   const file = join(o.dir, `${id}.jsonl`);
   createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));

@@ -1,0 +1,59 @@
+/**
+ * The guided fill of a two-stage preparation. Stage 1 (`fill RECIPE --premix-tank ID`, or a
+ * recipe with `premix.tank`): the premix, in the premix tank, into `<batch>-premix.jsonl`, with
+ * the same screens, log, undo and resume as any fill; its end screen gives the premix's
+ * re-checked composition, its mixing time and the stage-2 command. Every refusal is a
+ * `stage-fill` problem (core/stage-words.ts).
+ */
+import { mkdirSync } from 'node:fs';
+import { createLog, readLog } from '../io/batch-log.js';
+import {
+  premixLogPath,
+  refuseExistingStageLog,
+  refuseLowPremix,
+  shellLine,
+  stage1Header,
+} from '../io/stage-log.js';
+import { fillEnded, fromTui, type Cli } from './context.js';
+import { attributeOf, DESIGN_OPTIONS, optionName, type DesignValues } from './design-options.js';
+import type { Planned } from './plan-from.js';
+
+/**
+ * The command that fills stage 2 from the premix log: the same recipe and design options (the
+ * premix tank left out: the batch's premix is the log's), the premix log, batch id and folder.
+ */
+export function stage2Command(
+  recipeFile: string | undefined,
+  o: DesignValues,
+  premixLog: string,
+  batchId: string,
+  dir: string,
+): string {
+  const words = ['mixwright', 'fill'];
+  if (recipeFile) words.push(recipeFile);
+  for (const d of DESIGN_OPTIONS) {
+    const v = o[attributeOf(d)];
+    if (v === undefined || d.recipe === 'premix.tank') continue;
+    words.push(optionName(d), v);
+  }
+  words.push('--premix-log', premixLog, '--batch', batchId, '--dir', dir);
+  return shellLine(words);
+}
+
+/** stage 1: the premix of a two-stage plan, guided into `<dir>/<batch>-premix.jsonl` */
+export async function fillPremixStage(
+  cli: Cli,
+  recipeFile: string | undefined,
+  o: DesignValues & { dir: string },
+  planned: Planned,
+  batchId: string,
+): Promise<void> {
+  refuseLowPremix(planned.plan);
+  const file = premixLogPath(o.dir, batchId);
+  refuseExistingStageLog(file, 1);
+  mkdirSync(o.dir, { recursive: true });
+  const next = stage2Command(recipeFile, o, file, batchId, o.dir);
+  createLog(file, stage1Header(planned.plan, planned.req, batchId, new Date().toISOString(), next));
+  const tui = await import('../tui/run.js');
+  fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+}

@@ -1,0 +1,70 @@
+/**
+ * The wording of the two-stage guided fill's refusals (`stage-fill`, `stage-order`): what, where,
+ * why and what to do. Kept beside messages.ts, which spreads it in.
+ */
+import { TORR_PA } from './constants.js';
+import type { StageFillCause, StageProblem } from './problems.js';
+
+const torr = (pa: number) => `${Number((pa / TORR_PA).toPrecision(5))} Torr`;
+
+function fillCause(c: StageFillCause): string {
+  switch (c.kind) {
+    case 'log-exists':
+      return (
+        `the stage-${c.stage} log ${c.file} exists: a fill of this ${c.stage === 1 ? 'premix' : 'batch'} ` +
+        `was started already, and a log is never overwritten; continue it with ` +
+        `\`mixwright fill --resume ${c.file}\`, or give another --batch id for a new one`
+      );
+    case 'premix-low':
+      return (
+        `the premix tank ${c.tank}, at ${torr(c.startPa)}` +
+        `${c.from === 'log' ? ' by its log' : ' as planned'}, falls to ${torr(c.endPa)} once the batch ` +
+        `has drawn its premix, but the batch's premix charge must reach ${torr(c.targetPa)} ` +
+        `(${torr(c.requiredPa)} with the 10 % margin: gas flows only while the premix tank is higher); ` +
+        (c.from === 'log'
+          ? 'make a new premix to a higher pressure, or a smaller batch'
+          : "plan the premix to a higher pressure (recipe premix.pressure, within the tank's working limit) " +
+            'or a smaller batch')
+      );
+    case 'premix-open':
+      return (
+        `the premix log ${c.file} is not closed (${c.logged} of ${c.steps} fills logged): its premix is ` +
+        `unfinished, so its composition is not known; finish it with \`mixwright fill --resume ${c.file}\``
+      );
+    case 'premix-danger':
+      return (
+        `the premix log ${c.file} records a danger (${c.findings.join('; ')}): the premix tank must be ` +
+        `inspected before its gas is used; see \`mixwright check ${c.file}\``
+      );
+    case 'premix-unproven':
+      return (
+        `the re-check of the premix log ${c.file} is ${c.verdict === 'no-design' ? 'without a design' : c.verdict}` +
+        `${c.worst ? ` (${c.worst})` : ''}: its composition is not shown within tolerance, and the batch ` +
+        `would carry it; see \`mixwright check ${c.file}\`, and make the premix again`
+      );
+    case 'premix-changed':
+      return (
+        `the premix log ${c.file} ${c.found === null ? 'cannot be read' : 'has changed'} since this batch ` +
+        `was started from it (sha256 ${c.expected.slice(0, 12)}..., now ` +
+        `${c.found === null ? 'none' : `${c.found.slice(0, 12)}...`}): the batch's targets rest on the ` +
+        `premix as it was logged then; restore that log, or start a new batch from the premix log as it is`
+      );
+    case 'premix-other-batch':
+      return (
+        `the premix log ${c.file} was made for batch ${c.batch}, not ${c.asked}: give --batch ${c.batch}, ` +
+        `or name the premix log made for this batch`
+      );
+  }
+}
+
+/** the wording of a two-stage fill refusal */
+export function describeStageProblem(p: StageProblem): string {
+  if (p.code === 'stage-order')
+    return (
+      `a fill order (${p.order}) is not taken together with a premix tank (${p.premixTank}): the ` +
+      `two-stage plan chooses the batch's order around the premix it makes, and would otherwise ` +
+      `ignore the order given; leave out the order (the plan shows the order it chose), or plan ` +
+      `one tank with the order`
+    );
+  return fillCause(p.cause);
+}

@@ -1,0 +1,76 @@
+/**
+ * What the end screen of a two-stage fill adds (pure, tested alone): for stage 1 the premix's
+ * re-checked composition +- U (from the logged readings by `check`'s model, never the design), its
+ * mixing time at the logged final pressure, and the exact command of stage 2; for stage 2 the
+ * premix log the batch was filled from.
+ */
+import { mixingEstimate } from '../core/index.js';
+import type { LogHeader } from '../io/batch-log.js';
+import type { CheckReport } from '../io/check.js';
+import { fixedSig } from '../report/format.js';
+import { withU } from '../report/label-model.js';
+import { duration } from '../report/ready-report.js';
+
+const pct = (x: number) => `${Number((x * 100).toPrecision(2))} %`;
+
+/** the premix's re-checked fractions, largest first: "x(Ar) 86.58 % +- 0.26 % (U 0.040 % of the value)" */
+function fractionLines(report: CheckReport): string[] {
+  const r = report.result;
+  return [...r.species]
+    .map((k) => ({ k, st: r.composition[k] }))
+    .filter((e) => e.st && e.st.value >= 1e-4)
+    .sort((a, b) => b.st.value - a.st.value)
+    .map(
+      ({ k, st }) =>
+        `  x(${k}) ${withU(st.value * 100, 2 * st.u * 100, '%')}  (U ${pct((2 * st.u) / st.value)} of the value)`,
+    );
+}
+
+function mixingLines(header: LogHeader, report: CheckReport): string[] {
+  const t = header.stage?.premix_tank;
+  const last = report.readings[report.readings.length - 1];
+  if (!t || !last)
+    return ['Mixing: the lab profile gives no height for the premix tank; see `mixwright ready`'];
+  const y = Object.fromEntries(report.result.species.map((k) => [k, report.result.composition[k].value]));
+  const m = mixingEstimate(y, last.temperatureK, last.pressurePa, t.height_m, t.stirred);
+  const out: string[] = [];
+  if (m.to1PercentS !== undefined && m.to01PercentS !== undefined)
+    out.push(
+      `Mixing: by diffusion alone over ${fixedSig(t.height_m * 100, 3)} cm, ${duration(m.to1PercentS)} ` +
+        `to 1 %, ${duration(m.to01PercentS)} to 0.1 % residual non-uniformity` +
+        (m.pair ? ` (slowest pair ${m.pair.a}-${m.pair.b})` : ''),
+    );
+  else out.push('Mixing: no diffusion data for this premix; see `mixwright ready`');
+  out.push(
+    t.stirred
+      ? '  the premix tank is stirred: run the stirrer (common practice: 15-30 min) before stage 2'
+      : '  not stirred: wait at least the 0.1 % time before stage 2 draws from it',
+  );
+  return out;
+}
+
+/** the lines the end screen adds for a stage log; none for a single-tank batch */
+export function stageEndLines(header: LogHeader, report: CheckReport | undefined, closed: boolean): string[] {
+  const st = header.stage;
+  if (!st) return [];
+  if (st.number === 2)
+    return [
+      `Stage 2 of 2 - batch ${st.batch}, filled from the premix log ${st.premix_log?.file ?? '(not named)'}` +
+        ' (its re-checked composition is the premix source of this batch)',
+    ];
+  const out = [`Stage 1 of 2 - the premix for batch ${st.batch}`];
+  if (!report) return [...out, 'The premix is re-checked from its readings when the fill ends.'];
+  out.push("Premix as filled (re-checked from the logged readings by check's model, U at k = 2):");
+  out.push(...fractionLines(report));
+  out.push(...mixingLines(header, report));
+  if (!closed || report.verdict.verdict !== 'pass') {
+    out.push(
+      'Stage 2 will refuse this premix log: it must be closed, with no danger in its record and a ' +
+        're-check that shows it within tolerance (`mixwright check` says what is off).',
+    );
+    return out;
+  }
+  out.push('Next, stage 2 (the batch from this premix), once it is mixed:');
+  out.push(`  ${st.next_command ?? '(no command recorded)'}`);
+  return out;
+}

@@ -1,0 +1,99 @@
+// The guided fill of a two-stage preparation, as far as it runs before the screens open: its
+// refusals (exit 2 and the problem code, no log written or changed), the stage-2 command stage 1
+// records, and a fill order together with a premix tank, refused alike by plan, sheet and fill.
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../helpers.js';
+import { stage2Command } from '../../src/cli/stage-fill.js';
+
+const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
+const tmp = () => mkdtempSync(join(tmpdir(), 'mw-stagefill-'));
+
+describe('fill --premix-tank: refusals before any gas flows (exit 2)', () => {
+  it('a stage-1 log that exists is never overwritten: refused, naming the resume command (stage-fill, log-exists)', async () => {
+    const dir = tmp();
+    const file = join(dir, 'b1-premix.jsonl');
+    writeFileSync(file, 'kept\n');
+    const r = await runCli(['fill', RECIPE, '--premix-tank', 'MT-2', '--batch', 'b1', '--dir', dir], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: stage-fill)');
+    expect(r.stderr).toContain(`the stage-1 log ${file} exists`);
+    expect(r.stderr).toContain(`mixwright fill --resume ${file}`);
+    expect(readFileSync(file, 'utf8')).toBe('kept\n');
+  });
+
+  it('a premix tank that would run below the batch reading it must reach: refused (stage-fill, premix-low), no log', async () => {
+    const dir = tmp();
+    const recipe = join(dir, 'low.yaml');
+    writeFileSync(
+      recipe,
+      'id: low\ntank: MT-1\nmixture: {fuel: CH4, oxidizer: O2, diluent: Ar, phi: 1, dilution: 0.98}\n' +
+        'pressure: 1500 Torr\ntemperature: 25 degC\npremix: {tank: MT-2, pressure: 240 Torr, gases: [O2]}\n',
+    );
+    const r = await runCli(['fill', recipe, '--batch', 'b1', '--dir', join(dir, 'batches')], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: stage-fill)');
+    // the plan's delivery check (plan prints it as the premix-runs-low danger): 240 Torr falls to 190.62
+    expect(r.stderr).toMatch(/the premix tank MT-2, at 240 Torr as planned, falls to 190\.62 Torr/);
+    expect(r.stderr).toContain('must reach 212.87 Torr');
+    expect(existsSync(join(dir, 'batches'))).toBe(false);
+  });
+
+  it('not in a terminal: exit 2, pointing to plan, sheet and check (as every fill)', async () => {
+    const r = await runCli(['fill', RECIPE, '--premix-tank', 'MT-2', '--dir', tmp()]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: needs-terminal)');
+  });
+});
+
+describe('--order with a premix tank: refused alike by plan, sheet and fill (stage-order)', () => {
+  for (const argv of [
+    ['plan', RECIPE],
+    ['sheet', RECIPE, '--format', 'txt'],
+    ['fill', RECIPE, '--batch', 'o1'],
+  ])
+    it(`${argv[0]}: exit 2, the order named, nothing written`, async () => {
+      const dir = tmp();
+      const extra = argv[0] === 'fill' ? ['--dir', dir] : [];
+      const r = await runCli([...argv, '--premix-tank', 'MT-2', '--order', 'CH4,Ar,O2', ...extra], true);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toContain('(error code: stage-order)');
+      expect(r.stderr).toContain(
+        '--order: a fill order (CH4,Ar,O2) is not taken together with a premix tank (MT-2)',
+      );
+      expect(r.stdout).toBe('');
+      expect(readdirSync(dir)).toEqual([]);
+    });
+
+  it("a recipe's order with its premix block: refused at the recipe line", async () => {
+    const dir = tmp();
+    const recipe = join(dir, 'o.yaml');
+    writeFileSync(
+      recipe,
+      'id: o\ntank: MT-1\nmixture: {fuel: CH4, oxidizer: O2, diluent: Ar, phi: 1, dilution: 0.98}\n' +
+        'pressure: 1500 Torr\ntemperature: 25 degC\norder: [CH4, "Ar@400 Torr", O2, Ar]\npremix: {tank: MT-2}\n',
+    );
+    const r = await runCli(['plan', recipe]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain(`${recipe}:6:8 order: a fill order (CH4,Ar@400 Torr,O2,Ar) is not taken`);
+  });
+});
+
+describe('the stage-2 command stage 1 records', () => {
+  it('repeats the recipe and the design options given (not the premix tank), quoting what a shell needs', () => {
+    expect(
+      stage2Command(
+        'recipes/a b.yaml',
+        { premixTank: 'MT-2', pressure: '1400 Torr', phi: '0.9' },
+        'batches/b1-premix.jsonl',
+        'b1',
+        'batches',
+      ),
+    ).toBe(
+      "mixwright fill 'recipes/a b.yaml' --phi 0.9 --pressure '1400 Torr' --premix-log batches/b1-premix.jsonl " +
+        '--batch b1 --dir batches',
+    );
+  });
+});

@@ -1,0 +1,156 @@
+// The two-stage screens as pure logic: the wizard's premix field (evaluated after a pause in
+// typing, never on every key; a result for values no longer on screen is dropped), its two-stage
+// preview, and the end screen's block of a stage-1 fill (re-checked premix, mixing, stage-2 command).
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { FIELDS, DEFAULTS, wizardInit, wizardReducer, type Evaluate } from '../../src/tui/wizard-state.js';
+import {
+  buildFromValues,
+  makeEvaluator,
+  PENDING_LINES,
+  recipeFromValues,
+} from '../../src/tui/wizard-eval.js';
+import { stageEndLines } from '../../src/tui/stage-state.js';
+import { appendEvent, createLog, readLog } from '../../src/io/batch-log.js';
+import { checkLog } from '../../src/io/check.js';
+import { stage1Header } from '../../src/io/stage-log.js';
+import { planFrom } from '../../src/cli/plan-from.js';
+
+const TORR = 101325 / 760;
+const V = { ...DEFAULTS, tank: 'MT-1', dilution: '0.98' };
+
+describe('wizard: the premix field', () => {
+  it('typing in it never runs the two-stage plan: each key leaves the evaluation pending', () => {
+    const calls: boolean[] = [];
+    const evaluate: Evaluate = (v, full) => {
+      calls.push(Boolean(full));
+      return v.premix
+        ? { pending: true, preview: { lines: ['wait'], danger: false } }
+        : { preview: { lines: ['one'], danger: false } };
+    };
+    let s = wizardInit(evaluate, V);
+    s = { ...s, focus: FIELDS.indexOf('premix') };
+    for (const ch of 'MT-2') s = wizardReducer(s, { type: 'char', text: ch }, evaluate);
+    expect(s.values.premix).toBe('MT-2');
+    expect(s.evaluation.pending).toBe(true);
+    expect(calls.every((full) => !full)).toBe(true);
+    // the screen's evaluation after the pause, for the values on screen: taken
+    const done = { preview: { lines: ['stage 1: ...'], danger: false } };
+    const t = wizardReducer(s, { type: 'evaluated', values: s.values, evaluation: done }, evaluate);
+    expect(t.evaluation).toBe(done);
+    // for values typed over meanwhile: dropped (the next pause brings its own)
+    const stale = wizardReducer(
+      s,
+      { type: 'evaluated', values: { ...s.values, premix: 'MT-' }, evaluation: done },
+      evaluate,
+    );
+    expect(stale.evaluation.pending).toBe(true);
+  });
+
+  it('refuses a premix tank that is not in the lab profile, or is the batch tank, on the premix field', () => {
+    const evaluate = makeEvaluator();
+    expect(evaluate({ ...V, premix: 'MT-9' }).error).toMatchObject({ field: 'premix' });
+    expect(evaluate({ ...V, premix: 'MT-9' }).error?.message).toContain(
+      '"MT-9" is not a tank of the lab profile (MT-1, MT-2)',
+    );
+    expect(evaluate({ ...V, premix: 'MT-1' }).error?.message).toContain(
+      'another tank than the batch (both are MT-1)',
+    );
+    expect(evaluate({ ...V, premix: 'MT-2' })).toEqual({
+      pending: true,
+      preview: { lines: PENDING_LINES, danger: false },
+    });
+  });
+
+  it('the full evaluation shows both stages: the fills of each as the plan has them, U of each and the premix tank', () => {
+    const v = { ...V, premix: 'MT-2' };
+    expect(recipeFromValues(v).premix).toEqual({ tank: 'MT-2' });
+    const lines = makeEvaluator()(v, true).preview!.lines;
+    const plan = buildFromValues(v).plan;
+    const two = plan.twoStage!;
+    const s1 = lines.findIndex((l) => l.startsWith('stage 1: 13.4 % O2 in Ar in MT-2'));
+    const s2 = lines.findIndex((l) => l.startsWith('stage 2: the batch in MT-1'));
+    expect(s1).toBe(0);
+    expect(s2).toBe(1 + two.premix.steps.length + 1);
+    // each stage's readings on their gauges, as the plan gives them (the plan's own numbers, 0.05 Torr)
+    two.premix.steps.forEach((st, i) => {
+      const n = Number(/([\d.]+) Torr$/.exec(lines[s1 + 1 + i])![1]);
+      expect(Math.abs(n - st.gauge!.readingPa / TORR)).toBeLessThan(0.05);
+    });
+    plan.steps.forEach((st, i) => {
+      const n = Number(/([\d.]+) Torr$/.exec(lines[s2 + 1 + i])![1]);
+      expect(Math.abs(n - st.gauge!.readingPa / TORR)).toBeLessThan(0.05);
+    });
+    expect(lines[s2 - 1]).toMatch(/^ {2}U x\(O2\) 0\.26 % \(tol 0\.5 %\)$/);
+    expect(lines[s2 + plan.steps.length + 1]).toMatch(/^ {2}U x\(O2\) 0\.36 % \(tol 0\.5 %\)$/);
+    expect(lines.find((l) => l.startsWith('MT-2 '))).toMatch(/^MT-2 1890->1841 Torr, need 572\.\d$/);
+    expect(lines.every((l) => l.length <= 34)).toBe(true);
+  });
+});
+
+describe('end screen of a stage-1 fill', () => {
+  const planned = planFrom('recipes/ch4-o2-ar-phi1.yaml', { premixTank: 'MT-2' });
+  const steps = planned.plan.twoStage!.premix.steps;
+
+  async function premixReport(readings: readonly number[]) {
+    const file = join(mkdtempSync(join(tmpdir(), 'mw-stage-end-')), 'b1-premix.jsonl');
+    createLog(
+      file,
+      stage1Header(
+        planned.plan,
+        planned.req,
+        'b1',
+        '2026-12-03T09:00:00Z',
+        'mixwright fill R --premix-log L',
+      ),
+    );
+    steps.forEach((s, i) =>
+      appendEvent(file, {
+        kind: 'reading',
+        step: s.index,
+        source: s.source.id,
+        gauge: s.gauge!.id,
+        reading: `${readings[i] / TORR} Torr`,
+        pressure_Pa: readings[i],
+        temperature: '25.0 degC',
+        temperature_K: 298.15,
+        time: `2026-12-03T09:1${i}:00Z`,
+      }),
+    );
+    const log = readLog(file);
+    return { header: log.header, report: await checkLog(log, { trials: 0, seed: 1 }) };
+  }
+
+  it("at the targets: the premix's re-check +- U (check's model), the mixing time, and the stage-2 command", async () => {
+    const { header, report } = await premixReport(steps.map((s) => s.targetPa));
+    const lines = stageEndLines(header, report, true);
+    expect(lines[0]).toBe('Stage 1 of 2 - the premix for batch b1');
+    // x(O2) = the plan's 0.134228 (README two-stage table) +- 2u of check's GUM (0.26 % of the value)
+    const o2 = report.result.composition.O2;
+    expect(o2.value).toBeCloseTo(0.134228, 6);
+    expect(lines).toContain(`  x(O2) 13.423 % +- 0.035 %  (U 0.26 % of the value)`);
+    expect(
+      lines.some((l) => /^Mixing: by diffusion alone over 55\.0 cm, .+ to 1 %, .+ to 0\.1 %/.test(l)),
+    ).toBe(true);
+    expect(lines.slice(-2)).toEqual([
+      'Next, stage 2 (the batch from this premix), once it is mixed:',
+      '  mixwright fill R --premix-log L',
+    ]);
+  });
+
+  it('not closed, or its re-check not a pass: no stage-2 command, but why stage 2 will refuse it', async () => {
+    const { header, report } = await premixReport([steps[0].targetPa, steps[1].targetPa + 2 * TORR]);
+    expect(report.verdict.verdict).not.toBe('pass');
+    const lines = stageEndLines(header, report, true);
+    expect(lines.join('\n')).not.toContain('mixwright fill R');
+    expect(lines[lines.length - 1]).toMatch(/^Stage 2 will refuse this premix log/);
+    const ok = await premixReport(steps.map((s) => s.targetPa));
+    expect(stageEndLines(ok.header, ok.report, false).join('\n')).toContain('Stage 2 will refuse');
+  });
+
+  it('a single-tank log adds nothing', () => {
+    expect(stageEndLines(readLog('batches/demo-ch4-phi1-ar98.jsonl').header, undefined, true)).toEqual([]);
+  });
+});
