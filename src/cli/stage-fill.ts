@@ -6,6 +6,7 @@
  * `stage-fill` problem (core/stage-words.ts).
  */
 import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
 import { createLog, readLog } from '../io/batch-log.js';
 import {
   premixLogPath,
@@ -51,6 +52,8 @@ export async function fillPremixStage(
   refuseLowPremix(planned.plan);
   const file = premixLogPath(o.dir, batchId);
   refuseExistingStageLog(file, 1);
+  // the batch's own log (stage 2) must be free too: stage 2 writes it beside the premix log
+  refuseExistingStageLog(join(o.dir, `${batchId}.jsonl`), 2);
   mkdirSync(o.dir, { recursive: true });
   const next = stage2Command(recipeFile, o, file, batchId, o.dir);
   createLog(file, stage1Header(planned.plan, planned.req, batchId, new Date().toISOString(), next));

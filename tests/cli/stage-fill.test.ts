@@ -24,6 +24,17 @@ describe('fill --premix-tank: refusals before any gas flows (exit 2)', () => {
     expect(readFileSync(file, 'utf8')).toBe('kept\n');
   });
 
+  it("the batch's own log taken already: stage 1 is refused too (stage 2 could not write it)", async () => {
+    const dir = tmp();
+    writeFileSync(join(dir, 'b1.jsonl'), 'kept\n');
+    const r = await runCli(['fill', RECIPE, '--premix-tank', 'MT-2', '--batch', 'b1', '--dir', dir], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain(
+      `the stage-2 log ${join(dir, 'b1.jsonl')} exists: a fill of this batch was started`,
+    );
+    expect(readdirSync(dir)).toEqual(['b1.jsonl']);
+  });
+
   it('a premix tank that would run below the batch reading it must reach: refused (stage-fill, premix-low), no log', async () => {
     const dir = tmp();
     const recipe = join(dir, 'low.yaml');
