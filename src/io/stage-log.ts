@@ -15,15 +15,21 @@ import { basename, dirname, join, relative, resolve } from 'node:path';
 import {
   describeFinding,
   fail,
+  planFill,
+  premixDeliveryCheck,
   ProblemError,
   TORR_PA,
   type Finding,
   type Plan,
+  type PredictedPlan,
   type StageFillCause,
+  type TankSpec,
 } from '../core/index.js';
 import { readLog, type LogHeader, type ParsedLog } from './batch-log.js';
 import { checkLog, headerFromPlan, type CheckReport } from './check.js';
 import type { PlanRequest } from './load.js';
+import { planWithPrediction } from './plan-predict.js';
+import { premixSourceFromLog } from './premix-check.js';
 
 export type StageOfLog = NonNullable<LogHeader['stage']>;
 
@@ -187,4 +193,54 @@ export async function premixLogGate(
     refuse({ kind: 'premix-unproven', file, verdict: v, worst }, file);
   }
   return { log, report, sha256: sha256 ?? '' };
+}
+
+/** the premix tank of a premix log: the lab profile's tank of that id, else the tank its header records */
+export function premixTankOf(log: ParsedLog, tanks: readonly TankSpec[]): TankSpec {
+  const h = log.header.tank;
+  return (
+    tanks.find((t) => t.id === h.id) ?? {
+      id: h.id,
+      label: h.id,
+      volumeM3: h.volume_m3,
+      ratedPressurePa: h.rated_pressure_Pa ?? undefined,
+      workingFraction:
+        h.rated_pressure_Pa && h.working_limit_Pa ? h.working_limit_Pa / h.rated_pressure_Pa : undefined,
+    }
+  );
+}
+
+/**
+ * Stage 2 planned from the premix log (the batch's cylinders but those of the premix's own
+ * non-diluent gases, and the premix as a source with the log's re-checked composition and
+ * budget; core plan/premix-source.ts), predicted with `check`'s model, and the premix tank's
+ * delivery checked from its last logged reading. A stage-2 plan for this fill only, until the
+ * premix-log planner of `plan --premix-log` takes its place.
+ */
+export function planBatchFromPremixLog(req: PlanRequest, gate: PremixGate): PredictedPlan {
+  const source = premixSourceFromLog(gate.log.file);
+  const dil = new Set(Object.keys(req.input.design.groups.diluent));
+  const carried = Object.keys(source.composition).filter((k) => source.composition[k] >= 1e-3 && !dil.has(k));
+  const others = req.input.sources.filter((s) => !carried.includes(s.mainSpecies));
+  const plan = planWithPrediction(
+    planFill({ ...req.input, sources: [...others, source], order: 'recommend', charges: undefined }),
+    req,
+  );
+  const last = gate.log.readings[gate.log.readings.length - 1];
+  const tank = premixTankOf(gate.log, req.lab.tanks);
+  const { check, findings } = premixDeliveryCheck(plan, source, tank, last.pressure_Pa);
+  if (check.endPa < check.requiredPa)
+    refuse(
+      {
+        kind: 'premix-low',
+        tank: tank.id,
+        startPa: check.startPa,
+        endPa: check.endPa,
+        targetPa: check.targetPa,
+        requiredPa: check.requiredPa,
+        from: 'log',
+      },
+      gate.log.file,
+    );
+  return { ...plan, findings: [...plan.findings, ...findings] };
 }

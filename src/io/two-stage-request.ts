@@ -26,7 +26,7 @@ function thermometerOf(req: PlanRequest): TwoStageInput['thermometer'] {
 }
 
 /** an order as typed: "CH4,Ar@400 Torr,O2,Ar" */
-function orderText(order: NonNullable<PlanRequest['recipe']['order']>): string {
+export function orderText(order: NonNullable<PlanRequest['recipe']['order']>): string {
   return order.map((e) => (typeof e === 'string' ? e : `${e.fill}@${e.until}`)).join(',');
 }
 

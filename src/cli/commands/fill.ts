@@ -8,9 +8,9 @@ import { headerFromPlan } from '../../io/check.js';
 import { fillEnded, fromTui, type Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { planFrom } from '../plan-from.js';
-import { fillPremixStage } from '../stage-fill.js';
+import { checkStageOnResume, fillBatchStage, fillPremixStage } from '../stage-fill.js';
 
-type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string };
+type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string; premixLog?: string };
 
 /** continue an interrupted fill from its log: the design is the log's own */
 async function resume(cli: Cli, recipeFile: string | undefined, logFile: string): Promise<void> {
@@ -19,12 +19,16 @@ async function resume(cli: Cli, recipeFile: string | undefined, logFile: string)
   const log = readLog(logFile);
   if (log.closed) throw new ProblemError({ code: 'log-closed' }, { file: logFile });
   for (const w of log.warnings) cli.err(`mixwright: ${logFile}: ${w}\n`);
+  // stage 2 of a two-stage fill: its premix log must be the one the batch was started from
+  await checkStageOnResume(logFile, log.header);
   fillEnded(cli, await fromTui(() => tui.runFill({ header: log.header, logFile, log })), logFile);
 }
 
 async function fill(cli: Cli, recipeFile: string | undefined, o: FillOptions): Promise<void> {
   if (!cli.isTTY) throw new ProblemError({ code: 'needs-terminal', command: 'fill' }, { field: 'fill' });
   if (o.resume) return resume(cli, recipeFile, o.resume);
+  // stage 2 of a two-stage fill: the batch from a finished premix log (cli/stage-fill.ts)
+  if (o.premixLog) return fillBatchStage(cli, recipeFile, { ...o, premixLog: o.premixLog });
   const tui = await import('../../tui/run.js');
   const planned = planFrom(recipeFile, o);
   const { plan, req } = planned;
@@ -50,6 +54,10 @@ export function registerFill(program: Command, cli: Cli): void {
       ),
   )
     .option('--resume <log>', 'continue an interrupted fill from its batch log')
+    .option(
+      '--premix-log <log>',
+      'stage 2 of a two-stage fill: fill the batch from this finished premix log (stage 1), beside it',
+    )
     .option('--batch <id>', 'batch id (default: recipe id and date and time)')
     .option('--dir <folder>', 'folder of the batch logs', 'batches')
     .action((recipeFile: string | undefined, o: FillOptions) => fill(cli, recipeFile, o));
