@@ -200,6 +200,14 @@ export const DESIGN_OPTIONS: readonly DesignOption[] = [
     recipe: 'premix.tank',
     json: 'two_stage',
   },
+  {
+    flag: '--premix-log <log>',
+    help:
+      'draw from an existing premix tank: the finished batch log of its fill ' +
+      '(re-checked, its uncertainty carried into the batch)',
+    recipe: 'premix.log',
+    json: 'premix_log',
+  },
 ];
 
 /** "--diluent-ratio <number>" -> "--diluent-ratio" */

@@ -32,7 +32,7 @@ async function fill(cli: Cli, recipeFile: string | undefined, o: FillOptions): P
     throw new ProblemError({ code: 'bad-batch-id', id }, { field: '--batch' });
   mkdirSync(o.dir, { recursive: true });
   const file = join(o.dir, `${id}.jsonl`);
-  createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
+  createLog(file, headerFromPlan(plan, req, id, new Date().toISOString(), file));
   fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
 }
 
