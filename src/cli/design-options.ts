@@ -200,6 +200,17 @@ export const DESIGN_OPTIONS: readonly DesignOption[] = [
     recipe: 'premix.tank',
     json: 'two_stage',
   },
+  {
+    flag: '--premix-log <log>',
+    help:
+      'draw from an existing premix tank: the finished batch log of its fill ' +
+      '(re-checked, its uncertainty carried into the batch)',
+    recipe: 'premix.log',
+    // a recipe's premix to make (stage 1's premix block) gives way to the premix log, as any option
+    // overrides its recipe field: the recipe of a two-stage fill serves stage 2 with --premix-log
+    replaces: ['premix.tank', 'premix.gases', 'premix.fraction', 'premix.pressure', 'premix.order'],
+    json: 'premix_log',
+  },
 ];
 
 /** "--diluent-ratio <number>" -> "--diluent-ratio" */

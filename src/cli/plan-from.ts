@@ -2,6 +2,12 @@
 import { planWithPrediction } from '../io/plan-predict.js';
 import { planTwoStageFrom, twoStageInputOf, twoStageProposal } from '../io/two-stage-request.js';
 import {
+  planFromPremixLog,
+  premixLogAsked,
+  premixOverrides,
+  premixRecordOf,
+} from '../io/premix-log-request.js';
+import {
   batchSizeFinding,
   experimentsServed,
   planFill,
@@ -71,14 +77,23 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues, propos
   const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
   const base = recipeFile ? readRecipe(recipeFile) : undefined;
   const rs = mergeOptions(base, o);
-  const req = buildPlanRequest(rs, o.lab, { barometricPa });
+  // an existing premix tank named by its log: re-checked first, so that the order may name it
+  const premixAsk = premixLogAsked(rs);
+  const premixRec = premixAsk && premixRecordOf(premixAsk);
+  const req = buildPlanRequest(rs, o.lab, premixOverrides(premixRec, { barometricPa }));
   let plan: Plan;
   let proposal: Finding | undefined;
   try {
-    // two stages when the recipe or --premix-tank asks; else one tank, and a premix proposed when it helps
+    // two stages when the recipe or --premix-tank asks; from a premix log when one is named; else
+    // one tank, and a premix proposed when it helps
     const two = twoStageInputOf(req, rs);
-    plan = two ? planTwoStageFrom(two, rs) : planWithPrediction(planFill(req.input), req);
-    proposal = two || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
+    plan = two
+      ? planTwoStageFrom(two, rs)
+      : premixAsk && premixRec
+        ? planFromPremixLog(req, premixAsk, premixRec)
+        : planWithPrediction(planFill(req.input), req);
+    proposal =
+      two || premixAsk || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
     if (e instanceof ProblemError) throw locateCoreProblem(e, rs);

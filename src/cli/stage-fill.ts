@@ -6,15 +6,12 @@
  * `stage-fill` problem (core/stage-words.ts).
  */
 import { mkdirSync } from 'node:fs';
-import { join } from 'node:path';
-import { fail, ProblemError } from '../core/index.js';
-import { orderText } from '../io/two-stage-request.js';
+import { join, relative } from 'node:path';
+import { fail } from '../core/index.js';
 import { createLog, readLog, type LogHeader } from '../io/batch-log.js';
-import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
 import {
   batchLogBeside,
-  planBatchFromPremixLog,
-  premixLogGate,
+  premixLogBytes,
   premixLogOf,
   premixLogPath,
   stage2Header,
@@ -24,14 +21,7 @@ import {
   stage1Header,
 } from '../io/stage-log.js';
 import { fillEnded, fromTui, type Cli } from './context.js';
-import {
-  attributeOf,
-  DESIGN_OPTIONS,
-  mergeOptions,
-  optionName,
-  type DesignValues,
-} from './design-options.js';
-import { parseBarometer } from './numbers.js';
+import { attributeOf, DESIGN_OPTIONS, optionName, type DesignValues } from './design-options.js';
 import type { Planned } from './plan-from.js';
 
 /**
@@ -49,7 +39,7 @@ export function stage2Command(
   if (recipeFile) words.push(recipeFile);
   for (const d of DESIGN_OPTIONS) {
     const v = o[attributeOf(d)];
-    if (v === undefined || d.recipe === 'premix.tank') continue;
+    if (v === undefined || d.recipe === 'premix.tank' || d.recipe === 'premix.log') continue;
     words.push(optionName(d), v);
   }
   words.push('--premix-log', premixLog, '--batch', batchId, '--dir', dir);
@@ -76,50 +66,43 @@ export async function fillPremixStage(
   fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
 }
 
-/** the request of the recipe and options, refusals pointed at the recipe line or option (as planFrom) */
-function requestFrom(recipeFile: string | undefined, o: DesignValues): PlanRequest {
-  const barometricPa = o.barometer === undefined ? undefined : parseBarometer(o.barometer);
-  const rs = mergeOptions(recipeFile ? readRecipe(recipeFile) : undefined, o);
-  try {
-    return buildPlanRequest(rs, o.lab, { barometricPa });
-  } catch (e) {
-    if (e instanceof ProblemError) throw locateCoreProblem(e, rs);
-    throw e;
-  }
-}
-
 /**
- * stage 2: the batch from a finished premix log (`--premix-log`), into `<batch>.jsonl` beside it;
- * the batch id defaults to the one the premix was made for
+ * stage 2: the batch planned from a finished premix log (`--premix-log` or the recipe's
+ * `premix.log`, by the premix-log planner as `plan` does), guided into `<batch>.jsonl` beside the
+ * premix log (or in --dir when given); the batch id defaults to the one the premix was made for
  */
 export async function fillBatchStage(
   cli: Cli,
-  recipeFile: string | undefined,
-  o: DesignValues & { premixLog: string; batch?: string },
+  o: DesignValues & { batch?: string },
+  planned: Planned,
 ): Promise<void> {
-  const gate = await premixLogGate(o.premixLog, { batch: o.batch });
-  const req = requestFrom(recipeFile, o);
-  if (req.recipe.order)
-    fail(
-      { code: 'stage-order', premixTank: gate.log.header.tank.id, order: orderText(req.recipe.order) },
-      { field: o.order === undefined ? 'order' : '--order' },
-    );
+  const { plan, req } = planned;
+  const use = plan.premixLog;
+  if (!use) throw new Error('fillBatchStage needs a plan from a premix log');
+  // the premix log as a path from here (absolute when it lies outside the working folder)
+  const rel = relative(process.cwd(), use.path);
+  const premixLog = rel && !rel.startsWith('..') ? rel : use.path;
+  const premixHeader = readLog(use.path).header;
+  premixLogBytes(use.path, { batch: o.batch });
+  const stage = premixHeader.stage;
   const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
-  const batchId = o.batch ?? gate.log.header.stage?.batch ?? `${req.recipe.id}-${stamp}`;
+  const batchId = o.batch ?? (stage?.number === 1 ? stage.batch : `${req.recipe.id}-${stamp}`);
   if (!/^[A-Za-z0-9._-]+$/.test(batchId)) fail({ code: 'bad-batch-id', id: batchId }, { field: '--batch' });
-  const file = batchLogBeside(o.premixLog, batchId);
+  // `dir`: --dir as typed (a default folder is not asked for: then beside the premix log)
+  const file = o.dir ? join(o.dir, `${batchId}.jsonl`) : batchLogBeside(premixLog, batchId);
+  if (o.dir) mkdirSync(o.dir, { recursive: true });
   refuseExistingStageLog(file, 2);
-  const plan = planBatchFromPremixLog(req, gate);
-  const premix = { file: o.premixLog, id: gate.log.header.id, sha256: gate.sha256 };
+  // the bytes the batch rests on: a resume refuses a premix log that changed since
+  const premix = { file: premixLog, id: premixHeader.id, sha256: premixLogBytes(use.path, {}) };
   createLog(file, stage2Header(plan, req, batchId, new Date().toISOString(), premix, file));
   const tui = await import('../tui/run.js');
   fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
 }
 
 /** a stage-2 log resumed: its premix log must still be the one it was started from */
-export async function checkStageOnResume(logFile: string, header: LogHeader): Promise<void> {
+export function checkStageOnResume(logFile: string, header: LogHeader): void {
   const st = header.stage;
   const premixLog = st && premixLogOf(logFile, st);
   if (!st || st.number !== 2 || !premixLog || !st.premix_log) return;
-  await premixLogGate(premixLog, { sha256: st.premix_log.sha256 });
+  premixLogBytes(premixLog, { sha256: st.premix_log.sha256 });
 }

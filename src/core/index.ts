@@ -21,7 +21,7 @@ export {
 export { rankSpecies } from './lookup.js';
 export type { PropertyName, PropertyValue } from './lookup.js';
 export { ProblemError, fail, relocate } from './problems.js';
-export type { Problem, ProblemCode, Where } from './problems.js';
+export type { PremixLogCause, Problem, ProblemCode, Where } from './problems.js';
 export type {
   FieldIssue,
   ListFault,
@@ -249,9 +249,11 @@ export type {
 } from './plan/two-stage.js';
 export { compositionTermsOf, premixSource } from './plan/premix-source.js';
 export type { PremixSourceArgs } from './plan/premix-source.js';
+export { amountDrawn, planFromPremix, premixMinorGases } from './plan/premix-log.js';
+export type { PremixLogPlan, PremixLogPlanInput, PremixLogUse } from './plan/premix-log.js';
 export { premixDelivery, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
 export type { Delivery, DeliveryInput } from './premix-tank.js';
-export type { CompositionTerm } from './supply.js';
+export type { CompositionTerm, SharedInstrument } from './supply.js';
 export { chargeNumbers } from './plan/charges.js';
 // the guided fill of a two-stage preparation: its refusals (worded in stage-words.ts)
 export type { StageFillCause, StageProblem } from './problems.js';

@@ -16,6 +16,7 @@ import type {
 } from './problems.js';
 import { TORR_PA } from './constants.js';
 import { describeTwoStageProblem } from './two-stage-words.js';
+import { describePremixLogProblem } from './premix-log-words.js';
 import { describeStageProblem } from './stage-words.js';
 
 function list(xs: readonly string[]): string {
@@ -55,6 +56,7 @@ export function describeProblem(p: Problem): string {
   // raised by the planner's split charges, and by two-stage preparation
   if (p.code === 'charges-invalid' || p.code === 'split-stop') return describeChargeProblem(p);
   if (p.code === 'two-stage-refused') return describeTwoStageProblem(p, describeProblem);
+  if (p.code === 'premix-log-refused') return describePremixLogProblem(p, describeProblem);
   if (p.code === 'stage-fill' || p.code === 'stage-order') return describeStageProblem(p);
   switch (p.code) {
     case 'unknown-species':

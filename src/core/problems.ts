@@ -282,6 +282,13 @@ export type Problem =
       /** the first choice's refusal */
       readonly cause?: Problem;
     }
+  // raised by a batch planned or checked from a premix log (plan/premix-log.ts, io/premix-check.ts)
+  | {
+      readonly code: 'premix-log-refused';
+      /** the premix log as named (recipe, option or batch log header) */
+      readonly log: string;
+      readonly cause: PremixLogCause;
+    }
   // raised by the guided fill of a two-stage preparation (cli/stage-fill.ts) and the fill order of one
   | StageProblem;
 
@@ -298,7 +305,7 @@ export type StageProblem =
 export type StageFillCause =
   /** the stage's log exists already: a fill of it was started (resume it, or give another batch id) */
   | { readonly kind: 'log-exists'; readonly stage: 1 | 2; readonly file: string }
-  /** the premix tank would fall below what the batch must reach (pressures in Pa, absolute) */
+  /** the premix tank, filled as planned, would fall below what the batch must reach (Pa, absolute) */
   | {
       readonly kind: 'premix-low';
       readonly tank: string;
@@ -306,19 +313,6 @@ export type StageFillCause =
       readonly endPa: number;
       readonly targetPa: number;
       readonly requiredPa: number;
-      /** stage 1 (planned premix pressure) or stage 2 (the premix log's last reading) */
-      readonly from: 'plan' | 'log';
-    }
-  /** the premix log is not closed: its fill is unfinished */
-  | { readonly kind: 'premix-open'; readonly file: string; readonly logged: number; readonly steps: number }
-  /** the premix log's record holds a danger (a reading past a limit, a line changed after writing) */
-  | { readonly kind: 'premix-danger'; readonly file: string; readonly findings: readonly string[] }
-  /** the premix log's re-check does not show its composition within tolerance */
-  | {
-      readonly kind: 'premix-unproven';
-      readonly file: string;
-      readonly verdict: 'pass-uncertain' | 'fail' | 'no-design';
-      readonly worst: string;
     }
   /** the premix log differs from the one the batch was started from (its sha256) */
   | {
@@ -334,6 +328,46 @@ export type StageFillCause =
       readonly batch: string;
       readonly asked: string;
     };
+
+/** why a premix log cannot be the batch's source (or the source its batch log names) */
+export type PremixLogCause =
+  /** the file cannot be read as a batch log: the reader's own problem */
+  | { readonly kind: 'unreadable'; readonly problem: Problem }
+  /** steps without a reading, or no close event */
+  | { readonly kind: 'not-finished'; readonly missingSteps: readonly number[]; readonly closed: boolean }
+  /** its re-check fails, or cannot show its composition within its own tolerance */
+  | {
+      readonly kind: 'recheck-not-passed';
+      readonly verdict: 'fail' | 'pass-uncertain';
+      /** the species (and phi, dilution) out of tolerance or not shown within it */
+      readonly off: readonly string[];
+    }
+  /** its record carries a danger (a reading past the tank's working limit or a gauge's range) */
+  | { readonly kind: 'danger'; readonly codes: readonly string[] }
+  /** the premix tank would fall below the batch reading its last charge must reach (plus the margin) */
+  | {
+      readonly kind: 'too-little-gas';
+      readonly tank: string;
+      /** the premix tank's present pressure (its last reading less the draws of other batches), Pa */
+      readonly startPa: number;
+      /** its settled pressure after this batch's draw, Pa (0: it runs empty) */
+      readonly endPa: number;
+      readonly targetPa: number;
+      readonly requiredPa: number;
+      readonly deliveredMol: number;
+    }
+  /** the premix holds a gas the design does not */
+  | { readonly kind: 'foreign-gas'; readonly species: readonly string[]; readonly design: readonly string[] }
+  /** the premix tank is the batch tank */
+  | { readonly kind: 'same-tank'; readonly tank: string }
+  /** a given fill order that does not name the premix */
+  | { readonly kind: 'not-in-order'; readonly source: string }
+  /** the log's last entry is not the one the batch log recorded */
+  | { readonly kind: 'changed'; readonly recorded: string; readonly now: string }
+  /** a premix log that names, through its own premix logs, the log that names it */
+  | { readonly kind: 'loop' }
+  /** a premix log and a premix tank asked for together */
+  | { readonly kind: 'with-premix-tank'; readonly places: readonly [string, string] };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
 export type ChargeProblem =

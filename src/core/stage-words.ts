@@ -17,30 +17,11 @@ function fillCause(c: StageFillCause): string {
       );
     case 'premix-low':
       return (
-        `the premix tank ${c.tank}, at ${torr(c.startPa)}` +
-        `${c.from === 'log' ? ' by its log' : ' as planned'}, falls to ${torr(c.endPa)} once the batch ` +
-        `has drawn its premix, but the batch's premix charge must reach ${torr(c.targetPa)} ` +
+        `the premix tank ${c.tank}, filled to ${torr(c.startPa)} as planned, falls to ${torr(c.endPa)} ` +
+        `once the batch has drawn its premix, but the batch's premix charge must reach ${torr(c.targetPa)} ` +
         `(${torr(c.requiredPa)} with the 10 % margin: gas flows only while the premix tank is higher); ` +
-        (c.from === 'log'
-          ? 'make a new premix to a higher pressure, or a smaller batch'
-          : "plan the premix to a higher pressure (recipe premix.pressure, within the tank's working limit) " +
-            'or a smaller batch')
-      );
-    case 'premix-open':
-      return (
-        `the premix log ${c.file} is not closed (${c.logged} of ${c.steps} fills logged): its premix is ` +
-        `unfinished, so its composition is not known; finish it with \`mixwright fill --resume ${c.file}\``
-      );
-    case 'premix-danger':
-      return (
-        `the premix log ${c.file} records a danger (${c.findings.join('; ')}): the premix tank must be ` +
-        `inspected before its gas is used; see \`mixwright check ${c.file}\``
-      );
-    case 'premix-unproven':
-      return (
-        `the re-check of the premix log ${c.file} is ${c.verdict === 'no-design' ? 'without a design' : c.verdict}` +
-        `${c.worst ? ` (${c.worst})` : ''}: its composition is not shown within tolerance, and the batch ` +
-        `would carry it; see \`mixwright check ${c.file}\`, and make the premix again`
+        "plan the premix to a higher pressure (recipe premix.pressure, within the tank's working limit) " +
+        'or a smaller batch, before any gas flows'
       );
     case 'premix-changed':
       return (

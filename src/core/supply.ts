@@ -44,7 +44,18 @@ export interface CompositionTerm {
   readonly unit: string;
   /** d(mole fraction of the species in the source) / d(input), per unit of the input */
   readonly sensitivity: Readonly<Record<string, number>>;
+  /**
+   * The instrument error this input is, when the same instrument may read the batch too: a
+   * gauge's span or zero (by gauge id) or the thermometer's offset. Where the batch's budget has
+   * that input with the same distribution and scale, the term moves the source's composition by
+   * the batch's own component (one input, both stages) instead of an independent one.
+   */
+  readonly shared?: SharedInstrument;
 }
+
+/** an instrument error common to the stages that one instrument reads */
+export type SharedInstrument =
+  { readonly kind: 'span' | 'zero'; readonly gauge: string } | { readonly kind: 'thermometer' };
 
 /**
  * A pure cylinder: the main species at `purity`, the listed impurities, and the

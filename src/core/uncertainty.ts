@@ -16,7 +16,7 @@
  *    and the validation of the GUM interval of JCGM 101 section 8.
  */
 import { gaugeReadingPa, type Gauge } from './gauges.js';
-import type { GasSource } from './supply.js';
+import type { CompositionTerm, GasSource } from './supply.js';
 import { inverseSetup, invertReadings, workspaceFor, type InverseSetup } from './recheck.js';
 import { virialU } from './mixture-eos.js';
 import { speciesRole, type Fractions } from './composition.js';
@@ -238,7 +238,7 @@ function buildComponents(
     purityIdx.set(r.source.id, idx);
     return idx;
   });
-  const composition = compositionComponents(readings, setup, add);
+  const composition = compositionComponents(readings, setup, add, components);
   const inputs: ReadingInputs = {
     composition,
     span: perReading((r) => spanIdx.get(r.gauge.id) ?? -1),
@@ -262,6 +262,7 @@ function compositionComponents(
   readings: readonly CheckedReading[],
   setup: InverseSetup,
   add: AddComponent,
+  built: readonly InputComponent[],
 ): ReadingInputs['composition'] {
   const out: { c: number; readings: number[]; dw: Float64Array }[] = [];
   const sources = [...new Map(readings.map((r) => [r.source.id, r.source])).values()];
@@ -275,11 +276,34 @@ function compositionComponents(
         if (i < 0) throw new Error(`composition term ${t.name} of ${src.id} names ${k}, not in the source`);
         dw[i] = v;
       }
+      // an instrument that reads the batch too: its one input moves both stages (JCGM 100 5.2: a
+      // common input is one variable, not two independent ones)
+      const same = t.shared ? sharedComponent(built, t) : -1;
+      if (same >= 0) {
+        out.push({ c: same, readings: at, dw });
+        continue;
+      }
       const about: ComponentAbout = { kind: 'source-composition', source: src.id, input: t.name };
       out.push({ c: add(`${src.id}: ${t.name}`, t.dist, t.scale, t.unit, about), readings: at, dw });
     }
   }
   return out;
+}
+
+/**
+ * The batch's own component for a source term's shared instrument (the same gauge's span or zero,
+ * the thermometer's offset) when it has the same distribution and scale; -1 when there is none
+ * (the instrument does not read the batch, or its specification differs: then it is another one)
+ */
+function sharedComponent(built: readonly InputComponent[], t: CompositionTerm): number {
+  const s = t.shared!;
+  return built.findIndex(
+    (c) =>
+      c.about.kind === s.kind &&
+      (s.kind === 'thermometer' || ('gauge' in c.about && c.about.gauge === s.gauge)) &&
+      c.dist === t.dist &&
+      Math.abs(c.scale - t.scale) <= 1e-12 * Math.abs(t.scale),
+  );
 }
 
 /** one normal component per second virial coefficient of the species at 1e-4 or more */

@@ -156,6 +156,20 @@ export const headerSchema = z.object({
   /** top-up: the gas the plan assumed already in the tank */
   in_tank: z.object({ composition: fractions, pressure_Pa: z.number().positive() }).nullable().optional(),
   recipe: z.unknown().optional(),
+  /**
+   * the premix logs this batch draws from: the source id the steps name, the premix log's path
+   * relative to this log's folder, and the hash link (chain) of its last entry when the batch was
+   * planned; absent in logs of batches without one
+   */
+  premix_logs: z
+    .array(
+      z.object({
+        source: z.string(),
+        path: z.string().min(1),
+        last_entry_sha256: z.string().regex(/^[0-9a-f]{64}$/),
+      }),
+    )
+    .optional(),
   /** two-stage preparation: which stage this log records (absent: a single-tank batch; io/stage-log.ts) */
   stage: stageSchema.optional(),
   findings: z

@@ -10,6 +10,7 @@ import {
   ProblemError,
   recheckModelInput,
   type Design,
+  type GasSource,
   type Plan,
   type RecheckModelInput,
 } from '../core/index.js';
@@ -36,10 +37,22 @@ import {
   type CheckReport,
 } from './check-shared.js';
 import { checkCsv } from './check-csv.js';
+import { premixLogsOf, type PremixRecord } from './premix-check.js';
+import { dirname, relative, resolve } from 'node:path';
 
 export { verdictCaveats, type CheckOptions, type CheckReport } from './check-shared.js';
 
-export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created: string): LogHeader {
+/**
+ * The header of a new batch log from its plan. `logFile`: where the log is written, so that a
+ * premix log the plan draws from is recorded relative to it (else relative to the working folder).
+ */
+export function headerFromPlan(
+  plan: Plan,
+  req: PlanRequest,
+  id: string,
+  created: string,
+  logFile?: string,
+): LogHeader {
   const d = plan.design;
   return {
     kind: 'batch',
@@ -88,6 +101,17 @@ export function headerFromPlan(plan: Plan, req: PlanRequest, id: string, created
       ? { composition: { ...plan.initial.composition }, pressure_Pa: plan.initial.pressurePa }
       : null,
     recipe: req.recipe,
+    ...(plan.premixLog
+      ? {
+          premix_logs: [
+            {
+              source: plan.premixLog.source.id,
+              path: relative(logFile ? dirname(resolve(logFile)) : process.cwd(), plan.premixLog.path),
+              last_entry_sha256: plan.premixLog.lastEntrySha256,
+            },
+          ],
+        }
+      : {}),
     findings: plan.findings.map((f) => ({
       severity: f.severity,
       code: f.code,
@@ -188,12 +212,14 @@ export function logModelInput(
   barometer: { pressurePa: number; uPa: number },
   start: CheckReport['start'],
   mc: { trials: number; seed: number },
+  premix: ReadonlyMap<string, GasSource> = new Map(),
 ): RecheckModelInput {
   const h = log.header;
   try {
     const model = recheckModelInput(
       {
-        sources: new Map(h.sources.map((s) => [s.id, sourceFromLog(s)])),
+        // a premix named by its log (header premix_logs) is that log's re-checked gas, with its budget
+        sources: new Map(h.sources.map((s) => [s.id, premix.get(s.id) ?? sourceFromLog(s)])),
         gauges: new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)])),
         barometer,
         thermometer: {
@@ -245,14 +271,31 @@ function logCharges(h: LogHeader): Map<number, ChargeNumber> {
   return new Map(h.steps.map((s, i) => [s.step, loggedCharge(s) ?? counted[i]]));
 }
 
-export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
+/**
+ * What the re-check of a log is built from (shared by `check` and a premix log's re-check): its
+ * start, barometer, model input (a premix log it names re-checked in turn, unless `withPremix`
+ * is false: then the premix as the header recorded it) and the steps without a reading.
+ */
+export function logRecheckBasis(
+  log: ParsedLog,
+  seen: ReadonlySet<string> = new Set([resolve(log.file)]),
+  withPremix = true,
+  mc: { trials: number; seed: number } = { trials: 0, seed: 0 },
+) {
   const h = log.header;
   if (log.readings.length === 0) fail({ code: 'log-no-readings' }, { file: log.file });
   const start = startOf(log);
   const barometer = barometerOf(log);
-  const model = logModelInput(log, barometer, start, opts);
+  const premix = withPremix ? premixLogsOf(log, seen) : { sources: new Map(), records: [] };
+  const model = logModelInput(log, barometer, start, mc, premix.sources);
   const done = new Set(log.readings.map((r) => r.step));
   const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
+  return { start, barometer, model, missingSteps, premix: premix.records };
+}
+
+export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
+  const h = log.header;
+  const { start, barometer, model, missingSteps, premix } = logRecheckBasis(log, undefined, true, opts);
   // the log's own record issues (torn tail, edited lines) are findings, listed once with the others
   const warnings = logWarnings(log, missingSteps);
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
@@ -286,6 +329,24 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
       from: 'log',
     },
     caveats: verdictCaveats(findings),
+    premixLogs: premix.map(premixLogReport),
+  };
+}
+
+/** a premix log as the report of its batch shows it */
+function premixLogReport(r: PremixRecord): NonNullable<CheckReport['premixLogs']>[number] {
+  return {
+    log: r.named,
+    path: r.path,
+    id: r.log.header.id,
+    tank: r.tank.id,
+    lastEntrySha256: r.lastEntrySha256,
+    composition: Object.fromEntries(
+      r.result.species.map((k) => [
+        k,
+        { value: r.result.composition[k].value, u: r.result.composition[k].u },
+      ]),
+    ),
   };
 }
 

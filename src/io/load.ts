@@ -394,6 +394,8 @@ export interface PlanRequest {
 export interface Overrides {
   /** --barometer: today's barometric pressure, Pa; it also converts gauge pressures ("15 psig") */
   readonly barometricPa?: number;
+  /** sources beyond the lab's cylinders that a fill order may name (a premix tank named by its log) */
+  readonly extraSources?: readonly GasSource[];
 }
 
 type RecipeWhere = (path: DataPath, field?: string) => Where;
@@ -636,6 +638,7 @@ function supplyOf(
   W: RecipeWhere,
   gaugeCtx: GaugeContext,
   inTankPa: number | undefined,
+  extra: readonly GasSource[] = [],
 ): Supply {
   const listed = r.sources?.map((id, i) => {
     const c = lab.cylinders.find((x) => x.id === id);
@@ -657,7 +660,7 @@ function supplyOf(
       ? orderCharges(entries, sourcesFromList(listed, resolveSpeciesKey), { sources: listed }, inTankPa)
       : orderCharges(
           entries,
-          sourcesByName(composition, lab.cylinders, resolveSpeciesKey),
+          sourcesByName(composition, [...extra, ...lab.cylinders], resolveSpeciesKey),
           { species: Object.keys(composition).filter((k) => composition[k] > 0) },
           inTankPa,
         );
@@ -754,7 +757,15 @@ export function buildPlanRequest(
     composition: parseBlend(r.in_tank.composition, W(['in_tank', 'composition'])),
     pressurePa: parseQuantity(r.in_tank.pressure, 'pressure', W(['in_tank', 'pressure']), gaugeCtx),
   };
-  const supply = supplyOf(r, lab, design.composition, W, gaugeCtx, inTank?.pressurePa);
+  const supply = supplyOf(
+    r,
+    lab,
+    design.composition,
+    W,
+    gaugeCtx,
+    inTank?.pressurePa,
+    overrides.extraSources,
+  );
   const sizing: SizingInput | undefined = reactor && {
     composition: design.composition,
     tankVolumeM3: tank.volumeM3,

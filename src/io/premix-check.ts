@@ -1,63 +1,218 @@
 /**
- * A premix made in an earlier stage, named by its batch log, as a source of the batch: its
- * composition is the log's re-checked composition (GUM, the same model and inputs as `check`)
- * and its uncertainty that re-check's budget, carried into the batch's budget as composition
- * terms (core plan/premix-source.ts). A premix tank whose log is the record of a previous batch
- * is a source the same way.
- *
- * The hook `check` needs (src/io/check.ts, branch recheck): where a CSV row or a batch log's
- * source names a premix log, use `premixSourceFromLog(path)` as that row's source.
+ * A premix made earlier, named by its batch log, as a source of the batch: its composition is the
+ * log's re-checked composition (GUM, the same model and inputs as `check`: check.ts
+ * `logRecheckBasis`) and its uncertainty that re-check's budget, carried into the batch's budget as
+ * composition terms (core plan/premix-source.ts), a gauge or thermometer of the same lab marked as
+ * shared with the batch. Refused (`premix-log-refused`) when the log cannot serve: unreadable, not a
+ * finished fill, a re-check that fails or cannot show its composition within its tolerance, a
+ * danger in its record. A batch log names its premix logs in its header (`premix_logs`: path
+ * relative to the batch log, the hash of the premix log's last entry); `premixLogsOf` reads them
+ * back for `check` and refuses a premix log that has changed since.
  */
-import { dirname, resolve } from 'node:path';
-import { evaluateUncertainty, premixSource, ProblemError, type GasSource } from '../core/index.js';
-import { readLog } from './batch-log.js';
-import { logModelInput } from './check.js';
+import { readdirSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
+import {
+  amountDrawn,
+  evaluateUncertainty,
+  fail,
+  judge,
+  premixSource,
+  ProblemError,
+  type GasSource,
+  type PremixLogCause,
+  type TankSpec,
+  type UncertaintyResult,
+} from '../core/index.js';
+import { readLog, type LogHeader, type ParsedLog } from './batch-log.js';
+import { designFromHeader, logRecheckBasis } from './check.js';
+import { auditLog } from './log-audit.js';
 
-/** the premix log's re-check: its composition, unidentified share, budget and last reading */
-export function premixSourceFromLog(file: string, relativeTo?: string): GasSource {
-  const path = relativeTo ? resolve(dirname(relativeTo), file) : file;
-  const log = readLog(path);
-  const h = log.header;
-  const b = log.barometer;
-  const barometer = b
-    ? { pressurePa: b.pressure_Pa, uPa: b.u_Pa ?? h.barometer.u_Pa }
-    : { pressurePa: h.barometer.pressure_Pa, uPa: h.barometer.u_Pa };
-  const start =
-    h.in_tank &&
-    (log.start
-      ? {
-          pressurePa: log.start.pressure_Pa,
-          temperatureK: log.start.temperature_K,
-          composition: h.in_tank.composition,
-        }
-      : {
-          pressurePa: h.in_tank.pressure_Pa,
-          temperatureK: h.temperature_K,
-          composition: h.in_tank.composition,
-        });
-  const model = logModelInput(
-    log,
-    { ...barometer },
-    start ? { ...start, read: log.start !== undefined } : undefined,
-    {
-      trials: 0,
-      seed: 0,
-    },
-  );
+/** a premix log re-checked for use as a source */
+export interface PremixRecord {
+  /** as named (recipe, option or batch log header) */
+  readonly named: string;
+  /** absolute path */
+  readonly path: string;
+  readonly log: ParsedLog;
+  readonly source: GasSource;
+  readonly result: UncertaintyResult;
+  readonly lastEntrySha256: string;
+  readonly lastReadingPa: number;
+  readonly tank: TankSpec;
+}
+
+/** the source id of a premix in a tank: the two-stage plan's label (`premix-MT-2`) */
+export const premixIdOf = (tankId: string): string => `premix-${tankId}`;
+
+function refused(named: string, cause: PremixLogCause, where: { file?: string; field?: string } = {}): never {
+  return fail({ code: 'premix-log-refused', log: named, cause }, where);
+}
+
+/** the tank of a log's header as the planner takes it */
+function tankOf(h: LogHeader): TankSpec {
+  const rated = h.tank.rated_pressure_Pa ?? undefined;
+  const limit = h.tank.working_limit_Pa ?? undefined;
+  return {
+    id: h.tank.id,
+    label: h.tank.id,
+    volumeM3: h.tank.volume_m3,
+    ratedPressurePa: rated,
+    workingFraction: rated !== undefined && limit !== undefined ? limit / rated : undefined,
+  };
+}
+
+/**
+ * Read and re-check a premix log. `batchLab`: the lab the batch is filled in; the premix's gauges
+ * and thermometer are the batch's own (one input for both stages) only when the labs are the same.
+ * `seen`: the premix logs above this one (a premix made from a premix), to refuse a loop.
+ */
+export function readPremixLog(
+  named: string,
+  path: string,
+  batchLab: string | undefined,
+  seen: ReadonlySet<string> = new Set(),
+): PremixRecord {
+  let log: ParsedLog;
   try {
-    const result = evaluateUncertainty(model.readings, model.settings, model.diluent, model.initial);
-    const composition = Object.fromEntries(result.species.map((k) => [k, result.composition[k].value]));
-    const last = log.readings[log.readings.length - 1];
-    return premixSource({
-      id: `premix-${h.id}`,
-      tank: h.tank.id,
-      composition,
-      unidentified: result.unidentified,
-      pressurePa: last?.pressure_Pa ?? 0,
-      budget: result,
-    });
+    log = readLog(path);
+  } catch (e) {
+    if (e instanceof ProblemError) refused(named, { kind: 'unreadable', problem: e.problem }, e.where);
+    throw e;
+  }
+  const h = log.header;
+  const done = new Set(log.readings.map((r) => r.step));
+  const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
+  if (missingSteps.length || !log.closed || log.readings.length === 0)
+    refused(named, { kind: 'not-finished', missingSteps, closed: log.closed }, { file: path });
+  const dangers = auditLog(log).filter((f) => f.severity === 'danger');
+  if (dangers.length)
+    refused(named, { kind: 'danger', codes: [...new Set(dangers.map((f) => f.code))] }, { file: path });
+  const basis = logRecheckBasis(log, new Set([...seen, path]));
+  let result: UncertaintyResult;
+  try {
+    const m = basis.model;
+    result = evaluateUncertainty(m.readings, m.settings, m.diluent, m.initial);
   } catch (e) {
     if (e instanceof ProblemError) throw e.at({ file: path });
     throw e;
   }
+  const verdict = judge(result, designFromHeader(h), h.tolerance);
+  if (verdict.verdict !== 'pass')
+    refused(
+      named,
+      {
+        kind: 'recheck-not-passed',
+        verdict: verdict.verdict === 'fail' ? 'fail' : 'pass-uncertain',
+        off: verdict.deviations.filter((d) => !d.provenWithin).map((d) => d.species),
+      },
+      { file: path },
+    );
+  const composition = Object.fromEntries(result.species.map((k) => [k, result.composition[k].value]));
+  const last = log.readings[log.readings.length - 1];
+  const tank = tankOf(h);
+  const source = premixSource({
+    id: premixIdOf(tank.id),
+    tank: tank.id,
+    composition,
+    unidentified: result.unidentified,
+    pressurePa: last.pressure_Pa,
+    budget: result,
+    sharedInstruments: batchLab === undefined || batchLab === h.lab,
+  });
+  return {
+    named,
+    path,
+    log,
+    source,
+    result,
+    lastEntrySha256: log.lastLink,
+    lastReadingPa: last.pressure_Pa,
+    tank,
+  };
+}
+
+/** the premix logs a batch log's header names, resolved against the batch log's folder */
+function namedPremixLogs(
+  log: ParsedLog,
+): { entry: NonNullable<LogHeader['premix_logs']>[number]; path: string }[] {
+  return (log.header.premix_logs ?? []).map((entry) => ({
+    entry,
+    path: resolve(dirname(log.file), entry.path),
+  }));
+}
+
+/**
+ * The premix sources a batch log names (header `premix_logs`), each re-checked from its log: the
+ * source ids mapped to them, and the records. Refused when a premix log is missing or unreadable,
+ * has changed since the batch log recorded it (the hash of its last entry differs), or names this
+ * log again (a loop).
+ */
+export function premixLogsOf(
+  log: ParsedLog,
+  seen: ReadonlySet<string> = new Set([resolve(log.file)]),
+): { sources: Map<string, GasSource>; records: PremixRecord[] } {
+  const sources = new Map<string, GasSource>();
+  const records: PremixRecord[] = [];
+  for (const { entry, path } of namedPremixLogs(log)) {
+    const where = { file: log.file, field: 'premix_logs' };
+    if (seen.has(path)) refused(entry.path, { kind: 'loop' }, where);
+    let rec: PremixRecord;
+    try {
+      rec = readPremixLog(entry.path, path, log.header.lab, seen);
+    } catch (e) {
+      if (e instanceof ProblemError) throw e.at(where);
+      throw e;
+    }
+    if (rec.lastEntrySha256 !== entry.last_entry_sha256)
+      refused(
+        entry.path,
+        { kind: 'changed', recorded: entry.last_entry_sha256, now: rec.lastEntrySha256 },
+        where,
+      );
+    sources.set(entry.source, { ...rec.source, id: entry.source });
+    records.push(rec);
+  }
+  return { sources, records };
+}
+
+/**
+ * What other batch logs in the premix log's folder that name it have drawn from the premix tank:
+ * for each, the real-gas amount its premix fills delivered (its readings in force, the re-check's
+ * inverse model: the tank's density after each reading times its volume). `except`: the batch log
+ * being planned or checked itself.
+ */
+export function drawsFrom(premixPath: string, except?: string): { log: string; file: string; mol: number }[] {
+  const folder = dirname(premixPath);
+  let names: string[];
+  try {
+    names = readdirSync(folder)
+      .filter((n) => n.endsWith('.jsonl'))
+      .sort();
+  } catch {
+    return [];
+  }
+  const out: { log: string; file: string; mol: number }[] = [];
+  for (const name of names) {
+    const file = join(folder, name);
+    if (file === premixPath || (except !== undefined && resolve(except) === file)) continue;
+    let log: ParsedLog;
+    try {
+      log = readLog(file);
+    } catch {
+      continue; // not a batch log (or unreadable): it names no premix log that could be read
+    }
+    const named = namedPremixLogs(log).filter((n) => n.path === premixPath);
+    if (!named.length || log.readings.length === 0) continue;
+    const basis = logRecheckBasis(log, new Set([file]), false);
+    let mol = 0;
+    for (const n of named)
+      mol += amountDrawn(
+        basis.model.readings,
+        n.entry.source,
+        log.header.tank.volume_m3,
+        basis.model.initial,
+      );
+    out.push({ log: relative(process.cwd(), file) || file, file, mol });
+  }
+  return out;
 }

@@ -111,7 +111,17 @@ export const recipeSchema = z
       .describe('gas already in the tank (topping up an earlier batch)'),
     premix: z
       .object({
-        tank: z.string().describe('a second tank id from the lab profile: the premix is made there first'),
+        tank: z
+          .string()
+          .optional()
+          .describe('a second tank id from the lab profile: the premix is made there first'),
+        log: z
+          .string()
+          .min(1)
+          .optional()
+          .describe(
+            'the finished batch log of an existing premix tank (relative to this file): the batch draws from it',
+          ),
         gases: z
           .array(z.string())
           .optional()
@@ -131,8 +141,15 @@ export const recipeSchema = z
           ),
       })
       .strict()
+      .refine((p) => p.tank !== undefined || p.log !== undefined, {
+        message:
+          'give premix.tank (a second tank to make the premix in) or premix.log (the log of an existing premix tank)',
+      })
       .optional()
-      .describe('two-stage preparation: a premix in a second tank first, then the batch from it'),
+      .describe(
+        'two-stage preparation: a premix in a second tank first (tank), or an existing premix tank (log), ' +
+          'then the batch from it',
+      ),
     tolerance: z
       .object({
         relative: z

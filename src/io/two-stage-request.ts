@@ -33,7 +33,8 @@ export function orderText(order: NonNullable<PlanRequest['recipe']['order']>): s
 /** the core's two-stage input from the recipe's premix block; undefined when the recipe asks for none */
 export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInput | undefined {
   const pm = req.recipe.premix;
-  if (!pm) return undefined;
+  // a premix log instead of a tank: planned from that log (premix-log-request.ts)
+  if (!pm || pm.tank === undefined) return undefined;
   const where = (key: string) => ({ ...rs.locate(['premix', key]), field: `premix.${key}` });
   const premixTank = req.lab.tanks.find((t) => t.id === pm.tank);
   if (!premixTank)

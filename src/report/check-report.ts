@@ -125,7 +125,21 @@ function derivedLines(r: CheckReport): string[] {
       `unidentified cylinder impurity: ${fixedSig(r.result.unidentified * 1e6, 3)} ` +
         `ppm (not included in the fractions above)`,
     );
+  out.push(...premixLines(r));
   return out;
+}
+
+/** the premix logs the batch drew from: each re-checked, its budget part of this one */
+function premixLines(r: CheckReport): string[] {
+  return (r.premixLogs ?? []).map(
+    (p) =>
+      `Premix      ${p.log} (${p.id}, tank ${p.tank}): ` +
+      Object.entries(p.composition)
+        .filter(([, c]) => c.value >= 1e-4)
+        .map(([k, c]) => `${k} ${fixedSig(c.value, 6)} +- ${fixedSig(2 * c.u, 2)}`)
+        .join('  ') +
+      ' (re-checked from its log, U with k = 2; its budget is part of this one)',
+  );
 }
 
 /** the uncertainty budget of the largest fuel fraction */
@@ -294,6 +308,13 @@ export function checkToJson(r: CheckReport, version: string): object {
       message: f.message,
     })),
     verdict_caveats: r.caveats,
+    premix_logs: (r.premixLogs ?? []).map((p) => ({
+      log: p.log,
+      id: p.id,
+      tank: p.tank,
+      last_entry_sha256: p.lastEntrySha256,
+      composition: p.composition,
+    })),
     tank: r.tank
       ? {
           id: r.tank.id,

@@ -102,6 +102,18 @@ export interface CheckReportOf<F extends RecordFinding> {
   };
   /** what stands beside the verdict: a danger in the record, an edited record */
   readonly caveats: readonly string[];
+  /** the premix logs the batch drew from, each re-checked (absent or empty: none) */
+  readonly premixLogs?: readonly {
+    /** as the batch log (or --premix-log) names it */
+    readonly log: string;
+    readonly path: string;
+    /** the premix batch's id and tank */
+    readonly id: string;
+    readonly tank: string;
+    readonly lastEntrySha256: string;
+    /** re-checked mole fractions and standard uncertainties */
+    readonly composition: Readonly<Record<string, { readonly value: number; readonly u: number }>>;
+  }[];
 }
 
 export type CheckReport = CheckReportOf<RecordFinding>;

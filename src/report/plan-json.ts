@@ -5,6 +5,7 @@ import { withJsonKeys } from './json-keys.js';
 import type { PressureUnit } from './units.js';
 import { predictedJson } from './predicted-text.js';
 import { twoStageJson } from './two-stage-text.js';
+import { premixLogJson } from './premix-log-text.js';
 
 import type { ReactorSpec } from '../core/index.js';
 
@@ -176,6 +177,7 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     ...virialJson(plan),
     predicted: predictedJson(plan),
     two_stage: twoStageJson(plan, meta, unit, planToJson),
+    premix_log: premixLogJson(plan),
     // a finding's numbers keep their names, in the JSON key style (uncertaintyPa -> uncertainty_Pa)
     findings: plan.findings.map((f) => ({
       ...(withJsonKeys(f) as object),

@@ -6,6 +6,7 @@ import type { PlanMeta } from './plan-json.js';
 import { predictedLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit } from './charges.js';
 import { twoStageDeliveryLines, twoStageHead } from './two-stage-text.js';
+import { premixLogLines } from './premix-log-text.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -235,6 +236,7 @@ export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): stri
   out.push('');
   out.push(...predictedLines(plan));
   out.push(...twoStageDeliveryLines(plan, unit));
+  out.push(...premixLogLines(plan, unit));
   out.push(...findingLines(plan, unit));
   out.push(`Caution: ${STANDING_CAUTION}`);
   return out.join('\n') + '\n';

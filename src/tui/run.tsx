@@ -274,7 +274,7 @@ export function wizardAct(
     if (built.plan.twoStage) return wizardPremixFill(s, built, dir, ctx);
     mkdirSync(dir, { recursive: true });
     const { id, file: logFile } = freeLogName(dir, s.values.id);
-    createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString()));
+    createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString(), logFile));
     return { header: readLog(logFile).header, logFile };
   } catch (e) {
     const not = what === 'guided fill' ? 'guided fill not started' : `${what} not written`;

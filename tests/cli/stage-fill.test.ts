@@ -7,6 +7,9 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../helpers.js';
 import { stage2Command } from '../../src/cli/stage-fill.js';
+import { createLog, readLog } from '../../src/io/batch-log.js';
+import { fileSha256, stage2Header } from '../../src/io/stage-log.js';
+import { premixTargets, twoStagePlanned, writePremixLog } from '../stage-logs.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const tmp = () => mkdtempSync(join(tmpdir(), 'mw-stagefill-'));
@@ -47,7 +50,7 @@ describe('fill --premix-tank: refusals before any gas flows (exit 2)', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toContain('(error code: stage-fill)');
     // the plan's delivery check (plan prints it as the premix-runs-low danger): 240 Torr falls to 190.62
-    expect(r.stderr).toMatch(/the premix tank MT-2, at 240 Torr as planned, falls to 190\.62 Torr/);
+    expect(r.stderr).toMatch(/the premix tank MT-2, filled to 240 Torr as planned, falls to 190\.62 Torr/);
     expect(r.stderr).toContain('must reach 212.87 Torr');
     expect(existsSync(join(dir, 'batches'))).toBe(false);
   });
@@ -106,5 +109,93 @@ describe('the stage-2 command stage 1 records', () => {
       "mixwright fill 'recipes/a b.yaml' --phi 0.9 --pressure '1400 Torr' --premix-log batches/b1-premix.jsonl " +
         '--batch b1 --dir batches',
     );
+  });
+});
+
+describe('fill --premix-log: stage 2 refusals before any gas flows (exit 2, no batch log)', () => {
+  const TORR = 101325 / 760;
+  const stage2 = (file: string, extra: string[] = []) =>
+    runCli(['fill', RECIPE, '--premix-log', file, ...extra], true);
+  const noBatchLog = (dir: string) => expect(readdirSync(dir).filter((f) => f === 'b1.jsonl')).toEqual([]);
+
+  it('an unfinished premix log (premix-log-refused, not-finished)', async () => {
+    const dir = tmp();
+    const { file } = writePremixLog(dir, premixTargets, { close: false });
+    const r = await stage2(file);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: premix-log-refused)');
+    noBatchLog(dir);
+  });
+
+  it('a premix whose re-check is not shown within tolerance: O2 read 1 Torr high (premix-log-refused)', async () => {
+    const dir = tmp();
+    const { file } = writePremixLog(dir, [premixTargets[0], premixTargets[1] + TORR]);
+    const r = await stage2(file);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: premix-log-refused)');
+    expect(r.stderr).toMatch(/O2/);
+    noBatchLog(dir);
+  });
+
+  it('a premix log with a reading past its working limit: a danger in its record (premix-log-refused)', async () => {
+    const dir = tmp();
+    const limit = twoStagePlanned.plan.twoStage!.premix.tank.ratedPressurePa! * 0.9;
+    const { file } = writePremixLog(dir, [premixTargets[0], limit * 1.01]);
+    const r = await stage2(file);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: premix-log-refused)');
+    noBatchLog(dir);
+  });
+
+  it('a premix log made for another batch than --batch (stage-fill, premix-other-batch)', async () => {
+    const dir = tmp();
+    const { file } = writePremixLog(dir, premixTargets);
+    const r = await stage2(file, ['--batch', 'b2']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: stage-fill)');
+    expect(r.stderr).toContain(`the premix log ${file} was made for batch b1, not b2: give --batch b1`);
+    expect(readdirSync(dir)).toEqual(['b1-premix.jsonl']);
+  });
+
+  it('the batch log beside the premix log exists already (stage-fill, log-exists)', async () => {
+    const dir = tmp();
+    const { file } = writePremixLog(dir, premixTargets);
+    writeFileSync(join(dir, 'b1.jsonl'), 'kept\n');
+    const r = await stage2(file);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain(`the stage-2 log ${join(dir, 'b1.jsonl')} exists`);
+    expect(readFileSync(join(dir, 'b1.jsonl'), 'utf8')).toBe('kept\n');
+  });
+
+  it('resume of a stage-2 log whose premix log changed since: refused (stage-fill, premix-changed), log untouched', async () => {
+    const dir = tmp();
+    const { file } = writePremixLog(dir, premixTargets);
+    const batchLog = join(dir, 'b1.jsonl');
+    const p = await import('../../src/cli/plan-from.js');
+    const planned = p.planFrom(RECIPE, { premixLog: file });
+    const sha = fileSha256(file)!;
+    createLog(
+      batchLog,
+      stage2Header(
+        planned.plan,
+        planned.req,
+        'b1',
+        '2026-12-03T10:00:00Z',
+        { file, id: 'b1-premix', sha256: sha },
+        batchLog,
+      ),
+    );
+    expect(readLog(batchLog).header.stage?.premix_log).toEqual({
+      file: 'b1-premix.jsonl',
+      id: 'b1-premix',
+      sha256: sha,
+    });
+    const before = readFileSync(batchLog, 'utf8');
+    writeFileSync(file, readFileSync(file, 'utf8').replace('"QX"', '"QY"'));
+    const r = await runCli(['fill', '--resume', batchLog], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: stage-fill)');
+    expect(r.stderr).toContain(`the premix log ${file} has changed since this batch was started from it`);
+    expect(readFileSync(batchLog, 'utf8')).toBe(before);
   });
 });

@@ -19,9 +19,9 @@ const relU = (p: PredictedPlan, name: string) => {
   const r = p.predicted!.rows.find((x) => x.name === name)!;
   return r.expandedU / r.design;
 };
-/** the batch predicted again with the premix taken as exact (its composition terms removed) */
-function withoutPremixU(two: TwoStagePlan) {
-  const bare = { ...two.source, compositionTerms: undefined };
+/** the batch predicted again with the premix's composition terms changed (default: removed, the premix exact) */
+function withoutPremixU(two: TwoStagePlan, terms?: TwoStagePlan['source']['compositionTerms']) {
+  const bare = { ...two.source, compositionTerms: terms };
   const steps = two.batch.steps.map((s) => (s.source.id === bare.id ? { ...s, source: bare } : s));
   return predictPlan({
     plan: { ...two.batch, steps },
@@ -70,8 +70,10 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     const o2 = (p: { rows: readonly { name: string; expandedU: number }[] }) =>
       p.rows.find((r) => r.name === 'O2')!.expandedU;
     expect(o2(two.batch.predicted!)).toBeGreaterThan(o2(bare));
-    // JCGM 100 5.1.2 with the premix inputs independent of the batch's: u^2 adds (identity, 1e-12 relative)
-    const r = two.batch.predicted!.result;
+    // JCGM 100 5.1.2 with the premix inputs independent of the batch's (no instrument shared): u^2
+    // adds (identity, 1e-12 relative)
+    const unshared = (two.source.compositionTerms ?? []).map((t) => ({ ...t, shared: undefined }));
+    const r = withoutPremixU(two, unshared).result;
     const premixU2 = r.components.reduce(
       (a, c, i) => a + (c.about.kind === 'source-composition' ? r.composition.O2.contributions![i] ** 2 : 0),
       0,

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -55,6 +56,49 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       const h = readLog(premixLog).header;
       expect(h.stage).toMatchObject({ number: 1, of: 2, batch: 'b1' });
       expect(readLog(premixLog).closed).toBe(true);
+
+      // stage 2: the command stage 1 recorded, as typed at the manifold
+      const next = h.stage!.next_command!;
+      t.tm('kill-session', '-t', 's');
+      t.start(withStatus(next.replace(/^mixwright/, `node ${BIN}`)));
+      const batchLog = join(dir, 'batches', 'b1.jsonl');
+      const typed: number[] = [];
+      for (let k = 1; k <= 4; k++) {
+        s = await t.waitFor(new RegExp(`fill ${k} of 4`));
+        expect(s).toContain('mixwright fill b1 ');
+        typed.push(target(s));
+        await t.type(String(target(s)));
+        await t.keys('Enter');
+      }
+      const end2 = flat(await t.waitFor(/Stage 2 of 2/, 30000));
+      expect(end2).toContain('filled from the premix log b1-premix.jsonl');
+      await t.keys('q');
+      expect(flat(await t.waitFor(/EXIT=\d+/))).toContain('EXIT=0');
+      await waitUntil(() => !existsSync(`${batchLog}.lock`), 10000);
+      // the stage-2 targets of the plan from this premix log (README two-stage section)
+      expect(typed).toEqual([10.01, 371.19, 520.23, 1499.7]);
+      expect(readLog(batchLog).header.stage).toMatchObject({
+        number: 2,
+        batch: 'b1',
+        premix_log: { file: 'b1-premix.jsonl', id: 'b1-premix' },
+      });
+
+      // check of the batch log re-checks the premix log and carries its budget
+      const check = execFileSync('node', [BIN, 'check', batchLog, '--json'], {
+        cwd: dir,
+        encoding: 'utf8',
+      });
+      const o2 = JSON.parse(check).composition.O2;
+      // reference: the two-stage plan's own prediction for a fill at its targets (plan --premix-tank MT-2,
+      // README table: x(O2) 0.0133333, U 0.36 %); the readings are the targets as displayed, so the value
+      // agrees within 1e-6 absolute (a tenth of U) and U within 2 % of the prediction
+      const plan = JSON.parse(
+        execFileSync('node', [BIN, 'plan', RECIPE, '--premix-tank', 'MT-2', '--json'], { encoding: 'utf8' }),
+      );
+      const pred = plan.predicted.composition.O2;
+      expect(Math.abs(o2.value - pred.value)).toBeLessThan(1e-6);
+      expect(Math.abs(o2.u / pred.u - 1)).toBeLessThan(0.02);
+      expect((2 * o2.u) / o2.value).toBeGreaterThan(0.0035);
     } finally {
       t.close();
     }

@@ -10,7 +10,7 @@ import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { planFrom } from '../plan-from.js';
 import { checkStageOnResume, fillBatchStage, fillPremixStage } from '../stage-fill.js';
 
-type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string; premixLog?: string };
+type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string };
 
 /** continue an interrupted fill from its log: the design is the log's own */
 async function resume(cli: Cli, recipeFile: string | undefined, logFile: string): Promise<void> {
@@ -20,15 +20,19 @@ async function resume(cli: Cli, recipeFile: string | undefined, logFile: string)
   if (log.closed) throw new ProblemError({ code: 'log-closed' }, { file: logFile });
   for (const w of log.warnings) cli.err(`mixwright: ${logFile}: ${w}\n`);
   // stage 2 of a two-stage fill: its premix log must be the one the batch was started from
-  await checkStageOnResume(logFile, log.header);
+  checkStageOnResume(logFile, log.header);
   fillEnded(cli, await fromTui(() => tui.runFill({ header: log.header, logFile, log })), logFile);
 }
 
-async function fill(cli: Cli, recipeFile: string | undefined, o: FillOptions): Promise<void> {
+/** `dirGiven`: --dir typed (else stage 2 writes beside its premix log) */
+async function fill(
+  cli: Cli,
+  recipeFile: string | undefined,
+  o: FillOptions,
+  dirGiven = false,
+): Promise<void> {
   if (!cli.isTTY) throw new ProblemError({ code: 'needs-terminal', command: 'fill' }, { field: 'fill' });
   if (o.resume) return resume(cli, recipeFile, o.resume);
-  // stage 2 of a two-stage fill: the batch from a finished premix log (cli/stage-fill.ts)
-  if (o.premixLog) return fillBatchStage(cli, recipeFile, { ...o, premixLog: o.premixLog });
   const tui = await import('../../tui/run.js');
   const planned = planFrom(recipeFile, o);
   const { plan, req } = planned;
@@ -38,9 +42,11 @@ async function fill(cli: Cli, recipeFile: string | undefined, o: FillOptions): P
     throw new ProblemError({ code: 'bad-batch-id', id }, { field: '--batch' });
   // two stages: this fill makes the premix (stage 1); the batch is filled from its log (cli/stage-fill.ts)
   if (plan.twoStage) return fillPremixStage(cli, recipeFile, o, planned, id);
+  // the batch from a finished premix log (stage 2; --premix-log or the recipe's premix.log)
+  if (plan.premixLog) return fillBatchStage(cli, { ...o, dir: dirGiven ? o.dir : undefined }, planned);
   mkdirSync(o.dir, { recursive: true });
   const file = join(o.dir, `${id}.jsonl`);
-  createLog(file, headerFromPlan(plan, req, id, new Date().toISOString()));
+  createLog(file, headerFromPlan(plan, req, id, new Date().toISOString(), file));
   fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
 }
 
@@ -54,11 +60,9 @@ export function registerFill(program: Command, cli: Cli): void {
       ),
   )
     .option('--resume <log>', 'continue an interrupted fill from its batch log')
-    .option(
-      '--premix-log <log>',
-      'stage 2 of a two-stage fill: fill the batch from this finished premix log (stage 1), beside it',
-    )
     .option('--batch <id>', 'batch id (default: recipe id and date and time)')
     .option('--dir <folder>', 'folder of the batch logs', 'batches')
-    .action((recipeFile: string | undefined, o: FillOptions) => fill(cli, recipeFile, o));
+    .action((recipeFile: string | undefined, o: FillOptions, cmd: Command) =>
+      fill(cli, recipeFile, o, cmd.getOptionValueSource('dir') === 'cli'),
+    );
 }

@@ -6,15 +6,19 @@
  * c_i = (contribution c_i u_i) / u_i, so the premix's covariance u(x_a, x_b) = sum_i c_ai c_bi u_i^2
  * (JCGM 100:2008, 5.2.2 with the inputs independent) reaches the batch whole, correlations included.
  */
-import { fillLabel, premix, type CompositionTerm, type GasSource } from '../supply.js';
+import { fillLabel, premix, type CompositionTerm, type GasSource, type SharedInstrument } from '../supply.js';
 import type { Fractions } from '../composition.js';
 import type { UncertaintyResult } from '../uncertainty.js';
 
 /** a term whose largest change of a mole fraction per standard uncertainty is below this is left out */
 const NEGLIGIBLE_TERM = 1e-12;
 
-/** the composition terms of a stage's budget: one per input that moves the composition */
-export function compositionTermsOf(result: UncertaintyResult, scale = 1): CompositionTerm[] {
+/**
+ * The composition terms of a stage's budget: one per input that moves the composition. With
+ * `share`, a gauge's span and zero and the thermometer's offset say which instrument they are
+ * (CompositionTerm.shared), so that a batch read by the same instrument counts them once.
+ */
+export function compositionTermsOf(result: UncertaintyResult, scale = 1, share = true): CompositionTerm[] {
   const terms: CompositionTerm[] = [];
   result.components.forEach((c, j) => {
     if (!(c.u > 0)) return;
@@ -25,8 +29,16 @@ export function compositionTermsOf(result: UncertaintyResult, scale = 1): Compos
       sensitivity[k] = (scale * cu) / c.u;
       largest = Math.max(largest, Math.abs(cu));
     }
-    if (largest > NEGLIGIBLE_TERM)
-      terms.push({ name: c.name, dist: c.dist, scale: c.scale, unit: c.unit, sensitivity });
+    if (!(largest > NEGLIGIBLE_TERM)) return;
+    const a = c.about;
+    const shared: SharedInstrument | undefined = !share
+      ? undefined
+      : a.kind === 'span' || a.kind === 'zero'
+        ? { kind: a.kind, gauge: a.gauge }
+        : a.kind === 'thermometer'
+          ? { kind: 'thermometer' }
+          : undefined;
+    terms.push({ name: c.name, dist: c.dist, scale: c.scale, unit: c.unit, sensitivity, shared });
   });
   return terms;
 }
@@ -43,6 +55,11 @@ export interface PremixSourceArgs {
   readonly pressurePa: number;
   /** the first stage's budget (a prediction or a re-check); undefined: the composition taken as exact */
   readonly budget?: UncertaintyResult;
+  /**
+   * false when the batch is read by other instruments than the premix (another lab's log): its
+   * gauge spans and zeros and thermometer offset stay independent inputs (default true)
+   */
+  readonly sharedInstruments?: boolean;
 }
 
 /** the premix as a source: identified composition scaled to 1 - unidentified, its uncertainty as terms */
@@ -55,6 +72,6 @@ export function premixSource(a: PremixSourceArgs): GasSource {
     label: `${fillLabel(base)} premix in ${a.tank}`,
     composition,
     unidentified: a.unidentified,
-    compositionTerms: a.budget ? compositionTermsOf(a.budget, keep) : undefined,
+    compositionTerms: a.budget ? compositionTermsOf(a.budget, keep, a.sharedInstruments ?? true) : undefined,
   };
 }

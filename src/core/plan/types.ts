@@ -9,6 +9,7 @@ import type { Gauge, ReadingContext } from '../gauges.js';
 import type { VirialModel } from '../mixture-eos.js';
 import type { Finding } from '../findings.js';
 import type { TwoStagePlan } from './two-stage.js';
+import type { PremixLogUse } from './premix-log.js';
 
 export interface Tolerance {
   /** allowed relative deviation of each mole fraction (0.005 = 0.5 %) */
@@ -138,4 +139,6 @@ export interface Plan {
   readonly tolerance: Tolerance;
   /** a two-stage preparation: this plan is its stage 2 (the batch); stage 1 made the premix it draws from */
   readonly twoStage?: Omit<TwoStagePlan, 'batch'>;
+  /** a batch drawing from an existing premix tank: the premix log it was planned from */
+  readonly premixLog?: PremixLogUse;
 }

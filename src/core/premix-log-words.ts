@@ -1,0 +1,88 @@
+/**
+ * The wording of a refused premix log: what is wrong with the log named as the batch's premix
+ * source, why it cannot be used, and what to do. Spread into messages.ts.
+ */
+import { TORR_PA } from './constants.js';
+import type { Problem } from './problems.js';
+
+const torr = (pa: number) => `${Number((pa / TORR_PA).toPrecision(5))} Torr`;
+
+/** why the premix log cannot be used */
+export function describePremixLogProblem(
+  p: Extract<Problem, { code: 'premix-log-refused' }>,
+  describe: (q: Problem) => string,
+): string {
+  const c = p.cause;
+  const at = `premix log ${p.log}`;
+  switch (c.kind) {
+    case 'unreadable':
+      return (
+        `${at} cannot be read as a batch log: ${describe(c.problem)}; ` +
+        'name the finished batch log of the premix tank'
+      );
+    case 'not-finished':
+      return (
+        `${at} is not a finished fill (${[
+          c.missingSteps.length ? `no reading for step ${c.missingSteps.join(', ')}` : '',
+          c.closed ? '' : 'not closed',
+        ]
+          .filter(Boolean)
+          .join(', ')}): the premix's composition is not known until every fill is logged and ` +
+        'the log is closed; finish or close that fill first'
+      );
+    case 'recheck-not-passed':
+      return (
+        `${at} ` +
+        (c.verdict === 'fail'
+          ? 'fails its re-check'
+          : 'cannot be shown within its tolerance by its re-check') +
+        (c.off.length ? ` (${c.off.join(', ')})` : '') +
+        ': a batch filled from it would rest on a premix whose composition is not proven; run ' +
+        '`mixwright check` on it, and make a new premix if the readings are right'
+      );
+    case 'danger':
+      return (
+        `${at} records a danger (${c.codes.join(', ')}): the premix tank must not be used until it ` +
+        'and its gauges have been inspected; see `mixwright check` on that log'
+      );
+    case 'too-little-gas':
+      return (
+        `the premix tank ${c.tank} of ${at} holds ${torr(c.startPa)} now and ` +
+        `${c.endPa > 0 ? `would fall to ${torr(c.endPa)}` : 'would run empty'} after delivering ` +
+        `${c.deliveredMol.toPrecision(3)} mol, but the batch reading its last charge must reach is ` +
+        `${torr(c.targetPa)} (gas flows only while the premix tank is higher; ${torr(c.requiredPa)} ` +
+        'leaves a 10 % margin): make a new premix, or plan a smaller batch or a lower final pressure'
+      );
+    case 'foreign-gas':
+      return (
+        `${at} holds ${c.species.join(', ')}, which the design (${c.design.join(', ')}) does not: ` +
+        "it is not a premix of this design's gases; name the premix log of this design's gases"
+      );
+    case 'same-tank':
+      return (
+        `${at} is of the batch tank ${c.tank} itself: a premix must be in another tank; ` +
+        'to top up the gas in the batch tank, give it as in_tank in the recipe'
+      );
+    case 'not-in-order':
+      return (
+        `the fill order does not name the premix ${c.source} of ${at}: name it in the order ` +
+        `(e.g. --order "CH4,Ar,${c.source},Ar"), or leave the order out to let the plan choose`
+      );
+    case 'changed':
+      return (
+        `${at} has changed since the batch log recorded it (its last entry was ${c.recorded.slice(0, 12)}..., ` +
+        `now ${c.now.slice(0, 12)}...): the batch's premix may not be the gas that log now describes; ` +
+        'restore the premix log as it was when the batch was filled'
+      );
+    case 'loop':
+      return (
+        `${at} names, through its own premix logs, the log that names it: a premix cannot be made ` +
+        'from itself; correct the premix_logs of those logs'
+      );
+    case 'with-premix-tank':
+      return (
+        `a premix log and a premix tank to make a premix in are both asked for (${c.places[0]} and ` +
+        `${c.places[1]}): give one of them`
+      );
+  }
+}
