@@ -51,9 +51,8 @@ const sentence = (reason: string): string =>
   /[.!?]$/.test(reason.trim()) ? reason.trim() : `${reason.trim()}.`;
 
 export function describeProblem(p: Problem): string {
-  // raised by the planner: its typed variants share a few codes, told apart by `kind`
+  // raised by the planner (variants sharing a code told apart by `kind`), split charges, two stages
   if (isPlannerProblem(p)) return describePlannerProblem(p);
-  // raised by the planner's split charges, and by two-stage preparation
   if (p.code === 'charges-invalid' || p.code === 'split-stop') return describeChargeProblem(p);
   if (p.code === 'two-stage-refused') return describeTwoStageProblem(p, describeProblem);
   if (p.code === 'premix-log-refused') return describePremixLogProblem(p, describeProblem);
