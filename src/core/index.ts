@@ -253,3 +253,10 @@ export { premixDelivery, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
 export type { Delivery, DeliveryInput } from './premix-tank.js';
 export type { CompositionTerm } from './supply.js';
 export { chargeNumbers } from './plan/charges.js';
+// the safety review of a sequence, shared by the plan and the guided fill's re-targeted remainder
+export { reviewSequence, sequenceEvents } from './sequence-review.js';
+export type { SequenceFill, SequenceStart } from './sequence-review.js';
+export { hazardKey, isSequenceHazard, reviewRemainder } from './remainder-review.js';
+export type { PlannedFinding, RemainderReview, RemainderReviewInput, SaferStop } from './remainder-review.js';
+export { roundUpToGrid } from './reading-grid.js';
+export type { ReadingGrid } from './reading-grid.js';

@@ -22,6 +22,7 @@ import { labelLines, labelModel } from '../report/label-model.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
+import { RemainderReviewScreen } from './fill-review-view.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -249,6 +250,7 @@ function FillScreen({
   if (state.phase === 'start' && state.start) return <StartScreen state={state} />;
   if (state.phase === 'correct' && state.correcting) return <CorrectScreen state={state} />;
   if (state.phase === 'reminder') return <ReminderScreen state={state} />;
+  if (state.phase === 'review' && state.review) return <RemainderReviewScreen state={state} />;
   if (state.phase === 'confirm' && state.pending) return <ConfirmScreen state={state} />;
   if (state.phase === 'over-limit' && state.pending && state.overLimit)
     return <OverLimitScreen state={state} />;
