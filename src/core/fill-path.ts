@@ -235,7 +235,9 @@ export function reviewSegment(
     for (let i = 0; i <= FINE; i++) {
       const left = i > 0 ? fine[i - 1] : Infinity;
       const right = i < FINE ? fine[i + 1] : Infinity;
-      if (fine[i] > 0 && fine[i] <= left && fine[i] <= right)
+      // inside points too: a crossing thinner than the samples' spacing may hold only a fine-grid
+      // point (its gap negative), which no sample judges
+      if (fine[i] <= left && fine[i] <= right)
         pts.push(at(goldenMin(gap, Math.max(0, (i - 1) / FINE), Math.min(1, (i + 1) / FINE), GOLDEN)));
     }
     // thin crossings by flame temperature: local maxima of the flame share near the limit, refined

@@ -257,3 +257,10 @@ export type { CompositionTerm, SharedInstrument } from './supply.js';
 export { chargeNumbers } from './plan/charges.js';
 // the guided fill of a two-stage preparation: its refusals (worded in stage-words.ts)
 export type { StageFillCause, StageProblem } from './problems.js';
+// the safety review of a sequence, shared by the plan and the guided fill's re-targeted remainder
+export { reviewSequence, sequenceEvents } from './sequence-review.js';
+export type { SequenceFill, SequenceStart } from './sequence-review.js';
+export { hazardKey, isSequenceHazard, reviewRemainder } from './remainder-review.js';
+export type { PlannedFinding, RemainderReview, RemainderReviewInput, SaferStop } from './remainder-review.js';
+export { roundUpToGrid } from './reading-grid.js';
+export type { ReadingGrid } from './reading-grid.js';

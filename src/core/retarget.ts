@@ -80,7 +80,11 @@ export interface RetargetResult {
     readonly targetPa: number;
     readonly incrementPa: number;
     readonly amountMol: number;
+    /** the tank's composition after this fill (a source's unidentified remainder as its main gas) */
+    readonly compositionAfter: Readonly<Record<string, number>>;
   }[];
+  /** the tank's composition now (after the readings, and the vent if any); empty for an empty tank */
+  readonly nowComposition: Readonly<Record<string, number>>;
   readonly predicted: {
     readonly composition: Record<string, number>;
     readonly phi?: number;
@@ -180,6 +184,7 @@ function retargetFree(input: RetargetInput): { result: RetargetResult; pr: Retar
     gave,
     limitBinds,
     nowPa,
+    nowComposition: haveComp,
     message,
     stops: [],
   };
@@ -253,11 +258,19 @@ function retargetHolding(input: RetargetInput, k: number): RetargetResult {
     ...tail,
     remaining: [
       ...free.remaining.slice(0, k - m),
-      { step: k + 1, source: input.sources[k], targetPa: atPa, incrementPa: atPa - beforePa, amountMol: ak },
+      {
+        step: k + 1,
+        source: input.sources[k],
+        targetPa: atPa,
+        incrementPa: atPa - beforePa,
+        amountMol: ak,
+        compositionAfter: compOf(pr, n),
+      },
       ...tail.remaining.map((x) => ({ ...x, step: x.step + k + 1 })),
     ],
     // the tank now, and whether the limit holds it, are the actual readings' (not the held stop's)
     nowPa: free.nowPa,
+    nowComposition: free.nowComposition,
     limitBinds: free.limitBinds || tail.limitBinds,
     message: note ? `${note}; ${tail.message}` : tail.message,
     stops: [stop, ...tail.stops.map((x) => ({ ...x, step: x.step + k + 1 }))],
@@ -519,7 +532,14 @@ function remainingTargets(
     const comp = compOf(pr, n);
     const tot = n.reduce((p, q) => p + q, 0);
     const P = pressureFromDensity(tot / V, T, bMix(model, comp), cMix(model, comp));
-    remaining.push({ step: m + j + 1, source: s, targetPa: P, incrementPa: P - prevP, amountMol: aj });
+    remaining.push({
+      step: m + j + 1,
+      source: s,
+      targetPa: P,
+      incrementPa: P - prevP,
+      amountMol: aj,
+      compositionAfter: comp,
+    });
     prevP = P;
   });
   return remaining;

@@ -4,7 +4,8 @@
  * "mixwright-batch/2" (a /1 log is read too; it has no line hashes, which is a note):
  *
  *   {"kind":"batch", ...}            header: design, tank (rating and working limit), gauges,
- *                                    sources, planned steps, gas already in the tank (top-up)
+ *                                    sources, planned steps, gas already in the tank (top-up),
+ *                                    safety? {coldest_K?, condensation_fraction?} (review settings)
  *   {"kind":"barometer", ...}        today's barometric pressure: reading (as typed, with unit),
  *                                    pressure_Pa, u_Pa?, by (initials), time
  *   {"kind":"start-pressure", ...}   top-up: the tank's pressure before the first fill, read and
@@ -19,7 +20,9 @@
  *                                    (the line of the reading it replaces); the original stays
  *   {"kind":"withdraw", ...}         step, withdraws_line, by, time, reason?: takes back the last
  *                                    reading logged, before the next fill; the step is read again
- *   {"kind":"acknowledge", ...}      an operator's acknowledgement of a danger finding
+ *   {"kind":"acknowledge", ...}      an operator's acknowledgement of a danger finding; code
+ *                                    "remainder-review" with review? {trigger, outcome, hazards,
+ *                                    stop?}: the outcome of the review of the re-targeted remainder
  *   {"kind":"close", ...}            the batch is finished
  *
  * Every line carries "chain": the SHA-256 (hex) of the previous line's chain, a line feed,
@@ -172,6 +175,16 @@ export const headerSchema = z.object({
     .optional(),
   /** two-stage preparation: which stage this log records (absent: a single-tank batch; io/stage-log.ts) */
   stage: stageSchema.optional(),
+  /**
+   * the plan's safety-review settings the guided fill reviews its re-targeted remainder with (coldest
+   * wetted temperature, condensation fraction); absent in older logs (then the fill temperature and 0.5)
+   */
+  safety: z
+    .object({
+      coldest_K: z.number().positive().optional(),
+      condensation_fraction: z.number().positive().max(1).optional(),
+    })
+    .optional(),
   findings: z
     .array(
       z.object({
@@ -246,6 +259,30 @@ const startSchema = z.object({
   note: z.string().optional(),
   chain,
 });
+/**
+ * the outcome of a review of the re-targeted remainder (code "remainder-review"): what triggered it,
+ * the hazards the plan did not have, and whether the operator went on through them or took the safer
+ * stop the review computed; absent on other acknowledgements and in older logs
+ */
+const remainderReviewSchema = z.object({
+  trigger: z.enum(['reading', 'undo', 'correction', 'resume', 'temperature', 'start']),
+  outcome: z.enum(['accepted', 'safer-stop']),
+  hazards: z.array(
+    z.object({
+      code: z.string(),
+      step: z.number().int().nullable(),
+      severity: z.enum(['danger', 'warning', 'note']),
+    }),
+  ),
+  /** the safer stop taken: the charge's step, the stop it held and the one it holds now (absolute) */
+  stop: z
+    .object({
+      step: z.number().int().positive(),
+      from_Pa: z.number().positive(),
+      to_Pa: z.number().positive(),
+    })
+    .optional(),
+});
 const ackSchema = z.object({
   kind: z.literal('acknowledge'),
   code: z.string(),
@@ -253,6 +290,7 @@ const ackSchema = z.object({
   by: z.string(),
   time: z.string(),
   note: z.string().optional(),
+  review: remainderReviewSchema.optional(),
   chain,
 });
 const closeSchema = z.object({
@@ -269,6 +307,7 @@ export type LogWithdraw = z.infer<typeof withdrawSchema>;
 export type LogBarometer = z.infer<typeof barometerSchema>;
 export type LogStartPressure = z.infer<typeof startSchema>;
 export type LogAck = z.infer<typeof ackSchema>;
+export type LogRemainderReview = z.infer<typeof remainderReviewSchema>;
 export type LogClose = z.infer<typeof closeSchema>;
 export type LogEvent =
   LogHeader | LogReading | LogWithdraw | LogBarometer | LogStartPressure | LogAck | LogClose;

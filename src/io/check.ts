@@ -112,6 +112,16 @@ export function headerFromPlan(
           ],
         }
       : {}),
+    ...(req.input.safety
+      ? {
+          safety: {
+            ...(req.input.safety.coldestK !== undefined ? { coldest_K: req.input.safety.coldestK } : {}),
+            ...(req.input.safety.condensationFraction !== undefined
+              ? { condensation_fraction: req.input.safety.condensationFraction }
+              : {}),
+          },
+        }
+      : {}),
     findings: plan.findings.map((f) => ({
       severity: f.severity,
       code: f.code,
@@ -188,7 +198,16 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
     );
   for (const a of log.acknowledgements)
     warnings.push(
-      `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
+      a.review
+        ? // the guided fill's review of its re-targeted remainder: what it found and what was chosen
+          `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
+            `${a.review.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, ` +
+            `which the plan did not have; ${a.by} at ${a.time}: ` +
+            (a.review.stop
+              ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
+                `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
+              : 'went on through it (accepted)')
+        : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
   if (h.thermometer.settling_K === undefined)
     warnings.push(

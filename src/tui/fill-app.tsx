@@ -23,6 +23,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
+import { RemainderReviewScreen } from './fill-review-view.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -250,6 +251,7 @@ function FillScreen({
   if (state.phase === 'start' && state.start) return <StartScreen state={state} />;
   if (state.phase === 'correct' && state.correcting) return <CorrectScreen state={state} />;
   if (state.phase === 'reminder') return <ReminderScreen state={state} />;
+  if (state.phase === 'review' && state.review) return <RemainderReviewScreen state={state} />;
   if (state.phase === 'confirm' && state.pending) return <ConfirmScreen state={state} />;
   if (state.phase === 'over-limit' && state.pending && state.overLimit)
     return <OverLimitScreen state={state} />;

@@ -38,6 +38,15 @@ import {
   type LogReading,
   type ParsedLog,
 } from '../io/batch-log.js';
+import {
+  onReviewEnter,
+  reviewMemoryOf,
+  withReview,
+  type ReviewHooks,
+  type ReviewMemory,
+  type ReviewScreen,
+  type ReviewTrigger,
+} from './fill-review.js';
 
 export interface FillStep {
   readonly index: number;
@@ -97,7 +106,9 @@ export type Phase =
   | 'over-limit'
   | 'below'
   | 'ended'
-  | 'done';
+  | 'done'
+  /** the re-targeted remainder passes a hazard the plan did not (fill-review.ts) */
+  | 'review';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -207,6 +218,11 @@ export interface FillState {
   readonly reminded: readonly number[];
   readonly start?: StartGas;
   readonly correcting?: Correcting;
+  // the safety review of the re-targeted remainder (fill-review.ts)
+  /** the review screen's content, in phase 'review' */
+  readonly review?: ReviewScreen;
+  /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
+  readonly reviewed?: ReviewMemory;
 }
 
 export type FillAction =
@@ -300,6 +316,7 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     reminded: [],
     start,
     message: done.length ? resumedText(setup, done.length) : undefined,
+    reviewed: reviewMemoryOf(log),
   };
   if (done.length || start?.read) {
     const r = retargetRun(state, done, T);
@@ -309,7 +326,8 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
   if (stopped) return stopped;
   if (done.length >= setup.steps.length)
     return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
-  return enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
+  const entered = enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
+  return done.length || start?.read ? reviewed(entered, 'resume') : entered;
 }
 
 /** what a resumed fill says first: how many readings the log held, and which fill (and charge) is next */
@@ -416,7 +434,7 @@ export function retargetInput(
     charges: s.setup.steps.map((x, k) => ({
       number: x.charge.number,
       of: x.charge.of,
-      stopPa: x.charge.number < x.charge.of ? h.steps[k].target_Pa : undefined,
+      stopPa: x.charge.number < x.charge.of ? (s.reviewed?.stopsPa[k] ?? h.steps[k].target_Pa) : undefined,
     })),
   };
 }
@@ -433,6 +451,17 @@ function retargetRun(s: FillState, done: readonly DoneReading[], temperatureK: n
   for (const x of result.remaining) t[x.step - 1] = x.targetPa;
   return { targets: t, message: result.message, result };
 }
+
+/** the safety review of the re-targeted remainder (fill-review.ts), from the readings in force */
+function reviewed(s: FillState, trigger: ReviewTrigger): FillState {
+  return withReview(s, trigger, retargetInput(s, s.done, s.targetTemperatureK));
+}
+
+const REVIEW_HOOKS: ReviewHooks = {
+  enterStep: (s) => enterStep(s),
+  rejudge: (s) => rejudge(s),
+  retargetInput: (s) => retargetInput(s, s.done, s.targetTemperatureK),
+};
 
 function gaugeUnit(step: FillStep): PressureUnit {
   return step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr';
@@ -738,7 +767,7 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
       ],
     };
   }
-  return enterStep(next);
+  return reviewed(enterStep(next), 'reading');
 }
 
 /** after the reading is plausible (or confirmed): the working limit */
@@ -1035,12 +1064,13 @@ function onCommand(s: FillState, text: string, now: string): FillState | undefin
         },
       ],
     });
-    return enterStep({
+    const entered = enterStep({
       ...next,
       message:
         `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
         `${undo[1]}; the log keeps it and the withdrawal. Read fill ${last.step} again`,
     });
+    return reviewed({ ...entered, review: undefined }, 'undo');
   }
   const fix = /^fix\s+(\d+)\s+([A-Za-z]{1,6})$/i.exec(text);
   if (/^fix\b/i.test(text) && !fix)
@@ -1137,7 +1167,7 @@ function onCorrectEnter(s: FillState, now: string): FillState {
   };
   if (next.current >= s.setup.steps.length) return afterBelowCorrection(next, now);
   next = rejudge(next);
-  return enterStep({ ...next, phase: 'reading' });
+  return reviewed(enterStep({ ...next, phase: 'reading', review: undefined }), 'correction');
 }
 
 /**
@@ -1216,6 +1246,16 @@ function onChar(base: FillState, text: string, textPhase: boolean): FillState {
 }
 
 function onEscape(base: FillState): FillState {
+  // a correction begun on the review screen goes back to it: the review stands until a logged choice
+  if (base.phase === 'correct' && base.review)
+    return { ...base, phase: 'review', correcting: undefined, input: '', message: 'correction cancelled' };
+  if (base.phase === 'review')
+    return {
+      ...base,
+      error:
+        'the review of the remaining fills stands: type safer INITIALS, accept INITIALS, undo INITIALS ' +
+        'or fix N INITIALS (logged), or Ctrl-C to stop',
+    };
   if (base.phase === 'correct')
     return {
       ...base,
@@ -1252,7 +1292,10 @@ function onTab(base: FillState): FillState {
   )
     return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
   if (base.phase !== 'reading') return base;
-  if (base.field === 'temperature') return withTemperature({ ...base, field: 'reading' });
+  if (base.field === 'temperature') {
+    const t = withTemperature({ ...base, field: 'reading' });
+    return t.targetTemperatureK !== base.targetTemperatureK ? reviewed(t, 'temperature') : t;
+  }
   return { ...base, field: 'temperature' };
 }
 
@@ -1281,6 +1324,8 @@ function onEnter(base: FillState, now: string): FillState {
       return onOverLimitEnter(base, now);
     case 'reading':
       return onCommand(base, base.input.trim(), now) ?? onReadingEnter(base, now);
+    case 'review':
+      return onCommand(base, base.input.trim(), now) ?? onReviewEnter(base, now, REVIEW_HOOKS);
     case 'below':
       return onBelowEnter(base, now);
   }
@@ -1355,13 +1400,15 @@ function onAcknowledgeEnter(base: FillState, now: string): FillState {
     time: now,
     note: d.message,
   }));
-  return enterStep({
+  const entered = enterStep({
     ...base,
     phase: 'reading',
     input: '',
     effects,
     message: `${effects.length} danger finding(s) acknowledged by ${m[1]} and logged`,
   });
+  // a resumed fill's review of its remainder waits for the acknowledgement
+  return base.done.length ? reviewed(entered, 'resume') : entered;
 }
 
 /** a top-up: the tank's pressure and temperature before the first fill, read on the first fill's gauge */
@@ -1414,7 +1461,7 @@ function onStartEnter(s: FillState, now: string): FillState {
     effects: [ev],
   };
   const r = retargetRun(next, [], parsed.temperatureK);
-  return enterStep({
+  const entered = enterStep({
     ...next,
     targetsPa: r.targets,
     targetTemperatureK: parsed.temperatureK,
@@ -1422,6 +1469,7 @@ function onStartEnter(s: FillState, now: string): FillState {
       `starting pressure ${text} logged by ${w.by} (the plan assumed ${fmtIn(planned, unit)} ` +
       `absolute); targets re-computed from it: ${r.message}`,
   });
+  return reviewed(entered, 'start');
 }
 
 /**

@@ -100,7 +100,12 @@ describe('guided fill of a split plan: CH4, Ar to 400 Torr (charge 1 of 2), O2, 
     const s0 = initialState(setupFromHeader(splitHeader()));
     // CH4 mistyped as 405 Torr (a gross overfill): taken as read, the next fill is the first Ar charge
     const s1 = read(s0, '405.0000');
-    expect(s1.phase).toBe('reading');
+    // the remaining sequence is reviewed at once: O2 onto 405 Torr of CH4 is flammable and detonable
+    // (undiluted fuel/O2, which the plan never had), so the fill stops on the review screen
+    expect(s1.phase).toBe('review');
+    expect(s1.review?.hazards.map((z) => z.key)).toEqual(
+      expect.arrayContaining(['flammable-state@3', 'detonable-state@3']),
+    );
     expect(s1.current).toBe(1);
     expect(s1.message).toMatch(
       /the stop of fill 2 \(charge 1 of 2 of cyl-Ar\) cannot be kept: the tank is at 405(\.\d+)? Torr before it, past its stop 400 Torr/,

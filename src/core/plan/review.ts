@@ -10,8 +10,7 @@ import { R } from '../constants.js';
 import type { VirialModel } from '../mixture-eos.js';
 import { virialU } from '../mixture-eos.js';
 import type { Finding } from '../findings.js';
-import { reviewFillSequence, type FillEvent, type TankState } from '../safety.js';
-import { reviewFillPath } from '../fill-path.js';
+import { reviewSequence } from '../sequence-review.js';
 import type { PlanBasis } from './validate.js';
 import type { PlanAmounts } from './amounts.js';
 import type { PlanSequence } from './sequence.js';
@@ -72,37 +71,24 @@ function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[]
 
 /**
  * the safety review of every state the fill passes through (after every charge, split charges
- * included), and of each charge's path in the tank and at its inlet; `locate` false bisects the
- * path boundaries 4 times instead of 9 (the split-point search needs the severities only)
+ * included), and of each charge's path in the tank and at its inlet (core/sequence-review.ts, the
+ * code the guided fill reviews its re-targeted remainder with); `locate` false bisects the path
+ * boundaries 4 times instead of 9 (the split-point search needs the severities only)
  */
 export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[], locate = true): Finding[] {
   const { initial } = basis;
-  const states: TankState[] = [];
-  const fills: FillEvent[] = [];
-  let before: TankState | undefined = initial
-    ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa, final: false }
-    : undefined;
-  if (before) states.push(before);
-  for (const s of steps) {
-    const after: TankState = {
-      step: s.index,
-      composition: s.compositionAfter,
-      pressurePa: s.targetPa,
-      final: s.index === steps.length,
-    };
-    states.push(after);
-    fills.push({
+  return reviewSequence(
+    initial ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa } : undefined,
+    steps.map((s) => ({
       step: s.index,
       sourceId: s.source.id,
       sourceComposition: s.source.composition,
-      before,
-      after,
-    });
-    before = after;
-  }
-  const out = [...reviewFillSequence(states, fills, basis.safety)];
-  for (const f of fills) out.push(...reviewFillPath(f, basis.safety, locate));
-  return out;
+      compositionAfter: s.compositionAfter,
+      pressurePa: s.targetPa,
+    })),
+    basis.safety,
+    locate,
+  );
 }
 
 /**

@@ -1,0 +1,253 @@
+/**
+ * The safety review of the re-targeted remainder of a guided fill. After every accepted reading,
+ * undo, correction, resume and change of temperature the fills still ahead are re-targeted
+ * (retarget.ts) from the tank as read, so they pass other states than the plan reviewed: a CH4
+ * fill read high makes the O2 that follows larger, and the O2 meets the diluted fuel at the same
+ * held stop. This module reviews the tank now, every remaining state and every remaining fill path
+ * with the plan's own code (sequence-review.ts), names the hazards the plan did not have, and looks
+ * for a safer stop of a diluent charge ahead of the oxidizer (below). Findings and numbers only:
+ * the shell decides what the operator may do with them.
+ *
+ * What counts: a finding of severity danger, or a flammable or detonable state or path
+ * (`flammable-state`, `flammable-mixture`, `flammable-fill-path`, `flammable-at-inlet`,
+ * `detonable-state`), whose code and fill number the plan's own findings do not hold. A state near
+ * the flammable region (`near-flammable`, a note inside the NFPA 69 margins) is said, not stopped on.
+ *
+ * The safer stop (our rule, the split-point rule of plan/split-point.ts applied to the remainder):
+ * the first charge still ahead that holds a stop, fills an inert gas only and comes before a fill
+ * that carries an oxidizer, with a hazard at or after it, is given the lowest stop, above the one
+ * it holds and below the reading of its source's last charge, at which the re-targeted remainder
+ * has no hazard the plan did not have and no state near the flammable region that the plan did not
+ * have (the NFPA 69 margins, as the plan's split point keeps them; where no stop keeps them, only
+ * the hazards): 8 even grid points, then bisections between the last rejected grid point and
+ * the first accepted one down to the reading gauge's resolution (at most 24), rounded up to that
+ * resolution and checked again there (more diluent before the oxidizer is the safe side).
+ */
+import type { Fractions } from './composition.js';
+import type { Finding, Severity } from './findings.js';
+import { getSpecies } from './lookup.js';
+import { oxygenDemand } from './formula.js';
+import { retarget, type RetargetInput, type RetargetResult } from './retarget.js';
+import type { SafetyContext } from './safety.js';
+import { reviewSequence, type SequenceStart } from './sequence-review.js';
+import { roundUpToGrid, type ReadingGrid } from './reading-grid.js';
+
+/** a finding of the plan, as a batch log keeps it */
+export interface PlannedFinding {
+  readonly severity: Severity;
+  readonly code: string;
+  readonly step?: number | null;
+}
+
+export interface RemainderReviewInput {
+  /** the re-target of the remaining fills (the readings done, the charges and their stops) */
+  readonly retarget: RetargetInput;
+  /** its result, when the caller has it already */
+  readonly result?: RetargetResult;
+  /** the review settings; the temperature is the re-target's */
+  readonly safety: Omit<SafetyContext, 'temperatureK'>;
+  /** the plan's findings: a hazard among them is known, not new */
+  readonly planned: readonly PlannedFinding[];
+  /** how each fill's reading is shown (0-based fill index): a safer stop is rounded up to it */
+  readonly readingGrid?: (fill: number) => ReadingGrid | undefined;
+  /** look for a safer stop when there is a new hazard (default true) */
+  readonly searchAlternative?: boolean;
+}
+
+/** a safer stop of a diluent charge ahead of the oxidizer */
+export interface SaferStop {
+  /** 0-based index of the charge among all fills */
+  readonly fill: number;
+  readonly sourceId: string;
+  /** the stop it holds now, and the safer one (absolute, Pa) */
+  readonly fromPa: number;
+  readonly toPa: number;
+  /** the re-target with the safer stop, and its review */
+  readonly result: RetargetResult;
+  readonly findings: readonly Finding[];
+  /**
+   * true: no state or path comes nearer the flammable region than the plan's (the NFPA 69 margins
+   * kept); false: only flammable ones are avoided (no stop below the source's last charge keeps them)
+   */
+  readonly marginKept: boolean;
+}
+
+export interface RemainderReview {
+  readonly result: RetargetResult;
+  /** every finding of the remainder: the tank now, each remaining state and fill path */
+  readonly findings: readonly Finding[];
+  /** flammable, detonable or danger findings the plan did not have */
+  readonly hazards: readonly Finding[];
+  /** states near the flammable region the plan did not have (said, not stopped on) */
+  readonly near: readonly Finding[];
+  readonly alternative?: SaferStop;
+  /** why no safer stop is offered (when there are hazards and none is) */
+  readonly noAlternative?: 'no-diluent-stop' | 'none-clean' | 'not-searched';
+  /** re-targets and reviews the search made */
+  readonly evaluations: number;
+}
+
+const HAZARD_CODES: ReadonlySet<string> = new Set([
+  'flammable-state',
+  'flammable-mixture',
+  'flammable-fill-path',
+  'flammable-at-inlet',
+  'detonable-state',
+]);
+
+/** a finding the remainder review stops on (module comment) */
+export function isSequenceHazard(f: PlannedFinding): boolean {
+  return f.severity === 'danger' || HAZARD_CODES.has(f.code);
+}
+
+/** the key a hazard is matched by: its code and fill (0 for the gas before the first fill or the batch) */
+export function hazardKey(f: PlannedFinding): string {
+  return `${f.code}@${f.step ?? 0}`;
+}
+
+/** the tank now and the remaining fills, as a sequence to review */
+function sequenceOf(input: RetargetInput, r: RetargetResult) {
+  const m = input.done.length;
+  const start: SequenceStart | undefined =
+    m > 0 || input.initial ? { step: m, composition: r.nowComposition, pressurePa: r.nowPa } : undefined;
+  const fills = r.remaining.map((x) => ({
+    step: x.step,
+    sourceId: x.source.id,
+    sourceComposition: x.source.composition,
+    compositionAfter: x.compositionAfter,
+    pressurePa: x.targetPa,
+  }));
+  return { start, fills };
+}
+
+/** the review of a re-target's remainder, and what in it the plan did not have */
+function judgeRemainder(
+  input: RemainderReviewInput,
+  r: RetargetResult,
+  locate: boolean,
+): { findings: Finding[]; hazards: Finding[]; near: Finding[] } {
+  const known = new Set(input.planned.map(hazardKey));
+  const { start, fills } = sequenceOf(input.retarget, r);
+  const ctx: SafetyContext = { ...input.safety, temperatureK: input.retarget.temperatureK };
+  const findings = fills.length ? reviewSequence(start, fills, ctx, locate) : [];
+  const fresh = findings.filter((f) => !known.has(hazardKey(f)));
+  return {
+    findings,
+    hazards: fresh.filter(isSequenceHazard),
+    near: fresh.filter((f) => f.code === 'near-flammable'),
+  };
+}
+
+/** the review of the remainder (module comment); the safer stop when there is a new hazard */
+export function reviewRemainder(input: RemainderReviewInput): RemainderReview {
+  const result = input.result ?? retarget(input.retarget);
+  const { findings, hazards, near } = judgeRemainder(input, result, true);
+  if (!hazards.length) return { result, findings, hazards, near, evaluations: 0 };
+  if (input.searchAlternative === false)
+    return { result, findings, hazards, near, noAlternative: 'not-searched', evaluations: 0 };
+  const k = diluentStopAhead(input.retarget, hazards);
+  if (k === undefined)
+    return { result, findings, hazards, near, noAlternative: 'no-diluent-stop', evaluations: 0 };
+  const found = saferStopOf(input, result, k);
+  return {
+    result,
+    findings,
+    hazards,
+    near,
+    evaluations: found.evaluations,
+    ...(found.stop ? { alternative: found.stop } : { noAlternative: 'none-clean' as const }),
+  };
+}
+
+const carriesOxidizer = (y: Fractions) =>
+  Object.entries(y).some(([k, v]) => v > 0 && oxygenDemand(getSpecies(k).elements) < 0);
+const inertOnly = (y: Fractions) =>
+  Object.entries(y).every(([k, v]) => !(v > 0) || oxygenDemand(getSpecies(k).elements) === 0);
+
+/**
+ * the first remaining charge that holds a stop, fills an inert gas only and comes before an
+ * oxidizer fill, with a hazard at or after it (0-based fill index)
+ */
+function diluentStopAhead(input: RetargetInput, hazards: readonly Finding[]): number | undefined {
+  const { sources, charges } = input;
+  if (!charges) return undefined;
+  for (let k = input.done.length; k < sources.length; k++) {
+    const c = charges[k];
+    if (!(c.number < c.of) || c.stopPa === undefined || !inertOnly(sources[k].composition)) continue;
+    if (!sources.slice(k + 1).some((s) => carriesOxidizer(s.composition))) continue;
+    if (hazards.some((h) => (h.step ?? 0) >= k + 1)) return k;
+  }
+  return undefined;
+}
+
+const GRID_POINTS = 8;
+const MAX_BISECTIONS = 24;
+
+/** the lowest clean stop of charge k above the one it holds (module comment) */
+function saferStopOf(
+  input: RemainderReviewInput,
+  result: RetargetResult,
+  k: number,
+): { stop?: SaferStop; evaluations: number } {
+  const base = input.retarget;
+  const charges = base.charges!;
+  const sourceId = base.sources[k].id;
+  const fromPa = charges[k].stopPa!;
+  // the reading of the source's last charge: a stop must stay below it
+  const lastOfSource = base.sources.map((s) => s.id).lastIndexOf(sourceId);
+  const lastTarget = result.remaining.find((x) => x.step === lastOfSource + 1)?.targetPa;
+  let hiPa = Math.min(lastTarget ?? Infinity, base.workingLimitPa ?? Infinity);
+  if (!Number.isFinite(hiPa) || hiPa <= fromPa) return { evaluations: 0 };
+  hiPa = fromPa + (hiPa - fromPa) * (1 - 1e-3);
+  let evaluations = 0;
+  // strict: no new hazard and no new near-flammable state (the plan's split-point rule); else no new hazard
+  const at = (stopPa: number) => {
+    evaluations++;
+    const input2: RetargetInput = {
+      ...base,
+      charges: charges.map((c, j) => (j === k ? { ...c, stopPa } : c)),
+    };
+    const r = retarget(input2);
+    const kept = r.stops.find((s) => s.step === k + 1)?.kept === true;
+    const j = judgeRemainder(input, r, false);
+    const clean = kept && j.hazards.length === 0;
+    return { r, clean, strict: clean && j.near.length === 0 };
+  };
+  const grid = Array.from(
+    { length: GRID_POINTS },
+    (_, i) => fromPa + ((hiPa - fromPa) * (i + 1)) / GRID_POINTS,
+  );
+  const judged = grid.map((p) => ({ p, ...at(p) }));
+  const strict = judged.some((g) => g.strict);
+  const ok = (e: { clean: boolean; strict: boolean }) => (strict ? e.strict : e.clean);
+  const first = judged.findIndex(ok);
+  if (first < 0) return { evaluations };
+  let lo = first > 0 ? judged[first - 1].p : fromPa;
+  let hi = judged[first].p;
+  const shown = input.readingGrid?.(k);
+  // to the gauge's resolution (else 1e-5 of the stop), at most MAX_BISECTIONS
+  const fine = shown && shown.resolutionPa > 0 ? shown.resolutionPa : 1e-5 * hi;
+  for (let i = 0; i < MAX_BISECTIONS && hi - lo > fine; i++) {
+    const mid = (lo + hi) / 2;
+    if (ok(at(mid))) hi = mid;
+    else lo = mid;
+  }
+  // shown on the gauge: the bracket is one resolution wide, so the lowest accepted grid reading is the one
+  // just below the rounded-up end or that end; checked there (a step up at most 3 times)
+  let toPa = shown ? roundUpToGrid(hi, shown) : hi;
+  if (shown && toPa - shown.resolutionPa > fromPa && ok(at(toPa - shown.resolutionPa)))
+    toPa -= shown.resolutionPa;
+  for (let tries = 0; tries < 4; tries++) {
+    const e = at(toPa);
+    if (ok(e)) {
+      const findings = judgeRemainder(input, e.r, true).findings;
+      return {
+        stop: { fill: k, sourceId, fromPa, toPa, result: e.r, findings, marginKept: strict },
+        evaluations,
+      };
+    }
+    if (!shown) break;
+    toPa = roundUpToGrid(toPa + shown.resolutionPa, shown);
+  }
+  return { evaluations };
+}

@@ -1,0 +1,70 @@
+/**
+ * The review screen of the guided fill (phase 'review', fill-review.ts): the hazards the re-targeted
+ * remainder passes that the plan did not, why, the safer stop the core computed where there is one,
+ * and the choices, each logged with initials.
+ */
+import { Box, Text } from 'ink';
+import type { FillState } from './fill-state.js';
+import { alternativeTargets } from './fill-review.js';
+import { fromPa } from '../io/quantity.js';
+
+const TRIGGER_WORDS = {
+  reading: 'the reading just logged',
+  undo: 'the reading withdrawn',
+  correction: 'the corrected reading',
+  resume: 'resuming this log',
+  temperature: 'the new tank temperature',
+  start: "the top-up's starting pressure",
+} as const;
+
+const torr = (pa: number) => `${fromPa(pa, 'Torr').toFixed(2)} Torr`;
+
+export function RemainderReviewScreen({ state }: { readonly state: FillState }) {
+  const r = state.review!;
+  const h = state.setup.header;
+  const alt = r.alternative;
+  return (
+    <Box flexDirection="column">
+      <Text bold wrap="wrap">
+        mixwright fill {h.id} - SAFETY REVIEW: the remaining fills pass a hazard the plan did not
+      </Text>
+      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      <Text wrap="wrap">
+        After {TRIGGER_WORDS[r.trigger]}, the fills ahead, re-targeted from the tank as read and reviewed
+        state by state and along every fill path, pass:
+      </Text>
+      {r.hazards.map((z, i) => (
+        <Text key={i} wrap="wrap">
+          - {z.severity.toUpperCase()} {z.code}
+          {z.step ? ` (fill ${z.step})` : ''}
+          {z.numbers ? ` ${z.numbers}` : ''}
+        </Text>
+      ))}
+      <Text> </Text>
+      {alt ? (
+        <Text wrap="wrap">
+          Safer: stop {alt.name} at {torr(alt.toPa)} absolute instead of {torr(alt.fromPa)}. Then no state or
+          fill path ahead is flammable or a danger
+          {alt.marginKept
+            ? ' and none comes nearer the flammable region than the plan'
+            : ' (some come nearer the flammable region than the plan: no stop keeps the margins)'}
+          . Targets then: {alternativeTargets(alt)}.
+        </Text>
+      ) : (
+        <Text wrap="wrap">{r.noAlternative}.</Text>
+      )}
+      <Text> </Text>
+      <Text wrap="wrap">
+        {alt ? 'safer INITIALS: take the safer stop   ' : ''}accept INITIALS: go on through it (have it
+        reviewed under your lab&apos;s rules first) undo INITIALS: the last reading was mistyped fix N
+        INITIALS: correct fill N. Each choice is logged, with the findings in full. Ctrl-C stops (the readings
+        stay logged).
+      </Text>
+      <Text>
+        &gt; {state.input}
+        <Text inverse> </Text>
+      </Text>
+      {state.error ? <Text wrap="wrap">! {state.error}</Text> : null}
+    </Box>
+  );
+}

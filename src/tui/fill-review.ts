@@ -1,0 +1,323 @@
+/**
+ * The guided fill's safety review of its re-targeted remainder: after every accepted reading,
+ * undo, correction, resume of a log, starting pressure of a top-up and change of temperature, the
+ * fills still ahead start from the tank as read, not as planned, so the core reviews the tank now,
+ * every remaining state and every remaining fill path with the plan's own code
+ * (core reviewRemainder). A flammable, detonable or danger state or path that the plan's findings
+ * do not hold stops the fill on the review screen (phase 'review'): it names each one and why, and
+ * offers the safer stop of a diluent charge ahead that the core computed where one exists. The fill
+ * goes on only by a logged choice with initials: `safer AB` (take the safer stop) or `accept AB`
+ * (go on through the hazard); `undo AB` / `fix N AB` take back or correct a mistyped reading.
+ * Pure: the reducer (fill-state.ts) calls these functions; the log events are effects.
+ */
+import {
+  describeFinding,
+  hazardKey,
+  reviewRemainder,
+  type Finding,
+  type PlannedFinding,
+  type ReadingGrid,
+  type RetargetInput,
+  type SafetyContext,
+} from '../core/index.js';
+import { fromPa } from '../io/quantity.js';
+import type { LogRemainderReview, NewLogEvent, ParsedLog } from '../io/batch-log.js';
+import { chargeName, isSplit } from '../report/charges.js';
+import type { FillSetup, FillState } from './fill-state.js';
+
+export type ReviewTrigger = LogRemainderReview['trigger'];
+
+/** a hazard of the remainder the plan did not have, in words */
+export interface ReviewHazard {
+  readonly key: string;
+  readonly code: string;
+  readonly step: number | null;
+  readonly severity: Finding['severity'];
+  /** the numbers behind it, short (the screen is 80 columns): where, and against which limit */
+  readonly numbers: string;
+  /** the finding in words (describeFinding), for the log */
+  readonly text: string;
+}
+
+/** the safer stop the core found, as the screen offers it */
+export interface ReviewAlternative {
+  /** 0-based index of the charge among the fills, and its fill number */
+  readonly fill: number;
+  readonly step: number;
+  readonly name: string;
+  readonly fromPa: number;
+  readonly toPa: number;
+  /** the targets of the fills ahead with the safer stop (absolute, Pa) */
+  readonly targetsPa: readonly { readonly step: number; readonly targetPa: number }[];
+  /** the NFPA 69 margins are kept as well as the plan kept them (else: only flammable states avoided) */
+  readonly marginKept: boolean;
+}
+
+/** the review screen: what triggered it, what the remainder passes, and the safer stop */
+export interface ReviewScreen {
+  readonly trigger: ReviewTrigger;
+  readonly hazards: readonly ReviewHazard[];
+  readonly alternative?: ReviewAlternative;
+  /** why no safer stop is offered */
+  readonly noAlternative?: string;
+}
+
+/** what the fill remembers of earlier reviews: hazards accepted (keys), stops changed (by 0-based fill) */
+export interface ReviewMemory {
+  readonly accepted: readonly string[];
+  readonly stopsPa: Readonly<Record<number, number>>;
+}
+
+export const REVIEW_CODE = 'remainder-review';
+
+const torr = (pa: number) => `${fromPa(pa, 'Torr').toFixed(2)} Torr`;
+const words = (f: Finding) => describeFinding(f, (pa) => `${Number(fromPa(pa, 'Torr').toPrecision(6))} Torr`);
+
+/** the settings of the plan's review, from the log header (older logs: the fill temperature, 0.5) */
+function safetyOf(setup: FillSetup): Omit<SafetyContext, 'temperatureK'> {
+  const h = setup.header;
+  return {
+    workingLimitPa: setup.workingLimitPa,
+    tankId: h.tank.id,
+    coldestK: h.safety?.coldest_K,
+    condensationFraction: h.safety?.condensation_fraction,
+  };
+}
+
+const plannedMemo = new WeakMap<FillSetup, readonly PlannedFinding[]>();
+
+/**
+ * the plan's findings: as its log header keeps them; a log without them (older) has its planned
+ * sequence reviewed here, from the re-target of an untouched tank at the plan's temperature
+ */
+function plannedOf(setup: FillSetup, base: RetargetInput): readonly PlannedFinding[] {
+  const known = plannedMemo.get(setup);
+  if (known) return known;
+  const h = setup.header;
+  const planned =
+    h.findings ??
+    reviewRemainder({
+      retarget: { ...base, done: [], temperatureK: h.temperature_K },
+      safety: safetyOf(setup),
+      planned: [],
+      searchAlternative: false,
+    }).findings;
+  plannedMemo.set(setup, planned);
+  return planned;
+}
+
+/** how each fill's stop is shown: its gauge's resolution (above ambient for a gauge-referenced sensor) */
+function gridOf(s: FillState): (fill: number) => ReadingGrid | undefined {
+  return (k) => {
+    const g = s.setup.steps[k]?.gauge;
+    return g
+      ? { resolutionPa: g.resolutionPa, offsetPa: g.reference === 'gauge' ? s.barometerPa : 0 }
+      : undefined;
+  };
+}
+
+/** the earlier reviews' outcomes in a log being resumed */
+export function reviewMemoryOf(log: ParsedLog | undefined): ReviewMemory {
+  const accepted: string[] = [];
+  const stopsPa: Record<number, number> = {};
+  for (const a of log?.acknowledgements ?? []) {
+    if (a.code !== REVIEW_CODE || !a.review) continue;
+    if (a.review.outcome === 'accepted') accepted.push(...a.review.hazards.map(hazardKey));
+    if (a.review.stop) stopsPa[a.review.stop.step - 1] = a.review.stop.to_Pa;
+  }
+  return { accepted, stopsPa };
+}
+
+const NO_ALTERNATIVE = {
+  'no-diluent-stop':
+    'no safer stop can be offered: no charge ahead holds a stop of a diluent before the oxidizer (or the ' +
+    'hazard is in the tank already)',
+  'none-clean':
+    'no stop of the diluent charge ahead, up to the reading of its last charge, avoids it: the ' +
+    'remaining sequence cannot be made as safe as the plan by a stop alone',
+  'not-searched': 'no safer stop was searched',
+} as const;
+
+/**
+ * Review the remainder of a state whose targets have just been re-targeted; on a hazard the plan did
+ * not have (and the operator has not accepted), the fill stops on the review screen. Only a state on
+ * a fill step's screen is reviewed (a stopped or finished fill has no remainder).
+ */
+export function withReview(s: FillState, trigger: ReviewTrigger, input: RetargetInput): FillState {
+  if ((s.phase !== 'reading' && s.phase !== 'reminder') || s.current >= s.setup.steps.length)
+    return s.review ? { ...s, review: undefined } : s;
+  const rv = reviewRemainder({
+    retarget: input,
+    safety: safetyOf(s.setup),
+    planned: plannedOf(s.setup, input),
+    readingGrid: gridOf(s),
+  });
+  const accepted = new Set(s.reviewed?.accepted ?? []);
+  const open = rv.hazards.filter((f) => !accepted.has(hazardKey(f)));
+  if (!open.length) {
+    const near = rv.near.map((f) => `fill ${f.step ?? 0}: ${words(f)}`);
+    const said =
+      near.length > 0
+        ? `the remaining fills come near the flammable region where the plan did not (${near.join('; ')})`
+        : undefined;
+    return {
+      ...s,
+      review: undefined,
+      message: said ? [s.message, said].filter(Boolean).join('; ') : s.message,
+    };
+  }
+  const hazards = open.map((f) => ({
+    key: hazardKey(f),
+    code: f.code,
+    step: f.step ?? null,
+    severity: f.severity,
+    numbers: numbersOf(f),
+    text: words(f),
+  }));
+  const alt = rv.alternative;
+  const alternative: ReviewAlternative | undefined = alt && {
+    fill: alt.fill,
+    step: alt.fill + 1,
+    name: stepName(s, alt.fill),
+    fromPa: alt.fromPa,
+    toPa: alt.toPa,
+    targetsPa: alt.result.remaining.map((x) => ({ step: x.step, targetPa: x.targetPa })),
+    marginKept: alt.marginKept,
+  };
+  return {
+    ...s,
+    phase: 'review',
+    input: '',
+    review: {
+      trigger,
+      hazards,
+      alternative,
+      noAlternative: alt ? undefined : NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched'],
+    },
+  };
+}
+
+const pct = (x: number) => `${(100 * x).toPrecision(3)} %`;
+
+/** the numbers of a hazard in a few words: the tank pressure, the diagram point against the limits, the peak */
+function numbersOf(f: Finding): string {
+  switch (f.code) {
+    case 'flammable-state':
+    case 'flammable-mixture':
+    case 'flammable-at-inlet':
+      return (
+        `at ${torr(f.pressurePa)}: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} (N2-equivalent; ` +
+        `LFL ${f.lfl !== undefined ? pct(f.lfl) : 'n/a'}, LOC ${f.loc !== undefined ? pct(f.loc) : 'n/a'})`
+      );
+    case 'flammable-fill-path':
+      return `from ${torr(f.fromPa)} to ${torr(f.toPa)}${f.detonable ? ', detonable on part of it' : ''}`;
+    case 'closed-vessel-pressure':
+      return (
+        `ignited at ${torr(f.fromPa)} it reaches ${torr(f.peakPa)}` +
+        (f.limitPa !== undefined ? ` (working limit ${torr(f.limitPa)})` : '')
+      );
+    case 'detonable-state':
+      return `at ${torr(f.pressurePa)}`;
+    default:
+      return '';
+  }
+}
+
+function stepName(s: FillState, k: number): string {
+  const st = s.setup.steps[k];
+  return isSplit(st.charge) ? `fill ${st.index} (${chargeName(st.species, st.charge)})` : `fill ${st.index}`;
+}
+
+/** what the reducer lends the review screen: its own step entry and re-target */
+export interface ReviewHooks {
+  /** the phase a step opens with (barometer, reminder, reading) */
+  readonly enterStep: (s: FillState) => FillState;
+  /** re-target and judge from the readings in force */
+  readonly rejudge: (s: FillState) => FillState;
+  /** the re-target input of a state */
+  readonly retargetInput: (s: FillState) => RetargetInput;
+}
+
+const INITIALS = /^(safer|accept)\s+([A-Za-z]{1,6})$/i;
+
+/** Enter on the review screen: `safer INITIALS` or `accept INITIALS` (undo and fix are the reducer's) */
+export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): FillState {
+  const r = s.review!;
+  const text = s.input.trim();
+  const m = INITIALS.exec(text);
+  const choices =
+    (r.alternative ? 'safer INITIALS (take the safer stop), ' : '') +
+    'accept INITIALS (go on through it), undo INITIALS (the last reading was mistyped), ' +
+    'fix N INITIALS (correct fill N); every choice is logged';
+  if (!m) return { ...s, error: `type one of: ${choices}. Ctrl-C stops; the log keeps every reading` };
+  const choice = m[1].toLowerCase();
+  const by = m[2];
+  const step = s.setup.steps[s.current].index;
+  const hazards = r.hazards.map((h) => ({ code: h.code, step: h.step, severity: h.severity }));
+  const what = r.hazards.map((h) => `${h.code}${h.step ? ` (fill ${h.step})` : ''}`).join(', ');
+  const why = r.hazards.map((h) => `${h.code}${h.step ? ` (fill ${h.step})` : ''}: ${h.text}`).join(' | ');
+  const mem: ReviewMemory = s.reviewed ?? { accepted: [], stopsPa: {} };
+  if (choice === 'safer') {
+    const alt = r.alternative;
+    if (!alt)
+      return {
+        ...s,
+        error:
+          `${r.noAlternative ?? NO_ALTERNATIVE['not-searched']}; ` +
+          'type accept INITIALS, undo INITIALS or fix N INITIALS',
+      };
+    const note =
+      `review of the remaining fills after the ${r.trigger}: ${what}, which the plan did not have; ` +
+      `${by} took the safer stop of ${alt.name}: ${torr(alt.toPa)} instead of ${torr(alt.fromPa)} absolute`;
+    const ev: NewLogEvent = {
+      kind: 'acknowledge',
+      code: REVIEW_CODE,
+      step,
+      by,
+      time: now,
+      note: `${note}. ${why}`,
+      review: {
+        trigger: r.trigger,
+        outcome: 'safer-stop',
+        hazards,
+        stop: { step: alt.step, from_Pa: alt.fromPa, to_Pa: alt.toPa },
+      },
+    };
+    const next = hooks.rejudge({
+      ...s,
+      reviewed: { ...mem, stopsPa: { ...mem.stopsPa, [alt.fill]: alt.toPa } },
+      review: undefined,
+      phase: 'reading',
+      input: '',
+      effects: [ev],
+    });
+    const entered = hooks.enterStep({ ...next, message: `${note} (logged); the targets ahead follow it` });
+    return withReview(entered, r.trigger, hooks.retargetInput(entered));
+  }
+  const note =
+    `review of the remaining fills after the ${r.trigger}: ${what}, which the plan did not have; ` +
+    `accepted by ${by} (going on through it)`;
+  const ev: NewLogEvent = {
+    kind: 'acknowledge',
+    code: REVIEW_CODE,
+    step,
+    by,
+    time: now,
+    note: `${note}. ${why}`,
+    review: { trigger: r.trigger, outcome: 'accepted', hazards },
+  };
+  return hooks.enterStep({
+    ...s,
+    reviewed: { ...mem, accepted: [...mem.accepted, ...r.hazards.map((h) => h.key)] },
+    review: undefined,
+    phase: 'reading',
+    input: '',
+    effects: [ev],
+    message: `${note} (logged)`,
+  });
+}
+
+/** the remaining targets with the safer stop, for the screen */
+export function alternativeTargets(a: ReviewAlternative): string {
+  return a.targetsPa.map((t) => `fill ${t.step} ${torr(t.targetPa)}`).join(', ');
+}
