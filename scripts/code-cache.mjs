@@ -35,7 +35,7 @@ const RUNS = [
   ['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--trials', '100000'],
 ];
 
-const { exports, script, source } = loadBundle(dist, false);
+const { exports, script, bundle } = loadBundle(dist, false);
 const sink = { write: () => true };
 for (const argv of RUNS) {
   const { run } = exports.createProgram({ stdout: sink, stderr: sink, isTTY: false });
@@ -43,4 +43,4 @@ for (const argv of RUNS) {
   // a run that fails here means the bundle is broken: stop the build
   if (code === 1 || code === 2) throw new Error(`code-cache run ${argv.join(' ')} exited ${code}`);
 }
-writeCache(dist, source, script.createCachedData());
+writeCache(dist, bundle, script.createCachedData());

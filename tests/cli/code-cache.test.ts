@@ -50,7 +50,8 @@ const CASES: (readonly string[])[] = [
   ['--help'],
 ];
 
-describe('the code cache of the built command', () => {
+// each case starts several node processes: a generous timeout for a loaded machine
+describe('the code cache of the built command', { timeout: 240_000 }, () => {
   const none = copy();
   rmSync(join(none, 'cli.cjs.cache'));
   const reference = CASES.map((args) => run(none, args));
