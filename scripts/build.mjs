@@ -1,8 +1,11 @@
 // bundle the CLI into one ESM file (fast start: no thousand-module import graph), plus its side files
 import { build } from 'esbuild';
-import { chmodSync, mkdirSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { chmodSync, mkdirSync, rmSync } from 'node:fs';
 
 mkdirSync('dist', { recursive: true });
+// the former single-file command and its map (the loader and dist/cli.cjs replace them)
+rmSync('dist/mixwright.mjs.map', { force: true });
 
 // what every bundle shares: one ESM file for Node 20 that can still require() CommonJS dependencies
 const REQUIRE_BANNER =
@@ -55,18 +58,37 @@ const lazyMath = {
   },
 };
 
+// the commands: one CommonJS function body (dist/cli.cjs) that the command's loader compiles with
+// V8's code cache (scripts/cli-load.mjs); import.meta.url is the loader's argument
 await build({
   plugins: [tuiExternal, lazyMath],
-  entryPoints: ['src/cli/main.ts'],
+  entryPoints: ['src/cli/start.ts'],
   ...base,
-  outfile: 'dist/mixwright.mjs',
+  format: 'cjs',
+  banner: {},
+  define: { 'import.meta.url': '__mwMetaUrl' },
+  outfile: 'dist/cli.cjs',
   jsx: 'automatic',
   alias: { 'react-devtools-core': './scripts/devtools-stub.mjs' },
-  banner: { js: `#!/usr/bin/env node\n${REQUIRE_BANNER}` },
   minify: true,
   sourcemap: 'linked',
 });
+// the command itself: the loader
+await build({
+  entryPoints: ['scripts/cli-bin.mjs'],
+  ...base,
+  banner: { js: '#!/usr/bin/env node' },
+  outfile: 'dist/mixwright.mjs',
+  minify: true,
+});
 chmodSync('dist/mixwright.mjs', 0o755);
+// the code cache: typical commands run once on the new bundle (scripts/code-cache.mjs)
+{
+  const r = spawnSync(process.execPath, ['scripts/code-cache.mjs'], {
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  if (r.status !== 0) throw new Error(`the code cache was not made (exit ${r.status})`);
+}
 
 // the Monte Carlo worker thread, loaded by the command from beside it
 await build({

@@ -1,8 +1,3 @@
-import { createProgram } from './program.js';
+import { startCli } from './start.js';
 
-const { run } = createProgram({
-  stdout: process.stdout,
-  stderr: process.stderr,
-  isTTY: Boolean(process.stdin.isTTY && process.stdout.isTTY),
-});
-process.exitCode = await run(process.argv.slice(2));
+process.exitCode = await startCli(process.argv.slice(2));

@@ -98,6 +98,8 @@ export function premixName(composition: Readonly<Record<string, number>>, minor:
  * When the single-tank plan predicts a design fraction over tolerance and the lab has another
  * tank: plan the two stages (the same search `--premix-tank` runs) and, when it does better, a
  * note naming the option and the U it gives. A refusal of the two-stage plan proposes nothing.
+ * `plan` is req's single-tank plan with its prediction (`planWithPrediction(planFill(req.input), req)`):
+ * the search takes it as its single-tank plan instead of planning it again.
  */
 export function twoStageProposal(
   plan: PredictedPlan,
@@ -111,7 +113,9 @@ export function twoStageProposal(
   let best: TwoStagePlan | undefined;
   for (const tank of req.lab.tanks.filter((t) => t.id !== plan.tank.id)) {
     try {
-      const two = planTwoStage({ batch: req.input, premixTank: tank, thermometer: thermometerOf(req) });
+      // the single-tank plan is this plan (planFill of req.input, predicted with the lab's thermometer)
+      const input = { batch: req.input, premixTank: tank, thermometer: thermometerOf(req) };
+      const two = planTwoStage(input, 'full', plan);
       const danger = [...two.premix.findings, ...two.batch.findings].some((f) => f.severity === 'danger');
       if (!danger && two.worstRatio < (best?.worstRatio ?? singleRatio)) best = two;
     } catch (e) {

@@ -334,8 +334,12 @@ function speciesChoices(input: TwoStageInput, single: PredictedPlan | undefined)
   return (pick.length ? pick : minor).map((k) => [k]);
 }
 
-/** the single-tank plan with its prediction, when it can be planned (else the search tries every minor gas) */
-function singleTank(input: TwoStageInput): PredictedPlan | undefined {
+/**
+ * the single-tank plan with its prediction, when it can be planned (else the search tries every minor
+ * gas); the caller's when it has planned it already (the same planFill and prediction, not redone)
+ */
+function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): PredictedPlan | undefined {
+  if (known) return known;
   try {
     return predicted(planFill(input.batch), input);
   } catch (e) {
@@ -390,8 +394,14 @@ function choicesFor(
  * (`two-stage-refused`) when the design has no diluent to make a premix in, the premix tank is
  * the batch tank, or no choice can be planned. Among the choices with no danger the smallest
  * worst U / tolerance wins; a choice with a danger is returned only when every choice has one.
+ * `single`: the caller's single-tank plan of `input.batch` with its prediction (planFill and
+ * predictPlan with the same gauges, reading and thermometer), so the search does not plan it again.
  */
-export function planTwoStage(input: TwoStageInput, search: TwoStageSearch = 'full'): TwoStagePlan {
+export function planTwoStage(
+  input: TwoStageInput,
+  search: TwoStageSearch = 'full',
+  single?: PredictedPlan,
+): TwoStagePlan {
   const b = input.batch;
   if (input.premixTank.id === b.tank.id)
     fail({ code: 'two-stage-refused', kind: 'same-tank', tank: b.tank.id });
@@ -413,7 +423,7 @@ export function planTwoStage(input: TwoStageInput, search: TwoStageSearch = 'ful
       refusal ??= e.problem;
     }
   };
-  const species = speciesChoices(input, input.premixSpecies ? undefined : singleTank(input));
+  const species = speciesChoices(input, input.premixSpecies ? undefined : singleTank(input, single));
   for (const sp of species)
     for (const { x, matched } of premixCompositions(input, sp).slice(0, search === 'quick' ? 1 : undefined))
       attempt(() => {
