@@ -169,3 +169,79 @@ if (mode === 'search') {
   });
   console.log(JSON.stringify(out));
 }
+
+// 5. ('review') the guided fill's review of its re-targeted remainder (src/tui/fill-review.ts) per
+// Enter: for each demo recipe (its planned sequence), every fill read at its target, the median time
+// of the core review (reviewRemainder) and of the whole Enter (reducer, re-target and review), warm
+// (the 2nd and 3rd pass), and the slowest Enter of the first pass (cold caches); and the deviating
+// case (CH4, Ar@400 Torr, O2, Ar with CH4 read 40 % high), whose review also searches the safer stop.
+if (mode === 'review') {
+  const { initialState, setupFromHeader, fillReducer, retargetInput } =
+    await import('../src/tui/fill-state.js');
+  const { reviewRemainder } = await import('../src/core/index.js');
+  const TORR = 101325 / 760;
+  const headerOf = (file: string, order?: string[]) => {
+    const rs = readRecipe(file);
+    const r = buildPlanRequest(order ? { ...rs, recipe: { ...rs.recipe, order } } : rs);
+    return headerFromPlan(planFill(r.input), r, 'bench', '2026-12-01T00:00:00Z');
+  };
+  type St = ReturnType<typeof initialState>;
+  const enter = (s: St, text: string) => {
+    let t = s;
+    for (const c of text) t = fillReducer(t, { type: 'char', text: c });
+    const t0 = performance.now();
+    const out = fillReducer(t, { type: 'enter', now: '2026-12-01T01:00:00Z' });
+    return { out, ms: performance.now() - t0 };
+  };
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+  const rows: {
+    name: string;
+    enters: number;
+    reviewMs: number;
+    enterMs: number;
+    maxEnterMs: number;
+    coldEnterMs: number;
+  }[] = [];
+  for (const name of ['ch4-o2-ar-phi1', 'c2h4-o2-ar-phi05', 'nc7h16-o2-ar', 'ng-blend-air']) {
+    const h = headerOf(`recipes/${name}.yaml`);
+    const reviewMs: number[] = [];
+    const enterMs: number[] = [];
+    const coldMs: number[] = [];
+    for (let rep = 0; rep < 3; rep++) {
+      let s = initialState(setupFromHeader(h));
+      // a plan with a danger finding opens on its acknowledgement (ng-blend-air)
+      if (s.phase === 'acknowledge') s = enter(s, 'accept BE').out;
+      for (let k = 0; k < h.steps.length - 1; k++) {
+        const e = enter(s, (s.targetsPa[k] / TORR).toFixed(4));
+        s = e.out;
+        if (rep > 0) enterMs.push(e.ms);
+        else coldMs.push(e.ms);
+        const input = retargetInput(s, s.done, s.targetTemperatureK);
+        const t0 = performance.now();
+        reviewRemainder({
+          retarget: input,
+          safety: {
+            workingLimitPa: s.setup.workingLimitPa,
+            tankId: h.tank.id,
+            coldestK: h.safety?.coldest_K,
+            condensationFraction: h.safety?.condensation_fraction,
+          },
+          planned: h.findings ?? [],
+        });
+        if (rep > 0) reviewMs.push(performance.now() - t0);
+      }
+    }
+    rows.push({
+      name,
+      enters: enterMs.length,
+      reviewMs: median(reviewMs),
+      enterMs: median(enterMs),
+      maxEnterMs: Math.max(...enterMs),
+      coldEnterMs: Math.max(...coldMs),
+    });
+  }
+  const split = headerOf('recipes/ch4-o2-ar-phi1.yaml', ['CH4', 'Ar@400 Torr', 'O2', 'Ar']);
+  const deviating: number[] = [];
+  for (let rep = 0; rep < 3; rep++) deviating.push(enter(initialState(setupFromHeader(split)), '14.0179').ms);
+  console.log(JSON.stringify({ rows, deviatingMs: median(deviating) }));
+}

@@ -5,13 +5,15 @@
  *
  * `planFill` runs the stages of src/core/plan/ in turn, each a pure function with a
  * small typed hand-off:
- *   validate (PlanBasis) -> amounts (PlanAmounts) -> sequence (PlanSequence: the charges)
+ *   validate (PlanBasis) -> amounts (PlanAmounts) -> sequence (PlanSequence: the charges; a
+ *   stop the planner chose rounded up to its gauge's display resolution, round-stops.ts)
  *   -> steps (PlanSteps: targets, bands, gauges) -> review (PlanReview: findings) -> result (Plan).
  * This module keeps the planner's public names in one place for index.ts and the core.
  */
 import { validatePlanInput } from './plan/validate.js';
 import { planAmounts } from './plan/amounts.js';
 import { planSequence } from './plan/sequence.js';
+import { roundChosenStops } from './plan/round-stops.js';
 import { planSteps } from './plan/steps.js';
 import { reviewPlan } from './plan/review.js';
 import { planResult } from './plan/result.js';
@@ -35,7 +37,8 @@ export { fillLabel } from './supply.js';
 export function planFill(input: PlanInput): Plan {
   const basis = validatePlanInput(input);
   const amounts = planAmounts(basis);
-  const sequence = planSequence(basis, amounts);
+  // a stop the planner chose is read on a gauge: on its display grid (plan/round-stops.ts)
+  const sequence = roundChosenStops(basis, amounts, planSequence(basis, amounts));
   // the gauges the sequence search chose for the readings (none without a search)
   const steps = searchedGauges(basis, planSteps(basis, amounts, sequence), sequence);
   const review = reviewPlan(basis, amounts, sequence, steps);

@@ -209,6 +209,11 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
               : 'went on through it (accepted)')
         : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
+  if (workingLimitOf(h) === undefined)
+    warnings.push(
+      `the log gives no pressure rating for tank ${h.tank.id}: the readings were NOT checked against a ` +
+        `working limit or rating (only against the gauges' ranges)`,
+    );
   if (h.thermometer.settling_K === undefined)
     warnings.push(
       `the log does not record the thermometer's settling value (made before logs recorded it); ` +

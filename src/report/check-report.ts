@@ -364,10 +364,13 @@ export function folderSummary(
       0,
     );
     const danger = rep.findings.some((f) => f.severity === 'danger');
+    // no DANGER must not read as "within the tank's limits" where the record has no limits to check against
+    const unchecked = rep.tank?.limitPa === undefined && rep.tank?.ratedPa === undefined;
     table.push([
       r.file,
       rep.id,
-      `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}${danger ? ', DANGER' : ''}`,
+      `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}${danger ? ', DANGER' : ''}` +
+        (unchecked ? ', tank limits NOT checked' : ''),
       rep.result.phi ? rep.result.phi.value.toFixed(4) : '-',
       rep.verdict.deviations.length ? worst.toFixed(2) : '-',
     ]);

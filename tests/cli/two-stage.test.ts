@@ -17,7 +17,7 @@ describe('mixwright plan --premix-tank', () => {
     expect(s2).toBeGreaterThan(s1);
     expect(r.stdout).toContain('Premix      13.42 % O2 in Ar in MT-2, filled to 1890.2 Torr');
     // the sequence search splits the batch's Ar so that the premix is read on the 1000 Torr head
-    expect(r.stdout).toMatch(/3\s+Ar\+O2\s+premix-MT-2\s+head-1kT\s+520\.27 Torr/);
+    expect(r.stdout).toMatch(/3\s+Ar\+O2\s+premix-MT-2\s+head-1kT\s+520\.28 Torr/);
     expect(r.stdout).toContain(
       'Premix tank  MT-2: 1890.2 Torr before the batch, 1840.9 Torr after delivering',
     );

@@ -239,7 +239,13 @@ describe('split point chosen by the planner', () => {
     expect((pt.stopPa - pt.hazardousBelowPa!) / pt.stopPa).toBeLessThan(1e-3);
     // the full plan with the chosen stop: the review (9 bisections per path) agrees
     const plan = planFill({ ...input, charges: split(input) });
-    expect(plan.steps[1].targetPa).toBeCloseTo(pt.stopPa, 6);
+    // the stop as read: the chosen one rounded up onto its gauge's display grid (round-stops.ts)
+    const res = plan.steps[1].gauge!.resolutionPa;
+    expect(plan.steps[1].targetPa).toBeGreaterThanOrEqual(pt.stopPa);
+    expect(plan.steps[1].targetPa - pt.stopPa).toBeLessThan(res);
+    expect(Math.abs(plan.steps[1].targetPa / res - Math.round(plan.steps[1].targetPa / res))).toBeLessThan(
+      1e-6,
+    );
     expect(
       plan.findings.filter((f) => f.code === 'near-flammable' || f.severity !== 'note').map((f) => f.code),
     ).toEqual(['tank-rating-unknown', 'ideal-gas-error']);
@@ -254,7 +260,15 @@ describe('split point chosen by the planner', () => {
     const [ar, he] = inert.sources;
     const plan = planFill({ ...inert, charges: [{ source: ar }, { source: he }, { source: ar }] });
     const arMol = plan.steps[0].amountMol + plan.steps[2].amountMol;
-    expect(Math.abs(plan.steps[0].amountMol / arMol - 1 / 32)).toBeLessThan(1e-9);
+    // 1/32 of the Ar, its stop then rounded up onto its gauge's display grid (under one resolution step:
+    // 0.01 Torr of 37.5 Torr, 2.7e-4 relative)
+    const res = plan.steps[0].gauge!.resolutionPa;
+    const share = plan.steps[0].amountMol / arMol;
+    expect(share).toBeGreaterThanOrEqual(1 / 32);
+    expect(share - 1 / 32).toBeLessThan(((1 / 32) * res) / plan.steps[0].targetPa);
+    expect(Math.abs(plan.steps[0].targetPa / res - Math.round(plan.steps[0].targetPa / res))).toBeLessThan(
+      1e-6,
+    );
     const note = plan.findings.find((f) => f.code === 'split-point-chosen');
     expect(note && note.code === 'split-point-chosen' ? note.hazardousBelowPa : 0).toBeUndefined();
   });

@@ -81,7 +81,7 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     expect(r.composition.O2.u ** 2).toBeCloseTo(bare.result.composition.O2.u ** 2 + premixU2, 14);
   });
 
-  it('the premix tank stays above the batch reading it must reach: 1890.2 -> 1840.9 Torr, 572.3 Torr needed (its charge ends at 520.27 Torr, + 10 %)', () => {
+  it('the premix tank stays above the batch reading it must reach: 1890.2 -> 1840.9 Torr, 572.3 Torr needed (its charge ends at 520.28 Torr, + 10 %)', () => {
     expect(two.delivery.startPa / TORR).toBeCloseTo(1890.2, 1);
     expect(two.delivery.endPa / TORR).toBeCloseTo(1840.9, 1);
     expect(two.delivery.requiredPa / TORR).toBeCloseTo(572.3, 1);

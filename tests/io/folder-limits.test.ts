@@ -1,0 +1,32 @@
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { checkFile } from '../../src/io/check.js';
+import { folderSummary } from '../../src/report/check-report.js';
+
+// `check FOLDER` must not read as "within the tank's limits" for a log that has none to check against
+describe('check of a folder: a log without the tank limits says so', () => {
+  it('the demo log (rated 4 bar) has no caveat; the same log with its rating removed says "tank limits NOT checked"', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-limits-'));
+    const lines = readFileSync('batches/demo-ch4-phi1-ar98.jsonl', 'utf8').split('\n');
+    const h = JSON.parse(lines[0]) as { tank: Record<string, unknown> };
+    h.tank.rated_pressure_Pa = null;
+    h.tank.working_limit_Pa = null;
+    const bare = join(dir, 'no-rating.jsonl');
+    writeFileSync(bare, [JSON.stringify(h), ...lines.slice(1)].join('\n'));
+    const rated = await checkFile('batches/demo-ch4-phi1-ar98.jsonl', { trials: 0, seed: 1 });
+    const unrated = await checkFile(bare, { trials: 0, seed: 1 });
+    const text = folderSummary([
+      { file: 'rated.jsonl', report: rated },
+      { file: 'no-rating.jsonl', report: unrated },
+    ]);
+    const row = (f: string) => text.split('\n').find((l) => l.startsWith(f))!;
+    expect(row('rated.jsonl')).not.toMatch(/NOT checked/);
+    expect(row('no-rating.jsonl')).toMatch(/pass-uncertain, tank limits NOT checked/);
+    expect(unrated.warnings.join('\n')).toMatch(
+      /no pressure rating for tank MT-1: the readings were NOT checked against a working limit/,
+    );
+    expect(rated.warnings.join('\n')).not.toMatch(/NOT checked/);
+  });
+});
