@@ -95,8 +95,9 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues, propos
     proposal =
       two || premixAsk || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
   } catch (e) {
-    // the core names the recipe field (pressure, temperature, ...): point at it in the file or option
-    if (e instanceof ProblemError) throw locateCoreProblem(e, rs);
+    // the core names the recipe field (pressure, temperature, ...): point at it in the file or option;
+    // a refused premix log is already pointed at the option or recipe line that named it
+    if (e instanceof ProblemError && e.problem.code !== 'premix-log-refused') throw locateCoreProblem(e, rs);
     throw e;
   }
   // a batch too small for one experiment is a warning finding, with the plan's own

@@ -11,7 +11,9 @@ import {
   fail,
   judge,
   planFill,
+  ProblemError,
   pureCylinder,
+  relocate,
   type CheckedReading,
   type Design,
   type Gauge,
@@ -25,6 +27,8 @@ import { sourceNames, type SourceNames } from './csv-names.js';
 import { isPressureUnit, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import { verdictCaveats, withinFile, type CheckOptions, type CheckReport } from './check-shared.js';
+import { premixLogReport, readPremixLog, type PremixRecord } from './premix-check.js';
+import { resolve } from 'node:path';
 
 /** the tank the readings were filled in: its working limit and rating, Pa, where known */
 interface CsvTank {
@@ -47,6 +51,8 @@ interface CsvBasis {
   readonly names: SourceNames;
   readonly tank?: CsvTank;
   readonly warnings: string[];
+  /** --premix-log: the premix tank the readings drew from, re-checked from its log */
+  readonly premix?: PremixRecord;
 }
 
 function tankOf(t: TankSpec, from: CsvTank['from']): CsvTank {
@@ -83,8 +89,9 @@ function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBas
       `--tank ${tank.id} is not the tank of the recipe (${plan.tank.id}): the readings are checked ` +
         `against the limits of ${tank.id}`,
     );
+  const premix = premixOfOption(opts, req.lab.name);
   const names = sourceNames({
-    filled: plan.steps.map((s) => s.source),
+    filled: [...plan.steps.map((s) => s.source), ...(premix ? [premix.source] : [])],
     cylinders: req.lab.cylinders,
     notFilled: (name, where) =>
       fail(
@@ -108,12 +115,14 @@ function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBas
     names,
     tank,
     warnings,
+    premix,
   };
 }
 
 function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
   const lab = loadLab(opts.labFile);
-  const premixes = lab.cylinders.filter((c) => c.kind === 'premix');
+  const premix = premixOfOption(opts, lab.name);
+  const premixes = [...lab.cylinders.filter((c) => c.kind === 'premix'), ...(premix ? [premix.source] : [])];
   const names = sourceNames({
     filled: premixes,
     cylinders: lab.cylinders,
@@ -141,6 +150,7 @@ function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
     baroGiven: opts.barometricPa !== undefined || lab.file.barometer !== undefined,
     names,
     tank: opts.tankId === undefined ? undefined : labTank(lab, opts.tankId),
+    premix,
     warnings: [
       'no recipe given: the gases named by species are taken as pure (purity 1), a cylinder id ' +
         'or premix as the lab profile lists it, the gauges from the lab profile, and there is no ' +
@@ -296,5 +306,17 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
       ? { id: b.tank.id, ratedPa: b.tank.ratedPa, limitPa: b.tank.limitPa, from: b.tank.from }
       : undefined,
     caveats: verdictCaveats(findings, 'recorded reading'),
+    premixLogs: b.premix ? [premixLogReport(b.premix)] : [],
   };
+}
+
+/** --premix-log: the premix log re-checked (as typed, from the working folder), refusals at the option */
+function premixOfOption(opts: CheckOptions, lab: string): PremixRecord | undefined {
+  if (opts.premixLog === undefined) return undefined;
+  try {
+    return readPremixLog(opts.premixLog, resolve(opts.premixLog), lab);
+  } catch (e) {
+    if (e instanceof ProblemError) throw relocate(e, { field: '--premix-log' });
+    throw e;
+  }
 }

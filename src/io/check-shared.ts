@@ -16,6 +16,8 @@ export interface CheckOptions {
   readonly barometricPa?: number;
   /** --tank: the lab profile's tank the CSV readings were filled in (its working limit and rating) */
   readonly tankId?: string;
+  /** --premix-log: the batch log of a premix tank the CSV readings drew from */
+  readonly premixLog?: string;
 }
 
 /** the report of `check`; its record findings carry their sentence (the type lives beside the renderers) */

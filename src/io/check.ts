@@ -37,7 +37,7 @@ import {
   type CheckReport,
 } from './check-shared.js';
 import { checkCsv } from './check-csv.js';
-import { premixLogsOf, type PremixRecord } from './premix-check.js';
+import { premixLogReport, premixLogsOf } from './premix-check.js';
 import { dirname, relative, resolve } from 'node:path';
 
 export { verdictCaveats, type CheckOptions, type CheckReport } from './check-shared.js';
@@ -333,23 +333,6 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
   };
 }
 
-/** a premix log as the report of its batch shows it */
-function premixLogReport(r: PremixRecord): NonNullable<CheckReport['premixLogs']>[number] {
-  return {
-    log: r.named,
-    path: r.path,
-    id: r.log.header.id,
-    tank: r.tank.id,
-    lastEntrySha256: r.lastEntrySha256,
-    composition: Object.fromEntries(
-      r.result.species.map((k) => [
-        k,
-        { value: r.result.composition[k].value, u: r.result.composition[k].u },
-      ]),
-    ),
-  };
-}
-
 /** one line per finding, for the terminal and the folder summary */
 export function findingLines(r: CheckReport): string[] {
   return r.findings.map((f) => `${f.severity}: ${describeLogFinding(f)}`);
@@ -373,5 +356,14 @@ export async function checkFile(file: string, opts: CheckOptions): Promise<Check
     );
   if (opts.tankId !== undefined)
     fail({ code: 'option-for-csv-only', option: '--tank', logCarries: 'its own tank' }, { field: '--tank' });
+  if (opts.premixLog !== undefined)
+    fail(
+      {
+        code: 'option-for-csv-only',
+        option: '--premix-log',
+        logCarries: 'its own premix logs (premix_logs)',
+      },
+      { field: '--premix-log' },
+    );
   return checkLog(readLog(file), opts);
 }

@@ -26,6 +26,7 @@ import {
 import { readLog, type LogHeader, type ParsedLog } from './batch-log.js';
 import { designFromHeader, logRecheckBasis } from './check.js';
 import { auditLog } from './log-audit.js';
+import type { CheckReport } from './check-shared.js';
 
 /** a premix log re-checked for use as a source */
 export interface PremixRecord {
@@ -212,7 +213,25 @@ export function drawsFrom(premixPath: string, except?: string): { log: string; f
         log.header.tank.volume_m3,
         basis.model.initial,
       );
-    out.push({ log: relative(process.cwd(), file) || file, file, mol });
+    const rel = relative(process.cwd(), file);
+    out.push({ log: rel && !rel.startsWith('..') ? rel : file, file, mol });
   }
   return out;
+}
+
+/** a premix log as the report of its batch shows it */
+export function premixLogReport(r: PremixRecord): NonNullable<CheckReport['premixLogs']>[number] {
+  return {
+    log: r.named,
+    path: r.path,
+    id: r.log.header.id,
+    tank: r.tank.id,
+    lastEntrySha256: r.lastEntrySha256,
+    composition: Object.fromEntries(
+      r.result.species.map((k) => [
+        k,
+        { value: r.result.composition[k].value, u: r.result.composition[k].u },
+      ]),
+    ),
+  };
 }

@@ -7,15 +7,11 @@
  */
 import { resolve } from 'node:path';
 import {
-  bMix,
-  cMix,
-  densityFromPressure,
   fail,
   planFromPremix,
-  pressureFromDensity,
+  premixDelivery,
   ProblemError,
   relocate,
-  virialModel,
   type GasSource,
   type PredictedPlan,
   type Where,
@@ -89,23 +85,20 @@ function unshared(s: GasSource): GasSource {
 }
 
 /**
- * The premix tank's pressure now, at the batch's temperature: the amount of its last reading
- * less what other batches drew (settled, virial equation of the premix). 0 when it is empty.
+ * The premix tank's pressure now: its last reading less what other batches drew, settled at the
+ * temperature of that reading (the premix tank's falling pressure of the two-stage plan,
+ * core premix-tank.ts). 0 when they drew it empty.
  */
-function presentPressure(rec: PremixRecord, drawnMol: number, temperatureK: number): number {
+function presentPressure(rec: PremixRecord, drawnMol: number): number {
   const last = rec.log.readings[rec.log.readings.length - 1];
-  const y = rec.source.composition;
-  const species = Object.keys(y).filter((k) => y[k] > 0);
-  const coeff = (T: number) => {
-    const m = virialModel(species, T);
-    return { B: bMix(m, y), C: cMix(m, y) };
-  };
-  const at = coeff(last.temperature_K);
-  const n0 = densityFromPressure(last.pressure_Pa, last.temperature_K, at.B, at.C) * rec.tank.volumeM3;
-  const n1 = n0 - drawnMol;
-  if (!(n1 > 0)) return 0;
-  const now = coeff(temperatureK);
-  return pressureFromDensity(n1 / rec.tank.volumeM3, temperatureK, now.B, now.C);
+  if (!(drawnMol > 0)) return last.pressure_Pa;
+  return premixDelivery({
+    composition: rec.source.composition,
+    volumeM3: rec.tank.volumeM3,
+    temperatureK: last.temperature_K,
+    startPa: last.pressure_Pa,
+    deliveredMol: drawnMol,
+  }).endPa;
 }
 
 /** plan the batch from the premix log: the core's planFromPremix, the record's particulars on the plan */
@@ -113,7 +106,7 @@ export function planFromPremixLog(req: PlanRequest, ask: PremixLogAsk, rec: Prem
   const source = rec.log.header.lab === req.lab.name ? rec.source : unshared(rec.source);
   const draws = drawsFrom(rec.path);
   const drawn = draws.reduce((a, d) => a + d.mol, 0);
-  const startPa = presentPressure(rec, drawn, req.input.temperatureK);
+  const startPa = presentPressure(rec, drawn);
   try {
     const planned = planFromPremix({
       batch: req.input,

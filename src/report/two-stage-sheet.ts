@@ -7,6 +7,7 @@
 import { predictionOf, type Plan } from '../core/index.js';
 import { fixedSig, pressure, tankName } from './format.js';
 import type { SheetMeta, SheetModel } from './sheet-model.js';
+import { premixLogComposition } from './premix-log-text.js';
 
 type Build = (plan: Plan, meta: SheetMeta) => SheetModel;
 
@@ -33,13 +34,43 @@ function premixRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] {
   ];
 }
 
+/** the rows a batch drawn from an existing premix tank adds: the premix log, its composition, its tank */
+function premixLogRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] {
+  const p = plan.premixLog;
+  if (!p) return [];
+  const d = p.delivery;
+  const drawn = p.draws.length
+    ? `; ${fixedSig(
+        p.draws.reduce((a, x) => a + x.mol, 0),
+        3,
+      )} mol already drawn by ${p.draws.map((x) => x.log).join(', ')}`
+    : '';
+  return [
+    [
+      'Premix log',
+      `${p.log} (${p.source.id}; last entry ${p.lastEntrySha256.slice(0, 12)}): check that it is this tank's log`,
+    ],
+    ['Premix', `${premixLogComposition(p)} (re-checked from its log, U with k = 2)`],
+    [
+      'Premix tank',
+      `${tankName(p.tank.id)} at ${pressure(d.startPa, unit, 5)} before (last reading ` +
+        `${pressure(p.lastReadingPa, unit, 5)}${drawn}); ${pressure(d.endPa, unit, 5)} after (settled); ` +
+        `it must stay above ${pressure(d.requiredPa, unit, 5)}: read it before the premix fill`,
+    ],
+  ];
+}
+
 /**
  * The sheets to print, stage 1 first. `build` is the sheet's own model builder; the stage-1
  * sheet carries the batch id with "-premix" and its own title.
  */
 export function stageSheets(plan: Plan, meta: SheetMeta, build: Build): SheetModel[] {
   const t = plan.twoStage;
-  if (!t) return [build(plan, meta)];
+  if (!t) {
+    const sheet = build(plan, meta);
+    const rows = premixLogRows(plan, meta.unit);
+    return [rows.length ? { ...sheet, design: [...rows, ...sheet.design] } : sheet];
+  }
   const title = meta.recipe.title ?? meta.recipe.id;
   const premixMeta: SheetMeta = {
     ...meta,

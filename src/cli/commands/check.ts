@@ -16,6 +16,7 @@ interface CheckOptions {
   seed: string;
   barometer?: string;
   tank?: string;
+  premixLog?: string;
 }
 type CheckOpts = Parameters<typeof checkFile>[1];
 type Row = { file: string; report: CheckReport } | { file: string; error: string };
@@ -30,7 +31,9 @@ async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): P
         file: f,
         report: await checkFile(
           f,
-          /\.csv$/i.test(f) ? opts : { ...opts, barometricPa: undefined, tankId: undefined },
+          /\.csv$/i.test(f)
+            ? opts
+            : { ...opts, barometricPa: undefined, tankId: undefined, premixLog: undefined },
         ),
       });
     } catch (e) {
@@ -76,6 +79,7 @@ async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
     labFile: o.lab,
     barometricPa: o.barometer === undefined ? undefined : parseBarometer(o.barometer),
     tankId: o.tank,
+    premixLog: o.premixLog,
   };
   if (folder) return checkFolder(cli, target, o, opts);
   const report = await checkFile(target, opts);
@@ -117,6 +121,11 @@ export function registerCheck(program: Command, cli: Cli): void {
       '--tank <id>',
       "the lab profile's tank CSV readings were filled in, to check them against its working " +
         "limit and rating (default: the recipe's tank; without either they are not checked)",
+    )
+    .option(
+      '--premix-log <log>',
+      'the batch log of the premix tank CSV readings drew from (a row names it by its source id, ' +
+        'e.g. premix-MT-2, or its gases): its re-checked composition and budget are used',
     )
     .action((target: string, o: CheckOptions) => check(cli, target, o));
 }
