@@ -6,15 +6,13 @@
  * `stage-fill` problem (core/stage-words.ts).
  */
 import { mkdirSync } from 'node:fs';
-import { join, relative } from 'node:path';
-import { fail } from '../core/index.js';
+import { join } from 'node:path';
 import { createLog, readLog, type LogHeader } from '../io/batch-log.js';
 import {
-  batchLogBeside,
+  createBatchStageLog,
   premixLogBytes,
   premixLogOf,
   premixLogPath,
-  stage2Header,
   refuseExistingStageLog,
   refuseLowPremix,
   shellLine,
@@ -46,6 +44,12 @@ export function stage2Command(
   return shellLine(words);
 }
 
+/** the guided fill of a new stage log, its end ending the command */
+async function guide(cli: Cli, file: string): Promise<void> {
+  const tui = await import('../tui/run.js');
+  fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+}
+
 /** stage 1: the premix of a two-stage plan, guided into `<dir>/<batch>-premix.jsonl` */
 export async function fillPremixStage(
   cli: Cli,
@@ -62,8 +66,7 @@ export async function fillPremixStage(
   mkdirSync(o.dir, { recursive: true });
   const next = stage2Command(recipeFile, o, file, batchId, o.dir);
   createLog(file, stage1Header(planned.plan, planned.req, batchId, new Date().toISOString(), next));
-  const tui = await import('../tui/run.js');
-  fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+  await guide(cli, file);
 }
 
 /**
@@ -76,27 +79,8 @@ export async function fillBatchStage(
   o: DesignValues & { batch?: string },
   planned: Planned,
 ): Promise<void> {
-  const { plan, req } = planned;
-  const use = plan.premixLog;
-  if (!use) throw new Error('fillBatchStage needs a plan from a premix log');
-  // the premix log as a path from here (absolute when it lies outside the working folder)
-  const rel = relative(process.cwd(), use.path);
-  const premixLog = rel && !rel.startsWith('..') ? rel : use.path;
-  const premixHeader = readLog(use.path).header;
-  premixLogBytes(use.path, { batch: o.batch });
-  const stage = premixHeader.stage;
-  const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
-  const batchId = o.batch ?? (stage?.number === 1 ? stage.batch : `${req.recipe.id}-${stamp}`);
-  if (!/^[A-Za-z0-9._-]+$/.test(batchId)) fail({ code: 'bad-batch-id', id: batchId }, { field: '--batch' });
-  // `dir`: --dir as typed (a default folder is not asked for: then beside the premix log)
-  const file = o.dir ? join(o.dir, `${batchId}.jsonl`) : batchLogBeside(premixLog, batchId);
-  if (o.dir) mkdirSync(o.dir, { recursive: true });
-  refuseExistingStageLog(file, 2);
-  // the bytes the batch rests on: a resume refuses a premix log that changed since
-  const premix = { file: premixLog, id: premixHeader.id, sha256: premixLogBytes(use.path, {}) };
-  createLog(file, stage2Header(plan, req, batchId, new Date().toISOString(), premix, file));
-  const tui = await import('../tui/run.js');
-  fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+  const file = createBatchStageLog(planned.plan, planned.req, o);
+  await guide(cli, file);
 }
 
 /** a stage-2 log resumed: its premix log must still be the one it was started from */

@@ -11,7 +11,7 @@
  * `stage-fill` problem, worded in core/stage-words.ts.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve } from 'node:path';
 import {
   describeFinding,
@@ -21,7 +21,7 @@ import {
   type Plan,
   type StageFillCause,
 } from '../core/index.js';
-import { readLog, type LogHeader } from './batch-log.js';
+import { createLog, readLog, type LogHeader } from './batch-log.js';
 import { headerFromPlan } from './check.js';
 import type { PlanRequest } from './load.js';
 
@@ -160,4 +160,36 @@ export function premixLogBytes(file: string, expect: { sha256?: string; batch?: 
       refuse({ kind: 'premix-other-batch', file, batch: stage.batch, asked: expect.batch }, file);
   }
   return sha256 ?? '';
+}
+
+/**
+ * Stage 2's log: for a batch planned from a premix log (`plan.premixLog`), `<batch>.jsonl` beside
+ * the premix log (or in `dir`), the batch id the premix was made for unless `batch` is given,
+ * linked to the premix log's bytes. Refuses a premix log made for another batch and a batch log
+ * that exists. Returns the log's path.
+ */
+export function createBatchStageLog(
+  plan: Plan,
+  req: PlanRequest,
+  o: { readonly batch?: string; readonly dir?: string },
+): string {
+  const use = plan.premixLog;
+  if (!use) throw new Error('createBatchStageLog needs a plan from a premix log');
+  // the premix log as a path from here (absolute when it lies outside the working folder)
+  const rel = relative(process.cwd(), use.path);
+  const premixLog = rel && !rel.startsWith('..') ? rel : use.path;
+  const premixHeader = readLog(use.path).header;
+  const sha256 = premixLogBytes(use.path, { batch: o.batch });
+  const stage = premixHeader.stage;
+  const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
+  const batchId = o.batch ?? (stage?.number === 1 ? stage.batch : `${req.recipe.id}-${stamp}`);
+  if (!/^[A-Za-z0-9._-]+$/.test(batchId)) fail({ code: 'bad-batch-id', id: batchId }, { field: '--batch' });
+  // `dir`: --dir as typed (a default folder is not asked for: then beside the premix log)
+  const file = o.dir ? join(o.dir, `${batchId}.jsonl`) : batchLogBeside(premixLog, batchId);
+  refuseExistingStageLog(file, 2);
+  mkdirSync(dirname(file), { recursive: true });
+  // the bytes the batch rests on: a resume refuses a premix log that changed since
+  const premix = { file: premixLog, id: premixHeader.id, sha256 };
+  createLog(file, stage2Header(plan, req, batchId, new Date().toISOString(), premix, file));
+  return file;
 }

@@ -28,7 +28,13 @@ import { writeFileAtomic } from '../io/atomic.js';
 import { buildSheetModel } from '../report/sheet-model.js';
 import { sheetToHtml } from '../report/sheet-render.js';
 import { joinSheets, stageSheets } from '../report/two-stage-sheet.js';
-import { premixLogPath, refuseLowPremix, shellLine, stage1Header } from '../io/stage-log.js';
+import {
+  createBatchStageLog,
+  premixLogPath,
+  refuseLowPremix,
+  shellLine,
+  stage1Header,
+} from '../io/stage-log.js';
 import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.js';
 
 export interface FillOutcome {
@@ -272,6 +278,11 @@ export function wizardAct(
     const dir = ctx.batchesDir ?? 'batches';
     // two stages: the guided fill makes the premix (stage 1); its end screen gives the stage-2 command
     if (built.plan.twoStage) return wizardPremixFill(s, built, dir, ctx);
+    // from a premix log: the batch is stage 2, its log beside the premix log
+    if (built.plan.premixLog) {
+      const logFile = createBatchStageLog(built.plan, built.req, {});
+      return { header: readLog(logFile).header, logFile };
+    }
     mkdirSync(dir, { recursive: true });
     const { id, file: logFile } = freeLogName(dir, s.values.id);
     createLog(logFile, headerFromPlan(built.plan, built.req, id, new Date().toISOString(), logFile));

@@ -3,6 +3,12 @@ import { describeProblem, planFill, ProblemError, type Plan } from '../core/inde
 import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } from '../io/load.js';
 import { planWithPrediction } from '../io/plan-predict.js';
 import { planTwoStageFrom, twoStageInputOf } from '../io/two-stage-request.js';
+import {
+  planFromPremixLog,
+  premixLogAsked,
+  premixOverrides,
+  premixRecordOf,
+} from '../io/premix-log-request.js';
 import { findingLines, stepLines, twoStagePreview } from './stage-preview.js';
 import { predictedShortLines } from '../report/predicted-text.js';
 import type { RecipeFile } from '../io/recipe.js';
@@ -34,7 +40,9 @@ export function recipeFromValues(v: Readonly<Record<FieldName, string>>): Record
   const r: Record<string, unknown> = { id: v.id, mixture, temperature: v.temperature };
   if (/^\s*[\d.]+\s*(l|L|m\^3|cm\^3|mL)\s*$/.test(v.tank)) r.volume = v.tank.trim();
   else if (v.tank.trim()) r.tank = v.tank.trim();
-  if (v.premix.trim()) r.premix = { tank: v.premix.trim() };
+  // the premix field: a second tank to make a premix in (stage 1), or a premix log to fill from (stage 2)
+  const premix = v.premix.trim();
+  if (premix) r.premix = isPremixLog(premix) ? { log: premix } : { tank: premix };
   const ex = /^\s*(\d+)\s*(exp|experiments?)\s*$/i.exec(v.pressure);
   if (ex) r.experiments = { count: Number(ex[1]) };
   else r.pressure = v.pressure;
@@ -61,7 +69,11 @@ export function buildFromValues(
   const locate = (path: readonly (string | number)[]) => ({ field: path.join('.') });
   const recipe = validateRecipeObject(raw, 'wizard', locate);
   const rs = { recipe, locate, baseDir: process.cwd(), origin: 'wizard' };
-  const req = buildPlanRequest(rs, labFile);
+  // a premix log: re-checked first, its premix a source of the batch (as `plan --premix-log`)
+  const ask = premixLogAsked(rs);
+  const rec = ask && premixRecordOf(ask);
+  const req = buildPlanRequest(rs, labFile, premixOverrides(rec, {}));
+  if (ask && rec) return { recipe, req, plan: planFromPremixLog(req, ask, rec) };
   // two stages: the same plan (and search) as `plan --premix-tank`, preview or not
   const two = twoStageInputOf(req, rs);
   if (two) return { recipe, req, plan: planTwoStageFrom(two, rs) };
@@ -129,12 +141,12 @@ export function fieldProblem(
       return { field: f, message: `${label[f]} "${v[f]}" is not a number: give ${example[f]}` };
   }
   const premix = v.premix.trim();
-  if (premix && !tankIds.includes(premix))
+  if (premix && !isPremixLog(premix) && !tankIds.includes(premix))
     return {
       field: 'premix',
       message:
         `"${premix}" is not a tank of the lab profile${tanks}: name a second tank to make the ` +
-        'premix in, or leave it empty for a single tank',
+        'premix in, a finished premix log (.jsonl) to fill from, or leave it empty for a single tank',
     };
   if (premix && premix === v.tank.trim())
     return {
@@ -143,6 +155,9 @@ export function fieldProblem(
     };
   return undefined;
 }
+
+/** a premix field naming a premix log (a batch log file) rather than a tank */
+export const isPremixLog = (text: string): boolean => /\.jsonl$/i.test(text.trim());
 
 /** what the preview shows while a two-stage design waits for a pause in typing */
 export const PENDING_LINES = ['two stages: planned after a short pause in typing ...'];
@@ -161,7 +176,13 @@ export function makeEvaluator(labFile?: string) {
     if (v.premix.trim() && !full) return { pending: true, preview: { lines: PENDING_LINES, danger: false } };
     try {
       const { plan } = buildFromValues(v, labFile, true);
-      return { preview: plan.twoStage ? twoStagePreview(plan) : previewOf(plan) };
+      const preview = plan.twoStage ? twoStagePreview(plan) : previewOf(plan);
+      if (!plan.premixLog) return { preview };
+      // planned as `plan --premix-log` plans it (the sequence search included), not in the advised order
+      const lines = preview.lines.filter((l) => !l.startsWith('preview in the advised order'));
+      return {
+        preview: { ...preview, lines: [`from premix log ${plan.premixLog.log} (re-checked)`, ...lines] },
+      };
     } catch (e) {
       // not a problem the core words (a bug): say so rather than end the wizard with the design in it
       if (!(e instanceof ProblemError))

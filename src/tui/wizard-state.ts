@@ -35,7 +35,7 @@ export const FIELD_HELP: Record<FieldName, string> = {
   diluent: 'bath gas: Ar, or Ar:0.5,He:0.5 (empty: none)',
   dilution: 'diluent mole fraction, 0 to below 1',
   tank: 'a tank of the lab profile, or a volume such as 30 L',
-  premix: 'two stages: a second tank to make a premix in first (MT-2); empty: one tank',
+  premix: 'two stages: a tank to make a premix in (MT-2) or a premix log (.jsonl); empty: one',
   pressure: 'final pressure such as 1500 Torr, or 40 exp (enough for 40 experiments)',
   temperature: 'tank temperature such as 22 degC',
 };

@@ -90,6 +90,33 @@ describe('wizard: the premix field', () => {
   });
 });
 
+describe('wizard: a premix log in the premix field (stage 2)', () => {
+  it('plans the batch from the log as plan --premix-log does: the premix a source, its log named first', async () => {
+    const { premixTargets, writePremixLog } = await import('../stage-logs.js');
+    const { file } = writePremixLog(mkdtempSync(join(tmpdir(), 'mw-wiz-log-')), premixTargets);
+    const v = { ...V, premix: file };
+    expect(recipeFromValues(v).premix).toEqual({ log: file });
+    const evaluate = makeEvaluator();
+    expect(evaluate(v).pending).toBe(true);
+    const lines = evaluate(v, true).preview!.lines;
+    expect(lines[0]).toBe(`from premix log ${file} (re-checked)`);
+    const plan = buildFromValues(v).plan;
+    expect(plan.premixLog?.path).toBe(file);
+    expect(lines.some((l) => /^3 Ar\+O2 +head-1kT 520\.\d\d Torr$/.test(l))).toBe(true);
+    expect(lines.some((l) => l.startsWith('preview in the advised order'))).toBe(false);
+  });
+
+  it('an unfinished premix log is refused on the premix field, with the premix-log wording', async () => {
+    const { premixTargets, writePremixLog } = await import('../stage-logs.js');
+    const { file } = writePremixLog(mkdtempSync(join(tmpdir(), 'mw-wiz-log-')), premixTargets, {
+      close: false,
+    });
+    const e = makeEvaluator()({ ...V, premix: file }, true).error;
+    expect(e?.field).toBe('premix');
+    expect(e?.message).toMatch(/not (finished|closed)/);
+  });
+});
+
 describe('end screen of a stage-1 fill', () => {
   const planned = planFrom('recipes/ch4-o2-ar-phi1.yaml', { premixTank: 'MT-2' });
   const steps = planned.plan.twoStage!.premix.steps;
@@ -152,5 +179,57 @@ describe('end screen of a stage-1 fill', () => {
 
   it('a single-tank log adds nothing', () => {
     expect(stageEndLines(readLog('batches/demo-ch4-phi1-ar98.jsonl').header, undefined, true)).toEqual([]);
+  });
+});
+
+describe('wizard actions of a two-stage design', () => {
+  it('start guided fill: with a premix tank, only once the recipe is saved; then the stage-1 log with its stage-2 command', async () => {
+    const { wizardAct } = await import('../../src/tui/run.js');
+    const dir = mkdtempSync(join(tmpdir(), 'mw-wiz-act-'));
+    const ctx = {
+      version: 't',
+      recipesDir: join(dir, 'recipes'),
+      batchesDir: join(dir, 'batches'),
+      sheetsDir: dir,
+    };
+    const s = wizardInit(() => ({}), { ...V, id: 'w2', premix: 'MT-2' });
+    const refused = wizardAct(s, 'start guided fill', ctx);
+    expect(refused).toMatchObject({ kind: 'message' });
+    expect((refused as { text: string }).text).toContain('a two-stage fill needs the recipe saved first');
+    expect(wizardAct(s, 'save recipe', ctx)).toMatchObject({ kind: 'message', savedRecipe: true });
+    const started = wizardAct(s, 'start guided fill', ctx) as {
+      header: { stage?: unknown };
+      logFile: string;
+    };
+    expect(started.logFile).toMatch(/batches\/w2-\d{8}T\d{4}-premix\.jsonl$/);
+    expect(started.header.stage).toMatchObject({ number: 1, of: 2 });
+    expect((started.header.stage as { next_command: string }).next_command).toMatch(
+      new RegExp(
+        `^mixwright fill ${join(dir, 'recipes', 'w2.yaml')} --premix-log .+-premix\\.jsonl --batch w2-`,
+      ),
+    );
+    // the fill sheet holds both stages
+    expect(wizardAct(s, 'write fill sheet', ctx)).toMatchObject({ kind: 'message' });
+    const { readFileSync } = await import('node:fs');
+    const html = readFileSync(join(dir, 'fill-w2.html'), 'utf8');
+    expect(html).toContain('Stage 1 of 2: premix in');
+  });
+
+  it('start guided fill from a premix log: the batch log (stage 2) beside it, linked to it', async () => {
+    const { wizardAct } = await import('../../src/tui/run.js');
+    const { premixTargets, writePremixLog } = await import('../stage-logs.js');
+    const logDir = mkdtempSync(join(tmpdir(), 'mw-wiz-act2-'));
+    const { file } = writePremixLog(logDir, premixTargets);
+    const s = wizardInit(() => ({}), { ...V, premix: file });
+    const started = wizardAct(s, 'start guided fill', { version: 't' }) as {
+      header: { stage?: unknown };
+      logFile: string;
+    };
+    expect(started.logFile).toBe(join(logDir, 'b1.jsonl'));
+    expect(started.header.stage).toMatchObject({
+      number: 2,
+      batch: 'b1',
+      premix_log: { file: 'b1-premix.jsonl' },
+    });
   });
 });
