@@ -66,12 +66,20 @@ describe('plan --premix-log', () => {
     expect(r.stderr).toMatch(/does not name the premix premix-MT-2/);
   });
 
-  it('a recipe with premix.tank and --premix-log is refused, naming both places', async () => {
+  it("--premix-log replaces a recipe's premix.tank (stage 1's recipe serves stage 2); both in the recipe are refused", async () => {
     const f = join(dir, 'both.yaml');
     writeFileSync(f, readFileSync(RECIPE, 'utf8') + '\npremix:\n  tank: MT-2\n');
-    const r = await runCli(['plan', f, '--premix-log', resolve(PREMIX)]);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/premix\.tank \(.*line \d+\) and --premix-log/);
+    const r = await runCli(['plan', f, '--premix-log', resolve(PREMIX), '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.premix_log.source).toBe('premix-MT-2');
+    expect(j.two_stage).toBeNull();
+    const g = join(dir, 'both-in-recipe.yaml');
+    writeFileSync(g, readFileSync(RECIPE, 'utf8') + `\npremix:\n  tank: MT-2\n  log: ${resolve(PREMIX)}\n`);
+    const q = await runCli(['plan', g]);
+    expect(q.code).toBe(2);
+    expect(q.stderr).toMatch(/premix/);
+    expect(q.stderr).toMatch(/line \d+/);
   });
 
   it('recipe premix.log is relative to the recipe file', async () => {
