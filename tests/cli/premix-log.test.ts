@@ -72,6 +72,12 @@ describe('plan --premix-log', () => {
     const r = await runCli(['plan', f, '--premix-log', resolve(PREMIX)]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/premix\.tank \(.*line \d+\) and --premix-log/);
+    // a premix log with the particulars of a premix to make (its gases) is refused the same way
+    const g = join(dir, 'gases.yaml');
+    writeFileSync(g, readFileSync(RECIPE, 'utf8') + `\npremix:\n  log: ${resolve(PREMIX)}\n  gases: [O2]\n`);
+    const r2 = await runCli(['plan', g]);
+    expect(r2.code).toBe(2);
+    expect(r2.stderr).toMatch(/premix\.gases \(.*line \d+\) and premix\.log \(.*line \d+\)/);
   });
 
   it('recipe premix.log is relative to the recipe file', async () => {
