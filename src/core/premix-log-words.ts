@@ -81,8 +81,9 @@ export function describePremixLogProblem(
       );
     case 'with-premix-tank':
       return (
-        `a premix log and a premix tank to make a premix in are both asked for (${c.places[0]} and ` +
-        `${c.places[1]}): give one of them`
+        `a premix to make and an existing premix log are both asked for (${c.places[0]} and ` +
+        `${c.places[1]}): give the premix block either a tank to make the premix in (with its ` +
+        'gases, fraction, pressure, order) or the log of a premix tank that exists'
       );
   }
 }

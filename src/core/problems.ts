@@ -366,7 +366,7 @@ export type PremixLogCause =
   | { readonly kind: 'changed'; readonly recorded: string; readonly now: string }
   /** a premix log that names, through its own premix logs, the log that names it */
   | { readonly kind: 'loop' }
-  /** a premix log and a premix tank asked for together */
+  /** a premix log asked for together with a premix to make (its tank, gases, fraction, pressure or order) */
   | { readonly kind: 'with-premix-tank'; readonly places: readonly [string, string] };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */

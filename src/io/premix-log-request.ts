@@ -39,8 +39,12 @@ export function premixLogAsked(rs: RecipeSource): PremixLogAsk | undefined {
     field: rs.locate(['premix', 'log']).field ?? 'premix.log',
   };
   const fromOption = where.field === '--premix-log';
-  if (pm.tank !== undefined) {
-    const tankAt = rs.locate(['premix', 'tank']);
+  // a premix to make (its tank, gases, fraction, pressure or order) is not a premix that exists
+  const making = (['tank', 'gases', 'fraction', 'pressure', 'order'] as const).find(
+    (k) => pm[k] !== undefined,
+  );
+  if (making !== undefined) {
+    const tankAt = rs.locate(['premix', making]);
     const place = (w: Where, key: string) =>
       w.field?.startsWith('--')
         ? w.field
@@ -51,7 +55,7 @@ export function premixLogAsked(rs: RecipeSource): PremixLogAsk | undefined {
         log: pm.log,
         cause: {
           kind: 'with-premix-tank',
-          places: [place(tankAt, 'premix.tank'), place(where, 'premix.log')],
+          places: [place(tankAt, `premix.${making}`), place(where, 'premix.log')],
         },
       },
       where,

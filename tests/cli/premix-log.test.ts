@@ -80,6 +80,12 @@ describe('plan --premix-log', () => {
     expect(q.code).toBe(2);
     expect(q.stderr).toMatch(/premix/);
     expect(q.stderr).toMatch(/line \d+/);
+    // a premix log with the particulars of a premix to make (its gases) is refused the same way
+    const h = join(dir, 'gases.yaml');
+    writeFileSync(h, readFileSync(RECIPE, 'utf8') + `\npremix:\n  log: ${resolve(PREMIX)}\n  gases: [O2]\n`);
+    const r2 = await runCli(['plan', h]);
+    expect(r2.code).toBe(2);
+    expect(r2.stderr).toMatch(/premix\.gases \(.*line \d+\) and premix\.log \(.*line \d+\)/);
   });
 
   it('recipe premix.log is relative to the recipe file', async () => {
