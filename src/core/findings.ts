@@ -44,7 +44,16 @@ export type Finding = Base &
         readonly shiftPa: number;
         readonly bandPa: number;
       }
-    | { readonly code: 'ideal-gas-error'; readonly worstPa: number; readonly bandPa: number }
+    | {
+        readonly code: 'ideal-gas-error';
+        /** the design fraction an ideal-gas plan misses most: design, what it would fill, the allowed deviation */
+        readonly species: string;
+        readonly design: number;
+        readonly idealFraction: number;
+        readonly tolerance: number;
+        /** the largest difference between an ideal-gas and a real-gas reading, Pa */
+        readonly worstPa: number;
+      }
     | {
         readonly code: 'supply-pressure-low';
         readonly source: string;
@@ -569,8 +578,10 @@ const REAL_GAS: WordingTable<'cross-virial-estimate' | 'virial-correlation' | 'i
     `no reference virial coefficient for ${f.species} at this temperature; B ` +
     `from the ${f.method} correlation (less certain)`,
   'ideal-gas-error': (f, p) =>
-    `an ideal-gas plan would be off by up to ${p(f.worstPa)} at one reading, ` +
-    `against a tolerance band of +-${p(f.bandPa)}: use the real-gas targets`,
+    `an ideal-gas plan (the same fills read to partial pressures scaled to the final pressure, up to ` +
+    `${p(f.worstPa)} off the real-gas targets) would fill x(${f.species}) ${f.idealFraction.toPrecision(4)} ` +
+    `instead of ${f.design.toPrecision(4)} (${(((f.idealFraction - f.design) / f.design) * 100).toFixed(2)} %, ` +
+    `tolerance +-${((f.tolerance / f.design) * 100).toPrecision(2)} %): use the real-gas targets`,
 };
 
 /** the two flammable-path dangers: a fill that crosses the region, a fill that enters it at the inlet */
