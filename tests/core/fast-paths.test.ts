@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
+  blendLimits,
   closedVesselCombustion,
   completeCombustion,
   flameTemperatureK,
@@ -15,6 +16,7 @@ import {
   type Fractions,
 } from '../../src/core/index.js';
 import { enthalpyMolar, enthalpySum, thermoRangeK } from '../../src/core/thermo.js';
+import { FUEL_SAFETY, type FuelSafetyRecord } from '../../src/core/data/safety-data.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planWithPrediction, predictionThermometer } from '../../src/io/plan-predict.js';
 
@@ -108,5 +110,37 @@ describe('the two-stage proposal given the plan it proposes for', () => {
     const planned = planTwoStage(input, 'full');
     expect(given).toEqual(planned);
     expect(given.candidates).toBeGreaterThan(1);
+  });
+});
+
+describe("blendLimits with each fuel's listed limits worked out once", () => {
+  it('gives for every fuel on file the plain derivation from its record: limits, LOC and sources in order', () => {
+    for (const [k, rec] of FUEL_SAFETY) {
+      const lfl = Math.min(...rec.lflAir.map((v) => v.value));
+      const ufl = Math.max(...rec.uflAir.map((v) => v.value));
+      const sources = new Set([...rec.lflAir, ...rec.uflAir].map((v) => v.source));
+      if (rec.uflO2) sources.add(rec.uflO2.source);
+      sources.add(rec.loc ? rec.loc.source : 'loc-estimate');
+      // twice: the second call takes the derived numbers
+      for (let i = 0; i < 2; i++) {
+        const b = blendLimits({ [k]: 1 }, 298.15, 101325);
+        expect(b.lfl, k).toBe(1 / (1 / lfl));
+        expect(b.ufl, k).toBe(Math.min(1 / (1 / ufl), 1));
+        expect(b.sources, k).toEqual([...sources]);
+      }
+    }
+  });
+
+  it('takes a changed table record as changed (derived per record, not per species)', () => {
+    const m = FUEL_SAFETY as Map<string, FuelSafetyRecord>;
+    const rec = m.get('CH4')!;
+    const before = blendLimits({ CH4: 1 }, 298.15, 101325);
+    m.set('CH4', { ...rec, lflAir: [{ ...rec.lflAir[0], value: 0.03 }] });
+    try {
+      expect(blendLimits({ CH4: 1 }, 298.15, 101325).lfl).toBe(1 / (1 / 0.03));
+    } finally {
+      m.set('CH4', rec);
+    }
+    expect(blendLimits({ CH4: 1 }, 298.15, 101325)).toEqual(before);
   });
 });
