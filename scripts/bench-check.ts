@@ -3,9 +3,12 @@
 //  2. writes a folder of 1000 batch logs for the folder re-check that bench.mjs times as a cold command;
 //  3. ('equilibrium') the time per state of the closed-vessel equilibrium and of the CJ detonation state;
 //  4. ('search') the size and time of the sequence search of each demo recipe and of a 5-source design.
+//  5. ('proposal') the size and time of the two-stage proposal's search for the same designs.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { chapmanJouguet, equilibriumUV, planFill } from '../src/core/index.js';
+import { chapmanJouguet, equilibriumUV, planFill, planTwoStage, ProblemError } from '../src/core/index.js';
+import { planWithPrediction, predictionThermometer } from '../src/io/plan-predict.js';
+import { twoStageProposal } from '../src/io/two-stage-request.js';
 import { evaluateUncertaintyParallel } from '../src/io/parallel-mc.js';
 import { buildPlanRequest, loadLab } from '../src/io/load.js';
 import { appendEvent, createLog } from '../src/io/batch-log.js';
@@ -114,11 +117,9 @@ if (mode === 'equilibrium') {
   const cj = time((y, p) => chapmanJouguet(y, 298.15, p), 3);
   console.log(JSON.stringify({ uv, cj }));
 }
-if (mode === 'search') {
-  // the sequence search (src/core/plan/search.ts) of each demo recipe and of a 5-source design:
-  // its size (structures, candidates reviewed and predicted, distinct fill reviews) and its time in
-  // this process, the first call (cold: the code not yet compiled) and the median of 3 more
-  const designs: [string, RecipeSource][] = [
+/** the demo recipes and a 5-source design: what the search and proposal modes time */
+function benchDesigns(): [string, RecipeSource][] {
+  return [
     ...['ch4-o2-ar-phi1', 'c2h4-o2-ar-phi05', 'nc7h16-o2-ar', 'ng-blend-air'].map(
       (n): [string, RecipeSource] => [n, readRecipe(`recipes/${n}.yaml`)],
     ),
@@ -148,6 +149,13 @@ if (mode === 'search') {
       },
     ],
   ];
+}
+
+if (mode === 'search') {
+  // the sequence search (src/core/plan/search.ts) of each demo recipe and of a 5-source design:
+  // its size (structures, candidates reviewed and predicted, distinct fill reviews) and its time in
+  // this process, the first call (cold: the code not yet compiled) and the median of 3 more
+  const designs = benchDesigns();
   const out = designs.map(([name, rs]) => {
     const r = buildPlanRequest(rs);
     const basis = validatePlanInput(r.input);
@@ -244,4 +252,40 @@ if (mode === 'review') {
   const deviating: number[] = [];
   for (let rep = 0; rep < 3; rep++) deviating.push(enter(initialState(setupFromHeader(split)), '14.0179').ms);
   console.log(JSON.stringify({ rows, deviatingMs: median(deviating) }));
+if (mode === 'proposal') {
+  // the two-stage proposal (io/two-stage-request.ts) that \`plan\` runs when the single-tank plan is
+  // predicted over its tolerance: for each design, the premix choices planned in every other tank of
+  // the lab (planTwoStage, 'full' search: gas, fraction, pressure, stage-1 heads and order; one
+  // batch draft searched per gas and fraction) and its time in this process, first call (cold) and
+  // the median of 3 more; 0 choices when the single-tank plan is within its tolerance
+  const out = benchDesigns().map(([name, rs]) => {
+    const r = buildPlanRequest(rs);
+    const plan = planWithPrediction(planFill(r.input), r);
+    const over = plan.predicted?.rows.some((x) => x.kind === 'fraction' && !x.within) ?? false;
+    let choices = 0;
+    const thermometer = predictionThermometer(r.lab.thermometer);
+    for (const tank of over ? r.lab.tanks.filter((t) => t.id !== plan.tank.id) : []) {
+      try {
+        const two = planTwoStage({ batch: r.input, premixTank: tank, thermometer }, 'full', plan);
+        choices += two.candidates;
+      } catch (e) {
+        if (!(e instanceof ProblemError)) throw e;
+      }
+    }
+    const run = () => {
+      const t0 = performance.now();
+      const f = twoStageProposal(plan, r, 'bench');
+      return { f, ms: performance.now() - t0 };
+    };
+    const first = run();
+    const warm = [run(), run(), run()].map((x) => x.ms).sort((a, b) => a - b)[1];
+    return {
+      name,
+      choices,
+      proposed: first.f?.code === 'two-stage-proposed',
+      firstMs: first.ms,
+      warmMs: warm,
+    };
+  });
+  console.log(JSON.stringify(out));
 }

@@ -110,6 +110,19 @@ console.log(
     );
 }
 
+// the two-stage proposal's search (plan over tolerance): premix choices planned and in-process time
+{
+  const rows = JSON.parse(
+    spawnSync(process.execPath, ['dist/bench-check.mjs', 'proposal'], { encoding: 'utf8' }).stdout,
+  );
+  for (const r of rows)
+    console.log(
+      `two-stage proposal ${r.name}: ${r.choices} premix choices planned` +
+        (r.choices ? `, first call ${r.firstMs.toFixed(0)} ms, warm ${r.warmMs.toFixed(0)} ms` : '') +
+        `; ${r.proposed ? 'proposed' : 'nothing proposed'}`,
+    );
+}
+
 // peak memory of each command (maximum resident set, from /usr/bin/time)
 for (const [name, args] of Object.entries(cases)) {
   const r = spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, ...args], { encoding: 'utf8' });

@@ -10,7 +10,7 @@
 import { R } from './constants.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
-import { enthalpyMolar, thermoRangeK } from './thermo.js';
+import { enthalpyMolar, enthalpySum, thermoRangeK } from './thermo.js';
 import { oxygenBalance, type Fractions } from './composition.js';
 
 /**
@@ -90,7 +90,7 @@ function solveIncreasing(f: (t: number) => number, target: number, lo: number, h
 export function flameTemperatureK(y: Fractions, initialK: number): number {
   const { products } = completeCombustion(y);
   const h0 = totalEnthalpy(y, initialK);
-  return solveIncreasing((t) => totalEnthalpy(products, t), h0, initialK, fitCeilingK(products));
+  return solveIncreasing(enthalpySum(products), h0, initialK, fitCeilingK(products));
 }
 
 /**
@@ -109,12 +109,8 @@ export function closedVesselCombustion(
   const nr = totalMoles(y);
   const np = totalMoles(products);
   const u0 = totalEnthalpy(y, initialK) - nr * R * initialK;
-  const t = solveIncreasing(
-    (tt) => totalEnthalpy(products, tt) - np * R * tt,
-    u0,
-    initialK,
-    fitCeilingK(products),
-  );
+  const hp = enthalpySum(products);
+  const t = solveIncreasing((tt) => hp(tt) - np * R * tt, u0, initialK, fitCeilingK(products));
   return { temperatureK: t, pressureRatio: (np * t) / (nr * initialK) };
 }
 

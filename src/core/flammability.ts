@@ -16,7 +16,7 @@
  *     the LFL calibration alone. A fuel without a finite UFL (acetylene: 100 %) has no
  *     rich calibration; its rich states are judged by the envelope alone.
  */
-import { FUEL_SAFETY, INERT_K } from './data/safety-data.js';
+import { FUEL_SAFETY, INERT_K, type FuelSafetyRecord } from './data/safety-data.js';
 import { INERT_K_FALLBACK, MARGINS, NEAR_LIMIT_FLAME_SHARE } from './thresholds.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
@@ -82,6 +82,29 @@ export function leChatelier(parts: readonly { fraction: number; limit: number }[
  * narrows the limits below 25 degC or 1 atm (that would not be conservative).
  * Fuels without data make the result undefined for them: they are listed in `missing`.
  */
+/**
+ * A fuel's listed limits as blendLimits takes them (the lower LFL, the higher UFL) and its sources
+ * in the order blendLimits names them (LFL, UFL, UFL in O2, LOC), worked out once per table record:
+ * the search assesses thousands of states. Keyed by the record itself, so a changed record is
+ * worked out again.
+ */
+const listedOf = new WeakMap<FuelSafetyRecord, { lfl: number; ufl: number; listed: readonly string[] }>();
+function listedLimits(rec: FuelSafetyRecord): { lfl: number; ufl: number; listed: readonly string[] } {
+  let l = listedOf.get(rec);
+  if (!l) {
+    const listed = [...rec.lflAir.map((v) => v.source), ...rec.uflAir.map((v) => v.source)];
+    if (rec.uflO2) listed.push(rec.uflO2.source);
+    if (rec.loc) listed.push(rec.loc.source);
+    l = {
+      lfl: Math.min(...rec.lflAir.map((v) => v.value)),
+      ufl: Math.max(...rec.uflAir.map((v) => v.value)),
+      listed,
+    };
+    listedOf.set(rec, l);
+  }
+  return l;
+}
+
 export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: number): BlendLimits {
   let invL = 0;
   let invU = 0;
@@ -103,14 +126,11 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
       continue;
     }
     known += y;
-    const lfl = Math.min(...rec.lflAir.map((v) => v.value));
-    const ufl = Math.max(...rec.uflAir.map((v) => v.value));
-    rec.lflAir.forEach((v) => sources.add(v.source));
-    rec.uflAir.forEach((v) => sources.add(v.source));
+    const { lfl, ufl, listed } = listedLimits(rec);
+    for (const s of listed) sources.add(s);
     let uflO2: number;
     if (rec.uflO2) {
       uflO2 = rec.uflO2.value;
-      sources.add(rec.uflO2.source);
     } else {
       // no measured limit in O2: a wide estimate (UFL in O2 is 3-6x UFL in air for these fuels)
       uflO2 = Math.min(0.95, Math.max(0.6, 4 * ufl));
@@ -119,7 +139,6 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
     let loc: number;
     if (rec.loc) {
       loc = rec.loc.value;
-      sources.add(rec.loc.source);
     } else {
       const raw = d * lfl;
       loc = raw >= 0.1 ? raw - 0.02 : raw * 0.85;

@@ -27,7 +27,11 @@ export function thermoRangeK(key: string): { min: number; max: number } | undefi
 }
 
 function coefficientsAt(key: string, temperatureK: number): readonly number[] {
-  const f = fits[key];
+  return fitCoefficientsAt(key, fits[key], temperatureK);
+}
+
+/** the coefficients of `key`'s fit `f` (looked up by the caller) at T; refuses a missing fit or T outside it */
+function fitCoefficientsAt(key: string, f: Nasa7 | undefined, temperatureK: number): readonly number[] {
   if (!f) throw new Error(`no NASA polynomial for ${key}`);
   const r = f.temperatureRanges;
   if (temperatureK < r[0] * 0.9 || temperatureK > r[r.length - 1]) {
@@ -53,9 +57,30 @@ export function cpMolar(key: string, temperatureK: number): number {
  *   CODATA Key Values 1989).
  */
 export function enthalpyMolar(key: string, temperatureK: number): number {
-  const a = coefficientsAt(key, temperatureK);
-  const t = temperatureK;
+  return enthalpyOf(coefficientsAt(key, temperatureK), temperatureK);
+}
+
+/** h(T) from the fit's coefficients at T, J/mol */
+function enthalpyOf(a: readonly number[], t: number): number {
   return R * t * (a[0] + t * (a[1] / 2 + t * (a[2] / 3 + t * (a[3] / 4 + (t * a[4]) / 5))) + a[5] / t);
+}
+
+/**
+ * The enthalpy of amounts `n` (mol per species) as a function of T, J: sum of n_k h_k(T) in the
+ * order of `n`'s keys, the fits looked up once (a flame temperature evaluates it some 30 times).
+ * The same arithmetic as adding n_k * enthalpyMolar(k, T) in that order, so the same number to the
+ * last bit, and the same refusal (a species without a fit, T outside one) at the same species.
+ */
+export function enthalpySum(n: Readonly<Record<string, number>>): (temperatureK: number) => number {
+  const keys = Object.keys(n);
+  const amounts = keys.map((k) => n[k]);
+  const fitted = keys.map((k) => fits[k] as Nasa7 | undefined);
+  return (t) => {
+    let h = 0;
+    for (let i = 0; i < keys.length; i++)
+      h += amounts[i] * enthalpyOf(fitCoefficientsAt(keys[i], fitted[i], t), t);
+    return h;
+  };
 }
 
 /** Molar standard-state entropy at 1 bar, J/(mol K). */
