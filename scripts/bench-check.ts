@@ -252,6 +252,8 @@ if (mode === 'review') {
   const deviating: number[] = [];
   for (let rep = 0; rep < 3; rep++) deviating.push(enter(initialState(setupFromHeader(split)), '14.0179').ms);
   console.log(JSON.stringify({ rows, deviatingMs: median(deviating) }));
+}
+
 if (mode === 'proposal') {
   // the two-stage proposal (io/two-stage-request.ts) that \`plan\` runs when the single-tank plan is
   // predicted over its tolerance: for each design, the premix choices planned in every other tank of
