@@ -66,12 +66,17 @@ describe('plan --premix-log', () => {
     expect(r.stderr).toMatch(/does not name the premix premix-MT-2/);
   });
 
-  it('a recipe with premix.tank and --premix-log is refused, naming both places', async () => {
+  it("--premix-log replaces a recipe's premix.tank (the recipe of stage 1 serves stage 2); both as options are refused", async () => {
     const f = join(dir, 'both.yaml');
     writeFileSync(f, readFileSync(RECIPE, 'utf8') + '\npremix:\n  tank: MT-2\n');
-    const r = await runCli(['plan', f, '--premix-log', resolve(PREMIX)]);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/premix\.tank \(.*line \d+\) and --premix-log/);
+    const r = await runCli(['plan', f, '--premix-log', resolve(PREMIX), '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.two_stage).toBeNull();
+    expect(j.premix_log.source).toBe('premix-MT-2');
+    const both = await runCli(['plan', RECIPE, '--premix-tank', 'MT-2', '--premix-log', resolve(PREMIX)]);
+    expect(both.code).toBe(2);
+    expect(both.stderr).toMatch(/--premix-tank and --premix-log/);
   });
 
   it('recipe premix.log is relative to the recipe file', async () => {
