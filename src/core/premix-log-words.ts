@@ -84,5 +84,12 @@ export function describePremixLogProblem(
         `a premix log and a premix tank to make a premix in are both asked for (${c.places[0]} and ` +
         `${c.places[1]}): give one of them`
       );
+    case 'record-altered':
+      return (
+        `${at} was changed after it was written: ${c.lines.length === 1 ? 'line' : 'lines'} ` +
+        `${c.lines.join(', ')} ${c.lines.length === 1 ? 'does' : 'do'} not match the log's hash chain ` +
+        '(see `mixwright check` on it), so the composition it gives is not the one the premix was filled ' +
+        'to; restore the log as it was written (a backup), or re-measure the premix tank or make a new premix'
+      );
   }
 }
