@@ -22,7 +22,9 @@ export const BUNDLE = 'cli.cjs';
 export const CACHE = 'cli.cjs.cache';
 
 // the bundle runs as a CommonJS function body; import.meta.url is a parameter (esbuild's define)
-const HEAD = '(function (exports, require, module, __filename, __dirname, __mwMetaUrl) {';
+// and __mwImport is the import function of its lazy parts (src/cli/load-tui.ts): a compiled script has no
+// module loader of its own, so every import() of the bundle goes through this module's, beside the bundle
+const HEAD = '(function (exports, require, module, __filename, __dirname, __mwMetaUrl, __mwImport) {';
 const TAIL = '\n})';
 
 /** the header: what the cache was made from, and a checksum of its bytes */
@@ -64,8 +66,6 @@ export function loadBundle(dir, useCache = true) {
   const script = new vm.Script(HEAD + bundle.toString('utf8') + TAIL, {
     filename: file,
     cachedData,
-    // import() inside the bundle (the terminal screens, dist/tui.mjs) resolves beside it as in a module
-    importModuleDynamically: vm.constants.USE_MAIN_CONTEXT_DEFAULT_LOADER,
   });
   const module = { exports: {} };
   script.runInThisContext()(
@@ -75,6 +75,7 @@ export function loadBundle(dir, useCache = true) {
     file,
     dirname(file),
     pathToFileURL(file).href,
+    (spec) => import(new URL(spec, dir).href),
   );
   return { exports: module.exports, script, bundle, cached: !!cachedData && !script.cachedDataRejected };
 }

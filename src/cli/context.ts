@@ -8,7 +8,16 @@ export interface Streams {
   readonly isTTY?: boolean;
 }
 
-export const EXIT = { ok: 0, internal: 1, input: 2, danger: 3, outOfTolerance: 4, interrupted: 130 } as const;
+export const EXIT = {
+  ok: 0,
+  internal: 1,
+  input: 2,
+  danger: 3,
+  outOfTolerance: 4,
+  /** `check`: the verdict stands on a record changed after it was written (a line off its hash chain) */
+  recordAltered: 5,
+  interrupted: 130,
+} as const;
 
 /** thrown by a command to end with an exit code (its message is already printed) */
 export class ExitSignal extends Error {

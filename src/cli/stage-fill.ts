@@ -21,6 +21,7 @@ import {
 import { fillEnded, fromTui, type Cli } from './context.js';
 import { attributeOf, DESIGN_OPTIONS, optionName, type DesignValues } from './design-options.js';
 import type { Planned } from './plan-from.js';
+import { loadTui } from './load-tui.js';
 
 /**
  * The command that fills stage 2 from the premix log: the same recipe and design options (the
@@ -46,7 +47,7 @@ export function stage2Command(
 
 /** the guided fill of a new stage log, its end ending the command */
 async function guide(cli: Cli, file: string): Promise<void> {
-  const tui = await import('../tui/run.js');
+  const tui = await loadTui();
   fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
 }
 

@@ -85,5 +85,12 @@ export function describePremixLogProblem(
         `${c.places[1]}): give the premix block either a tank to make the premix in (with its ` +
         'gases, fraction, pressure, order) or the log of a premix tank that exists'
       );
+    case 'record-altered':
+      return (
+        `${at} was changed after it was written: ${c.lines.length === 1 ? 'line' : 'lines'} ` +
+        `${c.lines.join(', ')} ${c.lines.length === 1 ? 'does' : 'do'} not match the log's hash chain ` +
+        '(see `mixwright check` on it), so the composition it gives is not the one the premix was filled ' +
+        'to; restore the log as it was written (a backup), or re-measure the premix tank or make a new premix'
+      );
   }
 }

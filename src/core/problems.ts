@@ -367,7 +367,9 @@ export type PremixLogCause =
   /** a premix log that names, through its own premix logs, the log that names it */
   | { readonly kind: 'loop' }
   /** a premix log asked for together with a premix to make (its tank, gases, fraction, pressure or order) */
-  | { readonly kind: 'with-premix-tank'; readonly places: readonly [string, string] };
+  | { readonly kind: 'with-premix-tank'; readonly places: readonly [string, string] }
+  /** lines that do not match the log's hash chain: the record was changed after it was written */
+  | { readonly kind: 'record-altered'; readonly lines: readonly number[] };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
 export type ChargeProblem =

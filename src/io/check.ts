@@ -353,8 +353,14 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
       from: 'log',
     },
     caveats: verdictCaveats(findings),
+    record: { alteredLines: alteredLinesOf(log), closed: log.closed },
     premixLogs: premix.map(premixLogReport),
   };
+}
+
+/** the lines of a log that do not match their hash chain: changed after writing, or not mixwright's */
+export function alteredLinesOf(log: ParsedLog): number[] {
+  return log.issues.flatMap((i) => (i.code === 'line-edited' || i.code === 'line-unhashed' ? [i.line] : []));
 }
 
 /** one line per finding, for the terminal and the folder summary */

@@ -24,7 +24,7 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { readLog, type LogHeader, type ParsedLog } from './batch-log.js';
-import { designFromHeader, logRecheckBasis } from './check.js';
+import { alteredLinesOf, designFromHeader, logRecheckBasis } from './check.js';
 import { auditLog } from './log-audit.js';
 import type { CheckReport } from './check-shared.js';
 
@@ -81,6 +81,8 @@ export function readPremixLog(
     throw e;
   }
   const h = log.header;
+  const altered = alteredLinesOf(log);
+  if (altered.length) refused(named, { kind: 'record-altered', lines: altered }, { file: path });
   const done = new Set(log.readings.map((r) => r.step));
   const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
   if (missingSteps.length || !log.closed || log.readings.length === 0)

@@ -155,6 +155,49 @@ function budgetLines(r: CheckReport, order: Ordered): string[] {
   return out;
 }
 
+/** 'line 3' or 'lines 3, 5' */
+const linesText = (lines: readonly number[]) => `line${lines.length === 1 ? '' : 's'} ${lines.join(', ')}`;
+
+/**
+ * What the record itself says of a log's verdict, for the verdict line and the folder summary:
+ * an altered record (a line that does not match its hash chain) and a fill never closed.
+ */
+export function recordMarks(r: CheckReport): string[] {
+  const out: string[] = [];
+  if (r.record?.alteredLines.length) out.push(`RECORD ALTERED (${linesText(r.record.alteredLines)})`);
+  if (r.record && !r.record.closed && !r.incomplete.length) out.push('NOT CLOSED');
+  return out;
+}
+
+/** the verdict in words, marked by what the record says of it */
+function verdictText(r: CheckReport): string {
+  if (r.incomplete.length)
+    return (
+      `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not ` +
+      `finished, so it is not passed; the fractions above cover the fills logged so far`
+    );
+  const altered = r.record?.alteredLines ?? [];
+  const marks = recordMarks(r);
+  if (altered.length && r.verdict.verdict === 'pass')
+    return (
+      `pass on the numbers as they stand - ${marks.join(' - ')}: the record was changed after it ` +
+      'was written, so this is not a pass of the batch; restore the log as it was written (a backup), ' +
+      'or re-measure the tank before it is used'
+    );
+  const closed =
+    r.record && !r.record.closed
+      ? ' - NOT CLOSED: the fill never ended with a close entry (it was stopped or cut off, and gas ' +
+        'may have gone in after the last reading); read the tank before it is used'
+      : '';
+  return (
+    VERDICT_TEXT[r.verdict.verdict] +
+    (altered.length
+      ? ` - RECORD ALTERED (${linesText(altered)}): on numbers that are not as first logged`
+      : '') +
+    closed
+  );
+}
+
 /** the method note, warnings, the record's findings and the verdict with its caveats */
 function verdictLines(r: CheckReport): string[] {
   const out: string[] = [''];
@@ -172,14 +215,7 @@ function verdictLines(r: CheckReport): string[] {
     for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
   out.push('');
-  out.push(
-    `Verdict     ${
-      r.incomplete.length
-        ? `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not ` +
-          `finished, so it is not passed; the fractions above cover the fills logged so far`
-        : VERDICT_TEXT[r.verdict.verdict]
-    }`,
-  );
+  out.push(`Verdict     ${verdictText(r)}`);
   for (const c of r.caveats) out.push(`            ${c}`);
   return out;
 }
@@ -308,6 +344,8 @@ export function checkToJson(r: CheckReport, version: string): object {
       message: f.message,
     })),
     verdict_caveats: r.caveats,
+    record_altered_lines: r.record ? r.record.alteredLines : null,
+    record_closed: r.record ? r.record.closed : null,
     premix_logs: (r.premixLogs ?? []).map((p) => ({
       log: p.log,
       id: p.id,
@@ -369,7 +407,14 @@ export function folderSummary(
     table.push([
       r.file,
       rep.id,
-      `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}${danger ? ', DANGER' : ''}` +
+      `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}` +
+        (rep.record?.alteredLines.length && rep.verdict.verdict === 'pass' && !rep.incomplete.length
+          ? ' on the numbers as they stand'
+          : '') +
+        (danger ? ', DANGER' : '') +
+        recordMarks(rep)
+          .map((m) => `, ${m}`)
+          .join('') +
         (unchecked ? ', tank limits NOT checked' : ''),
       rep.result.phi ? rep.result.phi.value.toFixed(4) : '-',
       rep.verdict.deviations.length ? worst.toFixed(2) : '-',

@@ -102,6 +102,12 @@ export interface CheckReportOf<F extends RecordFinding> {
   };
   /** what stands beside the verdict: a danger in the record, an edited record */
   readonly caveats: readonly string[];
+  /**
+   * the record itself (a log; absent for CSV readings): the lines that do not match their hash
+   * chain (changed after writing, or not written by mixwright), and whether the fill was closed.
+   * A verdict from an altered record is on the numbers as they stand, never a bare pass.
+   */
+  readonly record?: { readonly alteredLines: readonly number[]; readonly closed: boolean };
   /** the premix logs the batch drew from, each re-checked (absent or empty: none) */
   readonly premixLogs?: readonly {
     /** as the batch log (or --premix-log) names it */

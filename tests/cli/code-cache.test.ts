@@ -3,6 +3,7 @@ import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:f
 import { execFileSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { hasTmux, tmuxSession } from '../e2e/tmux.js';
 
 // The built command compiles its bundle with a code cache made at build time (scripts/cli-load.mjs).
 // A cache holds compiled bytecode only: every output must be the same with it, without it, and with
@@ -83,4 +84,38 @@ describe('the code cache of the built command', { timeout: 240_000 }, () => {
     expect(cacheUsed(dir)).toBe(false);
     expect(run(dir, CASES[2])).toEqual(reference[2]);
   });
+
+  // the lazy parts (the terminal screens, dist/tui.mjs) are imported through the loader's import
+  // function: a compiled script has no module loader, and a bare import() in it failed with
+  // "A dynamic import callback was not specified" (fill, fill --resume and the wizard)
+  it.runIf(hasTmux)(
+    'loads the terminal screens of fill, fill --resume and the wizard, with no warning',
+    async () => {
+      expect(cacheUsed(dist)).toBe(true);
+      const dir = mkdtempSync(join(tmpdir(), 'mw-cache-tui-'));
+      const t = tmuxSession(`mw-cache-tui-${process.pid}`, dir);
+      const bin = join(dist, 'mixwright.mjs');
+      const recipe = resolve('recipes/ch4-o2-ar-phi1.yaml');
+      const start = async (args: string, screen: RegExp, n: number): Promise<string> => {
+        t.start(`sh -c 'node ${bin} ${args} 2>err${n}.txt; echo EXIT=$?; sleep 60'`);
+        const s = await t.waitFor(screen, 60_000);
+        await t.keys('C-c');
+        await t.waitFor(/EXIT=\d+/, 30_000);
+        t.tm('kill-session', '-t', 's');
+        return s + readFileSync(join(dir, `err${n}.txt`), 'utf8');
+      };
+      try {
+        const seen = [
+          await start(`fill ${recipe} --batch cc --dir batches`, /fill 1 of \d/, 1),
+          await start('fill --resume batches/cc.jsonl', /fill 1 of \d/, 2),
+          await start('', /preview/, 3),
+        ];
+        for (const s of seen) {
+          expect(s).not.toMatch(/internal error|dynamic import|Warning/);
+        }
+      } finally {
+        t.close();
+      }
+    },
+  );
 });

@@ -1,6 +1,6 @@
 // plan / sheet / check with an existing premix tank named by its batch log (--premix-log, recipe
 // premix.log): the demo premix of MT-2 and the demo batch filled from it.
-import { copyFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -178,5 +178,66 @@ describe('sheet and check with a premix log', () => {
     const onLog = await runCli(['check', BATCH, '--premix-log', PREMIX]);
     expect(onLog.code).toBe(2);
     expect(onLog.stderr).toMatch(/--premix-log is for CSV readings only/);
+  });
+});
+
+// a premix log changed after it was written (a line off its hash chain, as `check` finds it) is not a
+// source: its composition is not the one the premix was filled to. `check` of it is never a bare pass.
+describe('an altered or unclosed premix log', () => {
+  const altered = join(dir, 'altered', 'premix.jsonl');
+  const unclosed = join(dir, 'altered', 'unclosed.jsonl');
+  const lines = readFileSync(PREMIX, 'utf8').split('\n');
+  // line 3 (the O2 reading): its time changed by hand, the numbers left as they were
+  const edited = [...lines];
+  edited[2] = edited[2].replace(/"time":"([^"]*)00Z"/, '"time":"$159Z"');
+  expect(edited[2]).not.toBe(lines[2]);
+  mkdirSync(join(dir, 'altered'));
+  writeFileSync(altered, edited.join('\n'));
+  // the close entry (the last line) cut off: the chain is whole, the fill never closed
+  const body = lines.filter((l) => l.trim());
+  expect(JSON.parse(body[body.length - 1]).kind).toBe('close');
+  writeFileSync(unclosed, body.slice(0, -1).join('\n') + '\n');
+
+  for (const command of ['plan', 'sheet'])
+    it(`${command} --premix-log refuses it, naming the line and what to do`, async () => {
+      const r = await runCli([
+        command,
+        RECIPE,
+        '--premix-log',
+        altered,
+        ...(command === 'sheet' ? ['--format', 'txt'] : []),
+      ]);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr).toContain('premix-log-refused');
+      expect(r.stderr).toMatch(
+        /--premix-log: premix log .*premix\.jsonl was changed after it was written: line 3 does not match/,
+      );
+      expect(r.stderr).toMatch(/restore the log as it was written/);
+    });
+
+  it('check: the verdict is on the numbers as they stand, RECORD ALTERED (line 3), exit 5; JSON says so', async () => {
+    const r = await runCli(['check', altered, '--trials', '100000']);
+    expect(r.code).toBe(5);
+    expect(r.stdout).toMatch(/^Verdict {5}pass on the numbers as they stand - RECORD ALTERED \(line 3\)/m);
+    expect(r.stdout).not.toMatch(/Verdict {5}PASS/);
+    const j = await runCli(['check', altered, '--trials', '100000', '--json']);
+    expect(j.code).toBe(5);
+    expect(JSON.parse(j.stdout)).toMatchObject({ record_altered_lines: [3], record_closed: true });
+  });
+
+  it('check: a log never closed is marked NOT CLOSED beside its pass (exit 0: the numbers are as logged)', async () => {
+    const r = await runCli(['check', unclosed, '--trials', '100000']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^Verdict {5}PASS - .* - NOT CLOSED: /m);
+  });
+
+  it('check FOLDER: neither is a bare pass in the summary; exit 5', async () => {
+    const r = await runCli(['check', join(dir, 'altered')]);
+    expect(r.code).toBe(5);
+    expect(r.stdout).toMatch(
+      /premix\.jsonl +\S+ +pass on the numbers as they stand, RECORD ALTERED \(line 3\)/,
+    );
+    expect(r.stdout).toMatch(/unclosed\.jsonl +\S+ +pass, NOT CLOSED/);
   });
 });

@@ -75,7 +75,8 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       await t.keys('q');
       expect(flat(await t.waitFor(/EXIT=\d+/))).toContain('EXIT=0');
       await waitUntil(() => !existsSync(`${batchLog}.lock`), 10000);
-      // the stage-2 targets of the plan from this premix log (README two-stage section)
+      // the stage-2 targets of the plan from this premix log (README two-stage section; the Ar stop the
+      // planner chose, 371.1940 Torr, is read as 371.20 Torr: rounded up to head-1kT's 0.01 Torr)
       expect(typed).toEqual([10.01, 371.2, 520.24, 1499.7]);
       expect(readLog(batchLog).header.stage).toMatchObject({
         number: 2,

@@ -68,6 +68,8 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
   // a reading past a tank's working limit or a gauge's range stands beside any verdict
   if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger')))
     throw new ExitSignal(EXIT.danger);
+  if (rows.some((r) => 'report' in r && r.report.record?.alteredLines.length))
+    throw new ExitSignal(EXIT.recordAltered);
 }
 
 async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
@@ -87,6 +89,8 @@ async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
   else cli.out(checkToText(report));
   if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
   if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
+  // numbers that are not as first logged: never a bare pass
+  if (report.record?.alteredLines.length) throw new ExitSignal(EXIT.recordAltered);
 }
 
 export function registerCheck(program: Command, cli: Cli): void {

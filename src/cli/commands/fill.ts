@@ -9,13 +9,14 @@ import { fillEnded, fromTui, type Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { planFrom } from '../plan-from.js';
 import { checkStageOnResume, fillBatchStage, fillPremixStage } from '../stage-fill.js';
+import { loadTui } from '../load-tui.js';
 
 type FillOptions = DesignValues & { resume?: string; batch?: string; dir: string };
 
 /** continue an interrupted fill from its log: the design is the log's own */
 async function resume(cli: Cli, recipeFile: string | undefined, logFile: string): Promise<void> {
   if (recipeFile) throw new ProblemError({ code: 'resume-with-recipe' }, { field: '--resume' });
-  const tui = await import('../../tui/run.js');
+  const tui = await loadTui();
   const log = readLog(logFile);
   if (log.closed) throw new ProblemError({ code: 'log-closed' }, { file: logFile });
   for (const w of log.warnings) cli.err(`mixwright: ${logFile}: ${w}\n`);
@@ -33,7 +34,7 @@ async function fill(
 ): Promise<void> {
   if (!cli.isTTY) throw new ProblemError({ code: 'needs-terminal', command: 'fill' }, { field: 'fill' });
   if (o.resume) return resume(cli, recipeFile, o.resume);
-  const tui = await import('../../tui/run.js');
+  const tui = await loadTui();
   const planned = planFrom(recipeFile, o);
   const { plan, req } = planned;
   const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);

@@ -3,6 +3,7 @@ import type { Command } from 'commander';
 import { ProblemError } from '../../core/index.js';
 import { VERSION } from '../../version.js';
 import { fillEnded, fromTui, type Cli } from '../context.js';
+import { loadTui } from '../load-tui.js';
 
 export function registerWizard(program: Command, cli: Cli): void {
   program
@@ -15,7 +16,7 @@ export function registerWizard(program: Command, cli: Cli): void {
     .action(async (o: { lab?: string }) => {
       if (!cli.isTTY)
         throw new ProblemError({ code: 'needs-terminal', command: 'wizard' }, { field: 'wizard' });
-      const tui = await import('../../tui/run.js');
+      const tui = await loadTui();
       const r = await fromTui(() => tui.runWizard({ version: VERSION, labFile: o.lab }));
       if (r) fillEnded(cli, r, r.logFile);
     });
