@@ -760,7 +760,9 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
     targetsPa: r.targets,
     targetTemperatureK: p.done.temperatureK,
     judgement,
-    message: `${pressureText}; ${r.message}${r.result.limitBinds ? limitCost(r.result.predicted.pressurePa, deviations, unit) : ''}`,
+    message:
+      `${pressureText}; ${r.message}` +
+      (r.result.limitBinds ? limitCost(r.result.predicted.pressurePa, deviations, unit) : ''),
   };
   if (r.result.limitBinds && r.result.nowPa >= (s.setup.workingLimitPa ?? Infinity)) {
     return {
