@@ -179,8 +179,12 @@ export interface OverLimit {
    * pressure if they can; never above the limit), Pa
    */
   readonly ventToPa: number;
-  /** what the remaining fills become from there */
+  /** what the remaining fills become from there (on the last fill: that none remains) */
   readonly after: string;
+  /** why the tank is vented to ventToPa, in words */
+  readonly why: string;
+  /** the reading is the last fill's: no fill follows the vent */
+  readonly last: boolean;
   /**
    * the composition the vented tank leads to (venting keeps it; the remaining fills re-targeted)
    * is within the tolerance
@@ -823,18 +827,43 @@ function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLim
       limitPa: limit,
       ventToPa: limit * (1 - 1e-3),
       after: `no further fill can be re-targeted within the limit (${describeProblem(e.problem)})`,
+      why: 'just below the working limit: no vent lets the remaining fills go on within it',
       within: false,
       outside: [],
+      last: false,
     };
   }
   const deviations = deviationsOf(v.after.predicted.composition, s);
   const outside = deviations.filter((d) => !d.within).map((d) => d.species);
+  const unit = gaugeUnit(s.setup.steps[s.current]);
+  const last = s.current + 1 >= s.setup.steps.length;
+  if (last) {
+    // no fill follows: vent to this fill's own target (the final pressure the re-target set), kept
+    // below the limit by the fill's band; venting keeps the composition, so it is final as read
+    const band = s.setup.steps[s.current].bandPa;
+    const ventToPa = Math.min(s.targetsPa[s.current], limit - band);
+    return {
+      limitPa: limit,
+      ventToPa,
+      after: 'no fill remains; venting keeps the composition, so the re-check of the readings is final',
+      why:
+        `the target of this last fill (the final pressure the re-target set), ` +
+        `${ventToPa < s.targetsPa[s.current] ? 'held below the working limit by its band' : 'below the working limit'}`,
+      within: outside.length === 0,
+      outside,
+      last,
+    };
+  }
   return {
     limitPa: limit,
     ventToPa: v.targetPa,
     after: v.after.message,
+    why:
+      `the pressure from which the remaining fills, re-targeted, end at ` +
+      `${fmtIn(v.after.predicted.pressurePa, unit)} within the working limit`,
     within: outside.length === 0,
     outside,
+    last,
   };
 }
 
@@ -1034,18 +1063,21 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
     const done = [...s.done, p.done];
     const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
     if (last) {
+      // the pressure after venting is not read here: nothing claims it; the log holds the reading above the limit
       const f = finish(
         { ...base, effects: [] },
         now,
-        `fill ${step.index} read above the working limit; the operator vents the ` +
-          `tank back to ${fmtIn(o.ventToPa, unit)} absolute`,
+        `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute, above the working limit; ` +
+          `the operator chose to vent back to at most ${fmtIn(o.ventToPa, unit)} absolute. The pressure ` +
+          `after venting was not read or logged in this fill`,
       );
       return {
         ...f,
         message:
-          `fill ${step.index} logged above the working limit; vent the tank back to ` +
-          `${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the ` +
-          `re-check below holds for the vented tank.`,
+          `fill ${step.index} logged at ${fmtIn(p.done.pressurePa, unit)} absolute, ABOVE the working limit; ` +
+          `vent the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute now. The log, the re-check and ` +
+          `the label below are of the tank as read, BEFORE venting (venting keeps the composition, not ` +
+          `the pressure): read the tank after venting and write that pressure on the label by hand.`,
       };
     }
     return {

@@ -224,3 +224,32 @@ describe('a remainder held by the working limit (MT-1: 4 bar x 0.9 = 2700.22 Tor
     expect(s.message).toMatch(/ABOVE the working limit 2700\.22 Torr of MT-1 by 4\.78 Torr/);
   });
 });
+
+describe('past the working limit on the last fill: the vent target is explained and nothing claims an unread pressure', () => {
+  const h = splitHeader();
+  it('CH4 40 % high, the safer stop, then 2750 Torr on the last fill and vent', () => {
+    let s = initialState(setupFromHeader(h));
+    for (const t of ['14.02', 'safer AB', '480.81', '508.83']) s = read(s, t);
+    const target = s.targetsPa[3];
+    s = read(s, '2750');
+    expect(s.phase).toBe('over-limit');
+    const o = s.overLimit!;
+    expect(o.last).toBe(true);
+    // the vent target is the last fill's re-targeted target (2097.95 Torr), not the design 1500 Torr
+    expect(o.ventToPa).toBe(target);
+    expect(o.ventToPa / TORR).toBeCloseTo(2097.95, 2);
+    expect(o.why).toMatch(/the target of this last fill \(the final pressure the re-target set\)/);
+    // no remaining fills are promised anything
+    expect(o.after).not.toMatch(/remaining fills/);
+    expect(o.after).toMatch(/no fill remains/);
+    s = read(s, 'vent');
+    expect(s.phase).toBe('done');
+    // the end screen and the log's close note say the tank was read before venting, not that it is vented
+    expect(s.message).toMatch(/the label below are of the tank as read, BEFORE venting/);
+    expect(s.message).toMatch(/read the tank after venting/);
+    const close = s.effects.find((e) => e.kind === 'close') as { note?: string };
+    expect(close.note).toMatch(/chose to vent back to at most 2097\.95 Torr absolute/);
+    expect(close.note).toMatch(/was not read or logged in this fill/);
+    expect(close.note).not.toMatch(/the operator vents/);
+  });
+});
