@@ -1062,24 +1062,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   if (/^vent$/i.test(text)) {
     const done = [...s.done, p.done];
     const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
-    if (last) {
-      // the pressure after venting is not read here: nothing claims it; the log holds the reading above the limit
-      const f = finish(
-        { ...base, effects: [] },
-        now,
-        `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute, above the working limit; ` +
-          `the operator chose to vent back to at most ${fmtIn(o.ventToPa, unit)} absolute. The pressure ` +
-          `after venting was not read or logged in this fill`,
-      );
-      return {
-        ...f,
-        message:
-          `fill ${step.index} logged at ${fmtIn(p.done.pressurePa, unit)} absolute, ABOVE the working limit; ` +
-          `vent the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute now. The log, the re-check and ` +
-          `the label below are of the tank as read, BEFORE venting (venting keeps the composition, not ` +
-          `the pressure): read the tank after venting and write that pressure on the label by hand.`,
-      };
-    }
+    if (last) return ventedLast(base, p, o, now);
     return {
       ...base,
       phase: 'ended',
@@ -1105,6 +1088,28 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
       'the reading is logged. Type "vent" (you vent or pump back), "accept" and ' +
       'your initials (keep the tank as it is; logged), or "edit" and your initials ' +
       '(it was mistyped: the reading is withdrawn, with a trace), then Enter',
+  };
+}
+
+/** vent chosen on the last fill: the batch closes on the reading as logged; nothing claims the vented pressure */
+function ventedLast(base: FillState, p: Pending, o: OverLimit, now: string): FillState {
+  const step = base.setup.steps[base.current - 1];
+  const unit = gaugeUnit(step);
+  // the pressure after venting is not read here: nothing claims it; the log holds the reading above the limit
+  const f = finish(
+    { ...base, effects: [] },
+    now,
+    `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute, above the working limit; ` +
+      `the operator chose to vent back to at most ${fmtIn(o.ventToPa, unit)} absolute. The pressure ` +
+      `after venting was not read or logged in this fill`,
+  );
+  return {
+    ...f,
+    message:
+      `fill ${step.index} logged at ${fmtIn(p.done.pressurePa, unit)} absolute, ABOVE the working limit; ` +
+      `vent the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute now. The log, the re-check and ` +
+      `the label below are of the tank as read, BEFORE venting (venting keeps the composition, not ` +
+      `the pressure): read the tank after venting and write that pressure on the label by hand.`,
   };
 }
 
