@@ -82,8 +82,8 @@ export function describeProblem(p: Problem): string {
       );
     case 'bad-quantity':
       return (
-        `cannot read "${p.text}" as a ${p.expected}: ${sentence(describeQuantityFault(p.fault))} Give a ` +
-        `number and a unit, e.g. ${exampleFor(p.expected)}`
+        `cannot read "${p.text}" as a ${p.expected}: ${sentence(describeQuantityFault(p.fault))} ` +
+        giveHint(p.expected, p.bareUnit)
       );
     case 'order-missing':
     case 'order-repeated':
@@ -388,10 +388,7 @@ function describeLogProblem(p: LogProblem): string {
         `filled after it; only the last reading can be withdrawn`
       );
     case 'reading-missing':
-      return (
-        `cannot read "" as a ${p.expected}: type the reading first. Give a number and a unit, ` +
-        `e.g. ${exampleFor(p.expected)}`
-      );
+      return `cannot read "" as a ${p.expected}: type the reading first. ${giveHint(p.expected, p.bareUnit)}`;
   }
 }
 
@@ -941,6 +938,13 @@ function describeWriteCause(c: WriteCause): string {
     case 'log-exists':
       return 'a batch log of that name exists already; it is never overwritten - choose another batch id';
   }
+}
+
+/** what to type: a number and a unit, or (where the field has a unit) a bare number in it */
+function giveHint(expected: string, bareUnit: string | undefined): string {
+  return bareUnit
+    ? `Give a number in ${bareUnit} (the gauge's unit), or a number and a unit, e.g. ${exampleFor(expected)}`
+    : `Give a number and a unit, e.g. ${exampleFor(expected)}`;
 }
 
 function exampleFor(expected: string): string {

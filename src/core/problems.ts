@@ -39,6 +39,8 @@ export type Problem =
       readonly text: string;
       readonly expected: string;
       readonly fault: QuantityFault;
+      /** the field reads a bare number in this unit (a reading in the gauge's unit) */
+      readonly bareUnit?: string;
     }
   | { readonly code: 'order-missing'; readonly missing: readonly string[] }
   | { readonly code: 'order-repeated'; readonly repeated: readonly string[] }
@@ -137,7 +139,7 @@ export type Problem =
   /** a withdrawal of a reading that is not the last one (a later step was filled after it) */
   | { readonly code: 'withdraw-not-last'; readonly step: number; readonly later: number }
   /** Enter on an empty reading field */
-  | { readonly code: 'reading-missing'; readonly expected: string }
+  | { readonly code: 'reading-missing'; readonly expected: string; readonly bareUnit?: string }
   // raised by the re-check
   /** a log's reading names a source or gauge that its header does not list */
   | {

@@ -32,6 +32,12 @@ export interface RetargetInput {
   readonly finalPressurePa: number;
   readonly volumeM3: number;
   readonly workingLimitPa?: number;
+  /**
+   * the last fill's pressure band (Pa): when the working limit holds the final pressure, the final
+   * target is put this far below the limit, so that a reading inside the band never passes the
+   * limit. Default 0.
+   */
+  readonly finalBandPa?: number;
   /** a top-up: the gas in the tank before the first fill (its composition, and its reading) */
   readonly initial?: {
     readonly composition: Readonly<Record<string, number>>;
@@ -469,7 +475,7 @@ function amountsWithinLimit(
   pr: RetargetProblem,
   nowPa: number,
 ): { a: number[]; pred: Prediction; limitBinds: boolean } {
-  const limit = pr.input.workingLimitPa;
+  const limit = capOf(pr.input);
   if (limit !== undefined && nowPa >= limit) {
     // at or past the limit already: any further fill would raise the pressure more; none is proposed
     const a = pr.cols.map(() => 0);
@@ -508,6 +514,15 @@ function amountsWithinLimit(
       tolerance: 0,
     });
   return { a, pred, limitBinds: true };
+}
+
+/**
+ * the highest final target the re-target proposes: the working limit less the last fill's band (a
+ * reading anywhere inside the band stays within the limit); undefined without a limit
+ */
+export function capOf(input: RetargetInput): number | undefined {
+  const limit = input.workingLimitPa;
+  return limit === undefined ? undefined : limit - Math.max(0, input.finalBandPa ?? 0);
 }
 
 const scaled = (a: readonly number[], k: number) => a.map((x) => x * k);
@@ -567,7 +582,7 @@ function messageOf(
   limitBinds: boolean,
   fmtP: (p: number) => string,
 ): string {
-  const { design, finalPressurePa, workingLimitPa: limit } = pr.input;
+  const { design, finalPressurePa } = pr.input;
   const phi = design.phi;
   const hasDil = pr.dil.size > 0;
   const fmt = (x: number) => String(Number(x.toPrecision(5)));
@@ -594,15 +609,24 @@ function messageOf(
       ].join(' and ') || 'the composition';
     parts.push(
       limitBinds
-        ? `the final pressure is held at the tank's working limit ${fmtP(limit!)} (design ` +
-            `${fmtP(finalPressurePa)})`
+        ? `the final pressure is held at ${heldAt(pr.input, fmtP)} (design ${fmtP(finalPressurePa)})`
         : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(finalPressurePa)}) to keep ${keeps}`,
     );
   }
   const message = parts.join('; ');
   return limitBinds && !gave.includes('pressure')
-    ? `the tank's working limit ${fmtP(limit!)} holds the final pressure; ${message}`
+    ? `the final pressure is held at ${heldAt(pr.input, fmtP)}; ${message}`
     : message;
+}
+
+/** where the limit holds the final pressure, in words: the limit, less the last fill's band if any */
+function heldAt(input: RetargetInput, fmtP: (p: number) => string): string {
+  const limit = input.workingLimitPa!;
+  const band = Math.max(0, input.finalBandPa ?? 0);
+  return band > 0
+    ? `${fmtP(limit - band)}, the tank's working limit ${fmtP(limit)} less the last fill's band ` +
+        `${fmtP(band)} (a reading inside the band stays within the limit)`
+    : `the tank's working limit ${fmtP(limit)}`;
 }
 
 export interface VentBack {

@@ -123,8 +123,8 @@ export function describeLogFinding(f: LogFinding): string {
       );
     case 'text-number-mismatch':
       return (
-        `${at}the ${f.field} as typed, "${f.text}", is ${Number(f.textSI.toPrecision(9))} ` +
-        `${f.siUnit}, but the line logs ${Number(f.loggedSI.toPrecision(9))} ${f.siUnit}: ` +
+        `${at}the ${f.field} as typed, "${f.text}", is ${distinct(f.textSI, f.loggedSI)[0]} ` +
+        `${f.siUnit}, but the line logs ${distinct(f.textSI, f.loggedSI)[1]} ${f.siUnit}: ` +
         `the line was changed, or written wrongly; the logged number is what the ` +
         `re-check uses`
       );
@@ -330,4 +330,17 @@ export function findingsOf<C extends LogFinding['code']>(
   code: C,
 ): Extract<LogFinding, { code: C }>[] {
   return fs.filter((f): f is Extract<LogFinding, { code: C }> => f.code === code);
+}
+
+/**
+ * two numbers that differ, in plain notation with just enough significant digits (9 at least, up to
+ * 17) to show that they differ
+ */
+export function distinct(a: number, b: number): [string, string] {
+  for (let sig = 9; sig < 17; sig++) {
+    const x = String(Number(a.toPrecision(sig)));
+    const y = String(Number(b.toPrecision(sig)));
+    if (x !== y) return [x, y];
+  }
+  return [String(a), String(b)];
 }

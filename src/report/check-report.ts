@@ -417,7 +417,8 @@ export function folderSummary(
           .join('') +
         (unchecked ? ', tank limits NOT checked' : ''),
       rep.result.phi ? rep.result.phi.value.toFixed(4) : '-',
-      rep.verdict.deviations.length ? worst.toFixed(2) : '-',
+      // an incomplete batch is not judged on a number: its missing fills make any ratio meaningless
+      rep.incomplete.length ? 'incomplete' : rep.verdict.deviations.length ? worst.toFixed(2) : '-',
     ]);
   }
   return padTable(table, [false, false, false, true, true]).join('\n') + '\n';

@@ -576,7 +576,8 @@ function OverLimitScreen({ state }: ScreenProps) {
       </Text>
       <Text wrap="wrap">
         Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
-        {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}). From there: {o.after}.
+        {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}): {o.why}. {o.last ? '' : 'From there: '}
+        {o.after}.
       </Text>
       <Text bold wrap="wrap">
         {o.within
@@ -586,8 +587,11 @@ function OverLimitScreen({ state }: ScreenProps) {
       </Text>
       <Text> </Text>
       <Text wrap="wrap">
-        vent: you vent back (the fill stops here; finish as a top-up) accept INITIALS: keep the tank as it is
-        (logged) edit INITIALS: it was mistyped (withdrawn, with a trace)
+        {o.last
+          ? 'vent: you vent back (the batch closes with this reading; read the tank after venting) '
+          : 'vent: you vent back (the fill stops here; finish as a top-up) '}
+        accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
+        trace)
       </Text>
       <Prompt state={state} />
       <ErrorLine state={state} />

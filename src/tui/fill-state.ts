@@ -179,8 +179,12 @@ export interface OverLimit {
    * pressure if they can; never above the limit), Pa
    */
   readonly ventToPa: number;
-  /** what the remaining fills become from there */
+  /** what the remaining fills become from there (on the last fill: that none remains) */
   readonly after: string;
+  /** why the tank is vented to ventToPa, in words */
+  readonly why: string;
+  /** the reading is the last fill's: no fill follows the vent */
+  readonly last: boolean;
   /**
    * the composition the vented tank leads to (venting keeps it; the remaining fills re-targeted)
    * is within the tolerance
@@ -428,6 +432,8 @@ export function retargetInput(
     finalPressurePa: h.final_pressure_Pa,
     volumeM3: h.tank.volume_m3,
     workingLimitPa: s.setup.workingLimitPa,
+    // the last fill's band stays below the limit: a reading inside it never passes the limit
+    finalBandPa: s.setup.steps[s.setup.steps.length - 1]?.bandPa,
     initial: s.start,
     formatPressure: (pa) => `${Number(fromPa(pa, 'Torr').toPrecision(6))} Torr`,
     // each charge of a split source, and the stop reading (the plan's target) of each but its last
@@ -598,7 +604,7 @@ const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 function parseReading(
   s: FillState,
   step: FillStep,
-): { shown: number; temperatureK: number } | { error: string } {
+): { shown: number; temperatureK: number } | { error: string; typo?: boolean } {
   try {
     const text = s.input.trim();
     if (text === '') fail({ code: 'reading-missing', expected: 'pressure' });
@@ -608,8 +614,17 @@ function parseReading(
     const temperatureK = parseTemperature(s.temperatureText);
     return { shown, temperatureK };
   } catch (e) {
-    if (e instanceof ProblemError) return { error: describeProblem(e.problem) };
-    throw e;
+    if (!(e instanceof ProblemError)) throw e;
+    const p = e.problem;
+    // a bare number is read in the gauge's unit: the hint says so
+    // the reading's text could not be read (the message quotes it): the field may be cleared
+    const typo = p.code === 'bad-quantity' || p.code === 'wrong-dimension';
+    return {
+      error: describeProblem(
+        p.code === 'bad-quantity' || p.code === 'reading-missing' ? { ...p, bareUnit: gaugeUnit(step) } : p,
+      ),
+      typo,
+    };
   }
 }
 
@@ -721,7 +736,7 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
   const done = [...s.done, p.done];
   const pressureText =
     `${fillName(step)} logged: ${signed(fromPa(deviation, unit))} ${unit} from ` +
-    `the target (${within ? 'inside' : 'outside'} the pressure band)`;
+    `the target (${bandWords(s, unit, p.done.pressurePa, within)})`;
   let next: FillState = {
     ...s,
     done,
@@ -749,7 +764,9 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
     targetsPa: r.targets,
     targetTemperatureK: p.done.temperatureK,
     judgement,
-    message: `${pressureText}; ${r.message}`,
+    message:
+      `${pressureText}; ${r.message}` +
+      (r.result.limitBinds ? limitCost(r.result.predicted.pressurePa, deviations, unit) : ''),
   };
   if (r.result.limitBinds && r.result.nowPa >= (s.setup.workingLimitPa ?? Infinity)) {
     return {
@@ -810,19 +827,109 @@ function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLim
       limitPa: limit,
       ventToPa: limit * (1 - 1e-3),
       after: `no further fill can be re-targeted within the limit (${describeProblem(e.problem)})`,
+      why: 'just below the working limit: no vent lets the remaining fills go on within it',
       within: false,
       outside: [],
+      last: false,
     };
   }
   const deviations = deviationsOf(v.after.predicted.composition, s);
   const outside = deviations.filter((d) => !d.within).map((d) => d.species);
+  const unit = gaugeUnit(s.setup.steps[s.current]);
+  const last = s.current + 1 >= s.setup.steps.length;
+  if (last) {
+    // no fill follows: vent to this fill's own target (the final pressure the re-target set), kept
+    // below the limit by the fill's band; venting keeps the composition, so it is final as read
+    const band = s.setup.steps[s.current].bandPa;
+    const ventToPa = Math.min(s.targetsPa[s.current], limit - band);
+    return {
+      limitPa: limit,
+      ventToPa,
+      after: 'no fill remains; venting keeps the composition, so the re-check of the readings is final',
+      why:
+        `the target of this last fill (the final pressure the re-target set), ` +
+        `${ventToPa < s.targetsPa[s.current] ? 'held below the working limit by its band' : 'below the working limit'}`,
+      within: outside.length === 0,
+      outside,
+      last,
+    };
+  }
   return {
     limitPa: limit,
     ventToPa: v.targetPa,
     after: v.after.message,
+    why:
+      `the pressure from which the remaining fills, re-targeted, end at ` +
+      `${fmtIn(v.after.predicted.pressurePa, unit)} within the working limit`,
     within: outside.length === 0,
     outside,
+    last,
   };
+}
+
+/**
+ * where a logged reading lies: inside or outside its pressure band, or, past the tank's working
+ * limit, that first (never "inside the band" for a tank over its limit)
+ */
+function bandWords(s: FillState, unit: PressureUnit, absolutePa: number, within: boolean): string {
+  const limit = s.setup.workingLimitPa;
+  if (limit !== undefined && absolutePa > limit)
+    return (
+      `ABOVE the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id} by ` +
+      `${fmtIn(absolutePa - limit, unit, 3)}`
+    );
+  return `${within ? 'inside' : 'outside'} the pressure band`;
+}
+
+/**
+ * what a remainder held by the working limit costs, in words: the final pressure it ends at, each
+ * mole fraction off the design (by how much, inside or outside the tolerance), and the choices
+ */
+function limitCost(finalPa: number, deviations: readonly FractionDeviation[], unit: PressureUnit): string {
+  const pct = (x: number) => `${fixedSig(x * 100, 3)} %`;
+  const off = deviations
+    .map(
+      (d) =>
+        `x(${d.species}) ${pct(d.actual)} (design ${pct(d.design)}: ${signed(d.deviation * 100)} points, ` +
+        `${d.within ? 'inside' : 'OUTSIDE'} the tolerance +-${fixedSig(d.tolerance * 100, 3)} points)`,
+    )
+    .join(', ');
+  const outside = deviations.filter((d) => !d.within).length;
+  return (
+    `. The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
+    (outside
+      ? ` - ${outside} mole fraction(s) OUTSIDE the tolerance`
+      : ' - the composition stays within the tolerance') +
+    `. Choices: go on to the final pressure the limit allows (fill to the targets shown), or stop here ` +
+    `(Ctrl-C: the log keeps every reading; vent or evacuate the tank, or resume later)`
+  );
+}
+
+/**
+ * A reading past the gauge head's range, in words. Past the tank's working limit too, that comes
+ * first: if the value is real the tank is over its limit (what to do now), then the likely slip.
+ */
+function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: number): string {
+  const unit = gaugeUnit(step);
+  const gauge = step.gauge!;
+  const limit = s.setup.workingLimitPa;
+  const tank = s.setup.header.tank.id;
+  const danger =
+    limit !== undefined && absolutePa > limit
+      ? `DANGER if real: ${fmtIn(absolutePa, unit)} absolute is past the working limit ` +
+        `${fmtIn(limit, unit)} of ${tank} (${fmtIn(absolutePa, 'Torr')}); if the tank really reads ` +
+        `this, it is over its working limit: stop adding gas, close the cylinder and tank valves, ` +
+        `keep clear of the tank and follow the lab's over-pressure procedure. `
+      : '';
+  return (
+    `${danger}${fmtIn(shown, unit)} is past the range of ${gauge.id} (up to ${fmtIn(gauge.fullScalePa, unit)}): ` +
+    `a head past its range shows no measurement. Likely the unit or a typing slip` +
+    (danger
+      ? `; check the unit and the value, and read the tank on a gauge with a higher range. `
+      : `; if the tank really is above it, close the head's valve and read the tank on a gauge ` +
+        `with a higher range. `) +
+    `The reading is not logged.`
+  );
 }
 
 /** a signed number in plain notation, 3 significant figures (never "1.32e+3") */
@@ -857,7 +964,8 @@ function onReadingEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const parsed = parseReading(s, step);
-  if ('error' in parsed) return { ...s, error: parsed.error };
+  // a refused entry clears the field (its text stays in the message), so the next one starts clean
+  if ('error' in parsed) return { ...s, input: parsed.typo ? '' : s.input, error: parsed.error };
   const { shown, temperatureK } = parsed;
   const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
   const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
@@ -871,6 +979,7 @@ function onReadingEnter(s: FillState, now: string): FillState {
     const prevShown = gaugeRef ? prev - s.barometerPa : prev;
     return {
       ...s,
+      input: '',
       error:
         `typed "${s.input.trim()}": ${fmtIn(shown, typedUnit)} ${basis} is not above ` +
         `the previous reading, ${fmtIn(prevShown, typedUnit)} ${basis}, and a fill ` +
@@ -880,16 +989,8 @@ function onReadingEnter(s: FillState, now: string): FillState {
         `the tank cooled (check the temperature). The reading is not logged.`,
     };
   }
-  if (step.gauge && shown > step.gauge.fullScalePa) {
-    return {
-      ...s,
-      error:
-        `${fmtIn(shown, unit)} is past the range of ${step.gauge.id} (up to ${fmtIn(step.gauge.fullScalePa, unit)}): ` +
-        `a head past its range shows no measurement. Likely the unit or a typing ` +
-        `slip; if the tank really is above it, close the head's valve and read the ` +
-        `tank on a gauge with a higher range. The reading is not logged.`,
-    };
-  }
+  if (step.gauge && shown > step.gauge.fullScalePa)
+    return { ...s, error: pastRange(s, step, shown, absolute) };
   // the judgement uses the temperature typed with the reading: re-target first if it changed
   const s1 = Math.abs(temperatureK - s.targetTemperatureK) >= 0.005 ? withTemperature(s) : s;
   const event = readingEvent(s1, step, absolute, temperatureK, now);
@@ -961,21 +1062,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   if (/^vent$/i.test(text)) {
     const done = [...s.done, p.done];
     const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
-    if (last) {
-      const f = finish(
-        { ...base, effects: [] },
-        now,
-        `fill ${step.index} read above the working limit; the operator vents the ` +
-          `tank back to ${fmtIn(o.ventToPa, unit)} absolute`,
-      );
-      return {
-        ...f,
-        message:
-          `fill ${step.index} logged above the working limit; vent the tank back to ` +
-          `${fmtIn(o.ventToPa, unit)} absolute. Venting keeps the composition, so the ` +
-          `re-check below holds for the vented tank.`,
-      };
-    }
+    if (last) return ventedLast(base, p, o, now);
     return {
       ...base,
       phase: 'ended',
@@ -1001,6 +1088,28 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
       'the reading is logged. Type "vent" (you vent or pump back), "accept" and ' +
       'your initials (keep the tank as it is; logged), or "edit" and your initials ' +
       '(it was mistyped: the reading is withdrawn, with a trace), then Enter',
+  };
+}
+
+/** vent chosen on the last fill: the batch closes on the reading as logged; nothing claims the vented pressure */
+function ventedLast(base: FillState, p: Pending, o: OverLimit, now: string): FillState {
+  const step = base.setup.steps[base.current - 1];
+  const unit = gaugeUnit(step);
+  // the pressure after venting is not read here: nothing claims it; the log holds the reading above the limit
+  const f = finish(
+    { ...base, effects: [] },
+    now,
+    `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute, above the working limit; ` +
+      `the operator chose to vent back to at most ${fmtIn(o.ventToPa, unit)} absolute. The pressure ` +
+      `after venting was not read or logged in this fill`,
+  );
+  return {
+    ...f,
+    message:
+      `fill ${step.index} logged at ${fmtIn(p.done.pressurePa, unit)} absolute, ABOVE the working limit; ` +
+      `vent the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute now. The log, the re-check and ` +
+      `the label below are of the tank as read, BEFORE venting (venting keeps the composition, not ` +
+      `the pressure): read the tank after venting and write that pressure on the label by hand.`,
   };
 }
 
@@ -1125,7 +1234,7 @@ function onCorrectEnter(s: FillState, now: string): FillState {
       };
     }
     if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-      return { ...s, error: `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}` };
+      return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
     const ev = readingEvent(s, step, absolute, parsed.temperatureK, now);
     return {
       ...s,
@@ -1419,14 +1528,9 @@ function onStartEnter(s: FillState, now: string): FillState {
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return { ...s, error: parsed.error };
-  if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-    return {
-      ...s,
-      error:
-        `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id}; read ` +
-        `the tank on a gauge that covers it`,
-    };
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa)
+    return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
   if (!(absolute > 0))
     return {
       ...s,
@@ -1521,12 +1625,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
     };
   }
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-    return {
-      ...s,
-      error:
-        `${fmtIn(parsed.shown, unit)} is past the range of ${step.gauge.id} (up to ` +
-        `${fmtIn(step.gauge.fullScalePa, unit)}); read the tank on a gauge that covers it`,
-    };
+    return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
   if (last.line === undefined)
     return {
       ...s,
@@ -1559,7 +1658,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
   const pressureText =
     `fill ${step.index}: more gas added, ${ev.reading} logged by ${w.by} (it ` +
     `replaces ${last.text}; the log keeps both): ${signed(fromPa(deviation, unit))} ` +
-    `${unit} from the target (${within ? 'inside' : 'outside'} the pressure band)`;
+    `${unit} from the target (${bandWords(s, unit, absolute, within)})`;
   const next: FillState = { ...s, done, input: '', effects: [event] };
   if (over) {
     // the same hard stop as any reading past the limit: logged now, then vent, accept or edit

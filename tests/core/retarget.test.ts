@@ -118,6 +118,22 @@ describe('re-targeting', () => {
 
 describe('re-targeting at the working limit', () => {
   const limit = 1002 * TORR;
+  it("held by the limit, the final target sits the last fill's band below it: the band's upper edge never passes the limit", () => {
+    const done = [{ pressurePa: plan.steps[0].targetPa * 1.1, temperatureK: 298.15 }];
+    const band = 7.5 * TORR;
+    const formatPressure = (pa: number) => `${Number((pa / TORR).toPrecision(5))} Torr`;
+    const r = retarget({ ...base, workingLimitPa: limit, finalBandPa: band, done, formatPressure });
+    const last = r.remaining[r.remaining.length - 1].targetPa;
+    expect(r.limitBinds).toBe(true);
+    // the final target is the limit less the band (within the aim's 1e-6 relative step), so target + band <= limit
+    expect(last + band).toBeLessThanOrEqual(limit);
+    expect((limit - band - last) / limit).toBeLessThan(1e-5);
+    expect(r.message).toMatch(/held at 994\.5 Torr, the tank's/);
+    expect(r.message).toMatch(/working limit 1002 Torr less the last fill's band 7\.5 Torr/);
+    // without the band the target is at the limit itself (the case the band guards against)
+    const bare = retarget({ ...base, workingLimitPa: limit, done });
+    expect(bare.remaining[bare.remaining.length - 1].targetPa + band).toBeGreaterThan(limit);
+  });
   it('an overshoot past the limit: no further fill is proposed, the message says so', () => {
     const r = retarget({
       ...base,

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { checkFile } from '../../src/io/check.js';
 import { folderSummary } from '../../src/report/check-report.js';
+import { distinct } from '../../src/io/log-audit.js';
 
 // `check FOLDER` must not read as "within the tank's limits" for a log that has none to check against
 describe('check of a folder: a log without the tank limits says so', () => {
@@ -31,5 +32,35 @@ describe('check of a folder: a log without the tank limits says so', () => {
       /no pressure rating for tank MT-1: the readings were NOT checked against a working limit/,
     );
     expect(rated.warnings.join('\n')).not.toMatch(/NOT checked/);
+  });
+});
+
+describe('check of a folder: an incomplete batch is not given a worst |dev|/tol number', () => {
+  it('the demo log cut after its first reading says "incomplete" in the verdict and in the worst column', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-incomplete-'));
+    const lines = readFileSync('batches/demo-ch4-phi1-ar98.jsonl', 'utf8').split('\n');
+    const cut = join(dir, 'cut.jsonl');
+    writeFileSync(cut, lines.slice(0, 2).join('\n') + '\n');
+    const rep = await checkFile(cut, { trials: 0, seed: 1 });
+    expect(rep.incomplete.length).toBeGreaterThan(0);
+    const row = folderSummary([{ file: 'cut.jsonl', report: rep }])
+      .split('\n')
+      .find((l) => l.startsWith('cut.jsonl'))!;
+    const cells = row.trim().split(/\s{2,}/);
+    expect(cells[2]).toMatch(/^incomplete/);
+    expect(cells[cells.length - 1]).toBe('incomplete');
+    expect(row).not.toMatch(/\d+\.\d\d\s*$/);
+  });
+});
+
+describe('a typed-vs-logged mismatch shows enough digits to show the difference', () => {
+  it('252059.27 Pa against 252059.2700004 Pa: 9 significant digits would print the same number twice', () => {
+    expect(Number((252059.27).toPrecision(9))).toBe(Number((252059.2700004).toPrecision(9)));
+    const [a, b] = distinct(252059.27, 252059.2700004);
+    expect(a).not.toBe(b);
+    expect(a).toBe('252059.27');
+    expect(b).toBe('252059.2700004');
+    // numbers that differ at 9 digits keep 9
+    expect(distinct(1480, 1480.3)).toEqual(['1480', '1480.3']);
   });
 });

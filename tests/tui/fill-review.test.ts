@@ -193,3 +193,63 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     expect(t.review!.alternative!.toPa).toBeGreaterThan(400 * TORR);
   });
 });
+
+describe('a remainder held by the working limit (MT-1: 4 bar x 0.9 = 2700.22 Torr; CH4 read 100 % high)', () => {
+  const h = splitHeader();
+  it("the last target's band ends within the limit; the cost and the choices are said; a reading past the limit is never 'inside the band'", () => {
+    let s = initialState(setupFromHeader(h));
+    const limit = s.setup.workingLimitPa!;
+    const band = s.setup.steps[3].bandPa;
+    s = read(s, '20.02');
+    // the limit holds the final pressure: the final target + its band stays within the limit
+    expect(s.targetsPa[3] + band).toBeLessThanOrEqual(limit);
+    expect(s.message).toMatch(
+      /held at 2692\.73 Torr, the tank's working limit 2700\.22 Torr less the last fill's band 7\.49053 Torr/,
+    );
+    // what it costs: each mole fraction off the design, outside the tolerance or not, and the choices
+    expect(s.message).toMatch(/x\(CH4\) 0\.742 % \(design 0\.667 %: \+0\.0752 points, OUTSIDE the tolerance/);
+    expect(s.message).toMatch(/x\(Ar\) 97\.8 % \(design 98\.0 %: -0\.226 points, inside the tolerance/);
+    expect(s.message).toMatch(/Choices: go on to the final pressure the limit allows .* or stop here/);
+    s = read(s, 'safer AB');
+    s = read(s, '921.53');
+    s = read(s, '961.51');
+    expect(s.current).toBe(3);
+    expect(s.targetsPa[3] + band).toBeLessThanOrEqual(limit);
+    // 2705 Torr: past the limit (the old band 2692.7 - 2707.7 Torr took it in)
+    s = read(s, '2705');
+    expect(s.phase).toBe('over-limit');
+    s = read(s, 'accept AB');
+    expect(s.phase).toBe('done');
+    expect(s.message).not.toMatch(/inside the pressure band/);
+    expect(s.message).toMatch(/ABOVE the working limit 2700\.22 Torr of MT-1 by 4\.78 Torr/);
+  });
+});
+
+describe('past the working limit on the last fill: the vent target is explained and nothing claims an unread pressure', () => {
+  const h = splitHeader();
+  it('CH4 40 % high, the safer stop, then 2750 Torr on the last fill and vent', () => {
+    let s = initialState(setupFromHeader(h));
+    for (const t of ['14.02', 'safer AB', '480.81', '508.83']) s = read(s, t);
+    const target = s.targetsPa[3];
+    s = read(s, '2750');
+    expect(s.phase).toBe('over-limit');
+    const o = s.overLimit!;
+    expect(o.last).toBe(true);
+    // the vent target is the last fill's re-targeted target (2097.95 Torr), not the design 1500 Torr
+    expect(o.ventToPa).toBe(target);
+    expect(o.ventToPa / TORR).toBeCloseTo(2097.95, 2);
+    expect(o.why).toMatch(/the target of this last fill \(the final pressure the re-target set\)/);
+    // no remaining fills are promised anything
+    expect(o.after).not.toMatch(/remaining fills/);
+    expect(o.after).toMatch(/no fill remains/);
+    s = read(s, 'vent');
+    expect(s.phase).toBe('done');
+    // the end screen and the log's close note say the tank was read before venting, not that it is vented
+    expect(s.message).toMatch(/the label below are of the tank as read, BEFORE venting/);
+    expect(s.message).toMatch(/read the tank after venting/);
+    const close = s.effects.find((e) => e.kind === 'close') as { note?: string };
+    expect(close.note).toMatch(/chose to vent back to at most 2097\.95 Torr absolute/);
+    expect(close.note).toMatch(/was not read or logged in this fill/);
+    expect(close.note).not.toMatch(/the operator vents/);
+  });
+});

@@ -60,6 +60,13 @@ describe('guided fill state machine', () => {
     const s0 = initialState(setupFromHeader(header()));
     expect(enter(s0).error).toMatch(/type the reading first/);
     expect(enter(type(s0, 'abc')).error).toMatch(/cannot read/);
+    // a typo: the field is cleared (the message quotes it), so the next entry does not run on from it;
+    // the hint says that a bare number is read in the gauge's unit
+    const typo = enter(type(s0, '1890..2'));
+    expect(typo.error).toMatch(/cannot read "1890\.\.2" as a pressure/);
+    expect(typo.error).toMatch(/Give a number in Torr \(the gauge's unit\), or a number and a unit/);
+    expect(typo.input).toBe('');
+    expect(read(typo, '10.0128').current).toBe(1);
     expect(enter(type(s0, '3 L')).error).toMatch(/is a volume/);
     const s1 = read(s0, '10.0128');
     const low = read(s1, '9');
@@ -68,7 +75,13 @@ describe('guided fill state machine', () => {
     expect(low.error).toMatch(/tank cooled/);
     expect(low.effects).toEqual([]);
     expect(low.current).toBe(1);
-    expect(read(s1, '20000').error).toMatch(/past the range of head-10kT/);
+    expect(read(s1, '20000').error).toMatch(/^DANGER if real: .*past the range of head-10kT/);
+    // past the tank's working limit too (MT-1: 2700.22 Torr): the danger first, then the slip
+    const far = read(s1, '480.81 psi');
+    expect(far.error).toMatch(
+      /^DANGER if real: 24865\.\d Torr absolute is past the working limit 2700\.22 Torr of MT-1 .*stop adding gas, close the cylinder and tank valves.*over-pressure procedure\. .*past the range of head-10kT.*typing slip.*not logged/,
+    );
+    expect(far.effects).toEqual([]);
     expect(setTemperature(s1, '-300 degC').error).toMatch(/below absolute zero/);
     const t = setTemperature(s1, '400 degC');
     expect(t.error).toMatch(/outside the allowed range 200-600 K/);
