@@ -14,7 +14,8 @@ function fillCause(c: StageFillCause): string {
         return (
           `the stage-${c.stage} log ${c.file} exists and is finished (closed): ` +
           (c.stage === 1
-            ? `the premix is made; fill the batch from it${c.next ? ` with \`${c.next}\`` : ' with fill --premix-log'}` +
+            ? 'the premix is made; fill the batch from it' +
+              (c.next ? ` with \`${c.next}\`` : ' with fill --premix-log') +
               ', or give another --batch id to make a new premix'
             : 'this batch is filled; re-check it with `mixwright check`, or give another --batch id for a new one')
         );
