@@ -306,7 +306,15 @@ export type StageProblem =
 /** why a stage of a two-stage fill cannot start */
 export type StageFillCause =
   /** the stage's log exists already: a fill of it was started (resume it, or give another batch id) */
-  | { readonly kind: 'log-exists'; readonly stage: 1 | 2; readonly file: string }
+  | {
+      readonly kind: 'log-exists';
+      readonly stage: 1 | 2;
+      readonly file: string;
+      /** the log is closed (the fill finished): it cannot be resumed */
+      readonly closed?: boolean;
+      /** a closed premix log's stage-2 command, as its header records it */
+      readonly next?: string;
+    }
   /** the premix tank, filled as planned, would fall below what the batch must reach (Pa, absolute) */
   | {
       readonly kind: 'premix-low';
@@ -322,13 +330,6 @@ export type StageFillCause =
       readonly file: string;
       readonly expected: string;
       readonly found: string | null;
-    }
-  /** the premix log names another batch than the one asked for */
-  | {
-      readonly kind: 'premix-other-batch';
-      readonly file: string;
-      readonly batch: string;
-      readonly asked: string;
     };
 
 /** why a premix log cannot be the batch's source (or the source its batch log names) */

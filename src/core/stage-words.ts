@@ -10,6 +10,15 @@ const torr = (pa: number) => `${Number((pa / TORR_PA).toPrecision(5))} Torr`;
 function fillCause(c: StageFillCause): string {
   switch (c.kind) {
     case 'log-exists':
+      if (c.closed)
+        return (
+          `the stage-${c.stage} log ${c.file} exists and is finished (closed): ` +
+          (c.stage === 1
+            ? 'the premix is made; fill the batch from it' +
+              (c.next ? ` with \`${c.next}\`` : ' with fill --premix-log') +
+              ', or give another --batch id to make a new premix'
+            : 'this batch is filled; re-check it with `mixwright check`, or give another --batch id for a new one')
+        );
       return (
         `the stage-${c.stage} log ${c.file} exists: a fill of this ${c.stage === 1 ? 'premix' : 'batch'} ` +
         `was started already, and a log is never overwritten; continue it with ` +
@@ -29,11 +38,6 @@ function fillCause(c: StageFillCause): string {
         `was started from it (sha256 ${c.expected.slice(0, 12)}..., now ` +
         `${c.found === null ? 'none' : `${c.found.slice(0, 12)}...`}): the batch's targets rest on the ` +
         `premix as it was logged then; restore that log, or start a new batch from the premix log as it is`
-      );
-    case 'premix-other-batch':
-      return (
-        `the premix log ${c.file} was made for batch ${c.batch}, not ${c.asked}: give --batch ${c.batch}, ` +
-        `or name the premix log made for this batch`
       );
   }
 }

@@ -421,7 +421,8 @@ const RECIPE_PATH_OF_CORE_FIELD: Readonly<Record<string, DataPath>> = {
  */
 export function locateCoreProblem(e: ProblemError, rs: RecipeSource): ProblemError {
   const field = e.where.field;
-  if (!field) return e;
+  // no field, or one already pointed at the option that gave it (--premix-tank): nothing to locate
+  if (!field || field.startsWith('--')) return e;
   const path = RECIPE_PATH_OF_CORE_FIELD[field] ?? field.split('.');
   const where = recipeWhere(rs)(path, field);
   let typed: unknown = rs.recipe;

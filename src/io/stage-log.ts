@@ -21,7 +21,7 @@ import {
   type Plan,
   type StageFillCause,
 } from '../core/index.js';
-import { createLog, readLog, type LogHeader } from './batch-log.js';
+import { createLog, readLog, type LogHeader, type ParsedLog } from './batch-log.js';
 import { headerFromPlan } from './check.js';
 import type { PlanRequest } from './load.js';
 
@@ -48,7 +48,17 @@ export function fileSha256(file: string): string | null {
 
 /** refuse to start a stage whose log exists (a log is never overwritten; it may be resumed) */
 export function refuseExistingStageLog(file: string, stage: 1 | 2): void {
-  if (existsSync(file)) fail({ code: 'stage-fill', cause: { kind: 'log-exists', stage, file } }, { file });
+  if (!existsSync(file)) return;
+  let log: ParsedLog | undefined;
+  try {
+    log = readLog(file);
+  } catch {
+    // not readable as a log: refused as existing all the same
+  }
+  // a finished fill cannot be resumed: say what comes next instead
+  const closed = log?.closed === true;
+  const next = closed ? log?.header.stage?.next_command : undefined;
+  fail({ code: 'stage-fill', cause: { kind: 'log-exists', stage, file, closed, next } }, { file });
 }
 
 /** a shell command line from its words: a word is quoted when it holds anything but safe characters */
@@ -142,31 +152,23 @@ const refuse = (cause: StageFillCause, file: string): never => fail({ code: 'sta
 
 /**
  * The premix log a batch is filled from, beyond what the premix-log planner checks (closed, no
- * danger, re-check a pass: `premix-log-refused`): made for this batch when it is a stage-1 log,
- * and, on a resume, the same bytes as when the batch was started from it. Returns its sha256.
+ * danger, re-check a pass, enough gas after the other batches' draws: `premix-log-refused`): on a
+ * resume, the same bytes as when the batch was started from it. Returns its sha256.
  */
-export function premixLogBytes(file: string, expect: { sha256?: string; batch?: string }): string {
+export function premixLogBytes(file: string, expect: { sha256?: string }): string {
   const sha256 = fileSha256(file);
   if (expect.sha256 && sha256 !== expect.sha256)
     refuse({ kind: 'premix-changed', file, expected: expect.sha256, found: sha256 }, file);
-  if (expect.batch) {
-    let stage: StageOfLog | undefined;
-    try {
-      stage = readLog(file).header.stage;
-    } catch {
-      // unreadable: the premix-log planner says why
-    }
-    if (stage?.number === 1 && stage.batch !== expect.batch)
-      refuse({ kind: 'premix-other-batch', file, batch: stage.batch, asked: expect.batch }, file);
-  }
+  // another batch than the one the premix was made for may draw from it too: the planner has
+  // subtracted the other batches' draws and refuses a premix tank with too little gas left
   return sha256 ?? '';
 }
 
 /**
  * Stage 2's log: for a batch planned from a premix log (`plan.premixLog`), `<batch>.jsonl` beside
  * the premix log (or in `dir`), the batch id the premix was made for unless `batch` is given,
- * linked to the premix log's bytes. Refuses a premix log made for another batch and a batch log
- * that exists. Returns the log's path.
+ * linked to the premix log's bytes (any batch may draw from the premix: the planner subtracted the
+ * draws of the batch logs beside it). Refuses a batch log that exists. Returns the log's path.
  */
 export function createBatchStageLog(
   plan: Plan,
@@ -179,7 +181,7 @@ export function createBatchStageLog(
   const rel = relative(process.cwd(), use.path);
   const premixLog = rel && !rel.startsWith('..') ? rel : use.path;
   const premixHeader = readLog(use.path).header;
-  const sha256 = premixLogBytes(use.path, { batch: o.batch });
+  const sha256 = premixLogBytes(use.path, {});
   const stage = premixHeader.stage;
   const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
   const batchId = o.batch ?? (stage?.number === 1 ? stage.batch : `${req.recipe.id}-${stamp}`);

@@ -79,8 +79,13 @@ export function planTwoStageFrom(input: TwoStageInput, rs: RecipeSource): Predic
   try {
     return asBatchPlan(planTwoStage(input));
   } catch (e) {
-    if (e instanceof ProblemError && !e.where.field)
-      throw relocate(e, { ...rs.locate(['premix']), field: 'premix' });
+    if (e instanceof ProblemError && !e.where.field) {
+      // the premix tank itself: at --premix-tank when the command line gave it, else its recipe line
+      const p = e.problem;
+      const path = p.code === 'two-stage-refused' && p.kind === 'same-tank' ? ['premix', 'tank'] : ['premix'];
+      const where = rs.locate(path);
+      throw relocate(e, { ...where, field: where.field ?? path.join('.') });
+    }
     throw e;
   }
 }

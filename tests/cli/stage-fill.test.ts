@@ -27,6 +27,20 @@ describe('fill --premix-tank: refusals before any gas flows (exit 2)', () => {
     expect(readFileSync(file, 'utf8')).toBe('kept\n');
   });
 
+  it('stage 1 run again after it finished: the premix log is closed, so it says so and gives the stage-2 command, not --resume', async () => {
+    const dir = tmp();
+    const { file } = writePremixLog(dir, premixTargets);
+    const before = readFileSync(file, 'utf8');
+    const r = await runCli(['fill', RECIPE, '--premix-tank', 'MT-2', '--batch', 'b1', '--dir', dir], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(error code: stage-fill)');
+    expect(r.stderr).toContain(`the stage-1 log ${file} exists and is finished (closed)`);
+    // the header's stage-2 command (tests/stage-logs.ts writes 'mixwright fill X')
+    expect(r.stderr).toContain('fill the batch from it with `mixwright fill X`');
+    expect(r.stderr).not.toContain('--resume');
+    expect(readFileSync(file, 'utf8')).toBe(before);
+  });
+
   it("the batch's own log taken already: stage 1 is refused too (stage 2 could not write it)", async () => {
     const dir = tmp();
     writeFileSync(join(dir, 'b1.jsonl'), 'kept\n');
@@ -147,14 +161,18 @@ describe('fill --premix-log: stage 2 refusals before any gas flows (exit 2, no b
     noBatchLog(dir);
   });
 
-  it('a premix log made for another batch than --batch (stage-fill, premix-other-batch)', async () => {
+  it('another batch than the one the premix was made for may draw from it: b2.jsonl is made beside it', async () => {
+    // the premix holds gas for many batches; plan --premix-log subtracts the other batches' draws and
+    // refuses only too little gas (was: refused as "made for batch b1, not b2")
     const dir = tmp();
     const { file } = writePremixLog(dir, premixTargets);
-    const r = await stage2(file, ['--batch', 'b2']);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toContain('(error code: stage-fill)');
-    expect(r.stderr).toContain(`the premix log ${file} was made for batch b1, not b2: give --batch b1`);
-    expect(readdirSync(dir)).toEqual(['b1-premix.jsonl']);
+    const p = await import('../../src/cli/plan-from.js');
+    const { createBatchStageLog } = await import('../../src/io/stage-log.js');
+    const planned = p.planFrom(RECIPE, { premixLog: file });
+    const made = createBatchStageLog(planned.plan, planned.req, { batch: 'b2' });
+    expect(made).toBe(join(dir, 'b2.jsonl'));
+    expect(readLog(made).header.stage).toMatchObject({ number: 2, batch: 'b2' });
+    expect(readdirSync(dir).sort()).toEqual(['b1-premix.jsonl', 'b2.jsonl']);
   });
 
   it('the batch log beside the premix log exists already (stage-fill, log-exists)', async () => {

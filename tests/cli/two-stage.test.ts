@@ -8,6 +8,25 @@ import { runCli, TORR } from '../helpers.js';
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 
 describe('mixwright plan --premix-tank', () => {
+  it('--premix-tank naming the batch tank itself is pointed at the option, not at a recipe line', async () => {
+    const r = await runCli(['plan', RECIPE, '--premix-tank', 'MT-1']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(
+      /^mixwright: --premix-tank: the premix must be made in another tank than the batch \(both are MT-1\)/,
+    );
+    // in a recipe, at its premix.tank line
+    const dir = mkdtempSync(join(tmpdir(), 'mw-same-tank-'));
+    const f = join(dir, 'same.yaml');
+    writeFileSync(
+      f,
+      'id: same\ntank: MT-1\nmixture: {fuel: CH4, oxidizer: O2, diluent: Ar, phi: 1, dilution: 0.98}\n' +
+        'pressure: 1500 Torr\ntemperature: 25 degC\npremix:\n  tank: MT-1\n',
+    );
+    const y = await runCli(['plan', f]);
+    expect(y.code).toBe(2);
+    expect(y.stderr).toContain(`${f}:7:9 premix.tank: the premix must be made in another tank`);
+  });
+
   it('prints both stages, stage 1 first, and the premix tank delivery; exit 0', async () => {
     const r = await runCli(['plan', RECIPE, '--premix-tank', 'MT-2']);
     expect(r.code).toBe(0);
