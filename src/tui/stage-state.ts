@@ -20,10 +20,12 @@ function fractionLines(report: CheckReport): string[] {
     .map((k) => ({ k, st: r.composition[k] }))
     .filter((e) => e.st && e.st.value >= 1e-4)
     .sort((a, b) => b.st.value - a.st.value)
-    .map(
-      ({ k, st }) =>
-        `  x(${k}) ${withU(st.value * 100, 2 * st.u * 100, '%')}  (U ${pct((2 * st.u) / st.value)} of the value)`,
-    );
+    .map(({ k, st }) => {
+      const U = 2 * st.u;
+      // a U that was not computed is not given as a share of the value
+      const share = U > 0 && Number.isFinite(U) ? `  (U ${pct(U / st.value)} of the value)` : '';
+      return `  x(${k}) ${withU(st.value * 100, U * 100, '%')}${share}`;
+    });
 }
 
 function mixingLines(header: LogHeader, report: CheckReport): string[] {
@@ -62,14 +64,17 @@ export function stageEndLines(header: LogHeader, report: CheckReport | undefined
   if (!report) return [...out, 'The premix is re-checked from its readings when the fill ends.'];
   out.push("Premix as filled (re-checked from the logged readings by check's model, U at k = 2):");
   out.push(...fractionLines(report));
-  out.push(...mixingLines(header, report));
   if (!closed || report.verdict.verdict !== 'pass') {
+    // an unusable premix is not worth mixing: say what to do instead
     out.push(
       'Stage 2 will refuse this premix log: it must be closed, with no danger in its record and a ' +
-        're-check that shows it within tolerance (`mixwright check` says what is off).',
+        're-check that shows it within tolerance (`mixwright check` says what is off). Do not mix ' +
+        'it for stage 2: vent or evacuate the premix tank and fill a new premix batch (a new --batch ' +
+        'id), after `mixwright check` of this log has said what went wrong.',
     );
     return out;
   }
+  out.push(...mixingLines(header, report));
   out.push('Next, stage 2 (the batch from this premix), once it is mixed:');
   out.push(`  ${st.next_command ?? '(no command recorded)'}`);
   return out;

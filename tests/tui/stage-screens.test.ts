@@ -133,7 +133,7 @@ describe('end screen of a stage-1 fill', () => {
         'mixwright fill R --premix-log L',
       ),
     );
-    steps.forEach((s, i) =>
+    steps.slice(0, readings.length).forEach((s, i) =>
       appendEvent(file, {
         kind: 'reading',
         step: s.index,
@@ -175,6 +175,18 @@ describe('end screen of a stage-1 fill', () => {
     expect(lines[lines.length - 1]).toMatch(/^Stage 2 will refuse this premix log/);
     const ok = await premixReport(steps.map((s) => s.targetPa));
     expect(stageEndLines(ok.header, ok.report, false).join('\n')).toContain('Stage 2 will refuse');
+  });
+
+  it('an incomplete premix (one reading, past the working limit): no U share that was not computed, no mixing advice, what to do', async () => {
+    const { header, report } = await premixReport([4800 * TORR]);
+    const lines = stageEndLines(header, report, true);
+    const text = lines.join('\n');
+    expect(text).toMatch(/x\(Ar\) 100\.000 % \(U not computed\)/);
+    expect(text).not.toMatch(/not computed\)\s*\(U/);
+    expect(text).not.toMatch(/^Mixing:/m);
+    expect(text).toMatch(
+      /Do not mix it for stage 2: vent or evacuate the premix tank and fill a new premix batch/,
+    );
   });
 
   it('a single-tank log adds nothing', () => {
