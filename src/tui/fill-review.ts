@@ -155,11 +155,21 @@ export function withReview(s: FillState, trigger: ReviewTrigger, input: Retarget
   const accepted = new Set(s.reviewed?.accepted ?? []);
   const open = rv.hazards.filter((f) => !accepted.has(hazardKey(f)));
   if (!open.length) {
-    const near = rv.near.map((f) => `fill ${f.step ?? 0}: ${words(f)}`);
-    const said =
-      near.length > 0
-        ? `the remaining fills come near the flammable region where the plan did not (${near.join('; ')})`
-        : undefined;
+    // a state already in the tank (the fill just read, step <= current) is no longer "remaining"
+    const ahead = rv.near.filter((f) => (f.step ?? 0) > s.current);
+    const inTank = rv.near.filter((f) => (f.step ?? 0) <= s.current);
+    const said = [
+      inTank.length > 0
+        ? `the tank now is near the flammable region where the plan was not (${inTank.map((f) => words(f)).join('; ')})`
+        : undefined,
+      ahead.length > 0
+        ? `the remaining fills come near the flammable region where the plan did not (${ahead
+            .map((f) => `fill ${f.step ?? 0}: ${words(f)}`)
+            .join('; ')})`
+        : undefined,
+    ]
+      .filter(Boolean)
+      .join('; ');
     return {
       ...s,
       review: undefined,
