@@ -25,7 +25,12 @@ function premixRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] {
   const d = t.delivery;
   return [
     ['Stage', `2 of 2: the batch, from the premix of stage 1 (${t.source.id})`],
-    ['Premix', `${comp} (stage-1 prediction, U with k = 2; re-check its log before use)`],
+    [
+      'Premix',
+      `${comp} (stage-1 prediction, U with k = 2). The targets of this sheet are from that prediction: ` +
+        'once stage 1 is filled, re-print this sheet with `sheet --premix-log` and the stage-1 log, whose ' +
+        're-checked premix gives the targets to fill to',
+    ],
     [
       'Premix tank',
       `${tankName(t.premix.tank.id)} at ${pressure(d.startPa, unit, 5)} before; ` +

@@ -129,6 +129,10 @@ describe('mixwright plan --premix-tank', () => {
     expect(b).toBeGreaterThan(a);
     expect(txt.stdout.slice(b)).toContain('premix-MT-2');
     expect(txt.stdout.slice(b)).toMatch(/Premix tank\s+MT-2 at 1890\.2 Torr before; 1840\.9 Torr after/);
+    // its targets come from stage 1's prediction: the sheet says so and how to re-print it from the log
+    expect(txt.stdout.slice(b).replace(/\s+/g, ' ')).toContain(
+      're-print this sheet with `sheet --premix-log`',
+    );
     const html = await runCli(['sheet', RECIPE, '--premix-tank', 'MT-2', '--format', 'html']);
     expect(html.code).toBe(0);
     expect(html.stdout.match(/<html/g)?.length).toBe(1);
