@@ -267,6 +267,16 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   const what = r.hazards.map((h) => `${h.code}${h.step ? ` (fill ${h.step})` : ''}`).join(', ');
   const why = r.hazards.map((h) => `${h.code}${h.step ? ` (fill ${h.step})` : ''}: ${h.text}`).join(' | ');
   const mem: ReviewMemory = s.reviewed ?? { accepted: [], stopsPa: {} };
+  /** the acknowledge line of the review's outcome (the one shape both choices log) */
+  const logged = (note: string, review: LogRemainderReview): NewLogEvent => ({
+    kind: 'acknowledge',
+    code: REVIEW_CODE,
+    step,
+    by,
+    time: now,
+    note: `${note}. ${why}`,
+    review,
+  });
   if (choice === 'safer') {
     const alt = r.alternative;
     if (!alt)
@@ -279,20 +289,12 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
     const note =
       `review of the remaining fills after the ${r.trigger}: ${what}, which the plan did not have; ` +
       `${by} took the safer stop of ${alt.name}: ${torr(alt.toPa)} instead of ${torr(alt.fromPa)} absolute`;
-    const ev: NewLogEvent = {
-      kind: 'acknowledge',
-      code: REVIEW_CODE,
-      step,
-      by,
-      time: now,
-      note: `${note}. ${why}`,
-      review: {
-        trigger: r.trigger,
-        outcome: 'safer-stop',
-        hazards,
-        stop: { step: alt.step, from_Pa: alt.fromPa, to_Pa: alt.toPa },
-      },
-    };
+    const ev = logged(note, {
+      trigger: r.trigger,
+      outcome: 'safer-stop',
+      hazards,
+      stop: { step: alt.step, from_Pa: alt.fromPa, to_Pa: alt.toPa },
+    });
     const next = hooks.rejudge({
       ...s,
       reviewed: { ...mem, stopsPa: { ...mem.stopsPa, [alt.fill]: alt.toPa } },
@@ -307,15 +309,7 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   const note =
     `review of the remaining fills after the ${r.trigger}: ${what}, which the plan did not have; ` +
     `accepted by ${by} (going on through it)`;
-  const ev: NewLogEvent = {
-    kind: 'acknowledge',
-    code: REVIEW_CODE,
-    step,
-    by,
-    time: now,
-    note: `${note}. ${why}`,
-    review: { trigger: r.trigger, outcome: 'accepted', hazards },
-  };
+  const ev = logged(note, { trigger: r.trigger, outcome: 'accepted', hazards });
   return hooks.enterStep({
     ...s,
     reviewed: { ...mem, accepted: [...mem.accepted, ...r.hazards.map((h) => h.key)] },
