@@ -4,38 +4,79 @@
  * Prentice-Hall 1974, ch. 23). Dense and small: a handful of sources.
  */
 
+/**
+ * min ||A_P z - b|| over the passive columns P, by Householder QR with column pivoting and, at each
+ * step, the row of largest entry in the pivot column moved to the pivot position (Powell & Reid,
+ * "On applying Householder transformations to linear least squares problems", IFIP 1968/1969;
+ * Cox & Higham, BIT 38 (1998) 1-22: so pivoted, Householder QR is stable for rows weighted over
+ * many orders of magnitude, where the normal equations square the weights and lose the light rows).
+ */
 function solveLeastSquares(
   A: readonly (readonly number[])[],
   b: readonly number[],
   cols: readonly number[],
 ): number[] {
-  // normal equations on the passive columns, solved by Gaussian elimination with partial pivoting
   const k = cols.length;
-  const M: number[][] = Array.from({ length: k }, () => new Array<number>(k + 1).fill(0));
-  for (let p = 0; p < k; p++) {
-    for (let q = 0; q < k; q++) {
-      let s = 0;
-      for (let r = 0; r < A.length; r++) s += A[r][cols[p]] * A[r][cols[q]];
-      M[p][q] = s;
-    }
+  const m = A.length;
+  const M = A.map((row) => cols.map((c) => row[c]));
+  const y = [...b];
+  const perm = cols.map((_, j) => j);
+  const norm2 = (c: number, from: number) => {
+    let big = 0;
+    for (let r = from; r < m; r++) big = Math.max(big, Math.abs(M[r][c]));
+    if (big === 0) return 0;
     let s = 0;
-    for (let r = 0; r < A.length; r++) s += A[r][cols[p]] * b[r];
-    M[p][k] = s;
-  }
+    for (let r = from; r < m; r++) s += (M[r][c] / big) ** 2;
+    return big * Math.sqrt(s);
+  };
+  const start = cols.map((_, j) => norm2(j, 0));
   for (let c = 0; c < k; c++) {
+    if (c >= m) throw new Error('nnls: singular system (more sources than conditions to fix them)');
     let piv = c;
-    for (let r = c + 1; r < k; r++) if (Math.abs(M[r][c]) > Math.abs(M[piv][c])) piv = r;
-    [M[c], M[piv]] = [M[piv], M[c]];
-    const d = M[c][c];
-    if (Math.abs(d) < 1e-300)
+    for (let q = c + 1; q < k; q++) if (norm2(q, c) > norm2(piv, c)) piv = q;
+    for (const row of M) [row[c], row[piv]] = [row[piv], row[c]];
+    [perm[c], perm[piv]] = [perm[piv], perm[c]];
+    let top = c;
+    for (let r = c + 1; r < m; r++) if (Math.abs(M[r][c]) > Math.abs(M[top][c])) top = r;
+    [M[c], M[top]] = [M[top], M[c]];
+    [y[c], y[top]] = [y[top], y[c]];
+    const alpha = norm2(c, c);
+    // a column that adds nothing the earlier ones do not (to rounding) has no unique amount
+    if (!(alpha > 64 * Number.EPSILON * start[perm[c]]))
       throw new Error('nnls: singular system (two sources supply the same gases in the same ratio)');
-    for (let r = 0; r < k; r++) {
-      if (r === c) continue;
-      const f = M[r][c] / d;
-      for (let q = c; q <= k; q++) M[r][q] -= f * M[c][q];
-    }
+    // reflector v = x + sign(x_c) |x| e_c, applied to the columns right of c and to y
+    const beta = M[c][c] >= 0 ? alpha : -alpha;
+    const v = new Array<number>(m).fill(0);
+    v[c] = M[c][c] + beta;
+    for (let r = c + 1; r < m; r++) v[r] = M[r][c];
+    const vv = v[c] * beta; // v.v / 2
+    const reflect = (get: (r: number) => number, set: (r: number, val: number) => void) => {
+      let dot = 0;
+      for (let r = c; r < m; r++) dot += v[r] * get(r);
+      const f = dot / vv;
+      for (let r = c; r < m; r++) set(r, get(r) - f * v[r]);
+    };
+    for (let q = c + 1; q < k; q++)
+      reflect(
+        (r) => M[r][q],
+        (r, val) => (M[r][q] = val),
+      );
+    reflect(
+      (r) => y[r],
+      (r, val) => (y[r] = val),
+    );
+    M[c][c] = -beta;
+    for (let r = c + 1; r < m; r++) M[r][c] = 0;
   }
-  return M.map((row, i) => row[k] / row[i]);
+  const z = new Array<number>(k).fill(0);
+  for (let c = k - 1; c >= 0; c--) {
+    let s = y[c];
+    for (let q = c + 1; q < k; q++) s -= M[c][q] * z[q];
+    z[c] = s / M[c][c];
+  }
+  const out = new Array<number>(k).fill(0);
+  perm.forEach((j, c) => (out[j] = z[c]));
+  return out;
 }
 
 export interface NnlsResult {
@@ -75,6 +116,30 @@ export function nnls(
   options: NnlsOptions = {},
 ): NnlsResult {
   const n = A[0]?.length ?? 0;
+  // each column to unit length: the problem in u_j = s_j x_j has the same minimiser and the same
+  // signs, and the tests below (which column enters, which amount is zero) then compare like with
+  // like whatever the columns' units (a trace gas's mole against the bath gas's mole)
+  const s = Array.from({ length: n }, (_, j) => columnNorm(A, j) || 1);
+  const As = A.map((row) => row.map((a, j) => a / s[j]));
+  const u = activeSet(As, b, maxIter, options);
+  const x = u.map((v, j) => v / s[j]);
+  const res = b.map((bi, i) => A[i].reduce((acc, a, j) => acc + a * x[j], 0) - bi);
+  return { x, residualNorm: Math.hypot(...res) };
+}
+
+function columnNorm(A: readonly (readonly number[])[], j: number): number {
+  const big = A.reduce((m, row) => Math.max(m, Math.abs(row[j])), 0);
+  return big === 0 ? 0 : big * Math.sqrt(A.reduce((acc, row) => acc + (row[j] / big) ** 2, 0));
+}
+
+/** the active-set iteration of Lawson & Hanson on columns of comparable size (see nnls) */
+function activeSet(
+  A: readonly (readonly number[])[],
+  b: readonly number[],
+  maxIter: number,
+  options: NnlsOptions,
+): number[] {
+  const n = A[0]?.length ?? 0;
   const x = new Array<number>(n).fill(0);
   const passive = new Set<number>();
   const grad = (): number[] => {
@@ -94,6 +159,7 @@ export function nnls(
     for (;;) {
       const cols = [...passive].sort((p, q) => p - q);
       const z = solveLeastSquares(A, b, cols);
+      if (!z.every(Number.isFinite)) throw new Error('nnls: the least-squares step is not finite');
       if (z.every((v) => v > 0)) {
         x.fill(0);
         cols.forEach((c, i) => (x[c] = z[i]));
@@ -112,6 +178,5 @@ export function nnls(
       if (passive.size === 0) break;
     }
   }
-  const res = b.map((bi, i) => A[i].reduce((s, a, j) => s + a * x[j], 0) - bi);
-  return { x, residualNorm: Math.hypot(...res) };
+  return x;
 }
