@@ -250,13 +250,33 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(log.readings.map((r) => r.step)).toEqual([2]);
   });
 
-  it('vent: the reading is already logged; the batch stops with the instruction to finish as a top-up', () => {
+  it('vent INITIALS (not the last fill): the vent is logged, the tank read after venting (a reading not below the one before venting is refused, one still past the limit is logged and asked again); the batch stops with the instruction to finish as a top-up', () => {
     const { logged: d } = overLimit();
-    const v = enter(type(d, 'vent'));
-    expect(v.effects.map((e) => e.kind)).toEqual(['close']);
-    expect(v.phase).toBe('ended');
-    expect(v.message).toMatch(/Vent or pump the tank back to 14\d\d\.\d+ Torr/);
-    expect(v.message).toMatch(/top-up/);
+    // the vent is logged: initials are asked
+    expect(enter(type(d, 'vent')).error).toMatch(/"vent" and your initials/);
+    const v = enter(type(d, 'vent JD'));
+    expect(v.effects).toEqual([
+      expect.objectContaining({ kind: 'vent', step: 2, by: 'JD', target_Pa: d.overLimit!.ventToPa }),
+    ]);
+    expect(v.phase).toBe('vented');
+    expect(v.message).toMatch(/Vent or pump the tank back to at most 14\d\d\.\d Torr on head-10kT \(14\d\d\.\d+ Torr absolute\), let it settle/);
+    // a slip: above the reading before venting (2800 Torr) - refused, nothing logged
+    const typo = read(v, '2900 JD');
+    expect(typo.phase).toBe('vented');
+    expect(typo.effects).toEqual([]);
+    expect(typo.error).toMatch(/not below the reading before venting, 2800\.00 Torr absolute/);
+    // still past the working limit: logged (a fact), the screen stays
+    const still = read(typo, '2750 JD');
+    expect(still.phase).toBe('vented');
+    expect(still.effects).toEqual([
+      expect.objectContaining({ kind: 'vent-reading', pressure_Pa: 2750 * TORR }),
+    ]);
+    expect(still.message).toMatch(/still ABOVE the working limit/);
+    const done = read(still, '1490.5 JD');
+    expect(done.effects.map((e) => e.kind)).toEqual(['vent-reading', 'close']);
+    expect(done.phase).toBe('ended');
+    expect(done.message).toMatch(/1490\.50 Torr absolute\) after venting, logged by JD/);
+    expect(done.message).toMatch(/top-up/);
   });
 
   it('an Ar reading just under the limit: the O2 target stays at or under the limit and the screen says what gives', () => {
