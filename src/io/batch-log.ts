@@ -22,7 +22,9 @@
  *                                    reading logged, before the next fill; the step is read again
  *   {"kind":"acknowledge", ...}      an operator's acknowledgement of a danger finding; code
  *                                    "remainder-review" with review? {trigger, outcome, hazards,
- *                                    stop?}: the outcome of the review of the re-targeted remainder
+ *                                    stop?}: the outcome of the review of the re-targeted remainder;
+ *                                    code "limit-cap" with cap? {outcome, final_Pa, outside}: the
+ *                                    choice on a re-target held below the working limit
  *   {"kind":"vent", ...}             the operator vents the tank back after a reading past the working
  *                                    limit: step (the fill just read), target_Pa (the vent target
  *                                    shown), by, time; the composition stays, the pressure does not
@@ -290,6 +292,16 @@ const remainderReviewSchema = z.object({
     })
     .optional(),
 });
+/**
+ * the operator's choice on the stop screen of a re-target held below the working limit (code
+ * "limit-cap"): go on to the capped targets, or stop; the final pressure the cap allows and the
+ * design species it leaves outside the tolerance; absent on other acknowledgements and in older logs
+ */
+const capSchema = z.object({
+  outcome: z.enum(['continued', 'stopped']),
+  final_Pa: z.number().positive(),
+  outside: z.array(z.string()),
+});
 const ackSchema = z.object({
   kind: z.literal('acknowledge'),
   code: z.string(),
@@ -298,6 +310,7 @@ const ackSchema = z.object({
   time: z.string(),
   note: z.string().optional(),
   review: remainderReviewSchema.optional(),
+  cap: capSchema.optional(),
   chain,
 });
 /** the operator vents the tank back (a reading past the working limit): what was chosen, by whom */

@@ -259,6 +259,7 @@ function FillScreen({
   if (state.phase === 'over-limit' && state.pending && state.overLimit)
     return <OverLimitScreen state={state} />;
   if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
+  if (state.phase === 'capped' && state.capped) return <CappedScreen state={state} />;
   return <ReadingScreen state={state} />;
 }
 
@@ -598,6 +599,46 @@ function OverLimitScreen({ state }: ScreenProps) {
             'finish as a top-up) '}
         accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
         trace)
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/**
+ * the re-target held below the working limit at the cost of the composition: what it costs, the
+ * targets it gives, and an explicit choice (go, undo, stop), logged with initials
+ */
+function CappedScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const c = state.capped!;
+  const K = state.setup.steps.length;
+  const ahead = state.setup.steps.slice(state.current).map((st, i) => {
+    const u = unitOf(st);
+    const dec = st.gauge ? decimalsFor(fromPa(st.gauge.resolutionPa, u)) : 3;
+    const t = state.targetsPa[state.current + i];
+    const shown = fromPa(shownPa(state, st, t), u).toFixed(dec);
+    return `fill ${st.index} ${st.species}: ${shown} ${u} on ${st.gauge?.id ?? 'no gauge'}`;
+  });
+  return (
+    <Box flexDirection="column">
+      <Text bold wrap="wrap">
+        mixwright fill {h.id} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
+        {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
+      </Text>
+      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      <Text bold wrap="wrap">
+        {c.cost}.
+      </Text>
+      <Text wrap="wrap">Capped targets: {ahead.join('; ')}.</Text>
+      <Text> </Text>
+      <Text wrap="wrap">
+        go INITIALS: fill to the capped targets (the tank ends at{' '}
+        {fromPa(c.finalPa, unitOf(state.setup.steps[state.current])).toFixed(1)}{' '}
+        {unitOf(state.setup.steps[state.current])}
+        {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
+        INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
       </Text>
       <Prompt state={state} />
       <ErrorLine state={state} />

@@ -106,6 +106,8 @@ export type Phase =
   | 'confirm'
   | 'over-limit'
   | 'vented'
+  /** the re-target is held below the working limit at the cost of the composition: an explicit choice */
+  | 'capped'
   | 'below'
   | 'ended'
   | 'done'
@@ -211,6 +213,20 @@ export interface Venting {
   readonly after: string;
 }
 
+/** a re-target held below the working limit: what it costs, for the stop screen (phase 'capped') */
+export interface Capped {
+  /** the fill just read, and the next one */
+  readonly after: number;
+  readonly step: number;
+  /** the final pressure the limit allows, and the limit (absolute, Pa) */
+  readonly finalPa: number;
+  readonly limitPa: number;
+  /** the design species left outside the tolerance */
+  readonly outside: readonly string[];
+  /** the cost in words (final pressure, each mole fraction against the design) */
+  readonly cost: string;
+}
+
 export interface FillState {
   readonly setup: FillSetup;
   readonly phase: Phase;
@@ -237,6 +253,10 @@ export interface FillState {
   readonly overLimit?: OverLimit;
   /** in phase 'vented': the vent logged, the reading after it asked */
   readonly venting?: Venting;
+  /** in phase 'capped': the re-target held by the working limit, and its cost */
+  readonly capped?: Capped;
+  /** a capped re-target the operator went on with (logged): who, and the species it left outside */
+  readonly capAccepted?: { readonly by: string; readonly outside: readonly string[] };
   /** steps whose accepted danger has been shown again */
   readonly reminded: readonly number[];
   readonly start?: StartGas;
@@ -340,13 +360,14 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     start,
     message: done.length ? resumedText(setup, done.length) : undefined,
     reviewed: reviewMemoryOf(log),
+    capAccepted: capAcceptedOf(log),
   };
-  if (done.length || start?.read) {
-    const r = retargetRun(state, done, T);
-    state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
-  }
+  const r = done.length || start?.read ? retargetRun(state, done, T) : undefined;
+  if (r) state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
   const stopped = resumedAtStop(state, log);
   if (stopped) return stopped;
+  const capped = resumedCapped(state, log, r?.result, needsAck);
+  if (capped) return capped;
   if (done.length >= setup.steps.length)
     return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
   const entered = enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
@@ -421,6 +442,31 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
       );
   }
   return undefined;
+}
+
+/**
+ * a fill resumed after a reading whose re-target the working limit holds, with no choice logged for
+ * it (acknowledge "limit-cap" of the next fill): the stop screen comes back
+ */
+function resumedCapped(
+  state: FillState,
+  log: ParsedLog | undefined,
+  r: ReturnType<typeof retarget> | undefined,
+  needsAck: boolean,
+): FillState | undefined {
+  const next = state.setup.steps[state.done.length];
+  if (!r?.limitBinds || !log || log.closed || needsAck || !next || !state.done.length) return undefined;
+  if (r.nowPa >= (state.setup.workingLimitPa ?? Infinity)) return undefined;
+  if (log.acknowledgements.some((a) => a.code === LIMIT_CAP_CODE && a.step === next.index)) return undefined;
+  const deviations = deviationsOf(r.predicted.composition, state);
+  const acc = state.capAccepted;
+  if (acc && deviations.every((d) => d.within || acc.outside.includes(d.species))) return undefined;
+  return cappedScreen(
+    state,
+    r.predicted.pressurePa,
+    deviations,
+    gaugeUnit(state.setup.steps[state.done.length - 1]),
+  );
 }
 
 /** a fill stopped after its vent was logged: the reading after venting is asked (again) */
@@ -831,9 +877,7 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
     targetsPa: r.targets,
     targetTemperatureK: p.done.temperatureK,
     judgement,
-    message:
-      `${pressureText}; ${r.message}` +
-      (r.result.limitBinds ? limitCost(r.result.predicted.pressurePa, deviations, unit) : ''),
+    message: `${pressureText}; ${r.message}`,
   };
   if (r.result.limitBinds && r.result.nowPa >= (s.setup.workingLimitPa ?? Infinity)) {
     return {
@@ -851,7 +895,103 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
       ],
     };
   }
+  if (r.result.limitBinds) {
+    const cost = limitCost(r.result.predicted.pressurePa, deviations, unit);
+    const acc = next.capAccepted;
+    // asked again only when the cap leaves a species outside the tolerance that the choice did not
+    if (!acc || deviations.some((d) => !d.within && !acc.outside.includes(d.species)))
+      return cappedScreen(next, r.result.predicted.pressurePa, deviations, unit);
+    next = { ...next, message: `${next.message}. ${cost} (the capped targets: ${acc.by} went on with them)` };
+  }
   return reviewed(enterStep(next), 'reading');
+}
+
+/** the stop screen of a re-target held below the working limit: its cost, and go, undo or stop */
+function cappedScreen(
+  s: FillState,
+  finalPa: number,
+  deviations: readonly FractionDeviation[],
+  unit: PressureUnit,
+): FillState {
+  return {
+    ...s,
+    phase: 'capped',
+    input: '',
+    capped: {
+      after: s.setup.steps[s.current - 1].index,
+      step: s.setup.steps[s.current].index,
+      finalPa,
+      limitPa: s.setup.workingLimitPa!,
+      outside: deviations.filter((d) => !d.within).map((d) => d.species),
+      cost: limitCost(finalPa, deviations, unit),
+    },
+  };
+}
+
+/**
+ * Enter on the capped screen: `go INITIALS` (fill to the capped targets) or `stop INITIALS` (the
+ * batch stops here), each logged (acknowledge "limit-cap" with the cost); `undo INITIALS` takes back
+ * the reading (the reducer's undo)
+ */
+function onCappedEnter(s: FillState, now: string): FillState {
+  const c = s.capped!;
+  const text = s.input.trim();
+  const unit = gaugeUnit(s.setup.steps[s.current - 1]);
+  const m = /^(go|stop)\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      error:
+        'type one of: go INITIALS (fill to the capped targets), undo INITIALS (the reading was mistyped), ' +
+        'stop INITIALS (the batch stops here); every choice is logged. Ctrl-C stops without a choice',
+    };
+  const go = m[1].toLowerCase() === 'go';
+  const by = m[2];
+  const what =
+    `after fill ${c.after} the remaining fills are held below the working limit ${fmtIn(c.limitPa, unit)}: ` +
+    `the tank ends at ${fmtIn(c.finalPa, unit)}` +
+    (c.outside.length
+      ? `, ${c.outside.join(', ')} OUTSIDE the tolerance`
+      : ', the composition within the tolerance');
+  const ack: NewLogEvent = {
+    kind: 'acknowledge',
+    code: LIMIT_CAP_CODE,
+    step: c.step,
+    by,
+    time: now,
+    note: `${what}; ${go ? `${by} went on to the capped targets` : `${by} stopped the batch here`}`,
+    cap: { outcome: go ? 'continued' : 'stopped', final_Pa: c.finalPa, outside: [...c.outside] },
+  };
+  if (!go)
+    return {
+      ...s,
+      phase: 'ended',
+      capped: undefined,
+      input: '',
+      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} after fill ${c.after}: ${what}` }],
+      message: `stopped by ${by} after fill ${c.after} (logged): ${what}`,
+    };
+  const entered = enterStep({
+    ...s,
+    phase: 'reading',
+    capped: undefined,
+    capAccepted: { by, outside: c.outside },
+    input: '',
+    effects: [ack],
+    message: `${by} goes on to the capped targets (logged): ${what}`,
+  });
+  return reviewed(entered, 'reading');
+}
+
+/** the acknowledgement code of a choice on the capped screen */
+export const LIMIT_CAP_CODE = 'limit-cap';
+
+/** the last capped re-target the log says the operator went on with */
+function capAcceptedOf(log: ParsedLog | undefined): FillState['capAccepted'] {
+  const a = (log?.acknowledgements ?? [])
+    .filter((x) => x.code === LIMIT_CAP_CODE && x.cap?.outcome === 'continued')
+    .at(-1);
+  return a?.cap ? { by: a.by, outside: a.cap.outside } : undefined;
 }
 
 /** after the reading is plausible (or confirmed): the working limit */
@@ -965,12 +1105,10 @@ function limitCost(finalPa: number, deviations: readonly FractionDeviation[], un
     .join(', ');
   const outside = deviations.filter((d) => !d.within).length;
   return (
-    `. The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
+    `The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
     (outside
       ? ` - ${outside} mole fraction(s) OUTSIDE the tolerance`
-      : ' - the composition stays within the tolerance') +
-    `. Choices: go on to the final pressure the limit allows (fill to the targets shown), or stop here ` +
-    `(Ctrl-C: the log keeps every reading; vent or evacuate the tank, or resume later)`
+      : ' - the composition stays within the tolerance')
   );
 }
 
@@ -1312,6 +1450,7 @@ function onCommand(s: FillState, text: string, now: string): FillState | undefin
     const done = s.done.slice(0, -1);
     const next = rejudge({
       ...s,
+      capped: undefined,
       done,
       current: s.current - 1,
       input: '',
@@ -1536,6 +1675,12 @@ function onEscape(base: FillState): FillState {
         'the reading is logged; Esc does not take it back. Type vent INITIALS, accept INITIALS, ' +
         'or edit INITIALS (mistyped: withdrawn with a trace)',
     };
+  if (base.phase === 'capped')
+    return {
+      ...base,
+      error:
+        'the re-target held by the working limit stands: type go INITIALS, undo INITIALS or stop INITIALS',
+    };
   if (base.phase === 'vented')
     return {
       ...base,
@@ -1595,6 +1740,10 @@ function onEnter(base: FillState, now: string): FillState {
       return onOverLimitEnter(base, now);
     case 'vented':
       return onVentedEnter(base, now);
+    case 'capped':
+      return /^undo\b/i.test(base.input.trim())
+        ? (onCommand(base, base.input.trim(), now) ?? base)
+        : onCappedEnter(base, now);
     case 'reading':
       return onCommand(base, base.input.trim(), now) ?? onReadingEnter(base, now);
     case 'review':

@@ -376,4 +376,38 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       t.close();
     }
   }, 90000);
+
+  it('a re-target held by the working limit stops on its own screen with the cost; the choice is typed with initials and logged (stop)', async () => {
+    const { dir, t } = session('cap');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch cap --dir batches`));
+      await t.waitFor(/fill 1 of 3/);
+      await t.type('10.01');
+      await t.keys('Enter');
+      await t.waitFor(/fill 2 of 3/);
+      await t.type('2695');
+      await t.keys('Enter');
+      let s = flat(await t.waitFor(/THE WORKING LIMIT HOLDS THE FINAL/));
+      expect(s).toMatch(/The working limit costs: the tank ends at 2700\.12 Torr; x\(CH4\) 0\.370 %/);
+      expect(s).toMatch(/Capped targets: fill 3 O2: 2700\.1 Torr on head-10kT/);
+      expect(s).toMatch(/go INITIALS: fill to the capped targets/);
+      // a bare word is refused; nothing is logged
+      await t.type('go');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/type one of: go INITIALS/));
+      for (let i = 0; i < 2; i++) await t.keys('BSpace');
+      await t.type('stop JD');
+      await t.keys('Enter');
+      await t.waitFor(/STOPPED after fill 2 of 3/);
+      await t.keys('q');
+      expect(await exitStatus(t, 30000)).toBe(4);
+      const l = readLog(join(dir, 'batches', 'cap.jsonl'));
+      expect(l.acknowledgements).toMatchObject([
+        { code: 'limit-cap', step: 3, by: 'JD', cap: { outcome: 'stopped', outside: ['CH4', 'O2', 'Ar'] } },
+      ]);
+      expect(l.closed).toBe(true);
+    } finally {
+      t.close();
+    }
+  }, 90000);
 });
