@@ -595,8 +595,8 @@ function OverLimitScreen({ state }: ScreenProps) {
         {o.last
           ? 'vent INITIALS: you vent back (logged; then read the tank after venting: its reading is the ' +
             "batch's final pressure) "
-          : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there: ' +
-            'finish as a top-up) '}
+          : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there ' +
+            'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
         accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
         trace)
       </Text>

@@ -9,6 +9,10 @@
  * reading asks first. No ink, no files here: the component executes the effects.
  */
 import {
+  bMix,
+  cMix,
+  densityFromPressure,
+  virialModel,
   evaluateUncertainty,
   fail,
   gaugeReadingPa,
@@ -1384,6 +1388,7 @@ function onVentedEnter(s: FillState, now: string): FillState {
         `${read}. Venting keeps the composition: the re-check and the label below are of the readings, ` +
         `with the final pressure and amount read after venting`,
     };
+  const how = topUpHow(s, absolute, parsed.temperatureK, unit);
   return {
     ...base,
     phase: 'ended',
@@ -1392,16 +1397,67 @@ function onVentedEnter(s: FillState, now: string): FillState {
       {
         kind: 'close',
         time: now,
-        note:
-          `stopped after fill ${v.step}: ${read}; the readings give its composition; finish the design ` +
-          `as a top-up batch`,
+        note: `stopped after fill ${v.step}: ${read}; the readings give its composition. ${how}`,
       },
     ],
-    message:
-      `${read}. Venting keeps the composition, so this log's readings still give it; finish the design ` +
-      `as a top-up batch (in_tank: the composition of \`mixwright check\` of this log, at ` +
-      `${fmtIn(absolute, unit)}). From the vent target: ${v.after}.`,
+    message: `${read}. Venting keeps the composition, so this log's readings still give it. ${how}`,
   };
+}
+
+/**
+ * How to finish a batch stopped by a vent as a top-up, in words: the recipe lines of the top-up
+ * batch (in_tank: the tank's composition from the readings, at the pressure read after venting; the
+ * order of the fills left) and its command, and what its fills will be (each gas, to which reading, on
+ * which gauge), re-targeted from the vented tank (the amounts of the readings scaled by the vent:
+ * the virial density after venting over the density before, same composition)
+ */
+function topUpHow(s: FillState, ventedPa: number, temperatureK: number, unit: PressureUnit): string {
+  const rest = s.setup.steps.slice(s.current);
+  const order = `[${rest.map((x) => x.species).join(', ')}]`;
+  const before = s.done[s.done.length - 1];
+  let fills: string;
+  let now: Readonly<Record<string, number>> | undefined;
+  try {
+    now = retarget(retargetInput(s, s.done, before.temperatureK)).nowComposition;
+    const y = now;
+    const keys = Object.keys(y).filter((k) => y[k] > 0);
+    const rho = (p: number, t: number) => {
+      const m = virialModel(keys, t);
+      return densityFromPressure(p, t, bMix(m, y), cMix(m, y));
+    };
+    const f = Math.min(1, rho(ventedPa, temperatureK) / rho(before.pressurePa, before.temperatureK));
+    const r = retarget({ ...retargetInput(s, s.done, temperatureK), ventFactor: f });
+    fills =
+      ' Its fills should come to (re-targeted here from the tank as read after venting): ' +
+      r.remaining
+        .map((x) => {
+          const st = s.setup.steps[x.step - 1];
+          const u = gaugeUnit(st);
+          return (
+            `${fillName(st)} ${st.species} from ${st.source.id} to ${fmtIn(shownPa(s, st, x.targetPa), u)} ` +
+            `on ${st.gauge?.id ?? 'the gauge'}`
+          );
+        })
+        .join(', ') +
+      ` (${r.message}).`;
+  } catch (e) {
+    if (!(e instanceof ProblemError)) throw e;
+    fills = ` Its fills could not be re-targeted here (${describeProblem(e.problem)}); plan it first.`;
+  }
+  const comp = now
+    ? `{ ${Object.entries(now)
+        .filter(([, x]) => x > 0)
+        .map(([k, x]) => `${k}: ${Number(x.toPrecision(6))}`)
+        .join(', ')} }`
+    : '(the composition `mixwright check` gives for this log)';
+  return (
+    `Finish it as a top-up batch, in a new log: in a copy of this batch's recipe add ` +
+    `\`in_tank: { composition: ${comp}, pressure: ${fmtIn(ventedPa, unit)} }\` (the fills left: ` +
+    `${order}), check it with \`mixwright plan\` and fill it with \`mixwright fill\` (it reads the ` +
+    `starting pressure first).${fills} If \`plan\` refuses the copy (the tank holds more of a gas than ` +
+    `the design allows), the design cannot be reached from this tank: use it under a new design, or vent ` +
+    `or evacuate it.`
+  );
 }
 
 const INITIALS = /^(.*\S)\s+([A-Za-z]{1,6})$/;

@@ -278,7 +278,16 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(done.effects.map((e) => e.kind)).toEqual(['vent-reading', 'close']);
     expect(done.phase).toBe('ended');
     expect(done.message).toMatch(/1490\.50 Torr absolute\) after venting, logged by JD/);
-    expect(done.message).toMatch(/top-up/);
+    // how to finish as a top-up: the recipe lines, the command, and each fill (gas, reading, gauge)
+    expect(done.message).toMatch(
+      /in a copy of this batch's recipe add `in_tank: \{ composition: \{ CH4: 0\.00\d+, .*Ar: 0\.99\d+ \}, pressure: 1490\.50 Torr \}` \(the fills left: \[O2\]\), check it with `mixwright plan` and fill it with `mixwright fill`/,
+    );
+    expect(done.message).toMatch(
+      /Its fills should come to \(re-targeted here from the tank as read after venting\): fill 3 O2 from cyl-O2 to 1501\.12 Torr on head-10kT/,
+    );
+    expect(done.message).toMatch(/If `plan` refuses the copy .* the design cannot be reached from this tank/);
+    const close = done.effects[1] as { note?: string };
+    expect(close.note).toMatch(/in_tank: .*the fills left: \[O2\]/);
   });
 
   it('an Ar reading just under the limit: the O2 target stays at or under the limit and the screen says what gives', () => {
