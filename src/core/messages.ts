@@ -425,7 +425,10 @@ function describeLogFault(f: LogFault): string {
     case 'start-after-reading':
       return 'the starting pressure of a top-up is read before the first fill; this one comes after a reading';
     case 'unknown-event':
-      return `unknown event kind "${f.eventKind}"`;
+      return (
+        `unknown event kind "${f.eventKind}": this version of mixwright does not know it, so the log ` +
+        `is not checked (a newer version may have written it: update mixwright)`
+      );
     case 'empty':
       return 'the log is empty (it holds no complete line)';
     // raised by the batch log
@@ -437,6 +440,12 @@ function describeLogFault(f: LogFault): string {
             `a reading belongs to the charge it was read after, and is never taken for another charge`
         : `step ${f.step} names ${c(f.named)}, but the plan has no step ${f.step}`;
     }
+    case 'vent-order':
+      return f.what === 'reading-after-vent'
+        ? `a reading of fill ${f.step} follows the vent on line ${f.ventLine ?? '?'}: a fill after a vent ` +
+            `starts from the vented tank, which a batch log does not record; finish the design as a ` +
+            `top-up batch (a new log) instead`
+        : `a reading after venting (fill ${f.step}) with no "vent" line before it`;
   }
 }
 

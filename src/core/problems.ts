@@ -488,6 +488,14 @@ export type LogFault =
       readonly named: { readonly source: string; readonly number: number; readonly of: number };
       /** what the plan in the header has at that step, or null for a step it does not have */
       readonly planned: { readonly source: string; readonly number: number; readonly of: number } | null;
+    }
+  // raised by the batch log: a fill reading after a vent, or a reading after venting with no vent before it
+  | {
+      readonly kind: 'vent-order';
+      readonly what: 'reading-after-vent' | 'vent-reading-without-vent';
+      readonly step: number;
+      /** the line of the vent the reading follows */
+      readonly ventLine?: number;
     };
 
 /** a value as a message shows it: a number, a text (cut at 40 characters), or what kind of thing it is */

@@ -22,7 +22,16 @@
  *                                    reading logged, before the next fill; the step is read again
  *   {"kind":"acknowledge", ...}      an operator's acknowledgement of a danger finding; code
  *                                    "remainder-review" with review? {trigger, outcome, hazards,
- *                                    stop?}: the outcome of the review of the re-targeted remainder
+ *                                    stop?}: the outcome of the review of the re-targeted remainder;
+ *                                    code "limit-cap" with cap? {outcome, final_Pa, outside}: the
+ *                                    choice on a re-target held below the working limit
+ *   {"kind":"vent", ...}             the operator vents the tank back after a reading past the working
+ *                                    limit: step (the fill just read), target_Pa (the vent target
+ *                                    shown), by, time; the composition stays, the pressure does not
+ *   {"kind":"vent-reading", ...}     the tank read after venting, settled: step, gauge, reading,
+ *                                    pressure_Pa (absolute), barometer_Pa?, temperature,
+ *                                    temperature_K, by, time; the last one after a vent is the tank's
+ *                                    final pressure. No fill reading may follow a vent
  *   {"kind":"close", ...}            the batch is finished
  *
  * Every line carries "chain": the SHA-256 (hex) of the previous line's chain, a line feed,
@@ -283,6 +292,16 @@ const remainderReviewSchema = z.object({
     })
     .optional(),
 });
+/**
+ * the operator's choice on the stop screen of a re-target held below the working limit (code
+ * "limit-cap"): go on to the capped targets, or stop; the final pressure the cap allows and the
+ * design species it leaves outside the tolerance; absent on other acknowledgements and in older logs
+ */
+const capSchema = z.object({
+  outcome: z.enum(['continued', 'stopped']),
+  final_Pa: z.number().positive(),
+  outside: z.array(z.string()),
+});
 const ackSchema = z.object({
   kind: z.literal('acknowledge'),
   code: z.string(),
@@ -291,6 +310,32 @@ const ackSchema = z.object({
   time: z.string(),
   note: z.string().optional(),
   review: remainderReviewSchema.optional(),
+  cap: capSchema.optional(),
+  chain,
+});
+/** the operator vents the tank back (a reading past the working limit): what was chosen, by whom */
+const ventSchema = z.object({
+  kind: z.literal('vent'),
+  step: z.number().int().positive(),
+  target_Pa: z.number().positive().describe('the absolute pressure the tank is vented back to (at most)'),
+  by: initials,
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
+/** the tank read after venting, once settled: its final pressure (the composition is the readings') */
+const ventReadingSchema = z.object({
+  kind: z.literal('vent-reading'),
+  step: z.number().int().positive(),
+  gauge: z.string(),
+  reading: z.string().describe('as shown on the gauge, with its unit'),
+  pressure_Pa: z.number().positive().describe('absolute tank pressure after venting'),
+  barometer_Pa: z.number().positive().optional(),
+  temperature: z.string(),
+  temperature_K: z.number().positive(),
+  by: initials,
+  time: z.string(),
+  note: z.string().optional(),
   chain,
 });
 const closeSchema = z.object({
@@ -309,8 +354,18 @@ export type LogStartPressure = z.infer<typeof startSchema>;
 export type LogAck = z.infer<typeof ackSchema>;
 export type LogRemainderReview = z.infer<typeof remainderReviewSchema>;
 export type LogClose = z.infer<typeof closeSchema>;
+export type LogVent = z.infer<typeof ventSchema>;
+export type LogVentReading = z.infer<typeof ventReadingSchema>;
 export type LogEvent =
-  LogHeader | LogReading | LogWithdraw | LogBarometer | LogStartPressure | LogAck | LogClose;
+  | LogHeader
+  | LogReading
+  | LogWithdraw
+  | LogBarometer
+  | LogStartPressure
+  | LogAck
+  | LogClose
+  | LogVent
+  | LogVentReading;
 /** what a writer hands to append: any event but the header, without its chain (the writer adds it) */
 export type NewLogEvent = Exclude<LogEvent, LogHeader>;
 
@@ -483,6 +538,13 @@ export interface Amendment {
   readonly new: InForceReading | null;
 }
 
+/** a vent of the tank, with the readings of the tank after it (the last is its final pressure) */
+export interface VentRecord extends LogVent {
+  readonly line: number;
+  /** the readings after venting, in file order; empty: the pressure after venting was not logged */
+  readonly readings: readonly (LogVentReading & { readonly line: number })[];
+}
+
 export interface ParsedLog {
   readonly file: string;
   readonly header: LogHeader;
@@ -498,7 +560,11 @@ export interface ParsedLog {
   /** the starting pressure of a top-up, if logged */
   readonly start?: LogStartPressure & { readonly line: number };
   readonly acknowledgements: readonly LogAck[];
+  /** the vents of the tank, in file order (a guided fill logs at most one; older logs none) */
+  readonly vents: readonly VentRecord[];
   readonly closed: boolean;
+  /** the note of the close line, if any */
+  readonly closeNote?: string;
   readonly issues: readonly RecordIssue[];
   /** the issues of severity warning, as sentences (e.g. a torn last line) */
   readonly warnings: readonly string[];
@@ -533,9 +599,11 @@ interface ReaderState {
   all: InForceReading[];
   amendments: Amendment[];
   acks: LogAck[];
+  vents: { vent: LogVent & { line: number }; readings: (LogVentReading & { line: number })[] }[];
   barometer?: ParsedLog['barometer'];
   start?: ParsedLog['start'];
   closed: boolean;
+  closeNote?: string;
   issues: RecordIssue[];
   link: string;
   complete: number;
@@ -548,6 +616,7 @@ const emptyReader = (): ReaderState => ({
   all: [],
   amendments: [],
   acks: [],
+  vents: [],
   closed: false,
   issues: [],
   link: '',
@@ -561,6 +630,7 @@ const cloneReader = (st: ReaderState): ReaderState => ({
   all: [...st.all],
   amendments: [...st.amendments],
   acks: [...st.acks],
+  vents: st.vents.map((v) => ({ vent: v.vent, readings: [...v.readings] })),
   issues: [...st.issues],
 });
 
@@ -653,6 +723,14 @@ function readReading(st: ReaderState, rec: Record<string, unknown>, lineNo: numb
   const r = readingSchema.safeParse(rec);
   if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
   checkCharge(st, r.data, lineNo, file);
+  // a fill after a vent would start from the vented tank, which the re-check's readings cannot say
+  const vented = st.vents[st.vents.length - 1];
+  if (vented)
+    fault(
+      { kind: 'vent-order', what: 'reading-after-vent', step: r.data.step, ventLine: vented.vent.line },
+      file,
+      lineNo,
+    );
   if (st.byStep.has(r.data.step)) fault({ kind: 'second-reading', step: r.data.step }, file, lineNo);
   const x = { ...r.data, line: lineNo };
   st.byStep.set(x.step, x);
@@ -746,10 +824,24 @@ const EVENT_READERS: Readonly<Record<string, EventReader>> = {
     if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
     st.acks.push(a.data);
   },
+  vent(st, rec, lineNo, file) {
+    const v = ventSchema.safeParse(rec);
+    if (!v.success) bad(file, lineNo, 'vent', v.error.issues);
+    st.vents.push({ vent: { ...v.data, line: lineNo }, readings: [] });
+  },
+  'vent-reading'(st, rec, lineNo, file) {
+    const v = ventReadingSchema.safeParse(rec);
+    if (!v.success) bad(file, lineNo, 'reading after venting', v.error.issues);
+    const last = st.vents[st.vents.length - 1];
+    if (!last)
+      fault({ kind: 'vent-order', what: 'vent-reading-without-vent', step: v.data.step }, file, lineNo);
+    last.readings.push({ ...v.data, line: lineNo });
+  },
   close(st, rec, lineNo, file) {
     const c = closeSchema.safeParse(rec);
     if (!c.success) bad(file, lineNo, 'close', c.error.issues);
     st.closed = true;
+    st.closeNote = c.data.note;
   },
 };
 
@@ -768,7 +860,9 @@ function parsedOf(st: ReaderState, file: string): ParsedLog {
     barometer: st.barometer,
     start: st.start,
     acknowledgements: [...st.acks],
+    vents: st.vents.map((v) => ({ ...v.vent, readings: [...v.readings] })),
     closed: st.closed,
+    closeNote: st.closeNote,
     issues: [...st.issues],
     warnings,
     lines: st.complete,

@@ -40,6 +40,12 @@ export function verdictCaveats(findings: readonly LogFinding[], noun = 'logged r
       f.code === 'text-number-mismatch' ||
       (f.code === 'record' && (f.issue.code === 'line-edited' || f.issue.code === 'line-unhashed')),
   );
+  const unread = findings.find((f) => f.code === 'vent-not-read');
+  if (unread)
+    out.push(
+      `the tank was vented after fill ${unread.step ?? '?'} and its pressure after venting was NOT read: ` +
+        `the composition is checked (venting keeps it), the final pressure and amount are not known`,
+    );
   if (edited.length)
     out.push(
       `the record was changed after it was written (${edited.length} line${edited.length === 1 ? '' : 's'}, ` +

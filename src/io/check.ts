@@ -4,8 +4,12 @@
  */
 import { evaluateUncertaintyParallel } from './parallel-mc.js';
 import {
+  bMix,
+  cMix,
+  densityFromPressure,
   describeFinding,
   fail,
+  virialModel,
   judge,
   ProblemError,
   recheckModelInput,
@@ -25,7 +29,7 @@ import {
   type LogHeader,
   type ParsedLog,
 } from './batch-log.js';
-import { auditLog, describeLogFinding } from './log-audit.js';
+import { auditLog, describeLogFinding, ventOf } from './log-audit.js';
 import type { PlanRequest } from './load.js';
 import { chargeNumbers, TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
@@ -36,6 +40,7 @@ import {
   type CheckOptions,
   type CheckReport,
 } from './check-shared.js';
+import type { VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
 import { premixLogReport, premixLogsOf } from './premix-check.js';
 import { dirname, relative, resolve } from 'node:path';
@@ -198,16 +203,22 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
     );
   for (const a of log.acknowledgements)
     warnings.push(
-      a.review
-        ? // the guided fill's review of its re-targeted remainder: what it found and what was chosen
-          `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
+      a.cap
+        ? // the guided fill's stop screen of a re-target held below the working limit: the cost and the choice
+          `before fill ${a.step ?? '?'} the re-target was held below the working limit (final ` +
+            `${(a.cap.final_Pa / TORR_PA).toFixed(2)} Torr` +
+            `${a.cap.outside.length ? `, ${a.cap.outside.join(', ')} outside the tolerance` : ''}): ${a.by} at ` +
+            `${a.time} ${a.cap.outcome === 'continued' ? 'went on to the capped targets' : 'stopped the batch there'}`
+        : a.review
+          ? // the guided fill's review of its re-targeted remainder: what it found and what was chosen
+            `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
             `${a.review.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, ` +
             `which the plan did not have; ${a.by} at ${a.time}: ` +
             (a.review.stop
               ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
                 `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
               : 'went on through it (accepted)')
-        : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
+          : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
   if (workingLimitOf(h) === undefined)
     warnings.push(
@@ -355,6 +366,68 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
     caveats: verdictCaveats(findings),
     record: { alteredLines: alteredLinesOf(log), closed: log.closed },
     premixLogs: premix.map(premixLogReport),
+    vent: ventReport(
+      log,
+      Object.fromEntries(Object.entries(result.composition).map(([k, st]) => [k, st.value])),
+    ),
+  };
+}
+
+/**
+ * The amount of gas in the tank (mol): the tank volume times the density of the composition at P and T
+ * (the virial equation the re-check inverts; V from the log's header). Undefined where the model
+ * refuses (a temperature outside its range).
+ */
+function amountIn(
+  volumeM3: number,
+  y: Readonly<Record<string, number>>,
+  pressurePa: number,
+  temperatureK: number,
+) {
+  try {
+    const keys = Object.keys(y).filter((k) => y[k] > 0);
+    const sum = keys.reduce((a, k) => a + y[k], 0);
+    const yn = Object.fromEntries(keys.map((k) => [k, y[k] / sum]));
+    const model = virialModel(keys, temperatureK);
+    return volumeM3 * densityFromPressure(pressurePa, temperatureK, bMix(model, yn), cMix(model, yn));
+  } catch (e) {
+    if (e instanceof ProblemError) return undefined;
+    throw e;
+  }
+}
+
+/**
+ * A vent after the last reading: the tank before it (the last reading in force) and as read after it,
+ * each with its amount; the composition is the re-check's (venting lets out gas of the tank's own
+ * composition)
+ */
+function ventReport(log: ParsedLog, composition: Readonly<Record<string, number>>): VentRecordOf | undefined {
+  const v = ventOf(log);
+  const last = log.readings[log.readings.length - 1];
+  if (!v || !last) return undefined;
+  const V = log.header.tank.volume_m3;
+  const a = v.after;
+  return {
+    step: v.step,
+    line: v.line,
+    by: v.by,
+    time: v.time,
+    targetPa: v.targetPa,
+    before: {
+      pressurePa: last.pressure_Pa,
+      temperatureK: last.temperature_K,
+      amountMol: amountIn(V, composition, last.pressure_Pa, last.temperature_K),
+    },
+    after: a && {
+      pressurePa: a.pressure_Pa,
+      temperatureK: a.temperature_K,
+      text: a.reading,
+      gauge: a.gauge,
+      by: a.by,
+      time: a.time,
+      line: a.line,
+      amountMol: amountIn(V, composition, a.pressure_Pa, a.temperature_K),
+    },
   };
 }
 

@@ -2,8 +2,8 @@
  * The audit of a batch log as a record, beside the chemistry of the re-check: readings past
  * the tank's working limit or past their gauge's range (danger), lines changed after they
  * were written (the hash chain), typed text that disagrees with the number logged beside it,
- * torn last lines set aside, a top-up whose starting pressure was never read. Findings are
- * data, worded once in describeLogFinding.
+ * torn last lines set aside, a top-up whose starting pressure was never read, a vent whose
+ * pressure after venting was never read. Findings are data, worded once in describeLogFinding.
  */
 import { ProblemError } from '../core/index.js';
 import {
@@ -12,6 +12,7 @@ import {
   tornSideFiles,
   workingLimitOf,
   type InForceReading,
+  type LogVentReading,
   type ParsedLog,
   type RecordIssue,
 } from './batch-log.js';
@@ -87,6 +88,16 @@ export type LogFinding =
       readonly line: null;
       readonly plannedPa: number;
       readonly unit: PressureUnit;
+    }
+  | {
+      readonly code: 'vent-not-read';
+      readonly severity: LogFindingSeverity;
+      readonly step: number;
+      /** the vent's line; null when only an older log's close note records the vent */
+      readonly line: number | null;
+      /** the reading before venting (absolute) */
+      readonly beforePa: number;
+      readonly unit: PressureUnit;
     };
 
 const show = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
@@ -145,6 +156,15 @@ export function describeLogFinding(f: LogFinding): string {
         `this is a top-up, but the log holds no reading of the starting pressure; ` +
         `the re-check assumes the planned ${show(f.plannedPa, f.unit)} already in the tank`
       );
+    case 'vent-not-read':
+      return (
+        (f.line === null
+          ? `the close note says the tank was vented after fill ${f.step}`
+          : `${at}the tank was vented`) +
+        `, but its pressure after venting was not read and logged: the tank's final pressure and amount ` +
+        `are NOT known (${show(f.beforePa, f.unit)} absolute was read before venting; venting keeps the ` +
+        `composition, which is checked). Read the tank now and write it on the label by hand`
+      );
   }
 }
 
@@ -196,13 +216,51 @@ function contextOf(log: ParsedLog): AuditContext {
   };
 }
 
+/** what an older guided fill wrote in its close note when the operator vented (no vent line then) */
+const OLDER_VENT_NOTE =
+  /(?:^|\s)fill (\d+)\b.*(?:the operator chose to vent back|the tank is vented back to)/;
+
+/** the vent that stands after the last reading, and the tank as read after it (its last reading after venting) */
+export interface LogVentOf {
+  readonly step: number;
+  readonly line: number | null;
+  readonly by?: string;
+  readonly time?: string;
+  readonly targetPa?: number;
+  readonly after?: LogVentReading & { readonly line: number };
+}
+
+/**
+ * The vent of a log: its last vent line (a fill reading never follows one: the reader refuses it),
+ * with the last reading after it; for an older log without vent lines, a close note that says the
+ * operator vented (then nothing after venting was read).
+ */
+export function ventOf(log: ParsedLog): LogVentOf | undefined {
+  const v = log.vents[log.vents.length - 1];
+  if (v)
+    return {
+      step: v.step,
+      line: v.line,
+      by: v.by,
+      time: v.time,
+      targetPa: v.target_Pa,
+      after: v.readings.at(-1),
+    };
+  const m = log.closeNote !== undefined ? OLDER_VENT_NOTE.exec(log.closeNote) : null;
+  return m ? { step: Number(m[1]), line: null } : undefined;
+}
+
 export function auditLog(log: ParsedLog): LogFinding[] {
   const h = log.header;
   const cx = contextOf(log);
   const inForce = new Set(log.readings.map((r) => r.line));
+  const vent = ventOf(log);
+  // the readings after venting are checked as any reading (limits, typed text); only the last stands
+  const afterVent = log.vents.flatMap((v) => v.readings);
   const logged: Logged[] = [
     ...(log.start ? [{ ...log.start, step: null, replaced: false }] : []),
     ...log.allReadings.map((r) => ({ ...r, replaced: !inForce.has(r.line) })),
+    ...afterVent.map((r) => ({ ...r, replaced: r.line !== vent?.after?.line })),
   ];
   const out: LogFinding[] = [
     ...logged.flatMap((r) => [...pastLimits(cx, r), ...typedTextOf(cx, r)]),
@@ -226,6 +284,16 @@ export function auditLog(log: ParsedLog): LogFinding[] {
       line: null,
       plannedPa: h.in_tank.pressure_Pa,
       unit: cx.unitOf(h.steps[0]?.gauge ?? ''),
+    });
+  const last = log.readings[log.readings.length - 1];
+  if (vent && !vent.after && last)
+    out.push({
+      code: 'vent-not-read',
+      severity: 'warning',
+      step: vent.step,
+      line: vent.line,
+      beforePa: last.pressure_Pa,
+      unit: cx.unitOf(last.gauge),
     });
   return out.sort(
     (a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] || (a.line ?? 0) - (b.line ?? 0),

@@ -58,12 +58,46 @@ function startLines(r: CheckReport): string[] {
       `Barometer   ${r.barometer.text} logged by ${r.barometer.by} at ${r.barometer.time}; ` +
         `used for the gauge-referenced readings`,
     );
+  out.push(...ventLines(r));
   if (out.length) out.push('');
   if (r.amendments.length) {
     out.push('Corrections and withdrawals (applied to the readings above; the originals stay in the log)');
     for (const a of r.amendments) out.push(`  ${amendmentText(a)}`);
     out.push('');
   }
+  return out;
+}
+
+const molText = (n: number | undefined) =>
+  n === undefined ? 'amount not computed' : `${fixedSig(n, 5)} mol`;
+
+/**
+ * a vent after the last reading: the tank before and as read after it (pressure, temperature,
+ * amount); the composition below is the readings' (venting keeps it); a vent not read says so
+ */
+function ventLines(r: CheckReport): string[] {
+  const v = r.vent;
+  if (!v) return [];
+  const last = r.readings[r.readings.length - 1];
+  const u = last && isPressureUnit(last.gauge.unit) ? last.gauge.unit : unitOfReport(r);
+  const p = (pa: number) => `${fixedSig(fromPa(pa, u), 7)} ${u}`;
+  const t = (k: number) => `${(k - 273.15).toFixed(2)} degC`;
+  const who =
+    v.line === null ? '(an older log: its close note says so)' : `by ${v.by} at ${v.time} (line ${v.line})`;
+  const out = [
+    `Vented      after fill ${v.step} ${who}` +
+      (v.targetPa !== undefined ? `, to at most ${p(v.targetPa)}` : '') +
+      `; before venting ${p(v.before.pressurePa)} at ${t(v.before.temperatureK)}, ${molText(v.before.amountMol)}`,
+  ];
+  const a = v.after;
+  out.push(
+    a
+      ? `            after venting: ${a.text} on ${a.gauge} = ${p(a.pressurePa)} at ${t(a.temperatureK)}, ` +
+          `read by ${a.by} at ${a.time} (line ${a.line}): the tank's final pressure; it holds ` +
+          `${molText(a.amountMol)}. The composition below is the readings' (venting keeps it)`
+      : `            after venting: NOT READ - the final pressure and amount are NOT known; the composition ` +
+          `below is the readings' (venting keeps it)`,
+  );
   return out;
 }
 
@@ -289,6 +323,37 @@ function statJson(st: OutputStat) {
   };
 }
 
+/** the vent after the last reading, with the tank before and after it (after: null when it was not read) */
+function ventJson(r: CheckReport) {
+  return r.vent
+    ? {
+        step: r.vent.step,
+        line: r.vent.line,
+        by: r.vent.by ?? null,
+        time: r.vent.time ?? null,
+        target_Pa: r.vent.targetPa ?? null,
+        before: {
+          pressure_Pa: r.vent.before.pressurePa,
+          temperature_K: r.vent.before.temperatureK,
+          amount_mol: r.vent.before.amountMol ?? null,
+        },
+        // null: the pressure after venting was not read, so the final pressure and amount are not known
+        after: r.vent.after
+          ? {
+              reading: r.vent.after.text,
+              gauge: r.vent.after.gauge,
+              pressure_Pa: r.vent.after.pressurePa,
+              temperature_K: r.vent.after.temperatureK,
+              amount_mol: r.vent.after.amountMol ?? null,
+              by: r.vent.after.by,
+              time: r.vent.after.time,
+              line: r.vent.after.line,
+            }
+          : null,
+      }
+    : null;
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -382,6 +447,7 @@ export function checkToJson(r: CheckReport, version: string): object {
           time: r.start.time ?? null,
         }
       : null,
+    vent: ventJson(r),
     trials: r.result.trials,
     seed: r.result.seed,
   };

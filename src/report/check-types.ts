@@ -108,6 +108,12 @@ export interface CheckReportOf<F extends RecordFinding> {
    * A verdict from an altered record is on the numbers as they stand, never a bare pass.
    */
   readonly record?: { readonly alteredLines: readonly number[]; readonly closed: boolean };
+  /**
+   * the tank vented back after the last reading (a log with a vent line, or an older log whose close
+   * note says so): venting keeps the composition above, but the tank's final pressure and amount are
+   * those read after venting; without such a reading they are not known
+   */
+  readonly vent?: VentRecordOf;
   /** the premix logs the batch drew from, each re-checked (absent or empty: none) */
   readonly premixLogs?: readonly {
     /** as the batch log (or --premix-log) names it */
@@ -120,6 +126,37 @@ export interface CheckReportOf<F extends RecordFinding> {
     /** re-checked mole fractions and standard uncertainties */
     readonly composition: Readonly<Record<string, { readonly value: number; readonly u: number }>>;
   }[];
+}
+
+/** a vent of the tank after its last reading, and the tank as read after it */
+export interface VentRecordOf {
+  /** the fill after whose reading the tank was vented */
+  readonly step: number;
+  /** the vent's log line (null: only an older log's close note says so) */
+  readonly line: number | null;
+  readonly by?: string;
+  readonly time?: string;
+  /** the vent target shown at the manifold, absolute, Pa */
+  readonly targetPa?: number;
+  /** the tank before venting: the last reading in force */
+  readonly before: {
+    readonly pressurePa: number;
+    readonly temperatureK: number;
+    readonly amountMol?: number;
+  };
+  /** the tank read after venting (the last such reading); absent: the pressure after venting was not read */
+  readonly after?: {
+    readonly pressurePa: number;
+    readonly temperatureK: number;
+    /** as shown on the gauge, with its unit */
+    readonly text: string;
+    readonly gauge: string;
+    readonly by: string;
+    readonly time: string;
+    readonly line: number;
+    /** the amount in the tank (tank volume x the virial density of the composition at P, T) */
+    readonly amountMol?: number;
+  };
 }
 
 export type CheckReport = CheckReportOf<RecordFinding>;

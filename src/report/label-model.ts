@@ -142,9 +142,11 @@ function hazardLine(r: CheckReport, log?: LogView): string {
   const y: Record<string, number> = {};
   for (const [k, st] of Object.entries(r.result.composition)) y[k] = st.value;
   const last = r.readings[r.readings.length - 1];
+  // the tank as it stands: after venting where it was read then
+  const at = r.vent?.after ?? last;
   let verdict: string;
   try {
-    verdict = assessFlammability(y, last.temperatureK, last.pressurePa).verdict;
+    verdict = assessFlammability(y, at.temperatureK, at.pressurePa).verdict;
   } catch {
     verdict = 'unknown';
   }
@@ -153,6 +155,25 @@ function hazardLine(r: CheckReport, log?: LogView): string {
   if (verdict === 'near-limit') return 'NEAR THE FLAMMABLE LIMIT - handle as flammable';
   if (verdict === 'unknown') return 'flammability not assessed - see the findings before use';
   return 'see the findings and supplier safety data before use';
+}
+
+/**
+ * the tank's final pressure and temperature: its last reading, or after a vent the reading after
+ * venting; a vent not read after says so (never the pressure before venting as the final one)
+ */
+function finalState(r: CheckReport, unit: PressureUnit, dec: number) {
+  const last = r.readings[r.readings.length - 1];
+  const p = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit}`;
+  const v = r.vent;
+  const at = v?.after ?? last;
+  return {
+    finalPressure: !v
+      ? `${p(last.pressurePa)} absolute`
+      : v.after
+        ? `${p(v.after.pressurePa)} absolute after venting`
+        : `PRESSURE NOT READ after venting (${p(last.pressurePa)} absolute before venting)`,
+    finalTemperature: `${(at.temperatureK - 273.15).toFixed(1)} degC`,
+  };
 }
 
 export function labelModel(r: CheckReport, log?: LogView): LabelModel {
@@ -185,8 +206,7 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
     composition,
     phi: phi ? withU(phi.value, 2 * phi.u) : undefined,
     dilution: dil ? withU(dil.value * PCT, 2 * dil.u * PCT, '%') : undefined,
-    finalPressure: `${fromPa(last.pressurePa, unit).toFixed(dec)} ${unit} absolute`,
-    finalTemperature: `${(last.temperatureK - 273.15).toFixed(1)} degC`,
+    ...finalState(r, unit, dec),
     hazard: hazardLine(r, log),
     danger,
     caveats: r.caveats,

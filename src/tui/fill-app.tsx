@@ -6,6 +6,7 @@ import { useEffect, useState } from 'react';
 import { Box, Text, useApp, useInput } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
+  atMostOnGauge,
   fillReducer,
   shownPa,
   type CompositionJudgement,
@@ -134,6 +135,8 @@ export function FillApp({
       app.exit();
       return;
     }
+    // another Ctrl key (Ctrl-U, Ctrl-A...) is no text: ink hands over its letter, which must not be typed
+    if (key.ctrl) return;
     const ph = current().phase;
     if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
       app.exit();
@@ -255,6 +258,8 @@ function FillScreen({
   if (state.phase === 'confirm' && state.pending) return <ConfirmScreen state={state} />;
   if (state.phase === 'over-limit' && state.pending && state.overLimit)
     return <OverLimitScreen state={state} />;
+  if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
+  if (state.phase === 'capped' && state.capped) return <CappedScreen state={state} />;
   return <ReadingScreen state={state} />;
 }
 
@@ -553,7 +558,7 @@ function ConfirmScreen({ state }: ScreenProps) {
 function OverLimitScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
-  const { step, unit, dec, onGauge, absText } = stepView(state);
+  const { step, unit, dec, absText } = stepView(state);
   const o = state.overLimit!;
   const pending = state.pending!;
   const p = pending.done.pressurePa;
@@ -576,8 +581,8 @@ function OverLimitScreen({ state }: ScreenProps) {
       </Text>
       <Text wrap="wrap">
         Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
-        {step.gauge?.id ?? 'the gauge'}: {onGauge(o.ventToPa)}): {o.why}. {o.last ? '' : 'From there: '}
-        {o.after}.
+        {step.gauge?.id ?? 'the gauge'}: at most {atMostOnGauge(state, step, o.ventToPa)}): {o.why}.{' '}
+        {o.last ? o.after.charAt(0).toUpperCase() + o.after.slice(1) : `From there: ${o.after}`}.
       </Text>
       <Text bold wrap="wrap">
         {o.within
@@ -588,13 +593,97 @@ function OverLimitScreen({ state }: ScreenProps) {
       <Text> </Text>
       <Text wrap="wrap">
         {o.last
-          ? 'vent: you vent back (the batch closes with this reading; read the tank after venting) '
-          : 'vent: you vent back (the fill stops here; finish as a top-up) '}
+          ? 'vent INITIALS: you vent back (logged; then read the tank after venting: its reading is the ' +
+            "batch's final pressure) "
+          : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there ' +
+            'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
         accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
         trace)
       </Text>
       <Prompt state={state} />
       <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/**
+ * the re-target held below the working limit at the cost of the composition: what it costs, the
+ * targets it gives, and an explicit choice (go, undo, stop), logged with initials
+ */
+function CappedScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const c = state.capped!;
+  const K = state.setup.steps.length;
+  const ahead = state.setup.steps.slice(state.current).map((st, i) => {
+    const u = unitOf(st);
+    const dec = st.gauge ? decimalsFor(fromPa(st.gauge.resolutionPa, u)) : 3;
+    const t = state.targetsPa[state.current + i];
+    const shown = fromPa(shownPa(state, st, t), u).toFixed(dec);
+    return `fill ${st.index} ${st.species}: ${shown} ${u} on ${st.gauge?.id ?? 'no gauge'}`;
+  });
+  return (
+    <Box flexDirection="column">
+      <Text bold wrap="wrap">
+        mixwright fill {h.id} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
+        {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
+      </Text>
+      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      <Text bold wrap="wrap">
+        {c.cost}.
+      </Text>
+      <Text wrap="wrap">Capped targets: {ahead.join('; ')}.</Text>
+      <Text> </Text>
+      <Text wrap="wrap">
+        go INITIALS: fill to the capped targets (the tank ends at{' '}
+        {fromPa(c.finalPa, unitOf(state.setup.steps[state.current])).toFixed(1)}{' '}
+        {unitOf(state.setup.steps[state.current])}
+        {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
+        INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/** after `vent INITIALS`: vent back, let the tank settle, read it; the reading is logged as the tank's pressure */
+function VentedScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const v = state.venting!;
+  const step = state.setup.steps.find((x) => x.index === v.step)!;
+  const unit = unitOf(step);
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
+  const shown = (pa: number) => `${fromPa(shownPa(state, step, pa), unit).toFixed(dec)} ${unit}`;
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank
+        after venting
+      </Text>
+      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <Box borderStyle="single" paddingX={2} flexDirection="column">
+        <Text bold>
+          VENT TO AT MOST {atMostOnGauge(state, step, v.targetPa)} on {step.gauge?.id ?? 'the gauge'}
+        </Text>
+        <Text>
+          read before venting: {shown(v.beforePa)}; working limit {shown(v.limitPa)}
+        </Text>
+      </Box>
+      <Text wrap="wrap">
+        Close the vent valve, let the tank settle (pressure and temperature steady), then type the reading on{' '}
+        {step.gauge?.id ?? 'the gauge'} and your initials (e.g. 1490.2 AB); Tab: the tank temperature. It is
+        logged as the tank&apos;s pressure after venting{v.last ? ": the batch's final pressure" : ''}.
+        Venting keeps the composition.
+      </Text>
+      <ReadingFields
+        state={state}
+        reading={`reading after venting [${unit}] and initials`}
+        temperature="tank temperature"
+      />
+      <ErrorLine state={state} />
+      <Text>
+        Enter: log the reading Tab: temp Ctrl-C: stop (the vent stays logged; resume asks for the reading)
+      </Text>
     </Box>
   );
 }

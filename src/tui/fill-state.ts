@@ -9,6 +9,10 @@
  * reading asks first. No ink, no files here: the component executes the effects.
  */
 import {
+  bMix,
+  cMix,
+  densityFromPressure,
+  virialModel,
   evaluateUncertainty,
   fail,
   gaugeReadingPa,
@@ -25,7 +29,7 @@ import {
   type RetargetInput,
   type UncertaintyResult,
 } from '../core/index.js';
-import { fixedSig } from '../report/format.js';
+import { decimalsFor, fixedSig } from '../report/format.js';
 import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
 import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
@@ -92,8 +96,9 @@ export interface FillSetup {
  * barometer: today's barometric pressure; start: a top-up's starting pressure, read and logged;
  * correct: a new value for an earlier reading; acknowledge: danger findings of the plan; reminder: the
  * accepted danger of this fill, again; reading: the step; confirm: an implausible reading, asked
- * first; over-limit: a reading past the working limit (already logged); below: the last fill's reading
- * (logged) is below its band, more gas may be added; ended: stopped before the last fill; done.
+ * first; over-limit: a reading past the working limit (already logged); vented: the operator vents
+ * back (logged), the reading after venting is asked; below: the last fill's reading (logged) is below
+ * its band, more gas may be added; ended: stopped before the last fill; done.
  */
 export type Phase =
   | 'barometer'
@@ -104,6 +109,9 @@ export type Phase =
   | 'correct'
   | 'confirm'
   | 'over-limit'
+  | 'vented'
+  /** the re-target is held below the working limit at the cost of the composition: an explicit choice */
+  | 'capped'
   | 'below'
   | 'ended'
   | 'done'
@@ -194,6 +202,35 @@ export interface OverLimit {
   readonly outside: readonly string[];
 }
 
+/** a vent chosen on the danger screen (logged): the reading after venting is asked next */
+export interface Venting {
+  /** the fill whose reading went past the limit */
+  readonly step: number;
+  /** the vent target shown (absolute, Pa) and the reading before venting */
+  readonly targetPa: number;
+  readonly beforePa: number;
+  readonly limitPa: number;
+  readonly by: string;
+  /** no fill follows (the last fill's reading was vented) */
+  readonly last: boolean;
+  /** what the remaining fills become from the vent target (not the last fill) */
+  readonly after: string;
+}
+
+/** a re-target held below the working limit: what it costs, for the stop screen (phase 'capped') */
+export interface Capped {
+  /** the fill just read, and the next one */
+  readonly after: number;
+  readonly step: number;
+  /** the final pressure the limit allows, and the limit (absolute, Pa) */
+  readonly finalPa: number;
+  readonly limitPa: number;
+  /** the design species left outside the tolerance */
+  readonly outside: readonly string[];
+  /** the cost in words (final pressure, each mole fraction against the design) */
+  readonly cost: string;
+}
+
 export interface FillState {
   readonly setup: FillSetup;
   readonly phase: Phase;
@@ -218,6 +255,12 @@ export interface FillState {
   readonly judgement?: CompositionJudgement;
   readonly pending?: Pending;
   readonly overLimit?: OverLimit;
+  /** in phase 'vented': the vent logged, the reading after it asked */
+  readonly venting?: Venting;
+  /** in phase 'capped': the re-target held by the working limit, and its cost */
+  readonly capped?: Capped;
+  /** a capped re-target the operator went on with (logged): who, and the species it left outside */
+  readonly capAccepted?: { readonly by: string; readonly outside: readonly string[] };
   /** steps whose accepted danger has been shown again */
   readonly reminded: readonly number[];
   readonly start?: StartGas;
@@ -321,13 +364,14 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     start,
     message: done.length ? resumedText(setup, done.length) : undefined,
     reviewed: reviewMemoryOf(log),
+    capAccepted: capAcceptedOf(log),
   };
-  if (done.length || start?.read) {
-    const r = retargetRun(state, done, T);
-    state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
-  }
+  const r = done.length || start?.read ? retargetRun(state, done, T) : undefined;
+  if (r) state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
   const stopped = resumedAtStop(state, log);
   if (stopped) return stopped;
+  const capped = resumedCapped(state, log, r?.result, needsAck);
+  if (capped) return capped;
   if (done.length >= setup.steps.length)
     return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
   const entered = enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
@@ -352,6 +396,8 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
   const { setup, done } = state;
   const limit = setup.workingLimitPa;
   const lastRead = log?.readings[log.readings.length - 1];
+  const vent = log?.vents[log.vents.length - 1];
+  if (vent && lastRead && !log?.closed) return resumedVenting(state, vent, lastRead);
   if (
     lastRead &&
     !log?.closed &&
@@ -400,6 +446,65 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
       );
   }
   return undefined;
+}
+
+/**
+ * a fill resumed after a reading whose re-target the working limit holds, with no choice logged for
+ * it (acknowledge "limit-cap" of the next fill): the stop screen comes back
+ */
+function resumedCapped(
+  state: FillState,
+  log: ParsedLog | undefined,
+  r: ReturnType<typeof retarget> | undefined,
+  needsAck: boolean,
+): FillState | undefined {
+  const next = state.setup.steps[state.done.length];
+  if (!r?.limitBinds || !log || log.closed || needsAck || !next || !state.done.length) return undefined;
+  if (r.nowPa >= (state.setup.workingLimitPa ?? Infinity)) return undefined;
+  if (log.acknowledgements.some((a) => a.code === LIMIT_CAP_CODE && a.step === next.index)) return undefined;
+  const deviations = deviationsOf(r.predicted.composition, state);
+  const acc = state.capAccepted;
+  if (acc && deviations.every((d) => d.within || acc.outside.includes(d.species))) return undefined;
+  return cappedScreen(
+    state,
+    r.predicted.pressurePa,
+    deviations,
+    gaugeUnit(state.setup.steps[state.done.length - 1]),
+  );
+}
+
+/** a fill stopped after its vent was logged: the reading after venting is asked (again) */
+function resumedVenting(
+  state: FillState,
+  vent: ParsedLog['vents'][number],
+  lastRead: ParsedLog['readings'][number],
+): FillState {
+  const limit = state.setup.workingLimitPa ?? Infinity;
+  const step =
+    state.setup.steps.find((x) => x.index === vent.step) ?? state.setup.steps[state.done.length - 1];
+  const unit = gaugeUnit(step);
+  const read = vent.readings.at(-1);
+  return {
+    ...state,
+    phase: 'vented',
+    input: '',
+    field: 'reading',
+    venting: {
+      step: vent.step,
+      targetPa: vent.target_Pa,
+      beforePa: lastRead.pressure_Pa,
+      limitPa: limit,
+      by: vent.by,
+      last: state.done.length >= state.setup.steps.length,
+      after: '',
+    },
+    message:
+      `resumed: the vent after fill ${vent.step} is logged (line ${vent.line}, by ${vent.by})` +
+      (read
+        ? `; read after venting: ${read.reading} (${fmtIn(read.pressure_Pa, unit)} absolute, still above ` +
+          `the working limit). Vent more, let it settle and read again`
+        : `; the pressure after venting is not logged yet. Read the tank now`),
+  };
 }
 
 /** the phase a step opens with: today's barometer first, then the acknowledgement, then this fill's own danger */
@@ -471,6 +576,18 @@ const REVIEW_HOOKS: ReviewHooks = {
 
 function gaugeUnit(step: FillStep): PressureUnit {
   return step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr';
+}
+
+/**
+ * a vent target as the operator reads it on the step's gauge: rounded DOWN to the gauge's display
+ * resolution (an upper bound shown rounded up would let the tank stay above it), with the unit
+ */
+export function atMostOnGauge(s: FillState, step: FillStep, absolutePa: number): string {
+  const unit = gaugeUnit(step);
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
+  const f = 10 ** dec;
+  const v = fromPa(shownPa(s, step, absolutePa), unit);
+  return `${(Math.floor(v * f * (1 + 1e-12)) / f).toFixed(dec)} ${unit}`;
 }
 
 /** what the operator should read on the gauge for an absolute tank pressure */
@@ -764,9 +881,7 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
     targetsPa: r.targets,
     targetTemperatureK: p.done.temperatureK,
     judgement,
-    message:
-      `${pressureText}; ${r.message}` +
-      (r.result.limitBinds ? limitCost(r.result.predicted.pressurePa, deviations, unit) : ''),
+    message: `${pressureText}; ${r.message}`,
   };
   if (r.result.limitBinds && r.result.nowPa >= (s.setup.workingLimitPa ?? Infinity)) {
     return {
@@ -784,7 +899,103 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
       ],
     };
   }
+  if (r.result.limitBinds) {
+    const cost = limitCost(r.result.predicted.pressurePa, deviations, unit);
+    const acc = next.capAccepted;
+    // asked again only when the cap leaves a species outside the tolerance that the choice did not
+    if (!acc || deviations.some((d) => !d.within && !acc.outside.includes(d.species)))
+      return cappedScreen(next, r.result.predicted.pressurePa, deviations, unit);
+    next = { ...next, message: `${next.message}. ${cost} (the capped targets: ${acc.by} went on with them)` };
+  }
   return reviewed(enterStep(next), 'reading');
+}
+
+/** the stop screen of a re-target held below the working limit: its cost, and go, undo or stop */
+function cappedScreen(
+  s: FillState,
+  finalPa: number,
+  deviations: readonly FractionDeviation[],
+  unit: PressureUnit,
+): FillState {
+  return {
+    ...s,
+    phase: 'capped',
+    input: '',
+    capped: {
+      after: s.setup.steps[s.current - 1].index,
+      step: s.setup.steps[s.current].index,
+      finalPa,
+      limitPa: s.setup.workingLimitPa!,
+      outside: deviations.filter((d) => !d.within).map((d) => d.species),
+      cost: limitCost(finalPa, deviations, unit),
+    },
+  };
+}
+
+/**
+ * Enter on the capped screen: `go INITIALS` (fill to the capped targets) or `stop INITIALS` (the
+ * batch stops here), each logged (acknowledge "limit-cap" with the cost); `undo INITIALS` takes back
+ * the reading (the reducer's undo)
+ */
+function onCappedEnter(s: FillState, now: string): FillState {
+  const c = s.capped!;
+  const text = s.input.trim();
+  const unit = gaugeUnit(s.setup.steps[s.current - 1]);
+  const m = /^(go|stop)\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      error:
+        'type one of: go INITIALS (fill to the capped targets), undo INITIALS (the reading was mistyped), ' +
+        'stop INITIALS (the batch stops here); every choice is logged. Ctrl-C stops without a choice',
+    };
+  const go = m[1].toLowerCase() === 'go';
+  const by = m[2];
+  const what =
+    `after fill ${c.after} the remaining fills are held below the working limit ${fmtIn(c.limitPa, unit)}: ` +
+    `the tank ends at ${fmtIn(c.finalPa, unit)}` +
+    (c.outside.length
+      ? `, ${c.outside.join(', ')} OUTSIDE the tolerance`
+      : ', the composition within the tolerance');
+  const ack: NewLogEvent = {
+    kind: 'acknowledge',
+    code: LIMIT_CAP_CODE,
+    step: c.step,
+    by,
+    time: now,
+    note: `${what}; ${go ? `${by} went on to the capped targets` : `${by} stopped the batch here`}`,
+    cap: { outcome: go ? 'continued' : 'stopped', final_Pa: c.finalPa, outside: [...c.outside] },
+  };
+  if (!go)
+    return {
+      ...s,
+      phase: 'ended',
+      capped: undefined,
+      input: '',
+      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} after fill ${c.after}: ${what}` }],
+      message: `stopped by ${by} after fill ${c.after} (logged): ${what}`,
+    };
+  const entered = enterStep({
+    ...s,
+    phase: 'reading',
+    capped: undefined,
+    capAccepted: { by, outside: c.outside },
+    input: '',
+    effects: [ack],
+    message: `${by} goes on to the capped targets (logged): ${what}`,
+  });
+  return reviewed(entered, 'reading');
+}
+
+/** the acknowledgement code of a choice on the capped screen */
+export const LIMIT_CAP_CODE = 'limit-cap';
+
+/** the last capped re-target the log says the operator went on with */
+function capAcceptedOf(log: ParsedLog | undefined): FillState['capAccepted'] {
+  const a = (log?.acknowledgements ?? [])
+    .filter((x) => x.code === LIMIT_CAP_CODE && x.cap?.outcome === 'continued')
+    .at(-1);
+  return a?.cap ? { by: a.by, outside: a.cap.outside } : undefined;
 }
 
 /** after the reading is plausible (or confirmed): the working limit */
@@ -845,7 +1056,9 @@ function overLimitOf(s: FillState, reading: DoneReading, limit: number): OverLim
     return {
       limitPa: limit,
       ventToPa,
-      after: 'no fill remains; venting keeps the composition, so the re-check of the readings is final',
+      after:
+        'no fill remains; venting keeps the composition, so the readings give it, and the reading after ' +
+        'venting gives the final pressure',
       why:
         `the target of this last fill (the final pressure the re-target set), ` +
         `${ventToPa < s.targetsPa[s.current] ? 'held below the working limit by its band' : 'below the working limit'}`,
@@ -896,12 +1109,10 @@ function limitCost(finalPa: number, deviations: readonly FractionDeviation[], un
     .join(', ');
   const outside = deviations.filter((d) => !d.within).length;
   return (
-    `. The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
+    `The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
     (outside
       ? ` - ${outside} mole fraction(s) OUTSIDE the tolerance`
-      : ' - the composition stays within the tolerance') +
-    `. Choices: go on to the final pressure the limit allows (fill to the targets shown), or stop here ` +
-    `(Ctrl-C: the log keeps every reading; vent or evacuate the tank, or resume later)`
+      : ' - the composition stays within the tolerance')
   );
 }
 
@@ -1045,7 +1256,6 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
     };
   }
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
-  const last = s.current + 1 >= s.setup.steps.length;
   if (acc) {
     const ack: NewLogEvent = {
       kind: 'acknowledge',
@@ -1059,58 +1269,195 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
     };
     return commit(s, p, [ack], now);
   }
-  if (/^vent$/i.test(text)) {
-    const done = [...s.done, p.done];
-    const base: FillState = { ...s, done, current: s.current + 1, pending: undefined, input: '' };
-    if (last) return ventedLast(base, p, o, now);
+  const vent = /^vent\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (/^vent\b/i.test(text) && !vent)
     return {
-      ...base,
-      phase: 'ended',
-      effects: [
-        {
-          kind: 'close',
-          time: now,
-          note:
-            `stopped after fill ${step.index}: the tank is vented back to ${fmtIn(o.ventToPa, unit)} ` +
-            `absolute; the readings give its composition; finish the design as a top-up batch`,
-        },
-      ],
-      message:
-        `fill ${step.index} logged. Vent or pump the tank back to ${fmtIn(o.ventToPa, unit)} ` +
-        `absolute. Venting keeps the composition, so this log's readings still give ` +
-        `it; finish the design as a top-up batch (in_tank: the composition of \`mixwright ` +
-        `check\` of this log, at the pressure you read after venting). From there: ${o.after}.`,
+      ...s,
+      error: 'type "vent" and your initials (e.g. vent AB): the vent is logged, then its reading',
     };
-  }
+  if (vent) return ventChosen(s, p, o, vent[1], now);
   return {
     ...s,
     error:
-      'the reading is logged. Type "vent" (you vent or pump back), "accept" and ' +
+      'the reading is logged. Type "vent" and your initials (you vent or pump back), "accept" and ' +
       'your initials (keep the tank as it is; logged), or "edit" and your initials ' +
       '(it was mistyped: the reading is withdrawn, with a trace), then Enter',
   };
 }
 
-/** vent chosen on the last fill: the batch closes on the reading as logged; nothing claims the vented pressure */
-function ventedLast(base: FillState, p: Pending, o: OverLimit, now: string): FillState {
-  const step = base.setup.steps[base.current - 1];
+/** vent chosen on the danger screen: the vent is logged, then the tank is read after venting */
+function ventChosen(s: FillState, p: Pending, o: OverLimit, by: string, now: string): FillState {
+  const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
-  // the pressure after venting is not read here: nothing claims it; the log holds the reading above the limit
-  const f = finish(
-    { ...base, effects: [] },
-    now,
-    `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute, above the working limit; ` +
-      `the operator chose to vent back to at most ${fmtIn(o.ventToPa, unit)} absolute. The pressure ` +
-      `after venting was not read or logged in this fill`,
-  );
-  return {
-    ...f,
-    message:
-      `fill ${step.index} logged at ${fmtIn(p.done.pressurePa, unit)} absolute, ABOVE the working limit; ` +
-      `vent the tank back to at most ${fmtIn(o.ventToPa, unit)} absolute now. The log, the re-check and ` +
-      `the label below are of the tank as read, BEFORE venting (venting keeps the composition, not ` +
-      `the pressure): read the tank after venting and write that pressure on the label by hand.`,
+  if (p.done.line === undefined)
+    return {
+      ...s,
+      error: 'the log line of this reading is not known; stop (Ctrl-C) and resume the fill to choose again',
+    };
+  const ev: NewLogEvent = {
+    kind: 'vent',
+    step: step.index,
+    target_Pa: o.ventToPa,
+    by,
+    time: now,
+    note:
+      `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute (line ${p.done.line}), above the ` +
+      `working limit ${fmtIn(o.limitPa, unit)}; vented back to at most ${fmtIn(o.ventToPa, unit)} absolute`,
   };
+  return {
+    ...s,
+    done: [...s.done, p.done],
+    current: s.current + 1,
+    pending: undefined,
+    overLimit: undefined,
+    phase: 'vented',
+    input: '',
+    field: 'reading',
+    effects: [ev],
+    venting: {
+      step: step.index,
+      targetPa: o.ventToPa,
+      beforePa: p.done.pressurePa,
+      limitPa: o.limitPa,
+      by,
+      last: o.last,
+      after: o.after,
+    },
+    message:
+      `vent logged by ${by}. Vent or pump the tank back to at most ${atMostOnGauge(s, step, o.ventToPa)} on ` +
+      `${step.gauge?.id ?? 'the gauge'} (${fmtIn(o.ventToPa, unit)} absolute), let it settle, then read it`,
+  };
+}
+
+/**
+ * The reading after venting, "VALUE INITIALS": refused (not logged) unless it is below the reading
+ * before venting; logged as a vent-reading; still above the working limit, the screen stays (vent
+ * more, read again); else the batch closes (the last fill) or stops (finish as a top-up).
+ */
+function onVentedEnter(s: FillState, now: string): FillState {
+  const v = s.venting!;
+  const step = s.setup.steps.find((x) => x.index === v.step)!;
+  const unit = gaugeUnit(step);
+  const w = withInitials(s.input, 'reading after venting', '1490.2 AB');
+  if ('error' in w) return { ...s, error: w.error };
+  const parsed = parseReading({ ...s, input: w.value }, step);
+  if ('error' in parsed) return { ...s, input: parsed.typo ? '' : s.input, error: parsed.error };
+  const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+  if (step.gauge && parsed.shown > step.gauge.fullScalePa)
+    return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
+  if (!(absolute < v.beforePa))
+    return {
+      ...s,
+      input: '',
+      error:
+        `typed "${w.value}": ${fmtIn(absolute, unit)} absolute is not below the reading before venting, ` +
+        `${fmtIn(v.beforePa, unit)} absolute, and venting only lets gas out. Likely a typing slip or the ` +
+        `unit, or the tank warmed (check the temperature). The reading is not logged.`,
+    };
+  const text = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
+  const ev: NewLogEvent = {
+    kind: 'vent-reading',
+    step: v.step,
+    gauge: step.gauge?.id ?? 'none',
+    reading: text,
+    pressure_Pa: absolute,
+    ...(step.gauge?.reference === 'gauge' ? { barometer_Pa: s.barometerPa } : {}),
+    temperature: s.temperatureText.trim(),
+    temperature_K: parsed.temperatureK,
+    by: w.by,
+    time: now,
+  };
+  const base: FillState = { ...s, input: '', effects: [ev] };
+  if (absolute > v.limitPa)
+    return {
+      ...base,
+      message:
+        `${text} after venting logged by ${w.by}: ${fmtIn(absolute, unit)} absolute is still ABOVE the working ` +
+        `limit ${fmtIn(v.limitPa, unit)} by ${fmtIn(absolute - v.limitPa, unit, 3)}. Vent more, to ` +
+        `${fmtIn(v.targetPa, unit)} absolute at most, let it settle and read again`,
+    };
+  const off = absolute - v.targetPa;
+  const read =
+    `the tank read ${text} (${fmtIn(absolute, unit)} absolute) after venting, logged by ${w.by}: ` +
+    `${signed(fromPa(off, unit))} ${unit} from the vent target ${fmtIn(v.targetPa, unit)}` +
+    (off < -step.bandPa ? ' (vented below it: the tank holds less gas than that target)' : '');
+  if (v.last)
+    return {
+      ...finish(base, now, `closed after venting: ${read}`),
+      message:
+        `${read}. Venting keeps the composition: the re-check and the label below are of the readings, ` +
+        `with the final pressure and amount read after venting`,
+    };
+  const how = topUpHow(s, absolute, parsed.temperatureK, unit);
+  return {
+    ...base,
+    phase: 'ended',
+    effects: [
+      ev,
+      {
+        kind: 'close',
+        time: now,
+        note: `stopped after fill ${v.step}: ${read}; the readings give its composition. ${how}`,
+      },
+    ],
+    message: `${read}. Venting keeps the composition, so this log's readings still give it. ${how}`,
+  };
+}
+
+/**
+ * How to finish a batch stopped by a vent as a top-up, in words: the recipe lines of the top-up
+ * batch (in_tank: the tank's composition from the readings, at the pressure read after venting; the
+ * order of the fills left) and its command, and what its fills will be (each gas, to which reading, on
+ * which gauge), re-targeted from the vented tank (the amounts of the readings scaled by the vent:
+ * the virial density after venting over the density before, same composition)
+ */
+function topUpHow(s: FillState, ventedPa: number, temperatureK: number, unit: PressureUnit): string {
+  const rest = s.setup.steps.slice(s.current);
+  const order = `[${rest.map((x) => x.species).join(', ')}]`;
+  const before = s.done[s.done.length - 1];
+  let fills: string;
+  let now: Readonly<Record<string, number>> | undefined;
+  try {
+    now = retarget(retargetInput(s, s.done, before.temperatureK)).nowComposition;
+    const y = now;
+    const keys = Object.keys(y).filter((k) => y[k] > 0);
+    const rho = (p: number, t: number) => {
+      const m = virialModel(keys, t);
+      return densityFromPressure(p, t, bMix(m, y), cMix(m, y));
+    };
+    const f = Math.min(1, rho(ventedPa, temperatureK) / rho(before.pressurePa, before.temperatureK));
+    const r = retarget({ ...retargetInput(s, s.done, temperatureK), ventFactor: f });
+    fills =
+      ' Its fills should come to (re-targeted here from the tank as read after venting): ' +
+      r.remaining
+        .map((x) => {
+          const st = s.setup.steps[x.step - 1];
+          const u = gaugeUnit(st);
+          return (
+            `${fillName(st)} ${st.species} from ${st.source.id} to ${fmtIn(shownPa(s, st, x.targetPa), u)} ` +
+            `on ${st.gauge?.id ?? 'the gauge'}`
+          );
+        })
+        .join(', ') +
+      ` (${r.message}).`;
+  } catch (e) {
+    if (!(e instanceof ProblemError)) throw e;
+    fills = ` Its fills could not be re-targeted here (${describeProblem(e.problem)}); plan it first.`;
+  }
+  const comp = now
+    ? `{ ${Object.entries(now)
+        .filter(([, x]) => x > 0)
+        .map(([k, x]) => `${k}: ${Number(x.toPrecision(6))}`)
+        .join(', ')} }`
+    : '(the composition `mixwright check` gives for this log)';
+  return (
+    `Finish it as a top-up batch, in a new log: in a copy of this batch's recipe add ` +
+    `\`in_tank: { composition: ${comp}, pressure: ${fmtIn(ventedPa, unit)} }\` (the fills left: ` +
+    `${order}), check it with \`mixwright plan\` and fill it with \`mixwright fill\` (it reads the ` +
+    `starting pressure first).${fills} If \`plan\` refuses the copy (the tank holds more of a gas than ` +
+    `the design allows), the design cannot be reached from this tank: use it under a new design, or vent ` +
+    `or evacuate it.`
+  );
 }
 
 const INITIALS = /^(.*\S)\s+([A-Za-z]{1,6})$/;
@@ -1159,6 +1506,7 @@ function onCommand(s: FillState, text: string, now: string): FillState | undefin
     const done = s.done.slice(0, -1);
     const next = rejudge({
       ...s,
+      capped: undefined,
       done,
       current: s.current - 1,
       input: '',
@@ -1305,6 +1653,7 @@ export function fillReducer(s: FillState, a: FillAction): FillState {
     (base.phase === 'reading' ||
       base.phase === 'start' ||
       base.phase === 'below' ||
+      base.phase === 'vented' ||
       (base.phase === 'correct' && !base.correcting?.pending)) &&
     base.field === 'temperature';
   switch (a.type) {
@@ -1379,8 +1728,21 @@ function onEscape(base: FillState): FillState {
     return {
       ...base,
       error:
-        'the reading is logged; Esc does not take it back. Type vent, accept INITIALS, ' +
+        'the reading is logged; Esc does not take it back. Type vent INITIALS, accept INITIALS, ' +
         'or edit INITIALS (mistyped: withdrawn with a trace)',
+    };
+  if (base.phase === 'capped')
+    return {
+      ...base,
+      error:
+        'the re-target held by the working limit stands: type go INITIALS, undo INITIALS or stop INITIALS',
+    };
+  if (base.phase === 'vented')
+    return {
+      ...base,
+      error:
+        'the vent is logged; Esc does not take it back. Read the tank after venting and type the reading ' +
+        'and your initials (Ctrl-C stops; resuming asks for it again)',
     };
   if (base.phase === 'confirm')
     return {
@@ -1397,6 +1759,7 @@ function onTab(base: FillState): FillState {
   if (
     base.phase === 'start' ||
     base.phase === 'below' ||
+    base.phase === 'vented' ||
     (base.phase === 'correct' && !base.correcting?.pending)
   )
     return { ...base, field: base.field === 'reading' ? 'temperature' : 'reading' };
@@ -1431,6 +1794,12 @@ function onEnter(base: FillState, now: string): FillState {
       };
     case 'over-limit':
       return onOverLimitEnter(base, now);
+    case 'vented':
+      return onVentedEnter(base, now);
+    case 'capped':
+      return /^undo\b/i.test(base.input.trim())
+        ? (onCommand(base, base.input.trim(), now) ?? base)
+        : onCappedEnter(base, now);
     case 'reading':
       return onCommand(base, base.input.trim(), now) ?? onReadingEnter(base, now);
     case 'review':

@@ -330,4 +330,84 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       t.close();
     }
   }, 90000);
+
+  it('past the working limit on the last fill: vent with initials (logged), a reading after venting above the one before is refused, the settled reading closes the batch; check and the label give the vented pressure', async () => {
+    const { dir, t } = session('vent');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch vent --dir batches`));
+      for (const r of ['10.01', '1480', '2800']) {
+        await t.waitFor(/fill \d of 3/);
+        await t.type(r);
+        await t.keys('Enter');
+      }
+      let s = flat(await t.waitFor(/ABOVE THE WORKING LIMIT/));
+      expect(s).toMatch(/vent INITIALS: you vent back \(logged; then read the tank after venting/);
+      await t.type('vent');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/"vent" and your initials/));
+      for (let i = 0; i < 4; i++) await t.keys('BSpace');
+      await t.type('vent JD');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/VENTING \(logged\)/));
+      expect(s).toMatch(/VENT TO AT MOST 1499\.9 Torr on head-10kT/);
+      const log = join(dir, 'batches', 'vent.jsonl');
+      expect(readLog(log).vents).toMatchObject([{ step: 3, by: 'JD', readings: [] }]);
+      // a slip: above the reading before venting - refused, not logged
+      await t.type('2900 JD');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/not below the reading before venting/));
+      expect(s).toMatch(/The reading is not logged/);
+      await t.type('1498.2 JD');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/all 3 fills logged/, 30000));
+      expect(s).toMatch(/the tank read 1498\.2 Torr \(1498\.20 Torr absolute\) after venting, logged by JD/);
+      // the label at the foot of the end screen: the final pressure is the one read after venting
+      s = flat(await t.waitFor(/absolute after venting at/, 60000));
+      expect(s).toMatch(/1498\.2 Torr absolute after venting at 25\.0 degC/);
+      await t.keys('q');
+      // 2800 Torr of O2 is far off the design: the re-check fails (4 before the danger's 3)
+      expect(await exitStatus(t)).toBe(4);
+      const l = readLog(log);
+      expect(l.vents[0].readings.map((r) => r.pressure_Pa / TORR)).toEqual([expect.closeTo(1498.2, 9)]);
+      expect(l.closed).toBe(true);
+      const rep = await checkFile(log, { trials: 0, seed: 1 });
+      expect(rep.vent?.after?.pressurePa).toBeCloseTo(1498.2 * TORR, 6);
+    } finally {
+      t.close();
+    }
+  }, 90000);
+
+  it('a re-target held by the working limit stops on its own screen with the cost; the choice is typed with initials and logged (stop)', async () => {
+    const { dir, t } = session('cap');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch cap --dir batches`));
+      await t.waitFor(/fill 1 of 3/);
+      await t.type('10.01');
+      await t.keys('Enter');
+      await t.waitFor(/fill 2 of 3/);
+      await t.type('2695');
+      await t.keys('Enter');
+      let s = flat(await t.waitFor(/THE WORKING LIMIT HOLDS THE FINAL/));
+      expect(s).toMatch(/The working limit costs: the tank ends at 2700\.12 Torr; x\(CH4\) 0\.370 %/);
+      expect(s).toMatch(/Capped targets: fill 3 O2: 2700\.1 Torr on head-10kT/);
+      expect(s).toMatch(/go INITIALS: fill to the capped targets/);
+      // a bare word is refused; nothing is logged
+      await t.type('go');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/type one of: go INITIALS/));
+      for (let i = 0; i < 2; i++) await t.keys('BSpace');
+      await t.type('stop JD');
+      await t.keys('Enter');
+      await t.waitFor(/STOPPED after fill 2 of 3/);
+      await t.keys('q');
+      expect(await exitStatus(t, 30000)).toBe(4);
+      const l = readLog(join(dir, 'batches', 'cap.jsonl'));
+      expect(l.acknowledgements).toMatchObject([
+        { code: 'limit-cap', step: 3, by: 'JD', cap: { outcome: 'stopped', outside: ['CH4', 'O2', 'Ar'] } },
+      ]);
+      expect(l.closed).toBe(true);
+    } finally {
+      t.close();
+    }
+  }, 90000);
 });

@@ -206,10 +206,14 @@ describe('a remainder held by the working limit (MT-1: 4 bar x 0.9 = 2700.22 Tor
     expect(s.message).toMatch(
       /held at 2692\.73 Torr, the tank's working limit 2700\.22 Torr less the last fill's band 7\.49053 Torr/,
     );
-    // what it costs: each mole fraction off the design, outside the tolerance or not, and the choices
-    expect(s.message).toMatch(/x\(CH4\) 0\.742 % \(design 0\.667 %: \+0\.0752 points, OUTSIDE the tolerance/);
-    expect(s.message).toMatch(/x\(Ar\) 97\.8 % \(design 98\.0 %: -0\.226 points, inside the tolerance/);
-    expect(s.message).toMatch(/Choices: go on to the final pressure the limit allows .* or stop here/);
+    // what it costs: each mole fraction off the design, outside the tolerance or not, on a stop screen
+    expect(s.phase).toBe('capped');
+    expect(s.capped!.cost).toMatch(
+      /x\(CH4\) 0\.742 % \(design 0\.667 %: \+0\.0752 points, OUTSIDE the tolerance/,
+    );
+    expect(s.capped!.cost).toMatch(/x\(Ar\) 97\.8 % \(design 98\.0 %: -0\.226 points, inside the tolerance/);
+    s = read(s, 'go AB');
+    expect(s.phase).toBe('review');
     s = read(s, 'safer AB');
     s = read(s, '921.53');
     s = read(s, '961.51');
@@ -225,7 +229,7 @@ describe('a remainder held by the working limit (MT-1: 4 bar x 0.9 = 2700.22 Tor
   });
 });
 
-describe('past the working limit on the last fill: the vent target is explained and nothing claims an unread pressure', () => {
+describe('past the working limit on the last fill: the vent target is explained, and the tank is read after venting', () => {
   const h = splitHeader();
   it('CH4 40 % high, the safer stop, then 2750 Torr on the last fill and vent', () => {
     let s = initialState(setupFromHeader(h));
@@ -242,14 +246,21 @@ describe('past the working limit on the last fill: the vent target is explained 
     // no remaining fills are promised anything
     expect(o.after).not.toMatch(/remaining fills/);
     expect(o.after).toMatch(/no fill remains/);
-    s = read(s, 'vent');
+    // the vent is logged with initials, then the tank is read after venting; that reading closes the batch
+    // the shell reports the over-limit reading's log line (header, CH4, review, Ar, O2: line 6)
+    s = read(fillReducer(s, { type: 'logged', step: 4, line: 6 }), 'vent AB');
+    expect(s.phase).toBe('vented');
+    expect(s.effects).toEqual([
+      expect.objectContaining({ kind: 'vent', step: 4, target_Pa: target, by: 'AB' }),
+    ]);
+    s = read(s, '2096.40 AB');
     expect(s.phase).toBe('done');
-    // the end screen and the log's close note say the tank was read before venting, not that it is vented
-    expect(s.message).toMatch(/the label below are of the tank as read, BEFORE venting/);
-    expect(s.message).toMatch(/read the tank after venting/);
+    expect(s.effects.map((e) => e.kind)).toEqual(['vent-reading', 'close']);
+    expect(s.effects[0]).toMatchObject({ step: 4, pressure_Pa: 2096.4 * TORR, by: 'AB' });
+    expect(s.message).toMatch(
+      /the tank read 2096\.40 Torr .* after venting, logged by AB: -1\.55 Torr from the vent target 2097\.95 Torr/,
+    );
     const close = s.effects.find((e) => e.kind === 'close') as { note?: string };
-    expect(close.note).toMatch(/chose to vent back to at most 2097\.95 Torr absolute/);
-    expect(close.note).toMatch(/was not read or logged in this fill/);
-    expect(close.note).not.toMatch(/the operator vents/);
+    expect(close.note).toMatch(/closed after venting/);
   });
 });

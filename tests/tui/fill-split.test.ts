@@ -99,8 +99,14 @@ describe('guided fill of a split plan: CH4, Ar to 400 Torr (charge 1 of 2), O2, 
   it('a stop the tank is already past is not kept: the fill says so with the numbers, and the Ar goes in its last charge', () => {
     const s0 = initialState(setupFromHeader(splitHeader()));
     // CH4 mistyped as 405 Torr (a gross overfill): taken as read, the next fill is the first Ar charge
-    const s1 = read(s0, '405.0000');
-    // the remaining sequence is reviewed at once: O2 onto 405 Torr of CH4 is flammable and detonable
+    const s0b = read(s0, '405.0000');
+    // so much CH4 that the working limit holds the final pressure: first the stop screen of the cap
+    expect(s0b.phase).toBe('capped');
+    expect(s0b.message).toMatch(
+      /the stop of fill 2 \(charge 1 of 2 of cyl-Ar\) cannot be kept: the tank is at 405(\.\d+)? Torr before it, past its stop 400 Torr/,
+    );
+    const s1 = { ...read(s0b, 'go AB'), message: s0b.message };
+    // then the remaining sequence is reviewed: O2 onto 405 Torr of CH4 is flammable and detonable
     // (undiluted fuel/O2, which the plan never had), so the fill stops on the review screen
     expect(s1.phase).toBe('review');
     expect(s1.review?.hazards.map((z) => z.key)).toEqual(

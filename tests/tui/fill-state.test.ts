@@ -250,22 +250,99 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(log.readings.map((r) => r.step)).toEqual([2]);
   });
 
-  it('vent: the reading is already logged; the batch stops with the instruction to finish as a top-up', () => {
+  it('vent INITIALS (not the last fill): the vent is logged, the tank read after venting (a reading not below the one before venting is refused, one still past the limit is logged and asked again); the batch stops with the instruction to finish as a top-up', () => {
     const { logged: d } = overLimit();
-    const v = enter(type(d, 'vent'));
-    expect(v.effects.map((e) => e.kind)).toEqual(['close']);
-    expect(v.phase).toBe('ended');
-    expect(v.message).toMatch(/Vent or pump the tank back to 14\d\d\.\d+ Torr/);
-    expect(v.message).toMatch(/top-up/);
+    // the vent is logged: initials are asked
+    expect(enter(type(d, 'vent')).error).toMatch(/"vent" and your initials/);
+    const v = enter(type(d, 'vent JD'));
+    expect(v.effects).toEqual([
+      expect.objectContaining({ kind: 'vent', step: 2, by: 'JD', target_Pa: d.overLimit!.ventToPa }),
+    ]);
+    expect(v.phase).toBe('vented');
+    expect(v.message).toMatch(
+      /Vent or pump the tank back to at most 14\d\d\.\d Torr on head-10kT \(14\d\d\.\d+ Torr absolute\), let it settle/,
+    );
+    // a slip: above the reading before venting (2800 Torr) - refused, nothing logged
+    const typo = read(v, '2900 JD');
+    expect(typo.phase).toBe('vented');
+    expect(typo.effects).toEqual([]);
+    expect(typo.error).toMatch(/not below the reading before venting, 2800\.00 Torr absolute/);
+    // still past the working limit: logged (a fact), the screen stays
+    const still = read(typo, '2750 JD');
+    expect(still.phase).toBe('vented');
+    expect(still.effects).toEqual([
+      expect.objectContaining({ kind: 'vent-reading', pressure_Pa: 2750 * TORR }),
+    ]);
+    expect(still.message).toMatch(/still ABOVE the working limit/);
+    const done = read(still, '1490.5 JD');
+    expect(done.effects.map((e) => e.kind)).toEqual(['vent-reading', 'close']);
+    expect(done.phase).toBe('ended');
+    expect(done.message).toMatch(/1490\.50 Torr absolute\) after venting, logged by JD/);
+    // how to finish as a top-up: the recipe lines, the command, and each fill (gas, reading, gauge)
+    expect(done.message).toMatch(
+      /in a copy of this batch's recipe add `in_tank: \{ composition: \{ CH4: 0\.00\d+, .*Ar: 0\.99\d+ \}, pressure: 1490\.50 Torr \}` \(the fills left: \[O2\]\), check it with `mixwright plan` and fill it with `mixwright fill`/,
+    );
+    expect(done.message).toMatch(
+      /Its fills should come to \(re-targeted here from the tank as read after venting\): fill 3 O2 from cyl-O2 to 1501\.12 Torr on head-10kT/,
+    );
+    expect(done.message).toMatch(/If `plan` refuses the copy .* the design cannot be reached from this tank/);
+    const close = done.effects[1] as { note?: string };
+    expect(close.note).toMatch(/in_tank: .*the fills left: \[O2\]/);
   });
 
   it('an Ar reading just under the limit: the O2 target stays at or under the limit and the screen says what gives', () => {
     const s1 = read(initialState(setupFromHeader(h)), '10.01');
     const s2 = read(s1, '2695');
-    expect(s2.phase).toBe('reading');
+    // a stop screen: the operator chooses explicitly (go, undo or stop), each logged
+    expect(s2.phase).toBe('capped');
     expect(s2.targetsPa[2] / TORR).toBeLessThanOrEqual(limitTorr * (1 + 1e-9));
     expect(s2.message).toMatch(/working limit/);
     expect(s2.judgement?.verdict).toBe('off-course');
+    expect(s2.capped).toMatchObject({ after: 2, step: 3, outside: expect.arrayContaining(['CH4', 'O2']) });
+    expect(s2.capped!.cost).toMatch(/The working limit costs: the tank ends at 2\d{3}\.\d+ Torr; x\(CH4\)/);
+    // no way on without a logged choice: Enter, Esc, a bare word, initials missing
+    for (const t of [enter(s2), fillReducer(s2, { type: 'escape' }), read(s2, 'go'), read(s2, 'ok AB')]) {
+      expect(t.phase).toBe('capped');
+      expect(t.effects).toEqual([]);
+      expect(t.error).toMatch(/go INITIALS/);
+    }
+    const go = read(s2, 'go JD');
+    expect(go.phase).toBe('reading');
+    expect(go.current).toBe(2);
+    expect(go.effects).toEqual([
+      expect.objectContaining({
+        kind: 'acknowledge',
+        code: 'limit-cap',
+        step: 3,
+        by: 'JD',
+        cap: expect.objectContaining({ outcome: 'continued', outside: expect.arrayContaining(['CH4']) }),
+      }),
+    ]);
+    const stop = read(s2, 'stop JD');
+    expect(stop.phase).toBe('ended');
+    expect(stop.effects.map((e) => e.kind)).toEqual(['acknowledge', 'close']);
+    expect(stop.effects[0]).toMatchObject({ cap: { outcome: 'stopped' } });
+    // undo: the reading of fill 2 is withdrawn (its line known) and fill 2 is read again
+    const undo = read(fillReducer(s2, { type: 'logged', step: 2, line: 3 }), 'undo JD');
+    expect(undo.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2, withdraws_line: 3 })]);
+    expect(undo.current).toBe(1);
+    expect(undo.capped).toBeUndefined();
+  });
+
+  it('resumed after a capped re-target with no choice logged: the stop screen comes back; with the choice logged it does not', async () => {
+    const s1 = read(initialState(setupFromHeader(h)), '10.01');
+    const s2 = read(s1, '2695');
+    const log = parseLog(logText(h, [...s1.effects, ...s2.effects]), 'x.jsonl');
+    expect(initialState(setupFromHeader(h), log, NOW).phase).toBe('capped');
+    const go = read(s2, 'go JD');
+    const log2 = parseLog(logText(h, [...s1.effects, ...s2.effects, ...go.effects]), 'x.jsonl');
+    expect(log2.acknowledgements[0].cap).toMatchObject({ outcome: 'continued' });
+    expect(initialState(setupFromHeader(h), log2, NOW).phase).toBe('reading');
+    // check lists the choice with who made it and the cost
+    const report = await checkLog(log2, { trials: 0, seed: 1 });
+    expect(report.warnings.join('\n')).toMatch(
+      /before fill 3 the re-target was held below the working limit .*: JD at .* went on to the capped targets/,
+    );
   });
 });
 
