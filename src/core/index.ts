@@ -251,8 +251,8 @@ export { compositionTermsOf, premixSource } from './plan/premix-source.js';
 export type { PremixSourceArgs } from './plan/premix-source.js';
 export { amountDrawn, planFromPremix, premixMinorGases } from './plan/premix-log.js';
 export type { PremixLogPlan, PremixLogPlanInput, PremixLogUse } from './plan/premix-log.js';
-export { premixDelivery, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
-export type { Delivery, DeliveryInput } from './premix-tank.js';
+export { premixDelivery, premixStartForEndPa, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
+export type { Delivery, DeliveryInput, StartForEndInput } from './premix-tank.js';
 export type { CompositionTerm, SharedInstrument } from './supply.js';
 export { chargeNumbers } from './plan/charges.js';
 // the guided fill of a two-stage preparation: its refusals (worded in stage-words.ts)

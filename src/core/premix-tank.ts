@@ -80,3 +80,34 @@ export function premixDelivery(input: DeliveryInput): Delivery {
     gamma,
   };
 }
+
+export interface StartForEndInput {
+  /** the premix's composition (mole fractions) */
+  readonly composition: Fractions;
+  readonly volumeM3: number;
+  readonly temperatureK: number;
+  /** the settled pressure the premix tank must still hold after the delivery, Pa absolute */
+  readonly endPa: number;
+  /** amount drawn from the premix tank, mol */
+  readonly deliveredMol: number;
+}
+
+/**
+ * The lowest premix-tank pressure before a delivery of `deliveredMol` that still leaves it, settled,
+ * at `endPa` (premixDelivery solved for its start): the reading a lab member checks before the
+ * premix is opened to the batch tank.
+ *   rho1 = rho(P_end, T),   rho0 = rho1 + dn / V,   P0 = rho0 R T (1 + B_mix rho0 + C_mix rho0^2)
+ * Valid where premixDelivery is (virial equation: up to about 10 bar for permanent gases, 200-600 K).
+ * Example: premixStartForEndPa({ composition: { Ar: 0.8657718121, O2: 0.1342281879 }, volumeM3: 0.0302,
+ *   temperatureK: 298.15, endPa: 245416.3056, deliveredMol: 0.0802 }) -> 1890.0 Torr (CoolProp 8.0.0
+ *   HEOS Ar-O2 mixture: the start of that delivery, 251979.28 Pa = 1890.0 Torr)
+ */
+export function premixStartForEndPa(input: StartForEndInput): number {
+  const { composition: y, volumeM3: V, temperatureK: T } = input;
+  const species = Object.keys(y).filter((k) => y[k] > 0);
+  const m = virialModel(species, T);
+  const B = bMix(m, y);
+  const C = cMix(m, y);
+  const rho1 = densityFromPressure(input.endPa, T, B, C);
+  return pressureFromDensity(rho1 + input.deliveredMol / V, T, B, C);
+}

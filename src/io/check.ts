@@ -328,9 +328,13 @@ export function logRecheckBasis(
   return { start, barometer, model, missingSteps, premix: premix.records };
 }
 
-export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<CheckReport> {
+/**
+ * The re-check of a batch log. `withPremix` false (for `label` of a batch whose premix log is
+ * missing or changed): the premix as the header recorded it, without its budget; the caller says so.
+ */
+export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = true): Promise<CheckReport> {
   const h = log.header;
-  const { start, barometer, model, missingSteps, premix } = logRecheckBasis(log, undefined, true, opts);
+  const { start, barometer, model, missingSteps, premix } = logRecheckBasis(log, undefined, withPremix, opts);
   // the log's own record issues (torn tail, edited lines) are findings, listed once with the others
   const warnings = logWarnings(log, missingSteps);
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));

@@ -126,6 +126,24 @@ export interface CheckReportOf<F extends RecordFinding> {
     /** re-checked mole fractions and standard uncertainties */
     readonly composition: Readonly<Record<string, { readonly value: number; readonly u: number }>>;
   }[];
+  /**
+   * premix logs the batch log names that could not be re-checked (missing, changed since the batch
+   * recorded them, or not usable; `label` only, as `check` refuses such a log): the composition then
+   * uses the premix as the batch log recorded it, without the premix's uncertainty, and is never
+   * shown as a checked result
+   */
+  readonly premixNotChecked?: readonly {
+    /** as the batch log names it */
+    readonly log: string;
+    /** the premix's source id in the batch log, e.g. "premix-MT-2" */
+    readonly source: string;
+    /** the premix tank, where the batch log names it */
+    readonly tank: string;
+    /** why, in a few words for the label ("its log is missing or unreadable") */
+    readonly short: string;
+    /** why, as the refusal words it */
+    readonly why: string;
+  }[];
 }
 
 /** a vent of the tank after its last reading, and the tank as read after it */

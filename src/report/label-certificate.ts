@@ -51,6 +51,8 @@ export interface CertificateModel {
   readonly verdictText: string;
   /** what stands beside the verdict (report.caveats): a danger in the record, an edited record */
   readonly caveats: readonly string[];
+  /** the premixes the batch was made from, one paragraph each (empty for a batch of cylinders) */
+  readonly premix: readonly string[];
   readonly rows: readonly CertificateRow[];
   readonly phi: readonly [string, string];
   readonly dilution: readonly [string, string];
@@ -81,7 +83,23 @@ const VERDICT_TEXT: Record<string, string> = {
   incomplete:
     'FAIL - incomplete: the log lacks a reading for a planned fill; the composition covers the fills logged so far.',
   'no-design': 'No design to compare with: the composition is as measured.',
+  'premix-not-checked':
+    'NOT RE-CHECKED - a premix log this batch was made from is missing, changed or not usable (see ' +
+    'Premix): the composition uses the premix as the batch log recorded it, without its uncertainty; ' +
+    'conformity is not shown.',
 };
+
+/** where the batch's premix came from, from the logs: each premix log re-checked now, or why not */
+function premixText(label: LabelModel): string[] {
+  return label.premix.map((p) =>
+    p.checked
+      ? `Made from premix ${p.id} in tank ${p.tank}: log ${p.log} (last entry ${p.lastEntry}, the one ` +
+        `this batch log recorded), re-checked now from its readings by check's model: ` +
+        `${p.fractions.join(', ')} (U, k = 2); its budget is part of this batch's.`
+      : `Made from the premix in tank ${p.tank}, log ${p.log}: NOT RE-CHECKED - ${p.problem} ` +
+        'Restore the premix log as it was and make the label again.',
+  );
+}
 
 function unitOf(u: string): PressureUnit {
   return isPressureUnit(u) ? u : 'Pa';
@@ -124,7 +142,16 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
         ? `${d.deviation >= 0 ? '+' : '-'}${fixedSig((Math.abs(d.deviation) / d.design) * 100, 2)} %`
         : '-',
       tolerance: d ? `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %` : '-',
-      status: d ? (d.provenWithin ? 'within' : d.within ? 'inside, not shown' : 'OUT') : '-',
+      // a premix not re-checked leaves every fraction unproven, inside or not
+      status: !d
+        ? '-'
+        : label.status === 'premix-not-checked'
+          ? 'not shown (premix)'
+          : d.provenWithin
+            ? 'within'
+            : d.within
+              ? 'inside, not shown'
+              : 'OUT',
     };
   });
   // a design species the re-check found none of still gets its row
@@ -271,6 +298,7 @@ export function buildCertificateModel(
         `a danger (below), and the tank is not fit to use.`
       : VERDICT_TEXT[label.status],
     caveats: r.caveats,
+    premix: premixText(label),
     rows: compositionRows(r, label),
     phi,
     dilution,

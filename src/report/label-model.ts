@@ -23,7 +23,26 @@ export interface LabelFraction {
   readonly text: string;
 }
 
-export type LabelStatus = 'pass' | 'pass-uncertain' | 'fail' | 'incomplete' | 'no-design';
+export type LabelStatus =
+  'pass' | 'pass-uncertain' | 'fail' | 'incomplete' | 'no-design' | 'premix-not-checked';
+
+/** the premix a batch was made from, as the logs say it: re-checked from its own log, or why not */
+export interface LabelPremix {
+  /** the premix tank */
+  readonly tank: string;
+  /** the premix log as the batch log names it */
+  readonly log: string;
+  /** the premix batch's id and the first 12 hex digits of its last entry's hash (re-checked only) */
+  readonly id?: string;
+  readonly lastEntry?: string;
+  /** re-checked now from the premix log's readings by `check`'s model */
+  readonly checked: boolean;
+  /** the re-checked fractions, one gas a line: "O2 13.423 % +- 0.035 %" (empty when not checked) */
+  readonly fractions: readonly string[];
+  /** why it was not re-checked, in a few words (label) and as the refusal words it (certificate) */
+  readonly short?: string;
+  readonly problem?: string;
+}
 
 export interface LabelModel {
   readonly batchId: string;
@@ -51,6 +70,8 @@ export interface LabelModel {
   readonly danger: boolean;
   /** what stands beside the verdict, as `check` words it (report.caveats) */
   readonly caveats: readonly string[];
+  /** the premixes the batch was made from (batch log header `premix_logs`); empty for a batch of cylinders */
+  readonly premix: readonly LabelPremix[];
 }
 
 const PCT = 100;
@@ -67,7 +88,7 @@ export function withU(value: number, U: number, unit = ''): string {
 /** below this mole fraction the label gives ppm (mol/mol) instead of % */
 const PPM_BELOW = 1e-3;
 
-function fraction(species: string, st: OutputStat): LabelFraction {
+function fraction(species: string, st: Pick<OutputStat, 'value' | 'u'>): LabelFraction {
   const text =
     st.value < PPM_BELOW
       ? withU(st.value * 1e6, 2 * st.u * 1e6, 'ppm')
@@ -81,6 +102,8 @@ function unitOf(u: string): PressureUnit {
 
 export function statusOf(r: CheckReport): LabelStatus {
   if (r.incomplete.length) return 'incomplete';
+  // a premix that could not be re-checked leaves the composition unproven, whatever the numbers say
+  if (r.premixNotChecked?.length) return 'premix-not-checked';
   return r.verdict.verdict;
 }
 
@@ -91,7 +114,55 @@ const HEADLINE: Record<LabelStatus, string> = {
   fail: 'FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE',
   incomplete: 'FAIL - INCOMPLETE BATCH: NOT THE DESIGN MIXTURE',
   'no-design': 'NO DESIGN TO COMPARE WITH - composition as measured',
+  'premix-not-checked': 'PREMIX NOT RE-CHECKED: COMPOSITION NOT PROVEN',
 };
+
+/** the label's statuses that must not be used as the design mixture */
+export function notDesign(s: LabelStatus): boolean {
+  return s === 'fail' || s === 'incomplete' || s === 'premix-not-checked';
+}
+
+/** the premixes of the report: each re-checked one with its fractions, each one that was not with why */
+function premixOf(r: CheckReport): LabelPremix[] {
+  const checked = (r.premixLogs ?? []).map((p): LabelPremix => ({
+    tank: tankName(p.tank),
+    log: p.log,
+    id: p.id,
+    lastEntry: p.lastEntrySha256.slice(0, 12),
+    checked: true,
+    fractions: Object.entries(p.composition)
+      // the premix's own gases, as check's Premix line gives them (its trace impurities are in the batch's)
+      .filter(([, c]) => c.value >= 1e-4)
+      .sort((a, b) => b[1].value - a[1].value)
+      .map(([k, c]) => `${k} ${fraction(k, c).text}`),
+  }));
+  const not = (r.premixNotChecked ?? []).map((p): LabelPremix => ({
+    tank: tankName(p.tank),
+    log: p.log,
+    checked: false,
+    fractions: [],
+    short: p.short,
+    problem: p.why,
+  }));
+  return [...checked, ...not];
+}
+
+/** the label's lines on its premixes: what each was re-checked to, or that it was not and why */
+function premixLines(m: LabelModel): string[] {
+  const out: string[] = [];
+  for (const p of m.premix) {
+    if (p.checked) {
+      out.push(`Made from premix ${p.id} in ${p.tank}, re-checked from its log:`);
+      out.push(`  ${p.log} (last entry ${p.lastEntry})`);
+      for (const f of p.fractions) out.push(`  ${f}`);
+    } else {
+      out.push(`*** PREMIX IN ${p.tank} NOT RE-CHECKED: ${p.short} ***`);
+      out.push(`  ${p.log}`);
+      out.push('  the fractions above use the premix as this log recorded it,', '  without its uncertainty');
+    }
+  }
+  return out;
+}
 
 /** the first line of a label whose log records a danger: it comes before any composition verdict */
 export const DANGER_HEADLINE = 'DANGER - NOT FIT FOR USE: A READING WENT PAST A TANK OR GAUGE LIMIT';
@@ -210,12 +281,13 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
     hazard: hazardLine(r, log),
     danger,
     caveats: r.caveats,
+    premix: premixOf(r),
   };
 }
 
 /** the label as lines of plain text, the verdict first; what the fill's end screen and `label` print */
 export function labelLines(m: LabelModel): string[] {
-  const bad = m.status === 'fail' || m.status === 'incomplete';
+  const bad = notDesign(m.status);
   const out: string[] = [];
   // a danger in the record comes first: a composition within tolerance never reads as fit beside it
   if (m.danger) out.push(`*** ${DANGER_HEADLINE} ***`);
@@ -228,6 +300,7 @@ export function labelLines(m: LabelModel): string[] {
   const extra = [m.phi ? `phi ${m.phi}` : '', m.dilution ? `dilution ${m.dilution}` : ''].filter(Boolean);
   if (extra.length) out.push(extra.join('   '));
   out.push(`${m.finalPressure} at ${m.finalTemperature}`);
+  out.push(...premixLines(m));
   out.push(m.hazard);
   if (bad) out.push('*** DO NOT USE AS THE DESIGN MIXTURE ***');
   if (m.danger) out.push(DANGER_FOOTER);

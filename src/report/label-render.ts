@@ -1,6 +1,6 @@
 /** The batch certificate with its tank label, in three formats, each a pure function of the model. */
 import type { CertificateModel } from './label-certificate.js';
-import { DANGER_HEADLINE } from './label-model.js';
+import { DANGER_HEADLINE, notDesign } from './label-model.js';
 import { padTable } from './format.js';
 
 const esc = (s: string) =>
@@ -8,8 +8,7 @@ const esc = (s: string) =>
 /** the text form writes "+-"; the printed forms the sign itself */
 const pm = (s: string) => s.replace(/\+-/g, '±');
 /** drawn as a warning: a failed re-check, or a log that records a danger whatever the composition */
-const bad = (m: CertificateModel) =>
-  m.label.status === 'fail' || m.label.status === 'incomplete' || m.label.danger;
+const bad = (m: CertificateModel) => notDesign(m.label.status) || m.label.danger;
 
 const CSS = (paper: 'a4' | 'letter') =>
   [
@@ -66,6 +65,44 @@ function list(items: readonly string[], none: string): string {
     : `<p class="small">${esc(none)}</p>`;
 }
 
+/** the tank label to cut out: the verdict first, the as-filled composition, the premix it was made from */
+function labelBoxHtml(m: CertificateModel): string {
+  const L = m.label;
+  const extras = [L.phi ? `phi ${esc(pm(L.phi))}` : '', L.dilution ? `dilution ${esc(pm(L.dilution))}` : '']
+    .filter(Boolean)
+    .join(' &middot; ');
+  return [
+    `<div class="labelbox${bad(m) ? ' fail' : ''}">` +
+      `${L.danger ? `<div class="head">${esc(DANGER_HEADLINE)}</div>` : ''}<div class="head">` +
+      `${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}` +
+      `${L.caveats.map((c) => `<div class="off">${esc(c)}</div>`).join('')}`,
+    `<div>Batch <b>${esc(L.batchId)}</b> &middot; tank <b>${esc(L.tank)}</b> &middot; filled ` +
+      `${esc(L.filledOn)}</div>`,
+    `<div class="small">As filled, mole fraction &plusmn; U (k = 2):</div>`,
+    `<div class="grid">` +
+      `${L.composition.map((c) => `<div><b>${esc(c.species)}</b> ${esc(pm(c.text))}</div>`).join('')}` +
+      `</div>`,
+    `<div>${extras}</div>`,
+    `<div>${esc(L.finalPressure)} at ${esc(L.finalTemperature)}</div>`,
+    ...L.premix.map((p) =>
+      p.checked
+        ? `<div>Made from premix <b>${esc(p.id ?? '')}</b> in ${esc(p.tank)}, re-checked from its log:</div>` +
+          `<div class="grid">${p.fractions.map((f) => `<div>${esc(pm(f))}</div>`).join('')}</div>`
+        : `<div class="head">PREMIX IN ${esc(p.tank)} NOT RE-CHECKED: ${esc(p.short ?? '')}</div>` +
+          `<div class="off">${esc(p.log)}: the fractions above use the premix as this log recorded it, ` +
+          `without its uncertainty</div>`,
+    ),
+    `<div class="hazard">${esc(L.hazard)}</div>` +
+      `${notDesign(L.status) ? `<div class="head">${NOT_DESIGN}</div>` : ''}` +
+      `${
+        L.danger
+          ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN ' + 'INSPECTED</div>'
+          : ''
+      }` +
+      `</div>`,
+  ].join('\n');
+}
+
 export function certificateToHtml(m: CertificateModel): string {
   const comp = m.rows
     .map(
@@ -97,32 +134,11 @@ export function certificateToHtml(m: CertificateModel): string {
       ? `<p class="notes"><span class="sev">notes</span> ${notes.map((f) => esc(pm(f.text))).join(' &middot; ')}</p>`
       : '') +
     (m.findings.length ? '' : '<p class="small">No findings.</p>');
-  const L = m.label;
-  const extras = [L.phi ? `phi ${esc(pm(L.phi))}` : '', L.dilution ? `dilution ${esc(pm(L.dilution))}` : '']
-    .filter(Boolean)
-    .join(' &middot; ');
-  const labelBox = [
-    `<div class="labelbox${bad(m) ? ' fail' : ''}">` +
-      `${L.danger ? `<div class="head">${esc(DANGER_HEADLINE)}</div>` : ''}<div class="head">` +
-      `${esc(L.headline)}</div>${L.offDesign.map((o) => `<div class="off">${esc(o)}</div>`).join('')}` +
-      `${L.caveats.map((c) => `<div class="off">${esc(c)}</div>`).join('')}`,
-    `<div>Batch <b>${esc(L.batchId)}</b> &middot; tank <b>${esc(L.tank)}</b> &middot; filled ` +
-      `${esc(L.filledOn)}</div>`,
-    `<div class="small">As filled, mole fraction &plusmn; U (k = 2):</div>`,
-    `<div class="grid">` +
-      `${L.composition.map((c) => `<div><b>${esc(c.species)}</b> ${esc(pm(c.text))}</div>`).join('')}` +
-      `</div>`,
-    `<div>${extras}</div>`,
-    `<div>${esc(L.finalPressure)} at ${esc(L.finalTemperature)}</div>`,
-    `<div class="hazard">${esc(L.hazard)}</div>` +
-      `${L.status === 'fail' || L.status === 'incomplete' ? `<div class="head">${NOT_DESIGN}</div>` : ''}` +
-      `${
-        L.danger
-          ? '<div class="head">DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN ' + 'INSPECTED</div>'
-          : ''
-      }` +
-      `</div>`,
-  ].join('\n');
+  const labelBox = labelBoxHtml(m);
+  // where the batch's premix came from (none for a batch of cylinders: no section, no line)
+  const premixHtml = m.premix.length
+    ? `<section class="block"><h2>Premix</h2>${m.premix.map((p) => `<p>${esc(pm(p))}</p>`).join('')}</section>\n`
+    : '';
   const amendments =
     m.corrections.length || m.acknowledgements.length
       ? list(m.corrections, 'No corrections logged.') +
@@ -146,7 +162,7 @@ export function certificateToHtml(m: CertificateModel): string {
       `</td><td></td><td></td><td></td></tr>`,
     `<tr><td><b>dilution</b></td><td class="num">${esc(m.dilution[0])}</td><td class="num">` +
       `${esc(pm(m.dilution[1]))}</td><td></td><td></td><td></td></tr></table></section>`,
-    `<section class="block"><h2>Readings as logged</h2>`,
+    `${premixHtml}<section class="block"><h2>Readings as logged</h2>`,
     `<table><tr><th>#</th><th>fill</th><th>gauge</th><th>as read</th><th>absolute</th><th>tank T</th>` +
       `<th>time</th><th>by</th><th>note</th></tr>${readings}</table></section>`,
     `<section class="block"><h2>Corrections and acknowledgements</h2>`,
@@ -190,6 +206,7 @@ export function certificateToMarkdown(m: CertificateModel): string {
     `| dilution | ${m.dilution[0]} | ${pm(m.dilution[1])} | | | |`,
     '',
   );
+  if (m.premix.length) out.push('## Premix', '', ...m.premix.flatMap((p) => [pm(p), '']));
   out.push(
     '## Readings as logged',
     '',
@@ -263,6 +280,7 @@ export function certificateToText(m: CertificateModel): string {
   ];
   rows.push(['phi', m.phi[0], m.phi[1], '', '', ''], ['dilution', m.dilution[0], m.dilution[1], '', '', '']);
   out.push(...padTable(rows, [false, true, true, true, true, false]).map((l) => `  ${l}`), '');
+  if (m.premix.length) out.push('PREMIX', ...m.premix.map((p) => `  ${p}`), '');
   out.push('READINGS AS LOGGED');
   const rr = [
     ['#', 'fill', 'gauge', 'as read', 'absolute', 'tank T', 'time', 'by', 'note'],

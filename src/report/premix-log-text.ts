@@ -10,12 +10,16 @@ import type { PressureUnit } from './units.js';
 
 type Use = NonNullable<Plan['premixLog']>;
 
-/** "O2 0.134230 +- 0.00035  Ar 0.865769 +- 0.00035" (U with k = 2) */
-export function premixLogComposition(p: Use): string {
+/** one gas a line: ["O2 0.134230 +- 0.00035", "Ar 0.865769 +- 0.00035"] (U with k = 2) */
+export function premixLogFractions(p: Use): string[] {
   return Object.entries(p.composition)
     .filter(([, v]) => v >= 1e-4)
-    .map(([k, v]) => `${k} ${fixedSig(v, 6)} +- ${fixedSig(2 * (p.u[k] ?? 0), 2)}`)
-    .join('  ');
+    .map(([k, v]) => `${k} ${fixedSig(v, 6)} +- ${fixedSig(2 * (p.u[k] ?? 0), 2)}`);
+}
+
+/** "O2 0.134230 +- 0.00035  Ar 0.865769 +- 0.00035" (U with k = 2) */
+export function premixLogComposition(p: Use): string {
+  return premixLogFractions(p).join('  ');
 }
 
 /** "less 0.0802 mol drawn by batches/b.jsonl" */

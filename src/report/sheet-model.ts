@@ -10,8 +10,10 @@ import {
   diagramPoint,
   fillLabel,
   GIVEN_VOLUME_TANK,
+  mixingEstimate,
   STANDING_CAUTION,
   type Finding,
+  type Gauge,
   type MixingEstimate,
   type Plan,
   type PlanStep,
@@ -47,6 +49,35 @@ export interface SheetRow {
    * a non-last charge's stop reading is its target
    */
   readonly chargeNote?: string;
+  /** a reading to take and tick before this fill, printed as its own row of the Fills table above it */
+  readonly check?: SheetCheck;
+}
+
+/**
+ * A reading to take and tick before a fill, as a row of the Fills table: what to read, on which
+ * gauge, the lowest reading allowed, and what to do below it (the premix tank before it delivers).
+ */
+export interface SheetCheck {
+  /** what is read, e.g. "Premix tank MT-2" */
+  readonly what: string;
+  /** when, e.g. "before fill 3" */
+  readonly when: string;
+  readonly gauge: string;
+  readonly reference: 'absolute' | 'gauge';
+  /** the lowest reading allowed, in the gauge's unit, rounded up to its display step */
+  readonly minimum: string;
+  readonly unit: string;
+  /** the reading the plan expects, in the gauge's unit */
+  readonly planned: string;
+  /** the check in words under its row: how to read it, and what to do below the minimum */
+  readonly note: string;
+}
+
+/** what the sheet needs of the lab profile beyond the plan: gauges for a check reading, tank heights for mixing */
+export interface SheetLab {
+  readonly gauges: readonly Gauge[];
+  readonly reading: { readonly barometricPa: number; readonly barometricUncertaintyPa: number };
+  readonly tanks: readonly { readonly id: string; readonly heightM?: number; readonly stirred?: boolean }[];
 }
 
 export interface SheetModel {
@@ -56,6 +87,7 @@ export interface SheetModel {
   readonly labName: string;
   readonly version: string;
   readonly paper: 'a4' | 'letter';
+  /** label and value; a value of several lines (one gas a line) holds '\n' between them */
   readonly design: readonly [string, string][];
   readonly composition: readonly [string, string][];
   readonly preChecks: readonly string[];
@@ -84,8 +116,15 @@ export interface SheetMeta {
   readonly batchId?: string;
   readonly version: string;
   readonly paper: 'a4' | 'letter';
-  /** the diffusion estimate of `mixwright ready`, when the tank height is known */
+  /** the diffusion estimate of `mixwright ready`, when the tank height is known (else from `lab`) */
   readonly mixing?: MixingEstimate;
+  /** the lab profile's gauges and tanks: the premix tank's check reading and the tanks' mixing times */
+  readonly lab?: SheetLab;
+  /**
+   * stage 1 of a two-stage preparation: the batch that draws from this premix, so that the
+   * mixing line says the premix must be uniform before stage 2 draws from it
+   */
+  readonly premixFor?: string;
   /** the barometric pressure the gauge-referenced targets assume, and whether it was given for today (--barometer) */
   readonly barometer?: {
     readonly pressurePa: number;
@@ -170,15 +209,64 @@ function barometerLines(plan: Plan, meta: SheetMeta): string[] | undefined {
 
 const SEVERITY_ORDER: Severity[] = ['danger', 'warning', 'note'];
 
-function mixingLine(m?: MixingEstimate): string {
+/** the diffusion estimate of the plan's own tank: given by the caller, else from the lab profile's height */
+function mixingOf(plan: Plan, meta: SheetMeta): { m: MixingEstimate; heightM?: number } | undefined {
+  const tank = meta.lab?.tanks.find((t) => t.id === plan.tank.id);
+  if (meta.mixing) return { m: meta.mixing, heightM: tank?.heightM };
+  if (!tank?.heightM) return undefined;
+  return {
+    m: mixingEstimate(
+      plan.composition,
+      plan.temperatureK,
+      plan.final.pressurePa,
+      tank.heightM,
+      Boolean(tank.stirred),
+    ),
+    heightM: tank.heightM,
+  };
+}
+
+/** the diffusion times and their basis: the tank's height, the final pressure and temperature, the D used */
+function mixingBasis(plan: Plan, meta: SheetMeta, m: MixingEstimate, heightM?: number): string {
+  const pair = m.pair!;
+  const over = heightM
+    ? ` over the ${fixedSig(heightM * 100, 3)} cm height of ${plan.tank.id} (lab profile)`
+    : '';
+  return (
+    `by diffusion alone${over} at ${pressure(plan.final.pressurePa, meta.unit, 5)} and ` +
+    `${(plan.temperatureK - 273.15).toFixed(1)} degC: ${duration(m.to1PercentS!)} to 1 %, ` +
+    `${duration(m.to01PercentS!)} to 0.1 % residual non-uniformity (slowest pair ${pair.a}-${pair.b}, ` +
+    `D ${pair.governingM2s.toExponential(2)} m2/s, the smaller of Fuller and Chapman-Enskog` +
+    (m.findings.some((f) => f.severity === 'warning')
+      ? '; pairs without diffusion data left out: may take longer)'
+      : ')')
+  );
+}
+
+function mixingLine(plan: Plan, meta: SheetMeta): string {
+  const mix = mixingOf(plan, meta);
+  const m = mix?.m;
   if (!m?.pair || m.to1PercentS === undefined || m.to01PercentS === undefined)
-    return 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
+    return meta.premixFor
+      ? `Premix uniform before stage 2 (${meta.premixFor}) draws from it: stirrer on ________ min, or rest ` +
+          '________ h (no diffusion estimate: the lab profile gives no height for this tank; diffusion ' +
+          'alone takes hours)'
+      : 'Mixing: stirrer on ________ min, or rest ________ h before the first use (diffusion alone takes hours)';
   const est =
     `diffusion alone: about ${duration(m.to1PercentS)} to 1 %, ${duration(m.to01PercentS)} ` +
     `to 0.1 % (slowest pair ${m.pair.a}-${m.pair.b}` +
     (m.findings.some((f) => f.severity === 'warning')
       ? '; pairs without diffusion data left out: may take longer)'
       : ')');
+  if (meta.premixFor) {
+    // stage 1: the premix must be uniform before stage 2 draws from it; the basis on its own line
+    const basis = mixingBasis(plan, meta, m, mix?.heightM);
+    return m.stirred
+      ? `Premix uniform before stage 2 (${meta.premixFor}) draws from it: stirrer on ________ min (common ` +
+          `practice: 15-30 min); without the stirrer rest at least ${duration(m.to01PercentS)}\n${basis}`
+      : `Premix uniform before stage 2 (${meta.premixFor}) draws from it: unstirred tank, rest at least ` +
+          `${duration(m.to01PercentS)}, from ______ to ______\n${basis}`;
+  }
   return m.stirred
     ? `Mixing: stirrer on ________ min (${est} without it)`
     : `Mixing: unstirred tank, ${est}; rest at least ________ h before the first use`;
@@ -379,7 +467,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     .map(([k, v]) => [k, fixedSig(v, 6)]);
   const postChecks = [
     'All cylinder and line valves closed; tank valve closed; line evacuated or vented safely',
-    mixingLine(meta.mixing),
+    mixingLine(plan, meta),
     'Final reading after mixing: ________ at ________ degC',
   ];
   const today = new Date().toISOString().slice(0, 10);

@@ -1,5 +1,5 @@
 /** The fill checklist in three formats, each a pure function of the sheet model. */
-import type { SheetModel } from './sheet-model.js';
+import type { SheetCheck, SheetModel } from './sheet-model.js';
 import { padTable } from './format.js';
 
 const esc = (s: string) =>
@@ -33,6 +33,10 @@ const CSS = (paper: 'a4' | 'letter') =>
     `table.steps tr { break-inside: avoid; page-break-inside: avoid; }`,
     `table.steps td.target { font-size: 15pt; font-weight: bold; white-space: nowrap; }`,
     `table.steps td.blank { min-width: 26mm; }`,
+    `table.steps td.gauge, table.steps td.band { white-space: nowrap; }`,
+    `table.steps td.gas { min-width: 32mm; }`,
+    `.whole { white-space: nowrap; }`,
+    `table.steps td.target .over { display: block; font-size: 8.5pt; font-weight: normal; }`,
     `table.steps td.small { width: 13mm; }`,
     `tr.before td { border-bottom: none; font-weight: bold; font-size: 9.5pt; }`,
     `tr.charge td { border-top: none; font-size: 9.5pt; padding-top: 0.4mm; }`,
@@ -53,29 +57,61 @@ const CSS = (paper: 'a4' | 'letter') =>
     '',
   ].join('\n');
 
+/** a check of several lines ('\n'): the first as the item, the rest smaller under it */
+const checkHtml = (c: string) => {
+  const [first, ...more] = c.split('\n');
+  return `<li>${BOX} ${esc(first)}${more.map((l) => `<br><span class="unit">${esc(l)}</span>`).join('')}</li>`;
+};
+const checkMd = (c: string) => `- [ ] ${c.split('\n').join('<br>')}`;
+const checkText = (c: string) => {
+  const [first, ...more] = c.split('\n');
+  return [`  [ ] ${first}`, ...more.map((l) => `      ${l}`)];
+};
+
+/** the gauge cell of a Fills row: its id, and whether it reads above ambient */
+const gaugeCell = (id: string, reference: 'absolute' | 'gauge') =>
+  `<td class="gauge">${esc(id)}${reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td>`;
+
+/** the cells to write in: actual reading, time, initials, and the tick box */
+const BLANKS = `<td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td>`;
+
+/** a check reading as a row of the Fills table (the premix tank before it delivers), its note under it */
+function checkRowHtml(c: SheetCheck): string {
+  return (
+    `<tr class="check"><td></td><td class="gas"><b class="whole">${esc(c.what)}</b><br>` +
+    `<span class="unit">${esc(c.when)}</span></td>${gaugeCell(c.gauge, c.reference)}` +
+    `<td class="target"><span class="over">at least</span>${esc(c.minimum)} <span class="unit">` +
+    `${esc(c.unit)}</span></td><td class="band">planned<br>${esc(c.planned)}</td>${BLANKS}</tr>` +
+    `<tr class="charge"><td></td><td colspan="8">${esc(c.note)}</td></tr>`
+  );
+}
+
 function paragraphs(lines: readonly string[]): string {
   return lines.map((l) => `<p>${esc(l)}</p>`).join('');
 }
 
 export function sheetToHtml(m: SheetModel): string {
   const kv = (rows: readonly [string, string][]) =>
-    `<table class="kv">${rows.map(([k, v]) => `<tr><td>${esc(k)}</td><td>${esc(v)}</td></tr>`).join('')}</table>`;
+    `<table class="kv">${rows
+      .map(([k, v]) => `<tr><td>${esc(k)}</td><td>${v.split('\n').map(esc).join('<br>')}</td></tr>`)
+      .join('')}</table>`;
   const steps = m.rows
     .map((r) => {
       const before = r.before.length
         ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
         : '';
+      const check = r.check ? checkRowHtml(r.check) : '';
       const charge = r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : '';
       const note = r.chargeNote
         ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8">${esc(r.chargeNote)}</td></tr>`
         : '';
+      // a band finer than the display step is said in words, which may wrap
+      const band = r.band.startsWith('+-') ? '<td>' : '<td class="band">';
       return (
-        `${before}<tr><td>${r.n}</td><td><b>${esc(r.fill)}</b>${esc(charge)}<br><span class="unit">${esc(r.source)}` +
-        `</span></td><td>${esc(r.gauge)}` +
-        `${r.reference === 'gauge' ? '<br><span class="unit">gauge-referenced</span>' : ''}</td><td ` +
-        (`class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td><td>` +
-          `${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td><td `) +
-        `class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td></tr>${note}`
+        `${before}${check}<tr><td>${r.n}</td><td class="gas"><b>${esc(r.fill)}</b>${esc(charge)}` +
+        `<br><span class="unit">${esc(r.source)}</span></td>${gaugeCell(r.gauge, r.reference)}` +
+        `<td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td>${band}` +
+        `${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td>${BLANKS}</tr>${note}`
       );
     })
     .join('\n');
@@ -111,7 +147,7 @@ export function sheetToHtml(m: SheetModel): string {
     `<div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole ` +
       `fraction)</h2>${kv(m.composition)}</div></div>`,
     `<section class="block"><h2>Before filling</h2>`,
-    `<ul class="checks">${m.preChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>` + `</section>`,
+    `<ul class="checks">${m.preChecks.map(checkHtml).join('')}</ul>` + `</section>`,
     `<section class="block"><h2>Fills (target = reading to stop at, on that gauge)</h2>`,
     `<table class="steps">`,
     `<tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th><th>actual ` +
@@ -121,7 +157,7 @@ export function sheetToHtml(m: SheetModel): string {
     `${m.barometer ? `<div class="baro"><b>Barometer.</b> ${paragraphs(m.barometer)}</div>` : ''}` +
       `</section>`,
     `<section class="block"><h2>After filling</h2>`,
-    `<ul class="checks">${m.postChecks.map((c) => `<li>${BOX} ${esc(c)}</li>`).join('')}</ul>` + `</section>`,
+    `<ul class="checks">${m.postChecks.map(checkHtml).join('')}</ul>` + `</section>`,
     `<section class="block"><h2>Tank label</h2>`,
     `<div class="label">${m.label.map(esc).join('<br>')}</div></section>`,
     `<section class="findings-block"><h2>Findings</h2>`,
@@ -149,7 +185,14 @@ export function sheetToMarkdown(m: SheetModel): string {
       '> **DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.**',
       '',
     );
-  out.push('## Design', '', '| | |', '|---|---|', ...m.design.map(([k, v]) => `| ${k} | ${v} |`), '');
+  out.push(
+    '## Design',
+    '',
+    '| | |',
+    '|---|---|',
+    ...m.design.map(([k, v]) => `| ${k} | ${v.split('\n').join('<br>')} |`),
+    '',
+  );
   out.push(
     '## Composition (mole fraction)',
     '',
@@ -158,7 +201,7 @@ export function sheetToMarkdown(m: SheetModel): string {
     ...m.composition.map(([k, v]) => `| ${k} | ${v} |`),
     '',
   );
-  out.push('## Before filling', '', ...m.preChecks.map((c) => `- [ ] ${c}`), '');
+  out.push('## Before filling', '', ...m.preChecks.map(checkMd), '');
   out.push(
     '## Fills (target = reading to stop at, on that gauge)',
     '',
@@ -167,6 +210,13 @@ export function sheetToMarkdown(m: SheetModel): string {
   );
   for (const r of m.rows) {
     for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
+    const c = r.check;
+    if (c)
+      out.push(
+        `| | **${c.what}** (${c.when}) | ${c.gauge}${c.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
+          `| **at least ${c.minimum} ${c.unit}** | planned ${c.planned} | | | | [ ] |`,
+        `| | ${c.note} | | | | | | | |`,
+      );
     out.push(
       `| ${r.n} | **${r.fill}**${r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : ''} ` +
         `(${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
@@ -176,7 +226,7 @@ export function sheetToMarkdown(m: SheetModel): string {
     if (r.chargeNote) out.push(`| | ${r.chargeNote} | | | | | | | |`);
   }
   if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
-  out.push('', '## After filling', '', ...m.postChecks.map((c) => `- [ ] ${c}`), '');
+  out.push('', '## After filling', '', ...m.postChecks.map(checkMd), '');
   out.push('## Tank label', '', '```', ...m.label, '```', '');
   out.push('## Findings', '');
   if (m.findings.length)
@@ -216,7 +266,10 @@ export function sheetToText(m: SheetModel): string {
       '',
     );
   out.push('DESIGN');
-  for (const [k, v] of m.design) out.push(`  ${k.padEnd(10)} ${v}`);
+  for (const [k, v] of m.design) {
+    const [first, ...more] = v.split('\n');
+    out.push(`  ${k.padEnd(10)} ${first}`, ...more.map((l) => `  ${''.padEnd(10)} ${l}`));
+  }
   out.push(
     '',
     'COMPOSITION (mole fraction)',
@@ -224,11 +277,25 @@ export function sheetToText(m: SheetModel): string {
     '',
   );
   out.push('BEFORE FILLING');
-  for (const c of m.preChecks) out.push(`  [ ] ${c}`);
+  for (const c of m.preChecks) out.push(...checkText(c));
   out.push('', 'FILLS (target = reading to stop at, on that gauge)');
   const rows: string[][] = [
     ['#', 'gas', 'cylinder', 'gauge', 'target', 'band', 'actual', 'time', 'init', 'done'],
   ];
+  // a check row (the premix tank's reading) sits in the table above its fill, in the same columns
+  const checkRow = (c: SheetCheck) => [
+    '',
+    'check',
+    c.what.replace(/^Premix tank /, ''),
+    c.gauge + (c.reference === 'gauge' ? ' (g)' : ''),
+    `>= ${c.minimum} ${c.unit}`,
+    `plan ${c.planned}`,
+    '__________',
+    '_____',
+    '____',
+    '[ ]',
+  ];
+  for (const r of m.rows) if (r.check) rows.push(checkRow(r.check));
   for (const r of m.rows)
     rows.push([
       String(r.n),
@@ -243,15 +310,18 @@ export function sheetToText(m: SheetModel): string {
       '[ ]',
     ]);
   const table = padTable(rows, [true, false, false, false, true, true, false, false, false, false]);
+  const checks = m.rows.filter((r) => r.check).length;
   out.push(`  ${table[0]}`);
+  let k = 1;
   m.rows.forEach((r, i) => {
     for (const b of r.before) out.push(`  >> before fill ${r.n}: ${b}`);
-    out.push(`  ${table[i + 1]}`);
+    if (r.check) out.push(`  ${table[k++]}`, `     ^ ${r.check.note}`);
+    out.push(`  ${table[checks + i + 1]}`);
     if (r.chargeNote) out.push(`     ^ fill ${r.n}: ${r.chargeNote}`);
   });
   if (m.barometer) out.push('', 'BAROMETER', ...m.barometer.map((l) => `  ${l}`));
   out.push('', 'AFTER FILLING');
-  for (const c of m.postChecks) out.push(`  [ ] ${c}`);
+  for (const c of m.postChecks) out.push(...checkText(c));
   out.push('', 'TANK LABEL', ...m.label.map((l) => `  | ${l}`), '');
   out.push('FINDINGS');
   if (m.findings.length)

@@ -1,18 +1,155 @@
 /**
  * The fill sheet of a two-stage preparation: one sheet per stage, stage 1 (the premix) first,
  * each built by the sheet's own model and renderer; the stage-2 sheet says which premix it
- * draws from (composition +- U from stage 1) and how low the premix tank may fall. A single-tank
- * plan gives its one sheet unchanged.
+ * draws from (composition +- U from stage 1, one gas a line) and, as a row of its Fills table,
+ * the premix tank's reading to tick before the premix fill. Stage 1 says how long the premix
+ * takes to become uniform before stage 2 draws from it. A single-tank plan gives its one sheet
+ * unchanged; a batch drawn from a premix log gets the same premix rows and check row.
  */
-import { predictionOf, type Plan } from '../core/index.js';
-import { fixedSig, pressure, tankName } from './format.js';
-import type { SheetMeta, SheetModel } from './sheet-model.js';
-import { premixLogComposition } from './premix-log-text.js';
+import {
+  chooseGauge,
+  gaugeReadingPa,
+  mixingEstimate,
+  predictionOf,
+  premixStartForEndPa,
+  type GasSource,
+  type Plan,
+  type PremixDeliveryCheck,
+} from '../core/index.js';
+import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
+import type { SheetCheck, SheetLab, SheetMeta, SheetModel } from './sheet-model.js';
+import { premixLogFractions } from './premix-log-text.js';
+import { duration } from './ready-report.js';
+import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 
 type Build = (plan: Plan, meta: SheetMeta) => SheetModel;
 
+/** the premix a batch draws from, whichever way it was planned */
+interface Draw {
+  readonly tankId: string;
+  readonly source: GasSource;
+  readonly volumeM3: number;
+  readonly delivery: PremixDeliveryCheck;
+  /** the highest the premix tank may read before the batch: its last fill's band top, or its log's last reading */
+  readonly upperPa: number;
+}
+
+function drawOf(plan: Plan): Draw | undefined {
+  const t = plan.twoStage;
+  if (t) {
+    const last = t.premix.steps[t.premix.steps.length - 1];
+    return {
+      tankId: t.premix.tank.id,
+      source: t.source,
+      volumeM3: t.premix.tank.volumeM3,
+      delivery: t.delivery,
+      upperPa: Math.max(t.delivery.startPa, last ? last.targetPa + last.bandPa : 0),
+    };
+  }
+  const p = plan.premixLog;
+  return (
+    p && {
+      tankId: p.tank.id,
+      source: p.source,
+      volumeM3: p.tank.volumeM3,
+      delivery: p.delivery,
+      upperPa: Math.max(p.delivery.startPa, p.lastReadingPa),
+    }
+  );
+}
+
+const fillList = (ns: readonly number[]) =>
+  ns.length === 1 ? `fill ${ns[0]}` : `fills ${ns.slice(0, -1).join(', ')} and ${ns[ns.length - 1]}`;
+
+/**
+ * The premix tank's reading before the batch's first premix fill: at least the pressure from which
+ * delivering the batch's premix still leaves it, settled, at the required pressure (the batch reading
+ * its last premix charge must reach + PREMIX_DELIVERY_MARGIN; the plan's `premix-runs-low` limit).
+ */
+function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: PressureUnit) {
+  const fills = plan.steps.filter((s) => s.source.id === d.source.id);
+  if (!fills.length) return undefined;
+  const del = d.delivery;
+  const minPa = premixStartForEndPa({
+    composition: d.source.composition,
+    volumeM3: d.volumeM3,
+    temperatureK: plan.temperatureK,
+    endPa: del.requiredPa,
+    deliveredMol: del.deliveredMol,
+  });
+  const g = lab && chooseGauge(lab.gauges, minPa, d.upperPa, lab.reading)?.gauge;
+  const gu: PressureUnit = g && isPressureUnit(g.unit) ? g.unit : unit;
+  const shown = (pa: number) => fromPa(g && lab ? gaugeReadingPa(g, pa, lab.reading) : pa, gu);
+  // the gauge's display step, else about five significant digits; a minimum is rounded up
+  const dec = g
+    ? decimalsFor(fromPa(g.resolutionPa, gu))
+    : Math.max(0, 4 - Math.floor(Math.log10(Math.abs(shown(minPa)))));
+  const step = 10 ** -dec;
+  const minimum = (Math.ceil(shown(minPa) / step - 1e-9) * step).toFixed(dec);
+  const planned = shown(del.startPa).toFixed(dec);
+  const tank = tankName(d.tankId);
+  const first = fills[0].index;
+  const which = fillList(fills.map((s) => s.index));
+  const gaugeName = g ? g.id : lab ? 'NO GAUGE' : 'a gauge that reads it';
+  const readOn = g
+    ? `read ${tank} on ${g.id}` +
+      (g.reference === 'gauge' && lab
+        ? ` (gauge-referenced: the minimum assumes a barometric pressure of ` +
+          `${pressure(lab.reading.barometricPa, 'Torr', 5)}; add the assumed minus today's barometer)`
+        : '')
+    : lab
+      ? `no gauge of the lab profile reads ${tank} from ${pressure(minPa, unit, 5)} to ` +
+        `${pressure(d.upperPa, unit, 5)}: read it on one that does`
+      : `read ${tank}`;
+  const check: SheetCheck = {
+    what: `Premix tank ${tank}`,
+    when: `before fill ${first}`,
+    gauge: gaugeName,
+    reference: g?.reference ?? 'absolute',
+    minimum,
+    unit: gu,
+    planned,
+    note:
+      `Before fill ${first}, with the ${tankName(plan.tank.id)} valve closed and the line filled from ${tank}, ` +
+      `${readOn}: at least ${minimum} ${gu} (planned ${planned} ${gu}). Below that, do not fill from it: ` +
+      `delivering the ${fixedSig(del.deliveredMol, 3)} mol of ${which} would leave ${tank} below ` +
+      `${pressure(del.requiredPa, unit, 5)} (the ${pressure(del.targetPa, unit, 5)} that ` +
+      `${tankName(plan.tank.id)} must reach at fill ${fills[fills.length - 1].index}, + 10 % for a ` +
+      `controllable flow at the end); make a new premix or a smaller batch.`,
+  };
+  return { fill: first, check };
+}
+
+/** the premix tank's mixing estimate at its pressure before the batch, from the lab profile's height */
+function premixMixing(plan: Plan, d: Draw, lab: SheetLab | undefined): string | undefined {
+  const info = lab?.tanks.find((t) => t.id === d.tankId);
+  if (!info?.heightM) return undefined;
+  const m = mixingEstimate(
+    d.source.composition,
+    plan.temperatureK,
+    d.delivery.startPa,
+    info.heightM,
+    Boolean(info.stirred),
+  );
+  if (m.to01PercentS === undefined) return undefined;
+  return info.stirred
+    ? 'stirred ________ min since its last fill (common practice: 15-30 min), or rested at least ' +
+        `${duration(m.to01PercentS)} (diffusion alone to 0.1 %)`
+    : `rested at least ${duration(m.to01PercentS)} since its last fill (unstirred, diffusion alone to 0.1 %): ` +
+        'since ______';
+}
+
+/** the batch's checks before filling that a premix adds: the premix tank mixed since its fill */
+function premixPreCheck(plan: Plan, d: Draw, lab: SheetLab | undefined): string {
+  const how = premixMixing(plan, d, lab);
+  return (
+    `Premix in ${tankName(d.tankId)} uniform before the batch draws from it: ` +
+    (how ?? 'stirred ________ min or rested ________ h since its last fill (diffusion alone takes hours)')
+  );
+}
+
 /** the rows the stage-2 sheet adds to its design block: the premix source and its tank's pressures */
-function premixRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] {
+function premixRows(plan: Plan, unit: SheetMeta['unit'], checkFill?: number): [string, string][] {
   const t = plan.twoStage!;
   const st = predictionOf(t.premix);
   const comp = Object.entries(t.source.composition)
@@ -20,27 +157,27 @@ function premixRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] {
     .map(([k, v]) => {
       const u = st?.result.composition[k]?.u;
       return u !== undefined ? `${k} ${fixedSig(v, 6)} ± ${fixedSig(2 * u, 2)}` : `${k} ${fixedSig(v, 6)}`;
-    })
-    .join(', ');
+    });
   const d = t.delivery;
   return [
     ['Stage', `2 of 2: the batch, from the premix of stage 1 (${t.source.id})`],
+    ['Premix', [...comp, '(stage-1 prediction, U with k = 2)'].join('\n')],
     [
-      'Premix',
-      `${comp} (stage-1 prediction, U with k = 2). The targets of this sheet are from that prediction: ` +
-        'once stage 1 is filled, re-print this sheet with `sheet --premix-log` and the stage-1 log, whose ' +
-        're-checked premix gives the targets to fill to',
+      'Targets',
+      'from that prediction: once stage 1 is filled, re-print this sheet with `sheet --premix-log` and ' +
+        'the stage-1 log, whose re-checked premix gives the targets to fill to',
     ],
     [
       'Premix tank',
       `${tankName(t.premix.tank.id)} at ${pressure(d.startPa, unit, 5)} before; ` +
-        `${pressure(d.endPa, unit, 5)} after (settled); it must stay above ${pressure(d.requiredPa, unit, 5)}`,
+        `${pressure(d.endPa, unit, 5)} after (settled); it must stay above ${pressure(d.requiredPa, unit, 5)}` +
+        (checkFill ? `: read it before fill ${checkFill} (Fills)` : ''),
     ],
   ];
 }
 
 /** the rows a batch drawn from an existing premix tank adds: the premix log, its composition, its tank */
-function premixLogRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] {
+function premixLogRows(plan: Plan, unit: SheetMeta['unit'], checkFill?: number): [string, string][] {
   const p = plan.premixLog;
   if (!p) return [];
   const d = p.delivery;
@@ -55,14 +192,32 @@ function premixLogRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] 
       'Premix log',
       `${p.log} (${p.source.id}; last entry ${p.lastEntrySha256.slice(0, 12)}): check that it is this tank's log`,
     ],
-    ['Premix', `${premixLogComposition(p)} (re-checked from its log, U with k = 2)`],
+    ['Premix', [...premixLogFractions(p), '(re-checked from its log, U with k = 2)'].join('\n')],
     [
       'Premix tank',
       `${tankName(p.tank.id)} at ${pressure(d.startPa, unit, 5)} before (last reading ` +
         `${pressure(p.lastReadingPa, unit, 5)}${drawn}); ${pressure(d.endPa, unit, 5)} after (settled); ` +
-        `it must stay above ${pressure(d.requiredPa, unit, 5)}: read it before the premix fill`,
+        `it must stay above ${pressure(d.requiredPa, unit, 5)}` +
+        (checkFill ? `: read it before fill ${checkFill} (Fills)` : ''),
     ],
   ];
+}
+
+/** the batch's sheet with its premix: the design rows, the premix tank's check row and its mixing pre-check */
+function withPremix(plan: Plan, sheet: SheetModel, meta: SheetMeta): SheetModel {
+  const d = drawOf(plan);
+  if (!d) return sheet;
+  const c = premixCheck(plan, d, meta.lab, meta.unit);
+  const rows = plan.twoStage ? premixRows(plan, meta.unit, c?.fill) : premixLogRows(plan, meta.unit, c?.fill);
+  // the pre-checks end with the cylinders' line; the premix's mixing goes before it
+  const pre = [...sheet.preChecks];
+  pre.splice(Math.max(0, pre.length - 1), 0, premixPreCheck(plan, d, meta.lab));
+  return {
+    ...sheet,
+    design: [...rows, ...sheet.design],
+    preChecks: pre,
+    rows: sheet.rows.map((r) => (c && r.n === c.fill ? { ...r, check: c.check } : r)),
+  };
 }
 
 /**
@@ -71,12 +226,13 @@ function premixLogRows(plan: Plan, unit: SheetMeta['unit']): [string, string][] 
  */
 export function stageSheets(plan: Plan, meta: SheetMeta, build: Build): SheetModel[] {
   const t = plan.twoStage;
-  if (!t) {
-    const sheet = build(plan, meta);
-    const rows = premixLogRows(plan, meta.unit);
-    return [rows.length ? { ...sheet, design: [...rows, ...sheet.design] } : sheet];
-  }
+  if (!t) return [withPremix(plan, build(plan, meta), meta)];
   const title = meta.recipe.title ?? meta.recipe.id;
+  const stage2 = withPremix(
+    plan,
+    build(plan, { ...meta, recipe: { ...meta.recipe, title: `Stage 2 of 2: ${title}` } }),
+    meta,
+  );
   const premixMeta: SheetMeta = {
     ...meta,
     recipe: {
@@ -85,16 +241,16 @@ export function stageSheets(plan: Plan, meta: SheetMeta, build: Build): SheetMod
     },
     batchId: meta.batchId ? `${meta.batchId}-premix` : undefined,
     orderRecommended: true,
+    // the premix tank's own mixing time (from the lab profile), said as what stage 2 waits for
     mixing: undefined,
+    premixFor: stage2.batchId,
   };
   const stage1 = build(t.premix, premixMeta);
-  const stage2 = build(plan, { ...meta, recipe: { ...meta.recipe, title: `Stage 2 of 2: ${title}` } });
   const one: SheetModel = {
     ...stage1,
     design: [['Stage', `1 of 2: the premix that stage 2 (${stage2.batchId}) draws from`], ...stage1.design],
   };
-  const two: SheetModel = { ...stage2, design: [...premixRows(plan, meta.unit), ...stage2.design] };
-  return [one, two];
+  return [one, stage2];
 }
 
 /** the rendered sheets as one document: text and Markdown one after the other, HTML bodies joined with a page break */

@@ -269,6 +269,11 @@ export function wizardAct(
           version: ctx.version,
           paper: 'a4',
           mixing,
+          lab: {
+            gauges: built.req.input.gauges,
+            reading: built.req.input.reading,
+            tanks: built.req.lab.tanks,
+          },
         },
         buildSheetModel,
       );

@@ -4,6 +4,7 @@ import {
   planTwoStage,
   premixDelivery,
   premixDeliveryCheck,
+  premixStartForEndPa,
   PREMIX_DELIVERY_MARGIN,
   type TwoStagePlan,
 } from '../../src/core/index.js';
@@ -65,6 +66,32 @@ describe('premixDelivery: settled end pressure against CoolProp 8.0.0 (HEOS Ar-O
   });
 });
 
+describe('premixStartForEndPa: the start pressure a delivery needs, against CoolProp 8.0.0 (HEOS Ar-O2 mixture)', () => {
+  it.each(ref.cases)(
+    '$composition.O2 O2 in Ar: the start of $delivered_mol mol drawn to its settled end',
+    (c) => {
+      const start = premixStartForEndPa({
+        composition: c.composition,
+        volumeM3: c.volume_m3,
+        temperatureK: c.temperature_K,
+        endPa: c.end_Pa,
+        deliveredMol: c.delivered_mol,
+      });
+      // the reference EOS's start of the same delivery, the virial model's 0.02 % (as premixDelivery above)
+      expect(Math.abs(start / c.start_Pa - 1)).toBeLessThan(2e-4);
+      // and premixDelivery from that start ends where asked (round trip of our own model, 1e-9 relative)
+      const back = premixDelivery({
+        composition: c.composition,
+        volumeM3: c.volume_m3,
+        temperatureK: c.temperature_K,
+        startPa: start,
+        deliveredMol: c.delivered_mol,
+      });
+      expect(Math.abs(back.endPa / c.end_Pa - 1)).toBeLessThan(1e-9);
+    },
+  );
+});
+
 describe('the delivery check on both sides of its limit (demo batch ch4-o2-ar-phi1 with a premix in MT-2)', () => {
   const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
   const mt2 = req.lab.tanks.find((t) => t.id === 'MT-2')!;
@@ -95,6 +122,17 @@ describe('the delivery check on both sides of its limit (demo batch ch4-o2-ar-ph
     }
     return hi;
   })();
+
+  it('premixStartForEndPa at the required end is the bisection limit of premixDelivery (identity, 1e-9 relative)', () => {
+    const start = premixStartForEndPa({
+      composition: two.source.composition,
+      volumeM3: mt2.volumeM3,
+      temperatureK: req.input.temperatureK,
+      endPa: delivery.requiredPa,
+      deliveredMol: delivery.deliveredMol,
+    });
+    expect(Math.abs(start / limit - 1)).toBeLessThan(1e-9);
+  });
 
   it('the required end pressure is the target of the last premix charge plus the margin (identity)', () => {
     const last = two.batch.steps.filter((s) => s.source.id === two.source.id).at(-1)!;

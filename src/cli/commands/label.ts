@@ -1,8 +1,9 @@
 /** `mixwright label`: the as-filled tank label and batch certificate, from a batch log. */
 import { Option, type Command } from 'commander';
-import { ProblemError } from '../../core/index.js';
-import { readLog } from '../../io/batch-log.js';
+import { describeProblem, ProblemError, type PremixLogCause } from '../../core/index.js';
+import { readLog, type ParsedLog } from '../../io/batch-log.js';
 import { checkLog } from '../../io/check.js';
+import type { CheckReport } from '../../report/check-types.js';
 import { buildCertificateModel } from '../../report/label-certificate.js';
 import { certificateToHtml, certificateToMarkdown, certificateToText } from '../../report/label-render.js';
 import { VERSION } from '../../version.js';
@@ -19,13 +20,66 @@ interface LabelOptions {
   seed: string;
 }
 
+/** a refused premix log's cause in a few words, for the label itself (the certificate gives the whole refusal) */
+function shortCause(kind: PremixLogCause['kind']): string {
+  switch (kind) {
+    case 'unreadable':
+      return 'its log is missing or unreadable';
+    case 'changed':
+      return 'its log has changed since this batch recorded it';
+    case 'record-altered':
+      return 'its log was altered after it was written';
+    case 'not-finished':
+      return 'its log is not finished';
+    case 'recheck-not-passed':
+      return 'its re-check does not pass';
+    case 'danger':
+      return 'its log records a danger';
+    default:
+      return 'its log cannot be used';
+  }
+}
+
+/**
+ * The re-check behind the label: `check`'s, premix logs re-checked. A premix log that is missing,
+ * changed since the batch recorded it, or not usable stops `check` (exit 2); the label is made all
+ * the same, from the premix as the batch log recorded it, and says the premix was not re-checked.
+ */
+async function labelReport(log: ParsedLog, opts: { trials: number; seed: number }): Promise<CheckReport> {
+  try {
+    return await checkLog(log, opts);
+  } catch (e) {
+    if (!(e instanceof ProblemError) || e.problem.code !== 'premix-log-refused') throw e;
+    const refused = e.problem;
+    const report = await checkLog(log, opts, false);
+    return {
+      ...report,
+      premixNotChecked: (log.header.premix_logs ?? []).map((p) => ({
+        log: p.path,
+        source: p.source,
+        // a premix's source id is `premix-<tank>` (io/premix-check.ts premixIdOf)
+        tank: p.source.replace(/^premix-/, ''),
+        // the refusal names one premix log; any other is not re-checked either, as the re-check stopped
+        short:
+          refused.log === p.path
+            ? shortCause(refused.cause.kind)
+            : 'another premix log of this batch stopped the re-check',
+        why:
+          refused.log === p.path
+            ? `${describeProblem(refused)}.`
+            : 'not re-checked: the re-check stopped at another premix log of this batch.',
+      })),
+    };
+  }
+}
+
 async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
   if (isDirectory(target) || !/\.jsonl$/i.test(target))
     throw new ProblemError({ code: 'label-needs-log' }, { file: target });
   const trials = parseTrials(o.trials, 200000, 'plain');
   const log = readLog(target);
   // the same computation as `check` of this log, so the label and `check --json` agree
-  const report = await checkLog(log, { trials, seed: numberOption(o.seed, '--seed') });
+  const report = await labelReport(log, { trials, seed: numberOption(o.seed, '--seed') });
   const model = buildCertificateModel(report, log, {
     version: VERSION,
     paper: o.paper,
@@ -43,6 +97,14 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
     render,
     () => certificateToHtml(model),
   );
+  // as `check` of this log (exit 2): the premix it was made from could not be re-checked
+  if (model.label.status === 'premix-not-checked') {
+    cli.err(
+      `mixwright: ${target}: a premix log it was made from is missing, changed or not usable; the ` +
+        `label says so and does not show the premix as checked (restore the premix log and make the label again)\n`,
+    );
+    throw new ExitSignal(EXIT.input);
+  }
   if (model.label.status === 'fail' || model.label.status === 'incomplete') {
     cli.err(
       `mixwright: ${target}: the re-check FAILED; the label says so and gives the ` +

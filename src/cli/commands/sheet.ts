@@ -1,6 +1,6 @@
 /** `mixwright sheet`: the printable fill checklist. */
 import { Option, type Command } from 'commander';
-import { allStageFindings, mixingEstimate, worstSeverity } from '../../core/index.js';
+import { allStageFindings, worstSeverity } from '../../core/index.js';
 import { buildSheetModel, type SheetModel } from '../../report/sheet-model.js';
 import { joinSheets, stageSheets } from '../../report/two-stage-sheet.js';
 import { sheetToHtml, sheetToMarkdown, sheetToText } from '../../report/sheet-render.js';
@@ -22,16 +22,6 @@ async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions):
   const format = sheetFormat(o.format, o.output);
   if (o.output) checkOutputTarget(o.output, Boolean(o.force));
   const { plan, req, unit, meta } = planFrom(recipeFile, o);
-  const h = req.tankInfo?.heightM;
-  const mixing = h
-    ? mixingEstimate(
-        plan.composition,
-        plan.temperatureK,
-        plan.final.pressurePa,
-        h,
-        Boolean(req.tankInfo?.stirred),
-      )
-    : undefined;
   // a two-stage plan prints one sheet per stage, stage 1 first (report/two-stage-sheet.ts)
   const models = stageSheets(
     plan,
@@ -43,7 +33,8 @@ async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions):
       batchId: o.batch,
       version: VERSION,
       paper: o.paper,
-      mixing,
+      // the lab's gauges and tank heights: the premix tank's check reading, each tank's mixing time
+      lab: { gauges: req.input.gauges, reading: req.input.reading, tanks: req.lab.tanks },
       barometer: meta.barometer,
     },
     buildSheetModel,
