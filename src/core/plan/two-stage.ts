@@ -204,7 +204,11 @@ export function premixDeliveryCheck(
   return { check, findings };
 }
 
-/** stage 2 planned once per premix composition: the premix source stands in with its nominal composition */
+/**
+ * stage 2 planned once per premix composition: the premix source stands in with its nominal
+ * composition, in the advised order (the order advice, without the sequence search): the premix
+ * choices are ranked on it, and the chosen one's batch gets the full search (`replanned`)
+ */
 interface BatchDraft {
   readonly plan: ReturnType<typeof planFill>;
   readonly sourceId: string;
@@ -254,7 +258,14 @@ function planBatchDraft(
     tank: input.premixTank.id,
     ...premixGas,
   });
-  const plan = planFill({ ...b, sources: [...others, draft], order: 'recommend', charges: undefined });
+  // no thermometer: the advice's order, not the sequence search (run once, for the chosen premix)
+  const plan = planFill({
+    ...b,
+    sources: [...others, draft],
+    order: 'recommend',
+    charges: undefined,
+    thermometer: undefined,
+  });
   return { plan, sourceId: draft.id };
 }
 
