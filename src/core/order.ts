@@ -123,7 +123,7 @@ export function fillHazards(f: FillEvent, ctx: SafetyContext): Finding[] {
   const found: Finding[] = [];
   if (!f.after.final)
     found.push(
-      ...reviewState(f.after, ctx).findings.filter(
+      ...reviewState(f.after, ctx, 'severity').findings.filter(
         (x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation',
       ),
     );
