@@ -58,10 +58,27 @@ const lazyMath = {
   },
 };
 
+// commander loads child_process at start-up for executable subcommands, which mixwright has none
+// of: the bundle gets it on first use instead (loading it costs every command milliseconds)
+const lazyChildProcess = {
+  name: 'lazy-child-process',
+  setup(b) {
+    b.onLoad({ filter: /commander[\\/]lib[\\/]command\.js$/ }, async (args) => {
+      const { readFile } = await import('node:fs/promises');
+      const text = await readFile(args.path, 'utf8');
+      const eager = "const childProcess = require('node:child_process');";
+      if (!text.includes(eager)) throw new Error(`commander changed: "${eager}" not found in ${args.path}`);
+      const lazy =
+        "const childProcess = { get spawn() { return require('node:child_process').spawn; } };";
+      return { contents: text.replace(eager, lazy), loader: 'js' };
+    });
+  },
+};
+
 // the commands: one CommonJS function body (dist/cli.cjs) that the command's loader compiles with
 // V8's code cache (scripts/cli-load.mjs); import.meta.url is the loader's argument
 await build({
-  plugins: [tuiExternal, lazyMath],
+  plugins: [tuiExternal, lazyMath, lazyChildProcess],
   entryPoints: ['src/cli/start.ts'],
   ...base,
   format: 'cjs',

@@ -8,6 +8,7 @@ import { diagramPoint } from './flammability.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
 import { equilibriumWorkspace, rootOfIncreasing } from './equilibrium.js';
+import { rootNear } from './root-increasing.js';
 import { fail } from './problems.js';
 import { DETONATION_LIMITS, type DetonationLimits } from './data/detonation-data.js';
 import {
@@ -114,13 +115,27 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
   const { h0, v0, massKg } = ws;
   let tGuess = 2500;
   let firstStep = 100;
+  // the last two Hugoniot points, for a linear guess of the next one's temperature
+  let last: { r: number; t: number } | undefined;
+  let before: { r: number; t: number } | undefined;
+  const done = new Map<number, { w2: number; t: number; p2: number }>();
   const hugoniot = (r: number) => {
+    const known = done.get(r);
+    if (known) return known;
     const v2 = v0 / r;
+    // the pressure at the last temperature tried: the root is often that point
+    let seen = { t: NaN, p: NaN };
     const f = (t: number) => {
       const s = ws.at(t, v2);
+      seen = { t, p: s.pressurePa };
       return s.enthalpyJ - h0 - 0.5 * (s.pressurePa - pressurePa) * (v0 + v2);
     };
-    const t = rootOfIncreasing(f, temperatureK, 6000, tGuess, 1e-5, firstStep);
+    let t: number | undefined;
+    if (last && before && last.r !== before.r) {
+      // the Hugoniot temperature is smooth in r: from the line through the last two points
+      const guess = last.t + ((last.t - before.t) / (last.r - before.r)) * (r - last.r);
+      t = rootNear(f, temperatureK, 6000, guess, 1e-5, 1);
+    } else t = rootOfIncreasing(f, temperatureK, 6000, tGuess, 1e-5, firstStep);
     if (t === undefined)
       return fail({
         code: 'equilibrium-not-converged',
@@ -129,8 +144,12 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
     // the next density ratio is close: its Hugoniot temperature is within a few tens of kelvin
     firstStep = Math.max(1, Math.min(100, Math.abs(t - tGuess) * 1.5));
     tGuess = t;
-    const p2 = ws.at(t, v2).pressurePa;
-    return { w2: ((p2 - pressurePa) * v0 * v0) / (massKg * (v0 - v2)), t, p2 };
+    before = last;
+    last = { r, t };
+    const p2 = t === seen.t ? seen.p : ws.at(t, v2).pressurePa;
+    const out = { w2: ((p2 - pressurePa) * v0 * v0) / (massKg * (v0 - v2)), t, p2 };
+    done.set(r, out);
+    return out;
   };
   const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, 1e-5);
   const h = hugoniot(r);

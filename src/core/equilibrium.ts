@@ -19,7 +19,7 @@ import { closedVesselCombustion, completeCombustion, flameTemperatureK } from '.
 import type { Fractions } from './composition.js';
 import { elementTotals, GAS_FITS, hsc, systemFor, T_MAX_K } from './equilibrium-species.js';
 import { Solver, type EquilibriumState } from './equilibrium-solver.js';
-import { rootIncreasing } from './root-increasing.js';
+import { rootNear } from './root-increasing.js';
 
 export { equilibriumGaps, EQUILIBRIUM_SPECIES_COUNT } from './equilibrium-species.js';
 export type { EquilibriumState } from './equilibrium-solver.js';
@@ -113,14 +113,16 @@ export function equilibriumUV(y: Fractions, temperatureK: number, pressurePa: nu
   return memo('UV', y, temperatureK, pressurePa, () => {
     const { sys, b, u0, v0, products } = initialState(y, temperatureK, pressurePa);
     const s = new Solver(sys, b, products);
+    let last = NaN;
     const f = (t: number) => {
       if (!s.solveTV(t, v0)) notConverged(`closed-vessel equilibrium at ${t.toFixed(0)} K`);
+      last = t;
       return s.totals(t).u - u0;
     };
     const lo = Math.max(120, temperatureK - 50);
-    const t = rootIncreasing(f, lo, T_MAX_K, completeGuessK(y, temperatureK, 'UV'), 1e-5);
+    const t = rootNear(f, lo, T_MAX_K, completeGuessK(y, temperatureK, 'UV'), 1e-5, 100);
     if (t === undefined) notConverged('closed-vessel equilibrium: end temperature outside 120-6000 K');
-    f(t);
+    if (t !== last) f(t);
     return s.state(t, v0);
   });
 }
@@ -190,15 +192,16 @@ export function equilibriumHP(y: Fractions, temperatureK: number, pressurePa: nu
       tLast = t;
       return s.totals(t).h - h0;
     };
-    const t = rootIncreasing(
+    const t = rootNear(
       f,
       Math.max(120, temperatureK - 50),
       T_MAX_K,
       completeGuessK(y, temperatureK, 'HP'),
       1e-4,
+      100,
     );
     if (t === undefined) notConverged('flame equilibrium: temperature outside 120-6000 K');
-    f(t);
+    if (t !== tLast) f(t);
     return s.state(t, v);
   });
 }

@@ -181,6 +181,21 @@ function crossEntry(
 
 /** Build the B matrix and pure C values of a set of species at one temperature. */
 export function virialModel(speciesKeys: readonly string[], temperatureK: number): VirialModel {
+  // a pure function of its arguments, asked again and again with the same ones (every prediction of a
+  // search evaluates each reading's temperature and its two neighbours): kept, never changed by callers
+  const key = `${speciesKeys.join(',')}|${temperatureK}`;
+  const hit = modelCache.get(key);
+  if (hit) return hit;
+  const m = buildVirialModel(speciesKeys, temperatureK);
+  if (modelCache.size >= MODEL_CACHE_SIZE) modelCache.clear();
+  modelCache.set(key, m);
+  return m;
+}
+
+const MODEL_CACHE_SIZE = 512;
+const modelCache = new Map<string, VirialModel>();
+
+function buildVirialModel(speciesKeys: readonly string[], temperatureK: number): VirialModel {
   const records = speciesKeys.map((k) => getSpecies(k));
   const consts = records.map((r) => correlationConstants(r, temperatureK));
   const n = records.length;

@@ -51,11 +51,6 @@ export const ORDER_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'n2o-decomposition',
 ]);
 
-function permutations<T>(xs: readonly T[]): T[][] {
-  if (xs.length <= 1) return [[...xs]];
-  return xs.flatMap((x, i) => permutations([...xs.slice(0, i), ...xs.slice(i + 1)]).map((p) => [x, ...p]));
-}
-
 /** one charge as the scoring sees it: a source and the mol it delivers (a source may come more than once) */
 export interface ScoredCharge {
   readonly source: GasSource;
@@ -128,7 +123,7 @@ export function fillHazards(f: FillEvent, ctx: SafetyContext): Finding[] {
   const found: Finding[] = [];
   if (!f.after.final)
     found.push(
-      ...reviewState(f.after, ctx).findings.filter(
+      ...reviewState(f.after, ctx, 'severity').findings.filter(
         (x) => ORDER_RELEVANT.has(x.code) && x.code !== 'condensation',
       ),
     );
@@ -203,6 +198,107 @@ function better(a: OrderScore, b: OrderScore): boolean {
 
 const MAX_EXHAUSTIVE = 6;
 
+type Common = Omit<ScoreRequest, 'order'> & { readonly cache: ReviewCache };
+
+/** the score's ranking key: dangers, warnings, notes, inversions (compared in that order) */
+function keyOf(danger: number, warning: number, note: number, inversions: number): number[] {
+  return [danger, warning, note, inversions];
+}
+
+/** a < b in the ranking (the first differing entry decides) */
+function lessThan(a: readonly number[], b: readonly number[]): boolean {
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i] < b[i];
+  return false;
+}
+
+/**
+ * The best order of every permutation of the sources (smallest-first order first), by
+ * depth-first search with a bound: the hazards of a fill are counted whatever follows it and
+ * the pairs a prefix puts out of smallest-first order stay out of order, so a prefix whose
+ * counts already rank no better than the best order found cannot lead to a better one and is
+ * not followed. The orders are visited in the order the full enumeration visits them and an
+ * order replaces the best only when strictly better, so the result is the full enumeration's;
+ * each fill is reviewed as the enumeration first met it (its prefix smallest-first), from the
+ * shared cache.
+ */
+function bestOrder(
+  ascending: GasSource[],
+  common: Common,
+  ascendingScore: OrderScore,
+): { best: GasSource[]; bestScore: OrderScore } {
+  const { cache } = common;
+  const n = ascending.length;
+  let best: GasSource[] = ascending;
+  let bestScore = ascendingScore;
+  let bestKey = keyOf(bestScore.danger, bestScore.warning, bestScore.note, bestScore.inversions);
+  const used = new Array<boolean>(n).fill(false);
+  const prefix: number[] = [];
+  const hazards: Finding[] = [];
+  let inv = 0;
+  const counts = { danger: 0, warning: 0, note: 0 };
+  // the fill at position |prefix| as the full enumeration first reviews it: the prefix's set
+  // smallest-first, then this source, then the rest smallest-first
+  const reviewed = (j: number): Finding[] => {
+    const set = [...prefix].sort((a, b) => a - b);
+    const key = `${set.join(',')}>${j}`;
+    let found = cache.get(key);
+    if (!found) {
+      const rest = ascending.map((_, i) => i).filter((i) => i !== j && !set.includes(i));
+      const order = [...set, j, ...rest].map((i) => ascending[i]);
+      const { fills } = sequenceOf(order, common.amounts, common.finalPa, common.initial);
+      found = fillHazards(fills[set.length], common.ctx);
+      cache.set(key, found);
+    }
+    const i = prefix.length;
+    return found.map((h) => ({ ...h, step: h.step === undefined ? undefined : i + 1 }));
+  };
+  const visit = (): void => {
+    if (prefix.length === n) {
+      const order = prefix.map((i) => ascending[i]);
+      const sc = counted([...hazards], inv);
+      if (better(sc, bestScore)) {
+        best = order;
+        bestScore = sc;
+        bestKey = keyOf(sc.danger, sc.warning, sc.note, sc.inversions);
+      }
+      return;
+    }
+    for (let j = 0; j < n; j++) {
+      if (used[j]) continue;
+      // pairs this source makes out of order with the sources still to come (a smaller one after it)
+      let addInv = 0;
+      for (let r = 0; r < j; r++) if (!used[r]) addInv++;
+      const found = reviewed(j);
+      const add = { danger: 0, warning: 0, note: 0 };
+      for (const h of found) if (h.severity in add) add[h.severity as keyof typeof add]++;
+      const bound = keyOf(
+        counts.danger + add.danger,
+        counts.warning + add.warning,
+        counts.note + add.note,
+        inv + addInv,
+      );
+      if (!lessThan(bound, bestKey)) continue;
+      used[j] = true;
+      prefix.push(j);
+      hazards.push(...found);
+      inv += addInv;
+      counts.danger += add.danger;
+      counts.warning += add.warning;
+      counts.note += add.note;
+      visit();
+      counts.danger -= add.danger;
+      counts.warning -= add.warning;
+      counts.note -= add.note;
+      inv -= addInv;
+      hazards.length -= found.length;
+      prefix.pop();
+      used[j] = false;
+    }
+  };
+  visit();
+  return { best, bestScore };
+}
+
 /**
  * @param sources the fills, in any order; `amountsMol` the mol each delivers (same order)
  * @param initial gas already in the tank, with its amount on the same scale
@@ -216,19 +312,13 @@ export function adviseOrder(
 ): OrderAdvice {
   const amounts = new Map(sources.map((s, i) => [s, amountsMol[i]]));
   const ascending = [...sources].sort((a, b) => amounts.get(a)! - amounts.get(b)!);
-  const candidates = sources.length <= MAX_EXHAUSTIVE ? permutations(ascending) : [ascending];
-  let best = ascending;
   const cache: ReviewCache = new Map();
   const common = { amounts, ascending, finalPa, ctx, initial, cache };
-  let bestScore = scoreOrder({ order: ascending, ...common });
-  const ascendingScore = bestScore;
-  for (const c of candidates) {
-    const sc = scoreOrder({ order: c, ...common });
-    if (better(sc, bestScore)) {
-      best = c;
-      bestScore = sc;
-    }
-  }
+  const ascendingScore = scoreOrder({ order: ascending, ...common });
+  const { best, bestScore } =
+    sources.length <= MAX_EXHAUSTIVE
+      ? bestOrder(ascending, common, ascendingScore)
+      : { best: ascending, bestScore: ascendingScore };
   const clean = bestScore.danger === 0 && bestScore.warning === 0 && bestScore.note === 0;
   const names = (o: readonly GasSource[]) => o.map((s) => s.id);
   let reason: string;

@@ -65,3 +65,39 @@ export function rootIncreasing(
   }
   return (a + b) / 2;
 }
+
+/**
+ * root of an increasing f near a good guess (a smooth f, the previous root of a nearby
+ * problem extrapolated): secant steps from `guess` and `guess` +- `step`; when the next step
+ * is below `tol`, the last point evaluated is returned (within `tol` of the root: the secant
+ * converges faster than linearly, so the step left is about its error), so the caller has f
+ * evaluated there; rootIncreasing from the last point when a step leaves [lo, hi], the slope
+ * is not positive, or 30 steps do not converge.
+ */
+export function rootNear(
+  f: (x: number) => number,
+  lo: number,
+  hi: number,
+  guess: number,
+  tol: number,
+  step: number,
+): number | undefined {
+  let x0 = Math.min(hi, Math.max(lo, guess));
+  let f0 = f(x0);
+  if (f0 === 0) return x0;
+  let x1 = Math.min(hi, Math.max(lo, x0 + (f0 > 0 ? -step : step)));
+  let f1 = f(x1);
+  for (let it = 0; it < 30; it++) {
+    if (f1 === 0) return x1;
+    const slope = (f1 - f0) / (x1 - x0);
+    if (!(slope > 0) || !Number.isFinite(slope)) break;
+    const x2 = x1 - f1 / slope;
+    if (!(x2 >= lo && x2 <= hi)) break;
+    if (Math.abs(x2 - x1) < tol) return x1;
+    x0 = x1;
+    f0 = f1;
+    x1 = x2;
+    f1 = f(x2);
+  }
+  return rootIncreasing(f, lo, hi, x1, tol, step);
+}

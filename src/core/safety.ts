@@ -111,15 +111,21 @@ export function flammabilityNumbers(
   };
 }
 
-/** the hazards of one state, as findings */
+/** the hazards of one state, as findings; `detail` 'severity' leaves out the numbers no severity depends on */
 export function reviewState(
   s: TankState,
   ctx: SafetyContext,
+  detail: 'full' | 'severity' = 'full',
 ): { findings: Finding[]; flammability: FlammabilityAssessment } {
   const out: Finding[] = [];
   const step = s.step > 0 ? s.step : undefined;
   const a = assessFlammability(s.composition, ctx.temperatureK, s.pressurePa);
-  const nums = flammabilityNumbers(a, s.pressurePa, s.composition, ctx.temperatureK);
+  // the equilibrium flame temperature is a number the finding shows, never part of its severity:
+  // the order advice and the sequence search, which weigh severities only, leave it out
+  const nums =
+    detail === 'full'
+      ? flammabilityNumbers(a, s.pressurePa, s.composition, ctx.temperatureK)
+      : flammabilityNumbers(a, s.pressurePa);
   if (a.verdict === 'flammable') {
     out.push({ severity: 'warning', code: s.final ? 'flammable-mixture' : 'flammable-state', step, ...nums });
     // detonation and closed-vessel pressure: flammable states only (explosion-review.ts)

@@ -50,7 +50,7 @@
  * openLogForFill: an exclusive lock file beside the log, and a torn last line moved aside to
  * a side file before anything is appended. A log is never overwritten.
  */
-import { createHash } from 'node:crypto';
+import { nodeCrypto, nodeOs } from './builtins.js';
 import {
   closeSync,
   fstatSync,
@@ -64,7 +64,6 @@ import {
   renameSync,
   unlinkSync,
 } from 'node:fs';
-import { hostname } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
 import { z } from 'zod';
@@ -438,7 +437,7 @@ export function workingLimitOf(h: LogHeader): number | undefined {
 
 // ---------------------------------------------------------------- line hashes
 
-const sha256 = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
+const sha256 = (s: string) => nodeCrypto().createHash('sha256').update(s, 'utf8').digest('hex');
 
 /** the chain of a line: SHA-256 of the previous link, a line feed, and the line's JSON without its chain */
 export function chainOf(previousLink: string, eventJson: string): string {
@@ -1156,7 +1155,7 @@ const LOCK_ATTEMPTS = 4;
 function acquireLock(lockPath: string, logPath: string, now: string): { info: LockInfo; message?: string } {
   const info: LockInfo = {
     pid: process.pid,
-    host: hostname(),
+    host: nodeOs().hostname(),
     started: now,
     ...(bootId() ? { boot: bootId() } : {}),
   };

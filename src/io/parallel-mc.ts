@@ -5,7 +5,7 @@
  */
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import { nodeWorkerThreads } from './builtins.js';
 import {
   evaluateUncertainty,
   ProblemError,
@@ -58,7 +58,7 @@ export async function evaluateUncertaintyParallel(
     jobs.map(
       (job) =>
         new Promise<Float64Array[]>((resolve, reject) => {
-          const w = new Worker(script, { workerData: job });
+          const w = new (nodeWorkerThreads().Worker)(script, { workerData: job });
           w.once('message', (m: Float64Array[] | { problem: Problem; where: Where }) => {
             if (Array.isArray(m)) resolve(m);
             else reject(new ProblemError(m.problem, m.where));

@@ -1,7 +1,6 @@
 /** PDF through headless Chromium, where it is installed. */
-import { spawnSync } from 'node:child_process';
+import { nodeChildProcess, nodeOs } from './builtins.js';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fail } from '../core/index.js';
 import { writeFileAtomic } from './atomic.js';
@@ -10,7 +9,7 @@ const CANDIDATES = ['chromium', 'chromium-browser', 'google-chrome'];
 
 export function findChromium(): string | undefined {
   for (const c of CANDIDATES) {
-    const r = spawnSync('sh', ['-c', `command -v ${c}`], { encoding: 'utf8' });
+    const r = nodeChildProcess().spawnSync('sh', ['-c', `command -v ${c}`], { encoding: 'utf8' });
     if (r.status === 0 && r.stdout.trim()) return r.stdout.trim();
   }
   return undefined;
@@ -21,12 +20,12 @@ export async function writePdf(html: string, output: string, force: boolean): Pr
   if (!chromium) {
     fail({ code: 'pdf-no-browser' }, { field: '--format pdf' });
   }
-  const dir = mkdtempSync(join(tmpdir(), 'mixwright-pdf-'));
+  const dir = mkdtempSync(join(nodeOs().tmpdir(), 'mixwright-pdf-'));
   try {
     const src = join(dir, 'sheet.html');
     const pdf = join(dir, 'sheet.pdf');
     writeFileSync(src, html);
-    const r = spawnSync(
+    const r = nodeChildProcess().spawnSync(
       chromium,
       [
         '--headless',

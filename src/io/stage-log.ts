@@ -10,7 +10,7 @@
  * batch, and on a resume the same bytes as when the batch was started from it. Each refusal is a
  * `stage-fill` problem, worded in core/stage-words.ts.
  */
-import { createHash } from 'node:crypto';
+import { nodeCrypto } from './builtins.js';
 import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve } from 'node:path';
 import {
@@ -40,7 +40,7 @@ export function batchLogBeside(premixLog: string, batchId: string): string {
 /** sha256 of a file's bytes; null when it cannot be read */
 export function fileSha256(file: string): string | null {
   try {
-    return createHash('sha256').update(readFileSync(file)).digest('hex');
+    return nodeCrypto().createHash('sha256').update(readFileSync(file)).digest('hex');
   } catch {
     return null;
   }

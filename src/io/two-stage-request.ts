@@ -101,7 +101,8 @@ export function premixName(composition: Readonly<Record<string, number>>, minor:
 
 /**
  * When the single-tank plan predicts a design fraction over tolerance and the lab has another
- * tank: plan the two stages (the same search `--premix-tank` runs) and, when it does better, a
+ * tank: plan the two stages (the search `--premix-tank` runs, less the premix pressures at which the
+ * premix tank certainly runs low: a danger the proposal never offers) and, when it does better, a
  * note naming the option and the U it gives. A refusal of the two-stage plan proposes nothing.
  * `plan` is req's single-tank plan with its prediction (`planWithPrediction(planFill(req.input), req)`):
  * the search takes it as its single-tank plan instead of planning it again.
@@ -120,7 +121,7 @@ export function twoStageProposal(
     try {
       // the single-tank plan is this plan (planFill of req.input, predicted with the lab's thermometer)
       const input = { batch: req.input, premixTank: tank, thermometer: thermometerOf(req) };
-      const two = planTwoStage(input, 'full', plan);
+      const two = planTwoStage(input, 'proposal', plan);
       const danger = [...two.premix.findings, ...two.batch.findings].some((f) => f.severity === 'danger');
       if (!danger && two.worstRatio < (best?.worstRatio ?? singleRatio)) best = two;
     } catch (e) {

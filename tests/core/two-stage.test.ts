@@ -9,6 +9,9 @@ import {
   type TwoStagePlan,
 } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { TORR } from '../helpers.js';
 
 const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
@@ -111,6 +114,47 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     const mt1 = req.lab.tanks.find((t) => t.id === 'MT-1')!;
     expect(() => planTwoStage({ batch: req.input, premixTank: mt1, thermometer })).toThrowError(
       expect.objectContaining({ problem: { code: 'two-stage-refused', kind: 'same-tank', tank: 'MT-1' } }),
+    );
+  });
+});
+
+// The proposal's search leaves out the premix pressures whose tank certainly runs low (premix-runs-low,
+// a danger it never offers): its choice is the full search's whenever that one has no danger, and a
+// premix tank too small for every choice yields no proposal. Structural identities, no outside number.
+describe('two-stage search for a proposal (plan without --premix-tank)', () => {
+  it('ch4-o2-ar-phi1 in MT-1 with MT-2: the same choice, batch and U as the full search', () => {
+    const full = planTwoStage({ batch: req.input, premixTank: mt2, thermometer });
+    const proposal = planTwoStage({ batch: req.input, premixTank: mt2, thermometer }, 'proposal');
+    expect(proposal.choice).toEqual(full.choice);
+    expect(proposal.worstRatio).toBe(full.worstRatio);
+    expect(proposal.batch.steps.map((s) => s.targetPa)).toEqual(full.batch.steps.map((s) => s.targetPa));
+  });
+
+  it('the 5-source demo design (CH4+H2, O2, Ar+He, 1500 Torr in the 30 L MT-2) from the 10 L MT-1: every full-search choice runs low (danger); the proposal search plans none', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-two-'));
+    const file = join(dir, 'five.yaml');
+    writeFileSync(
+      file,
+      [
+        'id: five',
+        'tank: MT-2',
+        'mixture:',
+        '  fuel: { CH4: 0.5, H2: 0.5 }',
+        '  oxidizer: O2',
+        '  diluent: { Ar: 0.5, He: 0.5 }',
+        '  phi: 0.5',
+        '  dilution: 0.9',
+        'pressure: 1500 Torr',
+        'temperature: 22 degC',
+        '',
+      ].join('\n'),
+    );
+    const five = buildPlanRequest(readRecipe(file));
+    const mt1 = five.lab.tanks.find((t) => t.id === 'MT-1')!;
+    const full = planTwoStage({ batch: five.input, premixTank: mt1, thermometer });
+    expect(allStageFindings(full.batch).some((f) => f.code === 'premix-runs-low')).toBe(true);
+    expect(() => planTwoStage({ batch: five.input, premixTank: mt1, thermometer }, 'proposal')).toThrow(
+      /two-stage-refused/,
     );
   });
 });

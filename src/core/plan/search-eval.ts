@@ -157,7 +157,7 @@ function fillHazards(ctx: SearchContext, f: FillEvent, quick: boolean): Finding[
   // only on the vapour's own amount (as in the advice)
   if (!f.after.final)
     found.push(
-      ...reviewState(f.after, safety).findings.filter(
+      ...reviewState(f.after, safety, 'severity').findings.filter(
         (x) => countsAgainstSequence(x) && x.code !== 'condensation',
       ),
     );

@@ -204,10 +204,16 @@ export function premixDeliveryCheck(
   return { check, findings };
 }
 
-/** stage 2 planned once per premix composition: the premix source stands in with its nominal composition */
+/**
+ * stage 2 planned once per premix composition: the premix source stands in with its nominal
+ * composition, in the advised order (the order advice, without the sequence search): the premix
+ * choices are ranked on it, and the chosen one's batch gets the full search (`replanned`)
+ */
 interface BatchDraft {
   readonly plan: ReturnType<typeof planFill>;
   readonly sourceId: string;
+  /** the premix source as the draft has it: the nominal composition */
+  readonly source: GasSource;
 }
 
 function premixId(input: TwoStageInput): string {
@@ -254,8 +260,15 @@ function planBatchDraft(
     tank: input.premixTank.id,
     ...premixGas,
   });
-  const plan = planFill({ ...b, sources: [...others, draft], order: 'recommend', charges: undefined });
-  return { plan, sourceId: draft.id };
+  // no thermometer: the advice's order, not the sequence search (run once, for the chosen premix)
+  const plan = planFill({
+    ...b,
+    sources: [...others, draft],
+    order: 'recommend',
+    charges: undefined,
+    thermometer: undefined,
+  });
+  return { plan, sourceId: draft.id, source: draft };
 }
 
 /** stage 1 for one choice: the premix planned in its tank, in the order and on the heads chosen */
@@ -348,8 +361,12 @@ function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): Pre
   }
 }
 
-/** 'full' searches every choice; 'quick' (a proposal) the matched premix near the tank's limit only */
-export type TwoStageSearch = 'full' | 'quick';
+/**
+ * 'full' searches every choice; 'quick' the matched premix near the tank's limit only; 'proposal'
+ * every choice but those whose premix tank certainly runs low (a danger the plan's proposal never
+ * offers: the result is the full search's whenever that has no danger)
+ */
+export type TwoStageSearch = 'full' | 'quick' | 'proposal';
 
 /**
  * The ranking of choices: no danger first, then every design fraction within tolerance, then the
@@ -439,7 +456,16 @@ export function planTwoStage(
           unidentified: first.unidentifiedFraction,
           pressurePa: pressures[0],
         });
+        // every choice of this composition delivers what the draft's premix charges deliver, to the
+        // same readings: the delivery check on the draft is each choice's (its premix composition is
+        // the draft's nominal one); a premix pressure that certainly runs low is left out of a proposal
+        const runsLow = (pressurePa: number) => {
+          if (search !== 'proposal') return false;
+          const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
+          return check.endPa < check.requiredPa * (1 - 1e-9);
+        };
         for (const { choice, gauges } of choicesFor(input, base, pressures)) {
+          if (runsLow(choice.pressurePa)) continue;
           tried++;
           attempt(() => {
             const c = planChoice(input, choice, gauges, draft);
