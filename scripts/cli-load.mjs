@@ -10,7 +10,7 @@
 // flags); the result is the same either way. CRC-32 (zlib's, hardware-assisted) rather than a
 // cryptographic hash: it guards against accidents, not tampering, and loading OpenSSL's digests
 // would cost the start-up more than the check is worth.
-import { Buffer } from 'node:buffer';
+import { Buffer, isAscii } from 'node:buffer';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname } from 'node:path';
@@ -63,7 +63,9 @@ export function loadBundle(dir, useCache = true) {
   const file = fileURLToPath(new URL(BUNDLE, dir));
   const bundle = readFileSync(file);
   const cachedData = useCache ? readCache(`${file}.cache`, bundle) : undefined;
-  const script = new vm.Script(HEAD + bundle.toString('utf8') + TAIL, {
+  // esbuild writes ASCII (non-ASCII text escaped): decoded as latin1, the same string, in half the time
+  const text = isAscii(bundle) ? bundle.toString('latin1') : bundle.toString('utf8');
+  const script = new vm.Script(HEAD + text + TAIL, {
     filename: file,
     cachedData,
   });

@@ -294,7 +294,8 @@ export function parseQuantity(
   if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) {
     return fail({ code: 'bad-quantity', text: s, expected, fault: { kind: 'unit-missing' } }, where);
   }
-  const typed = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([°℃℉]?[A-Za-z]*(?:\([ag]\))?)$/.exec(s);
+  const typed =
+    /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([\u00B0\u2103\u2109]?[A-Za-z]*(?:\([ag]\))?)$/.exec(s);
   if (typed && own(MISREAD, typed[2]) && expected === 'temperature') {
     const m = MISREAD[typed[2]];
     return fail(

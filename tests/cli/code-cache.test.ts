@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { isAscii } from 'node:buffer';
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
@@ -56,6 +57,10 @@ describe('the code cache of the built command', { timeout: 240_000 }, () => {
   const none = copy();
   rmSync(join(none, 'cli.cjs.cache'));
   const reference = CASES.map((args) => run(none, args));
+
+  it('the bundle is ASCII (the loader decodes it as latin1, the fast path; a non-ASCII character falls back to UTF-8)', () => {
+    expect(isAscii(readFileSync(resolve('dist/cli.cjs')))).toBe(true);
+  });
 
   it('is used as built, and every output equals the run without a cache', () => {
     expect(cacheUsed(dist)).toBe(true);
