@@ -30,6 +30,7 @@ import type { PlanRequest } from './load.js';
 import { chargeNumbers, TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
+  acceptedHazardsOf,
   verdictCaveats,
   withinFile,
   type ChargeNumber,
@@ -352,8 +353,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions): Promise<Chec
       limitPa: workingLimitOf(h),
       from: 'log',
     },
-    caveats: verdictCaveats(findings),
-    record: { alteredLines: alteredLinesOf(log), closed: log.closed },
+    caveats: verdictCaveats(findings, undefined, acceptedHazardsOf(log.acknowledgements)),
+    record: {
+      alteredLines: alteredLinesOf(log),
+      closed: log.closed,
+      acceptedHazards: acceptedHazardsOf(log.acknowledgements),
+    },
     premixLogs: premix.map(premixLogReport),
   };
 }
