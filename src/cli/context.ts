@@ -17,6 +17,8 @@ export const EXIT = {
   /** `check`: the verdict stands on a record changed after it was written (a line off its hash chain) */
   recordAltered: 5,
   interrupted: 130,
+  /** `check`: the guided fill went on through hazards its review found and the plan did not have */
+  acceptedHazard: 6,
 } as const;
 
 /** thrown by a command to end with an exit code (its message is already printed) */

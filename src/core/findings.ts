@@ -59,6 +59,8 @@ export type Finding = Base &
         readonly source: string;
         readonly supplyPa: number;
         readonly targetPa: number;
+        /** the supply the charge needs: the target plus the delivery margin (supply-check.ts), Pa */
+        readonly requiredPa: number;
       }
     | { readonly code: 'tank-rating-unknown'; readonly tank: string }
     | {
@@ -550,9 +552,11 @@ const SUPPLY: WordingTable<
     `the finished batch carries ${(f.fraction * 1e6).toPrecision(3)} ppm ${f.species} ` +
     `from cylinder impurities`,
   'supply-pressure-low': (f, p) =>
-    `${f.source} delivers at ${p(f.supplyPa)}, not above the ${p(f.targetPa)} ` +
-    `the tank must reach in this fill; the fill cannot be completed from it - ` +
-    `raise the regulator setting (within the cylinder's and line's ratings) or ` +
+    `${f.source} delivers at ${p(f.supplyPa)}, below the ${p(f.requiredPa)} this fill needs ` +
+    `(the ${p(f.targetPa)} the tank must reach plus a ${marginPercent(f)} % margin, so that the end of the fill ` +
+    `still flows through the metering valve at a controllable rate)` +
+    (f.supplyPa <= f.targetPa ? `; the fill cannot be completed from it` : '') +
+    ` - raise the regulator setting (within the cylinder's and line's ratings) or ` +
     `lower the final pressure`,
   'batch-too-small': (f, p) =>
     `the batch serves no experiment in ${f.reactor}: at ${p(f.finalPa)} the tank ` +
@@ -814,4 +818,9 @@ function describePremixInPlace(f: Extract<Finding, { code: 'premix-in-place' }>)
     `To fill each gas from its own cylinder, name them one by one in the fill order, e.g. ` +
     `--order ${f.order.join(',')} (or order: in the recipe); the safety review then judges that order`
   );
+}
+
+/** the delivery margin a supply finding applied, in per cent */
+function marginPercent(f: { readonly requiredPa: number; readonly targetPa: number }): number {
+  return Math.round((f.requiredPa / f.targetPa - 1) * 100);
 }

@@ -588,7 +588,9 @@ type CommandLineProblemCode =
   | 'bad-temperature-difference'
   | 'order-stop'
   | FileProblemCode
-  | RecipeProblemCode;
+  | RecipeProblemCode
+  // a readings CSV row naming a premix of an earlier stage (io/csv-names.ts)
+  | 'csv-premix-needs-log';
 
 /** the wording of the problems raised by the command line and recipe files (continued) */
 function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProblemCode }>): string {
@@ -632,6 +634,18 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
     // raised by the fill order (charges and their stops)
     case 'order-stop':
       return describeOrderStop(p.entry, p.fault);
+    case 'csv-premix-needs-log':
+      return (
+        `"${p.name}" names the premix filled in tank ${p.tank} in an earlier stage (the premix of a ` +
+        `two-stage preparation); its composition and uncertainty come from that stage's log, ` +
+        (p.given === undefined
+          ? `which this check was not given`
+          : `and the --premix-log given is the log of ${p.given}, another premix`) +
+        (p.tankKnown ? '' : ` (the lab profile lists no tank ${p.tank}: check the name)`) +
+        ` - ${p.given === undefined ? 'add' : 'give instead'} --premix-log LOG with the stage-1 log ` +
+        `of tank ${p.tank} ` +
+        `(the guided fill wrote it as batches/<batch>-premix.jsonl)`
+      );
     default:
       return describeFileProblem(p);
   }

@@ -292,7 +292,18 @@ export type Problem =
       readonly cause: PremixLogCause;
     }
   // raised by the guided fill of a two-stage preparation (cli/stage-fill.ts) and the fill order of one
-  | StageProblem;
+  | StageProblem
+  // a readings CSV row naming the premix of an earlier stage without its log (io/csv-names.ts)
+  | {
+      readonly code: 'csv-premix-needs-log';
+      /** the name as the row gives it ("premix-MT-2") */
+      readonly name: string;
+      /** the premix tank the name points to, and whether the lab profile lists it */
+      readonly tank: string;
+      readonly tankKnown: boolean;
+      /** the premix the --premix-log given is of, when one was given (another premix) */
+      readonly given?: string;
+    };
 
 /**
  * Two-stage preparation at the manifold: a stage fill that cannot start (`stage-fill`, its

@@ -21,8 +21,13 @@ export interface GasSource {
   readonly unidentified: number;
   /** the species the fill is named by: the largest component */
   readonly mainSpecies: string;
-  /** regulator / cylinder delivery pressure, Pa, when known */
+  /** regulator / cylinder delivery pressure, Pa, when known (a tank's: its pressure before the batch draws) */
   readonly supplyPressurePa?: number;
+  /**
+   * the tank the gas is drawn from, when it is a tank of known volume (a premix tank): its pressure
+   * falls as it delivers (supply-check.ts)
+   */
+  readonly supplyTank?: { readonly id: string; readonly volumeM3: number };
   /** true when the purity was not given and 1 was assumed */
   readonly purityAssumed?: boolean;
   /**

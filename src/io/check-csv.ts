@@ -93,6 +93,7 @@ function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBas
   const names = sourceNames({
     filled: [...plan.steps.map((s) => s.source), ...(premix ? [premix.source] : [])],
     cylinders: req.lab.cylinders,
+    premixes: { tanks: req.lab.tanks.map((t) => t.id), given: premix?.source.id },
     notFilled: (name, where) =>
       fail(
         {
@@ -126,6 +127,7 @@ function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
   const names = sourceNames({
     filled: premixes,
     cylinders: lab.cylinders,
+    premixes: { tanks: lab.tanks.map((t) => t.id), given: premix?.source.id },
     pure: (sp) => pureCylinder({ id: sp, species: sp, purity: 1 }),
     notFilled: (name, where) =>
       fail(

@@ -5,7 +5,8 @@
  */
 import { fail, ProblemError, type PlanStep } from '../core/index.js';
 import type { LogFinding } from './log-audit.js';
-import type { CheckReportOf } from '../report/check-types.js';
+import { hazardList, type AcceptedHazard, type CheckReportOf } from '../report/check-types.js';
+import type { LogAck } from './batch-log.js';
 
 export interface CheckOptions {
   readonly trials: number;
@@ -23,9 +24,29 @@ export interface CheckOptions {
 /** the report of `check`; its record findings carry their sentence (the type lives beside the renderers) */
 export type CheckReport = CheckReportOf<LogFinding & { readonly message: string }>;
 
+/** the guided fill's reviews whose hazards the operator accepted (went on through), in log order */
+export function acceptedHazardsOf(acks: readonly LogAck[]): AcceptedHazard[] {
+  return acks.flatMap((a) =>
+    a.review?.outcome === 'accepted' && a.review.hazards.length
+      ? [{ step: a.step, by: a.by, time: a.time, hazards: a.review.hazards }]
+      : [],
+  );
+}
+
 /** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
-export function verdictCaveats(findings: readonly LogFinding[], noun = 'logged reading'): string[] {
+export function verdictCaveats(
+  findings: readonly LogFinding[],
+  noun = 'logged reading',
+  accepted: readonly AcceptedHazard[] = [],
+): string[] {
   const out: string[] = [];
+  for (const a of accepted)
+    out.push(
+      `ACCEPTED HAZARD: before fill ${a.step ?? '?'} the review of the re-targeted fills found ` +
+        `${hazardList(a)}, which the plan did not have, and ${a.by} went on through it at ${a.time}: ` +
+        `the tank went through states the plan did not review as safe. Have the fill reviewed ` +
+        `(the hazards, the readings, the tank and its fittings) under local practice before the batch is used`,
+    );
   const dangers = findings.filter((f) => f.severity === 'danger');
   if (dangers.length) {
     out.push(

@@ -34,6 +34,7 @@ import type { PlanRequest } from './load.js';
 import { chargeNumbers, TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
+  acceptedHazardsOf,
   verdictCaveats,
   withinFile,
   type ChargeNumber,
@@ -367,8 +368,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
       limitPa: workingLimitOf(h),
       from: 'log',
     },
-    caveats: verdictCaveats(findings),
-    record: { alteredLines: alteredLinesOf(log), closed: log.closed },
+    caveats: verdictCaveats(findings, undefined, acceptedHazardsOf(log.acknowledgements)),
+    record: {
+      alteredLines: alteredLinesOf(log),
+      closed: log.closed,
+      acceptedHazards: acceptedHazardsOf(log.acknowledgements),
+    },
     premixLogs: premix.map(premixLogReport),
     vent: ventReport(
       log,

@@ -7,6 +7,9 @@
  */
 import { fail, fillLabel, getSpecies, ProblemError, type GasSource } from '../core/index.js';
 
+/** how a two-stage plan names the premix of an earlier stage: premix-<its tank> */
+const PREMIX_PREFIX = 'premix-';
+
 /** a CSV row's place, for messages */
 export interface RowWhere {
   readonly file: string;
@@ -57,6 +60,8 @@ export function sourceNames(args: {
   readonly cylinders: readonly GasSource[];
   readonly pure?: (species: string) => GasSource;
   readonly notFilled: (name: string, where: RowWhere) => never;
+  /** the lab profile's tanks, and the premix of --premix-log if one was given (a row naming another premix) */
+  readonly premixes?: { readonly tanks: readonly string[]; readonly given?: string };
 }): SourceNames {
   const filled = unique(args.filled);
   const byId = new Map([...args.cylinders, ...filled].map((s) => [s.id, s]));
@@ -71,6 +76,11 @@ export function sourceNames(args: {
     const direct = byId.get(name);
     if (direct) return direct;
     const keys = labelKeys(name);
+    if (!keys && name.startsWith(PREMIX_PREFIX) && args.premixes) {
+      const tank = name.slice(PREMIX_PREFIX.length);
+      const { tanks, given } = args.premixes;
+      fail({ code: 'csv-premix-needs-log', name, tank, tankKnown: tanks.includes(tank), given }, where);
+    }
     if (!keys) {
       // not a cylinder id and not a species: the species lookup's own refusal (with suggestions)
       if (!name.includes('+')) getSpecies(name);
@@ -88,7 +98,11 @@ export function sourceNames(args: {
     return args.notFilled(name, where);
   };
   return {
-    accepts: (name) => byId.has(name) || (labelKeys(name)?.length ?? 0) > 1,
+    // a premix of an earlier stage is taken up by resolve, which says what the row needs
+    accepts: (name) =>
+      byId.has(name) ||
+      (labelKeys(name)?.length ?? 0) > 1 ||
+      (args.premixes !== undefined && name.startsWith(PREMIX_PREFIX)),
     resolve,
     fills: filled.map(fillLabel),
   };

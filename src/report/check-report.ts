@@ -1,7 +1,13 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import type { AmendmentRecord, CheckReport, LoggedReading } from './check-types.js';
+import {
+  hazardList,
+  type AcceptedHazard,
+  type AmendmentRecord,
+  type CheckReport,
+  type LoggedReading,
+} from './check-types.js';
 import { speciesRole, type OutputStat } from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
@@ -200,7 +206,19 @@ export function recordMarks(r: CheckReport): string[] {
   const out: string[] = [];
   if (r.record?.alteredLines.length) out.push(`RECORD ALTERED (${linesText(r.record.alteredLines)})`);
   if (r.record && !r.record.closed && !r.incomplete.length) out.push('NOT CLOSED');
+  if (r.record?.acceptedHazards?.length) out.push(acceptedMark(r.record.acceptedHazards));
   return out;
+}
+
+/** the accepted review hazards of a log's record, as `check --json` gives them */
+function acceptedJson(r: CheckReport) {
+  const accepted = r.record?.acceptedHazards ?? [];
+  return accepted.map((a) => ({ before_step: a.step, by: a.by, time: a.time, hazards: a.hazards }));
+}
+
+/** "ACCEPTED HAZARD (before fill 3: flammable-state (fill 3))": the fill went on through a review's hazards */
+function acceptedMark(accepted: readonly AcceptedHazard[]): string {
+  return `ACCEPTED HAZARD (${accepted.map((a) => `before fill ${a.step ?? '?'}: ${hazardList(a)}`).join('; ')})`;
 }
 
 /** the verdict in words, marked by what the record says of it */
@@ -223,12 +241,16 @@ function verdictText(r: CheckReport): string {
       ? ' - NOT CLOSED: the fill never ended with a close entry (it was stopped or cut off, and gas ' +
         'may have gone in after the last reading); read the tank before it is used'
       : '';
+  const accepted = r.record?.acceptedHazards?.length
+    ? ` - ${acceptedMark(r.record.acceptedHazards)}: the fill went on through hazards the plan did not have`
+    : '';
   return (
     VERDICT_TEXT[r.verdict.verdict] +
     (altered.length
       ? ` - RECORD ALTERED (${linesText(altered)}): on numbers that are not as first logged`
       : '') +
-    closed
+    closed +
+    accepted
   );
 }
 
@@ -411,6 +433,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     verdict_caveats: r.caveats,
     record_altered_lines: r.record ? r.record.alteredLines : null,
     record_closed: r.record ? r.record.closed : null,
+    accepted_hazards: acceptedJson(r),
     premix_logs: (r.premixLogs ?? []).map((p) => ({
       log: p.log,
       id: p.id,

@@ -107,7 +107,12 @@ export interface CheckReportOf<F extends RecordFinding> {
    * chain (changed after writing, or not written by mixwright), and whether the fill was closed.
    * A verdict from an altered record is on the numbers as they stand, never a bare pass.
    */
-  readonly record?: { readonly alteredLines: readonly number[]; readonly closed: boolean };
+  readonly record?: {
+    readonly alteredLines: readonly number[];
+    readonly closed: boolean;
+    /** the guided fill went on through hazards its review found and the plan did not have */
+    readonly acceptedHazards?: readonly AcceptedHazard[];
+  };
   /**
    * the tank vented back after the last reading (a log with a vent line, or an older log whose close
    * note says so): venting keeps the composition above, but the tank's final pressure and amount are
@@ -216,3 +221,23 @@ export interface LogView {
   }[];
   readonly closed: boolean;
 }
+
+/**
+ * An operator's choice, at the guided fill's review of the re-targeted remaining fills, to go on
+ * through hazards the plan did not have (an `acknowledge` line with `review.outcome` accepted)
+ */
+export interface AcceptedHazard {
+  /** the fill the review stopped before */
+  readonly step: number | null;
+  readonly by: string;
+  readonly time: string;
+  readonly hazards: readonly {
+    readonly code: string;
+    readonly step: number | null;
+    readonly severity: RecordSeverity;
+  }[];
+}
+
+/** "flammable-state (fill 3), closed-vessel-pressure (fill 3)" */
+export const hazardList = (a: AcceptedHazard): string =>
+  a.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ');

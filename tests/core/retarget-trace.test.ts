@@ -1,23 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { designMixture, nnls, planFill, pureCylinder, retarget, type Gauge } from '../../src/core/index.js';
+import { designMixture, nnls, planFill, pureCylinder, retarget } from '../../src/core/index.js';
 import { TORR } from '../helpers.js';
+import { GAUGES } from './planner-input.js';
 
 // The outside reference of every check here is the plan itself: a reading exactly on the plan's
 // first target leaves the tank as the plan put it, so the remaining fills are the plan's own
 // (algebra on the design, common practice; no other tool needed). Tolerance 1e-9 relative.
-const head = (id: string, fsTorr: number, res: number): Gauge => ({
-  id,
-  label: id,
-  reference: 'absolute',
-  fullScalePa: fsTorr * TORR,
-  minimumPa: 0,
-  accuracyOfReading: 0.0012,
-  accuracyOfFullScale: 0,
-  resolutionPa: res * TORR,
-  unit: 'Torr',
-});
-const gauges = [head('h10', 10, 1e-4), head('h1k', 1000, 0.01), head('h10k', 10000, 0.1)];
+const gauges = GAUGES;
 const T = 298.15;
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 

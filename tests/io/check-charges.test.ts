@@ -398,3 +398,56 @@ describe('an older CSV is re-checked as before', () => {
     expect(r.readings.every((x) => x.charge?.of === 1)).toBe(true);
   });
 });
+
+describe('a row naming the premix of an earlier stage needs that stage log', () => {
+  // the demo's stage-2 readings: row 3 (file line 4) is premix-MT-2, the premix filled in tank MT-2
+  const CSV = 'readings/ch4-phi1-from-premix.csv';
+
+  it('without --premix-log: a typed problem at the row, saying what it names and which option to give', async () => {
+    for (const recipeFile of [undefined, 'recipes/ch4-o2-ar-phi1.yaml']) {
+      let problem: ProblemError | undefined;
+      try {
+        await checkFile(CSV, { trials: 0, seed: 1, recipeFile });
+      } catch (e) {
+        if (e instanceof ProblemError) problem = e;
+        else throw e;
+      }
+      expect(problem?.problem).toEqual({
+        code: 'csv-premix-needs-log',
+        name: 'premix-MT-2',
+        tank: 'MT-2',
+        tankKnown: true,
+        given: undefined,
+      });
+      expect(problem?.where).toMatchObject({ file: CSV, line: 4, field: 'species' });
+    }
+    for (const json of [[], ['--json']]) {
+      const cli = await runCli(['check', CSV, ...json]);
+      expect(cli.code).toBe(2);
+      expect(cli.stderr).toContain(
+        'ch4-phi1-from-premix.csv:4 species: "premix-MT-2" names the premix filled in tank MT-2 in an earlier stage',
+      );
+      expect(cli.stderr).toContain('add --premix-log LOG with the stage-1 log of tank MT-2');
+      expect(cli.stderr).toContain('(error code: csv-premix-needs-log)');
+      expect(cli.stderr).not.toContain('unknown species');
+    }
+  });
+
+  it('with the log of another premix: says which premix the given log is of', async () => {
+    const f = csvFile(['CH4,10.0129 Torr,25 degC,head-1kT', 'premix-MT-3,520.27 Torr,25 degC,head-1kT']);
+    const cli = await runCli(['check', f, '--premix-log', 'batches/demo-premix-o2-ar-mt2.jsonl']);
+    expect(cli.code).toBe(2);
+    expect(cli.stderr).toContain('r.csv:3 species: "premix-MT-3" names the premix filled in tank MT-3');
+    expect(cli.stderr).toContain('the --premix-log given is the log of premix-MT-2, another premix');
+    expect(cli.stderr).toContain('the lab profile lists no tank MT-3: check the name');
+  });
+
+  it('with the stage-1 log: the row is that premix (the re-check runs)', async () => {
+    const r = await checkFile(CSV, {
+      trials: 0,
+      seed: 1,
+      premixLog: 'batches/demo-premix-o2-ar-mt2.jsonl',
+    });
+    expect(r.readings[2].source.id).toBe('premix-MT-2');
+  });
+});

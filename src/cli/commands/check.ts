@@ -63,13 +63,26 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
     cli.err(`mixwright: ${failed} of ${rows.length} files in ${target} could not be checked (above)\n`);
     throw new ExitSignal(EXIT.input);
   }
-  if (rows.some((r) => 'report' in r && r.report.verdict.verdict === 'fail'))
-    throw new ExitSignal(EXIT.outOfTolerance);
-  // a reading past a tank's working limit or a gauge's range stands beside any verdict
-  if (rows.some((r) => 'report' in r && r.report.findings.some((f) => f.severity === 'danger')))
-    throw new ExitSignal(EXIT.danger);
-  if (rows.some((r) => 'report' in r && r.report.record?.alteredLines.length))
-    throw new ExitSignal(EXIT.recordAltered);
+  const codes = rows.flatMap((r) => ('report' in r ? [checkExit(r.report)] : []));
+  const worst = EXIT_PRECEDENCE.find((c) => codes.includes(c));
+  if (worst !== undefined) throw new ExitSignal(worst);
+}
+
+/** check's exit codes beside a verdict, the first of them that applies wins (README "Exit codes") */
+const EXIT_PRECEDENCE = [EXIT.outOfTolerance, EXIT.danger, EXIT.acceptedHazard, EXIT.recordAltered];
+
+/**
+ * The exit code of one re-check: out of tolerance (or incomplete) 4; else a reading past a tank's
+ * working limit or a gauge's range, which stands beside any verdict, 3; else a fill that went on
+ * through hazards its review found (accepted at the manifold) 6; else numbers that are not as first
+ * logged 5; else 0.
+ */
+export function checkExit(report: CheckReport): number {
+  if (report.verdict.verdict === 'fail') return EXIT.outOfTolerance;
+  if (report.findings.some((f) => f.severity === 'danger')) return EXIT.danger;
+  if (report.record?.acceptedHazards?.length) return EXIT.acceptedHazard;
+  if (report.record?.alteredLines.length) return EXIT.recordAltered;
+  return EXIT.ok;
 }
 
 async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
@@ -87,10 +100,8 @@ async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
   const report = await checkFile(target, opts);
   if (o.json) cli.out(JSON.stringify(checkToJson(report, VERSION), null, 2) + '\n');
   else cli.out(checkToText(report));
-  if (report.verdict.verdict === 'fail') throw new ExitSignal(EXIT.outOfTolerance);
-  if (report.findings.some((f) => f.severity === 'danger')) throw new ExitSignal(EXIT.danger);
-  // numbers that are not as first logged: never a bare pass
-  if (report.record?.alteredLines.length) throw new ExitSignal(EXIT.recordAltered);
+  const code = checkExit(report);
+  if (code !== EXIT.ok) throw new ExitSignal(code);
 }
 
 export function registerCheck(program: Command, cli: Cli): void {

@@ -19,6 +19,7 @@ import { bMix, cMix, densityFromPressure, virialModel } from '../mixture-eos.js'
 import { inverseSetup, invertReadings } from '../recheck.js';
 import type { CheckedReading, InTank } from '../uncertainty.js';
 import { premixDeliveryCheck, type PremixDeliveryCheck } from './two-stage.js';
+import { withDeliveryFindings } from '../supply-check.js';
 import type { PlanInput, TankSpec } from './types.js';
 
 /** a gas of the premix at or above this mole fraction must be a gas of the design (below: an impurity) */
@@ -63,7 +64,13 @@ export function premixMinorGases(premix: GasSource, diluent: Fractions): string[
  * name the premix, and a premix tank that would fall below the reading the batch needs from it.
  */
 export function planFromPremix(input: PremixLogPlanInput): PremixLogPlan {
-  const { batch: b, premix, log } = input;
+  const { batch: b, log } = input;
+  // drawn from its tank: the plan (and its sequence search) judges the tank's falling pressure
+  const premix: GasSource = {
+    ...input.premix,
+    supplyPressurePa: input.startPa,
+    supplyTank: { id: input.premixTank.id, volumeM3: input.premixTank.volumeM3 },
+  };
   const refuse = (cause: Extract<Parameters<typeof fail>[0], { code: 'premix-log-refused' }>['cause']) =>
     fail({ code: 'premix-log-refused', log, cause });
   if (input.premixTank.id === b.tank.id) refuse({ kind: 'same-tank', tank: b.tank.id });
@@ -99,7 +106,7 @@ export function planFromPremix(input: PremixLogPlanInput): PremixLogPlan {
       deliveredMol: check.deliveredMol,
     });
   return {
-    batch: { ...predicted, findings: [...predicted.findings, ...findings] },
+    batch: { ...predicted, findings: withDeliveryFindings(predicted.findings, findings) },
     source: premix,
     delivery: check,
   };

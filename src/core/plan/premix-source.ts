@@ -53,6 +53,8 @@ export interface PremixSourceArgs {
   readonly unidentified: number;
   /** the premix tank's pressure before the batch draws from it, Pa absolute */
   readonly pressurePa: number;
+  /** the premix tank's volume, m^3: the plan then judges the tank's falling pressure (supply-check.ts) */
+  readonly tankVolumeM3?: number;
   /** the first stage's budget (a prediction or a re-check); undefined: the composition taken as exact */
   readonly budget?: UncertaintyResult;
   /**
@@ -72,6 +74,7 @@ export function premixSource(a: PremixSourceArgs): GasSource {
     label: `${fillLabel(base)} premix in ${a.tank}`,
     composition,
     unidentified: a.unidentified,
+    ...(a.tankVolumeM3 === undefined ? {} : { supplyTank: { id: a.tank, volumeM3: a.tankVolumeM3 } }),
     compositionTerms: a.budget ? compositionTermsOf(a.budget, keep, a.sharedInstruments ?? true) : undefined,
   };
 }

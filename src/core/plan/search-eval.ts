@@ -20,6 +20,7 @@ import type { PlanBasis } from './validate.js';
 import { eosComposition, type PlanAmounts } from './amounts.js';
 import type { Charge, PlanSequence } from './sequence.js';
 import { planSteps, type PlanSteps } from './steps.js';
+import { dangerCounts } from '../supply-check.js';
 import { planResult } from './result.js';
 import { withGauges } from './search-gauges.js';
 import type { Plan } from './types.js';
@@ -91,6 +92,7 @@ const SEQUENCE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'no-gauge-covers',
   'supply-pressure-low',
   'tank-over-rating',
+  'premix-runs-low',
 ]);
 
 /** is this finding one the search counts against a sequence */
@@ -219,6 +221,9 @@ export function screen(ctx: SearchContext, planned: PlanSteps, firstOnly = false
  * inside the NFPA 69 operating margins, which the search does not trade for precision)
  */
 export function notLessSafe(a: HazardCount, b: HazardCount): boolean {
+  // a supply that runs short never buys a more hazardous state or fill (supply-check.ts)
+  const [ha, hb] = [dangerCounts(a.hazards)[0], dangerCounts(b.hazards)[0]];
+  if (ha !== hb) return ha < hb;
   if (a.danger !== b.danger) return a.danger < b.danger;
   if (a.warning !== b.warning) return a.warning < b.warning;
   return a.note <= b.note;

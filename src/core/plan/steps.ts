@@ -18,12 +18,13 @@ import type { PlanBasis } from './validate.js';
 import { eosComposition, type PlanAmounts } from './amounts.js';
 import type { PlanSequence } from './sequence.js';
 import { chargeAmounts, chargeNumbers, type Charge } from './charges.js';
+import { supplyFindings } from '../supply-check.js';
 import { allowedDeviation, type PlanStep } from './types.js';
 
 /** what the step stage hands on */
 export interface PlanSteps {
   readonly steps: readonly PlanStep[];
-  /** no-gauge-covers and supply-pressure-low, in step order */
+  /** no-gauge-covers and the supply's findings (supply-check.ts), in step order */
   readonly findings: readonly Finding[];
 }
 
@@ -48,6 +49,11 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
   const numbers = chargeNumbers(sequence.charges.map((c) => c.source.id));
   const connected = new Set(basis.input.gauges.map((g) => g.id));
   const findings: Finding[] = [];
+  // the supply of each source judged as the final checks judge it (supply-check.ts)
+  const supplied = supplyFindings(
+    states.map((st, k) => ({ step: k + 1, source: st.source, targetPa: st.P, amountMol: st.mol })),
+    basis.temperatureK,
+  );
   const steps = states.map((st, k): PlanStep => {
     const stepNo = k + 1;
     const bandPa = toleranceBandPa(basis, amounts, st, states[k + 1]);
@@ -61,17 +67,7 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
     // how well the readings are known is the predicted uncertainty's (predict.ts), not a per-reading rule
     if (!choice)
       findings.push({ severity: 'danger', code: 'no-gauge-covers', step: stepNo, pressurePa: st.P });
-    const supplyPa = st.source.supplyPressurePa;
-    if (supplyPa !== undefined && supplyPa <= st.P) {
-      findings.push({
-        severity: 'danger',
-        code: 'supply-pressure-low',
-        step: stepNo,
-        source: st.source.id,
-        supplyPa,
-        targetPa: st.P,
-      });
-    }
+    findings.push(...supplied.filter((f) => f.step === stepNo));
     return {
       kind: 'fill' as const,
       index: stepNo,

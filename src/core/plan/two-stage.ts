@@ -23,7 +23,13 @@ import type { GasSource } from '../supply.js';
 import { planFill } from '../planner.js';
 import { predictPlan, withPrediction, type PredictedPlan, type PredictionInput } from '../predict.js';
 import { fail, ProblemError, type Problem } from '../problems.js';
-import { premixDelivery, PREMIX_DELIVERY_MARGIN, type Delivery } from '../premix-tank.js';
+import {
+  dangerCounts,
+  tankDelivery,
+  withDeliveryFindings,
+  type PremixDeliveryCheck,
+} from '../supply-check.js';
+export type { PremixDeliveryCheck } from '../supply-check.js';
 import { premixSource } from './premix-source.js';
 import type { Plan, PlanInput, TankSpec } from './types.js';
 
@@ -55,16 +61,6 @@ export interface PremixChoice {
   readonly gauges: readonly string[];
   /** stage 1's order: the minor gases first (each read alone), or the planner's recommended order */
   readonly order: 'minor-first' | 'recommended';
-}
-
-export interface PremixDeliveryCheck extends Delivery {
-  /** the premix tank's pressure before the batch draws from it, Pa absolute */
-  readonly startPa: number;
-  readonly deliveredMol: number;
-  /** the batch reading the premix's last charge must reach, Pa absolute */
-  readonly targetPa: number;
-  /** the lowest settled end pressure allowed: target (1 + PREMIX_DELIVERY_MARGIN), Pa */
-  readonly requiredPa: number;
 }
 
 export interface TwoStagePlan {
@@ -158,10 +154,9 @@ function predicted(plan: ReturnType<typeof planFill>, input: TwoStageInput): Pre
 }
 
 /**
- * The delivery check: the premix tank's pressure after the batch's premix charges (premix-tank.ts),
- * against the reading its last charge must reach plus PREMIX_DELIVERY_MARGIN. A danger
- * (`premix-runs-low`) when the settled pressure is below it, a warning (`premix-cools-low`) when
- * only a fast delivery's cold gas is.
+ * The delivery check: the premix tank's pressure after the batch's premix charges, against the
+ * reading its last charge must reach plus PREMIX_DELIVERY_MARGIN; the plan's own supply check
+ * (supply-check.ts, which the sequence search applies to every candidate).
  */
 export function premixDeliveryCheck(
   batch: Plan,
@@ -169,39 +164,8 @@ export function premixDeliveryCheck(
   premixTank: TankSpec,
   startPa: number,
 ): { check: PremixDeliveryCheck; findings: Finding[] } {
-  const from = batch.steps.filter((s) => s.source.id === source.id);
-  const deliveredMol = from.reduce((a, s) => a + s.amountMol, 0);
-  const last = from[from.length - 1];
-  const targetPa = last?.targetPa ?? 0;
-  const requiredPa = targetPa * (1 + PREMIX_DELIVERY_MARGIN);
-  const d = premixDelivery({
-    composition: source.composition,
-    volumeM3: premixTank.volumeM3,
-    temperatureK: batch.temperatureK,
-    startPa,
-    deliveredMol,
-  });
-  const check: PremixDeliveryCheck = { ...d, startPa, deliveredMol, targetPa, requiredPa };
-  const findings: Finding[] = [];
-  const common = {
-    step: last?.index,
-    tank: premixTank.id,
-    startPa,
-    targetPa,
-    requiredPa,
-    deliveredMol,
-  };
-  if (d.endPa < requiredPa)
-    findings.push({ severity: 'danger', code: 'premix-runs-low', endPa: d.endPa, ...common });
-  else if (d.endFastPa < requiredPa)
-    findings.push({
-      severity: 'warning',
-      code: 'premix-cools-low',
-      endPa: d.endFastPa,
-      endK: d.endFastK,
-      ...common,
-    });
-  return { check, findings };
+  const charges = batch.steps.map((s) => ({ ...s, step: s.index }));
+  return tankDelivery(source, premixTank, startPa, charges, batch.temperatureK);
 }
 
 /**
@@ -244,7 +208,7 @@ function replanned(input: TwoStageInput, c: TwoStagePlan): TwoStagePlan {
   });
   const stage2 = predicted(plan, input);
   const { check, findings } = premixDeliveryCheck(stage2, c.source, input.premixTank, c.choice.pressurePa);
-  const batch: PredictedPlan = { ...stage2, findings: [...stage2.findings, ...findings] };
+  const batch: PredictedPlan = { ...stage2, findings: withDeliveryFindings(stage2.findings, findings) };
   return { ...c, batch, delivery: check, worstRatio: worstRatioOf(batch) };
 }
 
@@ -258,6 +222,7 @@ function planBatchDraft(
   const draft = premixSource({
     id: premixId(input),
     tank: input.premixTank.id,
+    tankVolumeM3: input.premixTank.volumeM3,
     ...premixGas,
   });
   // no thermometer: the advice's order, not the sequence search (run once, for the chosen premix)
@@ -310,6 +275,7 @@ function planChoice(
   const source = premixSource({
     id: draft.sourceId,
     tank: input.premixTank.id,
+    tankVolumeM3: input.premixTank.volumeM3,
     composition: stage1.composition,
     unidentified: stage1.unidentifiedFraction,
     pressurePa: choice.pressurePa,
@@ -319,7 +285,7 @@ function planChoice(
   const steps = draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s));
   const stage2 = predicted({ ...draft.plan, steps }, input);
   const { check, findings } = premixDeliveryCheck(stage2, source, input.premixTank, choice.pressurePa);
-  const batch: PredictedPlan = { ...stage2, findings: [...stage2.findings, ...findings] };
+  const batch: PredictedPlan = { ...stage2, findings: withDeliveryFindings(stage2.findings, findings) };
   return {
     premix: stage1,
     batch,
@@ -369,14 +335,15 @@ function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): Pre
 export type TwoStageSearch = 'full' | 'quick' | 'proposal';
 
 /**
- * The ranking of choices: no danger first, then every design fraction within tolerance, then the
+ * The ranking of choices: the fewest dangers of the states and fills first, then of the supply
+ * (supply-check.ts), then every design fraction within tolerance, then the
  * fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
  * tolerance, e.g. no compression of pure O2), then the smallest worst U / tolerance.
  */
 function rankKey(c: TwoStagePlan): number[] {
   const all = [...c.premix.findings, ...c.batch.findings];
   return [
-    hasDanger(all) ? 1 : 0,
+    ...dangerCounts(all),
     c.worstRatio <= 1 ? 0 : 1,
     all.filter((f) => f.severity === 'warning').length,
     c.worstRatio,
