@@ -9,21 +9,15 @@ import {
   densityFromPressure,
   describeFinding,
   fail,
-  virialModel,
   judge,
   ProblemError,
-  recheckModelInput,
-  type Design,
-  type GasSource,
+  virialModel,
   type Plan,
-  type RecheckModelInput,
 } from '../core/index.js';
 import {
-  gaugeFromLog,
   gaugeToLog,
   LOG_FORMAT,
   readLog,
-  sourceFromLog,
   sourceToLog,
   workingLimitOf,
   type LogHeader,
@@ -31,22 +25,23 @@ import {
 } from './batch-log.js';
 import { auditLog, describeLogFinding, ventOf } from './log-audit.js';
 import type { PlanRequest } from './load.js';
-import { chargeNumbers, TORR_PA } from '../core/index.js';
+import { TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
   acceptedHazardsOf,
   verdictCaveats,
   withinFile,
-  type ChargeNumber,
   type CheckOptions,
   type CheckReport,
 } from './check-shared.js';
 import type { VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
 import { premixLogReport, premixLogsOf } from './premix-check.js';
+import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
 import { dirname, relative, resolve } from 'node:path';
 
 export { verdictCaveats, type CheckOptions, type CheckReport } from './check-shared.js';
+export { alteredLinesOf, designFromHeader, logModelInput, logRecheckBasis } from './log-recheck.js';
 
 /**
  * The header of a new batch log from its plan. `logFile`: where the log is written, so that a
@@ -137,57 +132,6 @@ export function headerFromPlan(
   };
 }
 
-export function designFromHeader(h: LogHeader): Design {
-  const diluent: Record<string, number> = {};
-  for (const k of h.design.diluent) diluent[k] = h.design.composition[k] ?? 0;
-  return {
-    composition: h.design.composition,
-    phi: h.design.phi ?? undefined,
-    fuelFraction: NaN,
-    oxidizerFraction: NaN,
-    diluentFraction: h.design.diluent_fraction,
-    stoichO2PerFuel: undefined,
-    groups: { fuel: {}, oxidizer: {}, diluent },
-  };
-}
-
-/** a top-up's starting gas: the logged starting reading, else the plan's */
-function startOf(log: ParsedLog): CheckReport['start'] {
-  const h = log.header;
-  if (!h.in_tank) return undefined;
-  return log.start
-    ? {
-        pressurePa: log.start.pressure_Pa,
-        temperatureK: log.start.temperature_K,
-        composition: h.in_tank.composition,
-        read: true,
-        by: log.start.by,
-        time: log.start.time,
-      }
-    : {
-        pressurePa: h.in_tank.pressure_Pa,
-        temperatureK: h.temperature_K,
-        composition: h.in_tank.composition,
-        read: false,
-      };
-}
-
-/** the barometer of the fill: the last one logged, else the plan's */
-function barometerOf(log: ParsedLog): NonNullable<CheckReport['barometer']> {
-  const b = log.barometer;
-  const h = log.header;
-  return b
-    ? {
-        pressurePa: b.pressure_Pa,
-        uPa: b.u_Pa ?? h.barometer.u_Pa,
-        from: 'log',
-        by: b.by,
-        time: b.time,
-        text: b.reading,
-      }
-    : { pressurePa: h.barometer.pressure_Pa, uPa: h.barometer.u_Pa, from: 'plan' };
-}
-
 /** the warnings of a log's record: unacknowledged dangers of its plan, acknowledgements, missing steps */
 function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] {
   const h = log.header;
@@ -240,102 +184,16 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
 }
 
 /**
- * The re-check's model input of a log: its header's sources, gauges and instruments, its
- * readings in force (the core's recheckModelInput, the same code the plan's prediction uses).
- */
-export function logModelInput(
-  log: ParsedLog,
-  barometer: { pressurePa: number; uPa: number },
-  start: CheckReport['start'],
-  mc: { trials: number; seed: number },
-  premix: ReadonlyMap<string, GasSource> = new Map(),
-): RecheckModelInput {
-  const h = log.header;
-  try {
-    const model = recheckModelInput(
-      {
-        // a premix named by its log (header premix_logs) is that log's re-checked gas, with its budget
-        sources: new Map(h.sources.map((s) => [s.id, premix.get(s.id) ?? sourceFromLog(s)])),
-        gauges: new Map(h.gauges.map((g) => [g.id, gaugeFromLog(g)])),
-        barometer,
-        thermometer: {
-          uK: h.thermometer.u_K,
-          resolutionK: h.thermometer.resolution_K,
-          settlingK: h.thermometer.settling_K ?? settlingOf(undefined),
-        },
-        diluent: h.design.diluent,
-        start: start && {
-          composition: start.composition,
-          pressurePa: start.pressurePa,
-          temperatureK: start.temperatureK,
-        },
-      },
-      log.readings.map((r) => ({
-        step: r.step,
-        sourceId: r.source,
-        gaugeId: r.gauge,
-        pressurePa: r.pressure_Pa,
-        temperatureK: r.temperature_K,
-        line: r.line,
-      })),
-      mc,
-    );
-    const charges = logCharges(h);
-    return { ...model, readings: model.readings.map((r) => ({ ...r, charge: charges.get(r.step) })) };
-  } catch (e) {
-    if (e instanceof ProblemError) throw e.at({ file: log.file });
-    throw e;
-  }
-}
-
-/** a step's `charge` as the log records it, when it does (never required: older logs have none) */
-function loggedCharge(step: object): ChargeNumber | undefined {
-  const c = (step as { charge?: { number?: unknown; of?: unknown } | null }).charge;
-  const n = c?.number;
-  const of = c?.of;
-  return Number.isInteger(n) && Number.isInteger(of) && (n as number) >= 1 && (n as number) <= (of as number)
-    ? { number: n as number, of: of as number }
-    : undefined;
-}
-
-/**
- * The charge of each planned step (a source filled in more than one charge): the log's own
- * `charge` where its header records one, else counted from the source ids in step order.
- */
-function logCharges(h: LogHeader): Map<number, ChargeNumber> {
-  const counted = chargeNumbers(h.steps.map((s) => s.source));
-  return new Map(h.steps.map((s, i) => [s.step, loggedCharge(s) ?? counted[i]]));
-}
-
-/**
- * What the re-check of a log is built from (shared by `check` and a premix log's re-check): its
- * start, barometer, model input (a premix log it names re-checked in turn, unless `withPremix`
- * is false: then the premix as the header recorded it) and the steps without a reading.
- */
-export function logRecheckBasis(
-  log: ParsedLog,
-  seen: ReadonlySet<string> = new Set([resolve(log.file)]),
-  withPremix = true,
-  mc: { trials: number; seed: number } = { trials: 0, seed: 0 },
-) {
-  const h = log.header;
-  if (log.readings.length === 0) fail({ code: 'log-no-readings' }, { file: log.file });
-  const start = startOf(log);
-  const barometer = barometerOf(log);
-  const premix = withPremix ? premixLogsOf(log, seen) : { sources: new Map(), records: [] };
-  const model = logModelInput(log, barometer, start, mc, premix.sources);
-  const done = new Set(log.readings.map((r) => r.step));
-  const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
-  return { start, barometer, model, missingSteps, premix: premix.records };
-}
-
-/**
  * The re-check of a batch log. `withPremix` false (for `label` of a batch whose premix log is
  * missing or changed): the premix as the header recorded it, without its budget; the caller says so.
  */
 export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = true): Promise<CheckReport> {
   const h = log.header;
-  const { start, barometer, model, missingSteps, premix } = logRecheckBasis(log, undefined, withPremix, opts);
+  const { start, barometer, model, missingSteps, premix } = logRecheckBasis(
+    log,
+    withPremix ? () => premixLogsOf(log) : undefined,
+    opts,
+  );
   // the log's own record issues (torn tail, edited lines) are findings, listed once with the others
   const warnings = logWarnings(log, missingSteps);
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
@@ -438,11 +296,6 @@ function ventReport(log: ParsedLog, composition: Readonly<Record<string, number>
       amountMol: amountIn(V, composition, a.pressure_Pa, a.temperature_K),
     },
   };
-}
-
-/** the lines of a log that do not match their hash chain: changed after writing, or not mixwright's */
-export function alteredLinesOf(log: ParsedLog): number[] {
-  return log.issues.flatMap((i) => (i.code === 'line-edited' || i.code === 'line-unhashed' ? [i.line] : []));
 }
 
 /** one line per finding, for the terminal and the folder summary */

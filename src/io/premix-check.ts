@@ -24,7 +24,7 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { readLog, type LogHeader, type ParsedLog } from './batch-log.js';
-import { alteredLinesOf, designFromHeader, logRecheckBasis } from './check.js';
+import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
 import { auditLog } from './log-audit.js';
 import type { CheckReport } from './check-shared.js';
 
@@ -90,7 +90,7 @@ export function readPremixLog(
   const dangers = auditLog(log).filter((f) => f.severity === 'danger');
   if (dangers.length)
     refused(named, { kind: 'danger', codes: [...new Set(dangers.map((f) => f.code))] }, { file: path });
-  const basis = logRecheckBasis(log, new Set([...seen, path]));
+  const basis = logRecheckBasis(log, () => premixLogsOf(log, new Set([...seen, path])));
   let result: UncertaintyResult;
   try {
     const m = basis.model;
@@ -206,7 +206,8 @@ export function drawsFrom(premixPath: string, except?: string): { log: string; f
     }
     const named = namedPremixLogs(log).filter((n) => n.path === premixPath);
     if (!named.length || log.readings.length === 0) continue;
-    const basis = logRecheckBasis(log, new Set([file]), false);
+    // the amounts drawn need the batch's readings only, not its premix re-checked
+    const basis = logRecheckBasis(log);
     let mol = 0;
     for (const n of named)
       mol += amountDrawn(
