@@ -119,13 +119,20 @@ export function nnls(
   // each column to unit length: the problem in u_j = s_j x_j has the same minimiser and the same
   // signs, and the tests below (which column enters, which amount is zero) then compare like with
   // like whatever the columns' units (a trace gas's mole against the bath gas's mole)
-  const s = Array.from({ length: n }, (_, j) => columnNorm(A, j) || 1);
-  const As = A.map((row) => row.map((a, j) => a / s[j]));
+  // a column whose norm is below TINY_COLUMN (far below any amount of gas; a subnormal number)
+  // supplies nothing: scaled to unit length it would ask for an amount past the largest double,
+  // so it is held at zero
+  const norms = Array.from({ length: n }, (_, j) => columnNorm(A, j));
+  const s = norms.map((v) => (v >= TINY_COLUMN ? v : 1));
+  const As = A.map((row) => row.map((a, j) => (norms[j] >= TINY_COLUMN ? a / s[j] : 0)));
   const u = activeSet(As, b, maxIter, options);
-  const x = u.map((v, j) => v / s[j]);
+  const x = u.map((v, j) => (norms[j] >= TINY_COLUMN ? v / s[j] : 0));
   const res = b.map((bi, i) => A[i].reduce((acc, a, j) => acc + a * x[j], 0) - bi);
   return { x, residualNorm: Math.hypot(...res) };
 }
+
+/** columns smaller than this are zero columns (the smallest normal double is 2.2e-308) */
+const TINY_COLUMN = 1e-300;
 
 function columnNorm(A: readonly (readonly number[])[], j: number): number {
   const big = A.reduce((m, row) => Math.max(m, Math.abs(row[j])), 0);

@@ -94,6 +94,17 @@ describe('non-negative least squares (Lawson & Hanson 1974)', () => {
       ),
     );
   });
+  it('a column of subnormal size (5e-324) supplies nothing: its amount is 0, finite, and the KKT conditions hold (the property test’s counterexample)', () => {
+    const A = [
+      [0, 0, 0],
+      [0, 5e-324, 0],
+      [0, 0, 0],
+      [0, 0, 0],
+    ];
+    const b = [0, 8.881784197001252e-16, 0, 0];
+    const { x } = nnls(A, b);
+    expect(x).toEqual([0, 0, 0]);
+  });
   it('allocation with impure cylinders: CH4 at 99.9 % with 0.05 % C2H6 hits the design CH4 fraction', () => {
     const a = allocate(
       [
