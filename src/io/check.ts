@@ -359,6 +359,17 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
     caveats: verdictCaveats(findings),
     record: { alteredLines: alteredLinesOf(log), closed: log.closed },
     premixLogs: premix.map(premixLogReport),
+    ...(h.stage
+      ? {
+          stage: {
+            number: h.stage.number,
+            of: h.stage.of,
+            batch: h.stage.batch,
+            nextCommand: h.stage.next_command,
+            premixLog: h.stage.premix_log?.file,
+          },
+        }
+      : {}),
   };
 }
 
