@@ -237,6 +237,17 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
       log,
       Object.fromEntries(Object.entries(result.composition).map(([k, st]) => [k, st.value])),
     ),
+    ...(h.stage
+      ? {
+          stage: {
+            number: h.stage.number,
+            of: h.stage.of,
+            batch: h.stage.batch,
+            nextCommand: h.stage.next_command,
+            premixLog: h.stage.premix_log?.file,
+          },
+        }
+      : {}),
   };
 }
 

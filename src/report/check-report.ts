@@ -276,10 +276,46 @@ function verdictLines(r: CheckReport): string[] {
   return out;
 }
 
+/**
+ * A log of a two-stage preparation says which stage it is: stage 1, the premix of its batch, with
+ * the command of stage 2 (or, when the premix is not usable, that stage 2 will refuse it); stage 2,
+ * the batch and the premix log it was filled from. [] for a single-tank batch.
+ */
+export function stageLines(r: CheckReport): string[] {
+  const st = r.stage;
+  if (!st) return [];
+  if (st.number === 2)
+    return [
+      `Stage 2 of 2: batch ${st.batch}, filled from the premix log ${st.premixLog ?? '(not named)'}`,
+      '',
+    ];
+  // what stage 2 refuses (premix-log-refused): not closed, altered, a danger, a re-check short of a pass
+  const usable =
+    r.verdict.verdict === 'pass' &&
+    !r.incomplete.length &&
+    r.record?.closed !== false &&
+    !r.record?.alteredLines.length &&
+    !r.findings.some((f) => f.severity === 'danger');
+  return [
+    `Stage 1 of 2: the premix of batch ${st.batch}; stage 2 fills batch ${st.batch} from it.`,
+    ...(usable
+      ? [
+          'Stage 2, once the premix is mixed (the mixing time: its sheet, or the end screen of its fill):',
+          `  ${st.nextCommand ?? '(no stage-2 command recorded in this log)'}`,
+        ]
+      : [
+          'Stage 2 will refuse this premix log: it must be closed, with no danger in its record and a ' +
+            're-check that shows it within tolerance (see below). Make a new premix (another --batch).',
+        ]),
+    '',
+  ];
+}
+
 export function checkToText(r: CheckReport): string {
   const out: string[] = [];
   out.push(`Re-check  ${r.id}   (${r.kind === 'log' ? 'batch log' : 'CSV readings'} ${r.file})`);
   out.push('');
+  out.push(...stageLines(r));
   out.push(...readingsTable(r));
   out.push('');
   out.push(...startLines(r));
@@ -376,6 +412,20 @@ function ventJson(r: CheckReport) {
     : null;
 }
 
+/** `stage` of check --json: the stage a two-stage log records, null for a single-tank batch */
+function stageJson(r: CheckReport) {
+  const st = r.stage;
+  return st
+    ? {
+        number: st.number,
+        of: st.of,
+        batch: st.batch,
+        next_command: st.nextCommand ?? null,
+        premix_log: st.premixLog ?? null,
+      }
+    : null;
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -434,6 +484,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_altered_lines: r.record ? r.record.alteredLines : null,
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
+    stage: stageJson(r),
     premix_logs: (r.premixLogs ?? []).map((p) => ({
       log: p.log,
       id: p.id,

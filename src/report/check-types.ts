@@ -132,6 +132,18 @@ export interface CheckReportOf<F extends RecordFinding> {
     readonly composition: Readonly<Record<string, { readonly value: number; readonly u: number }>>;
   }[];
   /**
+   * the stage of a two-stage preparation the log records (header `stage`; absent: a single-tank
+   * batch): stage 1 the premix of `batch`, with the command of stage 2; stage 2 the batch, with
+   * the premix log it was filled from
+   */
+  readonly stage?: {
+    readonly number: 1 | 2;
+    readonly of: 2;
+    readonly batch: string;
+    readonly nextCommand?: string;
+    readonly premixLog?: string;
+  };
+  /**
    * premix logs the batch log names that could not be re-checked (missing, changed since the batch
    * recorded them, or not usable; `label` only, as `check` refuses such a log): the composition then
    * uses the premix as the batch log recorded it, without the premix's uncertainty, and is never
