@@ -343,7 +343,7 @@ function readingText(x: LoggedReading): string {
  */
 export function amendmentText(a: AmendmentRecord): string {
   const who = `${a.by ?? '(not named)'} at ${a.time}`;
-  const why = a.reason ? `; reason: ${a.reason}` : '';
+  const why = a.reason ? `; reason: ${a.reason}` : '; no reason given';
   const old = a.old ? readingText(a.old) : 'nothing in force';
   if (a.kind === 'withdraw') return `line ${a.line}  fill ${a.step}  withdrawn by ${who}: ${old}${why}`;
   const now = a.new ? `${a.new.reading} at ${a.new.temperature}` : '-';

@@ -260,6 +260,7 @@ function FillScreen({
     return <OverLimitScreen state={state} />;
   if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
   if (state.phase === 'capped' && state.capped) return <CappedScreen state={state} />;
+  if (state.phase === 'undo-reason' && state.undoing) return <UndoReasonScreen state={state} />;
   return <ReadingScreen state={state} />;
 }
 
@@ -601,6 +602,32 @@ function OverLimitScreen({ state }: ScreenProps) {
         trace)
       </Text>
       <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/** undo INITIALS typed: the reading to be withdrawn, and a short reason asked (Enter alone skips it) */
+function UndoReasonScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const last = state.done[state.done.length - 1];
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {h.id} - undo the reading of fill {last.step} ({last.text}, line {last.line})
+      </Text>
+      <Text wrap="wrap">
+        {state.undoing!.by} withdraws it: the log keeps the reading and adds the withdrawal with your initials
+        and the reason; fill {last.step} is read again.
+      </Text>
+      <Text wrap="wrap">
+        Why? A few words (e.g. &quot;misread the head&quot;, &quot;valve left open&quot;), then Enter; Enter
+        alone logs it without a reason. Esc: do not undo (nothing logged).
+      </Text>
+      <Text>
+        reason: {state.input}
+        <Text inverse> </Text>
+      </Text>
       <ErrorLine state={state} />
     </Box>
   );

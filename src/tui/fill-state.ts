@@ -112,6 +112,8 @@ export type Phase =
   | 'vented'
   /** the re-target is held below the working limit at the cost of the composition: an explicit choice */
   | 'capped'
+  /** undo INITIALS typed: a short reason is asked (optional), then the reading is withdrawn */
+  | 'undo-reason'
   | 'below'
   | 'ended'
   | 'done'
@@ -259,6 +261,8 @@ export interface FillState {
   readonly venting?: Venting;
   /** in phase 'capped': the re-target held by the working limit, and its cost */
   readonly capped?: Capped;
+  /** in phase 'undo-reason': who undoes the last reading, and the screen to go back to on Esc */
+  readonly undoing?: { readonly by: string; readonly back: Phase };
   /** a capped re-target the operator went on with (logged): who, and the species it left outside */
   readonly capAccepted?: { readonly by: string; readonly outside: readonly string[] };
   /** steps whose accepted danger has been shown again */
@@ -1473,6 +1477,49 @@ function withInitials(
   return { value: m[1], by: m[2] };
 }
 
+/**
+ * Enter on the undo screen: the last reading is withdrawn with the reason typed (none when Enter alone),
+ * and its fill is read again
+ */
+function onUndoReasonEnter(s: FillState, now: string): FillState {
+  const by = s.undoing!.by;
+  const reason = s.input.trim().replace(/\s+/g, ' ');
+  if (reason.length > 200)
+    return {
+      ...s,
+      error: `the reason is ${reason.length} characters; keep it under 200 (or Enter alone to skip it)`,
+    };
+  const last = s.done[s.done.length - 1];
+  const done = s.done.slice(0, -1);
+  const next = rejudge({
+    ...s,
+    capped: undefined,
+    undoing: undefined,
+    done,
+    current: s.done.length - 1,
+    input: '',
+    effects: [
+      {
+        kind: 'withdraw',
+        step: last.step,
+        withdraws_line: last.line!,
+        by,
+        time: now,
+        ...(reason ? { reason } : {}),
+      },
+    ],
+  });
+  const entered = enterStep({
+    ...next,
+    phase: 'reading',
+    message:
+      `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
+      `${by}${reason ? ` (reason: ${reason})` : ' (no reason given)'}; the log keeps it and the withdrawal. ` +
+      `Read fill ${last.step} again`,
+  });
+  return reviewed({ ...entered, review: undefined }, 'undo');
+}
+
 /** after the reading set changed (undo, correction): re-target and judge from the readings in force */
 function rejudge(s: FillState): FillState {
   if (s.current >= s.setup.steps.length) return s;
@@ -1492,7 +1539,7 @@ function rejudge(s: FillState): FillState {
 }
 
 /** the commands of the reading screen: undo INITIALS (the last reading) and fix N INITIALS (any earlier one) */
-function onCommand(s: FillState, text: string, now: string): FillState | undefined {
+function onCommand(s: FillState, text: string): FillState | undefined {
   const undo = /^undo\s+([A-Za-z]{1,6})$/i.exec(text);
   if (/^undo\b/i.test(text) && !undo) return { ...s, error: 'type "undo" and your initials, e.g. undo AB' };
   if (undo) {
@@ -1503,31 +1550,14 @@ function onCommand(s: FillState, text: string, now: string): FillState | undefin
         ...s,
         error: 'the log line of the last reading is not known; stop and resume the fill to undo it',
       };
-    const done = s.done.slice(0, -1);
-    const next = rejudge({
+    // a short reason first (optional): it is logged with the withdrawal and `check` shows it
+    return {
       ...s,
-      capped: undefined,
-      done,
-      current: s.current - 1,
+      phase: 'undo-reason',
+      undoing: { by: undo[1], back: s.phase },
       input: '',
-      effects: [
-        {
-          kind: 'withdraw',
-          step: last.step,
-          withdraws_line: last.line,
-          by: undo[1],
-          time: now,
-          reason: 'taken back at the manifold before the next fill',
-        },
-      ],
-    });
-    const entered = enterStep({
-      ...next,
-      message:
-        `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
-        `${undo[1]}; the log keeps it and the withdrawal. Read fill ${last.step} again`,
-    });
-    return reviewed({ ...entered, review: undefined }, 'undo');
+      field: 'reading',
+    };
   }
   const fix = /^fix\s+(\d+)\s+([A-Za-z]{1,6})$/i.exec(text);
   if (/^fix\b/i.test(text) && !fix)
@@ -1731,6 +1761,14 @@ function onEscape(base: FillState): FillState {
         'the reading is logged; Esc does not take it back. Type vent INITIALS, accept INITIALS, ' +
         'or edit INITIALS (mistyped: withdrawn with a trace)',
     };
+  if (base.phase === 'undo-reason')
+    return {
+      ...base,
+      phase: base.undoing!.back,
+      undoing: undefined,
+      input: '',
+      message: 'undo cancelled; nothing logged',
+    };
   if (base.phase === 'capped')
     return {
       ...base,
@@ -1796,14 +1834,16 @@ function onEnter(base: FillState, now: string): FillState {
       return onOverLimitEnter(base, now);
     case 'vented':
       return onVentedEnter(base, now);
+    case 'undo-reason':
+      return onUndoReasonEnter(base, now);
     case 'capped':
       return /^undo\b/i.test(base.input.trim())
-        ? (onCommand(base, base.input.trim(), now) ?? base)
+        ? (onCommand(base, base.input.trim()) ?? base)
         : onCappedEnter(base, now);
     case 'reading':
-      return onCommand(base, base.input.trim(), now) ?? onReadingEnter(base, now);
+      return onCommand(base, base.input.trim()) ?? onReadingEnter(base, now);
     case 'review':
-      return onCommand(base, base.input.trim(), now) ?? onReviewEnter(base, now, REVIEW_HOOKS);
+      return onCommand(base, base.input.trim()) ?? onReviewEnter(base, now, REVIEW_HOOKS);
     case 'below':
       return onBelowEnter(base, now);
   }
@@ -1971,7 +2011,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `the re-check below judges the tank as it is`,
     };
   }
-  if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text, now) ?? s;
+  if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
   const w = withInitials(text, 'new reading after adding gas', '1500.2 AB');
   if ('error' in w)
     return {

@@ -410,4 +410,36 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       t.close();
     }
   }, 90000);
+
+  it('undo asks a short reason (Enter alone skips it); the withdrawal is logged with it and check lists it', async () => {
+    const { dir, t } = session('undo');
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch undo --dir batches`));
+      await t.waitFor(/fill 1 of 3/);
+      await t.type('10.01');
+      await t.keys('Enter');
+      await t.waitFor(/fill 2 of 3/);
+      await t.type('undo JD');
+      await t.keys('Enter');
+      let s = flat(await t.waitFor(/undo the reading of fill 1/));
+      expect(s).toMatch(/Enter alone logs it without a reason\. Esc: do not undo/);
+      await t.type('typed 10.01 for 10.10');
+      await t.keys('Enter');
+      s = flat(await t.waitFor(/withdrawn by JD/));
+      expect(s).toMatch(/withdrawn by JD \(reason: typed 10\.01 for 10\.10\)/);
+      await t.keys('C-c');
+      await exitStatus(t);
+      const rep = await checkFile(join(dir, 'batches', 'undo.jsonl'), { trials: 0, seed: 1 }).catch(
+        (e: Error) => e,
+      );
+      // no reading in force: check refuses the log; the record itself holds the withdrawal and its reason
+      expect(rep).toBeInstanceOf(Error);
+      const l = readLog(join(dir, 'batches', 'undo.jsonl'));
+      expect(l.amendments).toMatchObject([
+        { kind: 'withdraw', step: 1, by: 'JD', reason: 'typed 10.01 for 10.10' },
+      ]);
+    } finally {
+      t.close();
+    }
+  }, 60000);
 });

@@ -16,6 +16,7 @@ import {
   parseLog,
   readLog,
   type LogHeader,
+  type LogReading,
   type NewLogEvent,
 } from '../../src/io/batch-log.js';
 import { labelModel } from '../../src/report/label-model.js';
@@ -36,7 +37,7 @@ function header(): LogHeader {
   return headerFromPlan(planFill(req.input), req, 'vent-1', '2026-12-01T00:00:00Z');
 }
 const T = 298.15;
-const reading = (step: number, source: string, gauge: string, torr: number): NewLogEvent => ({
+const reading = (step: number, source: string, gauge: string, torr: number): LogReading => ({
   kind: 'reading',
   step,
   source,
@@ -177,5 +178,33 @@ describe('check and label of a log with a vent after the last reading', () => {
     );
     expect(done.phase).toBe('done');
     expect(done.effects.map((e) => e.kind)).toEqual(['vent-reading', 'close']);
+  });
+});
+
+describe('check lists undone readings with their reason', () => {
+  it('a withdrawal with a reason and one without: both listed with who, what and why (or that none was given)', async () => {
+    const h = header();
+    const file = join(mkdtempSync(join(tmpdir(), 'mw-undo-')), 'b.jsonl');
+    createLog(file, h);
+    const r1 = reading(1, h.steps[0].source, h.steps[0].gauge!, 10.01);
+    appendEvent(file, r1);
+    appendEvent(file, {
+      kind: 'withdraw',
+      step: 1,
+      withdraws_line: 2,
+      by: 'AB',
+      time: 't1',
+      reason: 'misread the head',
+    });
+    appendEvent(file, { ...r1, reading: '10.02 Torr', pressure_Pa: 10.02 * TORR });
+    appendEvent(file, { kind: 'withdraw', step: 1, withdraws_line: 4, by: 'CD', time: 't2' });
+    appendEvent(file, r1);
+    const text = checkToText(await checkLog(readLog(file), { trials: 0, seed: 1 }));
+    expect(text).toMatch(
+      /line 3 {2}fill 1 {2}withdrawn by AB at t1: 10\.01 Torr at 25 degC \(line 2\); reason: misread the head/,
+    );
+    expect(text).toMatch(
+      /line 5 {2}fill 1 {2}withdrawn by CD at t2: 10\.02 Torr at 25 degC \(line 4\); no reason given/,
+    );
   });
 });

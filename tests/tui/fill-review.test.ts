@@ -119,7 +119,7 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     const s1 = read(initialState(setupFromHeader(h)), CH4_HIGH);
     // the logged line is known once written (the shell reports it)
     const l1 = fillReducer(s1, { type: 'logged', step: 1, line: 2 });
-    const u = read(l1, 'undo AB');
+    const u = read(read(l1, 'undo AB'), '');
     expect(u.phase).toBe('reading');
     expect(u.review).toBeUndefined();
     expect(u.current).toBe(0);
@@ -127,12 +127,12 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     // CH4 high, accepted; Ar to its stop; then the Ar reading is undone: the remainder (Ar to 400,
     // O2 onto it) is reviewed again and the hazard, accepted, does not stop it; not accepted, it would
     const a = read(read(l1, 'accept AB'), at(l1, 1));
-    const a2 = read(fillReducer(a, { type: 'logged', step: 2, line: 4 }), 'undo AB');
+    const a2 = read(read(fillReducer(a, { type: 'logged', step: 2, line: 4 }), 'undo AB'), '');
     expect(a2.phase).toBe('reading');
     expect(a2.current).toBe(1);
     const b = read(fillReducer(read(l1, 'safer AB'), { type: 'logged', step: 2, line: 4 }), '452.0000');
     expect(b.phase).toBe('reading');
-    const b2 = read(fillReducer(b, { type: 'logged', step: 2, line: 5 }), 'undo AB');
+    const b2 = read(read(fillReducer(b, { type: 'logged', step: 2, line: 5 }), 'undo AB'), '');
     // the safer stop stays the charge's stop after the undo: nothing new, no review
     expect(b2.phase).toBe('reading');
     expect(b2.targetsPa[1] / TORR).toBeCloseTo(451.31, 6);
@@ -155,7 +155,7 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     expect(f.phase).toBe('correct');
     expect(fillReducer(f, { type: 'escape' }).phase).toBe('review');
     // undo the Ar reading: CH4 stays high and the Ar stop is ahead again
-    const u = read(c, 'undo AB');
+    const u = read(read(c, 'undo AB'), '');
     expect(u.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2 })]);
     expect(u.phase).toBe('review');
     expect(u.review?.trigger).toBe('undo');

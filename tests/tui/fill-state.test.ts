@@ -323,7 +323,7 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(stop.effects.map((e) => e.kind)).toEqual(['acknowledge', 'close']);
     expect(stop.effects[0]).toMatchObject({ cap: { outcome: 'stopped' } });
     // undo: the reading of fill 2 is withdrawn (its line known) and fill 2 is read again
-    const undo = read(fillReducer(s2, { type: 'logged', step: 2, line: 3 }), 'undo JD');
+    const undo = read(read(fillReducer(s2, { type: 'logged', step: 2, line: 3 }), 'undo JD'), '');
     expect(undo.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2, withdraws_line: 3 })]);
     expect(undo.current).toBe(1);
     expect(undo.capped).toBeUndefined();
@@ -442,15 +442,25 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     f.typeEnter('1408');
     expect(f.get().current).toBe(2);
     expect(f.typeEnter('undo').error).toMatch(/undo AB/);
-    const u = f.typeEnter('undo AB');
+    // undo asks a short reason first: nothing is logged yet, Esc cancels
+    const ask = f.typeEnter('undo AB');
+    expect(ask.phase).toBe('undo-reason');
+    expect(ask.effects).toEqual([]);
+    const esc = f.step({ type: 'escape' });
+    expect(esc.phase).toBe('reading');
+    expect(esc.current).toBe(2);
+    expect(esc.message).toMatch(/undo cancelled; nothing logged/);
+    f.typeEnter('undo AB');
+    const u = f.typeEnter('misread the  head');
     expect(u.current).toBe(1);
-    expect(u.message).toMatch(/withdrawn by AB/);
+    expect(u.message).toMatch(/withdrawn by AB \(reason: misread the head\)/);
     const t2 = u.targetsPa[1] / TORR;
     f.typeEnter(t2.toFixed(1));
     f.typeEnter((f.get().targetsPa[2] / TORR).toFixed(1));
     expect(f.get().phase).toBe('done');
     const log = readLog(f.file);
     expect(log.amendments.map((a) => a.kind)).toEqual(['withdraw']);
+    expect(log.amendments[0].reason).toBe('misread the head');
     expect(log.allReadings.map((r) => r.reading)).toEqual([
       '10.01 Torr',
       '1408 Torr',
@@ -583,12 +593,12 @@ describe('the last fill below its band: the batch stays open for more gas', () =
     const events: NewLogEvent[] = [];
     const { s, t, band } = lastLow(events);
     const b = fillReducer(read(s, (t - 3 * band).toFixed(2), events), { type: 'logged', step: 3, line: 4 });
-    const u = enter(type(b, 'undo AB'));
+    const u = enter(enter(type(b, 'undo AB')));
     expect(u.phase).toBe('reading');
     expect(u.current).toBe(2);
-    expect(u.effects).toEqual([
-      expect.objectContaining({ kind: 'withdraw', step: 3, withdraws_line: 4, by: 'AB' }),
-    ]);
+    // Enter alone: the withdrawal carries no reason, and the screen says so
+    expect(u.effects).toEqual([{ kind: 'withdraw', step: 3, withdraws_line: 4, by: 'AB', time: NOW }]);
+    expect(u.message).toMatch(/withdrawn by AB \(no reason given\)/);
     const resumed = initialState(setupFromHeader(h), parseLog(logText(h, events), 'x.jsonl'), NOW);
     expect(resumed.phase).toBe('below');
     expect(resumed.effects).toEqual([]);
