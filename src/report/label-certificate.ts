@@ -87,6 +87,10 @@ const VERDICT_TEXT: Record<string, string> = {
     'NOT RE-CHECKED - a premix log this batch was made from is missing, changed or not usable (see ' +
     'Premix): the composition uses the premix as the batch log recorded it, without its uncertainty; ' +
     'conformity is not shown.',
+  'record-altered':
+    'NOT A PASS - the batch log was changed after it was written (a line does not match its hash ' +
+    'chain; see the record findings): the composition below is computed from the numbers as they ' +
+    'stand and proves nothing about the tank. Find the original log, or re-check the tank.',
 };
 
 /** where the batch's premix came from, from the logs: each premix log re-checked now, or why not */
@@ -147,11 +151,13 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
         ? '-'
         : label.status === 'premix-not-checked'
           ? 'not shown (premix)'
-          : d.provenWithin
-            ? 'within'
-            : d.within
-              ? 'inside, not shown'
-              : 'OUT',
+          : label.status === 'record-altered'
+            ? 'not shown (record)'
+            : d.provenWithin
+              ? 'within'
+              : d.within
+                ? 'inside, not shown'
+                : 'OUT',
     };
   });
   // a design species the re-check found none of still gets its row

@@ -24,7 +24,7 @@ export interface LabelFraction {
 }
 
 export type LabelStatus =
-  'pass' | 'pass-uncertain' | 'fail' | 'incomplete' | 'no-design' | 'premix-not-checked';
+  'pass' | 'pass-uncertain' | 'fail' | 'incomplete' | 'no-design' | 'premix-not-checked' | 'record-altered';
 
 /** the premix a batch was made from, as the logs say it: re-checked from its own log, or why not */
 export interface LabelPremix {
@@ -104,6 +104,9 @@ export function statusOf(r: CheckReport): LabelStatus {
   if (r.incomplete.length) return 'incomplete';
   // a premix that could not be re-checked leaves the composition unproven, whatever the numbers say
   if (r.premixNotChecked?.length) return 'premix-not-checked';
+  // a log changed after it was written proves nothing, whatever its numbers say (check: exit 5, not a pass);
+  // a failing composition is said as such first
+  if (r.record?.alteredLines.length && r.verdict.verdict !== 'fail') return 'record-altered';
   return r.verdict.verdict;
 }
 
@@ -115,11 +118,12 @@ const HEADLINE: Record<LabelStatus, string> = {
   incomplete: 'FAIL - INCOMPLETE BATCH: NOT THE DESIGN MIXTURE',
   'no-design': 'NO DESIGN TO COMPARE WITH - composition as measured',
   'premix-not-checked': 'PREMIX NOT RE-CHECKED: COMPOSITION NOT PROVEN',
+  'record-altered': 'RECORD ALTERED AFTER WRITING: NOT A PASS - COMPOSITION NOT PROVEN',
 };
 
 /** the label's statuses that must not be used as the design mixture */
 export function notDesign(s: LabelStatus): boolean {
-  return s === 'fail' || s === 'incomplete' || s === 'premix-not-checked';
+  return s === 'fail' || s === 'incomplete' || s === 'premix-not-checked' || s === 'record-altered';
 }
 
 /** the premixes of the report: each re-checked one with its fractions, each one that was not with why */

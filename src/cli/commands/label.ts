@@ -117,6 +117,20 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
     cli.err(`mixwright: ${target}: the log records a danger; the label says the tank is not fit to use\n`);
     throw new ExitSignal(EXIT.danger);
   }
+  // as `check` (exits 6 and 5): hazards accepted at the manifold, a record changed after it was written
+  const code = report.record?.acceptedHazards?.length
+    ? EXIT.acceptedHazard
+    : report.record?.alteredLines.length
+      ? EXIT.recordAltered
+      : EXIT.ok;
+  if (code !== EXIT.ok) {
+    cli.err(
+      code === EXIT.recordAltered
+        ? `mixwright: ${target}: the log was changed after it was written; the label says RECORD ALTERED and shows no pass\n`
+        : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
+    );
+    throw new ExitSignal(code);
+  }
 }
 
 export function registerLabel(program: Command, cli: Cli): void {
