@@ -19,6 +19,22 @@ const VERDICT_TEXT: Record<string, string> = {
   'no-design': 'no design to compare with',
 };
 
+/**
+ * The verdict in a few words, as the fill's end screen gives it: never "pass" where `check` says it
+ * is not one (not shown within, a record changed after writing, an incomplete batch)
+ */
+export function verdictWord(r: CheckReport): string {
+  if (r.incomplete.length) return 'INCOMPLETE - not a pass';
+  if (r.record?.alteredLines.length && r.verdict.verdict !== 'fail') return 'RECORD ALTERED - not a pass';
+  const words: Record<string, string> = {
+    pass: 'PASS',
+    'pass-uncertain': 'NOT SHOWN WITHIN TOLERANCE - not a pass',
+    fail: 'FAIL - out of tolerance',
+    'no-design': 'no design to compare with',
+  };
+  return words[r.verdict.verdict] ?? r.verdict.verdict;
+}
+
 function mcNote(st: OutputStat): string {
   if (!st.mc) return '';
   if (st.mc.validated) return 'agrees';

@@ -20,6 +20,7 @@ import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
 import { labelLines, labelModel } from '../report/label-model.js';
+import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
@@ -359,8 +360,8 @@ function EndScreen({
       ) : null}
       {check && 'report' in check ? (
         <Text bold>
-          {`Re-check of the log (mixwright check): ${check.report.verdict.verdict.toUpperCase()}` +
-            `${check.report.caveats.length ? ' - BUT SEE BELOW' : ''}`}
+          {`Re-check of the log (mixwright check): ${verdictWord(check.report)}` +
+            `${check.report.caveats.length ? ' (and see the notes below)' : ''}`}
         </Text>
       ) : null}
       {caveats.map((c, i) => (

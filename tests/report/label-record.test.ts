@@ -33,3 +33,18 @@ describe('label of an altered log', () => {
     expect(r.stderr).toContain('changed after it was written');
   });
 });
+
+describe('the verdict in a few words (the fill end screen): never "pass" where check says it is not one', () => {
+  it('pass-uncertain reads "NOT SHOWN WITHIN TOLERANCE - not a pass"; an altered record "RECORD ALTERED - not a pass"', async () => {
+    const { verdictWord } = await import('../../src/report/check-report.js');
+    const { checkFile } = await import('../../src/io/check.js');
+    const uncertain = await checkFile('batches/demo-ch4-phi1-ar98.jsonl', { trials: 0, seed: 1 });
+    expect(uncertain.verdict.verdict).toBe('pass-uncertain');
+    expect(verdictWord(uncertain)).toBe('NOT SHOWN WITHIN TOLERANCE - not a pass');
+    const passed = await checkFile(PREMIX, { trials: 0, seed: 1 });
+    expect(verdictWord(passed)).toBe('PASS');
+    expect(verdictWord({ ...passed, record: { alteredLines: [3], closed: true } })).toBe(
+      'RECORD ALTERED - not a pass',
+    );
+  });
+});

@@ -205,7 +205,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     );
     const f = ui.lastFrame()!.replace(/\s+/g, ' ');
     expect(caveats!.some((c) => /^DANGER:/.test(c))).toBe(true);
-    expect(f).toMatch(/BUT SEE BELOW/);
+    expect(f).toMatch(/\(and see the notes below\)/);
     // beside the verdict and again inside the label box
     expect(
       f.match(/DANGER: a logged reading went past the tank's working limit/g)?.length,
