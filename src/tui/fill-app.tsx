@@ -97,10 +97,12 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
           : j.verdict === 'pass'
             ? 'within the tolerance'
             : 'NOT SHOWN within the tolerance (inside on the readings, U reaches past it)')
-      : 'Composition: ' +
+      : // values only: whether the batch can be shown within (its U) is the plan's prediction and the re-check's
+        'Composition (values, not their uncertainty): ' +
         (j.verdict === 'on-course'
-          ? 'the remaining fills bring every fraction within the tolerance'
-          : 'OFF COURSE - the remaining fills cannot bring every fraction within the tolerance');
+          ? "the remaining fills, read on target, bring every fraction's value within the tolerance " +
+            '(the re-check at the end judges it with its uncertainty)'
+          : "OFF COURSE - the remaining fills cannot bring every fraction's value within the tolerance");
   return (
     <Box flexDirection="column">
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
@@ -109,7 +111,7 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
           {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
             `design ${fixedSig(d.design, 5).padStart(10)} ` +
             ` ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} ` +
-            `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'ok' : 'OUT'}`}
+            `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
         </Text>
       ))}
     </Box>

@@ -46,6 +46,10 @@ describe('fill screen (ink)', () => {
     expect(written).toHaveLength(1);
     expect(ui.lastFrame()).toContain('fill 2 of 3');
     expect(ui.lastFrame()).toMatch(/fill 1 logged/);
+    // the course check speaks of values only: whether the batch is shown within is the re-check's
+    const flat = ui.lastFrame()!.replace(/\s+/g, ' ');
+    expect(flat).toContain('Composition (values, not their uncertainty)');
+    expect(flat).not.toMatch(/\bok\b(?! )|\) ok\b/);
     ui.unmount();
   });
   it('keys that arrive one by one faster than the screen redraws are all taken: the logged reading is the one typed', async () => {
