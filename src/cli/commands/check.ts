@@ -59,12 +59,13 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
     cli.out(JSON.stringify(json, null, 2) + '\n');
   } else cli.out(folderSummary(rows));
   const failed = rows.filter((r) => 'error' in r).length;
-  if (failed) {
-    cli.err(`mixwright: ${failed} of ${rows.length} files in ${target} could not be checked (above)\n`);
-    throw new ExitSignal(EXIT.input);
-  }
   const codes = rows.flatMap((r) => ('report' in r ? [checkExit(r.report)] : []));
   const worst = EXIT_PRECEDENCE.find((c) => codes.includes(c));
+  if (failed) {
+    cli.err(`mixwright: ${failed} of ${rows.length} files in ${target} could not be checked (above)\n`);
+    // a failed or dangerous batch among the others is not hidden by a file that could not be read
+    throw new ExitSignal(worst === EXIT.outOfTolerance || worst === EXIT.danger ? worst : EXIT.input);
+  }
   if (worst !== undefined) throw new ExitSignal(worst);
 }
 
