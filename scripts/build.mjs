@@ -68,8 +68,7 @@ const lazyChildProcess = {
       const text = await readFile(args.path, 'utf8');
       const eager = "const childProcess = require('node:child_process');";
       if (!text.includes(eager)) throw new Error(`commander changed: "${eager}" not found in ${args.path}`);
-      const lazy =
-        "const childProcess = { get spawn() { return require('node:child_process').spawn; } };";
+      const lazy = "const childProcess = { get spawn() { return require('node:child_process').spawn; } };";
       return { contents: text.replace(eager, lazy), loader: 'js' };
     });
   },
