@@ -112,6 +112,28 @@ describe('check and label of a log with a vent after the last reading', () => {
     expect(m.finalPressure).toMatch(/^1498\.2\d* Torr absolute after venting$/);
   });
 
+  it('a reading after venting still above the working limit, read again after venting more: said as that, never as corrected or withdrawn', async () => {
+    // MT-1's working limit 2700.2 Torr (4 bar x 0.9, the demo tank): 2710 Torr after venting is still above it
+    const still: NewLogEvent = {
+      ...AFTER,
+      reading: '2710 Torr',
+      pressure_Pa: 2710 * TORR,
+      time: '2026-12-01T01:07:00Z',
+    };
+    const { log } = logOf([VENT, still, AFTER, { kind: 'close', time: 't' }]);
+    const r = await checkLog(log, { trials: 0, seed: 1 });
+    const f = r.findings.find((x) => x.code === 'above-working-limit' && x.pressurePa === 2710 * TORR);
+    expect(f).toBeDefined();
+    const text = checkToText(r);
+    const line = text.split('\n').find((l) => l.includes('2710 Torr (absolute) is above'))!;
+    expect(line).toMatch(
+      /a reading after venting, still above the working limit: the tank was vented again and read again after it/,
+    );
+    expect(line).not.toMatch(/corrected or withdrawn/);
+    // the fill reading past the limit (2800, in force) still says what it is: a danger, inspect
+    expect(text).toMatch(/2800 Torr \(absolute\) is above .*The tank was taken past its working limit/);
+  });
+
   it('a vent with no reading after it: said plainly (finding and caveat), the label gives no final pressure', async () => {
     const { log } = logOf([VENT]);
     const r = await checkLog(log, { trials: 0, seed: 1 });
