@@ -1306,7 +1306,8 @@ function ventChosen(s: FillState, p: Pending, o: OverLimit, by: string, now: str
     time: now,
     note:
       `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute (line ${p.done.line}), above the ` +
-      `working limit ${fmtIn(o.limitPa, unit)}; vented back to at most ${fmtIn(o.ventToPa, unit)} absolute`,
+      `working limit ${fmtIn(o.limitPa, unit)}; ${by} has chosen to vent; target to vent to: at most ` +
+      `${fmtIn(o.ventToPa, unit)} absolute (the pressure after venting is the vent-reading that follows, if any)`,
   };
   return {
     ...s,

@@ -258,6 +258,10 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(v.effects).toEqual([
       expect.objectContaining({ kind: 'vent', step: 2, by: 'JD', target_Pa: d.overLimit!.ventToPa }),
     ]);
+    // the note gives the target to vent to, never as what happened (the tank is not yet read after venting)
+    const note = (v.effects[0] as { note?: string }).note!;
+    expect(note).toMatch(/chosen to vent; target to vent to: at most 14\d\d\.\d+ Torr absolute/);
+    expect(note).not.toMatch(/vented back to/);
     expect(v.phase).toBe('vented');
     expect(v.message).toMatch(
       /Vent or pump the tank back to at most 14\d\d\.\d Torr on head-10kT \(14\d\d\.\d+ Torr absolute\), let it settle/,
