@@ -31,8 +31,10 @@ export type LogFinding =
       /** the tank's pressure rating, when known: a reading above it is said so */
       readonly ratedPa?: number;
       readonly unit: PressureUnit;
-      /** the reading was later corrected or withdrawn */
+      /** the reading was later corrected or withdrawn, or (a reading after venting) read again after venting more */
       readonly replaced: boolean;
+      /** a reading after venting, read again after it (the tank was vented more): not corrected, a real reading */
+      readonly ventedAgain?: boolean;
       /** an acknowledgement of this code and fill in the log: who accepted it at the manifold, and when */
       readonly accepted?: { readonly by: string; readonly time: string };
     }
@@ -46,6 +48,8 @@ export type LogFinding =
       readonly fullScalePa: number;
       readonly unit: PressureUnit;
       readonly replaced: boolean;
+      /** a reading after venting, read again after it (the tank was vented more): not corrected, a real reading */
+      readonly ventedAgain?: boolean;
       readonly accepted?: { readonly by: string; readonly time: string };
     }
   | {
@@ -116,10 +120,13 @@ export function describeLogFinding(f: LogFinding): string {
         (f.ratedPa !== undefined && f.pressurePa > f.ratedPa
           ? ` and above its pressure rating of ${show(f.ratedPa, f.unit)}`
           : '') +
-        (f.replaced
-          ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
-          : '. The tank was taken past its working limit: have it and its fittings inspected ' +
-            'under local practice before the batch is used') +
+        (f.ventedAgain
+          ? '; it is a reading after venting, still above the working limit: the tank was vented again and ' +
+            'read again after it'
+          : f.replaced
+            ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
+            : '. The tank was taken past its working limit: have it and its fittings inspected ' +
+              'under local practice before the batch is used') +
         acceptedText(f.accepted)
       );
     case 'above-gauge-range':
@@ -127,9 +134,11 @@ export function describeLogFinding(f: LogFinding): string {
         `${at}gauge ${f.gauge} shows ${show(f.shownPa, f.unit)}, above its full scale ` +
         `of ${show(f.fullScalePa, f.unit)}: the reading is not trustworthy and the ` +
         `gauge head may be damaged` +
-        (f.replaced
-          ? ' (the reading was later corrected or withdrawn)'
-          : '; check the gauge before it is used again') +
+        (f.ventedAgain
+          ? ' (a reading after venting; the tank was vented again and read again after it)'
+          : f.replaced
+            ? ' (the reading was later corrected or withdrawn)'
+            : '; check the gauge before it is used again') +
         acceptedText(f.accepted)
       );
     case 'text-number-mismatch':
@@ -190,7 +199,7 @@ function textSI(text: string, dim: 'pressure' | 'temperature', fallbackUnit: str
 type Logged = Pick<
   InForceReading,
   'gauge' | 'reading' | 'pressure_Pa' | 'barometer_Pa' | 'temperature' | 'temperature_K' | 'line'
-> & { step: number | null; replaced: boolean };
+> & { step: number | null; replaced: boolean; afterVent?: boolean };
 
 /** what every check of a log line needs to know about the log */
 interface AuditContext {
@@ -260,7 +269,7 @@ export function auditLog(log: ParsedLog): LogFinding[] {
   const logged: Logged[] = [
     ...(log.start ? [{ ...log.start, step: null, replaced: false }] : []),
     ...log.allReadings.map((r) => ({ ...r, replaced: !inForce.has(r.line) })),
-    ...afterVent.map((r) => ({ ...r, replaced: r.line !== vent?.after?.line })),
+    ...afterVent.map((r) => ({ ...r, replaced: r.line !== vent?.after?.line, afterVent: true })),
   ];
   const out: LogFinding[] = [
     ...logged.flatMap((r) => [...pastLimits(cx, r), ...typedTextOf(cx, r)]),
@@ -306,6 +315,7 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
   const unit = cx.unitOf(r.gauge);
   const g = cx.gauges.get(r.gauge);
   const severity: LogFindingSeverity = r.replaced ? 'warning' : 'danger';
+  const again = r.afterVent && r.replaced ? { ventedAgain: true } : {};
   const acceptedOf = (code: string) => {
     const a = cx.log.acknowledgements.find((x) => x.code === code && x.step === r.step);
     return a ? { accepted: { by: a.by, time: a.time } } : {};
@@ -322,6 +332,7 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
       ...(cx.log.header.tank.rated_pressure_Pa ? { ratedPa: cx.log.header.tank.rated_pressure_Pa } : {}),
       unit,
       replaced: r.replaced,
+      ...again,
       ...acceptedOf('above-working-limit'),
     });
   const shownPa = g?.reference === 'gauge' ? r.pressure_Pa - cx.baroOf(r) : r.pressure_Pa;
@@ -336,6 +347,7 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
       fullScalePa: g.full_scale_Pa,
       unit,
       replaced: r.replaced,
+      ...again,
       ...acceptedOf('above-gauge-range'),
     });
   return out;

@@ -231,6 +231,23 @@ export interface LogView {
     readonly time: string;
     readonly note?: string;
   }[];
+  /** the vents of the tank (a reading past the working limit), each with the readings after it */
+  readonly vents?: readonly {
+    readonly step: number;
+    readonly line: number;
+    readonly target_Pa: number;
+    readonly by: string;
+    readonly time: string;
+    readonly readings: readonly {
+      readonly gauge: string;
+      readonly reading: string;
+      readonly pressure_Pa: number;
+      readonly temperature_K: number;
+      readonly by: string;
+      readonly time: string;
+      readonly line: number;
+    }[];
+  }[];
   readonly closed: boolean;
 }
 

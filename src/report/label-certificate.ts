@@ -208,6 +208,70 @@ function certificateReadings(r: CheckReport, log: LogView | undefined): Certific
   });
 }
 
+/**
+ * The vents and the readings after venting, as logged, after the fill readings: the vent's target (a
+ * target, not what the tank reached) and each reading after it, the last being the tank's final pressure
+ */
+function ventReadings(r: CheckReport, log: LogView | undefined): CertificateReading[] {
+  // as the fill readings show them: in the gauge's unit, to its resolution
+  const shownOf = new Map(
+    r.readings.map((x) => {
+      const u = unitOf(x.gauge.unit);
+      const dec = Math.max(0, decimalsFor(fromPa(x.gauge.resolutionPa, u)));
+      return [x.gauge.id, (pa: number) => `${fromPa(pa, u).toFixed(dec)} ${u}`] as const;
+    }),
+  );
+  const unitOfStep = new Map(r.readings.map((x) => [x.step, unitOf(x.gauge.unit)]));
+  const dangerLines = new Set(
+    r.findings.filter((f) => f.severity === 'danger' && f.line !== null).map((f) => f.line),
+  );
+  const limitOf = new Map(
+    r.findings.flatMap((f) => (f.code === 'above-working-limit' ? [[f.line, f.message] as const] : [])),
+  );
+  const vents = log?.vents ?? [];
+  return vents.flatMap((v, vi) => {
+    const u = unitOfStep.get(v.step) ?? 'Torr';
+    const rows: CertificateReading[] = [
+      {
+        step: v.step,
+        fill: 'vent',
+        gauge: '-',
+        typed: '-',
+        absolute: '-',
+        temperature: '-',
+        time: shortTime(v.time),
+        by: v.by,
+        note:
+          `vented (line ${v.line}); target to vent to: at most ` +
+          `${Number(fromPa(v.target_Pa, u).toPrecision(6))} ${u} absolute`,
+      },
+    ];
+    v.readings.forEach((x, i) => {
+      const final = vi === vents.length - 1 && i === v.readings.length - 1;
+      rows.push({
+        step: v.step,
+        fill: 'after venting',
+        gauge: x.gauge,
+        typed: x.reading,
+        absolute: shownOf.get(x.gauge)?.(x.pressure_Pa) ?? `${fixedSig(fromPa(x.pressure_Pa, u), 6)} ${u}`,
+        temperature: `${(x.temperature_K - 273.15).toFixed(2)} degC`,
+        time: shortTime(x.time),
+        by: x.by,
+        note: [
+          dangerLines.has(x.line) ? 'DANGER: past a limit, see the findings' : '',
+          limitOf.has(x.line) && !final
+            ? 'still above the working limit; vented again and read again after it'
+            : '',
+          final ? "the tank's final pressure" : '',
+        ]
+          .filter(Boolean)
+          .join('; '),
+      });
+    });
+    return rows;
+  });
+}
+
 /** the check's warnings, the record's findings and the plan's findings, dangers first */
 function certificateFindings(r: CheckReport, log: LogView | undefined): { severity: string; text: string }[] {
   const findings: { severity: string; text: string }[] = [];
@@ -275,10 +339,20 @@ export function buildCertificateModel(
     r.design ? pct(r.design.diluentFraction) : 'n/a',
     label.dilution ?? 'n/a',
   ];
-  const acknowledgements = (log?.acknowledgements ?? []).map(
-    (a) =>
-      `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}${a.note ? ` - ${a.note}` : ''}`,
-  );
+  const acknowledgements = [
+    ...(log?.acknowledgements ?? []).map(
+      (a) =>
+        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}` +
+        (a.note ? ` - ${a.note}` : ''),
+    ),
+    ...(log?.vents ?? []).map(
+      (v) =>
+        `above-working-limit (fill ${v.step}): vent chosen by ${v.by} at ${v.time} (line ${v.line}); ` +
+        (v.readings.length
+          ? `read after venting ${v.readings.length === 1 ? 'once' : `${v.readings.length} times`}`
+          : 'NOT read after venting'),
+    ),
+  ];
   const recipe = h?.recipe as { title?: unknown; id?: unknown } | undefined;
   const title =
     typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
@@ -308,7 +382,7 @@ export function buildCertificateModel(
     rows: compositionRows(r, label),
     phi,
     dilution,
-    readings: certificateReadings(r, log),
+    readings: [...certificateReadings(r, log), ...ventReadings(r, log)],
     corrections: amendmentLines(r),
     acknowledgements,
     findings: certificateFindings(r, log),

@@ -725,7 +725,7 @@ const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 function parseReading(
   s: FillState,
   step: FillStep,
-): { shown: number; temperatureK: number } | { error: string; typo?: boolean } {
+): { shown: number; temperatureK: number } | { error: string } {
   try {
     const text = s.input.trim();
     if (text === '') fail({ code: 'reading-missing', expected: 'pressure' });
@@ -737,14 +737,11 @@ function parseReading(
   } catch (e) {
     if (!(e instanceof ProblemError)) throw e;
     const p = e.problem;
-    // a bare number is read in the gauge's unit: the hint says so
-    // the reading's text could not be read (the message quotes it): the field may be cleared
-    const typo = p.code === 'bad-quantity' || p.code === 'wrong-dimension';
+    // a bare number is read in the gauge's unit: the hint says so (the message quotes what was typed)
     return {
       error: describeProblem(
         p.code === 'bad-quantity' || p.code === 'reading-missing' ? { ...p, bareUnit: gaugeUnit(step) } : p,
       ),
-      typo,
     };
   }
 }
@@ -1179,8 +1176,8 @@ function onReadingEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const parsed = parseReading(s, step);
-  // a refused entry clears the field (its text stays in the message), so the next one starts clean
-  if ('error' in parsed) return { ...s, input: parsed.typo ? '' : s.input, error: parsed.error };
+  // every refused entry clears the field (the message quotes it or its value), so the next one starts clean
+  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
   const { shown, temperatureK } = parsed;
   const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
   const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
@@ -1205,7 +1202,7 @@ function onReadingEnter(s: FillState, now: string): FillState {
     };
   }
   if (step.gauge && shown > step.gauge.fullScalePa)
-    return { ...s, error: pastRange(s, step, shown, absolute) };
+    return { ...s, input: '', error: pastRange(s, step, shown, absolute) };
   // the judgement uses the temperature typed with the reading: re-target first if it changed
   const s1 = Math.abs(temperatureK - s.targetTemperatureK) >= 0.005 ? withTemperature(s) : s;
   const event = readingEvent(s1, step, absolute, temperatureK, now);
@@ -1306,7 +1303,8 @@ function ventChosen(s: FillState, p: Pending, o: OverLimit, by: string, now: str
     time: now,
     note:
       `fill ${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute (line ${p.done.line}), above the ` +
-      `working limit ${fmtIn(o.limitPa, unit)}; vented back to at most ${fmtIn(o.ventToPa, unit)} absolute`,
+      `working limit ${fmtIn(o.limitPa, unit)}; ${by} has chosen to vent; target to vent to: at most ` +
+      `${fmtIn(o.ventToPa, unit)} absolute (the pressure after venting is the vent-reading that follows, if any)`,
   };
   return {
     ...s,
@@ -1345,10 +1343,10 @@ function onVentedEnter(s: FillState, now: string): FillState {
   const w = withInitials(s.input, 'reading after venting', '1490.2 AB');
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: parsed.typo ? '' : s.input, error: parsed.error };
+  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-    return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
+    return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
   if (!(absolute < v.beforePa))
     return {
       ...s,
@@ -1597,7 +1595,7 @@ function onCorrectEnter(s: FillState, now: string): FillState {
   const unit = gaugeUnit(step);
   if (!c.pending) {
     const parsed = parseReading(s, step);
-    if ('error' in parsed) return { ...s, error: parsed.error };
+    if ('error' in parsed) return { ...s, input: '', error: parsed.error };
     const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
     const before = i > 0 ? s.done[i - 1].pressurePa : (s.start?.pressurePa ?? 0);
     const after = s.done[i + 1]?.pressurePa;
@@ -1612,7 +1610,7 @@ function onCorrectEnter(s: FillState, now: string): FillState {
       };
     }
     if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-      return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
+      return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
     const ev = readingEvent(s, step, absolute, parsed.temperatureK, now);
     return {
       ...s,
@@ -1936,10 +1934,10 @@ function onStartEnter(s: FillState, now: string): FillState {
   const w = withInitials(s.input, 'reading', '120.4 AB');
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, error: parsed.error };
+  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-    return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
+    return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
   if (!(absolute > 0))
     return {
       ...s,
@@ -2021,7 +2019,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `(closes the batch below the target)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, error: parsed.error };
+  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (!(absolute > last.pressurePa)) {
     return {
@@ -2034,7 +2032,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
     };
   }
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
-    return { ...s, error: pastRange(s, step, parsed.shown, absolute) };
+    return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
   if (last.line === undefined)
     return {
       ...s,

@@ -20,6 +20,8 @@ import {
   type NewLogEvent,
 } from '../../src/io/batch-log.js';
 import { labelModel } from '../../src/report/label-model.js';
+import { buildCertificateModel } from '../../src/report/label-certificate.js';
+import { certificateToText } from '../../src/report/label-render.js';
 import { checkToJson, checkToText } from '../../src/report/check-report.js';
 import { fillReducer, initialState, setupFromHeader } from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
@@ -110,6 +112,76 @@ describe('check and label of a log with a vent after the last reading', () => {
     expect(json.vent.after.pressure_Pa).toBe(1498.2 * TORR);
     const m = labelModel(r, log);
     expect(m.finalPressure).toMatch(/^1498\.2\d* Torr absolute after venting$/);
+  });
+
+  it('a reading after venting still above the working limit, read again after venting more: said as that, never as corrected or withdrawn', async () => {
+    // MT-1's working limit 2700.2 Torr (4 bar x 0.9, the demo tank): 2710 Torr after venting is still above it
+    const still: NewLogEvent = {
+      ...AFTER,
+      reading: '2710 Torr',
+      pressure_Pa: 2710 * TORR,
+      time: '2026-12-01T01:07:00Z',
+    };
+    const { log } = logOf([VENT, still, AFTER, { kind: 'close', time: 't' }]);
+    const r = await checkLog(log, { trials: 0, seed: 1 });
+    const f = r.findings.find((x) => x.code === 'above-working-limit' && x.pressurePa === 2710 * TORR);
+    expect(f).toBeDefined();
+    const text = checkToText(r);
+    const line = text.split('\n').find((l) => l.includes('2710 Torr (absolute) is above'))!;
+    expect(line).toMatch(
+      /a reading after venting, still above the working limit: the tank was vented again and read again after it/,
+    );
+    expect(line).not.toMatch(/corrected or withdrawn/);
+    // the fill reading past the limit (2800, in force) still says what it is: a danger, inspect
+    expect(text).toMatch(/2800 Torr \(absolute\) is above .*The tank was taken past its working limit/);
+  });
+
+  it('the certificate lists the vent and the readings after venting as logged, and the vent and an accept among the acknowledgements', async () => {
+    const meta = { version: 't', paper: 'a4' as const, generated: '2026-12-01T02:00:00Z' };
+    const still: NewLogEvent = {
+      ...AFTER,
+      reading: '2710 Torr',
+      pressure_Pa: 2710 * TORR,
+      time: '2026-12-01T01:07:00Z',
+    };
+    const vented = logOf([VENT, still, AFTER, { kind: 'close', time: 't' }]).log;
+    const text = certificateToText(
+      buildCertificateModel(await checkLog(vented, { trials: 0, seed: 1 }), vented, meta),
+    );
+    const readings = text.slice(text.indexOf('READINGS AS LOGGED'), text.indexOf('CORRECTIONS'));
+    expect(readings).toMatch(
+      /3 +vent .*JD +vented \(line 5\); target to vent to: at most 1500 Torr absolute/,
+    );
+    expect(readings).toMatch(
+      /3 +after venting +head-10kT +2710 Torr +2710\.0 Torr .*JD +still above the working limit; vented again/,
+    );
+    expect(readings).toMatch(
+      /3 +after venting +head-10kT +1498\.2 Torr +1498\.2 Torr .*JD +the tank's final pressure/,
+    );
+    const acks = text.slice(text.indexOf('ACKNOWLEDGEMENTS'), text.indexOf('FINDINGS'));
+    expect(acks).not.toMatch(/none logged/);
+    expect(acks).toMatch(
+      /above-working-limit \(fill 3\): vent chosen by JD at 2026-12-01T01:05:00Z \(line 5\); read after venting 2 times/,
+    );
+    // accept INITIALS at the manifold: the acknowledgement line is listed
+    const accepted = logOf([
+      {
+        kind: 'acknowledge',
+        code: 'above-working-limit',
+        step: 3,
+        by: 'JD',
+        time: '2026-12-01T01:06:00Z',
+        note: 'accepted',
+      },
+      { kind: 'close', time: 't' },
+    ]).log;
+    const t2 = certificateToText(
+      buildCertificateModel(await checkLog(accepted, { trials: 0, seed: 1 }), accepted, meta),
+    );
+    const acks2 = t2.slice(t2.indexOf('ACKNOWLEDGEMENTS'), t2.indexOf('FINDINGS'));
+    expect(acks2).toMatch(
+      /above-working-limit \(fill 3\): accepted by JD at 2026-12-01T01:06:00Z - accepted/,
+    );
   });
 
   it('a vent with no reading after it: said plainly (finding and caveat), the label gives no final pressure', async () => {

@@ -82,6 +82,17 @@ describe('guided fill state machine', () => {
       /^DANGER if real: 24865\.\d Torr absolute is past the working limit 2700\.22 Torr of MT-1 .*stop adding gas, close the cylinder and tank valves.*over-pressure procedure\. .*past the range of head-10kT.*typing slip.*not logged/,
     );
     expect(far.effects).toEqual([]);
+    // every refusal clears the field (README: a refused reading's field is cleared): past the gauge's range,
+    // past the physical range, unreadable; the next entry is read alone, never appended to the refused one
+    for (const bad of ['20000', '1e9 Torr', 'abc']) {
+      const r = read(s1, bad);
+      expect(r.error).toBeDefined();
+      expect(r.input).toBe('');
+      const next = read(r, '1480');
+      expect(next.error).toBeUndefined();
+      expect(next.pending?.event ?? next.done.at(-1)).toBeDefined();
+      expect(next.input).toBe('');
+    }
     expect(setTemperature(s1, '-300 degC').error).toMatch(/below absolute zero/);
     const t = setTemperature(s1, '400 degC');
     expect(t.error).toMatch(/outside the allowed range 200-600 K/);
@@ -258,6 +269,10 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(v.effects).toEqual([
       expect.objectContaining({ kind: 'vent', step: 2, by: 'JD', target_Pa: d.overLimit!.ventToPa }),
     ]);
+    // the note gives the target to vent to, never as what happened (the tank is not yet read after venting)
+    const note = (v.effects[0] as { note?: string }).note!;
+    expect(note).toMatch(/chosen to vent; target to vent to: at most 14\d\d\.\d+ Torr absolute/);
+    expect(note).not.toMatch(/vented back to/);
     expect(v.phase).toBe('vented');
     expect(v.message).toMatch(
       /Vent or pump the tank back to at most 14\d\d\.\d Torr on head-10kT \(14\d\d\.\d+ Torr absolute\), let it settle/,
