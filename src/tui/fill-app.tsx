@@ -97,11 +97,10 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
           : j.verdict === 'pass'
             ? 'within the tolerance'
             : 'NOT SHOWN within the tolerance (inside on the readings, U reaches past it)')
-      : // values only: whether the batch can be shown within (its U) is the plan's prediction and the re-check's
-        'Composition (values, not their uncertainty): ' +
+      : // values only (one screen line): whether the batch is shown within, with its U, is the re-check's at the end
+        'Composition (values, not U): ' +
         (j.verdict === 'on-course'
-          ? "the remaining fills, read on target, bring every fraction's value within the tolerance " +
-            '(the re-check at the end judges it with its uncertainty)'
+          ? 'the remaining fills bring each within tolerance'
           : "OFF COURSE - the remaining fills cannot bring every fraction's value within the tolerance");
   return (
     <Box flexDirection="column">

@@ -91,7 +91,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       await t.type(String(after));
       await t.keys('Enter');
       s = flat(await t.waitFor(/Tank label/, 30000));
-      expect(s).toMatch(/Re-check of the log \(mixwright check\): PASS/);
+      // the demo at its targets is shown within only on the values: check's words, never a bare pass
+      expect(s).toMatch(/Re-check of the log \(mixwright check\): NOT SHOWN WITHIN TOLERANCE - not a pass/);
       await t.keys('q');
       expect(await exitStatus(t)).toBe(0);
       const rep = await checkFile(join(dir, 'batches', 'temp.jsonl'), { trials: 0, seed: 1 });
@@ -123,7 +124,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       await t.type(`${t3} AB`);
       await t.keys('Enter');
       s = flat(await t.waitFor(/Tank label/, 30000));
-      expect(s).toMatch(/Re-check of the log \(mixwright check\): PASS/);
+      // the demo at its targets is shown within only on the values: check's words, never a bare pass
+      expect(s).toMatch(/Re-check of the log \(mixwright check\): NOT SHOWN WITHIN TOLERANCE - not a pass/);
       await t.keys('q');
       expect(await exitStatus(t)).toBe(0);
       const l = readLog(log);
@@ -313,7 +315,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       await t.type(String(target(s)));
       await t.keys('Enter');
       s = flat(await t.waitFor(/Tank label/, 30000));
-      expect(s).toMatch(/Re-check of the log \(mixwright check\): PASS/);
+      // the demo at its targets is shown within only on the values: check's words, never a bare pass
+      expect(s).toMatch(/Re-check of the log \(mixwright check\): NOT SHOWN WITHIN TOLERANCE - not a pass/);
       await t.keys('q');
       expect(await exitStatus(t)).toBe(0);
       const l = readLog(log);

@@ -48,7 +48,7 @@ describe('fill screen (ink)', () => {
     expect(ui.lastFrame()).toMatch(/fill 1 logged/);
     // the course check speaks of values only: whether the batch is shown within is the re-check's
     const flat = ui.lastFrame()!.replace(/\s+/g, ' ');
-    expect(flat).toContain('Composition (values, not their uncertainty)');
+    expect(flat).toContain('Composition (values, not U): the remaining fills bring each within tolerance');
     expect(flat).not.toMatch(/\bok\b(?! )|\) ok\b/);
     ui.unmount();
   });

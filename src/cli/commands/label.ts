@@ -126,7 +126,8 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
   if (code !== EXIT.ok) {
     cli.err(
       code === EXIT.recordAltered
-        ? `mixwright: ${target}: the log was changed after it was written; the label says RECORD ALTERED and shows no pass\n`
+        ? `mixwright: ${target}: the log was changed after it was written; the label says RECORD ` +
+            'ALTERED and shows no pass\n'
         : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
     );
     throw new ExitSignal(code);
