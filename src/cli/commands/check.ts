@@ -78,7 +78,14 @@ const EXIT_PRECEDENCE = [EXIT.outOfTolerance, EXIT.danger, EXIT.acceptedHazard, 
  * through hazards its review found (accepted at the manifold) 6; else numbers that are not as first
  * logged 5; else 0.
  */
-export function checkExit(report: CheckReport): number {
+export function checkExit(report: {
+  readonly verdict: { readonly verdict: string };
+  readonly findings: readonly { readonly severity: string }[];
+  readonly record?: {
+    readonly alteredLines: readonly number[];
+    readonly acceptedHazards?: readonly unknown[];
+  };
+}): number {
   if (report.verdict.verdict === 'fail') return EXIT.outOfTolerance;
   if (report.findings.some((f) => f.severity === 'danger')) return EXIT.danger;
   if (report.record?.acceptedHazards?.length) return EXIT.acceptedHazard;

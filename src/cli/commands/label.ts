@@ -9,6 +9,7 @@ import { certificateToHtml, certificateToMarkdown, certificateToText } from '../
 import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
 import { numberOption, parseTrials } from '../numbers.js';
+import { checkExit } from './check.js';
 import { emitDocument, isDirectory } from '../output.js';
 
 interface LabelOptions {
@@ -118,11 +119,8 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
     throw new ExitSignal(EXIT.danger);
   }
   // as `check` (exits 6 and 5): hazards accepted at the manifold, a record changed after it was written
-  const code = report.record?.acceptedHazards?.length
-    ? EXIT.acceptedHazard
-    : report.record?.alteredLines.length
-      ? EXIT.recordAltered
-      : EXIT.ok;
+  // (4 and 3 are thrown above, so `check`'s own precedence leaves 6, 5 or 0 here)
+  const code = checkExit(report);
   if (code !== EXIT.ok) {
     cli.err(
       code === EXIT.recordAltered

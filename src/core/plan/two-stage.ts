@@ -426,10 +426,14 @@ export function planTwoStage(
         // every choice of this composition delivers what the draft's premix charges deliver, to the
         // same readings: the delivery check on the draft is each choice's (its premix composition is
         // the draft's nominal one); a premix pressure that certainly runs low is left out of a proposal
+        const low = new Map<number, boolean>();
         const runsLow = (pressurePa: number) => {
           if (search !== 'proposal') return false;
-          const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
-          return check.endPa < check.requiredPa * (1 - 1e-9);
+          if (!low.has(pressurePa)) {
+            const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
+            low.set(pressurePa, check.endPa < check.requiredPa * (1 - 1e-9));
+          }
+          return low.get(pressurePa)!;
         };
         for (const { choice, gauges } of choicesFor(input, base, pressures)) {
           if (runsLow(choice.pressurePa)) continue;
