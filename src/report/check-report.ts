@@ -220,7 +220,9 @@ const linesText = (lines: readonly number[]) => `line${lines.length === 1 ? '' :
  */
 export function recordMarks(r: CheckReport): string[] {
   const out: string[] = [];
-  if (r.record?.alteredLines.length) out.push(`RECORD ALTERED (${linesText(r.record.alteredLines)})`);
+  // an altered record that leads the verdict (alteredLeads) is said there, not again as a mark
+  if (r.record?.alteredLines.length && !alteredLeads(r))
+    out.push(`RECORD ALTERED (${linesText(r.record.alteredLines)})`);
   if (r.record && !r.record.closed && !r.incomplete.length) out.push('NOT CLOSED');
   if (r.record?.acceptedHazards?.length) out.push(acceptedMark(r.record.acceptedHazards));
   return out;
@@ -237,6 +239,24 @@ function acceptedMark(accepted: readonly AcceptedHazard[]): string {
   return `ACCEPTED HAZARD (${accepted.map((a) => `before fill ${a.step ?? '?'}: ${hazardList(a)}`).join('; ')})`;
 }
 
+/**
+ * A record changed after it was written leads the verdict (never a pass, whatever its numbers give),
+ * unless the numbers fail: FAIL leads then, the altered record beside it. An incomplete batch leads
+ * with INCOMPLETE.
+ */
+function alteredLeads(r: CheckReport): boolean {
+  return Boolean(r.record?.alteredLines.length) && r.verdict.verdict !== 'fail' && !r.incomplete.length;
+}
+
+/** what the numbers as they stand would give, for a verdict led by an altered record */
+const STANDING_TEXT: Record<string, string> = {
+  pass: 'they would pass (every design fraction within its tolerance, uncertainty included)',
+  'pass-uncertain':
+    'they would not show every design fraction within its tolerance (the 95 % uncertainty of ' +
+    'some reaches past it)',
+  'no-design': 'there is no design to compare them with',
+};
+
 /** the verdict in words, marked by what the record says of it */
 function verdictText(r: CheckReport): string {
   if (r.incomplete.length)
@@ -245,13 +265,6 @@ function verdictText(r: CheckReport): string {
       `finished, so it is not passed; the fractions above cover the fills logged so far`
     );
   const altered = r.record?.alteredLines ?? [];
-  const marks = recordMarks(r);
-  if (altered.length && r.verdict.verdict === 'pass')
-    return (
-      `pass on the numbers as they stand - ${marks.join(' - ')}: the record was changed after it ` +
-      'was written, so this is not a pass of the batch; restore the log as it was written (a backup), ' +
-      'or re-measure the tank before it is used'
-    );
   const closed =
     r.record && !r.record.closed
       ? ' - NOT CLOSED: the fill never ended with a close entry (it was stopped or cut off, and gas ' +
@@ -260,6 +273,15 @@ function verdictText(r: CheckReport): string {
   const accepted = r.record?.acceptedHazards?.length
     ? ` - ${acceptedMark(r.record.acceptedHazards)}: the fill went on through hazards the plan did not have`
     : '';
+  if (alteredLeads(r))
+    return (
+      `RECORD ALTERED AFTER WRITING (${linesText(altered)}) - not a pass: the record was changed ` +
+      `after it was written, so the log is no proof of what the tank holds; on the numbers as they stand ` +
+      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}. Restore the log as it was written ` +
+      `(a backup), or re-measure the tank before it is used` +
+      closed +
+      accepted
+    );
   return (
     VERDICT_TEXT[r.verdict.verdict] +
     (altered.length
@@ -563,10 +585,12 @@ export function folderSummary(
     table.push([
       r.file,
       rep.id,
-      `${rep.incomplete.length ? 'incomplete' : rep.verdict.verdict}` +
-        (rep.record?.alteredLines.length && rep.verdict.verdict === 'pass' && !rep.incomplete.length
-          ? ' on the numbers as they stand'
-          : '') +
+      (alteredLeads(rep)
+        ? `RECORD ALTERED AFTER WRITING (${linesText(rep.record?.alteredLines ?? [])}) - not a pass; ` +
+          `on the numbers as they stand: ${rep.verdict.verdict}`
+        : rep.incomplete.length
+          ? 'incomplete'
+          : rep.verdict.verdict) +
         (danger ? ', DANGER' : '') +
         recordMarks(rep)
           .map((m) => `, ${m}`)

@@ -105,7 +105,7 @@ export interface CheckReportOf<F extends RecordFinding> {
   /**
    * the record itself (a log; absent for CSV readings): the lines that do not match their hash
    * chain (changed after writing, or not written by mixwright), and whether the fill was closed.
-   * A verdict from an altered record is on the numbers as they stand, never a bare pass.
+   * An altered record leads the verdict ("RECORD ALTERED AFTER WRITING - not a pass"), never a pass.
    */
   readonly record?: {
     readonly alteredLines: readonly number[];

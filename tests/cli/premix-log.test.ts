@@ -216,11 +216,13 @@ describe('an altered or unclosed premix log', () => {
       expect(r.stderr).toMatch(/restore the log as it was written/);
     });
 
-  it('check: the verdict is on the numbers as they stand, RECORD ALTERED (line 3), exit 5; JSON says so', async () => {
+  it('check: the verdict leads with RECORD ALTERED AFTER WRITING (line 3) - not a pass, then the numbers as they stand; exit 5; JSON says so', async () => {
     const r = await runCli(['check', altered, '--trials', '100000']);
     expect(r.code).toBe(5);
-    expect(r.stdout).toMatch(/^Verdict {5}pass on the numbers as they stand - RECORD ALTERED \(line 3\)/m);
-    expect(r.stdout).not.toMatch(/Verdict {5}PASS/);
+    expect(r.stdout).toMatch(
+      /^Verdict {5}RECORD ALTERED AFTER WRITING \(line 3\) - not a pass: the record was changed after it was written, .*; on the numbers as they stand they would pass \(/m,
+    );
+    expect(r.stdout).not.toMatch(/Verdict {5}(PASS|pass)/);
     const j = await runCli(['check', altered, '--trials', '100000', '--json']);
     expect(j.code).toBe(5);
     expect(JSON.parse(j.stdout)).toMatchObject({ record_altered_lines: [3], record_closed: true });
@@ -236,7 +238,7 @@ describe('an altered or unclosed premix log', () => {
     const r = await runCli(['check', join(dir, 'altered')]);
     expect(r.code).toBe(5);
     expect(r.stdout).toMatch(
-      /premix\.jsonl +\S+ +pass on the numbers as they stand, RECORD ALTERED \(line 3\)/,
+      /premix\.jsonl +\S+ +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; on the numbers as they stand: pass +/,
     );
     expect(r.stdout).toMatch(/unclosed\.jsonl +\S+ +pass, NOT CLOSED/);
   });

@@ -26,7 +26,7 @@ describe('check of a folder: a log without the tank limits says so', () => {
     expect(row('rated.jsonl')).not.toMatch(/NOT checked/);
     // the header edited by hand is off its hash chain, and the summary says so beside the verdict
     expect(row('no-rating.jsonl')).toMatch(
-      /pass-uncertain, RECORD ALTERED \(line 1\), tank limits NOT checked/,
+      /RECORD ALTERED AFTER WRITING \(line 1\) - not a pass; on the numbers as they stand: pass-uncertain, tank limits NOT checked/,
     );
     expect(unrated.warnings.join('\n')).toMatch(
       /no pressure rating for tank MT-1: the readings were NOT checked against a working limit/,
