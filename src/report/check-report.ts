@@ -8,7 +8,15 @@ import {
   type CheckReport,
   type LoggedReading,
 } from './check-types.js';
-import { speciesRole, type OutputStat } from '../core/index.js';
+import {
+  describeProblem,
+  describeProblemAt,
+  speciesRole,
+  type OutputStat,
+  type PremixLogCause,
+  type Problem,
+  type Where,
+} from '../core/index.js';
 
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
@@ -602,4 +610,75 @@ export function folderSummary(
     ]);
   }
   return padTable(table, [false, false, false, true, true]).join('\n') + '\n';
+}
+
+/** why a premix log was refused, as `check --json` gives it (SI keys, as the rest of the JSON) */
+function premixCauseJson(c: PremixLogCause): object {
+  switch (c.kind) {
+    case 'unreadable':
+      return { kind: c.kind, code: c.problem.code, message: describeProblem(c.problem) };
+    case 'not-finished':
+      return { kind: c.kind, missing_steps: c.missingSteps, closed: c.closed };
+    case 'recheck-not-passed':
+      return { kind: c.kind, verdict: c.verdict, off: c.off };
+    case 'danger':
+      return { kind: c.kind, codes: c.codes };
+    case 'too-little-gas':
+      return {
+        kind: c.kind,
+        tank: c.tank,
+        start_Pa: c.startPa,
+        end_Pa: c.endPa,
+        target_Pa: c.targetPa,
+        required_Pa: c.requiredPa,
+        delivered_mol: c.deliveredMol,
+      };
+    case 'foreign-gas':
+      return { kind: c.kind, species: c.species, design: c.design };
+    case 'same-tank':
+      return { kind: c.kind, tank: c.tank };
+    case 'not-in-order':
+      return { kind: c.kind, source: c.source };
+    case 'changed':
+      return { kind: c.kind, recorded_last_entry_sha256: c.recorded, now_last_entry_sha256: c.now };
+    case 'loop':
+      return { kind: c.kind };
+    case 'with-premix-tank':
+      return { kind: c.kind, places: c.places };
+    case 'record-altered':
+      return { kind: c.kind, lines: c.lines };
+  }
+}
+
+/** what was refused and why, for `check --json` (the whole run, or one file of a folder) */
+export function refusalJson(problem: Problem, where: Where) {
+  return {
+    code: problem.code,
+    message: describeProblemAt(problem, where),
+    file: where.file ?? null,
+    line: where.line ?? null,
+    field: where.field ?? null,
+    premix_log:
+      problem.code === 'premix-log-refused'
+        ? { log: problem.log, cause: premixCauseJson(problem.cause) }
+        : null,
+  };
+}
+
+/**
+ * `check --json` of a log, CSV or folder it refused (exit 2): a document in place of the re-check,
+ * `verdict: "refused"` with no composition, so a tool that reads the JSON is never left with empty
+ * input nor reads a refusal as a result
+ */
+export function checkRefusedJson(target: string, problem: Problem, where: Where, version: string): object {
+  return {
+    tool: 'mixwright',
+    version,
+    kind: 'check',
+    file: target,
+    verdict: 'refused',
+    refused: refusalJson(problem, where),
+    composition: null,
+    phi: null,
+  };
 }

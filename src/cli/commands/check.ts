@@ -2,7 +2,13 @@
 import type { Command } from 'commander';
 import { describeProblemAt, ProblemError } from '../../core/index.js';
 import { checkFile, type CheckReport } from '../../io/check.js';
-import { checkToJson, checkToText, folderSummary } from '../../report/check-report.js';
+import {
+  checkRefusedJson,
+  checkToJson,
+  checkToText,
+  folderSummary,
+  refusalJson,
+} from '../../report/check-report.js';
 import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
 import { numberOption, parseBarometer, parseTrials } from '../numbers.js';
@@ -19,7 +25,9 @@ interface CheckOptions {
   premixLog?: string;
 }
 type CheckOpts = Parameters<typeof checkFile>[1];
-type Row = { file: string; report: CheckReport } | { file: string; error: string };
+type Row =
+  | { file: string; report: CheckReport }
+  | { file: string; error: string; refused: ReturnType<typeof refusalJson> };
 
 /** each file of the folder checked on its own: a refusal is a row of the summary, not the end */
 async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): Promise<Row[]> {
@@ -38,8 +46,12 @@ async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): P
       });
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
-      rows.push({ file: f, error: describeProblemAt(e.problem, e.where) });
       const where = e.where.file ? e.where : { ...e.where, file: f };
+      rows.push({
+        file: f,
+        error: describeProblemAt(e.problem, e.where),
+        refused: refusalJson(e.problem, where),
+      });
       cli.err(`mixwright: ${describeProblemAt(e.problem, where)}\n  (error code: ${e.problem.code})\n`);
     }
   }
@@ -54,7 +66,7 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
     const json = rows.map((r) =>
       'report' in r
         ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) }
-        : r,
+        : { file: r.file, verdict: 'refused', error: r.error, refused: r.refused },
     );
     cli.out(JSON.stringify(json, null, 2) + '\n');
   } else cli.out(folderSummary(rows));
@@ -93,7 +105,21 @@ export function checkExit(report: {
   return EXIT.ok;
 }
 
+/**
+ * `check`; with --json a refusal (exit 2) still prints a JSON document on stdout, saying what was
+ * refused and why (its message on stderr as for any command)
+ */
 async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
+  try {
+    await checkTarget(cli, target, o);
+  } catch (e) {
+    if (o.json && e instanceof ProblemError)
+      cli.out(JSON.stringify(checkRefusedJson(target, e.problem, e.where, VERSION), null, 2) + '\n');
+    throw e;
+  }
+}
+
+async function checkTarget(cli: Cli, target: string, o: CheckOptions): Promise<void> {
   const folder = isDirectory(target);
   const opts: CheckOpts = {
     trials: parseTrials(o.trials, folder ? 0 : 200000, 'explain'),
