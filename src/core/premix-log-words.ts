@@ -92,5 +92,34 @@ export function describePremixLogProblem(
         '(see `mixwright check` on it), so the composition it gives is not the one the premix was filled ' +
         'to; restore the log as it was written (a backup), or re-measure the premix tank or make a new premix'
       );
+    case 'not-the-premix':
+      return describeNotThePremix(at, c);
   }
+}
+
+/** the --premix-log given is not the log of the premix a CSV row names: what it is, what is needed, what to do */
+function describeNotThePremix(
+  at: string,
+  c: Extract<Extract<Problem, { code: 'premix-log-refused' }>['cause'], { kind: 'not-the-premix' }>,
+): string {
+  const g = c.given;
+  const stage = g.batch !== undefined ? ` of batch ${g.batch}` : '';
+  const is =
+    g.is === 'premix'
+      ? `the log of the premix filled in tank ${g.tank} (stage 1${stage})`
+      : g.is === 'from-premix'
+        ? `the log of batch ${g.id}, filled in tank ${g.tank} from a premix (stage 2${stage}): a ` +
+          'batch, not a premix'
+        : `the log of ${g.id}, a single-tank fill in tank ${g.tank} (its header records no stage)`;
+  const needed =
+    `${c.row.file} line ${c.row.line} names ${c.row.name}, the premix filled in tank ${c.row.tank}` +
+    (c.row.tankKnown ? '' : ` (the lab profile lists no tank ${c.row.tank}: check the name)`) +
+    `, so --premix-log must be the log of that premix (the stage-1 log of tank ${c.row.tank})`;
+  const todo = g.premixLog
+    ? `give --premix-log ${g.premixLog}, the premix log that batch was filled from`
+    : `give the stage-1 log of tank ${c.row.tank} (the guided fill wrote it as batches/<batch>-premix.jsonl)` +
+      (g.is === 'premix'
+        ? `, or, if the gas of that row came from tank ${g.tank}, name it premix-${g.tank}`
+        : '');
+  return `${at} is ${is}; ${needed} - ${todo}`;
 }

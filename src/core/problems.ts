@@ -383,7 +383,37 @@ export type PremixLogCause =
   /** a premix log asked for together with a premix to make (its tank, gases, fraction, pressure or order) */
   | { readonly kind: 'with-premix-tank'; readonly places: readonly [string, string] }
   /** lines that do not match the log's hash chain: the record was changed after it was written */
-  | { readonly kind: 'record-altered'; readonly lines: readonly number[] };
+  | { readonly kind: 'record-altered'; readonly lines: readonly number[] }
+  /**
+   * CSV readings: the --premix-log given is not the log of the premix a row names (the log of
+   * another tank's premix, or a batch log: a single-tank batch, or a batch filled from a premix)
+   */
+  | {
+      readonly kind: 'not-the-premix';
+      /** the row that names the premix (`premix-MT-2`), its file and line, the tank it names and whether the lab profile lists it */
+      readonly row: {
+        readonly name: string;
+        readonly file: string;
+        readonly line: number;
+        readonly tank: string;
+        readonly tankKnown: boolean;
+      };
+      /** what the log given is */
+      readonly given: {
+        readonly id: string;
+        readonly tank: string;
+        /**
+         * 'premix': stage 1 of a two-stage preparation; 'from-premix': a batch filled from a premix;
+         * 'single': a log that records no stage nor premix (a single-tank fill: a batch, or a premix
+         * logged before logs recorded their stage)
+         */
+        readonly is: 'premix' | 'from-premix' | 'single';
+        /** the batch id of its two-stage preparation, where its header records one */
+        readonly batch?: string;
+        /** a batch filled from the premix the row names: that premix's log, as a path to give */
+        readonly premixLog?: string;
+      };
+    };
 
 /** a list of charges that cannot be planned (plan/charges.ts), told apart by `kind` */
 export type ChargeProblem =

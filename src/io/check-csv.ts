@@ -22,12 +22,12 @@ import {
 } from '../core/index.js';
 import { describeLogFinding, type LogFinding } from './log-audit.js';
 import { buildPlanRequest, loadLab, readRecipe, type LoadedLab } from './load.js';
-import { readReadingsCsv, type CsvReading } from './readings-csv.js';
+import { csvRowNames, readReadingsCsv, type CsvReading } from './readings-csv.js';
 import { sourceNames, type SourceNames } from './csv-names.js';
 import { isPressureUnit, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import { verdictCaveats, withinFile, type CheckOptions, type CheckReport } from './check-shared.js';
-import { premixLogReport, readPremixLog, type PremixRecord } from './premix-check.js';
+import { premixLogReport, readPremixLog, refuseNotThePremix, type PremixRecord } from './premix-check.js';
 import { resolve } from 'node:path';
 
 /** the tank the readings were filled in: its working limit and rating, Pa, where known */
@@ -76,7 +76,7 @@ function labTank(lab: LoadedLab, id: string): CsvTank {
   return tankOf(t, '--tank');
 }
 
-function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBasis {
+function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: string }): CsvBasis {
   const req = buildPlanRequest(readRecipe(opts.recipeFile), opts.labFile, {
     barometricPa: opts.barometricPa,
   });
@@ -89,7 +89,7 @@ function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBas
       `--tank ${tank.id} is not the tank of the recipe (${plan.tank.id}): the readings are checked ` +
         `against the limits of ${tank.id}`,
     );
-  const premix = premixOfOption(opts, req.lab.name);
+  const premix = premixOfOption(file, opts, req.lab, plan.design);
   const names = sourceNames({
     filled: [...plan.steps.map((s) => s.source), ...(premix ? [premix.source] : [])],
     cylinders: req.lab.cylinders,
@@ -122,7 +122,7 @@ function csvBasisFromRecipe(opts: CheckOptions & { recipeFile: string }): CsvBas
 
 function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
   const lab = loadLab(opts.labFile);
-  const premix = premixOfOption(opts, lab.name);
+  const premix = premixOfOption(file, opts, lab);
   const premixes = [...lab.cylinders.filter((c) => c.kind === 'premix'), ...(premix ? [premix.source] : [])];
   const names = sourceNames({
     filled: premixes,
@@ -252,7 +252,7 @@ function tankWarning(tank: CsvTank | undefined): string | undefined {
 
 export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckReport> {
   const b = opts.recipeFile
-    ? csvBasisFromRecipe({ ...opts, recipeFile: opts.recipeFile })
+    ? csvBasisFromRecipe(file, { ...opts, recipeFile: opts.recipeFile })
     : csvBasisFromLab(file, opts);
   const { design, tolerance, ctx, thermo } = b;
   const warnings = [...b.warnings];
@@ -312,11 +312,25 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   };
 }
 
-/** --premix-log: the premix log re-checked (as typed, from the working folder), refusals at the option */
-function premixOfOption(opts: CheckOptions, lab: string): PremixRecord | undefined {
+/**
+ * --premix-log: the premix log re-checked (as typed, from the working folder), refusals at the
+ * option; first refused when it is not the log of the premix a row of `file` names
+ */
+function premixOfOption(
+  file: string,
+  opts: CheckOptions,
+  lab: LoadedLab,
+  design?: Design,
+): PremixRecord | undefined {
   if (opts.premixLog === undefined) return undefined;
+  const gases = design && Object.keys(design.composition).filter((k) => design.composition[k] > 0);
   try {
-    return readPremixLog(opts.premixLog, resolve(opts.premixLog), lab);
+    refuseNotThePremix(opts.premixLog, resolve(opts.premixLog), csvRowNames(file), {
+      file,
+      tanks: lab.tanks.map((t) => t.id),
+      design: gases,
+    });
+    return readPremixLog(opts.premixLog, resolve(opts.premixLog), lab.name);
   } catch (e) {
     if (e instanceof ProblemError) throw relocate(e, { field: '--premix-log' });
     throw e;

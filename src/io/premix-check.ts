@@ -43,7 +43,8 @@ export interface PremixRecord {
 }
 
 /** the source id of a premix in a tank: the two-stage plan's label (`premix-MT-2`) */
-export const premixIdOf = (tankId: string): string => `premix-${tankId}`;
+export const PREMIX_ID_PREFIX = 'premix-';
+export const premixIdOf = (tankId: string): string => `${PREMIX_ID_PREFIX}${tankId}`;
 
 function refused(named: string, cause: PremixLogCause, where: { file?: string; field?: string } = {}): never {
   return fail({ code: 'premix-log-refused', log: named, cause }, where);
@@ -132,6 +133,68 @@ export function readPremixLog(
     lastReadingPa: last.pressure_Pa,
     tank,
   };
+}
+
+/**
+ * CSV readings: refuse a --premix-log that is not the log of the premix a row names by its source id
+ * (`premix-MT-2`), before it is re-checked, so that the refusal says what was given (another tank's
+ * premix, a single-tank batch, a batch filled from a premix) and what was expected, not a re-check
+ * of the wrong log. A log that cannot be read is left to `readPremixLog`, which says so.
+ */
+export function refuseNotThePremix(
+  named: string,
+  path: string,
+  rows: readonly { readonly name: string; readonly line: number }[],
+  at: {
+    /** the readings file */
+    readonly file: string;
+    /** the lab profile's tanks */
+    readonly tanks: readonly string[];
+    /** the gases of the design the readings were filled to (--recipe), when known */
+    readonly design?: readonly string[];
+  },
+): void {
+  const { design } = at;
+  const premixRows = rows.filter((r) => r.name.startsWith(PREMIX_ID_PREFIX));
+  if (!premixRows.length) return;
+  let log: ParsedLog;
+  try {
+    log = readLog(path);
+  } catch (e) {
+    if (e instanceof ProblemError) return;
+    throw e;
+  }
+  const h = log.header;
+  // the gases the log was filled to (its own design): one the batch's design has not is another mixture
+  const foreign = design
+    ? Object.keys(h.design.composition).filter((k) => h.design.composition[k] > 0 && !design.includes(k))
+    : [];
+  const fromPremix = h.stage?.number === 2 || (h.premix_logs?.length ?? 0) > 0;
+  const row = premixRows.find((r) => fromPremix || r.name !== premixIdOf(h.tank.id));
+  if (!row) {
+    if (foreign.length && design)
+      refused(named, { kind: 'foreign-gas', species: foreign, design }, { field: '--premix-log' });
+    return;
+  }
+  // a batch filled from the premix the row names: the premix log it names, as a path to give
+  const entry = namedPremixLogs(log).find((n) => n.entry.source === row.name);
+  const tank = row.name.slice(PREMIX_ID_PREFIX.length);
+  const rel = entry ? relative(process.cwd(), entry.path) : undefined;
+  refused(
+    named,
+    {
+      kind: 'not-the-premix',
+      row: { name: row.name, file: at.file, line: row.line, tank, tankKnown: at.tanks.includes(tank) },
+      given: {
+        id: h.id,
+        tank: h.tank.id,
+        is: fromPremix ? 'from-premix' : h.stage?.number === 1 ? 'premix' : 'single',
+        ...(h.stage ? { batch: h.stage.batch } : {}),
+        ...(entry ? { premixLog: rel && !rel.startsWith('..') ? rel : entry.path } : {}),
+      },
+    },
+    { field: '--premix-log' },
+  );
 }
 
 /** the premix logs a batch log's header names, resolved against the batch log's folder */

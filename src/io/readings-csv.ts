@@ -165,6 +165,24 @@ export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {
   return out;
 }
 
+/**
+ * The first column of each data row as typed, with its file line, read before the rows are (a
+ * row's name decides which premix log the readings need); the header is checked as for the rows
+ */
+export function csvRowNames(file: string): { name: string; line: number }[] {
+  const lines = readTextFile(file).replace(/\r\n?/g, '\n').split('\n');
+  const { header, at } = readHeader(lines, file);
+  const col = header.indexOf('species');
+  const out: { name: string; line: number }[] = [];
+  for (let i = at + 1; i < lines.length; i++) {
+    const raw = lines[i];
+    if (raw.trim() === '' || raw.trim().startsWith('#')) continue;
+    const name = splitCsvLine(raw)[col];
+    if (name !== undefined) out.push({ name, line: i + 1 });
+  }
+  return out;
+}
+
 export function readReadingsCsv(file: string, ctx: CsvContext = {}): CsvReading[] {
   const text = readTextFile(file);
   return parseReadingsCsv(text, file, ctx);

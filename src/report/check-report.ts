@@ -647,6 +647,24 @@ function premixCauseJson(c: PremixLogCause): object {
       return { kind: c.kind, places: c.places };
     case 'record-altered':
       return { kind: c.kind, lines: c.lines };
+    case 'not-the-premix':
+      return {
+        kind: c.kind,
+        row: {
+          name: c.row.name,
+          file: c.row.file,
+          line: c.row.line,
+          tank: c.row.tank,
+          tank_known: c.row.tankKnown,
+        },
+        given: {
+          id: c.given.id,
+          tank: c.given.tank,
+          is: c.given.is,
+          batch: c.given.batch ?? null,
+          premix_log: c.given.premixLog ?? null,
+        },
+      };
   }
 }
 

@@ -433,13 +433,76 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
     }
   });
 
-  it('with the log of another premix: says which premix the given log is of', async () => {
+  it('with the log of another premix: says what the given log is, which log the row needs, and what to do', async () => {
     const f = csvFile(['CH4,10.0129 Torr,25 degC,head-1kT', 'premix-MT-3,520.27 Torr,25 degC,head-1kT']);
     const cli = await runCli(['check', f, '--premix-log', 'batches/demo-premix-o2-ar-mt2.jsonl']);
     expect(cli.code).toBe(2);
-    expect(cli.stderr).toContain('r.csv:3 species: "premix-MT-3" names the premix filled in tank MT-3');
-    expect(cli.stderr).toContain('the --premix-log given is the log of premix-MT-2, another premix');
+    expect(cli.stderr).toContain('(error code: premix-log-refused)');
+    expect(cli.stderr).toMatch(
+      /--premix-log: premix log batches\/demo-premix-o2-ar-mt2\.jsonl is the log of .*tank MT-2 /,
+    );
+    expect(cli.stderr).toMatch(/r\.csv line 3 names premix-MT-3, the premix filled in tank MT-3 /);
     expect(cli.stderr).toContain('the lab profile lists no tank MT-3: check the name');
+    expect(cli.stderr).toContain(
+      'so --premix-log must be the log of that premix (the stage-1 log of tank MT-3)',
+    );
+    expect(cli.stderr).toContain('give the stage-1 log of tank MT-3');
+  });
+
+  // a batch log given in place of the premix log: its re-check was reported (a single-tank batch
+  // "cannot be shown within its tolerance", a batch of another design "fails its re-check"), or it
+  // was called "another premix"; the refusal now says what the log is and which log to give
+  const withRecipe = ['--recipe', 'recipes/ch4-o2-ar-phi1.yaml'];
+  it('a batch filled from the premix (stage 2) in its place: names it a batch and gives the premix log it names', async () => {
+    const cli = await runCli([
+      'check',
+      CSV,
+      ...withRecipe,
+      '--premix-log',
+      'batches/demo-ch4-phi1-from-premix.jsonl',
+    ]);
+    expect(cli.code).toBe(2);
+    expect(cli.stderr).toContain(
+      '--premix-log: premix log batches/demo-ch4-phi1-from-premix.jsonl is the log of batch ' +
+        'demo-ch4-phi1-from-premix, filled in tank MT-1 from a premix (stage 2): a batch, not a premix; ' +
+        'readings/ch4-phi1-from-premix.csv line 4 names premix-MT-2, the premix filled in tank MT-2, so ' +
+        '--premix-log must be the log of that premix (the stage-1 log of tank MT-2) - give --premix-log ' +
+        'batches/demo-premix-o2-ar-mt2.jsonl, the premix log that batch was filled from',
+    );
+    expect(cli.stderr).not.toMatch(/another premix|re-check/);
+  });
+
+  it('a single-tank batch of another tank in its place: what it is, the row, the log to give', async () => {
+    const cli = await runCli([
+      'check',
+      CSV,
+      ...withRecipe,
+      '--premix-log',
+      'batches/demo-ch4-phi1-ar98.jsonl',
+    ]);
+    expect(cli.code).toBe(2);
+    expect(cli.stderr).toContain(
+      'premix log batches/demo-ch4-phi1-ar98.jsonl is the log of demo-ch4-phi1-ar98, a single-tank fill ' +
+        'in tank MT-1 (its header records no stage); readings/ch4-phi1-from-premix.csv line 4 names ' +
+        'premix-MT-2',
+    );
+    expect(cli.stderr).not.toMatch(/cannot be shown within its tolerance/);
+  });
+
+  it("a batch of another design in the premix's tank: the gas the design has not, not its re-check", async () => {
+    const cli = await runCli([
+      'check',
+      CSV,
+      ...withRecipe,
+      '--premix-log',
+      'batches/demo-c2h4-phi05-ar-overshoot.jsonl',
+    ]);
+    expect(cli.code).toBe(2);
+    expect(cli.stderr).toContain(
+      'premix log batches/demo-c2h4-phi05-ar-overshoot.jsonl holds C2H4, which the design (CH4, O2, Ar) ' +
+        "does not: it is not a premix of this design's gases",
+    );
+    expect(cli.stderr).not.toMatch(/fails its re-check/);
   });
 
   it('with the stage-1 log: the row is that premix (the re-check runs)', async () => {
