@@ -390,7 +390,10 @@ export type PremixLogCause =
    */
   | {
       readonly kind: 'not-the-premix';
-      /** the row that names the premix (`premix-MT-2`), its file and line, the tank it names and whether the lab profile lists it */
+      /**
+       * the row that names the premix (`premix-MT-2`), its file and line, the tank it names and
+       * whether the lab profile lists it
+       */
       readonly row: {
         readonly name: string;
         readonly file: string;
