@@ -386,15 +386,11 @@ function EndScreen({
   );
 }
 
+/** the label as `label` prints it: its lines carry check's caveats already (once), so none is added here */
 function LabelBox({ caveats, label }: { caveats: readonly string[]; label: readonly string[] }) {
   return (
     <Box flexDirection="column" borderStyle={caveats.length ? 'double' : 'single'} paddingX={1}>
       <Text bold>Tank label (as filled, from the readings)</Text>
-      {caveats.map((c, i) => (
-        <Text key={`c${i}`} bold wrap="wrap">
-          {c}
-        </Text>
-      ))}
       {label.map((l, i) => (
         <Text key={i} wrap="wrap">
           {l}
