@@ -322,6 +322,28 @@ function verdictLines(r: CheckReport): string[] {
   return out;
 }
 
+/** a stage-1 log that stage 2 takes: what it refuses (premix-log-refused) is not closed, altered, a danger, short of a pass */
+function premixUsable(r: CheckReport): boolean {
+  return (
+    r.verdict.verdict === 'pass' &&
+    !r.incomplete.length &&
+    r.record?.closed !== false &&
+    !r.record?.alteredLines.length &&
+    !r.findings.some((f) => f.severity === 'danger')
+  );
+}
+
+/**
+ * The stage a log records, in a few words for the folder summary (as `stageLines` says it for one
+ * log): '-' for a single-tank batch
+ */
+export function stageCell(r: CheckReport): string {
+  const st = r.stage;
+  if (!st) return '-';
+  if (st.number === 2) return `2 of 2: batch ${st.batch} from ${st.premixLog ?? '(premix log not named)'}`;
+  return `1 of 2: premix of ${st.batch}${premixUsable(r) ? '' : ' (stage 2 will refuse it)'}`;
+}
+
 /**
  * A log of a two-stage preparation says which stage it is: stage 1, the premix of its batch, with
  * the command of stage 2 (or, when the premix is not usable, that stage 2 will refuse it); stage 2,
@@ -335,13 +357,7 @@ export function stageLines(r: CheckReport): string[] {
       `Stage 2 of 2: batch ${st.batch}, filled from the premix log ${st.premixLog ?? '(not named)'}`,
       '',
     ];
-  // what stage 2 refuses (premix-log-refused): not closed, altered, a danger, a re-check short of a pass
-  const usable =
-    r.verdict.verdict === 'pass' &&
-    !r.incomplete.length &&
-    r.record?.closed !== false &&
-    !r.record?.alteredLines.length &&
-    !r.findings.some((f) => f.severity === 'danger');
+  const usable = premixUsable(r);
   return [
     `Stage 1 of 2: the premix of batch ${st.batch}; stage 2 fills batch ${st.batch} from it.`,
     ...(usable
@@ -459,7 +475,7 @@ function ventJson(r: CheckReport) {
 }
 
 /** `stage` of check --json: the stage a two-stage log records, null for a single-tank batch */
-function stageJson(r: CheckReport) {
+export function stageJson(r: CheckReport) {
   const st = r.stage;
   return st
     ? {
@@ -576,10 +592,10 @@ export function checkToJson(r: CheckReport, version: string): object {
 export function folderSummary(
   rows: readonly ({ file: string } & ({ report: CheckReport } | { error: string }))[],
 ): string {
-  const table: string[][] = [['file', 'batch', 'verdict', 'phi', 'worst |dev|/tol']];
+  const table: string[][] = [['file', 'batch', 'stage', 'verdict', 'phi', 'worst |dev|/tol']];
   for (const r of rows) {
     if ('error' in r) {
-      table.push([r.file, '-', 'ERROR', '-', r.error]);
+      table.push([r.file, '-', '-', 'ERROR', '-', r.error]);
       continue;
     }
     const rep = r.report;
@@ -593,6 +609,7 @@ export function folderSummary(
     table.push([
       r.file,
       rep.id,
+      stageCell(rep),
       (alteredLeads(rep)
         ? `RECORD ALTERED AFTER WRITING (${linesText(rep.record?.alteredLines ?? [])}) - not a pass; ` +
           `on the numbers as they stand: ${rep.verdict.verdict}`
@@ -609,7 +626,7 @@ export function folderSummary(
       rep.incomplete.length ? 'incomplete' : rep.verdict.deviations.length ? worst.toFixed(2) : '-',
     ]);
   }
-  return padTable(table, [false, false, false, true, true]).join('\n') + '\n';
+  return padTable(table, [false, false, false, false, true, true]).join('\n') + '\n';
 }
 
 /** why a premix log was refused, as `check --json` gives it (SI keys, as the rest of the JSON) */

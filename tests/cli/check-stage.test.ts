@@ -1,11 +1,13 @@
 // check of a stage log: a stage-1 log says it is stage 1 of 2 (the premix of its batch) and gives the
 // stage-2 command, in text and JSON (`stage`); the exit codes stay those of any batch log.
-import { mkdtempSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { premixTargets, writePremixLog } from '../stage-logs.js';
 import { runCli } from '../helpers.js';
+import { appendEvent, createLog, readLog, type NewLogEvent } from '../../src/io/batch-log.js';
 
 const TRIALS = ['--trials', '100000'];
 const tmp = () => mkdtempSync(join(tmpdir(), 'mw-check-stage-'));
@@ -52,5 +54,71 @@ describe('check of a stage-1 log', () => {
       (await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', ...TRIALS, '--json'])).stdout,
     );
     expect(j.stage).toBeNull();
+  });
+});
+
+// a folder of logs: each stage log's row says which stage it is, as check of that log alone does
+describe('check of a folder with stage logs', () => {
+  /** a stage-2 log: the demo batch from the demo premix (beside it), its header with the stage fill writes */
+  function writeStage2Log(dir: string): string {
+    const premix = 'demo-premix-o2-ar-mt2.jsonl';
+    copyFileSync(join('batches', premix), join(dir, premix));
+    const demo = readLog('batches/demo-ch4-phi1-from-premix.jsonl');
+    const file = join(dir, 'b1.jsonl');
+    const sha256 = createHash('sha256')
+      .update(readFileSync(join(dir, premix)))
+      .digest('hex');
+    createLog(file, {
+      ...demo.header,
+      id: 'b1',
+      stage: {
+        number: 2,
+        of: 2,
+        batch: 'b1',
+        premix_log: { file: premix, id: 'demo-premix-o2-ar-mt2', sha256 },
+      },
+    });
+    for (const l of readFileSync('batches/demo-ch4-phi1-from-premix.jsonl', 'utf8')
+      .trim()
+      .split('\n')
+      .slice(1)) {
+      const { chain: _c, ...e } = JSON.parse(l) as Record<string, unknown>;
+      void _c;
+      appendEvent(file, e as NewLogEvent);
+    }
+    return file;
+  }
+
+  it('the table has a stage column: 1 of 2 (premix of b1), 2 of 2 (batch b1 from its premix log), - for a single-tank batch; JSON rows carry stage', async () => {
+    const dir = tmp();
+    writePremixLog(dir, premixTargets);
+    writeStage2Log(dir);
+    copyFileSync('batches/demo-ch4-phi1-ar98.jsonl', join(dir, 'single.jsonl'));
+    const r = await runCli(['check', dir]);
+    const lines = r.stdout.split('\n');
+    expect(lines[0]).toMatch(/^file +batch +stage +verdict +phi +worst/);
+    const row = (f: string) => lines.find((l) => l.startsWith(join(dir, f)))!;
+    expect(row('b1-premix.jsonl')).toMatch(/ b1-premix +1 of 2: premix of b1 +pass /);
+    expect(row('b1.jsonl')).toMatch(/ b1 +2 of 2: batch b1 from demo-premix-o2-ar-mt2\.jsonl +pass /);
+    expect(row('single.jsonl')).toMatch(/ demo-ch4-phi1-ar98 +- +pass-uncertain /);
+    const j = JSON.parse((await runCli(['check', dir, '--json'])).stdout) as {
+      file: string;
+      stage: unknown;
+    }[];
+    const stage = (f: string) => j.find((x) => x.file === join(dir, f))!.stage;
+    expect(stage('b1-premix.jsonl')).toMatchObject({ number: 1, of: 2, batch: 'b1' });
+    expect(stage('b1.jsonl')).toMatchObject({
+      number: 2,
+      batch: 'b1',
+      premix_log: 'demo-premix-o2-ar-mt2.jsonl',
+    });
+    expect(stage('single.jsonl')).toBeNull();
+  });
+
+  it('a stage-1 log stage 2 would refuse (not closed) says so in its row', async () => {
+    const dir = tmp();
+    writePremixLog(dir, premixTargets, { close: false });
+    const r = await runCli(['check', dir]);
+    expect(r.stdout).toMatch(/b1-premix +1 of 2: premix of b1 \(stage 2 will refuse it\) +pass, NOT CLOSED/);
   });
 });

@@ -49,7 +49,7 @@ describe('mixwright check', () => {
     copyFileSync('batches/demo-ch4-phi1-ar98.jsonl', join(dir, 'a.jsonl'));
     const r = await runCli(['check', dir, '--trials', '100000']);
     expect(r.code, r.stderr).toBe(0);
-    expect(r.stdout).toMatch(/a\.jsonl\s+demo-ch4-phi1-ar98\s+pass/);
+    expect(r.stdout).toMatch(/a\.jsonl\s+demo-ch4-phi1-ar98\s+-\s+pass/);
   });
 
   it('bad input: a CSV species not in the design, too few trials - exit 2 with the place', async () => {

@@ -238,8 +238,8 @@ describe('an altered or unclosed premix log', () => {
     const r = await runCli(['check', join(dir, 'altered')]);
     expect(r.code).toBe(5);
     expect(r.stdout).toMatch(
-      /premix\.jsonl +\S+ +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; on the numbers as they stand: pass +/,
+      /premix\.jsonl +\S+ +\S.*? +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; on the numbers as they stand: pass +/,
     );
-    expect(r.stdout).toMatch(/unclosed\.jsonl +\S+ +pass, NOT CLOSED/);
+    expect(r.stdout).toMatch(/unclosed\.jsonl +\S+ +\S.*? +pass, NOT CLOSED/);
   });
 });

@@ -8,6 +8,7 @@ import {
   checkToText,
   folderSummary,
   refusalJson,
+  stageJson,
 } from '../../report/check-report.js';
 import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
@@ -65,7 +66,12 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
   if (o.json) {
     const json = rows.map((r) =>
       'report' in r
-        ? { file: r.file, verdict: r.report.verdict.verdict, check: checkToJson(r.report, VERSION) }
+        ? {
+            file: r.file,
+            verdict: r.report.verdict.verdict,
+            stage: stageJson(r.report),
+            check: checkToJson(r.report, VERSION),
+          }
         : { file: r.file, verdict: 'refused', error: r.error, refused: r.refused },
     );
     cli.out(JSON.stringify(json, null, 2) + '\n');
