@@ -322,7 +322,10 @@ function verdictLines(r: CheckReport): string[] {
   return out;
 }
 
-/** a stage-1 log that stage 2 takes: what it refuses (premix-log-refused) is not closed, altered, a danger, short of a pass */
+/**
+ * a stage-1 log that stage 2 takes: what it refuses (premix-log-refused) is not closed, altered, a
+ * danger, short of a pass
+ */
 function premixUsable(r: CheckReport): boolean {
   return (
     r.verdict.verdict === 'pass' &&

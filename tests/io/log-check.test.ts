@@ -332,7 +332,7 @@ describe('dangers in a log', () => {
     // a folder with that log: the summary marks it, exit 3
     const folder = await runCli(['check', dir, '--trials', '100000']);
     expect(folder.code).toBe(3);
-    expect(folder.stdout).toMatch(/lim\.jsonl\s+danger-test\s+pass(-uncertain)?, DANGER/);
+    expect(folder.stdout).toMatch(/lim\.jsonl\s+danger-test\s+-\s+pass(-uncertain)?, DANGER/);
   });
 
   it('a reading above its gauge full scale is a danger; corrected away it is a warning; out of tolerance still exits 4', async () => {
