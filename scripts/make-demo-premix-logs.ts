@@ -1,36 +1,40 @@
-// Writes the demo logs of a two-stage preparation (demo data only, our invented lab):
+// Writes the demo logs of a two-stage preparation (demo data only, our invented lab), with the
+// headers the guided fill writes (src/io/stage-log.ts, as `fill` calls it):
 //   batches/demo-premix-o2-ar-mt2.jsonl  stage 1: the O2-in-Ar premix in MT-2 that the two-stage plan of
-//                                        recipes/ch4-o2-ar-phi1.yaml chooses, filled and closed
+//                                        recipes/ch4-o2-ar-phi1.yaml chooses (`fill RECIPE --premix-tank
+//                                        MT-2 --batch demo-ch4-phi1-from-premix`), filled and closed; its
+//                                        header `stage` 1 of 2 with the stage-2 command
 //   batches/demo-ch4-phi1-from-premix.jsonl  stage 2: the batch in MT-1 planned from that premix log
-//                                        (`plan --premix-log`), its header naming the premix log
-// with invented readings as an operator might have logged them, close to the targets.
+//                                        (`fill RECIPE --premix-log PREMIX`), its header naming the premix
+//                                        log (`premix_logs`: the hash of its last entry; `stage`: the
+//                                        sha256 of its bytes)
+// with invented readings as an operator might have logged them, close to the targets. The one
+// difference from `fill`: the premix log's name and id are the demo's (`fill` would call it
+// demo-ch4-phi1-from-premix-premix.jsonl).
 // Run: npx tsx scripts/make-demo-premix-logs.ts
 import { existsSync, unlinkSync } from 'node:fs';
-import { planTwoStage, type Plan } from '../src/core/index.js';
-import { buildPlanRequest, readRecipe, type PlanRequest } from '../src/io/load.js';
-import { appendEvent, createLog } from '../src/io/batch-log.js';
-import { headerFromPlan } from '../src/io/check.js';
-import { twoStageInputOf } from '../src/io/two-stage-request.js';
-import { mergeOptions } from '../src/cli/design-options.js';
+import type { Plan } from '../src/core/index.js';
+import { appendEvent, createLog, type LogHeader } from '../src/io/batch-log.js';
+import { fileSha256, stage1Header, stage2Header } from '../src/io/stage-log.js';
 import { planFrom } from '../src/cli/plan-from.js';
+import { stage2Command } from '../src/cli/stage-fill.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const PREMIX = 'batches/demo-premix-o2-ar-mt2.jsonl';
 const BATCH = 'batches/demo-ch4-phi1-from-premix.jsonl';
+const BATCH_ID = 'demo-ch4-phi1-from-premix';
 const TORR = 101325 / 760;
 
 /** one reading per step, read on the plan's gauge: the invented value in Torr, degC, time, note */
 function fill(
   file: string,
   plan: Plan,
-  req: PlanRequest,
-  id: string,
-  created: string,
+  header: LogHeader,
   readings: readonly { torr: number; degC: number; time: string; note?: string }[],
   close: { time: string; note: string },
 ): void {
   if (existsSync(file)) unlinkSync(file);
-  createLog(file, { ...headerFromPlan(plan, req, id, created, file) });
+  createLog(file, header);
   plan.steps.forEach((s, i) => {
     const r = readings[i];
     appendEvent(file, {
@@ -51,21 +55,19 @@ function fill(
   console.log(`wrote ${file}`);
 }
 
-// stage 1: the premix of the two-stage plan (targets 1636.765 / 1890.155 Torr on head-10kT)
+// stage 1: the premix of the two-stage plan (targets 1636.765 / 1890.155 Torr on head-10kT), its
+// header as `fill RECIPE --premix-tank MT-2 --batch BATCH_ID --dir batches` writes it
 for (const f of [BATCH, PREMIX]) if (existsSync(f)) unlinkSync(f);
-const rs = mergeOptions(readRecipe(RECIPE), { premixTank: 'MT-2' });
-const req = buildPlanRequest(rs);
-const two = planTwoStage(twoStageInputOf(req, rs)!);
-const premixReq: PlanRequest = {
-  ...req,
-  recipe: { ...req.recipe, id: 'premix-o2-ar-mt2', title: 'stage 1 of ch4-phi1-ar98: O2 in Ar in MT-2' },
+const two = planFrom(RECIPE, { premixTank: 'MT-2' });
+const next = stage2Command(RECIPE, {}, PREMIX, BATCH_ID, 'batches');
+const premixHeader: LogHeader = {
+  ...stage1Header(two.plan, two.req, BATCH_ID, '2026-11-29T14:05:00Z', next),
+  id: 'demo-premix-o2-ar-mt2',
 };
 fill(
   PREMIX,
-  two.premix,
-  premixReq,
-  'demo-premix-o2-ar-mt2',
-  '2026-11-29T14:05:00Z',
+  two.plan.twoStage!.premix,
+  premixHeader,
   [
     { torr: 1636.8, degC: 25.0, time: '2026-11-29T14:21:00Z', note: 'MT-2 evacuated to 0.02 Torr first' },
     { torr: 1890.2, degC: 25.0, time: '2026-11-29T14:38:00Z' },
@@ -73,14 +75,14 @@ fill(
   { time: '2026-11-29T14:45:00Z', note: 'left overnight to mix' },
 );
 
-// stage 2: the batch from the premix log (targets 10.013 / 371.19 / 520.27 / 1500.0 Torr)
+// stage 2: the batch from the premix log (targets 10.013 / 371.19 / 520.27 / 1500.0 Torr), its
+// header as `fill RECIPE --premix-log PREMIX --batch BATCH_ID --dir batches` writes it
 const batch = planFrom(RECIPE, { premixLog: PREMIX });
+const premixUsed = { file: PREMIX, id: premixHeader.id, sha256: fileSha256(PREMIX)! };
 fill(
   BATCH,
   batch.plan,
-  batch.req,
-  'demo-ch4-phi1-from-premix',
-  '2026-11-30T10:30:00Z',
+  stage2Header(batch.plan, batch.req, BATCH_ID, '2026-11-30T10:30:00Z', premixUsed, BATCH),
   [
     {
       torr: 10.0129,

@@ -314,6 +314,21 @@ function methodText(r: CheckReport, h: LogView['header'] | undefined): string {
   );
 }
 
+/**
+ * A stage-1 log carries the recipe of its batch: its certificate says it is the premix of that
+ * batch, with the premix's own gases and tank, never the batch's title alone (which names the
+ * batch's gases, pressure and tank)
+ */
+function stageTitle(title: string, r: CheckReport, tank: string): string {
+  const st = r.stage;
+  if (st?.number !== 1) return title;
+  const design = r.design?.composition ?? {};
+  const gases = Object.keys(design)
+    .filter((k) => design[k] > 0)
+    .sort((a, b) => design[b] - design[a]);
+  return `premix of batch ${st.batch} (stage 1 of 2; the batch: ${title}): ${gases.join('/')} in ${tank}`;
+}
+
 /** the tank as the log names it: volume and rating */
 function tankText(h: LogView['header'] | undefined, label: LabelModel): string {
   if (!h) return label.tank;
@@ -357,7 +372,7 @@ export function buildCertificateModel(
   const title =
     typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
   return {
-    title,
+    title: stageTitle(title, r, h?.tank.id ?? label.tank),
     batchId: r.id,
     lab: label.lab,
     tank: tankText(h, label),

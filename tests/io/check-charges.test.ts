@@ -464,7 +464,8 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
     expect(cli.code).toBe(2);
     expect(cli.stderr).toContain(
       '--premix-log: premix log batches/demo-ch4-phi1-from-premix.jsonl is the log of batch ' +
-        'demo-ch4-phi1-from-premix, filled in tank MT-1 from a premix (stage 2): a batch, not a premix; ' +
+        'demo-ch4-phi1-from-premix, filled in tank MT-1 from a premix (stage 2 of batch demo-ch4-phi1-from-premix): a ' +
+        'batch, not a premix; ' +
         'readings/ch4-phi1-from-premix.csv line 4 names premix-MT-2, the premix filled in tank MT-2, so ' +
         '--premix-log must be the log of that premix (the stage-1 log of tank MT-2) - give --premix-log ' +
         'batches/demo-premix-o2-ar-mt2.jsonl, the premix log that batch was filled from',
