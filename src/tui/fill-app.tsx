@@ -258,6 +258,7 @@ function FillScreen({
   if (state.phase === 'reminder') return <ReminderScreen state={state} />;
   if (state.phase === 'review' && state.review) return <RemainderReviewScreen state={state} />;
   if (state.phase === 'confirm' && state.pending) return <ConfirmScreen state={state} />;
+  if (state.phase === 'unit-check' && state.pending) return <UnitCheckScreen state={state} />;
   if (state.phase === 'over-limit' && state.pending && state.overLimit)
     return <OverLimitScreen state={state} />;
   if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
@@ -553,6 +554,30 @@ function ConfirmScreen({ state }: ScreenProps) {
       <Text wrap="wrap">{pending.reason}</Text>
       <Text> </Text>
       <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/** a reading typed in another unit than the target's, far from it: log it as typed (initials) or re-type */
+function UnitCheckScreen({ state }: ScreenProps) {
+  const pending = state.pending!;
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}
+        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THE UNIT
+      </Text>
+      <Text wrap="wrap">{pending.reason}</Text>
+      <Text wrap="wrap">
+        Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
+      </Text>
+      <Text> </Text>
+      <Text wrap="wrap">
+        log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
+        (not logged)
+      </Text>
+      <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
   );

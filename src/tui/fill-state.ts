@@ -30,7 +30,14 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
-import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import {
+  parseQuantity,
+  fromPa,
+  isPressureUnit,
+  paPerUnit,
+  PRESSURE_UNITS,
+  type PressureUnit,
+} from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
 import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
 import {
@@ -108,6 +115,8 @@ export type Phase =
   | 'reading'
   | 'correct'
   | 'confirm'
+  /** a reading typed in another unit than the target's, far from it: asked before it is logged */
+  | 'unit-check'
   | 'over-limit'
   | 'vented'
   /** the re-target is held below the working limit at the cost of the composition: an explicit choice */
@@ -774,6 +783,48 @@ function withTemperature(s: FillState): FillState {
 
 const fmtIn = (pa: number, unit: PressureUnit, sig = 6) => `${fromPa(pa, unit).toPrecision(sig)} ${unit}`;
 
+/** the ratios between two display units (far from 1): what a reading typed in the wrong unit is off by */
+const UNIT_RATIOS = PRESSURE_UNITS.flatMap((a) =>
+  PRESSURE_UNITS.map((b) => paPerUnit(a) / paPerUnit(b)).filter((r) => Math.abs(Math.log(r)) > Math.log(1.1)),
+);
+/** how near a ratio (or the number typed to the target's number) counts as a unit slip: 5 % */
+const UNIT_SLIP_REL = 0.05;
+
+/**
+ * A unit slip: the reading carries a unit other than the target's (the gauge's), lies outside the
+ * step's band, and either its number is within 5 % of the target's number in the target's unit
+ * ("10.02 kPa" for 10.01 Torr) or its ratio to the target is within 5 % of the ratio of two pressure
+ * units (kPa/Torr 7.50, psi/kPa 6.89, bar/Torr 750...). What to ask, in words; undefined when none.
+ */
+export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): string | undefined {
+  const unit = gaugeUnit(step);
+  const text = s.input.trim();
+  if (READING_NUMBER.test(text)) return undefined; // a bare number is in the gauge's unit
+  const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*)$/.exec(text);
+  if (!m || m[2].trim() === unit) return undefined;
+  const targetShown = shownPa(s, step, s.targetsPa[s.current]);
+  if (Math.abs(shownPaTyped - targetShown) <= step.bandPa || !(targetShown > 0)) return undefined;
+  const bare = Number(m[1]);
+  const targetNumber = fromPa(targetShown, unit);
+  const sameNumber = Math.abs(bare / targetNumber - 1) <= UNIT_SLIP_REL;
+  const ratio = shownPaTyped / targetShown;
+  const factor = UNIT_RATIOS.some((r) => Math.abs(ratio / r - 1) <= UNIT_SLIP_REL);
+  if (!sameNumber && !factor) return undefined;
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
+  const inUnit = `${fromPa(shownPaTyped, unit).toFixed(dec)} ${unit}`;
+  const times =
+    ratio >= 1 ? `${fixedSig(ratio, 3)} x the target` : `1/${fixedSig(1 / ratio, 3)} of the target`;
+  return (
+    `typed "${text}" = ${inUnit} on ${step.gauge?.id ?? 'the gauge'}; the target is ` +
+    `${fromPa(targetShown, unit).toFixed(dec)} ${unit} (band ${fromPa(targetShown - step.bandPa, unit).toFixed(dec)} - ` +
+    `${fromPa(targetShown + step.bandPa, unit).toFixed(dec)} ${unit}): ` +
+    `${times}. ` +
+    (sameNumber
+      ? `The number typed is the target's number in another unit: likely the unit (${step.gauge?.id ?? 'the gauge'} shows ${unit}).`
+      : `That is about the ratio of two pressure units: likely the unit (${step.gauge?.id ?? 'the gauge'} shows ${unit}).`)
+  );
+}
+
 /** plausibility: why a reading looks wrong, or undefined */
 function doubt(s: FillState, step: FillStep, shown: number): string | undefined {
   const unit = gaugeUnit(step);
@@ -1211,9 +1262,54 @@ function onReadingEnter(s: FillState, now: string): FillState {
     done: { step: step.index, pressurePa: absolute, temperatureK, text: event.reading },
     typed: s1.input.trim(),
   };
+  const slip = unitSlip(s1, step, shown);
+  if (slip) return { ...s1, phase: 'unit-check', input: '', pending: { ...p, reason: slip } };
   const why = doubt(s1, step, shown);
   if (why) return { ...s1, phase: 'confirm', pending: { ...p, reason: why } };
   return afterDoubt(s1, p, now);
+}
+
+/**
+ * Enter on the unit check: `log INITIALS` logs the reading as typed (never converted), with the
+ * initials and a note of what was asked; `n` (or Esc) goes back to re-type it, nothing logged
+ */
+function onUnitCheckEnter(s: FillState): FillState {
+  const p = s.pending!;
+  const text = s.input.trim();
+  if (/^(n|no|retype|re-type)$/i.test(text)) return unitRetype(s);
+  const m = /^log\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      input: '',
+      error: `type log and your initials (e.g. log AB) to log ${p.done.text} as typed, or n (or Esc) to re-type it`,
+    };
+  const step = s.setup.steps[s.current];
+  const note = `unit checked at the manifold: ${p.reason} Logged as typed (${p.done.text}), confirmed by ${m[1]}`;
+  const event: LogReading = {
+    ...p.event,
+    by: m[1],
+    note: p.event.note ? `${p.event.note}; ${note}` : note,
+  };
+  const confirmed: Pending = { ...p, event, reason: undefined };
+  const back: FillState = { ...s, phase: 'reading', input: '', pending: undefined };
+  // the other doubts still ask (an absolute value on a gauge-referenced head, another charge's target)
+  const shown = step.gauge?.reference === 'gauge' ? p.done.pressurePa - s.barometerPa : p.done.pressurePa;
+  const why = doubt(back, step, shown);
+  if (why) return { ...back, phase: 'confirm', pending: { ...confirmed, reason: why } };
+  return afterDoubt(back, confirmed, event.time);
+}
+
+/** back from the unit check to the reading: nothing logged, the field cleared */
+function unitRetype(s: FillState): FillState {
+  return {
+    ...s,
+    phase: 'reading',
+    pending: undefined,
+    input: '',
+    field: 'reading',
+    message: `${s.pending!.done.text} is not logged; type the reading again (a bare number is in the gauge's unit)`,
+  };
 }
 
 function onOverLimitEnter(s: FillState, now: string): FillState {
@@ -1780,6 +1876,7 @@ function onEscape(base: FillState): FillState {
         'the vent is logged; Esc does not take it back. Read the tank after venting and type the reading ' +
         'and your initials (Ctrl-C stops; resuming asks for it again)',
     };
+  if (base.phase === 'unit-check') return unitRetype(base);
   if (base.phase === 'confirm')
     return {
       ...base,
@@ -1813,6 +1910,8 @@ function onEnter(base: FillState, now: string): FillState {
     case 'ended':
     case 'confirm':
       return base;
+    case 'unit-check':
+      return onUnitCheckEnter(base);
     case 'barometer':
       return onBarometerEnter(base, now);
     case 'acknowledge':
