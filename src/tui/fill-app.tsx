@@ -25,6 +25,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
+import { fillTitle, intoTank } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 
 export interface FillAppProps {
@@ -297,7 +298,7 @@ function BarometerScreen({ state }: ScreenProps) {
   ];
   return (
     <Box flexDirection="column">
-      <Text bold>mixwright fill {h.id} - barometric pressure today</Text>
+      <Text bold>{fillTitle(h)} - barometric pressure today</Text>
       <Text wrap="wrap">
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
@@ -316,7 +317,7 @@ function BarometerScreen({ state }: ScreenProps) {
 function AcknowledgeScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
-      <Text bold>mixwright fill {state.setup.header.id} - DANGER findings stand</Text>
+      <Text bold>{fillTitle(state.setup.header)} - DANGER findings stand</Text>
       {state.setup.dangers.map((d, i) => (
         <Text key={i} wrap="wrap">
           - {d.code}
@@ -348,7 +349,7 @@ function EndScreen({
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} -{' '}
+        {fillTitle(h)} -{' '}
         {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
       </Text>
       {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
@@ -416,7 +417,7 @@ function BelowScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
+        {fillTitle(h)} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
@@ -456,7 +457,7 @@ function StartScreen({ state }: ScreenProps) {
     .join(', ');
   return (
     <Box flexDirection="column">
-      <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
+      <Text bold>{fillTitle(h)} - top-up: the gas already in the tank</Text>
       <Text wrap="wrap">
         The plan assumed {absText(start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any
         fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what
@@ -481,7 +482,7 @@ function CorrectScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species}
+        {fillTitle(h)} - correct the reading of fill {c.step} ({cs.species}
         {isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on {cs.gauge?.id ?? 'no gauge'})
       </Text>
       <Text>
@@ -521,7 +522,7 @@ function ReminderScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {state.current + 1} of {K}
+        {fillTitle(h)} - fill {state.current + 1} of {K}
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
       </Text>
       <Text wrap="wrap">
@@ -547,7 +548,7 @@ function ConfirmScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}
+        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
         {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THIS READING
       </Text>
       <Text>typed: {pending.done.text}</Text>
@@ -565,7 +566,7 @@ function UnitCheckScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}
+        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
         {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THE UNIT
       </Text>
       <Text wrap="wrap">{pending.reason}</Text>
@@ -593,7 +594,7 @@ function OverLimitScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {state.current + 1} of {K}
+        {fillTitle(h)} - fill {state.current + 1} of {K}
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER - ABOVE THE WORKING LIMIT
       </Text>
       <Text wrap="wrap">
@@ -641,7 +642,7 @@ function UndoReasonScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - undo the reading of fill {last.step} ({last.text}, line {last.line})
+        {fillTitle(h)} - undo the reading of fill {last.step} ({last.text}, line {last.line})
       </Text>
       <Text wrap="wrap">
         {state.undoing!.by} withdraws it: the log keeps the reading and adds the withdrawal with your initials
@@ -678,7 +679,7 @@ function CappedScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold wrap="wrap">
-        mixwright fill {h.id} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
+        {fillTitle(h)} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
         {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
       </Text>
       {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
@@ -711,8 +712,8 @@ function VentedScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank
-        after venting
+        {fillTitle(h)} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank after
+        venting
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
@@ -789,7 +790,7 @@ function ReadingScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
-        <Text bold>mixwright fill {h.id}</Text>
+        <Text bold>{fillTitle(h)}</Text>
         <Text>
           fill {state.current + 1} of {K}
         </Text>
@@ -798,7 +799,7 @@ function ReadingScreen({ state }: ScreenProps) {
       <Text>
         Fill <Text bold>{step.species}</Text>
         {isSplit(step.charge) ? <Text bold>, {chargeWords(step.charge)}</Text> : null} from {step.source.id} (
-        {step.source.label})
+        {step.source.label}){intoTank(h)}
       </Text>
       <ChargeLine state={state} />
       <Text>

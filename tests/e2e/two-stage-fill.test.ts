@@ -30,7 +30,8 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
     try {
       t.start(`node ${BIN} fill ${RECIPE} --premix-tank MT-2 --batch b1 --dir batches`);
       let s = await t.waitFor(/fill 1 of 2/);
-      expect(s).toContain('mixwright fill b1-premix');
+      expect(s).toContain('mixwright fill b1-premix (stage 1 of 2: premix tank MT-2)');
+      expect(flat(s)).toContain('into premix tank MT-2 (the premix for batch b1)');
       // the plan's stage-1 targets (README two-stage table): Ar to 1636.8 Torr, then O2 to 1890.2 Torr
       expect(target(s)).toBe(1636.8);
       await t.type('1636.8');
