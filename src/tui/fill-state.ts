@@ -811,17 +811,17 @@ export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): st
   const factor = UNIT_RATIOS.some((r) => Math.abs(ratio / r - 1) <= UNIT_SLIP_REL);
   if (!sameNumber && !factor) return undefined;
   const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
-  const inUnit = `${fromPa(shownPaTyped, unit).toFixed(dec)} ${unit}`;
+  const at = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit}`;
+  const gauge = step.gauge?.id ?? 'the gauge';
   const times =
     ratio >= 1 ? `${fixedSig(ratio, 3)} x the target` : `1/${fixedSig(1 / ratio, 3)} of the target`;
+  const why = sameNumber
+    ? "The number typed is the target's number in another unit"
+    : 'That is about the ratio of two pressure units';
   return (
-    `typed "${text}" = ${inUnit} on ${step.gauge?.id ?? 'the gauge'}; the target is ` +
-    `${fromPa(targetShown, unit).toFixed(dec)} ${unit} (band ${fromPa(targetShown - step.bandPa, unit).toFixed(dec)} - ` +
-    `${fromPa(targetShown + step.bandPa, unit).toFixed(dec)} ${unit}): ` +
-    `${times}. ` +
-    (sameNumber
-      ? `The number typed is the target's number in another unit: likely the unit (${step.gauge?.id ?? 'the gauge'} shows ${unit}).`
-      : `That is about the ratio of two pressure units: likely the unit (${step.gauge?.id ?? 'the gauge'} shows ${unit}).`)
+    `typed "${text}" = ${at(shownPaTyped)} on ${gauge}; the target is ${at(targetShown)} ` +
+    `(band ${fromPa(targetShown - step.bandPa, unit).toFixed(dec)} - ${at(targetShown + step.bandPa)}): ` +
+    `${times}. ${why}: likely the unit (${gauge} shows ${unit}).`
   );
 }
 
