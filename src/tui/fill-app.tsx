@@ -8,6 +8,7 @@ import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
   fillReducer,
+  premixMixingWords,
   shownPa,
   type CompositionJudgement,
   type FillAction,
@@ -265,6 +266,7 @@ function FillScreen({
   if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
   if (state.phase === 'capped' && state.capped) return <CappedScreen state={state} />;
   if (state.phase === 'undo-reason' && state.undoing) return <UndoReasonScreen state={state} />;
+  if (state.phase === 'premix' && state.setup.premixCheck) return <PremixScreen state={state} />;
   return <ReadingScreen state={state} />;
 }
 
@@ -694,6 +696,50 @@ function CappedScreen({ state }: ScreenProps) {
         {unitOf(state.setup.steps[state.current])}
         {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
         INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/**
+ * stage 2, before the first fill from the premix: the premix confirmed mixed (mixed INITIALS), then
+ * the premix tank read on its gauge against the minimum the plan needs (VALUE INITIALS); both logged
+ */
+function PremixScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const pc = state.setup.premixCheck!;
+  const K = state.setup.steps.length;
+  const first = pc.fills[0];
+  const mixed = state.premix?.mixedBy;
+  const last = state.premix?.reading;
+  const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
+  return (
+    <Box flexDirection="column">
+      <Text bold wrap="wrap">
+        {fillTitle(h)} - before fill {first} of {K}: THE PREMIX TANK {pc.tank}
+      </Text>
+      <Text wrap="wrap">
+        Fill {first} draws the premix from {pc.tank}
+        {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
+      </Text>
+      <Text wrap="wrap" bold={!mixed}>
+        1. {mixed ? `[done, ${mixed}] ` : ''}The premix in {pc.tank} mixed: {premixMixingWords(pc)}.
+      </Text>
+      <Text wrap="wrap" bold={Boolean(mixed)}>
+        2. {last?.enough ? `[done, ${last.by}] ` : ''}With the {h.tank.id} valve closed and the line filled
+        from {pc.tank}, read {pc.tank} on {pc.gauge?.id ?? 'a gauge that reads it'}: at least {pc.minimum}{' '}
+        (planned about {planned})
+        {last && !last.enough ? `; last read ${last.text} (${last.by}), BELOW the minimum` : ''}.
+      </Text>
+      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      <Text> </Text>
+      <Text wrap="wrap">
+        {mixed
+          ? `Type the reading of ${pc.tank} and your initials (e.g. ${fromPa(pc.plannedPa, 'Torr').toFixed(1)} AB); it is logged.`
+          : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
+        stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
       </Text>
       <Prompt state={state} />
       <ErrorLine state={state} />

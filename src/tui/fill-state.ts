@@ -30,6 +30,7 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
+import { duration } from '../report/ready-report.js';
 import {
   parseQuantity,
   fromPa,
@@ -97,6 +98,38 @@ export interface FillSetup {
   readonly needsBarometer: boolean;
   /** a top-up: the gas the plan assumed already in the tank */
   readonly inTank?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number };
+  /** stage 2: the premix tank's check before the first fill from it (the stage-2 sheet's row) */
+  readonly premixCheck?: PremixCheck;
+}
+
+/** the premix tank's check of a stage-2 fill (header stage.premix_check), its gauge as the core's */
+export interface PremixCheck {
+  readonly tank: string;
+  readonly gauge?: Gauge;
+  /** the lowest reading allowed on the gauge, with its unit ("621.7 Torr"), and as an absolute pressure */
+  readonly minimum: string;
+  readonly minimumPa: number;
+  readonly plannedPa: number;
+  readonly requiredPa: number;
+  readonly targetPa: number;
+  readonly deliveredMol: number;
+  /** the batch's fills from the premix; the check comes before the first */
+  readonly fills: readonly number[];
+  readonly mixing?: { readonly stirred: boolean; readonly restS: number };
+  /** the premix log the batch draws from, as the header names it */
+  readonly premixLog?: string;
+}
+
+/** what the log holds of the premix check: who confirmed the mixing, and the last premix-tank reading */
+export interface PremixDone {
+  readonly mixedBy?: string;
+  /** the last premix-tank reading logged: its text, absolute pressure, whether it is enough, its line */
+  readonly reading?: {
+    readonly text: string;
+    readonly pressurePa: number;
+    readonly enough: boolean;
+    readonly by: string;
+  };
 }
 
 /**
@@ -127,7 +160,9 @@ export type Phase =
   | 'ended'
   | 'done'
   /** the re-targeted remainder passes a hazard the plan did not (fill-review.ts) */
-  | 'review';
+  | 'review'
+  /** stage 2: before the first fill from the premix, its mixing confirmed and its tank read (logged) */
+  | 'premix';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -283,6 +318,8 @@ export interface FillState {
   readonly review?: ReviewScreen;
   /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
   readonly reviewed?: ReviewMemory;
+  /** stage 2: the premix check so far (from the log on resume) */
+  readonly premix?: PremixDone;
 }
 
 export type FillAction =
@@ -313,14 +350,43 @@ export function setupFromHeader(header: LogHeader): FillSetup {
   const inTank = header.in_tank
     ? { composition: header.in_tank.composition, pressurePa: header.in_tank.pressure_Pa }
     : undefined;
+  const pc = header.stage?.number === 2 ? header.stage.premix_check : undefined;
+  const premixCheck: PremixCheck | undefined = pc && {
+    tank: pc.tank,
+    gauge: pc.gauge ? gaugeFromLog(pc.gauge) : undefined,
+    minimum: pc.minimum,
+    minimumPa: pc.minimum_Pa,
+    plannedPa: pc.planned_Pa,
+    requiredPa: pc.required_Pa,
+    targetPa: pc.target_Pa,
+    deliveredMol: pc.delivered_mol,
+    fills: pc.fills,
+    mixing: pc.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s },
+    premixLog: header.stage?.premix_log?.file,
+  };
   return {
     header,
     design: designFromHeader(header),
     steps,
     dangers,
     workingLimitPa,
-    needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge'),
+    // the premix tank's gauge may read above ambient too: today's barometer is asked for it as well
+    needsBarometer:
+      steps.some((s) => s.gauge?.reference === 'gauge') || premixCheck?.gauge?.reference === 'gauge',
     inTank,
+    ...(premixCheck ? { premixCheck } : {}),
+  };
+}
+
+/** the premix check as the log holds it (resume) */
+function premixDoneOf(log: ParsedLog | undefined): PremixDone | undefined {
+  if (!log) return undefined;
+  const mixed = log.premixMixed.at(-1);
+  const r = log.premixReadings.at(-1);
+  if (!mixed && !r) return undefined;
+  return {
+    ...(mixed ? { mixedBy: mixed.by } : {}),
+    ...(r ? { reading: { text: r.reading, pressurePa: r.pressure_Pa, enough: r.enough, by: r.by } } : {}),
   };
 }
 
@@ -378,6 +444,7 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     message: done.length ? resumedText(setup, done.length) : undefined,
     reviewed: reviewMemoryOf(log),
     capAccepted: capAcceptedOf(log),
+    premix: premixDoneOf(log),
   };
   const r = done.length || start?.read ? retargetRun(state, done, T) : undefined;
   if (r) state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
@@ -526,6 +593,9 @@ function enterStep(s: FillState): FillState {
   if (s.setup.needsBarometer && !s.barometerToday) return { ...s, phase: 'barometer', input: '' };
   if (s.start && !s.start.read && s.done.length === 0) return { ...s, phase: 'start', input: '' };
   const stepIndex = s.setup.steps[s.current]?.index;
+  const pc = s.setup.premixCheck;
+  if (pc && stepIndex === pc.fills[0] && !(s.premix?.mixedBy && s.premix.reading?.enough))
+    return { ...s, phase: 'premix', input: '', field: 'reading' };
   if (
     stepIndex !== undefined &&
     !s.reminded.includes(stepIndex) &&
@@ -1863,6 +1933,13 @@ function onEscape(base: FillState): FillState {
       input: '',
       message: 'undo cancelled; nothing logged',
     };
+  if (base.phase === 'premix')
+    return {
+      ...base,
+      error:
+        'the premix check stands before the first fill from the premix: type what the screen asks ' +
+        '(logged), undo INITIALS or fix N INITIALS, stop INITIALS, or Ctrl-C to stop',
+    };
   if (base.phase === 'capped')
     return {
       ...base,
@@ -1943,6 +2020,8 @@ function onEnter(base: FillState, now: string): FillState {
       return onCommand(base, base.input.trim()) ?? onReviewEnter(base, now, REVIEW_HOOKS);
     case 'below':
       return onBelowEnter(base, now);
+    case 'premix':
+      return onCommand(base, base.input.trim()) ?? onPremixEnter(base, now);
   }
   return base;
 }
@@ -2181,4 +2260,159 @@ function onBelowEnter(s: FillState, now: string): FillState {
   }
   if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
   return { ...finish(next, now), message: pressureText };
+}
+
+/** the premix check's pressures as read on its gauge (gauge-referenced: today's barometer) */
+function premixShown(s: FillState, pc: PremixCheck, absolutePa: number): string {
+  const g = pc.gauge;
+  const unit: PressureUnit = g && isPressureUnit(g.unit) ? g.unit : 'Torr';
+  const dec = g ? decimalsFor(fromPa(g.resolutionPa, unit)) : 1;
+  const ctx = { barometricPa: s.barometerPa, barometricUncertaintyPa: s.setup.header.barometer.u_Pa };
+  return `${fromPa(g ? gaugeReadingPa(g, absolutePa, ctx) : absolutePa, unit).toFixed(dec)} ${unit}`;
+}
+
+/** why a premix-tank reading below the minimum is refused, and what to do */
+export function premixTooLow(s: FillState, pc: PremixCheck, absolutePa: number): string {
+  const fills = pc.fills.length === 1 ? `fill ${pc.fills[0]}` : `fills ${pc.fills.join(', ')}`;
+  const tank = s.setup.header.tank.id;
+  return (
+    `${pc.tank} reads ${premixShown(s, pc, absolutePa)} on ${pc.gauge?.id ?? 'the gauge'}, below the ` +
+    `minimum ${premixShown(s, pc, pc.minimumPa)}: delivering the ${fixedSig(pc.deliveredMol, 3)} mol of ` +
+    `${fills} would leave ${pc.tank} below ${fmtIn(pc.requiredPa, 'Torr')} (the ` +
+    `${fmtIn(pc.targetPa, 'Torr')} that ${tank} must reach at fill ${pc.fills[pc.fills.length - 1]}, + 10 % ` +
+    `for a controllable flow at the end). Do not fill from it: stop INITIALS closes this batch as it is ` +
+    `(or Ctrl-C leaves it open), and make a new premix or a smaller batch. If it was misread, read ` +
+    `${pc.tank} again and type the reading`
+  );
+}
+
+/** the mixing asked before the first fill from the premix, in words (stage-2 sheet's pre-check) */
+export function premixMixingWords(pc: PremixCheck): string {
+  const m = pc.mixing;
+  if (!m)
+    return (
+      `stirred or rested since its last fill (the lab profile gives no height for ${pc.tank}: ` +
+      '`mixwright ready` gives the time; diffusion alone takes hours)'
+    );
+  return m.stirred
+    ? `stirred since its last fill (common practice: 15-30 min), or rested at least ${duration(m.restS)} ` +
+        '(diffusion alone to 0.1 %)'
+    : `rested at least ${duration(m.restS)} since its last fill (unstirred: diffusion alone to 0.1 %)`;
+}
+
+/**
+ * Enter on the premix check (stage 2, before the first fill from the premix): `mixed INITIALS` (the
+ * premix was mixed for the stated time; a `premix-mixed` event), then the premix tank's reading with
+ * initials (a `premix-reading` event, logged even when below the minimum: then the fill does not go
+ * on, and says why and what to do); `stop INITIALS` closes the batch here.
+ */
+function onPremixEnter(s: FillState, now: string): FillState {
+  const pc = s.setup.premixCheck!;
+  const text = s.input.trim();
+  const stop = /^stop\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (stop) {
+    const why =
+      s.premix?.reading && !s.premix.reading.enough
+        ? `the premix tank ${pc.tank} read ${s.premix.reading.text}, below the minimum ${pc.minimum}`
+        : `before the first fill from the premix tank ${pc.tank}`;
+    return {
+      ...s,
+      phase: 'ended',
+      input: '',
+      effects: [
+        { kind: 'close', time: now, note: `stopped by ${stop[1]} before fill ${pc.fills[0]}: ${why}` },
+      ],
+      message: `stopped by ${stop[1]} before fill ${pc.fills[0]} (logged): ${why}`,
+    };
+  }
+  if (!s.premix?.mixedBy) {
+    const m = /^mixed\s+([A-Za-z]{1,6})$/i.exec(text);
+    if (!m)
+      return {
+        ...s,
+        input: '',
+        error:
+          `type mixed and your initials (e.g. mixed AB) once the premix in ${pc.tank} was ` +
+          `${premixMixingWords(pc)}; stop INITIALS stops the batch here`,
+      };
+    return {
+      ...s,
+      input: '',
+      premix: { ...s.premix, mixedBy: m[1] },
+      effects: [
+        {
+          kind: 'premix-mixed',
+          tank: pc.tank,
+          by: m[1],
+          time: now,
+          note: `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${m[1]}`,
+        },
+      ],
+      message: `${m[1]} confirms the premix in ${pc.tank} was mixed (logged). Now read ${pc.tank}`,
+    };
+  }
+  const w = withInitials(text, `reading of ${pc.tank}`, `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} AB`);
+  if ('error' in w) return { ...s, input: '', error: `${w.error}; or stop INITIALS` };
+  const g = pc.gauge;
+  const unit: PressureUnit = g && isPressureUnit(g.unit) ? g.unit : 'Torr';
+  let shown: number;
+  try {
+    shown = READING_NUMBER.test(w.value)
+      ? parseQuantity(`${w.value} ${unit}`, 'pressure')
+      : parseQuantity(w.value, 'pressure');
+  } catch (e) {
+    if (!(e instanceof ProblemError)) throw e;
+    const p = e.problem;
+    const hinted = p.code === 'bad-quantity' || p.code === 'reading-missing' ? { ...p, bareUnit: unit } : p;
+    return { ...s, input: '', error: describeProblem(hinted) };
+  }
+  if (g && shown > g.fullScalePa)
+    return {
+      ...s,
+      input: '',
+      error:
+        `${fmtIn(shown, unit)} is past the range of ${g.id} (up to ${fmtIn(g.fullScalePa, unit)}): likely the ` +
+        'unit or a typing slip. The reading is not logged.',
+    };
+  const absolute = g?.reference === 'gauge' ? shown + s.barometerPa : shown;
+  if (!(absolute > 0))
+    return { ...s, input: '', error: `the premix tank's pressure must be above zero absolute; not logged` };
+  const textLogged = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
+  // the sheet's rule: the reading on the gauge at least the minimum printed (rounded up to its step)
+  const enough = absolute >= pc.minimumPa * (1 - 1e-12);
+  const ev: NewLogEvent = {
+    kind: 'premix-reading',
+    tank: pc.tank,
+    gauge: g?.id ?? 'none',
+    reading: textLogged,
+    pressure_Pa: absolute,
+    ...(g?.reference === 'gauge' ? { barometer_Pa: s.barometerPa } : {}),
+    minimum_Pa: pc.minimumPa,
+    enough,
+    by: w.by,
+    time: now,
+    ...(enough ? {} : { note: `below the minimum ${pc.minimum}: the batch does not draw from it` }),
+  };
+  const premix: PremixDone = {
+    ...s.premix,
+    reading: { text: textLogged, pressurePa: absolute, enough, by: w.by },
+  };
+  if (!enough)
+    return {
+      ...s,
+      input: '',
+      premix,
+      effects: [ev],
+      message: `REFUSED (the reading is logged): ${premixTooLow(s, pc, absolute)}`,
+    };
+  return enterStep({
+    ...s,
+    phase: 'reading',
+    input: '',
+    premix,
+    effects: [ev],
+    message:
+      `${pc.tank} reads ${textLogged} (logged by ${w.by}), at least the minimum ${pc.minimum}: ` +
+      `fill ${pc.fills[0]} may draw from it`,
+  });
 }
