@@ -366,7 +366,7 @@ const ventReadingSchema = z.object({
   note: z.string().optional(),
   chain,
 });
-/** stage 2: the operator confirms the premix was mixed (stirred or rested for the stated time) before drawing from it */
+/** stage 2: the operator confirms the premix was mixed (stirred or rested for the stated time) before the draw */
 const premixMixedSchema = z.object({
   kind: z.literal('premix-mixed'),
   tank: z.string(),

@@ -676,7 +676,16 @@ function CappedScreen({ state }: ScreenProps) {
     const dec = st.gauge ? decimalsFor(fromPa(st.gauge.resolutionPa, u)) : 3;
     const t = state.targetsPa[state.current + i];
     const shown = fromPa(shownPa(state, st, t), u).toFixed(dec);
-    return `fill ${st.index} ${st.species}: ${shown} ${u} on ${st.gauge?.id ?? 'no gauge'}`;
+    const last = state.current + i === K - 1;
+    const gaugeRef = st.gauge?.reference === 'gauge';
+    return (
+      `fill ${st.index} ${st.species}: ${shown} ${u} on ${st.gauge?.id ?? 'no gauge'}` +
+      (last
+        ? gaugeRef
+          ? ` (= ${c.finalText} absolute, the capped final pressure)`
+          : ' (the capped final pressure)'
+        : '')
+    );
   });
   return (
     <Box flexDirection="column">
@@ -691,9 +700,7 @@ function CappedScreen({ state }: ScreenProps) {
       <Text wrap="wrap">Capped targets: {ahead.join('; ')}.</Text>
       <Text> </Text>
       <Text wrap="wrap">
-        go INITIALS: fill to the capped targets (the tank ends at{' '}
-        {fromPa(c.finalPa, unitOf(state.setup.steps[state.current])).toFixed(1)}{' '}
-        {unitOf(state.setup.steps[state.current])}
+        go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
         {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
         INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
       </Text>
@@ -737,7 +744,7 @@ function PremixScreen({ state }: ScreenProps) {
       <Text> </Text>
       <Text wrap="wrap">
         {mixed
-          ? `Type the reading of ${pc.tank} and your initials (e.g. ${fromPa(pc.plannedPa, 'Torr').toFixed(1)} AB); it is logged.`
+          ? `Type the reading of ${pc.tank} and your initials (e.g. ${planned.replace(' Torr', '')} AB); it is logged.`
           : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
         stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
       </Text>

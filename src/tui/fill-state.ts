@@ -265,11 +265,13 @@ export interface Venting {
 
 /** a re-target held below the working limit: what it costs, for the stop screen (phase 'capped') */
 export interface Capped {
-  /** the fill just read, and the next one */
-  readonly after: number;
+  /** what brought the cap, in words ("after fill 1", "after the undo of fill 2", "at 35.0 degC"), and the next fill */
+  readonly after: string;
   readonly step: number;
-  /** the final pressure the limit allows, and the limit (absolute, Pa) */
+  /** the capped final pressure (the last capped target, absolute) and the limit (absolute, Pa) */
   readonly finalPa: number;
+  /** the capped final pressure as every line of the stop screen says it (computed once) */
+  readonly finalText: string;
   readonly limitPa: number;
   /** the design species left outside the tolerance */
   readonly outside: readonly string[];
@@ -542,15 +544,7 @@ function resumedCapped(
   if (!r?.limitBinds || !log || log.closed || needsAck || !next || !state.done.length) return undefined;
   if (r.nowPa >= (state.setup.workingLimitPa ?? Infinity)) return undefined;
   if (log.acknowledgements.some((a) => a.code === LIMIT_CAP_CODE && a.step === next.index)) return undefined;
-  const deviations = deviationsOf(r.predicted.composition, state);
-  const acc = state.capAccepted;
-  if (acc && deviations.every((d) => d.within || acc.outside.includes(d.species))) return undefined;
-  return cappedScreen(
-    state,
-    r.predicted.pressurePa,
-    deviations,
-    gaugeUnit(state.setup.steps[state.done.length - 1]),
-  );
+  return capStop(state, r, `after fill ${state.setup.steps[state.done.length - 1].index}`);
 }
 
 /** a fill stopped after its vent was logged: the reading after venting is asked (again) */
@@ -624,6 +618,8 @@ export function retargetInput(
     finalBandPa: s.setup.steps[s.setup.steps.length - 1]?.bandPa,
     initial: s.start,
     formatPressure: (pa) => `${Number(fromPa(pa, 'Torr').toPrecision(6))} Torr`,
+    // the final pressure a cap holds: as the stop screen says it (one number everywhere)
+    formatFinalPressure: (pa) => cappedFinalText(s, pa),
     // each charge of a split source, and the stop reading (the plan's target) of each but its last
     charges: s.setup.steps.map((x, k) => ({
       number: x.charge.number,
@@ -1022,14 +1018,47 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
     };
   }
   if (r.result.limitBinds) {
-    const cost = limitCost(r.result.predicted.pressurePa, deviations, unit);
-    const acc = next.capAccepted;
-    // asked again only when the cap leaves a species outside the tolerance that the choice did not
-    if (!acc || deviations.some((d) => !d.within && !acc.outside.includes(d.species)))
-      return cappedScreen(next, r.result.predicted.pressurePa, deviations, unit);
-    next = { ...next, message: `${next.message}. ${cost} (the capped targets: ${acc.by} went on with them)` };
+    const stop = capStop(next, r.result, `after fill ${step.index}`);
+    if (stop) return stop;
+    const cost = limitCost(cappedFinalText(next, r.result.predicted.pressurePa), deviations);
+    next = {
+      ...next,
+      message: `${next.message}. ${cost} (the capped targets: ${next.capAccepted!.by} went on with them)`,
+    };
   }
   return reviewed(enterStep(next), 'reading');
+}
+
+/**
+ * the stop screen when the re-target is held below the working limit, unless the operator already
+ * went on with a cap that leaves no further species outside the tolerance (or the tank is at the
+ * limit: no fill remains to cap). The same after a reading, an undo, a correction or a temperature change.
+ */
+function capStop(s: FillState, r: ReturnType<typeof retarget>, after: string): FillState | undefined {
+  if (!r.limitBinds || s.current >= s.setup.steps.length) return undefined;
+  if (r.nowPa >= (s.setup.workingLimitPa ?? Infinity)) return undefined;
+  const deviations = deviationsOf(r.predicted.composition, s);
+  const acc = s.capAccepted;
+  // asked again only when the cap leaves a species outside the tolerance that the choice did not
+  if (acc && deviations.every((d) => d.within || acc.outside.includes(d.species))) return undefined;
+  return cappedScreen(s, r.predicted.pressurePa, deviations, after);
+}
+
+/** after an undo, a correction or a temperature change: the capped stop screen if the re-target is held */
+function capAfterChange(s: FillState, after: string): FillState | undefined {
+  if (s.current >= s.setup.steps.length || (!s.done.length && !s.start?.read)) return undefined;
+  return capStop(s, retargetRun(s, s.done, s.targetTemperatureK).result, after);
+}
+
+/**
+ * the capped final pressure as the stop screen says it, once: the last capped target, absolute, to
+ * the display step of the last fill's gauge (the reading that ends the batch)
+ */
+function cappedFinalText(s: FillState, finalPa: number): string {
+  const last = s.setup.steps[s.setup.steps.length - 1];
+  const unit = gaugeUnit(last);
+  const dec = last.gauge ? decimalsFor(fromPa(last.gauge.resolutionPa, unit)) : 2;
+  return `${fromPa(finalPa, unit).toFixed(dec)} ${unit}`;
 }
 
 /** the stop screen of a re-target held below the working limit: its cost, and go, undo or stop */
@@ -1037,19 +1066,21 @@ function cappedScreen(
   s: FillState,
   finalPa: number,
   deviations: readonly FractionDeviation[],
-  unit: PressureUnit,
+  after: string,
 ): FillState {
+  const finalText = cappedFinalText(s, finalPa);
   return {
     ...s,
     phase: 'capped',
     input: '',
     capped: {
-      after: s.setup.steps[s.current - 1].index,
+      after,
       step: s.setup.steps[s.current].index,
       finalPa,
+      finalText,
       limitPa: s.setup.workingLimitPa!,
       outside: deviations.filter((d) => !d.within).map((d) => d.species),
-      cost: limitCost(finalPa, deviations, unit),
+      cost: limitCost(finalText, deviations),
     },
   };
 }
@@ -1074,8 +1105,8 @@ function onCappedEnter(s: FillState, now: string): FillState {
   const go = m[1].toLowerCase() === 'go';
   const by = m[2];
   const what =
-    `after fill ${c.after} the remaining fills are held below the working limit ${fmtIn(c.limitPa, unit)}: ` +
-    `the tank ends at ${fmtIn(c.finalPa, unit)}` +
+    `${c.after} the remaining fills are held below the working limit ${fmtIn(c.limitPa, unit)}: ` +
+    `the tank ends at the capped final pressure ${c.finalText}` +
     (c.outside.length
       ? `, ${c.outside.join(', ')} OUTSIDE the tolerance`
       : ', the composition within the tolerance');
@@ -1094,8 +1125,8 @@ function onCappedEnter(s: FillState, now: string): FillState {
       phase: 'ended',
       capped: undefined,
       input: '',
-      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} after fill ${c.after}: ${what}` }],
-      message: `stopped by ${by} after fill ${c.after} (logged): ${what}`,
+      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} ${c.after}: ${what}` }],
+      message: `stopped by ${by} ${c.after} (logged): ${what}`,
     };
   const entered = enterStep({
     ...s,
@@ -1220,7 +1251,7 @@ function bandWords(s: FillState, unit: PressureUnit, absolutePa: number, within:
  * what a remainder held by the working limit costs, in words: the final pressure it ends at, each
  * mole fraction off the design (by how much, inside or outside the tolerance), and the choices
  */
-function limitCost(finalPa: number, deviations: readonly FractionDeviation[], unit: PressureUnit): string {
+function limitCost(finalText: string, deviations: readonly FractionDeviation[]): string {
   const pct = (x: number) => `${fixedSig(x * 100, 3)} %`;
   const off = deviations
     .map(
@@ -1231,7 +1262,7 @@ function limitCost(finalPa: number, deviations: readonly FractionDeviation[], un
     .join(', ');
   const outside = deviations.filter((d) => !d.within).length;
   return (
-    `The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
+    `The working limit costs: the tank ends at the capped final pressure ${finalText} (absolute); ${off}` +
     (outside
       ? ` - ${outside} mole fraction(s) OUTSIDE the tolerance`
       : ' - the composition stays within the tolerance')
@@ -1673,14 +1704,14 @@ function onUndoReasonEnter(s: FillState, now: string): FillState {
       },
     ],
   });
-  const entered = enterStep({
-    ...next,
-    phase: 'reading',
-    message:
-      `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
-      `${by}${reason ? ` (reason: ${reason})` : ' (no reason given)'}; the log keeps it and the withdrawal. ` +
-      `Read fill ${last.step} again`,
-  });
+  const withdrawn =
+    `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
+    `${by}${reason ? ` (reason: ${reason})` : ' (no reason given)'}; the log keeps it and the withdrawal. ` +
+    `Read fill ${last.step} again`;
+  // the readings left may still hold the re-target below the working limit: the same stop screen
+  const cap = capAfterChange({ ...next, review: undefined }, `after the undo of fill ${last.step}`);
+  if (cap) return { ...cap, message: withdrawn };
+  const entered = enterStep({ ...next, phase: 'reading', message: withdrawn });
   return reviewed({ ...entered, review: undefined }, 'undo');
 }
 
@@ -1818,6 +1849,8 @@ function onCorrectEnter(s: FillState, now: string): FillState {
   };
   if (next.current >= s.setup.steps.length) return afterBelowCorrection(next, now);
   next = rejudge(next);
+  const cap = capAfterChange({ ...next, review: undefined }, `after the correction of fill ${c.step}`);
+  if (cap) return cap;
   return reviewed(enterStep({ ...next, phase: 'reading', review: undefined }), 'correction');
 }
 
@@ -1976,7 +2009,9 @@ function onTab(base: FillState): FillState {
   if (base.phase !== 'reading') return base;
   if (base.field === 'temperature') {
     const t = withTemperature({ ...base, field: 'reading' });
-    return t.targetTemperatureK !== base.targetTemperatureK ? reviewed(t, 'temperature') : t;
+    if (t.targetTemperatureK === base.targetTemperatureK) return t;
+    const cap = capAfterChange(t, `at ${degC(t.targetTemperatureK)}`);
+    return cap ?? reviewed(t, 'temperature');
   }
   return { ...base, field: 'temperature' };
 }
@@ -2325,32 +2360,42 @@ function onPremixEnter(s: FillState, now: string): FillState {
       message: `stopped by ${stop[1]} before fill ${pc.fills[0]} (logged): ${why}`,
     };
   }
-  if (!s.premix?.mixedBy) {
-    const m = /^mixed\s+([A-Za-z]{1,6})$/i.exec(text);
-    if (!m)
-      return {
-        ...s,
-        input: '',
-        error:
-          `type mixed and your initials (e.g. mixed AB) once the premix in ${pc.tank} was ` +
-          `${premixMixingWords(pc)}; stop INITIALS stops the batch here`,
-      };
+  if (!s.premix?.mixedBy) return onPremixMixed(s, text, now);
+  return onPremixReading(s, text, now);
+}
+
+/** `mixed INITIALS`: the premix was mixed for the stated time (a `premix-mixed` event) */
+function onPremixMixed(s: FillState, text: string, now: string): FillState {
+  const pc = s.setup.premixCheck!;
+  const m = /^mixed\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
     return {
       ...s,
       input: '',
-      premix: { ...s.premix, mixedBy: m[1] },
-      effects: [
-        {
-          kind: 'premix-mixed',
-          tank: pc.tank,
-          by: m[1],
-          time: now,
-          note: `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${m[1]}`,
-        },
-      ],
-      message: `${m[1]} confirms the premix in ${pc.tank} was mixed (logged). Now read ${pc.tank}`,
+      error:
+        `type mixed and your initials (e.g. mixed AB) once the premix in ${pc.tank} was ` +
+        `${premixMixingWords(pc)}; stop INITIALS stops the batch here`,
     };
-  }
+  return {
+    ...s,
+    input: '',
+    premix: { ...s.premix, mixedBy: m[1] },
+    effects: [
+      {
+        kind: 'premix-mixed',
+        tank: pc.tank,
+        by: m[1],
+        time: now,
+        note: `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${m[1]}`,
+      },
+    ],
+    message: `${m[1]} confirms the premix in ${pc.tank} was mixed (logged). Now read ${pc.tank}`,
+  };
+}
+
+/** the premix tank's reading with initials (a `premix-reading` event, logged even below the minimum) */
+function onPremixReading(s: FillState, text: string, now: string): FillState {
+  const pc = s.setup.premixCheck!;
   const w = withInitials(text, `reading of ${pc.tank}`, `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} AB`);
   if ('error' in w) return { ...s, input: '', error: `${w.error}; or stop INITIALS` };
   const g = pc.gauge;

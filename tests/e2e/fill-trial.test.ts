@@ -49,6 +49,17 @@ describe.runIf(hasTmux || required)('guided fill: what a trial at the manifold f
       expect(r).toHaveLength(1);
       expect(r[0]).toMatchObject({ reading: '10.02 kPa', pressure_Pa: 10020, by: 'AB' });
       expect(r[0].note).toMatch(/unit checked at the manifold.*confirmed by AB/);
+      // 75.16 Torr of CH4 (7.5 x): the working limit of MT-1 caps the re-target. The stop screen
+      // gives one capped final pressure (the last capped target, on head-10kT's 0.1 Torr), the same
+      // in the re-target's words, the cost, the targets and the choice - not the limit less the band beside it
+      s = flat(await t.waitFor(/go INITIALS/));
+      const finals = new Set([...s.matchAll(/(2\d{3}\.\d+) Torr/g)].map((m) => m[1]));
+      finals.delete('2700.22'); // the working limit itself
+      expect([...finals]).toEqual(['2692.6']);
+      expect(s).toContain('the final pressure is held at 2692.6 Torr (design 1500 Torr), at least the last');
+      expect(s).toContain('the tank ends at the capped final pressure 2692.6 Torr (absolute)');
+      expect(s).toContain('fill 4 Ar: 2692.6 Torr on head-10kT (the capped final pressure)');
+      expect(s).toContain('go INITIALS: fill to the capped targets (the tank ends at 2692.6 Torr');
     } finally {
       await t.kill();
       t.close();
