@@ -52,6 +52,11 @@ export interface RetargetInput {
   /** words a pressure in the message (default: Pa) */
   readonly formatPressure?: (pressurePa: number) => string;
   /**
+   * how the message writes the final pressure the working limit holds (the shell: on the last fill's
+   * gauge, to its display step, so the stop screen says one number); default formatPressure
+   */
+  readonly formatFinalPressure?: (pressurePa: number) => string;
+  /**
    * the charge of each fill, in the order of `sources` (needed when a source is filled in more
    * than one charge): a charge that is not its source's last carries its stop reading (absolute,
    * at the fill temperature, Pa), which the re-target keeps where it can (see `retarget`)
@@ -609,24 +614,28 @@ function messageOf(
       ].join(' and ') || 'the composition';
     parts.push(
       limitBinds
-        ? `the final pressure is held at ${heldAt(pr.input, fmtP)} (design ${fmtP(finalPressurePa)})`
+        ? `the final pressure is held at ${heldAt(pr.input, pred.P, fmtP, ` (design ${fmtP(finalPressurePa)})`)}`
         : `the final pressure becomes ${fmtP(pred.P)} (design ${fmtP(finalPressurePa)}) to keep ${keeps}`,
     );
   }
   const message = parts.join('; ');
   return limitBinds && !gave.includes('pressure')
-    ? `the final pressure is held at ${heldAt(pr.input, fmtP)}; ${message}`
+    ? `the final pressure is held at ${heldAt(pr.input, pred.P, fmtP)}; ${message}`
     : message;
 }
 
-/** where the limit holds the final pressure, in words: the limit, less the last fill's band if any */
-function heldAt(input: RetargetInput, fmtP: (p: number) => string): string {
+/**
+ * where the limit holds the final pressure, in words: the final pressure the remaining fills end at
+ * (one number), and how far below the working limit it stays (at least the last fill's band, if any)
+ */
+function heldAt(input: RetargetInput, finalPa: number, fmtP: (p: number) => string, design = ''): string {
   const limit = input.workingLimitPa!;
   const band = Math.max(0, input.finalBandPa ?? 0);
+  const final = `${(input.formatFinalPressure ?? fmtP)(finalPa)}${design}`;
   return band > 0
-    ? `${fmtP(limit - band)}, the tank's working limit ${fmtP(limit)} less the last fill's band ` +
-        `${fmtP(band)} (a reading inside the band stays within the limit)`
-    : `the tank's working limit ${fmtP(limit)}`;
+    ? `${final}, at least the last fill's band ${fmtP(band)} below the tank's working limit ` +
+        `${fmtP(limit)} (a reading inside the band stays within the limit)`
+    : `${final}, within the tank's working limit ${fmtP(limit)}`;
 }
 
 export interface VentBack {

@@ -32,6 +32,11 @@
  *                                    pressure_Pa (absolute), barometer_Pa?, temperature,
  *                                    temperature_K, by, time; the last one after a vent is the tank's
  *                                    final pressure. No fill reading may follow a vent
+ *   {"kind":"premix-mixed", ...}     stage 2: the premix confirmed mixed before the first fill from it:
+ *                                    tank, by, time, note? (the mixing time asked)
+ *   {"kind":"premix-reading", ...}   stage 2: the premix tank read before the first fill from it: tank,
+ *                                    gauge, reading, pressure_Pa (absolute), barometer_Pa?, minimum_Pa,
+ *                                    enough, by, time; not a reading of the batch (no composition)
  *   {"kind":"close", ...}            the batch is finished
  *
  * Every line carries "chain": the SHA-256 (hex) of the previous line's chain, a line feed,
@@ -119,6 +124,30 @@ const stageSchema = z.object({
     .optional(),
   /** stage 1: the premix tank's height and stirrer (lab profile), for the mixing time of the end screen */
   premix_tank: z.object({ height_m: z.number().positive(), stirred: z.boolean() }).optional(),
+  /**
+   * stage 2: the premix tank's check before the first fill from it, as the stage-2 sheet prints it
+   * (report/two-stage-sheet.ts premixTankCheck); the guided fill asks for it. Absent in older logs.
+   */
+  premix_check: z
+    .object({
+      tank: z.string(),
+      /** the gauge to read the premix tank on (null: no gauge of the lab profile covers it) */
+      gauge: gaugeSchema.nullable(),
+      /** the lowest reading allowed on that gauge, rounded up to its display step, with its unit */
+      minimum: z.string(),
+      /** that minimum as an absolute pressure (gauge-referenced: + the barometer the plan assumed) */
+      minimum_Pa: z.number().positive(),
+      planned_Pa: z.number().positive(),
+      /** the settled premix-tank pressure that must remain after the draw, and the batch reading it serves */
+      required_Pa: z.number().positive(),
+      target_Pa: z.number().positive(),
+      delivered_mol: z.number().min(0),
+      /** the batch's fills from the premix (the check comes before the first) */
+      fills: z.array(z.number().int().positive()).min(1),
+      /** stirred (lab profile), and diffusion alone to 0.1 % at the premix pressure, s */
+      mixing: z.object({ stirred: z.boolean(), rest_s: z.number().positive() }).optional(),
+    })
+    .optional(),
 });
 
 export const headerSchema = z.object({
@@ -337,6 +366,34 @@ const ventReadingSchema = z.object({
   note: z.string().optional(),
   chain,
 });
+/** stage 2: the operator confirms the premix was mixed (stirred or rested for the stated time) before the draw */
+const premixMixedSchema = z.object({
+  kind: z.literal('premix-mixed'),
+  tank: z.string(),
+  by: initials,
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
+/**
+ * stage 2: the premix tank read before the first fill from it, against the minimum the plan needs
+ * (`enough` false: below it; the fill does not draw from it). Not a reading of the batch: it does not
+ * enter the batch's composition.
+ */
+const premixReadingSchema = z.object({
+  kind: z.literal('premix-reading'),
+  tank: z.string(),
+  gauge: z.string(),
+  reading: z.string().describe('as shown on the gauge, with its unit'),
+  pressure_Pa: z.number().positive().describe('absolute premix-tank pressure'),
+  barometer_Pa: z.number().positive().optional(),
+  minimum_Pa: z.number().positive(),
+  enough: z.boolean(),
+  by: initials,
+  time: z.string(),
+  note: z.string().optional(),
+  chain,
+});
 const closeSchema = z.object({
   kind: z.literal('close'),
   time: z.string(),
@@ -355,6 +412,8 @@ export type LogRemainderReview = z.infer<typeof remainderReviewSchema>;
 export type LogClose = z.infer<typeof closeSchema>;
 export type LogVent = z.infer<typeof ventSchema>;
 export type LogVentReading = z.infer<typeof ventReadingSchema>;
+export type LogPremixMixed = z.infer<typeof premixMixedSchema>;
+export type LogPremixReading = z.infer<typeof premixReadingSchema>;
 export type LogEvent =
   | LogHeader
   | LogReading
@@ -364,7 +423,9 @@ export type LogEvent =
   | LogAck
   | LogClose
   | LogVent
-  | LogVentReading;
+  | LogVentReading
+  | LogPremixMixed
+  | LogPremixReading;
 /** what a writer hands to append: any event but the header, without its chain (the writer adds it) */
 export type NewLogEvent = Exclude<LogEvent, LogHeader>;
 
@@ -561,6 +622,9 @@ export interface ParsedLog {
   readonly acknowledgements: readonly LogAck[];
   /** the vents of the tank, in file order (a guided fill logs at most one; older logs none) */
   readonly vents: readonly VentRecord[];
+  /** stage 2: the premix confirmed mixed, and the premix tank's readings before drawing from it, in file order */
+  readonly premixMixed: readonly (LogPremixMixed & { readonly line: number })[];
+  readonly premixReadings: readonly (LogPremixReading & { readonly line: number })[];
   readonly closed: boolean;
   /** the note of the close line, if any */
   readonly closeNote?: string;
@@ -599,6 +663,8 @@ interface ReaderState {
   amendments: Amendment[];
   acks: LogAck[];
   vents: { vent: LogVent & { line: number }; readings: (LogVentReading & { line: number })[] }[];
+  premixMixed: (LogPremixMixed & { line: number })[];
+  premixReadings: (LogPremixReading & { line: number })[];
   barometer?: ParsedLog['barometer'];
   start?: ParsedLog['start'];
   closed: boolean;
@@ -616,6 +682,8 @@ const emptyReader = (): ReaderState => ({
   amendments: [],
   acks: [],
   vents: [],
+  premixMixed: [],
+  premixReadings: [],
   closed: false,
   issues: [],
   link: '',
@@ -630,6 +698,8 @@ const cloneReader = (st: ReaderState): ReaderState => ({
   amendments: [...st.amendments],
   acks: [...st.acks],
   vents: st.vents.map((v) => ({ vent: v.vent, readings: [...v.readings] })),
+  premixMixed: [...st.premixMixed],
+  premixReadings: [...st.premixReadings],
   issues: [...st.issues],
 });
 
@@ -836,6 +906,16 @@ const EVENT_READERS: Readonly<Record<string, EventReader>> = {
       fault({ kind: 'vent-order', what: 'vent-reading-without-vent', step: v.data.step }, file, lineNo);
     last.readings.push({ ...v.data, line: lineNo });
   },
+  'premix-mixed'(st, rec, lineNo, file) {
+    const r = premixMixedSchema.safeParse(rec);
+    if (!r.success) bad(file, lineNo, 'premix mixed', r.error.issues);
+    st.premixMixed.push({ ...r.data, line: lineNo });
+  },
+  'premix-reading'(st, rec, lineNo, file) {
+    const r = premixReadingSchema.safeParse(rec);
+    if (!r.success) bad(file, lineNo, 'premix tank reading', r.error.issues);
+    st.premixReadings.push({ ...r.data, line: lineNo });
+  },
   close(st, rec, lineNo, file) {
     const c = closeSchema.safeParse(rec);
     if (!c.success) bad(file, lineNo, 'close', c.error.issues);
@@ -860,6 +940,8 @@ function parsedOf(st: ReaderState, file: string): ParsedLog {
     start: st.start,
     acknowledgements: [...st.acks],
     vents: st.vents.map((v) => ({ ...v.vent, readings: [...v.readings] })),
+    premixMixed: [...st.premixMixed],
+    premixReadings: [...st.premixReadings],
     closed: st.closed,
     closeNote: st.closeNote,
     issues: [...st.issues],

@@ -21,7 +21,8 @@ import {
   type Plan,
   type StageFillCause,
 } from '../core/index.js';
-import { createLog, readLog, type LogHeader, type ParsedLog } from './batch-log.js';
+import { createLog, gaugeToLog, readLog, type LogHeader, type ParsedLog } from './batch-log.js';
+import { premixMixingTime, premixTankCheck } from '../report/two-stage-sheet.js';
 import { headerFromPlan } from './check.js';
 import type { PlanRequest } from './load.js';
 
@@ -140,7 +141,40 @@ export function stage2Header(
 ): LogHeader {
   const h = headerFromPlan(plan, req, batchId, created, batchLog);
   const file = relative(dirname(resolve(batchLog)), resolve(premix.file)) || basename(premix.file);
-  return { ...h, stage: { number: 2, of: 2, batch: batchId, premix_log: { ...premix, file } } };
+  const check = premixCheckOf(plan, req);
+  return {
+    ...h,
+    stage: {
+      number: 2,
+      of: 2,
+      batch: batchId,
+      premix_log: { ...premix, file },
+      ...(check ? { premix_check: check } : {}),
+    },
+  };
+}
+
+/**
+ * the premix tank's check before the batch's first fill from it, as the stage-2 sheet prints it (same
+ * function, same lab profile): the guided fill asks for the reading and the mixing with initials
+ */
+function premixCheckOf(plan: Plan, req: PlanRequest): StageOfLog['premix_check'] {
+  const lab = { gauges: req.input.gauges, reading: req.input.reading, tanks: req.lab.tanks };
+  const c = premixTankCheck(plan, lab, 'Torr');
+  if (!c) return undefined;
+  const mixing = premixMixingTime(plan, lab);
+  return {
+    tank: c.tankId,
+    gauge: c.gauge ? gaugeToLog(c.gauge) : null,
+    minimum: `${c.minimum} ${c.unit}`,
+    minimum_Pa: c.minimumAbsPa,
+    planned_Pa: c.plannedPa,
+    required_Pa: c.delivery.requiredPa,
+    target_Pa: c.delivery.targetPa,
+    delivered_mol: c.delivery.deliveredMol,
+    fills: [...c.fills],
+    ...(mixing ? { mixing: { stirred: mixing.stirred, rest_s: mixing.restS } } : {}),
+  };
 }
 
 /** the premix log a stage-2 log names, as a path from the working folder */

@@ -13,6 +13,7 @@ import {
   predictionOf,
   premixStartForEndPa,
   type GasSource,
+  type Gauge,
   type Plan,
   type PremixDeliveryCheck,
 } from '../core/index.js';
@@ -20,7 +21,7 @@ import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
 import type { SheetCheck, SheetLab, SheetMeta, SheetModel } from './sheet-model.js';
 import { premixLogFractions } from './premix-log-text.js';
 import { duration } from './ready-report.js';
-import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import { fromPa, isPressureUnit, paPerUnit, type PressureUnit } from './units.js';
 
 type Build = (plan: Plan, meta: SheetMeta) => SheetModel;
 
@@ -61,13 +62,41 @@ function drawOf(plan: Plan): Draw | undefined {
 const fillList = (ns: readonly number[]) =>
   ns.length === 1 ? `fill ${ns[0]}` : `fills ${ns.slice(0, -1).join(', ')} and ${ns[ns.length - 1]}`;
 
+/** the premix tank's reading before the batch's first premix fill, as numbers (the sheet's row and the fill's check) */
+export interface PremixTankCheck {
+  readonly tankId: string;
+  /** the lowest absolute pressure from which the batch's premix delivery still ends at the required pressure, Pa */
+  readonly minPa: number;
+  /** the gauge to read it on (one that covers it from the minimum to its planned reading), if any */
+  readonly gauge?: Gauge;
+  readonly unit: PressureUnit;
+  readonly decimals: number;
+  /** the minimum as read on that gauge, rounded up to its display step ("621.7") */
+  readonly minimum: string;
+  /** that rounded minimum as an absolute pressure (a gauge-referenced gauge: + the assumed barometer), Pa */
+  readonly minimumAbsPa: number;
+  /** the planned reading ("1890.2") and the planned absolute pressure, Pa */
+  readonly planned: string;
+  readonly plannedPa: number;
+  readonly delivery: PremixDeliveryCheck;
+  /** the batch's fills from the premix, in fill order */
+  readonly fills: readonly number[];
+}
+
 /**
  * The premix tank's reading before the batch's first premix fill: at least the pressure from which
  * delivering the batch's premix still leaves it, settled, at the required pressure (the batch reading
- * its last premix charge must reach + PREMIX_DELIVERY_MARGIN; the plan's `premix-runs-low` limit).
+ * its last premix charge must reach + PREMIX_DELIVERY_MARGIN; the plan's `premix-runs-low` limit),
+ * rounded up to the gauge's display step. The sheet prints it; the guided fill asks for it.
  */
-function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: PressureUnit) {
-  const fills = plan.steps.filter((s) => s.source.id === d.source.id);
+export function premixTankCheck(
+  plan: Plan,
+  lab: SheetLab | undefined,
+  unit: PressureUnit,
+): PremixTankCheck | undefined {
+  const d = drawOf(plan);
+  if (!d) return undefined;
+  const fills = plan.steps.filter((s) => s.source.id === d.source.id).map((s) => s.index);
   if (!fills.length) return undefined;
   const del = d.delivery;
   const minPa = premixStartForEndPa({
@@ -85,11 +114,31 @@ function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: Press
     ? decimalsFor(fromPa(g.resolutionPa, gu))
     : Math.max(0, 4 - Math.floor(Math.log10(Math.abs(shown(minPa)))));
   const step = 10 ** -dec;
-  const minimum = (Math.ceil(shown(minPa) / step - 1e-9) * step).toFixed(dec);
-  const planned = shown(del.startPa).toFixed(dec);
+  const minShown = Math.ceil(shown(minPa) / step - 1e-9) * step;
+  const offset = g && lab && g.reference === 'gauge' ? lab.reading.barometricPa : 0;
+  return {
+    tankId: d.tankId,
+    minPa,
+    gauge: g,
+    unit: gu,
+    decimals: dec,
+    minimum: minShown.toFixed(dec),
+    minimumAbsPa: Number(minShown.toFixed(dec)) * paPerUnit(gu) + offset,
+    planned: shown(del.startPa).toFixed(dec),
+    plannedPa: del.startPa,
+    delivery: del,
+    fills,
+  };
+}
+
+/** the premix tank's check as the sheet's row: the gauge, the minimum, and why, in words */
+function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: PressureUnit) {
+  const c = premixTankCheck(plan, lab, unit);
+  if (!c) return undefined;
+  const { gauge: g, minimum, planned, delivery: del, minPa, unit: gu } = c;
   const tank = tankName(d.tankId);
-  const first = fills[0].index;
-  const which = fillList(fills.map((s) => s.index));
+  const first = c.fills[0];
+  const which = fillList(c.fills);
   const gaugeName = g ? g.id : lab ? 'NO GAUGE' : 'a gauge that reads it';
   const readOn = g
     ? `read ${tank} on ${g.id}` +
@@ -114,16 +163,34 @@ function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: Press
       `${readOn}: at least ${minimum} ${gu} (planned ${planned} ${gu}). Below that, do not fill from it: ` +
       `delivering the ${fixedSig(del.deliveredMol, 3)} mol of ${which} would leave ${tank} below ` +
       `${pressure(del.requiredPa, unit, 5)} (the ${pressure(del.targetPa, unit, 5)} that ` +
-      `${tankName(plan.tank.id)} must reach at fill ${fills[fills.length - 1].index}, + 10 % for a ` +
+      `${tankName(plan.tank.id)} must reach at fill ${c.fills[c.fills.length - 1]}, + 10 % for a ` +
       `controllable flow at the end); make a new premix or a smaller batch.`,
   };
   return { fill: first, check };
 }
 
 /** the premix tank's mixing estimate at its pressure before the batch, from the lab profile's height */
-function premixMixing(plan: Plan, d: Draw, lab: SheetLab | undefined): string | undefined {
-  const info = lab?.tanks.find((t) => t.id === d.tankId);
-  if (!info?.heightM) return undefined;
+function premixMixing(plan: Plan, lab: SheetLab | undefined): string | undefined {
+  const m = premixMixingTime(plan, lab);
+  if (!m) return undefined;
+  return m.stirred
+    ? 'stirred ________ min since its last fill (common practice: 15-30 min), or rested at least ' +
+        `${duration(m.restS)} (diffusion alone to 0.1 %)`
+    : `rested at least ${duration(m.restS)} since its last fill (unstirred, diffusion alone to 0.1 %): ` +
+        'since ______';
+}
+
+/**
+ * the premix tank's mixing before the batch draws from it: stirred (lab profile), and the time diffusion
+ * alone takes to 0.1 % residual non-uniformity at its pressure before the batch; undefined without a height
+ */
+export function premixMixingTime(
+  plan: Plan,
+  lab: SheetLab | undefined,
+): { readonly stirred: boolean; readonly restS: number } | undefined {
+  const d = drawOf(plan);
+  const info = d && lab?.tanks.find((t) => t.id === d.tankId);
+  if (!d || !info?.heightM) return undefined;
   const m = mixingEstimate(
     d.source.composition,
     plan.temperatureK,
@@ -131,17 +198,12 @@ function premixMixing(plan: Plan, d: Draw, lab: SheetLab | undefined): string | 
     info.heightM,
     Boolean(info.stirred),
   );
-  if (m.to01PercentS === undefined) return undefined;
-  return info.stirred
-    ? 'stirred ________ min since its last fill (common practice: 15-30 min), or rested at least ' +
-        `${duration(m.to01PercentS)} (diffusion alone to 0.1 %)`
-    : `rested at least ${duration(m.to01PercentS)} since its last fill (unstirred, diffusion alone to 0.1 %): ` +
-        'since ______';
+  return m.to01PercentS === undefined ? undefined : { stirred: Boolean(info.stirred), restS: m.to01PercentS };
 }
 
 /** the batch's checks before filling that a premix adds: the premix tank mixed since its fill */
 function premixPreCheck(plan: Plan, d: Draw, lab: SheetLab | undefined): string {
-  const how = premixMixing(plan, d, lab);
+  const how = premixMixing(plan, lab);
   return (
     `Premix in ${tankName(d.tankId)} uniform before the batch draws from it: ` +
     (how ?? 'stirred ________ min or rested ________ h since its last fill (diffusion alone takes hours)')

@@ -8,6 +8,7 @@ import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
   fillReducer,
+  premixMixingWords,
   shownPa,
   type CompositionJudgement,
   type FillAction,
@@ -25,6 +26,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
+import { fillTitle, intoTank } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 
 export interface FillAppProps {
@@ -258,11 +260,13 @@ function FillScreen({
   if (state.phase === 'reminder') return <ReminderScreen state={state} />;
   if (state.phase === 'review' && state.review) return <RemainderReviewScreen state={state} />;
   if (state.phase === 'confirm' && state.pending) return <ConfirmScreen state={state} />;
+  if (state.phase === 'unit-check' && state.pending) return <UnitCheckScreen state={state} />;
   if (state.phase === 'over-limit' && state.pending && state.overLimit)
     return <OverLimitScreen state={state} />;
   if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
   if (state.phase === 'capped' && state.capped) return <CappedScreen state={state} />;
   if (state.phase === 'undo-reason' && state.undoing) return <UndoReasonScreen state={state} />;
+  if (state.phase === 'premix' && state.setup.premixCheck) return <PremixScreen state={state} />;
   return <ReadingScreen state={state} />;
 }
 
@@ -296,7 +300,7 @@ function BarometerScreen({ state }: ScreenProps) {
   ];
   return (
     <Box flexDirection="column">
-      <Text bold>mixwright fill {h.id} - barometric pressure today</Text>
+      <Text bold>{fillTitle(h)} - barometric pressure today</Text>
       <Text wrap="wrap">
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
@@ -315,7 +319,7 @@ function BarometerScreen({ state }: ScreenProps) {
 function AcknowledgeScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
-      <Text bold>mixwright fill {state.setup.header.id} - DANGER findings stand</Text>
+      <Text bold>{fillTitle(state.setup.header)} - DANGER findings stand</Text>
       {state.setup.dangers.map((d, i) => (
         <Text key={i} wrap="wrap">
           - {d.code}
@@ -347,7 +351,7 @@ function EndScreen({
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} -{' '}
+        {fillTitle(h)} -{' '}
         {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
       </Text>
       {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
@@ -411,7 +415,7 @@ function BelowScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
+        {fillTitle(h)} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
@@ -451,7 +455,7 @@ function StartScreen({ state }: ScreenProps) {
     .join(', ');
   return (
     <Box flexDirection="column">
-      <Text bold>mixwright fill {h.id} - top-up: the gas already in the tank</Text>
+      <Text bold>{fillTitle(h)} - top-up: the gas already in the tank</Text>
       <Text wrap="wrap">
         The plan assumed {absText(start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any
         fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what
@@ -476,7 +480,7 @@ function CorrectScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - correct the reading of fill {c.step} ({cs.species}
+        {fillTitle(h)} - correct the reading of fill {c.step} ({cs.species}
         {isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on {cs.gauge?.id ?? 'no gauge'})
       </Text>
       <Text>
@@ -516,7 +520,7 @@ function ReminderScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {state.current + 1} of {K}
+        {fillTitle(h)} - fill {state.current + 1} of {K}
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
       </Text>
       <Text wrap="wrap">
@@ -542,13 +546,37 @@ function ConfirmScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {state.setup.header.id} - fill {state.current + 1} of {state.setup.steps.length}
+        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
         {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THIS READING
       </Text>
       <Text>typed: {pending.done.text}</Text>
       <Text wrap="wrap">{pending.reason}</Text>
       <Text> </Text>
       <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/** a reading typed in another unit than the target's, far from it: log it as typed (initials) or re-type */
+function UnitCheckScreen({ state }: ScreenProps) {
+  const pending = state.pending!;
+  return (
+    <Box flexDirection="column">
+      <Text bold>
+        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
+        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THE UNIT
+      </Text>
+      <Text wrap="wrap">{pending.reason}</Text>
+      <Text wrap="wrap">
+        Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
+      </Text>
+      <Text> </Text>
+      <Text wrap="wrap">
+        log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
+        (not logged)
+      </Text>
+      <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
   );
@@ -564,7 +592,7 @@ function OverLimitScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {state.current + 1} of {K}
+        {fillTitle(h)} - fill {state.current + 1} of {K}
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER - ABOVE THE WORKING LIMIT
       </Text>
       <Text wrap="wrap">
@@ -612,7 +640,7 @@ function UndoReasonScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - undo the reading of fill {last.step} ({last.text}, line {last.line})
+        {fillTitle(h)} - undo the reading of fill {last.step} ({last.text}, line {last.line})
       </Text>
       <Text wrap="wrap">
         {state.undoing!.by} withdraws it: the log keeps the reading and adds the withdrawal with your initials
@@ -644,12 +672,21 @@ function CappedScreen({ state }: ScreenProps) {
     const dec = st.gauge ? decimalsFor(fromPa(st.gauge.resolutionPa, u)) : 3;
     const t = state.targetsPa[state.current + i];
     const shown = fromPa(shownPa(state, st, t), u).toFixed(dec);
-    return `fill ${st.index} ${st.species}: ${shown} ${u} on ${st.gauge?.id ?? 'no gauge'}`;
+    const last = state.current + i === K - 1;
+    const gaugeRef = st.gauge?.reference === 'gauge';
+    return (
+      `fill ${st.index} ${st.species}: ${shown} ${u} on ${st.gauge?.id ?? 'no gauge'}` +
+      (last
+        ? gaugeRef
+          ? ` (= ${c.finalText} absolute, the capped final pressure)`
+          : ' (the capped final pressure)'
+        : '')
+    );
   });
   return (
     <Box flexDirection="column">
       <Text bold wrap="wrap">
-        mixwright fill {h.id} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
+        {fillTitle(h)} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
         {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
       </Text>
       {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
@@ -659,11 +696,53 @@ function CappedScreen({ state }: ScreenProps) {
       <Text wrap="wrap">Capped targets: {ahead.join('; ')}.</Text>
       <Text> </Text>
       <Text wrap="wrap">
-        go INITIALS: fill to the capped targets (the tank ends at{' '}
-        {fromPa(c.finalPa, unitOf(state.setup.steps[state.current])).toFixed(1)}{' '}
-        {unitOf(state.setup.steps[state.current])}
+        go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
         {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
         INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
+      </Text>
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
+/**
+ * stage 2, before the first fill from the premix: the premix confirmed mixed (mixed INITIALS), then
+ * the premix tank read on its gauge against the minimum the plan needs (VALUE INITIALS); both logged
+ */
+function PremixScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  const pc = state.setup.premixCheck!;
+  const K = state.setup.steps.length;
+  const first = pc.fills[0];
+  const mixed = state.premix?.mixedBy;
+  const last = state.premix?.reading;
+  const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
+  return (
+    <Box flexDirection="column">
+      <Text bold wrap="wrap">
+        {fillTitle(h)} - before fill {first} of {K}: THE PREMIX TANK {pc.tank}
+      </Text>
+      <Text wrap="wrap">
+        Fill {first} draws the premix from {pc.tank}
+        {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
+      </Text>
+      <Text wrap="wrap" bold={!mixed}>
+        1. {mixed ? `[done, ${mixed}] ` : ''}The premix in {pc.tank} mixed: {premixMixingWords(pc)}.
+      </Text>
+      <Text wrap="wrap" bold={Boolean(mixed)}>
+        2. {last?.enough ? `[done, ${last.by}] ` : ''}With the {h.tank.id} valve closed and the line filled
+        from {pc.tank}, read {pc.tank} on {pc.gauge?.id ?? 'a gauge that reads it'}: at least {pc.minimum}{' '}
+        (planned about {planned})
+        {last && !last.enough ? `; last read ${last.text} (${last.by}), BELOW the minimum` : ''}.
+      </Text>
+      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      <Text> </Text>
+      <Text wrap="wrap">
+        {mixed
+          ? `Type the reading of ${pc.tank} and your initials (e.g. ${planned.replace(' Torr', '')} AB); it is logged.`
+          : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
+        stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
       </Text>
       <Prompt state={state} />
       <ErrorLine state={state} />
@@ -682,8 +761,8 @@ function VentedScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>
-        mixwright fill {h.id} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank
-        after venting
+        {fillTitle(h)} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank after
+        venting
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
@@ -760,7 +839,7 @@ function ReadingScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
-        <Text bold>mixwright fill {h.id}</Text>
+        <Text bold>{fillTitle(h)}</Text>
         <Text>
           fill {state.current + 1} of {K}
         </Text>
@@ -769,7 +848,7 @@ function ReadingScreen({ state }: ScreenProps) {
       <Text>
         Fill <Text bold>{step.species}</Text>
         {isSplit(step.charge) ? <Text bold>, {chargeWords(step.charge)}</Text> : null} from {step.source.id} (
-        {step.source.label})
+        {step.source.label}){intoTank(h)}
       </Text>
       <ChargeLine state={state} />
       <Text>

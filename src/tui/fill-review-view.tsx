@@ -7,6 +7,7 @@ import { Box, Text } from 'ink';
 import type { FillState } from './fill-state.js';
 import { alternativeTargets } from './fill-review.js';
 import { fromPa } from '../io/quantity.js';
+import { fillTitle } from './stage-state.js';
 
 const TRIGGER_WORDS = {
   reading: 'the reading just logged',
@@ -26,7 +27,7 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
   return (
     <Box flexDirection="column">
       <Text bold wrap="wrap">
-        mixwright fill {h.id} - SAFETY REVIEW: the remaining fills pass a hazard the plan did not
+        {fillTitle(h)} - SAFETY REVIEW: the remaining fills pass a hazard the plan did not
       </Text>
       {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
       <Text wrap="wrap">

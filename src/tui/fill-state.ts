@@ -30,7 +30,15 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
-import { parseQuantity, fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import { duration } from '../report/ready-report.js';
+import {
+  parseQuantity,
+  fromPa,
+  isPressureUnit,
+  paPerUnit,
+  PRESSURE_UNITS,
+  type PressureUnit,
+} from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
 import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
 import {
@@ -90,6 +98,38 @@ export interface FillSetup {
   readonly needsBarometer: boolean;
   /** a top-up: the gas the plan assumed already in the tank */
   readonly inTank?: { readonly composition: Readonly<Record<string, number>>; readonly pressurePa: number };
+  /** stage 2: the premix tank's check before the first fill from it (the stage-2 sheet's row) */
+  readonly premixCheck?: PremixCheck;
+}
+
+/** the premix tank's check of a stage-2 fill (header stage.premix_check), its gauge as the core's */
+export interface PremixCheck {
+  readonly tank: string;
+  readonly gauge?: Gauge;
+  /** the lowest reading allowed on the gauge, with its unit ("621.7 Torr"), and as an absolute pressure */
+  readonly minimum: string;
+  readonly minimumPa: number;
+  readonly plannedPa: number;
+  readonly requiredPa: number;
+  readonly targetPa: number;
+  readonly deliveredMol: number;
+  /** the batch's fills from the premix; the check comes before the first */
+  readonly fills: readonly number[];
+  readonly mixing?: { readonly stirred: boolean; readonly restS: number };
+  /** the premix log the batch draws from, as the header names it */
+  readonly premixLog?: string;
+}
+
+/** what the log holds of the premix check: who confirmed the mixing, and the last premix-tank reading */
+export interface PremixDone {
+  readonly mixedBy?: string;
+  /** the last premix-tank reading logged: its text, absolute pressure, whether it is enough, its line */
+  readonly reading?: {
+    readonly text: string;
+    readonly pressurePa: number;
+    readonly enough: boolean;
+    readonly by: string;
+  };
 }
 
 /**
@@ -108,6 +148,8 @@ export type Phase =
   | 'reading'
   | 'correct'
   | 'confirm'
+  /** a reading typed in another unit than the target's, far from it: asked before it is logged */
+  | 'unit-check'
   | 'over-limit'
   | 'vented'
   /** the re-target is held below the working limit at the cost of the composition: an explicit choice */
@@ -118,7 +160,9 @@ export type Phase =
   | 'ended'
   | 'done'
   /** the re-targeted remainder passes a hazard the plan did not (fill-review.ts) */
-  | 'review';
+  | 'review'
+  /** stage 2: before the first fill from the premix, its mixing confirmed and its tank read (logged) */
+  | 'premix';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -221,11 +265,13 @@ export interface Venting {
 
 /** a re-target held below the working limit: what it costs, for the stop screen (phase 'capped') */
 export interface Capped {
-  /** the fill just read, and the next one */
-  readonly after: number;
+  /** what brought the cap, in words ("after fill 1", "after the undo of fill 2", "at 35.0 degC"), and the next fill */
+  readonly after: string;
   readonly step: number;
-  /** the final pressure the limit allows, and the limit (absolute, Pa) */
+  /** the capped final pressure (the last capped target, absolute) and the limit (absolute, Pa) */
   readonly finalPa: number;
+  /** the capped final pressure as every line of the stop screen says it (computed once) */
+  readonly finalText: string;
   readonly limitPa: number;
   /** the design species left outside the tolerance */
   readonly outside: readonly string[];
@@ -274,6 +320,8 @@ export interface FillState {
   readonly review?: ReviewScreen;
   /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
   readonly reviewed?: ReviewMemory;
+  /** stage 2: the premix check so far (from the log on resume) */
+  readonly premix?: PremixDone;
 }
 
 export type FillAction =
@@ -304,14 +352,43 @@ export function setupFromHeader(header: LogHeader): FillSetup {
   const inTank = header.in_tank
     ? { composition: header.in_tank.composition, pressurePa: header.in_tank.pressure_Pa }
     : undefined;
+  const pc = header.stage?.number === 2 ? header.stage.premix_check : undefined;
+  const premixCheck: PremixCheck | undefined = pc && {
+    tank: pc.tank,
+    gauge: pc.gauge ? gaugeFromLog(pc.gauge) : undefined,
+    minimum: pc.minimum,
+    minimumPa: pc.minimum_Pa,
+    plannedPa: pc.planned_Pa,
+    requiredPa: pc.required_Pa,
+    targetPa: pc.target_Pa,
+    deliveredMol: pc.delivered_mol,
+    fills: pc.fills,
+    mixing: pc.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s },
+    premixLog: header.stage?.premix_log?.file,
+  };
   return {
     header,
     design: designFromHeader(header),
     steps,
     dangers,
     workingLimitPa,
-    needsBarometer: steps.some((s) => s.gauge?.reference === 'gauge'),
+    // the premix tank's gauge may read above ambient too: today's barometer is asked for it as well
+    needsBarometer:
+      steps.some((s) => s.gauge?.reference === 'gauge') || premixCheck?.gauge?.reference === 'gauge',
     inTank,
+    ...(premixCheck ? { premixCheck } : {}),
+  };
+}
+
+/** the premix check as the log holds it (resume) */
+function premixDoneOf(log: ParsedLog | undefined): PremixDone | undefined {
+  if (!log) return undefined;
+  const mixed = log.premixMixed.at(-1);
+  const r = log.premixReadings.at(-1);
+  if (!mixed && !r) return undefined;
+  return {
+    ...(mixed ? { mixedBy: mixed.by } : {}),
+    ...(r ? { reading: { text: r.reading, pressurePa: r.pressure_Pa, enough: r.enough, by: r.by } } : {}),
   };
 }
 
@@ -369,6 +446,7 @@ export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillS
     message: done.length ? resumedText(setup, done.length) : undefined,
     reviewed: reviewMemoryOf(log),
     capAccepted: capAcceptedOf(log),
+    premix: premixDoneOf(log),
   };
   const r = done.length || start?.read ? retargetRun(state, done, T) : undefined;
   if (r) state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
@@ -466,15 +544,7 @@ function resumedCapped(
   if (!r?.limitBinds || !log || log.closed || needsAck || !next || !state.done.length) return undefined;
   if (r.nowPa >= (state.setup.workingLimitPa ?? Infinity)) return undefined;
   if (log.acknowledgements.some((a) => a.code === LIMIT_CAP_CODE && a.step === next.index)) return undefined;
-  const deviations = deviationsOf(r.predicted.composition, state);
-  const acc = state.capAccepted;
-  if (acc && deviations.every((d) => d.within || acc.outside.includes(d.species))) return undefined;
-  return cappedScreen(
-    state,
-    r.predicted.pressurePa,
-    deviations,
-    gaugeUnit(state.setup.steps[state.done.length - 1]),
-  );
+  return capStop(state, r, `after fill ${state.setup.steps[state.done.length - 1].index}`);
 }
 
 /** a fill stopped after its vent was logged: the reading after venting is asked (again) */
@@ -517,6 +587,9 @@ function enterStep(s: FillState): FillState {
   if (s.setup.needsBarometer && !s.barometerToday) return { ...s, phase: 'barometer', input: '' };
   if (s.start && !s.start.read && s.done.length === 0) return { ...s, phase: 'start', input: '' };
   const stepIndex = s.setup.steps[s.current]?.index;
+  const pc = s.setup.premixCheck;
+  if (pc && stepIndex === pc.fills[0] && !(s.premix?.mixedBy && s.premix.reading?.enough))
+    return { ...s, phase: 'premix', input: '', field: 'reading' };
   if (
     stepIndex !== undefined &&
     !s.reminded.includes(stepIndex) &&
@@ -545,6 +618,8 @@ export function retargetInput(
     finalBandPa: s.setup.steps[s.setup.steps.length - 1]?.bandPa,
     initial: s.start,
     formatPressure: (pa) => `${Number(fromPa(pa, 'Torr').toPrecision(6))} Torr`,
+    // the final pressure a cap holds: as the stop screen says it (one number everywhere)
+    formatFinalPressure: (pa) => cappedFinalText(s, pa),
     // each charge of a split source, and the stop reading (the plan's target) of each but its last
     charges: s.setup.steps.map((x, k) => ({
       number: x.charge.number,
@@ -774,6 +849,48 @@ function withTemperature(s: FillState): FillState {
 
 const fmtIn = (pa: number, unit: PressureUnit, sig = 6) => `${fromPa(pa, unit).toPrecision(sig)} ${unit}`;
 
+/** the ratios between two display units (far from 1): what a reading typed in the wrong unit is off by */
+const UNIT_RATIOS = PRESSURE_UNITS.flatMap((a) =>
+  PRESSURE_UNITS.map((b) => paPerUnit(a) / paPerUnit(b)).filter((r) => Math.abs(Math.log(r)) > Math.log(1.1)),
+);
+/** how near a ratio (or the number typed to the target's number) counts as a unit slip: 5 % */
+const UNIT_SLIP_REL = 0.05;
+
+/**
+ * A unit slip: the reading carries a unit other than the target's (the gauge's), lies outside the
+ * step's band, and either its number is within 5 % of the target's number in the target's unit
+ * ("10.02 kPa" for 10.01 Torr) or its ratio to the target is within 5 % of the ratio of two pressure
+ * units (kPa/Torr 7.50, psi/kPa 6.89, bar/Torr 750...). What to ask, in words; undefined when none.
+ */
+export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): string | undefined {
+  const unit = gaugeUnit(step);
+  const text = s.input.trim();
+  if (READING_NUMBER.test(text)) return undefined; // a bare number is in the gauge's unit
+  const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*)$/.exec(text);
+  if (!m || m[2].trim() === unit) return undefined;
+  const targetShown = shownPa(s, step, s.targetsPa[s.current]);
+  if (Math.abs(shownPaTyped - targetShown) <= step.bandPa || !(targetShown > 0)) return undefined;
+  const bare = Number(m[1]);
+  const targetNumber = fromPa(targetShown, unit);
+  const sameNumber = Math.abs(bare / targetNumber - 1) <= UNIT_SLIP_REL;
+  const ratio = shownPaTyped / targetShown;
+  const factor = UNIT_RATIOS.some((r) => Math.abs(ratio / r - 1) <= UNIT_SLIP_REL);
+  if (!sameNumber && !factor) return undefined;
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
+  const at = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit}`;
+  const gauge = step.gauge?.id ?? 'the gauge';
+  const times =
+    ratio >= 1 ? `${fixedSig(ratio, 3)} x the target` : `1/${fixedSig(1 / ratio, 3)} of the target`;
+  const why = sameNumber
+    ? "The number typed is the target's number in another unit"
+    : 'That is about the ratio of two pressure units';
+  return (
+    `typed "${text}" = ${at(shownPaTyped)} on ${gauge}; the target is ${at(targetShown)} ` +
+    `(band ${fromPa(targetShown - step.bandPa, unit).toFixed(dec)} - ${at(targetShown + step.bandPa)}): ` +
+    `${times}. ${why}: likely the unit (${gauge} shows ${unit}).`
+  );
+}
+
 /** plausibility: why a reading looks wrong, or undefined */
 function doubt(s: FillState, step: FillStep, shown: number): string | undefined {
   const unit = gaugeUnit(step);
@@ -901,14 +1018,47 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
     };
   }
   if (r.result.limitBinds) {
-    const cost = limitCost(r.result.predicted.pressurePa, deviations, unit);
-    const acc = next.capAccepted;
-    // asked again only when the cap leaves a species outside the tolerance that the choice did not
-    if (!acc || deviations.some((d) => !d.within && !acc.outside.includes(d.species)))
-      return cappedScreen(next, r.result.predicted.pressurePa, deviations, unit);
-    next = { ...next, message: `${next.message}. ${cost} (the capped targets: ${acc.by} went on with them)` };
+    const stop = capStop(next, r.result, `after fill ${step.index}`);
+    if (stop) return stop;
+    const cost = limitCost(cappedFinalText(next, r.result.predicted.pressurePa), deviations);
+    next = {
+      ...next,
+      message: `${next.message}. ${cost} (the capped targets: ${next.capAccepted!.by} went on with them)`,
+    };
   }
   return reviewed(enterStep(next), 'reading');
+}
+
+/**
+ * the stop screen when the re-target is held below the working limit, unless the operator already
+ * went on with a cap that leaves no further species outside the tolerance (or the tank is at the
+ * limit: no fill remains to cap). The same after a reading, an undo, a correction or a temperature change.
+ */
+function capStop(s: FillState, r: ReturnType<typeof retarget>, after: string): FillState | undefined {
+  if (!r.limitBinds || s.current >= s.setup.steps.length) return undefined;
+  if (r.nowPa >= (s.setup.workingLimitPa ?? Infinity)) return undefined;
+  const deviations = deviationsOf(r.predicted.composition, s);
+  const acc = s.capAccepted;
+  // asked again only when the cap leaves a species outside the tolerance that the choice did not
+  if (acc && deviations.every((d) => d.within || acc.outside.includes(d.species))) return undefined;
+  return cappedScreen(s, r.predicted.pressurePa, deviations, after);
+}
+
+/** after an undo, a correction or a temperature change: the capped stop screen if the re-target is held */
+function capAfterChange(s: FillState, after: string): FillState | undefined {
+  if (s.current >= s.setup.steps.length || (!s.done.length && !s.start?.read)) return undefined;
+  return capStop(s, retargetRun(s, s.done, s.targetTemperatureK).result, after);
+}
+
+/**
+ * the capped final pressure as the stop screen says it, once: the last capped target, absolute, to
+ * the display step of the last fill's gauge (the reading that ends the batch)
+ */
+function cappedFinalText(s: FillState, finalPa: number): string {
+  const last = s.setup.steps[s.setup.steps.length - 1];
+  const unit = gaugeUnit(last);
+  const dec = last.gauge ? decimalsFor(fromPa(last.gauge.resolutionPa, unit)) : 2;
+  return `${fromPa(finalPa, unit).toFixed(dec)} ${unit}`;
 }
 
 /** the stop screen of a re-target held below the working limit: its cost, and go, undo or stop */
@@ -916,19 +1066,21 @@ function cappedScreen(
   s: FillState,
   finalPa: number,
   deviations: readonly FractionDeviation[],
-  unit: PressureUnit,
+  after: string,
 ): FillState {
+  const finalText = cappedFinalText(s, finalPa);
   return {
     ...s,
     phase: 'capped',
     input: '',
     capped: {
-      after: s.setup.steps[s.current - 1].index,
+      after,
       step: s.setup.steps[s.current].index,
       finalPa,
+      finalText,
       limitPa: s.setup.workingLimitPa!,
       outside: deviations.filter((d) => !d.within).map((d) => d.species),
-      cost: limitCost(finalPa, deviations, unit),
+      cost: limitCost(finalText, deviations),
     },
   };
 }
@@ -953,8 +1105,8 @@ function onCappedEnter(s: FillState, now: string): FillState {
   const go = m[1].toLowerCase() === 'go';
   const by = m[2];
   const what =
-    `after fill ${c.after} the remaining fills are held below the working limit ${fmtIn(c.limitPa, unit)}: ` +
-    `the tank ends at ${fmtIn(c.finalPa, unit)}` +
+    `${c.after} the remaining fills are held below the working limit ${fmtIn(c.limitPa, unit)}: ` +
+    `the tank ends at the capped final pressure ${c.finalText}` +
     (c.outside.length
       ? `, ${c.outside.join(', ')} OUTSIDE the tolerance`
       : ', the composition within the tolerance');
@@ -973,8 +1125,8 @@ function onCappedEnter(s: FillState, now: string): FillState {
       phase: 'ended',
       capped: undefined,
       input: '',
-      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} after fill ${c.after}: ${what}` }],
-      message: `stopped by ${by} after fill ${c.after} (logged): ${what}`,
+      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} ${c.after}: ${what}` }],
+      message: `stopped by ${by} ${c.after} (logged): ${what}`,
     };
   const entered = enterStep({
     ...s,
@@ -1099,7 +1251,7 @@ function bandWords(s: FillState, unit: PressureUnit, absolutePa: number, within:
  * what a remainder held by the working limit costs, in words: the final pressure it ends at, each
  * mole fraction off the design (by how much, inside or outside the tolerance), and the choices
  */
-function limitCost(finalPa: number, deviations: readonly FractionDeviation[], unit: PressureUnit): string {
+function limitCost(finalText: string, deviations: readonly FractionDeviation[]): string {
   const pct = (x: number) => `${fixedSig(x * 100, 3)} %`;
   const off = deviations
     .map(
@@ -1110,7 +1262,7 @@ function limitCost(finalPa: number, deviations: readonly FractionDeviation[], un
     .join(', ');
   const outside = deviations.filter((d) => !d.within).length;
   return (
-    `The working limit costs: the tank ends at ${fmtIn(finalPa, unit)}; ${off}` +
+    `The working limit costs: the tank ends at the capped final pressure ${finalText} (absolute); ${off}` +
     (outside
       ? ` - ${outside} mole fraction(s) OUTSIDE the tolerance`
       : ' - the composition stays within the tolerance')
@@ -1211,9 +1363,54 @@ function onReadingEnter(s: FillState, now: string): FillState {
     done: { step: step.index, pressurePa: absolute, temperatureK, text: event.reading },
     typed: s1.input.trim(),
   };
+  const slip = unitSlip(s1, step, shown);
+  if (slip) return { ...s1, phase: 'unit-check', input: '', pending: { ...p, reason: slip } };
   const why = doubt(s1, step, shown);
   if (why) return { ...s1, phase: 'confirm', pending: { ...p, reason: why } };
   return afterDoubt(s1, p, now);
+}
+
+/**
+ * Enter on the unit check: `log INITIALS` logs the reading as typed (never converted), with the
+ * initials and a note of what was asked; `n` (or Esc) goes back to re-type it, nothing logged
+ */
+function onUnitCheckEnter(s: FillState): FillState {
+  const p = s.pending!;
+  const text = s.input.trim();
+  if (/^(n|no|retype|re-type)$/i.test(text)) return unitRetype(s);
+  const m = /^log\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      input: '',
+      error: `type log and your initials (e.g. log AB) to log ${p.done.text} as typed, or n (or Esc) to re-type it`,
+    };
+  const step = s.setup.steps[s.current];
+  const note = `unit checked at the manifold: ${p.reason} Logged as typed (${p.done.text}), confirmed by ${m[1]}`;
+  const event: LogReading = {
+    ...p.event,
+    by: m[1],
+    note: p.event.note ? `${p.event.note}; ${note}` : note,
+  };
+  const confirmed: Pending = { ...p, event, reason: undefined };
+  const back: FillState = { ...s, phase: 'reading', input: '', pending: undefined };
+  // the other doubts still ask (an absolute value on a gauge-referenced head, another charge's target)
+  const shown = step.gauge?.reference === 'gauge' ? p.done.pressurePa - s.barometerPa : p.done.pressurePa;
+  const why = doubt(back, step, shown);
+  if (why) return { ...back, phase: 'confirm', pending: { ...confirmed, reason: why } };
+  return afterDoubt(back, confirmed, event.time);
+}
+
+/** back from the unit check to the reading: nothing logged, the field cleared */
+function unitRetype(s: FillState): FillState {
+  return {
+    ...s,
+    phase: 'reading',
+    pending: undefined,
+    input: '',
+    field: 'reading',
+    message: `${s.pending!.done.text} is not logged; type the reading again (a bare number is in the gauge's unit)`,
+  };
 }
 
 function onOverLimitEnter(s: FillState, now: string): FillState {
@@ -1507,14 +1704,14 @@ function onUndoReasonEnter(s: FillState, now: string): FillState {
       },
     ],
   });
-  const entered = enterStep({
-    ...next,
-    phase: 'reading',
-    message:
-      `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
-      `${by}${reason ? ` (reason: ${reason})` : ' (no reason given)'}; the log keeps it and the withdrawal. ` +
-      `Read fill ${last.step} again`,
-  });
+  const withdrawn =
+    `the reading of ${fillName(s.setup.steps[last.step - 1])} (${last.text}) is withdrawn by ` +
+    `${by}${reason ? ` (reason: ${reason})` : ' (no reason given)'}; the log keeps it and the withdrawal. ` +
+    `Read fill ${last.step} again`;
+  // the readings left may still hold the re-target below the working limit: the same stop screen
+  const cap = capAfterChange({ ...next, review: undefined }, `after the undo of fill ${last.step}`);
+  if (cap) return { ...cap, message: withdrawn };
+  const entered = enterStep({ ...next, phase: 'reading', message: withdrawn });
   return reviewed({ ...entered, review: undefined }, 'undo');
 }
 
@@ -1652,6 +1849,8 @@ function onCorrectEnter(s: FillState, now: string): FillState {
   };
   if (next.current >= s.setup.steps.length) return afterBelowCorrection(next, now);
   next = rejudge(next);
+  const cap = capAfterChange({ ...next, review: undefined }, `after the correction of fill ${c.step}`);
+  if (cap) return cap;
   return reviewed(enterStep({ ...next, phase: 'reading', review: undefined }), 'correction');
 }
 
@@ -1767,6 +1966,13 @@ function onEscape(base: FillState): FillState {
       input: '',
       message: 'undo cancelled; nothing logged',
     };
+  if (base.phase === 'premix')
+    return {
+      ...base,
+      error:
+        'the premix check stands before the first fill from the premix: type what the screen asks ' +
+        '(logged), undo INITIALS or fix N INITIALS, stop INITIALS, or Ctrl-C to stop',
+    };
   if (base.phase === 'capped')
     return {
       ...base,
@@ -1780,6 +1986,7 @@ function onEscape(base: FillState): FillState {
         'the vent is logged; Esc does not take it back. Read the tank after venting and type the reading ' +
         'and your initials (Ctrl-C stops; resuming asks for it again)',
     };
+  if (base.phase === 'unit-check') return unitRetype(base);
   if (base.phase === 'confirm')
     return {
       ...base,
@@ -1802,7 +2009,9 @@ function onTab(base: FillState): FillState {
   if (base.phase !== 'reading') return base;
   if (base.field === 'temperature') {
     const t = withTemperature({ ...base, field: 'reading' });
-    return t.targetTemperatureK !== base.targetTemperatureK ? reviewed(t, 'temperature') : t;
+    if (t.targetTemperatureK === base.targetTemperatureK) return t;
+    const cap = capAfterChange(t, `at ${degC(t.targetTemperatureK)}`);
+    return cap ?? reviewed(t, 'temperature');
   }
   return { ...base, field: 'temperature' };
 }
@@ -1813,6 +2022,8 @@ function onEnter(base: FillState, now: string): FillState {
     case 'ended':
     case 'confirm':
       return base;
+    case 'unit-check':
+      return onUnitCheckEnter(base);
     case 'barometer':
       return onBarometerEnter(base, now);
     case 'acknowledge':
@@ -1844,6 +2055,8 @@ function onEnter(base: FillState, now: string): FillState {
       return onCommand(base, base.input.trim()) ?? onReviewEnter(base, now, REVIEW_HOOKS);
     case 'below':
       return onBelowEnter(base, now);
+    case 'premix':
+      return onCommand(base, base.input.trim()) ?? onPremixEnter(base, now);
   }
   return base;
 }
@@ -2082,4 +2295,169 @@ function onBelowEnter(s: FillState, now: string): FillState {
   }
   if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
   return { ...finish(next, now), message: pressureText };
+}
+
+/** the premix check's pressures as read on its gauge (gauge-referenced: today's barometer) */
+function premixShown(s: FillState, pc: PremixCheck, absolutePa: number): string {
+  const g = pc.gauge;
+  const unit: PressureUnit = g && isPressureUnit(g.unit) ? g.unit : 'Torr';
+  const dec = g ? decimalsFor(fromPa(g.resolutionPa, unit)) : 1;
+  const ctx = { barometricPa: s.barometerPa, barometricUncertaintyPa: s.setup.header.barometer.u_Pa };
+  return `${fromPa(g ? gaugeReadingPa(g, absolutePa, ctx) : absolutePa, unit).toFixed(dec)} ${unit}`;
+}
+
+/** why a premix-tank reading below the minimum is refused, and what to do */
+export function premixTooLow(s: FillState, pc: PremixCheck, absolutePa: number): string {
+  const fills = pc.fills.length === 1 ? `fill ${pc.fills[0]}` : `fills ${pc.fills.join(', ')}`;
+  const tank = s.setup.header.tank.id;
+  return (
+    `${pc.tank} reads ${premixShown(s, pc, absolutePa)} on ${pc.gauge?.id ?? 'the gauge'}, below the ` +
+    `minimum ${premixShown(s, pc, pc.minimumPa)}: delivering the ${fixedSig(pc.deliveredMol, 3)} mol of ` +
+    `${fills} would leave ${pc.tank} below ${fmtIn(pc.requiredPa, 'Torr')} (the ` +
+    `${fmtIn(pc.targetPa, 'Torr')} that ${tank} must reach at fill ${pc.fills[pc.fills.length - 1]}, + 10 % ` +
+    `for a controllable flow at the end). Do not fill from it: stop INITIALS closes this batch as it is ` +
+    `(or Ctrl-C leaves it open), and make a new premix or a smaller batch. If it was misread, read ` +
+    `${pc.tank} again and type the reading`
+  );
+}
+
+/** the mixing asked before the first fill from the premix, in words (stage-2 sheet's pre-check) */
+export function premixMixingWords(pc: PremixCheck): string {
+  const m = pc.mixing;
+  if (!m)
+    return (
+      `stirred or rested since its last fill (the lab profile gives no height for ${pc.tank}: ` +
+      '`mixwright ready` gives the time; diffusion alone takes hours)'
+    );
+  return m.stirred
+    ? `stirred since its last fill (common practice: 15-30 min), or rested at least ${duration(m.restS)} ` +
+        '(diffusion alone to 0.1 %)'
+    : `rested at least ${duration(m.restS)} since its last fill (unstirred: diffusion alone to 0.1 %)`;
+}
+
+/**
+ * Enter on the premix check (stage 2, before the first fill from the premix): `mixed INITIALS` (the
+ * premix was mixed for the stated time; a `premix-mixed` event), then the premix tank's reading with
+ * initials (a `premix-reading` event, logged even when below the minimum: then the fill does not go
+ * on, and says why and what to do); `stop INITIALS` closes the batch here.
+ */
+function onPremixEnter(s: FillState, now: string): FillState {
+  const pc = s.setup.premixCheck!;
+  const text = s.input.trim();
+  const stop = /^stop\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (stop) {
+    const why =
+      s.premix?.reading && !s.premix.reading.enough
+        ? `the premix tank ${pc.tank} read ${s.premix.reading.text}, below the minimum ${pc.minimum}`
+        : `before the first fill from the premix tank ${pc.tank}`;
+    return {
+      ...s,
+      phase: 'ended',
+      input: '',
+      effects: [
+        { kind: 'close', time: now, note: `stopped by ${stop[1]} before fill ${pc.fills[0]}: ${why}` },
+      ],
+      message: `stopped by ${stop[1]} before fill ${pc.fills[0]} (logged): ${why}`,
+    };
+  }
+  if (!s.premix?.mixedBy) return onPremixMixed(s, text, now);
+  return onPremixReading(s, text, now);
+}
+
+/** `mixed INITIALS`: the premix was mixed for the stated time (a `premix-mixed` event) */
+function onPremixMixed(s: FillState, text: string, now: string): FillState {
+  const pc = s.setup.premixCheck!;
+  const m = /^mixed\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      input: '',
+      error:
+        `type mixed and your initials (e.g. mixed AB) once the premix in ${pc.tank} was ` +
+        `${premixMixingWords(pc)}; stop INITIALS stops the batch here`,
+    };
+  return {
+    ...s,
+    input: '',
+    premix: { ...s.premix, mixedBy: m[1] },
+    effects: [
+      {
+        kind: 'premix-mixed',
+        tank: pc.tank,
+        by: m[1],
+        time: now,
+        note: `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${m[1]}`,
+      },
+    ],
+    message: `${m[1]} confirms the premix in ${pc.tank} was mixed (logged). Now read ${pc.tank}`,
+  };
+}
+
+/** the premix tank's reading with initials (a `premix-reading` event, logged even below the minimum) */
+function onPremixReading(s: FillState, text: string, now: string): FillState {
+  const pc = s.setup.premixCheck!;
+  const w = withInitials(text, `reading of ${pc.tank}`, `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} AB`);
+  if ('error' in w) return { ...s, input: '', error: `${w.error}; or stop INITIALS` };
+  const g = pc.gauge;
+  const unit: PressureUnit = g && isPressureUnit(g.unit) ? g.unit : 'Torr';
+  let shown: number;
+  try {
+    shown = READING_NUMBER.test(w.value)
+      ? parseQuantity(`${w.value} ${unit}`, 'pressure')
+      : parseQuantity(w.value, 'pressure');
+  } catch (e) {
+    if (!(e instanceof ProblemError)) throw e;
+    const p = e.problem;
+    const hinted = p.code === 'bad-quantity' || p.code === 'reading-missing' ? { ...p, bareUnit: unit } : p;
+    return { ...s, input: '', error: describeProblem(hinted) };
+  }
+  if (g && shown > g.fullScalePa)
+    return {
+      ...s,
+      input: '',
+      error:
+        `${fmtIn(shown, unit)} is past the range of ${g.id} (up to ${fmtIn(g.fullScalePa, unit)}): likely the ` +
+        'unit or a typing slip. The reading is not logged.',
+    };
+  const absolute = g?.reference === 'gauge' ? shown + s.barometerPa : shown;
+  if (!(absolute > 0))
+    return { ...s, input: '', error: `the premix tank's pressure must be above zero absolute; not logged` };
+  const textLogged = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
+  // the sheet's rule: the reading on the gauge at least the minimum printed (rounded up to its step)
+  const enough = absolute >= pc.minimumPa * (1 - 1e-12);
+  const ev: NewLogEvent = {
+    kind: 'premix-reading',
+    tank: pc.tank,
+    gauge: g?.id ?? 'none',
+    reading: textLogged,
+    pressure_Pa: absolute,
+    ...(g?.reference === 'gauge' ? { barometer_Pa: s.barometerPa } : {}),
+    minimum_Pa: pc.minimumPa,
+    enough,
+    by: w.by,
+    time: now,
+    ...(enough ? {} : { note: `below the minimum ${pc.minimum}: the batch does not draw from it` }),
+  };
+  const premix: PremixDone = {
+    ...s.premix,
+    reading: { text: textLogged, pressurePa: absolute, enough, by: w.by },
+  };
+  if (!enough)
+    return {
+      ...s,
+      input: '',
+      premix,
+      effects: [ev],
+      message: `REFUSED (the reading is logged): ${premixTooLow(s, pc, absolute)}`,
+    };
+  return enterStep({
+    ...s,
+    phase: 'reading',
+    input: '',
+    premix,
+    effects: [ev],
+    message:
+      `${pc.tank} reads ${textLogged} (logged by ${w.by}), at least the minimum ${pc.minimum}: ` +
+      `fill ${pc.fills[0]} may draw from it`,
+  });
 }

@@ -79,3 +79,29 @@ export function stageEndLines(header: LogHeader, report: CheckReport | undefined
   out.push(`  ${st.next_command ?? '(no command recorded)'}`);
   return out;
 }
+
+/**
+ * what a fill screen's title adds for a stage log: which stage, and which tank it fills (stage 1 the
+ * premix tank, stage 2 the batch's tank); empty for a single-tank batch
+ */
+export function stageTag(header: Pick<LogHeader, 'stage' | 'tank'>): string {
+  const st = header.stage;
+  if (!st) return '';
+  return st.number === 1
+    ? ` (stage 1 of 2: premix tank ${header.tank.id})`
+    : ` (stage 2 of 2: batch tank ${header.tank.id})`;
+}
+
+/** the title of every fill screen: the batch id, and for a stage log its stage and tank */
+export function fillTitle(header: Pick<LogHeader, 'id' | 'stage' | 'tank'>): string {
+  return `mixwright fill ${header.id}${stageTag(header)}`;
+}
+
+/** where the gas goes, on the reading screen: the premix tank of stage 1, the batch tank of stage 2 */
+export function intoTank(header: Pick<LogHeader, 'stage' | 'tank'>): string {
+  const st = header.stage;
+  if (!st) return '';
+  return st.number === 1
+    ? ` into premix tank ${header.tank.id} (the premix for batch ${st.batch})`
+    : ` into ${header.tank.id} (batch ${st.batch})`;
+}

@@ -30,7 +30,8 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
     try {
       t.start(`node ${BIN} fill ${RECIPE} --premix-tank MT-2 --batch b1 --dir batches`);
       let s = await t.waitFor(/fill 1 of 2/);
-      expect(s).toContain('mixwright fill b1-premix');
+      expect(s).toContain('mixwright fill b1-premix (stage 1 of 2: premix tank MT-2)');
+      expect(flat(s)).toContain('into premix tank MT-2 (the premix for batch b1)');
       // the plan's stage-1 targets (README two-stage table): Ar to 1636.8 Torr, then O2 to 1890.2 Torr
       expect(target(s)).toBe(1636.8);
       await t.type('1636.8');
@@ -64,6 +65,27 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       const batchLog = join(dir, 'batches', 'b1.jsonl');
       const typed: number[] = [];
       for (let k = 1; k <= 4; k++) {
+        if (k === 3) {
+          // before the first fill from the premix: was it mixed, and does MT-2 hold enough (logged)
+          s = flat(await t.waitFor(/THE\s+PREMIX\s+TANK\s+MT-2/));
+          expect(s).toMatch(/The premix in MT-2 mixed: stirred since its last fill/);
+          expect(s).toContain('read MT-2 on head-10kT: at least 621.7 Torr');
+          await t.type('mixed AB');
+          await t.keys('Enter');
+          await t.waitFor(/confirms\s+the\s+premix/);
+          await t.type('600 AB');
+          await t.keys('Enter');
+          s = flat(await t.waitFor(/REFUSED/));
+          expect(s).toContain('MT-2 reads 600.0 Torr on head-10kT, below the minimum 621.7 Torr');
+          await t.type('1890.2 AB');
+          await t.keys('Enter');
+          await t.waitFor(/STOP AT/);
+          expect(readLog(batchLog).premixReadings.map((r) => [r.reading, r.enough])).toEqual([
+            ['600 Torr', false],
+            ['1890.2 Torr', true],
+          ]);
+          expect(readLog(batchLog).premixMixed.map((r) => r.by)).toEqual(['AB']);
+        }
         s = await t.waitFor(new RegExp(`fill ${k} of 4`));
         expect(s).toContain('mixwright fill b1 ');
         typed.push(target(s));

@@ -62,11 +62,16 @@ describe('stage 1 header', () => {
       { file: '/x/batches/b1-premix.jsonl', id: 'b1-premix', sha256: 'a'.repeat(64) },
       '/x/batches/b1.jsonl',
     );
-    expect(s2.stage).toEqual({
+    const { premix_check, ...rest } = s2.stage!;
+    expect(rest).toEqual({
       number: 2,
       of: 2,
       batch: 'b1',
       premix_log: { file: 'b1-premix.jsonl', id: 'b1-premix', sha256: 'a'.repeat(64) },
     });
+    // the premix tank's check the fill asks before fill 3: the stage-2 sheet's row (README: at least
+    // 621.7 Torr on head-10kT before fill 3, planned 1890.2 Torr)
+    expect(premix_check).toMatchObject({ tank: 'MT-2', minimum: '621.7 Torr', fills: [3] });
+    expect(premix_check!.gauge!.id).toBe('head-10kT');
   });
 });

@@ -313,8 +313,19 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(s2.targetsPa[2] / TORR).toBeLessThanOrEqual(limitTorr * (1 + 1e-9));
     expect(s2.message).toMatch(/working limit/);
     expect(s2.judgement?.verdict).toBe('off-course');
-    expect(s2.capped).toMatchObject({ after: 2, step: 3, outside: expect.arrayContaining(['CH4', 'O2']) });
-    expect(s2.capped!.cost).toMatch(/The working limit costs: the tank ends at 2\d{3}\.\d+ Torr; x\(CH4\)/);
+    expect(s2.capped).toMatchObject({
+      after: 'after fill 2',
+      step: 3,
+      outside: expect.arrayContaining(['CH4', 'O2']),
+    });
+    // one capped final pressure, said the same way in the re-target's words, the cost and the choice
+    const final = s2.capped!.finalText;
+    expect(final).toMatch(/^2\d{3}\.\d Torr$/);
+    expect(s2.capped!.cost).toContain(
+      `The working limit costs: the tank ends at the capped final pressure ${final} (absolute); x(CH4)`,
+    );
+    expect(s2.message).toContain(`the final pressure is held at ${final} (design 1500 Torr), at least the last fill's band`);
+    expect(s2.message).not.toMatch(/held at 2\d{3}\.\d{2}/);
     // no way on without a logged choice: Enter, Esc, a bare word, initials missing
     for (const t of [enter(s2), fillReducer(s2, { type: 'escape' }), read(s2, 'go'), read(s2, 'ok AB')]) {
       expect(t.phase).toBe('capped');
@@ -342,6 +353,48 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(undo.effects).toEqual([expect.objectContaining({ kind: 'withdraw', step: 2, withdraws_line: 3 })]);
     expect(undo.current).toBe(1);
     expect(undo.capped).toBeUndefined();
+  });
+
+  it('a cap reached after a correction, an undo or a temperature change gets the same stop screen as after a reading', () => {
+    // fill 1 on target; fix 1: the CH4 was 20.02 Torr (100 % high): the diluent it needs passes the limit
+    const s1 = fillReducer(read(initialState(setupFromHeader(h)), '10.01'), {
+      type: 'logged',
+      step: 1,
+      line: 2,
+    });
+    const c = read(read(read(s1, 'fix 1 JD'), '20.02'), 'misread the head');
+    expect(c.effects.map((e) => e.kind)).toEqual(['correction']);
+    expect(c.phase).toBe('capped');
+    expect(c.capped).toMatchObject({ after: 'after the correction of fill 1', step: 2 });
+    expect(c.capped!.cost).toContain(`the capped final pressure ${c.capped!.finalText} (absolute)`);
+    // fills 1 and 2 read (Ar to 2660 Torr: the O2 still fits), then fill 1 corrected to 20.02 Torr: the
+    // final pressure gives (the Ar is in), no cap; undo of fill 2 leaves the CH4 alone: capped - the screen
+    const s2 = fillReducer(read(s1, '2660'), { type: 'logged', step: 2, line: 3 });
+    const c2 = fillReducer(read(read(read(s2, 'fix 1 JD'), '20.02'), 'misread'), {
+      type: 'logged',
+      step: 1,
+      line: 4,
+    });
+    expect(c2.phase).toBe('reading');
+    const u = read(read(c2, 'undo JD'), 'valve left open');
+    expect(u.effects.map((e) => e.kind)).toEqual(['withdraw']);
+    expect(u.phase).toBe('capped');
+    expect(u.capped).toMatchObject({ after: 'after the undo of fill 2', step: 2 });
+    expect(u.message).toMatch(/is withdrawn by JD \(reason: valve left open\)/);
+    // a warmer tank: the gas read at 2660 Torr at 25 degC is about 2687 Torr at 28 degC; its O2 then passes the cap
+    const w1 = read(read(initialState(setupFromHeader(h)), '10.01'), '2660');
+    expect(w1.phase).toBe('reading');
+    let t = tab(w1);
+    for (let i = 0; i < 12; i++) t = fillReducer(t, { type: 'backspace' });
+    const w = tab(type(t, '28 degC'));
+    expect(w.phase).toBe('capped');
+    expect(w.capped).toMatchObject({ after: 'at 28.0 degC', step: 3 });
+    // go: logged as for a reading
+    const go = read(w, 'go JD');
+    expect(go.effects[0]).toMatchObject({ kind: 'acknowledge', code: 'limit-cap', step: 3 });
+    expect((go.effects[0] as { note: string }).note).toContain(
+      `at 28.0 degC the remaining fills are held below the working limit`,
+    );
   });
 
   it('resumed after a capped re-target with no choice logged: the stop screen comes back; with the choice logged it does not', async () => {

@@ -1,0 +1,162 @@
+// Stage 2 of a two-stage fill: before the first fill from the premix, the fill asks that the premix
+// was mixed (initials, a `premix-mixed` event) and for the premix tank's reading against the minimum
+// the stage-2 sheet prints (a `premix-reading` event; below it the fill does not go on). Resume comes
+// back to the question still open; `check` reads such a log and its composition does not change.
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { planFrom } from '../../src/cli/plan-from.js';
+import { fileSha256, stage2Header } from '../../src/io/stage-log.js';
+import { parseLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
+import { checkLog } from '../../src/io/check.js';
+import { buildSheetModel } from '../../src/report/sheet-model.js';
+import { stageSheets } from '../../src/report/two-stage-sheet.js';
+import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { premixTargets, writePremixLog } from '../stage-logs.js';
+import { TORR } from '../helpers.js';
+
+const NOW = '2026-12-03T10:00:00Z';
+const type = (s: FillState, text: string) => fillReducer(s, { type: 'char', text });
+const enter = (s: FillState) => fillReducer(s, { type: 'enter', now: NOW });
+function step(s: FillState, text: string, log: NewLogEvent[]): FillState {
+  const n = enter(type(s, text));
+  log.push(...n.effects);
+  // the shell tells the reducer the line of each reading it wrote
+  return n.effects.reduce(
+    (acc, e) =>
+      e.kind === 'reading' ? fillReducer(acc, { type: 'logged', step: e.step, line: 2 + log.length }) : acc,
+    n,
+  );
+}
+const logOf = (h: LogHeader, events: readonly NewLogEvent[], file = 'b1.jsonl') =>
+  parseLog([h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', file);
+
+describe('stage 2: the premix check before the first fill from the premix', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-check-'));
+  const { file } = writePremixLog(dir, premixTargets, {});
+  const planned = planFrom('recipes/ch4-o2-ar-phi1.yaml', { premixLog: file });
+  const h = stage2Header(
+    planned.plan,
+    planned.req,
+    'b1',
+    '2026-12-03T09:40:00Z',
+    { file, id: 'b1-premix', sha256: fileSha256(file)! },
+    join(dir, 'b1.jsonl'),
+  );
+
+  it("the header carries the stage-2 sheet's own premix-tank row: at least 621.7 Torr on head-10kT before fill 3", () => {
+    const pc = h.stage!.premix_check!;
+    // README two-stage section: "at least 621.7 Torr on head-10kT before fill 3" (after the demo draw)
+    expect(pc).toMatchObject({ tank: 'MT-2', minimum: '621.7 Torr', fills: [3] });
+    expect(pc.gauge?.id).toBe('head-10kT');
+    expect(pc.minimum_Pa / TORR).toBeCloseTo(621.7, 9);
+    // the very row the sheet prints, from the same function and lab profile
+    const meta = {
+      recipe: planned.req.recipe,
+      labName: planned.req.lab.name,
+      orderRecommended: true,
+      unit: 'Torr' as const,
+      version: 't',
+      paper: 'a4' as const,
+      lab: {
+        gauges: planned.req.input.gauges,
+        reading: planned.req.input.reading,
+        tanks: planned.req.lab.tanks,
+      },
+    };
+    const sheet = stageSheets(planned.plan, meta, buildSheetModel).at(-1)!;
+    const row = sheet.rows.find((r) => r.check)!;
+    expect(row.n).toBe(3);
+    expect(`${row.check!.minimum} ${row.check!.unit}`).toBe(pc.minimum);
+    expect(row.check!.gauge).toBe(pc.gauge?.id);
+  });
+
+  it('asks mixed INITIALS, then the reading; below the minimum it is logged and refused with why and what to do; resume comes back to it', () => {
+    const log: NewLogEvent[] = [];
+    let s = initialState(setupFromHeader(h));
+    s = step(s, (s.targetsPa[0] / TORR).toFixed(2), log);
+    s = step(s, (s.targetsPa[1] / TORR).toFixed(2), log);
+    expect(s.current).toBe(2);
+    expect(s.phase).toBe('premix');
+    // a reading before the mixing is confirmed is not taken
+    const early = step(s, '1890.2 AB', []);
+    expect(early.phase).toBe('premix');
+    expect(early.effects).toEqual([]);
+    expect(early.error).toMatch(
+      /type mixed and your initials .* stirred since its last fill .* rested at least 7\.5 h/,
+    );
+    s = step(s, 'mixed AB', log);
+    expect(log.at(-1)).toMatchObject({ kind: 'premix-mixed', tank: 'MT-2', by: 'AB' });
+    expect(s.phase).toBe('premix');
+    s = step(s, '600 CD', log);
+    expect(log.at(-1)).toMatchObject({
+      kind: 'premix-reading',
+      tank: 'MT-2',
+      gauge: 'head-10kT',
+      enough: false,
+      by: 'CD',
+    });
+    expect(s.phase).toBe('premix');
+    expect(s.current).toBe(2);
+    expect(s.message).toMatch(
+      /^REFUSED \(the reading is logged\): MT-2 reads 600\.0 Torr on head-10kT, below the minimum 621\.7 Torr/,
+    );
+    expect(s.message).toMatch(
+      /would leave MT-2 below 572\.3\d* Torr .* make a new premix or a smaller batch/,
+    );
+    // Enter on a plain number: initials are asked
+    expect(step(s, '700', []).error).toMatch(/and then your initials/);
+
+    // stopped here and resumed: the mixing stays confirmed, the reading is asked again
+    const r = initialState(setupFromHeader(h), logOf(h, log), NOW);
+    expect(r.phase).toBe('premix');
+    expect(r.premix?.mixedBy).toBe('AB');
+    expect(r.premix?.reading?.enough).toBe(false);
+    const ok = step(r, '1890.2 CD', log);
+    expect(log.at(-1)).toMatchObject({ kind: 'premix-reading', enough: true });
+    expect(ok.phase).toBe('reading');
+    expect(ok.current).toBe(2);
+    expect(ok.message).toMatch(/MT-2 reads 1890\.2 Torr \(logged by CD\), at least the minimum 621\.7 Torr/);
+    // resumed after both: straight to fill 3
+    expect(initialState(setupFromHeader(h), logOf(h, log), NOW).phase).toBe('reading');
+  });
+
+  it('stop INITIALS closes the batch before the premix fill, saying why', () => {
+    const log: NewLogEvent[] = [];
+    let s = initialState(setupFromHeader(h));
+    s = step(s, (s.targetsPa[0] / TORR).toFixed(2), log);
+    s = step(s, (s.targetsPa[1] / TORR).toFixed(2), log);
+    s = step(step(s, 'mixed AB', log), '600 AB', log);
+    const end = step(s, 'stop AB', log);
+    expect(end.phase).toBe('ended');
+    expect(log.at(-1)).toMatchObject({ kind: 'close' });
+    expect((log.at(-1) as { note: string }).note).toMatch(
+      /before fill 3: the premix tank MT-2 read 600 Torr, below the minimum 621\.7 Torr/,
+    );
+  });
+
+  it('check reads a log with the premix check: the same composition as without it', async () => {
+    const log: NewLogEvent[] = [];
+    let s = initialState(setupFromHeader(h));
+    for (let k = 0; k < 2; k++) s = step(s, (s.targetsPa[k] / TORR).toFixed(2), log);
+    s = step(step(s, 'mixed AB', log), '1890.2 AB', log);
+    for (let k = 2; k < 4; k++) s = step(s, (s.targetsPa[k] / TORR).toFixed(2), log);
+    expect(s.phase).toBe('done');
+    const withCheck = logOf(h, log, join(dir, 'b1.jsonl'));
+    expect(withCheck.premixMixed).toHaveLength(1);
+    expect(withCheck.premixReadings).toHaveLength(1);
+    const without = logOf(
+      h,
+      log.filter((e) => e.kind !== 'premix-mixed' && e.kind !== 'premix-reading'),
+      join(dir, 'b1.jsonl'),
+    );
+    const a = await checkLog(withCheck, { trials: 0, seed: 1 });
+    const b = await checkLog(without, { trials: 0, seed: 1 });
+    for (const k of a.result.species) {
+      expect(a.result.composition[k].value).toBe(b.result.composition[k].value);
+      expect(a.result.composition[k].u).toBe(b.result.composition[k].u);
+    }
+    expect(a.verdict.verdict).toBe(b.verdict.verdict);
+  });
+});
