@@ -49,6 +49,21 @@ describe('architecture', () => {
     }
   });
 
+  it('zod is imported only by src/io/zod.ts, which configures it before any schema is built', () => {
+    let configured = 0;
+    for (const f of files('src')) {
+      const text = readFileSync(f, 'utf8');
+      // a type-only import builds nothing
+      const values = [...text.matchAll(/^\s*import\s+(?!type\b)[^'"]*from\s+['"]zod['"]/gm)];
+      if (f.replace(/\\/g, '/') === 'src/io/zod.ts') {
+        expect(values.length).toBe(1);
+        expect(text).toMatch(/z\.config\(\{ jitless: true \}\)/);
+        configured++;
+      } else expect(values.length, `${f} imports zod itself`).toBe(0);
+    }
+    expect(configured).toBe(1);
+  });
+
   it('ink and react are not imported by the non-interactive commands', () => {
     for (const f of ['src/cli', 'src/report', 'src/io'].flatMap(files)) {
       for (const spec of importsOf(f))

@@ -66,15 +66,38 @@ function fitCeilingK(n: Fractions): number {
   return hi;
 }
 
-/** solve f(T) = target for T by bisection on [lo, hi]; f increasing. Returns hi when even hi falls short. */
+/** the temperature tolerance of the flame temperatures here, K */
+const FLAME_TOLERANCE_K = 1e-6;
+
+/**
+ * solve f(T) = target for T on [lo, hi], f increasing, to FLAME_TOLERANCE_K: the Illinois variant
+ * of regula falsi (Dowell & Jarratt, BIT 11, 168 (1971)), as the equilibrium roots. Returns hi
+ * when even hi falls short, lo when lo is already past the target.
+ */
 function solveIncreasing(f: (t: number) => number, target: number, lo: number, hi: number): number {
   let a = lo;
   let b = hi;
-  for (let i = 0; i < 100; i++) {
-    const m = (a + b) / 2;
-    if (f(m) < target) a = m;
-    else b = m;
-    if (b - a < 1e-6) break;
+  let fa = f(a) - target;
+  let fb = f(b) - target;
+  if (fb < 0) return hi;
+  if (fa >= 0) return lo;
+  let side = 0;
+  for (let i = 0; i < 100 && b - a >= FLAME_TOLERANCE_K; i++) {
+    let m = b - (fb * (b - a)) / (fb - fa);
+    if (!(m > a && m < b)) m = (a + b) / 2;
+    const fm = f(m) - target;
+    if (fm === 0) return m;
+    if (fm < 0) {
+      a = m;
+      fa = fm;
+      if (side === -1) fb /= 2;
+      side = -1;
+    } else {
+      b = m;
+      fb = fm;
+      if (side === 1) fa /= 2;
+      side = 1;
+    }
   }
   return (a + b) / 2;
 }

@@ -7,7 +7,7 @@ import type { Fractions } from './composition.js';
 import { diagramPoint } from './flammability.js';
 import { getSpecies } from './lookup.js';
 import { oxygenDemand } from './formula.js';
-import { equilibriumWorkspace, rootOfIncreasing } from './equilibrium.js';
+import { equilibriumWorkspace } from './equilibrium.js';
 import { rootNear } from './root-increasing.js';
 import { fail } from './problems.js';
 import { DETONATION_LIMITS, type DetonationLimits } from './data/detonation-data.js';
@@ -33,6 +33,18 @@ export interface ChapmanJouguet {
 }
 
 const cjCache = new Map<string, ChapmanJouguet>();
+
+/**
+ * how closely the CJ state is located: the density ratio (Brent's minimisation) and each
+ * Hugoniot temperature (K). 'quick' is for a severity that is clearly on one side of a limit
+ * (explosion-review.ts): its reflected pressure is within 1e-3 relative of the full one on the
+ * reference states (tests/core/detonation-quick.test.ts).
+ */
+const CJ_PRECISION = {
+  full: { ratio: 1e-5, temperatureK: 1e-5 },
+  quick: { ratio: 1e-2, temperatureK: 0.05 },
+} as const;
+export type CjPrecision = keyof typeof CJ_PRECISION;
 
 /** Brent's minimisation (golden section with parabolic steps) of a unimodal f on [a, b], to tolerance tol in x */
 function minimise(f: (x: number) => number, a: number, b: number, tol: number): number {
@@ -95,7 +107,8 @@ function minimise(f: (x: number) => number, a: number, b: number, tol: number): 
  * the equilibrium state (T2, v2 = v1/r) satisfies h2 - h1 = (P2 - P1)(v1 + v2)/2, the
  * wave speed is w1^2 = (P2 - P1)/(rho1^2 (v1 - v2)), and the CJ state is the r that
  * minimises w1 (the Rayleigh line tangent to the Hugoniot, where the products move at
- * the equilibrium sound speed). Brent's minimisation in r over 1.1-3.2.
+ * the equilibrium sound speed). Brent's minimisation in r over 1.1-3.2 (`precision`: how
+ * closely, CJ_PRECISION).
  * y: initial mole fractions; temperatureK, pressurePa: initial state. Ideal gas.
  * Example: chapmanJouguet({ H2: 0.42 / 1.42, O2: 0.21 / 1.42, N2: 0.79 / 1.42 }, 298.15, 1e5)
  *   -> { pressurePa: 15.58 bar, temperatureK: 2944 K, velocityMPerS: 1969 m/s } (stoichiometric H2-air from
@@ -103,8 +116,14 @@ function minimise(f: (x: number) => number, a: number, b: number, tol: number): 
  * Refuses (ProblemError) species without equilibrium data and states without a Hugoniot
  * in range (too little fuel to burn).
  */
-export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: number): ChapmanJouguet {
-  const key = `${temperatureK.toPrecision(12)}|${pressurePa.toPrecision(12)}|${Object.entries(y)
+export function chapmanJouguet(
+  y: Fractions,
+  temperatureK: number,
+  pressurePa: number,
+  precision: CjPrecision = 'full',
+): ChapmanJouguet {
+  const tol = CJ_PRECISION[precision];
+  const key = `${precision}|${temperatureK.toPrecision(12)}|${pressurePa.toPrecision(12)}|${Object.entries(y)
     .filter(([, v]) => v > 0)
     .sort(([a], [b]) => (a < b ? -1 : 1))
     .map(([k, v]) => `${k}:${v.toPrecision(12)}`)
@@ -134,8 +153,8 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
     if (last && before && last.r !== before.r) {
       // the Hugoniot temperature is smooth in r: from the line through the last two points
       const guess = last.t + ((last.t - before.t) / (last.r - before.r)) * (r - last.r);
-      t = rootNear(f, temperatureK, 6000, guess, 1e-5, 1);
-    } else t = rootOfIncreasing(f, temperatureK, 6000, tGuess, 1e-5, firstStep);
+      t = rootNear(f, temperatureK, 6000, guess, tol.temperatureK, 1);
+    } else t = rootNear(f, temperatureK, 6000, tGuess, tol.temperatureK, firstStep);
     if (t === undefined)
       return fail({
         code: 'equilibrium-not-converged',
@@ -151,7 +170,7 @@ export function chapmanJouguet(y: Fractions, temperatureK: number, pressurePa: n
     done.set(r, out);
     return out;
   };
-  const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, 1e-5);
+  const r = minimise((x) => hugoniot(x).w2, 1.1, 3.2, tol.ratio);
   const h = hugoniot(r);
   const out = {
     pressurePa: h.p2,

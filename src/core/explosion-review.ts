@@ -65,33 +65,64 @@ export function closedVesselFinding(
 }
 
 /**
+ * the quick CJ estimate's reflected pressure differs from the full one by far less than this
+ * share (tests/core/detonation-quick.test.ts measures it), so a quick estimate further than
+ * this from the working limit is on the same side of it as the full one
+ */
+export const QUICK_CJ_MARGIN = 0.02;
+
+/** the reflected pressure by the quick CJ estimate when it is clearly on one side of the limit, else undefined */
+function quickReflected(s: StateLike, temperatureK: number, limitPa: number): number | undefined {
+  let r: number;
+  try {
+    r = chapmanJouguet(s.composition, temperatureK, s.pressurePa, 'quick').reflectedPa;
+  } catch (e) {
+    if (e instanceof ProblemError) return undefined; // the full search says why
+    throw e;
+  }
+  return Math.abs(r - limitPa) > QUICK_CJ_MARGIN * limitPa ? r : undefined;
+}
+
+/**
  * detonation finding of a flammable state, or none. Severity: undiluted fuel/O2 inside the
  * limits is a danger whatever the rating (common practice); a diluted detonable state is a
  * danger when the reflected pressure exceeds the working limit, else a warning with the numbers.
+ * `detail` 'severity' (the order advice and the sequence search) gives the severity without the
+ * CJ numbers, by the quick estimate where that decides it.
  */
 export function detonationFinding(
   s: StateLike,
   temperatureK: number,
   workingLimitPa: number | undefined,
   step: number | undefined,
+  detail: 'full' | 'severity' = 'full',
 ): Finding | undefined {
   const d = detonability(s.composition);
   if (!d.detonable) return undefined;
   let cj: Record<string, number> = {};
   let cjMissing: string | undefined;
   let reflectedPa: number | undefined;
-  try {
-    const c = chapmanJouguet(s.composition, temperatureK, s.pressurePa);
-    reflectedPa = c.reflectedPa;
-    cj = {
-      cjPa: c.pressurePa,
-      cjK: c.temperatureK,
-      cjVelocityMPerS: c.velocityMPerS,
-      reflectedPa: c.reflectedPa,
-    };
-  } catch (e) {
-    cjMissing = why(e);
-  }
+  // the severity alone: undiluted, or no working limit, needs no CJ state; else the quick estimate
+  // decides unless it is within QUICK_CJ_MARGIN of the limit (then the full one)
+  const quick = detail === 'severity';
+  if (!quick || (!d.undiluted && workingLimitPa !== undefined))
+    try {
+      const c = quick ? quickReflected(s, temperatureK, workingLimitPa!) : undefined;
+      if (c !== undefined) reflectedPa = c;
+      else {
+        const c = chapmanJouguet(s.composition, temperatureK, s.pressurePa);
+        reflectedPa = c.reflectedPa;
+        if (!quick)
+          cj = {
+            cjPa: c.pressurePa,
+            cjK: c.temperatureK,
+            cjVelocityMPerS: c.velocityMPerS,
+            reflectedPa: c.reflectedPa,
+          };
+      }
+    } catch (e) {
+      cjMissing = why(e);
+    }
   // without a CJ estimate, or without a rating, the tank cannot be shown to hold it: danger for undiluted, else warning
   const over = workingLimitPa !== undefined && reflectedPa !== undefined && reflectedPa > workingLimitPa;
   const severity = d.undiluted || over ? 'danger' : 'warning';

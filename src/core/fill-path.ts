@@ -334,6 +334,7 @@ export function detonableStretchFinding(
   temperatureK: number,
   workingLimitPa: number | undefined,
   step: number | undefined,
+  detail: 'full' | 'severity' = 'full',
 ): Extract<Finding, { code: 'detonable-state' }> | undefined {
   const judge = (p: PathPoint) =>
     detonationFinding(
@@ -341,6 +342,7 @@ export function detonableStretchFinding(
       temperatureK,
       workingLimitPa,
       step,
+      detail,
     ) as Extract<Finding, { code: 'detonable-state' }> | undefined;
   // undiluted anywhere: a danger whatever the numbers; the first such point carries them
   const undiluted = points.find((p) => detonability(p.composition).undiluted);
@@ -348,9 +350,12 @@ export function detonableStretchFinding(
   let worst: Extract<Finding, { code: 'detonable-state' }> | undefined;
   const rank = (f: Extract<Finding, { code: 'detonable-state' }>) =>
     f.severity === 'danger' ? 2 : f.severity === 'warning' ? 1 : 0;
-  for (const p of points) {
+  // the severity alone: the highest pressures first, and the first danger settles it
+  const order = detail === 'severity' ? [...points].sort((a, b) => b.pressurePa - a.pressurePa) : points;
+  for (const p of order) {
     const f = judge(p);
     if (!f) continue;
+    if (detail === 'severity' && f.severity === 'danger') return f;
     if (
       !worst ||
       rank(f) > rank(worst) ||
@@ -365,8 +370,9 @@ export function detonableStretchFinding(
  * Findings of a fill's path: a bulk path that is flammable (or detonable) where
  * neither end state is is judged like such a state, at its worst point; an inlet that
  * is flammable where neither the bulk path nor the end states are is a warning.
- * `locate` false bisects the boundaries 4 times instead of 9 (the order search needs
- * the severities, not the exact pressure range).
+ * `locate` false bisects the boundaries 4 times instead of 9 and judges a detonable stretch
+ * for its severity alone (the order search needs the severities, not the exact pressure range
+ * or the CJ numbers).
  */
 export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true): Finding[] {
   const out: Finding[] = [];
@@ -378,7 +384,13 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
     // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
     const det =
       bulk.rank === 2
-        ? detonableStretchFinding(bulk.detonable, ctx.temperatureK, ctx.workingLimitPa, e.step)
+        ? detonableStretchFinding(
+            bulk.detonable,
+            ctx.temperatureK,
+            ctx.workingLimitPa,
+            e.step,
+            locate ? 'full' : 'severity',
+          )
         : undefined;
     out.push({
       severity: bulk.rank === 2 ? (det?.severity ?? 'danger') : 'warning',

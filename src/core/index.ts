@@ -148,7 +148,12 @@ export {
   UNDILUTED_INERT_BELOW,
 } from './data/detonation-data.js';
 export type { DetonationLimits } from './data/detonation-data.js';
-export { closedVesselFinding, detonationFinding, equilibriumFlameK } from './explosion-review.js';
+export {
+  closedVesselFinding,
+  detonationFinding,
+  equilibriumFlameK,
+  QUICK_CJ_MARGIN,
+} from './explosion-review.js';
 export { antoinePa, leeKeslerPa, saturationPressure, wagnerPa, waterPsatPa } from './vapour-pressure.js';
 export type { Psat, PsatMethod } from './vapour-pressure.js';
 export { reviewFill, reviewFillSequence, reviewState } from './safety.js';
@@ -156,6 +161,7 @@ export { detonableByRule } from './safety.js';
 export {
   bulkPressure,
   mix,
+  detonableStretchFinding,
   reviewBulkPath,
   reviewFillPath,
   reviewInlet,

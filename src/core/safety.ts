@@ -129,7 +129,7 @@ export function reviewState(
   if (a.verdict === 'flammable') {
     out.push({ severity: 'warning', code: s.final ? 'flammable-mixture' : 'flammable-state', step, ...nums });
     // detonation and closed-vessel pressure: flammable states only (explosion-review.ts)
-    const det = detonationFinding(s, ctx.temperatureK, ctx.workingLimitPa, step);
+    const det = detonationFinding(s, ctx.temperatureK, ctx.workingLimitPa, step, detail);
     if (det) out.push(det);
     out.push(closedVesselFinding(s, ctx.temperatureK, ctx.workingLimitPa, step));
   } else if (a.verdict === 'near-limit') {

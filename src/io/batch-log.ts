@@ -71,7 +71,7 @@ import {
 } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { readTextFile } from './read-text.js';
-import { z } from 'zod';
+import { z } from './zod.js';
 import { fail, ProblemError } from '../core/index.js';
 import type { Gauge, GasSource, LogFault, Problem } from '../core/index.js';
 import { fsyncFolder, writeAllSync, writeCauseCodeAfter as writeCauseOf, writeFileAtomic } from './atomic.js';

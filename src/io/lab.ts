@@ -2,7 +2,7 @@
  * The lab profile (YAML): tanks, gauges, cylinders, the barometer and the air
  * composition. An embedded demo profile (io/demo-lab.ts) serves when none is given.
  */
-import { z } from 'zod';
+import { z } from './zod.js';
 import { blendSchema, quantity } from './recipe.js';
 import { PRESSURE_UNITS } from './quantity.js';
 

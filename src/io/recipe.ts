@@ -2,7 +2,7 @@
  * The recipe file (YAML): one mixture design and how to fill it. Validated with
  * zod; `mixwright schema recipe` prints the JSON Schema for editors.
  */
-import { z } from 'zod';
+import { z } from './zod.js';
 
 /** a quantity field: a string with a number and a unit (parsed later, with its line) */
 export const quantity = (what: string, example: string) =>

@@ -1,6 +1,6 @@
 /** `mixwright species`, `schema` and `demo-lab`: the data and formats the tool reads, printed. */
 import type { Command } from 'commander';
-import { z } from 'zod';
+import { z } from '../../io/zod.js';
 import { ProblemError } from '../../core/index.js';
 import { DEMO_LAB_YAML } from '../../io/demo-lab.js';
 import { labSchema } from '../../io/lab.js';

@@ -113,6 +113,9 @@ export function pressureWith(basis: PlanBasis, gas: TankGas, source: GasSource, 
 
 /** bisections of the stop amount: [0, allocation] to 2^-64 of it, below double precision */
 const STOP_BISECTIONS = 64;
+/** secant steps before the bisection, until a step is within STOP_NARROW of the amount */
+const STOP_SECANTS = 30;
+const STOP_NARROW = 1e-15;
 
 /** the mol of `source` that bring the tank gas to `stopPa` (between 0 and `maxMol`, P rising with it) */
 function molToStop(
@@ -124,6 +127,27 @@ function molToStop(
 ): number {
   let lo = 0;
   let hi = maxMol;
+  // the bracket narrowed first around the secant method's root (P is smooth and nearly linear
+  // in the amount): kept only when P(lo) < stopPa <= P(hi) holds at its ends, as the bisection
+  // keeps it; the bisection then finishes it (or does all of it when the secant does not converge)
+  const f = (mol: number) => pressureWith(basis, gas, source, mol) - stopPa;
+  const fLo = f(lo);
+  const fHi = f(hi);
+  if (fLo < 0 && fHi >= 0) {
+    let x0 = lo;
+    let f0 = fLo;
+    let x1 = hi - (fHi * (hi - lo)) / (fHi - fLo);
+    let f1 = f(x1);
+    for (let i = 0; i < STOP_SECANTS && f1 !== 0 && Math.abs(x1 - x0) > STOP_NARROW * Math.abs(x1); i++) {
+      const x2 = x1 - (f1 * (x1 - x0)) / (f1 - f0);
+      if (!Number.isFinite(x2)) break;
+      [x0, f0, x1, f1] = [x1, f1, x2, f(x2)];
+    }
+    const d = 2 * Math.abs(x1 - x0) + STOP_NARROW * Math.abs(x1);
+    const a = Math.max(lo, x1 - d);
+    const b = Math.min(hi, x1 + d);
+    if (a < b && f(a) < 0 && f(b) >= 0) [lo, hi] = [a, b];
+  }
   for (let i = 0; i < STOP_BISECTIONS && hi > lo; i++) {
     const mid = (lo + hi) / 2;
     if (mid === lo || mid === hi) break;
