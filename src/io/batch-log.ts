@@ -80,167 +80,186 @@ import { chargesOf, type ChargeOf } from '../report/charges.js';
 export const LOG_FORMAT = 'mixwright-batch/2';
 const LOG_VERSION = 2;
 
-const fractions = z.record(z.string(), z.number().min(0).max(1));
+/** a value built on first use, then kept: the log's zod schemas cost start-up, and most commands
+ * (plan, sheet) never read a log */
+function lazy<T>(build: () => T): () => T {
+  let value: T | undefined;
+  return () => (value ??= build());
+}
 
-const gaugeSchema = z.object({
-  id: z.string(),
-  label: z.string(),
-  reference: z.enum(['absolute', 'gauge']),
-  full_scale_Pa: z.number().positive(),
-  minimum_Pa: z.number(),
-  accuracy_of_reading: z.number().min(0),
-  accuracy_of_full_scale: z.number().min(0),
-  resolution_Pa: z.number().min(0),
-  unit: z.string(),
-});
+const fractions = lazy(() => z.record(z.string(), z.number().min(0).max(1)));
+
+const gaugeSchema = lazy(() =>
+  z.object({
+    id: z.string(),
+    label: z.string(),
+    reference: z.enum(['absolute', 'gauge']),
+    full_scale_Pa: z.number().positive(),
+    minimum_Pa: z.number(),
+    accuracy_of_reading: z.number().min(0),
+    accuracy_of_full_scale: z.number().min(0),
+    resolution_Pa: z.number().min(0),
+    unit: z.string(),
+  }),
+);
 
 /** charge `number` of the `of` charges of a split source (1 of 1 for a source filled once) */
-const chargeSchema = z
-  .object({ number: z.number().int().positive(), of: z.number().int().positive() })
-  .refine((c) => c.number <= c.of, { message: 'the charge number is above the number of charges' });
+const chargeSchema = lazy(() =>
+  z
+    .object({ number: z.number().int().positive(), of: z.number().int().positive() })
+    .refine((c) => c.number <= c.of, { message: 'the charge number is above the number of charges' }),
+);
 
-const sourceSchema = z.object({
-  id: z.string(),
-  label: z.string(),
-  kind: z.enum(['cylinder', 'premix', 'vapour', 'in-tank']),
-  composition: fractions,
-  unidentified: z.number().min(0).max(1),
-  main_species: z.string(),
-});
+const sourceSchema = lazy(() =>
+  z.object({
+    id: z.string(),
+    label: z.string(),
+    kind: z.enum(['cylinder', 'premix', 'vapour', 'in-tank']),
+    composition: fractions(),
+    unidentified: z.number().min(0).max(1),
+    main_species: z.string(),
+  }),
+);
 
 /**
  * The stage of a two-stage preparation a log records: stage 1 the premix (`next_command` fills the
  * batch from it), stage 2 the batch (`premix_log` names the premix log and the sha256 of its bytes
  * when the batch was started from it). Optional: a log without it is a single-tank batch.
  */
-const stageSchema = z.object({
-  number: z.union([z.literal(1), z.literal(2)]),
-  of: z.literal(2),
-  /** the batch id both stages belong to */
-  batch: z.string().min(1),
-  next_command: z.string().optional(),
-  premix_log: z
-    .object({ file: z.string().min(1), id: z.string(), sha256: z.string().regex(/^[0-9a-f]{64}$/) })
-    .optional(),
-  /** stage 1: the premix tank's height and stirrer (lab profile), for the mixing time of the end screen */
-  premix_tank: z.object({ height_m: z.number().positive(), stirred: z.boolean() }).optional(),
-  /**
-   * stage 2: the premix tank's check before the first fill from it, as the stage-2 sheet prints it
-   * (report/two-stage-sheet.ts premixTankCheck); the guided fill asks for it. Absent in older logs.
-   */
-  premix_check: z
-    .object({
-      tank: z.string(),
-      /** the gauge to read the premix tank on (null: no gauge of the lab profile covers it) */
-      gauge: gaugeSchema.nullable(),
-      /** the lowest reading allowed on that gauge, rounded up to its display step, with its unit */
-      minimum: z.string(),
-      /** that minimum as an absolute pressure (gauge-referenced: + the barometer the plan assumed) */
-      minimum_Pa: z.number().positive(),
-      planned_Pa: z.number().positive(),
-      /** the settled premix-tank pressure that must remain after the draw, and the batch reading it serves */
-      required_Pa: z.number().positive(),
-      target_Pa: z.number().positive(),
-      delivered_mol: z.number().min(0),
-      /** the batch's fills from the premix (the check comes before the first) */
-      fills: z.array(z.number().int().positive()).min(1),
-      /** stirred (lab profile), and diffusion alone to 0.1 % at the premix pressure, s */
-      mixing: z.object({ stirred: z.boolean(), rest_s: z.number().positive() }).optional(),
-    })
-    .optional(),
-});
+const stageSchema = lazy(() =>
+  z.object({
+    number: z.union([z.literal(1), z.literal(2)]),
+    of: z.literal(2),
+    /** the batch id both stages belong to */
+    batch: z.string().min(1),
+    next_command: z.string().optional(),
+    premix_log: z
+      .object({ file: z.string().min(1), id: z.string(), sha256: z.string().regex(/^[0-9a-f]{64}$/) })
+      .optional(),
+    /** stage 1: the premix tank's height and stirrer (lab profile), for the mixing time of the end screen */
+    premix_tank: z.object({ height_m: z.number().positive(), stirred: z.boolean() }).optional(),
+    /**
+     * stage 2: the premix tank's check before the first fill from it, as the stage-2 sheet prints it
+     * (report/two-stage-sheet.ts premixTankCheck); the guided fill asks for it. Absent in older logs.
+     */
+    premix_check: z
+      .object({
+        tank: z.string(),
+        /** the gauge to read the premix tank on (null: no gauge of the lab profile covers it) */
+        gauge: gaugeSchema().nullable(),
+        /** the lowest reading allowed on that gauge, rounded up to its display step, with its unit */
+        minimum: z.string(),
+        /** that minimum as an absolute pressure (gauge-referenced: + the barometer the plan assumed) */
+        minimum_Pa: z.number().positive(),
+        planned_Pa: z.number().positive(),
+        /** the settled premix-tank pressure that must remain after the draw, and the batch reading it serves */
+        required_Pa: z.number().positive(),
+        target_Pa: z.number().positive(),
+        delivered_mol: z.number().min(0),
+        /** the batch's fills from the premix (the check comes before the first) */
+        fills: z.array(z.number().int().positive()).min(1),
+        /** stirred (lab profile), and diffusion alone to 0.1 % at the premix pressure, s */
+        mixing: z.object({ stirred: z.boolean(), rest_s: z.number().positive() }).optional(),
+      })
+      .optional(),
+  }),
+);
 
-export const headerSchema = z.object({
-  kind: z.literal('batch'),
-  format: z.string(),
-  id: z.string().min(1),
-  created: z.string(),
-  lab: z.string(),
-  tank: z.object({
-    id: z.string(),
-    volume_m3: z.number().positive(),
-    rated_pressure_Pa: z.number().positive().nullable(),
-    /** rating x working fraction; absent in /1 logs (then the rating is the limit) */
-    working_limit_Pa: z.number().positive().nullable().optional(),
-  }),
-  design: z.object({
-    composition: fractions,
-    phi: z.number().nullable(),
-    diluent: z.array(z.string()),
-    diluent_fraction: z.number(),
-  }),
-  tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
-  temperature_K: z.number().positive(),
-  final_pressure_Pa: z.number().positive(),
-  barometer: z.object({ pressure_Pa: z.number().positive(), u_Pa: z.number().min(0) }),
-  thermometer: z.object({
-    u_K: z.number().min(0),
-    resolution_K: z.number().min(0),
-    /** gas-thermometer difference after settling (K, rectangular half-width); older logs lack it */
-    settling_K: z.number().min(0).optional(),
-  }),
-  gauges: z.array(gaugeSchema),
-  sources: z.array(sourceSchema),
-  steps: z.array(
-    z.object({
-      step: z.number().int().positive(),
-      source: z.string(),
-      species: z.string(),
-      target_Pa: z.number(),
-      band_Pa: z.number(),
-      gauge: z.string().nullable(),
-      /** absent in logs made before split charges: then counted from the sources (chargesOfHeader) */
-      charge: chargeSchema.optional(),
+export const headerSchema = lazy(() =>
+  z.object({
+    kind: z.literal('batch'),
+    format: z.string(),
+    id: z.string().min(1),
+    created: z.string(),
+    lab: z.string(),
+    tank: z.object({
+      id: z.string(),
+      volume_m3: z.number().positive(),
+      rated_pressure_Pa: z.number().positive().nullable(),
+      /** rating x working fraction; absent in /1 logs (then the rating is the limit) */
+      working_limit_Pa: z.number().positive().nullable().optional(),
     }),
-  ),
-  /** top-up: the gas the plan assumed already in the tank */
-  in_tank: z.object({ composition: fractions, pressure_Pa: z.number().positive() }).nullable().optional(),
-  recipe: z.unknown().optional(),
-  /**
-   * the premix logs this batch draws from: the source id the steps name, the premix log's path
-   * relative to this log's folder, and the hash link (chain) of its last entry when the batch was
-   * planned; absent in logs of batches without one
-   */
-  premix_logs: z
-    .array(
+    design: z.object({
+      composition: fractions(),
+      phi: z.number().nullable(),
+      diluent: z.array(z.string()),
+      diluent_fraction: z.number(),
+    }),
+    tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
+    temperature_K: z.number().positive(),
+    final_pressure_Pa: z.number().positive(),
+    barometer: z.object({ pressure_Pa: z.number().positive(), u_Pa: z.number().min(0) }),
+    thermometer: z.object({
+      u_K: z.number().min(0),
+      resolution_K: z.number().min(0),
+      /** gas-thermometer difference after settling (K, rectangular half-width); older logs lack it */
+      settling_K: z.number().min(0).optional(),
+    }),
+    gauges: z.array(gaugeSchema()),
+    sources: z.array(sourceSchema()),
+    steps: z.array(
       z.object({
+        step: z.number().int().positive(),
         source: z.string(),
-        path: z.string().min(1),
-        last_entry_sha256: z.string().regex(/^[0-9a-f]{64}$/),
+        species: z.string(),
+        target_Pa: z.number(),
+        band_Pa: z.number(),
+        gauge: z.string().nullable(),
+        /** absent in logs made before split charges: then counted from the sources (chargesOfHeader) */
+        charge: chargeSchema().optional(),
       }),
-    )
-    .optional(),
-  /** two-stage preparation: which stage this log records (absent: a single-tank batch; io/stage-log.ts) */
-  stage: stageSchema.optional(),
-  /**
-   * the plan's safety-review settings the guided fill reviews its re-targeted remainder with (coldest
-   * wetted temperature, condensation fraction); absent in older logs (then the fill temperature and 0.5)
-   */
-  safety: z
-    .object({
-      coldest_K: z.number().positive().optional(),
-      condensation_fraction: z.number().positive().max(1).optional(),
-    })
-    .optional(),
-  findings: z
-    .array(
-      z.object({
-        severity: z.enum(['danger', 'warning', 'note']),
-        code: z.string(),
-        step: z.number().nullable(),
-        message: z.string(),
-      }),
-    )
-    .optional(),
-});
+    ),
+    /** top-up: the gas the plan assumed already in the tank */
+    in_tank: z.object({ composition: fractions(), pressure_Pa: z.number().positive() }).nullable().optional(),
+    recipe: z.unknown().optional(),
+    /**
+     * the premix logs this batch draws from: the source id the steps name, the premix log's path
+     * relative to this log's folder, and the hash link (chain) of its last entry when the batch was
+     * planned; absent in logs of batches without one
+     */
+    premix_logs: z
+      .array(
+        z.object({
+          source: z.string(),
+          path: z.string().min(1),
+          last_entry_sha256: z.string().regex(/^[0-9a-f]{64}$/),
+        }),
+      )
+      .optional(),
+    /** two-stage preparation: which stage this log records (absent: a single-tank batch; io/stage-log.ts) */
+    stage: stageSchema().optional(),
+    /**
+     * the plan's safety-review settings the guided fill reviews its re-targeted remainder with (coldest
+     * wetted temperature, condensation fraction); absent in older logs (then the fill temperature and 0.5)
+     */
+    safety: z
+      .object({
+        coldest_K: z.number().positive().optional(),
+        condensation_fraction: z.number().positive().max(1).optional(),
+      })
+      .optional(),
+    findings: z
+      .array(
+        z.object({
+          severity: z.enum(['danger', 'warning', 'note']),
+          code: z.string(),
+          step: z.number().nullable(),
+          message: z.string(),
+        }),
+      )
+      .optional(),
+  }),
+);
 
-const chain = z
-  .string()
-  .regex(/^[0-9a-f]{64}$/)
-  .optional();
-const initials = z.string().trim().min(1).max(16);
+const chain = lazy(() =>
+  z
+    .string()
+    .regex(/^[0-9a-f]{64}$/)
+    .optional(),
+);
+const initials = lazy(() => z.string().trim().min(1).max(16));
 
-const readingFields = {
+const readingFields = lazy(() => ({
   step: z.number().int().positive(),
   source: z.string(),
   gauge: z.string(),
@@ -250,170 +269,195 @@ const readingFields = {
   temperature: z.string(),
   temperature_K: z.number().positive(),
   time: z.string(),
-  by: initials.optional(),
+  by: initials().optional(),
   note: z.string().optional(),
   /** which charge of its source the step is; absent in logs made before split charges */
-  charge: chargeSchema.optional(),
-  chain,
-};
+  charge: chargeSchema().optional(),
+  chain: chain(),
+}));
 
-const readingSchema = z.object({ kind: z.literal('reading'), ...readingFields });
-const correctionSchema = z.object({
-  kind: z.literal('correction'),
-  ...readingFields,
-  reason: z.string().optional(),
-  replaces_line: z.number().int().positive().optional(),
-});
-const withdrawSchema = z.object({
-  kind: z.literal('withdraw'),
-  step: z.number().int().positive(),
-  withdraws_line: z.number().int().positive(),
-  by: initials,
-  time: z.string(),
-  reason: z.string().optional(),
-  chain,
-});
-const barometerSchema = z.object({
-  kind: z.literal('barometer'),
-  reading: z.string().describe('as typed, with its unit, e.g. "752.1 Torr"'),
-  pressure_Pa: z.number().positive(),
-  u_Pa: z.number().min(0).optional(),
-  by: initials,
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
-const startSchema = z.object({
-  kind: z.literal('start-pressure'),
-  gauge: z.string(),
-  reading: z.string(),
-  pressure_Pa: z.number().positive().describe('absolute tank pressure before the first fill'),
-  barometer_Pa: z.number().positive().optional(),
-  temperature: z.string(),
-  temperature_K: z.number().positive(),
-  by: initials,
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
+const readingSchema = lazy(() => z.object({ kind: z.literal('reading'), ...readingFields() }));
+const correctionSchema = lazy(() =>
+  z.object({
+    kind: z.literal('correction'),
+    ...readingFields(),
+    reason: z.string().optional(),
+    replaces_line: z.number().int().positive().optional(),
+  }),
+);
+const withdrawSchema = lazy(() =>
+  z.object({
+    kind: z.literal('withdraw'),
+    step: z.number().int().positive(),
+    withdraws_line: z.number().int().positive(),
+    by: initials(),
+    time: z.string(),
+    reason: z.string().optional(),
+    chain: chain(),
+  }),
+);
+const barometerSchema = lazy(() =>
+  z.object({
+    kind: z.literal('barometer'),
+    reading: z.string().describe('as typed, with its unit, e.g. "752.1 Torr"'),
+    pressure_Pa: z.number().positive(),
+    u_Pa: z.number().min(0).optional(),
+    by: initials(),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
+const startSchema = lazy(() =>
+  z.object({
+    kind: z.literal('start-pressure'),
+    gauge: z.string(),
+    reading: z.string(),
+    pressure_Pa: z.number().positive().describe('absolute tank pressure before the first fill'),
+    barometer_Pa: z.number().positive().optional(),
+    temperature: z.string(),
+    temperature_K: z.number().positive(),
+    by: initials(),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
 /**
  * the outcome of a review of the re-targeted remainder (code "remainder-review"): what triggered it,
  * the hazards the plan did not have, and whether the operator went on through them or took the safer
  * stop the review computed; absent on other acknowledgements and in older logs
  */
-const remainderReviewSchema = z.object({
-  trigger: z.enum(['reading', 'undo', 'correction', 'resume', 'temperature', 'start']),
-  outcome: z.enum(['accepted', 'safer-stop']),
-  hazards: z.array(
-    z.object({
-      code: z.string(),
-      step: z.number().int().nullable(),
-      severity: z.enum(['danger', 'warning', 'note']),
-    }),
-  ),
-  /** the safer stop taken: the charge's step, the stop it held and the one it holds now (absolute) */
-  stop: z
-    .object({
-      step: z.number().int().positive(),
-      from_Pa: z.number().positive(),
-      to_Pa: z.number().positive(),
-    })
-    .optional(),
-});
+const remainderReviewSchema = lazy(() =>
+  z.object({
+    trigger: z.enum(['reading', 'undo', 'correction', 'resume', 'temperature', 'start']),
+    outcome: z.enum(['accepted', 'safer-stop']),
+    hazards: z.array(
+      z.object({
+        code: z.string(),
+        step: z.number().int().nullable(),
+        severity: z.enum(['danger', 'warning', 'note']),
+      }),
+    ),
+    /** the safer stop taken: the charge's step, the stop it held and the one it holds now (absolute) */
+    stop: z
+      .object({
+        step: z.number().int().positive(),
+        from_Pa: z.number().positive(),
+        to_Pa: z.number().positive(),
+      })
+      .optional(),
+  }),
+);
 /**
  * the operator's choice on the stop screen of a re-target held below the working limit (code
  * "limit-cap"): go on to the capped targets, or stop; the final pressure the cap allows and the
  * design species it leaves outside the tolerance; absent on other acknowledgements and in older logs
  */
-const capSchema = z.object({
-  outcome: z.enum(['continued', 'stopped']),
-  final_Pa: z.number().positive(),
-  outside: z.array(z.string()),
-});
-const ackSchema = z.object({
-  kind: z.literal('acknowledge'),
-  code: z.string(),
-  step: z.number().int().nullable(),
-  by: z.string(),
-  time: z.string(),
-  note: z.string().optional(),
-  review: remainderReviewSchema.optional(),
-  cap: capSchema.optional(),
-  chain,
-});
+const capSchema = lazy(() =>
+  z.object({
+    outcome: z.enum(['continued', 'stopped']),
+    final_Pa: z.number().positive(),
+    outside: z.array(z.string()),
+  }),
+);
+const ackSchema = lazy(() =>
+  z.object({
+    kind: z.literal('acknowledge'),
+    code: z.string(),
+    step: z.number().int().nullable(),
+    by: z.string(),
+    time: z.string(),
+    note: z.string().optional(),
+    review: remainderReviewSchema().optional(),
+    cap: capSchema().optional(),
+    chain: chain(),
+  }),
+);
 /** the operator vents the tank back (a reading past the working limit): what was chosen, by whom */
-const ventSchema = z.object({
-  kind: z.literal('vent'),
-  step: z.number().int().positive(),
-  target_Pa: z.number().positive().describe('the absolute pressure the tank is vented back to (at most)'),
-  by: initials,
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
+const ventSchema = lazy(() =>
+  z.object({
+    kind: z.literal('vent'),
+    step: z.number().int().positive(),
+    target_Pa: z.number().positive().describe('the absolute pressure the tank is vented back to (at most)'),
+    by: initials(),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
 /** the tank read after venting, once settled: its final pressure (the composition is the readings') */
-const ventReadingSchema = z.object({
-  kind: z.literal('vent-reading'),
-  step: z.number().int().positive(),
-  gauge: z.string(),
-  reading: z.string().describe('as shown on the gauge, with its unit'),
-  pressure_Pa: z.number().positive().describe('absolute tank pressure after venting'),
-  barometer_Pa: z.number().positive().optional(),
-  temperature: z.string(),
-  temperature_K: z.number().positive(),
-  by: initials,
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
+const ventReadingSchema = lazy(() =>
+  z.object({
+    kind: z.literal('vent-reading'),
+    step: z.number().int().positive(),
+    gauge: z.string(),
+    reading: z.string().describe('as shown on the gauge, with its unit'),
+    pressure_Pa: z.number().positive().describe('absolute tank pressure after venting'),
+    barometer_Pa: z.number().positive().optional(),
+    temperature: z.string(),
+    temperature_K: z.number().positive(),
+    by: initials(),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
 /** stage 2: the operator confirms the premix was mixed (stirred or rested for the stated time) before the draw */
-const premixMixedSchema = z.object({
-  kind: z.literal('premix-mixed'),
-  tank: z.string(),
-  by: initials,
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
+const premixMixedSchema = lazy(() =>
+  z.object({
+    kind: z.literal('premix-mixed'),
+    tank: z.string(),
+    by: initials(),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
 /**
  * stage 2: the premix tank read before the first fill from it, against the minimum the plan needs
  * (`enough` false: below it; the fill does not draw from it). Not a reading of the batch: it does not
  * enter the batch's composition.
  */
-const premixReadingSchema = z.object({
-  kind: z.literal('premix-reading'),
-  tank: z.string(),
-  gauge: z.string(),
-  reading: z.string().describe('as shown on the gauge, with its unit'),
-  pressure_Pa: z.number().positive().describe('absolute premix-tank pressure'),
-  barometer_Pa: z.number().positive().optional(),
-  minimum_Pa: z.number().positive(),
-  enough: z.boolean(),
-  by: initials,
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
-const closeSchema = z.object({
-  kind: z.literal('close'),
-  time: z.string(),
-  note: z.string().optional(),
-  chain,
-});
+const premixReadingSchema = lazy(() =>
+  z.object({
+    kind: z.literal('premix-reading'),
+    tank: z.string(),
+    gauge: z.string(),
+    reading: z.string().describe('as shown on the gauge, with its unit'),
+    pressure_Pa: z.number().positive().describe('absolute premix-tank pressure'),
+    barometer_Pa: z.number().positive().optional(),
+    minimum_Pa: z.number().positive(),
+    enough: z.boolean(),
+    by: initials(),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
+const closeSchema = lazy(() =>
+  z.object({
+    kind: z.literal('close'),
+    time: z.string(),
+    note: z.string().optional(),
+    chain: chain(),
+  }),
+);
 
-export type LogHeader = z.infer<typeof headerSchema>;
-export type LogReading = z.infer<typeof readingSchema> | z.infer<typeof correctionSchema>;
-export type LogCorrection = z.infer<typeof correctionSchema>;
-export type LogWithdraw = z.infer<typeof withdrawSchema>;
-export type LogBarometer = z.infer<typeof barometerSchema>;
-export type LogStartPressure = z.infer<typeof startSchema>;
-export type LogAck = z.infer<typeof ackSchema>;
-export type LogRemainderReview = z.infer<typeof remainderReviewSchema>;
-export type LogClose = z.infer<typeof closeSchema>;
-export type LogVent = z.infer<typeof ventSchema>;
-export type LogVentReading = z.infer<typeof ventReadingSchema>;
-export type LogPremixMixed = z.infer<typeof premixMixedSchema>;
-export type LogPremixReading = z.infer<typeof premixReadingSchema>;
+export type LogHeader = z.infer<ReturnType<typeof headerSchema>>;
+export type LogReading =
+  z.infer<ReturnType<typeof readingSchema>> | z.infer<ReturnType<typeof correctionSchema>>;
+export type LogCorrection = z.infer<ReturnType<typeof correctionSchema>>;
+export type LogWithdraw = z.infer<ReturnType<typeof withdrawSchema>>;
+export type LogBarometer = z.infer<ReturnType<typeof barometerSchema>>;
+export type LogStartPressure = z.infer<ReturnType<typeof startSchema>>;
+export type LogAck = z.infer<ReturnType<typeof ackSchema>>;
+export type LogRemainderReview = z.infer<ReturnType<typeof remainderReviewSchema>>;
+export type LogClose = z.infer<ReturnType<typeof closeSchema>>;
+export type LogVent = z.infer<ReturnType<typeof ventSchema>>;
+export type LogVentReading = z.infer<ReturnType<typeof ventReadingSchema>>;
+export type LogPremixMixed = z.infer<ReturnType<typeof premixMixedSchema>>;
+export type LogPremixReading = z.infer<ReturnType<typeof premixReadingSchema>>;
 export type LogEvent =
   | LogHeader
   | LogReading
@@ -737,7 +781,7 @@ function readHeader(st: ReaderState, rec: Record<string, unknown>, lineNo: numbe
   if (!m) fault({ kind: 'unknown-format', format: fmt, reads: LOG_FORMAT }, file, lineNo, 'format');
   if (Number(m[1]) > LOG_VERSION)
     fault({ kind: 'newer-format', format: fmt, reads: LOG_FORMAT }, file, lineNo, 'format');
-  const h = headerSchema.safeParse(rec);
+  const h = headerSchema().safeParse(rec);
   if (!h.success) bad(file, lineNo, 'batch header', h.error.issues);
   // a logged charge must be the one the steps' sources give: one source id is one cylinder
   const counted = chargesOf(h.data.steps);
@@ -789,7 +833,7 @@ function checkCharge(st: ReaderState, r: LogReading, lineNo: number, file: strin
 }
 
 function readReading(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
-  const r = readingSchema.safeParse(rec);
+  const r = readingSchema().safeParse(rec);
   if (!r.success) bad(file, lineNo, 'reading', r.error.issues);
   checkCharge(st, r.data, lineNo, file);
   // a fill after a vent would start from the vented tank, which the re-check's readings cannot say
@@ -807,7 +851,7 @@ function readReading(st: ReaderState, rec: Record<string, unknown>, lineNo: numb
 }
 
 function readCorrection(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
-  const r = correctionSchema.safeParse(rec);
+  const r = correctionSchema().safeParse(rec);
   if (!r.success) bad(file, lineNo, 'correction', r.error.issues);
   checkCharge(st, r.data, lineNo, file);
   if (st.version >= 2) {
@@ -846,7 +890,7 @@ function readCorrection(st: ReaderState, rec: Record<string, unknown>, lineNo: n
 }
 
 function readWithdraw(st: ReaderState, rec: Record<string, unknown>, lineNo: number, file: string): void {
-  const r = withdrawSchema.safeParse(rec);
+  const r = withdrawSchema().safeParse(rec);
   if (!r.success) bad(file, lineNo, 'withdrawal', r.error.issues);
   const { byStep } = st;
   const old = byStep.get(r.data.step) ?? null;
@@ -878,28 +922,28 @@ const EVENT_READERS: Readonly<Record<string, EventReader>> = {
   correction: readCorrection,
   withdraw: readWithdraw,
   barometer(st, rec, lineNo, file) {
-    const r = barometerSchema.safeParse(rec);
+    const r = barometerSchema().safeParse(rec);
     if (!r.success) bad(file, lineNo, 'barometer reading', r.error.issues);
     st.barometer = { ...r.data, line: lineNo };
   },
   'start-pressure'(st, rec, lineNo, file) {
-    const r = startSchema.safeParse(rec);
+    const r = startSchema().safeParse(rec);
     if (!r.success) bad(file, lineNo, 'starting pressure', r.error.issues);
     if (st.all.length > 0) fault({ kind: 'start-after-reading' }, file, lineNo);
     st.start = { ...r.data, line: lineNo };
   },
   acknowledge(st, rec, lineNo, file) {
-    const a = ackSchema.safeParse(rec);
+    const a = ackSchema().safeParse(rec);
     if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
     st.acks.push(a.data);
   },
   vent(st, rec, lineNo, file) {
-    const v = ventSchema.safeParse(rec);
+    const v = ventSchema().safeParse(rec);
     if (!v.success) bad(file, lineNo, 'vent', v.error.issues);
     st.vents.push({ vent: { ...v.data, line: lineNo }, readings: [] });
   },
   'vent-reading'(st, rec, lineNo, file) {
-    const v = ventReadingSchema.safeParse(rec);
+    const v = ventReadingSchema().safeParse(rec);
     if (!v.success) bad(file, lineNo, 'reading after venting', v.error.issues);
     const last = st.vents[st.vents.length - 1];
     if (!last)
@@ -907,17 +951,17 @@ const EVENT_READERS: Readonly<Record<string, EventReader>> = {
     last.readings.push({ ...v.data, line: lineNo });
   },
   'premix-mixed'(st, rec, lineNo, file) {
-    const r = premixMixedSchema.safeParse(rec);
+    const r = premixMixedSchema().safeParse(rec);
     if (!r.success) bad(file, lineNo, 'premix mixed', r.error.issues);
     st.premixMixed.push({ ...r.data, line: lineNo });
   },
   'premix-reading'(st, rec, lineNo, file) {
-    const r = premixReadingSchema.safeParse(rec);
+    const r = premixReadingSchema().safeParse(rec);
     if (!r.success) bad(file, lineNo, 'premix tank reading', r.error.issues);
     st.premixReadings.push({ ...r.data, line: lineNo });
   },
   close(st, rec, lineNo, file) {
-    const c = closeSchema.safeParse(rec);
+    const c = closeSchema().safeParse(rec);
     if (!c.success) bad(file, lineNo, 'close', c.error.issues);
     st.closed = true;
     st.closeNote = c.data.note;
