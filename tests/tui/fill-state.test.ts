@@ -324,7 +324,9 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(s2.capped!.cost).toContain(
       `The working limit costs: the tank ends at the capped final pressure ${final} (absolute); x(CH4)`,
     );
-    expect(s2.message).toContain(`the final pressure is held at ${final} (design 1500 Torr), at least the last fill's band`);
+    expect(s2.message).toContain(
+      `the final pressure is held at ${final} (design 1500 Torr), at least the last fill's band`,
+    );
     expect(s2.message).not.toMatch(/held at 2\d{3}\.\d{2}/);
     // no way on without a logged choice: Enter, Esc, a bare word, initials missing
     for (const t of [enter(s2), fillReducer(s2, { type: 'escape' }), read(s2, 'go'), read(s2, 'ok AB')]) {
