@@ -127,9 +127,16 @@ export function isSupplyFinding(f: Finding): boolean {
   return f.code === 'supply-pressure-low' || f.code === 'premix-runs-low' || f.code === 'premix-cools-low';
 }
 
-/** dangers of the tank's states and fills first, then of the supply (the order of a ranking) */
-export function dangerCounts(findings: readonly Finding[]): [hazard: number, supply: number] {
+/**
+ * dangers of the tank's states and fills first, then of the supply, then the supply's warnings (a
+ * premix tank whose fast delivery's cold gas reads below what the batch needs, `premix-cools-low`):
+ * the order of a ranking, each counted before the next is looked at
+ */
+export function dangerCounts(
+  findings: readonly Finding[],
+): [hazard: number, supply: number, supplyWarning: number] {
   const dangers = findings.filter((f) => f.severity === 'danger');
   const supply = dangers.filter(isSupplyFinding).length;
-  return [dangers.length - supply, supply];
+  const supplyWarning = findings.filter((f) => f.severity === 'warning' && isSupplyFinding(f)).length;
+  return [dangers.length - supply, supply, supplyWarning];
 }

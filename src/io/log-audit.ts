@@ -114,19 +114,18 @@ export function describeLogFinding(f: LogFinding): string {
   const at = f.line ? `line ${f.line}${f.step ? `, fill ${f.step}` : ''}: ` : '';
   switch (f.code) {
     case 'above-working-limit':
+      // a reading after venting says so once, in its first words ("still above"), not again after them
       return (
-        `${at}the tank reading ${show(f.pressurePa, f.unit)} (absolute) is above the tank's ` +
-        `working limit of ${show(f.limitPa, f.unit)}` +
+        `${at}the tank ${f.ventedAgain ? 'reading after venting' : 'reading'} ${show(f.pressurePa, f.unit)} ` +
+        `(absolute) is ${f.ventedAgain ? 'still ' : ''}above the tank's working limit of ${show(f.limitPa, f.unit)}` +
         (f.ratedPa !== undefined && f.pressurePa > f.ratedPa
           ? ` and above its pressure rating of ${show(f.ratedPa, f.unit)}`
           : '') +
         (f.ventedAgain
-          ? '; it is a reading after venting, still above the working limit: the tank was vented again and ' +
-            'read again after it'
+          ? ': the tank was vented again and read again after it'
           : f.replaced
             ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
-            : '. The tank was taken past its working limit: have it and its fittings inspected ' +
-              'under local practice before the batch is used') +
+            : ': have the tank and its fittings inspected under local practice before the batch is used') +
         acceptedText(f.accepted)
       );
     case 'above-gauge-range':

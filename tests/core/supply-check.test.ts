@@ -20,6 +20,8 @@ import { validatePlanInput } from '../../src/core/plan/validate.js';
 import { planAmounts } from '../../src/core/plan/amounts.js';
 import { planSequence } from '../../src/core/plan/sequence.js';
 import { planSteps } from '../../src/core/plan/steps.js';
+import { countsAgainstSequence } from '../../src/core/plan/search-eval.js';
+import { dangerCounts } from '../../src/core/supply-check.js';
 import { head, workedInput } from './planner-input.js';
 import { runCli, TORR } from '../helpers.js';
 
@@ -87,11 +89,11 @@ describe('a premix tank: the plan judges its falling pressure as the final deliv
     });
     return { plan, final: premixDeliveryCheck(plan, premix, premixTank, startPa) };
   };
-  const codes = (fs: readonly { code: string }[]) =>
+  const codes = <F extends { code: string }>(fs: readonly F[]) =>
     fs.filter((f) => f.code === 'premix-runs-low' || f.code === 'premix-cools-low');
 
-  it('the start pressure that leaves the tank settled exactly at target x 1.1 after Ar, premix, O2: 0.1 % less is refused by both, 0.1 % more by neither', () => {
-    // bisection on the start pressure (the settled end rises with it) to the margin itself
+  /** bisection on the start pressure (the settled end rises with it) to the margin itself */
+  function settledEdge(): number {
     let lo = 1000 * TORR;
     let hi = 5000 * TORR;
     for (let i = 0; i < 60; i++) {
@@ -100,7 +102,11 @@ describe('a premix tank: the plan judges its falling pressure as the final deliv
       if (final.check.endPa < final.check.requiredPa) lo = mid;
       else hi = mid;
     }
-    const edge = (lo + hi) / 2;
+    return (lo + hi) / 2;
+  }
+
+  it('the start pressure that leaves the tank settled exactly at target x 1.1 after Ar, premix, O2: 0.1 % less is refused by both, 0.1 % more by neither', () => {
+    const edge = settledEdge();
     const short = planWith(edge * 0.999, 'given');
     expect(short.plan.steps.map((s) => s.source.id)).toEqual(['Ar', 'premix-PT', 'O2']);
     expect(codes(short.final.findings).map((f) => f.code)).toEqual(['premix-runs-low']);
@@ -112,6 +118,21 @@ describe('a premix tank: the plan judges its falling pressure as the final deliv
     const enough = planWith(edge * 1.001, 'given');
     expect(codes(enough.final.findings).filter((f) => f.code === 'premix-runs-low')).toEqual([]);
     expect(codes(enough.plan.findings)).toEqual(codes(enough.final.findings));
+  });
+
+  // our own ranking (supply-check.ts, no outside reference): the supply's dangers after those of the
+  // states and fills, then its warnings; the sequence search counts each against a sequence
+  it("premix-cools-low (settled end enough, the fast delivery's cold gas short) is counted: dangerCounts' third count, and against a sequence in the search", () => {
+    const edge = settledEdge();
+    const cool = planWith(edge * 1.001, 'given');
+    const found = codes(cool.plan.findings);
+    expect(found.map((f) => [f.code, f.severity])).toEqual([['premix-cools-low', 'warning']]);
+    expect(dangerCounts(found)).toEqual([0, 0, 1]);
+    expect(dangerCounts(cool.plan.findings)[2]).toBe(1);
+    expect(countsAgainstSequence(found[0])).toBe(true);
+    // a supply danger stays counted as one, before any warning
+    const short = codes(planWith(edge * 0.999, 'given').plan.findings);
+    expect(dangerCounts(short)).toEqual([0, 1, 0]);
   });
 
   it('the search picks an order whose premix charge the final check accepts, when one exists', () => {

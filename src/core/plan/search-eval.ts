@@ -93,6 +93,7 @@ const SEQUENCE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'supply-pressure-low',
   'tank-over-rating',
   'premix-runs-low',
+  'premix-cools-low',
 ]);
 
 /** is this finding one the search counts against a sequence */
