@@ -226,6 +226,10 @@ export function premixLogsOf(
     try {
       rec = readPremixLog(entry.path, path, log.header.lab, seen);
     } catch (e) {
+      // a refusal of the premix log names that log in its words: its place is this header's field
+      // (never the premix log's path beside a field of the batch log)
+      if (e instanceof ProblemError && e.problem.code === 'premix-log-refused')
+        throw new ProblemError(e.problem, where);
       if (e instanceof ProblemError) throw e.at(where);
       throw e;
     }

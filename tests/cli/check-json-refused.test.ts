@@ -39,6 +39,9 @@ describe('check --json of a batch whose premix log is refused', () => {
       },
     });
     expect(j.refused.message).toMatch(/premix log demo-premix-o2-ar-mt2\.jsonl cannot be read/);
+    // placed at the batch log's premix_logs, the field that names the premix log (not at the missing file)
+    expect(j.refused.file).toBe(join(folder, 'batch.jsonl'));
+    expect(j.refused.message).toMatch(/batch\.jsonl premix_logs: premix log demo-premix-o2-ar-mt2\.jsonl/);
   });
 
   it('premix log changed since the batch recorded it: cause changed, with both hashes', async () => {
