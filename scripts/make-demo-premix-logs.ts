@@ -14,7 +14,7 @@
 // Run: npx tsx scripts/make-demo-premix-logs.ts
 import { existsSync, unlinkSync } from 'node:fs';
 import type { Plan } from '../src/core/index.js';
-import { appendEvent, createLog, type LogHeader } from '../src/io/batch-log.js';
+import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../src/io/batch-log.js';
 import { fileSha256, stage1Header, stage2Header } from '../src/io/stage-log.js';
 import { planFrom } from '../src/cli/plan-from.js';
 import { stage2Command } from '../src/cli/stage-fill.js';
@@ -32,11 +32,13 @@ function fill(
   header: LogHeader,
   readings: readonly { torr: number; degC: number; time: string; note?: string }[],
   close: { time: string; note: string },
+  before: Readonly<Record<number, readonly NewLogEvent[]>> = {},
 ): void {
   if (existsSync(file)) unlinkSync(file);
   createLog(file, header);
   plan.steps.forEach((s, i) => {
     const r = readings[i];
+    for (const e of before[s.index] ?? []) appendEvent(file, e);
     appendEvent(file, {
       kind: 'reading',
       step: s.index,
@@ -79,10 +81,12 @@ fill(
 // header as `fill RECIPE --premix-log PREMIX --batch BATCH_ID --dir batches` writes it
 const batch = planFrom(RECIPE, { premixLog: PREMIX });
 const premixUsed = { file: PREMIX, id: premixHeader.id, sha256: fileSha256(PREMIX)! };
+const batchHeader = stage2Header(batch.plan, batch.req, BATCH_ID, '2026-11-30T10:30:00Z', premixUsed, BATCH);
+const check = batchHeader.stage!.premix_check!;
 fill(
   BATCH,
   batch.plan,
-  stage2Header(batch.plan, batch.req, BATCH_ID, '2026-11-30T10:30:00Z', premixUsed, BATCH),
+  batchHeader,
   [
     {
       torr: 10.0129,
@@ -95,4 +99,27 @@ fill(
     { torr: 1500.0, degC: 25.1, time: '2026-11-30T11:30:00Z' },
   ],
   { time: '2026-11-30T11:36:00Z', note: 'stirrer on 30 min' },
+  // before the first fill from the premix, as the guided fill asks: mixed, then the premix tank read
+  {
+    [check.fills[0]]: [
+      {
+        kind: 'premix-mixed',
+        tank: check.tank,
+        by: 'KL',
+        time: '2026-11-30T11:04:00Z',
+        note: `the premix in ${check.tank} was left overnight to mix (20 h); confirmed by KL`,
+      },
+      {
+        kind: 'premix-reading',
+        tank: check.tank,
+        gauge: check.gauge!.id,
+        reading: '1890.1 Torr',
+        pressure_Pa: 1890.1 * TORR,
+        minimum_Pa: check.minimum_Pa,
+        enough: 1890.1 * TORR >= check.minimum_Pa,
+        by: 'KL',
+        time: '2026-11-30T11:06:00Z',
+      },
+    ],
+  },
 );

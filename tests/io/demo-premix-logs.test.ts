@@ -39,12 +39,20 @@ describe('the demo premix and batch logs', () => {
         'mixwright fill recipes/ch4-o2-ar-phi1.yaml --premix-log batches/demo-premix-o2-ar-mt2.jsonl ' +
         '--batch demo-ch4-phi1-from-premix --dir batches',
     });
-    expect(batch.header.stage).toEqual({
+    expect(batch.header.stage).toMatchObject({
       number: 2,
       of: 2,
       batch: 'demo-ch4-phi1-from-premix',
       premix_log: { file: 'demo-premix-o2-ar-mt2.jsonl', id: premix.header.id, sha256: fileSha256(PREMIX) },
+      // the premix tank check the guided fill asks for before the first fill from the premix
+      premix_check: { tank: 'MT-2', minimum: '621.7 Torr', fills: [3] },
     });
+    // and the two events it logs there, mixed first, then the premix tank read, before fill 3's reading
+    const fill3 = batch.readings.find((r) => r.step === 3)!;
+    expect(batch.premixMixed.map((e) => e.by)).toEqual(['KL']);
+    expect(batch.premixReadings.map((e) => [e.reading, e.enough])).toEqual([['1890.1 Torr', true]]);
+    expect(batch.premixMixed[0].line).toBeLessThan(batch.premixReadings[0].line);
+    expect(batch.premixReadings[0].line).toBeLessThan(fill3.line);
     expect(batch.header.premix_logs).toEqual([
       { source: 'premix-MT-2', path: 'demo-premix-o2-ar-mt2.jsonl', last_entry_sha256: premix.lastLink },
     ]);
