@@ -835,7 +835,8 @@ function ReadingScreen({ state }: ScreenProps) {
   const shown = shownPa(state, step, target);
   const lo = fromPa(shown - step.bandPa, unit).toFixed(dec);
   const hi = fromPa(shown + step.bandPa, unit).toFixed(dec);
-  const plan = h.steps[state.current];
+  // the planned target as shown: "re-targeted" only when the target on screen differs from it
+  const planned = fromPa(shownPa(state, step, h.steps[state.current].target_Pa), unit).toFixed(dec);
   const isolate = state.setup.header.gauges.filter((g) => {
     const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + state.barometerPa;
     return top < target + step.bandPa && (state.current === 0 || top >= state.targetsPa[state.current - 1]);
@@ -873,9 +874,7 @@ function ReadingScreen({ state }: ScreenProps) {
         </Text>
         <Text>
           band {lo} - {hi} {unit} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
-          {Math.abs(target - plan.target_Pa) > 1e-9 * target
-            ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})`
-            : ''}
+          {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
       </Box>
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
