@@ -3,7 +3,7 @@
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
 import { useEffect, useState } from 'react';
-import { Box, Text, useApp, useInput } from 'ink';
+import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
@@ -26,7 +26,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
-import { fillTitle, intoTank } from './stage-state.js';
+import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 
 export interface FillAppProps {
@@ -337,6 +337,26 @@ function AcknowledgeScreen({ state }: ScreenProps) {
   );
 }
 
+/** rows a text takes on a screen this wide (ink wraps at words: a margin for the ragged right edge) */
+export function rowsOf(text: string, columns: number): number {
+  const w = Math.max(20, columns - 8);
+  return text.split('\n').reduce((n, l) => n + Math.max(1, Math.ceil(l.length / w)), 0);
+}
+
+/** the first rows of a long message, cut at a word, for the end screen's first page */
+function cut(text: string, rows: number, columns: number): string {
+  const room = rows * Math.max(20, columns - 8);
+  if (text.length <= room) return text;
+  const at = text.lastIndexOf(' ', room - 30);
+  return `${text.slice(0, at > 0 ? at : room - 30)} ... (m: the whole message)`;
+}
+
+/**
+ * The end screen fits the terminal (80 x 24 included): its first page gives the title, what happened
+ * (a long message cut, m shows it whole), check's verdict and caveats, the stage's lines (the premix
+ * as filled and the stage-2 command), the log and the commands to run next, and the tank label when
+ * there is room; else the label is its own page (l). b goes back, q or Enter quits.
+ */
 function EndScreen({
   state,
   check,
@@ -345,16 +365,69 @@ function EndScreen({
 }: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
+  const [page, setPage] = useState<'main' | 'label' | 'message'>('main');
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
   const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
   // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
   const caveats = check && 'report' in check ? check.report.caveats : [];
+  const report = check && 'report' in check ? check.report : undefined;
+  const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
+  // the page is chosen whatever this render's closure holds (a key may come before the handler of the
+  // latest render is attached); a page without its content shows the first page
+  useInput((input) => {
+    if (input === 'l') setPage('label');
+    else if (input === 'm') setPage('message');
+    else if (input === 'b') setPage('main');
+  });
+  const title = `${fillTitle(h)} - ${
+    state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
+  }`;
+  const verdict = report
+    ? `Re-check of the log (mixwright check): ${verdictWord(report)}` +
+      `${report.caveats.length ? ' (and see the notes below)' : ''}`
+    : undefined;
+  const message = state.message ? cut(state.message, 4, columns) : undefined;
+  const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
+  const fixed =
+    rowsOf(title, columns) +
+    (message ? rowsOf(message, columns) : 0) +
+    1 +
+    (verdict ? rowsOf(verdict, columns) : 1) +
+    caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
+    (stage.length ? 1 + stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
+    rowsOf(logLine, columns) +
+    1;
+  const labelRows = label ? 3 + [...caveats, ...label].reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
+  const labelHere = Boolean(label) && fixed + labelRows <= rows - 1;
+  const keys = [
+    ...(label && !labelHere ? ['l: the tank label'] : []),
+    ...(state.message && message !== state.message ? ['m: the whole message'] : []),
+    'q or Enter: quit',
+  ].join('   ');
+  if (page === 'label' && label)
+    return (
+      <Box flexDirection="column">
+        <Text bold>{title}</Text>
+        <LabelBox caveats={caveats} label={label} />
+        <Text>b: back q or Enter: quit</Text>
+      </Box>
+    );
+  if (page === 'message' && state.message)
+    return (
+      <Box flexDirection="column">
+        <Text bold>{title}</Text>
+        <Text wrap="wrap">{state.message}</Text>
+        <Text>b: back q or Enter: quit</Text>
+      </Box>
+    );
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} -{' '}
-        {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
+      <Text bold wrap="wrap">
+        {title}
       </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      {message ? <Text wrap="wrap">{message}</Text> : null}
       <Text> </Text>
       {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
       {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
@@ -363,29 +436,17 @@ function EndScreen({
           ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
         </Text>
       ) : null}
-      {check && 'report' in check ? (
-        <Text bold>
-          {`Re-check of the log (mixwright check): ${verdictWord(check.report)}` +
-            `${check.report.caveats.length ? ' (and see the notes below)' : ''}`}
-        </Text>
-      ) : null}
+      {verdict ? <Text bold>{verdict}</Text> : null}
       {caveats.map((c, i) => (
         <Text key={i} bold wrap="wrap">
           ! {c}
         </Text>
       ))}
-      {label ? <LabelBox caveats={caveats} label={label} /> : null}
-      <Text>
-        Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.
-      </Text>
+      {label && labelHere ? <LabelBox caveats={caveats} label={label} /> : null}
       {/* two-stage preparation: the premix's re-check, mixing time and stage-2 command (stage-view.tsx) */}
-      {h.stage ? (
-        <StageEnd
-          header={h}
-          report={check && 'report' in check ? check.report : undefined}
-          closed={state.phase === 'done'}
-        />
-      ) : null}
+      {h.stage ? <StageEnd header={h} report={report} closed={state.phase === 'done'} /> : null}
+      <Text wrap="wrap">{logLine}</Text>
+      <Text>{keys}</Text>
     </Box>
   );
 }
