@@ -376,10 +376,15 @@ function EndScreen({
   const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
   // the page is chosen whatever this render's closure holds (a key may come before the handler of the
   // latest render is attached); a page without its content shows the first page
+  const [labelPart, setLabelPart] = useState(0);
   useInput((input) => {
-    if (input === 'l') setPage('label');
-    else if (input === 'm') setPage('message');
+    if (input === 'l') {
+      setPage('label');
+      setLabelPart(0);
+    } else if (input === 'm') setPage('message');
     else if (input === 'b') setPage('main');
+    else if (input === 'n') setLabelPart((k) => k + 1);
+    else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
   });
   const title = `${fillTitle(h)} - ${
     state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
@@ -406,14 +411,21 @@ function EndScreen({
     ...(state.message && message !== state.message ? ['m: the whole message'] : []),
     'q or Enter: quit',
   ].join('   ');
-  if (page === 'label' && label)
+  if (page === 'label' && label) {
+    // a label taller than the terminal is shown in parts (n, p), each within its rows
+    const parts = labelParts(caveats, label, rows - 5 - rowsOf(title, columns), columns - 4);
+    const k = Math.min(labelPart, parts.length - 1);
+    const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
     return (
       <Box flexDirection="column">
-        <Text bold>{title}</Text>
-        <LabelBox caveats={caveats} label={label} />
-        <Text>b: back q or Enter: quit</Text>
+        <Text bold wrap="wrap">
+          {title}
+        </Text>
+        <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={caveats.length > 0} />
+        <Text>{`${more}b: back   q or Enter: quit`}</Text>
       </Box>
     );
+  }
   if (page === 'message' && state.message)
     return (
       <Box flexDirection="column">
@@ -451,9 +463,44 @@ function EndScreen({
   );
 }
 
-function LabelBox({ caveats, label }: { caveats: readonly string[]; label: readonly string[] }) {
+/** the label's lines (caveats first) in parts that each fit `room` rows, none split */
+function labelParts(
+  caveats: readonly string[],
+  label: readonly string[],
+  room: number,
+  columns: number,
+): { caveats: string[]; label: string[] }[] {
+  const parts: { caveats: string[]; label: string[]; rows: number }[] = [{ caveats: [], label: [], rows: 0 }];
+  const add = (line: string, kind: 'caveats' | 'label') => {
+    const r = rowsOf(line, columns);
+    let last = parts[parts.length - 1];
+    if (last.rows + r > Math.max(4, room) && last.rows > 0) {
+      last = { caveats: [], label: [], rows: 0 };
+      parts.push(last);
+    }
+    last[kind].push(line);
+    last.rows += r;
+  };
+  caveats.forEach((c) => add(c, 'caveats'));
+  label.forEach((l) => add(l, 'label'));
+  return parts;
+}
+
+function LabelBox({
+  caveats,
+  label,
+  double,
+}: {
+  caveats: readonly string[];
+  label: readonly string[];
+  double?: boolean;
+}) {
   return (
-    <Box flexDirection="column" borderStyle={caveats.length ? 'double' : 'single'} paddingX={1}>
+    <Box
+      flexDirection="column"
+      borderStyle={(double ?? caveats.length > 0) ? 'double' : 'single'}
+      paddingX={1}
+    >
       <Text bold>Tank label (as filled, from the readings)</Text>
       {caveats.map((c, i) => (
         <Text key={`c${i}`} bold wrap="wrap">

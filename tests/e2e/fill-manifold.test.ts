@@ -29,20 +29,27 @@ async function exitStatus(t: ReturnType<typeof tmuxSession>, ms = 15000): Promis
 
 /**
  * the end screen: its first page (check's verdict, the commands to run next) and the tank label, which
- * is on it when it fits 80 x 24, else on its own page (l); both fit the terminal
+ * is on it when it fits 80 x 24, else on its own page (l), in parts (n) when taller than the terminal;
+ * the title stays on every page (nothing scrolled off)
  */
 async function endPages(
   t: ReturnType<typeof tmuxSession>,
   ms = 30000,
 ): Promise<{ first: string; label: string }> {
   const first = await t.waitFor(/Re-check of the log \(mixwright check\)/, ms);
-  expect(first.split('\n')[0]).toMatch(/^mixwright fill /);
+  expect(first).toMatch(/^mixwright fill /m);
   if (/Tank label/.test(first)) return { first: flat(first), label: flat(first) };
   expect(first).toContain('l: the tank label');
   await t.keys('l');
-  const label = await t.waitFor(/Tank label/);
-  expect(label.split('\n')[0]).toMatch(/^mixwright fill /);
-  return { first: flat(first), label: flat(label) };
+  let page = await t.waitFor(/Tank label/);
+  let label = flat(page);
+  for (let k = 2; /n: next part/.test(page) && !new RegExp(`part (\\d+) of \\1`).test(page); k++) {
+    await t.keys('n');
+    page = await t.waitFor(new RegExp(`part ${k} of`));
+    expect(page).toMatch(/^mixwright fill /m);
+    label += ` ${flat(page)}`;
+  }
+  return { first: flat(first), label };
 }
 
 describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => {
