@@ -41,7 +41,11 @@ describe('the end screen fits 80 x 24', () => {
     expect(f).toContain('l: the tank label');
     expect(f).not.toContain('Tank label (as filled');
     ui.stdin.write('l');
-    await until(() => !!ui.lastFrame()?.includes('Tank label (as filled'), `the label page in ${ui.lastFrame()}`, 3000);
+    await until(
+      () => !!ui.lastFrame()?.includes('Tank label (as filled'),
+      `the label page in ${ui.lastFrame()}`,
+      3000,
+    );
     expect(rowsOfFrame(ui.lastFrame()!)).toBeLessThanOrEqual(24);
     ui.stdin.write('b');
     await until(() => !!ui.lastFrame()?.includes('l: the tank label'), 'back');
