@@ -18,7 +18,8 @@ import {
   shellLine,
   stage1Header,
 } from '../io/stage-log.js';
-import { fillEnded, fromTui, type Cli } from './context.js';
+import { fromTui, type Cli } from './context.js';
+import { fillEnded } from './fill-ended.js';
 import { attributeOf, DESIGN_OPTIONS, optionName, type DesignValues } from './design-options.js';
 import type { Planned } from './plan-from.js';
 import { loadTui } from './load-tui.js';

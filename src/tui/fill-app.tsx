@@ -3,7 +3,7 @@
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
 import { useEffect, useState } from 'react';
-import { Box, Text, useApp, useInput } from 'ink';
+import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
@@ -26,7 +26,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
-import { fillTitle, intoTank } from './stage-state.js';
+import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 
 export interface FillAppProps {
@@ -337,6 +337,26 @@ function AcknowledgeScreen({ state }: ScreenProps) {
   );
 }
 
+/** rows a text takes on a screen this wide (ink wraps at words: a margin for the ragged right edge) */
+export function rowsOf(text: string, columns: number): number {
+  const w = Math.max(20, columns - 8);
+  return text.split('\n').reduce((n, l) => n + Math.max(1, Math.ceil(l.length / w)), 0);
+}
+
+/** the first rows of a long message, cut at a word, for the end screen's first page */
+function cut(text: string, rows: number, columns: number): string {
+  const room = rows * Math.max(20, columns - 8);
+  if (text.length <= room) return text;
+  const at = text.lastIndexOf(' ', room - 30);
+  return `${text.slice(0, at > 0 ? at : room - 30)} ... (m: the whole message)`;
+}
+
+/**
+ * The end screen fits the terminal (80 x 24 included): its first page gives the title, what happened
+ * (a long message cut, m shows it whole), check's verdict and caveats, the stage's lines (the premix
+ * as filled and the stage-2 command), the log and the commands to run next, and the tank label when
+ * there is room; else the label is its own page (l). b goes back, q or Enter quits.
+ */
 function EndScreen({
   state,
   check,
@@ -345,16 +365,82 @@ function EndScreen({
 }: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
+  const [page, setPage] = useState<'main' | 'label' | 'message'>('main');
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
   const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
   // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
   const caveats = check && 'report' in check ? check.report.caveats : [];
+  const report = check && 'report' in check ? check.report : undefined;
+  const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
+  // the page is chosen whatever this render's closure holds (a key may come before the handler of the
+  // latest render is attached); a page without its content shows the first page
+  const [labelPart, setLabelPart] = useState(0);
+  useInput((input) => {
+    if (input === 'l') {
+      setPage('label');
+      setLabelPart(0);
+    } else if (input === 'm') setPage('message');
+    else if (input === 'b') setPage('main');
+    else if (input === 'n') setLabelPart((k) => k + 1);
+    else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
+  });
+  const title = `${fillTitle(h)} - ${
+    state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
+  }`;
+  const verdict = report
+    ? `Re-check of the log (mixwright check): ${verdictWord(report)}` +
+      `${report.caveats.length ? ' (and see the notes below)' : ''}`
+    : undefined;
+  const message = state.message ? cut(state.message, 4, columns) : undefined;
+  const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
+  const fixed =
+    rowsOf(title, columns) +
+    (message ? rowsOf(message, columns) : 0) +
+    1 +
+    (verdict ? rowsOf(verdict, columns) : 1) +
+    caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
+    (stage.length ? 1 + stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
+    rowsOf(logLine, columns) +
+    1;
+  const labelRows = label ? 3 + label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
+  const labelHere = Boolean(label) && fixed + labelRows <= rows - 1;
+  const keys = [
+    ...(label && !labelHere ? ['l: the tank label'] : []),
+    ...(state.message && message !== state.message ? ['m: the whole message'] : []),
+    'q or Enter: quit',
+  ].join('   ');
+  if (page === 'label' && label) {
+    // a label taller than the terminal is shown in parts (n, p), each within its rows
+    // the label's own lines carry check's caveats already (once): none is added to the box
+    const parts = labelParts([], label, rows - 5 - rowsOf(title, columns), columns - 4);
+    const k = Math.min(labelPart, parts.length - 1);
+    const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
+    return (
+      <Box flexDirection="column">
+        <Text bold wrap="wrap">
+          {title}
+        </Text>
+        <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={caveats.length > 0} />
+        <Text>{`${more}b: back   q or Enter: quit`}</Text>
+      </Box>
+    );
+  }
+  if (page === 'message' && state.message)
+    return (
+      <Box flexDirection="column">
+        <Text bold>{title}</Text>
+        <Text wrap="wrap">{state.message}</Text>
+        <Text>b: back q or Enter: quit</Text>
+      </Box>
+    );
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} -{' '}
-        {state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`}
+      <Text bold wrap="wrap">
+        {title}
       </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      {message ? <Text wrap="wrap">{message}</Text> : null}
       <Text> </Text>
       {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
       {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
@@ -363,38 +449,65 @@ function EndScreen({
           ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
         </Text>
       ) : null}
-      {check && 'report' in check ? (
-        <Text bold>
-          {`Re-check of the log (mixwright check): ${verdictWord(check.report)}` +
-            `${check.report.caveats.length ? ' (and see the notes below)' : ''}`}
-        </Text>
-      ) : null}
+      {verdict ? <Text bold>{verdict}</Text> : null}
       {caveats.map((c, i) => (
         <Text key={i} bold wrap="wrap">
           ! {c}
         </Text>
       ))}
-      {label ? <LabelBox caveats={caveats} label={label} /> : null}
-      <Text>
-        Log: {logFile} - `mixwright check {logFile}` gives the full budget. Press q to quit.
-      </Text>
+      {label && labelHere ? <LabelBox caveats={[]} label={label} double={caveats.length > 0} /> : null}
       {/* two-stage preparation: the premix's re-check, mixing time and stage-2 command (stage-view.tsx) */}
-      {h.stage ? (
-        <StageEnd
-          header={h}
-          report={check && 'report' in check ? check.report : undefined}
-          closed={state.phase === 'done'}
-        />
-      ) : null}
+      {h.stage ? <StageEnd header={h} report={report} closed={state.phase === 'done'} /> : null}
+      <Text wrap="wrap">{logLine}</Text>
+      <Text>{keys}</Text>
     </Box>
   );
 }
 
-/** the label as `label` prints it: its lines carry check's caveats already (once), so none is added here */
-function LabelBox({ caveats, label }: { caveats: readonly string[]; label: readonly string[] }) {
+/** the label's lines (caveats first) in parts that each fit `room` rows, none split */
+function labelParts(
+  caveats: readonly string[],
+  label: readonly string[],
+  room: number,
+  columns: number,
+): { caveats: string[]; label: string[] }[] {
+  const parts: { caveats: string[]; label: string[]; rows: number }[] = [{ caveats: [], label: [], rows: 0 }];
+  const add = (line: string, kind: 'caveats' | 'label') => {
+    const r = rowsOf(line, columns);
+    let last = parts[parts.length - 1];
+    if (last.rows + r > Math.max(4, room) && last.rows > 0) {
+      last = { caveats: [], label: [], rows: 0 };
+      parts.push(last);
+    }
+    last[kind].push(line);
+    last.rows += r;
+  };
+  caveats.forEach((c) => add(c, 'caveats'));
+  label.forEach((l) => add(l, 'label'));
+  return parts;
+}
+
+function LabelBox({
+  caveats,
+  label,
+  double,
+}: {
+  caveats: readonly string[];
+  label: readonly string[];
+  double?: boolean;
+}) {
   return (
-    <Box flexDirection="column" borderStyle={caveats.length ? 'double' : 'single'} paddingX={1}>
+    <Box
+      flexDirection="column"
+      borderStyle={(double ?? caveats.length > 0) ? 'double' : 'single'}
+      paddingX={1}
+    >
       <Text bold>Tank label (as filled, from the readings)</Text>
+      {caveats.map((c, i) => (
+        <Text key={`c${i}`} bold wrap="wrap">
+          {c}
+        </Text>
+      ))}
       {label.map((l, i) => (
         <Text key={i} wrap="wrap">
           {l}
@@ -831,7 +944,8 @@ function ReadingScreen({ state }: ScreenProps) {
   const shown = shownPa(state, step, target);
   const lo = fromPa(shown - step.bandPa, unit).toFixed(dec);
   const hi = fromPa(shown + step.bandPa, unit).toFixed(dec);
-  const plan = h.steps[state.current];
+  // the planned target as shown: "re-targeted" only when the target on screen differs from it
+  const planned = fromPa(shownPa(state, step, h.steps[state.current].target_Pa), unit).toFixed(dec);
   const isolate = state.setup.header.gauges.filter((g) => {
     const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + state.barometerPa;
     return top < target + step.bandPa && (state.current === 0 || top >= state.targetsPa[state.current - 1]);
@@ -869,9 +983,7 @@ function ReadingScreen({ state }: ScreenProps) {
         </Text>
         <Text>
           band {lo} - {hi} {unit} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
-          {Math.abs(target - plan.target_Pa) > 1e-9 * target
-            ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})`
-            : ''}
+          {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
       </Box>
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />

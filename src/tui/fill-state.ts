@@ -800,25 +800,46 @@ const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 function parseReading(
   s: FillState,
   step: FillStep,
-): { shown: number; temperatureK: number } | { error: string } {
+): { shown: number; temperatureK: number } | { error: string; field: Field } {
+  let shown: number;
   try {
     const text = s.input.trim();
     if (text === '') fail({ code: 'reading-missing', expected: 'pressure' });
-    const shown = READING_NUMBER.test(text)
+    shown = READING_NUMBER.test(text)
       ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure')
       : parseQuantity(text, 'pressure');
-    const temperatureK = parseTemperature(s.temperatureText);
-    return { shown, temperatureK };
   } catch (e) {
     if (!(e instanceof ProblemError)) throw e;
     const p = e.problem;
     // a bare number is read in the gauge's unit: the hint says so (the message quotes what was typed)
+    const why = describeProblem(
+      p.code === 'bad-quantity' || p.code === 'reading-missing' ? { ...p, bareUnit: gaugeUnit(step) } : p,
+    );
+    return { error: `reading refused: ${why}`, field: 'reading' };
+  }
+  try {
+    return { shown, temperatureK: parseTemperature(s.temperatureText) };
+  } catch (e) {
+    if (!(e instanceof ProblemError)) throw e;
     return {
-      error: describeProblem(
-        p.code === 'bad-quantity' || p.code === 'reading-missing' ? { ...p, bareUnit: gaugeUnit(step) } : p,
-      ),
+      error:
+        `tank temperature refused ("${s.temperatureText.trim()}"): ${describeProblem(e.problem)}. ` +
+        `Nothing is logged; the reading typed is kept: type the tank temperature again (Tab moves ` +
+        `between the two fields)`,
+      field: 'temperature',
     };
   }
+}
+
+/**
+ * a refused entry: only the field refused is cleared (the message quotes it or its value), so the
+ * next entry does not run on from it, and the other field keeps what was typed; the refused
+ * temperature field takes the focus
+ */
+function refusedEntry(s: FillState, r: { error: string; field: Field }): FillState {
+  return r.field === 'temperature'
+    ? { ...s, temperatureText: '', field: 'temperature', error: r.error }
+    : { ...s, input: '', error: r.error };
 }
 
 function parseTemperature(text: string): number {
@@ -834,8 +855,14 @@ function withTemperature(s: FillState): FillState {
   try {
     T = parseTemperature(s.temperatureText);
   } catch (e) {
-    if (e instanceof ProblemError) return { ...s, error: describeProblem(e.problem) };
-    throw e;
+    if (!(e instanceof ProblemError)) throw e;
+    // only the temperature is refused (and cleared); the reading field keeps what was typed
+    return refusedEntry(s, {
+      error:
+        `tank temperature refused ("${s.temperatureText.trim()}"): ${describeProblem(e.problem)}. ` +
+        `The targets stay at ${degC(s.targetTemperatureK)}; type the tank temperature again`,
+      field: 'temperature',
+    });
   }
   if (Math.abs(T - s.targetTemperatureK) < 0.005) return s;
   const r = retargetRun(s, s.done, T);
@@ -1328,8 +1355,8 @@ function onReadingEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const parsed = parseReading(s, step);
-  // every refused entry clears the field (the message quotes it or its value), so the next one starts clean
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  // a refused entry clears the field refused, and only it
+  if ('error' in parsed) return refusedEntry(s, parsed);
   const { shown, temperatureK } = parsed;
   const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
   const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
@@ -1540,7 +1567,7 @@ function onVentedEnter(s: FillState, now: string): FillState {
   const w = withInitials(s.input, 'reading after venting', '1490.2 AB');
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  if ('error' in parsed) return refusedEntry(s, parsed);
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
     return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
@@ -1792,7 +1819,7 @@ function onCorrectEnter(s: FillState, now: string): FillState {
   const unit = gaugeUnit(step);
   if (!c.pending) {
     const parsed = parseReading(s, step);
-    if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+    if ('error' in parsed) return refusedEntry(s, parsed);
     const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
     const before = i > 0 ? s.done[i - 1].pressurePa : (s.start?.pressurePa ?? 0);
     const after = s.done[i + 1]?.pressurePa;
@@ -2147,7 +2174,7 @@ function onStartEnter(s: FillState, now: string): FillState {
   const w = withInitials(s.input, 'reading', '120.4 AB');
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  if ('error' in parsed) return refusedEntry(s, parsed);
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
     return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
@@ -2232,7 +2259,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `(closes the batch below the target)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  if ('error' in parsed) return refusedEntry(s, parsed);
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (!(absolute > last.pressurePa)) {
     return {

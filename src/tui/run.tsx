@@ -48,6 +48,22 @@ export interface FillOutcome {
   readonly verdict?: 'pass' | 'pass-uncertain' | 'fail' | 'no-design';
   /** a danger finding stands in the record (e.g. an accepted reading past the working limit) */
   readonly danger: boolean;
+  /** what `check` found in the record beside the verdict (the shell's exit follows check's: checkExit) */
+  readonly record?: {
+    readonly alteredLines: readonly number[];
+    readonly acceptedHazards?: readonly unknown[];
+  };
+}
+
+/** what the shell needs of `check`'s re-check of the closed log to exit as `check` would */
+export function outcomeOfReport(
+  report: CheckReport | undefined,
+): Pick<FillOutcome, 'verdict' | 'danger' | 'record'> {
+  return {
+    verdict: report?.verdict.verdict,
+    danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
+    ...(report?.record ? { record: report.record } : {}),
+  };
 }
 
 export async function runFill(args: {
@@ -95,8 +111,7 @@ export async function runFill(args: {
       logged: opened.handle.current().readings.length,
       steps: setup.steps.length,
       logFile: args.logFile,
-      verdict: report?.verdict.verdict,
-      danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
+      ...outcomeOfReport(report),
     };
   } finally {
     opened.handle.release();

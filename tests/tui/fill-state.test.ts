@@ -95,8 +95,37 @@ describe('guided fill state machine', () => {
     }
     expect(setTemperature(s1, '-300 degC').error).toMatch(/below absolute zero/);
     const t = setTemperature(s1, '400 degC');
-    expect(t.error).toMatch(/outside the allowed range 200-600 K/);
-    expect(read(t, '1480').error).toMatch(/outside the allowed range 200-600 K/);
+    expect(t.error).toMatch(
+      /^tank temperature refused \("400 degC"\): .*outside the allowed range 200-600 K/,
+    );
+    // the refused temperature is cleared and has the focus: what is typed next goes into it
+    expect(t.temperatureText).toBe('');
+    expect(t.field).toBe('temperature');
+  });
+
+  it('a refusal clears only the field refused and says which: a bad temperature keeps the reading typed, a bad reading keeps the temperature', () => {
+    const s1 = read(initialState(setupFromHeader(header())), '10.0128');
+    // the reading typed, then a temperature out of range, Enter from the temperature field
+    let t = tab(type(s1, '1480'));
+    for (let i = 0; i < 12; i++) t = fillReducer(t, { type: 'backspace' });
+    const e = enter(type(t, '400 degC'));
+    expect(e.effects).toEqual([]);
+    expect(e.current).toBe(1);
+    expect(e.error).toMatch(
+      /^tank temperature refused \("400 degC"\): .*200-600 K.*the reading typed is kept/,
+    );
+    expect(e.input).toBe('1480');
+    expect(e.temperatureText).toBe('');
+    expect(e.field).toBe('temperature');
+    // the temperature typed again, Enter: the reading kept is logged at it
+    const ok = enter(type(e, '27 degC'));
+    expect(ok.current).toBe(2);
+    expect(ok.effects[0]).toMatchObject({ kind: 'reading', reading: '1480 Torr', temperature: '27 degC' });
+    // a bad reading: the reading is cleared, the temperature stays
+    const r = enter(type(setTemperature(s1, '27 degC'), '1480..2'));
+    expect(r.error).toMatch(/^reading refused: cannot read "1480\.\.2" as a pressure/);
+    expect(r.input).toBe('');
+    expect(r.temperatureText).toBe('27 degC');
   });
 
   it('the last reading closes the batch: close effect, a GUM re-check summary and a final verdict on composition', () => {

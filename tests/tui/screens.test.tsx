@@ -32,6 +32,27 @@ function startDemoFill(write: (e: NewLogEvent) => void) {
   return render(<FillApp initial={initialState(setupFromHeader(h))} write={write} logFile="b1.jsonl" />);
 }
 
+/**
+ * the end screen's text: its first page (the verdict) and the tank label, on it or on its own page
+ * (l), in parts (n) when taller than the screen; every page fits 24 rows
+ */
+async function endText(ui: ReturnType<typeof render>): Promise<string> {
+  await until(() => !!ui.lastFrame()?.includes('Re-check of the log'), 'the re-check', 15000);
+  let text = ui.lastFrame()!;
+  expect(text.split('\n').length).toBeLessThanOrEqual(24);
+  if (text.includes('Tank label')) return text;
+  ui.stdin.write('l');
+  await until(() => !!ui.lastFrame()?.includes('Tank label'), 'the label page');
+  for (let k = 2; ; k++) {
+    const page = ui.lastFrame()!;
+    expect(page.split('\n').length).toBeLessThanOrEqual(24);
+    text += `\n${page}`;
+    if (!page.includes('n: next part') || new RegExp(`part (\\d+) of \\1`).test(page)) return text;
+    ui.stdin.write('n');
+    await until(() => !!ui.lastFrame()?.includes(`part ${k} of`), `part ${k}`);
+  }
+}
+
 describe('fill screen (ink)', () => {
   it('shows the target large with its band and gauge; a typed reading is written before the next step shows', async () => {
     const written: NewLogEvent[] = [];
@@ -155,8 +176,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     expect(ui.lastFrame()).toMatch(/OFF COURSE/);
     const t3 = /STOP AT ([\d.]+) Torr/.exec(ui.lastFrame()!)![1];
     ui.stdin.write(`${t3}\r`);
-    await until(() => !!ui.lastFrame()?.includes('Tank label'), 'the label', 15000);
-    const f = ui.lastFrame()!;
+    const f = await endText(ui);
     expect(f).toMatch(/Re-check of the log \(mixwright check\): FAIL/);
     expect(f).toMatch(/\*\*\* FAIL/);
     expect(f).toMatch(/DO NOT USE AS THE DESIGN MIXTURE/);
@@ -202,12 +222,8 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     // logged before the choice: the file holds it now
     expect(readLog(file).readings.map((r) => r.step)).toEqual([1, 2]);
     ui.stdin.write('accept JD\r');
-    await until(
-      () => caveats !== undefined && !!ui.lastFrame()?.includes('Tank label'),
-      'the end screen',
-      15000,
-    );
-    const f = ui.lastFrame()!.replace(/\s+/g, ' ');
+    const f = (await endText(ui)).replace(/\s+/g, ' ');
+    await until(() => caveats !== undefined, 'the report handed to the shell');
     expect(caveats!.some((c) => /^DANGER:/.test(c))).toBe(true);
     expect(f).toMatch(/\(and see the notes below\)/);
     // beside the verdict, and once inside the label box (its lines carry the caveat; the box adds none)

@@ -2,7 +2,8 @@
 import type { Command } from 'commander';
 import { ProblemError } from '../../core/index.js';
 import { VERSION } from '../../version.js';
-import { fillEnded, fromTui, type Cli } from '../context.js';
+import { fromTui, type Cli } from '../context.js';
+import { fillEnded } from '../fill-ended.js';
 import { loadTui } from '../load-tui.js';
 
 export function registerWizard(program: Command, cli: Cli): void {

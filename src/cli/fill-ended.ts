@@ -1,0 +1,61 @@
+/**
+ * How a guided fill ends the command: Ctrl-C exits 130 with what the log holds and how to resume;
+ * a fill whose log was closed exits as `check` of that log would (checkExit: 4, 3, 6, 5 in that
+ * precedence), from `check`'s own re-check of the log at the end screen.
+ */
+import { checkExit } from './commands/check.js';
+import { EXIT, ExitSignal, type Cli } from './context.js';
+
+/** how a guided fill ended, as the screens report it */
+export interface FillOutcome {
+  interrupted: boolean;
+  logged: number;
+  steps: number;
+  verdict?: string;
+  danger?: boolean;
+  /** what `check` found in the record beside the verdict: lines off the hash chain, accepted hazards */
+  record?: { readonly alteredLines: readonly number[]; readonly acceptedHazards?: readonly unknown[] };
+}
+
+/** what the exit code means, on stderr, for each code but 0 */
+function why(code: number, logFile: string): string {
+  const see = `see \`mixwright check ${logFile}\``;
+  switch (code) {
+    case EXIT.outOfTolerance:
+      return `the re-check of the batch is FAIL (out of tolerance, or stopped before the last fill); ${see}`;
+    case EXIT.danger:
+      return (
+        `a danger finding stands in the record (e.g. a reading past the working limit): do not use the ` +
+        `tank as fit until it is inspected; ${see}`
+      );
+    case EXIT.acceptedHazard:
+      return (
+        `ACCEPTED HAZARD: the fill went on through hazards its review of the remaining fills found ` +
+        `(accepted at the manifold); have them reviewed before the tank is used; ${see}`
+      );
+    default:
+      return `RECORD ALTERED: a line of the log no longer matches its hash chain; ${see}`;
+  }
+}
+
+/** the end of a guided fill: exit 130 after Ctrl-C, else the exit `check` gives its log */
+export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string): void {
+  if (!r) return;
+  if (r.interrupted) {
+    cli.err(
+      `mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are ` +
+        `logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`,
+    );
+    throw new ExitSignal(EXIT.interrupted);
+  }
+  // no re-check (the batch left open): nothing to report beyond the screen
+  if (r.verdict === undefined) return;
+  const code = checkExit({
+    verdict: { verdict: r.verdict },
+    findings: r.danger ? [{ severity: 'danger' }] : [],
+    record: r.record,
+  });
+  if (code === EXIT.ok) return;
+  cli.err(`mixwright: ${logFile}: ${why(code, logFile)}\n`);
+  throw new ExitSignal(code);
+}

@@ -1,0 +1,73 @@
+// `fill` exits as `check` of its closed log would (README "Exit codes"): the end screen's re-check is
+// check's own, and the exit code comes from check's own function (checkExit), so a fill that went on
+// through an accepted review hazard exits 6 like `check`, not 0.
+import { copyFileSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { appendEvent, readLog, type NewLogEvent } from '../../src/io/batch-log.js';
+import { checkLog } from '../../src/io/check.js';
+import { checkExit } from '../../src/cli/commands/check.js';
+import { ExitSignal, EXIT } from '../../src/cli/context.js';
+import { fillEnded } from '../../src/cli/fill-ended.js';
+import { outcomeOfReport } from '../../src/tui/run.js';
+
+const DEMO = 'batches/demo-ch4-phi1-ar98.jsonl';
+const accepted: NewLogEvent = {
+  kind: 'acknowledge',
+  code: 'remainder-review',
+  step: 3,
+  by: 'QX',
+  time: '2026-12-01T10:42:00Z',
+  review: {
+    trigger: 'reading',
+    outcome: 'accepted',
+    hazards: [{ code: 'flammable-state', step: 3, severity: 'warning' }],
+  },
+};
+
+function exitOf(outcome: Parameters<typeof fillEnded>[1]): { code: number; err: string } {
+  let err = '';
+  const cli = { out: () => {}, err: (t: string) => (err += t), isTTY: true } as never;
+  try {
+    fillEnded(cli, outcome, 'b.jsonl');
+    return { code: 0, err };
+  } catch (e) {
+    if (!(e instanceof ExitSignal)) throw e;
+    return { code: e.code, err };
+  }
+}
+
+describe('fill exits as check of its log', () => {
+  it('a log that went on through an accepted review hazard: check exits 6, and so does fill', async () => {
+    const f = join(mkdtempSync(join(tmpdir(), 'mw-fill-exit-')), 'b.jsonl');
+    copyFileSync(DEMO, f);
+    appendEvent(f, accepted);
+    const report = await checkLog(readLog(f), { trials: 0, seed: 1 });
+    expect(checkExit(report)).toBe(EXIT.acceptedHazard);
+    const r = exitOf({ interrupted: false, logged: 3, steps: 3, ...outcomeOfReport(report) });
+    expect(r.code).toBe(6);
+    expect(r.err).toMatch(/ACCEPTED HAZARD: the fill went on through hazards its review .* found/);
+  });
+
+  it('the demo log as it is: 0 for both', async () => {
+    const report = await checkLog(readLog(DEMO), { trials: 0, seed: 1 });
+    expect(checkExit(report)).toBe(EXIT.ok);
+    expect(exitOf({ interrupted: false, logged: 3, steps: 3, ...outcomeOfReport(report) }).code).toBe(0);
+  });
+
+  it('precedence 4, 3, 6, 5 as check; Ctrl-C 130; a batch left open (no re-check) 0', () => {
+    const base = { interrupted: false, logged: 3, steps: 3 };
+    const hazard = { alteredLines: [], acceptedHazards: [{}] };
+    expect(exitOf({ ...base, verdict: 'fail', danger: true, record: hazard }).code).toBe(4);
+    expect(exitOf({ ...base, verdict: 'pass', danger: true, record: hazard }).code).toBe(3);
+    expect(
+      exitOf({ ...base, verdict: 'pass', danger: false, record: { ...hazard, alteredLines: [4] } }).code,
+    ).toBe(6);
+    expect(
+      exitOf({ ...base, verdict: 'pass', record: { alteredLines: [4], acceptedHazards: [] } }).code,
+    ).toBe(5);
+    expect(exitOf({ ...base, interrupted: true }).code).toBe(130);
+    expect(exitOf({ ...base }).code).toBe(0);
+  });
+});
