@@ -300,6 +300,13 @@ function bestOrder(
 }
 
 /**
+ * the claim of a sequence whose review found no hazard on any intermediate state or fill path; the
+ * plan's review (plan/review.ts) replaces it by what the full review of the planned fill finds
+ */
+export const CLEAN_CLAIM =
+  'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
+
+/**
  * @param sources the fills, in any order; `amountsMol` the mol each delivers (same order)
  * @param initial gas already in the tank, with its amount on the same scale
  */
@@ -325,8 +332,7 @@ export function adviseOrder(
   if (clean && best === ascending) {
     reason =
       'smallest partial pressure first, largest last (best relative resolution ' +
-      'for the small fills); every intermediate tank state and every fill path ' +
-      'is non-flammable and free of the hazards checked';
+      `for the small fills); ${CLEAN_CLAIM}`;
   } else if (clean) {
     const first = ascendingScore.hazards[0];
     reason =
