@@ -336,10 +336,9 @@ export function adviseOrder(
   } else if (clean) {
     const first = ascendingScore.hazards[0];
     reason =
-      `keeps every intermediate tank state and every fill path out of the flammable ` +
-      `region and free of the hazards checked (fill lines included); the smallest-first ` +
-      `order (${names(ascending).join(', ')}) would give ` +
-      (first ? `${first.code} after fill ${first.step}` : 'a hazardous state');
+      `not the smallest-first order (${names(ascending).join(', ')}), which would give ` +
+      (first ? `${first.code} after fill ${first.step}` : 'a hazardous state') +
+      `; ${CLEAN_CLAIM}`;
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
     reason =
