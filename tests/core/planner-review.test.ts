@@ -113,6 +113,24 @@ describe('plan stage 5: review', () => {
     );
   });
 
+  it('every fill whose band passes the working limit is over it, not only the last (worked vector, limit 100 Torr)', () => {
+    // CH4, O2, Ar to 50, 150, 1000 Torr (ideal partial pressures of 0.05/0.10/0.85 at 1000 Torr, by hand)
+    const input = workedInput();
+    const limitPa = 100 * TORR;
+    const { planned, review } = reviewed({
+      ...input,
+      tank: { ...input.tank, ratedPressurePa: limitPa, workingFraction: 1 },
+    });
+    const over = review.findings.filter((x) => x.code === 'tank-over-rating');
+    const expected = planned.steps.filter((s) => s.targetPa + s.bandPa > limitPa).map((s) => s.index);
+    expect(expected).toEqual([2, 3]);
+    expect(over.map((x) => x.step)).toEqual(expected);
+    for (const x of over) {
+      const s = planned.steps[x.step! - 1];
+      expect(x.code === 'tank-over-rating' && x.pressurePa).toBe(s.targetPa + s.bandPa);
+    }
+  });
+
   it('one isolate-gauge note per gauge the steps close off', () => {
     const { planned, review } = reviewed(workedInput());
     const isolated = planned.steps.flatMap((s) => s.isolateBefore.map((g) => g.id));

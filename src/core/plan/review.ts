@@ -53,23 +53,25 @@ export function reviewPlan(
   return { findings, orderReason: correctedReason(sequence.reason, all, steps) };
 }
 
-/** the top of the last band over the tank's working limit */
+/**
+ * every fill whose band's top passes the tank's working limit (not only the last: a split
+ * diluent's charges, or a final pressure far over the limit, put earlier fills over it too)
+ */
 function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[] {
   const { tank } = basis.input;
-  if (tank.ratedPressurePa === undefined || basis.workingLimitPa === undefined) return [];
-  const top = steps[steps.length - 1];
-  if (top.targetPa + top.bandPa <= basis.workingLimitPa) return [];
-  return [
-    {
+  const limitPa = basis.workingLimitPa;
+  if (tank.ratedPressurePa === undefined || limitPa === undefined) return [];
+  return steps
+    .filter((s) => s.targetPa + s.bandPa > limitPa)
+    .map((s) => ({
       severity: 'danger',
       code: 'tank-over-rating',
-      step: top.index,
-      pressurePa: top.targetPa + top.bandPa,
-      limitPa: basis.workingLimitPa,
-      ratedPa: tank.ratedPressurePa,
+      step: s.index,
+      pressurePa: s.targetPa + s.bandPa,
+      limitPa,
+      ratedPa: tank.ratedPressurePa!,
       tank: tank.id,
-    },
-  ];
+    }));
 }
 
 /**
