@@ -300,6 +300,13 @@ function bestOrder(
 }
 
 /**
+ * the claim of a sequence whose review found no hazard on any intermediate state or fill path; the
+ * plan's review (plan/review.ts) replaces it by what the full review of the planned fill finds
+ */
+export const CLEAN_CLAIM =
+  'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
+
+/**
  * @param sources the fills, in any order; `amountsMol` the mol each delivers (same order)
  * @param initial gas already in the tank, with its amount on the same scale
  */
@@ -325,15 +332,13 @@ export function adviseOrder(
   if (clean && best === ascending) {
     reason =
       'smallest partial pressure first, largest last (best relative resolution ' +
-      'for the small fills); every intermediate tank state and every fill path ' +
-      'is non-flammable and free of the hazards checked';
+      `for the small fills); ${CLEAN_CLAIM}`;
   } else if (clean) {
     const first = ascendingScore.hazards[0];
     reason =
-      `keeps every intermediate tank state and every fill path out of the flammable ` +
-      `region and free of the hazards checked (fill lines included); the smallest-first ` +
-      `order (${names(ascending).join(', ')}) would give ` +
-      (first ? `${first.code} after fill ${first.step}` : 'a hazardous state');
+      `not the smallest-first order (${names(ascending).join(', ')}), which would give ` +
+      (first ? `${first.code} after fill ${first.step}` : 'a hazardous state') +
+      `; ${CLEAN_CLAIM}`;
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
     reason =

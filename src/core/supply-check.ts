@@ -140,3 +140,23 @@ export function dangerCounts(
   const supplyWarning = findings.filter((f) => f.severity === 'warning' && isSupplyFinding(f)).length;
   return [dangers.length - supply, supply, supplyWarning];
 }
+
+/**
+ * The search's ranking of a sequence's hazards (search-eval.ts notLessSafe): the dangers, warnings
+ * and notes of the tank's states and fills first, severity by severity, then the supply's dangers and
+ * warnings. A flammable or detonable state or fill path of any severity is a physical hazard; a supply
+ * that runs short says the fill cannot be completed, not that it is dangerous: so no count of supply
+ * findings buys a state or fill hazard (a sequence that trades two supply dangers for one and a
+ * flammable state ranks after the one with the two supply dangers).
+ */
+export function hazardRank(findings: readonly Finding[]): number[] {
+  const count = (supply: boolean, severity: Finding['severity']) =>
+    findings.filter((f) => isSupplyFinding(f) === supply && f.severity === severity).length;
+  return [
+    count(false, 'danger'),
+    count(false, 'warning'),
+    count(false, 'note'),
+    count(true, 'danger'),
+    count(true, 'warning'),
+  ];
+}

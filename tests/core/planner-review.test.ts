@@ -4,7 +4,10 @@ import { validatePlanInput } from '../../src/core/plan/validate.js';
 import { planAmounts } from '../../src/core/plan/amounts.js';
 import { planSequence } from '../../src/core/plan/sequence.js';
 import { planSteps } from '../../src/core/plan/steps.js';
-import { crossVirialShift, reviewPlan, safetyFindings } from '../../src/core/plan/review.js';
+import { crossVirialShift, reviewPlan, safetyClause, safetyFindings } from '../../src/core/plan/review.js';
+import { CLEAN_CLAIM } from '../../src/core/order.js';
+import { planFill, type Finding } from '../../src/core/index.js';
+import { TORR } from '../helpers.js';
 import { pureInput, workedInput } from './planner-input.js';
 import type { PlanInput } from '../../src/core/index.js';
 
@@ -51,6 +54,81 @@ describe('plan stage 5: review', () => {
     const last = planned.steps[2];
     expect(f).toMatchObject({ severity: 'danger', step: 3, limitPa: 1.2e5 });
     expect(f && f.code === 'tank-over-rating' && f.pressurePa).toBe(last.targetPa + last.bandPa);
+  });
+
+  it('the order reason says "free of the hazards checked" only when the final findings are: undiluted H2/O2, a tank over its limit, a clean plan', () => {
+    // H2/O2 phi 3 undiluted at 1000 Torr: the finished mixture is detonable (H2 in O2, equivalence
+    // ratio 3 inside the published limits), no intermediate state is flammable (pure H2)
+    const h2 = planFill({
+      ...pureInput({ H2: 6 / 7, O2: 1 / 7 }, ['H2', 'O2'], 295.15, 1000 * TORR),
+      order: 'recommend',
+    });
+    expect(h2.findings.some((f) => f.code === 'detonable-state' && f.severity === 'danger')).toBe(true);
+    expect(h2.orderReason).not.toContain(CLEAN_CLAIM);
+    expect(h2.orderReason).toMatch(
+      /short of the finished mixture, which itself has .*detonable-state \(fill 2\)/,
+    );
+    // the worked vector, advised order, into a tank whose working limit is below the final pressure
+    const input = { ...workedInput(), order: 'recommend' as const };
+    const over = planFill({
+      ...input,
+      tank: { ...input.tank, ratedPressurePa: 1.2e5, workingFraction: 0.5 },
+    });
+    expect(over.findings.some((f) => f.code === 'tank-over-rating')).toBe(true);
+    expect(over.orderReason).not.toContain(CLEAN_CLAIM);
+    expect(over.orderReason).toMatch(/tank-over-rating/);
+    // the same plan in a tank that holds it: no intermediate hazard, the flammable batch said apart
+    const held = planFill(input);
+    expect(held.findings.filter((f) => f.severity === 'danger')).toEqual([]);
+    expect(held.orderReason).toMatch(
+      /short of the finished mixture, which itself has flammable-mixture \(fill 3\)/,
+    );
+    // CH4/O2 phi 1 in 98 % Ar (non-flammable batch): nothing to say but the claim
+    const x = { CH4: 0.02 / 3, O2: 0.04 / 3, Ar: 0.98 };
+    const clean = planFill({ ...pureInput(x, ['CH4', 'O2', 'Ar'], 295.15, 1000 * TORR), order: 'recommend' });
+    expect(clean.findings.filter((f) => f.severity === 'danger')).toEqual([]);
+    expect(clean.orderReason).toContain(CLEAN_CLAIM);
+  });
+
+  it('safetyClause: intermediate states, fill paths, the finished mixture and other dangers are said apart', () => {
+    const f = (code: string, severity: Finding['severity'], step?: number) =>
+      ({ code, severity, step }) as Finding;
+    expect(safetyClause([f('oxygen-service', 'note', 3)], 3)).toBe(CLEAN_CLAIM);
+    expect(safetyClause([f('flammable-state', 'warning', 2)], 3)).toBe(
+      'the full review of the planned fill finds flammable-state (fill 2) on its intermediate states and fill paths (see the findings)',
+    );
+    expect(safetyClause([f('flammable-fill-path', 'warning', 3)], 3)).toMatch(
+      /finds flammable-fill-path \(fill 3\)/,
+    );
+    expect(safetyClause([f('tank-over-rating', 'danger', 2), f('tank-over-rating', 'danger', 3)], 3)).toBe(
+      'the full review of the planned fill finds tank-over-rating (fill 2) on its intermediate states and ' +
+        'fill paths, and tank-over-rating (fill 3) on the finished mixture (see the findings)',
+    );
+    expect(
+      safetyClause([f('flammable-mixture', 'warning', 3), f('supply-pressure-low', 'danger', 3)], 3),
+    ).toBe(
+      'every intermediate tank state is non-flammable and free of the hazards checked, and so is every fill ' +
+        'path short of the finished mixture, which itself has flammable-mixture (fill 3) (see the findings); ' +
+        'the plan still has 1 danger: supply-pressure-low (fill 3)',
+    );
+  });
+
+  it('every fill whose band passes the working limit is over it, not only the last (worked vector, limit 100 Torr)', () => {
+    // CH4, O2, Ar to 50, 150, 1000 Torr (ideal partial pressures of 0.05/0.10/0.85 at 1000 Torr, by hand)
+    const input = workedInput();
+    const limitPa = 100 * TORR;
+    const { planned, review } = reviewed({
+      ...input,
+      tank: { ...input.tank, ratedPressurePa: limitPa, workingFraction: 1 },
+    });
+    const over = review.findings.filter((x) => x.code === 'tank-over-rating');
+    const expected = planned.steps.filter((s) => s.targetPa + s.bandPa > limitPa).map((s) => s.index);
+    expect(expected).toEqual([2, 3]);
+    expect(over.map((x) => x.step)).toEqual(expected);
+    for (const x of over) {
+      const s = planned.steps[x.step! - 1];
+      expect(x.code === 'tank-over-rating' && x.pressurePa).toBe(s.targetPa + s.bandPa);
+    }
   });
 
   it('one isolate-gauge note per gauge the steps close off', () => {

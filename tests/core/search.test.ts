@@ -17,6 +17,7 @@ import {
   type PlanInput,
 } from '../../src/core/index.js';
 import { countsAgainstSequence, notLessSafe, worstOf } from '../../src/core/plan/search-eval.js';
+import { hazardRank, isSupplyFinding } from '../../src/core/supply-check.js';
 import { gaugeAlternatives } from '../../src/core/plan/search-gauges.js';
 import { validatePlanInput } from '../../src/core/plan/validate.js';
 import { planAmounts } from '../../src/core/plan/amounts.js';
@@ -155,6 +156,53 @@ describe('sequence search', () => {
     expect(given.findings.some((f) => f.code === 'flammable-state')).toBe(true);
     expect(worst(given).relative).toBeCloseTo(option.worstRelativeU, 9);
   }, 120_000);
+
+  it('a supply shortfall never buys a flammable state: at 5000 Torr with cylinders that cannot reach it, the chosen sequence has no state or path hazard the advised order lacks', () => {
+    // the advised order CH4, Ar, O2 falls short at two charges (Ar at 500 kPa, O2 at 400 kPa, both
+    // below target x 1.1); a split of the Ar that reads O2 on the 1000 Torr head falls short at one
+    // charge but passes a flammable state (O2 16.5 % on the N2-equivalent diagram, LOC 10.7 %):
+    // a physical hazard that must rank before any supply finding
+    const base = phiInput({ ...DEMO, finalTorr: 5000 });
+    const supplyPa: Record<string, number> = { CH4: 3e5, O2: 4e5, Ar: 5e5 };
+    const input: PlanInput = {
+      ...base,
+      temperatureK: 295.15,
+      tank: { ...base.tank, ratedPressurePa: 1e6 },
+      sources: ['CH4', 'O2', 'Ar'].map((s) =>
+        pureCylinder({ id: `cyl-${s}`, species: s, purity: 1, supplyPressurePa: supplyPa[s] }),
+      ),
+    };
+    const advised = planFill(input);
+    const searched = planFill({ ...input, thermometer: THERMO });
+    const stateCodes = (p: Plan) =>
+      p.findings.filter((f) => countsAgainstSequence(f) && !isSupplyFinding(f)).map((f) => f.code);
+    expect(advised.findings.filter((f) => f.code === 'supply-pressure-low')).toHaveLength(2);
+    expect(stateCodes(advised)).toEqual([]);
+    // the search's candidates include the flammable split (the option of the earlier test): it must not be chosen
+    expect(stateCodes(searched)).toEqual([]);
+    expect(searched.findings.some((f) => f.code === 'flammable-state' || f.code === 'detonable-state')).toBe(
+      false,
+    );
+    expect(hazardRank(hazardCount(searched).hazards).slice(0, 3)).toEqual([0, 0, 0]);
+    // the reason says what it compared, not "as safe" over a sum of unlike findings
+    expect(searched.orderReason).not.toMatch(/as safe as the advised order \(/);
+    expect(searched.orderReason).toMatch(
+      /hazards of the tank states and fill paths 0 danger, 0 warning, 0 note/,
+    );
+  }, 120_000);
+
+  it('notLessSafe: a state or path hazard of any severity is never traded for fewer supply findings', () => {
+    const f = (code: Finding['code'], severity: Finding['severity']) => ({ code, severity }) as Finding;
+    const count = (hs: Finding[]) => ({ danger: 0, warning: 0, note: 0, hazards: hs, complete: true });
+    const supply = f('supply-pressure-low', 'danger');
+    const flammable = f('flammable-state', 'warning');
+    const near = f('near-flammable', 'note');
+    expect(notLessSafe(count([supply, flammable]), count([supply, supply]))).toBe(false);
+    expect(notLessSafe(count([near]), count([supply, supply]))).toBe(false);
+    expect(notLessSafe(count([supply]), count([supply, supply]))).toBe(true);
+    // a less severe state hazard in place of a more severe one is safer
+    expect(notLessSafe(count([flammable]), count([f('detonable-state', 'danger')]))).toBe(true);
+  });
 
   it('property: the lower bound used for pruning never exceeds the predicted worst U', async () => {
     const { temperatureBound } = await import('../../src/core/plan/search-eval.js');

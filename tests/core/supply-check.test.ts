@@ -147,9 +147,11 @@ describe('a premix tank: the plan judges its falling pressure as the final deliv
 });
 
 describe('a supply that runs short never buys a more hazardous sequence', () => {
-  it('a premix tank filled to 240 Torr, short for every order: the batch keeps the safe order (the premix after CH4 and Ar), no detonable state, and names the shortfall', async () => {
+  it('a premix tank filled to 240 Torr, short for every order: the batch keeps the premix after CH4 and Ar, no flammable or detonable state, and names the shortfall', async () => {
     // with the supply's danger counted like a state's, the search split the premix around CH4
-    // (its last charge to 159 Torr passes the margin) through a detonable state
+    // (its last charge to 159 Torr passes the margin) through a detonable state; with the supply's
+    // dangers counted before the states' warnings, it read the premix at 213 Torr (one supply danger
+    // fewer) through a flammable state: a state hazard of any severity now ranks first (hazardRank)
     const dir = mkdtempSync(join(tmpdir(), 'mw-supply-'));
     const recipe = join(dir, 'low.yaml');
     writeFileSync(
@@ -161,6 +163,8 @@ describe('a supply that runs short never buys a more hazardous sequence', () => 
     expect(r.code).toBe(3);
     const plan = JSON.parse(r.stdout) as { findings: { severity: string; code: string }[] };
     const dangers = plan.findings.filter((f) => f.severity === 'danger').map((f) => f.code);
-    expect(dangers).toEqual(['premix-runs-low']);
+    expect(dangers).toEqual(['supply-pressure-low', 'premix-runs-low']);
+    const states = plan.findings.filter((f) => /flammable|detonable|closed-vessel/.test(f.code));
+    expect(states).toEqual([]);
   });
 });

@@ -9,7 +9,8 @@
 import { R } from '../constants.js';
 import type { VirialModel } from '../mixture-eos.js';
 import { virialU } from '../mixture-eos.js';
-import type { Finding } from '../findings.js';
+import type { Finding, FindingCode } from '../findings.js';
+import { CLEAN_CLAIM, ORDER_RELEVANT } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
 import { ProblemError } from '../problems.js';
@@ -46,29 +47,31 @@ export function reviewPlan(
       findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
   const safety = safetyFindings(basis, steps);
   findings.push(...safety);
-  const orderReason = correctedReason(basis, sequence.reason, safety);
   findings.push(...sourceFindings(basis, amounts, sequence));
   findings.push(...modelFindings(basis, steps));
-  return { findings, orderReason };
+  const all = [...sequence.findings, ...planned.findings, ...findings];
+  return { findings, orderReason: correctedReason(sequence.reason, all, steps) };
 }
 
-/** the top of the last band over the tank's working limit */
+/**
+ * every fill whose band's top passes the tank's working limit (not only the last: a split
+ * diluent's charges, or a final pressure far over the limit, put earlier fills over it too)
+ */
 function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[] {
   const { tank } = basis.input;
-  if (tank.ratedPressurePa === undefined || basis.workingLimitPa === undefined) return [];
-  const top = steps[steps.length - 1];
-  if (top.targetPa + top.bandPa <= basis.workingLimitPa) return [];
-  return [
-    {
+  const limitPa = basis.workingLimitPa;
+  if (tank.ratedPressurePa === undefined || limitPa === undefined) return [];
+  return steps
+    .filter((s) => s.targetPa + s.bandPa > limitPa)
+    .map((s) => ({
       severity: 'danger',
       code: 'tank-over-rating',
-      step: top.index,
-      pressurePa: top.targetPa + top.bandPa,
-      limitPa: basis.workingLimitPa,
-      ratedPa: tank.ratedPressurePa,
+      step: s.index,
+      pressurePa: s.targetPa + s.bandPa,
+      limitPa,
+      ratedPa: tank.ratedPressurePa!,
       tank: tank.id,
-    },
-  ];
+    }));
 }
 
 /**
@@ -93,24 +96,71 @@ export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[], loc
   );
 }
 
+/** codes judged at a fill (its path in the tank, its line, the gas it compresses) */
+const FILL_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
+  'flammable-fill-path',
+  'flammable-at-inlet',
+  'compression-heating',
+  'oxygen-compression',
+]);
+
+/** codes judged on a tank state: at the last fill, the finished mixture's own */
+const STATE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
+  ...[...ORDER_RELEVANT].filter((c) => !FILL_CODES.has(c)),
+  'flammable-mixture',
+  'tank-over-rating',
+]);
+
+/** "flammable-state (fill 3), tank-over-rating (fills 2, 3)" */
+function listed(fs: readonly Finding[]): string {
+  const steps = new Map<string, number[]>();
+  for (const f of fs) steps.set(f.code, [...(steps.get(f.code) ?? []), f.step ?? 0]);
+  return [...steps]
+    .map(([code, at]) => {
+      const n = [...new Set(at)].filter((x) => x > 0);
+      return n.length ? `${code} (fill${n.length > 1 ? 's' : ''} ${n.join(', ')})` : code;
+    })
+    .join(', ');
+}
+
 /**
- * The advice ranks orders at ideal-gas pressures; where the full review of the planned fill
- * still finds a path or line hazard, the stated reason must not say the order is free of them.
+ * What is true of the planned fill's states and fill paths, from its own final findings (the
+ * sequence's, the steps' and the review's): CLEAN_CLAIM only when no intermediate state and no
+ * fill has a hazard checked; the finished mixture's own hazards (a state finding at the last fill)
+ * are said apart, and so are the plan's other dangers (a supply, a gauge).
  */
-function correctedReason(basis: PlanBasis, reason: string, safety: readonly Finding[]): string {
-  const left = safety.filter(
-    (f) =>
-      f.severity !== 'note' &&
-      (f.code === 'flammable-fill-path' ||
-        f.code === 'flammable-at-inlet' ||
-        (f.code === 'condensation' && f.inLine)),
-  );
-  if (basis.input.order !== 'recommend' || !left.length || !/free of the hazards checked/.test(reason))
-    return reason;
-  return (
-    `the least hazardous order found, but the full review of the planned fill ` +
-    `still finds ${[...new Set(left.map((f) => f.code))].join(', ')} (see the findings)`
-  );
+export function safetyClause(findings: readonly Finding[], lastStep: number): string {
+  const atFill = (f: Finding) => FILL_CODES.has(f.code) || ('inLine' in f && f.inLine === true);
+  const onState = (f: Finding) => STATE_CODES.has(f.code) && !atFill(f);
+  const fills = findings.filter(atFill);
+  const states = findings.filter((f) => onState(f) && f.step !== undefined && f.step < lastStep);
+  const mixture = findings.filter((f) => onState(f) && (f.step === undefined || f.step >= lastStep));
+  const other = findings.filter((f) => f.severity === 'danger' && !atFill(f) && !onState(f));
+  let clause: string;
+  if (states.length || fills.length)
+    clause =
+      `the full review of the planned fill finds ${listed([...states, ...fills])} on its ` +
+      `intermediate states and fill paths` +
+      (mixture.length ? `, and ${listed(mixture)} on the finished mixture` : '') +
+      ' (see the findings)';
+  else if (mixture.length)
+    clause =
+      `every intermediate tank state is non-flammable and free of the hazards checked, and so is ` +
+      `every fill path short of the finished mixture, which itself has ${listed(mixture)} (see the findings)`;
+  else clause = CLEAN_CLAIM;
+  if (other.length)
+    clause += `; the plan still has ${other.length} danger${other.length > 1 ? 's' : ''}: ${listed(other)}`;
+  return clause;
+}
+
+/**
+ * The sequence's reason claims CLEAN_CLAIM from the advice's or the search's review (at ideal-gas
+ * or searched pressures, intermediate states only); the claim is replaced by what the plan's own
+ * final findings say (safetyClause).
+ */
+function correctedReason(reason: string, findings: readonly Finding[], steps: readonly PlanStep[]): string {
+  if (!reason.includes(CLEAN_CLAIM) || !steps.length) return reason;
+  return reason.replace(CLEAN_CLAIM, safetyClause(findings, steps[steps.length - 1].index));
 }
 
 /** assumed purities, unidentified remainders, impurities, and fractions the sources cannot meet */

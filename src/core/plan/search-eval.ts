@@ -20,7 +20,7 @@ import type { PlanBasis } from './validate.js';
 import { eosComposition, type PlanAmounts } from './amounts.js';
 import type { Charge, PlanSequence } from './sequence.js';
 import { planSteps, type PlanSteps } from './steps.js';
-import { dangerCounts } from '../supply-check.js';
+import { hazardRank } from '../supply-check.js';
 import { planResult } from './result.js';
 import { withGauges } from './search-gauges.js';
 import type { Plan } from './types.js';
@@ -217,17 +217,15 @@ export function screen(ctx: SearchContext, planned: PlanSteps, firstOnly = false
 }
 
 /**
- * a is not less safe than b, in the advice's own ranking (order.ts): fewer dangers, or as many
- * and fewer warnings, or as many of both and no more notes (a near-flammable state is a note:
- * inside the NFPA 69 operating margins, which the search does not trade for precision)
+ * a is not less safe than b: by hazardRank (supply-check.ts), the states' and fills' dangers,
+ * warnings and notes first (a near-flammable state is a note: inside the NFPA 69 operating margins,
+ * which the search does not trade for precision), then the supply's; a state or fill hazard that b
+ * does not have is never bought with fewer supply findings
  */
 export function notLessSafe(a: HazardCount, b: HazardCount): boolean {
-  // a supply that runs short never buys a more hazardous state or fill (supply-check.ts)
-  const [ha, hb] = [dangerCounts(a.hazards)[0], dangerCounts(b.hazards)[0]];
-  if (ha !== hb) return ha < hb;
-  if (a.danger !== b.danger) return a.danger < b.danger;
-  if (a.warning !== b.warning) return a.warning < b.warning;
-  return a.note <= b.note;
+  const [ra, rb] = [hazardRank(a.hazards), hazardRank(b.hazards)];
+  const i = ra.findIndex((x, k) => x !== rb[k]);
+  return i < 0 || ra[i] < rb[i];
 }
 
 /** the sequence stage's hand-off for a candidate (the reason is the search's, set by the caller) */

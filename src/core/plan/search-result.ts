@@ -4,7 +4,8 @@
  * the table's units): why the chosen sequence won, and a more precise option that is not
  * recommended because of its hazard.
  */
-import type { OrderAdvice } from '../order.js';
+import { CLEAN_CLAIM, type OrderAdvice } from '../order.js';
+import { hazardRank } from '../supply-check.js';
 import type { Finding } from '../findings.js';
 import { fillLabel } from '../supply.js';
 import { speciesRole } from '../composition.js';
@@ -96,6 +97,19 @@ export function optionFinding(ev: Evaluated, toleranceRelative: number): Finding
   };
 }
 
+/**
+ * what the search compared (hazardRank, supply-check.ts): the hazards of the tank states and fill
+ * paths, then the supply's findings, the chosen sequence's beside the advised order's
+ */
+function comparedSafety(win: Evaluated, base: Evaluated): string {
+  const [w, b] = [hazardRank(win.safety.hazards), hazardRank(base.safety.hazards)];
+  return (
+    `not less safe than the advised order by the search's review: hazards of the tank states and ` +
+    `fill paths ${w[0]} danger, ${w[1]} warning, ${w[2]} note (the advised order: ${b[0]}, ${b[1]}, ${b[2]}); ` +
+    `supply findings ${w[3]} danger, ${w[4]} warning (the advised order: ${b[3]}, ${b[4]})`
+  );
+}
+
 /** the plan's order reason for a searched sequence: relative U only (no pressures: those are in the findings) */
 export function searchReason(a: {
   win: Evaluated;
@@ -108,9 +122,7 @@ export function searchReason(a: {
   const n = `${stats.reviewed} sequences reviewed (orders, split diluent charges, gauges)`;
   if (win === base)
     return `${advice.reason}; of the ${n}, no other that is as safe predicts a smaller U (k = 2)`;
-  const safety = a.clean
-    ? 'every intermediate tank state and every fill path is non-flammable and free of the hazards checked'
-    : `as safe as the advised order (${win.safety.danger} danger, ${win.safety.warning} warning)`;
+  const safety = a.clean ? CLEAN_CLAIM : comparedSafety(win, base);
   const what =
     win.candidate === base.candidate
       ? `the advised order ${labels(base).join(', ')}, read on other gauges,`
