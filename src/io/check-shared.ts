@@ -102,6 +102,7 @@ export function verdictCaveats(
   const edited = findings.filter(
     (f) =>
       f.code === 'text-number-mismatch' ||
+      f.code === 'format-set-back' ||
       (f.code === 'record' && (f.issue.code === 'line-edited' || f.issue.code === 'line-unhashed')),
   );
   const unread = findings.find((f) => f.code === 'vent-not-read');
