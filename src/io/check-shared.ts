@@ -5,7 +5,12 @@
  */
 import { fail, ProblemError, type PlanStep } from '../core/index.js';
 import type { LogFinding } from './log-audit.js';
-import { hazardList, type AcceptedHazard, type CheckReportOf } from '../report/check-types.js';
+import {
+  hazardList,
+  type AcceptedHazard,
+  type CheckReportOf,
+  type RecordSeverity,
+} from '../report/check-types.js';
 import type { LogAck } from './batch-log.js';
 
 export interface CheckOptions {
@@ -24,13 +29,44 @@ export interface CheckOptions {
 /** the report of `check`; its record findings carry their sentence (the type lives beside the renderers) */
 export type CheckReport = CheckReportOf<LogFinding & { readonly message: string }>;
 
-/** the guided fill's reviews whose hazards the operator accepted (went on through), in log order */
-export function acceptedHazardsOf(acks: readonly LogAck[]): AcceptedHazard[] {
-  return acks.flatMap((a) =>
-    a.review?.outcome === 'accepted' && a.review.hazards.length
-      ? [{ step: a.step, by: a.by, time: a.time, hazards: a.review.hazards }]
-      : [],
-  );
+/**
+ * acknowledgements that are not the acceptance of a plan's danger: the review of the re-targeted
+ * remainder and the choice on a capped re-target (their own shapes), and a reading past the working
+ * limit or a gauge's range accepted at the manifold (a danger of the record itself, exit 3)
+ */
+const NOT_PLAN_ACKS = new Set(['remainder-review', 'limit-cap', 'above-working-limit', 'above-gauge-range']);
+
+/** an acknowledgement of one of the plan's danger findings, on the fill's danger screen */
+export function isPlanAck(a: LogAck): boolean {
+  return !a.review && !a.cap && !NOT_PLAN_ACKS.has(a.code);
+}
+
+/**
+ * The hazards the fill went on through, in log order: the plan's danger findings accepted on the
+ * fill's danger screen (acknowledgements of one sitting grouped: same initials and time), and the
+ * hazards of the guided fill's reviews that the operator accepted. `planFindings`: the header's
+ * findings, for the severity of an accepted plan finding (a danger where the header does not say).
+ */
+export function acceptedHazardsOf(
+  acks: readonly LogAck[],
+  planFindings: readonly { code: string; step: number | null; severity: string }[] = [],
+): AcceptedHazard[] {
+  const out: AcceptedHazard[] = [];
+  const severityOf = (code: string, step: number | null): RecordSeverity => {
+    const f = planFindings.find((x) => x.code === code && x.step === step);
+    return f?.severity === 'warning' || f?.severity === 'note' ? f.severity : 'danger';
+  };
+  for (const a of acks) {
+    if (isPlanAck(a)) {
+      const hazard = { code: a.code, step: a.step, severity: severityOf(a.code, a.step) };
+      const prev = out.at(-1);
+      if (prev?.found === 'plan' && prev.by === a.by && prev.time === a.time)
+        out[out.length - 1] = { ...prev, hazards: [...prev.hazards, hazard] };
+      else out.push({ found: 'plan', step: null, by: a.by, time: a.time, hazards: [hazard] });
+    } else if (a.review?.outcome === 'accepted' && a.review.hazards.length)
+      out.push({ found: 'review', step: a.step, by: a.by, time: a.time, hazards: a.review.hazards });
+  }
+  return out;
 }
 
 /** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
@@ -42,10 +78,17 @@ export function verdictCaveats(
   const out: string[] = [];
   for (const a of accepted)
     out.push(
-      `ACCEPTED HAZARD: before fill ${a.step ?? '?'} the review of the re-targeted fills found ` +
-        `${hazardList(a)}, which the plan did not have, and ${a.by} went on through it at ${a.time}: ` +
-        `the tank went through states the plan did not review as safe. Have the fill reviewed ` +
-        `(the hazards, the readings, the tank and its fittings) under local practice before the batch is used`,
+      a.found === 'plan'
+        ? `ACCEPTED HAZARD: the plan's safety review found ${hazardList(a)} ` +
+            `(${a.hazards.length === 1 ? 'a danger' : 'dangers'}), and ${a.by} accepted ` +
+            `${a.hazards.length === 1 ? 'it' : 'them'} at ${a.time} on the fill's danger screen and ` +
+            `filled through: the tank went through states the plan reviewed as dangerous. Have the fill ` +
+            `reviewed (the hazards, the readings, the tank and its fittings) under local practice before ` +
+            `the batch is used`
+        : `ACCEPTED HAZARD: before fill ${a.step ?? '?'} the review of the re-targeted fills found ` +
+            `${hazardList(a)}, which the plan did not have, and ${a.by} went on through it at ${a.time}: ` +
+            `the tank went through states the plan did not review as safe. Have the fill reviewed ` +
+            `(the hazards, the readings, the tank and its fittings) under local practice before the batch is used`,
     );
   const dangers = findings.filter((f) => f.severity === 'danger');
   if (dangers.length) {
@@ -59,6 +102,7 @@ export function verdictCaveats(
   const edited = findings.filter(
     (f) =>
       f.code === 'text-number-mismatch' ||
+      f.code === 'format-set-back' ||
       (f.code === 'record' && (f.issue.code === 'line-edited' || f.issue.code === 'line-unhashed')),
   );
   const unread = findings.find((f) => f.code === 'vent-not-read');

@@ -198,6 +198,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
   const warnings = logWarnings(log, missingSteps);
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
   const design = designFromHeader(h);
+  const accepted = acceptedHazardsOf(log.acknowledgements, h.findings);
   const result = await withinFile(log.file, () =>
     evaluateUncertaintyParallel(model.readings, model.settings, model.diluent, model.initial),
   );
@@ -226,11 +227,11 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
       limitPa: workingLimitOf(h),
       from: 'log',
     },
-    caveats: verdictCaveats(findings, undefined, acceptedHazardsOf(log.acknowledgements)),
+    caveats: verdictCaveats(findings, undefined, accepted),
     record: {
       alteredLines: alteredLinesOf(log),
       closed: log.closed,
-      acceptedHazards: acceptedHazardsOf(log.acknowledgements),
+      acceptedHazards: accepted,
     },
     premixLogs: premix.map(premixLogReport),
     vent: ventReport(

@@ -94,6 +94,20 @@ export type LogFinding =
       readonly unit: PressureUnit;
     }
   | {
+      /**
+       * the header names a format without line hashes (/1), but the log carries fields or events that
+       * only writers with line hashes write: its hashes were stripped and the format set back, so the
+       * record was altered after it was written
+       */
+      readonly code: 'format-set-back';
+      readonly severity: LogFindingSeverity;
+      readonly step: null;
+      readonly line: 1;
+      readonly format: string;
+      /** what gives it away, e.g. "thermometer.settling_K", "steps[].charge", "barometer line (line 2)" */
+      readonly fields: readonly string[];
+    }
+  | {
       readonly code: 'vent-not-read';
       readonly severity: LogFindingSeverity;
       readonly step: number;
@@ -163,6 +177,13 @@ export function describeLogFinding(f: LogFinding): string {
       return (
         `this is a top-up, but the log holds no reading of the starting pressure; ` +
         `the re-check assumes the planned ${show(f.plannedPa, f.unit)} already in the tank`
+      );
+    case 'format-set-back':
+      return (
+        `line 1: the header says format ${f.format}, which has no line hashes, but the log carries what ` +
+        `only the writers of hashed logs write (${f.fields.join(', ')}): it is not an old log but a ` +
+        `hashed one whose hashes were removed and whose format was set back, so the record was altered ` +
+        `after it was written and its lines cannot be trusted`
       );
     case 'vent-not-read':
       return (
@@ -258,6 +279,66 @@ export function ventOf(log: ParsedLog): LogVentOf | undefined {
   return m ? { step: Number(m[1]), line: null } : undefined;
 }
 
+/**
+ * What a log whose header names a format without line hashes (/1) carries that no /1 writer wrote:
+ * header fields, events and event fields that came with the hash chain (format /2) or after it.
+ * A /1 writer wrote the header (id, created, lab, tank {id, volume_m3, rated_pressure_Pa}, design,
+ * tolerance, temperature, final pressure, barometer, thermometer {u_K, resolution_K}, gauges,
+ * sources, steps {step, source, species, target_Pa, band_Pa, gauge}, recipe, findings), `reading`
+ * and `correction` (no `by`, no `replaces_line`), `acknowledge` (no `review`, `cap`) and `close`
+ * lines, and no `chain`. Empty for a hashed log, and for a /1 log as a /1 writer made it.
+ */
+export function hashedOnlyMarks(log: ParsedLog): string[] {
+  if (log.version >= 2) return [];
+  const h = log.header;
+  const out: string[] = [];
+  const has = (v: unknown) => v !== undefined;
+  if (has(h.tank.working_limit_Pa)) out.push('tank.working_limit_Pa');
+  if (has(h.thermometer.settling_K)) out.push('thermometer.settling_K');
+  if (h.steps.some((x) => has(x.charge))) out.push('steps[].charge');
+  if (has(h.in_tank)) out.push('in_tank');
+  if (has(h.premix_logs)) out.push('premix_logs');
+  if (has(h.stage)) out.push('stage');
+  if (has(h.safety)) out.push('safety');
+  const lines = (what: string, ls: readonly number[]) => {
+    if (ls.length) out.push(`${what} (line${ls.length === 1 ? '' : 's'} ${ls.join(', ')})`);
+  };
+  lines(
+    'a reading or correction with by, charge or replaces_line',
+    log.allReadings
+      .filter((r) => has(r.by) || has(r.charge) || ('replaces_line' in r && has(r.replaces_line)))
+      .map((r) => r.line),
+  );
+  lines(
+    'a line with a hash (chain)',
+    log.allReadings.filter((r) => has(r.chain)).map((r) => r.line),
+  );
+  lines('a barometer line', log.barometer ? [log.barometer.line] : []);
+  lines('a start-pressure line', log.start ? [log.start.line] : []);
+  lines(
+    'a withdraw line',
+    log.amendments.filter((a) => a.kind === 'withdraw').map((a) => a.line),
+  );
+  lines(
+    'a vent line',
+    log.vents.map((v) => v.line),
+  );
+  lines(
+    'a vent-reading line',
+    log.vents.flatMap((v) => v.readings.map((r) => r.line)),
+  );
+  lines(
+    'a premix-mixed line',
+    log.premixMixed.map((m) => m.line),
+  );
+  lines(
+    'a premix-reading line',
+    log.premixReadings.map((m) => m.line),
+  );
+  if (log.acknowledgements.some((a) => a.review || a.cap)) out.push('an acknowledge line with review or cap');
+  return out;
+}
+
 export function auditLog(log: ParsedLog): LogFinding[] {
   const h = log.header;
   const cx = contextOf(log);
@@ -274,7 +355,19 @@ export function auditLog(log: ParsedLog): LogFinding[] {
     ...logged.flatMap((r) => [...pastLimits(cx, r), ...typedTextOf(cx, r)]),
     ...barometerText(log),
   ];
-  for (const issue of log.issues)
+  const setBack = hashedOnlyMarks(log);
+  if (setBack.length)
+    out.push({
+      code: 'format-set-back',
+      severity: 'warning',
+      step: null,
+      line: 1,
+      format: h.format,
+      fields: setBack,
+    });
+  for (const issue of log.issues) {
+    // "predates the line hashes" is not true of a log whose format was set back
+    if (setBack.length && issue.code === 'log-unhashed') continue;
     out.push({
       code: 'record',
       severity: recordIssueSeverity(issue),
@@ -282,6 +375,7 @@ export function auditLog(log: ParsedLog): LogFinding[] {
       line: 'line' in issue ? issue.line : null,
       issue,
     });
+  }
   for (const file of tornSideFiles(log.file))
     out.push({ code: 'torn-side-file', severity: 'note', step: null, line: null, file });
   if (h.in_tank && !log.start)

@@ -14,6 +14,7 @@ import {
 } from '../core/index.js';
 import { gaugeFromLog, sourceFromLog, type LogHeader, type ParsedLog } from './batch-log.js';
 import { settlingOf } from './plan-predict.js';
+import { hashedOnlyMarks } from './log-audit.js';
 import type { ChargeNumber, CheckReport } from './check-shared.js';
 
 export function designFromHeader(h: LogHeader): Design {
@@ -162,5 +163,9 @@ export function logRecheckBasis<R = never>(
 
 /** the lines of a log that do not match their hash chain: changed after writing, or not mixwright's */
 export function alteredLinesOf(log: ParsedLog): number[] {
-  return log.issues.flatMap((i) => (i.code === 'line-edited' || i.code === 'line-unhashed' ? [i.line] : []));
+  const edited = log.issues.flatMap((i) =>
+    i.code === 'line-edited' || i.code === 'line-unhashed' ? [i.line] : [],
+  );
+  // a hashed log whose hashes were stripped and format set back to /1: its header is the altered line
+  return hashedOnlyMarks(log).length ? [1, ...edited.filter((l) => l !== 1)] : edited;
 }

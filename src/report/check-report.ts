@@ -34,13 +34,14 @@ const VERDICT_TEXT: Record<string, string> = {
 export function verdictWord(r: CheckReport): string {
   if (r.incomplete.length) return 'INCOMPLETE - not a pass';
   if (r.record?.alteredLines.length && r.verdict.verdict !== 'fail') return 'RECORD ALTERED - not a pass';
+  const accepted = r.record?.acceptedHazards?.length ? ' - ACCEPTED HAZARD (see below)' : '';
   const words: Record<string, string> = {
     pass: 'PASS',
     'pass-uncertain': 'NOT SHOWN WITHIN TOLERANCE - not a pass',
     fail: 'FAIL - out of tolerance',
     'no-design': 'no design to compare with',
   };
-  return words[r.verdict.verdict] ?? r.verdict.verdict;
+  return (words[r.verdict.verdict] ?? r.verdict.verdict) + accepted;
 }
 
 function mcNote(st: OutputStat): string {
@@ -239,12 +240,23 @@ export function recordMarks(r: CheckReport): string[] {
 /** the accepted review hazards of a log's record, as `check --json` gives them */
 function acceptedJson(r: CheckReport) {
   const accepted = r.record?.acceptedHazards ?? [];
-  return accepted.map((a) => ({ before_step: a.step, by: a.by, time: a.time, hazards: a.hazards }));
+  return accepted.map((a) => ({
+    found_by: a.found === 'plan' ? 'plan' : 'fill-review',
+    before_step: a.step,
+    by: a.by,
+    time: a.time,
+    hazards: a.hazards,
+  }));
 }
 
-/** "ACCEPTED HAZARD (before fill 3: flammable-state (fill 3))": the fill went on through a review's hazards */
+/**
+ * "ACCEPTED HAZARD (before fill 3: flammable-state (fill 3))": the fill went on through a review's
+ * hazards; "ACCEPTED HAZARD (plan danger: detonable-state (fill 3))": through the plan's own dangers
+ */
 function acceptedMark(accepted: readonly AcceptedHazard[]): string {
-  return `ACCEPTED HAZARD (${accepted.map((a) => `before fill ${a.step ?? '?'}: ${hazardList(a)}`).join('; ')})`;
+  return `ACCEPTED HAZARD (${accepted
+    .map((a) => `${a.found === 'plan' ? 'plan danger' : `before fill ${a.step ?? '?'}`}: ${hazardList(a)}`)
+    .join('; ')})`;
 }
 
 /**
@@ -278,8 +290,14 @@ function verdictText(r: CheckReport): string {
       ? ' - NOT CLOSED: the fill never ended with a close entry (it was stopped or cut off, and gas ' +
         'may have gone in after the last reading); read the tank before it is used'
       : '';
-  const accepted = r.record?.acceptedHazards?.length
-    ? ` - ${acceptedMark(r.record.acceptedHazards)}: the fill went on through hazards the plan did not have`
+  const acc = r.record?.acceptedHazards ?? [];
+  const accepted = acc.length
+    ? ` - ${acceptedMark(acc)}: the fill went on through ` +
+      (acc.every((a) => a.found === 'plan')
+        ? "dangers of the plan's review"
+        : acc.some((a) => a.found === 'plan')
+          ? "dangers of the plan's review and hazards the plan did not have"
+          : 'hazards the plan did not have')
     : '';
   if (alteredLeads(r))
     return (

@@ -252,11 +252,15 @@ export interface LogView {
 }
 
 /**
- * An operator's choice, at the guided fill's review of the re-targeted remaining fills, to go on
- * through hazards the plan did not have (an `acknowledge` line with `review.outcome` accepted)
+ * An operator's choice to go on through hazards: at the guided fill's review of the re-targeted
+ * remaining fills, hazards the plan did not have (an `acknowledge` line with `review.outcome`
+ * accepted; `found` "review"), or the plan's own danger findings, accepted on the fill's danger
+ * screen before filling (plain `acknowledge` lines of the plan's codes; `found` "plan")
  */
 export interface AcceptedHazard {
-  /** the fill the review stopped before */
+  /** who found the hazards: the plan's safety review, or the fill's review of its re-targeted remainder */
+  readonly found: 'plan' | 'review';
+  /** the fill the review stopped before (null: the plan's dangers, accepted before the fills went on) */
   readonly step: number | null;
   readonly by: string;
   readonly time: string;

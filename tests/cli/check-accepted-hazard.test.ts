@@ -58,6 +58,7 @@ describe('check of a log whose fill went on through an accepted review hazard', 
     expect(j.verdict).toBe('pass-uncertain');
     expect(j.accepted_hazards).toEqual([
       {
+        found_by: 'fill-review',
         before_step: 3,
         by: 'QX',
         time: '2026-12-01T10:42:00Z',
@@ -78,7 +79,7 @@ describe('check of a log whose fill went on through an accepted review hazard', 
   });
 
   it('precedence (README): out of tolerance 4, then a danger of the record 3, then an accepted hazard 6, then an altered record 5', () => {
-    const accepted = [{ step: 3, by: 'QX', time: 't', hazards: [] }];
+    const accepted = [{ found: 'review', step: 3, by: 'QX', time: 't', hazards: [] }];
     const report = (verdict: 'pass' | 'fail', danger: boolean, acc: boolean, altered: boolean) =>
       ({
         verdict: { verdict },

@@ -1,0 +1,108 @@
+// A danger of the plan's own review, accepted on the guided fill's danger screen (plain acknowledge
+// lines of the plan's codes, written before the first fill), is as much an accepted hazard as one
+// accepted at the mid-fill review: `check` marks the verdict ACCEPTED HAZARD, lists it in
+// `accepted_hazards` and exits 6 (README "Exit codes"), and the label shows it. The log is the plan
+// of recipes/ng-blend-air.yaml (its detonable-state danger) read exactly at its targets; no computed
+// number is checked here, only what check and label say of the record.
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { appendEvent, createLog } from '../../src/io/batch-log.js';
+import { checkFile, headerFromPlan } from '../../src/io/check.js';
+import { verdictWord } from '../../src/report/check-report.js';
+import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { planFill } from '../../src/core/index.js';
+import { runCli } from '../helpers.js';
+
+/** the log a guided fill writes when TT accepts the plan's dangers (as fill-state.ts words them) */
+function ngLog(accept: boolean): string {
+  const req = buildPlanRequest(readRecipe('recipes/ng-blend-air.yaml'));
+  const plan = planFill(req.input);
+  const f = join(mkdtempSync(join(tmpdir(), 'mw-plan-danger-')), 'ng1.jsonl');
+  createLog(f, headerFromPlan(plan, req, 'ng1', '2026-12-02T09:00:00Z', f));
+  if (accept)
+    for (const d of plan.findings.filter((x) => x.severity === 'danger'))
+      appendEvent(f, {
+        kind: 'acknowledge',
+        code: d.code,
+        step: d.step ?? null,
+        by: 'TT',
+        time: '2026-12-02T09:05:00Z',
+        note: 'the plan danger as shown',
+      });
+  for (const s of plan.steps)
+    appendEvent(f, {
+      kind: 'reading',
+      step: s.index,
+      source: s.source.id,
+      gauge: s.gauge!.id,
+      reading: `${s.targetPa} Pa`,
+      pressure_Pa: s.targetPa,
+      temperature: `${plan.temperatureK} K`,
+      temperature_K: plan.temperatureK,
+      time: `2026-12-02T09:1${s.index}:00Z`,
+      by: 'TT',
+    });
+  appendEvent(f, { kind: 'close', time: '2026-12-02T09:30:00Z' });
+  return f;
+}
+
+describe("a plan's danger accepted at the start of the fill", () => {
+  let accepted = '';
+  beforeAll(() => {
+    accepted = ngLog(true);
+  });
+
+  it('the plan carries the detonable-state danger at fill 3 that the fill asks to accept', async () => {
+    const j = JSON.parse((await runCli(['plan', 'recipes/ng-blend-air.yaml', '--json'])).stdout);
+    expect(
+      j.findings
+        .filter((f: { severity: string }) => f.severity === 'danger')
+        .map((f: { code: string }) => f.code),
+    ).toEqual(['detonable-state']);
+  });
+
+  it('check: the verdict is marked ACCEPTED HAZARD with who and when, the JSON lists it, exit 6', async () => {
+    const text = await runCli(['check', accepted]);
+    expect(text.code).toBe(6);
+    const verdict = text.stdout.split('\n').find((l) => l.startsWith('Verdict'))!;
+    expect(verdict).toContain('ACCEPTED HAZARD (plan danger: detonable-state (fill 3))');
+    expect(text.stdout).toContain(
+      "ACCEPTED HAZARD: the plan's safety review found detonable-state (fill 3) (a danger), and TT accepted it " +
+        'at 2026-12-02T09:05:00Z',
+    );
+    const json = await runCli(['check', accepted, '--json']);
+    expect(json.code).toBe(6);
+    const j = JSON.parse(json.stdout);
+    expect(j.accepted_hazards).toEqual([
+      {
+        found_by: 'plan',
+        before_step: null,
+        by: 'TT',
+        time: '2026-12-02T09:05:00Z',
+        hazards: [{ code: 'detonable-state', step: 3, severity: 'danger' }],
+      },
+    ]);
+    expect(j.verdict_caveats.join('\n')).toContain('ACCEPTED HAZARD');
+  });
+
+  it("the fill's end screen words the verdict with the mark (verdictWord)", async () => {
+    const r = await checkFile(accepted, { trials: 0, seed: 1 });
+    expect(verdictWord(r)).toBe('PASS - ACCEPTED HAZARD (see below)');
+  });
+
+  it('label: the label box carries the accepted hazard and the exit is 6', async () => {
+    const r = await runCli(['label', accepted, '--trials', '100000']);
+    expect(r.code).toBe(6);
+    const box = r.stdout.slice(0, r.stdout.indexOf('BATCH CERTIFICATE'));
+    expect(box).toContain("! ACCEPTED HAZARD: the plan's safety review found detonable-state (fill 3)");
+  });
+
+  it('the same log without the acceptance has no accepted hazard (the warning of an unacknowledged danger stays)', async () => {
+    const r = await runCli(['check', ngLog(false), '--json']);
+    const j = JSON.parse(r.stdout);
+    expect(j.accepted_hazards).toEqual([]);
+    expect(j.warnings.join('\n')).toContain('that the log shows no acknowledgement of');
+  });
+});
