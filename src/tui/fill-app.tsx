@@ -19,7 +19,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { decimalsFor, fixedSig } from '../report/format.js';
+import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
@@ -279,6 +279,12 @@ function Prompt({ state }: ScreenProps) {
   );
 }
 
+/** a fill's band as shown on its gauge, rounded inward; its half-width where the display cannot show it */
+function bandText(centerPa: number, bandPa: number, unit: PressureUnit, dec: number): string {
+  const b = inwardBand(centerPa, bandPa, unit, dec);
+  return b ? `${b.low} - ${b.high}` : `+-${fixedSig(fromPa(bandPa, unit), 2)} (finer than the display step)`;
+}
+
 function ErrorLine({ state }: ScreenProps) {
   return state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
 }
@@ -423,8 +429,8 @@ function BelowScreen({ state }: ScreenProps) {
           STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
         </Text>
         <Text>
-          band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on{' '}
-          {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
+          band {bandText(st, ls.bandPa, lu, ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
+          {state.done[K - 1]?.text}
         </Text>
       </Box>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}
@@ -829,8 +835,6 @@ function ReadingScreen({ state }: ScreenProps) {
   const { step, unit, dec } = stepView(state);
   const target = state.targetsPa[state.current];
   const shown = shownPa(state, step, target);
-  const lo = fromPa(shown - step.bandPa, unit).toFixed(dec);
-  const hi = fromPa(shown + step.bandPa, unit).toFixed(dec);
   const plan = h.steps[state.current];
   const isolate = state.setup.header.gauges.filter((g) => {
     const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + state.barometerPa;
@@ -868,7 +872,8 @@ function ReadingScreen({ state }: ScreenProps) {
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
-          band {lo} - {hi} {unit} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
+          band {bandText(shown, step.bandPa, unit, dec)} {unit} at{' '}
+          {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {Math.abs(target - plan.target_Pa) > 1e-9 * target
             ? `   (re-targeted; planned ${fromPa(shownPa(state, step, plan.target_Pa), unit).toFixed(dec)})`
             : ''}

@@ -29,7 +29,7 @@ import {
   type RetargetInput,
   type UncertaintyResult,
 } from '../core/index.js';
-import { decimalsFor, fixedSig } from '../report/format.js';
+import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
 import { duration } from '../report/ready-report.js';
 import {
   parseQuantity,
@@ -879,6 +879,7 @@ export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): st
   const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
   const at = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit}`;
   const gauge = step.gauge?.id ?? 'the gauge';
+  const band = inwardBand(targetShown, step.bandPa, unit, dec);
   const times =
     ratio >= 1 ? `${fixedSig(ratio, 3)} x the target` : `1/${fixedSig(1 / ratio, 3)} of the target`;
   const why = sameNumber
@@ -886,7 +887,7 @@ export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): st
     : 'That is about the ratio of two pressure units';
   return (
     `typed "${text}" = ${at(shownPaTyped)} on ${gauge}; the target is ${at(targetShown)} ` +
-    `(band ${fromPa(targetShown - step.bandPa, unit).toFixed(dec)} - ${at(targetShown + step.bandPa)}): ` +
+    `(band ${band ? `${band.low} - ${band.high}` : `+-${fixedSig(fromPa(step.bandPa, unit), 2)}`} ${unit}): ` +
     `${times}. ${why}: likely the unit (${gauge} shows ${unit}).`
   );
 }

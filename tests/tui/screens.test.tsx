@@ -39,6 +39,8 @@ describe('fill screen (ink)', () => {
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     expect(ui.lastFrame()).toContain('head-1kT');
     expect(ui.lastFrame()).toContain('close off head-10T');
+    // the band rounded inward at the gauge's 0.01 Torr: 10.01276 - 0.05 = 9.96276 shows as 9.97, not 9.96
+    expect(ui.lastFrame()).toContain('band 9.97 - 10.06 Torr');
     ui.stdin.write('10.0128');
     await until(() => !!ui.lastFrame()?.includes('10.0128'), 'the typed reading');
     ui.stdin.write('\r');
