@@ -518,11 +518,39 @@ function CorrectScreen({ state }: ScreenProps) {
   );
 }
 
+/**
+ * the dangers this fill creates, every time its screen is shown: the plan's (accepted at the start)
+ * and those accepted at a review of the remaining fills, with the numbers the last review found
+ */
+function StepDangers({ state }: ScreenProps) {
+  const index = state.setup.steps[state.current].index;
+  const plan = state.setup.dangers.filter((d) => d.step === index);
+  const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
+  if (!plan.length && !review.length) return null;
+  return (
+    <Box flexDirection="column">
+      {plan.map((d, i) => (
+        <Text key={`p${i}`} bold wrap="wrap">
+          DANGER {d.code} (this fill; accepted at the start): {d.message}
+        </Text>
+      ))}
+      {review.map((h) => (
+        <Text key={h.key} bold wrap="wrap">
+          {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
+          logged): {h.numbers || h.text}
+        </Text>
+      ))}
+      <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+    </Box>
+  );
+}
+
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
   const { step } = stepView(state);
   const ds = state.setup.dangers.filter((d) => d.step === step.index);
+  const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
   return (
     <Box flexDirection="column">
       <Text bold>
@@ -530,12 +558,20 @@ function ReminderScreen({ state }: ScreenProps) {
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
       </Text>
       <Text wrap="wrap">
-        This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at
-        the start:
+        This fill ({step.species} from {step.source.id}) creates the state of the danger finding
+        {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
       </Text>
       {ds.map((d, i) => (
         <Text key={i} wrap="wrap">
           - {d.code}: {d.message}
+        </Text>
+      ))}
+      {rs.length && ds.length ? (
+        <Text wrap="wrap">and of the danger accepted at the review of the remaining fills (logged):</Text>
+      ) : null}
+      {rs.map((h) => (
+        <Text key={h.key} wrap="wrap">
+          - {h.code}: {h.numbers}. {h.text}
         </Text>
       ))}
       <Text> </Text>
@@ -879,6 +915,7 @@ function ReadingScreen({ state }: ScreenProps) {
             : ''}
         </Text>
       </Box>
+      <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}

@@ -54,6 +54,7 @@ import {
   onReviewEnter,
   reviewMemoryOf,
   withReview,
+  type ReviewHazard,
   type ReviewHooks,
   type ReviewMemory,
   type ReviewScreen,
@@ -320,6 +321,11 @@ export interface FillState {
   readonly review?: ReviewScreen;
   /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
   readonly reviewed?: ReviewMemory;
+  /**
+   * the hazards of the remainder accepted at a review, with their numbers as the last review found
+   * them: each fill's screen shows those at its step for as long as it is on screen
+   */
+  readonly acceptedHazards?: readonly ReviewHazard[];
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
 }
@@ -593,7 +599,8 @@ function enterStep(s: FillState): FillState {
   if (
     stepIndex !== undefined &&
     !s.reminded.includes(stepIndex) &&
-    s.setup.dangers.some((d) => d.step === stepIndex)
+    (s.setup.dangers.some((d) => d.step === stepIndex) ||
+      (s.acceptedHazards ?? []).some((h) => h.step === stepIndex && h.severity === 'danger'))
   )
     return { ...s, phase: 'reminder', input: '' };
   return { ...s, phase: 'reading' };
