@@ -16,6 +16,29 @@ export function decimalsFor(resolution: number): number {
   return Math.max(0, Math.min(8, Math.ceil(-Math.log10(resolution) - 1e-9)));
 }
 
+/**
+ * A pressure band's ends as printed at a display's decimals, rounded inward (the low end up, the
+ * high end down), so that any reading printed inside them lies inside the true band: target
+ * 10.01276 Torr +- 0.05 at 2 decimals prints 9.97 - 10.06, never 9.96; an end that
+ * falls on a display step is printed one step in. `undefined` where the band
+ * is narrower than the display step (no printed reading lies inside it). Shared by the sheet and
+ * the fill screens.
+ */
+export function inwardBand(
+  centerPa: number,
+  halfWidthPa: number,
+  unit: PressureUnit,
+  decimals: number,
+): { readonly low: string; readonly high: string } | undefined {
+  const f = 10 ** decimals;
+  // 1e-7 of a step further in: an end that falls on a step (to rounding noise) moves one step in,
+  // so the reading judged in Pa can never land a hair outside an end that was printed
+  const low = Math.ceil(fromPa(centerPa - halfWidthPa, unit) * f + 1e-7) / f;
+  const high = Math.floor(fromPa(centerPa + halfWidthPa, unit) * f - 1e-7) / f;
+  if (!(low <= high)) return undefined;
+  return { low: low.toFixed(decimals), high: high.toFixed(decimals) };
+}
+
 export function pressure(pa: number, unit: PressureUnit, sig = 6): string {
   return `${fixedSig(fromPa(pa, unit), sig)} ${unit}`;
 }

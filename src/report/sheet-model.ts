@@ -21,7 +21,7 @@ import {
 } from '../core/index.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
+import { decimalsFor, fixedSig, inwardBand, pressure, tankName } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
@@ -372,8 +372,10 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
   const dec = s.gauge ? Math.max(decimalsFor(fromPa(s.gauge.resolutionPa, gu)), 0) : 3;
   const reading = s.gauge ? s.gauge.readingPa : s.targetPa;
   const band = s.bandPa;
-  const low = fromPa(reading - band, gu).toFixed(dec);
-  const high = fromPa(reading + band, gu).toFixed(dec);
+  // rounded inward: a reading written inside the printed band lies inside the true band
+  const inward = inwardBand(reading, band, gu, dec);
+  const low = inward?.low ?? fromPa(reading - band, gu).toFixed(dec);
+  const high = inward?.high ?? fromPa(reading + band, gu).toFixed(dec);
   return {
     n: s.index,
     fill: s.species,
@@ -383,11 +385,10 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
     target: fromPa(reading, gu).toFixed(dec),
     low,
     high,
-    band:
-      low === high
-        ? `+-${fixedSig(fromPa(band, gu), 2)}: finer than the display step ` +
-          fromPa(s.gauge?.resolutionPa ?? 0, gu).toFixed(dec)
-        : `${low} - ${high}`,
+    band: !inward
+      ? `+-${fixedSig(fromPa(band, gu), 2)}: finer than the display step ` +
+        fromPa(s.gauge?.resolutionPa ?? 0, gu).toFixed(dec)
+      : `${low} - ${high}`,
     unit: gu,
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),

@@ -19,7 +19,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { decimalsFor, fixedSig } from '../report/format.js';
+import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
@@ -279,6 +279,12 @@ function Prompt({ state }: ScreenProps) {
   );
 }
 
+/** a fill's band as shown on its gauge, rounded inward; its half-width where the display cannot show it */
+function bandText(centerPa: number, bandPa: number, unit: PressureUnit, dec: number): string {
+  const b = inwardBand(centerPa, bandPa, unit, dec);
+  return b ? `${b.low} - ${b.high}` : `+-${fixedSig(fromPa(bandPa, unit), 2)} (finer than the display step)`;
+}
+
 function ErrorLine({ state }: ScreenProps) {
   return state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
 }
@@ -536,8 +542,8 @@ function BelowScreen({ state }: ScreenProps) {
           STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
         </Text>
         <Text>
-          band {fromPa(st - ls.bandPa, lu).toFixed(ld)} - {fromPa(st + ls.bandPa, lu).toFixed(ld)} {lu} on{' '}
-          {ls.gauge?.id ?? 'the gauge'}; logged now: {state.done[K - 1]?.text}
+          band {bandText(st, ls.bandPa, lu, ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
+          {state.done[K - 1]?.text}
         </Text>
       </Box>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}
@@ -625,11 +631,39 @@ function CorrectScreen({ state }: ScreenProps) {
   );
 }
 
+/**
+ * the dangers this fill creates, every time its screen is shown: the plan's (accepted at the start)
+ * and those accepted at a review of the remaining fills, with the numbers the last review found
+ */
+function StepDangers({ state }: ScreenProps) {
+  const index = state.setup.steps[state.current].index;
+  const plan = state.setup.dangers.filter((d) => d.step === index);
+  const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
+  if (!plan.length && !review.length) return null;
+  return (
+    <Box flexDirection="column">
+      {plan.map((d, i) => (
+        <Text key={`p${i}`} bold wrap="wrap">
+          DANGER {d.code} (this fill; accepted at the start): {d.message}
+        </Text>
+      ))}
+      {review.map((h) => (
+        <Text key={h.key} bold wrap="wrap">
+          {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
+          logged): {h.numbers || h.text}
+        </Text>
+      ))}
+      <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+    </Box>
+  );
+}
+
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
   const { step } = stepView(state);
   const ds = state.setup.dangers.filter((d) => d.step === step.index);
+  const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
   return (
     <Box flexDirection="column">
       <Text bold>
@@ -637,12 +671,20 @@ function ReminderScreen({ state }: ScreenProps) {
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
       </Text>
       <Text wrap="wrap">
-        This fill ({step.species} from {step.source.id}) creates the state of the danger finding accepted at
-        the start:
+        This fill ({step.species} from {step.source.id}) creates the state of the danger finding
+        {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
       </Text>
       {ds.map((d, i) => (
         <Text key={i} wrap="wrap">
           - {d.code}: {d.message}
+        </Text>
+      ))}
+      {rs.length && ds.length ? (
+        <Text wrap="wrap">and of the danger accepted at the review of the remaining fills (logged):</Text>
+      ) : null}
+      {rs.map((h) => (
+        <Text key={h.key} wrap="wrap">
+          - {h.code}: {h.numbers}. {h.text}
         </Text>
       ))}
       <Text> </Text>
@@ -942,8 +984,6 @@ function ReadingScreen({ state }: ScreenProps) {
   const { step, unit, dec } = stepView(state);
   const target = state.targetsPa[state.current];
   const shown = shownPa(state, step, target);
-  const lo = fromPa(shown - step.bandPa, unit).toFixed(dec);
-  const hi = fromPa(shown + step.bandPa, unit).toFixed(dec);
   // the planned target as shown: "re-targeted" only when the target on screen differs from it
   const planned = fromPa(shownPa(state, step, h.steps[state.current].target_Pa), unit).toFixed(dec);
   const isolate = state.setup.header.gauges.filter((g) => {
@@ -982,10 +1022,12 @@ function ReadingScreen({ state }: ScreenProps) {
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
-          band {lo} - {hi} {unit} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
+          band {bandText(shown, step.bandPa, unit, dec)} {unit} at{' '}
+          {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
       </Box>
+      <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       {state.judgement ? <JudgementView j={state.judgement} /> : null}

@@ -143,17 +143,20 @@ const NO_ALTERNATIVE = {
  * not have (and the operator has not accepted), the fill stops on the review screen. Only a state on
  * a fill step's screen is reviewed (a stopped or finished fill has no remainder).
  */
-export function withReview(s: FillState, trigger: ReviewTrigger, input: RetargetInput): FillState {
-  if ((s.phase !== 'reading' && s.phase !== 'reminder') || s.current >= s.setup.steps.length)
-    return s.review ? { ...s, review: undefined } : s;
+export function withReview(s0: FillState, trigger: ReviewTrigger, input: RetargetInput): FillState {
+  if ((s0.phase !== 'reading' && s0.phase !== 'reminder') || s0.current >= s0.setup.steps.length)
+    return s0.review ? { ...s0, review: undefined } : s0;
   const rv = reviewRemainder({
     retarget: input,
-    safety: safetyOf(s.setup),
-    planned: plannedOf(s.setup, input),
-    readingGrid: gridOf(s),
+    safety: safetyOf(s0.setup),
+    planned: plannedOf(s0.setup, input),
+    readingGrid: gridOf(s0),
   });
-  const accepted = new Set(s.reviewed?.accepted ?? []);
+  const accepted = new Set(s0.reviewed?.accepted ?? []);
   const open = rv.hazards.filter((f) => !accepted.has(hazardKey(f)));
+  // the accepted ones as this review finds them now: their fills' screens show them
+  const acceptedHazards = rv.hazards.filter((f) => accepted.has(hazardKey(f))).map(reviewHazardOf);
+  const s: FillState = { ...s0, acceptedHazards };
   if (!open.length) {
     // a state already in the tank (the fill just read, step <= current) is no longer "remaining"
     const ahead = rv.near.filter((f) => (f.step ?? 0) > s.current);
@@ -176,14 +179,7 @@ export function withReview(s: FillState, trigger: ReviewTrigger, input: Retarget
       message: said ? [s.message, said].filter(Boolean).join('; ') : s.message,
     };
   }
-  const hazards = open.map((f) => ({
-    key: hazardKey(f),
-    code: f.code,
-    step: f.step ?? null,
-    severity: f.severity,
-    numbers: numbersOf(f),
-    text: words(f),
-  }));
+  const hazards = open.map(reviewHazardOf);
   const alt = rv.alternative;
   const alternative: ReviewAlternative | undefined = alt && {
     fill: alt.fill,
@@ -204,6 +200,17 @@ export function withReview(s: FillState, trigger: ReviewTrigger, input: Retarget
       alternative,
       noAlternative: alt ? undefined : NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched'],
     },
+  };
+}
+
+function reviewHazardOf(f: Finding): ReviewHazard {
+  return {
+    key: hazardKey(f),
+    code: f.code,
+    step: f.step ?? null,
+    severity: f.severity,
+    numbers: numbersOf(f),
+    text: words(f),
   };
 }
 
@@ -313,6 +320,10 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   return hooks.enterStep({
     ...s,
     reviewed: { ...mem, accepted: [...mem.accepted, ...r.hazards.map((h) => h.key)] },
+    acceptedHazards: [
+      ...(s.acceptedHazards ?? []).filter((h) => !r.hazards.some((x) => x.key === h.key)),
+      ...r.hazards,
+    ],
     review: undefined,
     phase: 'reading',
     input: '',

@@ -29,7 +29,7 @@ import {
   type RetargetInput,
   type UncertaintyResult,
 } from '../core/index.js';
-import { decimalsFor, fixedSig } from '../report/format.js';
+import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
 import { duration } from '../report/ready-report.js';
 import {
   parseQuantity,
@@ -54,6 +54,7 @@ import {
   onReviewEnter,
   reviewMemoryOf,
   withReview,
+  type ReviewHazard,
   type ReviewHooks,
   type ReviewMemory,
   type ReviewScreen,
@@ -320,6 +321,11 @@ export interface FillState {
   readonly review?: ReviewScreen;
   /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
   readonly reviewed?: ReviewMemory;
+  /**
+   * the hazards of the remainder accepted at a review, with their numbers as the last review found
+   * them: each fill's screen shows those at its step for as long as it is on screen
+   */
+  readonly acceptedHazards?: readonly ReviewHazard[];
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
 }
@@ -593,7 +599,8 @@ function enterStep(s: FillState): FillState {
   if (
     stepIndex !== undefined &&
     !s.reminded.includes(stepIndex) &&
-    s.setup.dangers.some((d) => d.step === stepIndex)
+    (s.setup.dangers.some((d) => d.step === stepIndex) ||
+      (s.acceptedHazards ?? []).some((h) => h.step === stepIndex && h.severity === 'danger'))
   )
     return { ...s, phase: 'reminder', input: '' };
   return { ...s, phase: 'reading' };
@@ -906,6 +913,7 @@ export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): st
   const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
   const at = (pa: number) => `${fromPa(pa, unit).toFixed(dec)} ${unit}`;
   const gauge = step.gauge?.id ?? 'the gauge';
+  const band = inwardBand(targetShown, step.bandPa, unit, dec);
   const times =
     ratio >= 1 ? `${fixedSig(ratio, 3)} x the target` : `1/${fixedSig(1 / ratio, 3)} of the target`;
   const why = sameNumber
@@ -913,7 +921,7 @@ export function unitSlip(s: FillState, step: FillStep, shownPaTyped: number): st
     : 'That is about the ratio of two pressure units';
   return (
     `typed "${text}" = ${at(shownPaTyped)} on ${gauge}; the target is ${at(targetShown)} ` +
-    `(band ${fromPa(targetShown - step.bandPa, unit).toFixed(dec)} - ${at(targetShown + step.bandPa)}): ` +
+    `(band ${band ? `${band.low} - ${band.high}` : `+-${fixedSig(fromPa(step.bandPa, unit), 2)}`} ${unit}): ` +
     `${times}. ${why}: likely the unit (${gauge} shows ${unit}).`
   );
 }

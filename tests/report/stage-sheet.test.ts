@@ -194,7 +194,8 @@ describe.runIf((chromium && hasPoppler) || required)('the two-stage sheet printe
       expect(at).toBeLessThan(lines.findIndex((l) => /520\.28 Torr/.test(l)));
       // every gauge id and band whole on its line: none broken at its hyphen or dash
       expect(table).not.toMatch(/head-\s*\n/);
-      for (const band of ['370.45 – 371.95', '519.53 – 521.02', '1492.5 – 1507.5'])
+      // bands rounded inward (low end up, high end down; an end on a display step one step in)
+      for (const band of ['370.46 – 371.94', '519.54 – 521.02', '1492.6 – 1507.4'])
         expect(lines.join('\n')).toContain(band);
     },
   );

@@ -110,9 +110,18 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
       }),
     ]);
     expect(s2.targetsPa[1] / TORR).toBeCloseTo(400, 9);
+    expect(s2.acceptedHazards?.map((z) => z.key)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3']);
+    // fill 3 (O2) creates the accepted danger: it opens on the reminder, as a plan danger's fill does
     const s3 = read(s2, at(s2, 1));
-    expect(s3.phase).toBe('reading');
+    expect(s3.phase).toBe('reminder');
     expect(s3.current).toBe(2);
+    const s4 = enter(s3);
+    expect(s4.phase).toBe('reading');
+    expect(s4.reminded).toContain(3);
+    // the hazards stay known to the state with the numbers of the latest review (after the Ar reading)
+    expect(s4.acceptedHazards?.find((z) => z.code === 'closed-vessel-pressure')?.numbers).toMatch(
+      /ignited at [\d.]+ Torr it reaches [\d.]+ Torr \(working limit [\d.]+ Torr\)/,
+    );
   });
 
   it('undo: withdrawing the reading that caused the hazard clears the review; withdrawing another keeps it (trigger undo)', () => {
@@ -126,7 +135,8 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     expect(u.effects).toEqual([expect.objectContaining({ kind: 'withdraw', withdraws_line: 2, by: 'AB' })]);
     // CH4 high, accepted; Ar to its stop; then the Ar reading is undone: the remainder (Ar to 400,
     // O2 onto it) is reviewed again and the hazard, accepted, does not stop it; not accepted, it would
-    const a = read(read(l1, 'accept AB'), at(l1, 1));
+    // (fill 3 opens on the reminder of the accepted danger: Enter passes it)
+    const a = enter(read(read(l1, 'accept AB'), at(l1, 1)));
     const a2 = read(read(fillReducer(a, { type: 'logged', step: 2, line: 4 }), 'undo AB'), '');
     expect(a2.phase).toBe('reading');
     expect(a2.current).toBe(1);

@@ -9,6 +9,7 @@ import { WizardApp } from '../../src/tui/wizard-app.js';
 import { DEFAULTS, wizardInit, wizardReducer } from '../../src/tui/wizard-state.js';
 import { makeEvaluator } from '../../src/tui/wizard-eval.js';
 import type { NewLogEvent } from '../../src/io/batch-log.js';
+import { splitHeader } from '../split-plan.js';
 
 const tick = () => new Promise((r) => setTimeout(r, 30));
 /** wait until the screen (or the log) shows what the test expects: input is handled asynchronously, and slower under load */
@@ -60,6 +61,8 @@ describe('fill screen (ink)', () => {
     await until(() => !!ui.lastFrame()?.includes('STOP AT 10.01 Torr'), 'the first target');
     expect(ui.lastFrame()).toContain('head-1kT');
     expect(ui.lastFrame()).toContain('close off head-10T');
+    // the band rounded inward at the gauge's 0.01 Torr: 10.01276 - 0.05 = 9.96276 shows as 9.97, not 9.96
+    expect(ui.lastFrame()).toContain('band 9.97 - 10.06 Torr');
     ui.stdin.write('10.0128');
     await until(() => !!ui.lastFrame()?.includes('10.0128'), 'the typed reading');
     ui.stdin.write('\r');
@@ -121,6 +124,36 @@ describe('fill screen (ink)', () => {
 });
 
 describe('fill screens: danger, end, Ctrl-C (ink)', () => {
+  it('a danger accepted at the review of the remaining fills is shown on the fill that creates it, each time its screen is on', async () => {
+    // the split demo (CH4, Ar to 400 Torr, O2, Ar): CH4 read 40 % high makes igniting the tank after
+    // O2 (fill 3) pass the working limit (closed-vessel-pressure, checked in tests/tui/fill-review.test.ts)
+    const ui = render(
+      <FillApp initial={initialState(setupFromHeader(splitHeader()))} write={() => {}} logFile="s.jsonl" />,
+    );
+    const flat = () => (ui.lastFrame() ?? '').replace(/\s+/g, ' ');
+    await until(() => flat().includes('fill 1 of 4'), 'the first fill');
+    ui.stdin.write('14.0179\r');
+    await until(() => flat().includes('accept INITIALS'), 'the review');
+    ui.stdin.write('accept TT\r');
+    await until(() => flat().includes('fill 2 of 4') && !flat().includes('accept INITIALS'), 'fill 2');
+    // fill 2 (Ar) does not create it: not shown there
+    expect(flat()).not.toContain('closed-vessel-pressure (this fill');
+    ui.stdin.write('400.00\r');
+    await until(() => flat().includes('DANGER AT THIS FILL'), 'the reminder of fill 3');
+    expect(flat()).toMatch(
+      /accepted at the review of the remaining fills \(logged\): - closed-vessel-pressure: ignited at/,
+    );
+    ui.stdin.write('\r');
+    const shown =
+      /DANGER closed-vessel-pressure \(this fill; accepted at the review of the remaining fills, logged\): ignited at [\d.]+ Torr it reaches [\d.]+ Torr \(working limit [\d.]+ Torr\)/;
+    await until(() => flat().includes('STOP AT') && shown.test(flat()), 'the danger on the O2 screen');
+    // still there after a refused entry
+    ui.stdin.write('abc\r');
+    await until(() => flat().includes('! '), 'the refusal');
+    expect(flat()).toMatch(shown);
+    ui.unmount();
+  });
+
   const TORR = 101325 / 760;
   it('a reading past the working limit is written at once, then the danger screen with the vent-back reading; the choice is written beside it', async () => {
     const written: NewLogEvent[] = [];
