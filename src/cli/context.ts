@@ -19,6 +19,11 @@ export const EXIT = {
   interrupted: 130,
   /** `check`: the guided fill went on through hazards its review found and the plan did not have */
   acceptedHazard: 6,
+  /**
+   * `check` and `label`: not a pass, though not out of tolerance: the uncertainty reaches past the
+   * tolerance (NOT SHOWN WITHIN TOLERANCE), or the fill was never closed (NOT CLOSED)
+   */
+  notShown: 7,
 } as const;
 
 /** thrown by a command to end with an exit code (its message is already printed) */
@@ -96,5 +101,13 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
         `see \`mixwright check ${logFile}\`\n`,
     );
     throw new ExitSignal(EXIT.danger);
+  }
+  // as `check` (exit 7): inside the tolerance on the readings, but not shown within it
+  if (r.verdict === 'pass-uncertain') {
+    cli.err(
+      `mixwright: ${logFile}: the re-check is NOT SHOWN WITHIN TOLERANCE (the uncertainty reaches ` +
+        `past the tolerance): not a pass; see \`mixwright check ${logFile}\`\n`,
+    );
+    throw new ExitSignal(EXIT.notShown);
   }
 }
