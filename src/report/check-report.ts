@@ -528,6 +528,27 @@ export function stageJson(r: CheckReport) {
     : null;
 }
 
+/** stage 2: the premix tank's checks as `check --json` gives them, in log order */
+function premixChecksJson(r: CheckReport) {
+  return (r.premixChecks ?? []).map((c) =>
+    c.kind === 'mixed'
+      ? { kind: c.kind, line: c.line, tank: c.tank, by: c.by, time: c.time, note: c.note ?? null }
+      : {
+          kind: c.kind,
+          line: c.line,
+          tank: c.tank,
+          gauge: c.gauge,
+          reading: c.reading,
+          pressure_Pa: c.pressurePa,
+          minimum_Pa: c.minimumPa,
+          enough: c.enough,
+          by: c.by,
+          time: c.time,
+          note: c.note ?? null,
+        },
+  );
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -586,23 +607,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_altered_lines: r.record ? r.record.alteredLines : null,
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
-    premix_checks: (r.premixChecks ?? []).map((c) =>
-      c.kind === 'mixed'
-        ? { kind: c.kind, line: c.line, tank: c.tank, by: c.by, time: c.time, note: c.note ?? null }
-        : {
-            kind: c.kind,
-            line: c.line,
-            tank: c.tank,
-            gauge: c.gauge,
-            reading: c.reading,
-            pressure_Pa: c.pressurePa,
-            minimum_Pa: c.minimumPa,
-            enough: c.enough,
-            by: c.by,
-            time: c.time,
-            note: c.note ?? null,
-          },
-    ),
+    premix_checks: premixChecksJson(r),
     stage: stageJson(r),
     premix_logs: (r.premixLogs ?? []).map((p) => ({
       log: p.log,
