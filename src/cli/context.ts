@@ -19,6 +19,11 @@ export const EXIT = {
   interrupted: 130,
   /** `check`: the guided fill went on through hazards its review found and the plan did not have */
   acceptedHazard: 6,
+  /**
+   * `check` and `label`: not a pass, though not out of tolerance: the uncertainty reaches past the
+   * tolerance (NOT SHOWN WITHIN TOLERANCE), or the fill was never closed (NOT CLOSED)
+   */
+  notShown: 7,
 } as const;
 
 /** thrown by a command to end with an exit code (its message is already printed) */

@@ -1,6 +1,6 @@
 /**
  * How a guided fill ends the command: Ctrl-C exits 130 with what the log holds and how to resume;
- * a fill whose log was closed exits as `check` of that log would (checkExit: 4, 3, 6, 5 in that
+ * a fill whose log was closed exits as `check` of that log would (checkExit: 4, 3, 6, 5, 7 in that
  * precedence), from `check`'s own re-check of the log at the end screen.
  */
 import { checkExit } from './commands/check.js';
@@ -32,6 +32,11 @@ function why(code: number, logFile: string): string {
       return (
         `ACCEPTED HAZARD: the fill went on through hazards its review of the remaining fills found ` +
         `(accepted at the manifold); have them reviewed before the tank is used; ${see}`
+      );
+    case EXIT.notShown:
+      return (
+        `the re-check is NOT SHOWN WITHIN TOLERANCE (the uncertainty reaches past the tolerance): ` +
+        `not a pass; ${see}`
       );
     default:
       return `RECORD ALTERED: a line of the log no longer matches its hash chain; ${see}`;

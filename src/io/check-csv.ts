@@ -83,6 +83,21 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
   const plan = planFill(req.input);
   const warnings: string[] = [];
   if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
+  // the readings cannot say whether the fill went through the plan's dangers, nor who accepted them
+  const dangers = [
+    ...new Set(
+      plan.findings
+        .filter((f) => f.severity === 'danger')
+        .map((f) => `${f.code}${f.step ? ` (fill ${f.step})` : ''}`),
+    ),
+  ];
+  if (dangers.length)
+    warnings.push(
+      `the plan of recipe ${opts.recipeFile} carries danger findings (${dangers.join(', ')}) for a fill in ` +
+        `its order; CSV readings do not record whether the fill went through them, nor whether they were ` +
+        `reviewed or accepted; see \`mixwright plan ${opts.recipeFile}\` and have the fill reviewed ` +
+        `before the batch is used`,
+    );
   const tank = opts.tankId === undefined ? tankOf(plan.tank, 'recipe') : labTank(req.lab, opts.tankId);
   if (tank.id !== plan.tank.id)
     warnings.push(

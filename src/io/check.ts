@@ -34,7 +34,7 @@ import {
   type CheckOptions,
   type CheckReport,
 } from './check-shared.js';
-import type { VentRecordOf } from '../report/check-types.js';
+import type { PremixCheckRecord, VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
 import { premixLogReport, premixLogsOf } from './premix-check.js';
 import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
@@ -234,6 +234,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
       acceptedHazards: accepted,
     },
     premixLogs: premix.map(premixLogReport),
+    premixChecks: premixChecksOf(log),
     vent: ventReport(
       log,
       Object.fromEntries(Object.entries(result.composition).map(([k, st]) => [k, st.value])),
@@ -250,6 +251,37 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
         }
       : {}),
   };
+}
+
+/** stage 2: the premix tank's checks before the first fill from it (mixed, read), in log order */
+function premixChecksOf(log: ParsedLog): PremixCheckRecord[] {
+  const h = log.header;
+  const pc = h.stage?.premix_check;
+  const unitOf = (gauge: string) =>
+    (pc?.gauge?.id === gauge ? pc.gauge.unit : h.gauges.find((g) => g.id === gauge)?.unit) ?? 'Torr';
+  const mixed = log.premixMixed.map((m): PremixCheckRecord => ({
+    kind: 'mixed',
+    line: m.line,
+    tank: m.tank,
+    by: m.by,
+    time: m.time,
+    ...(m.note ? { note: m.note } : {}),
+  }));
+  const read = log.premixReadings.map((r): PremixCheckRecord => ({
+    kind: 'reading',
+    line: r.line,
+    tank: r.tank,
+    gauge: r.gauge,
+    reading: r.reading,
+    pressurePa: r.pressure_Pa,
+    minimumPa: r.minimum_Pa,
+    enough: r.enough,
+    unit: unitOf(r.gauge),
+    by: r.by,
+    time: r.time,
+    ...(r.note ? { note: r.note } : {}),
+  }));
+  return [...mixed, ...read].sort((a, b) => a.line - b.line);
 }
 
 /**

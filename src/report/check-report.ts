@@ -3,6 +3,7 @@ import { fixedSig, padTable } from './format.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import {
   hazardList,
+  premixCheckText,
   type AcceptedHazard,
   type AmendmentRecord,
   type CheckReport,
@@ -97,6 +98,23 @@ function startLines(r: CheckReport): string[] {
     out.push('');
   }
   return out;
+}
+
+/** a premix check's pressure in its gauge's unit (Pa where the unit is not a pressure unit) */
+export function premixPressure(pa: number, unit: string): string {
+  const u = isPressureUnit(unit) ? unit : 'Pa';
+  return `${fixedSig(fromPa(pa, u), 7)} ${u}`;
+}
+
+/** stage 2: the premix tank's checks before the first fill from it, each as logged (refused ones too) */
+function premixCheckLines(r: CheckReport): string[] {
+  const checks = r.premixChecks ?? [];
+  if (!checks.length) return [];
+  return [
+    'Premix tank checks (before the first fill from the premix, as logged)',
+    ...checks.map((c) => `  ${premixCheckText(c, premixPressure)}`),
+    '',
+  ];
 }
 
 const molText = (n: number | undefined) =>
@@ -402,6 +420,7 @@ export function checkToText(r: CheckReport): string {
   out.push(...readingsTable(r));
   out.push('');
   out.push(...startLines(r));
+  out.push(...premixCheckLines(r));
   const order = Object.entries(r.result.composition).sort((a, b) => b[1].value - a[1].value);
   out.push(...compositionTable(r, order));
   out.push('');
@@ -509,6 +528,27 @@ export function stageJson(r: CheckReport) {
     : null;
 }
 
+/** stage 2: the premix tank's checks as `check --json` gives them, in log order */
+function premixChecksJson(r: CheckReport) {
+  return (r.premixChecks ?? []).map((c) =>
+    c.kind === 'mixed'
+      ? { kind: c.kind, line: c.line, tank: c.tank, by: c.by, time: c.time, note: c.note ?? null }
+      : {
+          kind: c.kind,
+          line: c.line,
+          tank: c.tank,
+          gauge: c.gauge,
+          reading: c.reading,
+          pressure_Pa: c.pressurePa,
+          minimum_Pa: c.minimumPa,
+          enough: c.enough,
+          by: c.by,
+          time: c.time,
+          note: c.note ?? null,
+        },
+  );
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -567,6 +607,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_altered_lines: r.record ? r.record.alteredLines : null,
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
+    premix_checks: premixChecksJson(r),
     stage: stageJson(r),
     premix_logs: (r.premixLogs ?? []).map((p) => ({
       log: p.log,

@@ -144,6 +144,12 @@ export interface CheckReportOf<F extends RecordFinding> {
     readonly premixLog?: string;
   };
   /**
+   * stage 2: the premix tank's checks before the first fill from it, as logged, in log order (the
+   * premix confirmed mixed; the premix tank read against the minimum the batch needs, refused ones
+   * too); absent or empty: none logged
+   */
+  readonly premixChecks?: readonly PremixCheckRecord[];
+  /**
    * premix logs the batch log names that could not be re-checked (missing, changed since the batch
    * recorded them, or not usable; `label` only, as `check` refuses such a log): the composition then
    * uses the premix as the batch log recorded it, without the premix's uncertainty, and is never
@@ -274,3 +280,50 @@ export interface AcceptedHazard {
 /** "flammable-state (fill 3), closed-vessel-pressure (fill 3)" */
 export const hazardList = (a: AcceptedHazard): string =>
   a.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ');
+
+/** stage 2: a check of the premix tank before the first fill from it, as the batch log holds it */
+export type PremixCheckRecord =
+  | {
+      readonly kind: 'mixed';
+      readonly line: number;
+      readonly tank: string;
+      readonly by: string;
+      readonly time: string;
+      readonly note?: string;
+    }
+  | {
+      readonly kind: 'reading';
+      readonly line: number;
+      readonly tank: string;
+      readonly gauge: string;
+      /** as typed, with its unit */
+      readonly reading: string;
+      /** absolute premix-tank pressure, and the minimum the batch needs (absolute), Pa */
+      readonly pressurePa: number;
+      readonly minimumPa: number;
+      /** at or above the minimum: the fill went on to draw from the premix; below it, it did not */
+      readonly enough: boolean;
+      /** the gauge's unit, for display */
+      readonly unit: string;
+      readonly by: string;
+      readonly time: string;
+      readonly note?: string;
+    };
+
+/**
+ * a premix check in words, the one wording of `check` and the certificate: "MT-2 read 600.0 Torr on
+ * head-10kT (600.0 Torr absolute) by AB at T (line 3): BELOW the minimum 621.7 Torr absolute ..."
+ */
+export function premixCheckText(c: PremixCheckRecord, show: (pa: number, unit: string) => string): string {
+  if (c.kind === 'mixed')
+    return `premix in ${c.tank} confirmed mixed by ${c.by} at ${c.time} (line ${c.line})${c.note ? `: ${c.note}` : ''}`;
+  return (
+    `premix tank ${c.tank} read ${c.reading} on ${c.gauge} (${show(c.pressurePa, c.unit)} absolute) by ${c.by} ` +
+    `at ${c.time} (line ${c.line}), against the minimum ${show(c.minimumPa, c.unit)} absolute the batch ` +
+    `needs: ` +
+    (c.enough
+      ? 'enough, the fill went on to draw from it'
+      : 'BELOW the minimum, refused: the fill did not draw from it on this reading') +
+    (c.note ? ` (${c.note})` : '')
+  );
+}

@@ -7,7 +7,8 @@
  * functions of this model.
  */
 import { STANDING_CAUTION } from '../core/index.js';
-import type { CheckReport, LoggedReading, LogView } from './check-types.js';
+import { premixCheckText, type CheckReport, type LoggedReading, type LogView } from './check-types.js';
+import { premixPressure } from './check-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, tankName } from './format.js';
 import { labelLines, labelModel, type LabelModel } from './label-model.js';
@@ -355,6 +356,8 @@ export function buildCertificateModel(
     label.dilution ?? 'n/a',
   ];
   const acknowledgements = [
+    // stage 2: the premix confirmed mixed and read before the first fill from it (refused readings too)
+    ...(r.premixChecks ?? []).map((c) => premixCheckText(c, premixPressure)),
     ...(log?.acknowledgements ?? []).map(
       (a) =>
         `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}` +

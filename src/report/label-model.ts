@@ -210,6 +210,9 @@ function offDesign(r: CheckReport): string[] {
       );
   }
   if (r.incomplete.length) out.push(`no reading for ${r.incomplete.join(', ')}`);
+  // as check's verdict marks it: gas may have gone in after the last reading
+  else if (r.record && !r.record.closed)
+    out.push('NOT CLOSED: the fill never ended with a close entry; read the tank before it is used');
   return out;
 }
 

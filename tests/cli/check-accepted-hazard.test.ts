@@ -40,8 +40,8 @@ const review = (outcome: 'accepted' | 'safer-stop'): NewLogEvent => ({
 });
 
 describe('check of a log whose fill went on through an accepted review hazard', () => {
-  it('as the demo log checks (exit 0), with the accepted review: the verdict names it and the exit is 6, text and JSON', async () => {
-    expect((await runCli(['check', DEMO, '--json'])).code).toBe(0);
+  it('as the demo log checks (exit 7, not shown within tolerance), with the accepted review: the verdict names it and the exit is 6, text and JSON', async () => {
+    expect((await runCli(['check', DEMO, '--json'])).code).toBe(7);
     const f = logWith(review('accepted'));
     const text = await runCli(['check', f]);
     expect(text.code).toBe(6);
@@ -54,7 +54,7 @@ describe('check of a log whose fill went on through an accepted review hazard', 
     const json = await runCli(['check', f, '--json']);
     expect(json.code).toBe(6);
     const j = JSON.parse(json.stdout);
-    // the demo log's own verdict (within tolerance, its 95 % interval reaching past it: exit 0 alone)
+    // the demo log's own verdict (within tolerance, its 95 % interval reaching past it: exit 7 alone)
     expect(j.verdict).toBe('pass-uncertain');
     expect(j.accepted_hazards).toEqual([
       {
@@ -71,25 +71,34 @@ describe('check of a log whose fill went on through an accepted review hazard', 
     expect(j.verdict_caveats.join('\n')).toContain('ACCEPTED HAZARD');
   });
 
-  it('the safer stop taken instead: no accepted hazard, exit 0 (the review stays a warning of the record)', async () => {
+  it("the safer stop taken instead: no accepted hazard, the demo log's exit 7 (the review stays a warning of the record)", async () => {
     const f = logWith(review('safer-stop'));
     const r = await runCli(['check', f, '--json']);
-    expect(r.code).toBe(0);
+    expect(r.code).toBe(7);
     expect(JSON.parse(r.stdout).accepted_hazards).toEqual([]);
   });
 
-  it('precedence (README): out of tolerance 4, then a danger of the record 3, then an accepted hazard 6, then an altered record 5', () => {
+  it('precedence (README): out of tolerance 4, then a danger of the record 3, then an accepted hazard 6, then an altered record 5, then not shown / not closed 7', () => {
     const accepted = [{ found: 'review', step: 3, by: 'QX', time: 't', hazards: [] }];
-    const report = (verdict: 'pass' | 'fail', danger: boolean, acc: boolean, altered: boolean) =>
+    const report = (
+      verdict: 'pass' | 'pass-uncertain' | 'fail',
+      danger: boolean,
+      acc: boolean,
+      altered: boolean,
+      closed = true,
+    ) =>
       ({
         verdict: { verdict },
         findings: danger ? [{ severity: 'danger' }] : [],
-        record: { alteredLines: altered ? [3] : [], closed: true, acceptedHazards: acc ? accepted : [] },
+        record: { alteredLines: altered ? [3] : [], closed, acceptedHazards: acc ? accepted : [] },
       }) as unknown as CheckReport;
     expect(checkExit(report('fail', true, true, true))).toBe(4);
     expect(checkExit(report('pass', true, true, true))).toBe(3);
     expect(checkExit(report('pass', false, true, true))).toBe(6);
     expect(checkExit(report('pass', false, false, true))).toBe(5);
+    expect(checkExit(report('pass-uncertain', false, false, true))).toBe(5);
+    expect(checkExit(report('pass-uncertain', false, false, false))).toBe(7);
+    expect(checkExit(report('pass', false, false, false, false))).toBe(7);
     expect(checkExit(report('pass', false, false, false))).toBe(0);
   });
 

@@ -105,4 +105,27 @@ describe("a plan's danger accepted at the start of the fill", () => {
     expect(j.accepted_hazards).toEqual([]);
     expect(j.warnings.join('\n')).toContain('that the log shows no acknowledgement of');
   });
+
+  it("CSV readings checked against a recipe whose plan carries a danger: check says so (the CSV can't say more)", async () => {
+    const args = ['--trials', '100000', '--json'];
+    const ng = JSON.parse(
+      (await runCli(['check', 'readings/ng-blend-air.csv', '--recipe', 'recipes/ng-blend-air.yaml', ...args]))
+        .stdout,
+    );
+    expect(ng.warnings.join('\n')).toContain(
+      'the plan of recipe recipes/ng-blend-air.yaml carries danger findings (detonable-state (fill 3))',
+    );
+    const ch4 = JSON.parse(
+      (
+        await runCli([
+          'check',
+          'readings/ch4-phi1-ar98.csv',
+          '--recipe',
+          'recipes/ch4-o2-ar-phi1.yaml',
+          ...args,
+        ])
+      ).stdout,
+    );
+    expect(ch4.warnings.join('\n')).not.toContain('carries danger findings');
+  });
 });

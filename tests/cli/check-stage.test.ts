@@ -37,9 +37,9 @@ describe('check of a stage-1 log', () => {
     const { file } = writePremixLog(tmp(), premixTargets, { close: false });
     const r = await runCli(['check', file, ...TRIALS]);
     const plain = await runCli(['check', file, ...TRIALS, '--json']);
-    // as any batch log at its targets never closed (README: marked NOT CLOSED; no exit code of its own)
-    expect(r.code).toBe(0);
-    expect(plain.code).toBe(0);
+    // as any batch log never closed (README: marked NOT CLOSED, not a pass: exit 7)
+    expect(r.code).toBe(7);
+    expect(plain.code).toBe(7);
     expect(r.stdout).toContain('NOT CLOSED');
     expect(r.stdout).toContain('Stage 1 of 2: the premix of batch b1');
     expect(r.stdout).toMatch(/Stage 2 will refuse this premix log: it must be closed/);

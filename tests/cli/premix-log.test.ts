@@ -228,9 +228,15 @@ describe('an altered or unclosed premix log', () => {
     expect(JSON.parse(j.stdout)).toMatchObject({ record_altered_lines: [3], record_closed: true });
   });
 
-  it('check: a log never closed is marked NOT CLOSED beside its pass (exit 0: the numbers are as logged)', async () => {
+  it('check: a log never closed is marked NOT CLOSED beside its pass, and is not a pass (exit 7)', async () => {
     const r = await runCli(['check', unclosed, '--trials', '100000']);
-    expect(r.code).toBe(0);
+    expect(r.code).toBe(7);
+    // the label says it on the label itself, and exits as check
+    const label = await runCli(['label', unclosed, '--trials', '100000']);
+    expect(label.code).toBe(7);
+    expect(label.stdout.slice(0, label.stdout.indexOf('BATCH CERTIFICATE'))).toContain(
+      'NOT CLOSED: the fill never ended with a close entry',
+    );
     expect(r.stdout).toMatch(/^Verdict {5}PASS - .* - NOT CLOSED: /m);
   });
 

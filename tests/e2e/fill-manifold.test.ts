@@ -119,7 +119,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       // the demo at its targets is shown within only on the values: check's words, never a bare pass
       expect(s).toMatch(/Re-check of the log \(mixwright check\): NOT SHOWN WITHIN TOLERANCE - not a pass/);
       await t.keys('q');
-      expect(await exitStatus(t)).toBe(0);
+      // not a pass: exit 7 as check (README "Exit codes")
+      expect(await exitStatus(t)).toBe(7);
       const rep = await checkFile(join(dir, 'batches', 'temp.jsonl'), { trials: 0, seed: 1 });
       expect(rep.verdict.verdict).not.toBe('fail');
       expect(rep.readings[2].temperatureK).toBeCloseTo(299.25, 9);
@@ -128,7 +129,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
     }
   }, 60000);
 
-  it('a last fill read below its band keeps the batch open: more gas, the new reading with initials corrects it, then the batch closes (exit 0)', async () => {
+  it('a last fill read below its band keeps the batch open: more gas, the new reading with initials corrects it, then the batch closes (exit 7: not shown within tolerance)', async () => {
     const { dir, t } = session('low');
     try {
       t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch low --dir batches`));
@@ -152,7 +153,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       // the demo at its targets is shown within only on the values: check's words, never a bare pass
       expect(s).toMatch(/Re-check of the log \(mixwright check\): NOT SHOWN WITHIN TOLERANCE - not a pass/);
       await t.keys('q');
-      expect(await exitStatus(t)).toBe(0);
+      // not a pass: exit 7 as check (README "Exit codes")
+      expect(await exitStatus(t)).toBe(7);
       const l = readLog(log);
       expect(l.closed).toBe(true);
       expect(l.amendments.map((a) => [a.kind, a.by, a.reason])).toEqual([
@@ -343,7 +345,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       // the demo at its targets is shown within only on the values: check's words, never a bare pass
       expect(s).toMatch(/Re-check of the log \(mixwright check\): NOT SHOWN WITHIN TOLERANCE - not a pass/);
       await t.keys('q');
-      expect(await exitStatus(t)).toBe(0);
+      // not a pass: exit 7 as check (README "Exit codes")
+      expect(await exitStatus(t)).toBe(7);
       const l = readLog(log);
       expect(l.closed).toBe(true);
       expect(l.readings.map((r) => [r.step, r.source, r.charge])).toEqual([

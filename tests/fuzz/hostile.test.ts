@@ -377,7 +377,7 @@ describe('fuzz: hostile files and numbers', () => {
               : ['check', f, '--recipe', RECIPE, '--json', '--trials', '100000'];
           const a = await run(args(plain));
           const b = await run(args(bom));
-          judge(b, [0, 2, 3, 4], `BOM ${kind}`);
+          judge(b, [0, 2, 3, 4, 7], `BOM ${kind}`); // 7: the demo readings are not shown within tolerance
           expect(b.code).toBe(a.code);
           expect(b.stdout.split(bom).join('F')).toBe(a.stdout.split(plain).join('F'));
         }),

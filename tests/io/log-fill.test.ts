@@ -252,7 +252,9 @@ describe('a torn last line', () => {
     const rep = await checkFile(file, { trials: 0, seed: 1 });
     expect(rep.findings.map((f) => f.code)).toEqual(['torn-side-file']);
     const cli = await runCli(['check', file, '--trials', '100000']);
-    expect(cli.code, cli.stderr).toBe(0);
+    // readable; its fill never closed (no close line), so not a pass (README "Exit codes": NOT CLOSED, 7)
+    expect(rep.record?.closed).toBe(false);
+    expect(cli.code, cli.stderr).toBe(7);
     expect(cli.stdout).toContain(`moved it to ${join(dir, side[0])}`);
   });
 });

@@ -88,19 +88,28 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
 }
 
 /** check's exit codes beside a verdict, the first of them that applies wins (README "Exit codes") */
-const EXIT_PRECEDENCE = [EXIT.outOfTolerance, EXIT.danger, EXIT.acceptedHazard, EXIT.recordAltered];
+const EXIT_PRECEDENCE = [
+  EXIT.outOfTolerance,
+  EXIT.danger,
+  EXIT.acceptedHazard,
+  EXIT.recordAltered,
+  EXIT.notShown,
+];
 
 /**
  * The exit code of one re-check: out of tolerance (or incomplete) 4; else a reading past a tank's
  * working limit or a gauge's range, which stands beside any verdict, 3; else a fill that went on
- * through hazards its review found (accepted at the manifold) 6; else numbers that are not as first
- * logged 5; else 0.
+ * through hazards (accepted at the manifold) 6; else numbers that are not as first logged 5; else
+ * a verdict that is not a pass all the same (NOT SHOWN WITHIN TOLERANCE: the uncertainty reaches past
+ * the tolerance; or a log never closed) 7; else 0. A tool that reads only the exit code never sees 0
+ * where the words say "this is not a pass".
  */
 export function checkExit(report: {
   readonly verdict: { readonly verdict: string };
   readonly findings: readonly { readonly severity: string }[];
   readonly record?: {
     readonly alteredLines: readonly number[];
+    readonly closed?: boolean;
     readonly acceptedHazards?: readonly unknown[];
   };
 }): number {
@@ -108,6 +117,7 @@ export function checkExit(report: {
   if (report.findings.some((f) => f.severity === 'danger')) return EXIT.danger;
   if (report.record?.acceptedHazards?.length) return EXIT.acceptedHazard;
   if (report.record?.alteredLines.length) return EXIT.recordAltered;
+  if (report.verdict.verdict === 'pass-uncertain' || report.record?.closed === false) return EXIT.notShown;
   return EXIT.ok;
 }
 

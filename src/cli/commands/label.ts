@@ -118,15 +118,22 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
     cli.err(`mixwright: ${target}: the log records a danger; the label says the tank is not fit to use\n`);
     throw new ExitSignal(EXIT.danger);
   }
-  // as `check` (exits 6 and 5): hazards accepted at the manifold, a record changed after it was written
-  // (4 and 3 are thrown above, so `check`'s own precedence leaves 6, 5 or 0 here)
+  // as `check` (exits 6, 5 and 7): hazards accepted at the manifold, a record changed after it was
+  // written, a verdict short of a pass (4 and 3 are thrown above, so `check`'s own precedence leaves
+  // 6, 5, 7 or 0 here)
   const code = checkExit(report);
   if (code !== EXIT.ok) {
     cli.err(
       code === EXIT.recordAltered
         ? `mixwright: ${target}: the log was changed after it was written; the label says RECORD ` +
             'ALTERED and shows no pass\n'
-        : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
+        : code === EXIT.notShown
+          ? `mixwright: ${target}: the re-check is not a pass (${
+              report.verdict.verdict === 'pass-uncertain'
+                ? 'NOT SHOWN WITHIN TOLERANCE: the uncertainty reaches past the tolerance'
+                : 'NOT CLOSED: the fill never ended with a close entry'
+            }); the label says so\n`
+          : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
     );
     throw new ExitSignal(code);
   }
