@@ -64,6 +64,7 @@ const premixHeader: LogHeader = {
   ...stage1Header(two.plan, two.req, BATCH_ID, '2026-11-29T14:05:00Z', next),
   id: 'demo-premix-o2-ar-mt2',
 };
+const PREMIX_CLOSED = '2026-11-29T14:45:00Z';
 fill(
   PREMIX,
   two.plan.twoStage!.premix,
@@ -72,7 +73,7 @@ fill(
     { torr: 1636.8, degC: 25.0, time: '2026-11-29T14:21:00Z', note: 'MT-2 evacuated to 0.02 Torr first' },
     { torr: 1890.2, degC: 25.0, time: '2026-11-29T14:38:00Z' },
   ],
-  { time: '2026-11-29T14:45:00Z', note: 'left overnight to mix' },
+  { time: PREMIX_CLOSED, note: 'left overnight to mix' },
 );
 
 // stage 2: the batch from the premix log (targets 10.013 / 371.19 / 520.27 / 1500.0 Torr), its
@@ -82,7 +83,7 @@ const premixUsed = { file: PREMIX, id: premixHeader.id, sha256: fileSha256(PREMI
 fill(
   BATCH,
   batch.plan,
-  stage2Header(batch.plan, batch.req, BATCH_ID, '2026-11-30T10:30:00Z', premixUsed, BATCH),
+  stage2Header(batch.plan, batch.req, BATCH_ID, '2026-11-30T10:30:00Z', premixUsed, BATCH, PREMIX_CLOSED),
   [
     {
       torr: 10.0129,

@@ -39,11 +39,18 @@ describe('the demo premix and batch logs', () => {
         'mixwright fill recipes/ch4-o2-ar-phi1.yaml --premix-log batches/demo-premix-o2-ar-mt2.jsonl ' +
         '--batch demo-ch4-phi1-from-premix --dir batches',
     });
-    expect(batch.header.stage).toEqual({
+    expect(batch.header.stage).toMatchObject({
       number: 2,
       of: 2,
       batch: 'demo-ch4-phi1-from-premix',
       premix_log: { file: 'demo-premix-o2-ar-mt2.jsonl', id: premix.header.id, sha256: fileSha256(PREMIX) },
+    });
+    // the premix check the fill asks, with the premix log's close time and last reading it is judged by
+    expect(batch.header.stage?.premix_check).toMatchObject({
+      tank: 'MT-2',
+      premix_log_closed: premix.closeTime,
+      premix_log_last_Pa: premix.readings.at(-1)!.pressure_Pa,
+      premix_log_draws: 0,
     });
     expect(batch.header.premix_logs).toEqual([
       { source: 'premix-MT-2', path: 'demo-premix-o2-ar-mt2.jsonl', last_entry_sha256: premix.lastLink },
