@@ -66,6 +66,7 @@ const premixHeader: LogHeader = {
   ...stage1Header(two.plan, two.req, BATCH_ID, '2026-11-29T14:05:00Z', next),
   id: 'demo-premix-o2-ar-mt2',
 };
+const PREMIX_CLOSED = '2026-11-29T14:45:00Z';
 fill(
   PREMIX,
   two.plan.twoStage!.premix,
@@ -74,14 +75,22 @@ fill(
     { torr: 1636.8, degC: 25.0, time: '2026-11-29T14:21:00Z', note: 'MT-2 evacuated to 0.02 Torr first' },
     { torr: 1890.2, degC: 25.0, time: '2026-11-29T14:38:00Z' },
   ],
-  { time: '2026-11-29T14:45:00Z', note: 'left overnight to mix' },
+  { time: PREMIX_CLOSED, note: 'left overnight to mix' },
 );
 
 // stage 2: the batch from the premix log (targets 10.013 / 371.19 / 520.27 / 1500.0 Torr), its
 // header as `fill RECIPE --premix-log PREMIX --batch BATCH_ID --dir batches` writes it
 const batch = planFrom(RECIPE, { premixLog: PREMIX });
 const premixUsed = { file: PREMIX, id: premixHeader.id, sha256: fileSha256(PREMIX)! };
-const batchHeader = stage2Header(batch.plan, batch.req, BATCH_ID, '2026-11-30T10:30:00Z', premixUsed, BATCH);
+const batchHeader = stage2Header(
+  batch.plan,
+  batch.req,
+  BATCH_ID,
+  '2026-11-30T10:30:00Z',
+  premixUsed,
+  BATCH,
+  PREMIX_CLOSED,
+);
 const check = batchHeader.stage!.premix_check!;
 fill(
   BATCH,

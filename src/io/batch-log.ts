@@ -160,6 +160,14 @@ const stageSchema = lazy(() =>
         fills: z.array(z.number().int().positive()).min(1),
         /** stirred (lab profile), and diffusion alone to 0.1 % at the premix pressure, s */
         mixing: z.object({ stirred: z.boolean(), rest_s: z.number().positive() }).optional(),
+        /**
+         * the premix log as the batch was started from it: when it was closed (the mixing time is
+         * counted from it), its last reading (absolute) and how many other batches drew from it;
+         * planned_Pa is that reading less their draws. Absent in older logs.
+         */
+        premix_log_closed: z.string().optional(),
+        premix_log_last_Pa: z.number().positive().optional(),
+        premix_log_draws: z.number().int().min(0).optional(),
       })
       .optional(),
   }),
@@ -672,6 +680,8 @@ export interface ParsedLog {
   readonly closed: boolean;
   /** the note of the close line, if any */
   readonly closeNote?: string;
+  /** the time of the close line, if any (a premix log's: when its mixing time starts at the latest) */
+  readonly closeTime?: string;
   readonly issues: readonly RecordIssue[];
   /** the issues of severity warning, as sentences (e.g. a torn last line) */
   readonly warnings: readonly string[];
@@ -713,6 +723,7 @@ interface ReaderState {
   start?: ParsedLog['start'];
   closed: boolean;
   closeNote?: string;
+  closeTime?: string;
   issues: RecordIssue[];
   link: string;
   complete: number;
@@ -965,6 +976,7 @@ const EVENT_READERS: Readonly<Record<string, EventReader>> = {
     if (!c.success) bad(file, lineNo, 'close', c.error.issues);
     st.closed = true;
     st.closeNote = c.data.note;
+    st.closeTime = c.data.time;
   },
 };
 
@@ -988,6 +1000,7 @@ function parsedOf(st: ReaderState, file: string): ParsedLog {
     premixReadings: [...st.premixReadings],
     closed: st.closed,
     closeNote: st.closeNote,
+    closeTime: st.closeTime,
     issues: [...st.issues],
     warnings,
     lines: st.complete,

@@ -138,10 +138,12 @@ export function stage2Header(
   created: string,
   premix: { file: string; id: string; sha256: string },
   batchLog: string,
+  /** the premix log's close time, if closed (the mixing time is counted from it) */
+  premixClosed?: string,
 ): LogHeader {
   const h = headerFromPlan(plan, req, batchId, created, batchLog);
   const file = relative(dirname(resolve(batchLog)), resolve(premix.file)) || basename(premix.file);
-  const check = premixCheckOf(plan, req);
+  const check = premixCheckOf(plan, req, premixClosed);
   return {
     ...h,
     stage: {
@@ -158,7 +160,7 @@ export function stage2Header(
  * the premix tank's check before the batch's first fill from it, as the stage-2 sheet prints it (same
  * function, same lab profile): the guided fill asks for the reading and the mixing with initials
  */
-function premixCheckOf(plan: Plan, req: PlanRequest): StageOfLog['premix_check'] {
+function premixCheckOf(plan: Plan, req: PlanRequest, premixClosed?: string): StageOfLog['premix_check'] {
   const lab = { gauges: req.input.gauges, reading: req.input.reading, tanks: req.lab.tanks };
   const c = premixTankCheck(plan, lab, 'Torr');
   if (!c) return undefined;
@@ -174,6 +176,10 @@ function premixCheckOf(plan: Plan, req: PlanRequest): StageOfLog['premix_check']
     delivered_mol: c.delivery.deliveredMol,
     fills: [...c.fills],
     ...(mixing ? { mixing: { stirred: mixing.stirred, rest_s: mixing.restS } } : {}),
+    ...(premixClosed ? { premix_log_closed: premixClosed } : {}),
+    ...(plan.premixLog
+      ? { premix_log_last_Pa: plan.premixLog.lastReadingPa, premix_log_draws: plan.premixLog.draws.length }
+      : {}),
   };
 }
 
@@ -214,7 +220,8 @@ export function createBatchStageLog(
   // the premix log as a path from here (absolute when it lies outside the working folder)
   const rel = relative(process.cwd(), use.path);
   const premixLog = rel && !rel.startsWith('..') ? rel : use.path;
-  const premixHeader = readLog(use.path).header;
+  const premixParsed = readLog(use.path);
+  const premixHeader = premixParsed.header;
   const sha256 = premixLogBytes(use.path, {});
   const stage = premixHeader.stage;
   const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
@@ -226,6 +233,9 @@ export function createBatchStageLog(
   mkdirSync(dirname(file), { recursive: true });
   // the bytes the batch rests on: a resume refuses a premix log that changed since
   const premix = { file: premixLog, id: premixHeader.id, sha256 };
-  createLog(file, stage2Header(plan, req, batchId, new Date().toISOString(), premix, file));
+  createLog(
+    file,
+    stage2Header(plan, req, batchId, new Date().toISOString(), premix, file, premixParsed.closeTime),
+  );
   return file;
 }

@@ -119,6 +119,10 @@ export interface PremixCheck {
   readonly mixing?: { readonly stirred: boolean; readonly restS: number };
   /** the premix log the batch draws from, as the header names it */
   readonly premixLog?: string;
+  /** when the premix log was closed (ISO), its last reading (absolute Pa) and the other batches' draws */
+  readonly premixClosed?: string;
+  readonly premixLastPa?: number;
+  readonly premixDraws?: number;
 }
 
 /** what the log holds of the premix check: who confirmed the mixing, and the last premix-tank reading */
@@ -131,6 +135,8 @@ export interface PremixDone {
     readonly enough: boolean;
     readonly by: string;
   };
+  /** a premix-tank reading well below what the premix log predicts, asked about and not logged yet */
+  readonly questioned?: { readonly text: string; readonly pressurePa: number };
 }
 
 /**
@@ -371,6 +377,9 @@ export function setupFromHeader(header: LogHeader): FillSetup {
     fills: pc.fills,
     mixing: pc.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s },
     premixLog: header.stage?.premix_log?.file,
+    premixClosed: pc.premix_log_closed,
+    premixLastPa: pc.premix_log_last_Pa,
+    premixDraws: pc.premix_log_draws,
   };
   return {
     header,
@@ -2399,10 +2408,35 @@ function onPremixEnter(s: FillState, now: string): FillState {
   return onPremixReading(s, text, now);
 }
 
-/** `mixed INITIALS`: the premix was mixed for the stated time (a `premix-mixed` event) */
+/** the least stirring time the screen asks of a stirred premix tank (common practice: 15-30 min) */
+export const PREMIX_STIR_MIN_S = 15 * 60;
+
+/**
+ * The time since the premix log was closed against the least mixing time asked (stirred: 15 min;
+ * unstirred: the rest time): undefined when either is not known (an older log, no tank height).
+ */
+export function premixMixingElapsed(
+  pc: PremixCheck,
+  now: string,
+): { readonly elapsedS: number; readonly neededS: number; readonly early: boolean } | undefined {
+  const closed = pc.premixClosed ? Date.parse(pc.premixClosed) : NaN;
+  const at = Date.parse(now);
+  if (!Number.isFinite(closed) || !Number.isFinite(at) || !pc.mixing) return undefined;
+  const elapsedS = (at - closed) / 1000;
+  const neededS = pc.mixing.stirred ? PREMIX_STIR_MIN_S : pc.mixing.restS;
+  return { elapsedS, neededS, early: elapsedS < neededS };
+}
+
+const elapsedWords = (t: number) => (t < 0 ? `${duration(-t)} before it (by this clock)` : duration(t));
+
+/**
+ * `mixed INITIALS`: the premix was mixed for the stated time (a `premix-mixed` event, with the time
+ * since the premix log closed). Less than the least mixing time since then: said, and only
+ * `mixed early INITIALS` confirms it (logged so, with the elapsed time).
+ */
 function onPremixMixed(s: FillState, text: string, now: string): FillState {
   const pc = s.setup.premixCheck!;
-  const m = /^mixed\s+([A-Za-z]{1,6})$/i.exec(text);
+  const m = /^mixed\s+(early\s+)?([A-Za-z]{1,6})$/i.exec(text);
   if (!m)
     return {
       ...s,
@@ -2411,21 +2445,65 @@ function onPremixMixed(s: FillState, text: string, now: string): FillState {
         `type mixed and your initials (e.g. mixed AB) once the premix in ${pc.tank} was ` +
         `${premixMixingWords(pc)}; stop INITIALS stops the batch here`,
     };
+  const by = m[2];
+  const t = premixMixingElapsed(pc, now);
+  const since = t && `${elapsedWords(t.elapsedS)} since the premix log was closed (${pc.premixClosed})`;
+  const least =
+    t && (pc.mixing?.stirred ? `stirring ${duration(t.neededS)}` : `resting ${duration(t.neededS)}`);
+  if (t?.early && !m[1])
+    return {
+      ...s,
+      input: '',
+      error:
+        `only ${since}; the premix asks ${premixMixingWords(pc)}, at least ${least}: not logged. Wait, or if ` +
+        `it was mixed all the same, type mixed early ${by} to confirm it (logged with the time); stop ${by} ` +
+        'stops the batch here',
+    };
+  const note =
+    `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${by}` +
+    (t
+      ? `; ${since}` + (t.early ? `, less than the ${least} asked: confirmed as mixed early by ${by}` : '')
+      : '; the time since the premix log was closed is not known');
   return {
     ...s,
     input: '',
-    premix: { ...s.premix, mixedBy: m[1] },
-    effects: [
-      {
-        kind: 'premix-mixed',
-        tank: pc.tank,
-        by: m[1],
-        time: now,
-        note: `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${m[1]}`,
-      },
-    ],
-    message: `${m[1]} confirms the premix in ${pc.tank} was mixed (logged). Now read ${pc.tank}`,
+    premix: { ...s.premix, mixedBy: by },
+    effects: [{ kind: 'premix-mixed', tank: pc.tank, by, time: now, note }],
+    message:
+      `${by} confirms the premix in ${pc.tank} was mixed${t?.early ? ' EARLY' : ''} (logged). ` +
+      `Now read ${pc.tank}`,
   };
+}
+
+/** how far below the premix log's prediction a premix-tank reading is questioned: 3 % (about 9 K cooler) + the gauge */
+const PREMIX_LOW_REL = 0.03;
+
+/**
+ * A premix-tank reading well below what the premix log predicts (its last reading less the other
+ * batches' draws, planned_Pa): more than 3 % (the tank ~9 K cooler than at that reading) plus the
+ * gauge's accuracy below it. What to ask, in words; undefined when not below.
+ */
+export function premixReadingDoubt(
+  pc: PremixCheck,
+  absolutePa: number,
+  unit: PressureUnit,
+): string | undefined {
+  const g = pc.gauge;
+  const gaugeU = g ? g.accuracyOfReading * pc.plannedPa + g.accuracyOfFullScale * g.fullScalePa : 0;
+  const short = pc.plannedPa - absolutePa;
+  if (!(short > PREMIX_LOW_REL * pc.plannedPa + gaugeU)) return undefined;
+  const basis =
+    pc.premixLastPa !== undefined
+      ? `the premix log's last reading ${fmtIn(pc.premixLastPa, unit)}` +
+        (pc.premixDraws
+          ? ` less what ${pc.premixDraws} other batch log(s) drew from it`
+          : ', nothing drawn since')
+      : 'the premix log and the batches drawn from it';
+  return (
+    `${fmtIn(absolutePa, unit)} absolute is ${fmtIn(short, unit)} (${((100 * short) / pc.plannedPa).toFixed(1)} %) ` +
+    `below the ${fmtIn(pc.plannedPa, unit)} expected from ${basis}: a leak, the wrong tank or the wrong gauge ` +
+    '(or a much colder tank)?'
+  );
 }
 
 /** the premix tank's reading with initials (a `premix-reading` event, logged even below the minimum) */
@@ -2458,6 +2536,19 @@ function onPremixReading(s: FillState, text: string, now: string): FillState {
   if (!(absolute > 0))
     return { ...s, input: '', error: `the premix tank's pressure must be above zero absolute; not logged` };
   const textLogged = `${w.value}${/[A-Za-z]/.test(w.value) ? '' : ` ${unit}`}`;
+  // well below what the premix log predicts: asked first; the same reading typed again is logged with it
+  const doubt = premixReadingDoubt(pc, absolute, unit);
+  const asked = s.premix?.questioned;
+  if (doubt && !(asked && Math.abs(asked.pressurePa - absolute) <= 1e-9 * absolute))
+    return {
+      ...s,
+      input: '',
+      premix: { ...s.premix, questioned: { text: textLogged, pressurePa: absolute } },
+      error:
+        `NOT logged yet: ${doubt} Check the tank valve, the line and the gauge, and read ${pc.tank} again; ` +
+        `type the reading with your initials again to log it as read (the difference is logged with it), or ` +
+        `stop ${w.by}`,
+    };
   // the sheet's rule: the reading on the gauge at least the minimum printed (rounded up to its step)
   const enough = absolute >= pc.minimumPa * (1 - 1e-12);
   const ev: NewLogEvent = {
@@ -2471,10 +2562,20 @@ function onPremixReading(s: FillState, text: string, now: string): FillState {
     enough,
     by: w.by,
     time: now,
-    ...(enough ? {} : { note: `below the minimum ${pc.minimum}: the batch does not draw from it` }),
+    ...(enough && !doubt
+      ? {}
+      : {
+          note: [
+            doubt ? `${doubt} Read again and confirmed as read by ${w.by}` : undefined,
+            enough ? undefined : `below the minimum ${pc.minimum}: the batch does not draw from it`,
+          ]
+            .filter(Boolean)
+            .join('; '),
+        }),
   };
   const premix: PremixDone = {
     ...s.premix,
+    questioned: undefined,
     reading: { text: textLogged, pressurePa: absolute, enough, by: w.by },
   };
   if (!enough)
@@ -2493,6 +2594,7 @@ function onPremixReading(s: FillState, text: string, now: string): FillState {
     effects: [ev],
     message:
       `${pc.tank} reads ${textLogged} (logged by ${w.by}), at least the minimum ${pc.minimum}: ` +
-      `fill ${pc.fills[0]} may draw from it`,
+      `fill ${pc.fills[0]} may draw from it` +
+      (doubt ? `; it is below what the premix log predicts, logged with the reading: ${doubt}` : ''),
   });
 }

@@ -70,9 +70,23 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
           s = flat(await t.waitFor(/THE\s+PREMIX\s+TANK\s+MT-2/));
           expect(s).toMatch(/The premix in MT-2 mixed: stirred since its last fill/);
           expect(s).toContain('read MT-2 on head-10kT: at least 621.7 Torr');
+          // stage 1 closed moments ago: less than the 15 min of stirring asked; only mixed early logs it
           await t.type('mixed AB');
           await t.keys('Enter');
+          s = flat(await t.waitFor(/type\s+mixed\s+early\s+AB/));
+          expect(s).toMatch(
+            /only \d+ s since the premix log was closed .* at least stirring 15 min: not logged/,
+          );
+          await t.type('mixed early AB');
+          await t.keys('Enter');
           await t.waitFor(/confirms\s+the\s+premix/);
+          // 600 Torr where the premix log predicts its last reading (nothing drawn): asked, then logged
+          await t.type('600 AB');
+          await t.keys('Enter');
+          s = flat(await t.waitFor(/NOT\s+logged\s+yet/));
+          expect(s).toMatch(
+            /600\.000 Torr absolute is [\d.]+ Torr \([\d.]+ %\) below the [\d.]+ Torr expected from the premix log's last reading/,
+          );
           await t.type('600 AB');
           await t.keys('Enter');
           s = flat(await t.waitFor(/REFUSED/));
@@ -85,6 +99,7 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
             ['1890.2 Torr', true],
           ]);
           expect(readLog(batchLog).premixMixed.map((r) => r.by)).toEqual(['AB']);
+          expect(readLog(batchLog).premixMixed[0].note).toMatch(/confirmed as mixed early by AB$/);
         }
         s = await t.waitFor(new RegExp(`fill ${k} of 4`));
         expect(s).toContain('mixwright fill b1 ');

@@ -53,6 +53,13 @@ describe('the demo premix and batch logs', () => {
     expect(batch.premixReadings.map((e) => [e.reading, e.enough])).toEqual([['1890.1 Torr', true]]);
     expect(batch.premixMixed[0].line).toBeLessThan(batch.premixReadings[0].line);
     expect(batch.premixReadings[0].line).toBeLessThan(fill3.line);
+    // the premix check the fill asks, with the premix log's close time and last reading it is judged by
+    expect(batch.header.stage?.premix_check).toMatchObject({
+      tank: 'MT-2',
+      premix_log_closed: premix.closeTime,
+      premix_log_last_Pa: premix.readings.at(-1)!.pressure_Pa,
+      premix_log_draws: 0,
+    });
     expect(batch.header.premix_logs).toEqual([
       { source: 'premix-MT-2', path: 'demo-premix-o2-ar-mt2.jsonl', last_entry_sha256: premix.lastLink },
     ]);

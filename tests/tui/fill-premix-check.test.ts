@@ -89,7 +89,11 @@ describe('stage 2: the premix check before the first fill from the premix', () =
     s = step(s, 'mixed AB', log);
     expect(log.at(-1)).toMatchObject({ kind: 'premix-mixed', tank: 'MT-2', by: 'AB' });
     expect(s.phase).toBe('premix');
-    s = step(s, '600 CD', log);
+    // 600 Torr is far below what the premix log predicts: asked first, not logged; typed again, logged
+    const asked = step(s, '600 CD', log);
+    expect(asked.effects).toEqual([]);
+    expect(asked.error).toMatch(/^NOT logged yet: 600\.000 Torr absolute is .* below the .* expected/);
+    s = step(asked, '600 CD', log);
     expect(log.at(-1)).toMatchObject({
       kind: 'premix-reading',
       tank: 'MT-2',
@@ -127,7 +131,7 @@ describe('stage 2: the premix check before the first fill from the premix', () =
     let s = initialState(setupFromHeader(h));
     s = step(s, (s.targetsPa[0] / TORR).toFixed(2), log);
     s = step(s, (s.targetsPa[1] / TORR).toFixed(2), log);
-    s = step(step(s, 'mixed AB', log), '600 AB', log);
+    s = step(step(step(s, 'mixed AB', log), '600 AB', log), '600 AB', log);
     const end = step(s, 'stop AB', log);
     expect(end.phase).toBe('ended');
     expect(log.at(-1)).toMatchObject({ kind: 'close' });
@@ -158,5 +162,111 @@ describe('stage 2: the premix check before the first fill from the premix', () =
       expect(a.result.composition[k].u).toBe(b.result.composition[k].u);
     }
     expect(a.verdict.verdict).toBe(b.verdict.verdict);
+  });
+
+  describe('the mixing time and the premix-tank reading are checked against the premix log', () => {
+    // the demo premix log closes at 09:30:00 (tests/stage-logs.ts); its last reading is the one the
+    // header's planned_Pa rests on (no other batch drew from it)
+    const hClosed = (closed: string, stirred = true): LogHeader => {
+      const h2 = stage2Header(
+        planned.plan,
+        planned.req,
+        'b1',
+        '2026-12-03T09:40:00Z',
+        { file, id: 'b1-premix', sha256: fileSha256(file)! },
+        join(dir, 'b1.jsonl'),
+        closed,
+      );
+      const pc = h2.stage!.premix_check!;
+      return stirred
+        ? h2
+        : {
+            ...h2,
+            stage: { ...h2.stage!, premix_check: { ...pc, mixing: { stirred: false, rest_s: 27000 } } },
+          };
+    };
+    const toPremix = (h2: LogHeader, now: string, log: NewLogEvent[]) => {
+      let s = initialState(setupFromHeader(h2));
+      for (let k = 0; k < 2; k++) s = step(s, (s.targetsPa[k] / TORR).toFixed(2), log);
+      expect(s.phase).toBe('premix');
+      return { s, at: (t: FillState, text: string) => fillReducer(type(t, text), { type: 'enter', now }) };
+    };
+
+    it('mixed 49 s after the premix log closed (stirred, 15 min asked): said, not logged; mixed early INITIALS logs it with the time', () => {
+      const log: NewLogEvent[] = [];
+      const { s, at } = toPremix(hClosed('2026-12-03T09:59:11Z'), NOW, log);
+      const refused = at(s, 'mixed TT');
+      expect(refused.effects).toEqual([]);
+      expect(refused.premix?.mixedBy).toBeUndefined();
+      expect(refused.error).toMatch(
+        /^only 49 s since the premix log was closed \(2026-12-03T09:59:11Z\); .* at least stirring 15 min: not logged\. .*type mixed early TT/,
+      );
+      const ok = at(refused, 'mixed early TT');
+      expect(ok.effects).toEqual([
+        expect.objectContaining({
+          kind: 'premix-mixed',
+          by: 'TT',
+          note: expect.stringMatching(
+            /49 s since the premix log was closed .* confirmed as mixed early by TT/,
+          ),
+        }),
+      ]);
+      expect(ok.message).toMatch(/mixed EARLY \(logged\)/);
+    });
+
+    it('a stirred tank 30 min after the premix log closed is not held up; the time is logged', () => {
+      const log: NewLogEvent[] = [];
+      const { s, at } = toPremix(hClosed('2026-12-03T09:30:00Z'), NOW, log);
+      const ok = at(s, 'mixed TT');
+      expect(ok.error).toBeUndefined();
+      expect(ok.effects).toEqual([
+        expect.objectContaining({
+          kind: 'premix-mixed',
+          note: expect.stringMatching(/; 30 min since the premix log was closed \(2026-12-03T09:30:00Z\)$/),
+        }),
+      ]);
+    });
+
+    it('an unstirred tank (7.5 h rest asked) 30 min after: early, asked', () => {
+      const { s, at } = toPremix(hClosed('2026-12-03T09:30:00Z', false), NOW, []);
+      expect(at(s, 'mixed TT').error).toMatch(/^only 30 min since .* at least resting 7\.5 h: not logged/);
+    });
+
+    it('1500 Torr where the premix log predicts 1890.2 Torr: the expected value and the difference are said; typed again it is logged with them', () => {
+      const log: NewLogEvent[] = [];
+      const h2 = hClosed('2026-12-03T09:30:00Z');
+      const pc = h2.stage!.premix_check!;
+      // nothing drawn: planned_Pa is the premix log's last reading
+      expect(pc.premix_log_draws).toBe(0);
+      expect(pc.planned_Pa).toBeCloseTo(pc.premix_log_last_Pa!, 6);
+      const { s, at } = toPremix(h2, NOW, log);
+      const mixed = at(s, 'mixed TT');
+      const expected = (pc.planned_Pa / TORR).toPrecision(6);
+      const short = ((pc.planned_Pa - 1500 * TORR) / TORR).toPrecision(6);
+      const q = at(mixed, '1500 TT');
+      expect(q.effects).toEqual([]);
+      expect(q.error).toContain(
+        `NOT logged yet: 1500.00 Torr absolute is ${short} Torr (${((100 * (pc.planned_Pa - 1500 * TORR)) / pc.planned_Pa).toFixed(1)} %) below the ${expected} Torr expected from the premix log's last reading ${expected} Torr, nothing drawn since: a leak, the wrong tank or the wrong gauge`,
+      );
+      // a different reading is judged afresh (1889.5: within 3 % + the gauge, logged at once)
+      const fine = at(q, '1889.5 TT');
+      expect(fine.effects).toEqual([
+        expect.objectContaining({ kind: 'premix-reading', reading: '1889.5 Torr' }),
+      ]);
+      expect((fine.effects[0] as { note?: string }).note).toBeUndefined();
+      // the same low reading twice: logged as read, the question and the answer in its note
+      expect(at(q, '1500 TT').effects).toEqual([
+        expect.objectContaining({
+          kind: 'premix-reading',
+          reading: '1500 Torr',
+          enough: true,
+          note: expect.stringMatching(
+            new RegExp(
+              `${short} Torr .* below the ${expected} Torr expected .* Read again and confirmed as read by TT$`,
+            ),
+          ),
+        }),
+      ]);
+    });
   });
 });
