@@ -9,6 +9,7 @@
 import {
   chooseGauge,
   gaugeReadingPa,
+  gaugeTopAbsolutePa,
   mixingEstimate,
   predictionOf,
   premixStartForEndPa,
@@ -81,6 +82,12 @@ export interface PremixTankCheck {
   readonly delivery: PremixDeliveryCheck;
   /** the batch's fills from the premix, in fill order */
   readonly fills: readonly number[];
+  /**
+   * the heads still open at the first premix fill whose range ends below the premix tank's pressure:
+   * closed off before the line is filled from it; `reopen` when a later reading of the plan needs it
+   * (only once the line is back below its range)
+   */
+  readonly closeOff: readonly { readonly id: string; readonly topPa: number; readonly reopen: boolean }[];
 }
 
 /**
@@ -128,7 +135,38 @@ export function premixTankCheck(
     plannedPa: del.startPa,
     delivery: del,
     fills,
+    closeOff: lab ? closeOffFor(plan, lab, fills[0], d.upperPa) : [],
   };
+}
+
+/** the heads open before fill `first` (the plan's own close-offs before it done) that read only below `upperPa` */
+function closeOffFor(plan: Plan, lab: SheetLab, first: number, upperPa: number): PremixTankCheck['closeOff'] {
+  const closedAt = new Map<string, number>();
+  for (const s of plan.steps) for (const g of s.isolateBefore) closedAt.set(g.id, s.index);
+  return lab.gauges
+    .filter((g) => (closedAt.get(g.id) ?? Infinity) > first)
+    .map((g) => ({ g, topPa: gaugeTopAbsolutePa(g, lab.reading) }))
+    .filter(({ topPa }) => topPa < upperPa)
+    .map(({ g, topPa }) => ({
+      id: g.id,
+      topPa,
+      // a head the plan reads on at or after this fill, before its own close-off
+      reopen: plan.steps.some(
+        (s) => s.index >= first && s.gauge?.id === g.id && (closedAt.get(g.id) ?? Infinity) > s.index,
+      ),
+    }));
+}
+
+/** "Close off head-1kT (...) before the line is filled from MT-2; open it again ..." or nothing */
+function closeOffWords(c: PremixTankCheck, tank: string, batchTank: string, unit: PressureUnit): string {
+  if (!c.closeOff.length) return '';
+  const heads = c.closeOff.map((h) => `${h.id} (it reads only up to ${pressure(h.topPa, unit, 5)} absolute)`);
+  const again = c.closeOff.filter((h) => h.reopen).map((h) => h.id);
+  const reopen = again.length
+    ? `; open ${again.join(' and ')} again for the fill only once the line is back below ` +
+      `${again.length > 1 ? 'their ranges' : 'its range'} (${tank}'s valve closed, the ${batchTank} valve opened)`
+    : '';
+  return `Close off ${heads.join(' and ')} before the line is filled from ${tank}${reopen}. `;
 }
 
 /** the premix tank's check as the sheet's row: the gauge, the minimum, and why, in words */
@@ -159,6 +197,7 @@ function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: Press
     unit: gu,
     planned,
     note:
+      closeOffWords(c, tank, tankName(plan.tank.id), unit) +
       `Before fill ${first}, with the ${tankName(plan.tank.id)} valve closed and the line filled from ${tank}, ` +
       `${readOn}: at least ${minimum} ${gu} (planned ${planned} ${gu}). Below that, do not fill from it: ` +
       `delivering the ${fixedSig(del.deliveredMol, 3)} mol of ${which} would leave ${tank} below ` +

@@ -65,7 +65,9 @@ describe('fill --premix-tank: refusals before any gas flows (exit 2)', () => {
     expect(r.stderr).toContain('(error code: stage-fill)');
     // the plan's delivery check (plan prints it as the premix-runs-low danger): 240 Torr falls to 190.62
     expect(r.stderr).toMatch(/the premix tank MT-2, filled to 240 Torr as planned, falls to 190\.62 Torr/);
-    expect(r.stderr).toContain('must reach 212.87 Torr');
+    // the batch reads the premix at 520.28 Torr after CH4 and Ar 1/2 (not at 212.87 Torr through a
+    // flammable state: the search never trades a state hazard for a supply finding)
+    expect(r.stderr).toContain('must reach 520.28 Torr');
     expect(existsSync(join(dir, 'batches'))).toBe(false);
   });
 

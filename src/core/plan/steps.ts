@@ -47,7 +47,7 @@ export function planSteps(basis: PlanBasis, amounts: PlanAmounts, sequence: Plan
   const mols = chargeAmounts(basis, sequence.charges, basis.input.sources, amounts.allocation.amountsMol);
   const states = chargeStates(basis, sequence.charges, mols);
   const numbers = chargeNumbers(sequence.charges.map((c) => c.source.id));
-  const connected = new Set(basis.input.gauges.map((g) => g.id));
+  const connected = new Set(manifoldOf(basis).map((g) => g.id));
   const findings: Finding[] = [];
   // the supply of each source judged as the final checks judge it (supply-check.ts)
   const supplied = supplyFindings(
@@ -163,10 +163,17 @@ function dPdRho(rho: number, temperatureK: number, B: number, C: number): number
   return R * temperatureK * (1 + 2 * B * rho + 3 * C * rho * rho);
 }
 
+/** every head on the manifold: the plan's reading gauges, and any others it must close off */
+function manifoldOf(basis: PlanBasis): readonly Gauge[] {
+  const read = basis.input.gauges;
+  const others = (basis.input.manifoldGauges ?? []).filter((g) => !read.some((r) => r.id === g.id));
+  return [...read, ...others];
+}
+
 /** the still-connected gauges whose range ends below `upperPa`: they are closed off (and forgotten) */
 function isolateFor(basis: PlanBasis, connected: Set<string>, upperPa: number): PlanStep['isolateBefore'] {
   const out: PlanStep['isolateBefore'][number][] = [];
-  for (const g of basis.input.gauges) {
+  for (const g of manifoldOf(basis)) {
     const top = gaugeTopAbsolutePa(g, basis.input.reading);
     if (connected.has(g.id) && top < upperPa) {
       connected.delete(g.id);

@@ -257,6 +257,7 @@ function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly
       order: choice.order === 'minor-first' ? 'given' : 'recommend',
       safety: b.safety,
       gauges,
+      manifoldGauges: b.gauges,
       reading: b.reading,
       tolerance: b.tolerance,
     }),

@@ -59,6 +59,11 @@ export interface PlanInput {
   readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
   readonly inTank?: { readonly composition: Fractions; readonly pressurePa: number };
   readonly gauges: readonly Gauge[];
+  /**
+   * every head on the manifold, read or not (default: `gauges`): a plan read on some of them (the
+   * premix stage on one head) still closes off the others before a fill passes their range
+   */
+  readonly manifoldGauges?: readonly Gauge[];
   readonly reading: ReadingContext;
   readonly tolerance: Tolerance;
   /**
