@@ -816,15 +816,16 @@ const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 function parseReading(
   s: FillState,
   step: FillStep,
-): { shown: number; temperatureK: number } | { error: string } {
+): { shown: number; temperatureK: number } | { error: string; temperature?: true } {
   try {
     const text = s.input.trim();
     if (text === '') fail({ code: 'reading-missing', expected: 'pressure' });
     const shown = READING_NUMBER.test(text)
       ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure')
       : parseQuantity(text, 'pressure');
-    const temperatureK = parseTemperature(s.temperatureText);
-    return { shown, temperatureK };
+    const temperature = temperatureOf(s, text);
+    if ('error' in temperature) return temperature;
+    return { shown, temperatureK: temperature.temperatureK };
   } catch (e) {
     if (!(e instanceof ProblemError)) throw e;
     const p = e.problem;
@@ -835,6 +836,33 @@ function parseReading(
       ),
     };
   }
+}
+
+/** the tank temperature field, read; when it cannot be, the refusal names it (the reading typed is kept) */
+function temperatureOf(
+  s: FillState,
+  reading: string,
+): { temperatureK: number } | { error: string; temperature: true } {
+  try {
+    return { temperatureK: parseTemperature(s.temperatureText) };
+  } catch (e) {
+    if (!(e instanceof ProblemError)) throw e;
+    return {
+      temperature: true,
+      error:
+        `the TANK TEMPERATURE field holds "${s.temperatureText.trim()}", which cannot be taken: ` +
+        `${describeProblem(e.problem).replace(/\.?$/, '.')} The reading "${reading}" is kept and NOT logged yet: correct the ` +
+        'temperature (the cursor is in its field; e.g. 22.5 degC), then Enter logs the reading with it',
+    };
+  }
+}
+
+/**
+ * a reading refused: the field is cleared for the next try, but a reading refused for the
+ * temperature field is kept and the cursor moves to that field
+ */
+function refusedReading(s: FillState, r: { error: string; temperature?: true }): FillState {
+  return r.temperature ? { ...s, field: 'temperature', error: r.error } : { ...s, input: '', error: r.error };
 }
 
 function parseTemperature(text: string): number {
@@ -1290,26 +1318,40 @@ function limitCost(finalText: string, deviations: readonly FractionDeviation[]):
  * A reading past the gauge head's range, in words. Past the tank's working limit too, that comes
  * first: if the value is real the tank is over its limit (what to do now), then the likely slip.
  */
+/**
+ * A typed reading past its gauge's range: no reading of that gauge can show it, so it is a typing
+ * slip or the unit, and it is not logged (a real over-pressure shows as the gauge's over-range, not
+ * as a number: the over-limit flow applies to a number read). Says what was typed, what it is on the
+ * gauge, the range, what to do; and what an over-range display itself would mean for the tank.
+ */
 function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: number): string {
   const unit = gaugeUnit(step);
   const gauge = step.gauge!;
   const limit = s.setup.workingLimitPa;
   const tank = s.setup.header.tank.id;
-  const danger =
-    limit !== undefined && absolutePa > limit
-      ? `DANGER if real: ${fmtIn(absolutePa, unit)} absolute is past the working limit ` +
-        `${fmtIn(limit, unit)} of ${tank} (${fmtIn(absolutePa, 'Torr')}); if the tank really reads ` +
-        `this, it is over its working limit: stop adding gas, close the cylinder and tank valves, ` +
-        `keep clear of the tank and follow the lab's over-pressure procedure. `
-      : '';
+  const ambient = gauge.reference === 'gauge' ? s.barometerPa : 0;
+  const topAbs = gauge.fullScalePa + ambient;
+  const target = shownPa(s, step, s.targetsPa[s.current]);
+  // the next gauge up: one this plan reads the tank on first, else any of the lab profile's
+  const used = new Set(s.setup.steps.map((x) => x.gauge?.id));
+  const higher = s.setup.header.gauges
+    .filter((g) => g.full_scale_Pa + (g.reference === 'gauge' ? s.barometerPa : 0) > topAbs)
+    .sort((a, b) => Number(used.has(b.id)) - Number(used.has(a.id)) || a.full_scale_Pa - b.full_scale_Pa)[0];
+  const typed = s.input.trim();
+  const overRange =
+    limit !== undefined && topAbs >= limit
+      ? `If ${gauge.id} itself shows over-range, ${tank} is above ${fmtIn(topAbs, unit)} absolute, past its ` +
+        `working limit ${fmtIn(limit, unit)}: DANGER - stop adding gas, close the cylinder and tank valves, ` +
+        `keep clear of the tank and follow the lab's over-pressure procedure.`
+      : `If ${gauge.id} itself shows over-range, close its valve and read ${tank} on ` +
+        (higher
+          ? `${higher.id} (up to ${fmtIn(higher.full_scale_Pa, unit)}).`
+          : 'a gauge with a higher range (the lab profile has none: stop adding gas and ask).');
   return (
-    `${danger}${fmtIn(shown, unit)} is past the range of ${gauge.id} (up to ${fmtIn(gauge.fullScalePa, unit)}): ` +
-    `a head past its range shows no measurement. Likely the unit or a typing slip` +
-    (danger
-      ? `; check the unit and the value, and read the tank on a gauge with a higher range. `
-      : `; if the tank really is above it, close the head's valve and read the tank on a gauge ` +
-        `with a higher range. `) +
-    `The reading is not logged.`
+    `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : ''}, ` +
+    `past its range (up to ${fmtIn(gauge.fullScalePa, unit)}): ${gauge.id} cannot show that, so it is NOT logged. ` +
+    `Likely the unit or a typing slip (the target is ${fmtIn(target, unit)} on ${gauge.id}): type the number ` +
+    `the gauge shows, in ${unit}. ${overRange}`
   );
 }
 
@@ -1345,8 +1387,9 @@ function onReadingEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.current];
   const unit = gaugeUnit(step);
   const parsed = parseReading(s, step);
-  // every refused entry clears the field (the message quotes it or its value), so the next one starts clean
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  // a refused entry clears the field (the message quotes it or its value), so the next one starts clean;
+  // one refused for the temperature field keeps the reading typed
+  if ('error' in parsed) return refusedReading(s, parsed);
   const { shown, temperatureK } = parsed;
   const absolute = step.gauge?.reference === 'gauge' ? shown + s.barometerPa : shown;
   const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
@@ -1557,7 +1600,7 @@ function onVentedEnter(s: FillState, now: string): FillState {
   const w = withInitials(s.input, 'reading after venting', '1490.2 AB');
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  if ('error' in parsed) return refusedReading(s, parsed);
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
     return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
@@ -1809,7 +1852,7 @@ function onCorrectEnter(s: FillState, now: string): FillState {
   const unit = gaugeUnit(step);
   if (!c.pending) {
     const parsed = parseReading(s, step);
-    if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+    if ('error' in parsed) return refusedReading(s, parsed);
     const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
     const before = i > 0 ? s.done[i - 1].pressurePa : (s.start?.pressurePa ?? 0);
     const after = s.done[i + 1]?.pressurePa;
@@ -2164,7 +2207,7 @@ function onStartEnter(s: FillState, now: string): FillState {
   const w = withInitials(s.input, 'reading', '120.4 AB');
   if ('error' in w) return { ...s, error: w.error };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  if ('error' in parsed) return refusedReading(s, parsed);
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (step.gauge && parsed.shown > step.gauge.fullScalePa)
     return { ...s, input: '', error: pastRange(s, step, parsed.shown, absolute) };
@@ -2249,7 +2292,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `(closes the batch below the target)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
-  if ('error' in parsed) return { ...s, input: '', error: parsed.error };
+  if ('error' in parsed) return refusedReading(s, parsed);
   const absolute = step.gauge?.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
   if (!(absolute > last.pressurePa)) {
     return {
