@@ -851,7 +851,8 @@ function temperatureOf(
       temperature: true,
       error:
         `the TANK TEMPERATURE field holds "${s.temperatureText.trim()}", which cannot be taken: ` +
-        `${describeProblem(e.problem).replace(/\.?$/, '.')} The reading "${reading}" is kept and NOT logged yet: correct the ` +
+        `${describeProblem(e.problem).replace(/\.?$/, '.')} The reading "${reading}" is kept and NOT ` +
+        'logged yet: correct the ' +
         'temperature (the cursor is in its field; e.g. 22.5 degC), then Enter logs the reading with it',
     };
   }
@@ -1347,8 +1348,9 @@ function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: numb
         (higher
           ? `${higher.id} (up to ${fmtIn(higher.full_scale_Pa, unit)}).`
           : 'a gauge with a higher range (the lab profile has none: stop adding gas and ask).');
+  const absText = absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : '';
   return (
-    `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : ''}, ` +
+    `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absText}, ` +
     `past its range (up to ${fmtIn(gauge.fullScalePa, unit)}): ${gauge.id} cannot show that, so it is NOT logged. ` +
     `Likely the unit or a typing slip (the target is ${fmtIn(target, unit)} on ${gauge.id}): type the number ` +
     `the gauge shows, in ${unit}. ${overRange}`
