@@ -1317,26 +1317,41 @@ function limitCost(finalText: string, deviations: readonly FractionDeviation[]):
  * A reading past the gauge head's range, in words. Past the tank's working limit too, that comes
  * first: if the value is real the tank is over its limit (what to do now), then the likely slip.
  */
+/**
+ * A typed reading past its gauge's range: no reading of that gauge can show it, so it is a typing
+ * slip or the unit, and it is not logged (a real over-pressure shows as the gauge's over-range, not
+ * as a number: the over-limit flow applies to a number read). Says what was typed, what it is on the
+ * gauge, the range, what to do; and what an over-range display itself would mean for the tank.
+ */
 function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: number): string {
   const unit = gaugeUnit(step);
   const gauge = step.gauge!;
   const limit = s.setup.workingLimitPa;
   const tank = s.setup.header.tank.id;
-  const danger =
-    limit !== undefined && absolutePa > limit
-      ? `DANGER if real: ${fmtIn(absolutePa, unit)} absolute is past the working limit ` +
-        `${fmtIn(limit, unit)} of ${tank} (${fmtIn(absolutePa, 'Torr')}); if the tank really reads ` +
-        `this, it is over its working limit: stop adding gas, close the cylinder and tank valves, ` +
-        `keep clear of the tank and follow the lab's over-pressure procedure. `
-      : '';
+  const ambient = gauge.reference === 'gauge' ? s.barometerPa : 0;
+  const topAbs = gauge.fullScalePa + ambient;
+  const target = shownPa(s, step, s.targetsPa[s.current]);
+  // the next gauge up: one this plan reads the tank on first, else any of the lab profile's
+  const used = new Set(s.setup.steps.map((x) => x.gauge?.id));
+  const higher = s.setup.header.gauges
+    .filter((g) => g.full_scale_Pa + (g.reference === 'gauge' ? s.barometerPa : 0) > topAbs)
+    .sort((a, b) => Number(used.has(b.id)) - Number(used.has(a.id)) || a.full_scale_Pa - b.full_scale_Pa)[0];
+  const typed = s.input.trim();
+  const overRange =
+    limit !== undefined && topAbs >= limit
+      ? `If ${gauge.id} itself shows over-range, ${tank} is above ${fmtIn(topAbs, unit)} absolute, past its ` +
+        `working limit ${fmtIn(limit, unit)}: DANGER - stop adding gas, close the cylinder and tank valves, ` +
+        `keep clear of the tank and follow the lab's over-pressure procedure.`
+      : `If ${gauge.id} itself shows over-range, close its valve and read ${tank} on ` +
+        (higher
+          ? `${higher.id} (up to ${fmtIn(higher.full_scale_Pa, unit)}).`
+          : 'a gauge with a higher range (the lab profile has none: stop adding gas and ask).');
+  const absText = absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : '';
   return (
-    `${danger}${fmtIn(shown, unit)} is past the range of ${gauge.id} (up to ${fmtIn(gauge.fullScalePa, unit)}): ` +
-    `a head past its range shows no measurement. Likely the unit or a typing slip` +
-    (danger
-      ? `; check the unit and the value, and read the tank on a gauge with a higher range. `
-      : `; if the tank really is above it, close the head's valve and read the tank on a gauge ` +
-        `with a higher range. `) +
-    `The reading is not logged.`
+    `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absText}, ` +
+    `past its range (up to ${fmtIn(gauge.fullScalePa, unit)}): ${gauge.id} cannot show that, so it is NOT logged. ` +
+    `Likely the unit or a typing slip (the target is ${fmtIn(target, unit)} on ${gauge.id}): type the number ` +
+    `the gauge shows, in ${unit}. ${overRange}`
   );
 }
 

@@ -41,6 +41,40 @@ const logText = (h: LogHeader, events: readonly NewLogEvent[]) =>
   [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
 
 describe('guided fill state machine', () => {
+  it('past the range of a head below the working limit: the over-range advice names the lab gauge that reads higher', () => {
+    const s0 = initialState(setupFromHeader(header()));
+    // fill 1 on head-1kT (up to 1000 Torr): "1890.2 kPa" = 14177.7 Torr (1 kPa = 7.50062 Torr, NIST SP 811)
+    const r = read(s0, '1890.2 kPa');
+    expect(r.effects).toEqual([]);
+    expect(r.error).toMatch(
+      /^typed "1890\.2 kPa" = 14177\.7 Torr on head-1kT, past its range \(up to 1000\.00 Torr\): head-1kT cannot show that, so it is NOT logged\..* If head-1kT itself shows over-range, close its valve and read MT-1 on head-10kT \(up to 10000\.0 Torr\)\.$/,
+    );
+  });
+  it('a reading typed while the temperature field cannot be read ("35", no unit) is kept; the refusal names the temperature field; corrected, Enter logs it', () => {
+    const s0: FillState = { ...initialState(setupFromHeader(header())), temperatureText: '35' };
+    const r = enter(type(s0, '10.0128'));
+    expect(r.effects).toEqual([]);
+    expect(r.input).toBe('10.0128');
+    expect(r.field).toBe('temperature');
+    expect(r.error).toMatch(
+      /^the TANK TEMPERATURE field holds "35", which cannot be taken: .*The reading "10\.0128" is kept and NOT logged yet/,
+    );
+    // the cursor is in the temperature field: the keys go there
+    let t = r;
+    for (let i = 0; i < 2; i++) t = fillReducer(t, { type: 'backspace' });
+    t = type(t, '35 degC');
+    expect(t.temperatureText).toBe('35 degC');
+    const logged = enter(t);
+    expect(logged.effects).toEqual([
+      // 35 degC = 308.15 K (ISO 80000-5: T/K = t/degC + 273.15, exact)
+      expect.objectContaining({
+        kind: 'reading',
+        reading: '10.0128 Torr',
+        temperature: '35 degC',
+        temperature_K: 308.15,
+      }),
+    ]);
+  });
   it('a reading on target: one reading effect, next step, the rest re-targeted, the composition on course', () => {
     const s0 = initialState(setupFromHeader(header()));
     expect(s0.phase).toBe('reading');
@@ -75,12 +109,18 @@ describe('guided fill state machine', () => {
     expect(low.error).toMatch(/tank cooled/);
     expect(low.effects).toEqual([]);
     expect(low.current).toBe(1);
-    expect(read(s1, '20000').error).toMatch(/^DANGER if real: .*past the range of head-10kT/);
-    // past the tank's working limit too (MT-1: 2700.22 Torr): the danger first, then the slip
+    // past the gauge's range: no reading of it shows that, so it is a slip and not logged; what was typed,
+    // what it is on the gauge, its range, what to do; and what the gauge's own over-range would mean:
+    // head-10kT reads up to 10000 Torr, past MT-1's working limit 2700.22 Torr (4 bar x 0.9)
+    expect(read(s1, '20000').error).toMatch(
+      /^typed "20000" = 20000\.0 Torr on head-10kT, past its range \(up to 10000\.0 Torr\): head-10kT cannot show that, so it is NOT logged\. Likely the unit or a typing slip \(the target is [\d.]+ Torr on head-10kT\): type the number the gauge shows, in Torr\. If head-10kT itself shows over-range, MT-1 is above 10000\.0 Torr absolute, past its working limit 2700\.22 Torr: DANGER - stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\.$/,
+    );
+    // 480.81 psi (the target's number in psi) = 24865.x Torr (1 psi = 51.7149 Torr, NIST SP 811)
     const far = read(s1, '480.81 psi');
     expect(far.error).toMatch(
-      /^DANGER if real: 24865\.\d Torr absolute is past the working limit 2700\.22 Torr of MT-1 .*stop adding gas, close the cylinder and tank valves.*over-pressure procedure\. .*past the range of head-10kT.*typing slip.*not logged/,
+      /^typed "480\.81 psi" = 24865\.\d Torr on head-10kT, past its range .* NOT logged/,
     );
+    expect(far.error).not.toMatch(/higher range/);
     expect(far.effects).toEqual([]);
     // every refusal clears the field (README: a refused reading's field is cleared): past the gauge's range,
     // past the physical range, unreadable; the next entry is read alone, never appended to the refused one
