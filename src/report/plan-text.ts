@@ -60,7 +60,7 @@ function servesLine(
     `is used down to ${P(ex.minTankPa, 5)})${sized}` +
     // a plan that cannot be filled safely serves nothing as it stands
     (dangers
-      ? `; only once the ${dangers} DANGER finding${dangers > 1 ? 's' : ''} below ${dangers > 1 ? 'are' : 'is'} resolved`
+      ? `; only once the ${dangers} DANGER ${dangers > 1 ? 'findings below are' : 'finding below is'} resolved`
       : '')
   );
 }
