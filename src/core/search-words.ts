@@ -24,6 +24,17 @@ type SequenceChosen = Extract<Finding, { code: 'sequence-chosen' }>;
 export function describeSequenceChosen(f: SequenceChosen, p: (pa: number) => string): string {
   // phi and the dilution are not read at one fill: no reading to name
   const read = f.gauge !== '-';
+  const largest =
+    `the largest predicted U of the design fractions and phi is ` +
+    `${relPct(f.worstRelativeU)} (${quantity(f.worst)}) instead of ${relPct(f.baselineWorstRelativeU)} ` +
+    `(${quantity(f.baselineWorst)})`;
+  // the same reading on the same gauge as the advised order: its U moved through the other readings
+  if (read && f.gauge === f.baselineGauge && p(f.readingPa) === p(f.baselineReadingPa))
+    return (
+      `${f.source} read at ${p(f.readingPa)} on ${f.gauge} as in ${f.baselineOrder.join(' -> ')}, the ` +
+      `advised single-charge order; through the other readings of this sequence, U (k = 2) of ` +
+      `${quantity(f.species)} is ${relPct(f.relativeU)} instead of ${relPct(f.baselineRelativeU)}; ${largest}`
+    );
   return (
     (read ? `${f.source} read at ${p(f.readingPa)} on ${f.gauge}: ` : '') +
     `U (k = 2) of ${quantity(f.species)} ${relPct(f.relativeU)} instead of ${relPct(f.baselineRelativeU)} (` +

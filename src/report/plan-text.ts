@@ -50,15 +50,22 @@ function tankLine(plan: Plan, P: (pa: number, sig?: number) => string): string {
 function servesLine(
   ex: NonNullable<PlanMeta['experiments']>,
   P: (pa: number, sig?: number) => string,
+  dangers: number,
 ): string {
   const litres = fixedSig((ex.reactor.volumeM3 + ex.reactor.lineVolumeM3) * 1000, 4);
   const sized = ex.sizedFor !== undefined ? `; final pressure sized for ${ex.sizedFor}` : '';
   return (
     `Serves      ${ex.count} experiments in ${ex.reactor.id} (${litres} ` +
     `L with its line, filled to ${P(ex.reactor.fillPressurePa, 5)}; the tank ` +
-    `is used down to ${P(ex.minTankPa, 5)})${sized}`
+    `is used down to ${P(ex.minTankPa, 5)})${sized}` +
+    // a plan that cannot be filled safely serves nothing as it stands
+    (dangers
+      ? `; only once the ${dangers} DANGER ${dangers > 1 ? 'findings below are' : 'finding below is'} resolved`
+      : '')
   );
 }
+
+const dangerCount = (plan: Plan) => plan.findings.filter((f) => f.severity === 'danger').length;
 
 /** the barometric pressure that gauge-referenced readings assume, and how to correct for another */
 function barometerLine(plan: Plan, meta: PlanMeta): string[] {
@@ -106,7 +113,7 @@ function headerLines(plan: Plan, meta: PlanMeta, unit: PressureUnit): string[] {
     `Order       ${plan.steps.map((s) => chargeShort(s.species, s.charge)).join(' -> ')}  ` +
       `(${recommended}${plan.orderReason})`,
   );
-  if (meta.experiments) out.push(servesLine(meta.experiments, P));
+  if (meta.experiments) out.push(servesLine(meta.experiments, P, dangerCount(plan)));
   out.push(...barometerLine(plan, meta));
   const absolute = plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : '';
   out.push(

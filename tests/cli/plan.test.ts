@@ -98,6 +98,15 @@ describe('mixwright plan', () => {
     const r = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--pressure', '3.8 bar']);
     expect(r.code).toBe(3);
     expect(r.stdout).toContain('tank-over-rating');
+    // the experiment count holds only for a plan that can be filled safely
+    const dangers = (r.stdout.match(/^ {2}DANGER /gm) ?? []).length;
+    expect(dangers).toBeGreaterThan(0);
+    expect(r.stdout).toMatch(
+      new RegExp(`^Serves .*; only once the ${dangers} DANGER findings? below (are|is) resolved$`, 'm'),
+    );
+    const ok = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml']);
+    expect(ok.stdout).toMatch(/^Serves /m);
+    expect(ok.stdout).not.toMatch(/only once/);
   });
 });
 

@@ -191,6 +191,33 @@ describe('sequence search', () => {
     );
   }, 120_000);
 
+  it('sequence-chosen on the same reading as the advised order says so, not "X instead of Y (read at X)"', () => {
+    const f = {
+      severity: 'note',
+      code: 'sequence-chosen',
+      step: 2,
+      species: 'O2',
+      source: 'O2',
+      readingPa: 1000 * TORR,
+      gauge: 'h10k',
+      relativeU: 0.0025,
+      baselineReadingPa: 1000 * TORR,
+      baselineGauge: 'h10k',
+      baselineRelativeU: 0.014,
+      baselineOrder: ['H2', 'O2'],
+      worst: 'phi',
+      worstRelativeU: 0.0029,
+      baselineWorst: 'phi',
+      baselineWorstRelativeU: 0.016,
+    } as Finding;
+    const text = describeFinding(f, torr);
+    expect(text).toMatch(
+      /^O2 read at 1000\.00 Torr on h10k as in H2 -> O2, the advised single-charge order; through the other readings/,
+    );
+    expect(text).toContain('U (k = 2) of x(O2) is 0.25 % instead of 1.4 %');
+    expect(text).not.toMatch(/instead of 1\.4 % \(read at/);
+  });
+
   it('notLessSafe: a state or path hazard of any severity is never traded for fewer supply findings', () => {
     const f = (code: Finding['code'], severity: Finding['severity']) => ({ code, severity }) as Finding;
     const count = (hs: Finding[]) => ({ danger: 0, warning: 0, note: 0, hazards: hs, complete: true });

@@ -108,6 +108,9 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     expect(relU(precise.batch, 'CH4')).toBeCloseTo(0.002328, 4);
     expect(relU(precise.batch, 'phi')).toBeCloseTo(0.000965, 4);
     expect(precise.worstRatio).toBeCloseTo(m.worstRatio, 9);
+    // its order is the premix choice's, not one the user gave: the reason says why, never "as given"
+    expect(precise.premix.orderReason).not.toBe('as given');
+    expect(precise.premix.orderReason).toMatch(/^minor gases first/);
   });
 
   it('refuses the batch tank as the premix tank (two-stage-refused, same-tank)', () => {

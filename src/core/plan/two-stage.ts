@@ -247,23 +247,27 @@ function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly
     choice.order === 'minor-first'
       ? [...cylinders].sort((a, c) => choice.composition[a.mainSpecies] - choice.composition[c.mainSpecies])
       : cylinders;
-  return predicted(
-    planFill({
-      design: designMixture({ kind: 'fractions', fractions: choice.composition }),
-      finalPressurePa: choice.pressurePa,
-      temperatureK: b.temperatureK,
-      tank: input.premixTank,
-      sources,
-      order: choice.order === 'minor-first' ? 'given' : 'recommend',
-      safety: b.safety,
-      gauges,
-      manifoldGauges: b.gauges,
-      reading: b.reading,
-      tolerance: b.tolerance,
-    }),
-    input,
-  );
+  const plan = planFill({
+    design: designMixture({ kind: 'fractions', fractions: choice.composition }),
+    finalPressurePa: choice.pressurePa,
+    temperatureK: b.temperatureK,
+    tank: input.premixTank,
+    sources,
+    order: choice.order === 'minor-first' ? 'given' : 'recommend',
+    safety: b.safety,
+    gauges,
+    manifoldGauges: b.gauges,
+    reading: b.reading,
+    tolerance: b.tolerance,
+  });
+  // the order is the premix choice's, not the user's: say why, not "as given"
+  const reason = choice.order === 'minor-first' ? MINOR_FIRST_REASON : plan.orderReason;
+  return predicted({ ...plan, orderReason: reason }, input);
 }
+
+/** the order reason of a premix filled minor gases first */
+export const MINOR_FIRST_REASON =
+  'minor gases first, the premix choice: each is read alone on the evacuated tank, where a small fill is read best';
 
 /** both stages for one choice: stage 1, the premix source from its prediction, the batch draft predicted with it */
 function planChoice(
