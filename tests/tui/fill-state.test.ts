@@ -57,8 +57,10 @@ describe('guided fill state machine', () => {
     expect(r.input).toBe('10.0128');
     expect(r.field).toBe('temperature');
     expect(r.error).toMatch(
-      /^the TANK TEMPERATURE field holds "35", which cannot be taken: .*The reading "10\.0128" is kept and NOT logged yet/,
+      /^tank temperature refused \("35"\): .*Nothing is logged; the reading typed is kept/,
     );
+    // the refused field, and only it, is cleared
+    expect(r.temperatureText).toBe('');
     // the cursor is in the temperature field: the keys go there
     let t = r;
     for (let i = 0; i < 2; i++) t = fillReducer(t, { type: 'backspace' });
