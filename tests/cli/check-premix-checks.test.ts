@@ -12,10 +12,9 @@ import { runCli, TORR } from '../helpers.js';
 
 const DEMO = 'batches/demo-ch4-phi1-from-premix.jsonl';
 
-function withPremixChecks(): string {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-checks-'));
-  copyFileSync('batches/demo-premix-o2-ar-mt2.jsonl', join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
-  const [header, ...events] = readFileSync(DEMO, 'utf8')
+/** the demo stage-2 log's lines without their hash links */
+function demoLines(): Record<string, unknown>[] {
+  return readFileSync(DEMO, 'utf8')
     .split('\n')
     .filter(Boolean)
     .map((l) => {
@@ -23,6 +22,23 @@ function withPremixChecks(): string {
       delete e.chain;
       return e;
     });
+}
+
+/** the demo stage-2 log re-chained without its premix check lines (as a log made before the fill asked them) */
+function withoutPremixChecks(): string {
+  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-checks-'));
+  copyFileSync('batches/demo-premix-o2-ar-mt2.jsonl', join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
+  const [header, ...events] = demoLines().filter((e) => !String(e.kind).startsWith('premix-'));
+  const f = join(dir, 'b0.jsonl');
+  createLog(f, header as unknown as LogHeader);
+  for (const e of events) appendEvent(f, e as unknown as NewLogEvent);
+  return f;
+}
+
+function withPremixChecks(): string {
+  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-checks-'));
+  copyFileSync('batches/demo-premix-o2-ar-mt2.jsonl', join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
+  const [header, ...events] = demoLines().filter((e) => !String(e.kind).startsWith('premix-'));
   const f = join(dir, 'b1.jsonl');
   createLog(f, header as unknown as LogHeader);
   const checks: NewLogEvent[] = [
@@ -103,7 +119,12 @@ describe("check and the certificate of a stage-2 log list the premix tank's chec
   });
 
   it('a stage-2 log without such lines has no premix_checks', async () => {
-    const j = JSON.parse((await runCli(['check', DEMO, '--trials', '100000', '--json'])).stdout);
+    const j = JSON.parse(
+      (await runCli(['check', withoutPremixChecks(), '--trials', '100000', '--json'])).stdout,
+    );
     expect(j.premix_checks).toEqual([]);
+    // the demo log itself, as the guided fill writes it now, carries them (mixed, then the reading)
+    const d = JSON.parse((await runCli(['check', DEMO, '--trials', '100000', '--json'])).stdout);
+    expect(d.premix_checks.length).toBe(2);
   });
 });

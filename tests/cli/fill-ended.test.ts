@@ -50,10 +50,12 @@ describe('fill exits as check of its log', () => {
     expect(r.err).toMatch(/ACCEPTED HAZARD: the fill went on through hazards its review .* found/);
   });
 
-  it('the demo log as it is: 0 for both', async () => {
+  it('the demo log as it is (NOT SHOWN WITHIN TOLERANCE, not a pass): 7 for both', async () => {
     const report = await checkLog(readLog(DEMO), { trials: 0, seed: 1 });
-    expect(checkExit(report)).toBe(EXIT.ok);
-    expect(exitOf({ interrupted: false, logged: 3, steps: 3, ...outcomeOfReport(report) }).code).toBe(0);
+    expect(checkExit(report)).toBe(EXIT.notShown);
+    const r = exitOf({ interrupted: false, logged: 3, steps: 3, ...outcomeOfReport(report) });
+    expect(r.code).toBe(7);
+    expect(r.err).toMatch(/NOT SHOWN WITHIN TOLERANCE .*not a pass/);
   });
 
   it('precedence 4, 3, 6, 5 as check; Ctrl-C 130; a batch left open (no re-check) 0', () => {

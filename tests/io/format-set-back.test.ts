@@ -58,7 +58,9 @@ describe('a hashed log set back to format /1', () => {
       'premix_logs',
       'stage',
       'safety',
-      'a reading or correction with by, charge or replaces_line (lines 3, 5)',
+      'a reading or correction with by, charge or replaces_line (lines 3, 7)',
+      'a premix-mixed line (line 4)',
+      'a premix-reading line (line 5)',
     ]);
   });
 
