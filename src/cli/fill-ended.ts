@@ -15,10 +15,12 @@ export interface FillOutcome {
   danger?: boolean;
   /** what `check` found in the record beside the verdict: lines off the hash chain, accepted hazards */
   record?: { readonly alteredLines: readonly number[]; readonly acceptedHazards?: readonly unknown[] };
+  /** danger findings of the plan that the log records no acknowledgement of */
+  planDangersNotAcknowledged?: readonly unknown[];
 }
 
 /** what the exit code means, on stderr, for each code but 0 */
-function why(code: number, logFile: string): string {
+function why(code: number, logFile: string, r: FillOutcome): string {
   const see = `see \`mixwright check ${logFile}\``;
   switch (code) {
     case EXIT.outOfTolerance:
@@ -29,9 +31,15 @@ function why(code: number, logFile: string): string {
         `tank as fit until it is inspected; ${see}`
       );
     case EXIT.acceptedHazard:
+      if (r.planDangersNotAcknowledged?.length && !r.record?.acceptedHazards?.length)
+        return (
+          `PLAN DANGER NOT ACKNOWLEDGED: the plan's danger findings have no acknowledgement in the log; ` +
+          `not a pass: have the fill reviewed before the tank is used; ${see}`
+        );
       return (
-        `ACCEPTED HAZARD: the fill went on through hazards its review of the remaining fills found ` +
-        `(accepted at the manifold); have them reviewed before the tank is used; ${see}`
+        `ACCEPTED HAZARD: the fill went on through hazards accepted at the manifold (the plan's dangers, ` +
+        `or what its review of the remaining fills found): not a pass; have them reviewed before the tank ` +
+        `is used; ${see}`
       );
     case EXIT.notShown:
       return (
@@ -59,8 +67,9 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
     verdict: { verdict: r.verdict },
     findings: r.danger ? [{ severity: 'danger' }] : [],
     record: r.record,
+    planDangersNotAcknowledged: r.planDangersNotAcknowledged,
   });
   if (code === EXIT.ok) return;
-  cli.err(`mixwright: ${logFile}: ${why(code, logFile)}\n`);
+  cli.err(`mixwright: ${logFile}: ${why(code, logFile, r)}\n`);
   throw new ExitSignal(code);
 }

@@ -26,7 +26,14 @@ import { csvRowNames, readReadingsCsv, type CsvReading } from './readings-csv.js
 import { sourceNames, type SourceNames } from './csv-names.js';
 import { isPressureUnit, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
-import { verdictCaveats, withinFile, type CheckOptions, type CheckReport } from './check-shared.js';
+import {
+  planDangersNotAcknowledged,
+  verdictCaveats,
+  withinFile,
+  type CheckOptions,
+  type CheckReport,
+} from './check-shared.js';
+import type { PlanDanger } from '../report/check-types.js';
 import { premixLogReport, readPremixLog, refuseNotThePremix, type PremixRecord } from './premix-check.js';
 import { resolve } from 'node:path';
 
@@ -53,6 +60,8 @@ interface CsvBasis {
   readonly warnings: string[];
   /** --premix-log: the premix tank the readings drew from, re-checked from its log */
   readonly premix?: PremixRecord;
+  /** the danger findings of the recipe's plan: CSV readings record no acknowledgement of them */
+  readonly planDangers?: readonly PlanDanger[];
 }
 
 function tankOf(t: TankSpec, from: CsvTank['from']): CsvTank {
@@ -83,21 +92,12 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
   const plan = planFill(req.input);
   const warnings: string[] = [];
   if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
-  // the readings cannot say whether the fill went through the plan's dangers, nor who accepted them
-  const dangers = [
-    ...new Set(
-      plan.findings
-        .filter((f) => f.severity === 'danger')
-        .map((f) => `${f.code}${f.step ? ` (fill ${f.step})` : ''}`),
-    ),
-  ];
-  if (dangers.length)
-    warnings.push(
-      `the plan of recipe ${opts.recipeFile} carries danger findings (${dangers.join(', ')}) for a fill in ` +
-        `its order; CSV readings do not record whether the fill went through them, nor whether they were ` +
-        `reviewed or accepted; see \`mixwright plan ${opts.recipeFile}\` and have the fill reviewed ` +
-        `before the batch is used`,
-    );
+  // the readings cannot say whether the fill went through the plan's dangers, nor who accepted them:
+  // no acknowledgement is recorded, so none stands (a caveat and no pass, as a log without one)
+  const planDangers = planDangersNotAcknowledged(
+    plan.findings.map((f) => ({ code: f.code, step: f.step ?? null, severity: f.severity })),
+    [],
+  );
   const tank = opts.tankId === undefined ? tankOf(plan.tank, 'recipe') : labTank(req.lab, opts.tankId);
   if (tank.id !== plan.tank.id)
     warnings.push(
@@ -132,6 +132,7 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
     tank,
     warnings,
     premix,
+    planDangers,
   };
 }
 
@@ -322,7 +323,11 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     tank: b.tank
       ? { id: b.tank.id, ratedPa: b.tank.ratedPa, limitPa: b.tank.limitPa, from: b.tank.from }
       : undefined,
-    caveats: verdictCaveats(findings, 'recorded reading'),
+    caveats: verdictCaveats(findings, 'recorded reading', [], {
+      dangers: b.planDangers ?? [],
+      recipe: opts.recipeFile,
+    }),
+    planDangersNotAcknowledged: b.planDangers ?? [],
     premixLogs: b.premix ? [premixLogReport(b.premix)] : [],
   };
 }

@@ -6,8 +6,10 @@
 import { fail, ProblemError, type PlanStep } from '../core/index.js';
 import type { LogFinding } from './log-audit.js';
 import {
+  dangerList,
   hazardList,
   type AcceptedHazard,
+  type PlanDanger,
   type CheckReportOf,
   type RecordSeverity,
 } from '../report/check-types.js';
@@ -69,13 +71,56 @@ export function acceptedHazardsOf(
   return out;
 }
 
+/**
+ * the plan's danger findings that no acknowledgement of the log names (by code, as the guided fill's
+ * danger screen writes them), each code once with the first fill it concerns
+ */
+export function planDangersNotAcknowledged(
+  planFindings: readonly { code: string; step: number | null; severity: string }[],
+  acks: readonly LogAck[],
+): PlanDanger[] {
+  const acked = new Set(acks.filter(isPlanAck).map((a) => a.code));
+  const out: PlanDanger[] = [];
+  for (const f of planFindings)
+    if (f.severity === 'danger' && !acked.has(f.code) && !out.some((d) => d.code === f.code))
+      out.push({ code: f.code, step: f.step });
+  return out;
+}
+
+/**
+ * the caveat of a plan danger nobody is recorded as having acknowledged: a log (`recipe` undefined)
+ * or CSV readings checked against `recipe`
+ */
+function planDangerCaveat(dangers: readonly PlanDanger[], recipe?: string): string {
+  const one = dangers.length === 1;
+  const found =
+    `PLAN DANGER NOT ACKNOWLEDGED: the plan's safety review ${recipe ? `of recipe ${recipe} ` : ''}found ` +
+    `${dangerList(dangers)} (${one ? 'a danger' : 'dangers'}), and `;
+  const why = recipe
+    ? `CSV readings record neither whether the fill went through ${one ? 'it' : 'them'} nor that anyone ` +
+      `accepted ${one ? 'it' : 'them'}`
+    : `this log records no acknowledgement of ${one ? 'it' : 'them'} (the guided fill asks for one on its ` +
+      `danger screen before filling: this log was not written so, or the acknowledgement is missing)`;
+  return (
+    found +
+    why +
+    `: nobody is recorded as having accepted that the tank goes through states the plan reviewed as ` +
+    `dangerous. This is not a pass: have the fill reviewed (the hazards, the readings, the tank and its ` +
+    `fittings) under local practice before the batch is used` +
+    (recipe ? `; see \`mixwright plan ${recipe}\`` : '')
+  );
+}
+
 /** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
 export function verdictCaveats(
   findings: readonly LogFinding[],
   noun = 'logged reading',
   accepted: readonly AcceptedHazard[] = [],
+  unacknowledged: { readonly dangers: readonly PlanDanger[]; readonly recipe?: string } = { dangers: [] },
 ): string[] {
   const out: string[] = [];
+  if (unacknowledged.dangers.length)
+    out.push(planDangerCaveat(unacknowledged.dangers, unacknowledged.recipe));
   for (const a of accepted)
     out.push(
       a.found === 'plan'

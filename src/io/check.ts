@@ -29,6 +29,7 @@ import { TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
   acceptedHazardsOf,
+  planDangersNotAcknowledged,
   verdictCaveats,
   withinFile,
   type CheckOptions,
@@ -132,20 +133,10 @@ export function headerFromPlan(
   };
 }
 
-/** the warnings of a log's record: unacknowledged dangers of its plan, acknowledgements, missing steps */
+/** the warnings of a log's record: acknowledgements, missing steps (a plan danger not acknowledged: a caveat) */
 function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] {
   const h = log.header;
   const warnings: string[] = [];
-  const acked = new Set(log.acknowledgements.map((a) => a.code));
-  const unacked = [
-    ...new Set(
-      (h.findings ?? []).filter((f) => f.severity === 'danger' && !acked.has(f.code)).map((f) => f.code),
-    ),
-  ];
-  if (unacked.length)
-    warnings.push(
-      `the plan of this batch had danger findings (${unacked.join(', ')}) that the log shows no acknowledgement of`,
-    );
   for (const a of log.acknowledgements)
     warnings.push(
       a.cap
@@ -199,6 +190,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
   const design = designFromHeader(h);
   const accepted = acceptedHazardsOf(log.acknowledgements, h.findings);
+  const unacknowledged = planDangersNotAcknowledged(h.findings ?? [], log.acknowledgements);
   const result = await withinFile(log.file, () =>
     evaluateUncertaintyParallel(model.readings, model.settings, model.diluent, model.initial),
   );
@@ -227,7 +219,8 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
       limitPa: workingLimitOf(h),
       from: 'log',
     },
-    caveats: verdictCaveats(findings, undefined, accepted),
+    caveats: verdictCaveats(findings, undefined, accepted, { dangers: unacknowledged }),
+    planDangersNotAcknowledged: unacknowledged,
     record: {
       alteredLines: alteredLinesOf(log),
       closed: log.closed,

@@ -1,13 +1,16 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
+import { checkOutcomes, overallVerdict } from './check-outcome.js';
 import {
+  dangerList,
   hazardList,
   premixCheckText,
   type AcceptedHazard,
   type AmendmentRecord,
   type CheckReport,
   type LoggedReading,
+  type PlanDanger,
 } from './check-types.js';
 import {
   describeProblem,
@@ -19,13 +22,19 @@ import {
   type Where,
 } from '../core/index.js';
 
+/** CSV readings without --recipe: what was computed, and why that is no pass */
+const NO_DESIGN_TEXT =
+  'NO DESIGN - not a pass: the composition above is computed from the readings, with its ' +
+  'uncertainty, but there is no design and so no tolerance to compare it with: nothing is shown ' +
+  'within tolerance. Give --recipe RECIPE (the design the tank was filled to) for a verdict';
+
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design fraction is within its tolerance, uncertainty included',
   'pass-uncertain':
     'NOT SHOWN WITHIN TOLERANCE - the readings put every design fraction inside its ' +
     'tolerance, but for some the 95 % uncertainty reaches past it: this is not a pass',
   fail: 'FAIL - out of tolerance',
-  'no-design': 'no design to compare with',
+  'no-design': NO_DESIGN_TEXT,
 };
 
 /**
@@ -35,14 +44,18 @@ const VERDICT_TEXT: Record<string, string> = {
 export function verdictWord(r: CheckReport): string {
   if (r.incomplete.length) return 'INCOMPLETE - not a pass';
   if (r.record?.alteredLines.length && r.verdict.verdict !== 'fail') return 'RECORD ALTERED - not a pass';
+  const unacked = r.planDangersNotAcknowledged?.length
+    ? ' - PLAN DANGER NOT ACKNOWLEDGED: not a pass (see below)'
+    : '';
   const accepted = r.record?.acceptedHazards?.length ? ' - ACCEPTED HAZARD (see below)' : '';
   const words: Record<string, string> = {
-    pass: 'PASS',
+    // a composition within tolerance is a pass only when nothing in the record stands against it
+    pass: checkOutcomes(r).length ? 'NOT A PASS (the composition is within tolerance)' : 'PASS',
     'pass-uncertain': 'NOT SHOWN WITHIN TOLERANCE - not a pass',
     fail: 'FAIL - out of tolerance',
-    'no-design': 'no design to compare with',
+    'no-design': 'NO DESIGN to compare with - not a pass',
   };
-  return (words[r.verdict.verdict] ?? r.verdict.verdict) + accepted;
+  return (words[r.verdict.verdict] ?? r.verdict.verdict) + unacked + accepted;
 }
 
 function mcNote(st: OutputStat): string {
@@ -251,8 +264,14 @@ export function recordMarks(r: CheckReport): string[] {
   if (r.record?.alteredLines.length && !alteredLeads(r))
     out.push(`RECORD ALTERED (${linesText(r.record.alteredLines)})`);
   if (r.record && !r.record.closed && !r.incomplete.length) out.push('NOT CLOSED');
+  if (r.planDangersNotAcknowledged?.length) out.push(unackedMark(r.planDangersNotAcknowledged));
   if (r.record?.acceptedHazards?.length) out.push(acceptedMark(r.record.acceptedHazards));
   return out;
+}
+
+/** "PLAN DANGER NOT ACKNOWLEDGED (detonable-state (fill 3))": no acknowledgement of the plan's dangers */
+function unackedMark(dangers: readonly PlanDanger[]): string {
+  return `PLAN DANGER NOT ACKNOWLEDGED (${dangerList(dangers)})`;
 }
 
 /** the accepted review hazards of a log's record, as `check --json` gives them */
@@ -308,6 +327,11 @@ function verdictText(r: CheckReport): string {
       ? ' - NOT CLOSED: the fill never ended with a close entry (it was stopped or cut off, and gas ' +
         'may have gone in after the last reading); read the tank before it is used'
       : '';
+  const dangers = r.planDangersNotAcknowledged ?? [];
+  const unacked = dangers.length
+    ? ` - ${unackedMark(dangers)}: nobody is recorded as having accepted the plan's ` +
+      `${dangers.length === 1 ? 'danger' : 'dangers'}`
+    : '';
   const acc = r.record?.acceptedHazards ?? [];
   const accepted = acc.length
     ? ` - ${acceptedMark(acc)}: the fill went on through ` +
@@ -324,14 +348,22 @@ function verdictText(r: CheckReport): string {
       `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}. Restore the log as it was written ` +
       `(a backup), or re-measure the tank before it is used` +
       closed +
+      unacked +
       accepted
     );
+  // a composition within tolerance beside a danger, a plan danger or hazards, or a log never closed
+  const composition =
+    r.verdict.verdict === 'pass' && checkOutcomes(r).length
+      ? 'NOT A PASS - the composition alone would pass (every design fraction within its tolerance, ' +
+        'uncertainty included); what follows stands against it'
+      : VERDICT_TEXT[r.verdict.verdict];
   return (
-    VERDICT_TEXT[r.verdict.verdict] +
+    composition +
     (altered.length
       ? ` - RECORD ALTERED (${linesText(altered)}): on numbers that are not as first logged`
       : '') +
     closed +
+    unacked +
     accepted
   );
 }
@@ -549,6 +581,29 @@ function premixChecksJson(r: CheckReport) {
   );
 }
 
+/**
+ * the deviations and the verdicts of check --json: `verdict` the re-check's outcome as the exit code
+ * gives it (`pass` only when nothing stands against a pass), `composition_verdict` the composition's own
+ * judgement, `outcomes` every outcome that stands against a pass, in exit precedence
+ */
+function verdictJson(r: CheckReport) {
+  return {
+    deviations: r.verdict.deviations.map((d) => ({
+      species: d.species,
+      design: d.design,
+      actual: d.actual,
+      deviation: d.deviation,
+      tolerance: d.tolerance,
+      expanded_u: d.expandedU,
+      within: d.within,
+      proven_within: d.provenWithin,
+    })),
+    verdict: overallVerdict(r),
+    composition_verdict: r.verdict.verdict,
+    outcomes: checkOutcomes(r),
+  };
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -573,17 +628,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     })),
     design: r.design ? { composition: r.design.composition, phi: r.design.phi ?? null } : null,
     tolerance: r.tolerance,
-    deviations: r.verdict.deviations.map((d) => ({
-      species: d.species,
-      design: d.design,
-      actual: d.actual,
-      deviation: d.deviation,
-      tolerance: d.tolerance,
-      expanded_u: d.expandedU,
-      within: d.within,
-      proven_within: d.provenWithin,
-    })),
-    verdict: r.verdict.verdict,
+    ...verdictJson(r),
     incomplete: r.incomplete,
     warnings: r.warnings,
     corrections: r.amendments.map((a) => ({
@@ -607,6 +652,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_altered_lines: r.record ? r.record.alteredLines : null,
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
+    plan_dangers_not_acknowledged: r.planDangersNotAcknowledged ?? [],
     premix_checks: premixChecksJson(r),
     stage: stageJson(r),
     premix_logs: (r.premixLogs ?? []).map((p) => ({
@@ -651,6 +697,17 @@ export function checkToJson(r: CheckReport, version: string): object {
   };
 }
 
+/**
+ * the composition's judgement in the folder summary: a pass only when nothing beside it stands
+ * against one (the marks after it say what does)
+ */
+function compositionCell(r: CheckReport): string {
+  if (r.verdict.verdict === 'no-design') return 'no design - not a pass';
+  if (r.verdict.verdict === 'pass' && checkOutcomes(r).length)
+    return 'NOT A PASS (composition within tolerance)';
+  return r.verdict.verdict;
+}
+
 export function folderSummary(
   rows: readonly ({ file: string } & ({ report: CheckReport } | { error: string }))[],
 ): string {
@@ -677,7 +734,7 @@ export function folderSummary(
           `on the numbers as they stand: ${rep.verdict.verdict}`
         : rep.incomplete.length
           ? 'incomplete'
-          : rep.verdict.verdict) +
+          : compositionCell(rep)) +
         (danger ? ', DANGER' : '') +
         recordMarks(rep)
           .map((m) => `, ${m}`)
@@ -774,6 +831,7 @@ export function checkRefusedJson(target: string, problem: Problem, where: Where,
     kind: 'check',
     file: target,
     verdict: 'refused',
+    composition_verdict: null,
     refused: refusalJson(problem, where),
     composition: null,
     phi: null,

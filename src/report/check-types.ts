@@ -103,6 +103,13 @@ export interface CheckReportOf<F extends RecordFinding> {
   /** what stands beside the verdict: a danger in the record, an edited record */
   readonly caveats: readonly string[];
   /**
+   * danger findings of the plan that nobody is recorded as having acknowledged: a log without an
+   * `acknowledge` line of the code (a log not written by the guided fill, or the line missing), or
+   * CSV readings against a recipe whose plan has dangers (a CSV records no acknowledgement). Never a
+   * pass: the verdict says PLAN DANGER NOT ACKNOWLEDGED (exit 6, as an accepted hazard)
+   */
+  readonly planDangersNotAcknowledged?: readonly PlanDanger[];
+  /**
    * the record itself (a log; absent for CSV readings): the lines that do not match their hash
    * chain (changed after writing, or not written by mixwright), and whether the fill was closed.
    * An altered record leads the verdict ("RECORD ALTERED AFTER WRITING - not a pass"), never a pass.
@@ -276,6 +283,16 @@ export interface AcceptedHazard {
     readonly severity: RecordSeverity;
   }[];
 }
+
+/** a danger finding of the plan, by its code and the fill it concerns */
+export interface PlanDanger {
+  readonly code: string;
+  readonly step: number | null;
+}
+
+/** "detonable-state (fill 3)" */
+export const dangerList = (ds: readonly PlanDanger[]): string =>
+  ds.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ');
 
 /** "flammable-state (fill 3), closed-vessel-pressure (fill 3)" */
 export const hazardList = (a: AcceptedHazard): string =>

@@ -11,7 +11,7 @@ import { premixCheckText, type CheckReport, type LoggedReading, type LogView } f
 import { premixPressure } from './check-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, tankName } from './format.js';
-import { labelLines, labelModel, type LabelModel } from './label-model.js';
+import { labelLines, labelModel, outcomeLeads, type LabelModel } from './label-model.js';
 import { chargesOf, chargeSuffix, type ChargeOf } from './charges.js';
 
 export interface CertificateRow {
@@ -72,6 +72,38 @@ export interface CertificateMeta {
   readonly generated: string;
 }
 
+/** what stands against a pass beside a composition within tolerance, leading the certificate's verdict */
+const OUTCOME_TEXT: Record<string, string> = {
+  'plan-danger-not-acknowledged':
+    "NOT A PASS - PLAN DANGER NOT ACKNOWLEDGED: the plan's safety review found a danger and the log " +
+    'records no acknowledgement of it (see below).',
+  'accepted-hazard':
+    'NOT A PASS - ACCEPTED HAZARD: the fill went on through hazards accepted at the manifold (see below).',
+  'not-closed':
+    'NOT A PASS - NOT CLOSED: the fill never ended with a close entry; gas may have gone in after the ' +
+    'last reading.',
+};
+
+/** the certificate's verdict: a danger, a plan danger, accepted hazards or an open log before the composition */
+function certificateVerdict(label: LabelModel): string {
+  if (label.danger)
+    return (
+      `${VERDICT_TEXT[label.status]} This is the composition only: the log records ` +
+      `a danger (below), and the tank is not fit to use.`
+    );
+  if (outcomeLeads(label))
+    return `${OUTCOME_TEXT[label.outcome]} The composition only: ${COMPOSITION_TEXT[label.status]}`;
+  return VERDICT_TEXT[label.status];
+}
+
+/** the composition's judgement where an outcome of the record leads the verdict (never the word PASS) */
+const COMPOSITION_TEXT: Record<string, string> = {
+  pass: 'every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included.',
+  'pass-uncertain':
+    'every design mole fraction is inside its tolerance on the readings, but for some the expanded ' +
+    'uncertainty (k = 2) reaches past it.',
+};
+
 const VERDICT_TEXT: Record<string, string> = {
   pass: 'PASS - every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included.',
   'pass-uncertain':
@@ -83,7 +115,7 @@ const VERDICT_TEXT: Record<string, string> = {
     'it with the as-filled composition below, or re-fill.',
   incomplete:
     'FAIL - incomplete: the log lacks a reading for a planned fill; the composition covers the fills logged so far.',
-  'no-design': 'No design to compare with: the composition is as measured.',
+  'no-design': 'NOT A PASS - no design to compare with: the composition is as measured.',
   'premix-not-checked':
     'NOT RE-CHECKED - a premix log this batch was made from is missing, changed or not usable (see ' +
     'Premix): the composition uses the premix as the batch log recorded it, without its uncertainty; ' +
@@ -391,10 +423,7 @@ export function buildCertificateModel(
     generated: meta.generated,
     label,
     labelLines: labelLines(label),
-    verdictText: label.danger
-      ? `${VERDICT_TEXT[label.status]} This is the composition only: the log records ` +
-        `a danger (below), and the tank is not fit to use.`
-      : VERDICT_TEXT[label.status],
+    verdictText: certificateVerdict(label),
     caveats: r.caveats,
     premix: premixText(label),
     rows: compositionRows(r, label),

@@ -11,6 +11,7 @@
  */
 import { assessFlammability, type OutputStat, type VerdictKind } from '../core/index.js';
 import type { CheckReport, LogView } from './check-types.js';
+import { overallVerdict, type CheckOutcome } from './check-outcome.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, tankName } from './format.js';
 
@@ -51,7 +52,10 @@ export interface LabelModel {
   /** date of the last logged reading (YYYY-MM-DD), or "date not logged" */
   readonly filledOn: string;
   readonly status: LabelStatus;
+  /** the composition's own judgement (check --json `composition_verdict`) */
   readonly verdict: VerdictKind;
+  /** the re-check's overall verdict, as `check --json` `verdict` and the exit code give it */
+  readonly outcome: CheckOutcome | 'pass';
   /** the first line of the label: the verdict in capitals where it is not a proven pass */
   readonly headline: string;
   /** one line per design species outside its tolerance (fail), or whose U reaches past it (pass-uncertain) */
@@ -116,10 +120,46 @@ const HEADLINE: Record<LabelStatus, string> = {
     'NOT SHOWN WITHIN TOLERANCE - inside on the readings, but the uncertainty reaches past it',
   fail: 'FAIL - OUT OF TOLERANCE: NOT THE DESIGN MIXTURE',
   incomplete: 'FAIL - INCOMPLETE BATCH: NOT THE DESIGN MIXTURE',
-  'no-design': 'NO DESIGN TO COMPARE WITH - composition as measured',
+  'no-design': 'NO DESIGN TO COMPARE WITH - NOT A PASS: composition as measured',
   'premix-not-checked': 'PREMIX NOT RE-CHECKED: COMPOSITION NOT PROVEN',
   'record-altered': 'RECORD ALTERED AFTER WRITING: NOT A PASS - COMPOSITION NOT PROVEN',
 };
+
+/**
+ * A composition within tolerance (or inside it on the readings) that the record makes no pass, the
+ * record not saying so in the headline by itself: what leads the headline then, as `check` marks it
+ */
+const OUTCOME_LEAD: Partial<Record<CheckOutcome, string>> = {
+  'plan-danger-not-acknowledged': 'PLAN DANGER NOT ACKNOWLEDGED - NOT A PASS',
+  'accepted-hazard': 'ACCEPTED HAZARD - NOT A PASS',
+  'not-closed': 'NOT CLOSED - NOT A PASS',
+};
+
+/** the composition's judgement under an outcome that leads the headline (never the word PASS) */
+const COMPOSITION_ONLY: Partial<Record<LabelStatus, string>> = {
+  pass: 'composition only: as filled within tolerance, uncertainty included',
+  'pass-uncertain': 'composition only: not shown within tolerance, the uncertainty reaches past it',
+};
+
+/**
+ * the first line of the label: beside a danger the verdict speaks of the composition only; a plan
+ * danger nobody acknowledged, hazards accepted at the manifold or a log never closed lead it
+ */
+function headlineOf(status: LabelStatus, outcome: CheckOutcome | 'pass', danger: boolean): string {
+  if (danger) return `composition only: ${HEADLINE[status]}`;
+  const lead = outcome === 'pass' ? undefined : OUTCOME_LEAD[outcome];
+  return lead && COMPOSITION_ONLY[status] ? lead : HEADLINE[status];
+}
+
+/** whether the headline is led by an outcome of the record (the label boxes it as a warning) */
+export function outcomeLeads(m: Pick<LabelModel, 'outcome' | 'status' | 'danger'>): boolean {
+  return (
+    !m.danger &&
+    m.outcome !== 'pass' &&
+    Boolean(OUTCOME_LEAD[m.outcome]) &&
+    Boolean(COMPOSITION_ONLY[m.status])
+  );
+}
 
 /** the label's statuses that must not be used as the design mixture */
 export function notDesign(s: LabelStatus): boolean {
@@ -278,9 +318,15 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
     filledOn: lastTime ? lastTime.slice(0, 10) : 'date not logged',
     status,
     verdict: r.verdict.verdict,
-    // beside a danger the verdict speaks of the composition only
-    headline: danger ? `composition only: ${HEADLINE[status]}` : HEADLINE[status],
-    offDesign: offDesign(r),
+    outcome: overallVerdict(r),
+    headline: headlineOf(status, overallVerdict(r), danger),
+    // under a headline led by the record, the composition's own judgement first
+    offDesign: [
+      ...(outcomeLeads({ outcome: overallVerdict(r), status, danger })
+        ? [COMPOSITION_ONLY[status] ?? '']
+        : []),
+      ...offDesign(r),
+    ],
     composition,
     phi: phi ? withU(phi.value, 2 * phi.u) : undefined,
     dilution: dil ? withU(dil.value * PCT, 2 * dil.u * PCT, '%') : undefined,
@@ -298,7 +344,7 @@ export function labelLines(m: LabelModel): string[] {
   const out: string[] = [];
   // a danger in the record comes first: a composition within tolerance never reads as fit beside it
   if (m.danger) out.push(`*** ${DANGER_HEADLINE} ***`);
-  out.push(bad ? `*** ${m.headline} ***` : m.headline);
+  out.push(bad || outcomeLeads(m) ? `*** ${m.headline} ***` : m.headline);
   for (const o of m.offDesign) out.push(`  ${o}`);
   for (const c of m.caveats) out.push(...wrap(c, 76).map((l, i) => (i === 0 ? `! ${l}` : `  ${l}`)));
   out.push(`Batch ${m.batchId}   tank ${m.tank}   filled ${m.filledOn}`);

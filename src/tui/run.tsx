@@ -53,16 +53,21 @@ export interface FillOutcome {
     readonly alteredLines: readonly number[];
     readonly acceptedHazards?: readonly unknown[];
   };
+  /** danger findings of the plan that the log records no acknowledgement of (check: exit 6) */
+  readonly planDangersNotAcknowledged?: readonly unknown[];
 }
 
 /** what the shell needs of `check`'s re-check of the closed log to exit as `check` would */
 export function outcomeOfReport(
   report: CheckReport | undefined,
-): Pick<FillOutcome, 'verdict' | 'danger' | 'record'> {
+): Pick<FillOutcome, 'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged'> {
   return {
     verdict: report?.verdict.verdict,
     danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
     ...(report?.record ? { record: report.record } : {}),
+    ...(report?.planDangersNotAcknowledged?.length
+      ? { planDangersNotAcknowledged: report.planDangersNotAcknowledged }
+      : {}),
   };
 }
 

@@ -54,8 +54,11 @@ describe('check of a log whose fill went on through an accepted review hazard', 
     const json = await runCli(['check', f, '--json']);
     expect(json.code).toBe(6);
     const j = JSON.parse(json.stdout);
-    // the demo log's own verdict (within tolerance, its 95 % interval reaching past it: exit 7 alone)
-    expect(j.verdict).toBe('pass-uncertain');
+    // the overall verdict is the exit's (accepted hazard, 6); the demo log's own composition verdict
+    // (within tolerance, its 95 % interval reaching past it: exit 7 alone) is beside it
+    expect(j.verdict).toBe('accepted-hazard');
+    expect(j.composition_verdict).toBe('pass-uncertain');
+    expect(j.outcomes).toEqual(['accepted-hazard', 'not-shown-within-tolerance']);
     expect(j.accepted_hazards).toEqual([
       {
         found_by: 'fill-review',

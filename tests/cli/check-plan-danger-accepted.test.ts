@@ -89,7 +89,10 @@ describe("a plan's danger accepted at the start of the fill", () => {
 
   it("the fill's end screen words the verdict with the mark (verdictWord)", async () => {
     const r = await checkFile(accepted, { trials: 0, seed: 1 });
-    expect(verdictWord(r)).toBe('PASS - ACCEPTED HAZARD (see below)');
+    // never the bare word PASS where check exits 6
+    expect(verdictWord(r)).toBe(
+      'NOT A PASS (the composition is within tolerance) - ACCEPTED HAZARD (see below)',
+    );
   });
 
   it('label: the label box carries the accepted hazard and the exit is 6', async () => {
@@ -99,21 +102,25 @@ describe("a plan's danger accepted at the start of the fill", () => {
     expect(box).toContain("! ACCEPTED HAZARD: the plan's safety review found detonable-state (fill 3)");
   });
 
-  it('the same log without the acceptance has no accepted hazard (the warning of an unacknowledged danger stays)', async () => {
+  it('the same log without the acceptance has no accepted hazard: its plan danger is NOT ACKNOWLEDGED, no pass either (exit 6)', async () => {
+    // was a warning beside a pass; a danger nobody accepted must not read weaker than an accepted one
     const r = await runCli(['check', ngLog(false), '--json']);
+    expect(r.code).toBe(6);
     const j = JSON.parse(r.stdout);
     expect(j.accepted_hazards).toEqual([]);
-    expect(j.warnings.join('\n')).toContain('that the log shows no acknowledgement of');
+    expect(j.plan_dangers_not_acknowledged).toEqual([{ code: 'detonable-state', step: 3 }]);
+    expect(j.verdict_caveats.join('\n')).toContain('this log records no acknowledgement of it');
   });
 
-  it("CSV readings checked against a recipe whose plan carries a danger: check says so (the CSV can't say more)", async () => {
+  it('CSV readings checked against a recipe whose plan carries a danger: no acknowledgement recorded, so not a pass (exit 6)', async () => {
     const args = ['--trials', '100000', '--json'];
     const ng = JSON.parse(
       (await runCli(['check', 'readings/ng-blend-air.csv', '--recipe', 'recipes/ng-blend-air.yaml', ...args]))
         .stdout,
     );
-    expect(ng.warnings.join('\n')).toContain(
-      'the plan of recipe recipes/ng-blend-air.yaml carries danger findings (detonable-state (fill 3))',
+    expect(ng.verdict).toBe('plan-danger-not-acknowledged');
+    expect(ng.verdict_caveats.join('\n')).toContain(
+      "the plan's safety review of recipe recipes/ng-blend-air.yaml found detonable-state (fill 3)",
     );
     const ch4 = JSON.parse(
       (
@@ -126,6 +133,6 @@ describe("a plan's danger accepted at the start of the fill", () => {
         ])
       ).stdout,
     );
-    expect(ch4.warnings.join('\n')).not.toContain('carries danger findings');
+    expect(ch4.verdict_caveats.join('\n')).not.toContain('PLAN DANGER NOT ACKNOWLEDGED');
   });
 });

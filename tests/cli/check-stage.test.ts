@@ -119,6 +119,10 @@ describe('check of a folder with stage logs', () => {
     const dir = tmp();
     writePremixLog(dir, premixTargets, { close: false });
     const r = await runCli(['check', dir]);
-    expect(r.stdout).toMatch(/b1-premix +1 of 2: premix of b1 \(stage 2 will refuse it\) +pass, NOT CLOSED/);
+    // never "pass" in the verdict column where the log is not one (exit 7)
+    expect(r.stdout).toMatch(
+      /b1-premix +1 of 2: premix of b1 \(stage 2 will refuse it\) +NOT A PASS \(composition within tolerance\), NOT CLOSED/,
+    );
+    expect(r.code).toBe(7);
   });
 });

@@ -47,7 +47,10 @@ describe('fill exits as check of its log', () => {
     expect(checkExit(report)).toBe(EXIT.acceptedHazard);
     const r = exitOf({ interrupted: false, logged: 3, steps: 3, ...outcomeOfReport(report) });
     expect(r.code).toBe(6);
-    expect(r.err).toMatch(/ACCEPTED HAZARD: the fill went on through hazards its review .* found/);
+    // the plan's dangers accepted on the danger screen exit 6 too: the message names both kinds
+    expect(r.err).toMatch(
+      /ACCEPTED HAZARD: the fill went on through hazards accepted at the manifold \(the plan's dangers, or what its review .* found\): not a pass/,
+    );
   });
 
   it('the demo log as it is (NOT SHOWN WITHIN TOLERANCE, not a pass): 7 for both', async () => {
@@ -69,6 +72,17 @@ describe('fill exits as check of its log', () => {
     expect(
       exitOf({ ...base, verdict: 'pass', record: { alteredLines: [4], acceptedHazards: [] } }).code,
     ).toBe(5);
+    // a plan danger the log records no acknowledgement of: 6, with its own words
+    const unacked = exitOf({
+      ...base,
+      verdict: 'pass',
+      record: { alteredLines: [], acceptedHazards: [] },
+      planDangersNotAcknowledged: [{ code: 'detonable-state', step: 3 }],
+    });
+    expect(unacked.code).toBe(6);
+    expect(unacked.err).toContain(
+      "PLAN DANGER NOT ACKNOWLEDGED: the plan's danger findings have no acknowledgement",
+    );
     expect(exitOf({ ...base, interrupted: true }).code).toBe(130);
     expect(exitOf({ ...base }).code).toBe(0);
   });

@@ -237,7 +237,11 @@ describe('an altered or unclosed premix log', () => {
     expect(label.stdout.slice(0, label.stdout.indexOf('BATCH CERTIFICATE'))).toContain(
       'NOT CLOSED: the fill never ended with a close entry',
     );
-    expect(r.stdout).toMatch(/^Verdict {5}PASS - .* - NOT CLOSED: /m);
+    // the composition alone would pass; the verdict leads with NOT A PASS (never "PASS" where exit is 7)
+    expect(r.stdout).toMatch(/^Verdict {5}NOT A PASS - the composition alone would pass .* - NOT CLOSED: /m);
+    expect(label.stdout).toContain('*** NOT CLOSED - NOT A PASS ***');
+    const j = JSON.parse((await runCli(['check', unclosed, '--trials', '100000', '--json'])).stdout);
+    expect([j.verdict, j.composition_verdict, j.outcomes]).toEqual(['not-closed', 'pass', ['not-closed']]);
   });
 
   it('check FOLDER: neither is a bare pass in the summary; exit 5', async () => {
@@ -246,6 +250,8 @@ describe('an altered or unclosed premix log', () => {
     expect(r.stdout).toMatch(
       /premix\.jsonl +\S+ +\S.*? +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; on the numbers as they stand: pass +/,
     );
-    expect(r.stdout).toMatch(/unclosed\.jsonl +\S+ +\S.*? +pass, NOT CLOSED/);
+    expect(r.stdout).toMatch(
+      /unclosed\.jsonl +\S+ +\S.*? +NOT A PASS \(composition within tolerance\), NOT CLOSED/,
+    );
   });
 });

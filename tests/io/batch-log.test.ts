@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { appendEvent, createLog, parseLog, readLog } from '../../src/io/batch-log.js';
 import { headerFromPlan, checkFile } from '../../src/io/check.js';
+import { checkOutcomes } from '../../src/report/check-outcome.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { parseReadingsCsv } from '../../src/io/readings-csv.js';
 import { planFill, ProblemError } from '../../src/core/index.js';
@@ -166,12 +167,18 @@ describe('danger findings in the re-check', () => {
       }),
     );
     const rep = await checkFile(file, { trials: 0, seed: 1 });
-    expect(rep.warnings.some((w) => /danger findings \(tank-over-rating.*no acknowledgement/.test(w))).toBe(
-      true,
-    );
+    // no acknowledgement: not a warning but a caveat and an outcome of its own (never a pass, exit 6)
+    expect(rep.planDangersNotAcknowledged?.map((d) => d.code)).toContain('tank-over-rating');
+    expect(rep.caveats.some((c) => /^PLAN DANGER NOT ACKNOWLEDGED: .*tank-over-rating/.test(c))).toBe(true);
+    // (its readings go past the rating too: a danger of the record, which takes precedence)
+    expect(checkOutcomes(rep)).toContain('plan-danger-not-acknowledged');
     appendEvent(file, { kind: 'acknowledge', code: 'tank-over-rating', step: 3, by: 'AB', time: 't2' });
     const rep2 = await checkFile(file, { trials: 0, seed: 1 });
-    expect(rep2.warnings.some((w) => w.includes('no acknowledgement'))).toBe(false);
+    expect(rep2.planDangersNotAcknowledged).toEqual([]);
+    expect(rep2.caveats.some((c) => c.includes('NOT ACKNOWLEDGED'))).toBe(false);
     expect(rep2.warnings.some((w) => w.includes('acknowledged by AB'))).toBe(true);
+    // acknowledged: an accepted hazard of the plan
+    expect(checkOutcomes(rep2)).toContain('accepted-hazard');
+    expect(checkOutcomes(rep2)).not.toContain('plan-danger-not-acknowledged');
   });
 });

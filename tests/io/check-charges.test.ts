@@ -344,11 +344,13 @@ describe('CSV readings against the tank: working limit, rating, gauge range', ()
     expect((await runCli(['check', 'batches/demo-ch4-phi1-ar98.jsonl', '--tank', 'MT-1'])).code).toBe(2);
   });
 
-  it('without a recipe or --tank the limits are not checked, and the report says so (exit 0, tank null)', async () => {
+  it('without a recipe or --tank the limits are not checked, and the report says so (tank null; no design: exit 7)', async () => {
     const f = csvFile(past);
     const j = await runCli(['check', f, '--json', '--trials', '100000']);
-    expect(j.code).toBe(0);
+    // no recipe, no design: nothing is shown within tolerance, so no pass (README "Exit codes": 7)
+    expect(j.code).toBe(7);
     const doc = JSON.parse(j.stdout);
+    expect(doc.verdict).toBe('no-design');
     expect(doc.tank).toBeNull();
     expect(doc.danger).toBe(false);
     expect(doc.warnings.join(' ')).toContain(

@@ -82,7 +82,9 @@ describe('label and check agree (same log, same computation)', () => {
         expect(printed.stdout, k).toContain(`${k.padEnd(8)} ${text}`);
       }
       expect(printed.stdout).toContain(`phi ${withU(j.phi.value, 2 * j.phi.u)}`);
-      expect(m.verdict).toBe(j.verdict);
+      // the composition's judgement and the overall verdict, each as check --json gives it
+      expect(m.verdict).toBe(j.composition_verdict);
+      expect(m.outcome).toBe(j.verdict);
     });
   }
 });

@@ -10,6 +10,12 @@ import {
   refusalJson,
   stageJson,
 } from '../../report/check-report.js';
+import {
+  checkOutcomes,
+  overallVerdict,
+  type CheckOutcome,
+  type OutcomeInput,
+} from '../../report/check-outcome.js';
 import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
 import { numberOption, parseBarometer, parseTrials } from '../numbers.js';
@@ -68,7 +74,9 @@ async function checkFolder(cli: Cli, target: string, o: CheckOptions, opts: Chec
       'report' in r
         ? {
             file: r.file,
-            verdict: r.report.verdict.verdict,
+            // the overall verdict (as the exit code), and the composition's own judgement beside it
+            verdict: overallVerdict(r.report),
+            composition_verdict: r.report.verdict.verdict,
             stage: stageJson(r.report),
             check: checkToJson(r.report, VERSION),
           }
@@ -96,29 +104,32 @@ const EXIT_PRECEDENCE = [
   EXIT.notShown,
 ];
 
+/** the exit code of each outcome that stands against a pass (README "Exit codes") */
+const OUTCOME_EXIT: Record<CheckOutcome, number> = {
+  incomplete: EXIT.outOfTolerance,
+  fail: EXIT.outOfTolerance,
+  danger: EXIT.danger,
+  'plan-danger-not-acknowledged': EXIT.acceptedHazard,
+  'accepted-hazard': EXIT.acceptedHazard,
+  'record-altered': EXIT.recordAltered,
+  'not-shown-within-tolerance': EXIT.notShown,
+  'no-design': EXIT.notShown,
+  'not-closed': EXIT.notShown,
+};
+
 /**
- * The exit code of one re-check: out of tolerance (or incomplete) 4; else a reading past a tank's
- * working limit or a gauge's range, which stands beside any verdict, 3; else a fill that went on
- * through hazards (accepted at the manifold) 6; else numbers that are not as first logged 5; else
- * a verdict that is not a pass all the same (NOT SHOWN WITHIN TOLERANCE: the uncertainty reaches past
- * the tolerance; or a log never closed) 7; else 0. A tool that reads only the exit code never sees 0
- * where the words say "this is not a pass".
+ * The exit code of one re-check, from the first outcome that stands against a pass (checkOutcomes,
+ * in the precedence 4, 3, 6, 5, 7): out of tolerance (or incomplete) 4; a reading past a tank's
+ * working limit or a gauge's range, which stands beside any verdict, 3; a plan danger nobody
+ * acknowledged, or a fill that went on through hazards (accepted at the manifold), 6; numbers that
+ * are not as first logged 5; a verdict that is not a pass all the same (NOT SHOWN WITHIN TOLERANCE,
+ * no design to compare with, a log never closed) 7; else 0. The JSON `verdict` is that same first
+ * outcome, so a tool that reads only the exit code or only `verdict` never sees a pass where the
+ * words say "this is not a pass".
  */
-export function checkExit(report: {
-  readonly verdict: { readonly verdict: string };
-  readonly findings: readonly { readonly severity: string }[];
-  readonly record?: {
-    readonly alteredLines: readonly number[];
-    readonly closed?: boolean;
-    readonly acceptedHazards?: readonly unknown[];
-  };
-}): number {
-  if (report.verdict.verdict === 'fail') return EXIT.outOfTolerance;
-  if (report.findings.some((f) => f.severity === 'danger')) return EXIT.danger;
-  if (report.record?.acceptedHazards?.length) return EXIT.acceptedHazard;
-  if (report.record?.alteredLines.length) return EXIT.recordAltered;
-  if (report.verdict.verdict === 'pass-uncertain' || report.record?.closed === false) return EXIT.notShown;
-  return EXIT.ok;
+export function checkExit(report: OutcomeInput): number {
+  const first = checkOutcomes(report)[0];
+  return first === undefined ? EXIT.ok : OUTCOME_EXIT[first];
 }
 
 /**

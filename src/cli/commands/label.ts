@@ -118,9 +118,9 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
     cli.err(`mixwright: ${target}: the log records a danger; the label says the tank is not fit to use\n`);
     throw new ExitSignal(EXIT.danger);
   }
-  // as `check` (exits 6, 5 and 7): hazards accepted at the manifold, a record changed after it was
-  // written, a verdict short of a pass (4 and 3 are thrown above, so `check`'s own precedence leaves
-  // 6, 5, 7 or 0 here)
+  // as `check` (exits 6, 5 and 7): a plan danger nobody acknowledged or hazards accepted at the
+  // manifold, a record changed after it was written, a verdict short of a pass (4 and 3 are thrown
+  // above, so `check`'s own precedence leaves 6, 5, 7 or 0 here)
   const code = checkExit(report);
   if (code !== EXIT.ok) {
     cli.err(
@@ -133,7 +133,10 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
                 ? 'NOT SHOWN WITHIN TOLERANCE: the uncertainty reaches past the tolerance'
                 : 'NOT CLOSED: the fill never ended with a close entry'
             }); the label says so\n`
-          : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
+          : model.label.outcome === 'plan-danger-not-acknowledged'
+            ? `mixwright: ${target}: the plan's danger findings are not acknowledged in the log; the label ` +
+              'says PLAN DANGER NOT ACKNOWLEDGED and shows no pass\n'
+            : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
     );
     throw new ExitSignal(code);
   }
