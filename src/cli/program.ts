@@ -5,7 +5,8 @@
  * turns what ends a run (a refusal, an exit code, a system error) into the exit code.
  */
 import { Command, CommanderError } from 'commander';
-import { describeProblemAt, ProblemError } from '../core/index.js';
+import { describeProblemAt, ProblemError, type Problem, type Where } from '../core/index.js';
+import { checkRefusedJson, commandRefusedJson } from '../report/check-report.js';
 import { VERSION } from '../version.js';
 import { registerCheck } from './commands/check.js';
 import { registerFill } from './commands/fill.js';
@@ -68,6 +69,37 @@ function exitCodeOf(cli: Cli, e: unknown): number {
   return EXIT.internal;
 }
 
+/** the commands whose --json prints a refusal document on stdout when they refuse (exit 2) */
+const JSON_REFUSAL: ReadonlySet<string> = new Set(['check', 'plan', 'ready']);
+
+/** a refusal as a problem: the command's own, or the parser's (an unknown option, a missing value) */
+function refusalOf(e: unknown): { problem: Problem; where: Where } | undefined {
+  if (e instanceof ProblemError) return { problem: e.problem, where: e.where };
+  if (e instanceof CommanderError && e.exitCode !== 0 && e.code !== 'commander.helpDisplayed')
+    return { problem: { code: 'usage', text: e.message.replace(/^error: /, '') }, where: {} };
+  return undefined;
+}
+
+/**
+ * `check --json` (and `plan`, `ready`) refused, by the command or by the parser before it ran: the
+ * refusal document, as a refusal of the command itself gives it (check-report.ts checkRefusedJson), so
+ * a tool that reads stdout is never left with nothing; undefined when --json was not asked for
+ */
+function refusalDocument(program: Command, argv: readonly string[], e: unknown): object | undefined {
+  const name = argv[0];
+  const options = argv.includes('--') ? argv.slice(0, argv.indexOf('--')) : argv;
+  if (name === undefined || !JSON_REFUSAL.has(name) || !options.includes('--json')) return undefined;
+  const refused = refusalOf(e);
+  if (!refused) return undefined;
+  // the operand as the parser read it (the log or the recipe); none where it stopped before one
+  const args = program.commands.find((c) => c.name() === name)?.args ?? [];
+  const first = args.findIndex((a) => a.startsWith('-'));
+  const file = (first < 0 ? args : args.slice(0, first))[0] ?? null;
+  return name === 'check'
+    ? checkRefusedJson(file, refused.problem, refused.where, VERSION)
+    : commandRefusedJson(name, file, refused.problem, refused.where, VERSION);
+}
+
 export function createProgram(streams: Streams): {
   program: Command;
   run: (argv: readonly string[]) => Promise<number>;
@@ -109,6 +141,8 @@ export function createProgram(streams: Streams): {
       await program.parseAsync(argv.length === 0 ? ['wizard'] : [...argv], { from: 'user' });
       return EXIT.ok;
     } catch (e) {
+      const doc = refusalDocument(program, argv, e);
+      if (doc) cli.out(JSON.stringify(doc, null, 2) + '\n');
       return exitCodeOf(cli, e);
     }
   };

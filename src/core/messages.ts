@@ -556,6 +556,7 @@ type FileProblemCode =
   | 'bad-list'
   | 'not-a-number'
   | 'number-too-large'
+  | 'usage'
   | 'option-repeated'
   | 'options-exclusive'
   | 'options-missing'
@@ -667,6 +668,8 @@ function describeFileProblem(p: Extract<Problem, { code: FileProblemCode | Recip
       return `"${p.text}" is not a number`;
     case 'number-too-large':
       return `"${p.text}" is too large a number to represent; check the exponent`;
+    case 'usage':
+      return p.text;
     case 'option-repeated':
       return (
         `${p.option} is given twice ("${p.first}" and "${p.second}"); give it once, ` +

@@ -192,6 +192,11 @@ export type Problem =
   /** a number option (--phi, --days, --trials, ...) that is not a number, or too large for one */
   | { readonly code: 'not-a-number'; readonly text: string }
   | { readonly code: 'number-too-large'; readonly text: string }
+  /**
+   * a command line the parser refuses (an unknown option, a missing argument or option value, a value
+   * outside an option's choices): `text` as the parser words it, e.g. "unknown option '--bogus'"
+   */
+  | { readonly code: 'usage'; readonly text: string }
   /** a value option given twice, e.g. --phi 1 --phi 0.5 */
   | {
       readonly code: 'option-repeated';

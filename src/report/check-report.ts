@@ -820,20 +820,35 @@ export function refusalJson(problem: Problem, where: Where) {
 }
 
 /**
- * `check --json` of a log, CSV or folder it refused (exit 2): a document in place of the re-check,
- * `verdict: "refused"` with no composition, so a tool that reads the JSON is never left with empty
- * input nor reads a refusal as a result
+ * `check --json` of a log, CSV or folder it refused (exit 2, a usage error too): a document in place of
+ * the re-check, `verdict: "refused"` with no composition, so a tool that reads the JSON is never left
+ * with empty input nor reads a refusal as a result. `target`: the log, CSV or folder (null where the
+ * command line was refused before naming one)
  */
-export function checkRefusedJson(target: string, problem: Problem, where: Where, version: string): object {
+export function checkRefusedJson(
+  target: string | null,
+  problem: Problem,
+  where: Where,
+  version: string,
+): object {
   return {
-    tool: 'mixwright',
-    version,
-    kind: 'check',
-    file: target,
-    verdict: 'refused',
+    ...commandRefusedJson('check', target, problem, where, version),
     composition_verdict: null,
-    refused: refusalJson(problem, where),
     composition: null,
     phi: null,
   };
+}
+
+/**
+ * the same refusal document for the other commands with --json (`plan`, `ready`): `kind` the command,
+ * `file` the recipe (null: the design from options, or not given), `verdict: "refused"` and `refused`
+ */
+export function commandRefusedJson(
+  kind: string,
+  file: string | null,
+  problem: Problem,
+  where: Where,
+  version: string,
+) {
+  return { tool: 'mixwright', version, kind, file, verdict: 'refused', refused: refusalJson(problem, where) };
 }

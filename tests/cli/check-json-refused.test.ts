@@ -104,3 +104,72 @@ describe('check --json: the other refusals print the document too', () => {
     });
   });
 });
+
+describe('--json and a command line the parser refuses (a usage error): the same document, stderr and exit as before', () => {
+  /** exit 2, stderr the parser's own words, stdout the refusal document with code "usage" */
+  async function usage(argv: string[], kind: string, message: string) {
+    const r = await runCli(argv);
+    expect(r.code, r.stderr).toBe(2);
+    expect(r.stderr).toContain(`error: ${message}`);
+    expect(r.stderr).toContain('(run with --help for usage)');
+    const j = JSON.parse(r.stdout);
+    expect(j).toMatchObject({ tool: 'mixwright', kind, verdict: 'refused' });
+    expect(j.refused).toEqual({
+      code: 'usage',
+      message,
+      file: null,
+      line: null,
+      field: null,
+      premix_log: null,
+    });
+    return j;
+  }
+
+  it('check: an unknown option, a missing option value, a missing argument, an extra argument', async () => {
+    const unknown = await usage(['check', BATCH, '--json', '--bogus'], 'check', "unknown option '--bogus'");
+    // the log as the parser read it, and no composition, as any refusal of check
+    expect(unknown).toMatchObject({ file: BATCH, composition: null, composition_verdict: null, phi: null });
+    const missing = await usage(
+      ['check', '--json', '--trials'],
+      'check',
+      "option '--trials <n>' argument missing",
+    );
+    expect(missing.file).toBeNull();
+    await usage(['check', '--json'], 'check', "missing required argument 'log'");
+    await usage(
+      ['check', BATCH, PREMIX, '--json'],
+      'check',
+      "too many arguments for 'check'. Expected 1 argument but got 2.",
+    );
+  });
+
+  it('check: an option given twice is refused by its own code, the document printed all the same', async () => {
+    const j = await refused([BATCH, '--trials', '100000', '--trials', '200000']);
+    expect(j.refused).toMatchObject({ code: 'option-repeated', field: '--trials' });
+  });
+
+  it('plan and ready take --json: a usage error or a refusal prints the same document (kind plan / ready)', async () => {
+    await usage(['plan', '--json', '--phi'], 'plan', "option '--phi <number>' argument missing");
+    await usage(
+      ['ready', 'recipes/ch4-o2-ar-phi1.yaml', '--json', '--bogus'],
+      'ready',
+      "unknown option '--bogus'",
+    );
+    const r = await runCli(['plan', join(dir, 'none.yaml'), '--json']);
+    expect(r.code).toBe(2);
+    const j = JSON.parse(r.stdout);
+    expect(j).toMatchObject({ kind: 'plan', file: join(dir, 'none.yaml'), verdict: 'refused' });
+    expect(j.refused.code).toBe('file-unreadable');
+    expect(r.stderr).toContain(j.refused.message);
+  });
+
+  it('without --json a usage error prints nothing on stdout; --help with --json is help, exit 0', async () => {
+    const r = await runCli(['check', BATCH, '--bogus']);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    const help = await runCli(['check', '--json', '--help']);
+    expect(help.code).toBe(0);
+    expect(help.stdout).toContain('Usage: mixwright check');
+    expect(() => JSON.parse(help.stdout)).toThrow();
+  });
+});

@@ -3,7 +3,6 @@ import type { Command } from 'commander';
 import { describeProblemAt, ProblemError } from '../../core/index.js';
 import { checkFile, type CheckReport } from '../../io/check.js';
 import {
-  checkRefusedJson,
   checkToJson,
   checkToText,
   folderSummary,
@@ -133,20 +132,10 @@ export function checkExit(report: OutcomeInput): number {
 }
 
 /**
- * `check`; with --json a refusal (exit 2) still prints a JSON document on stdout, saying what was
- * refused and why (its message on stderr as for any command)
+ * `check`; with --json a refusal (exit 2) still prints a JSON document on stdout (cli/program.ts
+ * `refusalDocument`: checkRefusedJson, a usage error too), its message on stderr as for any command
  */
 async function check(cli: Cli, target: string, o: CheckOptions): Promise<void> {
-  try {
-    await checkTarget(cli, target, o);
-  } catch (e) {
-    if (o.json && e instanceof ProblemError)
-      cli.out(JSON.stringify(checkRefusedJson(target, e.problem, e.where, VERSION), null, 2) + '\n');
-    throw e;
-  }
-}
-
-async function checkTarget(cli: Cli, target: string, o: CheckOptions): Promise<void> {
   const folder = isDirectory(target);
   const opts: CheckOpts = {
     trials: parseTrials(o.trials, folder ? 0 : 200000, 'explain'),
