@@ -703,6 +703,7 @@ export function checkToJson(r: CheckReport, version: string): object {
  */
 function compositionCell(r: CheckReport): string {
   if (r.verdict.verdict === 'no-design') return 'no design - not a pass';
+  if (r.verdict.verdict === 'pass-uncertain') return 'not shown within tolerance - not a pass';
   if (r.verdict.verdict === 'pass' && checkOutcomes(r).length)
     return 'NOT A PASS (composition within tolerance)';
   return r.verdict.verdict;

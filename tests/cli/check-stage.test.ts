@@ -100,7 +100,7 @@ describe('check of a folder with stage logs', () => {
     const row = (f: string) => lines.find((l) => l.startsWith(join(dir, f)))!;
     expect(row('b1-premix.jsonl')).toMatch(/ b1-premix +1 of 2: premix of b1 +pass /);
     expect(row('b1.jsonl')).toMatch(/ b1 +2 of 2: batch b1 from demo-premix-o2-ar-mt2\.jsonl +pass /);
-    expect(row('single.jsonl')).toMatch(/ demo-ch4-phi1-ar98 +- +pass-uncertain /);
+    expect(row('single.jsonl')).toMatch(/ demo-ch4-phi1-ar98 +- +not shown within tolerance - not a pass /);
     const j = JSON.parse((await runCli(['check', dir, '--json'])).stdout) as {
       file: string;
       stage: unknown;
