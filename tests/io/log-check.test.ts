@@ -305,7 +305,7 @@ describe('dangers in a log', () => {
       "line 4, fill 3: the tank reading 1500 Torr (absolute) is above the tank's working limit of 1495 Torr",
     );
     expect(cli.stdout).toMatch(
-      /Verdict {5}(PASS|NOT SHOWN WITHIN TOLERANCE).*\n {12}DANGER: a logged reading went past the tank's working limit/,
+      /Verdict {5}(NOT A PASS - the composition alone would pass|NOT SHOWN WITHIN TOLERANCE).*\n {12}DANGER: a logged reading went past the tank's working limit/,
     );
     const j = JSON.parse((await runCli(['check', file, '--json', '--trials', '100000'])).stdout);
     expect(j.danger).toBe(true);
@@ -332,7 +332,10 @@ describe('dangers in a log', () => {
     // a folder with that log: the summary marks it, exit 3
     const folder = await runCli(['check', dir, '--trials', '100000']);
     expect(folder.code).toBe(3);
-    expect(folder.stdout).toMatch(/lim\.jsonl\s+danger-test\s+-\s+pass(-uncertain)?, DANGER/);
+    // the composition's cell never reads as a pass beside a danger (was "pass" / "pass-uncertain")
+    expect(folder.stdout).toMatch(
+      /lim\.jsonl\s+danger-test\s+-\s+(NOT A PASS \(composition within tolerance\)|not shown within tolerance - not a pass), DANGER/,
+    );
   });
 
   it('a reading above its gauge full scale is a danger; corrected away it is a warning; out of tolerance still exits 4', async () => {
