@@ -90,10 +90,15 @@ const GOLDEN = 14;
 
 export function mix(a: Fractions, b: Fractions, u: number): Fractions {
   const y: Record<string, number> = {};
-  for (const [k, v] of Object.entries(a)) y[k] = (1 - u) * v;
-  for (const [k, v] of Object.entries(b)) y[k] = (y[k] ?? 0) + u * v;
-  for (const k of Object.keys(y)) if (y[k] <= 0) delete y[k];
-  return y;
+  for (const k in a) y[k] = (1 - u) * a[k];
+  for (const k in b) y[k] = (y[k] ?? 0) + u * b[k];
+  // the positive ones, in the same order (a new object: deleting keys would slow every later read)
+  let all = true;
+  for (const k in y) if (y[k] <= 0) all = false;
+  if (all) return y;
+  const out: Record<string, number> = {};
+  for (const k in y) if (!(y[k] <= 0)) out[k] = y[k];
+  return out;
 }
 
 function normalised(y: Fractions): Fractions {

@@ -269,14 +269,31 @@ function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly
 export const MINOR_FIRST_REASON =
   'minor gases first, the premix choice: each is read alone on the evacuated tank, where a small fill is read best';
 
-/** both stages for one choice: stage 1, the premix source from its prediction, the batch draft predicted with it */
+/**
+ * What stage 2 depends on of a stage 1: its final pressure, readings, heads and findings. Two choices
+ * of the same premix composition with the same stage 1 (the planner put every reading on the same head
+ * either way) make the same batch, so the later one can rank neither better nor more precise.
+ */
+function stageOneKey(choice: PremixChoice, stage1: PredictedPlan): string {
+  const steps = stage1.steps.map((s) => [s.source.id, s.targetPa, s.gauge?.id ?? '']);
+  return JSON.stringify([choice.pressurePa, steps, stage1.findings]);
+}
+
+/**
+ * both stages for one choice: stage 1, the premix source from its prediction, the batch draft
+ * predicted with it; undefined when an earlier choice in `seen` had the same stage 1 (stageOneKey)
+ */
 function planChoice(
   input: TwoStageInput,
   choice: PremixChoice,
   gauges: readonly Gauge[],
   draft: BatchDraft,
-): TwoStagePlan {
+  seen: Set<string>,
+): TwoStagePlan | undefined {
   const stage1 = planPremix(input, choice, gauges);
+  const key = stageOneKey(choice, stage1);
+  if (seen.has(key)) return undefined;
+  seen.add(key);
   const source = premixSource({
     id: draft.sourceId,
     tank: input.premixTank.id,
@@ -432,6 +449,7 @@ export function planTwoStage(
         // same readings: the delivery check on the draft is each choice's (its premix composition is
         // the draft's nominal one); a premix pressure that certainly runs low is left out of a proposal
         const low = new Map<number, boolean>();
+        const seen = new Set<string>();
         const runsLow = (pressurePa: number) => {
           if (search !== 'proposal') return false;
           if (!low.has(pressurePa)) {
@@ -444,7 +462,8 @@ export function planTwoStage(
           if (runsLow(choice.pressurePa)) continue;
           tried++;
           attempt(() => {
-            const c = planChoice(input, choice, gauges, draft);
+            const c = planChoice(input, choice, gauges, draft, seen);
+            if (!c) return;
             if (better(c, best)) best = c;
             if (
               !hasDanger(c.premix.findings, c.batch.findings) &&
