@@ -289,6 +289,7 @@ function planChoice(
   gauges: readonly Gauge[],
   draft: BatchDraft,
   seen: Set<string>,
+  mayWin?: (known: readonly Finding[]) => boolean,
 ): TwoStagePlan | undefined {
   const stage1 = planPremix(input, choice, gauges);
   const key = stageOneKey(choice, stage1);
@@ -305,8 +306,12 @@ function planChoice(
   });
   // the draft's premix stands in for the premix as stage 1 makes it: same id, the predicted composition
   const steps = draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s));
-  const stage2 = predicted({ ...draft.plan, steps }, input);
-  const { check, findings } = premixDeliveryCheck(stage2, source, input.premixTank, choice.pressurePa);
+  const unpredicted = { ...draft.plan, steps };
+  const { check, findings } = premixDeliveryCheck(unpredicted, source, input.premixTank, choice.pressurePa);
+  // every finding but the prediction's (which only adds warnings): enough to see a choice that cannot win
+  if (mayWin && !mayWin([...stage1.findings, ...withDeliveryFindings(unpredicted.findings, findings)]))
+    return undefined;
+  const stage2 = predicted(unpredicted, input);
   const batch: PredictedPlan = { ...stage2, findings: withDeliveryFindings(stage2.findings, findings) };
   return {
     premix: stage1,
@@ -352,7 +357,9 @@ function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): Pre
 /**
  * 'full' searches every choice; 'quick' the matched premix near the tank's limit only; 'proposal'
  * every choice but those whose premix tank certainly runs low (a danger the plan's proposal never
- * offers: the result is the full search's whenever that has no danger)
+ * offers: the result is the full search's whenever that has no danger), and it predicts a choice's
+ * batch only when the choice can still rank before the best so far (rankKeyOf): the same best, found
+ * with fewer predictions; it names no most precise choice
  */
 export type TwoStageSearch = 'full' | 'quick' | 'proposal';
 
@@ -362,22 +369,31 @@ export type TwoStageSearch = 'full' | 'quick' | 'proposal';
  * fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
  * tolerance, e.g. no compression of pure O2), then the smallest worst U / tolerance.
  */
-function rankKey(c: TwoStagePlan): number[] {
-  const all = [...c.premix.findings, ...c.batch.findings];
+function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
   return [
     ...dangerCounts(all),
-    c.worstRatio <= 1 ? 0 : 1,
+    worstRatio <= 1 ? 0 : 1,
     all.filter((f) => f.severity === 'warning').length,
-    c.worstRatio,
+    worstRatio,
   ];
 }
 
-function better(c: TwoStagePlan, best: TwoStagePlan | undefined): boolean {
-  if (!best) return true;
-  const a = rankKey(c);
-  const b = rankKey(best);
+/*
+ * Every element of the key is a count of findings or grows with the worst ratio: more findings or a
+ * larger ratio never make a key smaller. So the key of a choice's findings without its prediction's,
+ * at a ratio of 0, is a bound no completed choice goes below (the proposal's pruning).
+ */
+function rankKey(c: TwoStagePlan): number[] {
+  return rankKeyOf([...c.premix.findings, ...c.batch.findings], c.worstRatio);
+}
+
+function keyBefore(a: readonly number[], b: readonly number[]): boolean {
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i] < b[i];
   return false;
+}
+
+function better(c: TwoStagePlan, best: TwoStagePlan | undefined): boolean {
+  return !best || keyBefore(rankKey(c), rankKey(best));
 }
 
 /** the choices for one premix gas and composition: pressures, stage-1 heads and orders */
@@ -462,7 +478,13 @@ export function planTwoStage(
           if (runsLow(choice.pressurePa)) continue;
           tried++;
           attempt(() => {
-            const c = planChoice(input, choice, gauges, draft, seen);
+            // a proposal wants the best choice only: one whose key cannot go below the best's is not
+            // predicted (the most precise choice, which a full search also names, is not sought)
+            const mayWin =
+              search === 'proposal'
+                ? (known: readonly Finding[]) => !best || keyBefore(rankKeyOf(known, 0), rankKey(best))
+                : undefined;
+            const c = planChoice(input, choice, gauges, draft, seen, mayWin);
             if (!c) return;
             if (better(c, best)) best = c;
             if (
@@ -480,7 +502,7 @@ export function planTwoStage(
   });
   const p = precise as TwoStagePlan | undefined;
   const mostPrecise =
-    p && p !== best && p.worstRatio < chosen.worstRatio
+    search !== 'proposal' && p && p !== best && p.worstRatio < chosen.worstRatio
       ? {
           choice: p.choice,
           worstRatio: p.worstRatio,
