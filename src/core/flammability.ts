@@ -236,6 +236,21 @@ export function diagramPoint(y: Fractions): {
   fuelBlend: Record<string, number>;
   unknownInerts: string[];
 } {
+  const { fuel: f, oxygen: o, inert: n, fuelBlend, unknownInerts } = diagramSums(y);
+  const s = f + o + n;
+  for (const k of Object.keys(fuelBlend)) fuelBlend[k] /= f;
+  return { point: { fuel: f / s, oxygen: o / s, inert: n / s }, fuelBlend, unknownInerts };
+}
+
+/**
+ * The diagram's amounts before normalising: fuel, O2-equivalent and N2-equivalent inert per mol of
+ * the state, and each fuel's amount. They are linear in the composition (a mixing path's are linear
+ * in its position).
+ */
+export function diagramSums(y: Fractions): DiagramPoint & {
+  fuelBlend: Record<string, number>;
+  unknownInerts: string[];
+} {
   let f = 0;
   let o = 0;
   let n = 0;
@@ -257,9 +272,7 @@ export function diagramPoint(y: Fractions): {
       n += (K?.value ?? INERT_K_FALLBACK) * v;
     }
   }
-  const s = f + o + n;
-  for (const k of Object.keys(fuelBlend)) fuelBlend[k] /= f;
-  return { point: { fuel: f / s, oxygen: o / s, inert: n / s }, fuelBlend, unknownInerts };
+  return { fuel: f, oxygen: o, inert: n, fuelBlend, unknownInerts };
 }
 
 /** vertices closer than this (mole fraction) are one vertex */

@@ -290,8 +290,9 @@ function planChoice(
   draft: BatchDraft,
   seen: Set<string>,
   mayWin?: (known: readonly Finding[]) => boolean,
+  planned?: PredictedPlan,
 ): TwoStagePlan | undefined {
-  const stage1 = planPremix(input, choice, gauges);
+  const stage1 = planned ?? planPremix(input, choice, gauges);
   const key = stageOneKey(choice, stage1);
   if (seen.has(key)) return undefined;
   seen.add(key);
@@ -484,7 +485,12 @@ export function planTwoStage(
               search === 'proposal'
                 ? (known: readonly Finding[]) => !best || keyBefore(rankKeyOf(known, 0), rankKey(best))
                 : undefined;
-            const c = planChoice(input, choice, gauges, draft, seen, mayWin);
+            // the first premix planned is this choice's when it has the same pressure, heads and order
+            const same =
+              choice.pressurePa === pressures[0] &&
+              choice.order === 'recommended' &&
+              gauges.length === b.gauges.length;
+            const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined);
             if (!c) return;
             if (better(c, best)) best = c;
             if (
