@@ -199,13 +199,20 @@ function eventsOf(basis: PlanBasis, planned: PlanSteps): FillEvent[] {
 /**
  * The sequence hazards of planned steps: every state and fill path, and the steps' own. With
  * `firstOnly` the review stops at the first fill with a hazard of any severity (enough to reject
- * a candidate when the advised order is clean); `complete` says whether every fill was reviewed.
+ * a candidate when the advised order is clean); with `stopAt` it stops at the first fill after which a
+ * hazard so far satisfies it (a review that only asks whether a hazard occurs); `complete` says
+ * whether every fill was reviewed.
  */
-export function screen(ctx: SearchContext, planned: PlanSteps, firstOnly = false): HazardCount {
+export function screen(
+  ctx: SearchContext,
+  planned: PlanSteps,
+  firstOnly = false,
+  stopAt?: (h: Finding) => boolean,
+): HazardCount {
   const hazards: Finding[] = planned.findings.filter(countsAgainstSequence);
   let complete = true;
   for (const f of eventsOf(ctx.basis, planned)) {
-    if (firstOnly && hazards.length) {
+    if ((firstOnly && hazards.length) || (stopAt && hazards.some(stopAt))) {
       complete = false;
       break;
     }
@@ -294,8 +301,12 @@ export function reviewIfPromising(
 }
 
 /** the candidate with every fill reviewed (after a review that stopped at the first hazard) */
-export function reviewedFully(ctx: SearchContext, ev: Evaluated): Evaluated {
-  return ev.safety.complete ? ev : { ...ev, safety: screen(ctx, ev.steps) };
+export function reviewedFully(
+  ctx: SearchContext,
+  ev: Evaluated,
+  stopAt?: (h: Finding) => boolean,
+): Evaluated {
+  return ev.safety.complete ? ev : { ...ev, safety: screen(ctx, ev.steps, false, stopAt) };
 }
 
 /** the candidate with its prediction (unchanged when the prediction cannot be made) */
