@@ -406,9 +406,10 @@ export function detonableStretchFinding(
  * is flammable where neither the bulk path nor the end states are is a warning.
  * `locate` false bisects the boundaries 4 times instead of 9 and judges a detonable stretch
  * for its severity alone (the order search needs the severities, not the exact pressure range
- * or the CJ numbers).
+ * or the CJ numbers). `judge` false leaves a detonable stretch unjudged: a danger without its
+ * detonation numbers (a search that only asks whether a fill has a hazard).
  */
-export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true): Finding[] {
+export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true, judge = true): Finding[] {
   const out: Finding[] = [];
   const bulk = reviewBulkPath(e, ctx.temperatureK, locate);
   if (!bulk) return out;
@@ -417,7 +418,7 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
     const w = bulk.worst;
     // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
     const det =
-      bulk.rank === 2
+      bulk.rank === 2 && judge
         ? detonableStretchFinding(
             bulk.detonable,
             ctx.temperatureK,

@@ -135,10 +135,18 @@ const key = (s: TankState | undefined) =>
         .join(',');
 
 /**
+ * hazards found by a quick review whose severity was not judged: a detonable fill path is counted as
+ * a danger without its reflected pressure against the limit (enough to reject a candidate); a review
+ * holding them is not complete
+ */
+const provisional = new WeakSet<readonly Finding[]>();
+
+/**
  * The hazards of one fill and of the state it ends at, cached by the tank contents before and
  * after. `quick`: a flammable intermediate state is reported as flammable-state alone (its
- * detonation and closed-vessel review, and the fill's path, are left for a full review): enough
- * to reject the candidate.
+ * detonation and closed-vessel review, and the fill's path, are left for a full review), and a
+ * detonable stretch of the fill's path is not judged against the working limit (provisional):
+ * enough to reject the candidate.
  */
 function fillHazards(ctx: SearchContext, f: FillEvent, quick: boolean): Finding[] {
   const safety = ctx.basis.safety;
@@ -165,7 +173,13 @@ function fillHazards(ctx: SearchContext, f: FillEvent, quick: boolean): Finding[
       ),
     );
   found.push(...reviewFill(f, safety).filter(countsAgainstSequence));
-  found.push(...reviewFillPath(f, safety, false));
+  const path = reviewFillPath(f, safety, false, !quick);
+  found.push(...path);
+  if (quick && path.some((x) => x.code === 'flammable-fill-path' && x.detonable)) {
+    provisional.add(found);
+    ctx.cache.set(`quick ${k}`, found);
+    return found;
+  }
   ctx.cache.set(k, found);
   return found;
 }
@@ -217,6 +231,7 @@ export function screen(
       break;
     }
     const found = fillHazards(ctx, f, firstOnly);
+    if (provisional.has(found)) complete = false;
     hazards.push(...found.map((h) => ({ ...h, step: h.step === undefined ? undefined : f.step })));
   }
   const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
