@@ -39,7 +39,7 @@ import type { Fractions } from './composition.js';
 import {
   assessFlammability,
   blendLimits,
-  diagramPoint,
+  diagramSums,
   envelopePolygon,
   insidePolygon,
   type FlammabilityAssessment,
@@ -90,10 +90,15 @@ const GOLDEN = 14;
 
 export function mix(a: Fractions, b: Fractions, u: number): Fractions {
   const y: Record<string, number> = {};
-  for (const [k, v] of Object.entries(a)) y[k] = (1 - u) * v;
-  for (const [k, v] of Object.entries(b)) y[k] = (y[k] ?? 0) + u * v;
-  for (const k of Object.keys(y)) if (y[k] <= 0) delete y[k];
-  return y;
+  for (const k in a) y[k] = (1 - u) * a[k];
+  for (const k in b) y[k] = (y[k] ?? 0) + u * b[k];
+  // the positive ones, in the same order (a new object: deleting keys would slow every later read)
+  let all = true;
+  for (const k in y) if (y[k] <= 0) all = false;
+  if (all) return y;
+  const out: Record<string, number> = {};
+  for (const k in y) if (!(y[k] <= 0)) out[k] = y[k];
+  return out;
 }
 
 function normalised(y: Fractions): Fractions {
@@ -160,20 +165,48 @@ function distanceToSegment(p: [number, number], a: [number, number], b: [number,
   return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
 }
 
-/**
- * How far a composition lies outside the limit envelope on the N2-equivalent diagram
- * (negative inside): a cheap guide to where a thin crossing could hide. The verdict
- * itself always comes from assessFlammability.
- */
-function envelopeGap(y: Fractions, temperatureK: number, pressurePa: number): number {
-  const { point, fuelBlend } = diagramPoint(y);
-  if (point.fuel <= 0 || point.oxygen <= 0) return 1;
-  const poly = envelopePolygon(blendLimits(fuelBlend, temperatureK, pressurePa));
-  const p: [number, number] = [point.fuel, point.oxygen];
+/** distance of a diagram point from the envelope polygon, negative inside */
+function gapTo(p: [number, number], poly: [number, number][]): number {
   let d = Infinity;
   for (let i = 0, j = poly.length - 1; i < poly.length; j = i++)
     d = Math.min(d, distanceToSegment(p, poly[j], poly[i]));
   return insidePolygon(p, poly) ? -d : d;
+}
+
+/**
+ * How far each composition of the segment a -> b lies outside the limit envelope on the
+ * N2-equivalent diagram (negative inside), as a function of u: a cheap guide to where a thin
+ * crossing could hide. The verdict itself always comes from assessFlammability. The diagram's
+ * amounts are linear in u (diagramSums), so they are taken from the ends, and a point costs no
+ * mixing of the compositions.
+ */
+function gapAlong(
+  a: Fractions,
+  b: Fractions,
+  temperatureK: number,
+  pressureAt: (u: number) => number,
+): (u: number) => number {
+  const A = diagramSums(a);
+  const B = diagramSums(b);
+  const fuels = [...new Set([...Object.keys(A.fuelBlend), ...Object.keys(B.fuelBlend)])];
+  const single: Fractions | undefined = fuels.length === 1 ? { [fuels[0]]: 1 } : undefined;
+  return (u) => {
+    const f = (1 - u) * A.fuel + u * B.fuel;
+    const o = (1 - u) * A.oxygen + u * B.oxygen;
+    const s = f + o + (1 - u) * A.inert + u * B.inert;
+    if (!(f / s > 0) || !(o / s > 0)) return 1;
+    let blend = single;
+    if (!blend) {
+      const y: Record<string, number> = {};
+      for (const k of fuels) {
+        const v = (1 - u) * (A.fuelBlend[k] ?? 0) + u * (B.fuelBlend[k] ?? 0);
+        if (v > 0) y[k] = v / f;
+      }
+      blend = y;
+    }
+    const poly = envelopePolygon(blendLimits(blend, temperatureK, pressureAt(u)));
+    return gapTo([f / s, o / s], poly);
+  };
 }
 
 /** golden-section search for the minimum of f on [lo, hi] */
@@ -230,7 +263,7 @@ export function reviewSegment(
   if (canBurn(a, b)) {
     for (let i = 0; i <= SAMPLES; i++) pts.push(at(i / SAMPLES));
     // thin crossings of the envelope: local minima of the (cheap) gap on a fine grid, refined
-    const gap = (u: number) => envelopeGap(mix(a, b, u), temperatureK, pressureAt(u));
+    const gap = gapAlong(a, b, temperatureK, pressureAt);
     const fine = Array.from({ length: FINE + 1 }, (_, i) => gap(i / FINE));
     for (let i = 0; i <= FINE; i++) {
       const left = i > 0 ? fine[i - 1] : Infinity;
@@ -250,7 +283,8 @@ export function reviewSegment(
         pts.push(
           at(
             goldenMin(
-              (u) => -flameShare(at(u).assessment, temperatureK),
+              // the flame share alone (no rank): the refined point is then judged in full
+              (u) => -flameShare(assessFlammability(mix(a, b, u), temperatureK, pressureAt(u)), temperatureK),
               Math.max(0, (i - 1) / SAMPLES),
               Math.min(1, (i + 1) / SAMPLES),
               GOLDEN / 2,
@@ -372,9 +406,10 @@ export function detonableStretchFinding(
  * is flammable where neither the bulk path nor the end states are is a warning.
  * `locate` false bisects the boundaries 4 times instead of 9 and judges a detonable stretch
  * for its severity alone (the order search needs the severities, not the exact pressure range
- * or the CJ numbers).
+ * or the CJ numbers). `judge` false leaves a detonable stretch unjudged: a danger without its
+ * detonation numbers (a search that only asks whether a fill has a hazard).
  */
-export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true): Finding[] {
+export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true, judge = true): Finding[] {
   const out: Finding[] = [];
   const bulk = reviewBulkPath(e, ctx.temperatureK, locate);
   if (!bulk) return out;
@@ -383,7 +418,7 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true):
     const w = bulk.worst;
     // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
     const det =
-      bulk.rank === 2
+      bulk.rank === 2 && judge
         ? detonableStretchFinding(
             bulk.detonable,
             ctx.temperatureK,

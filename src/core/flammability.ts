@@ -19,6 +19,7 @@
 import { FUEL_SAFETY, INERT_K, type FuelSafetyRecord } from './data/safety-data.js';
 import { INERT_K_FALLBACK, MARGINS, NEAR_LIMIT_FLAME_SHARE } from './thresholds.js';
 import { getSpecies } from './lookup.js';
+import type { SpeciesRecord } from './data/species.js';
 import { oxygenDemand } from './formula.js';
 import { flameTemperatureK } from './combustion.js';
 import type { Fractions } from './composition.js';
@@ -105,7 +106,11 @@ function listedLimits(rec: FuelSafetyRecord): { lfl: number; ufl: number; listed
   return l;
 }
 
-export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: number): BlendLimits {
+function computeBlendBase(
+  fuel: Fractions,
+  species: SpeciesRecord[],
+  recs: (FuelSafetyRecord | undefined)[],
+): BlendBase {
   let invL = 0;
   let invU = 0;
   let invUO2 = 0;
@@ -118,9 +123,12 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
   const sources = new Set<string>();
   let known = 0;
   for (const [k, y] of Object.entries(fuel)) {
-    const d = oxygenDemand(getSpecies(k).elements);
+    const sp = getSpecies(k);
+    const d = oxygenDemand(sp.elements);
+    species.push(sp);
     z += y * d;
     const rec = FUEL_SAFETY.get(k);
+    recs.push(rec);
     if (!rec) {
       missing.push(k);
       continue;
@@ -154,14 +162,51 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
     }
   }
   const scale = known > 0 ? known : 1;
-  let lfl = scale / invL;
-  let ufl = scale / invU;
+  const lfl = scale / invL;
+  const ufl = scale / invU;
   const uflO2 = scale / invUO2;
   // a LOC of 0 (acetylene: it decomposes without oxidant) would make Le Chatelier's mean 0 for
   // any share of it; instead the fuels with a LOC take their Le Chatelier mean, scaled by their
   // share of the fuel (our rule, linear in the share of the decomposing fuel): 1 % C2H2 in CH4
   // gives 0.99 x 10.7 %, pure C2H2 stays 0
   const loc = invLoc > 0 ? (locShare / invLoc) * (locShare / scale) : 0;
+  return { lfl, ufl, uflO2, loc, z, estimated, missing, sources: [...sources], species, recs };
+}
+
+/** the limits of a blend before the temperature and pressure corrections, and what they rest on */
+interface BlendBase extends BlendLimits {
+  readonly species: readonly SpeciesRecord[];
+  readonly recs: readonly (FuelSafetyRecord | undefined)[];
+}
+/** blend bases by the blend's names and fractions: a path's states share their fuel blend */
+const blendBases = new Map<string, BlendBase>();
+const BLEND_BASES_KEPT = 256;
+
+function blendBase(fuel: Fractions): BlendBase {
+  let key = '';
+  for (const k in fuel) key += `${k}\u0000${fuel[k]}\u0000`;
+  const hit = blendBases.get(key);
+  // still the tables' records (a test may change a table): else computed again
+  if (hit) {
+    let i = 0;
+    let same = true;
+    for (const k in fuel) {
+      if (FUEL_SAFETY.get(k) !== hit.recs[i] || getSpecies(k) !== hit.species[i]) same = false;
+      i++;
+    }
+    if (same) return hit;
+  }
+  const base = computeBlendBase(fuel, [], []);
+  if (blendBases.size >= BLEND_BASES_KEPT) blendBases.clear();
+  blendBases.set(key, base);
+  return base;
+}
+
+export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: number): BlendLimits {
+  const b = blendBase(fuel);
+  let lfl = b.lfl;
+  let ufl = b.ufl;
+  const uflO2 = b.uflO2;
   const dT = temperatureK - 298.15;
   if (dT > 0) {
     lfl *= 1 - 0.0008 * dT;
@@ -170,7 +215,8 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
   const pMPa = pressurePa / 1e6;
   if (pMPa > 0.101325)
     ufl = Math.min(uflO2, ufl + 0.206 * (Math.log10(pMPa) + 1) - 0.206 * (Math.log10(0.101325) + 1));
-  return { lfl, ufl: Math.min(ufl, 1), uflO2, loc, z, estimated, missing, sources: [...sources] };
+  const { loc, z, estimated, missing, sources } = b;
+  return { lfl, ufl: Math.min(ufl, 1), uflO2, loc, z, estimated, missing, sources };
 }
 
 export interface DiagramPoint {
@@ -187,6 +233,21 @@ export interface DiagramPoint {
  */
 export function diagramPoint(y: Fractions): {
   point: DiagramPoint;
+  fuelBlend: Record<string, number>;
+  unknownInerts: string[];
+} {
+  const { fuel: f, oxygen: o, inert: n, fuelBlend, unknownInerts } = diagramSums(y);
+  const s = f + o + n;
+  for (const k of Object.keys(fuelBlend)) fuelBlend[k] /= f;
+  return { point: { fuel: f / s, oxygen: o / s, inert: n / s }, fuelBlend, unknownInerts };
+}
+
+/**
+ * The diagram's amounts before normalising: fuel, O2-equivalent and N2-equivalent inert per mol of
+ * the state, and each fuel's amount. They are linear in the composition (a mixing path's are linear
+ * in its position).
+ */
+export function diagramSums(y: Fractions): DiagramPoint & {
   fuelBlend: Record<string, number>;
   unknownInerts: string[];
 } {
@@ -211,9 +272,7 @@ export function diagramPoint(y: Fractions): {
       n += (K?.value ?? INERT_K_FALLBACK) * v;
     }
   }
-  const s = f + o + n;
-  for (const k of Object.keys(fuelBlend)) fuelBlend[k] /= f;
-  return { point: { fuel: f / s, oxygen: o / s, inert: n / s }, fuelBlend, unknownInerts };
+  return { fuel: f, oxygen: o, inert: n, fuelBlend, unknownInerts };
 }
 
 /** vertices closer than this (mole fraction) are one vertex */
@@ -235,7 +294,7 @@ export function envelopePolygon(l: BlendLimits): [number, number][] {
     [l.uflO2, 1 - l.uflO2], // UFL in O2
   ];
   const same = (a: [number, number], b: [number, number]) =>
-    Math.hypot(a[0] - b[0], a[1] - b[1]) < VERTEX_EPS;
+    (a[0] - b[0]) ** 2 + (a[1] - b[1]) ** 2 < VERTEX_EPS ** 2;
   const out: [number, number][] = [];
   for (const v of raw) if (!out.length || !same(out[out.length - 1], v)) out.push(v);
   while (out.length > 1 && same(out[0], out[out.length - 1])) out.pop();
@@ -271,9 +330,9 @@ export function uflAtOxygenShare(l: BlendLimits, r: number): number | undefined 
 }
 
 function onSegment(p: [number, number], a: [number, number], b: [number, number]): boolean {
-  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  const len = Math.sqrt((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2);
   // a zero-length edge (two equal vertices) holds only its own point
-  if (len < VERTEX_EPS) return Math.hypot(p[0] - a[0], p[1] - a[1]) < VERTEX_EPS;
+  if (len < VERTEX_EPS) return (p[0] - a[0]) ** 2 + (p[1] - a[1]) ** 2 < VERTEX_EPS ** 2;
   const cross = (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0]);
   if (Math.abs(cross) > 1e-9 * Math.max(len, 1e-12)) return false;
   const dot = (p[0] - a[0]) * (b[0] - a[0]) + (p[1] - a[1]) * (b[1] - a[1]);

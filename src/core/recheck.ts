@@ -89,10 +89,17 @@ export function inverseSetup(
     (k) =>
       readings.some((r) => (r.source.composition[k] ?? 0) >= 1e-4) || (initial?.composition[k] ?? 0) >= 1e-4,
   );
+  // the readings of a plan share one temperature: each temperature's matrices are made once (read only)
+  const atT = new Map<number, { m: VirialModel; B: Float64Array; C: Float64Array; cPairs: Float64Array }>();
   const at = (T: number) => {
-    const m = virialModel(species, T);
-    const idx = species.map((k) => m.species.indexOf(k));
-    return { m, ...matrixOf(m, idx, S, major) };
+    let r = atT.get(T);
+    if (!r) {
+      const m = virialModel(species, T);
+      const idx = species.map((k) => m.species.indexOf(k));
+      r = { m, ...matrixOf(m, idx, S, major) };
+      atT.set(T, r);
+    }
+    return r;
   };
   const wEos: Float64Array[] = [];
   const wId: Float64Array[] = [];

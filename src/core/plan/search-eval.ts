@@ -135,10 +135,18 @@ const key = (s: TankState | undefined) =>
         .join(',');
 
 /**
+ * hazards found by a quick review whose severity was not judged: a detonable fill path is counted as
+ * a danger without its reflected pressure against the limit (enough to reject a candidate); a review
+ * holding them is not complete
+ */
+const provisional = new WeakSet<readonly Finding[]>();
+
+/**
  * The hazards of one fill and of the state it ends at, cached by the tank contents before and
  * after. `quick`: a flammable intermediate state is reported as flammable-state alone (its
- * detonation and closed-vessel review, and the fill's path, are left for a full review): enough
- * to reject the candidate.
+ * detonation and closed-vessel review, and the fill's path, are left for a full review), and a
+ * detonable stretch of the fill's path is not judged against the working limit (provisional):
+ * enough to reject the candidate.
  */
 function fillHazards(ctx: SearchContext, f: FillEvent, quick: boolean): Finding[] {
   const safety = ctx.basis.safety;
@@ -165,7 +173,13 @@ function fillHazards(ctx: SearchContext, f: FillEvent, quick: boolean): Finding[
       ),
     );
   found.push(...reviewFill(f, safety).filter(countsAgainstSequence));
-  found.push(...reviewFillPath(f, safety, false));
+  const path = reviewFillPath(f, safety, false, !quick);
+  found.push(...path);
+  if (quick && path.some((x) => x.code === 'flammable-fill-path' && x.detonable)) {
+    provisional.add(found);
+    ctx.cache.set(`quick ${k}`, found);
+    return found;
+  }
   ctx.cache.set(k, found);
   return found;
 }
@@ -199,17 +213,25 @@ function eventsOf(basis: PlanBasis, planned: PlanSteps): FillEvent[] {
 /**
  * The sequence hazards of planned steps: every state and fill path, and the steps' own. With
  * `firstOnly` the review stops at the first fill with a hazard of any severity (enough to reject
- * a candidate when the advised order is clean); `complete` says whether every fill was reviewed.
+ * a candidate when the advised order is clean); with `stopAt` it stops at the first fill after which a
+ * hazard so far satisfies it (a review that only asks whether a hazard occurs); `complete` says
+ * whether every fill was reviewed.
  */
-export function screen(ctx: SearchContext, planned: PlanSteps, firstOnly = false): HazardCount {
+export function screen(
+  ctx: SearchContext,
+  planned: PlanSteps,
+  firstOnly = false,
+  stopAt?: (h: Finding) => boolean,
+): HazardCount {
   const hazards: Finding[] = planned.findings.filter(countsAgainstSequence);
   let complete = true;
   for (const f of eventsOf(ctx.basis, planned)) {
-    if (firstOnly && hazards.length) {
+    if ((firstOnly && hazards.length) || (stopAt && hazards.some(stopAt))) {
       complete = false;
       break;
     }
     const found = fillHazards(ctx, f, firstOnly);
+    if (provisional.has(found)) complete = false;
     hazards.push(...found.map((h) => ({ ...h, step: h.step === undefined ? undefined : f.step })));
   }
   const count = (sev: string) => hazards.filter((h) => h.severity === sev).length;
@@ -294,8 +316,12 @@ export function reviewIfPromising(
 }
 
 /** the candidate with every fill reviewed (after a review that stopped at the first hazard) */
-export function reviewedFully(ctx: SearchContext, ev: Evaluated): Evaluated {
-  return ev.safety.complete ? ev : { ...ev, safety: screen(ctx, ev.steps) };
+export function reviewedFully(
+  ctx: SearchContext,
+  ev: Evaluated,
+  stopAt?: (h: Finding) => boolean,
+): Evaluated {
+  return ev.safety.complete ? ev : { ...ev, safety: screen(ctx, ev.steps, false, stopAt) };
 }
 
 /** the candidate with its prediction (unchanged when the prediction cannot be made) */

@@ -380,16 +380,17 @@ function isWithin(ev: Evaluated): boolean {
  * warning), every fill reviewed: such a sequence may be offered as an option, never chosen.
  */
 function optionable(ev: Evaluated): boolean {
-  return (
-    ev.safety.complete &&
-    ev.safety.danger === 0 &&
-    ev.safety.hazards.every(
-      (h) =>
-        h.severity === 'note' ||
-        h.code === 'flammable-state' ||
-        h.code === 'flammable-fill-path' ||
-        h.code === 'flammable-at-inlet',
-    )
+  return ev.safety.complete && ev.safety.danger === 0 && !ev.safety.hazards.some(rulesOutOption);
+}
+
+/** a hazard no option may have: any danger, any warning but a flammable state or path */
+function rulesOutOption(h: Finding): boolean {
+  if (h.severity === 'danger') return true;
+  return !(
+    h.severity === 'note' ||
+    h.code === 'flammable-state' ||
+    h.code === 'flammable-fill-path' ||
+    h.code === 'flammable-at-inlet'
   );
 }
 
@@ -407,7 +408,8 @@ function preciseOption(
 ): Evaluated | undefined {
   let best: Evaluated | undefined;
   for (const e of found.unsafeOrders) {
-    const full = reviewedFully(ctx, e);
+    // the review stops at the first hazard that rules the order out (hazards are only ever added)
+    const full = reviewedFully(ctx, e, rulesOutOption);
     if (!optionable(full)) continue;
     const p = predicted(ctx, full);
     if (isWithin(p) && better(p, best)) best = p;

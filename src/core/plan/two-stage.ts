@@ -269,14 +269,33 @@ function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly
 export const MINOR_FIRST_REASON =
   'minor gases first, the premix choice: each is read alone on the evacuated tank, where a small fill is read best';
 
-/** both stages for one choice: stage 1, the premix source from its prediction, the batch draft predicted with it */
+/**
+ * What stage 2 depends on of a stage 1: its final pressure, readings, heads and findings. Two choices
+ * of the same premix composition with the same stage 1 (the planner put every reading on the same head
+ * either way) make the same batch, so the later one can rank neither better nor more precise.
+ */
+function stageOneKey(choice: PremixChoice, stage1: PredictedPlan): string {
+  const steps = stage1.steps.map((s) => [s.source.id, s.targetPa, s.gauge?.id ?? '']);
+  return JSON.stringify([choice.pressurePa, steps, stage1.findings]);
+}
+
+/**
+ * both stages for one choice: stage 1, the premix source from its prediction, the batch draft
+ * predicted with it; undefined when an earlier choice in `seen` had the same stage 1 (stageOneKey)
+ */
 function planChoice(
   input: TwoStageInput,
   choice: PremixChoice,
   gauges: readonly Gauge[],
   draft: BatchDraft,
-): TwoStagePlan {
-  const stage1 = planPremix(input, choice, gauges);
+  seen: Set<string>,
+  mayWin?: (known: readonly Finding[]) => boolean,
+  planned?: PredictedPlan,
+): TwoStagePlan | undefined {
+  const stage1 = planned ?? planPremix(input, choice, gauges);
+  const key = stageOneKey(choice, stage1);
+  if (seen.has(key)) return undefined;
+  seen.add(key);
   const source = premixSource({
     id: draft.sourceId,
     tank: input.premixTank.id,
@@ -288,8 +307,12 @@ function planChoice(
   });
   // the draft's premix stands in for the premix as stage 1 makes it: same id, the predicted composition
   const steps = draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s));
-  const stage2 = predicted({ ...draft.plan, steps }, input);
-  const { check, findings } = premixDeliveryCheck(stage2, source, input.premixTank, choice.pressurePa);
+  const unpredicted = { ...draft.plan, steps };
+  const { check, findings } = premixDeliveryCheck(unpredicted, source, input.premixTank, choice.pressurePa);
+  // every finding but the prediction's (which only adds warnings): enough to see a choice that cannot win
+  if (mayWin && !mayWin([...stage1.findings, ...withDeliveryFindings(unpredicted.findings, findings)]))
+    return undefined;
+  const stage2 = predicted(unpredicted, input);
   const batch: PredictedPlan = { ...stage2, findings: withDeliveryFindings(stage2.findings, findings) };
   return {
     premix: stage1,
@@ -335,7 +358,9 @@ function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): Pre
 /**
  * 'full' searches every choice; 'quick' the matched premix near the tank's limit only; 'proposal'
  * every choice but those whose premix tank certainly runs low (a danger the plan's proposal never
- * offers: the result is the full search's whenever that has no danger)
+ * offers: the result is the full search's whenever that has no danger), and it predicts a choice's
+ * batch only when the choice can still rank before the best so far (rankKeyOf): the same best, found
+ * with fewer predictions; it names no most precise choice
  */
 export type TwoStageSearch = 'full' | 'quick' | 'proposal';
 
@@ -345,22 +370,31 @@ export type TwoStageSearch = 'full' | 'quick' | 'proposal';
  * fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
  * tolerance, e.g. no compression of pure O2), then the smallest worst U / tolerance.
  */
-function rankKey(c: TwoStagePlan): number[] {
-  const all = [...c.premix.findings, ...c.batch.findings];
+function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
   return [
     ...dangerCounts(all),
-    c.worstRatio <= 1 ? 0 : 1,
+    worstRatio <= 1 ? 0 : 1,
     all.filter((f) => f.severity === 'warning').length,
-    c.worstRatio,
+    worstRatio,
   ];
 }
 
-function better(c: TwoStagePlan, best: TwoStagePlan | undefined): boolean {
-  if (!best) return true;
-  const a = rankKey(c);
-  const b = rankKey(best);
+/*
+ * Every element of the key is a count of findings or grows with the worst ratio: more findings or a
+ * larger ratio never make a key smaller. So the key of a choice's findings without its prediction's,
+ * at a ratio of 0, is a bound no completed choice goes below (the proposal's pruning).
+ */
+function rankKey(c: TwoStagePlan): number[] {
+  return rankKeyOf([...c.premix.findings, ...c.batch.findings], c.worstRatio);
+}
+
+function keyBefore(a: readonly number[], b: readonly number[]): boolean {
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i] < b[i];
   return false;
+}
+
+function better(c: TwoStagePlan, best: TwoStagePlan | undefined): boolean {
+  return !best || keyBefore(rankKey(c), rankKey(best));
 }
 
 /** the choices for one premix gas and composition: pressures, stage-1 heads and orders */
@@ -432,6 +466,7 @@ export function planTwoStage(
         // same readings: the delivery check on the draft is each choice's (its premix composition is
         // the draft's nominal one); a premix pressure that certainly runs low is left out of a proposal
         const low = new Map<number, boolean>();
+        const seen = new Set<string>();
         const runsLow = (pressurePa: number) => {
           if (search !== 'proposal') return false;
           if (!low.has(pressurePa)) {
@@ -444,7 +479,19 @@ export function planTwoStage(
           if (runsLow(choice.pressurePa)) continue;
           tried++;
           attempt(() => {
-            const c = planChoice(input, choice, gauges, draft);
+            // a proposal wants the best choice only: one whose key cannot go below the best's is not
+            // predicted (the most precise choice, which a full search also names, is not sought)
+            const mayWin =
+              search === 'proposal'
+                ? (known: readonly Finding[]) => !best || keyBefore(rankKeyOf(known, 0), rankKey(best))
+                : undefined;
+            // the first premix planned is this choice's when it has the same pressure, heads and order
+            const same =
+              choice.pressurePa === pressures[0] &&
+              choice.order === 'recommended' &&
+              gauges.length === b.gauges.length;
+            const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined);
+            if (!c) return;
             if (better(c, best)) best = c;
             if (
               !hasDanger(c.premix.findings, c.batch.findings) &&
@@ -461,7 +508,7 @@ export function planTwoStage(
   });
   const p = precise as TwoStagePlan | undefined;
   const mostPrecise =
-    p && p !== best && p.worstRatio < chosen.worstRatio
+    search !== 'proposal' && p && p !== best && p.worstRatio < chosen.worstRatio
       ? {
           choice: p.choice,
           worstRatio: p.worstRatio,
