@@ -10,7 +10,7 @@
 import { R } from './constants.js';
 import type { Fractions } from './composition.js';
 import type { GasSource } from './supply.js';
-import { bMixOf, cMixOf, virialModel, type VirialModel } from './mixture-eos.js';
+import { virialModel, type VirialModel } from './mixture-eos.js';
 import { VIRIAL_TABLE_RANGE_K } from './virial-reference.js';
 import { fail } from './problems.js';
 
@@ -218,39 +218,78 @@ export interface RhoProblem {
   readonly start?: number;
 }
 
-/** iterations of the composition fixed point, and its relative tolerance on rho */
+/** iterations of Newton's method on the density, and its relative tolerance on rho */
 const RHO_ITERATIONS = 30;
 const RHO_TOLERANCE = 1e-13;
 
 /**
  * The density after a fill: rho solves P = rho R T (1 + B_mix(y) rho + C_mix(y) rho^2) with
- * y = (n_prev + (rho - rho_prev) w) / rho, by a fixed point on y with Newton steps on rho
- * (quadratic: two steps from a close start). Raises `not-converged` when the fixed point has
- * not settled to 1e-13 of rho in 30 iterations.
+ * y = n / rho and n = n_prev + (rho - rho_prev) w, the amounts per volume. Written in n, the
+ * virial terms are polynomials in rho: B_mix rho^2 = n^T B n is quadratic (mixture-eos bMixOf's
+ * upper-triangle rule), C_mix rho^3 = (sum_i n_i C_ii^(1/3))^3 + sum_(i<j) n_i n_j (n_i dC_iij +
+ * n_j dC_jji) is cubic (cMixOf's rule), so P(rho) / (R T) is a cubic whose coefficients are made
+ * once; Newton's method on it (quadratic convergence) stops when a step is within 1e-13 of rho.
+ * Raises `not-converged` after 30 steps (no gas root: P above the series' maximum).
  */
 export function solveRho(q: RhoProblem): number {
   const S = q.w.length;
-  const { y, w, nPrev, rhoPrev } = q;
+  const { y, w, nPrev, rhoPrev, B, cbrtC, cPairs } = q;
   const P = q.pressurePa;
   const rt = R * q.temperatureK;
-  let rho = q.start !== undefined && q.start > rhoPrev ? q.start : P / rt;
+  // n_i(rho) = a_i + rho w_i; k[m] is the coefficient of rho^m of P / (R T) - rho
+  let k0 = 0;
+  let k1 = 0;
+  let k2 = 0;
+  let k3 = 0;
+  let alpha = 0;
+  let beta = 0;
+  for (let i = 0; i < S; i++) {
+    const ai = nPrev[i] - rhoPrev * w[i];
+    const wi = w[i];
+    alpha += ai * cbrtC[i];
+    beta += wi * cbrtC[i];
+    const bii = B[i * S + i];
+    k0 += bii * ai * ai;
+    k1 += 2 * bii * ai * wi;
+    k2 += bii * wi * wi;
+    for (let j = i + 1; j < S; j++) {
+      const aj = nPrev[j] - rhoPrev * w[j];
+      const wj = w[j];
+      const bij = 2 * B[i * S + j];
+      k0 += bij * ai * aj;
+      k1 += bij * (ai * wj + aj * wi);
+      k2 += bij * wi * wj;
+      // n_i^2 n_j dC_iij + n_i n_j^2 dC_jji (cPairs holds 3 dC at [i][j] and [j][i])
+      const pij = cPairs[i * S + j];
+      const pji = cPairs[j * S + i];
+      if (pij !== 0) {
+        k0 += pij * ai * ai * aj;
+        k1 += pij * (ai * ai * wj + 2 * ai * wi * aj);
+        k2 += pij * (2 * ai * wi * wj + wi * wi * aj);
+        k3 += pij * wi * wi * wj;
+      }
+      if (pji !== 0) {
+        k0 += pji * aj * aj * ai;
+        k1 += pji * (aj * aj * wi + 2 * aj * wj * ai);
+        k2 += pji * (2 * aj * wj * wi + wj * wj * ai);
+        k3 += pji * wj * wj * wi;
+      }
+    }
+  }
+  let r = q.start !== undefined && q.start > rhoPrev ? q.start : P / rt;
   let change = Infinity;
   for (let it = 0; it < RHO_ITERATIONS; it++) {
-    const d = rho - rhoPrev;
-    for (let i = 0; i < S; i++) y[i] = (nPrev[i] + d * w[i]) / rho;
-    const b = bMixOf(y, q.B, S);
-    const c = cMixOf(y, q.cbrtC, q.cPairs, S);
-    let r = rho;
-    for (let n = 0; n < 3; n++) {
-      const f = r * rt * (1 + b * r + c * r * r) - P;
-      const df = rt * (1 + 2 * b * r + 3 * c * r * r);
-      const step = f / df;
-      r -= step;
-      if (Math.abs(step) <= 1e-14 * r) break;
+    const c = alpha + beta * r;
+    const f = rt * (r + k0 + r * (k1 + r * (k2 + r * k3)) + c * c * c) - P;
+    const df = rt * (1 + k1 + r * (2 * k2 + 3 * r * k3) + 3 * beta * c * c);
+    const step = f / df;
+    r -= step;
+    change = Math.abs(step) / Math.abs(r);
+    if (change <= RHO_TOLERANCE) {
+      const d = r - rhoPrev;
+      for (let i = 0; i < S; i++) y[i] = (nPrev[i] + d * w[i]) / r;
+      return r;
     }
-    change = Math.abs(r - rho) / Math.abs(rho);
-    if (change <= RHO_TOLERANCE) return r;
-    rho = r;
   }
   return fail({
     code: 'not-converged',

@@ -28,6 +28,41 @@ describe('solveRho', () => {
     expect(Math.abs(rho / closed - 1)).toBeLessThan(1e-12);
   });
 
+  it('a mixture fill with C and pair terms: the density satisfies the virial equation through bMixOf and cMixOf', () => {
+    // reference: the equation solved, P = rho R T (1 + B_mix(y) rho + C_mix(y) rho^2) with y = n / rho,
+    // evaluated by mixture-eos's own mixing rules (not the solver's polynomial form), residual within 1e-12 of P;
+    // coefficients of the size of CH4/O2/Ar near 300 K (from memory; any values serve the algebra)
+    const S = 3;
+    const B = Float64Array.of(
+      -4.3e-5,
+      -3.2e-5,
+      -2.8e-5,
+      -3.2e-5,
+      -1.6e-5,
+      -1.7e-5,
+      -2.8e-5,
+      -1.7e-5,
+      -1.6e-5,
+    );
+    const cbrtC = Float64Array.of(Math.cbrt(2.8e-9), Math.cbrt(1.2e-9), Math.cbrt(1.0e-9));
+    const cPairs = new Float64Array(S * S);
+    cPairs[0 * S + 1] = 3 * 1.5e-10;
+    cPairs[1 * S + 0] = 3 * -0.8e-10;
+    const nPrev = Float64Array.of(4.1, 0, 36.9); // mol/m3: CH4 and Ar in the tank before the fill
+    const rhoPrev = 41;
+    const w = Float64Array.of(0, 1, 0); // the fill: O2
+    const T = 295.15;
+    const P = 3.2e5;
+    const y = new Float64Array(S);
+    const rho = solveRho({ pressurePa: P, temperatureK: T, nPrev, rhoPrev, w, B, cbrtC, cPairs, y });
+    const n = Array.from({ length: S }, (_, i) => nPrev[i] + (rho - rhoPrev) * w[i]);
+    const yy = n.map((v) => v / rho);
+    const back = rho * R * T * (1 + bMixOf(yy, B, S) * rho + cMixOf(yy, cbrtC, cPairs, S) * rho * rho);
+    expect(Math.abs(back / P - 1)).toBeLessThan(1e-12);
+    // the composition it hands back is n / rho
+    for (let i = 0; i < S; i++) expect(Math.abs(y[i] - yy[i])).toBeLessThan(1e-15);
+  });
+
   it('raises not-converged (typed, worded) when the virial series has no gas root: P above its maximum', () => {
     // P(rho) = rho R T (1 + B rho) peaks at rho = -1/(2B): P_max = -R T / (4 B); ask for twice that
     const T = 300;
