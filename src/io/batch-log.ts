@@ -158,6 +158,14 @@ const stageSchema = lazy(() =>
         delivered_mol: z.number().min(0),
         /** the batch's fills from the premix (the check comes before the first) */
         fills: z.array(z.number().int().positive()).min(1),
+        /**
+         * the heads to close off before the line is filled from the premix tank (their range ends below
+         * its pressure), the top of each (absolute) and whether a later reading needs it open again;
+         * the sheet's close-off (premixTankCheck.closeOff). Absent in older logs.
+         */
+        close_off: z
+          .array(z.object({ gauge: z.string(), top_Pa: z.number().positive(), reopen: z.boolean() }))
+          .optional(),
         /** stirred (lab profile), and diffusion alone to 0.1 % at the premix pressure, s */
         mixing: z.object({ stirred: z.boolean(), rest_s: z.number().positive() }).optional(),
         /**

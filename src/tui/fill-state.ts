@@ -116,6 +116,8 @@ export interface PremixCheck {
   readonly deliveredMol: number;
   /** the batch's fills from the premix; the check comes before the first */
   readonly fills: readonly number[];
+  /** the heads to close off before the line is filled from the premix tank (undefined: an older log) */
+  readonly closeOff?: readonly { readonly id: string; readonly topPa: number; readonly reopen: boolean }[];
   readonly mixing?: { readonly stirred: boolean; readonly restS: number };
   /** the premix log the batch draws from, as the header names it */
   readonly premixLog?: string;
@@ -375,6 +377,7 @@ export function setupFromHeader(header: LogHeader): FillSetup {
     targetPa: pc.target_Pa,
     deliveredMol: pc.delivered_mol,
     fills: pc.fills,
+    closeOff: pc.close_off?.map((g) => ({ id: g.gauge, topPa: g.top_Pa, reopen: g.reopen })),
     mixing: pc.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s },
     premixLog: header.stage?.premix_log?.file,
     premixClosed: pc.premix_log_closed,
