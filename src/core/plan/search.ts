@@ -386,6 +386,8 @@ function optionable(ev: Evaluated): boolean {
     ev.safety.hazards.every(
       (h) =>
         h.severity === 'note' ||
+        h.code === 'near-flammable' ||
+        h.code === 'near-flammable-fill-path' ||
         h.code === 'flammable-state' ||
         h.code === 'flammable-fill-path' ||
         h.code === 'flammable-at-inlet',
