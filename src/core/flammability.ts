@@ -373,6 +373,24 @@ const DATA_MARGIN = FLAMMABILITY_DATA_MARGIN;
 /** flame-temperature margin for "near the limit": a share of the limit temperature rise (thresholds.ts) */
 const FLAME_MARGIN = NEAR_LIMIT_FLAME_SHARE;
 
+/**
+ * the envelope's verdict: inside the polygon flammable; inside it with the LFL and the LOC lowered by
+ * the data margin 'within-margin' (with how much lower holds it); inside the NFPA 69 margins 'near-limit'
+ */
+function envelopeVerdict(
+  point: DiagramPoint,
+  limits: BlendLimits,
+): { byEnvelope: Verdict; limitsLowerBy?: number } {
+  if (insidePolygon([point.fuel, point.oxygen], envelopePolygon(limits))) return { byEnvelope: 'flammable' };
+  if (insideLowered(point, limits, DATA_MARGIN))
+    return { byEnvelope: 'within-margin', limitsLowerBy: lowerByToHold(point, limits) };
+  const locNear =
+    limits.loc >= MARGINS.lowLocBelow ? limits.loc - MARGINS.locOffset : limits.loc * MARGINS.locFractionLow;
+  const near =
+    point.fuel >= MARGINS.lflFraction * limits.lfl && point.oxygen >= locNear && point.fuel <= limits.uflO2;
+  return { byEnvelope: near ? 'near-limit' : 'non-flammable' };
+}
+
 export function assessFlammability(
   y: Fractions,
   temperatureK: number,
@@ -404,26 +422,7 @@ export function assessFlammability(
     uflHere,
     fuelOverUfl: uflHere !== undefined ? point.fuel / uflHere : undefined,
   };
-  // envelope
-  let byEnvelope: Verdict = 'non-flammable';
-  let limitsLowerBy: number | undefined;
-  const poly = envelopePolygon(limits);
-  if (insidePolygon([point.fuel, point.oxygen], poly)) byEnvelope = 'flammable';
-  else if (insideLowered(point, limits, DATA_MARGIN)) {
-    byEnvelope = 'within-margin';
-    limitsLowerBy = lowerByToHold(point, limits);
-  } else {
-    const locNear =
-      limits.loc >= MARGINS.lowLocBelow
-        ? limits.loc - MARGINS.locOffset
-        : limits.loc * MARGINS.locFractionLow;
-    if (
-      point.fuel >= MARGINS.lflFraction * limits.lfl &&
-      point.oxygen >= locNear &&
-      point.fuel <= limits.uflO2
-    )
-      byEnvelope = 'near-limit';
-  }
+  const { byEnvelope, limitsLowerBy } = envelopeVerdict(point, limits);
   // flame temperature; the limit of a blend is the fuel-weighted mean of its fuels' limits
   let limitFlameK = 0;
   let wsum = 0;
