@@ -204,7 +204,18 @@ export const headerSchema = lazy(() =>
     tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
     temperature_K: z.number().positive(),
     final_pressure_Pa: z.number().positive(),
-    barometer: z.object({ pressure_Pa: z.number().positive(), u_Pa: z.number().min(0) }),
+    barometer: z.object({
+      pressure_Pa: z.number().positive(),
+      u_Pa: z.number().min(0),
+      /**
+       * whose value the plan assumed: the lab profile's, --barometer's, or the default (the profile gives
+       * none); the guided fill converts a typed gauge pressure ("15 psig") only with a measured one.
+       * Absent in older logs.
+       */
+      from: z.enum(['lab-profile', 'option', 'default']).optional(),
+    }),
+    /** the plan's gauge pressures (recipe, options, lab profile) made absolute, as stated. Absent: none */
+    gauge_pressures: z.array(z.string()).optional(),
     thermometer: z.object({
       u_K: z.number().min(0),
       resolution_K: z.number().min(0),
