@@ -207,7 +207,7 @@ export interface GaugeConversion {
 
 /** "15 psig (pressure) read as 1535.7 Torr absolute with the lab profile's barometer 760.0 Torr" */
 export function gaugeConversionWords(c: GaugeConversion): string {
-  const torr = (pa: number) => `${(pa / (101325 / 760)).toFixed(1)} Torr`;
+  const torr = (pa: number) => `${(pa / TORR_PA).toFixed(1)} Torr`;
   const from = c.barometerFrom.startsWith('--')
     ? `the barometer of ${c.barometerFrom}`
     : `${c.barometerFrom} barometer`;
