@@ -7,7 +7,8 @@ import { describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import type { LogHeader, LogReading } from '../../src/io/batch-log.js';
+import { parseLog, type LogHeader, type LogReading, type NewLogEvent } from '../../src/io/batch-log.js';
+import { auditLog } from '../../src/io/log-audit.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
 
@@ -28,12 +29,15 @@ function header(): LogHeader {
 /** fills 1 and 2 read at their targets (absolute, Torr), then the last fill typed as `typed(target)` */
 function lastTyped(h: LogHeader, typed: (targetPa: number) => string) {
   let s = initialState(setupFromHeader(h));
+  const events: NewLogEvent[] = [];
   for (let i = 0; i < 2; i++) {
     s = read(s, (s.targetsPa[i] / TORR).toFixed(2));
+    events.push(...s.effects);
     s = fillReducer(s, { type: 'logged', step: i + 1, line: i + 2 });
   }
   const target = s.targetsPa[2];
-  return { target, text: typed(target), next: read(s, typed(target)) };
+  const next = read(s, typed(target));
+  return { target, text: typed(target), next, events: [...events, ...next.effects] };
 }
 const psig = (pa: number, baroPa = 760 * TORR) => `${((pa - baroPa) / PSI).toFixed(4)} psig`;
 
@@ -46,7 +50,7 @@ describe('a gauge pressure typed at the fill', () => {
   });
 
   it("the last fill typed in psig: logged absolute (0.34 Pa: the typed 4 decimals), the note and the message say it was read with the lab profile's barometer", () => {
-    const { target, text, next } = lastTyped(h, (t) => psig(t));
+    const { target, text, next, events } = lastTyped(h, (t) => psig(t));
     const ev = next.effects.find((e): e is LogReading => e.kind === 'reading')!;
     expect(ev.reading).toBe(text);
     // the typed value rounds the target to 1e-4 psi = 0.69 Pa: within half of it
@@ -54,6 +58,13 @@ describe('a gauge pressure typed at the fill', () => {
     const note = `gauge pressure ${text} read as ${(ev.pressure_Pa / TORR).toFixed(1)} Torr absolute with the lab profile's barometer 760.0 Torr`;
     expect(ev.note).toBe(note);
     expect(next.message).toContain(`(${note})`);
+    // check reads the typed text back with the same barometer: no unreadable or mismatched text
+    const log = parseLog([h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'g1.jsonl');
+    expect(log.readings.map((r) => r.reading).at(-1)).toBe(text);
+    const found = auditLog(log).filter(
+      (f) => f.code === 'text-unreadable' || f.code === 'text-number-mismatch',
+    );
+    expect(found).toEqual([]);
   });
 
   it("with today's barometer logged (752.0 Torr), that one, named so", () => {
