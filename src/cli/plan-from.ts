@@ -17,7 +17,8 @@ import {
   type Plan,
 } from '../core/index.js';
 import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
-import { isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import { gaugeConversionWords, isPressureUnit, type PressureUnit } from '../io/quantity.js';
+import type { Cli } from './context.js';
 import type { PlanMeta } from '../report/plan-json.js';
 import { VERSION } from '../version.js';
 import { mergeOptions, type DesignValues } from './design-options.js';
@@ -62,6 +63,15 @@ function metaOf(plan: Plan, req: PlanRequest, barometerGiven: boolean): Planned[
       given: barometerGiven,
     },
   };
+}
+
+/**
+ * every gauge pressure of the request (recipe, options, lab profile) made absolute with a barometer,
+ * stated ("mixwright: note: 15 psig (rating) read as 1535.7 Torr absolute with the lab profile's
+ * barometer 760.0 Torr"): the command prints these on stderr, so the text and the JSON stay as they are
+ */
+export function stateGaugeConversions(req: PlanRequest, cli: Pick<Cli, 'err'>): void {
+  for (const c of req.gaugeContext.conversions) cli.err(`mixwright: note: ${gaugeConversionWords(c)}\n`);
 }
 
 /** the command a proposal names: the plan of this recipe file */

@@ -77,6 +77,13 @@ export interface SegmentReview {
   /** the detonable points the review judged (rank 2), in order of u: samples, refinements and boundaries */
   readonly detonable: readonly PathPoint[];
   readonly ranks: { readonly start: PathRank; readonly end: PathRank };
+  /**
+   * where the segment is not flammable: its point closest to the limits among those inside the
+   * flammability data's uncertainty margin (verdict 'within-margin'), if any was judged
+   */
+  readonly withinMargin?: PathPoint;
+  /** the end states' verdicts are 'within-margin' (their own state findings say so) */
+  readonly endsWithinMargin: boolean;
 }
 
 const SAMPLES = 8;
@@ -320,6 +327,8 @@ export function reviewSegment(
       worst = p;
   }
   const burning = pts.filter((p) => p.rank > 0).map((p) => p.u);
+  const closest = closestInMargin(pts, at, locate);
+  const endOf = (u: number) => pts.find((p) => p.u === u)!.assessment.verdict === 'within-margin';
   const span = burning.length ? ([Math.min(...burning), Math.max(...burning)] as const) : undefined;
   return {
     rank: worst.rank,
@@ -328,7 +337,43 @@ export function reviewSegment(
     flammablePa: span ? [pressureAt(span[0]), pressureAt(span[1])] : undefined,
     detonable: pts.filter((p) => p.rank === 2).sort((p, q) => p.u - q.u),
     ranks: { start: pts.find((p) => p.u === 0)!.rank, end: pts.find((p) => p.u === 1)!.rank },
+    withinMargin: closest,
+    endsWithinMargin: endOf(0) || endOf(1),
   };
+}
+
+/**
+ * how far a state inside the data's uncertainty margin is from flammable: the share by which the LFL
+ * and the LOC would have to fall for the envelope to hold it, else (inside by flame temperature only)
+ * the share its flame temperature rise is short of the limit's; 1 outside the margin
+ */
+function closeness(a: FlammabilityAssessment): number {
+  if (a.verdict !== 'within-margin') return 1;
+  const d = a.distance;
+  return d?.limitsLowerBy ?? (d?.flameRiseShare !== undefined ? 1 - d.flameRiseShare : 1);
+}
+
+/**
+ * the point of a segment closest to flammable among those judged inside the data's margin, refined by
+ * golden-section search around it (`locate`: the report's numbers; the search needs only the severity)
+ */
+function closestInMargin(
+  pts: readonly PathPoint[],
+  at: (u: number) => PathPoint,
+  locate: boolean,
+): PathPoint | undefined {
+  const margin = pts.filter((p) => p.assessment.verdict === 'within-margin');
+  if (!margin.length) return undefined;
+  const best = margin.reduce((a, b) => (closeness(b.assessment) < closeness(a.assessment) ? b : a));
+  if (!locate) return best;
+  const u = goldenMin(
+    (x) => closeness(at(x).assessment),
+    Math.max(0, best.u - 1 / FINE),
+    Math.min(1, best.u + 1 / FINE),
+    GOLDEN,
+  );
+  const refined = at(u);
+  return refined.rank === 0 && closeness(refined.assessment) < closeness(best.assessment) ? refined : best;
 }
 
 /** P(u) along the bulk path of a fill from P0 to P1 (amount-weighted, ideal gas) */
@@ -464,6 +509,16 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true, 
     return out;
   }
   if (bulk.rank > 0) return out;
+  // inside the data's uncertainty margin on the way, where neither end state is (those say it themselves)
+  const m = bulk.withinMargin;
+  if (m && !bulk.endsWithinMargin)
+    out.push({
+      severity: 'warning',
+      code: 'near-flammable-fill-path',
+      step: e.step,
+      source: e.sourceId,
+      ...flammabilityNumbers(m.assessment, m.pressurePa),
+    });
   const inlet = reviewInlet(e, ctx.temperatureK, locate);
   if (inlet && inlet.rank > 0) {
     const w = inlet.worst;

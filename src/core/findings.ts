@@ -136,6 +136,7 @@ export type Finding = Base &
         readonly detonationAtPa?: number;
       } & FlammabilityNumbers &
         DetonationNumbers)
+    | ({ readonly code: 'near-flammable-fill-path'; readonly source: string } & FlammabilityNumbers)
     | ({
         readonly code: 'flammable-at-inlet';
         readonly source: string;
@@ -291,6 +292,15 @@ export interface FlammabilityNumbers {
   readonly fuelOverUfl?: number;
   /** true when the verdict was raised to near-limit only because a fuel has no limits on file */
   readonly missingData?: boolean;
+  /**
+   * the flammability data's uncertainty margin (FLAMMABILITY_DATA_MARGIN) when the state lies inside
+   * it: outside the listed limits, inside them lowered by this share (a warning, not shown non-flammable)
+   */
+  readonly withinMargin?: number;
+  /** inside that margin by the envelope: how much lower the LFL and the LOC would hold it (0.077: 7.7 %) */
+  readonly limitsLowerBy?: number;
+  /** inside it by flame temperature: the temperature rise over the limit flame's (1 at the limit) */
+  readonly flameRiseShare?: number;
 }
 
 /** how the detonation was judged and what it would do (all optional: a path review may give only the basics) */
@@ -408,6 +418,35 @@ function nearLimitDistance(f: FlammabilityNumbers): string {
   if (!parts.length)
     parts.push('outside the envelope between its corners, within the margins of the LFL and the LOC');
   return parts.join('; ');
+}
+
+/**
+ * a state inside the flammability data's uncertainty margin: how close it is, and that the listed
+ * limits do not show it non-flammable
+ */
+function withinMarginWords(f: FlammabilityNumbers, margin: number): string {
+  const m = `${(margin * 100).toFixed(0)} %`;
+  const close: string[] = [];
+  if (f.limitsLowerBy !== undefined)
+    close.push(
+      `it would be inside the flammable region with the LFL` +
+        (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
+        ` and the LOC` +
+        (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
+        ` ${(f.limitsLowerBy * 100).toFixed(1)} % lower`,
+    );
+  if (f.flameRiseShare !== undefined && f.flameK !== undefined && f.limitFlameK !== undefined)
+    close.push(
+      `its flame temperature rise is ${times(f.flameRiseShare)} the limit flame's ` +
+        `(${f.flameK.toFixed(0)} K against ${f.limitFlameK.toFixed(0)} K, complete combustion)`,
+    );
+  return (
+    `this state is NOT shown non-flammable: it lies inside the ${m} uncertainty margin of the ` +
+    `flammability limits (${close.join('; ')}). Handbook LFL and LOC values scatter by around ${m} ` +
+    `(common practice) and the fill has its own errors, so it may burn. Diagram point: fuel ` +
+    `${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} (N2-equivalent). Treat it as possibly ` +
+    `flammable, or choose an order or dilution that keeps it farther from the limits`
+  );
 }
 
 /** the tank's working limit against a pressure, or that the rating is unknown */
@@ -619,6 +658,7 @@ const FLAMMABILITY: WordingTable<
   | 'flammability-data-estimated'
   | 'inert-coefficient-unknown'
   | 'flammable-fill-path'
+  | 'near-flammable-fill-path'
   | 'flammable-at-inlet'
 > = {
   'flammable-state': (f, p) =>
@@ -629,11 +669,13 @@ const FLAMMABILITY: WordingTable<
     `the finished batch is flammable (${flammabilityDetail(f)}): store and handle ` +
     `it as a flammable gas, keep ignition sources away, and vent it to a safe exhaust`,
   'near-flammable': (f) =>
-    `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. ` +
-    `Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} ` +
-    `(N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points ` +
-    `below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong ` +
-    `gas could make it flammable`,
+    f.withinMargin !== undefined
+      ? withinMarginWords(f, f.withinMargin)
+      : `this state is not flammable but near the flammable region: ${nearLimitDistance(f)}. ` +
+        `Diagram point: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} ` +
+        `(N2-equivalent); the NFPA 69 margins are 60 % of the LFL and 2 %-points ` +
+        `below the LOC (60 % of a LOC under 5 %) - a small fill error or a wrong ` +
+        `gas could make it flammable`,
   'detonable-state': describeDetonation,
   'closed-vessel-pressure': describeClosedVessel,
   'no-flammability-data': (f) =>
@@ -644,6 +686,9 @@ const FLAMMABILITY: WordingTable<
     `no ISO 10156 nitrogen-equivalence coefficient for ${f.species}; the smallest ` +
     `listed value ${f.used} was used (conservative)`,
   'flammable-fill-path': describeFillPath,
+  'near-flammable-fill-path': (f, p) =>
+    `while ${f.source} is filled the tank passes, at about ${p(f.pressurePa)}, a composition that is ` +
+    `${withinMarginWords(f, f.withinMargin ?? 0).replace(/^this state is /, '')}`,
   'flammable-at-inlet': (f) =>
     `where ${f.source} enters the tank it mixes with the tank gas into flammable ` +
     `compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), ` +

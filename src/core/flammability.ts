@@ -17,7 +17,7 @@
  *     rich calibration; its rich states are judged by the envelope alone.
  */
 import { FUEL_SAFETY, INERT_K, type FuelSafetyRecord } from './data/safety-data.js';
-import { INERT_K_FALLBACK, MARGINS, NEAR_LIMIT_FLAME_SHARE } from './thresholds.js';
+import { FLAMMABILITY_DATA_MARGIN, INERT_K_FALLBACK, MARGINS, NEAR_LIMIT_FLAME_SHARE } from './thresholds.js';
 import { getSpecies } from './lookup.js';
 import type { SpeciesRecord } from './data/species.js';
 import { oxygenDemand } from './formula.js';
@@ -38,9 +38,19 @@ export {
   type RichCalibration,
 } from './limit-flame.js';
 
-export type Verdict = 'flammable' | 'near-limit' | 'non-flammable';
+/**
+ * 'within-margin': outside the listed limits, but inside them lowered by the data's uncertainty
+ * margin (FLAMMABILITY_DATA_MARGIN): not shown non-flammable; 'near-limit': inside the NFPA 69
+ * operating margins only
+ */
+export type Verdict = 'flammable' | 'within-margin' | 'near-limit' | 'non-flammable';
 
-const RANK: Record<Verdict, number> = { 'non-flammable': 0, 'near-limit': 1, flammable: 2 };
+const RANK: Record<Verdict, number> = {
+  'non-flammable': 0,
+  'near-limit': 1,
+  'within-margin': 2,
+  flammable: 3,
+};
 export function worseVerdict(a: Verdict, b: Verdict): Verdict {
   return RANK[a] >= RANK[b] ? a : b;
 }
@@ -367,6 +377,13 @@ export interface FlammabilityDistance {
   readonly uflHere?: number;
   /** fuel / uflHere */
   readonly fuelOverUfl?: number;
+  /**
+   * a state inside the data's uncertainty margin by the envelope: the share by which the LFL and the
+   * LOC would have to be lower for the envelope to hold it (0.077: 7.7 % lower)
+   */
+  readonly limitsLowerBy?: number;
+  /** by flame temperature: its temperature rise over the limit flame's (1 at the limit) */
+  readonly flameRiseShare?: number;
 }
 
 export interface FlammabilityAssessment {
@@ -384,8 +401,54 @@ export interface FlammabilityAssessment {
   readonly unknownInerts: readonly string[];
 }
 
+/** is the point inside the envelope with the LFL and the LOC lowered by the share `by` */
+function insideLowered(point: DiagramPoint, limits: BlendLimits, by: number): boolean {
+  const lowered = { ...limits, lfl: limits.lfl * (1 - by), loc: limits.loc * (1 - by) };
+  return insidePolygon([point.fuel, point.oxygen], envelopePolygon(lowered));
+}
+
+/**
+ * the smallest share by which the LFL and the LOC must be lowered for the envelope to hold a point
+ * inside the data margin (bisection to 1e-6 of the share; the envelope grows as the limits fall)
+ */
+function lowerByToHold(point: DiagramPoint, limits: BlendLimits): number {
+  let lo = 0;
+  let hi: number = DATA_MARGIN;
+  while (hi - lo > 1e-6) {
+    const mid = (lo + hi) / 2;
+    if (insideLowered(point, limits, mid)) hi = mid;
+    else lo = mid;
+  }
+  return hi;
+}
+
+/**
+ * the flammability data's uncertainty margin (thresholds.ts FLAMMABILITY_DATA_MARGIN, common
+ * practice: handbook LFL and LOC values scatter by around 10 %): the envelope with the LFL and the
+ * LOC lowered by it, and the limit flame temperature rise lowered by it, bound 'within-margin'
+ */
+const DATA_MARGIN = FLAMMABILITY_DATA_MARGIN;
+
 /** flame-temperature margin for "near the limit": a share of the limit temperature rise (thresholds.ts) */
 const FLAME_MARGIN = NEAR_LIMIT_FLAME_SHARE;
+
+/**
+ * the envelope's verdict: inside the polygon flammable; inside it with the LFL and the LOC lowered by
+ * the data margin 'within-margin' (with how much lower holds it); inside the NFPA 69 margins 'near-limit'
+ */
+function envelopeVerdict(
+  point: DiagramPoint,
+  limits: BlendLimits,
+): { byEnvelope: Verdict; limitsLowerBy?: number } {
+  if (insidePolygon([point.fuel, point.oxygen], envelopePolygon(limits))) return { byEnvelope: 'flammable' };
+  if (insideLowered(point, limits, DATA_MARGIN))
+    return { byEnvelope: 'within-margin', limitsLowerBy: lowerByToHold(point, limits) };
+  const locNear =
+    limits.loc >= MARGINS.lowLocBelow ? limits.loc - MARGINS.locOffset : limits.loc * MARGINS.locFractionLow;
+  const near =
+    point.fuel >= MARGINS.lflFraction * limits.lfl && point.oxygen >= locNear && point.fuel <= limits.uflO2;
+  return { byEnvelope: near ? 'near-limit' : 'non-flammable' };
+}
 
 export function assessFlammability(
   y: Fractions,
@@ -409,7 +472,7 @@ export function assessFlammability(
   const side: 'lean' | 'rich' = phi > 1 ? 'rich' : 'lean';
   const oxygenShare = point.oxygen / (point.oxygen + point.inert);
   const uflHere = uflAtOxygenShare(limits, oxygenShare);
-  const distance: FlammabilityDistance = {
+  const base: FlammabilityDistance = {
     equivalenceRatio: phi,
     side,
     fuelOverLfl: point.fuel / limits.lfl,
@@ -418,22 +481,7 @@ export function assessFlammability(
     uflHere,
     fuelOverUfl: uflHere !== undefined ? point.fuel / uflHere : undefined,
   };
-  // envelope
-  let byEnvelope: Verdict = 'non-flammable';
-  const poly = envelopePolygon(limits);
-  if (insidePolygon([point.fuel, point.oxygen], poly)) byEnvelope = 'flammable';
-  else {
-    const locNear =
-      limits.loc >= MARGINS.lowLocBelow
-        ? limits.loc - MARGINS.locOffset
-        : limits.loc * MARGINS.locFractionLow;
-    if (
-      point.fuel >= MARGINS.lflFraction * limits.lfl &&
-      point.oxygen >= locNear &&
-      point.fuel <= limits.uflO2
-    )
-      byEnvelope = 'near-limit';
-  }
+  const { byEnvelope, limitsLowerBy } = envelopeVerdict(point, limits);
   // flame temperature; the limit of a blend is the fuel-weighted mean of its fuels' limits
   let limitFlameK = 0;
   let wsum = 0;
@@ -465,9 +513,21 @@ export function assessFlammability(
     limitFlameK /= wsum;
     flameK = flameTemperatureK(y, temperatureK);
     if (flameK >= limitFlameK) byFlameTemperature = 'flammable';
+    // lean (fuel-limited) side: the limit flame temperature is calibrated on the LFL and the LOC, and
+    // the rise of a lean flame is about proportional to its fuel, so their margin is one of the rise;
+    // not on the rich side, where the rise hardly falls with excess fuel (the UFL has no margin here)
+    else if (side === 'lean' && flameK - temperatureK >= (1 - DATA_MARGIN) * (limitFlameK - 298.15))
+      byFlameTemperature = 'within-margin';
     else if (flameK - temperatureK >= FLAME_MARGIN * (limitFlameK - 298.15))
       byFlameTemperature = 'near-limit';
   }
+  const distance: FlammabilityDistance = {
+    ...base,
+    ...(limitsLowerBy !== undefined ? { limitsLowerBy } : {}),
+    ...(byFlameTemperature === 'within-margin'
+      ? { flameRiseShare: (flameK! - temperatureK) / (limitFlameK - 298.15) }
+      : {}),
+  };
   // a fuel without limit data cannot be judged non-flammable
   let verdict = worseVerdict(byEnvelope, byFlameTemperature);
   if (limits.missing.length && verdict === 'non-flammable') verdict = 'near-limit';

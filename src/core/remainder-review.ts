@@ -10,8 +10,10 @@
  *
  * What counts: a finding of severity danger, or a flammable or detonable state or path
  * (`flammable-state`, `flammable-mixture`, `flammable-fill-path`, `flammable-at-inlet`,
- * `detonable-state`), whose code and fill number the plan's own findings do not hold. A state near
- * the flammable region (`near-flammable`, a note inside the NFPA 69 margins) is said, not stopped on.
+ * `detonable-state`), or a state or path inside the flammability data's uncertainty margin (a
+ * `near-flammable` warning, `near-flammable-fill-path`: not shown non-flammable), whose code and fill
+ * number the plan's own findings do not hold. A state near the flammable region (`near-flammable`, a
+ * note inside the NFPA 69 margins) is said, not stopped on.
  *
  * The safer stop (our rule, the split-point rule of plan/split-point.ts applied to the remainder):
  * the first charge still ahead that holds a stop, fills an inert gas only and comes before a fill
@@ -92,12 +94,18 @@ const HAZARD_CODES: ReadonlySet<string> = new Set([
   'flammable-mixture',
   'flammable-fill-path',
   'flammable-at-inlet',
+  'near-flammable-fill-path',
   'detonable-state',
 ]);
 
 /** a finding the remainder review stops on (module comment) */
 export function isSequenceHazard(f: PlannedFinding): boolean {
-  return f.severity === 'danger' || HAZARD_CODES.has(f.code);
+  return (
+    f.severity === 'danger' ||
+    HAZARD_CODES.has(f.code) ||
+    // inside the flammability data's uncertainty margin: not shown non-flammable (thresholds.ts)
+    (f.code === 'near-flammable' && f.severity === 'warning')
+  );
 }
 
 /** the key a hazard is matched by: its code and fill (0 for the gas before the first fill or the batch) */
@@ -134,7 +142,7 @@ function judgeRemainder(
   return {
     findings,
     hazards: fresh.filter(isSequenceHazard),
-    near: fresh.filter((f) => f.code === 'near-flammable'),
+    near: fresh.filter((f) => f.code === 'near-flammable' && !isSequenceHazard(f)),
   };
 }
 

@@ -10,6 +10,7 @@ import { FUEL_SAFETY, INERT_K } from './data/safety-data.js';
 import {
   ACETYLENE_LIMIT_PA,
   DEFAULT_CONDENSATION_FRACTION,
+  FLAMMABILITY_DATA_MARGIN,
   INERT_K_FALLBACK,
   N2O_DECOMPOSITION_ABOVE_PA,
   N2O_OXYGEN_EQUIVALENT,
@@ -108,6 +109,9 @@ export function flammabilityNumbers(
     uflHere: a.distance?.uflHere,
     fuelOverUfl: a.distance?.fuelOverUfl,
     missingData: a.limits?.missing.length ? true : undefined,
+    withinMargin: a.verdict === 'within-margin' ? FLAMMABILITY_DATA_MARGIN : undefined,
+    limitsLowerBy: a.verdict === 'within-margin' ? a.distance?.limitsLowerBy : undefined,
+    flameRiseShare: a.verdict === 'within-margin' ? a.distance?.flameRiseShare : undefined,
   };
 }
 
@@ -132,6 +136,9 @@ export function reviewState(
     const det = detonationFinding(s, ctx.temperatureK, ctx.workingLimitPa, step, detail);
     if (det) out.push(det);
     out.push(closedVesselFinding(s, ctx.temperatureK, ctx.workingLimitPa, step));
+  } else if (a.verdict === 'within-margin') {
+    // inside the data's uncertainty margin: not shown non-flammable (thresholds.ts)
+    out.push({ severity: 'warning', code: 'near-flammable', step, ...nums });
   } else if (a.verdict === 'near-limit') {
     out.push({ severity: 'note', code: 'near-flammable', step, ...nums });
   }

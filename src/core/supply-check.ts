@@ -128,21 +128,8 @@ export function isSupplyFinding(f: Finding): boolean {
 }
 
 /**
- * dangers of the tank's states and fills first, then of the supply, then the supply's warnings (a
- * premix tank whose fast delivery's cold gas reads below what the batch needs, `premix-cools-low`):
- * the order of a ranking, each counted before the next is looked at
- */
-export function dangerCounts(
-  findings: readonly Finding[],
-): [hazard: number, supply: number, supplyWarning: number] {
-  const dangers = findings.filter((f) => f.severity === 'danger');
-  const supply = dangers.filter(isSupplyFinding).length;
-  const supplyWarning = findings.filter((f) => f.severity === 'warning' && isSupplyFinding(f)).length;
-  return [dangers.length - supply, supply, supplyWarning];
-}
-
-/**
- * The search's ranking of a sequence's hazards (search-eval.ts notLessSafe): the dangers, warnings
+ * The ranking of a sequence's hazards, for the single-tank search (search-eval.ts notLessSafe) and the
+ * two-stage search alike (two-stage.ts rankKey): the dangers, warnings
  * and notes of the tank's states and fills first, severity by severity, then the supply's dangers and
  * warnings. A flammable or detonable state or fill path of any severity is a physical hazard; a supply
  * that runs short says the fill cannot be completed, not that it is dangerous: so no count of supply

@@ -130,6 +130,19 @@ export const THRESHOLDS = {
     source: 'nfpa-69-margins-memory',
     note: 'the LOC below which the fractional oxygen margin applies instead of the offset',
   },
+  flammabilityDataMargin: {
+    value: 0.1,
+    unit: '1',
+    basis: 'common-practice',
+    note:
+      'the uncertainty margin of the flammability limits: a state outside the listed envelope ' +
+      'but inside it with the LFL and the LOC lowered by this share (fuel at 0.90 x LFL or more ' +
+      'at enough O2, O2 at 0.90 x LOC or more at enough fuel), or whose flame temperature rise ' +
+      'reaches this share short of the limit flame rise (calibrated on the same limits), is a ' +
+      'warning, not shown non-flammable: handbook LFL and LOC values scatter by around 10 % ' +
+      'between tables, apparatus and ignition energies (common practice), and the fill itself ' +
+      'has errors (gauge, temperature, purity), so a state just below a listed limit may burn',
+  },
   nearLimitFlameShare: {
     value: 0.6,
     unit: '1',
@@ -217,6 +230,11 @@ export const FUEL_FRACTION_THAT_MATTERS = THRESHOLDS.fuelFractionThatMatters.val
 export const DEFAULT_CONDENSATION_FRACTION = THRESHOLDS.condensationFraction.value;
 export const INERT_K_FALLBACK = THRESHOLDS.inertCoefficientFallback.value;
 export const NEAR_LIMIT_FLAME_SHARE = THRESHOLDS.nearLimitFlameShare.value;
+/**
+ * the flammability data's uncertainty margin (thresholds table: common practice, handbook LFL and
+ * LOC values scatter by around 10 %): a state within it of the LFL or the LOC is a warning
+ */
+export const FLAMMABILITY_DATA_MARGIN = THRESHOLDS.flammabilityDataMargin.value;
 export const DETONABLE_INERT_BELOW = THRESHOLDS.detonableInertBelow.value;
 export const DETONABLE_OXYGEN_SHARE_FROM = THRESHOLDS.detonableOxygenShareFrom.value;
 export const UNDILUTED_INERT_BELOW = THRESHOLDS.undilutedInertBelow.value;

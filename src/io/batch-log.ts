@@ -158,6 +158,14 @@ const stageSchema = lazy(() =>
         delivered_mol: z.number().min(0),
         /** the batch's fills from the premix (the check comes before the first) */
         fills: z.array(z.number().int().positive()).min(1),
+        /**
+         * the heads to close off before the line is filled from the premix tank (their range ends below
+         * its pressure), the top of each (absolute) and whether a later reading needs it open again;
+         * the sheet's close-off (premixTankCheck.closeOff). Absent in older logs.
+         */
+        close_off: z
+          .array(z.object({ gauge: z.string(), top_Pa: z.number().positive(), reopen: z.boolean() }))
+          .optional(),
         /** stirred (lab profile), and diffusion alone to 0.1 % at the premix pressure, s */
         mixing: z.object({ stirred: z.boolean(), rest_s: z.number().positive() }).optional(),
         /**
@@ -196,7 +204,18 @@ export const headerSchema = lazy(() =>
     tolerance: z.object({ relative: z.number().min(0), absolute: z.number().min(0) }),
     temperature_K: z.number().positive(),
     final_pressure_Pa: z.number().positive(),
-    barometer: z.object({ pressure_Pa: z.number().positive(), u_Pa: z.number().min(0) }),
+    barometer: z.object({
+      pressure_Pa: z.number().positive(),
+      u_Pa: z.number().min(0),
+      /**
+       * whose value the plan assumed: the lab profile's, --barometer's, or the default (the profile gives
+       * none); the guided fill converts a typed gauge pressure ("15 psig") only with a measured one.
+       * Absent in older logs.
+       */
+      from: z.enum(['lab-profile', 'option', 'default']).optional(),
+    }),
+    /** the plan's gauge pressures (recipe, options, lab profile) made absolute, as stated. Absent: none */
+    gauge_pressures: z.array(z.string()).optional(),
     thermometer: z.object({
       u_K: z.number().min(0),
       resolution_K: z.number().min(0),

@@ -24,7 +24,7 @@ import { describeLogFinding, type LogFinding } from './log-audit.js';
 import { buildPlanRequest, loadLab, readRecipe, type LoadedLab } from './load.js';
 import { csvRowNames, readReadingsCsv, type CsvReading } from './readings-csv.js';
 import { sourceNames, type SourceNames } from './csv-names.js';
-import { isPressureUnit, type PressureUnit } from './quantity.js';
+import { gaugeConversionWords, isPressureUnit, type GaugeConversion, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
   planDangersNotAcknowledged,
@@ -55,6 +55,8 @@ interface CsvBasis {
   readonly ctx: { barometricPa: number; barometricUncertaintyPa: number };
   readonly thermo: { uncertaintyK: number; resolutionK: number; settlingK?: number };
   readonly baroGiven: boolean;
+  /** whose barometer converts gauge readings: "--barometer" or "the lab profile's" */
+  readonly barometerFrom: string;
   readonly names: SourceNames;
   readonly tank?: CsvTank;
   readonly warnings: string[];
@@ -90,7 +92,10 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
     barometricPa: opts.barometricPa,
   });
   const plan = planFill(req.input);
-  const warnings: string[] = [];
+  // the recipe's and lab profile's gauge pressures made absolute: said with the readings' own
+  const warnings: string[] = req.gaugeContext.conversions.map(
+    (c) => `gauge pressure ${gaugeConversionWords(c)}`,
+  );
   if (!req.lab.thermometer) warnings.push('the lab profile gives no thermometer uncertainty; 0.5 K was used');
   // the readings cannot say whether the fill went through the plan's dangers, nor who accepted them:
   // no acknowledgement is recorded, so none stands (a caveat and no pass, as a log without one)
@@ -128,6 +133,7 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
     ctx: req.input.reading,
     thermo: req.lab.thermometer ?? DEFAULT_THERMOMETER,
     baroGiven: opts.barometricPa !== undefined || req.lab.file.barometer !== undefined,
+    barometerFrom: opts.barometricPa !== undefined ? '--barometer' : "the lab profile's",
     names,
     tank,
     warnings,
@@ -166,10 +172,12 @@ function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
     },
     thermo: lab.thermometer ?? DEFAULT_THERMOMETER,
     baroGiven: opts.barometricPa !== undefined || lab.file.barometer !== undefined,
+    barometerFrom: opts.barometricPa !== undefined ? '--barometer' : "the lab profile's",
     names,
     tank: opts.tankId === undefined ? undefined : labTank(lab, opts.tankId),
     premix,
     warnings: [
+      ...lab.gaugeConversions.map((c) => `gauge pressure ${gaugeConversionWords(c)}`),
       'no recipe given: the gases named by species are taken as pure (purity 1), a cylinder id ' +
         'or premix as the lab profile lists it, the gauges from the lab profile, and there is no ' +
         'design to compare with (use --recipe)',
@@ -178,10 +186,17 @@ function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
 }
 
 /** the CSV rows as the re-check's readings: each row a charge of the source it names, on its gauge */
-function csvReadings(file: string, b: CsvBasis): { rows: CsvReading[]; readings: CheckedReading[] } {
+function csvReadings(
+  file: string,
+  b: CsvBasis,
+  conversions: GaugeConversion[],
+): { rows: CsvReading[]; readings: CheckedReading[] } {
   // gauge-referenced sensors (lab profile) and gauge units are made absolute with the barometer given
+  // (--barometer, else the lab profile's; none: refused), each conversion recorded for the report
   const rows = readReadingsCsv(file, {
     barometricPa: b.baroGiven ? b.ctx.barometricPa : undefined,
+    barometerFrom: b.barometerFrom,
+    conversions,
     referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
     acceptsName: b.names.accepts,
   });
@@ -272,7 +287,9 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     : csvBasisFromLab(file, opts);
   const { design, tolerance, ctx, thermo } = b;
   const warnings = [...b.warnings];
-  const { rows, readings } = csvReadings(file, b);
+  const conversions: GaugeConversion[] = [];
+  const { rows, readings } = csvReadings(file, b, conversions);
+  warnings.push(...conversions.map((c) => `reading ${gaugeConversionWords(c)}`));
   const result = await withinFile(file, () =>
     evaluateUncertaintyParallel(
       readings,

@@ -37,6 +37,7 @@ import {
 } from './check-shared.js';
 import type { PremixCheckRecord, VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
+import { gaugeConversionWords } from './quantity.js';
 import { premixLogReport, premixLogsOf } from './premix-check.js';
 import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
 import { dirname, relative, resolve } from 'node:path';
@@ -83,7 +84,16 @@ export function headerFromPlan(
     barometer: {
       pressure_Pa: req.input.reading.barometricPa,
       u_Pa: req.input.reading.barometricUncertaintyPa,
+      from:
+        req.gaugeContext.barometerFrom === '--barometer'
+          ? 'option'
+          : req.lab.file.barometer
+            ? 'lab-profile'
+            : 'default',
     },
+    ...(req.gaugeContext.conversions.length
+      ? { gauge_pressures: req.gaugeContext.conversions.map(gaugeConversionWords) }
+      : {}),
     thermometer: {
       u_K: (req.lab.thermometer ?? DEFAULT_THERMOMETER).uncertaintyK,
       resolution_K: (req.lab.thermometer ?? DEFAULT_THERMOMETER).resolutionK,

@@ -29,7 +29,13 @@ import {
   finalPressureForExperiments,
   type SizingInput,
 } from '../core/index.js';
-import { checkPlausibleVolume, parseLength, parseQuantity } from './quantity.js';
+import {
+  checkPlausibleVolume,
+  parseLength,
+  parseQuantity,
+  type GaugeConversion,
+  type QuantityContext,
+} from './quantity.js';
 import { labSchema, type LabFile } from './lab.js';
 import { predictionThermometer } from './plan-predict.js';
 import { recipeSchema, type RecipeFile } from './recipe.js';
@@ -107,10 +113,12 @@ export interface LoadedLab {
     readonly settlingK?: number;
   };
   readonly condensationFraction?: number;
+  /** the profile's gauge pressures made absolute with its barometer: what the output states */
+  readonly gaugeConversions: readonly GaugeConversion[];
 }
 
 type LabWhere = (path: DataPath, field: string) => Where;
-type GaugeContext = { readonly barometricPa?: number };
+type GaugeContext = QuantityContext;
 
 /** the profile's barometer (default 101325 Pa +- 100 Pa): read first, it converts gauge pressures elsewhere */
 function labBarometer(lab: LabFile, w: LabWhere): { pa: number; uPa: number } {
@@ -323,7 +331,12 @@ export function loadLab(file?: string): LoadedLab {
   const w: LabWhere = (path, field) => ({ ...src.locate(path), field });
   const air = lab.air !== undefined ? parseBlend(lab.air, w(['air'], 'air')) : { O2: 0.21, N2: 0.79 };
   const baro = labBarometer(lab, w);
-  const gaugeCtx = { barometricPa: lab.barometer ? baro.pa : undefined };
+  // gauge pressures in the profile (a tank rating in psig) are converted with its own barometer, and said
+  const gaugeCtx: QuantityContext = {
+    barometricPa: lab.barometer ? baro.pa : undefined,
+    barometerFrom: "the lab profile's",
+    conversions: [],
+  };
   const unique = uniqueIds(w);
   const each = <T, R>(
     key: 'tanks' | 'reactors' | 'gauges' | 'cylinders',
@@ -352,6 +365,7 @@ export function loadLab(file?: string): LoadedLab {
         : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest')),
     thermometer: thermometerOf(lab, w),
     condensationFraction: lab.condensation_fraction,
+    gaugeConversions: gaugeCtx.conversions!,
   };
 }
 
@@ -389,6 +403,11 @@ export interface PlanRequest {
   readonly tankInfo?: LoadedLab['tanks'][number];
   /** premixes filled in place of single gases without being asked for: the plan states them (premixFindings) */
   readonly premixInPlace: readonly GasSource[];
+  /**
+   * how gauge pressures of this request are made absolute (later fields, e.g. a premix pressure, use
+   * it too); its `conversions` hold every one so converted, the lab profile's first
+   */
+  readonly gaugeContext: QuantityContext & { readonly conversions: GaugeConversion[] };
 }
 
 export interface Overrides {
@@ -745,8 +764,11 @@ export function buildPlanRequest(
   const W = recipeWhere(rs);
   const lab = loadLab(labFileOverride ?? (r.lab ? resolvePath(rs.baseDir, r.lab) : undefined));
   // gauge pressures in the recipe are converted with the barometer given now, else the lab profile's own
-  const gaugeCtx = {
+  // (none: refused, never the default), and each conversion is recorded for the output to state
+  const gaugeCtx: QuantityContext = {
     barometricPa: overrides.barometricPa ?? (lab.file.barometer ? lab.barometricPa : undefined),
+    barometerFrom: overrides.barometricPa !== undefined ? '--barometer' : "the lab profile's",
+    conversions: [],
   };
   const tank = resolveTank(r, lab, W, gaugeCtx);
   checkPressureOrCount(r, W);
@@ -803,5 +825,6 @@ export function buildPlanRequest(
     sizedFor: r.experiments?.count,
     tankInfo: lab.tanks.find((t) => t.id === tank.id),
     premixInPlace: supply.premixInPlace,
+    gaugeContext: { ...gaugeCtx, conversions: [...lab.gaugeConversions, ...gaugeCtx.conversions!] },
   };
 }

@@ -16,7 +16,7 @@ import {
   type ParsedLog,
   type RecordIssue,
 } from './batch-log.js';
-import { fromPa, isPressureUnit, parseQuantity, type PressureUnit } from './quantity.js';
+import { fromPa, isGaugeSpelling, isPressureUnit, parseQuantity, type PressureUnit } from './quantity.js';
 
 export type LogFindingSeverity = 'danger' | 'warning' | 'note';
 
@@ -204,12 +204,17 @@ function close(a: number, b: number): boolean {
 }
 
 /** the typed text as SI, or undefined when it cannot be read (a bare number is read in the fallback unit) */
-function textSI(text: string, dim: 'pressure' | 'temperature', fallbackUnit: string): number | undefined {
+function textSI(
+  text: string,
+  dim: 'pressure' | 'temperature',
+  fallbackUnit: string,
+  barometricPa?: number,
+): number | undefined {
   const t = text.trim();
   try {
     return /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(t)
       ? parseQuantity(`${t} ${fallbackUnit}`, dim)
-      : parseQuantity(t, dim);
+      : parseQuantity(t, dim, {}, { barometricPa });
   } catch (e) {
     if (e instanceof ProblemError) return undefined;
     throw e;
@@ -450,8 +455,11 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
 function typedTextOf(cx: AuditContext, r: Logged): LogFinding[] {
   const g = cx.gauges.get(r.gauge);
   const at = { step: r.step, line: r.line };
-  const p = textSI(r.reading, 'pressure', cx.unitOf(r.gauge));
-  const absolute = p !== undefined && g?.reference === 'gauge' ? p + cx.baroOf(r) : p;
+  // a gauge pressure typed ("15 psig", the fill says with which barometer in the note) is absolute once
+  // read with the barometer in force; a gauge-referenced sensor's plain reading gets it added
+  const typedGauge = isGaugeSpelling(r.reading);
+  const p = textSI(r.reading, 'pressure', cx.unitOf(r.gauge), typedGauge ? cx.baroOf(r) : undefined);
+  const absolute = p !== undefined && g?.reference === 'gauge' && !typedGauge ? p + cx.baroOf(r) : p;
   return [
     ...textAgainst(at, 'reading', r.reading, absolute, r.pressure_Pa, 'Pa'),
     ...textAgainst(

@@ -187,6 +187,34 @@ export interface QuantityContext {
    * undefined when none was given, and a gauge pressure is then refused
    */
   readonly barometricPa?: number;
+  /** whose barometric pressure that is, as the statement of a conversion names it ("the lab profile's") */
+  readonly barometerFrom?: string;
+  /** every gauge pressure converted is recorded here, so the caller states what was assumed */
+  readonly conversions?: GaugeConversion[];
+}
+
+/** a gauge pressure ("15 psig") made absolute with a barometric pressure: what the output states */
+export interface GaugeConversion {
+  /** as typed */
+  readonly text: string;
+  /** the field or option it was typed in */
+  readonly field?: string;
+  readonly absolutePa: number;
+  readonly barometricPa: number;
+  /** whose barometer ("the lab profile's", "--barometer", "today's, logged by AB") */
+  readonly barometerFrom: string;
+}
+
+/** "15 psig (pressure) read as 1535.7 Torr absolute with the lab profile's barometer 760.0 Torr" */
+export function gaugeConversionWords(c: GaugeConversion): string {
+  const torr = (pa: number) => `${(pa / TORR_PA).toFixed(1)} Torr`;
+  const from = c.barometerFrom.startsWith('--')
+    ? `the barometer of ${c.barometerFrom}`
+    : `${c.barometerFrom} barometer`;
+  return (
+    `${c.text}${c.field ? ` (${c.field})` : ''} read as ${torr(c.absolutePa)} absolute with ` +
+    `${from} ${torr(c.barometricPa)}`
+  );
 }
 
 /** what a temperature below the physical window is */
@@ -316,7 +344,15 @@ export function parseQuantity(
     const above = Number(typed[1]) * FAST_UNITS[unit].factor;
     if (ctx.barometricPa === undefined)
       return fail({ code: 'needs-barometer', text: s, field: where.field ?? 'this field' }, where);
-    return checkRange(above + ctx.barometricPa, s, expected, where);
+    const absolutePa = checkRange(above + ctx.barometricPa, s, expected, where);
+    ctx.conversions?.push({
+      text: s,
+      field: where.field,
+      absolutePa,
+      barometricPa: ctx.barometricPa,
+      barometerFrom: ctx.barometerFrom ?? 'the assumed',
+    });
+    return absolutePa;
   }
   if (typed && own(SPELLINGS, typed[2]))
     return parseQuantity(`${typed[1]} ${SPELLINGS[typed[2]]}`, expected, where, ctx);

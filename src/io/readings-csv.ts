@@ -11,11 +11,15 @@
  */
 import { fail, getSpecies, ProblemError, relocate } from '../core/index.js';
 import { readTextFile } from './read-text.js';
-import { isAbsoluteSpelling, isGaugeSpelling, parseQuantity } from './quantity.js';
+import { isAbsoluteSpelling, isGaugeSpelling, parseQuantity, type GaugeConversion } from './quantity.js';
 
 export interface CsvContext {
   /** barometric pressure, Pa, to make gauge readings absolute; undefined when none was given */
   readonly barometricPa?: number;
+  /** whose barometer that is ("--barometer", "the lab profile's"), for the statement of a conversion */
+  readonly barometerFrom?: string;
+  /** every reading made absolute with the barometer is recorded here (the report states each) */
+  readonly conversions?: GaugeConversion[];
   /** how the named gauge is referenced, from the lab profile (undefined: not known) */
   readonly referenceOf?: (gaugeId: string) => 'absolute' | 'gauge' | undefined;
   /** true for a name that is not a species but names a source (a cylinder id, a premix label "N2+O2") */
@@ -75,21 +79,36 @@ function readHeader(lines: readonly string[], file: string): { header: string[];
 
 type At = (field: string) => { file: string; line: number; field: string };
 
-/** a row's absolute pressure: a gauge-referenced sensor's reading made absolute with the barometer */
+/**
+ * a row's absolute pressure: a gauge-referenced sensor's reading, or a gauge unit ("15 psig"), made
+ * absolute with the barometer; each such conversion is recorded with its line (ctx.conversions)
+ */
 function rowPressurePa(text: string, gaugeId: string | undefined, ctx: CsvContext, where: At): number {
+  const at = where('pressure');
+  const local: GaugeConversion[] = [];
+  const parse = () => parseQuantity(text, 'pressure', at, { ...ctx, conversions: local });
   let pressurePa: number;
   if (gaugeId !== undefined && ctx.referenceOf?.(gaugeId) === 'gauge' && !isAbsoluteSpelling(text)) {
     // a gauge-referenced sensor shows the pressure above ambient: add the barometer
-    const shown = parseQuantity(text, 'pressure', where('pressure'), ctx);
+    const shown = parse();
     if (isGaugeSpelling(text))
       pressurePa = shown; // "psig" was already made absolute
     else if (ctx.barometricPa === undefined)
       return fail(
         { code: 'needs-barometer', text: `${text} on ${gaugeId}`, field: 'the pressure column' },
-        where('pressure'),
+        at,
       );
-    else pressurePa = shown + ctx.barometricPa;
-  } else pressurePa = parseQuantity(text, 'pressure', where('pressure'), ctx);
+    else {
+      pressurePa = shown + ctx.barometricPa;
+      local.push({
+        text: `${text.trim()} on ${gaugeId}`,
+        absolutePa: pressurePa,
+        barometricPa: ctx.barometricPa,
+        barometerFrom: ctx.barometerFrom ?? 'the assumed',
+      });
+    }
+  } else pressurePa = parse();
+  ctx.conversions?.push(...local.map((c) => ({ ...c, field: `line ${at.line}` })));
   return pressurePa;
 }
 

@@ -175,6 +175,7 @@ function premixCheckOf(plan: Plan, req: PlanRequest, premixClosed?: string): Sta
     target_Pa: c.delivery.targetPa,
     delivered_mol: c.delivery.deliveredMol,
     fills: [...c.fills],
+    close_off: c.closeOff.map((g) => ({ gauge: g.id, top_Pa: g.topPa, reopen: g.reopen })),
     ...(mixing ? { mixing: { stirred: mixing.stirred, rest_s: mixing.restS } } : {}),
     ...(premixClosed ? { premix_log_closed: premixClosed } : {}),
     ...(plan.premixLog

@@ -53,7 +53,6 @@ export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInp
       { code: 'stage-order', premixTank: pm.tank, order: orderText(req.recipe.order) },
       { field: 'order' }, // pointed at the recipe line or the option by the caller (locateCoreProblem)
     );
-  const barometricPa = req.input.reading.barometricPa;
   return {
     batch: req.input,
     premixTank,
@@ -62,7 +61,8 @@ export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInp
     premixPressurePa:
       pm.pressure === undefined
         ? undefined
-        : parseQuantity(pm.pressure, 'pressure', where('pressure'), { barometricPa }),
+        : // the request's barometer (given, else the lab profile's; none: refused), the conversion recorded
+          parseQuantity(pm.pressure, 'pressure', where('pressure'), req.gaugeContext),
     premixFraction: pm.fraction,
     premixOrder: pm.order,
   };

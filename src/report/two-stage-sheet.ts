@@ -157,11 +157,19 @@ function closeOffFor(plan: Plan, lab: SheetLab, first: number, upperPa: number):
     }));
 }
 
-/** "Close off head-1kT (...) before the line is filled from MT-2; open it again ..." or nothing */
-function closeOffWords(c: PremixTankCheck, tank: string, batchTank: string, unit: PressureUnit): string {
-  if (!c.closeOff.length) return '';
-  const heads = c.closeOff.map((h) => `${h.id} (it reads only up to ${pressure(h.topPa, unit, 5)} absolute)`);
-  const again = c.closeOff.filter((h) => h.reopen).map((h) => h.id);
+/**
+ * "Close off head-1kT (...) before the line is filled from MT-2; open it again ..." or nothing: the
+ * stage-2 sheet's words and the guided fill's premix-tank screen's (one function, so they agree)
+ */
+export function premixCloseOffWords(
+  closeOff: PremixTankCheck['closeOff'],
+  tank: string,
+  batchTank: string,
+  unit: PressureUnit,
+): string {
+  if (!closeOff.length) return '';
+  const heads = closeOff.map((h) => `${h.id} (it reads only up to ${pressure(h.topPa, unit, 5)} absolute)`);
+  const again = closeOff.filter((h) => h.reopen).map((h) => h.id);
   const reopen = again.length
     ? `; open ${again.join(' and ')} again for the fill only once the line is back below ` +
       `${again.length > 1 ? 'their ranges' : 'its range'} (${tank}'s valve closed, the ${batchTank} valve opened)`
@@ -197,7 +205,7 @@ function premixCheck(plan: Plan, d: Draw, lab: SheetLab | undefined, unit: Press
     unit: gu,
     planned,
     note:
-      closeOffWords(c, tank, tankName(plan.tank.id), unit) +
+      premixCloseOffWords(c.closeOff, tank, tankName(plan.tank.id), unit) +
       `Before fill ${first}, with the ${tankName(plan.tank.id)} valve closed and the line filled from ${tank}, ` +
       `${readOn}: at least ${minimum} ${gu} (planned ${planned} ${gu}). Below that, do not fill from it: ` +
       `delivering the ${fixedSig(del.deliveredMol, 3)} mol of ${which} would leave ${tank} below ` +

@@ -14,12 +14,14 @@ import {
   type FillAction,
   type FillState,
   type FillStep,
+  type PremixCheck,
 } from './fill-state.js';
 import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
+import { decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
+import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
@@ -886,7 +888,8 @@ function PremixScreen({ state }: ScreenProps) {
         1. {mixed ? `[done, ${mixed}] ` : ''}The premix in {pc.tank} mixed: {premixMixingWords(pc)}.
       </Text>
       <Text wrap="wrap" bold={Boolean(mixed)}>
-        2. {last?.enough ? `[done, ${last.by}] ` : ''}With the {h.tank.id} valve closed and the line filled
+        2. {last?.enough ? `[done, ${last.by}] ` : ''}
+        {premixCloseOffLine(pc, tankName(h.tank.id))}With the {h.tank.id} valve closed and the line filled
         from {pc.tank}, read {pc.tank} on {pc.gauge?.id ?? 'a gauge that reads it'}: at least {pc.minimum}{' '}
         (planned about {planned})
         {last && !last.enough ? `; last read ${last.text} (${last.by}), BELOW the minimum` : ''}.
@@ -903,6 +906,20 @@ function PremixScreen({ state }: ScreenProps) {
       <ErrorLine state={state} />
     </Box>
   );
+}
+
+/**
+ * the stage-2 sheet's close-off before the line is filled from the premix tank (same function, same
+ * words); an older log that does not record the heads says to close every head below the tank's pressure
+ */
+function premixCloseOffLine(pc: PremixCheck, batchTank: string): string {
+  const tank = tankName(pc.tank);
+  if (!pc.closeOff)
+    return (
+      `Close off every head whose range ends below ${tank}'s pressure before the line is filled from ` +
+      `${tank} (this log does not record which: see the stage-2 sheet). `
+    );
+  return premixCloseOffWords(pc.closeOff, tank, batchTank, 'Torr');
 }
 
 /** after `vent INITIALS`: vent back, let the tank settle, read it; the reading is logged as the tank's pressure */

@@ -32,6 +32,8 @@ import {
 import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
 import { duration } from '../report/ready-report.js';
 import {
+  gaugeConversionWords,
+  isGaugeSpelling,
   parseQuantity,
   fromPa,
   isPressureUnit,
@@ -116,6 +118,8 @@ export interface PremixCheck {
   readonly deliveredMol: number;
   /** the batch's fills from the premix; the check comes before the first */
   readonly fills: readonly number[];
+  /** the heads to close off before the line is filled from the premix tank (undefined: an older log) */
+  readonly closeOff?: readonly { readonly id: string; readonly topPa: number; readonly reopen: boolean }[];
   readonly mixing?: { readonly stirred: boolean; readonly restS: number };
   /** the premix log the batch draws from, as the header names it */
   readonly premixLog?: string;
@@ -375,6 +379,7 @@ export function setupFromHeader(header: LogHeader): FillSetup {
     targetPa: pc.target_Pa,
     deliveredMol: pc.delivered_mol,
     fills: pc.fills,
+    closeOff: pc.close_off?.map((g) => ({ id: g.gauge, topPa: g.top_Pa, reopen: g.reopen })),
     mixing: pc.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s },
     premixLog: header.stage?.premix_log?.file,
     premixClosed: pc.premix_log_closed,
@@ -813,6 +818,46 @@ function typedUnitOf(text: string, fallback: PressureUnit): PressureUnit {
 
 const READING_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 
+/**
+ * the barometer a typed gauge pressure ("15 psig") is made absolute with: today's, logged, else the one
+ * the plan took from the lab profile or --barometer; the default a profile without a barometer leaves
+ * (or a log that does not say) is not assumed: refused, saying what to type instead
+ */
+function typedGaugeBarometer(s: FillState, text: string): { pa: number; from: string } | { error: string } {
+  const from = s.setup.header.barometer.from;
+  if (s.barometerToday) return { pa: s.barometerPa, from: "today's (logged)" };
+  if (from === 'lab-profile') return { pa: s.barometerPa, from: "the lab profile's" };
+  if (from === 'option') return { pa: s.barometerPa, from: "the plan's (--barometer)" };
+  return {
+    error:
+      `"${text}" is a gauge pressure (above the ambient pressure), and making it absolute needs a ` +
+      `measured barometric pressure, which this batch does not have (` +
+      (from === 'default'
+        ? `the lab profile gives no barometer; the plan assumed ${fmtIn(s.barometerPa, 'Torr', 5)}`
+        : 'the log does not say where its barometer came from') +
+      `). Nothing is logged. Type the absolute reading instead (e.g. in psia, Torr or kPa), as the ` +
+      `gauge shows it if it reads absolute`,
+  };
+}
+
+/** a log event's `note` saying how a typed gauge pressure was made absolute (nothing for any other) */
+function withGaugeNote(s: FillState, typed: string, absolutePa: number): { note?: string } {
+  const note = gaugeNoteOf(s, typed, absolutePa);
+  return note ? { note } : {};
+}
+
+/**
+ * what the record says of a reading typed as a gauge pressure: "gauge pressure 15 psig read as
+ * 1535.7 Torr absolute with the lab profile's barometer 760.0 Torr" (undefined for any other reading)
+ */
+export function gaugeNoteOf(s: FillState, typed: string, absolutePa: number): string | undefined {
+  const text = typed.trim();
+  if (!isGaugeSpelling(text)) return undefined;
+  const b = typedGaugeBarometer(s, text);
+  if ('error' in b) return undefined;
+  return `gauge pressure ${gaugeConversionWords({ text, absolutePa, barometricPa: b.pa, barometerFrom: b.from })}`;
+}
+
 function parseReading(
   s: FillState,
   step: FillStep,
@@ -821,9 +866,17 @@ function parseReading(
   try {
     const text = s.input.trim();
     if (text === '') fail({ code: 'reading-missing', expected: 'pressure' });
-    shown = READING_NUMBER.test(text)
-      ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure')
-      : parseQuantity(text, 'pressure');
+    if (isGaugeSpelling(text)) {
+      // a gauge pressure typed ("15 psig"): absolute with a measured barometer only, then on this
+      // step's gauge basis (gauge-referenced: above ambient), so every caller adds back the same value
+      const b = typedGaugeBarometer(s, text);
+      if ('error' in b) return { error: `reading refused: ${b.error}`, field: 'reading' };
+      const absolute = parseQuantity(text, 'pressure', {}, { barometricPa: b.pa });
+      shown = step.gauge?.reference === 'gauge' ? absolute - s.barometerPa : absolute;
+    } else
+      shown = READING_NUMBER.test(text)
+        ? parseQuantity(`${text} ${gaugeUnit(step)}`, 'pressure')
+        : parseQuantity(text, 'pressure');
   } catch (e) {
     if (!(e instanceof ProblemError)) throw e;
     const p = e.problem;
@@ -988,6 +1041,9 @@ function readingEvent(
 ): LogReading {
   const unit = gaugeUnit(step);
   const readingText = `${s.input.trim()}${/[A-Za-z]/.test(s.input) ? '' : ` ${unit}`}`;
+  // a gauge pressure typed: the record says with which barometer it was made absolute
+  const gaugeNote = gaugeNoteOf(s, s.input, absolute);
+  note = [note, gaugeNote].filter(Boolean).join('; ') || undefined;
   return {
     kind: 'reading',
     step: step.index,
@@ -1013,9 +1069,11 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
   const deviation = p.done.pressurePa - target;
   const within = Math.abs(deviation) <= step.bandPa;
   const done = [...s.done, p.done];
+  const gaugeNote = p.event.note?.split('; ').find((x) => x.startsWith('gauge pressure '));
   const pressureText =
     `${fillName(step)} logged: ${signed(fromPa(deviation, unit))} ${unit} from ` +
-    `the target (${bandWords(s, unit, p.done.pressurePa, within)})`;
+    `the target (${bandWords(s, unit, p.done.pressurePa, within)})` +
+    (gaugeNote ? ` (${gaugeNote})` : '');
   let next: FillState = {
     ...s,
     done,
@@ -1207,7 +1265,8 @@ function afterDoubt(s: FillState, p: Pending, now: string): FillState {
       note:
         `above the working limit ${fmtIn(limit, unit)} of ${s.setup.header.tank.id}; ` +
         `logged as typed, before the operator's choice (vent, accept or withdraw ` +
-        `as mistyped)`,
+        `as mistyped)` +
+        (p.event.note ? `; ${p.event.note}` : ''),
     };
     return {
       ...s,
@@ -1624,6 +1683,7 @@ function onVentedEnter(s: FillState, now: string): FillState {
     temperature_K: parsed.temperatureK,
     by: w.by,
     time: now,
+    ...withGaugeNote(s, w.value, absolute),
   };
   const base: FillState = { ...s, input: '', effects: [ev] };
   if (absolute > v.limitPa)
@@ -2234,6 +2294,7 @@ function onStartEnter(s: FillState, now: string): FillState {
     temperature_K: parsed.temperatureK,
     by: w.by,
     time: now,
+    ...withGaugeNote(s, w.value, absolute),
   };
   const planned = s.start!.pressurePa;
   const next: FillState = {

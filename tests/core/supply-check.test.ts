@@ -21,7 +21,7 @@ import { planAmounts } from '../../src/core/plan/amounts.js';
 import { planSequence } from '../../src/core/plan/sequence.js';
 import { planSteps } from '../../src/core/plan/steps.js';
 import { countsAgainstSequence } from '../../src/core/plan/search-eval.js';
-import { dangerCounts } from '../../src/core/supply-check.js';
+import { hazardRank } from '../../src/core/supply-check.js';
 import { head, workedInput } from './planner-input.js';
 import { runCli, TORR } from '../helpers.js';
 
@@ -122,17 +122,17 @@ describe('a premix tank: the plan judges its falling pressure as the final deliv
 
   // our own ranking (supply-check.ts, no outside reference): the supply's dangers after those of the
   // states and fills, then its warnings; the sequence search counts each against a sequence
-  it("premix-cools-low (settled end enough, the fast delivery's cold gas short) is counted: dangerCounts' third count, and against a sequence in the search", () => {
+  it("premix-cools-low (settled end enough, the fast delivery's cold gas short) is counted: hazardRank's last count (the supply's warnings), and against a sequence in the search", () => {
     const edge = settledEdge();
     const cool = planWith(edge * 1.001, 'given');
     const found = codes(cool.plan.findings);
     expect(found.map((f) => [f.code, f.severity])).toEqual([['premix-cools-low', 'warning']]);
-    expect(dangerCounts(found)).toEqual([0, 0, 1]);
-    expect(dangerCounts(cool.plan.findings)[2]).toBe(1);
+    expect(hazardRank(found)).toEqual([0, 0, 0, 0, 1]);
+    expect(hazardRank(cool.plan.findings)[4]).toBe(1);
     expect(countsAgainstSequence(found[0])).toBe(true);
     // a supply danger stays counted as one, before any warning
     const short = codes(planWith(edge * 0.999, 'given').plan.findings);
-    expect(dangerCounts(short)).toEqual([0, 1, 0]);
+    expect(hazardRank(short)).toEqual([0, 0, 0, 1, 0]);
   });
 
   it('the search picks an order whose premix charge the final check accepts, when one exists', () => {

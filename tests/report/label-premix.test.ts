@@ -43,7 +43,7 @@ describe('label of a batch made from a premix log', () => {
     // the certificate's Premix paragraph: tank, log and last entry, the re-checked fractions
     const cert = r.stdout.slice(r.stdout.indexOf('BATCH CERTIFICATE'));
     expect(cert).toMatch(
-      /^PREMIX\n {2}Made from premix demo-premix-o2-ar-mt2 in tank MT-2: log demo-premix-o2-ar-mt2\.jsonl \(last entry 27e6bfcfea5c, the one this batch log recorded\), re-checked now from its readings by check's model: Ar 86\.577 % \+- 0\.035 %, O2 13\.423 % \+- 0\.035 %/m,
+      /^PREMIX\n {2}Made from premix demo-premix-o2-ar-mt2 in tank MT-2: log demo-premix-o2-ar-mt2\.jsonl \(last entry e8cd3ed8edee, the one this batch log recorded\), re-checked now from its readings by check's model: Ar 86\.577 % \+- 0\.035 %, O2 13\.423 % \+- 0\.035 %/m,
     );
     for (const format of ['md', 'html']) {
       const o = await runCli(['label', BATCH, ...TRIALS, '--format', format]);

@@ -8,7 +8,7 @@ import { headerFromPlan } from '../../io/check.js';
 import { fromTui, type Cli } from '../context.js';
 import { fillEnded } from '../fill-ended.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
-import { planFrom } from '../plan-from.js';
+import { planFrom, stateGaugeConversions } from '../plan-from.js';
 import { checkStageOnResume, fillBatchStage, fillPremixStage } from '../stage-fill.js';
 import { loadTui } from '../load-tui.js';
 
@@ -38,6 +38,7 @@ async function fill(
   const tui = await loadTui();
   const planned = planFrom(recipeFile, o);
   const { plan, req } = planned;
+  stateGaugeConversions(req, cli);
   const stamp = new Date().toISOString().replace(/[-:]/g, '').slice(0, 13);
   const id = o.batch ?? `${req.recipe.id}-${stamp}`;
   if (!/^[A-Za-z0-9._-]+$/.test(id))

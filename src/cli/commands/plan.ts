@@ -6,7 +6,7 @@ import { planToText } from '../../report/plan-text.js';
 import { proposalJson } from '../../report/two-stage-text.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
-import { planFrom } from '../plan-from.js';
+import { planFrom, stateGaugeConversions } from '../plan-from.js';
 
 export function registerPlan(program: Command, cli: Cli): void {
   addDesignOptions(
@@ -16,7 +16,8 @@ export function registerPlan(program: Command, cli: Cli): void {
   )
     .option('--json', 'print one JSON object (SI units in the key names)')
     .action(async (recipeFile: string | undefined, o: DesignValues & { json?: boolean }) => {
-      const { plan, unit, meta, proposal } = planFrom(recipeFile, o, true);
+      const { plan, req, unit, meta, proposal } = planFrom(recipeFile, o, true);
+      stateGaugeConversions(req, cli);
       // a proposed premix: among the text's findings, its own key in the JSON (the plan's findings are the sheet's)
       const json = { ...planToJson(plan, meta, unit), two_stage_proposal: proposalJson(proposal, unit) };
       if (o.json) cli.out(JSON.stringify(json, null, 2) + '\n');

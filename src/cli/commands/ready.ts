@@ -7,7 +7,7 @@ import { VERSION } from '../../version.js';
 import type { Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { numberOption } from '../numbers.js';
-import { planFrom } from '../plan-from.js';
+import { planFrom, stateGaugeConversions } from '../plan-from.js';
 
 type ReadyOptions = DesignValues & {
   json?: boolean;
@@ -56,6 +56,7 @@ function storageDays(text: string): number {
 
 function ready(cli: Cli, recipeFile: string | undefined, o: ReadyOptions): void {
   const { plan, req } = planFrom(recipeFile, o);
+  stateGaugeConversions(req, cli);
   const info = req.tankInfo;
   const { heightM, leak, base } = tankData(o, info);
   const notes: string[] = [];

@@ -8,7 +8,7 @@ import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
 import { addDesignOptions, type DesignValues } from '../design-options.js';
 import { checkOutputTarget, emitDocument, sheetFormat } from '../output.js';
-import { planFrom } from '../plan-from.js';
+import { planFrom, stateGaugeConversions } from '../plan-from.js';
 
 type SheetOptions = DesignValues & {
   format?: string;
@@ -22,6 +22,7 @@ async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions):
   const format = sheetFormat(o.format, o.output);
   if (o.output) checkOutputTarget(o.output, Boolean(o.force));
   const { plan, req, unit, meta } = planFrom(recipeFile, o);
+  stateGaugeConversions(req, cli);
   // a two-stage plan prints one sheet per stage, stage 1 first (report/two-stage-sheet.ts)
   const models = stageSheets(
     plan,

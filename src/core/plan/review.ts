@@ -100,6 +100,7 @@ export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[], loc
 const FILL_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-fill-path',
   'flammable-at-inlet',
+  'near-flammable-fill-path',
   'compression-heating',
   'oxygen-compression',
 ]);

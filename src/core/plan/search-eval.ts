@@ -89,6 +89,7 @@ const SEQUENCE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   ...ORDER_RELEVANT,
   'flammable-fill-path',
   'flammable-at-inlet',
+  'near-flammable-fill-path',
   'no-gauge-covers',
   'supply-pressure-low',
   'tank-over-rating',

@@ -383,11 +383,13 @@ function optionable(ev: Evaluated): boolean {
   return ev.safety.complete && ev.safety.danger === 0 && !ev.safety.hazards.some(rulesOutOption);
 }
 
-/** a hazard no option may have: any danger, any warning but a flammable state or path */
+/** a hazard no option may have: any danger, any warning but a flammable or near-flammable state or path */
 function rulesOutOption(h: Finding): boolean {
   if (h.severity === 'danger') return true;
   return !(
     h.severity === 'note' ||
+    h.code === 'near-flammable' ||
+    h.code === 'near-flammable-fill-path' ||
     h.code === 'flammable-state' ||
     h.code === 'flammable-fill-path' ||
     h.code === 'flammable-at-inlet'

@@ -52,6 +52,7 @@ const STOP_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
   ...ORDER_RELEVANT,
   'flammable-fill-path',
   'flammable-at-inlet',
+  'near-flammable-fill-path',
   'oxygen-enriched',
   'no-gauge-covers',
   'supply-pressure-low',

@@ -23,14 +23,10 @@ import type { GasSource } from '../supply.js';
 import { planFill } from '../planner.js';
 import { predictPlan, withPrediction, type PredictedPlan, type PredictionInput } from '../predict.js';
 import { fail, ProblemError, type Problem } from '../problems.js';
-import {
-  dangerCounts,
-  tankDelivery,
-  withDeliveryFindings,
-  type PremixDeliveryCheck,
-} from '../supply-check.js';
+import { hazardRank, tankDelivery, withDeliveryFindings, type PremixDeliveryCheck } from '../supply-check.js';
 export type { PremixDeliveryCheck } from '../supply-check.js';
 import { premixSource } from './premix-source.js';
+import { countsAgainstSequence } from './search-eval.js';
 import type { Plan, PlanInput, TankSpec } from './types.js';
 
 export interface TwoStageInput {
@@ -365,14 +361,17 @@ function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): Pre
 export type TwoStageSearch = 'full' | 'quick' | 'proposal';
 
 /**
- * The ranking of choices: the fewest dangers of the states and fills first, then of the supply
- * (supply-check.ts), then every design fraction within tolerance, then the
- * fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
- * tolerance, e.g. no compression of pure O2), then the smallest worst U / tolerance.
+ * The ranking of choices, the sequence search's own ordering (`hazardRank`, supply-check.ts, which
+ * `notLessSafe` uses for the single-tank search): the dangers, warnings and notes of the tank states
+ * and fill paths of either stage first (flammable, detonable, near-flammable ...; any other danger
+ * counts here too), severity by severity, then the supply's dangers and warnings, so no count of
+ * supply findings buys a state or fill-path hazard; then every design fraction within tolerance, then
+ * the fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
+ * tolerance), then the smallest worst U / tolerance.
  */
 function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
   return [
-    ...dangerCounts(all),
+    ...hazardRank(all.filter((f) => f.severity === 'danger' || countsAgainstSequence(f))),
     worstRatio <= 1 ? 0 : 1,
     all.filter((f) => f.severity === 'warning').length,
     worstRatio,
@@ -384,17 +383,21 @@ function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
  * larger ratio never make a key smaller. So the key of a choice's findings without its prediction's,
  * at a ratio of 0, is a bound no completed choice goes below (the proposal's pruning).
  */
-function rankKey(c: TwoStagePlan): number[] {
+export function rankKey(c: RankedChoice): number[] {
   return rankKeyOf([...c.premix.findings, ...c.batch.findings], c.worstRatio);
+}
+
+/** what the ranking of choices looks at */
+export type RankedChoice = Pick<TwoStagePlan, 'premix' | 'batch' | 'worstRatio'>;
+
+/** does choice c rank before the best so far (none yet: it does) */
+export function ranksBefore(c: RankedChoice, best: RankedChoice | undefined): boolean {
+  return !best || keyBefore(rankKey(c), rankKey(best));
 }
 
 function keyBefore(a: readonly number[], b: readonly number[]): boolean {
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i] < b[i];
   return false;
-}
-
-function better(c: TwoStagePlan, best: TwoStagePlan | undefined): boolean {
-  return !best || keyBefore(rankKey(c), rankKey(best));
 }
 
 /** the choices for one premix gas and composition: pressures, stage-1 heads and orders */
@@ -492,7 +495,7 @@ export function planTwoStage(
               gauges.length === b.gauges.length;
             const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined);
             if (!c) return;
-            if (better(c, best)) best = c;
+            if (ranksBefore(c, best)) best = c;
             if (
               !hasDanger(c.premix.findings, c.batch.findings) &&
               c.worstRatio < (precise?.worstRatio ?? Infinity)
