@@ -34,21 +34,23 @@ export function xoshiro128ss(seed: number): Rng {
     d = ((d << 11) | (d >>> 21)) >>> 0;
     return r;
   };
-  let spare: number | undefined;
+  // the second normal of a Box-Muller pair, kept for the next call (a number and a flag: one shape)
+  let spare = 0;
+  let hasSpare = false;
   const next = () => (u32() * 2 ** 21 + (u32() >>> 11)) / 2 ** 53;
   return {
     next,
     normal() {
-      if (spare !== undefined) {
-        const s = spare;
-        spare = undefined;
-        return s;
+      if (hasSpare) {
+        hasSpare = false;
+        return spare;
       }
       let u = next();
       while (u <= 0) u = next();
       const v = next();
       const r = Math.sqrt(-2 * Math.log(u));
       spare = r * Math.sin(2 * Math.PI * v);
+      hasSpare = true;
       return r * Math.cos(2 * Math.PI * v);
     },
   };

@@ -488,11 +488,12 @@ function drawSamples(m: Model, trials: number, seed: number): Float64Array[] {
   const samples: Float64Array[] = Array.from({ length: O }, () => new Float64Array(trials));
   const rng = xoshiro128ss(seed);
   const draw = new Float64Array(N);
+  // each component's distribution and scale, read once (the loop runs a million times)
+  const rectangular = Uint8Array.from(m.components, (comp) => (comp.dist === 'rectangular' ? 1 : 0));
+  const scale = Float64Array.from(m.components, (comp) => comp.scale);
   for (let t = 0; t < trials; t++) {
-    for (let c = 0; c < N; c++) {
-      const comp = m.components[c];
-      draw[c] = comp.dist === 'rectangular' ? (2 * rng.next() - 1) * comp.scale : rng.normal() * comp.scale;
-    }
+    for (let c = 0; c < N; c++)
+      draw[c] = rectangular[c] ? (2 * rng.next() - 1) * scale[c] : rng.normal() * scale[c];
     const out = m.evaluate(draw);
     for (let o = 0; o < O; o++) samples[o][t] = out[o];
   }
