@@ -26,6 +26,7 @@ import { fail, ProblemError, type Problem } from '../problems.js';
 import { hazardRank, tankDelivery, withDeliveryFindings, type PremixDeliveryCheck } from '../supply-check.js';
 export type { PremixDeliveryCheck } from '../supply-check.js';
 import { premixSource } from './premix-source.js';
+import type { UncertaintyResult } from '../uncertainty.js';
 import { countsAgainstSequence } from './search-eval.js';
 import type { Plan, PlanInput, TankSpec } from './types.js';
 
@@ -232,8 +233,8 @@ function planBatchDraft(
   return { plan, sourceId: draft.id, source: draft };
 }
 
-/** stage 1 for one choice: the premix planned in its tank, in the order and on the heads chosen */
-function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly Gauge[]): PredictedPlan {
+/** stage 1 for one choice: the premix planned in its tank, in the order and on the heads chosen (not yet predicted) */
+function premixPlan(input: TwoStageInput, choice: PremixChoice, gauges: readonly Gauge[]): Plan {
   const b = input.batch;
   const cylinders = b.sources.filter(
     (s) => s.kind !== 'premix' && s.kind !== 'in-tank' && s.mainSpecies in choice.composition,
@@ -258,7 +259,7 @@ function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly
   });
   // the order is the premix choice's, not the user's: say why, not "as given"
   const reason = choice.order === 'minor-first' ? MINOR_FIRST_REASON : plan.orderReason;
-  return predicted({ ...plan, orderReason: reason }, input);
+  return { ...plan, orderReason: reason };
 }
 
 /** the order reason of a premix filled minor gases first */
@@ -270,7 +271,7 @@ export const MINOR_FIRST_REASON =
  * of the same premix composition with the same stage 1 (the planner put every reading on the same head
  * either way) make the same batch, so the later one can rank neither better nor more precise.
  */
-function stageOneKey(choice: PremixChoice, stage1: PredictedPlan): string {
+function stageOneKey(choice: PremixChoice, stage1: Plan): string {
   const steps = stage1.steps.map((s) => [s.source.id, s.targetPa, s.gauge?.id ?? '']);
   return JSON.stringify([choice.pressurePa, steps, stage1.findings]);
 }
@@ -286,28 +287,40 @@ function planChoice(
   draft: BatchDraft,
   seen: Set<string>,
   mayWin?: (known: readonly Finding[]) => boolean,
-  planned?: PredictedPlan,
+  planned?: { plan: Plan; predicted?: PredictedPlan },
 ): TwoStagePlan | undefined {
-  const stage1 = planned ?? planPremix(input, choice, gauges);
-  const key = stageOneKey(choice, stage1);
+  const plan1 = planned?.plan ?? premixPlan(input, choice, gauges);
+  // equal stage-1 plans have equal predictions (the same model on the same readings)
+  const key = stageOneKey(choice, plan1);
   if (seen.has(key)) return undefined;
   seen.add(key);
-  const source = premixSource({
-    id: draft.sourceId,
-    tank: input.premixTank.id,
-    tankVolumeM3: input.premixTank.volumeM3,
-    composition: stage1.composition,
-    unidentified: stage1.unidentifiedFraction,
-    pressurePa: choice.pressurePa,
-    budget: stage1.predicted?.result,
-  });
+  const sourceWith = (budget?: UncertaintyResult) =>
+    premixSource({
+      id: draft.sourceId,
+      tank: input.premixTank.id,
+      tankVolumeM3: input.premixTank.volumeM3,
+      composition: plan1.composition,
+      unidentified: plan1.unidentifiedFraction,
+      pressurePa: choice.pressurePa,
+      budget,
+    });
   // the draft's premix stands in for the premix as stage 1 makes it: same id, the predicted composition
-  const steps = draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s));
-  const unpredicted = { ...draft.plan, steps };
+  const stand = (source: GasSource) => ({
+    ...draft.plan,
+    steps: draft.plan.steps.map((s) => (s.source.id === source.id ? { ...s, source } : s)),
+  });
+  if (mayWin) {
+    // every finding but the predictions' (which only add warnings): enough to see a choice that cannot
+    // win, before either stage is predicted (the delivery does not depend on the premix's budget)
+    const bare = sourceWith();
+    const d = premixDeliveryCheck(stand(bare), bare, input.premixTank, choice.pressurePa);
+    if (!mayWin([...plan1.findings, ...withDeliveryFindings(draft.plan.findings, d.findings)]))
+      return undefined;
+  }
+  const stage1 = planned?.predicted ?? predicted(plan1, input);
+  const source = sourceWith(stage1.predicted?.result);
+  const unpredicted = stand(source);
   const { check, findings } = premixDeliveryCheck(unpredicted, source, input.premixTank, choice.pressurePa);
-  // every finding but the prediction's (which only adds warnings): enough to see a choice that cannot win
-  if (mayWin && !mayWin([...stage1.findings, ...withDeliveryFindings(unpredicted.findings, findings)]))
-    return undefined;
   const stage2 = predicted(unpredicted, input);
   const batch: PredictedPlan = { ...stage2, findings: withDeliveryFindings(stage2.findings, findings) };
   return {
@@ -455,14 +468,15 @@ export function planTwoStage(
       attempt(() => {
         const base = { species: sp, composition: x, matched };
         // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
-        const first = planPremix(
+        const firstPlan = premixPlan(
           input,
           { ...base, pressurePa: pressures[0], gauges: [], order: 'recommended' },
           b.gauges,
         );
+        const first = { plan: firstPlan };
         const draft = planBatchDraft(input, base, {
-          composition: first.composition,
-          unidentified: first.unidentifiedFraction,
+          composition: firstPlan.composition,
+          unidentified: firstPlan.unidentifiedFraction,
           pressurePa: pressures[0],
         });
         // every choice of this composition delivers what the draft's premix charges deliver, to the
