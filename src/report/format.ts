@@ -2,12 +2,17 @@
 import { GIVEN_VOLUME_TANK } from '../core/index.js';
 import { fromPa, type PressureUnit } from './units.js';
 
-/** a fixed number of decimals that keeps about `sig` significant digits */
+/**
+ * a fixed number of decimals that keeps about `sig` significant digits, counted on the printed
+ * value: 0.99999999 and 1.00000001 both print 1.00000 (the magnitude is the rounded value's)
+ */
 export function fixedSig(v: number, sig = 6): string {
   if (v === 0 || !Number.isFinite(v)) return String(v);
+  const decimalsAt = (mag: number) => Math.min(10, Math.max(0, sig - 1 - mag));
   const mag = Math.floor(Math.log10(Math.abs(v)));
-  const decimals = Math.min(10, Math.max(0, sig - 1 - mag));
-  return v.toFixed(decimals);
+  const rounded = Math.abs(Number(v.toFixed(decimalsAt(mag))));
+  const up = rounded > 0 && Math.floor(Math.log10(rounded)) > mag;
+  return v.toFixed(decimalsAt(up ? mag + 1 : mag));
 }
 
 /** decimals that a display resolution supports: 0.01 -> 2 */
