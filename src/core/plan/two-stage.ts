@@ -208,15 +208,20 @@ function replanned(input: TwoStageInput, c: TwoStagePlan): TwoStagePlan {
   return { ...c, batch, delivery: check, worstRatio: worstRatioOf(batch) };
 }
 
+/** the gases a premix is made of: its stage-1 design's species (they name its fills) */
+const premixGases = (choice: Pick<PremixChoice, 'composition'>) =>
+  Object.keys(choice.composition).filter((k) => choice.composition[k] > 0);
+
 function planBatchDraft(
   input: TwoStageInput,
-  choice: Pick<PremixChoice, 'species' | 'matched'>,
+  choice: Pick<PremixChoice, 'species' | 'matched' | 'composition'>,
   premixGas: { composition: Fractions; unidentified: number; pressurePa: number },
 ): BatchDraft {
   const b = input.batch;
   const others = othersThan(input, choice);
   const draft = premixSource({
     id: premixId(input),
+    gases: premixGases(choice),
     tank: input.premixTank.id,
     tankVolumeM3: input.premixTank.volumeM3,
     ...premixGas,
@@ -294,6 +299,7 @@ function planChoice(
   seen.add(key);
   const source = premixSource({
     id: draft.sourceId,
+    gases: premixGases(choice),
     tank: input.premixTank.id,
     tankVolumeM3: input.premixTank.volumeM3,
     composition: stage1.composition,
