@@ -121,7 +121,13 @@ export type Finding = Base &
     | { readonly code: 'n2o-decomposition'; readonly partialPa: number }
     | { readonly code: 'oxygen-service'; readonly source: string }
     | { readonly code: 'oxygen-enriched'; readonly oxygenFraction: number }
-    | { readonly code: 'safer-order'; readonly order: readonly string[]; readonly reason: string }
+    | {
+        readonly code: 'safer-order';
+        readonly order: readonly string[];
+        readonly reason: string;
+        /** whose order it is, when nobody gave it (a premix's own order choice); else "the order given" */
+        readonly of?: string;
+      }
     | ({
         readonly code: 'flammable-fill-path';
         readonly source: string;
@@ -771,8 +777,8 @@ const REACTIVE_GASES: WordingTable<
 
 const ORDER: WordingTable<'safer-order' | 'no-safe-order'> = {
   'safer-order': (f) =>
-    `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} ` +
-    `avoids them (${f.reason})`,
+    `${f.of ?? 'the order given'} makes flammable or hazardous intermediate states or fills; ` +
+    `${f.order.join(' -> ')} avoids them (${f.reason})`,
   'no-safe-order': (f) => f.reason,
 };
 

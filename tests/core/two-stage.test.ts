@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   allStageFindings,
+  describeFinding,
   planTwoStage,
   predictPlan,
   type PredictedPlan,
@@ -111,6 +112,13 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     // its order is the premix choice's, not one the user gave: the reason says why, never "as given"
     expect(precise.premix.orderReason).not.toBe('as given');
     expect(precise.premix.orderReason).toMatch(/^minor gases first/);
+    // nor "recommended", and the safer-order warning names the premix's order, not "the order given"
+    expect(precise.premix.orderRecommended).toBe(false);
+    const safer = precise.premix.findings.filter((f) => f.code === 'safer-order');
+    expect(safer).toHaveLength(1);
+    const words = describeFinding(safer[0], String);
+    expect(words).toMatch(/^the premix's order \(minor gases first: O2 -> Ar\) makes/);
+    expect(words).not.toMatch(/order given/);
   });
 
   it('refuses the batch tank as the premix tank (two-stage-refused, same-tank)', () => {

@@ -261,9 +261,12 @@ function planPremix(input: TwoStageInput, choice: PremixChoice, gauges: readonly
     reading: b.reading,
     tolerance: b.tolerance,
   });
-  // the order is the premix choice's, not the user's: say why, not "as given"
-  const reason = choice.order === 'minor-first' ? MINOR_FIRST_REASON : plan.orderReason;
-  return predicted({ ...plan, orderReason: reason }, input);
+  // the order is the premix choice's, not the user's: say why, not "as given", and name it so in
+  // the safer-order warning; not "recommended" either (orderRecommended false for a given order)
+  if (choice.order !== 'minor-first') return predicted(plan, input);
+  const of = `the premix's order (minor gases first: ${plan.steps.map((s) => s.species).join(' -> ')})`;
+  const findings = plan.findings.map((f) => (f.code === 'safer-order' ? { ...f, of } : f));
+  return predicted({ ...plan, orderReason: MINOR_FIRST_REASON, findings }, input);
 }
 
 /** the order reason of a premix filled minor gases first */
