@@ -234,8 +234,10 @@ export type Finding = Base &
         readonly tolerance: number;
         /** the two-stage batch's worst U / tolerance over its design fractions */
         readonly twoStageWorst: number;
-        /** the command (or option) that plans it */
+        /** the command line that plans it (the recipe or the design options as given, --premix-tank) */
         readonly command: string;
+        /** the codes of the warnings either stage of the proposed plan carries (none: empty) */
+        readonly warnings: readonly string[];
       }
     // raised by the sequence search (plan/search.ts)
     | {

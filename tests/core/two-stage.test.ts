@@ -169,3 +169,27 @@ describe('two-stage search for a proposal (plan without --premix-tank)', () => {
     );
   });
 });
+
+describe('two-stage-proposed wording', () => {
+  const base = {
+    severity: 'note',
+    code: 'two-stage-proposed',
+    premixTank: 'MT-2',
+    premix: '0.12 % O2 in Ar',
+    species: 'O2',
+    singleU: 0.094,
+    twoStageU: 0.0023,
+    tolerance: 0.005,
+    twoStageWorst: 0.45,
+    command: 'mixwright plan r.yaml --premix-tank MT-2',
+  } as const;
+  it('names the warnings the proposed plan carries, before its command', () => {
+    const words = describeFinding({ ...base, warnings: ['safer-order', 'oxygen-compression'] }, String);
+    expect(words).toBe(
+      'a premix of 0.12 % O2 in Ar in MT-2 first would give U of x(O2) 0.23 % instead of 9.4 %; its plan ' +
+        'carries warnings (safer-order, oxygen-compression): read them in the two-stage plan before ' +
+        'choosing it: mixwright plan r.yaml --premix-tank MT-2',
+    );
+    expect(describeFinding({ ...base, warnings: [] }, String)).not.toMatch(/warning/);
+  });
+});
