@@ -21,7 +21,14 @@ import { gaugeConversionWords, isPressureUnit, type PressureUnit } from '../io/q
 import type { Cli } from './context.js';
 import type { PlanMeta } from '../report/plan-json.js';
 import { VERSION } from '../version.js';
-import { mergeOptions, type DesignValues } from './design-options.js';
+import {
+  attributeOf,
+  DESIGN_OPTIONS,
+  mergeOptions,
+  optionName,
+  type DesignValues,
+} from './design-options.js';
+import { shellLine } from '../io/stage-log.js';
 import { parseBarometer } from './numbers.js';
 
 export interface Planned {
@@ -74,9 +81,21 @@ export function stateGaugeConversions(req: PlanRequest, cli: Pick<Cli, 'err'>): 
   for (const c of req.gaugeContext.conversions) cli.err(`mixwright: note: ${gaugeConversionWords(c)}\n`);
 }
 
-/** the command a proposal names: the plan of this recipe file */
-function proposalCommand(recipeFile: string | undefined): string {
-  return recipeFile ? `mixwright plan ${recipeFile}` : 'the same plan command';
+/**
+ * the command a proposal names, runnable as it stands but for the premix tank the proposal adds:
+ * the plan of this recipe file with the design options as given (the order left out: the two-stage
+ * plan chooses it, and refuses one given with a premix tank)
+ */
+function proposalCommand(recipeFile: string | undefined, o: DesignValues): string {
+  const words = ['mixwright', 'plan'];
+  if (recipeFile) words.push(recipeFile);
+  for (const d of DESIGN_OPTIONS) {
+    const v = o[attributeOf(d)];
+    if (v === undefined || d.recipe === 'order' || d.recipe === 'premix.tank' || d.recipe === 'premix.log')
+      continue;
+    words.push(optionName(d), v);
+  }
+  return shellLine(words);
 }
 
 /**
@@ -103,7 +122,7 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues, propos
         ? planFromPremixLog(req, premixAsk, premixRec)
         : planWithPrediction(planFill(req.input), req);
     proposal =
-      two || premixAsk || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile));
+      two || premixAsk || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile, o));
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option;
     // a refused premix log is already pointed at the option or recipe line that named it

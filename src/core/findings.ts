@@ -121,7 +121,13 @@ export type Finding = Base &
     | { readonly code: 'n2o-decomposition'; readonly partialPa: number }
     | { readonly code: 'oxygen-service'; readonly source: string }
     | { readonly code: 'oxygen-enriched'; readonly oxygenFraction: number }
-    | { readonly code: 'safer-order'; readonly order: readonly string[]; readonly reason: string }
+    | {
+        readonly code: 'safer-order';
+        readonly order: readonly string[];
+        readonly reason: string;
+        /** whose order it is, when nobody gave it (a premix's own order choice); else "the order given" */
+        readonly of?: string;
+      }
     | ({
         readonly code: 'flammable-fill-path';
         readonly source: string;
@@ -228,8 +234,10 @@ export type Finding = Base &
         readonly tolerance: number;
         /** the two-stage batch's worst U / tolerance over its design fractions */
         readonly twoStageWorst: number;
-        /** the command (or option) that plans it */
+        /** the command line that plans it (the recipe or the design options as given, --premix-tank) */
         readonly command: string;
+        /** the codes of the warnings either stage of the proposed plan carries (none: empty) */
+        readonly warnings: readonly string[];
       }
     // raised by the sequence search (plan/search.ts)
     | {
@@ -771,8 +779,8 @@ const REACTIVE_GASES: WordingTable<
 
 const ORDER: WordingTable<'safer-order' | 'no-safe-order'> = {
   'safer-order': (f) =>
-    `the order given makes flammable or hazardous intermediate states; ${f.order.join(' -> ')} ` +
-    `avoids them (${f.reason})`,
+    `${f.of ?? 'the order given'} makes flammable or hazardous intermediate states or fills; ` +
+    `${f.order.join(' -> ')} avoids them (${f.reason})`,
   'no-safe-order': (f) => f.reason,
 };
 

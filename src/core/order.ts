@@ -307,6 +307,13 @@ export const CLEAN_CLAIM =
   'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
 
 /**
+ * the opening of the sequence search's comparison of its choice with the advised order (its own
+ * review: intermediate states and fill paths, no tank rating, no finished mixture); the plan's
+ * review (plan/review.ts) adds what the full review of the planned fill finds
+ */
+export const COMPARED_CLAIM = "not less safe than the advised order by the search's review";
+
+/**
  * @param sources the fills, in any order; `amountsMol` the mol each delivers (same order)
  * @param initial gas already in the tank, with its amount on the same scale
  */

@@ -21,6 +21,12 @@ export interface GasSource {
   readonly unidentified: number;
   /** the species the fill is named by: the largest component */
   readonly mainSpecies: string;
+  /**
+   * a premix: the gases it was made to carry (a recipe's listed components, a first stage's design
+   * species), whatever their fraction; they name the fill (fillLabel), so that a premix of 0.12 % O2
+   * in Ar reads "Ar+O2", never "Ar"
+   */
+  readonly gases?: readonly string[];
   /** regulator / cylinder delivery pressure, Pa, when known (a tank's: its pressure before the batch draws) */
   readonly supplyPressurePa?: number;
   /**
@@ -127,6 +133,8 @@ export function premix(args: {
   id: string;
   label?: string;
   composition: Fractions;
+  /** the gases that name it (default: every component given) */
+  gases?: readonly string[];
   supplyPressurePa?: number;
 }): GasSource {
   const entries = Object.entries(args.composition);
@@ -141,6 +149,7 @@ export function premix(args: {
     composition: args.composition,
     unidentified: 0,
     mainSpecies: main,
+    gases: args.gases ?? entries.filter(([, v]) => v > 0).map(([k]) => k),
     supplyPressurePa: args.supplyPressurePa,
   };
 }
@@ -157,10 +166,18 @@ function majorComponents(s: GasSource): [string, number][] {
   return Object.entries(s.composition).filter(([, v]) => v >= MAJOR_COMPONENT_FRACTION);
 }
 
-/** how a fill is named: its gas, or for a premix its major gases ("N2+O2") */
+/**
+ * How a fill is named: its gas, or for a premix every gas it was made to carry, largest first
+ * ("N2+O2"; a premix of 0.12 % O2 in Ar "Ar+O2"), so that its oxidizer or fuel shows on every
+ * line that names the fill (plan, sheet, diagram, guided fill). A premix without `gases`: its
+ * major components. One name for every shell; `--order` accepts it for the premix.
+ */
 export function fillLabel(s: GasSource): string {
   if (s.kind !== 'premix') return s.mainSpecies;
-  return majorComponents(s)
+  const named = s.gases
+    ? s.gases.map((k): [string, number] => [k, s.composition[k] ?? 0])
+    : majorComponents(s);
+  return named
     .sort((a, b) => b[1] - a[1])
     .map(([k]) => k)
     .join('+');

@@ -31,9 +31,13 @@ function coolsLow(f: Of<'premix-cools-low'>, p: PressureFormatter): string {
 }
 
 function proposed(f: Of<'two-stage-proposed'>): string {
+  const warned = f.warnings.length
+    ? `; its plan carries warning${f.warnings.length > 1 ? 's' : ''} (${f.warnings.join(', ')}): ` +
+      `read ${f.warnings.length > 1 ? 'them' : 'it'} in the two-stage plan before choosing it`
+    : '';
   return (
     `a premix of ${f.premix} in ${f.premixTank} first would give U of x(${f.species}) ` +
-    `${rel(f.twoStageU)} instead of ${rel(f.singleU)}: ${f.command}`
+    `${rel(f.twoStageU)} instead of ${rel(f.singleU)}${warned}: ${f.command}`
   );
 }
 

@@ -117,6 +117,7 @@ export function readPremixLog(
   const source = premixSource({
     id: premixIdOf(tank.id),
     tank: tank.id,
+    gases: Object.keys(h.design.composition).filter((k) => (h.design.composition[k] ?? 0) > 0),
     composition,
     unidentified: result.unidentified,
     pressurePa: last.pressure_Pa,

@@ -141,5 +141,12 @@ export function twoStageProposal(
     tolerance: worst.tolerance / worst.design,
     twoStageWorst: best.worstRatio,
     command: `${command} --premix-tank ${best.premix.tank.id}`,
+    warnings: [
+      ...new Set(
+        [...best.premix.findings, ...best.batch.findings]
+          .filter((f) => f.severity === 'warning')
+          .map((f) => f.code),
+      ),
+    ],
   };
 }

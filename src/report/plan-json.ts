@@ -95,6 +95,8 @@ function stepJson(s: PlanStep) {
     species: s.species,
     source: s.source.id,
     source_kind: s.source.kind,
+    // the gases the source delivers, mole fractions (a premix: every gas, `species` names them all)
+    source_composition: s.source.composition,
     // charge `number` of the `of` charges of this source (1 of 1 unless the source is split)
     charge: { number: s.charge.number, of: s.charge.of },
     target_Pa: s.targetPa,

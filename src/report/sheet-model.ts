@@ -51,6 +51,34 @@ export interface SheetRow {
   readonly chargeNote?: string;
   /** a reading to take and tick before this fill, printed as its own row of the Fills table above it */
   readonly check?: SheetCheck;
+  /**
+   * the dangers and warnings of the plan that concern this fill (its path, the gas it compresses, its
+   * state: "throttle this fill"), printed above its row as well as in the findings
+   */
+  readonly cautions: readonly SheetCaution[];
+}
+
+/** a danger or warning of one fill, as its row carries it */
+export interface SheetCaution {
+  readonly severity: 'danger' | 'warning';
+  readonly code: string;
+  readonly message: string;
+}
+
+/**
+ * Findings of one fill that the row carries: dangers and warnings with that fill's step; not the
+ * prediction's U over tolerance (a property of the finished batch, said with the uncertainty)
+ */
+export function fillCautions(plan: Plan, step: number, unit: PressureUnit): SheetCaution[] {
+  const out: SheetCaution[] = [];
+  for (const f of plan.findings)
+    if (f.step === step && f.severity !== 'note' && f.code !== 'predicted-u-over-tolerance')
+      out.push({
+        severity: f.severity,
+        code: f.code,
+        message: describeFinding(f, (pa) => pressure(pa, unit, 5)),
+      });
+  return out.sort((a, b) => SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity));
 }
 
 /**
@@ -393,6 +421,7 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),
     before: s.isolateBefore.map((g) => `close off ${g.id} (reads only up to ${P(g.topPa)})`),
+    cautions: fillCautions(plan, s.index, meta.unit),
     ...(isSplit(s.charge)
       ? {
           charge: { number: s.charge.number, of: s.charge.of },

@@ -100,6 +100,13 @@ export function sheetToHtml(m: SheetModel): string {
       const before = r.before.length
         ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
         : '';
+      const cautions = r.cautions
+        .map(
+          (c) =>
+            `<tr class="before caution" data-fill="${r.n}"><td colspan="9">Fill ${r.n}: ` +
+            `${c.severity.toUpperCase()} ${esc(c.code)}: ${esc(c.message)}</td></tr>`,
+        )
+        .join('');
       const check = r.check ? checkRowHtml(r.check) : '';
       const charge = r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : '';
       const note = r.chargeNote
@@ -108,7 +115,7 @@ export function sheetToHtml(m: SheetModel): string {
       // a band finer than the display step is said in words, which may wrap
       const band = r.band.startsWith('+-') ? '<td>' : '<td class="band">';
       return (
-        `${before}${check}<tr><td>${r.n}</td><td class="gas"><b>${esc(r.fill)}</b>${esc(charge)}` +
+        `${before}${cautions}${check}<tr><td>${r.n}</td><td class="gas"><b>${esc(r.fill)}</b>${esc(charge)}` +
         `<br><span class="unit">${esc(r.source)}</span></td>${gaugeCell(r.gauge, r.reference)}` +
         `<td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td>${band}` +
         `${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td>${BLANKS}</tr>${note}`
@@ -210,6 +217,11 @@ export function sheetToMarkdown(m: SheetModel): string {
   );
   for (const r of m.rows) {
     for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
+    for (const c of r.cautions)
+      out.push(
+        `| | **fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}:** ${c.message.replace(/\|/g, '\\|')} ` +
+          '| | | | | | | |',
+      );
     const c = r.check;
     if (c)
       out.push(
@@ -315,6 +327,8 @@ export function sheetToText(m: SheetModel): string {
   let k = 1;
   m.rows.forEach((r, i) => {
     for (const b of r.before) out.push(`  >> before fill ${r.n}: ${b}`);
+    for (const c of r.cautions)
+      out.push(`  >> fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}: ${c.message}`);
     if (r.check) out.push(`  ${table[k++]}`, `     ^ ${r.check.note}`);
     out.push(`  ${table[checks + i + 1]}`);
     if (r.chargeNote) out.push(`     ^ fill ${r.n}: ${r.chargeNote}`);

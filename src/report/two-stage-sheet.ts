@@ -349,7 +349,7 @@ export function stageSheets(plan: Plan, meta: SheetMeta, build: Build): SheetMod
       title: `Stage 1 of 2: premix in ${tankName(t.premix.tank.id)} for ${title}`,
     },
     batchId: meta.batchId ? `${meta.batchId}-premix` : undefined,
-    orderRecommended: true,
+    orderRecommended: t.premix.orderRecommended,
     // the premix tank's own mixing time (from the lab profile), said as what stage 2 waits for
     mixing: undefined,
     premixFor: stage2.batchId,

@@ -21,12 +21,13 @@ function premixName(t: TwoStage): string {
 }
 
 /** the stage-1 meta: the batch's, without the experiment count (the premix serves the batch) */
-function premixMeta(meta: PlanMeta): PlanMeta {
+function premixMeta(meta: PlanMeta, t: TwoStage): PlanMeta {
   return {
     ...meta,
     recipeId: `${meta.recipeId} (stage 1: premix)`,
     experiments: undefined,
-    orderRecommended: true,
+    // the premix's order choice: recommended by the planner, or minor gases first (not a recommendation)
+    orderRecommended: t.premix.orderRecommended,
   };
 }
 
@@ -69,7 +70,7 @@ export function twoStageHead(
     ...alt,
     '',
     `=== Stage 1 of 2: premix in ${tankName(t.premix.tank.id)} ===`,
-    render(t.premix, premixMeta(meta), unit).trimEnd(),
+    render(t.premix, premixMeta(meta, t), unit).trimEnd(),
     '',
     `=== Stage 2 of 2: the batch in ${tankName(plan.tank.id)}, from the premix ===`,
   ];
@@ -147,7 +148,7 @@ export function twoStageJson(
         }
       : null,
     stages: [
-      { stage: 1, role: 'premix', ...render(t.premix, premixMeta(meta), unit) },
+      { stage: 1, role: 'premix', ...render(t.premix, premixMeta(meta, t), unit) },
       { stage: 2, role: 'batch', ...render(batch, meta, unit) },
     ],
   };

@@ -84,7 +84,25 @@ describe('mixwright plan --premix-tank', () => {
     // the single tank's best safe sequence (split Ar) is still over the 0.5 % tolerance
     expect(f.single_u).toBeGreaterThan(0.005);
     expect(f.message).toContain('--premix-tank MT-2');
+    // the demo's proposed premix (13.4 % O2, Ar -> O2) carries no warning, and the note says none
+    expect(f.warnings).toEqual([]);
+    expect(f.message).not.toMatch(/carries warning/);
   });
+
+  it('a proposal from inline options names a runnable command: the options as given, --premix-tank added', async () => {
+    const opts = ['--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.98'];
+    const where = ['--tank', 'MT-1', '--pressure', '1500 Torr', '--temperature', '25 degC'];
+    const j = JSON.parse((await runCli(['plan', ...opts, ...where, '--json'])).stdout);
+    const f = j.two_stage_proposal;
+    expect(f.command).toBe(
+      `mixwright plan ${opts.join(' ')} --tank MT-1 --pressure '1500 Torr' --temperature '25 degC' --premix-tank MT-2`,
+    );
+    // and it plans the two stages
+    const two = JSON.parse(
+      (await runCli(['plan', ...opts, ...where, '--premix-tank', 'MT-2', '--json'])).stdout,
+    );
+    expect(two.two_stage).not.toBeNull();
+  }, 120_000);
 
   it('an unknown premix tank, or the batch tank itself, is refused with exit 2', async () => {
     const unknown = await runCli(['plan', RECIPE, '--premix-tank', 'MT-9']);

@@ -70,6 +70,7 @@ describe('a gauge shared by the premix stage and the batch stage is one input (h
     premixSource({
       id: 'premix-MT-2',
       tank: 'MT-2',
+      gases: ['O2', 'Ar'],
       composition: Object.fromEntries(stage1.species.map((k) => [k, stage1.composition[k].value])),
       unidentified: stage1.unidentified,
       pressurePa: 2000 * TORR,

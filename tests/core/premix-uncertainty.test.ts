@@ -51,6 +51,7 @@ const premixOf = (terms?: readonly CompositionTerm[]): GasSource => ({
   ...premixSource({
     id: 'PM',
     tank: 'T2',
+    gases: ['O2', 'Ar'],
     composition: { O2: 0.05, Ar: 0.95 },
     unidentified: 0,
     pressurePa: 4e5,

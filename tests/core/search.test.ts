@@ -187,8 +187,30 @@ describe('sequence search', () => {
     // the reason says what it compared, not "as safe" over a sum of unlike findings
     expect(searched.orderReason).not.toMatch(/as safe as the advised order \(/);
     expect(searched.orderReason).toMatch(
-      /hazards of the tank states and fill paths 0 danger, 0 warning, 0 note/,
+      /hazards of the intermediate tank states and fill paths 0 danger, 0 warning, 0 note/,
     );
+  }, 120_000);
+
+  it("the Order line of a searched sequence names every tank-over-rating of the plan's findings", () => {
+    // H2/O2 phi 1 in 98 % Ar to 3000 Torr in a tank rated 3000 Torr (working limit 90 %), H2 at a
+    // regulator of 3000 Torr: the search compares its sequences by the gas's hazards and the supply
+    // (one supply danger each, so its reason is the comparison), the tank's rating is the plan's
+    const base = phiInput({ fuel: 'H2', diluent: 'Ar', phi: 1, dilution: 0.98, finalTorr: 3000, order: [] });
+    const supplyPa: Record<string, number> = { H2: 3000 * TORR, O2: 1e7, Ar: 1e7 };
+    const input: PlanInput = {
+      ...base,
+      temperatureK: 295.15,
+      tank: { ...base.tank, ratedPressurePa: 3000 * TORR, workingFraction: 0.9 },
+      sources: ['H2', 'O2', 'Ar'].map((k) =>
+        pureCylinder({ id: `cyl-${k}`, species: k, purity: 1, supplyPressurePa: supplyPa[k] }),
+      ),
+    };
+    const plan = planFill({ ...input, thermometer: THERMO });
+    const over = plan.findings.filter((f) => f.code === 'tank-over-rating');
+    // the final state is over the working limit whatever the order (2700 Torr < 3000 Torr)
+    expect(over.length).toBeGreaterThan(0);
+    expect(plan.orderReason).toMatch(/tank-over-rating \(fills? [0-9, ]+\)/);
+    for (const f of over) expect(plan.orderReason).toContain(`${f.step}`);
   }, 120_000);
 
   it('sequence-chosen on the same reading as the advised order says so, not "X instead of Y (read at X)"', () => {

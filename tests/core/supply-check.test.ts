@@ -67,6 +67,7 @@ describe('a premix tank: the plan judges its falling pressure as the final deliv
     premixSource({
       id: 'premix-PT',
       tank: 'PT',
+      gases: ['CH4', 'Ar'],
       composition: { CH4: 0.1, Ar: 0.9 },
       unidentified: 0,
       pressurePa: startPa,

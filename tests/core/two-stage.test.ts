@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   allStageFindings,
+  describeFinding,
   planTwoStage,
   predictPlan,
   type PredictedPlan,
@@ -111,6 +112,13 @@ describe('two-stage demo: ch4-o2-ar-phi1 with a premix in MT-2', () => {
     // its order is the premix choice's, not one the user gave: the reason says why, never "as given"
     expect(precise.premix.orderReason).not.toBe('as given');
     expect(precise.premix.orderReason).toMatch(/^minor gases first/);
+    // nor "recommended", and the safer-order warning names the premix's order, not "the order given"
+    expect(precise.premix.orderRecommended).toBe(false);
+    const safer = precise.premix.findings.filter((f) => f.code === 'safer-order');
+    expect(safer).toHaveLength(1);
+    const words = describeFinding(safer[0], String);
+    expect(words).toMatch(/^the premix's order \(minor gases first: O2 -> Ar\) makes/);
+    expect(words).not.toMatch(/order given/);
   });
 
   it('refuses the batch tank as the premix tank (two-stage-refused, same-tank)', () => {
@@ -159,5 +167,29 @@ describe('two-stage search for a proposal (plan without --premix-tank)', () => {
     expect(() => planTwoStage({ batch: five.input, premixTank: mt1, thermometer }, 'proposal')).toThrow(
       /two-stage-refused/,
     );
+  });
+});
+
+describe('two-stage-proposed wording', () => {
+  const base = {
+    severity: 'note',
+    code: 'two-stage-proposed',
+    premixTank: 'MT-2',
+    premix: '0.12 % O2 in Ar',
+    species: 'O2',
+    singleU: 0.094,
+    twoStageU: 0.0023,
+    tolerance: 0.005,
+    twoStageWorst: 0.45,
+    command: 'mixwright plan r.yaml --premix-tank MT-2',
+  } as const;
+  it('names the warnings the proposed plan carries, before its command', () => {
+    const words = describeFinding({ ...base, warnings: ['safer-order', 'oxygen-compression'] }, String);
+    expect(words).toBe(
+      'a premix of 0.12 % O2 in Ar in MT-2 first would give U of x(O2) 0.23 % instead of 9.4 %; its plan ' +
+        'carries warnings (safer-order, oxygen-compression): read them in the two-stage plan before ' +
+        'choosing it: mixwright plan r.yaml --premix-tank MT-2',
+    );
+    expect(describeFinding({ ...base, warnings: [] }, String)).not.toMatch(/warning/);
   });
 });

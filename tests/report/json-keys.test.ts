@@ -21,6 +21,7 @@ const SPECIES_MAPS = new Set([
   'composition',
   'filled_composition',
   'composition_after',
+  'source_composition',
   'fuel',
   'oxidizer',
   'diluent',

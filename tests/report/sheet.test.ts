@@ -94,6 +94,43 @@ describe('renderings of the demo sheet', () => {
     });
     expect(sheetToText(m)).toContain('*** DANGER findings stand');
   });
+
+  it("a fill's own warning is on its row (html, md, text), not only in the findings at the end", () => {
+    // O2 first, then Ar onto it: the review warns of the compression of oxygen at fill 2
+    // (safety.test.ts checks the temperature against its reference); the sheet must say it at fill 2
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const by = (k: string) => req.input.sources.find((s) => s.mainSpecies === k)!;
+    const plan = planFill({ ...req.input, order: 'given', sources: [by('O2'), by('Ar'), by('CH4')] });
+    const m = buildSheetModel(plan, {
+      recipe: req.recipe,
+      labName: req.lab.name,
+      orderRecommended: false,
+      unit: 'Torr',
+      batchId: 'x',
+      version: 'test',
+      paper: 'a4',
+    });
+    const own = plan.findings.filter((f) => f.step !== undefined && f.severity !== 'note');
+    expect(own.map((f) => [f.code, f.step])).toContainEqual(['oxygen-compression', 2]);
+    for (const f of own) {
+      const row = m.rows.find((r) => r.n === f.step)!;
+      expect(row.cautions.map((c) => c.code)).toContain(f.code);
+    }
+    // the other rows carry none of it
+    expect(m.rows.filter((r) => r.n !== 2).flatMap((r) => r.cautions.map((c) => c.code))).not.toContain(
+      'oxygen-compression',
+    );
+    const html = sheetToHtml(m);
+    const at = html.indexOf('Fill 2: WARNING oxygen-compression: this fill compresses oxygen-rich gas');
+    // above fill 2's own row, after fill 1's
+    expect(at).toBeGreaterThan(html.indexOf('<tr><td>1</td>'));
+    expect(at).toBeLessThan(html.indexOf('<tr><td>2</td>'));
+    expect(html.slice(at, html.indexOf('</tr>', at))).toContain('throttle this fill');
+    expect(sheetToMarkdown(m)).toMatch(
+      /\| \| \*\*fill 2: WARNING oxygen-compression:\*\* this fill compresses/,
+    );
+    expect(sheetToText(m)).toContain('  >> fill 2: WARNING oxygen-compression: this fill compresses');
+  });
 });
 
 describe('mixwright sheet', () => {

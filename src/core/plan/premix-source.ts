@@ -49,6 +49,8 @@ export interface PremixSourceArgs {
   readonly tank: string;
   /** mole fractions of the identified species (summing to 1) */
   readonly composition: Fractions;
+  /** the gases the premix was made of (its design's species): they name its fills (fillLabel) */
+  readonly gases: readonly string[];
   /** share of the premix that is unidentified cylinder impurity */
   readonly unidentified: number;
   /** the premix tank's pressure before the batch draws from it, Pa absolute */
@@ -66,7 +68,12 @@ export interface PremixSourceArgs {
 
 /** the premix as a source: identified composition scaled to 1 - unidentified, its uncertainty as terms */
 export function premixSource(a: PremixSourceArgs): GasSource {
-  const base = premix({ id: a.id, composition: a.composition, supplyPressurePa: a.pressurePa });
+  const base = premix({
+    id: a.id,
+    composition: a.composition,
+    gases: a.gases,
+    supplyPressurePa: a.pressurePa,
+  });
   const keep = 1 - a.unidentified;
   const composition = Object.fromEntries(Object.entries(a.composition).map(([k, v]) => [k, v * keep]));
   return {

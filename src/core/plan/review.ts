@@ -10,7 +10,7 @@ import { R } from '../constants.js';
 import type { VirialModel } from '../mixture-eos.js';
 import { virialU } from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
-import { CLEAN_CLAIM, ORDER_RELEVANT } from '../order.js';
+import { CLEAN_CLAIM, COMPARED_CLAIM, ORDER_RELEVANT } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
 import { ProblemError } from '../problems.js';
@@ -157,11 +157,21 @@ export function safetyClause(findings: readonly Finding[], lastStep: number): st
 /**
  * The sequence's reason claims CLEAN_CLAIM from the advice's or the search's review (at ideal-gas
  * or searched pressures, intermediate states only); the claim is replaced by what the plan's own
- * final findings say (safetyClause).
+ * final findings say (safetyClause). A search's comparison with the advised order (COMPARED_CLAIM,
+ * counts of its own review, which leaves out the tank's rating and the finished mixture) is
+ * followed by what the full review finds, so that the line never reads 0 dangers beside a
+ * tank-over-rating in the findings.
  */
-function correctedReason(reason: string, findings: readonly Finding[], steps: readonly PlanStep[]): string {
-  if (!reason.includes(CLEAN_CLAIM) || !steps.length) return reason;
-  return reason.replace(CLEAN_CLAIM, safetyClause(findings, steps[steps.length - 1].index));
+export function correctedReason(
+  reason: string,
+  findings: readonly Finding[],
+  steps: readonly PlanStep[],
+): string {
+  if (!steps.length) return reason;
+  const clause = safetyClause(findings, steps[steps.length - 1].index);
+  if (reason.includes(CLEAN_CLAIM)) return reason.replace(CLEAN_CLAIM, clause);
+  if (reason.includes(COMPARED_CLAIM) && clause !== CLEAN_CLAIM) return `${reason}; ${clause}`;
+  return reason;
 }
 
 /** assumed purities, unidentified remainders, impurities, and fractions the sources cannot meet */

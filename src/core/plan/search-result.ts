@@ -4,7 +4,7 @@
  * the table's units): why the chosen sequence won, and a more precise option that is not
  * recommended because of its hazard.
  */
-import { CLEAN_CLAIM, type OrderAdvice } from '../order.js';
+import { CLEAN_CLAIM, COMPARED_CLAIM, type OrderAdvice } from '../order.js';
 import { hazardRank } from '../supply-check.js';
 import type { Finding } from '../findings.js';
 import { fillLabel } from '../supply.js';
@@ -98,14 +98,17 @@ export function optionFinding(ev: Evaluated, toleranceRelative: number): Finding
 }
 
 /**
- * what the search compared (hazardRank, supply-check.ts): the hazards of the tank states and fill
- * paths, then the supply's findings, the chosen sequence's beside the advised order's
+ * what the search compared (hazardRank, supply-check.ts): the hazards of the intermediate tank
+ * states and fill paths, then the supply's findings, the chosen sequence's beside the advised
+ * order's. The tank's rating and the finished mixture are the same for every sequence and not
+ * counted here: the plan's review adds what its full review finds (review.ts correctedReason).
  */
 function comparedSafety(win: Evaluated, base: Evaluated): string {
   const [w, b] = [hazardRank(win.safety.hazards), hazardRank(base.safety.hazards)];
   return (
-    `not less safe than the advised order by the search's review: hazards of the tank states and ` +
-    `fill paths ${w[0]} danger, ${w[1]} warning, ${w[2]} note (the advised order: ${b[0]}, ${b[1]}, ${b[2]}); ` +
+    `${COMPARED_CLAIM} (of the gas, not the tank's rating): hazards of the intermediate tank states and ` +
+    `fill paths ` +
+    `${w[0]} danger, ${w[1]} warning, ${w[2]} note (the advised order: ${b[0]}, ${b[1]}, ${b[2]}); ` +
     `supply findings ${w[3]} danger, ${w[4]} warning (the advised order: ${b[3]}, ${b[4]})`
   );
 }

@@ -209,15 +209,20 @@ function replanned(input: TwoStageInput, c: TwoStagePlan): TwoStagePlan {
   return { ...c, batch, delivery: check, worstRatio: worstRatioOf(batch) };
 }
 
+/** the gases a premix is made of: its stage-1 design's species (they name its fills) */
+const premixGases = (choice: Pick<PremixChoice, 'composition'>) =>
+  Object.keys(choice.composition).filter((k) => choice.composition[k] > 0);
+
 function planBatchDraft(
   input: TwoStageInput,
-  choice: Pick<PremixChoice, 'species' | 'matched'>,
+  choice: Pick<PremixChoice, 'species' | 'matched' | 'composition'>,
   premixGas: { composition: Fractions; unidentified: number; pressurePa: number },
 ): BatchDraft {
   const b = input.batch;
   const others = othersThan(input, choice);
   const draft = premixSource({
     id: premixId(input),
+    gases: premixGases(choice),
     tank: input.premixTank.id,
     tankVolumeM3: input.premixTank.volumeM3,
     ...premixGas,
@@ -257,9 +262,12 @@ function premixPlan(input: TwoStageInput, choice: PremixChoice, gauges: readonly
     reading: b.reading,
     tolerance: b.tolerance,
   });
-  // the order is the premix choice's, not the user's: say why, not "as given"
-  const reason = choice.order === 'minor-first' ? MINOR_FIRST_REASON : plan.orderReason;
-  return { ...plan, orderReason: reason };
+  // the order is the premix choice's, not the user's: say why, not "as given", and name it so in
+  // the safer-order warning; not "recommended" either (orderRecommended false for a given order)
+  if (choice.order !== 'minor-first') return plan;
+  const of = `the premix's order (minor gases first: ${plan.steps.map((s) => s.species).join(' -> ')})`;
+  const findings = plan.findings.map((f) => (f.code === 'safer-order' ? { ...f, of } : f));
+  return { ...plan, orderReason: MINOR_FIRST_REASON, findings };
 }
 
 /** the order reason of a premix filled minor gases first */
@@ -297,6 +305,7 @@ function planChoice(
   const sourceWith = (budget?: UncertaintyResult) =>
     premixSource({
       id: draft.sourceId,
+      gases: premixGases(choice),
       tank: input.premixTank.id,
       tankVolumeM3: input.premixTank.volumeM3,
       composition: plan1.composition,
