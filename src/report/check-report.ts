@@ -698,6 +698,16 @@ export function checkToJson(r: CheckReport, version: string): object {
 }
 
 /**
+ * what the numbers of a row led by an altered record give, in words that are no judgement of the
+ * batch: never the bare "pass" or "pass-uncertain" in a row that is not a pass
+ */
+const NUMBERS_ALONE: Readonly<Record<string, string>> = {
+  pass: 'every design fraction within tolerance, uncertainty included',
+  'pass-uncertain': 'within tolerance, the 95 % uncertainty of some fraction reaching past it',
+  'no-design': 'no design to compare with',
+};
+
+/**
  * the composition's judgement in the folder summary: a pass only when nothing beside it stands
  * against one (the marks after it say what does)
  */
@@ -732,7 +742,7 @@ export function folderSummary(
       stageCell(rep),
       (alteredLeads(rep)
         ? `RECORD ALTERED AFTER WRITING (${linesText(rep.record?.alteredLines ?? [])}) - not a pass; ` +
-          `on the numbers as they stand: ${rep.verdict.verdict}`
+          `the numbers alone: ${NUMBERS_ALONE[rep.verdict.verdict] ?? rep.verdict.verdict}`
         : rep.incomplete.length
           ? 'incomplete'
           : compositionCell(rep)) +
