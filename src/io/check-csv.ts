@@ -338,6 +338,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     },
     [],
     b.plannedOrder,
+    b.planDangers,
   );
   return {
     file,

@@ -29,7 +29,8 @@ function acceptedIn(f: Finding, acks: readonly LogAck[]): boolean {
 
 /**
  * The review of the fill as recorded. `acks`: the log's acknowledgements (none for CSV readings);
- * `plannedOrder`: the sources in the plan's order, to say when the record filled in another.
+ * `plannedOrder`: the sources in the plan's order, to say when the record filled in another;
+ * `planUnacked`: the plan's dangers the record shows nobody acknowledged (said as such, not again).
  */
 export function recordedFillOf(
   readings: readonly CheckedReading[],
@@ -37,6 +38,7 @@ export function recordedFillOf(
   safety: Omit<SafetyContext, 'temperatureK'>,
   acks: readonly LogAck[],
   plannedOrder?: readonly string[],
+  planUnacked: readonly PlanDanger[] = [],
 ): { recordedFill: RecordedFill; dangers: PlanDanger[] } {
   const review = reviewRecordedFill({ readings, initial, safety });
   // an unknown rating is said by check's own warning of the limits not checked (in check's words)
@@ -48,11 +50,14 @@ export function recordedFillOf(
     message: describeFinding(f, (pa) => `${(pa / TORR_PA).toPrecision(6)} Torr`),
     accepted: acceptedIn(f, acks),
   }));
+  // a danger the plan had and nobody acknowledged is said once, as PLAN DANGER NOT ACKNOWLEDGED (by code,
+  // as that is matched); the finding stays listed with the recorded fill's
   const dangers: PlanDanger[] = [];
   for (const f of findings)
     if (
       f.severity === 'danger' &&
       !f.accepted &&
+      !planUnacked.some((d) => d.code === f.code) &&
       !dangers.some((d) => d.code === f.code && d.step === f.step)
     )
       dangers.push({ code: f.code, step: f.step });

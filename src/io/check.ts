@@ -217,6 +217,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
     },
     log.acknowledgements,
     h.steps.map((s) => s.source),
+    unacknowledged,
   );
   const tolerance = h.tolerance;
   const verdict = missingSteps.length
