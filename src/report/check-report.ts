@@ -676,6 +676,22 @@ function verdictJson(r: CheckReport) {
   };
 }
 
+/** the review of the fill as recorded, as `check --json` gives it (null where there is none) */
+function recordedFillJson(r: CheckReport) {
+  const f = r.recordedFill;
+  if (!f) return null;
+  return {
+    order: f.order,
+    planned_order: f.plannedOrder ?? null,
+    // "order": the sources first filled in another order than the plan's; "charges": in its order,
+    // in other charges; false: as planned; null: no plan to compare with
+    order_differs: f.plannedOrder === undefined ? null : (orderDifference(f) ?? false),
+    temperature_K: f.temperatureK,
+    findings: f.findings,
+    notes: f.notes,
+  };
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -725,19 +741,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
     plan_dangers_not_acknowledged: r.planDangersNotAcknowledged ?? [],
-    recorded_fill: r.recordedFill
-      ? {
-          order: r.recordedFill.order,
-          planned_order: r.recordedFill.plannedOrder ?? null,
-          // "order": the sources first filled in another order than the plan's; "charges": in its order,
-          // in other charges; false: as planned; null: no plan to compare with
-          order_differs:
-            r.recordedFill.plannedOrder === undefined ? null : (orderDifference(r.recordedFill) ?? false),
-          temperature_K: r.recordedFill.temperatureK,
-          findings: r.recordedFill.findings,
-          notes: r.recordedFill.notes,
-        }
-      : null,
+    recorded_fill: recordedFillJson(r),
     recorded_fill_dangers_not_accepted: r.recordedFillDangers ?? [],
     premix_checks: premixChecksJson(r),
     stage: stageJson(r),

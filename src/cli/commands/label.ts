@@ -139,7 +139,8 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
             : model.label.outcome === 'recorded-fill-danger'
               ? `mixwright: ${target}: the fill as recorded went through a danger the log does not show ` +
                 'accepted; the label says DANGER IN THE RECORDED FILL and shows no pass\n'
-              : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
+              : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; ` +
+                'the label lists them\n',
     );
     throw new ExitSignal(code);
   }
