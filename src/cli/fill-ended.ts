@@ -17,6 +17,8 @@ export interface FillOutcome {
   record?: { readonly alteredLines: readonly number[]; readonly acceptedHazards?: readonly unknown[] };
   /** danger findings of the plan that the log records no acknowledgement of */
   planDangersNotAcknowledged?: readonly unknown[];
+  /** dangers of the review of the fill as recorded that the log does not show accepted */
+  recordedFillDangers?: readonly unknown[];
 }
 
 /** what the exit code means, on stderr, for each code but 0 */
@@ -31,6 +33,12 @@ function why(code: number, logFile: string, r: FillOutcome): string {
         `tank as fit until it is inspected; ${see}`
       );
     case EXIT.acceptedHazard:
+      if (r.recordedFillDangers?.length && !r.planDangersNotAcknowledged?.length)
+        return (
+          `DANGER IN THE RECORDED FILL: the fill as logged went through a danger of the planner's review ` +
+          `that the log does not show accepted: not a pass; have the fill reviewed before the tank is ` +
+          `used; ${see}`
+        );
       if (r.planDangersNotAcknowledged?.length && !r.record?.acceptedHazards?.length)
         return (
           `PLAN DANGER NOT ACKNOWLEDGED: the plan's danger findings have no acknowledgement in the log; ` +
@@ -68,6 +76,7 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
     findings: r.danger ? [{ severity: 'danger' }] : [],
     record: r.record,
     planDangersNotAcknowledged: r.planDangersNotAcknowledged,
+    recordedFillDangers: r.recordedFillDangers,
   });
   if (code === EXIT.ok) return;
   cli.err(`mixwright: ${logFile}: ${why(code, logFile, r)}\n`);

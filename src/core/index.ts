@@ -270,3 +270,10 @@ export { hazardKey, isSequenceHazard, reviewRemainder } from './remainder-review
 export type { PlannedFinding, RemainderReview, RemainderReviewInput, SaferStop } from './remainder-review.js';
 export { roundUpToGrid } from './reading-grid.js';
 export type { ReadingGrid } from './reading-grid.js';
+export { recordedStates, reviewRecordedFill } from './recorded-review.js';
+export type {
+  RecordedFillInput,
+  RecordedFillReview,
+  RecordedReading,
+  RecordedState,
+} from './recorded-review.js';

@@ -558,6 +558,7 @@ type FileProblemCode =
   | 'number-too-large'
   | 'usage'
   | 'option-repeated'
+  | 'option-value-missing'
   | 'options-exclusive'
   | 'options-missing'
   | 'format-unknown'
@@ -671,9 +672,13 @@ function describeFileProblem(p: Extract<Problem, { code: FileProblemCode | Recip
     case 'usage':
       return p.text;
     case 'option-repeated':
+      return p.first === undefined
+        ? `${p.option} is given twice; give it once`
+        : `${p.option} is given twice ("${p.first}" and "${p.second}"); give it once, with the value you mean`;
+    case 'option-value-missing':
       return (
-        `${p.option} is given twice ("${p.first}" and "${p.second}"); give it once, ` +
-        `with the value you mean`
+        `${p.option} needs ${p.needs}; got the option ${p.got} (the value of ${p.option} is missing: ` +
+        `give it right after ${p.option})`
       );
     case 'options-exclusive':
       return (

@@ -197,12 +197,21 @@ export type Problem =
    * outside an option's choices): `text` as the parser words it, e.g. "unknown option '--bogus'"
    */
   | { readonly code: 'usage'; readonly text: string }
-  /** a value option given twice, e.g. --phi 1 --phi 0.5 */
+  /** an option given twice, e.g. --phi 1 --phi 0.5 (values), or --json --json (a flag: no values) */
   | {
       readonly code: 'option-repeated';
       readonly option: string;
-      readonly first: string;
-      readonly second: string;
+      readonly first?: string;
+      readonly second?: string;
+    }
+  /** a value option whose value is another of the command's options: `--recipe --json` */
+  | {
+      readonly code: 'option-value-missing';
+      readonly option: string;
+      /** what the option takes, e.g. "a file" */
+      readonly needs: string;
+      /** the option found where the value belongs */
+      readonly got: string;
     }
   /** explicit fractions together with a phi design */
   | { readonly code: 'options-exclusive'; readonly option: string; readonly others: readonly string[] }

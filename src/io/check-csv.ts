@@ -34,6 +34,7 @@ import {
   type CheckReport,
 } from './check-shared.js';
 import type { PlanDanger } from '../report/check-types.js';
+import { recordedFillOf } from './check-recorded.js';
 import { premixLogReport, readPremixLog, refuseNotThePremix, type PremixRecord } from './premix-check.js';
 import { resolve } from 'node:path';
 
@@ -64,6 +65,10 @@ interface CsvBasis {
   readonly premix?: PremixRecord;
   /** the danger findings of the recipe's plan: CSV readings record no acknowledgement of them */
   readonly planDangers?: readonly PlanDanger[];
+  /** the recipe's safety-review settings (coldest wall, condensation fraction) */
+  readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
+  /** the sources in the order of the recipe's plan */
+  readonly plannedOrder?: readonly string[];
 }
 
 function tankOf(t: TankSpec, from: CsvTank['from']): CsvTank {
@@ -139,6 +144,8 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
     warnings,
     premix,
     planDangers,
+    safety: req.input.safety,
+    plannedOrder: plan.steps.map((s) => s.source.id),
   };
 }
 
@@ -319,6 +326,20 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   if (unchecked) warnings.push(unchecked);
   const found = csvLimitFindings(rows, readings, b.tank, ctx.barometricPa);
   const findings = found.map((f) => ({ ...f, message: describeLogFinding(f) }));
+  // the fill as recorded, by the planner's own safety review: a CSV records no acceptance of a danger
+  const recorded = recordedFillOf(
+    readings,
+    undefined,
+    {
+      tankId: b.tank?.id ?? '(not known)',
+      workingLimitPa: b.tank?.limitPa,
+      coldestK: b.safety?.coldestK,
+      condensationFraction: b.safety?.condensationFraction,
+    },
+    [],
+    b.plannedOrder,
+    b.planDangers,
+  );
   return {
     file,
     id: b.id,
@@ -340,11 +361,16 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     tank: b.tank
       ? { id: b.tank.id, ratedPa: b.tank.ratedPa, limitPa: b.tank.limitPa, from: b.tank.from }
       : undefined,
-    caveats: verdictCaveats(findings, 'recorded reading', [], {
-      dangers: b.planDangers ?? [],
-      recipe: opts.recipeFile,
-    }),
+    caveats: verdictCaveats(
+      findings,
+      'recorded reading',
+      [],
+      { dangers: b.planDangers ?? [], recipe: opts.recipeFile },
+      recorded.dangers,
+    ),
     planDangersNotAcknowledged: b.planDangers ?? [],
+    recordedFill: recorded.recordedFill,
+    recordedFillDangers: recorded.dangers,
     premixLogs: b.premix ? [premixLogReport(b.premix)] : [],
   };
 }

@@ -111,16 +111,32 @@ function planDangerCaveat(dangers: readonly PlanDanger[], recipe?: string): stri
   );
 }
 
+/** the caveat of a danger the review of the fill as recorded finds, and the record does not show accepted */
+function recordedDangerCaveat(dangers: readonly PlanDanger[]): string {
+  const one = dangers.length === 1;
+  return (
+    `DANGER IN THE RECORDED FILL: the safety review of the fill as recorded (the tank after each reading, ` +
+    `by this re-check's composition at the reading's pressure, and each fill's path between readings; the ` +
+    `planner's own review) finds ${dangerList(dangers)} (${one ? 'a danger' : 'dangers'}), and the record ` +
+    `does not show ${one ? 'it' : 'them'} accepted: the tank went through ${one ? 'a state' : 'states'} the ` +
+    `planner reviews as dangerous, whatever the final composition. This is not a pass: have the fill ` +
+    `reviewed (the hazards, the readings, the tank and its fittings) under local practice before the ` +
+    `batch is used`
+  );
+}
+
 /** the sentences beside a verdict: the composition may pass while the record says the tank is not fit to use */
 export function verdictCaveats(
   findings: readonly LogFinding[],
   noun = 'logged reading',
   accepted: readonly AcceptedHazard[] = [],
   unacknowledged: { readonly dangers: readonly PlanDanger[]; readonly recipe?: string } = { dangers: [] },
+  recordedDangers: readonly PlanDanger[] = [],
 ): string[] {
   const out: string[] = [];
   if (unacknowledged.dangers.length)
     out.push(planDangerCaveat(unacknowledged.dangers, unacknowledged.recipe));
+  if (recordedDangers.length) out.push(recordedDangerCaveat(recordedDangers));
   for (const a of accepted)
     out.push(
       a.found === 'plan'

@@ -37,6 +37,7 @@ import {
 } from './check-shared.js';
 import type { PremixCheckRecord, VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
+import { recordedFillOf } from './check-recorded.js';
 import { gaugeConversionWords } from './quantity.js';
 import { premixLogReport, premixLogsOf } from './premix-check.js';
 import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
@@ -204,6 +205,20 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
   const result = await withinFile(log.file, () =>
     evaluateUncertaintyParallel(model.readings, model.settings, model.diluent, model.initial),
   );
+  // the fill as recorded, by the planner's own safety review: a danger nobody accepted is no pass
+  const recorded = recordedFillOf(
+    model.readings,
+    model.initial,
+    {
+      tankId: h.tank.id,
+      workingLimitPa: workingLimitOf(h),
+      coldestK: h.safety?.coldest_K,
+      condensationFraction: h.safety?.condensation_fraction,
+    },
+    log.acknowledgements,
+    h.steps.map((s) => s.source),
+    unacknowledged,
+  );
   const tolerance = h.tolerance;
   const verdict = missingSteps.length
     ? { ...judge(result, design, tolerance), verdict: 'fail' as const }
@@ -229,8 +244,10 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
       limitPa: workingLimitOf(h),
       from: 'log',
     },
-    caveats: verdictCaveats(findings, undefined, accepted, { dangers: unacknowledged }),
+    caveats: verdictCaveats(findings, undefined, accepted, { dangers: unacknowledged }, recorded.dangers),
     planDangersNotAcknowledged: unacknowledged,
+    recordedFill: recorded.recordedFill,
+    recordedFillDangers: recorded.dangers,
     record: {
       alteredLines: alteredLinesOf(log),
       closed: log.closed,

@@ -13,6 +13,7 @@ export type CheckOutcome =
   | 'fail'
   | 'danger'
   | 'plan-danger-not-acknowledged'
+  | 'recorded-fill-danger'
   | 'accepted-hazard'
   | 'record-altered'
   | 'not-shown-within-tolerance'
@@ -31,11 +32,14 @@ export interface OutcomeInput {
   };
   /** danger findings of the plan that the record shows nobody acknowledged */
   readonly planDangersNotAcknowledged?: readonly unknown[];
+  /** dangers of the review of the fill as recorded that the record does not show accepted */
+  readonly recordedFillDangers?: readonly unknown[];
 }
 
 /**
  * Every outcome that stands against a pass, in exit precedence: out of tolerance or incomplete (4),
- * a danger in the record (3), a plan danger not acknowledged, then hazards accepted (6), an altered
+ * a danger in the record (3), a plan danger not acknowledged, a danger in the fill as recorded that
+ * the record does not show accepted, then hazards accepted (6), an altered
  * record (5), not shown within tolerance, no design, not closed (7). Empty: a pass.
  */
 export function checkOutcomes(r: OutcomeInput): CheckOutcome[] {
@@ -45,6 +49,7 @@ export function checkOutcomes(r: OutcomeInput): CheckOutcome[] {
   else if (r.verdict.verdict === 'fail') out.push('fail');
   if (r.findings.some((f) => f.severity === 'danger')) out.push('danger');
   if (r.planDangersNotAcknowledged?.length) out.push('plan-danger-not-acknowledged');
+  if (r.recordedFillDangers?.length) out.push('recorded-fill-danger');
   if (r.record?.acceptedHazards?.length) out.push('accepted-hazard');
   if (r.record?.alteredLines.length) out.push('record-altered');
   if (r.verdict.verdict === 'pass-uncertain') out.push('not-shown-within-tolerance');

@@ -47,6 +47,9 @@ export function verdictWord(r: CheckReport): string {
   const unacked = r.planDangersNotAcknowledged?.length
     ? ' - PLAN DANGER NOT ACKNOWLEDGED: not a pass (see below)'
     : '';
+  const recorded = r.recordedFillDangers?.length
+    ? ' - DANGER IN THE RECORDED FILL: not a pass (see below)'
+    : '';
   const accepted = r.record?.acceptedHazards?.length ? ' - ACCEPTED HAZARD (see below)' : '';
   const words: Record<string, string> = {
     // a composition within tolerance is a pass only when nothing in the record stands against it
@@ -55,7 +58,7 @@ export function verdictWord(r: CheckReport): string {
     fail: 'FAIL - out of tolerance',
     'no-design': 'NO DESIGN to compare with - not a pass',
   };
-  return (words[r.verdict.verdict] ?? r.verdict.verdict) + unacked + accepted;
+  return (words[r.verdict.verdict] ?? r.verdict.verdict) + unacked + recorded + accepted;
 }
 
 function mcNote(st: OutputStat): string {
@@ -265,8 +268,14 @@ export function recordMarks(r: CheckReport): string[] {
     out.push(`RECORD ALTERED (${linesText(r.record.alteredLines)})`);
   if (r.record && !r.record.closed && !r.incomplete.length) out.push('NOT CLOSED');
   if (r.planDangersNotAcknowledged?.length) out.push(unackedMark(r.planDangersNotAcknowledged));
+  if (r.recordedFillDangers?.length) out.push(recordedMark(r.recordedFillDangers));
   if (r.record?.acceptedHazards?.length) out.push(acceptedMark(r.record.acceptedHazards));
   return out;
+}
+
+/** "DANGER IN THE RECORDED FILL (detonable-state (fill 2))": the fill as recorded went through a danger */
+function recordedMark(dangers: readonly PlanDanger[]): string {
+  return `DANGER IN THE RECORDED FILL (${dangerList(dangers)})`;
 }
 
 /** "PLAN DANGER NOT ACKNOWLEDGED (detonable-state (fill 3))": no acknowledgement of the plan's dangers */
@@ -332,6 +341,10 @@ function verdictText(r: CheckReport): string {
     ? ` - ${unackedMark(dangers)}: nobody is recorded as having accepted the plan's ` +
       `${dangers.length === 1 ? 'danger' : 'dangers'}`
     : '';
+  const inFill = r.recordedFillDangers ?? [];
+  const recorded = inFill.length
+    ? ` - ${recordedMark(inFill)}: the record does not show ${inFill.length === 1 ? 'it' : 'them'} accepted`
+    : '';
   const acc = r.record?.acceptedHazards ?? [];
   const accepted = acc.length
     ? ` - ${acceptedMark(acc)}: the fill went on through ` +
@@ -349,6 +362,7 @@ function verdictText(r: CheckReport): string {
       `(a backup), or re-measure the tank before it is used` +
       closed +
       unacked +
+      recorded +
       accepted
     );
   // a composition within tolerance beside a danger, a plan danger or hazards, or a log never closed
@@ -364,8 +378,65 @@ function verdictText(r: CheckReport): string {
       : '') +
     closed +
     unacked +
+    recorded +
     accepted
   );
+}
+
+/** "CH4, O2, Ar" (a source filled in more than one charge is named at each) */
+const orderText = (ids: readonly string[]) => ids.join(', ');
+
+/** the sources in the order each is first filled (a later charge of one filled already adds no place) */
+const firstFilled = (ids: readonly string[]) => [...new Set(ids)].join('\n');
+
+/**
+ * The record filled its sources in another order than the plan's (the order each is first filled:
+ * the tank's states follow it); `charges`: the same order, but other charges (a diluent the plan splits
+ * in two filled in one)
+ */
+export function orderDifference(f: {
+  readonly order: readonly string[];
+  readonly plannedOrder?: readonly string[];
+}): 'order' | 'charges' | undefined {
+  if (!f.plannedOrder) return undefined;
+  if (firstFilled(f.order) !== firstFilled(f.plannedOrder)) return 'order';
+  return f.order.join('\n') === f.plannedOrder.join('\n') ? undefined : 'charges';
+}
+
+/**
+ * The safety review of the fill as recorded: the order filled (against the plan's), and its dangers
+ * and warnings, each marked where the record shows it accepted
+ */
+function recordedFillLines(r: CheckReport): string[] {
+  const f = r.recordedFill;
+  if (!f) return [];
+  const out = [
+    '',
+    `The fill as recorded (the planner's safety review of the tank after each reading, by this ` +
+      `re-check's composition at the reading's pressure, and of each fill's path; at ` +
+      `${(f.temperatureK - 273.15).toFixed(1)} degC, the warmest reading)`,
+  ];
+  const differs = orderDifference(f);
+  if (differs && f.plannedOrder)
+    out.push(
+      differs === 'order'
+        ? `  note: the readings fill ${orderText(f.order)} in that order; the plan fills ` +
+            `${orderText(f.plannedOrder)}: the tank went through other states than the plan reviewed ` +
+            `(reviewed here as recorded)`
+        : `  note: the readings fill in the plan's order, in other charges (readings ${orderText(f.order)}; ` +
+            `plan ${orderText(f.plannedOrder)}): reviewed here as recorded`,
+    );
+  if (!f.findings.length)
+    out.push(
+      '  the review finds no danger and no warning on the recorded states and fill paths (of the hazards it checks)',
+    );
+  if (f.notes.length) out.push(`  notes: ${f.notes.join(', ')}`);
+  for (const x of f.findings)
+    out.push(
+      `  ${x.severity === 'danger' ? 'DANGER' : 'warning'}${x.accepted ? ' (accepted in the log)' : ''}: ` +
+        `${x.code}${x.step ? ` (fill ${x.step})` : ''}: ${x.message}`,
+    );
+  return out;
 }
 
 /** the method note, warnings, the record's findings and the verdict with its caveats */
@@ -384,6 +455,7 @@ function verdictLines(r: CheckReport): string[] {
     out.push(r.kind === 'log' ? 'The record (the log itself)' : 'The record (the readings as typed)');
     for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
+  out.push(...recordedFillLines(r));
   out.push('');
   out.push(`Verdict     ${verdictText(r)}`);
   for (const c of r.caveats) out.push(`            ${c}`);
@@ -604,6 +676,22 @@ function verdictJson(r: CheckReport) {
   };
 }
 
+/** the review of the fill as recorded, as `check --json` gives it (null where there is none) */
+function recordedFillJson(r: CheckReport) {
+  const f = r.recordedFill;
+  if (!f) return null;
+  return {
+    order: f.order,
+    planned_order: f.plannedOrder ?? null,
+    // "order": the sources first filled in another order than the plan's; "charges": in its order,
+    // in other charges; false: as planned; null: no plan to compare with
+    order_differs: f.plannedOrder === undefined ? null : (orderDifference(f) ?? false),
+    temperature_K: f.temperatureK,
+    findings: f.findings,
+    notes: f.notes,
+  };
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -653,6 +741,8 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
     plan_dangers_not_acknowledged: r.planDangersNotAcknowledged ?? [],
+    recorded_fill: recordedFillJson(r),
+    recorded_fill_dangers_not_accepted: r.recordedFillDangers ?? [],
     premix_checks: premixChecksJson(r),
     stage: stageJson(r),
     premix_logs: (r.premixLogs ?? []).map((p) => ({
@@ -698,6 +788,16 @@ export function checkToJson(r: CheckReport, version: string): object {
 }
 
 /**
+ * what the numbers of a row led by an altered record give, in words that are no judgement of the
+ * batch: never the bare "pass" or "pass-uncertain" in a row that is not a pass
+ */
+const NUMBERS_ALONE: Readonly<Record<string, string>> = {
+  pass: 'every design fraction within tolerance, uncertainty included',
+  'pass-uncertain': 'within tolerance, the 95 % uncertainty of some fraction reaching past it',
+  'no-design': 'no design to compare with',
+};
+
+/**
  * the composition's judgement in the folder summary: a pass only when nothing beside it stands
  * against one (the marks after it say what does)
  */
@@ -732,7 +832,7 @@ export function folderSummary(
       stageCell(rep),
       (alteredLeads(rep)
         ? `RECORD ALTERED AFTER WRITING (${linesText(rep.record?.alteredLines ?? [])}) - not a pass; ` +
-          `on the numbers as they stand: ${rep.verdict.verdict}`
+          `the numbers alone: ${NUMBERS_ALONE[rep.verdict.verdict] ?? rep.verdict.verdict}`
         : rep.incomplete.length
           ? 'incomplete'
           : compositionCell(rep)) +

@@ -110,6 +110,16 @@ export interface CheckReportOf<F extends RecordFinding> {
    */
   readonly planDangersNotAcknowledged?: readonly PlanDanger[];
   /**
+   * the safety review of the fill as recorded (the states after each reading and each fill's path,
+   * by the planner's own review): what it found, and the order filled against the plan's
+   */
+  readonly recordedFill?: RecordedFill;
+  /**
+   * the dangers of that review that the record does not show accepted (the guided fill's
+   * acknowledgement of that danger): never a pass, DANGER IN THE RECORDED FILL (exit 6)
+   */
+  readonly recordedFillDangers?: readonly PlanDanger[];
+  /**
    * the record itself (a log; absent for CSV readings): the lines that do not match their hash
    * chain (changed after writing, or not written by mixwright), and whether the fill was closed.
    * An altered record leads the verdict ("RECORD ALTERED AFTER WRITING - not a pass"), never a pass.
@@ -285,6 +295,30 @@ export interface AcceptedHazard {
 }
 
 /** a danger finding of the plan, by its code and the fill it concerns */
+/** a finding of the review of the fill as recorded, with its sentence */
+export interface RecordedFillFinding {
+  readonly severity: RecordSeverity;
+  readonly code: string;
+  readonly step: number | null;
+  readonly message: string;
+  /** the record shows it accepted (the guided fill's acknowledgement of that danger or hazard) */
+  readonly accepted: boolean;
+}
+
+/** the safety review of the fill as recorded (core/recorded-review.ts) */
+export interface RecordedFill {
+  /** the temperature the review was made at (the warmest reading), K */
+  readonly temperatureK: number;
+  /** the sources in the order their readings were recorded */
+  readonly order: readonly string[];
+  /** the sources in the order of the plan (the recipe's, or the log's steps); absent without one */
+  readonly plannedOrder?: readonly string[];
+  /** its danger and warning findings */
+  readonly findings: readonly RecordedFillFinding[];
+  /** its notes, by code and fill ("oxygen-service (fill 3)"), not worded */
+  readonly notes: readonly string[];
+}
+
 export interface PlanDanger {
   readonly code: string;
   readonly step: number | null;

@@ -77,6 +77,9 @@ const OUTCOME_TEXT: Record<string, string> = {
   'plan-danger-not-acknowledged':
     "NOT A PASS - PLAN DANGER NOT ACKNOWLEDGED: the plan's safety review found a danger and the log " +
     'records no acknowledgement of it (see below).',
+  'recorded-fill-danger':
+    'NOT A PASS - DANGER IN THE RECORDED FILL: the safety review of the fill as recorded finds a danger ' +
+    'that the log does not show accepted (see below).',
   'accepted-hazard':
     'NOT A PASS - ACCEPTED HAZARD: the fill went on through hazards accepted at the manifold (see below).',
   'not-closed':

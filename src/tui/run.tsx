@@ -55,12 +55,14 @@ export interface FillOutcome {
   };
   /** danger findings of the plan that the log records no acknowledgement of (check: exit 6) */
   readonly planDangersNotAcknowledged?: readonly unknown[];
+  /** dangers of the review of the fill as recorded that the log does not show accepted (check: exit 6) */
+  readonly recordedFillDangers?: readonly unknown[];
 }
 
 /** what the shell needs of `check`'s re-check of the closed log to exit as `check` would */
 export function outcomeOfReport(
   report: CheckReport | undefined,
-): Pick<FillOutcome, 'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged'> {
+): Pick<FillOutcome, 'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged' | 'recordedFillDangers'> {
   return {
     verdict: report?.verdict.verdict,
     danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
@@ -68,6 +70,7 @@ export function outcomeOfReport(
     ...(report?.planDangersNotAcknowledged?.length
       ? { planDangersNotAcknowledged: report.planDangersNotAcknowledged }
       : {}),
+    ...(report?.recordedFillDangers?.length ? { recordedFillDangers: report.recordedFillDangers } : {}),
   };
 }
 

@@ -248,10 +248,13 @@ describe('an altered or unclosed premix log', () => {
     const r = await runCli(['check', join(dir, 'altered')]);
     expect(r.code).toBe(5);
     expect(r.stdout).toMatch(
-      /premix\.jsonl +\S+ +\S.*? +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; on the numbers as they stand: pass +/,
+      /premix\.jsonl +\S+ +\S.*? +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; the numbers alone: every design fraction within tolerance, uncertainty included +/,
     );
     expect(r.stdout).toMatch(
       /unclosed\.jsonl +\S+ +\S.*? +NOT A PASS \(composition within tolerance\), NOT CLOSED/,
     );
+    // neither row says "pass" as a judgement: only "not a pass"
+    for (const row of r.stdout.split('\n').filter((l) => /(premix|unclosed)\.jsonl/.test(l)))
+      expect(row.replace(/not a pass/gi, '')).not.toMatch(/\bpass(-uncertain)?\b/i);
   });
 });

@@ -109,6 +109,7 @@ const OUTCOME_EXIT: Record<CheckOutcome, number> = {
   fail: EXIT.outOfTolerance,
   danger: EXIT.danger,
   'plan-danger-not-acknowledged': EXIT.acceptedHazard,
+  'recorded-fill-danger': EXIT.acceptedHazard,
   'accepted-hazard': EXIT.acceptedHazard,
   'record-altered': EXIT.recordAltered,
   'not-shown-within-tolerance': EXIT.notShown,

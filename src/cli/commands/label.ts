@@ -136,7 +136,11 @@ async function label(cli: Cli, target: string, o: LabelOptions): Promise<void> {
           : model.label.outcome === 'plan-danger-not-acknowledged'
             ? `mixwright: ${target}: the plan's danger findings are not acknowledged in the log; the label ` +
               'says PLAN DANGER NOT ACKNOWLEDGED and shows no pass\n'
-            : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; the label lists them\n`,
+            : model.label.outcome === 'recorded-fill-danger'
+              ? `mixwright: ${target}: the fill as recorded went through a danger the log does not show ` +
+                'accepted; the label says DANGER IN THE RECORDED FILL and shows no pass\n'
+              : `mixwright: ${target}: the fill went on through hazards accepted at the manifold; ` +
+                'the label lists them\n',
     );
     throw new ExitSignal(code);
   }
