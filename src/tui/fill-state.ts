@@ -1407,10 +1407,44 @@ function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: numb
           : 'a gauge with a higher range (the lab profile has none: stop adding gas and ask).');
   const absText = absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : '';
   return (
+    pastLimitFirst(s, step, absolutePa) +
     `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absText}, ` +
     `past its range (up to ${fmtIn(gauge.fullScalePa, unit)}): ${gauge.id} cannot show that, so it is NOT logged. ` +
     `Likely the unit or a typing slip (the target is ${fmtIn(target, unit)} on ${gauge.id}): type the number ` +
     `the gauge shows, in ${unit}. ${overRange}`
+  );
+}
+
+/**
+ * The danger a typed value past the gauge's range says first when it is past the tank's working limit
+ * too, as typed or as its bare number in the gauge's unit (the reading it would be if only the unit was
+ * a slip): if the tank really holds that, it is over its limit now. Empty when neither reading is.
+ */
+function pastLimitFirst(s: FillState, step: FillStep, absolutePa: number): string {
+  const limit = s.setup.workingLimitPa;
+  if (limit === undefined) return '';
+  const unit = gaugeUnit(step);
+  const tank = s.setup.header.tank;
+  const text = s.input.trim();
+  // a number with a unit (a bare number is in the gauge's unit already)
+  const m = READING_NUMBER.test(text)
+    ? null
+    : /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*[A-Za-z]/.exec(text);
+  // the bare number read in the gauge's unit, on its basis (gauge-referenced: above ambient)
+  const bare = m
+    ? Number(m[1]) * paPerUnit(unit) + (step.gauge?.reference === 'gauge' ? s.barometerPa : 0)
+    : NaN;
+  const readings = [
+    { pa: absolutePa, as: 'as typed' },
+    { pa: bare, as: `read as ${m?.[1]} ${unit}, the gauge's unit` },
+  ].filter((r) => r.pa > limit);
+  if (!readings.length) return '';
+  const r = readings[0];
+  const rated = tank.rated_pressure_Pa ? `, rated ${fmtIn(tank.rated_pressure_Pa, unit, 4)}` : '';
+  return (
+    `DANGER if the tank holds it: ${fmtIn(r.pa, unit)} absolute (${r.as}) is past the working limit ` +
+    `${fmtIn(limit, unit)} of ${tank.id}${rated}: stop adding gas, close the cylinder and tank valves, keep ` +
+    `clear of the tank and follow the lab's over-pressure procedure. Then: `
   );
 }
 
@@ -1564,11 +1598,13 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
       phase: 'reading',
       pending: undefined,
       overLimit: undefined,
-      input: p.typed,
+      // the field is cleared, as after a refusal: one Enter must never log the mistyped value again
+      input: '',
       effects: [withdraw],
       message:
         `the reading ${p.done.text} of fill ${step.index} is withdrawn by ${edit[1]} ` +
-        `as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading`,
+        `as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading ` +
+        `(the field is empty: type it anew)`,
     };
   }
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
