@@ -92,6 +92,11 @@ function ReadingFields({
   );
 }
 
+/** a relative deviation in %, 2 significant digits; below 0.001 % as "<0.001" (one screen row per species) */
+function relText(pct: number): string {
+  return Math.abs(pct) < 0.001 ? ' <0.001' : `${pct >= 0 ? '+' : '-'}${fixedSig(Math.abs(pct), 2)}`;
+}
+
 function JudgementView({ j }: { j: CompositionJudgement }) {
   const head =
     j.kind === 'final'
@@ -113,7 +118,7 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
         <Text key={d.species}>
           {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
             `design ${fixedSig(d.design, 5).padStart(10)} ` +
-            ` ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} ` +
+            ` ${relText((d.deviation / d.design) * 100)} ` +
             `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
         </Text>
       ))}
@@ -634,19 +639,38 @@ function CorrectScreen({ state }: ScreenProps) {
 }
 
 /**
- * the dangers this fill creates, every time its screen is shown: the plan's (accepted at the start)
- * and those accepted at a review of the remaining fills, with the numbers the last review found
+ * what a finding asks of the operator, short enough for the step screen: its last clause (the advice
+ * the message ends with: after its last sentence break, "; " or ": "), at most about two rows; the full
+ * text is on the plan, the sheet, the acknowledgement and the reminder screens
+ */
+export function adviceOf(message: string, max = 120): string {
+  const cuts = ['. ', '; ', ': '].map((sep) => message.lastIndexOf(sep) + sep.length);
+  const at = Math.max(...cuts.filter((c) => c > 1 && c < message.length - 8), 0);
+  const tail = message.slice(at).replace(/\.$/, '');
+  if (tail.length <= max) return tail;
+  const cut = tail.lastIndexOf(' ', max - 3);
+  return `${tail.slice(0, cut > 0 ? cut : max - 3)}...`;
+}
+
+/**
+ * the plan's findings at this fill, every time its screen is shown, one line each: its dangers
+ * (accepted at the start; the full text was on that screen and the reminder), those accepted at a
+ * review of the remaining fills, and its warnings (compression heating, oxygen compression: throttle the
+ * fill...). Notes and findings of no one fill stay on the plan and the sheet.
  */
 function StepDangers({ state }: ScreenProps) {
   const index = state.setup.steps[state.current].index;
   const plan = state.setup.dangers.filter((d) => d.step === index);
   const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
-  if (!plan.length && !review.length) return null;
+  const warnings = (state.setup.header.findings ?? []).filter(
+    (f) => f.severity === 'warning' && f.step === index,
+  );
+  if (!plan.length && !review.length && !warnings.length) return null;
   return (
     <Box flexDirection="column">
       {plan.map((d, i) => (
         <Text key={`p${i}`} bold wrap="wrap">
-          DANGER {d.code} (this fill; accepted at the start): {d.message}
+          DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
         </Text>
       ))}
       {review.map((h) => (
@@ -655,7 +679,18 @@ function StepDangers({ state }: ScreenProps) {
           logged): {h.numbers || h.text}
         </Text>
       ))}
-      <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+      {warnings.map((f, i) => {
+        // two screen rows at most
+        const head = `warning ${f.code} (this fill, the plan): `;
+        return (
+          <Text key={`w${i}`} wrap="wrap">
+            {head + adviceOf(f.message, 156 - head.length)}
+          </Text>
+        );
+      })}
+      {plan.length || review.length ? (
+        <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+      ) : null}
     </Box>
   );
 }
@@ -1046,8 +1081,10 @@ function ReadingScreen({ state }: ScreenProps) {
       </Box>
       <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
-      {state.judgement ? <JudgementView j={state.judgement} /> : null}
+      <Text wrap="wrap">{state.error ? '' : (state.message ?? ' ')}</Text>
+      {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
+          screen keeps 24 rows */}
+      {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
       <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
       <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
     </Box>
