@@ -533,40 +533,57 @@ function LabelBox({
 function BelowScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
-  const ls = state.setup.steps[K - 1];
+  // the fill read below its band: the last one read (the last fill, or one before it: incomplete)
+  const m = state.done.length;
+  const ls = state.setup.steps[m - 1];
+  const lastFill = m >= K;
   const lu = unitOf(ls);
   const ld = ls.gauge ? decimalsFor(fromPa(ls.gauge.resolutionPa, lu)) : 3;
-  const t = state.targetsPa[K - 1];
+  const t = state.targetsPa[m - 1];
   const st = shownPa(state, ls, t);
+  const stop = `${fromPa(st, lu).toFixed(ld)}`;
   return (
     <Box flexDirection="column">
       <Text bold>
-        {fillTitle(h)} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
+        {fillTitle(h)} - fill {m} of {K}
+        {chargeSuffixOf(ls)}:{' '}
+        {lastFill ? 'BELOW THE TARGET (the batch is not closed)' : 'BELOW ITS BAND (incomplete)'}
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
-          STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
+          STOP AT {stop} {lu}
         </Text>
         <Text>
           band {bandText(st, ls.bandPa, lu, ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
-          {state.done[K - 1]?.text}
+          {state.done[m - 1]?.text}
         </Text>
       </Box>
-      {state.judgement ? <JudgementView j={state.judgement} /> : null}
-      <Text wrap="wrap">
-        Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB):
-        it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw
-        the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the target; the
-        re-check judges it)
-      </Text>
+      {lastFill && state.judgement ? <JudgementView j={state.judgement} /> : null}
+      {lastFill ? (
+        <Text wrap="wrap">
+          Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
+          AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
+          (withdraw the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the
+          target; the re-check judges it)
+        </Text>
+      ) : (
+        <Text wrap="wrap">
+          Continue this fill first: open {ls.source.id} again, fill on to {stop} {lu} and type the new reading
+          and your initials (e.g. {stop} AB): logged as a further reading of fill {m} (reason: more gas added;
+          the log keeps both). Or: next (go on from the logged reading; the fills ahead are re-targeted from
+          it and reviewed) undo INITIALS (withdraw it) fix N INITIALS (correct fill N)
+        </Text>
+      )}
       <ReadingFields
         state={state}
         reading={`new reading [${lu}] and initials`}
         temperature="tank temperature"
       />
       <ErrorLine state={state} />
-      <Text>Enter: log Tab: temp Ctrl-C: stop (the batch stays open; resume it)</Text>
+      <Text>
+        Enter: log Tab: temp Ctrl-C: stop ({lastFill ? 'the batch stays open; resume it' : 'readings kept'})
+      </Text>
     </Box>
   );
 }

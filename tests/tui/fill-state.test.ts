@@ -587,13 +587,15 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     f.typeEnter('10.01');
     f.typeEnter('1408');
     expect(f.get().current).toBe(2);
+    // 1408 Torr is below the Ar band (about 1480 Torr): the fill is incomplete, its screen stays
+    expect(f.get().phase).toBe('below');
     expect(f.typeEnter('undo').error).toMatch(/undo AB/);
-    // undo asks a short reason first: nothing is logged yet, Esc cancels
+    // undo asks a short reason first: nothing is logged yet, Esc cancels (back to that screen)
     const ask = f.typeEnter('undo AB');
     expect(ask.phase).toBe('undo-reason');
     expect(ask.effects).toEqual([]);
     const esc = f.step({ type: 'escape' });
-    expect(esc.phase).toBe('reading');
+    expect(esc.phase).toBe('below');
     expect(esc.current).toBe(2);
     expect(esc.message).toMatch(/undo cancelled; nothing logged/);
     f.typeEnter('undo AB');
