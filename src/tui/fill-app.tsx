@@ -546,8 +546,7 @@ function BelowScreen({ state }: ScreenProps) {
     <Box flexDirection="column">
       <Text bold>
         {fillTitle(h)} - fill {m} of {K}
-        {chargeSuffixOf(ls)}:{' '}
-        {lastFill ? 'BELOW THE TARGET (the batch is not closed)' : 'BELOW ITS BAND (incomplete)'}
+        {chargeSuffixOf(ls)}: {lastFill ? 'BELOW THE TARGET (not closed)' : 'BELOW ITS BAND (incomplete)'}
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">

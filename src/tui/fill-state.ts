@@ -2408,9 +2408,10 @@ function onStartEnter(s: FillState, now: string): FillState {
 }
 
 /**
- * The last fill read below its band. "VALUE INITIALS": more gas was added, the new reading corrects
- * this step's reading (reason "more gas added"; the final re-check uses it); "undo INITIALS": the
- * reading is withdrawn; "close INITIALS": the batch is closed as it is (the re-check judges it).
+ * A fill read below its band. "VALUE INITIALS": more gas was added, the new reading corrects this
+ * step's reading (reason "more gas added"; the re-check uses it); "undo INITIALS": the reading is
+ * withdrawn; on the last fill "close INITIALS": the batch is closed as it is (the re-check judges it);
+ * on a fill before it "next": go on from the logged reading.
  */
 function onBelowEnter(s: FillState, now: string): FillState {
   const text = s.input.trim();
@@ -2419,27 +2420,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.done.length - 1];
   const unit = gaugeUnit(step);
   if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, step, last);
-  const close = /^close\s+([A-Za-z]{1,6})$/i.exec(text);
-  if (/^close\b/i.test(text) && !lastFill)
-    return {
-      ...s,
-      error: `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type next`,
-    };
-  if (/^close\b/i.test(text) && !close)
-    return { ...s, error: 'type "close" and your initials, e.g. close AB' };
-  if (close) {
-    const f = finish(
-      { ...s, input: '' },
-      now,
-      `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
-    );
-    return {
-      ...f,
-      message:
-        `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
-        `the re-check below judges the tank as it is`,
-    };
-  }
+  if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
   const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
   if ('error' in w)
@@ -2525,6 +2506,28 @@ function onBelowEnter(s: FillState, now: string): FillState {
   const cap = capAfterChange({ ...judged, review: undefined }, `after fill ${step.index}`);
   if (cap) return cap;
   return reviewed(enterStep({ ...judged, phase: 'reading', review: undefined }), 'correction');
+}
+
+/** close INITIALS on the below-band screen: the last fill's only (the batch closed as it is) */
+function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolean, now: string): FillState {
+  const close = /^close\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!lastFill)
+    return {
+      ...s,
+      error: `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type next`,
+    };
+  if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  const f = finish(
+    { ...s, input: '' },
+    now,
+    `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
+  );
+  return {
+    ...f,
+    message:
+      `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
+      `the re-check below judges the tank as it is`,
+  };
 }
 
 /** next on the screen of an incomplete fill before the last: go on from its logged reading, reviewed */
