@@ -267,7 +267,13 @@ export type { StageFillCause, StageProblem } from './problems.js';
 export { reviewSequence, sequenceEvents } from './sequence-review.js';
 export type { SequenceFill, SequenceStart } from './sequence-review.js';
 export { hazardKey, isSequenceHazard, reviewRemainder } from './remainder-review.js';
-export type { PlannedFinding, RemainderReview, RemainderReviewInput, SaferStop } from './remainder-review.js';
+export type {
+  PlannedFinding,
+  RemainderReview,
+  RemainderReviewInput,
+  SaferStop,
+  Continuation,
+} from './remainder-review.js';
 export { roundUpToGrid } from './reading-grid.js';
 export type { ReadingGrid } from './reading-grid.js';
 export { recordedStates, reviewRecordedFill } from './recorded-review.js';

@@ -15,6 +15,12 @@
  * number the plan's own findings do not hold. A state near the flammable region (`near-flammable`, a
  * note inside the NFPA 69 margins) is said, not stopped on.
  *
+ * Continuing the fill just read (our rule): a reading below its fill's band (the fill incomplete; the
+ * caller gives the band, `lastBandPa`) is first met by going on with the same fill to its target, the
+ * re-target of the readings before it; that sequence (the whole fill, from the state before it) is
+ * reviewed as the plan's would be, and when it has no hazard the plan did not have it is the safer way
+ * offered, before any stop is searched.
+ *
  * The safer stop (our rule, the split-point rule of plan/split-point.ts applied to the remainder):
  * the first charge still ahead that holds a stop, fills an inert gas only and comes before a fill
  * that carries an oxidizer, with a hazard at or after it, is given the lowest stop, above the one
@@ -54,6 +60,28 @@ export interface RemainderReviewInput {
   readonly readingGrid?: (fill: number) => ReadingGrid | undefined;
   /** look for a safer stop when there is a new hazard (default true) */
   readonly searchAlternative?: boolean;
+  /**
+   * the band of the last fill read (Pa): a reading below that fill's target by more than it left the
+   * fill incomplete, and going on with the same fill to its target is the first safer way looked at
+   */
+  readonly lastBandPa?: number;
+}
+
+/** the last fill read stopped below its band: continuing it to its target, and what that leaves ahead */
+export interface Continuation {
+  /** 0-based index of the fill among all fills */
+  readonly fill: number;
+  readonly sourceId: string;
+  /** the reading it stopped at and its target (absolute, Pa) */
+  readonly fromPa: number;
+  readonly toPa: number;
+  /** the re-target with the fill continued to its target, and its review */
+  readonly result: RetargetResult;
+  readonly findings: readonly Finding[];
+  /** nothing ahead then passes a hazard the plan did not have */
+  readonly clean: boolean;
+  /** the hazards it would still pass (empty when clean) */
+  readonly hazards: readonly Finding[];
 }
 
 /** a safer stop of a diluent charge ahead of the oxidizer */
@@ -83,6 +111,11 @@ export interface RemainderReview {
   /** states near the flammable region the plan did not have (said, not stopped on) */
   readonly near: readonly Finding[];
   readonly alternative?: SaferStop;
+  /**
+   * the last fill read is incomplete (below its band): continuing it to its target, the first safer way
+   * (when it is clean no stop is searched)
+   */
+  readonly continuation?: Continuation;
   /** why no safer stop is offered (when there are hazards and none is) */
   readonly noAlternative?: 'no-diluent-stop' | 'none-clean' | 'not-searched';
   /** re-targets and reviews the search made */
@@ -151,19 +184,44 @@ export function reviewRemainder(input: RemainderReviewInput): RemainderReview {
   const result = input.result ?? retarget(input.retarget);
   const { findings, hazards, near } = judgeRemainder(input, result, true);
   if (!hazards.length) return { result, findings, hazards, near, evaluations: 0 };
-  if (input.searchAlternative === false)
-    return { result, findings, hazards, near, noAlternative: 'not-searched', evaluations: 0 };
+  const continuation = continuationOf(input, result);
+  const base = { result, findings, hazards, near, ...(continuation ? { continuation } : {}) };
+  if (continuation?.clean) return { ...base, evaluations: 1 };
+  const done = continuation ? 1 : 0;
+  if (input.searchAlternative === false) return { ...base, noAlternative: 'not-searched', evaluations: done };
   const k = diluentStopAhead(input.retarget, hazards);
-  if (k === undefined)
-    return { result, findings, hazards, near, noAlternative: 'no-diluent-stop', evaluations: 0 };
+  if (k === undefined) return { ...base, noAlternative: 'no-diluent-stop', evaluations: done };
   const found = saferStopOf(input, result, k);
   return {
-    result,
-    findings,
-    hazards,
-    near,
-    evaluations: found.evaluations,
+    ...base,
+    evaluations: done + found.evaluations,
     ...(found.stop ? { alternative: found.stop } : { noAlternative: 'none-clean' as const }),
+  };
+}
+
+/**
+ * the last fill read stopped below its band (`lastBandPa`): the same fill continued to its target (the
+ * re-target of the readings before it) and the review of what then lies ahead; undefined when that fill
+ * is complete (or no band is given)
+ */
+function continuationOf(input: RemainderReviewInput, result: RetargetResult): Continuation | undefined {
+  const base = input.retarget;
+  const m = base.done.length;
+  if (input.lastBandPa === undefined || m === 0) return undefined;
+  const before: RetargetInput = { ...base, done: base.done.slice(0, -1) };
+  const r = retarget(before);
+  const toPa = r.remaining.find((x) => x.step === m)?.targetPa;
+  if (toPa === undefined || !(result.nowPa < toPa - input.lastBandPa)) return undefined;
+  const j = judgeRemainder({ ...input, retarget: before }, r, true);
+  return {
+    fill: m - 1,
+    sourceId: base.sources[m - 1].id,
+    fromPa: result.nowPa,
+    toPa,
+    result: r,
+    findings: j.findings,
+    clean: j.hazards.length === 0,
+    hazards: j.hazards,
   };
 }
 

@@ -92,6 +92,11 @@ function ReadingFields({
   );
 }
 
+/** a relative deviation in %, 2 significant digits; below 0.001 % as "<0.001" (one screen row per species) */
+function relText(pct: number): string {
+  return Math.abs(pct) < 0.001 ? ' <0.001' : `${pct >= 0 ? '+' : '-'}${fixedSig(Math.abs(pct), 2)}`;
+}
+
 function JudgementView({ j }: { j: CompositionJudgement }) {
   const head =
     j.kind === 'final'
@@ -113,7 +118,7 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
         <Text key={d.species}>
           {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
             `design ${fixedSig(d.design, 5).padStart(10)} ` +
-            ` ${d.deviation >= 0 ? '+' : '-'}${fixedSig(Math.abs(d.deviation / d.design) * 100, 2)} ` +
+            ` ${relText((d.deviation / d.design) * 100)} ` +
             `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
         </Text>
       ))}
@@ -528,40 +533,56 @@ function LabelBox({
 function BelowScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
-  const ls = state.setup.steps[K - 1];
+  // the fill read below its band: the last one read (the last fill, or one before it: incomplete)
+  const m = state.done.length;
+  const ls = state.setup.steps[m - 1];
+  const lastFill = m >= K;
   const lu = unitOf(ls);
   const ld = ls.gauge ? decimalsFor(fromPa(ls.gauge.resolutionPa, lu)) : 3;
-  const t = state.targetsPa[K - 1];
+  const t = state.targetsPa[m - 1];
   const st = shownPa(state, ls, t);
+  const stop = `${fromPa(st, lu).toFixed(ld)}`;
   return (
     <Box flexDirection="column">
       <Text bold>
-        {fillTitle(h)} - fill {K} of {K}: BELOW THE TARGET (the batch is not closed)
+        {fillTitle(h)} - fill {m} of {K}
+        {chargeSuffixOf(ls)}: {lastFill ? 'BELOW THE TARGET (not closed)' : 'BELOW ITS BAND (incomplete)'}
       </Text>
       <Text wrap="wrap">{state.message ?? ' '}</Text>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
-          STOP AT {fromPa(st, lu).toFixed(ld)} {lu}
+          STOP AT {stop} {lu}
         </Text>
         <Text>
           band {bandText(st, ls.bandPa, lu, ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
-          {state.done[K - 1]?.text}
+          {state.done[m - 1]?.text}
         </Text>
       </Box>
-      {state.judgement ? <JudgementView j={state.judgement} /> : null}
-      <Text wrap="wrap">
-        Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2 AB):
-        it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS (withdraw
-        the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the target; the
-        re-check judges it)
-      </Text>
+      {lastFill && state.judgement ? <JudgementView j={state.judgement} /> : null}
+      {lastFill ? (
+        <Text wrap="wrap">
+          Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
+          AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
+          (withdraw the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the
+          target; the re-check judges it)
+        </Text>
+      ) : (
+        <Text wrap="wrap">
+          Continue this fill first: open {ls.source.id} again, fill on to {stop} {lu} and type the new reading
+          and your initials (e.g. {stop} AB): logged as a further reading of fill {m} (reason: more gas added;
+          the log keeps both). Or: next (go on from the logged reading; the fills ahead are re-targeted from
+          it and reviewed) undo INITIALS (withdraw it) fix N INITIALS (correct fill N)
+        </Text>
+      )}
       <ReadingFields
         state={state}
         reading={`new reading [${lu}] and initials`}
         temperature="tank temperature"
       />
       <ErrorLine state={state} />
-      <Text>Enter: log Tab: temp Ctrl-C: stop (the batch stays open; resume it)</Text>
+      <Text>
+        Enter: log Tab: temp Ctrl-C: stop ({lastFill ? 'the batch stays open; resume it' : 'readings kept'})
+      </Text>
     </Box>
   );
 }
@@ -634,19 +655,38 @@ function CorrectScreen({ state }: ScreenProps) {
 }
 
 /**
- * the dangers this fill creates, every time its screen is shown: the plan's (accepted at the start)
- * and those accepted at a review of the remaining fills, with the numbers the last review found
+ * what a finding asks of the operator, short enough for the step screen: its last clause (the advice
+ * the message ends with: after its last sentence break, "; " or ": "), at most about two rows; the full
+ * text is on the plan, the sheet, the acknowledgement and the reminder screens
+ */
+export function adviceOf(message: string, max = 120): string {
+  const cuts = ['. ', '; ', ': '].map((sep) => message.lastIndexOf(sep) + sep.length);
+  const at = Math.max(...cuts.filter((c) => c > 1 && c < message.length - 8), 0);
+  const tail = message.slice(at).replace(/\.$/, '');
+  if (tail.length <= max) return tail;
+  const cut = tail.lastIndexOf(' ', max - 3);
+  return `${tail.slice(0, cut > 0 ? cut : max - 3)}...`;
+}
+
+/**
+ * the plan's findings at this fill, every time its screen is shown, one line each: its dangers
+ * (accepted at the start; the full text was on that screen and the reminder), those accepted at a
+ * review of the remaining fills, and its warnings (compression heating, oxygen compression: throttle the
+ * fill...). Notes and findings of no one fill stay on the plan and the sheet.
  */
 function StepDangers({ state }: ScreenProps) {
   const index = state.setup.steps[state.current].index;
   const plan = state.setup.dangers.filter((d) => d.step === index);
   const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
-  if (!plan.length && !review.length) return null;
+  const warnings = (state.setup.header.findings ?? []).filter(
+    (f) => f.severity === 'warning' && f.step === index,
+  );
+  if (!plan.length && !review.length && !warnings.length) return null;
   return (
     <Box flexDirection="column">
       {plan.map((d, i) => (
         <Text key={`p${i}`} bold wrap="wrap">
-          DANGER {d.code} (this fill; accepted at the start): {d.message}
+          DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
         </Text>
       ))}
       {review.map((h) => (
@@ -655,7 +695,18 @@ function StepDangers({ state }: ScreenProps) {
           logged): {h.numbers || h.text}
         </Text>
       ))}
-      <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+      {warnings.map((f, i) => {
+        // two screen rows at most
+        const head = `warning ${f.code} (this fill, the plan): `;
+        return (
+          <Text key={`w${i}`} wrap="wrap">
+            {head + adviceOf(f.message, 156 - head.length)}
+          </Text>
+        );
+      })}
+      {plan.length || review.length ? (
+        <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+      ) : null}
     </Box>
   );
 }
@@ -1046,8 +1097,10 @@ function ReadingScreen({ state }: ScreenProps) {
       </Box>
       <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
-      {state.judgement ? <JudgementView j={state.judgement} /> : null}
+      <Text wrap="wrap">{state.error ? '' : (state.message ?? ' ')}</Text>
+      {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
+          screen keeps 24 rows */}
+      {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
       <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
       <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
     </Box>

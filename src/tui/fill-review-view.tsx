@@ -24,6 +24,7 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
   const r = state.review!;
   const h = state.setup.header;
   const alt = r.alternative;
+  const cont = r.continuation;
   return (
     <Box flexDirection="column">
       <Text bold wrap="wrap">
@@ -42,7 +43,15 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
         </Text>
       ))}
       <Text> </Text>
-      {alt ? (
+      {cont?.clean ? (
+        <Text wrap="wrap">
+          Safer: continue {cont.name} to its target {torr(cont.toPa)} absolute (it stopped at{' '}
+          {torr(cont.fromPa)}): then no state or fill path ahead is flammable or a danger that the plan did
+          not have. Fill on from {cont.sourceId} and type the new reading and your initials (e.g.{' '}
+          {fromPa(cont.toPa, 'Torr').toFixed(2)} AB): logged as a further reading of fill {cont.step} (more
+          gas added).
+        </Text>
+      ) : alt ? (
         <Text wrap="wrap">
           Safer: stop {alt.name} at {torr(alt.toPa)} absolute instead of {torr(alt.fromPa)}. Then no state or
           fill path ahead is flammable or a danger
@@ -56,6 +65,7 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
       )}
       <Text> </Text>
       <Text wrap="wrap">
+        {cont?.clean ? 'VALUE INITIALS: the fill continued   ' : ''}
         {alt ? 'safer INITIALS: take the safer stop   ' : ''}accept INITIALS: go on through it (have it
         reviewed under your lab&apos;s rules first) undo INITIALS: the last reading was mistyped fix N
         INITIALS: correct fill N. Each choice is logged, with the findings in full. Ctrl-C stops (the readings

@@ -53,10 +53,28 @@ export interface ReviewAlternative {
   readonly marginKept: boolean;
 }
 
+/** the last fill read stopped below its band: the same fill continued to its target (core Continuation) */
+export interface ReviewContinuation {
+  /** 0-based index of the fill, its fill number and name */
+  readonly fill: number;
+  readonly step: number;
+  readonly name: string;
+  readonly sourceId: string;
+  /** the reading it stopped at and its target (absolute, Pa) */
+  readonly fromPa: number;
+  readonly toPa: number;
+  /** nothing ahead then passes a hazard the plan did not have */
+  readonly clean: boolean;
+  /** what it would still pass, short (code and fill) */
+  readonly still: readonly string[];
+}
+
 /** the review screen: what triggered it, what the remainder passes, and the safer stop */
 export interface ReviewScreen {
   readonly trigger: ReviewTrigger;
   readonly hazards: readonly ReviewHazard[];
+  /** continuing the fill just read, when it stopped below its band: the first safer way */
+  readonly continuation?: ReviewContinuation;
   readonly alternative?: ReviewAlternative;
   /** why no safer stop is offered */
   readonly noAlternative?: string;
@@ -151,6 +169,8 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
     safety: safetyOf(s0.setup),
     planned: plannedOf(s0.setup, input),
     readingGrid: gridOf(s0),
+    // a last reading below its fill's band: continuing that fill is looked at first
+    lastBandPa: s0.setup.steps[input.done.length - 1]?.bandPa,
   });
   const accepted = new Set(s0.reviewed?.accepted ?? []);
   const open = rv.hazards.filter((f) => !accepted.has(hazardKey(f)));
@@ -190,6 +210,17 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
     targetsPa: alt.result.remaining.map((x) => ({ step: x.step, targetPa: x.targetPa })),
     marginKept: alt.marginKept,
   };
+  const c = rv.continuation;
+  const continuation: ReviewContinuation | undefined = c && {
+    fill: c.fill,
+    step: c.fill + 1,
+    name: stepName(s, c.fill),
+    sourceId: c.sourceId,
+    fromPa: c.fromPa,
+    toPa: c.toPa,
+    clean: c.clean,
+    still: c.hazards.map((f) => `${f.code}${f.step ? ` (fill ${f.step})` : ''}`),
+  };
   return {
     ...s,
     phase: 'review',
@@ -197,10 +228,30 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
     review: {
       trigger,
       hazards,
+      continuation,
       alternative,
-      noAlternative: alt ? undefined : NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched'],
+      noAlternative:
+        alt || continuation?.clean
+          ? undefined
+          : (continuation ? `continuing ${continuation.name} to its target does not avoid it either; ` : '') +
+            NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched'],
     },
   };
+}
+
+/**
+ * the hazards the plan did not have (and not accepted) that going on from the readings in force would
+ * pass, without a search for a safer way: what the screen of an incomplete fill says of going on
+ */
+export function hazardsAhead(s: FillState, input: RetargetInput): readonly ReviewHazard[] {
+  const rv = reviewRemainder({
+    retarget: input,
+    safety: safetyOf(s.setup),
+    planned: plannedOf(s.setup, input),
+    searchAlternative: false,
+  });
+  const accepted = new Set(s.reviewed?.accepted ?? []);
+  return rv.hazards.filter((f) => !accepted.has(hazardKey(f))).map(reviewHazardOf);
 }
 
 function reviewHazardOf(f: Finding): ReviewHazard {
@@ -253,7 +304,11 @@ export interface ReviewHooks {
   readonly rejudge: (s: FillState) => FillState;
   /** the re-target input of a state */
   readonly retargetInput: (s: FillState) => RetargetInput;
+  /** a further reading of the fill just read (it stopped below its band): "VALUE INITIALS" typed */
+  readonly continueFill: (s: FillState, now: string) => FillState;
 }
+
+const NUMBER_FIRST = /^[-+]?(\d|\.\d)/;
 
 const INITIALS = /^(safer|accept)\s+([A-Za-z]{1,6})$/i;
 
@@ -261,8 +316,15 @@ const INITIALS = /^(safer|accept)\s+([A-Za-z]{1,6})$/i;
 export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): FillState {
   const r = s.review!;
   const text = s.input.trim();
+  // a further reading of the incomplete fill: the fill was continued (logged as such by the reducer)
+  if (r.continuation && NUMBER_FIRST.test(text)) return hooks.continueFill(s, now);
   const m = INITIALS.exec(text);
+  const cont = r.continuation;
   const choices =
+    (cont
+      ? `the new reading of ${cont.name} and your initials (it was continued; e.g. ` +
+        `${fromPa(cont.toPa, 'Torr').toFixed(2)} AB), `
+      : '') +
     (r.alternative ? 'safer INITIALS (take the safer stop), ' : '') +
     'accept INITIALS (go on through it), undo INITIALS (the last reading was mistyped), ' +
     'fix N INITIALS (correct fill N); every choice is logged';
@@ -286,6 +348,14 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   });
   if (choice === 'safer') {
     const alt = r.alternative;
+    if (!alt && cont?.clean)
+      return {
+        ...s,
+        error:
+          `the safer way is to continue ${cont.name}: fill on from ${cont.sourceId} to ` +
+          `${torr(cont.toPa)} and type the new reading and your initials (e.g. ` +
+          `${fromPa(cont.toPa, 'Torr').toFixed(2)} AB)`,
+      };
     if (!alt)
       return {
         ...s,

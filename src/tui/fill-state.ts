@@ -53,6 +53,7 @@ import {
   type ParsedLog,
 } from '../io/batch-log.js';
 import {
+  hazardsAhead,
   onReviewEnter,
   reviewMemoryOf,
   withReview,
@@ -199,6 +200,8 @@ export interface Correcting {
   readonly by: string;
   /** the new reading, once typed; then the reason is asked */
   readonly pending?: Pending;
+  /** begun on the screen of a fill read below its band: Esc and the correction come back to it */
+  readonly back?: 'below';
 }
 
 export interface FractionDeviation {
@@ -530,22 +533,24 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
         `above the working limit and no choice was logged`,
     };
   }
-  if (done.length >= setup.steps.length && !log?.closed) {
-    // all read but not closed: a last fill below its band stays open for more gas
-    const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
+  if (done.length && !log?.closed) {
+    // the last reading below its fill's band: the last fill stays open for more gas; a fill before it is
+    // incomplete, and continuing it is offered again (a `next` typed before the stop is not in the log)
+    const m = done.length;
+    const before: FillState = { ...state, done: done.slice(0, -1), current: m - 1 };
     const prior = before.done.length
       ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
       : before.targetsPa;
-    const step = setup.steps[setup.steps.length - 1];
-    const last = done[done.length - 1];
-    const target = prior[setup.steps.length - 1];
-    if (last.pressurePa - target < -step.bandPa)
-      return belowBand(
-        { ...state, targetsPa: prior },
-        step,
-        target,
-        `resumed: fill ${step.index} logged at ${last.text}`,
-      );
+    const step = setup.steps[m - 1];
+    const last = done[m - 1];
+    const target = prior[m - 1];
+    const text = `resumed: ${fillName(step)} logged at ${last.text}`;
+    if (last.pressurePa - target < -step.bandPa) {
+      if (m >= setup.steps.length) return belowBand({ ...state, targetsPa: prior }, step, target, text);
+      const t = [...state.targetsPa];
+      t[m - 1] = target;
+      return belowBand(rejudge({ ...state, targetsPa: t }), step, target, text);
+    }
   }
   return undefined;
 }
@@ -672,7 +677,19 @@ const REVIEW_HOOKS: ReviewHooks = {
   enterStep: (s) => enterStep(s),
   rejudge: (s) => rejudge(s),
   retargetInput: (s) => retargetInput(s, s.done, s.targetTemperatureK),
+  continueFill: (s, now) => continueFromReview(s, now),
 };
+
+/**
+ * "VALUE INITIALS" on the review screen of an incomplete fill: the fill was continued; the reading is
+ * taken as on that fill's below-band screen (a further reading, logged as a correction "more gas
+ * added"); a refused one stays on the review with the reason
+ */
+function continueFromReview(s: FillState, now: string): FillState {
+  const next = onBelowEnter({ ...s, phase: 'below', review: undefined, current: s.done.length }, now);
+  if (next.error && !next.effects.length) return { ...s, input: '', error: next.error };
+  return next;
+}
 
 function gaugeUnit(step: FillStep): PressureUnit {
   return step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr';
@@ -1119,6 +1136,8 @@ function commit(s: FillState, p: Pending, extra: readonly NewLogEvent[] = [], no
       ],
     };
   }
+  // the fill stopped below its band: it is incomplete; continuing it is offered first (belowBand)
+  if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
   if (r.result.limitBinds) {
     const stop = capStop(next, r.result, `after fill ${step.index}`);
     if (stop) return stop;
@@ -1407,6 +1426,7 @@ function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: numb
           : 'a gauge with a higher range (the lab profile has none: stop adding gas and ask).');
   const absText = absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : '';
   return (
+    pastLimitFirst(s, step, absolutePa) +
     `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absText}, ` +
     `past its range (up to ${fmtIn(gauge.fullScalePa, unit)}): ${gauge.id} cannot show that, so it is NOT logged. ` +
     `Likely the unit or a typing slip (the target is ${fmtIn(target, unit)} on ${gauge.id}): type the number ` +
@@ -1414,8 +1434,43 @@ function pastRange(s: FillState, step: FillStep, shown: number, absolutePa: numb
   );
 }
 
+/**
+ * The danger a typed value past the gauge's range says first when it is past the tank's working limit
+ * too, as typed or as its bare number in the gauge's unit (the reading it would be if only the unit was
+ * a slip): if the tank really holds that, it is over its limit now. Empty when neither reading is.
+ */
+function pastLimitFirst(s: FillState, step: FillStep, absolutePa: number): string {
+  const limit = s.setup.workingLimitPa;
+  if (limit === undefined) return '';
+  const unit = gaugeUnit(step);
+  const tank = s.setup.header.tank;
+  const text = s.input.trim();
+  // a number with a unit (a bare number is in the gauge's unit already)
+  const m = READING_NUMBER.test(text)
+    ? null
+    : /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*[A-Za-z]/.exec(text);
+  // the bare number read in the gauge's unit, on its basis (gauge-referenced: above ambient)
+  const bare = m
+    ? Number(m[1]) * paPerUnit(unit) + (step.gauge?.reference === 'gauge' ? s.barometerPa : 0)
+    : NaN;
+  const readings = [
+    { pa: absolutePa, as: 'as typed' },
+    { pa: bare, as: `read as ${m?.[1]} ${unit}, the gauge's unit` },
+  ].filter((r) => r.pa > limit);
+  if (!readings.length) return '';
+  const r = readings[0];
+  const rated = tank.rated_pressure_Pa ? `, rated ${fmtIn(tank.rated_pressure_Pa, unit, 4)}` : '';
+  return (
+    `DANGER if the tank holds it: ${fmtIn(r.pa, unit)} absolute (${r.as}) is past the working limit ` +
+    `${fmtIn(limit, unit)} of ${tank.id}${rated}: stop adding gas, close the cylinder and tank valves, keep ` +
+    `clear of the tank and follow the lab's over-pressure procedure. Then: `
+  );
+}
+
 /** a signed number in plain notation, 3 significant figures (never "1.32e+3") */
 function signed(v: number): string {
+  // a reading typed at the target differs from it by the floating point only
+  if (Math.abs(v) < 1e-9) return '0';
   return `${v >= 0 ? '+' : '-'}${fixedSig(Math.abs(v), 3)}`;
 }
 
@@ -1426,8 +1481,29 @@ function signed(v: number): string {
  */
 function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText: string): FillState {
   const unit = gaugeUnit(step);
-  const { judgement, summary } = finalJudgement(s);
   const last = s.done[s.done.length - 1];
+  if (s.current < s.setup.steps.length) {
+    // a fill before the last: the fills ahead are re-targeted (s) but not entered; what going on from here
+    // would pass that the plan did not is said beside the offer to continue
+    const ahead = hazardsAhead(s, retargetInput(s, s.done, s.targetTemperatureK));
+    const passes = ahead.length
+      ? `. Going on from this reading instead (next) passes what the plan did not have: ${ahead
+          .map((h) => `${h.severity.toUpperCase()} ${h.code}${h.step ? ` (fill ${h.step})` : ''}`)
+          .join(', ')}`
+      : '';
+    return {
+      ...s,
+      phase: 'below',
+      input: '',
+      field: 'reading',
+      review: undefined,
+      message:
+        `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
+        `${fmtIn(targetPa, unit)} of ${fillName(step)} by more than its band (${fmtIn(step.bandPa, unit, 3)}): ` +
+        `the fill is incomplete${passes}`,
+    };
+  }
+  const { judgement, summary } = finalJudgement(s);
   return {
     ...s,
     phase: 'below',
@@ -1564,11 +1640,13 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
       phase: 'reading',
       pending: undefined,
       overLimit: undefined,
-      input: p.typed,
+      // the field is cleared, as after a refusal: one Enter must never log the mistyped value again
+      input: '',
       effects: [withdraw],
       message:
         `the reading ${p.done.text} of fill ${step.index} is withdrawn by ${edit[1]} ` +
-        `as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading`,
+        `as mistyped; the log keeps it, the withdrawal and the reason. Type the right reading ` +
+        `(the field is empty: type it anew)`,
     };
   }
   const acc = /^accept\s+([A-Za-z]{1,6})$/.exec(text);
@@ -1894,7 +1972,7 @@ function onCommand(s: FillState, text: string): FillState | undefined {
     return {
       ...s,
       phase: 'correct',
-      correcting: { step: n, by: fix[2] },
+      correcting: { step: n, by: fix[2], ...(s.phase === 'below' ? { back: 'below' as const } : {}) },
       input: '',
       field: 'reading',
       temperatureText: degC(d.temperatureK),
@@ -1967,6 +2045,19 @@ function onCorrectEnter(s: FillState, now: string): FillState {
       `original stays in the log)${over}`,
   };
   if (next.current >= s.setup.steps.length) return afterBelowCorrection(next, now);
+  if (c.back === 'below') {
+    // corrected from the screen of an incomplete fill: its target follows the readings before it
+    const m = next.done.length;
+    const before: FillState = { ...next, done: next.done.slice(0, -1), current: m - 1 };
+    const target = retargetRun(before, before.done, next.targetTemperatureK).targets[m - 1];
+    const judged = rejudge(next);
+    const ls = s.setup.steps[m - 1];
+    if (next.done[m - 1].pressurePa - target < -ls.bandPa) {
+      const t = [...judged.targetsPa];
+      t[m - 1] = target;
+      return belowBand({ ...judged, targetsPa: t }, ls, target, next.message ?? '');
+    }
+  }
   next = rejudge(next);
   const cap = capAfterChange({ ...next, review: undefined }, `after the correction of fill ${c.step}`);
   if (cap) return cap;
@@ -2063,7 +2154,7 @@ function onEscape(base: FillState): FillState {
   if (base.phase === 'correct')
     return {
       ...base,
-      phase: base.current >= base.setup.steps.length ? 'below' : 'reading',
+      phase: base.current >= base.setup.steps.length || base.correcting?.back ? 'below' : 'reading',
       correcting: undefined,
       input: '',
       temperatureText: degC(base.targetTemperatureK),
@@ -2317,39 +2408,29 @@ function onStartEnter(s: FillState, now: string): FillState {
 }
 
 /**
- * The last fill read below its band. "VALUE INITIALS": more gas was added, the new reading corrects
- * this step's reading (reason "more gas added"; the final re-check uses it); "undo INITIALS": the
- * reading is withdrawn; "close INITIALS": the batch is closed as it is (the re-check judges it).
+ * A fill read below its band. "VALUE INITIALS": more gas was added, the new reading corrects this
+ * step's reading (reason "more gas added"; the re-check uses it); "undo INITIALS": the reading is
+ * withdrawn; on the last fill "close INITIALS": the batch is closed as it is (the re-check judges it);
+ * on a fill before it "next": go on from the logged reading.
  */
 function onBelowEnter(s: FillState, now: string): FillState {
   const text = s.input.trim();
-  const close = /^close\s+([A-Za-z]{1,6})$/i.exec(text);
-  if (/^close\b/i.test(text) && !close)
-    return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  const lastFill = s.current >= s.setup.steps.length;
   const last = s.done[s.done.length - 1];
   const step = s.setup.steps[s.done.length - 1];
   const unit = gaugeUnit(step);
-  if (close) {
-    const f = finish(
-      { ...s, input: '' },
-      now,
-      `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
-    );
-    return {
-      ...f,
-      message:
-        `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
-        `the re-check below judges the tank as it is`,
-    };
-  }
+  if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, step, last);
+  if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
-  const w = withInitials(text, 'new reading after adding gas', '1500.2 AB');
+  const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
   if ('error' in w)
     return {
       ...s,
       error:
-        `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or close INITIALS ` +
-        `(closes the batch below the target)`,
+        `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
+        (lastFill
+          ? 'close INITIALS (closes the batch below the target)'
+          : 'next (go on from the logged reading; the fills ahead re-targeted from it)'),
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);
@@ -2413,8 +2494,52 @@ function onBelowEnter(s: FillState, now: string): FillState {
       message: pressureText,
     };
   }
-  if (deviation < -step.bandPa) return belowBand(next, step, target, pressureText);
-  return { ...finish(next, now), message: pressureText };
+  if (deviation < -step.bandPa) {
+    const again = lastFill
+      ? next
+      : { ...next, targetsPa: retargetRun(next, done, parsed.temperatureK).targets };
+    return belowBand(again, step, target, pressureText);
+  }
+  if (lastFill) return { ...finish(next, now), message: pressureText };
+  // the fill is complete now: the fills ahead are re-targeted from it and reviewed, as after any reading
+  const judged = rejudge({ ...next, targetTemperatureK: parsed.temperatureK, message: pressureText });
+  const cap = capAfterChange({ ...judged, review: undefined }, `after fill ${step.index}`);
+  if (cap) return cap;
+  return reviewed(enterStep({ ...judged, phase: 'reading', review: undefined }), 'correction');
+}
+
+/** close INITIALS on the below-band screen: the last fill's only (the batch closed as it is) */
+function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolean, now: string): FillState {
+  const close = /^close\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!lastFill)
+    return {
+      ...s,
+      error: `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type next`,
+    };
+  if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  const f = finish(
+    { ...s, input: '' },
+    now,
+    `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
+  );
+  return {
+    ...f,
+    message:
+      `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
+      `the re-check below judges the tank as it is`,
+  };
+}
+
+/** next on the screen of an incomplete fill before the last: go on from its logged reading, reviewed */
+function goOnFromBelow(s: FillState, step: FillStep, last: DoneReading): FillState {
+  const left: FillState = {
+    ...s,
+    input: '',
+    message: `${fillName(step)} left at ${last.text}, below its band: the fills ahead are re-targeted from it`,
+  };
+  const cap = capAfterChange({ ...left, review: undefined }, `after fill ${step.index}`);
+  if (cap) return cap;
+  return reviewed(enterStep({ ...left, phase: 'reading' }), 'reading');
 }
 
 /** the premix check's pressures as read on its gauge (gauge-referenced: today's barometer) */

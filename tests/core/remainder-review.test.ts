@@ -110,3 +110,50 @@ describe('review of the re-targeted remainder', () => {
     expect(rv.result.remaining.map((x) => x.targetPa)).toEqual(retarget(i).remaining.map((x) => x.targetPa));
   });
 });
+
+describe('an incomplete diluent charge: continuing it is the safer way', () => {
+  // the Ar charge 1 of 2 (stop 400 Torr) read at 150 Torr after CH4 at the target: O2 onto 150 Torr
+  // puts about 10.01 Torr CH4 with 20.03 Torr O2 in 170 Torr: 5.9 % fuel, 11.8 % O2 as read (ideal
+  // partial pressures, by hand), past the LFL 4.4 % and the LOC 10.7 % before Ar counts as 0.55 N2:
+  // flammable, where the plan was not
+  const ch4 = plan.steps[0].targetPa / TORR;
+  const band = plan.steps[1].bandPa;
+  it('without the band of the fill read, no continuation: no charge ahead holds a diluent stop (the trial finding)', () => {
+    const rv = review(input([ch4, 150]));
+    expect(codes(rv.hazards)).toContain('flammable-state@3');
+    expect(rv.continuation).toBeUndefined();
+    expect(rv.noAlternative).toBe('no-diluent-stop');
+  });
+  it('with it: continuing the Ar charge to its stop (400 Torr, the plan) is clean and offered, no stop searched', () => {
+    const rv = reviewRemainder({
+      retarget: input([ch4, 150]),
+      safety,
+      planned,
+      readingGrid: () => grid,
+      lastBandPa: band,
+    });
+    expect(codes(rv.hazards)).toContain('flammable-state@3');
+    const c = rv.continuation!;
+    expect(c).toBeDefined();
+    expect(c.fill).toBe(1);
+    expect(c.sourceId).toBe(plan.steps[1].source.id);
+    // the stop held (the re-target keeps it exactly), from the reading as the virial model gives it (0.01 Torr)
+    expect(c.toPa / TORR).toBeCloseTo(400, 9);
+    expect(c.fromPa / TORR).toBeCloseTo(150, 2);
+    expect(c.clean).toBe(true);
+    expect(c.hazards).toEqual([]);
+    expect(rv.noAlternative).toBeUndefined();
+    expect(rv.alternative).toBeUndefined();
+    expect(rv.evaluations).toBe(1);
+  });
+  it('a charge read inside its band is complete: no continuation (the review is as before)', () => {
+    const rv = reviewRemainder({
+      retarget: input([14.0179, 400]),
+      safety,
+      planned,
+      readingGrid: () => grid,
+      lastBandPa: band,
+    });
+    expect(rv.continuation).toBeUndefined();
+  });
+});

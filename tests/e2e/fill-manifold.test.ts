@@ -176,7 +176,8 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       await t.waitFor(/fill 2 of 3/);
       await t.type('1408');
       await t.keys('Enter');
-      await t.waitFor(/fill 3 of 3/);
+      // below the Ar band (about 1480 Torr): the fill is incomplete and its screen stays, fix works there
+      await t.waitFor(/BELOW ITS BAND/);
       await t.type('fix 2 AB');
       await t.keys('Enter');
       await t.waitFor(/correct the reading of fill 2/);

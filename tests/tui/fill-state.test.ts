@@ -47,7 +47,7 @@ describe('guided fill state machine', () => {
     const r = read(s0, '1890.2 kPa');
     expect(r.effects).toEqual([]);
     expect(r.error).toMatch(
-      /^typed "1890\.2 kPa" = 14177\.7 Torr on head-1kT, past its range \(up to 1000\.00 Torr\): head-1kT cannot show that, so it is NOT logged\..* If head-1kT itself shows over-range, close its valve and read MT-1 on head-10kT \(up to 10000\.0 Torr\)\.$/,
+      /^DANGER if the tank holds it: 14177\.7 Torr absolute \(as typed\) is past the working limit 2700\.22 Torr of MT-1.*Then: typed "1890\.2 kPa" = 14177\.7 Torr on head-1kT, past its range \(up to 1000\.00 Torr\): head-1kT cannot show that, so it is NOT logged\..* If head-1kT itself shows over-range, close its valve and read MT-1 on head-10kT \(up to 10000\.0 Torr\)\.$/,
     );
   });
   it('a reading typed while the temperature field cannot be read ("35", no unit) is kept; the refusal names the temperature field; corrected, Enter logs it', () => {
@@ -115,12 +115,12 @@ describe('guided fill state machine', () => {
     // what it is on the gauge, its range, what to do; and what the gauge's own over-range would mean:
     // head-10kT reads up to 10000 Torr, past MT-1's working limit 2700.22 Torr (4 bar x 0.9)
     expect(read(s1, '20000').error).toMatch(
-      /^typed "20000" = 20000\.0 Torr on head-10kT, past its range \(up to 10000\.0 Torr\): head-10kT cannot show that, so it is NOT logged\. Likely the unit or a typing slip \(the target is [\d.]+ Torr on head-10kT\): type the number the gauge shows, in Torr\. If head-10kT itself shows over-range, MT-1 is above 10000\.0 Torr absolute, past its working limit 2700\.22 Torr: DANGER - stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\.$/,
+      /^DANGER if the tank holds it: 20000\.0 Torr absolute \(as typed\) is past the working limit 2700\.22 Torr of MT-1, rated 3000 Torr: stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\. Then: typed "20000" = 20000\.0 Torr on head-10kT, past its range \(up to 10000\.0 Torr\): head-10kT cannot show that, so it is NOT logged\. Likely the unit or a typing slip \(the target is [\d.]+ Torr on head-10kT\): type the number the gauge shows, in Torr\. If head-10kT itself shows over-range, MT-1 is above 10000\.0 Torr absolute, past its working limit 2700\.22 Torr: DANGER - stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\.$/,
     );
     // 480.81 psi (the target's number in psi) = 24865.x Torr (1 psi = 51.7149 Torr, NIST SP 811)
     const far = read(s1, '480.81 psi');
     expect(far.error).toMatch(
-      /^typed "480\.81 psi" = 24865\.\d Torr on head-10kT, past its range .* NOT logged/,
+      /^DANGER .*Then: typed "480\.81 psi" = 24865\.\d Torr on head-10kT, past its range .* NOT logged/,
     );
     expect(far.error).not.toMatch(/higher range/);
     expect(far.effects).toEqual([]);
@@ -283,12 +283,17 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(esc.error).toMatch(/logged/);
   });
 
-  it('edit INITIALS (mistyped): a withdrawal with initials and reason, the typed text back; check still reports the over-limit line as withdrawn', async () => {
+  it('edit INITIALS (mistyped): a withdrawal with initials and reason, the field cleared; check still reports the over-limit line as withdrawn', async () => {
     const { s1, logged: d } = overLimit();
     const e = enter(type(d, 'edit JD'));
     expect(e.phase).toBe('reading');
     expect(e.current).toBe(1);
-    expect(e.input).toBe('2800');
+    // the mistyped value is not given back: one Enter must not log it a second time
+    expect(e.input).toBe('');
+    const again = enter(e);
+    expect(again.effects).toEqual([]);
+    expect(again.phase).toBe('reading');
+    expect(again.error).toMatch(/type the reading first/);
     expect(e.effects).toEqual([
       expect.objectContaining({
         kind: 'withdraw',
@@ -582,13 +587,15 @@ describe('undo and correction, written through the batch log (lines, chain, chec
     f.typeEnter('10.01');
     f.typeEnter('1408');
     expect(f.get().current).toBe(2);
+    // 1408 Torr is below the Ar band (about 1480 Torr): the fill is incomplete, its screen stays
+    expect(f.get().phase).toBe('below');
     expect(f.typeEnter('undo').error).toMatch(/undo AB/);
-    // undo asks a short reason first: nothing is logged yet, Esc cancels
+    // undo asks a short reason first: nothing is logged yet, Esc cancels (back to that screen)
     const ask = f.typeEnter('undo AB');
     expect(ask.phase).toBe('undo-reason');
     expect(ask.effects).toEqual([]);
     const esc = f.step({ type: 'escape' });
-    expect(esc.phase).toBe('reading');
+    expect(esc.phase).toBe('below');
     expect(esc.current).toBe(2);
     expect(esc.message).toMatch(/undo cancelled; nothing logged/);
     f.typeEnter('undo AB');
