@@ -760,7 +760,8 @@ export function checkToJson(r: CheckReport, version: string): object {
           from: r.tank.from,
         }
       : null,
-    danger: r.findings.some((f) => f.severity === 'danger'),
+    // any danger that stands: of the finished tank or of the fill as recorded (not accepted)
+    danger: r.findings.some((f) => f.severity === 'danger') || (r.recordedFillDangers?.length ?? 0) > 0,
     barometer: r.barometer
       ? {
           pressure_Pa: r.barometer.pressurePa,

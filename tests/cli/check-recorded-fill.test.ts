@@ -131,6 +131,8 @@ describe('check of CSV readings filled CH4, O2, Ar against the recipe (planned C
       ['recorded-fill-danger'],
     ]);
     expect(j.recorded_fill_dangers_not_accepted).toEqual([{ code: 'detonable-state', step: 2 }]);
+    // the danger key says a danger stands, though the finished tank itself has none
+    expect(j.danger).toBe(true);
     expect(j.recorded_fill.order_differs).toBe('order');
     expect(j.recorded_fill.order).toEqual(['cyl-CH4', 'cyl-O2', 'cyl-Ar']);
   });

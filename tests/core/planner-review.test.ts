@@ -109,7 +109,7 @@ describe('plan stage 5: review', () => {
     ).toBe(
       'every intermediate tank state is non-flammable and free of the hazards checked, and so is every fill ' +
         'path short of the finished mixture, which itself has flammable-mixture (fill 3) (see the findings); ' +
-        'the plan still has 1 danger: supply-pressure-low (fill 3)',
+        'besides the tank states and fills, the plan has 1 more danger: supply-pressure-low (fill 3)',
     );
   });
 

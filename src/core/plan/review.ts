@@ -150,7 +150,9 @@ export function safetyClause(findings: readonly Finding[], lastStep: number): st
       `every fill path short of the finished mixture, which itself has ${listed(mixture)} (see the findings)`;
   else clause = CLEAN_CLAIM;
   if (other.length)
-    clause += `; the plan still has ${other.length} danger${other.length > 1 ? 's' : ''}: ${listed(other)}`;
+    clause +=
+      `; besides the tank states and fills, the plan has ${other.length} more ` +
+      `danger${other.length > 1 ? 's' : ''}: ${listed(other)}`;
   return clause;
 }
 
