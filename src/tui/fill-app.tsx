@@ -698,9 +698,14 @@ function StepDangers({ state }: ScreenProps) {
       {warnings.map((f, i) => {
         // two screen rows at most
         const head = `warning ${f.code} (this fill, the plan): `;
+        // a precision warning says what is over the tolerance (its first clause), not its advice
+        const body =
+          f.code === 'predicted-u-over-tolerance'
+            ? f.message.split(':')[0].slice(0, 156 - head.length)
+            : adviceOf(f.message, 156 - head.length);
         return (
           <Text key={`w${i}`} wrap="wrap">
-            {head + adviceOf(f.message, 156 - head.length)}
+            {head + body}
           </Text>
         );
       })}
