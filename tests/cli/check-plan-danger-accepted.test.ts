@@ -8,44 +8,25 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { appendEvent, createLog } from '../../src/io/batch-log.js';
-import { checkFile, headerFromPlan } from '../../src/io/check.js';
+import { checkFile } from '../../src/io/check.js';
 import { verdictWord } from '../../src/report/check-report.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planFill } from '../../src/core/index.js';
 import { runCli } from '../helpers.js';
+import { logAtTargets } from '../log-at-targets.js';
 
 /** the log a guided fill writes when TT accepts the plan's dangers (as fill-state.ts words them) */
 function ngLog(accept: boolean): string {
   const req = buildPlanRequest(readRecipe('recipes/ng-blend-air.yaml'));
   const plan = planFill(req.input);
   const f = join(mkdtempSync(join(tmpdir(), 'mw-plan-danger-')), 'ng1.jsonl');
-  createLog(f, headerFromPlan(plan, req, 'ng1', '2026-12-02T09:00:00Z', f));
-  if (accept)
-    for (const d of plan.findings.filter((x) => x.severity === 'danger'))
-      appendEvent(f, {
-        kind: 'acknowledge',
-        code: d.code,
-        step: d.step ?? null,
-        by: 'TT',
-        time: '2026-12-02T09:05:00Z',
-        note: 'the plan danger as shown',
-      });
-  for (const s of plan.steps)
-    appendEvent(f, {
-      kind: 'reading',
-      step: s.index,
-      source: s.source.id,
-      gauge: s.gauge!.id,
-      reading: `${s.targetPa} Pa`,
-      pressure_Pa: s.targetPa,
-      temperature: `${plan.temperatureK} K`,
-      temperature_K: plan.temperatureK,
-      time: `2026-12-02T09:1${s.index}:00Z`,
-      by: 'TT',
-    });
-  appendEvent(f, { kind: 'close', time: '2026-12-02T09:30:00Z' });
-  return f;
+  return logAtTargets(
+    f,
+    plan,
+    req,
+    'ng1',
+    accept ? { by: 'TT', note: 'the plan danger as shown' } : undefined,
+  );
 }
 
 describe("a plan's danger accepted at the start of the fill", () => {

@@ -16,6 +16,7 @@ import { checkFile, headerFromPlan } from '../../src/io/check.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planFill, pureCylinder, recordedStates, TORR_PA } from '../../src/core/index.js';
 import { runCli } from '../helpers.js';
+import { logAtTargets } from '../log-at-targets.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const ROWS =
@@ -34,32 +35,13 @@ function planInOrder() {
 function orderLog(dir: string, accept: boolean): string {
   const { req, plan } = planInOrder();
   const f = join(dir, `order-${accept ? 'accepted' : 'bare'}.jsonl`);
-  createLog(f, headerFromPlan(plan, req, 'order1', '2026-12-02T09:00:00Z', f));
-  if (accept)
-    for (const d of plan.findings.filter((x) => x.severity === 'danger'))
-      appendEvent(f, {
-        kind: 'acknowledge',
-        code: d.code,
-        step: d.step ?? null,
-        by: 'TT',
-        time: '2026-12-02T09:05:00Z',
-        note: 'the plan danger as shown',
-      });
-  for (const s of plan.steps)
-    appendEvent(f, {
-      kind: 'reading',
-      step: s.index,
-      source: s.source.id,
-      gauge: s.gauge!.id,
-      reading: `${s.targetPa} Pa`,
-      pressure_Pa: s.targetPa,
-      temperature: `${plan.temperatureK} K`,
-      temperature_K: plan.temperatureK,
-      time: `2026-12-02T09:1${s.index}:00Z`,
-      by: 'TT',
-    });
-  appendEvent(f, { kind: 'close', time: '2026-12-02T09:30:00Z' });
-  return f;
+  return logAtTargets(
+    f,
+    plan,
+    req,
+    'order1',
+    accept ? { by: 'TT', note: 'the plan danger as shown' } : undefined,
+  );
 }
 
 describe('the states of the fill as recorded', () => {

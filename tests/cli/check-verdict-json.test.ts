@@ -8,10 +8,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
-import { appendEvent, createLog } from '../../src/io/batch-log.js';
-import { headerFromPlan } from '../../src/io/check.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { runCli } from '../helpers.js';
+import { logAtTargets } from '../log-at-targets.js';
 
 const TRIALS = ['--trials', '100000'];
 const PREMIX = 'batches/demo-premix-o2-ar-mt2.jsonl';
@@ -22,31 +21,7 @@ function ngLog(name: string, accept: boolean): string {
   const req = buildPlanRequest(readRecipe('recipes/ng-blend-air.yaml'));
   const plan = planFill(req.input);
   const f = join(dir, name);
-  createLog(f, headerFromPlan(plan, req, 'ng1', '2026-12-02T09:00:00Z', f));
-  if (accept)
-    for (const d of plan.findings.filter((x) => x.severity === 'danger'))
-      appendEvent(f, {
-        kind: 'acknowledge',
-        code: d.code,
-        step: d.step ?? null,
-        by: 'TT',
-        time: '2026-12-02T09:05:00Z',
-      });
-  for (const s of plan.steps)
-    appendEvent(f, {
-      kind: 'reading',
-      step: s.index,
-      source: s.source.id,
-      gauge: s.gauge!.id,
-      reading: `${s.targetPa} Pa`,
-      pressure_Pa: s.targetPa,
-      temperature: `${plan.temperatureK} K`,
-      temperature_K: plan.temperatureK,
-      time: `2026-12-02T09:1${s.index}:00Z`,
-      by: 'TT',
-    });
-  appendEvent(f, { kind: 'close', time: '2026-12-02T09:30:00Z' });
-  return f;
+  return logAtTargets(f, plan, req, 'ng1', accept ? { by: 'TT' } : undefined);
 }
 
 async function json(args: string[]) {
