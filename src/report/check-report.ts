@@ -428,7 +428,8 @@ function recordedFillLines(r: CheckReport): string[] {
     );
   if (!f.findings.length)
     out.push(
-      '  the review finds no danger and no warning on the recorded states and fill paths (of the hazards it checks)',
+      '  the review finds no danger and no warning of the gas on the recorded states and fill paths (of the ' +
+        "hazards it checks; the readings against the tank's working limit are judged with the record above)",
     );
   if (f.notes.length) out.push(`  notes: ${f.notes.join(', ')}`);
   for (const x of f.findings)
