@@ -311,7 +311,8 @@ describe('fuzz: hostile files and numbers', () => {
             );
             judge(
               await run(['check', f, '--trials', trials]),
-              [0, 2, 4],
+              // no --recipe: no design, so never a pass (NO DESIGN, exit 7; README "Exit codes")
+              [2, 4, 7],
               `check ${rows.join(' | ')} --trials ${trials}`,
             );
           },
@@ -436,7 +437,8 @@ describe('fuzz: hostile files and numbers', () => {
             const rows = `species,pressure,temperature,gauge\nCH4,${p} ${u},${t} ${v},head-1kT\nAr,${Number(p) + 5} psi,25 degC,xdcr-100g\n`;
             const cargs = ['check', file('csv', rows), '--trials', '100000'];
             if (baro) cargs.push('--barometer', baro);
-            judge(await run(cargs), [0, 2, 4], cargs.join(' '));
+            // no --recipe: no design, so never a pass (NO DESIGN, exit 7; README "Exit codes")
+            judge(await run(cargs), [2, 4, 7], cargs.join(' '));
           },
         ),
         { numRuns: Math.ceil(RUNS / 16) },
