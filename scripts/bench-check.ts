@@ -276,7 +276,7 @@ if (mode === 'proposal') {
     }
     const run = () => {
       const t0 = performance.now();
-      const f = twoStageProposal(plan, r, 'bench');
+      const f = twoStageProposal(plan, r, { command: 'bench' });
       return { f, ms: performance.now() - t0 };
     };
     const first = run();

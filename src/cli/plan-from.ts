@@ -1,6 +1,12 @@
 /** A recipe file and the design options -> the plan, with every refusal pointed at the file line or option. */
 import { planWithPrediction } from '../io/plan-predict.js';
-import { planTwoStageFrom, twoStageInputOf, twoStageProposal } from '../io/two-stage-request.js';
+import {
+  orderText,
+  planTwoStageFrom,
+  twoStageInputOf,
+  twoStageProposal,
+  type ProposalCommand,
+} from '../io/two-stage-request.js';
 import {
   planFromPremixLog,
   premixLogAsked,
@@ -16,7 +22,13 @@ import {
   type Finding,
   type Plan,
 } from '../core/index.js';
-import { buildPlanRequest, locateCoreProblem, readRecipe, type PlanRequest } from '../io/load.js';
+import {
+  buildPlanRequest,
+  locateCoreProblem,
+  readRecipe,
+  type PlanRequest,
+  type RecipeSource,
+} from '../io/load.js';
 import { gaugeConversionWords, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { Cli } from './context.js';
 import type { PlanMeta } from '../report/plan-json.js';
@@ -83,19 +95,22 @@ export function stateGaugeConversions(req: PlanRequest, cli: Pick<Cli, 'err'>): 
 
 /**
  * the command a proposal names, runnable as it stands but for the premix tank the proposal adds:
- * the plan of this recipe file with the design options as given (the order left out: the two-stage
- * plan chooses it, and refuses one given with a premix tank)
+ * the plan of this recipe file with the design options as given. A premix tank takes no fill order
+ * (`stage-order`): a --order given is left out and named (`orderLeftOut`); a recipe file that fixes
+ * an order gets no command (the file would still give it), only why (`recipeOrder`)
  */
-function proposalCommand(recipeFile: string | undefined, o: DesignValues): string {
+function proposalCommand(rs: RecipeSource | undefined, o: DesignValues): ProposalCommand {
+  const fileOrder = rs?.recipe.order;
+  if (rs && fileOrder) return { recipeOrder: { file: rs.origin, order: orderText(fileOrder) } };
   const words = ['mixwright', 'plan'];
-  if (recipeFile) words.push(recipeFile);
+  if (rs) words.push(rs.origin);
   for (const d of DESIGN_OPTIONS) {
     const v = o[attributeOf(d)];
     if (v === undefined || d.recipe === 'order' || d.recipe === 'premix.tank' || d.recipe === 'premix.log')
       continue;
     words.push(optionName(d), v);
   }
-  return shellLine(words);
+  return { command: shellLine(words), ...(o.order !== undefined ? { orderLeftOut: o.order } : {}) };
 }
 
 /**
@@ -122,7 +137,7 @@ export function planFrom(recipeFile: string | undefined, o: DesignValues, propos
         ? planFromPremixLog(req, premixAsk, premixRec)
         : planWithPrediction(planFill(req.input), req);
     proposal =
-      two || premixAsk || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(recipeFile, o));
+      two || premixAsk || !propose ? undefined : twoStageProposal(plan, req, proposalCommand(base, o));
   } catch (e) {
     // the core names the recipe field (pressure, temperature, ...): point at it in the file or option;
     // a refused premix log is already pointed at the option or recipe line that named it

@@ -234,8 +234,15 @@ export type Finding = Base &
         readonly tolerance: number;
         /** the two-stage batch's worst U / tolerance over its design fractions */
         readonly twoStageWorst: number;
-        /** the command line that plans it (the recipe or the design options as given, --premix-tank) */
-        readonly command: string;
+        /**
+         * the command line that plans it (the recipe or the design options as given, --premix-tank);
+         * absent when no such command can run: the recipe file fixes a fill order (`recipeOrder`)
+         */
+        readonly command?: string;
+        /** the --order given, which the command leaves out (a premix tank takes no fill order) */
+        readonly orderLeftOut?: string;
+        /** the recipe file's own fill order, which a premix tank refuses: why no command is given */
+        readonly recipeOrder?: { readonly file: string; readonly order: string };
         /** the codes of the warnings either stage of the proposed plan carries (none: empty) */
         readonly warnings: readonly string[];
       }

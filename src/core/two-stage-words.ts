@@ -35,10 +35,20 @@ function proposed(f: Of<'two-stage-proposed'>): string {
     ? `; its plan carries warning${f.warnings.length > 1 ? 's' : ''} (${f.warnings.join(', ')}): ` +
       `read ${f.warnings.length > 1 ? 'them' : 'it'} in the two-stage plan before choosing it`
     : '';
-  return (
+  const head =
     `a premix of ${f.premix} in ${f.premixTank} first would give U of x(${f.species}) ` +
-    `${rel(f.twoStageU)} instead of ${rel(f.singleU)}${warned}: ${f.command}`
-  );
+    `${rel(f.twoStageU)} instead of ${rel(f.singleU)}${warned}`;
+  // a premix tank takes no fill order (stage-order): the two-stage plan chooses the batch's order
+  const why =
+    'a premix tank takes no fill order (the two-stage plan chooses the batch order around its premix)';
+  if (f.recipeOrder)
+    return (
+      `${head}; no command is given, since ${f.recipeOrder.file} fixes the fill order ` +
+      `(order: ${f.recipeOrder.order}) and ${why}: take order: out of a copy of the recipe, then ` +
+      `plan that copy with --premix-tank ${f.premixTank}`
+    );
+  const left = f.orderLeftOut ? ` (--order ${f.orderLeftOut} left out: ${why})` : '';
+  return `${head}: ${f.command ?? ''}${left}`;
 }
 
 export const TWO_STAGE_WORDING = {

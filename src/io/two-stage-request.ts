@@ -100,6 +100,17 @@ export function premixName(composition: Readonly<Record<string, number>>, minor:
 }
 
 /**
+ * the command line a proposal gives (without the --premix-tank it adds), or why none can run: the
+ * recipe file fixes a fill order, which a premix tank refuses (`stage-order`)
+ */
+export interface ProposalCommand {
+  readonly command?: string;
+  /** the --order given, left out of the command */
+  readonly orderLeftOut?: string;
+  readonly recipeOrder?: { readonly file: string; readonly order: string };
+}
+
+/**
  * When the single-tank plan predicts a design fraction over tolerance and the lab has another
  * tank: plan the two stages (the search `--premix-tank` runs, less the premix pressures at which the
  * premix tank certainly runs low: a danger the proposal never offers) and, when it does better, a
@@ -110,7 +121,7 @@ export function premixName(composition: Readonly<Record<string, number>>, minor:
 export function twoStageProposal(
   plan: PredictedPlan,
   req: PlanRequest,
-  command: string,
+  command: ProposalCommand,
 ): Finding | undefined {
   const over = plan.predicted?.rows.filter((r) => r.kind === 'fraction' && !r.within) ?? [];
   if (!over.length) return undefined;
@@ -140,7 +151,11 @@ export function twoStageProposal(
     twoStageU: row.expandedU / row.design,
     tolerance: worst.tolerance / worst.design,
     twoStageWorst: best.worstRatio,
-    command: `${command} --premix-tank ${best.premix.tank.id}`,
+    ...(command.command !== undefined
+      ? { command: `${command.command} --premix-tank ${best.premix.tank.id}` }
+      : {}),
+    ...(command.orderLeftOut !== undefined ? { orderLeftOut: command.orderLeftOut } : {}),
+    ...(command.recipeOrder ? { recipeOrder: command.recipeOrder } : {}),
     warnings: [
       ...new Set(
         [...best.premix.findings, ...best.batch.findings]

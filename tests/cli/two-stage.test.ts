@@ -1,5 +1,5 @@
 // plan with a premix in a second tank: --premix-tank, the recipe's premix block, and the proposal.
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -103,6 +103,54 @@ describe('mixwright plan --premix-tank', () => {
     );
     expect(two.two_stage).not.toBeNull();
   }, 120_000);
+
+  it('a fill order given (--order, or order: in the recipe) never gets a proposal command that is refused', async () => {
+    // a premix tank takes no fill order (stage-order, exit 2): the printed command must run as printed
+    const words = (line: string) =>
+      [...line.matchAll(/'((?:[^']|'\\'')*)'|(\S+)/g)].map((m) =>
+        m[1] !== undefined ? m[1].replace(/'\\''/g, "'") : m[2],
+      );
+    const runs = async (command: string) => {
+      const argv = words(command);
+      expect(argv.slice(0, 2)).toEqual(['mixwright', 'plan']);
+      const r = await runCli([...argv.slice(1), '--json']);
+      expect(r.stderr).toBe('');
+      expect(r.code).toBe(0);
+      expect(JSON.parse(r.stdout).two_stage.premix_tank).toBe('MT-2');
+    };
+    // --order on the command line: left out of the command, and said so
+    const inline = JSON.parse(
+      (await runCli(['plan', RECIPE, '--order', 'CH4,Ar,O2', '--json'])).stdout,
+    ).two_stage_proposal;
+    expect(inline.command).toBe(`mixwright plan ${RECIPE} --premix-tank MT-2`);
+    expect(inline.order_left_out).toBe('CH4,Ar,O2');
+    expect(inline.message).toContain('(--order CH4,Ar,O2 left out: a premix tank takes no fill order');
+    await runs(inline.command);
+    // order: in the recipe file: the file would give it again, so no command, and why and what to do
+    const dir = mkdtempSync(join(tmpdir(), 'mw-order-proposal-'));
+    const body = readFileSync(RECIPE, 'utf8');
+    const withOrder = join(dir, 'ordered.yaml');
+    writeFileSync(withOrder, `${body}order: [CH4, Ar, O2]\n`);
+    const r = await runCli(['plan', withOrder, '--json']);
+    expect(r.code).toBe(0);
+    const f = JSON.parse(r.stdout).two_stage_proposal;
+    expect(f.command).toBeUndefined();
+    expect(f.recipe_order).toEqual({ file: withOrder, order: 'CH4,Ar,O2' });
+    expect(f.message).toContain(`no command is given, since ${withOrder} fixes the fill order`);
+    expect(f.message).toContain(
+      'take order: out of a copy of the recipe, then plan that copy with --premix-tank MT-2',
+    );
+    // the text says the same, and names no command that would be refused
+    const text = (await runCli(['plan', withOrder])).stdout;
+    expect(text).toContain('no command is given');
+    expect(text).not.toContain(`mixwright plan ${withOrder} --premix-tank`);
+    // what the message says to do runs: the copy without order:, with --premix-tank
+    const copy = join(dir, 'copy.yaml');
+    writeFileSync(copy, body);
+    await runs(`mixwright plan ${copy} --premix-tank MT-2`);
+    // and the command it would have printed is refused, which is why it prints none
+    expect((await runCli(['plan', withOrder, '--premix-tank', 'MT-2'])).code).toBe(2);
+  }, 180_000);
 
   it('an unknown premix tank, or the batch tank itself, is refused with exit 2', async () => {
     const unknown = await runCli(['plan', RECIPE, '--premix-tank', 'MT-9']);
