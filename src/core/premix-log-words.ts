@@ -94,7 +94,34 @@ export function describePremixLogProblem(
       );
     case 'not-the-premix':
       return describeNotThePremix(at, c);
+    case 'not-a-pass':
+      return describeNotAPass(at, c);
   }
+}
+
+/** a premix log whose record stands against a pass (check's outcome): what, why, what to do */
+function describeNotAPass(
+  at: string,
+  c: Extract<Extract<Problem, { code: 'premix-log-refused' }>['cause'], { kind: 'not-a-pass' }>,
+): string {
+  const list = c.hazards.map((h) => `${h.code}${h.step !== null ? ` (fill ${h.step})` : ''}`).join(', ');
+  const one = c.hazards.length === 1;
+  const what =
+    c.outcome === 'plan-danger-not-acknowledged'
+      ? `PLAN DANGER NOT ACKNOWLEDGED: the premix plan's safety review found ${list} ` +
+        `(${one ? 'a danger' : 'dangers'}) and the log records no acknowledgement of ${one ? 'it' : 'them'}`
+      : c.outcome === 'recorded-fill-danger'
+        ? `DANGER IN THE RECORDED FILL: the safety review of the premix fill as recorded finds ${list} ` +
+          `(${one ? 'a danger' : 'dangers'}), not shown accepted`
+        : `ACCEPTED HAZARD: the premix fill went on through ${list}` +
+          `${c.by?.length ? `, accepted by ${c.by.join(', ')}` : ''} at the manifold`;
+  return (
+    `${at} is not a pass (${what}): its composition may be within tolerance, but its record says the ` +
+    'premix tank went through states reviewed as dangerous, and `mixwright check` of that log gives no pass ' +
+    '(exit 6); a batch is filled only from a premix whose re-check is a pass. Have the premix fill and ' +
+    'tank reviewed under local practice (see `mixwright check` on that log), then make a new premix ' +
+    '(plan it again: its plan says how to fill without the hazard), or fill the batch in one tank'
+  );
 }
 
 /** the --premix-log given is not the log of the premix a CSV row names: what it is, what is needed, what to do */

@@ -399,6 +399,17 @@ export type PremixLogCause =
   /** lines that do not match the log's hash chain: the record was changed after it was written */
   | { readonly kind: 'record-altered'; readonly lines: readonly number[] }
   /**
+   * its record stands against a pass though its composition is within tolerance (check's outcome, exit
+   * 6): the plan's dangers with no acknowledgement, a danger in the fill as recorded not shown accepted,
+   * or hazards the fill went on through (accepted at the manifold); `by`: who accepted them, when
+   */
+  | {
+      readonly kind: 'not-a-pass';
+      readonly outcome: 'plan-danger-not-acknowledged' | 'recorded-fill-danger' | 'accepted-hazard';
+      readonly hazards: readonly { readonly code: string; readonly step: number | null }[];
+      readonly by?: readonly string[];
+    }
+  /**
    * CSV readings: the --premix-log given is not the log of the premix a row names (the log of
    * another tank's premix, or a batch log: a single-tank batch, or a batch filled from a premix)
    */

@@ -12,9 +12,9 @@ import {
   type Fractions,
   type SafetyContext,
 } from '../core/index.js';
-import type { LogAck } from './batch-log.js';
-import { isPlanAck } from './check-shared.js';
-import type { PlanDanger, RecordedFill, RecordSeverity } from '../report/check-types.js';
+import { workingLimitOf, type LogAck, type ParsedLog } from './batch-log.js';
+import { acceptedHazardsOf, isPlanAck, planDangersNotAcknowledged } from './check-shared.js';
+import type { AcceptedHazard, PlanDanger, RecordedFill, RecordSeverity } from '../report/check-types.js';
 
 /** the record shows this finding accepted: the guided fill's acknowledgement of its code (at its fill) */
 function acceptedIn(f: Finding, acks: readonly LogAck[]): boolean {
@@ -77,4 +77,42 @@ export function recordedFillOf(
     },
     dangers,
   };
+}
+
+/**
+ * What a batch log's record says beside its composition, for check's overall outcome
+ * (report/check-outcome.ts `checkOutcomes`): the hazards the fill went on through (accepted), the plan's
+ * dangers nobody acknowledged, and the review of the fill as recorded with its dangers not accepted.
+ * `check` of a log and the re-check of a premix log as a source (premix-check.ts) both take it from here,
+ * so stage 2 refuses a premix log by the outcome `check` gives it.
+ */
+export function logRecordOutcome(
+  log: ParsedLog,
+  model: {
+    readonly readings: readonly CheckedReading[];
+    readonly initial?: { composition: Fractions; pressurePa: number; temperatureK: number };
+  },
+): {
+  accepted: AcceptedHazard[];
+  unacknowledged: PlanDanger[];
+  recorded: { recordedFill: RecordedFill; dangers: PlanDanger[] };
+} {
+  const h = log.header;
+  const accepted = acceptedHazardsOf(log.acknowledgements, h.findings);
+  const unacknowledged = planDangersNotAcknowledged(h.findings ?? [], log.acknowledgements);
+  // the fill as recorded, by the planner's own safety review: a danger nobody accepted is no pass
+  const recorded = recordedFillOf(
+    model.readings,
+    model.initial,
+    {
+      tankId: h.tank.id,
+      workingLimitPa: workingLimitOf(h),
+      coldestK: h.safety?.coldest_K,
+      condensationFraction: h.safety?.condensation_fraction,
+    },
+    log.acknowledgements,
+    h.steps.map((s) => s.source),
+    unacknowledged,
+  );
+  return { accepted, unacknowledged, recorded };
 }

@@ -9,7 +9,6 @@ import {
   densityFromPressure,
   describeFinding,
   fail,
-  judge,
   ProblemError,
   virialModel,
   type Plan,
@@ -27,20 +26,13 @@ import { auditLog, describeLogFinding, ventOf } from './log-audit.js';
 import type { PlanRequest } from './load.js';
 import { TORR_PA } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
-import {
-  acceptedHazardsOf,
-  planDangersNotAcknowledged,
-  verdictCaveats,
-  withinFile,
-  type CheckOptions,
-  type CheckReport,
-} from './check-shared.js';
+import { verdictCaveats, withinFile, type CheckOptions, type CheckReport } from './check-shared.js';
 import type { PremixCheckRecord, VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
-import { recordedFillOf } from './check-recorded.js';
+import { logRecordOutcome } from './check-recorded.js';
 import { gaugeConversionWords } from './quantity.js';
 import { premixLogReport, premixLogsOf } from './premix-check.js';
-import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
+import { alteredLinesOf, designFromHeader, logRecheckBasis, logVerdict } from './log-recheck.js';
 import { dirname, relative, resolve } from 'node:path';
 
 export { verdictCaveats, type CheckOptions, type CheckReport } from './check-shared.js';
@@ -200,29 +192,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
   const warnings = logWarnings(log, missingSteps);
   const findings = auditLog(log).map((f) => ({ ...f, message: describeLogFinding(f) }));
   const design = designFromHeader(h);
-  const accepted = acceptedHazardsOf(log.acknowledgements, h.findings);
-  const unacknowledged = planDangersNotAcknowledged(h.findings ?? [], log.acknowledgements);
   const result = await withinFile(log.file, () =>
     evaluateUncertaintyParallel(model.readings, model.settings, model.diluent, model.initial),
   );
-  // the fill as recorded, by the planner's own safety review: a danger nobody accepted is no pass
-  const recorded = recordedFillOf(
-    model.readings,
-    model.initial,
-    {
-      tankId: h.tank.id,
-      workingLimitPa: workingLimitOf(h),
-      coldestK: h.safety?.coldest_K,
-      condensationFraction: h.safety?.condensation_fraction,
-    },
-    log.acknowledgements,
-    h.steps.map((s) => s.source),
-    unacknowledged,
-  );
+  const { accepted, unacknowledged, recorded } = logRecordOutcome(log, model);
   const tolerance = h.tolerance;
-  const verdict = missingSteps.length
-    ? { ...judge(result, design, tolerance), verdict: 'fail' as const }
-    : judge(result, design, tolerance);
+  const verdict = logVerdict(log, result, missingSteps);
   return {
     file: log.file,
     id: h.id,

@@ -6,11 +6,13 @@
 import {
   chargeNumbers,
   fail,
+  judge,
   ProblemError,
   recheckModelInput,
   type Design,
   type GasSource,
   type RecheckModelInput,
+  type UncertaintyResult,
 } from '../core/index.js';
 import { gaugeFromLog, sourceFromLog, type LogHeader, type ParsedLog } from './batch-log.js';
 import { settlingOf } from './plan-predict.js';
@@ -29,6 +31,16 @@ export function designFromHeader(h: LogHeader): Design {
     stoichO2PerFuel: undefined,
     groups: { fuel: {}, oxidizer: {}, diluent },
   };
+}
+
+/**
+ * the composition's verdict of a log's re-check against its header's design and tolerance; a log with
+ * steps not read is a fail (an incomplete batch), whatever the fills logged so far give
+ */
+export function logVerdict(log: ParsedLog, result: UncertaintyResult, missingSteps: readonly number[]) {
+  const h = log.header;
+  const v = judge(result, designFromHeader(h), h.tolerance);
+  return missingSteps.length ? { ...v, verdict: 'fail' as const } : v;
 }
 
 /** a top-up's starting gas: the logged starting reading, else the plan's */

@@ -15,7 +15,6 @@ import {
   amountDrawn,
   evaluateUncertainty,
   fail,
-  judge,
   premixSource,
   ProblemError,
   type GasSource,
@@ -24,9 +23,12 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { readLog, type LogHeader, type ParsedLog } from './batch-log.js';
-import { alteredLinesOf, designFromHeader, logRecheckBasis } from './log-recheck.js';
-import { auditLog } from './log-audit.js';
+import { alteredLinesOf, logRecheckBasis, logVerdict } from './log-recheck.js';
+import { auditLog, type LogFinding } from './log-audit.js';
 import type { CheckReport } from './check-shared.js';
+import { logRecordOutcome } from './check-recorded.js';
+import { checkOutcomes, type CheckOutcome } from '../report/check-outcome.js';
+import type { AcceptedHazard, PlanDanger } from '../report/check-types.js';
 
 /** a premix log re-checked for use as a source */
 export interface PremixRecord {
@@ -63,6 +65,52 @@ function tankOf(h: LogHeader): TankSpec {
   };
 }
 
+/** the parts of a premix log's re-check that name what stands against a pass */
+interface OutcomeParts {
+  readonly missingSteps: readonly number[];
+  readonly closed: boolean;
+  readonly verdict: ReturnType<typeof logVerdict>;
+  readonly findings: readonly LogFinding[];
+  readonly altered: readonly number[];
+  readonly accepted: readonly AcceptedHazard[];
+  readonly unacknowledged: readonly PlanDanger[];
+  readonly recorded: { readonly dangers: readonly PlanDanger[] };
+}
+
+/** why a premix log whose re-check is not a pass is refused: check's first outcome, in its own terms */
+function refusalOf(outcome: CheckOutcome, p: OutcomeParts): PremixLogCause {
+  const off = () => p.verdict.deviations.filter((d) => !d.provenWithin).map((d) => d.species);
+  switch (outcome) {
+    case 'incomplete':
+    case 'not-closed':
+      return { kind: 'not-finished', missingSteps: p.missingSteps, closed: p.closed };
+    case 'fail':
+      return { kind: 'recheck-not-passed', verdict: 'fail', off: off() };
+    case 'not-shown-within-tolerance':
+    case 'no-design':
+      // a log always carries its design: no-design cannot come from a log, and is no pass either
+      return { kind: 'recheck-not-passed', verdict: 'pass-uncertain', off: off() };
+    case 'danger':
+      return {
+        kind: 'danger',
+        codes: [...new Set(p.findings.filter((f) => f.severity === 'danger').map((f) => f.code))],
+      };
+    case 'plan-danger-not-acknowledged':
+      return { kind: 'not-a-pass', outcome, hazards: p.unacknowledged };
+    case 'recorded-fill-danger':
+      return { kind: 'not-a-pass', outcome, hazards: p.recorded.dangers };
+    case 'accepted-hazard':
+      return {
+        kind: 'not-a-pass',
+        outcome,
+        hazards: p.accepted.flatMap((a) => a.hazards.map((z) => ({ code: z.code, step: z.step ?? a.step }))),
+        by: [...new Set(p.accepted.map((a) => `${a.by} at ${a.time}`))],
+      };
+    case 'record-altered':
+      return { kind: 'record-altered', lines: p.altered };
+  }
+}
+
 /**
  * Read and re-check a premix log. `batchLab`: the lab the batch is filled in; the premix's gauges
  * and thermometer are the batch's own (one input for both stages) only when the labs are the same.
@@ -83,32 +131,48 @@ export function readPremixLog(
   }
   const h = log.header;
   const altered = alteredLinesOf(log);
-  if (altered.length) refused(named, { kind: 'record-altered', lines: altered }, { file: path });
   const done = new Set(log.readings.map((r) => r.step));
   const missingSteps = h.steps.map((s) => s.step).filter((s) => !done.has(s));
-  if (missingSteps.length || !log.closed || log.readings.length === 0)
+  const notFinished = () =>
     refused(named, { kind: 'not-finished', missingSteps, closed: log.closed }, { file: path });
-  const dangers = auditLog(log).filter((f) => f.severity === 'danger');
-  if (dangers.length)
-    refused(named, { kind: 'danger', codes: [...new Set(dangers.map((f) => f.code))] }, { file: path });
-  const basis = logRecheckBasis(log, () => premixLogsOf(log, new Set([...seen, path])));
+  if (log.readings.length === 0) notFinished();
+  let basis: ReturnType<typeof logRecheckBasis<PremixRecord>>;
   let result: UncertaintyResult;
   try {
+    basis = logRecheckBasis(log, () => premixLogsOf(log, new Set([...seen, path])));
     const m = basis.model;
     result = evaluateUncertainty(m.readings, m.settings, m.diluent, m.initial);
   } catch (e) {
-    if (e instanceof ProblemError) throw e.at({ file: path });
-    throw e;
+    if (!(e instanceof ProblemError) || e.problem.code === 'premix-log-refused') throw e;
+    // numbers that cannot be re-checked: an altered or unfinished record says why first
+    if (altered.length) refused(named, { kind: 'record-altered', lines: altered }, { file: path });
+    if (missingSteps.length || !log.closed) notFinished();
+    throw e.at({ file: path });
   }
-  const verdict = judge(result, designFromHeader(h), h.tolerance);
-  if (verdict.verdict !== 'pass')
+  // check's own overall outcome of this log (the same function, on the same parts): a premix is a source
+  // only when `check` of its log is a pass
+  const verdict = logVerdict(log, result, basis.missingSteps);
+  const findings = auditLog(log);
+  const record = logRecordOutcome(log, basis.model);
+  const outcome = checkOutcomes({
+    verdict,
+    incomplete: missingSteps.map((s) => `step ${s}`),
+    findings,
+    record: { alteredLines: altered, closed: log.closed, acceptedHazards: record.accepted },
+    planDangersNotAcknowledged: record.unacknowledged,
+    recordedFillDangers: record.recorded.dangers,
+  })[0];
+  if (outcome !== undefined)
     refused(
       named,
-      {
-        kind: 'recheck-not-passed',
-        verdict: verdict.verdict === 'fail' ? 'fail' : 'pass-uncertain',
-        off: verdict.deviations.filter((d) => !d.provenWithin).map((d) => d.species),
-      },
+      refusalOf(outcome, {
+        missingSteps,
+        closed: log.closed,
+        verdict,
+        findings,
+        altered,
+        ...record,
+      }),
       { file: path },
     );
   const composition = Object.fromEntries(result.species.map((k) => [k, result.composition[k].value]));

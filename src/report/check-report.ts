@@ -464,17 +464,11 @@ function verdictLines(r: CheckReport): string[] {
 }
 
 /**
- * a stage-1 log that stage 2 takes: what it refuses (premix-log-refused) is not closed, altered, a
- * danger, short of a pass
+ * a stage-1 log that stage 2 takes: a pass, by check's own overall outcome (io/premix-check.ts refuses a
+ * premix log by the same function, `premix-log-refused`)
  */
 function premixUsable(r: CheckReport): boolean {
-  return (
-    r.verdict.verdict === 'pass' &&
-    !r.incomplete.length &&
-    r.record?.closed !== false &&
-    !r.record?.alteredLines.length &&
-    !r.findings.some((f) => f.severity === 'danger')
-  );
+  return checkOutcomes(r).length === 0;
 }
 
 /**
@@ -510,8 +504,9 @@ export function stageLines(r: CheckReport): string[] {
           `  ${st.nextCommand ?? '(no stage-2 command recorded in this log)'}`,
         ]
       : [
-          'Stage 2 will refuse this premix log: it must be closed, with no danger in its record and a ' +
-            're-check that shows it within tolerance (see below). Make a new premix (another --batch).',
+          `Stage 2 will refuse this premix log: its re-check is not a pass (${overallVerdict(r)}, see ` +
+            'below); stage 2 takes only a premix whose re-check is a pass (closed, within tolerance, no ' +
+            'danger in its record, no hazard gone through). Make a new premix (another --batch).',
         ]),
     '',
   ];
@@ -886,6 +881,8 @@ function premixCauseJson(c: PremixLogCause): object {
       return { kind: c.kind, places: c.places };
     case 'record-altered':
       return { kind: c.kind, lines: c.lines };
+    case 'not-a-pass':
+      return { kind: c.kind, outcome: c.outcome, hazards: c.hazards, by: c.by ?? [] };
     case 'not-the-premix':
       return {
         kind: c.kind,

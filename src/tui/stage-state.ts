@@ -7,6 +7,7 @@
 import { mixingEstimate } from '../core/index.js';
 import type { LogHeader } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
+import { overallVerdict } from '../report/check-outcome.js';
 import { fixedSig } from '../report/format.js';
 import { withU } from '../report/label-model.js';
 import { duration } from '../report/ready-report.js';
@@ -64,11 +65,14 @@ export function stageEndLines(header: LogHeader, report: CheckReport | undefined
   if (!report) return [...out, 'The premix is re-checked from its readings when the fill ends.'];
   out.push("Premix as filled (re-checked from the logged readings by check's model, U at k = 2):");
   out.push(...fractionLines(report));
-  if (!closed || report.verdict.verdict !== 'pass') {
+  // check's own overall outcome (the function premix-check.ts refuses a premix log by)
+  const outcome = overallVerdict(report);
+  if (!closed || outcome !== 'pass') {
     // an unusable premix is not worth mixing: say what to do instead
     out.push(
-      'Stage 2 will refuse this premix log: it must be closed, with no danger in its record and a ' +
-        're-check that shows it within tolerance (`mixwright check` says what is off). Do not mix ' +
+      `Stage 2 will refuse this premix log: its re-check is not a pass (${closed ? outcome : 'not-closed'}; ` +
+        'stage 2 takes only a premix whose re-check is a pass: closed, within tolerance, no danger in ' +
+        'its record, no hazard gone through; `mixwright check` says what stands against it). Do not mix ' +
         'it for stage 2: vent or evacuate the premix tank and fill a new premix batch (a new --batch ' +
         'id), after `mixwright check` of this log has said what went wrong.',
     );

@@ -42,7 +42,7 @@ describe('check of a stage-1 log', () => {
     expect(plain.code).toBe(7);
     expect(r.stdout).toContain('NOT CLOSED');
     expect(r.stdout).toContain('Stage 1 of 2: the premix of batch b1');
-    expect(r.stdout).toMatch(/Stage 2 will refuse this premix log: it must be closed/);
+    expect(r.stdout).toMatch(/Stage 2 will refuse this premix log: its re-check is not a pass \(not-closed/);
     expect(r.stdout).not.toContain('mixwright fill X');
     expect(JSON.parse(plain.stdout).stage.number).toBe(1);
   });

@@ -13,7 +13,7 @@ import {
   recipeFromValues,
 } from '../../src/tui/wizard-eval.js';
 import { stageEndLines } from '../../src/tui/stage-state.js';
-import { appendEvent, createLog, readLog } from '../../src/io/batch-log.js';
+import { appendEvent, createLog, readLog, type NewLogEvent } from '../../src/io/batch-log.js';
 import { checkLog } from '../../src/io/check.js';
 import { stage1Header } from '../../src/io/stage-log.js';
 import { planFrom } from '../../src/cli/plan-from.js';
@@ -121,7 +121,8 @@ describe('end screen of a stage-1 fill', () => {
   const planned = planFrom('recipes/ch4-o2-ar-phi1.yaml', { premixTank: 'MT-2' });
   const steps = planned.plan.twoStage!.premix.steps;
 
-  async function premixReport(readings: readonly number[]) {
+  /** the stage-1 log read at `readings` (closed once every step is read, as the fill closes it) */
+  async function premixReport(readings: readonly number[], before2: NewLogEvent[] = []) {
     const file = join(mkdtempSync(join(tmpdir(), 'mw-stage-end-')), 'b1-premix.jsonl');
     createLog(
       file,
@@ -133,7 +134,8 @@ describe('end screen of a stage-1 fill', () => {
         'mixwright fill R --premix-log L',
       ),
     );
-    steps.slice(0, readings.length).forEach((s, i) =>
+    steps.slice(0, readings.length).forEach((s, i) => {
+      if (i === 1) for (const e of before2) appendEvent(file, e);
       appendEvent(file, {
         kind: 'reading',
         step: s.index,
@@ -144,8 +146,9 @@ describe('end screen of a stage-1 fill', () => {
         temperature: '25.0 degC',
         temperature_K: 298.15,
         time: `2026-12-03T09:1${i}:00Z`,
-      }),
-    );
+      });
+    });
+    if (readings.length === steps.length) appendEvent(file, { kind: 'close', time: '2026-12-03T09:30:00Z' });
     const log = readLog(file);
     return { header: log.header, report: await checkLog(log, { trials: 0, seed: 1 }) };
   }
@@ -175,6 +178,32 @@ describe('end screen of a stage-1 fill', () => {
     expect(lines[lines.length - 1]).toMatch(/^Stage 2 will refuse this premix log/);
     const ok = await premixReport(steps.map((s) => s.targetPa));
     expect(stageEndLines(ok.header, ok.report, false).join('\n')).toContain('Stage 2 will refuse');
+  });
+
+  it("at the targets and closed, but through a hazard accepted at the manifold: check's outcome is no pass, stage 2 will refuse it", async () => {
+    const accepted: NewLogEvent = {
+      kind: 'acknowledge',
+      code: 'remainder-review',
+      step: 2,
+      by: 'KL',
+      time: '2026-12-03T09:12:00Z',
+      review: {
+        trigger: 'reading',
+        outcome: 'accepted',
+        hazards: [{ code: 'oxygen-compression', step: 2, severity: 'warning' }],
+      },
+    };
+    const { header, report } = await premixReport(
+      steps.map((s) => s.targetPa),
+      [accepted],
+    );
+    // the composition alone is within tolerance; the record is not a pass (check exit 6)
+    expect(report.verdict.verdict).toBe('pass');
+    const text = stageEndLines(header, report, true).join('\n');
+    expect(text).toContain(
+      'Stage 2 will refuse this premix log: its re-check is not a pass (accepted-hazard',
+    );
+    expect(text).not.toContain('mixwright fill R');
   });
 
   it('an incomplete premix (one reading, past the working limit): no U share that was not computed, no mixing advice, what to do', async () => {
