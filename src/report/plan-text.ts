@@ -1,5 +1,5 @@
 /** The plan as a readable table for the terminal. */
-import { describeFinding, STANDING_CAUTION, type Plan, type Severity } from '../core/index.js';
+import { describeFinding, STANDING_CAUTION, type Finding, type Plan, type Severity } from '../core/index.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
 import type { PlanMeta } from './plan-json.js';
@@ -218,8 +218,38 @@ function findingLines(plan: Plan, unit: PressureUnit): string[] {
   return out;
 }
 
+/**
+ * A plan whose predicted U exceeds the tolerance of a design fraction says so under its first line:
+ * which fractions, the worst one's U and its largest cause and what would reduce it (the warning's own
+ * words), and for a two-stage plan whether a premix choice that meets it was passed over. The exit code
+ * stays 0 (a plan produced, README "Exit codes"); `check` of such a batch can at best say NOT SHOWN
+ * WITHIN TOLERANCE.
+ */
+function toleranceHeadline(plan: Plan, unit: PressureUnit): string[] {
+  const over = plan.findings.filter(
+    (f): f is Extract<Finding, { code: 'predicted-u-over-tolerance' }> =>
+      f.code === 'predicted-u-over-tolerance',
+  );
+  if (!over.length) return [];
+  const worst = over.reduce((a, f) => (f.expandedU / f.tolerance > a.expandedU / a.tolerance ? f : a));
+  const t = plan.twoStage;
+  const m = t?.mostPrecise;
+  const search = !t
+    ? ''
+    : m && m.worstRatio <= 1
+      ? ` A premix choice that meets it was passed over for its warnings (${m.warnings.join(', ')}; below).`
+      : ` None of the ${t.candidates} premix choices planned without a danger meets it.`;
+  return [
+    `CANNOT MEET ITS TOLERANCE (${over.map((f) => `x(${f.species})`).join(', ')}): even readings ` +
+      'exactly at the targets leave the batch NOT SHOWN WITHIN TOLERANCE by `check` (not a pass). ' +
+      `Worst: ${describeFinding(worst, (pa) => pressure(pa, unit))}.${search}`,
+  ];
+}
+
 export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
   const out: string[] = [...twoStageHead(plan, meta, unit, planToText), ...headerLines(plan, meta, unit)];
+  // the headline: right under the first line (the two-stage line, or the plan's own)
+  out.splice(1, 0, ...toleranceHeadline(plan, unit));
   out.push(...manifoldTable(plan, unit));
   out.push('');
   out.push(...numbersTable(plan, unit));

@@ -1,7 +1,8 @@
 // The ranking of two-stage choices (two-stage.ts rankKey / ranksBefore) against the single-tank
 // search's (search-eval.ts notLessSafe): both order hazards by supply-check.ts hazardRank. These tests
-// check ordering only (our own rule: a state or fill-path hazard of any severity ranks worse than any
-// supply finding); no computed value is checked, so no outside reference applies.
+// check ordering only (our own rules: a danger or a warning of the gas in a state or fill path ranks
+// worse than any supply finding; a choice that meets the tolerance beats one that cannot, unless the
+// other has fewer dangers or gas warnings); no computed value is checked, so no outside reference applies.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { Finding } from '../../src/core/findings.js';
@@ -106,7 +107,7 @@ describe('two-stage ranking: a state or fill-path hazard always ranks worse than
     expect(ranksBefore(supply, hazard)).toBe(true);
   });
 
-  it('property: a choice whose state and path hazards rank lower wins whatever its supply findings and U', () => {
+  it('property: a choice whose state and path dangers and warnings rank lower wins whatever its supply findings and U', () => {
     const stateHazard = fc.constantFrom<() => Finding>(
       () => flammableState('danger'),
       () => flammableState('warning'),
@@ -123,10 +124,11 @@ describe('two-stage ranking: a state or fill-path hazard always ranks worse than
       .map(([batch, premix, ratio]) => choice(batch, ratio, premix));
     fc.assert(
       fc.property(ranked, ranked, (a, b) => {
+        // dangers, then warnings of the states and paths (notes rank after the tolerance)
         const states = (c: RankedChoice) =>
           hazardRank([...c.premix.findings, ...c.batch.findings].filter((f) => !isSupplyFinding(f))).slice(
             0,
-            3,
+            2,
           );
         if (!lexLess(states(a), states(b))) return;
         expect(ranksBefore(a, b)).toBe(true);
@@ -141,6 +143,93 @@ describe('two-stage ranking: a state or fill-path hazard always ranks worse than
         expect(notLessSafe(count(b), count(a))).toBe(false);
       }),
       { numRuns: 300, seed: 5 },
+    );
+  });
+});
+
+/** the compression of oxygen-rich gas by a fill (a warning: throttle the fill) */
+const oxygenCompression = (): Finding => ({
+  severity: 'warning',
+  code: 'oxygen-compression',
+  step: 2,
+  oxygenFraction: 1,
+  fromPa: 45 * TORR,
+  toPa: 2835 * TORR,
+  gamma: 1.4,
+  endK: 900,
+  limitK: 573,
+});
+
+/** the order given makes hazardous states (a warning that no sequence search counts) */
+const saferOrder = (): Finding => ({
+  severity: 'warning',
+  code: 'safer-order',
+  order: ['Ar', 'O2'],
+  reason: 'invented for the test',
+});
+
+/** a state near a flammability limit, outside its margin (a note) */
+const nearLimit = (): Finding => ({ ...flammableState('note'), code: 'near-flammable' }) as Finding;
+
+describe('two-stage ranking: meeting the tolerance against warnings', () => {
+  // the 200 ppm CH4 case: a quiet premix whose batch U is 9.9 % of x(CH4) (ratio 19.8 to a 0.5 %
+  // tolerance) against a premix within tolerance whose stage 1 compresses O2 and is filled minor-first
+  const quietOver = choice([], 19.8);
+  const preciseWarned = choice([], 0.45, [saferOrder(), oxygenCompression()]);
+
+  it('within tolerance with warnings a fill procedure manages beats a quiet choice that cannot meet it', () => {
+    expect(ranksBefore(preciseWarned, quietOver)).toBe(true);
+    expect(ranksBefore(quietOver, preciseWarned)).toBe(false);
+    // a note of a state (near a limit) does not outweigh the tolerance either
+    expect(ranksBefore(choice([nearLimit()], 0.9), quietOver)).toBe(true);
+  });
+
+  it('between two choices within tolerance, the quieter one still wins (the demo keeps 13.4 % O2 over 4.0 %)', () => {
+    const quietWithin = choice([], 0.72);
+    expect(ranksBefore(quietWithin, choice([], 0.47, [saferOrder(), oxygenCompression()]))).toBe(true);
+  });
+
+  it('a flammable state or any danger outweighs the tolerance: the quiet choice over it wins', () => {
+    expect(ranksBefore(quietOver, choice([flammableState()], 0.3))).toBe(true);
+    expect(ranksBefore(quietOver, choice([supplyLow()], 0.3))).toBe(true);
+    expect(ranksBefore(quietOver, choice([flammablePath('danger')], 0.3))).toBe(true);
+  });
+
+  it("property: a choice's findings without its prediction's, at ratio 0, bound its key element by element (the proposal's pruning)", () => {
+    const any = fc.constantFrom<() => Finding>(
+      () => flammableState('danger'),
+      () => flammableState('warning'),
+      () => flammableState('note'),
+      () => flammablePath('warning'),
+      () => supplyLow(),
+      coolsLow,
+      oxygenCompression,
+      saferOrder,
+      nearLimit,
+    );
+    const sets = fc.tuple(
+      fc.array(any, { maxLength: 5 }),
+      fc.array(any, { maxLength: 5 }),
+      fc.double({ min: 0, max: 50, noNaN: true }),
+    );
+    fc.assert(
+      fc.property(sets, ([known, more, ratio]) => {
+        const bound = rankKey(
+          choice(
+            known.map((m) => m()),
+            0,
+          ),
+        );
+        const full = rankKey(
+          choice(
+            [...known, ...more].map((m) => m()),
+            ratio,
+          ),
+        );
+        expect(bound.length).toBe(full.length);
+        bound.forEach((b, i) => expect(b).toBeLessThanOrEqual(full[i]));
+      }),
+      { numRuns: 300, seed: 7 },
     );
   });
 });

@@ -383,27 +383,47 @@ function singleTank(input: TwoStageInput, known: PredictedPlan | undefined): Pre
 export type TwoStageSearch = 'full' | 'quick' | 'proposal';
 
 /**
- * The ranking of choices, the sequence search's own ordering (`hazardRank`, supply-check.ts, which
- * `notLessSafe` uses for the single-tank search): the dangers, warnings and notes of the tank states
- * and fill paths of either stage first (flammable, detonable, near-flammable ...; any other danger
- * counts here too), severity by severity, then the supply's dangers and warnings, so no count of
- * supply findings buys a state or fill-path hazard; then every design fraction within tolerance, then
- * the fewest warnings of either stage (a careful lab takes the quieter sequence that meets the
- * tolerance), then the smallest worst U / tolerance.
+ * Hazards whose remedy is how a fill is made, not what gas the tank or line holds: compression heating
+ * and the compression of oxygen (throttle the fill, oxygen-clean parts: the findings' own advice) and a
+ * premix tank whose gas, delivered fast, cools below what a charge needs (deliver slowly)
+ */
+const PROCEDURE_HAZARDS: ReadonlySet<Finding['code']> = new Set<Finding['code']>([
+  'compression-heating',
+  'oxygen-compression',
+  'premix-cools-low',
+]);
+
+/**
+ * The ranking of choices (our rule), by the sequence search's own ordering (`hazardRank`,
+ * supply-check.ts, which `notLessSafe` uses for the single-tank search) in two parts around the
+ * tolerance. First what matters more than precision: every danger of either stage (states and fill
+ * paths, then the supply's, so no count of supply findings buys a state or fill-path danger) and the
+ * warnings of the gas itself (flammable, near-flammable, detonable states, fill paths and inlets, a
+ * reading no gauge covers ...). Then every design fraction within tolerance: a choice that meets it
+ * beats one that cannot, whatever their notes and their warnings a fill procedure manages
+ * (PROCEDURE_HAZARDS); a careful lab throttles a fill rather than make a batch `check` can never pass.
+ * Then those warnings, the notes of the states and fills (near a limit, outside its margin), the
+ * fewest warnings of either stage (a careful lab takes the quieter choice that meets the tolerance),
+ * the smallest worst U / tolerance.
  */
 function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
+  const counted = all.filter((f) => f.severity === 'danger' || countsAgainstSequence(f));
+  const first = (f: Finding) =>
+    f.severity === 'danger' || (f.severity === 'warning' && !PROCEDURE_HAZARDS.has(f.code));
   return [
-    ...hazardRank(all.filter((f) => f.severity === 'danger' || countsAgainstSequence(f))),
+    ...hazardRank(counted.filter(first)),
     worstRatio <= 1 ? 0 : 1,
+    ...hazardRank(counted.filter((f) => !first(f))),
     all.filter((f) => f.severity === 'warning').length,
     worstRatio,
   ];
 }
 
 /*
- * Every element of the key is a count of findings or grows with the worst ratio: more findings or a
- * larger ratio never make a key smaller. So the key of a choice's findings without its prediction's,
- * at a ratio of 0, is a bound no completed choice goes below (the proposal's pruning).
+ * Every element of the key is a count of findings (each finding counted by its own code and severity,
+ * whatever the others) or grows with the worst ratio: more findings or a larger ratio never make a key
+ * smaller. So the key of a choice's findings without its prediction's, at a ratio of 0, is a bound no
+ * completed choice goes below (the proposal's pruning).
  */
 export function rankKey(c: RankedChoice): number[] {
   return rankKeyOf([...c.premix.findings, ...c.batch.findings], c.worstRatio);
