@@ -152,6 +152,30 @@ describe('mixwright plan --premix-tank', () => {
     expect((await runCli(['plan', withOrder, '--premix-tank', 'MT-2'])).code).toBe(2);
   }, 180_000);
 
+  it('a plan that cannot meet its tolerance says so under its first line, with the cause and the fix; exit 0 (README exit codes)', async () => {
+    // the demo recipe in one tank: x(O2) predicted over its 0.5 % tolerance (README's table)
+    const one = await runCli(['plan', RECIPE]);
+    expect(one.code).toBe(0);
+    const [first, head] = one.stdout.split('\n');
+    expect(first).toMatch(/^Fill plan /);
+    expect(head).toMatch(/^CANNOT MEET ITS TOLERANCE \(x\(O2\)\): even readings exactly at the targets/);
+    expect(head).toContain('NOT SHOWN WITHIN TOLERANCE by `check` (not a pass)');
+    expect(head).toMatch(/Worst: the predicted U \(k = 2\) of x\(O2\) is [\d.]+ % of its design value/);
+    expect(head).toMatch(/The largest cause \(\d+ % of u\^2\) is .+; what would reduce it: /);
+    // the two stages meet it: no such line anywhere
+    const two = await runCli(['plan', RECIPE, '--premix-tank', 'MT-2']);
+    expect(two.stdout).not.toContain('CANNOT MEET ITS TOLERANCE');
+    // a two-stage plan that cannot meet a tighter tolerance says so under its own first line, and why
+    const tight = await runCli(['plan', RECIPE, '--premix-tank', 'MT-2', '--tolerance', '0.001']);
+    expect(tight.code).toBe(0);
+    const lines = tight.stdout.split('\n');
+    expect(lines[0]).toMatch(/^Two-stage preparation: /);
+    expect(lines[1]).toMatch(/^CANNOT MEET ITS TOLERANCE \(/);
+    expect(lines[1]).toMatch(
+      /(None of the \d+ premix choices planned without a danger meets it|A premix choice that meets it was passed over)/,
+    );
+  }, 120_000);
+
   it('an unknown premix tank, or the batch tank itself, is refused with exit 2', async () => {
     const unknown = await runCli(['plan', RECIPE, '--premix-tank', 'MT-9']);
     expect(unknown.code).toBe(2);
