@@ -176,6 +176,27 @@ describe('mixwright plan --premix-tank', () => {
     );
   }, 120_000);
 
+  it('the choices are ranked on the unsearched batch: the quietest is searched too, and kept when it then meets the tolerance', async () => {
+    // 200 ppm CH4, 2 % O2 in Ar, tolerance 0.25 %: ranked on its unsearched batch, a 6 % O2 premix filled
+    // minor-first (warnings safer-order, oxygen-compression) meets the tolerance and a quiet 20 % O2 premix
+    // does not; searched, the quiet one meets it too, so it is kept (no computed value: the rule's choice)
+    const r = await runCli([
+      'plan',
+      ...['--fractions', 'CH4:0.0002,O2:0.02,Ar:0.9798', '--tank', 'MT-1', '--pressure', '1500 Torr'],
+      ...['--temperature', '22 degC', '--premix-tank', 'MT-2', '--tolerance', '0.0025', '--json'],
+    ]);
+    expect(r.code).toBe(0);
+    const t = JSON.parse(r.stdout).two_stage;
+    expect(t.premix.composition.O2).toBeCloseTo(0.2, 3);
+    const warnings = t.stages.flatMap((s: { findings: { severity: string; code: string }[] }) =>
+      s.findings.filter((f) => f.severity === 'warning').map((f) => f.code),
+    );
+    expect(warnings).toEqual([]);
+    expect(t.stages[1].predicted.rows.every((x: { within_tolerance: boolean }) => x.within_tolerance)).toBe(
+      true,
+    );
+  }, 120_000);
+
   it('an unknown premix tank, or the batch tank itself, is refused with exit 2', async () => {
     const unknown = await runCli(['plan', RECIPE, '--premix-tank', 'MT-9']);
     expect(unknown.code).toBe(2);

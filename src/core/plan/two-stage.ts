@@ -419,6 +419,26 @@ function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
   ];
 }
 
+/**
+ * The quietest choice's key: every hazard of the states, fills and supply (procedure warnings and notes
+ * included) before the tolerance, then the warnings, then the worst ratio. The choices are ranked on the
+ * batch in its advised order (the draft), whose U the chosen batch's sequence search can only lower: a
+ * quieter choice whose draft misses the tolerance may meet it once searched, so it is searched too, and
+ * the two are compared by rankKey on their searched batches (planTwoStage)
+ */
+function quietKeyOf(all: readonly Finding[], worstRatio: number): number[] {
+  const counted = all.filter((f) => f.severity === 'danger' || countsAgainstSequence(f));
+  return [
+    ...hazardRank(counted),
+    worstRatio <= 1 ? 0 : 1,
+    all.filter((f) => f.severity === 'warning').length,
+    worstRatio,
+  ];
+}
+
+const findingsOf = (c: RankedChoice) => [...c.premix.findings, ...c.batch.findings];
+const quietKey = (c: RankedChoice) => quietKeyOf(findingsOf(c), c.worstRatio);
+
 /*
  * Every element of the key is a count of findings (each finding counted by its own code and severity,
  * whatever the others) or grows with the worst ratio: more findings or a larger ratio never make a key
@@ -426,7 +446,7 @@ function rankKeyOf(all: readonly Finding[], worstRatio: number): number[] {
  * completed choice goes below (the proposal's pruning).
  */
 export function rankKey(c: RankedChoice): number[] {
-  return rankKeyOf([...c.premix.findings, ...c.batch.findings], c.worstRatio);
+  return rankKeyOf(findingsOf(c), c.worstRatio);
 }
 
 /** what the ranking of choices looks at */
@@ -480,6 +500,8 @@ export function planTwoStage(
       ? [input.premixPressurePa]
       : (search === 'quick' ? [PRESSURE_FRACTIONS[0]] : PRESSURE_FRACTIONS).map((f) => f * limit);
   let best: TwoStagePlan | undefined;
+  // the quietest choice (quietKeyOf): searched too when it is not the best, and compared searched
+  let quiet: TwoStagePlan | undefined;
   let precise: TwoStagePlan | undefined;
   let tried = 0;
   let refusal: Problem | undefined;
@@ -529,7 +551,11 @@ export function planTwoStage(
             // predicted (the most precise choice, which a full search also names, is not sought)
             const mayWin =
               search === 'proposal'
-                ? (known: readonly Finding[]) => !best || keyBefore(rankKeyOf(known, 0), rankKey(best))
+                ? (known: readonly Finding[]) =>
+                    !best ||
+                    !quiet ||
+                    keyBefore(rankKeyOf(known, 0), rankKey(best)) ||
+                    keyBefore(quietKeyOf(known, 0), quietKey(quiet))
                 : undefined;
             // the first premix planned is this choice's when it has the same pressure, heads and order
             const same =
@@ -539,6 +565,7 @@ export function planTwoStage(
             const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined);
             if (!c) return;
             if (ranksBefore(c, best)) best = c;
+            if (!quiet || keyBefore(quietKey(c), quietKey(quiet))) quiet = c;
             if (
               !hasDanger(c.premix.findings, c.batch.findings) &&
               c.worstRatio < (precise?.worstRatio ?? Infinity)
@@ -548,13 +575,10 @@ export function planTwoStage(
         }
       });
   if (!best) return fail({ code: 'two-stage-refused', kind: 'no-plan', tried, cause: refusal });
-  let chosen = best as TwoStagePlan;
-  attempt(() => {
-    chosen = replanned(input, chosen);
-  });
+  const chosen = searchedChoice(input, best, quiet as TwoStagePlan | undefined, attempt);
   const p = precise as TwoStagePlan | undefined;
   const mostPrecise =
-    search !== 'proposal' && p && p !== best && p.worstRatio < chosen.worstRatio
+    search !== 'proposal' && p && p !== best && p.choice !== chosen.choice && p.worstRatio < chosen.worstRatio
       ? {
           choice: p.choice,
           worstRatio: p.worstRatio,
@@ -564,6 +588,28 @@ export function planTwoStage(
         }
       : undefined;
   return { ...chosen, candidates: tried, mostPrecise };
+}
+
+/**
+ * the best choice with its batch searched (replanned), and the quietest one searched too when it is
+ * another: its batch may meet the tolerance its unsearched draft missed; the better by rankKey
+ */
+function searchedChoice(
+  input: TwoStageInput,
+  best: TwoStagePlan,
+  quiet: TwoStagePlan | undefined,
+  attempt: (f: () => void) => void,
+): TwoStagePlan {
+  let chosen = best;
+  attempt(() => {
+    chosen = replanned(input, best);
+  });
+  if (quiet && quiet !== best)
+    attempt(() => {
+      const searched = replanned(input, quiet);
+      if (ranksBefore(searched, chosen)) chosen = searched;
+    });
+  return chosen;
 }
 
 /** every finding of a plan and, for a two-stage batch, of its premix stage (stage 1 first): the exit code's */
