@@ -3,9 +3,12 @@
  * log's re-checked composition (GUM, the same model and inputs as `check`: check.ts
  * `logRecheckBasis`) and its uncertainty that re-check's budget, carried into the batch's budget as
  * composition terms (core plan/premix-source.ts), a gauge or thermometer of the same lab marked as
- * shared with the batch. Refused (`premix-log-refused`) when the log cannot serve: unreadable, not a
- * finished fill, a re-check that fails or cannot show its composition within its tolerance, a
- * danger in its record. A batch log names its premix logs in its header (`premix_logs`: path
+ * shared with the batch. Refused (`premix-log-refused`) when the log cannot serve: unreadable, or
+ * whatever `check` of it would not call a pass, by check's own overall outcome (report/check-outcome.ts
+ * `checkOutcomes` on the parts `checkLog` uses): not a finished fill, a re-check that fails or cannot
+ * show its composition within its tolerance, a danger in its record, an altered record, a plan danger
+ * nobody acknowledged, a danger in the fill as recorded, hazards accepted at the manifold. A batch
+ * log names its premix logs in its header (`premix_logs`: path
  * relative to the batch log, the hash of the premix log's last entry); `premixLogsOf` reads them
  * back for `check` and refuses a premix log that has changed since.
  */
