@@ -446,6 +446,23 @@ function choicesFor(
 }
 
 /**
+ * Every choice of a composition delivers what the draft's premix charges deliver, to the same
+ * readings: the delivery check on the draft is each choice's (its premix composition is the draft's
+ * nominal one); a premix pressure that certainly runs low is left out of a proposal (kept per pressure).
+ */
+function runsLowIn(input: TwoStageInput, draft: BatchDraft, search: TwoStageSearch) {
+  const low = new Map<number, boolean>();
+  return (pressurePa: number) => {
+    if (search !== 'proposal') return false;
+    if (!low.has(pressurePa)) {
+      const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
+      low.set(pressurePa, check.endPa < check.requiredPa * (1 - 1e-9));
+    }
+    return low.get(pressurePa)!;
+  };
+}
+
+/**
  * Plan a two-stage preparation: the premix in `premixTank`, then the batch from it. Searches the
  * premix (gas, fraction, pressure, stage-1 order and gauges) unless the caller fixes them; refuses
  * (`two-stage-refused`) when the design has no diluent to make a premix in, the premix tank is
@@ -501,19 +518,8 @@ export function planTwoStage(
           unidentified: firstPlan.unidentifiedFraction,
           pressurePa: pressures[0],
         });
-        // every choice of this composition delivers what the draft's premix charges deliver, to the
-        // same readings: the delivery check on the draft is each choice's (its premix composition is
-        // the draft's nominal one); a premix pressure that certainly runs low is left out of a proposal
-        const low = new Map<number, boolean>();
         const seen = new Set<string>();
-        const runsLow = (pressurePa: number) => {
-          if (search !== 'proposal') return false;
-          if (!low.has(pressurePa)) {
-            const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
-            low.set(pressurePa, check.endPa < check.requiredPa * (1 - 1e-9));
-          }
-          return low.get(pressurePa)!;
-        };
+        const runsLow = runsLowIn(input, draft, search);
         for (const { choice, gauges } of choicesFor(input, base, pressures)) {
           if (runsLow(choice.pressurePa)) continue;
           tried++;
