@@ -19,6 +19,10 @@ import { reviewPlan } from './plan/review.js';
 import { planResult } from './plan/result.js';
 import { searchedGauges } from './plan/search.js';
 import type { Plan, PlanInput } from './plan/types.js';
+import type { PlanBasis } from './plan/validate.js';
+import type { PlanAmounts } from './plan/amounts.js';
+import type { PlanSequence } from './plan/sequence.js';
+import type { GasSource } from './supply.js';
 
 export type {
   ChargeRequest,
@@ -34,13 +38,45 @@ export { MODEL_T_RANGE_K } from './plan/validate.js';
 export { MAX_NON_IDEALITY } from './plan/amounts.js';
 export { fillLabel } from './supply.js';
 
-export function planFill(input: PlanInput): Plan {
+export function planFill(input: PlanInput, shared?: SharedStages): Plan {
   const basis = validatePlanInput(input);
-  const amounts = planAmounts(basis);
+  const { amounts, sequence: planned } = gaugeFreeStages(basis, shared);
   // a stop the planner chose is read on a gauge: on its display grid (plan/round-stops.ts)
-  const sequence = roundChosenStops(basis, amounts, planSequence(basis, amounts));
+  const sequence = roundChosenStops(basis, amounts, planned);
   // the gauges the sequence search chose for the readings (none without a search)
   const steps = searchedGauges(basis, planSteps(basis, amounts, sequence), sequence);
   const review = reviewPlan(basis, amounts, sequence, steps);
   return planResult(basis, amounts, sequence, steps, review);
+}
+
+/**
+ * The stages a plan's gauges do not enter: the amounts and the fill order (neither reads a gauge,
+ * but for the sequence search, which chooses gauges itself). Plans of one input that differ only
+ * in their gauges (a premix's head choices, two-stage.ts) share them: kept by the input without
+ * its gauges, and used only for the very same source objects (later stages look sources up).
+ */
+export type SharedStages = Map<
+  string,
+  { readonly sources: readonly GasSource[]; readonly amounts: PlanAmounts; readonly sequence: PlanSequence }
+>;
+
+function gaugeFreeStages(
+  basis: PlanBasis,
+  shared: SharedStages | undefined,
+): { amounts: PlanAmounts; sequence: PlanSequence } {
+  const { input } = basis;
+  const searched = input.order === 'recommend' && input.thermometer !== undefined;
+  const key =
+    shared && !searched ? JSON.stringify({ ...input, gauges: undefined, manifoldGauges: undefined }) : '';
+  const hit = key ? shared?.get(key) : undefined;
+  if (
+    hit &&
+    hit.sources.length === input.sources.length &&
+    hit.sources.every((s, i) => s === input.sources[i])
+  )
+    return hit;
+  const amounts = planAmounts(basis);
+  const part = { sources: input.sources, amounts, sequence: planSequence(basis, amounts) };
+  if (key) shared?.set(key, part);
+  return part;
 }

@@ -289,6 +289,44 @@ describe('sequence search', () => {
     );
   }, 120_000);
 
+  it('property: a candidate the bound calls unable to meet the tolerance is predicted outside it', async () => {
+    const { cannotBeWithin } = await import('../../src/core/plan/search-eval.js');
+    const input = { ...phiInput(DEMO), thermometer: THERMO };
+    const basis = validatePlanInput(input);
+    const amounts = planAmounts(basis);
+    const [ch4, o2, ar] = input.sources;
+    const ctx = { basis, amounts, thermometer: THERMO, cache: new Map(), stats: {} as never };
+    const outcomes = new Set<boolean>();
+    // shares of the Ar read before the O2, 2 % to 90 %: the O2 is read from low to high pressures, so
+    // both outcomes occur (the demo tolerance is 0.5 %)
+    for (const share of [0.02, 0.05, 0.1, 0.2, 0.4, 0.6, 0.9]) {
+      const probe = planSteps(basis, amounts, {
+        charges: [{ source: ch4 }, { source: ar }],
+        reason: '',
+        recommended: true,
+        findings: [],
+      });
+      const stopPa = probe.steps[0].targetPa + (probe.steps[1].targetPa - probe.steps[0].targetPa) * share;
+      const charges = [{ source: ch4 }, { source: ar, stopPa }, { source: o2 }, { source: ar }];
+      const plan = planFill({ ...input, order: 'given', charges });
+      const nAr = amounts.allocation.amountsMol[2];
+      const candidate = [
+        { source: ch4 },
+        { source: ar, share: plan.steps[1].amountMol / nAr },
+        { source: o2 },
+        { source: ar },
+      ];
+      const cannot = cannotBeWithin(ctx, candidate);
+      outcomes.add(cannot);
+      const p = predictPlan({ plan, gauges: input.gauges, thermometer: THERMO, reading: READING })!;
+      const within = p.rows.every((r) => r.kind === 'dilution' || r.within);
+      // GUM 5.1.2 (independent inputs add in quadrature): the temperature terms alone bound U from below,
+      // so "cannot" must never meet a prediction within the tolerance (no tolerance: a logical implication)
+      if (cannot) expect(within, `share ${share}`).toBe(false);
+    }
+    expect([...outcomes].sort()).toEqual([false, true]);
+  }, 120_000);
+
   it("property: every gauge assigned covers its reading and is still connected (isolation before a head's top)", () => {
     const input = { ...phiInput(DEMO), thermometer: THERMO };
     const basis = validatePlanInput(input);

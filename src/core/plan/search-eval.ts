@@ -368,12 +368,22 @@ export function regauged(
  * steps are planned for it.
  */
 export function temperatureBound(ctx: SearchContext, candidate: readonly CandidateCharge[]): number {
+  let bound = 0;
+  for (const b of temperatureBounds(ctx, candidate).values()) bound = Math.max(bound, b);
+  return bound;
+}
+
+/** temperatureBound of each design gas it bounds (filled in one charge, not inert), by its main species */
+export function temperatureBounds(
+  ctx: SearchContext,
+  candidate: readonly CandidateCharge[],
+): Map<string, number> {
   const { thermometer: th, basis, amounts } = ctx;
   const uT = Math.sqrt(th.resolutionK ** 2 / 12 + th.settlingK ** 2 / 3) / basis.temperatureK;
   const amountOf = new Map(basis.input.sources.map((s, i) => [s, amounts.allocation.amountsMol[i]]));
   const once = (s: GasSource) => candidate.filter((c) => c.source === s).length === 1;
   let cum = basis.initial?.amountMol ?? 0;
-  let bound = 0;
+  const bounds = new Map<string, number>();
   candidate.forEach(({ source, share }, k) => {
     const before = cum;
     cum +=
@@ -385,9 +395,23 @@ export function temperatureBound(ctx: SearchContext, candidate: readonly Candida
     if (!once(source) || !(basis.input.design.composition[sp] > 0) || speciesRole(sp) === 'inert' || !(d > 0))
       return;
     const spread = k === candidate.length - 1 ? Math.SQRT2 * before : Math.hypot(cum, before);
-    bound = Math.max(bound, (0.95 * 2 * uT * spread) / d);
+    bounds.set(sp, Math.max(bounds.get(sp) ?? 0, (0.95 * 2 * uT * spread) / d));
   });
-  return bound;
+  return bounds;
+}
+
+/**
+ * The candidate's prediction cannot meet the tolerance: a design fraction's lower bound of its
+ * relative U (temperatureBounds) is already past what its row allows (predict.ts: U <= max(relative
+ * tolerance x design, absolute tolerance)), so that row, and the candidate, is not within.
+ */
+export function cannotBeWithin(ctx: SearchContext, candidate: readonly CandidateCharge[]): boolean {
+  const { design, tolerance } = ctx.basis.input;
+  for (const [sp, bound] of temperatureBounds(ctx, candidate)) {
+    const d = design.composition[sp];
+    if (bound * d > Math.max(tolerance.relative * d, tolerance.absolute)) return true;
+  }
+  return false;
 }
 
 /** the shares of a source's split charges, summed */

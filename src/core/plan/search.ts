@@ -39,6 +39,7 @@ import {
   predicted,
   reviewIfPromising,
   temperatureBound,
+  cannotBeWithin,
   regauged,
   review,
   reviewedFully,
@@ -409,7 +410,12 @@ function preciseOption(
   admissible: (ev: Evaluated) => boolean,
 ): Evaluated | undefined {
   let best: Evaluated | undefined;
+  // a candidate whose lower bound of U cannot meet the tolerance, or cannot beat the best option
+  // found, is neither reviewed in full nor predicted (it could not be chosen)
+  const hopeless = (c: readonly CandidateCharge[]) =>
+    cannotBeWithin(ctx, c) || (!!best?.worst && temperatureBound(ctx, c) >= best.worst.relative);
   for (const e of found.unsafeOrders) {
+    if (hopeless(e.candidate)) continue;
     // the review stops at the first hazard that rules the order out (hazards are only ever added)
     const full = reviewedFully(ctx, e, rulesOutOption);
     if (!optionable(full)) continue;
@@ -424,6 +430,8 @@ function preciseOption(
       const ev = review(ctx, candidateOf(sw.st, [share]));
       if (!ev || admissible(ev)) continue;
       if (!optionable(ev)) break;
+      // not predicted when it cannot meet the tolerance: the next, smaller share is tried as it would be
+      if (cannotBeWithin(ctx, ev.candidate)) continue;
       const p = predicted(ctx, ev);
       if (isWithin(p)) {
         if (better(p, best)) best = p;

@@ -20,7 +20,7 @@ import type { Finding } from '../findings.js';
 import { designMixture, speciesRole, type Fractions } from '../composition.js';
 import { canRead, type Gauge } from '../gauges.js';
 import type { GasSource } from '../supply.js';
-import { planFill } from '../planner.js';
+import { planFill, type SharedStages } from '../planner.js';
 import { predictPlan, withPrediction, type PredictedPlan, type PredictionInput } from '../predict.js';
 import { fail, ProblemError, type Problem } from '../problems.js';
 import { hazardRank, tankDelivery, withDeliveryFindings, type PremixDeliveryCheck } from '../supply-check.js';
@@ -239,7 +239,12 @@ function planBatchDraft(
 }
 
 /** stage 1 for one choice: the premix planned in its tank, in the order and on the heads chosen (not yet predicted) */
-function premixPlan(input: TwoStageInput, choice: PremixChoice, gauges: readonly Gauge[]): Plan {
+function premixPlan(
+  input: TwoStageInput,
+  choice: PremixChoice,
+  gauges: readonly Gauge[],
+  shared?: SharedStages,
+): Plan {
   const b = input.batch;
   const cylinders = b.sources.filter(
     (s) => s.kind !== 'premix' && s.kind !== 'in-tank' && s.mainSpecies in choice.composition,
@@ -249,19 +254,22 @@ function premixPlan(input: TwoStageInput, choice: PremixChoice, gauges: readonly
     choice.order === 'minor-first'
       ? [...cylinders].sort((a, c) => choice.composition[a.mainSpecies] - choice.composition[c.mainSpecies])
       : cylinders;
-  const plan = planFill({
-    design: designMixture({ kind: 'fractions', fractions: choice.composition }),
-    finalPressurePa: choice.pressurePa,
-    temperatureK: b.temperatureK,
-    tank: input.premixTank,
-    sources,
-    order: choice.order === 'minor-first' ? 'given' : 'recommend',
-    safety: b.safety,
-    gauges,
-    manifoldGauges: b.gauges,
-    reading: b.reading,
-    tolerance: b.tolerance,
-  });
+  const plan = planFill(
+    {
+      design: designMixture({ kind: 'fractions', fractions: choice.composition }),
+      finalPressurePa: choice.pressurePa,
+      temperatureK: b.temperatureK,
+      tank: input.premixTank,
+      sources,
+      order: choice.order === 'minor-first' ? 'given' : 'recommend',
+      safety: b.safety,
+      gauges,
+      manifoldGauges: b.gauges,
+      reading: b.reading,
+      tolerance: b.tolerance,
+    },
+    shared,
+  );
   // the order is the premix choice's, not the user's: say why, not "as given", and name it so in
   // the safer-order warning; not "recommended" either (orderRecommended false for a given order)
   if (choice.order !== 'minor-first') return plan;
@@ -296,8 +304,9 @@ function planChoice(
   seen: Set<string>,
   mayWin?: (known: readonly Finding[]) => boolean,
   planned?: { plan: Plan; predicted?: PredictedPlan },
+  shared?: SharedStages,
 ): TwoStagePlan | undefined {
-  const plan1 = planned?.plan ?? premixPlan(input, choice, gauges);
+  const plan1 = planned?.plan ?? premixPlan(input, choice, gauges, shared);
   // equal stage-1 plans have equal predictions (the same model on the same readings)
   const key = stageOneKey(choice, plan1);
   if (seen.has(key)) return undefined;
@@ -477,6 +486,23 @@ function choicesFor(
 }
 
 /**
+ * Every choice of a composition delivers what the draft's premix charges deliver, to the same
+ * readings: the delivery check on the draft is each choice's (its premix composition is the draft's
+ * nominal one); a premix pressure that certainly runs low is left out of a proposal (kept per pressure).
+ */
+function runsLowIn(input: TwoStageInput, draft: BatchDraft, search: TwoStageSearch) {
+  const low = new Map<number, boolean>();
+  return (pressurePa: number) => {
+    if (search !== 'proposal') return false;
+    if (!low.has(pressurePa)) {
+      const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
+      low.set(pressurePa, check.endPa < check.requiredPa * (1 - 1e-9));
+    }
+    return low.get(pressurePa)!;
+  };
+}
+
+/**
  * Plan a two-stage preparation: the premix in `premixTank`, then the batch from it. Searches the
  * premix (gas, fraction, pressure, stage-1 order and gauges) unless the caller fixes them; refuses
  * (`two-stage-refused`) when the design has no diluent to make a premix in, the premix tank is
@@ -519,10 +545,14 @@ export function planTwoStage(
       attempt(() => {
         const base = { species: sp, composition: x, matched };
         // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
+        // the choices of one composition differ in pressure, order and heads: the plans of one
+        // pressure and order share their amounts and fill order (planner.ts, SharedStages)
+        const shared: SharedStages = new Map();
         const firstPlan = premixPlan(
           input,
           { ...base, pressurePa: pressures[0], gauges: [], order: 'recommended' },
           b.gauges,
+          shared,
         );
         const first = { plan: firstPlan };
         const draft = planBatchDraft(input, base, {
@@ -530,19 +560,8 @@ export function planTwoStage(
           unidentified: firstPlan.unidentifiedFraction,
           pressurePa: pressures[0],
         });
-        // every choice of this composition delivers what the draft's premix charges deliver, to the
-        // same readings: the delivery check on the draft is each choice's (its premix composition is
-        // the draft's nominal one); a premix pressure that certainly runs low is left out of a proposal
-        const low = new Map<number, boolean>();
         const seen = new Set<string>();
-        const runsLow = (pressurePa: number) => {
-          if (search !== 'proposal') return false;
-          if (!low.has(pressurePa)) {
-            const { check } = premixDeliveryCheck(draft.plan, draft.source, input.premixTank, pressurePa);
-            low.set(pressurePa, check.endPa < check.requiredPa * (1 - 1e-9));
-          }
-          return low.get(pressurePa)!;
-        };
+        const runsLow = runsLowIn(input, draft, search);
         for (const { choice, gauges } of choicesFor(input, base, pressures)) {
           if (runsLow(choice.pressurePa)) continue;
           tried++;
@@ -562,7 +581,16 @@ export function planTwoStage(
               choice.pressurePa === pressures[0] &&
               choice.order === 'recommended' &&
               gauges.length === b.gauges.length;
-            const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined);
+            const c = planChoice(
+              input,
+              choice,
+              gauges,
+              draft,
+              seen,
+              mayWin,
+              same ? first : undefined,
+              shared,
+            );
             if (!c) return;
             if (ranksBefore(c, best)) best = c;
             if (!quiet || keyBefore(quietKey(c), quietKey(quiet))) quiet = c;
