@@ -90,6 +90,8 @@ const FRACTION_FACTORS = [1, 3, 10] as const;
 const PREMIX_MAX_FRACTION = 0.5;
 /** premix final pressures tried, as fractions of the premix tank's working limit */
 const PRESSURE_FRACTIONS = [0.9, 0.6, 0.4] as const;
+/** room for the choices of one composition in a choice's place in the enumeration (planTwoStage) */
+const ORD_STRIDE = 1e6;
 
 /** the batch's worst predicted U / tolerance over its design fractions */
 function worstRatioOf(p: PredictedPlan): number {
@@ -530,79 +532,84 @@ export function planTwoStage(
   let quiet: TwoStagePlan | undefined;
   let precise: TwoStagePlan | undefined;
   let tried = 0;
-  let refusal: Problem | undefined;
-  const attempt = (f: () => void) => {
+  let refusal: { problem: Problem; ord: number } | undefined;
+  // the first refusal in the order of enumeration (ord), whatever order the choices are planned in
+  const attempt = (f: () => void, ord = Infinity) => {
     try {
       f();
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
-      refusal ??= e.problem;
+      if (!refusal || ord < refusal.ord) refusal = { problem: e.problem, ord };
     }
   };
+  // each choice's place in the enumeration (species, composition, choice): on equal keys the earlier
+  // wins, so planning the compositions richest first (the precise ones, which let the proposal's
+  // bound leave more choices unpredicted) picks what the enumeration's order picks
+  const ordOf = new Map<TwoStagePlan, number>();
+  const keyed = (key: readonly number[], c: TwoStagePlan) => [...key, ordOf.get(c)!];
   const species = speciesChoices(input, input.premixSpecies ? undefined : singleTank(input, single));
-  for (const sp of species)
-    for (const { x, matched } of premixCompositions(input, sp).slice(0, search === 'quick' ? 1 : undefined))
-      attempt(() => {
-        const base = { species: sp, composition: x, matched };
-        // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
-        // the choices of one composition differ in pressure, order and heads: the plans of one
-        // pressure and order share their amounts and fill order (planner.ts, SharedStages)
-        const shared: SharedStages = new Map();
-        const firstPlan = premixPlan(
-          input,
-          { ...base, pressurePa: pressures[0], gauges: [], order: 'recommended' },
-          b.gauges,
-          shared,
-        );
-        const first = { plan: firstPlan };
-        const draft = planBatchDraft(input, base, {
-          composition: firstPlan.composition,
-          unidentified: firstPlan.unidentifiedFraction,
-          pressurePa: pressures[0],
-        });
-        const seen = new Set<string>();
-        const runsLow = runsLowIn(input, draft, search);
-        for (const { choice, gauges } of choicesFor(input, base, pressures)) {
-          if (runsLow(choice.pressurePa)) continue;
-          tried++;
-          attempt(() => {
-            // a proposal wants the best choice only: one whose key cannot go below the best's is not
-            // predicted (the most precise choice, which a full search also names, is not sought)
-            const mayWin =
-              search === 'proposal'
-                ? (known: readonly Finding[]) =>
-                    !best ||
-                    !quiet ||
-                    keyBefore(rankKeyOf(known, 0), rankKey(best)) ||
-                    keyBefore(quietKeyOf(known, 0), quietKey(quiet))
-                : undefined;
-            // the first premix planned is this choice's when it has the same pressure, heads and order
-            const same =
-              choice.pressurePa === pressures[0] &&
-              choice.order === 'recommended' &&
-              gauges.length === b.gauges.length;
-            const c = planChoice(
-              input,
-              choice,
-              gauges,
-              draft,
-              seen,
-              mayWin,
-              same ? first : undefined,
-              shared,
-            );
-            if (!c) return;
-            if (ranksBefore(c, best)) best = c;
-            if (!quiet || keyBefore(quietKey(c), quietKey(quiet))) quiet = c;
-            if (
-              !hasDanger(c.premix.findings, c.batch.findings) &&
-              c.worstRatio < (precise?.worstRatio ?? Infinity)
-            )
-              precise = c;
-          });
-        }
+  const compositions = species.flatMap((sp, i) =>
+    premixCompositions(input, sp)
+      .slice(0, search === 'quick' ? 1 : undefined)
+      .map((c, j) => ({ sp, ...c, ord: (i * FRACTION_FACTORS.length + j) * ORD_STRIDE })),
+  );
+  for (const { sp, x, matched, ord } of compositions.reverse())
+    attempt(() => {
+      const base = { species: sp, composition: x, matched };
+      // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
+      // the choices of one composition differ in pressure, order and heads: the plans of one
+      // pressure and order share their amounts and fill order (planner.ts, SharedStages)
+      const shared: SharedStages = new Map();
+      const firstPlan = premixPlan(
+        input,
+        { ...base, pressurePa: pressures[0], gauges: [], order: 'recommended' },
+        b.gauges,
+        shared,
+      );
+      const first = { plan: firstPlan };
+      const draft = planBatchDraft(input, base, {
+        composition: firstPlan.composition,
+        unidentified: firstPlan.unidentifiedFraction,
+        pressurePa: pressures[0],
       });
-  if (!best) return fail({ code: 'two-stage-refused', kind: 'no-plan', tried, cause: refusal });
+      const seen = new Set<string>();
+      const runsLow = runsLowIn(input, draft, search);
+      choicesFor(input, base, pressures).forEach(({ choice, gauges }, k) => {
+        if (runsLow(choice.pressurePa)) return;
+        tried++;
+        const at = ord + 1 + k;
+        attempt(() => {
+          // a proposal wants the best choice only: one whose key cannot go below the best's is not
+          // predicted (the most precise choice, which a full search also names, is not sought)
+          const mayWin =
+            search === 'proposal'
+              ? (known: readonly Finding[]) =>
+                  !best ||
+                  !quiet ||
+                  keyBefore([...rankKeyOf(known, 0), at], keyed(rankKey(best), best)) ||
+                  keyBefore([...quietKeyOf(known, 0), at], keyed(quietKey(quiet), quiet))
+              : undefined;
+          // the first premix planned is this choice's when it has the same pressure, heads and order
+          const same =
+            choice.pressurePa === pressures[0] &&
+            choice.order === 'recommended' &&
+            gauges.length === b.gauges.length;
+          const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined, shared);
+          if (!c) return;
+          ordOf.set(c, at);
+          if (!best || keyBefore(keyed(rankKey(c), c), keyed(rankKey(best), best))) best = c;
+          if (!quiet || keyBefore(keyed(quietKey(c), c), keyed(quietKey(quiet), quiet))) quiet = c;
+          if (
+            !hasDanger(c.premix.findings, c.batch.findings) &&
+            (precise
+              ? keyBefore(keyed([c.worstRatio], c), keyed([precise.worstRatio], precise))
+              : c.worstRatio < Infinity)
+          )
+            precise = c;
+        }, at);
+      });
+    }, ord);
+  if (!best) return fail({ code: 'two-stage-refused', kind: 'no-plan', tried, cause: refusal?.problem });
   const chosen = searchedChoice(input, best, quiet as TwoStagePlan | undefined, attempt);
   const p = precise as TwoStagePlan | undefined;
   const mostPrecise =
