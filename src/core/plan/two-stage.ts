@@ -462,6 +462,15 @@ function keyBefore(a: readonly number[], b: readonly number[]): boolean {
   return false;
 }
 
+/**
+ * the premix compositions a search tries, richest first: the likeliest to meet the tolerance, and a best
+ * within it early lets the proposal's bound leave out more choices; quick: the matched premix only
+ */
+function compositionsOf(input: TwoStageInput, species: readonly string[], search: TwoStageSearch) {
+  const all = premixCompositions(input, species);
+  return search === 'quick' ? all.slice(0, 1) : all.reverse();
+}
+
 /** the choices for one premix gas and composition: pressures, stage-1 heads and orders */
 function choicesFor(
   input: TwoStageInput,
@@ -515,7 +524,7 @@ export function planTwoStage(
   };
   const species = speciesChoices(input, input.premixSpecies ? undefined : singleTank(input, single));
   for (const sp of species)
-    for (const { x, matched } of premixCompositions(input, sp).slice(0, search === 'quick' ? 1 : undefined))
+    for (const { x, matched } of compositionsOf(input, sp, search))
       attempt(() => {
         const base = { species: sp, composition: x, matched };
         // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
