@@ -505,6 +505,46 @@ function runsLowIn(input: TwoStageInput, draft: BatchDraft, search: TwoStageSear
 }
 
 /**
+ * The leading choices so far: the best (rankKey), the quietest (quietKey: searched too when it is not
+ * the best, and compared searched) and the most precise without a danger. Each choice carries its
+ * place in the enumeration (species, composition, choice) as a last key: on equal keys the earlier
+ * place leads, so the order in which the choices are planned does not change which lead.
+ */
+function leaders() {
+  const ordOf = new Map<TwoStagePlan, number>();
+  const keyed = (key: readonly number[], c: TwoStagePlan) => [...key, ordOf.get(c)!];
+  const lead = {
+    best: undefined as TwoStagePlan | undefined,
+    quiet: undefined as TwoStagePlan | undefined,
+    precise: undefined as TwoStagePlan | undefined,
+    /** can a choice at place `at` with these findings (before its predictions) still lead: the bound */
+    mayWin(known: readonly Finding[], at: number): boolean {
+      const { best, quiet } = lead;
+      return (
+        !best ||
+        !quiet ||
+        keyBefore([...rankKeyOf(known, 0), at], keyed(rankKey(best), best)) ||
+        keyBefore([...quietKeyOf(known, 0), at], keyed(quietKey(quiet), quiet))
+      );
+    },
+    offer(c: TwoStagePlan, at: number): void {
+      ordOf.set(c, at);
+      const { best, quiet, precise } = lead;
+      if (!best || keyBefore(keyed(rankKey(c), c), keyed(rankKey(best), best))) lead.best = c;
+      if (!quiet || keyBefore(keyed(quietKey(c), c), keyed(quietKey(quiet), quiet))) lead.quiet = c;
+      if (hasDanger(c.premix.findings, c.batch.findings)) return;
+      if (
+        precise
+          ? keyBefore(keyed([c.worstRatio], c), keyed([precise.worstRatio], precise))
+          : c.worstRatio < Infinity
+      )
+        lead.precise = c;
+    },
+  };
+  return lead;
+}
+
+/**
  * Plan a two-stage preparation: the premix in `premixTank`, then the batch from it. Searches the
  * premix (gas, fraction, pressure, stage-1 order and gauges) unless the caller fixes them; refuses
  * (`two-stage-refused`) when the design has no diluent to make a premix in, the premix tank is
@@ -527,10 +567,7 @@ export function planTwoStage(
     input.premixPressurePa !== undefined
       ? [input.premixPressurePa]
       : (search === 'quick' ? [PRESSURE_FRACTIONS[0]] : PRESSURE_FRACTIONS).map((f) => f * limit);
-  let best: TwoStagePlan | undefined;
-  // the quietest choice (quietKeyOf): searched too when it is not the best, and compared searched
-  let quiet: TwoStagePlan | undefined;
-  let precise: TwoStagePlan | undefined;
+  const lead = leaders();
   let tried = 0;
   let refusal: { problem: Problem; ord: number } | undefined;
   // the first refusal in the order of enumeration (ord), whatever order the choices are planned in
@@ -542,11 +579,8 @@ export function planTwoStage(
       if (!refusal || ord < refusal.ord) refusal = { problem: e.problem, ord };
     }
   };
-  // each choice's place in the enumeration (species, composition, choice): on equal keys the earlier
-  // wins, so planning the compositions richest first (the precise ones, which let the proposal's
-  // bound leave more choices unpredicted) picks what the enumeration's order picks
-  const ordOf = new Map<TwoStagePlan, number>();
-  const keyed = (key: readonly number[], c: TwoStagePlan) => [...key, ordOf.get(c)!];
+  // compositions richest first (the precise ones: a best within tolerance early lets the proposal's
+  // bound leave more choices unpredicted); the leaders are those of the enumeration's order (leaders)
   const species = speciesChoices(input, input.premixSpecies ? undefined : singleTank(input, single));
   const compositions = species.flatMap((sp, i) =>
     premixCompositions(input, sp)
@@ -579,39 +613,23 @@ export function planTwoStage(
         tried++;
         const at = ord + 1 + k;
         attempt(() => {
-          // a proposal wants the best choice only: one whose key cannot go below the best's is not
+          // a proposal wants the best choice only: one whose key cannot go below the leaders' is not
           // predicted (the most precise choice, which a full search also names, is not sought)
           const mayWin =
-            search === 'proposal'
-              ? (known: readonly Finding[]) =>
-                  !best ||
-                  !quiet ||
-                  keyBefore([...rankKeyOf(known, 0), at], keyed(rankKey(best), best)) ||
-                  keyBefore([...quietKeyOf(known, 0), at], keyed(quietKey(quiet), quiet))
-              : undefined;
+            search === 'proposal' ? (known: readonly Finding[]) => lead.mayWin(known, at) : undefined;
           // the first premix planned is this choice's when it has the same pressure, heads and order
           const same =
             choice.pressurePa === pressures[0] &&
             choice.order === 'recommended' &&
             gauges.length === b.gauges.length;
           const c = planChoice(input, choice, gauges, draft, seen, mayWin, same ? first : undefined, shared);
-          if (!c) return;
-          ordOf.set(c, at);
-          if (!best || keyBefore(keyed(rankKey(c), c), keyed(rankKey(best), best))) best = c;
-          if (!quiet || keyBefore(keyed(quietKey(c), c), keyed(quietKey(quiet), quiet))) quiet = c;
-          if (
-            !hasDanger(c.premix.findings, c.batch.findings) &&
-            (precise
-              ? keyBefore(keyed([c.worstRatio], c), keyed([precise.worstRatio], precise))
-              : c.worstRatio < Infinity)
-          )
-            precise = c;
+          if (c) lead.offer(c, at);
         }, at);
       });
     }, ord);
+  const { best, quiet, precise: p } = lead;
   if (!best) return fail({ code: 'two-stage-refused', kind: 'no-plan', tried, cause: refusal?.problem });
-  const chosen = searchedChoice(input, best, quiet as TwoStagePlan | undefined, attempt);
-  const p = precise as TwoStagePlan | undefined;
+  const chosen = searchedChoice(input, best, quiet, attempt);
   const mostPrecise =
     search !== 'proposal' && p && p !== best && p.choice !== chosen.choice && p.worstRatio < chosen.worstRatio
       ? {
