@@ -1,7 +1,8 @@
 // A batch log as the guided fill writes it of a plan read exactly at its targets: the header, the
 // plan's dangers acknowledged when asked (the fill's danger screen writes one acknowledge line per
 // danger before the first fill), a reading per step and the close. Shared by the tests that need a
-// record of a given plan without running the fill.
+// record of a given plan without running the fill. `temperatureOf`: each reading's temperature, K
+// (default the plan's).
 import { appendEvent, createLog } from '../src/io/batch-log.js';
 import { headerFromPlan } from '../src/io/check.js';
 import type { Plan } from '../src/core/index.js';
@@ -13,6 +14,7 @@ export function logAtTargets(
   req: PlanRequest,
   batch: string,
   accept: { by: string; note?: string } | undefined,
+  temperatureOf: (step: number) => number = () => plan.temperatureK,
 ): string {
   createLog(file, headerFromPlan(plan, req, batch, '2026-12-02T09:00:00Z', file));
   if (accept)
@@ -33,8 +35,8 @@ export function logAtTargets(
       gauge: s.gauge!.id,
       reading: `${s.targetPa} Pa`,
       pressure_Pa: s.targetPa,
-      temperature: `${plan.temperatureK} K`,
-      temperature_K: plan.temperatureK,
+      temperature: `${temperatureOf(s.index)} K`,
+      temperature_K: temperatureOf(s.index),
       time: `2026-12-02T09:1${s.index}:00Z`,
       by: 'TT',
     });

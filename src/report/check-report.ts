@@ -11,6 +11,7 @@ import {
   type CheckReport,
   type LoggedReading,
   type PlanDanger,
+  type RecordedFill,
 } from './check-types.js';
 import {
   describeProblem,
@@ -403,6 +404,16 @@ export function orderDifference(f: {
   return f.order.join('\n') === f.plannedOrder.join('\n') ? undefined : 'charges';
 }
 
+/** the temperatures the recorded fill was reviewed at, in words */
+function reviewedAt(f: RecordedFill): string {
+  const { coldestK, warmestK } = f.temperatures;
+  const c = (k: number) => (k - 273.15).toFixed(1);
+  return c(coldestK) === c(warmestK)
+    ? `at ${c(warmestK)} degC, the readings' temperature`
+    : `each state at its reading's temperature (${c(coldestK)} to ${c(warmestK)} degC), each fill's ` +
+        `path at the warmer of its two readings`;
+}
+
 /**
  * The safety review of the fill as recorded: the order filled (against the plan's), and its dangers
  * and warnings, each marked where the record shows it accepted
@@ -413,8 +424,7 @@ function recordedFillLines(r: CheckReport): string[] {
   const out = [
     '',
     `The fill as recorded (the planner's safety review of the tank after each reading, by this ` +
-      `re-check's composition at the reading's pressure, and of each fill's path; at ` +
-      `${(f.temperatureK - 273.15).toFixed(1)} degC, the warmest reading)`,
+      `re-check's composition at the reading's pressure, and of each fill's path; ${reviewedAt(f)})`,
   ];
   const differs = orderDifference(f);
   if (differs && f.plannedOrder)
@@ -687,7 +697,7 @@ function recordedFillJson(r: CheckReport) {
     // "order": the sources first filled in another order than the plan's; "charges": in its order,
     // in other charges; false: as planned; null: no plan to compare with
     order_differs: f.plannedOrder === undefined ? null : (orderDifference(f) ?? false),
-    temperature_K: f.temperatureK,
+    temperatures_K: { coldest: f.temperatures.coldestK, warmest: f.temperatures.warmestK },
     findings: f.findings,
     notes: f.notes,
   };
