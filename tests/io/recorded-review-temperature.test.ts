@@ -163,7 +163,9 @@ describe('readings at other temperatures: each state at its own, each fill at th
   });
 
   it('check says so: each state at its reading, 25.0 to 40.0 degC, each path at the warmer end', async () => {
-    const file = logAtTargets(join(dir, 'warm.jsonl'), plan, req, 'warm', undefined, (k) => T[k]);
+    const file = logAtTargets(join(dir, 'warm.jsonl'), plan, req, 'warm', undefined, {
+      temperatureOf: (k) => T[k],
+    });
     const text = checkToText(await checkFile(file, { trials: 0, seed: 1 }));
     expect(text.replace(/\s+/g, ' ')).toContain(
       "of each fill's path; each state at its reading's temperature (25.0 to 40.0 degC), each fill's path " +
