@@ -806,7 +806,9 @@ export function checkToJson(r: CheckReport, version: string): object {
  * batch: never the bare "pass" or "pass-uncertain" in a row that is not a pass
  */
 const NUMBERS_ALONE: Readonly<Record<string, string>> = {
-  pass: `every design fraction within tolerance, uncertainty included: the composition alone, ${COMPOSITION_ALONE_NOT_USABLE}`,
+  pass:
+    'every design fraction within tolerance, uncertainty included: the composition alone, ' +
+    COMPOSITION_ALONE_NOT_USABLE,
   'pass-uncertain': 'not shown within tolerance, the 95 % uncertainty of some fraction reaching past it',
   'no-design': 'no design to compare with',
 };
