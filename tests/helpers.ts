@@ -28,3 +28,28 @@ export async function runCli(
   const code = await run(argv);
   return { code, stdout, stderr };
 }
+
+/** an option given or changed by designOptions; undefined leaves it out */
+export type DesignChange = Record<string, string | undefined>;
+
+/**
+ * A design given on the command line, as `--name value` pairs in this order: CH4/O2 at phi 1 in 85 % Ar,
+ * 10 L at 1000 Torr and 298.15 K, each option changed (in its place), left out (undefined) or added
+ * (at the end) by `change`.
+ */
+export function designOptions(change: DesignChange = {}): string[] {
+  const options: DesignChange = {
+    fuel: 'CH4',
+    oxidizer: 'O2',
+    phi: '1',
+    diluent: 'Ar',
+    dilution: '0.85',
+    volume: '10 L',
+    pressure: '1000 Torr',
+    temperature: '298.15 K',
+    ...change,
+  };
+  return Object.entries(options).flatMap(([name, value]) =>
+    value === undefined ? [] : [`--${name}`, value],
+  );
+}

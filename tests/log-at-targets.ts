@@ -1,8 +1,9 @@
 // A batch log as the guided fill writes it of a plan read exactly at its targets: the header, the
 // plan's dangers acknowledged when asked (the fill's danger screen writes one acknowledge line per
 // danger before the first fill), a reading per step and the close. Shared by the tests that need a
-// record of a given plan without running the fill.
-import { appendEvent, createLog } from '../src/io/batch-log.js';
+// record of a given plan without running the fill. `opts`: each reading's temperature, K (default the
+// plan's), and the header as written (default headerFromPlan's).
+import { appendEvent, createLog, type LogHeader } from '../src/io/batch-log.js';
 import { headerFromPlan } from '../src/io/check.js';
 import type { Plan } from '../src/core/index.js';
 import type { PlanRequest } from '../src/io/load.js';
@@ -13,8 +14,11 @@ export function logAtTargets(
   req: PlanRequest,
   batch: string,
   accept: { by: string; note?: string } | undefined,
+  opts: { temperatureOf?: (step: number) => number; header?: (h: LogHeader) => LogHeader } = {},
 ): string {
-  createLog(file, headerFromPlan(plan, req, batch, '2026-12-02T09:00:00Z', file));
+  const temperatureOf = opts.temperatureOf ?? (() => plan.temperatureK);
+  const header = headerFromPlan(plan, req, batch, '2026-12-02T09:00:00Z', file);
+  createLog(file, opts.header ? opts.header(header) : header);
   if (accept)
     for (const d of plan.findings.filter((x) => x.severity === 'danger'))
       appendEvent(file, {
@@ -33,8 +37,8 @@ export function logAtTargets(
       gauge: s.gauge!.id,
       reading: `${s.targetPa} Pa`,
       pressure_Pa: s.targetPa,
-      temperature: `${plan.temperatureK} K`,
-      temperature_K: plan.temperatureK,
+      temperature: `${temperatureOf(s.index)} K`,
+      temperature_K: temperatureOf(s.index),
       time: `2026-12-02T09:1${s.index}:00Z`,
       by: 'TT',
     });

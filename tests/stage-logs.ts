@@ -1,9 +1,13 @@
 // Premix logs for the two-stage tests: the demo's stage 1 (ch4-o2-ar-phi1, premix in MT-2), read
 // at the given absolute pressures at 25 degC and closed (or not).
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { appendEvent, createLog, type LogHeader } from '../src/io/batch-log.js';
-import { stage1Header } from '../src/io/stage-log.js';
+import { fileSha256, stage1Header, stage2Header } from '../src/io/stage-log.js';
 import { planFrom } from '../src/cli/plan-from.js';
+import { buildSheetModel } from '../src/report/sheet-model.js';
+import { stageSheets } from '../src/report/two-stage-sheet.js';
 
 export const TWO_STAGE_RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 export const twoStagePlanned = planFrom(TWO_STAGE_RECIPE, { premixTank: 'MT-2' });
@@ -36,4 +40,40 @@ export function writePremixLog(
   );
   if (opts.close ?? true) appendEvent(file, { kind: 'close', time: '2026-12-03T09:30:00Z' });
   return { file, header };
+}
+
+/**
+ * Stage 2 of the demo, batch b1 in a new temporary folder (`prefix`): the premix log read at its
+ * targets and closed, the batch planned from it, its log header (`headerAt(closed)`: with the premix
+ * log's close time, from which the mixing time counts) and the stage-2 sheet the plan prints.
+ */
+export function stage2Batch(prefix: string) {
+  const dir = mkdtempSync(join(tmpdir(), prefix));
+  const { file } = writePremixLog(dir, premixTargets, {});
+  const planned = planFrom(TWO_STAGE_RECIPE, { premixLog: file });
+  const headerAt = (closed?: string): LogHeader =>
+    stage2Header(
+      planned.plan,
+      planned.req,
+      'b1',
+      '2026-12-03T09:40:00Z',
+      { file, id: 'b1-premix', sha256: fileSha256(file)! },
+      join(dir, 'b1.jsonl'),
+      closed,
+    );
+  const meta = {
+    recipe: planned.req.recipe,
+    labName: planned.req.lab.name,
+    orderRecommended: true,
+    unit: 'Torr' as const,
+    version: 't',
+    paper: 'a4' as const,
+    lab: {
+      gauges: planned.req.input.gauges,
+      reading: planned.req.input.reading,
+      tanks: planned.req.lab.tanks,
+    },
+  };
+  const stage2Sheet = () => stageSheets(planned.plan, meta, buildSheetModel).at(-1)!;
+  return { dir, file, planned, header: headerAt(), headerAt, stage2Sheet };
 }

@@ -276,7 +276,7 @@ export type {
 } from './remainder-review.js';
 export { roundUpToGrid } from './reading-grid.js';
 export type { ReadingGrid } from './reading-grid.js';
-export { recordedStates, reviewRecordedFill } from './recorded-review.js';
+export { recordedStates, reviewRecordedFill, type ReadingTemperatures } from './recorded-review.js';
 export type {
   RecordedFillInput,
   RecordedFillReview,

@@ -262,7 +262,13 @@ function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }
     case 'csv-no-rows':
       return 'no readings below the header';
     case 'csv-species-not-filled':
-      return `${p.species} is not filled in the design of ${p.recipe} (its fills: ${p.fills.join(', ')})`;
+      return (
+        `${p.species} is not filled in the design of ${p.recipe} (its fills: ${p.fills.join(', ')})` +
+        (p.premixLogMissing
+          ? '; a premix filled in an earlier stage is named by its gases (or premix-<tank>) only with ' +
+            '--premix-log LOG, its stage-1 log'
+          : '')
+      );
     // how a CSV row names its source
     case 'csv-name-ambiguous':
       return (

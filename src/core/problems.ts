@@ -181,6 +181,8 @@ export type Problem =
       readonly species: string;
       readonly recipe: string;
       readonly fills: readonly string[];
+      /** the name is a premix's gases ("Ar+O2") and no --premix-log was given */
+      readonly premixLogMissing?: boolean;
     }
   // raised by the command line and recipe files
   /** a file that cannot be read, and why */

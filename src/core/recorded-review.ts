@@ -7,12 +7,17 @@
  * dangerous, whatever the final composition.
  *
  * The states: after each reading, the composition the re-check's own inverse model gives for the
- * readings up to it (recheck.ts, nominal values: the same numbers `check` reports for the last one)
- * at the reading's pressure; the gas already in the tank before the first fill as the start. The
+ * readings up to it (recheck.ts, nominal values) at the reading's pressure, with each source's
+ * unidentified share counted as its main gas as the planner reviews its states (plan/amounts.ts
+ * eosComposition; the composition `check` reports is normalised over the identified species, a
+ * difference of that share); the gas already in the tank before the first fill as the start. The
  * review: `reviewSequence` (sequence-review.ts), the code the planner and the guided fill's review of
  * the re-targeted remainder use, with the path of every fill located (9 bisections), against the
- * tank's working limit when it is known. One temperature for the whole review, the warmest of the
- * readings: the flammable region only widens as the gas warms (the planner reviews at the plan's).
+ * tank's working limit when it is known. Each state at the temperature recorded with its reading;
+ * each fill's path (and its compression) at the warmer of its two readings, the conservative choice
+ * since the flammable region only widens as the gas warms; condensation at the coldest wall given,
+ * else at the coldest reading. A log read at a plan's targets at the plan's temperature so gives the
+ * plan's own review, number for number.
  */
 import type { Fractions } from './composition.js';
 import type { Finding } from './findings.js';
@@ -44,17 +49,27 @@ export interface RecordedState {
   readonly sourceId: string;
   readonly composition: Fractions;
   readonly pressurePa: number;
+  readonly temperatureK: number;
+}
+
+/** the span of the readings' temperatures (the gas already in the tank's included), K */
+export interface ReadingTemperatures {
+  readonly coldestK: number;
+  readonly warmestK: number;
 }
 
 export interface RecordedFillReview {
-  /** the temperature the review was made at (the warmest reading), K */
-  readonly temperatureK: number;
+  /** the temperatures the states were reviewed at (each its reading's) */
+  readonly temperatures: ReadingTemperatures;
   readonly states: readonly RecordedState[];
   /** every finding of the review of the recorded states and fill paths */
   readonly findings: readonly Finding[];
 }
 
-/** the composition after each reading: the inverse model on the readings up to it (identified species) */
+/**
+ * the composition after each reading: the inverse model on the readings up to it, each source's
+ * unidentified share counted as its main gas (the EOS composition the planner reviews)
+ */
 export function recordedStates(
   readings: readonly RecordedReading[],
   initial?: RecordedFillInput['initial'],
@@ -67,21 +82,26 @@ export function recordedStates(
       undefined,
       upTo.map((x) => x.pressurePa),
     );
+    const total = inv.amounts.reduce((a, b) => a + b, 0);
     const composition: Record<string, number> = {};
     setup.species.forEach((s, i) => {
-      if (inv.x[i] > 0) composition[s] = inv.x[i];
+      if (inv.amounts[i] > 0) composition[s] = inv.amounts[i] / total;
     });
-    return { step: r.step, sourceId: r.source.id, composition, pressurePa: r.pressurePa };
+    return {
+      step: r.step,
+      sourceId: r.source.id,
+      composition,
+      pressurePa: r.pressurePa,
+      temperatureK: r.temperatureK,
+    };
   });
 }
 
 /** the review of the fill as recorded (module comment) */
 export function reviewRecordedFill(input: RecordedFillInput): RecordedFillReview {
   const { readings, initial } = input;
-  const temperatureK = Math.max(
-    ...readings.map((r) => r.temperatureK),
-    ...(initial ? [initial.temperatureK] : []),
-  );
+  const all = [...readings.map((r) => r.temperatureK), ...(initial ? [initial.temperatureK] : [])];
+  const temperatures = { coldestK: Math.min(...all), warmestK: Math.max(...all) };
   const states = recordedStates(readings, initial);
   const fills: SequenceFill[] = states.map((s, i) => ({
     step: s.step,
@@ -89,10 +109,19 @@ export function reviewRecordedFill(input: RecordedFillInput): RecordedFillReview
     sourceComposition: readings[i].source.composition,
     compositionAfter: s.composition,
     pressurePa: s.pressurePa,
+    temperatureK: s.temperatureK,
   }));
   const start = initial
-    ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa }
+    ? {
+        step: 0,
+        composition: initial.composition,
+        pressurePa: initial.pressurePa,
+        temperatureK: initial.temperatureK,
+      }
     : undefined;
-  const findings = fills.length ? reviewSequence(start, fills, { ...input.safety, temperatureK }, true) : [];
-  return { temperatureK, states, findings };
+  // every state and fill carries its own temperature; the review's own (the coldest reading) is the
+  // coldest wall where none is given, and the data gaps' (sequence-review.ts)
+  const ctx = { ...input.safety, temperatureK: temperatures.coldestK };
+  const findings = fills.length ? reviewSequence(start, fills, ctx, true) : [];
+  return { temperatures, states, findings };
 }

@@ -43,6 +43,8 @@ export interface TankState {
   readonly composition: Fractions;
   readonly pressurePa: number;
   readonly final: boolean;
+  /** the temperature it was read at (a recorded fill); absent: the review's (a plan) */
+  readonly temperatureK?: number;
 }
 
 /** one fill: what enters and from which state to which */
@@ -276,6 +278,28 @@ export function reviewDataGaps(states: readonly TankState[], ctx: SafetyContext)
   return out;
 }
 
+/**
+ * The context a state is judged in: at the temperature it was read at where it has one (the fill as
+ * recorded), else the review's own. The coldest wall stays the review's (its coldestK, else its
+ * temperature: the recorded review gives its coldest reading), so condensation is never judged warmer.
+ */
+export function stateContext(ctx: SafetyContext, s: TankState): SafetyContext {
+  if (s.temperatureK === undefined) return ctx;
+  return { ...ctx, temperatureK: s.temperatureK, coldestK: ctx.coldestK ?? ctx.temperatureK };
+}
+
+/**
+ * The context a fill and its path are judged in: between two states read at different temperatures,
+ * at the warmer of the two. The conservative choice: the flammable region only widens as the gas
+ * warms, and compression heating starts from a warmer gas (the path's temperature between the two
+ * readings is not known). States without a temperature: the review's own.
+ */
+export function fillContext(ctx: SafetyContext, e: FillEvent): SafetyContext {
+  const ends = [e.before?.temperatureK, e.after.temperatureK].filter((t): t is number => t !== undefined);
+  if (!ends.length) return ctx;
+  return { ...ctx, temperatureK: Math.max(...ends), coldestK: ctx.coldestK ?? ctx.temperatureK };
+}
+
 /** the whole review: every state, every fill, the data gaps */
 export function reviewFillSequence(
   states: readonly TankState[],
@@ -288,7 +312,7 @@ export function reviewFillSequence(
   // a vapour too close to saturation stays so in every later state: said once, at the first state it happens
   const condensing = new Set<string>();
   for (const s of states) {
-    for (const f of reviewState(s, ctx).findings) {
+    for (const f of reviewState(s, stateContext(ctx, s)).findings) {
       if (f.code === 'condensation') {
         if (condensing.has(f.species)) continue;
         condensing.add(f.species);
@@ -296,7 +320,7 @@ export function reviewFillSequence(
       out.push(f);
     }
   }
-  for (const f of fills) out.push(...reviewFill(f, ctx));
+  for (const f of fills) out.push(...reviewFill(f, fillContext(ctx, f)));
   out.push(...reviewDataGaps(states, ctx));
   return out;
 }

@@ -7,7 +7,13 @@
  */
 import type { Fractions } from './composition.js';
 import type { Finding } from './findings.js';
-import { reviewFillSequence, type FillEvent, type SafetyContext, type TankState } from './safety.js';
+import {
+  fillContext,
+  reviewFillSequence,
+  type FillEvent,
+  type SafetyContext,
+  type TankState,
+} from './safety.js';
 import { reviewFillPath } from './fill-path.js';
 
 /** the gas in the tank where the sequence starts: after fill `step` (0 = before the first fill) */
@@ -15,6 +21,8 @@ export interface SequenceStart {
   readonly step: number;
   readonly composition: Fractions;
   readonly pressurePa: number;
+  /** the temperature it was read at (a recorded fill); absent: the review's */
+  readonly temperatureK?: number;
 }
 
 /** one fill of the sequence and the tank state it ends at */
@@ -26,6 +34,8 @@ export interface SequenceFill {
   readonly compositionAfter: Fractions;
   /** tank pressure after the fill (absolute), Pa */
   readonly pressurePa: number;
+  /** the temperature the tank was read at after the fill (a recorded fill); absent: the review's */
+  readonly temperatureK?: number;
 }
 
 /**
@@ -39,7 +49,13 @@ export function sequenceEvents(
   const states: TankState[] = [];
   const events: FillEvent[] = [];
   let before: TankState | undefined = start
-    ? { step: start.step, composition: start.composition, pressurePa: start.pressurePa, final: false }
+    ? {
+        step: start.step,
+        composition: start.composition,
+        pressurePa: start.pressurePa,
+        final: false,
+        ...(start.temperatureK === undefined ? {} : { temperatureK: start.temperatureK }),
+      }
     : undefined;
   if (before) states.push(before);
   fills.forEach((f, i) => {
@@ -48,6 +64,7 @@ export function sequenceEvents(
       composition: f.compositionAfter,
       pressurePa: f.pressurePa,
       final: i === fills.length - 1,
+      ...(f.temperatureK === undefined ? {} : { temperatureK: f.temperatureK }),
     };
     states.push(after);
     events.push({
@@ -65,7 +82,9 @@ export function sequenceEvents(
 /**
  * The review of every state and every fill path of a sequence (safety.ts for the states and
  * fills, fill-path.ts for the paths); `locate` false bisects the path boundaries 4 times instead
- * of 9 (enough for the severities, when the reported pressure range is not needed).
+ * of 9 (enough for the severities, when the reported pressure range is not needed). A state with a
+ * temperature of its own is judged at it, a fill at the warmer of its two ends (safety.ts
+ * stateContext, fillContext); without: all at `ctx`'s.
  */
 export function reviewSequence(
   start: SequenceStart | undefined,
@@ -75,6 +94,6 @@ export function reviewSequence(
 ): Finding[] {
   const { states, events } = sequenceEvents(start, fills);
   const out = [...reviewFillSequence(states, events, ctx)];
-  for (const e of events) out.push(...reviewFillPath(e, ctx, locate));
+  for (const e of events) out.push(...reviewFillPath(e, fillContext(ctx, e), locate));
   return out;
 }

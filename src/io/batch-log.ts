@@ -286,21 +286,40 @@ const chain = lazy(() =>
 );
 const initials = lazy(() => z.string().trim().min(1).max(16));
 
+/** who logged an event and when, an optional note, and the line's hash link: the tail of most events */
+const signedFields = lazy(() => ({
+  by: initials(),
+  time: z.string(),
+  note: z.string().optional(),
+  chain: chain(),
+}));
+
+/**
+ * a tank read on a gauge: the gauge, the reading as shown, the absolute pressure (described by
+ * `pressure`) and, for a gauge-referenced gauge, the barometer it was made absolute with
+ */
+function gaugeReadFields(pressure: string, reading = 'as shown on the gauge, with its unit') {
+  return {
+    gauge: z.string(),
+    reading: z.string().describe(reading),
+    pressure_Pa: z.number().positive().describe(pressure),
+    barometer_Pa: z.number().positive().optional(),
+  };
+}
+
+/** the temperature read with a pressure: as typed, and in kelvin */
+const temperatureFields = lazy(() => ({ temperature: z.string(), temperature_K: z.number().positive() }));
+
 const readingFields = lazy(() => ({
   step: z.number().int().positive(),
   source: z.string(),
-  gauge: z.string(),
-  reading: z.string().describe('as shown on the gauge, with its unit, e.g. "50.04 Torr"'),
-  pressure_Pa: z.number().positive().describe('absolute tank pressure'),
-  barometer_Pa: z.number().positive().optional(),
-  temperature: z.string(),
-  temperature_K: z.number().positive(),
-  time: z.string(),
+  ...gaugeReadFields('absolute tank pressure', 'as shown on the gauge, with its unit, e.g. "50.04 Torr"'),
+  ...temperatureFields(),
+  ...signedFields(),
+  /** a reading's initials are optional (older logs lack them); the events below require them */
   by: initials().optional(),
-  note: z.string().optional(),
   /** which charge of its source the step is; absent in logs made before split charges */
   charge: chargeSchema().optional(),
-  chain: chain(),
 }));
 
 const readingSchema = lazy(() => z.object({ kind: z.literal('reading'), ...readingFields() }));
@@ -329,25 +348,18 @@ const barometerSchema = lazy(() =>
     reading: z.string().describe('as typed, with its unit, e.g. "752.1 Torr"'),
     pressure_Pa: z.number().positive(),
     u_Pa: z.number().min(0).optional(),
-    by: initials(),
-    time: z.string(),
-    note: z.string().optional(),
-    chain: chain(),
+    ...signedFields(),
   }),
 );
 const startSchema = lazy(() =>
   z.object({
     kind: z.literal('start-pressure'),
-    gauge: z.string(),
-    reading: z.string(),
-    pressure_Pa: z.number().positive().describe('absolute tank pressure before the first fill'),
-    barometer_Pa: z.number().positive().optional(),
-    temperature: z.string(),
-    temperature_K: z.number().positive(),
-    by: initials(),
-    time: z.string(),
-    note: z.string().optional(),
-    chain: chain(),
+    ...gaugeReadFields(
+      'absolute tank pressure before the first fill',
+      'as shown on the gauge, with its unit',
+    ),
+    ...temperatureFields(),
+    ...signedFields(),
   }),
 );
 /**
@@ -407,10 +419,7 @@ const ventSchema = lazy(() =>
     kind: z.literal('vent'),
     step: z.number().int().positive(),
     target_Pa: z.number().positive().describe('the absolute pressure the tank is vented back to (at most)'),
-    by: initials(),
-    time: z.string(),
-    note: z.string().optional(),
-    chain: chain(),
+    ...signedFields(),
   }),
 );
 /** the tank read after venting, once settled: its final pressure (the composition is the readings') */
@@ -418,28 +427,14 @@ const ventReadingSchema = lazy(() =>
   z.object({
     kind: z.literal('vent-reading'),
     step: z.number().int().positive(),
-    gauge: z.string(),
-    reading: z.string().describe('as shown on the gauge, with its unit'),
-    pressure_Pa: z.number().positive().describe('absolute tank pressure after venting'),
-    barometer_Pa: z.number().positive().optional(),
-    temperature: z.string(),
-    temperature_K: z.number().positive(),
-    by: initials(),
-    time: z.string(),
-    note: z.string().optional(),
-    chain: chain(),
+    ...gaugeReadFields('absolute tank pressure after venting'),
+    ...temperatureFields(),
+    ...signedFields(),
   }),
 );
 /** stage 2: the operator confirms the premix was mixed (stirred or rested for the stated time) before the draw */
 const premixMixedSchema = lazy(() =>
-  z.object({
-    kind: z.literal('premix-mixed'),
-    tank: z.string(),
-    by: initials(),
-    time: z.string(),
-    note: z.string().optional(),
-    chain: chain(),
-  }),
+  z.object({ kind: z.literal('premix-mixed'), tank: z.string(), ...signedFields() }),
 );
 /**
  * stage 2: the premix tank read before the first fill from it, against the minimum the plan needs
@@ -450,16 +445,10 @@ const premixReadingSchema = lazy(() =>
   z.object({
     kind: z.literal('premix-reading'),
     tank: z.string(),
-    gauge: z.string(),
-    reading: z.string().describe('as shown on the gauge, with its unit'),
-    pressure_Pa: z.number().positive().describe('absolute premix-tank pressure'),
-    barometer_Pa: z.number().positive().optional(),
+    ...gaugeReadFields('absolute premix-tank pressure'),
     minimum_Pa: z.number().positive(),
     enough: z.boolean(),
-    by: initials(),
-    time: z.string(),
-    note: z.string().optional(),
-    chain: chain(),
+    ...signedFields(),
   }),
 );
 const closeSchema = lazy(() =>

@@ -5,7 +5,7 @@
  * tank's working limit and rating and against a named gauge's range, as the log audit does.
  */
 import { evaluateUncertaintyParallel } from './parallel-mc.js';
-import { chargeNumbers } from '../core/index.js';
+import { chargeNumbers, fillLabel } from '../core/index.js';
 import {
   chooseGauge,
   fail,
@@ -115,8 +115,9 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
         `against the limits of ${tank.id}`,
     );
   const premix = premixOfOption(file, opts, req.lab, plan.design);
+  const filled = [...plan.steps.map((s) => s.source), ...(premix ? [premix.source] : [])];
   const names = sourceNames({
-    filled: [...plan.steps.map((s) => s.source), ...(premix ? [premix.source] : [])],
+    filled,
     cylinders: req.lab.cylinders,
     premixes: { tanks: req.lab.tanks.map((t) => t.id), given: premix?.source.id },
     notFilled: (name, where) =>
@@ -125,7 +126,10 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
           code: 'csv-species-not-filled',
           species: name,
           recipe: opts.recipeFile,
-          fills: [...new Set(plan.steps.map((x) => x.species))],
+          // the fills by the names a row may give them (csv-names.ts: the plan's step labels)
+          fills: [...new Set(filled.map(fillLabel))],
+          // a premix named by its gases ("Ar+O2") with no --premix-log: say how it is given
+          ...(name.includes('+') && !premix ? { premixLogMissing: true } : {}),
         },
         where,
       ),

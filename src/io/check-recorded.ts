@@ -63,7 +63,7 @@ export function recordedFillOf(
       dangers.push({ code: f.code, step: f.step });
   return {
     recordedFill: {
-      temperatureK: review.temperatureK,
+      temperatures: review.temperatures,
       order: readings.map((r) => r.source.id),
       ...(plannedOrder ? { plannedOrder: [...plannedOrder] } : {}),
       findings,

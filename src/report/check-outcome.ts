@@ -7,6 +7,13 @@
  * label and the exit code (cli/commands/check.ts `checkExit`) never disagree.
  */
 
+/**
+ * what a composition within tolerance is where something else makes the re-check no pass: the
+ * composition alone, which does not make the tank usable (check's text, folder rows and label say so
+ * wherever they speak of it; tests/cli/check-no-pass-wording.test.ts)
+ */
+export const COMPOSITION_ALONE_NOT_USABLE = 'which does not make the tank usable';
+
 /** what stands against a pass, each with its exit code in the cli (EXIT) */
 export type CheckOutcome =
   | 'incomplete'

@@ -1,7 +1,7 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { checkOutcomes, overallVerdict } from './check-outcome.js';
+import { checkOutcomes, COMPOSITION_ALONE_NOT_USABLE, overallVerdict } from './check-outcome.js';
 import {
   dangerList,
   hazardList,
@@ -11,6 +11,7 @@ import {
   type CheckReport,
   type LoggedReading,
   type PlanDanger,
+  type RecordedFill,
 } from './check-types.js';
 import {
   describeProblem,
@@ -316,10 +317,12 @@ function alteredLeads(r: CheckReport): boolean {
 
 /** what the numbers as they stand would give, for a verdict led by an altered record */
 const STANDING_TEXT: Record<string, string> = {
-  pass: 'they would pass (every design fraction within its tolerance, uncertainty included)',
+  pass:
+    'every design fraction is within its tolerance, uncertainty included (the composition alone, ' +
+    `${COMPOSITION_ALONE_NOT_USABLE})`,
   'pass-uncertain':
-    'they would not show every design fraction within its tolerance (the 95 % uncertainty of ' +
-    'some reaches past it)',
+    'not every design fraction is shown within its tolerance (the 95 % uncertainty of some reaches ' +
+    'past it)',
   'no-design': 'there is no design to compare them with',
 };
 
@@ -368,8 +371,8 @@ function verdictText(r: CheckReport): string {
   // a composition within tolerance beside a danger, a plan danger or hazards, or a log never closed
   const composition =
     r.verdict.verdict === 'pass' && checkOutcomes(r).length
-      ? 'NOT A PASS - the composition alone would pass (every design fraction within its tolerance, ' +
-        'uncertainty included); what follows stands against it'
+      ? 'NOT A PASS - the composition alone is within tolerance (every design fraction, uncertainty ' +
+        `included), ${COMPOSITION_ALONE_NOT_USABLE}: what follows stands against it`
       : VERDICT_TEXT[r.verdict.verdict];
   return (
     composition +
@@ -403,6 +406,16 @@ export function orderDifference(f: {
   return f.order.join('\n') === f.plannedOrder.join('\n') ? undefined : 'charges';
 }
 
+/** the temperatures the recorded fill was reviewed at, in words */
+function reviewedAt(f: RecordedFill): string {
+  const { coldestK, warmestK } = f.temperatures;
+  const c = (k: number) => (k - 273.15).toFixed(1);
+  return c(coldestK) === c(warmestK)
+    ? `at ${c(warmestK)} degC, the readings' temperature`
+    : `each state at its reading's temperature (${c(coldestK)} to ${c(warmestK)} degC), each fill's ` +
+        `path at the warmer of its two readings`;
+}
+
 /**
  * The safety review of the fill as recorded: the order filled (against the plan's), and its dangers
  * and warnings, each marked where the record shows it accepted
@@ -413,8 +426,7 @@ function recordedFillLines(r: CheckReport): string[] {
   const out = [
     '',
     `The fill as recorded (the planner's safety review of the tank after each reading, by this ` +
-      `re-check's composition at the reading's pressure, and of each fill's path; at ` +
-      `${(f.temperatureK - 273.15).toFixed(1)} degC, the warmest reading)`,
+      `re-check's composition at the reading's pressure, and of each fill's path; ${reviewedAt(f)})`,
   ];
   const differs = orderDifference(f);
   if (differs && f.plannedOrder)
@@ -682,7 +694,7 @@ function recordedFillJson(r: CheckReport) {
     // "order": the sources first filled in another order than the plan's; "charges": in its order,
     // in other charges; false: as planned; null: no plan to compare with
     order_differs: f.plannedOrder === undefined ? null : (orderDifference(f) ?? false),
-    temperature_K: f.temperatureK,
+    temperatures_K: { coldest: f.temperatures.coldestK, warmest: f.temperatures.warmestK },
     findings: f.findings,
     notes: f.notes,
   };
@@ -789,8 +801,10 @@ export function checkToJson(r: CheckReport, version: string): object {
  * batch: never the bare "pass" or "pass-uncertain" in a row that is not a pass
  */
 const NUMBERS_ALONE: Readonly<Record<string, string>> = {
-  pass: 'every design fraction within tolerance, uncertainty included',
-  'pass-uncertain': 'within tolerance, the 95 % uncertainty of some fraction reaching past it',
+  pass:
+    'every design fraction within tolerance, uncertainty included: the composition alone, ' +
+    COMPOSITION_ALONE_NOT_USABLE,
+  'pass-uncertain': 'not shown within tolerance, the 95 % uncertainty of some fraction reaching past it',
   'no-design': 'no design to compare with',
 };
 
@@ -802,7 +816,7 @@ function compositionCell(r: CheckReport): string {
   if (r.verdict.verdict === 'no-design') return 'no design - not a pass';
   if (r.verdict.verdict === 'pass-uncertain') return 'not shown within tolerance - not a pass';
   if (r.verdict.verdict === 'pass' && checkOutcomes(r).length)
-    return 'NOT A PASS (composition within tolerance)';
+    return `NOT A PASS (composition alone within tolerance, ${COMPOSITION_ALONE_NOT_USABLE})`;
   return r.verdict.verdict;
 }
 

@@ -4,7 +4,14 @@
  * the file-handling shell (src/io); src/io/check.ts builds a CheckReport and the parsed
  * batch log (src/io/batch-log.ts) fits LogView as it is.
  */
-import type { CheckVerdict, CheckedReading, Design, Tolerance, UncertaintyResult } from '../core/index.js';
+import type {
+  CheckVerdict,
+  CheckedReading,
+  Design,
+  ReadingTemperatures,
+  Tolerance,
+  UncertaintyResult,
+} from '../core/index.js';
 
 export type RecordSeverity = 'danger' | 'warning' | 'note';
 
@@ -307,8 +314,8 @@ export interface RecordedFillFinding {
 
 /** the safety review of the fill as recorded (core/recorded-review.ts) */
 export interface RecordedFill {
-  /** the temperature the review was made at (the warmest reading), K */
-  readonly temperatureK: number;
+  /** the span of the readings' temperatures: each state is reviewed at its own, each fill's path at the warmer end */
+  readonly temperatures: ReadingTemperatures;
   /** the sources in the order their readings were recorded */
   readonly order: readonly string[];
   /** the sources in the order of the plan (the recipe's, or the log's steps); absent without one */

@@ -9,6 +9,7 @@
 import { STANDING_CAUTION } from '../core/index.js';
 import { premixCheckText, type CheckReport, type LoggedReading, type LogView } from './check-types.js';
 import { premixPressure } from './check-report.js';
+import { COMPOSITION_ALONE_NOT_USABLE } from './check-outcome.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, tankName } from './format.js';
 import { labelLines, labelModel, outcomeLeads, type LabelModel } from './label-model.js';
@@ -90,10 +91,11 @@ const OUTCOME_TEXT: Record<string, string> = {
 /** the certificate's verdict: a danger, a plan danger, accepted hazards or an open log before the composition */
 function certificateVerdict(label: LabelModel): string {
   if (label.danger)
-    return (
-      `${VERDICT_TEXT[label.status]} This is the composition only: the log records ` +
-      `a danger (below), and the tank is not fit to use.`
-    );
+    return COMPOSITION_TEXT[label.status]
+      ? `NOT A PASS. The composition only: ${COMPOSITION_TEXT[label.status]} Beside it the log records ` +
+          `a danger (below), and the tank is not fit to use.`
+      : `${VERDICT_TEXT[label.status]} This is the composition only: the log records ` +
+          `a danger (below), and the tank is not fit to use.`;
   if (outcomeLeads(label))
     return `${OUTCOME_TEXT[label.outcome]} The composition only: ${COMPOSITION_TEXT[label.status]}`;
   return VERDICT_TEXT[label.status];
@@ -101,7 +103,9 @@ function certificateVerdict(label: LabelModel): string {
 
 /** the composition's judgement where an outcome of the record leads the verdict (never the word PASS) */
 const COMPOSITION_TEXT: Record<string, string> = {
-  pass: 'every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included.',
+  pass:
+    'every design mole fraction is within its tolerance with the expanded uncertainty (k = 2) included, ' +
+    `${COMPOSITION_ALONE_NOT_USABLE}.`,
   'pass-uncertain':
     'every design mole fraction is inside its tolerance on the readings, but for some the expanded ' +
     'uncertainty (k = 2) reaches past it.',

@@ -138,7 +138,8 @@ const OUTCOME_LEAD: Partial<Record<CheckOutcome, string>> = {
 
 /** the composition's judgement under an outcome that leads the headline (never the word PASS) */
 const COMPOSITION_ONLY: Partial<Record<LabelStatus, string>> = {
-  pass: 'composition only: as filled within tolerance, uncertainty included',
+  // within the label's 78 columns: U is the expanded uncertainty the label gives with each fraction
+  pass: 'composition only, within tolerance with U: it does not make the tank usable',
   'pass-uncertain': 'composition only: not shown within tolerance, the uncertainty reaches past it',
 };
 
@@ -147,7 +148,8 @@ const COMPOSITION_ONLY: Partial<Record<LabelStatus, string>> = {
  * danger nobody acknowledged, hazards accepted at the manifold or a log never closed lead it
  */
 function headlineOf(status: LabelStatus, outcome: CheckOutcome | 'pass', danger: boolean): string {
-  if (danger) return `composition only: ${HEADLINE[status]}`;
+  // never the word PASS beside a danger: a composition within tolerance is said as the composition alone
+  if (danger) return status === 'pass' ? COMPOSITION_ONLY.pass! : `composition only: ${HEADLINE[status]}`;
   const lead = outcome === 'pass' ? undefined : OUTCOME_LEAD[outcome];
   return lead && COMPOSITION_ONLY[status] ? lead : HEADLINE[status];
 }

@@ -11,8 +11,7 @@ import { mkdtempSync, writeFileSync, copyFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { appendEvent, createLog } from '../../src/io/batch-log.js';
-import { checkFile, headerFromPlan } from '../../src/io/check.js';
+import { checkFile } from '../../src/io/check.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planFill, pureCylinder, recordedStates, TORR_PA } from '../../src/core/index.js';
 import { runCli } from '../helpers.js';
@@ -168,21 +167,7 @@ describe('a batch log of that order', () => {
     // fill, or a header edited): nothing in the header says danger, the readings do
     const { req, plan } = planInOrder();
     const f = join(dir, 'no-findings.jsonl');
-    createLog(f, { ...headerFromPlan(plan, req, 'nofind', '2026-12-02T09:00:00Z', f), findings: [] });
-    for (const s of plan.steps)
-      appendEvent(f, {
-        kind: 'reading',
-        step: s.index,
-        source: s.source.id,
-        gauge: s.gauge!.id,
-        reading: `${s.targetPa} Pa`,
-        pressure_Pa: s.targetPa,
-        temperature: `${plan.temperatureK} K`,
-        temperature_K: plan.temperatureK,
-        time: `2026-12-02T09:1${s.index}:00Z`,
-        by: 'TT',
-      });
-    appendEvent(f, { kind: 'close', time: '2026-12-02T09:30:00Z' });
+    logAtTargets(f, plan, req, 'nofind', undefined, { header: (h) => ({ ...h, findings: [] }) });
     const r = await runCli(['check', f, '--json']);
     expect(r.code, r.stderr).toBe(6);
     const j = JSON.parse(r.stdout);

@@ -121,7 +121,7 @@ describe('check of a folder with stage logs', () => {
     const r = await runCli(['check', dir]);
     // never "pass" in the verdict column where the log is not one (exit 7)
     expect(r.stdout).toMatch(
-      /b1-premix +1 of 2: premix of b1 \(stage 2 will refuse it\) +NOT A PASS \(composition within tolerance\), NOT CLOSED/,
+      /b1-premix +1 of 2: premix of b1 \(stage 2 will refuse it\) +NOT A PASS \(composition alone within tolerance, which does not make the tank usable\), NOT CLOSED/,
     );
     expect(r.code).toBe(7);
   });

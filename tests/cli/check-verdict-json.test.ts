@@ -102,7 +102,7 @@ describe('check --json: verdict, composition_verdict and outcomes agree with the
     expect(j.plan_dangers_not_acknowledged).toEqual([]);
     const t = await text([acked]);
     expect(t.verdict).toMatch(
-      /^Verdict {5}NOT A PASS - the composition alone would pass .* - ACCEPTED HAZARD /,
+      /^Verdict {5}NOT A PASS - the composition alone is within tolerance .* - ACCEPTED HAZARD /,
     );
     expect(t.verdict).not.toMatch(/^Verdict {5}PASS/);
   });
@@ -136,7 +136,7 @@ describe('check --json: verdict, composition_verdict and outcomes agree with the
     const summary = await runCli(['check', folder]);
     expect(summary.code).toBe(6);
     expect(summary.stdout).toMatch(
-      /c-unacked\.jsonl .* NOT A PASS \(composition within tolerance\), PLAN DANGER NOT ACKNOWLEDGED \(detonable-state \(fill 3\)\)/,
+      /c-unacked\.jsonl .* NOT A PASS \(composition alone within tolerance, which does not make the tank usable\), PLAN DANGER NOT ACKNOWLEDGED \(detonable-state \(fill 3\)\)/,
     );
   });
 });
@@ -173,7 +173,7 @@ describe("a plan's danger that the log records no acknowledgement of: never weak
     expect(r.code).toBe(6);
     const box = r.stdout.slice(0, r.stdout.indexOf('BATCH CERTIFICATE'));
     expect(box).toContain('*** PLAN DANGER NOT ACKNOWLEDGED - NOT A PASS ***');
-    expect(box).toContain('composition only: as filled within tolerance, uncertainty included');
+    expect(box).toContain('composition only, within tolerance with U: it does not make the tank usable');
     expect(box).toContain("! PLAN DANGER NOT ACKNOWLEDGED: the plan's safety review found detonable-state");
     expect(box).not.toContain('PASS - as filled');
     expect(r.stdout).toMatch(/^VERDICT {2}NOT A PASS - PLAN DANGER NOT ACKNOWLEDGED/m);

@@ -10,30 +10,10 @@ import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
 import { planFill } from '../../src/core/index.js';
-import { runCli, TORR } from '../helpers.js';
+import { designOptions, runCli, TORR } from '../helpers.js';
 
 const PSI = 6894.757293168361;
-const INLINE = [
-  'plan',
-  '--fuel',
-  'CH4',
-  '--oxidizer',
-  'O2',
-  '--phi',
-  '1',
-  '--diluent',
-  'Ar',
-  '--dilution',
-  '0.85',
-  '--volume',
-  '10 L',
-  '--pressure',
-  '15 psig',
-  '--rating',
-  '45 psig',
-  '--temperature',
-  '298.15 K',
-];
+const INLINE = ['plan', ...designOptions({ pressure: '15 psig', rating: '45 psig' })];
 const dir = mkdtempSync(join(tmpdir(), 'mw-psig-'));
 const noBaroLab = join(dir, 'lab-no-baro.yaml');
 writeFileSync(noBaroLab, DEMO_LAB_YAML.replace(/^barometer:\n( {2}.*\n)+/m, ''));

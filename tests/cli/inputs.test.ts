@@ -10,7 +10,7 @@ import {
 } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { runCli, TORR } from '../helpers.js';
+import { designOptions, runCli, TORR } from '../helpers.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
@@ -102,22 +102,7 @@ describe('input people type', () => {
   it('--rating for a tank given by --volume: a final pressure above it is the tank-over-rating danger (exit 3)', async () => {
     const inline = [
       'plan',
-      '--fuel',
-      'CH4',
-      '--oxidizer',
-      'O2',
-      '--phi',
-      '1',
-      '--diluent',
-      'Ar',
-      '--dilution',
-      '0.98',
-      '--volume',
-      '10 L',
-      '--pressure',
-      '1500 Torr',
-      '--temperature',
-      '25 degC',
+      ...designOptions({ dilution: '0.98', pressure: '1500 Torr', temperature: '25 degC' }),
     ];
     const over = await runCli([...inline, '--rating', '1 bar', '--json']);
     expect(over.code, over.stderr).toBe(3);

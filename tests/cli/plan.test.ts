@@ -1,28 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { runCli, fixture, TORR } from '../helpers.js';
+import { designOptions, runCli, fixture, TORR, type DesignChange } from '../helpers.js';
 
 const worked = fixture('worked-plan.json');
-const INLINE = [
-  'plan',
-  '--fuel',
-  'CH4',
-  '--oxidizer',
-  'O2',
-  '--phi',
-  '1',
-  '--diluent',
-  'Ar',
-  '--dilution',
-  '0.85',
-  '--volume',
-  '10 L',
-  '--pressure',
-  '1000 Torr',
-  '--temperature',
-  '298.15 K',
-  '--order',
-  'CH4,O2,Ar',
-];
+/** the plan command of the inline CH4/O2/Ar design, filled in the order CH4, O2, Ar, with any option changed */
+const inline = (change: DesignChange = {}) => ['plan', ...designOptions({ order: 'CH4,O2,Ar', ...change })];
+const INLINE = inline();
 
 describe('mixwright plan', () => {
   it('plans a demo recipe: exit 0, the real-gas targets, the caution', async () => {
@@ -114,61 +96,61 @@ describe('bad input: exit 2, one message naming what and where, never a stack tr
   const cases: [string, string[], string, RegExp][] = [
     [
       'unknown species, with suggestions',
-      [...INLINE.slice(0, 1), '--fuel', 'CH5', ...INLINE.slice(3)],
+      inline({ fuel: 'CH5' }),
       'unknown-species',
       /--fuel: unknown species "CH5"; did you mean CH4/,
     ],
     [
       'phi <= 0 on the command line',
-      [...INLINE.slice(0, 5), '--phi', '-1', ...INLINE.slice(7)],
+      inline({ phi: '-1' }),
       'not-positive',
       /--phi: phi \(equivalence ratio\) must be greater than zero/,
     ],
     [
       'dilution 1',
-      [...INLINE.slice(0, 9), '--dilution', '1', ...INLINE.slice(11)],
+      inline({ dilution: '1' }),
       'out-of-range',
       /--dilution: dilution .* outside the allowed range \[0, 1\)/,
     ],
     [
       'a volume given as the pressure',
-      [...INLINE.slice(0, 13), '--pressure', '30 L', ...INLINE.slice(15)],
+      inline({ pressure: '30 L' }),
       'wrong-dimension',
       /--pressure: "30 L" is a volume, but a pressure is needed/,
     ],
     [
       'a pressure without a unit',
-      [...INLINE.slice(0, 13), '--pressure', '1000', ...INLINE.slice(15)],
+      inline({ pressure: '1000' }),
       'bad-quantity',
       /--pressure: cannot read "1000" as a pressure: a unit is required/,
     ],
     [
       'negative volume',
-      [...INLINE.slice(0, 11), '--volume', '-10 L', ...INLINE.slice(13)],
+      inline({ volume: '-10 L' }),
       'not-positive',
       /--volume: tank volume must be greater than zero/,
     ],
     [
       'zero pressure',
-      [...INLINE.slice(0, 13), '--pressure', '0 Torr', ...INLINE.slice(15)],
+      inline({ pressure: '0 Torr' }),
       'not-positive',
       /--pressure: final pressure must be greater than zero/,
     ],
     [
       'an order that misses a gas',
-      [...INLINE.slice(0, 17), '--order', 'CH4,O2'],
+      inline({ order: 'CH4,O2' }),
       'order-missing',
       /--order: the fill order leaves out Ar/,
     ],
     [
       'an order that repeats a gas with a stop on its last charge (a gas named again is another charge)',
-      [...INLINE.slice(0, 17), '--order', 'CH4,O2,Ar,O2@900 Torr'],
+      inline({ order: 'CH4,O2,Ar,O2@900 Torr' }),
       'order-stop',
       /--order: the fill order entry "O2@900 Torr" gives a stop on the last charge of O2 \(charge 2 of 2\)/,
     ],
     [
       'an order with a gas the mixture does not fill',
-      [...INLINE.slice(0, 17), '--order', 'CH4,O2,He'],
+      inline({ order: 'CH4,O2,He' }),
       'order-unknown',
       /--order: the fill order names He/,
     ],

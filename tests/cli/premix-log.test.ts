@@ -220,7 +220,7 @@ describe('an altered or unclosed premix log', () => {
     const r = await runCli(['check', altered, '--trials', '100000']);
     expect(r.code).toBe(5);
     expect(r.stdout).toMatch(
-      /^Verdict {5}RECORD ALTERED AFTER WRITING \(line 3\) - not a pass: the record was changed after it was written, .*; on the numbers as they stand they would pass \(/m,
+      /^Verdict {5}RECORD ALTERED AFTER WRITING \(line 3\) - not a pass: the record was changed after it was written, .*; on the numbers as they stand every design fraction is within its tolerance, uncertainty included \(the composition alone, which does not make the tank usable\)/m,
     );
     expect(r.stdout).not.toMatch(/Verdict {5}(PASS|pass)/);
     const j = await runCli(['check', altered, '--trials', '100000', '--json']);
@@ -237,8 +237,10 @@ describe('an altered or unclosed premix log', () => {
     expect(label.stdout.slice(0, label.stdout.indexOf('BATCH CERTIFICATE'))).toContain(
       'NOT CLOSED: the fill never ended with a close entry',
     );
-    // the composition alone would pass; the verdict leads with NOT A PASS (never "PASS" where exit is 7)
-    expect(r.stdout).toMatch(/^Verdict {5}NOT A PASS - the composition alone would pass .* - NOT CLOSED: /m);
+    // the composition alone is within tolerance; the verdict leads with NOT A PASS (never "PASS" where exit is 7)
+    expect(r.stdout).toMatch(
+      /^Verdict {5}NOT A PASS - the composition alone is within tolerance .*, which does not make the tank usable: .* - NOT CLOSED: /m,
+    );
     expect(label.stdout).toContain('*** NOT CLOSED - NOT A PASS ***');
     const j = JSON.parse((await runCli(['check', unclosed, '--trials', '100000', '--json'])).stdout);
     expect([j.verdict, j.composition_verdict, j.outcomes]).toEqual(['not-closed', 'pass', ['not-closed']]);
@@ -248,10 +250,10 @@ describe('an altered or unclosed premix log', () => {
     const r = await runCli(['check', join(dir, 'altered')]);
     expect(r.code).toBe(5);
     expect(r.stdout).toMatch(
-      /premix\.jsonl +\S+ +\S.*? +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; the numbers alone: every design fraction within tolerance, uncertainty included +/,
+      /premix\.jsonl +\S+ +\S.*? +RECORD ALTERED AFTER WRITING \(line 3\) - not a pass; the numbers alone: every design fraction within tolerance, uncertainty included: the composition alone, which does not make the tank usable +/,
     );
     expect(r.stdout).toMatch(
-      /unclosed\.jsonl +\S+ +\S.*? +NOT A PASS \(composition within tolerance\), NOT CLOSED/,
+      /unclosed\.jsonl +\S+ +\S.*? +NOT A PASS \(composition alone within tolerance, which does not make the tank usable\), NOT CLOSED/,
     );
     // neither row says "pass" as a judgement: only "not a pass"
     for (const row of r.stdout.split('\n').filter((l) => /(premix|unclosed)\.jsonl/.test(l)))

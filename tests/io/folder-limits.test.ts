@@ -26,7 +26,7 @@ describe('check of a folder: a log without the tank limits says so', () => {
     expect(row('rated.jsonl')).not.toMatch(/NOT checked/);
     // the header edited by hand is off its hash chain, and the summary says so beside the verdict
     expect(row('no-rating.jsonl')).toMatch(
-      /RECORD ALTERED AFTER WRITING \(line 1\) - not a pass; the numbers alone: within tolerance, the 95 % uncertainty of some fraction reaching past it, tank limits NOT checked/,
+      /RECORD ALTERED AFTER WRITING \(line 1\) - not a pass; the numbers alone: not shown within tolerance, the 95 % uncertainty of some fraction reaching past it, tank limits NOT checked/,
     );
     // a row that is not a pass never says "pass" or "pass-uncertain" as a judgement (only "not a pass")
     expect(row('no-rating.jsonl').replace(/not a pass/gi, '')).not.toMatch(/\bpass(-uncertain)?\b/i);

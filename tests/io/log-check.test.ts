@@ -305,7 +305,7 @@ describe('dangers in a log', () => {
       "line 4, fill 3: the tank reading 1500 Torr (absolute) is above the tank's working limit of 1495 Torr",
     );
     expect(cli.stdout).toMatch(
-      /Verdict {5}(NOT A PASS - the composition alone would pass|NOT SHOWN WITHIN TOLERANCE).*\n {12}DANGER: a logged reading went past the tank's working limit/,
+      /Verdict {5}(NOT A PASS - the composition alone is within tolerance|NOT SHOWN WITHIN TOLERANCE).*\n {12}DANGER: a logged reading went past the tank's working limit/,
     );
     const j = JSON.parse((await runCli(['check', file, '--json', '--trials', '100000'])).stdout);
     expect(j.danger).toBe(true);
@@ -334,7 +334,7 @@ describe('dangers in a log', () => {
     expect(folder.code).toBe(3);
     // the composition's cell never reads as a pass beside a danger (was "pass" / "pass-uncertain")
     expect(folder.stdout).toMatch(
-      /lim\.jsonl\s+danger-test\s+-\s+(NOT A PASS \(composition within tolerance\)|not shown within tolerance - not a pass), DANGER/,
+      /lim\.jsonl\s+danger-test\s+-\s+(NOT A PASS \(composition alone within tolerance, which does not make the tank usable\)|not shown within tolerance - not a pass), DANGER/,
     );
   });
 

@@ -10,7 +10,7 @@ import { buildSheetModel, designTitle } from '../../src/report/sheet-model.js';
 import { sheetToHtml, sheetToText } from '../../src/report/sheet-render.js';
 import { detailSvg, diagramData, diagramSvg, niceStep, placeNumbers } from '../../src/report/diagram.js';
 import { findChromium, writePdf } from '../../src/io/pdf.js';
-import { runCli, TORR } from '../helpers.js';
+import { designOptions, runCli, TORR } from '../helpers.js';
 import { splitPlan } from '../split-plan.js';
 
 const PSI = 6894.757293168361; // Pa per psi (NIST SP 811, B.8: 1 psi = 6.894 757 E+03 Pa)
@@ -183,24 +183,8 @@ describe('the printed sheet holds together', () => {
   it('a design from the command line gets a title from its gases, not "inline"', async () => {
     const r = await runCli([
       'sheet',
-      '--fuel',
-      'CH4',
-      '--oxidizer',
-      'O2',
-      '--phi',
-      '1',
-      '--diluent',
-      'Ar',
-      '--dilution',
-      '0.9',
-      '--pressure',
-      '1500 Torr',
-      '--temperature',
-      '25 degC',
-      '--tank',
-      'MT-1',
-      '--format',
-      'txt',
+      ...designOptions({ dilution: '0.9', volume: undefined, pressure: '1500 Torr', temperature: '25 degC' }),
+      ...['--tank', 'MT-1', '--format', 'txt'],
     ]);
     expect([0, 3], r.stderr).toContain(r.code); // 10 % CH4+O2 may carry a danger finding; the sheet is printed either way
     expect(r.stdout).toContain('FILL SHEET  CH4/O2 phi 1 in 90 % Ar, 1500 Torr in MT-1');

@@ -1,27 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../helpers.js';
+import { designOptions, runCli } from '../helpers.js';
 import { tankName } from '../../src/report/format.js';
 
 // a tank given only by its volume (--volume, no tank of the lab profile) has no name of its own:
 // the loader's internal id "given-volume" is never shown as if it were one
-const INLINE = [
-  '--fuel',
-  'CH4',
-  '--oxidizer',
-  'O2',
-  '--phi',
-  '1',
-  '--diluent',
-  'Ar',
-  '--dilution',
-  '0.9',
-  '--volume',
-  '30 L',
-  '--pressure',
-  '1500 Torr',
-  '--temperature',
-  '22 degC',
-];
+const INLINE = designOptions({
+  dilution: '0.9',
+  volume: '30 L',
+  pressure: '1500 Torr',
+  temperature: '22 degC',
+});
 
 describe('a tank known only by its volume', () => {
   it('is named for a lab member, and a named tank keeps its id', () => {

@@ -3,17 +3,11 @@
 // the stage-2 sheet prints (a `premix-reading` event; below it the fill does not go on). Resume comes
 // back to the question still open; `check` reads such a log and its composition does not change.
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { planFrom } from '../../src/cli/plan-from.js';
-import { fileSha256, stage2Header } from '../../src/io/stage-log.js';
 import { parseLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
 import { checkLog } from '../../src/io/check.js';
-import { buildSheetModel } from '../../src/report/sheet-model.js';
-import { stageSheets } from '../../src/report/two-stage-sheet.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
-import { premixTargets, writePremixLog } from '../stage-logs.js';
+import { stage2Batch } from '../stage-logs.js';
 import { TORR } from '../helpers.js';
 
 const NOW = '2026-12-03T10:00:00Z';
@@ -33,17 +27,7 @@ const logOf = (h: LogHeader, events: readonly NewLogEvent[], file = 'b1.jsonl') 
   parseLog([h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', file);
 
 describe('stage 2: the premix check before the first fill from the premix', () => {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-check-'));
-  const { file } = writePremixLog(dir, premixTargets, {});
-  const planned = planFrom('recipes/ch4-o2-ar-phi1.yaml', { premixLog: file });
-  const h = stage2Header(
-    planned.plan,
-    planned.req,
-    'b1',
-    '2026-12-03T09:40:00Z',
-    { file, id: 'b1-premix', sha256: fileSha256(file)! },
-    join(dir, 'b1.jsonl'),
-  );
+  const { dir, header: h, headerAt, stage2Sheet } = stage2Batch('mw-premix-check-');
 
   it("the header carries the stage-2 sheet's own premix-tank row: at least 621.7 Torr on head-10kT before fill 3", () => {
     const pc = h.stage!.premix_check!;
@@ -52,20 +36,7 @@ describe('stage 2: the premix check before the first fill from the premix', () =
     expect(pc.gauge?.id).toBe('head-10kT');
     expect(pc.minimum_Pa / TORR).toBeCloseTo(621.7, 9);
     // the very row the sheet prints, from the same function and lab profile
-    const meta = {
-      recipe: planned.req.recipe,
-      labName: planned.req.lab.name,
-      orderRecommended: true,
-      unit: 'Torr' as const,
-      version: 't',
-      paper: 'a4' as const,
-      lab: {
-        gauges: planned.req.input.gauges,
-        reading: planned.req.input.reading,
-        tanks: planned.req.lab.tanks,
-      },
-    };
-    const sheet = stageSheets(planned.plan, meta, buildSheetModel).at(-1)!;
+    const sheet = stage2Sheet();
     const row = sheet.rows.find((r) => r.check)!;
     expect(row.n).toBe(3);
     expect(`${row.check!.minimum} ${row.check!.unit}`).toBe(pc.minimum);
@@ -168,15 +139,7 @@ describe('stage 2: the premix check before the first fill from the premix', () =
     // the demo premix log closes at 09:30:00 (tests/stage-logs.ts); its last reading is the one the
     // header's planned_Pa rests on (no other batch drew from it)
     const hClosed = (closed: string, stirred = true): LogHeader => {
-      const h2 = stage2Header(
-        planned.plan,
-        planned.req,
-        'b1',
-        '2026-12-03T09:40:00Z',
-        { file, id: 'b1-premix', sha256: fileSha256(file)! },
-        join(dir, 'b1.jsonl'),
-        closed,
-      );
+      const h2 = headerAt(closed);
       const pc = h2.stage!.premix_check!;
       return stirred
         ? h2

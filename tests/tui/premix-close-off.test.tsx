@@ -3,17 +3,11 @@
 // in the stage-2 sheet's own words (premixCloseOffWords, one function), and the screen fits 80 x 24.
 // Checks wording and layout only; the close-off data are the sheet's (premixTankCheck.closeOff).
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { render } from 'ink-testing-library';
 import { FillApp } from '../../src/tui/fill-app.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
-import { planFrom } from '../../src/cli/plan-from.js';
-import { fileSha256, stage2Header } from '../../src/io/stage-log.js';
-import { buildSheetModel } from '../../src/report/sheet-model.js';
-import { premixCloseOffWords, stageSheets } from '../../src/report/two-stage-sheet.js';
-import { premixTargets, writePremixLog } from '../stage-logs.js';
+import { premixCloseOffWords } from '../../src/report/two-stage-sheet.js';
+import { stage2Batch } from '../stage-logs.js';
 import { TORR } from '../helpers.js';
 
 const NOW = '2026-12-03T10:00:00Z';
@@ -42,33 +36,8 @@ const fits = (frame: string) => {
 };
 
 describe('stage 2: the premix-tank reading screen says to close off the low-range head', () => {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-close-'));
-  const { file } = writePremixLog(dir, premixTargets, {});
-  const planned = planFrom('recipes/ch4-o2-ar-phi1.yaml', { premixLog: file });
-  const h = stage2Header(
-    planned.plan,
-    planned.req,
-    'b1',
-    '2026-12-03T09:40:00Z',
-    { file, id: 'b1-premix', sha256: fileSha256(file)! },
-    join(dir, 'b1.jsonl'),
-  );
-  const meta = {
-    recipe: planned.req.recipe,
-    labName: planned.req.lab.name,
-    orderRecommended: true,
-    unit: 'Torr' as const,
-    version: 't',
-    paper: 'a4' as const,
-    lab: {
-      gauges: planned.req.input.gauges,
-      reading: planned.req.input.reading,
-      tanks: planned.req.lab.tanks,
-    },
-  };
-  const sheetNote = stageSheets(planned.plan, meta, buildSheetModel)
-    .at(-1)!
-    .rows.find((r) => r.check)!.check!.note;
+  const { header: h, stage2Sheet } = stage2Batch('mw-premix-close-');
+  const sheetNote = stage2Sheet().rows.find((r) => r.check)!.check!.note;
   const words = premixCloseOffWords(
     h.stage!.premix_check!.close_off!.map((g) => ({ id: g.gauge, topPa: g.top_Pa, reopen: g.reopen })),
     'MT-2',

@@ -191,7 +191,8 @@ export function registerCheck(program: Command, cli: Cli): void {
     .option(
       '--premix-log <log>',
       'the batch log of the premix tank CSV readings drew from (a row names it by its source id, ' +
-        'e.g. premix-MT-2, or its gases): its re-checked composition and budget are used',
+        'e.g. premix-MT-2, or by its gases as the plan labels the fill, e.g. Ar+O2): its re-checked ' +
+        'composition and budget are used',
     )
     .action((target: string, o: CheckOptions) => check(cli, target, o));
 }
