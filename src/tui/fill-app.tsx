@@ -30,6 +30,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
+import { Para } from './para.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -293,7 +294,7 @@ function bandText(centerPa: number, bandPa: number, unit: PressureUnit, dec: num
 }
 
 function ErrorLine({ state }: ScreenProps) {
-  return state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
+  return state.error ? <Para>! {state.error}</Para> : null;
 }
 
 /** the current step's unit, decimals and how a pressure is shown on its gauge */
@@ -314,15 +315,15 @@ function BarometerScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>{fillTitle(h)} - barometric pressure today</Text>
-      <Text wrap="wrap">
+      <Para>
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
         {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1
         hPa AB), then Enter. It is logged.
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -334,16 +335,16 @@ function AcknowledgeScreen({ state }: ScreenProps) {
     <Box flexDirection="column">
       <Text bold>{fillTitle(state.setup.header)} - DANGER findings stand</Text>
       {state.setup.dangers.map((d, i) => (
-        <Text key={i} wrap="wrap">
+        <Para key={i}>
           - {d.code}
           {d.step ? ` (fill ${d.step})` : ''}: {d.message}
-        </Text>
+        </Para>
       ))}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
         accept INITIALS, then Enter. Ctrl-C stops.
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -432,9 +433,7 @@ function EndScreen({
     const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
     return (
       <Box flexDirection="column">
-        <Text bold wrap="wrap">
-          {title}
-        </Text>
+        <Para bold>{title}</Para>
         <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={caveats.length > 0} />
         <Text>{`${more}b: back   q or Enter: quit`}</Text>
       </Box>
@@ -444,34 +443,32 @@ function EndScreen({
     return (
       <Box flexDirection="column">
         <Text bold>{title}</Text>
-        <Text wrap="wrap">{state.message}</Text>
+        <Para>{state.message}</Para>
         <Text>b: back q or Enter: quit</Text>
       </Box>
     );
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
-        {title}
-      </Text>
-      {message ? <Text wrap="wrap">{message}</Text> : null}
+      <Para bold>{title}</Para>
+      {message ? <Para>{message}</Para> : null}
       <Text> </Text>
       {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
       {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
       {check && 'error' in check ? (
-        <Text wrap="wrap">
+        <Para>
           ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
-        </Text>
+        </Para>
       ) : null}
       {verdict ? <Text bold>{verdict}</Text> : null}
       {caveats.map((c, i) => (
-        <Text key={i} bold wrap="wrap">
+        <Para key={i} bold>
           ! {c}
-        </Text>
+        </Para>
       ))}
       {label && labelHere ? <LabelBox caveats={[]} label={label} double={caveats.length > 0} /> : null}
       {/* two-stage preparation: the premix's re-check, mixing time and stage-2 command (stage-view.tsx) */}
       {h.stage ? <StageEnd header={h} report={report} closed={state.phase === 'done'} /> : null}
-      <Text wrap="wrap">{logLine}</Text>
+      <Para>{logLine}</Para>
       <Text>{keys}</Text>
     </Box>
   );
@@ -517,14 +514,12 @@ function LabelBox({
     >
       <Text bold>Tank label (as filled, from the readings)</Text>
       {caveats.map((c, i) => (
-        <Text key={`c${i}`} bold wrap="wrap">
+        <Para key={`c${i}`} bold>
           {c}
-        </Text>
+        </Para>
       ))}
       {label.map((l, i) => (
-        <Text key={i} wrap="wrap">
-          {l}
-        </Text>
+        <Para key={i}>{l}</Para>
       ))}
     </Box>
   );
@@ -548,7 +543,7 @@ function BelowScreen({ state }: ScreenProps) {
         {fillTitle(h)} - fill {m} of {K}
         {chargeSuffixOf(ls)}: {lastFill ? 'BELOW THE TARGET (not closed)' : 'BELOW ITS BAND (incomplete)'}
       </Text>
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <Para>{state.message ?? ' '}</Para>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {stop} {lu}
@@ -560,19 +555,19 @@ function BelowScreen({ state }: ScreenProps) {
       </Box>
       {lastFill && state.judgement ? <JudgementView j={state.judgement} /> : null}
       {lastFill ? (
-        <Text wrap="wrap">
+        <Para>
           Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
           AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
           (withdraw the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the
           target; the re-check judges it)
-        </Text>
+        </Para>
       ) : (
-        <Text wrap="wrap">
+        <Para>
           Continue this fill first: open {ls.source.id} again, fill on to {stop} {lu} and type the new reading
           and your initials (e.g. {stop} AB): logged as a further reading of fill {m} (reason: more gas added;
-          the log keeps both). Or: next (go on from the logged reading; the fills ahead are re-targeted from
-          it and reviewed) undo INITIALS (withdraw it) fix N INITIALS (correct fill N)
-        </Text>
+          the log keeps both). Or: next INITIALS (go on from the logged reading, logged; the fills ahead are
+          re-targeted from it and reviewed) undo INITIALS (withdraw it) fix N INITIALS (correct fill N)
+        </Para>
       )}
       <ReadingFields
         state={state}
@@ -598,11 +593,11 @@ function StartScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       <Text bold>{fillTitle(h)} - top-up: the gas already in the tank</Text>
-      <Text wrap="wrap">
+      <Para>
         The plan assumed {absText(start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any
         fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what
         you read.
-      </Text>
+      </Para>
       <ReadingFields
         state={state}
         reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`}
@@ -685,15 +680,15 @@ function StepDangers({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       {plan.map((d, i) => (
-        <Text key={`p${i}`} bold wrap="wrap">
+        <Para key={`p${i}`} bold>
           DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
-        </Text>
+        </Para>
       ))}
       {review.map((h) => (
-        <Text key={h.key} bold wrap="wrap">
+        <Para key={h.key} bold>
           {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
           logged): {h.numbers || h.text}
-        </Text>
+        </Para>
       ))}
       {warnings.map((f, i) => {
         // two screen rows at most
@@ -703,14 +698,10 @@ function StepDangers({ state }: ScreenProps) {
           f.code === 'predicted-u-over-tolerance'
             ? f.message.split(':')[0].slice(0, 156 - head.length)
             : adviceOf(f.message, 156 - head.length);
-        return (
-          <Text key={`w${i}`} wrap="wrap">
-            {head + body}
-          </Text>
-        );
+        return <Para key={`w${i}`}>{head + body}</Para>;
       })}
       {plan.length || review.length ? (
-        <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+        <Para>Go on only with the protection your procedure requires for it.</Para>
       ) : null}
     </Box>
   );
@@ -728,28 +719,28 @@ function ReminderScreen({ state }: ScreenProps) {
         {fillTitle(h)} - fill {state.current + 1} of {K}
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
       </Text>
-      <Text wrap="wrap">
+      <Para>
         This fill ({step.species} from {step.source.id}) creates the state of the danger finding
         {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
-      </Text>
+      </Para>
       {ds.map((d, i) => (
-        <Text key={i} wrap="wrap">
+        <Para key={i}>
           - {d.code}: {d.message}
-        </Text>
+        </Para>
       ))}
       {rs.length && ds.length ? (
-        <Text wrap="wrap">and of the danger accepted at the review of the remaining fills (logged):</Text>
+        <Para>and of the danger accepted at the review of the remaining fills (logged):</Para>
       ) : null}
       {rs.map((h) => (
-        <Text key={h.key} wrap="wrap">
+        <Para key={h.key}>
           - {h.code}: {h.numbers}. {h.text}
-        </Text>
+        </Para>
       ))}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
         (logged readings are kept)
-      </Text>
+      </Para>
     </Box>
   );
 }
@@ -763,7 +754,7 @@ function ConfirmScreen({ state }: ScreenProps) {
         {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THIS READING
       </Text>
       <Text>typed: {pending.done.text}</Text>
-      <Text wrap="wrap">{pending.reason}</Text>
+      <Para>{pending.reason}</Para>
       <Text> </Text>
       <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
       <ErrorLine state={state} />
@@ -780,15 +771,15 @@ function UnitCheckScreen({ state }: ScreenProps) {
         {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
         {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THE UNIT
       </Text>
-      <Text wrap="wrap">{pending.reason}</Text>
-      <Text wrap="wrap">
+      <Para>{pending.reason}</Para>
+      <Para>
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
-      </Text>
+      </Para>
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
         (not logged)
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -808,30 +799,28 @@ function OverLimitScreen({ state }: ScreenProps) {
         {fillTitle(h)} - fill {state.current + 1} of {K}
         {chargeSuffixOf(state.setup.steps[state.current])}: DANGER - ABOVE THE WORKING LIMIT
       </Text>
-      <Text wrap="wrap">
+      <Para>
         The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
         of {h.tank.id} ({absText(o.limitPa)}).
-      </Text>
-      <Text bold wrap="wrap">
-        Close the cylinder valve and the tank valve now.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para bold>Close the cylinder valve and the tank valve now.</Para>
+      <Para>
         The reading is logged ({pending.done.line !== undefined ? `line ${pending.done.line}` : 'as typed'});
         what you choose is logged beside it.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
         {step.gauge?.id ?? 'the gauge'}: at most {atMostOnGauge(state, step, o.ventToPa)}): {o.why}.{' '}
         {o.last ? o.after.charAt(0).toUpperCase() + o.after.slice(1) : `From there: ${o.after}`}.
-      </Text>
-      <Text bold wrap="wrap">
+      </Para>
+      <Para bold>
         {o.within
           ? 'After venting (venting keeps the composition) the composition is within the tolerance.'
           : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} ` +
             `outside): venting keeps the composition, it cannot repair it.`}
-      </Text>
+      </Para>
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         {o.last
           ? 'vent INITIALS: you vent back (logged; then read the tank after venting: its reading is the ' +
             "batch's final pressure) "
@@ -839,7 +828,7 @@ function OverLimitScreen({ state }: ScreenProps) {
             'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
         accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
         trace)
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -855,14 +844,14 @@ function UndoReasonScreen({ state }: ScreenProps) {
       <Text bold>
         {fillTitle(h)} - undo the reading of fill {last.step} ({last.text}, line {last.line})
       </Text>
-      <Text wrap="wrap">
+      <Para>
         {state.undoing!.by} withdraws it: the log keeps the reading and adds the withdrawal with your initials
         and the reason; fill {last.step} is read again.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Why? A few words (e.g. &quot;misread the head&quot;, &quot;valve left open&quot;), then Enter; Enter
         alone logs it without a reason. Esc: do not undo (nothing logged).
-      </Text>
+      </Para>
       <Text>
         reason: {state.input}
         <Text inverse> </Text>
@@ -898,21 +887,19 @@ function CappedScreen({ state }: ScreenProps) {
   });
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
+      <Para bold>
         {fillTitle(h)} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
         {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
-      </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
-      <Text bold wrap="wrap">
-        {c.cost}.
-      </Text>
-      <Text wrap="wrap">Capped targets: {ahead.join('; ')}.</Text>
+      </Para>
+      {state.message ? <Para>{state.message}</Para> : null}
+      <Para bold>{c.cost}.</Para>
+      <Para>Capped targets: {ahead.join('; ')}.</Para>
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
         {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
         INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -933,31 +920,31 @@ function PremixScreen({ state }: ScreenProps) {
   const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
+      <Para bold>
         {fillTitle(h)} - before fill {first} of {K}: THE PREMIX TANK {pc.tank}
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Fill {first} draws the premix from {pc.tank}
         {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
-      </Text>
-      <Text wrap="wrap" bold={!mixed}>
+      </Para>
+      <Para bold={!mixed}>
         1. {mixed ? `[done, ${mixed}] ` : ''}The premix in {pc.tank} mixed: {premixMixingWords(pc)}.
-      </Text>
-      <Text wrap="wrap" bold={Boolean(mixed)}>
+      </Para>
+      <Para bold={Boolean(mixed)}>
         2. {last?.enough ? `[done, ${last.by}] ` : ''}
         {premixCloseOffLine(pc, tankName(h.tank.id))}With the {h.tank.id} valve closed and the line filled
         from {pc.tank}, read {pc.tank} on {pc.gauge?.id ?? 'a gauge that reads it'}: at least {pc.minimum}{' '}
         (planned about {planned})
         {last && !last.enough ? `; last read ${last.text} (${last.by}), BELOW the minimum` : ''}.
-      </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      </Para>
+      {state.message ? <Para>{state.message}</Para> : null}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         {mixed
           ? `Type the reading of ${pc.tank} and your initials (e.g. ${planned.replace(' Torr', '')} AB); it is logged.`
           : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
         stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -992,7 +979,7 @@ function VentedScreen({ state }: ScreenProps) {
         {fillTitle(h)} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank after
         venting
       </Text>
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <Para>{state.message ?? ' '}</Para>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           VENT TO AT MOST {atMostOnGauge(state, step, v.targetPa)} on {step.gauge?.id ?? 'the gauge'}
@@ -1001,12 +988,12 @@ function VentedScreen({ state }: ScreenProps) {
           read before venting: {shown(v.beforePa)}; working limit {shown(v.limitPa)}
         </Text>
       </Box>
-      <Text wrap="wrap">
+      <Para>
         Close the vent valve, let the tank settle (pressure and temperature steady), then type the reading on{' '}
         {step.gauge?.id ?? 'the gauge'} and your initials (e.g. 1490.2 AB); Tab: the tank temperature. It is
         logged as the tank&apos;s pressure after venting{v.last ? ": the batch's final pressure" : ''}.
         Venting keeps the composition.
-      </Text>
+      </Para>
       <ReadingFields
         state={state}
         reading={`reading after venting [${unit}] and initials`}
@@ -1041,13 +1028,13 @@ function ChargeLine({ state }: ScreenProps) {
   const last = step.charge.number === step.charge.of;
   const stop = onGauge(state.targetsPa[state.current]);
   return (
-    <Text bold wrap="wrap">
+    <Para bold>
       {last
         ? `Open ${step.source.id} again for ${chargeWords(step.charge)} of ${step.species}: fill on to ${stop}`
         : `Open ${step.source.id} for ${chargeWords(step.charge)} of ${step.species} only: stop at ${stop}, ` +
           `then close the cylinder valve`}
       {`; ${others.join('; ')}.`}
-    </Text>
+    </Para>
   );
 }
 
@@ -1102,11 +1089,11 @@ function ReadingScreen({ state }: ScreenProps) {
       </Box>
       <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
-      <Text wrap="wrap">{state.error ? '' : (state.message ?? ' ')}</Text>
+      <Para>{state.error ? '' : (state.message ?? ' ')}</Para>
       {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
           screen keeps 24 rows */}
       {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
-      <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
+      <Para>{state.error ? `! ${state.error}` : ' '}</Para>
       <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
     </Box>
   );

@@ -47,6 +47,7 @@ import {
   chargesOfHeader,
   gaugeFromLog,
   sourceFromLog,
+  WENT_ON_BELOW_BAND,
   type NewLogEvent,
   type LogHeader,
   type LogReading,
@@ -535,8 +536,16 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
   }
   if (done.length && !log?.closed) {
     // the last reading below its fill's band: the last fill stays open for more gas; a fill before it is
-    // incomplete, and continuing it is offered again (a `next` typed before the stop is not in the log)
+    // incomplete, and continuing it is offered again, unless the log says the operator went on from that
+    // very reading (`next`, logged): then the fill goes on to the fill after it
     const m = done.length;
+    const wentOn = log?.acknowledgements.some(
+      (a) =>
+        a.code === WENT_ON_BELOW_BAND &&
+        a.step === setup.steps[m - 1].index &&
+        a.below?.pressure_Pa === done[m - 1].pressurePa,
+    );
+    if (wentOn && m < setup.steps.length) return undefined;
     const before: FillState = { ...state, done: done.slice(0, -1), current: m - 1 };
     const prior = before.done.length
       ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
@@ -2419,7 +2428,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
   const last = s.done[s.done.length - 1];
   const step = s.setup.steps[s.done.length - 1];
   const unit = gaugeUnit(step);
-  if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, step, last);
+  if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, text, step, last, now);
   if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
   const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
@@ -2430,7 +2439,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
         (lastFill
           ? 'close INITIALS (closes the batch below the target)'
-          : 'next (go on from the logged reading; the fills ahead re-targeted from it)'),
+          : 'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it)'),
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);
@@ -2514,7 +2523,9 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
   if (!lastFill)
     return {
       ...s,
-      error: `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type next`,
+      error:
+        `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type ` +
+        'next and your initials (go on from the logged reading)',
     };
   if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
   const f = finish(
@@ -2530,12 +2541,46 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
   };
 }
 
-/** next on the screen of an incomplete fill before the last: go on from its logged reading, reviewed */
-function goOnFromBelow(s: FillState, step: FillStep, last: DoneReading): FillState {
+/**
+ * next INITIALS on the screen of an incomplete fill before the last: go on from its logged reading. The
+ * choice changes what the record means (the fill left short, the fills ahead re-targeted from it), so it
+ * is logged (acknowledge "went-on-below-band", with the reading, target and band) before the review
+ */
+function goOnFromBelow(
+  s: FillState,
+  text: string,
+  step: FillStep,
+  last: DoneReading,
+  now: string,
+): FillState {
+  const m = /^next\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      error:
+        'type next and your initials (e.g. next AB): going on from the logged reading leaves ' +
+        `${fillName(step)} short, and that choice is logged`,
+    };
+  const unit = gaugeUnit(step);
+  const targetPa = s.targetsPa[s.done.length - 1];
+  const event: NewLogEvent = {
+    kind: 'acknowledge',
+    code: WENT_ON_BELOW_BAND,
+    step: step.index,
+    by: m[1],
+    time: now,
+    note:
+      `${fillName(step)} left at ${last.text} (${fmtIn(last.pressurePa, unit)} absolute), below its target ` +
+      `${fmtIn(targetPa, unit)} by more than its band; the fills ahead re-targeted from it`,
+    below: { reading: last.text, pressure_Pa: last.pressurePa, target_Pa: targetPa, band_Pa: step.bandPa },
+  };
   const left: FillState = {
     ...s,
     input: '',
-    message: `${fillName(step)} left at ${last.text}, below its band: the fills ahead are re-targeted from it`,
+    effects: [event],
+    message:
+      `${fillName(step)} left at ${last.text}, below its band (logged by ${m[1]}): the fills ahead are ` +
+      're-targeted from it',
   };
   const cap = capAfterChange({ ...left, review: undefined }, `after fill ${step.index}`);
   if (cap) return cap;

@@ -25,7 +25,7 @@ function fits(screen: string) {
 }
 
 describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () => {
-  it('an Ar charge read short (150 for 480.81 Torr): continue it first; next shows the review with continuing as the safer way; the further reading is logged as such', async () => {
+  it('an Ar charge read short (150 for 480.81 Torr): continue it first; next JD (logged) shows the review with continuing as the safer way; the further reading is logged as such', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-incomplete-'));
     const t = tmuxSession(`mw-incomplete-${process.pid}`, dir);
     try {
@@ -44,7 +44,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
       expect(b).toMatch(/passes what the plan did not have: .*DANGER detonable-state \(fill 3\)/);
       expect(b).toMatch(/Continue this fill first: open cyl-Ar again, fill on to 480\.81 Torr/);
       // going on from the short reading: the review names the hazard and offers continuing, never "no safer stop"
-      await t.type('next');
+      await t.type('next JD');
       await t.keys('Enter');
       const rv = await t.waitFor(/SAFETY REVIEW[\s\S]*>/);
       fits(rv);
@@ -72,8 +72,10 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
           reason: expect.stringMatching(/more gas added/),
         }),
       ]);
-      // nothing was accepted: no review outcome is logged
-      expect(log.acknowledgements).toEqual([]);
+      // the choice to go on from 150 Torr is logged; nothing was accepted: no review outcome is logged
+      expect(log.acknowledgements).toEqual([
+        expect.objectContaining({ code: 'went-on-below-band', step: 2, by: 'JD' }),
+      ]);
       await t.keys('C-c');
       expect(Number(/EXIT=(\d+)/.exec(await t.waitFor(/EXIT=\d+/))![1])).toBe(130);
     } finally {
