@@ -30,7 +30,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
-import { Para } from './para.js';
+import { Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -112,17 +112,34 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
         (j.verdict === 'on-course'
           ? 'the remaining fills bring each within tolerance'
           : "OFF COURSE - the remaining fills cannot bring every fraction's value within the tolerance");
+  // before the last fill: the fractions within tolerance on one line (the screen keeps 24 rows), each one
+  // outside on its own
+  const ok = j.kind === 'final' ? [] : j.deviations.filter((d) => d.within);
+  const tolOf = (d: CompositionJudgement['deviations'][number]) =>
+    fixedSig((d.tolerance / d.design) * 100, 2);
+  const tol = [...new Set(ok.map(tolOf))];
+  const row = (d: CompositionJudgement['deviations'][number]) =>
+    `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %` +
+    (tol.length > 1 ? ` (tol ${tolOf(d)} %)` : '');
   return (
     <Box flexDirection="column">
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
-      {j.deviations.map((d) => (
-        <Text key={d.species}>
-          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
-            `design ${fixedSig(d.design, 5).padStart(10)} ` +
-            ` ${relText((d.deviation / d.design) * 100)} ` +
-            `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
-        </Text>
-      ))}
+      {ok.length ? (
+        <Para>
+          {`  ${ok.map(row).join(', ')} rel: ${ok.length > 1 ? 'each ' : ''}within ` +
+            (tol.length === 1 ? `tol ${tol[0]} %` : 'its tol')}
+        </Para>
+      ) : null}
+      {j.deviations
+        .filter((d) => !ok.includes(d))
+        .map((d) => (
+          <Text key={d.species}>
+            {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
+              `design ${fixedSig(d.design, 5).padStart(10)} ` +
+              ` ${relText((d.deviation / d.design) * 100)} ` +
+              `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
+          </Text>
+        ))}
     </Box>
   );
 }
@@ -314,7 +331,7 @@ function BarometerScreen({ state }: ScreenProps) {
   ];
   return (
     <Box flexDirection="column">
-      <Text bold>{fillTitle(h)} - barometric pressure today</Text>
+      <ScreenTitle base={fillTitle(h)} what="barometric pressure today" />
       <Para>
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
@@ -333,7 +350,7 @@ function BarometerScreen({ state }: ScreenProps) {
 function AcknowledgeScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
-      <Text bold>{fillTitle(state.setup.header)} - DANGER findings stand</Text>
+      <ScreenTitle base={fillTitle(state.setup.header)} what="DANGER findings stand" />
       {state.setup.dangers.map((d, i) => (
         <Para key={i}>
           - {d.code}
@@ -539,10 +556,10 @@ function BelowScreen({ state }: ScreenProps) {
   const stop = `${fromPa(st, lu).toFixed(ld)}`;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {m} of {K}
-        {chargeSuffixOf(ls)}: {lastFill ? 'BELOW THE TARGET (not closed)' : 'BELOW ITS BAND (incomplete)'}
-      </Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`fill ${m} of ${K}${chargeSuffixOf(ls)}: ${lastFill ? 'BELOW THE TARGET' : 'BELOW ITS BAND'}`}
+      />
       <Para>{state.message ?? ' '}</Para>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
@@ -562,12 +579,7 @@ function BelowScreen({ state }: ScreenProps) {
           target; the re-check judges it)
         </Para>
       ) : (
-        <Para>
-          Continue this fill first: open {ls.source.id} again, fill on to {stop} {lu} and type the new reading
-          and your initials (e.g. {stop} AB): logged as a further reading of fill {m} (reason: more gas added;
-          the log keeps both). Or: next INITIALS (go on from the logged reading, logged; the fills ahead are
-          re-targeted from it and reviewed) undo INITIALS (withdraw it) fix N INITIALS (correct fill N)
-        </Para>
+        <BelowWaysView state={state} stop={`${stop} ${lu}`} />
       )}
       <ReadingFields
         state={state}
@@ -582,6 +594,45 @@ function BelowScreen({ state }: ScreenProps) {
   );
 }
 
+/**
+ * the ways on from an incomplete fill before the last, each with what its review found (belowWays): a way
+ * is never called safe here unless its review found nothing the plan did not have
+ */
+function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
+  const w = state.belowWays;
+  const m = state.done.length;
+  const ls = state.setup.steps[m - 1];
+  const found = (xs: readonly string[]) =>
+    xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
+  const cont = w?.continuing;
+  const next = w
+    ? found(w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`))
+    : 'not reviewed';
+  const tank = w
+    ? w.tankNow.length
+      ? `the tank now holds ${w.tankNow.join(', ')}`
+      : 'no flammable or danger state in the tank now'
+    : 'not reviewed';
+  return (
+    <Box flexDirection="column">
+      <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
+      <Para>
+        - continue: fill on from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
+        {stop.split(' ')[0]} AB):{' '}
+        {cont ? (cont.still.length ? `still ${found(cont.still)}` : found([])) : 'not reviewed'}
+      </Para>
+      <Para>
+        - next AB (go on from {state.done[m - 1]?.text}): {next}
+      </Para>
+      <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
+      <Para>
+        A further reading is logged as a correction of fill {m} (more gas added; the log keeps both). undo AB:
+        withdraw it fix N AB: correct fill N
+      </Para>
+    </Box>
+  );
+}
+
 function StartScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const { step, unit, absText } = stepView(state);
@@ -592,7 +643,7 @@ function StartScreen({ state }: ScreenProps) {
     .join(', ');
   return (
     <Box flexDirection="column">
-      <Text bold>{fillTitle(h)} - top-up: the gas already in the tank</Text>
+      <ScreenTitle base={fillTitle(h)} what="top-up: the gas already in the tank" />
       <Para>
         The plan assumed {absText(start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any
         fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what
@@ -616,10 +667,13 @@ function CorrectScreen({ state }: ScreenProps) {
   const cs = state.setup.steps[c.step - 1];
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - correct the reading of fill {c.step} ({cs.species}
-        {isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on {cs.gauge?.id ?? 'no gauge'})
-      </Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={
+          `correct the reading of fill ${c.step} (${cs.species}` +
+          `${isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on ${cs.gauge?.id ?? 'no gauge'})`
+        }
+      />
       <Text>
         logged: {d.text} at {(d.temperatureK - 273.15).toFixed(1)} degC; the original stays in the log, the
         correction is added with your initials ({c.by}) and reason
@@ -707,18 +761,20 @@ function StepDangers({ state }: ScreenProps) {
   );
 }
 
+/** what a screen of the current fill is, for its title: "fill 2 of 4 (Ar, charge 1 of 2): WORDS" */
+function stepWhat(state: FillState, words: string): string {
+  const K = state.setup.steps.length;
+  return `fill ${state.current + 1} of ${K}${chargeSuffixOf(state.setup.steps[state.current])}: ${words}`;
+}
+
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
-  const K = state.setup.steps.length;
   const { step } = stepView(state);
   const ds = state.setup.dangers.filter((d) => d.step === step.index);
   const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {state.current + 1} of {K}
-        {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
-      </Text>
+      <ScreenTitle base={fillTitle(h)} what={stepWhat(state, 'DANGER AT THIS FILL')} />
       <Para>
         This fill ({step.species} from {step.source.id}) creates the state of the danger finding
         {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
@@ -749,10 +805,7 @@ function ConfirmScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
-        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THIS READING
-      </Text>
+      <ScreenTitle base={fillTitle(state.setup.header)} what={stepWhat(state, 'CHECK THIS READING')} />
       <Text>typed: {pending.done.text}</Text>
       <Para>{pending.reason}</Para>
       <Text> </Text>
@@ -767,10 +820,7 @@ function UnitCheckScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
-        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THE UNIT
-      </Text>
+      <ScreenTitle base={fillTitle(state.setup.header)} what={stepWhat(state, 'CHECK THE UNIT')} />
       <Para>{pending.reason}</Para>
       <Para>
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
@@ -795,10 +845,10 @@ function OverLimitScreen({ state }: ScreenProps) {
   const p = pending.done.pressurePa;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {state.current + 1} of {K}
-        {chargeSuffixOf(state.setup.steps[state.current])}: DANGER - ABOVE THE WORKING LIMIT
-      </Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`fill ${state.current + 1} of ${K}: DANGER - ABOVE THE WORKING LIMIT`}
+      />
       <Para>
         The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
         of {h.tank.id} ({absText(o.limitPa)}).
@@ -841,9 +891,10 @@ function UndoReasonScreen({ state }: ScreenProps) {
   const last = state.done[state.done.length - 1];
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - undo the reading of fill {last.step} ({last.text}, line {last.line})
-      </Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`undo the reading of fill ${last.step} (${last.text}, line ${last.line})`}
+      />
       <Para>
         {state.undoing!.by} withdraws it: the log keeps the reading and adds the withdrawal with your initials
         and the reason; fill {last.step} is read again.
@@ -887,10 +938,13 @@ function CappedScreen({ state }: ScreenProps) {
   });
   return (
     <Box flexDirection="column">
-      <Para bold>
-        {fillTitle(h)} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
-        {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
-      </Para>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={
+          `before fill ${c.step} of ${K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE` +
+          (c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : '')
+        }
+      />
       {state.message ? <Para>{state.message}</Para> : null}
       <Para bold>{c.cost}.</Para>
       <Para>Capped targets: {ahead.join('; ')}.</Para>
@@ -920,9 +974,7 @@ function PremixScreen({ state }: ScreenProps) {
   const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
   return (
     <Box flexDirection="column">
-      <Para bold>
-        {fillTitle(h)} - before fill {first} of {K}: THE PREMIX TANK {pc.tank}
-      </Para>
+      <ScreenTitle base={fillTitle(h)} what={`before fill ${first} of ${K}: THE PREMIX TANK ${pc.tank}`} />
       <Para>
         Fill {first} draws the premix from {pc.tank}
         {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
@@ -975,10 +1027,10 @@ function VentedScreen({ state }: ScreenProps) {
   const shown = (pa: number) => `${fromPa(shownPa(state, step, pa), unit).toFixed(dec)} ${unit}`;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank after
-        venting
-      </Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`fill ${v.step} of ${state.setup.steps.length}: VENTING (logged) - read the tank after venting`}
+      />
       <Para>{state.message ?? ' '}</Para>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>

@@ -8,7 +8,7 @@ import type { FillState } from './fill-state.js';
 import { alternativeTargets } from './fill-review.js';
 import { fromPa } from '../io/quantity.js';
 import { fillTitle } from './stage-state.js';
-import { Para } from './para.js';
+import { Para, ScreenTitle } from './para.js';
 
 const TRIGGER_WORDS = {
   reading: 'the reading just logged',
@@ -28,11 +28,11 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
   const cont = r.continuation;
   return (
     <Box flexDirection="column">
-      <Para bold>{fillTitle(h)} - SAFETY REVIEW: the remaining fills pass a hazard the plan did not</Para>
+      <ScreenTitle base={fillTitle(h)} what="SAFETY REVIEW of the remaining fills" />
       {state.message ? <Para>{state.message}</Para> : null}
       <Para>
         After {TRIGGER_WORDS[r.trigger]}, the fills ahead, re-targeted from the tank as read and reviewed
-        state by state and along every fill path, pass:
+        state by state and along every fill path, pass what the plan did not have:
       </Para>
       {r.hazards.map((z, i) => (
         <Para key={i}>

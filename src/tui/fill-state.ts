@@ -54,10 +54,11 @@ import {
   type ParsedLog,
 } from '../io/batch-log.js';
 import {
-  hazardsAhead,
+  belowBandWays,
   onReviewEnter,
   reviewMemoryOf,
   withReview,
+  type BelowWays,
   type ReviewHazard,
   type ReviewHooks,
   type ReviewMemory,
@@ -340,6 +341,8 @@ export interface FillState {
    * them: each fill's screen shows those at its step for as long as it is on screen
    */
   readonly acceptedHazards?: readonly ReviewHazard[];
+  /** in phase 'below' of a fill before the last: each way on (continue, next, stop) as its review found it */
+  readonly belowWays?: BelowWays;
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
 }
@@ -1484,32 +1487,29 @@ function signed(v: number): string {
 }
 
 /**
- * The last fill read below its band: the reading is logged, the batch stays open. More gas can be
- * added (the new reading corrects this step's reading, reason "more gas added"), the reading undone,
- * or the batch closed as it is.
+ * A fill read below its band: the reading is logged, the fill stays on its screen. A fill before the
+ * last: continue it, go on from the reading (next) or stop the batch here, each way reviewed (belowWays).
+ * The last fill: more gas can be added (the new reading corrects this step's reading, reason "more gas
+ * added"), the reading undone, or the batch closed as it is.
  */
 function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText: string): FillState {
   const unit = gaugeUnit(step);
   const last = s.done[s.done.length - 1];
+  const short =
+    `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
+    `${fmtIn(targetPa, unit)} by more than its band (${fmtIn(step.bandPa, unit, 3)})`;
   if (s.current < s.setup.steps.length) {
-    // a fill before the last: the fills ahead are re-targeted (s) but not entered; what going on from here
-    // would pass that the plan did not is said beside the offer to continue
-    const ahead = hazardsAhead(s, retargetInput(s, s.done, s.targetTemperatureK));
-    const passes = ahead.length
-      ? `. Going on from this reading instead (next) passes what the plan did not have: ${ahead
-          .map((h) => `${h.severity.toUpperCase()} ${h.code}${h.step ? ` (fill ${h.step})` : ''}`)
-          .join(', ')}`
-      : '';
+    // a fill before the last: the fills ahead are re-targeted (s) but not entered; every way on the screen
+    // offers is reviewed here, and the screen says what each review found
+    const belowWays = belowBandWays(s, retargetInput(s, s.done, s.targetTemperatureK));
     return {
       ...s,
       phase: 'below',
       input: '',
       field: 'reading',
       review: undefined,
-      message:
-        `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
-        `${fmtIn(targetPa, unit)} of ${fillName(step)} by more than its band (${fmtIn(step.bandPa, unit, 3)}): ` +
-        `the fill is incomplete${passes}`,
+      belowWays,
+      message: `${short}: the fill is incomplete`,
     };
   }
   const { judgement, summary } = finalJudgement(s);
@@ -1520,6 +1520,7 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     summary,
     input: '',
     field: 'reading',
+    belowWays: undefined,
     message:
       `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
       `${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); ` +
@@ -2429,6 +2430,7 @@ function onBelowEnter(s: FillState, now: string): FillState {
   const step = s.setup.steps[s.done.length - 1];
   const unit = gaugeUnit(step);
   if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, text, step, last, now);
+  if (!lastFill && /^stop\b/i.test(text)) return stopBelow(s, text, step, last, now);
   if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
   const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
@@ -2439,7 +2441,8 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
         (lastFill
           ? 'close INITIALS (closes the batch below the target)'
-          : 'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it)'),
+          : 'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
+            'INITIALS (stop the batch here, incomplete)'),
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);
@@ -2524,8 +2527,8 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
     return {
       ...s,
       error:
-        `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type ` +
-        'next and your initials (go on from the logged reading)',
+        `${fillName(step)} is not the last fill: continue it (the new reading and your initials), next ` +
+        'INITIALS (go on from the logged reading) or stop INITIALS (stop the batch here, incomplete)',
     };
   if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
   const f = finish(
@@ -2585,6 +2588,41 @@ function goOnFromBelow(
   const cap = capAfterChange({ ...left, review: undefined }, `after fill ${step.index}`);
   if (cap) return cap;
   return reviewed(enterStep({ ...left, phase: 'reading' }), 'reading');
+}
+
+/**
+ * stop INITIALS on the screen of an incomplete fill before the last (the cylinder cannot give more, say):
+ * the batch is closed here, incomplete (check: INCOMPLETE, never a pass); the screen says what the review
+ * found of the tank as it is now
+ */
+function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading, now: string): FillState {
+  const m = /^stop\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return { ...s, error: 'type stop and your initials (e.g. stop AB): stopping the batch here is logged' };
+  const unit = gaugeUnit(step);
+  const rest = s.setup.steps.slice(s.done.length).map((x) => x.index);
+  const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
+  const tank = s.belowWays?.tankNow.length
+    ? `the review finds in the tank now: ${s.belowWays.tankNow.join(', ')}: keep it closed and follow ` +
+      "your lab's procedure for it"
+    : 'the review finds no flammable, detonable or danger state in the tank now';
+  return {
+    ...s,
+    phase: 'ended',
+    input: '',
+    effects: [
+      {
+        kind: 'close',
+        time: now,
+        note:
+          `stopped by ${m[1]} with ${fillName(step)} below its band at ${last.text} (target ` +
+          `${fmtIn(s.targetsPa[s.done.length - 1], unit)} absolute): ${notMade}`,
+      },
+    ],
+    message:
+      `the batch is stopped by ${m[1]} (logged) with ${fillName(step)} at ${last.text}, below its band; ` +
+      `${notMade}, so it is INCOMPLETE (not a pass); ${tank}`,
+  };
 }
 
 /** the premix check's pressures as read on its gauge (gauge-referenced: today's barometer) */

@@ -4,7 +4,7 @@
  * starts with its word (the line count, which the layout measured, stays the same).
  */
 import type { ComponentProps } from 'react';
-import { Text, Transform } from 'ink';
+import { Box, Text, Transform, useStdout } from 'ink';
 
 /** a space that starts a continuation line, after any colour or weight codes */
 const ESC = String.fromCharCode(27);
@@ -21,5 +21,23 @@ export function Para(props: Omit<ComponentProps<typeof Text>, 'wrap'>) {
     <Transform transform={dropLeadingSpace}>
       <Text {...props} wrap="wrap" />
     </Transform>
+  );
+}
+
+/**
+ * A screen's title: the batch (`base`, e.g. "mixwright fill b1") and what the screen is, on one row when
+ * they fit the terminal's width; else what the screen is goes on the row under the batch, whole (a
+ * title is never cut, nor broken inside the batch id)
+ */
+export function ScreenTitle({ base, what }: { readonly base: string; readonly what: string }) {
+  const { stdout } = useStdout();
+  const columns = stdout?.columns || 80;
+  const one = `${base} - ${what}`;
+  if (one.length <= columns) return <Text bold>{one}</Text>;
+  return (
+    <Box flexDirection="column">
+      <Text bold>{base}</Text>
+      <Para bold>{what}</Para>
+    </Box>
   );
 }

@@ -35,9 +35,15 @@ describe('a fill read below its band (incomplete)', () => {
     expect(low.effects.map((e) => e.kind)).toEqual(['reading']);
     expect(low.phase).toBe('below');
     expect(low.current).toBe(2);
-    expect(low.message).toMatch(/BELOW the target 480\.810 Torr of fill 2 \(Ar, charge 1 of 2\)/);
+    expect(low.message).toMatch(
+      /^fill 2 \(Ar, charge 1 of 2\) logged: .*BELOW the target 480\.810 Torr by more/,
+    );
     expect(low.message).toMatch(/the fill is incomplete/);
-    expect(low.message).toMatch(/DANGER detonable-state \(fill 3\)/);
+    // every way on is reviewed: continuing passes nothing new, going on passes the detonable state, the
+    // tank now (CH4 in Ar, no oxidizer) holds no hazard
+    expect(low.belowWays!.continuing).toEqual({ toPa: expect.closeTo(480.81 * TORR, 3), still: [] });
+    expect(low.belowWays!.goingOn.map((z) => z.key)).toContain('detonable-state@3');
+    expect(low.belowWays!.tankNow).toEqual([]);
     // close is the last fill's
     expect(read(below, 'close JD').error).toMatch(/not the last fill/);
   });
@@ -90,6 +96,23 @@ describe('a fill read below its band (incomplete)', () => {
     ]);
     expect(done.phase).toBe('reading');
     expect(done.current).toBe(2);
+  });
+
+  it('stop INITIALS: the batch is closed here (logged, incomplete) and says what the review found in the tank', () => {
+    expect(read(below, 'stop').effects).toEqual([]);
+    const st = read(below, 'stop JD');
+    expect(st.phase).toBe('ended');
+    expect(st.effects).toEqual([
+      expect.objectContaining({
+        kind: 'close',
+        note: expect.stringMatching(
+          /^stopped by JD with fill 2 \(Ar, charge 1 of 2\) below its band at 150 Torr .*fills 3, 4 not made/,
+        ),
+      }),
+    ]);
+    expect(st.message).toMatch(
+      /INCOMPLETE \(not a pass\); the review finds no flammable, detonable or danger state/,
+    );
   });
 
   describe('next INITIALS: going on from the short reading is a logged choice', () => {
