@@ -13,7 +13,8 @@
  *                                    barometer_Pa?, temperature, temperature_K, by, time
  *   {"kind":"reading", ...}          one per fill: step, source, gauge, reading (as typed, with
  *                                    unit), pressure_Pa (absolute), barometer_Pa? (gauge-referenced
- *                                    gauges), temperature (as typed), temperature_K, time, by?,
+ *                                    gauges), temperature (as typed), temperature_K, time, by?
+ *                                    (who read it: the session's operator; older logs lack it),
  *                                    charge? ({number, of}: which charge of a split source; must be
  *                                    the header step's; logs before split charges lack it)
  *   {"kind":"correction", ...}       a reading's fields again, plus by, reason and replaces_line

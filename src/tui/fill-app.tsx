@@ -270,6 +270,8 @@ function FillScreen({
   logFile,
 }: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
   switch (state.phase) {
+    case 'operator':
+      return <OperatorScreen state={state} />;
     case 'barometer':
       return <BarometerScreen state={state} />;
     case 'acknowledge':
@@ -590,6 +592,29 @@ function BelowScreen({ state }: ScreenProps) {
       <Text>
         Enter: log Tab: temp Ctrl-C: stop ({lastFill ? 'the batch stays open; resume it' : 'readings kept'})
       </Text>
+    </Box>
+  );
+}
+
+/** who fills in this session: initials once, then on every reading the session logs */
+function OperatorScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  return (
+    <Box flexDirection="column">
+      <ScreenTitle base={fillTitle(h)} what="who fills" />
+      {state.message ? <Para>{state.message}</Para> : null}
+      <Text> </Text>
+      <Para>
+        Type your initials (e.g. AB). Every reading of this session is logged with them, so the record says
+        who read the tank; a resumed fill asks again. Decisions (undo, fix, accept, vent...) still take the
+        initials of whoever makes them.
+      </Para>
+      <Text>
+        &gt; initials: {state.input}
+        <Text inverse> </Text>
+      </Text>
+      <ErrorLine state={state} />
+      <Text>Enter: go on Ctrl-C: stop (nothing logged)</Text>
     </Box>
   );
 }

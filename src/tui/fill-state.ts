@@ -155,6 +155,8 @@ export interface PremixDone {
  * its band, more gas may be added; ended: stopped before the last fill; done.
  */
 export type Phase =
+  /** who fills in this session: initials asked once at its start, then on every reading it logs */
+  | 'operator'
   | 'barometer'
   | 'acknowledge'
   | 'start'
@@ -345,6 +347,17 @@ export interface FillState {
   readonly belowWays?: BelowWays;
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
+  /** who fills in this session (initials): logged on every reading it takes */
+  readonly operator?: string;
+  /** in phase 'operator': the screen the session opens with once the initials are given */
+  readonly operatorBack?: Phase;
+}
+
+/** how a session starts: the operator's initials given (`--by`), or asked first */
+export interface SessionStart {
+  readonly operator?: string;
+  /** ask for the operator's initials before anything else when they are not given (the shell's sessions) */
+  readonly askOperator?: boolean;
 }
 
 export type FillAction =
@@ -422,8 +435,24 @@ function premixDoneOf(log: ParsedLog | undefined): PremixDone | undefined {
 const degC = (k: number) => `${(k - 273.15).toFixed(1)} degC`;
 const BARO_RANGE_PA = [70e3, 110e3] as const;
 
-/** a new fill, or one resumed from its log */
-export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillState {
+/**
+ * a new fill, or one resumed from its log; `session`: who fills (initials, logged on every reading of
+ * this session), or ask first (a session is one run of the fill: a resume is a new one, maybe by another)
+ */
+export function initialState(
+  setup: FillSetup,
+  log?: ParsedLog,
+  now = '',
+  session: SessionStart = {},
+): FillState {
+  const opened = openedState(setup, log, now);
+  if (session.operator) return { ...opened, operator: session.operator };
+  if (!session.askOperator || opened.phase === 'done' || opened.phase === 'ended') return opened;
+  return { ...opened, phase: 'operator', operatorBack: opened.phase, input: '' };
+}
+
+/** the state a fill opens with, from its log (resumed) or new */
+function openedState(setup: FillSetup, log: ParsedLog | undefined, now: string): FillState {
   const h = setup.header;
   const targets = h.steps.map((s) => s.target_Pa);
   const acked = new Set((log?.acknowledgements ?? []).map((a) => a.code));
@@ -1086,6 +1115,8 @@ function readingEvent(
     temperature: s.temperatureText.trim(),
     temperature_K: temperatureK,
     time: now,
+    // who read it: the session's operator (a log of an older fill, or a session without one, has none)
+    ...(s.operator ? { by: s.operator } : {}),
     ...(note ? { note } : {}),
   };
 }
@@ -2238,6 +2269,8 @@ function onTab(base: FillState): FillState {
 
 function onEnter(base: FillState, now: string): FillState {
   switch (base.phase) {
+    case 'operator':
+      return onOperatorEnter(base);
     case 'done':
     case 'ended':
     case 'confirm':
@@ -2279,6 +2312,26 @@ function onEnter(base: FillState, now: string): FillState {
       return onCommand(base, base.input.trim()) ?? onPremixEnter(base, now);
   }
   return base;
+}
+
+/** the operator's initials, once a session: every reading of the session is logged with them */
+function onOperatorEnter(base: FillState): FillState {
+  const m = /^([A-Za-z]{1,6})$/.exec(base.input.trim());
+  if (!m)
+    return {
+      ...base,
+      input: '',
+      error: 'type your initials (1-6 letters, e.g. AB): every reading of this session is logged with them',
+    };
+  const said = `${m[1]} fills: every reading of this session is logged with these initials`;
+  return {
+    ...base,
+    operator: m[1],
+    phase: base.operatorBack ?? 'reading',
+    operatorBack: undefined,
+    input: '',
+    message: [base.message, said].filter(Boolean).join('; '),
+  };
 }
 
 /** today's barometric pressure with the initials of who read it */

@@ -29,7 +29,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-incomplete-'));
     const t = tmuxSession(`mw-incomplete-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch inc --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch inc --dir batches`));
       await t.waitFor(/fill 1 of 4/);
       await t.type('10.013');
       await t.keys('Enter');
@@ -91,7 +91,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-pastrange-'));
     const t = tmuxSession(`mw-pastrange-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch pr --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch pr --dir batches`));
       await t.waitFor(/fill 1 of 4/);
       await t.type('10.013');
       await t.keys('Enter');
@@ -136,7 +136,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-warn-'));
     const t = tmuxSession(`mw-warn-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --order CH4,O2,Ar --batch w --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --order CH4,O2,Ar --batch w --dir batches`));
       await t.waitFor(/accept INITIALS/);
       await t.type('accept JD');
       await t.keys('Enter');

@@ -21,7 +21,7 @@ describe.runIf(hasTmux || required)('guided fill: the review of the re-targeted 
     const dir = mkdtempSync(join(tmpdir(), 'mw-review-'));
     const t = tmuxSession(`mw-review-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch rv --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch rv --dir batches`));
       await t.waitFor(/fill 1 of 4/);
       await t.type('14.0179');
       await t.keys('Enter');
