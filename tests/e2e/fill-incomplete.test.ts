@@ -87,6 +87,37 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     }
   }, 90000);
 
+  it('the Ar cylinder cannot give more: stop JD closes the batch at the short reading, INCOMPLETE, exit 4', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-stop-'));
+    const t = tmuxSession(`mw-stop-${process.pid}`, dir);
+    try {
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch st --dir batches`));
+      await t.waitFor(/fill 1 of 4/);
+      await t.type('10.013');
+      await t.keys('Enter');
+      await t.waitFor(/STOP AT 480\.81 Torr/);
+      await t.type('150');
+      await t.keys('Enter');
+      await t.waitFor(/BELOW ITS BAND/);
+      await t.type('stop JD');
+      await t.keys('Enter');
+      const end = await t.waitFor(/Re-check of the log[\s\S]*q or Enter: quit/);
+      fits(end);
+      const e = flat(end);
+      expect(e).toMatch(/STOPPED after fill 2 of 4/);
+      expect(e).toMatch(/fills 3, 4 not made, so it is INCOMPLETE \(not a pass\)/);
+      expect(e).toMatch(/the review finds no flammable, detonable or danger state in the tank now/);
+      expect(e).toMatch(/INCOMPLETE - not a pass/);
+      await t.keys('q');
+      expect(Number(/EXIT=(\d+)/.exec(await t.waitFor(/EXIT=\d+/))![1])).toBe(4);
+      const log = readLog(join(dir, 'batches', 'st.jsonl'));
+      expect(log.closed).toBe(true);
+      expect(log.readings.map((r) => r.by)).toEqual(['JD', 'JD']);
+    } finally {
+      t.close();
+    }
+  }, 90000);
+
   it('O2 step on head-1kT: "501.5 kPa" says the danger first; at fill 4, 2800 then edit JD leaves the field empty and Enter logs nothing', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-pastrange-'));
     const t = tmuxSession(`mw-pastrange-${process.pid}`, dir);
