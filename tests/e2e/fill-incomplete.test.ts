@@ -24,19 +24,31 @@ function fits(screen: string) {
   for (const r of rows) expect(r.length).toBeLessThanOrEqual(80);
 }
 
+/** a new fill (by JD): CH4 at its target, then the Ar charge (target 480.81 Torr) read as `ar`: the next screen */
+async function throughAr(
+  t: ReturnType<typeof tmuxSession>,
+  batch: string,
+  ar: string,
+  next: RegExp,
+): Promise<string> {
+  t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch ${batch} --dir batches`));
+  await t.waitFor(/fill 1 of 4/);
+  await t.type('10.013');
+  await t.keys('Enter');
+  await t.waitFor(/STOP AT 480\.81 Torr/);
+  await t.type(ar);
+  await t.keys('Enter');
+  return t.waitFor(next);
+}
+const arChargeShort = (t: ReturnType<typeof tmuxSession>, batch: string) =>
+  throughAr(t, batch, '150', /BELOW ITS BAND/);
+
 describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () => {
   it('an Ar charge read short (150 for 480.81 Torr): continue it first; next JD (logged) shows the review with continuing as the safer way; the further reading is logged as such', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-incomplete-'));
     const t = tmuxSession(`mw-incomplete-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch inc --dir batches`));
-      await t.waitFor(/fill 1 of 4/);
-      await t.type('10.013');
-      await t.keys('Enter');
-      await t.waitFor(/STOP AT 480\.81 Torr/);
-      await t.type('150');
-      await t.keys('Enter');
-      const below = await t.waitFor(/BELOW ITS BAND/);
+      const below = await arChargeShort(t, 'inc');
       fits(below);
       const b = flat(below);
       expect(b).toMatch(/fill 2 of 4 \(Ar, charge 1 of 2\): BELOW ITS BAND/);
@@ -91,14 +103,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-stop-'));
     const t = tmuxSession(`mw-stop-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch st --dir batches`));
-      await t.waitFor(/fill 1 of 4/);
-      await t.type('10.013');
-      await t.keys('Enter');
-      await t.waitFor(/STOP AT 480\.81 Torr/);
-      await t.type('150');
-      await t.keys('Enter');
-      await t.waitFor(/BELOW ITS BAND/);
+      await arChargeShort(t, 'st');
       await t.type('stop JD');
       await t.keys('Enter');
       const end = await t.waitFor(/Re-check of the log[\s\S]*q or Enter: quit/);
@@ -122,14 +127,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-pastrange-'));
     const t = tmuxSession(`mw-pastrange-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch pr --dir batches`));
-      await t.waitFor(/fill 1 of 4/);
-      await t.type('10.013');
-      await t.keys('Enter');
-      await t.waitFor(/STOP AT 480\.81 Torr/);
-      await t.type('480.81');
-      await t.keys('Enter');
-      await t.waitFor(/fill 3 of 4/);
+      await throughAr(t, 'pr', '480.81', /fill 3 of 4/);
       await t.type('501.5 kPa');
       await t.keys('Enter');
       const pr = await t.waitFor(/! DANGER/);
