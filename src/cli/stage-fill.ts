@@ -47,9 +47,13 @@ export function stage2Command(
 }
 
 /** the guided fill of a new stage log, its end ending the command */
-async function guide(cli: Cli, file: string): Promise<void> {
+async function guide(cli: Cli, file: string, operator: string | undefined): Promise<void> {
   const tui = await loadTui();
-  fillEnded(cli, await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file })), file);
+  fillEnded(
+    cli,
+    await fromTui(() => tui.runFill({ header: readLog(file).header, logFile: file, operator })),
+    file,
+  );
 }
 
 /** stage 1: the premix of a two-stage plan, guided into `<dir>/<batch>-premix.jsonl` */
@@ -59,6 +63,7 @@ export async function fillPremixStage(
   o: DesignValues & { dir: string },
   planned: Planned,
   batchId: string,
+  operator?: string,
 ): Promise<void> {
   refuseLowPremix(planned.plan);
   const file = premixLogPath(o.dir, batchId);
@@ -68,7 +73,7 @@ export async function fillPremixStage(
   mkdirSync(o.dir, { recursive: true });
   const next = stage2Command(recipeFile, o, file, batchId, o.dir);
   createLog(file, stage1Header(planned.plan, planned.req, batchId, new Date().toISOString(), next));
-  await guide(cli, file);
+  await guide(cli, file, operator);
 }
 
 /**
@@ -80,9 +85,10 @@ export async function fillBatchStage(
   cli: Cli,
   o: DesignValues & { batch?: string },
   planned: Planned,
+  operator?: string,
 ): Promise<void> {
   const file = createBatchStageLog(planned.plan, planned.req, o);
-  await guide(cli, file);
+  await guide(cli, file, operator);
 }
 
 /** a stage-2 log resumed: its premix log must still be the one it was started from */

@@ -266,13 +266,14 @@ export type { StageFillCause, StageProblem } from './problems.js';
 // the safety review of a sequence, shared by the plan and the guided fill's re-targeted remainder
 export { reviewSequence, sequenceEvents } from './sequence-review.js';
 export type { SequenceFill, SequenceStart } from './sequence-review.js';
-export { hazardKey, isSequenceHazard, reviewRemainder } from './remainder-review.js';
+export { hazardKey, isSequenceHazard, reviewBelowBand, reviewRemainder } from './remainder-review.js';
 export type {
   PlannedFinding,
   RemainderReview,
   RemainderReviewInput,
   SaferStop,
   Continuation,
+  BelowBandReview,
 } from './remainder-review.js';
 export { roundUpToGrid } from './reading-grid.js';
 export type { ReadingGrid } from './reading-grid.js';

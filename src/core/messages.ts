@@ -589,6 +589,7 @@ type CommandLineProblemCode =
   | 'resume-with-recipe'
   | 'log-closed'
   | 'bad-batch-id'
+  | 'bad-initials'
   | 'no-logs-in-folder'
   | 'label-needs-log'
   | 'unknown-schema'
@@ -617,6 +618,8 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
       return 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`';
     case 'bad-batch-id':
       return `batch id "${p.id}" may hold letters, digits, '.', '_' and '-' only`;
+    case 'bad-initials':
+      return `initials "${p.text}" must be 1-6 letters (e.g. --by AB): every reading of the fill is logged with them`;
     case 'no-logs-in-folder':
       return 'the folder holds no .jsonl or .csv files; give a folder of batch logs or CSV readings';
     case 'label-needs-log':

@@ -243,6 +243,8 @@ export type Problem =
   | { readonly code: 'log-closed' }
   /** a batch id that cannot be a file name */
   | { readonly code: 'bad-batch-id'; readonly id: string }
+  /** `fill --by` given something other than initials (1-6 letters) */
+  | { readonly code: 'bad-initials'; readonly text: string }
   /** `check FOLDER` on a folder without logs or readings */
   | { readonly code: 'no-logs-in-folder' }
   /** `label` given something other than one batch log */

@@ -199,6 +199,35 @@ export function reviewRemainder(input: RemainderReviewInput): RemainderReview {
   };
 }
 
+/** each way on from a fill read below its band, reviewed (our rule: none is offered unreviewed) */
+export interface BelowBandReview {
+  /** going on from the reading, the fills ahead re-targeted from it: the hazards the plan did not have */
+  readonly goingOn: readonly Finding[];
+  /** continuing the fill to its target (undefined: the reading is not below its band) */
+  readonly continuing?: Continuation;
+  /**
+   * stopping the batch here: the flammable, detonable or danger findings of the tank as it is now (the
+   * plan's own included: what stays in the tank is not excused by the plan having had it)
+   */
+  readonly tankNow: readonly Finding[];
+}
+
+/**
+ * The review of the ways on from a fill read below its band (`lastBandPa` given): go on from the
+ * reading, continue the fill to its target, or stop with the tank as it is
+ */
+export function reviewBelowBand(input: RemainderReviewInput): BelowBandReview {
+  const result = input.result ?? retarget(input.retarget);
+  const { findings, hazards } = judgeRemainder(input, result, true);
+  const m = input.retarget.done.length;
+  const continuing = continuationOf(input, result);
+  return {
+    goingOn: hazards,
+    ...(continuing ? { continuing } : {}),
+    tankNow: findings.filter((f) => f.step === m && isSequenceHazard(f)),
+  };
+}
+
 /**
  * the last fill read stopped below its band (`lastBandPa`): the same fill continued to its target (the
  * re-target of the readings before it) and the review of what then lies ahead; undefined when that fill

@@ -13,7 +13,8 @@
  *                                    barometer_Pa?, temperature, temperature_K, by, time
  *   {"kind":"reading", ...}          one per fill: step, source, gauge, reading (as typed, with
  *                                    unit), pressure_Pa (absolute), barometer_Pa? (gauge-referenced
- *                                    gauges), temperature (as typed), temperature_K, time, by?,
+ *                                    gauges), temperature (as typed), temperature_K, time, by?
+ *                                    (who read it: the session's operator; older logs lack it),
  *                                    charge? ({number, of}: which charge of a split source; must be
  *                                    the header step's; logs before split charges lack it)
  *   {"kind":"correction", ...}       a reading's fields again, plus by, reason and replaces_line
@@ -24,7 +25,10 @@
  *                                    "remainder-review" with review? {trigger, outcome, hazards,
  *                                    stop?}: the outcome of the review of the re-targeted remainder;
  *                                    code "limit-cap" with cap? {outcome, final_Pa, outside}: the
- *                                    choice on a re-target held below the working limit
+ *                                    choice on a re-target held below the working limit;
+ *                                    code "went-on-below-band" with below? {reading, pressure_Pa,
+ *                                    target_Pa, band_Pa}: `next` on a fill read below its band (the
+ *                                    fill left incomplete, the fills ahead re-targeted from it)
  *   {"kind":"vent", ...}             the operator vents the tank back after a reading past the working
  *                                    limit: step (the fill just read), target_Pa (the vent target
  *                                    shown), by, time; the composition stays, the pressure does not
@@ -400,6 +404,23 @@ const capSchema = lazy(() =>
     outside: z.array(z.string()),
   }),
 );
+/**
+ * the code of the choice to go on from a fill read below its band (`next INITIALS` on its screen): the
+ * fill is left incomplete at the reading in force and the fills ahead are re-targeted from it
+ */
+export const WENT_ON_BELOW_BAND = 'went-on-below-band';
+/**
+ * what a `went-on-below-band` acknowledgement records: the reading left in force (absolute), the target
+ * and band of that fill then; absent on other acknowledgements
+ */
+const belowSchema = lazy(() =>
+  z.object({
+    reading: z.string(),
+    pressure_Pa: z.number().positive(),
+    target_Pa: z.number().positive(),
+    band_Pa: z.number().min(0),
+  }),
+);
 const ackSchema = lazy(() =>
   z.object({
     kind: z.literal('acknowledge'),
@@ -410,6 +431,7 @@ const ackSchema = lazy(() =>
     note: z.string().optional(),
     review: remainderReviewSchema().optional(),
     cap: capSchema().optional(),
+    below: belowSchema().optional(),
     chain: chain(),
   }),
 );

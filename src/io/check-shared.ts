@@ -13,7 +13,7 @@ import {
   type CheckReportOf,
   type RecordSeverity,
 } from '../report/check-types.js';
-import type { LogAck } from './batch-log.js';
+import { WENT_ON_BELOW_BAND, type LogAck } from './batch-log.js';
 
 export interface CheckOptions {
   readonly trials: number;
@@ -33,10 +33,17 @@ export type CheckReport = CheckReportOf<LogFinding & { readonly message: string 
 
 /**
  * acknowledgements that are not the acceptance of a plan's danger: the review of the re-targeted
- * remainder and the choice on a capped re-target (their own shapes), and a reading past the working
- * limit or a gauge's range accepted at the manifold (a danger of the record itself, exit 3)
+ * remainder, the choice on a capped re-target and going on from a fill read below its band (their own
+ * shapes), and a reading past the working limit or a gauge's range accepted at the manifold (a danger
+ * of the record itself, exit 3)
  */
-const NOT_PLAN_ACKS = new Set(['remainder-review', 'limit-cap', 'above-working-limit', 'above-gauge-range']);
+const NOT_PLAN_ACKS = new Set([
+  'remainder-review',
+  'limit-cap',
+  'above-working-limit',
+  'above-gauge-range',
+  WENT_ON_BELOW_BAND,
+]);
 
 /** an acknowledgement of one of the plan's danger findings, on the fill's danger screen */
 export function isPlanAck(a: LogAck): boolean {

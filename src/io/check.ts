@@ -142,22 +142,28 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
   const warnings: string[] = [];
   for (const a of log.acknowledgements)
     warnings.push(
-      a.cap
-        ? // the guided fill's stop screen of a re-target held below the working limit: the cost and the choice
-          `before fill ${a.step ?? '?'} the re-target was held below the working limit (final ` +
+      a.below
+        ? // `next` on a fill read below its band: the fill left incomplete, the fills after it re-targeted
+          `fill ${a.step ?? '?'} was read below its band (${a.below.reading}, ` +
+            `${(a.below.pressure_Pa / TORR_PA).toFixed(2)} Torr absolute against its target ` +
+            `${(a.below.target_Pa / TORR_PA).toFixed(2)} Torr): ${a.by} at ${a.time} went on from that reading ` +
+            `(the fills after it re-targeted from it; the composition above is judged from the readings)`
+        : a.cap
+          ? // the guided fill's stop screen of a re-target held below the working limit: the cost and the choice
+            `before fill ${a.step ?? '?'} the re-target was held below the working limit (final ` +
             `${(a.cap.final_Pa / TORR_PA).toFixed(2)} Torr` +
             `${a.cap.outside.length ? `, ${a.cap.outside.join(', ')} outside the tolerance` : ''}): ${a.by} at ` +
             `${a.time} ${a.cap.outcome === 'continued' ? 'went on to the capped targets' : 'stopped the batch there'}`
-        : a.review
-          ? // the guided fill's review of its re-targeted remainder: what it found and what was chosen
-            `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
-            `${a.review.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, ` +
-            `which the plan did not have; ${a.by} at ${a.time}: ` +
-            (a.review.stop
-              ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
-                `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
-              : 'went on through it (accepted)')
-          : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
+          : a.review
+            ? // the guided fill's review of its re-targeted remainder: what it found and what was chosen
+              `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
+              `${a.review.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, ` +
+              `which the plan did not have; ${a.by} at ${a.time}: ` +
+              (a.review.stop
+                ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
+                  `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
+                : 'went on through it (accepted)')
+            : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
   if (workingLimitOf(h) === undefined)
     warnings.push(

@@ -260,6 +260,8 @@ export interface LogView {
     readonly by: string;
     readonly time: string;
     readonly note?: string;
+    /** `went-on-below-band`: the reading the fill was left at (a choice, not an acceptance of a hazard) */
+    readonly below?: { readonly reading: string };
   }[];
   /** the vents of the tank (a reading past the working limit), each with the readings after it */
   readonly vents?: readonly {

@@ -399,7 +399,7 @@ export function buildCertificateModel(
     ...(r.premixChecks ?? []).map((c) => premixCheckText(c, premixPressure)),
     ...(log?.acknowledgements ?? []).map(
       (a) =>
-        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: accepted by ${a.by} at ${a.time}` +
+        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: ${a.below ? 'chosen' : 'accepted'} by ${a.by} at ${a.time}` +
         (a.note ? ` - ${a.note}` : ''),
     ),
     ...(log?.vents ?? []).map(

@@ -30,6 +30,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
+import { Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -111,17 +112,34 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
         (j.verdict === 'on-course'
           ? 'the remaining fills bring each within tolerance'
           : "OFF COURSE - the remaining fills cannot bring every fraction's value within the tolerance");
+  // before the last fill: the fractions within tolerance on one line (the screen keeps 24 rows), each one
+  // outside on its own
+  const ok = j.kind === 'final' ? [] : j.deviations.filter((d) => d.within);
+  const tolOf = (d: CompositionJudgement['deviations'][number]) =>
+    fixedSig((d.tolerance / d.design) * 100, 2);
+  const tol = [...new Set(ok.map(tolOf))];
+  const row = (d: CompositionJudgement['deviations'][number]) =>
+    `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %` +
+    (tol.length > 1 ? ` (tol ${tolOf(d)} %)` : '');
   return (
     <Box flexDirection="column">
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
-      {j.deviations.map((d) => (
-        <Text key={d.species}>
-          {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
-            `design ${fixedSig(d.design, 5).padStart(10)} ` +
-            ` ${relText((d.deviation / d.design) * 100)} ` +
-            `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
-        </Text>
-      ))}
+      {ok.length ? (
+        <Para>
+          {`  ${ok.map(row).join(', ')} rel: ${ok.length > 1 ? 'each ' : ''}within ` +
+            (tol.length === 1 ? `tol ${tol[0]} %` : 'its tol')}
+        </Para>
+      ) : null}
+      {j.deviations
+        .filter((d) => !ok.includes(d))
+        .map((d) => (
+          <Text key={d.species}>
+            {`  ${d.species.padEnd(8)} ${fixedSig(d.actual, 5).padStart(10)}  ` +
+              `design ${fixedSig(d.design, 5).padStart(10)} ` +
+              ` ${relText((d.deviation / d.design) * 100)} ` +
+              `% rel (tol ${fixedSig((d.tolerance / d.design) * 100, 2)} %) ${d.within ? 'value ok' : 'OUT'}`}
+          </Text>
+        ))}
     </Box>
   );
 }
@@ -252,6 +270,8 @@ function FillScreen({
   logFile,
 }: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
   switch (state.phase) {
+    case 'operator':
+      return <OperatorScreen state={state} />;
     case 'barometer':
       return <BarometerScreen state={state} />;
     case 'acknowledge':
@@ -293,7 +313,7 @@ function bandText(centerPa: number, bandPa: number, unit: PressureUnit, dec: num
 }
 
 function ErrorLine({ state }: ScreenProps) {
-  return state.error ? <Text wrap="wrap">! {state.error}</Text> : null;
+  return state.error ? <Para>! {state.error}</Para> : null;
 }
 
 /** the current step's unit, decimals and how a pressure is shown on its gauge */
@@ -313,16 +333,16 @@ function BarometerScreen({ state }: ScreenProps) {
   ];
   return (
     <Box flexDirection="column">
-      <Text bold>{fillTitle(h)} - barometric pressure today</Text>
-      <Text wrap="wrap">
+      <ScreenTitle base={fillTitle(h)} what="barometric pressure today" />
+      <Para>
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
         {fromPa(h.barometer.pressure_Pa, 'Torr').toFixed(1)} Torr.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1
         hPa AB), then Enter. It is logged.
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -332,18 +352,18 @@ function BarometerScreen({ state }: ScreenProps) {
 function AcknowledgeScreen({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
-      <Text bold>{fillTitle(state.setup.header)} - DANGER findings stand</Text>
+      <ScreenTitle base={fillTitle(state.setup.header)} what="DANGER findings stand" />
       {state.setup.dangers.map((d, i) => (
-        <Text key={i} wrap="wrap">
+        <Para key={i}>
           - {d.code}
           {d.step ? ` (fill ${d.step})` : ''}: {d.message}
-        </Text>
+        </Para>
       ))}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
         accept INITIALS, then Enter. Ctrl-C stops.
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -432,9 +452,7 @@ function EndScreen({
     const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
     return (
       <Box flexDirection="column">
-        <Text bold wrap="wrap">
-          {title}
-        </Text>
+        <Para bold>{title}</Para>
         <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={caveats.length > 0} />
         <Text>{`${more}b: back   q or Enter: quit`}</Text>
       </Box>
@@ -444,34 +462,32 @@ function EndScreen({
     return (
       <Box flexDirection="column">
         <Text bold>{title}</Text>
-        <Text wrap="wrap">{state.message}</Text>
+        <Para>{state.message}</Para>
         <Text>b: back q or Enter: quit</Text>
       </Box>
     );
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
-        {title}
-      </Text>
-      {message ? <Text wrap="wrap">{message}</Text> : null}
+      <Para bold>{title}</Para>
+      {message ? <Para>{message}</Para> : null}
       <Text> </Text>
       {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
       {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
       {check && 'error' in check ? (
-        <Text wrap="wrap">
+        <Para>
           ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
-        </Text>
+        </Para>
       ) : null}
       {verdict ? <Text bold>{verdict}</Text> : null}
       {caveats.map((c, i) => (
-        <Text key={i} bold wrap="wrap">
+        <Para key={i} bold>
           ! {c}
-        </Text>
+        </Para>
       ))}
       {label && labelHere ? <LabelBox caveats={[]} label={label} double={caveats.length > 0} /> : null}
       {/* two-stage preparation: the premix's re-check, mixing time and stage-2 command (stage-view.tsx) */}
       {h.stage ? <StageEnd header={h} report={report} closed={state.phase === 'done'} /> : null}
-      <Text wrap="wrap">{logLine}</Text>
+      <Para>{logLine}</Para>
       <Text>{keys}</Text>
     </Box>
   );
@@ -517,14 +533,12 @@ function LabelBox({
     >
       <Text bold>Tank label (as filled, from the readings)</Text>
       {caveats.map((c, i) => (
-        <Text key={`c${i}`} bold wrap="wrap">
+        <Para key={`c${i}`} bold>
           {c}
-        </Text>
+        </Para>
       ))}
       {label.map((l, i) => (
-        <Text key={i} wrap="wrap">
-          {l}
-        </Text>
+        <Para key={i}>{l}</Para>
       ))}
     </Box>
   );
@@ -544,11 +558,11 @@ function BelowScreen({ state }: ScreenProps) {
   const stop = `${fromPa(st, lu).toFixed(ld)}`;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {m} of {K}
-        {chargeSuffixOf(ls)}: {lastFill ? 'BELOW THE TARGET (not closed)' : 'BELOW ITS BAND (incomplete)'}
-      </Text>
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`fill ${m} of ${K}${chargeSuffixOf(ls)}: ${lastFill ? 'BELOW THE TARGET' : 'BELOW ITS BAND'}`}
+      />
+      <Para>{state.message ?? ' '}</Para>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {stop} {lu}
@@ -560,19 +574,14 @@ function BelowScreen({ state }: ScreenProps) {
       </Box>
       {lastFill && state.judgement ? <JudgementView j={state.judgement} /> : null}
       {lastFill ? (
-        <Text wrap="wrap">
+        <Para>
           Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
           AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
           (withdraw the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the
           target; the re-check judges it)
-        </Text>
+        </Para>
       ) : (
-        <Text wrap="wrap">
-          Continue this fill first: open {ls.source.id} again, fill on to {stop} {lu} and type the new reading
-          and your initials (e.g. {stop} AB): logged as a further reading of fill {m} (reason: more gas added;
-          the log keeps both). Or: next (go on from the logged reading; the fills ahead are re-targeted from
-          it and reviewed) undo INITIALS (withdraw it) fix N INITIALS (correct fill N)
-        </Text>
+        <BelowWaysView state={state} stop={`${stop} ${lu}`} />
       )}
       <ReadingFields
         state={state}
@@ -587,6 +596,68 @@ function BelowScreen({ state }: ScreenProps) {
   );
 }
 
+/** who fills in this session: initials once, then on every reading the session logs */
+function OperatorScreen({ state }: ScreenProps) {
+  const h = state.setup.header;
+  return (
+    <Box flexDirection="column">
+      <ScreenTitle base={fillTitle(h)} what="who fills" />
+      {state.message ? <Para>{state.message}</Para> : null}
+      <Text> </Text>
+      <Para>
+        Type your initials (e.g. AB). Every reading of this session is logged with them, so the record says
+        who read the tank; a resumed fill asks again. Decisions (undo, fix, accept, vent...) still take the
+        initials of whoever makes them.
+      </Para>
+      <Text>
+        &gt; initials: {state.input}
+        <Text inverse> </Text>
+      </Text>
+      <ErrorLine state={state} />
+      <Text>Enter: go on Ctrl-C: stop (nothing logged)</Text>
+    </Box>
+  );
+}
+
+/**
+ * the ways on from an incomplete fill before the last, each with what its review found (belowWays): a way
+ * is never called safe here unless its review found nothing the plan did not have
+ */
+function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
+  const w = state.belowWays;
+  const m = state.done.length;
+  const ls = state.setup.steps[m - 1];
+  const found = (xs: readonly string[]) =>
+    xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
+  const cont = w?.continuing;
+  const next = w
+    ? found(w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`))
+    : 'not reviewed';
+  const tank = w
+    ? w.tankNow.length
+      ? `the tank now holds ${w.tankNow.join(', ')}`
+      : 'no flammable or danger state in the tank now'
+    : 'not reviewed';
+  return (
+    <Box flexDirection="column">
+      <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
+      <Para>
+        - continue: fill on from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
+        {stop.split(' ')[0]} AB):{' '}
+        {cont ? (cont.still.length ? `still ${found(cont.still)}` : found([])) : 'not reviewed'}
+      </Para>
+      <Para>
+        - next AB (go on from {state.done[m - 1]?.text}): {next}
+      </Para>
+      <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
+      <Para>
+        A further reading is logged as a correction of fill {m} (more gas added; the log keeps both). undo AB:
+        withdraw it fix N AB: correct fill N
+      </Para>
+    </Box>
+  );
+}
+
 function StartScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const { step, unit, absText } = stepView(state);
@@ -597,12 +668,12 @@ function StartScreen({ state }: ScreenProps) {
     .join(', ');
   return (
     <Box flexDirection="column">
-      <Text bold>{fillTitle(h)} - top-up: the gas already in the tank</Text>
-      <Text wrap="wrap">
+      <ScreenTitle base={fillTitle(h)} what="top-up: the gas already in the tank" />
+      <Para>
         The plan assumed {absText(start.pressurePa)} of {comp} in {h.tank.id}. Read the tank now, before any
         fill, on {step.gauge?.id ?? 'the gauge'}, and its temperature; the targets are re-computed from what
         you read.
-      </Text>
+      </Para>
       <ReadingFields
         state={state}
         reading={`tank reading [${unit}] and your initials (e.g. 120.4 AB)`}
@@ -621,10 +692,13 @@ function CorrectScreen({ state }: ScreenProps) {
   const cs = state.setup.steps[c.step - 1];
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - correct the reading of fill {c.step} ({cs.species}
-        {isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on {cs.gauge?.id ?? 'no gauge'})
-      </Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={
+          `correct the reading of fill ${c.step} (${cs.species}` +
+          `${isSplit(cs.charge) ? `, ${chargeWords(cs.charge)}` : ''} on ${cs.gauge?.id ?? 'no gauge'})`
+        }
+      />
       <Text>
         logged: {d.text} at {(d.temperatureK - 273.15).toFixed(1)} degC; the original stays in the log, the
         correction is added with your initials ({c.by}) and reason
@@ -685,15 +759,15 @@ function StepDangers({ state }: ScreenProps) {
   return (
     <Box flexDirection="column">
       {plan.map((d, i) => (
-        <Text key={`p${i}`} bold wrap="wrap">
+        <Para key={`p${i}`} bold>
           DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
-        </Text>
+        </Para>
       ))}
       {review.map((h) => (
-        <Text key={h.key} bold wrap="wrap">
+        <Para key={h.key} bold>
           {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
           logged): {h.numbers || h.text}
-        </Text>
+        </Para>
       ))}
       {warnings.map((f, i) => {
         // two screen rows at most
@@ -703,53 +777,51 @@ function StepDangers({ state }: ScreenProps) {
           f.code === 'predicted-u-over-tolerance'
             ? f.message.split(':')[0].slice(0, 156 - head.length)
             : adviceOf(f.message, 156 - head.length);
-        return (
-          <Text key={`w${i}`} wrap="wrap">
-            {head + body}
-          </Text>
-        );
+        return <Para key={`w${i}`}>{head + body}</Para>;
       })}
       {plan.length || review.length ? (
-        <Text wrap="wrap">Go on only with the protection your procedure requires for it.</Text>
+        <Para>Go on only with the protection your procedure requires for it.</Para>
       ) : null}
     </Box>
   );
 }
 
+/** what a screen of the current fill is, for its title: "fill 2 of 4 (Ar, charge 1 of 2): WORDS" */
+function stepWhat(state: FillState, words: string): string {
+  const K = state.setup.steps.length;
+  return `fill ${state.current + 1} of ${K}${chargeSuffixOf(state.setup.steps[state.current])}: ${words}`;
+}
+
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
-  const K = state.setup.steps.length;
   const { step } = stepView(state);
   const ds = state.setup.dangers.filter((d) => d.step === step.index);
   const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {state.current + 1} of {K}
-        {chargeSuffixOf(state.setup.steps[state.current])}: DANGER AT THIS FILL
-      </Text>
-      <Text wrap="wrap">
+      <ScreenTitle base={fillTitle(h)} what={stepWhat(state, 'DANGER AT THIS FILL')} />
+      <Para>
         This fill ({step.species} from {step.source.id}) creates the state of the danger finding
         {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
-      </Text>
+      </Para>
       {ds.map((d, i) => (
-        <Text key={i} wrap="wrap">
+        <Para key={i}>
           - {d.code}: {d.message}
-        </Text>
+        </Para>
       ))}
       {rs.length && ds.length ? (
-        <Text wrap="wrap">and of the danger accepted at the review of the remaining fills (logged):</Text>
+        <Para>and of the danger accepted at the review of the remaining fills (logged):</Para>
       ) : null}
       {rs.map((h) => (
-        <Text key={h.key} wrap="wrap">
+        <Para key={h.key}>
           - {h.code}: {h.numbers}. {h.text}
-        </Text>
+        </Para>
       ))}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
         (logged readings are kept)
-      </Text>
+      </Para>
     </Box>
   );
 }
@@ -758,12 +830,9 @@ function ConfirmScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
-        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THIS READING
-      </Text>
+      <ScreenTitle base={fillTitle(state.setup.header)} what={stepWhat(state, 'CHECK THIS READING')} />
       <Text>typed: {pending.done.text}</Text>
-      <Text wrap="wrap">{pending.reason}</Text>
+      <Para>{pending.reason}</Para>
       <Text> </Text>
       <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
       <ErrorLine state={state} />
@@ -776,19 +845,16 @@ function UnitCheckScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(state.setup.header)} - fill {state.current + 1} of {state.setup.steps.length}
-        {chargeSuffixOf(state.setup.steps[state.current])}: CHECK THE UNIT
-      </Text>
-      <Text wrap="wrap">{pending.reason}</Text>
-      <Text wrap="wrap">
+      <ScreenTitle base={fillTitle(state.setup.header)} what={stepWhat(state, 'CHECK THE UNIT')} />
+      <Para>{pending.reason}</Para>
+      <Para>
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
-      </Text>
+      </Para>
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
         (not logged)
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -804,34 +870,32 @@ function OverLimitScreen({ state }: ScreenProps) {
   const p = pending.done.pressurePa;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {state.current + 1} of {K}
-        {chargeSuffixOf(state.setup.steps[state.current])}: DANGER - ABOVE THE WORKING LIMIT
-      </Text>
-      <Text wrap="wrap">
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`fill ${state.current + 1} of ${K}: DANGER - ABOVE THE WORKING LIMIT`}
+      />
+      <Para>
         The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
         of {h.tank.id} ({absText(o.limitPa)}).
-      </Text>
-      <Text bold wrap="wrap">
-        Close the cylinder valve and the tank valve now.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para bold>Close the cylinder valve and the tank valve now.</Para>
+      <Para>
         The reading is logged ({pending.done.line !== undefined ? `line ${pending.done.line}` : 'as typed'});
         what you choose is logged beside it.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
         {step.gauge?.id ?? 'the gauge'}: at most {atMostOnGauge(state, step, o.ventToPa)}): {o.why}.{' '}
         {o.last ? o.after.charAt(0).toUpperCase() + o.after.slice(1) : `From there: ${o.after}`}.
-      </Text>
-      <Text bold wrap="wrap">
+      </Para>
+      <Para bold>
         {o.within
           ? 'After venting (venting keeps the composition) the composition is within the tolerance.'
           : `After venting the composition is NOT within the tolerance (${o.outside.join(', ')} ` +
             `outside): venting keeps the composition, it cannot repair it.`}
-      </Text>
+      </Para>
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         {o.last
           ? 'vent INITIALS: you vent back (logged; then read the tank after venting: its reading is the ' +
             "batch's final pressure) "
@@ -839,7 +903,7 @@ function OverLimitScreen({ state }: ScreenProps) {
             'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
         accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
         trace)
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -852,17 +916,18 @@ function UndoReasonScreen({ state }: ScreenProps) {
   const last = state.done[state.done.length - 1];
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - undo the reading of fill {last.step} ({last.text}, line {last.line})
-      </Text>
-      <Text wrap="wrap">
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`undo the reading of fill ${last.step} (${last.text}, line ${last.line})`}
+      />
+      <Para>
         {state.undoing!.by} withdraws it: the log keeps the reading and adds the withdrawal with your initials
         and the reason; fill {last.step} is read again.
-      </Text>
-      <Text wrap="wrap">
+      </Para>
+      <Para>
         Why? A few words (e.g. &quot;misread the head&quot;, &quot;valve left open&quot;), then Enter; Enter
         alone logs it without a reason. Esc: do not undo (nothing logged).
-      </Text>
+      </Para>
       <Text>
         reason: {state.input}
         <Text inverse> </Text>
@@ -898,21 +963,22 @@ function CappedScreen({ state }: ScreenProps) {
   });
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
-        {fillTitle(h)} - before fill {c.step} of {K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE
-        {c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : ''}
-      </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
-      <Text bold wrap="wrap">
-        {c.cost}.
-      </Text>
-      <Text wrap="wrap">Capped targets: {ahead.join('; ')}.</Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={
+          `before fill ${c.step} of ${K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE` +
+          (c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : '')
+        }
+      />
+      {state.message ? <Para>{state.message}</Para> : null}
+      <Para bold>{c.cost}.</Para>
+      <Para>Capped targets: {ahead.join('; ')}.</Para>
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
         {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
         INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -933,31 +999,29 @@ function PremixScreen({ state }: ScreenProps) {
   const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
-        {fillTitle(h)} - before fill {first} of {K}: THE PREMIX TANK {pc.tank}
-      </Text>
-      <Text wrap="wrap">
+      <ScreenTitle base={fillTitle(h)} what={`before fill ${first} of ${K}: THE PREMIX TANK ${pc.tank}`} />
+      <Para>
         Fill {first} draws the premix from {pc.tank}
         {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
-      </Text>
-      <Text wrap="wrap" bold={!mixed}>
+      </Para>
+      <Para bold={!mixed}>
         1. {mixed ? `[done, ${mixed}] ` : ''}The premix in {pc.tank} mixed: {premixMixingWords(pc)}.
-      </Text>
-      <Text wrap="wrap" bold={Boolean(mixed)}>
+      </Para>
+      <Para bold={Boolean(mixed)}>
         2. {last?.enough ? `[done, ${last.by}] ` : ''}
         {premixCloseOffLine(pc, tankName(h.tank.id))}With the {h.tank.id} valve closed and the line filled
         from {pc.tank}, read {pc.tank} on {pc.gauge?.id ?? 'a gauge that reads it'}: at least {pc.minimum}{' '}
         (planned about {planned})
         {last && !last.enough ? `; last read ${last.text} (${last.by}), BELOW the minimum` : ''}.
-      </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
+      </Para>
+      {state.message ? <Para>{state.message}</Para> : null}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         {mixed
           ? `Type the reading of ${pc.tank} and your initials (e.g. ${planned.replace(' Torr', '')} AB); it is logged.`
           : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
         stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
-      </Text>
+      </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
     </Box>
@@ -988,11 +1052,11 @@ function VentedScreen({ state }: ScreenProps) {
   const shown = (pa: number) => `${fromPa(shownPa(state, step, pa), unit).toFixed(dec)} ${unit}`;
   return (
     <Box flexDirection="column">
-      <Text bold>
-        {fillTitle(h)} - fill {v.step} of {state.setup.steps.length}: VENTING (logged) - read the tank after
-        venting
-      </Text>
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <ScreenTitle
+        base={fillTitle(h)}
+        what={`fill ${v.step} of ${state.setup.steps.length}: VENTING (logged) - read the tank after venting`}
+      />
+      <Para>{state.message ?? ' '}</Para>
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           VENT TO AT MOST {atMostOnGauge(state, step, v.targetPa)} on {step.gauge?.id ?? 'the gauge'}
@@ -1001,12 +1065,12 @@ function VentedScreen({ state }: ScreenProps) {
           read before venting: {shown(v.beforePa)}; working limit {shown(v.limitPa)}
         </Text>
       </Box>
-      <Text wrap="wrap">
+      <Para>
         Close the vent valve, let the tank settle (pressure and temperature steady), then type the reading on{' '}
         {step.gauge?.id ?? 'the gauge'} and your initials (e.g. 1490.2 AB); Tab: the tank temperature. It is
         logged as the tank&apos;s pressure after venting{v.last ? ": the batch's final pressure" : ''}.
         Venting keeps the composition.
-      </Text>
+      </Para>
       <ReadingFields
         state={state}
         reading={`reading after venting [${unit}] and initials`}
@@ -1041,13 +1105,13 @@ function ChargeLine({ state }: ScreenProps) {
   const last = step.charge.number === step.charge.of;
   const stop = onGauge(state.targetsPa[state.current]);
   return (
-    <Text bold wrap="wrap">
+    <Para bold>
       {last
         ? `Open ${step.source.id} again for ${chargeWords(step.charge)} of ${step.species}: fill on to ${stop}`
         : `Open ${step.source.id} for ${chargeWords(step.charge)} of ${step.species} only: stop at ${stop}, ` +
           `then close the cylinder valve`}
       {`; ${others.join('; ')}.`}
-    </Text>
+    </Para>
   );
 }
 
@@ -1102,11 +1166,11 @@ function ReadingScreen({ state }: ScreenProps) {
       </Box>
       <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
-      <Text wrap="wrap">{state.error ? '' : (state.message ?? ' ')}</Text>
+      <Para>{state.error ? '' : (state.message ?? ' ')}</Para>
       {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
           screen keeps 24 rows */}
       {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
-      <Text wrap="wrap">{state.error ? `! ${state.error}` : ' '}</Text>
+      <Para>{state.error ? `! ${state.error}` : ' '}</Para>
       <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
     </Box>
   );

@@ -8,6 +8,7 @@ import type { FillState } from './fill-state.js';
 import { alternativeTargets } from './fill-review.js';
 import { fromPa } from '../io/quantity.js';
 import { fillTitle } from './stage-state.js';
+import { Para, ScreenTitle } from './para.js';
 
 const TRIGGER_WORDS = {
   reading: 'the reading just logged',
@@ -27,55 +28,53 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
   const cont = r.continuation;
   return (
     <Box flexDirection="column">
-      <Text bold wrap="wrap">
-        {fillTitle(h)} - SAFETY REVIEW: the remaining fills pass a hazard the plan did not
-      </Text>
-      {state.message ? <Text wrap="wrap">{state.message}</Text> : null}
-      <Text wrap="wrap">
+      <ScreenTitle base={fillTitle(h)} what="SAFETY REVIEW of the remaining fills" />
+      {state.message ? <Para>{state.message}</Para> : null}
+      <Para>
         After {TRIGGER_WORDS[r.trigger]}, the fills ahead, re-targeted from the tank as read and reviewed
-        state by state and along every fill path, pass:
-      </Text>
+        state by state and along every fill path, pass what the plan did not have:
+      </Para>
       {r.hazards.map((z, i) => (
-        <Text key={i} wrap="wrap">
+        <Para key={i}>
           - {z.severity.toUpperCase()} {z.code}
           {z.step ? ` (fill ${z.step})` : ''}
           {z.numbers ? ` ${z.numbers}` : ''}
-        </Text>
+        </Para>
       ))}
       <Text> </Text>
       {cont?.clean ? (
-        <Text wrap="wrap">
+        <Para>
           Safer: continue {cont.name} to its target {torr(cont.toPa)} absolute (it stopped at{' '}
           {torr(cont.fromPa)}): then no state or fill path ahead is flammable or a danger that the plan did
           not have. Fill on from {cont.sourceId} and type the new reading and your initials (e.g.{' '}
           {fromPa(cont.toPa, 'Torr').toFixed(2)} AB): logged as a further reading of fill {cont.step} (more
           gas added).
-        </Text>
+        </Para>
       ) : alt ? (
-        <Text wrap="wrap">
+        <Para>
           Safer: stop {alt.name} at {torr(alt.toPa)} absolute instead of {torr(alt.fromPa)}. Then no state or
           fill path ahead is flammable or a danger
           {alt.marginKept
             ? ' and none comes nearer the flammable region than the plan'
             : ' (some come nearer the flammable region than the plan: no stop keeps the margins)'}
           . Targets then: {alternativeTargets(alt)}.
-        </Text>
+        </Para>
       ) : (
-        <Text wrap="wrap">{r.noAlternative}.</Text>
+        <Para>{r.noAlternative}.</Para>
       )}
       <Text> </Text>
-      <Text wrap="wrap">
+      <Para>
         {cont?.clean ? 'VALUE INITIALS: the fill continued   ' : ''}
         {alt ? 'safer INITIALS: take the safer stop   ' : ''}accept INITIALS: go on through it (have it
         reviewed under your lab&apos;s rules first) undo INITIALS: the last reading was mistyped fix N
         INITIALS: correct fill N. Each choice is logged, with the findings in full. Ctrl-C stops (the readings
         stay logged).
-      </Text>
+      </Para>
       <Text>
         &gt; {state.input}
         <Text inverse> </Text>
       </Text>
-      {state.error ? <Text wrap="wrap">! {state.error}</Text> : null}
+      {state.error ? <Para>! {state.error}</Para> : null}
     </Box>
   );
 }

@@ -13,6 +13,7 @@
 import {
   describeFinding,
   hazardKey,
+  reviewBelowBand,
   reviewRemainder,
   type Finding,
   type PlannedFinding,
@@ -181,14 +182,18 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
     // a state already in the tank (the fill just read, step <= current) is no longer "remaining"
     const ahead = rv.near.filter((f) => (f.step ?? 0) > s.current);
     const inTank = rv.near.filter((f) => (f.step ?? 0) <= s.current);
+    // short (the reading screen is 24 rows): where, and the point against the limits; the full text is the
+    // finding's (describeFinding) on the plan and in check
+    const near = (f: Finding) => numbersOf(f) || words(f);
     const said = [
       inTank.length > 0
-        ? `the tank now is near the flammable region where the plan was not (${inTank.map((f) => words(f)).join('; ')})`
+        ? `the tank now is near the flammable region where the plan was not (inside the NFPA 69 margins; ${inTank
+            .map(near)
+            .join('; ')})`
         : undefined,
       ahead.length > 0
-        ? `the remaining fills come near the flammable region where the plan did not (${ahead
-            .map((f) => `fill ${f.step ?? 0}: ${words(f)}`)
-            .join('; ')})`
+        ? `the remaining fills come near the flammable region where the plan did not (inside the NFPA 69 ` +
+          `margins; ${ahead.map((f) => `fill ${f.step ?? 0} ${near(f)}`).join('; ')})`
         : undefined,
     ]
       .filter(Boolean)
@@ -239,19 +244,37 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
   };
 }
 
+/** the ways on from a fill read below its band, each as its review found it (fill-state's below screen) */
+export interface BelowWays {
+  /** continuing the fill to its target: what it would still pass (empty: nothing the plan did not have) */
+  readonly continuing?: { readonly toPa: number; readonly still: readonly string[] };
+  /** going on from the reading (next): the hazards the plan did not have (and not accepted) */
+  readonly goingOn: readonly ReviewHazard[];
+  /** stopping here: the flammable, detonable or danger findings of the tank as it is now, short */
+  readonly tankNow: readonly string[];
+}
+
+const shortOf = (f: Finding) => `${f.severity.toUpperCase()} ${f.code}${f.step ? ` (fill ${f.step})` : ''}`;
+
 /**
- * the hazards the plan did not have (and not accepted) that going on from the readings in force would
- * pass, without a search for a safer way: what the screen of an incomplete fill says of going on
+ * every way on that the screen of an incomplete fill offers, reviewed (core reviewBelowBand): continuing
+ * it to its target, going on from the reading (`next`), stopping with the tank as it is (`stop`)
  */
-export function hazardsAhead(s: FillState, input: RetargetInput): readonly ReviewHazard[] {
-  const rv = reviewRemainder({
+export function belowBandWays(s: FillState, input: RetargetInput): BelowWays {
+  const rv = reviewBelowBand({
     retarget: input,
     safety: safetyOf(s.setup),
     planned: plannedOf(s.setup, input),
-    searchAlternative: false,
+    lastBandPa: s.setup.steps[input.done.length - 1]?.bandPa,
   });
   const accepted = new Set(s.reviewed?.accepted ?? []);
-  return rv.hazards.filter((f) => !accepted.has(hazardKey(f))).map(reviewHazardOf);
+  const open = (fs: readonly Finding[]) => fs.filter((f) => !accepted.has(hazardKey(f)));
+  const c = rv.continuing;
+  return {
+    ...(c ? { continuing: { toPa: c.toPa, still: open(c.hazards).map(shortOf) } } : {}),
+    goingOn: open(rv.goingOn).map(reviewHazardOf),
+    tankNow: rv.tankNow.map(shortOf),
+  };
 }
 
 function reviewHazardOf(f: Finding): ReviewHazard {
@@ -272,6 +295,7 @@ function numbersOf(f: Finding): string {
   switch (f.code) {
     case 'flammable-state':
     case 'flammable-mixture':
+    case 'near-flammable':
     case 'flammable-at-inlet':
       return (
         `at ${torr(f.pressurePa)}: fuel ${pct(f.fuelFraction)}, O2 ${pct(f.oxygenFraction)} (N2-equivalent; ` +
@@ -320,15 +344,19 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   if (r.continuation && NUMBER_FIRST.test(text)) return hooks.continueFill(s, now);
   const m = INITIALS.exec(text);
   const cont = r.continuation;
-  const choices =
-    (cont
-      ? `the new reading of ${cont.name} and your initials (it was continued; e.g. ` +
-        `${fromPa(cont.toPa, 'Torr').toFixed(2)} AB), `
-      : '') +
-    (r.alternative ? 'safer INITIALS (take the safer stop), ' : '') +
-    'accept INITIALS (go on through it), undo INITIALS (the last reading was mistyped), ' +
-    'fix N INITIALS (correct fill N); every choice is logged';
-  if (!m) return { ...s, error: `type one of: ${choices}. Ctrl-C stops; the log keeps every reading` };
+  // short: the choices stand in full on the screen above the field (its 24 rows)
+  const choices = [
+    ...(cont
+      ? [
+          `the new reading of ${cont.name} and your initials (e.g. ${fromPa(cont.toPa, 'Torr').toFixed(2)} AB)`,
+        ]
+      : []),
+    ...(r.alternative ? ['safer INITIALS'] : []),
+    'accept INITIALS',
+    'undo INITIALS',
+    'fix N INITIALS',
+  ].join(', ');
+  if (!m) return { ...s, error: `type one of: ${choices} (each is logged)` };
   const choice = m[1].toLowerCase();
   const by = m[2];
   const step = s.setup.steps[s.current].index;

@@ -47,16 +47,18 @@ import {
   chargesOfHeader,
   gaugeFromLog,
   sourceFromLog,
+  WENT_ON_BELOW_BAND,
   type NewLogEvent,
   type LogHeader,
   type LogReading,
   type ParsedLog,
 } from '../io/batch-log.js';
 import {
-  hazardsAhead,
+  belowBandWays,
   onReviewEnter,
   reviewMemoryOf,
   withReview,
+  type BelowWays,
   type ReviewHazard,
   type ReviewHooks,
   type ReviewMemory,
@@ -153,6 +155,8 @@ export interface PremixDone {
  * its band, more gas may be added; ended: stopped before the last fill; done.
  */
 export type Phase =
+  /** who fills in this session: initials asked once at its start, then on every reading it logs */
+  | 'operator'
   | 'barometer'
   | 'acknowledge'
   | 'start'
@@ -339,8 +343,21 @@ export interface FillState {
    * them: each fill's screen shows those at its step for as long as it is on screen
    */
   readonly acceptedHazards?: readonly ReviewHazard[];
+  /** in phase 'below' of a fill before the last: each way on (continue, next, stop) as its review found it */
+  readonly belowWays?: BelowWays;
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
+  /** who fills in this session (initials): logged on every reading it takes */
+  readonly operator?: string;
+  /** in phase 'operator': the screen the session opens with once the initials are given */
+  readonly operatorBack?: Phase;
+}
+
+/** how a session starts: the operator's initials given (`--by`), or asked first */
+export interface SessionStart {
+  readonly operator?: string;
+  /** ask for the operator's initials before anything else when they are not given (the shell's sessions) */
+  readonly askOperator?: boolean;
 }
 
 export type FillAction =
@@ -418,8 +435,24 @@ function premixDoneOf(log: ParsedLog | undefined): PremixDone | undefined {
 const degC = (k: number) => `${(k - 273.15).toFixed(1)} degC`;
 const BARO_RANGE_PA = [70e3, 110e3] as const;
 
-/** a new fill, or one resumed from its log */
-export function initialState(setup: FillSetup, log?: ParsedLog, now = ''): FillState {
+/**
+ * a new fill, or one resumed from its log; `session`: who fills (initials, logged on every reading of
+ * this session), or ask first (a session is one run of the fill: a resume is a new one, maybe by another)
+ */
+export function initialState(
+  setup: FillSetup,
+  log?: ParsedLog,
+  now = '',
+  session: SessionStart = {},
+): FillState {
+  const opened = openedState(setup, log, now);
+  if (session.operator) return { ...opened, operator: session.operator };
+  if (!session.askOperator || opened.phase === 'done' || opened.phase === 'ended') return opened;
+  return { ...opened, phase: 'operator', operatorBack: opened.phase, input: '' };
+}
+
+/** the state a fill opens with, from its log (resumed) or new */
+function openedState(setup: FillSetup, log: ParsedLog | undefined, now: string): FillState {
   const h = setup.header;
   const targets = h.steps.map((s) => s.target_Pa);
   const acked = new Set((log?.acknowledgements ?? []).map((a) => a.code));
@@ -535,8 +568,16 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
   }
   if (done.length && !log?.closed) {
     // the last reading below its fill's band: the last fill stays open for more gas; a fill before it is
-    // incomplete, and continuing it is offered again (a `next` typed before the stop is not in the log)
+    // incomplete, and continuing it is offered again, unless the log says the operator went on from that
+    // very reading (`next`, logged): then the fill goes on to the fill after it
     const m = done.length;
+    const wentOn = log?.acknowledgements.some(
+      (a) =>
+        a.code === WENT_ON_BELOW_BAND &&
+        a.step === setup.steps[m - 1].index &&
+        a.below?.pressure_Pa === done[m - 1].pressurePa,
+    );
+    if (wentOn && m < setup.steps.length) return undefined;
     const before: FillState = { ...state, done: done.slice(0, -1), current: m - 1 };
     const prior = before.done.length
       ? retargetRun(before, before.done, before.done[before.done.length - 1].temperatureK).targets
@@ -1074,6 +1115,8 @@ function readingEvent(
     temperature: s.temperatureText.trim(),
     temperature_K: temperatureK,
     time: now,
+    // who read it: the session's operator (a log of an older fill, or a session without one, has none)
+    ...(s.operator ? { by: s.operator } : {}),
     ...(note ? { note } : {}),
   };
 }
@@ -1475,32 +1518,29 @@ function signed(v: number): string {
 }
 
 /**
- * The last fill read below its band: the reading is logged, the batch stays open. More gas can be
- * added (the new reading corrects this step's reading, reason "more gas added"), the reading undone,
- * or the batch closed as it is.
+ * A fill read below its band: the reading is logged, the fill stays on its screen. A fill before the
+ * last: continue it, go on from the reading (next) or stop the batch here, each way reviewed (belowWays).
+ * The last fill: more gas can be added (the new reading corrects this step's reading, reason "more gas
+ * added"), the reading undone, or the batch closed as it is.
  */
 function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText: string): FillState {
   const unit = gaugeUnit(step);
   const last = s.done[s.done.length - 1];
+  const short =
+    `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
+    `${fmtIn(targetPa, unit)} by more than its band (${fmtIn(step.bandPa, unit, 3)})`;
   if (s.current < s.setup.steps.length) {
-    // a fill before the last: the fills ahead are re-targeted (s) but not entered; what going on from here
-    // would pass that the plan did not is said beside the offer to continue
-    const ahead = hazardsAhead(s, retargetInput(s, s.done, s.targetTemperatureK));
-    const passes = ahead.length
-      ? `. Going on from this reading instead (next) passes what the plan did not have: ${ahead
-          .map((h) => `${h.severity.toUpperCase()} ${h.code}${h.step ? ` (fill ${h.step})` : ''}`)
-          .join(', ')}`
-      : '';
+    // a fill before the last: the fills ahead are re-targeted (s) but not entered; every way on the screen
+    // offers is reviewed here, and the screen says what each review found
+    const belowWays = belowBandWays(s, retargetInput(s, s.done, s.targetTemperatureK));
     return {
       ...s,
       phase: 'below',
       input: '',
       field: 'reading',
       review: undefined,
-      message:
-        `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
-        `${fmtIn(targetPa, unit)} of ${fillName(step)} by more than its band (${fmtIn(step.bandPa, unit, 3)}): ` +
-        `the fill is incomplete${passes}`,
+      belowWays,
+      message: `${short}: the fill is incomplete`,
     };
   }
   const { judgement, summary } = finalJudgement(s);
@@ -1511,6 +1551,7 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     summary,
     input: '',
     field: 'reading',
+    belowWays: undefined,
     message:
       `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
       `${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); ` +
@@ -2228,6 +2269,8 @@ function onTab(base: FillState): FillState {
 
 function onEnter(base: FillState, now: string): FillState {
   switch (base.phase) {
+    case 'operator':
+      return onOperatorEnter(base);
     case 'done':
     case 'ended':
     case 'confirm':
@@ -2269,6 +2312,26 @@ function onEnter(base: FillState, now: string): FillState {
       return onCommand(base, base.input.trim()) ?? onPremixEnter(base, now);
   }
   return base;
+}
+
+/** the operator's initials, once a session: every reading of the session is logged with them */
+function onOperatorEnter(base: FillState): FillState {
+  const m = /^([A-Za-z]{1,6})$/.exec(base.input.trim());
+  if (!m)
+    return {
+      ...base,
+      input: '',
+      error: 'type your initials (1-6 letters, e.g. AB): every reading of this session is logged with them',
+    };
+  const said = `${m[1]} fills: every reading of this session is logged with these initials`;
+  return {
+    ...base,
+    operator: m[1],
+    phase: base.operatorBack ?? 'reading',
+    operatorBack: undefined,
+    input: '',
+    message: [base.message, said].filter(Boolean).join('; '),
+  };
 }
 
 /** today's barometric pressure with the initials of who read it */
@@ -2419,7 +2482,8 @@ function onBelowEnter(s: FillState, now: string): FillState {
   const last = s.done[s.done.length - 1];
   const step = s.setup.steps[s.done.length - 1];
   const unit = gaugeUnit(step);
-  if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, step, last);
+  if (!lastFill && /^next\b/i.test(text)) return goOnFromBelow(s, text, step, last, now);
+  if (!lastFill && /^stop\b/i.test(text)) return stopBelow(s, text, step, last, now);
   if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
   const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
@@ -2430,7 +2494,8 @@ function onBelowEnter(s: FillState, now: string): FillState {
         `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
         (lastFill
           ? 'close INITIALS (closes the batch below the target)'
-          : 'next (go on from the logged reading; the fills ahead re-targeted from it)'),
+          : 'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
+            'INITIALS (stop the batch here, incomplete)'),
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);
@@ -2514,7 +2579,9 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
   if (!lastFill)
     return {
       ...s,
-      error: `${fillName(step)} is not the last fill: continue it (the new reading and your initials) or type next`,
+      error:
+        `${fillName(step)} is not the last fill: continue it (the new reading and your initials), next ` +
+        'INITIALS (go on from the logged reading) or stop INITIALS (stop the batch here, incomplete)',
     };
   if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
   const f = finish(
@@ -2530,16 +2597,85 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
   };
 }
 
-/** next on the screen of an incomplete fill before the last: go on from its logged reading, reviewed */
-function goOnFromBelow(s: FillState, step: FillStep, last: DoneReading): FillState {
+/**
+ * next INITIALS on the screen of an incomplete fill before the last: go on from its logged reading. The
+ * choice changes what the record means (the fill left short, the fills ahead re-targeted from it), so it
+ * is logged (acknowledge "went-on-below-band", with the reading, target and band) before the review
+ */
+function goOnFromBelow(
+  s: FillState,
+  text: string,
+  step: FillStep,
+  last: DoneReading,
+  now: string,
+): FillState {
+  const m = /^next\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return {
+      ...s,
+      error:
+        'type next and your initials (e.g. next AB): going on from the logged reading leaves ' +
+        `${fillName(step)} short, and that choice is logged`,
+    };
+  const unit = gaugeUnit(step);
+  const targetPa = s.targetsPa[s.done.length - 1];
+  const event: NewLogEvent = {
+    kind: 'acknowledge',
+    code: WENT_ON_BELOW_BAND,
+    step: step.index,
+    by: m[1],
+    time: now,
+    note:
+      `${fillName(step)} left at ${last.text} (${fmtIn(last.pressurePa, unit)} absolute), below its target ` +
+      `${fmtIn(targetPa, unit)} by more than its band; the fills ahead re-targeted from it`,
+    below: { reading: last.text, pressure_Pa: last.pressurePa, target_Pa: targetPa, band_Pa: step.bandPa },
+  };
   const left: FillState = {
     ...s,
     input: '',
-    message: `${fillName(step)} left at ${last.text}, below its band: the fills ahead are re-targeted from it`,
+    effects: [event],
+    message:
+      `${fillName(step)} left at ${last.text}, below its band (logged by ${m[1]}): the fills ahead are ` +
+      're-targeted from it',
   };
   const cap = capAfterChange({ ...left, review: undefined }, `after fill ${step.index}`);
   if (cap) return cap;
   return reviewed(enterStep({ ...left, phase: 'reading' }), 'reading');
+}
+
+/**
+ * stop INITIALS on the screen of an incomplete fill before the last (the cylinder cannot give more, say):
+ * the batch is closed here, incomplete (check: INCOMPLETE, never a pass); the screen says what the review
+ * found of the tank as it is now
+ */
+function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading, now: string): FillState {
+  const m = /^stop\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (!m)
+    return { ...s, error: 'type stop and your initials (e.g. stop AB): stopping the batch here is logged' };
+  const unit = gaugeUnit(step);
+  const rest = s.setup.steps.slice(s.done.length).map((x) => x.index);
+  const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
+  const tank = s.belowWays?.tankNow.length
+    ? `the review finds in the tank now: ${s.belowWays.tankNow.join(', ')}: keep it closed and follow ` +
+      "your lab's procedure for it"
+    : 'the review finds no flammable, detonable or danger state in the tank now';
+  return {
+    ...s,
+    phase: 'ended',
+    input: '',
+    effects: [
+      {
+        kind: 'close',
+        time: now,
+        note:
+          `stopped by ${m[1]} with ${fillName(step)} below its band at ${last.text} (target ` +
+          `${fmtIn(s.targetsPa[s.done.length - 1], unit)} absolute): ${notMade}`,
+      },
+    ],
+    message:
+      `the batch is stopped by ${m[1]} (logged) with ${fillName(step)} at ${last.text}, below its band; ` +
+      `${notMade}, so it is INCOMPLETE (not a pass); ${tank}`,
+  };
 }
 
 /** the premix check's pressures as read on its gauge (gauge-referenced: today's barometer) */

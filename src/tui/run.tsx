@@ -78,6 +78,8 @@ export async function runFill(args: {
   header: LogHeader;
   logFile: string;
   log?: ParsedLog;
+  /** --by: who fills (initials, on every reading of this session); else the fill asks first */
+  operator?: string;
 }): Promise<FillOutcome> {
   // the lock is held for the whole fill; a torn last line is moved aside before anything is appended
   const opened = openLogForFill(args.logFile);
@@ -88,7 +90,10 @@ export async function runFill(args: {
 `);
     const setup = setupFromHeader(opened.log.header);
     const now = new Date().toISOString();
-    const initial = initialState(setup, args.log ? opened.log : undefined, now);
+    const initial = initialState(setup, args.log ? opened.log : undefined, now, {
+      operator: args.operator,
+      askOperator: true,
+    });
     const write = (e: NewLogEvent) => opened.handle.append(e);
     for (const e of initial.effects) write(e);
     const recheck = async () => {

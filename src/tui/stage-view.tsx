@@ -1,8 +1,9 @@
 /** The end screen's block for a stage of a two-stage fill (lines from stage-state.ts). */
-import { Box, Text } from 'ink';
+import { Box } from 'ink';
 import type { LogHeader } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { stageEndLines } from './stage-state.js';
+import { Para } from './para.js';
 
 export function StageEnd({
   header,
@@ -18,9 +19,9 @@ export function StageEnd({
   return (
     <Box flexDirection="column" marginTop={1}>
       {lines.map((l, i) => (
-        <Text key={i} wrap="wrap" bold={i === 0}>
+        <Para key={i} bold={i === 0}>
           {l}
-        </Text>
+        </Para>
       ))}
     </Box>
   );

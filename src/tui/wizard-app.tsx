@@ -16,6 +16,7 @@ import {
   type WizardAction,
   type WizardState,
 } from './wizard-state.js';
+import { Para } from './para.js';
 
 export interface WizardAppProps {
   readonly initial: WizardState;
@@ -148,7 +149,7 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
             ))}
         </Box>
       </Box>
-      <Text wrap="wrap">
+      <Para>
         {field
           ? err?.field === field
             ? `! ${err.message}`
@@ -156,7 +157,7 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
           : err
             ? `! ${err.message}`
             : ' '}
-      </Text>
+      </Para>
       <Text wrap="truncate-end">{tabLine || ' '}</Text>
       <Box>
         {ACTIONS.map((a, i) => (
@@ -166,11 +167,11 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
         ))}
       </Box>
       {state.question ? (
-        <Text wrap="wrap" color="yellow" bold>
+        <Para color="yellow" bold>
           {state.question.text}
-        </Text>
+        </Para>
       ) : null}
-      <Text wrap="wrap">{state.message ?? ' '}</Text>
+      <Para>{state.message ?? ' '}</Para>
       <Text>
         {state.question
           ? 'y: yes   n, Enter or Esc: no'

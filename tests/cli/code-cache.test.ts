@@ -111,8 +111,9 @@ describe('the code cache of the built command', { timeout: 240_000 }, () => {
       };
       try {
         const seen = [
-          await start(`fill ${recipe} --batch cc --dir batches`, /fill 1 of \d/, 1),
-          await start('fill --resume batches/cc.jsonl', /fill 1 of \d/, 2),
+          await start(`fill ${recipe} --by JD --batch cc --dir batches`, /fill 1 of \d/, 1),
+          // without --by the resume asks who fills first
+          await start('fill --resume batches/cc.jsonl', /who fills/, 2),
           await start('', /preview/, 3),
         ];
         for (const s of seen) {

@@ -6,7 +6,13 @@
  * (fuel LFL, O2 0.21 x (1 - LFL)) on the N2-equivalent diagram.
  */
 import { describe, expect, it } from 'vitest';
-import { retarget, reviewRemainder, type Finding, type RetargetInput } from '../../src/core/index.js';
+import {
+  retarget,
+  reviewBelowBand,
+  reviewRemainder,
+  type Finding,
+  type RetargetInput,
+} from '../../src/core/index.js';
 import { splitPlan } from '../split-plan.js';
 import { TORR } from '../helpers.js';
 
@@ -155,5 +161,27 @@ describe('an incomplete diluent charge: continuing it is the safer way', () => {
       lastBandPa: band,
     });
     expect(rv.continuation).toBeUndefined();
+  });
+
+  it('each way on from it reviewed: going on passes the flammable state at fill 3, continuing passes nothing new, the tank now (CH4 in Ar, no oxidizer) holds no hazard', () => {
+    const ways = reviewBelowBand({ retarget: input([ch4, 150]), safety, planned, lastBandPa: band });
+    expect(codes(ways.goingOn)).toContain('flammable-state@3');
+    expect(ways.continuing!.clean).toBe(true);
+    expect(ways.continuing!.toPa / TORR).toBeCloseTo(400, 9);
+    // 10.01 Torr CH4 in 150 Torr with no O2: no oxidizer, not flammable (common practice: a fuel needs an oxidizer)
+    expect(ways.tankNow).toEqual([]);
+  });
+  it('the tank now after O2 read short onto a short Ar charge: flammable in the tank is said for stopping there', () => {
+    // CH4 10.01, Ar at 150 (its stop 400 left short), O2 at 165 Torr: 15 Torr O2, 10 Torr CH4 in 165 Torr:
+    // 6.1 % fuel, 9.1 % O2 as read (ideal partial pressures, by hand), past the LFL 4.4 %; with Ar as 0.55
+    // N2 the N2-equivalent O2 fraction rises above the LOC 10.7 % (ISO 10156 equivalence, by hand: about
+    // 15 / (10 + 15 + 0.55 x 140) = 14.7 %): flammable in the tank now
+    const ways = reviewBelowBand({
+      retarget: input([ch4, 150, 165]),
+      safety,
+      planned,
+      lastBandPa: plan.steps[2].bandPa,
+    });
+    expect(codes(ways.tankNow)).toContain('flammable-state@3');
   });
 });

@@ -24,27 +24,43 @@ function fits(screen: string) {
   for (const r of rows) expect(r.length).toBeLessThanOrEqual(80);
 }
 
+/** a new fill (by JD): CH4 at its target, then the Ar charge (target 480.81 Torr) read as `ar`: the next screen */
+async function throughAr(
+  t: ReturnType<typeof tmuxSession>,
+  batch: string,
+  ar: string,
+  next: RegExp,
+): Promise<string> {
+  t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch ${batch} --dir batches`));
+  await t.waitFor(/fill 1 of 4/);
+  await t.type('10.013');
+  await t.keys('Enter');
+  await t.waitFor(/STOP AT 480\.81 Torr/);
+  await t.type(ar);
+  await t.keys('Enter');
+  return t.waitFor(next);
+}
+const arChargeShort = (t: ReturnType<typeof tmuxSession>, batch: string) =>
+  throughAr(t, batch, '150', /BELOW ITS BAND/);
+
 describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () => {
-  it('an Ar charge read short (150 for 480.81 Torr): continue it first; next shows the review with continuing as the safer way; the further reading is logged as such', async () => {
+  it('an Ar charge read short (150 for 480.81 Torr): continue it first; next JD (logged) shows the review with continuing as the safer way; the further reading is logged as such', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-incomplete-'));
     const t = tmuxSession(`mw-incomplete-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch inc --dir batches`));
-      await t.waitFor(/fill 1 of 4/);
-      await t.type('10.013');
-      await t.keys('Enter');
-      await t.waitFor(/STOP AT 480\.81 Torr/);
-      await t.type('150');
-      await t.keys('Enter');
-      const below = await t.waitFor(/BELOW ITS BAND/);
+      const below = await arChargeShort(t, 'inc');
       fits(below);
       const b = flat(below);
-      expect(b).toMatch(/fill 2 of 4 \(Ar, charge 1 of 2\): BELOW ITS BAND \(incomplete\)/);
+      expect(b).toMatch(/fill 2 of 4 \(Ar, charge 1 of 2\): BELOW ITS BAND/);
       expect(b).toMatch(/the fill is incomplete/);
-      expect(b).toMatch(/passes what the plan did not have: .*DANGER detonable-state \(fill 3\)/);
-      expect(b).toMatch(/Continue this fill first: open cyl-Ar again, fill on to 480\.81 Torr/);
+      // every way on, with what its review found
+      expect(b).toMatch(
+        /- continue: fill on from cyl-Ar to 480\.81 Torr, .*: passes no hazard the plan did not have/,
+      );
+      expect(b).toMatch(/- next AB \(go on from 150 Torr\): passes .*DANGER detonable-state \(fill 3\)/);
+      expect(b).toMatch(/- stop AB \(.*\): no flammable or danger state in the tank now/);
       // going on from the short reading: the review names the hazard and offers continuing, never "no safer stop"
-      await t.type('next');
+      await t.type('next JD');
       await t.keys('Enter');
       const rv = await t.waitFor(/SAFETY REVIEW[\s\S]*>/);
       fits(rv);
@@ -72,10 +88,36 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
           reason: expect.stringMatching(/more gas added/),
         }),
       ]);
-      // nothing was accepted: no review outcome is logged
-      expect(log.acknowledgements).toEqual([]);
+      // the choice to go on from 150 Torr is logged; nothing was accepted: no review outcome is logged
+      expect(log.acknowledgements).toEqual([
+        expect.objectContaining({ code: 'went-on-below-band', step: 2, by: 'JD' }),
+      ]);
       await t.keys('C-c');
       expect(Number(/EXIT=(\d+)/.exec(await t.waitFor(/EXIT=\d+/))![1])).toBe(130);
+    } finally {
+      t.close();
+    }
+  }, 90000);
+
+  it('the Ar cylinder cannot give more: stop JD closes the batch at the short reading, INCOMPLETE, exit 4', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-stop-'));
+    const t = tmuxSession(`mw-stop-${process.pid}`, dir);
+    try {
+      await arChargeShort(t, 'st');
+      await t.type('stop JD');
+      await t.keys('Enter');
+      const end = await t.waitFor(/Re-check of the log[\s\S]*q or Enter: quit/);
+      fits(end);
+      const e = flat(end);
+      expect(e).toMatch(/STOPPED after fill 2 of 4/);
+      expect(e).toMatch(/fills 3, 4 not made, so it is INCOMPLETE \(not a pass\)/);
+      expect(e).toMatch(/the review finds no flammable, detonable or danger state in the tank now/);
+      expect(e).toMatch(/INCOMPLETE - not a pass/);
+      await t.keys('q');
+      expect(Number(/EXIT=(\d+)/.exec(await t.waitFor(/EXIT=\d+/))![1])).toBe(4);
+      const log = readLog(join(dir, 'batches', 'st.jsonl'));
+      expect(log.closed).toBe(true);
+      expect(log.readings.map((r) => r.by)).toEqual(['JD', 'JD']);
     } finally {
       t.close();
     }
@@ -85,14 +127,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-pastrange-'));
     const t = tmuxSession(`mw-pastrange-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch pr --dir batches`));
-      await t.waitFor(/fill 1 of 4/);
-      await t.type('10.013');
-      await t.keys('Enter');
-      await t.waitFor(/STOP AT 480\.81 Torr/);
-      await t.type('480.81');
-      await t.keys('Enter');
-      await t.waitFor(/fill 3 of 4/);
+      await throughAr(t, 'pr', '480.81', /fill 3 of 4/);
       await t.type('501.5 kPa');
       await t.keys('Enter');
       const pr = await t.waitFor(/! DANGER/);
@@ -130,7 +165,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
     const dir = mkdtempSync(join(tmpdir(), 'mw-warn-'));
     const t = tmuxSession(`mw-warn-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --order CH4,O2,Ar --batch w --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --order CH4,O2,Ar --batch w --dir batches`));
       await t.waitFor(/accept INITIALS/);
       await t.type('accept JD');
       await t.keys('Enter');

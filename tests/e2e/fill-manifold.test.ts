@@ -56,7 +56,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('overshoot past the working limit: a danger screen with the vent-back reading; accept with initials is logged; the fill stops; check names the limit', async () => {
     const { dir, t } = session('over');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch over --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch over --dir batches`));
       await t.waitFor(/fill 1 of 3/);
       await t.type('10.01');
       await t.keys('Enter');
@@ -95,7 +95,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it("a temperature change before the last fill re-computes the target; filled to it, the end screen shows check's verdict and the as-filled label", async () => {
     const { dir, t } = session('temp');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch temp --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch temp --dir batches`));
       let s = await t.waitFor(/fill 1 of 3/);
       await t.type(String(target(s)));
       await t.keys('Enter');
@@ -132,7 +132,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('a last fill read below its band keeps the batch open: more gas, the new reading with initials corrects it, then the batch closes (exit 7: not shown within tolerance)', async () => {
     const { dir, t } = session('low');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch low --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch low --dir batches`));
       let s = await t.waitFor(/fill 1 of 3/);
       await t.type(String(target(s)));
       await t.keys('Enter');
@@ -169,7 +169,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('a mistyped reading corrected before the next fill: the original stays, the correction is logged with initials and reason', async () => {
     const { dir, t } = session('fix');
     try {
-      t.start(`node ${BIN} fill ${RECIPE} --batch fix --dir batches`);
+      t.start(`node ${BIN} fill ${RECIPE} --by JD --batch fix --dir batches`);
       await t.waitFor(/fill 1 of 3/);
       await t.type('10.01');
       await t.keys('Enter');
@@ -208,7 +208,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('a gauge-referenced reading typed as absolute: the barometer is asked first; the reading is questioned with its likely cause and not logged until confirmed', async () => {
     const { dir, t } = session('gref');
     try {
-      t.start(`node ${BIN} fill ${RECIPE} --tank MT-2 --pressure "3 bar" --batch gref --dir batches`);
+      t.start(`node ${BIN} fill ${RECIPE} --by JD --tank MT-2 --pressure "3 bar" --batch gref --dir batches`);
       await t.waitFor(/barometric pressure today/);
       await t.type('755.0 Torr AB');
       await t.keys('Enter');
@@ -245,7 +245,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('Ctrl-C ends the fill with exit 130 and says how many readings are logged and how to resume', async () => {
     const { dir, t } = session('ctrlc');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch cc --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch cc --dir batches`));
       await t.waitFor(/fill 1 of 3/);
       await t.type('10.01');
       await t.keys('Enter');
@@ -267,19 +267,19 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
     const a = session('lockA');
     const b = tmuxSession(`mw-lockB-${process.pid}`, a.dir);
     try {
-      a.t.start(`node ${BIN} fill ${RECIPE} --batch lk --dir batches`);
+      a.t.start(`node ${BIN} fill ${RECIPE} --by JD --batch lk --dir batches`);
       await a.t.waitFor(/fill 1 of 3/);
       await a.t.type('10.01');
       await a.t.keys('Enter');
       await a.t.waitFor(/fill 2 of 3/);
-      b.start(withStatus(`node ${BIN} fill --resume batches/lk.jsonl`));
+      b.start(withStatus(`node ${BIN} fill --by JD --resume batches/lk.jsonl`));
       expect(await exitStatus(b)).toBe(2);
       expect(flat(b.screen())).toMatch(/another guided fill holds this batch log: process \d+/);
       await a.t.kill();
       // a power cut mid-write: half a line at the end
       const log = join(a.dir, 'batches', 'lk.jsonl');
       appendFileSync(log, '{"kind":"reading","step":2,"source":"cyl-Ar","gau');
-      a.t.start(`node ${BIN} fill --resume batches/lk.jsonl`);
+      a.t.start(`node ${BIN} fill --by JD --resume batches/lk.jsonl`);
       const s = flat(await a.t.waitFor(/fill 2 of 3/));
       expect(s).toMatch(/moved to batches\/lk\.jsonl\.torn-/);
       await a.t.type(String(target(s)));
@@ -301,7 +301,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       const log = join(dir, 'split.jsonl');
       // the header as `fill` writes it (the split order given to the planner), then the fill itself
       createLog(log, splitHeader());
-      t.start(withStatus(`node ${BIN} fill --resume ${log}`));
+      t.start(withStatus(`node ${BIN} fill --by JD --resume ${log}`));
       let s = await t.waitFor(/fill 1 of 4/);
       await t.type(String(target(s)));
       await t.keys('Enter');
@@ -334,7 +334,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
         [3, 'cyl-O2', 1, 1],
       ]);
       expect(mid.readings[1].pressure_Pa / TORR).toBeCloseTo(first, 9);
-      t.start(withStatus(`node ${BIN} fill --resume ${log}`));
+      t.start(withStatus(`node ${BIN} fill --by JD --resume ${log}`));
       s = flat(await t.waitFor(/fill 4 of 4/));
       expect(s).toMatch(
         /resumed: 3 of 4 readings were in the log; next: fill 4 \(Ar, charge 2 of 2\) from cyl-Ar/,
@@ -366,7 +366,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('past the working limit on the last fill: vent with initials (logged), a reading after venting above the one before is refused, the settled reading closes the batch; check and the label give the vented pressure', async () => {
     const { dir, t } = session('vent');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch vent --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch vent --dir batches`));
       for (const r of ['10.01', '1480', '2800']) {
         await t.waitFor(/fill \d of 3/);
         await t.type(r);
@@ -412,7 +412,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('a re-target held by the working limit stops on its own screen with the cost; the choice is typed with initials and logged (stop)', async () => {
     const { dir, t } = session('cap');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch cap --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch cap --dir batches`));
       await t.waitFor(/fill 1 of 3/);
       await t.type('10.01');
       await t.keys('Enter');
@@ -450,7 +450,7 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
   it('undo asks a short reason (Enter alone skips it); the withdrawal is logged with it and check lists it', async () => {
     const { dir, t } = session('undo');
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch undo --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch undo --dir batches`));
       await t.waitFor(/fill 1 of 3/);
       await t.type('10.01');
       await t.keys('Enter');

@@ -21,12 +21,13 @@ describe.runIf(hasTmux || required)('guided fill: the review of the re-targeted 
     const dir = mkdtempSync(join(tmpdir(), 'mw-review-'));
     const t = tmuxSession(`mw-review-${process.pid}`, dir);
     try {
-      t.start(withStatus(`node ${BIN} fill ${RECIPE} --batch rv --dir batches`));
+      t.start(withStatus(`node ${BIN} fill ${RECIPE} --by JD --batch rv --dir batches`));
       await t.waitFor(/fill 1 of 4/);
       await t.type('14.0179');
       await t.keys('Enter');
       const s = flat(await t.waitFor(/Ctrl-C stops/));
-      expect(s).toMatch(/SAFETY REVIEW: the remaining fills pass a hazard the plan did not/);
+      expect(s).toMatch(/SAFETY REVIEW of the remaining fills/);
+      expect(s).toMatch(/pass what the plan did not have:/);
       expect(s).toMatch(/WARNING flammable-state \(fill 3\) at 428\.02 Torr: fuel 5\.51 %, O2 11\.0 %/);
       expect(s).toMatch(/DANGER closed-vessel-pressure \(fill 3\)/);
       expect(s).toMatch(

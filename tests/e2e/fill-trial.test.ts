@@ -22,7 +22,7 @@ describe.runIf(hasTmux || required)('guided fill: what a trial at the manifold f
   it('the target number typed in kPa is asked about before it is logged; n re-types, log AB logs it as typed with the initials', async () => {
     const { dir, t } = session('unit');
     try {
-      t.start(`node ${BIN} fill ${RECIPE} --batch u1 --dir batches`);
+      t.start(`node ${BIN} fill ${RECIPE} --by JD --batch u1 --dir batches`);
       let s = await t.waitFor(/fill 1 of 4/);
       expect(s).toContain('STOP AT 10.01 Torr');
       await t.type('10.02 kPa');

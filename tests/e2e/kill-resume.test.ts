@@ -35,7 +35,7 @@ describe.runIf(hasTmux || required)('SIGKILL between readings, many times over',
         let confirmed = 0;
         let stalled = false;
         t.start(
-          `node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --order CH4,Ar,O2 --batch k${b} --dir batches`,
+          `node ${BIN} fill ${resolve('recipes/ch4-o2-ar-phi1.yaml')} --by JD --order CH4,Ar,O2 --batch k${b} --dir batches`,
         );
         for (let round = 0; round < 12 && confirmed < 3; round++) {
           const s = await t.waitFor(/fill (\d) of 3/);
@@ -83,7 +83,7 @@ describe.runIf(hasTmux || required)('SIGKILL between readings, many times over',
           expect(readings.length).toBeGreaterThanOrEqual(confirmed);
           stalled = readings.length === confirmed;
           confirmed = readings.length;
-          if (confirmed < 3) t.start(`node ${BIN} fill --resume ${log}`);
+          if (confirmed < 3) t.start(`node ${BIN} fill --by JD --resume ${log}`);
         }
         expect(confirmed).toBe(3);
         expect(existsSync(log)).toBe(true);

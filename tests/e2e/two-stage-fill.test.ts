@@ -28,7 +28,7 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
     const t = tmuxSession(`mw-two-${process.pid}`, dir);
     const premixLog = join(dir, 'batches', 'b1-premix.jsonl');
     try {
-      t.start(`node ${BIN} fill ${RECIPE} --premix-tank MT-2 --batch b1 --dir batches`);
+      t.start(`node ${BIN} fill ${RECIPE} --by JD --premix-tank MT-2 --batch b1 --dir batches`);
       let s = await t.waitFor(/fill 1 of 2/);
       expect(s).toContain('mixwright fill b1-premix (stage 1 of 2: premix tank MT-2)');
       expect(flat(s)).toContain('into premix tank MT-2 (the premix for batch b1)');
@@ -40,7 +40,7 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       expect(target(s)).toBe(1890.2);
       await t.kill();
       expect(readLog(premixLog).readings).toHaveLength(1);
-      t.start(withStatus(`node ${BIN} fill --resume ${premixLog}`));
+      t.start(withStatus(`node ${BIN} fill --by JD --resume ${premixLog}`));
       s = await t.waitFor(/fill 2 of 2/);
       expect(s).toContain('resumed: 1 of 2');
       await t.type('1890.2');
@@ -61,7 +61,7 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       // stage 2: the command stage 1 recorded, as typed at the manifold
       const next = h.stage!.next_command!;
       t.tm('kill-session', '-t', 's');
-      t.start(withStatus(next.replace(/^mixwright/, `node ${BIN}`)));
+      t.start(withStatus(`${next.replace(/^mixwright/, `node ${BIN}`)} --by JD`));
       const batchLog = join(dir, 'batches', 'b1.jsonl');
       const typed: number[] = [];
       for (let k = 1; k <= 4; k++) {

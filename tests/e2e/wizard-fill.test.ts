@@ -33,6 +33,10 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       await t.waitFor(/1 CH4\s+head-1kT 10\.\d+ Torr/);
       // to the actions: tank, premix, pressure, temperature, then save, sheet, fill
       await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
+      // who fills: asked once a session, then on every reading it logs
+      await t.waitFor(/who fills/);
+      await t.type('JD');
+      await t.keys('Enter');
       // the wizard's fill plans with the sequence search: CH4, Ar (charge 1 of 2), O2, Ar (charge 2 of 2)
       let s = await t.waitFor(/fill 1 of 4/);
       for (const k of [1, 2]) {
@@ -55,6 +59,10 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
           .filter((l) => l.includes('"reading"')),
       ).toHaveLength(2);
       t.start(`node ${BIN} fill --resume ${log}`);
+      // a resume is a new session: asked again (another member may go on with it)
+      await t.waitFor(/who fills/);
+      await t.type('KL');
+      await t.keys('Enter');
       s = await t.waitFor(/fill 3 of 4/);
       expect(s).toContain('resumed: 2 of 4');
       const t3 = readTarget(s);
@@ -72,6 +80,15 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       const rep = await checkFile(log, { trials: 0, seed: 1 });
       const TORR = 101325 / 760;
       rep.readings.forEach((r, i) => expect(Math.abs(r.pressurePa / TORR - typed[i])).toBeLessThan(1e-9));
+      // who read each: the first session's operator, then the resumed one's
+      expect(
+        readFileSync(log, 'utf8')
+          .trim()
+          .split('\n')
+          .map((l) => JSON.parse(l) as { kind: string; by?: string })
+          .filter((e) => e.kind === 'reading')
+          .map((e) => e.by),
+      ).toEqual(['JD', 'JD', 'KL', 'KL']);
       expect(rep.verdict.verdict).not.toBe('fail');
       expect(Math.abs(rep.result.composition.CH4.value / (0.02 / 3) - 1)).toBeLessThan(0.005);
     } finally {

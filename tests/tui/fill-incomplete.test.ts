@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { headerFromPlan } from '../../src/io/check.js';
+import { checkLog, headerFromPlan } from '../../src/io/check.js';
+import { checkOutcomes } from '../../src/report/check-outcome.js';
 import { parseLog, type NewLogEvent, type LogHeader } from '../../src/io/batch-log.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
@@ -34,9 +35,15 @@ describe('a fill read below its band (incomplete)', () => {
     expect(low.effects.map((e) => e.kind)).toEqual(['reading']);
     expect(low.phase).toBe('below');
     expect(low.current).toBe(2);
-    expect(low.message).toMatch(/BELOW the target 480\.810 Torr of fill 2 \(Ar, charge 1 of 2\)/);
+    expect(low.message).toMatch(
+      /^fill 2 \(Ar, charge 1 of 2\) logged: .*BELOW the target 480\.810 Torr by more/,
+    );
     expect(low.message).toMatch(/the fill is incomplete/);
-    expect(low.message).toMatch(/DANGER detonable-state \(fill 3\)/);
+    // every way on is reviewed: continuing passes nothing new, going on passes the detonable state, the
+    // tank now (CH4 in Ar, no oxidizer) holds no hazard
+    expect(low.belowWays!.continuing).toEqual({ toPa: expect.closeTo(480.81 * TORR, 3), still: [] });
+    expect(low.belowWays!.goingOn.map((z) => z.key)).toContain('detonable-state@3');
+    expect(low.belowWays!.tankNow).toEqual([]);
     // close is the last fill's
     expect(read(below, 'close JD').error).toMatch(/not the last fill/);
   });
@@ -52,7 +59,7 @@ describe('a fill read below its band (incomplete)', () => {
   });
 
   it('next: the review offers continuing the fill, never "no safer stop"; safer points to it; a reading continues it', () => {
-    const rv = read(below, 'next');
+    const rv = read(below, 'next JD');
     expect(rv.phase).toBe('review');
     expect(rv.review!.hazards.map((x) => x.key)).toContain('detonable-state@3');
     expect(rv.review!.continuation).toMatchObject({ step: 2, clean: true, sourceId: 'cyl-Ar' });
@@ -89,5 +96,86 @@ describe('a fill read below its band (incomplete)', () => {
     ]);
     expect(done.phase).toBe('reading');
     expect(done.current).toBe(2);
+  });
+
+  it('stop INITIALS: the batch is closed here (logged, incomplete) and says what the review found in the tank', () => {
+    expect(read(below, 'stop').effects).toEqual([]);
+    const st = read(below, 'stop JD');
+    expect(st.phase).toBe('ended');
+    expect(st.effects).toEqual([
+      expect.objectContaining({
+        kind: 'close',
+        note: expect.stringMatching(
+          /^stopped by JD with fill 2 \(Ar, charge 1 of 2\) below its band at 150 Torr .*fills 3, 4 not made/,
+        ),
+      }),
+    ]);
+    expect(st.message).toMatch(
+      /INCOMPLETE \(not a pass\); the review finds no flammable, detonable or danger state/,
+    );
+  });
+
+  describe('next INITIALS: going on from the short reading is a logged choice', () => {
+    const next = read(below, 'next JD');
+    const ack = next.effects[0];
+
+    it('bare next is refused (nothing logged); next JD logs the reading left, its target and band', () => {
+      const bare = read(below, 'next');
+      expect(bare.effects).toEqual([]);
+      expect(bare.phase).toBe('below');
+      expect(bare.error).toMatch(/type next and your initials \(e\.g\. next AB\)/);
+      expect(next.effects).toEqual([
+        expect.objectContaining({
+          kind: 'acknowledge',
+          code: 'went-on-below-band',
+          step: 2,
+          by: 'JD',
+          time: NOW,
+        }),
+      ]);
+      // the reading in force and the target of fill 2 then (the plan's 480.81 Torr, the split stop)
+      expect(ack.kind === 'acknowledge' && ack.below!.pressure_Pa / TORR).toBeCloseTo(150, 9);
+      expect(ack.kind === 'acknowledge' && ack.below!.target_Pa / TORR).toBeCloseTo(480.81, 6);
+    });
+
+    // the log as written: CH4 (line 2), the short Ar (line 3), the choice to go on (line 4)
+    const all = [...read(s0, '10.013').effects, ...low.effects, ...next.effects];
+    const log = parseLog(logText(h, all), 'x.jsonl');
+
+    it('resumed after it: the below screen does not come back; the review of going on does', () => {
+      const r = initialState(setupFromHeader(h), log, NOW);
+      expect(r.phase).toBe('review');
+      expect(r.current).toBe(2);
+      expect(r.review!.hazards.map((x) => x.key)).toContain('detonable-state@3');
+      // a further reading of fill 2 after the choice (still short) brings the below screen back
+      const more = [
+        ...all,
+        {
+          ...low.effects[0],
+          kind: 'correction',
+          pressure_Pa: 300 * TORR,
+          reading: '300 Torr',
+          by: 'JD',
+          reason: 'more gas added',
+          replaces_line: 3,
+        },
+      ];
+      const again = initialState(
+        setupFromHeader(h),
+        parseLog(logText(h, more as NewLogEvent[]), 'y.jsonl'),
+        NOW,
+      );
+      expect(again.phase).toBe('below');
+    });
+
+    it('check lists the choice (who, when, the reading and target) and is no pass: the batch is incomplete', async () => {
+      const r = await checkLog(log, { trials: 0, seed: 1 });
+      expect(r.warnings.join('\n')).toMatch(
+        /fill 2 was read below its band \(150 Torr, 150\.00 Torr absolute against its target 480\.81 Torr\): JD at 2026-12-01T01:00:00Z went on from that reading/,
+      );
+      // a choice, not an accepted hazard
+      expect(r.record?.acceptedHazards).toEqual([]);
+      expect(checkOutcomes(r)[0]).toBe('incomplete');
+    });
   });
 });

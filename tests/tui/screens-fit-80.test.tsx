@@ -1,0 +1,144 @@
+// The guided fill's screens at 80 x 24, as a lab member's terminal draws them (ink-testing-library's
+// stdout says 100 columns: set to 80 here): no row wider than 80, the frame within 24 rows, the title
+// on one row, and no wrapped row starting with a space. The screens a trial found near or past the
+// edge: a fill read below its band (with its reviewed ways on, and a refused entry), the review of the
+// remaining fills, the danger screen of a reading past the working limit, the last fill below its
+// target, and a fill screen with the plan's danger, a warning and a message of three rows or more.
+import { describe, expect, it } from 'vitest';
+import { render } from 'ink-testing-library';
+import { planFill } from '../../src/core/index.js';
+import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { headerFromPlan } from '../../src/io/check.js';
+import { FillApp } from '../../src/tui/fill-app.js';
+import { dropLeadingSpace } from '../../src/tui/para.js';
+import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { splitHeader } from '../split-plan.js';
+
+const NOW = '2026-12-01T01:00:00Z';
+/** type a line and Enter; a logged event gets its log line (as the shell reports it) */
+function read(s: FillState, text: string, line?: number): FillState {
+  const r = fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
+  return line !== undefined && r.effects.length
+    ? fillReducer(r, { type: 'logged', step: r.done.length, line })
+    : r;
+}
+
+function frame80(s: FillState): string {
+  const ui = render(<FillApp initial={s} write={() => {}} logFile="b1.jsonl" />);
+  Object.defineProperty(ui.stdout, 'columns', { get: () => 80 });
+  ui.rerender(<FillApp initial={s} write={() => {}} logFile="b1.jsonl" />);
+  const f = ui.lastFrame()!;
+  ui.unmount();
+  return f;
+}
+
+/** the frame fits 80 x 24; its first row is the whole title (what the screen is, after the batch) */
+function fits(s: FillState, title: RegExp): string {
+  const f = frame80(s);
+  const rows = f.split('\n');
+  expect(rows.length, f).toBeLessThanOrEqual(24);
+  for (const r of rows) expect(r.length, r).toBeLessThanOrEqual(80);
+  expect(rows[0], f).toMatch(title);
+  // a continuation row of wrapped text never starts with a space (indented rows start with two or more)
+  for (const r of rows) expect(r, f).not.toMatch(/^ [^ ]/);
+  return f;
+}
+
+function header(order?: string[], id = 'b1') {
+  const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
+  const req = buildPlanRequest(order ? { ...rs, recipe: { ...rs.recipe, order } } : rs);
+  return headerFromPlan(planFill(req.input), req, id, '2026-12-01T00:00:00Z');
+}
+
+describe('the fill screens fit 80 x 24', () => {
+  // the demo recipe's recommended order: CH4, Ar 1/2 (stop 480.81 Torr), O2, Ar 2/2
+  const s0 = initialState(setupFromHeader(header()));
+  const s1 = read(s0, '10.013', 2);
+  const below = read(s1, '150', 3);
+  const s3 = read(read(s1, '480.81', 3), '500.82', 4);
+
+  it('a fill read below its band: the ways on with what each review found, also with a refused entry', () => {
+    expect(below.phase).toBe('below');
+    const f = fits(below, /^mixwright fill b1 - fill 2 of 4 \(Ar, charge 1 of 2\): BELOW ITS BAND$/);
+    expect(f).toContain('The ways on, each reviewed');
+    const refused = read(below, 'next');
+    expect(refused.error).toBeDefined();
+    fits(refused, /BELOW ITS BAND$/);
+    const wrong = read(below, 'hello');
+    expect(wrong.error).toBeDefined();
+    fits(wrong, /BELOW ITS BAND$/);
+  });
+
+  it('the review of the remaining fills (after next JD), also with a refused entry', () => {
+    const rv = read(below, 'next JD', 4);
+    expect(rv.phase).toBe('review');
+    fits(rv, /^mixwright fill b1 - SAFETY REVIEW of the remaining fills$/);
+    const refused = read(rv, 'hello');
+    expect(refused.error).toBeDefined();
+    fits(refused, /SAFETY REVIEW/);
+  });
+
+  it('the review with a safer stop (Ar stop 400 Torr, CH4 read 40 % high: README), also with a refused entry', () => {
+    const rv = read(initialState(setupFromHeader(splitHeader())), '14.0179', 2);
+    expect(rv.phase).toBe('review');
+    expect(rv.review!.alternative).toBeDefined();
+    fits(rv, /^mixwright fill split-1 - SAFETY REVIEW of the remaining fills$/);
+    fits(read(rv, 'hello'), /SAFETY REVIEW/);
+  });
+
+  it('a reading past the working limit (2800 Torr at fill 4), also with a refused entry', () => {
+    const over = read(s3, '2800', 5);
+    expect(over.phase).toBe('over-limit');
+    fits(over, /^mixwright fill b1 - fill 4 of 4: DANGER - ABOVE THE WORKING LIMIT$/);
+    const refused = read(over, 'hello');
+    expect(refused.error).toBeDefined();
+    fits(refused, /ABOVE THE WORKING LIMIT$/);
+  });
+
+  it('the last fill below its target, with the composition as filled', () => {
+    const last = read(s3, '1400', 5);
+    expect(last.phase).toBe('below');
+    fits(last, /^mixwright fill b1 - fill 4 of 4 \(Ar, charge 2 of 2\): BELOW THE TARGET$/);
+  });
+
+  it('a fill screen with a message of five rows (CH4 read 40 % high: near the flammable region ahead)', () => {
+    const high = read(s0, '14.0179', 2);
+    expect(high.phase).toBe('reading');
+    expect(high.message).toMatch(/near the flammable region/);
+    fits(high, /^mixwright fill b1 /);
+  });
+
+  it("order CH4, O2, Ar: fill 2 with the plan's danger, a warning and a three-row message", () => {
+    let t = initialState(setupFromHeader(header(['CH4', 'O2', 'Ar'])));
+    t = read(t, 'accept JD', 2);
+    // CH4 read 0.1 Torr high: the re-target's message takes three rows
+    t = read(t, '10.11', 3);
+    t = fillReducer(t, { type: 'enter', now: NOW });
+    expect(t.phase).toBe('reading');
+    expect(t.current).toBe(1);
+    const f = fits(t, /^mixwright fill b1 /);
+    expect(f).toMatch(/DANGER detonable-state/);
+    expect(f).toMatch(/warning flammable-state/);
+    expect(f.split('\n').filter((r) => /^fill 1 logged|^[a-z(].*/.test(r)).length).toBeGreaterThan(0);
+    // with a refused entry the error stands in for the message and the composition
+    fits(read(t, 'hello'), /^mixwright fill b1 /);
+  });
+
+  it('a batch id too long for the title row: what the screen is goes whole on the row under it', () => {
+    const id = 'ng-surrogate-air-phi08-20261203T1627';
+    const b = read(read(initialState(setupFromHeader(header(undefined, id))), '10.013', 2), '150', 3);
+    const rows = frame80(b).split('\n');
+    expect(rows[0]).toBe(`mixwright fill ${id}`);
+    expect(rows[1]).toBe('fill 2 of 4 (Ar, charge 1 of 2): BELOW ITS BAND');
+    expect(rows.length).toBeLessThanOrEqual(24);
+  });
+});
+
+describe('wrapped text', () => {
+  it('a continuation line loses the space the wrap broke at, after any colour codes; the first line keeps its own', () => {
+    expect(dropLeadingSpace(' a', 1)).toBe('a');
+    expect(dropLeadingSpace('\u001b[1m a', 2)).toBe('\u001b[1ma');
+    expect(dropLeadingSpace(' a', 0)).toBe(' a');
+    expect(dropLeadingSpace('  two', 1)).toBe(' two');
+  });
+});
