@@ -134,6 +134,8 @@ const NO_PASS = [
   /not every design fraction is shown within its tolerance/gi,
   /nothing is shown within tolerance/gi,
   /a re-check that shows it within tolerance/gi,
+  // stage 2's condition on a premix, named where a premix log is not a pass
+  /takes only a premix whose re-check is a pass \(closed, within tolerance,/gi,
 ];
 /** what reads as a pass: the word itself, "would pass", a composition within its tolerance or band */
 const PASS_WORDING =
