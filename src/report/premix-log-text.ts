@@ -24,7 +24,12 @@ export function premixLogComposition(p: Use): string {
 
 /** "less 0.0802 mol drawn by batches/b.jsonl" */
 function drawsText(p: Use): string {
-  if (!p.draws.length) return 'no other batch log in its folder draws from it';
+  // draws are known only from the batch logs beside the premix log: a copied or moved log has none
+  if (!p.draws.length)
+    return (
+      'no other batch log in its folder draws from it; draws recorded by logs kept elsewhere are not ' +
+      "counted: read the premix tank's own gauge before this batch"
+    );
   const mol = p.draws.reduce((a, d) => a + d.mol, 0);
   return `less ${fixedSig(mol, 3)} mol drawn by ${p.draws.map((d) => d.log).join(', ')}`;
 }
