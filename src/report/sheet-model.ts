@@ -194,7 +194,8 @@ export function designTitle(plan: Plan, unit: PressureUnit): string {
 export function recipeTitle(plan: Plan, meta: SheetMeta): string | undefined {
   const own = meta.recipe.title;
   if (!own || !meta.overrides?.length) return own;
-  return `${designTitle(plan, meta.unit)} (planned here with ${meta.overrides.join(', ')}; the recipe's title: "${own}")`;
+  const planned = `planned here with ${meta.overrides.join(', ')}`;
+  return `${designTitle(plan, meta.unit)} (${planned}; the recipe's title: "${own}")`;
 }
 
 /** the batch-id stem of a command-line design: its gases, e.g. "ch4-o2-ar" */
