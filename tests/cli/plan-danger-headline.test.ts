@@ -59,6 +59,20 @@ describe('a plan with dangers is headlined by the danger, before the tolerance (
   });
 });
 
+describe('the Order line of a sequence that keeps the advised order on other gauges', () => {
+  it('does not compare the chosen order with itself by name (ng-blend-air: C2H6, CH4, N2+O2)', async () => {
+    const r = await runCli(['plan', 'recipes/ng-blend-air.yaml']);
+    const order = r.stdout.split('\n').find((l) => l.startsWith('Order '))!;
+    expect(order).toContain('the advised order C2H6, CH4, N2+O2, read on other gauges,');
+    expect(order).toMatch(
+      /instead of [\d.]+ % \(x\(C2H6\)\) for the same order read on the gauges first chosen/,
+    );
+    expect(order).not.toContain('for the advised order C2H6, CH4, N2+O2');
+    // the comparison it names is the sequence-chosen note's, which is printed
+    expect(r.stdout).toMatch(/note {4}sequence-chosen \(fill 1\): /);
+  });
+});
+
 describe('the fill sheet heads with the same lines, and its title is not the stale recipe title', () => {
   it('txt, md, html: the DANGER headline of the plan, then CANNOT MEET, above the design; a title from the plan', async () => {
     const plan = (await runCli(['plan', RECIPE, ...OVER])).stdout.split('\n');
