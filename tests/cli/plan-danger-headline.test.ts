@@ -37,7 +37,15 @@ describe('a plan with dangers is headlined by the danger, before the tolerance (
     expect(r.code).toBe(0);
     expect(r.stdout).not.toContain('DANGER');
     expect(r.stdout.split('\n')[1]).toMatch(/^CANNOT MEET ITS TOLERANCE/);
-    expect(JSON.parse((await runCli(['plan', RECIPE, '--json'])).stdout).dangers).toBe(0);
+    const json = JSON.parse((await runCli(['plan', RECIPE, '--json'])).stdout);
+    expect(json.dangers).toBe(0);
+    // phi and the dilution are shown, not judged: no tolerance in the text ("-"), null in the JSON
+    const rows: { name: string; kind: string; tolerance: number | null; within_tolerance: boolean | null }[] =
+      json.predicted.rows;
+    expect(r.stdout).toMatch(/^ {2}phi +[\d.]+ +[\d.]+ +[\d.]+ % +- {2}/m);
+    for (const row of rows.filter((x) => x.kind !== 'fraction'))
+      expect([row.name, row.tolerance, row.within_tolerance]).toEqual([row.name, null, null]);
+    expect(rows.find((x) => x.name === 'O2')!.within_tolerance).toBe(false);
   });
 
   it('a given order under a danger is not neutral: the Order line counts its dangers and names the advised order', async () => {
