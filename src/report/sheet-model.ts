@@ -423,7 +423,8 @@ function bandText(
   dec: number,
 ): string {
   if (inward && inward.low !== inward.high) return `${inward.low} - ${inward.high}`;
-  const finer = `+-${fixedSig(fromPa(bandPa, unit), 2)}: finer than the display step ${fromPa(stepPa, unit).toFixed(dec)}`;
+  const step = fromPa(stepPa, unit).toFixed(dec);
+  const finer = `+-${fixedSig(fromPa(bandPa, unit), 2)}: finer than the display step ${step}`;
   return inward ? `${finer}; only ${inward.low} reads inside it` : finer;
 }
 

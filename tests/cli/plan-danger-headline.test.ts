@@ -90,6 +90,11 @@ describe('the fill sheet heads with the same lines, and its title is not the sta
     expect(t).toContain(`*** ${plan[1]} ***`);
     expect(t.indexOf('*** CANNOT MEET ITS TOLERANCE (x(O2))')).toBeGreaterThan(t.indexOf(plan[1]));
     expect(t.indexOf('*** CANNOT MEET ITS TOLERANCE')).toBeLessThan(t.indexOf('\nDESIGN'));
+    // fill 2's band (+-0.0039 psi) holds one display value of the 0.01 psi step: no zero-width "low-high"
+    expect(t).toMatch(
+      /^ {2}2 .* {2}\+-0\.0039: finer than the display step 0\.01; only 42\.54 reads inside it /m,
+    );
+    expect(t).not.toMatch(/(\d+\.\d+)-\1 /);
     // the recipe says 1500 Torr; planned here at 3000 Torr: the title says what is planned
     const title = t.split('\n')[1];
     expect(title).toMatch(/^FILL SHEET {2}CH4\/O2 phi 1 in 98 % Ar, 3000 Torr in MT-1 \(planned here with /);
