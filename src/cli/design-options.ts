@@ -329,3 +329,16 @@ export function mergeOptions(base: RecipeSource | undefined, o: DesignValues): R
   const recipe: RecipeFile = validateRecipeObject(r, origin, locate);
   return { recipe, locate, baseDir: base?.baseDir ?? process.cwd(), origin };
 }
+
+/** recipe fields a recipe's title may state: the mixture, the tank, the final state, the batch size */
+const TITLE_FIELDS = /^(mixture\..+|volume|tank|pressure|temperature|experiments\.count)$/;
+
+/**
+ * the options given that override a field a recipe's title may state, as typed ("--pressure 3000 Torr"):
+ * the sheet then does not print the recipe's title as its own
+ */
+export function titleOverrides(o: DesignValues): string[] {
+  return DESIGN_OPTIONS.filter((d) => d.recipe && TITLE_FIELDS.test(d.recipe) && given(o, d)).map(
+    (d) => `${optionName(d)} ${o[attributeOf(d)]!}`,
+  );
+}

@@ -1,5 +1,11 @@
 /** plan --json: one object, SI units in the key names (the contract other tools read). */
-import { describeFinding, STANDING_CAUTION, type Plan, type PlanStep } from '../core/index.js';
+import {
+  allStageFindings,
+  describeFinding,
+  STANDING_CAUTION,
+  type Plan,
+  type PlanStep,
+} from '../core/index.js';
 import { pressure } from './format.js';
 import { withJsonKeys } from './json-keys.js';
 import type { PressureUnit } from './units.js';
@@ -180,6 +186,8 @@ export function planToJson(plan: Plan, meta: PlanMeta, unit: PressureUnit = 'Tor
     predicted: predictedJson(plan),
     two_stage: twoStageJson(plan, meta, unit, planToJson),
     premix_log: premixLogJson(plan),
+    // how many danger findings stand, a two-stage plan's premix's included (the DANGER headline; exit 3 when > 0)
+    dangers: allStageFindings(plan).filter((f) => f.severity === 'danger').length,
     // a finding's numbers keep their names, in the JSON key style (uncertaintyPa -> uncertainty_Pa)
     findings: plan.findings.map((f) => ({
       ...(withJsonKeys(f) as object),

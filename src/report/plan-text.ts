@@ -7,6 +7,7 @@ import { predictedLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit } from './charges.js';
 import { twoStageDeliveryLines, twoStageHead } from './two-stage-text.js';
 import { premixLogLines } from './premix-log-text.js';
+import { dangerHeadline, toleranceHeadline } from './headlines.js';
 
 function formatFractions(x: Readonly<Record<string, number>>): string {
   return Object.entries(x)
@@ -80,6 +81,27 @@ function barometerLine(plan: Plan, meta: PlanMeta): string[] {
   ];
 }
 
+/**
+ * The order line. A given order under a danger is not neutral: it says how many DANGER findings
+ * the plan has as given, and the order the review advises where it advises one (safer-order).
+ */
+function orderLine(plan: Plan, meta: PlanMeta): string {
+  const recommended = meta.orderRecommended ? 'recommended: ' : '';
+  const dangers = dangerCount(plan);
+  const safer = plan.findings.find(
+    (f): f is Extract<Finding, { code: 'safer-order' }> => f.code === 'safer-order' && !f.of,
+  );
+  const given =
+    !meta.orderRecommended && dangers
+      ? `; the plan in this given order has ${dangers} DANGER finding${dangers > 1 ? 's' : ''} ` +
+        `(see the findings)${safer ? `; the advised order: ${safer.order.join(' -> ')} (safer-order)` : ''}`
+      : '';
+  return (
+    `Order       ${plan.steps.map((s) => chargeShort(s.species, s.charge)).join(' -> ')}  ` +
+    `(${recommended}${plan.orderReason}${given})`
+  );
+}
+
 /** the lines above the tables: design, tank, final state, real gas, order, serves, barometer, tolerance */
 function headerLines(plan: Plan, meta: PlanMeta, unit: PressureUnit): string[] {
   const out: string[] = [];
@@ -108,11 +130,7 @@ function headerLines(plan: Plan, meta: PlanMeta, unit: PressureUnit): string[] {
       `In tank     ${P(plan.initial.pressurePa)} of ${formatFractions(plan.initial.composition)} ` +
         `(${fixedSig(plan.initial.amountMol, 5)} mol)`,
     );
-  const recommended = meta.orderRecommended ? 'recommended: ' : '';
-  out.push(
-    `Order       ${plan.steps.map((s) => chargeShort(s.species, s.charge)).join(' -> ')}  ` +
-      `(${recommended}${plan.orderReason})`,
-  );
+  out.push(orderLine(plan, meta));
   if (meta.experiments) out.push(servesLine(meta.experiments, P, dangerCount(plan)));
   out.push(...barometerLine(plan, meta));
   const absolute = plan.tolerance.absolute > 0 ? ` or ${plan.tolerance.absolute} absolute` : '';
@@ -218,38 +236,11 @@ function findingLines(plan: Plan, unit: PressureUnit): string[] {
   return out;
 }
 
-/**
- * A plan whose predicted U exceeds the tolerance of a design fraction says so under its first line:
- * which fractions, the worst one's U and its largest cause and what would reduce it (the warning's own
- * words), and for a two-stage plan whether a premix choice that meets it was passed over. The exit code
- * stays 0 (a plan produced, README "Exit codes"); `check` of such a batch can at best say NOT SHOWN
- * WITHIN TOLERANCE.
- */
-function toleranceHeadline(plan: Plan, unit: PressureUnit): string[] {
-  const over = plan.findings.filter(
-    (f): f is Extract<Finding, { code: 'predicted-u-over-tolerance' }> =>
-      f.code === 'predicted-u-over-tolerance',
-  );
-  if (!over.length) return [];
-  const worst = over.reduce((a, f) => (f.expandedU / f.tolerance > a.expandedU / a.tolerance ? f : a));
-  const t = plan.twoStage;
-  const m = t?.mostPrecise;
-  const search = !t
-    ? ''
-    : m && m.worstRatio <= 1
-      ? ` A premix choice that meets it was passed over for its warnings (${m.warnings.join(', ')}; below).`
-      : ` None of the ${t.candidates} premix choices planned without a danger meets it.`;
-  return [
-    `CANNOT MEET ITS TOLERANCE (${over.map((f) => `x(${f.species})`).join(', ')}): even readings ` +
-      'exactly at the targets leave the batch NOT SHOWN WITHIN TOLERANCE by `check` (not a pass). ' +
-      `Worst: ${describeFinding(worst, (pa) => pressure(pa, unit))}.${search}`,
-  ];
-}
-
 export function planToText(plan: Plan, meta: PlanMeta, unit: PressureUnit): string {
   const out: string[] = [...twoStageHead(plan, meta, unit, planToText), ...headerLines(plan, meta, unit)];
-  // the headline: right under the first line (the two-stage line, or the plan's own)
-  out.splice(1, 0, ...toleranceHeadline(plan, unit));
+  // the headlines: right under the first line (the two-stage line, or the plan's own), a danger first
+  const danger = dangerHeadline(plan);
+  out.splice(1, 0, ...(danger ? [danger] : []), ...toleranceHeadline(plan, unit));
   out.push(...manifoldTable(plan, unit));
   out.push('');
   out.push(...numbersTable(plan, unit));

@@ -33,8 +33,9 @@ function rowJson(r: PredictedRow) {
     u: r.stat.u,
     expanded_u: r.expandedU,
     coverage_factor: 2,
-    tolerance: r.tolerance,
-    within_tolerance: r.within,
+    // the tolerance is set for the mole fractions: phi and the dilution are shown, not judged (text: "-")
+    tolerance: r.kind === 'fraction' ? r.tolerance : null,
+    within_tolerance: r.kind === 'fraction' ? r.within : null,
     largest: r.top.map((t) => ({ name: t.name, contribution: t.contribution })),
   };
 }

@@ -26,6 +26,7 @@ import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit, siblingWords } from './charges.js';
+import { dangerHeadline, toleranceHeadline } from './headlines.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -130,7 +131,10 @@ export interface SheetModel {
   }[];
   readonly caution: string;
   readonly diagram?: { readonly triangle: string; readonly detail: string; readonly legend: string };
-  readonly hasDanger: boolean;
+  /** the plan's DANGER headline (how many, which codes and fills), when a danger stands */
+  readonly danger?: string;
+  /** the plan's CANNOT MEET ITS TOLERANCE headline, when even a fill exactly at the targets cannot be shown within */
+  readonly tolerance?: string;
   /** where a target is read on a gauge-referenced sensor: the barometric pressure it assumes and how to correct it */
   readonly barometer?: readonly string[];
 }
@@ -138,6 +142,8 @@ export interface SheetModel {
 export interface SheetMeta {
   /** the recipe's id and title (a recipe file fits as it is) */
   readonly recipe: { readonly id: string; readonly title?: string };
+  /** the options given that override a recipe field its title may state, e.g. "--pressure 3000 Torr" */
+  readonly overrides?: readonly string[];
   readonly labName: string;
   readonly orderRecommended: boolean;
   readonly unit: PressureUnit;
@@ -179,6 +185,17 @@ export function designTitle(plan: Plan, unit: PressureUnit): string {
     .sort((a, b) => b[1] - a[1])
     .map(([k, v]) => `${k} ${num(v * 100)} %`);
   return `${parts.join(', ')}, ${at}`;
+}
+
+/**
+ * the recipe's title as this sheet's: as it is, or, where an option overrode a field the title may
+ * state (pressure, tank, ...), the planned design's title with the recipe's quoted as the recipe's
+ */
+export function recipeTitle(plan: Plan, meta: SheetMeta): string | undefined {
+  const own = meta.recipe.title;
+  if (!own || !meta.overrides?.length) return own;
+  const planned = `planned here with ${meta.overrides.join(', ')}`;
+  return `${designTitle(plan, meta.unit)} (${planned}; the recipe's title: "${own}")`;
 }
 
 /** the batch-id stem of a command-line design: its gases, e.g. "ch4-o2-ar" */
@@ -393,6 +410,24 @@ function chargeNoteOf(plan: Plan, k: number, stopText: string): string {
   );
 }
 
+/**
+ * the band as printed: its inward-rounded ends, or, where no two display steps fit in it, its
+ * half-width said to be finer than the display step (and the one reading inside it, where there is
+ * one: a band "42.54 - 42.54" would read as a band of zero width)
+ */
+function bandText(
+  inward: ReturnType<typeof inwardBand>,
+  bandPa: number,
+  stepPa: number,
+  unit: PressureUnit,
+  dec: number,
+): string {
+  if (inward && inward.low !== inward.high) return `${inward.low} - ${inward.high}`;
+  const step = fromPa(stepPa, unit).toFixed(dec);
+  const finer = `+-${fixedSig(fromPa(bandPa, unit), 2)}: finer than the display step ${step}`;
+  return inward ? `${finer}; only ${inward.low} reads inside it` : finer;
+}
+
 /** one fill: the target and its band in the gauge's own unit */
 function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
@@ -413,10 +448,7 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
     target: fromPa(reading, gu).toFixed(dec),
     low,
     high,
-    band: !inward
-      ? `+-${fixedSig(fromPa(band, gu), 2)}: finer than the display step ` +
-        fromPa(s.gauge?.resolutionPa ?? 0, gu).toFixed(dec)
-      : `${low} - ${high}`,
+    band: bandText(inward, band, s.gauge?.resolutionPa ?? 0, gu, dec),
     unit: gu,
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),
@@ -447,7 +479,8 @@ function designLabel(plan: Plan, meta: SheetMeta, batchId: string): string[] {
       .join(', ')}`,
     `phi ${d.phi === undefined ? 'n/a' : d.phi.toFixed(3)}; ${pressure(plan.final.pressurePa, meta.unit, 6)} ` +
       `abs; filled ________ by ________`,
-    're-check verdict: pass / not shown within / FAIL (circle one) ________',
+    // the verdict is check's printed one (it has more outcomes than a person would circle), copied as printed
+    're-check verdict (copy as printed by `mixwright check` of the log): ____________________',
     plan.findings.some((f) => f.code === 'flammable-mixture')
       ? 'FLAMMABLE GAS MIXTURE'
       : 'check the findings before use',
@@ -505,7 +538,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   const inline = meta.recipe.id === 'inline' && !meta.recipe.title;
   const batchId = meta.batchId ?? `${inline ? designSlug(plan) : meta.recipe.id}-${today}`;
   return {
-    title: meta.recipe.title ?? (inline ? designTitle(plan, meta.unit) : meta.recipe.id),
+    title: recipeTitle(plan, meta) ?? (inline ? designTitle(plan, meta.unit) : meta.recipe.id),
     batchId,
     recipeId: inline ? 'none (design from the command line)' : meta.recipe.id,
     labName: meta.labName,
@@ -520,7 +553,8 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     findings: sheetFindings(plan, meta),
     caution: STANDING_CAUTION,
     diagram: sheetDiagram(plan),
-    hasDanger: plan.findings.some((f) => f.severity === 'danger'),
+    danger: dangerHeadline(plan),
+    tolerance: toleranceHeadline(plan, meta.unit, true)[0],
     barometer: barometerLines(plan, meta),
   };
 }

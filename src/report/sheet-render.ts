@@ -23,6 +23,7 @@ const CSS = (paper: 'a4' | 'letter') =>
     `.meta { display: flex; gap: 6mm; font-size: 10pt; margin-bottom: 2mm; }`,
     `.field { flex: 1; border-bottom: 1px solid #000; min-height: 6mm; }`,
     `.danger { border: 2.5px solid #000; padding: 2mm 3mm; font-weight: bold; margin: 2mm 0; }`,
+    `.headline { border: 1.5px solid #000; padding: 1.2mm 3mm; font-size: 9.5pt; margin: 2mm 0; }`,
     `.cols { display: flex; gap: 6mm; }`,
     `.cols > div { flex: 1; }`,
     `table { border-collapse: collapse; width: 100%; }`,
@@ -145,12 +146,8 @@ export function sheetToHtml(m: SheetModel): string {
     `<div class="meta"><div>Batch <b>${esc(m.batchId)}</b></div><div>Lab: ${esc(m.labName)}</div>` + `</div>`,
     `<div class="meta"><div class="field">Date:</div><div class="field">Operator:</div><div ` +
       `class="field">Checked by:</div></div>`,
-    `${
-      m.hasDanger
-        ? '<div class="danger">DANGER findings stand (see below). Do not fill until ' +
-          'each is resolved or formally accepted.</div>'
-        : ''
-    }`,
+    `${m.danger ? `<div class="danger">${esc(m.danger)}</div>` : ''}` +
+      `${m.tolerance ? `<div class="headline">${esc(m.tolerance)}</div>` : ''}`,
     `<div class="cols"><div><h2>Design</h2>${kv(m.design)}</div><div><h2>Composition (mole ` +
       `fraction)</h2>${kv(m.composition)}</div></div>`,
     `<section class="block"><h2>Before filling</h2>`,
@@ -187,11 +184,8 @@ export function sheetToMarkdown(m: SheetModel): string {
     'Date: ________  Operator: ________  Checked by: ________',
     '',
   );
-  if (m.hasDanger)
-    out.push(
-      '> **DANGER findings stand (see below). Do not fill until each is resolved or formally accepted.**',
-      '',
-    );
+  if (m.danger) out.push(`> **${m.danger}**`, '');
+  if (m.tolerance) out.push(`> **${m.tolerance}**`, '');
   out.push(
     '## Design',
     '',
@@ -272,11 +266,8 @@ export function sheetToText(m: SheetModel): string {
     rule,
     '',
   );
-  if (m.hasDanger)
-    out.push(
-      '*** DANGER findings stand (see below). Do not fill until each is resolved or formally accepted. ***',
-      '',
-    );
+  if (m.danger) out.push(`*** ${m.danger} ***`, '');
+  if (m.tolerance) out.push(`*** ${m.tolerance} ***`, '');
   out.push('DESIGN');
   for (const [k, v] of m.design) {
     const [first, ...more] = v.split('\n');

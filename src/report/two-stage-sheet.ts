@@ -19,7 +19,13 @@ import {
   type PremixDeliveryCheck,
 } from '../core/index.js';
 import { decimalsFor, fixedSig, pressure, tankName } from './format.js';
-import type { SheetCheck, SheetLab, SheetMeta, SheetModel } from './sheet-model.js';
+import {
+  recipeTitle,
+  type SheetCheck,
+  type SheetLab,
+  type SheetMeta,
+  type SheetModel,
+} from './sheet-model.js';
 import { premixLogFractions } from './premix-log-text.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, paPerUnit, type PressureUnit } from './units.js';
@@ -336,14 +342,20 @@ function withPremix(plan: Plan, sheet: SheetModel, meta: SheetMeta): SheetModel 
 export function stageSheets(plan: Plan, meta: SheetMeta, build: Build): SheetModel[] {
   const t = plan.twoStage;
   if (!t) return [withPremix(plan, build(plan, meta), meta)];
-  const title = meta.recipe.title ?? meta.recipe.id;
+  // the batch's title, marked where an option overrode what it states; the stage titles carry it as it is
+  const title = recipeTitle(plan, meta) ?? meta.recipe.id;
   const stage2 = withPremix(
     plan,
-    build(plan, { ...meta, recipe: { ...meta.recipe, title: `Stage 2 of 2: ${title}` } }),
+    build(plan, {
+      ...meta,
+      overrides: undefined,
+      recipe: { ...meta.recipe, title: `Stage 2 of 2: ${title}` },
+    }),
     meta,
   );
   const premixMeta: SheetMeta = {
     ...meta,
+    overrides: undefined,
     recipe: {
       id: `${meta.recipe.id}-premix`,
       title: `Stage 1 of 2: premix in ${tankName(t.premix.tank.id)} for ${title}`,

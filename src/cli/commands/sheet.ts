@@ -6,7 +6,7 @@ import { joinSheets, stageSheets } from '../../report/two-stage-sheet.js';
 import { sheetToHtml, sheetToMarkdown, sheetToText } from '../../report/sheet-render.js';
 import { VERSION } from '../../version.js';
 import { EXIT, ExitSignal, type Cli } from '../context.js';
-import { addDesignOptions, type DesignValues } from '../design-options.js';
+import { addDesignOptions, titleOverrides, type DesignValues } from '../design-options.js';
 import { checkOutputTarget, emitDocument, sheetFormat } from '../output.js';
 import { planFrom, stateGaugeConversions } from '../plan-from.js';
 
@@ -28,6 +28,7 @@ async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions):
     plan,
     {
       recipe: req.recipe,
+      overrides: titleOverrides(o),
       labName: req.lab.name,
       orderRecommended: req.orderRecommended,
       unit,

@@ -126,14 +126,17 @@ export function searchReason(a: {
   if (win === base)
     return `${advice.reason}; of the ${n}, no other that is as safe predicts a smaller U (k = 2)`;
   const safety = a.clean ? CLEAN_CLAIM : comparedSafety(win, base);
-  const what =
-    win.candidate === base.candidate
-      ? `the advised order ${labels(base).join(', ')}, read on other gauges,`
-      : 'this sequence';
+  const sameOrder = win.candidate === base.candidate;
+  const what = sameOrder
+    ? `the advised order ${labels(base).join(', ')}, read on other gauges,`
+    : 'this sequence';
+  // the same order on its first gauges is not compared with itself by name
+  const against = sameOrder
+    ? 'the same order read on the gauges first chosen for it (sequence-chosen)'
+    : `the advised order ${labels(base).join(', ')}`;
   return (
     `${what} has the smallest predicted U (k = 2) of the ${n}, worst ` +
     `${relPct(win.worst!.relative)} (${quantity(win.worst!.name)}) instead of ` +
-    `${relPct(base.worst!.relative)} (${quantity(base.worst!.name)}) for the advised order ` +
-    `${labels(base).join(', ')}; ${safety}`
+    `${relPct(base.worst!.relative)} (${quantity(base.worst!.name)}) for ${against}; ${safety}`
   );
 }
