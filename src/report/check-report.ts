@@ -55,7 +55,9 @@ export function verdictWord(r: CheckReport): string {
   const words: Record<string, string> = {
     // a composition within tolerance is a pass only when nothing in the record stands against it
     pass: checkOutcomes(r).length ? 'NOT A PASS (the composition is within tolerance)' : 'PASS',
-    'pass-uncertain': 'NOT SHOWN WITHIN TOLERANCE - not a pass',
+    'pass-uncertain': pastRangeSpecies(r).length
+      ? 'NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range) - not a pass'
+      : 'NOT SHOWN WITHIN TOLERANCE - not a pass',
     fail: 'FAIL - out of tolerance',
     'no-design': 'NO DESIGN to compare with - not a pass',
   };
@@ -198,7 +200,15 @@ function compositionTable(r: CheckReport, order: Ordered): string[] {
       d ? fixedSig(d.design, 6) : '-',
       d ? fixedSig(d.deviation, 2) : '-',
       d ? `+-${fixedSig(d.tolerance, 2)}` : '-',
-      d ? (d.provenWithin ? 'ok' : d.within ? 'ok?' : 'OUT') : '',
+      d
+        ? d.pastRange?.length
+          ? `NOT SHOWN (line ${d.pastRange.join(', ')}: past gauge range)`
+          : d.provenWithin
+            ? 'ok'
+            : d.within
+              ? 'ok?'
+              : 'OUT'
+        : '',
     ]);
   }
   return padTable(rows, [false, true, true, true, true, false, true, true, true, false]);
@@ -326,6 +336,44 @@ const STANDING_TEXT: Record<string, string> = {
   'no-design': 'there is no design to compare them with',
 };
 
+/** the readings past their gauge's range the composition rests on: "line 5 (head-1kT)" */
+function pastRangeList(r: CheckReport): string {
+  return (r.verdict.pastRange ?? []).map((p) => `line ${p.line}, ${p.gauge}`).join('; ');
+}
+
+/** the design fractions that rest on a reading past its gauge's range (never shown within tolerance) */
+function pastRangeSpecies(r: CheckReport): string[] {
+  return r.verdict.deviations.filter((d) => d.pastRange?.length).map((d) => d.species);
+}
+
+/** beside words of the numbers alone: the readings past their gauge's range they rest on */
+function pastRangeNote(r: CheckReport): string {
+  return r.verdict.pastRange?.length
+    ? ` (resting on ${pastRangeList(r)}, past its gauge's range: not trustworthy)`
+    : '';
+}
+
+/**
+ * the composition's words where it rests on a reading past its gauge's range: a fraction that depends
+ * on it is not shown within tolerance whatever the numbers give; undefined where none does
+ */
+function pastRangeText(r: CheckReport): string | undefined {
+  if (!r.verdict.pastRange?.length) return undefined;
+  const list = pastRangeList(r);
+  const species = pastRangeSpecies(r);
+  const one = r.verdict.pastRange.length === 1;
+  const rests =
+    `the composition rests on ${one ? 'a reading' : 'readings'} past ${one ? 'its gauge' : 'their gauges'}'s ` +
+    `range (${list}), which ${one ? 'is' : 'are'} not trustworthy`;
+  if (r.verdict.verdict === 'pass-uncertain' && species.length)
+    return (
+      `NOT SHOWN WITHIN TOLERANCE - ${rests}: ${species.join(', ')} ${species.length === 1 ? 'is' : 'are'} ` +
+      `not shown within tolerance, whatever the numbers give; re-read the tank on a gauge whose range ` +
+      `covers its pressure: this is not a pass`
+    );
+  return `${VERDICT_TEXT[r.verdict.verdict] ?? r.verdict.verdict} - ${rests}`;
+}
+
 /** the verdict in words, marked by what the record says of it */
 function verdictText(r: CheckReport): string {
   if (r.incomplete.length)
@@ -361,7 +409,7 @@ function verdictText(r: CheckReport): string {
     return (
       `RECORD ALTERED AFTER WRITING (${linesText(altered)}) - not a pass: the record was changed ` +
       `after it was written, so the log is no proof of what the tank holds; on the numbers as they stand ` +
-      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}. Restore the log as it was written ` +
+      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}${pastRangeNote(r)}. Restore the log as it was written ` +
       `(a backup), or re-measure the tank before it is used` +
       closed +
       unacked +
@@ -373,7 +421,7 @@ function verdictText(r: CheckReport): string {
     r.verdict.verdict === 'pass' && checkOutcomes(r).length
       ? 'NOT A PASS - the composition alone is within tolerance (every design fraction, uncertainty ' +
         `included), ${COMPOSITION_ALONE_NOT_USABLE}: what follows stands against it`
-      : VERDICT_TEXT[r.verdict.verdict];
+      : (pastRangeText(r) ?? VERDICT_TEXT[r.verdict.verdict]);
   return (
     composition +
     (altered.length
@@ -677,6 +725,13 @@ function verdictJson(r: CheckReport) {
       expanded_u: d.expandedU,
       within: d.within,
       proven_within: d.provenWithin,
+      // the lines of the readings past their gauge's range this fraction rests on: never proven within then
+      past_gauge_range_lines: d.pastRange ?? [],
+    })),
+    readings_past_gauge_range: (r.verdict.pastRange ?? []).map((p) => ({
+      line: p.line,
+      step: p.step,
+      gauge: p.gauge,
     })),
     verdict: overallVerdict(r),
     composition_verdict: r.verdict.verdict,
@@ -814,7 +869,10 @@ const NUMBERS_ALONE: Readonly<Record<string, string>> = {
  */
 function compositionCell(r: CheckReport): string {
   if (r.verdict.verdict === 'no-design') return 'no design - not a pass';
-  if (r.verdict.verdict === 'pass-uncertain') return 'not shown within tolerance - not a pass';
+  if (r.verdict.verdict === 'pass-uncertain')
+    return pastRangeSpecies(r).length
+      ? 'not shown within tolerance (a reading past its gauge range) - not a pass'
+      : 'not shown within tolerance - not a pass';
   if (r.verdict.verdict === 'pass' && checkOutcomes(r).length)
     return `NOT A PASS (composition alone within tolerance, ${COMPOSITION_ALONE_NOT_USABLE})`;
   return r.verdict.verdict;
@@ -843,7 +901,7 @@ export function folderSummary(
       stageCell(rep),
       (alteredLeads(rep)
         ? `RECORD ALTERED AFTER WRITING (${linesText(rep.record?.alteredLines ?? [])}) - not a pass; ` +
-          `the numbers alone: ${NUMBERS_ALONE[rep.verdict.verdict] ?? rep.verdict.verdict}`
+          `the numbers alone: ${NUMBERS_ALONE[rep.verdict.verdict] ?? rep.verdict.verdict}${pastRangeNote(rep)}`
         : rep.incomplete.length
           ? 'incomplete'
           : compositionCell(rep)) +
