@@ -454,6 +454,22 @@ export function orderDifference(f: {
   return f.order.join('\n') === f.plannedOrder.join('\n') ? undefined : 'charges';
 }
 
+/** whether the record has no limit of its tank to check the readings against (no DANGER means nothing then) */
+function limitsUnchecked(r: CheckReport): boolean {
+  return r.tank?.limitPa === undefined && r.tank?.ratedPa === undefined;
+}
+
+/** what was done with the readings against the tank's working limit, beside the review of the fill */
+function limitWords(r: CheckReport): string {
+  if (r.tank?.limitPa === undefined)
+    return `the readings were NOT checked against a tank's working limit: ${
+      r.tank ? `tank ${r.tank.id} has none on record` : 'the tank is not known'
+    }`;
+  return r.findings.some((x) => x.code === 'above-working-limit')
+    ? "the readings against the tank's working limit are judged with the record above"
+    : "no reading went past the tank's working limit";
+}
+
 /** the temperatures the recorded fill was reviewed at, in words */
 function reviewedAt(f: RecordedFill): string {
   const { coldestK, warmestK } = f.temperatures;
@@ -489,7 +505,7 @@ function recordedFillLines(r: CheckReport): string[] {
   if (!f.findings.length)
     out.push(
       '  the review finds no danger and no warning of the gas on the recorded states and fill paths (of the ' +
-        "hazards it checks; the readings against the tank's working limit are judged with the record above)",
+        `hazards it checks; ${limitWords(r)})`,
     );
   if (f.notes.length) out.push(`  notes: ${f.notes.join(', ')}`);
   for (const x of f.findings)
@@ -518,7 +534,8 @@ function verdictLines(r: CheckReport): string[] {
   }
   out.push(...recordedFillLines(r));
   out.push('');
-  out.push(`Verdict     ${verdictText(r)}`);
+  // no DANGER must not read as "within the tank's limits" where there were none to check against
+  out.push(`Verdict     ${verdictText(r)}${limitsUnchecked(r) ? ' - tank limits NOT checked' : ''}`);
   for (const c of r.caveats) out.push(`            ${c}`);
   return out;
 }
@@ -894,7 +911,7 @@ export function folderSummary(
     );
     const danger = rep.findings.some((f) => f.severity === 'danger');
     // no DANGER must not read as "within the tank's limits" where the record has no limits to check against
-    const unchecked = rep.tank?.limitPa === undefined && rep.tank?.ratedPa === undefined;
+    const unchecked = limitsUnchecked(rep);
     table.push([
       r.file,
       rep.id,

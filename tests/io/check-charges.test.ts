@@ -356,6 +356,17 @@ describe('CSV readings against the tank: working limit, rating, gauge range', ()
     expect(doc.warnings.join(' ')).toContain(
       "the tank is not known (no --recipe, no --tank): the readings were NOT checked against a tank's working limit",
     );
+    // the text: the review of the fill never says the limit was judged, and the verdict line marks it
+    const t = await runCli(['check', f, '--trials', '100000']);
+    expect(t.stdout).not.toContain('judged with the record above');
+    expect(t.stdout).toContain(
+      "of the hazards it checks; the readings were NOT checked against a tank's working limit: the tank is not known)",
+    );
+    expect(t.stdout).toMatch(/^Verdict {5}NO DESIGN - not a pass: .* - tank limits NOT checked$/m);
+    // with the recipe's tank: checked, and said so
+    const k = await runCli(['check', f, '--recipe', recipe, '--trials', '100000']);
+    expect(k.stdout).not.toContain('tank limits NOT checked');
+    expect(k.stdout).not.toContain('NOT checked against');
   });
 
   it('a row on a named gauge above its full scale is a danger (as in the log audit)', async () => {
