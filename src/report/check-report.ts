@@ -409,8 +409,8 @@ function verdictText(r: CheckReport): string {
     return (
       `RECORD ALTERED AFTER WRITING (${linesText(altered)}) - not a pass: the record was changed ` +
       `after it was written, so the log is no proof of what the tank holds; on the numbers as they stand ` +
-      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}${pastRangeNote(r)}. Restore the log as it was written ` +
-      `(a backup), or re-measure the tank before it is used` +
+      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}${pastRangeNote(r)}. Restore the log as it ` +
+      `was written (a backup), or re-measure the tank before it is used` +
       closed +
       unacked +
       recorded +
