@@ -93,7 +93,8 @@ export function describePremixLogProblem(
         'to; restore the log as it was written (a backup), or re-measure the premix tank or make a new premix'
       );
     case 'not-the-premix':
-      return describeNotThePremix(at, c);
+      // a log that is no premix is not called one
+      return describeNotThePremix(c.given.is === 'premix' ? at : `${p.log} (given as the premix log)`, c);
     case 'not-a-pass':
       return describeNotAPass(at, c);
   }
@@ -108,18 +109,18 @@ function describeNotAPass(
   const one = c.hazards.length === 1;
   const what =
     c.outcome === 'plan-danger-not-acknowledged'
-      ? `PLAN DANGER NOT ACKNOWLEDGED: the premix plan's safety review found ${list} ` +
+      ? `PLAN DANGER NOT ACKNOWLEDGED: the safety review of the plan that log records found ${list} ` +
         `(${one ? 'a danger' : 'dangers'}) and the log records no acknowledgement of ${one ? 'it' : 'them'}`
       : c.outcome === 'recorded-fill-danger'
-        ? `DANGER IN THE RECORDED FILL: the safety review of the premix fill as recorded finds ${list} ` +
+        ? `DANGER IN THE RECORDED FILL: the safety review of the fill as that log records it finds ${list} ` +
           `(${one ? 'a danger' : 'dangers'}), not shown accepted`
-        : `ACCEPTED HAZARD: the premix fill went on through ${list}` +
+        : `ACCEPTED HAZARD: the fill that log records went on through ${list}` +
           `${c.by?.length ? `, accepted by ${c.by.join(', ')}` : ''} at the manifold`;
   return (
     `${at} is not a pass (${what}): its composition may be within tolerance, but its record says the ` +
-    'premix tank went through states reviewed as dangerous, and `mixwright check` of that log gives no pass ' +
-    '(exit 6); a batch is filled only from a premix whose re-check is a pass. Have the premix fill and ' +
-    'tank reviewed under local practice (see `mixwright check` on that log), then make a new premix ' +
+    'tank it records went through states reviewed as dangerous, and `mixwright check` of that log gives ' +
+    'no pass (exit 6); a batch is filled only from a premix whose re-check is a pass. Have that fill and ' +
+    'its tank reviewed under local practice (see `mixwright check` on that log), then make a new premix ' +
     '(plan it again: its plan says how to fill without the hazard), or fill the batch in one tank'
   );
 }
@@ -138,14 +139,19 @@ function describeNotThePremix(
         ? `the log of batch ${g.id}, filled in tank ${g.tank} from a premix (stage 2${stage}): a ` +
           'batch, not a premix'
         : `the log of ${g.id}, a single-tank fill in tank ${g.tank} (its header records no stage)`;
+  const tank = c.row.tank;
   const needed =
-    `${c.row.file} line ${c.row.line} names ${c.row.name}, the premix filled in tank ${c.row.tank}` +
-    (c.row.tankKnown ? '' : ` (the lab profile lists no tank ${c.row.tank}: check the name)`) +
-    `, so --premix-log must be the log of that premix (the stage-1 log of tank ${c.row.tank})`;
+    tank === undefined
+      ? `${c.row.file} line ${c.row.line} names ${c.row.name}, a premix fill by its gases, so --premix-log ` +
+        `must be the log of the premix that gas came from (its stage-1 log)`
+      : `${c.row.file} line ${c.row.line} names ${c.row.name}, the premix filled in tank ${tank}` +
+        (c.row.tankKnown ? '' : ` (the lab profile lists no tank ${tank}: check the name)`) +
+        `, so --premix-log must be the log of that premix (the stage-1 log of tank ${tank})`;
   const todo = g.premixLog
-    ? `give --premix-log ${g.premixLog}, the premix log that batch was filled from`
-    : `give the stage-1 log of tank ${c.row.tank} (the guided fill wrote it as batches/<batch>-premix.jsonl)` +
-      (g.is === 'premix'
+    ? `give --premix-log ${g.premixLog}, the premix log that batch was filled from (the batch log records it)`
+    : `give the stage-1 log of ${tank === undefined ? 'the premix tank' : `tank ${tank}`} (the guided fill ` +
+      `wrote it as batches/<batch>-premix.jsonl)` +
+      (g.is === 'premix' && tank !== undefined
         ? `, or, if the gas of that row came from tank ${g.tank}, name it premix-${g.tank}`
         : '');
   return `${at} is ${is}; ${needed} - ${todo}`;

@@ -420,14 +420,14 @@ export type PremixLogCause =
   | {
       readonly kind: 'not-the-premix';
       /**
-       * the row that names the premix (`premix-MT-2`), its file and line, the tank it names and
-       * whether the lab profile lists it
+       * the row that names the premix (`premix-MT-2`, or its gases: `Ar+O2`), its file and line, the
+       * tank it names (none for a row named by its gases) and whether the lab profile lists it
        */
       readonly row: {
         readonly name: string;
         readonly file: string;
         readonly line: number;
-        readonly tank: string;
+        readonly tank?: string;
         readonly tankKnown: boolean;
       };
       /** what the log given is */

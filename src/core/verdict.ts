@@ -21,6 +21,16 @@ export interface SpeciesDeviation {
   readonly expandedU: number;
   readonly within: boolean;
   readonly provenWithin: boolean;
+  /** the lines of the readings past their gauge's full scale this fraction rests on (never proven within then) */
+  readonly pastRange?: readonly number[];
+}
+
+/** a reading the composition is computed from that went past its gauge's full scale: not trustworthy */
+export interface ReadingPastRange {
+  /** the fill it ends (null: the starting pressure of a top-up) */
+  readonly step: number | null;
+  readonly line: number;
+  readonly gauge: string;
 }
 
 export interface CheckVerdict {
@@ -28,6 +38,8 @@ export interface CheckVerdict {
   readonly deviations: readonly SpeciesDeviation[];
   readonly phiDeviation?: number;
   readonly diluentDeviation?: number;
+  /** the readings past their gauge's range the composition rests on (absent or empty: none) */
+  readonly pastRange?: readonly ReadingPastRange[];
 }
 
 export function judge(result: UncertaintyResult, design: Design | undefined, tol: Tolerance): CheckVerdict {
@@ -64,4 +76,40 @@ export function judge(result: UncertaintyResult, design: Design | undefined, tol
       ? result.diluentFraction.value - design.diluentFraction
       : undefined,
   };
+}
+
+/**
+ * The verdict with the readings past their gauge's full scale marked: a reading beyond the range of
+ * its gauge is not trustworthy, so no fraction that depends on it is shown within tolerance, whatever
+ * the numbers give. Fill k's reading sets the amounts of fill k and fill k + 1 (each the difference of
+ * two readings), so the fractions of the gases of those two fills depend on it; the last reading (the
+ * total) and the starting pressure of a top-up (`step` null) concern every fraction. A composition
+ * that was within tolerance becomes `pass-uncertain` (not shown within tolerance); a fail stays one.
+ */
+export function withReadingsPastRange(
+  v: CheckVerdict,
+  fills: readonly {
+    readonly step: number;
+    readonly source: { readonly composition: Record<string, number> };
+  }[],
+  past: readonly ReadingPastRange[],
+): CheckVerdict {
+  if (!past.length) return v;
+  const gasesOf = (i: number) =>
+    Object.entries(fills[i]?.source.composition ?? {})
+      .filter(([, x]) => x > 0)
+      .map(([k]) => k);
+  const linesOf = new Map<string, number[]>();
+  for (const p of past) {
+    const k = p.step === null ? -1 : fills.findIndex((f) => f.step === p.step);
+    const every = k < 0 || k === fills.length - 1;
+    const gases = new Set(every ? v.deviations.map((d) => d.species) : [...gasesOf(k), ...gasesOf(k + 1)]);
+    for (const g of gases) linesOf.set(g, [...(linesOf.get(g) ?? []), p.line]);
+  }
+  const deviations = v.deviations.map((d) => {
+    const lines = linesOf.get(d.species);
+    return lines ? { ...d, provenWithin: false, pastRange: lines } : d;
+  });
+  const verdict = v.verdict === 'pass' && deviations.some((d) => d.pastRange) ? 'pass-uncertain' : v.verdict;
+  return { ...v, verdict, deviations, pastRange: past };
 }

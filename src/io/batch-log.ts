@@ -701,7 +701,8 @@ export interface ParsedLog {
   readonly barometer?: LogBarometer & { readonly line: number };
   /** the starting pressure of a top-up, if logged */
   readonly start?: LogStartPressure & { readonly line: number };
-  readonly acknowledgements: readonly LogAck[];
+  /** the acknowledgements, in file order, each with its line number */
+  readonly acknowledgements: readonly (LogAck & { readonly line: number })[];
   /** the vents of the tank, in file order (a guided fill logs at most one; older logs none) */
   readonly vents: readonly VentRecord[];
   /** stage 2: the premix confirmed mixed, and the premix tank's readings before drawing from it, in file order */
@@ -745,7 +746,7 @@ interface ReaderState {
   byStep: Map<number, InForceReading>;
   all: InForceReading[];
   amendments: Amendment[];
-  acks: LogAck[];
+  acks: (LogAck & { line: number })[];
   vents: { vent: LogVent & { line: number }; readings: (LogVentReading & { line: number })[] }[];
   premixMixed: (LogPremixMixed & { line: number })[];
   premixReadings: (LogPremixReading & { line: number })[];
@@ -981,7 +982,7 @@ const EVENT_READERS: Readonly<Record<string, EventReader>> = {
   acknowledge(st, rec, lineNo, file) {
     const a = ackSchema().safeParse(rec);
     if (!a.success) bad(file, lineNo, 'acknowledgement', a.error.issues);
-    st.acks.push(a.data);
+    st.acks.push({ ...a.data, line: lineNo });
   },
   vent(st, rec, lineNo, file) {
     const v = ventSchema().safeParse(rec);

@@ -10,6 +10,7 @@ import {
   chooseGauge,
   fail,
   judge,
+  withReadingsPastRange,
   planFill,
   ProblemError,
   pureCylinder,
@@ -27,6 +28,7 @@ import { sourceNames, type SourceNames } from './csv-names.js';
 import { gaugeConversionWords, isPressureUnit, type GaugeConversion, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
+  readingsPastRange,
   planDangersNotAcknowledged,
   verdictCaveats,
   withinFile,
@@ -330,6 +332,8 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   if (unchecked) warnings.push(unchecked);
   const found = csvLimitFindings(rows, readings, b.tank, ctx.barometricPa);
   const findings = found.map((f) => ({ ...f, message: describeLogFinding(f) }));
+  const past = readingsPastRange(findings, new Set(rows.map((r) => r.line)));
+  verdict = withReadingsPastRange(verdict, readings, past);
   // the fill as recorded, by the planner's own safety review: a CSV records no acceptance of a danger
   const recorded = recordedFillOf(
     readings,

@@ -3,7 +3,7 @@
  * the caveats beside a verdict, the file a refusal from inside the evaluation belongs to, and
  * the charge number of each fill (a source filled in more than one charge).
  */
-import { fail, ProblemError, type PlanStep } from '../core/index.js';
+import { fail, ProblemError, type PlanStep, type ReadingPastRange } from '../core/index.js';
 import type { LogFinding } from './log-audit.js';
 import {
   dangerList,
@@ -204,3 +204,19 @@ export async function withinFile<T>(file: string, f: () => Promise<T>): Promise<
 
 /** a fill's charge of its source: its number among that source's charges, and how many there are */
 export type ChargeNumber = PlanStep['charge'];
+
+/**
+ * the readings the composition is computed from (`lines`: the fill readings in force, and a top-up's
+ * starting pressure) that went past their gauge's full scale: a danger of the record, and no support
+ * for a composition (core withReadingsPastRange)
+ */
+export function readingsPastRange(
+  findings: readonly LogFinding[],
+  lines: ReadonlySet<number>,
+): ReadingPastRange[] {
+  return findings.flatMap((f) =>
+    f.code === 'above-gauge-range' && f.severity === 'danger' && lines.has(f.line)
+      ? [{ step: f.step, line: f.line, gauge: f.gauge }]
+      : [],
+  );
+}

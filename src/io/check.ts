@@ -24,9 +24,15 @@ import {
 } from './batch-log.js';
 import { auditLog, describeLogFinding, ventOf } from './log-audit.js';
 import type { PlanRequest } from './load.js';
-import { TORR_PA } from '../core/index.js';
+import { TORR_PA, withReadingsPastRange } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
-import { verdictCaveats, withinFile, type CheckOptions, type CheckReport } from './check-shared.js';
+import {
+  readingsPastRange,
+  verdictCaveats,
+  withinFile,
+  type CheckOptions,
+  type CheckReport,
+} from './check-shared.js';
 import type { PremixCheckRecord, VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
 import { logRecordOutcome } from './check-recorded.js';
@@ -203,7 +209,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
   );
   const { accepted, unacknowledged, recorded } = logRecordOutcome(log, model);
   const tolerance = h.tolerance;
-  const verdict = logVerdict(log, result, missingSteps);
+  const used = new Set([...log.readings.map((r) => r.line), ...(log.start ? [log.start.line] : [])]);
+  const verdict = withReadingsPastRange(
+    logVerdict(log, result, missingSteps),
+    model.readings,
+    readingsPastRange(findings, used),
+  );
   return {
     file: log.file,
     id: h.id,

@@ -233,14 +233,25 @@ interface AuditContext {
   readonly limitPa: number | undefined;
   readonly baroOf: (r: { barometer_Pa?: number }) => number;
   readonly unitOf: (gaugeId: string) => PressureUnit;
+  /** the line of the last reading of a step (null: the starting pressure) logged before a line, if any */
+  readonly lastReadingBefore: (step: number | null, line: number) => number | undefined;
 }
 
 function contextOf(log: ParsedLog): AuditContext {
   const h = log.header;
   const gauges = new Map(h.gauges.map((g) => [g.id, g]));
+  const read: { step: number | null; line: number }[] = [
+    ...(log.start ? [{ step: null, line: log.start.line }] : []),
+    ...log.allReadings,
+    ...log.vents.flatMap((v) => v.readings),
+  ];
   return {
     log,
     gauges,
+    lastReadingBefore: (step, line) =>
+      read
+        .filter((r) => r.step === step && r.line < line)
+        .reduce<number | undefined>((last, r) => Math.max(last ?? r.line, r.line), undefined),
     limitPa: workingLimitOf(h),
     baroOf: (r) => r.barometer_Pa ?? log.barometer?.pressure_Pa ?? h.barometer.pressure_Pa,
     unitOf: (gaugeId) => {
@@ -414,8 +425,12 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
   const g = cx.gauges.get(r.gauge);
   const severity: LogFindingSeverity = r.replaced ? 'warning' : 'danger';
   const again = r.afterVent && r.replaced ? { ventedAgain: true } : {};
+  // an acknowledgement accepts the reading of its step in force when it was written: the last reading
+  // of that step logged before the acknowledgement's line (never a reading withdrawn before it)
   const acceptedOf = (code: string) => {
-    const a = cx.log.acknowledgements.find((x) => x.code === code && x.step === r.step);
+    const a = cx.log.acknowledgements.find(
+      (x) => x.code === code && x.step === r.step && cx.lastReadingBefore(x.step, x.line) === r.line,
+    );
     return a ? { accepted: { by: a.by, time: a.time } } : {};
   };
   const { limitPa } = cx;

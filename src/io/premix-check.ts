@@ -223,7 +223,9 @@ export function refuseNotThePremix(
   },
 ): void {
   const { design } = at;
-  const premixRows = rows.filter((r) => r.name.startsWith(PREMIX_ID_PREFIX));
+  // a row naming a premix by its tank (premix-MT-2), or a premix fill by its gases (Ar+O2)
+  const byGases = (name: string) => !name.startsWith(PREMIX_ID_PREFIX) && name.includes('+');
+  const premixRows = rows.filter((r) => r.name.startsWith(PREMIX_ID_PREFIX) || byGases(r.name));
   if (!premixRows.length) return;
   let log: ParsedLog;
   try {
@@ -238,21 +240,42 @@ export function refuseNotThePremix(
     ? Object.keys(h.design.composition).filter((k) => h.design.composition[k] > 0 && !design.includes(k))
     : [];
   const fromPremix = h.stage?.number === 2 || (h.premix_logs?.length ?? 0) > 0;
-  const row = premixRows.find((r) => fromPremix || r.name !== premixIdOf(h.tank.id));
+  // the gases a log was filled to, as a row names them (an older premix log records no stage)
+  const gases = Object.keys(h.design.composition)
+    .filter((k) => h.design.composition[k] > 0)
+    .sort()
+    .join('+');
+  const sameGases = (name: string) => name.split('+').sort().join('+') === gases;
+  const row = premixRows.find((r) =>
+    byGases(r.name)
+      ? fromPremix || (h.stage?.number !== 1 && !sameGases(r.name))
+      : fromPremix || r.name !== premixIdOf(h.tank.id),
+  );
   if (!row) {
     if (foreign.length && design)
       refused(named, { kind: 'foreign-gas', species: foreign, design }, { field: '--premix-log' });
     return;
   }
   // a batch filled from the premix the row names: the premix log it names, as a path to give
-  const entry = namedPremixLogs(log).find((n) => n.entry.source === row.name);
-  const tank = row.name.slice(PREMIX_ID_PREFIX.length);
+  const logs = namedPremixLogs(log);
+  const entry = byGases(row.name)
+    ? logs.length === 1
+      ? logs[0]
+      : undefined
+    : logs.find((n) => n.entry.source === row.name);
+  const tank = byGases(row.name) ? undefined : row.name.slice(PREMIX_ID_PREFIX.length);
   const rel = entry ? relative(process.cwd(), entry.path) : undefined;
   refused(
     named,
     {
       kind: 'not-the-premix',
-      row: { name: row.name, file: at.file, line: row.line, tank, tankKnown: at.tanks.includes(tank) },
+      row: {
+        name: row.name,
+        file: at.file,
+        line: row.line,
+        ...(tank === undefined ? {} : { tank }),
+        tankKnown: tank === undefined || at.tanks.includes(tank),
+      },
       given: {
         id: h.id,
         tank: h.tank.id,

@@ -55,7 +55,9 @@ export function verdictWord(r: CheckReport): string {
   const words: Record<string, string> = {
     // a composition within tolerance is a pass only when nothing in the record stands against it
     pass: checkOutcomes(r).length ? 'NOT A PASS (the composition is within tolerance)' : 'PASS',
-    'pass-uncertain': 'NOT SHOWN WITHIN TOLERANCE - not a pass',
+    'pass-uncertain': pastRangeSpecies(r).length
+      ? 'NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range) - not a pass'
+      : 'NOT SHOWN WITHIN TOLERANCE - not a pass',
     fail: 'FAIL - out of tolerance',
     'no-design': 'NO DESIGN to compare with - not a pass',
   };
@@ -198,7 +200,15 @@ function compositionTable(r: CheckReport, order: Ordered): string[] {
       d ? fixedSig(d.design, 6) : '-',
       d ? fixedSig(d.deviation, 2) : '-',
       d ? `+-${fixedSig(d.tolerance, 2)}` : '-',
-      d ? (d.provenWithin ? 'ok' : d.within ? 'ok?' : 'OUT') : '',
+      d
+        ? d.pastRange?.length
+          ? `NOT SHOWN (line ${d.pastRange.join(', ')}: past gauge range)`
+          : d.provenWithin
+            ? 'ok'
+            : d.within
+              ? 'ok?'
+              : 'OUT'
+        : '',
     ]);
   }
   return padTable(rows, [false, true, true, true, true, false, true, true, true, false]);
@@ -326,6 +336,44 @@ const STANDING_TEXT: Record<string, string> = {
   'no-design': 'there is no design to compare them with',
 };
 
+/** the readings past their gauge's range the composition rests on: "line 5 (head-1kT)" */
+function pastRangeList(r: CheckReport): string {
+  return (r.verdict.pastRange ?? []).map((p) => `line ${p.line}, ${p.gauge}`).join('; ');
+}
+
+/** the design fractions that rest on a reading past its gauge's range (never shown within tolerance) */
+function pastRangeSpecies(r: CheckReport): string[] {
+  return r.verdict.deviations.filter((d) => d.pastRange?.length).map((d) => d.species);
+}
+
+/** beside words of the numbers alone: the readings past their gauge's range they rest on */
+function pastRangeNote(r: CheckReport): string {
+  return r.verdict.pastRange?.length
+    ? ` (resting on ${pastRangeList(r)}, past its gauge's range: not trustworthy)`
+    : '';
+}
+
+/**
+ * the composition's words where it rests on a reading past its gauge's range: a fraction that depends
+ * on it is not shown within tolerance whatever the numbers give; undefined where none does
+ */
+function pastRangeText(r: CheckReport): string | undefined {
+  if (!r.verdict.pastRange?.length) return undefined;
+  const list = pastRangeList(r);
+  const species = pastRangeSpecies(r);
+  const one = r.verdict.pastRange.length === 1;
+  const rests =
+    `the composition rests on ${one ? 'a reading' : 'readings'} past ${one ? 'its gauge' : 'their gauges'}'s ` +
+    `range (${list}), which ${one ? 'is' : 'are'} not trustworthy`;
+  if (r.verdict.verdict === 'pass-uncertain' && species.length)
+    return (
+      `NOT SHOWN WITHIN TOLERANCE - ${rests}: ${species.join(', ')} ${species.length === 1 ? 'is' : 'are'} ` +
+      `not shown within tolerance, whatever the numbers give; re-read the tank on a gauge whose range ` +
+      `covers its pressure: this is not a pass`
+    );
+  return `${VERDICT_TEXT[r.verdict.verdict] ?? r.verdict.verdict} - ${rests}`;
+}
+
 /** the verdict in words, marked by what the record says of it */
 function verdictText(r: CheckReport): string {
   if (r.incomplete.length)
@@ -361,8 +409,8 @@ function verdictText(r: CheckReport): string {
     return (
       `RECORD ALTERED AFTER WRITING (${linesText(altered)}) - not a pass: the record was changed ` +
       `after it was written, so the log is no proof of what the tank holds; on the numbers as they stand ` +
-      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}. Restore the log as it was written ` +
-      `(a backup), or re-measure the tank before it is used` +
+      `${STANDING_TEXT[r.verdict.verdict] ?? r.verdict.verdict}${pastRangeNote(r)}. Restore the log as it ` +
+      `was written (a backup), or re-measure the tank before it is used` +
       closed +
       unacked +
       recorded +
@@ -373,7 +421,7 @@ function verdictText(r: CheckReport): string {
     r.verdict.verdict === 'pass' && checkOutcomes(r).length
       ? 'NOT A PASS - the composition alone is within tolerance (every design fraction, uncertainty ' +
         `included), ${COMPOSITION_ALONE_NOT_USABLE}: what follows stands against it`
-      : VERDICT_TEXT[r.verdict.verdict];
+      : (pastRangeText(r) ?? VERDICT_TEXT[r.verdict.verdict]);
   return (
     composition +
     (altered.length
@@ -404,6 +452,22 @@ export function orderDifference(f: {
   if (!f.plannedOrder) return undefined;
   if (firstFilled(f.order) !== firstFilled(f.plannedOrder)) return 'order';
   return f.order.join('\n') === f.plannedOrder.join('\n') ? undefined : 'charges';
+}
+
+/** whether the record has no limit of its tank to check the readings against (no DANGER means nothing then) */
+function limitsUnchecked(r: CheckReport): boolean {
+  return r.tank?.limitPa === undefined && r.tank?.ratedPa === undefined;
+}
+
+/** what was done with the readings against the tank's working limit, beside the review of the fill */
+function limitWords(r: CheckReport): string {
+  if (r.tank?.limitPa === undefined)
+    return `the readings were NOT checked against a tank's working limit: ${
+      r.tank ? `tank ${r.tank.id} has none on record` : 'the tank is not known'
+    }`;
+  return r.findings.some((x) => x.code === 'above-working-limit')
+    ? "the readings against the tank's working limit are judged with the record above"
+    : "no reading went past the tank's working limit";
 }
 
 /** the temperatures the recorded fill was reviewed at, in words */
@@ -441,7 +505,7 @@ function recordedFillLines(r: CheckReport): string[] {
   if (!f.findings.length)
     out.push(
       '  the review finds no danger and no warning of the gas on the recorded states and fill paths (of the ' +
-        "hazards it checks; the readings against the tank's working limit are judged with the record above)",
+        `hazards it checks; ${limitWords(r)})`,
     );
   if (f.notes.length) out.push(`  notes: ${f.notes.join(', ')}`);
   for (const x of f.findings)
@@ -470,7 +534,8 @@ function verdictLines(r: CheckReport): string[] {
   }
   out.push(...recordedFillLines(r));
   out.push('');
-  out.push(`Verdict     ${verdictText(r)}`);
+  // no DANGER must not read as "within the tank's limits" where there were none to check against
+  out.push(`Verdict     ${verdictText(r)}${limitsUnchecked(r) ? ' - tank limits NOT checked' : ''}`);
   for (const c of r.caveats) out.push(`            ${c}`);
   return out;
 }
@@ -677,6 +742,13 @@ function verdictJson(r: CheckReport) {
       expanded_u: d.expandedU,
       within: d.within,
       proven_within: d.provenWithin,
+      // the lines of the readings past their gauge's range this fraction rests on: never proven within then
+      past_gauge_range_lines: d.pastRange ?? [],
+    })),
+    readings_past_gauge_range: (r.verdict.pastRange ?? []).map((p) => ({
+      line: p.line,
+      step: p.step,
+      gauge: p.gauge,
     })),
     verdict: overallVerdict(r),
     composition_verdict: r.verdict.verdict,
@@ -814,7 +886,10 @@ const NUMBERS_ALONE: Readonly<Record<string, string>> = {
  */
 function compositionCell(r: CheckReport): string {
   if (r.verdict.verdict === 'no-design') return 'no design - not a pass';
-  if (r.verdict.verdict === 'pass-uncertain') return 'not shown within tolerance - not a pass';
+  if (r.verdict.verdict === 'pass-uncertain')
+    return pastRangeSpecies(r).length
+      ? 'not shown within tolerance (a reading past its gauge range) - not a pass'
+      : 'not shown within tolerance - not a pass';
   if (r.verdict.verdict === 'pass' && checkOutcomes(r).length)
     return `NOT A PASS (composition alone within tolerance, ${COMPOSITION_ALONE_NOT_USABLE})`;
   return r.verdict.verdict;
@@ -836,14 +911,14 @@ export function folderSummary(
     );
     const danger = rep.findings.some((f) => f.severity === 'danger');
     // no DANGER must not read as "within the tank's limits" where the record has no limits to check against
-    const unchecked = rep.tank?.limitPa === undefined && rep.tank?.ratedPa === undefined;
+    const unchecked = limitsUnchecked(rep);
     table.push([
       r.file,
       rep.id,
       stageCell(rep),
       (alteredLeads(rep)
         ? `RECORD ALTERED AFTER WRITING (${linesText(rep.record?.alteredLines ?? [])}) - not a pass; ` +
-          `the numbers alone: ${NUMBERS_ALONE[rep.verdict.verdict] ?? rep.verdict.verdict}`
+          `the numbers alone: ${NUMBERS_ALONE[rep.verdict.verdict] ?? rep.verdict.verdict}${pastRangeNote(rep)}`
         : rep.incomplete.length
           ? 'incomplete'
           : compositionCell(rep)) +

@@ -90,6 +90,12 @@ const OUTCOME_TEXT: Record<string, string> = {
 
 /** the certificate's verdict: a danger, a plan danger, accepted hazards or an open log before the composition */
 function certificateVerdict(label: LabelModel): string {
+  if (label.danger && label.pastRange)
+    return (
+      `NOT A PASS. The composition only: not shown within tolerance, whatever the numbers give: it rests ` +
+      `on a reading past its gauge's range (${label.pastRange}), which is not trustworthy. Beside it the ` +
+      `log records a danger (below), and the tank is not fit to use.`
+    );
   if (label.danger)
     return COMPOSITION_TEXT[label.status]
       ? `NOT A PASS. The composition only: ${COMPOSITION_TEXT[label.status]} Beside it the log records ` +
@@ -193,11 +199,13 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
           ? 'not shown (premix)'
           : label.status === 'record-altered'
             ? 'not shown (record)'
-            : d.provenWithin
-              ? 'within'
-              : d.within
-                ? 'inside, not shown'
-                : 'OUT',
+            : d.pastRange?.length
+              ? 'not shown (gauge range)'
+              : d.provenWithin
+                ? 'within'
+                : d.within
+                  ? 'inside, not shown'
+                  : 'OUT',
     };
   });
   // a design species the re-check found none of still gets its row

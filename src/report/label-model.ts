@@ -72,6 +72,11 @@ export interface LabelModel {
    * whatever the composition, the tank is not fit to use
    */
   readonly danger: boolean;
+  /**
+   * the readings past their gauge's range the composition rests on ("line 5, head-1kT"), where a design
+   * fraction depends on one: not shown within tolerance for that reason, not its uncertainty
+   */
+  readonly pastRange?: string;
   /** what stands beside the verdict, as `check` words it (report.caveats) */
   readonly caveats: readonly string[];
   /** the premixes the batch was made from (batch log header `premix_logs`); empty for a batch of cylinders */
@@ -245,6 +250,8 @@ function offDesign(r: CheckReport): string[] {
         `${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design; ` +
           `tolerance ${fixedSig(tolPct, 2)} %`,
       );
+    else if (d.pastRange?.length)
+      out.push(`${d.species}: not shown (rests on line ${d.pastRange.join(', ')}, past its gauge range)`);
     else if (!d.provenWithin)
       out.push(
         `${d.species} ${fixedSig(Math.abs(rel) * PCT, 2)} % (relative) ${dir} design, ` +
@@ -300,6 +307,11 @@ function finalState(r: CheckReport, unit: PressureUnit, dec: number) {
 export function labelModel(r: CheckReport, log?: LogView): LabelModel {
   const status = statusOf(r);
   const danger = recordsDanger(r);
+  // a design fraction resting on a reading past its gauge's range (a danger of the record, so `danger`)
+  const past =
+    status === 'pass-uncertain' && r.verdict.deviations.some((d) => d.pastRange?.length)
+      ? (r.verdict.pastRange ?? []).map((p) => `line ${p.line}, ${p.gauge}`).join('; ')
+      : undefined;
   const composition = Object.entries(r.result.composition)
     .filter(([, st]) => st.value > 0)
     .sort((a, b) => b[1].value - a[1].value)
@@ -322,7 +334,10 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
     status,
     verdict: r.verdict.verdict,
     outcome: overallVerdict(r),
-    headline: headlineOf(status, overallVerdict(r), danger),
+    headline: past
+      ? 'composition only: NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range)'
+      : headlineOf(status, overallVerdict(r), danger),
+    ...(past ? { pastRange: past } : {}),
     // under a headline led by the record, the composition's own judgement first
     offDesign: [
       ...(outcomeLeads({ outcome: overallVerdict(r), status, danger })

@@ -205,7 +205,8 @@ describe('CSV readings without a recipe: no design, so no pass (exit 7)', () => 
     expect(t.verdict).toBe(
       'Verdict     NO DESIGN - not a pass: the composition above is computed from the readings, with its ' +
         'uncertainty, but there is no design and so no tolerance to compare it with: nothing is shown within ' +
-        'tolerance. Give --recipe RECIPE (the design the tank was filled to) for a verdict',
+        'tolerance. Give --recipe RECIPE (the design the tank was filled to) for a verdict - tank limits NOT ' +
+        'checked',
     );
     const { code, j } = await json(['readings/ch4-phi1-ar98.csv']);
     expect(code).toBe(7);

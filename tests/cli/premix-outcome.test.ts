@@ -152,7 +152,7 @@ describe("a premix log is a stage-2 source only when check's overall outcome of 
     expect(r.code).toBe(2);
     expect(r.stdout).toBe('');
     expect(r.stderr).toContain(
-      `premix log ${cases.accepted} is not a pass (ACCEPTED HAZARD: the premix fill`,
+      `premix log ${cases.accepted} is not a pass (ACCEPTED HAZARD: the fill that log records`,
     );
     expect(r.stderr).toContain('oxygen-compression (fill 2), accepted by KL at 2026-11-29T14:30:00Z');
     expect(r.stderr).toContain('`mixwright check` of that log gives no pass (exit 6)');
@@ -174,7 +174,7 @@ describe("a premix log is a stage-2 source only when check's overall outcome of 
     const r = await runCli(['plan', RECIPE, '--premix-log', cases.unacknowledged]);
     expect(r.code).toBe(2);
     expect(r.stderr).toContain(
-      "is not a pass (PLAN DANGER NOT ACKNOWLEDGED: the premix plan's safety review found oxygen-compression " +
+      'is not a pass (PLAN DANGER NOT ACKNOWLEDGED: the safety review of the plan that log records found oxygen-compression ' +
         '(fill 2) (a danger) and the log records no acknowledgement of it)',
     );
   }, 60_000);

@@ -2,7 +2,7 @@
 // by its gases or its cylinder id, of batch logs whose steps charge a source twice, and of
 // readings past the tank's working limit, its rating or a gauge's range.
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { appendEvent, createLog, readLog, sourceToLog, type LogHeader } from '../../src/io/batch-log.js';
@@ -356,6 +356,17 @@ describe('CSV readings against the tank: working limit, rating, gauge range', ()
     expect(doc.warnings.join(' ')).toContain(
       "the tank is not known (no --recipe, no --tank): the readings were NOT checked against a tank's working limit",
     );
+    // the text: the review of the fill never says the limit was judged, and the verdict line marks it
+    const t = await runCli(['check', f, '--trials', '100000']);
+    expect(t.stdout).not.toContain('judged with the record above');
+    expect(t.stdout).toContain(
+      "of the hazards it checks; the readings were NOT checked against a tank's working limit: the tank is not known)",
+    );
+    expect(t.stdout).toMatch(/^Verdict {5}NO DESIGN - not a pass: .* - tank limits NOT checked$/m);
+    // with the recipe's tank: checked, and said so
+    const k = await runCli(['check', f, '--recipe', recipe, '--trials', '100000']);
+    expect(k.stdout).not.toContain('tank limits NOT checked');
+    expect(k.stdout).not.toContain('NOT checked against');
   });
 
   it('a row on a named gauge above its full scale is a danger (as in the log audit)', async () => {
@@ -465,14 +476,59 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
     ]);
     expect(cli.code).toBe(2);
     expect(cli.stderr).toContain(
-      '--premix-log: premix log batches/demo-ch4-phi1-from-premix.jsonl is the log of batch ' +
+      '--premix-log: batches/demo-ch4-phi1-from-premix.jsonl (given as the premix log) is the log of batch ' +
         'demo-ch4-phi1-from-premix, filled in tank MT-1 from a premix (stage 2 of batch demo-ch4-phi1-from-premix): a ' +
         'batch, not a premix; ' +
         'readings/ch4-phi1-from-premix.csv line 4 names premix-MT-2, the premix filled in tank MT-2, so ' +
         '--premix-log must be the log of that premix (the stage-1 log of tank MT-2) - give --premix-log ' +
-        'batches/demo-premix-o2-ar-mt2.jsonl, the premix log that batch was filled from',
+        'batches/demo-premix-o2-ar-mt2.jsonl, the premix log that batch was filled from (the batch log records it)',
     );
     expect(cli.stderr).not.toMatch(/another premix|re-check/);
+  });
+
+  it('the premix row named by its gases (Ar+O2): a stage-2 batch log or a single-tank batch log is named as such', async () => {
+    const f = join(mkdtempSync(join(tmpdir(), 'mw-gases-')), 'r.csv');
+    const text = readFileSync(CSV, 'utf8');
+    expect(text).toMatch(/^premix-MT-2,/m);
+    writeFileSync(f, text.replace(/^premix-MT-2,/m, 'Ar+O2,'));
+    const stage2 = await runCli([
+      'check',
+      f,
+      ...withRecipe,
+      '--premix-log',
+      'batches/demo-ch4-phi1-from-premix.jsonl',
+    ]);
+    expect(stage2.code).toBe(2);
+    expect(stage2.stderr).toContain(
+      'filled in tank MT-1 from a premix (stage 2 of batch demo-ch4-phi1-from-premix): a batch, not a premix; ' +
+        `${f} line 4 names Ar+O2, a premix fill by its gases, so --premix-log must be the log of the premix that ` +
+        'gas came from (its stage-1 log) - give --premix-log batches/demo-premix-o2-ar-mt2.jsonl',
+    );
+    expect(stage2.stderr).not.toMatch(/is not filled in the design/);
+    const single = await runCli([
+      'check',
+      f,
+      ...withRecipe,
+      '--premix-log',
+      'batches/demo-ch4-phi1-ar98.jsonl',
+    ]);
+    expect(single.code).toBe(2);
+    expect(single.stderr).toContain(
+      'batches/demo-ch4-phi1-ar98.jsonl (given as the premix log) is the log of demo-ch4-phi1-ar98, a single-tank ' +
+        'fill in tank MT-1',
+    );
+    expect(single.stderr).not.toMatch(
+      /the premix fill|premix log batches|cannot be shown within its tolerance/,
+    );
+    // the stage-1 log it names: the row is that premix's fill, the re-check runs
+    const ok = await runCli([
+      'check',
+      f,
+      ...withRecipe,
+      '--premix-log',
+      'batches/demo-premix-o2-ar-mt2.jsonl',
+    ]);
+    expect(ok.code, ok.stderr).toBe(0);
   });
 
   it('a single-tank batch of another tank in its place: what it is, the row, the log to give', async () => {
@@ -485,7 +541,7 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
     ]);
     expect(cli.code).toBe(2);
     expect(cli.stderr).toContain(
-      'premix log batches/demo-ch4-phi1-ar98.jsonl is the log of demo-ch4-phi1-ar98, a single-tank fill ' +
+      'batches/demo-ch4-phi1-ar98.jsonl (given as the premix log) is the log of demo-ch4-phi1-ar98, a single-tank fill ' +
         'in tank MT-1 (its header records no stage); readings/ch4-phi1-from-premix.csv line 4 names ' +
         'premix-MT-2',
     );

@@ -338,6 +338,51 @@ describe('dangers in a log', () => {
     );
   });
 
+  it('an acceptance is credited to the reading it was given for, never to a reading withdrawn before it', async () => {
+    // lines: 1 header, 2-3 fills 1-2, 4 fill 3 mistyped 5000 Torr, 5 withdrawn by AB, 6 fill 3 read again
+    // 1500 Torr (above the 1495 Torr limit), 7 CD accepts it
+    const file = join(tmp(), 'ack.jsonl');
+    createLog(file, { ...header, tank: { ...header.tank, working_limit_Pa: 1495 * TORR } });
+    const r3 = demoReadings[2] as Extract<NewLogEvent, { kind: 'reading' }>;
+    appendEvent(file, demoReadings[0]);
+    appendEvent(file, demoReadings[1]);
+    appendEvent(file, { ...r3, reading: '5000 Torr', pressure_Pa: 5000 * TORR });
+    const withdraw = {
+      kind: 'withdraw',
+      step: 3,
+      withdraws_line: 4,
+      by: 'AB',
+      time: 't1',
+      reason: 'mistyped',
+    };
+    appendEvent(file, withdraw as NewLogEvent);
+    appendEvent(file, r3);
+    const accept = {
+      kind: 'acknowledge',
+      code: 'above-working-limit',
+      step: 3,
+      by: 'CD',
+      time: 't2',
+    } as const;
+    expect(appendEvent(file, accept).line).toBe(7);
+    const lim = findingsOf((await checkFile(file, { trials: 0, seed: 1 })).findings, 'above-working-limit');
+    expect(lim.map((f) => [f.line, f.severity, f.accepted?.by])).toEqual([
+      [6, 'danger', 'CD'],
+      [4, 'warning', undefined],
+    ]);
+    const cli = await runCli(['check', file, '--trials', '100000']);
+    expect(cli.stdout).not.toMatch(/line 4, fill 3:[^\n]*accepted at the manifold/);
+    expect(cli.stdout).toMatch(
+      /line 6, fill 3:[^\n]*\(accepted at the manifold by CD at t2; it stands all the same\)/,
+    );
+    // an acceptance written before any reading of its step accepts none of them
+    const early = join(tmp(), 'early.jsonl');
+    createLog(early, { ...header, tank: { ...header.tank, working_limit_Pa: 1495 * TORR } });
+    for (const e of [demoReadings[0], demoReadings[1], accept, r3]) appendEvent(early, e);
+    const e2 = findingsOf((await checkFile(early, { trials: 0, seed: 1 })).findings, 'above-working-limit');
+    expect(e2.map((f) => [f.line, f.accepted])).toEqual([[5, undefined]]);
+  });
+
   it('a reading above its gauge full scale is a danger; corrected away it is a warning; out of tolerance still exits 4', async () => {
     const dir = tmp();
     const file = join(dir, 'fs.jsonl');
