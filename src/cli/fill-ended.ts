@@ -19,6 +19,8 @@ export interface FillOutcome {
   planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the log does not show accepted */
   recordedFillDangers?: readonly unknown[];
+  /** the batch closed or stopped below a band with a hazard in the tank: what it holds now, in words */
+  tankNow?: string;
 }
 
 /** what the exit code means, on stderr, for each code but 0 */
@@ -69,6 +71,8 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
     );
     throw new ExitSignal(EXIT.interrupted);
   }
+  // the tank as it stands, whatever the verdict: it is in the state the review found, not past it
+  if (r.tankNow) cli.err(`mixwright: ${logFile}: ${r.tankNow}\n`);
   // no re-check (the batch left open): nothing to report beyond the screen
   if (r.verdict === undefined) return;
   const code = checkExit({

@@ -44,6 +44,8 @@ export interface FillAppProps {
   readonly onInterrupt?: () => void;
   /** the end screen's re-check, once it is there (the shell's exit code follows it) */
   readonly onReport?: (report: CheckReport) => void;
+  /** a batch closed or stopped below a band with a hazard in the tank: what it holds now (the shell repeats it) */
+  readonly onTankNow?: (text: string) => void;
 }
 
 export function toActions(
@@ -98,7 +100,7 @@ function relText(pct: number): string {
   return Math.abs(pct) < 0.001 ? ' <0.001' : `${pct >= 0 ? '+' : '-'}${fixedSig(Math.abs(pct), 2)}`;
 }
 
-function JudgementView({ j }: { j: CompositionJudgement }) {
+function JudgementView({ j, compact }: { j: CompositionJudgement; compact?: boolean }) {
   const head =
     j.kind === 'final'
       ? 'Composition as filled (inverse model, typed temperatures): ' +
@@ -121,6 +123,21 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
   const row = (d: CompositionJudgement['deviations'][number]) =>
     `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %` +
     (tol.length > 1 ? ` (tol ${tolOf(d)} %)` : '');
+  if (compact) {
+    // one wrapped row of the species outside (a screen that has the ways on to show as well)
+    const out = j.deviations.filter((d) => !d.within);
+    return (
+      <Box flexDirection="column">
+        <Text bold={j.verdict === 'fail'}>{head}</Text>
+        {out.length ? (
+          <Para>
+            {`  ${out.map((d) => `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %`).join(', ')}` +
+              ` rel: OUT (tol ${[...new Set(out.map(tolOf))].join(' / ')} %)`}
+          </Para>
+        ) : null}
+      </Box>
+    );
+  }
   return (
     <Box flexDirection="column">
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
@@ -154,9 +171,13 @@ export function FillApp({
   recheck,
   onInterrupt,
   onReport,
+  onTankNow,
 }: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const check = useRecheckAtEnd(state.phase, recheck, onReport);
+  useEffect(() => {
+    if (state.tankNowText) onTankNow?.(state.tankNowText);
+  }, [state.tankNowText, onTankNow]);
   const app = useApp();
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
@@ -426,17 +447,20 @@ function EndScreen({
     ? `Re-check of the log (mixwright check): ${verdictWord(report)}` +
       `${report.caveats.length ? ' (and see the notes below)' : ''}`
     : undefined;
-  const message = state.message ? cut(state.message, 4, columns) : undefined;
   const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
-  const fixed =
+  const others =
     rowsOf(title, columns) +
-    (message ? rowsOf(message, columns) : 0) +
     1 +
     (verdict ? rowsOf(verdict, columns) : 1) +
     caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
     (stage.length ? 1 + stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
     rowsOf(logLine, columns) +
     1;
+  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
+  const message = state.message
+    ? cut(state.message, Math.max(2, Math.min(4, rows - 1 - others)), columns)
+    : undefined;
+  const fixed = others + (message ? rowsOf(message, columns) : 0);
   const labelRows = label ? 3 + label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
   const labelHere = Boolean(label) && fixed + labelRows <= rows - 1;
   const keys = [
@@ -478,7 +502,7 @@ function EndScreen({
           ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
         </Para>
       ) : null}
-      {verdict ? <Text bold>{verdict}</Text> : null}
+      {verdict ? <Para bold>{verdict}</Para> : null}
       {caveats.map((c, i) => (
         <Para key={i} bold>
           ! {c}
@@ -572,14 +596,9 @@ function BelowScreen({ state }: ScreenProps) {
           {state.done[m - 1]?.text}
         </Text>
       </Box>
-      {lastFill && state.judgement ? <JudgementView j={state.judgement} /> : null}
+      {lastFill && state.judgement ? <JudgementView j={state.judgement} compact /> : null}
       {lastFill ? (
-        <Para>
-          Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
-          AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
-          (withdraw the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the
-          target; the re-check judges it)
-        </Para>
+        <LastWaysView state={state} stop={`${stop} ${lu}`} />
       ) : (
         <BelowWaysView state={state} stop={`${stop} ${lu}`} />
       )}
@@ -653,6 +672,42 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
       <Para>
         A further reading is logged as a correction of fill {m} (more gas added; the log keeps both). undo AB:
         withdraw it fix N AB: correct fill N
+      </Para>
+    </Box>
+  );
+}
+
+/**
+ * the ways on from the last fill read below its band, each with what its review found (belowWays): the
+ * tank as it stands is reviewed for the close offer, as the stop offer of a fill before the last is
+ */
+function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
+  const w = state.belowWays;
+  const ls = state.setup.steps[state.done.length - 1];
+  const cont = w?.continuing;
+  const still = cont
+    ? cont.still.length
+      ? `still passes ${cont.still.join(', ')}`
+      : 'passes no hazard the plan did not have'
+    : 'not reviewed';
+  const tank = w
+    ? w.tankNow.length
+      ? `the tank NOW holds ${w.tankNow.join(', ')}`
+      : 'no flammable, detonable or danger state in the tank now'
+    : 'not reviewed';
+  return (
+    <Box flexDirection="column">
+      <Text>The ways on, each reviewed (the tank as it stands, and the rest of the fill):</Text>
+      <Para>
+        - continue: add {ls.species} from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
+        {stop.split(' ')[0]} AB): {still}
+      </Para>
+      <Para bold={Boolean(w?.tankNow.length)}>
+        - close AB (close the batch below the target; the re-check judges it): {tank}
+      </Para>
+      <Para>
+        A new reading corrects the logged one (more gas added; the log keeps both). undo AB: withdraw it fix N
+        AB: correct fill N
       </Para>
     </Box>
   );

@@ -55,6 +55,7 @@ import {
 } from '../io/batch-log.js';
 import {
   belowBandWays,
+  tankNowWords,
   onReviewEnter,
   reviewMemoryOf,
   withReview,
@@ -343,8 +344,13 @@ export interface FillState {
    * them: each fill's screen shows those at its step for as long as it is on screen
    */
   readonly acceptedHazards?: readonly ReviewHazard[];
-  /** in phase 'below' of a fill before the last: each way on (continue, next, stop) as its review found it */
+  /**
+   * in phase 'below': each way on (continue, and next or stop before the last fill; close on the last) as
+   * its review found it
+   */
   readonly belowWays?: BelowWays;
+  /** a batch closed or stopped below a band: what the tank holds now, in words (tankNowWords), if anything */
+  readonly tankNowText?: string;
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
   /** who fills in this session (initials): logged on every reading it takes */
@@ -1544,6 +1550,8 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     };
   }
   const { judgement, summary } = finalJudgement(s);
+  // the last fill: continuing it and closing the batch as it stands are reviewed as before the last
+  const belowWays = belowBandWays(s, retargetInput(s, s.done, s.targetTemperatureK));
   return {
     ...s,
     phase: 'below',
@@ -1551,7 +1559,7 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     summary,
     input: '',
     field: 'reading',
-    belowWays: undefined,
+    belowWays,
     message:
       `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
       `${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); ` +
@@ -2490,12 +2498,11 @@ function onBelowEnter(s: FillState, now: string): FillState {
   if ('error' in w)
     return {
       ...s,
-      error:
-        `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
-        (lastFill
-          ? 'close INITIALS (closes the batch below the target)'
-          : 'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
-            'INITIALS (stop the batch here, incomplete)'),
+      error: lastFill
+        ? `${w.error}; or undo, fix N or close with initials (above)`
+        : `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
+          'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
+          'INITIALS (stop the batch here, incomplete)',
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);
@@ -2584,16 +2591,22 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
         'INITIALS (go on from the logged reading) or stop INITIALS (stop the batch here, incomplete)',
     };
   if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  const tankNowText = tankNowWords(s.belowWays?.tankNow);
   const f = finish(
     { ...s, input: '' },
     now,
-    `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
+    `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band` +
+      (tankNowText ? `; ${tankNowText}` : ''),
   );
   return {
     ...f,
+    ...(tankNowText ? { tankNowText } : {}),
     message:
       `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
-      `the re-check below judges the tank as it is`,
+      (tankNowText
+        ? `${tankNowText}; the re-check below judges the composition`
+        : 'the review finds no flammable, detonable or danger state in the tank now; the re-check below ' +
+          'judges the tank as it is'),
   };
 }
 
@@ -2655,12 +2668,11 @@ function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading
   const unit = gaugeUnit(step);
   const rest = s.setup.steps.slice(s.done.length).map((x) => x.index);
   const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
-  const tank = s.belowWays?.tankNow.length
-    ? `the review finds in the tank now: ${s.belowWays.tankNow.join(', ')}: keep it closed and follow ` +
-      "your lab's procedure for it"
-    : 'the review finds no flammable, detonable or danger state in the tank now';
+  const tankNowText = tankNowWords(s.belowWays?.tankNow);
+  const tank = tankNowText ?? 'the review finds no flammable, detonable or danger state in the tank now';
   return {
     ...s,
+    ...(tankNowText ? { tankNowText } : {}),
     phase: 'ended',
     input: '',
     effects: [

@@ -124,6 +124,31 @@ describe('the fill screens fit 80 x 24', () => {
     fits(read(t, 'hello'), /^mixwright fill b1 /);
   });
 
+  it('order CH4, O2, Ar, the last fill (Ar) read at 100 Torr: the close offer says the tank NOW holds a detonable mixture', () => {
+    let t = initialState(setupFromHeader(header(['CH4', 'O2', 'Ar'])));
+    t = read(t, 'accept JD', 2);
+    t = read(t, '10.01', 3);
+    t = fillReducer(t, { type: 'enter', now: NOW });
+    t = read(t, '30.04', 4);
+    // 10 Torr CH4, 20 Torr O2, 70 Torr Ar: 10 % fuel, 20 % O2 as read, no N2 (by hand): detonable by the
+    // planner's conservative rule (less than 50 % N2-equivalent inert)
+    const last = read(t, '100', 5);
+    expect(last.phase).toBe('below');
+    expect(last.belowWays!.tankNow).toContain('DANGER detonable-state (fill 3)');
+    const f = fits(last, /^mixwright fill b1 - fill 3 of 3: BELOW THE TARGET$/);
+    expect(f.replace(/\n/g, ' ')).toMatch(/close AB .*the tank NOW holds DANGER detonable-state \(fill 3\)/);
+    fits(read(last, 'hello'), /BELOW THE TARGET$/);
+    const closed = read(last, 'close JD');
+    expect(closed.phase).toBe('done');
+    expect(closed.tankNowText).toMatch(
+      /^the tank NOW holds a detonable, flammable mixture: keep its valves closed, do not use or vent it except under your lab's procedure, defer to local rules/,
+    );
+    expect(closed.message).toContain(closed.tankNowText);
+    expect(closed.effects).toEqual([
+      expect.objectContaining({ kind: 'close', note: expect.stringContaining('the tank NOW holds') }),
+    ]);
+  });
+
   it('a batch id too long for the title row: what the screen is goes whole on the row under it', () => {
     const id = 'ng-surrogate-air-phi08-20261203T1627';
     const b = read(read(initialState(setupFromHeader(header(undefined, id))), '10.013', 2), '150', 3);
