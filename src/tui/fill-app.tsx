@@ -44,7 +44,10 @@ export interface FillAppProps {
   readonly onInterrupt?: () => void;
   /** the end screen's re-check, once it is there (the shell's exit code follows it) */
   readonly onReport?: (report: CheckReport) => void;
-  /** a batch closed or stopped below a band with a hazard in the tank: what it holds now (the shell repeats it) */
+  /**
+   * the fill ended with the tank in a hazard (a batch closed or stopped below a band) or above its working
+   * limit: what it is now, one line each (the shell repeats them)
+   */
   readonly onTankNow?: (text: string) => void;
 }
 
@@ -161,6 +164,11 @@ function JudgementView({ j, compact }: { j: CompositionJudgement; compact?: bool
   );
 }
 
+/** what the tank is now at the end of a fill, where it is not what the plan made: one line each */
+function endNotesOf(s: FillState): string[] {
+  return [s.tankNowText, s.aboveLimitText].filter((x): x is string => Boolean(x));
+}
+
 type Recheck = { report: CheckReport; log: ParsedLog } | { error: string } | undefined;
 
 export function FillApp({
@@ -175,9 +183,11 @@ export function FillApp({
 }: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const check = useRecheckAtEnd(state.phase, recheck, onReport);
+  const ended = state.phase === 'done' || state.phase === 'ended';
+  const tankNow = ended ? endNotesOf(state).join('\n') : '';
   useEffect(() => {
-    if (state.tankNowText) onTankNow?.(state.tankNowText);
-  }, [state.tankNowText, onTankNow]);
+    if (tankNow) onTankNow?.(tankNow);
+  }, [tankNow, onTankNow]);
   const app = useApp();
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
@@ -448,8 +458,11 @@ function EndScreen({
       `${report.caveats.length ? ' (and see the notes below)' : ''}`
     : undefined;
   const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
+  // the tank above its working limit (a reading there accepted): said whole, whatever the message
+  const above = state.aboveLimitText ? `! ${state.aboveLimitText}` : undefined;
   const others =
     rowsOf(title, columns) +
+    (above ? rowsOf(above, columns) : 0) +
     1 +
     (verdict ? rowsOf(verdict, columns) : 1) +
     caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
@@ -494,6 +507,7 @@ function EndScreen({
     <Box flexDirection="column">
       <Para bold>{title}</Para>
       {message ? <Para>{message}</Para> : null}
+      {above ? <Para bold>{above}</Para> : null}
       <Text> </Text>
       {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
       {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
@@ -956,8 +970,8 @@ function OverLimitScreen({ state }: ScreenProps) {
             "batch's final pressure) "
           : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there ' +
             'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
-        accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
-        trace)
+        accept INITIALS: keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)
+        edit INITIALS: it was mistyped (withdrawn, with a trace)
       </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />

@@ -351,6 +351,8 @@ export interface FillState {
   readonly belowWays?: BelowWays;
   /** a batch closed or stopped below a band: what the tank holds now, in words (tankNowWords), if anything */
   readonly tankNowText?: string;
+  /** a reading above the working limit accepted (not vented since): the tank is above it, and what to do */
+  readonly aboveLimitText?: string;
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
   /** who fills in this session (initials): logged on every reading it takes */
@@ -1710,7 +1712,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
         `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} ` +
         `is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted`,
     };
-    return commit(s, p, [ack], now);
+    return { ...commit(s, p, [ack], now), aboveLimitText: aboveLimitWords(s, p.done.pressurePa, o.limitPa) };
   }
   const vent = /^vent\s+([A-Za-z]{1,6})$/i.exec(text);
   if (/^vent\b/i.test(text) && !vent)
@@ -1726,6 +1728,17 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
       'your initials (keep the tank as it is; logged), or "edit" and your initials ' +
       '(it was mistyped: the reading is withdrawn, with a trace), then Enter',
   };
+}
+
+/** the tank left above its working limit (a reading there accepted): where it is, and what to do */
+export function aboveLimitWords(s: FillState, pressurePa: number, limitPa: number): string {
+  const unit = gaugeUnit(s.setup.steps[Math.min(s.current, s.setup.steps.length - 1)]);
+  return (
+    `the tank ${s.setup.header.tank.id} is STILL ABOVE its working limit: ${fmtIn(pressurePa, unit)} ` +
+    `absolute logged vs the limit ${fmtIn(limitPa, unit)}. Close the cylinder and tank valves and bring it ` +
+    `below the limit by your lab's procedure (vent or pump back to a safe place, away from ignition ` +
+    `sources); do not use it until then; defer to local rules and the tank's rating`
+  );
 }
 
 /** vent chosen on the danger screen: the vent is logged, then the tank is read after venting */
@@ -1754,6 +1767,7 @@ function ventChosen(s: FillState, p: Pending, o: OverLimit, by: string, now: str
     current: s.current + 1,
     pending: undefined,
     overLimit: undefined,
+    aboveLimitText: undefined,
     phase: 'vented',
     input: '',
     field: 'reading',

@@ -86,4 +86,23 @@ describe('fill exits as check of its log', () => {
     expect(exitOf({ ...base, interrupted: true }).code).toBe(130);
     expect(exitOf({ ...base }).code).toBe(0);
   });
+
+  it('the tank left above its working limit or holding a hazard: each line is said before the exit reason', () => {
+    const r = exitOf({
+      interrupted: false,
+      logged: 4,
+      steps: 4,
+      verdict: 'fail',
+      danger: true,
+      tankNow: 'the tank MT-1 is STILL ABOVE its working limit: 5000.00 Torr absolute logged\nsecond line',
+    });
+    expect(r.code).toBe(EXIT.outOfTolerance);
+    const lines = r.err.trim().split('\n');
+    expect(lines[0]).toBe(
+      'mixwright: b.jsonl: the tank MT-1 is STILL ABOVE its working limit: 5000.00 Torr absolute logged',
+    );
+    expect(lines[1]).toBe('mixwright: b.jsonl: second line');
+    // a FAIL that hides the danger exit code still says the danger stands
+    expect(lines[2]).toMatch(/FAIL .*a danger finding stands in the record as well/);
+  });
 });

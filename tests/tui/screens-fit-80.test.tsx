@@ -93,6 +93,17 @@ describe('the fill screens fit 80 x 24', () => {
     const refused = read(over, 'hello');
     expect(refused.error).toBeDefined();
     fits(refused, /ABOVE THE WORKING LIMIT$/);
+    expect(frame80(over).replace(/\n/g, ' ')).toMatch(
+      /accept INITIALS: keep the tank as it is, ABOVE its working limit/,
+    );
+    // accepted: the end says the tank is still above the limit (the logged pressure vs the limit) and what to do
+    const kept = read(over, 'accept CD');
+    expect(kept.phase).toBe('done');
+    expect(kept.aboveLimitText).toMatch(
+      /^the tank MT-1 is STILL ABOVE its working limit: 2800\.00 Torr absolute logged vs the limit 2700\.22 Torr\. Close the cylinder and tank valves and bring it below the limit by your lab's procedure/,
+    );
+    const end = fits(kept, /^mixwright fill b1 - all 4 fills logged$/);
+    expect(end.replace(/\n/g, ' ')).toContain('STILL ABOVE its working limit');
   });
 
   it('the last fill below its target, with the composition as filled', () => {
