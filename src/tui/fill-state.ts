@@ -2695,7 +2695,8 @@ function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading
         time: now,
         note:
           `stopped by ${m[1]} with ${fillName(step)} below its band at ${last.text} (target ` +
-          `${fmtIn(s.targetsPa[s.done.length - 1], unit)} absolute): ${notMade}`,
+          `${fmtIn(s.targetsPa[s.done.length - 1], unit)} absolute): ${notMade}` +
+          (tankNowText ? `; ${tankNowText}` : ''),
       },
     ],
     message:
