@@ -668,9 +668,20 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
     : 'not reviewed';
   const tank = w
     ? w.tankNow.length
-      ? `the tank now holds ${w.tankNow.join(', ')}`
+      ? `the tank NOW holds ${w.tankNow.join(', ')}`
       : 'no flammable or danger state in the tank now'
     : 'not reviewed';
+  // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
+  const K = state.setup.steps.length;
+  const last = state.setup.steps[K - 1];
+  const finalPa = state.targetsPa[K - 1];
+  const designPa = state.setup.header.final_pressure_Pa;
+  const fu = unitOf(last);
+  const ends =
+    finalPa !== undefined && designPa !== undefined && Math.abs(finalPa - designPa) > last.bandPa
+      ? `; the batch ends at ${fromPa(finalPa, fu).toFixed(1)} ${fu} instead of ` +
+        `${fromPa(designPa, fu).toFixed(1)} ${fu}`
+      : '';
   return (
     <Box flexDirection="column">
       <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
@@ -680,7 +691,8 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
         {cont ? (cont.still.length ? `still ${found(cont.still)}` : found([])) : 'not reviewed'}
       </Para>
       <Para>
-        - next AB (go on from {state.done[m - 1]?.text}): {next}
+        - next AB (go on from {state.done[m - 1]?.text}
+        {ends}): {next}
       </Para>
       <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
       <Para>
@@ -1030,6 +1042,18 @@ function CappedScreen({ state }: ScreenProps) {
         : '')
     );
   });
+  // what each choice's review found (fill-review belowBandWays): never called safe unless it found nothing
+  const w = c.ways;
+  const goFound = w
+    ? w.goingOn.length
+      ? `the review finds ${w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, which the plan did not have`
+      : 'the review finds no hazard the plan did not have'
+    : 'not reviewed';
+  const stopFound = w
+    ? w.tankNow.length
+      ? `the tank NOW holds ${w.tankNow.join(', ')}`
+      : 'the review finds no flammable, detonable or danger state in the tank now'
+    : 'not reviewed';
   return (
     <Box flexDirection="column">
       <ScreenTitle
@@ -1044,9 +1068,13 @@ function CappedScreen({ state }: ScreenProps) {
       <Para>Capped targets: {ahead.join('; ')}.</Para>
       <Text> </Text>
       <Para>
-        go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
-        {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
-        INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
+        - go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
+        {c.outside.length ? ', OFF THE DESIGN' : ''}): {goFound}
+      </Para>
+      <Para>- stop INITIALS: stop the batch here (incomplete): {stopFound}</Para>
+      <Para>
+        undo INITIALS: the last reading was mistyped. Each choice is logged; Ctrl-C stops without one
+        (resuming asks again).
       </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />

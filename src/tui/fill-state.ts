@@ -296,6 +296,8 @@ export interface Capped {
   readonly outside: readonly string[];
   /** the cost in words (final pressure, each mole fraction against the design) */
   readonly cost: string;
+  /** go (the capped fills ahead) and stop (the tank as it stands), each as its review found it */
+  readonly ways?: BelowWays;
 }
 
 export interface FillState {
@@ -1253,6 +1255,8 @@ function cappedScreen(
       limitPa: s.setup.workingLimitPa!,
       outside: deviations.filter((d) => !d.within).map((d) => d.species),
       cost: limitCost(finalText, deviations),
+      // both choices reviewed as the below-band screen's are: the capped fills ahead, and the tank now
+      ways: belowBandWays(s, retargetInput(s, s.done, s.targetTemperatureK)),
     },
   };
 }
@@ -1270,9 +1274,7 @@ function onCappedEnter(s: FillState, now: string): FillState {
   if (!m)
     return {
       ...s,
-      error:
-        'type one of: go INITIALS (fill to the capped targets), undo INITIALS (the reading was mistyped), ' +
-        'stop INITIALS (the batch stops here); every choice is logged. Ctrl-C stops without a choice',
+      error: 'type go, stop or undo and your initials (e.g. go AB; the ways above); every choice is logged',
     };
   const go = m[1].toLowerCase() === 'go';
   const by = m[2];
@@ -1291,15 +1293,19 @@ function onCappedEnter(s: FillState, now: string): FillState {
     note: `${what}; ${go ? `${by} went on to the capped targets` : `${by} stopped the batch here`}`,
     cap: { outcome: go ? 'continued' : 'stopped', final_Pa: c.finalPa, outside: [...c.outside] },
   };
-  if (!go)
+  if (!go) {
+    const tankNowText = tankNowWords(c.ways?.tankNow);
+    const tank = tankNowText ? `; ${tankNowText}` : '';
     return {
       ...s,
       phase: 'ended',
       capped: undefined,
       input: '',
-      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} ${c.after}: ${what}` }],
-      message: `stopped by ${by} ${c.after} (logged): ${what}`,
+      ...(tankNowText ? { tankNowText } : {}),
+      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} ${c.after}: ${what}${tank}` }],
+      message: `stopped by ${by} ${c.after} (logged): ${what}${tank}`,
     };
+  }
   const entered = enterStep({
     ...s,
     phase: 'reading',

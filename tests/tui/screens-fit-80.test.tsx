@@ -160,6 +160,33 @@ describe('the fill screens fit 80 x 24', () => {
     ]);
   });
 
+  it('order CH4, O2, Ar: each offer says what its review found (capped go and stop; next with a lower final pressure)', () => {
+    let t = initialState(setupFromHeader(header(['CH4', 'O2', 'Ar'])));
+    t = read(t, 'accept JD', 2);
+    t = read(t, '10.01', 3);
+    t = fillReducer(t, { type: 'enter', now: NOW });
+    // O2 read 560 Torr (target 30.03): the working limit holds the final pressure
+    const capped = read(t, '560', 4);
+    expect(capped.phase).toBe('capped');
+    expect(capped.capped!.ways).toBeDefined();
+    const f = fits(capped, /^mixwright fill b1$/).replace(/\n/g, ' ');
+    expect(f).toMatch(
+      /- go INITIALS: fill to the capped targets \(the tank ends at 2692\.7 Torr, OFF THE DESIGN\): the review finds/,
+    );
+    expect(f).toMatch(
+      /- stop INITIALS: stop the batch here \(incomplete\): the review finds no flammable, detonable or danger state in the tank now/,
+    );
+    fits(read(capped, 'hello'), /^mixwright fill b1$/);
+    // O2 read 15 Torr: going on from it keeps phi and the dilution, so the batch ends lower (by the re-target: the
+    // fuel and O2 in the tank, 15 Torr, over the design's 2 % of them: 751 Torr, by hand about 15 / 0.02 = 750)
+    const low = read(t, '15', 4);
+    expect(low.phase).toBe('below');
+    const g = fits(low, /BELOW ITS BAND$/).replace(/\n/g, ' ');
+    expect(g).toMatch(
+      /- next AB \(go on from 15 Torr; the batch ends at 751\.4 Torr instead of 1500\.0 Torr\): passes/,
+    );
+  });
+
   it('a batch id too long for the title row: what the screen is goes whole on the row under it', () => {
     const id = 'ng-surrogate-air-phi08-20261203T1627';
     const b = read(read(initialState(setupFromHeader(header(undefined, id))), '10.013', 2), '150', 3);
