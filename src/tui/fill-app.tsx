@@ -25,7 +25,7 @@ import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
-import { describeProblem, type Problem } from '../core/index.js';
+import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
@@ -1212,6 +1212,26 @@ function ChargeLine({ state }: ScreenProps) {
   );
 }
 
+/**
+ * the house caution of a fill's gas, one row (under 80 columns): an oxidizer (negative oxygen demand) and a
+ * fuel (positive) each their own, both for a gas that carries both; none for an inert gas. Common practice
+ * (oxygen service: clean, compatible parts, valves opened slowly against adiabatic compression); the
+ * lab's procedure and local rules govern.
+ */
+export function gasCaution(composition: Readonly<Record<string, number>>): string | undefined {
+  const demands = Object.entries(composition)
+    .filter(([, x]) => x > 0)
+    .map(([k]) => oxygenDemand(getSpecies(k).elements));
+  const oxidizer = demands.some((d) => d < 0);
+  const fuel = demands.some((d) => d > 0);
+  // each under 80 columns: "follow your lab's procedure and local rules" said short
+  const rules = 'lab procedure, local rules';
+  if (oxidizer && fuel) return `! Fuel + oxidizer: no ignition sources, open slowly; ${rules}`;
+  if (oxidizer) return `! Oxidizer: oxygen-service parts only, open slowly; ${rules}`;
+  if (fuel) return `! Flammable gas: no ignition sources, no leaks; ${rules}`;
+  return undefined;
+}
+
 function ReadingScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
@@ -1224,6 +1244,7 @@ function ReadingScreen({ state }: ScreenProps) {
     const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + state.barometerPa;
     return top < target + step.bandPa && (state.current === 0 || top >= state.targetsPa[state.current - 1]);
   });
+  const caution = gasCaution(step.source.composition);
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1248,9 +1269,9 @@ function ReadingScreen({ state }: ScreenProps) {
       </Text>
       {isolate.length ? (
         <Text bold>Before this fill: close off {isolate.map((g) => g.id).join(', ')}</Text>
-      ) : (
-        <Text> </Text>
-      )}
+      ) : null}
+      {caution ? <Text bold>{caution}</Text> : null}
+      {!isolate.length && !caution ? <Text> </Text> : null}
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}

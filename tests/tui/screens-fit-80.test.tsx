@@ -9,7 +9,7 @@ import { render } from 'ink-testing-library';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import { FillApp } from '../../src/tui/fill-app.js';
+import { FillApp, gasCaution } from '../../src/tui/fill-app.js';
 import { dropLeadingSpace } from '../../src/tui/para.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { splitHeader } from '../split-plan.js';
@@ -185,6 +185,25 @@ describe('the fill screens fit 80 x 24', () => {
     expect(g).toMatch(
       /- next AB \(go on from 15 Torr; the batch ends at 751\.4 Torr instead of 1500\.0 Torr\): passes/,
     );
+  });
+
+  it('each reading screen of a flammable or oxidizing gas carries its one-row caution; an inert gas none', () => {
+    // the demo's recommended order: CH4 (fuel), Ar 1/2 (inert), O2 (oxidizer), Ar 2/2
+    const ch4 = fits(s0, /^mixwright fill b1 /);
+    expect(ch4).toContain('! Flammable gas: no ignition sources, no leaks; lab procedure, local rules');
+    const ar = fits(s1, /^mixwright fill b1 /);
+    expect(ar).not.toMatch(/^! /m);
+    const o2 = read(s1, '480.81', 3);
+    expect(o2.phase).toBe('reading');
+    expect(fits(o2, /^mixwright fill b1 /)).toContain(
+      '! Oxidizer: oxygen-service parts only, open slowly; lab procedure, local rules',
+    );
+    // a premix that carries both (common practice: CH4 a fuel, O2 an oxidizer by their oxygen demand)
+    const both = gasCaution({ CH4: 0.33, O2: 0.67 })!;
+    expect(both).toMatch(/^! Fuel \+ oxidizer: no ignition sources, open slowly/);
+    for (const c of [both, gasCaution({ CH4: 1 })!, gasCaution({ O2: 1 })!])
+      expect(c.length).toBeLessThan(80);
+    expect(gasCaution({ Ar: 1 })).toBeUndefined();
   });
 
   it('a batch id too long for the title row: what the screen is goes whole on the row under it', () => {
