@@ -1245,6 +1245,8 @@ function ReadingScreen({ state }: ScreenProps) {
     return top < target + step.bandPa && (state.current === 0 || top >= state.targetsPa[state.current - 1]);
   });
   const caution = gasCaution(step.source.composition);
+  // the hints name this session's operator (after a resume by another, theirs), else an example
+  const who = state.operator ?? 'AB';
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1289,7 +1291,9 @@ function ReadingScreen({ state }: ScreenProps) {
           screen keeps 24 rows */}
       {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
       <Para>{state.error ? `! ${state.error}` : ' '}</Para>
-      <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
+      <Text>
+        Enter: log Tab: temp undo {who}: undo last fix N {who}: correct Ctrl-C: stop
+      </Text>
     </Box>
   );
 }

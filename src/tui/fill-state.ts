@@ -1274,7 +1274,7 @@ function onCappedEnter(s: FillState, now: string): FillState {
   if (!m)
     return {
       ...s,
-      error: 'type go, stop or undo and your initials (e.g. go AB; the ways above); every choice is logged',
+      error: 'type one of: go INITIALS, stop INITIALS or undo INITIALS (the ways above); each is logged',
     };
   const go = m[1].toLowerCase() === 'go';
   const by = m[2];

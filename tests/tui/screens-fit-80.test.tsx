@@ -206,6 +206,14 @@ describe('the fill screens fit 80 x 24', () => {
     expect(gasCaution({ Ar: 1 })).toBeUndefined();
   });
 
+  it("the key hints name the session's operator (a resume by another operator: theirs)", () => {
+    const qx = initialState(setupFromHeader(header()), undefined, NOW, { operator: 'QX' });
+    expect(qx.phase).toBe('reading');
+    const f = fits(qx, /^mixwright fill b1 /);
+    expect(f).toContain('undo QX: undo last fix N QX: correct');
+    expect(f).not.toContain('undo AB');
+  });
+
   it('a batch id too long for the title row: what the screen is goes whole on the row under it', () => {
     const id = 'ng-surrogate-air-phi08-20261203T1627';
     const b = read(read(initialState(setupFromHeader(header(undefined, id))), '10.013', 2), '150', 3);
