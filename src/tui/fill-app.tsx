@@ -421,6 +421,15 @@ function cut(text: string, rows: number, columns: number): string {
  * as filled and the stage-2 command), the log and the commands to run next, and the tank label when
  * there is room; else the label is its own page (l). b goes back, q or Enter quits.
  */
+/** the end screen's verdict line: check's verdict, and the notes (caveats) that follow it */
+function verdictLine(report: CheckReport | undefined): string | undefined {
+  if (!report) return undefined;
+  return (
+    `Re-check of the log (mixwright check): ${verdictWord(report)}` +
+    `${report.caveats.length ? ' (and see the notes below)' : ''}`
+  );
+}
+
 function EndScreen({
   state,
   check,
@@ -453,10 +462,7 @@ function EndScreen({
   const title = `${fillTitle(h)} - ${
     state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
   }`;
-  const verdict = report
-    ? `Re-check of the log (mixwright check): ${verdictWord(report)}` +
-      `${report.caveats.length ? ' (and see the notes below)' : ''}`
-    : undefined;
+  const verdict = verdictLine(report);
   const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
   // the tank above its working limit (a reading there accepted): said whole, whatever the message
   const above = state.aboveLimitText ? `! ${state.aboveLimitText}` : undefined;
@@ -1046,7 +1052,7 @@ function CappedScreen({ state }: ScreenProps) {
   const w = c.ways;
   const goFound = w
     ? w.goingOn.length
-      ? `the review finds ${w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, which the plan did not have`
+      ? `the review finds ${w.goingOn.map(hazardShort).join(', ')}, which the plan did not have`
       : 'the review finds no hazard the plan did not have'
     : 'not reviewed';
   const stopFound = w
@@ -1211,6 +1217,10 @@ function ChargeLine({ state }: ScreenProps) {
     </Para>
   );
 }
+
+/** a hazard of a review, short: "DANGER detonable-state (fill 3)" */
+const hazardShort = (z: { severity: string; code: string; step: number | null }) =>
+  `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`;
 
 /**
  * the house caution of a fill's gas, one row (under 80 columns): an oxidizer (negative oxygen demand) and a
