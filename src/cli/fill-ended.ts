@@ -19,6 +19,8 @@ export interface FillOutcome {
   planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the log does not show accepted */
   recordedFillDangers?: readonly unknown[];
+  /** the tank at the end in a hazard or above its working limit: what it is now, one line each */
+  tankNow?: string;
 }
 
 /** what the exit code means, on stderr, for each code but 0 */
@@ -26,7 +28,11 @@ function why(code: number, logFile: string, r: FillOutcome): string {
   const see = `see \`mixwright check ${logFile}\``;
   switch (code) {
     case EXIT.outOfTolerance:
-      return `the re-check of the batch is FAIL (out of tolerance, or stopped before the last fill); ${see}`;
+      return (
+        `the re-check of the batch is FAIL (out of tolerance, or stopped before the last fill)` +
+        (r.danger ? '; a danger finding stands in the record as well (see above and the re-check)' : '') +
+        `; ${see}`
+      );
     case EXIT.danger:
       return (
         `a danger finding stands in the record (e.g. a reading past the working limit): do not use the ` +
@@ -69,6 +75,8 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
     );
     throw new ExitSignal(EXIT.interrupted);
   }
+  // the tank as it stands, whatever the verdict: it is in the state the review found, not past it
+  for (const line of r.tankNow?.split('\n') ?? []) if (line) cli.err(`mixwright: ${logFile}: ${line}\n`);
   // no re-check (the batch left open): nothing to report beyond the screen
   if (r.verdict === undefined) return;
   const code = checkExit({

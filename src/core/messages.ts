@@ -615,7 +615,17 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
     case 'resume-with-recipe':
       return 'a resumed fill takes its design from the log; give --resume LOG alone';
     case 'log-closed':
-      return 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`';
+      if (p.made === undefined || p.of === undefined || p.made >= p.of)
+        return 'this batch log is closed: the fill is finished. Re-check it with `mixwright check`';
+      return (
+        `this batch log was closed before fill ${p.made + 1} of ${p.of}: the batch is INCOMPLETE ` +
+        `(${p.made} of ${p.of} fills logged${p.note ? `; closed: ${p.note}` : ''}) and a closed log is not ` +
+        'resumed. Re-check it with `mixwright check` (the tank is what its readings say, not the design). ' +
+        "To finish the tank, make it a top-up batch in a new log: add the `in_tank` line (the tank's " +
+        'composition from the readings, at the pressure read now) to a copy of its recipe, then `mixwright ' +
+        'plan` and `mixwright fill` on the copy (README, Usage: the guided fill); if `plan` refuses the ' +
+        'copy, the design cannot be reached from that tank'
+      );
     case 'bad-batch-id':
       return `batch id "${p.id}" may hold letters, digits, '.', '_' and '-' only`;
     case 'bad-initials':

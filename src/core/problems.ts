@@ -239,8 +239,11 @@ export type Problem =
   /** an interactive command run where stdin and stdout are not a terminal */
   | { readonly code: 'needs-terminal'; readonly command: 'fill' | 'wizard' }
   | { readonly code: 'resume-with-recipe' }
-  /** a batch log whose fill is finished, given to --resume */
-  | { readonly code: 'log-closed' }
+  /**
+   * a closed batch log given to --resume: `made` of `of` fills logged when it was closed (fewer: it was
+   * stopped before its last fill), and the close line's note
+   */
+  | { readonly code: 'log-closed'; readonly made?: number; readonly of?: number; readonly note?: string }
   /** a batch id that cannot be a file name */
   | { readonly code: 'bad-batch-id'; readonly id: string }
   /** `fill --by` given something other than initials (1-6 letters) */

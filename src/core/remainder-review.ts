@@ -170,7 +170,8 @@ function judgeRemainder(
   const known = new Set(input.planned.map(hazardKey));
   const { start, fills } = sequenceOf(input.retarget, r);
   const ctx: SafetyContext = { ...input.safety, temperatureK: input.retarget.temperatureK };
-  const findings = fills.length ? reviewSequence(start, fills, ctx, locate) : [];
+  // every fill made (the last one read below its band): the tank as it stands is the whole review
+  const findings = fills.length || start ? reviewSequence(start, fills, ctx, locate) : [];
   const fresh = findings.filter((f) => !known.has(hazardKey(f)));
   return {
     findings,

@@ -39,7 +39,8 @@ export interface SequenceFill {
 }
 
 /**
- * The states and fill events of a sequence; the last fill's state is the finished batch.
+ * The states and fill events of a sequence; the last fill's state is the finished batch (the start's,
+ * when no fill follows it).
  * `start` undefined: an evacuated tank (the first fill's path starts from nothing).
  */
 export function sequenceEvents(
@@ -53,7 +54,8 @@ export function sequenceEvents(
         step: start.step,
         composition: start.composition,
         pressurePa: start.pressurePa,
-        final: false,
+        // no fill after it: the gas it starts with is the finished batch (a batch closed as it stands)
+        final: fills.length === 0,
         ...(start.temperatureK === undefined ? {} : { temperatureK: start.temperatureK }),
       }
     : undefined;

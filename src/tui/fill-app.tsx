@@ -25,7 +25,7 @@ import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
-import { describeProblem, type Problem } from '../core/index.js';
+import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
@@ -44,6 +44,11 @@ export interface FillAppProps {
   readonly onInterrupt?: () => void;
   /** the end screen's re-check, once it is there (the shell's exit code follows it) */
   readonly onReport?: (report: CheckReport) => void;
+  /**
+   * the fill ended with the tank in a hazard (a batch closed or stopped below a band) or above its working
+   * limit: what it is now, one line each (the shell repeats them)
+   */
+  readonly onTankNow?: (text: string) => void;
 }
 
 export function toActions(
@@ -98,7 +103,7 @@ function relText(pct: number): string {
   return Math.abs(pct) < 0.001 ? ' <0.001' : `${pct >= 0 ? '+' : '-'}${fixedSig(Math.abs(pct), 2)}`;
 }
 
-function JudgementView({ j }: { j: CompositionJudgement }) {
+function JudgementView({ j, compact }: { j: CompositionJudgement; compact?: boolean }) {
   const head =
     j.kind === 'final'
       ? 'Composition as filled (inverse model, typed temperatures): ' +
@@ -121,6 +126,21 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
   const row = (d: CompositionJudgement['deviations'][number]) =>
     `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %` +
     (tol.length > 1 ? ` (tol ${tolOf(d)} %)` : '');
+  if (compact) {
+    // one wrapped row of the species outside (a screen that has the ways on to show as well)
+    const out = j.deviations.filter((d) => !d.within);
+    return (
+      <Box flexDirection="column">
+        <Text bold={j.verdict === 'fail'}>{head}</Text>
+        {out.length ? (
+          <Para>
+            {`  ${out.map((d) => `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %`).join(', ')}` +
+              ` rel: OUT (tol ${[...new Set(out.map(tolOf))].join(' / ')} %)`}
+          </Para>
+        ) : null}
+      </Box>
+    );
+  }
   return (
     <Box flexDirection="column">
       <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
@@ -144,6 +164,11 @@ function JudgementView({ j }: { j: CompositionJudgement }) {
   );
 }
 
+/** what the tank is now at the end of a fill, where it is not what the plan made: one line each */
+function endNotesOf(s: FillState): string[] {
+  return [s.tankNowText, s.aboveLimitText].filter((x): x is string => Boolean(x));
+}
+
 type Recheck = { report: CheckReport; log: ParsedLog } | { error: string } | undefined;
 
 export function FillApp({
@@ -154,9 +179,15 @@ export function FillApp({
   recheck,
   onInterrupt,
   onReport,
+  onTankNow,
 }: FillAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const check = useRecheckAtEnd(state.phase, recheck, onReport);
+  const ended = state.phase === 'done' || state.phase === 'ended';
+  const tankNow = ended ? endNotesOf(state).join('\n') : '';
+  useEffect(() => {
+    if (tankNow) onTankNow?.(tankNow);
+  }, [tankNow, onTankNow]);
   const app = useApp();
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
@@ -390,6 +421,15 @@ function cut(text: string, rows: number, columns: number): string {
  * as filled and the stage-2 command), the log and the commands to run next, and the tank label when
  * there is room; else the label is its own page (l). b goes back, q or Enter quits.
  */
+/** the end screen's verdict line: check's verdict, and the notes (caveats) that follow it */
+function verdictLine(report: CheckReport | undefined): string | undefined {
+  if (!report) return undefined;
+  return (
+    `Re-check of the log (mixwright check): ${verdictWord(report)}` +
+    `${report.caveats.length ? ' (and see the notes below)' : ''}`
+  );
+}
+
 function EndScreen({
   state,
   check,
@@ -422,21 +462,24 @@ function EndScreen({
   const title = `${fillTitle(h)} - ${
     state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
   }`;
-  const verdict = report
-    ? `Re-check of the log (mixwright check): ${verdictWord(report)}` +
-      `${report.caveats.length ? ' (and see the notes below)' : ''}`
-    : undefined;
-  const message = state.message ? cut(state.message, 4, columns) : undefined;
+  const verdict = verdictLine(report);
   const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
-  const fixed =
+  // the tank above its working limit (a reading there accepted): said whole, whatever the message
+  const above = state.aboveLimitText ? `! ${state.aboveLimitText}` : undefined;
+  const others =
     rowsOf(title, columns) +
-    (message ? rowsOf(message, columns) : 0) +
+    (above ? rowsOf(above, columns) : 0) +
     1 +
     (verdict ? rowsOf(verdict, columns) : 1) +
     caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
     (stage.length ? 1 + stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
     rowsOf(logLine, columns) +
     1;
+  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
+  const message = state.message
+    ? cut(state.message, Math.max(2, Math.min(4, rows - 1 - others)), columns)
+    : undefined;
+  const fixed = others + (message ? rowsOf(message, columns) : 0);
   const labelRows = label ? 3 + label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
   const labelHere = Boolean(label) && fixed + labelRows <= rows - 1;
   const keys = [
@@ -470,6 +513,7 @@ function EndScreen({
     <Box flexDirection="column">
       <Para bold>{title}</Para>
       {message ? <Para>{message}</Para> : null}
+      {above ? <Para bold>{above}</Para> : null}
       <Text> </Text>
       {state.judgement && !label ? <JudgementView j={state.judgement} /> : null}
       {recheck && !check ? <Text>Re-checking the log as `mixwright check` does...</Text> : null}
@@ -478,7 +522,7 @@ function EndScreen({
           ! the re-check of the log failed: {check.error}; run `mixwright check {logFile}`
         </Para>
       ) : null}
-      {verdict ? <Text bold>{verdict}</Text> : null}
+      {verdict ? <Para bold>{verdict}</Para> : null}
       {caveats.map((c, i) => (
         <Para key={i} bold>
           ! {c}
@@ -572,14 +616,9 @@ function BelowScreen({ state }: ScreenProps) {
           {state.done[m - 1]?.text}
         </Text>
       </Box>
-      {lastFill && state.judgement ? <JudgementView j={state.judgement} /> : null}
+      {lastFill && state.judgement ? <JudgementView j={state.judgement} compact /> : null}
       {lastFill ? (
-        <Para>
-          Add more {ls.species} from {ls.source.id} and type the new reading and your initials (e.g. 1500.2
-          AB): it corrects the logged one (reason: more gas added; the log keeps both). Or: undo INITIALS
-          (withdraw the reading) fix N INITIALS (correct fill N) close INITIALS (close the batch below the
-          target; the re-check judges it)
-        </Para>
+        <LastWaysView state={state} stop={`${stop} ${lu}`} />
       ) : (
         <BelowWaysView state={state} stop={`${stop} ${lu}`} />
       )}
@@ -635,9 +674,20 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
     : 'not reviewed';
   const tank = w
     ? w.tankNow.length
-      ? `the tank now holds ${w.tankNow.join(', ')}`
+      ? `the tank NOW holds ${w.tankNow.join(', ')}`
       : 'no flammable or danger state in the tank now'
     : 'not reviewed';
+  // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
+  const K = state.setup.steps.length;
+  const last = state.setup.steps[K - 1];
+  const finalPa = state.targetsPa[K - 1];
+  const designPa = state.setup.header.final_pressure_Pa;
+  const fu = unitOf(last);
+  const ends =
+    finalPa !== undefined && designPa !== undefined && Math.abs(finalPa - designPa) > last.bandPa
+      ? `; the batch ends at ${fromPa(finalPa, fu).toFixed(1)} ${fu} instead of ` +
+        `${fromPa(designPa, fu).toFixed(1)} ${fu}`
+      : '';
   return (
     <Box flexDirection="column">
       <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
@@ -647,12 +697,49 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
         {cont ? (cont.still.length ? `still ${found(cont.still)}` : found([])) : 'not reviewed'}
       </Para>
       <Para>
-        - next AB (go on from {state.done[m - 1]?.text}): {next}
+        - next AB (go on from {state.done[m - 1]?.text}
+        {ends}): {next}
       </Para>
       <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
       <Para>
         A further reading is logged as a correction of fill {m} (more gas added; the log keeps both). undo AB:
         withdraw it fix N AB: correct fill N
+      </Para>
+    </Box>
+  );
+}
+
+/**
+ * the ways on from the last fill read below its band, each with what its review found (belowWays): the
+ * tank as it stands is reviewed for the close offer, as the stop offer of a fill before the last is
+ */
+function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
+  const w = state.belowWays;
+  const ls = state.setup.steps[state.done.length - 1];
+  const cont = w?.continuing;
+  const still = cont
+    ? cont.still.length
+      ? `still passes ${cont.still.join(', ')}`
+      : 'passes no hazard the plan did not have'
+    : 'not reviewed';
+  const tank = w
+    ? w.tankNow.length
+      ? `the tank NOW holds ${w.tankNow.join(', ')}`
+      : 'no flammable, detonable or danger state in the tank now'
+    : 'not reviewed';
+  return (
+    <Box flexDirection="column">
+      <Text>The ways on, each reviewed (the tank as it stands, and the rest of the fill):</Text>
+      <Para>
+        - continue: add {ls.species} from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
+        {stop.split(' ')[0]} AB): {still}
+      </Para>
+      <Para bold={Boolean(w?.tankNow.length)}>
+        - close AB (close the batch below the target; the re-check judges it): {tank}
+      </Para>
+      <Para>
+        A new reading corrects the logged one (more gas added; the log keeps both). undo AB: withdraw it fix N
+        AB: correct fill N
       </Para>
     </Box>
   );
@@ -901,8 +988,8 @@ function OverLimitScreen({ state }: ScreenProps) {
             "batch's final pressure) "
           : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there ' +
             'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
-        accept INITIALS: keep the tank as it is (logged) edit INITIALS: it was mistyped (withdrawn, with a
-        trace)
+        accept INITIALS: keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)
+        edit INITIALS: it was mistyped (withdrawn, with a trace)
       </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
@@ -961,6 +1048,18 @@ function CappedScreen({ state }: ScreenProps) {
         : '')
     );
   });
+  // what each choice's review found (fill-review belowBandWays): never called safe unless it found nothing
+  const w = c.ways;
+  const goFound = w
+    ? w.goingOn.length
+      ? `the review finds ${w.goingOn.map(hazardShort).join(', ')}, which the plan did not have`
+      : 'the review finds no hazard the plan did not have'
+    : 'not reviewed';
+  const stopFound = w
+    ? w.tankNow.length
+      ? `the tank NOW holds ${w.tankNow.join(', ')}`
+      : 'the review finds no flammable, detonable or danger state in the tank now'
+    : 'not reviewed';
   return (
     <Box flexDirection="column">
       <ScreenTitle
@@ -975,9 +1074,13 @@ function CappedScreen({ state }: ScreenProps) {
       <Para>Capped targets: {ahead.join('; ')}.</Para>
       <Text> </Text>
       <Para>
-        go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
-        {c.outside.length ? ', off the design' : ''}) undo INITIALS: the last reading was mistyped stop
-        INITIALS: stop the batch here. Each choice is logged; Ctrl-C stops without one (resuming asks again).
+        - go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
+        {c.outside.length ? ', OFF THE DESIGN' : ''}): {goFound}
+      </Para>
+      <Para>- stop INITIALS: stop the batch here (incomplete): {stopFound}</Para>
+      <Para>
+        undo INITIALS: the last reading was mistyped. Each choice is logged; Ctrl-C stops without one
+        (resuming asks again).
       </Para>
       <Prompt state={state} />
       <ErrorLine state={state} />
@@ -1115,6 +1218,30 @@ function ChargeLine({ state }: ScreenProps) {
   );
 }
 
+/** a hazard of a review, short: "DANGER detonable-state (fill 3)" */
+const hazardShort = (z: { severity: string; code: string; step: number | null }) =>
+  `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`;
+
+/**
+ * the house caution of a fill's gas, one row (under 80 columns): an oxidizer (negative oxygen demand) and a
+ * fuel (positive) each their own, both for a gas that carries both; none for an inert gas. Common practice
+ * (oxygen service: clean, compatible parts, valves opened slowly against adiabatic compression); the
+ * lab's procedure and local rules govern.
+ */
+export function gasCaution(composition: Readonly<Record<string, number>>): string | undefined {
+  const demands = Object.entries(composition)
+    .filter(([, x]) => x > 0)
+    .map(([k]) => oxygenDemand(getSpecies(k).elements));
+  const oxidizer = demands.some((d) => d < 0);
+  const fuel = demands.some((d) => d > 0);
+  // each under 80 columns: "follow your lab's procedure and local rules" said short
+  const rules = 'lab procedure, local rules';
+  if (oxidizer && fuel) return `! Fuel + oxidizer: no ignition sources, open slowly; ${rules}`;
+  if (oxidizer) return `! Oxidizer: oxygen-service parts only, open slowly; ${rules}`;
+  if (fuel) return `! Flammable gas: no ignition sources, no leaks; ${rules}`;
+  return undefined;
+}
+
 function ReadingScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
@@ -1127,6 +1254,9 @@ function ReadingScreen({ state }: ScreenProps) {
     const top = g.reference === 'absolute' ? g.full_scale_Pa : g.full_scale_Pa + state.barometerPa;
     return top < target + step.bandPa && (state.current === 0 || top >= state.targetsPa[state.current - 1]);
   });
+  const caution = gasCaution(step.source.composition);
+  // the hints name this session's operator (after a resume by another, theirs), else an example
+  const who = state.operator ?? 'AB';
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1151,9 +1281,9 @@ function ReadingScreen({ state }: ScreenProps) {
       </Text>
       {isolate.length ? (
         <Text bold>Before this fill: close off {isolate.map((g) => g.id).join(', ')}</Text>
-      ) : (
-        <Text> </Text>
-      )}
+      ) : null}
+      {caution ? <Text bold>{caution}</Text> : null}
+      {!isolate.length && !caution ? <Text> </Text> : null}
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
@@ -1171,7 +1301,9 @@ function ReadingScreen({ state }: ScreenProps) {
           screen keeps 24 rows */}
       {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
       <Para>{state.error ? `! ${state.error}` : ' '}</Para>
-      <Text>Enter: log Tab: temp undo AB: undo last fix N AB: correct Ctrl-C: stop</Text>
+      <Text>
+        Enter: log Tab: temp undo {who}: undo last fix N {who}: correct Ctrl-C: stop
+      </Text>
     </Box>
   );
 }

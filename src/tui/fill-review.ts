@@ -254,6 +254,7 @@ export interface BelowWays {
   readonly tankNow: readonly string[];
 }
 
+const rank = (f: Finding) => (f.severity === 'danger' ? 0 : f.severity === 'warning' ? 1 : 2);
 const shortOf = (f: Finding) => `${f.severity.toUpperCase()} ${f.code}${f.step ? ` (fill ${f.step})` : ''}`;
 
 /**
@@ -273,8 +274,28 @@ export function belowBandWays(s: FillState, input: RetargetInput): BelowWays {
   return {
     ...(c ? { continuing: { toPa: c.toPa, still: open(c.hazards).map(shortOf) } } : {}),
     goingOn: open(rv.goingOn).map(reviewHazardOf),
-    tankNow: rv.tankNow.map(shortOf),
+    // its dangers first
+    tankNow: [...rv.tankNow].sort((a, b) => rank(a) - rank(b)).map(shortOf),
   };
+}
+
+/**
+ * what the tank holds now, as the review of the tank as it stands found it (BelowWays.tankNow), in the
+ * present tense with the usual cautions; undefined when it found nothing flammable, detonable or dangerous
+ */
+export function tankNowWords(tankNow: readonly string[] | undefined): string | undefined {
+  if (!tankNow?.length) return undefined;
+  const all = tankNow.join(', ');
+  const kind = /detonable/.test(all)
+    ? 'a detonable, flammable mixture'
+    : /flammable/.test(all)
+      ? 'a flammable mixture'
+      : 'a state the review rates as a danger';
+  // the cautions before the list: a screen that cuts the message keeps them
+  return (
+    `the tank NOW holds ${kind}: keep its valves closed, do not use or vent it except under your lab's ` +
+    `procedure, defer to local rules and the supplier's safety data (${all})`
+  );
 }
 
 function reviewHazardOf(f: Finding): ReviewHazard {

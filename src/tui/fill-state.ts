@@ -55,6 +55,7 @@ import {
 } from '../io/batch-log.js';
 import {
   belowBandWays,
+  tankNowWords,
   onReviewEnter,
   reviewMemoryOf,
   withReview,
@@ -295,6 +296,8 @@ export interface Capped {
   readonly outside: readonly string[];
   /** the cost in words (final pressure, each mole fraction against the design) */
   readonly cost: string;
+  /** go (the capped fills ahead) and stop (the tank as it stands), each as its review found it */
+  readonly ways?: BelowWays;
 }
 
 export interface FillState {
@@ -343,8 +346,15 @@ export interface FillState {
    * them: each fill's screen shows those at its step for as long as it is on screen
    */
   readonly acceptedHazards?: readonly ReviewHazard[];
-  /** in phase 'below' of a fill before the last: each way on (continue, next, stop) as its review found it */
+  /**
+   * in phase 'below': each way on (continue, and next or stop before the last fill; close on the last) as
+   * its review found it
+   */
   readonly belowWays?: BelowWays;
+  /** a batch closed or stopped below a band: what the tank holds now, in words (tankNowWords), if anything */
+  readonly tankNowText?: string;
+  /** a reading above the working limit accepted (not vented since): the tank is above it, and what to do */
+  readonly aboveLimitText?: string;
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
   /** who fills in this session (initials): logged on every reading it takes */
@@ -1245,6 +1255,8 @@ function cappedScreen(
       limitPa: s.setup.workingLimitPa!,
       outside: deviations.filter((d) => !d.within).map((d) => d.species),
       cost: limitCost(finalText, deviations),
+      // both choices reviewed as the below-band screen's are: the capped fills ahead, and the tank now
+      ways: belowBandWays(s, retargetInput(s, s.done, s.targetTemperatureK)),
     },
   };
 }
@@ -1262,9 +1274,7 @@ function onCappedEnter(s: FillState, now: string): FillState {
   if (!m)
     return {
       ...s,
-      error:
-        'type one of: go INITIALS (fill to the capped targets), undo INITIALS (the reading was mistyped), ' +
-        'stop INITIALS (the batch stops here); every choice is logged. Ctrl-C stops without a choice',
+      error: 'type one of: go INITIALS, stop INITIALS or undo INITIALS (the ways above); each is logged',
     };
   const go = m[1].toLowerCase() === 'go';
   const by = m[2];
@@ -1283,15 +1293,19 @@ function onCappedEnter(s: FillState, now: string): FillState {
     note: `${what}; ${go ? `${by} went on to the capped targets` : `${by} stopped the batch here`}`,
     cap: { outcome: go ? 'continued' : 'stopped', final_Pa: c.finalPa, outside: [...c.outside] },
   };
-  if (!go)
+  if (!go) {
+    const tankNowText = tankNowWords(c.ways?.tankNow);
+    const tank = tankNowText ? `; ${tankNowText}` : '';
     return {
       ...s,
       phase: 'ended',
       capped: undefined,
       input: '',
-      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} ${c.after}: ${what}` }],
-      message: `stopped by ${by} ${c.after} (logged): ${what}`,
+      ...(tankNowText ? { tankNowText } : {}),
+      effects: [ack, { kind: 'close', time: now, note: `stopped by ${by} ${c.after}: ${what}${tank}` }],
+      message: `stopped by ${by} ${c.after} (logged): ${what}${tank}`,
     };
+  }
   const entered = enterStep({
     ...s,
     phase: 'reading',
@@ -1544,6 +1558,8 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     };
   }
   const { judgement, summary } = finalJudgement(s);
+  // the last fill: continuing it and closing the batch as it stands are reviewed as before the last
+  const belowWays = belowBandWays(s, retargetInput(s, s.done, s.targetTemperatureK));
   return {
     ...s,
     phase: 'below',
@@ -1551,7 +1567,7 @@ function belowBand(s: FillState, step: FillStep, targetPa: number, pressureText:
     summary,
     input: '',
     field: 'reading',
-    belowWays: undefined,
+    belowWays,
     message:
       `${pressureText}: ${fmtIn(last.pressurePa, unit)} absolute is BELOW the target ` +
       `${fmtIn(targetPa, unit)} of the last fill by more than its band (${fmtIn(step.bandPa, unit, 3)}); ` +
@@ -1702,7 +1718,7 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
         `reading ${fmtIn(p.done.pressurePa, unit)} absolute after fill ${step.index} ` +
         `is above the working limit ${fmtIn(o.limitPa, unit)} of ${s.setup.header.tank.id}; accepted`,
     };
-    return commit(s, p, [ack], now);
+    return { ...commit(s, p, [ack], now), aboveLimitText: aboveLimitWords(s, p.done.pressurePa, o.limitPa) };
   }
   const vent = /^vent\s+([A-Za-z]{1,6})$/i.exec(text);
   if (/^vent\b/i.test(text) && !vent)
@@ -1718,6 +1734,17 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
       'your initials (keep the tank as it is; logged), or "edit" and your initials ' +
       '(it was mistyped: the reading is withdrawn, with a trace), then Enter',
   };
+}
+
+/** the tank left above its working limit (a reading there accepted): where it is, and what to do */
+export function aboveLimitWords(s: FillState, pressurePa: number, limitPa: number): string {
+  const unit = gaugeUnit(s.setup.steps[Math.min(s.current, s.setup.steps.length - 1)]);
+  return (
+    `the tank ${s.setup.header.tank.id} is STILL ABOVE its working limit: ${fmtIn(pressurePa, unit)} ` +
+    `absolute logged vs the limit ${fmtIn(limitPa, unit)}. Close the cylinder and tank valves and bring it ` +
+    `below the limit by your lab's procedure (vent or pump back to a safe place, away from ignition ` +
+    `sources); do not use it until then; defer to local rules and the tank's rating`
+  );
 }
 
 /** vent chosen on the danger screen: the vent is logged, then the tank is read after venting */
@@ -1746,6 +1773,7 @@ function ventChosen(s: FillState, p: Pending, o: OverLimit, by: string, now: str
     current: s.current + 1,
     pending: undefined,
     overLimit: undefined,
+    aboveLimitText: undefined,
     phase: 'vented',
     input: '',
     field: 'reading',
@@ -2490,12 +2518,11 @@ function onBelowEnter(s: FillState, now: string): FillState {
   if ('error' in w)
     return {
       ...s,
-      error:
-        `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
-        (lastFill
-          ? 'close INITIALS (closes the batch below the target)'
-          : 'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
-            'INITIALS (stop the batch here, incomplete)'),
+      error: lastFill
+        ? `${w.error}; or undo, fix N or close with initials (above)`
+        : `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
+          'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
+          'INITIALS (stop the batch here, incomplete)',
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);
@@ -2584,16 +2611,22 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
         'INITIALS (go on from the logged reading) or stop INITIALS (stop the batch here, incomplete)',
     };
   if (!close) return { ...s, error: 'type "close" and your initials, e.g. close AB' };
+  const tankNowText = tankNowWords(s.belowWays?.tankNow);
   const f = finish(
     { ...s, input: '' },
     now,
-    `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band`,
+    `closed by ${close[1]} with the last fill (fill ${step.index}) below its target band` +
+      (tankNowText ? `; ${tankNowText}` : ''),
   );
   return {
     ...f,
+    ...(tankNowText ? { tankNowText } : {}),
     message:
       `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
-      `the re-check below judges the tank as it is`,
+      (tankNowText
+        ? `${tankNowText}; the re-check below judges the composition`
+        : 'the review finds no flammable, detonable or danger state in the tank now; the re-check below ' +
+          'judges the tank as it is'),
   };
 }
 
@@ -2655,12 +2688,11 @@ function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading
   const unit = gaugeUnit(step);
   const rest = s.setup.steps.slice(s.done.length).map((x) => x.index);
   const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
-  const tank = s.belowWays?.tankNow.length
-    ? `the review finds in the tank now: ${s.belowWays.tankNow.join(', ')}: keep it closed and follow ` +
-      "your lab's procedure for it"
-    : 'the review finds no flammable, detonable or danger state in the tank now';
+  const tankNowText = tankNowWords(s.belowWays?.tankNow);
+  const tank = tankNowText ?? 'the review finds no flammable, detonable or danger state in the tank now';
   return {
     ...s,
+    ...(tankNowText ? { tankNowText } : {}),
     phase: 'ended',
     input: '',
     effects: [
@@ -2669,7 +2701,8 @@ function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading
         time: now,
         note:
           `stopped by ${m[1]} with ${fillName(step)} below its band at ${last.text} (target ` +
-          `${fmtIn(s.targetsPa[s.done.length - 1], unit)} absolute): ${notMade}`,
+          `${fmtIn(s.targetsPa[s.done.length - 1], unit)} absolute): ${notMade}` +
+          (tankNowText ? `; ${tankNowText}` : ''),
       },
     ],
     message:

@@ -57,6 +57,8 @@ export interface FillOutcome {
   readonly planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the log does not show accepted (check: exit 6) */
   readonly recordedFillDangers?: readonly unknown[];
+  /** the batch closed or stopped below a band with a hazard in the tank: what it holds now, in words */
+  readonly tankNow?: string;
 }
 
 /** what the shell needs of `check`'s re-check of the closed log to exit as `check` would */
@@ -104,6 +106,7 @@ export async function runFill(args: {
       ? { message: [...opened.messages, initial.message].filter(Boolean).join('; ') }
       : {};
     let report: CheckReport | undefined;
+    let tankNow: string | undefined;
     const app = render(
       <FillApp
         initial={{ ...initial, ...told, effects: [] }}
@@ -112,6 +115,7 @@ export async function runFill(args: {
         recheck={recheck}
         onInterrupt={() => (interrupted = true)}
         onReport={(r) => (report = r)}
+        onTankNow={(t) => (tankNow = t)}
       />,
       { exitOnCtrlC: false },
     );
@@ -125,6 +129,7 @@ export async function runFill(args: {
       steps: setup.steps.length,
       logFile: args.logFile,
       ...outcomeOfReport(report),
+      ...(tankNow ? { tankNow } : {}),
     };
   } finally {
     opened.handle.release();

@@ -1,7 +1,7 @@
 // `fill` exits as `check` of its closed log would (README "Exit codes"): the end screen's re-check is
 // check's own, and the exit code comes from check's own function (checkExit), so a fill that went on
 // through an accepted review hazard exits 6 like `check`, not 0.
-import { copyFileSync, mkdtempSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -11,6 +11,7 @@ import { checkExit } from '../../src/cli/commands/check.js';
 import { ExitSignal, EXIT } from '../../src/cli/context.js';
 import { fillEnded } from '../../src/cli/fill-ended.js';
 import { outcomeOfReport } from '../../src/tui/run.js';
+import { runCli } from '../helpers.js';
 
 const DEMO = 'batches/demo-ch4-phi1-ar98.jsonl';
 const accepted: NewLogEvent = {
@@ -85,5 +86,57 @@ describe('fill exits as check of its log', () => {
     );
     expect(exitOf({ ...base, interrupted: true }).code).toBe(130);
     expect(exitOf({ ...base }).code).toBe(0);
+  });
+
+  it('the tank left above its working limit or holding a hazard: each line is said before the exit reason', () => {
+    const r = exitOf({
+      interrupted: false,
+      logged: 4,
+      steps: 4,
+      verdict: 'fail',
+      danger: true,
+      tankNow: 'the tank MT-1 is STILL ABOVE its working limit: 5000.00 Torr absolute logged\nsecond line',
+    });
+    expect(r.code).toBe(EXIT.outOfTolerance);
+    const lines = r.err.trim().split('\n');
+    expect(lines[0]).toBe(
+      'mixwright: b.jsonl: the tank MT-1 is STILL ABOVE its working limit: 5000.00 Torr absolute logged',
+    );
+    expect(lines[1]).toBe('mixwright: b.jsonl: second line');
+    // a FAIL that hides the danger exit code still says the danger stands
+    expect(lines[2]).toMatch(/FAIL .*a danger finding stands in the record as well/);
+  });
+});
+
+describe('fill --resume of a closed log', () => {
+  it('closed before its last fill: says so (incomplete, fill N of K) and points to the top-up route of the README', async () => {
+    const f = join(mkdtempSync(join(tmpdir(), 'mw-fill-closed-')), 'b.jsonl');
+    // the demo log's header and its first two readings (a prefix of its hash chain), then a close line
+    writeFileSync(f, readFileSync(DEMO, 'utf8').split('\n').slice(0, 3).join('\n') + '\n');
+    appendEvent(f, {
+      kind: 'close',
+      time: '2026-11-30T10:00:00Z',
+      note: 'stopped by QX: the O2 cylinder is empty',
+    });
+    const before = readFileSync(f, 'utf8');
+    const r = await runCli(['fill', '--resume', f], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain(
+      'this batch log was closed before fill 3 of 3: the batch is INCOMPLETE (2 of 3',
+    );
+    expect(r.stderr).toContain('closed: stopped by QX: the O2 cylinder is empty');
+    expect(r.stderr).not.toContain('the fill is finished');
+    expect(r.stderr).toMatch(
+      /top-up batch in a new log: add the `in_tank` line .* `mixwright plan` and `mixwright fill`/,
+    );
+    expect(readFileSync(f, 'utf8')).toBe(before);
+  });
+
+  it('closed after its last fill: the fill is finished', async () => {
+    const f = join(mkdtempSync(join(tmpdir(), 'mw-fill-closed-')), 'b.jsonl');
+    copyFileSync(DEMO, f);
+    const r = await runCli(['fill', '--resume', f], true);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('this batch log is closed: the fill is finished');
   });
 });

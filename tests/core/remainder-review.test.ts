@@ -184,4 +184,30 @@ describe('an incomplete diluent charge: continuing it is the safer way', () => {
     });
     expect(codes(ways.tankNow)).toContain('flammable-state@3');
   });
+  it('every fill made, the last read below its target: the tank as it stands is reviewed (closing leaves it so)', () => {
+    // as above, then the last Ar fill read at 170 Torr (target about 1500): 10 Torr CH4, 15 Torr O2 and 145
+    // Torr Ar; N2-equivalent sum 10 + 15 + 0.55 x 145 = 104.75 (ISO 10156, by hand): fuel 9.5 %, O2 14.3 %,
+    // past the LFL 4.4 % and the LOC 10.7 %: flammable, and it is the finished batch
+    const ways = reviewBelowBand({
+      retarget: input([ch4, 150, 165, 170]),
+      safety,
+      planned,
+      lastBandPa: plan.steps[3].bandPa,
+    });
+    // no fill ahead: what the plan did not have is the tank itself
+    expect(codes(ways.goingOn).every((c) => c.endsWith('@4'))).toBe(true);
+    expect(codes(ways.tankNow).filter((c) => /^flammable-(state|mixture)@4$/.test(c)).length).toBeGreaterThan(
+      0,
+    );
+    // continuing the last fill to its target is reviewed too
+    expect(ways.continuing!.toPa).toBeGreaterThan(170 * TORR);
+    // the same readings with no band given: the tank is still reviewed (no fill ahead is no empty review)
+    const rv = reviewRemainder({
+      retarget: input([ch4, 150, 165, 170]),
+      safety,
+      planned,
+      searchAlternative: false,
+    });
+    expect(codes(rv.findings).some((c) => c.endsWith('@4'))).toBe(true);
+  });
 });

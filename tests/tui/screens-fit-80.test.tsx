@@ -9,7 +9,7 @@ import { render } from 'ink-testing-library';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import { FillApp } from '../../src/tui/fill-app.js';
+import { FillApp, gasCaution } from '../../src/tui/fill-app.js';
 import { dropLeadingSpace } from '../../src/tui/para.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { splitHeader } from '../split-plan.js';
@@ -93,6 +93,17 @@ describe('the fill screens fit 80 x 24', () => {
     const refused = read(over, 'hello');
     expect(refused.error).toBeDefined();
     fits(refused, /ABOVE THE WORKING LIMIT$/);
+    expect(frame80(over).replace(/\n/g, ' ')).toMatch(
+      /accept INITIALS: keep the tank as it is, ABOVE its working limit/,
+    );
+    // accepted: the end says the tank is still above the limit (the logged pressure vs the limit) and what to do
+    const kept = read(over, 'accept CD');
+    expect(kept.phase).toBe('done');
+    expect(kept.aboveLimitText).toMatch(
+      /^the tank MT-1 is STILL ABOVE its working limit: 2800\.00 Torr absolute logged vs the limit 2700\.22 Torr\. Close the cylinder and tank valves and bring it below the limit by your lab's procedure/,
+    );
+    const end = fits(kept, /^mixwright fill b1 - all 4 fills logged$/);
+    expect(end.replace(/\n/g, ' ')).toContain('STILL ABOVE its working limit');
   });
 
   it('the last fill below its target, with the composition as filled', () => {
@@ -122,6 +133,85 @@ describe('the fill screens fit 80 x 24', () => {
     expect(f.split('\n').filter((r) => /^fill 1 logged|^[a-z(].*/.test(r)).length).toBeGreaterThan(0);
     // with a refused entry the error stands in for the message and the composition
     fits(read(t, 'hello'), /^mixwright fill b1 /);
+  });
+
+  it('order CH4, O2, Ar, the last fill (Ar) read at 100 Torr: the close offer says the tank NOW holds a detonable mixture', () => {
+    let t = initialState(setupFromHeader(header(['CH4', 'O2', 'Ar'])));
+    t = read(t, 'accept JD', 2);
+    t = read(t, '10.01', 3);
+    t = fillReducer(t, { type: 'enter', now: NOW });
+    t = read(t, '30.04', 4);
+    // 10 Torr CH4, 20 Torr O2, 70 Torr Ar: 10 % fuel, 20 % O2 as read, no N2 (by hand): detonable by the
+    // planner's conservative rule (less than 50 % N2-equivalent inert)
+    const last = read(t, '100', 5);
+    expect(last.phase).toBe('below');
+    expect(last.belowWays!.tankNow).toContain('DANGER detonable-state (fill 3)');
+    const f = fits(last, /^mixwright fill b1 - fill 3 of 3: BELOW THE TARGET$/);
+    expect(f.replace(/\n/g, ' ')).toMatch(/close AB .*the tank NOW holds DANGER detonable-state \(fill 3\)/);
+    fits(read(last, 'hello'), /BELOW THE TARGET$/);
+    const closed = read(last, 'close JD');
+    expect(closed.phase).toBe('done');
+    expect(closed.tankNowText).toMatch(
+      /^the tank NOW holds a detonable, flammable mixture: keep its valves closed, do not use or vent it except under your lab's procedure, defer to local rules/,
+    );
+    expect(closed.message).toContain(closed.tankNowText);
+    expect(closed.effects).toEqual([
+      expect.objectContaining({ kind: 'close', note: expect.stringContaining('the tank NOW holds') }),
+    ]);
+  });
+
+  it('order CH4, O2, Ar: each offer says what its review found (capped go and stop; next with a lower final pressure)', () => {
+    let t = initialState(setupFromHeader(header(['CH4', 'O2', 'Ar'])));
+    t = read(t, 'accept JD', 2);
+    t = read(t, '10.01', 3);
+    t = fillReducer(t, { type: 'enter', now: NOW });
+    // O2 read 560 Torr (target 30.03): the working limit holds the final pressure
+    const capped = read(t, '560', 4);
+    expect(capped.phase).toBe('capped');
+    expect(capped.capped!.ways).toBeDefined();
+    const f = fits(capped, /^mixwright fill b1$/).replace(/\n/g, ' ');
+    expect(f).toMatch(
+      /- go INITIALS: fill to the capped targets \(the tank ends at 2692\.7 Torr, OFF THE DESIGN\): the review finds/,
+    );
+    expect(f).toMatch(
+      /- stop INITIALS: stop the batch here \(incomplete\): the review finds no flammable, detonable or danger state in the tank now/,
+    );
+    fits(read(capped, 'hello'), /^mixwright fill b1$/);
+    // O2 read 15 Torr: going on from it keeps phi and the dilution, so the batch ends lower (by the re-target: the
+    // fuel and O2 in the tank, 15 Torr, over the design's 2 % of them: 751 Torr, by hand about 15 / 0.02 = 750)
+    const low = read(t, '15', 4);
+    expect(low.phase).toBe('below');
+    const g = fits(low, /BELOW ITS BAND$/).replace(/\n/g, ' ');
+    expect(g).toMatch(
+      /- next AB \(go on from 15 Torr; the batch ends at 751\.4 Torr instead of 1500\.0 Torr\): passes/,
+    );
+  });
+
+  it('each reading screen of a flammable or oxidizing gas carries its one-row caution; an inert gas none', () => {
+    // the demo's recommended order: CH4 (fuel), Ar 1/2 (inert), O2 (oxidizer), Ar 2/2
+    const ch4 = fits(s0, /^mixwright fill b1 /);
+    expect(ch4).toContain('! Flammable gas: no ignition sources, no leaks; lab procedure, local rules');
+    const ar = fits(s1, /^mixwright fill b1 /);
+    expect(ar).not.toMatch(/^! /m);
+    const o2 = read(s1, '480.81', 3);
+    expect(o2.phase).toBe('reading');
+    expect(fits(o2, /^mixwright fill b1 /)).toContain(
+      '! Oxidizer: oxygen-service parts only, open slowly; lab procedure, local rules',
+    );
+    // a premix that carries both (common practice: CH4 a fuel, O2 an oxidizer by their oxygen demand)
+    const both = gasCaution({ CH4: 0.33, O2: 0.67 })!;
+    expect(both).toMatch(/^! Fuel \+ oxidizer: no ignition sources, open slowly/);
+    for (const c of [both, gasCaution({ CH4: 1 })!, gasCaution({ O2: 1 })!])
+      expect(c.length).toBeLessThan(80);
+    expect(gasCaution({ Ar: 1 })).toBeUndefined();
+  });
+
+  it("the key hints name the session's operator (a resume by another operator: theirs)", () => {
+    const qx = initialState(setupFromHeader(header()), undefined, NOW, { operator: 'QX' });
+    expect(qx.phase).toBe('reading');
+    const f = fits(qx, /^mixwright fill b1 /);
+    expect(f).toContain('undo QX: undo last fix N QX: correct');
+    expect(f).not.toContain('undo AB');
   });
 
   it('a batch id too long for the title row: what the screen is goes whole on the row under it', () => {

@@ -32,7 +32,16 @@ async function resume(
   if (recipeFile) throw new ProblemError({ code: 'resume-with-recipe' }, { field: '--resume' });
   const tui = await loadTui();
   const log = readLog(logFile);
-  if (log.closed) throw new ProblemError({ code: 'log-closed' }, { file: logFile });
+  if (log.closed)
+    throw new ProblemError(
+      {
+        code: 'log-closed',
+        made: log.readings.length,
+        of: log.header.steps.length,
+        ...(log.closeNote ? { note: log.closeNote } : {}),
+      },
+      { file: logFile },
+    );
   for (const w of log.warnings) cli.err(`mixwright: ${logFile}: ${w}\n`);
   // stage 2 of a two-stage fill: its premix log must be the one the batch was started from
   checkStageOnResume(logFile, log.header);
