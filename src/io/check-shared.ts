@@ -126,7 +126,8 @@ function recordedDangerCaveat(dangers: readonly PlanDanger[]): string {
     `by this re-check's composition at the reading's pressure, and each fill's path between readings; the ` +
     `planner's own review) finds ${dangerList(dangers)} (${one ? 'a danger' : 'dangers'}), and the record ` +
     `does not show ${one ? 'it' : 'them'} accepted: the tank went through ${one ? 'a state' : 'states'} the ` +
-    `planner reviews as dangerous, whatever the final composition. This is not a pass: have the fill ` +
+    `planner reviews as dangerous, whatever the final composition (one found at the last fill is the ` +
+    `finished batch: the tank holds it now). This is not a pass: have the fill ` +
     `reviewed (the hazards, the readings, the tank and its fittings) under local practice before the ` +
     `batch is used`
   );
@@ -150,7 +151,8 @@ export function verdictCaveats(
         ? `ACCEPTED HAZARD: the plan's safety review found ${hazardList(a)} ` +
             `(${a.hazards.length === 1 ? 'a danger' : 'dangers'}), and ${a.by} accepted ` +
             `${a.hazards.length === 1 ? 'it' : 'them'} at ${a.time} on the fill's danger screen and ` +
-            `filled through: the tank went through states the plan reviewed as dangerous. Have the fill ` +
+            `filled through: the tank went through (and, for a danger at the last fill, holds) states the ` +
+            `plan reviewed as dangerous. Have the fill ` +
             `reviewed (the hazards, the readings, the tank and its fittings) under local practice before ` +
             `the batch is used`
         : `ACCEPTED HAZARD: before fill ${a.step ?? '?'} the review of the re-targeted fills found ` +
