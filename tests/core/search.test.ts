@@ -80,6 +80,36 @@ function hazardCount(plan: Plan) {
 const worst = (plan: Plan) =>
   worstOf(predictPlan({ plan, gauges: GAUGES, reading: READING, thermometer: THERMO })!)!;
 
+/**
+ * the demo design filled CH4 -> Ar (stopped after `share` of it) -> O2 -> Ar: the planned plan, and the
+ * same candidate as the sequence search writes it (the split charge's share of the Ar) with a search context
+ */
+function splitDemo(share: number) {
+  const input = { ...phiInput(DEMO), thermometer: THERMO };
+  const basis = validatePlanInput(input);
+  const amounts = planAmounts(basis);
+  const [ch4, o2, ar] = input.sources;
+  // the stop reading after `share` of the Ar, from the planner's own charges (stop after CH4 + share Ar)
+  const probe = planSteps(basis, amounts, {
+    charges: [{ source: ch4 }, { source: ar }],
+    reason: '',
+    recommended: true,
+    findings: [],
+  });
+  const stopPa = probe.steps[0].targetPa + (probe.steps[1].targetPa - probe.steps[0].targetPa) * share;
+  const charges = [{ source: ch4 }, { source: ar, stopPa }, { source: o2 }, { source: ar }];
+  const plan = planFill({ ...input, order: 'given', charges });
+  const nAr = amounts.allocation.amountsMol[2];
+  const candidate = [
+    { source: ch4 },
+    { source: ar, share: plan.steps[1].amountMol / nAr },
+    { source: o2 },
+    { source: ar },
+  ];
+  const ctx = { basis, amounts, thermometer: THERMO, cache: new Map(), stats: {} as never };
+  return { input, ctx, plan, candidate };
+}
+
 describe('sequence search', () => {
   it('property: never less safe, never less precise than the advised order (same model), random designs', () => {
     fc.assert(
@@ -257,30 +287,7 @@ describe('sequence search', () => {
     const { temperatureBound } = await import('../../src/core/plan/search-eval.js');
     fc.assert(
       fc.property(fc.double({ min: 0.03, max: 0.9, noNaN: true }), (share) => {
-        const input = { ...phiInput(DEMO), thermometer: THERMO };
-        const basis = validatePlanInput(input);
-        const amounts = planAmounts(basis);
-        const [ch4, o2, ar] = input.sources;
-        const nAr = amounts.allocation.amountsMol[2];
-        // the stop reading after `share` of the Ar, from the planner's own charges (stop after CH4 + share Ar)
-        const probe = planSteps(basis, amounts, {
-          charges: [{ source: ch4 }, { source: ar }],
-          reason: '',
-          recommended: true,
-          findings: [],
-        });
-        const stopPa = probe.steps[0].targetPa + (probe.steps[1].targetPa - probe.steps[0].targetPa) * share;
-        const charges = [{ source: ch4 }, { source: ar, stopPa }, { source: o2 }, { source: ar }];
-        const steps = planSteps(basis, amounts, { charges, reason: '', recommended: true, findings: [] });
-        const ctx = { basis, amounts, thermometer: THERMO, cache: new Map(), stats: {} as never };
-        const plan = planFill({ ...input, order: 'given', charges });
-        // the same candidate as the search writes it: the split charge's share of the Ar
-        const candidate = [
-          { source: ch4 },
-          { source: ar, share: steps.steps[1].amountMol / nAr },
-          { source: o2 },
-          { source: ar },
-        ];
+        const { ctx, plan, candidate } = splitDemo(share);
         // property (GUM 5.1.2: independent inputs add in quadrature, so a subset gives a lower u)
         expect(temperatureBound(ctx, candidate)).toBeLessThanOrEqual(worst(plan).relative);
         expect(temperatureBound(ctx, candidate)).toBeGreaterThan(0);
@@ -291,31 +298,11 @@ describe('sequence search', () => {
 
   it('property: a candidate the bound calls unable to meet the tolerance is predicted outside it', async () => {
     const { cannotBeWithin } = await import('../../src/core/plan/search-eval.js');
-    const input = { ...phiInput(DEMO), thermometer: THERMO };
-    const basis = validatePlanInput(input);
-    const amounts = planAmounts(basis);
-    const [ch4, o2, ar] = input.sources;
-    const ctx = { basis, amounts, thermometer: THERMO, cache: new Map(), stats: {} as never };
     const outcomes = new Set<boolean>();
     // shares of the Ar read before the O2, 2 % to 90 %: the O2 is read from low to high pressures, so
     // both outcomes occur (the demo tolerance is 0.5 %)
     for (const share of [0.02, 0.05, 0.1, 0.2, 0.4, 0.6, 0.9]) {
-      const probe = planSteps(basis, amounts, {
-        charges: [{ source: ch4 }, { source: ar }],
-        reason: '',
-        recommended: true,
-        findings: [],
-      });
-      const stopPa = probe.steps[0].targetPa + (probe.steps[1].targetPa - probe.steps[0].targetPa) * share;
-      const charges = [{ source: ch4 }, { source: ar, stopPa }, { source: o2 }, { source: ar }];
-      const plan = planFill({ ...input, order: 'given', charges });
-      const nAr = amounts.allocation.amountsMol[2];
-      const candidate = [
-        { source: ch4 },
-        { source: ar, share: plan.steps[1].amountMol / nAr },
-        { source: o2 },
-        { source: ar },
-      ];
+      const { ctx, plan, candidate, input } = splitDemo(share);
       const cannot = cannotBeWithin(ctx, candidate);
       outcomes.add(cannot);
       const p = predictPlan({ plan, gauges: input.gauges, thermometer: THERMO, reading: READING })!;
