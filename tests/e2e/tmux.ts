@@ -12,19 +12,18 @@ export function tmuxSession(name: string, cwd: string) {
     tm,
     screen,
     start(cmd: string) {
-      tm(
-        'new-session',
-        '-d',
-        '-s',
-        's',
-        '-x',
-        '80',
-        '-y',
-        '24',
-        '-c',
-        cwd,
-        `env -u CI -u CONTINUOUS_INTEGRATION ${cmd}`,
-      );
+      const args = ['new-session', '-d', '-s', 's', '-x', '80', '-y', '24', '-c', cwd];
+      // after kill() closed the last session, the private server is still exiting: a new session on
+      // the same socket can meet it ("server exited unexpectedly"); tried again once it has gone
+      for (let attempt = 1; ; attempt++) {
+        try {
+          tm(...args, `env -u CI -u CONTINUOUS_INTEGRATION ${cmd}`);
+          break;
+        } catch (e) {
+          if (attempt >= 5 || !/server exited unexpectedly/.test(String(e))) throw e;
+          execFileSync('sleep', ['0.3']);
+        }
+      }
       tm('set-option', '-t', 's', 'remain-on-exit', 'on');
     },
     async waitFor(re: RegExp, ms = 15000): Promise<string> {
