@@ -51,9 +51,10 @@ export function planFill(input: PlanInput, shared?: SharedStages): Plan {
 
 /**
  * The stages a plan's gauges do not enter: the amounts and the fill order (neither reads a gauge,
- * but for the sequence search, which chooses gauges itself). Plans of one input that differ only
- * in their gauges (a premix's head choices, two-stage.ts) share them: kept by the input without
- * its gauges, and used only for the very same source objects (later stages look sources up).
+ * but for the sequence search and the split points of given charges: never shared). Plans of one
+ * input that differ only in their gauges (a premix's head choices, two-stage.ts) share them: kept
+ * by the input without its gauges, and used only for the very same source objects (later stages
+ * look sources up).
  */
 export type SharedStages = Map<
   string,
@@ -65,9 +66,11 @@ function gaugeFreeStages(
   shared: SharedStages | undefined,
 ): { amounts: PlanAmounts; sequence: PlanSequence } {
   const { input } = basis;
+  // the sequence search and the split points of given charges both weigh the gauges: never shared
   const searched = input.order === 'recommend' && input.thermometer !== undefined;
+  const gaugesUsed = searched || input.charges !== undefined;
   const key =
-    shared && !searched ? JSON.stringify({ ...input, gauges: undefined, manifoldGauges: undefined }) : '';
+    shared && !gaugesUsed ? JSON.stringify({ ...input, gauges: undefined, manifoldGauges: undefined }) : '';
   const hit = key ? shared?.get(key) : undefined;
   if (
     hit &&
