@@ -92,6 +92,13 @@ export function describePremixLogProblem(
         '(see `mixwright check` on it), so the composition it gives is not the one the premix was filled ' +
         'to; restore the log as it was written (a backup), or re-measure the premix tank or make a new premix'
       );
+    case 'not-drawn':
+      return (
+        `${at} was given, but no row of ${c.file} draws from that premix: the rows name ` +
+        `${c.rows.join(', ')}, none of them ${c.names.join(' or ')}, so its composition and budget would ` +
+        'not be used and the re-check would not be of a batch filled from it. If a charge came from that ' +
+        `premix tank, name it so in its row (${c.names.join(' or ')}); if none did, leave --premix-log out`
+      );
     case 'not-the-premix':
       // a log that is no premix is not called one
       return describeNotThePremix(c.given.is === 'premix' ? at : `${p.log} (given as the premix log)`, c);

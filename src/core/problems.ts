@@ -417,6 +417,19 @@ export type PremixLogCause =
       readonly by?: readonly string[];
     }
   /**
+   * CSV readings: a --premix-log given, but no row draws from that premix (each row names a cylinder,
+   * a gas or another premix), so its re-checked composition and budget would go unused
+   */
+  | {
+      readonly kind: 'not-drawn';
+      /** the readings file */
+      readonly file: string;
+      /** the names a row may give the premix: its source id (`premix-MT-2`) and its fill label (`Ar+O2`) */
+      readonly names: readonly string[];
+      /** the distinct names the rows give, in their order */
+      readonly rows: readonly string[];
+    }
+  /**
    * CSV readings: the --premix-log given is not the log of the premix a row names (the log of
    * another tank's premix, or a batch log: a single-tank batch, or a batch filled from a premix)
    */

@@ -198,6 +198,32 @@ function csvBasisFromLab(file: string, opts: CheckOptions): CsvBasis {
   };
 }
 
+/**
+ * --premix-log given, but no row draws from that premix: refused, not ignored (a re-check that left
+ * the named premix out would read as one of a batch filled from it)
+ */
+function refuseUndrawnPremix(
+  file: string,
+  premix: PremixRecord | undefined,
+  rows: readonly CsvReading[],
+  sources: readonly { readonly id: string }[],
+): void {
+  if (!premix || sources.some((s) => s.id === premix.source.id)) return;
+  fail(
+    {
+      code: 'premix-log-refused',
+      log: premix.named,
+      cause: {
+        kind: 'not-drawn',
+        file,
+        names: [...new Set([premix.source.id, fillLabel(premix.source)])],
+        rows: [...new Set(rows.map((r) => r.species))],
+      },
+    },
+    { field: '--premix-log' },
+  );
+}
+
 /** the CSV rows as the re-check's readings: each row a charge of the source it names, on its gauge */
 function csvReadings(
   file: string,
@@ -214,6 +240,7 @@ function csvReadings(
     acceptsName: b.names.accepts,
   });
   const sources = rows.map((r) => b.names.resolve(r.species, { file, line: r.line, field: 'species' }));
+  refuseUndrawnPremix(file, b.premix, rows, sources);
   const charges = chargeNumbers(sources.map((s) => s.id));
   const readings = rows.map((r, i): CheckedReading => {
     let gauge: Gauge | undefined;

@@ -972,6 +972,8 @@ function premixCauseJson(c: PremixLogCause): object {
       return { kind: c.kind, lines: c.lines };
     case 'not-a-pass':
       return { kind: c.kind, outcome: c.outcome, hazards: c.hazards, by: c.by ?? [] };
+    case 'not-drawn':
+      return { kind: c.kind, file: c.file, names: c.names, rows: c.rows };
     case 'not-the-premix':
       return {
         kind: c.kind,

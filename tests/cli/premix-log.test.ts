@@ -179,6 +179,30 @@ describe('sheet and check with a premix log', () => {
     expect(onLog.code).toBe(2);
     expect(onLog.stderr).toMatch(/--premix-log is for CSV readings only/);
   });
+
+  // a premix log named for readings that never draw from it would otherwise print its "Premix" line as
+  // if the batch had been filled from it: refused (exit 2), saying which rows and how to name the premix
+  it('check of CSV readings with --premix-log where no row draws from that premix: refused, not-drawn', async () => {
+    const csv = 'readings/ch4-phi1-ar98.csv';
+    for (const basis of [['--recipe', RECIPE], []]) {
+      const r = await runCli(['check', csv, ...basis, '--premix-log', PREMIX]);
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr).toContain('premix-log-refused');
+      expect(r.stderr.replace(/\s+/g, ' ')).toMatch(
+        /--premix-log: premix log .*demo-premix-o2-ar-mt2\.jsonl was given, but no row of .*ch4-phi1-ar98\.csv draws from that premix: the rows name CH4, Ar, O2, none of them premix-MT-2 or Ar\+O2.*leave --premix-log out/,
+      );
+      const j = JSON.parse((await runCli(['check', csv, ...basis, '--premix-log', PREMIX, '--json'])).stdout);
+      expect(j.verdict).toBe('refused');
+      expect(j.refused.field).toBe('--premix-log');
+      expect(j.refused.premix_log.cause).toEqual({
+        kind: 'not-drawn',
+        file: csv,
+        names: ['premix-MT-2', 'Ar+O2'],
+        rows: ['CH4', 'Ar', 'O2'],
+      });
+    }
+  });
 });
 
 // a premix log changed after it was written (a line off its hash chain, as `check` finds it) is not a
