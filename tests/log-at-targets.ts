@@ -2,7 +2,8 @@
 // plan's dangers acknowledged when asked (the fill's danger screen writes one acknowledge line per
 // danger before the first fill), a reading per step and the close. Shared by the tests that need a
 // record of a given plan without running the fill. `opts`: each reading's temperature, K (default the
-// plan's), and the header as written (default headerFromPlan's).
+// plan's), who took it (default TT; undefined: a line without `by`, as older logs), and the header as
+// written (default headerFromPlan's).
 import { appendEvent, createLog, type LogHeader } from '../src/io/batch-log.js';
 import { headerFromPlan } from '../src/io/check.js';
 import type { Plan } from '../src/core/index.js';
@@ -14,9 +15,14 @@ export function logAtTargets(
   req: PlanRequest,
   batch: string,
   accept: { by: string; note?: string } | undefined,
-  opts: { temperatureOf?: (step: number) => number; header?: (h: LogHeader) => LogHeader } = {},
+  opts: {
+    temperatureOf?: (step: number) => number;
+    byOf?: (step: number) => string | undefined;
+    header?: (h: LogHeader) => LogHeader;
+  } = {},
 ): string {
   const temperatureOf = opts.temperatureOf ?? (() => plan.temperatureK);
+  const byOf = opts.byOf ?? (() => 'TT');
   const header = headerFromPlan(plan, req, batch, '2026-12-02T09:00:00Z', file);
   createLog(file, opts.header ? opts.header(header) : header);
   if (accept)
@@ -40,7 +46,7 @@ export function logAtTargets(
       temperature: `${temperatureOf(s.index)} K`,
       temperature_K: temperatureOf(s.index),
       time: `2026-12-02T09:1${s.index}:00Z`,
-      by: 'TT',
+      by: byOf(s.index),
     });
   appendEvent(file, { kind: 'close', time: '2026-12-02T09:30:00Z' });
   return file;

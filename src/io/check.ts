@@ -220,6 +220,7 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
     id: h.id,
     kind: 'log',
     readings: model.readings,
+    readBy: model.readings.map((x) => log.readings.find((r) => r.step === x.step)?.by ?? null),
     result,
     verdict,
     design,

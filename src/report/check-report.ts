@@ -71,10 +71,14 @@ function mcNote(st: OutputStat): string {
   return inside ? 'narrower' : 'DIFFERS';
 }
 
-/** the readings the re-check used, in the gauge's own unit */
+/**
+ * the readings the re-check used, in the gauge's own unit, and who took each (a `by` column only
+ * where some reading names someone: an older log, or CSV readings, without it read as before)
+ */
 function readingsTable(r: CheckReport): string[] {
-  const readRows: string[][] = [['#', 'fill', 'gauge', 'absolute pressure', 'T degC']];
-  for (const x of r.readings) {
+  const by = r.readBy?.some((b) => b !== null) ? r.readBy : undefined;
+  const readRows: string[][] = [['#', 'fill', 'gauge', 'absolute pressure', 'T degC', ...(by ? ['by'] : [])]];
+  for (const [i, x] of r.readings.entries()) {
     const u = isPressureUnit(x.gauge.unit) ? x.gauge.unit : 'Pa';
     readRows.push([
       String(x.step),
@@ -85,9 +89,10 @@ function readingsTable(r: CheckReport): string[] {
       x.gauge.id,
       `${fixedSig(fromPa(x.pressurePa, u), 7)} ${u}`,
       (x.temperatureK - 273.15).toFixed(2),
+      ...(by ? [by[i] ?? '(not named)'] : []),
     ]);
   }
-  return padTable(readRows, [true, false, false, true, true]);
+  return padTable(readRows, [true, false, false, true, true, false]);
 }
 
 /** a top-up's starting pressure and a barometer read at the fill, where the log has them */
@@ -786,13 +791,15 @@ export function checkToJson(r: CheckReport, version: string): object {
     phi: r.result.phi ? statJson(r.result.phi) : null,
     dilution: r.result.diluentFraction ? statJson(r.result.diluentFraction) : null,
     unidentified_fraction: r.result.unidentified,
-    readings: r.readings.map((x) => ({
+    readings: r.readings.map((x, i) => ({
       step: x.step,
       source: x.source.id,
       charge: x.charge ? { number: x.charge.number, of: x.charge.of } : { number: 1, of: 1 },
       gauge: x.gauge.id,
       pressure_Pa: x.pressurePa,
       temperature_K: x.temperatureK,
+      // who took it (the log line's initials); null: the line names nobody (an older log), or CSV readings
+      by: r.readBy?.[i] ?? null,
     })),
     design: r.design ? { composition: r.design.composition, phi: r.design.phi ?? null } : null,
     tolerance: r.tolerance,

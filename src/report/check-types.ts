@@ -65,6 +65,11 @@ export interface CheckReportOf<F extends RecordFinding> {
   readonly id: string;
   readonly kind: 'log' | 'csv';
   readonly readings: readonly CheckedReading[];
+  /**
+   * who took each reading (its `by`, the operator's initials), beside `readings`: a log's reading in
+   * force (a correction's by its own); null where the line names nobody (an older log); absent for CSV
+   */
+  readonly readBy?: readonly (string | null)[];
   readonly result: UncertaintyResult;
   readonly verdict: CheckVerdict;
   readonly design?: Design;

@@ -1,0 +1,73 @@
+// `check` lists who took each reading: the `by` the guided fill writes on every reading line (the
+// session's operator), in the readings table (a `by` column) and on each reading of `--json`. A log
+// line without `by` (logs written before readings carried initials) is read as before: no column
+// where no reading names anyone, `(not named)` beside readings that do, `by: null` in the JSON.
+// No computed number is checked here; only what is said of who read the tank.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { planFill } from '../../src/core/index.js';
+import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { runCli } from '../helpers.js';
+import { logAtTargets } from '../log-at-targets.js';
+
+const TRIALS = ['--trials', '100000'];
+const dir = mkdtempSync(join(tmpdir(), 'mw-read-by-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+/** the demo recipe's plan read at its targets, each reading by `byOf(step)` */
+function log(name: string, byOf: (step: number) => string | undefined): string {
+  const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+  return logAtTargets(join(dir, name), planFill(req.input), req, 'by1', undefined, { byOf });
+}
+
+/** the readings table of the text report: its header and one row per reading */
+function table(stdout: string): string[] {
+  const lines = stdout.split('\n');
+  const head = lines.findIndex((l) => l.startsWith('#  fill'));
+  expect(head).toBeGreaterThan(0);
+  const end = lines.findIndex((l, i) => i > head && l.trim() === '');
+  return lines.slice(head, end);
+}
+
+describe('check: who took each reading', () => {
+  it('a log whose readings name their operators: a by column and by in --json, reading by reading', async () => {
+    const who: Record<number, string | undefined> = { 1: 'TT', 2: 'AB', 3: undefined, 4: 'TT' };
+    const f = log('mixed.jsonl', (s) => who[s]);
+    const r = await runCli(['check', f, ...TRIALS]);
+    const rows = table(r.stdout);
+    expect(rows[0]).toMatch(/T degC {2}by$/);
+    expect(rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, ''))).toEqual([
+      'TT',
+      'AB',
+      '(not named)',
+      'TT',
+    ]);
+    const j = JSON.parse((await runCli(['check', f, '--json', ...TRIALS])).stdout);
+    expect(j.readings.map((x: { step: number; by: string | null }) => [x.step, x.by])).toEqual([
+      [1, 'TT'],
+      [2, 'AB'],
+      [3, null],
+      [4, 'TT'],
+    ]);
+  });
+
+  it('a log with no initials on its readings (as older logs): no by column, by null in --json', async () => {
+    const f = log('none.jsonl', () => undefined);
+    const rows = table((await runCli(['check', f, ...TRIALS])).stdout);
+    expect(rows[0]).toMatch(/T degC$/);
+    expect(rows.join('\n')).not.toMatch(/not named|\bby\b/);
+    const j = JSON.parse((await runCli(['check', f, '--json', ...TRIALS])).stdout);
+    expect(j.readings).toHaveLength(4);
+    expect(j.readings.every((x: { by: unknown }) => x.by === null)).toBe(true);
+  });
+
+  it('CSV readings name nobody: no by column, by null in --json', async () => {
+    const csv = 'readings/ch4-phi1-ar98.csv';
+    const args = [csv, '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', ...TRIALS];
+    expect(table((await runCli(['check', ...args])).stdout)[0]).toMatch(/T degC$/);
+    const j = JSON.parse((await runCli(['check', ...args, '--json'])).stdout);
+    expect(j.readings.map((x: { by: unknown }) => x.by)).toEqual([null, null, null]);
+  });
+});
