@@ -8,6 +8,7 @@ import { describePredictedOver } from './predict-words.js';
 import { describePreciseOption, describeSequenceChosen } from './search-words.js';
 import type { ComponentAbout } from './uncertainty.js';
 import { TWO_STAGE_WORDING } from './two-stage-words.js';
+import { describeSaferOrder } from './order-words.js';
 
 export type Severity = 'danger' | 'warning' | 'note';
 
@@ -785,9 +786,7 @@ const REACTIVE_GASES: WordingTable<
 };
 
 const ORDER: WordingTable<'safer-order' | 'no-safe-order'> = {
-  'safer-order': (f) =>
-    `${f.of ?? 'the order given'} makes flammable or hazardous intermediate states or fills; ` +
-    `${f.order.join(' -> ')} avoids them (${f.reason})`,
+  'safer-order': describeSaferOrder,
   'no-safe-order': (f) => f.reason,
 };
 

@@ -13,6 +13,7 @@ import type { GasSource } from './supply.js';
 import { reviewFill, reviewState, type FillEvent, type SafetyContext, type TankState } from './safety.js';
 import type { Finding, FindingCode } from './findings.js';
 import { reviewFillPath } from './fill-path.js';
+import { CLEAN_CLAIM, NO_SAFE_ORDER_OPENING } from './order-words.js';
 
 export interface OrderScore {
   readonly danger: number;
@@ -299,12 +300,7 @@ function bestOrder(
   return { best, bestScore };
 }
 
-/**
- * the claim of a sequence whose review found no hazard on any intermediate state or fill path; the
- * plan's review (plan/review.ts) replaces it by what the full review of the planned fill finds
- */
-export const CLEAN_CLAIM =
-  'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
+export { CLEAN_CLAIM } from './order-words.js';
 
 /**
  * the opening of the sequence search's comparison of its choice with the advised order (its own
@@ -349,7 +345,7 @@ export function adviseOrder(
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
     reason =
-      `no fill order avoids every hazard checked (intermediate states, fill paths, ` +
+      `${NO_SAFE_ORDER_OPENING} (intermediate states, fill paths, ` +
       `fill lines); this one has the fewest and least severe (${bestScore.danger} ` +
       `danger, ${bestScore.warning} warning, ${bestScore.note} note: ${codes})`;
   }

@@ -67,6 +67,30 @@ describe('a plan with dangers is headlined by the danger, before the tolerance (
   });
 });
 
+// the safer-order warning once: it carried the advice's reason, written to explain the advised order against
+// the smallest-first order, so a given order that is the smallest-first one (CH4, O2, Ar here) was told
+// its own hazard twice, the second time by cylinder ids ("not the smallest-first order (cyl-CH4, cyl-O2,
+// cyl-Ar), which would give flammable-state after fill 2"); the finding keeps only the advice's claim
+describe('plan --order with an inline design: the safer-order warning says it once', () => {
+  const INLINE = ['--fuel', 'CH4', '--oxidizer', 'O2', '--phi', '1', '--diluent', 'Ar', '--dilution', '0.85'];
+  const TANK = ['--tank', 'MT-1', '--pressure', '1000 Torr', '--temperature', '22 degC'];
+  it.each(['CH4,O2,Ar', 'O2,Ar,CH4'])('--order %s', async (given) => {
+    const r = await runCli(['plan', ...INLINE, ...TANK, '--order', given]);
+    expect(r.code, r.stderr).toBe(3);
+    const safer = r.stdout.split('\n').filter((l) => /safer-order|smallest-first/.test(l));
+    // the Order line names the advised order and points at the finding; the finding states it
+    expect(safer).toHaveLength(2);
+    expect(safer[0]).toMatch(/^Order {7}.*the advised order: CH4 -> Ar -> O2 \(safer-order\)\)$/);
+    expect(safer[1]).toBe(
+      '  warning safer-order: the order given makes flammable or hazardous intermediate states or fills; ' +
+        "CH4 -> Ar -> O2 avoids them (by the order advice's review, every intermediate tank state and " +
+        'every fill path is non-flammable and free of the hazards checked)',
+    );
+    const json = JSON.parse((await runCli(['plan', ...INLINE, ...TANK, '--order', given, '--json'])).stdout);
+    expect(json.findings.filter((f: { code: string }) => f.code === 'safer-order')).toHaveLength(1);
+  });
+});
+
 describe('the Order line of a sequence that keeps the advised order on other gauges', () => {
   it('does not compare the chosen order with itself by name (ng-blend-air: C2H6, CH4, N2+O2)', async () => {
     const r = await runCli(['plan', 'recipes/ng-blend-air.yaml']);

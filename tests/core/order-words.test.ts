@@ -1,0 +1,32 @@
+// The safer-order finding's words (core/order-words.ts): a claim the advised order's review made, never
+// "avoids them" for an advised order with hazards of its own, and never the given order's hazard again.
+// Wording only: no computed number is checked here.
+import { describe, expect, it } from 'vitest';
+import { describeFinding } from '../../src/core/index.js';
+import { CLEAN_CLAIM, describeSaferOrder, NO_SAFE_ORDER_OPENING } from '../../src/core/order-words.js';
+
+describe('describeSaferOrder', () => {
+  it('a clean advised order: it avoids them, by the advice review, without the smallest-first comparison', () => {
+    const reason = `not the smallest-first order (cyl-CH4, cyl-O2, cyl-Ar), which would give flammable-state after fill 2; ${CLEAN_CLAIM}`;
+    const words = describeSaferOrder({ order: ['CH4', 'Ar', 'O2'], reason });
+    expect(words).toBe(
+      'the order given makes flammable or hazardous intermediate states or fills; CH4 -> Ar -> O2 avoids ' +
+        `them (by the order advice's review, ${CLEAN_CLAIM})`,
+    );
+    expect(describeSaferOrder({ order: ['A'], reason: CLEAN_CLAIM, of: "the premix's own order" })).toMatch(
+      /^the premix's own order makes /,
+    );
+  });
+
+  it('an advised order with hazards of its own: fewer or less severe, with the advice reason, never "avoids"', () => {
+    const reason = `${NO_SAFE_ORDER_OPENING} (intermediate states, fill paths, fill lines); this one has the fewest`;
+    const words = describeSaferOrder({ order: ['CH4', 'Ar', 'O2'], reason });
+    expect(words).not.toContain('avoids them');
+    expect(words).toContain(`CH4 -> Ar -> O2 has fewer or less severe ones (${reason})`);
+  });
+
+  it('describeFinding words safer-order by it', () => {
+    const f = { severity: 'warning', code: 'safer-order', order: ['X', 'Y'], reason: CLEAN_CLAIM } as const;
+    expect(describeFinding(f)).toBe(describeSaferOrder(f));
+  });
+});
