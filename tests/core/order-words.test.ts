@@ -27,6 +27,6 @@ describe('describeSaferOrder', () => {
 
   it('describeFinding words safer-order by it', () => {
     const f = { severity: 'warning', code: 'safer-order', order: ['X', 'Y'], reason: CLEAN_CLAIM } as const;
-    expect(describeFinding(f)).toBe(describeSaferOrder(f));
+    expect(describeFinding(f, (pa) => `${pa} Pa`)).toBe(describeSaferOrder(f));
   });
 });
