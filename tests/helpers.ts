@@ -12,11 +12,21 @@ export const TORR = 101325 / 760;
 /** invocations of runCli in this test file's process (the fuzz suites report it) */
 export const cliRuns = { count: 0 };
 
-/** run the CLI in-process; returns exit code and captured output */
+/**
+ * stderr's words without the 80-column layout the CLI gives them (cli/context.ts wrapForStderr): each
+ * line break with the indentation after it is one space again, so a test reads a message whole whatever
+ * the width broke (the "(error code: ...)" line joins the message before it)
+ */
+export const stderrWords = (shown: string): string => shown.replace(/\n {2,}/g, ' ');
+
+/**
+ * run the CLI in-process; returns exit code and captured output: `stderr` as its words (stderrWords),
+ * `stderrShown` as written to the terminal (wrapped at 80 columns)
+ */
 export async function runCli(
   argv: string[],
   isTTY = false,
-): Promise<{ code: number; stdout: string; stderr: string }> {
+): Promise<{ code: number; stdout: string; stderr: string; stderrShown: string }> {
   let stdout = '';
   let stderr = '';
   const { run } = createProgram({
@@ -26,7 +36,7 @@ export async function runCli(
   });
   cliRuns.count++;
   const code = await run(argv);
-  return { code, stdout, stderr };
+  return { code, stdout, stderr: stderrWords(stderr), stderrShown: stderr };
 }
 
 /** an option given or changed by designOptions; undefined leaves it out */

@@ -39,10 +39,44 @@ export interface Cli {
   readonly isTTY: boolean;
 }
 
+/** the width stderr's messages are wrapped at: a terminal's usual 80 columns */
+export const STDERR_WIDTH = 80;
+
+/**
+ * A message for stderr wrapped at `width` columns: each line longer than that is broken at its last
+ * space that fits, and goes on indented two spaces deeper than the line it continues (as the
+ * "(error code: ...)" line under a refusal). A word longer than the width (a path) is never cut: it
+ * stands whole on its own line. Lines that fit, line feeds and other spacing are left as they are.
+ */
+export function wrapForStderr(text: string, width = STDERR_WIDTH): string {
+  return text
+    .split('\n')
+    .flatMap((line) => {
+      const indent = /^ */.exec(line)![0];
+      const out: string[] = [];
+      let rest = line;
+      let lead = '';
+      while (rest.length > width) {
+        // the last space that fits, past the indent; else the first one after the width
+        const fit = rest.lastIndexOf(' ', width);
+        const at = fit > (lead || indent).length ? fit : rest.indexOf(' ', width);
+        if (at < 0) break;
+        out.push(rest.slice(0, at).trimEnd());
+        lead = `${indent}  `;
+        rest = lead + rest.slice(at + 1).trimStart();
+      }
+      out.push(rest);
+      return out;
+    })
+    .join('\n');
+}
+
 export function cliOf(streams: Streams): Cli {
   return {
     out: (s) => void streams.stdout.write(s),
-    err: (s) => void streams.stderr.write(s),
+    // every message on stderr (refusals: what, where, why, what to do; notes; the parser's errors) fits
+    // an 80-column terminal
+    err: (s) => void streams.stderr.write(wrapForStderr(s)),
     isTTY: Boolean(streams.isTTY),
   };
 }
