@@ -24,7 +24,7 @@ tanks:
     rating: 4 bar
     working_fraction: 0.9
     height: 0.32 m
-    stirred: false
+    stirred: true
     base_vacuum: 2e-4 Torr
     leak_rate: 3e-5 Torr/min
   - id: MT-2
@@ -163,7 +163,7 @@ export const DEMO_LAB_DATA: unknown = {
       rating: '4 bar',
       working_fraction: 0.9,
       height: '0.32 m',
-      stirred: false,
+      stirred: true,
       base_vacuum: '2e-4 Torr',
       leak_rate: '3e-5 Torr/min',
     },

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { blendLimits, diagramPoint, envelopePolygon, planFill } from '../../src/core/index.js';
@@ -9,6 +9,7 @@ import { buildSheetModel } from '../../src/report/sheet-model.js';
 import { sheetToHtml, sheetToMarkdown, sheetToText } from '../../src/report/sheet-render.js';
 import { diagramData, ternaryXY } from '../../src/report/diagram.js';
 import { findChromium } from '../../src/io/pdf.js';
+import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 import { runCli } from '../helpers.js';
 
 function demoSheet(recipe = 'recipes/ch4-o2-ar-phi1.yaml', paper: 'a4' | 'letter' = 'a4') {
@@ -151,8 +152,16 @@ describe('mixwright sheet', () => {
     ).toBe(0);
   });
   it('the printed sheet carries the diffusion mixing estimate of the lab tank', async () => {
-    const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--format', 'txt', '--batch', 'b2']);
+    // the demo's tanks are both stirred (MT-1 has a magnetic stirrer): an unstirred MT-1 in a copy of the profile
+    const lab = join(mkdtempSync(join(tmpdir(), 'mw-unstirred-')), 'lab.yaml');
+    const unstirred = DEMO_LAB_YAML.replace(/(id: MT-1\n(?: {4}.*\n)*? {4}stirred: )true/, '$1false');
+    expect(unstirred).not.toBe(DEMO_LAB_YAML);
+    writeFileSync(lab, unstirred);
+    const args = ['--format', 'txt', '--batch', 'b2'];
+    const r = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', '--lab', lab, ...args]);
     expect(r.stdout).toMatch(/Mixing: unstirred tank, diffusion alone: about \d+ min to 1 %/);
+    const m = await runCli(['sheet', 'recipes/ch4-o2-ar-phi1.yaml', ...args]);
+    expect(m.stdout).toMatch(/Mixing: stirrer on ________ min \(diffusion alone/);
     const s = await runCli(['sheet', 'recipes/nc7h16-o2-ar.yaml', '--format', 'txt', '--batch', 'b3']);
     expect(s.stdout).toMatch(/Mixing: stirrer on ________ min \(diffusion alone/);
   });
