@@ -14,10 +14,11 @@
 // Run: npx tsx scripts/make-demo-premix-logs.ts
 import { existsSync, unlinkSync } from 'node:fs';
 import type { Plan } from '../src/core/index.js';
-import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../src/io/batch-log.js';
+import type { LogHeader, NewLogEvent } from '../src/io/batch-log.js';
 import { fileSha256, stage1Header, stage2Header } from '../src/io/stage-log.js';
 import { planFrom } from '../src/cli/plan-from.js';
 import { stage2Command } from '../src/cli/stage-fill.js';
+import { torrReading, writeStepLog } from './log-writer.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const PREMIX = 'batches/demo-premix-o2-ar-mt2.jsonl';
@@ -34,26 +35,16 @@ function fill(
   close: { time: string; note: string },
   before: Readonly<Record<number, readonly NewLogEvent[]>> = {},
 ): void {
-  if (existsSync(file)) unlinkSync(file);
-  createLog(file, header);
-  plan.steps.forEach((s, i) => {
-    const r = readings[i];
-    for (const e of before[s.index] ?? []) appendEvent(file, e);
-    appendEvent(file, {
-      kind: 'reading',
-      step: s.index,
-      source: s.source.id,
-      gauge: s.gauge!.id,
-      reading: `${r.torr} Torr`,
-      pressure_Pa: r.torr * TORR,
-      temperature: `${r.degC} degC`,
-      temperature_K: r.degC + 273.15,
-      time: r.time,
-      note: r.note,
-      charge: s.charge.of > 1 ? s.charge : undefined,
-    });
-  });
-  appendEvent(file, { kind: 'close', ...close });
+  writeStepLog(
+    file,
+    header,
+    plan.steps,
+    (_, i) => {
+      const r = readings[i];
+      return torrReading(r.torr, r.degC, r.time, r.note);
+    },
+    { close, before },
+  );
   console.log(`wrote ${file}`);
 }
 

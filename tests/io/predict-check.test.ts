@@ -4,11 +4,11 @@ import { describe, expect, it } from 'vitest';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { appendEvent, createLog } from '../../src/io/batch-log.js';
-import { checkFile, headerFromPlan } from '../../src/io/check.js';
+import { checkFile } from '../../src/io/check.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planWithPrediction, predictionInput } from '../../src/io/plan-predict.js';
 import { planFill, predictPlan } from '../../src/core/index.js';
+import { logAtTargets } from '../log-at-targets.js';
 
 const RECIPES = ['ch4-o2-ar-phi1', 'c2h4-o2-ar-phi05', 'nc7h16-o2-ar', 'ng-blend-air'];
 
@@ -23,20 +23,8 @@ describe('predicted u = the re-check of a perfect log (demo recipes, demo lab)',
       const base = predictionInput(plan, req);
       const noSettling = predictPlan({ ...base, thermometer: { ...base.thermometer, settlingK: 0 } })!;
       const file = join(mkdtempSync(join(tmpdir(), 'mw-pred-')), `${id}.jsonl`);
-      createLog(file, headerFromPlan(plan, req, `${id}-sim`, '2026-12-02T09:00:00Z'));
-      for (const s of plan.steps)
-        appendEvent(file, {
-          kind: 'reading',
-          step: s.index,
-          source: s.source.id,
-          gauge: s.gauge!.id,
-          reading: `${s.targetPa} Pa`,
-          pressure_Pa: s.targetPa,
-          temperature: `${plan.temperatureK} K`,
-          temperature_K: plan.temperatureK,
-          time: `2026-12-02T09:1${s.index}:00Z`,
-          by: 'QX',
-        });
+      // read exactly at the targets, by QX, the fill left open (as the prediction knows no close)
+      logAtTargets(file, plan, req, `${id}-sim`, undefined, { byOf: () => 'QX', close: false });
       const r = await checkFile(file, { trials: 0, seed: 1 });
       expect(r.readings.length).toBe(plan.steps.length);
       for (const [k, st] of Object.entries(r.result.composition)) {

@@ -5,11 +5,11 @@ import { describe, expect, it } from 'vitest';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { appendEvent, createLog } from '../../src/io/batch-log.js';
-import { checkFile, headerFromPlan } from '../../src/io/check.js';
+import { checkFile } from '../../src/io/check.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planWithPrediction } from '../../src/io/plan-predict.js';
 import { planFill, type Plan } from '../../src/core/index.js';
+import { logAtTargets } from '../log-at-targets.js';
 
 const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
 const src = (sp: string) => req.input.sources.find((s) => s.mainSpecies === sp)!;
@@ -22,20 +22,7 @@ const given = (order: readonly string[]) => ({
 
 async function recheckPerfect(plan: Plan) {
   const file = join(mkdtempSync(join(tmpdir(), 'mw-split-')), 'split.jsonl');
-  createLog(file, headerFromPlan(plan, req, 'split-sim', '2026-12-02T09:00:00Z'));
-  for (const s of plan.steps)
-    appendEvent(file, {
-      kind: 'reading',
-      step: s.index,
-      source: s.source.id,
-      gauge: s.gauge!.id,
-      reading: `${s.targetPa} Pa`,
-      pressure_Pa: s.targetPa,
-      temperature: `${plan.temperatureK} K`,
-      temperature_K: plan.temperatureK,
-      time: `2026-12-02T09:1${s.index}:00Z`,
-      by: 'QX',
-    });
+  logAtTargets(file, plan, req, 'split-sim', undefined, { byOf: () => 'QX', close: false });
   return checkFile(file, { trials: 0, seed: 1 });
 }
 
