@@ -8,8 +8,8 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
 import { runCli } from '../helpers.js';
+import { logLines, rechain } from '../relog.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const tmp = () => mkdtempSync(join(tmpdir(), 'mw-range-'));
@@ -63,17 +63,12 @@ describe('a reading past its gauge range under a composition', () => {
   });
 
   it('a log whose last reading is past its gauge range: check and the label say not shown, not the uncertainty', async () => {
-    const [header, ...events] = readFileSync('batches/demo-ch4-phi1-ar98.jsonl', 'utf8')
-      .split('\n')
-      .filter(Boolean)
-      .map((l) => {
-        const e = JSON.parse(l) as Record<string, unknown>;
-        delete e.chain;
-        return e;
-      });
-    const f = join(tmp(), 'b.jsonl');
-    createLog(f, header as unknown as LogHeader);
-    for (const e of events) appendEvent(f, (e.step === 3 ? { ...e, gauge: 'head-1kT' } : e) as NewLogEvent);
+    const { header, events } = logLines('batches/demo-ch4-phi1-ar98.jsonl');
+    const f = rechain(
+      join(tmp(), 'b.jsonl'),
+      header,
+      events.map((e) => (e.kind === 'reading' && e.step === 3 ? { ...e, gauge: 'head-1kT' } : e)),
+    );
     const r = await runCli(['check', f, '--trials', '100000']);
     expect(r.code, r.stderr).toBe(3);
     expect(r.stdout).toMatch(

@@ -3,44 +3,32 @@
 // certificate list them - who, when, the reading against its minimum, refused ones too - instead of
 // leaving no trace. The log is the demo stage-2 log with those lines inserted before its premix fill
 // and re-chained; no computed number is checked here, only what is said of the record.
-import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
+import type { LogHeader, NewLogEvent } from '../../src/io/batch-log.js';
 import { runCli, TORR } from '../helpers.js';
+import { logLines, rechain } from '../relog.js';
 
 const DEMO = 'batches/demo-ch4-phi1-from-premix.jsonl';
 
-/** the demo stage-2 log's lines without their hash links */
-function demoLines(): Record<string, unknown>[] {
-  return readFileSync(DEMO, 'utf8')
-    .split('\n')
-    .filter(Boolean)
-    .map((l) => {
-      const e = JSON.parse(l) as Record<string, unknown>;
-      delete e.chain;
-      return e;
-    });
+/** a copy of the demo stage-2 log's folder (its premix log beside it) and its lines without the premix checks */
+function demoWithoutChecks(): { dir: string; header: LogHeader; events: NewLogEvent[] } {
+  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-checks-'));
+  copyFileSync('batches/demo-premix-o2-ar-mt2.jsonl', join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
+  const { header, events } = logLines(DEMO);
+  return { dir, header, events: events.filter((e) => !e.kind.startsWith('premix-')) };
 }
 
 /** the demo stage-2 log re-chained without its premix check lines (as a log made before the fill asked them) */
 function withoutPremixChecks(): string {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-checks-'));
-  copyFileSync('batches/demo-premix-o2-ar-mt2.jsonl', join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
-  const [header, ...events] = demoLines().filter((e) => !String(e.kind).startsWith('premix-'));
-  const f = join(dir, 'b0.jsonl');
-  createLog(f, header as unknown as LogHeader);
-  for (const e of events) appendEvent(f, e as unknown as NewLogEvent);
-  return f;
+  const { dir, header, events } = demoWithoutChecks();
+  return rechain(join(dir, 'b0.jsonl'), header, events);
 }
 
 function withPremixChecks(): string {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-premix-checks-'));
-  copyFileSync('batches/demo-premix-o2-ar-mt2.jsonl', join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
-  const [header, ...events] = demoLines().filter((e) => !String(e.kind).startsWith('premix-'));
-  const f = join(dir, 'b1.jsonl');
-  createLog(f, header as unknown as LogHeader);
+  const { dir, header, events } = demoWithoutChecks();
   const checks: NewLogEvent[] = [
     { kind: 'premix-mixed', tank: 'MT-2', by: 'AB', time: '2026-11-30T11:00:00Z', note: 'stirred 30 min' },
     {
@@ -66,11 +54,10 @@ function withPremixChecks(): string {
       time: '2026-11-30T11:20:00Z',
     },
   ];
-  for (const e of events) {
-    if (e.kind === 'reading' && e.step === 3) for (const c of checks) appendEvent(f, c);
-    appendEvent(f, e as unknown as NewLogEvent);
-  }
-  return f;
+  // the checks just before the first fill from the premix (step 3), as the guided fill logs them
+  const at = events.findIndex((e) => e.kind === 'reading' && e.step === 3);
+  expect(at).toBeGreaterThan(0);
+  return rechain(join(dir, 'b1.jsonl'), header, [...events.slice(0, at), ...checks, ...events.slice(at)]);
 }
 
 describe("check and the certificate of a stage-2 log list the premix tank's checks", () => {

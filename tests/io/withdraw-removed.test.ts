@@ -6,29 +6,24 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
+import type { NewLogEvent } from '../../src/io/batch-log.js';
 import { runCli } from '../helpers.js';
+import { logLines, rechain } from '../relog.js';
 
 const DEMO = 'batches/demo-ch4-phi1-ar98.jsonl';
 
 /** the demo log written again with fill 2 withdrawn and read again; lines: 1 header, 2-3 readings, 4 withdraw */
 function withWithdrawal(): string {
-  const [header, ...events] = readFileSync(DEMO, 'utf8')
-    .split('\n')
-    .filter(Boolean)
-    .map((l) => {
-      const e = JSON.parse(l) as Record<string, unknown>;
-      delete e.chain;
-      return e;
-    });
-  const f = join(mkdtempSync(join(tmpdir(), 'mw-withdraw-')), 'b.jsonl');
-  createLog(f, header as unknown as LogHeader);
-  const [r1, r2, r3, close] = events as unknown as NewLogEvent[];
-  appendEvent(f, r1);
-  appendEvent(f, { ...r2, reading: '1481 Torr', pressure_Pa: (1481 * 101325) / 760 } as NewLogEvent);
-  appendEvent(f, { kind: 'withdraw', step: 2, withdraws_line: 3, by: 'QX', time: 't', reason: 'mistyped' });
-  for (const e of [r2, r3, close]) appendEvent(f, e);
-  return f;
+  const { header, events } = logLines(DEMO);
+  const [r1, r2, r3, close] = events;
+  return rechain(join(mkdtempSync(join(tmpdir(), 'mw-withdraw-')), 'b.jsonl'), header, [
+    r1,
+    { ...r2, reading: '1481 Torr', pressure_Pa: (1481 * 101325) / 760 } as NewLogEvent,
+    { kind: 'withdraw', step: 2, withdraws_line: 3, by: 'QX', time: 't', reason: 'mistyped' },
+    r2,
+    r3,
+    close,
+  ]);
 }
 
 function without(f: string, line: number): string {
