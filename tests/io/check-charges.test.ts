@@ -466,15 +466,15 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
   // "cannot be shown within its tolerance", a batch of another design "fails its re-check"), or it
   // was called "another premix"; the refusal now says what the log is and which log to give
   const withRecipe = ['--recipe', 'recipes/ch4-o2-ar-phi1.yaml'];
+  /** `check CSV --recipe (the demo's) --premix-log LOG`, its exit asserted: 2, refused as premix-log-refused */
+  async function withPremixLog(csv: string, log: string, exit = 2) {
+    const r = await runCli(['check', csv, ...withRecipe, '--premix-log', log]);
+    expect(r.code, r.stderr).toBe(exit);
+    if (exit === 2) expect(r.stderr).toContain('(error code: premix-log-refused)');
+    return r;
+  }
   it('a batch filled from the premix (stage 2) in its place: names it a batch and gives the premix log it names', async () => {
-    const cli = await runCli([
-      'check',
-      CSV,
-      ...withRecipe,
-      '--premix-log',
-      'batches/demo-ch4-phi1-from-premix.jsonl',
-    ]);
-    expect(cli.code).toBe(2);
+    const cli = await withPremixLog(CSV, 'batches/demo-ch4-phi1-from-premix.jsonl');
     expect(cli.stderr).toContain(
       '--premix-log: batches/demo-ch4-phi1-from-premix.jsonl (given as the premix log) is the log of batch ' +
         'demo-ch4-phi1-from-premix, filled in tank MT-1 from a premix (stage 2 of batch demo-ch4-phi1-from-premix): a ' +
@@ -491,28 +491,14 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
     const text = readFileSync(CSV, 'utf8');
     expect(text).toMatch(/^premix-MT-2,/m);
     writeFileSync(f, text.replace(/^premix-MT-2,/m, 'Ar+O2,'));
-    const stage2 = await runCli([
-      'check',
-      f,
-      ...withRecipe,
-      '--premix-log',
-      'batches/demo-ch4-phi1-from-premix.jsonl',
-    ]);
-    expect(stage2.code).toBe(2);
+    const stage2 = await withPremixLog(f, 'batches/demo-ch4-phi1-from-premix.jsonl');
     expect(stage2.stderr).toContain(
       'filled in tank MT-1 from a premix (stage 2 of batch demo-ch4-phi1-from-premix): a batch, not a premix; ' +
         `${f} line 4 names Ar+O2, a premix fill by its gases, so --premix-log must be the log of the premix that ` +
         'gas came from (its stage-1 log) - give --premix-log batches/demo-premix-o2-ar-mt2.jsonl',
     );
     expect(stage2.stderr).not.toMatch(/is not filled in the design/);
-    const single = await runCli([
-      'check',
-      f,
-      ...withRecipe,
-      '--premix-log',
-      'batches/demo-ch4-phi1-ar98.jsonl',
-    ]);
-    expect(single.code).toBe(2);
+    const single = await withPremixLog(f, 'batches/demo-ch4-phi1-ar98.jsonl');
     expect(single.stderr).toContain(
       'batches/demo-ch4-phi1-ar98.jsonl (given as the premix log) is the log of demo-ch4-phi1-ar98, a single-tank ' +
         'fill in tank MT-1',
@@ -521,25 +507,11 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
       /the premix fill|premix log batches|cannot be shown within its tolerance/,
     );
     // the stage-1 log it names: the row is that premix's fill, the re-check runs
-    const ok = await runCli([
-      'check',
-      f,
-      ...withRecipe,
-      '--premix-log',
-      'batches/demo-premix-o2-ar-mt2.jsonl',
-    ]);
-    expect(ok.code, ok.stderr).toBe(0);
+    await withPremixLog(f, 'batches/demo-premix-o2-ar-mt2.jsonl', 0);
   });
 
   it('a single-tank batch of another tank in its place: what it is, the row, the log to give', async () => {
-    const cli = await runCli([
-      'check',
-      CSV,
-      ...withRecipe,
-      '--premix-log',
-      'batches/demo-ch4-phi1-ar98.jsonl',
-    ]);
-    expect(cli.code).toBe(2);
+    const cli = await withPremixLog(CSV, 'batches/demo-ch4-phi1-ar98.jsonl');
     expect(cli.stderr).toContain(
       'batches/demo-ch4-phi1-ar98.jsonl (given as the premix log) is the log of demo-ch4-phi1-ar98, a single-tank fill ' +
         'in tank MT-1 (its header records no stage); readings/ch4-phi1-from-premix.csv line 4 names ' +
@@ -549,14 +521,7 @@ describe('a row naming the premix of an earlier stage needs that stage log', () 
   });
 
   it("a batch of another design in the premix's tank: the gas the design has not, not its re-check", async () => {
-    const cli = await runCli([
-      'check',
-      CSV,
-      ...withRecipe,
-      '--premix-log',
-      'batches/demo-c2h4-phi05-ar-overshoot.jsonl',
-    ]);
-    expect(cli.code).toBe(2);
+    const cli = await withPremixLog(CSV, 'batches/demo-c2h4-phi05-ar-overshoot.jsonl');
     expect(cli.stderr).toContain(
       'premix log batches/demo-c2h4-phi05-ar-overshoot.jsonl holds C2H4, which the design (CH4, O2, Ar) ' +
         "does not: it is not a premix of this design's gases",
