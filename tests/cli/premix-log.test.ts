@@ -203,6 +203,33 @@ describe('sheet and check with a premix log', () => {
       });
     }
   });
+
+  // a folder: the option serves the files that draw from the premix; the others are checked without it,
+  // and each says so (never a Premix line of a batch that did not use it, nor a folder-wide refusal)
+  it('check of a folder of CSV readings with --premix-log: used where a row draws from it, said unused elsewhere', async () => {
+    const folder = mkdtempSync(join(dir, 'csv-folder-'));
+    for (const f of ['ch4-phi1-ar98.csv', 'ch4-phi1-from-premix.csv'])
+      copyFileSync(join('readings', f), join(folder, f));
+    const args = ['--recipe', RECIPE, '--premix-log', PREMIX, '--trials', '100000'];
+    const r = await runCli(['check', folder, ...args, '--json']);
+    expect(r.stderr).toBe('');
+    const rows: {
+      file: string;
+      verdict: string;
+      check: { warnings: string[]; premix_logs: { id: string }[] };
+    }[] = JSON.parse(r.stdout);
+    const byName = (n: string) => rows.find((x) => x.file.endsWith(n))!;
+    const plain = byName('ch4-phi1-ar98.csv');
+    const drawn = byName('ch4-phi1-from-premix.csv');
+    expect(plain.verdict).not.toBe('refused');
+    expect(plain.check.premix_logs).toEqual([]);
+    expect(plain.check.warnings).toContain(
+      `--premix-log ${PREMIX} was not used for this file: none of its rows (CH4, Ar, O2) draws from that ` +
+        'premix (premix-MT-2 or Ar+O2)',
+    );
+    expect(drawn.check.premix_logs.map((p) => p.id)).toEqual(['demo-premix-o2-ar-mt2']);
+    expect(drawn.check.warnings.join('\n')).not.toMatch(/was not used/);
+  });
 });
 
 // a premix log changed after it was written (a line off its hash chain, as `check` finds it) is not a

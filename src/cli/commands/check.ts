@@ -35,6 +35,30 @@ type Row =
   | { file: string; report: CheckReport }
   | { file: string; error: string; refused: ReturnType<typeof refusalJson> };
 
+/**
+ * CSV readings of a folder: --premix-log serves the files whose rows draw from that premix; a file none
+ * of whose rows does is checked without it, and its report says so (one file alone is refused instead:
+ * premix-log-refused, cause not-drawn)
+ */
+async function checkCsvOfFolder(f: string, opts: CheckOpts): Promise<CheckReport> {
+  try {
+    return await checkFile(f, opts);
+  } catch (e) {
+    if (
+      !(e instanceof ProblemError) ||
+      e.problem.code !== 'premix-log-refused' ||
+      e.problem.cause.kind !== 'not-drawn'
+    )
+      throw e;
+    const c = e.problem.cause;
+    const report = await checkFile(f, { ...opts, premixLog: undefined });
+    const note =
+      `--premix-log ${e.problem.log} was not used for this file: none of its rows (${c.rows.join(', ')}) ` +
+      `draws from that premix (${c.names.join(' or ')})`;
+    return { ...report, warnings: [...report.warnings, note] };
+  }
+}
+
 /** each file of the folder checked on its own: a refusal is a row of the summary, not the end */
 async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): Promise<Row[]> {
   const rows: Row[] = [];
@@ -43,12 +67,9 @@ async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): P
       // --barometer and --tank are for CSV readings; a log in the folder keeps its own
       rows.push({
         file: f,
-        report: await checkFile(
-          f,
-          /\.csv$/i.test(f)
-            ? opts
-            : { ...opts, barometricPa: undefined, tankId: undefined, premixLog: undefined },
-        ),
+        report: /\.csv$/i.test(f)
+          ? await checkCsvOfFolder(f, opts)
+          : await checkFile(f, { ...opts, barometricPa: undefined, tankId: undefined, premixLog: undefined }),
       });
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
