@@ -20,6 +20,12 @@ export const cliRuns = { count: 0 };
 export const stderrWords = (shown: string): string => shown.replace(/\n {2,}/g, ' ');
 
 /**
+ * a stack frame on its own line ("    at fn (file.js:12:3)"): read in stderr as written (stderrShown),
+ * where a wrapped sentence that goes on with "at ..." does not end in a line and column
+ */
+export const STACK_LINE = /^\s+at .*:\d+:\d+\)?$/m;
+
+/**
  * run the CLI in-process; returns exit code and captured output: `stderr` as its words (stderrWords),
  * `stderrShown` as written to the terminal (wrapped at 80 columns)
  */

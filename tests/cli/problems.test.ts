@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describeProblem, type Problem } from '../../src/core/index.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
-import { runCli } from '../helpers.js';
+import { runCli, STACK_LINE } from '../helpers.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const tmp = () => mkdtempSync(join(tmpdir(), 'mw-cli-problems-'));
@@ -16,7 +16,8 @@ async function refusedWith(argv: string[], code: string, message: string | RegEx
   expect(r.stderr).toContain(`(error code: ${code})`);
   if (typeof message === 'string') expect(r.stderr).toContain(message);
   else expect(r.stderr).toMatch(message);
-  expect(r.stderr).not.toMatch(/\n\s+at |undefined|\[object/);
+  expect(r.stderrShown).not.toMatch(STACK_LINE);
+  expect(r.stderr).not.toMatch(/undefined|\[object/);
 }
 
 describe('each condition of the command line and recipe has its own code and typed fields', () => {

@@ -25,7 +25,7 @@ import {
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stringify } from 'yaml';
-import { cliRuns, runCli } from '../helpers.js';
+import { cliRuns, runCli, STACK_LINE } from '../helpers.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 40);
@@ -42,7 +42,7 @@ const file = (ext: string, text: string | Buffer) => {
 };
 const broken: string[] = [];
 
-type Result = { code: number; stdout: string; stderr: string; ms: number };
+type Result = { code: number; stdout: string; stderr: string; stderrShown: string; ms: number };
 
 async function run(argv: string[]): Promise<Result> {
   const t0 = performance.now();
@@ -55,7 +55,7 @@ function judge(r: Result, allowed: number[], what: string): void {
   const unquoted = (s: string) => s.replace(/"[^"\n]*"/g, '""');
   const problems: string[] = [];
   if (!allowed.includes(r.code)) problems.push(`exit ${r.code} not in ${allowed.join('/')}`);
-  if (/\n\s+at .*\(/.test(r.stderr) || r.stderr.includes('internal error'))
+  if (STACK_LINE.test(r.stderrShown) || r.stderr.includes('internal error'))
     problems.push('stack trace or internal error');
   if (/\bNaN\b|\bInfinity\b/.test(r.stdout) || /\bNaN\b|\bInfinity\b/.test(unquoted(r.stderr)))
     problems.push('NaN or Infinity in the output');
