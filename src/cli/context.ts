@@ -1,5 +1,5 @@
 /** What every command module is given: the output streams, exit codes and the shared ways out. */
-import { ProblemError } from '../core/index.js';
+import { describeProblemAt, ProblemError, type Problem, type Where } from '../core/index.js';
 
 export interface Streams {
   readonly stdout: { write(s: string): unknown };
@@ -69,6 +69,11 @@ export function wrapForStderr(text: string, width = STDERR_WIDTH): string {
       return out;
     })
     .join('\n');
+}
+
+/** a refusal as stderr gives it: what, where, why and what to do, then its code (wrapped by `err`) */
+export function refusalText(problem: Problem, where: Where): string {
+  return `mixwright: ${describeProblemAt(problem, where)}\n  (error code: ${problem.code})\n`;
 }
 
 export function cliOf(streams: Streams): Cli {

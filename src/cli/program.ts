@@ -5,7 +5,7 @@
  * turns what ends a run (a refusal, an exit code, a system error) into the exit code.
  */
 import { Command, CommanderError } from 'commander';
-import { describeProblemAt, ProblemError, type Problem, type Where } from '../core/index.js';
+import { ProblemError, type Problem, type Where } from '../core/index.js';
 import { checkRefusedJson, commandRefusedJson } from '../report/check-report.js';
 import { VERSION } from '../version.js';
 import { registerCheck } from './commands/check.js';
@@ -16,7 +16,7 @@ import { registerReady } from './commands/ready.js';
 import { registerSheet } from './commands/sheet.js';
 import { registerDemoLab, registerSchema, registerSpecies } from './commands/species.js';
 import { registerWizard } from './commands/wizard.js';
-import { cliOf, EXIT, ExitSignal, type Cli, type Streams } from './context.js';
+import { cliOf, EXIT, ExitSignal, refusalText, type Cli, type Streams } from './context.js';
 import { refuseRepeatedOptions } from './repeated.js';
 
 export { EXIT, type Streams } from './context.js';
@@ -50,7 +50,7 @@ function exitCodeOf(cli: Cli, e: unknown): number {
     return EXIT.input;
   }
   if (e instanceof ProblemError) {
-    cli.err(`mixwright: ${describeProblemAt(e.problem, e.where)}\n  (error code: ${e.problem.code})\n`);
+    cli.err(refusalText(e.problem, e.where));
     return EXIT.input;
   }
   const sys = e as NodeJS.ErrnoException;

@@ -16,7 +16,7 @@ import {
   type OutcomeInput,
 } from '../../report/check-outcome.js';
 import { VERSION } from '../../version.js';
-import { EXIT, ExitSignal, type Cli } from '../context.js';
+import { EXIT, ExitSignal, refusalText, type Cli } from '../context.js';
 import { numberOption, parseBarometer, parseTrials } from '../numbers.js';
 import { isDirectory, listLogs } from '../output.js';
 
@@ -79,7 +79,7 @@ async function checkEach(cli: Cli, files: readonly string[], opts: CheckOpts): P
         error: describeProblemAt(e.problem, e.where),
         refused: refusalJson(e.problem, where),
       });
-      cli.err(`mixwright: ${describeProblemAt(e.problem, where)}\n  (error code: ${e.problem.code})\n`);
+      cli.err(refusalText(e.problem, where));
     }
   }
   return rows;
