@@ -7,6 +7,7 @@ import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
+  fillEnding,
   fillReducer,
   premixMixingWords,
   shownPa,
@@ -20,7 +21,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
+import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
@@ -337,10 +338,13 @@ function Prompt({ state }: ScreenProps) {
   );
 }
 
-/** a fill's band as shown on its gauge, rounded inward; its half-width where the display cannot show it */
-function bandText(centerPa: number, bandPa: number, unit: PressureUnit, dec: number): string {
-  const b = inwardBand(centerPa, bandPa, unit, dec);
-  return b ? `${b.low} - ${b.high}` : `+-${fixedSig(fromPa(bandPa, unit), 2)} (finer than the display step)`;
+/**
+ * a fill's band as shown on its gauge, rounded inward, with the unit; where no two display steps fit in
+ * it, its half-width finer than the display step and the one reading inside it, as the sheet says it
+ */
+function bandText(step: FillStep, centerPa: number, unit: PressureUnit, dec: number): string {
+  const inward = inwardBand(centerPa, step.bandPa, unit, dec);
+  return bandWords(inward, step.bandPa, step.gauge?.resolutionPa ?? 0, unit, dec, ` ${unit}`);
 }
 
 function ErrorLine({ state }: ScreenProps) {
@@ -407,12 +411,59 @@ export function rowsOf(text: string, columns: number): number {
   return text.split('\n').reduce((n, l) => n + Math.max(1, Math.ceil(l.length / w)), 0);
 }
 
-/** the first rows of a long message, cut at a word, for the end screen's first page */
-function cut(text: string, rows: number, columns: number): string {
+/** the first rows of a long text, cut at a word, for the end screen's first page; `more` says where the rest is */
+function cut(text: string, rows: number, columns: number, more = '(m: the whole message)'): string {
   const room = rows * Math.max(20, columns - 8);
   if (text.length <= room) return text;
-  const at = text.lastIndexOf(' ', room - 30);
-  return `${text.slice(0, at > 0 ? at : room - 30)} ... (m: the whole message)`;
+  const keep = Math.max(10, room - more.length - 6);
+  const at = text.lastIndexOf(' ', keep);
+  return `${text.slice(0, at > 0 ? at : keep)} ... ${more}`;
+}
+
+/**
+ * a caution said shorter: its long asides in parentheses (more than 24 characters: an explanation, never
+ * the hazard's name or its fill) left out; the whole is on the end screen's cautions page (c)
+ */
+export function withoutAsides(text: string): string {
+  let out = text;
+  for (let prev = ''; prev !== out;) {
+    prev = out;
+    out = out.replace(/ \(([^()]*)\)/g, (whole, inner: string) => (inner.length > 24 ? '' : whole));
+  }
+  return out;
+}
+
+/**
+ * the cautions beside the verdict (check's caveats) in the rows the first page has for them: whole where
+ * they fit; else each without its long asides; else each cut to an equal share of the rows. Every
+ * caution keeps its first words (what it is: DANGER, ACCEPTED HAZARD...); `cut` says c shows them whole.
+ */
+export function cautionRows(caveats: readonly string[], room: number, columns: number) {
+  const rowsAll = (xs: readonly string[]) => xs.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0);
+  if (rowsAll(caveats) <= room) return { lines: [...caveats], cut: false };
+  const short = caveats.map(withoutAsides);
+  if (rowsAll(short) <= room) return { lines: short, cut: true };
+  // the rows shared out, the shorter cautions taking any rows left over (nearer whole)
+  const n = Math.max(1, caveats.length);
+  const byLength = short.map((c, i) => [c.length, i]).sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  const extra = new Set(byLength.slice(0, Math.max(0, room) % n).map(([, i]) => i));
+  const each = (i: number) => Math.max(1, Math.floor(room / n) + (extra.has(i) ? 1 : 0));
+  return { lines: short.map((c, i) => elide(c, each(i), columns - 2)), cut: true };
+}
+
+/**
+ * a caution in `rows` rows: its first words (what it is, what was found) and its last (what to do),
+ * joined by "...", cut at words; c shows it whole
+ */
+function elide(text: string, rows: number, columns: number): string {
+  const more = ' (c: in full)';
+  const room = rows * Math.max(20, columns - 8) - more.length - 5;
+  if (text.length + more.length <= rows * Math.max(20, columns - 8)) return text;
+  const headAt = text.lastIndexOf(' ', Math.ceil(room * 0.45));
+  const head = text.slice(0, headAt > 0 ? headAt : Math.ceil(room * 0.45));
+  const tailAt = text.indexOf(' ', text.length - (room - head.length));
+  const tail = tailAt > head.length ? text.slice(tailAt + 1) : '';
+  return `${head} ...${tail ? ` ${tail}` : ''}${more}`;
 }
 
 /**
@@ -430,6 +481,78 @@ function verdictLine(report: CheckReport | undefined): string | undefined {
   );
 }
 
+/**
+ * what the end screen's title says of a finished batch: how the last fill ended against its target (as
+ * computed from the readings, fillEnding); "all fills logged" only where every fill reached its band
+ */
+export function endWords(s: FillState): string {
+  const K = s.setup.steps.length;
+  const e = fillEnding(s);
+  if (!e) return `STOPPED after fill ${s.done.length} of ${K}`;
+  const vs = `${e.reached} (target ${e.target})`;
+  const head = {
+    within: `all ${K} fills logged`,
+    above: `fill ${e.step} of ${K} ABOVE ITS BAND: ${vs}`,
+    'over-limit': `fill ${e.step} of ${K} KEPT ABOVE THE WORKING LIMIT: ${vs}`,
+    below: `CLOSED BELOW THE LAST TARGET: fill ${e.step} of ${K} at ${vs}`,
+    vented: `CLOSED AFTER VENTING: fill ${e.step} of ${K} read ${vs}`,
+  }[e.kind];
+  const many = e.short.length > 1;
+  const short = e.short.length
+    ? `; fill${many ? 's' : ''} ${e.short.join(', ')} left BELOW ${many ? 'their' : 'its'} band`
+    : '';
+  if (e.kind !== 'within') return head + short;
+  if (short) return `${K} fills logged, the last within its band${short}`;
+  return e.over.length ? `all ${K} fills logged, the last within its band` : `${head}, each within its band`;
+}
+
+/** what the end screen's first page shows (endLayout) */
+interface EndParts {
+  readonly title: string;
+  readonly above?: string;
+  readonly verdict?: string;
+  readonly caveats: readonly string[];
+  readonly stage: readonly string[];
+  readonly logLine: string;
+  readonly message?: string;
+  readonly label?: readonly string[];
+}
+
+/**
+ * the end screen's first page in `rows` x `columns`: the title, the tank above its limit, the verdict, the
+ * stage lines, the log line and the keys are whole; every caution is there (cautionRows: shortened or cut
+ * where they do not fit whole, c shows them whole); the message takes 2 to 4 rows (m: whole); the label
+ * only where all of it fits (l: its own page)
+ */
+export function endLayout(p: EndParts, rows: number, columns: number) {
+  const keyRow = 1;
+  const others =
+    rowsOf(p.title, columns) +
+    (p.above ? rowsOf(p.above, columns) : 0) +
+    1 +
+    (p.verdict ? rowsOf(p.verdict, columns) : 1) +
+    (p.stage.length ? 1 + p.stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
+    rowsOf(p.logLine, columns) +
+    keyRow;
+  const messageMin = p.message ? Math.min(2, rowsOf(p.message, columns)) : 0;
+  const cautions = cautionRows(p.caveats, rows - 1 - others - messageMin, columns);
+  const cautionsRows = cautions.lines.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0);
+  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
+  const message = p.message
+    ? cut(p.message, Math.max(2, Math.min(4, rows - 1 - others - cautionsRows)), columns)
+    : undefined;
+  const fixed = others + cautionsRows + (message ? rowsOf(message, columns) : 0);
+  const labelRows = p.label ? 3 + p.label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
+  const labelHere = Boolean(p.label) && fixed + labelRows <= rows - 1;
+  const keys = [
+    ...(p.label && !labelHere ? ['l: the tank label'] : []),
+    ...(cautions.cut ? ['c: cautions in full'] : []),
+    ...(p.message && message !== p.message ? ['m: the whole message'] : []),
+    'q or Enter: quit',
+  ].join('  ');
+  return { message, cautions, labelHere, keys };
+}
+
 function EndScreen({
   state,
   check,
@@ -438,11 +561,13 @@ function EndScreen({
 }: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
-  const [page, setPage] = useState<'main' | 'label' | 'message'>('main');
+  const [page, setPage] = useState<'main' | 'label' | 'message' | 'cautions'>('main');
   const { stdout } = useStdout();
   const rows = stdout?.rows || 24;
   const columns = stdout?.columns || 80;
-  const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
+  // the label's lines wrapped to the box's inside (its edges and padding: 4 columns), so ink never re-wraps them
+  const model = check && 'report' in check ? labelModel(check.report, check.log) : undefined;
+  const label = model ? labelLines(model, Math.max(20, columns - 4)) : undefined;
   // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
   const caveats = check && 'report' in check ? check.report.caveats : [];
   const report = check && 'report' in check ? check.report : undefined;
@@ -454,53 +579,42 @@ function EndScreen({
     if (input === 'l') {
       setPage('label');
       setLabelPart(0);
+    } else if (input === 'c') {
+      setPage('cautions');
+      setLabelPart(0);
     } else if (input === 'm') setPage('message');
     else if (input === 'b') setPage('main');
     else if (input === 'n') setLabelPart((k) => k + 1);
     else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
   });
   const title = `${fillTitle(h)} - ${
-    state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
+    state.phase === 'done' ? endWords(state) : `STOPPED after fill ${state.current} of ${K}`
   }`;
   const verdict = verdictLine(report);
-  const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
+  const logLine = `The log's full budget: \`mixwright check ${logFile}\``;
   // the tank above its working limit (a reading there accepted): said whole, whatever the message
   const above = state.aboveLimitText ? `! ${state.aboveLimitText}` : undefined;
-  const others =
-    rowsOf(title, columns) +
-    (above ? rowsOf(above, columns) : 0) +
-    1 +
-    (verdict ? rowsOf(verdict, columns) : 1) +
-    caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
-    (stage.length ? 1 + stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
-    rowsOf(logLine, columns) +
-    1;
-  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
-  const message = state.message
-    ? cut(state.message, Math.max(2, Math.min(4, rows - 1 - others)), columns)
-    : undefined;
-  const fixed = others + (message ? rowsOf(message, columns) : 0);
-  const labelRows = label ? 3 + label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
-  const labelHere = Boolean(label) && fixed + labelRows <= rows - 1;
-  const keys = [
-    ...(label && !labelHere ? ['l: the tank label'] : []),
-    ...(state.message && message !== state.message ? ['m: the whole message'] : []),
-    'q or Enter: quit',
-  ].join('   ');
-  if (page === 'label' && label) {
-    // a label taller than the terminal is shown in parts (n, p), each within its rows
+  const lay = endLayout(
+    { title, above, verdict, caveats, stage, logLine, message: state.message, label },
+    rows,
+    columns,
+  );
+  const { message, cautions, labelHere, keys } = lay;
+  if (page === 'label' && label)
     // the label's own lines carry check's caveats already (once): none is added to the box
-    const parts = labelParts([], label, rows - 5 - rowsOf(title, columns), columns - 4);
-    const k = Math.min(labelPart, parts.length - 1);
-    const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
     return (
-      <Box flexDirection="column">
-        <Para bold>{title}</Para>
-        <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={caveats.length > 0} />
-        <Text>{`${more}b: back   q or Enter: quit`}</Text>
-      </Box>
+      <PartsPage title={title} lines={label} part={labelPart} rows={rows} columns={columns} box={caveats} />
     );
-  }
+  if (page === 'cautions' && cautions.cut)
+    return (
+      <PartsPage
+        title={title}
+        lines={caveats.map((c) => `! ${c}`)}
+        part={labelPart}
+        rows={rows}
+        columns={columns}
+      />
+    );
   if (page === 'message' && state.message)
     return (
       <Box flexDirection="column">
@@ -523,7 +637,7 @@ function EndScreen({
         </Para>
       ) : null}
       {verdict ? <Para bold>{verdict}</Para> : null}
-      {caveats.map((c, i) => (
+      {cautions.lines.map((c, i) => (
         <Para key={i} bold>
           ! {c}
         </Para>
@@ -533,6 +647,45 @@ function EndScreen({
       {h.stage ? <StageEnd header={h} report={report} closed={state.phase === 'done'} /> : null}
       <Para>{logLine}</Para>
       <Text>{keys}</Text>
+    </Box>
+  );
+}
+
+/**
+ * a page of the end screen taller than the terminal, shown in parts (n, p), each within its rows: the
+ * tank label (in its box, double-edged where check's caveats stand beside the verdict) or the cautions
+ */
+function PartsPage({
+  title,
+  lines,
+  part,
+  rows,
+  columns,
+  box,
+}: {
+  readonly title: string;
+  readonly lines: readonly string[];
+  readonly part: number;
+  readonly rows: number;
+  readonly columns: number;
+  readonly box?: readonly string[];
+}) {
+  const parts = labelParts([], lines, rows - (box ? 5 : 2) - rowsOf(title, columns), columns - (box ? 4 : 0));
+  const k = Math.min(part, parts.length - 1);
+  const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
+  return (
+    <Box flexDirection="column">
+      <Para bold>{title}</Para>
+      {box ? (
+        <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={box.length > 0} />
+      ) : (
+        parts[k].label.map((c, i) => (
+          <Para key={i} bold>
+            {c}
+          </Para>
+        ))
+      )}
+      <Text>{`${more}b: back   q or Enter: quit`}</Text>
     </Box>
   );
 }
@@ -612,7 +765,7 @@ function BelowScreen({ state }: ScreenProps) {
           STOP AT {stop} {lu}
         </Text>
         <Text>
-          band {bandText(st, ls.bandPa, lu, ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
+          band {bandText(ls, st, lu, ld)} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
           {state.done[m - 1]?.text}
         </Text>
       </Box>
@@ -1289,8 +1442,7 @@ function ReadingScreen({ state }: ScreenProps) {
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
-          band {bandText(shown, step.bandPa, unit, dec)} {unit} at{' '}
-          {(state.targetTemperatureK - 273.15).toFixed(1)} degC
+          band {bandText(step, shown, unit, dec)} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
       </Box>
