@@ -128,23 +128,29 @@ function JudgementView({ j, compact }: { j: CompositionJudgement; compact?: bool
     `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %` +
     (tol.length > 1 ? ` (tol ${tolOf(d)} %)` : '');
   if (compact) {
-    // one wrapped row of the species outside (a screen that has the ways on to show as well)
+    // the species outside on one wrapped row (a screen that has the ways on, or a crowded fill screen)
     const out = j.deviations.filter((d) => !d.within);
+    const outText =
+      `${out.map((d) => `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %`).join(', ')}` +
+      ` rel: OUT (tol ${[...new Set(out.map(tolOf))].join(' / ')} %)`;
+    if (j.kind !== 'final')
+      return (
+        <Para bold={j.verdict === 'off-course'}>
+          {j.verdict === 'on-course'
+            ? 'Composition (values, not U): the remaining fills bring each within tolerance'
+            : `Values (not U): OFF COURSE - ${outText}`}
+        </Para>
+      );
     return (
       <Box flexDirection="column">
         <Text bold={j.verdict === 'fail'}>{head}</Text>
-        {out.length ? (
-          <Para>
-            {`  ${out.map((d) => `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %`).join(', ')}` +
-              ` rel: OUT (tol ${[...new Set(out.map(tolOf))].join(' / ')} %)`}
-          </Para>
-        ) : null}
+        {out.length ? <Para>{`  ${outText}`}</Para> : null}
       </Box>
     );
   }
   return (
     <Box flexDirection="column">
-      <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
+      <Para bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Para>
       {ok.length ? (
         <Para>
           {`  ${ok.map(row).join(', ')} rel: ${ok.length > 1 ? 'each ' : ''}within ` +
@@ -1395,7 +1401,37 @@ export function gasCaution(composition: Readonly<Record<string, number>>): strin
   return undefined;
 }
 
+/**
+ * the rows a fill screen takes with the composition in full (an estimate, rowsOf): more than the
+ * terminal has, the composition is shown compact (the species outside on one row)
+ */
+function readingRows(state: FillState, band: string, columns: number): number {
+  const index = state.setup.steps[state.current].index;
+  const dangers =
+    state.setup.dangers.filter((d) => d.step === index).length +
+    (state.acceptedHazards ?? []).filter((h) => h.step === index).length;
+  const warnings = (state.setup.header.findings ?? []).filter(
+    (f) => f.severity === 'warning' && f.step === index,
+  );
+  const j = state.judgement;
+  const judgement = j && !state.error ? 2 + j.deviations.filter((d) => !d.within).length + 1 : 0;
+  // title, rule, the gas, the gauge (2), isolate or caution (2), the box's edges and target (3), the fields
+  // (2), the error row and the keys (2): 14; then what varies
+  return (
+    14 +
+    rowsOf(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
+    dangers * 3 +
+    (dangers ? 1 : 0) +
+    warnings.length * 2 +
+    rowsOf(state.message ?? ' ', columns) +
+    judgement
+  );
+}
+
 function ReadingScreen({ state }: ScreenProps) {
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
   const h = state.setup.header;
   const K = state.setup.steps.length;
   const { step, unit, dec } = stepView(state);
@@ -1410,6 +1446,8 @@ function ReadingScreen({ state }: ScreenProps) {
   const caution = gasCaution(step.source.composition);
   // the hints name this session's operator (after a resume by another, theirs), else an example
   const who = state.operator ?? 'AB';
+  const band = bandText(step, shown, unit, dec);
+  const crowded = readingRows(state, band, columns) > rows - 1;
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1442,7 +1480,7 @@ function ReadingScreen({ state }: ScreenProps) {
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
-          band {bandText(step, shown, unit, dec)} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
+          band {band} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
       </Box>
@@ -1451,7 +1489,7 @@ function ReadingScreen({ state }: ScreenProps) {
       <Para>{state.error ? '' : (state.message ?? ' ')}</Para>
       {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
           screen keeps 24 rows */}
-      {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
+      {state.judgement && !state.error ? <JudgementView j={state.judgement} compact={crowded} /> : null}
       <Para>{state.error ? `! ${state.error}` : ' '}</Para>
       <Text>
         Enter: log Tab: temp undo {who}: undo last fix N {who}: correct Ctrl-C: stop

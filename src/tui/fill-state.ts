@@ -42,6 +42,7 @@ import {
   type PressureUnit,
 } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
+import { acknowledges } from '../io/log-audit.js';
 import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
 import {
   chargesOfHeader,
@@ -528,6 +529,11 @@ function openedState(setup: FillSetup, log: ParsedLog | undefined, now: string):
     const after =
       vent && vent.step === setup.steps[setup.steps.length - 1].index ? vent.readings.at(-1) : undefined;
     const ventedRead = after ? { text: after.reading, pressurePa: after.pressure_Pa } : undefined;
+    // the last reading above the working limit, not vented: the tank is still above it (said on the end screen)
+    const lastPa = done[done.length - 1].pressurePa;
+    const limit = setup.workingLimitPa;
+    if (!ventedRead && limit !== undefined && lastPa > limit)
+      state = { ...state, aboveLimitText: aboveLimitWords(state, lastPa, limit) };
     return finish(
       { ...state, effects: [], ...(ventedRead ? { ventedRead } : {}) },
       log?.closed || !now ? undefined : now,
@@ -562,7 +568,10 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
     !log?.closed &&
     limit !== undefined &&
     lastRead.pressure_Pa > limit &&
-    !(log?.acknowledgements ?? []).some((a) => a.code === 'above-working-limit' && a.step === lastRead.step)
+    // a choice logged for this very reading (its log line, as check matches it), not for an earlier one of the fill
+    !(log?.acknowledgements ?? []).some(
+      (a) => a.code === 'above-working-limit' && acknowledges(log!, a, lastRead),
+    )
   ) {
     // stopped on the danger screen: the reading is in the log, the operator's choice is not; ask again
     const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
@@ -592,11 +601,10 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
     // incomplete, and continuing it is offered again, unless the log says the operator went on from that
     // very reading (`next`, logged): then the fill goes on to the fill after it
     const m = done.length;
+    // the choice of this very reading: by its log line, as check matches it
+    const read = { step: setup.steps[m - 1].index, line: done[m - 1].line ?? -1 };
     const wentOn = log?.acknowledgements.some(
-      (a) =>
-        a.code === WENT_ON_BELOW_BAND &&
-        a.step === setup.steps[m - 1].index &&
-        a.below?.pressure_Pa === done[m - 1].pressurePa,
+      (a) => a.code === WENT_ON_BELOW_BAND && acknowledges(log, a, read),
     );
     if (wentOn && m < setup.steps.length) return undefined;
     const before: FillState = { ...state, done: done.slice(0, -1), current: m - 1 };
