@@ -2,7 +2,7 @@
  * The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here,
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
-import { useEffect, useState } from 'react';
+import { useEffect, useState, type ReactNode } from 'react';
 import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
@@ -31,6 +31,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
+import type { BelowWays } from './fill-review.js';
 import { Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
@@ -367,14 +368,32 @@ function stepView(state: FillState) {
   return { step, unit, dec, onGauge, absText };
 }
 
+/**
+ * a screen that asks for a typed entry: its title (the batch, then what the screen is), its body, then the
+ * prompt and the refusal of the last entry, if any (the frame of every such screen)
+ */
+function AskScreen({
+  state,
+  what,
+  children,
+}: ScreenProps & { readonly what: string; readonly children: ReactNode }) {
+  return (
+    <Box flexDirection="column">
+      <ScreenTitle base={fillTitle(state.setup.header)} what={what} />
+      {children}
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
 function BarometerScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const gauges = [
     ...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id)),
   ];
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(h)} what="barometric pressure today" />
+    <AskScreen state={state} what="barometric pressure today">
       <Para>
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
@@ -384,16 +403,13 @@ function BarometerScreen({ state }: ScreenProps) {
         Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1
         hPa AB), then Enter. It is logged.
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
 function AcknowledgeScreen({ state }: ScreenProps) {
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(state.setup.header)} what="DANGER findings stand" />
+    <AskScreen state={state} what="DANGER findings stand">
       {state.setup.dangers.map((d, i) => (
         <Para key={i}>
           - {d.code}
@@ -405,9 +421,7 @@ function AcknowledgeScreen({ state }: ScreenProps) {
         The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
         accept INITIALS, then Enter. Ctrl-C stops.
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -817,6 +831,26 @@ function OperatorScreen({ state }: ScreenProps) {
   );
 }
 
+/** a review's hazards on a way on, in words: never "safe", only what it found or that it found nothing new */
+const passes = (xs: readonly string[]) =>
+  xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
+
+/**
+ * what the reviews of the ways on found (belowBandWays), as the below screens and the capped screen say
+ * it: continuing the fill (still passes...), and the tank as it stands now (for a stop or a close)
+ */
+function waysFound(w: BelowWays | undefined): { readonly still: string; readonly tank: string } {
+  const cont = w?.continuing;
+  return {
+    still: cont ? (cont.still.length ? `still ${passes(cont.still)}` : passes([])) : 'not reviewed',
+    tank: w
+      ? w.tankNow.length
+        ? `the tank NOW holds ${w.tankNow.join(', ')}`
+        : 'no flammable, detonable or danger state in the tank now'
+      : 'not reviewed',
+  };
+}
+
 /**
  * the ways on from an incomplete fill before the last, each with what its review found (belowWays): a way
  * is never called safe here unless its review found nothing the plan did not have
@@ -825,16 +859,11 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
   const w = state.belowWays;
   const m = state.done.length;
   const ls = state.setup.steps[m - 1];
-  const found = (xs: readonly string[]) =>
-    xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
-  const cont = w?.continuing;
+  const { still, tank } = waysFound(w);
   const next = w
-    ? found(w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`))
-    : 'not reviewed';
-  const tank = w
-    ? w.tankNow.length
-      ? `the tank NOW holds ${w.tankNow.join(', ')}`
-      : 'no flammable or danger state in the tank now'
+    ? passes(
+        w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`),
+      )
     : 'not reviewed';
   // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
   const K = state.setup.steps.length;
@@ -852,8 +881,7 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
       <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
       <Para>
         - continue: fill on from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
-        {stop.split(' ')[0]} AB):{' '}
-        {cont ? (cont.still.length ? `still ${found(cont.still)}` : found([])) : 'not reviewed'}
+        {stop.split(' ')[0]} AB): {still}
       </Para>
       <Para>
         - next AB (go on from {state.done[m - 1]?.text}
@@ -875,17 +903,7 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
 function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
   const w = state.belowWays;
   const ls = state.setup.steps[state.done.length - 1];
-  const cont = w?.continuing;
-  const still = cont
-    ? cont.still.length
-      ? `still passes ${cont.still.join(', ')}`
-      : 'passes no hazard the plan did not have'
-    : 'not reviewed';
-  const tank = w
-    ? w.tankNow.length
-      ? `the tank NOW holds ${w.tankNow.join(', ')}`
-      : 'no flammable, detonable or danger state in the tank now'
-    : 'not reviewed';
+  const { still, tank } = waysFound(w);
   return (
     <Box flexDirection="column">
       <Text>The ways on, each reviewed (the tank as it stands, and the rest of the fill):</Text>
@@ -1090,8 +1108,7 @@ function ConfirmScreen({ state }: ScreenProps) {
 function UnitCheckScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(state.setup.header)} what={stepWhat(state, 'CHECK THE UNIT')} />
+    <AskScreen state={state} what={stepWhat(state, 'CHECK THE UNIT')}>
       <Para>{pending.reason}</Para>
       <Para>
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
@@ -1101,9 +1118,7 @@ function UnitCheckScreen({ state }: ScreenProps) {
         log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
         (not logged)
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -1115,11 +1130,7 @@ function OverLimitScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   const p = pending.done.pressurePa;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle
-        base={fillTitle(h)}
-        what={`fill ${state.current + 1} of ${K}: DANGER - ABOVE THE WORKING LIMIT`}
-      />
+    <AskScreen state={state} what={`fill ${state.current + 1} of ${K}: DANGER - ABOVE THE WORKING LIMIT`}>
       <Para>
         The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
         of {h.tank.id} ({absText(o.limitPa)}).
@@ -1150,9 +1161,7 @@ function OverLimitScreen({ state }: ScreenProps) {
         accept INITIALS: keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)
         edit INITIALS: it was mistyped (withdrawn, with a trace)
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -1188,7 +1197,6 @@ function UndoReasonScreen({ state }: ScreenProps) {
  * targets it gives, and an explicit choice (go, undo, stop), logged with initials
  */
 function CappedScreen({ state }: ScreenProps) {
-  const h = state.setup.header;
   const c = state.capped!;
   const K = state.setup.steps.length;
   const ahead = state.setup.steps.slice(state.current).map((st, i) => {
@@ -1214,20 +1222,15 @@ function CappedScreen({ state }: ScreenProps) {
       ? `the review finds ${w.goingOn.map(hazardShort).join(', ')}, which the plan did not have`
       : 'the review finds no hazard the plan did not have'
     : 'not reviewed';
-  const stopFound = w
-    ? w.tankNow.length
-      ? `the tank NOW holds ${w.tankNow.join(', ')}`
-      : 'the review finds no flammable, detonable or danger state in the tank now'
-    : 'not reviewed';
+  const stopFound = waysFound(w).tank;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle
-        base={fillTitle(h)}
-        what={
-          `before fill ${c.step} of ${K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE` +
-          (c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : '')
-        }
-      />
+    <AskScreen
+      state={state}
+      what={
+        `before fill ${c.step} of ${K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE` +
+        (c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : '')
+      }
+    >
       {state.message ? <Para>{state.message}</Para> : null}
       <Para bold>{c.cost}.</Para>
       <Para>Capped targets: {ahead.join('; ')}.</Para>
@@ -1241,9 +1244,7 @@ function CappedScreen({ state }: ScreenProps) {
         undo INITIALS: the last reading was mistyped. Each choice is logged; Ctrl-C stops without one
         (resuming asks again).
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -1260,8 +1261,7 @@ function PremixScreen({ state }: ScreenProps) {
   const last = state.premix?.reading;
   const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(h)} what={`before fill ${first} of ${K}: THE PREMIX TANK ${pc.tank}`} />
+    <AskScreen state={state} what={`before fill ${first} of ${K}: THE PREMIX TANK ${pc.tank}`}>
       <Para>
         Fill {first} draws the premix from {pc.tank}
         {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
@@ -1284,9 +1284,7 @@ function PremixScreen({ state }: ScreenProps) {
           : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
         stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 

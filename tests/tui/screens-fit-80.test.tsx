@@ -245,7 +245,7 @@ describe('the fill screens fit 80 x 24', () => {
       /- go INITIALS: fill to the capped targets \(the tank ends at 2692\.7 Torr, OFF THE DESIGN\): the review finds/,
     );
     expect(f).toMatch(
-      /- stop INITIALS: stop the batch here \(incomplete\): the review finds no flammable, detonable or danger state in the tank now/,
+      /- stop INITIALS: stop the batch here \(incomplete\): no flammable, detonable or danger state in the tank now/,
     );
     fits(read(capped, 'hello'), /^mixwright fill b1$/);
     // O2 read 15 Torr: going on from it keeps phi and the dilution, so the batch ends lower (by the re-target: the
