@@ -172,6 +172,22 @@ describe('the test itself: it finds the wording it is for', () => {
   });
 });
 
+/**
+ * the label's box read as its lines: a row of the box in hanging indent (four spaces or more, the label's
+ * wrapping at 76 columns) joined to the row before it, so a clause is judged whole, as a reader reads it
+ */
+function unwrapped(text: string): string {
+  return text
+    .split('\n')
+    .map((l) => (/^[#|] .* [#|]$/.test(l) ? l.slice(2, -2).trimEnd() : l))
+    .reduce<string[]>((out, l) => {
+      if (/^ {4}\S/.test(l) && out.length) out[out.length - 1] += ` ${l.trim()}`;
+      else out.push(l);
+      return out;
+    }, [])
+    .join('\n');
+}
+
 const RUNS = CASES.map(([outcome, args]) => ({ outcome, args: args() }));
 
 describe('no pass wording behind a non-pass outcome', () => {
@@ -186,7 +202,7 @@ describe('no pass wording behind a non-pass outcome', () => {
       if (r.args[0].endsWith('.jsonl')) {
         const label = await runCli(['label', r.args[0], ...TRIALS]);
         expect(label.stdout).toContain('BATCH CERTIFICATE');
-        expect(unqualifiedPass(label.stdout)).toEqual([]);
+        expect(unqualifiedPass(unwrapped(label.stdout))).toEqual([]);
       }
     },
   );

@@ -428,21 +428,26 @@ describe.runIf((chromium && hasPoppler) || required)(
 
 describe('label lines at 80 columns', () => {
   it('a long line wraps at words within the width, continuations indented as its text, no stranded last word', () => {
-    // 31 words of 4 letters: 15 fill a row of 76 exactly, so greedy wrapping strands the 31st alone
+    // 31 words of 4 letters: 15 fill the first row of 76 exactly, 14 the next (indented 4): greedy wrapping
+    // leaves 2 words (9 characters) on the last row
     const text = `! ${Array.from({ length: 31 }, (_, i) => `w${String(i).padStart(3, '0')}`).join(' ')}`;
     const rows = wrapLine(text, 76);
     expect(rows.length).toBeGreaterThan(1);
     for (const r of rows) expect(r.length, r).toBeLessThanOrEqual(76);
     expect(rows[0].startsWith('! w000 ')).toBe(true);
-    for (const r of rows.slice(1)) expect(r).toMatch(/^ {2}\S/);
+    // a hanging indent: two columns deeper than the text of the first row
+    for (const r of rows.slice(1)) expect(r).toMatch(/^ {4}\S/);
     // the words all kept, in order
     expect(rows.map((r) => r.trim()).join(' ')).toBe(text);
     // the last row takes words from the row before it (one word, or under 12 characters, is stranded)
     expect(rows).toHaveLength(3);
-    expect(rows[2]).toBe('  w028 w029 w030');
+    expect(rows[2]).toBe('    w028 w029 w030');
     expect(
       wrapLine('  CH4 0.31 % (relative) above design, but U 0.23 % reaches past the tolerance 0.50 %', 76),
-    ).toEqual(['  CH4 0.31 % (relative) above design, but U 0.23 % reaches past the', '  tolerance 0.50 %']);
+    ).toEqual([
+      '  CH4 0.31 % (relative) above design, but U 0.23 % reaches past the',
+      '    tolerance 0.50 %',
+    ]);
     expect(wrapLine('short', 76)).toEqual(['short']);
   });
 });
