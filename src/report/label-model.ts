@@ -226,15 +226,16 @@ export function recordsDanger(r: CheckReport): boolean {
 }
 
 /**
- * a line broken into lines of at most `width` characters at spaces, each continuation indented two columns
- * deeper than the line's own text (after its leading spaces and a "! "): no orphan, where the line before can give
+ * a line broken into lines of at most `width` characters at spaces, each continuation in a hanging indent
+ * (four columns, or two deeper than the line's own text): no orphan, where the line before can give
  * it words (a last row of one word or under 12 characters: a label reads as text, not a stranded word)
  */
 export function wrapLine(text: string, width: number): string[] {
   if (text.length <= width) return [text];
   const lead = /^\s*(?:! )?/.exec(text)![0];
-  // a hanging indent: two columns deeper than the line's text, so a continuation never reads as a line
-  const pad = ' '.repeat(lead.length + 2);
+  // a hanging indent of four columns at least (deeper than the line's text): a line of the label starts at
+  // 0 or 2 columns, so a continuation never reads as a line of its own
+  const pad = ' '.repeat(Math.max(4, lead.length + 2));
   const words = text.slice(lead.length).split(/\s+/).filter(Boolean);
   const rows: string[][] = [[]];
   const len = (r: string[]) => pad.length + r.join(' ').length;

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
-import { runCli } from '../helpers.js';
+import { labelBoxText, runCli } from '../helpers.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 const tmp = () => mkdtempSync(join(tmpdir(), 'mw-range-'));
@@ -81,7 +81,9 @@ describe('a reading past its gauge range under a composition', () => {
     );
     const label = await runCli(['label', f, '--trials', '100000']);
     expect(label.code, label.stderr).toBe(3);
-    expect(label.stdout).toContain('NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range)');
+    expect(labelBoxText(label.stdout)).toContain(
+      'NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range)',
+    );
     expect(label.stdout).not.toContain('the uncertainty reaches past it');
   });
 });
