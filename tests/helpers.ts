@@ -69,3 +69,21 @@ export function designOptions(change: DesignChange = {}): string[] {
     value === undefined ? [] : [`--${name}`, value],
   );
 }
+
+/**
+ * the text label of `label`'s output (its box, before the certificate) read as its lines: the edges taken
+ * off and each wrapped row (hanging indent, four spaces or more: the label wraps at 76 columns) joined to
+ * the row before it, so that a phrase or a clause is found whole, as a reader reads it
+ */
+export function labelBoxText(stdout: string): string {
+  return stdout
+    .slice(0, stdout.indexOf('BATCH CERTIFICATE'))
+    .split('\n')
+    .map((l) => (/^[#|] .* [#|]$/.test(l) ? l.slice(2, -2).trimEnd() : l))
+    .reduce<string[]>((out, l) => {
+      if (/^ {4}\S/.test(l) && out.length) out[out.length - 1] += ` ${l.trim()}`;
+      else out.push(l);
+      return out;
+    }, [])
+    .join('\n');
+}

@@ -237,21 +237,37 @@ interface AuditContext {
   readonly lastReadingBefore: (step: number | null, line: number) => number | undefined;
 }
 
-function contextOf(log: ParsedLog): AuditContext {
-  const h = log.header;
-  const gauges = new Map(h.gauges.map((g) => [g.id, g]));
+/**
+ * the line of the last reading of a step (null: the starting pressure) logged before a line, if any: the
+ * reading an acknowledgement written at that line accepts (never one of another line of the same step)
+ */
+export function lastReadingBefore(log: ParsedLog, step: number | null, line: number): number | undefined {
   const read: { step: number | null; line: number }[] = [
     ...(log.start ? [{ step: null, line: log.start.line }] : []),
     ...log.allReadings,
     ...log.vents.flatMap((v) => v.readings),
   ];
+  return read
+    .filter((r) => r.step === step && r.line < line)
+    .reduce<number | undefined>((last, r) => Math.max(last ?? r.line, r.line), undefined);
+}
+
+/** whether an acknowledgement accepts the reading on a line: of its step, the last one logged before it */
+export function acknowledges(
+  log: ParsedLog,
+  ack: { readonly step: number | null; readonly line: number },
+  reading: { readonly step: number | null; readonly line: number },
+): boolean {
+  return ack.step === reading.step && lastReadingBefore(log, ack.step, ack.line) === reading.line;
+}
+
+function contextOf(log: ParsedLog): AuditContext {
+  const h = log.header;
+  const gauges = new Map(h.gauges.map((g) => [g.id, g]));
   return {
     log,
     gauges,
-    lastReadingBefore: (step, line) =>
-      read
-        .filter((r) => r.step === step && r.line < line)
-        .reduce<number | undefined>((last, r) => Math.max(last ?? r.line, r.line), undefined),
+    lastReadingBefore: (step, line) => lastReadingBefore(log, step, line),
     limitPa: workingLimitOf(h),
     baroOf: (r) => r.barometer_Pa ?? log.barometer?.pressure_Pa ?? h.barometer.pressure_Pa,
     unitOf: (gaugeId) => {
@@ -428,9 +444,7 @@ function pastLimits(cx: AuditContext, r: Logged): LogFinding[] {
   // an acknowledgement accepts the reading of its step in force when it was written: the last reading
   // of that step logged before the acknowledgement's line (never a reading withdrawn before it)
   const acceptedOf = (code: string) => {
-    const a = cx.log.acknowledgements.find(
-      (x) => x.code === code && x.step === r.step && cx.lastReadingBefore(x.step, x.line) === r.line,
-    );
+    const a = cx.log.acknowledgements.find((x) => x.code === code && acknowledges(cx.log, x, r));
     return a ? { accepted: { by: a.by, time: a.time } } : {};
   };
   const { limitPa } = cx;

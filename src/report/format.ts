@@ -44,6 +44,26 @@ export function inwardBand(
   return { low: low.toFixed(decimals), high: high.toFixed(decimals) };
 }
 
+/**
+ * a band in words, as the sheet and the fill screen say it: its inward-rounded ends, or, where no two
+ * display steps fit in it, its half-width said to be finer than the display step (and the one reading
+ * inside it, where there is one: a band "42.54 - 42.54" would read as a band of zero width). `u`
+ * follows each number (the fill screen's " psi"; the sheet's columns carry the unit: none)
+ */
+export function bandWords(
+  inward: ReturnType<typeof inwardBand>,
+  bandPa: number,
+  stepPa: number,
+  unit: PressureUnit,
+  dec: number,
+  u = '',
+): string {
+  if (inward && inward.low !== inward.high) return `${inward.low} - ${inward.high}${u}`;
+  const step = fromPa(stepPa, unit).toFixed(dec);
+  const finer = `+-${fixedSig(fromPa(bandPa, unit), 2)}${u}: finer than the display step ${step}${u}`;
+  return inward ? `${finer}; only ${inward.low}${u} reads inside it` : finer;
+}
+
 export function pressure(pa: number, unit: PressureUnit, sig = 6): string {
   return `${fixedSig(fromPa(pa, unit), sig)} ${unit}`;
 }

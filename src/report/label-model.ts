@@ -225,18 +225,36 @@ export function recordsDanger(r: CheckReport): boolean {
   return r.findings.some((f) => f.severity === 'danger');
 }
 
-/** a sentence broken into lines of at most `width` characters at spaces, for the boxed text label */
-function wrap(text: string, width: number): string[] {
-  const out: string[] = [];
-  let line = '';
-  for (const word of text.split(/\s+/).filter(Boolean)) {
-    if (line && line.length + 1 + word.length > width) {
-      out.push(line);
-      line = word;
-    } else line = line ? `${line} ${word}` : word;
+/**
+ * a line broken into lines of at most `width` characters at spaces, each continuation in a hanging indent
+ * (four columns, or two deeper than the line's own text): no orphan, where the line before can give
+ * it words (a last row of one word or under 12 characters: a label reads as text, not a stranded word)
+ */
+export function wrapLine(text: string, width: number): string[] {
+  if (text.length <= width) return [text];
+  const lead = /^\s*(?:! )?/.exec(text)![0];
+  // a hanging indent of four columns at least (deeper than the line's text): a line of the label starts at
+  // 0 or 2 columns, so a continuation never reads as a line of its own
+  const pad = ' '.repeat(Math.max(4, lead.length + 2));
+  const words = text.slice(lead.length).split(/\s+/).filter(Boolean);
+  const rows: string[][] = [[]];
+  const len = (r: string[]) => pad.length + r.join(' ').length;
+  for (const w of words) {
+    const row = rows[rows.length - 1];
+    if (row.length && len([...row, w]) > width) rows.push([w]);
+    else row.push(w);
   }
-  if (line) out.push(line);
-  return out;
+  // a last row of one word or a few characters ("0.50 %") takes words from the row before it
+  const last = rows[rows.length - 1];
+  const prev = rows[rows.length - 2];
+  while (
+    prev &&
+    (last.length === 1 || last.join(' ').length < 12) &&
+    prev.length > 2 &&
+    len([prev[prev.length - 1], ...last]) <= width
+  )
+    last.unshift(prev.pop()!);
+  return rows.map((r, i) => `${i === 0 ? lead : pad}${r.join(' ')}`);
 }
 
 function offDesign(r: CheckReport): string[] {
@@ -357,14 +375,25 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
 }
 
 /** the label as lines of plain text, the verdict first; what the fill's end screen and `label` print */
-export function labelLines(m: LabelModel): string[] {
+/**
+ * the label's lines, each at most `width` characters (76: inside an 80-column box, as the `label` text
+ * and the fill's end screen draw it); a longer line wraps at words (wrapLine)
+ */
+export function labelLines(m: LabelModel, width = LABEL_WIDTH): string[] {
+  return labelRows(m).flatMap((l) => wrapLine(l, width));
+}
+
+/** the width of a label's text: an 80-column box with its edge and a space each side */
+export const LABEL_WIDTH = 76;
+
+function labelRows(m: LabelModel): string[] {
   const bad = notDesign(m.status);
   const out: string[] = [];
   // a danger in the record comes first: a composition within tolerance never reads as fit beside it
   if (m.danger) out.push(`*** ${DANGER_HEADLINE} ***`);
   out.push(bad || outcomeLeads(m) ? `*** ${m.headline} ***` : m.headline);
   for (const o of m.offDesign) out.push(`  ${o}`);
-  for (const c of m.caveats) out.push(...wrap(c, 76).map((l, i) => (i === 0 ? `! ${l}` : `  ${l}`)));
+  for (const c of m.caveats) out.push(`! ${c}`);
   out.push(`Batch ${m.batchId}   tank ${m.tank}   filled ${m.filledOn}`);
   out.push('As filled, mole fraction +- U (k = 2):');
   for (const c of m.composition) out.push(`  ${c.species.padEnd(8)} ${c.text}`);

@@ -255,6 +255,7 @@ export function certificateToMarkdown(m: CertificateModel): string {
 export function certificateToText(m: CertificateModel): string {
   const out: string[] = [];
   const rule = '='.repeat(78);
+  // the lines are wrapped to LABEL_WIDTH (labelLines): the box is at most 80 columns
   const w = Math.max(...m.labelLines.map((l) => l.length));
   const edge = bad(m) ? '#' : '-';
   out.push(

@@ -21,7 +21,7 @@ import {
 } from '../core/index.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig, inwardBand, pressure, tankName } from './format.js';
+import { bandWords, decimalsFor, fixedSig, inwardBand, pressure, tankName } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
@@ -410,24 +410,6 @@ function chargeNoteOf(plan: Plan, k: number, stopText: string): string {
   );
 }
 
-/**
- * the band as printed: its inward-rounded ends, or, where no two display steps fit in it, its
- * half-width said to be finer than the display step (and the one reading inside it, where there is
- * one: a band "42.54 - 42.54" would read as a band of zero width)
- */
-function bandText(
-  inward: ReturnType<typeof inwardBand>,
-  bandPa: number,
-  stepPa: number,
-  unit: PressureUnit,
-  dec: number,
-): string {
-  if (inward && inward.low !== inward.high) return `${inward.low} - ${inward.high}`;
-  const step = fromPa(stepPa, unit).toFixed(dec);
-  const finer = `+-${fixedSig(fromPa(bandPa, unit), 2)}: finer than the display step ${step}`;
-  return inward ? `${finer}; only ${inward.low} reads inside it` : finer;
-}
-
 /** one fill: the target and its band in the gauge's own unit */
 function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
@@ -448,7 +430,7 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
     target: fromPa(reading, gu).toFixed(dec),
     low,
     high,
-    band: bandText(inward, band, s.gauge?.resolutionPa ?? 0, gu, dec),
+    band: bandWords(inward, band, s.gauge?.resolutionPa ?? 0, gu, dec),
     unit: gu,
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),

@@ -2,11 +2,12 @@
  * The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here,
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
-import { useEffect, useState } from 'react';
+import { useEffect, useState, type ReactNode } from 'react';
 import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
+  fillEnding,
   fillReducer,
   premixMixingWords,
   shownPa,
@@ -20,7 +21,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
+import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
@@ -30,6 +31,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
+import type { BelowWays } from './fill-review.js';
 import { Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
@@ -127,23 +129,29 @@ function JudgementView({ j, compact }: { j: CompositionJudgement; compact?: bool
     `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %` +
     (tol.length > 1 ? ` (tol ${tolOf(d)} %)` : '');
   if (compact) {
-    // one wrapped row of the species outside (a screen that has the ways on to show as well)
+    // the species outside on one wrapped row (a screen that has the ways on, or a crowded fill screen)
     const out = j.deviations.filter((d) => !d.within);
+    const outText =
+      `${out.map((d) => `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %`).join(', ')}` +
+      ` rel: OUT (tol ${[...new Set(out.map(tolOf))].join(' / ')} %)`;
+    if (j.kind !== 'final')
+      return (
+        <Para bold={j.verdict === 'off-course'}>
+          {j.verdict === 'on-course'
+            ? 'Composition (values, not U): the remaining fills bring each within tolerance'
+            : `Values (not U): OFF COURSE - ${outText}`}
+        </Para>
+      );
     return (
       <Box flexDirection="column">
         <Text bold={j.verdict === 'fail'}>{head}</Text>
-        {out.length ? (
-          <Para>
-            {`  ${out.map((d) => `${d.species} ${relText((d.deviation / d.design) * 100).trim()} %`).join(', ')}` +
-              ` rel: OUT (tol ${[...new Set(out.map(tolOf))].join(' / ')} %)`}
-          </Para>
-        ) : null}
+        {out.length ? <Para>{`  ${outText}`}</Para> : null}
       </Box>
     );
   }
   return (
     <Box flexDirection="column">
-      <Text bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Text>
+      <Para bold={j.verdict === 'fail' || j.verdict === 'off-course'}>{head}</Para>
       {ok.length ? (
         <Para>
           {`  ${ok.map(row).join(', ')} rel: ${ok.length > 1 ? 'each ' : ''}within ` +
@@ -337,10 +345,13 @@ function Prompt({ state }: ScreenProps) {
   );
 }
 
-/** a fill's band as shown on its gauge, rounded inward; its half-width where the display cannot show it */
-function bandText(centerPa: number, bandPa: number, unit: PressureUnit, dec: number): string {
-  const b = inwardBand(centerPa, bandPa, unit, dec);
-  return b ? `${b.low} - ${b.high}` : `+-${fixedSig(fromPa(bandPa, unit), 2)} (finer than the display step)`;
+/**
+ * a fill's band as shown on its gauge, rounded inward, with the unit; where no two display steps fit in
+ * it, its half-width finer than the display step and the one reading inside it, as the sheet says it
+ */
+function bandText(step: FillStep, centerPa: number, unit: PressureUnit, dec: number): string {
+  const inward = inwardBand(centerPa, step.bandPa, unit, dec);
+  return bandWords(inward, step.bandPa, step.gauge?.resolutionPa ?? 0, unit, dec, ` ${unit}`);
 }
 
 function ErrorLine({ state }: ScreenProps) {
@@ -357,14 +368,32 @@ function stepView(state: FillState) {
   return { step, unit, dec, onGauge, absText };
 }
 
+/**
+ * a screen that asks for a typed entry: its title (the batch, then what the screen is), its body, then the
+ * prompt and the refusal of the last entry, if any (the frame of every such screen)
+ */
+function AskScreen({
+  state,
+  what,
+  children,
+}: ScreenProps & { readonly what: string; readonly children: ReactNode }) {
+  return (
+    <Box flexDirection="column">
+      <ScreenTitle base={fillTitle(state.setup.header)} what={what} />
+      {children}
+      <Prompt state={state} />
+      <ErrorLine state={state} />
+    </Box>
+  );
+}
+
 function BarometerScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const gauges = [
     ...new Set(state.setup.steps.filter((s) => s.gauge?.reference === 'gauge').map((s) => s.gauge!.id)),
   ];
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(h)} what="barometric pressure today" />
+    <AskScreen state={state} what="barometric pressure today">
       <Para>
         {gauges.join(', ')} read{gauges.length === 1 ? 's' : ''} above ambient (gauge-referenced): the tank
         pressure is that reading plus today&apos;s barometric pressure. The plan assumed{' '}
@@ -374,16 +403,13 @@ function BarometerScreen({ state }: ScreenProps) {
         Type today&apos;s barometric pressure with its unit, then your initials (e.g. 752.3 Torr AB or 1003.1
         hPa AB), then Enter. It is logged.
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
 function AcknowledgeScreen({ state }: ScreenProps) {
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(state.setup.header)} what="DANGER findings stand" />
+    <AskScreen state={state} what="DANGER findings stand">
       {state.setup.dangers.map((d, i) => (
         <Para key={i}>
           - {d.code}
@@ -395,9 +421,7 @@ function AcknowledgeScreen({ state }: ScreenProps) {
         The fill goes on only after you acknowledge these in words; the acknowledgement is logged. Type:
         accept INITIALS, then Enter. Ctrl-C stops.
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -407,12 +431,59 @@ export function rowsOf(text: string, columns: number): number {
   return text.split('\n').reduce((n, l) => n + Math.max(1, Math.ceil(l.length / w)), 0);
 }
 
-/** the first rows of a long message, cut at a word, for the end screen's first page */
-function cut(text: string, rows: number, columns: number): string {
+/** the first rows of a long text, cut at a word, for the end screen's first page; `more` says where the rest is */
+function cut(text: string, rows: number, columns: number, more = '(m: the whole message)'): string {
   const room = rows * Math.max(20, columns - 8);
   if (text.length <= room) return text;
-  const at = text.lastIndexOf(' ', room - 30);
-  return `${text.slice(0, at > 0 ? at : room - 30)} ... (m: the whole message)`;
+  const keep = Math.max(10, room - more.length - 6);
+  const at = text.lastIndexOf(' ', keep);
+  return `${text.slice(0, at > 0 ? at : keep)} ... ${more}`;
+}
+
+/**
+ * a caution said shorter: its long asides in parentheses (more than 24 characters: an explanation, never
+ * the hazard's name or its fill) left out; the whole is on the end screen's cautions page (c)
+ */
+export function withoutAsides(text: string): string {
+  let out = text;
+  for (let prev = ''; prev !== out;) {
+    prev = out;
+    out = out.replace(/ \(([^()]*)\)/g, (whole, inner: string) => (inner.length > 24 ? '' : whole));
+  }
+  return out;
+}
+
+/**
+ * the cautions beside the verdict (check's caveats) in the rows the first page has for them: whole where
+ * they fit; else each without its long asides; else each cut to an equal share of the rows. Every
+ * caution keeps its first words (what it is: DANGER, ACCEPTED HAZARD...); `cut` says c shows them whole.
+ */
+export function cautionRows(caveats: readonly string[], room: number, columns: number) {
+  const rowsAll = (xs: readonly string[]) => xs.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0);
+  if (rowsAll(caveats) <= room) return { lines: [...caveats], cut: false };
+  const short = caveats.map(withoutAsides);
+  if (rowsAll(short) <= room) return { lines: short, cut: true };
+  // the rows shared out, the shorter cautions taking any rows left over (nearer whole)
+  const n = Math.max(1, caveats.length);
+  const byLength = short.map((c, i) => [c.length, i]).sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  const extra = new Set(byLength.slice(0, Math.max(0, room) % n).map(([, i]) => i));
+  const each = (i: number) => Math.max(1, Math.floor(room / n) + (extra.has(i) ? 1 : 0));
+  return { lines: short.map((c, i) => elide(c, each(i), columns - 2)), cut: true };
+}
+
+/**
+ * a caution in `rows` rows: its first words (what it is, what was found) and its last (what to do),
+ * joined by "...", cut at words; c shows it whole
+ */
+function elide(text: string, rows: number, columns: number): string {
+  const more = ' (c: in full)';
+  const room = rows * Math.max(20, columns - 8) - more.length - 5;
+  if (text.length + more.length <= rows * Math.max(20, columns - 8)) return text;
+  const headAt = text.lastIndexOf(' ', Math.ceil(room * 0.45));
+  const head = text.slice(0, headAt > 0 ? headAt : Math.ceil(room * 0.45));
+  const tailAt = text.indexOf(' ', text.length - (room - head.length));
+  const tail = tailAt > head.length ? text.slice(tailAt + 1) : '';
+  return `${head} ...${tail ? ` ${tail}` : ''}${more}`;
 }
 
 /**
@@ -430,6 +501,78 @@ function verdictLine(report: CheckReport | undefined): string | undefined {
   );
 }
 
+/**
+ * what the end screen's title says of a finished batch: how the last fill ended against its target (as
+ * computed from the readings, fillEnding); "all fills logged" only where every fill reached its band
+ */
+export function endWords(s: FillState): string {
+  const K = s.setup.steps.length;
+  const e = fillEnding(s);
+  if (!e) return `STOPPED after fill ${s.done.length} of ${K}`;
+  const vs = `${e.reached} (target ${e.target})`;
+  const head = {
+    within: `all ${K} fills logged`,
+    above: `fill ${e.step} of ${K} ABOVE ITS BAND: ${vs}`,
+    'over-limit': `fill ${e.step} of ${K} KEPT ABOVE THE WORKING LIMIT: ${vs}`,
+    below: `CLOSED BELOW THE LAST TARGET: fill ${e.step} of ${K} at ${vs}`,
+    vented: `CLOSED AFTER VENTING: fill ${e.step} of ${K} read ${vs}`,
+  }[e.kind];
+  const many = e.short.length > 1;
+  const short = e.short.length
+    ? `; fill${many ? 's' : ''} ${e.short.join(', ')} left BELOW ${many ? 'their' : 'its'} band`
+    : '';
+  if (e.kind !== 'within') return head + short;
+  if (short) return `${K} fills logged, the last within its band${short}`;
+  return e.over.length ? `all ${K} fills logged, the last within its band` : `${head}, each within its band`;
+}
+
+/** what the end screen's first page shows (endLayout) */
+interface EndParts {
+  readonly title: string;
+  readonly above?: string;
+  readonly verdict?: string;
+  readonly caveats: readonly string[];
+  readonly stage: readonly string[];
+  readonly logLine: string;
+  readonly message?: string;
+  readonly label?: readonly string[];
+}
+
+/**
+ * the end screen's first page in `rows` x `columns`: the title, the tank above its limit, the verdict, the
+ * stage lines, the log line and the keys are whole; every caution is there (cautionRows: shortened or cut
+ * where they do not fit whole, c shows them whole); the message takes 2 to 4 rows (m: whole); the label
+ * only where all of it fits (l: its own page)
+ */
+export function endLayout(p: EndParts, rows: number, columns: number) {
+  const keyRow = 1;
+  const others =
+    rowsOf(p.title, columns) +
+    (p.above ? rowsOf(p.above, columns) : 0) +
+    1 +
+    (p.verdict ? rowsOf(p.verdict, columns) : 1) +
+    (p.stage.length ? 1 + p.stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
+    rowsOf(p.logLine, columns) +
+    keyRow;
+  const messageMin = p.message ? Math.min(2, rowsOf(p.message, columns)) : 0;
+  const cautions = cautionRows(p.caveats, rows - 1 - others - messageMin, columns);
+  const cautionsRows = cautions.lines.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0);
+  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
+  const message = p.message
+    ? cut(p.message, Math.max(2, Math.min(4, rows - 1 - others - cautionsRows)), columns)
+    : undefined;
+  const fixed = others + cautionsRows + (message ? rowsOf(message, columns) : 0);
+  const labelRows = p.label ? 3 + p.label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
+  const labelHere = Boolean(p.label) && fixed + labelRows <= rows - 1;
+  const keys = [
+    ...(p.label && !labelHere ? ['l: the tank label'] : []),
+    ...(cautions.cut ? ['c: cautions in full'] : []),
+    ...(p.message && message !== p.message ? ['m: the whole message'] : []),
+    'q or Enter: quit',
+  ].join('  ');
+  return { message, cautions, labelHere, keys };
+}
+
 function EndScreen({
   state,
   check,
@@ -438,11 +581,13 @@ function EndScreen({
 }: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
   const h = state.setup.header;
   const K = state.setup.steps.length;
-  const [page, setPage] = useState<'main' | 'label' | 'message'>('main');
+  const [page, setPage] = useState<'main' | 'label' | 'message' | 'cautions'>('main');
   const { stdout } = useStdout();
   const rows = stdout?.rows || 24;
   const columns = stdout?.columns || 80;
-  const label = check && 'report' in check ? labelLines(labelModel(check.report, check.log)) : undefined;
+  // the label's lines wrapped to the box's inside (its edges and padding: 4 columns), so ink never re-wraps them
+  const model = check && 'report' in check ? labelModel(check.report, check.log) : undefined;
+  const label = model ? labelLines(model, Math.max(20, columns - 4)) : undefined;
   // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
   const caveats = check && 'report' in check ? check.report.caveats : [];
   const report = check && 'report' in check ? check.report : undefined;
@@ -454,53 +599,42 @@ function EndScreen({
     if (input === 'l') {
       setPage('label');
       setLabelPart(0);
+    } else if (input === 'c') {
+      setPage('cautions');
+      setLabelPart(0);
     } else if (input === 'm') setPage('message');
     else if (input === 'b') setPage('main');
     else if (input === 'n') setLabelPart((k) => k + 1);
     else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
   });
   const title = `${fillTitle(h)} - ${
-    state.phase === 'done' ? `all ${K} fills logged` : `STOPPED after fill ${state.current} of ${K}`
+    state.phase === 'done' ? endWords(state) : `STOPPED after fill ${state.current} of ${K}`
   }`;
   const verdict = verdictLine(report);
-  const logLine = `Log: ${logFile} - \`mixwright check ${logFile}\` gives the full budget.`;
+  const logLine = `The log's full budget: \`mixwright check ${logFile}\``;
   // the tank above its working limit (a reading there accepted): said whole, whatever the message
   const above = state.aboveLimitText ? `! ${state.aboveLimitText}` : undefined;
-  const others =
-    rowsOf(title, columns) +
-    (above ? rowsOf(above, columns) : 0) +
-    1 +
-    (verdict ? rowsOf(verdict, columns) : 1) +
-    caveats.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0) +
-    (stage.length ? 1 + stage.reduce((n, l) => n + rowsOf(l, columns), 0) : 0) +
-    rowsOf(logLine, columns) +
-    1;
-  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
-  const message = state.message
-    ? cut(state.message, Math.max(2, Math.min(4, rows - 1 - others)), columns)
-    : undefined;
-  const fixed = others + (message ? rowsOf(message, columns) : 0);
-  const labelRows = label ? 3 + label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
-  const labelHere = Boolean(label) && fixed + labelRows <= rows - 1;
-  const keys = [
-    ...(label && !labelHere ? ['l: the tank label'] : []),
-    ...(state.message && message !== state.message ? ['m: the whole message'] : []),
-    'q or Enter: quit',
-  ].join('   ');
-  if (page === 'label' && label) {
-    // a label taller than the terminal is shown in parts (n, p), each within its rows
+  const lay = endLayout(
+    { title, above, verdict, caveats, stage, logLine, message: state.message, label },
+    rows,
+    columns,
+  );
+  const { message, cautions, labelHere, keys } = lay;
+  if (page === 'label' && label)
     // the label's own lines carry check's caveats already (once): none is added to the box
-    const parts = labelParts([], label, rows - 5 - rowsOf(title, columns), columns - 4);
-    const k = Math.min(labelPart, parts.length - 1);
-    const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
     return (
-      <Box flexDirection="column">
-        <Para bold>{title}</Para>
-        <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={caveats.length > 0} />
-        <Text>{`${more}b: back   q or Enter: quit`}</Text>
-      </Box>
+      <PartsPage title={title} lines={label} part={labelPart} rows={rows} columns={columns} box={caveats} />
     );
-  }
+  if (page === 'cautions' && cautions.cut)
+    return (
+      <PartsPage
+        title={title}
+        lines={caveats.map((c) => `! ${c}`)}
+        part={labelPart}
+        rows={rows}
+        columns={columns}
+      />
+    );
   if (page === 'message' && state.message)
     return (
       <Box flexDirection="column">
@@ -523,7 +657,7 @@ function EndScreen({
         </Para>
       ) : null}
       {verdict ? <Para bold>{verdict}</Para> : null}
-      {caveats.map((c, i) => (
+      {cautions.lines.map((c, i) => (
         <Para key={i} bold>
           ! {c}
         </Para>
@@ -533,6 +667,45 @@ function EndScreen({
       {h.stage ? <StageEnd header={h} report={report} closed={state.phase === 'done'} /> : null}
       <Para>{logLine}</Para>
       <Text>{keys}</Text>
+    </Box>
+  );
+}
+
+/**
+ * a page of the end screen taller than the terminal, shown in parts (n, p), each within its rows: the
+ * tank label (in its box, double-edged where check's caveats stand beside the verdict) or the cautions
+ */
+function PartsPage({
+  title,
+  lines,
+  part,
+  rows,
+  columns,
+  box,
+}: {
+  readonly title: string;
+  readonly lines: readonly string[];
+  readonly part: number;
+  readonly rows: number;
+  readonly columns: number;
+  readonly box?: readonly string[];
+}) {
+  const parts = labelParts([], lines, rows - (box ? 5 : 2) - rowsOf(title, columns), columns - (box ? 4 : 0));
+  const k = Math.min(part, parts.length - 1);
+  const more = parts.length > 1 ? `part ${k + 1} of ${parts.length}   n: next part   p: previous   ` : '';
+  return (
+    <Box flexDirection="column">
+      <Para bold>{title}</Para>
+      {box ? (
+        <LabelBox caveats={parts[k].caveats} label={parts[k].label} double={box.length > 0} />
+      ) : (
+        parts[k].label.map((c, i) => (
+          <Para key={i} bold>
+            {c}
+          </Para>
+        ))
+      )}
+      <Text>{`${more}b: back   q or Enter: quit`}</Text>
     </Box>
   );
 }
@@ -612,7 +785,7 @@ function BelowScreen({ state }: ScreenProps) {
           STOP AT {stop} {lu}
         </Text>
         <Text>
-          band {bandText(st, ls.bandPa, lu, ld)} {lu} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
+          band {bandText(ls, st, lu, ld)} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
           {state.done[m - 1]?.text}
         </Text>
       </Box>
@@ -658,6 +831,26 @@ function OperatorScreen({ state }: ScreenProps) {
   );
 }
 
+/** a review's hazards on a way on, in words: never "safe", only what it found or that it found nothing new */
+const passes = (xs: readonly string[]) =>
+  xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
+
+/**
+ * what the reviews of the ways on found (belowBandWays), as the below screens and the capped screen say
+ * it: continuing the fill (still passes...), and the tank as it stands now (for a stop or a close)
+ */
+function waysFound(w: BelowWays | undefined): { readonly still: string; readonly tank: string } {
+  const cont = w?.continuing;
+  return {
+    still: cont ? (cont.still.length ? `still ${passes(cont.still)}` : passes([])) : 'not reviewed',
+    tank: w
+      ? w.tankNow.length
+        ? `the tank NOW holds ${w.tankNow.join(', ')}`
+        : 'no flammable, detonable or danger state in the tank now'
+      : 'not reviewed',
+  };
+}
+
 /**
  * the ways on from an incomplete fill before the last, each with what its review found (belowWays): a way
  * is never called safe here unless its review found nothing the plan did not have
@@ -666,16 +859,11 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
   const w = state.belowWays;
   const m = state.done.length;
   const ls = state.setup.steps[m - 1];
-  const found = (xs: readonly string[]) =>
-    xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
-  const cont = w?.continuing;
+  const { still, tank } = waysFound(w);
   const next = w
-    ? found(w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`))
-    : 'not reviewed';
-  const tank = w
-    ? w.tankNow.length
-      ? `the tank NOW holds ${w.tankNow.join(', ')}`
-      : 'no flammable or danger state in the tank now'
+    ? passes(
+        w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`),
+      )
     : 'not reviewed';
   // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
   const K = state.setup.steps.length;
@@ -693,8 +881,7 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
       <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
       <Para>
         - continue: fill on from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
-        {stop.split(' ')[0]} AB):{' '}
-        {cont ? (cont.still.length ? `still ${found(cont.still)}` : found([])) : 'not reviewed'}
+        {stop.split(' ')[0]} AB): {still}
       </Para>
       <Para>
         - next AB (go on from {state.done[m - 1]?.text}
@@ -716,17 +903,7 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
 function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
   const w = state.belowWays;
   const ls = state.setup.steps[state.done.length - 1];
-  const cont = w?.continuing;
-  const still = cont
-    ? cont.still.length
-      ? `still passes ${cont.still.join(', ')}`
-      : 'passes no hazard the plan did not have'
-    : 'not reviewed';
-  const tank = w
-    ? w.tankNow.length
-      ? `the tank NOW holds ${w.tankNow.join(', ')}`
-      : 'no flammable, detonable or danger state in the tank now'
-    : 'not reviewed';
+  const { still, tank } = waysFound(w);
   return (
     <Box flexDirection="column">
       <Text>The ways on, each reviewed (the tank as it stands, and the rest of the fill):</Text>
@@ -931,8 +1108,7 @@ function ConfirmScreen({ state }: ScreenProps) {
 function UnitCheckScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(state.setup.header)} what={stepWhat(state, 'CHECK THE UNIT')} />
+    <AskScreen state={state} what={stepWhat(state, 'CHECK THE UNIT')}>
       <Para>{pending.reason}</Para>
       <Para>
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
@@ -942,9 +1118,7 @@ function UnitCheckScreen({ state }: ScreenProps) {
         log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
         (not logged)
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -956,11 +1130,7 @@ function OverLimitScreen({ state }: ScreenProps) {
   const pending = state.pending!;
   const p = pending.done.pressurePa;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle
-        base={fillTitle(h)}
-        what={`fill ${state.current + 1} of ${K}: DANGER - ABOVE THE WORKING LIMIT`}
-      />
+    <AskScreen state={state} what={`fill ${state.current + 1} of ${K}: DANGER - ABOVE THE WORKING LIMIT`}>
       <Para>
         The tank reads {absText(p)}, {fromPa(p - o.limitPa, unit).toFixed(dec)} {unit} above the working limit
         of {h.tank.id} ({absText(o.limitPa)}).
@@ -991,9 +1161,7 @@ function OverLimitScreen({ state }: ScreenProps) {
         accept INITIALS: keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)
         edit INITIALS: it was mistyped (withdrawn, with a trace)
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -1029,7 +1197,6 @@ function UndoReasonScreen({ state }: ScreenProps) {
  * targets it gives, and an explicit choice (go, undo, stop), logged with initials
  */
 function CappedScreen({ state }: ScreenProps) {
-  const h = state.setup.header;
   const c = state.capped!;
   const K = state.setup.steps.length;
   const ahead = state.setup.steps.slice(state.current).map((st, i) => {
@@ -1055,20 +1222,15 @@ function CappedScreen({ state }: ScreenProps) {
       ? `the review finds ${w.goingOn.map(hazardShort).join(', ')}, which the plan did not have`
       : 'the review finds no hazard the plan did not have'
     : 'not reviewed';
-  const stopFound = w
-    ? w.tankNow.length
-      ? `the tank NOW holds ${w.tankNow.join(', ')}`
-      : 'the review finds no flammable, detonable or danger state in the tank now'
-    : 'not reviewed';
+  const stopFound = waysFound(w).tank;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle
-        base={fillTitle(h)}
-        what={
-          `before fill ${c.step} of ${K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE` +
-          (c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : '')
-        }
-      />
+    <AskScreen
+      state={state}
+      what={
+        `before fill ${c.step} of ${K}: THE WORKING LIMIT HOLDS THE FINAL PRESSURE` +
+        (c.outside.length ? ` - ${c.outside.join(', ')} OUTSIDE THE TOLERANCE` : '')
+      }
+    >
       {state.message ? <Para>{state.message}</Para> : null}
       <Para bold>{c.cost}.</Para>
       <Para>Capped targets: {ahead.join('; ')}.</Para>
@@ -1082,9 +1244,7 @@ function CappedScreen({ state }: ScreenProps) {
         undo INITIALS: the last reading was mistyped. Each choice is logged; Ctrl-C stops without one
         (resuming asks again).
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -1101,8 +1261,7 @@ function PremixScreen({ state }: ScreenProps) {
   const last = state.premix?.reading;
   const planned = `${fromPa(pc.plannedPa, 'Torr').toFixed(1)} Torr`;
   return (
-    <Box flexDirection="column">
-      <ScreenTitle base={fillTitle(h)} what={`before fill ${first} of ${K}: THE PREMIX TANK ${pc.tank}`} />
+    <AskScreen state={state} what={`before fill ${first} of ${K}: THE PREMIX TANK ${pc.tank}`}>
       <Para>
         Fill {first} draws the premix from {pc.tank}
         {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
@@ -1125,9 +1284,7 @@ function PremixScreen({ state }: ScreenProps) {
           : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
         stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
       </Para>
-      <Prompt state={state} />
-      <ErrorLine state={state} />
-    </Box>
+    </AskScreen>
   );
 }
 
@@ -1242,7 +1399,37 @@ export function gasCaution(composition: Readonly<Record<string, number>>): strin
   return undefined;
 }
 
+/**
+ * the rows a fill screen takes with the composition in full (an estimate, rowsOf): more than the
+ * terminal has, the composition is shown compact (the species outside on one row)
+ */
+function readingRows(state: FillState, band: string, columns: number): number {
+  const index = state.setup.steps[state.current].index;
+  const dangers =
+    state.setup.dangers.filter((d) => d.step === index).length +
+    (state.acceptedHazards ?? []).filter((h) => h.step === index).length;
+  const warnings = (state.setup.header.findings ?? []).filter(
+    (f) => f.severity === 'warning' && f.step === index,
+  );
+  const j = state.judgement;
+  const judgement = j && !state.error ? 2 + j.deviations.filter((d) => !d.within).length + 1 : 0;
+  // title, rule, the gas, the gauge (2), isolate or caution (2), the box's edges and target (3), the fields
+  // (2), the error row and the keys (2): 14; then what varies
+  return (
+    14 +
+    rowsOf(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
+    dangers * 3 +
+    (dangers ? 1 : 0) +
+    warnings.length * 2 +
+    rowsOf(state.message ?? ' ', columns) +
+    judgement
+  );
+}
+
 function ReadingScreen({ state }: ScreenProps) {
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
   const h = state.setup.header;
   const K = state.setup.steps.length;
   const { step, unit, dec } = stepView(state);
@@ -1257,6 +1444,8 @@ function ReadingScreen({ state }: ScreenProps) {
   const caution = gasCaution(step.source.composition);
   // the hints name this session's operator (after a resume by another, theirs), else an example
   const who = state.operator ?? 'AB';
+  const band = bandText(step, shown, unit, dec);
+  const crowded = readingRows(state, band, columns) > rows - 1;
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1289,8 +1478,7 @@ function ReadingScreen({ state }: ScreenProps) {
           STOP AT {fromPa(shown, unit).toFixed(dec)} {unit}
         </Text>
         <Text>
-          band {bandText(shown, step.bandPa, unit, dec)} {unit} at{' '}
-          {(state.targetTemperatureK - 273.15).toFixed(1)} degC
+          band {band} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
       </Box>
@@ -1299,7 +1487,7 @@ function ReadingScreen({ state }: ScreenProps) {
       <Para>{state.error ? '' : (state.message ?? ' ')}</Para>
       {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
           screen keeps 24 rows */}
-      {state.judgement && !state.error ? <JudgementView j={state.judgement} /> : null}
+      {state.judgement && !state.error ? <JudgementView j={state.judgement} compact={crowded} /> : null}
       <Para>{state.error ? `! ${state.error}` : ' '}</Para>
       <Text>
         Enter: log Tab: temp undo {who}: undo last fix N {who}: correct Ctrl-C: stop

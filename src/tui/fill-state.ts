@@ -42,6 +42,7 @@ import {
   type PressureUnit,
 } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
+import { acknowledges } from '../io/log-audit.js';
 import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
 import {
   chargesOfHeader,
@@ -355,6 +356,8 @@ export interface FillState {
   readonly tankNowText?: string;
   /** a reading above the working limit accepted (not vented since): the tank is above it, and what to do */
   readonly aboveLimitText?: string;
+  /** the last fill vented back (a reading past the working limit): the reading after venting, which closed the batch */
+  readonly ventedRead?: { readonly text: string; readonly pressurePa: number };
   /** stage 2: the premix check so far (from the log on resume) */
   readonly premix?: PremixDone;
   /** who fills in this session (initials): logged on every reading it takes */
@@ -520,8 +523,22 @@ function openedState(setup: FillSetup, log: ParsedLog | undefined, now: string):
   if (stopped) return stopped;
   const capped = resumedCapped(state, log, r?.result, needsAck);
   if (capped) return capped;
-  if (done.length >= setup.steps.length)
-    return finish({ ...state, effects: [] }, log?.closed || !now ? undefined : now);
+  if (done.length >= setup.steps.length) {
+    // the last fill vented back and read after venting: that reading closed the batch
+    const vent = log?.vents.at(-1);
+    const after =
+      vent && vent.step === setup.steps[setup.steps.length - 1].index ? vent.readings.at(-1) : undefined;
+    const ventedRead = after ? { text: after.reading, pressurePa: after.pressure_Pa } : undefined;
+    // the last reading above the working limit, not vented: the tank is still above it (said on the end screen)
+    const lastPa = done[done.length - 1].pressurePa;
+    const limit = setup.workingLimitPa;
+    if (!ventedRead && limit !== undefined && lastPa > limit)
+      state = { ...state, aboveLimitText: aboveLimitWords(state, lastPa, limit) };
+    return finish(
+      { ...state, effects: [], ...(ventedRead ? { ventedRead } : {}) },
+      log?.closed || !now ? undefined : now,
+    );
+  }
   const entered = enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
   return done.length || start?.read ? reviewed(entered, 'resume') : entered;
 }
@@ -551,7 +568,10 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
     !log?.closed &&
     limit !== undefined &&
     lastRead.pressure_Pa > limit &&
-    !(log?.acknowledgements ?? []).some((a) => a.code === 'above-working-limit' && a.step === lastRead.step)
+    // a choice logged for this very reading (its log line, as check matches it), not for an earlier one of the fill
+    !(log?.acknowledgements ?? []).some(
+      (a) => a.code === 'above-working-limit' && acknowledges(log!, a, lastRead),
+    )
   ) {
     // stopped on the danger screen: the reading is in the log, the operator's choice is not; ask again
     const before: FillState = { ...state, done: done.slice(0, -1), current: done.length - 1 };
@@ -581,11 +601,10 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
     // incomplete, and continuing it is offered again, unless the log says the operator went on from that
     // very reading (`next`, logged): then the fill goes on to the fill after it
     const m = done.length;
+    // the choice of this very reading: by its log line, as check matches it
+    const read = { step: setup.steps[m - 1].index, line: done[m - 1].line ?? -1 };
     const wentOn = log?.acknowledgements.some(
-      (a) =>
-        a.code === WENT_ON_BELOW_BAND &&
-        a.step === setup.steps[m - 1].index &&
-        a.below?.pressure_Pa === done[m - 1].pressurePa,
+      (a) => a.code === WENT_ON_BELOW_BAND && acknowledges(log, a, read),
     );
     if (wentOn && m < setup.steps.length) return undefined;
     const before: FillState = { ...state, done: done.slice(0, -1), current: m - 1 };
@@ -868,6 +887,71 @@ function finalJudgement(s: FillState): { judgement: CompositionJudgement; summar
       deviations,
     },
   };
+}
+
+/**
+ * How a finished batch (phase 'done') ended, for the end screen's title: the last fill's reading (or the
+ * reading after venting) against that fill's target and band, and the fills before it read below their
+ * band. Computed from the readings, never assumed: "all fills logged" is said only of kind 'within' with
+ * no fill before the last left short.
+ */
+export interface FillEnding {
+  /**
+   * within: inside its band; above: above its band (below the working limit); over-limit: above the
+   * tank's working limit (kept); below: closed below its target; vented: read after venting
+   */
+  readonly kind: 'within' | 'above' | 'over-limit' | 'below' | 'vented';
+  readonly step: number;
+  /** the reading in force (after venting: the reading after venting), as typed */
+  readonly reached: string;
+  /** the last fill's target as shown on its gauge, with the unit */
+  readonly target: string;
+  /** the fills before the last whose reading in force is below their band (gone on from) */
+  readonly short: readonly number[];
+  /** the fills before the last whose reading in force is above their band (the fills after re-targeted) */
+  readonly over: readonly number[];
+}
+
+/** the target of each fill as it stood when the fill was read: re-targeted from the readings before it */
+function targetsAtReadings(s: FillState): number[] {
+  return s.done.map((_, i) => {
+    if (i === 0 && !s.start?.read) return s.setup.header.steps[0].target_Pa;
+    const prior = s.done.slice(0, i);
+    try {
+      const T = i ? prior[i - 1].temperatureK : (s.start?.temperatureK ?? s.targetTemperatureK);
+      return retargetRun(s, prior, T).targets[i];
+    } catch (e) {
+      if (!(e instanceof ProblemError)) throw e;
+      return s.targetsPa[i];
+    }
+  });
+}
+
+/** how the batch ended (phase 'done'); undefined before every fill is read */
+export function fillEnding(s: FillState): FillEnding | undefined {
+  const K = s.setup.steps.length;
+  if (s.done.length < K) return undefined;
+  const targets = targetsAtReadings(s);
+  const off = (i: number) => s.done[i].pressurePa - targets[i];
+  const before = s.setup.steps.slice(0, K - 1);
+  const short = before.filter((st, i) => off(i) < -st.bandPa).map((st) => st.index);
+  const over = before.filter((st, i) => off(i) > st.bandPa).map((st) => st.index);
+  const step = s.setup.steps[K - 1];
+  const unit = gaugeUnit(step);
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 3;
+  const target = `${fromPa(shownPa(s, step, targets[K - 1]), unit).toFixed(dec)} ${unit}`;
+  const last = s.done[K - 1];
+  const kind: FillEnding['kind'] = s.ventedRead
+    ? 'vented'
+    : last.pressurePa > (s.setup.workingLimitPa ?? Infinity)
+      ? 'over-limit'
+      : off(K - 1) < -step.bandPa
+        ? 'below'
+        : off(K - 1) > step.bandPa
+          ? 'above'
+          : 'within';
+  const reached = s.ventedRead?.text ?? last.text;
+  return { kind, step: step.index, reached, target, short, over };
 }
 
 function finish(s: FillState, now?: string, note?: string): FillState {
@@ -1848,7 +1932,11 @@ function onVentedEnter(s: FillState, now: string): FillState {
     (off < -step.bandPa ? ' (vented below it: the tank holds less gas than that target)' : '');
   if (v.last)
     return {
-      ...finish(base, now, `closed after venting: ${read}`),
+      ...finish(
+        { ...base, ventedRead: { text, pressurePa: absolute } },
+        now,
+        `closed after venting: ${read}`,
+      ),
       message:
         `${read}. Venting keeps the composition: the re-check and the label below are of the readings, ` +
         `with the final pressure and amount read after venting`,

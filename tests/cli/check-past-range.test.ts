@@ -8,7 +8,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../helpers.js';
+import { labelBoxText, runCli } from '../helpers.js';
 import { logLines, rechain } from '../relog.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
@@ -76,7 +76,9 @@ describe('a reading past its gauge range under a composition', () => {
     );
     const label = await runCli(['label', f, '--trials', '100000']);
     expect(label.code, label.stderr).toBe(3);
-    expect(label.stdout).toContain('NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range)');
+    expect(labelBoxText(label.stdout)).toContain(
+      'NOT SHOWN WITHIN TOLERANCE (a reading past its gauge range)',
+    );
     expect(label.stdout).not.toContain('the uncertainty reaches past it');
   });
 });

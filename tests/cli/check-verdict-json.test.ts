@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { runCli } from '../helpers.js';
+import { labelBoxText, runCli } from '../helpers.js';
 import { logAtTargets } from '../log-at-targets.js';
 
 const TRIALS = ['--trials', '100000'];
@@ -171,7 +171,7 @@ describe("a plan's danger that the log records no acknowledgement of: never weak
   it('label: the headline says it and no pass, the caveat in the box, the certificate leads with it; exit 6', async () => {
     const r = await runCli(['label', unacked, ...TRIALS]);
     expect(r.code).toBe(6);
-    const box = r.stdout.slice(0, r.stdout.indexOf('BATCH CERTIFICATE'));
+    const box = labelBoxText(r.stdout);
     expect(box).toContain('*** PLAN DANGER NOT ACKNOWLEDGED - NOT A PASS ***');
     expect(box).toContain('composition only, within tolerance with U: it does not make the tank usable');
     expect(box).toContain("! PLAN DANGER NOT ACKNOWLEDGED: the plan's safety review found detonable-state");

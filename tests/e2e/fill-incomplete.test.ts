@@ -58,7 +58,7 @@ describe.runIf(hasTmux || required)('guided fill, fresh-eyes trial (tmux)', () =
         /- continue: fill on from cyl-Ar to 480\.81 Torr, .*: passes no hazard the plan did not have/,
       );
       expect(b).toMatch(/- next AB \(go on from 150 Torr\): passes .*DANGER detonable-state \(fill 3\)/);
-      expect(b).toMatch(/- stop AB \(.*\): no flammable or danger state in the tank now/);
+      expect(b).toMatch(/- stop AB \(.*\): no flammable, detonable or danger state in the tank now/);
       // going on from the short reading: the review names the hazard and offers continuing, never "no safer stop"
       await t.type('next JD');
       await t.keys('Enter');

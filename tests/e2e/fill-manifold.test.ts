@@ -391,7 +391,10 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       expect(s).toMatch(/The reading is not logged/);
       await t.type('1498.2 JD');
       await t.keys('Enter');
-      s = flat(await t.waitFor(/all 3 fills logged/, 30000));
+      // the title says how the batch ended: closed after venting, the reading against the last target
+      s = flat(await t.waitFor(/CLOSED AFTER VENTING/, 30000));
+      expect(s).toMatch(/CLOSED AFTER VENTING: fill 3 of 3 read 1498\.2 Torr \(target 1500\.0 Torr\)/);
+      expect(s).not.toMatch(/fills logged/);
       expect(s).toMatch(/the tank read 1498\.2 Torr \(1498\.20 Torr absolute\) after venting, logged by JD/);
       // the label (on the end screen, or its own page): the final pressure is the one read after venting
       s = (await endPages(t, 60000)).label;

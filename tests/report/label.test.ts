@@ -12,6 +12,7 @@ import {
   labelModel,
   renderLabelText,
   withU,
+  wrapLine,
 } from '../../src/report/label-model.js';
 import { buildCertificateModel } from '../../src/report/label-certificate.js';
 import {
@@ -112,7 +113,8 @@ describe('the label says what the readings say', () => {
     const log = readLog(PASSING);
     const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
     expect(m.status).toBe('pass-uncertain');
-    expect(labelLines(m)[0]).toBe(
+    // the headline whole (wide lines); at 76 columns it wraps (tests/report/label-width.test.ts)
+    expect(labelLines(m, 200)[0]).toBe(
       'NOT SHOWN WITHIN TOLERANCE - inside on the readings, but the uncertainty reaches past it',
     );
     expect(m.offDesign).toEqual([
@@ -239,7 +241,7 @@ describe('a log that records a danger', () => {
     expect(['pass', 'pass-uncertain']).toContain(report.verdict.verdict);
     const m = labelModel(report, log);
     expect(m.danger).toBe(true);
-    const lines = labelLines(m);
+    const lines = labelLines(m, 200);
     expect(lines[0]).toBe(`*** ${DANGER_HEADLINE} ***`);
     expect(lines[1]).toBe(
       'composition only: NOT SHOWN WITHIN TOLERANCE - inside on the readings, but the uncertainty reaches past it',
@@ -248,9 +250,8 @@ describe('a log that records a danger', () => {
     expect(lines[lines.length - 1]).toBe(
       '*** DO NOT USE THIS TANK UNTIL IT AND ITS GAUGES HAVE BEEN INSPECTED ***',
     );
-    // the caveat is wrapped for the boxed text label
-    for (const l of lines.filter((x) => /^[! ] /.test(x) && !/^ {2}[A-Z][A-Za-z0-9]* /.test(x)))
-      expect(l.length, l).toBeLessThanOrEqual(78);
+    // every line is wrapped for the boxed text label (76 columns inside an 80-column box)
+    for (const l of labelLines(m)) expect(l.length, l).toBeLessThanOrEqual(76);
     const c = buildCertificateModel(report, log, META);
     expect(c.caveats).toEqual(report.caveats);
     expect(c.caveats[0]).toMatch(/^DANGER: a logged reading went past the tank's working limit/);
@@ -293,7 +294,8 @@ describe('a log that records a danger', () => {
     const m = labelModel(await checkLog(log, { trials: 0, seed: 1 }), log);
     expect(m.danger).toBe(false);
     expect(m.caveats).toEqual([]);
-    expect(labelLines(m)[0]).toBe(
+    // the headline whole (wide lines); at 76 columns it wraps (tests/report/label-width.test.ts)
+    expect(labelLines(m, 200)[0]).toBe(
       'NOT SHOWN WITHIN TOLERANCE - inside on the readings, but the uncertainty reaches past it',
     );
   });
@@ -423,3 +425,29 @@ describe.runIf((chromium && hasPoppler) || required)(
     }
   },
 );
+
+describe('label lines at 80 columns', () => {
+  it('a long line wraps at words within the width, continuations indented as its text, no stranded last word', () => {
+    // 31 words of 4 letters: 15 fill the first row of 76 exactly, 14 the next (indented 4): greedy wrapping
+    // leaves 2 words (9 characters) on the last row
+    const text = `! ${Array.from({ length: 31 }, (_, i) => `w${String(i).padStart(3, '0')}`).join(' ')}`;
+    const rows = wrapLine(text, 76);
+    expect(rows.length).toBeGreaterThan(1);
+    for (const r of rows) expect(r.length, r).toBeLessThanOrEqual(76);
+    expect(rows[0].startsWith('! w000 ')).toBe(true);
+    // a hanging indent: two columns deeper than the text of the first row
+    for (const r of rows.slice(1)) expect(r).toMatch(/^ {4}\S/);
+    // the words all kept, in order
+    expect(rows.map((r) => r.trim()).join(' ')).toBe(text);
+    // the last row takes words from the row before it (one word, or under 12 characters, is stranded)
+    expect(rows).toHaveLength(3);
+    expect(rows[2]).toBe('    w028 w029 w030');
+    expect(
+      wrapLine('  CH4 0.31 % (relative) above design, but U 0.23 % reaches past the tolerance 0.50 %', 76),
+    ).toEqual([
+      '  CH4 0.31 % (relative) above design, but U 0.23 % reaches past the',
+      '    tolerance 0.50 %',
+    ]);
+    expect(wrapLine('short', 76)).toEqual(['short']);
+  });
+});

@@ -326,6 +326,46 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(enter(type(r, 'edit JD')).effects[0]).toMatchObject({ kind: 'withdraw', withdraws_line: 3 });
   });
 
+  it('resumed after a new over-limit reading of a fill whose earlier over-limit reading was accepted: the acceptance is of its own log line (as check matches it), so the danger screen comes back', async () => {
+    const { s1, d } = overLimit();
+    // line 3: 2800 Torr; line 4: accepted; line 5: withdrawn (mistyped); line 6: 2850 Torr, no choice logged
+    const events: NewLogEvent[] = [
+      ...s1.effects,
+      ...d.effects,
+      { kind: 'acknowledge', code: 'above-working-limit', step: 2, by: 'JD', time: NOW, note: 'accepted' },
+      { kind: 'withdraw', step: 2, withdraws_line: 3, by: 'JD', time: NOW, reason: 'mistyped' },
+      {
+        ...(d.effects[0] as Extract<NewLogEvent, { kind: 'reading' }>),
+        reading: '2850 Torr',
+        pressure_Pa: 2850 * TORR,
+      },
+    ];
+    const log = parseLog(logText(h, events), 'x.jsonl');
+    expect(log.readings.map((r) => [r.line, r.pressure_Pa / TORR])).toEqual([
+      [2, expect.closeTo(10.01, 9)],
+      [6, expect.closeTo(2850, 9)],
+    ]);
+    // check: the acknowledgement accepts line 3 (withdrawn), not line 6: the reading on line 6 stands as a danger
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    const f = report.findings.find((x) => x.code === 'above-working-limit' && x.line === 6);
+    expect(f).toMatchObject({ severity: 'danger' });
+    expect(f).not.toHaveProperty('accepted');
+    // the fill, resumed, asks again about the reading on line 6
+    const r = initialState(setupFromHeader(h), log, NOW);
+    expect(r.phase).toBe('over-limit');
+    expect(r.pending!.done.line).toBe(6);
+    expect(r.pending!.done.pressurePa / TORR).toBeCloseTo(2850, 9);
+    // the acknowledgement of that very line (a later line) is the choice: then it is not asked again
+    const acked = parseLog(
+      logText(h, [
+        ...events,
+        { kind: 'acknowledge', code: 'above-working-limit', step: 2, by: 'JD', time: NOW },
+      ]),
+      'x.jsonl',
+    );
+    expect(initialState(setupFromHeader(h), acked, NOW).phase).not.toBe('over-limit');
+  });
+
   it('accept INITIALS: the acknowledgement and the reading are logged; no fill is proposed past the limit, the batch stops', () => {
     const { logged: d } = overLimit();
     const a = enter(type(d, 'accept JD'));

@@ -11,7 +11,14 @@ import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
 import { FillApp, gasCaution } from '../../src/tui/fill-app.js';
 import { dropLeadingSpace } from '../../src/tui/para.js';
-import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import {
+  fillEnding,
+  fillReducer,
+  initialState,
+  setupFromHeader,
+  type FillState,
+} from '../../src/tui/fill-state.js';
+import { fromPa } from '../../src/report/units.js';
 import { splitHeader } from '../split-plan.js';
 
 const NOW = '2026-12-01T01:00:00Z';
@@ -102,8 +109,63 @@ describe('the fill screens fit 80 x 24', () => {
     expect(kept.aboveLimitText).toMatch(
       /^the tank MT-1 is STILL ABOVE its working limit: 2800\.00 Torr absolute logged vs the limit 2700\.22 Torr\. Close the cylinder and tank valves and bring it below the limit by your lab's procedure/,
     );
-    const end = fits(kept, /^mixwright fill b1 - all 4 fills logged$/);
+    // the title says how the batch ended (the reading vs the last target), never "all 4 fills logged"
+    const end = fits(kept, /^mixwright fill b1 - fill 4 of 4 KEPT ABOVE THE WORKING LIMIT: 2800 Torr/);
+    expect(end.replace(/\n/g, ' ')).toMatch(
+      /KEPT ABOVE THE WORKING LIMIT: 2800 Torr \(target 1500\.1 Torr\)/,
+    );
+    expect(end).not.toMatch(/all 4 fills logged/);
     expect(end.replace(/\n/g, ' ')).toContain('STILL ABOVE its working limit');
+  });
+
+  it('every fill read inside its band: only then does the end say all fills logged', () => {
+    const s3Target = fromPa(s3.targetsPa[3], 'Torr').toFixed(1);
+    const done = read(s3, s3Target, 5);
+    expect(done.phase).toBe('done');
+    const e = fillEnding(done)!;
+    expect(e).toMatchObject({ kind: 'within', step: 4, reached: `${s3Target} Torr`, short: [] });
+    const title = e.over.length
+      ? 'all 4 fills logged, the last within its band'
+      : 'all 4 fills logged, each within its band';
+    fits(done, new RegExp(`^mixwright fill b1 - ${title}$`));
+    // read 50 Torr above the target (its band is a few Torr wide): said, with the target
+    const high = read(s3, (Number(s3Target) + 50).toFixed(1), 5);
+    expect(high.phase).toBe('done');
+    expect(fillEnding(high)!.kind).toBe('above');
+    fits(high, /^mixwright fill b1 - fill 4 of 4 ABOVE ITS BAND: \d+\.\d Torr \(target \d+\.\d Torr\)$/);
+  });
+
+  it('the last fill vented back and read after venting: the end says closed after venting, with the reading', () => {
+    // the shell reports the over-limit reading's log line (line 5) before the choice
+    const over = fillReducer(read(s3, '2800'), { type: 'logged', step: 4, line: 5 });
+    const vented = read(over, 'vent JD');
+    expect(vented.phase).toBe('vented');
+    const closed = read(vented, '1490.0 JD');
+    expect(closed.phase).toBe('done');
+    expect(fillEnding(closed)).toMatchObject({ kind: 'vented', reached: '1490.0 Torr' });
+    const f = fits(closed, /^mixwright fill b1 - CLOSED AFTER VENTING: fill 4 of 4 read 1490\.0 Torr/);
+    expect(f).not.toMatch(/fills logged/);
+  });
+
+  it('a band finer than the display step (3000 Torr asked, capped; fill 2 on the 0.01 psi gauge): said so, never a zero-width band', () => {
+    const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
+    const req = buildPlanRequest(rs);
+    // 3000 Torr: above MT-1's working limit, so the re-target is capped (go JD) and fill 2 reads 36.74 psi
+    const input = { ...req.input, finalPressurePa: (3000 * 101325) / 760 };
+    const h3 = headerFromPlan(planFill(input), req, 'b1', '2026-12-01T00:00:00Z');
+    let t = initialState(setupFromHeader(h3));
+    for (const x of ['accept JD', '760.0 Torr JD', '20.02', 'go JD']) t = read(t, x, t.done.length + 2);
+    t = fillReducer(t, { type: 'enter', now: NOW });
+    expect(t.phase).toBe('reading');
+    expect(t.current).toBe(1);
+    const f = fits(t, /^mixwright fill b1 /);
+    const flat = f.replace(/[│\s]+/g, ' ');
+    expect(flat).toMatch(
+      /band \+-0\.0039 psi: finer than the display step 0\.01 psi; only 36\.74 psi reads inside it at 25\.0 degC/,
+    );
+    expect(f).not.toMatch(/(\d+\.\d+) - \1\b/);
+    // the crowded screen (the plan's danger, a three-row message) shows the composition on one row
+    expect(flat).toContain('Values (not U): OFF COURSE - CH4 +11 %, O2 +11 % rel: OUT (tol 0.50 %)');
   });
 
   it('the last fill below its target, with the composition as filled', () => {
@@ -151,6 +213,15 @@ describe('the fill screens fit 80 x 24', () => {
     fits(read(last, 'hello'), /BELOW THE TARGET$/);
     const closed = read(last, 'close JD');
     expect(closed.phase).toBe('done');
+    // closed below the last target: the title says so, with the reading and the target (the below screen's
+    // STOP AT), never "all 3 fills logged"
+    const stop = /STOP AT ([\d.]+ Torr)/.exec(frame80(last))![1];
+    const end = fits(closed, /^mixwright fill b1 - CLOSED BELOW THE LAST TARGET: fill 3 of 3 at 100 Torr/);
+    expect(end.replace(/\n/g, ' ')).toContain(
+      `CLOSED BELOW THE LAST TARGET: fill 3 of 3 at 100 Torr (target ${stop})`,
+    );
+    expect(end).not.toMatch(/fills logged/);
+    expect(fillEnding(closed)).toMatchObject({ kind: 'below', step: 3, reached: '100 Torr', short: [] });
     expect(closed.tankNowText).toMatch(
       /^the tank NOW holds a detonable, flammable mixture: keep its valves closed, do not use or vent it except under your lab's procedure, defer to local rules/,
     );
@@ -174,7 +245,7 @@ describe('the fill screens fit 80 x 24', () => {
       /- go INITIALS: fill to the capped targets \(the tank ends at 2692\.7 Torr, OFF THE DESIGN\): the review finds/,
     );
     expect(f).toMatch(
-      /- stop INITIALS: stop the batch here \(incomplete\): the review finds no flammable, detonable or danger state in the tank now/,
+      /- stop INITIALS: stop the batch here \(incomplete\): no flammable, detonable or danger state in the tank now/,
     );
     fits(read(capped, 'hello'), /^mixwright fill b1$/);
     // O2 read 15 Torr: going on from it keeps phi and the dilution, so the batch ends lower (by the re-target: the
