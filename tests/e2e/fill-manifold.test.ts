@@ -252,8 +252,9 @@ describe.runIf(hasTmux || required)('guided fill at the manifold (tmux)', () => 
       await t.waitFor(/fill 2 of 3/);
       await t.keys('C-c');
       expect(await exitStatus(t)).toBe(130);
-      // the line may wrap at the 80th column: join the screen's lines
-      const s = t.screen().replace(/\n/g, '');
+      // the message is wrapped at 80 columns (its continuation rows indented): join the screen's
+      // lines, and the indent with them
+      const s = t.screen().replace(/\n/g, '').replace(/ {2,}/g, ' ');
       expect(s).toMatch(
         /fill stopped by Ctrl-C: 1 of 3 readings are logged in batches\/cc\.jsonl\. Resume with: mixwright fill --resume batches\/cc\.jsonl/,
       );
