@@ -19,9 +19,10 @@ export function registerPlan(program: Command, cli: Cli): void {
       const { plan, req, unit, meta, proposal } = planFrom(recipeFile, o, true);
       stateGaugeConversions(req, cli);
       // a proposed premix: among the text's findings, its own key in the JSON (the plan's findings are the sheet's)
-      const json = { ...planToJson(plan, meta, unit), two_stage_proposal: proposalJson(proposal, unit) };
-      if (o.json) cli.out(JSON.stringify(json, null, 2) + '\n');
-      else
+      if (o.json) {
+        const json = { ...planToJson(plan, meta, unit), two_stage_proposal: proposalJson(proposal, unit) };
+        cli.out(JSON.stringify(json, null, 2) + '\n');
+      } else
         cli.out(
           planToText(proposal ? { ...plan, findings: [...plan.findings, proposal] } : plan, meta, unit),
         );
