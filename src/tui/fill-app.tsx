@@ -831,9 +831,16 @@ function OperatorScreen({ state }: ScreenProps) {
   );
 }
 
-/** a review's hazards on a way on, in words: never "safe", only what it found or that it found nothing new */
-const passes = (xs: readonly string[]) =>
-  xs.length ? `passes ${xs.join(', ')}` : 'passes no hazard the plan did not have';
+/**
+ * a review's hazards on a way on, in words: never "safe", only what it found or that it found nothing new.
+ * The hazards accepted at an earlier review that it finds again (acc) are named: "nothing new" is said only
+ * against what was computed, never over an accepted danger that stands.
+ */
+const passes = (xs: readonly string[], acc: readonly string[] = []) => {
+  const accepted = acc.length ? `the accepted ${acc.join(', ')} (they stand)` : '';
+  if (xs.length) return `passes ${xs.join(', ')}${accepted ? ` and ${accepted}` : ''}`;
+  return accepted ? `passes ${accepted}, no hazard beyond those` : 'passes no hazard the plan did not have';
+};
 
 /**
  * what the reviews of the ways on found (belowBandWays), as the below screens and the capped screen say
@@ -842,7 +849,11 @@ const passes = (xs: readonly string[]) =>
 function waysFound(w: BelowWays | undefined): { readonly still: string; readonly tank: string } {
   const cont = w?.continuing;
   return {
-    still: cont ? (cont.still.length ? `still ${passes(cont.still)}` : passes([])) : 'not reviewed',
+    still: cont
+      ? cont.still.length || cont.stillAccepted.length
+        ? `still ${passes(cont.still, cont.stillAccepted)}`
+        : passes([])
+      : 'not reviewed',
     tank: w
       ? w.tankNow.length
         ? `the tank NOW holds ${w.tankNow.join(', ')}`
@@ -860,11 +871,7 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
   const m = state.done.length;
   const ls = state.setup.steps[m - 1];
   const { still, tank } = waysFound(w);
-  const next = w
-    ? passes(
-        w.goingOn.map((z) => `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`),
-      )
-    : 'not reviewed';
+  const next = w ? passes(w.goingOn.map(hazardShort), w.goingOnAccepted.map(hazardShort)) : 'not reviewed';
   // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
   const K = state.setup.steps.length;
   const last = state.setup.steps[K - 1];
@@ -1218,9 +1225,16 @@ function CappedScreen({ state }: ScreenProps) {
   // what each choice's review found (fill-review belowBandWays): never called safe unless it found nothing
   const w = c.ways;
   const goFound = w
-    ? w.goingOn.length
-      ? `the review finds ${w.goingOn.map(hazardShort).join(', ')}, which the plan did not have`
-      : 'the review finds no hazard the plan did not have'
+    ? [
+        w.goingOn.length
+          ? `the review finds ${w.goingOn.map(hazardShort).join(', ')}, which the plan did not have`
+          : w.goingOnAccepted.length
+            ? 'the review finds no hazard beyond those accepted'
+            : 'the review finds no hazard the plan did not have',
+        w.goingOnAccepted.length ? `the accepted ${w.goingOnAccepted.map(hazardShort).join(', ')} stand` : '',
+      ]
+        .filter(Boolean)
+        .join('; ')
     : 'not reviewed';
   const stopFound = waysFound(w).tank;
   return (

@@ -246,10 +246,22 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
 
 /** the ways on from a fill read below its band, each as its review found it (fill-state's below screen) */
 export interface BelowWays {
-  /** continuing the fill to its target: what it would still pass (empty: nothing the plan did not have) */
-  readonly continuing?: { readonly toPa: number; readonly still: readonly string[] };
+  /**
+   * continuing the fill to its target: what it would still pass that the plan did not have and was not
+   * accepted (still), and the accepted ones it still passes (stillAccepted, short, dangers first)
+   */
+  readonly continuing?: {
+    readonly toPa: number;
+    readonly still: readonly string[];
+    readonly stillAccepted: readonly string[];
+  };
   /** going on from the reading (next): the hazards the plan did not have (and not accepted) */
   readonly goingOn: readonly ReviewHazard[];
+  /**
+   * going on from the reading: the hazards accepted at an earlier review that this review finds again (with
+   * its numbers now): they stand, and a screen that says "nothing new" must name them
+   */
+  readonly goingOnAccepted: readonly ReviewHazard[];
   /** stopping here: the flammable, detonable or danger findings of the tank as it is now, short */
   readonly tankNow: readonly string[];
 }
@@ -270,10 +282,22 @@ export function belowBandWays(s: FillState, input: RetargetInput): BelowWays {
   });
   const accepted = new Set(s.reviewed?.accepted ?? []);
   const open = (fs: readonly Finding[]) => fs.filter((f) => !accepted.has(hazardKey(f)));
+  // the accepted ones found again, dangers first: they stand, whatever was accepted
+  const again = (fs: readonly Finding[]) =>
+    fs.filter((f) => accepted.has(hazardKey(f))).sort((a, b) => rank(a) - rank(b));
   const c = rv.continuing;
   return {
-    ...(c ? { continuing: { toPa: c.toPa, still: open(c.hazards).map(shortOf) } } : {}),
+    ...(c
+      ? {
+          continuing: {
+            toPa: c.toPa,
+            still: open(c.hazards).map(shortOf),
+            stillAccepted: again(c.hazards).map(shortOf),
+          },
+        }
+      : {}),
     goingOn: open(rv.goingOn).map(reviewHazardOf),
+    goingOnAccepted: again(rv.goingOn).map(reviewHazardOf),
     // its dangers first
     tankNow: [...rv.tankNow].sort((a, b) => rank(a) - rank(b)).map(shortOf),
   };
