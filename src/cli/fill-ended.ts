@@ -9,6 +9,8 @@ import { EXIT, ExitSignal, type Cli } from './context.js';
 /** how a guided fill ended, as the screens report it */
 export interface FillOutcome {
   interrupted: boolean;
+  /** after Ctrl-C: the tank left above its working limit (no choice made, or accepted), in words */
+  left?: string;
   logged: number;
   steps: number;
   verdict?: string;
@@ -73,6 +75,7 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
       `mixwright: fill stopped by Ctrl-C: ${r.logged} of ${r.steps} readings are ` +
         `logged in ${logFile}. Resume with: mixwright fill --resume ${logFile}\n`,
     );
+    if (r.left) cli.err(`mixwright: ${logFile}: ${r.left}\n`);
     throw new ExitSignal(EXIT.interrupted);
   }
   // the tank as it stands, whatever the verdict: it is in the state the review found, not past it

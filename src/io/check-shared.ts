@@ -14,6 +14,12 @@ import {
   type RecordSeverity,
 } from '../report/check-types.js';
 import { WENT_ON_BELOW_BAND, type LogAck } from './batch-log.js';
+import { fromPa, type PressureUnit } from './quantity.js';
+
+const shown = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
+/** a reading against the tank's working limit, absolute, as the log audit words it */
+const limitVs = (f: { pressurePa: number; limitPa: number; unit: PressureUnit }) =>
+  `${shown(f.pressurePa, f.unit)} absolute vs the working limit ${shown(f.limitPa, f.unit)}`;
 
 export interface CheckOptions {
   readonly trials: number;
@@ -169,6 +175,21 @@ export function verdictCaveats(
         `and its gauges have been inspected under local practice`,
     );
   }
+  // a reading past the working limit later corrected or withdrawn: its finding is a warning, but the
+  // verdict (and the label, the fill's end screen) must not read as if it never was logged
+  const withdrawnOver = findings.filter(
+    (f): f is Extract<LogFinding, { code: 'above-working-limit' }> =>
+      f.code === 'above-working-limit' && f.replaced && !f.ventedAgain,
+  );
+  if (withdrawnOver.length)
+    out.push(
+      `A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn (` +
+        withdrawnOver
+          .map((f) => `${f.line ? `line ${f.line}, ` : ''}fill ${f.step ?? '?'}: ${limitVs(f)}`)
+          .join('; ') +
+        `): if the tank really reached it, treat it as a danger: have the tank and its fittings inspected ` +
+        `under local practice before the batch is used`,
+    );
   const edited = findings.filter(
     (f) =>
       f.code === 'text-number-mismatch' ||

@@ -9,6 +9,7 @@ import {
   atMostOnGauge,
   fillEnding,
   fillReducer,
+  interruptNote,
   premixMixingWords,
   shownPa,
   type CompositionJudgement,
@@ -43,7 +44,8 @@ export interface FillAppProps {
   /** `check`'s own re-check of the log, for the end screen */
   readonly recheck?: () => Promise<{ report: CheckReport; log: ParsedLog }>;
   /** Ctrl-C: the fill stops (the shell exits 130) */
-  readonly onInterrupt?: () => void;
+  /** Ctrl-C: with what the tank is left in that the count of readings does not say (interruptNote) */
+  readonly onInterrupt?: (note?: string) => void;
   /** the end screen's re-check, once it is there (the shell's exit code follows it) */
   readonly onReport?: (report: CheckReport) => void;
   /**
@@ -199,7 +201,7 @@ export function FillApp({
   const app = useApp();
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
-      onInterrupt?.();
+      onInterrupt?.(interruptNote(current()));
       app.exit();
       return;
     }

@@ -1820,6 +1820,27 @@ function onOverLimitEnter(s: FillState, now: string): FillState {
   };
 }
 
+/**
+ * what a Ctrl-C leaves that the count of logged readings does not say: a reading past the working limit
+ * logged on its danger screen with no choice made (vent, accept, edit), or one accepted and not vented
+ */
+export function interruptNote(s: FillState): string | undefined {
+  const p = s.pending;
+  const o = s.overLimit;
+  if (s.phase === 'over-limit' && p && o) {
+    const step = s.setup.steps[s.current];
+    const unit = gaugeUnit(step);
+    return (
+      `the tank ${s.setup.header.tank.id} is LEFT LOGGED ABOVE ITS WORKING LIMIT with no choice made: fill ` +
+      `${step.index} read ${fmtIn(p.done.pressurePa, unit)} absolute vs the limit ${fmtIn(o.limitPa, unit)}` +
+      `${p.logged ? ' (logged)' : ' (not logged)'}. Close the cylinder and tank valves; do not use the tank; ` +
+      `resume the fill to choose (vent, accept or edit if mistyped); vent or pump back by your lab's procedure, ` +
+      `away from ignition sources; defer to local rules and the tank's rating`
+    );
+  }
+  return s.aboveLimitText;
+}
+
 /** the tank left above its working limit (a reading there accepted): where it is, and what to do */
 export function aboveLimitWords(s: FillState, pressurePa: number, limitPa: number): string {
   const unit = gaugeUnit(s.setup.steps[Math.min(s.current, s.setup.steps.length - 1)]);

@@ -40,6 +40,8 @@ import { describeProblemAt, mixingEstimate, ProblemError } from '../core/index.j
 export interface FillOutcome {
   /** Ctrl-C stopped the fill */
   readonly interrupted: boolean;
+  /** after Ctrl-C: the tank left above its working limit (no choice made, or accepted), in words */
+  readonly left?: string;
   /** readings in force in the log when the fill ended (read back from the file) */
   readonly logged: number;
   readonly steps: number;
@@ -86,6 +88,7 @@ export async function runFill(args: {
   // the lock is held for the whole fill; a torn last line is moved aside before anything is appended
   const opened = openLogForFill(args.logFile);
   let interrupted = false;
+  let left: string | undefined;
   try {
     for (const m of opened.messages)
       process.stderr.write(`mixwright: ${args.logFile}: ${m}
@@ -113,7 +116,10 @@ export async function runFill(args: {
         write={write}
         logFile={args.logFile}
         recheck={recheck}
-        onInterrupt={() => (interrupted = true)}
+        onInterrupt={(note) => {
+          interrupted = true;
+          left = note;
+        }}
         onReport={(r) => (report = r)}
         onTankNow={(t) => (tankNow = t)}
       />,
@@ -125,6 +131,7 @@ export async function runFill(args: {
     if (!interrupted && !report && opened.handle.current().closed) report = (await recheck()).report;
     return {
       interrupted,
+      ...(interrupted && left ? { left } : {}),
       logged: opened.handle.current().readings.length,
       steps: setup.steps.length,
       logFile: args.logFile,

@@ -140,3 +140,15 @@ describe('fill --resume of a closed log', () => {
     expect(r.stderr).toContain('this batch log is closed: the fill is finished');
   });
 });
+
+describe('Ctrl-C', () => {
+  it('says the tank was left above its working limit when the fill says so, beside the count; else the count alone', () => {
+    const left = 'the tank MT-1 is LEFT LOGGED ABOVE ITS WORKING LIMIT with no choice made';
+    const r = exitOf({ interrupted: true, logged: 4, steps: 4, left });
+    expect(r.code).toBe(EXIT.interrupted);
+    expect(r.err).toMatch(/4 of 4 readings are logged in b\.jsonl\. Resume with/);
+    expect(r.err).toContain(`mixwright: b.jsonl: ${left}\n`);
+    const plain = exitOf({ interrupted: true, logged: 2, steps: 4 });
+    expect(plain.err).not.toMatch(/WORKING LIMIT/);
+  });
+});

@@ -3,7 +3,13 @@ import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { checkLog, headerFromPlan } from '../../src/io/check.js';
 import { parseLog, type NewLogEvent, type LogHeader } from '../../src/io/batch-log.js';
-import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import {
+  fillReducer,
+  initialState,
+  interruptNote,
+  setupFromHeader,
+  type FillState,
+} from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
 
 const PSI = 6894.757293168361; // lbf/in2 in Pa (NIST SP 811, exact from the definitions)
@@ -314,6 +320,12 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     const f = report.findings.find((x) => x.code === 'above-working-limit');
     expect(f).toBeDefined();
     expect(f!.severity).toBe('warning');
+    // the verdict's caveats (check, the label, the fill's end screen) carry it: the reading against the
+    // limit (MT-1's 2700.22 Torr: 4 bar rating x 0.9, the demo lab profile) and what to do if it was real
+    const c = report.caveats.find((x) => /ABOVE THE WORKING LIMIT WAS LOGGED/.test(x));
+    expect(c, report.caveats.join('\n')).toMatch(
+      /line 3, fill 2: 2800 Torr absolute vs the working limit 2700\.22 Torr\): if the tank really reached it, treat it as a danger/,
+    );
   });
 
   it('resumed after Ctrl-C on the danger screen: the logged reading brings the danger screen back', () => {
@@ -323,6 +335,11 @@ describe('the working limit is a hard stop (demo MT-1: rating 4 bar x 0.9 = 2700
     expect(r.phase).toBe('over-limit');
     expect(r.pending!.done.line).toBe(3);
     expect(r.done).toHaveLength(1);
+    // Ctrl-C here says more than the count of readings: the tank left above its limit, no choice made
+    expect(interruptNote(r)).toMatch(
+      /LEFT LOGGED ABOVE ITS WORKING LIMIT with no choice made: fill 2 read 2800\.00 Torr absolute vs the limit 2700\.22 Torr \(logged\)/,
+    );
+    expect(interruptNote(s1)).toBeUndefined();
     expect(enter(type(r, 'edit JD')).effects[0]).toMatchObject({ kind: 'withdraw', withdraws_line: 3 });
   });
 
