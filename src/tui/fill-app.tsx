@@ -356,6 +356,21 @@ function bandText(step: FillStep, centerPa: number, unit: PressureUnit, dec: num
   return bandWords(inward, step.bandPa, step.gauge?.resolutionPa ?? 0, unit, dec, ` ${unit}`);
 }
 
+/**
+ * where no value the gauge displays lies inside a fill's band: said before the reading, with the nearest
+ * displayed value and on which side of the band it reads (never a stop the gauge cannot show as inside)
+ */
+function noneInsideText(step: FillStep, centerPa: number, unit: PressureUnit, dec: number) {
+  if (!step.gauge || inwardBand(centerPa, step.bandPa, unit, dec)) return undefined;
+  const f = 10 ** dec;
+  const center = fromPa(centerPa, unit);
+  const near = Math.round(center * f) / f;
+  return (
+    `! NO value ${step.gauge.id} shows is inside the band: the nearest, ${near.toFixed(dec)} ${unit}, ` +
+    `reads ${near < center ? 'BELOW' : 'ABOVE'} it and is logged outside it. Use a finer gauge if you can`
+  );
+}
+
 function ErrorLine({ state }: ScreenProps) {
   return state.error ? <Para>! {state.error}</Para> : null;
 }
@@ -790,6 +805,7 @@ function BelowScreen({ state }: ScreenProps) {
           band {bandText(ls, st, lu, ld)} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
           {state.done[m - 1]?.text}
         </Text>
+        {noneInsideText(ls, st, lu, ld) ? <Text bold>{noneInsideText(ls, st, lu, ld)}</Text> : null}
       </Box>
       {lastFill && state.judgement ? <JudgementView j={state.judgement} compact /> : null}
       {lastFill ? (
@@ -1461,7 +1477,9 @@ function ReadingScreen({ state }: ScreenProps) {
   // the hints name this session's operator (after a resume by another, theirs), else an example
   const who = state.operator ?? 'AB';
   const band = bandText(step, shown, unit, dec);
-  const crowded = readingRows(state, band, columns) > rows - 1;
+  const noneInside = noneInsideText(step, shown, unit, dec);
+  const crowded =
+    readingRows(state, band, columns) + (noneInside ? rowsOf(noneInside, columns - 6) : 0) > rows - 1;
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1497,6 +1515,7 @@ function ReadingScreen({ state }: ScreenProps) {
           band {band} at {(state.targetTemperatureK - 273.15).toFixed(1)} degC
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
+        {noneInside ? <Text bold>{noneInside}</Text> : null}
       </Box>
       <StepDangers state={state} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
