@@ -1,24 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { render } from 'ink-testing-library';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import { FillApp } from '../../src/tui/fill-app.js';
-import { initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { initialState, setupFromHeader } from '../../src/tui/fill-state.js';
+import { frame80 } from './frame80.js';
 
 // A band finer than the gauge's display step with no displayed value inside it: the fill screen says so
 // before the reading. 1 psi = 6894.757 Pa (NIST SP 811, exact from the definitions); the demo's CH4 stop
 // is about 10.01 Torr = 0.1936 psi with a band under 0.001 psi (computed below): on a 0.01 psi display no
 // value lies inside it, the nearest (0.19 psi) reads below it.
 const PSI = 6894.757293168361;
-function frame80(s: FillState): string {
-  const ui = render(<FillApp initial={s} write={() => {}} logFile="p1.jsonl" />);
-  Object.defineProperty(ui.stdout, 'columns', { get: () => 80 });
-  ui.rerender(<FillApp initial={s} write={() => {}} logFile="p1.jsonl" />);
-  const f = ui.lastFrame()!;
-  ui.unmount();
-  return f;
-}
 
 describe('a band with no displayed value inside it', () => {
   const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');

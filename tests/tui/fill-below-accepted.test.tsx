@@ -1,31 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { render } from 'ink-testing-library';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import { FillApp } from '../../src/tui/fill-app.js';
-import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { initialState, setupFromHeader } from '../../src/tui/fill-state.js';
+import { frame80, read } from './frame80.js';
 
 // A hazard accepted at a review stands: a below-band screen that compares the ways on against the plan
 // and the accepted hazards must name them, never say "no hazard the plan did not have" over them.
 // Order CH4, Ar (stop 400 Torr), O2, Ar; CH4 read 40 % high (14.018 for 10.013 Torr) makes fill 3 (O2)
 // flammable (LFL of CH4 4.4 %, IEC 60079-20-1; LOC 10.7 %, ASTM E2079: the core's values, by hand in
 // tests/core/remainder-review.test.ts) and its closed-vessel pressure above the demo tank's working limit.
-const NOW = '2026-12-01T01:00:00Z';
-function read(s: FillState, text: string, line?: number): FillState {
-  const r = fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
-  return line !== undefined && r.effects.length
-    ? fillReducer(r, { type: 'logged', step: r.done.length, line })
-    : r;
-}
-function frame80(s: FillState): string {
-  const ui = render(<FillApp initial={s} write={() => {}} logFile="b1.jsonl" />);
-  Object.defineProperty(ui.stdout, 'columns', { get: () => 80 });
-  ui.rerender(<FillApp initial={s} write={() => {}} logFile="b1.jsonl" />);
-  const f = ui.lastFrame()!;
-  ui.unmount();
-  return f;
-}
 
 describe('a fill below its band after a review whose danger was accepted', () => {
   const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');

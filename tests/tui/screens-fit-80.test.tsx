@@ -5,11 +5,10 @@
 // remaining fills, the danger screen of a reading past the working limit, the last fill below its
 // target, and a fill screen with the plan's danger, a warning and a message of three rows or more.
 import { describe, expect, it } from 'vitest';
-import { render } from 'ink-testing-library';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import { FillApp, gasCaution } from '../../src/tui/fill-app.js';
+import { gasCaution } from '../../src/tui/fill-app.js';
 import { dropLeadingSpace } from '../../src/tui/para.js';
 import {
   fillEnding,
@@ -20,24 +19,9 @@ import {
 } from '../../src/tui/fill-state.js';
 import { fromPa } from '../../src/report/units.js';
 import { splitHeader } from '../split-plan.js';
+import { frame80, read } from './frame80.js';
 
 const NOW = '2026-12-01T01:00:00Z';
-/** type a line and Enter; a logged event gets its log line (as the shell reports it) */
-function read(s: FillState, text: string, line?: number): FillState {
-  const r = fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
-  return line !== undefined && r.effects.length
-    ? fillReducer(r, { type: 'logged', step: r.done.length, line })
-    : r;
-}
-
-function frame80(s: FillState): string {
-  const ui = render(<FillApp initial={s} write={() => {}} logFile="b1.jsonl" />);
-  Object.defineProperty(ui.stdout, 'columns', { get: () => 80 });
-  ui.rerender(<FillApp initial={s} write={() => {}} logFile="b1.jsonl" />);
-  const f = ui.lastFrame()!;
-  ui.unmount();
-  return f;
-}
 
 /** the frame fits 80 x 24; its first row is the whole title (what the screen is, after the batch) */
 function fits(s: FillState, title: RegExp): string {
