@@ -348,10 +348,15 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   let verdict = judge(result, design, tolerance);
   let incomplete: string[] = [];
   if (design) {
-    const covered = new Set(readings.flatMap((r) => Object.keys(r.source.composition)));
+    // a design species is filled by a row whose source is named by it (its main gas, a premix's gases):
+    // a cylinder's impurity (Ar in O2) is no fill of Ar, so a missing Ar row is not read as one
+    const covered = new Set(readings.flatMap((r) => [r.source.mainSpecies, ...(r.source.gases ?? [])]));
     incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
     if (incomplete.length) {
-      warnings.push(`no row fills ${incomplete.join(', ')}: the batch is incomplete`);
+      warnings.push(
+        `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +
+          `finished; the batch is incomplete`,
+      );
       verdict = { ...verdict, verdict: 'fail' };
     }
   }
@@ -402,6 +407,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
       [],
       { dangers: b.planDangers ?? [], recipe: opts.recipeFile },
       recorded.dangers,
+      incomplete.length > 0,
     ),
     planDangersNotAcknowledged: b.planDangers ?? [],
     recordedFill: recorded.recordedFill,
