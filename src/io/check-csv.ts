@@ -237,6 +237,8 @@ function csvReadings(
     barometerFrom: b.barometerFrom,
     conversions,
     referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
+    fullScaleOf: (id) => b.gauges.find((g) => g.id === id)?.fullScalePa,
+    ...(b.tank ? { tank: { id: b.tank.id, limitPa: b.tank.limitPa } } : {}),
     acceptsName: b.names.accepts,
   });
   const sources = rows.map((r) => b.names.resolve(r.species, { file, line: r.line, field: 'species' }));

@@ -53,3 +53,21 @@ describe('check of CSV readings with a planned fill missing', () => {
     expect(json.incomplete).toEqual([]);
   });
 });
+
+// a wrong unit on one row was blamed on the next ("not above the previous one", no cause, no fix)
+describe('check of CSV readings with a wrong unit on a row', () => {
+  it('Ar,1480.02 kPa on line 3 (Torr meant): line 3 is named, past head-10kT and MT-1, with what to do', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mw-wrong-unit-'));
+    const f = join(dir, 'kpa.csv');
+    writeFileSync(f, DEMO.map((l) => l.replace(/^Ar,1480\.02 Torr/, 'Ar,1480.02 kPa')).join('\n'));
+    const r = await runCli(['check', f, '--recipe', RECIPE]);
+    expect(r.code).toBe(2);
+    const err = r.stderr.replace(/\n +/g, ' ');
+    expect(err).toContain('kpa.csv:4 pressure: the reading 1500.0 Torr is not above the previous one');
+    expect(err).toContain(
+      "Likely cause: line 3's value or unit (1480.02 kPa): it is past the range of head-10kT",
+    );
+    expect(err).toContain("and tank MT-1's working limit");
+    expect(err).toContain('Correct line 3 from the paper record');
+  });
+});
