@@ -350,9 +350,15 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   let verdict = judge(result, design, tolerance);
   let incomplete: string[] = [];
   if (design) {
-    // a design species is filled by a row whose source is named by it (its main gas, a premix's gases):
-    // a cylinder's impurity (Ar in O2) is no fill of Ar, so a missing Ar row is not read as one
-    const covered = new Set(readings.flatMap((r) => [r.source.mainSpecies, ...(r.source.gases ?? [])]));
+    // a design species is filled by a row whose source carries it: its main gas, a premix's gases, or a
+    // component of 1 % or more (a mixed cylinder; our own margin: a cylinder's impurities are ppm). An
+    // impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
+    const carried = (s: CheckedReading['source']) => [
+      s.mainSpecies,
+      ...(s.gases ?? []),
+      ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
+    ];
+    const covered = new Set(readings.flatMap((r) => carried(r.source)));
     incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
     if (incomplete.length) {
       warnings.push(
