@@ -9,7 +9,7 @@
  * what that sensor shows, above the ambient pressure) or its unit says so ("15 psig");
  * such readings are made absolute with the barometric pressure given.
  */
-import { fail, getSpecies, ProblemError, relocate } from '../core/index.js';
+import { fail, getSpecies, ProblemError, relocate, TORR_PA } from '../core/index.js';
 import { readTextFile } from './read-text.js';
 import { isAbsoluteSpelling, isGaugeSpelling, parseQuantity, type GaugeConversion } from './quantity.js';
 
@@ -38,8 +38,7 @@ interface PrevRow {
   readonly beforePa?: number;
 }
 
-const TORR = 101325 / 760;
-const torr = (pa: number) => `${(pa / TORR).toPrecision(6)} Torr`;
+const torr = (pa: number) => `${(pa / TORR_PA).toPrecision(6)} Torr`;
 
 /** what the named gauge shows of an absolute pressure (a gauge-referenced one: above the barometer) */
 function shownOf(pa: number, gauge: string | undefined, ctx: CsvContext): number {

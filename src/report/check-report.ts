@@ -389,7 +389,8 @@ function verdictText(r: CheckReport): string {
       `is not passed; the fractions and the review of the fill as recorded cover the rows given only: ` +
       `add the missing row (its reading from the paper record) and check again` +
       (inFill.length
-        ? ` - ${recordedMark(inFill)} as the rows stand: the record does not show ${inFill.length === 1 ? 'it' : 'them'} accepted`
+        ? ` - ${recordedMark(inFill)} as the rows stand: the record does not show ` +
+          `${inFill.length === 1 ? 'it' : 'them'} accepted`
         : '')
     );
   }
