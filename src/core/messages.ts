@@ -256,8 +256,12 @@ function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }
       return `${p.got} fields where the header has ${p.expected}`;
     case 'csv-not-rising':
       return (
-        `the reading ${p.text} is not above the previous one; each row ` +
-        `is the absolute pressure after a fill, so readings must increase`
+        `the reading ${p.text} is not above the previous one` +
+        (p.previous
+          ? ` (line ${p.previous.line}: ${p.previous.text}${p.previous.torr ? `, ${p.previous.torr}` : ''})`
+          : '') +
+        `; each row is the absolute pressure after a fill, so readings must increase` +
+        (p.cause ? `. ${p.cause}` : '')
       );
     case 'csv-no-rows':
       return 'no readings below the header';

@@ -11,6 +11,17 @@
 export const CLEAN_CLAIM =
   'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
 
+/**
+ * What the order advice's review covers where it claims CLEAN_CLAIM: it reviews no finished mixture
+ * (the same in every order: the amounts do not depend on it), and a fill's path is judged against its
+ * end states, so the last fill's path is clean only short of the finished mixture. The plan's review
+ * (plan/review.ts `safetyClause`) says the same words where only the finished mixture has hazards;
+ * tests/core/order-words.test.ts holds the two together.
+ */
+export const SHORT_OF_MIXTURE_CLAIM =
+  'every intermediate tank state is non-flammable and free of the hazards checked, and so is ' +
+  'every fill path short of the finished mixture';
+
 /** the opening of the advice's reason where no order is free of every hazard it checks */
 export const NO_SAFE_ORDER_OPENING = 'no fill order avoids every hazard checked';
 
@@ -19,7 +30,9 @@ export const NO_SAFE_ORDER_OPENING = 'no fill order avoids every hazard checked'
  * The advice's reason explains its choice against the smallest-first order; where the advised order
  * is clean the finding says only that, by the advice's review: the comparison with the smallest-first
  * order repeated the finding itself when the order given was the smallest-first one, and named a
- * third order otherwise. An advised order with hazards of its own is never said to avoid them: it has
+ * third order otherwise. The advice's clean claim is said as far as its review goes (SHORT_OF_MIXTURE_CLAIM):
+ * planned in the advised order the finished batch can still be flammable, and then the last fill's
+ * path is not non-flammable. An advised order with hazards of its own is never said to avoid them: it has
  * fewer or less severe ones, and the advice's reason says which.
  */
 export function describeSaferOrder(f: {
@@ -30,8 +43,11 @@ export function describeSaferOrder(f: {
   const given = `${f.of ?? 'the order given'} makes flammable or hazardous intermediate states or fills; `;
   const advised = f.order.join(' -> ');
   if (f.reason.endsWith(CLEAN_CLAIM))
-    return `${given}${advised} avoids them (by the order advice's review, ${CLEAN_CLAIM})`;
+    return (
+      `${given}${advised} avoids them (by the order advice's review, ${SHORT_OF_MIXTURE_CLAIM}; ` +
+      `the finished mixture, the same in every order, is judged by the plan's own findings)`
+    );
   if (f.reason.startsWith(NO_SAFE_ORDER_OPENING))
     return `${given}${advised} has fewer or less severe ones (${f.reason})`;
-  return `${given}${advised} is advised instead (${f.reason})`;
+  return `${given}${advised} is advised instead (${f.reason.replace(CLEAN_CLAIM, SHORT_OF_MIXTURE_CLAIM)})`;
 }

@@ -173,7 +173,13 @@ export type Problem =
   | { readonly code: 'csv-missing-column'; readonly column: string; readonly optional: readonly string[] }
   | { readonly code: 'csv-field-count'; readonly got: number; readonly expected: number }
   /** a CSV row's pressure (as typed) is not above the row before */
-  | { readonly code: 'csv-not-rising'; readonly text: string }
+  | {
+      readonly code: 'csv-not-rising';
+      readonly text: string;
+      /** the row before, as typed, with its line; `cause`: the likely cause and what to do, worded by io */
+      readonly previous?: { readonly line: number; readonly text: string; readonly torr?: string };
+      readonly cause?: string;
+    }
   | { readonly code: 'csv-no-rows' }
   /** a CSV row names a species that the recipe's plan does not fill */
   | {

@@ -237,6 +237,8 @@ function csvReadings(
     barometerFrom: b.barometerFrom,
     conversions,
     referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
+    fullScaleOf: (id) => b.gauges.find((g) => g.id === id)?.fullScalePa,
+    ...(b.tank ? { tank: { id: b.tank.id, limitPa: b.tank.limitPa } } : {}),
     acceptsName: b.names.accepts,
   });
   const sources = rows.map((r) => b.names.resolve(r.species, { file, line: r.line, field: 'species' }));
@@ -348,10 +350,21 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
   let verdict = judge(result, design, tolerance);
   let incomplete: string[] = [];
   if (design) {
-    const covered = new Set(readings.flatMap((r) => Object.keys(r.source.composition)));
+    // a design species is filled by a row whose source carries it: its main gas, a premix's gases, or a
+    // component of 1 % or more (a mixed cylinder; our own margin: a cylinder's impurities are ppm). An
+    // impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
+    const carried = (s: CheckedReading['source']) => [
+      s.mainSpecies,
+      ...(s.gases ?? []),
+      ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
+    ];
+    const covered = new Set(readings.flatMap((r) => carried(r.source)));
     incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
     if (incomplete.length) {
-      warnings.push(`no row fills ${incomplete.join(', ')}: the batch is incomplete`);
+      warnings.push(
+        `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +
+          `finished; the batch is incomplete`,
+      );
       verdict = { ...verdict, verdict: 'fail' };
     }
   }
@@ -402,6 +415,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
       [],
       { dangers: b.planDangers ?? [], recipe: opts.recipeFile },
       recorded.dangers,
+      incomplete.length > 0,
     ),
     planDangersNotAcknowledged: b.planDangers ?? [],
     recordedFill: recorded.recordedFill,

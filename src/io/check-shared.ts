@@ -125,8 +125,17 @@ function planDangerCaveat(dangers: readonly PlanDanger[], recipe?: string): stri
 }
 
 /** the caveat of a danger the review of the fill as recorded finds, and the record does not show accepted */
-function recordedDangerCaveat(dangers: readonly PlanDanger[]): string {
+function recordedDangerCaveat(dangers: readonly PlanDanger[], rowsMissing: boolean): string {
   const one = dangers.length === 1;
+  if (rowsMissing)
+    return (
+      `DANGER IN THE RECORDED FILL, as the rows stand: the safety review of the rows given (the planner's ` +
+      `own review) finds ${dangerList(dangers)} (${one ? 'a danger' : 'dangers'}), and the record does not ` +
+      `show ${one ? 'it' : 'them'} accepted; a planned fill has no row, so the tank's states are not known ` +
+      `from these rows. Add the missing row and check again; until then this is not a pass: have the fill ` +
+      `reviewed (the hazards, the readings, the tank and its fittings) under local practice before the ` +
+      `batch is used`
+    );
   return (
     `DANGER IN THE RECORDED FILL: the safety review of the fill as recorded (the tank after each reading, ` +
     `by this re-check's composition at the reading's pressure, and each fill's path between readings; the ` +
@@ -146,11 +155,13 @@ export function verdictCaveats(
   accepted: readonly AcceptedHazard[] = [],
   unacknowledged: { readonly dangers: readonly PlanDanger[]; readonly recipe?: string } = { dangers: [] },
   recordedDangers: readonly PlanDanger[] = [],
+  /** a planned fill has no reading (a CSV row missing): the recorded states are the rows', not the tank's */
+  rowsMissing = false,
 ): string[] {
   const out: string[] = [];
   if (unacknowledged.dangers.length)
     out.push(planDangerCaveat(unacknowledged.dangers, unacknowledged.recipe));
-  if (recordedDangers.length) out.push(recordedDangerCaveat(recordedDangers));
+  if (recordedDangers.length) out.push(recordedDangerCaveat(recordedDangers, rowsMissing));
   for (const a of accepted)
     out.push(
       a.found === 'plan'

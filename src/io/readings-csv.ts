@@ -9,7 +9,7 @@
  * what that sensor shows, above the ambient pressure) or its unit says so ("15 psig");
  * such readings are made absolute with the barometric pressure given.
  */
-import { fail, getSpecies, ProblemError, relocate } from '../core/index.js';
+import { fail, getSpecies, ProblemError, relocate, TORR_PA } from '../core/index.js';
 import { readTextFile } from './read-text.js';
 import { isAbsoluteSpelling, isGaugeSpelling, parseQuantity, type GaugeConversion } from './quantity.js';
 
@@ -24,6 +24,72 @@ export interface CsvContext {
   readonly referenceOf?: (gaugeId: string) => 'absolute' | 'gauge' | undefined;
   /** true for a name that is not a species but names a source (a cylinder id, a premix label "N2+O2") */
   readonly acceptsName?: (name: string) => boolean;
+  /** the named gauge's full scale, Pa (what it shows), when the lab profile gives it */
+  readonly fullScaleOf?: (gaugeId: string) => number | undefined;
+  /** the tank's working limit, Pa, and its id, when known */
+  readonly tank?: { readonly id: string; readonly limitPa?: number };
+}
+
+/** the row before, as the rule that readings rise needs it */
+interface PrevRow {
+  readonly reading: CsvReading;
+  readonly text: string;
+  /** the reading before it (its pressure), if any */
+  readonly beforePa?: number;
+}
+
+const torr = (pa: number) => `${(pa / TORR_PA).toPrecision(6)} Torr`;
+
+/** what the named gauge shows of an absolute pressure (a gauge-referenced one: above the barometer) */
+function shownOf(pa: number, gauge: string | undefined, ctx: CsvContext): number {
+  return gauge !== undefined && ctx.referenceOf?.(gauge) === 'gauge' && ctx.barometricPa !== undefined
+    ? pa - ctx.barometricPa
+    : pa;
+}
+
+/** what the previous row's pressure goes past (its gauge's range, the tank's working limit), in words */
+function pastOf(prev: CsvReading, ctx: CsvContext): string[] {
+  const out: string[] = [];
+  const fs = prev.gauge !== undefined ? ctx.fullScaleOf?.(prev.gauge) : undefined;
+  if (fs !== undefined && shownOf(prev.pressurePa, prev.gauge, ctx) > fs)
+    out.push(`the range of ${prev.gauge} (${torr(fs)})`);
+  if (ctx.tank?.limitPa !== undefined && prev.pressurePa > ctx.tank.limitPa)
+    out.push(`tank ${ctx.tank.id}'s working limit (${torr(ctx.tank.limitPa)})`);
+  return out;
+}
+
+/**
+ * The likely cause of a reading not above the one before, and what to do: a previous reading past
+ * its gauge's range or the tank's limit, or one whose number in this row's unit would rise, points
+ * at that row (a unit or a digit typed wrong); otherwise either row may be wrong.
+ */
+function notRisingCause(prev: PrevRow, text: string, pressurePa: number, line: number, ctx: CsvContext) {
+  const p = prev.reading;
+  const past = pastOf(p, ctx);
+  const num = prev.text.trim().split(/\s+/)[0];
+  const unit = text.trim().split(/\s+/).slice(1).join(' ');
+  let asThis: number | undefined;
+  if (unit && prev.text.trim().split(/\s+/).slice(1).join(' ') !== unit)
+    try {
+      asThis = parseQuantity(`${num} ${unit}`, 'pressure', { file: '', line: p.line, field: 'pressure' });
+    } catch {
+      asThis = undefined;
+    }
+  const fits = asThis !== undefined && asThis < pressurePa && asThis > (prev.beforePa ?? 0);
+  if (past.length || fits)
+    return (
+      `Likely cause: line ${p.line}'s value or unit (${prev.text})` +
+      (past.length ? `: it is past ${past.join(' and ')}` : '') +
+      (fits
+        ? `${past.length ? ';' : ':'} read as ${num} ${unit}, like line ${line}, it would rise in order`
+        : '') +
+      `. Correct line ${p.line} from the paper record (the reading as the gauge showed it, with its unit) ` +
+      `and check again; nothing was checked`
+    );
+  return (
+    `Either line ${p.line} or line ${line} has a wrong value or unit, or the rows are not in fill ` +
+    `order: correct them from the paper record and check again; nothing was checked`
+  );
 }
 
 export interface CsvReading {
@@ -138,7 +204,7 @@ function parseRow(
   header: readonly string[],
   where: At,
   ctx: CsvContext,
-  prev: CsvReading | undefined,
+  prev: PrevRow | undefined,
 ): CsvReading {
   const cell = (name: string) => (header.indexOf(name) >= 0 ? cells[header.indexOf(name)] : undefined);
   let species: string;
@@ -154,8 +220,23 @@ function parseRow(
   const pressurePa = rowPressurePa(cell('pressure')!, gaugeId, ctx, where);
   const temperatureK = parseQuantity(cell('temperature')!, 'temperature', where('temperature'));
   checkRow(pressurePa, cell('pressure')!, temperatureK, cell('temperature')!, where);
-  if (prev && pressurePa <= prev.pressurePa)
-    fail({ code: 'csv-not-rising', text: cell('pressure')! }, where('pressure'));
+  if (prev && pressurePa <= prev.reading.pressurePa) {
+    const text = cell('pressure')!;
+    const line = where('').line;
+    fail(
+      {
+        code: 'csv-not-rising',
+        text,
+        previous: {
+          line: prev.reading.line,
+          text: prev.text,
+          ...(/torr$/i.test(prev.text.trim()) ? {} : { torr: torr(prev.reading.pressurePa) }),
+        },
+        cause: notRisingCause(prev, text, pressurePa, line, ctx),
+      },
+      where('pressure'),
+    );
+  }
   return {
     line: where('').line,
     species,
@@ -171,6 +252,8 @@ export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {
   const lines = text.replace(/\r\n?/g, '\n').split('\n');
   const { header, at } = readHeader(lines, file);
   const out: CsvReading[] = [];
+  const texts: string[] = [];
+  const col = header.indexOf('pressure');
   for (let i = at + 1; i < lines.length; i++) {
     const raw = lines[i];
     if (raw.trim() === '' || raw.trim().startsWith('#')) continue;
@@ -178,7 +261,12 @@ export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {
     const cells = splitCsvLine(raw);
     if (cells.length !== header.length)
       fail({ code: 'csv-field-count', got: cells.length, expected: header.length }, { file, line });
-    out.push(parseRow(cells, header, (field) => ({ file, line, field }), ctx, out[out.length - 1]));
+    const n = out.length;
+    const prev = n
+      ? { reading: out[n - 1], text: texts[n - 1], beforePa: n > 1 ? out[n - 2].pressurePa : undefined }
+      : undefined;
+    out.push(parseRow(cells, header, (field) => ({ file, line, field }), ctx, prev));
+    texts.push(cells[col]);
   }
   if (out.length === 0) fail({ code: 'csv-no-rows' }, { file });
   return out;

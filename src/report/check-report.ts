@@ -381,6 +381,19 @@ function pastRangeText(r: CheckReport): string | undefined {
 
 /** the verdict in words, marked by what the record says of it */
 function verdictText(r: CheckReport): string {
+  if (r.incomplete.length && r.kind === 'csv') {
+    const inFill = r.recordedFillDangers ?? [];
+    return (
+      `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: no row of the CSV fills ` +
+      `${r.incomplete.length === 1 ? 'it' : 'them'} (a row is missing, or the batch is not finished), so it ` +
+      `is not passed; the fractions and the review of the fill as recorded cover the rows given only: ` +
+      `add the missing row (its reading from the paper record) and check again` +
+      (inFill.length
+        ? ` - ${recordedMark(inFill)} as the rows stand: the record does not show ` +
+          `${inFill.length === 1 ? 'it' : 'them'} accepted`
+        : '')
+    );
+  }
   if (r.incomplete.length)
     return (
       `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: the batch is not ` +

@@ -83,9 +83,17 @@ describe('plan --order with an inline design: the safer-order warning says it on
     expect(safer[0]).toMatch(/^Order {7}.*the advised order: CH4 -> Ar -> O2 \(safer-order\)\)$/);
     expect(safer[1]).toBe(
       '  warning safer-order: the order given makes flammable or hazardous intermediate states or fills; ' +
-        "CH4 -> Ar -> O2 avoids them (by the order advice's review, every intermediate tank state and " +
-        'every fill path is non-flammable and free of the hazards checked)',
+        "CH4 -> Ar -> O2 avoids them (by the order advice's review, every intermediate tank state is " +
+        'non-flammable and free of the hazards checked, and so is every fill path short of the finished ' +
+        "mixture; the finished mixture, the same in every order, is judged by the plan's own findings)",
     );
+    // planned in the advised order the batch is flammable (flammable-mixture at fill 3, in this plan too:
+    // the finished mixture does not depend on the order), so the last fill's path is not non-flammable:
+    // the warning never claims every fill path is
+    expect(r.stdout).toMatch(/warning flammable-mixture \(fill 3\)/);
+    expect(safer[1]).not.toMatch(/every fill path is non-flammable/);
+    const advised = await runCli(['plan', ...INLINE, ...TANK, '--order', 'CH4,Ar,O2']);
+    expect(advised.stdout).toMatch(/warning flammable-mixture \(fill 3\)/);
     const json = JSON.parse((await runCli(['plan', ...INLINE, ...TANK, '--order', given, '--json'])).stdout);
     expect(json.findings.filter((f: { code: string }) => f.code === 'safer-order')).toHaveLength(1);
   });

@@ -3,7 +3,14 @@
 // Wording only: no computed number is checked here.
 import { describe, expect, it } from 'vitest';
 import { describeFinding } from '../../src/core/index.js';
-import { CLEAN_CLAIM, describeSaferOrder, NO_SAFE_ORDER_OPENING } from '../../src/core/order-words.js';
+import {
+  CLEAN_CLAIM,
+  describeSaferOrder,
+  NO_SAFE_ORDER_OPENING,
+  SHORT_OF_MIXTURE_CLAIM,
+} from '../../src/core/order-words.js';
+import { safetyClause } from '../../src/core/plan/review.js';
+import type { Finding } from '../../src/core/index.js';
 
 describe('describeSaferOrder', () => {
   it('a clean advised order: it avoids them, by the advice review, without the smallest-first comparison', () => {
@@ -11,8 +18,13 @@ describe('describeSaferOrder', () => {
     const words = describeSaferOrder({ order: ['CH4', 'Ar', 'O2'], reason });
     expect(words).toBe(
       'the order given makes flammable or hazardous intermediate states or fills; CH4 -> Ar -> O2 avoids ' +
-        `them (by the order advice's review, ${CLEAN_CLAIM})`,
+        `them (by the order advice's review, ${SHORT_OF_MIXTURE_CLAIM}; the finished mixture, the same in ` +
+        "every order, is judged by the plan's own findings)",
     );
+    // the advice reviews no finished mixture: its clean claim is never repeated whole (a flammable batch
+    // makes the last fill's path flammable, which the advice did not judge)
+    expect(words).not.toContain(CLEAN_CLAIM);
+    expect(words).not.toMatch(/every fill path is non-flammable/);
     expect(describeSaferOrder({ order: ['A'], reason: CLEAN_CLAIM, of: "the premix's own order" })).toMatch(
       /^the premix's own order makes /,
     );
@@ -23,6 +35,20 @@ describe('describeSaferOrder', () => {
     const words = describeSaferOrder({ order: ['CH4', 'Ar', 'O2'], reason });
     expect(words).not.toContain('avoids them');
     expect(words).toContain(`CH4 -> Ar -> O2 has fewer or less severe ones (${reason})`);
+  });
+
+  it('a reason that is neither clean nor no-safe-order: never the whole clean claim either', () => {
+    const words = describeSaferOrder({
+      order: ['A', 'B'],
+      reason: `some other reason; ${CLEAN_CLAIM}, as searched`,
+    });
+    expect(words).not.toContain(CLEAN_CLAIM);
+    expect(words).toContain(SHORT_OF_MIXTURE_CLAIM);
+  });
+
+  it("one wording: the plan's review words the states and paths short of a hazardous mixture the same", () => {
+    const f = { code: 'flammable-mixture', severity: 'warning', step: 3 } as Finding;
+    expect(safetyClause([f], 3)).toContain(`${SHORT_OF_MIXTURE_CLAIM}, which itself has flammable-mixture`);
   });
 
   it('describeFinding words safer-order by it', () => {
