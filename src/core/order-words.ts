@@ -15,7 +15,7 @@ export const CLEAN_CLAIM =
  * What the order advice's review covers where it claims CLEAN_CLAIM: it reviews no finished mixture
  * (the same in every order: the amounts do not depend on it), and a fill's path is judged against its
  * end states, so the last fill's path is clean only short of the finished mixture. The plan's review
- * (plan/review.ts `safetyClause`) says the same words where only the finished mixture has hazards;
+ * (plan/review.ts `safetyClause`) uses these words where only the finished mixture has hazards;
  * tests/core/order-words.test.ts holds the two together.
  */
 export const SHORT_OF_MIXTURE_CLAIM =

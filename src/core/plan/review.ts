@@ -12,6 +12,7 @@ import { virialU } from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
 import { CLEAN_CLAIM, COMPARED_CLAIM, ORDER_RELEVANT } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
+import { SHORT_OF_MIXTURE_CLAIM } from '../order-words.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
 import { ProblemError } from '../problems.js';
 import type { PlanBasis } from './validate.js';
@@ -145,9 +146,7 @@ export function safetyClause(findings: readonly Finding[], lastStep: number): st
       (mixture.length ? `, and ${listed(mixture)} on the finished mixture` : '') +
       ' (see the findings)';
   else if (mixture.length)
-    clause =
-      `every intermediate tank state is non-flammable and free of the hazards checked, and so is ` +
-      `every fill path short of the finished mixture, which itself has ${listed(mixture)} (see the findings)`;
+    clause = `${SHORT_OF_MIXTURE_CLAIM}, which itself has ${listed(mixture)} (see the findings)`;
   else clause = CLEAN_CLAIM;
   if (other.length)
     clause +=
