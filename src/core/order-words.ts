@@ -5,22 +5,32 @@
  */
 
 /**
- * the claim of a sequence whose review found no hazard on any intermediate state or fill path; the
- * plan's review (plan/review.ts) replaces it by what the full review of the planned fill finds
+ * the claim of the full review of a planned fill (plan/review.ts `safetyClause`) that found no hazard
+ * on any tank state, the finished mixture's included, nor on any fill path; never an order review's
+ * claim (ORDER_REVIEW_CLAIM): an order review does not judge the finished mixture
  */
 export const CLEAN_CLAIM =
   'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
 
 /**
- * What the order advice's review covers where it claims CLEAN_CLAIM: it reviews no finished mixture
- * (the same in every order: the amounts do not depend on it), and a fill's path is judged against its
- * end states, so the last fill's path is clean only short of the finished mixture. The plan's review
+ * What an order review covers where it finds nothing: it reviews no finished mixture (the same in
+ * every order: the amounts do not depend on it), and a fill's path is judged against its end states,
+ * so the last fill's path is clean only short of the finished mixture. The plan's review
  * (plan/review.ts `safetyClause`) uses these words where only the finished mixture has hazards;
  * tests/core/order-words.test.ts holds the two together.
  */
 export const SHORT_OF_MIXTURE_CLAIM =
   'every intermediate tank state is non-flammable and free of the hazards checked, and so is ' +
   'every fill path short of the finished mixture';
+
+/**
+ * The claim of an order whose order review (the advice's, order.ts, or the sequence search's,
+ * plan/search-result.ts) found no hazard: only what that review computed (SHORT_OF_MIXTURE_CLAIM),
+ * so that a reason printed before the plan's review corrects it (the safer-order finding's reason,
+ * its --json) claims no more than was found. The plan's review (plan/review.ts `correctedReason`)
+ * replaces it by what the full review of the planned fill finds.
+ */
+export const ORDER_REVIEW_CLAIM = `by the order review, ${SHORT_OF_MIXTURE_CLAIM}`;
 
 /** the opening of the advice's reason where no order is free of every hazard it checks */
 export const NO_SAFE_ORDER_OPENING = 'no fill order avoids every hazard checked';
@@ -30,7 +40,7 @@ export const NO_SAFE_ORDER_OPENING = 'no fill order avoids every hazard checked'
  * The advice's reason explains its choice against the smallest-first order; where the advised order
  * is clean the finding says only that, by the advice's review: the comparison with the smallest-first
  * order repeated the finding itself when the order given was the smallest-first one, and named a
- * third order otherwise. The advice's clean claim is said as far as its review goes (SHORT_OF_MIXTURE_CLAIM):
+ * third order otherwise. The advice's clean claim (ORDER_REVIEW_CLAIM) goes only as far as its review:
  * planned in the advised order the finished batch can still be flammable, and then the last fill's
  * path is not non-flammable. An advised order with hazards of its own is never said to avoid them: it has
  * fewer or less severe ones, and the advice's reason says which.
@@ -42,12 +52,12 @@ export function describeSaferOrder(f: {
 }): string {
   const given = `${f.of ?? 'the order given'} makes flammable or hazardous intermediate states or fills; `;
   const advised = f.order.join(' -> ');
-  if (f.reason.endsWith(CLEAN_CLAIM))
+  if (f.reason.endsWith(ORDER_REVIEW_CLAIM))
     return (
-      `${given}${advised} avoids them (by the order advice's review, ${SHORT_OF_MIXTURE_CLAIM}; ` +
+      `${given}${advised} avoids them (${ORDER_REVIEW_CLAIM}; ` +
       `the finished mixture, the same in every order, is judged by the plan's own findings)`
     );
   if (f.reason.startsWith(NO_SAFE_ORDER_OPENING))
     return `${given}${advised} has fewer or less severe ones (${f.reason})`;
-  return `${given}${advised} is advised instead (${f.reason.replace(CLEAN_CLAIM, SHORT_OF_MIXTURE_CLAIM)})`;
+  return `${given}${advised} is advised instead (${f.reason})`;
 }

@@ -13,7 +13,7 @@ import type { GasSource } from './supply.js';
 import { reviewFill, reviewState, type FillEvent, type SafetyContext, type TankState } from './safety.js';
 import type { Finding, FindingCode } from './findings.js';
 import { reviewFillPath } from './fill-path.js';
-import { CLEAN_CLAIM, NO_SAFE_ORDER_OPENING } from './order-words.js';
+import { NO_SAFE_ORDER_OPENING, ORDER_REVIEW_CLAIM } from './order-words.js';
 
 export interface OrderScore {
   readonly danger: number;
@@ -300,7 +300,7 @@ function bestOrder(
   return { best, bestScore };
 }
 
-export { CLEAN_CLAIM } from './order-words.js';
+export { CLEAN_CLAIM, ORDER_REVIEW_CLAIM } from './order-words.js';
 
 /**
  * the opening of the sequence search's comparison of its choice with the advised order (its own
@@ -335,13 +335,13 @@ export function adviseOrder(
   if (clean && best === ascending) {
     reason =
       'smallest partial pressure first, largest last (best relative resolution ' +
-      `for the small fills); ${CLEAN_CLAIM}`;
+      `for the small fills); ${ORDER_REVIEW_CLAIM}`;
   } else if (clean) {
     const first = ascendingScore.hazards[0];
     reason =
       `not the smallest-first order (${names(ascending).join(', ')}), which would give ` +
       (first ? `${first.code} after fill ${first.step}` : 'a hazardous state') +
-      `; ${CLEAN_CLAIM}`;
+      `; ${ORDER_REVIEW_CLAIM}`;
   } else {
     const codes = [...new Set(bestScore.hazards.map((h) => h.code))].join(', ');
     reason =

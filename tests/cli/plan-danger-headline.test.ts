@@ -83,7 +83,7 @@ describe('plan --order with an inline design: the safer-order warning says it on
     expect(safer[0]).toMatch(/^Order {7}.*the advised order: CH4 -> Ar -> O2 \(safer-order\)\)$/);
     expect(safer[1]).toBe(
       '  warning safer-order: the order given makes flammable or hazardous intermediate states or fills; ' +
-        "CH4 -> Ar -> O2 avoids them (by the order advice's review, every intermediate tank state is " +
+        'CH4 -> Ar -> O2 avoids them (by the order review, every intermediate tank state is ' +
         'non-flammable and free of the hazards checked, and so is every fill path short of the finished ' +
         "mixture; the finished mixture, the same in every order, is judged by the plan's own findings)",
     );

@@ -7,6 +7,7 @@ import {
   CLEAN_CLAIM,
   describeSaferOrder,
   NO_SAFE_ORDER_OPENING,
+  ORDER_REVIEW_CLAIM,
   SHORT_OF_MIXTURE_CLAIM,
 } from '../../src/core/order-words.js';
 import { safetyClause } from '../../src/core/plan/review.js';
@@ -14,20 +15,20 @@ import type { Finding } from '../../src/core/index.js';
 
 describe('describeSaferOrder', () => {
   it('a clean advised order: it avoids them, by the advice review, without the smallest-first comparison', () => {
-    const reason = `not the smallest-first order (cyl-CH4, cyl-O2, cyl-Ar), which would give flammable-state after fill 2; ${CLEAN_CLAIM}`;
+    const reason = `not the smallest-first order (cyl-CH4, cyl-O2, cyl-Ar), which would give flammable-state after fill 2; ${ORDER_REVIEW_CLAIM}`;
     const words = describeSaferOrder({ order: ['CH4', 'Ar', 'O2'], reason });
     expect(words).toBe(
       'the order given makes flammable or hazardous intermediate states or fills; CH4 -> Ar -> O2 avoids ' +
-        `them (by the order advice's review, ${SHORT_OF_MIXTURE_CLAIM}; the finished mixture, the same in ` +
+        `them (by the order review, ${SHORT_OF_MIXTURE_CLAIM}; the finished mixture, the same in ` +
         "every order, is judged by the plan's own findings)",
     );
     // the advice reviews no finished mixture: its clean claim is never repeated whole (a flammable batch
     // makes the last fill's path flammable, which the advice did not judge)
     expect(words).not.toContain(CLEAN_CLAIM);
     expect(words).not.toMatch(/every fill path is non-flammable/);
-    expect(describeSaferOrder({ order: ['A'], reason: CLEAN_CLAIM, of: "the premix's own order" })).toMatch(
-      /^the premix's own order makes /,
-    );
+    expect(
+      describeSaferOrder({ order: ['A'], reason: ORDER_REVIEW_CLAIM, of: "the premix's own order" }),
+    ).toMatch(/^the premix's own order makes /);
   });
 
   it('an advised order with hazards of its own: fewer or less severe, with the advice reason, never "avoids"', () => {
@@ -40,10 +41,16 @@ describe('describeSaferOrder', () => {
   it('a reason that is neither clean nor no-safe-order: never the whole clean claim either', () => {
     const words = describeSaferOrder({
       order: ['A', 'B'],
-      reason: `some other reason; ${CLEAN_CLAIM}, as searched`,
+      reason: `some other reason; ${ORDER_REVIEW_CLAIM}, as searched`,
     });
     expect(words).not.toContain(CLEAN_CLAIM);
     expect(words).toContain(SHORT_OF_MIXTURE_CLAIM);
+  });
+
+  it("an order review's claim is the plan review's short-of-the-mixture words, never the full review's clean claim", () => {
+    expect(ORDER_REVIEW_CLAIM).toContain(SHORT_OF_MIXTURE_CLAIM);
+    expect(ORDER_REVIEW_CLAIM).not.toContain(CLEAN_CLAIM);
+    expect(ORDER_REVIEW_CLAIM).not.toMatch(/every fill path is non-flammable/);
   });
 
   it("one wording: the plan's review words the states and paths short of a hazardous mixture the same", () => {
@@ -52,7 +59,12 @@ describe('describeSaferOrder', () => {
   });
 
   it('describeFinding words safer-order by it', () => {
-    const f = { severity: 'warning', code: 'safer-order', order: ['X', 'Y'], reason: CLEAN_CLAIM } as const;
+    const f = {
+      severity: 'warning',
+      code: 'safer-order',
+      order: ['X', 'Y'],
+      reason: ORDER_REVIEW_CLAIM,
+    } as const;
     expect(describeFinding(f, (pa) => `${pa} Pa`)).toBe(describeSaferOrder(f));
   });
 });

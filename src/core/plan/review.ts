@@ -10,7 +10,7 @@ import { R } from '../constants.js';
 import type { VirialModel } from '../mixture-eos.js';
 import { virialU } from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
-import { CLEAN_CLAIM, COMPARED_CLAIM, ORDER_RELEVANT } from '../order.js';
+import { CLEAN_CLAIM, COMPARED_CLAIM, ORDER_RELEVANT, ORDER_REVIEW_CLAIM } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
 import { SHORT_OF_MIXTURE_CLAIM } from '../order-words.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
@@ -156,8 +156,8 @@ export function safetyClause(findings: readonly Finding[], lastStep: number): st
 }
 
 /**
- * The sequence's reason claims CLEAN_CLAIM from the advice's or the search's review (at ideal-gas
- * or searched pressures, intermediate states only); the claim is replaced by what the plan's own
+ * The sequence's reason claims ORDER_REVIEW_CLAIM from the advice's or the search's review (at ideal-gas
+ * or searched pressures, short of the finished mixture); the claim is replaced by what the plan's own
  * final findings say (safetyClause). A search's comparison with the advised order (COMPARED_CLAIM,
  * counts of its own review, which leaves out the tank's rating and the finished mixture) is
  * followed by what the full review finds, so that the line never reads 0 dangers beside a
@@ -170,7 +170,7 @@ export function correctedReason(
 ): string {
   if (!steps.length) return reason;
   const clause = safetyClause(findings, steps[steps.length - 1].index);
-  if (reason.includes(CLEAN_CLAIM)) return reason.replace(CLEAN_CLAIM, clause);
+  if (reason.includes(ORDER_REVIEW_CLAIM)) return reason.replace(ORDER_REVIEW_CLAIM, clause);
   if (reason.includes(COMPARED_CLAIM) && clause !== CLEAN_CLAIM) return `${reason}; ${clause}`;
   return reason;
 }

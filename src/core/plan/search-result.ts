@@ -4,7 +4,7 @@
  * the table's units): why the chosen sequence won, and a more precise option that is not
  * recommended because of its hazard.
  */
-import { CLEAN_CLAIM, COMPARED_CLAIM, type OrderAdvice } from '../order.js';
+import { COMPARED_CLAIM, ORDER_REVIEW_CLAIM, type OrderAdvice } from '../order.js';
 import { hazardRank } from '../supply-check.js';
 import type { Finding } from '../findings.js';
 import { fillLabel } from '../supply.js';
@@ -125,7 +125,7 @@ export function searchReason(a: {
   const n = `${stats.reviewed} sequences reviewed (orders, split diluent charges, gauges)`;
   if (win === base)
     return `${advice.reason}; of the ${n}, no other that is as safe predicts a smaller U (k = 2)`;
-  const safety = a.clean ? CLEAN_CLAIM : comparedSafety(win, base);
+  const safety = a.clean ? ORDER_REVIEW_CLAIM : comparedSafety(win, base);
   const sameOrder = win.candidate === base.candidate;
   const what = sameOrder
     ? `the advised order ${labels(base).join(', ')}, read on other gauges,`
