@@ -33,7 +33,7 @@ import {
   type CheckOptions,
   type CheckReport,
 } from './check-shared.js';
-import type { PremixCheckRecord, VentRecordOf } from '../report/check-types.js';
+import { readerOf, type PremixCheckRecord, type VentRecordOf } from '../report/check-types.js';
 import { checkCsv } from './check-csv.js';
 import { logRecordOutcome } from './check-recorded.js';
 import { gaugeConversionWords } from './quantity.js';
@@ -220,7 +220,12 @@ export async function checkLog(log: ParsedLog, opts: CheckOptions, withPremix = 
     id: h.id,
     kind: 'log',
     readings: model.readings,
-    readBy: model.readings.map((x) => log.readings.find((r) => r.step === x.step)?.by ?? null),
+    readBy: model.readings.map((x) =>
+      readerOf(
+        log.readings.find((r) => r.step === x.step),
+        log.amendments,
+      ),
+    ),
     result,
     verdict,
     design,

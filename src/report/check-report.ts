@@ -6,6 +6,7 @@ import {
   dangerList,
   hazardList,
   premixCheckText,
+  readByText,
   type AcceptedHazard,
   type AmendmentRecord,
   type CheckReport,
@@ -76,7 +77,7 @@ function mcNote(st: OutputStat): string {
  * where some reading names someone: an older log, or CSV readings, without it read as before)
  */
 function readingsTable(r: CheckReport): string[] {
-  const by = r.readBy?.some((b) => b !== null) ? r.readBy : undefined;
+  const by = r.readBy?.some((b) => b.by !== null || b.corrected) ? r.readBy : undefined;
   const readRows: string[][] = [['#', 'fill', 'gauge', 'absolute pressure', 'T degC', ...(by ? ['by'] : [])]];
   for (const [i, x] of r.readings.entries()) {
     const u = isPressureUnit(x.gauge.unit) ? x.gauge.unit : 'Pa';
@@ -89,7 +90,7 @@ function readingsTable(r: CheckReport): string[] {
       x.gauge.id,
       `${fixedSig(fromPa(x.pressurePa, u), 7)} ${u}`,
       (x.temperatureK - 273.15).toFixed(2),
-      ...(by ? [by[i] ?? '(not named)'] : []),
+      ...(by ? [by[i] ? readByText(by[i]) : '(not named)'] : []),
     ]);
   }
   return padTable(readRows, [true, false, false, true, true, false]);
@@ -811,8 +812,11 @@ export function checkToJson(r: CheckReport, version: string): object {
       gauge: x.gauge.id,
       pressure_Pa: x.pressurePa,
       temperature_K: x.temperatureK,
-      // who took it (the log line's initials); null: the line names nobody (an older log), or CSV readings
-      by: r.readBy?.[i] ?? null,
+      // who took it (the initials of the line that first logged it); null: the line names nobody (an
+      // older log, a CSV row without a by); who corrected it, null where it was not corrected (or the
+      // correction names nobody: the corrections below list every one)
+      by: r.readBy?.[i]?.by ?? null,
+      corrected_by: r.readBy?.[i]?.corrected?.by ?? null,
     })),
     design: r.design ? { composition: r.design.composition, phi: r.design.phi ?? null } : null,
     tolerance: r.tolerance,

@@ -45,6 +45,45 @@ export interface LoggedReading {
   readonly line: number;
 }
 
+/** who took a reading, and who corrected it where a correction is in force */
+export interface ReadBy {
+  /** the initials of who read the gauge; null: the line names nobody (an older log) */
+  readonly by: string | null;
+  /** the correction in force (its initials; null where it names nobody); null: not corrected */
+  readonly corrected: { readonly by: string | null } | null;
+}
+
+/**
+ * Who took the reading in force of a step and who corrected it: a correction's `by` is the
+ * corrector's, so the reader is the `by` of the reading it replaced, through every correction
+ * before it (each amendment's `old`); a chain that names no first reading leaves the reader null.
+ */
+export function readerOf(
+  inForce: Pick<LoggedReading, 'kind' | 'by' | 'line'> | undefined,
+  amendments: readonly Pick<AmendmentRecord, 'kind' | 'old' | 'new'>[],
+): ReadBy {
+  if (!inForce) return { by: null, corrected: null };
+  if (inForce.kind !== 'correction') return { by: inForce.by ?? null, corrected: null };
+  let first: Pick<LoggedReading, 'kind' | 'by' | 'line'> | null = inForce;
+  const seen = new Set<number>();
+  while (first?.kind === 'correction' && !seen.has(first.line)) {
+    seen.add(first.line);
+    const line: number = first.line;
+    first = amendments.find((a) => a.kind === 'correction' && a.new?.line === line)?.old ?? null;
+  }
+  return {
+    by: first?.kind === 'reading' ? (first.by ?? null) : null,
+    corrected: { by: inForce.by ?? null },
+  };
+}
+
+/** "AB", "AB; corrected by CD", "(not named); corrected (initials not logged)" */
+export function readByText(r: ReadBy): string {
+  const who = r.by ?? '(not named)';
+  if (!r.corrected) return who;
+  return `${who}; corrected ${r.corrected.by ? `by ${r.corrected.by}` : '(initials not logged)'}`;
+}
+
 /** a correction or a withdrawal, with what it replaced */
 export interface AmendmentRecord {
   readonly kind: 'correction' | 'withdraw';
@@ -66,10 +105,11 @@ export interface CheckReportOf<F extends RecordFinding> {
   readonly kind: 'log' | 'csv';
   readonly readings: readonly CheckedReading[];
   /**
-   * who took each reading (its `by`, the operator's initials), beside `readings`: a log's reading in
-   * force (a correction's by its own); null where the line names nobody (an older log); absent for CSV
+   * who took each reading (its `by`, the operator's initials), beside `readings`, and who corrected
+   * it (readerOf: a correction's `by` is its corrector's, the reading's is the line it replaced);
+   * `by` null where the line names nobody (an older log, a CSV row without a `by`)
    */
-  readonly readBy?: readonly (string | null)[];
+  readonly readBy?: readonly ReadBy[];
   readonly result: UncertaintyResult;
   readonly verdict: CheckVerdict;
   readonly design?: Design;

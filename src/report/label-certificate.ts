@@ -7,7 +7,13 @@
  * functions of this model.
  */
 import { STANDING_CAUTION } from '../core/index.js';
-import { premixCheckText, type CheckReport, type LoggedReading, type LogView } from './check-types.js';
+import {
+  premixCheckText,
+  readerOf,
+  type CheckReport,
+  type LoggedReading,
+  type LogView,
+} from './check-types.js';
 import { premixPressure } from './check-report.js';
 import { COMPOSITION_ALONE_NOT_USABLE } from './check-outcome.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
@@ -236,6 +242,8 @@ function certificateReadings(r: CheckReport, log: LogView | undefined): Certific
     const u = unitOf(x.gauge.unit);
     const dec = Math.max(0, decimalsFor(fromPa(x.gauge.resolutionPa, u)));
     const lr = byStep.get(x.step);
+    // who read the gauge (a correction's own initials are its corrector's: said in the note)
+    const who = readerOf(lr, r.amendments);
     return {
       step: x.step,
       fill: `${x.source.id}${chargeSuffix(chargeOfStep.get(x.step))}`,
@@ -244,10 +252,12 @@ function certificateReadings(r: CheckReport, log: LogView | undefined): Certific
       absolute: `${fromPa(x.pressurePa, u).toFixed(dec)} ${u}`,
       temperature: `${(x.temperatureK - 273.15).toFixed(2)} degC`,
       time: lr?.time ? shortTime(lr.time) : '-',
-      by: lr?.by ?? '-',
+      by: who.by ?? '-',
       note: [
         lr && dangerLines.has(lr.line) ? 'DANGER: past a limit, see the findings' : '',
-        lr?.kind === 'correction' ? `corrected (replaces line ${lr.replaces_line ?? '?'})` : '',
+        lr?.kind === 'correction'
+          ? `corrected${who.corrected?.by ? ` by ${who.corrected.by}` : ''} (replaces line ${lr.replaces_line ?? '?'})`
+          : '',
         lr?.note ?? '',
       ]
         .filter(Boolean)

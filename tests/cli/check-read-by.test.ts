@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
+import { appendEvent, readLog } from '../../src/io/batch-log.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { runCli } from '../helpers.js';
 import { logAtTargets } from '../log-at-targets.js';
@@ -53,6 +54,50 @@ describe('check: who took each reading', () => {
     ]);
   });
 
+  it('a corrected reading: by names who read the gauge, not the corrector; corrected_by names the corrector', async () => {
+    const file = join(dir, 'corrected.jsonl');
+    const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
+    const who: Record<number, string | undefined> = { 1: 'TT', 2: 'AB', 3: undefined, 4: 'TT' };
+    logAtTargets(file, planFill(req.input), req, 'by2', undefined, { byOf: (s) => who[s], close: false });
+    const log = readLog(file);
+    // step 2 (read by AB) corrected by CD, then corrected again by EF; step 3 (nobody named) by CD
+    const fix = (step: number, by: string, minute: number) => {
+      const old = readLog(file).readings.find((r) => r.step === step)!;
+      const { line: _l, chain: _c, ...fields } = old as typeof old & { chain?: string };
+      void _l;
+      void _c;
+      appendEvent(file, {
+        ...fields,
+        kind: 'correction',
+        by,
+        reason: 'mistyped',
+        replaces_line: old.line,
+        time: `2026-12-02T09:4${minute}:00Z`,
+      });
+    };
+    expect(log.readings).toHaveLength(4);
+    fix(2, 'CD', 1);
+    fix(2, 'EF', 2);
+    fix(3, 'CD', 3);
+    appendEvent(file, { kind: 'close', time: '2026-12-02T09:50:00Z' });
+    const rows = table((await runCli(['check', file, ...TRIALS])).stdout);
+    expect(rows[0]).toMatch(/T degC {2}by$/);
+    expect(rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, ''))).toEqual([
+      'TT',
+      'AB; corrected by EF',
+      '(not named); corrected by CD',
+      'TT',
+    ]);
+    const j = JSON.parse((await runCli(['check', file, '--json', ...TRIALS])).stdout);
+    type Row = { step: number; by: string | null; corrected_by: string | null };
+    expect(j.readings.map((x: Row) => [x.step, x.by, x.corrected_by])).toEqual([
+      [1, 'TT', null],
+      [2, 'AB', 'EF'],
+      [3, null, 'CD'],
+      [4, 'TT', null],
+    ]);
+  });
+
   it('a log with no initials on its readings (as older logs): no by column, by null in --json', async () => {
     const f = log('none.jsonl', () => undefined);
     const rows = table((await runCli(['check', f, ...TRIALS])).stdout);
@@ -60,7 +105,8 @@ describe('check: who took each reading', () => {
     expect(rows.join('\n')).not.toMatch(/not named|\bby\b/);
     const j = JSON.parse((await runCli(['check', f, '--json', ...TRIALS])).stdout);
     expect(j.readings).toHaveLength(4);
-    expect(j.readings.every((x: { by: unknown }) => x.by === null)).toBe(true);
+    expect(j.readings.every((x: { by: unknown; corrected_by: unknown }) => x.by === null)).toBe(true);
+    expect(j.readings.every((x: { corrected_by: unknown }) => x.corrected_by === null)).toBe(true);
   });
 
   it('CSV readings name nobody: no by column, by null in --json', async () => {

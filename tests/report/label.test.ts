@@ -145,7 +145,8 @@ describe('the label says what the readings say', () => {
   it('a correction written through the log API (by, reason, replaces_line): the label uses it; the certificate lists who, when, old, new, why', async () => {
     const f = rebuilt(PASSING, (file) => {
       appendEvent(file, demoReadings[0]);
-      const at = appendEvent(file, demoReadings[1]).line;
+      // read by RB, corrected by QX: the row names the reader, its note the corrector
+      const at = appendEvent(file, { ...demoReadings[1], by: 'RB' }).line;
       appendEvent(file, {
         ...demoReadings[1],
         kind: 'correction',
@@ -166,9 +167,9 @@ describe('the label says what the readings say', () => {
     expect(c.corrections).toEqual([
       'fill 2: 1480 Torr (line 3) corrected to 1481 Torr (line 4), by QX at 2026-11-30 09:50:00 UTC - digit misread; the original stays in the log',
     ]);
-    expect(c.readings[1].note).toBe('corrected (replaces line 3)');
+    expect(c.readings[1].note).toBe('corrected by QX (replaces line 3)');
     expect(c.readings[1].typed).toBe('1481 Torr');
-    expect(c.readings[1].by).toBe('QX');
+    expect(c.readings[1].by).toBe('RB');
     // a correction is not an edit of the record: no caveat, no record finding
     expect(report.caveats).toEqual([]);
     expect(report.findings).toEqual([]);
