@@ -633,7 +633,11 @@ function describeCommandLineProblem(p: Extract<Problem, { code: CommandLineProbl
     case 'bad-batch-id':
       return `batch id "${p.id}" may hold letters, digits, '.', '_' and '-' only`;
     case 'bad-initials':
-      return `initials "${p.text}" must be 1-6 letters (e.g. --by AB): every reading of the fill is logged with them`;
+      return p.column
+        ? `initials "${p.text}" must be 1-6 letters (e.g. AB), as the guided fill logs them: the by ` +
+            `column names who read the gauge; correct it from the paper record, or leave it empty where ` +
+            `the record names nobody, and check again; nothing was checked`
+        : `initials "${p.text}" must be 1-6 letters (e.g. --by AB): every reading of the fill is logged with them`;
     case 'no-logs-in-folder':
       return 'the folder holds no .jsonl or .csv files; give a folder of batch logs or CSV readings';
     case 'label-needs-log':

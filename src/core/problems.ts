@@ -253,7 +253,12 @@ export type Problem =
   /** a batch id that cannot be a file name */
   | { readonly code: 'bad-batch-id'; readonly id: string }
   /** `fill --by` given something other than initials (1-6 letters) */
-  | { readonly code: 'bad-initials'; readonly text: string }
+  | {
+      readonly code: 'bad-initials';
+      readonly text: string;
+      /** true: a CSV reading's `by` column (else the fill's --by) */
+      readonly column?: boolean;
+    }
   /** `check FOLDER` on a folder without logs or readings */
   | { readonly code: 'no-logs-in-folder' }
   /** `label` given something other than one batch log */

@@ -393,6 +393,8 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     id: b.id,
     kind: 'csv',
     readings,
+    // who read each row (its by column; a CSV records no correction)
+    readBy: rows.map((r) => ({ by: r.by ?? null, corrected: null })),
     result,
     verdict,
     design,

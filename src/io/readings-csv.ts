@@ -1,6 +1,6 @@
 /**
  * Readings typed from a paper record: CSV with the header
- *   species,pressure,temperature[,gauge][,time][,note]
+ *   species,pressure,temperature[,gauge][,time][,by][,note]
  * one row per fill (a charge of its source) in fill order: a source filled in two charges has
  * two rows. The species column names a gas, a premix fill by its gases ("N2+O2") or a
  * cylinder id of the lab profile. Pressure is the reading after that fill and
@@ -100,11 +100,20 @@ export interface CsvReading {
   readonly temperatureK: number;
   readonly gauge?: string;
   readonly time?: string;
+  /** who read the gauge (initials, as the guided fill's --by); undefined: the row names nobody */
+  readonly by?: string;
   readonly note?: string;
 }
 
 const REQUIRED = ['species', 'pressure', 'temperature'];
-const OPTIONAL = ['gauge', 'time', 'note'];
+const OPTIONAL = ['gauge', 'time', 'by', 'note'];
+
+/** a row's `by`: initials as the guided fill takes them (1-6 letters), refused otherwise; empty: nobody named */
+function byOf(text: string | undefined, where: At): string | undefined {
+  if (!text) return undefined;
+  if (!/^[A-Za-z]{1,6}$/.test(text)) fail({ code: 'bad-initials', text, column: true }, where('by'));
+  return text;
+}
 
 /** split one CSV line; double quotes protect commas, "" is a literal quote */
 export function splitCsvLine(line: string): string[] {
@@ -244,6 +253,7 @@ function parseRow(
     temperatureK,
     gauge: gaugeId,
     time: cell('time') || undefined,
+    by: byOf(cell('by'), where),
     note: cell('note') || undefined,
   };
 }

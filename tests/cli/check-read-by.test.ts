@@ -1,9 +1,11 @@
 // `check` lists who took each reading: the `by` the guided fill writes on every reading line (the
 // session's operator), in the readings table (a `by` column) and on each reading of `--json`. A log
 // line without `by` (logs written before readings carried initials) is read as before: no column
-// where no reading names anyone, `(not named)` beside readings that do, `by: null` in the JSON.
+// where no reading names anyone, `(not named)` beside readings that do, `by: null` in the JSON. A
+// corrected reading stays the reading of who took it (`corrected_by` the corrector); a CSV names
+// its readers in an optional `by` column.
 // No computed number is checked here; only what is said of who read the tank.
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -107,6 +109,41 @@ describe('check: who took each reading', () => {
     expect(j.readings).toHaveLength(4);
     expect(j.readings.every((x: { by: unknown; corrected_by: unknown }) => x.by === null)).toBe(true);
     expect(j.readings.every((x: { corrected_by: unknown }) => x.corrected_by === null)).toBe(true);
+  });
+
+  it('a CSV with a by column: who read each row, as for a log; an empty cell names nobody', async () => {
+    const args = ['readings/ch4-phi1-ar98-split.csv', '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', ...TRIALS];
+    const rows = table((await runCli(['check', ...args])).stdout);
+    expect(rows[0]).toMatch(/T degC {2}by$/);
+    expect(rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, ''))).toEqual([
+      'KL',
+      'KL',
+      '(not named)',
+      'MV',
+    ]);
+    const j = JSON.parse((await runCli(['check', ...args, '--json'])).stdout);
+    type Row = { step: number; by: string | null; corrected_by: string | null };
+    expect(j.readings.map((x: Row) => [x.step, x.by, x.corrected_by])).toEqual([
+      [1, 'KL', null],
+      [2, 'KL', null],
+      [3, null, null],
+      [4, 'MV', null],
+    ]);
+  });
+
+  it('a CSV by that is not initials is refused at its line, what to do said; nothing checked', async () => {
+    const f = join(dir, 'bad-by.csv');
+    writeFileSync(
+      f,
+      'species,pressure,temperature,by\nCH4,10.0126 Torr,25 degC,KL\nO2,30.03 Torr,25 degC,K.L.\n' +
+        'Ar,1500.0 Torr,25 degC,KL\n',
+    );
+    const r = await runCli(['check', f, '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', ...TRIALS]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toContain('initials "K.L." must be 1-6 letters');
+    expect(r.stderr).toMatch(/bad-by\.csv:3 by: /);
+    expect(r.stderr).toContain('leave it empty where the record names nobody');
   });
 
   it('CSV readings name nobody: no by column, by null in --json', async () => {
