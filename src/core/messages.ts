@@ -256,7 +256,7 @@ function describeRecheckProblem(p: Extract<Problem, { code: RecheckProblemCode }
       return `${p.got} fields where the header has ${p.expected}`;
     case 'csv-not-rising':
       return (
-        `the reading ${p.text} is not above the previous one` +
+        `the reading ${p.text}${p.torr ? ` (${p.torr})` : ''} is not above the previous one` +
         (p.previous
           ? ` (line ${p.previous.line}: ${p.previous.text}${p.previous.torr ? `, ${p.previous.torr}` : ''})`
           : '') +

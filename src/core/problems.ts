@@ -176,6 +176,8 @@ export type Problem =
   | {
       readonly code: 'csv-not-rising';
       readonly text: string;
+      /** the reading in Torr, where typed in another unit (the two compared in one unit) */
+      readonly torr?: string;
       /** the row before, as typed, with its line; `cause`: the likely cause and what to do, worded by io */
       readonly previous?: { readonly line: number; readonly text: string; readonly torr?: string };
       readonly cause?: string;

@@ -36,6 +36,8 @@ interface PrevRow {
   readonly text: string;
   /** the reading before it (its pressure), if any */
   readonly beforePa?: number;
+  /** the units of the rows before it, as typed ("Torr") */
+  readonly earlierUnits?: readonly string[];
 }
 
 const torr = (pa: number) => `${(pa / TORR_PA).toPrecision(6)} Torr`;
@@ -47,48 +49,123 @@ function shownOf(pa: number, gauge: string | undefined, ctx: CsvContext): number
     : pa;
 }
 
-/** what the previous row's pressure goes past (its gauge's range, the tank's working limit), in words */
-function pastOf(prev: CsvReading, ctx: CsvContext): string[] {
+/** what a pressure on a row's gauge goes past (the gauge's range, the tank's working limit), in words */
+function pastOf(pressurePa: number, gauge: string | undefined, ctx: CsvContext): string[] {
   const out: string[] = [];
-  const fs = prev.gauge !== undefined ? ctx.fullScaleOf?.(prev.gauge) : undefined;
-  if (fs !== undefined && shownOf(prev.pressurePa, prev.gauge, ctx) > fs)
-    out.push(`the range of ${prev.gauge} (${torr(fs)})`);
-  if (ctx.tank?.limitPa !== undefined && prev.pressurePa > ctx.tank.limitPa)
+  const fs = gauge !== undefined ? ctx.fullScaleOf?.(gauge) : undefined;
+  if (fs !== undefined && shownOf(pressurePa, gauge, ctx) > fs)
+    out.push(`the range of ${gauge} (${torr(fs)})`);
+  if (ctx.tank?.limitPa !== undefined && pressurePa > ctx.tank.limitPa)
     out.push(`tank ${ctx.tank.id}'s working limit (${torr(ctx.tank.limitPa)})`);
   return out;
 }
 
+const numberOf = (text: string) => text.trim().split(/\s+/)[0];
+const unitOfText = (text: string) => text.trim().split(/\s+/).slice(1).join(' ');
+
+/** a row's number read in another unit, Pa; undefined where the units agree or it does not parse */
+function readAs(text: string, unit: string, line: number): number | undefined {
+  if (!unit || unitOfText(text) === unit) return undefined;
+  try {
+    return parseQuantity(`${numberOf(text)} ${unit}`, 'pressure', { file: '', line, field: 'pressure' });
+  } catch {
+    return undefined;
+  }
+}
+
+/** one of the two rows that may hold the wrong value or unit, with what points at it */
+interface Suspect {
+  readonly line: number;
+  readonly text: string;
+  /** the limits its value as typed goes past */
+  readonly past: readonly string[];
+  /** read in the other row's unit, it would rise in order (within its gauge's range and the tank's limit) */
+  readonly fits: boolean;
+  /** its unit is that of no row before the two, where those rows agree on the other row's */
+  readonly oddUnit: boolean;
+  /** the other row, whose unit it would take */
+  readonly other: { readonly line: number; readonly unit: string };
+  readonly earlier: readonly string[];
+}
+
+/** how strongly a suspect is pointed at: past a limit as typed most, then rising in the other's unit, then its unit alone */
+const weight = (x: Suspect) => (x.past.length ? 4 : 0) + (x.fits ? 2 : 0) + (x.oddUnit ? 1 : 0);
+
+/** "line 3's value or unit (1480.02 kPa): it is past ...; read as 1480.02 Torr, like line 4, it would rise in order" */
+function suspectWords(x: Suspect): string {
+  const why: string[] = [];
+  if (x.past.length) why.push(`it is past ${x.past.join(' and ')}`);
+  if (x.fits)
+    why.push(
+      `read as ${numberOf(x.text)} ${x.other.unit}, like line ${x.other.line}, it would rise in order`,
+    );
+  if (x.oddUnit)
+    why.push(`the rows before are in ${[...new Set(x.earlier)].join(', ')}, not ${unitOfText(x.text)}`);
+  return `line ${x.line}'s value or unit (${x.text})${why.length ? `: ${why.join('; ')}` : ''}`;
+}
+
 /**
- * The likely cause of a reading not above the one before, and what to do: a previous reading past
- * its gauge's range or the tank's limit, or one whose number in this row's unit would rise, points
- * at that row (a unit or a digit typed wrong); otherwise either row may be wrong.
+ * The likely cause of a reading not above the one before, and what to do. Either row may be the
+ * wrong one: the row before (too high) or this row (too low). Each is weighed: its value as typed
+ * past its gauge's range or the tank's working limit; its number in the other row's unit rising in
+ * order (a unit typed wrong: "1480.02 kPa" for Torr above, "1500.0 Pa" for Torr here), within its
+ * gauge's range and the tank's limit; its unit unlike the rows before. The row with more against it
+ * is named with its reasons, both where they weigh the same; neither, when nothing points at one.
  */
-function notRisingCause(prev: PrevRow, text: string, pressurePa: number, line: number, ctx: CsvContext) {
+function notRisingCause(
+  prev: PrevRow,
+  text: string,
+  pressurePa: number,
+  line: number,
+  gauge: string | undefined,
+  ctx: CsvContext,
+) {
   const p = prev.reading;
-  const past = pastOf(p, ctx);
-  const num = prev.text.trim().split(/\s+/)[0];
-  const unit = text.trim().split(/\s+/).slice(1).join(' ');
-  let asThis: number | undefined;
-  if (unit && prev.text.trim().split(/\s+/).slice(1).join(' ') !== unit)
-    try {
-      asThis = parseQuantity(`${num} ${unit}`, 'pressure', { file: '', line: p.line, field: 'pressure' });
-    } catch {
-      asThis = undefined;
-    }
-  const fits = asThis !== undefined && asThis < pressurePa && asThis > (prev.beforePa ?? 0);
-  if (past.length || fits)
+  const earlier = prev.earlierUnits ?? [];
+  const [prevUnit, thisUnit] = [unitOfText(prev.text), unitOfText(text)];
+  const agree = (u: string) => earlier.length > 0 && earlier.every((e) => e === u);
+  const prevAs = readAs(prev.text, thisUnit, p.line);
+  const thisAs = readAs(text, prevUnit, line);
+  const suspects: Suspect[] = [
+    {
+      line: p.line,
+      text: prev.text,
+      past: pastOf(p.pressurePa, p.gauge, ctx),
+      fits:
+        prevAs !== undefined &&
+        prevAs < pressurePa &&
+        prevAs > (prev.beforePa ?? 0) &&
+        !pastOf(prevAs, p.gauge, ctx).length,
+      oddUnit: prevUnit !== thisUnit && agree(thisUnit),
+      other: { line, unit: thisUnit },
+      earlier,
+    },
+    {
+      line,
+      text,
+      past: pastOf(pressurePa, gauge, ctx),
+      fits: thisAs !== undefined && thisAs > p.pressurePa && !pastOf(thisAs, gauge, ctx).length,
+      oddUnit: prevUnit !== thisUnit && agree(prevUnit),
+      other: { line: p.line, unit: prevUnit },
+      earlier,
+    },
+  ];
+  const [a, b] = suspects.map(weight);
+  if (a === 0 && b === 0)
     return (
-      `Likely cause: line ${p.line}'s value or unit (${prev.text})` +
-      (past.length ? `: it is past ${past.join(' and ')}` : '') +
-      (fits
-        ? `${past.length ? ';' : ':'} read as ${num} ${unit}, like line ${line}, it would rise in order`
-        : '') +
-      `. Correct line ${p.line} from the paper record (the reading as the gauge showed it, with its unit) ` +
-      `and check again; nothing was checked`
+      `Either line ${p.line} or line ${line} has a wrong value or unit, or the rows are not in fill ` +
+      `order: correct them from the paper record and check again; nothing was checked`
+    );
+  const named = a === b ? suspects : [a > b ? suspects[0] : suspects[1]];
+  if (named.length === 1)
+    return (
+      `Likely cause: ${suspectWords(named[0])}. Correct line ${named[0].line} from the paper record ` +
+      `(the reading as the gauge showed it, with its unit) and check again; nothing was checked`
     );
   return (
-    `Either line ${p.line} or line ${line} has a wrong value or unit, or the rows are not in fill ` +
-    `order: correct them from the paper record and check again; nothing was checked`
+    `Likely cause, one of the two: ${suspectWords(named[0])}; or ${suspectWords(named[1])}. Correct the ` +
+    `wrong one from the paper record (the reading as the gauge showed it, with its unit) and check ` +
+    `again; nothing was checked`
   );
 }
 
@@ -236,12 +313,13 @@ function parseRow(
       {
         code: 'csv-not-rising',
         text,
+        ...(/torr$/i.test(text.trim()) ? {} : { torr: torr(pressurePa) }),
         previous: {
           line: prev.reading.line,
           text: prev.text,
           ...(/torr$/i.test(prev.text.trim()) ? {} : { torr: torr(prev.reading.pressurePa) }),
         },
-        cause: notRisingCause(prev, text, pressurePa, line, ctx),
+        cause: notRisingCause(prev, text, pressurePa, line, gaugeId, ctx),
       },
       where('pressure'),
     );
@@ -273,7 +351,12 @@ export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {
       fail({ code: 'csv-field-count', got: cells.length, expected: header.length }, { file, line });
     const n = out.length;
     const prev = n
-      ? { reading: out[n - 1], text: texts[n - 1], beforePa: n > 1 ? out[n - 2].pressurePa : undefined }
+      ? {
+          reading: out[n - 1],
+          text: texts[n - 1],
+          beforePa: n > 1 ? out[n - 2].pressurePa : undefined,
+          earlierUnits: texts.slice(0, n - 1).map(unitOfText),
+        }
       : undefined;
     out.push(parseRow(cells, header, (field) => ({ file, line, field }), ctx, prev));
     texts.push(cells[col]);
