@@ -1,5 +1,6 @@
 /** What every command module is given: the output streams, exit codes and the shared ways out. */
 import { describeProblemAt, ProblemError, type Problem, type Where } from '../core/index.js';
+import { STDERR_STYLE, wrapWords } from '../report/wrap.js';
 
 export interface Streams {
   readonly stdout: { write(s: string): unknown };
@@ -51,23 +52,7 @@ export const STDERR_WIDTH = 80;
 export function wrapForStderr(text: string, width = STDERR_WIDTH): string {
   return text
     .split('\n')
-    .flatMap((line) => {
-      const indent = /^ */.exec(line)![0];
-      const out: string[] = [];
-      let rest = line;
-      let lead = '';
-      while (rest.length > width) {
-        // the last space that fits, past the indent; else the first one after the width
-        const fit = rest.lastIndexOf(' ', width);
-        const at = fit > (lead || indent).length ? fit : rest.indexOf(' ', width);
-        if (at < 0) break;
-        out.push(rest.slice(0, at).trimEnd());
-        lead = `${indent}  `;
-        rest = lead + rest.slice(at + 1).trimStart();
-      }
-      out.push(rest);
-      return out;
-    })
+    .flatMap((line) => wrapWords(line, width, STDERR_STYLE))
     .join('\n');
 }
 

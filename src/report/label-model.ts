@@ -14,6 +14,7 @@ import type { CheckReport, LogView } from './check-types.js';
 import { overallVerdict, type CheckOutcome } from './check-outcome.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { decimalsFor, fixedSig, tankName } from './format.js';
+import { LABEL_STYLE, wrapWords } from './wrap.js';
 
 /** one mole fraction on the label, in mole percent, with its expanded uncertainty U (k = 2) */
 export interface LabelFraction {
@@ -231,30 +232,7 @@ export function recordsDanger(r: CheckReport): boolean {
  * it words (a last row of one word or under 12 characters: a label reads as text, not a stranded word)
  */
 export function wrapLine(text: string, width: number): string[] {
-  if (text.length <= width) return [text];
-  const lead = /^\s*(?:! )?/.exec(text)![0];
-  // a hanging indent of four columns at least (deeper than the line's text): a line of the label starts at
-  // 0 or 2 columns, so a continuation never reads as a line of its own
-  const pad = ' '.repeat(Math.max(4, lead.length + 2));
-  const words = text.slice(lead.length).split(/\s+/).filter(Boolean);
-  const rows: string[][] = [[]];
-  const len = (r: string[]) => pad.length + r.join(' ').length;
-  for (const w of words) {
-    const row = rows[rows.length - 1];
-    if (row.length && len([...row, w]) > width) rows.push([w]);
-    else row.push(w);
-  }
-  // a last row of one word or a few characters ("0.50 %") takes words from the row before it
-  const last = rows[rows.length - 1];
-  const prev = rows[rows.length - 2];
-  while (
-    prev &&
-    (last.length === 1 || last.join(' ').length < 12) &&
-    prev.length > 2 &&
-    len([prev[prev.length - 1], ...last]) <= width
-  )
-    last.unshift(prev.pop()!);
-  return rows.map((r, i) => `${i === 0 ? lead : pad}${r.join(' ')}`);
+  return wrapWords(text, width, LABEL_STYLE);
 }
 
 function offDesign(r: CheckReport): string[] {
