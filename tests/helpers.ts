@@ -75,6 +75,19 @@ export function designOptions(change: DesignChange = {}): string[] {
  * off and each wrapped row (hanging indent, four spaces or more: the label wraps at 76 columns) joined to
  * the row before it, so that a phrase or a clause is found whole, as a reader reads it
  */
+/**
+ * the text certificate of `label` (from its heading on) with each block's rows joined: the certificate
+ * wraps its paragraphs at 80 columns, so a sentence is read whole (blocks are parted by empty lines;
+ * every run of white space made one space)
+ */
+export function certificateFlowed(stdout: string): string {
+  return stdout
+    .slice(stdout.indexOf('BATCH CERTIFICATE'))
+    .split(/\n\s*\n/)
+    .map((b) => b.replace(/\s+/g, ' ').trim())
+    .join('\n');
+}
+
 export function labelBoxText(stdout: string): string {
   return stdout
     .slice(0, stdout.indexOf('BATCH CERTIFICATE'))

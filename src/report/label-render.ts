@@ -2,6 +2,7 @@
 import type { CertificateModel } from './label-certificate.js';
 import { DANGER_HEADLINE, notDesign } from './label-model.js';
 import { padTable } from './format.js';
+import { wrapWords } from './wrap.js';
 
 const esc = (s: string) =>
   s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
@@ -251,7 +252,109 @@ export function certificateToMarkdown(m: CertificateModel): string {
   return out.join('\n');
 }
 
-/** plain text: the label first (what a terminal user wants), then the certificate */
+/** the text certificate's width: every row fits an 80-column terminal or page */
+const TEXT_WIDTH = 80;
+
+/** a paragraph of the text certificate in rows of TEXT_WIDTH, continuations under its text after `lead` */
+function para(line: string, lead: RegExp = /^\s*/, deeper = 2): string[] {
+  return wrapWords(line, TEXT_WIDTH, { lead, deeper, keepSpacing: true, noOrphan: true });
+}
+
+/**
+ * a table indented two columns within TEXT_WIDTH: as one table where it fits, else in parts of its
+ * columns, each led by the first column (the species, the fill number), one under the other
+ */
+function fittedTable(rows: readonly (readonly string[])[], align: readonly boolean[]): string[] {
+  const room = TEXT_WIDTH - 2;
+  const whole = padTable(rows, align);
+  if (whole.every((l) => l.length <= room)) return whole.map((l) => `  ${l}`);
+  const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
+  const groups: number[][] = [[]];
+  let used = widths[0];
+  for (let c = 1; c < widths.length; c++) {
+    const g = groups[groups.length - 1];
+    if (g.length && used + 2 + widths[c] > room) {
+      groups.push([]);
+      used = widths[0];
+    }
+    groups[groups.length - 1].push(c);
+    used += 2 + widths[c];
+  }
+  return groups.flatMap((g, i) => [
+    ...(i ? [''] : []),
+    ...padTable(
+      rows.map((r) => [r[0], ...g.map((c) => r[c])]),
+      [align[0], ...g.map((c) => align[c])],
+    ).map((l) => `  ${l}`),
+  ]);
+}
+
+/** a column's cells without the unit they all share ("Torr"), and that unit (said under its header); else as they are */
+function unitApart(cells: readonly string[]): [string, string[]] {
+  const units = new Set(cells.map((c) => / (\S+)$/.exec(c)?.[1] ?? ''));
+  const [unit] = [...units];
+  if (units.size !== 1 || !unit || !cells.every((c) => /^[-+]?[\d.]+ \S+$/.test(c))) return ['', [...cells]];
+  return [unit, cells.map((c) => c.slice(0, -unit.length - 1))];
+}
+
+/** the composition table: the unit said once in "x +- U" (97.998 +- 0.039 %), a tolerance shared by every design row in the heading */
+function compositionText(m: CertificateModel): string[] {
+  const once = (s: string) => s.replace(/^(\S+) (%|ppm) \+- (\S+) \2$/, '$1 +- $3 $2');
+  const tols = new Set(m.rows.map((r) => r.tolerance).filter((t) => t !== '-'));
+  const shared = tols.size === 1 ? [...tols][0] : undefined;
+  const rows = [
+    ['species', 'design', 'as filled +- U', 'rel. dev.', ...(shared ? [] : ['tolerance']), 'status'],
+    ...m.rows.map((r) => [
+      r.species,
+      r.design,
+      once(r.asFilled),
+      r.deviation,
+      ...(shared ? [] : [r.tolerance]),
+      r.status,
+    ]),
+    ['phi', m.phi[0], once(m.phi[1]), '', ...(shared ? [] : ['']), ''],
+    ['dilution', m.dilution[0], once(m.dilution[1]), '', ...(shared ? [] : ['']), ''],
+  ];
+  return [
+    'COMPOSITION (mole fraction, +- U at k = 2)',
+    ...fittedTable(rows, [false, true, true, true, ...(shared ? [] : [true]), false]),
+    ...(shared ? [`  tolerance ${shared} (relative) on each design fraction`] : []),
+    '',
+  ];
+}
+
+/** the readings: a time on the day the log started without its date; each note under the table */
+function readingsText(m: CertificateModel): string[] {
+  const day = /^\d{4}-\d{2}-\d{2} /.exec(m.created)?.[0];
+  const time = (t: string) => (day && t.startsWith(day) && t.endsWith(' UTC') ? t.slice(day.length, -4) : t);
+  const [typedUnit, typed] = unitApart(m.readings.map((r) => r.typed));
+  const [absUnit, abs] = unitApart(m.readings.map((r) => r.absolute));
+  const [tUnit, temps] = unitApart(m.readings.map((r) => r.temperature));
+  const rows = [
+    ['#', 'fill', 'gauge', 'as read', 'absolute', 'tank T', day ? 'time UTC' : 'time', 'by'],
+    // the units the cells share, under their headers
+    ...(typedUnit || absUnit || tUnit ? [['', '', '', typedUnit, absUnit, tUnit, '', '']] : []),
+    ...m.readings.map((r, i) => [
+      String(r.step),
+      r.fill,
+      r.gauge,
+      typed[i],
+      abs[i],
+      temps[i],
+      time(r.time),
+      r.by,
+    ]),
+  ];
+  const notes = m.readings.filter((r) => r.note).flatMap((r) => para(`  #${r.step}: ${r.note}`));
+  return [
+    `READINGS AS LOGGED${day ? ` (times on ${day.trim()})` : ''}`,
+    ...fittedTable(rows, [true, false, false, true, true, true, false, false]),
+    ...(notes.length ? ['  notes:', ...notes.map((l) => `  ${l}`)] : []),
+    '',
+  ];
+}
+
+/** plain text: the label first (what a terminal user wants), then the certificate, every row within 80 columns */
 export function certificateToText(m: CertificateModel): string {
   const out: string[] = [];
   const rule = '='.repeat(78);
@@ -267,63 +370,38 @@ export function certificateToText(m: CertificateModel): string {
   );
   out.push(
     rule,
-    `BATCH CERTIFICATE  ${m.title}`,
-    `Batch ${m.batchId}    Lab: ${m.lab}`,
-    `Tank ${m.tank}    log started ${m.created}, ${m.closed}`,
+    ...para(`BATCH CERTIFICATE  ${m.title}`, /^BATCH CERTIFICATE {2}/, 0),
+    // the batch and the lab on one line where they fit, else one under the other
+    ...(`Batch ${m.batchId}    Lab: ${m.lab}`.length <= TEXT_WIDTH
+      ? [`Batch ${m.batchId}    Lab: ${m.lab}`]
+      : [...para(`Batch ${m.batchId}`), ...para(`Lab: ${m.lab}`)]),
+    ...para(`Tank ${m.tank}`),
+    ...para(`Log started ${m.created}, ${m.closed}`),
     rule,
     '',
   );
-  out.push(`VERDICT  ${m.verdictText}`, ...m.caveats.map((c) => `         ${c}`), '');
-  out.push('COMPOSITION (mole fraction, +- U at k = 2)');
-  const rows = [
-    ['species', 'design', 'as filled +- U', 'deviation (rel.)', 'tolerance', 'status'],
-    ...m.rows.map((r) => [r.species, r.design, r.asFilled, r.deviation, r.tolerance, r.status]),
-  ];
-  rows.push(['phi', m.phi[0], m.phi[1], '', '', ''], ['dilution', m.dilution[0], m.dilution[1], '', '', '']);
-  out.push(...padTable(rows, [false, true, true, true, true, false]).map((l) => `  ${l}`), '');
-  if (m.premix.length) out.push('PREMIX', ...m.premix.map((p) => `  ${p}`), '');
-  out.push('READINGS AS LOGGED');
-  const rr = [
-    ['#', 'fill', 'gauge', 'as read', 'absolute', 'tank T', 'time', 'by', 'note'],
-    ...m.readings.map((r) => [
-      String(r.step),
-      r.fill,
-      r.gauge,
-      r.typed,
-      r.absolute,
-      r.temperature,
-      r.time,
-      r.by,
-      r.note,
-    ]),
-  ];
-  out.push(
-    ...padTable(rr, [true, false, false, true, true, true, false, false, false]).map((l) => `  ${l}`),
-    '',
-  );
-  out.push(
-    'CORRECTIONS',
-    ...(m.corrections.length ? m.corrections.map((c) => `  ${c}`) : ['  none logged']),
-    '',
-  );
-  out.push(
-    'ACKNOWLEDGEMENTS',
-    ...(m.acknowledgements.length ? m.acknowledgements.map((c) => `  ${c}`) : ['  none logged']),
-    '',
-  );
+  out.push(...para(`VERDICT  ${m.verdictText}`, /^VERDICT {2}/, 0));
+  out.push(...m.caveats.flatMap((c) => para(`         ${c}`)), '');
+  out.push(...compositionText(m));
+  if (m.premix.length) out.push('PREMIX', ...m.premix.flatMap((p) => para(`  ${p}`)), '');
+  out.push(...readingsText(m));
+  const list = (items: readonly string[], none: string) =>
+    items.length ? items.flatMap((c) => para(`  ${c}`)) : [`  ${none}`];
+  out.push('CORRECTIONS', ...list(m.corrections, 'none logged'), '');
+  out.push('ACKNOWLEDGEMENTS', ...list(m.acknowledgements, 'none logged'), '');
   out.push(
     'FINDINGS',
     ...(m.findings.length
-      ? m.findings.map((f) => `  ${f.severity.toUpperCase().padEnd(7)} ${f.text}`)
+      ? m.findings.flatMap((f) => para(`  ${f.severity.toUpperCase().padEnd(7)} ${f.text}`, /^ {2}\S+ +/, 0))
       : ['  none']),
     '',
   );
   out.push(
-    `METHOD: ${m.method}`,
+    ...para(`METHOD: ${m.method}`),
     '',
-    `CAUTION: ${m.caution}`,
+    ...para(`CAUTION: ${m.caution}`),
     '',
-    `mixwright ${m.version} - from ${m.file} - made ${m.generated}`,
+    ...para(`mixwright ${m.version} - from ${m.file} - made ${m.generated}`),
   );
   return out.join('\n') + '\n';
 }

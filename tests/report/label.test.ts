@@ -310,6 +310,22 @@ describe('certificate documents', () => {
   it('Markdown snapshot (failing batch)', async () => {
     expect(certificateToMarkdown(await model(FAILING))).toMatchSnapshot();
   });
+  it('the text certificate: every row within 80 columns (its tables, paragraphs and findings), no word lost', async () => {
+    for (const f of [PASSING, FAILING, 'batches/demo-ch4-phi1-from-premix.jsonl']) {
+      const m = await model(f);
+      const text = certificateToText(m);
+      const wide = text.split('\n').filter((l) => l.length > 80);
+      expect(wide, f).toEqual([]);
+      // the paragraphs wrap, the words stay: the verdict and every finding read whole once flowed
+      const flowed = text.replace(/\s+/g, ' ');
+      expect(flowed).toContain(`VERDICT ${m.verdictText.replace(/\s+/g, ' ')}`);
+      for (const x of m.findings) expect(flowed).toContain(x.text.replace(/\s+/g, ' '));
+      // each reading's note under the readings table, by its fill number
+      for (const r of m.readings.filter((x) => x.note))
+        expect(flowed).toContain(`#${r.step}: ${r.note.replace(/\s+/g, ' ')}`);
+    }
+  });
+
   it('plain-text snapshot (passing batch)', async () => {
     expect(certificateToText(await model(PASSING))).toMatchSnapshot();
   });
