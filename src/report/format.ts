@@ -64,6 +64,29 @@ export function bandWords(
   return inward ? `${finer}; only ${inward.low}${u} reads inside it` : finer;
 }
 
+/**
+ * where no value the gauge displays lies inside a fill's band (inwardBand gives none): the sentence the
+ * fill screen says before the reading and the sheet under the fill, with the nearest displayed value
+ * and on which side of the band it reads (never a stop the gauge cannot show as inside); undefined
+ * where a displayed value lies inside
+ */
+export function noneInsideWords(
+  gaugeId: string,
+  centerPa: number,
+  bandPa: number,
+  unit: PressureUnit,
+  dec: number,
+): string | undefined {
+  if (inwardBand(centerPa, bandPa, unit, dec)) return undefined;
+  const f = 10 ** dec;
+  const center = fromPa(centerPa, unit);
+  const near = Math.round(center * f) / f;
+  return (
+    `NO value ${gaugeId} shows is inside the band: the nearest, ${near.toFixed(dec)} ${unit}, ` +
+    `reads ${near < center ? 'BELOW' : 'ABOVE'} it and is logged outside it. Use a finer gauge if you can`
+  );
+}
+
 export function pressure(pa: number, unit: PressureUnit, sig = 6): string {
   return `${fixedSig(fromPa(pa, unit), sig)} ${unit}`;
 }

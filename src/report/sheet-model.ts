@@ -21,7 +21,15 @@ import {
 } from '../core/index.js';
 import { duration } from './ready-report.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { bandWords, decimalsFor, fixedSig, inwardBand, pressure, tankName } from './format.js';
+import {
+  bandWords,
+  decimalsFor,
+  fixedSig,
+  inwardBand,
+  noneInsideWords,
+  pressure,
+  tankName,
+} from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
@@ -39,6 +47,8 @@ export interface SheetRow {
   readonly high: string;
   /** the band as printed: "low - high", or its half-width where the gauge's display cannot show it */
   readonly band: string;
+  /** where no value the gauge shows lies inside the band: the fill screen's sentence (noneInsideWords) */
+  readonly noneInside?: string;
   readonly unit: string;
   readonly reference: 'absolute' | 'gauge';
   readonly absoluteTarget: string;
@@ -421,6 +431,8 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
   const inward = inwardBand(reading, band, gu, dec);
   const low = inward?.low ?? fromPa(reading - band, gu).toFixed(dec);
   const high = inward?.high ?? fromPa(reading + band, gu).toFixed(dec);
+  // no value the gauge shows inside the band: said as the fill screen says it
+  const noneInside = s.gauge ? noneInsideWords(s.gauge.id, reading, band, gu, dec) : undefined;
   return {
     n: s.index,
     fill: s.species,
@@ -431,6 +443,7 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
     low,
     high,
     band: bandWords(inward, band, s.gauge?.resolutionPa ?? 0, gu, dec),
+    ...(noneInside ? { noneInside } : {}),
     unit: gu,
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),

@@ -110,9 +110,13 @@ export function sheetToHtml(m: SheetModel): string {
         .join('');
       const check = r.check ? checkRowHtml(r.check) : '';
       const charge = r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : '';
-      const note = r.chargeNote
-        ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8">${esc(r.chargeNote)}</td></tr>`
-        : '';
+      const note =
+        (r.noneInside
+          ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8"><b>${esc(r.noneInside)}</b></td></tr>`
+          : '') +
+        (r.chargeNote
+          ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8">${esc(r.chargeNote)}</td></tr>`
+          : '');
       // a band finer than the display step is said in words, which may wrap
       const band = r.band.startsWith('+-') ? '<td>' : '<td class="band">';
       return (
@@ -229,6 +233,7 @@ export function sheetToMarkdown(m: SheetModel): string {
         `| **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ').replace('+-', '±')} ` +
         `| | | | [ ] |`,
     );
+    if (r.noneInside) out.push(`| | **${r.noneInside}** | | | | | | | |`);
     if (r.chargeNote) out.push(`| | ${r.chargeNote} | | | | | | | |`);
   }
   if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
@@ -322,6 +327,7 @@ export function sheetToText(m: SheetModel): string {
       out.push(`  >> fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}: ${c.message}`);
     if (r.check) out.push(`  ${table[k++]}`, `     ^ ${r.check.note}`);
     out.push(`  ${table[checks + i + 1]}`);
+    if (r.noneInside) out.push(`     ^ fill ${r.n}: ${r.noneInside}`);
     if (r.chargeNote) out.push(`     ^ fill ${r.n}: ${r.chargeNote}`);
   });
   if (m.barometer) out.push('', 'BAROMETER', ...m.barometer.map((l) => `  ${l}`));

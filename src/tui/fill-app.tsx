@@ -22,7 +22,7 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
+import { bandWords, decimalsFor, fixedSig, inwardBand, noneInsideWords, tankName } from '../report/format.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
@@ -361,14 +361,8 @@ function bandText(step: FillStep, centerPa: number, unit: PressureUnit, dec: num
  * displayed value and on which side of the band it reads (never a stop the gauge cannot show as inside)
  */
 function noneInsideText(step: FillStep, centerPa: number, unit: PressureUnit, dec: number) {
-  if (!step.gauge || inwardBand(centerPa, step.bandPa, unit, dec)) return undefined;
-  const f = 10 ** dec;
-  const center = fromPa(centerPa, unit);
-  const near = Math.round(center * f) / f;
-  return (
-    `! NO value ${step.gauge.id} shows is inside the band: the nearest, ${near.toFixed(dec)} ${unit}, ` +
-    `reads ${near < center ? 'BELOW' : 'ABOVE'} it and is logged outside it. Use a finer gauge if you can`
-  );
+  const words = step.gauge && noneInsideWords(step.gauge.id, centerPa, step.bandPa, unit, dec);
+  return words ? `! ${words}` : undefined;
 }
 
 function ErrorLine({ state }: ScreenProps) {
