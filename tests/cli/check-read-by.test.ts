@@ -34,25 +34,32 @@ function table(stdout: string): string[] {
   return lines.slice(head, end);
 }
 
+/**
+ * `check ARGS` as text and --json: the by column's cells (the header ends in it) and each JSON
+ * reading's [step, by, corrected_by]
+ */
+async function whoRead(args: readonly string[]): Promise<{ cells: string[]; json: unknown[][] }> {
+  const rows = table((await runCli(['check', ...args, ...TRIALS])).stdout);
+  expect(rows[0]).toMatch(/T degC {2}by$/);
+  const j = JSON.parse((await runCli(['check', ...args, '--json', ...TRIALS])).stdout);
+  type Row = { step: number; by: string | null; corrected_by: string | null };
+  return {
+    cells: rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, '')),
+    json: j.readings.map((x: Row) => [x.step, x.by, x.corrected_by]),
+  };
+}
+
 describe('check: who took each reading', () => {
   it('a log whose readings name their operators: a by column and by in --json, reading by reading', async () => {
     const who: Record<number, string | undefined> = { 1: 'TT', 2: 'AB', 3: undefined, 4: 'TT' };
     const f = log('mixed.jsonl', (s) => who[s]);
-    const r = await runCli(['check', f, ...TRIALS]);
-    const rows = table(r.stdout);
-    expect(rows[0]).toMatch(/T degC {2}by$/);
-    expect(rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, ''))).toEqual([
-      'TT',
-      'AB',
-      '(not named)',
-      'TT',
-    ]);
-    const j = JSON.parse((await runCli(['check', f, '--json', ...TRIALS])).stdout);
-    expect(j.readings.map((x: { step: number; by: string | null }) => [x.step, x.by])).toEqual([
-      [1, 'TT'],
-      [2, 'AB'],
-      [3, null],
-      [4, 'TT'],
+    const w = await whoRead([f]);
+    expect(w.cells).toEqual(['TT', 'AB', '(not named)', 'TT']);
+    expect(w.json).toEqual([
+      [1, 'TT', null],
+      [2, 'AB', null],
+      [3, null, null],
+      [4, 'TT', null],
     ]);
   });
 
@@ -82,17 +89,9 @@ describe('check: who took each reading', () => {
     fix(2, 'EF', 2);
     fix(3, 'CD', 3);
     appendEvent(file, { kind: 'close', time: '2026-12-02T09:50:00Z' });
-    const rows = table((await runCli(['check', file, ...TRIALS])).stdout);
-    expect(rows[0]).toMatch(/T degC {2}by$/);
-    expect(rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, ''))).toEqual([
-      'TT',
-      'AB; corrected by EF',
-      '(not named); corrected by CD',
-      'TT',
-    ]);
-    const j = JSON.parse((await runCli(['check', file, '--json', ...TRIALS])).stdout);
-    type Row = { step: number; by: string | null; corrected_by: string | null };
-    expect(j.readings.map((x: Row) => [x.step, x.by, x.corrected_by])).toEqual([
+    const w = await whoRead([file]);
+    expect(w.cells).toEqual(['TT', 'AB; corrected by EF', '(not named); corrected by CD', 'TT']);
+    expect(w.json).toEqual([
       [1, 'TT', null],
       [2, 'AB', 'EF'],
       [3, null, 'CD'],
@@ -112,18 +111,9 @@ describe('check: who took each reading', () => {
   });
 
   it('a CSV with a by column: who read each row, as for a log; an empty cell names nobody', async () => {
-    const args = ['readings/ch4-phi1-ar98-split.csv', '--recipe', 'recipes/ch4-o2-ar-phi1.yaml', ...TRIALS];
-    const rows = table((await runCli(['check', ...args])).stdout);
-    expect(rows[0]).toMatch(/T degC {2}by$/);
-    expect(rows.slice(1).map((l) => l.replace(/.*\d\.\d\d {2}/, ''))).toEqual([
-      'KL',
-      'KL',
-      '(not named)',
-      'MV',
-    ]);
-    const j = JSON.parse((await runCli(['check', ...args, '--json'])).stdout);
-    type Row = { step: number; by: string | null; corrected_by: string | null };
-    expect(j.readings.map((x: Row) => [x.step, x.by, x.corrected_by])).toEqual([
+    const w = await whoRead(['readings/ch4-phi1-ar98-split.csv', '--recipe', 'recipes/ch4-o2-ar-phi1.yaml']);
+    expect(w.cells).toEqual(['KL', 'KL', '(not named)', 'MV']);
+    expect(w.json).toEqual([
       [1, 'KL', null],
       [2, 'KL', null],
       [3, null, null],
