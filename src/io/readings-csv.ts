@@ -88,7 +88,7 @@ interface Suspect {
   readonly earlier: readonly string[];
 }
 
-/** how strongly a suspect is pointed at: past a limit as typed most, then rising in the other's unit, then its unit alone */
+/** how strongly a suspect is pointed at: past a limit as typed most, then rising in the other's unit, then its unit */
 const weight = (x: Suspect) => (x.past.length ? 4 : 0) + (x.fits ? 2 : 0) + (x.oddUnit ? 1 : 0);
 
 /** "line 3's value or unit (1480.02 kPa): it is past ...; read as 1480.02 Torr, like line 4, it would rise in order" */

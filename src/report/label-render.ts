@@ -289,15 +289,23 @@ function fittedTable(rows: readonly (readonly string[])[], align: readonly boole
   ]);
 }
 
-/** a column's cells without the unit they all share ("Torr"), and that unit (said under its header); else as they are */
+/**
+ * a column's cells without the unit they all share ("Torr"), and that unit (said under its header);
+ * else the cells as they are
+ */
 function unitApart(cells: readonly string[]): [string, string[]] {
-  const units = new Set(cells.map((c) => / (\S+)$/.exec(c)?.[1] ?? ''));
+  // a row without a value ("-": a vent) has no unit to share
+  const valued = cells.filter((c) => c !== '-');
+  const units = new Set(valued.map((c) => / (\S+)$/.exec(c)?.[1] ?? ''));
   const [unit] = [...units];
-  if (units.size !== 1 || !unit || !cells.every((c) => /^[-+]?[\d.]+ \S+$/.test(c))) return ['', [...cells]];
-  return [unit, cells.map((c) => c.slice(0, -unit.length - 1))];
+  if (units.size !== 1 || !unit || !valued.every((c) => /^[-+]?[\d.]+ \S+$/.test(c))) return ['', [...cells]];
+  return [unit, cells.map((c) => (c === '-' ? c : c.slice(0, -unit.length - 1)))];
 }
 
-/** the composition table: the unit said once in "x +- U" (97.998 +- 0.039 %), a tolerance shared by every design row in the heading */
+/**
+ * the composition table: the unit said once in "x +- U" (97.998 +- 0.039 %), a tolerance shared by
+ * every design row said under it
+ */
 function compositionText(m: CertificateModel): string[] {
   const once = (s: string) => s.replace(/^(\S+) (%|ppm) \+- (\S+) \2$/, '$1 +- $3 $2');
   const tols = new Set(m.rows.map((r) => r.tolerance).filter((t) => t !== '-'));
@@ -345,7 +353,8 @@ function readingsText(m: CertificateModel): string[] {
       r.by,
     ]),
   ];
-  const notes = m.readings.filter((r) => r.note).flatMap((r) => para(`  #${r.step}: ${r.note}`));
+  // by number and fill: the rows after a vent share their fill's number
+  const notes = m.readings.filter((r) => r.note).flatMap((r) => para(`  #${r.step} ${r.fill}: ${r.note}`));
   return [
     `READINGS AS LOGGED${day ? ` (times on ${day.trim()})` : ''}`,
     ...fittedTable(rows, [true, false, false, true, true, true, false, false]),

@@ -322,7 +322,7 @@ describe('certificate documents', () => {
       for (const x of m.findings) expect(flowed).toContain(x.text.replace(/\s+/g, ' '));
       // each reading's note under the readings table, by its fill number
       for (const r of m.readings.filter((x) => x.note))
-        expect(flowed).toContain(`#${r.step}: ${r.note.replace(/\s+/g, ' ')}`);
+        expect(flowed).toContain(`#${r.step} ${r.fill}: ${r.note.replace(/\s+/g, ' ')}`);
     }
   });
 
