@@ -522,10 +522,11 @@ function verdictLine(report: CheckReport | undefined): string | undefined {
  * what the end screen's title says of a finished batch: how the last fill ended against its target (as
  * computed from the readings, fillEnding); "all fills logged" only where every fill reached its band
  */
-export function endWords(s: FillState): string {
+export function endWords(s: FillState, record: EndRecord = {}): string {
   const K = s.setup.steps.length;
   const e = fillEnding(s);
-  if (!e) return `STOPPED after fill ${s.done.length} of ${K}`;
+  const withdrawn = withdrawnOverLimit(record.report);
+  if (!e) return `${withdrawn ? `${withdrawn}; ` : ''}STOPPED after fill ${s.done.length} of ${K}`;
   const vs = `${e.reached} (target ${e.target})`;
   const head = {
     within: `all ${K} fills logged`,
@@ -538,9 +539,42 @@ export function endWords(s: FillState): string {
   const short = e.short.length
     ? `; fill${many ? 's' : ''} ${e.short.join(', ')} left BELOW ${many ? 'their' : 'its'} band`
     : '';
+  if (withdrawn) return `${withdrawn}; ${head}${short}`;
   if (e.kind !== 'within') return head + short;
   if (short) return `${K} fills logged, the last within its band${short}`;
-  return e.over.length ? `all ${K} fills logged, the last within its band` : `${head}, each within its band`;
+  if (e.over.length) return `all ${K} fills logged, the last within its band`;
+  // "each within its band" only once the re-check has found no withdrawn reading past the limit
+  return record.pending ? `${head} (the re-check of the log follows)` : `${head}, each within its band`;
+}
+
+/** what the end screen's title is told of the re-check: its report, or that it is still running */
+export interface EndRecord {
+  readonly report?: CheckReport;
+  readonly pending?: boolean;
+}
+
+/**
+ * the caution of check's caveat "A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn"
+ * (check-shared verdictCaveats: an above-working-limit finding replaced, not a reading after venting read
+ * again), in the title's words: the end screen's title never reassures while it stands
+ */
+export function withdrawnOverLimit(report: CheckReport | undefined): string | undefined {
+  const over = (report?.findings ?? []).filter(
+    (f): f is Extract<CheckReport['findings'][number], { code: 'above-working-limit' }> =>
+      f.code === 'above-working-limit' && f.replaced && !f.ventedAgain,
+  );
+  if (!over.length) return undefined;
+  // the numbers as check's caveat gives them (6 significant digits, trailing zeros dropped)
+  const shown = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
+  const at = over
+    .map(
+      (f) => `fill ${f.step ?? '?'}: ${shown(f.pressurePa, f.unit)} vs the limit ${shown(f.limitPa, f.unit)}`,
+    )
+    .join('; ');
+  return (
+    `A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn (${at}): ` +
+    `the tank may have been above its limit`
+  );
 }
 
 /** what the end screen's first page shows (endLayout) */
@@ -624,8 +658,11 @@ function EndScreen({
     else if (input === 'n') setLabelPart((k) => k + 1);
     else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
   });
+  const withdrawn = withdrawnOverLimit(report);
   const title = `${fillTitle(h)} - ${
-    state.phase === 'done' ? endWords(state) : `STOPPED after fill ${state.current} of ${K}`
+    state.phase === 'done'
+      ? endWords(state, { report, pending: recheck && !check })
+      : `${withdrawn ? `${withdrawn}; ` : ''}STOPPED after fill ${state.current} of ${K}`
   }`;
   const verdict = verdictLine(report);
   const logLine = `The log's full budget: \`mixwright check ${logFile}\``;

@@ -1,0 +1,95 @@
+// The end screen's title never reassures while check's caution of a reading logged past the tank's
+// working limit (then corrected or withdrawn) stands beside the verdict: the title names it first, in
+// check's words, and says "each within its band" only when the re-check found no such reading.
+import { describe, expect, it } from 'vitest';
+import { render } from 'ink-testing-library';
+import { planFill } from '../../src/core/index.js';
+import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { checkLog, headerFromPlan } from '../../src/io/check.js';
+import { parseLog, type NewLogEvent } from '../../src/io/batch-log.js';
+import { FillApp } from '../../src/tui/fill-app.js';
+import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { fromPa } from '../../src/report/units.js';
+
+const NOW = '2026-12-01T01:00:00Z';
+
+async function until(cond: () => boolean, what: string, ms = 15000): Promise<void> {
+  const t0 = Date.now();
+  while (!cond()) {
+    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 10));
+  }
+}
+
+const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
+const req = buildPlanRequest(rs);
+const header = headerFromPlan(planFill(req.input), req, 'w1', '2026-12-01T00:00:00Z');
+
+/** type, Enter; an event logged is acknowledged with its line (the log's lines: the header is line 1) */
+function entry(s: FillState, text: string, events: NewLogEvent[]): FillState {
+  let r = fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
+  for (const e of r.effects) {
+    events.push(e);
+    if (e.kind === 'reading') r = fillReducer(r, { type: 'logged', step: e.step, line: events.length + 1 });
+  }
+  return { ...r, effects: [] };
+}
+
+/** the demo recipe filled at its targets, fill 4 first typed 2800 Torr (past MT-1's limit) then withdrawn */
+function withdrawnOverLimitFill() {
+  const events: NewLogEvent[] = [];
+  let s = initialState(setupFromHeader(header));
+  for (const t of ['10.01', '480.81', '500.82']) s = entry(s, t, events);
+  s = entry(s, '2800', events);
+  expect(s.phase).toBe('over-limit');
+  s = entry(s, 'edit JD', events);
+  expect(events.map((e) => e.kind)).toContain('withdraw');
+  s = entry(s, fromPa(s.targetsPa[3], 'Torr').toFixed(1), events);
+  expect(s.phase).toBe('done');
+  const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'w1.jsonl');
+  return { s, log };
+}
+
+async function endFrame(s: FillState, log: ReturnType<typeof parseLog>): Promise<string> {
+  const report = await checkLog(log, { trials: 0, seed: 1 });
+  const recheck = async () => ({ report, log });
+  const app = <FillApp initial={s} write={() => {}} logFile="w1.jsonl" recheck={recheck} />;
+  const ui = render(app);
+  Object.defineProperty(ui.stdout, 'columns', { get: () => 80 });
+  ui.rerender(app);
+  await until(() => !!ui.lastFrame()?.includes('Re-check of the log'), 'the re-check');
+  const f = ui.lastFrame()!;
+  ui.unmount();
+  return f;
+}
+
+describe('the end screen title after a reading past the working limit was withdrawn', () => {
+  it('names the withdrawn reading against the limit (as check words it), never "each within its band"', async () => {
+    const { s, log } = withdrawnOverLimitFill();
+    const f = await endFrame(s, log);
+    const rows = f.split('\n');
+    expect(rows.length, f).toBeLessThanOrEqual(24);
+    for (const r of rows) expect(r.length, r).toBeLessThanOrEqual(80);
+    const flat = f.replace(/\s+/g, ' ');
+    // the caveat beside the verdict, as check words it (check-shared verdictCaveats)
+    expect(flat).toContain('! A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn');
+    // the title: the batch, then the caution, its reading against the limit (MT-1: 4 bar x 0.9 = 2700.22
+    // Torr, the demo lab profile), then how the fills ended
+    const title = flat.slice(0, flat.indexOf('fill 4 (Ar'));
+    expect(title).toMatch(
+      /^mixwright fill w1 - A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn \(fill 4: 2800 Torr vs the limit 2700\.22 Torr\): the tank may have been above its limit; all 4 fills logged $/,
+    );
+    expect(flat).not.toContain('each within its band');
+  });
+
+  it('the same fill without the over-limit reading: "each within its band" once the re-check is in', async () => {
+    const events: NewLogEvent[] = [];
+    let s = initialState(setupFromHeader(header));
+    for (const t of ['10.01', '480.81', '500.82']) s = entry(s, t, events);
+    s = entry(s, fromPa(s.targetsPa[3], 'Torr').toFixed(1), events);
+    const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'w1.jsonl');
+    const f = await endFrame(s, log);
+    expect(f.split('\n')[0]).toBe('mixwright fill w1 - all 4 fills logged, each within its band');
+    expect(f).not.toContain('ABOVE THE WORKING LIMIT');
+  });
+});
