@@ -32,7 +32,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
-import type { BelowWays } from './fill-review.js';
+import { avoidedDangers, planDangerNow, type BelowWays } from './fill-review.js';
 import { Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
@@ -1076,12 +1076,14 @@ export function adviceOf(message: string, max = 120): string {
  */
 function StepDangers({ state }: ScreenProps) {
   const index = state.setup.steps[state.current].index;
-  const plan = state.setup.dangers.filter((d) => d.step === index);
+  // a plan danger the review of the current targets avoids is said so (computed), never as if it stood
+  const avoided = avoidedDangers(state, index);
+  const plan = state.setup.dangers.filter((d) => d.step === index && !avoided.includes(d.code));
   const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
   const warnings = (state.setup.header.findings ?? []).filter(
     (f) => f.severity === 'warning' && f.step === index,
   );
-  if (!plan.length && !review.length && !warnings.length) return null;
+  if (!plan.length && !avoided.length && !review.length && !warnings.length) return null;
   return (
     <Box flexDirection="column">
       {plan.map((d, i) => (
@@ -1089,6 +1091,13 @@ function StepDangers({ state }: ScreenProps) {
           DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
         </Para>
       ))}
+      {avoided.length ? (
+        <Para>
+          the plan&apos;s DANGER {avoided.join(', ')} (this fill; accepted at the start): not reached by the
+          re-targeted fills (the review of the current targets does not find{' '}
+          {avoided.length === 1 ? 'it' : 'them'})
+        </Para>
+      ) : null}
       {review.map((h) => (
         <Para key={h.key} bold>
           {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
@@ -1121,7 +1130,13 @@ function stepWhat(state: FillState, words: string): string {
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const { step } = stepView(state);
-  const ds = state.setup.dangers.filter((d) => d.step === step.index);
+  // the plan's dangers as the review of the current (re-targeted) targets finds them: reached (its words
+  // now), avoided (said, not reminded), or not known (the plan's words)
+  const now = state.setup.dangers
+    .filter((d) => d.step === step.index)
+    .map((d) => ({ d, now: planDangerNow(state, d) }));
+  const ds = now.filter((x) => x.now.kind !== 'avoided');
+  const avoided = now.filter((x) => x.now.kind === 'avoided').map((x) => x.d.code);
   const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
   return (
     <Box flexDirection="column">
@@ -1130,11 +1145,19 @@ function ReminderScreen({ state }: ScreenProps) {
         This fill ({step.species} from {step.source.id}) creates the state of the danger finding
         {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
       </Para>
-      {ds.map((d, i) => (
+      {ds.map(({ d, now: n }, i) => (
         <Para key={i}>
-          - {d.code}: {d.message}
+          - {d.code}
+          {n.kind === 'reached' ? ' (as the review of the current targets finds it)' : ''}:{' '}
+          {n.kind === 'reached' ? n.text : d.message}
         </Para>
       ))}
+      {avoided.length ? (
+        <Para>
+          (the plan&apos;s {avoided.join(', ')} at this fill is not reached by the re-targeted fills: the
+          review of the current targets does not find it)
+        </Para>
+      ) : null}
       {rs.length && ds.length ? (
         <Para>and of the danger accepted at the review of the remaining fills (logged):</Para>
       ) : null}

@@ -58,9 +58,11 @@ import {
   belowBandWays,
   tankNowWords,
   onReviewEnter,
+  remindOnlyReached,
   reviewMemoryOf,
   withReview,
   type BelowWays,
+  type PathReview,
   type ReviewHazard,
   type ReviewHooks,
   type ReviewMemory,
@@ -338,6 +340,8 @@ export interface FillState {
   readonly start?: StartGas;
   readonly correcting?: Correcting;
   // the safety review of the re-targeted remainder (fill-review.ts)
+  /** the review of the current remainder: the targets it reviewed and what it found (planDangerNow) */
+  readonly pathReview?: PathReview;
   /** the review screen's content, in phase 'review' */
   readonly review?: ReviewScreen;
   /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
@@ -691,7 +695,8 @@ function enterStep(s: FillState): FillState {
     (s.setup.dangers.some((d) => d.step === stepIndex) ||
       (s.acceptedHazards ?? []).some((h) => h.step === stepIndex && h.severity === 'danger'))
   )
-    return { ...s, phase: 'reminder', input: '' };
+    // only while the current targets reach a danger there (or it is not known avoided): planDangerNow
+    return remindOnlyReached({ ...s, phase: 'reminder', input: '' });
   return { ...s, phase: 'reading' };
 }
 
