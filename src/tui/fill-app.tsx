@@ -2,7 +2,7 @@
  * The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here,
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
-import { useEffect, useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
@@ -199,6 +199,14 @@ export function FillApp({
     if (tankNow) onTankNow?.(tankNow);
   }, [tankNow, onTankNow]);
   const app = useApp();
+  // the ? page of a fill screen (its findings and message whole): the part shown, or undefined
+  // (a ref beside the state: a key may come before the handler of the latest render is attached)
+  const [whole, setWholeState] = useState<number>();
+  const wholeRef = useRef<number | undefined>(undefined);
+  const setWhole = (k: number | undefined) => {
+    wholeRef.current = k;
+    setWholeState(k);
+  };
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
       onInterrupt?.(interruptNote(current()));
@@ -207,6 +215,19 @@ export function FillApp({
     }
     // another Ctrl key (Ctrl-U, Ctrl-A...) is no text: ink hands over its letter, which must not be typed
     if (key.ctrl) return;
+    const part = wholeRef.current;
+    if (part !== undefined) {
+      if (input === 'n') setWhole(part + 1);
+      else if (input === 'p') setWhole(Math.max(0, part - 1));
+      else if (input === 'b' || input === '?' || key.escape || key.return) setWhole(undefined);
+      return;
+    }
+    const cur = current();
+    // ? on a fill screen with nothing typed: no reading starts with it
+    if (input === '?' && cur.phase === 'reading' && cur.field === 'reading' && cur.input === '') {
+      setWhole(0);
+      return;
+    }
     const ph = current().phase;
     if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
       app.exit();
@@ -214,6 +235,7 @@ export function FillApp({
     }
     setState(applyActions(current(), toActions(input, key, now()), write, logFile));
   });
+  if (whole !== undefined && state.phase === 'reading') return <WholeTextPage state={state} part={whole} />;
   return <FillScreen state={state} check={check} recheck={recheck !== undefined} logFile={logFile} />;
 }
 
@@ -736,6 +758,7 @@ function PartsPage({
   rows,
   columns,
   box,
+  back,
 }: {
   readonly title: string;
   readonly lines: readonly string[];
@@ -743,6 +766,8 @@ function PartsPage({
   readonly rows: number;
   readonly columns: number;
   readonly box?: readonly string[];
+  /** the keys that leave the page (the end screen's by default) */
+  readonly back?: string;
 }) {
   const parts = labelParts([], lines, rows - (box ? 5 : 2) - rowsOf(title, columns), columns - (box ? 4 : 0));
   const k = Math.min(part, parts.length - 1);
@@ -759,7 +784,7 @@ function PartsPage({
           </Para>
         ))
       )}
-      <Text>{`${more}b: back   q or Enter: quit`}</Text>
+      <Text>{`${more}${back ?? 'b: back   q or Enter: quit'}`}</Text>
     </Box>
   );
 }
@@ -1060,7 +1085,8 @@ function CorrectScreen({ state }: ScreenProps) {
  * text is on the plan, the sheet, the acknowledgement and the reminder screens
  */
 export function adviceOf(message: string, max = 120): string {
-  const cuts = ['. ', '; ', ': '].map((sep) => message.lastIndexOf(sep) + sep.length);
+  // what to do follows the last sentence, clause or dash ("... 2700.22 Torr - lower the pressure ...")
+  const cuts = ['. ', '; ', ': ', ' - '].map((sep) => message.lastIndexOf(sep) + sep.length);
   const at = Math.max(...cuts.filter((c) => c > 1 && c < message.length - 8), 0);
   const tail = message.slice(at).replace(/\.$/, '');
   if (tail.length <= max) return tail;
@@ -1068,13 +1094,20 @@ export function adviceOf(message: string, max = 120): string {
   return `${tail.slice(0, cut > 0 ? cut : max - 3)}...`;
 }
 
+/** a line of a fill screen's findings: its text, and whether it stands out (a danger) */
+interface FindingLine {
+  readonly text: string;
+  readonly bold?: boolean;
+}
+
 /**
  * the plan's findings at this fill, every time its screen is shown, one line each: its dangers
  * (accepted at the start; the full text was on that screen and the reminder), those accepted at a
  * review of the remaining fills, and its warnings (compression heating, oxygen compression: throttle the
- * fill...). Notes and findings of no one fill stay on the plan and the sheet.
+ * fill...). Notes and findings of no one fill stay on the plan and the sheet. `short` (a crowded screen):
+ * each by its name and what to do, in fewer words (the whole text on the ? page)
  */
-function StepDangers({ state }: ScreenProps) {
+export function stepFindingLines(state: FillState, short = false): FindingLine[] {
   const index = state.setup.steps[state.current].index;
   // a plan danger the review of the current targets avoids is said so (computed), never as if it stood
   const avoided = avoidedDangers(state, index);
@@ -1083,40 +1116,52 @@ function StepDangers({ state }: ScreenProps) {
   const warnings = (state.setup.header.findings ?? []).filter(
     (f) => f.severity === 'warning' && f.step === index,
   );
-  if (!plan.length && !avoided.length && !review.length && !warnings.length) return null;
+  const out: FindingLine[] = [];
+  // short: two rows each at 80 columns, the hazard's name and what to do
+  const said = (head: string, text: string) => head + adviceOf(text, short ? 150 - head.length : 120);
+  for (const d of plan)
+    out.push({
+      text: said(`DANGER ${d.code} (${short ? '' : 'this fill; '}accepted at the start): `, d.message),
+      bold: true,
+    });
+  if (avoided.length)
+    out.push({
+      text:
+        `the plan's DANGER ${avoided.join(', ')} (this fill; accepted at the start): not reached by the ` +
+        `re-targeted fills (the review of the current targets does not find ${avoided.length === 1 ? 'it' : 'them'})`,
+    });
+  for (const h of review)
+    out.push({
+      text: short
+        ? said(`${h.severity.toUpperCase()} ${h.code} (accepted at a review, logged): `, h.text)
+        : `${h.severity.toUpperCase()} ${h.code} (this fill; accepted at the review of the remaining fills, ` +
+          `logged): ${h.numbers || h.text}`,
+      bold: true,
+    });
+  for (const f of warnings) {
+    // two screen rows at most
+    const head = `warning ${f.code} (this fill, the plan): `;
+    // a precision warning says what is over the tolerance (its first clause), not its advice
+    const body =
+      f.code === 'predicted-u-over-tolerance'
+        ? f.message.split(':')[0].slice(0, 156 - head.length)
+        : adviceOf(f.message, 156 - head.length);
+    out.push({ text: head + body });
+  }
+  if (plan.length || review.length)
+    out.push({ text: 'Go on only with the protection your procedure requires for it.' });
+  return out;
+}
+
+function FindingLines({ lines }: { readonly lines: readonly FindingLine[] }) {
+  if (!lines.length) return null;
   return (
     <Box flexDirection="column">
-      {plan.map((d, i) => (
-        <Para key={`p${i}`} bold>
-          DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
+      {lines.map((l, i) => (
+        <Para key={i} bold={l.bold}>
+          {l.text}
         </Para>
       ))}
-      {avoided.length ? (
-        <Para>
-          the plan&apos;s DANGER {avoided.join(', ')} (this fill; accepted at the start): not reached by the
-          re-targeted fills (the review of the current targets does not find{' '}
-          {avoided.length === 1 ? 'it' : 'them'})
-        </Para>
-      ) : null}
-      {review.map((h) => (
-        <Para key={h.key} bold>
-          {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
-          logged): {h.numbers || h.text}
-        </Para>
-      ))}
-      {warnings.map((f, i) => {
-        // two screen rows at most
-        const head = `warning ${f.code} (this fill, the plan): `;
-        // a precision warning says what is over the tolerance (its first clause), not its advice
-        const body =
-          f.code === 'predicted-u-over-tolerance'
-            ? f.message.split(':')[0].slice(0, 156 - head.length)
-            : adviceOf(f.message, 156 - head.length);
-        return <Para key={`w${i}`}>{head + body}</Para>;
-      })}
-      {plan.length || review.length ? (
-        <Para>Go on only with the protection your procedure requires for it.</Para>
-      ) : null}
     </Box>
   );
 }
@@ -1492,29 +1537,60 @@ export function gasCaution(composition: Readonly<Record<string, number>>): strin
 }
 
 /**
- * the rows a fill screen takes with the composition in full (an estimate, rowsOf): more than the
- * terminal has, the composition is shown compact (the species outside on one row)
+ * the fill screen in `rows` (`fixed`: the rows of its parts that are always whole: the title, the gas,
+ * the gauge, the box, the fields, the error and the keys), shortened step by step until it fits: the
+ * composition compact (the species outside on one row: `crowded`), then the findings each by its name and
+ * what to do (stepFindingLines short), then the message cut to the rows left (? shows the whole text)
  */
-function readingRows(state: FillState, band: string, columns: number): number {
+export function readingFit(state: FillState, fixed: number, rows: number, columns: number) {
+  const linesRows = (ls: readonly FindingLine[]) => ls.reduce((n, l) => n + rowsOf(l.text, columns), 0);
+  const j = state.error ? undefined : state.judgement;
+  const jFull = j ? 1 + j.deviations.length : 0;
+  const jCompact = j ? 2 : 0;
+  const message = state.error ? '' : (state.message ?? ' ');
+  const messageRows = message ? rowsOf(message, columns) : 1;
+  const full = stepFindingLines(state);
+  const room = rows - 1;
+  const total = (ls: readonly FindingLine[], jr: number, mr: number) => fixed + linesRows(ls) + jr + mr;
+  if (total(full, jFull, messageRows) <= room)
+    return { lines: full, message, shortened: false, crowded: false };
+  if (total(full, jCompact, messageRows) <= room)
+    return { lines: full, message, shortened: false, crowded: true };
+  const short = stepFindingLines(state, true);
+  const left = room - total(short, jCompact, 0);
+  const shown = messageRows <= left ? message : cut(message, Math.max(1, left), columns, '(?: whole text)');
+  return { lines: short, message: shown, shortened: true, crowded: true };
+}
+
+/** the ? page of a fill screen: its findings and its message whole, in parts that fit (n, p); b, Esc or ? goes back */
+function WholeTextPage({ state, part }: ScreenProps & { readonly part: number }) {
+  const { stdout } = useStdout();
   const index = state.setup.steps[state.current].index;
-  const dangers =
-    state.setup.dangers.filter((d) => d.step === index).length +
-    (state.acceptedHazards ?? []).filter((h) => h.step === index).length;
-  const warnings = (state.setup.header.findings ?? []).filter(
-    (f) => f.severity === 'warning' && f.step === index,
-  );
-  const j = state.judgement;
-  const judgement = j && !state.error ? 2 + j.deviations.filter((d) => !d.within).length + 1 : 0;
-  // title, rule, the gas, the gauge (2), isolate or caution (2), the box's edges and target (3), the fields
-  // (2), the error row and the keys (2): 14; then what varies
+  const lines = [
+    ...state.setup.dangers
+      .filter((d) => d.step === index)
+      .map((d) => `- DANGER ${d.code} (the plan; accepted at the start): ${d.message}`),
+    ...(state.acceptedHazards ?? [])
+      .filter((h) => h.step === index)
+      .map(
+        (h) =>
+          `- ${h.severity.toUpperCase()} ${h.code} (accepted at the review of the remaining fills, logged): ` +
+          `${h.numbers ? `${h.numbers}. ` : ''}${h.text}`,
+      ),
+    ...stepFindingLines(state)
+      .filter((l) => !l.bold)
+      .map((l) => l.text),
+    ...(state.message ? [state.message] : []),
+  ];
   return (
-    14 +
-    rowsOf(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
-    dangers * 3 +
-    (dangers ? 1 : 0) +
-    warnings.length * 2 +
-    rowsOf(state.message ?? ' ', columns) +
-    judgement
+    <PartsPage
+      title={`${fillTitle(state.setup.header)} - ${stepWhat(state, 'THE WHOLE TEXT')}`}
+      lines={lines}
+      part={part}
+      rows={stdout?.rows || 24}
+      columns={stdout?.columns || 80}
+      back="b or ?: back to the fill   Ctrl-C: stop"
+    />
   );
 }
 
@@ -1538,8 +1614,27 @@ function ReadingScreen({ state }: ScreenProps) {
   const who = state.operator ?? 'AB';
   const band = bandText(step, shown, unit, dec);
   const noneInside = noneInsideText(step, shown, unit, dec);
-  const crowded =
-    readingRows(state, band, columns) + (noneInside ? rowsOf(noneInside, columns - 6) : 0) > rows - 1;
+  const gaugeLine =
+    `Read on ${step.gauge?.id ?? 'NO GAUGE'}` +
+    (step.gauge?.reference === 'gauge'
+      ? ` (gauge-referenced: reads above ambient; barometer 0000.00 ${unit} typed today)`
+      : ' (absolute)');
+  // the rows always whole: title and rule, the gas, its charge, the gauge, close-off and caution (or a
+  // blank row), the box, the two fields, the error row and the keys
+  const fixed =
+    2 +
+    rowsOf(`Fill ${step.species} from ${step.source.id} (${step.source.label})${intoTank(h)}`, columns) +
+    (isSplit(step.charge) ? 2 : 0) +
+    rowsOf(gaugeLine, columns) +
+    Math.max(1, (isolate.length ? 1 : 0) + (caution ? 1 : 0)) +
+    3 +
+    rowsOf(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
+    (noneInside ? rowsOf(noneInside, columns - 6) : 0) +
+    2 +
+    (state.error ? rowsOf(`! ${state.error}`, columns) : 1) +
+    1;
+  const fit = readingFit(state, fixed, rows, columns);
+  const crowded = fit.crowded;
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1577,15 +1672,17 @@ function ReadingScreen({ state }: ScreenProps) {
         </Text>
         {noneInside ? <Text bold>{noneInside}</Text> : null}
       </Box>
-      <StepDangers state={state} />
+      <FindingLines lines={fit.lines} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
-      <Para>{state.error ? '' : (state.message ?? ' ')}</Para>
+      {fit.message ? <Para>{fit.message}</Para> : null}
       {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
           screen keeps 24 rows */}
       {state.judgement && !state.error ? <JudgementView j={state.judgement} compact={crowded} /> : null}
       <Para>{state.error ? `! ${state.error}` : ' '}</Para>
       <Text>
-        Enter: log Tab: temp undo {who}: undo last fix N {who}: correct Ctrl-C: stop
+        {fit.shortened
+          ? `Enter: log Tab: temp undo ${who}: undo fix N ${who}: correct ?: all text Ctrl-C: stop`
+          : `Enter: log Tab: temp undo ${who}: undo last fix N ${who}: correct Ctrl-C: stop`}
       </Text>
     </Box>
   );
