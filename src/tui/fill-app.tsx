@@ -33,7 +33,7 @@ import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 import { avoidedDangers, planDangerNow, type BelowWays } from './fill-review.js';
-import { Para, ScreenTitle } from './para.js';
+import { Options, Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -975,10 +975,18 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
         {ends}): {next}
       </Para>
       <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
-      <Para>
-        A further reading is logged as a correction of fill {m} (more gas added; the log keeps both). undo AB:
-        withdraw it fix N AB: correct fill N
-      </Para>
+      <Options
+        options={[
+          ['undo AB', 'withdraw it'],
+          ['fix N AB', 'correct fill N'],
+        ]}
+        after={
+          // a refusal names the choices again: the note gives it its row
+          state.error
+            ? undefined
+            : `A further reading: a correction of fill ${m} (more gas added; the log keeps both).`
+        }
+      />
     </Box>
   );
 }
@@ -1001,10 +1009,17 @@ function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) 
       <Para bold={Boolean(w?.tankNow.length)}>
         - close AB (close the batch below the target; the re-check judges it): {tank}
       </Para>
-      <Para>
-        A new reading corrects the logged one (more gas added; the log keeps both). undo AB: withdraw it fix N
-        AB: correct fill N
-      </Para>
+      <Options
+        options={[
+          ['undo AB', 'withdraw it'],
+          ['fix N AB', 'correct fill N'],
+        ]}
+        after={
+          state.error
+            ? undefined
+            : 'A new reading corrects the logged one (more gas added; the log keeps both).'
+        }
+      />
     </Box>
   );
 }
@@ -1212,10 +1227,13 @@ function ReminderScreen({ state }: ScreenProps) {
         </Para>
       ))}
       <Text> </Text>
-      <Para>
-        Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
-        (logged readings are kept)
-      </Para>
+      <Para>Go on only with the protection your procedure requires for it.</Para>
+      <Options
+        options={[
+          ['Enter', 'go on to the fill'],
+          ['Ctrl-C', 'stop (logged readings are kept)'],
+        ]}
+      />
     </Box>
   );
 }
@@ -1228,7 +1246,12 @@ function ConfirmScreen({ state }: ScreenProps) {
       <Text>typed: {pending.done.text}</Text>
       <Para>{pending.reason}</Para>
       <Text> </Text>
-      <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
+      <Options
+        options={[
+          ['y', 'it is right, log it as typed'],
+          ['n', 'back to the reading (not logged)'],
+        ]}
+      />
       <ErrorLine state={state} />
     </Box>
   );
@@ -1244,10 +1267,12 @@ function UnitCheckScreen({ state }: ScreenProps) {
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
       </Para>
       <Text> </Text>
-      <Para>
-        log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
-        (not logged)
-      </Para>
+      <Options
+        options={[
+          ['log INITIALS', `it is right, log ${pending.done.text} as typed (with your initials)`],
+          ['n or Esc', 're-type it (not logged)'],
+        ]}
+      />
     </AskScreen>
   );
 }
@@ -1282,15 +1307,23 @@ function OverLimitScreen({ state }: ScreenProps) {
             `outside): venting keeps the composition, it cannot repair it.`}
       </Para>
       <Text> </Text>
-      <Para>
-        {o.last
-          ? 'vent INITIALS: you vent back (logged; then read the tank after venting: its reading is the ' +
-            "batch's final pressure) "
-          : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there ' +
-            'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
-        accept INITIALS: keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)
-        edit INITIALS: it was mistyped (withdrawn, with a trace)
-      </Para>
+      <Options
+        options={[
+          [
+            'vent INITIALS',
+            o.last
+              ? "you vent back (logged; then read the tank after venting: its reading is the batch's final " +
+                'pressure)'
+              : 'you vent back (logged; then read the tank after venting; the fill stops there and says how ' +
+                'to finish it as a top-up batch: its recipe lines, gases, readings and gauges)',
+          ],
+          [
+            'accept INITIALS',
+            'keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)',
+          ],
+          ['edit INITIALS', 'it was mistyped (withdrawn, with a trace)'],
+        ]}
+      />
     </AskScreen>
   );
 }
@@ -1372,15 +1405,18 @@ function CappedScreen({ state }: ScreenProps) {
       <Para bold>{c.cost}.</Para>
       <Para>Capped targets: {ahead.join('; ')}.</Para>
       <Text> </Text>
-      <Para>
-        - go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
-        {c.outside.length ? ', OFF THE DESIGN' : ''}): {goFound}
-      </Para>
-      <Para>- stop INITIALS: stop the batch here (incomplete): {stopFound}</Para>
-      <Para>
-        undo INITIALS: the last reading was mistyped. Each choice is logged; Ctrl-C stops without one
-        (resuming asks again).
-      </Para>
+      <Options
+        options={[
+          [
+            'go INITIALS',
+            `fill to the capped targets (the tank ends at ${c.finalText}` +
+              `${c.outside.length ? ', OFF THE DESIGN' : ''}): ${goFound}`,
+          ],
+          ['stop INITIALS', `stop the batch here (incomplete): ${stopFound}`],
+          ['undo INITIALS', 'the last reading was mistyped'],
+        ]}
+        after="Each choice is logged; Ctrl-C stops without one (resuming asks again)."
+      />
     </AskScreen>
   );
 }
@@ -1415,12 +1451,18 @@ function PremixScreen({ state }: ScreenProps) {
       </Para>
       {state.message ? <Para>{state.message}</Para> : null}
       <Text> </Text>
-      <Para>
-        {mixed
-          ? `Type the reading of ${pc.tank} and your initials (e.g. ${planned.replace(' Torr', '')} AB); it is logged.`
-          : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
-        stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
-      </Para>
+      <Options
+        options={[
+          mixed
+            ? [
+                `the reading of ${pc.tank} and your initials`,
+                `e.g. ${planned.replace(' Torr', '')} AB (logged)`,
+              ]
+            : ['mixed INITIALS', `once the premix in ${pc.tank} was mixed (logged)`],
+          ['stop INITIALS', 'stop the batch here'],
+          ['undo INITIALS / fix N INITIALS', 'an earlier reading'],
+        ]}
+      />
     </AskScreen>
   );
 }

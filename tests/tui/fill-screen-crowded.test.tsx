@@ -87,7 +87,10 @@ describe('a crowded fill screen at 80 x 24', () => {
     expect(all).toContain('treat this state as a flammable, possibly explosive gas');
     expect(all).toContain(flat(s.message!));
     ui.stdin.write('b');
-    await until(() => !!ui.lastFrame()?.includes("STOP AT 428.02 Torr"), `back to the fill: ${ui.lastFrame()}`);
+    await until(
+      () => !!ui.lastFrame()?.includes('STOP AT 428.02 Torr'),
+      `back to the fill: ${ui.lastFrame()}`,
+    );
     // ? typed after a digit is part of the entry, not the page
     ui.stdin.write('4');
     ui.stdin.write('?');
