@@ -614,8 +614,8 @@ interface EndParts {
 /**
  * the end screen's first page in `rows` x `columns`: the title, the tank above its limit, the verdict, the
  * stage lines, the log line and the keys are whole; every caution is there (cautionRows: shortened or cut
- * where they do not fit whole, c shows them whole); the message takes 2 to 4 rows (m: whole); the label
- * only where all of it fits (l: its own page)
+ * where they do not fit whole, c shows them whole); the message takes the rows left, at least 2 (m:
+ * whole); the label only where all of it fits (l: its own page)
  */
 export function endLayout(p: EndParts, rows: number, columns: number) {
   const keyRow = 1;
@@ -630,9 +630,10 @@ export function endLayout(p: EndParts, rows: number, columns: number) {
   const messageMin = p.message ? Math.min(2, rowsOf(p.message, columns)) : 0;
   const cautions = cautionRows(p.caveats, rows - 1 - others - messageMin, columns);
   const cautionsRows = cautions.lines.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0);
-  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
+  // the message: whole where the rows left hold it, else cut to them, at least 2 (m: whole); the label
+  // comes after it, only where it fits whole
   const message = p.message
-    ? cut(p.message, Math.max(2, Math.min(4, rows - 1 - others - cautionsRows)), columns)
+    ? cut(p.message, Math.max(2, rows - 1 - others - cautionsRows), columns)
     : undefined;
   const fixed = others + cautionsRows + (message ? rowsOf(message, columns) : 0);
   const labelRows = p.label ? 3 + p.label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;

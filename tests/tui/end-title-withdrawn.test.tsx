@@ -93,3 +93,25 @@ describe('the end screen title after a reading past the working limit was withdr
     expect(f).not.toContain('ABOVE THE WORKING LIMIT');
   });
 });
+
+describe('the end screen after the last fill was vented back', () => {
+  it('the message of the reading after venting is whole on the first page while the rows hold it', async () => {
+    const events: NewLogEvent[] = [];
+    let s = initialState(setupFromHeader(header));
+    for (const t of ['10.01', '480.81', '500.82']) s = entry(s, t, events);
+    s = entry(s, '2800', events);
+    s = entry(s, 'vent JD', events);
+    expect(s.phase).toBe('vented');
+    s = entry(s, '1490 JD', events);
+    expect(s.phase).toBe('done');
+    const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'w1.jsonl');
+    const f = await endFrame(s, log);
+    const rows = f.split('\n');
+    expect(rows.length, f).toBeLessThanOrEqual(23);
+    expect(rows[0]).toMatch(/^mixwright fill w1 - CLOSED AFTER VENTING: fill 4 of 4 read 1490 Torr/);
+    // more than 4 rows of message: shown whole, not cut (m is not needed)
+    expect(s.message!.length).toBeGreaterThan(4 * 72);
+    expect(f.replace(/\s+/g, ' ')).toContain(s.message!.replace(/\s+/g, ' '));
+    expect(f).not.toContain('m: the whole message');
+  });
+});
