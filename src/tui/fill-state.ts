@@ -589,12 +589,14 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
       typed: lastRead.reading.replace(/\s+\S+$/, ''),
       logged: true,
     };
+    // the vent target from the targets as they stood at the reading (the re-target of the readings before
+    // it), as the session computed it: the same number before and after the resume
+    const atReading: FillState = { ...before, targetsPa: prior };
     return {
-      ...before,
-      targetsPa: prior,
+      ...atReading,
       phase: 'over-limit',
       pending,
-      overLimit: overLimitOf(before, reading, limit),
+      overLimit: overLimitOf(atReading, reading, limit),
       message:
         `resumed: the reading of fill ${reading.step} (${reading.text}, logged) is ` +
         `above the working limit and no choice was logged`,
