@@ -464,10 +464,50 @@ function AcknowledgeScreen({ state }: ScreenProps) {
   );
 }
 
+/** a text cut at a word to what fits `rows` rows wrapped at `columns` (wrapRows), `more` saying where the rest is */
+function cutToRows(text: string, rows: number, columns: number, more: string): string {
+  if (wrapRows(text, columns) <= rows) return text;
+  let keep = text.length;
+  let out = text;
+  while (keep > 10) {
+    const at = text.lastIndexOf(' ', keep - 1);
+    keep = at > 10 ? at : 10;
+    out = `${text.slice(0, keep)} ... ${more}`;
+    if (wrapRows(out, columns) <= rows) return out;
+  }
+  return out;
+}
+
 /** rows a text takes on a screen this wide (ink wraps at words: a margin for the ragged right edge) */
 export function rowsOf(text: string, columns: number): number {
   const w = Math.max(20, columns - 8);
   return text.split('\n').reduce((n, l) => n + Math.max(1, Math.ceil(l.length / w)), 0);
+}
+
+/**
+ * rows a text takes wrapped at words to `width` columns, as ink wraps it (a word longer than the row is
+ * broken): exact where rowsOf keeps a margin, for a screen that measures its rows to fill them
+ */
+export function wrapRows(text: string, width: number): number {
+  const w = Math.max(10, width);
+  return text.split('\n').reduce((n, line) => {
+    let rows = 1;
+    let used = 0;
+    for (const word of line.split(' ')) {
+      const len = word.length;
+      if (used === 0) used = len;
+      else if (used + 1 + len <= w) used += 1 + len;
+      else {
+        rows++;
+        used = len;
+      }
+      while (used > w) {
+        rows++;
+        used -= w;
+      }
+    }
+    return n + rows;
+  }, 0);
 }
 
 /** the first rows of a long text, cut at a word, for the end screen's first page; `more` says where the rest is */
@@ -1586,12 +1626,12 @@ export function gasCaution(composition: Readonly<Record<string, number>>): strin
  * what to do (stepFindingLines short), then the message cut to the rows left (? shows the whole text)
  */
 export function readingFit(state: FillState, fixed: number, rows: number, columns: number) {
-  const linesRows = (ls: readonly FindingLine[]) => ls.reduce((n, l) => n + rowsOf(l.text, columns), 0);
+  const linesRows = (ls: readonly FindingLine[]) => ls.reduce((n, l) => n + wrapRows(l.text, columns), 0);
   const j = state.error ? undefined : state.judgement;
   const jFull = j ? 1 + j.deviations.length : 0;
   const jCompact = j ? 2 : 0;
   const message = state.error ? '' : (state.message ?? ' ');
-  const messageRows = message ? rowsOf(message, columns) : 1;
+  const messageRows = message ? wrapRows(message, columns) : 1;
   const full = stepFindingLines(state);
   const room = rows - 1;
   const total = (ls: readonly FindingLine[], jr: number, mr: number) => fixed + linesRows(ls) + jr + mr;
@@ -1601,7 +1641,8 @@ export function readingFit(state: FillState, fixed: number, rows: number, column
     return { lines: full, message, shortened: false, crowded: true };
   const short = stepFindingLines(state, true);
   const left = room - total(short, jCompact, 0);
-  const shown = messageRows <= left ? message : cut(message, Math.max(1, left), columns, '(?: whole text)');
+  const shown =
+    messageRows <= left ? message : cutToRows(message, Math.max(1, left), columns, '(?: whole text)');
   return { lines: short, message: shown, shortened: true, crowded: true };
 }
 
@@ -1666,15 +1707,16 @@ function ReadingScreen({ state }: ScreenProps) {
   // blank row), the box, the two fields, the error row and the keys
   const fixed =
     2 +
-    rowsOf(`Fill ${step.species} from ${step.source.id} (${step.source.label})${intoTank(h)}`, columns) +
+    wrapRows(`Fill ${step.species} from ${step.source.id} (${step.source.label})${intoTank(h)}`, columns) +
     (isSplit(step.charge) ? 2 : 0) +
-    rowsOf(gaugeLine, columns) +
+    wrapRows(gaugeLine, columns) +
     Math.max(1, (isolate.length ? 1 : 0) + (caution ? 1 : 0)) +
     3 +
-    rowsOf(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
-    (noneInside ? rowsOf(noneInside, columns - 6) : 0) +
+    // inside the box: its edges and padding take 6 columns
+    wrapRows(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
+    (noneInside ? wrapRows(noneInside, columns - 6) : 0) +
     2 +
-    (state.error ? rowsOf(`! ${state.error}`, columns) : 1) +
+    (state.error ? wrapRows(`! ${state.error}`, columns) : 1) +
     1;
   const fit = readingFit(state, fixed, rows, columns);
   const crowded = fit.crowded;
