@@ -1016,19 +1016,25 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
         {ends}): {next}
       </Para>
       <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
-      <Options
-        options={[
-          ['undo AB', 'withdraw it'],
-          ['fix N AB', 'correct fill N'],
-        ]}
-        after={
-          // a refusal names the choices again: the note gives it its row
-          state.error
-            ? undefined
-            : `A further reading: a correction of fill ${m} (more gas added; the log keeps both).`
-        }
+      <UndoFixOptions
+        state={state}
+        note={`A further reading: a correction of fill ${m} (more gas added; the log keeps both).`}
       />
     </Box>
+  );
+}
+
+/** undo and fix on a below-band screen, one row each, then the note on further readings (not beside a refusal) */
+function UndoFixOptions({ state, note }: ScreenProps & { readonly note: string }) {
+  return (
+    <Options
+      options={[
+        ['undo AB', 'withdraw it'],
+        ['fix N AB', 'correct fill N'],
+      ]}
+      // a refusal names the choices again: the note gives it its row
+      after={state.error ? undefined : note}
+    />
   );
 }
 
@@ -1050,16 +1056,9 @@ function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) 
       <Para bold={Boolean(w?.tankNow.length)}>
         - close AB (close the batch below the target; the re-check judges it): {tank}
       </Para>
-      <Options
-        options={[
-          ['undo AB', 'withdraw it'],
-          ['fix N AB', 'correct fill N'],
-        ]}
-        after={
-          state.error
-            ? undefined
-            : 'A new reading corrects the logged one (more gas added; the log keeps both).'
-        }
+      <UndoFixOptions
+        state={state}
+        note="A new reading corrects the logged one (more gas added; the log keeps both)."
       />
     </Box>
   );

@@ -3,15 +3,12 @@
 // check's words, and says "each within its band" only when the re-check found no such reading.
 import { describe, expect, it } from 'vitest';
 import { render } from 'ink-testing-library';
-import { planFill } from '../../src/core/index.js';
-import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { checkLog, headerFromPlan } from '../../src/io/check.js';
-import { parseLog, type NewLogEvent } from '../../src/io/batch-log.js';
+import { checkLog } from '../../src/io/check.js';
+import { type NewLogEvent } from '../../src/io/batch-log.js';
 import { FillApp } from '../../src/tui/fill-app.js';
-import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { fromPa } from '../../src/report/units.js';
-
-const NOW = '2026-12-01T01:00:00Z';
+import { demoHeader, entry, logOf } from './logged-entry.js';
 
 async function until(cond: () => boolean, what: string, ms = 15000): Promise<void> {
   const t0 = Date.now();
@@ -21,19 +18,7 @@ async function until(cond: () => boolean, what: string, ms = 15000): Promise<voi
   }
 }
 
-const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
-const req = buildPlanRequest(rs);
-const header = headerFromPlan(planFill(req.input), req, 'w1', '2026-12-01T00:00:00Z');
-
-/** type, Enter; an event logged is acknowledged with its line (the log's lines: the header is line 1) */
-function entry(s: FillState, text: string, events: NewLogEvent[]): FillState {
-  let r = fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
-  for (const e of r.effects) {
-    events.push(e);
-    if (e.kind === 'reading') r = fillReducer(r, { type: 'logged', step: e.step, line: events.length + 1 });
-  }
-  return { ...r, effects: [] };
-}
+const header = demoHeader('w1');
 
 /** the demo recipe filled at its targets, fill 4 first typed 2800 Torr (past MT-1's limit) then withdrawn */
 function withdrawnOverLimitFill() {
@@ -46,11 +31,11 @@ function withdrawnOverLimitFill() {
   expect(events.map((e) => e.kind)).toContain('withdraw');
   s = entry(s, fromPa(s.targetsPa[3], 'Torr').toFixed(1), events);
   expect(s.phase).toBe('done');
-  const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'w1.jsonl');
+  const log = logOf(header, events, 'w1.jsonl');
   return { s, log };
 }
 
-async function endFrame(s: FillState, log: ReturnType<typeof parseLog>): Promise<string> {
+async function endFrame(s: FillState, log: ReturnType<typeof logOf>): Promise<string> {
   const report = await checkLog(log, { trials: 0, seed: 1 });
   const recheck = async () => ({ report, log });
   const app = <FillApp initial={s} write={() => {}} logFile="w1.jsonl" recheck={recheck} />;
@@ -87,7 +72,7 @@ describe('the end screen title after a reading past the working limit was withdr
     let s = initialState(setupFromHeader(header));
     for (const t of ['10.01', '480.81', '500.82']) s = entry(s, t, events);
     s = entry(s, fromPa(s.targetsPa[3], 'Torr').toFixed(1), events);
-    const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'w1.jsonl');
+    const log = logOf(header, events, 'w1.jsonl');
     const f = await endFrame(s, log);
     expect(f.split('\n')[0]).toBe('mixwright fill w1 - all 4 fills logged, each within its band');
     expect(f).not.toContain('ABOVE THE WORKING LIMIT');
@@ -104,7 +89,7 @@ describe('the end screen after the last fill was vented back', () => {
     expect(s.phase).toBe('vented');
     s = entry(s, '1490 JD', events);
     expect(s.phase).toBe('done');
-    const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'w1.jsonl');
+    const log = logOf(header, events, 'w1.jsonl');
     const f = await endFrame(s, log);
     const rows = f.split('\n');
     expect(rows.length, f).toBeLessThanOrEqual(23);

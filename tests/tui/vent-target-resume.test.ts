@@ -2,26 +2,13 @@
 // the same number in the session and after a resume (the re-target of the readings before that reading,
 // not the plan's target nor one that counts the over-limit reading).
 import { describe, expect, it } from 'vitest';
-import { planFill } from '../../src/core/index.js';
-import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { headerFromPlan } from '../../src/io/check.js';
-import { parseLog, type NewLogEvent } from '../../src/io/batch-log.js';
-import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
+import { type NewLogEvent } from '../../src/io/batch-log.js';
+import { initialState, setupFromHeader } from '../../src/tui/fill-state.js';
 import { TORR } from '../helpers.js';
+import { demoHeader, entry, logOf } from './logged-entry.js';
 
 const NOW = '2026-12-01T01:00:00Z';
-const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
-const req = buildPlanRequest(rs);
-const header = headerFromPlan(planFill(req.input), req, 'v2', '2026-12-01T00:00:00Z');
-
-function entry(s: FillState, text: string, events: NewLogEvent[]): FillState {
-  let r = fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
-  for (const e of r.effects) {
-    events.push(e);
-    if (e.kind === 'reading') r = fillReducer(r, { type: 'logged', step: e.step, line: events.length + 1 });
-  }
-  return { ...r, effects: [] };
-}
+const header = demoHeader('v2');
 
 describe('the vent target of the last fill read past the working limit', () => {
   it('is the same in the session and after a resume (CH4 read 10.01 Torr for 10.0128: the last target 1499.9 Torr)', () => {
@@ -35,7 +22,7 @@ describe('the vent target of the last fill read past the working limit', () => {
     expect(over.phase).toBe('over-limit');
     expect(over.overLimit!.ventToPa).toBeCloseTo(lastTarget, 6);
     // Ctrl-C on the danger screen: the reading is logged, no choice; resumed from the log
-    const log = parseLog([header, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n', 'v2.jsonl');
+    const log = logOf(header, events, 'v2.jsonl');
     const r = initialState(setupFromHeader(header), log, NOW);
     expect(r.phase).toBe('over-limit');
     // the same vent target, to 1e-6 Pa (one computation from the same readings)
