@@ -62,6 +62,8 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
       ) : (
         <Para>{r.noAlternative}.</Para>
       )}
+      {/* a refusal takes the spacer's row and the note's: the screen keeps 24 rows */}
+      {state.error ? null : <Text> </Text>}
       <Options
         options={[
           ...(cont?.clean ? [['VALUE INITIALS', 'the fill continued'] as const] : []),
@@ -74,7 +76,7 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
           // a refusal names the choices again: the note gives it its row
           state.error
             ? undefined
-            : 'Each choice is logged with the findings in full; Ctrl-C stops (readings stay logged).'
+            : 'Each choice is logged with the findings; Ctrl-C stops (readings stay logged).'
         }
       />
       <Text>
