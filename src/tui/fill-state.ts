@@ -2630,15 +2630,17 @@ function onBelowEnter(s: FillState, now: string): FillState {
   if (!lastFill && /^stop\b/i.test(text)) return stopBelow(s, text, step, last, now);
   if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
-  const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
+  // the example is this fill's own target as its screen shows it (not a number of another batch)
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 2;
+  const example = `${fromPa(shownPa(s, step, s.targetsPa[s.done.length - 1]), unit).toFixed(dec)} AB`;
+  const w = withInitials(text, 'new reading after adding gas', example);
   if ('error' in w)
     return {
       ...s,
+      // short: the ways are on the screen above, each with what it does (the screen keeps 24 rows)
       error: lastFill
-        ? `${w.error}; or undo, fix N or close with initials (above)`
-        : `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
-          'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
-          'INITIALS (stop the batch here, incomplete)',
+        ? `${w.error}; or close, undo or fix N with your initials (the ways above)`
+        : `${w.error}; or next, stop, undo or fix N with your initials (the ways above)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);

@@ -6,6 +6,7 @@ import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
 import { fillReducer, initialState, setupFromHeader } from '../../src/tui/fill-state.js';
 import { splitHeader } from '../split-plan.js';
+import { TORR } from '../helpers.js';
 import { frame80, read } from './frame80.js';
 
 const NOW = '2026-12-01T01:00:00Z';
@@ -46,5 +47,19 @@ describe('the choices of a screen, one row each', () => {
     expect(reminder.phase).toBe('reminder');
     ownRows(frame80(reminder), ['Enter', 'Ctrl-C']);
     expect(fillReducer(reminder, { type: 'enter', now: NOW }).phase).toBe('reading');
+  });
+
+  it("a fill read below its band, an entry refused: the example is that fill's own target, the screen keeps 24 rows", () => {
+    // the split demo (Ar charge 1 stops at 400 Torr): CH4 at its target, the Ar read at 150 Torr
+    const s0 = initialState(setupFromHeader(splitHeader()));
+    const s1 = read(s0, (s0.targetsPa[0] / TORR).toFixed(2), 2);
+    const below = read(s1, '150', 3);
+    expect(below.phase).toBe('below');
+    const refused = read(below, 'hello');
+    expect(refused.error).toMatch(/e\.g\. 400\.00 AB; or next, stop, undo or fix N with your initials/);
+    const f = frame80(refused);
+    expect(f.split('\n').length, f).toBeLessThanOrEqual(24);
+    expect(f.split('\n')[0]).toMatch(/BELOW ITS BAND$/);
+    ownRows(f, ['undo AB', 'fix N AB']);
   });
 });
