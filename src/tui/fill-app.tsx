@@ -899,7 +899,8 @@ function BelowScreen({ state }: ScreenProps) {
         base={fillTitle(h)}
         what={`fill ${m} of ${K}${chargeSuffixOf(ls)}: ${lastFill ? 'BELOW THE TARGET' : 'BELOW ITS BAND'}`}
       />
-      <Para>{state.message ?? ' '}</Para>
+      {/* a refusal stands in for the message (the box keeps the target and the reading): 24 rows */}
+      {state.error ? null : <Para>{state.message ?? ' '}</Para>}
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {stop} {lu}

@@ -98,4 +98,19 @@ describe('a crowded fill screen at 80 x 24', () => {
     expect(ui.lastFrame()).not.toContain('THE WHOLE TEXT');
     ui.unmount();
   });
+
+  it('a fill read below its band with hazards accepted at a review, an entry refused: the title stays', () => {
+    const s1 = read(initialState(setupFromHeader(splitHeader())), '14.0179', 2);
+    const below = read(read(s1, 'accept TT'), '150', 3);
+    expect(below.phase).toBe('below');
+    const refused = read(below, 'hello');
+    expect(refused.error).toBeDefined();
+    const f = frame80(refused);
+    fits(f, /^mixwright fill split-1 - fill 2 of 4 \(Ar, charge 1 of 2\): BELOW ITS BAND$/);
+    // the ways, each with what its review found, and the refusal
+    expect(flat(f)).toContain('still passes the accepted DANGER closed-vessel-pressure (fill 3)');
+    expect(flat(f)).toContain(
+      '! type the new reading after adding gas and then your initials, e.g. 400.00 AB',
+    );
+  });
 });
