@@ -32,7 +32,7 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
-import { avoidedDangers, planDangerNow, type BelowWays } from './fill-review.js';
+import { avoidedDangers, avoidedWarnings, planDangerNow, type BelowWays } from './fill-review.js';
 import { Options, Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
@@ -1169,8 +1169,10 @@ export function stepFindingLines(state: FillState, short = false): FindingLine[]
   const avoided = avoidedDangers(state, index);
   const plan = state.setup.dangers.filter((d) => d.step === index && !avoided.includes(d.code));
   const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
+  // a plan warning the review of the current targets avoids: said so, as a danger is
+  const avoidedW = avoidedWarnings(state, index);
   const warnings = (state.setup.header.findings ?? []).filter(
-    (f) => f.severity === 'warning' && f.step === index,
+    (f) => f.severity === 'warning' && f.step === index && !avoidedW.includes(f.code),
   );
   const out: FindingLine[] = [];
   // short: two rows each at 80 columns, the hazard's name and what to do
@@ -1204,6 +1206,12 @@ export function stepFindingLines(state: FillState, short = false): FindingLine[]
         : adviceOf(f.message, 156 - head.length);
     out.push({ text: head + body });
   }
+  if (avoidedW.length)
+    out.push({
+      text:
+        `the plan's warning ${avoidedW.join(', ')} (this fill): not reached by the re-targeted fills (the ` +
+        `review of the current targets does not find ${avoidedW.length === 1 ? 'it' : 'them'})`,
+    });
   if (plan.length || review.length)
     out.push({ text: 'Go on only with the protection your procedure requires for it.' });
   return out;

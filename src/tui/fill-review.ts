@@ -195,6 +195,13 @@ export function avoidedDangers(s: FillState, step: number): string[] {
     .map((d) => d.code);
 }
 
+/** the plan's warnings at a fill that the re-targeted fills avoid (computed as for a danger), by code */
+export function avoidedWarnings(s: FillState, step: number): string[] {
+  return (s.setup.header.findings ?? [])
+    .filter((f) => f.severity === 'warning' && f.step === step && planDangerNow(s, f).kind === 'avoided')
+    .map((f) => f.code);
+}
+
 /** how each fill's stop is shown: its gauge's resolution (above ambient for a gauge-referenced sensor) */
 function gridOf(s: FillState): (fill: number) => ReadingGrid | undefined {
   return (k) => {

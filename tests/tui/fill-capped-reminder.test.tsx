@@ -57,6 +57,11 @@ describe('the reminder of a plan danger after a capped re-target', () => {
       "the plan's DANGER detonable-state, closed-vessel-pressure (this fill; accepted at the start): not reached by the re-targeted fills",
     );
     expect(f).not.toMatch(/^DANGER detonable-state/m);
+    // the plan's warning of the finished batch (flammable-mixture) is not reached either: said so, not as a warning
+    expect(f).toContain(
+      "the plan's warning flammable-mixture (this fill): not reached by the re-targeted fills",
+    );
+    expect(f).not.toContain('warning flammable-mixture (this fill, the plan)');
   });
 
   it('the fills read at their targets: the reminder stands, the dangers as the review of the current targets finds them', () => {
@@ -67,5 +72,8 @@ describe('the reminder of a plan danger after a capped re-target', () => {
     expect(f).toContain('fill 3 of 3: DANGER AT THIS FILL');
     expect(f).toContain('- detonable-state (as the review of the current targets finds it):');
     expect(f).toContain('- closed-vessel-pressure (as the review of the current targets finds it):');
+    // past the reminder, the fill's screen keeps the plan's warning of the finished batch
+    const screen = flat(frame80(fillReducer(s2, { type: 'enter', now: NOW })));
+    expect(screen).toContain('warning flammable-mixture (this fill, the plan)');
   });
 });
