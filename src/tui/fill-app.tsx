@@ -224,7 +224,10 @@ export function FillApp({
     }
     const cur = current();
     // ? on a fill screen with nothing typed: no reading starts with it
-    if (input === '?' && cur.phase === 'reading' && cur.field === 'reading' && cur.input === '') {
+    if (
+      input === '?' &&
+      (cur.phase === 'reminder' || (cur.phase === 'reading' && cur.field === 'reading' && cur.input === ''))
+    ) {
       setWhole(0);
       return;
     }
@@ -235,7 +238,8 @@ export function FillApp({
     }
     setState(applyActions(current(), toActions(input, key, now()), write, logFile));
   });
-  if (whole !== undefined && state.phase === 'reading') return <WholeTextPage state={state} part={whole} />;
+  if (whole !== undefined && (state.phase === 'reading' || state.phase === 'reminder'))
+    return <WholeTextPage state={state} part={whole} />;
   return <FillScreen state={state} check={check} recheck={recheck !== undefined} logFile={logFile} />;
 }
 
@@ -1239,6 +1243,9 @@ function stepWhat(state: FillState, words: string): string {
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const { step } = stepView(state);
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
   // the plan's dangers as the review of the current (re-targeted) targets finds them: reached (its words
   // now), avoided (said, not reminded), or not known (the plan's words)
   const now = state.setup.dangers
@@ -1247,40 +1254,49 @@ function ReminderScreen({ state }: ScreenProps) {
   const ds = now.filter((x) => x.now.kind !== 'avoided');
   const avoided = now.filter((x) => x.now.kind === 'avoided').map((x) => x.d.code);
   const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
+  const intro =
+    `This fill (${step.species} from ${step.source.id}) creates the state of the danger finding` +
+    (ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):');
+  const whole = [
+    ...ds.map(
+      ({ d, now: n }) =>
+        `- ${d.code}${n.kind === 'reached' ? ' (as the review of the current targets finds it)' : ''}: ` +
+        (n.kind === 'reached' ? n.text : d.message),
+    ),
+    ...(avoided.length
+      ? [
+          `(the plan's ${avoided.join(', ')} at this fill is not reached by the re-targeted fills: the review ` +
+            'of the current targets does not find it)',
+        ]
+      : []),
+    ...(rs.length && ds.length
+      ? ['and of the danger accepted at the review of the remaining fills (logged):']
+      : []),
+    ...rs.map((z) => `- ${z.code}: ${z.numbers}. ${z.text}`),
+  ];
+  // the title, the intro, a spacer, the protection line and the two choices: whole; the dangers whole where
+  // they fit, else each by its name and what to do (? shows them whole)
+  const fixed = 2 + wrapRows(intro, columns) + 1 + 1 + 2;
+  const fits = fixed + whole.reduce((n, l) => n + wrapRows(l, columns), 0) <= rows - 1;
+  const lines = fits
+    ? whole
+    : whole.map((l) => {
+        const m = /^- ([a-z0-9-]+)[^:]*: (.*)$/.exec(l);
+        return m ? `- ${m[1]}: ${adviceOf(m[2], 150 - m[1].length)}` : l;
+      });
   return (
     <Box flexDirection="column">
       <ScreenTitle base={fillTitle(h)} what={stepWhat(state, 'DANGER AT THIS FILL')} />
-      <Para>
-        This fill ({step.species} from {step.source.id}) creates the state of the danger finding
-        {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
-      </Para>
-      {ds.map(({ d, now: n }, i) => (
-        <Para key={i}>
-          - {d.code}
-          {n.kind === 'reached' ? ' (as the review of the current targets finds it)' : ''}:{' '}
-          {n.kind === 'reached' ? n.text : d.message}
-        </Para>
-      ))}
-      {avoided.length ? (
-        <Para>
-          (the plan&apos;s {avoided.join(', ')} at this fill is not reached by the re-targeted fills: the
-          review of the current targets does not find it)
-        </Para>
-      ) : null}
-      {rs.length && ds.length ? (
-        <Para>and of the danger accepted at the review of the remaining fills (logged):</Para>
-      ) : null}
-      {rs.map((h) => (
-        <Para key={h.key}>
-          - {h.code}: {h.numbers}. {h.text}
-        </Para>
+      <Para>{intro}</Para>
+      {lines.map((l, i) => (
+        <Para key={i}>{l}</Para>
       ))}
       <Text> </Text>
       <Para>Go on only with the protection your procedure requires for it.</Para>
       <Options
         options={[
           ['Enter', 'go on to the fill'],
-          ['Ctrl-C', 'stop (logged readings are kept)'],
+          ['Ctrl-C', `stop (logged readings are kept)${fits ? '' : '   ?: the whole text'}`],
         ]}
       />
     </Box>

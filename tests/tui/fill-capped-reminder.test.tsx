@@ -8,6 +8,8 @@ import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { fromPa } from '../../src/report/units.js';
+import { render } from 'ink-testing-library';
+import { FillApp } from '../../src/tui/fill-app.js';
 import { frame80, read } from './frame80.js';
 
 const NOW = '2026-12-01T01:00:00Z';
@@ -75,5 +77,36 @@ describe('the reminder of a plan danger after a capped re-target', () => {
     // past the reminder, the fill's screen keeps the plan's warning of the finished batch
     const screen = flat(frame80(fillReducer(s2, { type: 'enter', now: NOW })));
     expect(screen).toContain('warning flammable-mixture (this fill, the plan)');
+  });
+
+  it('a reminder taller than the terminal (80 x 18): each danger by its name and what to do, ? the whole text', async () => {
+    const s1 = read(acked, target(acked), 2);
+    const s2 = read(s1, target(s1), 3);
+    expect(s2.phase).toBe('reminder');
+    const ui = render(<FillApp initial={s2} write={() => {}} logFile="d1.jsonl" />);
+    Object.defineProperty(ui.stdout, 'columns', { get: () => 80 });
+    Object.defineProperty(ui.stdout, 'rows', { get: () => 18 });
+    ui.rerender(<FillApp initial={s2} write={() => {}} logFile="d1.jsonl" />);
+    const f = ui.lastFrame()!;
+    const rows = f.split('\n');
+    expect(rows.length, f).toBeLessThanOrEqual(18);
+    expect(rows[0]).toBe('mixwright fill d1 - fill 3 of 3: DANGER AT THIS FILL');
+    const t = flat(f);
+    expect(t).toContain(
+      '- detonable-state: lower the pressure of this state, dilute it more, or change the fill order',
+    );
+    expect(t).toContain(
+      '- closed-vessel-pressure: lower the pressure of this state or change the fill order',
+    );
+    expect(t).toContain('?: the whole text');
+    ui.stdin.write('?');
+    for (let k = 0; k < 300 && !ui.lastFrame()!.includes('THE WHOLE TEXT'); k++)
+      await new Promise((r) => setTimeout(r, 10));
+    expect(ui.lastFrame()).toContain('THE WHOLE TEXT');
+    ui.stdin.write('b');
+    for (let k = 0; k < 300 && !ui.lastFrame()!.includes('DANGER AT THIS FILL'); k++)
+      await new Promise((r) => setTimeout(r, 10));
+    expect(ui.lastFrame()).toContain('DANGER AT THIS FILL');
+    ui.unmount();
   });
 });
