@@ -1697,7 +1697,7 @@ function WholeTextPage({ state, part }: ScreenProps & { readonly part: number })
       part={part}
       rows={stdout?.rows || 24}
       columns={stdout?.columns || 80}
-      back="b or ?: back to the fill   Ctrl-C: stop"
+      back="b or ?: back   Ctrl-C: stop"
     />
   );
 }
