@@ -2,7 +2,7 @@
  * The guided fill screen (ink). Thin: the state machine is fill-state.ts; effects are written here,
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
-import { useEffect, useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
@@ -32,8 +32,8 @@ import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
-import type { BelowWays } from './fill-review.js';
-import { Para, ScreenTitle } from './para.js';
+import { avoidedDangers, avoidedWarnings, planDangerNow, type BelowWays } from './fill-review.js';
+import { Options, Para, ScreenTitle } from './para.js';
 
 export interface FillAppProps {
   readonly initial: FillState;
@@ -199,6 +199,14 @@ export function FillApp({
     if (tankNow) onTankNow?.(tankNow);
   }, [tankNow, onTankNow]);
   const app = useApp();
+  // the ? page of a fill screen (its findings and message whole): the part shown, or undefined
+  // (a ref beside the state: a key may come before the handler of the latest render is attached)
+  const [whole, setWholeState] = useState<number>();
+  const wholeRef = useRef<number | undefined>(undefined);
+  const setWhole = (k: number | undefined) => {
+    wholeRef.current = k;
+    setWholeState(k);
+  };
   useInput((input, key) => {
     if (key.ctrl && input === 'c') {
       onInterrupt?.(interruptNote(current()));
@@ -207,6 +215,22 @@ export function FillApp({
     }
     // another Ctrl key (Ctrl-U, Ctrl-A...) is no text: ink hands over its letter, which must not be typed
     if (key.ctrl) return;
+    const part = wholeRef.current;
+    if (part !== undefined) {
+      if (input === 'n') setWhole(part + 1);
+      else if (input === 'p') setWhole(Math.max(0, part - 1));
+      else if (input === 'b' || input === '?' || key.escape || key.return) setWhole(undefined);
+      return;
+    }
+    const cur = current();
+    // ? on a fill screen with nothing typed: no reading starts with it
+    if (
+      input === '?' &&
+      (cur.phase === 'reminder' || (cur.phase === 'reading' && cur.field === 'reading' && cur.input === ''))
+    ) {
+      setWhole(0);
+      return;
+    }
     const ph = current().phase;
     if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
       app.exit();
@@ -214,6 +238,8 @@ export function FillApp({
     }
     setState(applyActions(current(), toActions(input, key, now()), write, logFile));
   });
+  if (whole !== undefined && (state.phase === 'reading' || state.phase === 'reminder'))
+    return <WholeTextPage state={state} part={whole} />;
   return <FillScreen state={state} check={check} recheck={recheck !== undefined} logFile={logFile} />;
 }
 
@@ -436,10 +462,50 @@ function AcknowledgeScreen({ state }: ScreenProps) {
   );
 }
 
+/** a text cut at a word to what fits `rows` rows wrapped at `columns` (wrapRows), `more` saying where the rest is */
+function cutToRows(text: string, rows: number, columns: number, more: string): string {
+  if (wrapRows(text, columns) <= rows) return text;
+  let keep = text.length;
+  let out = text;
+  while (keep > 10) {
+    const at = text.lastIndexOf(' ', keep - 1);
+    keep = at > 10 ? at : 10;
+    out = `${text.slice(0, keep)} ... ${more}`;
+    if (wrapRows(out, columns) <= rows) return out;
+  }
+  return out;
+}
+
 /** rows a text takes on a screen this wide (ink wraps at words: a margin for the ragged right edge) */
 export function rowsOf(text: string, columns: number): number {
   const w = Math.max(20, columns - 8);
   return text.split('\n').reduce((n, l) => n + Math.max(1, Math.ceil(l.length / w)), 0);
+}
+
+/**
+ * rows a text takes wrapped at words to `width` columns, as ink wraps it (a word longer than the row is
+ * broken): exact where rowsOf keeps a margin, for a screen that measures its rows to fill them
+ */
+export function wrapRows(text: string, width: number): number {
+  const w = Math.max(10, width);
+  return text.split('\n').reduce((n, line) => {
+    let rows = 1;
+    let used = 0;
+    for (const word of line.split(' ')) {
+      const len = word.length;
+      if (used === 0) used = len;
+      else if (used + 1 + len <= w) used += 1 + len;
+      else {
+        rows++;
+        used = len;
+      }
+      while (used > w) {
+        rows++;
+        used -= w;
+      }
+    }
+    return n + rows;
+  }, 0);
 }
 
 /** the first rows of a long text, cut at a word, for the end screen's first page; `more` says where the rest is */
@@ -516,10 +582,11 @@ function verdictLine(report: CheckReport | undefined): string | undefined {
  * what the end screen's title says of a finished batch: how the last fill ended against its target (as
  * computed from the readings, fillEnding); "all fills logged" only where every fill reached its band
  */
-export function endWords(s: FillState): string {
+export function endWords(s: FillState, record: EndRecord = {}): string {
   const K = s.setup.steps.length;
   const e = fillEnding(s);
-  if (!e) return `STOPPED after fill ${s.done.length} of ${K}`;
+  const withdrawn = withdrawnOverLimit(record.report);
+  if (!e) return `${withdrawn ? `${withdrawn}; ` : ''}STOPPED after fill ${s.done.length} of ${K}`;
   const vs = `${e.reached} (target ${e.target})`;
   const head = {
     within: `all ${K} fills logged`,
@@ -532,9 +599,42 @@ export function endWords(s: FillState): string {
   const short = e.short.length
     ? `; fill${many ? 's' : ''} ${e.short.join(', ')} left BELOW ${many ? 'their' : 'its'} band`
     : '';
+  if (withdrawn) return `${withdrawn}; ${head}${short}`;
   if (e.kind !== 'within') return head + short;
   if (short) return `${K} fills logged, the last within its band${short}`;
-  return e.over.length ? `all ${K} fills logged, the last within its band` : `${head}, each within its band`;
+  if (e.over.length) return `all ${K} fills logged, the last within its band`;
+  // "each within its band" only once the re-check has found no withdrawn reading past the limit
+  return record.pending ? `${head} (the re-check of the log follows)` : `${head}, each within its band`;
+}
+
+/** what the end screen's title is told of the re-check: its report, or that it is still running */
+export interface EndRecord {
+  readonly report?: CheckReport;
+  readonly pending?: boolean;
+}
+
+/**
+ * the caution of check's caveat "A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn"
+ * (check-shared verdictCaveats: an above-working-limit finding replaced, not a reading after venting read
+ * again), in the title's words: the end screen's title never reassures while it stands
+ */
+export function withdrawnOverLimit(report: CheckReport | undefined): string | undefined {
+  const over = (report?.findings ?? []).filter(
+    (f): f is Extract<CheckReport['findings'][number], { code: 'above-working-limit' }> =>
+      f.code === 'above-working-limit' && f.replaced && !f.ventedAgain,
+  );
+  if (!over.length) return undefined;
+  // the numbers as check's caveat gives them (6 significant digits, trailing zeros dropped)
+  const shown = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
+  const at = over
+    .map(
+      (f) => `fill ${f.step ?? '?'}: ${shown(f.pressurePa, f.unit)} vs the limit ${shown(f.limitPa, f.unit)}`,
+    )
+    .join('; ');
+  return (
+    `A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn (${at}): ` +
+    `the tank may have been above its limit`
+  );
 }
 
 /** what the end screen's first page shows (endLayout) */
@@ -552,8 +652,8 @@ interface EndParts {
 /**
  * the end screen's first page in `rows` x `columns`: the title, the tank above its limit, the verdict, the
  * stage lines, the log line and the keys are whole; every caution is there (cautionRows: shortened or cut
- * where they do not fit whole, c shows them whole); the message takes 2 to 4 rows (m: whole); the label
- * only where all of it fits (l: its own page)
+ * where they do not fit whole, c shows them whole); the message takes the rows left, at least 2 (m:
+ * whole); the label only where all of it fits (l: its own page)
  */
 export function endLayout(p: EndParts, rows: number, columns: number) {
   const keyRow = 1;
@@ -568,9 +668,10 @@ export function endLayout(p: EndParts, rows: number, columns: number) {
   const messageMin = p.message ? Math.min(2, rowsOf(p.message, columns)) : 0;
   const cautions = cautionRows(p.caveats, rows - 1 - others - messageMin, columns);
   const cautionsRows = cautions.lines.reduce((n, c) => n + rowsOf(`! ${c}`, columns), 0);
-  // the message: at most 4 rows, fewer when the rest would push the screen past the terminal (m: whole)
+  // the message: whole where the rows left hold it, else cut to them, at least 2 (m: whole); the label
+  // comes after it, only where it fits whole
   const message = p.message
-    ? cut(p.message, Math.max(2, Math.min(4, rows - 1 - others - cautionsRows)), columns)
+    ? cut(p.message, Math.max(2, rows - 1 - others - cautionsRows), columns)
     : undefined;
   const fixed = others + cautionsRows + (message ? rowsOf(message, columns) : 0);
   const labelRows = p.label ? 3 + p.label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
@@ -618,8 +719,11 @@ function EndScreen({
     else if (input === 'n') setLabelPart((k) => k + 1);
     else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
   });
+  const withdrawn = withdrawnOverLimit(report);
   const title = `${fillTitle(h)} - ${
-    state.phase === 'done' ? endWords(state) : `STOPPED after fill ${state.current} of ${K}`
+    state.phase === 'done'
+      ? endWords(state, { report, pending: recheck && !check })
+      : `${withdrawn ? `${withdrawn}; ` : ''}STOPPED after fill ${state.current} of ${K}`
   }`;
   const verdict = verdictLine(report);
   const logLine = `The log's full budget: \`mixwright check ${logFile}\``;
@@ -693,6 +797,7 @@ function PartsPage({
   rows,
   columns,
   box,
+  back,
 }: {
   readonly title: string;
   readonly lines: readonly string[];
@@ -700,6 +805,8 @@ function PartsPage({
   readonly rows: number;
   readonly columns: number;
   readonly box?: readonly string[];
+  /** the keys that leave the page (the end screen's by default) */
+  readonly back?: string;
 }) {
   const parts = labelParts([], lines, rows - (box ? 5 : 2) - rowsOf(title, columns), columns - (box ? 4 : 0));
   const k = Math.min(part, parts.length - 1);
@@ -716,7 +823,7 @@ function PartsPage({
           </Para>
         ))
       )}
-      <Text>{`${more}b: back   q or Enter: quit`}</Text>
+      <Text>{`${more}${back ?? 'b: back   q or Enter: quit'}`}</Text>
     </Box>
   );
 }
@@ -790,7 +897,8 @@ function BelowScreen({ state }: ScreenProps) {
         base={fillTitle(h)}
         what={`fill ${m} of ${K}${chargeSuffixOf(ls)}: ${lastFill ? 'BELOW THE TARGET' : 'BELOW ITS BAND'}`}
       />
-      <Para>{state.message ?? ' '}</Para>
+      {/* a refusal stands in for the message (the box keeps the target and the reading): 24 rows */}
+      {state.error ? null : <Para>{state.message ?? ' '}</Para>}
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
           STOP AT {stop} {lu}
@@ -907,11 +1015,25 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
         {ends}): {next}
       </Para>
       <Para>- stop AB (the cylinder cannot give more: the batch closed here, incomplete): {tank}</Para>
-      <Para>
-        A further reading is logged as a correction of fill {m} (more gas added; the log keeps both). undo AB:
-        withdraw it fix N AB: correct fill N
-      </Para>
+      <UndoFixOptions
+        state={state}
+        note={`A further reading: a correction of fill ${m} (more gas added; the log keeps both).`}
+      />
     </Box>
+  );
+}
+
+/** undo and fix on a below-band screen, one row each, then the note on further readings (not beside a refusal) */
+function UndoFixOptions({ state, note }: ScreenProps & { readonly note: string }) {
+  return (
+    <Options
+      options={[
+        ['undo AB', 'withdraw it'],
+        ['fix N AB', 'correct fill N'],
+      ]}
+      // a refusal names the choices again: the note gives it its row
+      after={state.error ? undefined : note}
+    />
   );
 }
 
@@ -933,10 +1055,10 @@ function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) 
       <Para bold={Boolean(w?.tankNow.length)}>
         - close AB (close the batch below the target; the re-check judges it): {tank}
       </Para>
-      <Para>
-        A new reading corrects the logged one (more gas added; the log keeps both). undo AB: withdraw it fix N
-        AB: correct fill N
-      </Para>
+      <UndoFixOptions
+        state={state}
+        note="A new reading corrects the logged one (more gas added; the log keeps both)."
+      />
     </Box>
   );
 }
@@ -1017,7 +1139,8 @@ function CorrectScreen({ state }: ScreenProps) {
  * text is on the plan, the sheet, the acknowledgement and the reminder screens
  */
 export function adviceOf(message: string, max = 120): string {
-  const cuts = ['. ', '; ', ': '].map((sep) => message.lastIndexOf(sep) + sep.length);
+  // what to do follows the last sentence, clause or dash ("... 2700.22 Torr - lower the pressure ...")
+  const cuts = ['. ', '; ', ': ', ' - '].map((sep) => message.lastIndexOf(sep) + sep.length);
   const at = Math.max(...cuts.filter((c) => c > 1 && c < message.length - 8), 0);
   const tail = message.slice(at).replace(/\.$/, '');
   if (tail.length <= max) return tail;
@@ -1025,46 +1148,82 @@ export function adviceOf(message: string, max = 120): string {
   return `${tail.slice(0, cut > 0 ? cut : max - 3)}...`;
 }
 
+/** a line of a fill screen's findings: its text, and whether it stands out (a danger) */
+interface FindingLine {
+  readonly text: string;
+  readonly bold?: boolean;
+}
+
 /**
  * the plan's findings at this fill, every time its screen is shown, one line each: its dangers
  * (accepted at the start; the full text was on that screen and the reminder), those accepted at a
  * review of the remaining fills, and its warnings (compression heating, oxygen compression: throttle the
- * fill...). Notes and findings of no one fill stay on the plan and the sheet.
+ * fill...). Notes and findings of no one fill stay on the plan and the sheet. `short` (a crowded screen):
+ * each by its name and what to do, in fewer words (the whole text on the ? page)
  */
-function StepDangers({ state }: ScreenProps) {
+export function stepFindingLines(state: FillState, short = false): FindingLine[] {
   const index = state.setup.steps[state.current].index;
-  const plan = state.setup.dangers.filter((d) => d.step === index);
+  // a plan danger the review of the current targets avoids is said so (computed), never as if it stood
+  const avoided = avoidedDangers(state, index);
+  const plan = state.setup.dangers.filter((d) => d.step === index && !avoided.includes(d.code));
   const review = (state.acceptedHazards ?? []).filter((h) => h.step === index);
+  // a plan warning the review of the current targets avoids: said so, as a danger is
+  const avoidedW = avoidedWarnings(state, index);
   const warnings = (state.setup.header.findings ?? []).filter(
-    (f) => f.severity === 'warning' && f.step === index,
+    (f) => f.severity === 'warning' && f.step === index && !avoidedW.includes(f.code),
   );
-  if (!plan.length && !review.length && !warnings.length) return null;
+  const out: FindingLine[] = [];
+  // short: two rows each at 80 columns, the hazard's name and what to do
+  const said = (head: string, text: string) => head + adviceOf(text, short ? 150 - head.length : 120);
+  for (const d of plan)
+    out.push({
+      text: said(`DANGER ${d.code} (${short ? '' : 'this fill; '}accepted at the start): `, d.message),
+      bold: true,
+    });
+  if (avoided.length)
+    out.push({
+      text:
+        `the plan's DANGER ${avoided.join(', ')} (this fill; accepted at the start): not reached by the ` +
+        `re-targeted fills (the review of the current targets does not find ${avoided.length === 1 ? 'it' : 'them'})`,
+    });
+  for (const h of review)
+    out.push({
+      text: short
+        ? said(`${h.severity.toUpperCase()} ${h.code} (accepted at a review, logged): `, h.text)
+        : `${h.severity.toUpperCase()} ${h.code} (this fill; accepted at the review of the remaining fills, ` +
+          `logged): ${h.numbers || h.text}`,
+      bold: true,
+    });
+  for (const f of warnings) {
+    // two screen rows at most
+    const head = `warning ${f.code} (this fill, the plan): `;
+    // a precision warning says what is over the tolerance (its first clause), not its advice
+    const body =
+      f.code === 'predicted-u-over-tolerance'
+        ? f.message.split(':')[0].slice(0, 156 - head.length)
+        : adviceOf(f.message, 156 - head.length);
+    out.push({ text: head + body });
+  }
+  if (avoidedW.length)
+    out.push({
+      text:
+        `the plan's warning ${avoidedW.join(', ')} (this fill): not reached by the re-targeted fills (the ` +
+        `review of the current targets does not find ${avoidedW.length === 1 ? 'it' : 'them'})`,
+    });
+  if (plan.length || review.length)
+    out.push({ text: 'Go on only with the protection your procedure requires for it.' });
+  return out;
+}
+
+function FindingLines({ lines }: { readonly lines: readonly FindingLine[] }) {
+  if (!lines.length) return null;
   return (
     <Box flexDirection="column">
-      {plan.map((d, i) => (
-        <Para key={`p${i}`} bold>
-          DANGER {d.code} (this fill; accepted at the start): {adviceOf(d.message)}
+      {lines.map((l, i) => (
+        <Para key={i} bold={l.bold}>
+          {l.text}
         </Para>
       ))}
-      {review.map((h) => (
-        <Para key={h.key} bold>
-          {h.severity.toUpperCase()} {h.code} (this fill; accepted at the review of the remaining fills,
-          logged): {h.numbers || h.text}
-        </Para>
-      ))}
-      {warnings.map((f, i) => {
-        // two screen rows at most
-        const head = `warning ${f.code} (this fill, the plan): `;
-        // a precision warning says what is over the tolerance (its first clause), not its advice
-        const body =
-          f.code === 'predicted-u-over-tolerance'
-            ? f.message.split(':')[0].slice(0, 156 - head.length)
-            : adviceOf(f.message, 156 - head.length);
-        return <Para key={`w${i}`}>{head + body}</Para>;
-      })}
-      {plan.length || review.length ? (
-        <Para>Go on only with the protection your procedure requires for it.</Para>
-      ) : null}
     </Box>
   );
 }
@@ -1078,33 +1237,62 @@ function stepWhat(state: FillState, words: string): string {
 function ReminderScreen({ state }: ScreenProps) {
   const h = state.setup.header;
   const { step } = stepView(state);
-  const ds = state.setup.dangers.filter((d) => d.step === step.index);
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
+  // the plan's dangers as the review of the current (re-targeted) targets finds them: reached (its words
+  // now), avoided (said, not reminded), or not known (the plan's words)
+  const now = state.setup.dangers
+    .filter((d) => d.step === step.index)
+    .map((d) => ({ d, now: planDangerNow(state, d) }));
+  const ds = now.filter((x) => x.now.kind !== 'avoided');
+  const avoided = now.filter((x) => x.now.kind === 'avoided').map((x) => x.d.code);
   const rs = (state.acceptedHazards ?? []).filter((h) => h.step === step.index && h.severity === 'danger');
+  const intro =
+    `This fill (${step.species} from ${step.source.id}) creates the state of the danger finding` +
+    (ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):');
+  const whole = [
+    ...ds.map(
+      ({ d, now: n }) =>
+        `- ${d.code}${n.kind === 'reached' ? ' (as the review of the current targets finds it)' : ''}: ` +
+        (n.kind === 'reached' ? n.text : d.message),
+    ),
+    ...(avoided.length
+      ? [
+          `(the plan's ${avoided.join(', ')} at this fill is not reached by the re-targeted fills: the review ` +
+            'of the current targets does not find it)',
+        ]
+      : []),
+    ...(rs.length && ds.length
+      ? ['and of the danger accepted at the review of the remaining fills (logged):']
+      : []),
+    ...rs.map((z) => `- ${z.code}: ${z.numbers}. ${z.text}`),
+  ];
+  // the title, the intro, a spacer, the protection line and the two choices: whole; the dangers whole where
+  // they fit, else each by its name and what to do (? shows them whole)
+  const fixed = 2 + wrapRows(intro, columns) + 1 + 1 + 2;
+  const fits = fixed + whole.reduce((n, l) => n + wrapRows(l, columns), 0) <= rows - 1;
+  const lines = fits
+    ? whole
+    : whole.map((l) => {
+        const m = /^- ([a-z0-9-]+)[^:]*: (.*)$/.exec(l);
+        return m ? `- ${m[1]}: ${adviceOf(m[2], 150 - m[1].length)}` : l;
+      });
   return (
     <Box flexDirection="column">
       <ScreenTitle base={fillTitle(h)} what={stepWhat(state, 'DANGER AT THIS FILL')} />
-      <Para>
-        This fill ({step.species} from {step.source.id}) creates the state of the danger finding
-        {ds.length ? ' accepted at the start:' : ' accepted at the review of the remaining fills (logged):'}
-      </Para>
-      {ds.map((d, i) => (
-        <Para key={i}>
-          - {d.code}: {d.message}
-        </Para>
-      ))}
-      {rs.length && ds.length ? (
-        <Para>and of the danger accepted at the review of the remaining fills (logged):</Para>
-      ) : null}
-      {rs.map((h) => (
-        <Para key={h.key}>
-          - {h.code}: {h.numbers}. {h.text}
-        </Para>
+      <Para>{intro}</Para>
+      {lines.map((l, i) => (
+        <Para key={i}>{l}</Para>
       ))}
       <Text> </Text>
-      <Para>
-        Go on only with the protection your procedure requires for it. Enter: go on to the fill Ctrl-C: stop
-        (logged readings are kept)
-      </Para>
+      <Para>Go on only with the protection your procedure requires for it.</Para>
+      <Options
+        options={[
+          ['Enter', 'go on to the fill'],
+          ['Ctrl-C', `stop (logged readings are kept)${fits ? '' : '   ?: the whole text'}`],
+        ]}
+      />
     </Box>
   );
 }
@@ -1117,7 +1305,12 @@ function ConfirmScreen({ state }: ScreenProps) {
       <Text>typed: {pending.done.text}</Text>
       <Para>{pending.reason}</Para>
       <Text> </Text>
-      <Text>y: it is right, log it as typed n: back to the reading (not logged)</Text>
+      <Options
+        options={[
+          ['y', 'it is right, log it as typed'],
+          ['n', 'back to the reading (not logged)'],
+        ]}
+      />
       <ErrorLine state={state} />
     </Box>
   );
@@ -1133,10 +1326,12 @@ function UnitCheckScreen({ state }: ScreenProps) {
         Nothing is logged yet, and nothing is converted: the reading is logged as typed or not at all.
       </Para>
       <Text> </Text>
-      <Para>
-        log INITIALS: it is right, log {pending.done.text} as typed (with your initials) n or Esc: re-type it
-        (not logged)
-      </Para>
+      <Options
+        options={[
+          ['log INITIALS', `it is right, log ${pending.done.text} as typed (with your initials)`],
+          ['n or Esc', 're-type it (not logged)'],
+        ]}
+      />
     </AskScreen>
   );
 }
@@ -1171,15 +1366,23 @@ function OverLimitScreen({ state }: ScreenProps) {
             `outside): venting keeps the composition, it cannot repair it.`}
       </Para>
       <Text> </Text>
-      <Para>
-        {o.last
-          ? 'vent INITIALS: you vent back (logged; then read the tank after venting: its reading is the ' +
-            "batch's final pressure) "
-          : 'vent INITIALS: you vent back (logged; then read the tank after venting; the fill stops there ' +
-            'and says how to finish it as a top-up batch: its recipe lines, gases, readings and gauges) '}
-        accept INITIALS: keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)
-        edit INITIALS: it was mistyped (withdrawn, with a trace)
-      </Para>
+      <Options
+        options={[
+          [
+            'vent INITIALS',
+            o.last
+              ? "you vent back (logged; then read the tank after venting: its reading is the batch's final " +
+                'pressure)'
+              : 'you vent back (logged; then read the tank after venting; the fill stops there and says how ' +
+                'to finish it as a top-up batch: its recipe lines, gases, readings and gauges)',
+          ],
+          [
+            'accept INITIALS',
+            'keep the tank as it is, ABOVE its working limit (logged; the re-check reports DANGER)',
+          ],
+          ['edit INITIALS', 'it was mistyped (withdrawn, with a trace)'],
+        ]}
+      />
     </AskScreen>
   );
 }
@@ -1261,15 +1464,18 @@ function CappedScreen({ state }: ScreenProps) {
       <Para bold>{c.cost}.</Para>
       <Para>Capped targets: {ahead.join('; ')}.</Para>
       <Text> </Text>
-      <Para>
-        - go INITIALS: fill to the capped targets (the tank ends at {c.finalText}
-        {c.outside.length ? ', OFF THE DESIGN' : ''}): {goFound}
-      </Para>
-      <Para>- stop INITIALS: stop the batch here (incomplete): {stopFound}</Para>
-      <Para>
-        undo INITIALS: the last reading was mistyped. Each choice is logged; Ctrl-C stops without one
-        (resuming asks again).
-      </Para>
+      <Options
+        options={[
+          [
+            'go INITIALS',
+            `fill to the capped targets (the tank ends at ${c.finalText}` +
+              `${c.outside.length ? ', OFF THE DESIGN' : ''}): ${goFound}`,
+          ],
+          ['stop INITIALS', `stop the batch here (incomplete): ${stopFound}`],
+          ['undo INITIALS', 'the last reading was mistyped'],
+        ]}
+        after="Each choice is logged; Ctrl-C stops without one (resuming asks again)."
+      />
     </AskScreen>
   );
 }
@@ -1304,12 +1510,18 @@ function PremixScreen({ state }: ScreenProps) {
       </Para>
       {state.message ? <Para>{state.message}</Para> : null}
       <Text> </Text>
-      <Para>
-        {mixed
-          ? `Type the reading of ${pc.tank} and your initials (e.g. ${planned.replace(' Torr', '')} AB); it is logged.`
-          : 'Type mixed and your initials (e.g. mixed AB) once it was; it is logged.'}{' '}
-        stop INITIALS: stop the batch here. undo INITIALS / fix N INITIALS: an earlier reading.
-      </Para>
+      <Options
+        options={[
+          mixed
+            ? [
+                `the reading of ${pc.tank} and your initials`,
+                `e.g. ${planned.replace(' Torr', '')} AB (logged)`,
+              ]
+            : ['mixed INITIALS', `once the premix in ${pc.tank} was mixed (logged)`],
+          ['stop INITIALS', 'stop the batch here'],
+          ['undo INITIALS / fix N INITIALS', 'an earlier reading'],
+        ]}
+      />
     </AskScreen>
   );
 }
@@ -1426,29 +1638,61 @@ export function gasCaution(composition: Readonly<Record<string, number>>): strin
 }
 
 /**
- * the rows a fill screen takes with the composition in full (an estimate, rowsOf): more than the
- * terminal has, the composition is shown compact (the species outside on one row)
+ * the fill screen in `rows` (`fixed`: the rows of its parts that are always whole: the title, the gas,
+ * the gauge, the box, the fields, the error and the keys), shortened step by step until it fits: the
+ * composition compact (the species outside on one row: `crowded`), then the findings each by its name and
+ * what to do (stepFindingLines short), then the message cut to the rows left (? shows the whole text)
  */
-function readingRows(state: FillState, band: string, columns: number): number {
+export function readingFit(state: FillState, fixed: number, rows: number, columns: number) {
+  const linesRows = (ls: readonly FindingLine[]) => ls.reduce((n, l) => n + wrapRows(l.text, columns), 0);
+  const j = state.error ? undefined : state.judgement;
+  const jFull = j ? 1 + j.deviations.length : 0;
+  const jCompact = j ? 2 : 0;
+  const message = state.error ? '' : (state.message ?? ' ');
+  const messageRows = message ? wrapRows(message, columns) : 1;
+  const full = stepFindingLines(state);
+  const room = rows - 1;
+  const total = (ls: readonly FindingLine[], jr: number, mr: number) => fixed + linesRows(ls) + jr + mr;
+  if (total(full, jFull, messageRows) <= room)
+    return { lines: full, message, shortened: false, crowded: false };
+  if (total(full, jCompact, messageRows) <= room)
+    return { lines: full, message, shortened: false, crowded: true };
+  const short = stepFindingLines(state, true);
+  const left = room - total(short, jCompact, 0);
+  const shown =
+    messageRows <= left ? message : cutToRows(message, Math.max(1, left), columns, '(?: whole text)');
+  return { lines: short, message: shown, shortened: true, crowded: true };
+}
+
+/** the ? page of a fill screen: its findings and its message whole, in parts that fit (n, p); b, Esc or ? goes back */
+function WholeTextPage({ state, part }: ScreenProps & { readonly part: number }) {
+  const { stdout } = useStdout();
   const index = state.setup.steps[state.current].index;
-  const dangers =
-    state.setup.dangers.filter((d) => d.step === index).length +
-    (state.acceptedHazards ?? []).filter((h) => h.step === index).length;
-  const warnings = (state.setup.header.findings ?? []).filter(
-    (f) => f.severity === 'warning' && f.step === index,
-  );
-  const j = state.judgement;
-  const judgement = j && !state.error ? 2 + j.deviations.filter((d) => !d.within).length + 1 : 0;
-  // title, rule, the gas, the gauge (2), isolate or caution (2), the box's edges and target (3), the fields
-  // (2), the error row and the keys (2): 14; then what varies
+  const lines = [
+    ...state.setup.dangers
+      .filter((d) => d.step === index)
+      .map((d) => `- DANGER ${d.code} (the plan; accepted at the start): ${d.message}`),
+    ...(state.acceptedHazards ?? [])
+      .filter((h) => h.step === index)
+      .map(
+        (h) =>
+          `- ${h.severity.toUpperCase()} ${h.code} (accepted at the review of the remaining fills, logged): ` +
+          `${h.numbers ? `${h.numbers}. ` : ''}${h.text}`,
+      ),
+    ...stepFindingLines(state)
+      .filter((l) => !l.bold)
+      .map((l) => l.text),
+    ...(state.message ? [state.message] : []),
+  ];
   return (
-    14 +
-    rowsOf(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
-    dangers * 3 +
-    (dangers ? 1 : 0) +
-    warnings.length * 2 +
-    rowsOf(state.message ?? ' ', columns) +
-    judgement
+    <PartsPage
+      title={`${fillTitle(state.setup.header)} - ${stepWhat(state, 'THE WHOLE TEXT')}`}
+      lines={lines}
+      part={part}
+      rows={stdout?.rows || 24}
+      columns={stdout?.columns || 80}
+      back="b or ?: back   Ctrl-C: stop"
+    />
   );
 }
 
@@ -1472,8 +1716,28 @@ function ReadingScreen({ state }: ScreenProps) {
   const who = state.operator ?? 'AB';
   const band = bandText(step, shown, unit, dec);
   const noneInside = noneInsideText(step, shown, unit, dec);
-  const crowded =
-    readingRows(state, band, columns) + (noneInside ? rowsOf(noneInside, columns - 6) : 0) > rows - 1;
+  const gaugeLine =
+    `Read on ${step.gauge?.id ?? 'NO GAUGE'}` +
+    (step.gauge?.reference === 'gauge'
+      ? ` (gauge-referenced: reads above ambient; barometer 0000.00 ${unit} typed today)`
+      : ' (absolute)');
+  // the rows always whole: title and rule, the gas, its charge, the gauge, close-off and caution (or a
+  // blank row), the box, the two fields, the error row and the keys
+  const fixed =
+    2 +
+    wrapRows(`Fill ${step.species} from ${step.source.id} (${step.source.label})${intoTank(h)}`, columns) +
+    (isSplit(step.charge) ? 2 : 0) +
+    wrapRows(gaugeLine, columns) +
+    Math.max(1, (isolate.length ? 1 : 0) + (caution ? 1 : 0)) +
+    3 +
+    // inside the box: its edges and padding take 6 columns
+    wrapRows(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
+    (noneInside ? wrapRows(noneInside, columns - 6) : 0) +
+    2 +
+    (state.error ? wrapRows(`! ${state.error}`, columns) : 1) +
+    1;
+  const fit = readingFit(state, fixed, rows, columns);
+  const crowded = fit.crowded;
   return (
     <Box flexDirection="column">
       <Box justifyContent="space-between">
@@ -1511,15 +1775,17 @@ function ReadingScreen({ state }: ScreenProps) {
         </Text>
         {noneInside ? <Text bold>{noneInside}</Text> : null}
       </Box>
-      <StepDangers state={state} />
+      <FindingLines lines={fit.lines} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
-      <Para>{state.error ? '' : (state.message ?? ' ')}</Para>
+      {fit.message ? <Para>{fit.message}</Para> : null}
       {/* an error (nothing logged) stands in for the last message and the composition until the next entry: the
           screen keeps 24 rows */}
       {state.judgement && !state.error ? <JudgementView j={state.judgement} compact={crowded} /> : null}
       <Para>{state.error ? `! ${state.error}` : ' '}</Para>
       <Text>
-        Enter: log Tab: temp undo {who}: undo last fix N {who}: correct Ctrl-C: stop
+        {fit.shortened
+          ? `Enter: log Tab: temp undo ${who}: undo fix N ${who}: correct ?: all text Ctrl-C: stop`
+          : `Enter: log Tab: temp undo ${who}: undo last fix N ${who}: correct Ctrl-C: stop`}
       </Text>
     </Box>
   );

@@ -8,7 +8,7 @@ import type { FillState } from './fill-state.js';
 import { alternativeTargets } from './fill-review.js';
 import { fromPa } from '../io/quantity.js';
 import { fillTitle } from './stage-state.js';
-import { Para, ScreenTitle } from './para.js';
+import { Options, Para, ScreenTitle } from './para.js';
 
 const TRIGGER_WORDS = {
   reading: 'the reading just logged',
@@ -31,8 +31,8 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
       <ScreenTitle base={fillTitle(h)} what="SAFETY REVIEW of the remaining fills" />
       {state.message ? <Para>{state.message}</Para> : null}
       <Para>
-        After {TRIGGER_WORDS[r.trigger]}, the fills ahead, re-targeted from the tank as read and reviewed
-        state by state and along every fill path, pass what the plan did not have:
+        After {TRIGGER_WORDS[r.trigger]}, the fills ahead (re-targeted from the tank as read, every state and
+        fill path reviewed) pass what the plan did not have:
       </Para>
       {r.hazards.map((z, i) => (
         <Para key={i}>
@@ -62,14 +62,23 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
       ) : (
         <Para>{r.noAlternative}.</Para>
       )}
-      <Text> </Text>
-      <Para>
-        {cont?.clean ? 'VALUE INITIALS: the fill continued   ' : ''}
-        {alt ? 'safer INITIALS: take the safer stop   ' : ''}accept INITIALS: go on through it (have it
-        reviewed under your lab&apos;s rules first) undo INITIALS: the last reading was mistyped fix N
-        INITIALS: correct fill N. Each choice is logged, with the findings in full. Ctrl-C stops (the readings
-        stay logged).
-      </Para>
+      {/* a refusal takes the spacer's row and the note's: the screen keeps 24 rows */}
+      {state.error ? null : <Text> </Text>}
+      <Options
+        options={[
+          ...(cont?.clean ? [['VALUE INITIALS', 'the fill continued'] as const] : []),
+          ...(alt ? [['safer INITIALS', 'take the safer stop'] as const] : []),
+          ['accept INITIALS', "go on through it (have it reviewed by your lab's rules first)"],
+          ['undo INITIALS', 'the last reading was mistyped'],
+          ['fix N INITIALS', 'correct fill N'],
+        ]}
+        after={
+          // a refusal names the choices again: the note gives it its row
+          state.error
+            ? undefined
+            : 'Each choice is logged with the findings; Ctrl-C stops (readings stay logged).'
+        }
+      />
       <Text>
         &gt; {state.input}
         <Text inverse> </Text>

@@ -18,6 +18,7 @@ import {
   type Finding,
   type PlannedFinding,
   type ReadingGrid,
+  type RemainderReview,
   type RetargetInput,
   type SafetyContext,
 } from '../core/index.js';
@@ -125,6 +126,82 @@ function plannedOf(setup: FillSetup, base: RetargetInput): readonly PlannedFindi
   return planned;
 }
 
+const planPathMemo = new WeakMap<FillSetup, readonly string[]>();
+
+/**
+ * the hazard keys this review finds on the plan's own targets (the re-target of an untouched tank at the
+ * plan's temperature): a plan danger it does not find there is never called avoided by a re-target
+ */
+function planPathKeys(setup: FillSetup, base: RetargetInput): readonly string[] {
+  const known = planPathMemo.get(setup);
+  if (known) return known;
+  const keys = reviewRemainder({
+    retarget: { ...base, done: [], temperatureK: setup.header.temperature_K },
+    safety: safetyOf(setup),
+    planned: [],
+    searchAlternative: false,
+  }).findings.map(hazardKey);
+  planPathMemo.set(setup, keys);
+  return keys;
+}
+
+/**
+ * the review of the current remainder (withReview), kept with the fill: the targets it reviewed and what
+ * it found; a fill's reminder of a plan danger comes from it (planDangerNow)
+ */
+export interface PathReview {
+  /** the remaining targets it reviewed: fill number -> absolute Pa */
+  readonly targetsPa: Readonly<Record<number, number>>;
+  /** what it found, by hazard key (code@fill), in words */
+  readonly found: Readonly<Record<string, string>>;
+  /** the hazard keys the same review finds on the plan's own targets */
+  readonly planKeys: readonly string[];
+}
+
+function pathReviewOf(s: FillState, input: RetargetInput, rv: RemainderReview): PathReview {
+  const targetsPa: Record<number, number> = {};
+  for (const x of rv.result.remaining) targetsPa[x.step] = x.targetPa;
+  const found: Record<string, string> = {};
+  for (const f of rv.findings) found[hazardKey(f)] = words(f);
+  return { targetsPa, found, planKeys: planPathKeys(s.setup, input) };
+}
+
+/**
+ * A danger of the plan at a fill, as the review of the current targets finds it: reached (with its words
+ * now), avoided (the review finds it on the plan's targets and not on the current ones: computed), or
+ * unknown (no review of the current targets, or a danger that review does not cover: the plan's stands)
+ */
+export type DangerNow =
+  | { readonly kind: 'reached'; readonly text: string }
+  | { readonly kind: 'avoided' }
+  | { readonly kind: 'unknown' };
+
+export function planDangerNow(s: FillState, d: { code: string; step?: number | null }): DangerNow {
+  const r = s.pathReview;
+  if (!r) return { kind: 'unknown' };
+  // the review is of the current targets only if every target it reviewed is the fill's target now
+  const steps = Object.keys(r.targetsPa).map(Number);
+  const current = steps.every((k) => Math.abs(r.targetsPa[k] - s.targetsPa[k - 1]) <= 1e-9 * r.targetsPa[k]);
+  if (!current || (d.step ?? 0) <= s.done.length || !steps.includes(d.step ?? 0)) return { kind: 'unknown' };
+  const key = hazardKey({ ...d, severity: 'danger' });
+  if (r.found[key] !== undefined) return { kind: 'reached', text: r.found[key] };
+  return r.planKeys.includes(key) ? { kind: 'avoided' } : { kind: 'unknown' };
+}
+
+/** the plan's dangers at a fill that the re-targeted fills avoid (planDangerNow), by code */
+export function avoidedDangers(s: FillState, step: number): string[] {
+  return s.setup.dangers
+    .filter((d) => d.step === step && planDangerNow(s, d).kind === 'avoided')
+    .map((d) => d.code);
+}
+
+/** the plan's warnings at a fill that the re-targeted fills avoid (computed as for a danger), by code */
+export function avoidedWarnings(s: FillState, step: number): string[] {
+  return (s.setup.header.findings ?? [])
+    .filter((f) => f.severity === 'warning' && f.step === step && planDangerNow(s, f).kind === 'avoided')
+    .map((f) => f.code);
+}
+
 /** how each fill's stop is shown: its gauge's resolution (above ambient for a gauge-referenced sensor) */
 function gridOf(s: FillState): (fill: number) => ReadingGrid | undefined {
   return (k) => {
@@ -177,7 +254,11 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
   const open = rv.hazards.filter((f) => !accepted.has(hazardKey(f)));
   // the accepted ones as this review finds them now: their fills' screens show them
   const acceptedHazards = rv.hazards.filter((f) => accepted.has(hazardKey(f))).map(reviewHazardOf);
-  const s: FillState = { ...s0, acceptedHazards };
+  const s: FillState = remindOnlyReached({
+    ...s0,
+    acceptedHazards,
+    pathReview: pathReviewOf(s0, input, rv),
+  });
   if (!open.length) {
     // a state already in the tank (the fill just read, step <= current) is no longer "remaining"
     const ahead = rv.near.filter((f) => (f.step ?? 0) > s.current);
@@ -242,6 +323,22 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
             NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched'],
     },
   };
+}
+
+/**
+ * the reminder before a fill that creates a danger: only while a danger there is reached (or not known
+ * avoided) by the current targets; where the review of the re-targeted fills avoids every one, the fill's
+ * screen opens and says so
+ */
+export function remindOnlyReached(s: FillState): FillState {
+  if (s.phase !== 'reminder') return s;
+  const step = s.setup.steps[s.current].index;
+  const plan = s.setup.dangers.filter((d) => d.step === step);
+  const review = (s.acceptedHazards ?? []).some((h) => h.step === step && h.severity === 'danger');
+  const avoided = avoidedDangers(s, step);
+  if (review || !plan.length || avoided.length < plan.length) return s;
+  // the fill's screen says which the re-target avoids (StepDangers)
+  return { ...s, phase: 'reading', reminded: [...s.reminded, step] };
 }
 
 /** the ways on from a fill read below its band, each as its review found it (fill-state's below screen) */

@@ -58,9 +58,11 @@ import {
   belowBandWays,
   tankNowWords,
   onReviewEnter,
+  remindOnlyReached,
   reviewMemoryOf,
   withReview,
   type BelowWays,
+  type PathReview,
   type ReviewHazard,
   type ReviewHooks,
   type ReviewMemory,
@@ -338,6 +340,8 @@ export interface FillState {
   readonly start?: StartGas;
   readonly correcting?: Correcting;
   // the safety review of the re-targeted remainder (fill-review.ts)
+  /** the review of the current remainder: the targets it reviewed and what it found (planDangerNow) */
+  readonly pathReview?: PathReview;
   /** the review screen's content, in phase 'review' */
   readonly review?: ReviewScreen;
   /** earlier reviews: hazards accepted, stops changed to a safer one (from the log on resume) */
@@ -585,12 +589,14 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
       typed: lastRead.reading.replace(/\s+\S+$/, ''),
       logged: true,
     };
+    // the vent target from the targets as they stood at the reading (the re-target of the readings before
+    // it), as the session computed it: the same number before and after the resume
+    const atReading: FillState = { ...before, targetsPa: prior };
     return {
-      ...before,
-      targetsPa: prior,
+      ...atReading,
       phase: 'over-limit',
       pending,
-      overLimit: overLimitOf(before, reading, limit),
+      overLimit: overLimitOf(atReading, reading, limit),
       message:
         `resumed: the reading of fill ${reading.step} (${reading.text}, logged) is ` +
         `above the working limit and no choice was logged`,
@@ -691,7 +697,8 @@ function enterStep(s: FillState): FillState {
     (s.setup.dangers.some((d) => d.step === stepIndex) ||
       (s.acceptedHazards ?? []).some((h) => h.step === stepIndex && h.severity === 'danger'))
   )
-    return { ...s, phase: 'reminder', input: '' };
+    // only while the current targets reach a danger there (or it is not known avoided): planDangerNow
+    return remindOnlyReached({ ...s, phase: 'reminder', input: '' });
   return { ...s, phase: 'reading' };
 }
 
@@ -2623,15 +2630,17 @@ function onBelowEnter(s: FillState, now: string): FillState {
   if (!lastFill && /^stop\b/i.test(text)) return stopBelow(s, text, step, last, now);
   if (/^close\b/i.test(text)) return closeBelow(s, text, step, lastFill, now);
   if (/^(undo|fix)\b/i.test(text)) return onCommand(s, text) ?? s;
-  const w = withInitials(text, 'new reading after adding gas', lastFill ? '1500.2 AB' : '480.81 AB');
+  // the example is this fill's own target as its screen shows it (not a number of another batch)
+  const dec = step.gauge ? decimalsFor(fromPa(step.gauge.resolutionPa, unit)) : 2;
+  const example = `${fromPa(shownPa(s, step, s.targetsPa[s.done.length - 1]), unit).toFixed(dec)} AB`;
+  const w = withInitials(text, 'new reading after adding gas', example);
   if ('error' in w)
     return {
       ...s,
+      // short: the ways are on the screen above, each with what it does (the screen keeps 24 rows)
       error: lastFill
-        ? `${w.error}; or undo, fix N or close with initials (above)`
-        : `${w.error}; or undo INITIALS, fix N INITIALS (corrects fill N), or ` +
-          'next INITIALS (go on from the logged reading; the fills ahead re-targeted from it), or stop ' +
-          'INITIALS (stop the batch here, incomplete)',
+        ? `${w.error}; or close, undo or fix N with your initials (the ways above)`
+        : `${w.error}; or next, stop, undo or fix N with your initials (the ways above)`,
     };
   const parsed = parseReading({ ...s, input: w.value }, step);
   if ('error' in parsed) return refusedEntry(s, parsed);

@@ -41,3 +41,24 @@ export function ScreenTitle({ base, what }: { readonly base: string; readonly wh
     </Box>
   );
 }
+
+/**
+ * A screen's choices, each on its own line: the key to type, then what it does (`what` empty: the key
+ * alone); `after`: what holds for every choice (logged, Ctrl-C), on its own line
+ */
+export function Options({
+  options,
+  after,
+}: {
+  readonly options: readonly (readonly [key: string, what: string])[];
+  readonly after?: string;
+}) {
+  return (
+    <Box flexDirection="column">
+      {options.map(([key, what], i) => (
+        <Para key={i}>{what ? `${key}: ${what}` : key}</Para>
+      ))}
+      {after ? <Para>{after}</Para> : null}
+    </Box>
+  );
+}

@@ -72,7 +72,7 @@ describe('the end screen fits 80 x 24', () => {
 
   it('a long message is cut on the first page (m shows it whole), the verdict and the log line stay', async () => {
     const log = readLog('batches/demo-ch4-phi1-ar98.jsonl');
-    const long = `stopped after fill 2: ${'the tank read 1498.2 Torr after venting, and more words '.repeat(20)}END`;
+    const long = `stopped after fill 2: ${'the tank read 1498.2 Torr after venting, and more words '.repeat(40)}END`;
     const s = { ...initialState(setupFromHeader(log.header), log, ''), message: long };
     const recheck = async () => ({ report: await checkLog(log, { trials: 0, seed: 1 }), log });
     const ui = render(<FillApp initial={s} write={() => {}} logFile="demo.jsonl" recheck={recheck} />);

@@ -224,13 +224,16 @@ describe('the fill screens fit 80 x 24', () => {
     const capped = read(t, '560', 4);
     expect(capped.phase).toBe('capped');
     expect(capped.capped!.ways).toBeDefined();
-    const f = fits(capped, /^mixwright fill b1$/).replace(/\n/g, ' ');
+    const raw = fits(capped, /^mixwright fill b1$/);
+    const f = raw.replace(/\n/g, ' ');
     expect(f).toMatch(
-      /- go INITIALS: fill to the capped targets \(the tank ends at 2692\.7 Torr, OFF THE DESIGN\): the review finds/,
+      /go INITIALS: fill to the capped targets \(the tank ends at 2692\.7 Torr, OFF THE DESIGN\): the review finds/,
     );
     expect(f).toMatch(
-      /- stop INITIALS: stop the batch here \(incomplete\): no flammable, detonable or danger state in the tank now/,
+      /stop INITIALS: stop the batch here \(incomplete\): no flammable, detonable or danger state in the tank now/,
     );
+    // each choice on its own row, its key first
+    for (const key of ['go', 'stop', 'undo']) expect(raw).toMatch(new RegExp(`^${key} INITIALS: `, 'm'));
     fits(read(capped, 'hello'), /^mixwright fill b1$/);
     // O2 read 15 Torr: going on from it keeps phi and the dilution, so the batch ends lower (by the re-target: the
     // fuel and O2 in the tank, 15 Torr, over the design's 2 % of them: 751 Torr, by hand about 15 / 0.02 = 750)
