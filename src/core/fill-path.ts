@@ -42,6 +42,9 @@ import {
   diagramSums,
   envelopePolygon,
   insidePolygon,
+  flameShareOf,
+  flameShareToLimit,
+  uflRisesWithPressure,
   type FlammabilityAssessment,
 } from './flammability.js';
 import { getSpecies } from './lookup.js';
@@ -197,22 +200,26 @@ function gapAlong(
   const B = diagramSums(b);
   const fuels = [...new Set([...Object.keys(A.fuelBlend), ...Object.keys(B.fuelBlend)])];
   const single: Fractions | undefined = fuels.length === 1 ? { [fuels[0]]: 1 } : undefined;
+  // a single fuel's envelope depends on the pressure only above 1 atm (blendLimits: the UFL's
+  // pressure correction), so below it, and at a pressure met before, the last polygon is reused
+  let last: { key: number; poly: [number, number][] } | undefined;
+  const singlePolygon = (p: number) => {
+    const key = uflRisesWithPressure(p) ? p : -1;
+    if (last?.key !== key) last = { key, poly: envelopePolygon(blendLimits(single!, temperatureK, p)) };
+    return last.poly;
+  };
   return (u) => {
     const f = (1 - u) * A.fuel + u * B.fuel;
     const o = (1 - u) * A.oxygen + u * B.oxygen;
     const s = f + o + (1 - u) * A.inert + u * B.inert;
     if (!(f / s > 0) || !(o / s > 0)) return 1;
-    let blend = single;
-    if (!blend) {
-      const y: Record<string, number> = {};
-      for (const k of fuels) {
-        const v = (1 - u) * (A.fuelBlend[k] ?? 0) + u * (B.fuelBlend[k] ?? 0);
-        if (v > 0) y[k] = v / f;
-      }
-      blend = y;
+    if (single) return gapTo([f / s, o / s], singlePolygon(pressureAt(u)));
+    const y: Record<string, number> = {};
+    for (const k of fuels) {
+      const v = (1 - u) * (A.fuelBlend[k] ?? 0) + u * (B.fuelBlend[k] ?? 0);
+      if (v > 0) y[k] = v / f;
     }
-    const poly = envelopePolygon(blendLimits(blend, temperatureK, pressureAt(u)));
-    return gapTo([f / s, o / s], poly);
+    return gapTo([f / s, o / s], envelopePolygon(blendLimits(y, temperatureK, pressureAt(u))));
   };
 }
 
@@ -241,12 +248,6 @@ function goldenMin(f: (u: number) => number, lo: number, hi: number, iterations:
     }
   }
   return (a + b) / 2;
-}
-
-/** flame temperature as a share of the rise to the limit flame temperature (1 = at the limit) */
-function flameShare(a: FlammabilityAssessment, temperatureK: number): number {
-  if (a.flameK === undefined || a.limitFlameK === undefined) return 0;
-  return (a.flameK - temperatureK) / Math.max(a.limitFlameK - 298.15, 1);
 }
 
 /**
@@ -283,15 +284,15 @@ export function reviewSegment(
     // thin crossings by flame temperature: local maxima of the flame share near the limit, refined
     const coarse = pts.slice(0, SAMPLES + 1);
     for (let i = 0; i <= SAMPLES; i++) {
-      const s = flameShare(coarse[i].assessment, temperatureK);
-      const left = i > 0 ? flameShare(coarse[i - 1].assessment, temperatureK) : -Infinity;
-      const right = i < SAMPLES ? flameShare(coarse[i + 1].assessment, temperatureK) : -Infinity;
+      const s = flameShareOf(coarse[i].assessment, temperatureK);
+      const left = i > 0 ? flameShareOf(coarse[i - 1].assessment, temperatureK) : -Infinity;
+      const right = i < SAMPLES ? flameShareOf(coarse[i + 1].assessment, temperatureK) : -Infinity;
       if (coarse[i].rank === 0 && s >= FLAME_SHARE_SEARCH && s >= left && s >= right) {
         pts.push(
           at(
             goldenMin(
               // the flame share alone (no rank): the refined point is then judged in full
-              (u) => -flameShare(assessFlammability(mix(a, b, u), temperatureK, pressureAt(u)), temperatureK),
+              (u) => -flameShareToLimit(mix(a, b, u), temperatureK),
               Math.max(0, (i - 1) / SAMPLES),
               Math.min(1, (i + 1) / SAMPLES),
               GOLDEN / 2,

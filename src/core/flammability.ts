@@ -212,6 +212,14 @@ function blendBase(fuel: Fractions): BlendBase {
   return base;
 }
 
+/**
+ * above 1 atm the UFL rises with pressure (blendLimits); at or below it a blend's limits do not depend
+ * on the pressure
+ */
+export function uflRisesWithPressure(pressurePa: number): boolean {
+  return pressurePa / 1e6 > 0.101325;
+}
+
 export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: number): BlendLimits {
   const b = blendBase(fuel);
   let lfl = b.lfl;
@@ -223,7 +231,7 @@ export function blendLimits(fuel: Fractions, temperatureK: number, pressurePa: n
     ufl *= 1 + 0.0008 * dT;
   }
   const pMPa = pressurePa / 1e6;
-  if (pMPa > 0.101325)
+  if (uflRisesWithPressure(pressurePa))
     ufl = Math.min(uflO2, ufl + 0.206 * (Math.log10(pMPa) + 1) - 0.206 * (Math.log10(0.101325) + 1));
   const { loc, z, estimated, missing, sources } = b;
   return { lfl, ufl: Math.min(ufl, 1), uflO2, loc, z, estimated, missing, sources };
@@ -450,6 +458,70 @@ function envelopeVerdict(
   return { byEnvelope: near ? 'near-limit' : 'non-flammable' };
 }
 
+/**
+ * A state's flame temperature and the limit flame temperature it is judged against: the fuel-weighted
+ * mean of its fuels' limits, lean or rich by phi (on the rich side only fuels whose rich limit is
+ * calibrated on a UFL below 100 % count); neither when no fuel of the blend has a limit flame.
+ */
+function flameAgainstLimit(
+  y: Fractions,
+  temperatureK: number,
+  fuelBlend: Readonly<Record<string, number>>,
+  phi: number,
+  side: 'lean' | 'rich',
+  oxygenShare: number,
+): Pick<FlammabilityAssessment, 'flameK' | 'limitFlameK' | 'richCalibration'> {
+  let limitFlameK = 0;
+  let wsum = 0;
+  let richCalibration: FlammabilityAssessment['richCalibration'];
+  if (side === 'lean') {
+    for (const [k, w] of Object.entries(fuelBlend)) {
+      const t = limitFlameTemperatureK(k);
+      if (t !== undefined) {
+        limitFlameK += w * leanThresholdK(k, t, phi);
+        wsum += w;
+      }
+    }
+  } else {
+    let withO2 = false;
+    for (const [k, w] of Object.entries(fuelBlend)) {
+      const lean = limitFlameTemperatureK(k);
+      const c = richLimitCalibration(k);
+      if (lean === undefined || !c) continue;
+      if (c.oxygen) withO2 = true;
+      limitFlameK += w * richThresholdK(c, locFlameTemperatureK(k) ?? lean, phi, oxygenShare);
+      wsum += w;
+    }
+    richCalibration = wsum > 0 ? (withO2 ? 'ufl-air-and-o2' : 'ufl-air') : 'none';
+  }
+  if (!(wsum > 0)) return { richCalibration };
+  return { limitFlameK: limitFlameK / wsum, richCalibration, flameK: flameTemperatureK(y, temperatureK) };
+}
+
+/**
+ * A state's flame temperature rise as a share of the rise to its limit flame temperature (1 at the
+ * limit; 0 without a flame or a limit), the numbers assessFlammability judges it by, without the
+ * rest of the assessment (a search for the hottest point of a path needs only these)
+ */
+export function flameShareToLimit(y: Fractions, temperatureK: number): number {
+  const { point, fuelBlend } = diagramPoint(y);
+  if (Object.keys(fuelBlend).length === 0 || point.oxygen <= 0) return 0;
+  // phi as assessFlammability has it: z is the blend's, whatever the temperature and pressure
+  const phi = (blendBase(fuelBlend).z * point.fuel) / point.oxygen;
+  const side = phi > 1 ? 'rich' : 'lean';
+  const oxygenShare = point.oxygen / (point.oxygen + point.inert);
+  return flameShareOf(flameAgainstLimit(y, temperatureK, fuelBlend, phi, side, oxygenShare), temperatureK);
+}
+
+/** an assessment's flame temperature rise as a share of the rise to its limit flame temperature (flameShareToLimit) */
+export function flameShareOf(
+  a: Pick<FlammabilityAssessment, 'flameK' | 'limitFlameK'>,
+  temperatureK: number,
+): number {
+  if (a.flameK === undefined || a.limitFlameK === undefined) return 0;
+  return (a.flameK - temperatureK) / Math.max(a.limitFlameK - 298.15, 1);
+}
+
 export function assessFlammability(
   y: Fractions,
   temperatureK: number,
@@ -482,36 +554,10 @@ export function assessFlammability(
     fuelOverUfl: uflHere !== undefined ? point.fuel / uflHere : undefined,
   };
   const { byEnvelope, limitsLowerBy } = envelopeVerdict(point, limits);
-  // flame temperature; the limit of a blend is the fuel-weighted mean of its fuels' limits
-  let limitFlameK = 0;
-  let wsum = 0;
-  let richCalibration: FlammabilityAssessment['richCalibration'];
-  if (side === 'lean') {
-    for (const [k, w] of Object.entries(fuelBlend)) {
-      const t = limitFlameTemperatureK(k);
-      if (t !== undefined) {
-        limitFlameK += w * leanThresholdK(k, t, phi);
-        wsum += w;
-      }
-    }
-  } else {
-    // rich: only fuels whose rich limit is calibrated on a UFL below 100 % count
-    let withO2 = false;
-    for (const [k, w] of Object.entries(fuelBlend)) {
-      const lean = limitFlameTemperatureK(k);
-      const c = richLimitCalibration(k);
-      if (lean === undefined || !c) continue;
-      if (c.oxygen) withO2 = true;
-      limitFlameK += w * richThresholdK(c, locFlameTemperatureK(k) ?? lean, phi, oxygenShare);
-      wsum += w;
-    }
-    richCalibration = wsum > 0 ? (withO2 ? 'ufl-air-and-o2' : 'ufl-air') : 'none';
-  }
+  const flame = flameAgainstLimit(y, temperatureK, fuelBlend, phi, side, oxygenShare);
+  const { limitFlameK, richCalibration, flameK } = flame;
   let byFlameTemperature: Verdict = 'non-flammable';
-  let flameK: number | undefined;
-  if (wsum > 0) {
-    limitFlameK /= wsum;
-    flameK = flameTemperatureK(y, temperatureK);
+  if (flameK !== undefined && limitFlameK !== undefined) {
     if (flameK >= limitFlameK) byFlameTemperature = 'flammable';
     // lean (fuel-limited) side: the limit flame temperature is calibrated on the LFL and the LOC, and
     // the rise of a lean flame is about proportional to its fuel, so their margin is one of the rise;
@@ -525,7 +571,7 @@ export function assessFlammability(
     ...base,
     ...(limitsLowerBy !== undefined ? { limitsLowerBy } : {}),
     ...(byFlameTemperature === 'within-margin'
-      ? { flameRiseShare: (flameK! - temperatureK) / (limitFlameK - 298.15) }
+      ? { flameRiseShare: (flameK! - temperatureK) / (limitFlameK! - 298.15) }
       : {}),
   };
   // a fuel without limit data cannot be judged non-flammable
@@ -538,7 +584,7 @@ export function assessFlammability(
     point,
     limits,
     flameK,
-    limitFlameK: wsum > 0 ? limitFlameK : undefined,
+    limitFlameK,
     richCalibration,
     distance,
     unknownInerts,

@@ -110,11 +110,14 @@ export {
   leChatelier,
   diagramPoint,
   envelopePolygon,
+  flameShareOf,
+  flameShareToLimit,
   insidePolygon,
   limitFlameTemperatureK,
   locFlameTemperatureK,
   richLimitCalibration,
   uflAtOxygenShare,
+  uflRisesWithPressure,
   worseVerdict,
 } from './flammability.js';
 export type {

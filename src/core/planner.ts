@@ -15,7 +15,7 @@ import { planAmounts } from './plan/amounts.js';
 import { planSequence } from './plan/sequence.js';
 import { roundChosenStops } from './plan/round-stops.js';
 import { planSteps } from './plan/steps.js';
-import { reviewPlan } from './plan/review.js';
+import { reviewPlan, type SafetyReviews } from './plan/review.js';
 import { planResult } from './plan/result.js';
 import { searchedGauges } from './plan/search.js';
 import type { Plan, PlanInput } from './plan/types.js';
@@ -45,7 +45,7 @@ export function planFill(input: PlanInput, shared?: SharedStages): Plan {
   const sequence = roundChosenStops(basis, amounts, planned);
   // the gauges the sequence search chose for the readings (none without a search)
   const steps = searchedGauges(basis, planSteps(basis, amounts, sequence), sequence);
-  const review = reviewPlan(basis, amounts, sequence, steps);
+  const review = reviewPlan(basis, amounts, sequence, steps, shared?.reviews);
   return planResult(basis, amounts, sequence, steps, review);
 }
 
@@ -54,12 +54,21 @@ export function planFill(input: PlanInput, shared?: SharedStages): Plan {
  * but for the sequence search and the split points of given charges: never shared). Plans of one
  * input that differ only in their gauges (a premix's head choices, two-stage.ts) share them: kept
  * by the input without its gauges, and used only for the very same source objects (later stages
- * look sources up).
+ * look sources up). They share the safety review of their states and fill paths too, kept by
+ * everything it reviews (safetyFindings: equal states and fills, equal findings).
  */
-export type SharedStages = Map<
-  string,
-  { readonly sources: readonly GasSource[]; readonly amounts: PlanAmounts; readonly sequence: PlanSequence }
->;
+export interface SharedStages {
+  readonly stages: Map<
+    string,
+    { readonly sources: readonly GasSource[]; readonly amounts: PlanAmounts; readonly sequence: PlanSequence }
+  >;
+  readonly reviews: SafetyReviews;
+}
+
+/** an empty SharedStages, for the plans of one input that differ only in their gauges */
+export function sharedStages(): SharedStages {
+  return { stages: new Map(), reviews: new Map() };
+}
 
 function gaugeFreeStages(
   basis: PlanBasis,
@@ -71,7 +80,7 @@ function gaugeFreeStages(
   const gaugesUsed = searched || input.charges !== undefined;
   const key =
     shared && !gaugesUsed ? JSON.stringify({ ...input, gauges: undefined, manifoldGauges: undefined }) : '';
-  const hit = key ? shared?.get(key) : undefined;
+  const hit = key ? shared?.stages.get(key) : undefined;
   if (
     hit &&
     hit.sources.length === input.sources.length &&
@@ -80,6 +89,6 @@ function gaugeFreeStages(
     return hit;
   const amounts = planAmounts(basis);
   const part = { sources: input.sources, amounts, sequence: planSequence(basis, amounts) };
-  if (key) shared?.set(key, part);
+  if (key) shared?.stages.set(key, part);
   return part;
 }

@@ -6,7 +6,11 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
+  assessFlammability,
   blendLimits,
+  flameShareOf,
+  flameShareToLimit,
+  uflRisesWithPressure,
   closedVesselCombustion,
   completeCombustion,
   flameTemperatureK,
@@ -143,5 +147,60 @@ describe("blendLimits with each fuel's listed limits worked out once", () => {
       m.set('CH4', rec);
     }
     expect(blendLimits({ CH4: 1 }, 298.15, 101325)).toEqual(before);
+  });
+});
+
+describe("the fill-path review's shortcuts against the full assessment", () => {
+  const states = fc
+    .record({
+      fuel: fc.constantFrom(...FUELS, 'C2H2'),
+      second: fc.constantFrom(...FUELS),
+      blend: fc.double({ min: 0, max: 1, noNaN: true }),
+      inert: fc.constantFrom(...INERTS),
+      f: fc.double({ min: 0, max: 0.7, noNaN: true }),
+      o: fc.double({ min: 0, max: 0.7, noNaN: true }),
+      t: fc.double({ min: 250, max: 400, noNaN: true }),
+    })
+    .map(({ fuel, second, blend, inert, f, o, t }) => {
+      const rest = Math.max(0, 1 - f - o);
+      const s = f + o + rest;
+      const y: Record<string, number> = { [fuel]: (f * (1 - blend)) / s, O2: o / s, [inert]: rest / s };
+      y[second] = (y[second] ?? 0) + (f * blend) / s;
+      return { y, t };
+    });
+
+  it("flameShareToLimit is the share assessFlammability's own flame and limit flame temperatures give", () => {
+    // the reference is assessFlammability's numbers (checked against Cantera 3.2.0 and the handbook
+    // limits in the flammability and examples tests); tolerance zero: the same arithmetic
+    fc.assert(
+      fc.property(states, fc.double({ min: 1e3, max: 1e7, noNaN: true }), ({ y, t }, p) => {
+        expect(flameShareToLimit(y, t)).toBe(flameShareOf(assessFlammability(y, t, p), t));
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('a blend has the same limits at every pressure up to 1 atm (the gap guide reuses one envelope there)', () => {
+    // the reference is blendLimits itself at each pressure; tolerance zero
+    fc.assert(
+      fc.property(
+        states,
+        fc.double({ min: 1, max: 101325, noNaN: true }),
+        fc.double({ min: 1, max: 101325, noNaN: true }),
+        ({ y, t }, p1, p2) => {
+          const named = Object.entries(y).filter(([k, v]) => v > 0 && FUEL_SAFETY.has(k));
+          const sum = named.reduce((a, [, v]) => a + v, 0);
+          fc.pre(sum > 0);
+          const fuels = Object.fromEntries(named.map(([k, v]) => [k, v / sum]));
+          expect(uflRisesWithPressure(p1)).toBe(false);
+          expect(blendLimits(fuels, t, p1)).toEqual(blendLimits(fuels, t, p2));
+        },
+      ),
+      { numRuns: 200 },
+    );
+    expect(uflRisesWithPressure(101325 * 1.000001)).toBe(true);
+    expect(blendLimits({ CH4: 1 }, 298.15, 2e6).ufl).toBeGreaterThan(
+      blendLimits({ CH4: 1 }, 298.15, 1e5).ufl,
+    );
   });
 });

@@ -40,13 +40,14 @@ export function reviewPlan(
   amounts: PlanAmounts,
   sequence: PlanSequence,
   planned: PlanSteps,
+  reviews?: SafetyReviews,
 ): PlanReview {
   const { steps } = planned;
   const findings: Finding[] = [...ratingFindings(basis, steps)];
   for (const s of steps)
     for (const g of s.isolateBefore)
       findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
-  const safety = safetyFindings(basis, steps);
+  const safety = safetyFindings(basis, steps, true, reviews);
   findings.push(...safety);
   findings.push(...sourceFindings(basis, amounts, sequence));
   findings.push(...modelFindings(basis, steps));
@@ -75,26 +76,42 @@ function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[]
     }));
 }
 
+/** safety reviews kept by everything they review (safetyFindings' states, fills, context and depth) */
+export type SafetyReviews = Map<string, readonly Finding[]>;
+
 /**
  * the safety review of every state the fill passes through (after every charge, split charges
  * included), and of each charge's path in the tank and at its inlet (core/sequence-review.ts, the
  * code the guided fill reviews its re-targeted remainder with); `locate` false bisects the path
- * boundaries 4 times instead of 9 (the split-point search needs the severities only)
+ * boundaries 4 times instead of 9 (the split-point search needs the severities only). With `reviews`
+ * a review of the same states and fills in the same context is taken from there (the review is a
+ * function of what it is given: the same findings).
  */
-export function safetyFindings(basis: PlanBasis, steps: readonly PlanStep[], locate = true): Finding[] {
+export function safetyFindings(
+  basis: PlanBasis,
+  steps: readonly PlanStep[],
+  locate = true,
+  reviews?: SafetyReviews,
+): Finding[] {
   const { initial } = basis;
-  return reviewSequence(
-    initial ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa } : undefined,
-    steps.map((s) => ({
-      step: s.index,
-      sourceId: s.source.id,
-      sourceComposition: s.source.composition,
-      compositionAfter: s.compositionAfter,
-      pressurePa: s.targetPa,
-    })),
-    basis.safety,
-    locate,
-  );
+  const start = initial
+    ? { step: 0, composition: initial.composition, pressurePa: initial.pressurePa }
+    : undefined;
+  const fills = steps.map((s) => ({
+    step: s.index,
+    sourceId: s.source.id,
+    sourceComposition: s.source.composition,
+    compositionAfter: s.compositionAfter,
+    pressurePa: s.targetPa,
+  }));
+  if (!reviews) return reviewSequence(start, fills, basis.safety, locate);
+  const key = JSON.stringify([start, fills, basis.safety, locate]);
+  let found = reviews.get(key);
+  if (!found) {
+    found = reviewSequence(start, fills, basis.safety, locate);
+    reviews.set(key, found);
+  }
+  return [...found];
 }
 
 /** codes judged at a fill (its path in the tank, its line, the gas it compresses) */

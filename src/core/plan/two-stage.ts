@@ -20,7 +20,7 @@ import type { Finding } from '../findings.js';
 import { designMixture, speciesRole, type Fractions } from '../composition.js';
 import { canRead, type Gauge } from '../gauges.js';
 import type { GasSource } from '../supply.js';
-import { planFill, type SharedStages } from '../planner.js';
+import { planFill, sharedStages, type SharedStages } from '../planner.js';
 import { predictPlan, withPrediction, type PredictedPlan, type PredictionInput } from '../predict.js';
 import { fail, ProblemError, type Problem } from '../problems.js';
 import { hazardRank, tankDelivery, withDeliveryFindings, type PremixDeliveryCheck } from '../supply-check.js';
@@ -593,7 +593,7 @@ export function planTwoStage(
       // the premix's nominal composition (cylinder impurities included) does not depend on order or heads
       // the choices of one composition differ in pressure, order and heads: the plans of one
       // pressure and order share their amounts and fill order (planner.ts, SharedStages)
-      const shared: SharedStages = new Map();
+      const shared = sharedStages();
       const firstPlan = premixPlan(
         input,
         { ...base, pressurePa: pressures[0], gauges: [], order: 'recommended' },
