@@ -329,39 +329,7 @@ export function workspaceFor(setup: InverseSetup): Workspace {
 }
 
 /**
- * The state of an inversion before each of its readings (amounts, identified amounts, density and
- * unidentified amount so far) and the densities it found: kept from one inversion, another whose
- * inputs are the same up to a reading resumes from there (each reading's step depends only on its
- * own inputs and the state before it, so the resumed one computes the same numbers to the bit).
- */
-export interface InversionCheckpoints {
-  readonly n: Float64Array;
-  readonly nId: Float64Array;
-  readonly rhoPrev: Float64Array;
-  readonly unid: Float64Array;
-  readonly rho: Float64Array;
-}
-
-export function checkpointsFor(setup: InverseSetup): InversionCheckpoints {
-  const S = setup.species.length;
-  const K = setup.wEos.length;
-  return {
-    n: new Float64Array(K * S),
-    nId: new Float64Array(K * S),
-    rhoPrev: new Float64Array(K),
-    unid: new Float64Array(K),
-    rho: new Float64Array(K),
-  };
-}
-
-/** keep an inversion's checkpoints, or resume one at reading `from` of kept checkpoints */
-export type Resume =
-  { readonly keep: InversionCheckpoints } | { readonly from: number; readonly kept: InversionCheckpoints };
-
-/**
  * @param start densities to start the iteration from (the nominal result, in a Monte Carlo loop)
- * @param resume keep this inversion's checkpoints, or start at a reading of kept ones (the caller
- *   vouches that every input of the readings before it is the kept inversion's)
  */
 export function invertReadings(
   setup: InverseSetup,
@@ -369,27 +337,15 @@ export function invertReadings(
   nominalP?: readonly number[],
   ws: Workspace = workspaceFor(setup),
   start?: Float64Array,
-  resume?: Resume,
 ): InverseResult {
   const S = setup.species.length;
   const K = setup.wEos.length;
   const { n, nId, y, w, rho: rhoOut } = ws;
-  const keep = resume && 'keep' in resume ? resume.keep : undefined;
-  const from = resume && 'from' in resume ? resume.from : 0;
+  n.fill(0);
+  nId.fill(0);
   let rhoPrev = 0;
   let unid = 0;
-  if (resume && 'kept' in resume && from > 0) {
-    const { kept } = resume;
-    n.set(kept.n.subarray(from * S, from * S + S));
-    nId.set(kept.nId.subarray(from * S, from * S + S));
-    rhoPrev = kept.rhoPrev[from];
-    unid = kept.unid[from];
-    rhoOut.set(kept.rho.subarray(0, from));
-  } else {
-    n.fill(0);
-    nId.fill(0);
-  }
-  if (setup.initial && from === 0) {
+  if (setup.initial) {
     const i0 = setup.initial;
     const r0 = solveRho({
       pressurePa: i0.pressurePa,
@@ -408,13 +364,7 @@ export function invertReadings(
     }
     rhoPrev = r0;
   }
-  for (let k = from; k < K; k++) {
-    if (keep) {
-      keep.n.set(n, k * S);
-      keep.nId.set(nId, k * S);
-      keep.rhoPrev[k] = rhoPrev;
-      keep.unid[k] = unid;
-    }
+  for (let k = 0; k < K; k++) {
     const P = p ? p.pressurePa[k] : nominalP![k];
     const T0 = setup.temperaturesK[k];
     const T = p ? p.temperatureK[k] : T0;
@@ -459,7 +409,6 @@ export function invertReadings(
     rhoOut[k] = rho;
     rhoPrev = rho;
   }
-  keep?.rho.set(rhoOut);
   // normalised over the identified species, as the plan reports them; the unidentified share beside
   let identified = 0;
   for (let i = 0; i < S; i++) identified += nId[i];

@@ -17,7 +17,7 @@
  */
 import { gaugeReadingPa, type Gauge } from './gauges.js';
 import type { CompositionTerm, GasSource } from './supply.js';
-import { checkpointsFor, inverseSetup, invertReadings, workspaceFor, type InverseSetup } from './recheck.js';
+import { inverseSetup, invertReadings, workspaceFor, type InverseSetup } from './recheck.js';
 import { virialU } from './mixture-eos.js';
 import { speciesRole, type Fractions } from './composition.js';
 import { oxygenDemand } from './formula.js';
@@ -113,17 +113,11 @@ export interface UncertaintyResult {
   readonly seed: number;
 }
 
-export interface Model {
+interface Model {
   readonly setup: InverseSetup;
   readonly components: InputComponent[];
-  /**
-   * apply a vector of component values to get the outputs; `keep` records the inversion's
-   * checkpoints (the nominal run), `from` resumes at that reading of them: only for a vector whose
-   * components move no reading before it (firstReading)
-   */
-  readonly evaluate: (v: Float64Array, at?: { keep: true } | { from: number }) => Float64Array;
-  /** the first reading each component moves (0: a component every reading depends on) */
-  readonly firstReading: Int32Array;
+  /** apply a vector of component values to get the outputs */
+  readonly evaluate: (v: Float64Array) => Float64Array;
   readonly outputs: readonly string[];
 }
 
@@ -332,8 +326,7 @@ function virialComponents(setup: InverseSetup, add: AddComponent): { i: number; 
   return out;
 }
 
-/** the re-check's measurement model: its input components and the outputs as a function of their values */
-export function uncertaintyModel(input: ModelInput): Model {
+function buildModel(input: ModelInput): Model {
   const { readings, settings, diluent, initial } = input;
   const setup = inverseSetup(
     readings.map((r) => ({ source: r.source, pressurePa: r.pressurePa, temperatureK: r.temperatureK })),
@@ -361,8 +354,7 @@ export function uncertaintyModel(input: ModelInput): Model {
   const T0 = Float64Array.from(readings.map((r) => r.temperatureK));
   const nominalRho = Float64Array.from(invertReadings(setup, undefined, [...P0]).rho);
   const at = (v: Float64Array, idx: number) => (idx >= 0 ? v[idx] : 0);
-  const kept = checkpointsFor(setup);
-  const evaluate: Model['evaluate'] = (v, resume) => {
+  const evaluate = (v: Float64Array): Float64Array => {
     for (let k = 0; k < K; k++) {
       P[k] =
         P0[k] +
@@ -386,14 +378,7 @@ export function uncertaintyModel(input: ModelInput): Model {
       }
     }
     const perturbation = { pressurePa: P, temperatureK: T, bAbsolute: bAbs, purity: pur, composition: dw };
-    const res = invertReadings(
-      setup,
-      perturbation,
-      undefined,
-      ws,
-      nominalRho,
-      resume && ('keep' in resume ? { keep: kept } : { from: resume.from, kept }),
-    );
+    const res = invertReadings(setup, perturbation, undefined, ws, nominalRho);
     out.set(res.x);
     // phi on the O-atom basis, as composition.equivalenceRatio, from precomputed O2 demands
     let need = 0;
@@ -408,33 +393,7 @@ export function uncertaintyModel(input: ModelInput): Model {
     out[S + 1] = d;
     return out;
   };
-  return { setup, components, evaluate, outputs, firstReading: firstReadings(ix, components.length, K) };
-}
-
-/**
- * The first reading each component moves: a gauge's span, zero and barometer its first reading on
- * that gauge, a reading's resolution, temperature and purity terms that reading, a source's
- * composition term its first reading from that source; the thermometer's offset and the virial
- * coefficients every reading (0), as does any component not found here.
- */
-function firstReadings(ix: ReadingInputs, N: number, K: number): Int32Array {
-  const first = new Int32Array(N).fill(K);
-  const perReading = [
-    ix.span,
-    ix.zero,
-    ix.resolution,
-    ix.barometer,
-    ix.temperatureResolution,
-    ix.settling,
-    ix.purity,
-  ];
-  for (const arr of perReading)
-    for (let k = 0; k < K; k++) if (arr[k] >= 0) first[arr[k]] = Math.min(first[arr[k]], k);
-  for (const t of ix.composition) for (const k of t.readings) first[t.c] = Math.min(first[t.c], k);
-  for (let c = 0; c < N; c++) if (first[c] === K) first[c] = 0;
-  if (ix.thermometer >= 0) first[ix.thermometer] = 0;
-  for (const b of ix.virial) first[b.c] = 0;
-  return first;
+  return { setup, components, evaluate, outputs };
 }
 
 /** k-th smallest value (0-based) by quickselect; reorders `a` */
@@ -513,12 +472,7 @@ export interface MonteCarloJob {
  */
 export function monteCarloSamples(job: MonteCarloJob): Float64Array[] {
   const diluent = job.diluent ?? defaultDiluent(job.readings);
-  const m = uncertaintyModel({
-    readings: job.readings,
-    settings: job.settings,
-    diluent,
-    initial: job.initial,
-  });
+  const m = buildModel({ readings: job.readings, settings: job.settings, diluent, initial: job.initial });
   return drawSamples(m, job.trials, job.seed);
 }
 
@@ -561,11 +515,10 @@ export function evaluateUncertainty(
   streams?: readonly Float64Array[][],
 ): UncertaintyResult {
   const dil = diluent ?? defaultDiluent(readings);
-  const m = uncertaintyModel({ readings, settings, diluent: dil, initial });
+  const m = buildModel({ readings, settings, diluent: dil, initial });
   const N = m.components.length;
   const nominalV = new Float64Array(N);
-  // the nominal run keeps its checkpoints: a component's runs start at the first reading it moves
-  const nominal = Float64Array.from(m.evaluate(nominalV, { keep: true }));
+  const nominal = Float64Array.from(m.evaluate(nominalV));
   const nominalUnid = invertReadings(
     m.setup,
     undefined,
@@ -578,10 +531,9 @@ export function evaluateUncertainty(
     const u = m.components[c].u;
     v.fill(0);
     v[c] = u;
-    const from = { from: m.firstReading[c] };
-    const up = Float64Array.from(m.evaluate(v, from));
+    const up = Float64Array.from(m.evaluate(v));
     v[c] = -u;
-    const dn = m.evaluate(v, from);
+    const dn = m.evaluate(v);
     for (let o = 0; o < O; o++) contrib[o].push((up[o] - dn[o]) / 2);
   }
   // Monte Carlo: the streams' samples joined

@@ -20,7 +20,6 @@ import {
   type Fractions,
 } from '../../src/core/index.js';
 import { enthalpyMolar, enthalpySum, thermoRangeK } from '../../src/core/thermo.js';
-import { uncertaintyModel } from '../../src/core/uncertainty.js';
 import { FUEL_SAFETY, type FuelSafetyRecord } from '../../src/core/data/safety-data.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { planWithPrediction, predictionThermometer } from '../../src/io/plan-predict.js';
@@ -202,68 +201,6 @@ describe("the fill-path review's shortcuts against the full assessment", () => {
     expect(uflRisesWithPressure(101325 * 1.000001)).toBe(true);
     expect(blendLimits({ CH4: 1 }, 298.15, 2e6).ufl).toBeGreaterThan(
       blendLimits({ CH4: 1 }, 298.15, 1e5).ufl,
-    );
-  });
-});
-
-describe("the GUM budget's runs resumed at the first reading a component moves", () => {
-  // the reference is the model run over every reading (the plain computation); tolerance zero
-  const req = buildPlanRequest(readRecipe('recipes/ch4-o2-ar-phi1.yaml'));
-  const lab = req.lab;
-  const gaugeIds = ['head-10T', 'head-1kT', 'head-10kT', 'xdcr-100g'];
-  const plan = planFill(req.input);
-  const cases = fc.record({
-    // each reading's head: one that reads it (the gauge-referenced transducer adds the barometer)
-    gauge: fc.array(fc.constantFrom(...gaugeIds), { minLength: 4, maxLength: 4 }),
-    scale: fc.double({ min: 0.7, max: 1.3, noNaN: true }),
-    dT: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 4, maxLength: 4 }),
-    thermometer: fc.constantFrom(0, 0.1),
-    settling: fc.constantFrom(0, 0.05),
-    inTank: fc.boolean(),
-  });
-
-  it('gives every component the outputs of the full run, to the bit (demo ch4-o2-ar-phi1 plan, any heads)', () => {
-    fc.assert(
-      fc.property(cases, (c) => {
-        const top = (id: string) => lab.gauges.find((g) => g.id === id)!;
-        const first = plan.steps[0].targetPa * c.scale;
-        const readings = plan.steps.map((s, k) => {
-          const pressurePa = (c.inTank ? first : 0) + s.targetPa * c.scale;
-          const fits = gaugeIds
-            .map(top)
-            .filter((g) => g.fullScalePa + (g.reference === 'gauge' ? 101325 : 0) >= pressurePa);
-          const gauge = fits.find((g) => g.id === c.gauge[k]) ?? fits[fits.length - 1];
-          return { step: k + 1, source: s.source, pressurePa, temperatureK: 298.15 + c.dT[k], gauge };
-        });
-        const m = uncertaintyModel({
-          readings,
-          settings: {
-            barometricPa: 101325,
-            barometricUncertaintyPa: 40,
-            thermometerUncertaintyK: c.thermometer,
-            thermometerResolutionK: 0.1,
-            temperatureSettlingK: c.settling,
-            trials: 0,
-            seed: 1,
-          },
-          diluent: ['Ar'],
-          initial: c.inTank ? { composition: { Ar: 1 }, pressurePa: first, temperatureK: 298.15 } : undefined,
-        });
-        const N = m.components.length;
-        const v = new Float64Array(N);
-        const nominal = Float64Array.from(m.evaluate(v, { keep: true }));
-        expect(Float64Array.from(m.evaluate(v))).toEqual(nominal);
-        // the shortcut is taken: some component starts after the first reading
-        expect(Math.max(...m.firstReading)).toBeGreaterThan(0);
-        for (let k = 0; k < N; k++)
-          for (const sign of [1, -1]) {
-            v.fill(0);
-            v[k] = sign * m.components[k].u;
-            const full = Float64Array.from(m.evaluate(v));
-            expect(m.evaluate(v, { from: m.firstReading[k] }), m.components[k].name).toEqual(full);
-          }
-      }),
-      { numRuns: 25 },
     );
   });
 });
