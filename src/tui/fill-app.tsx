@@ -595,14 +595,16 @@ export function endWords(s: FillState, record: EndRecord = {}): string {
     below: `CLOSED BELOW THE LAST TARGET: fill ${e.step} of ${K} at ${vs}`,
     vented: `CLOSED AFTER VENTING: fill ${e.step} of ${K} read ${vs}`,
   }[e.kind];
-  const many = e.short.length > 1;
-  const short = e.short.length
-    ? `; fill${many ? 's' : ''} ${e.short.join(', ')} left BELOW ${many ? 'their' : 'its'} band`
-    : '';
-  if (withdrawn) return `${withdrawn}; ${head}${short}`;
-  if (e.kind !== 'within') return head + short;
-  if (short) return `${K} fills logged, the last within its band${short}`;
-  if (e.over.length) return `all ${K} fills logged, the last within its band`;
+  // the fills before the last read outside their band, below (gone on from) and above, from the readings
+  const listed = (xs: readonly number[], how: string) =>
+    xs.length
+      ? `; fill${xs.length > 1 ? 's' : ''} ${xs.join(', ')} ${how} ${xs.length > 1 ? 'their' : 'its'} band`
+      : '';
+  const outside = listed(e.short, 'left BELOW') + listed(e.over, 'read ABOVE');
+  // "all N fills logged" only where every fill was read within its band
+  const lead = e.kind === 'within' && outside ? `${K} fills logged, the last within its band` : head;
+  if (withdrawn) return `${withdrawn}; ${lead}${outside}`;
+  if (e.kind !== 'within' || outside) return lead + outside;
   // "each within its band" only once the re-check has found no withdrawn reading past the limit
   return record.pending ? `${head} (the re-check of the log follows)` : `${head}, each within its band`;
 }
