@@ -1379,8 +1379,10 @@ function OverLimitScreen({ state }: ScreenProps) {
         what you choose is logged beside it.
       </Para>
       <Para>
-        Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
-        {step.gauge?.id ?? 'the gauge'}: at most {atMostOnGauge(state, step, o.ventToPa)}): {o.why}.{' '}
+        Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, until{' '}
+        {step.gauge?.id ?? 'the gauge'} reads at most {atMostOnGauge(state, step, o.ventToPa)} (the vent
+        target {fromPa(o.ventToPa, unit).toPrecision(6)} {unit} absolute, rounded down to what the gauge
+        shows): {o.why}.{' '}
         {o.last ? o.after.charAt(0).toUpperCase() + o.after.slice(1) : `From there: ${o.after}`}.
       </Para>
       <Para bold>
