@@ -11,6 +11,8 @@ export interface ReadingGrid {
   readonly resolutionPa: number;
   /** what the gauge subtracts from the absolute pressure: 0 absolute, the barometer gauge-referenced */
   readonly offsetPa: number;
+  /** the highest absolute pressure the gauge reads, Pa (its full scale plus offsetPa); undefined: not limited */
+  readonly topPa?: number;
 }
 
 /** relative slack against floating-point noise: a value already on the grid stays where it is */

@@ -117,9 +117,20 @@ export interface RemainderReview {
    */
   readonly continuation?: Continuation;
   /** why no safer stop is offered (when there are hazards and none is) */
-  readonly noAlternative?: 'no-diluent-stop' | 'none-clean' | 'not-searched';
+  readonly noAlternative?: 'no-diluent-stop' | 'none-clean' | 'not-searched' | 'past-gauge';
+  /**
+   * noAlternative 'past-gauge': the fill (0-based) whose reading the lowest clean stop would put past the
+   * top of its gauge (readingGrid topPa), and that reading (absolute, Pa; the stop's own fill: its top)
+   */
+  readonly pastGauge?: PastGauge;
   /** re-targets and reviews the search made */
   readonly evaluations: number;
+}
+
+/** a reading no gauge of its fill shows: the fill (0-based) and the absolute pressure, Pa */
+export interface PastGauge {
+  readonly fill: number;
+  readonly pressurePa: number;
 }
 
 const HAZARD_CODES: ReadonlySet<string> = new Set([
@@ -196,7 +207,11 @@ export function reviewRemainder(input: RemainderReviewInput): RemainderReview {
   return {
     ...base,
     evaluations: done + found.evaluations,
-    ...(found.stop ? { alternative: found.stop } : { noAlternative: 'none-clean' as const }),
+    ...(found.stop
+      ? { alternative: found.stop }
+      : found.pastGauge
+        ? { noAlternative: 'past-gauge' as const, pastGauge: found.pastGauge }
+        : { noAlternative: 'none-clean' as const }),
   };
 }
 
@@ -284,7 +299,7 @@ function saferStopOf(
   input: RemainderReviewInput,
   result: RetargetResult,
   k: number,
-): { stop?: SaferStop; evaluations: number } {
+): { stop?: SaferStop; pastGauge?: PastGauge; evaluations: number } {
   const base = input.retarget;
   const charges = base.charges!;
   const sourceId = base.sources[k].id;
@@ -294,6 +309,12 @@ function saferStopOf(
   const lastTarget = result.remaining.find((x) => x.step === lastOfSource + 1)?.targetPa;
   let hiPa = Math.min(lastTarget ?? Infinity, base.workingLimitPa ?? Infinity);
   if (!Number.isFinite(hiPa) || hiPa <= fromPa) return { evaluations: 0 };
+  // the stop is read on its fill's gauge: no higher than it shows (a stop past it could not be logged)
+  const shown = input.readingGrid?.(k);
+  const capped = shown?.topPa !== undefined && shown.topPa < hiPa;
+  if (capped) hiPa = shown.topPa!;
+  const pastTop = capped ? { fill: k, pressurePa: shown.topPa! } : undefined;
+  if (hiPa <= fromPa) return { evaluations: 0, pastGauge: pastTop };
   hiPa = fromPa + (hiPa - fromPa) * (1 - 1e-3);
   let evaluations = 0;
   // strict: no new hazard and no new near-flammable state (the plan's split-point rule); else no new hazard
@@ -317,10 +338,9 @@ function saferStopOf(
   const strict = judged.some((g) => g.strict);
   const ok = (e: { clean: boolean; strict: boolean }) => (strict ? e.strict : e.clean);
   const first = judged.findIndex(ok);
-  if (first < 0) return { evaluations };
+  if (first < 0) return { evaluations, pastGauge: pastTop };
   let lo = first > 0 ? judged[first - 1].p : fromPa;
   let hi = judged[first].p;
-  const shown = input.readingGrid?.(k);
   // to the gauge's resolution (else 1e-5 of the stop), at most MAX_BISECTIONS
   const fine = shown && shown.resolutionPa > 0 ? shown.resolutionPa : 1e-5 * hi;
   for (let i = 0; i < MAX_BISECTIONS && hi - lo > fine; i++) {
@@ -336,6 +356,9 @@ function saferStopOf(
   for (let tries = 0; tries < 4; tries++) {
     const e = at(toPa);
     if (ok(e)) {
+      // every fill ahead must be read on its gauge too: a target past its top is no way on
+      const past = unreadable(input, e.r);
+      if (past) return { evaluations, pastGauge: past };
       const findings = judgeRemainder(input, e.r, true).findings;
       return {
         stop: { fill: k, sourceId, fromPa, toPa, result: e.r, findings, marginKept: strict },
@@ -345,5 +368,15 @@ function saferStopOf(
     if (!shown) break;
     toPa = roundUpToGrid(toPa + shown.resolutionPa, shown);
   }
-  return { evaluations };
+  return { evaluations, pastGauge: pastTop };
+}
+
+/** the first remaining target past the top of its fill's gauge (readingGrid topPa), if any */
+function unreadable(input: RemainderReviewInput, r: RetargetResult): PastGauge | undefined {
+  for (const x of r.remaining) {
+    const top = input.readingGrid?.(x.step - 1)?.topPa;
+    if (top !== undefined && x.targetPa > top * (1 + 1e-9))
+      return { fill: x.step - 1, pressurePa: x.targetPa };
+  }
+  return undefined;
 }

@@ -595,14 +595,16 @@ export function endWords(s: FillState, record: EndRecord = {}): string {
     below: `CLOSED BELOW THE LAST TARGET: fill ${e.step} of ${K} at ${vs}`,
     vented: `CLOSED AFTER VENTING: fill ${e.step} of ${K} read ${vs}`,
   }[e.kind];
-  const many = e.short.length > 1;
-  const short = e.short.length
-    ? `; fill${many ? 's' : ''} ${e.short.join(', ')} left BELOW ${many ? 'their' : 'its'} band`
-    : '';
-  if (withdrawn) return `${withdrawn}; ${head}${short}`;
-  if (e.kind !== 'within') return head + short;
-  if (short) return `${K} fills logged, the last within its band${short}`;
-  if (e.over.length) return `all ${K} fills logged, the last within its band`;
+  // the fills before the last read outside their band, below (gone on from) and above, from the readings
+  const listed = (xs: readonly number[], how: string) =>
+    xs.length
+      ? `; fill${xs.length > 1 ? 's' : ''} ${xs.join(', ')} ${how} ${xs.length > 1 ? 'their' : 'its'} band`
+      : '';
+  const outside = listed(e.short, 'left BELOW') + listed(e.over, 'read ABOVE');
+  // "all N fills logged" only where every fill was read within its band
+  const lead = e.kind === 'within' && outside ? `${K} fills logged, the last within its band` : head;
+  if (withdrawn) return `${withdrawn}; ${lead}${outside}`;
+  if (e.kind !== 'within' || outside) return lead + outside;
   // "each within its band" only once the re-check has found no withdrawn reading past the limit
   return record.pending ? `${head} (the re-check of the log follows)` : `${head}, each within its band`;
 }
@@ -891,6 +893,12 @@ function BelowScreen({ state }: ScreenProps) {
   const t = state.targetsPa[m - 1];
   const st = shownPa(state, ls, t);
   const stop = `${fromPa(st, lu).toFixed(ld)}`;
+  const noneInside = noneInsideText(ls, st, lu, ld);
+  // no value the gauge shows is inside the band: no reading to stop at, and continuing cannot complete it
+  const cannot = noneInside
+    ? `cannot complete this fill: no value ${ls.gauge?.id ?? 'the gauge'} shows is inside its band, so a ` +
+      'further reading (more gas) is logged outside it too'
+    : undefined;
   return (
     <Box flexDirection="column">
       <ScreenTitle
@@ -901,19 +909,21 @@ function BelowScreen({ state }: ScreenProps) {
       {state.error ? null : <Para>{state.message ?? ' '}</Para>}
       <Box borderStyle="single" paddingX={2} flexDirection="column">
         <Text bold>
-          STOP AT {stop} {lu}
+          {noneInside
+            ? `TARGET ${fromPa(st, lu).toFixed(ld + 2)} ${lu} (no stop to read)`
+            : `STOP AT ${stop} ${lu}`}
         </Text>
         <Text>
           band {bandText(ls, st, lu, ld)} on {ls.gauge?.id ?? 'the gauge'}; logged now:{' '}
           {state.done[m - 1]?.text}
         </Text>
-        {noneInsideText(ls, st, lu, ld) ? <Text bold>{noneInsideText(ls, st, lu, ld)}</Text> : null}
+        {noneInside ? <Text bold>{noneInside}</Text> : null}
       </Box>
       {lastFill && state.judgement ? <JudgementView j={state.judgement} compact /> : null}
       {lastFill ? (
-        <LastWaysView state={state} stop={`${stop} ${lu}`} />
+        <LastWaysView state={state} stop={`${stop} ${lu}`} cannot={cannot} />
       ) : (
-        <BelowWaysView state={state} stop={`${stop} ${lu}`} />
+        <BelowWaysView state={state} stop={`${stop} ${lu}`} cannot={cannot} />
       )}
       <ReadingFields
         state={state}
@@ -982,11 +992,17 @@ function waysFound(w: BelowWays | undefined): { readonly still: string; readonly
   };
 }
 
+/** a below screen's ways: the stop to continue to, or why continuing cannot complete the fill */
+interface WaysProps {
+  readonly stop: string;
+  readonly cannot?: string;
+}
+
 /**
  * the ways on from an incomplete fill before the last, each with what its review found (belowWays): a way
  * is never called safe here unless its review found nothing the plan did not have
  */
-function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
+function BelowWaysView({ state, stop, cannot }: ScreenProps & WaysProps) {
   const w = state.belowWays;
   const m = state.done.length;
   const ls = state.setup.steps[m - 1];
@@ -1006,10 +1022,14 @@ function BelowWaysView({ state, stop }: ScreenProps & { readonly stop: string })
   return (
     <Box flexDirection="column">
       <Text>The ways on, each reviewed (every state and fill path ahead):</Text>
-      <Para>
-        - continue: fill on from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
-        {stop.split(' ')[0]} AB): {still}
-      </Para>
+      {cannot ? (
+        <Para>- continue: {cannot}</Para>
+      ) : (
+        <Para>
+          - continue: fill on from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
+          {stop.split(' ')[0]} AB): {still}
+        </Para>
+      )}
       <Para>
         - next AB (go on from {state.done[m - 1]?.text}
         {ends}): {next}
@@ -1041,17 +1061,21 @@ function UndoFixOptions({ state, note }: ScreenProps & { readonly note: string }
  * the ways on from the last fill read below its band, each with what its review found (belowWays): the
  * tank as it stands is reviewed for the close offer, as the stop offer of a fill before the last is
  */
-function LastWaysView({ state, stop }: ScreenProps & { readonly stop: string }) {
+function LastWaysView({ state, stop, cannot }: ScreenProps & WaysProps) {
   const w = state.belowWays;
   const ls = state.setup.steps[state.done.length - 1];
   const { still, tank } = waysFound(w);
   return (
     <Box flexDirection="column">
       <Text>The ways on, each reviewed (the tank as it stands, and the rest of the fill):</Text>
-      <Para>
-        - continue: add {ls.species} from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
-        {stop.split(' ')[0]} AB): {still}
-      </Para>
+      {cannot ? (
+        <Para>- continue: {cannot}</Para>
+      ) : (
+        <Para>
+          - continue: add {ls.species} from {ls.source.id} to {stop}, type the new reading and initials (e.g.{' '}
+          {stop.split(' ')[0]} AB): {still}
+        </Para>
+      )}
       <Para bold={Boolean(w?.tankNow.length)}>
         - close AB (close the batch below the target; the re-check judges it): {tank}
       </Para>
@@ -1355,8 +1379,10 @@ function OverLimitScreen({ state }: ScreenProps) {
         what you choose is logged beside it.
       </Para>
       <Para>
-        Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, to {absText(o.ventToPa)} (on{' '}
-        {step.gauge?.id ?? 'the gauge'}: at most {atMostOnGauge(state, step, o.ventToPa)}): {o.why}.{' '}
+        Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, until{' '}
+        {step.gauge?.id ?? 'the gauge'} reads at most {atMostOnGauge(state, step, o.ventToPa)} (the vent
+        target {fromPa(o.ventToPa, unit).toPrecision(6)} {unit} absolute, rounded down to what the gauge
+        shows): {o.why}.{' '}
         {o.last ? o.after.charAt(0).toUpperCase() + o.after.slice(1) : `From there: ${o.after}`}.
       </Para>
       <Para bold>

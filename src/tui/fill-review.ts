@@ -206,9 +206,8 @@ export function avoidedWarnings(s: FillState, step: number): string[] {
 function gridOf(s: FillState): (fill: number) => ReadingGrid | undefined {
   return (k) => {
     const g = s.setup.steps[k]?.gauge;
-    return g
-      ? { resolutionPa: g.resolutionPa, offsetPa: g.reference === 'gauge' ? s.barometerPa : 0 }
-      : undefined;
+    const offsetPa = g?.reference === 'gauge' ? s.barometerPa : 0;
+    return g ? { resolutionPa: g.resolutionPa, offsetPa, topPa: g.fullScalePa + offsetPa } : undefined;
   };
 }
 
@@ -232,7 +231,22 @@ const NO_ALTERNATIVE = {
     'no stop of the diluent charge ahead, up to the reading of its last charge, avoids it: the ' +
     'remaining sequence cannot be made as safe as the plan by a stop alone',
   'not-searched': 'no safer stop was searched',
+  'past-gauge': 'no safer stop can be offered',
 } as const;
+
+/** why no safer stop is offered: a stop that avoids it would need a reading its fill's gauge cannot show */
+function pastGaugeWords(s: FillState, rv: RemainderReview): string | undefined {
+  const p = rv.pastGauge;
+  const g = p && s.setup.steps[p.fill]?.gauge;
+  if (!p || !g) return undefined;
+  const top = g.fullScalePa + (g.reference === 'gauge' ? s.barometerPa : 0);
+  const beyond = p.pressurePa > top * (1 + 1e-9);
+  const range = `the range of ${g.id} it is read on (up to ${torr(top)} absolute)`;
+  return beyond
+    ? `no safer stop can be offered: the stop that avoids it puts ${stepName(s, p.fill)} at ` +
+        `${torr(p.pressurePa)} absolute, past ${range}`
+    : `no safer stop can be offered: no stop of ${stepName(s, p.fill)} that avoids it is within ${range}`;
+}
 
 /**
  * Review the remainder of a state whose targets have just been re-targeted; on a hazard the plan did
@@ -320,7 +334,7 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
         alt || continuation?.clean
           ? undefined
           : (continuation ? `continuing ${continuation.name} to its target does not avoid it either; ` : '') +
-            NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched'],
+            (pastGaugeWords(s, rv) ?? NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched']),
     },
   };
 }
