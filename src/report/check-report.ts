@@ -839,6 +839,8 @@ export function checkToJson(r: CheckReport, version: string): object {
       step: f.step,
       line: f.line,
       message: f.message,
+      // a CSV row whose number, read in the unit of the other rows or its gauge, would fit the fill
+      ...('unitSlip' in f && f.unitSlip ? { likely_unit_slip: f.unitSlip } : {}),
     })),
     verdict_caveats: r.caveats,
     record_altered_lines: r.record ? r.record.alteredLines : null,
