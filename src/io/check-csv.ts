@@ -325,6 +325,21 @@ function csvLimitFindings(
   return out;
 }
 
+/**
+ * the design species no row fills: a design species is filled by a row whose source carries it: its main
+ * gas, a premix's gases, or a component of 1 % or more (a mixed cylinder; our own margin: a cylinder's
+ * impurities are ppm). An impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
+ */
+function unfilledOf(design: Design, readings: readonly CheckedReading[]): string[] {
+  const carried = (s: CheckedReading['source']) => [
+    s.mainSpecies,
+    ...(s.gases ?? []),
+    ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
+  ];
+  const covered = new Set(readings.flatMap((r) => carried(r.source)));
+  return Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
+}
+
 /** the verdict's word on rows that are likely unit slips: the dangers above rest on them as typed */
 function slipCaveat(rows: readonly CsvReading[]): string[] {
   const lines = rows.filter((r) => r.unitSlip).map((r) => r.line);
@@ -378,25 +393,13 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     ),
   );
   let verdict = judge(result, design, tolerance);
-  let incomplete: string[] = [];
-  if (design) {
-    // a design species is filled by a row whose source carries it: its main gas, a premix's gases, or a
-    // component of 1 % or more (a mixed cylinder; our own margin: a cylinder's impurities are ppm). An
-    // impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
-    const carried = (s: CheckedReading['source']) => [
-      s.mainSpecies,
-      ...(s.gases ?? []),
-      ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
-    ];
-    const covered = new Set(readings.flatMap((r) => carried(r.source)));
-    incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
-    if (incomplete.length) {
-      warnings.push(
-        `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +
-          `finished; the batch is incomplete`,
-      );
-      verdict = { ...verdict, verdict: 'fail' };
-    }
+  const incomplete = design ? unfilledOf(design, readings) : [];
+  if (incomplete.length) {
+    warnings.push(
+      `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +
+        `finished; the batch is incomplete`,
+    );
+    verdict = { ...verdict, verdict: 'fail' };
   }
   const unchecked = tankWarning(b.tank);
   if (unchecked) warnings.push(unchecked);

@@ -419,10 +419,14 @@ function unitSlipOf(rows: readonly CsvReading[], texts: readonly string[], i: nu
       ...(lines.length ? [`line${lines.length > 1 ? 's' : ''} ${lines.join(', ')}`] : []),
       ...(unit === gaugeUnit ? [`gauge ${r.gauge}'s readout`] : []),
     ].join(' and ');
+    const within = [
+      ...(r.gauge && ctx.fullScaleOf?.(r.gauge) !== undefined ? [`the range of ${r.gauge}`] : []),
+      ...(ctx.tank?.limitPa !== undefined ? [`tank ${ctx.tank.id}'s working limit`] : []),
+    ];
     const fits = [
       ...(i > 0 ? [`above line ${rows[i - 1].line}`] : []),
       ...(i + 1 < rows.length ? [`below line ${rows[i + 1].line}`] : []),
-      `within ${[...(r.gauge && ctx.fullScaleOf?.(r.gauge) !== undefined ? [`the range of ${r.gauge}`] : []), ...(ctx.tank?.limitPa !== undefined ? [`tank ${ctx.tank.id}'s working limit`] : [])].join(' and ')}`,
+      `within ${within.join(' and ')}`,
       ...(target
         ? [
             `${((100 * (asPa - target.pa)) / target.pa).toFixed(2)} % from the plan's ${torr(target.pa)} ` +
