@@ -5,12 +5,20 @@
  */
 
 /**
+ * what "non-flammable" rests on: the flammability limits (LFL, UFL, LOC) the review uses, some of them
+ * estimated rather than measured (a flammability-data-estimated note names each); said beside every claim
+ */
+export const LIMITS_QUALIFIER =
+  'by the flammability limits used (each estimated one is named in a flammability-data-estimated note)';
+
+/**
  * the claim of the full review of a planned fill (plan/review.ts `safetyClause`) that found no hazard
  * on any tank state, the finished mixture's included, nor on any fill path; never an order review's
  * claim (ORDER_REVIEW_CLAIM): an order review does not judge the finished mixture
  */
 export const CLEAN_CLAIM =
-  'every intermediate tank state and every fill path is non-flammable and free of the hazards checked';
+  `every intermediate tank state and every fill path is non-flammable ${LIMITS_QUALIFIER} and free of ` +
+  'the hazards checked';
 
 /**
  * What an order review covers where it finds nothing: it reviews no finished mixture (the same in
@@ -20,8 +28,8 @@ export const CLEAN_CLAIM =
  * tests/core/order-words.test.ts holds the two together.
  */
 export const SHORT_OF_MIXTURE_CLAIM =
-  'every intermediate tank state is non-flammable and free of the hazards checked, and so is ' +
-  'every fill path short of the finished mixture';
+  `every intermediate tank state is non-flammable ${LIMITS_QUALIFIER} and free of the hazards checked, ` +
+  'and so is every fill path short of the finished mixture';
 
 /**
  * The claim of an order whose order review (the advice's, order.ts, or the sequence search's,

@@ -71,6 +71,8 @@ interface CsvBasis {
   readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
   /** the sources in the order of the recipe's plan */
   readonly plannedOrder?: readonly string[];
+  /** the plan's tank pressure after each fill, Pa (absolute) */
+  readonly targetsPa?: readonly number[];
 }
 
 function tankOf(t: TankSpec, from: CsvTank['from']): CsvTank {
@@ -152,6 +154,7 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
     planDangers,
     safety: req.input.safety,
     plannedOrder: plan.steps.map((s) => s.source.id),
+    targetsPa: plan.steps.map((s) => s.targetPa),
   };
 }
 
@@ -238,6 +241,8 @@ function csvReadings(
     conversions,
     referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
     fullScaleOf: (id) => b.gauges.find((g) => g.id === id)?.fullScalePa,
+    gaugeUnitOf: (id) => b.gauges.find((g) => g.id === id)?.unit,
+    targetsPa: b.targetsPa,
     ...(b.tank ? { tank: { id: b.tank.id, limitPa: b.tank.limitPa } } : {}),
     acceptsName: b.names.accepts,
   });
@@ -284,7 +289,17 @@ function csvLimitFindings(
 ): LogFinding[] {
   const out: LogFinding[] = [];
   readings.forEach((x, i) => {
+    // a likely unit slip is said in full once, on the row's first finding; the danger stands as typed
+    const slip = (first: boolean) =>
+      rows[i].unitSlip
+        ? {
+            unitSlip: first
+              ? rows[i].unitSlip
+              : `The same LIKELY UNIT SLIP on line ${rows[i].line} (see above)`,
+          }
+        : {};
     const at = { step: x.step, line: rows[i].line, unit: unitOf(x.gauge), replaced: false };
+    const before = out.length;
     if (tank?.limitPa !== undefined && x.pressurePa > tank.limitPa)
       out.push({
         code: 'above-working-limit',
@@ -293,6 +308,7 @@ function csvLimitFindings(
         pressurePa: x.pressurePa,
         limitPa: tank.limitPa,
         ...(tank.ratedPa !== undefined ? { ratedPa: tank.ratedPa } : {}),
+        ...slip(true),
       });
     const shownPa = x.gauge.reference === 'gauge' ? x.pressurePa - barometricPa : x.pressurePa;
     if (shownPa > x.gauge.fullScalePa)
@@ -303,9 +319,38 @@ function csvLimitFindings(
         gauge: x.gauge.id,
         shownPa,
         fullScalePa: x.gauge.fullScalePa,
+        ...slip(out.length === before),
       });
   });
   return out;
+}
+
+/**
+ * the design species no row fills: a design species is filled by a row whose source carries it: its main
+ * gas, a premix's gases, or a component of 1 % or more (a mixed cylinder; our own margin: a cylinder's
+ * impurities are ppm). An impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
+ */
+function unfilledOf(design: Design, readings: readonly CheckedReading[]): string[] {
+  const carried = (s: CheckedReading['source']) => [
+    s.mainSpecies,
+    ...(s.gases ?? []),
+    ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
+  ];
+  const covered = new Set(readings.flatMap((r) => carried(r.source)));
+  return Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
+}
+
+/** the verdict's word on rows that are likely unit slips: the dangers above rest on them as typed */
+function slipCaveat(rows: readonly CsvReading[]): string[] {
+  const lines = rows.filter((r) => r.unitSlip).map((r) => r.line);
+  if (!lines.length) return [];
+  const ls = `line${lines.length > 1 ? 's' : ''} ${lines.join(', ')}`;
+  return [
+    `LIKELY UNIT SLIP: ${ls} as typed ${lines.length > 1 ? 'go' : 'goes'} past a limit, but read in the ` +
+      `unit of the other rows or of ${lines.length > 1 ? 'their gauges' : 'its gauge'} would fit the fill ` +
+      `(see the findings). The dangers and the composition above rest on ${ls} as typed and stand until ` +
+      `the record is corrected: check the paper record, correct ${ls} and check again`,
+  ];
 }
 
 /** what the report says of the tank's limits: not checked, and why, when they are not known */
@@ -348,25 +393,13 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     ),
   );
   let verdict = judge(result, design, tolerance);
-  let incomplete: string[] = [];
-  if (design) {
-    // a design species is filled by a row whose source carries it: its main gas, a premix's gases, or a
-    // component of 1 % or more (a mixed cylinder; our own margin: a cylinder's impurities are ppm). An
-    // impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
-    const carried = (s: CheckedReading['source']) => [
-      s.mainSpecies,
-      ...(s.gases ?? []),
-      ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
-    ];
-    const covered = new Set(readings.flatMap((r) => carried(r.source)));
-    incomplete = Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
-    if (incomplete.length) {
-      warnings.push(
-        `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +
-          `finished; the batch is incomplete`,
-      );
-      verdict = { ...verdict, verdict: 'fail' };
-    }
+  const incomplete = design ? unfilledOf(design, readings) : [];
+  if (incomplete.length) {
+    warnings.push(
+      `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +
+        `finished; the batch is incomplete`,
+    );
+    verdict = { ...verdict, verdict: 'fail' };
   }
   const unchecked = tankWarning(b.tank);
   if (unchecked) warnings.push(unchecked);
@@ -411,14 +444,17 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     tank: b.tank
       ? { id: b.tank.id, ratedPa: b.tank.ratedPa, limitPa: b.tank.limitPa, from: b.tank.from }
       : undefined,
-    caveats: verdictCaveats(
-      findings,
-      'recorded reading',
-      [],
-      { dangers: b.planDangers ?? [], recipe: opts.recipeFile },
-      recorded.dangers,
-      incomplete.length > 0,
-    ),
+    caveats: [
+      ...verdictCaveats(
+        findings,
+        'recorded reading',
+        [],
+        { dangers: b.planDangers ?? [], recipe: opts.recipeFile },
+        recorded.dangers,
+        incomplete.length > 0,
+      ),
+      ...slipCaveat(rows),
+    ],
     planDangersNotAcknowledged: b.planDangers ?? [],
     recordedFill: recorded.recordedFill,
     recordedFillDangers: recorded.dangers,

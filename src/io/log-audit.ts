@@ -37,6 +37,8 @@ export type LogFinding =
       readonly ventedAgain?: boolean;
       /** an acknowledgement of this code and fill in the log: who accepted it at the manifold, and when */
       readonly accepted?: { readonly by: string; readonly time: string };
+      /** a CSV row's likely unit slip, in words (the danger stands as typed; this says how to correct it) */
+      readonly unitSlip?: string;
     }
   | {
       readonly code: 'above-gauge-range';
@@ -51,6 +53,8 @@ export type LogFinding =
       /** a reading after venting, read again after it (the tank was vented more): not corrected, a real reading */
       readonly ventedAgain?: boolean;
       readonly accepted?: { readonly by: string; readonly time: string };
+      /** a CSV row's likely unit slip, in words (the danger stands as typed; this says how to correct it) */
+      readonly unitSlip?: string;
     }
   | {
       readonly code: 'text-number-mismatch';
@@ -140,7 +144,8 @@ export function describeLogFinding(f: LogFinding): string {
           : f.replaced
             ? '; the reading was later corrected or withdrawn - if the tank really reached it, treat it as a danger'
             : ': have the tank and its fittings inspected under local practice before the batch is used') +
-        acceptedText(f.accepted)
+        acceptedText(f.accepted) +
+        (f.unitSlip ? `. ${f.unitSlip}` : '')
       );
     case 'above-gauge-range':
       return (
@@ -152,7 +157,8 @@ export function describeLogFinding(f: LogFinding): string {
           : f.replaced
             ? ' (the reading was later corrected or withdrawn)'
             : '; check the gauge before it is used again') +
-        acceptedText(f.accepted)
+        acceptedText(f.accepted) +
+        (f.unitSlip ? `. ${f.unitSlip}` : '')
       );
     case 'text-number-mismatch':
       return (

@@ -28,6 +28,10 @@ export interface CsvContext {
   readonly fullScaleOf?: (gaugeId: string) => number | undefined;
   /** the tank's working limit, Pa, and its id, when known */
   readonly tank?: { readonly id: string; readonly limitPa?: number };
+  /** the named gauge's readout unit ("Torr"), when the lab profile gives it */
+  readonly gaugeUnitOf?: (gaugeId: string) => string | undefined;
+  /** the recipe's planned tank pressures after each fill, Pa (absolute), when a recipe is given */
+  readonly targetsPa?: readonly number[];
 }
 
 /** the row before, as the rule that readings rise needs it */
@@ -180,6 +184,8 @@ export interface CsvReading {
   /** who read the gauge (initials, as the guided fill's --by); undefined: the row names nobody */
   readonly by?: string;
   readonly note?: string;
+  /** a likely unit slip of this row's reading, in words (what, why, what to do), where one fits */
+  readonly unitSlip?: string;
 }
 
 const REQUIRED = ['species', 'pressure', 'temperature'];
@@ -362,7 +368,81 @@ export function parseReadingsCsv(text: string, file: string, ctx: CsvContext = {
     texts.push(cells[col]);
   }
   if (out.length === 0) fail({ code: 'csv-no-rows' }, { file });
-  return out;
+  return out.map((r, i) => {
+    const slip = unitSlipOf(out, texts, i, ctx);
+    return slip ? { ...r, unitSlip: slip } : r;
+  });
+}
+
+/** the nearest planned pressure within 2 % (our own margin for "near its target") of `pa`, with its fill */
+function nearTarget(pa: number, targets: readonly number[]): { pa: number; fill: number } | undefined {
+  const near = targets
+    .map((t, k) => ({ pa: t, fill: k + 1 }))
+    .filter((t) => Math.abs(pa - t.pa) <= 0.02 * t.pa)
+    .sort((a, b) => Math.abs(pa - a.pa) - Math.abs(pa - b.pa));
+  return near[0];
+}
+
+/**
+ * A row whose reading as typed goes past its gauge's range or the tank's working limit, while its
+ * number read in the unit of the other rows (or of its gauge's readout) would be a plausible reading:
+ * above the row before, below the row after, within the range and the limit, and (a recipe given)
+ * within 2 % of one of the plan's tank pressures. The likely unit slip in words, or undefined.
+ */
+function unitSlipOf(rows: readonly CsvReading[], texts: readonly string[], i: number, ctx: CsvContext) {
+  const r = rows[i];
+  const past = pastOf(r.pressurePa, r.gauge, ctx);
+  if (!past.length) return undefined;
+  const own = unitOfText(texts[i]);
+  const gaugeUnit = r.gauge !== undefined ? ctx.gaugeUnitOf?.(r.gauge) : undefined;
+  const units = [...new Set([...(gaugeUnit ? [gaugeUnit] : []), ...texts.map(unitOfText)])];
+  const where: At = (field) => ({ file: '', line: r.line, field });
+  for (const unit of units.filter((u) => u && u !== own)) {
+    let asPa: number;
+    try {
+      asPa = rowPressurePa(
+        `${numberOf(texts[i])} ${unit}`,
+        r.gauge,
+        { ...ctx, conversions: undefined },
+        where,
+      );
+    } catch {
+      continue;
+    }
+    if (i > 0 && !(asPa > rows[i - 1].pressurePa)) continue;
+    if (i + 1 < rows.length && !(asPa < rows[i + 1].pressurePa)) continue;
+    if (pastOf(asPa, r.gauge, ctx).length) continue;
+    const target = ctx.targetsPa?.length ? nearTarget(asPa, ctx.targetsPa) : undefined;
+    if (ctx.targetsPa?.length && !target) continue;
+    const lines = rows.filter((_x, j) => j !== i && unitOfText(texts[j]) === unit).map((x) => x.line);
+    const whose = [
+      ...(lines.length ? [`line${lines.length > 1 ? 's' : ''} ${lines.join(', ')}`] : []),
+      ...(unit === gaugeUnit ? [`gauge ${r.gauge}'s readout`] : []),
+    ].join(' and ');
+    const within = [
+      ...(r.gauge && ctx.fullScaleOf?.(r.gauge) !== undefined ? [`the range of ${r.gauge}`] : []),
+      ...(ctx.tank?.limitPa !== undefined ? [`tank ${ctx.tank.id}'s working limit`] : []),
+    ];
+    const fits = [
+      ...(i > 0 ? [`above line ${rows[i - 1].line}`] : []),
+      ...(i + 1 < rows.length ? [`below line ${rows[i + 1].line}`] : []),
+      `within ${within.join(' and ')}`,
+      ...(target
+        ? [
+            `${((100 * (asPa - target.pa)) / target.pa).toFixed(2)} % from the plan's ${torr(target.pa)} ` +
+              `after its fill ${target.fill}`,
+          ]
+        : []),
+    ];
+    const as = `${numberOf(texts[i])} ${unit}`;
+    return (
+      `LIKELY UNIT SLIP on line ${r.line}: as typed, ${texts[i]} is past ${past.join(' and ')}; read as ` +
+      `${as}, the unit of ${whose}, it would be ${torr(asPa)} absolute: ${fits.join(', ')}. If the ` +
+      `gauge showed ${as}, correct line ${r.line} to "${as}" from the paper record and check again; ` +
+      `until then the record stands as typed, a danger`
+    );
+  }
+  return undefined;
 }
 
 /**

@@ -194,6 +194,8 @@ function compositionTable(r: CheckReport, order: Ordered): string[] {
     ],
   ];
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
+  // an incomplete batch: a row inside its tolerance is so on the readings given, never a pass
+  const soFar = r.incomplete.length ? ' so far' : '';
   for (const [k, st] of order) {
     const d = dev.get(k);
     rows.push([
@@ -210,14 +212,21 @@ function compositionTable(r: CheckReport, order: Ordered): string[] {
         ? d.pastRange?.length
           ? `NOT SHOWN (line ${d.pastRange.join(', ')}: past gauge range)`
           : d.provenWithin
-            ? 'ok'
+            ? `ok${soFar}`
             : d.within
-              ? 'ok?'
+              ? `ok?${soFar}`
               : 'OUT'
         : '',
     ]);
   }
-  return padTable(rows, [false, true, true, true, true, false, true, true, true, false]);
+  const table = padTable(rows, [false, true, true, true, true, false, true, true, true, false]);
+  if (!soFar || !r.verdict.deviations.some((d) => d.within && !d.pastRange?.length)) return table;
+  return [
+    ...table,
+    `"so far": the batch is incomplete (no reading for ${r.incomplete.join(', ')}); such a fraction is ` +
+      `inside its tolerance on the ${r.kind === 'csv' ? 'rows given' : 'fills logged so far'} only, not ` +
+      `passed: the missing fills change every fraction`,
+  ];
 }
 
 /** phi, the diluent fraction and the unidentified impurity, each against the design */
@@ -523,8 +532,13 @@ function recordedFillLines(r: CheckReport): string[] {
     );
   if (!f.findings.length)
     out.push(
-      '  the review finds no danger and no warning of the gas on the recorded states and fill paths (of the ' +
-        `hazards it checks; ${limitWords(r)})`,
+      '  the review finds no danger and no warning of the gas on the recorded states and fill paths' +
+        (r.incomplete.length
+          ? r.kind === 'csv'
+            ? " as the rows stand (a fill has no row: the states around it are not the tank's)"
+            : ' so far (the batch is incomplete: the fills not logged are not reviewed)'
+          : '') +
+        ` (of the hazards it checks; ${limitWords(r)})`,
     );
   if (f.notes.length) out.push(`  notes: ${f.notes.join(', ')}`);
   for (const x of f.findings)
@@ -761,6 +775,8 @@ function verdictJson(r: CheckReport) {
       expanded_u: d.expandedU,
       within: d.within,
       proven_within: d.provenWithin,
+      // within or not, on an incomplete batch a fraction is the readings' so far, never a pass
+      batch_incomplete: r.incomplete.length > 0,
       // the lines of the readings past their gauge's range this fraction rests on: never proven within then
       past_gauge_range_lines: d.pastRange ?? [],
     })),
@@ -839,6 +855,8 @@ export function checkToJson(r: CheckReport, version: string): object {
       step: f.step,
       line: f.line,
       message: f.message,
+      // a CSV row whose number, read in the unit of the other rows or its gauge, would fit the fill
+      ...('unitSlip' in f && f.unitSlip ? { likely_unit_slip: f.unitSlip } : {}),
     })),
     verdict_caveats: r.caveats,
     record_altered_lines: r.record ? r.record.alteredLines : null,

@@ -188,6 +188,8 @@ function shortTime(t: string): string {
 function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
   const pct = (x: number) => `${fixedSig(x * 100, 5)} %`;
+  // an incomplete batch: a fraction inside its tolerance is so on the fills logged so far, no pass
+  const soFar = r.incomplete.length ? ' so far' : '';
   const rows: CertificateRow[] = label.composition.map((c) => {
     const d = dev.get(c.species);
     return {
@@ -208,9 +210,9 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
             : d.pastRange?.length
               ? 'not shown (gauge range)'
               : d.provenWithin
-                ? 'within'
+                ? `within${soFar}`
                 : d.within
-                  ? 'inside, not shown'
+                  ? `inside${soFar}, not shown`
                   : 'OUT',
     };
   });

@@ -84,7 +84,9 @@ describe('plan --order with an inline design: the safer-order warning says it on
     expect(safer[1]).toBe(
       '  warning safer-order: the order given makes flammable or hazardous intermediate states or fills; ' +
         'CH4 -> Ar -> O2 avoids them (by the order review, every intermediate tank state is ' +
-        'non-flammable and free of the hazards checked, and so is every fill path short of the finished ' +
+        'non-flammable by the flammability limits used (each estimated one is named in a ' +
+        'flammability-data-estimated note) and free of the hazards checked, and so is every fill path ' +
+        'short of the finished ' +
         "mixture; the finished mixture, the same in every order, is judged by the plan's own findings)",
     );
     // planned in the advised order the batch is flammable (flammable-mixture at fill 3, in this plan too:

@@ -107,7 +107,8 @@ describe('plan stage 5: review', () => {
     expect(
       safetyClause([f('flammable-mixture', 'warning', 3), f('supply-pressure-low', 'danger', 3)], 3),
     ).toBe(
-      'every intermediate tank state is non-flammable and free of the hazards checked, and so is every fill ' +
+      'every intermediate tank state is non-flammable by the flammability limits used (each estimated one ' +
+        'is named in a flammability-data-estimated note) and free of the hazards checked, and so is every fill ' +
         'path short of the finished mixture, which itself has flammable-mixture (fill 3) (see the findings); ' +
         'besides the tank states and fills, the plan has 1 more danger: supply-pressure-low (fill 3)',
     );

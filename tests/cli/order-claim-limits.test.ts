@@ -1,0 +1,21 @@
+// The plan's claim that every intermediate state is non-flammable rests on flammability limits (LFL, UFL,
+// LOC), some estimated rather than measured: the claim says so wherever it is made, so that the n-heptane
+// plan, whose notes say its UFL in O2 and its LOC are estimated, never states it unqualified. Wording
+// only: no computed number is checked here.
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../helpers.js';
+
+describe('the order claim on estimated flammability limits', () => {
+  it('n-heptane: the order reason qualifies "non-flammable" by the limits used, and the notes name them', async () => {
+    const r = await runCli(['plan', 'recipes/nc7h16-o2-ar.yaml']);
+    expect(r.code, r.stderr).toBe(0);
+    const order = /^Order .*$/m.exec(r.stdout)?.[0] ?? '';
+    expect(order).toContain(
+      'is non-flammable by the flammability limits used (each estimated one is named in a ' +
+        'flammability-data-estimated note) and free of the hazards checked',
+    );
+    expect(r.stdout).not.toMatch(/is non-flammable and free of the hazards checked/);
+    expect(r.stdout).toMatch(/note {4}flammability-data-estimated: .*n-C7H16 \(UFL in O2\)/);
+    expect(r.stdout).toMatch(/note {4}flammability-data-estimated: .*n-C7H16 \(LOC = z x LFL\)/);
+  });
+});
