@@ -449,12 +449,14 @@ export function detonableStretchFinding(
 /**
  * The closed-vessel pressure of a flammable stretch of the bulk path that reaches a higher tank
  * pressure than every flammable end state (a fill that starts in a flammable tank and carries it
- * higher before the tank leaves the flammable region; or a stretch between two states that are not
- * flammable): the rule for states (closedVesselFinding in explosion-review.ts, danger above the
- * working limit, else a note) applied at the stretch's highest-pressure flammable point, the top of
- * the pressure range the path is flammable over. The end states' own findings judge them; this one
- * says what ignition would do where the path is flammable above them. The point is one the segment
- * review already judged flammable (the end of its span), so no assessment is added.
+ * higher before the tank leaves the flammable region; a stretch between two states that are not
+ * flammable is flammable-fill-path's, not judged here): the rule for states (closedVesselFinding in explosion-review.ts, danger above the
+ * working limit, else a note) applied at the stretch's highest-pressure flammable point (the end of
+ * the span the segment review found) and at its worst point (hottest flame) where that lies inside
+ * the path, the higher peak kept. It is reported when it exceeds the peak of every flammable end
+ * state (judged by the same rule; their own findings give theirs): a fill that makes the tank leaner
+ * or richer while it fills can ignite lower at the top than at its start, and then the start state's
+ * finding already holds the worst figure. No assessment is added (equilibria are cached).
  */
 function closedVesselOfPath(
   e: FillEvent,
@@ -464,15 +466,25 @@ function closedVesselOfPath(
   if (!e.before || !bulk.flammableU || !bulk.flammablePa) return undefined;
   const [pa, pb] = bulk.flammablePa;
   const topPa = Math.max(pa, pb);
-  const flammableEnds = [
-    ...(bulk.ranks.start > 0 ? [e.before.pressurePa] : []),
-    ...(bulk.ranks.end > 0 ? [e.after.pressurePa] : []),
-  ];
-  if (!(topPa > Math.max(-Infinity, ...flammableEnds))) return undefined;
+  const ends = [...(bulk.ranks.start > 0 ? [e.before] : []), ...(bulk.ranks.end > 0 ? [e.after] : [])];
+  // a stretch between two states that are not flammable is the crossing flammable-fill-path reports
+  if (!ends.length || !(topPa > Math.max(...ends.map((s) => s.pressurePa)))) return undefined;
+  const judge = (s: { composition: Fractions; pressurePa: number }) => {
+    const f = closedVesselFinding(s, ctx.temperatureK, ctx.workingLimitPa, e.step);
+    return f.code === 'closed-vessel-pressure' ? f : undefined; // closedVesselFinding gives no other code
+  };
   const topU = pb >= pa ? bulk.flammableU[1] : bulk.flammableU[0];
-  const top = { composition: mix(e.before.composition, e.after.composition, topU), pressurePa: topPa };
-  const cv = closedVesselFinding(top, ctx.temperatureK, ctx.workingLimitPa, e.step);
-  if (cv.code !== 'closed-vessel-pressure') return undefined; // closedVesselFinding gives no other code
+  const points = [{ composition: mix(e.before.composition, e.after.composition, topU), pressurePa: topPa }];
+  const w = bulk.worst;
+  if (w.rank > 0 && w.u > 0 && w.u < 1 && w.u !== topU) points.push(w);
+  let cv: Extract<Finding, { code: 'closed-vessel-pressure' }> | undefined;
+  for (const p of points) {
+    const f = judge(p);
+    if (f && (!cv || f.peakPa > cv.peakPa)) cv = f;
+  }
+  if (!cv) return undefined;
+  const endsPeak = Math.max(...ends.map((s) => judge(s)?.peakPa ?? -Infinity));
+  if (!(cv.peakPa > endsPeak)) return undefined;
   return {
     ...cv,
     code: 'closed-vessel-fill-path',

@@ -151,7 +151,7 @@ export type Finding = Base &
         /** the tank pressures between which the path is flammable */
         readonly flammableFromPa: number;
         readonly flammableToPa: number;
-        /** the ignition point judged: the highest-pressure flammable point of the path */
+        /** the ignition point judged: the top of the flammable stretch, or its worst point inside the path */
         readonly fromPa: number;
         readonly peakPa: number;
         readonly limitPa?: number;
@@ -575,7 +575,8 @@ function describeClosedVesselPath(
   const stretch =
     `during this fill (${f.source}) the tank is flammable from ${p(Math.min(f.flammableFromPa, f.flammableToPa))} ` +
     `up to ${p(Math.max(f.flammableFromPa, f.flammableToPa))}, a higher pressure than any flammable state before ` +
-    `or after it; ignited there the closed tank can reach ${p(f.peakPa)} (${how})`;
+    `or after it; ignited at ${p(f.fromPa)} the closed tank can reach ${p(f.peakPa)}, more than at any ` +
+    `flammable state before or after it (${how})`;
   if (f.limitPa !== undefined && f.peakPa > f.limitPa)
     return (
       `${stretch}, above the tank's working limit ${p(f.limitPa)} - change the fill order or the stops ` +
