@@ -450,13 +450,13 @@ export function detonableStretchFinding(
  * The closed-vessel pressure of a flammable stretch of the bulk path that reaches a higher tank
  * pressure than every flammable end state (a fill that starts in a flammable tank and carries it
  * higher before the tank leaves the flammable region; a stretch between two states that are not
- * flammable is flammable-fill-path's, not judged here): the rule for states (closedVesselFinding in explosion-review.ts, danger above the
- * working limit, else a note) applied at the stretch's highest-pressure flammable point (the end of
- * the span the segment review found) and at its worst point (hottest flame) where that lies inside
- * the path, the higher peak kept. It is reported when it exceeds the peak of every flammable end
- * state (judged by the same rule; their own findings give theirs): a fill that makes the tank leaner
- * or richer while it fills can ignite lower at the top than at its start, and then the start state's
- * finding already holds the worst figure. No assessment is added (equilibria are cached).
+ * flammable is flammable-fill-path's, not judged here): the rule for states (closedVesselFinding
+ * in explosion-review.ts, danger above the working limit, else a note) applied at the stretch's
+ * highest-pressure flammable point (the end of the span the segment review found) and at its worst
+ * point (hottest flame) where that lies inside the path, the higher peak kept. It is reported when
+ * it exceeds the peak of every flammable end state (judged by the same rule; their own findings give
+ * theirs): a fill that makes the tank leaner or richer while it fills can ignite lower at the top
+ * than at its start, and then the start state's finding already holds the worst figure. No assessment is added (equilibria are cached).
  */
 function closedVesselOfPath(
   e: FillEvent,

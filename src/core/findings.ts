@@ -574,9 +574,9 @@ function describeClosedVesselPath(
   const how = closedVesselMethod(f, p);
   const stretch =
     `during this fill (${f.source}) the tank is flammable from ${p(Math.min(f.flammableFromPa, f.flammableToPa))} ` +
-    `up to ${p(Math.max(f.flammableFromPa, f.flammableToPa))}, a higher pressure than any flammable state before ` +
-    `or after it; ignited at ${p(f.fromPa)} the closed tank can reach ${p(f.peakPa)}, more than at any ` +
-    `flammable state before or after it (${how})`;
+    `up to ${p(Math.max(f.flammableFromPa, f.flammableToPa))}, above the flammable state before or after it; ` +
+    `ignited at ${p(f.fromPa)} the closed tank can reach ${p(f.peakPa)}, more than that state ignited ` +
+    `(${how})`;
   if (f.limitPa !== undefined && f.peakPa > f.limitPa)
     return (
       `${stretch}, above the tank's working limit ${p(f.limitPa)} - change the fill order or the stops ` +
