@@ -456,7 +456,8 @@ export function detonableStretchFinding(
  * point (hottest flame) where that lies inside the path, the higher peak kept. It is reported when
  * it exceeds the peak of every flammable end state (judged by the same rule; their own findings give
  * theirs): a fill that makes the tank leaner or richer while it fills can ignite lower at the top
- * than at its start, and then the start state's finding already holds the worst figure. No assessment is added (equilibria are cached).
+ * than at its start, and then the start state's finding already holds the worst figure. No
+ * assessment is added (equilibria are cached).
  */
 function closedVesselOfPath(
   e: FillEvent,
