@@ -53,7 +53,7 @@ import { oxygenDemand } from './formula.js';
 import { TRACE_FUEL_OF_LFL, TRACE_OXYGEN } from './thresholds.js';
 import { detonableByRule, flammabilityNumbers, type FillEvent, type SafetyContext } from './safety.js';
 import type { Finding } from './findings.js';
-import { detonationFinding } from './explosion-review.js';
+import { closedVesselFinding, detonationFinding } from './explosion-review.js';
 import { detonability } from './detonation.js';
 
 /** hazard rank of one composition: 0 not flammable (or only near the limit), 1 flammable, 2 detonable */
@@ -447,9 +447,116 @@ export function detonableStretchFinding(
 }
 
 /**
+ * The closed-vessel pressure of a flammable stretch of the bulk path that reaches a higher tank
+ * pressure than every flammable end state (a fill that starts in a flammable tank and carries it
+ * higher before the tank leaves the flammable region; a stretch between two states that are not
+ * flammable is flammable-fill-path's, not judged here): the rule for states (closedVesselFinding
+ * in explosion-review.ts, danger above the working limit, else a note) applied at the stretch's
+ * highest-pressure flammable point (the end of the span the segment review found) and at its worst
+ * point (hottest flame) where that lies inside the path, the higher peak kept. It is reported when
+ * it exceeds the peak of every flammable end state (judged by the same rule; their own findings give
+ * theirs): a fill that makes the tank leaner or richer while it fills can ignite lower at the top
+ * than at its start, and then the start state's finding already holds the worst figure. No
+ * assessment is added (equilibria are cached).
+ */
+function closedVesselOfPath(
+  e: FillEvent,
+  bulk: SegmentReview,
+  ctx: SafetyContext,
+): Extract<Finding, { code: 'closed-vessel-fill-path' }> | undefined {
+  if (!e.before || !bulk.flammableU || !bulk.flammablePa) return undefined;
+  const [pa, pb] = bulk.flammablePa;
+  const topPa = Math.max(pa, pb);
+  const ends = [...(bulk.ranks.start > 0 ? [e.before] : []), ...(bulk.ranks.end > 0 ? [e.after] : [])];
+  // a stretch between two states that are not flammable is the crossing flammable-fill-path reports
+  if (!ends.length || !(topPa > Math.max(...ends.map((s) => s.pressurePa)))) return undefined;
+  const judge = (s: { composition: Fractions; pressurePa: number }) => {
+    const f = closedVesselFinding(s, ctx.temperatureK, ctx.workingLimitPa, e.step);
+    return f.code === 'closed-vessel-pressure' ? f : undefined; // closedVesselFinding gives no other code
+  };
+  const topU = pb >= pa ? bulk.flammableU[1] : bulk.flammableU[0];
+  const points = [{ composition: mix(e.before.composition, e.after.composition, topU), pressurePa: topPa }];
+  const w = bulk.worst;
+  if (w.rank > 0 && w.u > 0 && w.u < 1 && w.u !== topU) points.push(w);
+  let cv: Extract<Finding, { code: 'closed-vessel-pressure' }> | undefined;
+  for (const p of points) {
+    const f = judge(p);
+    if (f && (!cv || f.peakPa > cv.peakPa)) cv = f;
+  }
+  if (!cv) return undefined;
+  const endsPeak = Math.max(...ends.map((s) => judge(s)?.peakPa ?? -Infinity));
+  if (!(cv.peakPa > endsPeak)) return undefined;
+  return {
+    ...cv,
+    code: 'closed-vessel-fill-path',
+    source: e.sourceId,
+    flammableFromPa: Math.min(pa, pb),
+    flammableToPa: topPa,
+  };
+}
+
+/** the finding of a bulk path worse than both its end states, judged like such a state at its worst point */
+function crossingFinding(
+  e: FillEvent,
+  bulk: SegmentReview,
+  ctx: SafetyContext,
+  locate: boolean,
+  judge: boolean,
+): Finding {
+  const w = bulk.worst;
+  // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
+  const det =
+    bulk.rank === 2 && judge
+      ? detonableStretchFinding(
+          bulk.detonable,
+          ctx.temperatureK,
+          ctx.workingLimitPa,
+          e.step,
+          locate ? 'full' : 'severity',
+        )
+      : undefined;
+  return {
+    severity: bulk.rank === 2 ? (det?.severity ?? 'danger') : 'warning',
+    code: 'flammable-fill-path',
+    step: e.step,
+    source: e.sourceId,
+    detonable: bulk.rank === 2,
+    inertFraction: w.assessment.point.inert,
+    fromPa: bulk.flammablePa![0],
+    toPa: bulk.flammablePa![1],
+    ...(bulk.detonable.length
+      ? {
+          detonableFromPa: bulk.detonable[0].pressurePa,
+          detonableToPa: bulk.detonable[bulk.detonable.length - 1].pressurePa,
+        }
+      : {}),
+    ...flammabilityNumbers(w.assessment, w.pressurePa),
+    ...(det
+      ? {
+          detonationAtPa: det.pressurePa,
+          basis: det.basis,
+          undiluted: det.undiluted,
+          phi: det.phi,
+          phiLow: det.phiLow,
+          phiHigh: det.phiHigh,
+          limitSources: det.limitSources,
+          cjPa: det.cjPa,
+          cjK: det.cjK,
+          cjVelocityMPerS: det.cjVelocityMPerS,
+          reflectedPa: det.reflectedPa,
+          limitPa: det.limitPa,
+          cjMissing: det.cjMissing,
+        }
+      : {}),
+  };
+}
+
+/**
  * Findings of a fill's path: a bulk path that is flammable (or detonable) where
- * neither end state is is judged like such a state, at its worst point; an inlet that
- * is flammable where neither the bulk path nor the end states are is a warning.
+ * neither end state is is judged like such a state, at its worst point; a flammable
+ * stretch that reaches above every flammable end state gets its closed-vessel pressure at
+ * its top (closedVesselOfPath); an inlet that is flammable where neither the bulk path nor
+ * the end states are is a warning.
  * `locate` false bisects the boundaries 4 times instead of 9 and judges a detonable stretch
  * for its severity alone (the order search needs the severities, not the exact pressure range
  * or the CJ numbers). `judge` false leaves a detonable stretch unjudged: a danger without its
@@ -460,55 +567,9 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true, 
   const bulk = reviewBulkPath(e, ctx.temperatureK, locate);
   if (!bulk) return out;
   const ends = Math.max(bulk.ranks.start, bulk.ranks.end);
-  if (bulk.rank > ends) {
-    const w = bulk.worst;
-    // a detonable stretch is judged by the rule for detonable states; without a verdict from it, a danger
-    const det =
-      bulk.rank === 2 && judge
-        ? detonableStretchFinding(
-            bulk.detonable,
-            ctx.temperatureK,
-            ctx.workingLimitPa,
-            e.step,
-            locate ? 'full' : 'severity',
-          )
-        : undefined;
-    out.push({
-      severity: bulk.rank === 2 ? (det?.severity ?? 'danger') : 'warning',
-      code: 'flammable-fill-path',
-      step: e.step,
-      source: e.sourceId,
-      detonable: bulk.rank === 2,
-      inertFraction: w.assessment.point.inert,
-      fromPa: bulk.flammablePa![0],
-      toPa: bulk.flammablePa![1],
-      ...(bulk.detonable.length
-        ? {
-            detonableFromPa: bulk.detonable[0].pressurePa,
-            detonableToPa: bulk.detonable[bulk.detonable.length - 1].pressurePa,
-          }
-        : {}),
-      ...flammabilityNumbers(w.assessment, w.pressurePa),
-      ...(det
-        ? {
-            detonationAtPa: det.pressurePa,
-            basis: det.basis,
-            undiluted: det.undiluted,
-            phi: det.phi,
-            phiLow: det.phiLow,
-            phiHigh: det.phiHigh,
-            limitSources: det.limitSources,
-            cjPa: det.cjPa,
-            cjK: det.cjK,
-            cjVelocityMPerS: det.cjVelocityMPerS,
-            reflectedPa: det.reflectedPa,
-            limitPa: det.limitPa,
-            cjMissing: det.cjMissing,
-          }
-        : {}),
-    });
-    return out;
-  }
+  if (bulk.rank > ends) out.push(crossingFinding(e, bulk, ctx, locate, judge));
+  const cv = closedVesselOfPath(e, bulk, ctx);
+  if (cv) out.push(cv);
   if (bulk.rank > 0) return out;
   // inside the data's uncertainty margin on the way, where neither end state is (those say it themselves)
   const m = bulk.withinMargin;

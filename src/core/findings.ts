@@ -145,6 +145,18 @@ export type Finding = Base &
         DetonationNumbers)
     | ({ readonly code: 'near-flammable-fill-path'; readonly source: string } & FlammabilityNumbers)
     | ({
+        /** a fill that carries a flammable tank to a higher pressure than any flammable end state */
+        readonly code: 'closed-vessel-fill-path';
+        readonly source: string;
+        /** the tank pressures between which the path is flammable */
+        readonly flammableFromPa: number;
+        readonly flammableToPa: number;
+        /** the ignition point judged: the top of the flammable stretch, or its worst point inside the path */
+        readonly fromPa: number;
+        readonly peakPa: number;
+        readonly limitPa?: number;
+      } & ClosedVesselNumbers)
+    | ({
         readonly code: 'flammable-at-inlet';
         readonly source: string;
         readonly incomingShare: number;
@@ -538,7 +550,10 @@ function describeDetonation(f: DetonableState, p: PressureFormatter): string {
 type ClosedVessel = Extract<Finding, { code: 'closed-vessel-pressure' }>;
 
 /** how the closed-vessel peak was computed */
-function closedVesselMethod(f: ClosedVessel, p: PressureFormatter): string {
+function closedVesselMethod(
+  f: ClosedVessel | Extract<Finding, { code: 'closed-vessel-fill-path' }>,
+  p: PressureFormatter,
+): string {
   if (f.method === 'complete-combustion')
     return (
       `complete combustion at constant volume from ${p(f.fromPa)}; no equilibrium: ` +
@@ -549,6 +564,26 @@ function closedVesselMethod(f: ClosedVessel, p: PressureFormatter): string {
   const cross =
     f.completePa !== undefined ? `; complete combustion, a cross-check, gives ${p(f.completePa)}` : '';
   return `constant-volume adiabatic equilibrium from ${p(f.fromPa)}${at}${soot}${cross}`;
+}
+
+/** a fill that carries a flammable tank to a higher pressure than its flammable end states */
+function describeClosedVesselPath(
+  f: Extract<Finding, { code: 'closed-vessel-fill-path' }>,
+  p: PressureFormatter,
+): string {
+  const how = closedVesselMethod(f, p);
+  const stretch =
+    `during this fill (${f.source}) the tank is flammable from ${p(Math.min(f.flammableFromPa, f.flammableToPa))} ` +
+    `up to ${p(Math.max(f.flammableFromPa, f.flammableToPa))}, above the flammable state before or after it; ` +
+    `ignited at ${p(f.fromPa)} the closed tank can reach ${p(f.peakPa)}, more than that state ignited ` +
+    `(${how})`;
+  if (f.limitPa !== undefined && f.peakPa > f.limitPa)
+    return (
+      `${stretch}, above the tank's working limit ${p(f.limitPa)} - change the fill order or the stops ` +
+      `so that the tank is not flammable at these pressures`
+    );
+  const limit = f.limitPa !== undefined ? `; working limit ${p(f.limitPa)}` : '; the tank rating is unknown';
+  return `${stretch}${limit}`;
 }
 
 function describeClosedVessel(f: ClosedVessel, p: PressureFormatter): string {
@@ -675,6 +710,7 @@ const FLAMMABILITY: WordingTable<
   | 'inert-coefficient-unknown'
   | 'flammable-fill-path'
   | 'near-flammable-fill-path'
+  | 'closed-vessel-fill-path'
   | 'flammable-at-inlet'
 > = {
   'flammable-state': (f, p) =>
@@ -705,6 +741,7 @@ const FLAMMABILITY: WordingTable<
   'near-flammable-fill-path': (f, p) =>
     `while ${f.source} is filled the tank passes, at about ${p(f.pressurePa)}, a composition that is ` +
     `${withinMarginWords(f, f.withinMargin ?? 0).replace(/^this state is /, '')}`,
+  'closed-vessel-fill-path': describeClosedVesselPath,
   'flammable-at-inlet': (f) =>
     `where ${f.source} enters the tank it mixes with the tank gas into flammable ` +
     `compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), ` +

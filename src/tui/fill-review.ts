@@ -464,6 +464,12 @@ function numbersOf(f: Finding): string {
         `ignited at ${torr(f.fromPa)} it reaches ${torr(f.peakPa)}` +
         (f.limitPa !== undefined ? ` (working limit ${torr(f.limitPa)})` : '')
       );
+    case 'closed-vessel-fill-path':
+      return (
+        `flammable from ${torr(f.flammableFromPa)} to ${torr(f.flammableToPa)}; ignited at ` +
+        `${torr(f.fromPa)} it reaches ${torr(f.peakPa)}` +
+        (f.limitPa !== undefined ? ` (working limit ${torr(f.limitPa)})` : '')
+      );
     case 'detonable-state':
       return `at ${torr(f.pressurePa)}`;
     default:

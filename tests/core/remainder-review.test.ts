@@ -59,7 +59,21 @@ describe('review of the re-targeted remainder', () => {
 
   it('CH4 read 40 % high (14.0179 Torr): the state after O2 at 428.02 Torr is flammable, inside the published limits by hand', () => {
     const rv = review(input([14.0179]), false);
-    expect(codes(rv.hazards)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3']);
+    // fill 4 (Ar) starts in that flammable tank and keeps it flammable to a higher pressure: the closed-vessel
+    // pressure at the top of the stretch is its own hazard, above the state's (fill-path-closed-vessel.test.ts)
+    expect(codes(rv.hazards)).toEqual([
+      'flammable-state@3',
+      'closed-vessel-pressure@3',
+      'closed-vessel-fill-path@4',
+    ]);
+    const top = rv.hazards[2];
+    if (top.code !== 'closed-vessel-fill-path')
+      throw new Error(`expected closed-vessel-fill-path, got ${top.code}`);
+    const state = rv.hazards[1];
+    if (state.code !== 'closed-vessel-pressure')
+      throw new Error(`expected closed-vessel-pressure, got ${state.code}`);
+    expect(top.peakPa).toBeGreaterThan(state.peakPa);
+    expect(top.flammableToPa).toBeGreaterThan(428.02 * TORR);
     const f = rv.hazards[0];
     if (f.code !== 'flammable-state') throw new Error(`expected flammable-state, got ${f.code}`);
     expect(f.pressurePa / TORR).toBeCloseTo(428.02, 1);

@@ -25,7 +25,12 @@ describe('a fill below its band after a review whose danger was accepted', () =>
 
   it('the review found the danger and it was accepted', () => {
     expect(rv.phase).toBe('review');
-    expect(rv.review!.hazards.map((z) => z.key)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3']);
+    // fill 4 (Ar) keeps the flammable tank flammable to a higher pressure: its own closed-vessel danger
+    expect(rv.review!.hazards.map((z) => z.key)).toEqual([
+      'flammable-state@3',
+      'closed-vessel-pressure@3',
+      'closed-vessel-fill-path@4',
+    ]);
     expect(acc.reviewed!.accepted).toContain('closed-vessel-pressure@3');
     expect(below.phase).toBe('below');
   });
@@ -35,10 +40,12 @@ describe('a fill below its band after a review whose danger was accepted', () =>
     expect(w.goingOn).toEqual([]);
     expect(w.goingOnAccepted.map((z) => `${z.severity} ${z.key}`)).toEqual([
       'danger closed-vessel-pressure@3',
+      'danger closed-vessel-fill-path@4',
       'warning flammable-state@3',
     ]);
     expect(w.continuing!.stillAccepted).toEqual([
       'DANGER closed-vessel-pressure (fill 3)',
+      'DANGER closed-vessel-fill-path (fill 4)',
       'WARNING flammable-state (fill 3)',
     ]);
   });
@@ -48,7 +55,7 @@ describe('a fill below its band after a review whose danger was accepted', () =>
     // what `next` leads to: the danger at fill 3, as its review found it
     const next = read(below, 'next JD', 5);
     const dangers = (next.acceptedHazards ?? []).filter((z) => z.severity === 'danger');
-    expect(dangers.map((z) => z.key)).toEqual(['closed-vessel-pressure@3']);
+    expect(dangers.map((z) => z.key)).toEqual(['closed-vessel-pressure@3', 'closed-vessel-fill-path@4']);
     expect(f).not.toMatch(/no hazard the plan did not have/);
     expect(f).toMatch(/- next AB .*passes the accepted DANGER closed-vessel-pressure \(fill 3\)/);
     expect(f).toMatch(/- continue: .*still passes the accepted DANGER closed-vessel-pressure \(fill 3\)/);

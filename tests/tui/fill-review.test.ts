@@ -45,7 +45,8 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     const s1 = read(s0, CH4_HIGH, events);
     expect(s1.phase).toBe('review');
     expect(s1.review?.trigger).toBe('reading');
-    expect(keys(s1)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3']);
+    // fill 4 (Ar) keeps that flammable tank flammable to a higher pressure: its own closed-vessel hazard
+    expect(keys(s1)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3', 'closed-vessel-fill-path@4']);
     expect(planHas(h, 'flammable-state@3')).toBe(false);
     expect(s1.review?.hazards[1].severity).toBe('danger');
     expect(s1.review?.hazards[0].text).toMatch(/flammable after this fill .* at 428\.0\d+ Torr/);
@@ -105,12 +106,17 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
           hazards: [
             { code: 'flammable-state', step: 3, severity: 'warning' },
             { code: 'closed-vessel-pressure', step: 3, severity: 'danger' },
+            { code: 'closed-vessel-fill-path', step: 4, severity: 'danger' },
           ],
         }),
       }),
     ]);
     expect(s2.targetsPa[1] / TORR).toBeCloseTo(400, 9);
-    expect(s2.acceptedHazards?.map((z) => z.key)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3']);
+    expect(s2.acceptedHazards?.map((z) => z.key)).toEqual([
+      'flammable-state@3',
+      'closed-vessel-pressure@3',
+      'closed-vessel-fill-path@4',
+    ]);
     // fill 3 (O2) creates the accepted danger: it opens on the reminder, as a plan danger's fill does
     const s3 = read(s2, at(s2, 1));
     expect(s3.phase).toBe('reminder');
@@ -159,7 +165,7 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     c = read(c, 'mistyped: the head read 14.0179');
     expect(c.phase).toBe('review');
     expect(c.review?.trigger).toBe('correction');
-    expect(keys(c)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3']);
+    expect(keys(c)).toEqual(['flammable-state@3', 'closed-vessel-pressure@3', 'closed-vessel-fill-path@4']);
     // Esc from a correction begun on the review screen comes back to it
     const f = read(c, 'fix 2 AB');
     expect(f.phase).toBe('correct');

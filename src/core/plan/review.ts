@@ -119,6 +119,7 @@ const FILL_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-fill-path',
   'flammable-at-inlet',
   'near-flammable-fill-path',
+  'closed-vessel-fill-path',
   'compression-heating',
   'oxygen-compression',
 ]);

@@ -90,6 +90,7 @@ const SEQUENCE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-fill-path',
   'flammable-at-inlet',
   'near-flammable-fill-path',
+  'closed-vessel-fill-path',
   'no-gauge-covers',
   'supply-pressure-low',
   'tank-over-rating',

@@ -53,6 +53,7 @@ const STOP_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-fill-path',
   'flammable-at-inlet',
   'near-flammable-fill-path',
+  'closed-vessel-fill-path',
   'oxygen-enriched',
   'no-gauge-covers',
   'supply-pressure-low',
