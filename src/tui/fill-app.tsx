@@ -1007,7 +1007,21 @@ function BelowWaysView({ state, stop, cannot }: ScreenProps & WaysProps) {
   const m = state.done.length;
   const ls = state.setup.steps[m - 1];
   const { still, tank } = waysFound(w);
-  const next = w ? passes(w.goingOn.map(hazardShort), w.goingOnAccepted.map(hazardShort)) : 'not reviewed';
+  const cont = w?.continuing;
+  const onNext = w ? [w.goingOn.map(hazardShort), w.goingOnAccepted.map(hazardShort)] : undefined;
+  // the same hazards as continuing (both computed): said once, on the continue line
+  const same =
+    !cannot &&
+    cont !== undefined &&
+    onNext !== undefined &&
+    onNext[0].length + onNext[1].length > 0 &&
+    onNext[0].join('\u0000') === cont.still.join('\u0000') &&
+    onNext[1].join('\u0000') === cont.stillAccepted.join('\u0000');
+  const next = !onNext
+    ? 'not reviewed'
+    : same
+      ? 'passes the same hazards as continue, named above (the accepted ones stand), no hazard beyond those'
+      : passes(onNext[0], onNext[1]);
   // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
   const K = state.setup.steps.length;
   const last = state.setup.steps[K - 1];
