@@ -65,6 +65,11 @@ export interface RemainderReviewInput {
    * fill incomplete, and going on with the same fill to its target is the first safer way looked at
    */
   readonly lastBandPa?: number;
+  /**
+   * whether a value the fill's gauge displays lies inside its band at a target (0-based fill, absolute Pa):
+   * a continuation to a target no reading can show inside its band does not spare the search for a stop
+   */
+  readonly readableTarget?: (fill: number, targetPa: number) => boolean;
 }
 
 /** the last fill read stopped below its band: continuing it to its target, and what that leaves ahead */
@@ -113,7 +118,7 @@ export interface RemainderReview {
   readonly alternative?: SaferStop;
   /**
    * the last fill read is incomplete (below its band): continuing it to its target, the first safer way
-   * (when it is clean no stop is searched)
+   * (when it is clean and its target readable inside its band, no stop is searched)
    */
   readonly continuation?: Continuation;
   /** why no safer stop is offered (when there are hazards and none is) */
@@ -198,7 +203,8 @@ export function reviewRemainder(input: RemainderReviewInput): RemainderReview {
   if (!hazards.length) return { result, findings, hazards, near, evaluations: 0 };
   const continuation = continuationOf(input, result);
   const base = { result, findings, hazards, near, ...(continuation ? { continuation } : {}) };
-  if (continuation?.clean) return { ...base, evaluations: 1 };
+  const readable = !continuation || (input.readableTarget?.(continuation.fill, continuation.toPa) ?? true);
+  if (continuation?.clean && readable) return { ...base, evaluations: 1 };
   const done = continuation ? 1 : 0;
   if (input.searchAlternative === false) return { ...base, noAlternative: 'not-searched', evaluations: done };
   const k = diluentStopAhead(input.retarget, hazards);

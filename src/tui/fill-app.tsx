@@ -22,7 +22,8 @@ import { fromPa, isPressureUnit, type PressureUnit } from '../io/quantity.js';
 import type { NewLogEvent } from '../io/batch-log.js';
 import type { CheckReport } from '../io/check.js';
 import { splitChunk } from './keys.js';
-import { bandWords, decimalsFor, fixedSig, inwardBand, noneInsideWords, tankName } from '../report/format.js';
+import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
+import { noneInsideOnGauge } from './gauge-view.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
@@ -386,8 +387,8 @@ function bandText(step: FillStep, centerPa: number, unit: PressureUnit, dec: num
  * where no value the gauge displays lies inside a fill's band: said before the reading, with the nearest
  * displayed value and on which side of the band it reads (never a stop the gauge cannot show as inside)
  */
-function noneInsideText(step: FillStep, centerPa: number, unit: PressureUnit, dec: number) {
-  const words = step.gauge && noneInsideWords(step.gauge.id, centerPa, step.bandPa, unit, dec);
+function noneInsideText(state: FillState, step: FillStep, targetPa: number) {
+  const words = noneInsideOnGauge(state, step, targetPa);
   return words ? `! ${words}` : undefined;
 }
 
@@ -893,7 +894,7 @@ function BelowScreen({ state }: ScreenProps) {
   const t = state.targetsPa[m - 1];
   const st = shownPa(state, ls, t);
   const stop = `${fromPa(st, lu).toFixed(ld)}`;
-  const noneInside = noneInsideText(ls, st, lu, ld);
+  const noneInside = noneInsideText(state, ls, t);
   // no value the gauge shows is inside the band: no reading to stop at, and continuing cannot complete it
   const cannot = noneInside
     ? `cannot complete this fill: no value ${ls.gauge?.id ?? 'the gauge'} shows is inside its band, so a ` +
@@ -1755,7 +1756,7 @@ function ReadingScreen({ state }: ScreenProps) {
   // the hints name this session's operator (after a resume by another, theirs), else an example
   const who = state.operator ?? 'AB';
   const band = bandText(step, shown, unit, dec);
-  const noneInside = noneInsideText(step, shown, unit, dec);
+  const noneInside = noneInsideText(state, step, target);
   const gaugeLine =
     `Read on ${step.gauge?.id ?? 'NO GAUGE'}` +
     (step.gauge?.reference === 'gauge'

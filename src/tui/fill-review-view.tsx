@@ -5,7 +5,7 @@
  */
 import { Box, Text } from 'ink';
 import type { FillState } from './fill-state.js';
-import { alternativeTargets } from './fill-review.js';
+import { alternativeTargets, continuationOffered } from './fill-review.js';
 import { fromPa } from '../io/quantity.js';
 import { fillTitle } from './stage-state.js';
 import { Options, Para, ScreenTitle } from './para.js';
@@ -42,7 +42,12 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
         </Para>
       ))}
       <Text> </Text>
-      {cont?.clean ? (
+      {cont?.clean && cont.unreadable ? (
+        <Para>
+          Continuing {cont.name} to its target {torr(cont.toPa)} is not offered: {cont.unreadable}.
+        </Para>
+      ) : null}
+      {cont && continuationOffered(cont) ? (
         <Para>
           Safer: continue {cont.name} to its target {torr(cont.toPa)} absolute (it stopped at{' '}
           {torr(cont.fromPa)}): then no state or fill path ahead is flammable or a danger that the plan did
@@ -66,7 +71,7 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
       {state.error ? null : <Text> </Text>}
       <Options
         options={[
-          ...(cont?.clean ? [['VALUE INITIALS', 'the fill continued'] as const] : []),
+          ...(continuationOffered(cont) ? [['VALUE INITIALS', 'the fill continued'] as const] : []),
           ...(alt ? [['safer INITIALS', 'take the safer stop'] as const] : []),
           ['accept INITIALS', "go on through it (have it reviewed by your lab's rules first)"],
           ['undo INITIALS', 'the last reading was mistyped'],

@@ -26,6 +26,7 @@ import { fromPa } from '../io/quantity.js';
 import type { LogRemainderReview, NewLogEvent, ParsedLog } from '../io/batch-log.js';
 import { chargeName, isSplit } from '../report/charges.js';
 import type { FillSetup, FillState } from './fill-state.js';
+import { noneInsideOnGauge } from './gauge-view.js';
 
 export type ReviewTrigger = LogRemainderReview['trigger'];
 
@@ -69,7 +70,16 @@ export interface ReviewContinuation {
   readonly clean: boolean;
   /** what it would still pass, short (code and fill) */
   readonly still: readonly string[];
+  /**
+   * no value the fill's gauge displays lies inside its band at that target (gauge-view noneInsideOnGauge):
+   * those words; the target is then no stop a reading can show, and continuing is not offered as safer
+   */
+  readonly unreadable?: string;
 }
+
+/** continuing the fill is the safer way offered: it passes nothing new and its gauge can show its band */
+export const continuationOffered = (c: ReviewContinuation | undefined): boolean =>
+  !!c?.clean && !c.unreadable;
 
 /** the review screen: what triggered it, what the remainder passes, and the safer stop */
 export interface ReviewScreen {
@@ -263,6 +273,7 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
     readingGrid: gridOf(s0),
     // a last reading below its fill's band: continuing that fill is looked at first
     lastBandPa: s0.setup.steps[input.done.length - 1]?.bandPa,
+    readableTarget: (k, pa) => !noneInsideOnGauge(s0, s0.setup.steps[k], pa),
   });
   const accepted = new Set(s0.reviewed?.accepted ?? []);
   const open = rv.hazards.filter((f) => !accepted.has(hazardKey(f)));
@@ -320,6 +331,7 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
     toPa: c.toPa,
     clean: c.clean,
     still: c.hazards.map((f) => `${f.code}${f.step ? ` (fill ${f.step})` : ''}`),
+    unreadable: noneInsideOnGauge(s, s.setup.steps[c.fill], c.toPa),
   };
   return {
     ...s,
@@ -331,10 +343,11 @@ export function withReview(s0: FillState, trigger: ReviewTrigger, input: Retarge
       continuation,
       alternative,
       noAlternative:
-        alt || continuation?.clean
+        alt || continuationOffered(continuation)
           ? undefined
-          : (continuation ? `continuing ${continuation.name} to its target does not avoid it either; ` : '') +
-            (pastGaugeWords(s, rv) ?? NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched']),
+          : (continuation && !continuation.clean
+              ? `continuing ${continuation.name} to its target does not avoid it either; `
+              : '') + (pastGaugeWords(s, rv) ?? NO_ALTERNATIVE[rv.noAlternative ?? 'not-searched']),
     },
   };
 }
@@ -538,7 +551,7 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   });
   if (choice === 'safer') {
     const alt = r.alternative;
-    if (!alt && cont?.clean)
+    if (!alt && cont && continuationOffered(cont))
       return {
         ...s,
         error:

@@ -30,6 +30,9 @@ import {
   type UncertaintyResult,
 } from '../core/index.js';
 import { decimalsFor, fixedSig, inwardBand } from '../report/format.js';
+import { gaugeUnit, shownPa } from './gauge-view.js';
+
+export { shownPa } from './gauge-view.js';
 import { duration } from '../report/ready-report.js';
 import {
   gaugeConversionWords,
@@ -768,10 +771,6 @@ function continueFromReview(s: FillState, now: string): FillState {
   return next;
 }
 
-function gaugeUnit(step: FillStep): PressureUnit {
-  return step.gauge && isPressureUnit(step.gauge.unit) ? step.gauge.unit : 'Torr';
-}
-
 /**
  * a vent target as the operator reads it on the step's gauge: rounded DOWN to the gauge's display
  * resolution (an upper bound shown rounded up would let the tank stay above it), with the unit
@@ -782,12 +781,6 @@ export function atMostOnGauge(s: FillState, step: FillStep, absolutePa: number):
   const f = 10 ** dec;
   const v = fromPa(shownPa(s, step, absolutePa), unit);
   return `${(Math.floor(v * f * (1 + 1e-12)) / f).toFixed(dec)} ${unit}`;
-}
-
-/** what the operator should read on the gauge for an absolute tank pressure */
-export function shownPa(s: FillState, step: FillStep, absolutePa: number): number {
-  const ctx = { barometricPa: s.barometerPa, barometricUncertaintyPa: s.setup.header.barometer.u_Pa };
-  return step.gauge ? gaugeReadingPa(step.gauge, absolutePa, ctx) : absolutePa;
 }
 
 function deviationsOf(
