@@ -23,6 +23,8 @@ export interface FillOutcome {
   recordedFillDangers?: readonly unknown[];
   /** the tank at the end in a hazard or above its working limit: what it is now, one line each */
   tankNow?: string;
+  /** a reading above the working limit logged, then corrected or withdrawn: the end screen's title words */
+  withdrawn?: string;
 }
 
 /** what the exit code means, on stderr, for each code but 0 */
@@ -80,6 +82,8 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
   }
   // the tank as it stands, whatever the verdict: it is in the state the review found, not past it
   for (const line of r.tankNow?.split('\n') ?? []) if (line) cli.err(`mixwright: ${logFile}: ${line}\n`);
+  // what the end screen's title named first, whatever the exit code: the tank may have been past its limit
+  if (r.withdrawn) cli.err(`mixwright: ${logFile}: ${r.withdrawn}\n`);
   // no re-check (the batch left open): nothing to report beyond the screen
   if (r.verdict === undefined) return;
   const code = checkExit({

@@ -3,7 +3,7 @@ import { existsSync, mkdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { render } from 'ink';
 import { stringify } from 'yaml';
-import { FillApp } from './fill-app.js';
+import { FillApp, withdrawnOverLimit } from './fill-app.js';
 import { initialState, setupFromHeader } from './fill-state.js';
 import { WizardApp } from './wizard-app.js';
 import { DEFAULTS, wizardInit, type ActionName, type ActOutcome, type WizardState } from './wizard-state.js';
@@ -61,12 +61,21 @@ export interface FillOutcome {
   readonly recordedFillDangers?: readonly unknown[];
   /** the batch closed or stopped below a band with a hazard in the tank: what it holds now, in words */
   readonly tankNow?: string;
+  /**
+   * check found a reading above the working limit logged, then corrected or withdrawn: the end screen's
+   * title words (withdrawnOverLimit), which the shell line repeats
+   */
+  readonly withdrawn?: string;
 }
 
 /** what the shell needs of `check`'s re-check of the closed log to exit as `check` would */
 export function outcomeOfReport(
   report: CheckReport | undefined,
-): Pick<FillOutcome, 'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged' | 'recordedFillDangers'> {
+): Pick<
+  FillOutcome,
+  'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged' | 'recordedFillDangers' | 'withdrawn'
+> {
+  const withdrawn = withdrawnOverLimit(report);
   return {
     verdict: report?.verdict.verdict,
     danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
@@ -75,6 +84,7 @@ export function outcomeOfReport(
       ? { planDangersNotAcknowledged: report.planDangersNotAcknowledged }
       : {}),
     ...(report?.recordedFillDangers?.length ? { recordedFillDangers: report.recordedFillDangers } : {}),
+    ...(withdrawn ? { withdrawn } : {}),
   };
 }
 

@@ -5,7 +5,10 @@ import { describe, expect, it } from 'vitest';
 import { render } from 'ink-testing-library';
 import { checkLog } from '../../src/io/check.js';
 import { type NewLogEvent } from '../../src/io/batch-log.js';
-import { FillApp } from '../../src/tui/fill-app.js';
+import { FillApp, withdrawnOverLimit } from '../../src/tui/fill-app.js';
+import { outcomeOfReport } from '../../src/tui/run.js';
+import { fillEnded } from '../../src/cli/fill-ended.js';
+import { ExitSignal } from '../../src/cli/context.js';
 import { initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { fromPa } from '../../src/report/units.js';
 import { demoHeader, entry, logOf } from './logged-entry.js';
@@ -98,5 +101,24 @@ describe('the end screen after the last fill was vented back', () => {
     expect(s.message!.length).toBeGreaterThan(4 * 72);
     expect(f.replace(/\s+/g, ' ')).toContain(s.message!.replace(/\s+/g, ' '));
     expect(f).not.toContain('m: the whole message');
+  });
+});
+
+describe('the shell line after the end screen of a fill with a withdrawn reading past the working limit', () => {
+  it("names it in the end title's words (withdrawnOverLimit), on stderr, whatever the exit code", async () => {
+    const { log } = withdrawnOverLimitFill();
+    const report = await checkLog(log, { trials: 0, seed: 1 });
+    const title = withdrawnOverLimit(report)!;
+    expect(title).toMatch(
+      /^A READING ABOVE THE WORKING LIMIT WAS LOGGED, then corrected or withdrawn \(fill 4/,
+    );
+    let err = '';
+    const cli = { out: () => {}, err: (t: string) => (err += t), isTTY: true } as never;
+    try {
+      fillEnded(cli, { interrupted: false, logged: 4, steps: 4, ...outcomeOfReport(report) }, 'w1.jsonl');
+    } catch (e) {
+      if (!(e instanceof ExitSignal)) throw e;
+    }
+    expect(err).toContain(`mixwright: w1.jsonl: ${title}\n`);
   });
 });
