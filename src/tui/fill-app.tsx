@@ -1390,8 +1390,11 @@ function OverLimitScreen({ state }: ScreenProps) {
       </Para>
       <Para bold>Close the cylinder valve and the tank valve now.</Para>
       <Para>
-        The reading is logged ({pending.done.line !== undefined ? `line ${pending.done.line}` : 'as typed'});
-        what you choose is logged beside it.
+        The reading is logged ({pending.done.line !== undefined ? `line ${pending.done.line}` : 'as typed'})
+        {pending.resumed
+          ? '; RESUMED: no choice for it was logged before the fill stopped. What you choose now is logged ' +
+            'beside it.'
+          : '; what you choose is logged beside it.'}
       </Para>
       <Para>
         Vent or pump back by {fromPa(p - o.ventToPa, unit).toFixed(dec)} {unit}, until{' '}

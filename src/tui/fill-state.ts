@@ -249,6 +249,8 @@ export interface Pending {
   readonly reason?: string;
   /** already written to the log (a reading past the working limit is logged before the operator chooses) */
   readonly logged?: boolean;
+  /** the fill was resumed on it: the log holds the reading and no choice for it (a reading past the limit) */
+  readonly resumed?: boolean;
 }
 
 export interface OverLimit {
@@ -591,6 +593,7 @@ function resumedAtStop(state: FillState, log: ParsedLog | undefined): FillState 
       done: reading,
       typed: lastRead.reading.replace(/\s+\S+$/, ''),
       logged: true,
+      resumed: true,
     };
     // the vent target from the targets as they stood at the reading (the re-target of the readings before
     // it), as the session computed it: the same number before and after the resume
