@@ -1021,7 +1021,10 @@ function BelowWaysView({ state, stop, cannot }: ScreenProps & WaysProps) {
   const next = !onNext
     ? 'not reviewed'
     : same
-      ? 'passes the same hazards as continue, named above (the accepted ones stand), no hazard beyond those'
+      ? 'passes the same hazards as continue, named above' +
+        // "stand" only of a hazard accepted at a review that this review finds again
+        (onNext[1].length ? ' (the accepted ones stand)' : '') +
+        ', no hazard beyond those'
       : passes(onNext[0], onNext[1]);
   // the re-target from the reading (the targets the screen holds): a final pressure off the design's is said
   const K = state.setup.steps.length;

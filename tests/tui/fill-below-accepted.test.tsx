@@ -66,3 +66,34 @@ describe('a fill below its band after a review whose danger was accepted', () =>
     for (const r of rows) expect(r.length, r).toBeLessThanOrEqual(80);
   });
 });
+
+describe('a below-band screen whose ways pass the same hazards, none of them accepted', () => {
+  // the view follows what the reviews of the ways found (belowWays): the same screen with the hazards
+  // found not accepted must not speak of accepted ones
+  const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
+  const req = buildPlanRequest({
+    ...rs,
+    recipe: { ...rs.recipe, order: ['CH4', 'Ar@400 Torr', 'O2', 'Ar'] },
+  });
+  const h = headerFromPlan(planFill(req.input), req, 'b1', '2026-12-01T00:00:00Z');
+  const s0 = initialState(setupFromHeader(h));
+  const below = read(read(read(s0, '14.018', 2), 'accept JD', 3), '395', 4);
+  const w = below.belowWays!;
+  const open = {
+    ...below,
+    reviewed: { accepted: [], stopsPa: {} },
+    belowWays: {
+      ...w,
+      goingOn: w.goingOnAccepted,
+      goingOnAccepted: [],
+      continuing: { ...w.continuing!, still: w.continuing!.stillAccepted, stillAccepted: [] },
+    },
+  };
+
+  it('"passes the same hazards as continue", without "(the accepted ones stand)"; with them accepted, with it', () => {
+    const f = frame80(open).replace(/\n/g, ' ').replace(/ +/g, ' ');
+    expect(f).toMatch(/- next AB .*passes the same hazards as continue, named above, no hazard beyond those/);
+    expect(f).not.toMatch(/accepted ones stand/);
+    expect(frame80(below).replace(/\s+/g, ' ')).toMatch(/named above \(the accepted ones stand\)/);
+  });
+});
