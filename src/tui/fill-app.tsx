@@ -571,12 +571,13 @@ function elide(text: string, rows: number, columns: number): string {
  * there is room; else the label is its own page (l). b goes back, q or Enter quits.
  */
 /** the end screen's verdict line: check's verdict, and the notes (caveats) that follow it */
-function verdictLine(report: CheckReport | undefined): string | undefined {
+export function verdictLine(report: CheckReport | undefined): string | undefined {
   if (!report) return undefined;
-  return (
-    `Re-check of the log (mixwright check): ${verdictWord(report)}` +
-    `${report.caveats.length ? ' (and see the notes below)' : ''}`
-  );
+  // check's word points below for each finding it names: the notes below are one place, said once
+  const word = verdictWord(report);
+  const bare = word.replace(/ \(see below\)/g, '');
+  const refer = report.caveats.length > 0 || bare !== word;
+  return `Re-check of the log (mixwright check): ${bare}${refer ? ' (see the notes below)' : ''}`;
 }
 
 /**

@@ -260,7 +260,7 @@ describe('fill screens: danger, end, Ctrl-C (ink)', () => {
     const f = (await endText(ui)).replace(/\s+/g, ' ');
     await until(() => caveats !== undefined, 'the report handed to the shell');
     expect(caveats!.some((c) => /^DANGER:/.test(c))).toBe(true);
-    expect(f).toMatch(/\(and see the notes below\)/);
+    expect(f).toMatch(/ \(see the notes below\)/);
     // beside the verdict, and once inside the label box (its lines carry the caveat; the box adds none)
     expect(f.match(/DANGER: a logged reading went past the tank's working limit/g)?.length).toBe(2);
     expect(f.match(/! DANGER: a logged reading went past the tank's working limit/g)?.length).toBe(2);
