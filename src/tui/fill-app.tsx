@@ -3,7 +3,7 @@
  * fsync'd, before the screen moves on. One component per phase's screen.
  */
 import { useEffect, useRef, useState, type ReactNode } from 'react';
-import { Box, Text, useApp, useInput, useStdout } from 'ink';
+import { Box, Text, measureElement, useApp, useInput, useStdout, type DOMElement } from 'ink';
 import { useLatestState } from './latest-state.js';
 import {
   atMostOnGauge,
@@ -25,7 +25,7 @@ import { splitChunk } from './keys.js';
 import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../report/format.js';
 import { noneInsideOnGauge } from './gauge-view.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
-import { labelLines, labelModel } from '../report/label-model.js';
+import { labelLines, labelModel, wrapLine } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
@@ -204,6 +204,13 @@ export function FillApp({
   // (a ref beside the state: a key may come before the handler of the latest render is attached)
   const [whole, setWholeState] = useState<number>();
   const wholeRef = useRef<number | undefined>(undefined);
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
+  const fitted = useFitted(state, rows, columns);
+  // whether the screen shown cut its message (? shows it whole), for a key read before the next render
+  const cutRef = useRef(false);
+  cutRef.current = fitted.cut;
   const setWhole = (k: number | undefined) => {
     wholeRef.current = k;
     setWholeState(k);
@@ -232,6 +239,11 @@ export function FillApp({
       setWhole(0);
       return;
     }
+    // ? on a review or below-band screen whose message is cut, nothing typed: no choice starts with it
+    if (input === '?' && FITTED.has(cur.phase) && cur.input === '' && cutRef.current) {
+      setWhole(0);
+      return;
+    }
     const ph = current().phase;
     if ((ph === 'done' || ph === 'ended') && (input === 'q' || key.return || key.escape)) {
       app.exit();
@@ -241,7 +253,71 @@ export function FillApp({
   });
   if (whole !== undefined && (state.phase === 'reading' || state.phase === 'reminder'))
     return <WholeTextPage state={state} part={whole} />;
-  return <FillScreen state={state} check={check} recheck={recheck !== undefined} logFile={logFile} />;
+  if (whole !== undefined && FITTED.has(state.phase))
+    return <MessageWholePage state={state} part={whole} rows={rows} columns={columns} />;
+  return (
+    <Box ref={fitted.ref} flexDirection="column">
+      <FillScreen state={fitted.state} check={check} recheck={recheck !== undefined} logFile={logFile} />
+    </Box>
+  );
+}
+
+/** texts as the rows a whole-text page shows (a page part holds whole lines: a long text spans parts) */
+const rowLines = (texts: readonly string[], columns: number) =>
+  texts.flatMap((t) => wrapLine(t, columns - 2));
+
+/** the screens that show the message among their other text: measured, the message cut to fit (useFitted) */
+const FITTED: ReadonlySet<FillState['phase']> = new Set(['review', 'below']);
+
+/**
+ * a review or below-band screen as it fits `rows` rows: whole where it fits; else (its height measured once
+ * drawn) its message cut to the rows left, at least one, saying "(?: whole text)" (`cut`: ? shows it whole)
+ */
+function useFitted(state: FillState, rows: number, columns: number) {
+  const ref = useRef<DOMElement>(null);
+  // the rows the message is cut to, for that message (a new message starts whole)
+  const [keep, setKeep] = useState<{ readonly message: string; readonly rows: number }>();
+  const message = state.message;
+  const fitting = FITTED.has(state.phase) && message !== undefined;
+  const kept = fitting && keep?.message === message ? keep.rows : undefined;
+  const shown =
+    kept !== undefined ? { ...state, message: cutToRows(message!, kept, columns, '(?: whole text)') } : state;
+  useEffect(() => {
+    if (!fitting || !ref.current) return;
+    const over = measureElement(ref.current).height - rows;
+    const now = kept ?? wrapRows(message!, columns);
+    if (over > 0 && now > 1) setKeep({ message: message!, rows: Math.max(1, now - over) });
+  });
+  return { ref, state: shown, cut: shown !== state };
+}
+
+/** the ? page of a review or below-band screen: its message whole, and a review's hazards in full words */
+function MessageWholePage({
+  state,
+  part,
+  rows,
+  columns,
+}: ScreenProps & { readonly part: number; readonly rows: number; readonly columns: number }) {
+  const hazards = (state.phase === 'review' ? state.review?.hazards : undefined) ?? [];
+  const lines = [
+    ...(state.message ? [state.message] : []),
+    ...hazards.map(
+      (h) =>
+        `- ${h.severity.toUpperCase()} ${h.code}${h.step ? ` (fill ${h.step})` : ''}: ` +
+        `${h.numbers ? `${h.numbers}. ` : ''}${h.text}`,
+    ),
+  ];
+  const what = state.phase === 'review' ? 'SAFETY REVIEW: THE WHOLE TEXT' : 'BELOW ITS BAND: THE WHOLE TEXT';
+  return (
+    <PartsPage
+      title={`${fillTitle(state.setup.header)} - ${what}`}
+      lines={rowLines(lines, columns)}
+      part={part}
+      rows={rows}
+      columns={columns}
+      back="b or ?: back   Ctrl-C: stop"
+    />
+  );
 }
 
 /** once the fill is done or ended: `check`'s own re-check of the log, for the end screen */
@@ -680,34 +756,28 @@ export function endLayout(p: EndParts, rows: number, columns: number) {
   const fixed = others + cautionsRows + (message ? rowsOf(message, columns) : 0);
   const labelRows = p.label ? 3 + p.label.reduce((n, l) => n + rowsOf(l, columns - 4), 0) : 0;
   const labelHere = Boolean(p.label) && fixed + labelRows <= rows - 1;
-  const keys = [
-    ...(p.label && !labelHere ? ['l: the tank label'] : []),
-    ...(cautions.cut ? ['c: cautions in full'] : []),
-    ...(p.message && message !== p.message ? ['m: the whole message'] : []),
-    'q or Enter: quit',
-  ].join('  ');
+  const messageCut = Boolean(p.message) && message !== p.message;
+  // ? shows what the page cut, whole (as on the other screens): both, or the one cut
+  const cutKeys =
+    cautions.cut && messageCut
+      ? ['?: the whole text (c: cautions, m: message)']
+      : cautions.cut
+        ? ['c or ?: cautions in full']
+        : messageCut
+          ? ['m or ?: the whole message']
+          : [];
+  const keys = [...(p.label && !labelHere ? ['l: the tank label'] : []), ...cutKeys, 'q or Enter: quit'].join(
+    '  ',
+  );
   return { message, cautions, labelHere, keys };
 }
 
-function EndScreen({
-  state,
-  check,
-  recheck,
-  logFile,
-}: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
-  const h = state.setup.header;
-  const K = state.setup.steps.length;
-  const [page, setPage] = useState<'main' | 'label' | 'message' | 'cautions'>('main');
-  const { stdout } = useStdout();
-  const rows = stdout?.rows || 24;
-  const columns = stdout?.columns || 80;
-  // the label's lines wrapped to the box's inside (its edges and padding: 4 columns), so ink never re-wraps them
-  const model = check && 'report' in check ? labelModel(check.report, check.log) : undefined;
-  const label = model ? labelLines(model, Math.max(20, columns - 4)) : undefined;
-  // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
-  const caveats = check && 'report' in check ? check.report.caveats : [];
-  const report = check && 'report' in check ? check.report : undefined;
-  const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
+/**
+ * the end screen's pages: l the label, c the cautions, m the message, ? what the first page cut, whole; b back;
+ * n and p page through a long one
+ */
+function useEndKeys() {
+  const [page, setPage] = useState<'main' | 'label' | 'message' | 'cautions' | 'whole'>('main');
   // the page is chosen whatever this render's closure holds (a key may come before the handler of the
   // latest render is attached); a page without its content shows the first page
   const [labelPart, setLabelPart] = useState(0);
@@ -719,10 +789,36 @@ function EndScreen({
       setPage('cautions');
       setLabelPart(0);
     } else if (input === 'm') setPage('message');
-    else if (input === 'b') setPage('main');
+    else if (input === '?') {
+      // ? as on the other screens: the text the first page cut (the message, the cautions), whole
+      setPage('whole');
+      setLabelPart(0);
+    } else if (input === 'b') setPage('main');
     else if (input === 'n') setLabelPart((k) => k + 1);
     else if (input === 'p') setLabelPart((k) => Math.max(0, k - 1));
   });
+  return { page, labelPart };
+}
+
+function EndScreen({
+  state,
+  check,
+  recheck,
+  logFile,
+}: ScreenProps & { check: Recheck; recheck: boolean; logFile: string }) {
+  const h = state.setup.header;
+  const K = state.setup.steps.length;
+  const { stdout } = useStdout();
+  const rows = stdout?.rows || 24;
+  const columns = stdout?.columns || 80;
+  // the label's lines wrapped to the box's inside (its edges and padding: 4 columns), so ink never re-wraps them
+  const model = check && 'report' in check ? labelModel(check.report, check.log) : undefined;
+  const label = model ? labelLines(model, Math.max(20, columns - 4)) : undefined;
+  // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
+  const caveats = check && 'report' in check ? check.report.caveats : [];
+  const report = check && 'report' in check ? check.report : undefined;
+  const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
+  const { page, labelPart } = useEndKeys();
   const withdrawn = withdrawnOverLimit(report);
   const title = `${fillTitle(h)} - ${
     state.phase === 'done'
@@ -749,6 +845,20 @@ function EndScreen({
       <PartsPage
         title={title}
         lines={caveats.map((c) => `! ${c}`)}
+        part={labelPart}
+        rows={rows}
+        columns={columns}
+      />
+    );
+  const messageCut = Boolean(state.message) && message !== state.message;
+  if (page === 'whole' && (cautions.cut || messageCut))
+    return (
+      <PartsPage
+        title={title}
+        lines={rowLines(
+          [...(messageCut ? [state.message!] : []), ...(cautions.cut ? caveats.map((c) => `! ${c}`) : [])],
+          columns,
+        )}
         part={labelPart}
         rows={rows}
         columns={columns}

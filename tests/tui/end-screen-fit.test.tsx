@@ -25,6 +25,33 @@ async function until(cond: () => boolean, what: string, ms = 15000): Promise<voi
   }
 }
 
+/**
+ * the text of a paged page's parts, without the title rows (the leading rows every part repeats) and each
+ * part's key row, spaces made single
+ */
+function bodyOf(pages: readonly string[]): string {
+  const rows = pages.map((p) => p.split('\n'));
+  let title = 1;
+  while (pages.length > 1 && rows.every((r) => r[title] === rows[0][title])) title++;
+  return rows
+    .map((r) => r.slice(title, -1).join(' '))
+    .join(' ')
+    .replace(/\s+/g, ' ');
+}
+
+/** every part of a paged page (n: next part), each frame within 24 rows */
+async function allParts(ui: { lastFrame: () => string | undefined; stdin: { write: (t: string) => void } }) {
+  const pages = [ui.lastFrame()!];
+  const m = /part 1 of (\d+)/.exec(pages[0]);
+  for (let k = 2; m && k <= Number(m[1]); k++) {
+    ui.stdin.write('n');
+    await until(() => !!ui.lastFrame()?.includes(`part ${k} of`), `part ${k}`);
+    pages.push(ui.lastFrame()!);
+  }
+  for (const p of pages) expect(rowsOfFrame(p), p).toBeLessThanOrEqual(24);
+  return pages;
+}
+
 /** rows of a frame (ink-testing-library draws 100 columns; the tmux test holds 80 x 24) */
 const rowsOfFrame = (frame: string) => frame.split('\n').length;
 
@@ -80,10 +107,18 @@ describe('the end screen fits 80 x 24', () => {
     const f = ui.lastFrame()!;
     expect(rowsOfFrame(f)).toBeLessThanOrEqual(24);
     expect(f).toContain('(m: the whole message)');
+    expect(f).toContain('m or ?: the whole message');
     expect(f).not.toContain('END');
     expect(f).toContain('`mixwright check demo.jsonl`');
     ui.stdin.write('m');
     await until(() => !!ui.lastFrame()?.includes('END'), 'the whole message');
+    ui.stdin.write('b');
+    await until(() => !ui.lastFrame()?.includes('END'), 'back');
+    // ? shows it whole too, as on the other screens
+    ui.stdin.write('?');
+    await until(() => !!ui.lastFrame()?.includes('part 1 of'), 'the whole text');
+    const text = bodyOf(await allParts(ui));
+    expect(text).toContain('END');
     ui.unmount();
   });
 
@@ -117,15 +152,23 @@ describe('the end screen fits 80 x 24', () => {
     expect(flat).toContain(
       'do not label or use this tank as fit until it and its gauges have been inspected',
     );
-    expect(flat).toContain('c: cautions in full');
+    expect(flat).toContain('c or ?: cautions in full');
     ui.stdin.write('c');
-    await until(() => !ui.lastFrame()!.includes('c: cautions in full'), 'the cautions page');
+    await until(() => !ui.lastFrame()!.includes('c or ?: cautions in full'), 'the cautions page');
     const c = ui.lastFrame()!;
     fit(c);
     for (const caveat of report.caveats)
       expect(c.replace(/\s+/g, ' ')).toContain(caveat.replace(/\s+/g, ' '));
     ui.stdin.write('b');
-    await until(() => !!ui.lastFrame()?.includes('c: cautions in full'), 'back');
+    await until(() => !!ui.lastFrame()?.includes('c or ?: cautions in full'), 'back');
+    // ? shows the same, as on the other screens
+    ui.stdin.write('?');
+    await until(() => !ui.lastFrame()!.includes('c or ?: cautions in full'), 'the whole-text page');
+    const whole = await allParts(ui);
+    whole.forEach(fit);
+    for (const caveat of report.caveats) expect(bodyOf(whole)).toContain(caveat.replace(/\s+/g, ' '));
+    ui.stdin.write('b');
+    await until(() => !!ui.lastFrame()?.includes('c or ?: cautions in full'), 'back again');
     ui.stdin.write('l');
     await until(() => !!ui.lastFrame()?.includes('Tank label (as filled'), 'the label');
     const pages = [ui.lastFrame()!];
