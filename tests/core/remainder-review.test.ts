@@ -166,6 +166,24 @@ describe('an incomplete diluent charge: continuing it is the safer way', () => {
     expect(rv.alternative).toBeUndefined();
     expect(rv.evaluations).toBe(1);
   });
+  it('a continuation to a target no reading can show inside its band does not end the search', () => {
+    // the caller says the target is not readable inside its band (a gauge display step coarser than it):
+    // the continuation is still computed (clean), and the search for a stop runs and gives its reason
+    const rv = reviewRemainder({
+      retarget: input([ch4, 150]),
+      safety,
+      planned,
+      readingGrid: () => grid,
+      lastBandPa: band,
+      readableTarget: (fill, pa) => {
+        expect(fill).toBe(1);
+        expect(pa / TORR).toBeCloseTo(400, 9);
+        return false;
+      },
+    });
+    expect(rv.continuation?.clean).toBe(true);
+    expect(rv.noAlternative).toBe('no-diluent-stop');
+  });
   it('a charge read inside its band is complete: no continuation (the review is as before)', () => {
     const rv = reviewRemainder({
       retarget: input([14.0179, 400]),
