@@ -144,14 +144,18 @@ describe('an incomplete diluent charge: continuing it is the safer way', () => {
     expect(rv.continuation).toBeUndefined();
     expect(rv.noAlternative).toBe('no-diluent-stop');
   });
-  it('with it: continuing the Ar charge to its stop (400 Torr, the plan) is clean and offered, no stop searched', () => {
-    const rv = reviewRemainder({
+  /** the Ar charge read at 150 Torr, reviewed with its band (and what else is given) */
+  const short = (more: Partial<Parameters<typeof reviewRemainder>[0]> = {}) =>
+    reviewRemainder({
       retarget: input([ch4, 150]),
       safety,
       planned,
       readingGrid: () => grid,
       lastBandPa: band,
+      ...more,
     });
+  it('with it: continuing the Ar charge to its stop (400 Torr, the plan) is clean and offered, no stop searched', () => {
+    const rv = short();
     expect(codes(rv.hazards)).toContain('flammable-state@3');
     const c = rv.continuation!;
     expect(c).toBeDefined();
@@ -169,12 +173,7 @@ describe('an incomplete diluent charge: continuing it is the safer way', () => {
   it('a continuation to a target no reading can show inside its band does not end the search', () => {
     // the caller says the target is not readable inside its band (a gauge display step coarser than it):
     // the continuation is still computed (clean), and the search for a stop runs and gives its reason
-    const rv = reviewRemainder({
-      retarget: input([ch4, 150]),
-      safety,
-      planned,
-      readingGrid: () => grid,
-      lastBandPa: band,
+    const rv = short({
       readableTarget: (fill, pa) => {
         expect(fill).toBe(1);
         expect(pa / TORR).toBeCloseTo(400, 9);

@@ -11,14 +11,19 @@ import { frame80, read } from './frame80.js';
 // flammable (LFL of CH4 4.4 %, IEC 60079-20-1; LOC 10.7 %, ASTM E2079: the core's values, by hand in
 // tests/core/remainder-review.test.ts) and its closed-vessel pressure above the demo tank's working limit.
 
-describe('a fill below its band after a review whose danger was accepted', () => {
+/** the fill as the header plans it: the first state */
+function firstState() {
   const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
   const req = buildPlanRequest({
     ...rs,
     recipe: { ...rs.recipe, order: ['CH4', 'Ar@400 Torr', 'O2', 'Ar'] },
   });
   const h = headerFromPlan(planFill(req.input), req, 'b1', '2026-12-01T00:00:00Z');
-  const s0 = initialState(setupFromHeader(h));
+  return initialState(setupFromHeader(h));
+}
+
+describe('a fill below its band after a review whose danger was accepted', () => {
+  const s0 = firstState();
   const rv = read(s0, '14.018', 2);
   const acc = read(rv, 'accept JD', 3);
   const below = read(acc, '395', 4);
@@ -70,14 +75,7 @@ describe('a fill below its band after a review whose danger was accepted', () =>
 describe('a below-band screen whose ways pass the same hazards, none of them accepted', () => {
   // the view follows what the reviews of the ways found (belowWays): the same screen with the hazards
   // found not accepted must not speak of accepted ones
-  const rs = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
-  const req = buildPlanRequest({
-    ...rs,
-    recipe: { ...rs.recipe, order: ['CH4', 'Ar@400 Torr', 'O2', 'Ar'] },
-  });
-  const h = headerFromPlan(planFill(req.input), req, 'b1', '2026-12-01T00:00:00Z');
-  const s0 = initialState(setupFromHeader(h));
-  const below = read(read(read(s0, '14.018', 2), 'accept JD', 3), '395', 4);
+  const below = read(read(read(firstState(), '14.018', 2), 'accept JD', 3), '395', 4);
   const w = below.belowWays!;
   const open = {
     ...below,
