@@ -921,11 +921,14 @@ export interface FillEnding {
 
 /** the target of each fill as it stood when the fill was read: re-targeted from the readings before it */
 function targetsAtReadings(s: FillState): number[] {
-  return s.done.map((_, i) => {
-    if (i === 0 && !s.start?.read) return s.setup.header.steps[0].target_Pa;
+  return s.done.map((d, i) => {
+    // the target the fill was read to: from the readings before it, at the tank temperature logged with
+    // its own reading (the one its screen re-targeted for: typed there, or carried on from the last)
+    const T = d.temperatureK;
+    const planT = s.setup.header.temperature_K;
+    if (i === 0 && !s.start?.read && Math.abs(T - planT) < 0.005) return s.setup.header.steps[0].target_Pa;
     const prior = s.done.slice(0, i);
     try {
-      const T = i ? prior[i - 1].temperatureK : (s.start?.temperatureK ?? s.targetTemperatureK);
       return retargetRun(s, prior, T).targets[i];
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
