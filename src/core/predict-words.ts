@@ -102,3 +102,44 @@ export function describePredictedOver(f: PredictedOver, p: (pa: number) => strin
     `(re-plan to see the new U)`
   );
 }
+
+/** the fields of the `band-edges-past-tolerance` finding that the sentence uses */
+export interface BandEdges {
+  readonly species: string;
+  readonly design: number;
+  readonly stack: number;
+  readonly tolerance: number;
+  readonly expandedU: number;
+  readonly share?: number;
+  readonly noRoom: readonly string[];
+  readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
+}
+
+/** "x(O2)", "phi", "the diluent fraction" */
+function quantityName(name: string): string {
+  return name === 'phi' ? 'phi' : name === 'dilution' ? 'the diluent fraction' : `x(${name})`;
+}
+
+/**
+ * "readings inside every band do not make a pass together: ... read every fill within 18 % of its band
+ * (fill 1 +-0.0018 Torr, ...)"
+ */
+export function describeBandEdges(f: BandEdges, p: (pa: number) => string): string {
+  const q = quantityName(f.species);
+  const head =
+    `readings inside every band do not make a pass together: each band is its fill's own tolerance ` +
+    `with the fills before it read at their targets, and with every reading at its band's edge the ` +
+    `worst way ${q} can end ${relPct(f.stack / f.design)} off its design, past its tolerance ` +
+    `${relPct(f.tolerance / f.design)} less the predicted U ${relPct(f.expandedU / f.design)}`;
+  const guided = 'fill with `mixwright fill`, which re-targets the later fills from each reading';
+  if (f.share === undefined)
+    return (
+      `${head}; ${f.noRoom.map(quantityName).join(', ')} cannot pass on any readings (the predicted U ` +
+      `fills the tolerance: predicted-u-over-tolerance); ${guided}`
+    );
+  const bands = f.bands.map((b) => `fill ${b.step} +-${p(b.halfWidthPa)}`).join(', ');
+  return (
+    `${head}. From the sheet, read every fill within ${relPct(f.share)} of its band (${bands}): then ` +
+    `every design quantity stays within its tolerance less U; or ${guided}`
+  );
+}
