@@ -19,6 +19,7 @@ import {
   inverseSetup,
   invertReadings,
   judge,
+  premixMixingElapsed,
   ProblemError,
   describeProblem,
   retarget,
@@ -2897,25 +2898,6 @@ function onPremixEnter(s: FillState, now: string): FillState {
   }
   if (!s.premix?.mixedBy) return onPremixMixed(s, text, now);
   return onPremixReading(s, text, now);
-}
-
-/** the least stirring time the screen asks of a stirred premix tank (common practice: 15-30 min) */
-export const PREMIX_STIR_MIN_S = 15 * 60;
-
-/**
- * The time since the premix log was closed against the least mixing time asked (stirred: 15 min;
- * unstirred: the rest time): undefined when either is not known (an older log, no tank height).
- */
-export function premixMixingElapsed(
-  pc: PremixCheck,
-  now: string,
-): { readonly elapsedS: number; readonly neededS: number; readonly early: boolean } | undefined {
-  const closed = pc.premixClosed ? Date.parse(pc.premixClosed) : NaN;
-  const at = Date.parse(now);
-  if (!Number.isFinite(closed) || !Number.isFinite(at) || !pc.mixing) return undefined;
-  const elapsedS = (at - closed) / 1000;
-  const neededS = pc.mixing.stirred ? PREMIX_STIR_MIN_S : pc.mixing.restS;
-  return { elapsedS, neededS, early: elapsedS < neededS };
 }
 
 const elapsedWords = (t: number) => (t < 0 ? `${duration(-t)} before it (by this clock)` : duration(t));

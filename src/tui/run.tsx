@@ -59,6 +59,8 @@ export interface FillOutcome {
   readonly planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the log does not show accepted (check: exit 6) */
   readonly recordedFillDangers?: readonly unknown[];
+  /** stage 2: the premix tank's checks; one confirmed mixed before its least mixing time is `early` (exit 7) */
+  readonly premixChecks?: readonly { readonly kind: string; readonly early?: unknown }[];
   /** the batch closed or stopped below a band with a hazard in the tank: what it holds now, in words */
   readonly tankNow?: string;
 }
@@ -66,7 +68,10 @@ export interface FillOutcome {
 /** what the shell needs of `check`'s re-check of the closed log to exit as `check` would */
 export function outcomeOfReport(
   report: CheckReport | undefined,
-): Pick<FillOutcome, 'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged' | 'recordedFillDangers'> {
+): Pick<
+  FillOutcome,
+  'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged' | 'recordedFillDangers' | 'premixChecks'
+> {
   return {
     verdict: report?.verdict.verdict,
     danger: Boolean(report?.findings.some((f) => f.severity === 'danger')),
@@ -75,6 +80,7 @@ export function outcomeOfReport(
       ? { planDangersNotAcknowledged: report.planDangersNotAcknowledged }
       : {}),
     ...(report?.recordedFillDangers?.length ? { recordedFillDangers: report.recordedFillDangers } : {}),
+    ...(report?.premixChecks?.length ? { premixChecks: report.premixChecks } : {}),
   };
 }
 
