@@ -125,21 +125,14 @@ function quantityName(name: string): string {
  * (fill 1 +-0.0018 Torr, ...)"
  */
 export function describeBandEdges(f: BandEdges, p: (pa: number) => string): string {
-  const q = quantityName(f.species);
   const head =
-    `readings inside every band do not make a pass together: each band is its fill's own tolerance ` +
-    `with the fills before it read at their targets, and with every reading at its band's edge the ` +
-    `worst way ${q} can end ${relPct(f.stack / f.design)} off its design, past its tolerance ` +
-    `${relPct(f.tolerance / f.design)} less the predicted U ${relPct(f.expandedU / f.design)}`;
+    `readings inside every band can fail together: a band assumes the fills before it on target, and ` +
+    `all at their band edges the worst way take ${quantityName(f.species)} ` +
+    `${relPct(f.stack / f.design)} off its design (room: tolerance ${relPct(f.tolerance / f.design)} ` +
+    `less U ${relPct(f.expandedU / f.design)})`;
   const guided = 'fill with `mixwright fill`, which re-targets the later fills from each reading';
   if (f.share === undefined)
-    return (
-      `${head}; ${f.noRoom.map(quantityName).join(', ')} cannot pass on any readings (the predicted U ` +
-      `fills the tolerance: predicted-u-over-tolerance); ${guided}`
-    );
+    return `${head}, and ${f.noRoom.map(quantityName).join(', ')} cannot pass on any readings (U fills the tolerance); ${guided}`;
   const bands = f.bands.map((b) => `fill ${b.step} +-${p(b.halfWidthPa)}`).join(', ');
-  return (
-    `${head}. From the sheet, read every fill within ${relPct(f.share)} of its band (${bands}): then ` +
-    `every design quantity stays within its tolerance less U; or ${guided}`
-  );
+  return `${head}. From the sheet, read each fill within ${relPct(f.share)} of its band (${bands}); or ${guided}`;
 }
