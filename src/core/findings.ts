@@ -205,9 +205,7 @@ export type Finding = Base &
         readonly tolerance: number;
         readonly expandedU: number;
         /** the share of every band inside which every quantity stays within its tolerance less U */
-        readonly share?: number;
-        /** the quantities whose predicted U alone fills their tolerance (no share helps them) */
-        readonly noRoom: readonly string[];
+        readonly share: number;
         /** each fill's band half-width times the share, Pa */
         readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
       }

@@ -110,8 +110,7 @@ export interface BandEdges {
   readonly stack: number;
   readonly tolerance: number;
   readonly expandedU: number;
-  readonly share?: number;
-  readonly noRoom: readonly string[];
+  readonly share: number;
   readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
 }
 
@@ -121,7 +120,7 @@ function quantityName(name: string): string {
 }
 
 /**
- * "readings inside every band do not make a pass together: ... read every fill within 18 % of its band
+ * "readings inside every band can fail together: ... read each fill within 12 % of its band
  * (fill 1 +-0.0018 Torr, ...)"
  */
 export function describeBandEdges(f: BandEdges, p: (pa: number) => string): string {
@@ -131,8 +130,6 @@ export function describeBandEdges(f: BandEdges, p: (pa: number) => string): stri
     `${relPct(f.stack / f.design)} off its design (room: tolerance ${relPct(f.tolerance / f.design)} ` +
     `less U ${relPct(f.expandedU / f.design)})`;
   const guided = 'fill with `mixwright fill`, which re-targets the later fills from each reading';
-  if (f.share === undefined)
-    return `${head}, and ${f.noRoom.map(quantityName).join(', ')} cannot pass on any readings (U fills the tolerance); ${guided}`;
   const bands = f.bands.map((b) => `fill ${b.step} +-${p(b.halfWidthPa)}`).join(', ');
   return `${head}. From the sheet, read each fill within ${relPct(f.share)} of its band (${bands}); or ${guided}`;
 }

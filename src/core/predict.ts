@@ -231,20 +231,21 @@ export function bandEdgeStacks(
  * way their effects can add (sum of magnitudes, linear: JCGM 100:2008 5.1.2 first-order terms) is set
  * against each design quantity's tolerance less its predicted U (the room a pass needs: check passes a
  * quantity only when |deviation| + U <= tolerance). A warning when the band edges can go past that room;
- * it gives the common share of every band inside which all quantities stay within it (undefined when U
- * alone fills a tolerance). Undefined when the bands hold together, or when no quantity has room.
+ * it gives the common share of every band inside which all quantities stay within it. Undefined when the
+ * bands hold together, or when the U of some quantity alone fills its tolerance (no readings pass then:
+ * predicted-u-over-tolerance says so).
  */
 export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undefined {
   const rows = bandEdgeStacks(plan, p);
   if (!rows) return undefined;
-  const roomy = rows.filter((x) => x.room > 0 && Number.isFinite(x.stack));
+  // a quantity whose U alone fills its tolerance passes on no readings: the plan says so already
+  // (predicted-u-over-tolerance), and no share of the bands would help
+  if (rows.some((x) => !(x.room > 0))) return undefined;
+  const roomy = rows.filter((x) => Number.isFinite(x.stack));
   if (!roomy.length) return undefined;
   const worst = roomy.reduce((a, b) => (b.stack / b.room > a.stack / a.room ? b : a));
   if (!(worst.stack > worst.room)) return undefined;
-  const noRoom = rows.filter((x) => !(x.room > 0)).map((x) => x.r.name);
-  const share = noRoom.length
-    ? undefined
-    : Math.min(...roomy.map((x) => (x.stack > 0 ? x.room / x.stack : Infinity)));
+  const share = Math.min(...roomy.map((x) => (x.stack > 0 ? x.room / x.stack : Infinity)));
   return {
     severity: 'warning',
     code: 'band-edges-past-tolerance',
@@ -254,8 +255,7 @@ export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undef
     tolerance: worst.r.tolerance,
     expandedU: worst.r.expandedU,
     share,
-    noRoom,
-    bands: plan.steps.map((s) => ({ step: s.index, halfWidthPa: (share ?? 0) * s.bandPa })),
+    bands: plan.steps.map((s) => ({ step: s.index, halfWidthPa: share * s.bandPa })),
   };
 }
 
