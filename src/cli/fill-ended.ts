@@ -21,6 +21,8 @@ export interface FillOutcome {
   planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the log does not show accepted */
   recordedFillDangers?: readonly unknown[];
+  /** stage 2: the premix tank's checks (one confirmed mixed before its least mixing time is `early`) */
+  premixChecks?: readonly { readonly kind: string; readonly early?: unknown }[];
   /** the tank at the end in a hazard or above its working limit: what it is now, one line each */
   tankNow?: string;
   /** a reading above the working limit logged, then corrected or withdrawn: the end screen's title words */
@@ -60,6 +62,12 @@ function why(code: number, logFile: string, r: FillOutcome): string {
         `is used; ${see}`
       );
     case EXIT.notShown:
+      if (r.verdict === 'pass' && r.premixChecks?.some((c) => c.kind === 'mixed' && c.early))
+        return (
+          `PREMIX DRAWN EARLY: the batch drew from its premix before the least mixing time (confirmed as ` +
+          `mixed early); the re-check assumes a uniform premix, which the record does not show: not a ` +
+          `pass; ${see}`
+        );
       return (
         `the re-check is NOT SHOWN WITHIN TOLERANCE (the uncertainty reaches past the tolerance): ` +
         `not a pass; ${see}`
@@ -92,6 +100,7 @@ export function fillEnded(cli: Cli, r: FillOutcome | undefined, logFile: string)
     record: r.record,
     planDangersNotAcknowledged: r.planDangersNotAcknowledged,
     recordedFillDangers: r.recordedFillDangers,
+    premixChecks: r.premixChecks,
   });
   if (code === EXIT.ok) return;
   cli.err(`mixwright: ${logFile}: ${why(code, logFile, r)}\n`);

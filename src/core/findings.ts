@@ -4,7 +4,7 @@
  */
 
 import { VIRIAL_U } from './mixture-eos.js';
-import { describePredictedOver } from './predict-words.js';
+import { describeBandEdges, describePredictedOver } from './predict-words.js';
 import { describePreciseOption, describeSequenceChosen } from './search-words.js';
 import type { ComponentAbout } from './uncertainty.js';
 import { TWO_STAGE_WORDING } from './two-stage-words.js';
@@ -193,6 +193,21 @@ export type Finding = Base &
         readonly dominant: string;
         readonly dominantShare: number;
         readonly about?: ComponentAbout;
+      }
+    // raised by the predicted uncertainty (predict.ts): every reading at its band's edge
+    | {
+        readonly code: 'band-edges-past-tolerance';
+        /** the quantity worst hit: a species key, 'phi' or 'dilution' */
+        readonly species: string;
+        readonly design: number;
+        /** how far it can end from its design with every reading at a band edge the worst way */
+        readonly stack: number;
+        readonly tolerance: number;
+        readonly expandedU: number;
+        /** the share of every band inside which every quantity stays within its tolerance less U */
+        readonly share: number;
+        /** each fill's band half-width times the share, Pa */
+        readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
       }
     // raised by the split-point search (plan/split-point.ts)
     | {
@@ -867,6 +882,7 @@ const SEARCH: WordingTable<'sequence-chosen' | 'precise-sequence-hazard'> = {
 
 const WORDING: WordingTable<FindingCode> = {
   'predicted-u-over-tolerance': describePredictedOver,
+  'band-edges-past-tolerance': describeBandEdges,
   'premix-in-place': describePremixInPlace,
   ...DATA_COVERAGE,
   ...TANK_AND_GAUGES,

@@ -186,6 +186,7 @@ export {
   evaluateUncertainty,
   MC_STREAMS,
   monteCarloSamples,
+  nominalOutputs,
   numericalTolerance,
   streamSeed,
   streamTrials,
@@ -231,6 +232,8 @@ export {
   DEFAULT_TEMPERATURE_SETTLING_K,
   plannedModelInput,
   predictionFindings,
+  bandEdgesFinding,
+  bandEdgeStacks,
   predictionOf,
   predictPlan,
   withPrediction,
@@ -260,7 +263,13 @@ export { compositionTermsOf, premixSource } from './plan/premix-source.js';
 export type { PremixSourceArgs } from './plan/premix-source.js';
 export { amountDrawn, planFromPremix, premixMinorGases } from './plan/premix-log.js';
 export type { PremixLogPlan, PremixLogPlanInput, PremixLogUse } from './plan/premix-log.js';
-export { premixDelivery, premixStartForEndPa, PREMIX_DELIVERY_MARGIN } from './premix-tank.js';
+export {
+  premixDelivery,
+  premixMixingElapsed,
+  premixStartForEndPa,
+  PREMIX_DELIVERY_MARGIN,
+  PREMIX_STIR_MIN_S,
+} from './premix-tank.js';
 export type { Delivery, DeliveryInput, StartForEndInput } from './premix-tank.js';
 export type { CompositionTerm, SharedInstrument } from './supply.js';
 export { chargeNumbers } from './plan/charges.js';

@@ -102,3 +102,34 @@ export function describePredictedOver(f: PredictedOver, p: (pa: number) => strin
     `(re-plan to see the new U)`
   );
 }
+
+/** the fields of the `band-edges-past-tolerance` finding that the sentence uses */
+export interface BandEdges {
+  readonly species: string;
+  readonly design: number;
+  readonly stack: number;
+  readonly tolerance: number;
+  readonly expandedU: number;
+  readonly share: number;
+  readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
+}
+
+/** "x(O2)", "phi", "the diluent fraction" */
+function quantityName(name: string): string {
+  return name === 'phi' ? 'phi' : name === 'dilution' ? 'the diluent fraction' : `x(${name})`;
+}
+
+/**
+ * "readings inside every band can fail together: ... read each fill within 12 % of its band
+ * (fill 1 +-0.0018 Torr, ...)"
+ */
+export function describeBandEdges(f: BandEdges, p: (pa: number) => string): string {
+  const head =
+    `readings inside every band can fail together: a band assumes the fills before it on target, and ` +
+    `all at their band edges the worst way take ${quantityName(f.species)} ` +
+    `${relPct(f.stack / f.design)} off its design (room: tolerance ${relPct(f.tolerance / f.design)} ` +
+    `less U ${relPct(f.expandedU / f.design)})`;
+  const guided = 'fill with `mixwright fill`, which re-targets the later fills from each reading';
+  const bands = f.bands.map((b) => `fill ${b.step} +-${p(b.halfWidthPa)}`).join(', ');
+  return `${head}. From the sheet, read each fill within ${relPct(f.share)} of its band (${bands}); or ${guided}`;
+}

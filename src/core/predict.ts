@@ -17,6 +17,7 @@ import type { Gauge, ReadingContext } from './gauges.js';
 import type { Finding } from './findings.js';
 import {
   evaluateUncertainty,
+  nominalOutputs,
   type ComponentAbout,
   type OutputStat,
   type UncertaintyResult,
@@ -191,6 +192,71 @@ export function predictionFindings(p: PlanPrediction): Finding[] {
         about: dominant?.about,
       };
     });
+}
+
+/** the model's output a predicted row is: a species' mole fraction, phi, or the diluent fraction */
+const outputOf = (r: PredictedRow) => (r.kind === 'dilution' ? 'diluent' : r.name);
+
+/**
+ * Each predicted row with the most it can move with every reading at its band's edge the worst way
+ * (`stack`: the sum over the readings of the magnitude of its central difference across the reading's
+ * band) and its room (tolerance less U); undefined when the model's readings are not the plan's steps
+ */
+export function bandEdgeStacks(
+  plan: Plan,
+  p: PlanPrediction,
+): { readonly r: PredictedRow; readonly stack: number; readonly room: number }[] | undefined {
+  const { readings, settings, diluent, initial } = p.model;
+  if (readings.length !== plan.steps.length) return undefined;
+  const at = (i: number, d: number) =>
+    nominalOutputs(
+      readings.map((r, j) => (j === i ? { ...r, pressurePa: r.pressurePa + d } : r)),
+      settings,
+      diluent,
+      initial,
+    );
+  const moved = plan.steps.map((s, i) => ({ up: at(i, s.bandPa), down: at(i, -s.bandPa) }));
+  return p.rows.map((r) => {
+    const o = outputOf(r);
+    const stack = moved.reduce((sum, m) => sum + Math.abs(m.up[o] - m.down[o]) / 2, 0);
+    return { r, stack, room: r.tolerance - r.expandedU };
+  });
+}
+
+/**
+ * Readings inside every band, taken together. Each fill's band is its own tolerance with the fills
+ * before it read at their targets; a paper fill reads every later fill to its printed target whatever
+ * the one before read, so the deviations of all readings add up. With each reading moved to its band's
+ * edge, one at a time (central differences of the re-check's own model: `nominalOutputs`), the worst
+ * way their effects can add (sum of magnitudes, linear: JCGM 100:2008 5.1.2 first-order terms) is set
+ * against each design quantity's tolerance less its predicted U (the room a pass needs: check passes a
+ * quantity only when |deviation| + U <= tolerance). A warning when the band edges can go past that room;
+ * it gives the common share of every band inside which all quantities stay within it. Undefined when the
+ * bands hold together, or when the U of some quantity alone fills its tolerance (no readings pass then:
+ * predicted-u-over-tolerance says so).
+ */
+export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undefined {
+  const rows = bandEdgeStacks(plan, p);
+  if (!rows) return undefined;
+  // a quantity whose U alone fills its tolerance passes on no readings: the plan says so already
+  // (predicted-u-over-tolerance), and no share of the bands would help
+  if (rows.some((x) => !(x.room > 0))) return undefined;
+  const roomy = rows.filter((x) => Number.isFinite(x.stack));
+  if (!roomy.length) return undefined;
+  const worst = roomy.reduce((a, b) => (b.stack / b.room > a.stack / a.room ? b : a));
+  if (!(worst.stack > worst.room)) return undefined;
+  const share = Math.min(...roomy.map((x) => (x.stack > 0 ? x.room / x.stack : Infinity)));
+  return {
+    severity: 'warning',
+    code: 'band-edges-past-tolerance',
+    species: worst.r.name,
+    design: worst.r.design,
+    stack: worst.stack,
+    tolerance: worst.r.tolerance,
+    expandedU: worst.r.expandedU,
+    share,
+    bands: plan.steps.map((s) => ({ step: s.index, halfWidthPa: share * s.bandPa })),
+  };
 }
 
 /** a plan that carries its predicted uncertainty (or why there is none) */

@@ -20,6 +20,12 @@ export function describePremixLogProblem(
         `${at} cannot be read as a batch log: ${describe(c.problem)}; ` +
         'name the finished batch log of the premix tank'
       );
+    case 'drawn-early':
+      return (
+        `${at} drew from its own premix before that premix's least mixing time (confirmed as mixed ` +
+        'early): its re-check assumes a uniform premix, which its record does not show, so it is no ' +
+        'pass and cannot be a source; make it again and wait out the mixing time before drawing'
+      );
     case 'not-finished':
       return (
         `${at} is not a finished fill (${[

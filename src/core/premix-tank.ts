@@ -111,3 +111,27 @@ export function premixStartForEndPa(input: StartForEndInput): number {
   const rho1 = densityFromPressure(input.endPa, T, B, C);
   return pressureFromDensity(rho1 + input.deliveredMol / V, T, B, C);
 }
+
+/** the least stirring time asked of a stirred premix tank before a batch draws from it (common practice: 15-30 min) */
+export const PREMIX_STIR_MIN_S = 15 * 60;
+
+/**
+ * The time from the premix log's close to `now` (ISO) against the least mixing time asked (stirred:
+ * PREMIX_STIR_MIN_S; unstirred: the rest time, diffusion alone to 0.1 %): undefined when either is not
+ * known (an older log, no tank height). Shared by the guided fill (which asks `mixed early` to go on)
+ * and the re-check (which does not call a batch drawn early a pass).
+ */
+export function premixMixingElapsed(
+  pc: {
+    readonly premixClosed?: string;
+    readonly mixing?: { readonly stirred: boolean; readonly restS: number };
+  },
+  now: string,
+): { readonly elapsedS: number; readonly neededS: number; readonly early: boolean } | undefined {
+  const closed = pc.premixClosed ? Date.parse(pc.premixClosed) : NaN;
+  const at = Date.parse(now);
+  if (!Number.isFinite(closed) || !Number.isFinite(at) || !pc.mixing) return undefined;
+  const elapsedS = (at - closed) / 1000;
+  const neededS = pc.mixing.stirred ? PREMIX_STIR_MIN_S : pc.mixing.restS;
+  return { elapsedS, neededS, early: elapsedS < neededS };
+}

@@ -383,6 +383,8 @@ export type PremixLogCause =
   | { readonly kind: 'unreadable'; readonly problem: Problem }
   /** steps without a reading, or no close event */
   | { readonly kind: 'not-finished'; readonly missingSteps: readonly number[]; readonly closed: boolean }
+  /** the log drew from its own premix before that premix's least mixing time (confirmed mixed early) */
+  | { readonly kind: 'drawn-early' }
   /** its re-check fails, or cannot show its composition within its own tolerance */
   | {
       readonly kind: 'recheck-not-passed';

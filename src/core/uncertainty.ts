@@ -396,6 +396,21 @@ function buildModel(input: ModelInput): Model {
   return { setup, components, evaluate, outputs };
 }
 
+/**
+ * The re-check model's nominal outputs at the readings as given (no input moved off its value): each
+ * species' mole fraction, 'phi' and 'diluent' (the fraction of the species named in `diluent`)
+ */
+export function nominalOutputs(
+  readings: readonly CheckedReading[],
+  settings: UncertaintySettings,
+  diluent: readonly string[],
+  initial?: { composition: Fractions; pressurePa: number; temperatureK: number },
+): Record<string, number> {
+  const m = buildModel({ readings, settings, diluent, initial });
+  const v = m.evaluate(new Float64Array(m.components.length));
+  return Object.fromEntries(m.outputs.map((k, i) => [k, v[i]]));
+}
+
 /** k-th smallest value (0-based) by quickselect; reorders `a` */
 function select(a: Float64Array, k: number): number {
   let lo = 0;

@@ -340,6 +340,31 @@ function unfilledOf(design: Design, readings: readonly CheckedReading[]): string
   return Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
 }
 
+/**
+ * The plan's last fills no row reads, when the rows are the plan's first fills in its order (charges
+ * included) and the last row stopped where the plan's fill of the same place stops, not at the plan's
+ * final pressure: "cyl-Ar charge 2 of 2 (the plan's fill 4)". A split diluent's missing last charge
+ * leaves every species read, so `unfilledOf` cannot see it; a source filled in one charge where the plan
+ * splits it (a complete fill) ends near the final pressure, and is not called incomplete here.
+ */
+function chargesNotRead(b: CsvBasis, readings: readonly CheckedReading[]): string[] {
+  const planned = b.plannedOrder;
+  const targets = b.targetsPa;
+  const n = readings.length;
+  if (!planned || !targets || n === 0 || n >= planned.length) return [];
+  if (readings.some((r, i) => r.source.id !== planned[i])) return [];
+  const last = readings[n - 1].pressurePa;
+  const final = targets[targets.length - 1];
+  if (!(Math.abs(last - targets[n - 1]) < Math.abs(last - final))) return [];
+  const charges = (i: number) => planned.filter((id) => id === planned[i]).length;
+  const chargeOf = (i: number) => planned.slice(0, i + 1).filter((id) => id === planned[i]).length;
+  return planned.slice(n).map((id, j) => {
+    const i = n + j;
+    const charge = charges(i) > 1 ? ` charge ${chargeOf(i)} of ${charges(i)}` : '';
+    return `${id}${charge} (the plan's fill ${i + 1})`;
+  });
+}
+
 /** the verdict's word on rows that are likely unit slips: the dangers above rest on them as typed */
 function slipCaveat(rows: readonly CsvReading[]): string[] {
   const lines = rows.filter((r) => r.unitSlip).map((r) => r.line);
@@ -393,7 +418,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     ),
   );
   let verdict = judge(result, design, tolerance);
-  const incomplete = design ? unfilledOf(design, readings) : [];
+  const incomplete = design ? [...unfilledOf(design, readings), ...chargesNotRead(b, readings)] : [];
   if (incomplete.length) {
     warnings.push(
       `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +

@@ -24,7 +24,7 @@ import {
 } from './batch-log.js';
 import { auditLog, describeLogFinding, ventOf } from './log-audit.js';
 import type { PlanRequest } from './load.js';
-import { TORR_PA, withReadingsPastRange } from '../core/index.js';
+import { premixMixingElapsed, TORR_PA, withReadingsPastRange } from '../core/index.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
 import {
   readingsPastRange,
@@ -277,14 +277,21 @@ function premixChecksOf(log: ParsedLog): PremixCheckRecord[] {
   const pc = h.stage?.premix_check;
   const unitOf = (gauge: string) =>
     (pc?.gauge?.id === gauge ? pc.gauge.unit : h.gauges.find((g) => g.id === gauge)?.unit) ?? 'Torr';
-  const mixed = log.premixMixed.map((m): PremixCheckRecord => ({
-    kind: 'mixed',
-    line: m.line,
-    tank: m.tank,
-    by: m.by,
-    time: m.time,
-    ...(m.note ? { note: m.note } : {}),
-  }));
+  // drawn before the least mixing time after the premix log closed (the guided fill's own rule): the
+  // re-check assumes a uniform premix, which the record then does not show
+  const mixing = pc?.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s };
+  const mixed = log.premixMixed.map((m): PremixCheckRecord => {
+    const t = premixMixingElapsed({ premixClosed: pc?.premix_log_closed, mixing }, m.time);
+    return {
+      kind: 'mixed',
+      line: m.line,
+      tank: m.tank,
+      by: m.by,
+      time: m.time,
+      ...(m.note ? { note: m.note } : {}),
+      ...(t?.early ? { early: { elapsedS: t.elapsedS, neededS: t.neededS } } : {}),
+    };
+  });
   const read = log.premixReadings.map((r): PremixCheckRecord => ({
     kind: 'reading',
     line: r.line,

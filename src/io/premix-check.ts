@@ -111,6 +111,8 @@ function refusalOf(outcome: CheckOutcome, p: OutcomeParts): PremixLogCause {
       };
     case 'record-altered':
       return { kind: 'record-altered', lines: p.altered };
+    case 'premix-drawn-early':
+      return { kind: 'drawn-early' };
   }
 }
 

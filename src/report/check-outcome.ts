@@ -23,6 +23,7 @@ export type CheckOutcome =
   | 'recorded-fill-danger'
   | 'accepted-hazard'
   | 'record-altered'
+  | 'premix-drawn-early'
   | 'not-shown-within-tolerance'
   | 'no-design'
   | 'not-closed';
@@ -41,6 +42,8 @@ export interface OutcomeInput {
   readonly planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the record does not show accepted */
   readonly recordedFillDangers?: readonly unknown[];
+  /** stage 2: the premix tank's checks; one confirmed mixed before its least mixing time is `early` */
+  readonly premixChecks?: readonly { readonly kind: string; readonly early?: unknown }[];
 }
 
 /**
@@ -59,6 +62,8 @@ export function checkOutcomes(r: OutcomeInput): CheckOutcome[] {
   if (r.recordedFillDangers?.length) out.push('recorded-fill-danger');
   if (r.record?.acceptedHazards?.length) out.push('accepted-hazard');
   if (r.record?.alteredLines.length) out.push('record-altered');
+  // a premix drawn before its least mixing time: the uniform premix the re-check assumes is not shown
+  if (r.premixChecks?.some((c) => c.kind === 'mixed' && c.early)) out.push('premix-drawn-early');
   if (r.verdict.verdict === 'pass-uncertain') out.push('not-shown-within-tolerance');
   if (r.verdict.verdict === 'no-design') out.push('no-design');
   // an incomplete batch says so first; a log never closed is not a pass whatever its numbers

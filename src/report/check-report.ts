@@ -53,6 +53,10 @@ export function verdictWord(r: CheckReport): string {
     ? ' - DANGER IN THE RECORDED FILL: not a pass (see below)'
     : '';
   const accepted = r.record?.acceptedHazards?.length ? ' - ACCEPTED HAZARD (see below)' : '';
+  // a premix drawn before its least mixing time: computed from the record's times (premixChecksOf)
+  const early = r.premixChecks?.some((c) => c.kind === 'mixed' && c.early)
+    ? ' - PREMIX DRAWN EARLY (see below)'
+    : '';
   const words: Record<string, string> = {
     // a composition within tolerance is a pass only when nothing in the record stands against it
     pass: checkOutcomes(r).length ? 'NOT A PASS (the composition is within tolerance)' : 'PASS',
@@ -62,7 +66,7 @@ export function verdictWord(r: CheckReport): string {
     fail: 'FAIL - out of tolerance',
     'no-design': 'NO DESIGN to compare with - not a pass',
   };
-  return (words[r.verdict.verdict] ?? r.verdict.verdict) + unacked + recorded + accepted;
+  return (words[r.verdict.verdict] ?? r.verdict.verdict) + unacked + recorded + accepted + early;
 }
 
 function mcNote(st: OutputStat): string {
@@ -296,6 +300,7 @@ export function recordMarks(r: CheckReport): string[] {
   if (r.planDangersNotAcknowledged?.length) out.push(unackedMark(r.planDangersNotAcknowledged));
   if (r.recordedFillDangers?.length) out.push(recordedMark(r.recordedFillDangers));
   if (r.record?.acceptedHazards?.length) out.push(acceptedMark(r.record.acceptedHazards));
+  if (r.premixChecks?.some((c) => c.kind === 'mixed' && c.early)) out.push('PREMIX DRAWN EARLY');
   return out;
 }
 
@@ -433,6 +438,14 @@ function verdictText(r: CheckReport): string {
           ? "dangers of the plan's review and hazards the plan did not have"
           : 'hazards the plan did not have')
     : '';
+  // a premix drawn before its least mixing time (premixChecksOf: the guided fill's own rule)
+  const drawn = r.premixChecks?.find((c) => c.kind === 'mixed' && c.early);
+  const early =
+    drawn?.kind === 'mixed' && drawn.early
+      ? ` - PREMIX DRAWN EARLY: the batch drew from the premix in ${drawn.tank} before its least mixing ` +
+        `time (confirmed as mixed early by ${drawn.by}, line ${drawn.line}); the re-check takes the premix as ` +
+        `uniform, which the record does not show: let it mix, or re-measure the tank before it is used`
+      : '';
   if (alteredLeads(r))
     return (
       `RECORD ALTERED AFTER WRITING (${linesText(altered)}) - not a pass: the record was changed ` +
@@ -442,7 +455,8 @@ function verdictText(r: CheckReport): string {
       closed +
       unacked +
       recorded +
-      accepted
+      accepted +
+      early
     );
   // a composition within tolerance beside a danger, a plan danger or hazards, or a log never closed
   const composition =
@@ -458,7 +472,8 @@ function verdictText(r: CheckReport): string {
     closed +
     unacked +
     recorded +
-    accepted
+    accepted +
+    early
   );
 }
 
@@ -1007,6 +1022,7 @@ function premixCauseJson(c: PremixLogCause): object {
     case 'changed':
       return { kind: c.kind, recorded_last_entry_sha256: c.recorded, now_last_entry_sha256: c.now };
     case 'loop':
+    case 'drawn-early':
       return { kind: c.kind };
     case 'with-premix-tank':
       return { kind: c.kind, places: c.places };

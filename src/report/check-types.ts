@@ -395,6 +395,8 @@ export type PremixCheckRecord =
       readonly by: string;
       readonly time: string;
       readonly note?: string;
+      /** confirmed before the least mixing time since the premix log closed (elapsed and asked, s) */
+      readonly early?: { readonly elapsedS: number; readonly neededS: number };
     }
   | {
       readonly kind: 'reading';
@@ -415,13 +417,27 @@ export type PremixCheckRecord =
       readonly note?: string;
     };
 
+/** "35 s", "15 min", "2.0 h" */
+function minutes(s: number): string {
+  if (s < 90) return `${Math.max(0, Math.round(s))} s`;
+  if (s < 5400) return `${Math.round(s / 60)} min`;
+  return `${(s / 3600).toFixed(1)} h`;
+}
+
 /**
  * a premix check in words, the one wording of `check` and the certificate: "MT-2 read 600.0 Torr on
  * head-10kT (600.0 Torr absolute) by AB at T (line 3): BELOW the minimum 621.7 Torr absolute ..."
  */
 export function premixCheckText(c: PremixCheckRecord, show: (pa: number, unit: string) => string): string {
   if (c.kind === 'mixed')
-    return `premix in ${c.tank} confirmed mixed by ${c.by} at ${c.time} (line ${c.line})${c.note ? `: ${c.note}` : ''}`;
+    return (
+      `premix in ${c.tank} confirmed mixed by ${c.by} at ${c.time} (line ${c.line})` +
+      (c.early
+        ? ` - DRAWN EARLY: ${minutes(c.early.elapsedS)} after the premix log closed, of the least ` +
+          `${minutes(c.early.neededS)} asked; the re-check assumes a uniform premix, which nothing shows here`
+        : '') +
+      (c.note ? `: ${c.note}` : '')
+    );
   return (
     `premix tank ${c.tank} read ${c.reading} on ${c.gauge} (${show(c.pressurePa, c.unit)} absolute) by ${c.by} ` +
     `at ${c.time} (line ${c.line}), against the minimum ${show(c.minimumPa, c.unit)} absolute the batch ` +

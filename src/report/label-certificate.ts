@@ -89,6 +89,9 @@ const OUTCOME_TEXT: Record<string, string> = {
     'that the log does not show accepted (see below).',
   'accepted-hazard':
     'NOT A PASS - ACCEPTED HAZARD: the fill went on through hazards accepted at the manifold (see below).',
+  'premix-drawn-early':
+    'NOT A PASS - PREMIX DRAWN EARLY: the batch drew from its premix before the least mixing time, ' +
+    'confirmed as mixed early; the re-check assumes a uniform premix, which the record does not show (see below).',
   'not-closed':
     'NOT A PASS - NOT CLOSED: the fill never ended with a close entry; gas may have gone in after the ' +
     'last reading.',

@@ -139,6 +139,7 @@ const OUTCOME_LEAD: Partial<Record<CheckOutcome, string>> = {
   'plan-danger-not-acknowledged': 'PLAN DANGER NOT ACKNOWLEDGED - NOT A PASS',
   'recorded-fill-danger': 'DANGER IN THE RECORDED FILL - NOT A PASS',
   'accepted-hazard': 'ACCEPTED HAZARD - NOT A PASS',
+  'premix-drawn-early': 'PREMIX DRAWN EARLY - NOT A PASS',
   'not-closed': 'NOT CLOSED - NOT A PASS',
 };
 

@@ -19,6 +19,7 @@ import {
   inverseSetup,
   invertReadings,
   judge,
+  premixMixingElapsed,
   ProblemError,
   describeProblem,
   retarget,
@@ -917,11 +918,14 @@ export interface FillEnding {
 
 /** the target of each fill as it stood when the fill was read: re-targeted from the readings before it */
 function targetsAtReadings(s: FillState): number[] {
-  return s.done.map((_, i) => {
-    if (i === 0 && !s.start?.read) return s.setup.header.steps[0].target_Pa;
+  return s.done.map((d, i) => {
+    // the target the fill was read to: from the readings before it, at the tank temperature logged with
+    // its own reading (the one its screen re-targeted for: typed there, or carried on from the last)
+    const T = d.temperatureK;
+    const planT = s.setup.header.temperature_K;
+    if (i === 0 && !s.start?.read && Math.abs(T - planT) < 0.005) return s.setup.header.steps[0].target_Pa;
     const prior = s.done.slice(0, i);
     try {
-      const T = i ? prior[i - 1].temperatureK : (s.start?.temperatureK ?? s.targetTemperatureK);
       return retargetRun(s, prior, T).targets[i];
     } catch (e) {
       if (!(e instanceof ProblemError)) throw e;
@@ -2890,25 +2894,6 @@ function onPremixEnter(s: FillState, now: string): FillState {
   }
   if (!s.premix?.mixedBy) return onPremixMixed(s, text, now);
   return onPremixReading(s, text, now);
-}
-
-/** the least stirring time the screen asks of a stirred premix tank (common practice: 15-30 min) */
-export const PREMIX_STIR_MIN_S = 15 * 60;
-
-/**
- * The time since the premix log was closed against the least mixing time asked (stirred: 15 min;
- * unstirred: the rest time): undefined when either is not known (an older log, no tank height).
- */
-export function premixMixingElapsed(
-  pc: PremixCheck,
-  now: string,
-): { readonly elapsedS: number; readonly neededS: number; readonly early: boolean } | undefined {
-  const closed = pc.premixClosed ? Date.parse(pc.premixClosed) : NaN;
-  const at = Date.parse(now);
-  if (!Number.isFinite(closed) || !Number.isFinite(at) || !pc.mixing) return undefined;
-  const elapsedS = (at - closed) / 1000;
-  const neededS = pc.mixing.stirred ? PREMIX_STIR_MIN_S : pc.mixing.restS;
-  return { elapsedS, neededS, early: elapsedS < neededS };
 }
 
 const elapsedWords = (t: number) => (t < 0 ? `${duration(-t)} before it (by this clock)` : duration(t));

@@ -59,6 +59,8 @@ export interface FillOutcome {
   readonly planDangersNotAcknowledged?: readonly unknown[];
   /** dangers of the review of the fill as recorded that the log does not show accepted (check: exit 6) */
   readonly recordedFillDangers?: readonly unknown[];
+  /** stage 2: the premix tank's checks; one confirmed mixed before its least mixing time is `early` (exit 7) */
+  readonly premixChecks?: readonly { readonly kind: string; readonly early?: unknown }[];
   /** the batch closed or stopped below a band with a hazard in the tank: what it holds now, in words */
   readonly tankNow?: string;
   /**
@@ -73,7 +75,13 @@ export function outcomeOfReport(
   report: CheckReport | undefined,
 ): Pick<
   FillOutcome,
-  'verdict' | 'danger' | 'record' | 'planDangersNotAcknowledged' | 'recordedFillDangers' | 'withdrawn'
+  | 'verdict'
+  | 'danger'
+  | 'record'
+  | 'planDangersNotAcknowledged'
+  | 'recordedFillDangers'
+  | 'withdrawn'
+  | 'premixChecks'
 > {
   const withdrawn = withdrawnOverLimit(report);
   return {
@@ -85,6 +93,7 @@ export function outcomeOfReport(
       : {}),
     ...(report?.recordedFillDangers?.length ? { recordedFillDangers: report.recordedFillDangers } : {}),
     ...(withdrawn ? { withdrawn } : {}),
+    ...(report?.premixChecks?.length ? { premixChecks: report.premixChecks } : {}),
   };
 }
 

@@ -133,6 +133,7 @@ const OUTCOME_EXIT: Record<CheckOutcome, number> = {
   'recorded-fill-danger': EXIT.acceptedHazard,
   'accepted-hazard': EXIT.acceptedHazard,
   'record-altered': EXIT.recordAltered,
+  'premix-drawn-early': EXIT.notShown,
   'not-shown-within-tolerance': EXIT.notShown,
   'no-design': EXIT.notShown,
   'not-closed': EXIT.notShown,
