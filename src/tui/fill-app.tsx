@@ -27,6 +27,7 @@ import { noneInsideOnGauge } from './gauge-view.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel, wrapLine } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
+import { overallVerdict } from '../report/check-outcome.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
@@ -683,8 +684,11 @@ export function endWords(s: FillState, record: EndRecord = {}): string {
   const lead = e.kind === 'within' && outside ? `${K} fills logged, the last within its band` : head;
   if (withdrawn) return `${withdrawn}; ${lead}${outside}`;
   if (e.kind !== 'within' || outside) return lead + outside;
-  // "each within its band" only once the re-check has found no withdrawn reading past the limit
-  return record.pending ? `${head} (the re-check of the log follows)` : `${head}, each within its band`;
+  // "each within its band" only once the re-check has found no withdrawn reading past the limit; each band
+  // is its own fill's, so readings inside every band may still be no pass: then said in the same breath
+  if (record.pending) return `${head} (the re-check of the log follows)`;
+  const notPass = record.report && overallVerdict(record.report) !== 'pass';
+  return `${head}, each within its band${notPass ? '; not a pass (below)' : ''}`;
 }
 
 /** what the end screen's title is told of the re-check: its report, or that it is still running */
