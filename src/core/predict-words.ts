@@ -3,6 +3,7 @@
  * what would make it smaller. Kept beside findings.ts so that it stays short.
  */
 import type { ComponentAbout } from './uncertainty.js';
+import type { Finding } from './findings.js';
 
 /** the fields of the `predicted-u-over-tolerance` finding that the sentence uses */
 export interface PredictedOver {
@@ -103,16 +104,8 @@ export function describePredictedOver(f: PredictedOver, p: (pa: number) => strin
   );
 }
 
-/** the fields of the `band-edges-past-tolerance` finding that the sentence uses */
-export interface BandEdges {
-  readonly species: string;
-  readonly design: number;
-  readonly stack: number;
-  readonly tolerance: number;
-  readonly expandedU: number;
-  readonly share: number;
-  readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
-}
+/** the `band-edges-past-tolerance` finding (findings.ts), which the sentence words */
+export type BandEdges = Extract<Finding, { readonly code: 'band-edges-past-tolerance' }>;
 
 /** "x(O2)", "phi", "the diluent fraction" */
 function quantityName(name: string): string {
