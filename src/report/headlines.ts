@@ -74,7 +74,7 @@ export function toleranceHeadline(plan: Plan, unit: PressureUnit, brief = false)
     (f): f is Extract<Finding, { code: 'predicted-u-over-tolerance' }> =>
       f.code === 'predicted-u-over-tolerance',
   );
-  if (!over.length) return [];
+  if (!over.length) return bandEdgesHeadline(plan, brief);
   const worst = over.reduce((a, f) => (f.expandedU / f.tolerance > a.expandedU / a.tolerance ? f : a));
   const t = plan.twoStage;
   const m = t?.mostPrecise;
@@ -89,4 +89,24 @@ export function toleranceHeadline(plan: Plan, unit: PressureUnit, brief = false)
   // brief (the fill sheet, where space is short): the cause and the fix are in the finding it names
   if (brief) return [`${head} The cause and what would reduce it: predicted-u-over-tolerance (findings).`];
   return [`${head} Worst: ${describeFinding(worst, (pa) => pressure(pa, unit))}.${search}`];
+}
+
+/**
+ * Readings inside every band can fail together (band-edges-past-tolerance): said under the plan's first
+ * line too, as a paper fill reads its bands from the table: the share of every band that holds, and
+ * that the guided fill re-targets instead
+ */
+function bandEdgesHeadline(plan: Plan, brief: boolean): string[] {
+  const f = plan.findings.find(
+    (x): x is Extract<Finding, { code: 'band-edges-past-tolerance' }> =>
+      x.code === 'band-edges-past-tolerance',
+  );
+  if (!f) return [];
+  const share = `${Number((f.share * 100).toPrecision(2))} %`;
+  return [
+    `READINGS INSIDE EVERY BAND CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
+      `target. Filling from the table, read each fill within ${share} of its band; the guided fill ` +
+      `(\`mixwright fill\`) re-targets from each reading instead` +
+      ` (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
+  ];
 }
