@@ -33,22 +33,9 @@ interface Word {
 
 /** the units a number is never parted from at a break ("1500.0 Torr", "0.98 %") */
 const UNITS = new Set(
-  [
-    '%',
-    'ppm',
-    'Torr',
-    'Pa',
-    'kPa',
-    'MPa',
-    'bar',
-    'mbar',
-    'psi',
-    'psia',
-    'psig',
-    'atm',
-    'mmHg',
-    'inHg',
-  ].concat(['K', 'degC', 'degF', 'mol', 'L', 'mL', 'g', 'kg', 'h', 'min', 's', 'ms']),
+  '% ppm Torr Pa kPa MPa bar mbar psi psia psig atm mmHg inHg K degC degF mol L mL g kg h min s ms'.split(
+    ' ',
+  ),
 );
 
 /**
