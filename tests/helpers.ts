@@ -81,8 +81,17 @@ export function designOptions(change: DesignChange = {}): string[] {
  * every run of white space made one space)
  */
 export function certificateFlowed(stdout: string): string {
-  return stdout
-    .slice(stdout.indexOf('BATCH CERTIFICATE'))
+  return sheetFlowed(stdout.slice(stdout.indexOf('BATCH CERTIFICATE')));
+}
+
+/**
+ * a text fill sheet with each block's rows joined: the sheet wraps its prose at 80 columns
+ * (report/sheet-render.ts), so a sentence is read whole (blocks are parted by empty lines; every run of
+ * white space made one space; a tank label's continuation row, "  |     ...", joins its row)
+ */
+export function sheetFlowed(text: string): string {
+  return text
+    .replace(/\n {2}\| {5}/g, ' ')
     .split(/\n\s*\n/)
     .map((b) => b.replace(/\s+/g, ' ').trim())
     .join('\n');

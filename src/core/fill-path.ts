@@ -449,11 +449,12 @@ export function detonableStretchFinding(
 /**
  * The closed-vessel pressure of a flammable stretch of the bulk path that reaches a higher tank
  * pressure than every flammable end state (a fill that starts in a flammable tank and carries it
- * higher before the tank leaves the flammable region; a stretch between two states that are not
- * flammable is flammable-fill-path's, not judged here): the rule for states (closedVesselFinding
+ * higher before the tank leaves the flammable region; or a crossing, below): the rule for states (closedVesselFinding
  * in explosion-review.ts, danger above the working limit, else a note) applied at the stretch's
  * highest-pressure flammable point (the end of the span the segment review found) and at its worst
- * point (hottest flame) where that lies inside the path, the higher peak kept. It is reported when
+ * point (hottest flame) where that lies inside the path, the higher peak kept. A stretch between two
+ * end states that are not flammable (the crossing flammable-fill-path reports) gets the same figure
+ * where `crossings` (the full review of a fill, not an order search), marked `crossing`. It is reported when
  * it exceeds the peak of every flammable end state (judged by the same rule; their own findings give
  * theirs): a fill that makes the tank leaner or richer while it fills can ignite lower at the top
  * than at its start, and then the start state's finding already holds the worst figure. No
@@ -463,13 +464,16 @@ function closedVesselOfPath(
   e: FillEvent,
   bulk: SegmentReview,
   ctx: SafetyContext,
+  crossings: boolean,
 ): Extract<Finding, { code: 'closed-vessel-fill-path' }> | undefined {
   if (!e.before || !bulk.flammableU || !bulk.flammablePa) return undefined;
   const [pa, pb] = bulk.flammablePa;
   const topPa = Math.max(pa, pb);
   const ends = [...(bulk.ranks.start > 0 ? [e.before] : []), ...(bulk.ranks.end > 0 ? [e.after] : [])];
-  // a stretch between two states that are not flammable is the crossing flammable-fill-path reports
-  if (!ends.length || !(topPa > Math.max(...ends.map((s) => s.pressurePa)))) return undefined;
+  // a stretch between two states that are not flammable (the crossing flammable-fill-path reports) is
+  // judged the same way, with no end state's peak to exceed, where `crossings` asks for it
+  if (!ends.length && !crossings) return undefined;
+  if (ends.length && !(topPa > Math.max(...ends.map((s) => s.pressurePa)))) return undefined;
   const judge = (s: { composition: Fractions; pressurePa: number }) => {
     const f = closedVesselFinding(s, ctx.temperatureK, ctx.workingLimitPa, e.step);
     return f.code === 'closed-vessel-pressure' ? f : undefined; // closedVesselFinding gives no other code
@@ -484,12 +488,13 @@ function closedVesselOfPath(
     if (f && (!cv || f.peakPa > cv.peakPa)) cv = f;
   }
   if (!cv) return undefined;
-  const endsPeak = Math.max(...ends.map((s) => judge(s)?.peakPa ?? -Infinity));
+  const endsPeak = Math.max(-Infinity, ...ends.map((s) => judge(s)?.peakPa ?? -Infinity));
   if (!(cv.peakPa > endsPeak)) return undefined;
   return {
     ...cv,
     code: 'closed-vessel-fill-path',
     source: e.sourceId,
+    ...(ends.length ? {} : { crossing: true }),
     flammableFromPa: Math.min(pa, pb),
     flammableToPa: topPa,
   };
@@ -568,7 +573,9 @@ export function reviewFillPath(e: FillEvent, ctx: SafetyContext, locate = true, 
   if (!bulk) return out;
   const ends = Math.max(bulk.ranks.start, bulk.ranks.end);
   if (bulk.rank > ends) out.push(crossingFinding(e, bulk, ctx, locate, judge));
-  const cv = closedVesselOfPath(e, bulk, ctx);
+  // a crossing's closed-vessel figure in the full review only (`locate`): the order searches score a
+  // crossing by flammable-fill-path, as before
+  const cv = closedVesselOfPath(e, bulk, ctx, locate);
   if (cv) out.push(cv);
   if (bulk.rank > 0) return out;
   // inside the data's uncertainty margin on the way, where neither end state is (those say it themselves)

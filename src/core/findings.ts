@@ -145,9 +145,14 @@ export type Finding = Base &
         DetonationNumbers)
     | ({ readonly code: 'near-flammable-fill-path'; readonly source: string } & FlammabilityNumbers)
     | ({
-        /** a fill that carries a flammable tank to a higher pressure than any flammable end state */
+        /**
+         * a fill that carries a flammable tank to a higher pressure than any flammable end state, or that
+         * crosses the flammable region between two end states that are not flammable (`crossing`)
+         */
         readonly code: 'closed-vessel-fill-path';
         readonly source: string;
+        /** true: neither end state is flammable (the stretch flammable-fill-path reports) */
+        readonly crossing?: boolean;
         /** the tank pressures between which the path is flammable */
         readonly flammableFromPa: number;
         readonly flammableToPa: number;
@@ -589,9 +594,12 @@ function describeClosedVesselPath(
   const how = closedVesselMethod(f, p);
   const stretch =
     `during this fill (${f.source}) the tank is flammable from ${p(Math.min(f.flammableFromPa, f.flammableToPa))} ` +
-    `up to ${p(Math.max(f.flammableFromPa, f.flammableToPa))}, above the flammable state before or after it; ` +
-    `ignited at ${p(f.fromPa)} the closed tank can reach ${p(f.peakPa)}, more than that state ignited ` +
-    `(${how})`;
+    `up to ${p(Math.max(f.flammableFromPa, f.flammableToPa))}, ` +
+    (f.crossing
+      ? `between end states that are not flammable (flammable-fill-path); ignited at ${p(f.fromPa)} the ` +
+        `closed tank can reach ${p(f.peakPa)} (${how})`
+      : `above the flammable state before or after it; ignited at ${p(f.fromPa)} the closed tank can reach ` +
+        `${p(f.peakPa)}, more than that state ignited (${how})`);
   if (f.limitPa !== undefined && f.peakPa > f.limitPa)
     return (
       `${stretch}, above the tank's working limit ${p(f.limitPa)} - change the fill order or the stops ` +

@@ -203,7 +203,8 @@ function describeInputProblem(
     case 'no-gauge':
       return (
         `no gauge in the lab profile reads ${p.pressurePa.toPrecision(6)} Pa; name ` +
-        `the gauge in a "gauge" column`
+        `the gauge in a "gauge" column` +
+        (p.unitSlip ? `. ${p.unitSlip}` : '')
       );
     case 'option-for-csv-only':
       return `a batch log carries ${p.logCarries}; ${p.option} is for CSV readings only`;

@@ -6,19 +6,29 @@
 
 /**
  * what "non-flammable" rests on: the flammability limits (LFL, UFL, LOC) the review uses, some of them
- * estimated rather than measured (a flammability-data-estimated note names each); said beside every claim
+ * estimated rather than measured (a flammability-data-estimated note names each); said beside a claim
+ * only where one of the limits it rests on was estimated (`limitsEstimated`)
  */
 export const LIMITS_QUALIFIER =
   'by the flammability limits used (each estimated one is named in a flammability-data-estimated note)';
 
+/** " by the flammability limits used (...)" where a limit the claim rests on was estimated, else nothing */
+function qualifier(limitsEstimated: boolean): string {
+  return limitsEstimated ? ` ${LIMITS_QUALIFIER}` : '';
+}
+
 /**
  * the claim of the full review of a planned fill (plan/review.ts `safetyClause`) that found no hazard
  * on any tank state, the finished mixture's included, nor on any fill path; never an order review's
- * claim (ORDER_REVIEW_CLAIM): an order review does not judge the finished mixture
+ * claim (ORDER_REVIEW_CLAIM): an order review does not judge the finished mixture. `limitsEstimated`:
+ * the plan's review emitted a flammability-data-estimated note (plan/review.ts knows, not re-derived here).
  */
-export const CLEAN_CLAIM =
-  `every intermediate tank state and every fill path is non-flammable ${LIMITS_QUALIFIER} and free of ` +
-  'the hazards checked';
+export function cleanClaim(limitsEstimated: boolean): string {
+  return (
+    `every intermediate tank state and every fill path is non-flammable${qualifier(limitsEstimated)} ` +
+    'and free of the hazards checked'
+  );
+}
 
 /**
  * What an order review covers where it finds nothing: it reviews no finished mixture (the same in
@@ -27,9 +37,18 @@ export const CLEAN_CLAIM =
  * (plan/review.ts `safetyClause`) uses these words where only the finished mixture has hazards;
  * tests/core/order-words.test.ts holds the two together.
  */
-export const SHORT_OF_MIXTURE_CLAIM =
-  `every intermediate tank state is non-flammable ${LIMITS_QUALIFIER} and free of the hazards checked, ` +
-  'and so is every fill path short of the finished mixture';
+export function shortOfMixtureClaim(limitsEstimated: boolean): string {
+  return (
+    `every intermediate tank state is non-flammable${qualifier(limitsEstimated)} and free of the ` +
+    'hazards checked, and so is every fill path short of the finished mixture'
+  );
+}
+
+/**
+ * the short-of-mixture claim of an order review, qualified by the limits used: it runs before the plan's
+ * review and does not know whether any limit it rests on was estimated
+ */
+export const SHORT_OF_MIXTURE_CLAIM = shortOfMixtureClaim(true);
 
 /**
  * The claim of an order whose order review (the advice's, order.ts, or the sequence search's,

@@ -300,7 +300,7 @@ function bestOrder(
   return { best, bestScore };
 }
 
-export { CLEAN_CLAIM, ORDER_REVIEW_CLAIM } from './order-words.js';
+export { ORDER_REVIEW_CLAIM } from './order-words.js';
 
 /**
  * the opening of the sequence search's comparison of its choice with the advised order (its own

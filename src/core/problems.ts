@@ -66,8 +66,11 @@ export type Problem =
       readonly id: string;
       readonly choices: readonly string[];
     }
-  /** a CSV reading that no gauge of the lab profile reads, and no gauge column names one */
-  | { readonly code: 'no-gauge'; readonly pressurePa: number }
+  /**
+   * a CSV reading that no gauge of the lab profile reads, and no gauge column names one; `unitSlip`:
+   * the row read in the other rows' unit would fit the fill (io/readings-csv.ts), in words
+   */
+  | { readonly code: 'no-gauge'; readonly pressurePa: number; readonly unitSlip?: string }
   /** an option of `check` that only a CSV of readings needs: a batch log carries it */
   | { readonly code: 'option-for-csv-only'; readonly option: string; readonly logCarries: string }
   | { readonly code: 'no-equilibrium-data'; readonly species: readonly string[] }

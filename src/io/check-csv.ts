@@ -23,7 +23,7 @@ import {
 } from '../core/index.js';
 import { describeLogFinding, type LogFinding } from './log-audit.js';
 import { buildPlanRequest, loadLab, readRecipe, type LoadedLab } from './load.js';
-import { csvRowNames, readReadingsCsv, type CsvReading } from './readings-csv.js';
+import { csvRowNames, readReadingsCsv, slipRefused, type CsvReading } from './readings-csv.js';
 import { sourceNames, type SourceNames } from './csv-names.js';
 import { gaugeConversionWords, isPressureUnit, type GaugeConversion, type PressureUnit } from './quantity.js';
 import { DEFAULT_THERMOMETER, settlingOf } from './plan-predict.js';
@@ -241,6 +241,14 @@ function csvReadings(
     conversions,
     referenceOf: (id) => b.gauges.find((g) => g.id === id)?.reference,
     fullScaleOf: (id) => b.gauges.find((g) => g.id === id)?.fullScalePa,
+    // the highest absolute pressure a gauge reads (a gauge-referenced one: its full scale above the barometer)
+    ...(b.gauges.length
+      ? {
+          widestFullScalePa: Math.max(
+            ...b.gauges.map((g) => g.fullScalePa + (g.reference === 'gauge' ? (b.ctx.barometricPa ?? 0) : 0)),
+          ),
+        }
+      : {}),
     gaugeUnitOf: (id) => b.gauges.find((g) => g.id === id)?.unit,
     targetsPa: b.targetsPa,
     ...(b.tank ? { tank: { id: b.tank.id, limitPa: b.tank.limitPa } } : {}),
@@ -260,7 +268,13 @@ function csvReadings(
         );
     } else {
       gauge = chooseGauge(b.gauges, r.pressurePa, r.pressurePa, b.ctx)?.gauge;
-      if (!gauge) fail({ code: 'no-gauge', pressurePa: r.pressurePa }, { file, line: r.line });
+      // a row that would fit the fill in the other rows' unit says so (readings-csv.ts unitSlipOf)
+      const unitSlip = r.unitSlip && slipRefused(r.unitSlip);
+      if (!gauge)
+        fail(
+          { code: 'no-gauge', pressurePa: r.pressurePa, ...(unitSlip ? { unitSlip } : {}) },
+          { file, line: r.line },
+        );
     }
     const source = sources[i];
     return {

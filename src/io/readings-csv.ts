@@ -26,6 +26,8 @@ export interface CsvContext {
   readonly acceptsName?: (name: string) => boolean;
   /** the named gauge's full scale, Pa (what it shows), when the lab profile gives it */
   readonly fullScaleOf?: (gaugeId: string) => number | undefined;
+  /** the highest absolute pressure a gauge of the lab profile reads, Pa: past it, no gauge reads a row */
+  readonly widestFullScalePa?: number;
   /** the tank's working limit, Pa, and its id, when known */
   readonly tank?: { readonly id: string; readonly limitPa?: number };
   /** the named gauge's readout unit ("Torr"), when the lab profile gives it */
@@ -59,6 +61,12 @@ function pastOf(pressurePa: number, gauge: string | undefined, ctx: CsvContext):
   const fs = gauge !== undefined ? ctx.fullScaleOf?.(gauge) : undefined;
   if (fs !== undefined && shownOf(pressurePa, gauge, ctx) > fs)
     out.push(`the range of ${gauge} (${torr(fs)})`);
+  // a row that names no gauge: past the widest of the lab profile's gauges, no gauge reads it
+  const widest = ctx.widestFullScalePa;
+  if (gauge === undefined && widest !== undefined && pressurePa > widest)
+    out.push(
+      `the range of every gauge of the lab profile (the highest any reads is ${torr(widest)} absolute)`,
+    );
   if (ctx.tank?.limitPa !== undefined && pressurePa > ctx.tank.limitPa)
     out.push(`tank ${ctx.tank.id}'s working limit (${torr(ctx.tank.limitPa)})`);
   return out;
@@ -383,6 +391,19 @@ function nearTarget(pa: number, targets: readonly number[]): { pa: number; fill:
   return near[0];
 }
 
+/** the close of a likely unit slip's words where the re-check goes on with the row as typed */
+const SLIP_STANDS = '; until then the record stands as typed, a danger';
+
+/**
+ * a likely unit slip's words where the re-check refuses the row (no gauge reads it as typed): nothing
+ * was computed on it, so it does not "stand as typed"
+ */
+export function slipRefused(slip: string): string {
+  return slip.endsWith(SLIP_STANDS)
+    ? `${slip.slice(0, -SLIP_STANDS.length)}; nothing is checked until then`
+    : slip;
+}
+
 /**
  * A row whose reading as typed goes past its gauge's range or the tank's working limit, while its
  * number read in the unit of the other rows (or of its gauge's readout) would be a plausible reading:
@@ -421,6 +442,7 @@ function unitSlipOf(rows: readonly CsvReading[], texts: readonly string[], i: nu
     ].join(' and ');
     const within = [
       ...(r.gauge && ctx.fullScaleOf?.(r.gauge) !== undefined ? [`the range of ${r.gauge}`] : []),
+      ...(!r.gauge && ctx.widestFullScalePa !== undefined ? ['the range of a gauge of the lab profile'] : []),
       ...(ctx.tank?.limitPa !== undefined ? [`tank ${ctx.tank.id}'s working limit`] : []),
     ];
     const fits = [
@@ -438,8 +460,8 @@ function unitSlipOf(rows: readonly CsvReading[], texts: readonly string[], i: nu
     return (
       `LIKELY UNIT SLIP on line ${r.line}: as typed, ${texts[i]} is past ${past.join(' and ')}; read as ` +
       `${as}, the unit of ${whose}, it would be ${torr(asPa)} absolute: ${fits.join(', ')}. If the ` +
-      `gauge showed ${as}, correct line ${r.line} to "${as}" from the paper record and check again; ` +
-      `until then the record stands as typed, a danger`
+      `gauge showed ${as}, correct line ${r.line} to "${as}" from the paper record and check again` +
+      SLIP_STANDS
     );
   }
   return undefined;

@@ -1,5 +1,6 @@
 /** Renderers of a re-check: text for the terminal, JSON with SI keys, and the folder summary. */
 import { fixedSig, padTable } from './format.js';
+import { STDERR_STYLE, wrapWords } from './wrap.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
 import { checkOutcomes, COMPOSITION_ALONE_NOT_USABLE, overallVerdict } from './check-outcome.js';
 import {
@@ -952,13 +953,27 @@ function compositionCell(r: CheckReport): string {
   return r.verdict.verdict;
 }
 
+/**
+ * A refused file's row of the folder summary says REFUSED; why, under it, in rows of 80 columns at four
+ * columns in (the file's own name, said by the row, left off the front of the message).
+ */
+function refusalUnder(file: string, error: string): string[] {
+  const why = error.startsWith(`${file}:`)
+    ? error.slice(file.length + 1).replace(/^(\d+):/, 'line $1:')
+    : error;
+  return wrapWords(`    ${why.trim()}`, 80, STDERR_STYLE);
+}
+
 export function folderSummary(
   rows: readonly ({ file: string } & ({ report: CheckReport } | { error: string }))[],
 ): string {
   const table: string[][] = [['file', 'batch', 'stage', 'verdict', 'phi', 'worst |dev|/tol']];
+  // the rows that say why a file was refused, under its table row (by its index in `table`)
+  const under = new Map<number, string[]>();
   for (const r of rows) {
     if ('error' in r) {
-      table.push([r.file, '-', '-', 'ERROR', '-', r.error]);
+      under.set(table.length, refusalUnder(r.file, r.error));
+      table.push([r.file, '-', '-', 'REFUSED (why: below)', '-', '-']);
       continue;
     }
     const rep = r.report;
@@ -989,7 +1004,8 @@ export function folderSummary(
       rep.incomplete.length ? 'incomplete' : rep.verdict.deviations.length ? worst.toFixed(2) : '-',
     ]);
   }
-  return padTable(table, [false, false, false, false, true, true]).join('\n') + '\n';
+  const lines = padTable(table, [false, false, false, false, true, true]);
+  return lines.flatMap((l, i) => [l, ...(under.get(i) ?? [])]).join('\n') + '\n';
 }
 
 /** why a premix log was refused, as `check --json` gives it (SI keys, as the rest of the JSON) */

@@ -1,6 +1,7 @@
 /** The fill checklist in three formats, each a pure function of the sheet model. */
 import type { SheetCheck, SheetModel } from './sheet-model.js';
 import { padTable } from './format.js';
+import { LABEL_STYLE, wrapWords } from './wrap.js';
 
 const esc = (s: string) =>
   s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
@@ -66,8 +67,32 @@ const checkHtml = (c: string) => {
 const checkMd = (c: string) => `- [ ] ${c.split('\n').join('<br>')}`;
 const checkText = (c: string) => {
   const [first, ...more] = c.split('\n');
-  return [`  [ ] ${first}`, ...more.map((l) => `      ${l}`)];
+  return [...fit('  [ ] ', first), ...more.flatMap((l) => fit('      ', l))];
 };
+
+/** the text sheet's width: every line fits an 80-column terminal or page */
+export const TEXT_WIDTH = 80;
+
+/**
+ * `text` after `head` in rows of TEXT_WIDTH (wrap.ts), the continuation rows under the text after the
+ * head, or at column `hang`
+ */
+function fit(head: string, text: string, hang = head.length): string[] {
+  const lead = new RegExp(`^[\\s\\S]{${head.length}}`);
+  return wrapWords(head + text, TEXT_WIDTH, { lead, deeper: hang - head.length, keepSpacing: true });
+}
+
+/** items ("Ar 0.98") three spaces apart, as many to a line as fit, each line indented two columns */
+function packed(items: readonly string[]): string[] {
+  const lines: string[] = [];
+  for (const it of items) {
+    const last = lines.length ? lines[lines.length - 1] : undefined;
+    if (last !== undefined && last.length + 3 + it.length <= TEXT_WIDTH)
+      lines[lines.length - 1] += `   ${it}`;
+    else lines.push(`  ${it}`);
+  }
+  return lines;
+}
 
 /** the gauge cell of a Fills row: its id, and whether it reads above ambient */
 const gaugeCell = (id: string, reference: 'absolute' | 'gauge') =>
@@ -264,32 +289,60 @@ export function sheetToText(m: SheetModel): string {
   const rule = '='.repeat(78);
   out.push(
     rule,
-    `FILL SHEET  ${m.title}`,
-    `Batch ${m.batchId}    Lab: ${m.labName}`,
+    ...fit('FILL SHEET  ', m.title),
+    // the lab on a line of its own where it does not fit beside the batch
+    ...(`Batch ${m.batchId}    Lab: ${m.labName}`.length <= TEXT_WIDTH
+      ? [`Batch ${m.batchId}    Lab: ${m.labName}`]
+      : [`Batch ${m.batchId}`, ...fit('Lab: ', m.labName)]),
     '',
     'Date: ____________   Operator: ____________   Checked by: ____________',
     rule,
     '',
   );
-  if (m.danger) out.push(`*** ${m.danger} ***`, '');
-  if (m.tolerance) out.push(`*** ${m.tolerance} ***`, '');
+  if (m.danger) out.push(...fit('*** ', `${m.danger} ***`), '');
+  if (m.tolerance) out.push(...fit('*** ', `${m.tolerance} ***`), '');
   out.push('DESIGN');
   for (const [k, v] of m.design) {
     const [first, ...more] = v.split('\n');
-    out.push(`  ${k.padEnd(10)} ${first}`, ...more.map((l) => `  ${''.padEnd(10)} ${l}`));
+    // a key longer than its column (the predicted U) hangs its value's rows at 4 columns
+    const hang = k.length > 10 ? 4 : 13;
+    out.push(...fit(`  ${k.padEnd(10)} `, first, hang), ...more.flatMap((l) => fit(' '.repeat(hang), l)));
   }
-  out.push(
-    '',
-    'COMPOSITION (mole fraction)',
-    `  ${m.composition.map(([k, v]) => `${k} ${v}`).join('   ')}`,
-    '',
-  );
+  out.push('', 'COMPOSITION (mole fraction)', ...packed(m.composition.map(([k, v]) => `${k} ${v}`)), '');
   out.push('BEFORE FILLING');
   for (const c of m.preChecks) out.push(...checkText(c));
-  out.push('', 'FILLS (target = reading to stop at, on that gauge)');
-  const rows: string[][] = [
-    ['#', 'gas', 'cylinder', 'gauge', 'target', 'band', 'actual', 'time', 'init', 'done'],
-  ];
+  out.push('', 'FILLS (target = reading to stop at, on that gauge; write in the line under each)');
+  out.push(...fillsText(m));
+  if (m.barometer) out.push('', 'BAROMETER', ...m.barometer.flatMap((l) => fit('  ', l, 4)));
+  out.push('', 'AFTER FILLING');
+  for (const c of m.postChecks) out.push(...checkText(c));
+  out.push('', 'TANK LABEL');
+  for (const l of m.label) out.push(...wrapWords(l, TEXT_WIDTH - 4, LABEL_STYLE).map((r) => `  | ${r}`));
+  out.push('', 'FINDINGS');
+  if (m.findings.length)
+    for (const f of m.findings)
+      out.push(...fit(`  ${f.severity.toUpperCase().padEnd(7)} `, `${f.code} (${f.where}): ${f.message}`));
+  else out.push('  none');
+  out.push('', ...fit('CAUTION: ', m.caution, 2), '');
+  if (m.diagram) out.push(...fit('DIAGRAM: ', `see the HTML or PDF sheet. ${m.diagram.legend}`, 2), '');
+  out.push(`mixwright ${m.version} - recipe ${m.recipeId}`);
+  return out.join('\n') + '\n';
+}
+
+/** a Fills band in the table: "low-high", or the half-width alone of a band said in words ("+-0.0039: ...") */
+const bandCell = (band: string) => band.replace(' - ', '-').replace(/:.*$/, '');
+
+/** the blanks written in at each row of the Fills table, on a line of their own under it */
+const BLANKS_TEXT = '     actual __________   time _____   init ____   done [ ]';
+
+/**
+ * The Fills table of the text sheet: a row per fill (and per check reading: the premix tank before it
+ * delivers, above its fill) with what to read, the blanks to write in on the line under it, and the
+ * fill's notes ("^") and what comes before it (">>") in its place.
+ */
+function fillsText(m: SheetModel): string[] {
+  const out: string[] = [];
+  const rows: string[][] = [['#', 'gas', 'cylinder', 'gauge', 'target', 'band']];
   // a check row (the premix tank's reading) sits in the table above its fill, in the same columns
   const checkRow = (c: SheetCheck) => [
     '',
@@ -298,10 +351,6 @@ export function sheetToText(m: SheetModel): string {
     c.gauge + (c.reference === 'gauge' ? ' (g)' : ''),
     `>= ${c.minimum} ${c.unit}`,
     `plan ${c.planned}`,
-    '__________',
-    '_____',
-    '____',
-    '[ ]',
   ];
   for (const r of m.rows) if (r.check) rows.push(checkRow(r.check));
   for (const r of m.rows)
@@ -311,36 +360,24 @@ export function sheetToText(m: SheetModel): string {
       r.source,
       r.gauge + (r.reference === 'gauge' ? ' (g)' : ''),
       `${r.target} ${r.unit}`,
-      r.band.replace(' - ', '-'),
-      '__________',
-      '_____',
-      '____',
-      '[ ]',
+      bandCell(r.band),
     ]);
-  const table = padTable(rows, [true, false, false, false, true, true, false, false, false, false]);
+  const table = padTable(rows, [true, false, false, false, true, true]);
   const checks = m.rows.filter((r) => r.check).length;
   out.push(`  ${table[0]}`);
   let k = 1;
   m.rows.forEach((r, i) => {
-    for (const b of r.before) out.push(`  >> before fill ${r.n}: ${b}`);
+    for (const b of r.before) out.push(...fit('  >> ', `before fill ${r.n}: ${b}`));
     for (const c of r.cautions)
-      out.push(`  >> fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}: ${c.message}`);
-    if (r.check) out.push(`  ${table[k++]}`, `     ^ ${r.check.note}`);
+      out.push(...fit('  >> ', `fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}: ${c.message}`));
+    if (r.check) out.push(`  ${table[k++]}`, BLANKS_TEXT, ...fit('     ^ ', r.check.note));
     out.push(`  ${table[checks + i + 1]}`);
-    if (r.noneInside) out.push(`     ^ fill ${r.n}: ${r.noneInside}`);
-    if (r.chargeNote) out.push(`     ^ fill ${r.n}: ${r.chargeNote}`);
+    // a band the display cannot show as "low-high": its half-width in the table, the words under it
+    if (bandCell(r.band) !== r.band.replace(' - ', '-'))
+      out.push(...fit('     ^ ', `fill ${r.n}: band ${r.band}`));
+    out.push(BLANKS_TEXT);
+    if (r.noneInside) out.push(...fit('     ^ ', `fill ${r.n}: ${r.noneInside}`));
+    if (r.chargeNote) out.push(...fit('     ^ ', `fill ${r.n}: ${r.chargeNote}`));
   });
-  if (m.barometer) out.push('', 'BAROMETER', ...m.barometer.map((l) => `  ${l}`));
-  out.push('', 'AFTER FILLING');
-  for (const c of m.postChecks) out.push(...checkText(c));
-  out.push('', 'TANK LABEL', ...m.label.map((l) => `  | ${l}`), '');
-  out.push('FINDINGS');
-  if (m.findings.length)
-    for (const f of m.findings)
-      out.push(`  ${f.severity.toUpperCase().padEnd(7)} ${f.code} (${f.where}): ${f.message}`);
-  else out.push('  none');
-  out.push('', `CAUTION: ${m.caution}`, '');
-  if (m.diagram) out.push(`DIAGRAM: see the HTML or PDF sheet. ${m.diagram.legend}`, '');
-  out.push(`mixwright ${m.version} - recipe ${m.recipeId}`);
-  return out.join('\n') + '\n';
+  return out;
 }

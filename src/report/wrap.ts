@@ -3,7 +3,9 @@
  * wrapForStderr), the tank label's lines (label-model.ts wrapLine) and the text certificate's
  * paragraphs (label-render.ts). A line is broken at spaces, greedily; a word longer than the width
  * is never cut (it stands whole on its own row); each continuation hangs deeper than the line's
- * lead. What differs between them is a WrapStyle.
+ * lead. What differs between them is a WrapStyle. Some spaces never break, in every style (`bound`):
+ * "(k = 2)" and "0.0066667 +- 0.000016" stay whole, and so do a number and its unit ("2.0 h", "0.014 %")
+ * and a charge's number ("Ar 1/2").
  */
 
 export interface WrapStyle {
@@ -29,6 +31,35 @@ interface Word {
   readonly word: string;
 }
 
+/** the units a number is never parted from at a break ("1500.0 Torr", "0.98 %") */
+const UNITS = new Set(
+  '% ppm Torr Pa kPa MPa bar mbar psi psia psig atm mmHg inHg K degC degF mol L mL g kg h min s ms'.split(
+    ' ',
+  ),
+);
+
+/**
+ * whether the space before `next` (after `prev`) never breaks: at a lone "=" or "+-" ("k = 2",
+ * "x +- U"), between a number and its unit, and before a charge's number ("Ar 1/2")
+ */
+function bound(prev: string, next: string): boolean {
+  if (/^(=|\+-)$/.test(prev) || /^(=|\+-)$/.test(next)) return true;
+  if (/\d$/.test(prev) && UNITS.has(next.replace(/[);:,.]+$/, ''))) return true;
+  return /^\d+\/\d+[);:,.]*$/.test(next) && /^[A-Za-z]/.test(prev);
+}
+
+/** the words with every space that never breaks (`bound`) taken into the word, as typed */
+function joined(words: readonly Word[]): Word[] {
+  const out: Word[] = [];
+  for (const w of words) {
+    const last = out[out.length - 1];
+    if (last && bound(last.word.split(/\s/).pop()!, w.word))
+      out[out.length - 1] = { gap: last.gap, word: last.word + w.gap + w.word };
+    else out.push(w);
+  }
+  return out;
+}
+
 /**
  * One line (no line feed) as rows of at most `width` characters, broken at spaces by `style`; a line
  * that fits is returned as it is.
@@ -39,10 +70,12 @@ export function wrapWords(line: string, width: number, style: WrapStyle): string
   const pad = ' '.repeat(Math.max(style.least ?? 0, lead.length + style.deeper));
   // a message breaks at its spaces only (a tab stays inside its word); the label at any white space
   const split = style.keepSpacing ? / *[^ ]+/g : /\s*\S+/g;
-  const words: Word[] = [...line.slice(lead.length).matchAll(split)].map((m) => ({
-    gap: style.keepSpacing ? /^ */.exec(m[0])![0] : ' ',
-    word: m[0].trimStart(),
-  }));
+  const words = joined(
+    [...line.slice(lead.length).matchAll(split)].map((m) => ({
+      gap: style.keepSpacing ? /^ */.exec(m[0])![0] : ' ',
+      word: m[0].trimStart(),
+    })),
+  );
   const text = (r: readonly Word[]) => r.map((w, i) => (i ? w.gap : '') + w.word).join('');
   // the width a row takes: its indent (the lead on the first row, unless measured evenly) and its words
   const taken = (r: readonly Word[], first: boolean) =>

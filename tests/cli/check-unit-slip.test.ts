@@ -7,7 +7,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../helpers.js';
+import { runCli, stderrWords } from '../helpers.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
 
@@ -54,5 +54,42 @@ describe('a likely unit slip on the last CSV row', () => {
     expect(r.code, r.stderr).toBe(4);
     expect(r.stdout).toMatch(/danger: line 5, fill 4: the tank reading 9000\.74 Torr/);
     expect(r.stdout).not.toContain('UNIT SLIP');
+  });
+
+  // a row that names no gauge: the re-check chooses the gauge that reads it, and none reads 11250.9 Torr
+  // (the widest demo head reads 10000 Torr), so the CSV is refused; the refusal names the slip by the
+  // other rows' unit, as a row on a named gauge does, and never says the record stands (nothing was checked)
+  it("1500.0 kPa on rows that name no gauge: refused, and the refusal names the slip by the other rows' unit", async () => {
+    const f = lastRow('1500.0 kPa');
+    const text = readFileSync(f, 'utf8');
+    // the gauge column dropped (the 4th of 7)
+    const noGauge = text
+      .trim()
+      .split('\n')
+      // the first three cells hold no comma
+      .map((l) => l.replace(/^((?:[^,]*,){3})[^,]*,/, '$1'))
+      .join('\n');
+    expect(noGauge.split('\n')[0]).toBe('species,pressure,temperature,time,by,note');
+    writeFileSync(f, `${noGauge}\n`);
+    for (const args of [['--recipe', RECIPE], []]) {
+      const r = await runCli(['check', f, ...args]);
+      expect(r.code, r.stderr).toBe(2);
+      const said = stderrWords(r.stderrShown);
+      expect(said).toContain(
+        'no gauge in the lab profile reads 1.50000e+6 Pa; name the gauge in a "gauge" column. ',
+      );
+      expect(said).toContain(
+        'LIKELY UNIT SLIP on line 5: as typed, 1500.0 kPa is past the range of every gauge of the lab ' +
+          'profile (the highest any reads is 10000.0 Torr absolute)',
+      );
+      expect(said).toContain(
+        'read as 1500.0 Torr, the unit of lines 2, 3, 4, it would be 1500.00 Torr absolute: above line 4, ' +
+          'within the range of a gauge of the lab profile',
+      );
+      expect(said).toContain(
+        'correct line 5 to "1500.0 Torr" from the paper record and check again; nothing is checked until then',
+      );
+      expect(said).not.toContain('stands as typed');
+    }
   });
 });

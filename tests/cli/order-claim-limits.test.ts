@@ -19,3 +19,18 @@ describe('the order claim on estimated flammability limits', () => {
     expect(r.stdout).toMatch(/note {4}flammability-data-estimated: .*n-C7H16 \(LOC = z x LFL\)/);
   });
 });
+
+// the qualifier is said only where a limit was estimated: CH4, C2H4 and the natural-gas blend's fuels have
+// tabulated LFL, UFL and LOC (no flammability-data-estimated note), so their claim is the plain one
+describe('the order claim on tabulated flammability limits', () => {
+  it.each(['recipes/ch4-o2-ar-phi1.yaml', 'recipes/c2h4-o2-ar-phi05.yaml', 'recipes/ng-blend-air.yaml'])(
+    '%s: "non-flammable" unqualified, no flammability-data-estimated note',
+    async (recipe) => {
+      const r = await runCli(['plan', recipe]);
+      expect(r.stdout).not.toMatch(/flammability-data-estimated/);
+      const order = /^Order .*$/m.exec(r.stdout)?.[0] ?? '';
+      expect(order).toMatch(/is non-flammable and free of the hazards checked/);
+      expect(order).not.toContain('by the flammability limits used');
+    },
+  );
+});

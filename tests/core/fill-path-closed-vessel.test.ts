@@ -192,3 +192,46 @@ describe('property (fast-check): a path never reports an ignition pressure below
     expect(judged).toBeGreaterThan(0);
   });
 });
+
+// A fill that crosses the flammable region between two end states that are not flammable: pure CH4 (too
+// rich: above its UFL, 15 % in air as common practice, from memory) topped up with air to 2 % CH4 (below
+// its LFL, 5 % in air, common practice, from memory). flammable-fill-path reports the crossing; the
+// closed-vessel figure is the same rule's (closedVesselOfPath) at the stretch's top or its worst point.
+describe('a fill that crosses the flammable region between non-flammable end states: its closed-vessel figure', () => {
+  const ctx: SafetyContext = { temperatureK: 298.15, workingLimitPa: 10e5, tankId: 'T' };
+  const e = fill({ CH4: 1 }, 0.1e5, { O2: 0.2095, N2: 0.7905 }, 5e5);
+
+  it('the crossing is flammable-fill-path, and closed-vessel-fill-path (crossing) gives the state rule at its ignition point', () => {
+    const fs = reviewFillPath(e, ctx);
+    expect(fs.some((f) => f.code === 'flammable-fill-path')).toBe(true);
+    // the premise: neither end state is flammable
+    expect(assessFlammability(e.before!.composition, 298.15, e.before!.pressurePa).verdict).not.toBe(
+      'flammable',
+    );
+    expect(assessFlammability(e.after.composition, 298.15, e.after.pressurePa).verdict).not.toBe('flammable');
+    const f = pathCv(fs)!;
+    expect(f).toBeDefined();
+    expect(f.crossing).toBe(true);
+    const p0 = e.before!.pressurePa;
+    const p1 = e.after.pressurePa;
+    // P(u) = P0 P1 / (P1 - u (P1 - P0)) inverted (fill-path.ts)
+    const u = (p1 - (p0 * p1) / f.fromPa) / (p1 - p0);
+    const state = stateCv(mix(e.before!.composition, e.after.composition, u), f.fromPa, ctx);
+    // the same rule as a state's (reused, not copied): the same numbers to 1e-9
+    expect(Math.abs(f.peakPa / state.peakPa - 1)).toBeLessThan(1e-9);
+    expect(f.severity).toBe(state.severity);
+    // a hydrocarbon-air explosion in a closed vessel reaches several times its start pressure (about 8-10x
+    // near stoichiometric, common practice, from memory; here within 3x to 12x)
+    expect(f.peakPa / f.fromPa).toBeGreaterThan(3);
+    expect(f.peakPa / f.fromPa).toBeLessThan(12);
+    expect(describeFinding(f, (pa) => `${(pa / 1e5).toFixed(3)} bar`)).toMatch(
+      /tank is flammable from [\d.]+ bar up to [\d.]+ bar, between end states that are not flammable \(flammable-fill-path\); ignited at [\d.]+ bar the closed tank can reach [\d.]+ bar \(constant-volume/,
+    );
+  });
+
+  it('an order search (locate false) scores the crossing by flammable-fill-path alone, as before', () => {
+    const fs = reviewFillPath(e, ctx, false);
+    expect(fs.some((f) => f.code === 'flammable-fill-path')).toBe(true);
+    expect(pathCv(fs)).toBeUndefined();
+  });
+});

@@ -4,11 +4,12 @@
 import { describe, expect, it } from 'vitest';
 import { describeFinding } from '../../src/core/index.js';
 import {
-  CLEAN_CLAIM,
+  cleanClaim,
   describeSaferOrder,
   NO_SAFE_ORDER_OPENING,
   ORDER_REVIEW_CLAIM,
   SHORT_OF_MIXTURE_CLAIM,
+  shortOfMixtureClaim,
 } from '../../src/core/order-words.js';
 import { safetyClause } from '../../src/core/plan/review.js';
 import type { Finding } from '../../src/core/index.js';
@@ -24,7 +25,7 @@ describe('describeSaferOrder', () => {
     );
     // the advice reviews no finished mixture: its clean claim is never repeated whole (a flammable batch
     // makes the last fill's path flammable, which the advice did not judge)
-    expect(words).not.toContain(CLEAN_CLAIM);
+    expect(words).not.toContain(cleanClaim(true));
     expect(words).not.toMatch(/every fill path is non-flammable/);
     expect(
       describeSaferOrder({ order: ['A'], reason: ORDER_REVIEW_CLAIM, of: "the premix's own order" }),
@@ -43,19 +44,40 @@ describe('describeSaferOrder', () => {
       order: ['A', 'B'],
       reason: `some other reason; ${ORDER_REVIEW_CLAIM}, as searched`,
     });
-    expect(words).not.toContain(CLEAN_CLAIM);
+    expect(words).not.toContain(cleanClaim(true));
     expect(words).toContain(SHORT_OF_MIXTURE_CLAIM);
   });
 
   it("an order review's claim is the plan review's short-of-the-mixture words, never the full review's clean claim", () => {
     expect(ORDER_REVIEW_CLAIM).toContain(SHORT_OF_MIXTURE_CLAIM);
-    expect(ORDER_REVIEW_CLAIM).not.toContain(CLEAN_CLAIM);
+    expect(ORDER_REVIEW_CLAIM).not.toContain(cleanClaim(true));
     expect(ORDER_REVIEW_CLAIM).not.toMatch(/every fill path is non-flammable/);
   });
 
   it("one wording: the plan's review words the states and paths short of a hazardous mixture the same", () => {
     const f = { code: 'flammable-mixture', severity: 'warning', step: 3 } as Finding;
-    expect(safetyClause([f], 3)).toContain(`${SHORT_OF_MIXTURE_CLAIM}, which itself has flammable-mixture`);
+    const estimated = {
+      code: 'flammability-data-estimated',
+      severity: 'note',
+      what: 'X (UFL in O2)',
+    } as Finding;
+    expect(safetyClause([f, estimated], 3)).toContain(
+      `${SHORT_OF_MIXTURE_CLAIM}, which itself has flammable-mixture`,
+    );
+    expect(safetyClause([f], 3)).toContain(
+      `${shortOfMixtureClaim(false)}, which itself has flammable-mixture`,
+    );
+  });
+
+  it('the limits qualifier only where a limit was estimated (a flammability-data-estimated note)', () => {
+    const estimated = { code: 'flammability-data-estimated', severity: 'note', what: 'X (LOC)' } as Finding;
+    expect(safetyClause([estimated], 3)).toBe(
+      'every intermediate tank state and every fill path is non-flammable by the flammability limits used ' +
+        '(each estimated one is named in a flammability-data-estimated note) and free of the hazards checked',
+    );
+    expect(safetyClause([], 3)).toBe(
+      'every intermediate tank state and every fill path is non-flammable and free of the hazards checked',
+    );
   });
 
   it('describeFinding words safer-order by it', () => {

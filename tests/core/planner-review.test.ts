@@ -5,7 +5,7 @@ import { planAmounts } from '../../src/core/plan/amounts.js';
 import { planSequence } from '../../src/core/plan/sequence.js';
 import { planSteps } from '../../src/core/plan/steps.js';
 import { crossVirialShift, reviewPlan, safetyClause, safetyFindings } from '../../src/core/plan/review.js';
-import { CLEAN_CLAIM } from '../../src/core/order.js';
+import { cleanClaim } from '../../src/core/order-words.js';
 import { planFill, type Finding } from '../../src/core/index.js';
 import { TORR } from '../helpers.js';
 import { pureInput, workedInput } from './planner-input.js';
@@ -64,7 +64,7 @@ describe('plan stage 5: review', () => {
       order: 'recommend',
     });
     expect(h2.findings.some((f) => f.code === 'detonable-state' && f.severity === 'danger')).toBe(true);
-    expect(h2.orderReason).not.toContain(CLEAN_CLAIM);
+    expect(h2.orderReason).not.toMatch(/every fill path is non-flammable/);
     expect(h2.orderReason).toMatch(
       /short of the finished mixture, which itself has .*detonable-state \(fill 2\)/,
     );
@@ -75,7 +75,7 @@ describe('plan stage 5: review', () => {
       tank: { ...input.tank, ratedPressurePa: 1.2e5, workingFraction: 0.5 },
     });
     expect(over.findings.some((f) => f.code === 'tank-over-rating')).toBe(true);
-    expect(over.orderReason).not.toContain(CLEAN_CLAIM);
+    expect(over.orderReason).not.toMatch(/every fill path is non-flammable/);
     expect(over.orderReason).toMatch(/tank-over-rating/);
     // the same plan in a tank that holds it: no intermediate hazard, the flammable batch said apart
     const held = planFill(input);
@@ -87,13 +87,15 @@ describe('plan stage 5: review', () => {
     const x = { CH4: 0.02 / 3, O2: 0.04 / 3, Ar: 0.98 };
     const clean = planFill({ ...pureInput(x, ['CH4', 'O2', 'Ar'], 295.15, 1000 * TORR), order: 'recommend' });
     expect(clean.findings.filter((f) => f.severity === 'danger')).toEqual([]);
-    expect(clean.orderReason).toContain(CLEAN_CLAIM);
+    // CH4's LFL, UFL and LOC are tabulated (no flammability-data-estimated note): the plain claim
+    expect(clean.findings.some((f) => f.code === 'flammability-data-estimated')).toBe(false);
+    expect(clean.orderReason).toContain(cleanClaim(false));
   });
 
   it('safetyClause: intermediate states, fill paths, the finished mixture and other dangers are said apart', () => {
     const f = (code: string, severity: Finding['severity'], step?: number) =>
       ({ code, severity, step }) as Finding;
-    expect(safetyClause([f('oxygen-service', 'note', 3)], 3)).toBe(CLEAN_CLAIM);
+    expect(safetyClause([f('oxygen-service', 'note', 3)], 3)).toBe(cleanClaim(false));
     expect(safetyClause([f('flammable-state', 'warning', 2)], 3)).toBe(
       'the full review of the planned fill finds flammable-state (fill 2) on its intermediate states and fill paths (see the findings)',
     );
@@ -107,8 +109,7 @@ describe('plan stage 5: review', () => {
     expect(
       safetyClause([f('flammable-mixture', 'warning', 3), f('supply-pressure-low', 'danger', 3)], 3),
     ).toBe(
-      'every intermediate tank state is non-flammable by the flammability limits used (each estimated one ' +
-        'is named in a flammability-data-estimated note) and free of the hazards checked, and so is every fill ' +
+      'every intermediate tank state is non-flammable and free of the hazards checked, and so is every fill ' +
         'path short of the finished mixture, which itself has flammable-mixture (fill 3) (see the findings); ' +
         'besides the tank states and fills, the plan has 1 more danger: supply-pressure-low (fill 3)',
     );

@@ -10,7 +10,7 @@ import { buildSheetModel, designTitle } from '../../src/report/sheet-model.js';
 import { sheetToHtml, sheetToText } from '../../src/report/sheet-render.js';
 import { detailSvg, diagramData, diagramSvg, niceStep, placeNumbers } from '../../src/report/diagram.js';
 import { findChromium, writePdf } from '../../src/io/pdf.js';
-import { designOptions, runCli, TORR } from '../helpers.js';
+import { designOptions, runCli, sheetFlowed, TORR } from '../helpers.js';
 import { splitPlan } from '../split-plan.js';
 
 const PSI = 6894.757293168361; // Pa per psi (NIST SP 811, B.8: 1 psi = 6.894 757 E+03 Pa)
@@ -89,16 +89,18 @@ describe('the barometric pressure behind gauge-referenced targets', () => {
       '--batch',
       'b',
     ]);
-    expect(at760.stdout).toContain(
+    // the text sheet wraps its prose at 80 columns: read it flowed
+    const words760 = sheetFlowed(at760.stdout);
+    expect(words760).toContain(
       "assume a barometric pressure of 760.00 Torr (the lab profile value, not today's",
     );
-    expect(at760.stdout).toContain(
+    expect(words760).toContain(
       "Target to stop at today = printed target + (760.00 Torr - today's barometer), in the gauge's unit (1 Torr = 0.019337 psi)",
     );
     // the example on the sheet: 10 Torr lower -> the printed target plus 10 Torr in psi
     const ex =
       /Example: fill 2 printed ([\d.]+) psi; with today's barometer 10 Torr lower \(750\.00 Torr\) stop at ([\d.]+) psi/.exec(
-        at760.stdout,
+        words760,
       )!;
     expect(ex).not.toBeNull();
     // the same design planned for a 750 Torr barometer: its gauge target (absolute target - barometer) is the corrected one,
@@ -135,7 +137,9 @@ describe('the barometric pressure behind gauge-referenced targets', () => {
       '--barometer',
       '750 Torr',
     ]);
-    expect(given.stdout).toContain('assume a barometric pressure of 750.00 Torr (given for this sheet');
+    expect(sheetFlowed(given.stdout)).toContain(
+      'assume a barometric pressure of 750.00 Torr (given for this sheet',
+    );
   });
 });
 
@@ -338,8 +342,8 @@ describe('the printed sheet holds together', () => {
         paper: 'a4',
       }),
     );
-    expect(txt).toContain(
-      'x - DESIGN, NOT YET CONFIRMED: after the fill, label the tank with `mixwright label` of its log',
+    expect(sheetFlowed(txt)).toContain(
+      '| x - DESIGN, NOT YET CONFIRMED: after the fill, label the tank with `mixwright label` of its log',
     );
   });
 });

@@ -11,7 +11,7 @@ import { buildCertificateModel } from '../../src/report/label-certificate.js';
 import { appendEvent, createLog, readLog } from '../../src/io/batch-log.js';
 import { checkLog } from '../../src/io/check.js';
 import { splitHeader, splitPlan } from '../split-plan.js';
-import { TORR } from '../helpers.js';
+import { sheetFlowed, TORR } from '../helpers.js';
 
 const META = { recipeId: 'ch4-phi1-ar98', labName: 'demo', orderRecommended: false, version: 'test' };
 
@@ -121,8 +121,10 @@ describe('a plan with a split diluent: CH4, Ar to 400 Torr, O2, Ar to 1500 Torr'
 
     const text = sheetToText(model);
     expect(text).toMatch(/^\s+2\s+Ar 1\/2\s+cyl-Ar\s/m);
-    expect(text).toContain(`   ^ fill 2: ${r2.chargeNote}`);
-    expect(text).toContain(`   ^ fill 4: ${r4.chargeNote}`);
+    // the text sheet wraps its prose at 80 columns: read it flowed
+    expect(sheetFlowed(text)).toContain(`^ fill 2: ${r2.chargeNote}`);
+    expect(sheetFlowed(text)).toContain(`^ fill 4: ${r4.chargeNote}`);
+    expect(text).toMatch(/^ {5}\^ fill 2: Ar, charge 1 of 2 - stop at /m);
     const md = sheetToMarkdown(model);
     expect(md).toContain('| 2 | **Ar**, charge 1 of 2 (cyl-Ar) |');
     expect(md).toContain(`| | ${r2.chargeNote} | | | | | | | |`);

@@ -100,12 +100,14 @@ describe("the premix tank's reading is a row of the stage-2 Fills table", () => 
       const txt = sheetToText(sheet);
       const rows = txt.split('\n');
       const check = rows.findIndex((l) =>
-        /^ {5}check +MT-2 +head-10kT +>= 621\.7 Torr +plan 18\d\d\.\d .*\[ \]$/.test(l),
+        /^ {5}check +MT-2 +head-10kT +>= 621\.7 Torr +plan 18\d\d\.\d$/.test(l),
       );
       const fill3 = rows.findIndex((l) => /^ {2}3 +Ar\+O2 +premix-MT-2 +head-1kT/.test(l));
       const fill2 = rows.findIndex((l) => /^ {2}2 +Ar 1\/2/.test(l));
       expect(check, txt).toBeGreaterThan(fill2);
       expect(fill3).toBeGreaterThan(check);
+      // its blanks and tick box on the line under it, as under every fill row
+      expect(rows[check + 1]).toMatch(/^ {5}actual _+ {3}time _+ {3}init _+ {3}done \[ \]$/);
       // the table's columns line up: the check row is as wide as the fill rows (padded together)
       expect(rows[check].indexOf('head-10kT')).toBe(rows[fill3].indexOf('head-1kT'));
       const md = sheetToMarkdown(sheet);

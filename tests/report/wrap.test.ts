@@ -25,4 +25,27 @@ describe('wrapWords', () => {
     // stderr's style measures the first row at its own indent: one more word on it
     expect(wrapWords(line, 20, STDERR_STYLE)[0]).toBe('aaaa  bbbb cccc dddd');
   });
+
+  it('never breaks inside "(k = 2)", "x +- U", a number and its unit, or a charge number, in every style', () => {
+    // greedy at 20 columns, the break would fall after "(k" (row 1: "the predicted U (k =")
+    const line = 'the predicted U (k = 2) of x(O2) is 0.98 % of 2.0 h';
+    for (const style of [STDERR_STYLE, LABEL_STYLE]) {
+      const rows = wrapWords(line, 20, style);
+      expect(rows.join(' ').replace(/ +/g, ' ')).toBe(line);
+      expect(rows.some((r) => r.includes('(k = 2)'))).toBe(true);
+      expect(rows.some((r) => /\b0\.98 %/.test(r))).toBe(true);
+      expect(rows.some((r) => /\b2\.0 h$/.test(r))).toBe(true);
+    }
+    expect(wrapWords('fill 4 Ar 1/2 x 0.0066667 +- 0.000016', 12, STDERR_STYLE)).toEqual([
+      'fill 4',
+      '  Ar 1/2 x',
+      '  0.0066667 +- 0.000016',
+    ]);
+    // a word that is no unit, or a number before a word, still breaks
+    expect(wrapWords('charge 1 of 2 follows at fill 4', 12, STDERR_STYLE)).toEqual([
+      'charge 1 of',
+      '  2 follows',
+      '  at fill 4',
+    ]);
+  });
 });

@@ -10,9 +10,9 @@ import { R } from '../constants.js';
 import type { VirialModel } from '../mixture-eos.js';
 import { virialU } from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
-import { CLEAN_CLAIM, COMPARED_CLAIM, ORDER_RELEVANT, ORDER_REVIEW_CLAIM } from '../order.js';
+import { COMPARED_CLAIM, ORDER_RELEVANT, ORDER_REVIEW_CLAIM } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
-import { SHORT_OF_MIXTURE_CLAIM } from '../order-words.js';
+import { cleanClaim, shortOfMixtureClaim } from '../order-words.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
 import { ProblemError } from '../problems.js';
 import type { PlanBasis } from './validate.js';
@@ -144,12 +144,22 @@ function listed(fs: readonly Finding[]): string {
 }
 
 /**
+ * whether a flammability limit the review judged by was estimated, not measured: the safety review
+ * (safety.ts) emits a flammability-data-estimated note for each such limit of a fuel in the tank
+ */
+export function limitsEstimated(findings: readonly Finding[]): boolean {
+  return findings.some((f) => f.code === 'flammability-data-estimated');
+}
+
+/**
  * What is true of the planned fill's states and fill paths, from its own final findings (the
- * sequence's, the steps' and the review's): CLEAN_CLAIM only when no intermediate state and no
+ * sequence's, the steps' and the review's): the clean claim only when no intermediate state and no
  * fill has a hazard checked; the finished mixture's own hazards (a state finding at the last fill)
- * are said apart, and so are the plan's other dangers (a supply, a gauge).
+ * are said apart, and so are the plan's other dangers (a supply, a gauge). "Non-flammable" is
+ * qualified by the limits used only where the review estimated one of them (limitsEstimated).
  */
 export function safetyClause(findings: readonly Finding[], lastStep: number): string {
+  const estimated = limitsEstimated(findings);
   const atFill = (f: Finding) => FILL_CODES.has(f.code) || ('inLine' in f && f.inLine === true);
   const onState = (f: Finding) => STATE_CODES.has(f.code) && !atFill(f);
   const fills = findings.filter(atFill);
@@ -164,8 +174,8 @@ export function safetyClause(findings: readonly Finding[], lastStep: number): st
       (mixture.length ? `, and ${listed(mixture)} on the finished mixture` : '') +
       ' (see the findings)';
   else if (mixture.length)
-    clause = `${SHORT_OF_MIXTURE_CLAIM}, which itself has ${listed(mixture)} (see the findings)`;
-  else clause = CLEAN_CLAIM;
+    clause = `${shortOfMixtureClaim(estimated)}, which itself has ${listed(mixture)} (see the findings)`;
+  else clause = cleanClaim(estimated);
   if (other.length)
     clause +=
       `; besides the tank states and fills, the plan has ${other.length} more ` +
@@ -189,7 +199,8 @@ export function correctedReason(
   if (!steps.length) return reason;
   const clause = safetyClause(findings, steps[steps.length - 1].index);
   if (reason.includes(ORDER_REVIEW_CLAIM)) return reason.replace(ORDER_REVIEW_CLAIM, clause);
-  if (reason.includes(COMPARED_CLAIM) && clause !== CLEAN_CLAIM) return `${reason}; ${clause}`;
+  if (reason.includes(COMPARED_CLAIM) && clause !== cleanClaim(limitsEstimated(findings)))
+    return `${reason}; ${clause}`;
   return reason;
 }
 
