@@ -342,6 +342,8 @@ export interface DetonationNumbers {
   readonly phiLow?: number;
   readonly phiHigh?: number;
   readonly limitSources?: readonly string[];
+  /** the oxidizers the limits applied were published for (['O2']: in O2 only) */
+  readonly limitsIn?: readonly ('air' | 'O2')[];
   /** Chapman-Jouguet state from the equilibrium Hugoniot */
   readonly cjPa?: number;
   readonly cjK?: number;
@@ -501,19 +503,36 @@ type DetonableState = Extract<Finding, { code: 'detonable-state' }>;
 
 /** why a state counts as detonable: inside published limits, or by our inert rule */
 function detonationBasis(f: DetonableState): string {
-  if (f.basis !== 'published-limits')
+  const inO2Only = f.limitsIn?.length === 1 && f.limitsIn[0] === 'O2';
+  const sources = f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : '';
+  const within =
+    f.phiLow !== undefined && f.phiHigh !== undefined
+      ? `equivalence ratio ${f.phi?.toFixed(2)} within ${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}`
+      : undefined;
+  const rule =
+    `detonable when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
+    `about as rich in O2 as air or richer`;
+  if (f.basis !== 'published-limits') {
+    // limits on file in O2 only, and this O2 diluted past a trace: the rule decides inside them
+    if (inO2Only && within)
+      return (
+        `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule: inside the ` +
+        `published detonation limits in O2 (${within}${sources}), which hold for O2 with a trace ` +
+        `of inert at most, and none are on file for this fuel in air (${rule})`
+      );
     return (
       `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule ` +
-      `where no detonation limits are on file for this fuel in this oxidizer (detonable ` +
-      `when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
-      `about as rich in O2 as air or richer)`
+      `where no detonation limits are on file for this fuel in this oxidizer (${rule})`
     );
-  if (f.phiLow === undefined || f.phiHigh === undefined) return 'inside the published detonation limits';
-  const sources = f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : '';
-  return (
-    `inside the published detonation limits (equivalence ratio ${f.phi?.toFixed(2)} within ` +
-    `${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${sources})`
-  );
+  }
+  if (!within) return 'inside the published detonation limits';
+  // in O2: a trace of inert (ppm of cylinder N2) leaves the limits in O2 in force, said so
+  const trace =
+    inO2Only && f.inertFraction > 0
+      ? `; its ${pct(f.inertFraction)} N2-equivalent inert is a trace (under 1 % of the O2 + inert), ` +
+        `so the limits in O2 apply`
+      : '';
+  return `inside the published detonation limits${inO2Only ? ' in O2' : ''} (${within}${sources}${trace})`;
 }
 
 /** the Chapman-Jouguet and reflected pressures of a detonable state, or why they are missing */
