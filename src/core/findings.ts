@@ -327,6 +327,8 @@ export interface FlammabilityNumbers {
   readonly withinMargin?: number;
   /** inside that margin by the envelope: how much lower the LFL and the LOC would hold it (0.077: 7.7 %) */
   readonly limitsLowerBy?: number;
+  /** on the lean side between the LOC and the air line: the lean boundary's fuel fraction at this O2 */
+  readonly leanLimitHere?: number;
   /** inside it by flame temperature: the temperature rise over the limit flame's (1 at the limit) */
   readonly flameRiseShare?: number;
 }
@@ -457,13 +459,28 @@ function nearLimitDistance(f: FlammabilityNumbers): string {
 function withinMarginWords(f: FlammabilityNumbers, margin: number): string {
   const m = `${(margin * 100).toFixed(0)} %`;
   const close: string[] = [];
+  // above the LFL and the LOC yet outside: the lean boundary at this O2 lies above the LFL; name it
+  const lean = f.leanLimitHere;
+  const named =
+    lean !== undefined && f.fuelFraction < lean && (f.lfl === undefined || f.fuelFraction >= f.lfl);
+  if (named)
+    close.push(
+      `fuel at ${times(f.fuelFraction / lean)} the lean limit at ${pct(f.oxygenFraction)} O2: ` +
+        `${pct(f.fuelFraction)} against ${pct(lean)} on the envelope's edge from the LFL in air` +
+        (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
+        ` to the LOC` +
+        (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
+        `, so above the LFL yet outside the region`,
+    );
   if (f.limitsLowerBy !== undefined)
     close.push(
-      `it would be inside the flammable region with the LFL` +
-        (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
-        ` and the LOC` +
-        (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
-        ` ${(f.limitsLowerBy * 100).toFixed(1)} % lower`,
+      named
+        ? `it would be inside the region with both ${(f.limitsLowerBy * 100).toFixed(1)} % lower`
+        : `it would be inside the flammable region with the LFL` +
+            (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
+            ` and the LOC` +
+            (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
+            ` ${(f.limitsLowerBy * 100).toFixed(1)} % lower`,
     );
   if (f.flameRiseShare !== undefined && f.flameK !== undefined && f.limitFlameK !== undefined)
     close.push(

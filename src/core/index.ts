@@ -117,6 +117,7 @@ export {
   locFlameTemperatureK,
   richLimitCalibration,
   uflAtOxygenShare,
+  leanLimitAtOxygen,
   uflRisesWithPressure,
   worseVerdict,
 } from './flammability.js';
