@@ -351,8 +351,10 @@ export function uflAtOxygenShare(l: BlendLimits, r: number): number | undefined 
  * The lean boundary of the envelope at a state's O2 fraction: the fuel fraction on the edge from the
  * LFL in air to the nose at the LOC, where that edge spans this O2 (between the LOC and the O2 of the
  * LFL in air); elsewhere the LFL (above) or the LOC (below) is the boundary itself, and the result is
- * undefined. Example: LFL 2.3 %, LOC 8.5 %, z 3 (C2H4, from memory): at 14.2 % O2 the edge from
- * (2.3 %, 20.5 %) to the nose (2.83 %, 8.5 %) gives 2.3 + (20.52 - 14.2) / (20.52 - 8.5) x 0.533 = 2.58 % (by hand).
+ * undefined.
+ * Example: leanLimitAtOxygen({ lfl: 0.023, ufl: 0.36, uflO2: 0.8, loc: 0.085, z: 3, estimated: [],
+ *   missing: [], sources: [] }, 0.142) -> 0.02580 (by hand: the edge from (2.3 %, 0.21 x 0.977 =
+ *   20.517 %) to the nose (8.5 % / 3 = 2.833 %, 8.5 %) at 14.2 % O2: 2.3 + 0.52567 x 0.5333 = 2.580 %).
  */
 export function leanLimitAtOxygen(l: BlendLimits, oxygen: number): number | undefined {
   const noseFuel = l.z > 0 ? Math.max(l.lfl, l.loc / l.z) : l.lfl;

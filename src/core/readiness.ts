@@ -97,6 +97,8 @@ export interface Contamination {
  * Air leaking in per day at tank pressure P, as a mole fraction of the batch: the leak-up rate R
  * measured under vacuum scaled by the driving pressure difference (P_atm - P)/P_atm (an estimate for
  * viscous leaks), R x 86400 s x (P_atm - P)/P_atm / P; none at or above ambient.
+ * Example: ingressPerDayAt(44 * 101325 / 760, 101325, 2e-5 * 101325 / 760 / 60) -> 0.0006167
+ *   (by hand: 2e-5 Torr/min x 1440 min x 716/760 / 44 Torr = 6.1665e-4 of the batch per day).
  */
 export function ingressPerDayAt(pressurePa: number, atmosphericPa: number, leakRatePaPerS: number): number {
   if (pressurePa >= atmosphericPa) return 0;
@@ -180,9 +182,8 @@ export interface DrawDown {
  * `days`, the sum of rate x interval over the pressures between experiments; held at the lowest
  * pressure for all `days`, residual + rate x days, a bound (the rate is largest at the lowest
  * pressure), linear in the small air fraction.
- * Example: 43 experiments drawn from 1500 Torr down to 44 Torr with 2e-5 Torr/min leak-up, 760 Torr
- *   ambient: below ambient from the experiment whose tank pressure first falls under 760 Torr; at 44 Torr
- *   2e-5 x 1440 x (716/760) / 44 = 6.2e-4 of the batch per day (by hand).
+ * For instance 43 experiments drawn from 1500 Torr with 760 Torr ambient: below ambient from the
+ * experiment whose tank pressure before it is first under 760 Torr (tests/core/readiness-draw-down.test.ts).
  */
 export function drawDown(d: DrawDownInput): DrawDown {
   const n = d.pressuresPa.length - 1;

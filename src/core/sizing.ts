@@ -131,8 +131,8 @@ export function finalPressureForExperiments(
 /**
  * The tank pressure before each of `count` experiments and after the last (count + 1 values, Pa):
  * the batch at `finalPressurePa` drawn by one experiment's amount at a time (real-gas EOS).
- * Example: for the 10 L N2 tank of experimentsServed at 1500 Torr, 262 experiments, the values fall
- *   by about 50 x 1.1 / 10 = 5.5 Torr each, to about 1500 - 262 x 5.5 = 59 Torr (ideal gas, by hand).
+ * For instance the 10 L N2 tank of experimentsServed at 1500 Torr, 262 experiments: the values fall
+ * by about 50 x 1.1 / 10 = 5.5 Torr each, to about 1500 - 262 x 5.5 = 59 Torr (ideal gas, by hand).
  */
 export function drawDownPressures(input: SizingInput, finalPressurePa: number, count: number): number[] {
   const { perExperimentMol } = sizingBasis(input);
