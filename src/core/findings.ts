@@ -529,26 +529,19 @@ function detonationBasis(f: DetonableState): string {
   const rule =
     `detonable when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
     `about as rich in O2 as air or richer`;
-  if (f.basis !== 'published-limits') {
-    // limits on file in O2 only, and this O2 diluted past a trace: the rule decides inside them
-    if (inO2Only && within)
-      return (
-        `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule: inside the ` +
-        `published detonation limits in O2 (${within}${sources}), which hold for O2 with a trace ` +
-        `of inert at most, and none are on file for this fuel in air (${rule})`
-      );
+  if (f.basis !== 'published-limits')
     return (
-      `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule ` +
-      `where no detonation limits are on file for this fuel in this oxidizer (${rule})`
+      `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule where ` +
+      // limits on file in O2 only hold for O2 with a trace of inert at most, not for O2 this diluted
+      (inO2Only && within
+        ? 'limits are on file for this fuel in pure O2 only'
+        : 'no detonation limits are on file for this fuel in this oxidizer') +
+      ` (${rule})`
     );
-  }
   if (!within) return 'inside the published detonation limits';
   // in O2: a trace of inert (ppm of cylinder N2) leaves the limits in O2 in force, said so
   const trace =
-    inO2Only && f.inertFraction > 0
-      ? `; its ${pct(f.inertFraction)} N2-equivalent inert is a trace (under 1 % of the O2 + inert), ` +
-        `so the limits in O2 apply`
-      : '';
+    inO2Only && f.inertFraction > 0 ? `; with ${pct(f.inertFraction)} N2-equivalent inert, a trace` : '';
   return `inside the published detonation limits${inO2Only ? ' in O2' : ''} (${within}${sources}${trace})`;
 }
 

@@ -3,7 +3,7 @@
 // of O2 carries must not switch them off for "our conservative rule where no detonation limits are
 // on file" (a trial found the plan of `--order CH4,O2,Ar` saying so while `species CH4` lists them).
 // O2 diluted past a trace (under 99 % of O2 + inert, thresholds.ts: our choice) is judged, inside
-// the limits in O2, by the conservative rule, and says that limits are on file in O2 only.
+// the limits in O2, by the conservative rule, and says that limits are on file in pure O2 only.
 // References: the limits turned into equivalence ratios by phi = 2 x / (1 - x) for CH4 in O2 (exact
 // stoichiometry, CH4 + 2 O2), compared within 1e-9.
 import { describe, expect, it } from 'vitest';
@@ -40,7 +40,7 @@ describe('detonation limits in O2 only: a trace of inert keeps them, O2 diluted 
       'inside the published detonation limits in O2 (equivalence ratio 1.00 within 0.18-2.44',
     );
     expect(text).toContain(
-      'N2-equivalent inert is a trace (under 1 % of the O2 + inert), so the limits in O2 apply',
+      'kuchta-1985-memory, recalled values; with 0.00170 % N2-equivalent inert, a trace)',
     );
     expect(text).not.toMatch(/no detonation limits are on file/);
   });
@@ -51,14 +51,13 @@ describe('detonation limits in O2 only: a trace of inert keeps them, O2 diluted 
     expect(text).not.toContain('a trace');
   });
 
-  it('CH4/O2 with 30 % N2 (O2 share 0.49): the conservative rule, naming the limits in O2 it is inside', () => {
+  it('CH4/O2 with 30 % N2 (O2 share 0.49): the conservative rule, saying the limits on file are for pure O2 only', () => {
     const d = detonability(ch4o2(0.3));
     expect(d.detonable).toBe(true);
     expect(d.basis).toBe('inert-rule');
     const text = describeFinding(detonable(ch4o2(0.3)), torr);
-    expect(text).toContain('by our conservative rule: inside the published detonation limits in O2');
     expect(text).toContain(
-      'which hold for O2 with a trace of inert at most, and none are on file for this fuel in air',
+      'with 30.0 % N2-equivalent inert, by our conservative rule where limits are on file for this fuel in pure O2 only',
     );
     expect(text).not.toMatch(/no detonation limits are on file/);
   });
