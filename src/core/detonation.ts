@@ -14,6 +14,7 @@ import { DETONATION_LIMITS, type DetonationLimits } from './data/detonation-data
 import {
   DETONABLE_INERT_BELOW,
   DETONABLE_OXYGEN_SHARE_FROM,
+  PURE_OXYGEN_SHARE_FROM,
   REFLECTED_OVER_CJ,
   UNDILUTED_INERT_BELOW,
 } from './thresholds.js';
@@ -218,7 +219,9 @@ function phiOf(rec: DetonationLimits, x: number): number {
  * air and O2 ratios are interpolated linearly in the O2 share of the oxidizer+inert
  * s = O2/(O2 + N2-equivalent inert) between s = 0.21 and 1, and below air's share the
  * air limits are kept (dilution only narrows detonation limits: conservative). A fuel
- * with limits in O2 only is judged by them and, inside them, by the inert rule.
+ * with limits in O2 only is judged by them; inside them, an oxidizer of O2 with at most a
+ * trace of inert (O2 share PURE_OXYGEN_SHARE_FROM or more: ppm of cylinder N2) is detonable
+ * by those limits, and O2 diluted further by the inert rule.
  * Elsewhere the conservative rule: detonable when the N2-equivalent inert share is below
  * 50 %, or the oxidizer is about as rich in O2 as air or richer (O2 share 0.20 or more;
  * both thresholds in thresholds.ts; stoichiometric alkane-air mixtures detonate in large
@@ -264,12 +267,14 @@ export function detonability(y: Fractions): Detonability {
   const inside = phi >= phiLow && phi <= phiHigh;
   const limits = { phiLow, phiHigh, records };
   if (!inside) return { ...base, detonable: false, basis: 'published-limits', limits };
-  if (!inAir && !byRule) return { ...base, detonable: false, basis: 'inert-rule', limits };
-  // limits in O2 only: inside them the conservative rule decides, and says so
+  // limits in O2 only: they hold for O2 with a trace of inert at most; for O2 diluted further the
+  // conservative rule decides inside them, and says so
+  const byLimits = Boolean(inAir) || oxygenShare >= PURE_OXYGEN_SHARE_FROM;
+  if (!byLimits && !byRule) return { ...base, detonable: false, basis: 'inert-rule', limits };
   return {
     ...base,
     detonable: point.fuel > 0 && point.oxygen > 0,
-    basis: inAir ? 'published-limits' : 'inert-rule',
+    basis: byLimits ? 'published-limits' : 'inert-rule',
     limits,
   };
 }

@@ -140,6 +140,7 @@ export function detonationFinding(
     limitSources: d.limits
       ? [...new Set(d.limits.records.flatMap((r) => [r.low.source, r.high.source]))]
       : undefined,
+    limitsIn: d.limits?.records.map((r) => r.oxidizer),
     limitPa: workingLimitPa,
     cjMissing,
     ...cj,

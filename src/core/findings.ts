@@ -347,6 +347,8 @@ export interface FlammabilityNumbers {
   readonly withinMargin?: number;
   /** inside that margin by the envelope: how much lower the LFL and the LOC would hold it (0.077: 7.7 %) */
   readonly limitsLowerBy?: number;
+  /** on the lean side between the LOC and the air line: the lean boundary's fuel fraction at this O2 */
+  readonly leanLimitHere?: number;
   /** inside it by flame temperature: the temperature rise over the limit flame's (1 at the limit) */
   readonly flameRiseShare?: number;
 }
@@ -362,6 +364,8 @@ export interface DetonationNumbers {
   readonly phiLow?: number;
   readonly phiHigh?: number;
   readonly limitSources?: readonly string[];
+  /** the oxidizers the limits applied were published for (['O2']: in O2 only) */
+  readonly limitsIn?: readonly ('air' | 'O2')[];
   /** Chapman-Jouguet state from the equilibrium Hugoniot */
   readonly cjPa?: number;
   readonly cjK?: number;
@@ -475,13 +479,28 @@ function nearLimitDistance(f: FlammabilityNumbers): string {
 function withinMarginWords(f: FlammabilityNumbers, margin: number): string {
   const m = `${(margin * 100).toFixed(0)} %`;
   const close: string[] = [];
+  // above the LFL and the LOC yet outside: the lean boundary at this O2 lies above the LFL; name it
+  const lean = f.leanLimitHere;
+  const named =
+    lean !== undefined && f.fuelFraction < lean && (f.lfl === undefined || f.fuelFraction >= f.lfl);
+  if (named)
+    close.push(
+      `fuel at ${times(f.fuelFraction / lean)} the lean limit at ${pct(f.oxygenFraction)} O2: ` +
+        `${pct(f.fuelFraction)} against ${pct(lean)} on the envelope's edge from the LFL in air` +
+        (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
+        ` to the LOC` +
+        (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
+        `, so above the LFL yet outside the region`,
+    );
   if (f.limitsLowerBy !== undefined)
     close.push(
-      `it would be inside the flammable region with the LFL` +
-        (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
-        ` and the LOC` +
-        (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
-        ` ${(f.limitsLowerBy * 100).toFixed(1)} % lower`,
+      named
+        ? `it would be inside the region with both ${(f.limitsLowerBy * 100).toFixed(1)} % lower`
+        : `it would be inside the flammable region with the LFL` +
+            (f.lfl !== undefined ? ` (${pct(f.lfl)})` : '') +
+            ` and the LOC` +
+            (f.loc !== undefined ? ` (${pct(f.loc)})` : '') +
+            ` ${(f.limitsLowerBy * 100).toFixed(1)} % lower`,
     );
   if (f.flameRiseShare !== undefined && f.flameK !== undefined && f.limitFlameK !== undefined)
     close.push(
@@ -521,19 +540,29 @@ type DetonableState = Extract<Finding, { code: 'detonable-state' }>;
 
 /** why a state counts as detonable: inside published limits, or by our inert rule */
 function detonationBasis(f: DetonableState): string {
+  const inO2Only = f.limitsIn?.length === 1 && f.limitsIn[0] === 'O2';
+  const sources = f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : '';
+  const within =
+    f.phiLow !== undefined && f.phiHigh !== undefined
+      ? `equivalence ratio ${f.phi?.toFixed(2)} within ${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}`
+      : undefined;
+  const rule =
+    `detonable when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
+    `about as rich in O2 as air or richer`;
   if (f.basis !== 'published-limits')
     return (
-      `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule ` +
-      `where no detonation limits are on file for this fuel in this oxidizer (detonable ` +
-      `when flammable with less than 50 % N2-equivalent inert, or with an oxidizer ` +
-      `about as rich in O2 as air or richer)`
+      `with ${pct(f.inertFraction)} N2-equivalent inert, by our conservative rule where ` +
+      // limits on file in O2 only hold for O2 with a trace of inert at most, not for O2 this diluted
+      (inO2Only && within
+        ? 'limits are on file for this fuel in pure O2 only'
+        : 'no detonation limits are on file for this fuel in this oxidizer') +
+      ` (${rule})`
     );
-  if (f.phiLow === undefined || f.phiHigh === undefined) return 'inside the published detonation limits';
-  const sources = f.limitSources?.length ? `; ${f.limitSources.join(', ')}, recalled values` : '';
-  return (
-    `inside the published detonation limits (equivalence ratio ${f.phi?.toFixed(2)} within ` +
-    `${f.phiLow.toFixed(2)}-${f.phiHigh.toFixed(2)}${sources})`
-  );
+  if (!within) return 'inside the published detonation limits';
+  // in O2: a trace of inert (ppm of cylinder N2) leaves the limits in O2 in force, said so
+  const trace =
+    inO2Only && f.inertFraction > 0 ? `; with ${pct(f.inertFraction)} N2-equivalent inert, a trace` : '';
+  return `inside the published detonation limits${inO2Only ? ' in O2' : ''} (${within}${sources}${trace})`;
 }
 
 /** the Chapman-Jouguet and reflected pressures of a detonable state, or why they are missing */

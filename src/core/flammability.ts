@@ -347,6 +347,24 @@ export function uflAtOxygenShare(l: BlendLimits, r: number): number | undefined 
   return best;
 }
 
+/**
+ * The lean boundary of the envelope at a state's O2 fraction: the fuel fraction on the edge from the
+ * LFL in air to the nose at the LOC, where that edge spans this O2 (between the LOC and the O2 of the
+ * LFL in air); elsewhere the LFL (above) or the LOC (below) is the boundary itself, and the result is
+ * undefined.
+ * Example: leanLimitAtOxygen({ lfl: 0.023, ufl: 0.36, uflO2: 0.8, loc: 0.085, z: 3, estimated: [],
+ *   missing: [], sources: [] }, 0.142) -> 0.02580 (by hand: the edge from (2.3 %, 0.21 x 0.977 =
+ *   20.517 %) to the nose (8.5 % / 3 = 2.833 %, 8.5 %) at 14.2 % O2: 2.3 + 0.52567 x 0.5333 = 2.580 %).
+ */
+export function leanLimitAtOxygen(l: BlendLimits, oxygen: number): number | undefined {
+  const noseFuel = l.z > 0 ? Math.max(l.lfl, l.loc / l.z) : l.lfl;
+  const airO2 = AIR_O2 * (1 - l.lfl);
+  const noseO2 = Math.min(l.loc, airO2);
+  if (!(oxygen > noseO2 && oxygen < airO2) || noseFuel <= l.lfl) return undefined;
+  const t = (airO2 - oxygen) / (airO2 - noseO2);
+  return l.lfl + t * (Math.min(noseFuel, l.ufl) - l.lfl);
+}
+
 function onSegment(p: [number, number], a: [number, number], b: [number, number]): boolean {
   const len = Math.sqrt((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2);
   // a zero-length edge (two equal vertices) holds only its own point
@@ -385,6 +403,8 @@ export interface FlammabilityDistance {
   readonly uflHere?: number;
   /** fuel / uflHere */
   readonly fuelOverUfl?: number;
+  /** the lean boundary's fuel fraction at this O2, where it is the edge to the nose (leanLimitAtOxygen) */
+  readonly leanLimitHere?: number;
   /**
    * a state inside the data's uncertainty margin by the envelope: the share by which the LFL and the
    * LOC would have to be lower for the envelope to hold it (0.077: 7.7 % lower)
@@ -552,6 +572,7 @@ export function assessFlammability(
     oxygenShare,
     uflHere,
     fuelOverUfl: uflHere !== undefined ? point.fuel / uflHere : undefined,
+    leanLimitHere: side === 'lean' ? leanLimitAtOxygen(limits, point.oxygen) : undefined,
   };
   const { byEnvelope, limitsLowerBy } = envelopeVerdict(point, limits);
   const flame = flameAgainstLimit(y, temperatureK, fuelBlend, phi, side, oxygenShare);

@@ -117,6 +117,7 @@ export {
   locFlameTemperatureK,
   richLimitCalibration,
   uflAtOxygenShare,
+  leanLimitAtOxygen,
   uflRisesWithPressure,
   worseVerdict,
 } from './flammability.js';
@@ -205,10 +206,23 @@ export type { Kept, RetargetInput, RetargetResult, VentBack } from './retarget.j
 export type { RetargetCharge, RetargetStop } from './retarget.js';
 export { chapmanEnskogD, diffusionMixingTimeS, fullerD, neufeldOmegaD, slowestPair } from './diffusion.js';
 export type { PairDiffusion } from './diffusion.js';
-export { batchSizeFinding, experimentsServed, finalPressureForExperiments, sizingBasis } from './sizing.js';
+export {
+  batchSizeFinding,
+  drawDownPressures,
+  experimentsServed,
+  finalPressureForExperiments,
+  sizingBasis,
+} from './sizing.js';
 export type { ReactorSpec, Sizing, SizingInput } from './sizing.js';
-export { contamination, mixingEstimate } from './readiness.js';
-export type { Contamination, ContaminationInput, MixingEstimate } from './readiness.js';
+export { contamination, drawDown, ingressPerDayAt, mixingEstimate } from './readiness.js';
+export type {
+  Contamination,
+  ContaminationInput,
+  DrawDown,
+  DrawDownInput,
+  DrawnState,
+  MixingEstimate,
+} from './readiness.js';
 export { LENNARD_JONES, FULLER_VOLUMES } from './data/transport-data.js';
 export { speciesProperties } from './properties.js';
 export type { PropertyId, PropertyRow } from './properties.js';

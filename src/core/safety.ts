@@ -110,6 +110,7 @@ export function flammabilityNumbers(
     oxygenOverLoc: a.distance?.oxygenOverLoc,
     uflHere: a.distance?.uflHere,
     fuelOverUfl: a.distance?.fuelOverUfl,
+    leanLimitHere: a.distance?.leanLimitHere,
     missingData: a.limits?.missing.length ? true : undefined,
     withinMargin: a.verdict === 'within-margin' ? FLAMMABILITY_DATA_MARGIN : undefined,
     limitsLowerBy: a.verdict === 'within-margin' ? a.distance?.limitsLowerBy : undefined,

@@ -127,3 +127,21 @@ export function finalPressureForExperiments(
   );
   return { pressurePa: P, sizing };
 }
+
+/**
+ * The tank pressure before each of `count` experiments and after the last (count + 1 values, Pa):
+ * the batch at `finalPressurePa` drawn by one experiment's amount at a time (real-gas EOS).
+ * For instance the 10 L N2 tank of experimentsServed at 1500 Torr, 262 experiments: the values fall
+ * by about 50 x 1.1 / 10 = 5.5 Torr each, to about 1500 - 262 x 5.5 = 59 Torr (ideal gas, by hand).
+ */
+export function drawDownPressures(input: SizingInput, finalPressurePa: number, count: number): number[] {
+  const { perExperimentMol } = sizingBasis(input);
+  const y = input.composition;
+  const m = virialModel(Object.keys(y), input.temperatureK);
+  const B = bMix(m, y);
+  const C = cMix(m, y);
+  const n0 = densityFromPressure(finalPressurePa, input.temperatureK, B, C) * input.tankVolumeM3;
+  return Array.from({ length: count + 1 }, (_, k) =>
+    pressureFromDensity((n0 - k * perExperimentMol) / input.tankVolumeM3, input.temperatureK, B, C),
+  );
+}

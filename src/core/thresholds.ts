@@ -167,6 +167,15 @@ export const THRESHOLDS = {
       '... or whose oxidizer is about as rich as air or richer, O2 / (O2 + N2-equivalent inert); ' +
       'stoichiometric alkane-air mixtures detonate in large enough geometries (common practice)',
   },
+  pureOxygenShareFrom: {
+    value: 0.99,
+    unit: '1',
+    basis: 'our-choice',
+    note:
+      'detonation limits published in O2 apply to an oxidizer at least this rich, O2 / (O2 + ' +
+      'N2-equivalent inert): the trace inert of the cylinders (ppm of N2 in O2) does not switch ' +
+      'them off; O2 diluted further is judged, inside them, by the conservative rule',
+  },
   undilutedInertBelow: {
     value: 0.1,
     unit: 'mole fraction',
@@ -238,6 +247,7 @@ export const FLAMMABILITY_DATA_MARGIN = THRESHOLDS.flammabilityDataMargin.value;
 export const DETONABLE_INERT_BELOW = THRESHOLDS.detonableInertBelow.value;
 export const DETONABLE_OXYGEN_SHARE_FROM = THRESHOLDS.detonableOxygenShareFrom.value;
 export const UNDILUTED_INERT_BELOW = THRESHOLDS.undilutedInertBelow.value;
+export const PURE_OXYGEN_SHARE_FROM = THRESHOLDS.pureOxygenShareFrom.value;
 export const REFLECTED_OVER_CJ = THRESHOLDS.reflectedOverCj.value;
 export const ACETYLENE_LIMIT_PA = THRESHOLDS.acetyleneLimitPa.value;
 export const TRACE_OXYGEN = THRESHOLDS.traceOxygen.value;

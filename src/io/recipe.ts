@@ -38,6 +38,12 @@ const fractionsDesign = z
   })
   .strict();
 
+/** why a zero tolerance is refused, and what to give instead */
+export const ZERO_TOLERANCE =
+  'a tolerance of 0 allows no deviation of any mole fraction (no absolute floor is given): no ' +
+  'reading can meet it, every fill band would be 0 and every re-check would fail; give the relative ' +
+  'deviation you accept, such as 0.005 (0.5 %), or an absolute floor in tolerance.absolute';
+
 export const recipeSchema = z
   .object({
     id: z.string().min(1).describe('short identifier of the design, used in batch ids and file names'),
@@ -166,6 +172,11 @@ export const recipeSchema = z
           .describe('floor on the allowed absolute deviation of a mole fraction; default 0'),
       })
       .strict()
+      // a zero tolerance (no absolute floor either) allows no deviation: no reading can meet it
+      .refine((t) => t.relative !== 0 || (t.absolute ?? 0) > 0, {
+        path: ['relative'],
+        message: ZERO_TOLERANCE,
+      })
       .optional(),
   })
   .strict();

@@ -1,5 +1,5 @@
 /** mixwright ready: mixing time and contamination of a filled tank, as text and JSON. */
-import type { Contamination, MixingEstimate } from '../core/index.js';
+import type { Contamination, DrawDown, MixingEstimate } from '../core/index.js';
 import { fixedSig } from './format.js';
 import { TORR_PA } from '../core/index.js';
 import { describeFinding } from '../core/index.js';
@@ -12,6 +12,11 @@ export interface ReadyReport {
   readonly temperatureK: number;
   readonly mixing: MixingEstimate;
   readonly contamination: Contamination;
+  /** the ambient pressure the in-leak is driven by (the barometer), Pa */
+  readonly atmosphericPa: number;
+  /** the batch drawn down by its experiments (a reactor known), else undefined */
+  readonly drawDown?: DrawDown;
+  readonly reactor?: string;
   readonly days: number;
   readonly leakRatePaPerS: number;
   readonly baseVacuumPa: number;
@@ -65,28 +70,84 @@ export function readyToText(r: ReadyReport): string {
     `  residual gas from the base vacuum ${fixedSig(r.baseVacuumPa / TORR_PA, 3)} ` +
       `Torr: ${fixedSig(c.residualFraction * 1e6, 3)} ppm of the batch (taken as air)`,
   );
-  if (c.aboveAmbient)
-    out.push(
-      '  the tank is above ambient pressure: air does not leak in (gas leaks out; ' +
-        'the composition keeps, the pressure falls)',
-    );
-  else {
+  if (c.aboveAmbient) out.push(...aboveAmbientLines(r));
+  if (!c.aboveAmbient) {
     out.push(
       `  air leaking in at ${fixedSig((r.leakRatePaPerS * 60) / TORR_PA, 3)} ` +
         `Torr/min (under vacuum), scaled by the pressure difference: ${fixedSig(c.ingressPerDay * 1e6, 3)} ` +
         `ppm of the batch per day, ${fixedSig(c.o2PerDay * 1e6, 3)} ppm O2 per day`,
     );
   }
+  out.push(...drawDownLines(r));
   if (c.phiStart !== undefined && c.phiAfter !== undefined) {
     const drift =
       c.phiDriftPerDay !== undefined ? ` (${(c.phiDriftPerDay * 100).toPrecision(2)} % per day)` : '';
+    // above ambient as filled: the phi of the full tank; drawn below ambient it drifts (above)
+    const full = r.drawDown?.belowFrom !== undefined ? ' in the full tank' : '';
+    const maybe = c.aboveAmbient && !r.drawDown ? ' while it stays above ambient' : '';
     out.push(
       `  phi ${c.phiStart.toFixed(5)} at the start, ${c.phiAfter.toFixed(5)} after ` +
-        `${r.days} days${drift}`,
+        `${r.days} days${full}${maybe}${drift}`,
     );
   }
   for (const n of r.notes) out.push(`note: ${n}`);
   return out.join('\n') + '\n';
+}
+
+const torr = (pa: number) => `${fixedSig(pa / TORR_PA, 4)} Torr`;
+const pctOf = (x: number) => `${fixedSig(x * 100, 2)} %`;
+
+/**
+ * A tank above ambient as filled: air does not leak in while it stays so; how long it does, in
+ * drawDownLines (a reactor known), else said to be unknown.
+ */
+function aboveAmbientLines(r: ReadyReport): string[] {
+  const atm = torr(r.atmosphericPa);
+  const d = r.drawDown;
+  if (!d)
+    return [
+      `  as filled the tank is above ambient pressure (${atm}): air does not leak in while it stays so ` +
+        '(gas leaks out, the pressure falls); drawn below ambient in use, air leaks in (no reactor in ' +
+        'the lab profile to say when: give --pressure with the lowest tank pressure for the rate there)',
+    ];
+  if (!d.belowFrom)
+    return [
+      `  the tank stays above ambient pressure (${atm}) down to its last experiment in ${r.reactor} ` +
+        `(${torr(d.lowestPa)} before it): air does not leak in (gas leaks out; the composition keeps, ` +
+        'the pressure falls)',
+    ];
+  return [
+    `  as filled the tank is above ambient pressure (${atm}): air does not leak in while it stays so ` +
+      '(gas leaks out, the pressure falls)',
+  ];
+}
+
+/**
+ * Below ambient as its experiments draw it down: from which experiment, the in-leak at the lowest
+ * pressure, and the air (and phi) the last experiment draws, spread evenly over the storage time and at most.
+ */
+function drawDownLines(r: ReadyReport): string[] {
+  const d = r.drawDown;
+  if (!d?.belowFrom) return [];
+  const o2 =
+    d.o2ShareAddedPerDayAtLowest !== undefined
+      ? ` (${pctOf(d.o2ShareAddedPerDayAtLowest)} of the batch's O2 per day)`
+      : '';
+  const phi = (s: DrawDown['evenly']) => (s.phi !== undefined ? `, phi ${s.phi.toFixed(5)}` : '');
+  const from =
+    d.belowFrom.experiment === 1
+      ? `in use its ${d.experiments} experiments in ${r.reactor} draw it further below ambient`
+      : `in use it is drawn below ambient: from experiment ${d.belowFrom.experiment} of ${d.experiments} ` +
+        `in ${r.reactor} (the tank at ${torr(d.belowFrom.pressurePa)} before it) air leaks in`;
+  return [
+    `  ${from}; before the last experiment, at ${torr(d.lowestPa)}, ` +
+      `${fixedSig(d.ingressPerDayAtLowest * 1e6, 3)} ppm of the batch per day${o2}`,
+    `  air the last experiment draws: ${pctOf(d.evenly.airFraction)}${phi(d.evenly)} with the ` +
+      `${d.experiments} experiments spread evenly over ${r.days} days; at most ` +
+      `${pctOf(d.heldAtLowest.airFraction)}${phi(d.heldAtLowest)} if the tank sits at ${torr(d.lowestPa)} ` +
+      `for all ${r.days} days (below ambient the composition does not keep: keep the storage short ` +
+      'once the tank is drawn down)',
+  ];
 }
 
 export function readyToJson(r: ReadyReport, version: string): object {
@@ -119,7 +180,23 @@ export function readyToJson(r: ReadyReport, version: string): object {
       phi_drift_per_day: r.contamination.phiDriftPerDay ?? null,
       days: r.days,
       above_ambient: r.contamination.aboveAmbient,
+      ambient_Pa: r.atmosphericPa,
     },
+    draw_down: r.drawDown
+      ? {
+          reactor: r.reactor ?? null,
+          experiments: r.drawDown.experiments,
+          below_ambient_from_experiment: r.drawDown.belowFrom?.experiment ?? null,
+          below_ambient_from_Pa: r.drawDown.belowFrom?.pressurePa ?? null,
+          lowest_Pa: r.drawDown.lowestPa,
+          ingress_fraction_per_day_at_lowest: r.drawDown.ingressPerDayAtLowest,
+          o2_share_added_per_day_at_lowest: r.drawDown.o2ShareAddedPerDayAtLowest ?? null,
+          evenly_air_fraction: r.drawDown.evenly.airFraction,
+          evenly_phi: r.drawDown.evenly.phi ?? null,
+          held_at_lowest_air_fraction: r.drawDown.heldAtLowest.airFraction,
+          held_at_lowest_phi: r.drawDown.heldAtLowest.phi ?? null,
+        }
+      : null,
     notes: r.notes,
   };
 }

@@ -65,10 +65,16 @@ export function wizardActions(
 }
 
 /** preview lines shown: one tank, and two stages (both stages' fills; the screen has 24 rows) */
-const PREVIEW_LINES = 9;
+const PREVIEW_LINES = 11;
 const PREVIEW_LINES_TWO_STAGE = 13;
 /** the pause in typing after which a two-stage design is planned (a plan takes about a second) */
 export const EVALUATE_PAUSE_MS = 400;
+
+/** the preview's lines in `rows`: past them, the last row says how many more there are (none cut silently) */
+export function fitLines(lines: readonly string[], rows: number): readonly string[] {
+  if (lines.length <= rows) return lines;
+  return [...lines.slice(0, rows - 1), `+${lines.length - rows + 1} more lines: mixwright plan`];
+}
 
 /** a two-stage design is evaluated after a pause in typing: each change restarts the wait */
 function usePausedEvaluation(
@@ -136,17 +142,16 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
         </Box>
         <Box flexDirection="column" width={36} borderStyle="single" paddingX={1}>
           <Text bold>preview</Text>
-          {(
+          {fitLines(
             state.evaluation.preview?.lines ?? [
               err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)',
-            ]
-          )
-            .slice(0, state.values.premix.trim() ? PREVIEW_LINES_TWO_STAGE : PREVIEW_LINES)
-            .map((l, i) => (
-              <Text key={i} wrap="truncate-end">
-                {l}
-              </Text>
-            ))}
+            ],
+            state.values.premix.trim() ? PREVIEW_LINES_TWO_STAGE : PREVIEW_LINES,
+          ).map((l, i) => (
+            <Text key={i} wrap="truncate-end">
+              {l}
+            </Text>
+          ))}
         </Box>
       </Box>
       <Para>

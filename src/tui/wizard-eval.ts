@@ -1,5 +1,5 @@
 /** The wizard's evaluator: field values -> recipe -> plan preview, or the first problem and its field. */
-import { describeProblem, planFill, ProblemError, type Plan } from '../core/index.js';
+import { describeProblem, planFill, ProblemError, type Plan, type PredictedPlan } from '../core/index.js';
 import { buildPlanRequest, loadLab, validateRecipeObject, type PlanRequest } from '../io/load.js';
 import { planWithPrediction } from '../io/plan-predict.js';
 import { planTwoStageFrom, twoStageInputOf } from '../io/two-stage-request.js';
@@ -10,7 +10,6 @@ import {
   premixRecordOf,
 } from '../io/premix-log-request.js';
 import { findingLines, stepLines, twoStagePreview } from './stage-preview.js';
-import { predictedShortLines } from '../report/predicted-text.js';
 import type { RecipeFile } from '../io/recipe.js';
 import { fromPa } from '../io/quantity.js';
 import { fixedSig } from '../report/format.js';
@@ -56,14 +55,15 @@ export interface WizardBuild {
 }
 
 /**
- * The recipe, request and plan of the wizard's values. `preview`: plan in the advised order
- * without the sequence search (hundreds of ms per design; the live preview says so); the
- * sheet and guided fill the wizard starts plan with the search, as `plan` does.
+ * The recipe, request and plan of the wizard's values, planned as `plan` plans them (the sequence
+ * search included): what the preview shows, the sheet writes and the guided fill starts. `quick`:
+ * the advised order without the search (hundreds of ms per design), for the check made on every
+ * key; its fills and U are not the plan and are never shown.
  */
 export function buildFromValues(
   v: Readonly<Record<FieldName, string>>,
   labFile?: string,
-  preview = false,
+  quick = false,
 ): WizardBuild {
   const raw = recipeFromValues(v);
   const locate = (path: readonly (string | number)[]) => ({ field: path.join('.') });
@@ -74,10 +74,10 @@ export function buildFromValues(
   const rec = ask && premixRecordOf(ask);
   const req = buildPlanRequest(rs, labFile, premixOverrides(rec, {}));
   if (ask && rec) return { recipe, req, plan: planFromPremixLog(req, ask, rec) };
-  // two stages: the same plan (and search) as `plan --premix-tank`, preview or not
+  // two stages: the same plan (and search) as `plan --premix-tank`, quick or not
   const two = twoStageInputOf(req, rs);
   if (two) return { recipe, req, plan: planTwoStageFrom(two, rs) };
-  const input = preview ? { ...req.input, thermometer: undefined } : req.input;
+  const input = quick ? { ...req.input, thermometer: undefined } : req.input;
   return { recipe, req, plan: planWithPrediction(planFill(input), req) };
 }
 
@@ -162,6 +162,13 @@ export const isPremixLog = (text: string): boolean => /\.jsonl$/i.test(text.trim
 /** what the preview shows while a two-stage design waits for a pause in typing */
 export const PENDING_LINES = ['two stages: planned after a short pause in typing ...'];
 
+/**
+ * What a one-tank preview shows until the sequence search has run (after a pause in typing): the
+ * design's composition and final state (the same in any fill order), and no fills, no U: those of
+ * the advised order are not the plan the sheet and the fill use.
+ */
+export const SEARCHING_LINES = ['fills: searching the order ...', '(as plan, sheet and fill do)'];
+
 export function makeEvaluator(labFile?: string) {
   let tankIds: string[] = [];
   try {
@@ -175,7 +182,17 @@ export function makeEvaluator(labFile?: string) {
     // a two-stage plan takes about a second: not on every key, after a pause in typing (wizard-app.tsx)
     if (v.premix.trim() && !full) return { pending: true, preview: { lines: PENDING_LINES, danger: false } };
     try {
-      const { plan } = buildFromValues(v, labFile, true);
+      if (!full) {
+        // on every key: the design planned in the advised order (fast) for its problems and final
+        // state; the plan itself (the sequence search, hundreds of ms) after a pause in typing
+        const quick = buildFromValues(v, labFile, true).plan;
+        return {
+          pending: true,
+          preview: { lines: [...designLines(quick), ...SEARCHING_LINES], danger: false },
+        };
+      }
+      // the plan the sheet and the guided fill use: the same call, the sequence search included
+      const { plan } = buildFromValues(v, labFile);
       const preview = plan.twoStage ? twoStagePreview(plan) : previewOf(plan);
       if (!plan.premixLog) return { preview };
       // planned as `plan --premix-log` plans it (the sequence search included), not in the advised order
@@ -205,22 +222,41 @@ export function makeEvaluator(labFile?: string) {
   };
 }
 
-function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
-  const lines: string[] = [];
-  lines.push(
-    Object.entries(plan.design.composition)
-      .sort((a, b) => b[1] - a[1])
-      .map(([k, x]) => `${k} ${fixedSig(x, 4)}`)
-      .join('  '),
-  );
-  lines.push(
+/** the text columns inside the wizard's preview box (wizard-app.tsx: 36 wide, border and padding) */
+export const PREVIEW_WIDTH = 32;
+
+/** the design's composition and final state: the same whatever the order of the fills */
+function designLines(plan: Plan): string[] {
+  const parts = Object.entries(plan.design.composition)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, x]) => `${k} ${fixedSig(x, 4)}`);
+  // the species on as many lines as the preview's width needs (none cut)
+  const comp: string[] = [];
+  for (const p of parts) {
+    const last = comp.length ? `${comp[comp.length - 1]}  ${p}` : '';
+    if (last && last.length <= PREVIEW_WIDTH) comp[comp.length - 1] = last;
+    else comp.push(p);
+  }
+  return [
+    ...comp,
     `final ${fixedSig(fromPa(plan.final.pressurePa, 'Torr'), 6)} Torr, Z ${plan.final.compressibility.toFixed(5)}`,
-  );
-  lines.push(...stepLines(plan));
-  lines.push(...predictedShortLines(plan));
-  lines.push(
-    'preview in the advised order; the sheet, the fill and `mixwright plan` search for a more precise safe sequence',
-  );
-  lines.push(...findingLines(plan.findings));
+  ];
+}
+
+const pct = (x: number) => `${Number((x * 100).toPrecision(2))} %`;
+
+/** the worst predicted design fraction, in the preview's 32 columns: "U x(O2) 0.98 % (tol 2 %)" */
+function uLine(plan: Plan): string {
+  const rows = (plan as PredictedPlan).predicted?.rows.filter((r) => r.kind === 'fraction') ?? [];
+  if (!rows.length) return 'U: no prediction (see plan)';
+  const w = rows.reduce((a, b) => (b.expandedU / b.tolerance > a.expandedU / a.tolerance ? b : a));
+  const u = `U x(${w.name}) ${pct(w.expandedU / w.design)}`;
+  return w.within
+    ? `${u} (tol ${pct(w.tolerance / w.design)})`
+    : `${u} OVER tol ${pct(w.tolerance / w.design)}`;
+}
+
+function previewOf(plan: Plan): { lines: string[]; danger: boolean } {
+  const lines = [...designLines(plan), ...stepLines(plan), uLine(plan), ...findingLines(plan.findings)];
   return { lines, danger: plan.findings.some((f) => f.severity === 'danger') };
 }

@@ -2,9 +2,9 @@
 // composition at the reading's pressure) and each fill's path, with the planner's own safety review
 // (core/sequence-review.ts). The reference for every danger asserted here is the planner's review of
 // the same order (`plan --order CH4,O2,Ar`, and planFill with those sources in that order), with the
-// detonability rule it applies (detonation.ts: no detonation limits on file for CH4 in O2, so flammable
-// with less than 50 % N2-equivalent inert is detonable: our conservative rule; undiluted CH4/O2 is
-// detonable, common practice). The compositions are checked against Dalton's law (ideal partial
+// detonability rule it applies (detonation.ts: CH4 has detonation limits on file in O2 only, 8.3-55 %,
+// Kuchta 1985, from memory; inside them O2 diluted past a trace is detonable with less than 50 %
+// N2-equivalent inert, our conservative rule; undiluted CH4/O2 is detonable, common practice). The compositions are checked against Dalton's law (ideal partial
 // pressures; at 30 Torr the virial correction is under 1e-4 in a mole fraction, from memory: |B| of
 // CH4 and O2 below 50 cm3/mol at 295 K, so B P / R T < 1e-4).
 import { mkdtempSync, writeFileSync, copyFileSync, mkdirSync } from 'node:fs';

@@ -96,6 +96,7 @@ describe('a "not known" is reported, never dropped in silence', () => {
         o2PerDay: 0,
         aboveAmbient: true,
       },
+      atmosphericPa: 760 * TORR,
       days: 0,
       leakRatePaPerS: 0,
       baseVacuumPa: 0,

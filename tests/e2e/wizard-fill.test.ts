@@ -31,6 +31,8 @@ describe.runIf(hasTmux || required)('wizard and guided fill in a real terminal (
       await t.type('0.98');
       await t.waitFor(/dilution\s+0\.98/);
       await t.waitFor(/1 CH4\s+head-1kT 10\.\d+ Torr/);
+      // the preview is the plan the fill starts (the sequence search): its 4 fills, not the advised order's 3
+      await t.waitFor(/4 Ar 2\/2\s+head-10kT 1500\.0 Torr/);
       // to the actions: tank, premix, pressure, temperature, then save, sheet, fill
       await t.keys('Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Down', 'Enter');
       // who fills: asked once a session, then on every reading it logs

@@ -324,7 +324,8 @@ describe('wizard (reducer and screen)', () => {
       />,
     );
     await until(() => !!ui.lastFrame()?.includes('preview'), 'the preview');
-    expect(ui.lastFrame()).toMatch(/1 CH4\s+head-1kT/);
+    // the fills: the plan's (the sequence search), after a short pause
+    await until(() => /1 CH4\s+head-1kT/.test(ui.lastFrame() ?? ''), 'the planned fills');
     ui.stdin.write('\x1b[B'); // down: oxidizer
     await tick();
     ui.stdin.write('\x7f\x7fN2');

@@ -1,6 +1,12 @@
 /** `mixwright ready`: mixing time and contamination of the filled tank. */
 import type { Command } from 'commander';
-import { contamination, mixingEstimate, ProblemError } from '../../core/index.js';
+import {
+  contamination,
+  drawDown,
+  drawDownPressures,
+  mixingEstimate,
+  ProblemError,
+} from '../../core/index.js';
 import { parseLength, parseQuantity } from '../../io/quantity.js';
 import { readyToJson, readyToText } from '../../report/ready-report.js';
 import { VERSION } from '../../version.js';
@@ -55,7 +61,7 @@ function storageDays(text: string): number {
 }
 
 function ready(cli: Cli, recipeFile: string | undefined, o: ReadyOptions): void {
-  const { plan, req } = planFrom(recipeFile, o);
+  const { plan, req, meta } = planFrom(recipeFile, o);
   stateGaugeConversions(req, cli);
   const info = req.tankInfo;
   const { heightM, leak, base } = tankData(o, info);
@@ -65,6 +71,30 @@ function ready(cli: Cli, recipeFile: string | undefined, o: ReadyOptions): void 
   const days = storageDays(o.days);
   const stirred = Boolean(o.stirred ?? info?.stirred);
   const y = plan.composition;
+  const atmosphericPa = req.input.reading.barometricPa;
+  const c = contamination({
+    composition: y,
+    tankPressurePa: plan.final.pressurePa,
+    baseVacuumPa: base,
+    leakRatePaPerS: leak,
+    days,
+    atmosphericPa,
+    air: req.lab.air,
+  });
+  // the batch as its experiments draw it down (the lab's reactor): below ambient air leaks in
+  const count = meta.experiments?.count ?? 0;
+  const drawn =
+    req.sizing && count > 0
+      ? drawDown({
+          composition: y,
+          pressuresPa: drawDownPressures(req.sizing, plan.final.pressurePa, count),
+          residualFraction: c.residualFraction,
+          leakRatePaPerS: leak,
+          days,
+          atmosphericPa,
+          air: req.lab.air,
+        })
+      : undefined;
   const report = {
     id: req.recipe.id,
     tank: plan.tank.id,
@@ -72,15 +102,10 @@ function ready(cli: Cli, recipeFile: string | undefined, o: ReadyOptions): void 
     pressurePa: plan.final.pressurePa,
     temperatureK: plan.temperatureK,
     mixing: mixingEstimate(y, plan.temperatureK, plan.final.pressurePa, heightM, stirred),
-    contamination: contamination({
-      composition: y,
-      tankPressurePa: plan.final.pressurePa,
-      baseVacuumPa: base,
-      leakRatePaPerS: leak,
-      days,
-      atmosphericPa: req.input.reading.barometricPa,
-      air: req.lab.air,
-    }),
+    contamination: c,
+    atmosphericPa,
+    drawDown: drawn,
+    reactor: meta.experiments?.reactor.id,
     days,
     leakRatePaPerS: leak,
     baseVacuumPa: base,
