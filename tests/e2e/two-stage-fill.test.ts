@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -110,7 +110,11 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       const end2 = flat(await t.waitFor(/Stage 2 of 2/, 30000));
       expect(end2).toContain('filled from the premix log b1-premix.jsonl');
       await t.keys('q');
-      expect(flat(await t.waitFor(/EXIT=\d+/))).toContain('EXIT=0');
+      // the premix was confirmed "mixed early" (stage 2 right after stage 1): the composition is within
+      // tolerance, but a batch drawn before the premix's least mixing time is no pass (exit 7, as check)
+      const stage2Exit = flat(await t.waitFor(/EXIT=\d+/));
+      expect(stage2Exit).toContain('PREMIX DRAWN EARLY');
+      expect(stage2Exit).toContain('EXIT=7');
       await waitUntil(() => !existsSync(`${batchLog}.lock`), 10000);
       // the stage-2 targets of the plan from this premix log (README two-stage section; the Ar stop the
       // planner chose, 371.1940 Torr, is read as 371.20 Torr: rounded up to head-1kT's 0.01 Torr)
@@ -122,11 +126,11 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       });
 
       // check of the batch log re-checks the premix log and carries its budget
-      const check = execFileSync('node', [BIN, 'check', batchLog, '--json'], {
-        cwd: dir,
-        encoding: 'utf8',
-      });
-      const o2 = JSON.parse(check).composition.O2;
+      const run = spawnSync('node', [BIN, 'check', batchLog, '--json'], { cwd: dir, encoding: 'utf8' });
+      expect(run.status).toBe(7);
+      const checked = JSON.parse(run.stdout);
+      expect([checked.verdict, checked.composition_verdict]).toEqual(['premix-drawn-early', 'pass']);
+      const o2 = checked.composition.O2;
       // reference: the two-stage plan's own prediction for a fill at its targets (plan --premix-tank MT-2,
       // README table: x(O2) 0.0133333, U 0.36 %); the readings are the targets as displayed, so the value
       // agrees within 1e-6 absolute (a tenth of U) and U within 2 % of the prediction
