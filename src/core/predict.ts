@@ -236,11 +236,11 @@ export function bandEdgeStacks(
  * predicted-u-over-tolerance says so).
  */
 export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undefined {
+  // a quantity whose U alone fills its tolerance passes on no readings: the plan says so already
+  // (predicted-u-over-tolerance), and no share of the bands would help (nor is the model run for it)
+  if (p.rows.some((r) => !(r.tolerance - r.expandedU > 0))) return undefined;
   const rows = bandEdgeStacks(plan, p);
   if (!rows) return undefined;
-  // a quantity whose U alone fills its tolerance passes on no readings: the plan says so already
-  // (predicted-u-over-tolerance), and no share of the bands would help
-  if (rows.some((x) => !(x.room > 0))) return undefined;
   const roomy = rows.filter((x) => Number.isFinite(x.stack));
   if (!roomy.length) return undefined;
   const worst = roomy.reduce((a, b) => (b.stack / b.room > a.stack / a.room ? b : a));
