@@ -194,6 +194,9 @@ export function predictionFindings(p: PlanPrediction): Finding[] {
     });
 }
 
+/** the share of the computed common band share that is said (our margin, module and bandEdgesFinding) */
+export const BAND_SHARE_MARGIN = 0.9;
+
 /** the model's output a predicted row is: a species' mole fraction, phi, or the diluent fraction */
 const outputOf = (r: PredictedRow) => (r.kind === 'dilution' ? 'diluent' : r.name);
 
@@ -245,7 +248,14 @@ export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undef
   if (!roomy.length) return undefined;
   const worst = roomy.reduce((a, b) => (b.stack / b.room > a.stack / a.room ? b : a));
   if (!(worst.stack > worst.room)) return undefined;
-  const share = Math.min(...roomy.map((x) => (x.stack > 0 ? x.room / x.stack : Infinity)));
+  // the share said is one the re-check passes at its edges too: U grows a little away from the targets
+  // and the stack is first order, so it is taken at BAND_SHARE_MARGIN of the computed one (our margin;
+  // at the computed share itself a worst-way fill came out NOT SHOWN by a few 1e-7), and rounded down to
+  // two significant digits (as it is printed: never a share wider than computed)
+  const exact =
+    BAND_SHARE_MARGIN * Math.min(...roomy.map((x) => (x.stack > 0 ? x.room / x.stack : Infinity)));
+  const digits = 10 ** (1 - Math.floor(Math.log10(exact)));
+  const share = Math.floor(exact * digits) / digits;
   return {
     severity: 'warning',
     code: 'band-edges-past-tolerance',

@@ -43,7 +43,7 @@ describe('readings at the band edges, taken together', () => {
     expect(f).toBeDefined();
   });
 
-  it('ch4-o2-ar-phi1 at 1.5 %: inside the shared band every way passes check; the full bands the worst way do not', async () => {
+  it('ch4-o2-ar-phi1 at 1.5 %: at the shared band the plan says, every way passes check; the full bands the worst way do not', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-bands-'));
     const src = readRecipe('recipes/ch4-o2-ar-phi1.yaml');
     const text = (await import('node:fs')).readFileSync('recipes/ch4-o2-ar-phi1.yaml', 'utf8');
@@ -90,7 +90,9 @@ describe('readings at the band edges, taken together', () => {
       writeFileSync(file, csv(ps));
       return (await runCli(['check', file, '--recipe', recipeFile])).code;
     };
-    const within = 0.98 * f!.share;
+    // exactly the share the plan says (a fresh-eyes trial found the computed share itself, unmargined and
+    // rounded up in print, NOT SHOWN the worst way: the share said carries a margin and is rounded down)
+    const within = f!.share;
     const patterns: Record<string, number[]> = {
       worst: sign,
       opposite: sign.map((x) => -x),
