@@ -16,14 +16,9 @@ import { fillReducer, type FillState } from '../../src/tui/fill-state.js';
 import { runCli } from '../helpers.js';
 import { checkLog } from '../../src/io/check.js';
 import { premixTargets, writePremixLog } from '../stage-logs.js';
+import { untilWithin } from './until.js';
 
-async function until(cond: () => boolean, what: string, ms = 15000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(15000);
 
 /**
  * the text of a paged page's parts, without the title rows (the leading rows every part repeats) and each

@@ -12,14 +12,9 @@ import { ExitSignal } from '../../src/cli/context.js';
 import { initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { fromPa } from '../../src/report/units.js';
 import { demoHeader, entry, logOf } from './logged-entry.js';
+import { untilWithin } from './until.js';
 
-async function until(cond: () => boolean, what: string, ms = 15000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(15000);
 
 const header = demoHeader('w1');
 

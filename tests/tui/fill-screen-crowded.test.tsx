@@ -7,14 +7,9 @@ import { FillApp } from '../../src/tui/fill-app.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { splitHeader } from '../split-plan.js';
 import { frame80, read } from './frame80.js';
+import { untilWithin } from './until.js';
 
-async function until(cond: () => boolean, what: string, ms = 10000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(10000);
 
 const NOW = '2026-12-01T01:00:00Z';
 const flat = (f: string) => f.replace(/\s+/g, ' ');

@@ -9,16 +9,11 @@ import { fillReducer, initialState, setupFromHeader, type FillState } from '../.
 import { premixCloseOffWords } from '../../src/report/two-stage-sheet.js';
 import { stage2Batch } from '../stage-logs.js';
 import { TORR } from '../helpers.js';
+import { untilWithin } from './until.js';
 
 const NOW = '2026-12-03T10:00:00Z';
 const flat = (s: string | undefined) => (s ?? '').replace(/\s+/g, ' ');
-async function until(cond: () => boolean, what: string, ms = 5000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(5000);
 const enterText = (s: FillState, text: string) =>
   fillReducer(fillReducer(s, { type: 'char', text }), { type: 'enter', now: NOW });
 

@@ -10,16 +10,11 @@ import { DEFAULTS, wizardInit, wizardReducer } from '../../src/tui/wizard-state.
 import { makeEvaluator } from '../../src/tui/wizard-eval.js';
 import type { NewLogEvent } from '../../src/io/batch-log.js';
 import { splitHeader } from '../split-plan.js';
+import { untilWithin } from './until.js';
 
 const tick = () => new Promise((r) => setTimeout(r, 30));
 /** wait until the screen (or the log) shows what the test expects: input is handled asynchronously, and slower under load */
-async function until(cond: () => boolean, what: string, ms = 5000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(5000);
 
 /** the demo recipe in the three-fill order the advice gives (the sequence search would split the Ar) */
 function threeFills(rs: ReturnType<typeof readRecipe>): ReturnType<typeof readRecipe> {

@@ -8,14 +8,9 @@ import { fillTitle } from '../../src/tui/stage-state.js';
 import { stage1Header } from '../../src/io/stage-log.js';
 import { planFrom } from '../../src/cli/plan-from.js';
 import { readLog } from '../../src/io/batch-log.js';
+import { untilWithin } from './until.js';
 
-async function until(cond: () => boolean, what: string, ms = 5000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(5000);
 const flat = (s: string | undefined) => (s ?? '').replace(/\s+/g, ' ');
 
 describe('stage-1 fill screens name the premix tank', () => {

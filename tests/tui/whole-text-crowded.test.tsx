@@ -10,6 +10,7 @@ import { parseLog, type NewLogEvent, type LogHeader } from '../../src/io/batch-l
 import { FillApp } from '../../src/tui/fill-app.js';
 import { initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { read } from './frame80.js';
+import { untilWithin } from './until.js';
 
 const logText = (h: LogHeader, events: readonly NewLogEvent[]) =>
   [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
@@ -22,13 +23,7 @@ const NOTES = [
     '/lab/batches/in1.jsonl.torn-20261201T010000Z; nothing in it was confirmed. The log now ends at line 3',
 ];
 
-async function until(cond: () => boolean, what: string, ms = 5000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(5000);
 
 function fits(f: string) {
   const rows = f.split('\n');

@@ -39,6 +39,7 @@ import {
 import { makeEvaluator } from '../../src/tui/wizard-eval.js';
 import { wizardAct } from '../../src/tui/run.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
+import { untilWithin } from './until.js';
 
 const evaluate = makeEvaluator();
 const start = () => wizardInit(evaluate, { ...DEFAULTS, tank: 'MT-1' });
@@ -46,13 +47,7 @@ const run = (s: WizardState, ...actions: WizardAction[]) =>
   actions.reduce((t, a) => wizardReducer(t, a, evaluate), s);
 const SAVE_FOCUS = FIELDS.length; // the first action, [save recipe]
 
-async function until(cond: () => boolean, what: string, ms = 5000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(5000);
 
 describe('wizard reducer: leaving', () => {
   it('Esc with nothing changed leaves at once', () => {

@@ -16,18 +16,13 @@ import { wizardAct } from '../../src/tui/run.js';
 import { readLog } from '../../src/io/batch-log.js';
 import { planFrom } from '../../src/cli/plan-from.js';
 import type { PredictedPlan } from '../../src/core/index.js';
+import { untilWithin } from './until.js';
 
 const TORR = 101325 / 760;
 const V = { ...DEFAULTS, id: 'wiz1', tank: 'MT-1', dilution: '0.98', temperature: '25 degC' };
 const STEP = /^(\d+) (\S+(?: \d+\/\d+)?)\s+(\S+) ([\d.]+) Torr$/;
 
-async function until(cond: () => boolean, what: string, ms = 10000): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > ms) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-}
+const until = untilWithin(10000);
 
 describe('the wizard preview is the plan it writes and starts', () => {
   const evaluate = makeEvaluator();
