@@ -222,6 +222,18 @@ export type Finding = Base &
         readonly stopPa: number;
         /** the highest stop found below it that is more hazardous, Pa (undefined: the lowest stop searched) */
         readonly hazardousBelowPa?: number;
+        /**
+         * when the hazards set the stop: the lowest stop found as free of them as any, Pa; the stop is
+         * one band above it, so no reading inside the band is below it
+         */
+        readonly lowestSafePa?: number;
+        /** the band half-width of the stop's reading when lowestSafePa is given, Pa */
+        readonly bandPa?: number;
+        /**
+         * the lowest reading to stop at when lowestSafePa is given: lowestSafePa, rounded up to the
+         * display resolution of the gauge that reads the stop where it has one (round-stops.ts), Pa
+         */
+        readonly floorPa?: number;
         /** no danger or warning that a stop can change (states, paths, gauges, supply) remains at this stop */
         readonly clean: boolean;
       }
@@ -898,17 +910,28 @@ const DATA_COVERAGE: WordingTable<'no-autoignition-data' | 'transport-data-not-k
 
 /** raised by the split-point search (plan/split-point.ts) */
 const SPLIT: WordingTable<'split-point-chosen'> = {
-  'split-point-chosen': (f, p) =>
-    `the planner chose to stop this charge of ${f.source} at ${p(f.stopPa)}: ` +
-    (f.hazardousBelowPa !== undefined
-      ? `the lowest stop at which every state and fill path stays as free of the hazards checked ` +
-        `as any stop can make it (at ${p(f.hazardousBelowPa)} the review finds more)`
-      : `the lowest stop searched (1/32 of the source's charge); no lower stop is needed for safety`) +
-    (f.clean
+  'split-point-chosen': (f, p) => {
+    const still = f.clean
       ? ''
       : `; the sequence still has dangers or warnings at this stop - see the other findings ` +
-        `and consider another order`) +
-    ` - do not stop this charge lower, and give the stop after "@" to set it yourself`,
+        `and consider another order`;
+    const head = `the planner chose to stop this charge of ${f.source} at ${p(f.stopPa)}: `;
+    if (f.hazardousBelowPa === undefined || f.lowestSafePa === undefined || f.bandPa === undefined)
+      return (
+        head +
+        `the lowest stop searched (1/32 of the source's charge); no lower stop is needed for safety` +
+        `${still}; give the stop after "@" to set it yourself`
+      );
+    const floor = p(f.floorPa ?? f.lowestSafePa);
+    return (
+      head +
+      `one band (+-${p(f.bandPa)}) above the lowest stop at which every state and fill path stays as ` +
+      `free of the hazards checked as any stop can make it (found between ${p(f.hazardousBelowPa)}, ` +
+      `where the review finds more, and ${floor}), so that a reading anywhere inside its band is at or ` +
+      `above that stop${still} - do not stop this charge below ${floor}, and give the stop after "@" ` +
+      `to set it yourself`
+    );
+  },
 };
 
 /** raised by the sequence search (plan/search.ts) */

@@ -1,6 +1,7 @@
 // Split charges: a source filled in more than one charge (plan/charges.ts, plan/split-point.ts).
 import { describe, expect, it } from 'vitest';
 import {
+  describeFinding,
   describeProblem,
   planFill,
   ProblemError,
@@ -254,6 +255,46 @@ describe('split point chosen by the planner', () => {
     const note = plan.findings.find((f) => f.code === 'split-point-chosen');
     expect(note).toMatchObject({ severity: 'note', step: 2, source: 'Ar', clean: true });
     expect(plan.orderReason).toContain('chosen by the planner');
+  });
+
+  it('a stop the hazards set: its whole band lies at or above the lowest acceptable stop, and the note says so', () => {
+    // no outside reference: an invariant of our own rule (split-point.ts: the band is the plan's own,
+    // steps.ts; the hazards the plan's own review, the NFPA 69 margins); compared exactly (tolerance 0)
+    const basis = validatePlanInput(input);
+    const amounts = planAmounts(basis);
+    const plan = planFill({ ...input, charges: split(input) });
+    const note = plan.findings.find((f) => f.code === 'split-point-chosen');
+    if (!note || note.code !== 'split-point-chosen') throw new Error('no split-point-chosen note');
+    const stop = plan.steps[1];
+    expect(note.stopPa).toBe(stop.targetPa);
+    // a reading at either edge of the band: no more hazardous than the stop itself, nothing near-flammable
+    // (before the fix the lower edge, 460.979 Torr, was below the 460.980 Torr at which the review finds
+    // the state after the O2 near-flammable)
+    const lowerEdge = stop.targetPa - stop.bandPa;
+    const at = (stopPa: number) => splitHazards(basis, amounts, split(input, stopPa))!;
+    const chosen = at(stop.targetPa);
+    for (const edge of [lowerEdge, stop.targetPa + stop.bandPa]) {
+      const h = at(edge);
+      expect([h.danger, h.warning, h.note]).toEqual([chosen.danger, chosen.warning, chosen.note]);
+      expect(h.findings.some((f) => f.code === 'near-flammable')).toBe(false);
+    }
+    const { lowestSafePa, hazardousBelowPa, floorPa, bandPa } = note;
+    if (lowestSafePa === undefined || hazardousBelowPa === undefined || floorPa === undefined)
+      throw new Error('the hazards did not set the stop');
+    expect(bandPa).toBe(stop.bandPa);
+    // the band's lower edge is at or above the lowest acceptable stop
+    expect(lowerEdge).toBeGreaterThanOrEqual(lowestSafePa);
+    expect(lowerEdge).toBeGreaterThan(hazardousBelowPa);
+    // the floor the note names: the lowest acceptable stop rounded up onto the stop's 0.01 Torr grid,
+    // and no reading on that grid inside the band is below it
+    const res = stop.gauge!.resolutionPa;
+    expect(floorPa).toBeGreaterThanOrEqual(lowestSafePa);
+    expect(floorPa - lowestSafePa).toBeLessThan(res);
+    expect(Math.ceil(lowerEdge / res - 1e-6) * res).toBeGreaterThanOrEqual(floorPa - 1e-9);
+    const words = describeFinding(note, (pa) => `${(pa / TORR).toFixed(3)} Torr`);
+    expect(words).toContain(`do not stop this charge below ${(floorPa / TORR).toFixed(3)} Torr`);
+    expect(words).toContain(`one band (+-${(stop.bandPa / TORR).toFixed(3)} Torr) above the lowest stop`);
+    expect(plan.orderReason).toContain('one band above the lowest stop');
   });
 
   it('a split that no hazard constrains stops at the lowest share searched (1/32 of the source)', () => {

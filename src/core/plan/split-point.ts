@@ -23,6 +23,12 @@
  * acceptable share kept. Charges are chosen in fill order; while one is searched, a later
  * charge without a stop is taken at half of what is left of its source.
  *
+ * When the hazards set the stop (a lower stop is more hazardous), the stop is not that lowest
+ * acceptable one but one tolerance band (steps.ts) above it: the guided fill and the sheet accept
+ * any reading inside the band, so the band's lower edge, not its middle, must be at or above the
+ * lowest acceptable stop. The hazards are checked again at the raised stop and at the top of its
+ * band. round-stops.ts then rounds the stop up onto its gauge's grid and checks the band once more.
+ *
  * A separate sequence search (minimising the predicted uncertainty) may call
  * `chooseSplitPoints` or replace it; `splitHazards` is the acceptance test it can reuse.
  */
@@ -73,15 +79,30 @@ export interface SplitPoint {
   readonly charge: number;
   readonly source: string;
   readonly stopPa: number;
-  /** share of what was left of the source's allocation that the charge delivers */
+  /**
+   * share of what was left of the source's allocation that the charge delivers at the lowest
+   * acceptable stop (before the raise by one band, lowestSafePa)
+   */
   readonly share: number;
   /**
    * the highest stop found below the chosen one that is more hazardous (undefined: the lowest
    * share searched was chosen)
    */
   readonly hazardousBelowPa?: number;
-  /** true when no danger or warning that a stop can change remains at the chosen stop */
+  /**
+   * the lowest stop found as free of hazards as any (the bracket's upper end) when the hazards
+   * set the stop; the stop is then this plus its band, so that no reading inside the band is
+   * below it (undefined: the lowest share searched was chosen)
+   */
+  readonly lowestSafePa?: number;
+  /** the band half-width of the stop's reading (steps.ts) when lowestSafePa is given, Pa */
+  readonly bandPa?: number;
+  /**
+   * true when no danger or warning that a stop can change remains at the chosen stop or at the top
+   * of its band
+   */
   readonly clean: boolean;
+  /** at the chosen stop, or at the top of its band where that is worse */
   readonly hazards: SplitHazards;
 }
 
@@ -163,15 +184,20 @@ export function chooseSplitPoints(
         else lo = mid;
       }
     }
-    const stopPa = hi.charges[k].stopPa!;
+    const lowestPa = hi.charges[k].stopPa!;
+    // a stop set by the hazards: one band above the lowest acceptable stop (module comment)
+    const raised = lo && best.hazards ? raiseByBand(basis, amounts, current, k, lowestPa) : undefined;
+    const stopPa = raised?.stopPa ?? lowestPa;
     current[k] = { source: c.source, stopPa };
-    const hz = hi.hazards ?? { danger: 0, warning: 0, note: 0, findings: [] };
+    const hz = raised?.hazards ?? hi.hazards ?? { danger: 0, warning: 0, note: 0, findings: [] };
     points.push({
       charge: k + 1,
       source: c.source.id,
       stopPa,
       share: hi.share,
       hazardousBelowPa: lo?.charges[k].stopPa,
+      lowestSafePa: raised ? lowestPa : undefined,
+      bandPa: raised?.bandPa,
       clean: hz.danger === 0 && hz.warning === 0,
       hazards: hz,
     });
@@ -183,12 +209,68 @@ export function chooseSplitPoints(
     source: p.source,
     stopPa: p.stopPa,
     hazardousBelowPa: p.hazardousBelowPa,
+    lowestSafePa: p.lowestSafePa,
+    bandPa: p.bandPa,
+    floorPa: p.lowestSafePa,
     clean: p.clean,
   }));
   const reason = points.length
     ? `the stop of ${points.map((p) => `charge ${p.charge} (${p.source})`).join(', ')} chosen by the ` +
-      `planner: the lowest stop that keeps every state and fill path as free of the hazards checked as ` +
-      `any stop can (see the split-point-chosen note)`
+      `planner: ${points.some((p) => p.lowestSafePa !== undefined) ? 'one band above ' : ''}the lowest ` +
+      `stop that keeps every state and fill path as free of the hazards checked as any stop can (see ` +
+      `the split-point-chosen note)`
     : '';
   return { charges: current, points, findings, reason };
+}
+
+/** tries of the raise by one band (the band moves only a little with the stop: one or two do) */
+const RAISE_TRIES = 4;
+/** the raise is this share of the band more than the band, so that rounding never leaves it short */
+const RAISE_MARGIN = 1e-9;
+
+/**
+ * The stop of charge k set one band above `lowestPa`, the lowest stop found as free of hazards as
+ * any: a reading anywhere inside the stop's band (steps.ts; the guided fill accepts any) is then at
+ * or above it. The band depends a little on the stop, so the stop is raised until its band's lower
+ * edge is at or above `lowestPa`. The hazards are those at the stop, or at the top of its band
+ * where they are worse (hazards need not fall as the stop rises).
+ */
+function raiseByBand(
+  basis: PlanBasis,
+  amounts: PlanAmounts,
+  current: readonly Charge[],
+  k: number,
+  lowestPa: number,
+): { stopPa: number; bandPa: number; hazards: SplitHazards | undefined } {
+  const at = (stopPa: number) => {
+    const given = current.map((c, j) => (j === k ? { source: c.source, stopPa } : c));
+    return stopsFromShares(
+      basis,
+      given,
+      basis.input.sources,
+      amounts.allocation.amountsMol,
+      () => SPLIT_SEARCH.laterShare,
+    );
+  };
+  let bandPa = stopBandPa(basis, amounts, at(lowestPa), k);
+  let stopPa = lowestPa + bandPa * (1 + RAISE_MARGIN);
+  for (let i = 0; i < RAISE_TRIES; i++) {
+    bandPa = stopBandPa(basis, amounts, at(stopPa), k);
+    if (stopPa - bandPa >= lowestPa) break;
+    stopPa = lowestPa + bandPa * (1 + RAISE_MARGIN);
+  }
+  const atStop = splitHazards(basis, amounts, at(stopPa));
+  const atTop = splitHazards(basis, amounts, at(stopPa + bandPa));
+  return { stopPa, bandPa, hazards: atTop && !noWorse(atTop, atStop) ? atTop : atStop };
+}
+
+/** the band half-width of charge k's reading with these charges (steps.ts), Pa; 0 when they cannot be planned */
+function stopBandPa(basis: PlanBasis, amounts: PlanAmounts, charges: readonly Charge[], k: number): number {
+  try {
+    return planSteps(basis, amounts, { charges, reason: '', recommended: false, findings: [] }).steps[k]
+      .bandPa;
+  } catch (e) {
+    if (e instanceof ProblemError) return 0;
+    throw e;
+  }
 }
