@@ -15,6 +15,7 @@ import type {
   YamlFault,
 } from './problems.js';
 import { TORR_PA } from './constants.js';
+import { GIVEN_VOLUME_TANK } from './findings.js';
 import { describeTwoStageProblem } from './two-stage-words.js';
 import { describePremixLogProblem } from './premix-log-words.js';
 import { describeStageProblem } from './stage-words.js';
@@ -472,6 +473,7 @@ const PLANNER_KINDS: Readonly<Record<PlannerProblem['kind'], PlannerProblem['cod
   'impurities-over-purity': 'design-conflict',
   'in-tank-excess': 'design-conflict',
   'in-tank-at-final': 'design-conflict',
+  'above-rating': 'design-conflict',
   'no-fills': 'design-missing',
   'empty-blend': 'design-missing',
   'diluent-for-dilution': 'design-missing',
@@ -490,6 +492,29 @@ function isPlannerProblem(p: Problem): p is PlannerProblem {
     typeof p.kind === 'string' &&
     Object.hasOwn(PLANNER_KINDS, p.kind) &&
     PLANNER_KINDS[p.kind as PlannerProblem['kind']] === p.code
+  );
+}
+
+/** a pressure the plan would fill a tank to above its rating: what, why, what to do */
+function describeAboveRating(p: Extract<PlannerProblem, { kind: 'above-rating' }>): string {
+  const tank = p.tank === GIVEN_VOLUME_TANK ? 'the tank of the given volume' : `tank ${p.tank}`;
+  const which = p.what === 'final' ? 'the final pressure' : `the premix pressure of ${tank}`;
+  const what =
+    p.bandPa === undefined
+      ? `${which}, ${paTorr(p.pressurePa)}, is above the rating of ${tank}, ${paTorr(p.ratedPa)}`
+      : `${which}, ${paTorr(p.pressurePa)}, is within the rating of ${tank}, ${paTorr(p.ratedPa)}, ` +
+        `but a reading inside its band (+-${paTorr(p.bandPa)}) reaches ` +
+        `${paTorr(p.pressurePa + p.bandPa)}, above it`;
+  const most = p.bandPa === undefined ? p.ratedPa : p.ratedPa - p.bandPa;
+  const limit =
+    p.workingLimitPa < p.ratedPa
+      ? `; at or below the working limit (rating x working fraction), ${paTorr(p.workingLimitPa)}, the ` +
+        `plan is also free of the tank-over-rating danger`
+      : '';
+  const count = p.what === 'final' ? ' (or the number of experiments that sets it)' : '';
+  return (
+    `${what}: a tank is never filled past its rating (its maximum allowed working pressure), so nothing ` +
+    `is planned - lower ${which}${count} to at most ${paTorr(most)}, or use a tank rated for it${limit}`
   );
 }
 
@@ -526,6 +551,8 @@ function describePlannerProblem(p: PlannerProblem): string {
       );
     case 'in-tank-at-final':
       return 'the tank already holds gas at or above the final pressure; evacuate it or raise the final pressure';
+    case 'above-rating':
+      return describeAboveRating(p);
     case 'no-fills':
       return 'the plan has no fills';
     case 'empty-blend':

@@ -10,7 +10,7 @@
  *   -> steps (PlanSteps: targets, bands, gauges) -> review (PlanReview: findings) -> result (Plan).
  * This module keeps the planner's public names in one place for index.ts and the core.
  */
-import { validatePlanInput } from './plan/validate.js';
+import { refuseBandsAboveRating, validatePlanInput } from './plan/validate.js';
 import { planAmounts } from './plan/amounts.js';
 import { planSequence } from './plan/sequence.js';
 import { roundChosenStops } from './plan/round-stops.js';
@@ -45,6 +45,8 @@ export function planFill(input: PlanInput, shared?: SharedStages): Plan {
   const sequence = roundChosenStops(basis, amounts, planned);
   // the gauges the sequence search chose for the readings (none without a search)
   const steps = searchedGauges(basis, planSteps(basis, amounts, sequence), sequence);
+  // no reading inside a band may be above the tank's rating (validate.ts aboveRating)
+  refuseBandsAboveRating(basis, steps.steps);
   const review = reviewPlan(basis, amounts, sequence, steps, shared?.reviews);
   return planResult(basis, amounts, sequence, steps, review);
 }

@@ -700,6 +700,23 @@ export type PlannerProblem =
     }
   /** the gas already in the tank holds more of these species than the finished batch should */
   | { readonly code: 'design-conflict'; readonly kind: 'in-tank-excess'; readonly species: readonly string[] }
+  /**
+   * a pressure the plan would fill a tank to is above the tank's rating (its maximum allowed working
+   * pressure): the final pressure (or a premix tank's), or the top of the band of a reading
+   */
+  | {
+      readonly code: 'design-conflict';
+      readonly kind: 'above-rating';
+      /** 'final': the batch's final pressure; 'premix': the premix tank's (two stages) */
+      readonly what: 'final' | 'premix';
+      readonly tank: string;
+      readonly pressurePa: number;
+      readonly ratedPa: number;
+      /** rating times working fraction */
+      readonly workingLimitPa: number;
+      /** the band half-width of the reading when the pressure itself is at or below the rating, Pa */
+      readonly bandPa?: number;
+    }
   | {
       readonly code: 'design-conflict';
       readonly kind: 'in-tank-at-final';

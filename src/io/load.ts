@@ -442,8 +442,10 @@ export function locateCoreProblem(e: ProblemError, rs: RecipeSource): ProblemErr
   const field = e.where.field;
   // no field, or one already pointed at the option that gave it (--premix-tank): nothing to locate
   if (!field || field.startsWith('--')) return e;
-  const path = RECIPE_PATH_OF_CORE_FIELD[field] ?? field.split('.');
-  const where = recipeWhere(rs)(path, field);
+  // a final pressure set by the number of experiments is pointed at the count
+  const byCount = field === 'pressure' && rs.recipe.experiments?.count !== undefined;
+  const path = byCount ? ['experiments', 'count'] : (RECIPE_PATH_OF_CORE_FIELD[field] ?? field.split('.'));
+  const where = recipeWhere(rs)(path, byCount ? 'experiments.count' : field);
   let typed: unknown = rs.recipe;
   for (const k of path)
     typed = typeof typed === 'object' && typed !== null ? (typed as Record<string, unknown>)[k] : undefined;

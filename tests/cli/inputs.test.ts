@@ -10,7 +10,7 @@ import {
 } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { designOptions, runCli, STACK_LINE, TORR } from '../helpers.js';
+import { designOptions, runCli, STACK_LINE, stderrWords, TORR } from '../helpers.js';
 import { DEMO_LAB_YAML } from '../../src/io/demo-lab.js';
 
 const RECIPE = 'recipes/ch4-o2-ar-phi1.yaml';
@@ -103,12 +103,22 @@ describe('input people type', () => {
     expect(r.stderr).toContain('did you mean degC?');
     expect((await runCli(['plan', RECIPE, '--temperature', '22 °C'])).code).toBe(0);
   });
-  it('--rating for a tank given by --volume: a final pressure above it is the tank-over-rating danger (exit 3)', async () => {
+  it('--rating for a tank given by --volume: a final pressure above it is refused (exit 2), above its working limit a danger (exit 3)', async () => {
     const inline = [
       'plan',
       ...designOptions({ dilution: '0.98', pressure: '1500 Torr', temperature: '25 degC' }),
     ];
-    const over = await runCli([...inline, '--rating', '1 bar', '--json']);
+    // 1500 Torr is 2 bar: above a 1 bar rating, refused at --pressure with nothing planned
+    const above = await runCli([...inline, '--rating', '1 bar', '--json']);
+    refused(above, 'design-conflict');
+    // --json: the refusal as its object, no plan
+    expect(JSON.parse(above.stdout)).toMatchObject({ verdict: 'refused', refused: { field: '--pressure' } });
+    expect(JSON.parse(above.stdout).steps).toBeUndefined();
+    expect(stderrWords(above.stderrShown)).toContain(
+      '--pressure: the final pressure, 199984 Pa (1500 Torr), is above the rating of the tank of the given volume',
+    );
+    // within a 2.2 bar rating, above its working limit (x 0.8 = 1.76 bar): planned with the danger
+    const over = await runCli([...inline, '--rating', '2.2 bar', '--working-fraction', '0.8', '--json']);
     expect(over.code, over.stderr).toBe(3);
     expect(JSON.parse(over.stdout).findings.map((f: { code: string }) => f.code)).toContain(
       'tank-over-rating',
@@ -120,6 +130,36 @@ describe('input people type', () => {
     );
     refused(await runCli([...inline, '--working-fraction', '0.9']), 'working-fraction-without-rating');
     refused(await runCli(['plan', RECIPE, '--rating', '4 bar']), 'rating-with-lab-tank');
+  });
+  it('a final pressure above the lab tank rating is refused at its recipe line, its option, the count or premix.pressure', async () => {
+    const d = tmp();
+    const text = readFileSync(RECIPE, 'utf8');
+    const line = text.split('\n').findIndex((l) => l.startsWith('pressure:')) + 1;
+    // MT-1 is rated 4 bar (3000.25 Torr): 3500 Torr in the recipe file
+    const file = join(d, 'over.yaml');
+    writeFileSync(file, text.replace(/^pressure: .*$/m, 'pressure: 3500 Torr'));
+    const r = await runCli(['plan', file]);
+    refused(r, 'design-conflict');
+    expect(r.stdout).toBe('');
+    expect(stderrWords(r.stderrShown)).toContain(
+      `${file}:${line}:11 pressure: the final pressure, 466628 Pa (3500 Torr), is above the rating of tank MT-1`,
+    );
+    expect(readFileSync(file, 'utf8')).toContain('pressure: 3500 Torr');
+    // the same on the command line, and a number of experiments that needs more than the rating
+    refused(await runCli(['plan', RECIPE, '--pressure', '3500 Torr']), 'design-conflict');
+    const count = await runCli(['plan', RECIPE, '--experiments', '200', '--reactor', 'ST-A']);
+    refused(count, 'design-conflict');
+    expect(stderrWords(count.stderrShown)).toMatch(
+      /^mixwright: --experiments: the final pressure, .* is above the rating/,
+    );
+    // a premix tank filled above its rating (MT-2, 7 bar = 5250.4 Torr): at the recipe's premix.pressure
+    const pm = join(d, 'premix.yaml');
+    writeFileSync(pm, `${text}premix: { tank: MT-2, pressure: 6000 Torr }\n`);
+    const p = await runCli(['plan', pm]);
+    refused(p, 'design-conflict');
+    expect(stderrWords(p.stderrShown)).toContain(
+      `premix.pressure: the premix pressure of tank MT-2, 799934 Pa (6000 Torr), is above the rating of tank MT-2`,
+    );
   });
   it('a batch too small for one experiment is a warning finding', async () => {
     const r = await runCli(['plan', RECIPE, '--pressure', '42 Torr', '--json']);

@@ -45,10 +45,12 @@ describe('plan stage 5: review', () => {
   });
 
   it('tank over its working limit: a danger at the last step, with the top of its band', () => {
+    // final 1000 Torr (1.33e5 Pa), rated 2.4e5 Pa at a working fraction of 0.5: over the working limit
+    // (1.2e5 Pa), within the rating (above the rating is refused: planner-validate.test.ts)
     const input = workedInput();
     const { planned, review } = reviewed({
       ...input,
-      tank: { ...input.tank, ratedPressurePa: 1.2e5, workingFraction: 1 },
+      tank: { ...input.tank, ratedPressurePa: 2.4e5, workingFraction: 0.5 },
     });
     const f = review.findings.find((x) => x.code === 'tank-over-rating');
     const last = planned.steps[2];
@@ -72,7 +74,7 @@ describe('plan stage 5: review', () => {
     const input = { ...workedInput(), order: 'recommend' as const };
     const over = planFill({
       ...input,
-      tank: { ...input.tank, ratedPressurePa: 1.2e5, workingFraction: 0.5 },
+      tank: { ...input.tank, ratedPressurePa: 2.4e5, workingFraction: 0.25 },
     });
     expect(over.findings.some((f) => f.code === 'tank-over-rating')).toBe(true);
     expect(over.orderReason).not.toMatch(/every fill path is non-flammable/);
@@ -119,9 +121,10 @@ describe('plan stage 5: review', () => {
     // CH4, O2, Ar to 50, 150, 1000 Torr (ideal partial pressures of 0.05/0.10/0.85 at 1000 Torr, by hand)
     const input = workedInput();
     const limitPa = 100 * TORR;
+    // rated 2000 Torr at a working fraction of 0.05 (a final pressure above the rating is refused)
     const { planned, review } = reviewed({
       ...input,
-      tank: { ...input.tank, ratedPressurePa: limitPa, workingFraction: 1 },
+      tank: { ...input.tank, ratedPressurePa: 2000 * TORR, workingFraction: 0.05 },
     });
     const over = review.findings.filter((x) => x.code === 'tank-over-rating');
     const expected = planned.steps.filter((s) => s.targetPa + s.bandPa > limitPa).map((s) => s.index);

@@ -29,6 +29,7 @@ import { premixSource } from './premix-source.js';
 import type { UncertaintyResult } from '../uncertainty.js';
 import { countsAgainstSequence } from './search-eval.js';
 import type { Plan, PlanInput, TankSpec } from './types.js';
+import { refusePremixAboveRating } from './validate.js';
 
 export interface TwoStageInput {
   /** the batch as a single-tank request: design, batch tank, cylinders, gauges, tolerance */
@@ -562,6 +563,8 @@ export function planTwoStage(
   if (input.premixTank.id === b.tank.id)
     fail({ code: 'two-stage-refused', kind: 'same-tank', tank: b.tank.id });
   if (!(b.design.diluentFraction > 0)) fail({ code: 'two-stage-refused', kind: 'no-diluent' });
+  // a premix pressure given above the premix tank's rating is refused, not planned (validate.ts)
+  if (input.premixPressurePa !== undefined) refusePremixAboveRating(input.premixTank, input.premixPressurePa);
   const limit = premixLimitPa(input.premixTank, b.gauges);
   const pressures =
     input.premixPressurePa !== undefined

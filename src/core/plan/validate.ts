@@ -6,8 +6,8 @@
 import { bMix, cMix, densityFromPressure, virialModel, type VirialModel } from '../mixture-eos.js';
 import { getSpecies } from '../lookup.js';
 import type { SafetyContext } from '../safety.js';
-import { fail } from '../problems.js';
-import type { InitialGas, PlanInput } from './types.js';
+import { fail, type Problem } from '../problems.js';
+import type { InitialGas, PlanInput, PlanStep, TankSpec } from './types.js';
 
 /** temperatures the virial model is used at (reference table 230-480 K, correlation beyond) */
 export const MODEL_T_RANGE_K = { min: 200, max: 600 } as const;
@@ -30,8 +30,8 @@ export interface PlanBasis {
 /**
  * Check the plan's inputs and build its basis. Refuses (as problems) a final pressure,
  * temperature or tank volume that is not positive, a plan without fills, a temperature
- * outside MODEL_T_RANGE_K, an unknown species, and gas in the tank at or above the final
- * pressure.
+ * outside MODEL_T_RANGE_K, an unknown species, gas in the tank at or above the final
+ * pressure, and a final pressure above the tank's rating (aboveRating).
  */
 export function validatePlanInput(input: PlanInput): PlanBasis {
   const { finalPressurePa: Pf, temperatureK: T, tank } = input;
@@ -74,6 +74,8 @@ export function validatePlanInput(input: PlanInput): PlanBasis {
   }
   const workingLimitPa =
     tank.ratedPressurePa === undefined ? undefined : tank.ratedPressurePa * (tank.workingFraction ?? 1);
+  if (tank.ratedPressurePa !== undefined && Pf > tank.ratedPressurePa)
+    fail(aboveRating(input, Pf), { field: 'pressure' });
   const safety: SafetyContext = {
     temperatureK: T,
     workingLimitPa,
@@ -92,4 +94,51 @@ export function validatePlanInput(input: PlanInput): PlanBasis {
     workingLimitPa,
     safety,
   };
+}
+
+/**
+ * The above-rating problem of a pressure the plan would reach in input's tank. The rule of the
+ * tank's rating (our rule, after common practice: a pressure vessel is never filled past its
+ * maximum allowed working pressure): a plan whose final pressure, or the top of the band of any
+ * of its readings, is above the tank's rating is refused, whatever the design; between the
+ * working limit (rating x working fraction) and the rating the plan is made with the
+ * tank-over-rating danger (review.ts), as the guided fill makes a reading past the working limit
+ * a danger to vent from or accept. A tank of unknown rating is planned with tank-rating-unknown.
+ */
+function aboveRating(
+  input: Pick<PlanInput, 'tank'>,
+  pressurePa: number,
+  bandPa?: number,
+  what: 'final' | 'premix' = 'final',
+): Problem {
+  const { tank } = input;
+  const ratedPa = tank.ratedPressurePa!;
+  return {
+    code: 'design-conflict',
+    kind: 'above-rating',
+    what,
+    tank: tank.id,
+    pressurePa,
+    ratedPa,
+    workingLimitPa: ratedPa * (tank.workingFraction ?? 1),
+    bandPa,
+  };
+}
+
+/**
+ * Refuses a plan one of whose readings could be above the tank's rating: the top of its band
+ * (a reading anywhere inside the band is accepted) above the rating (aboveRating); the final
+ * pressure itself is refused by validatePlanInput.
+ */
+export function refuseBandsAboveRating(basis: PlanBasis, steps: readonly PlanStep[]): void {
+  const rated = basis.input.tank.ratedPressurePa;
+  if (rated === undefined) return;
+  const over = steps.find((s) => s.targetPa + s.bandPa > rated);
+  if (over) fail(aboveRating(basis.input, over.targetPa, over.bandPa), { field: 'pressure' });
+}
+
+/** refuses a premix tank's given final pressure above its rating (aboveRating), at the recipe's premix.pressure */
+export function refusePremixAboveRating(tank: TankSpec, pressurePa: number): void {
+  if (tank.ratedPressurePa !== undefined && pressurePa > tank.ratedPressurePa)
+    fail(aboveRating({ tank }, pressurePa, undefined, 'premix'), { field: 'premix.pressure' });
 }
