@@ -57,7 +57,15 @@ export const SHORT_OF_MIXTURE_CLAIM = shortOfMixtureClaim(true);
  * its --json) claims no more than was found. The plan's review (plan/review.ts `correctedReason`)
  * replaces it by what the full review of the planned fill finds.
  */
-export const ORDER_REVIEW_CLAIM = `by the order review, ${SHORT_OF_MIXTURE_CLAIM}`;
+export const ORDER_REVIEW_CLAIM = orderReviewClaim(true);
+
+/**
+ * an order review's claim qualified as the plan's review qualifies its own (limitsEstimated: whether
+ * the plan's review emitted a flammability-data-estimated note); ORDER_REVIEW_CLAIM is the qualified one
+ */
+export function orderReviewClaim(limitsEstimated: boolean): string {
+  return `by the order review, ${shortOfMixtureClaim(limitsEstimated)}`;
+}
 
 /** the opening of the advice's reason where no order is free of every hazard it checks */
 export const NO_SAFE_ORDER_OPENING = 'no fill order avoids every hazard checked';
@@ -79,9 +87,11 @@ export function describeSaferOrder(f: {
 }): string {
   const given = `${f.of ?? 'the order given'} makes flammable or hazardous intermediate states or fills; `;
   const advised = f.order.join(' -> ');
-  if (f.reason.endsWith(ORDER_REVIEW_CLAIM))
+  // the claim as the advice made it, or as the plan's review qualified it (plan/review.ts qualifiedClaims)
+  const claim = [ORDER_REVIEW_CLAIM, orderReviewClaim(false)].find((c) => f.reason.endsWith(c));
+  if (claim)
     return (
-      `${given}${advised} avoids them (${ORDER_REVIEW_CLAIM}; ` +
+      `${given}${advised} avoids them (${claim}; ` +
       `the finished mixture, the same in every order, is judged by the plan's own findings)`
     );
   if (f.reason.startsWith(NO_SAFE_ORDER_OPENING))

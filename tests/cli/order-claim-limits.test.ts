@@ -18,6 +18,14 @@ describe('the order claim on estimated flammability limits', () => {
     expect(r.stdout).toMatch(/note {4}flammability-data-estimated: .*n-C7H16 \(UFL in O2\)/);
     expect(r.stdout).toMatch(/note {4}flammability-data-estimated: .*n-C7H16 \(LOC = z x LFL\)/);
   });
+
+  it('n-heptane with --order: the safer-order warning qualifies its claim as the order reason does', async () => {
+    const r = await runCli(['plan', 'recipes/nc7h16-o2-ar.yaml', '--order', 'n-C7H16,O2,Ar']);
+    expect(r.code, r.stderr).toBe(3);
+    expect(r.stdout).toMatch(
+      /warning safer-order: .*avoids them \(by the order review, every intermediate tank state is non-flammable by the flammability limits used \(each estimated one is named in a flammability-data-estimated note\) and free/,
+    );
+  });
 });
 
 // the qualifier is said only where a limit was estimated: CH4, C2H4 and the natural-gas blend's fuels have
@@ -33,4 +41,13 @@ describe('the order claim on tabulated flammability limits', () => {
       expect(order).not.toContain('by the flammability limits used');
     },
   );
+
+  it('CH4 with --order: the safer-order warning states its claim unqualified (no limit estimated)', async () => {
+    const r = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--order', 'CH4,O2,Ar']);
+    expect(r.code, r.stderr).toBe(3);
+    const safer = r.stdout.split('\n').find((l) => l.includes('warning safer-order'))!;
+    expect(safer).toContain('is non-flammable and free of the hazards checked');
+    expect(safer).not.toContain('by the flammability limits used');
+    expect(r.stdout).not.toMatch(/flammability-data-estimated/);
+  });
 });

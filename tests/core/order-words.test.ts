@@ -2,12 +2,14 @@
 // "avoids them" for an advised order with hazards of its own, and never the given order's hazard again.
 // Wording only: no computed number is checked here.
 import { describe, expect, it } from 'vitest';
-import { describeFinding } from '../../src/core/index.js';
+import { describeFinding, planFill } from '../../src/core/index.js';
+import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import {
   cleanClaim,
   describeSaferOrder,
   NO_SAFE_ORDER_OPENING,
   ORDER_REVIEW_CLAIM,
+  orderReviewClaim,
   SHORT_OF_MIXTURE_CLAIM,
   shortOfMixtureClaim,
 } from '../../src/core/order-words.js';
@@ -88,5 +90,28 @@ describe('describeSaferOrder', () => {
       reason: ORDER_REVIEW_CLAIM,
     } as const;
     expect(describeFinding(f, (pa) => `${pa} Pa`)).toBe(describeSaferOrder(f));
+  });
+
+  it('a given order beaten by the advice: the safer-order claim qualified only where the plan estimated a limit', () => {
+    // the demo recipes in the order fuel, O2, Ar (flammable after the O2): CH4's limits are tabulated,
+    // n-C7H16's UFL in O2 and LOC are estimated (the review's flammability-data-estimated notes)
+    const given = (file: string, fuel: string) => {
+      const req = buildPlanRequest(readRecipe(file));
+      const src = (sp: string) => req.input.sources.find((x) => x.mainSpecies === sp)!;
+      return planFill({ ...req.input, order: 'given', sources: [fuel, 'O2', 'Ar'].map(src) });
+    };
+    for (const [file, fuel, estimated] of [
+      ['recipes/ch4-o2-ar-phi1.yaml', 'CH4', false],
+      ['recipes/nc7h16-o2-ar.yaml', 'n-C7H16', true],
+    ] as const) {
+      const plan = given(file, fuel);
+      expect(plan.findings.some((f) => f.code === 'flammability-data-estimated')).toBe(estimated);
+      const safer = plan.findings.find((f) => f.code === 'safer-order');
+      if (!safer || safer.code !== 'safer-order') throw new Error(`no safer-order for ${fuel}`);
+      expect(safer.reason.endsWith(orderReviewClaim(estimated))).toBe(true);
+      const words = describeFinding(safer, (pa) => `${pa} Pa`);
+      expect(words).toContain(`avoids them (${orderReviewClaim(estimated)};`);
+      expect(words.includes('by the flammability limits used')).toBe(estimated);
+    }
   });
 });

@@ -39,7 +39,7 @@ export function planResult(
     },
     steps: planned.steps,
     virial: basis.model,
-    findings: [...sequence.findings, ...planned.findings, ...review.findings],
+    findings: [...(review.sequenceFindings ?? sequence.findings), ...planned.findings, ...review.findings],
     tolerance: input.tolerance,
   };
 }

@@ -12,7 +12,7 @@ import { virialU } from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
 import { COMPARED_CLAIM, ORDER_RELEVANT, ORDER_REVIEW_CLAIM } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
-import { cleanClaim, shortOfMixtureClaim } from '../order-words.js';
+import { cleanClaim, orderReviewClaim, shortOfMixtureClaim } from '../order-words.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
 import { ProblemError } from '../problems.js';
 import type { PlanBasis } from './validate.js';
@@ -27,6 +27,12 @@ export interface PlanReview {
   readonly findings: readonly Finding[];
   /** the sequence's reason, corrected where the full review contradicts it */
   readonly orderReason: string;
+  /**
+   * the sequence's findings, a safer-order's claim qualified by the limits used only where the review
+   * estimated one of them, as the order reason's (qualifiedClaims); reviewPlan always gives them (a bare
+   * review without findings, search-eval.ts, leaves them out: the sequence's own are taken)
+   */
+  readonly sequenceFindings?: readonly Finding[];
 }
 
 /** below this mole fraction an impurity or an unidentified remainder is not reported */
@@ -52,7 +58,11 @@ export function reviewPlan(
   findings.push(...sourceFindings(basis, amounts, sequence));
   findings.push(...modelFindings(basis, steps));
   const all = [...sequence.findings, ...planned.findings, ...findings];
-  return { findings, orderReason: correctedReason(sequence.reason, all, steps) };
+  return {
+    findings,
+    orderReason: correctedReason(sequence.reason, all, steps),
+    sequenceFindings: qualifiedClaims(sequence.findings, all),
+  };
 }
 
 /**
@@ -202,6 +212,21 @@ export function correctedReason(
   if (reason.includes(COMPARED_CLAIM) && clause !== cleanClaim(limitsEstimated(findings)))
     return `${reason}; ${clause}`;
   return reason;
+}
+
+/**
+ * A safer-order finding's reason carries the advice's claim (ORDER_REVIEW_CLAIM), qualified by the
+ * limits used because the advice runs before any review knows whether a limit was estimated; here,
+ * with the plan's final findings known, it is qualified only where one was (limitsEstimated), the
+ * rule of the order reason (safetyClause). The advised order holds the same gases, so the same limits.
+ */
+export function qualifiedClaims(findings: readonly Finding[], all: readonly Finding[]): Finding[] {
+  const claim = orderReviewClaim(limitsEstimated(all));
+  return findings.map((f) =>
+    f.code === 'safer-order' && f.reason.includes(ORDER_REVIEW_CLAIM)
+      ? { ...f, reason: f.reason.replace(ORDER_REVIEW_CLAIM, claim) }
+      : f,
+  );
 }
 
 /** assumed purities, unidentified remainders, impurities, and fractions the sources cannot meet */
