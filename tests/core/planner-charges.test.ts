@@ -4,17 +4,15 @@ import {
   describeFinding,
   describeProblem,
   planFill,
-  ProblemError,
   type ChargeRequest,
   type PlanInput,
-  type Problem,
 } from '../../src/core/index.js';
 import { validatePlanInput } from '../../src/core/plan/validate.js';
 import { planAmounts } from '../../src/core/plan/amounts.js';
 import { chargeAmounts } from '../../src/core/plan/charges.js';
 import { chooseSplitPoints, splitHazards } from '../../src/core/plan/split-point.js';
 import { scoreGivenCharges } from '../../src/core/order.js';
-import { pureInput } from './planner-input.js';
+import { pureInput, refusal } from './planner-input.js';
 import { fixture, TORR } from '../helpers.js';
 
 const ref = fixture('split-charges-coolprop.json');
@@ -32,16 +30,6 @@ function caseInput(c: {
 function split(input: PlanInput, stopPa?: number): ChargeRequest[] {
   const [ch4, ar, o2] = input.sources;
   return [{ source: ch4 }, { source: ar, stopPa }, { source: o2 }, { source: ar }];
-}
-
-function refusal(f: () => unknown): { problem: Problem; field?: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof ProblemError) return { problem: e.problem, field: e.where.field };
-    throw e;
-  }
-  throw new Error('not refused');
 }
 
 describe('split charges with a given stop', () => {

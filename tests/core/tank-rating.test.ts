@@ -5,21 +5,11 @@
 // Our rule, after common practice (a pressure vessel is never filled past its rating); the numbers are
 // exact arithmetic on the plan's own band (tolerance 0 unless said).
 import { describe, expect, it } from 'vitest';
-import { describeProblem, planFill, planTwoStage, ProblemError, type Problem } from '../../src/core/index.js';
+import { describeProblem, planFill, planTwoStage } from '../../src/core/index.js';
 import { validatePlanInput } from '../../src/core/plan/validate.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
-import { workedInput } from './planner-input.js';
+import { refusal, workedInput } from './planner-input.js';
 import { TORR } from '../helpers.js';
-
-function refusal(f: () => unknown): { problem: Problem; field?: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof ProblemError) return { problem: e.problem, field: e.where.field };
-    throw e;
-  }
-  throw new Error('not refused');
-}
 
 // the worked vector: CH4, O2, Ar to 1000 Torr in a 10 L tank
 const input = workedInput();
