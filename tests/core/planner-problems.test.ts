@@ -3,22 +3,13 @@ import {
   allocate,
   describeProblem,
   designMixture,
-  ProblemError,
   pureCylinder,
   type Problem,
 } from '../../src/core/index.js';
+import { refusal as raised } from './planner-input.js';
 
 // the typed problems of the planner, design and supply: each condition its own kind with typed fields,
 // and the sentence it prints the same as the free-text reason it replaces (quoted here)
-function raised(f: () => unknown): { problem: Problem; field?: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof ProblemError) return { problem: e.problem, field: e.where.field };
-    throw e;
-  }
-  throw new Error('no problem raised');
-}
 
 const base = { kind: 'phi' as const, fuel: { CH4: 1 }, oxidizer: { O2: 1 }, diluent: { Ar: 1 } };
 const dilution = (value: number) => ({ kind: 'dilution' as const, value });
