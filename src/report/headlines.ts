@@ -103,8 +103,10 @@ function bandEdgesHeadline(plan: Plan, brief: boolean): string[] {
   );
   if (!f) return [];
   const share = `${Number((f.share * 100).toPrecision(2))} %`;
+  // a two-stage plan says it under its first line, above both stages: this is the batch's (stage 2)
+  const which = plan.twoStage ? ' OF STAGE 2 (THE BATCH)' : '';
   return [
-    `READINGS INSIDE EVERY BAND CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
+    `READINGS INSIDE EVERY BAND${which} CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
       `target. Filling from the table, read each fill within ${share} of its band; the guided fill ` +
       `(\`mixwright fill\`) re-targets from each reading instead` +
       ` (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
