@@ -5,6 +5,7 @@
  */
 import { describeFinding, type Finding, type Plan } from '../core/index.js';
 import { pressure } from './format.js';
+import { passedOverFor } from './two-stage-text.js';
 import type { PressureUnit } from './units.js';
 
 const dangersOf = (fs: readonly Finding[]): Finding[] => fs.filter((f) => f.severity === 'danger');
@@ -81,7 +82,7 @@ export function toleranceHeadline(plan: Plan, unit: PressureUnit, brief = false)
   const search = !t
     ? ''
     : m && m.worstRatio <= 1
-      ? ` A premix choice that meets it was passed over for its warnings (${m.warnings.join(', ')}; below).`
+      ? ` A premix choice that meets it was passed over for its ${passedOverFor(m)} (below).`
       : ` None of the ${t.candidates} premix choices planned without a danger meets it.`;
   const head =
     `CANNOT MEET ITS TOLERANCE (${over.map((f) => `x(${f.species})`).join(', ')}): even readings ` +
