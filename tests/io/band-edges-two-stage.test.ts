@@ -54,7 +54,7 @@ describe('readings at the band edges, taken together, in two stages', () => {
     expect(worst2.stack).toBeGreaterThan(worst2.room);
     expect(f2!.bands.map((x) => x.step)).toEqual(plan.steps.map((s) => s.index));
     rmSync(dir, { recursive: true });
-  });
+  }, 180_000);
 
   it('the text names the batch (stage 2) in the headline above both stages, and stage 1 under its own line', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-bands2-'));
@@ -71,7 +71,7 @@ describe('readings at the band edges, taken together, in two stages', () => {
     const single = await runCli(['plan', file]);
     expect(single.stdout.split('\n')[1]).toMatch(/^READINGS INSIDE EVERY BAND CAN STILL FAIL TOGETHER/);
     rmSync(dir, { recursive: true });
-  });
+  }, 180_000);
 
   it('a batch planned from a premix log (--premix-log) carries it too', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'mw-bands2-'));
@@ -83,7 +83,7 @@ describe('readings at the band edges, taken together, in two stages', () => {
     expect(f?.share).toBeGreaterThan(0);
     expect(f!.share).toBeLessThan(1);
     rmSync(dir, { recursive: true });
-  });
+  }, 180_000);
 
   it('check judges the mole fractions only: phi and the dilution neither set the share nor hold the finding back', () => {
     // verdict.ts judge(): pass or fail from the design mole fractions; phi and the dilution are shown only
@@ -113,5 +113,5 @@ describe('readings at the band edges, taken together, in two stages', () => {
     // rounded down to two significant digits, as printed
     expect(c.f!.share).toBeLessThanOrEqual(exact);
     expect(c.f!.share).toBeGreaterThan(exact * 0.9);
-  });
+  }, 180_000);
 });
