@@ -227,8 +227,17 @@ export type Finding = Base &
         readonly expandedU: number;
         /** the share of every band inside which every quantity stays within its tolerance less U */
         readonly share: number;
-        /** each fill's band half-width times the share, Pa */
-        readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
+        /**
+         * each fill's band half-width times the share, Pa; its gauge and display step, and whether the
+         * half-width is at most half that step (no displayed value can be read to it)
+         */
+        readonly bands: readonly {
+          readonly step: number;
+          readonly halfWidthPa: number;
+          readonly gauge?: string;
+          readonly displayStepPa?: number;
+          readonly finerThanDisplay: boolean;
+        }[];
       }
     // raised by the split-point search (plan/split-point.ts)
     | {

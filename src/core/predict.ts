@@ -268,7 +268,20 @@ export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undef
     tolerance: worst.r.tolerance,
     expandedU: worst.r.expandedU,
     share,
-    bands: plan.steps.map((s) => ({ step: s.index, halfWidthPa: share * s.bandPa })),
+    bands: plan.steps.map((s) => {
+      const halfWidthPa = share * s.bandPa;
+      // a displayed value is known to half its display step: a narrower half-width cannot be read to
+      const step = s.gauge?.resolutionPa;
+      return step === undefined
+        ? { step: s.index, halfWidthPa, finerThanDisplay: false }
+        : {
+            step: s.index,
+            halfWidthPa,
+            gauge: s.gauge!.id,
+            displayStepPa: step,
+            finerThanDisplay: halfWidthPa <= step / 2,
+          };
+    }),
   };
 }
 

@@ -106,10 +106,16 @@ function bandEdgesHeadline(plan: Plan, brief: boolean): string[] {
   const share = `${Number((f.share * 100).toPrecision(2))} %`;
   // a two-stage plan says it under its first line, above both stages: this is the batch's (stage 2)
   const which = plan.twoStage ? ' OF STAGE 2 (THE BATCH)' : '';
+  // a share finer than a gauge displays cannot be kept to from the table: said, not left to be found out
+  const finer = f.bands.filter((b) => b.finerThanDisplay).map((b) => b.step);
+  const table = finer.length
+    ? `Filling from the table, each fill must be read within ${share} of its band, finer than the gauge ` +
+      `displays for fill${finer.length > 1 ? 's' : ''} ${finer.join(', ')}: fill with the guided fill ` +
+      `(\`mixwright fill\`), which re-targets from each reading`
+    : `Filling from the table, read each fill within ${share} of its band; the guided fill ` +
+      `(\`mixwright fill\`) re-targets from each reading instead`;
   return [
     `READINGS INSIDE EVERY BAND${which} CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
-      `target. Filling from the table, read each fill within ${share} of its band; the guided fill ` +
-      `(\`mixwright fill\`) re-targets from each reading instead` +
-      ` (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
+      `target. ${table} (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
   ];
 }

@@ -14,8 +14,7 @@ import { bandEdgeStacks, type Finding, type Plan } from '../../src/core/index.js
 import { runCli } from '../helpers.js';
 
 type Edges = Extract<Finding, { code: 'band-edges-past-tolerance' }>;
-const edgesOf = (p: Plan) =>
-  p.findings.find((x): x is Edges => x.code === 'band-edges-past-tolerance');
+const edgesOf = (p: Plan) => p.findings.find((x): x is Edges => x.code === 'band-edges-past-tolerance');
 
 /** the demo recipe at 1.5 % relative tolerance (room beside U: the finding can be given), with a premix block */
 function recipeAt15(dir: string, premix = ''): string {
@@ -113,5 +112,40 @@ describe('readings at the band edges, taken together, in two stages', () => {
     // rounded down to two significant digits, as printed
     expect(c.f!.share).toBeLessThanOrEqual(exact);
     expect(c.f!.share).toBeGreaterThan(exact * 0.9);
+  }, 180_000);
+
+  it('a shared half-width at most half a display step is named: no reading from the sheet can keep to it', async () => {
+    // the demo recipe in two stages (MT-2), tolerance 0.5 %: the batch's fill 1 (CH4, about 10 Torr on head-1kT,
+    // display step 0.01 Torr in the demo lab) gets a shared half-width of a few thousandths of a Torr
+    const r = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--premix-tank', 'MT-2', '--json']);
+    expect(r.code).toBe(0);
+    const json = JSON.parse(r.stdout) as {
+      findings: {
+        code: string;
+        bands?: {
+          step: number;
+          half_width_Pa: number;
+          gauge?: string;
+          display_step_Pa?: number;
+          finer_than_display: boolean;
+        }[];
+      }[];
+    };
+    const f = json.findings.find((x) => x.code === 'band-edges-past-tolerance')!;
+    const TORR = 101325 / 760;
+    for (const b of f.bands!) {
+      expect(b.finer_than_display).toBe(
+        b.display_step_Pa !== undefined && b.half_width_Pa <= b.display_step_Pa / 2,
+      );
+    }
+    const one = f.bands!.find((b) => b.step === 1)!;
+    expect(one.gauge).toBe('head-1kT');
+    expect(one.display_step_Pa! / TORR).toBeCloseTo(0.01, 9);
+    expect(one.finer_than_display).toBe(true);
+    const text = await runCli(['plan', 'recipes/ch4-o2-ar-phi1.yaml', '--premix-tank', 'MT-2']);
+    expect(text.stdout.split('\n')[1]).toMatch(
+      /finer than the gauge displays for fill 1: fill with the guided fill/,
+    );
+    expect(text.stdout).toMatch(/fill 1's is finer than head-1kT displays \(step 0\.01\d* Torr\)/);
   }, 180_000);
 });
