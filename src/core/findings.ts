@@ -683,12 +683,19 @@ type WordingTable<C extends FindingCode> = { readonly [K in C]: Wording<K> };
 const TANK_AND_GAUGES: WordingTable<
   'tank-over-rating' | 'tank-warms-past-limit' | 'no-gauge-covers' | 'tank-rating-unknown' | 'isolate-gauge'
 > = {
-  'tank-warms-past-limit': (f, p) =>
-    `filled to ${p(f.pressurePa)} (the top of the last fill's band) at ${kelvin(f.fillK)}, the tank warms ` +
-    `to ${kelvin(f.warmK)} ${f.assumed ? '(standard ambient: the lab profile gives no warmest temperature) ' : "(the lab profile's warmest) "}` +
-    `and holds ${p(f.warmPa)} there, above ${f.warmPa > f.ratedPa ? `its rating ${p(f.ratedPa)}` : `the allowed working pressure ${p(f.limitPa)}`} ` +
-    `of ${tankPhrase(f.tank)}${f.warmPa > f.ratedPa ? '' : ` (rated ${p(f.ratedPa)})`}; at this fill temperature keep the band's top ` +
-    `at or below ${p(f.maxFillPa)} (a lower final pressure), or fill at the warmer temperature`,
+  'tank-warms-past-limit': (f, p) => {
+    const why = f.assumed
+      ? 'standard ambient: the lab profile gives no warmest temperature'
+      : "the lab profile's warmest";
+    const rated = f.warmPa > f.ratedPa;
+    const above = rated ? `its rating ${p(f.ratedPa)}` : `the allowed working pressure ${p(f.limitPa)}`;
+    return (
+      `filled to ${p(f.pressurePa)} (the top of the last fill's band) at ${kelvin(f.fillK)}, the tank warms ` +
+      `to ${kelvin(f.warmK)} (${why}) and holds ${p(f.warmPa)} there, above ${above} ` +
+      `of ${tankPhrase(f.tank)}${rated ? '' : ` (rated ${p(f.ratedPa)})`}; at this fill temperature keep the ` +
+      `band's top at or below ${p(f.maxFillPa)} (a lower final pressure), or fill at the warmer temperature`
+    );
+  },
   'tank-over-rating': (f, p) =>
     `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
     `of ${tankPhrase(f.tank)} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
