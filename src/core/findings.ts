@@ -27,6 +27,22 @@ export type Finding = Base &
         readonly ratedPa: number;
         readonly tank: string;
       }
+    | {
+        readonly code: 'tank-warms-past-limit';
+        /** the top of the last fill's band, at the fill temperature */
+        readonly pressurePa: number;
+        readonly fillK: number;
+        /** the warmest temperature the filled tank reaches, and its pressure there (the same gas) */
+        readonly warmK: number;
+        readonly warmPa: number;
+        /** true when the lab profile gives no warmest temperature (standard ambient or the fill's) */
+        readonly assumed: boolean;
+        /** the highest band top at the fill temperature that stays at the working limit when warm */
+        readonly maxFillPa: number;
+        readonly limitPa: number;
+        readonly ratedPa: number;
+        readonly tank: string;
+      }
     | { readonly code: 'no-gauge-covers'; readonly pressurePa: number }
     | { readonly code: 'purity-assumed'; readonly source: string; readonly species: string }
     | { readonly code: 'unidentified-impurity'; readonly fraction: number }
@@ -211,8 +227,17 @@ export type Finding = Base &
         readonly expandedU: number;
         /** the share of every band inside which every quantity stays within its tolerance less U */
         readonly share: number;
-        /** each fill's band half-width times the share, Pa */
-        readonly bands: readonly { readonly step: number; readonly halfWidthPa: number }[];
+        /**
+         * each fill's band half-width times the share, Pa; its gauge and display step, and whether the
+         * half-width is at most half that step (no displayed value can be read to it)
+         */
+        readonly bands: readonly {
+          readonly step: number;
+          readonly halfWidthPa: number;
+          readonly gauge?: string;
+          readonly displayStepPa?: number;
+          readonly finerThanDisplay: boolean;
+        }[];
       }
     // raised by the split-point search (plan/split-point.ts)
     | {
@@ -668,8 +693,21 @@ type Wording<C extends FindingCode> = (f: Finding & { readonly code: C }, p: Pre
 type WordingTable<C extends FindingCode> = { readonly [K in C]: Wording<K> };
 
 const TANK_AND_GAUGES: WordingTable<
-  'tank-over-rating' | 'no-gauge-covers' | 'tank-rating-unknown' | 'isolate-gauge'
+  'tank-over-rating' | 'tank-warms-past-limit' | 'no-gauge-covers' | 'tank-rating-unknown' | 'isolate-gauge'
 > = {
+  'tank-warms-past-limit': (f, p) => {
+    const why = f.assumed
+      ? 'standard ambient: the lab profile gives no warmest temperature'
+      : "the lab profile's warmest";
+    const rated = f.warmPa > f.ratedPa;
+    const above = rated ? `its rating ${p(f.ratedPa)}` : `the allowed working pressure ${p(f.limitPa)}`;
+    return (
+      `filled to ${p(f.pressurePa)} (the top of the last fill's band) at ${kelvin(f.fillK)}, the tank warms ` +
+      `to ${kelvin(f.warmK)} (${why}) and holds ${p(f.warmPa)} there, above ${above} ` +
+      `of ${tankPhrase(f.tank)}${rated ? '' : ` (rated ${p(f.ratedPa)})`}; at this fill temperature keep the ` +
+      `band's top at or below ${p(f.maxFillPa)} (a lower final pressure), or fill at the warmer temperature`
+    );
+  },
   'tank-over-rating': (f, p) =>
     `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
     `of ${tankPhrase(f.tank)} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +

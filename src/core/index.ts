@@ -248,6 +248,7 @@ export {
   predictionFindings,
   bandEdgesFinding,
   bandEdgeStacks,
+  withBandEdges,
   predictionOf,
   predictPlan,
   withPrediction,

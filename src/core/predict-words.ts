@@ -124,5 +124,12 @@ export function describeBandEdges(f: BandEdges, p: (pa: number) => string): stri
     `less U ${relPct(f.expandedU / f.design)})`;
   const guided = 'fill with `mixwright fill`, which re-targets the later fills from each reading';
   const bands = f.bands.map((b) => `fill ${b.step} +-${p(b.halfWidthPa)}`).join(', ');
-  return `${head}. From the sheet, read each fill within ${relPct(f.share)} of its band (${bands}); or ${guided}`;
+  const finer = f.bands.filter((b) => b.finerThanDisplay);
+  const finerOne = (b: BandEdges['bands'][number]) =>
+    `fill ${b.step}'s is finer than ${b.gauge} displays (step ${p(b.displayStepPa!)})`;
+  const cannot = finer.length
+    ? `; ${finer.map(finerOne).join(', ')}: no reading from the sheet can keep to ` +
+      `${finer.length > 1 ? 'them' : 'it'}, so`
+    : '; or';
+  return `${head}. From the sheet, read each fill within ${relPct(f.share)} of its band (${bands})${cannot} ${guided}`;
 }

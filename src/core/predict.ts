@@ -239,12 +239,15 @@ export function bandEdgeStacks(
  * predicted-u-over-tolerance says so).
  */
 export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undefined {
+  // check passes or fails the design mole fractions only (verdict.ts judge): phi and the dilution are
+  // shown beside them, not judged, so their rows set no room here
+  const judged = (r: PredictedRow) => r.kind === 'fraction';
   // a quantity whose U alone fills its tolerance passes on no readings: the plan says so already
   // (predicted-u-over-tolerance), and no share of the bands would help (nor is the model run for it)
-  if (p.rows.some((r) => !(r.tolerance - r.expandedU > 0))) return undefined;
+  if (p.rows.some((r) => judged(r) && !(r.tolerance - r.expandedU > 0))) return undefined;
   const rows = bandEdgeStacks(plan, p);
   if (!rows) return undefined;
-  const roomy = rows.filter((x) => Number.isFinite(x.stack));
+  const roomy = rows.filter((x) => judged(x.r) && Number.isFinite(x.stack));
   if (!roomy.length) return undefined;
   const worst = roomy.reduce((a, b) => (b.stack / b.room > a.stack / a.room ? b : a));
   if (!(worst.stack > worst.room)) return undefined;
@@ -265,8 +268,34 @@ export function bandEdgesFinding(plan: Plan, p: PlanPrediction): Finding | undef
     tolerance: worst.r.tolerance,
     expandedU: worst.r.expandedU,
     share,
-    bands: plan.steps.map((s) => ({ step: s.index, halfWidthPa: share * s.bandPa })),
+    bands: plan.steps.map((s) => {
+      const halfWidthPa = share * s.bandPa;
+      // a displayed value is known to half its display step: a narrower half-width cannot be read to
+      const step = s.gauge?.resolutionPa;
+      return step === undefined
+        ? { step: s.index, halfWidthPa, finerThanDisplay: false }
+        : {
+            step: s.index,
+            halfWidthPa,
+            gauge: s.gauge!.id,
+            displayStepPa: step,
+            finerThanDisplay: halfWidthPa <= step / 2,
+          };
+    }),
   };
+}
+
+/**
+ * The plan with bandEdgesFinding when its bands can fail together, placed after the warnings (before
+ * the first note, as the planner lists findings); the plan unchanged otherwise. For any predicted plan:
+ * a single tank, each stage of a two-stage plan, a batch from a premix log.
+ */
+export function withBandEdges(plan: PredictedPlan): PredictedPlan {
+  const edges = plan.predicted && bandEdgesFinding(plan, plan.predicted);
+  if (!edges) return plan;
+  const at = plan.findings.findIndex((f) => f.severity === 'note');
+  const cut = at < 0 ? plan.findings.length : at;
+  return { ...plan, findings: [...plan.findings.slice(0, cut), edges, ...plan.findings.slice(cut)] };
 }
 
 /** a plan that carries its predicted uncertainty (or why there is none) */

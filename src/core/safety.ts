@@ -164,8 +164,9 @@ export function reviewState(
   const xO2 = (y.O2 ?? 0) + N2O_OXYGEN_EQUIVALENT * (y.N2O ?? 0);
   if (xO2 > OXYGEN_ENRICHED_ABOVE)
     out.push({ severity: 'note', code: 'oxygen-enriched', step, oxygenFraction: xO2 });
-  // condensation of each species below its critical temperature
-  const cold = ctx.coldestK ?? ctx.temperatureK;
+  // condensation of each species below its critical temperature, at the coldest wetted point: the lab's
+  // coldest, or the state's own temperature where it is colder (a fill made colder than the profile says)
+  const cold = coldestOf(ctx);
   const frac = ctx.condensationFraction ?? DEFAULT_CONDENSATION_FRACTION;
   for (const [k, v] of Object.entries(y)) {
     if (v <= 0) continue;
@@ -190,12 +191,17 @@ export function reviewState(
   return { findings: out, flammability: a };
 }
 
+/** the coldest wetted temperature: the lab profile's, or the state's own where that is colder */
+function coldestOf(ctx: SafetyContext): number {
+  return Math.min(ctx.coldestK ?? ctx.temperatureK, ctx.temperatureK);
+}
+
 /** hazards of the fill itself: its line, compression heating of the gas it compresses, oxygen service */
 export function reviewFill(e: FillEvent, ctx: SafetyContext): Finding[] {
   const out: Finding[] = [];
   const step = e.step;
   const src = e.sourceComposition;
-  const cold = ctx.coldestK ?? ctx.temperatureK;
+  const cold = coldestOf(ctx);
   const frac = ctx.condensationFraction ?? DEFAULT_CONDENSATION_FRACTION;
   // the line of a pure vapour or gas holds it at (at least) the pressure the tank reaches
   const main = Object.entries(src).reduce((a, b) => (b[1] > a[1] ? b : a))[0];

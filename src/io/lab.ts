@@ -112,6 +112,11 @@ export const labSchema = z
       'coldest temperature any wetted part (tank, lines, gauge heads) reaches, for the condensation check',
       '18 degC',
     ).optional(),
+    warmest: quantity(
+      'warmest temperature a filled tank reaches in storage or use (the room in summer, sunlight, a heated ' +
+        'line), for the pressure check of the filled tank; default 25 degC (standard ambient, common practice)',
+      '30 degC',
+    ).optional(),
     condensation_fraction: z
       .number()
       .gt(0)

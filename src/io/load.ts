@@ -105,6 +105,8 @@ export interface LoadedLab {
   readonly cylinders: readonly GasSource[];
   /** coldest wetted temperature of tank, lines and gauge heads, K */
   readonly coldestK?: number;
+  /** warmest temperature a filled tank reaches, K */
+  readonly warmestK?: number;
   /** tank thermometer: standard uncertainty and resolution, K; undefined when the profile gives none */
   readonly thermometer?: {
     readonly uncertaintyK: number;
@@ -363,6 +365,10 @@ export function loadLab(file?: string): LoadedLab {
       lab.coldest === undefined
         ? undefined
         : parseQuantity(lab.coldest, 'temperature', w(['coldest'], 'coldest')),
+    warmestK:
+      lab.warmest === undefined
+        ? undefined
+        : parseQuantity(lab.warmest, 'temperature', w(['warmest'], 'warmest')),
     thermometer: thermometerOf(lab, w),
     condensationFraction: lab.condensation_fraction,
     gaugeConversions: gaugeCtx.conversions!,
@@ -808,7 +814,11 @@ export function buildPlanRequest(
     sources: supply.sources,
     order: r.order ? 'given' : 'recommend',
     charges: supply.charges,
-    safety: { coldestK: lab.coldestK, condensationFraction: lab.condensationFraction },
+    safety: {
+      coldestK: lab.coldestK,
+      condensationFraction: lab.condensationFraction,
+      warmestK: lab.warmestK,
+    },
     inTank,
     gauges: lab.gauges,
     reading: {

@@ -4,11 +4,11 @@
  * the core's prediction. One call after planFill: `planWithPrediction(planFill(req.input), req)`.
  */
 import {
-  bandEdgesFinding,
   DEFAULT_TEMPERATURE_SETTLING_K,
   describeProblem,
   predictPlan,
   ProblemError,
+  withBandEdges,
   withPrediction,
   type Plan,
   type PredictedPlan,
@@ -55,14 +55,8 @@ export function predictionInput(plan: Plan, req: PlanRequest): PredictionInput {
  */
 export function planWithPrediction(plan: Plan, req: PlanRequest): PredictedPlan {
   try {
-    const predicted = predictPlan(predictionInput(plan, req));
-    const out = withPrediction(plan, predicted);
     // readings inside every band, taken together (a paper fill reads each later fill to its printed target)
-    const edges = predicted && bandEdgesFinding(plan, predicted);
-    if (!edges) return out;
-    const at = out.findings.findIndex((f) => f.severity === 'note');
-    const cut = at < 0 ? out.findings.length : at;
-    return { ...out, findings: [...out.findings.slice(0, cut), edges, ...out.findings.slice(cut)] };
+    return withBandEdges(withPrediction(plan, predictPlan(predictionInput(plan, req))));
   } catch (e) {
     if (e instanceof ProblemError) return withPrediction(plan, undefined, describeProblem(e.problem));
     throw e;

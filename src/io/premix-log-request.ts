@@ -12,6 +12,7 @@ import {
   premixDelivery,
   ProblemError,
   relocate,
+  withBandEdges,
   type GasSource,
   type PredictedPlan,
   type Where,
@@ -121,8 +122,9 @@ export function planFromPremixLog(req: PlanRequest, ask: PremixLogAsk, rec: Prem
       log: ask.named,
     });
     const r = rec.result;
+    // the batch's readings inside their bands, taken together, as for any plan (withBandEdges)
     return {
-      ...planned.batch,
+      ...withBandEdges(planned.batch),
       premixLog: {
         log: ask.named,
         path: rec.path,

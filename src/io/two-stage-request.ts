@@ -8,6 +8,7 @@ import {
   fail,
   planTwoStage,
   ProblemError,
+  withBandEdges,
   relocate,
   resolveSpeciesKey,
   type Finding,
@@ -70,8 +71,9 @@ export function twoStageInputOf(req: PlanRequest, rs: RecipeSource): TwoStageInp
 
 /** the batch plan (stage 2) carrying its stage 1 */
 export function asBatchPlan(two: TwoStagePlan): PredictedPlan {
-  const { batch, ...rest } = two;
-  return { ...batch, twoStage: rest };
+  const { batch, premix, ...rest } = two;
+  // each stage's readings inside its bands, taken together, as for a single tank (withBandEdges)
+  return { ...withBandEdges(batch), twoStage: { ...rest, premix: withBandEdges(premix) } };
 }
 
 /** plan both stages, a refusal pointed at the recipe's premix block (or the option) */

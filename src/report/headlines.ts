@@ -5,6 +5,7 @@
  */
 import { describeFinding, type Finding, type Plan } from '../core/index.js';
 import { pressure } from './format.js';
+import { passedOverFor } from './two-stage-text.js';
 import type { PressureUnit } from './units.js';
 
 const dangersOf = (fs: readonly Finding[]): Finding[] => fs.filter((f) => f.severity === 'danger');
@@ -81,7 +82,7 @@ export function toleranceHeadline(plan: Plan, unit: PressureUnit, brief = false)
   const search = !t
     ? ''
     : m && m.worstRatio <= 1
-      ? ` A premix choice that meets it was passed over for its warnings (${m.warnings.join(', ')}; below).`
+      ? ` A premix choice that meets it was passed over for its ${passedOverFor(m)} (below).`
       : ` None of the ${t.candidates} premix choices planned without a danger meets it.`;
   const head =
     `CANNOT MEET ITS TOLERANCE (${over.map((f) => `x(${f.species})`).join(', ')}): even readings ` +
@@ -103,10 +104,18 @@ function bandEdgesHeadline(plan: Plan, brief: boolean): string[] {
   );
   if (!f) return [];
   const share = `${Number((f.share * 100).toPrecision(2))} %`;
+  // a two-stage plan says it under its first line, above both stages: this is the batch's (stage 2)
+  const which = plan.twoStage ? ' OF STAGE 2 (THE BATCH)' : '';
+  // a share finer than a gauge displays cannot be kept to from the table: said, not left to be found out
+  const finer = f.bands.filter((b) => b.finerThanDisplay).map((b) => b.step);
+  const table = finer.length
+    ? `Filling from the table, each fill must be read within ${share} of its band, finer than the gauge ` +
+      `displays for fill${finer.length > 1 ? 's' : ''} ${finer.join(', ')}: fill with the guided fill ` +
+      `(\`mixwright fill\`), which re-targets from each reading`
+    : `Filling from the table, read each fill within ${share} of its band; the guided fill ` +
+      `(\`mixwright fill\`) re-targets from each reading instead`;
   return [
-    `READINGS INSIDE EVERY BAND CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
-      `target. Filling from the table, read each fill within ${share} of its band; the guided fill ` +
-      `(\`mixwright fill\`) re-targets from each reading instead` +
-      ` (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
+    `READINGS INSIDE EVERY BAND${which} CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
+      `target. ${table} (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
   ];
 }

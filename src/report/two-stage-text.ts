@@ -40,7 +40,16 @@ function choiceLine(t: TwoStage, unit: PressureUnit): string {
   );
 }
 
-/** the more precise choice the search passed over for its warnings, if any */
+/** what the more precise choice was passed over for: "warnings (a, b)", "notes (c)" or both */
+export function passedOverFor(m: { readonly warnings: readonly string[]; readonly notes: readonly string[] }): string {
+  const parts = [
+    ...(m.warnings.length ? [`warnings (${m.warnings.join(', ')})`] : []),
+    ...(m.notes.length ? [`notes (${m.notes.join(', ')})`] : []),
+  ];
+  return parts.length ? parts.join(' and ') : 'more findings';
+}
+
+/** the more precise choice the search passed over for its warnings or notes, if any */
 function alternativeLine(t: TwoStage, unit: PressureUnit): string[] {
   const m = t.mostPrecise;
   if (!m) return [];
@@ -48,7 +57,7 @@ function alternativeLine(t: TwoStage, unit: PressureUnit): string[] {
   const share = gases.reduce((a, k) => a + (m.choice.composition[k] ?? 0), 0);
   return [
     `            a more precise choice (worst U ${fixedSig(m.worstRatio * 100, 2)} % of its tolerance) ` +
-      `has warnings (${m.warnings.join(', ')}): ${fixedSig(share * 100, 3)} % ${gases.join('+')}, ` +
+      `has ${passedOverFor(m)}: ${fixedSig(share * 100, 3)} % ${gases.join('+')}, ` +
       `${pressure(m.choice.pressurePa, unit, 4)}, order ${m.choice.order} (premix: fraction, pressure, order)`,
   ];
 }
@@ -141,6 +150,7 @@ export function twoStageJson(
       ? {
           worst_u_over_tolerance: t.mostPrecise.worstRatio,
           warnings: t.mostPrecise.warnings,
+          notes: t.mostPrecise.notes,
           gases: t.mostPrecise.choice.species,
           composition: t.mostPrecise.choice.composition,
           pressure_Pa: t.mostPrecise.choice.pressurePa,

@@ -188,10 +188,12 @@ describe('mixwright plan --premix-tank', () => {
     expect(r.code).toBe(0);
     const t = JSON.parse(r.stdout).two_stage;
     expect(t.premix.composition.O2).toBeCloseTo(0.2, 3);
+    // no hazard warning: band-edges-past-tolerance, added to each stage of the chosen plan after the search
+    // (how closely a paper fill must read its bands, not a hazard of the choice), is left aside
     const warnings = t.stages.flatMap((s: { findings: { severity: string; code: string }[] }) =>
       s.findings.filter((f) => f.severity === 'warning').map((f) => f.code),
     );
-    expect(warnings).toEqual([]);
+    expect(warnings.filter((k: string) => k !== 'band-edges-past-tolerance')).toEqual([]);
     // the design fractions are judged against the tolerance (phi and the dilution are shown, not judged: null)
     const rows: { kind: string; within_tolerance: boolean | null }[] = t.stages[1].predicted.rows;
     expect(rows.filter((x) => x.kind === 'fraction').length).toBe(3);

@@ -108,5 +108,5 @@ describe('readings at the band edges, taken together', () => {
     const edges = plan.steps.map((s, i) => s.targetPa + sign[i] * s.bandPa);
     expect(await check(edges, 'edges')).not.toBe(0);
     rmSync(dir, { recursive: true });
-  });
+  }, 180_000);
 });

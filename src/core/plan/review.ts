@@ -8,7 +8,14 @@
  */
 import { R } from '../constants.js';
 import type { VirialModel } from '../mixture-eos.js';
-import { virialU } from '../mixture-eos.js';
+import {
+  bMix,
+  cMix,
+  densityFromPressure,
+  pressureFromDensity,
+  virialModel,
+  virialU,
+} from '../mixture-eos.js';
 import type { Finding, FindingCode } from '../findings.js';
 import { COMPARED_CLAIM, ORDER_RELEVANT, ORDER_REVIEW_CLAIM } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
@@ -73,7 +80,7 @@ function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[]
   const { tank } = basis.input;
   const limitPa = basis.workingLimitPa;
   if (tank.ratedPressurePa === undefined || limitPa === undefined) return [];
-  return steps
+  const over: Finding[] = steps
     .filter((s) => s.targetPa + s.bandPa > limitPa)
     .map((s) => ({
       severity: 'danger',
@@ -84,6 +91,55 @@ function ratingFindings(basis: PlanBasis, steps: readonly PlanStep[]): Finding[]
       ratedPa: tank.ratedPressurePa!,
       tank: tank.id,
     }));
+  // once a band's top passes the limit at the fill temperature that is said; warming it is said too where
+  // it passes the rating
+  const warm = warmFinding(basis, steps[steps.length - 1], limitPa);
+  return warm && (!over.length || warm.severity === 'danger') ? [...over, warm] : over;
+}
+
+/** standard ambient temperature, K (IUPAC SATP: common practice for "room temperature") */
+export const STANDARD_AMBIENT_K = 298.15;
+
+/**
+ * The filled tank as it warms: a tank filled colder than the warmest temperature it reaches (the lab
+ * profile's `warmest`, else standard ambient) holds the same gas at a higher pressure there (constant
+ * density: P = rho R T Z(rho, T), the virial series at each temperature). A warning when the last band's
+ * top, warmed, passes the working limit; a danger when it passes the rating. None when the fill is at or
+ * above that temperature.
+ */
+function warmFinding(basis: PlanBasis, last: PlanStep | undefined, limitPa: number): Finding | undefined {
+  const { tank } = basis.input;
+  const T = basis.temperatureK;
+  const given = basis.input.safety?.warmestK;
+  const Tw = Math.max(given ?? STANDARD_AMBIENT_K, T);
+  if (!last || !(Tw > T) || tank.ratedPressurePa === undefined) return undefined;
+  const y = last.compositionAfter;
+  const warmModel = virialModel(basis.species, Tw);
+  const warmAt = (pa: number) => {
+    const rho = densityFromPressure(pa, T, bMix(basis.model, y), cMix(basis.model, y));
+    return pressureFromDensity(rho, Tw, bMix(warmModel, y), cMix(warmModel, y));
+  };
+  const topPa = last.targetPa + last.bandPa;
+  const warmPa = warmAt(topPa);
+  if (!(warmPa > limitPa)) return undefined;
+  // the band top whose warm pressure is the limit: one Newton step from the proportional guess, with the
+  // proportional law's slope (the virial terms move the answer by parts in 1e4, the step leaves ~1e-8)
+  const guess = (topPa * limitPa) / warmPa;
+  const maxFillPa = guess - ((warmAt(guess) - limitPa) * guess) / warmAt(guess);
+  return {
+    severity: warmPa > tank.ratedPressurePa ? 'danger' : 'warning',
+    code: 'tank-warms-past-limit',
+    step: last.index,
+    pressurePa: topPa,
+    fillK: T,
+    warmK: Tw,
+    warmPa,
+    assumed: given === undefined,
+    maxFillPa,
+    limitPa,
+    ratedPa: tank.ratedPressurePa,
+    tank: tank.id,
+  };
 }
 
 /** safety reviews kept by everything they review (safetyFindings' states, fills, context and depth) */
@@ -139,6 +195,7 @@ const STATE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   ...[...ORDER_RELEVANT].filter((c) => !FILL_CODES.has(c)),
   'flammable-mixture',
   'tank-over-rating',
+  'tank-warms-past-limit',
 ]);
 
 /** "flammable-state (fill 3), tank-over-rating (fills 2, 3)" */

@@ -82,6 +82,8 @@ export interface TwoStagePlan {
     readonly choice: PremixChoice;
     readonly worstRatio: number;
     readonly warnings: readonly Finding['code'][];
+    /** its notes that the chosen choice does not have */
+    readonly notes: readonly Finding['code'][];
   };
 }
 
@@ -638,12 +640,24 @@ export function planTwoStage(
       ? {
           choice: p.choice,
           worstRatio: p.worstRatio,
-          warnings: [...p.premix.findings, ...p.batch.findings]
-            .filter((f) => f.severity === 'warning')
-            .map((f) => f.code),
+          warnings: codesOf(p, 'warning'),
+          // the notes it has more of than the chosen one (the ranking counts notes too: an oxygen-enriched state)
+          notes: moreNotes(p, chosen),
         }
       : undefined;
   return { ...chosen, candidates: tried, mostPrecise };
+}
+
+/** the codes of a choice's findings of one severity, both stages, each once */
+function codesOf(c: RankedChoice, severity: Finding['severity']): Finding['code'][] {
+  return [...new Set(findingsOf(c).filter((f) => f.severity === severity).map((f) => f.code))];
+}
+
+/** the note codes choice a has more often than choice b (both stages), each once */
+function moreNotes(a: RankedChoice, b: RankedChoice): Finding['code'][] {
+  const count = (c: RankedChoice, k: Finding['code']) =>
+    findingsOf(c).filter((f) => f.severity === 'note' && f.code === k).length;
+  return codesOf(a, 'note').filter((k) => count(a, k) > count(b, k));
 }
 
 /**

@@ -56,7 +56,12 @@ export interface PlanInput {
    */
   readonly charges?: readonly ChargeRequest[];
   /** safety-review settings beyond the tank and temperature */
-  readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
+  readonly safety?: {
+    readonly coldestK?: number;
+    readonly condensationFraction?: number;
+    /** the warmest temperature the filled tank reaches (storage, use), K: its pressure there is checked */
+    readonly warmestK?: number;
+  };
   readonly inTank?: { readonly composition: Fractions; readonly pressurePa: number };
   readonly gauges: readonly Gauge[];
   /**
