@@ -50,9 +50,6 @@ export const ORDER_RELEVANT: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'acetylene-pressure',
   'no-with-o2',
   'n2o-decomposition',
-  // an intermediate state richer in O2 than air (an order that fills O2 onto little else): materials burn
-  // far more readily there; the finished batch's own share is the same in every order
-  'oxygen-enriched',
 ]);
 
 /** one charge as the scoring sees it: a source and the mol it delivers (a source may come more than once) */

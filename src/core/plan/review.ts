@@ -196,6 +196,9 @@ const STATE_CODES: ReadonlySet<FindingCode> = new Set<FindingCode>([
   'flammable-mixture',
   'tank-over-rating',
   'tank-warms-past-limit',
+  // not weighed by the order advice or the search (filling a premix's O2 alone is the ordinary way to read
+  // it), but an intermediate state above 23.5 % O2 is not called free of the hazards checked
+  'oxygen-enriched',
 ]);
 
 /** "flammable-state (fill 3), tank-over-rating (fills 2, 3)" */
