@@ -1,5 +1,5 @@
 /** Number and pressure formatting shared by every renderer. */
-import { GIVEN_VOLUME_TANK } from '../core/index.js';
+import { GIVEN_VOLUME_TANK, type Plan } from '../core/index.js';
 import { fromPa, type PressureUnit } from './units.js';
 
 /**
@@ -108,4 +108,14 @@ export function padTable(rows: readonly (readonly string[])[], rightAlign: reado
 /** a tank as a lab member reads its name: a tank known only by its volume is said to be so */
 export function tankName(id: string): string {
   return id === GIVEN_VOLUME_TANK ? 'unnamed tank (volume given)' : id;
+}
+
+/** "rated 3000 Torr, working limit 2700 Torr" (plan and sheet alike), or "rating not known" */
+export function tankRating(plan: Pick<Plan, 'tank'>, P: (pa: number, sig?: number) => string): string {
+  const t = plan.tank;
+  const limit =
+    t.ratedPressurePa !== undefined && t.workingFraction && t.workingFraction < 1
+      ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}`
+      : '';
+  return t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${limit}`;
 }

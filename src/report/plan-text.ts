@@ -1,7 +1,7 @@
 /** The plan as a readable table for the terminal. */
 import { describeFinding, STANDING_CAUTION, type Finding, type Plan, type Severity } from '../core/index.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig, padTable, pressure, signed, tankName } from './format.js';
+import { decimalsFor, fixedSig, padTable, pressure, signed, tankName, tankRating } from './format.js';
 import type { PlanMeta } from './plan-json.js';
 import { predictedLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit } from './charges.js';
@@ -38,13 +38,7 @@ const SEVERITY_LABEL: Record<Severity, string> = { danger: 'DANGER ', warning: '
 /** the tank line: its volume and its rating with the working limit */
 function tankLine(plan: Plan, P: (pa: number, sig?: number) => string): string {
   const t = plan.tank;
-  const limit =
-    t.ratedPressurePa !== undefined && t.workingFraction && t.workingFraction < 1
-      ? `, working limit ${P(t.ratedPressurePa * t.workingFraction, 4)}`
-      : '';
-  const rating =
-    t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${limit}`;
-  return `Tank        ${tankName(t.id)}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${rating}`;
+  return `Tank        ${tankName(t.id)}: ${fixedSig(t.volumeM3 * 1000, 4)} L, ${tankRating(plan, P)}`;
 }
 
 /** how many experiments the batch serves in the lab's reactor */

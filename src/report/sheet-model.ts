@@ -29,12 +29,14 @@ import {
   noneInsideWords,
   pressure,
   tankName,
+  tankRating,
 } from './format.js';
 import { detailSvg, diagramData, diagramSvg } from './diagram.js';
 import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit, siblingWords } from './charges.js';
 import { dangerHeadline, toleranceHeadline } from './headlines.js';
+import { gasCaution } from './gas-caution.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -337,9 +339,10 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
   const d = plan.design;
   const t = plan.tank;
-  const rating = t.ratedPressurePa
-    ? `, rated ${pressure(t.ratedPressurePa, meta.unit, 4)}`
-    : ', rating not known';
+  // the working limit beside the rating, as the plan says it: no reading of the sheet goes above it
+  const limit =
+    t.ratedPressurePa && t.workingFraction && t.workingFraction < 1 ? ' (never fill above it)' : '';
+  const rating = `, ${tankRating(plan, (pa, sig) => pressure(pa, meta.unit, sig))}${limit}`;
   return [
     ['phi', d.phi === undefined ? 'n/a' : d.phi.toFixed(4)],
     ['fuel', groupText(d.groups.fuel)],
@@ -360,6 +363,21 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
   ];
 }
 
+/**
+ * the house caution of each kind of gas the fills bring (flammable, oxidizer, both), with the cylinders
+ * that carry it: the words the guided fill shows on each fill's screen (gasCaution)
+ */
+function cautionChecks(plan: Plan): string[] {
+  const by = new Map<string, string[]>();
+  for (const s of plan.steps) {
+    const c = gasCaution(s.source.composition);
+    if (!c) continue;
+    const ids = by.get(c) ?? [];
+    if (!ids.includes(s.source.id)) by.set(c, [...ids, s.source.id]);
+  }
+  return [...by].map(([c, ids]) => `${c.replace(/^! /, '')} (${ids.join(', ')})`);
+}
+
 /** the checks before the first fill; a top-up reads, logs and confirms its starting pressure first */
 function preChecks(plan: Plan, meta: SheetMeta): string[] {
   const gaugeIds = [...new Set(plan.steps.map((s) => s.gauge?.id).filter(Boolean))].join(', ');
@@ -375,6 +393,7 @@ function preChecks(plan: Plan, meta: SheetMeta): string[] {
     'Before each fill: purge/evacuate the line, fill it from the cylinder above ' +
       'the tank pressure, then open the tank valve slowly',
     'Cylinders secured; regulators and lines cleaned for the gas they carry (oxygen service for oxidizers)',
+    ...cautionChecks(plan),
   ];
   const start = plan.initial;
   const first = plan.steps[0];

@@ -29,7 +29,8 @@ import { labelLines, labelModel, wrapLine } from '../report/label-model.js';
 import { verdictWord } from '../report/check-report.js';
 import { overallVerdict } from '../report/check-outcome.js';
 import type { ParsedLog } from '../io/batch-log.js';
-import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
+import { describeProblem, type Problem } from '../core/index.js';
+import { gasCaution } from '../report/gas-caution.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
@@ -1779,25 +1780,8 @@ function ChargeLine({ state }: ScreenProps) {
 const hazardShort = (z: { severity: string; code: string; step: number | null }) =>
   `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`;
 
-/**
- * the house caution of a fill's gas, one row (under 80 columns): an oxidizer (negative oxygen demand) and a
- * fuel (positive) each their own, both for a gas that carries both; none for an inert gas. Common practice
- * (oxygen service: clean, compatible parts, valves opened slowly against adiabatic compression); the
- * lab's procedure and local rules govern.
- */
-export function gasCaution(composition: Readonly<Record<string, number>>): string | undefined {
-  const demands = Object.entries(composition)
-    .filter(([, x]) => x > 0)
-    .map(([k]) => oxygenDemand(getSpecies(k).elements));
-  const oxidizer = demands.some((d) => d < 0);
-  const fuel = demands.some((d) => d > 0);
-  // each under 80 columns: "follow your lab's procedure and local rules" said short
-  const rules = 'lab procedure, local rules';
-  if (oxidizer && fuel) return `! Fuel + oxidizer: no ignition sources, open slowly; ${rules}`;
-  if (oxidizer) return `! Oxidizer: oxygen-service parts only, open slowly; ${rules}`;
-  if (fuel) return `! Flammable gas: no ignition sources, no leaks; ${rules}`;
-  return undefined;
-}
+// the house caution of a fill's gas: one function for the fill screens and the sheet (report/gas-caution.ts)
+export { gasCaution };
 
 /**
  * the fill screen in `rows` (`fixed`: the rows of its parts that are always whole: the title, the gas,
