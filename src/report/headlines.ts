@@ -87,7 +87,13 @@ export function toleranceHeadline(plan: Plan, unit: PressureUnit, brief = false)
     `CANNOT MEET ITS TOLERANCE (${over.map((f) => `x(${f.species})`).join(', ')}): even readings ` +
     'exactly at the targets leave the batch NOT SHOWN WITHIN TOLERANCE by `check` (not a pass).';
   // brief (the fill sheet, where space is short): the cause and the fix are in the finding it names
-  if (brief) return [`${head} The cause and what would reduce it: predicted-u-over-tolerance (findings).`];
+  if (brief) {
+    // a premix in another tank proposed (`plan`, `sheet`): the other remedy, in the finding it names
+    const premix = plan.findings.some((f) => f.code === 'two-stage-proposed')
+      ? ' A premix in another tank first would give a smaller U: two-stage-proposed (findings).'
+      : '';
+    return [`${head} The cause and what would reduce it: predicted-u-over-tolerance (findings).${premix}`];
+  }
   return [`${head} Worst: ${describeFinding(worst, (pa) => pressure(pa, unit))}.${search}`];
 }
 
@@ -103,9 +109,12 @@ function bandEdgesHeadline(plan: Plan, brief: boolean): string[] {
   );
   if (!f) return [];
   const share = `${Number((f.share * 100).toPrecision(2))} %`;
+  // the sheet (brief) prints that share of every band as a column of its Fills table
+  const where = brief ? 'this sheet' : 'the table';
+  const column = brief ? ' (its shared band, a column of the Fills table)' : '';
   return [
     `READINGS INSIDE EVERY BAND CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +
-      `target. Filling from the table, read each fill within ${share} of its band; the guided fill ` +
+      `target. Filling from ${where}, read each fill within ${share} of its band${column}; the guided fill ` +
       `(\`mixwright fill\`) re-targets from each reading instead` +
       ` (band-edges-past-tolerance: ${brief ? 'findings' : 'below'}).`,
   ];
