@@ -26,7 +26,8 @@ import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../repor
 import { noneInsideOnGauge } from './gauge-view.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel, wrapLine } from '../report/label-model.js';
-import { verdictWord } from '../report/check-report.js';
+import { premixPressure, verdictWord } from '../report/check-report.js';
+import { premixCheckText } from '../report/check-types.js';
 import { overallVerdict } from '../report/check-outcome.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
@@ -647,13 +648,29 @@ function elide(text: string, rows: number, columns: number): string {
  * as filled and the stage-2 command), the log and the commands to run next, and the tank label when
  * there is room; else the label is its own page (l). b goes back, q or Enter quits.
  */
-/** the end screen's verdict line: check's verdict, and the notes (caveats) that follow it */
+/**
+ * the notes under the end screen's verdict: check's caveats, and each premix drawn before its least
+ * mixing time (the verdict's PREMIX DRAWN EARLY) in check's own words: how long after the premix log
+ * closed, of the least mixing time asked, confirmed by whom (premixCheckText)
+ */
+export function endNotes(report: CheckReport | undefined): string[] {
+  if (!report) return [];
+  const early = (report.premixChecks ?? []).filter((c) => c.kind === 'mixed' && c.early);
+  return [
+    ...report.caveats,
+    // the note typed with it is the log's (check prints it): the end screen keeps to what stands
+    ...early.map((c) => `PREMIX DRAWN EARLY: ${premixCheckText({ ...c, note: undefined }, premixPressure)}`),
+  ];
+}
+
+/** the end screen's verdict line: check's verdict, and the notes (endNotes) that follow it */
 export function verdictLine(report: CheckReport | undefined): string | undefined {
   if (!report) return undefined;
-  // check's word points below for each finding it names: the notes below are one place, said once
+  // check's word points below for each finding it names: the notes below are one place, said once, and
+  // only where there are notes below
   const word = verdictWord(report);
   const bare = word.replace(/ \(see below\)/g, '');
-  const refer = report.caveats.length > 0 || bare !== word;
+  const refer = endNotes(report).length > 0;
   return `Re-check of the log (mixwright check): ${bare}${refer ? ' (see the notes below)' : ''}`;
 }
 
@@ -819,8 +836,8 @@ function EndScreen({
   const model = check && 'report' in check ? labelModel(check.report, check.log) : undefined;
   const label = model ? labelLines(model, Math.max(20, columns - 4)) : undefined;
   // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
-  const caveats = check && 'report' in check ? check.report.caveats : [];
   const report = check && 'report' in check ? check.report : undefined;
+  const caveats = endNotes(report);
   const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
   const { page, labelPart } = useEndKeys();
   const withdrawn = withdrawnOverLimit(report);
