@@ -33,6 +33,7 @@ import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, getSpecies, oxygenDemand, type Problem } from '../core/index.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
+import { lastFillRange } from './last-fill.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 import { avoidedDangers, avoidedWarnings, planDangerNow, type BelowWays } from './fill-review.js';
@@ -1875,6 +1876,33 @@ function WholeTextPage({ state, part }: ScreenProps & { readonly part: number })
   );
 }
 
+/**
+ * the last fill's passing range (lastFillRange: the plan's band-edges-past-tolerance) in the gauge's
+ * display, rounded inward; undefined where there is nothing narrower than the band to say
+ */
+function passRangeText(
+  state: FillState,
+  step: FillStep,
+  unit: PressureUnit,
+  dec: number,
+): string | undefined {
+  const r = lastFillRange(state);
+  if (!r) return undefined;
+  const at = `${(state.targetTemperatureK - 273.15).toFixed(1)} degC`;
+  const none =
+    '! No reading of this fill makes the re-check pass: even one at the target leaves the batch no pass, ' +
+    'with the readings before it as logged (band-edges-past-tolerance). Fill to the target; `check` the log';
+  if (r.kind === 'none') return none;
+  const f = 10 ** dec;
+  const low = Math.ceil(fromPa(shownPa(state, step, r.lowPa), unit) * f - 1e-7) / f;
+  const high = Math.floor(fromPa(shownPa(state, step, r.highPa), unit) * f + 1e-7) / f;
+  if (!(low <= high)) return none;
+  return (
+    `! The re-check passes only a reading from ${low.toFixed(dec)} to ${high.toFixed(dec)} ${unit} (at ${at}): ` +
+    'narrower than the band, as the readings before it leave less room (band-edges-past-tolerance)'
+  );
+}
+
 function ReadingScreen({ state }: ScreenProps) {
   const { stdout } = useStdout();
   const rows = stdout?.rows || 24;
@@ -1895,6 +1923,7 @@ function ReadingScreen({ state }: ScreenProps) {
   const who = state.operator ?? 'AB';
   const band = bandText(step, shown, unit, dec);
   const noneInside = noneInsideText(state, step, target);
+  const passRange = passRangeText(state, step, unit, dec);
   const gaugeLine =
     `Read on ${step.gauge?.id ?? 'NO GAUGE'}` +
     (step.gauge?.reference === 'gauge'
@@ -1912,6 +1941,7 @@ function ReadingScreen({ state }: ScreenProps) {
     // inside the box: its edges and padding take 6 columns
     wrapRows(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
     (noneInside ? wrapRows(noneInside, columns - 6) : 0) +
+    (passRange ? wrapRows(passRange, columns - 6) : 0) +
     2 +
     (state.error ? wrapRows(`! ${state.error}`, columns) : 1) +
     1;
@@ -1953,6 +1983,7 @@ function ReadingScreen({ state }: ScreenProps) {
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
         {noneInside ? <Text bold>{noneInside}</Text> : null}
+        {passRange ? <Text bold>{passRange}</Text> : null}
       </Box>
       <FindingLines lines={fit.lines} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />
