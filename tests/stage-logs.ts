@@ -1,9 +1,9 @@
 // Premix logs for the two-stage tests: the demo's stage 1 (ch4-o2-ar-phi1, premix in MT-2), read
 // at the given absolute pressures at 25 degC and closed (or not).
-import { mkdtempSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { appendEvent, createLog, type LogHeader } from '../src/io/batch-log.js';
+import { appendEvent, createLog, type LogHeader, type NewLogEvent } from '../src/io/batch-log.js';
 import { fileSha256, stage1Header, stage2Header } from '../src/io/stage-log.js';
 import { planFrom } from '../src/cli/plan-from.js';
 import { buildSheetModel } from '../src/report/sheet-model.js';
@@ -76,4 +76,34 @@ export function stage2Batch(prefix: string) {
   };
   const stage2Sheet = () => stageSheets(planned.plan, meta, buildSheetModel).at(-1)!;
   return { dir, file, planned, header: headerAt(), headerAt, stage2Sheet };
+}
+
+const DEMO_STAGE2 = 'batches/demo-ch4-phi1-from-premix.jsonl';
+const DEMO_PREMIX = 'batches/demo-premix-o2-ar-mt2.jsonl';
+
+/**
+ * the demo stage-2 log (its premix log beside it) made again with a premix tank that asks `restS` of rest
+ * (unstirred): it was confirmed mixed 20 h after the premix log closed, so a rest over 20 h makes it drawn
+ * early by the guided fill's own rule (premixMixingElapsed)
+ */
+export function drawnEarlyLog(restS: number): string {
+  const dir = mkdtempSync(join(tmpdir(), 'mw-early-'));
+  copyFileSync(DEMO_PREMIX, join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
+  const [head, ...events] = readFileSync(DEMO_STAGE2, 'utf8')
+    .trim()
+    .split('\n')
+    .map((l) => JSON.parse(l) as Record<string, unknown>);
+  const h = head as unknown as LogHeader;
+  const pc = h.stage!.premix_check!;
+  const header = {
+    ...h,
+    stage: { ...h.stage!, premix_check: { ...pc, mixing: { stirred: false, rest_s: restS } } },
+  };
+  const file = join(dir, 'b.jsonl');
+  createLog(file, header as LogHeader);
+  for (const e of events) {
+    const { chain: _, ...rest } = e;
+    appendEvent(file, rest as unknown as NewLogEvent);
+  }
+  return file;
 }

@@ -68,7 +68,8 @@ export function bandWords(
  * where no value the gauge displays lies inside a fill's band (inwardBand gives none): the sentence the
  * fill screen says before the reading and the sheet under the fill, with the nearest displayed value
  * and on which side of the band it reads (never a stop the gauge cannot show as inside); undefined
- * where a displayed value lies inside
+ * where a displayed value lies inside. `shared`: the sheet's shared band (band-edges-past-tolerance),
+ * which the log does not judge a reading by: said so, with the guided fill as the other way
  */
 export function noneInsideWords(
   gaugeId: string,
@@ -76,14 +77,19 @@ export function noneInsideWords(
   bandPa: number,
   unit: PressureUnit,
   dec: number,
+  shared = false,
 ): string | undefined {
   if (inwardBand(centerPa, bandPa, unit, dec)) return undefined;
   const f = 10 ** dec;
   const center = fromPa(centerPa, unit);
   const near = Math.round(center * f) / f;
+  const side = `reads ${near < center ? 'BELOW' : 'ABOVE'} it`;
   return (
-    `NO value ${gaugeId} shows is inside the band: the nearest, ${near.toFixed(dec)} ${unit}, ` +
-    `reads ${near < center ? 'BELOW' : 'ABOVE'} it and is logged outside it. Use a finer gauge if you can`
+    `NO value ${gaugeId} shows is inside the ${shared ? 'shared ' : ''}band: the nearest, ` +
+    `${near.toFixed(dec)} ${unit}, ` +
+    (shared
+      ? `${side}. Use a finer gauge, or fill with \`mixwright fill\``
+      : `${side} and is logged outside it. Use a finer gauge if you can`)
   );
 }
 

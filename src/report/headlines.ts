@@ -88,7 +88,13 @@ export function toleranceHeadline(plan: Plan, unit: PressureUnit, brief = false)
     `CANNOT MEET ITS TOLERANCE (${over.map((f) => `x(${f.species})`).join(', ')}): even readings ` +
     'exactly at the targets leave the batch NOT SHOWN WITHIN TOLERANCE by `check` (not a pass).';
   // brief (the fill sheet, where space is short): the cause and the fix are in the finding it names
-  if (brief) return [`${head} The cause and what would reduce it: predicted-u-over-tolerance (findings).`];
+  if (brief) {
+    // a premix in another tank proposed (`plan`, `sheet`): the other remedy, in the finding it names
+    const premix = plan.findings.some((f) => f.code === 'two-stage-proposed')
+      ? ' A premix in another tank first would give a smaller U: two-stage-proposed (findings).'
+      : '';
+    return [`${head} The cause and what would reduce it: predicted-u-over-tolerance (findings).${premix}`];
+  }
   return [`${head} Worst: ${describeFinding(worst, (pa) => pressure(pa, unit))}.${search}`];
 }
 
@@ -106,13 +112,16 @@ function bandEdgesHeadline(plan: Plan, brief: boolean): string[] {
   const share = `${Number((f.share * 100).toPrecision(2))} %`;
   // a two-stage plan says it under its first line, above both stages: this is the batch's (stage 2)
   const which = plan.twoStage ? ' OF STAGE 2 (THE BATCH)' : '';
+  // the sheet (brief) prints that share of every band as a column of its Fills table
+  const where = brief ? 'this sheet' : 'the table';
+  const column = brief ? ' (its shared band, a column of the Fills table)' : '';
   // a share finer than a gauge displays cannot be kept to from the table: said, not left to be found out
   const finer = f.bands.filter((b) => b.finerThanDisplay).map((b) => b.step);
   const table = finer.length
-    ? `Filling from the table, each fill must be read within ${share} of its band, finer than the gauge ` +
-      `displays for fill${finer.length > 1 ? 's' : ''} ${finer.join(', ')}: fill with the guided fill ` +
+    ? `Filling from ${where}, each fill must be read within ${share} of its band${column}, finer than the ` +
+      `gauge displays for fill${finer.length > 1 ? 's' : ''} ${finer.join(', ')}: fill with the guided fill ` +
       `(\`mixwright fill\`), which re-targets from each reading`
-    : `Filling from the table, read each fill within ${share} of its band; the guided fill ` +
+    : `Filling from ${where}, read each fill within ${share} of its band${column}; the guided fill ` +
       `(\`mixwright fill\`) re-targets from each reading instead`;
   return [
     `READINGS INSIDE EVERY BAND${which} CAN STILL FAIL TOGETHER: each band assumes the fills before it read on ` +

@@ -51,6 +51,14 @@ export interface SheetRow {
   readonly band: string;
   /** where no value the gauge shows lies inside the band: the fill screen's sentence (noneInsideWords) */
   readonly noneInside?: string;
+  /**
+   * where readings inside every band can fail together (band-edges-past-tolerance): the narrower band
+   * every fill is read inside for the readings together to hold, printed as the band is (the finding's
+   * own half-width about the same reading); absent when the finding does not fire
+   */
+  readonly shared?: string;
+  /** where no value the gauge shows lies inside the shared band: said under the row */
+  readonly sharedNoneInside?: string;
   readonly unit: string;
   readonly reference: 'absolute' | 'gauge';
   readonly absoluteTarget: string;
@@ -149,6 +157,8 @@ export interface SheetModel {
   readonly tolerance?: string;
   /** where a target is read on a gauge-referenced sensor: the barometric pressure it assumes and how to correct it */
   readonly barometer?: readonly string[];
+  /** the Fills table's shared-band column in words (under the table), when band-edges-past-tolerance fires */
+  readonly sharedNote?: string;
 }
 
 export interface SheetMeta {
@@ -439,6 +449,41 @@ function chargeNoteOf(plan: Plan, k: number, stopText: string): string {
   );
 }
 
+type BandEdges = Extract<Finding, { readonly code: 'band-edges-past-tolerance' }>;
+
+/** the plan's band-edges-past-tolerance finding: readings inside every band can fail together */
+const bandEdgesOf = (plan: Plan): BandEdges | undefined =>
+  plan.findings.find((f): f is BandEdges => f.code === 'band-edges-past-tolerance');
+
+/** the shared-band column under the Fills table, in words */
+function sharedNote(f: BandEdges): string {
+  return (
+    `Shared band: ${Number((f.share * 100).toPrecision(2))} % of each fill's band (band-edges-past-tolerance, ` +
+    'findings). A band alone assumes the fills before it read on target; readings inside every band can ' +
+    'still fail together. From this sheet, read every fill inside its shared band; or fill with ' +
+    '`mixwright fill`, which re-targets the later fills from each reading.'
+  );
+}
+
+/**
+ * a fill's shared band (band-edges-past-tolerance: the finding's half-width for this fill about the
+ * same reading), printed as its band is: rounded inward at the gauge's display step, in words where
+ * the display cannot show it, and the sentence where no value the gauge shows lies inside it
+ */
+function sharedOf(
+  f: BandEdges | undefined,
+  s: PlanStep,
+  reading: number,
+  gu: PressureUnit,
+  dec: number,
+): Pick<SheetRow, 'shared' | 'sharedNoneInside'> {
+  const half = f?.bands.find((b) => b.step === s.index)?.halfWidthPa;
+  if (half === undefined) return {};
+  const shared = bandWords(inwardBand(reading, half, gu, dec), half, s.gauge?.resolutionPa ?? 0, gu, dec);
+  const none = s.gauge ? noneInsideWords(s.gauge.id, reading, half, gu, dec, true) : undefined;
+  return { shared, ...(none ? { sharedNoneInside: none } : {}) };
+}
+
 /** one fill: the target and its band in the gauge's own unit */
 function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
@@ -463,6 +508,7 @@ function sheetRow(s: PlanStep, meta: SheetMeta, plan: Plan): SheetRow {
     high,
     band: bandWords(inward, band, s.gauge?.resolutionPa ?? 0, gu, dec),
     ...(noneInside ? { noneInside } : {}),
+    ...sharedOf(bandEdgesOf(plan), s, reading, gu, dec),
     unit: gu,
     reference: s.gauge?.reference ?? 'absolute',
     absoluteTarget: P(s.targetPa),
@@ -551,6 +597,7 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
   // a design from the command line has no recipe id of its own ("inline"): name it by its gases
   const inline = meta.recipe.id === 'inline' && !meta.recipe.title;
   const batchId = meta.batchId ?? `${inline ? designSlug(plan) : meta.recipe.id}-${today}`;
+  const edges = bandEdgesOf(plan);
   return {
     title: recipeTitle(plan, meta) ?? (inline ? designTitle(plan, meta.unit) : meta.recipe.id),
     batchId,
@@ -570,5 +617,6 @@ export function buildSheetModel(plan: Plan, meta: SheetMeta): SheetModel {
     danger: dangerHeadline(plan),
     tolerance: toleranceHeadline(plan, meta.unit, true)[0],
     barometer: barometerLines(plan, meta),
+    ...(edges ? { sharedNote: sharedNote(edges) } : {}),
   };
 }

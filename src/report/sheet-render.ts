@@ -36,6 +36,8 @@ const CSS = (paper: 'a4' | 'letter') =>
     `table.steps td.target { font-size: 15pt; font-weight: bold; white-space: nowrap; }`,
     `table.steps td.blank { min-width: 26mm; }`,
     `table.steps td.gauge, table.steps td.band { white-space: nowrap; }`,
+    `table.steps td.shared { font-weight: bold; }`,
+    `.shared-note { font-size: 9.5pt; margin: 1.5mm 0 0 0; }`,
     `table.steps td.gas { min-width: 32mm; }`,
     `.whole { white-space: nowrap; }`,
     `table.steps td.target .over { display: block; font-size: 8.5pt; font-weight: normal; }`,
@@ -52,7 +54,7 @@ const CSS = (paper: 'a4' | 'letter') =>
     `.caution { font-size: 9pt; border-top: 1px solid #000; margin-top: 3mm; padding-top: 1.5mm; }`,
     `.figures { break-inside: avoid; page-break-inside: avoid; }`,
     `.figures .cols > div { flex: 1; }`,
-    `.figures svg { width: 100%; height: auto; }`,
+    `.figures svg { width: 100%; height: auto; max-height: 72mm; }`,
     `.legend { font-size: 9pt; }`,
     `footer { font-size: 8pt; margin-top: 2mm; }`,
     `@media screen { body { max-width: 190mm; margin: 8mm auto; } }`,
@@ -101,14 +103,27 @@ const gaugeCell = (id: string, reference: 'absolute' | 'gauge') =>
 /** the cells to write in: actual reading, time, initials, and the tick box */
 const BLANKS = `<td class="blank"></td><td class="small"></td><td class="small"></td><td>${BOX}</td>`;
 
-/** a check reading as a row of the Fills table (the premix tank before it delivers), its note under it */
-function checkRowHtml(c: SheetCheck): string {
+/** a band cell of the Fills table: "low &ndash; high", or a band finer than the display step in words (may wrap) */
+function bandHtml(band: string, shared = false): string {
+  const cls = [...(band.startsWith('+-') ? [] : ['band']), ...(shared ? ['shared'] : [])].join(' ');
+  return (
+    `<td${cls ? ` class="${cls}"` : ''}>` +
+    `${esc(band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td>`
+  );
+}
+
+/**
+ * a check reading as a row of the Fills table (the premix tank before it delivers), its note under it;
+ * `shared`: the table has the shared-band column (left blank here)
+ */
+function checkRowHtml(c: SheetCheck, shared: boolean): string {
   return (
     `<tr class="check"><td></td><td class="gas"><b class="whole">${esc(c.what)}</b><br>` +
     `<span class="unit">${esc(c.when)}</span></td>${gaugeCell(c.gauge, c.reference)}` +
     `<td class="target"><span class="over">at least</span>${esc(c.minimum)} <span class="unit">` +
-    `${esc(c.unit)}</span></td><td class="band">planned<br>${esc(c.planned)}</td>${BLANKS}</tr>` +
-    `<tr class="charge"><td></td><td colspan="8">${esc(c.note)}</td></tr>`
+    `${esc(c.unit)}</span></td><td class="band">planned<br>${esc(c.planned)}</td>` +
+    `${shared ? '<td></td>' : ''}${BLANKS}</tr>` +
+    `<tr class="charge"><td></td><td colspan="${shared ? 9 : 8}">${esc(c.note)}</td></tr>`
   );
 }
 
@@ -116,42 +131,50 @@ function paragraphs(lines: readonly string[]): string {
   return lines.map((l) => `<p>${esc(l)}</p>`).join('');
 }
 
+/**
+ * The rows of the Fills table: each fill with what comes before it (gauges closed off, its own dangers
+ * and warnings, the premix tank's check reading) and its notes under it; the shared band in its own
+ * column where readings inside every band can fail together (band-edges-past-tolerance)
+ */
+function stepsHtml(m: SheetModel): string {
+  const shared = m.sharedNote !== undefined;
+  const all = shared ? 10 : 9;
+  const under = (n: number, html: string) =>
+    `<tr class="charge" data-fill="${n}"><td></td><td colspan="${all - 1}">${html}</td></tr>`;
+  return m.rows
+    .map((r) => {
+      const before = r.before.length
+        ? `<tr class="before"><td colspan="${all}">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
+        : '';
+      const cautions = r.cautions
+        .map(
+          (c) =>
+            `<tr class="before caution" data-fill="${r.n}"><td colspan="${all}">Fill ${r.n}: ` +
+            `${c.severity.toUpperCase()} ${esc(c.code)}: ${esc(c.message)}</td></tr>`,
+        )
+        .join('');
+      const check = r.check ? checkRowHtml(r.check, shared) : '';
+      const charge = r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : '';
+      const note =
+        (r.noneInside ? under(r.n, `<b>${esc(r.noneInside)}</b>`) : '') +
+        (r.sharedNoneInside ? under(r.n, `<b>${esc(r.sharedNoneInside)}</b>`) : '') +
+        (r.chargeNote ? under(r.n, esc(r.chargeNote)) : '');
+      return (
+        `${before}${cautions}${check}<tr><td>${r.n}</td><td class="gas"><b>${esc(r.fill)}</b>${esc(charge)}` +
+        `<br><span class="unit">${esc(r.source)}</span></td>${gaugeCell(r.gauge, r.reference)}` +
+        `<td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td>` +
+        `${bandHtml(r.band)}${shared ? bandHtml(r.shared ?? '', true) : ''}${BLANKS}</tr>${note}`
+      );
+    })
+    .join('\n');
+}
+
 export function sheetToHtml(m: SheetModel): string {
   const kv = (rows: readonly [string, string][]) =>
     `<table class="kv">${rows
       .map(([k, v]) => `<tr><td>${esc(k)}</td><td>${v.split('\n').map(esc).join('<br>')}</td></tr>`)
       .join('')}</table>`;
-  const steps = m.rows
-    .map((r) => {
-      const before = r.before.length
-        ? `<tr class="before"><td colspan="9">Before fill ${r.n}: ${r.before.map(esc).join('; ')}</td></tr>`
-        : '';
-      const cautions = r.cautions
-        .map(
-          (c) =>
-            `<tr class="before caution" data-fill="${r.n}"><td colspan="9">Fill ${r.n}: ` +
-            `${c.severity.toUpperCase()} ${esc(c.code)}: ${esc(c.message)}</td></tr>`,
-        )
-        .join('');
-      const check = r.check ? checkRowHtml(r.check) : '';
-      const charge = r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : '';
-      const note =
-        (r.noneInside
-          ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8"><b>${esc(r.noneInside)}</b></td></tr>`
-          : '') +
-        (r.chargeNote
-          ? `<tr class="charge" data-fill="${r.n}"><td></td><td colspan="8">${esc(r.chargeNote)}</td></tr>`
-          : '');
-      // a band finer than the display step is said in words, which may wrap
-      const band = r.band.startsWith('+-') ? '<td>' : '<td class="band">';
-      return (
-        `${before}${cautions}${check}<tr><td>${r.n}</td><td class="gas"><b>${esc(r.fill)}</b>${esc(charge)}` +
-        `<br><span class="unit">${esc(r.source)}</span></td>${gaugeCell(r.gauge, r.reference)}` +
-        `<td class="target">${esc(r.target)} <span class="unit">${esc(r.unit)}</span></td>${band}` +
-        `${esc(r.band).replace(' - ', ' &ndash; ').replace('+-', '&plusmn;')}</td>${BLANKS}</tr>${note}`
-      );
-    })
-    .join('\n');
+  const steps = stepsHtml(m);
   const findings = m.findings.length
     ? `<ul class="findings">${m.findings
         .map(
@@ -183,10 +206,12 @@ export function sheetToHtml(m: SheetModel): string {
     `<ul class="checks">${m.preChecks.map(checkHtml).join('')}</ul>` + `</section>`,
     `<section class="block"><h2>Fills (target = reading to stop at, on that gauge)</h2>`,
     `<table class="steps">`,
-    `<tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th><th>actual ` +
-      `reading</th><th>time</th><th>init.</th><th>done</th></tr>`,
+    `<tr><th>#</th><th>gas / cylinder</th><th>gauge</th><th>target</th><th>band</th>` +
+      `${m.sharedNote ? '<th>shared band</th>' : ''}<th>actual reading</th><th>time</th><th>init.</th>` +
+      `<th>done</th></tr>`,
     `${steps}`,
     `</table>`,
+    `${m.sharedNote ? `<p class="shared-note">${esc(m.sharedNote)}</p>` : ''}`,
     `${m.barometer ? `<div class="baro"><b>Barometer.</b> ${paragraphs(m.barometer)}</div>` : ''}` +
       `</section>`,
     `<section class="block"><h2>After filling</h2>`,
@@ -201,6 +226,52 @@ export function sheetToHtml(m: SheetModel): string {
     `</body></html>`,
     '',
   ].join('\n');
+}
+
+/** a band in the Markdown table: "low – high", or "±half: ..." in words */
+const bandMd = (band: string) => band.replace(' - ', ' – ').replace('+-', '±');
+
+/**
+ * The Fills table in Markdown: a row per fill with what comes before it and its notes under it, the
+ * shared band in its own column and said under the table where band-edges-past-tolerance fires
+ */
+function fillsMarkdown(m: SheetModel): string[] {
+  const shared = m.sharedNote !== undefined;
+  // a row of notes: the text in the second column, the rest blank
+  const blank = shared ? '| | | | | | | | |' : '| | | | | | | |';
+  const out = [
+    '## Fills (target = reading to stop at, on that gauge)',
+    '',
+    `| # | gas / cylinder | gauge | target | band |${shared ? ' shared band |' : ''} actual reading | time | ` +
+      'init. | done |',
+    `|---:|---|---|---:|---|${shared ? '---|' : ''}---|---|---|---|`,
+  ];
+  for (const r of m.rows) {
+    for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** ${blank}`);
+    for (const c of r.cautions)
+      out.push(
+        `| | **fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}:** ${c.message.replace(/\|/g, '\\|')} ` +
+          blank,
+      );
+    const c = r.check;
+    if (c)
+      out.push(
+        `| | **${c.what}** (${c.when}) | ${c.gauge}${c.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
+          `| **at least ${c.minimum} ${c.unit}** | planned ${c.planned} |${shared ? ' |' : ''} | | | [ ] |`,
+        `| | ${c.note} ${blank}`,
+      );
+    out.push(
+      `| ${r.n} | **${r.fill}**${r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : ''} ` +
+        `(${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
+        `| **${r.target} ${r.unit}** | ${bandMd(r.band)} |${shared ? ` **${bandMd(r.shared ?? '')}** |` : ''}` +
+        ' | | | [ ] |',
+    );
+    if (r.noneInside) out.push(`| | **${r.noneInside}** ${blank}`);
+    if (r.sharedNoneInside) out.push(`| | **${r.sharedNoneInside}** ${blank}`);
+    if (r.chargeNote) out.push(`| | ${r.chargeNote} ${blank}`);
+  }
+  if (m.sharedNote) out.push('', m.sharedNote);
+  return out;
 }
 
 export function sheetToMarkdown(m: SheetModel): string {
@@ -232,35 +303,7 @@ export function sheetToMarkdown(m: SheetModel): string {
     '',
   );
   out.push('## Before filling', '', ...m.preChecks.map(checkMd), '');
-  out.push(
-    '## Fills (target = reading to stop at, on that gauge)',
-    '',
-    '| # | gas / cylinder | gauge | target | band | actual reading | time | init. | done |',
-    '|---:|---|---|---:|---|---|---|---|---|',
-  );
-  for (const r of m.rows) {
-    for (const b of r.before) out.push(`| | **before fill ${r.n}: ${b}** | | | | | | | |`);
-    for (const c of r.cautions)
-      out.push(
-        `| | **fill ${r.n}: ${c.severity.toUpperCase()} ${c.code}:** ${c.message.replace(/\|/g, '\\|')} ` +
-          '| | | | | | | |',
-      );
-    const c = r.check;
-    if (c)
-      out.push(
-        `| | **${c.what}** (${c.when}) | ${c.gauge}${c.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
-          `| **at least ${c.minimum} ${c.unit}** | planned ${c.planned} | | | | [ ] |`,
-        `| | ${c.note} | | | | | | | |`,
-      );
-    out.push(
-      `| ${r.n} | **${r.fill}**${r.charge ? `, charge ${r.charge.number} of ${r.charge.of}` : ''} ` +
-        `(${r.source}) | ${r.gauge}${r.reference === 'gauge' ? ' (gauge-ref.)' : ''} ` +
-        `| **${r.target} ${r.unit}** | ${r.band.replace(' - ', ' – ').replace('+-', '±')} ` +
-        `| | | | [ ] |`,
-    );
-    if (r.noneInside) out.push(`| | **${r.noneInside}** | | | | | | | |`);
-    if (r.chargeNote) out.push(`| | ${r.chargeNote} | | | | | | | |`);
-  }
+  out.push(...fillsMarkdown(m));
   if (m.barometer) out.push('', `**Barometer.** ${m.barometer.join(' ')}`);
   out.push('', '## After filling', '', ...m.postChecks.map(checkMd), '');
   out.push('## Tank label', '', '```', ...m.label, '```', '');
@@ -342,7 +385,10 @@ const BLANKS_TEXT = '     actual __________   time _____   init ____   done [ ]'
  */
 function fillsText(m: SheetModel): string[] {
   const out: string[] = [];
-  const rows: string[][] = [['#', 'gas', 'cylinder', 'gauge', 'target', 'band']];
+  const shared = m.sharedNote !== undefined;
+  const rows: string[][] = [
+    ['#', 'gas', 'cylinder', 'gauge', 'target', 'band', ...(shared ? ['shared band'] : [])],
+  ];
   // a check row (the premix tank's reading) sits in the table above its fill, in the same columns
   const checkRow = (c: SheetCheck) => [
     '',
@@ -351,6 +397,7 @@ function fillsText(m: SheetModel): string[] {
     c.gauge + (c.reference === 'gauge' ? ' (g)' : ''),
     `>= ${c.minimum} ${c.unit}`,
     `plan ${c.planned}`,
+    ...(shared ? [''] : []),
   ];
   for (const r of m.rows) if (r.check) rows.push(checkRow(r.check));
   for (const r of m.rows)
@@ -361,8 +408,9 @@ function fillsText(m: SheetModel): string[] {
       r.gauge + (r.reference === 'gauge' ? ' (g)' : ''),
       `${r.target} ${r.unit}`,
       bandCell(r.band),
+      ...(shared ? [bandCell(r.shared ?? '')] : []),
     ]);
-  const table = padTable(rows, [true, false, false, false, true, true]);
+  const table = padTable(rows, [true, false, false, false, true, true, true]);
   const checks = m.rows.filter((r) => r.check).length;
   out.push(`  ${table[0]}`);
   let k = 1;
@@ -375,9 +423,13 @@ function fillsText(m: SheetModel): string[] {
     // a band the display cannot show as "low-high": its half-width in the table, the words under it
     if (bandCell(r.band) !== r.band.replace(' - ', '-'))
       out.push(...fit('     ^ ', `fill ${r.n}: band ${r.band}`));
+    if (r.shared !== undefined && bandCell(r.shared) !== r.shared.replace(' - ', '-'))
+      out.push(...fit('     ^ ', `fill ${r.n}: shared band ${r.shared}`));
     out.push(BLANKS_TEXT);
     if (r.noneInside) out.push(...fit('     ^ ', `fill ${r.n}: ${r.noneInside}`));
+    if (r.sharedNoneInside) out.push(...fit('     ^ ', `fill ${r.n}: ${r.sharedNoneInside}`));
     if (r.chargeNote) out.push(...fit('     ^ ', `fill ${r.n}: ${r.chargeNote}`));
   });
+  if (m.sharedNote) out.push(...fit('  ', m.sharedNote));
   return out;
 }

@@ -26,13 +26,15 @@ import { bandWords, decimalsFor, fixedSig, inwardBand, tankName } from '../repor
 import { noneInsideOnGauge } from './gauge-view.js';
 import { premixCloseOffWords } from '../report/two-stage-sheet.js';
 import { labelLines, labelModel, wrapLine } from '../report/label-model.js';
-import { verdictWord } from '../report/check-report.js';
+import { premixPressure, verdictWord } from '../report/check-report.js';
+import { premixCheckText } from '../report/check-types.js';
 import { overallVerdict } from '../report/check-outcome.js';
 import type { ParsedLog } from '../io/batch-log.js';
 import { describeProblem, type Problem } from '../core/index.js';
 import { gasCaution } from '../report/gas-caution.js';
 import { chargeWords, isSplit } from '../report/charges.js';
 import { StageEnd } from './stage-view.js';
+import { lastFillRange } from './last-fill.js';
 import { fillTitle, intoTank, stageEndLines } from './stage-state.js';
 import { RemainderReviewScreen } from './fill-review-view.js';
 import { avoidedDangers, avoidedWarnings, planDangerNow, type BelowWays } from './fill-review.js';
@@ -648,13 +650,29 @@ function elide(text: string, rows: number, columns: number): string {
  * as filled and the stage-2 command), the log and the commands to run next, and the tank label when
  * there is room; else the label is its own page (l). b goes back, q or Enter quits.
  */
-/** the end screen's verdict line: check's verdict, and the notes (caveats) that follow it */
+/**
+ * the notes under the end screen's verdict: check's caveats, and each premix drawn before its least
+ * mixing time (the verdict's PREMIX DRAWN EARLY) in check's own words: how long after the premix log
+ * closed, of the least mixing time asked, confirmed by whom (premixCheckText)
+ */
+export function endNotes(report: CheckReport | undefined): string[] {
+  if (!report) return [];
+  const early = (report.premixChecks ?? []).filter((c) => c.kind === 'mixed' && c.early);
+  return [
+    ...report.caveats,
+    // the note typed with it is the log's (check prints it): the end screen keeps to what stands
+    ...early.map((c) => `PREMIX DRAWN EARLY: ${premixCheckText({ ...c, note: undefined }, premixPressure)}`),
+  ];
+}
+
+/** the end screen's verdict line: check's verdict, and the notes (endNotes) that follow it */
 export function verdictLine(report: CheckReport | undefined): string | undefined {
   if (!report) return undefined;
-  // check's word points below for each finding it names: the notes below are one place, said once
+  // check's word points below for each finding it names: the notes below are one place, said once, and
+  // only where there are notes below
   const word = verdictWord(report);
   const bare = word.replace(/ \(see below\)/g, '');
-  const refer = report.caveats.length > 0 || bare !== word;
+  const refer = endNotes(report).length > 0;
   return `Re-check of the log (mixwright check): ${bare}${refer ? ' (see the notes below)' : ''}`;
 }
 
@@ -820,8 +838,8 @@ function EndScreen({
   const model = check && 'report' in check ? labelModel(check.report, check.log) : undefined;
   const label = model ? labelLines(model, Math.max(20, columns - 4)) : undefined;
   // what stands beside the verdict (a danger in the record, an edited record): beside it and on the label
-  const caveats = check && 'report' in check ? check.report.caveats : [];
   const report = check && 'report' in check ? check.report : undefined;
+  const caveats = endNotes(report);
   const stage = h.stage ? stageEndLines(h, report, state.phase === 'done') : [];
   const { page, labelPart } = useEndKeys();
   const withdrawn = withdrawnOverLimit(report);
@@ -1842,6 +1860,33 @@ function WholeTextPage({ state, part }: ScreenProps & { readonly part: number })
   );
 }
 
+/**
+ * the last fill's passing range (lastFillRange: the plan's band-edges-past-tolerance) in the gauge's
+ * display, rounded inward; undefined where there is nothing narrower than the band to say
+ */
+function passRangeText(
+  state: FillState,
+  step: FillStep,
+  unit: PressureUnit,
+  dec: number,
+): string | undefined {
+  const r = lastFillRange(state);
+  if (!r) return undefined;
+  const at = `${(state.targetTemperatureK - 273.15).toFixed(1)} degC`;
+  const none =
+    '! No reading of this fill makes the re-check pass: even one at the target leaves the batch no pass, ' +
+    'with the readings before it as logged (band-edges-past-tolerance). Fill to the target; `check` the log';
+  if (r.kind === 'none') return none;
+  const f = 10 ** dec;
+  const low = Math.ceil(fromPa(shownPa(state, step, r.lowPa), unit) * f - 1e-7) / f;
+  const high = Math.floor(fromPa(shownPa(state, step, r.highPa), unit) * f + 1e-7) / f;
+  if (!(low <= high)) return none;
+  return (
+    `! The re-check passes only a reading from ${low.toFixed(dec)} to ${high.toFixed(dec)} ${unit} (at ${at}): ` +
+    'narrower than the band, as the readings before it leave less room (band-edges-past-tolerance)'
+  );
+}
+
 function ReadingScreen({ state }: ScreenProps) {
   const { stdout } = useStdout();
   const rows = stdout?.rows || 24;
@@ -1862,6 +1907,7 @@ function ReadingScreen({ state }: ScreenProps) {
   const who = state.operator ?? 'AB';
   const band = bandText(step, shown, unit, dec);
   const noneInside = noneInsideText(state, step, target);
+  const passRange = passRangeText(state, step, unit, dec);
   const gaugeLine =
     `Read on ${step.gauge?.id ?? 'NO GAUGE'}` +
     (step.gauge?.reference === 'gauge'
@@ -1879,6 +1925,7 @@ function ReadingScreen({ state }: ScreenProps) {
     // inside the box: its edges and padding take 6 columns
     wrapRows(`band ${band} at 25.0 degC   (re-targeted; planned 0000.00)`, columns - 6) +
     (noneInside ? wrapRows(noneInside, columns - 6) : 0) +
+    (passRange ? wrapRows(passRange, columns - 6) : 0) +
     2 +
     (state.error ? wrapRows(`! ${state.error}`, columns) : 1) +
     1;
@@ -1920,6 +1967,7 @@ function ReadingScreen({ state }: ScreenProps) {
           {planned !== fromPa(shown, unit).toFixed(dec) ? `   (re-targeted; planned ${planned})` : ''}
         </Text>
         {noneInside ? <Text bold>{noneInside}</Text> : null}
+        {passRange ? <Text bold>{passRange}</Text> : null}
       </Box>
       <FindingLines lines={fit.lines} />
       <ReadingFields state={state} reading={`actual reading [${unit}]`} temperature="tank temperature" />

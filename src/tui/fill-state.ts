@@ -46,6 +46,7 @@ import {
   type PressureUnit,
 } from '../io/quantity.js';
 import { designFromHeader } from '../io/check.js';
+import { settlingOf } from '../io/plan-predict.js';
 import { acknowledges } from '../io/log-audit.js';
 import { chargeName, chargeWords, isSplit, type ChargeOf } from '../report/charges.js';
 import {
@@ -818,33 +819,46 @@ const initialOf = (s: FillState) =>
       }
     : undefined;
 
+/**
+ * check's GUM budget (linear) of these readings of the fill's steps, in order, judged against the design
+ * as `check` judges it; every step read must have a gauge (a ProblemError where the model refuses them)
+ */
+export function budgetOf(
+  s: FillState,
+  done: readonly Pick<DoneReading, 'step' | 'pressurePa' | 'temperatureK'>[],
+): { summary: UncertaintyResult; v: ReturnType<typeof judge> } {
+  const h = s.setup.header;
+  const readings = done.map((d, i) => ({
+    step: d.step,
+    source: s.setup.steps[i].source,
+    pressurePa: d.pressurePa,
+    temperatureK: d.temperatureK,
+    gauge: s.setup.steps[i].gauge!,
+  }));
+  const summary = evaluateUncertainty(
+    readings,
+    {
+      barometricPa: s.barometerPa,
+      barometricUncertaintyPa: h.barometer.u_Pa,
+      thermometerUncertaintyK: h.thermometer.u_K,
+      thermometerResolutionK: h.thermometer.resolution_K,
+      // the gas-thermometer settling per reading, as check takes it from the log (log-recheck.ts)
+      temperatureSettlingK: h.thermometer.settling_K ?? settlingOf(undefined),
+      trials: 0,
+      seed: 1,
+    },
+    h.design.diluent,
+    initialOf(s),
+  );
+  return { summary, v: judge(summary, s.setup.design, h.tolerance) };
+}
+
 /** the as-filled composition of all readings, with the GUM uncertainty where every step has a gauge */
 function finalJudgement(s: FillState): { judgement: CompositionJudgement; summary?: UncertaintyResult } {
-  const h = s.setup.header;
   const withGauges = s.done.every((_, i) => s.setup.steps[i].gauge);
   if (withGauges) {
     try {
-      const readings = s.done.map((d, i) => ({
-        step: d.step,
-        source: s.setup.steps[i].source,
-        pressurePa: d.pressurePa,
-        temperatureK: d.temperatureK,
-        gauge: s.setup.steps[i].gauge!,
-      }));
-      const summary = evaluateUncertainty(
-        readings,
-        {
-          barometricPa: s.barometerPa,
-          barometricUncertaintyPa: h.barometer.u_Pa,
-          thermometerUncertaintyK: h.thermometer.u_K,
-          thermometerResolutionK: h.thermometer.resolution_K,
-          trials: 0,
-          seed: 1,
-        },
-        h.design.diluent,
-        initialOf(s),
-      );
-      const v = judge(summary, s.setup.design, h.tolerance);
+      const { summary, v } = budgetOf(s, s.done);
       const deviations = v.deviations.map((d) => ({
         species: d.species,
         design: d.design,

@@ -8,6 +8,7 @@ import { premixName } from '../io/two-stage-request.js';
 import { fromPa, isPressureUnit } from '../io/quantity.js';
 import { chargeShort } from '../report/charges.js';
 import { decimalsFor, fixedSig } from '../report/format.js';
+import { wrapWords } from '../report/wrap.js';
 import type { Preview } from './wizard-state.js';
 
 /** one line per fill: number, gas (and charge), gauge and the reading to stop at on it */
@@ -37,6 +38,27 @@ export function findingLines(findings: readonly Finding[], stageOf?: (f: Finding
     );
   if (top.length > 4) lines.push(`+${top.length - 4} more; see mixwright plan`);
   return lines;
+}
+
+/** a line of findingLines: its severity, stage, code and fill */
+const FINDING_LINE = /^(DANGER|warning) ((?:stage \d+ )?)(\S+)((?: \(fill \d+\))?)$/;
+
+/**
+ * a preview line in rows of at most `width` columns, nothing cut: as it is where it fits; a finding
+ * line (findingLines) too long for the width gives its severity and where on its first row and the
+ * code whole on the next ("warning (fill 3)", "  predicted-u-over-tolerance"); any other line breaks
+ * at its spaces, its rows after the first two columns in
+ */
+export function previewRows(line: string, width: number): string[] {
+  if (line.length <= width) return [line];
+  const m = FINDING_LINE.exec(line);
+  if (m) {
+    const [, severity, stage, code, fill] = m;
+    const head = `${severity} ${stage}${fill.trim()}`.trimEnd();
+    const rows = [head, `  ${code}`];
+    if (rows.every((r) => r.length <= width)) return rows;
+  }
+  return wrapWords(line, width, { lead: /^\s*/, deeper: 2, keepSpacing: true });
 }
 
 const torr4 = (pa: number) => fixedSig(fromPa(pa, 'Torr'), 4);

@@ -1,6 +1,6 @@
 /** The design wizard screen (ink): fields left, live preview right, actions below. */
-import { useEffect } from 'react';
-import { Box, Text, useApp, useInput } from 'ink';
+import { useEffect, useState } from 'react';
+import { Box, Text, useApp, useInput, useStdout } from 'ink';
 import { useLatestState } from './latest-state.js';
 import { splitChunk } from './keys.js';
 import {
@@ -17,6 +17,7 @@ import {
   type WizardState,
 } from './wizard-state.js';
 import { Para } from './para.js';
+import { previewRows } from './stage-preview.js';
 
 export interface WizardAppProps {
   readonly initial: WizardState;
@@ -64,9 +65,14 @@ export function wizardActions(
   );
 }
 
-/** preview lines shown: one tank, and two stages (both stages' fills; the screen has 24 rows) */
-const PREVIEW_LINES = 11;
-const PREVIEW_LINES_TWO_STAGE = 13;
+/**
+ * preview rows shown (a line too wide for the box takes two: previewRows), one tank or two stages
+ * (both stages' fills): the screen has 24 rows
+ */
+const PREVIEW_LINES = 13;
+/** the wizard's width: the terminal's from 80 to 100 columns (the preview box takes what the fields leave) */
+const FIELDS_WIDTH = 44;
+export const wizardWidth = (columns: number | undefined) => Math.min(100, Math.max(80, columns || 80));
 /** the pause in typing after which a two-stage design is planned (a plan takes about a second) */
 export const EVALUATE_PAUSE_MS = 400;
 
@@ -98,14 +104,24 @@ function usePausedEvaluation(
 export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
   const [state, current, setState] = useLatestState(initial);
   const app = useApp();
+  const { stdout } = useStdout();
+  const width = wizardWidth(stdout?.columns);
+  // the hand-over to the guided fill: the wizard's last frame (its message: danger findings stand) is
+  // drawn before it leaves, so that it stays on the terminal above the fill
+  const [leaving, setLeaving] = useState(false);
+  useEffect(() => {
+    if (leaving) app.exit();
+  }, [leaving, app]);
   useInput((input, key) => {
+    if (leaving) return;
     let s = current();
     for (const a of wizardActions(input, key)) {
       s = wizardReducer(s, a, evaluate);
       if (s.request) {
         const r = act(s, s.request, Boolean(s.replace));
         if (r.kind === 'handOver') {
-          app.exit();
+          setState(s);
+          setLeaving(true);
           return;
         }
         s = wizardReducer(s, { type: 'result', outcome: r }, evaluate);
@@ -123,14 +139,14 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
   const err = state.evaluation.error;
   const tabLine = field && SPECIES_FIELDS.includes(field) ? completionLine(state.values[field], field) : '';
   return (
-    <Box flexDirection="column" width={80}>
+    <Box flexDirection="column" width={width}>
       <Text bold wrap="truncate-end">
         {lab
           ? `mixwright - new mixture design - lab: ${lab}`
           : 'mixwright - new mixture design (demo lab unless --lab)'}
       </Text>
       <Box>
-        <Box flexDirection="column" width={44}>
+        <Box flexDirection="column" width={FIELDS_WIDTH}>
           {FIELDS.map((f, i) => (
             <Text key={f}>
               {state.focus === i ? '>' : ' '} {f.padEnd(12)}
@@ -140,13 +156,15 @@ export function WizardApp({ initial, evaluate, act, lab }: WizardAppProps) {
             </Text>
           ))}
         </Box>
-        <Box flexDirection="column" width={36} borderStyle="single" paddingX={1}>
+        <Box flexDirection="column" width={width - FIELDS_WIDTH} borderStyle="single" paddingX={1}>
           <Text bold>preview</Text>
           {fitLines(
-            state.evaluation.preview?.lines ?? [
-              err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)',
-            ],
-            state.values.premix.trim() ? PREVIEW_LINES_TWO_STAGE : PREVIEW_LINES,
+            (
+              state.evaluation.preview?.lines ?? [
+                err?.field ? `(fix ${err.field}, marked !)` : '(no plan: see the message below)',
+              ]
+            ).flatMap((l) => previewRows(l, width - FIELDS_WIDTH - 4)),
+            PREVIEW_LINES,
           ).map((l, i) => (
             <Text key={i} wrap="truncate-end">
               {l}

@@ -268,20 +268,24 @@ export function wizardReducer(s: WizardState, a: WizardAction, evaluate: Evaluat
     case 'enter': {
       if (field) return { ...base, focus: base.focus + 1 };
       const action = ACTIONS[base.focus - FIELDS.length];
-      const err = base.evaluation.error;
+      // the action is checked against the plan it carries out, whenever Enter comes: a design still
+      // waiting for its pause in typing (only the quick check made) is planned in full now
+      const evaluation = base.evaluation.pending ? evaluate(base.values, true) : base.evaluation;
+      const now: WizardState = { ...base, evaluation };
+      const err = evaluation.error;
       if (err)
         return {
-          ...base,
+          ...now,
           message: `${action} refused: fix the design first (${err.field ?? 'the design'}, marked !): ${err.message}`,
         };
-      if (action === 'start guided fill' && base.evaluation.preview?.danger) {
+      if (action === 'start guided fill' && evaluation.preview?.danger) {
         return {
-          ...base,
+          ...now,
           request: action,
           message: 'danger findings stand: the guided fill will ask you to acknowledge them',
         };
       }
-      return { ...base, request: action };
+      return { ...now, request: action };
     }
     case 'done':
       return { ...base, message: a.message };

@@ -16,6 +16,12 @@ const CASES: [string, string[]][] = [
   ['split charges', ['recipes/ch4-o2-ar-phi1.yaml', '--order', 'CH4,Ar@400 Torr,O2,Ar']],
   ['two-stage', ['recipes/ch4-o2-ar-phi1.yaml', '--premix-tank', 'MT-2']],
   ['premix log', ['recipes/ch4-o2-ar-phi1.yaml', '--premix-log', 'batches/demo-premix-o2-ar-mt2.jsonl']],
+  // band-edges-past-tolerance: the shared band as a column of the Fills table
+  ['shared band', ['recipes/ch4-o2-ar-phi1.yaml', '--tolerance', '0.015']],
+  [
+    'shared band, split charges',
+    ['recipes/ch4-o2-ar-phi1.yaml', '--tolerance', '0.02', '--order', 'CH4,Ar@400 Torr,O2,Ar'],
+  ],
 ];
 
 describe('the text sheet fits 80 columns', () => {

@@ -107,8 +107,15 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
         await t.type(String(target(s)));
         await t.keys('Enter');
       }
-      const end2 = flat(await t.waitFor(/Stage 2 of 2/, 30000));
+      const end2 = flat(await t.waitFor(/Re-check of the log/, 30000));
+      expect(end2).toContain('Stage 2 of 2');
       expect(end2).toContain('filled from the premix log b1-premix.jsonl');
+      // the verdict points to the notes below only where a note below says it: the premix drawn early,
+      // how long after its log closed, of the least mixing time asked, confirmed by whom (check's words)
+      expect(end2, end2).toMatch(/PREMIX DRAWN EARLY \(see the notes below\)/);
+      expect(end2, end2).toMatch(
+        /! PREMIX DRAWN EARLY: premix in MT-2 confirmed mixed by AB at \S+ \(line \d+\) - DRAWN EARLY: \d+ s after the premix log closed, of the least 15 min asked/,
+      );
       await t.keys('q');
       // the premix was confirmed "mixed early" (stage 2 right after stage 1): the composition is within
       // tolerance, but a batch drawn before the premix's least mixing time is no pass (exit 7, as check)

@@ -4,10 +4,7 @@
 // a longer rest than the 20 h it had (unstirred, 55 h: diffusion alone; the rule is the guided fill's own,
 // premixMixingElapsed), is re-checked: verdict, exit, label and the fill's own exit say so.
 import { describe, expect, it } from 'vitest';
-import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { appendEvent, createLog, readLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
+import { readLog } from '../../src/io/batch-log.js';
 import { checkLog } from '../../src/io/check.js';
 import { checkExit } from '../../src/cli/commands/check.js';
 import { EXIT, ExitSignal } from '../../src/cli/context.js';
@@ -16,35 +13,11 @@ import { outcomeOfReport } from '../../src/tui/run.js';
 import { verdictWord } from '../../src/report/check-report.js';
 import { labelModel } from '../../src/report/label-model.js';
 import { premixMixingElapsed } from '../../src/core/index.js';
-
-const DEMO = 'batches/demo-ch4-phi1-from-premix.jsonl';
-const PREMIX = 'batches/demo-premix-o2-ar-mt2.jsonl';
-
-function remade(restS: number): string {
-  const dir = mkdtempSync(join(tmpdir(), 'mw-early-'));
-  copyFileSync(PREMIX, join(dir, 'demo-premix-o2-ar-mt2.jsonl'));
-  const [head, ...events] = readFileSync(DEMO, 'utf8')
-    .trim()
-    .split('\n')
-    .map((l) => JSON.parse(l) as Record<string, unknown>);
-  const h = head as unknown as LogHeader;
-  const pc = h.stage!.premix_check!;
-  const header = {
-    ...h,
-    stage: { ...h.stage!, premix_check: { ...pc, mixing: { stirred: false, rest_s: restS } } },
-  };
-  const file = join(dir, 'b.jsonl');
-  createLog(file, header as LogHeader);
-  for (const e of events) {
-    const { chain: _, ...rest } = e;
-    appendEvent(file, rest as unknown as NewLogEvent);
-  }
-  return file;
-}
+import { drawnEarlyLog } from '../stage-logs.js';
 
 describe('a premix drawn before its least mixing time', () => {
   it('the demo as made (20 h of a 55 h rest): NOT A PASS - PREMIX DRAWN EARLY, exit 7, the label says so', async () => {
-    const file = remade(55 * 3600);
+    const file = drawnEarlyLog(55 * 3600);
     const log = readLog(file);
     const mixed = log.premixMixed[0];
     // the premise, by the guided fill's own rule: 20 h after the premix log closed, 55 h asked
@@ -78,7 +51,7 @@ describe('a premix drawn before its least mixing time', () => {
   });
 
   it('the same log with a 15 h rest asked (20 h waited): PASS, exit 0 (the rule does not cry wolf)', async () => {
-    const r = await checkLog(readLog(remade(15 * 3600)), { trials: 0, seed: 1 });
+    const r = await checkLog(readLog(drawnEarlyLog(15 * 3600)), { trials: 0, seed: 1 });
     expect(verdictWord(r)).toBe('PASS');
     expect(checkExit(r)).toBe(EXIT.ok);
   });

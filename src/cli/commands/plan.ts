@@ -18,7 +18,7 @@ export function registerPlan(program: Command, cli: Cli): void {
     .action(async (recipeFile: string | undefined, o: DesignValues & { json?: boolean }) => {
       const { plan, req, unit, meta, proposal } = planFrom(recipeFile, o, true);
       stateGaugeConversions(req, cli);
-      // a proposed premix: among the text's findings, its own key in the JSON (the plan's findings are the sheet's)
+      // a proposed premix: among the text's (and the sheet's) findings, its own key in the JSON
       if (o.json) {
         const json = { ...planToJson(plan, meta, unit), two_stage_proposal: proposalJson(proposal, unit) };
         cli.out(JSON.stringify(json, null, 2) + '\n');

@@ -21,8 +21,11 @@ type SheetOptions = DesignValues & {
 async function sheet(cli: Cli, recipeFile: string | undefined, o: SheetOptions): Promise<void> {
   const format = sheetFormat(o.format, o.output);
   if (o.output) checkOutputTarget(o.output, Boolean(o.force));
-  const { plan, req, unit, meta } = planFrom(recipeFile, o);
+  const planned = planFrom(recipeFile, o, true);
+  const { req, unit, meta, proposal } = planned;
   stateGaugeConversions(req, cli);
+  // a premix in another tank proposed for a plan over its tolerance: among the findings, as `plan` says it
+  const plan = proposal ? { ...planned.plan, findings: [...planned.plan.findings, proposal] } : planned.plan;
   // a two-stage plan prints one sheet per stage, stage 1 first (report/two-stage-sheet.ts)
   const models = stageSheets(
     plan,
