@@ -20,6 +20,7 @@ import {
   describeProblemAt,
   speciesRole,
   type OutputStat,
+  type SpeciesDeviation,
   type PremixLogCause,
   type Problem,
   type Where,
@@ -283,16 +284,37 @@ function premixLines(r: CheckReport): string[] {
   );
 }
 
-/** the uncertainty budget of the largest fuel fraction */
+/**
+ * the fraction the verdict is about, with why: the one furthest outside its tolerance, else the one whose
+ * 95 % uncertainty reaches furthest past it; none when every fraction is shown within
+ */
+function fractionAtStake(r: CheckReport): { species: string; why: string } | undefined {
+  const open = r.verdict.deviations.filter((d) => !d.provenWithin && r.result.composition[d.species]);
+  const out = open.filter((d) => !d.within);
+  const reach = (d: SpeciesDeviation) => (Math.abs(d.deviation) + (d.within ? d.expandedU : 0)) / d.tolerance;
+  const worst = (out.length ? out : open).sort((a, b) => reach(b) - reach(a))[0];
+  if (!worst) return undefined;
+  return {
+    species: worst.species,
+    why: out.length
+      ? 'the fraction furthest outside its tolerance'
+      : 'the fraction whose 95 % uncertainty reaches furthest past its tolerance',
+  };
+}
+
+/** the uncertainty budget of the fraction the verdict is about, else of the largest fuel fraction */
 function budgetLines(r: CheckReport, order: Ordered): string[] {
   const inDesign = ([k]: readonly [string, OutputStat]) => (r.design?.composition[k] ?? 0) > 0;
+  const stake = fractionAtStake(r);
   // the largest fuel of the design (never the N2 of an air fill); else the largest non-O2, non-diluent gas
-  const fuel =
+  const shown =
+    (stake && order.find((e) => e[0] === stake.species)) ??
     order.find((e) => inDesign(e) && speciesRole(e[0]) === 'fuel') ??
     order.find((e) => inDesign(e) && e[0] !== 'O2' && !(r.design && e[0] in r.design.groups.diluent));
-  if (!fuel) return [];
-  const out = ['', `Largest contributions to u(${fuel[0]}):`];
-  for (const b of fuel[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
+  if (!shown) return [];
+  const why = stake?.species === shown[0] ? ` (${stake.why})` : '';
+  const out = ['', `Largest contributions to u(${shown[0]})${why}:`];
+  for (const b of shown[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
   return out;
 }
 
