@@ -1064,8 +1064,8 @@ function paTorr(pa: number): string {
 }
 
 function describeChargeProblem(p: ChargeProblem): string {
-  const which = (c: { source: string; charge: number }) =>
-    `charge ${c.charge} of the fill order (${c.source})`;
+  // `charge` is the entry's place in the fill order, not the source's own charge number ("charge 1 of 2")
+  const which = (c: { source: string; charge: number }) => `the fill order's entry ${c.charge} (${c.source})`;
   switch (p.kind) {
     case 'not-given-order':
       return (
