@@ -128,8 +128,11 @@ export interface FractionAgainstTolerance {
 /**
  * The design fraction furthest from its design value, measured in its own tolerance (max(relative x
  * design, absolute), as `judge`), in a composition estimated without uncertainty (a batch with air
- * leaked in, say). Example: design CH4 0.5 / Ar 0.5, relative 0.005 (t = 0.0025), the batch CH4 0.498 /
- * Ar 0.502: 0.002 off, within; CH4 0.4985 / Ar 0.5035: Ar 0.0035 off, the worst, beyond.
+ * leaked in, say).
+ * Example: worstAgainstTolerance({ CH4: 0.4985, Ar: 0.5035 }, designMixture({ kind: 'fractions',
+ *   fractions: { CH4: 0.5, Ar: 0.5 } }), { relative: 0.005, absolute: 0 }) -> { species: 'Ar',
+ *   deviation: 0.0035, tolerance: 0.0025, within: false } (by hand: Ar 0.0035 off is the worse of the
+ *   two, beyond 0.5 % of 0.5)
  */
 export function worstAgainstTolerance(
   composition: Readonly<Record<string, number>>,
