@@ -432,11 +432,15 @@ function pastRangeText(r: CheckReport): string | undefined {
 function verdictText(r: CheckReport): string {
   if (r.incomplete.length && r.kind === 'csv') {
     const inFill = r.recordedFillDangers ?? [];
+    // several planned fills missing (entries, or one entry naming "the plan's fills 2 and 4"): rows
+    const rows = r.incomplete.length > 1 || r.incomplete.some((x) => x.includes("the plan's fills"));
     return (
       `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: no row of the CSV fills ` +
       `${r.incomplete.length === 1 ? 'it' : 'them'} (a row is missing, or the batch is not finished), so it ` +
       `is not passed; the fractions and the review of the fill as recorded cover the rows given only: ` +
-      `add the missing row (its reading from the paper record) and check again` +
+      (rows
+        ? 'add the missing rows (their readings from the paper record) and check again'
+        : 'add the missing row (its reading from the paper record) and check again') +
       (inFill.length
         ? ` - ${recordedMark(inFill)} as the rows stand: the record does not show ` +
           `${inFill.length === 1 ? 'it' : 'them'} accepted`

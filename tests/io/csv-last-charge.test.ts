@@ -31,6 +31,7 @@ describe('a CSV without the last charge of a split diluent', () => {
       /Verdict\s+INCOMPLETE - no reading for Ar \(cyl-Ar charge 2 of 2, the plan's fill 4\): no row/,
     );
     expect(r.stdout).not.toMatch(/FAIL - out of tolerance/);
+    expect(r.stdout).toContain('add the missing row (its reading from the paper record)');
     expect(r.code).toBe(4);
     // the recorded fill says which planned fill is missing, not that the rows fill "other charges"
     expect(r.stdout).toContain(
@@ -52,6 +53,7 @@ describe('a CSV without the last charge of a split diluent', () => {
       "no reading for O2 (cyl-O2, the plan's fill 3), Ar (cyl-Ar charge 2 of 2, the plan's fill 4): no row",
     );
     expect(verdict).not.toContain('O2, cyl-O2');
+    expect(verdict).toContain('add the missing rows (their readings from the paper record)');
     expect(r.code).toBe(4);
   });
 
