@@ -47,11 +47,15 @@ export function parseTrials(text: string | undefined, fallback: number, why: 'ex
         code: 'out-of-range',
         what: 'Monte Carlo trials',
         value: trials,
+        // the range first: the message reads "... is outside the allowed range 100000 to 10000000, ..."
         allowed:
-          why === 'explain'
-            ? `a whole number from 100000 (JCGM 101 needs enough trials for a 95 % interval) ` +
-              `to ${MAX_TRIALS} (the trials are held in memory, about 1.2 GB at that count)`
-            : `a whole number from 100000 to ${MAX_TRIALS}`,
+          `100000 to ${MAX_TRIALS}, a whole number` +
+          (why === 'explain'
+            ? ` (JCGM 101 needs enough trials for a 95 % interval; the trials are held in memory, about ` +
+              `1.2 GB at ${MAX_TRIALS})`
+            : '') +
+          `: give one in that range, or leave --trials out ` +
+          (fallback > 0 ? `for the default ${fallback}` : '(no Monte Carlo then)'),
       },
       { field: '--trials' },
     );

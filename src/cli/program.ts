@@ -4,6 +4,7 @@
  * Each command lives in its own module under commands/; this file assembles them and
  * turns what ends a run (a refusal, an exit code, a system error) into the exit code.
  */
+import { parserErrorText } from './parser-errors.js';
 import { Command, CommanderError } from 'commander';
 import { ProblemError, type Problem, type Where } from '../core/index.js';
 import { checkRefusedJson, commandRefusedJson } from '../report/check-report.js';
@@ -113,7 +114,12 @@ export function createProgram(streams: Streams): {
         'with no command in a terminal to open the wizard.',
     )
     .version(VERSION, '-V, --version')
-    .configureOutput({ writeOut: cli.out, writeErr: cli.err })
+    // the parser's refusal of a choice in the house form (parser-errors.ts)
+    .configureOutput({
+      writeOut: cli.out,
+      writeErr: cli.err,
+      outputError: (s, write) => write(parserErrorText(s)),
+    })
     .exitOverride()
     .showHelpAfterError('(run with --help for usage)');
   registerPlan(program, cli);

@@ -708,10 +708,12 @@ const TANK_AND_GAUGES: WordingTable<
       `band's top at or below ${p(f.maxFillPa)} (a lower final pressure), or fill at the warmer temperature`
     );
   },
+  // pressurePa is the top of the fill's band (core/plan/review.ts ratingFindings), said as such
   'tank-over-rating': (f, p) =>
-    `pressure ${p(f.pressurePa)} exceeds the allowed working pressure ${p(f.limitPa)} ` +
-    `of ${tankPhrase(f.tank)} (rated ${p(f.ratedPa)}); lower the final pressure or use ` +
-    `a tank rated for it`,
+    `the top of ${f.step !== undefined ? "this fill's" : "a fill's"} band (its target plus the band), ` +
+    `${p(f.pressurePa)}, exceeds the allowed working pressure ${p(f.limitPa)} of ${tankPhrase(f.tank)} ` +
+    `(rated ${p(f.ratedPa)}): a reading inside the band may take the tank over it; lower the final ` +
+    `pressure or use a tank rated for it`,
   'no-gauge-covers': (f, p) =>
     `no gauge in the lab profile covers a reading of ${p(f.pressurePa)}; add ` +
     `a gauge with that range or change the final pressure`,

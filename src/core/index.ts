@@ -199,8 +199,14 @@ export type {
   UncertaintyResult,
   UncertaintySettings,
 } from './uncertainty.js';
-export { judge, withReadingsPastRange } from './verdict.js';
-export type { CheckVerdict, ReadingPastRange, SpeciesDeviation, VerdictKind } from './verdict.js';
+export { judge, withReadingsPastRange, worstAgainstTolerance } from './verdict.js';
+export type {
+  CheckVerdict,
+  FractionAgainstTolerance,
+  ReadingPastRange,
+  SpeciesDeviation,
+  VerdictKind,
+} from './verdict.js';
 export { retarget, ventBack } from './retarget.js';
 export type { Kept, RetargetInput, RetargetResult, VentBack } from './retarget.js';
 export type { RetargetCharge, RetargetStop } from './retarget.js';

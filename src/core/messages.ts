@@ -838,12 +838,19 @@ function typeName(expected: string): string {
 }
 
 /** our wording of a field the format refuses: what is wrong, and what to write instead */
-function describeFieldIssue(field: string, i: FieldIssue): string {
+/**
+ * a field's fault in words; `field` undefined where the location before the message names it already
+ * ("r.yaml:16:13 tolerance.relative: the value 2 is too large"), so it is said once
+ */
+function describeFieldIssue(field: string | undefined, i: FieldIssue): string {
   const hint = (h: string | undefined) => (h ? ` (${h})` : '');
+  const subject = field ?? 'the value';
   switch (i.kind) {
     case 'missing':
       return (
-        `the required field "${field}" is missing` +
+        (field === undefined
+          ? 'this required field is missing'
+          : `the required field "${field}" is missing`) +
         (i.hint ? `; it is the ${i.hint}` : '') +
         (i.misspelled
           ? `; the key "${i.misspelled.key}" is there instead - did you mean "${i.misspelled.wanted}"?`
@@ -852,26 +859,30 @@ function describeFieldIssue(field: string, i: FieldIssue): string {
             : '')
       );
     case 'bare-number':
-      return `${field} is the bare number ${formatNumber(i.value)}; it needs a unit (${i.hint})`;
+      return `${subject} is the bare number ${formatNumber(i.value)}; it needs a unit (${i.hint})`;
     case 'wrong-type':
-      return `${field} must be ${typeName(i.expected)}, not ${shownValue(i.got)}` + hint(i.hint);
+      return `${subject} must be ${typeName(i.expected)}, not ${shownValue(i.got)}` + hint(i.hint);
     case 'too-large':
     case 'too-small':
       return (
-        `${field} = ${shownValue(i.got)} is ${i.kind === 'too-large' ? 'too large' : 'too small'}; ` +
+        `${field === undefined ? 'the value' : `${field} =`} ${shownValue(i.got)} is ` +
+        `${i.kind === 'too-large' ? 'too large' : 'too small'}; ` +
         `the allowed range is ` +
         (i.kind === 'too-large' ? (i.inclusive ? 'at most' : 'below') : i.inclusive ? 'at least' : 'above') +
         ` ${formatNumber(i.limit)}` +
         hint(i.hint)
       );
     case 'empty':
-      return `${field} is empty; give a value` + hint(i.hint);
+      return `${subject} is empty; give a value` + hint(i.hint);
     case 'not-a-choice':
-      return `${field} = ${shownValue(i.got)} is not one of the choices: ${list(i.choices)}`;
+      return (
+        `${field === undefined ? 'the value' : `${field} =`} ${shownValue(i.got)} is not one of the ` +
+        `choices: ${list(i.choices)}`
+      );
     case 'no-form':
-      return `${field} has neither accepted form; see \`mixwright schema recipe\``;
+      return `${subject} has neither accepted form; see \`mixwright schema recipe\``;
     case 'library':
-      return `${field}: ${i.message}`;
+      return field === undefined ? i.message : `${field}: ${i.message}`;
   }
 }
 
@@ -1064,7 +1075,13 @@ export function describeWhere(w: Where): string {
 /** "recipes/x.yaml:7 design.phi: phi must be greater than zero (got -1)" */
 export function describeProblemAt(p: Problem, w: Where): string {
   const at = describeWhere(w);
-  return at ? `${at}: ${describeProblem(p)}` : describeProblem(p);
+  // a field's fault where the location names that field: the field said once, in the location
+  const named =
+    p.code === 'invalid-field' &&
+    w.field !== undefined &&
+    (w.field === p.field || w.field.endsWith(`.${p.field}`));
+  const text = named ? describeFieldIssue(undefined, p.issue) : describeProblem(p);
+  return at ? `${at}: ${text}` : text;
 }
 
 // raised by the planner's split charges
@@ -1074,8 +1091,8 @@ function paTorr(pa: number): string {
 }
 
 function describeChargeProblem(p: ChargeProblem): string {
-  const which = (c: { source: string; charge: number }) =>
-    `charge ${c.charge} of the fill order (${c.source})`;
+  // `charge` is the entry's place in the fill order, not the source's own charge number ("charge 1 of 2")
+  const which = (c: { source: string; charge: number }) => `the fill order's entry ${c.charge} (${c.source})`;
   switch (p.kind) {
     case 'not-given-order':
       return (

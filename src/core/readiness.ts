@@ -156,6 +156,8 @@ export interface DrawnState {
   /** air in the batch (the base vacuum's included), mole fraction */
   readonly airFraction: number;
   readonly phi?: number;
+  /** the batch with that air in it, mole fractions */
+  readonly composition: Record<string, number>;
 }
 
 export interface DrawDown {
@@ -198,10 +200,10 @@ export function drawDown(d: DrawDownInput): DrawDown {
   if (n <= 1) evenly += rate(lowestPa) * d.days;
   const held = d.residualFraction + rate(lowestPa) * d.days;
   const o2 = d.composition.O2 ?? 0;
-  const state = (air: number): DrawnState => ({
-    airFraction: air / (1 + air),
-    phi: equivalenceRatio(withAir(d.composition, d.air, air)),
-  });
+  const state = (air: number): DrawnState => {
+    const composition = withAir(d.composition, d.air, air);
+    return { airFraction: air / (1 + air), phi: equivalenceRatio(composition), composition };
+  };
   return {
     experiments: n,
     belowFrom: k >= 0 ? { experiment: k + 1, pressurePa: before[k] } : undefined,

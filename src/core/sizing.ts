@@ -110,7 +110,12 @@ export function finalPressureForExperiments(
 ): { pressurePa: number; sizing: Sizing } {
   if (!(Number.isInteger(count) && count > 0))
     fail(
-      { code: 'out-of-range', what: 'number of experiments', value: count, allowed: 'a whole number > 0' },
+      {
+        code: 'out-of-range',
+        what: 'number of experiments',
+        value: count,
+        allowed: '1 and up, a whole number',
+      },
       { field: 'experiments' },
     );
   if (!(input.tankVolumeM3 > 0))

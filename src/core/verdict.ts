@@ -113,3 +113,39 @@ export function withReadingsPastRange(
   const verdict = v.verdict === 'pass' && deviations.some((d) => d.pastRange) ? 'pass-uncertain' : v.verdict;
   return { ...v, verdict, deviations, pastRange: past };
 }
+
+/** a design fraction against its tolerance, for a composition with no uncertainty (an estimate) */
+export interface FractionAgainstTolerance {
+  readonly species: string;
+  /** the fraction less its design value, mole fraction */
+  readonly deviation: number;
+  readonly design: number;
+  /** the allowed |deviation|: max(relative x design, absolute) */
+  readonly tolerance: number;
+  readonly within: boolean;
+}
+
+/**
+ * The design fraction furthest from its design value, measured in its own tolerance (max(relative x
+ * design, absolute), as `judge`), in a composition estimated without uncertainty (a batch with air
+ * leaked in, say).
+ * Example: worstAgainstTolerance({ CH4: 0.4985, Ar: 0.5035 }, designMixture({ kind: 'fractions',
+ *   fractions: { CH4: 0.5, Ar: 0.5 } }), { relative: 0.005, absolute: 0 }) -> { species: 'Ar',
+ *   deviation: 0.0035, tolerance: 0.0025, within: false } (by hand: Ar 0.0035 off is the worse of the
+ *   two, beyond 0.5 % of 0.5)
+ */
+export function worstAgainstTolerance(
+  composition: Readonly<Record<string, number>>,
+  design: Design,
+  tol: Tolerance,
+): FractionAgainstTolerance | undefined {
+  let worst: FractionAgainstTolerance | undefined;
+  for (const [k, xd] of Object.entries(design.composition)) {
+    if (!(xd > 0)) continue;
+    const deviation = (composition[k] ?? 0) - xd;
+    const tolerance = Math.max(tol.relative * xd, tol.absolute);
+    const f = { species: k, deviation, design: xd, tolerance, within: Math.abs(deviation) <= tolerance };
+    if (!worst || Math.abs(deviation) / tolerance > Math.abs(worst.deviation) / worst.tolerance) worst = f;
+  }
+  return worst;
+}

@@ -18,6 +18,7 @@ import {
   type CheckedReading,
   type Design,
   type Gauge,
+  type GasSource,
   type TankSpec,
   type Tolerance,
 } from '../core/index.js';
@@ -71,6 +72,8 @@ interface CsvBasis {
   readonly safety?: { readonly coldestK?: number; readonly condensationFraction?: number };
   /** the sources in the order of the recipe's plan */
   readonly plannedOrder?: readonly string[];
+  /** the plan's fills' sources, in its order */
+  readonly plannedSources?: readonly GasSource[];
   /** the plan's tank pressure after each fill, Pa (absolute) */
   readonly targetsPa?: readonly number[];
 }
@@ -154,6 +157,7 @@ function csvBasisFromRecipe(file: string, opts: CheckOptions & { recipeFile: str
     planDangers,
     safety: req.input.safety,
     plannedOrder: plan.steps.map((s) => s.source.id),
+    plannedSources: plan.steps.map((s) => s.source),
     targetsPa: plan.steps.map((s) => s.targetPa),
   };
 }
@@ -340,44 +344,73 @@ function csvLimitFindings(
 }
 
 /**
- * the design species no row fills: a design species is filled by a row whose source carries it: its main
- * gas, a premix's gases, or a component of 1 % or more (a mixed cylinder; our own margin: a cylinder's
- * impurities are ppm). An impurity (Ar in the O2) is no fill of Ar, so a missing Ar row is not read as one
+ * the species a source fills: its main gas, a premix's gases, or a component of 1 % or more (a mixed
+ * cylinder; our own margin: a cylinder's impurities are ppm). An impurity (Ar in the O2) is no fill of
+ * Ar, so a missing Ar row is not read as one
  */
-function unfilledOf(design: Design, readings: readonly CheckedReading[]): string[] {
-  const carried = (s: CheckedReading['source']) => [
-    s.mainSpecies,
-    ...(s.gases ?? []),
-    ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
-  ];
-  const covered = new Set(readings.flatMap((r) => carried(r.source)));
-  return Object.keys(design.composition).filter((k) => design.composition[k] > 0 && !covered.has(k));
-}
+const carried = (s: GasSource) => [
+  s.mainSpecies,
+  ...(s.gases ?? []),
+  ...Object.keys(s.composition).filter((k) => s.composition[k] >= 0.01),
+];
 
 /**
- * The plan's last fills no row reads, when the rows are the plan's first fills in its order (charges
+ * The plan's fills no row reads when the rows are the plan's first fills in its order (charges
  * included) and the last row stopped where the plan's fill of the same place stops, not at the plan's
- * final pressure: "cyl-Ar charge 2 of 2 (the plan's fill 4)". A split diluent's missing last charge
- * leaves every species read, so `unfilledOf` cannot see it; a source filled in one charge where the plan
- * splits it (a complete fill) ends near the final pressure, and is not called incomplete here.
+ * final pressure. A split diluent's missing last charge leaves every species read, so the species alone
+ * cannot show it; a source filled in one charge where the plan splits it (a complete fill) ends near the
+ * final pressure, and is not called incomplete here.
  */
-function chargesNotRead(b: CsvBasis, readings: readonly CheckedReading[]): string[] {
-  const planned = b.plannedOrder;
+function unreadTail(b: CsvBasis, readings: readonly CheckedReading[]): number[] {
+  const planned = b.plannedSources;
   const targets = b.targetsPa;
   const n = readings.length;
   if (!planned || !targets || n === 0 || n >= planned.length) return [];
-  if (readings.some((r, i) => r.source.id !== planned[i])) return [];
+  if (readings.some((r, i) => r.source.id !== planned[i].id)) return [];
   const last = readings[n - 1].pressurePa;
   const final = targets[targets.length - 1];
   if (!(Math.abs(last - targets[n - 1]) < Math.abs(last - final))) return [];
-  const charges = (i: number) => planned.filter((id) => id === planned[i]).length;
-  const chargeOf = (i: number) => planned.slice(0, i + 1).filter((id) => id === planned[i]).length;
-  return planned.slice(n).map((id, j) => {
-    const i = n + j;
-    const charge = charges(i) > 1 ? ` charge ${chargeOf(i)} of ${charges(i)}` : '';
-    return `${id}${charge} (the plan's fill ${i + 1})`;
-  });
+  return planned.slice(n).map((_, j) => n + j);
 }
+
+/**
+ * Every planned fill the rows lack, each named once with its gas, cylinder, charge and the plan's fill
+ * number: "O2 (cyl-O2, the plan's fill 3)", "Ar (cyl-Ar charge 2 of 2, the plan's fill 4)". A fill is
+ * missing when no row fills a design species it carries (every plan fill of that species), or when
+ * the rows stop short of the plan's last fills in its order (unreadTail). A design species no planned
+ * fill carries is named alone.
+ */
+function missingFills(b: CsvBasis, design: Design, readings: readonly CheckedReading[]): string[] {
+  const covered = new Set(readings.flatMap((r) => carried(r.source)));
+  const unfilled = Object.keys(design.composition).filter(
+    (k) => design.composition[k] > 0 && !covered.has(k),
+  );
+  const planned = b.plannedSources ?? [];
+  const missing = new Set(unreadTail(b, readings));
+  planned.forEach((s, i) => {
+    if (carried(s).some((k) => unfilled.includes(k))) missing.add(i);
+  });
+  const charges = chargeNumbers(planned.map((s) => s.id));
+  // one entry a cylinder: its missing charges together ("cyl-Ar charges 1 and 2 of 2")
+  const bySource = new Map<string, number[]>();
+  for (const i of [...missing].sort((x, y) => x - y))
+    bySource.set(planned[i].id, [...(bySource.get(planned[i].id) ?? []), i]);
+  const named = [...bySource.values()].map((is) => {
+    const s = planned[is[0]];
+    const of = charges[is[0]].of;
+    const c =
+      of === 1
+        ? ''
+        : ` charge${is.length > 1 ? 's' : ''} ${andList(is.map((i) => charges[i].number))} of ${of}`;
+    return `${fillLabel(s)} (${s.id}${c}, the plan's fill${is.length > 1 ? 's' : ''} ${andList(is.map((i) => i + 1))})`;
+  });
+  const carriedByNamed = new Set([...missing].flatMap((i) => carried(planned[i])));
+  return [...named, ...unfilled.filter((k) => !carriedByNamed.has(k))];
+}
+
+/** "2", "2 and 4", "1, 2 and 4" */
+const andList = (xs: readonly number[]) =>
+  xs.length === 1 ? `${xs[0]}` : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`;
 
 /** the verdict's word on rows that are likely unit slips: the dangers above rest on them as typed */
 function slipCaveat(rows: readonly CsvReading[]): string[] {
@@ -432,7 +465,7 @@ export async function checkCsv(file: string, opts: CheckOptions): Promise<CheckR
     ),
   );
   let verdict = judge(result, design, tolerance);
-  const incomplete = design ? [...unfilledOf(design, readings), ...chargesNotRead(b, readings)] : [];
+  const incomplete = design ? missingFills(b, design, readings) : [];
   if (incomplete.length) {
     warnings.push(
       `no row fills ${incomplete.join(', ')}: a row is missing from the CSV, or the batch is not ` +

@@ -289,7 +289,16 @@ function premixChecksOf(log: ParsedLog): PremixCheckRecord[] {
       by: m.by,
       time: m.time,
       ...(m.note ? { note: m.note } : {}),
-      ...(t?.early ? { early: { elapsedS: t.elapsedS, neededS: t.neededS } } : {}),
+      ...(t?.early
+        ? {
+            early: {
+              elapsedS: t.elapsedS,
+              neededS: t.neededS,
+              ...(mixing ? { stirred: mixing.stirred } : {}),
+              ...(pc?.premix_log_closed ? { closed: pc.premix_log_closed } : {}),
+            },
+          }
+        : {}),
     };
   });
   const read = log.premixReadings.map((r): PremixCheckRecord => ({

@@ -20,6 +20,7 @@ import {
   describeProblemAt,
   speciesRole,
   type OutputStat,
+  type SpeciesDeviation,
   type PremixLogCause,
   type Problem,
   type Where,
@@ -220,18 +221,29 @@ function compositionTable(r: CheckReport, order: Ordered): string[] {
             ? `ok${soFar}`
             : d.within
               ? `ok?${soFar}`
-              : 'OUT'
+              : `OUT${soFar}`
         : '',
     ]);
   }
   const table = padTable(rows, [false, true, true, true, true, false, true, true, true, false]);
-  if (!soFar || !r.verdict.deviations.some((d) => d.within && !d.pastRange?.length)) return table;
-  return [
-    ...table,
-    `"so far": the batch is incomplete (no reading for ${r.incomplete.join(', ')}); such a fraction is ` +
-      `inside its tolerance on the ${r.kind === 'csv' ? 'rows given' : 'fills logged so far'} only, not ` +
-      `passed: the missing fills change every fraction`,
+  if (!soFar || !r.verdict.deviations.some((d) => !d.pastRange?.length)) return table;
+  return [...table, soFarLine(r)];
+}
+
+/** what "so far" in the table means: a fraction of an incomplete batch, judged on the readings given only */
+function soFarLine(r: CheckReport): string {
+  const judged = r.verdict.deviations.filter((d) => !d.pastRange?.length);
+  const marks = [
+    ...(judged.some((d) => d.within) ? ['"ok so far" is inside its tolerance, not passed'] : []),
+    ...(judged.some((d) => !d.within)
+      ? ['"OUT so far" is outside its tolerance, not a final judgement']
+      : []),
   ];
+  return (
+    `"so far": the batch is incomplete - no reading for ${r.incomplete.join(', ')}; each fraction is ` +
+    `judged on the ${r.kind === 'csv' ? 'rows given' : 'fills logged so far'} only: ${marks.join('; ')}: ` +
+    `the missing fills change every fraction`
+  );
 }
 
 /** phi, the diluent fraction and the unidentified impurity, each against the design */
@@ -272,16 +284,37 @@ function premixLines(r: CheckReport): string[] {
   );
 }
 
-/** the uncertainty budget of the largest fuel fraction */
+/**
+ * the fraction the verdict is about, with why: the one furthest outside its tolerance, else the one whose
+ * 95 % uncertainty reaches furthest past it; none when every fraction is shown within
+ */
+function fractionAtStake(r: CheckReport): { species: string; why: string } | undefined {
+  const open = r.verdict.deviations.filter((d) => !d.provenWithin && r.result.composition[d.species]);
+  const out = open.filter((d) => !d.within);
+  const reach = (d: SpeciesDeviation) => (Math.abs(d.deviation) + (d.within ? d.expandedU : 0)) / d.tolerance;
+  const worst = (out.length ? out : open).sort((a, b) => reach(b) - reach(a))[0];
+  if (!worst) return undefined;
+  return {
+    species: worst.species,
+    why: out.length
+      ? 'the fraction furthest outside its tolerance'
+      : 'the fraction whose 95 % uncertainty reaches furthest past its tolerance',
+  };
+}
+
+/** the uncertainty budget of the fraction the verdict is about, else of the largest fuel fraction */
 function budgetLines(r: CheckReport, order: Ordered): string[] {
   const inDesign = ([k]: readonly [string, OutputStat]) => (r.design?.composition[k] ?? 0) > 0;
+  const stake = fractionAtStake(r);
   // the largest fuel of the design (never the N2 of an air fill); else the largest non-O2, non-diluent gas
-  const fuel =
+  const shown =
+    (stake && order.find((e) => e[0] === stake.species)) ??
     order.find((e) => inDesign(e) && speciesRole(e[0]) === 'fuel') ??
     order.find((e) => inDesign(e) && e[0] !== 'O2' && !(r.design && e[0] in r.design.groups.diluent));
-  if (!fuel) return [];
-  const out = ['', `Largest contributions to u(${fuel[0]}):`];
-  for (const b of fuel[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
+  if (!shown) return [];
+  const why = stake?.species === shown[0] ? ` (${stake.why})` : '';
+  const out = ['', `Largest contributions to u(${shown[0]})${why}:`];
+  for (const b of shown[1].budget) out.push(`  ${b.name.padEnd(36)} ${fixedSig(b.contribution, 2)}`);
   return out;
 }
 
@@ -399,11 +432,15 @@ function pastRangeText(r: CheckReport): string | undefined {
 function verdictText(r: CheckReport): string {
   if (r.incomplete.length && r.kind === 'csv') {
     const inFill = r.recordedFillDangers ?? [];
+    // several planned fills missing (entries, or one entry naming "the plan's fills 2 and 4"): rows
+    const rows = r.incomplete.length > 1 || r.incomplete.some((x) => x.includes("the plan's fills"));
     return (
       `INCOMPLETE - no reading for ${r.incomplete.join(', ')}: no row of the CSV fills ` +
       `${r.incomplete.length === 1 ? 'it' : 'them'} (a row is missing, or the batch is not finished), so it ` +
       `is not passed; the fractions and the review of the fill as recorded cover the rows given only: ` +
-      `add the missing row (its reading from the paper record) and check again` +
+      (rows
+        ? 'add the missing rows (their readings from the paper record) and check again'
+        : 'add the missing row (its reading from the paper record) and check again') +
       (inFill.length
         ? ` - ${recordedMark(inFill)} as the rows stand: the record does not show ` +
           `${inFill.length === 1 ? 'it' : 'them'} accepted`
@@ -487,15 +524,36 @@ const firstFilled = (ids: readonly string[]) => [...new Set(ids)].join('\n');
 /**
  * The record filled its sources in another order than the plan's (the order each is first filled:
  * the tank's states follow it); `charges`: the same order, but other charges (a diluent the plan splits
- * in two filled in one)
+ * in two filled in one); `unfinished`: the plan's first fills, charge for charge in its order, and
+ * none of the fills after them (a batch stopped, or a row left out at the end)
  */
-export function orderDifference(f: {
-  readonly order: readonly string[];
-  readonly plannedOrder?: readonly string[];
-}): 'order' | 'charges' | undefined {
+export function orderDifference(
+  f: { readonly order: readonly string[]; readonly plannedOrder?: readonly string[] },
+  incomplete: boolean,
+): 'order' | 'charges' | 'unfinished' | undefined {
   if (!f.plannedOrder) return undefined;
-  if (firstFilled(f.order) !== firstFilled(f.plannedOrder)) return 'order';
+  const planned = f.plannedOrder;
+  // a complete fill may be a prefix too (CH4, Ar, O2 where the plan splits the Ar): other charges
+  if (incomplete && f.order.length < planned.length && f.order.every((id, i) => id === planned[i]))
+    return 'unfinished';
+  if (firstFilled(f.order) !== firstFilled(planned)) return 'order';
   return f.order.join('\n') === f.plannedOrder.join('\n') ? undefined : 'charges';
+}
+
+/**
+ * the readings are the plan's first `n` fills in its order: which they are, and which planned fills
+ * have no reading ("the plan's fill 4 (cyl-Ar) has no row")
+ */
+function unfinishedNote(n: number, planned: readonly string[], what: string): string {
+  const rest = planned.slice(n);
+  const nums = rest.map((_, j) => n + j + 1);
+  const fills =
+    nums.length === 1 ? `fill ${nums[0]}` : `fills ${nums.slice(0, -1).join(', ')} and ${nums.at(-1)}`;
+  return (
+    `note: the readings are the plan's first ${n === 1 ? 'fill' : `${n} fills`}, in its order ` +
+    `(${orderText(planned.slice(0, n))}); the plan's ${fills} (${orderText(rest)}) ` +
+    `${rest.length === 1 ? 'has' : 'have'} no ${what}: reviewed here as recorded, up to the last reading`
+  );
 }
 
 /** whether the record has no limit of its tank to check the readings against (no DANGER means nothing then) */
@@ -536,14 +594,16 @@ function recordedFillLines(r: CheckReport): string[] {
     `The fill as recorded (the planner's safety review of the tank after each reading, by this ` +
       `re-check's composition at the reading's pressure, and of each fill's path; ${reviewedAt(f)})`,
   ];
-  const differs = orderDifference(f);
+  const differs = orderDifference(f, r.incomplete.length > 0);
   if (differs && f.plannedOrder)
     out.push(
       differs === 'order'
         ? `  note: the readings fill ${orderText(f.order)} in that order; the plan fills ` +
             `${orderText(f.plannedOrder)}: the tank went through other states than the plan reviewed ` +
             `(reviewed here as recorded)`
-        : `  note: the readings fill in the plan's order, in other charges (readings ${orderText(f.order)}; ` +
+        : differs === 'unfinished'
+          ? `  ${unfinishedNote(f.order.length, f.plannedOrder, r.kind === 'csv' ? 'row' : 'logged reading')}`
+          : `  note: the readings fill in the plan's order, in other charges (readings ${orderText(f.order)}; ` +
             `plan ${orderText(f.plannedOrder)}): reviewed here as recorded`,
     );
   if (!f.findings.length)
@@ -815,8 +875,10 @@ function recordedFillJson(r: CheckReport) {
     order: f.order,
     planned_order: f.plannedOrder ?? null,
     // "order": the sources first filled in another order than the plan's; "charges": in its order,
-    // in other charges; false: as planned; null: no plan to compare with
-    order_differs: f.plannedOrder === undefined ? null : (orderDifference(f) ?? false),
+    // in other charges; "unfinished": an incomplete batch, the plan's first fills in its order; false: as
+    // planned; null: no plan to compare with
+    order_differs:
+      f.plannedOrder === undefined ? null : (orderDifference(f, r.incomplete.length > 0) ?? false),
     temperatures_K: { coldest: f.temperatures.coldestK, warmest: f.temperatures.warmestK },
     findings: f.findings,
     notes: f.notes,

@@ -395,8 +395,16 @@ export type PremixCheckRecord =
       readonly by: string;
       readonly time: string;
       readonly note?: string;
-      /** confirmed before the least mixing time since the premix log closed (elapsed and asked, s) */
-      readonly early?: { readonly elapsedS: number; readonly neededS: number };
+      /**
+       * confirmed before the least mixing time since the premix log closed (elapsed and asked, s; the
+       * mixing asked, and when the premix log closed)
+       */
+      readonly early?: {
+        readonly elapsedS: number;
+        readonly neededS: number;
+        readonly stirred?: boolean;
+        readonly closed?: string;
+      };
     }
   | {
       readonly kind: 'reading';
@@ -425,19 +433,40 @@ function minutes(s: number): string {
 }
 
 /**
+ * the note the guided fill logs with `mixed INITIALS` ("the premix in MT-2 was stirred ...; confirmed by
+ * AB; 33 s since the premix log was closed (T), less than the stirring 15 min asked: confirmed as mixed
+ * early by AB") less what the line before it says already: who confirmed it, and, drawn early, the time
+ * since the premix log closed and the least asked. Any other text of the note is kept as logged.
+ */
+function mixedNoteBeyond(note: string, by: string, early: boolean): string {
+  return note
+    .split('; ')
+    .filter((c) => c !== `confirmed by ${by}` && !(early && /since the premix log was closed \(/.test(c)))
+    .join('; ');
+}
+
+/**
  * a premix check in words, the one wording of `check` and the certificate: "MT-2 read 600.0 Torr on
  * head-10kT (600.0 Torr absolute) by AB at T (line 3): BELOW the minimum 621.7 Torr absolute ..."
  */
 export function premixCheckText(c: PremixCheckRecord, show: (pa: number, unit: string) => string): string {
-  if (c.kind === 'mixed')
+  if (c.kind === 'mixed') {
+    const e = c.early;
+    const note = c.note && mixedNoteBeyond(c.note, c.by, Boolean(e));
+    // the guided fill logs "confirmed as mixed early by AB" only after saying the time was short
+    const knowingly = e && c.note?.includes(`confirmed as mixed early by ${c.by}`);
+    const asked =
+      e && `${minutes(e.neededS)}${e.stirred === undefined ? '' : e.stirred ? ' of stirring' : ' of rest'}`;
     return (
-      `premix in ${c.tank} confirmed mixed by ${c.by} at ${c.time} (line ${c.line})` +
-      (c.early
-        ? ` - DRAWN EARLY: ${minutes(c.early.elapsedS)} after the premix log closed, of the least ` +
-          `${minutes(c.early.neededS)} asked; the re-check assumes a uniform premix, which nothing shows here`
+      `premix in ${c.tank} confirmed mixed${knowingly ? ' early' : ''} by ${c.by} at ${c.time} (line ${c.line})` +
+      (e
+        ? ` - DRAWN EARLY: ${minutes(e.elapsedS)} after the premix log closed` +
+          `${e.closed ? ` (${e.closed})` : ''}, short of the least asked, ${asked}; the re-check assumes a ` +
+          `uniform premix, which nothing shows here`
         : '') +
-      (c.note ? `: ${c.note}` : '')
+      (note ? `${e ? '; as logged' : ''}: ${note}` : '')
     );
+  }
   return (
     `premix tank ${c.tank} read ${c.reading} on ${c.gauge} (${show(c.pressurePa, c.unit)} absolute) by ${c.by} ` +
     `at ${c.time} (line ${c.line}), against the minimum ${show(c.minimumPa, c.unit)} absolute the batch ` +

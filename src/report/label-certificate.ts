@@ -191,7 +191,8 @@ function shortTime(t: string): string {
 function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
   const dev = new Map(r.verdict.deviations.map((d) => [d.species, d]));
   const pct = (x: number) => `${fixedSig(x * 100, 5)} %`;
-  // an incomplete batch: a fraction inside its tolerance is so on the fills logged so far, no pass
+  // an incomplete batch: a fraction inside its tolerance is so on the fills logged so far, no pass; one
+  // outside it is so far, not a final judgement
   const soFar = r.incomplete.length ? ' so far' : '';
   const rows: CertificateRow[] = label.composition.map((c) => {
     const d = dev.get(c.species);
@@ -216,7 +217,7 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
                 ? `within${soFar}`
                 : d.within
                   ? `inside${soFar}, not shown`
-                  : 'OUT',
+                  : `OUT${soFar}`,
     };
   });
   // a design species the re-check found none of still gets its row
@@ -228,7 +229,7 @@ function compositionRows(r: CheckReport, label: LabelModel): CertificateRow[] {
         asFilled: 'none found',
         deviation: '-100 %',
         tolerance: `+-${fixedSig((d.tolerance / d.design) * 100, 2)} %`,
-        status: 'OUT',
+        status: `OUT${soFar}`,
       });
   }
   return rows;

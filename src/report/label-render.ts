@@ -110,7 +110,7 @@ export function certificateToHtml(m: CertificateModel): string {
       (r) =>
         `<tr><td><b>${esc(r.species)}</b></td><td class="num">${esc(r.design)}</td><td ` +
         `class="num">${esc(pm(r.asFilled))}</td><td class="num">${esc(r.deviation)}</td><td ` +
-        (`class="num">${esc(pm(r.tolerance))}</td><td class="${r.status === 'OUT' ? 'out' : ''}">` +
+        (`class="num">${esc(pm(r.tolerance))}</td><td class="${r.status.startsWith('OUT') ? 'out' : ''}">` +
           `${esc(r.status)}</td></tr>`),
     )
     .join('');
@@ -200,7 +200,7 @@ export function certificateToMarkdown(m: CertificateModel): string {
   for (const r of m.rows)
     out.push(
       `| ${r.species} | ${r.design} | ${pm(r.asFilled)} | ${r.deviation} | ${pm(r.tolerance)} ` +
-        `| ${r.status === 'OUT' ? '**OUT**' : r.status} |`,
+        `| ${r.status.startsWith('OUT') ? `**${r.status}**` : r.status} |`,
     );
   out.push(
     `| phi | ${m.phi[0]} | ${pm(m.phi[1])} | | | |`,

@@ -1,5 +1,5 @@
 /** mixwright ready: mixing time and contamination of a filled tank, as text and JSON. */
-import type { Contamination, DrawDown, MixingEstimate } from '../core/index.js';
+import type { Contamination, DrawDown, FractionAgainstTolerance, MixingEstimate } from '../core/index.js';
 import { fixedSig } from './format.js';
 import { TORR_PA } from '../core/index.js';
 import { describeFinding } from '../core/index.js';
@@ -16,6 +16,16 @@ export interface ReadyReport {
   readonly atmosphericPa: number;
   /** the batch drawn down by its experiments (a reactor known), else undefined */
   readonly drawDown?: DrawDown;
+  /**
+   * the air the last experiment draws against the recipe's tolerance: the design fraction furthest
+   * off, spread evenly and held at the lowest pressure (undefined: no draw-down, or no design fraction)
+   */
+  readonly drawDownTolerance?: {
+    readonly relative: number;
+    readonly absolute: number;
+    readonly evenly?: FractionAgainstTolerance;
+    readonly held?: FractionAgainstTolerance;
+  };
   readonly reactor?: string;
   readonly days: number;
   readonly leakRatePaPerS: number;
@@ -87,7 +97,7 @@ export function readyToText(r: ReadyReport): string {
     const maybe = c.aboveAmbient && !r.drawDown ? ' while it stays above ambient' : '';
     out.push(
       `  phi ${c.phiStart.toFixed(5)} at the start, ${c.phiAfter.toFixed(5)} after ` +
-        `${r.days} days${full}${maybe}${drift}`,
+        `${daysText(r.days)}${full}${maybe}${drift}`,
     );
   }
   for (const n of r.notes) out.push(`note: ${n}`);
@@ -95,6 +105,7 @@ export function readyToText(r: ReadyReport): string {
 }
 
 const torr = (pa: number) => `${fixedSig(pa / TORR_PA, 4)} Torr`;
+const daysText = (d: number) => `${d} day${d === 1 ? '' : 's'}`;
 const pctOf = (x: number) => `${fixedSig(x * 100, 2)} %`;
 
 /**
@@ -143,10 +154,36 @@ function drawDownLines(r: ReadyReport): string[] {
     `  ${from}; before the last experiment, at ${torr(d.lowestPa)}, ` +
       `${fixedSig(d.ingressPerDayAtLowest * 1e6, 3)} ppm of the batch per day${o2}`,
     `  air the last experiment draws: ${pctOf(d.evenly.airFraction)}${phi(d.evenly)} with the ` +
-      `${d.experiments} experiments spread evenly over ${r.days} days; at most ` +
+      `${d.experiments} experiments spread evenly over ${daysText(r.days)}; at most ` +
       `${pctOf(d.heldAtLowest.airFraction)}${phi(d.heldAtLowest)} if the tank sits at ${torr(d.lowestPa)} ` +
-      `for all ${r.days} days (below ambient the composition does not keep: keep the storage short ` +
+      `for all ${daysText(r.days)} (below ambient the composition does not keep: keep the storage short ` +
       'once the tank is drawn down)',
+    ...toleranceLines(r),
+  ];
+}
+
+/** "O2 5.8 % above its design fraction" */
+function offWords(f: FractionAgainstTolerance): string {
+  const rel = Math.abs(f.deviation) / f.design;
+  return `${f.species} ${fixedSig(rel * 100, 2)} % ${f.deviation >= 0 ? 'above' : 'below'} its design fraction`;
+}
+
+/**
+ * the air the last experiment draws set against the recipe's tolerance, as computed: the design fraction
+ * furthest off, spread evenly and at most; within only where |deviation| <= tolerance
+ */
+function toleranceLines(r: ReadyReport): string[] {
+  const t = r.drawDownTolerance;
+  if (!t?.evenly || !t.held) return [];
+  const tol =
+    `${fixedSig(t.relative * 100, 2)} % relative` +
+    (t.absolute > 0 ? `, at least ${t.absolute} absolute` : '');
+  const judged = (f: FractionAgainstTolerance) =>
+    f.within ? 'within the tolerance' : 'BEYOND the tolerance';
+  return [
+    `  against the recipe's tolerance (each mole fraction within ${tol}), the planned batch with that air: ` +
+      `spread evenly, ${offWords(t.evenly)}, ${judged(t.evenly)}; at most, ${offWords(t.held)}, ` +
+      `${judged(t.held)} (the air alone: the fill's own deviation and uncertainty come on top, \`check\`)`,
   ];
 }
 
@@ -195,8 +232,23 @@ export function readyToJson(r: ReadyReport, version: string): object {
           evenly_phi: r.drawDown.evenly.phi ?? null,
           held_at_lowest_air_fraction: r.drawDown.heldAtLowest.airFraction,
           held_at_lowest_phi: r.drawDown.heldAtLowest.phi ?? null,
+          // the design fraction furthest off its design value in its tolerance, with that air (null: none)
+          evenly_worst_against_tolerance: toleranceJson(r.drawDownTolerance?.evenly),
+          held_at_lowest_worst_against_tolerance: toleranceJson(r.drawDownTolerance?.held),
         }
       : null,
     notes: r.notes,
   };
+}
+
+function toleranceJson(f: FractionAgainstTolerance | undefined) {
+  return f
+    ? {
+        species: f.species,
+        deviation: f.deviation,
+        design: f.design,
+        tolerance: f.tolerance,
+        within: f.within,
+      }
+    : null;
 }

@@ -271,7 +271,7 @@ function premixRows(plan: Plan, unit: SheetMeta['unit'], checkFill?: number): [s
     .filter(([, v]) => v >= 1e-4)
     .map(([k, v]) => {
       const u = st?.result.composition[k]?.u;
-      return u !== undefined ? `${k} ${fixedSig(v, 6)} ± ${fixedSig(2 * u, 2)}` : `${k} ${fixedSig(v, 6)}`;
+      return u !== undefined ? `${k} ${fixedSig(v, 6)} +- ${fixedSig(2 * u, 2)}` : `${k} ${fixedSig(v, 6)}`;
     });
   const d = t.delivery;
   return [

@@ -1680,7 +1680,8 @@ function PremixScreen({ state }: ScreenProps) {
         {pc.premixLog ? ` (premix log ${pc.premixLog})` : ''}. Before it:
       </Para>
       <Para bold={!mixed}>
-        1. {mixed ? `[done, ${mixed}] ` : ''}The premix in {pc.tank} mixed: {premixMixingWords(pc)}.
+        1. {mixed ? `[${state.premix?.mixedEarly ? 'mixed early' : 'done'}, ${mixed}] ` : ''}The premix in{' '}
+        {pc.tank} mixed: {premixMixingWords(pc)}.
       </Para>
       <Para bold={Boolean(mixed)}>
         2. {last?.enough ? `[done, ${last.by}] ` : ''}

@@ -144,6 +144,8 @@ export interface PremixCheck {
 /** what the log holds of the premix check: who confirmed the mixing, and the last premix-tank reading */
 export interface PremixDone {
   readonly mixedBy?: string;
+  /** confirmed `mixed early`: before the least mixing time since the premix log closed */
+  readonly mixedEarly?: boolean;
   /** the last premix-tank reading logged: its text, absolute pressure, whether it is enough, its line */
   readonly reading?: {
     readonly text: string;
@@ -450,8 +452,18 @@ function premixDoneOf(log: ParsedLog | undefined): PremixDone | undefined {
   const mixed = log.premixMixed.at(-1);
   const r = log.premixReadings.at(-1);
   if (!mixed && !r) return undefined;
+  const pc = log.header.stage?.premix_check;
+  const early =
+    mixed &&
+    premixMixingElapsed(
+      {
+        premixClosed: pc?.premix_log_closed,
+        mixing: pc?.mixing && { stirred: pc.mixing.stirred, restS: pc.mixing.rest_s },
+      },
+      mixed.time,
+    )?.early;
   return {
-    ...(mixed ? { mixedBy: mixed.by } : {}),
+    ...(mixed ? { mixedBy: mixed.by, ...(early ? { mixedEarly: true } : {}) } : {}),
     ...(r ? { reading: { text: r.reading, pressurePa: r.pressure_Pa, enough: r.enough, by: r.by } } : {}),
   };
 }
@@ -2931,26 +2943,28 @@ function onPremixMixed(s: FillState, text: string, now: string): FillState {
   const by = m[2];
   const t = premixMixingElapsed(pc, now);
   const since = t && `${elapsedWords(t.elapsedS)} since the premix log was closed (${pc.premixClosed})`;
-  const least =
-    t && (pc.mixing?.stirred ? `stirring ${duration(t.neededS)}` : `resting ${duration(t.neededS)}`);
+  const least = t && `${duration(t.neededS)} of ${pc.mixing?.stirred ? 'stirring' : 'rest'}`;
   if (t?.early && !m[1])
     return {
       ...s,
       input: '',
       error:
-        `only ${since}; the premix asks ${premixMixingWords(pc)}, at least ${least}: not logged. Wait, or if ` +
-        `it was mixed all the same, type mixed early ${by} to confirm it (logged with the time); stop ${by} ` +
-        'stops the batch here',
+        `only ${since}, less than the least asked, ${least}: not logged. The premix is to be ` +
+        `${premixMixingWords(pc)}. Wait, or if it was mixed all the same, type mixed early ${by} to ` +
+        `confirm it (logged with the time); stop ${by} stops the batch here`,
     };
+  // confirmed early: said once, with the time short of the least asked
   const note =
-    `the premix in ${pc.tank} was ${premixMixingWords(pc)}; confirmed by ${by}` +
+    `the premix in ${pc.tank} was ${premixMixingWords(pc)}` +
     (t
-      ? `; ${since}` + (t.early ? `, less than the ${least} asked: confirmed as mixed early by ${by}` : '')
-      : '; the time since the premix log was closed is not known');
+      ? t.early
+        ? `; ${since}, less than the ${least} asked: confirmed as mixed early by ${by}`
+        : `; confirmed by ${by}; ${since}`
+      : `; confirmed by ${by}; the time since the premix log was closed is not known`);
   return {
     ...s,
     input: '',
-    premix: { ...s.premix, mixedBy: by },
+    premix: { ...s.premix, mixedBy: by, ...(t?.early ? { mixedEarly: true } : {}) },
     effects: [{ kind: 'premix-mixed', tank: pc.tank, by, time: now, note }],
     message:
       `${by} confirms the premix in ${pc.tank} was mixed${t?.early ? ' EARLY' : ''} (logged). ` +

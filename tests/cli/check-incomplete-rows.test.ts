@@ -1,6 +1,6 @@
 // On an incomplete batch (a log with 2 of its 4 fills; a CSV with its O2 row removed) no composition row
-// may read "ok" or "within" as if the batch had passed: a fraction inside its tolerance is so on the
-// readings given only, and the text, the certificate and --json say so. Wording only: the readings are
+// may read "ok" or "within" as if the batch had passed, nor "OUT" as if it were a final judgement: a
+// fraction is judged on the readings given only, and the text, the certificate and --json say so. Wording only: the readings are
 // the plan's own targets (tests/log-at-targets.ts); no computed number is checked.
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -17,7 +17,7 @@ const dir = mkdtempSync(join(tmpdir(), 'mw-incomplete-'));
 
 /** the status column of the composition table's row of `species` */
 const statusOf = (text: string, species: string) =>
-  new RegExp(`^${species} .*  (ok\\?? so far|ok\\??|OUT)$`, 'm').exec(text)?.[1];
+  new RegExp(`^${species} .*  (ok\\?? so far|ok\\??|OUT so far|OUT)$`, 'm').exec(text)?.[1];
 
 describe('composition rows on an incomplete batch', () => {
   it('a log with 2 of 4 fills: Ar reads "ok so far" (text), "within so far" (certificate), JSON marks it', async () => {
@@ -29,12 +29,19 @@ describe('composition rows on an incomplete batch', () => {
     const r = await runCli(['check', f, ...TRIALS]);
     expect(r.code, r.stderr).toBe(4);
     expect(statusOf(r.stdout, 'Ar')).toBe('ok so far');
-    expect(r.stdout).not.toMatch(/ ok\??$/m);
-    expect(r.stdout).toContain('"so far": the batch is incomplete (no reading for step 3, step 4)');
+    // CH4 without the gas after it is far above its design fraction: outside, but not a final judgement
+    expect(statusOf(r.stdout, 'CH4')).toBe('OUT so far');
+    expect(r.stdout).not.toMatch(/ (ok\??|OUT)$/m);
+    expect(r.stdout).toContain(
+      '"so far": the batch is incomplete - no reading for step 3, step 4; each fraction is judged on the ' +
+        'fills logged so far only: "ok so far" is inside its tolerance, not passed; "OUT so far" is ' +
+        'outside its tolerance, not a final judgement',
+    );
     expect(r.stdout).toContain('on the recorded states and fill paths so far (the batch is incomplete');
     const label = await runCli(['label', f, ...TRIALS]);
     expect(label.stdout).toMatch(/^ {2}Ar .* within so far$/m);
-    expect(label.stdout).not.toMatch(/ within$/m);
+    expect(label.stdout).toMatch(/^ {2}CH4 .* OUT so far$/m);
+    expect(label.stdout).not.toMatch(/ (within|OUT)$/m);
     const j = JSON.parse((await runCli(['check', f, ...TRIALS, '--json'])).stdout);
     const ar = j.deviations.find((d: { species: string }) => d.species === 'Ar');
     expect([ar.within, ar.batch_incomplete]).toEqual([true, true]);

@@ -95,7 +95,7 @@ describe('each condition of the command line and recipe has its own code and typ
     await refusedWith(
       ['plan', f],
       'invalid-field',
-      /r\.yaml:4:\d+ pressure: pressure is the bare number 1500; it needs a unit/,
+      /r\.yaml:4:\d+ pressure: the value is the bare number 1500; it needs a unit/,
     );
   });
   it('a list with an empty entry or a species twice: bad-list with the fault', async () => {

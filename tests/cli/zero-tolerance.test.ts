@@ -23,6 +23,9 @@ async function refused(argv: string[], where: RegExp) {
   expect(r.code, r.stderr).toBe(2);
   const text = r.stderr.replace(/\s+/g, ' ');
   expect(text).toMatch(where);
+  // the field is said once, in the location (it was also repeated at the head of the message)
+  const field = /(--tolerance|tolerance\.relative): /.exec(text)![1];
+  expect(text.split(`${field}:`)).toHaveLength(2);
   expect(text).toContain('a tolerance of 0 allows no deviation of any mole fraction');
   expect(text).toContain('no reading can meet it');
   expect(text).toContain('give the relative deviation you accept, such as 0.005 (0.5 %)');

@@ -75,7 +75,7 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
           await t.keys('Enter');
           s = flat(await t.waitFor(/type\s+mixed\s+early\s+AB/));
           expect(s).toMatch(
-            /only \d+ s since the premix log was closed .* at least stirring 15 min: not logged/,
+            /only \d+ s since the premix log was closed .* the least asked, 15 min of stirring: not logged/,
           );
           await t.type('mixed early AB');
           await t.keys('Enter');

@@ -28,9 +28,32 @@ describe('a CSV without the last charge of a split diluent', () => {
       'CH4,10.01 Torr,25.0 degC,head-1kT\nAr,480.81 Torr,25.0 degC,head-1kT\nO2,500.82 Torr,25.0 degC,head-1kT\n',
     );
     expect(r.stdout).toMatch(
-      /Verdict\s+INCOMPLETE - no reading for cyl-Ar charge 2 of 2 \(the plan's fill 4\)/,
+      /Verdict\s+INCOMPLETE - no reading for Ar \(cyl-Ar charge 2 of 2, the plan's fill 4\): no row/,
     );
     expect(r.stdout).not.toMatch(/FAIL - out of tolerance/);
+    expect(r.stdout).toContain('add the missing row (its reading from the paper record)');
+    expect(r.code).toBe(4);
+    // the recorded fill says which planned fill is missing, not that the rows fill "other charges"
+    expect(r.stdout).toContain(
+      "note: the readings are the plan's first 3 fills, in its order (cyl-CH4, cyl-Ar, cyl-O2); the " +
+        "plan's fill 4 (cyl-Ar) has no row",
+    );
+    expect(r.stdout).not.toContain('in other charges');
+    // an unfinished batch's fractions outside their tolerance are not a final judgement
+    const status = r.stdout
+      .match(/^(Ar|O2|CH4) .*\d {2}(\S.*)$/gm)!
+      .map((l) => / {2}(OUT.*|ok.*)$/.exec(l)?.[1]);
+    expect(status).toEqual(['OUT so far', 'OUT so far', 'OUT so far']);
+  });
+
+  it("a CSV of the plan's first two fills: each missing fill named once, O2 with its cylinder", async () => {
+    const r = await check('CH4,10.01 Torr,25.0 degC,head-1kT\nAr,480.81 Torr,25.0 degC,head-1kT\n');
+    const verdict = r.stdout.split('\n').find((l) => l.startsWith('Verdict'))!;
+    expect(verdict).toContain(
+      "no reading for O2 (cyl-O2, the plan's fill 3), Ar (cyl-Ar charge 2 of 2, the plan's fill 4): no row",
+    );
+    expect(verdict).not.toContain('O2, cyl-O2');
+    expect(verdict).toContain('add the missing rows (their readings from the paper record)');
     expect(r.code).toBe(4);
   });
 

@@ -150,13 +150,17 @@ describe('schema messages in our words', () => {
     const r = refusal(() =>
       validateRecipeObject({ ...base, mixture: { fuel: 'CH4', oxidiser: 'O2', phi: 1 } }, 'r.yaml', locate),
     );
-    expect(r.text).toMatch(/"mixture.oxidizer" is missing.*"oxidiser".*did you mean "oxidizer"\?/);
+    expect(r.text).toMatch(
+      /mixture.oxidizer: this required field is missing.*"oxidiser".*did you mean "oxidizer"\?/,
+    );
   });
   it('a bare number for a quantity: says a unit is needed, with an example', () => {
     const r = refusal(() =>
       validateRecipeObject({ ...base, pressure: 1500, mixture: { fractions: 'Ar' } }, 'r.yaml', locate),
     );
-    expect(r.text).toMatch(/pressure is the bare number 1500; it needs a unit .*e\.g\. "1000 Torr"/);
+    expect(r.text).toMatch(
+      /pressure: the value is the bare number 1500; it needs a unit .*e\.g\. "1000 Torr"/,
+    );
     expect(r.text).not.toMatch(/Invalid input|expected string/);
   });
   it('a number out of range: the allowed range in plain words', () => {
@@ -167,7 +171,7 @@ describe('schema messages in our words', () => {
         locate,
       ),
     );
-    expect(r.text).toMatch(/tolerance.relative = 5 is too large; the allowed range is at most 0.5/);
+    expect(r.text).toMatch(/tolerance.relative: the value 5 is too large; the allowed range is at most 0.5/);
   });
 });
 

@@ -162,7 +162,7 @@ describe('stage 2: the premix check before the first fill from the premix', () =
       expect(refused.effects).toEqual([]);
       expect(refused.premix?.mixedBy).toBeUndefined();
       expect(refused.error).toMatch(
-        /^only 49 s since the premix log was closed \(2026-12-03T09:59:11Z\); .* at least stirring 15 min: not logged\. .*type mixed early TT/,
+        /^only 49 s since the premix log was closed \(2026-12-03T09:59:11Z\), less than the least asked, 15 min of stirring: not logged\. .*type mixed early TT/,
       );
       const ok = at(refused, 'mixed early TT');
       expect(ok.effects).toEqual([
@@ -192,7 +192,9 @@ describe('stage 2: the premix check before the first fill from the premix', () =
 
     it('an unstirred tank (7.5 h rest asked) 30 min after: early, asked', () => {
       const { s, at } = toPremix(hClosed('2026-12-03T09:30:00Z', false), NOW, []);
-      expect(at(s, 'mixed TT').error).toMatch(/^only 30 min since .* at least resting 7\.5 h: not logged/);
+      expect(at(s, 'mixed TT').error).toMatch(
+        /^only 30 min since .* the least asked, 7\.5 h of rest: not logged/,
+      );
     });
 
     it('1500 Torr where the premix log predicts 1890.2 Torr: the expected value and the difference are said; typed again it is logged with them', () => {

@@ -4,6 +4,7 @@ import {
   contamination,
   drawDown,
   drawDownPressures,
+  worstAgainstTolerance,
   mixingEstimate,
   ProblemError,
 } from '../../core/index.js';
@@ -95,6 +96,13 @@ function ready(cli: Cli, recipeFile: string | undefined, o: ReadyOptions): void 
           air: req.lab.air,
         })
       : undefined;
+  // the air the last experiment draws, against the recipe's tolerance (computed: never assumed within)
+  const tolerance = drawn && {
+    relative: plan.tolerance.relative,
+    absolute: plan.tolerance.absolute,
+    evenly: worstAgainstTolerance(drawn.evenly.composition, plan.design, plan.tolerance),
+    held: worstAgainstTolerance(drawn.heldAtLowest.composition, plan.design, plan.tolerance),
+  };
   const report = {
     id: req.recipe.id,
     tank: plan.tank.id,
@@ -105,6 +113,7 @@ function ready(cli: Cli, recipeFile: string | undefined, o: ReadyOptions): void 
     contamination: c,
     atmosphericPa,
     drawDown: drawn,
+    drawDownTolerance: tolerance,
     reactor: meta.experiments?.reactor.id,
     days,
     leakRatePaPerS: leak,
