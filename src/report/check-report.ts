@@ -24,6 +24,7 @@ import {
   type Problem,
   type Where,
 } from '../core/index.js';
+import { tankHazards } from './tank-hazards.js';
 
 /** CSV readings without --recipe: what was computed, and why that is no pass */
 const NO_DESIGN_TEXT =
@@ -565,6 +566,20 @@ function recordedFillLines(r: CheckReport): string[] {
   return out;
 }
 
+/**
+ * the gas as filled as it leaves the tank (tank-hazards.ts, the label's marks): flammable by itself or
+ * in air, oxygen-enriched, with the findings behind them
+ */
+function gasAsFilledLines(r: CheckReport): string[] {
+  const h = tankHazards(r);
+  return [
+    '',
+    'The gas as filled (by the composition above, released into air as well as in the tank)',
+    ...h.marks.map((m) => `  ${m}`),
+    ...h.findings.map((f) => `  ${f.severity}: ${f.code}: ${f.text}`),
+  ];
+}
+
 /** the method note, warnings, the record's findings and the verdict with its caveats */
 function verdictLines(r: CheckReport): string[] {
   const out: string[] = [''];
@@ -582,6 +597,7 @@ function verdictLines(r: CheckReport): string[] {
     for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
   out.push(...recordedFillLines(r));
+  out.push(...gasAsFilledLines(r));
   out.push('');
   // no DANGER must not read as "within the tank's limits" where there were none to check against
   out.push(`Verdict     ${verdictText(r)}${limitsUnchecked(r) ? ' - tank limits NOT checked' : ''}`);
@@ -880,6 +896,8 @@ export function checkToJson(r: CheckReport, version: string): object {
     accepted_hazards: acceptedJson(r),
     plan_dangers_not_acknowledged: r.planDangersNotAcknowledged ?? [],
     recorded_fill: recordedFillJson(r),
+    // the gas as filled: the label's hazard marks and the findings behind them (tank-hazards.ts)
+    as_filled_hazards: tankHazards(r),
     recorded_fill_dangers_not_accepted: r.recordedFillDangers ?? [],
     premix_checks: premixChecksJson(r),
     stage: stageJson(r),

@@ -99,6 +99,13 @@ describe('flammable in air: a gas that does not burn by itself', () => {
     expect(box).toContain('FLAMMABLE IN AIR');
     expect(box).not.toContain('FLAMMABLE GAS MIXTURE');
     expect(certificateFlowed(r.stdout)).toContain('as filled (the finished gas): flammable-in-air:');
+    // check gives the same marks, in its text and its JSON
+    const check = await runCli(['check', log, '--trials', '100000']);
+    expect(check.stdout).toMatch(/The gas as filled .*\n {2}FLAMMABLE IN AIR/);
+    const j = JSON.parse((await runCli(['check', log, '--trials', '100000', '--json'])).stdout);
+    expect(j.as_filled_hazards.marks).toEqual([
+      'FLAMMABLE IN AIR - burns where it leaks or is vented into air',
+    ]);
   });
 });
 
