@@ -839,6 +839,11 @@ function recordedFillJson(r: CheckReport) {
   };
 }
 
+/** the fill as recorded, and the gas as filled: the label's hazard marks and the findings behind them */
+function asFilledJson(r: CheckReport) {
+  return { recorded_fill: recordedFillJson(r), as_filled_hazards: tankHazards(r) };
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -895,9 +900,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
     plan_dangers_not_acknowledged: r.planDangersNotAcknowledged ?? [],
-    recorded_fill: recordedFillJson(r),
-    // the gas as filled: the label's hazard marks and the findings behind them (tank-hazards.ts)
-    as_filled_hazards: tankHazards(r),
+    ...asFilledJson(r),
     recorded_fill_dangers_not_accepted: r.recordedFillDangers ?? [],
     premix_checks: premixChecksJson(r),
     stage: stageJson(r),
