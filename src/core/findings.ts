@@ -182,6 +182,22 @@ export type Finding = Base &
         readonly source: string;
         readonly incomingShare: number;
       } & FlammabilityNumbers)
+    | ({
+        /**
+         * the finished gas does not burn by itself but does where it meets air (tank-gas.ts): flammable
+         * from `tankShareFrom` to `tankShareTo` tank gas in its mixture with air; `tankShare` at the
+         * worst point, whose numbers follow
+         */
+        readonly code: 'flammable-in-air';
+        readonly tankShareFrom: number;
+        readonly tankShareTo: number;
+        readonly tankShare: number;
+      } & FlammabilityNumbers)
+    | ({
+        /** its mixing line with air comes inside the data's uncertainty margin (not shown non-flammable in air) */
+        readonly code: 'near-flammable-in-air';
+        readonly tankShare: number;
+      } & FlammabilityNumbers)
     | {
         readonly code: 'oxygen-compression';
         readonly oxygenFraction: number;
@@ -816,6 +832,8 @@ const FLAMMABILITY: WordingTable<
   | 'near-flammable-fill-path'
   | 'closed-vessel-fill-path'
   | 'flammable-at-inlet'
+  | 'flammable-in-air'
+  | 'near-flammable-in-air'
 > = {
   'flammable-state': (f, p) =>
     `the tank is flammable after this fill (${flammabilityDetail(f)}); choose ` +
@@ -851,6 +869,20 @@ const FLAMMABILITY: WordingTable<
     `compositions (about ${pct(f.incomingShare)} incoming gas: ${flammabilityDetail(f)}), ` +
     `although the tank itself stays outside the flammable region; fill it in ` +
     `another order, or dilute the tank gas first, and open the valve slowly`,
+  'flammable-in-air': (f) =>
+    `the finished batch does not burn by itself, but it is flammable in air: released into air (a ` +
+    `leak, a vent, the tank opened) it makes flammable mixtures from ${pct(f.tankShareFrom)} to ` +
+    `${pct(f.tankShareTo)} tank gas in air (worst at ${pct(f.tankShare)}: ${flammabilityDetail(f)}); ` +
+    `handle it as a flammable gas: vent it only to a safe exhaust, keep ignition sources away, and ` +
+    `follow the supplier safety data and local codes`,
+  'near-flammable-in-air': (f) =>
+    `released into air the finished batch passes, at about ${pct(f.tankShare)} of it in the mixture, ` +
+    `a composition that is ` +
+    withinMarginWords(f, f.withinMargin ?? 0)
+      .replace(/^this state is /, '')
+      .replace(/ Treat it as possibly flammable, .*$/, '') +
+    ` Handle it as possibly flammable in air: vent it only to a safe exhaust, keep ignition sources ` +
+    `away, and follow the supplier safety data and local codes`,
 };
 
 /** condensation of a vapour: in its own fill line, or in the tank */

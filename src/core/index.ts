@@ -172,6 +172,16 @@ export {
   reviewSegment,
 } from './fill-path.js';
 export type { PathPoint, PathRank, SegmentReview } from './fill-path.js';
+// the finished tank gas's own hazards: flammable in air, oxygen-enriched
+export {
+  flammableInAir,
+  inAirFinding,
+  oxygenEnriched,
+  oxygenEquivalent,
+  RELEASE_AIR,
+  type InAirReview,
+  type InAirVerdict,
+} from './tank-gas.js';
 export { fuelsThatMatter, reviewCompression, OXYGEN_COMPRESSION_LIMIT_K } from './compression.js';
 export type { FillEvent, SafetyContext, TankState } from './safety.js';
 export { adviseOrder, isSaferThan, scoreGivenOrder, sequenceOf } from './order.js';

@@ -211,6 +211,22 @@ export const THRESHOLDS = {
       'a fill segment with less fuel than this share of the lowest LFL cannot burn ' +
       '(Burgess-Wheeler: LFL x heat of combustion about constant)',
   },
+  releaseAirOxygen: {
+    value: 0.21,
+    unit: 'mole fraction',
+    basis: 'common-practice',
+    note:
+      'O2 in the air a released tank gas mixes with (the rest N2): dry air holds 20.95 % O2, taken as ' +
+      "21 %, the flammability diagram's air line; the gas is judged flammable in air on that mixing line",
+  },
+  releasePressurePa: {
+    value: 101325,
+    unit: 'Pa',
+    basis: 'common-practice',
+    note:
+      'pressure at which a tank gas released into air is judged (one standard atmosphere: a leak or ' +
+      'a vent mixes with the room air at about ambient pressure)',
+  },
   psatExtrapolationK: {
     value: 10,
     unit: 'K',
@@ -252,6 +268,8 @@ export const REFLECTED_OVER_CJ = THRESHOLDS.reflectedOverCj.value;
 export const ACETYLENE_LIMIT_PA = THRESHOLDS.acetyleneLimitPa.value;
 export const TRACE_OXYGEN = THRESHOLDS.traceOxygen.value;
 export const TRACE_FUEL_OF_LFL = THRESHOLDS.traceFuelOfLfl.value;
+export const RELEASE_AIR_OXYGEN = THRESHOLDS.releaseAirOxygen.value;
+export const RELEASE_PRESSURE_PA = THRESHOLDS.releasePressurePa.value;
 export const PSAT_EXTRAPOLATION_K = THRESHOLDS.psatExtrapolationK.value;
 export const PSAT_ESTIMATE_NOTE_ABOVE = THRESHOLDS.psatEstimateNoteAbove.value;
 

@@ -25,6 +25,7 @@ import {
   type Problem,
   type Where,
 } from '../core/index.js';
+import { tankHazards } from './tank-hazards.js';
 
 /** CSV readings without --recipe: what was computed, and why that is no pass */
 const NO_DESIGN_TEXT =
@@ -625,6 +626,20 @@ function recordedFillLines(r: CheckReport): string[] {
   return out;
 }
 
+/**
+ * the gas as filled as it leaves the tank (tank-hazards.ts, the label's marks): flammable by itself or
+ * in air, oxygen-enriched, with the findings behind them
+ */
+function gasAsFilledLines(r: CheckReport): string[] {
+  const h = tankHazards(r);
+  return [
+    '',
+    'The gas as filled (by the composition above, released into air as well as in the tank)',
+    ...h.marks.map((m) => `  ${m}`),
+    ...h.findings.map((f) => `  ${f.severity}: ${f.code}: ${f.text}`),
+  ];
+}
+
 /** the method note, warnings, the record's findings and the verdict with its caveats */
 function verdictLines(r: CheckReport): string[] {
   const out: string[] = [''];
@@ -642,6 +657,7 @@ function verdictLines(r: CheckReport): string[] {
     for (const f of r.findings) out.push(`  ${f.severity}: ${f.message}`);
   }
   out.push(...recordedFillLines(r));
+  out.push(...gasAsFilledLines(r));
   out.push('');
   // no DANGER must not read as "within the tank's limits" where there were none to check against
   out.push(`Verdict     ${verdictText(r)}${limitsUnchecked(r) ? ' - tank limits NOT checked' : ''}`);
@@ -885,6 +901,11 @@ function recordedFillJson(r: CheckReport) {
   };
 }
 
+/** the fill as recorded, and the gas as filled: the label's hazard marks and the findings behind them */
+function asFilledJson(r: CheckReport) {
+  return { recorded_fill: recordedFillJson(r), as_filled_hazards: tankHazards(r) };
+}
+
 export function checkToJson(r: CheckReport, version: string): object {
   const composition: Record<string, object> = {};
   for (const [k, st] of Object.entries(r.result.composition)) composition[k] = statJson(st);
@@ -941,7 +962,7 @@ export function checkToJson(r: CheckReport, version: string): object {
     record_closed: r.record ? r.record.closed : null,
     accepted_hazards: acceptedJson(r),
     plan_dangers_not_acknowledged: r.planDangersNotAcknowledged ?? [],
-    recorded_fill: recordedFillJson(r),
+    ...asFilledJson(r),
     recorded_fill_dangers_not_accepted: r.recordedFillDangers ?? [],
     premix_checks: premixChecksJson(r),
     stage: stageJson(r),

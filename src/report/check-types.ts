@@ -284,6 +284,14 @@ export interface LogView {
     readonly barometer: { readonly pressure_Pa: number; readonly u_Pa: number };
     readonly thermometer: { readonly u_K: number; readonly resolution_K: number };
     readonly recipe?: unknown;
+    /** the batch's own design and planned final pressure (its title is made of them) */
+    readonly design: {
+      readonly composition: Readonly<Record<string, number>>;
+      readonly phi: number | null;
+      readonly diluent: readonly string[];
+      readonly diluent_fraction: number;
+    };
+    readonly final_pressure_Pa: number;
     /** the planned fills (the charge of a split source: logged, or counted from the sources) */
     readonly steps?: readonly {
       readonly step: number;

@@ -125,3 +125,38 @@ export function tankRating(plan: Pick<Plan, 'tank'>, P: (pa: number, sig?: numbe
       : '';
   return t.ratedPressurePa === undefined ? 'rating not known' : `rated ${P(t.ratedPressurePa, 4)}${limit}`;
 }
+
+/**
+ * a mixture's title: its gases, phi and dilution, pressure and tank ("CH4/O2 phi 1 in 98 % Ar, 1500 Torr
+ * in MT-1"), or its fractions where it has no phi; the sheet's title of a design given by options and
+ * the certificate's of a batch, from the batch's own values
+ */
+export function mixtureTitle(
+  d: {
+    readonly composition: Readonly<Record<string, number>>;
+    readonly phi?: number;
+    readonly diluentFraction: number;
+    readonly groups: {
+      readonly fuel: Readonly<Record<string, number>>;
+      readonly oxidizer: Readonly<Record<string, number>>;
+      readonly diluent: Readonly<Record<string, number>>;
+    };
+  },
+  pressurePa: number,
+  tank: string,
+  unit: PressureUnit,
+): string {
+  const names = (g: Readonly<Record<string, number>>) => Object.keys(g).join('+');
+  const num = (v: number) => String(Number(v.toPrecision(3)));
+  const at = `${pressure(pressurePa, unit, 4)} in ${tank}`;
+  if (d.phi !== undefined && Object.keys(d.groups.fuel).length && Object.keys(d.groups.oxidizer).length) {
+    const dil = Object.keys(d.groups.diluent).length
+      ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}`
+      : '';
+    return `${names(d.groups.fuel)}/${names(d.groups.oxidizer)} phi ${num(d.phi)}${dil}, ${at}`;
+  }
+  const parts = Object.entries(d.composition)
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, v]) => `${k} ${num(v * 100)} %`);
+  return `${parts.join(', ')}, ${at}`;
+}

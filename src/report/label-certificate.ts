@@ -6,7 +6,7 @@
  * the re-check report and the parsed log only; the renderers (label-render.ts) are pure
  * functions of this model.
  */
-import { STANDING_CAUTION } from '../core/index.js';
+import { resolveSpeciesKey, speciesRole, STANDING_CAUTION } from '../core/index.js';
 import {
   premixCheckText,
   readerOf,
@@ -17,9 +17,10 @@ import {
 import { premixPressure } from './check-report.js';
 import { COMPOSITION_ALONE_NOT_USABLE } from './check-outcome.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
-import { decimalsFor, fixedSig, tankName } from './format.js';
+import { decimalsFor, fixedSig, mixtureTitle, tankName } from './format.js';
 import { labelLines, labelModel, outcomeLeads, type LabelModel } from './label-model.js';
 import { chargesOf, chargeSuffix, type ChargeOf } from './charges.js';
+import { tankHazards } from './tank-hazards.js';
 
 export interface CertificateRow {
   readonly species: string;
@@ -336,7 +337,10 @@ function ventReadings(r: CheckReport, log: LogView | undefined): CertificateRead
   });
 }
 
-/** the check's warnings, the record's findings and the plan's findings, dangers first */
+/**
+ * the check's warnings, the record's findings, the plan's findings (planned values), the review of the
+ * fill as recorded and the hazards of the gas as filled, dangers first
+ */
 function certificateFindings(r: CheckReport, log: LogView | undefined): { severity: string; text: string }[] {
   const findings: { severity: string; text: string }[] = [];
   // what the re-check found in the log (warnings of the check, e.g. a torn line or an unacknowledged danger)
@@ -344,12 +348,23 @@ function certificateFindings(r: CheckReport, log: LogView | undefined): { severi
     if (!/^danger finding .* was acknowledged by/.test(w)) findings.push({ severity: 'check', text: w });
   // the log as a record (readings past a limit, edited lines, text and number that disagree), worded once
   for (const f of r.findings) findings.push({ severity: f.severity, text: f.message });
+  // the plan's findings are of the planned values; the fill as recorded and the gas as filled are said apart
   for (const f of log?.header.findings ?? [])
     if (f.code !== 'isolate-gauge')
       findings.push({
         severity: f.severity,
         text: `${f.code}${f.step ? ` (fill ${f.step})` : ''}: ${f.message}`,
       });
+  for (const f of r.recordedFill?.findings ?? [])
+    findings.push({
+      severity: f.severity,
+      text:
+        `as filled: ${f.code}${f.step ? ` (fill ${f.step})` : ''}` +
+        `${f.accepted ? ' (accepted in the log)' : ''}: ${f.message}`,
+    });
+  // the gas as filled: flammable in air, oxygen-enriched (tank-hazards.ts, the label's marks)
+  for (const f of tankHazards(r, log).findings)
+    findings.push({ severity: f.severity, text: `as filled (the finished gas): ${f.code}: ${f.text}` });
   const order = ['danger', 'check', 'warning', 'note'];
   findings.sort((a, b) => order.indexOf(a.severity) - order.indexOf(b.severity));
   return findings;
@@ -393,6 +408,68 @@ function stageTitle(title: string, r: CheckReport, tank: string): string {
   return `premix of batch ${st.batch} (stage 1 of 2; the batch: ${title}): ${gases.join('/')} in ${tank}`;
 }
 
+/**
+ * The certificate's title from the batch's own values (its design, planned final pressure and tank, as
+ * the log header records them), never the recipe's title alone: a batch filled with other options than
+ * its recipe (--pressure) keeps the recipe's title, which states the recipe's values. Where the recipe's
+ * title says other than the batch's own, it is quoted after it as the recipe's.
+ */
+function batchTitle(h: LogView['header']): string {
+  const d = h.design;
+  const diluent = Object.fromEntries(h.design.diluent.map((k) => [k, d.composition[k] ?? 0]));
+  const fuel: Record<string, number> = {};
+  const oxidizer: Record<string, number> = {};
+  for (const [k, v] of Object.entries(d.composition)) {
+    if (k in diluent || !(v > 0)) continue;
+    // a known species by its role; the rest of an oxidizer blend (the N2 of air) with the oxidizer
+    if (resolveSpeciesKey(k) && speciesRole(k) === 'fuel') fuel[k] = v;
+    else oxidizer[k] = v;
+  }
+  const recipe = h.recipe as { title?: unknown; pressure?: unknown } | undefined;
+  const typed = typeof recipe?.pressure === 'string' ? recipe.pressure.trim().split(/\s+/).pop() : undefined;
+  const unit: PressureUnit = typed && isPressureUnit(typed) ? typed : 'Torr';
+  const own = mixtureTitle(
+    {
+      composition: d.composition,
+      phi: d.phi ?? undefined,
+      diluentFraction: d.diluent_fraction,
+      groups: { fuel, oxidizer, diluent },
+    },
+    h.final_pressure_Pa,
+    tankName(h.tank.id),
+    unit,
+  );
+  const theirs = typeof recipe?.title === 'string' ? recipe.title : undefined;
+  if (!theirs) return own;
+  return titleAgrees(theirs, h) ? theirs : `${own} (recipe "${theirs}")`;
+}
+
+/** how far a value the title states may be from the batch's own, relative (the title's rounding) */
+const TITLE_ROUNDING = 0.005;
+
+/**
+ * whether a recipe's title states nothing against the batch: every pressure it gives ("500 Torr",
+ * "2 bar") within TITLE_ROUNDING of the batch's planned final pressure, a phi it gives of the batch's
+ * phi, and a tank it ends with ("in MT-2") the batch's. A title that states none of them agrees.
+ */
+function titleAgrees(title: string, h: LogView['header']): boolean {
+  const near = (a: number, b: number) => Math.abs(a - b) <= TITLE_ROUNDING * Math.abs(b);
+  for (const m of title.matchAll(/(\d+(?:\.\d+)?)\s*(Torr|kPa|mbar|bar|psi|Pa|atm)\b/g)) {
+    const unit = m[2] as PressureUnit;
+    if (!near(Number(m[1]), fromPa(h.final_pressure_Pa, unit))) return false;
+  }
+  const phi = /\bphi\s*(\d+(?:\.\d+)?)/.exec(title);
+  if (phi && !(h.design.phi !== null && near(Number(phi[1]), h.design.phi))) return false;
+  const tank = /\bin\s+(\S+)\s*$/.exec(title);
+  return !tank || tank[1] === h.tank.id || !/\d/.test(tank[1]);
+}
+
+/**
+ * what the certificate's findings are of: the plan's (in its header) at its planned values, those
+ * marked "as filled" from the readings (the fill as recorded, the gas as filled)
+ */
+export const FINDINGS_KEY = 'the plan\'s at its planned values; "as filled": from the readings';
+
 /** the tank as the log names it: volume and rating */
 function tankText(h: LogView['header'] | undefined, label: LabelModel): string {
   if (!h) return label.tank;
@@ -435,8 +512,10 @@ export function buildCertificateModel(
     ),
   ];
   const recipe = h?.recipe as { title?: unknown; id?: unknown } | undefined;
-  const title =
+  const recipeTitle =
     typeof recipe?.title === 'string' ? recipe.title : typeof recipe?.id === 'string' ? recipe.id : r.id;
+  // a premix (stage 1) names the batch it is made for by that batch's recipe; a batch by its own values
+  const title = r.stage?.number === 1 || !h ? recipeTitle : batchTitle(h);
   return {
     title: stageTitle(title, r, h?.tank.id ?? label.tank),
     batchId: r.id,

@@ -9,7 +9,8 @@
  *
  * Pure: the fill's end screen and `mixwright label` both call it.
  */
-import { assessFlammability, type OutputStat, type VerdictKind } from '../core/index.js';
+import type { OutputStat, VerdictKind } from '../core/index.js';
+import { tankHazards } from './tank-hazards.js';
 import type { CheckReport, LogView } from './check-types.js';
 import { overallVerdict, type CheckOutcome } from './check-outcome.js';
 import { fromPa, isPressureUnit, type PressureUnit } from './units.js';
@@ -66,8 +67,11 @@ export interface LabelModel {
   readonly dilution?: string;
   readonly finalPressure: string;
   readonly finalTemperature: string;
-  /** flammability of the as-filled composition at the final state */
-  readonly hazard: string;
+  /**
+   * the hazard marks of the as-filled composition at the final state (tank-hazards.ts): flammable by
+   * itself or in air, oxygen-enriched; at least one line
+   */
+  readonly hazards: readonly string[];
   /**
    * the log records a danger (a reading past the tank's working limit or a gauge's range):
    * whatever the composition, the tank is not fit to use
@@ -263,25 +267,6 @@ function offDesign(r: CheckReport): string[] {
   return out;
 }
 
-function hazardLine(r: CheckReport, log?: LogView): string {
-  const y: Record<string, number> = {};
-  for (const [k, st] of Object.entries(r.result.composition)) y[k] = st.value;
-  const last = r.readings[r.readings.length - 1];
-  // the tank as it stands: after venting where it was read then
-  const at = r.vent?.after ?? last;
-  let verdict: string;
-  try {
-    verdict = assessFlammability(y, at.temperatureK, at.pressurePa).verdict;
-  } catch {
-    verdict = 'unknown';
-  }
-  const planned = (log?.header.findings ?? []).some((f) => f.code === 'flammable-mixture');
-  if (verdict === 'flammable' || planned) return 'FLAMMABLE GAS MIXTURE';
-  if (verdict === 'near-limit') return 'NEAR THE FLAMMABLE LIMIT - handle as flammable';
-  if (verdict === 'unknown') return 'flammability not assessed - see the findings before use';
-  return 'see the findings and supplier safety data before use';
-}
-
 /**
  * the tank's final pressure and temperature: its last reading, or after a vent the reading after
  * venting; a vent not read after says so (never the pressure before venting as the final one)
@@ -346,7 +331,7 @@ export function labelModel(r: CheckReport, log?: LogView): LabelModel {
     phi: phi ? withU(phi.value, 2 * phi.u) : undefined,
     dilution: dil ? withU(dil.value * PCT, 2 * dil.u * PCT, '%') : undefined,
     ...finalState(r, unit, dec),
-    hazard: hazardLine(r, log),
+    hazards: tankHazards(r, log).marks,
     danger,
     caveats: r.caveats,
     premix: premixOf(r),
@@ -380,7 +365,7 @@ function labelRows(m: LabelModel): string[] {
   if (extra.length) out.push(extra.join('   '));
   out.push(`${m.finalPressure} at ${m.finalTemperature}`);
   out.push(...premixLines(m));
-  out.push(m.hazard);
+  out.push(...m.hazards);
   if (bad) out.push('*** DO NOT USE AS THE DESIGN MIXTURE ***');
   if (m.danger) out.push(DANGER_FOOTER);
   return out;

@@ -1,5 +1,5 @@
 /** The batch certificate with its tank label, in three formats, each a pure function of the model. */
-import type { CertificateModel } from './label-certificate.js';
+import { FINDINGS_KEY, type CertificateModel } from './label-certificate.js';
 import { DANGER_HEADLINE, notDesign } from './label-model.js';
 import { padTable } from './format.js';
 import { wrapWords } from './wrap.js';
@@ -93,7 +93,7 @@ function labelBoxHtml(m: CertificateModel): string {
           `<div class="off">${esc(p.log)}: the fractions above use the premix as this log recorded it, ` +
           `without its uncertainty</div>`,
     ),
-    `<div class="hazard">${esc(L.hazard)}</div>` +
+    L.hazards.map((h) => `<div class="hazard">${esc(h)}</div>`).join('') +
       `${notDesign(L.status) ? `<div class="head">${NOT_DESIGN}</div>` : ''}` +
       `${
         L.danger
@@ -168,7 +168,7 @@ export function certificateToHtml(m: CertificateModel): string {
       `<th>time</th><th>by</th><th>note</th></tr>${readings}</table></section>`,
     `<section class="block"><h2>Corrections and acknowledgements</h2>`,
     `${amendments}</section>`,
-    `<section class="block findings"><h2>Findings</h2>${findings}</section>`,
+    `<section class="block findings"><h2>Findings (${esc(FINDINGS_KEY)})</h2>${findings}</section>`,
     `<section class="block"><h2>Tank label (from the readings; cut out)</h2>`,
     `<div class="labelrow">${labelBox}<div class="sign"><div class="field">Checked by:</div><div ` +
       `class="field">Date:</div><div class="field">Label fixed to the tank by:</div></div></div>` +
@@ -227,7 +227,7 @@ export function certificateToMarkdown(m: CertificateModel): string {
       : ['No acknowledgements logged.']),
     '',
   );
-  out.push('## Findings', '');
+  out.push(`## Findings (${FINDINGS_KEY})`, '');
   out.push(
     ...(m.findings.length ? m.findings.map((f) => `- **${f.severity}** ${pm(f.text)}`) : ['No findings.']),
     '',
@@ -399,7 +399,7 @@ export function certificateToText(m: CertificateModel): string {
   out.push('CORRECTIONS', ...list(m.corrections, 'none logged'), '');
   out.push('ACKNOWLEDGEMENTS', ...list(m.acknowledgements, 'none logged'), '');
   out.push(
-    'FINDINGS',
+    `FINDINGS (${FINDINGS_KEY})`,
     ...(m.findings.length
       ? m.findings.flatMap((f) => para(`  ${f.severity.toUpperCase().padEnd(7)} ${f.text}`, /^ {2}\S+ +/, 0))
       : ['  none']),

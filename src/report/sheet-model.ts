@@ -26,6 +26,7 @@ import {
   decimalsFor,
   fixedSig,
   inwardBand,
+  mixtureTitle,
   noneInsideWords,
   pressure,
   tankName,
@@ -37,6 +38,7 @@ import { predictedSheetLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit, siblingWords } from './charges.js';
 import { dangerHeadline, toleranceHeadline } from './headlines.js';
 import { gasCaution } from './gas-caution.js';
+import { FLAMMABLE_IN_AIR_MARK, FLAMMABLE_MARK, NEAR_FLAMMABLE_MARK, oxidizerMark } from './tank-hazards.js';
 
 export interface SheetRow {
   readonly n: number;
@@ -191,22 +193,9 @@ export interface SheetMeta {
 
 /** a title for a design given on the command line (no recipe title): its gases, phi and dilution, tank and pressure */
 export function designTitle(plan: Plan, unit: PressureUnit): string {
-  const d = plan.design;
-  const names = (g: Record<string, number>) => Object.keys(g).join('+');
-  const num = (v: number) => String(Number(v.toPrecision(3)));
   const tank =
     plan.tank.id === GIVEN_VOLUME_TANK ? `a ${fixedSig(plan.tank.volumeM3 * 1000, 4)} L tank` : plan.tank.id;
-  const at = `${pressure(plan.final.pressurePa, unit, 4)} in ${tank}`;
-  if (d.phi !== undefined && Object.keys(d.groups.fuel).length && Object.keys(d.groups.oxidizer).length) {
-    const dil = Object.keys(d.groups.diluent).length
-      ? ` in ${num(d.diluentFraction * 100)} % ${names(d.groups.diluent)}`
-      : '';
-    return `${names(d.groups.fuel)}/${names(d.groups.oxidizer)} phi ${num(d.phi)}${dil}, ${at}`;
-  }
-  const parts = Object.entries(d.composition)
-    .sort((a, b) => b[1] - a[1])
-    .map(([k, v]) => `${k} ${num(v * 100)} %`);
-  return `${parts.join(', ')}, ${at}`;
+  return mixtureTitle(plan.design, plan.final.pressurePa, tank, unit);
 }
 
 /**
@@ -541,10 +530,30 @@ function designLabel(plan: Plan, meta: SheetMeta, batchId: string): string[] {
       `abs; filled ________ by ________`,
     // the verdict is check's printed one (it has more outcomes than a person would circle), copied as printed
     're-check verdict (copy as printed by `mixwright check` of the log): ____________________',
-    plan.findings.some((f) => f.code === 'flammable-mixture')
-      ? 'FLAMMABLE GAS MIXTURE'
-      : 'check the findings before use',
+    ...designMarks(plan),
   ];
+}
+
+/**
+ * the design label's hazard marks, from the plan's findings on the finished mixture: flammable by itself
+ * or in air (tank-hazards.ts words the as-filled label the same way), oxygen-enriched
+ */
+function designMarks(plan: Plan): string[] {
+  const has = (code: string) => plan.findings.some((f) => f.code === code);
+  const last = plan.steps[plan.steps.length - 1]?.index;
+  const enriched = plan.findings.find(
+    (f) => f.code === 'oxygen-enriched' && (f.step === undefined || f.step === last),
+  );
+  const marks = has('flammable-mixture')
+    ? [FLAMMABLE_MARK]
+    : has('flammable-in-air')
+      ? [FLAMMABLE_IN_AIR_MARK]
+      : has('near-flammable-in-air')
+        ? [NEAR_FLAMMABLE_MARK]
+        : [];
+  if (enriched?.code === 'oxygen-enriched')
+    marks.push(oxidizerMark(enriched.oxygenFraction, plan.design.composition));
+  return marks.length ? marks : ['check the findings before use'];
 }
 
 /** the findings, dangers first (gauge isolation is said in the step rows) */

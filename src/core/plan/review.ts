@@ -19,6 +19,7 @@ import {
 import type { Finding, FindingCode } from '../findings.js';
 import { COMPARED_CLAIM, ORDER_RELEVANT, ORDER_REVIEW_CLAIM } from '../order.js';
 import { reviewSequence } from '../sequence-review.js';
+import { inAirFinding } from '../tank-gas.js';
 import { cleanClaim, orderReviewClaim, shortOfMixtureClaim } from '../order-words.js';
 import { inverseSetup, invertReadings } from '../recheck.js';
 import { ProblemError } from '../problems.js';
@@ -62,6 +63,11 @@ export function reviewPlan(
       findings.push({ severity: 'note', code: 'isolate-gauge', step: s.index, gauge: g.id, topPa: g.topPa });
   const safety = safetyFindings(basis, steps, true, reviews);
   findings.push(...safety);
+  // the finished gas released into air (tank-gas.ts): once per plan, never in the sequence search
+  const last = steps[steps.length - 1];
+  const inAir = last ? inAirFinding(last.compositionAfter, basis.temperatureK) : undefined;
+  // a gas that burns by itself has its own flammable-mixture finding (at its pressure, which may widen its limits)
+  if (inAir && !safety.some((f) => f.code === 'flammable-mixture')) findings.push(inAir);
   findings.push(...sourceFindings(basis, amounts, sequence));
   findings.push(...modelFindings(basis, steps));
   const all = [...sequence.findings, ...planned.findings, ...findings];
