@@ -41,7 +41,10 @@ function choiceLine(t: TwoStage, unit: PressureUnit): string {
 }
 
 /** what the more precise choice was passed over for: "warnings (a, b)", "notes (c)" or both */
-export function passedOverFor(m: { readonly warnings: readonly string[]; readonly notes: readonly string[] }): string {
+export function passedOverFor(m: {
+  readonly warnings: readonly string[];
+  readonly notes: readonly string[];
+}): string {
   const parts = [
     ...(m.warnings.length ? [`warnings (${m.warnings.join(', ')})`] : []),
     ...(m.notes.length ? [`notes (${m.notes.join(', ')})`] : []),

@@ -37,7 +37,9 @@ describe('the filled tank as it warms', () => {
     expect(warm!.warmPa).toBeGreaterThan(warm!.limitPa);
     expect(warm!.warmPa).toBeLessThan(warm!.ratedPa);
     // the highest band top that stays at the limit when warm: the same law, inverted
-    expect(Math.abs(warm!.maxFillPa - (warm!.limitPa * 291.15) / 298.15) / warm!.maxFillPa).toBeLessThan(1e-3);
+    expect(Math.abs(warm!.maxFillPa - (warm!.limitPa * 291.15) / 298.15) / warm!.maxFillPa).toBeLessThan(
+      1e-3,
+    );
   });
 
   it('filled at -10 degC: warmed past the rating, a danger (stated beside tank-over-rating)', () => {

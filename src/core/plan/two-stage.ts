@@ -650,7 +650,13 @@ export function planTwoStage(
 
 /** the codes of a choice's findings of one severity, both stages, each once */
 function codesOf(c: RankedChoice, severity: Finding['severity']): Finding['code'][] {
-  return [...new Set(findingsOf(c).filter((f) => f.severity === severity).map((f) => f.code))];
+  return [
+    ...new Set(
+      findingsOf(c)
+        .filter((f) => f.severity === severity)
+        .map((f) => f.code),
+    ),
+  ];
 }
 
 /** the note codes choice a has more often than choice b (both stages), each once */
