@@ -374,7 +374,8 @@ const startSchema = lazy(() =>
 const remainderReviewSchema = lazy(() =>
   z.object({
     trigger: z.enum(['reading', 'undo', 'correction', 'resume', 'temperature', 'start']),
-    outcome: z.enum(['accepted', 'safer-stop']),
+    /** stopped: the batch was stopped at the review (closed there, not finished; logs before it lack it) */
+    outcome: z.enum(['accepted', 'safer-stop', 'stopped']),
     hazards: z.array(
       z.object({
         code: z.string(),

@@ -165,10 +165,12 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
               `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
               `${a.review.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, ` +
               `which the plan did not have; ${a.by} at ${a.time}: ` +
-              (a.review.stop
-                ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
-                  `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
-                : 'went on through it (accepted)')
+              (a.review.outcome === 'stopped'
+                ? 'stopped the batch there (closed, not finished)'
+                : a.review.stop
+                  ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
+                    `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
+                  : 'went on through it (accepted)')
             : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
   if (workingLimitOf(h) === undefined)

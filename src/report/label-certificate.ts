@@ -422,7 +422,7 @@ export function buildCertificateModel(
     ...(r.premixChecks ?? []).map((c) => premixCheckText(c, premixPressure)),
     ...(log?.acknowledgements ?? []).map(
       (a) =>
-        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: ${a.below ? 'chosen' : 'accepted'} by ${a.by} at ${a.time}` +
+        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: ${ackVerb(a)} by ${a.by} at ${a.time}` +
         (a.note ? ` - ${a.note}` : ''),
     ),
     ...(log?.vents ?? []).map(
@@ -468,4 +468,15 @@ export function buildCertificateModel(
       `The composition is computed from the logged readings and is only as good ` +
       `as they are. ${STANDING_CAUTION}`,
   };
+}
+
+/** what an acknowledgement of the log records, in a word: a stop is never called accepted */
+function ackVerb(a: {
+  readonly below?: unknown;
+  readonly review?: { readonly outcome: string };
+  readonly cap?: { readonly outcome: string };
+}): string {
+  if (a.review?.outcome === 'stopped' || a.cap?.outcome === 'stopped') return 'batch stopped';
+  if (a.review?.outcome === 'safer-stop') return 'safer stop chosen';
+  return a.below ? 'chosen' : 'accepted';
 }
