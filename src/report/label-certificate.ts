@@ -475,7 +475,11 @@ function ackVerb(a: {
   readonly below?: unknown;
   readonly review?: { readonly outcome: string };
   readonly cap?: { readonly outcome: string };
+  readonly over_range?: { readonly outcome: string };
 }): string {
+  const typed = { typed: 'logged as typed', slip: 'said to be a typing slip', 're-read': 're-read' } as const;
+  const o = a.over_range?.outcome;
+  if (o) return o in typed ? typed[o as keyof typeof typed] : o;
   if (a.review?.outcome === 'stopped' || a.cap?.outcome === 'stopped') return 'batch stopped';
   if (a.review?.outcome === 'safer-stop') return 'safer stop chosen';
   return a.below ? 'chosen' : 'accepted';
