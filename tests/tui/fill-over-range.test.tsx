@@ -155,3 +155,27 @@ describe('a value typed past the gauge range: logged as typed, then read on a ga
     });
   });
 });
+
+describe("past a head's overpressure rating: said by name (the demo lab's head-10T: range 10 Torr, overpressure 20 Torr)", () => {
+  // the demo blend at 200 Torr in MT-2: the ethane, fill 1, is read on head-10T
+  const rs = readRecipe('recipes/ng-blend-air.yaml');
+  const req = buildPlanRequest({ ...rs, recipe: { ...rs.recipe, pressure: '200 Torr' } });
+  const h = headerFromPlan(planFill(req.input), req, 'or2', '2026-12-01T00:00:00Z');
+  let s = initialState(setupFromHeader(h), undefined, NOW, { operator: 'TT' });
+  if (s.phase === 'acknowledge') s = read(s, 'accept TT');
+
+  it('25 Torr is past the rating (the head may be damaged); 10.5 Torr is past the range, within the rating', () => {
+    expect(s.setup.steps[0]).toMatchObject({ species: 'C2H6' });
+    expect(s.setup.steps[0].gauge?.id).toBe('head-10T');
+    const past = read(s, '25');
+    expect(past.phase).toBe('over-range');
+    expect(past.overRange!.words).toMatch(
+      /It is PAST head-10T's overpressure rating \(20\.0000 Torr\): if the tank holds it, the head may be damaged - close its valve now/,
+    );
+    expect(past.effects[0]).toMatchObject({ over_range: { overpressure_Pa: 20 * TORR } });
+    // head-1kT (0.01 Torr display step) covers it before head-10kT
+    expect(past.overRange!.covering[0]).toBe('head-1kT');
+    const within = read(s, '10.5');
+    expect(within.overRange!.words).toMatch(/within head-10T's overpressure rating \(20\.0000 Torr\)/);
+  });
+});
