@@ -11,6 +11,7 @@ import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { checkLog, headerFromPlan } from '../../src/io/check.js';
 import { parseLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-log.js';
 import { checkOutcomes } from '../../src/report/check-outcome.js';
+import { buildCertificateModel } from '../../src/report/label-certificate.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { frame80 } from './frame80.js';
 
@@ -132,6 +133,14 @@ describe('a value typed past the gauge range: logged as typed, then read on a ga
     // the reading is no above-gauge-range finding: head-10kT covers it
     expect(rep.findings.some((x) => x.code === 'above-gauge-range')).toBe(false);
     expect(checkOutcomes(rep)).not.toContain('pass');
+    const cert = buildCertificateModel(rep, parseLog(logText(h, log), 'or1.jsonl'), {
+      version: 'test',
+      paper: 'a4',
+      generated: 'now',
+    });
+    const acks = cert.acknowledgements.join('\n');
+    expect(acks).toMatch(/^over-range \(fill 3\): logged as typed by TT/m);
+    expect(acks).toMatch(/^over-range \(fill 3\): re-read by TT/m);
   });
 
   it('slip TT: logged, back to the reading of fill 3; check lists it as a note', async () => {

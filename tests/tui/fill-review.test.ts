@@ -12,6 +12,7 @@ import { fillReducer, initialState, setupFromHeader, type FillState } from '../.
 import { splitHeader } from '../split-plan.js';
 import { TORR } from '../helpers.js';
 import { checkOutcomes } from '../../src/report/check-outcome.js';
+import { buildCertificateModel } from '../../src/report/label-certificate.js';
 
 const NOW = '2026-12-01T01:00:00Z';
 const type = (s: FillState, text: string) => fillReducer(s, { type: 'char', text });
@@ -243,8 +244,13 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     const rep = await checkLog(log, { trials: 0, seed: 1 });
     expect(checkOutcomes(rep)[0]).toBe('incomplete');
     expect(rep.warnings.join('\n')).toMatch(/TT at .*: stopped the batch there \(closed, not finished\)/);
-    // no accepted hazard: stopping is not going on through it
+    // no accepted hazard: stopping is not going on through it; the certificate never calls it accepted
     expect(rep.record?.acceptedHazards).toEqual([]);
+    const cert = buildCertificateModel(rep, log, { version: 'test', paper: 'a4', generated: 'now' });
+    expect(cert.acknowledgements.join('\n')).toMatch(
+      /^remainder-review \(fill 2\): batch stopped by TT at /m,
+    );
+    expect(cert.acknowledgements.join('\n')).not.toMatch(/remainder-review \(fill 2\): accepted/);
   });
 });
 
