@@ -1860,7 +1860,12 @@ function onOverRangeEnter(s: FillState, now: string): FillState {
         `${fmtIn(absolute, unit)} absolute on ${gauge.id} is not above the previous reading ` +
         `${fmtIn(prev, unit)} absolute, and a fill only adds gas: check the value and the gauge`,
     };
-  const note = `read on ${gauge.id} by ${m[3]}: "${o.typed}" was typed for ${o.gaugeId}, past its range`;
+  // a gauge-referenced head: made absolute with the barometer in force, said when it was not read today
+  const baro =
+    gauge.reference === 'gauge' && !s.barometerToday
+      ? `; made absolute with the plan's barometer ${fmtIn(s.barometerPa, 'Torr')} (not read today)`
+      : '';
+  const note = `read on ${gauge.id} by ${m[3]}: "${o.typed}" was typed for ${o.gaugeId}, past its range${baro}`;
   const event = readingEvent(
     { ...s, input: m[2], operator: m[3] },
     on,

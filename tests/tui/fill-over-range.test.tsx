@@ -143,6 +143,22 @@ describe('a value typed past the gauge range: logged as typed, then read on a ga
     expect(acks).toMatch(/^over-range \(fill 3\): re-read by TT/m);
   });
 
+  it('read on xdcr-100g (gauge-referenced, psi): absolute with the barometer in force, said when it was not read today', () => {
+    const log = [...before, ...typed.effects];
+    // 1200 Torr absolute with the plan's barometer: (1200 - B) Torr above ambient, in psi (51.71493 Torr/psi)
+    const psi = ((typed.overRange!.absolutePa - typed.barometerPa) / 6894.757293168361).toFixed(2);
+    const r = read(typed, `xdcr-100g ${psi} TT`, log);
+    expect(r.error).toBeUndefined();
+    const reading = log.find((e) => e.kind === 'reading' && e.step === 3);
+    expect(reading).toMatchObject({ gauge: 'xdcr-100g', reading: `${psi} psi` });
+    // within half the 0.01 psi display step the value was rounded to (0.2586 Torr)
+    const abs = reading!.kind === 'reading' ? reading!.pressure_Pa / TORR : NaN;
+    expect(Math.abs(abs - 1200)).toBeLessThanOrEqual(0.2586);
+    expect(reading!.kind === 'reading' && reading!.note).toMatch(
+      /made absolute with the plan's barometer [\d.]+ Torr \(not read today\)/,
+    );
+  });
+
   it('slip TT: logged, back to the reading of fill 3; check lists it as a note', async () => {
     const log = [...before, ...typed.effects];
     const r = read(typed, 'slip TT', log);
