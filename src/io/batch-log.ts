@@ -28,7 +28,10 @@
  *                                    choice on a re-target held below the working limit;
  *                                    code "went-on-below-band" with below? {reading, pressure_Pa,
  *                                    target_Pa, band_Pa}: `next` on a fill read below its band (the
- *                                    fill left incomplete, the fills ahead re-targeted from it)
+ *                                    fill left incomplete, the fills ahead re-targeted from it);
+ *                                    code "over-range" with over_range? {outcome, typed, gauge, ...}:
+ *                                    a value typed past its gauge's range, logged when typed, then
+ *                                    declared a slip or re-read on a gauge that covers it
  *   {"kind":"vent", ...}             the operator vents the tank back after a reading past the working
  *                                    limit: step (the fill just read), target_Pa (the vent target
  *                                    shown), by, time; the composition stays, the pressure does not
@@ -104,6 +107,8 @@ const gaugeSchema = lazy(() =>
     accuracy_of_full_scale: z.number().min(0),
     resolution_Pa: z.number().min(0),
     unit: z.string(),
+    /** the pressure the head survives without damage (its basis), when the lab profile gives it; older logs lack it */
+    overpressure_Pa: z.number().positive().optional(),
   }),
 );
 
@@ -374,7 +379,8 @@ const startSchema = lazy(() =>
 const remainderReviewSchema = lazy(() =>
   z.object({
     trigger: z.enum(['reading', 'undo', 'correction', 'resume', 'temperature', 'start']),
-    outcome: z.enum(['accepted', 'safer-stop']),
+    /** stopped: the batch was stopped at the review (closed there, not finished; logs before it lack it) */
+    outcome: z.enum(['accepted', 'safer-stop', 'stopped']),
     hazards: z.array(
       z.object({
         code: z.string(),
@@ -421,6 +427,27 @@ const belowSchema = lazy(() =>
     band_Pa: z.number().min(0),
   }),
 );
+/** the code of a value typed past its gauge's range (acknowledge with over_range) */
+export const OVER_RANGE_CODE = 'over-range';
+/**
+ * a value typed past the range of the gauge its fill is read on (code "over-range"): logged when typed
+ * (outcome "typed": the tank NOT read on a gauge that covers it), then its resolution, a later line of the
+ * same fill: "slip" (the operator says it was a typing slip) or "re-read" (the tank read on `read_on`, the
+ * reading logged next). Absent on other acknowledgements and in older logs.
+ */
+const overRangeSchema = lazy(() =>
+  z.object({
+    outcome: z.enum(['typed', 'slip', 're-read']),
+    typed: z.string(),
+    gauge: z.string(),
+    /** the value typed on that gauge's basis (gauge-referenced: above ambient), and absolute */
+    shown_Pa: z.number(),
+    pressure_Pa: z.number(),
+    full_scale_Pa: z.number().positive(),
+    overpressure_Pa: z.number().positive().optional(),
+    read_on: z.string().optional(),
+  }),
+);
 const ackSchema = lazy(() =>
   z.object({
     kind: z.literal('acknowledge'),
@@ -432,6 +459,7 @@ const ackSchema = lazy(() =>
     review: remainderReviewSchema().optional(),
     cap: capSchema().optional(),
     below: belowSchema().optional(),
+    over_range: overRangeSchema().optional(),
     chain: chain(),
   }),
 );
@@ -522,6 +550,7 @@ export function gaugeToLog(g: Gauge): LogHeader['gauges'][number] {
     accuracy_of_full_scale: g.accuracyOfFullScale,
     resolution_Pa: g.resolutionPa,
     unit: g.unit,
+    ...(g.overpressurePa !== undefined ? { overpressure_Pa: g.overpressurePa } : {}),
   };
 }
 
@@ -536,6 +565,7 @@ export function gaugeFromLog(g: LogHeader['gauges'][number]): Gauge {
     accuracyOfFullScale: g.accuracy_of_full_scale,
     resolutionPa: g.resolution_Pa,
     unit: g.unit,
+    ...(g.overpressure_Pa !== undefined ? { overpressurePa: g.overpressure_Pa } : {}),
   };
 }
 

@@ -13,7 +13,7 @@ import {
   type CheckReportOf,
   type RecordSeverity,
 } from '../report/check-types.js';
-import { WENT_ON_BELOW_BAND, type LogAck } from './batch-log.js';
+import { OVER_RANGE_CODE, WENT_ON_BELOW_BAND, type LogAck } from './batch-log.js';
 import { fromPa, type PressureUnit } from './quantity.js';
 
 const shown = (pa: number, unit: PressureUnit) => `${Number(fromPa(pa, unit).toPrecision(6))} ${unit}`;
@@ -49,6 +49,7 @@ const NOT_PLAN_ACKS = new Set([
   'above-working-limit',
   'above-gauge-range',
   WENT_ON_BELOW_BAND,
+  OVER_RANGE_CODE,
 ]);
 
 /** an acknowledgement of one of the plan's danger findings, on the fill's danger screen */
@@ -177,7 +178,15 @@ export function verdictCaveats(
             `the tank went through states the plan did not review as safe. Have the fill reviewed ` +
             `(the hazards, the readings, the tank and its fittings) under local practice before the batch is used`,
     );
-  const dangers = findings.filter((f) => f.severity === 'danger');
+  const notRead = findings.filter((f) => f.code === 'over-range-typed' && f.severity === 'danger');
+  if (notRead.length)
+    out.push(
+      `DANGER: ${notRead.length === 1 ? 'a value was' : `${notRead.length} values were`} typed past a gauge's ` +
+        `range and the tank was NOT read on a gauge that covers it (see the findings): it may hold more gas ` +
+        `than the readings say. Do not label or use it as fit until it is read on a gauge that covers it ` +
+        `and the fill reviewed under local practice`,
+    );
+  const dangers = findings.filter((f) => f.severity === 'danger' && f.code !== 'over-range-typed');
   if (dangers.length) {
     out.push(
       `DANGER: ${dangers.length === 1 ? `a ${noun}` : `${dangers.length} ${noun}s`} ` +

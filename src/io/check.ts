@@ -20,6 +20,7 @@ import {
   sourceToLog,
   workingLimitOf,
   type LogHeader,
+  type LogAck,
   type ParsedLog,
 } from './batch-log.js';
 import { auditLog, describeLogFinding, ventOf } from './log-audit.js';
@@ -142,11 +143,21 @@ export function headerFromPlan(
   };
 }
 
+/** what the operator chose at a review of the re-targeted remainder, in words */
+function reviewChoice(r: NonNullable<LogAck['review']>): string {
+  if (r.outcome === 'stopped') return 'stopped the batch there (closed, not finished)';
+  if (!r.stop) return 'went on through it (accepted)';
+  const torr = (pa: number) => (pa / TORR_PA).toFixed(2);
+  const { step, to_Pa, from_Pa } = r.stop;
+  return `took the safer stop of fill ${step}, ${torr(to_Pa)} Torr instead of ${torr(from_Pa)} Torr absolute`;
+}
+
 /** the warnings of a log's record: acknowledgements, missing steps (a plan danger not acknowledged: a caveat) */
 function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] {
   const h = log.header;
   const warnings: string[] = [];
-  for (const a of log.acknowledgements)
+  // a value typed past its gauge's range is a finding of the record (auditLog), listed there
+  for (const a of log.acknowledgements.filter((x) => !x.over_range))
     warnings.push(
       a.below
         ? // `next` on a fill read below its band: the fill left incomplete, the fills after it re-targeted
@@ -165,10 +176,7 @@ function logWarnings(log: ParsedLog, missingSteps: readonly number[]): string[] 
               `before fill ${a.step ?? '?'}, the review of the re-targeted remaining fills found ` +
               `${a.review.hazards.map((z) => `${z.code}${z.step ? ` (fill ${z.step})` : ''}`).join(', ')}, ` +
               `which the plan did not have; ${a.by} at ${a.time}: ` +
-              (a.review.stop
-                ? `took the safer stop of fill ${a.review.stop.step}, ${(a.review.stop.to_Pa / TORR_PA).toFixed(2)} ` +
-                  `Torr instead of ${(a.review.stop.from_Pa / TORR_PA).toFixed(2)} Torr absolute`
-                : 'went on through it (accepted)')
+              reviewChoice(a.review)
             : `danger finding ${a.code}${a.step ? ` (fill ${a.step})` : ''} was acknowledged by ${a.by} at ${a.time}`,
     );
   if (workingLimitOf(h) === undefined)

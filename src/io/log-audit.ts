@@ -13,6 +13,7 @@ import {
   workingLimitOf,
   type InForceReading,
   type LogVentReading,
+  OVER_RANGE_CODE,
   type ParsedLog,
   type RecordIssue,
 } from './batch-log.js';
@@ -112,6 +113,28 @@ export type LogFinding =
       readonly fields: readonly string[];
     }
   | {
+      /**
+       * a value typed past the range of its fill's gauge (the guided fill logs it as typed): never re-read
+       * on a gauge that covers it nor said to be a slip (danger: the tank may hold more than the readings
+       * say), re-read (note: the reading on that gauge is the fill's), or said to be a typing slip (note)
+       */
+      readonly code: 'over-range-typed';
+      readonly severity: LogFindingSeverity;
+      readonly step: number | null;
+      readonly line: number;
+      readonly typed: string;
+      readonly gauge: string;
+      readonly shownPa: number;
+      readonly absolutePa: number;
+      readonly fullScalePa: number;
+      readonly overpressurePa?: number;
+      readonly unit: PressureUnit;
+      /** how it ended: not read, re-read on a gauge (with who), or a slip (with who) */
+      readonly outcome: 'not-read' | 're-read' | 'slip';
+      readonly by?: string;
+      readonly readOn?: string;
+    }
+  | {
       readonly code: 'vent-not-read';
       readonly severity: LogFindingSeverity;
       readonly step: number;
@@ -191,6 +214,8 @@ export function describeLogFinding(f: LogFinding): string {
         `hashed one whose hashes were removed and whose format was set back, so the record was altered ` +
         `after it was written and its lines cannot be trusted`
       );
+    case 'over-range-typed':
+      return overRangeText(at, f);
     case 'vent-not-read':
       return (
         (f.line === null
@@ -201,6 +226,53 @@ export function describeLogFinding(f: LogFinding): string {
         `composition, which is checked). Read the tank now and write it on the label by hand`
       );
   }
+}
+
+function overRangeText(at: string, f: Extract<LogFinding, { code: 'over-range-typed' }>): string {
+  const typed =
+    `${at}"${f.typed}" (${show(f.shownPa, f.unit)}) was typed for ${f.gauge}, past its range of ` +
+    `${show(f.fullScalePa, f.unit)}` +
+    (f.overpressurePa !== undefined && f.shownPa > f.overpressurePa
+      ? ` and past its overpressure rating of ${show(f.overpressurePa, f.unit)} (if real, the head may be damaged)`
+      : '');
+  if (f.outcome === 're-read') return `${typed}; the tank was read again on ${f.readOn} (by ${f.by})`;
+  if (f.outcome === 'slip')
+    return `${typed}; ${f.by} said it was a typing slip, and the reading was typed again`;
+  return (
+    `${typed}, and the tank was NOT read on a gauge that covers it: it may hold more gas than the readings ` +
+    `say (${show(f.absolutePa, f.unit)} absolute as typed). Read it now on a gauge that covers it; the ` +
+    `composition above does not account for it`
+  );
+}
+
+/** the values typed past their gauge's range (acknowledge "over-range"), each with how it ended */
+function overRangeTyped(log: ParsedLog, unitOf: (gaugeId: string) => PressureUnit): LogFinding[] {
+  const acks = log.acknowledgements.filter((a) => a.code === OVER_RANGE_CODE && a.over_range);
+  return acks
+    .filter((a) => a.over_range!.outcome === 'typed')
+    .map((a) => {
+      const o = a.over_range!;
+      // its resolution: the next over-range line of the same fill that is not another value typed
+      const end = acks.find((x) => x.line > a.line && x.step === a.step);
+      const eo = end?.over_range;
+      const outcome = !eo || eo.outcome === 'typed' ? 'not-read' : eo.outcome;
+      return {
+        code: 'over-range-typed',
+        severity: outcome === 'not-read' ? 'danger' : 'note',
+        step: a.step,
+        line: a.line,
+        typed: o.typed,
+        gauge: o.gauge,
+        shownPa: o.shown_Pa,
+        absolutePa: o.pressure_Pa,
+        fullScalePa: o.full_scale_Pa,
+        ...(o.overpressure_Pa !== undefined ? { overpressurePa: o.overpressure_Pa } : {}),
+        unit: unitOf(o.gauge),
+        outcome,
+        ...(end && outcome !== 'not-read' ? { by: end.by } : {}),
+        ...(eo?.read_on ? { readOn: eo.read_on } : {}),
+      };
+    });
 }
 
 const SEVERITY_ORDER: Record<LogFindingSeverity, number> = { danger: 0, warning: 1, note: 2 };
@@ -392,6 +464,7 @@ export function auditLog(log: ParsedLog): LogFinding[] {
   const out: LogFinding[] = [
     ...logged.flatMap((r) => [...pastLimits(cx, r), ...typedTextOf(cx, r)]),
     ...barometerText(log),
+    ...overRangeTyped(log, cx.unitOf),
   ];
   const setBack = hashedOnlyMarks(log);
   if (setBack.length)

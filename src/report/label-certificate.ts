@@ -500,7 +500,7 @@ export function buildCertificateModel(
     ...(r.premixChecks ?? []).map((c) => premixCheckText(c, premixPressure)),
     ...(log?.acknowledgements ?? []).map(
       (a) =>
-        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: ${a.below ? 'chosen' : 'accepted'} by ${a.by} at ${a.time}` +
+        `${a.code}${a.step ? ` (fill ${a.step})` : ''}: ${ackVerb(a)} by ${a.by} at ${a.time}` +
         (a.note ? ` - ${a.note}` : ''),
     ),
     ...(log?.vents ?? []).map(
@@ -548,4 +548,19 @@ export function buildCertificateModel(
       `The composition is computed from the logged readings and is only as good ` +
       `as they are. ${STANDING_CAUTION}`,
   };
+}
+
+/** what an acknowledgement of the log records, in a word: a stop is never called accepted */
+function ackVerb(a: {
+  readonly below?: unknown;
+  readonly review?: { readonly outcome: string };
+  readonly cap?: { readonly outcome: string };
+  readonly over_range?: { readonly outcome: string };
+}): string {
+  const typed = { typed: 'logged as typed', slip: 'said to be a typing slip', 're-read': 're-read' } as const;
+  const o = a.over_range?.outcome;
+  if (o) return o in typed ? typed[o as keyof typeof typed] : o;
+  if (a.review?.outcome === 'stopped' || a.cap?.outcome === 'stopped') return 'batch stopped';
+  if (a.review?.outcome === 'safer-stop') return 'safer stop chosen';
+  return a.below ? 'chosen' : 'accepted';
 }

@@ -10,6 +10,7 @@ import {
   fillEnding,
   fillReducer,
   interruptNote,
+  overRangeExample,
   premixMixingWords,
   shownPa,
   type CompositionJudgement,
@@ -441,6 +442,7 @@ function FillScreen({
   if (state.phase === 'vented' && state.venting) return <VentedScreen state={state} />;
   if (state.phase === 'capped' && state.capped) return <CappedScreen state={state} />;
   if (state.phase === 'undo-reason' && state.undoing) return <UndoReasonScreen state={state} />;
+  if (state.phase === 'over-range' && state.overRange) return <OverRangeScreen state={state} />;
   if (state.phase === 'premix' && state.setup.premixCheck) return <PremixScreen state={state} />;
   return <ReadingScreen state={state} />;
 }
@@ -1489,6 +1491,40 @@ function ConfirmScreen({ state }: ScreenProps) {
       />
       <ErrorLine state={state} />
     </Box>
+  );
+}
+
+/**
+ * a value typed past the range of the fill's gauge (logged as typed, not as a reading): read the tank on a
+ * gauge that covers it (named), or say it was a typing slip
+ */
+function OverRangeScreen({ state }: ScreenProps) {
+  const o = state.overRange!;
+  const tank = state.setup.header.tank.id;
+  const example = overRangeExample(state, o);
+  return (
+    <AskScreen state={state} what={stepWhat(state, `PAST THE RANGE OF ${o.gaugeId}`)}>
+      <Para>{o.words}</Para>
+      <Text> </Text>
+      <Para>
+        {o.covering.length
+          ? `If ${o.gaugeId} shows over-range, or the value may be real: close ${o.gaugeId}'s valve and read ` +
+            `${tank} on a gauge that covers it (${o.covering.join(', ')}), then type the gauge, its reading and ` +
+            `your initials (e.g. ${example}): logged as this fill's reading on that gauge, and judged as any ` +
+            `reading is.`
+          : `No gauge of the lab profile covers it: stop adding gas, close the cylinder and tank valves and ` +
+            `ask; the value stays logged, and the batch is not called clean.`}
+      </Para>
+      <Options
+        options={[
+          ...(o.covering.length
+            ? [['GAUGE VALUE INITIALS', `the tank read on ${o.covering[0]} or another`] as const]
+            : []),
+          ['slip INITIALS', 'it was a typing slip: type the reading again (logged)'],
+        ]}
+        after="Ctrl-C leaves: the value typed stays logged, the tank counts as not read."
+      />
+    </AskScreen>
   );
 }
 

@@ -67,13 +67,13 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
       ) : (
         <Para>{r.noAlternative}.</Para>
       )}
-      {/* a refusal takes the spacer's row and the note's: the screen keeps 24 rows */}
-      {state.error ? null : <Text> </Text>}
+      {/* a refusal takes the note's row: the screen keeps 24 rows */}
       <Options
         options={[
           ...(continuationOffered(cont) ? [['VALUE INITIALS', 'the fill continued'] as const] : []),
           ...(alt ? [['safer INITIALS', 'take the safer stop'] as const] : []),
           ['accept INITIALS', "go on through it (have it reviewed by your lab's rules first)"],
+          ['stop INITIALS', 'stop the batch here (closed, INCOMPLETE)'],
           ['undo INITIALS', 'the last reading was mistyped'],
           ['fix N INITIALS', 'correct fill N'],
         ]}
@@ -81,7 +81,7 @@ export function RemainderReviewScreen({ state }: { readonly state: FillState }) 
           // a refusal names the choices again: the note gives it its row
           state.error
             ? undefined
-            : 'Each choice is logged with the findings; Ctrl-C stops (readings stay logged).'
+            : 'Each choice is logged with the findings; Ctrl-C leaves (resuming asks again).'
         }
       />
       <Text>

@@ -509,9 +509,12 @@ export interface ReviewHooks {
 
 const NUMBER_FIRST = /^[-+]?(\d|\.\d)/;
 
-const INITIALS = /^(safer|accept)\s+([A-Za-z]{1,6})$/i;
+const INITIALS = /^(safer|accept|stop)\s+([A-Za-z]{1,6})$/i;
 
-/** Enter on the review screen: `safer INITIALS` or `accept INITIALS` (undo and fix are the reducer's) */
+/**
+ * Enter on the review screen: `safer INITIALS`, `accept INITIALS` or `stop INITIALS` (undo and fix are the
+ * reducer's)
+ */
 export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): FillState {
   const r = s.review!;
   const text = s.input.trim();
@@ -519,19 +522,11 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
   if (r.continuation && NUMBER_FIRST.test(text)) return hooks.continueFill(s, now);
   const m = INITIALS.exec(text);
   const cont = r.continuation;
-  // short: the choices stand in full on the screen above the field (its 24 rows)
-  const choices = [
-    ...(cont
-      ? [
-          `the new reading of ${cont.name} and your initials (e.g. ${fromPa(cont.toPa, 'Torr').toFixed(2)} AB)`,
-        ]
-      : []),
-    ...(r.alternative ? ['safer INITIALS'] : []),
-    'accept INITIALS',
-    'undo INITIALS',
-    'fix N INITIALS',
-  ].join(', ');
-  if (!m) return { ...s, error: `type one of: ${choices} (each is logged)` };
+  // short: the choices stand in full on the screen above the field, one row each (its 24 rows)
+  const example = cont
+    ? `: the new reading of ${cont.name} and your initials, e.g. ${fromPa(cont.toPa, 'Torr').toFixed(2)} AB, or `
+    : ', e.g. ';
+  if (!m) return { ...s, error: `type one of the ways above${example}accept INITIALS (each is logged)` };
   const choice = m[1].toLowerCase();
   const by = m[2];
   const step = s.setup.steps[s.current].index;
@@ -549,6 +544,7 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
     note: `${note}. ${why}`,
     review,
   });
+  if (choice === 'stop') return stopAtReview(s, by, now, what, hooks.retargetInput(s), logged);
   if (choice === 'safer') {
     const alt = r.alternative;
     if (!alt && cont && continuationOffered(cont))
@@ -603,6 +599,45 @@ export function onReviewEnter(s: FillState, now: string, hooks: ReviewHooks): Fi
     effects: [ev],
     message: `${note} (logged)`,
   });
+}
+
+/**
+ * `stop INITIALS` on the review screen: the fill goes no further. The choice is logged (outcome "stopped",
+ * with the hazards), then the batch is closed there, not finished (check: INCOMPLETE, never a pass), the
+ * close note saying what the review finds in the tank as it stands (belowBandWays' tankNow), as a stop on
+ * the below-band or capped screen does.
+ */
+function stopAtReview(
+  s: FillState,
+  by: string,
+  now: string,
+  what: string,
+  input: RetargetInput,
+  logged: (note: string, review: LogRemainderReview) => NewLogEvent,
+): FillState {
+  const r = s.review!;
+  const rest = s.setup.steps.slice(s.current).map((x) => x.index);
+  const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
+  const tankNowText = tankNowWords(belowBandWays(s, input).tankNow);
+  const tank = tankNowText ?? 'the review finds no flammable, detonable or danger state in the tank now';
+  const note =
+    `review of the remaining fills after the ${r.trigger}: ${what}, which the plan did not have; ` +
+    `${by} stopped the batch here (${notMade})`;
+  const hazards = r.hazards.map((h) => ({ code: h.code, step: h.step, severity: h.severity }));
+  return {
+    ...s,
+    ...(tankNowText ? { tankNowText } : {}),
+    phase: 'ended',
+    review: undefined,
+    input: '',
+    effects: [
+      logged(note, { trigger: r.trigger, outcome: 'stopped', hazards }),
+      { kind: 'close', time: now, note: `stopped by ${by} at the safety review: ${notMade}; ${tank}` },
+    ],
+    message:
+      `the batch is stopped by ${by} at the safety review (logged): ${notMade}, so it is INCOMPLETE (not a ` +
+      `pass); ${tank}`,
+  };
 }
 
 /** the remaining targets with the safer stop, for the screen */

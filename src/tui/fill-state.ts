@@ -53,6 +53,7 @@ import {
   chargesOfHeader,
   gaugeFromLog,
   sourceFromLog,
+  OVER_RANGE_CODE,
   WENT_ON_BELOW_BAND,
   type NewLogEvent,
   type LogHeader,
@@ -189,7 +190,9 @@ export type Phase =
   /** the re-targeted remainder passes a hazard the plan did not (fill-review.ts) */
   | 'review'
   /** stage 2: before the first fill from the premix, its mixing confirmed and its tank read (logged) */
-  | 'premix';
+  | 'premix'
+  /** a value typed past the range of the fill's gauge (logged as typed): read on a gauge that covers it, or a slip */
+  | 'over-range';
 export type Field = 'reading' | 'temperature';
 
 export interface DoneReading {
@@ -277,6 +280,23 @@ export interface OverLimit {
   readonly within: boolean;
   /** the species outside the tolerance there */
   readonly outside: readonly string[];
+}
+
+/**
+ * a value typed past the range of the gauge its fill is read on: logged as typed (acknowledge
+ * "over-range"), not as a reading; the tank is read on a gauge that covers it, or the value is declared a slip
+ */
+export interface OverRange {
+  /** as typed, and the gauge it was typed for */
+  readonly typed: string;
+  readonly gaugeId: string;
+  /** the value on that gauge's basis (gauge-referenced: above ambient), and absolute, Pa */
+  readonly shownPa: number;
+  readonly absolutePa: number;
+  /** the lab profile's gauges whose range covers the value (finest first) */
+  readonly covering: readonly string[];
+  /** what the screen says: the value, the range, the overpressure rating, the danger if past the limit */
+  readonly words: string;
 }
 
 /** a vent chosen on the danger screen (logged): the reading after venting is asked next */
@@ -375,6 +395,8 @@ export interface FillState {
   readonly premix?: PremixDone;
   /** who fills in this session (initials): logged on every reading it takes */
   readonly operator?: string;
+  /** in phase 'over-range': the value typed past the fill's gauge's range (logged as typed) */
+  readonly overRange?: OverRange;
   /** in phase 'operator': the screen the session opens with once the initials are given */
   readonly operatorBack?: Phase;
 }
@@ -544,6 +566,8 @@ function openedState(setup: FillSetup, log: ParsedLog | undefined, now: string):
   if (r) state = { ...state, targetsPa: r.targets, targetTemperatureK: T };
   const stopped = resumedAtStop(state, log);
   if (stopped) return stopped;
+  const overRange = resumedOverRange(state, log);
+  if (overRange) return overRange;
   const capped = resumedCapped(state, log, r?.result, needsAck);
   if (capped) return capped;
   if (done.length >= setup.steps.length) {
@@ -564,6 +588,30 @@ function openedState(setup: FillSetup, log: ParsedLog | undefined, now: string):
   }
   const entered = enterStep({ ...state, phase: needsAck ? 'acknowledge' : 'reading' });
   return done.length || start?.read ? reviewed(entered, 'resume') : entered;
+}
+
+/**
+ * a log whose last line of the next fill is a value typed past its gauge's range, neither re-read nor said
+ * to be a slip: the over-range screen again (the value as the log keeps it)
+ */
+function resumedOverRange(state: FillState, log: ParsedLog | undefined): FillState | undefined {
+  const step = state.setup.steps[state.current];
+  if (!log || log.closed || !step?.gauge) return undefined;
+  const acks = log.acknowledgements.filter((a) => a.code === OVER_RANGE_CODE && a.step === step.index);
+  const last = acks.at(-1);
+  const o = last?.over_range;
+  const lastReading = Math.max(0, ...log.allReadings.map((r) => r.line));
+  if (!last || !o || o.outcome !== 'typed' || last.line < lastReading) return undefined;
+  const covering = coveringGauges(state, o.pressure_Pa, o.gauge).map((g) => g.id);
+  const overRange: OverRange = {
+    typed: o.typed,
+    gaugeId: o.gauge,
+    shownPa: o.shown_Pa,
+    absolutePa: o.pressure_Pa,
+    covering,
+    words: `RESUMED: ${last.note ?? `"${o.typed}" typed for ${o.gauge}, past its range`}`,
+  };
+  return { ...state, phase: 'over-range', overRange };
 }
 
 /** what a resumed fill says first: how many readings the log held, and which fill (and charge) is next */
@@ -1641,6 +1689,242 @@ function pastLimitFirst(s: FillState, step: FillStep, absolutePa: number): strin
   );
 }
 
+/** the lab profile's gauges (the log header's) whose range covers an absolute pressure, the best first */
+function coveringGauges(s: FillState, absolutePa: number, except: string): Gauge[] {
+  return (
+    s.setup.header.gauges
+      .map(gaugeFromLog)
+      .filter((g) => {
+        if (g.id === except) return false;
+        const shown = absolutePa - (g.reference === 'gauge' ? s.barometerPa : 0);
+        return shown >= g.minimumPa && shown <= g.fullScalePa;
+      })
+      // absolute heads first (no barometer in the reading), then the finer display step
+      .sort(
+        (a, b) =>
+          Number(a.reference === 'gauge') - Number(b.reference === 'gauge') ||
+          a.resolutionPa - b.resolutionPa,
+      )
+  );
+}
+
+/** a gauge's range in words, on its basis: "up to 10000.0 Torr absolute", "up to 100.00 psi above ambient" */
+function rangeWords(g: Gauge): string {
+  const unit: PressureUnit = isPressureUnit(g.unit) ? g.unit : 'Torr';
+  const dec = decimalsFor(fromPa(g.resolutionPa, unit));
+  const basis = g.reference === 'gauge' ? 'above ambient' : 'absolute';
+  return `up to ${fromPa(g.fullScalePa, unit).toFixed(dec)} ${unit} ${basis}`;
+}
+
+/** a value past a head's range against its overpressure rating, in words (the lab profile may give none) */
+function overpressureWords(gauge: Gauge, shown: number, unit: PressureUnit): string {
+  const o = gauge.overpressurePa;
+  if (o === undefined)
+    return (
+      `The lab profile gives no overpressure rating for ${gauge.id}: whether the head was harmed is not ` +
+      `known; have it checked before it is used again.`
+    );
+  return shown > o
+    ? `It is PAST ${gauge.id}'s overpressure rating (${fmtIn(o, unit)}): if the tank holds it, the head may ` +
+        `be damaged - close its valve now and have it checked before it is used again.`
+    : `It is within ${gauge.id}'s overpressure rating (${fmtIn(o, unit)}).`;
+}
+
+/**
+ * A value typed past the range of the fill's gauge: the gauge cannot show it, so it is no reading; but the
+ * tank may hold it (a real over-pressure shows as the gauge's over-range), so it is logged as typed at once
+ * (acknowledge "over-range", outcome "typed": Ctrl-C keeps it, and `check` says the tank was not re-read)
+ * and the screen asks: the tank read on a gauge that covers the value (named), or a typing slip.
+ */
+function overRangeOpened(
+  s: FillState,
+  step: FillStep,
+  shown: number,
+  absolutePa: number,
+  now: string,
+): FillState {
+  const gauge = step.gauge!;
+  const unit = gaugeUnit(step);
+  const typed = s.input.trim();
+  const covering = coveringGauges(s, absolutePa, gauge.id);
+  const absText = absolutePa !== shown ? ` (${fmtIn(absolutePa, unit)} absolute)` : '';
+  const target = shownPa(s, step, s.targetsPa[s.current]);
+  const limit = s.setup.workingLimitPa;
+  const topAbs = gauge.fullScalePa + (gauge.reference === 'gauge' ? s.barometerPa : 0);
+  const tank = s.setup.header.tank.id;
+  // the gauge's own over-range display, where its top is past the tank's working limit: the danger
+  const display =
+    limit !== undefined && topAbs >= limit
+      ? ` If ${gauge.id} itself shows over-range, ${tank} is above ${fmtIn(topAbs, unit)} absolute, past its ` +
+        `working limit ${fmtIn(limit, unit)}: DANGER - stop adding gas, close the cylinder and tank valves, ` +
+        `keep clear of the tank and follow the lab's over-pressure procedure.`
+      : '';
+  const words =
+    pastLimitFirst(s, step, absolutePa) +
+    `typed "${typed}" = ${fmtIn(shown, unit)} on ${gauge.id}${absText}, past its range ` +
+    `(up to ${fmtIn(gauge.fullScalePa, unit)}): ${gauge.id} cannot show that, so it is NOT logged as a ` +
+    `reading. It is logged as typed: ${tank} counts as NOT read until it is read on a gauge that covers it, ` +
+    `or the value is said to be a slip. Likely the unit or a typing slip (the target is ` +
+    `${fmtIn(target, unit)} on ${gauge.id}). ${overpressureWords(gauge, shown, unit)}${display}`;
+  const overRange: OverRange = {
+    typed,
+    gaugeId: gauge.id,
+    shownPa: shown,
+    absolutePa,
+    covering: covering.map((g) => g.id),
+    words,
+  };
+  return {
+    ...s,
+    phase: 'over-range',
+    input: '',
+    overRange,
+    effects: [overRangeEvent(s, overRange, 'typed', s.operator ?? '-', now, words)],
+  };
+}
+
+/** the log line of a value typed past its gauge's range, or of its resolution (slip, re-read) */
+function overRangeEvent(
+  s: FillState,
+  o: OverRange,
+  outcome: 'typed' | 'slip' | 're-read',
+  by: string,
+  now: string,
+  note: string,
+  readOn?: string,
+): NewLogEvent {
+  const gauge = s.setup.steps[s.current].gauge!;
+  return {
+    kind: 'acknowledge',
+    code: OVER_RANGE_CODE,
+    step: s.setup.steps[s.current].index,
+    by,
+    time: now,
+    note,
+    over_range: {
+      outcome,
+      typed: o.typed,
+      gauge: o.gaugeId,
+      shown_Pa: o.shownPa,
+      pressure_Pa: o.absolutePa,
+      full_scale_Pa: gauge.fullScalePa,
+      ...(gauge.overpressurePa !== undefined ? { overpressure_Pa: gauge.overpressurePa } : {}),
+      ...(readOn ? { read_on: readOn } : {}),
+    },
+  };
+}
+
+/** an example entry of the over-range screen: the first covering gauge, the value typed as it shows it */
+export function overRangeExample(s: FillState, o: OverRange): string | undefined {
+  const g = s.setup.header.gauges.find((x) => x.id === o.covering[0]);
+  if (!g) return undefined;
+  const gauge = gaugeFromLog(g);
+  const unit: PressureUnit = isPressureUnit(gauge.unit) ? gauge.unit : 'Torr';
+  const shown = o.absolutePa - (gauge.reference === 'gauge' ? s.barometerPa : 0);
+  return `${gauge.id} ${fromPa(shown, unit).toFixed(decimalsFor(fromPa(gauge.resolutionPa, unit)))} AB`;
+}
+
+const OVER_RANGE_WAYS =
+  'type GAUGE VALUE INITIALS (the tank read on a gauge that covers it) or slip INITIALS (a typing slip); ' +
+  'each is logged';
+
+/**
+ * Enter on the over-range screen: `slip INITIALS` (the value was a typing slip: logged, the reading asked
+ * again) or `GAUGE VALUE INITIALS`, the tank read on a gauge whose range covers it: logged as the fill's
+ * reading on that gauge (check takes its uncertainty from it), then judged as any reading is (the working
+ * limit, the band, the review of the fills ahead)
+ */
+function onOverRangeEnter(s: FillState, now: string): FillState {
+  const o = s.overRange!;
+  const text = s.input.trim();
+  const slip = /^slip\s+([A-Za-z]{1,6})$/i.exec(text);
+  if (slip) {
+    const note = `"${o.typed}" typed for ${o.gaugeId} (past its range): a typing slip, said by ${slip[1]}`;
+    return {
+      ...s,
+      phase: 'reading',
+      overRange: undefined,
+      input: '',
+      effects: [overRangeEvent(s, o, 'slip', slip[1], now, note)],
+      message: `${note} (logged); type the reading ${o.gaugeId} shows`,
+    };
+  }
+  const m = /^(\S+)\s+(.+?)\s+([A-Za-z]{1,6})$/.exec(text);
+  const g = m && s.setup.header.gauges.find((x) => x.id === m[1]);
+  if (!m || !g)
+    return {
+      ...s,
+      error: m
+        ? `no gauge "${m[1]}" in the lab profile of this log; ${OVER_RANGE_WAYS}`
+        : `${OVER_RANGE_WAYS}`,
+    };
+  if (g.id === o.gaugeId)
+    return {
+      ...s,
+      error: `${g.id} cannot show it: read the tank on a gauge that covers it, or slip INITIALS`,
+    };
+  const step = s.setup.steps[s.current];
+  const on: FillStep = { ...step, gauge: gaugeFromLog(g) };
+  const parsed = parseReading({ ...s, input: m[2] }, on);
+  if ('error' in parsed) return refusedEntry({ ...s, input: text }, parsed);
+  const gauge = on.gauge!;
+  const unit = gaugeUnit(on);
+  const absolute = gauge.reference === 'gauge' ? parsed.shown + s.barometerPa : parsed.shown;
+  if (parsed.shown > gauge.fullScalePa || parsed.shown < gauge.minimumPa)
+    return {
+      ...s,
+      error:
+        `${fmtIn(parsed.shown, unit)} is outside ${gauge.id}'s range (${rangeWords(gauge)}): it cannot show ` +
+        `that either; read the tank on a gauge that covers it` +
+        (o.covering.length ? ` (${o.covering.join(', ')})` : ''),
+    };
+  const prev = s.done.length ? s.done[s.done.length - 1].pressurePa : (s.start?.pressurePa ?? 0);
+  if (!(absolute > prev))
+    return {
+      ...s,
+      error:
+        `${fmtIn(absolute, unit)} absolute on ${gauge.id} is not above the previous reading ` +
+        `${fmtIn(prev, unit)} absolute, and a fill only adds gas: check the value and the gauge`,
+    };
+  // a gauge-referenced head: made absolute with the barometer in force, said when it was not read today
+  const baro =
+    gauge.reference === 'gauge' && !s.barometerToday
+      ? `; made absolute with the plan's barometer ${fmtIn(s.barometerPa, 'Torr')} (not read today)`
+      : '';
+  const note = `read on ${gauge.id} by ${m[3]}: "${o.typed}" was typed for ${o.gaugeId}, past its range${baro}`;
+  const event = readingEvent(
+    { ...s, input: m[2], operator: m[3] },
+    on,
+    absolute,
+    parsed.temperatureK,
+    now,
+    note,
+  );
+  const done: DoneReading = {
+    step: step.index,
+    pressurePa: absolute,
+    temperatureK: parsed.temperatureK,
+    text: event.reading,
+  };
+  const ack = overRangeEvent(
+    s,
+    o,
+    're-read',
+    m[3],
+    now,
+    `${note} (the tank re-read; the reading logged next)`,
+    gauge.id,
+  );
+  const base: FillState = { ...s, phase: 'reading', overRange: undefined, input: '' };
+  const next = afterDoubt(base, { event, done, typed: m[2] }, now);
+  const said = `read on ${gauge.id} ("${o.typed}" was past ${o.gaugeId}'s range)`;
+  return {
+    ...next,
+    effects: [ack, ...next.effects],
+    message: [next.message, said].filter(Boolean).join('; '),
+  };
+}
+
 /** a signed number in plain notation, 3 significant figures (never "1.32e+3") */
 function signed(v: number): string {
   // a reading typed at the target differs from it by the floating point only
@@ -1721,8 +2005,7 @@ function onReadingEnter(s: FillState, now: string): FillState {
         `the tank cooled (check the temperature). The reading is not logged.`,
     };
   }
-  if (step.gauge && shown > step.gauge.fullScalePa)
-    return { ...s, input: '', error: pastRange(s, step, shown, absolute) };
+  if (step.gauge && shown > step.gauge.fullScalePa) return overRangeOpened(s, step, shown, absolute, now);
   // the judgement uses the temperature typed with the reading: re-target first if it changed
   const s1 = Math.abs(temperatureK - s.targetTemperatureK) >= 0.005 ? withTemperature(s) : s;
   const event = readingEvent(s1, step, absolute, temperatureK, now);
@@ -1871,6 +2154,15 @@ export function interruptNote(s: FillState): string | undefined {
       `away from ignition sources; defer to local rules and the tank's rating`
     );
   }
+  const r = s.overRange;
+  if (s.phase === 'over-range' && r)
+    return (
+      `"${r.typed}" typed for ${r.gaugeId} (past its range) is logged, and ${s.setup.header.tank.id} was NOT ` +
+      `read on a gauge that covers it: the tank may hold more than the readings say. Close the cylinder and ` +
+      `tank valves; resume the fill to read it on ` +
+      (r.covering.length ? r.covering.join(' or ') : 'a gauge that covers it') +
+      ` (or to say it was a typing slip)`
+    );
   return s.aboveLimitText;
 }
 
@@ -2359,8 +2651,8 @@ function onEscape(base: FillState): FillState {
     return {
       ...base,
       error:
-        'the review of the remaining fills stands: type safer INITIALS, accept INITIALS, undo INITIALS ' +
-        'or fix N INITIALS (logged), or Ctrl-C to stop',
+        'the review of the remaining fills stands: type safer INITIALS, accept INITIALS, stop INITIALS, ' +
+        'undo INITIALS or fix N INITIALS (logged), or Ctrl-C to leave without a choice',
     };
   if (base.phase === 'correct')
     return {
@@ -2408,6 +2700,9 @@ function onEscape(base: FillState): FillState {
         'and your initials (Ctrl-C stops; resuming asks for it again)',
     };
   if (base.phase === 'unit-check') return unitRetype(base);
+  // the value typed is logged: only a reading on a gauge that covers it, or slip INITIALS, leaves the screen
+  if (base.phase === 'over-range')
+    return { ...base, error: `the value typed is logged; Esc does not take it back: ${OVER_RANGE_WAYS}` };
   if (base.phase === 'confirm')
     return {
       ...base,
@@ -2480,6 +2775,8 @@ function onEnter(base: FillState, now: string): FillState {
       return onBelowEnter(base, now);
     case 'premix':
       return onCommand(base, base.input.trim()) ?? onPremixEnter(base, now);
+    case 'over-range':
+      return onOverRangeEnter(base, now);
   }
   return base;
 }

@@ -44,7 +44,7 @@ describe('label of a batch made from a premix log', () => {
     // the certificate's paragraphs wrap at 80 columns: read whole
     const cert = certificateFlowed(r.stdout);
     expect(cert).toMatch(
-      /^PREMIX Made from premix demo-premix-o2-ar-mt2 in tank MT-2: log demo-premix-o2-ar-mt2\.jsonl \(last entry b1ae8864eed6, the one this batch log recorded\), re-checked now from its readings by check's model: Ar 86\.577 % \+- 0\.035 %, O2 13\.423 % \+- 0\.035 %/m,
+      /^PREMIX Made from premix demo-premix-o2-ar-mt2 in tank MT-2: log demo-premix-o2-ar-mt2\.jsonl \(last entry c6e05a4b28ac, the one this batch log recorded\), re-checked now from its readings by check's model: Ar 86\.577 % \+- 0\.035 %, O2 13\.423 % \+- 0\.035 %/m,
     );
     for (const format of ['md', 'html']) {
       const o = await runCli(['label', BATCH, ...TRIALS, '--format', format]);

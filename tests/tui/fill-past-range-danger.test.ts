@@ -4,7 +4,8 @@ import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 
-// A value typed past the gauge head's range is never logged; past the tank's working limit too (as typed,
+// A value typed past the gauge head's range is never logged as a reading (it is logged as typed, and the
+// over-range screen asks for the tank read on a gauge that covers it, or a slip); past the tank's working limit too (as typed,
 // or as its bare number in the gauge's unit) the danger is said first. MT-1 of the demo lab: rated 4 bar,
 // working fraction 0.9: 3.6 bar = 2700.22 Torr (1 bar = 750.0617 Torr, 1 kPa = 7.500617 Torr, 1 mbar =
 // 0.7500617 Torr; 1 Torr = 101325/760 Pa, NIST SP 811, exact from the definitions; checked to 0.005 Torr
@@ -41,12 +42,14 @@ describe('a value past the gauge range and past the working limit says the dange
     // 501.5 kPa x 7.500617 = 3761.56 Torr
     ['501.5 kPa', '3761.56 Torr'],
   ] as const) {
-    it(`"${typed}": DANGER first (stop, close the valves, the over-pressure procedure), then the range and unit; nothing logged`, () => {
+    it(`"${typed}": DANGER first (stop, close the valves, the over-pressure procedure), then the range and unit; no reading logged (the value logged as typed)`, () => {
       const r = read(o2, typed);
-      expect(r.effects).toEqual([]);
+      expect(r.phase).toBe('over-range');
+      expect(r.done).toHaveLength(2);
+      expect(r.effects.map((e) => e.kind)).toEqual(['acknowledge']);
       expect(r.current).toBe(2);
       expect(r.input).toBe('');
-      expect(r.error).toMatch(
+      expect(r.overRange!.words).toMatch(
         new RegExp(
           `^DANGER if the tank holds it: ${abs.replace('.', '\\.')} absolute \\(as typed\\) is past the working ` +
             `limit 2700\\.22 Torr of MT-1, rated 3000 Torr: stop adding gas, close the cylinder and tank ` +
@@ -54,28 +57,30 @@ describe('a value past the gauge range and past the working limit says the dange
         ),
       );
       // then the range and the likely slip, still there
-      const danger = r.error!.indexOf('DANGER');
-      const range = r.error!.indexOf('past its range (up to 1000.00 Torr)');
+      const danger = r.overRange!.words.indexOf('DANGER');
+      const range = r.overRange!.words.indexOf('past its range (up to 1000.00 Torr)');
       expect(range).toBeGreaterThan(danger);
-      expect(r.error).toMatch(/NOT logged\. Likely the unit or a typing slip/);
+      expect(r.overRange!.words).toMatch(/NOT logged as a reading\. .* Likely the unit or a typing slip/);
     });
   }
 
   it('"2800 mbar" (2100.17 Torr, below the limit) read as 2800 Torr, the gauge\'s unit, is past it: the danger is said for that reading', () => {
     const r = read(o2, '2800 mbar');
-    expect(r.effects).toEqual([]);
-    expect(r.error).toMatch(
+    expect(r.done).toHaveLength(2);
+    expect(r.overRange!.words).toMatch(
       /^DANGER if the tank holds it: 2800\.00 Torr absolute \(read as 2800 Torr, the gauge's unit\) is past the working limit 2700\.22 Torr/,
     );
-    expect(r.error).toMatch(/typed "2800 mbar" = 2100\.17 Torr on head-1kT, past its range/);
+    expect(r.overRange!.words).toMatch(/typed "2800 mbar" = 2100\.17 Torr on head-1kT, past its range/);
   });
 
   it('past the range but below the limit either way ("1200", "1500 mbar" = 1125.09 Torr): no danger, the range message alone', () => {
     for (const typed of ['1200', '1500 mbar']) {
       const r = read(o2, typed);
-      expect(r.effects).toEqual([]);
-      expect(r.error).toMatch(new RegExp(`^typed "${typed}" = .* past its range \\(up to 1000\\.00 Torr\\)`));
-      expect(r.error).not.toMatch(/DANGER/);
+      expect(r.done).toHaveLength(2);
+      expect(r.overRange!.words).toMatch(
+        new RegExp(`^typed "${typed}" = .* past its range \\(up to 1000\\.00 Torr\\)`),
+      );
+      expect(r.overRange!.words).not.toMatch(/DANGER/);
     }
   });
 });

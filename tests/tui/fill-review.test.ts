@@ -11,6 +11,8 @@ import { parseLog, type LogHeader, type NewLogEvent } from '../../src/io/batch-l
 import { fillReducer, initialState, setupFromHeader, type FillState } from '../../src/tui/fill-state.js';
 import { splitHeader } from '../split-plan.js';
 import { TORR } from '../helpers.js';
+import { checkOutcomes } from '../../src/report/check-outcome.js';
+import { buildCertificateModel } from '../../src/report/label-certificate.js';
 
 const NOW = '2026-12-01T01:00:00Z';
 const type = (s: FillState, text: string) => fillReducer(s, { type: 'char', text });
@@ -207,6 +209,48 @@ describe('guided fill: the re-targeted remainder is reviewed after every change,
     expect(planHas(h, 'flammable-at-inlet@3')).toBe(false);
     expect(t.review?.alternative?.step).toBe(2);
     expect(t.review!.alternative!.toPa).toBeGreaterThan(400 * TORR);
+  });
+
+  it('stop INITIALS: the fill stops at the review, logged; the batch is closed, incomplete (never a pass), the tank as it stands said', async () => {
+    const events: NewLogEvent[] = [];
+    const s1 = read(initialState(setupFromHeader(h)), CH4_HIGH, events);
+    expect(s1.phase).toBe('review');
+    // a bare stop is refused, nothing logged (the ways stand on the screen, stop among them)
+    const bare = read(s1, 'stop');
+    expect(bare.phase).toBe('review');
+    expect(bare.effects).toEqual([]);
+    expect(bare.error).toMatch(/^type one of the ways above, e\.g\. accept INITIALS/);
+    const st = read(s1, 'stop TT', events);
+    expect(st.phase).toBe('ended');
+    expect(st.effects).toEqual([
+      expect.objectContaining({
+        kind: 'acknowledge',
+        code: 'remainder-review',
+        by: 'TT',
+        review: expect.objectContaining({ trigger: 'reading', outcome: 'stopped' }),
+      }),
+      expect.objectContaining({
+        kind: 'close',
+        note: expect.stringMatching(/^stopped by TT at the safety review: fills 2, 3, 4 not made; /),
+      }),
+    ]);
+    // CH4 alone in the tank: nothing flammable now (the hazards were ahead, at the O2)
+    expect(st.message).toMatch(
+      /INCOMPLETE \(not a pass\); the review finds no flammable, detonable or danger state in the tank now/,
+    );
+    const log = parseLog(logText(h, events), 'stopped.jsonl');
+    // closed: `fill --resume` refuses it (log-closed), so the review screen does not come back
+    expect(log.closed).toBeTruthy();
+    const rep = await checkLog(log, { trials: 0, seed: 1 });
+    expect(checkOutcomes(rep)[0]).toBe('incomplete');
+    expect(rep.warnings.join('\n')).toMatch(/TT at .*: stopped the batch there \(closed, not finished\)/);
+    // no accepted hazard: stopping is not going on through it; the certificate never calls it accepted
+    expect(rep.record?.acceptedHazards).toEqual([]);
+    const cert = buildCertificateModel(rep, log, { version: 'test', paper: 'a4', generated: 'now' });
+    expect(cert.acknowledgements.join('\n')).toMatch(
+      /^remainder-review \(fill 2\): batch stopped by TT at /m,
+    );
+    expect(cert.acknowledgements.join('\n')).not.toMatch(/remainder-review \(fill 2\): accepted/);
   });
 });
 

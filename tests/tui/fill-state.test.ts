@@ -47,14 +47,19 @@ const logText = (h: LogHeader, events: readonly NewLogEvent[]) =>
   [h, ...events].map((e) => JSON.stringify(e)).join('\n') + '\n';
 
 describe('guided fill state machine', () => {
-  it('past the range of a head below the working limit: the over-range advice names the lab gauge that reads higher', () => {
+  it('past the range of a head below the working limit: the over-range screen names the lab gauges that cover it', () => {
     const s0 = initialState(setupFromHeader(header()));
     // fill 1 on head-1kT (up to 1000 Torr): "1890.2 kPa" = 14177.7 Torr (1 kPa = 7.50062 Torr, NIST SP 811)
     const r = read(s0, '1890.2 kPa');
-    expect(r.effects).toEqual([]);
-    expect(r.error).toMatch(
-      /^DANGER if the tank holds it: 14177\.7 Torr absolute \(as typed\) is past the working limit 2700\.22 Torr of MT-1.*Then: typed "1890\.2 kPa" = 14177\.7 Torr on head-1kT, past its range \(up to 1000\.00 Torr\): head-1kT cannot show that, so it is NOT logged\..* If head-1kT itself shows over-range, close its valve and read MT-1 on head-10kT \(up to 10000\.0 Torr\)\.$/,
+    expect(r.phase).toBe('over-range');
+    expect(r.done).toEqual([]);
+    expect(r.overRange!.words).toMatch(
+      /^DANGER if the tank holds it: 14177\.7 Torr absolute \(as typed\) is past the working limit 2700\.22 Torr of MT-1.*Then: typed "1890\.2 kPa" = 14177\.7 Torr on head-1kT, past its range \(up to 1000\.00 Torr\): head-1kT cannot show that, so it is NOT logged as a reading\..* PAST head-1kT's overpressure rating \(2000\.00 Torr\)/,
     );
+    // none of the demo lab's gauges reads 14177.7 Torr (head-10kT ends at 10000)
+    expect(r.overRange!.covering).toEqual([]);
+    // 1200 Torr: head-10kT (absolute) first, then xdcr-100g (100 psi above ambient)
+    expect(read(s0, '1200').overRange!.covering).toEqual(['head-10kT', 'xdcr-100g']);
   });
   it('a reading typed while the temperature field cannot be read ("35", no unit) is kept; the refusal names the temperature field; corrected, Enter logs it', () => {
     const s0: FillState = { ...initialState(setupFromHeader(header())), temperatureText: '35' };
@@ -117,22 +122,32 @@ describe('guided fill state machine', () => {
     expect(low.error).toMatch(/tank cooled/);
     expect(low.effects).toEqual([]);
     expect(low.current).toBe(1);
-    // past the gauge's range: no reading of it shows that, so it is a slip and not logged; what was typed,
-    // what it is on the gauge, its range, what to do; and what the gauge's own over-range would mean:
-    // head-10kT reads up to 10000 Torr, past MT-1's working limit 2700.22 Torr (4 bar x 0.9)
-    expect(read(s1, '20000').error).toMatch(
-      /^DANGER if the tank holds it: 20000\.0 Torr absolute \(as typed\) is past the working limit 2700\.22 Torr of MT-1, rated 3000 Torr: stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\. Then: typed "20000" = 20000\.0 Torr on head-10kT, past its range \(up to 10000\.0 Torr\): head-10kT cannot show that, so it is NOT logged\. Likely the unit or a typing slip \(the target is [\d.]+ Torr on head-10kT\): type the number the gauge shows, in Torr\. If head-10kT itself shows over-range, MT-1 is above 10000\.0 Torr absolute, past its working limit 2700\.22 Torr: DANGER - stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\.$/,
+    // past the gauge's range: no reading of it shows that, so it is not logged as a reading but as typed (the
+    // over-range screen asks for the tank read on a gauge that covers it, or a slip); what was typed, what it is
+    // on the gauge, its range, the likely slip; and what the gauge's own over-range would mean: head-10kT
+    // reads up to 10000 Torr, past MT-1's working limit 2700.22 Torr (4 bar x 0.9)
+    const over = read(s1, '20000');
+    expect(over.phase).toBe('over-range');
+    expect(over.done).toHaveLength(1);
+    expect(over.effects).toEqual([expect.objectContaining({ kind: 'acknowledge', code: 'over-range' })]);
+    expect(over.overRange!.words).toMatch(
+      /^DANGER if the tank holds it: 20000\.0 Torr absolute \(as typed\) is past the working limit 2700\.22 Torr of MT-1, rated 3000 Torr: stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\. Then: typed "20000" = 20000\.0 Torr on head-10kT, past its range \(up to 10000\.0 Torr\): head-10kT cannot show that, so it is NOT logged as a reading\. It is logged as typed: MT-1 counts as NOT read until it is read on a gauge that covers it, or the value is said to be a slip\. Likely the unit or a typing slip \(the target is [\d.]+ Torr on head-10kT\)\. The lab profile gives no overpressure rating for head-10kT: .* If head-10kT itself shows over-range, MT-1 is above 10000\.0 Torr absolute, past its working limit 2700\.22 Torr: DANGER - stop adding gas, close the cylinder and tank valves, keep clear of the tank and follow the lab's over-pressure procedure\.$/,
     );
+    // no gauge of the demo lab covers 20000 Torr: none is offered
+    expect(over.overRange!.covering).toEqual([]);
     // 480.81 psi (the target's number in psi) = 24865.x Torr (1 psi = 51.7149 Torr, NIST SP 811)
     const far = read(s1, '480.81 psi');
-    expect(far.error).toMatch(
-      /^DANGER .*Then: typed "480\.81 psi" = 24865\.\d Torr on head-10kT, past its range .* NOT logged/,
+    expect(far.overRange!.words).toMatch(
+      /^DANGER .*Then: typed "480\.81 psi" = 24865\.\d Torr on head-10kT, past its range .* NOT logged as a reading/,
     );
-    expect(far.error).not.toMatch(/higher range/);
-    expect(far.effects).toEqual([]);
-    // every refusal clears the field (README: a refused reading's field is cleared): past the gauge's range,
-    // past the physical range, unreadable; the next entry is read alone, never appended to the refused one
-    for (const bad of ['20000', '1e9 Torr', 'abc']) {
+    // said a slip (logged), the field is empty and the next entry is read alone
+    const slip = read(over, 'slip AB');
+    expect(slip.phase).toBe('reading');
+    expect(slip.input).toBe('');
+    expect(read(slip, '1480').error).toBeUndefined();
+    // every refusal clears the field (README: a refused reading's field is cleared): past the physical
+    // range, unreadable; the next entry is read alone, never appended to the refused one
+    for (const bad of ['1e9 Torr', 'abc']) {
       const r = read(s1, bad);
       expect(r.error).toBeDefined();
       expect(r.input).toBe('');

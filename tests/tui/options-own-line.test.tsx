@@ -42,7 +42,13 @@ describe('the choices of a screen, one row each', () => {
     // the split demo with CH4 read 40 % high: the review finds a closed-vessel peak past the limit at fill 3
     const r = read(initialState(setupFromHeader(splitHeader())), '14.0179', 2);
     expect(r.phase).toBe('review');
-    ownRows(frame80(r), ['safer INITIALS', 'accept INITIALS', 'undo INITIALS', 'fix N INITIALS']);
+    ownRows(frame80(r), [
+      'safer INITIALS',
+      'accept INITIALS',
+      'stop INITIALS',
+      'undo INITIALS',
+      'fix N INITIALS',
+    ]);
     const reminder = read(read(r, 'accept TT'), '400.00', 3);
     expect(reminder.phase).toBe('reminder');
     ownRows(frame80(reminder), ['Enter', 'Ctrl-C']);
