@@ -338,10 +338,8 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
   const P = (pa: number) => pressure(pa, meta.unit, 6);
   const d = plan.design;
   const t = plan.tank;
-  // the working limit beside the rating, as the plan says it: no reading of the sheet goes above it
-  const limit =
-    t.ratedPressurePa && t.workingFraction && t.workingFraction < 1 ? ' (never fill above it)' : '';
-  const rating = `, ${tankRating(plan, (pa, sig) => pressure(pa, meta.unit, sig))}${limit}`;
+  // the working limit beside the rating, as the plan says it
+  const rating = `, ${tankRating(plan, (pa, sig) => pressure(pa, meta.unit, sig))}`;
   return [
     ['phi', d.phi === undefined ? 'n/a' : d.phi.toFixed(4)],
     ['fuel', groupText(d.groups.fuel)],
@@ -363,18 +361,25 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
 }
 
 /**
- * the house caution of each kind of gas the fills bring (flammable, oxidizer, both), with the cylinders
- * that carry it: the words the guided fill shows on each fill's screen (gasCaution)
+ * the cylinders' check, with the house caution of each kind of gas the fills bring (flammable, oxidizer,
+ * both) and the cylinders that carry it: the guided fill's words for each fill (gasCaution), said short
  */
-function cautionChecks(plan: Plan): string[] {
+function cylinderCheck(plan: Plan): string {
   const by = new Map<string, string[]>();
   for (const s of plan.steps) {
-    const c = gasCaution(s.source.composition);
+    const c = gasCaution(s.source.composition)
+      ?.replace(/^! /, '')
+      .replace(/; lab procedure, local rules$/, '');
     if (!c) continue;
     const ids = by.get(c) ?? [];
     if (!ids.includes(s.source.id)) by.set(c, [...ids, s.source.id]);
   }
-  return [...by].map(([c, ids]) => `${c.replace(/^! /, '')} (${ids.join(', ')})`);
+  const gases = [...by].map(
+    ([c, ids]) => `${ids.join(', ')}: ${c[0].toLowerCase()}${c.slice(1).replace(/: /, ', ')}`,
+  );
+  return gases.length
+    ? `Cylinders secured; regulators and lines cleaned for their gas. ${gases.join('. ')}`
+    : 'Cylinders secured; regulators and lines cleaned for the gas they carry';
 }
 
 /** the checks before the first fill; a top-up reads, logs and confirms its starting pressure first */
@@ -391,8 +396,7 @@ function preChecks(plan: Plan, meta: SheetMeta): string[] {
       'manifold; vent and pump valves as the procedure says',
     'Before each fill: purge/evacuate the line, fill it from the cylinder above ' +
       'the tank pressure, then open the tank valve slowly',
-    'Cylinders secured; regulators and lines cleaned for the gas they carry (oxygen service for oxidizers)',
-    ...cautionChecks(plan),
+    cylinderCheck(plan),
   ];
   const start = plan.initial;
   const first = plan.steps[0];

@@ -114,7 +114,7 @@ describe.runIf(hasTmux || required)('two-stage guided fill (tmux)', () => {
       // how long after its log closed, of the least mixing time asked, confirmed by whom (check's words)
       expect(end2, end2).toMatch(/PREMIX DRAWN EARLY \(see the notes below\)/);
       expect(end2, end2).toMatch(
-        /! PREMIX DRAWN EARLY: premix in MT-2 confirmed mixed by AB at \S+ \(line \d+\) - DRAWN EARLY: \d+ s after the premix log closed, of the least 15 min asked/,
+        /! PREMIX DRAWN EARLY: premix in MT-2 confirmed mixed by AB at \S+ \(line \d+\) - DRAWN EARLY: \d+ s after the premix log closed \(\S+\), short of the least asked, 15 min of stirring/,
       );
       await t.keys('q');
       // the premix was confirmed "mixed early" (stage 2 right after stage 1): the composition is within

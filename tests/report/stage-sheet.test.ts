@@ -111,8 +111,12 @@ describe("the premix tank's reading is a row of the stage-2 Fills table", () => 
       // the table's columns line up: the check row is as wide as the fill rows (padded together)
       expect(rows[check].indexOf('head-10kT')).toBe(rows[fill3].indexOf('head-1kT'));
       const md = sheetToMarkdown(sheet);
+      // (with the shared-band column when the stage's band-edges-past-tolerance finding gives it: one more cell)
       expect(md).toMatch(
-        /\| \| \*\*Premix tank MT-2\*\* \(before fill 3\) \| head-10kT \| \*\*at least 621\.7 Torr\*\* \| planned 18\d\d\.\d \| \| \| \| \[ \] \|/,
+        /\| \| \*\*Premix tank MT-2\*\* \(before fill 3\) \| head-10kT \| \*\*at least 621\.7 Torr\*\* \| planned 18\d\d\.\d \| (\| )?\| \| \| \[ \] \|/,
+      );
+      expect(md.match(/^\| # \|.*$/m)![0].includes('shared band')).toBe(
+        sheet.findings.some((f) => f.code === 'band-edges-past-tolerance'),
       );
       const html = sheetToHtml(sheet);
       const row = /<tr class="check">(.*?)<\/tr>/.exec(html)?.[1] ?? '';

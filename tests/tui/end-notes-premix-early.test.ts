@@ -22,7 +22,7 @@ describe('the end screen of a stage-2 batch drawn early', () => {
     // the demo's times: premix log closed 2026-11-29T14:45:00Z, confirmed mixed 2026-11-30T11:04:00Z by KL,
     // 20 h 19 min = 20.3 h after, of the 55 h asked
     expect(notes[0]).toMatch(
-      /^PREMIX DRAWN EARLY: premix in MT-2 confirmed mixed by KL at 2026-11-30T11:04:00Z \(line \d+\) - DRAWN EARLY: 20\.3 h after the premix log closed, of the least 55\.0 h asked; the re-check assumes a uniform premix, which nothing shows here$/,
+      /^PREMIX DRAWN EARLY: premix in MT-2 confirmed mixed by KL at 2026-11-30T11:04:00Z \(line \d+\) - DRAWN EARLY: 20\.3 h after the premix log closed \(2026-11-29T14:45:00Z\), short of the least asked, 55\.0 h of rest; the re-check assumes a uniform premix, which nothing shows here$/,
     );
   });
 

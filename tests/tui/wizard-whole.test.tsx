@@ -1,8 +1,8 @@
 // The wizard shows its finding codes whole and checks an action the same whatever its timing. A trial
 // found codes cut at the preview box's 32 columns ("predicted-u-over-tolera...") and Enter on [start
 // guided fill] during the pause before the plan arrived handing over without the "danger findings
-// stand" message that Enter after the pause gives. The design: the wizard's defaults at 3000 Torr in MT-1
-// (over its working limit: tank-over-rating, a danger, as `mixwright plan` finds it).
+// stand" message that Enter after the pause gives. The design: the wizard's defaults at 2900 Torr in MT-1
+// (over its working limit, under its rating: tank-over-rating, a danger, as `mixwright plan` finds it).
 import { describe, expect, it } from 'vitest';
 import { render } from 'ink-testing-library';
 import { DEFAULTS, FIELDS, ACTIONS, wizardInit, wizardReducer } from '../../src/tui/wizard-state.js';
@@ -13,7 +13,7 @@ import { planFrom } from '../../src/cli/plan-from.js';
 import { untilWithin } from './until.js';
 
 const until = untilWithin(15000);
-const V = { ...DEFAULTS, id: 'wz-danger', tank: 'MT-1', pressure: '3000 Torr' };
+const V = { ...DEFAULTS, id: 'wz-danger', tank: 'MT-1', pressure: '2900 Torr' };
 const DANGER_MESSAGE = 'danger findings stand: the guided fill will ask you to acknowledge them';
 /** focus on [start guided fill] */
 const FILL = FIELDS.length + ACTIONS.indexOf('start guided fill');
@@ -30,7 +30,7 @@ describe('[start guided fill] on a design with a danger', () => {
       diluent: 'Ar',
       dilution: '0.95',
       tank: 'MT-1',
-      pressure: '3000 Torr',
+      pressure: '2900 Torr',
       temperature: '22 degC',
     }).plan;
     expect(plan.findings.filter((f) => f.severity === 'danger').map((f) => f.code)).toContain(
