@@ -39,6 +39,8 @@ export type Finding = Base &
         readonly assumed: boolean;
         /** the highest band top at the fill temperature that stays at the working limit when warm */
         readonly maxFillPa: number;
+        /** the final pressure to plan with whose band's top is maxFillPa (about: the band scales with it) */
+        readonly maxFinalPa: number;
         readonly limitPa: number;
         readonly ratedPa: number;
         readonly tank: string;
@@ -461,6 +463,8 @@ const tankPhrase = (id: string) => (id === GIVEN_VOLUME_TANK ? 'the tank of the 
 
 const pct = (x: number) => `${(x * 100).toPrecision(3)} %`;
 const kelvin = (k: number) => `${k.toFixed(0)} K (${(k - 273.15).toFixed(0)} degC)`;
+/** "296.65 K (23.5 degC)": a fill temperature as given, to 0.1 degC */
+const kelvinTenth = (k: number) => `${k.toFixed(2)} K (${(k - 273.15).toFixed(1)} degC)`;
 
 /**
  * A limit of the blend as a percentage, or "not known": with no limit data for any fuel of the
@@ -718,10 +722,11 @@ const TANK_AND_GAUGES: WordingTable<
     const rated = f.warmPa > f.ratedPa;
     const above = rated ? `its rating ${p(f.ratedPa)}` : `the allowed working pressure ${p(f.limitPa)}`;
     return (
-      `filled to ${p(f.pressurePa)} (the top of the last fill's band) at ${kelvin(f.fillK)}, the tank warms ` +
-      `to ${kelvin(f.warmK)} (${why}) and holds ${p(f.warmPa)} there, above ${above} ` +
+      `filled to ${p(f.pressurePa)} (the top of the last fill's band) at ${kelvinTenth(f.fillK)}, the tank warms ` +
+      `to ${kelvinTenth(f.warmK)} (${why}) and holds ${p(f.warmPa)} there, above ${above} ` +
       `of ${tankPhrase(f.tank)}${rated ? '' : ` (rated ${p(f.ratedPa)})`}; at this fill temperature keep the ` +
-      `band's top at or below ${p(f.maxFillPa)} (a lower final pressure), or fill at the warmer temperature`
+      `band's top at or below ${p(f.maxFillPa)} (plan a final pressure below about ${p(f.maxFinalPa)}), ` +
+      `or fill at the warmer temperature`
     );
   },
   // pressurePa is the top of the fill's band (core/plan/review.ts ratingFindings), said as such

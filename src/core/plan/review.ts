@@ -142,6 +142,8 @@ function warmFinding(basis: PlanBasis, last: PlanStep | undefined, limitPa: numb
     warmPa,
     assumed: given === undefined,
     maxFillPa,
+    // the final pressure whose band's top is there: the band scales with the reading (to first order)
+    maxFinalPa: maxFillPa * (last.targetPa / topPa),
     limitPa,
     ratedPa: tank.ratedPressurePa,
     tank: tank.id,
