@@ -428,6 +428,14 @@ export function belowBandWays(s: FillState, input: RetargetInput): BelowWays {
 }
 
 /**
+ * what a stop says when the review of the tank as it stands finds nothing: of the gas by itself, not
+ * of it leaked or vented into air (a fuel-rich tank burns there: `check` and the label mark it)
+ */
+export const NO_TANK_HAZARD_NOW =
+  'the review finds no flammable, detonable or danger state in the tank now (the gas by itself: whether ' +
+  'it burns where it leaks or is vented into air, `check` and the label say)';
+
+/**
  * what the tank holds now, as the review of the tank as it stands found it (BelowWays.tankNow), in the
  * present tense with the usual cautions; undefined when it found nothing flammable, detonable or dangerous
  */
@@ -619,7 +627,7 @@ function stopAtReview(
   const rest = s.setup.steps.slice(s.current).map((x) => x.index);
   const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
   const tankNowText = tankNowWords(belowBandWays(s, input).tankNow);
-  const tank = tankNowText ?? 'the review finds no flammable, detonable or danger state in the tank now';
+  const tank = tankNowText ?? NO_TANK_HAZARD_NOW;
   const note =
     `review of the remaining fills after the ${r.trigger}: ${what}, which the plan did not have; ` +
     `${by} stopped the batch here (${notMade})`;

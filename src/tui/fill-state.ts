@@ -63,6 +63,7 @@ import {
 import {
   belowBandWays,
   tankNowWords,
+  NO_TANK_HAZARD_NOW,
   onReviewEnter,
   remindOnlyReached,
   reviewMemoryOf,
@@ -3066,8 +3067,7 @@ function closeBelow(s: FillState, text: string, step: FillStep, lastFill: boolea
       `the batch is closed by ${close[1]} with fill ${step.index} below its target; ` +
       (tankNowText
         ? `${tankNowText}; the re-check below judges the composition`
-        : 'the review finds no flammable, detonable or danger state in the tank now; the re-check below ' +
-          'judges the tank as it is'),
+        : `${NO_TANK_HAZARD_NOW}; the re-check below judges the tank as it is`),
   };
 }
 
@@ -3130,7 +3130,7 @@ function stopBelow(s: FillState, text: string, step: FillStep, last: DoneReading
   const rest = s.setup.steps.slice(s.done.length).map((x) => x.index);
   const notMade = `fill${rest.length === 1 ? '' : 's'} ${rest.join(', ')} not made`;
   const tankNowText = tankNowWords(s.belowWays?.tankNow);
-  const tank = tankNowText ?? 'the review finds no flammable, detonable or danger state in the tank now';
+  const tank = tankNowText ?? NO_TANK_HAZARD_NOW;
   return {
     ...s,
     ...(tankNowText ? { tankNowText } : {}),
