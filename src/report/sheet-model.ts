@@ -37,7 +37,7 @@ import { TORR_PA } from '../core/index.js';
 import { predictedSheetLines } from './predicted-text.js';
 import { chargeName, chargeShort, chargeWords, isSplit, siblingWords } from './charges.js';
 import { dangerHeadline, toleranceHeadline } from './headlines.js';
-import { gasCaution } from './gas-caution.js';
+import { gasHazard } from './gas-caution.js';
 import { FLAMMABLE_IN_AIR_MARK, FLAMMABLE_MARK, NEAR_FLAMMABLE_MARK, oxidizerMark } from './tank-hazards.js';
 
 export interface SheetRow {
@@ -362,21 +362,18 @@ function designRows(plan: Plan, meta: SheetMeta): [string, string][] {
 
 /**
  * the cylinders' check, with the house caution of each kind of gas the fills bring (flammable, oxidizer,
- * both) and the cylinders that carry it: the guided fill's words for each fill (gasCaution), said short
+ * both) and the cylinders that carry it: the guided fill's words for each fill (gasHazard)
  */
 function cylinderCheck(plan: Plan): string {
   const by = new Map<string, string[]>();
   for (const s of plan.steps) {
-    const c = gasCaution(s.source.composition)
-      ?.replace(/^! /, '')
-      .replace(/; lab procedure, local rules$/, '');
-    if (!c) continue;
-    const ids = by.get(c) ?? [];
-    if (!ids.includes(s.source.id)) by.set(c, [...ids, s.source.id]);
+    const h = gasHazard(s.source.composition);
+    if (!h) continue;
+    const said = `${h.kind.toLowerCase()}, ${h.advice}`;
+    const ids = by.get(said) ?? [];
+    if (!ids.includes(s.source.id)) by.set(said, [...ids, s.source.id]);
   }
-  const gases = [...by].map(
-    ([c, ids]) => `${ids.join(', ')}: ${c[0].toLowerCase()}${c.slice(1).replace(/: /, ', ')}`,
-  );
+  const gases = [...by].map(([said, ids]) => `${ids.join(', ')}: ${said}`);
   return gases.length
     ? `Cylinders secured; regulators and lines cleaned for their gas. ${gases.join('. ')}`
     : 'Cylinders secured; regulators and lines cleaned for the gas they carry';
@@ -448,13 +445,18 @@ type BandEdges = Extract<Finding, { readonly code: 'band-edges-past-tolerance' }
 const bandEdgesOf = (plan: Plan): BandEdges | undefined =>
   plan.findings.find((f): f is BandEdges => f.code === 'band-edges-past-tolerance');
 
-/** the shared-band column under the Fills table, in words */
+/** the shared-band column under the Fills table, in words (the fills whose share no display reads: said so) */
 function sharedNote(f: BandEdges): string {
+  const finer = f.bands.filter((b) => b.finerThanDisplay).map((b) => b.step);
+  const read = finer.length
+    ? `Fill${finer.length > 1 ? 's' : ''} ${finer.join(', ')}: finer than the gauge displays, no reading from ` +
+      'this sheet can keep to it: fill with `mixwright fill`, which re-targets the later fills from each reading.'
+    : 'From this sheet, read every fill inside its shared band; or fill with `mixwright fill`, which ' +
+      're-targets the later fills from each reading.';
   return (
     `Shared band: ${Number((f.share * 100).toPrecision(2))} % of each fill's band (band-edges-past-tolerance, ` +
     'findings). A band alone assumes the fills before it read on target; readings inside every band can ' +
-    'still fail together. From this sheet, read every fill inside its shared band; or fill with ' +
-    '`mixwright fill`, which re-targets the later fills from each reading.'
+    `still fail together. ${read}`
   );
 }
 
@@ -470,9 +472,14 @@ function sharedOf(
   gu: PressureUnit,
   dec: number,
 ): Pick<SheetRow, 'shared' | 'sharedNoneInside'> {
-  const half = f?.bands.find((b) => b.step === s.index)?.halfWidthPa;
-  if (half === undefined) return {};
-  const shared = bandWords(inwardBand(reading, half, gu, dec), half, s.gauge?.resolutionPa ?? 0, gu, dec);
+  const band = f?.bands.find((b) => b.step === s.index);
+  if (!band) return {};
+  const half = band.halfWidthPa;
+  // where the finding finds the share finer than half the display step, no displayed value keeps to it
+  // (a displayed value is known to half its step): said so, never "only X reads inside it"
+  const inward = band.finerThanDisplay ? undefined : inwardBand(reading, half, gu, dec);
+  const shared = bandWords(inward, half, s.gauge?.resolutionPa ?? 0, gu, dec);
+  if (band.finerThanDisplay) return { shared: `${shared}: guided fill only` };
   const none = s.gauge ? noneInsideWords(s.gauge.id, reading, half, gu, dec, true) : undefined;
   return { shared, ...(none ? { sharedNoneInside: none } : {}) };
 }

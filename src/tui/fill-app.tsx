@@ -1835,9 +1835,6 @@ function ChargeLine({ state }: ScreenProps) {
 const hazardShort = (z: { severity: string; code: string; step: number | null }) =>
   `${z.severity.toUpperCase()} ${z.code}${z.step ? ` (fill ${z.step})` : ''}`;
 
-// the house caution of a fill's gas: one function for the fill screens and the sheet (report/gas-caution.ts)
-export { gasCaution };
-
 /**
  * the fill screen in `rows` (`fixed`: the rows of its parts that are always whole: the title, the gas,
  * the gauge, the box, the fields, the error and the keys), shortened step by step until it fits: the

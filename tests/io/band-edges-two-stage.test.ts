@@ -147,5 +147,21 @@ describe('readings at the band edges, taken together, in two stages', () => {
       /finer than the gauge displays for fill 1: fill with the guided fill/,
     );
     expect(text.stdout).toMatch(/fill 1's is finer than head-1kT displays \(step 0\.01\d* Torr\)/);
+    // the sheet says the same of its shared-band cell and note: never "only X reads inside it" there
+    const sheet = await runCli([
+      'sheet',
+      'recipes/ch4-o2-ar-phi1.yaml',
+      '--premix-tank',
+      'MT-2',
+      '--format',
+      'md',
+    ]);
+    const stage2 = sheet.stdout.slice(sheet.stdout.lastIndexOf('Stage 2 of 2'));
+    const row1 = stage2.split('\n').find((l) => /^\| 1 \| \*\*CH4\*\*/.test(l))!;
+    expect(row1).toMatch(/finer than the display step 0\.01: guided fill only/);
+    expect(row1).not.toMatch(/reads inside it/);
+    expect(stage2).toMatch(
+      /Fill 1: finer than the gauge displays, no reading from this sheet can keep to it/,
+    );
   }, 180_000);
 });

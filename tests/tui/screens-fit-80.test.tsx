@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { planFill } from '../../src/core/index.js';
 import { buildPlanRequest, readRecipe } from '../../src/io/load.js';
 import { headerFromPlan } from '../../src/io/check.js';
-import { gasCaution } from '../../src/tui/fill-app.js';
+import { gasCaution } from '../../src/report/gas-caution.js';
 import { dropLeadingSpace } from '../../src/tui/para.js';
 import {
   fillEnding,
